@@ -1,0 +1,19 @@
+"use client";
+
+import { useActionState } from "react";
+import { FormField } from "@/components/form-field";
+import { FormMessage, SubmitButton } from "@/components/form-status";
+import { idleState } from "@/lib/auth/action-state";
+import { forgotPasswordAction } from "./actions";
+
+export function ForgotForm() {
+  const [state, action] = useActionState(forgotPasswordAction, idleState);
+  if (state.status === "ok") return <FormMessage state={state} />;
+  return (
+    <form action={action} className="space-y-4">
+      <FormMessage state={state} />
+      <FormField label="E-mail" name="email" type="email" autoComplete="email" required error={state.fieldErrors?.email} />
+      <SubmitButton>Send me a link</SubmitButton>
+    </form>
+  );
+}

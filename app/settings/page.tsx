@@ -1,0 +1,65 @@
+import type { Metadata } from "next";
+import { redirect } from "next/navigation";
+import { DateTime } from "@/components/date-time";
+import { getCurrentUser } from "@/lib/auth/session";
+import { listApiTokens } from "@/lib/users/queries";
+import { CreateTokenForm, PasswordForm, ProfileForm, RevokeTokenButton } from "./settings-forms";
+
+export const metadata: Metadata = { title: "Settings" };
+
+export default async function SettingsPage() {
+  const user = await getCurrentUser();
+  if (!user) redirect("/sign-in?callbackUrl=/settings");
+  const tokens = await listApiTokens({ userId: user.id });
+  return (
+    <div className="space-y-8">
+      <header>
+        <h1 className="text-3xl font-semibold">Settings</h1>
+        <p className="text-sm text-muted">
+          Signed in as {user.email} ({user.role}).
+        </p>
+      </header>
+      <div className="grid gap-6 md:grid-cols-2">
+        <section aria-labelledby="profile-heading" className="card space-y-4">
+          <h2 id="profile-heading" className="text-xl font-semibold">Profile</h2>
+          <ProfileForm name={user.name} orcid={user.orcid} affiliation={user.affiliation} />
+        </section>
+        <section aria-labelledby="password-heading" className="card space-y-4">
+          <h2 id="password-heading" className="text-xl font-semibold">Password</h2>
+          <PasswordForm />
+        </section>
+      </div>
+      <section aria-labelledby="tokens-heading" className="card space-y-4">
+        <h2 id="tokens-heading" className="text-xl font-semibold">Personal API tokens</h2>
+        <p className="text-sm text-muted">Scripts use a token as <code>Authorization: Bearer …</code>. The secret is shown once, when you create it; we keep only a hash.</p>
+        <CreateTokenForm />
+        {tokens.length > 0 && (
+          <table className="table">
+            <thead>
+              <tr>
+                <th scope="col">Name</th>
+                <th scope="col">Starts with</th>
+                <th scope="col">Scopes</th>
+                <th scope="col">Created</th>
+                <th scope="col">Last used</th>
+                <th scope="col">State</th>
+              </tr>
+            </thead>
+            <tbody>
+              {tokens.map((t) => (
+                <tr key={t.id}>
+                  <td>{t.name}</td>
+                  <td className="font-mono text-xs">{t.prefix}…</td>
+                  <td>{t.scopes.join(", ")}</td>
+                  <td><DateTime value={t.createdAt} /></td>
+                  <td><DateTime value={t.lastUsedAt} /></td>
+                  <td>{t.revokedAt ? <span className="text-muted">revoked</span> : <RevokeTokenButton tokenId={t.id} name={t.name} />}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,78 @@
+"use client";
+
+import { useActionState } from "react";
+import { FormField } from "@/components/form-field";
+import { FormMessage, SubmitButton } from "@/components/form-status";
+import { idleState } from "@/lib/auth/action-state";
+import { changePasswordAction, createTokenAction, revokeTokenAction, updateProfileAction } from "./actions";
+
+export function ProfileForm({ name, orcid, affiliation }: { name: string; orcid: string | null; affiliation: string | null }) {
+  const [state, action] = useActionState(updateProfileAction, idleState);
+  const e = state.fieldErrors ?? {};
+  return (
+    <form action={action} className="space-y-4">
+      <FormMessage state={state} />
+      <FormField label="Name" name="name" defaultValue={name} required autoComplete="name" error={e.name} />
+      <FormField label="Affiliation" name="affiliation" defaultValue={affiliation ?? ""} error={e.affiliation} />
+      <FormField label="ORCID iD" name="orcid" defaultValue={orcid ?? ""} placeholder="0000-0000-0000-0000" hint="Optional. The check digit is verified." error={e.orcid} />
+      <SubmitButton>Save profile</SubmitButton>
+    </form>
+  );
+}
+
+export function PasswordForm() {
+  const [state, action] = useActionState(changePasswordAction, idleState);
+  const e = state.fieldErrors ?? {};
+  return (
+    <form action={action} className="space-y-4">
+      <FormMessage state={state} />
+      <FormField label="Current password" name="current" type="password" autoComplete="current-password" required error={e.current} />
+      <FormField label="New password" name="password" type="password" autoComplete="new-password" required minLength={10} error={e.password} />
+      <FormField label="New password again" name="confirm" type="password" autoComplete="new-password" required error={e.confirm} />
+      <SubmitButton>Change password</SubmitButton>
+    </form>
+  );
+}
+
+export function CreateTokenForm() {
+  const [state, action] = useActionState(createTokenAction, idleState);
+  const e = state.fieldErrors ?? {};
+  return (
+    <form action={action} className="space-y-4">
+      <FormMessage state={state} />
+      {state.data?.secret && (
+        <div className="space-y-1">
+          <label htmlFor="new-token" className="block text-sm font-medium">
+            Your new token
+          </label>
+          <input id="new-token" readOnly value={state.data.secret} className="field-input font-mono" onFocus={(ev) => ev.currentTarget.select()} />
+        </div>
+      )}
+      <FormField label="Token name" name="name" placeholder="e.g. lab upload script" required error={e.name} />
+      <fieldset className="space-y-1">
+        <legend className="text-sm font-medium">Scopes</legend>
+        <label className="flex items-center gap-2 text-sm">
+          <input type="checkbox" name="scopes" value="read" defaultChecked /> read — fetch datasets, including your drafts
+        </label>
+        <label className="flex items-center gap-2 text-sm">
+          <input type="checkbox" name="scopes" value="deposit" /> deposit — create and edit your drafts
+        </label>
+        {e.scopes && <p className="text-sm text-error">{e.scopes}</p>}
+      </fieldset>
+      <SubmitButton>Create token</SubmitButton>
+    </form>
+  );
+}
+
+export function RevokeTokenButton({ tokenId, name }: { tokenId: number; name: string }) {
+  const [state, action] = useActionState(revokeTokenAction, idleState);
+  return (
+    <form action={action}>
+      <input type="hidden" name="tokenId" value={tokenId} />
+      <SubmitButton className="btn-danger py-1">
+        Revoke<span className="sr-only"> {name}</span>
+      </SubmitButton>
+      {state.status === "error" && <p className="text-sm text-error">{state.message}</p>}
+    </form>
+  );
+}

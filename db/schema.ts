@@ -1,0 +1,6 @@
+// Every table of the application, one file per aggregate.
+export * from "./users";
+export * from "./tokens";
+export * from "./audit";
+export * from "./mail";
+export * from "./rate-limits";

@@ -1,0 +1,41 @@
+import { index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { users } from "./users";
+
+export const oneTimePurposeEnum = pgEnum("one_time_purpose", ["verify_email", "reset_password"]);
+
+/** E-mail verification and password-reset links: only a SHA-256 of the secret is stored. */
+export const oneTimeTokens = pgTable(
+  "one_time_tokens",
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    purpose: oneTimePurposeEnum().notNull(),
+    tokenHash: text().notNull(),
+    expiresAt: timestamp({ withTimezone: true }).notNull(),
+    usedAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex("one_time_tokens_hash_key").on(t.tokenHash), index("one_time_tokens_user_idx").on(t.userId)],
+);
+
+/** Personal API tokens for the REST API: hashed, named, scoped, revocable. */
+export const apiTokens = pgTable(
+  "api_tokens",
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    name: text().notNull(),
+    tokenHash: text().notNull(),
+    /** First characters of the secret, shown in lists so people can tell tokens apart. */
+    prefix: text().notNull(),
+    scopes: text().array().notNull(),
+    lastUsedAt: timestamp({ withTimezone: true }),
+    revokedAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex("api_tokens_hash_key").on(t.tokenHash), index("api_tokens_user_idx").on(t.userId)],
+);

@@ -1,0 +1,67 @@
+import "server-only";
+import type { z } from "zod";
+import { AppError } from "@/lib/errors";
+import type { UserDto } from "@/lib/users/queries";
+import { assertAllowed } from "./guard";
+import type { Permission } from "./permissions";
+import { getCurrentUser } from "./session";
+
+import type { ActionState } from "./action-state";
+
+export type { ActionState };
+
+type Body<S extends z.ZodType> = (input: z.infer<S>, user: UserDto) => Promise<ActionState | void>;
+type PublicBody<S extends z.ZodType> = (input: z.infer<S>) => Promise<ActionState | void>;
+
+function formToObject(formData: FormData): Record<string, FormDataEntryValue | FormDataEntryValue[]> {
+  const out: Record<string, FormDataEntryValue | FormDataEntryValue[]> = {};
+  for (const key of new Set(formData.keys())) {
+    if (key.startsWith("$ACTION")) continue;
+    const all = formData.getAll(key);
+    out[key] = all.length > 1 ? all : all[0];
+  }
+  return out;
+}
+
+function fieldErrors(error: z.ZodError): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const issue of error.issues) out[issue.path.join(".") || "form"] ??= issue.message;
+  return out;
+}
+
+function toState(err: unknown): ActionState {
+  if (err instanceof AppError) return { status: "error", message: err.message, fieldErrors: Object.fromEntries(err.errors.map((e) => [e.pointer.replace(/^\//, ""), e.message])) };
+  // Next's redirect()/notFound() work by throwing: let them through.
+  if (err && typeof err === "object" && "digest" in err) throw err;
+  console.error("[action] failed", err);
+  return { status: "error", message: "Something went wrong on our side; it has been logged." };
+}
+
+/** Server action for signed-in people: session → zod → permission → body → error mapping. */
+export function protectedAction<S extends z.ZodType>(schema: S, options: { permission: Permission }, body: Body<S>) {
+  return async (_prev: ActionState, formData: FormData): Promise<ActionState> => {
+    try {
+      const user = await getCurrentUser();
+      if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
+      const parsed = schema.safeParse(formToObject(formData));
+      if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error) };
+      assertAllowed(user, { permission: options.permission });
+      return (await body(parsed.data, user)) ?? { status: "ok" };
+    } catch (err) {
+      return toState(err);
+    }
+  };
+}
+
+/** Server action open to anyone (sign-up, password reset): zod → body → error mapping. */
+export function publicAction<S extends z.ZodType>(schema: S, body: PublicBody<S>) {
+  return async (_prev: ActionState, formData: FormData): Promise<ActionState> => {
+    try {
+      const parsed = schema.safeParse(formToObject(formData));
+      if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error) };
+      return (await body(parsed.data)) ?? { status: "ok" };
+    } catch (err) {
+      return toState(err);
+    }
+  };
+}

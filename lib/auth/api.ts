@@ -1,0 +1,73 @@
+import "server-only";
+import { NextResponse } from "next/server";
+import { ZodError, type z } from "zod";
+import { AppError, problemJson, type FieldError } from "@/lib/errors";
+import { getUserByApiToken, type UserDto } from "@/lib/users/queries";
+import { assertAllowed } from "./guard";
+import type { Permission } from "./permissions";
+import { getCurrentUser } from "./session";
+
+export interface ApiContext<P> {
+  req: Request;
+  user: UserDto | null;
+  params: P;
+}
+
+interface ApiOptions {
+  /** Omit for public endpoints. */
+  permission?: Permission;
+}
+
+/** zod issues → JSON-pointer field errors. */
+export function zodToFieldErrors(error: ZodError, base = ""): FieldError[] {
+  return error.issues.map((i) => ({ pointer: `${base}/${i.path.map((p) => String(p).replace(/~/g, "~0").replace(/\//g, "~1")).join("/")}`.replace(/\/$/, "") || "/", message: i.message }));
+}
+
+export function problemResponse(error: AppError, instance?: string): NextResponse {
+  const headers: Record<string, string> = { "content-type": "application/problem+json" };
+  if (error.retryAfterSeconds) headers["retry-after"] = String(error.retryAfterSeconds);
+  return new NextResponse(JSON.stringify(problemJson(error, instance)), { status: error.status, headers });
+}
+
+async function resolveUser(req: Request): Promise<UserDto | null> {
+  const auth = req.headers.get("authorization");
+  if (auth?.toLowerCase().startsWith("bearer ")) {
+    const found = await getUserByApiToken({ secret: auth.slice(7).trim() });
+    if (!found) throw new AppError("unauthenticated", "The API token is unknown or revoked");
+    return found.user;
+  }
+  return getCurrentUser();
+}
+
+/** Parses a JSON body with a zod schema; malformed JSON and schema failures become 422s with pointers. */
+export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S): Promise<z.infer<S>> {
+  let body: unknown;
+  try {
+    body = await req.json();
+  } catch {
+    throw new AppError("validation_failed", "The request body is not valid JSON", [{ pointer: "", message: "not valid JSON" }]);
+  }
+  const parsed = schema.safeParse(body);
+  if (!parsed.success) throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
+  return parsed.data;
+}
+
+/**
+ * Route handler wrapper: who is calling (session or bearer token) → permission → handler →
+ * one error shape (RFC 9457 problem+json). Internals are logged, never echoed.
+ */
+export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>) => Promise<Response>, options: ApiOptions = {}) {
+  return async (req: Request, context: { params: Promise<P> }) => {
+    const instance = new URL(req.url).pathname;
+    try {
+      const user = await resolveUser(req);
+      if (options.permission) assertAllowed(user, { permission: options.permission });
+      return await handler({ req, user, params: await context.params });
+    } catch (err) {
+      if (err instanceof AppError) return problemResponse(err, instance);
+      if (err instanceof ZodError) return problemResponse(new AppError("validation_failed", "Invalid input", zodToFieldErrors(err)), instance);
+      console.error(`[api] ${req.method} ${instance} failed`, err);
+      return problemResponse(new AppError("internal", "Something went wrong on our side; it has been logged"), instance);
+    }
+  };
+}

@@ -1,0 +1,32 @@
+import PgBoss from "pg-boss";
+import { databaseUrl } from "@/lib/config";
+
+/** Queue names used across the app. */
+export const queues = ["mail"] as const;
+export type QueueName = (typeof queues)[number];
+
+/** Default retry policy: a relay that is down delays mail, never loses it. */
+export const retryPolicy = { retryLimit: 12, retryDelay: 15, retryBackoff: true, expireInSeconds: 300 };
+
+const globalForBoss = globalThis as unknown as { arrheniaBoss?: Promise<PgBoss> };
+
+/** A started pg-boss for sending jobs from the web app (no maintenance, no schema changes). */
+export function getSender(): Promise<PgBoss> {
+  globalForBoss.arrheniaBoss ??= (async () => {
+    const boss = new PgBoss({ connectionString: databaseUrl(), supervise: false, schedule: false, migrate: false, max: 3 });
+    boss.on("error", (err) => console.error("[jobs] pg-boss error", err));
+    await boss.start();
+    return boss;
+  })();
+  return globalForBoss.arrheniaBoss;
+}
+
+/** Installs or upgrades pg-boss's own schema and creates our queues (run by the migrate script). */
+export async function installQueues(): Promise<void> {
+  const boss = new PgBoss({ connectionString: databaseUrl(), supervise: false, schedule: false, migrate: true, max: 2 });
+  await boss.start();
+  for (const name of queues) {
+    if (!(await boss.getQueue(name))) await boss.createQueue(name, { name, ...retryPolicy });
+  }
+  await boss.stop({ graceful: false, wait: true });
+}

@@ -1,0 +1,53 @@
+import { appUrl } from "@/lib/config";
+
+export interface MailMessage {
+  to: string;
+  subject: string;
+  text: string;
+  html: string;
+}
+
+function escapeHtml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+}
+
+/** Plain layout shared by every message: a greeting, paragraphs, one action link. */
+function compose(to: string, subject: string, name: string, paragraphs: string[], action?: { label: string; url: string }): MailMessage {
+  const text = [`Hello ${name},`, "", ...paragraphs.flatMap((p) => [p, ""]), ...(action ? [`${action.label}: ${action.url}`, ""] : []), "— Arrhenia"].join("\n");
+  const html = `<!doctype html><html><body style="font-family:system-ui,sans-serif;line-height:1.5;color:#1b2430">
+<p>Hello ${escapeHtml(name)},</p>
+${paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join("\n")}
+${action ? `<p><a href="${escapeHtml(action.url)}">${escapeHtml(action.label)}</a></p><p style="font-size:12px;color:#4a5563">${escapeHtml(action.url)}</p>` : ""}
+<p>— Arrhenia</p></body></html>`;
+  return { to, subject, text, html };
+}
+
+export function verificationMail(to: string, name: string, secret: string): MailMessage {
+  return compose(
+    to,
+    "Confirm your e-mail address for Arrhenia",
+    name,
+    ["Someone (we hope you) created an Arrhenia account with this address. Confirm it to start depositing datasets.", "The link works once and expires in 48 hours."],
+    { label: "Confirm my address", url: `${appUrl()}/verify?token=${encodeURIComponent(secret)}` },
+  );
+}
+
+export function passwordResetMail(to: string, name: string, secret: string): MailMessage {
+  return compose(
+    to,
+    "Choose a new Arrhenia password",
+    name,
+    ["A new password was requested for your Arrhenia account. If it was not you, ignore this message: your password stays as it is.", "The link works once and expires in one hour."],
+    { label: "Choose a new password", url: `${appUrl()}/reset-password?token=${encodeURIComponent(secret)}` },
+  );
+}
+
+export function existingAccountMail(to: string, name: string): MailMessage {
+  return compose(
+    to,
+    "You already have an Arrhenia account",
+    name,
+    ["Someone tried to create a new Arrhenia account with this address, which already has one. If it was you, sign in, or choose a new password if you have forgotten it."],
+    { label: "Forgot my password", url: `${appUrl()}/forgot-password` },
+  );
+}

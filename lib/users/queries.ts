@@ -1,0 +1,279 @@
+import "server-only";
+import { and, asc, count, desc, eq, gt, isNull, sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { apiTokens, oneTimeTokens } from "@/db/tokens";
+import { users, type Role } from "@/db/users";
+import { recordAuditEvent } from "@/lib/audit/record";
+import { generateSecret, hashSecret } from "@/lib/auth/secrets";
+import { AppError } from "@/lib/errors";
+
+/** What pages and APIs may see of a person: never the password hash. */
+export interface UserDto {
+  id: number;
+  email: string;
+  name: string;
+  affiliation: string | null;
+  orcid: string | null;
+  role: Role;
+  emailVerifiedAt: Date | null;
+  deactivatedAt: Date | null;
+  createdAt: Date;
+}
+
+const userColumns = {
+  id: users.id,
+  email: users.email,
+  name: users.name,
+  affiliation: users.affiliation,
+  orcid: users.orcid,
+  role: users.role,
+  emailVerifiedAt: users.emailVerifiedAt,
+  deactivatedAt: users.deactivatedAt,
+  createdAt: users.createdAt,
+};
+
+export function normaliseEmail(email: string): string {
+  return email.trim().toLowerCase();
+}
+
+export async function getUserById({ id }: { id: number }): Promise<UserDto | null> {
+  const [row] = await getDb().select(userColumns).from(users).where(eq(users.id, id));
+  return row ?? null;
+}
+
+export async function getUserByEmail({ email }: { email: string }): Promise<UserDto | null> {
+  const [row] = await getDb()
+    .select(userColumns)
+    .from(users)
+    .where(eq(sql`lower(${users.email})`, normaliseEmail(email)));
+  return row ?? null;
+}
+
+/** For the sign-in check and password change only; the hash never leaves lib/auth and lib/users. */
+export async function getPasswordHash({ email, id }: { email?: string; id?: number }) {
+  const where = id !== undefined ? eq(users.id, id) : eq(sql`lower(${users.email})`, normaliseEmail(email ?? ""));
+  const [row] = await getDb()
+    .select({ ...userColumns, passwordHash: users.passwordHash })
+    .from(users)
+    .where(where);
+  return row ?? null;
+}
+
+export async function createUser(input: {
+  email: string;
+  name: string;
+  passwordHash: string;
+  role?: Role;
+  affiliation?: string | null;
+  orcid?: string | null;
+  verified?: boolean;
+}): Promise<UserDto> {
+  const db = getDb();
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(users)
+      .values({
+        email: normaliseEmail(input.email),
+        name: input.name.trim(),
+        passwordHash: input.passwordHash,
+        role: input.role ?? "researcher",
+        affiliation: input.affiliation ?? null,
+        orcid: input.orcid ?? null,
+        emailVerifiedAt: input.verified ? new Date() : null,
+      })
+      .onConflictDoNothing()
+      .returning(userColumns);
+    if (!row) throw new AppError("conflict", "An account with this e-mail already exists");
+    await recordAuditEvent(tx, { actorId: row.id, action: "user.sign_up", subjectType: "user", subjectId: row.id });
+    return row;
+  });
+}
+
+export async function listUsers({ limit = 200, offset = 0 }: { limit?: number; offset?: number } = {}) {
+  return getDb().select(userColumns).from(users).orderBy(asc(users.name)).limit(limit).offset(offset);
+}
+
+export async function countUsers(): Promise<number> {
+  const [row] = await getDb().select({ n: count() }).from(users).where(isNull(users.deactivatedAt));
+  return row?.n ?? 0;
+}
+
+export async function countUsersByRole(): Promise<Record<Role, number>> {
+  const rows = await getDb()
+    .select({ role: users.role, n: count() })
+    .from(users)
+    .where(isNull(users.deactivatedAt))
+    .groupBy(users.role);
+  const out: Record<Role, number> = { researcher: 0, curator: 0, admin: 0 };
+  for (const r of rows) out[r.role] = r.n;
+  return out;
+}
+
+export async function changeUserRole({ actorId, userId, role }: { actorId: number; userId: number; role: Role }) {
+  return getDb().transaction(async (tx) => {
+    const [before] = await tx.select({ role: users.role }).from(users).where(eq(users.id, userId)).for("update");
+    if (!before) throw new AppError("not_found", "No such person");
+    if (before.role === role) return;
+    if (actorId === userId && role !== "admin") {
+      throw new AppError("conflict", "You cannot remove your own admin role; ask another admin");
+    }
+    await tx.update(users).set({ role }).where(eq(users.id, userId));
+    await recordAuditEvent(tx, {
+      actorId,
+      action: "user.role_changed",
+      subjectType: "user",
+      subjectId: userId,
+      details: { from: before.role, to: role },
+    });
+  });
+}
+
+export async function setUserActive({ actorId, userId, active }: { actorId: number; userId: number; active: boolean }) {
+  if (actorId === userId) throw new AppError("conflict", "You cannot deactivate your own account");
+  return getDb().transaction(async (tx) => {
+    const [row] = await tx
+      .update(users)
+      .set({ deactivatedAt: active ? null : new Date() })
+      .where(eq(users.id, userId))
+      .returning({ id: users.id });
+    if (!row) throw new AppError("not_found", "No such person");
+    await recordAuditEvent(tx, {
+      actorId,
+      action: active ? "user.reactivated" : "user.deactivated",
+      subjectType: "user",
+      subjectId: userId,
+    });
+    if (!active) {
+      // A deactivated account keeps no working API tokens.
+      await tx.update(apiTokens).set({ revokedAt: new Date() }).where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)));
+    }
+  });
+}
+
+export async function updateProfile({ userId, name, orcid, affiliation }: { userId: number; name: string; orcid: string | null; affiliation: string | null }) {
+  await getDb().transaction(async (tx) => {
+    await tx.update(users).set({ name, orcid, affiliation }).where(eq(users.id, userId));
+    await recordAuditEvent(tx, { actorId: userId, action: "user.profile_updated", subjectType: "user", subjectId: userId, details: { orcid } });
+  });
+}
+
+export async function setPasswordHash({ userId, passwordHash, actorId }: { userId: number; passwordHash: string; actorId: number | null }) {
+  await getDb().transaction(async (tx) => {
+    await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
+    await recordAuditEvent(tx, { actorId, action: "user.password_changed", subjectType: "user", subjectId: userId });
+  });
+}
+
+export async function markEmailVerified({ userId }: { userId: number }) {
+  await getDb().transaction(async (tx) => {
+    await tx.update(users).set({ emailVerifiedAt: new Date() }).where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
+    await recordAuditEvent(tx, { actorId: userId, action: "user.email_verified", subjectType: "user", subjectId: userId });
+  });
+}
+
+// ---- one-time tokens (e-mail verification, password reset) ----
+
+export type OneTimePurpose = "verify_email" | "reset_password";
+
+const ttlMs: Record<OneTimePurpose, number> = {
+  verify_email: 48 * 3600_000,
+  reset_password: 3600_000,
+};
+
+/** Creates a single-use link secret; only its hash is stored. */
+export async function createOneTimeToken({ userId, purpose }: { userId: number; purpose: OneTimePurpose }): Promise<string> {
+  const secret = generateSecret("", 32);
+  await getDb()
+    .insert(oneTimeTokens)
+    .values({ userId, purpose, tokenHash: hashSecret(secret), expiresAt: new Date(Date.now() + ttlMs[purpose]) });
+  return secret;
+}
+
+/** Marks the token used and returns its user, or throws when it is unknown, used or expired. */
+export async function consumeOneTimeTokenOrThrow({ secret, purpose }: { secret: string; purpose: OneTimePurpose }): Promise<number> {
+  const [row] = await getDb()
+    .update(oneTimeTokens)
+    .set({ usedAt: new Date() })
+    .where(
+      and(
+        eq(oneTimeTokens.tokenHash, hashSecret(secret)),
+        eq(oneTimeTokens.purpose, purpose),
+        isNull(oneTimeTokens.usedAt),
+        gt(oneTimeTokens.expiresAt, new Date()),
+      ),
+    )
+    .returning({ userId: oneTimeTokens.userId });
+  if (!row) {
+    throw new AppError("not_found", "This link is invalid, has expired, or was already used. Ask for a new one.");
+  }
+  return row.userId;
+}
+
+// ---- personal API tokens ----
+
+export const apiTokenScopes = ["read", "deposit"] as const;
+export type ApiTokenScope = (typeof apiTokenScopes)[number];
+
+export interface ApiTokenDto {
+  id: number;
+  name: string;
+  prefix: string;
+  scopes: string[];
+  lastUsedAt: Date | null;
+  revokedAt: Date | null;
+  createdAt: Date;
+}
+
+const tokenColumns = {
+  id: apiTokens.id,
+  name: apiTokens.name,
+  prefix: apiTokens.prefix,
+  scopes: apiTokens.scopes,
+  lastUsedAt: apiTokens.lastUsedAt,
+  revokedAt: apiTokens.revokedAt,
+  createdAt: apiTokens.createdAt,
+};
+
+/** Creates a token and returns its secret: the only time the secret is ever available. */
+export async function createApiToken({ userId, name, scopes }: { userId: number; name: string; scopes: ApiTokenScope[] }) {
+  const secret = generateSecret("arr_pat_", 32);
+  const token = await getDb().transaction(async (tx) => {
+    const [row] = await tx
+      .insert(apiTokens)
+      .values({ userId, name, scopes, tokenHash: hashSecret(secret), prefix: secret.slice(0, 12) })
+      .returning(tokenColumns);
+    await recordAuditEvent(tx, { actorId: userId, action: "api_token.created", subjectType: "api_token", subjectId: row.id, details: { name, scopes } });
+    return row;
+  });
+  return { token, secret };
+}
+
+export async function listApiTokens({ userId }: { userId: number }): Promise<ApiTokenDto[]> {
+  return getDb().select(tokenColumns).from(apiTokens).where(eq(apiTokens.userId, userId)).orderBy(desc(apiTokens.createdAt));
+}
+
+/** Revokes one of the person's own tokens; someone else's token is "not found". */
+export async function revokeApiToken({ userId, tokenId }: { userId: number; tokenId: number }) {
+  await getDb().transaction(async (tx) => {
+    const [row] = await tx
+      .update(apiTokens)
+      .set({ revokedAt: new Date() })
+      .where(and(eq(apiTokens.id, tokenId), eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)))
+      .returning({ id: apiTokens.id });
+    if (!row) throw new AppError("not_found", "No such active token");
+    await recordAuditEvent(tx, { actorId: userId, action: "api_token.revoked", subjectType: "api_token", subjectId: tokenId });
+  });
+}
+
+/** Resolves a bearer secret to its active owner and records the use. */
+export async function getUserByApiToken({ secret }: { secret: string }) {
+  const db = getDb();
+  const [row] = await db
+    .select({ tokenId: apiTokens.id, scopes: apiTokens.scopes, user: userColumns })
+    .from(apiTokens)
+    .innerJoin(users, eq(users.id, apiTokens.userId))
+    .where(and(eq(apiTokens.tokenHash, hashSecret(secret)), isNull(apiTokens.revokedAt), isNull(users.deactivatedAt)));
+  if (!row) return null;
+  await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.tokenId));
+  return { user: row.user, scopes: row.scopes as ApiTokenScope[] };
+}

@@ -1,0 +1,69 @@
+import { z } from "zod";
+import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password";
+import { normaliseOrcid } from "@/lib/auth/orcid";
+
+// Shared by forms, server actions and (later) the REST API. FormData values are strings.
+
+export const emailField = z.string().trim().toLowerCase().email("Enter an e-mail address like name@example.org").max(320);
+
+export const passwordField = z
+  .string()
+  .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters`)
+  .max(200, "Use at most 200 characters");
+
+export const orcidField = z
+  .string()
+  .trim()
+  .transform((v, ctx) => {
+    if (v === "") return null;
+    const id = normaliseOrcid(v);
+    if (!id) {
+      ctx.addIssue({ code: "custom", message: "Not a valid ORCID iD: expected 0000-0000-0000-000X with a correct check digit" });
+      return z.NEVER;
+    }
+    return id;
+  });
+
+export const signUpSchema = z
+  .object({
+    name: z.string().trim().min(1, "Enter your name").max(200),
+    email: emailField,
+    password: passwordField,
+    confirm: z.string(),
+  })
+  .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
+
+export const profileSchema = z.object({
+  name: z.string().trim().min(1, "Enter your name").max(200),
+  affiliation: z.string().trim().max(300).transform((v) => v || null),
+  orcid: orcidField,
+});
+
+export const changePasswordSchema = z
+  .object({ current: z.string().min(1, "Enter your current password"), password: passwordField, confirm: z.string() })
+  .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
+
+export const forgotPasswordSchema = z.object({ email: emailField });
+
+export const resetPasswordSchema = z
+  .object({ token: z.string().min(10), password: passwordField, confirm: z.string() })
+  .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
+
+export const createTokenSchema = z.object({
+  name: z.string().trim().min(1, "Name the token, e.g. the script that uses it").max(100),
+  scopes: z
+    .union([z.string(), z.array(z.string())])
+    .optional()
+    .transform((v) => (v === undefined ? [] : Array.isArray(v) ? v : [v]))
+    .pipe(z.array(z.enum(["read", "deposit"])).min(1, "Choose at least one scope")),
+});
+
+export const roleChangeSchema = z.object({
+  userId: z.coerce.number().int().positive(),
+  role: z.enum(["researcher", "curator", "admin"]),
+});
+
+export const activeChangeSchema = z.object({
+  userId: z.coerce.number().int().positive(),
+  active: z.enum(["true", "false"]).transform((v) => v === "true"),
+});

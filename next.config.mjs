@@ -1,0 +1,17 @@
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+const root = path.dirname(fileURLToPath(import.meta.url));
+
+/** @type {import('next').NextConfig} */
+const nextConfig = {
+  // RDKit loads a .wasm file next to its JS; bundling rewrites that path.
+  serverExternalPackages: ["@rdkit/rdkit", "pg-boss", "pg", "smtp-server", "mailparser", "nodemailer"],
+  // A lockfile in a parent folder would otherwise move Next's inferred root.
+  turbopack: { root },
+  outputFileTracingRoot: root,
+  poweredByHeader: false,
+  typedRoutes: false,
+};
+
+export default nextConfig;

@@ -1,0 +1,43 @@
+// Serves a built Arrhenia: the local mail capture (when SMTP_URL is unset), the background
+// workers, and `next start` on 127.0.0.1. Ctrl-C stops all three.
+import { spawn } from "node:child_process";
+import postgres from "postgres";
+import { captureSmtpPort, databaseUrl, usesMailCapture } from "@/lib/config";
+import { startWorkers } from "@/lib/jobs/worker";
+import { startCaptureServer } from "@/lib/mail/capture-server";
+import { DEMO_PASSWORD, demoAccounts } from "@/db/seed-data";
+
+const port = Number(process.env.PORT ?? 3000);
+const host = process.env.HOST ?? "127.0.0.1";
+const quiet = process.env.SERVE_QUIET === "1";
+
+const sql = postgres(databaseUrl(), { max: 2, onnotice: () => {} });
+const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captureSmtpPort() }) : null;
+const workers = await startWorkers();
+
+const next = spawn("node_modules/.bin/next", ["start", "-H", host, "-p", String(port)], { stdio: ["ignore", "inherit", "inherit"], env: process.env });
+
+let stopping = false;
+async function stop(code: number) {
+  if (stopping) return;
+  stopping = true;
+  next.kill("SIGTERM");
+  await Promise.allSettled([workers.stop(), capture?.close(), sql.end({ timeout: 2 })]);
+  process.exit(code);
+}
+process.on("SIGINT", () => void stop(0));
+process.on("SIGTERM", () => void stop(0));
+next.on("exit", (code) => void stop(code ?? 0));
+
+if (!quiet) {
+  const width = Math.max(...demoAccounts.map((a) => a.email.length));
+  console.log(`
+  Arrhenia is running at http://${host}:${port}
+  Mail: ${capture ? `captured locally (SMTP 127.0.0.1:${captureSmtpPort()}); admins read it at /admin/mail` : "sent through SMTP_URL"}
+
+  Demo accounts (password for all: ${DEMO_PASSWORD})
+${demoAccounts.map((a) => `    ${a.email.padEnd(width)}  ${a.role.padEnd(10)}  ${a.name}`).join("\n")}
+
+  Ctrl-C stops the web server; \`npm run db:stop\` stops PostgreSQL.
+`);
+}

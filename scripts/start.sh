@@ -1,0 +1,32 @@
+#!/usr/bin/env bash
+# npm start: everything a fresh Debian machine needs, then serve on http://127.0.0.1:$PORT.
+source "$(dirname "$0")/env.sh"
+cd "$ROOT"
+export PORT="${PORT:-3000}"
+ensure_node_modules
+
+if [ -z "${DATABASE_URL:-}" ]; then
+  ensure_postgres
+  DIR="$(pg_state_dir postgres)"
+  pg_init "$DIR"
+  pg_start "$DIR" "$PGPORT"
+  DATABASE_URL="$(pg_url "$DIR" "$PGPORT")"; export DATABASE_URL
+fi
+
+# A signing secret for sessions, made once per checkout and kept out of git.
+mkdir -p "$ROOT/.data"
+if [ -z "${NEXTAUTH_SECRET:-}" ]; then
+  [ -f "$ROOT/.data/auth-secret" ] || { head -c 32 /dev/urandom | base64 > "$ROOT/.data/auth-secret"; chmod 600 "$ROOT/.data/auth-secret"; }
+  NEXTAUTH_SECRET="$(cat "$ROOT/.data/auth-secret")"; export NEXTAUTH_SECRET
+fi
+export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$PORT}"
+
+TSX=(node_modules/.bin/tsx --conditions=react-server)
+"${TSX[@]}" scripts/migrate.ts
+"${TSX[@]}" scripts/seed.ts
+
+if [ "${SKIP_BUILD:-0}" != "1" ]; then
+  log "building (next build)"
+  node_modules/.bin/next build >"$ROOT/.data/build.log" 2>&1 || { tail -n 40 "$ROOT/.data/build.log"; die "build failed (full log: .data/build.log)"; }
+fi
+exec "${TSX[@]}" scripts/serve.ts

@@ -1,0 +1,32 @@
+import { defineConfig } from "vitest/config";
+
+// Two tiers: pure unit tests, and integration tests against the real PostgreSQL that
+// scripts/test.sh starts (DATABASE_URL points at the throwaway cluster).
+export default defineConfig({
+  resolve: { tsconfigPaths: true },
+  test: {
+    reporters: process.env.VITEST_JSON ? ["default", ["json", { outputFile: process.env.VITEST_JSON }]] : ["default"],
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: "unit",
+          include: ["tests/unit/**/*.test.ts", "lib/**/*.test.ts"],
+          environment: "node",
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: "integration",
+          include: ["tests/integration/**/*.test.ts"],
+          environment: "node",
+          setupFiles: ["tests/integration/setup.ts"],
+          fileParallelism: false,
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+    ],
+  },
+});
