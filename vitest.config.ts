@@ -1,11 +1,14 @@
+import { fileURLToPath } from "node:url";
 import { defineConfig } from "vitest/config";
 
 // Two tiers: pure unit tests, and integration tests against the real PostgreSQL that
 // scripts/test.sh starts (DATABASE_URL points at the throwaway cluster).
 export default defineConfig({
-  resolve: { tsconfigPaths: true },
+  resolve: {
+    tsconfigPaths: true,
+    alias: { "server-only": fileURLToPath(new URL("./tests/support/server-only.ts", import.meta.url)) },
+  },
   test: {
-    reporters: process.env.VITEST_JSON ? ["default", ["json", { outputFile: process.env.VITEST_JSON }]] : ["default"],
     projects: [
       {
         extends: true,

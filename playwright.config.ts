@@ -1,0 +1,40 @@
+import { defineConfig, devices } from "@playwright/test";
+
+// End-to-end tests drive Debian's Chromium (no browser download) against the production build
+// that scripts/test.sh made, served by the same script `npm start` uses.
+const port = Number(process.env.E2E_PORT ?? 3100);
+const baseURL = `http://127.0.0.1:${port}`;
+
+export default defineConfig({
+  testDir: "tests/e2e",
+  fullyParallel: false,
+  workers: 1,
+  retries: 0,
+  timeout: 60_000,
+  expect: { timeout: 10_000 },
+  use: {
+    baseURL,
+    trace: "retain-on-failure",
+    screenshot: "only-on-failure",
+    launchOptions: {
+      executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+      args: ["--no-sandbox", "--disable-gpu", "--disable-dev-shm-usage", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run", "--disable-quic"],
+    },
+  },
+  projects: [{ name: "chromium", use: { ...devices["Desktop Chrome"], channel: undefined } }],
+  webServer: {
+    command: "node_modules/.bin/tsx --conditions=react-server scripts/serve.ts",
+    url: `${baseURL}/api/health`,
+    reuseExistingServer: false,
+    timeout: 60_000,
+    stdout: "pipe",
+    stderr: "pipe",
+    env: {
+      PORT: String(port),
+      MAIL_CAPTURE_PORT: String(Number(process.env.E2E_MAIL_PORT ?? 2625)),
+      NEXTAUTH_URL: baseURL,
+      APP_URL: baseURL,
+      SERVE_QUIET: "1",
+    },
+  },
+});

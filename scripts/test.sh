@@ -1,0 +1,70 @@
+#!/usr/bin/env bash
+# npm test: the same bootstrap as npm start, into a throwaway PostgreSQL cluster (own folder and
+# port, removed afterwards), then every tier: lint, typecheck, unit, integration, end-to-end.
+# The last line totals every tier as "N passed, N failed".
+source "$(dirname "$0")/env.sh"
+cd "$ROOT"
+set +e
+ensure_node_modules || exit 1
+ensure_postgres || exit 1
+ensure_chromium || exit 1
+
+TEST_PORT="${TEST_PGPORT:-$((55000 + RANDOM % 2000))}"
+DIR="$(pg_state_dir "postgres-test-$$")"
+REPORTS="$ROOT/.data/test-reports"
+rm -rf "$REPORTS"; mkdir -p "$REPORTS"
+cleanup() { pg_stop "$DIR" 2>/dev/null; rm -rf "$DIR"; }
+trap cleanup EXIT INT TERM
+
+pg_init "$DIR" fast && pg_start "$DIR" "$TEST_PORT" || exit 1
+DATABASE_URL="$(pg_url "$DIR" "$TEST_PORT")"; export DATABASE_URL
+export NEXTAUTH_SECRET="test-secret-$(head -c 16 /dev/urandom | od -An -tx1 | tr -d ' \n')"
+export BCRYPT_ROUNDS=4 # fast hashes in the throwaway cluster only
+TSX=(node_modules/.bin/tsx --conditions=react-server)
+
+# TEST_TIERS="unit e2e" runs a subset while developing; CI always runs every tier.
+TIERS=" ${TEST_TIERS:-lint typecheck unit integration e2e} "
+want() { [[ "$TIERS" == *" $1 "* ]]; }
+passed=0; failed=0
+tier() { # tier NAME PASSED FAILED
+  printf '\033[1m%-12s %s passed, %s failed\033[0m\n' "$1" "$2" "$3" >&2
+  passed=$((passed + $2)); failed=$((failed + $3))
+}
+single() { if "$@" >&2; then echo "1 0"; else echo "0 1"; fi; }
+
+log "migrate + seed"
+if "${TSX[@]}" scripts/migrate.ts && "${TSX[@]}" scripts/seed.ts; then tier setup 1 0; else tier setup 0 1; fi
+
+want lint && { log "lint"; read -r p f < <(single node_modules/.bin/eslint --max-warnings=0 .); tier lint "$p" "$f"; }
+want typecheck && { log "typecheck"; read -r p f < <(single node_modules/.bin/tsc --noEmit); tier typecheck "$p" "$f"; }
+
+count_vitest() { node -e 'try{const r=require(process.argv[1]);console.log(r.numPassedTests,r.numFailedTests+(r.numRuntimeErrorTestSuites||0)+(r.success===false&&r.numFailedTests===0?1:0))}catch{console.log("0 1")}' "$1"; }
+
+if want unit; then
+log "unit tests"
+node_modules/.bin/vitest run --project unit --reporter=default --reporter=json --outputFile.json="$REPORTS/unit.json" >&2
+read -r p f < <(count_vitest "$REPORTS/unit.json"); tier unit "$p" "$f"
+fi
+
+if want integration; then
+log "integration tests (PostgreSQL at 127.0.0.1:$TEST_PORT)"
+node_modules/.bin/vitest run --project integration --reporter=default --reporter=json --outputFile.json="$REPORTS/integration.json" >&2
+read -r p f < <(count_vitest "$REPORTS/integration.json"); tier integration "$p" "$f"
+fi
+
+if want e2e; then
+log "production build"
+if node_modules/.bin/next build > "$REPORTS/build.log" 2>&1; then
+  tier build 1 0
+  log "end-to-end tests (Chromium)"
+  PLAYWRIGHT_JSON_OUTPUT_NAME="$REPORTS/e2e.json" node_modules/.bin/playwright test --reporter=list,json >&2
+  read -r p f < <(node -e 'try{const s=require(process.argv[1]).stats;console.log(s.expected+s.flaky,s.unexpected+(s.expected+s.unexpected+s.flaky===0?1:0))}catch{console.log("0 1")}' "$REPORTS/e2e.json")
+  tier e2e "$p" "$f"
+else
+  tail -n 40 "$REPORTS/build.log" >&2
+  tier build 0 1
+fi
+fi
+
+echo "$passed passed, $failed failed"
+[ "$failed" -eq 0 ]

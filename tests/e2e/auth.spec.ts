@@ -1,0 +1,76 @@
+import { expect, test } from "@playwright/test";
+import { DEMO_ADMIN, Header, MailInbox, SignInPage, SignUpPage } from "./pages/auth-pages";
+
+test("sign up, read the confirmation in the admin inbox, verify, sign in, sign out", async ({ page }) => {
+  const email = `e2e-${Date.now()}@test.arrhenia.invalid`;
+  const password = "a-long-e2e-password";
+  const signUp = new SignUpPage(page);
+  const signIn = new SignInPage(page);
+  const header = new Header(page);
+
+  await signUp.open();
+  await signUp.signUp("Eve Tester", email, password);
+  await expect(page.getByRole("main").getByRole("status")).toContainText(`confirmation link to ${email}`);
+
+  // Before confirming, sign-in says what to do.
+  await signIn.open();
+  await signIn.signIn(email, password);
+  await expect(page.getByRole("main").getByRole("alert")).toContainText("Confirm your e-mail address first");
+
+  // The admin reads the captured message and follows its link.
+  await signIn.signIn(DEMO_ADMIN.email, DEMO_ADMIN.password);
+  await header.expectSignedInAs("Rosalind Okafor");
+  await new MailInbox(page).openLatestTo(email, /Confirm your e-mail address/);
+  const link = page.getByRole("link", { name: /\/verify\?token=/ });
+  const href = await link.getAttribute("href");
+  expect(href).toMatch(/^http:\/\/127\.0\.0\.1:\d+\/verify\?token=/);
+  await header.signOut();
+
+  await link.page().goto(href!);
+  await page.getByRole("button", { name: "Confirm my address" }).click();
+  await expect(page.getByRole("main").getByRole("status")).toContainText("Your address is confirmed");
+
+  await signIn.signIn(email, password);
+  await header.expectSignedInAs("Eve Tester");
+  await page.goto("/settings");
+  await expect(page.getByRole("heading", { name: "Settings" })).toBeVisible();
+  await header.signOut();
+  await page.goto("/settings");
+  await expect(page).toHaveURL(/\/sign-in\?callbackUrl=(%2F|\/)settings/);
+});
+
+test("keyboard-only sign-in", async ({ page }) => {
+  await page.goto("/sign-in");
+  // The e-mail field has focus on arrival; everything else is reached with Tab.
+  await expect(page.getByLabel("E-mail")).toBeFocused();
+  await page.keyboard.type(DEMO_ADMIN.email);
+  await page.keyboard.press("Tab");
+  await expect(page.getByLabel("Password")).toBeFocused();
+  await page.keyboard.type(DEMO_ADMIN.password);
+  await page.keyboard.press("Tab");
+  await expect(page.getByRole("button", { name: "Sign in" })).toBeFocused();
+  await page.keyboard.press("Enter");
+  await new Header(page).expectSignedInAs("Rosalind Okafor");
+});
+
+test("a wrong password gets the same message as an unknown e-mail", async ({ page }) => {
+  const signIn = new SignInPage(page);
+  await signIn.open();
+  await signIn.signIn(DEMO_ADMIN.email, "not-the-password");
+  await expect(page.getByRole("main").getByRole("alert")).toHaveText("E-mail or password is not right.");
+  await signIn.signIn("nobody-here@test.arrhenia.invalid", "not-the-password");
+  await expect(page.getByRole("main").getByRole("alert")).toHaveText("E-mail or password is not right.");
+});
+
+test("researchers cannot open admin pages; the home page shows live counts", async ({ page }) => {
+  await page.goto("/");
+  // Live from the database: the two demo curators, plus any that other tests created.
+  const curators = Number(await page.getByTestId("count-curators").textContent());
+  expect(curators).toBeGreaterThanOrEqual(2);
+  await new SignInPage(page).open();
+  await new SignInPage(page).signIn("tanaka@demo.arrhenia.invalid", "arrhenia-demo");
+  await new Header(page).expectSignedInAs("Emi Tanaka");
+  await expect(page.getByRole("link", { name: "People" })).toHaveCount(0);
+  const res = await page.goto("/admin/people");
+  expect(res?.status()).toBe(404);
+});

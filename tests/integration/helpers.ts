@@ -1,0 +1,52 @@
+import { randomBytes } from "node:crypto";
+import postgres from "postgres";
+import { captureSmtpPort, databaseUrl } from "@/lib/config";
+import { startWorkers } from "@/lib/jobs/worker";
+import { startCaptureServer } from "@/lib/mail/capture-server";
+import type { UserDto } from "@/lib/users/queries";
+
+export const sql = postgres(databaseUrl(), { max: 3, onnotice: () => {} });
+
+export function uniqueEmail(tag: string): string {
+  return `${tag}-${randomBytes(5).toString("hex")}@test.arrhenia.invalid`;
+}
+
+export function uniqueIp(): string {
+  const b = randomBytes(3);
+  return `10.${b[0]}.${b[1]}.${b[2]}`;
+}
+
+/** The local SMTP capture plus the mail worker, as `npm start` runs them. */
+export async function startMailPipeline() {
+  const capture = await startCaptureServer({ sql, port: captureSmtpPort() });
+  const workers = await startWorkers();
+  return {
+    stop: async () => {
+      await workers.stop();
+      await capture.close();
+    },
+  };
+}
+
+/** Polls the captured mail until a message to `to` arrives. */
+export async function waitForMail(to: string, { timeoutMs = 20_000, subject }: { timeoutMs?: number; subject?: RegExp } = {}) {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    const rows = await sql<{ id: number; subject: string; text: string; html: string | null }[]>`
+      select id, subject, text, html from captured_mail where ${to} = any(to_addresses) order by id desc`;
+    const hit = rows.find((r) => !subject || subject.test(r.subject));
+    if (hit) return hit;
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`no mail to ${to} within ${timeoutMs} ms`);
+}
+
+export function linkToken(text: string, path: string): string {
+  const m = new RegExp(`${path}\\?token=([A-Za-z0-9_%-]+)`).exec(text);
+  if (!m) throw new Error(`no ${path} link in:\n${text}`);
+  return decodeURIComponent(m[1]);
+}
+
+export function asDto(u: Partial<UserDto> & { id: number; role: UserDto["role"] }): UserDto {
+  return { email: "x@y.invalid", name: "Test", affiliation: null, orcid: null, emailVerifiedAt: new Date(), deactivatedAt: null, createdAt: new Date(), ...u };
+}
