@@ -14,7 +14,7 @@ export async function SiteHeader() {
   }
   return (
     <header className="border-b border-line bg-panel">
-      <div className="mx-auto flex max-w-5xl flex-wrap items-center gap-x-6 gap-y-3 px-4 py-3 sm:px-6">
+      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-3 px-4 py-3 sm:px-6">
         <Link href="/" className="font-serif text-xl font-semibold text-ink no-underline hover:no-underline">
           Arrhenia
         </Link>

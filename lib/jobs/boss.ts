@@ -6,7 +6,12 @@ export const queues = ["mail"] as const;
 export type QueueName = (typeof queues)[number];
 
 /** Default retry policy: a relay that is down delays mail, never loses it. */
-export const retryPolicy = { retryLimit: 12, retryDelay: 15, retryBackoff: true, expireInSeconds: 300 };
+export const retryPolicy = {
+  retryLimit: 12,
+  retryDelay: Number(process.env.JOB_RETRY_DELAY_SECONDS ?? 15),
+  retryBackoff: true,
+  expireInSeconds: 300,
+};
 
 const globalForBoss = globalThis as unknown as { arrheniaBoss?: Promise<PgBoss> };
 

@@ -6,3 +6,4 @@ if (!process.env.DATABASE_URL) {
 process.env.MAIL_CAPTURE_PORT ??= String(26000 + Math.floor(Math.random() * 2000));
 process.env.APP_URL ??= "http://127.0.0.1:3999";
 delete process.env.SMTP_URL;
+process.env.JOB_RETRY_DELAY_SECONDS ??= "1"; // retries within seconds, not minutes, in tests

@@ -1,5 +1,4 @@
 import type { Metadata } from "next";
-import { DateTime } from "@/components/date-time";
 import { requirePagePermission } from "@/lib/auth/page-guard";
 import { listUsers } from "@/lib/users/queries";
 import { ActiveForm, RoleForm } from "./people-controls";
@@ -7,7 +6,7 @@ import { ActiveForm, RoleForm } from "./people-controls";
 export const metadata: Metadata = { title: "People" };
 
 export default async function PeoplePage() {
-  await requirePagePermission("user.list", "/admin/people");
+  const admin = await requirePagePermission("user.list", "/admin/people");
   const people = await listUsers();
   return (
     <div className="space-y-6">
@@ -34,11 +33,11 @@ export default async function PeoplePage() {
                 </td>
                 <td>{p.email}</td>
                 <td>{p.emailVerifiedAt ? "yes" : "not yet"}</td>
-                <td><DateTime value={p.createdAt} /></td>
+                <td className="whitespace-nowrap">{p.createdAt.toISOString().slice(0, 10)}</td>
                 <td><RoleForm userId={p.id} role={p.role} name={p.name} /></td>
                 <td>
                   {p.deactivatedAt && <div className="text-xs">deactivated</div>}
-                  <ActiveForm userId={p.id} active={!p.deactivatedAt} name={p.name} />
+                  {p.id === admin.id ? <span className="text-xs text-muted">you</span> : <ActiveForm userId={p.id} active={!p.deactivatedAt} name={p.name} />}
                 </td>
               </tr>
             ))}

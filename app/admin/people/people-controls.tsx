@@ -10,7 +10,7 @@ const roleOptions = ["researcher", "curator", "admin"] as const;
 export function RoleForm({ userId, role, name }: { userId: number; role: string; name: string }) {
   const [state, action] = useActionState(changeRoleAction, idleState);
   return (
-    <form action={action} className="flex flex-wrap items-center gap-2">
+    <form action={action} className="flex items-center gap-2">
       <input type="hidden" name="userId" value={userId} />
       <label htmlFor={`role-${userId}`} className="sr-only">
         Role of {name}

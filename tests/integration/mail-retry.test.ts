@@ -1,0 +1,33 @@
+import { afterAll, describe, expect, it } from "vitest";
+import { captureSmtpPort } from "@/lib/config";
+import { startWorkers } from "@/lib/jobs/worker";
+import { startCaptureServer } from "@/lib/mail/capture-server";
+import { enqueueMail } from "@/lib/mail/queue";
+import { sql, uniqueEmail, waitForMail } from "./helpers";
+
+const stops: (() => Promise<void>)[] = [];
+afterAll(async () => {
+  for (const stop of stops.reverse()) await stop();
+});
+
+describe("mail queue when the relay is down", () => {
+  it("keeps the message, retries, and delivers once the relay is back", async () => {
+    const workers = await startWorkers();
+    stops.push(workers.stop);
+    const to = uniqueEmail("patient");
+    // Nothing listens on the capture port yet: delivery fails and the job waits for a retry.
+    const jobId = await enqueueMail({ to, subject: "Held back", text: "body", html: "<p>body</p>" });
+    expect(jobId).toBeTruthy();
+    await expect
+      .poll(async () => (await sql`select state, retry_count from pgboss.job where id = ${jobId!}`)[0], { timeout: 15_000, interval: 250 })
+      .toMatchObject({ state: "retry" });
+
+    const capture = await startCaptureServer({ sql, port: captureSmtpPort() });
+    stops.push(capture.close);
+    const mail = await waitForMail(to, { timeoutMs: 30_000 });
+    expect(mail.subject).toBe("Held back");
+    const [job] = await sql`select state, retry_count from pgboss.job where id = ${jobId!}`;
+    expect(job.state).toBe("completed");
+    expect(job.retry_count).toBeGreaterThanOrEqual(1);
+  });
+});
