@@ -2,6 +2,7 @@ import "@fontsource-variable/inter";
 import "@fontsource-variable/source-serif-4";
 import "./globals.css";
 import type { Metadata } from "next";
+import { Providers } from "@/components/providers";
 import { SiteHeader } from "@/components/site-header";
 
 export const metadata: Metadata = {
@@ -18,7 +19,7 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
         </a>
         <SiteHeader />
         <main id="main" className="mx-auto w-full max-w-6xl px-4 py-8 sm:px-6">
-          {children}
+          <Providers>{children}</Providers>
         </main>
         <footer className="mx-auto max-w-6xl px-4 pb-10 pt-4 text-xs text-muted sm:px-6">
           Rate parameters are shown as deposited and re-fitted automatically. Extrapolation outside the measured range is unreliable, and safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.

@@ -6,7 +6,7 @@ import { SignOutButton } from "./sign-out-button";
 /** Product name, search, and the links the signed-in role may use. */
 export async function SiteHeader() {
   const user = await getCurrentUser();
-  const links: { href: string; label: string }[] = [];
+  const links: { href: string; label: string }[] = [{ href: "/analyse", label: "Fit data" }];
   if (user) {
     if (can(user.role, "user.manage")) links.push({ href: "/admin/people", label: "People" });
     if (can(user.role, "mail.read")) links.push({ href: "/admin/mail", label: "Mail" });

@@ -1,0 +1,589 @@
+/**
+ * One-dataset analysis: Arrhenius, modified Arrhenius and Eyring fits, influence diagnostics,
+ * curvature test, confidence band and flags. Conventions are listed in index.ts.
+ */
+import { AnalysisError } from "./analysis-error";
+import { AVOGADRO, GAS_CONSTANT, LN_BOLTZMANN_OVER_PLANCK, REFERENCE_TEMPERATURE } from "./constants";
+import { bonferroniStudentT, survivalChiSquare, survivalF, t95 } from "./distributions";
+import { computeLeverage, fitCentred, quadraticForm, type CentredFit } from "./fit-centred";
+import { assertReactionOrder, checkPoints, describe } from "./validate-points";
+import type {
+  AnalysisInput,
+  AnalysisResult,
+  ArrheniusFit,
+  ConfidenceBand,
+  CurvatureTest,
+  Diagnostics,
+  EyringFit,
+  Flag,
+  ModifiedArrheniusFit,
+  ReactionOrder,
+} from "./types";
+
+/** Significance level of the outlier (Bonferroni), curvature and reported-fit checks. */
+export const ALPHA = 0.05;
+/** p-value below which scatter exceeds the stated uncertainties. */
+export const EXCESS_SCATTER_P = 0.01;
+/** Temperature ratio Tmax/Tmin below which the range is called narrow. */
+export const NARROW_RANGE_RATIO = 1.05;
+/** Relative standard error of Ea above which Ea is poorly constrained… */
+export const NARROW_RANGE_RELATIVE_SE = 0.5;
+/** …provided that standard error also exceeds this many J mol⁻¹ (spares near-zero Ea). */
+export const NARROW_RANGE_MIN_SE = 1000;
+/** Ea below this (J mol⁻¹) raises negative_activation_energy; rounding-level values stay silent. */
+export const NEGATIVE_EA_THRESHOLD = -1;
+/** Allowance for rounding of reported parameters, in ln k (≈ 1 %). */
+export const REPORTED_FIT_TOLERANCE = Math.log(1.01);
+/** Number of temperatures in the confidence band. */
+export const BAND_POINTS = 50;
+/** Points needed for diagnostics and the curvature test. */
+export const MIN_POINTS_FOR_DIAGNOSTICS = 4;
+/**
+ * Relative size of ln k below which residuals count as rounding noise: an RSS under
+ * Σ wᵢ(1e-13·(1 + |ln kᵢ|))² is treated as that floor, so noise-free data neither divide by zero
+ * nor produce outliers or curvature from rounding.
+ */
+const NOISE_FLOOR = 1e-13;
+
+const LN_LITRE_PER_MOLECULE_CM3 = Math.log(AVOGADRO * 1e-3);
+
+// Per-point scratch arrays, reused across calls (the analysis is synchronous and never
+// re-entered; results copy what they keep). Avoids ~7 typed-array allocations per analysis.
+let workspaceSize = 0;
+let wsT = new Float64Array(0);
+let wsY = new Float64Array(0);
+let wsXE = new Float64Array(0);
+let wsLnT = new Float64Array(0);
+let wsLnTabs = new Float64Array(0);
+let wsSw = new Float64Array(0);
+let wsYe = new Float64Array(0);
+
+function ensureWorkspace(n: number): void {
+  if (n <= workspaceSize) return;
+  workspaceSize = Math.max(n, 2 * workspaceSize, 64);
+  wsT = new Float64Array(workspaceSize);
+  wsY = new Float64Array(workspaceSize);
+  wsXE = new Float64Array(workspaceSize);
+  wsLnT = new Float64Array(workspaceSize);
+  wsLnTabs = new Float64Array(workspaceSize);
+  wsSw = new Float64Array(workspaceSize);
+  wsYe = new Float64Array(workspaceSize);
+}
+
+interface Prepared {
+  n: number;
+  order: ReactionOrder;
+  T0: number;
+  T: Float64Array;
+  y: Float64Array;
+  xE: Float64Array; // −1/(RT): the coefficient on this column is Ea in J mol⁻¹
+  lnT: Float64Array; // ln(T/T0)
+  lnTabs: Float64Array; // ln(T/K)
+  sw: Float64Array | null;
+  sumLogW: number;
+  weighted: boolean;
+  someSigma: boolean;
+  distinctT: number;
+  Tmin: number;
+  Tmax: number;
+  rssFloor: number;
+}
+
+interface FitSummary {
+  dof: number;
+  s2: number | null;
+  cov: number[][] | null;
+  se: (number | null)[];
+  r2: number | null;
+  residualSD: number | null;
+  aicc: number | null;
+  chi2Reduced: number | null;
+}
+
+/**
+ * Analyse one dataset of rate constants k(T): weighted fits of ln k, diagnostics and flags.
+ * Throws {@link AnalysisError} for input that cannot be fitted.
+ *
+ * @param input points (T in K, k in canonical units of the order, optional σ(ln k)), order, T0 in K
+ * @returns fits in SI units (J mol⁻¹, J mol⁻¹ K⁻¹), diagnostics, band and flags; no NaN anywhere
+ * @example analyseDataset({ order: 2, points: [{ T: 250, k: 2.0e-15 }, { T: 298, k: 6.3e-15 }] }).arrhenius.params.Ea
+ */
+export function analyseDataset(input: AnalysisInput): AnalysisResult {
+  const d = prepareInput(input);
+  const { n, y, xE, lnT, sw } = d;
+  const colsA = [xE];
+  const arrFit = fitCentred(colsA, y, sw, n, [eyringResponse(d)]);
+  if (!arrFit) {
+    throw new AnalysisError("too_few_temperatures", "The temperatures are too close together to fit an Arrhenius expression.");
+  }
+  const arrSum = summariseFit(arrFit, d, y);
+  const tArr = arrSum.dof > 0 ? t95(arrSum.dof) : 0;
+
+  const arrhenius = buildArrhenius(arrFit, arrSum, tArr, d);
+
+  const colsM = [lnT, xE];
+  const modFit = d.distinctT >= 3 ? fitCentred(colsM, y, sw, n) : null;
+  const modSum = modFit ? summariseFit(modFit, d, y) : null;
+  const modifiedArrhenius = modFit && modSum ? buildModified(modFit, modSum, d) : null;
+
+  const eyring = buildEyring(arrFit, d);
+  const diagnostics = n >= MIN_POINTS_FOR_DIAGNOSTICS ? computeDiagnostics(arrFit, colsA, d) : null;
+
+  let curvature: CurvatureTest | null = null;
+  if (modFit && n >= MIN_POINTS_FOR_DIAGNOSTICS) {
+    const rss1 = Math.max(arrFit.rss, d.rssFloor);
+    const rss2 = Math.max(modFit.rss, d.rssFloor);
+    // Extra-sum-of-squares F test for one added coefficient (Draper & Smith 1998, §6.1).
+    const F = Math.max(0, rss1 - rss2) / (rss2 / (n - 3));
+    const deltaAICc =
+      modSum!.aicc !== null && arrSum.aicc !== null ? modSum!.aicc - arrSum.aicc : null;
+    curvature = { F, p: survivalF(F, 1, n - 3), deltaAICc, direction: modFit.beta[1] >= 0 ? "up" : "down" };
+  }
+  const curved = curvature !== null && curvature.p < ALPHA;
+  const band = curved
+    ? computeBand(modFit!, modSum!, d, "modified_arrhenius")
+    : computeBand(arrFit, arrSum, d, "arrhenius");
+
+  const flags = collectFlags(d, { arrFit, arrSum, arrhenius, modFit, modifiedArrhenius, diagnostics, curvature, band }, input);
+  return { n, weighted: d.weighted, arrhenius, modifiedArrhenius, eyring, diagnostics, curvature, band, flags };
+}
+
+function prepareInput(input: AnalysisInput): Prepared {
+  if (input === null || typeof input !== "object") {
+    throw new AnalysisError("invalid_input", "The analysis input must be an object with points and order.");
+  }
+  assertReactionOrder(input.order);
+  const { allSigma, someSigma } = checkPoints(input.points);
+  const points = input.points;
+  const n = points.length;
+  if (n < 2) {
+    throw new AnalysisError("too_few_points", `At least two points at two different temperatures are needed (got ${n}).`);
+  }
+  const T0 = input.T0 ?? REFERENCE_TEMPERATURE;
+  if (typeof T0 !== "number" || !Number.isFinite(T0) || T0 <= 0) {
+    throw new AnalysisError("invalid_reference_temperature", `T0 must be a positive temperature in kelvin (got ${describe(T0)}).`);
+  }
+  ensureWorkspace(n);
+  const T = wsT;
+  const y = wsY;
+  const xE = wsXE;
+  const lnT = wsLnT;
+  const lnTabs = wsLnTabs;
+  const lnT0 = Math.log(T0);
+  const sw = allSigma ? wsSw : null;
+  let sumLogW = 0;
+  let rssFloor = 0;
+  for (let i = 0; i < n; i++) {
+    const pt = points[i];
+    T[i] = pt.T;
+    y[i] = Math.log(pt.k);
+    xE[i] = -1 / (GAS_CONSTANT * pt.T);
+    lnTabs[i] = Math.log(pt.T);
+    lnT[i] = lnTabs[i] - lnT0;
+    let w = 1;
+    if (sw) {
+      sw[i] = 1 / (pt.sigmaLnK as number);
+      w = sw[i] * sw[i];
+      sumLogW += Math.log(w);
+    }
+    const noise = NOISE_FLOOR * (1 + Math.abs(y[i]));
+    rssFloor += w * noise * noise;
+  }
+  let Tmin = T[0];
+  let Tmax = T[0];
+  for (let i = 1; i < n; i++) {
+    if (T[i] < Tmin) Tmin = T[i];
+    if (T[i] > Tmax) Tmax = T[i];
+  }
+  if (Tmin === Tmax) {
+    throw new AnalysisError(
+      "too_few_temperatures",
+      `All ${n} points are at the same temperature (${Tmin} K); at least two different temperatures are needed to fit k(T).`,
+    );
+  }
+  const distinctT = countDistinctUpTo3(T, n, Tmin, Tmax);
+  if (input.reportedFit !== undefined && input.reportedFit !== null) checkReportedFit(input.reportedFit);
+  return {
+    n,
+    order: input.order,
+    T0,
+    T,
+    y,
+    xE,
+    lnT,
+    lnTabs,
+    sw,
+    sumLogW,
+    weighted: allSigma,
+    someSigma,
+    distinctT,
+    Tmin,
+    Tmax,
+    rssFloor,
+  };
+}
+
+/** Number of distinct temperatures, capped at 3 (all the analysis needs to know). */
+function countDistinctUpTo3(T: Float64Array, n: number, Tmin: number, Tmax: number): number {
+  for (let i = 0; i < n; i++) if (T[i] !== Tmin && T[i] !== Tmax) return 3;
+  return 2;
+}
+
+function checkReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>): void {
+  const bad = (what: string, v: unknown) =>
+    new AnalysisError("invalid_reported_fit", `The reported expression has ${what} = ${describe(v)}; ${what === "A" ? "A must be a positive finite number" : what === "T0" ? "T0 must be a positive temperature in kelvin" : `${what} must be a finite number`}.`);
+  if (typeof r.A !== "number" || !Number.isFinite(r.A) || r.A <= 0) throw bad("A", r.A);
+  if (typeof r.Ea !== "number" || !Number.isFinite(r.Ea)) throw bad("Ea", r.Ea);
+  if (r.n !== undefined && (typeof r.n !== "number" || !Number.isFinite(r.n))) throw bad("n", r.n);
+  if (r.T0 !== undefined && (typeof r.T0 !== "number" || !Number.isFinite(r.T0) || r.T0 <= 0)) throw bad("T0", r.T0);
+}
+
+function summariseFit(fit: CentredFit, d: Prepared, y: Float64Array): FitSummary {
+  const { n, p, rss, unscaledCov } = fit;
+  const dof = n - p;
+  const s2 = dof > 0 ? rss / dof : null;
+  let sumW = 0;
+  let sumWy = 0;
+  for (let i = 0; i < n; i++) {
+    const w = d.sw ? d.sw[i] * d.sw[i] : 1;
+    sumW += w;
+    sumWy += w * y[i];
+  }
+  const mean = sumWy / sumW;
+  let tss = 0;
+  for (let i = 0; i < n; i++) {
+    const w = d.sw ? d.sw[i] * d.sw[i] : 1;
+    tss += w * (y[i] - mean) ** 2;
+  }
+  const cov = s2 === null ? null : toRows(unscaledCov, p, s2);
+  const se = Array.from({ length: p }, (_, j) => (s2 === null ? null : Math.sqrt(s2 * unscaledCov[j * p + j])));
+  // Gaussian log-likelihood at the ML variance, weights as relative precisions (as statsmodels WLS.loglike).
+  const rssF = Math.max(rss, d.rssFloor);
+  const lnL = -0.5 * n * (Math.log((2 * Math.PI * rssF) / n) + 1) + 0.5 * d.sumLogW;
+  // AICc (Hurvich & Tsai 1989); k counts regression coefficients only.
+  const aicc = n - p - 1 > 0 ? -2 * lnL + 2 * p + (2 * p * (p + 1)) / (n - p - 1) : null;
+  return {
+    dof,
+    s2,
+    cov,
+    se,
+    r2: tss > 0 ? 1 - rss / tss : null,
+    residualSD: s2 === null ? null : Math.sqrt(s2),
+    aicc,
+    chi2Reduced: d.weighted && s2 !== null ? s2 : null,
+  };
+}
+
+function buildArrhenius(fit: CentredFit, s: FitSummary, t: number, d: Prepared): ArrheniusFit {
+  const [lnA, Ea] = fit.beta;
+  const x0 = [1, -1 / (GAS_CONSTANT * REFERENCE_TEMPERATURE)];
+  const lnk298 = lnA + Ea * x0[1];
+  let lower: number | null = null;
+  let upper: number | null = null;
+  if (s.s2 !== null) {
+    const half = t * Math.sqrt(s.s2 * quadraticForm(fit.unscaledCov, x0, 2));
+    lower = expOrNull(lnk298 - half);
+    upper = expOrNull(lnk298 + half);
+  }
+  const out: ArrheniusFit = {
+    params: { lnA, A: expOrNull(lnA), Ea },
+    se: { lnA: s.se[0], Ea: s.se[1] },
+    covariance: s.cov,
+    r2: s.r2,
+    residualSD: s.residualSD,
+    dof: s.dof,
+    rss: fit.rss,
+    aicc: s.aicc,
+    k298: { value: expOrNull(lnk298), lower, upper },
+  };
+  if (d.weighted) out.chi2Reduced = s.chi2Reduced;
+  return out;
+}
+
+function buildModified(fit: CentredFit, s: FitSummary, d: Prepared): ModifiedArrheniusFit {
+  const [lnA, nT, Ea] = fit.beta;
+  const out: ModifiedArrheniusFit = {
+    params: { lnA, A: expOrNull(lnA), n: nT, Ea, T0: d.T0 },
+    se: { lnA: s.se[0], n: s.se[1], Ea: s.se[2] },
+    covariance: s.cov,
+    r2: s.r2,
+    residualSD: s.residualSD,
+    dof: s.dof,
+    rss: fit.rss,
+    aicc: s.aicc,
+  };
+  if (d.weighted) out.chi2Reduced = s.chi2Reduced;
+  return out;
+}
+
+/** ln(k_c·h/(k_B·T)) per point, the response of the Eyring fit. */
+function eyringResponse(d: Prepared): Float64Array {
+  // Eyring–Evans–Polanyi: k_c = κ (k_B T/h) (c°)^(1−m) exp(ΔS‡/R) exp(−ΔH‡/RT), κ = 1, c° = 1 mol dm⁻³.
+  const shift = (d.order - 1) * LN_LITRE_PER_MOLECULE_CM3 - LN_BOLTZMANN_OVER_PLANCK;
+  const ye = wsYe;
+  for (let i = 0; i < d.n; i++) ye[i] = d.y[i] - d.lnTabs[i] + shift;
+  return ye;
+}
+
+function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
+  const { n, order } = d;
+  const { beta, rss } = arrFit.extra[0];
+  const dof = n - 2;
+  const s2 = dof > 0 ? rss / dof : null;
+  const c = arrFit.unscaledCov;
+  const convention =
+    order === 1
+      ? "κ = 1; first-order rate constant, so no standard-state term."
+      : `κ = 1; standard state c° = 1 mol dm⁻³ (k converted to ${order === 2 ? "dm³ mol⁻¹ s⁻¹" : "dm⁶ mol⁻² s⁻¹"} before fitting ln(k/T) on 1/T).`;
+  return {
+    params: { dH: beta[1], dS: GAS_CONSTANT * beta[0] },
+    se: {
+      dH: s2 === null ? null : Math.sqrt(s2 * c[3]),
+      dS: s2 === null ? null : GAS_CONSTANT * Math.sqrt(s2 * c[0]),
+    },
+    convention,
+  };
+}
+
+function computeDiagnostics(fit: CentredFit, cols: Float64Array[], d: Prepared): Diagnostics {
+  const { n, p, resid, rss } = fit;
+  const dof = n - p;
+  const h = new Array<number>(n);
+  computeLeverage(fit, cols, d.sw, h);
+  const studentized = new Array<number>(n).fill(0);
+  const external = new Array<number>(n).fill(0);
+  const cook = new Array<number>(n).fill(0);
+  // Residuals at rounding level carry no information: leave studentized residuals at 0.
+  if (rss > d.rssFloor) {
+    const s = Math.sqrt(rss / dof);
+    const floorDeleted = d.rssFloor / (dof - 1);
+    for (let i = 0; i < n; i++) {
+      const oneMinusH = 1 - h[i];
+      // hᵢ = 1: the point alone fixes a coefficient, its residual is 0 and these measures are undefined.
+      if (oneMinusH <= 1e-10) continue;
+      const e = (d.sw ? d.sw[i] : 1) * resid[i];
+      // Internally studentized residual and Cook's distance (Cook & Weisberg 1982, §2.2 and §3.2).
+      const r = e / (s * Math.sqrt(oneMinusH));
+      studentized[i] = r;
+      cook[i] = (r * r * h[i]) / (p * oneMinusH);
+      // Externally studentized: variance re-estimated without point i, RSS₍ᵢ₎ = RSS − eᵢ²/(1 − hᵢ).
+      const s2i = Math.max((rss - (e * e) / oneMinusH) / (dof - 1), floorDeleted);
+      external[i] = e / Math.sqrt(s2i * oneMinusH);
+    }
+  }
+  return { leverage: h, studentized, externallyStudentized: external, cooksDistance: cook };
+}
+
+function computeBand(
+  fit: CentredFit,
+  s: FitSummary,
+  d: Prepared,
+  model: ConfidenceBand["model"],
+): ConfidenceBand {
+  const p = fit.p;
+  // Pre-filled so V8 keeps packed double arrays instead of growing them by push.
+  const T = new Array<number>(BAND_POINTS).fill(0);
+  const lnk = new Array<number>(BAND_POINTS).fill(0);
+  const lower = s.s2 === null ? null : new Array<number>(BAND_POINTS).fill(0);
+  const upper = s.s2 === null ? null : new Array<number>(BAND_POINTS).fill(0);
+  const t = s.s2 === null ? 0 : t95(s.dof);
+  const invMin = 1 / d.Tmin;
+  const invMax = 1 / d.Tmax;
+  const x = p === 3 ? [1, 0, 0] : [1, 0];
+  const beta = fit.beta;
+  for (let i = 0; i < BAND_POINTS; i++) {
+    const Ti = i === 0 ? d.Tmin : i === BAND_POINTS - 1 ? d.Tmax : 1 / (invMin + ((invMax - invMin) * i) / (BAND_POINTS - 1));
+    T[i] = Ti;
+    if (p === 3) x[1] = Math.log(Ti / d.T0);
+    x[p - 1] = -1 / (GAS_CONSTANT * Ti);
+    const v = p === 3 ? beta[0] + beta[1] * x[1] + beta[2] * x[2] : beta[0] + beta[1] * x[1];
+    lnk[i] = v;
+    if (lower && upper) {
+      // Pointwise confidence band of the mean: ŷ ± t·s·√(xᵀ(XᵀWX)⁻¹x) (Draper & Smith 1998, §3.4).
+      const half = t * Math.sqrt((s.s2 as number) * Math.max(0, quadraticForm(fit.unscaledCov, x, p)));
+      lower[i] = v - half;
+      upper[i] = v + half;
+    }
+  }
+  return { model, T, lnk, lower, upper };
+}
+
+interface FlagContext {
+  arrFit: CentredFit;
+  arrSum: FitSummary;
+  arrhenius: ArrheniusFit;
+  modFit: CentredFit | null;
+  modifiedArrhenius: ModifiedArrheniusFit | null;
+  diagnostics: Diagnostics | null;
+  curvature: CurvatureTest | null;
+  band: ConfidenceBand;
+}
+
+function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[] {
+  const flags: Flag[] = [];
+  const { n } = d;
+  const Ea = c.arrhenius.params.Ea;
+
+  if (!d.weighted && d.someSigma) {
+    const stated = input.points.filter((pt) => pt.sigmaLnK !== undefined && pt.sigmaLnK !== null).length;
+    flags.push({
+      code: "uncertainties_ignored",
+      severity: "info",
+      message: `Only ${stated} of ${n} points state an uncertainty, so all fits are unweighted.`,
+    });
+  }
+
+  if (n < MIN_POINTS_FOR_DIAGNOSTICS || d.distinctT < 3) {
+    const skipped: string[] = [];
+    if (n < MIN_POINTS_FOR_DIAGNOSTICS) skipped.push(`outlier, influence and curvature checks need at least ${MIN_POINTS_FOR_DIAGNOSTICS} points (there are ${n})`);
+    if (d.distinctT < 3) skipped.push(`the modified Arrhenius fit needs at least 3 different temperatures (there are ${d.distinctT})`);
+    flags.push({ code: "too_few_points", severity: "info", message: `Some checks were skipped: ${skipped.join("; ")}.` });
+  }
+
+  if (c.diagnostics) {
+    const dof = c.arrSum.dof;
+    const bound = bonferroniStudentT(ALPHA, n, dof - 1);
+    const outliers: number[] = [];
+    const influential: number[] = [];
+    const cookLimit = 4 / n;
+    c.diagnostics.externallyStudentized.forEach((t, i) => {
+      if (Math.abs(t) > bound) outliers.push(i);
+    });
+    c.diagnostics.cooksDistance.forEach((D, i) => {
+      if (D > cookLimit) influential.push(i);
+    });
+    if (outliers.length > 0) {
+      flags.push({
+        code: "outlier",
+        severity: "warn",
+        message: `${listPoints(outliers)} ${outliers.length === 1 ? "lies" : "lie"} off the Arrhenius fit: externally studentized residual beyond ±${bound.toFixed(2)} (Bonferroni-corrected Student t, α = ${ALPHA}, ${dof - 1} dof).`,
+        points: outliers,
+      });
+    }
+    if (influential.length > 0) {
+      flags.push({
+        code: "influential_point",
+        severity: "info",
+        message: `${listPoints(influential)} ${influential.length === 1 ? "has" : "have"} a large influence on the Arrhenius parameters (Cook's distance above 4/n = ${cookLimit.toFixed(2)}).`,
+        points: influential,
+      });
+    }
+  }
+
+  if (c.curvature && c.curvature.p < ALPHA && c.modifiedArrhenius) {
+    const m = c.modifiedArrhenius.params;
+    const eaAt = (T: number) => (m.Ea + m.n * GAS_CONSTANT * T) / 1000;
+    const trend = c.curvature.direction === "up" ? "rises" : "falls";
+    flags.push({
+      code: "curvature",
+      severity: "warn",
+      message: `The Arrhenius plot is curved (F = ${fmt(c.curvature.F)}, p = ${fmtP(c.curvature.p)}): the apparent activation energy ${trend} with temperature, Ea(T) = Ea + nRT = ${eaAt(d.Tmin).toFixed(1)} kJ/mol at ${fmt(d.Tmin)} K and ${eaAt(d.Tmax).toFixed(1)} kJ/mol at ${fmt(d.Tmax)} K. The modified Arrhenius expression describes these data better.`,
+    });
+  }
+
+  const ratio = d.Tmax / d.Tmin;
+  const seEa = c.arrhenius.se.Ea;
+  const relSe = seEa !== null && Ea !== 0 ? seEa / Math.abs(Ea) : null;
+  const narrowT = ratio < NARROW_RANGE_RATIO;
+  const looseEa = relSe !== null && seEa !== null && relSe > NARROW_RANGE_RELATIVE_SE && seEa > NARROW_RANGE_MIN_SE;
+  if (narrowT || looseEa) {
+    const why: string[] = [];
+    if (narrowT) why.push(`the temperatures span only ${fmt(d.Tmin)}–${fmt(d.Tmax)} K (Tmax/Tmin = ${ratio.toFixed(3)}, below ${NARROW_RANGE_RATIO})`);
+    if (looseEa) why.push(`the standard error of Ea is ${Math.round(relSe! * 100)} % of its value (${(seEa! / 1000).toFixed(1)} kJ/mol)`);
+    flags.push({
+      code: "narrow_range",
+      severity: "warn",
+      message: `The activation energy is poorly constrained: ${why.join(", and ")}. Extrapolation outside the measured range is unreliable.`,
+    });
+  }
+
+  if (Ea < NEGATIVE_EA_THRESHOLD) {
+    flags.push({
+      code: "negative_activation_energy",
+      severity: "info",
+      message: `The fitted activation energy is negative (${(Ea / 1000).toFixed(2)} kJ/mol): k decreases as temperature rises. This is common for barrierless and association reactions; check that it is not a sign error.`,
+    });
+  }
+
+  if (d.weighted && c.arrSum.dof > 0) {
+    const p = survivalChiSquare(c.arrFit.rss, c.arrSum.dof);
+    if (p < EXCESS_SCATTER_P) {
+      flags.push({
+        code: "excess_scatter",
+        severity: "warn",
+        message: `The points scatter more than their stated uncertainties allow: χ²/dof = ${fmt(c.arrFit.rss / c.arrSum.dof)} on ${c.arrSum.dof} dof (p = ${fmtP(p)}). The uncertainties may be underestimated, or the Arrhenius form may not fit.`,
+      });
+    }
+  }
+
+  const reported = input.reportedFit;
+  if (reported) {
+    const flag = compareReportedFit(reported, d, c.band);
+    if (flag) flags.push(flag);
+  }
+  return flags;
+}
+
+function compareReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>, d: Prepared, band: ConfidenceBand): Flag | null {
+  const nExp = r.n ?? 0;
+  const T0 = r.T0 ?? d.T0;
+  const lnA = Math.log(r.A);
+  let worst = 0;
+  let worstT = 0;
+  let worstDiff = 0;
+  let from = Infinity;
+  let to = -Infinity;
+  for (let i = 0; i < band.T.length; i++) {
+    const T = band.T[i];
+    const lnkRep = lnA + nExp * Math.log(T / T0) - r.Ea / (GAS_CONSTANT * T);
+    const diff = lnkRep - band.lnk[i];
+    const half = band.lower ? band.lnk[i] - band.lower[i] : 0;
+    const excess = Math.abs(diff) - half - REPORTED_FIT_TOLERANCE;
+    if (excess > 0) {
+      from = Math.min(from, T);
+      to = Math.max(to, T);
+      if (excess > worst) {
+        worst = excess;
+        worstT = T;
+        worstDiff = diff;
+      }
+    }
+  }
+  if (!(worst > 0)) return null;
+  const factor = Math.exp(Math.abs(worstDiff));
+  const where = from === to ? `at ${fmt(from)} K` : `between ${fmt(from)} and ${fmt(to)} K`;
+  const bandWords = band.lower ? "outside the 95 % confidence band of the refit" : "more than 1 % away from the refit (the refit has no spare degrees of freedom)";
+  return {
+    code: "reported_fit_disagrees",
+    severity: "warn",
+    message: `The reported expression lies ${bandWords} ${where}; the largest difference is a factor of ${factor.toPrecision(3)} (${worstDiff > 0 ? "higher" : "lower"}) at ${fmt(worstT)} K.`,
+  };
+}
+
+function expOrNull(x: number): number | null {
+  const v = Math.exp(x);
+  return Number.isFinite(v) ? v : null;
+}
+
+function toRows(m: ArrayLike<number>, p: number, f: number): number[][] {
+  const rows: number[][] = [];
+  for (let i = 0; i < p; i++) {
+    const row = new Array<number>(p);
+    for (let j = 0; j < p; j++) row[j] = m[i * p + j] * f;
+    rows.push(row);
+  }
+  return rows;
+}
+
+function listPoints(idx: number[]): string {
+  const names = idx.map((i) => `${i + 1}`);
+  return names.length === 1 ? `Point ${names[0]}` : `Points ${names.slice(0, -1).join(", ")} and ${names[names.length - 1]}`;
+}
+
+function fmt(x: number): string {
+  return Math.abs(x) >= 1e5 || (Math.abs(x) < 1e-2 && x !== 0) ? x.toExponential(2) : String(Number(x.toPrecision(4)));
+}
+
+function fmtP(p: number): string {
+  return p < 1e-4 ? "< 0.0001" : p.toPrecision(2);
+}
