@@ -16,11 +16,20 @@ export interface ApiContext<P> {
 interface ApiOptions {
   /** Omit for public endpoints. */
   permission?: Permission;
+  /** Public endpoints that still want to know who calls (e.g. to show drafts to their owner). */
+  identify?: boolean;
 }
 
-/** zod issues → JSON-pointer field errors. */
+const escapePointer = (p: PropertyKey) => String(p).replace(/~/g, "~0").replace(/\//g, "~1");
+
+/** zod issues → JSON-pointer field errors (RFC 6901: the whole document is ""). */
 export function zodToFieldErrors(error: ZodError, base = ""): FieldError[] {
-  return error.issues.map((i) => ({ pointer: `${base}/${i.path.map((p) => String(p).replace(/~/g, "~0").replace(/\//g, "~1")).join("/")}`.replace(/\/$/, "") || "/", message: i.message }));
+  return error.issues.flatMap((i) => {
+    const at = base + i.path.map((p) => `/${escapePointer(p)}`).join("");
+    // An unexpected property is reported at the property itself.
+    if (i.code === "unrecognized_keys") return i.keys.map((k) => ({ pointer: `${at}/${escapePointer(k)}`, message: `unexpected property “${k}”` }));
+    return [{ pointer: at, message: i.message }];
+  });
 }
 
 export function problemResponse(error: AppError, instance?: string): NextResponse {
@@ -60,7 +69,8 @@ export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>
   return async (req: Request, context: { params: Promise<P> }) => {
     const instance = new URL(req.url).pathname;
     try {
-      const user = await resolveUser(req);
+      // Public endpoints skip the session look-up unless they ask for it.
+      const user = options.permission || options.identify ? await resolveUser(req) : null;
       if (options.permission) assertAllowed(user, { permission: options.permission });
       return await handler({ req, user, params: await context.params });
     } catch (err) {

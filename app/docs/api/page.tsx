@@ -1,0 +1,91 @@
+import type { Metadata } from "next";
+import { CAUTION, MAX_POINTS } from "@/lib/analyses/analyse-request";
+import { ANALYSIS_CONVENTIONS } from "@/lib/kinetics/conventions";
+import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
+
+export const metadata: Metadata = { title: "API" };
+
+const example = `curl -s http://127.0.0.1:3000/api/v1/analyses \\
+  -H 'content-type: application/json' \\
+  -d '{"order": 2, "units": {"k": "cm3 molecule-1 s-1", "T": "K"},
+       "points": [{"T": 250, "k": 2.1e-15}, {"T": 300, "k": 6.4e-15}, {"T": 350, "k": 1.2e-14}]}'`;
+
+/** Renders `code` spans written with backticks in the conventions. */
+function Inline({ text }: { text: string }) {
+  return (
+    <>
+      {text.split(/(`[^`]+`)/g).map((part, i) => (part.startsWith("`") ? <code key={i}>{part.slice(1, -1)}</code> : <span key={i}>{part}</span>))}
+    </>
+  );
+}
+
+export default function ApiDocsPage() {
+  return (
+    <article className="max-w-4xl space-y-8">
+      <header className="space-y-2">
+        <h1 className="text-3xl font-semibold">API</h1>
+        <p className="text-muted">
+          JSON over HTTP. Errors are <code>application/problem+json</code> (RFC 9457) with a stable <code>code</code>; validation errors carry an <code>errors</code> list of
+          JSON pointers (RFC 6901) and plain messages. Scripts authenticate with a personal token from Settings: <code>Authorization: Bearer arr_pat_…</code>.
+        </p>
+      </header>
+
+      <section className="space-y-3" aria-labelledby="analyses">
+        <h2 id="analyses" className="text-2xl font-semibold">
+          POST /api/v1/analyses
+        </h2>
+        <p>Fits posted points exactly as every deposited dataset is fitted. No sign-in; limited to 120 requests a minute per address; at most {MAX_POINTS.toLocaleString("en")} points and 12 MB per request. Nothing is stored.</p>
+        <h3 className="font-semibold">Body</h3>
+        <ul className="list-disc space-y-1 pl-6 text-sm">
+          <li>
+            <code>points</code>: list of <code>{"{ T, k, sigmaLnK? }"}</code> — temperature, rate constant, and optionally the standard uncertainty of ln k. Weights 1/σ² apply only when every
+            point has one.
+          </li>
+          <li>
+            <code>order</code>: 1, 2 or 3 (fixes the unit of k).
+          </li>
+          <li>
+            <code>T0</code>: reference temperature of the modified Arrhenius term, K (default 298.15).
+          </li>
+          <li>
+            <code>units</code>: <code>{"{ k?, T? }"}</code>; default the canonical units. k:{" "}
+            {[1, 2, 3].map((o) => SUPPORTED_UNITS.rateConstant[o as 1 | 2 | 3].map((u) => u.id).join(", ")).join("; ")}. T: {SUPPORTED_UNITS.temperature.map((u) => u.id).join(", ")}.
+          </li>
+        </ul>
+        <h3 className="font-semibold">Answer</h3>
+        <p className="text-sm">
+          200 with <code>{"{ units, analysis, caution }"}</code>: <code>analysis</code> holds <code>n</code>, <code>weighted</code>, <code>arrhenius</code>, <code>modifiedArrhenius</code>,{" "}
+          <code>eyring</code>, <code>diagnostics</code>, <code>curvature</code>, <code>band</code> (50 temperatures) and <code>flags</code>. 422 for input that cannot be fitted, 413 for an
+          oversized body, 429 when rate limited (with <code>Retry-After</code>).
+        </p>
+        <pre className="overflow-x-auto rounded-md border border-line bg-panel p-4 text-xs">{example}</pre>
+        <h3 className="font-semibold">Conventions</h3>
+        <ul className="list-disc space-y-2 pl-6 text-sm">
+          {ANALYSIS_CONVENTIONS.map((c, i) => (
+            <li key={i}>
+              <Inline text={c} />
+            </li>
+          ))}
+        </ul>
+        <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
+      </section>
+
+      <section className="space-y-3" aria-labelledby="other">
+        <h2 id="other" className="text-2xl font-semibold">
+          Other endpoints
+        </h2>
+        <ul className="list-disc space-y-1 pl-6 text-sm">
+          <li>
+            <code>GET /api/health</code> — <code>{'{"status":"ok","database":"ok"}'}</code>, or 503 when the database is unreachable.
+          </li>
+          <li>
+            <code>GET /api/v1/users</code> — everyone with an account (admins).
+          </li>
+          <li>
+            <code>PATCH /api/v1/users/:id</code> — body <code>{"{ role?, active? }"}</code>; changes a role or deactivates an account (admins; audited).
+          </li>
+        </ul>
+      </section>
+    </article>
+  );
+}
