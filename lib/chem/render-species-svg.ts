@@ -1,0 +1,51 @@
+/**
+ * 2D depiction of a species as an SVG string that can be placed directly in a page.
+ */
+import { ChemError } from "./chem-error";
+import { parseSmilesOrThrow } from "./load-rdkit";
+
+/** Size of a depiction, in CSS pixels. */
+export interface DrawingSize {
+  width?: number;
+  height?: number;
+}
+
+/** Default depiction size, px. */
+export const DEFAULT_DRAWING_SIZE = { width: 240, height: 180 } as const;
+const MIN_SIDE = 16;
+const MAX_SIDE = 2000;
+
+// Anything that could run script or pull content in when the SVG is inlined into HTML.
+const UNSAFE_SVG = /<script|<foreignObject|<iframe|\son[a-z]+\s*=|javascript:|<!ENTITY/i;
+
+function checkSide(value: number, name: "width" | "height"): number {
+  if (!Number.isInteger(value) || value < MIN_SIDE || value > MAX_SIDE) {
+    throw new ChemError("invalid_drawing_size", `The drawing ${name} must be a whole number of pixels from ${MIN_SIDE} to ${MAX_SIDE}, not ${value}.`, "size");
+  }
+  return value;
+}
+
+/**
+ * RDKit's depiction of the species in `smiles` as an inline-safe `<svg>` element (the XML
+ * declaration is dropped; the drawing holds paths only, no text or script). Size in px.
+ *
+ * @example await renderSpeciesSvg("[O][N]=O", { width: 200, height: 150 }) // "<svg version='1.1' …</svg>"
+ */
+export async function renderSpeciesSvg(smiles: string, size: DrawingSize = {}): Promise<string> {
+  const width = checkSide(size.width ?? DEFAULT_DRAWING_SIZE.width, "width");
+  const height = checkSide(size.height ?? DEFAULT_DRAWING_SIZE.height, "height");
+  const mol = await parseSmilesOrThrow(smiles);
+  try {
+    const svg = mol
+      .get_svg(width, height)
+      .replace(/^\s*<\?xml[^>]*\?>\s*/, "") // an XML declaration is invalid inside an HTML body
+      .replace(/<!--[\s\S]*?-->\s*/g, "")
+      .trim();
+    if (!svg.startsWith("<svg") || !svg.endsWith("</svg>") || UNSAFE_SVG.test(svg)) {
+      throw new ChemError("unsupported_species", `RDKit could not draw the SMILES "${smiles.trim().slice(0, 80)}".`, "smiles");
+    }
+    return svg;
+  } finally {
+    mol.delete();
+  }
+}
