@@ -4,3 +4,5 @@ export * from "./tokens";
 export * from "./audit";
 export * from "./mail";
 export * from "./rate-limits";
+export * from "./chemistry";
+export * from "./datasets";

@@ -65,7 +65,8 @@ pg_state_dir() {
 }
 
 run_pg() { # run a server program as the right user
-  if [ "$(id -u)" -eq 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi
+  # From / so the postgres user is not left in a folder it cannot enter.
+  if [ "$(id -u)" -eq 0 ]; then (cd / && runuser -u postgres -- "$@"); else "$@"; fi
 }
 
 # pg_init DIR: create a cluster (once) with a generated password for the `arrhenia` role.

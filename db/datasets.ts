@@ -1,0 +1,198 @@
+import { bigint, boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { reactions } from "./chemistry";
+import { users } from "./users";
+
+/** Lifecycle of one version: draft → submitted → in_review → changes_requested → … → published | declined; published → retracted. */
+export const versionStateEnum = pgEnum("version_state", ["draft", "submitted", "in_review", "changes_requested", "published", "declined", "retracted"]);
+export const coEditorRoleEnum = pgEnum("co_editor_role", ["owner", "editor", "viewer"]);
+export const decisionEnum = pgEnum("decision", ["accept", "request_changes", "decline"]);
+
+/** One deposited body of data, all its versions together. */
+export const datasets = pgTable(
+  "datasets",
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    ownerId: integer()
+      .notNull()
+      .references(() => users.id),
+    reactionId: integer().references(() => reactions.id),
+    /** DOI-style identifier of all versions; minted with the first publication. */
+    seriesIdentifier: text(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp({ withTimezone: true })
+      .notNull()
+      .defaultNow()
+      .$onUpdate(() => new Date()),
+  },
+  (t) => [index("datasets_owner_idx").on(t.ownerId), index("datasets_reaction_idx").on(t.reactionId), uniqueIndex("datasets_series_identifier_key").on(t.seriesIdentifier)],
+);
+
+/** People working together on a dataset, with their role on it. */
+export const datasetMembers = pgTable(
+  "dataset_members",
+  {
+    datasetId: integer()
+      .notNull()
+      .references(() => datasets.id, { onDelete: "cascade" }),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    role: coEditorRoleEnum().notNull(),
+    addedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.datasetId, t.userId] }), index("dataset_members_user_idx").on(t.userId)],
+);
+
+/** Invitations to co-edit, sent by e-mail; the link's secret is stored hashed. */
+export const datasetInvitations = pgTable(
+  "dataset_invitations",
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    datasetId: integer()
+      .notNull()
+      .references(() => datasets.id, { onDelete: "cascade" }),
+    email: text().notNull(),
+    role: coEditorRoleEnum().notNull(),
+    tokenHash: text().notNull(),
+    invitedBy: integer()
+      .notNull()
+      .references(() => users.id),
+    expiresAt: timestamp({ withTimezone: true }).notNull(),
+    acceptedAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex("dataset_invitations_hash_key").on(t.tokenHash)],
+);
+
+/**
+ * One state of a dataset. Drafts change (guarded by `lockVersion` for optimistic locking); from
+ * publication on, a trigger refuses every change except retraction.
+ */
+export const datasetVersions = pgTable(
+  "dataset_versions",
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    datasetId: integer()
+      .notNull()
+      .references(() => datasets.id, { onDelete: "cascade" }),
+    number: integer().notNull(),
+    state: versionStateEnum().notNull().default("draft"),
+    title: text().notNull(),
+    /** The deposit document (schemas/deposit.v1.schema.json) as last saved. */
+    payload: jsonb().$type<Record<string, unknown>>().notNull(),
+    lockVersion: integer().notNull().default(1),
+    /** SHA-256 of the canonical payload, fixed at publication. */
+    payloadSha256: text(),
+    versionIdentifier: text(),
+    /** Highest severity among the stored checks: none, info, warn, error. */
+    worstFlag: text(),
+    flagCodes: text().array(),
+    tMin: doublePrecision(),
+    tMax: doublePrecision(),
+    pointCount: integer().notNull().default(0),
+    createdBy: integer().references(() => users.id),
+    submittedAt: timestamp({ withTimezone: true }),
+    publishedAt: timestamp({ withTimezone: true }),
+    retractedAt: timestamp({ withTimezone: true }),
+    retractionNotice: text(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex("dataset_versions_number_key").on(t.datasetId, t.number),
+    uniqueIndex("dataset_versions_identifier_key").on(t.versionIdentifier),
+    index("dataset_versions_state_idx").on(t.state),
+  ],
+);
+
+/** The normalised points of a version, in canonical units, with what was deposited. */
+export const versionPoints = pgTable(
+  "version_points",
+  {
+    versionId: integer()
+      .notNull()
+      .references(() => datasetVersions.id, { onDelete: "cascade" }),
+    idx: integer().notNull(),
+    temperatureK: doublePrecision().notNull(),
+    rateConstant: doublePrecision().notNull(),
+    sigmaLnK: doublePrecision(),
+    pressurePa: doublePrecision(),
+    bathGas: text(),
+    note: text(),
+    original: jsonb().$type<Record<string, unknown>>().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.versionId, t.idx] })],
+);
+
+/** Fits and flags of one version by one engine version (re-fits add rows; the newest wins). */
+export const versionAnalyses = pgTable(
+  "version_analyses",
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    versionId: integer()
+      .notNull()
+      .references(() => datasetVersions.id, { onDelete: "cascade" }),
+    engineVersion: text().notNull(),
+    result: jsonb().$type<Record<string, unknown>>(),
+    /** Checks outside the kinetics engine: schema, balance, units sanity, duplicates. */
+    checks: jsonb().$type<{ code: string; severity: string; message: string }[]>().notNull().default([]),
+    error: text(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("version_analyses_version_idx").on(t.versionId, t.createdAt)],
+);
+
+/** A curator's decision on a submitted version, with its reason. */
+export const decisions = pgTable(
+  "decisions",
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    versionId: integer()
+      .notNull()
+      .references(() => datasetVersions.id, { onDelete: "cascade" }),
+    curatorId: integer()
+      .notNull()
+      .references(() => users.id),
+    decision: decisionEnum().notNull(),
+    reason: text().notNull(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("decisions_version_idx").on(t.versionId)],
+);
+
+/** Supplementary files of a version; content lives in the storage backend under `storageKey`. */
+export const versionFiles = pgTable(
+  "version_files",
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    versionId: integer()
+      .notNull()
+      .references(() => datasetVersions.id, { onDelete: "cascade" }),
+    filename: text().notNull(),
+    contentType: text().notNull(),
+    sizeBytes: bigint({ mode: "number" }).notNull(),
+    sha256: text().notNull(),
+    storageKey: text().notNull(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("version_files_version_idx").on(t.versionId)],
+);
+
+/** Registration of identifiers with the DOI agency; one row per identifier, so retries never mint twice. */
+export const identifierRegistrations = pgTable(
+  "identifier_registrations",
+  {
+    identifier: text().primaryKey(),
+    kind: text().notNull(), // "version" | "series"
+    versionId: integer().references(() => datasetVersions.id),
+    datasetId: integer()
+      .notNull()
+      .references(() => datasets.id),
+    registered: boolean().notNull().default(false),
+    attempts: integer().notNull().default(0),
+    lastError: text(),
+    registeredAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("identifier_registrations_pending_idx").on(t.registered)],
+);

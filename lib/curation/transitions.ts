@@ -1,0 +1,85 @@
+import "server-only";
+import { createHash } from "node:crypto";
+import canonicalize from "canonicalize";
+import { and, eq, isNull } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { datasetMembers, datasets, datasetVersions, decisions, identifierRegistrations } from "@/db/datasets";
+import { users, type Role } from "@/db/users";
+import { recordAuditEvent } from "@/lib/audit/record";
+import { AppError } from "@/lib/errors";
+import { seriesIdentifier, versionIdentifier } from "@/lib/identifiers/mint";
+import { planTransition, type CoEditorRole, type Transition, type VersionState } from "./lifecycle";
+
+/** SHA-256 of the payload in RFC 8785 canonical JSON: the same document always gives the same hash. */
+export function payloadSha256(payload: unknown): string {
+  return createHash("sha256").update(canonicalize(payload) ?? "null", "utf8").digest("hex");
+}
+
+export interface TransitionOutcome {
+  versionId: number;
+  datasetId: number;
+  from: VersionState;
+  to: VersionState;
+  /** Minted on acceptance. */
+  identifiers?: { version: string; series: string };
+}
+
+/**
+ * Applies one lifecycle transition in one transaction: locks the version, re-reads the actor's
+ * site role and dataset role from the database, checks the rule, changes the state, records the
+ * decision (for curator decisions) and an audit event. Acceptance freezes the version: payload
+ * hash, identifiers, publication time — after which the database refuses any change.
+ */
+export async function applyTransition({ versionId, actorId, transition, reason }: { versionId: number; actorId: number; transition: Transition; reason?: string }): Promise<TransitionOutcome> {
+  return getDb().transaction(async (tx) => {
+    const [version] = await tx
+      .select({ id: datasetVersions.id, datasetId: datasetVersions.datasetId, number: datasetVersions.number, state: datasetVersions.state, payload: datasetVersions.payload })
+      .from(datasetVersions)
+      .where(eq(datasetVersions.id, versionId))
+      .for("update");
+    if (!version) throw new AppError("not_found", "No such dataset version");
+    const [actor] = await tx.select({ role: users.role, deactivatedAt: users.deactivatedAt }).from(users).where(eq(users.id, actorId));
+    if (!actor || actor.deactivatedAt) throw new AppError("unauthenticated", "Sign in to do this");
+    const [membership] = await tx.select({ role: datasetMembers.role }).from(datasetMembers).where(and(eq(datasetMembers.datasetId, version.datasetId), eq(datasetMembers.userId, actorId)));
+    const datasetRole: CoEditorRole | null = membership?.role ?? null;
+    const to = planTransition(version.state, transition, { role: actor.role as Role, datasetRole }, reason);
+    const now = new Date();
+    const outcome: TransitionOutcome = { versionId, datasetId: version.datasetId, from: version.state, to };
+
+    if (transition === "accept") {
+      const ids = { version: versionIdentifier(version.datasetId, version.number), series: seriesIdentifier(version.datasetId) };
+      outcome.identifiers = ids;
+      await tx
+        .update(datasetVersions)
+        .set({ state: to, publishedAt: now, updatedAt: now, payloadSha256: payloadSha256(version.payload), versionIdentifier: ids.version })
+        .where(eq(datasetVersions.id, versionId));
+      await tx.update(datasets).set({ seriesIdentifier: ids.series }).where(and(eq(datasets.id, version.datasetId), isNull(datasets.seriesIdentifier)));
+      // One registration row per identifier: re-running registration never mints twice.
+      await tx
+        .insert(identifierRegistrations)
+        .values([
+          { identifier: ids.version, kind: "version", versionId, datasetId: version.datasetId },
+          { identifier: ids.series, kind: "series", datasetId: version.datasetId },
+        ])
+        .onConflictDoNothing();
+    } else if (transition === "retract") {
+      await tx.update(datasetVersions).set({ state: to, retractedAt: now, retractionNotice: reason!.trim(), updatedAt: now }).where(eq(datasetVersions.id, versionId));
+    } else {
+      await tx
+        .update(datasetVersions)
+        .set({ state: to, updatedAt: now, ...(transition === "submit" ? { submittedAt: now } : {}) })
+        .where(eq(datasetVersions.id, versionId));
+    }
+    if (transition === "accept" || transition === "request_changes" || transition === "decline") {
+      await tx.insert(decisions).values({ versionId, curatorId: actorId, decision: transition, reason: reason!.trim() });
+    }
+    await recordAuditEvent(tx, {
+      actorId,
+      action: `dataset.${transition}`,
+      subjectType: "dataset_version",
+      subjectId: versionId,
+      details: { from: version.state, to, ...(reason ? { reason: reason.trim() } : {}), ...(outcome.identifiers ? { identifiers: outcome.identifiers } : {}) },
+    });
+    return outcome;
+  });
+}

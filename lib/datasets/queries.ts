@@ -1,0 +1,207 @@
+import "server-only";
+import { and, desc, eq, inArray } from "drizzle-orm";
+import { getDb, type Transaction } from "@/db/client";
+import { datasetMembers, datasets, datasetVersions, decisions, versionAnalyses, versionPoints } from "@/db/datasets";
+import { users } from "@/db/users";
+import { recordAuditEvent } from "@/lib/audit/record";
+import type { CoEditorRole, VersionState } from "@/lib/curation/lifecycle";
+import { AppError } from "@/lib/errors";
+
+/** A canonical point ready to store. */
+export interface StoredPoint {
+  T: number;
+  k: number;
+  sigmaLnK?: number;
+  pressurePa?: number;
+  bathGas?: string;
+  note?: string;
+  original: Record<string, unknown>;
+}
+
+/** What the draft's checks found, summarised for lists and the review queue. */
+export interface AnalysisSummary {
+  engineVersion: string;
+  result: Record<string, unknown> | null;
+  checks: { code: string; severity: string; message: string }[];
+  error?: string | null;
+}
+
+export interface VersionDto {
+  id: number;
+  datasetId: number;
+  number: number;
+  state: VersionState;
+  title: string;
+  payload: Record<string, unknown>;
+  lockVersion: number;
+  versionIdentifier: string | null;
+  payloadSha256: string | null;
+  worstFlag: string | null;
+  pointCount: number;
+  tMin: number | null;
+  tMax: number | null;
+  submittedAt: Date | null;
+  publishedAt: Date | null;
+  retractedAt: Date | null;
+  retractionNotice: string | null;
+  updatedAt: Date;
+}
+
+const versionColumns = {
+  id: datasetVersions.id,
+  datasetId: datasetVersions.datasetId,
+  number: datasetVersions.number,
+  state: datasetVersions.state,
+  title: datasetVersions.title,
+  payload: datasetVersions.payload,
+  lockVersion: datasetVersions.lockVersion,
+  versionIdentifier: datasetVersions.versionIdentifier,
+  payloadSha256: datasetVersions.payloadSha256,
+  worstFlag: datasetVersions.worstFlag,
+  pointCount: datasetVersions.pointCount,
+  tMin: datasetVersions.tMin,
+  tMax: datasetVersions.tMax,
+  submittedAt: datasetVersions.submittedAt,
+  publishedAt: datasetVersions.publishedAt,
+  retractedAt: datasetVersions.retractedAt,
+  retractionNotice: datasetVersions.retractionNotice,
+  updatedAt: datasetVersions.updatedAt,
+};
+
+const severityRank: Record<string, number> = { info: 1, warn: 2, error: 3 };
+
+function summarise(points: StoredPoint[], analysis: AnalysisSummary) {
+  const flags = [...analysis.checks, ...(((analysis.result?.flags as { code: string; severity: string }[] | undefined) ?? []))];
+  const worst = flags.reduce((w, f) => ((severityRank[f.severity] ?? 0) > (severityRank[w] ?? 0) ? f.severity : w), "none");
+  const Ts = points.map((p) => p.T);
+  return {
+    worstFlag: worst,
+    flagCodes: [...new Set(flags.map((f) => f.code))],
+    pointCount: points.length,
+    tMin: Ts.length ? Math.min(...Ts) : null,
+    tMax: Ts.length ? Math.max(...Ts) : null,
+  };
+}
+
+async function writePointsAndAnalysis(tx: Transaction, versionId: number, points: StoredPoint[], analysis: AnalysisSummary) {
+  await tx.delete(versionPoints).where(eq(versionPoints.versionId, versionId));
+  // Chunked so 100 000 rows stay under PostgreSQL's parameter limit.
+  for (let i = 0; i < points.length; i += 5000) {
+    await tx.insert(versionPoints).values(
+      points.slice(i, i + 5000).map((p, j) => ({
+        versionId,
+        idx: i + j,
+        temperatureK: p.T,
+        rateConstant: p.k,
+        sigmaLnK: p.sigmaLnK ?? null,
+        pressurePa: p.pressurePa ?? null,
+        bathGas: p.bathGas ?? null,
+        note: p.note ?? null,
+        original: p.original,
+      })),
+    );
+  }
+  await tx.delete(versionAnalyses).where(eq(versionAnalyses.versionId, versionId));
+  await tx.insert(versionAnalyses).values({ versionId, engineVersion: analysis.engineVersion, result: analysis.result, checks: analysis.checks, error: analysis.error ?? null });
+}
+
+/** Creates a dataset with its owner and a first draft version, all or nothing. */
+export async function createDatasetDraft(input: { ownerId: number; title: string; payload: Record<string, unknown>; points: StoredPoint[]; analysis: AnalysisSummary }) {
+  return getDb().transaction(async (tx) => {
+    const [dataset] = await tx.insert(datasets).values({ ownerId: input.ownerId }).returning({ id: datasets.id });
+    await tx.insert(datasetMembers).values({ datasetId: dataset.id, userId: input.ownerId, role: "owner" });
+    const [version] = await tx
+      .insert(datasetVersions)
+      .values({ datasetId: dataset.id, number: 1, title: input.title, payload: input.payload, createdBy: input.ownerId, ...summarise(input.points, input.analysis) })
+      .returning(versionColumns);
+    await writePointsAndAnalysis(tx, version.id, input.points, input.analysis);
+    await recordAuditEvent(tx, { actorId: input.ownerId, action: "dataset.created", subjectType: "dataset_version", subjectId: version.id, details: { datasetId: dataset.id } });
+    return version;
+  });
+}
+
+/**
+ * Saves a draft if nobody saved it since `expectedLockVersion` (optimistic locking). A stale save
+ * changes nothing and answers 409, so a co-editor's work is never overwritten.
+ */
+export async function saveDraft(input: { versionId: number; actorId: number; expectedLockVersion: number; title: string; payload: Record<string, unknown>; points: StoredPoint[]; analysis: AnalysisSummary }) {
+  return getDb().transaction(async (tx) => {
+    const [row] = await tx
+      .update(datasetVersions)
+      .set({
+        title: input.title,
+        payload: input.payload,
+        lockVersion: input.expectedLockVersion + 1,
+        updatedAt: new Date(),
+        ...summarise(input.points, input.analysis),
+      })
+      .where(and(eq(datasetVersions.id, input.versionId), eq(datasetVersions.lockVersion, input.expectedLockVersion), inArray(datasetVersions.state, ["draft", "changes_requested"])))
+      .returning(versionColumns);
+    if (!row) {
+      const [current] = await tx.select({ state: datasetVersions.state, lockVersion: datasetVersions.lockVersion }).from(datasetVersions).where(eq(datasetVersions.id, input.versionId));
+      if (!current) throw new AppError("not_found", "No such dataset version");
+      if (current.state !== "draft" && current.state !== "changes_requested") throw new AppError("conflict", `This version is ${current.state.replace("_", " ")} and can no longer be edited`);
+      throw new AppError("conflict", "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.");
+    }
+    await writePointsAndAnalysis(tx, row.id, input.points, input.analysis);
+    await recordAuditEvent(tx, { actorId: input.actorId, action: "dataset.draft_saved", subjectType: "dataset_version", subjectId: row.id, details: { lockVersion: row.lockVersion } });
+    return row;
+  });
+}
+
+/** A version with the caller's role on its dataset (null when they have none). */
+export async function getVersionWithRole({ versionId, userId }: { versionId: number; userId: number | null }) {
+  const db = getDb();
+  const [version] = await db.select({ ...versionColumns, ownerId: datasets.ownerId }).from(datasetVersions).innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId)).where(eq(datasetVersions.id, versionId));
+  if (!version) return null;
+  let datasetRole: CoEditorRole | null = null;
+  if (userId !== null) {
+    const [m] = await db.select({ role: datasetMembers.role }).from(datasetMembers).where(and(eq(datasetMembers.datasetId, version.datasetId), eq(datasetMembers.userId, userId)));
+    datasetRole = m?.role ?? null;
+  }
+  return { version, datasetRole };
+}
+
+export async function getLatestAnalysis({ versionId }: { versionId: number }) {
+  const [row] = await getDb()
+    .select({ engineVersion: versionAnalyses.engineVersion, result: versionAnalyses.result, checks: versionAnalyses.checks, error: versionAnalyses.error, createdAt: versionAnalyses.createdAt })
+    .from(versionAnalyses)
+    .where(eq(versionAnalyses.versionId, versionId))
+    .orderBy(desc(versionAnalyses.createdAt), desc(versionAnalyses.id))
+    .limit(1);
+  return row ?? null;
+}
+
+/** The datasets a person owns or co-edits, newest version of each. */
+export async function listMyVersions({ userId }: { userId: number }) {
+  return getDb()
+    .selectDistinctOn([datasetVersions.datasetId], { ...versionColumns, role: datasetMembers.role })
+    .from(datasetMembers)
+    .innerJoin(datasetVersions, eq(datasetVersions.datasetId, datasetMembers.datasetId))
+    .where(eq(datasetMembers.userId, userId))
+    .orderBy(datasetVersions.datasetId, desc(datasetVersions.number));
+}
+
+export async function addDatasetMember({ datasetId, userId, role, actorId }: { datasetId: number; userId: number; role: CoEditorRole; actorId: number }) {
+  await getDb().transaction(async (tx) => {
+    await tx.insert(datasetMembers).values({ datasetId, userId, role }).onConflictDoUpdate({ target: [datasetMembers.datasetId, datasetMembers.userId], set: { role } });
+    await recordAuditEvent(tx, { actorId, action: "dataset.member_added", subjectType: "dataset", subjectId: datasetId, details: { userId, role } });
+  });
+}
+
+export async function listDatasetMembers({ datasetId }: { datasetId: number }) {
+  return getDb()
+    .select({ userId: datasetMembers.userId, role: datasetMembers.role, name: users.name, email: users.email })
+    .from(datasetMembers)
+    .innerJoin(users, eq(users.id, datasetMembers.userId))
+    .where(eq(datasetMembers.datasetId, datasetId));
+}
+
+export async function listDecisions({ versionId }: { versionId: number }) {
+  return getDb()
+    .select({ id: decisions.id, decision: decisions.decision, reason: decisions.reason, createdAt: decisions.createdAt, curator: users.name })
+    .from(decisions)
+    .innerJoin(users, eq(users.id, decisions.curatorId))
+    .where(eq(decisions.versionId, versionId))
+    .orderBy(desc(decisions.createdAt));
+}

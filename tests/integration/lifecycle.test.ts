@@ -1,0 +1,107 @@
+import { beforeAll, describe, expect, it } from "vitest";
+import { applyTransition, payloadSha256 } from "@/lib/curation/transitions";
+import { addDatasetMember, createDatasetDraft, saveDraft, type AnalysisSummary, type StoredPoint } from "@/lib/datasets/queries";
+import { createUser, type UserDto } from "@/lib/users/queries";
+import { sql, uniqueEmail } from "./helpers";
+
+const points: StoredPoint[] = [
+  { T: 300, k: 1e-12, original: { T: 300, k: 1e-12 } },
+  { T: 350, k: 2e-12, original: { T: 350, k: 2e-12 } },
+];
+const analysis: AnalysisSummary = { engineVersion: "test", result: { flags: [] }, checks: [] };
+
+let owner: UserDto, editor: UserDto, stranger: UserDto, curator: UserDto, coCurator: UserDto, admin: UserDto;
+
+beforeAll(async () => {
+  const mk = (tag: string, role: UserDto["role"] = "researcher") => createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  [owner, editor, stranger, curator, coCurator, admin] = await Promise.all([mk("owner"), mk("editor"), mk("stranger"), mk("curator", "curator"), mk("cocurator", "curator"), mk("admin", "admin")]);
+});
+
+async function newDraft() {
+  const v = await createDatasetDraft({ ownerId: owner.id, title: "OH + CH4 test", payload: { title: "OH + CH4 test", points: [1, 2] }, points, analysis });
+  await addDatasetMember({ datasetId: v.datasetId, userId: editor.id, role: "editor", actorId: owner.id });
+  await addDatasetMember({ datasetId: v.datasetId, userId: coCurator.id, role: "editor", actorId: owner.id });
+  return v;
+}
+
+async function status(p: Promise<unknown>): Promise<number | "ok"> {
+  try {
+    await p;
+    return "ok";
+  } catch (err) {
+    return (err as { status?: number }).status ?? 500;
+  }
+}
+
+describe("lifecycle in the database, per role", () => {
+  it("only the owner submits", async () => {
+    const v = await newDraft();
+    for (const who of [editor, stranger, curator, admin]) expect(await status(applyTransition({ versionId: v.id, actorId: who.id, transition: "submit" }))).toBe(403);
+    expect(await status(applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" }))).toBe("ok");
+    const [row] = await sql`select state, submitted_at from dataset_versions where id = ${v.id}`;
+    expect(row.state).toBe("submitted");
+    expect(row.submitted_at).toBeInstanceOf(Date);
+  });
+
+  it("curators (not co-editing ones) review; a decision needs a reason; each step is audited", async () => {
+    const v = await newDraft();
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    expect(await status(applyTransition({ versionId: v.id, actorId: coCurator.id, transition: "start_review" }))).toBe(403);
+    expect(await status(applyTransition({ versionId: v.id, actorId: stranger.id, transition: "start_review" }))).toBe(403);
+    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "start_review" });
+    expect(await status(applyTransition({ versionId: v.id, actorId: curator.id, transition: "request_changes", reason: "" }))).toBe(422);
+    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "request_changes", reason: "Give the bath gas of each point." });
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v.id, actorId: admin.id, transition: "start_review" });
+    const out = await applyTransition({ versionId: v.id, actorId: admin.id, transition: "accept", reason: "Complete and consistent." });
+    expect(out.to).toBe("published");
+    const events = await sql`select action from audit_events where subject_type = 'dataset_version' and subject_id = ${String(v.id)} order by id`;
+    expect(events.map((e) => e.action)).toEqual(["dataset.created", "dataset.submit", "dataset.start_review", "dataset.request_changes", "dataset.submit", "dataset.start_review", "dataset.accept"]);
+    const ds = await sql`select decision, reason from decisions where version_id = ${v.id} order by id`;
+    expect(ds.map((d) => d.decision)).toEqual(["request_changes", "accept"]);
+  });
+
+  it("acceptance freezes the version: hash, identifiers, and a trigger that refuses changes", async () => {
+    const v = await newDraft();
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    const out = await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Fine." });
+    expect(out.identifiers?.version).toBe(`10.5072/arrhenia.${v.datasetId}.v1`);
+    expect(out.identifiers?.series).toBe(`10.5072/arrhenia.${v.datasetId}`);
+    const [row] = await sql`select payload, payload_sha256, version_identifier, published_at from dataset_versions where id = ${v.id}`;
+    expect(row.payload_sha256).toBe(payloadSha256(row.payload));
+    expect(row.version_identifier).toBe(out.identifiers?.version);
+    const regs = await sql`select identifier, registered from identifier_registrations where dataset_id = ${v.datasetId} order by kind`;
+    expect(regs).toHaveLength(2);
+
+    await expect(sql`update dataset_versions set title = 'changed' where id = ${v.id}`).rejects.toThrow(/published and cannot be changed/);
+    await expect(sql`update dataset_versions set payload = '{}' where id = ${v.id}`).rejects.toThrow(/published/);
+    await expect(sql`delete from dataset_versions where id = ${v.id}`).rejects.toThrow(/cannot be deleted/);
+    await expect(sql`update version_points set rate_constant = 1 where version_id = ${v.id}`).rejects.toThrow(/version_points cannot be changed/);
+    await expect(sql`delete from version_points where version_id = ${v.id}`).rejects.toThrow(/published/);
+    await expect(sql`insert into version_points (version_id, idx, temperature_k, rate_constant, original) values (${v.id}, 99, 300, 1, '{}')`).rejects.toThrow(/published/);
+    await expect(saveDraft({ versionId: v.id, actorId: owner.id, expectedLockVersion: 1, title: "x", payload: {}, points, analysis })).rejects.toThrow(/can no longer be edited/);
+    const [after] = await sql`select title, payload_sha256 from dataset_versions where id = ${v.id}`;
+    expect(after).toEqual({ title: "OH + CH4 test", payload_sha256: row.payload_sha256 });
+
+    // Retraction is the one change allowed, with a public notice; after it nothing changes.
+    expect(await status(applyTransition({ versionId: v.id, actorId: owner.id, transition: "retract", reason: "mine" }))).toBe(403);
+    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "retract", reason: "Detector calibration error found by the authors." });
+    const [retracted] = await sql`select state, retraction_notice from dataset_versions where id = ${v.id}`;
+    expect(retracted.state).toBe("retracted");
+    await expect(sql`update dataset_versions set retraction_notice = 'edited' where id = ${v.id}`).rejects.toThrow(/published/);
+  });
+
+  it("a stale save gets a conflict and never overwrites a co-editor", async () => {
+    const v = await newDraft();
+    const first = await saveDraft({ versionId: v.id, actorId: editor.id, expectedLockVersion: 1, title: "Editor's title", payload: { title: "Editor's title" }, points, analysis });
+    expect(first.lockVersion).toBe(2);
+    await expect(saveDraft({ versionId: v.id, actorId: owner.id, expectedLockVersion: 1, title: "Owner's stale title", payload: {}, points: points.slice(0, 1), analysis })).rejects.toMatchObject({
+      status: 409,
+      message: expect.stringMatching(/Someone saved this draft after you opened it/),
+    });
+    const [row] = await sql`select title, lock_version, point_count from dataset_versions where id = ${v.id}`;
+    expect(row).toEqual({ title: "Editor's title", lock_version: 2, point_count: 2 });
+    const [{ n }] = await sql`select count(*)::int as n from version_points where version_id = ${v.id}`;
+    expect(n).toBe(2);
+  });
+});
