@@ -54,7 +54,8 @@ export const reactionParticipants = pgTable(
       .notNull()
       .references(() => species.id),
     side: reactionSideEnum().notNull(),
-    coefficient: integer().notNull(),
+    /** Stoichiometric coefficient; fractional values (½ O2) are allowed. */
+    coefficient: real().notNull(),
   },
   (t) => [primaryKey({ columns: [t.reactionId, t.speciesId, t.side] })],
 );

@@ -31,3 +31,28 @@ export function usesMailCapture(): boolean {
 export function mailFrom(): string {
   return process.env.MAIL_FROM ?? "Arrhenia <no-reply@arrhenia.invalid>";
 }
+
+/** Port of the local fake DOI registration service, started on 127.0.0.1 when DOI_API_URL is unset. */
+export function doiFakePort(): number {
+  return Number(process.env.DOI_FAKE_PORT ?? 5100);
+}
+
+/** Base URL of the DOI registration agency's REST API (no trailing slash); the local fake by default. */
+export function doiApiUrl(): string {
+  return (process.env.DOI_API_URL || `http://127.0.0.1:${doiFakePort()}`).replace(/\/$/, "");
+}
+
+export function usesFakeDoiService(): boolean {
+  return !process.env.DOI_API_URL;
+}
+
+/** Basic-auth account at the registration agency (repository id and password), or null when unset. */
+export function doiApiAuth(): { user: string; password: string } | null {
+  const user = process.env.DOI_API_USER;
+  return user ? { user, password: process.env.DOI_API_PASSWORD ?? "" } : null;
+}
+
+/** Folder where the local fake DOI service keeps its records; set it empty to keep them in memory. */
+export function fakeDoiDataDir(): string | null {
+  return (process.env.DOI_FAKE_DATA_DIR ?? ".data/fake-doi") || null;
+}

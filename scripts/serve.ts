@@ -1,8 +1,11 @@
-// Serves a built Arrhenia: the local mail capture (when SMTP_URL is unset), the background
-// workers, and `next start` on 127.0.0.1. Ctrl-C stops all three.
+// Serves a built Arrhenia: the local mail capture (when SMTP_URL is unset), the local fake DOI
+// registration service (when DOI_API_URL is unset), the background workers, and `next start`
+// on 127.0.0.1. Ctrl-C stops them all.
 import { spawn } from "node:child_process";
 import postgres from "postgres";
-import { captureSmtpPort, databaseUrl, usesMailCapture } from "@/lib/config";
+import { captureSmtpPort, databaseUrl, doiApiAuth, doiApiUrl, doiFakePort, fakeDoiDataDir, usesFakeDoiService, usesMailCapture } from "@/lib/config";
+import { startFakeDoiService } from "@/lib/identifiers/fake-service";
+import { doiPrefix } from "@/lib/identifiers/mint";
 import { startWorkers } from "@/lib/jobs/worker";
 import { startCaptureServer } from "@/lib/mail/capture-server";
 import { DEMO_PASSWORD, demoAccounts } from "@/db/seed-data";
@@ -13,6 +16,7 @@ const quiet = process.env.SERVE_QUIET === "1";
 
 const sql = postgres(databaseUrl(), { max: 2, onnotice: () => {} });
 const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captureSmtpPort() }) : null;
+const fakeDoi = usesFakeDoiService() ? await startFakeDoiService({ port: doiFakePort(), dataDir: fakeDoiDataDir(), auth: doiApiAuth() }) : null;
 const workers = await startWorkers();
 
 const next = spawn("node_modules/.bin/next", ["start", "-H", host, "-p", String(port)], { stdio: ["ignore", "inherit", "inherit"], env: process.env });
@@ -22,7 +26,7 @@ async function stop(code: number) {
   if (stopping) return;
   stopping = true;
   next.kill("SIGTERM");
-  await Promise.allSettled([workers.stop(), capture?.close(), sql.end({ timeout: 2 })]);
+  await Promise.allSettled([workers.stop(), capture?.close(), fakeDoi?.close(), sql.end({ timeout: 2 })]);
   process.exit(code);
 }
 process.on("SIGINT", () => void stop(0));
@@ -34,6 +38,7 @@ if (!quiet) {
   console.log(`
   Arrhenia is running at http://${host}:${port}
   Mail: ${capture ? `captured locally (SMTP 127.0.0.1:${captureSmtpPort()}); admins read it at /admin/mail` : "sent through SMTP_URL"}
+  Identifiers (prefix ${doiPrefix()}): ${fakeDoi ? `registered with the local fake DOI service at ${fakeDoi.url}${fakeDoiDataDir() ? ` (records in ${fakeDoiDataDir()})` : ""}` : `registered through ${doiApiUrl()}`}
 
   Demo accounts (password for all: ${DEMO_PASSWORD})
 ${demoAccounts.map((a) => `    ${a.email.padEnd(width)}  ${a.role.padEnd(10)}  ${a.name}`).join("\n")}

@@ -13,11 +13,16 @@ export interface ApiContext<P> {
   params: P;
 }
 
+/** Scopes a personal token must hold for an endpoint; a browser session holds them all. */
+export type ApiScope = "read" | "deposit";
+
 interface ApiOptions {
   /** Omit for public endpoints. */
   permission?: Permission;
   /** Public endpoints that still want to know who calls (e.g. to show drafts to their owner). */
   identify?: boolean;
+  /** Required token scope when the caller uses a bearer token. */
+  scope?: ApiScope;
 }
 
 const escapePointer = (p: PropertyKey) => String(p).replace(/~/g, "~0").replace(/\//g, "~1");
@@ -38,11 +43,12 @@ export function problemResponse(error: AppError, instance?: string): NextRespons
   return new NextResponse(JSON.stringify(problemJson(error, instance)), { status: error.status, headers });
 }
 
-async function resolveUser(req: Request): Promise<UserDto | null> {
+async function resolveUser(req: Request, scope?: ApiScope): Promise<UserDto | null> {
   const auth = req.headers.get("authorization");
   if (auth?.toLowerCase().startsWith("bearer ")) {
     const found = await getUserByApiToken({ secret: auth.slice(7).trim() });
     if (!found) throw new AppError("unauthenticated", "The API token is unknown or revoked");
+    if (scope && !found.scopes.includes(scope)) throw new AppError("forbidden", `This token lacks the “${scope}” scope`);
     return found.user;
   }
   return getCurrentUser();
@@ -70,7 +76,7 @@ export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>
     const instance = new URL(req.url).pathname;
     try {
       // Public endpoints skip the session look-up unless they ask for it.
-      const user = options.permission || options.identify ? await resolveUser(req) : null;
+      const user = options.permission || options.identify ? await resolveUser(req, options.scope) : null;
       if (options.permission) assertAllowed(user, { permission: options.permission });
       return await handler({ req, user, params: await context.params });
     } catch (err) {

@@ -6,6 +6,13 @@ import { users } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import type { CoEditorRole, VersionState } from "@/lib/curation/lifecycle";
 import { AppError } from "@/lib/errors";
+import { upsertReaction, type ResolvedParticipant } from "./species-queries";
+
+export interface ReactionInput {
+  key: string;
+  equation: string;
+  participants: ResolvedParticipant[];
+}
 
 /** A canonical point ready to store. */
 export interface StoredPoint {
@@ -106,9 +113,10 @@ async function writePointsAndAnalysis(tx: Transaction, versionId: number, points
 }
 
 /** Creates a dataset with its owner and a first draft version, all or nothing. */
-export async function createDatasetDraft(input: { ownerId: number; title: string; payload: Record<string, unknown>; points: StoredPoint[]; analysis: AnalysisSummary }) {
+export async function createDatasetDraft(input: { ownerId: number; title: string; payload: Record<string, unknown>; points: StoredPoint[]; analysis: AnalysisSummary; reaction?: ReactionInput }) {
   return getDb().transaction(async (tx) => {
-    const [dataset] = await tx.insert(datasets).values({ ownerId: input.ownerId }).returning({ id: datasets.id });
+    const reactionId = input.reaction ? await upsertReaction(tx, input.reaction) : null;
+    const [dataset] = await tx.insert(datasets).values({ ownerId: input.ownerId, reactionId }).returning({ id: datasets.id });
     await tx.insert(datasetMembers).values({ datasetId: dataset.id, userId: input.ownerId, role: "owner" });
     const [version] = await tx
       .insert(datasetVersions)
@@ -124,7 +132,16 @@ export async function createDatasetDraft(input: { ownerId: number; title: string
  * Saves a draft if nobody saved it since `expectedLockVersion` (optimistic locking). A stale save
  * changes nothing and answers 409, so a co-editor's work is never overwritten.
  */
-export async function saveDraft(input: { versionId: number; actorId: number; expectedLockVersion: number; title: string; payload: Record<string, unknown>; points: StoredPoint[]; analysis: AnalysisSummary }) {
+export async function saveDraft(input: {
+  versionId: number;
+  actorId: number;
+  expectedLockVersion: number;
+  title: string;
+  payload: Record<string, unknown>;
+  points: StoredPoint[];
+  analysis: AnalysisSummary;
+  reaction?: ReactionInput;
+}) {
   return getDb().transaction(async (tx) => {
     const [row] = await tx
       .update(datasetVersions)
@@ -144,6 +161,10 @@ export async function saveDraft(input: { versionId: number; actorId: number; exp
       throw new AppError("conflict", "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.");
     }
     await writePointsAndAnalysis(tx, row.id, input.points, input.analysis);
+    if (input.reaction) {
+      const reactionId = await upsertReaction(tx, input.reaction);
+      await tx.update(datasets).set({ reactionId }).where(eq(datasets.id, row.datasetId));
+    }
     await recordAuditEvent(tx, { actorId: input.actorId, action: "dataset.draft_saved", subjectType: "dataset_version", subjectId: row.id, details: { lockVersion: row.lockVersion } });
     return row;
   });

@@ -2,10 +2,10 @@ import PgBoss from "pg-boss";
 import { databaseUrl } from "@/lib/config";
 
 /** Queue names used across the app. */
-export const queues = ["mail"] as const;
+export const queues = ["mail", "register-identifier"] as const;
 export type QueueName = (typeof queues)[number];
 
-/** Default retry policy: a relay that is down delays mail, never loses it. */
+/** Default retry policy: a relay or DOI agency that is down delays the work, never loses it. */
 export const retryPolicy = {
   retryLimit: 12,
   retryDelay: Number(process.env.JOB_RETRY_DELAY_SECONDS ?? 15),

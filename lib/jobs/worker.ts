@@ -1,5 +1,8 @@
 import PgBoss from "pg-boss";
 import { databaseUrl } from "@/lib/config";
+import { AppError } from "@/lib/errors";
+import type { IdentifierJob } from "@/lib/identifiers/queue";
+import { registerIdentifier } from "@/lib/identifiers/register";
 import { deliverMail } from "@/lib/mail/transport";
 import type { MailMessage } from "@/lib/mail/templates";
 
@@ -13,6 +16,15 @@ export async function startWorkers(): Promise<{ stop: () => Promise<void> }> {
   await boss.start();
   await boss.work<MailMessage>("mail", { pollingIntervalSeconds: 1, batchSize: 5 }, async (jobs) => {
     for (const job of jobs) await deliverMail(job.data);
+  });
+  await boss.work<IdentifierJob>("register-identifier", { pollingIntervalSeconds: 1 }, async ([job]) => {
+    try {
+      await registerIdentifier(job.data.identifier, { refresh: job.data.refresh });
+    } catch (err) {
+      // No registration row means nothing to register: retrying would fail the same way.
+      if (err instanceof AppError && err.code === "not_found") return console.error(`[jobs] ${err.message}; job dropped`);
+      throw err;
+    }
   });
   return { stop: () => boss.stop({ graceful: true, wait: true, timeout: 5000 }) };
 }

@@ -51,3 +51,21 @@ export function existingAccountMail(to: string, name: string): MailMessage {
     { label: "Forgot my password", url: `${appUrl()}/forgot-password` },
   );
 }
+
+export function submissionMail(to: string, name: string, title: string, versionId: number): MailMessage {
+  return compose(to, `Waiting for review: ${title}`, name, [`A dataset was submitted and waits for a curator: “${title}”.`], { label: "Open the review", url: `${appUrl()}/review/${versionId}` });
+}
+
+const decisionWords = {
+  accept: "was accepted and is now published",
+  request_changes: "needs changes before it can be published",
+  decline: "was declined",
+  retract: "was retracted",
+} as const;
+
+export function decisionMail(to: string, name: string, title: string, versionId: number, decision: keyof typeof decisionWords, reason: string): MailMessage {
+  return compose(to, `Decision on “${title}”: ${decision.replace("_", " ")}`, name, [`Your dataset “${title}” ${decisionWords[decision]}.`, `The curator's reason: ${reason}`], {
+    label: "Open the dataset",
+    url: `${appUrl()}/deposits/${versionId}`,
+  });
+}

@@ -93,6 +93,14 @@ export async function listUsers({ limit = 200, offset = 0 }: { limit?: number; o
   return getDb().select(userColumns).from(users).orderBy(asc(users.name)).limit(limit).offset(offset);
 }
 
+/** Curators who should hear of new submissions. */
+export async function listActiveCurators() {
+  return getDb()
+    .select({ id: users.id, email: users.email, name: users.name })
+    .from(users)
+    .where(and(eq(users.role, "curator"), isNull(users.deactivatedAt)));
+}
+
 export async function countUsers(): Promise<number> {
   const [row] = await getDb().select({ n: count() }).from(users).where(isNull(users.deactivatedAt));
   return row?.n ?? 0;

@@ -1,0 +1,1 @@
+ALTER TABLE "reaction_participants" ALTER COLUMN "coefficient" SET DATA TYPE real;

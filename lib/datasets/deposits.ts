@@ -1,0 +1,71 @@
+import "server-only";
+import { can } from "@/lib/auth/permissions";
+import { canEditDraft, type Transition } from "@/lib/curation/lifecycle";
+import { applyTransition } from "@/lib/curation/transitions";
+import { AppError } from "@/lib/errors";
+import { enqueueMail } from "@/lib/mail/queue";
+import { decisionMail, submissionMail } from "@/lib/mail/templates";
+import { listActiveCurators, type UserDto } from "@/lib/users/queries";
+import { prepareDepositOrThrow } from "./prepare";
+import { createDatasetDraft, getVersionWithRole, listDatasetMembers, saveDraft } from "./queries";
+
+/** Creates a dataset from a deposit document; a document with any problem stores nothing. */
+export async function depositNewDataset({ actor, document }: { actor: UserDto; document: unknown }) {
+  const prepared = await prepareDepositOrThrow(document);
+  return createDatasetDraft({
+    ownerId: actor.id,
+    title: prepared.title,
+    payload: prepared.document as unknown as Record<string, unknown>,
+    points: prepared.points,
+    analysis: prepared.analysis,
+    reaction: prepared.reaction,
+  });
+}
+
+/** Replaces a draft's document (owner or editor), guarded by the lock version the editor loaded. */
+export async function updateDraft({ actor, versionId, expectedLockVersion, document }: { actor: UserDto; versionId: number; expectedLockVersion: number; document: unknown }) {
+  const found = await getVersionWithRole({ versionId, userId: actor.id });
+  if (!found || (!found.datasetRole && !can(actor.role, "dataset.review"))) throw new AppError("not_found", "No such dataset version");
+  if (!canEditDraft(found.datasetRole)) throw new AppError("forbidden", "Only the owner and editors of this dataset may change it");
+  // Prepared before the save: a failed upload leaves the draft exactly as it was.
+  const prepared = await prepareDepositOrThrow(document);
+  return saveDraft({
+    versionId,
+    actorId: actor.id,
+    expectedLockVersion,
+    title: prepared.title,
+    payload: prepared.document as unknown as Record<string, unknown>,
+    points: prepared.points,
+    analysis: prepared.analysis,
+    reaction: prepared.reaction,
+  });
+}
+
+/** Who may see a version: anyone once published; before that its co-editors, curators and admins. */
+export async function getVisibleVersionOrThrow({ versionId, viewer }: { versionId: number; viewer: UserDto | null }) {
+  const found = await getVersionWithRole({ versionId, userId: viewer?.id ?? null });
+  const isPublic = found && (found.version.state === "published" || found.version.state === "retracted");
+  if (!found || (!isPublic && !found.datasetRole && !(viewer && can(viewer.role, "dataset.review")))) {
+    throw new AppError("not_found", "No such dataset version");
+  }
+  return found;
+}
+
+/**
+ * Applies a lifecycle transition, then queues the mail it causes: curators hear of each
+ * submission; owner and co-editors of each decision and retraction.
+ */
+export async function transitionVersion({ actor, versionId, transition, reason }: { actor: UserDto; versionId: number; transition: Transition; reason?: string }) {
+  const outcome = await applyTransition({ versionId, actorId: actor.id, transition, reason });
+  const found = await getVersionWithRole({ versionId, userId: null });
+  const title = found?.version.title ?? "your dataset";
+  if (transition === "submit") {
+    for (const c of await listActiveCurators()) await enqueueMail(submissionMail(c.email, c.name, title, versionId));
+  }
+  if (transition === "accept" || transition === "request_changes" || transition === "decline" || transition === "retract") {
+    const members = await listDatasetMembers({ datasetId: outcome.datasetId });
+    for (const m of members) await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? ""));
+  }
+  return outcome;
+}
+

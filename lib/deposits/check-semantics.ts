@@ -1,0 +1,159 @@
+/**
+ * Checks of a deposit document that JSON Schema cannot express: unit strings parse (and k's unit
+ * fits the reaction order), temperatures lie above absolute zero after conversion, ORCID check
+ * digits, pressure ranges, and the sanity of the reported fit. Written defensively: it runs on
+ * documents that may also have failed the schema, and looks only at values of the right type.
+ */
+import { orcidChecksumValid } from "@/lib/auth/orcid";
+import type { FieldError } from "@/lib/errors";
+import {
+  UnitError,
+  parseEnergyUnit,
+  parsePressureUnit,
+  parseRateConstantUnit,
+  parseTemperatureUnit,
+  type LinearUnit,
+  type ReactionOrder,
+} from "@/lib/kinetics";
+import { formatValue, sentenceAt, sentenceWithPrefix } from "./messages";
+
+/** |Ea| above this (J mol⁻¹) is taken as a unit mistake rather than chemistry. */
+export const MAX_PLAUSIBLE_EA = 1e6;
+
+type Report = (error: FieldError) => void;
+
+function isRecord(v: unknown): v is Record<string, unknown> {
+  return typeof v === "object" && v !== null && !Array.isArray(v);
+}
+
+function isFiniteNumber(v: unknown): v is number {
+  return typeof v === "number" && Number.isFinite(v);
+}
+
+/** The check character an ORCID iD's first 15 digits call for (ISO 7064 MOD 11-2). */
+function expectedOrcidCheck(id: string): string {
+  for (const c of "0123456789X") if (orcidChecksumValid(id.slice(0, -1) + c)) return c;
+  return "?";
+}
+
+/** Parse a unit, reporting a UnitError at `pointer`; undefined when absent or unusable. */
+function parseUnitAt<U>(report: Report, pointer: string, text: unknown, parse: (t: string) => U): U | undefined {
+  if (typeof text !== "string" || text.trim() === "") return undefined;
+  try {
+    return parse(text);
+  } catch (e) {
+    if (!(e instanceof UnitError)) throw e;
+    report({ pointer, message: e.message, value: text });
+    return undefined;
+  }
+}
+
+/** Kelvin for a finite value in a parsed temperature unit (no range check). */
+function kelvinOf(value: number, unit: LinearUnit): number {
+  return value * unit.factor + (unit.offset ?? 0);
+}
+
+/**
+ * Report a temperature that is not above 0 K. In K: "must be greater than 0 K"; in °C: "is below
+ * absolute zero", which is the mistake people actually make (a minus sign, or K typed as °C).
+ */
+function checkTemperature(report: Report, pointer: string, value: unknown, unit: LinearUnit | undefined): number | undefined {
+  if (!isFiniteNumber(value) || !unit) return undefined;
+  const kelvin = kelvinOf(value, unit);
+  if (kelvin > 0) return kelvin;
+  if (unit.offset) {
+    report({
+      pointer,
+      value,
+      message: sentenceWithPrefix(pointer, `${value} ${unit.label} is ${kelvin < 0 ? "below" : "at"} absolute zero (${kelvin.toFixed(2)} K); a temperature in ${unit.label} must be above -273.15`),
+    });
+  } else {
+    report({ pointer, value, message: sentenceAt(pointer, `must be greater than 0 K (got ${value} ${unit.label})`) });
+  }
+  return undefined;
+}
+
+/** Run every semantic check on `doc`, calling `report` for each problem found. */
+export function checkDepositSemantics(doc: unknown, report: Report): void {
+  if (!isRecord(doc)) return;
+  const reaction = isRecord(doc.reaction) ? doc.reaction : {};
+  const order = [1, 2, 3].includes(reaction.order as number) ? (reaction.order as ReactionOrder) : undefined;
+  const units = isRecord(doc.units) ? doc.units : {};
+  const points = Array.isArray(doc.points) ? doc.points : [];
+  const conditions = isRecord(doc.conditions) ? doc.conditions : {};
+
+  // Units. k is checked against the order only when the order itself is valid.
+  const unitT = parseUnitAt(report, "/units/T", units.T, parseTemperatureUnit);
+  parseUnitAt(report, "/units/k", units.k, (t) => parseRateConstantUnit(t, order));
+  const unitP = parseUnitAt(report, "/units/pressure", units.pressure, parsePressureUnit);
+
+  const pressureGiven = isRecord(conditions.pressure) || points.some((p) => isRecord(p) && p.pressure !== undefined);
+  if (pressureGiven && units.pressure === undefined) {
+    report({ pointer: "/units/pressure", message: "Pressure unit is required because the document gives pressures (under conditions or on points)." });
+  }
+  if (unitP && isRecord(conditions.pressure)) {
+    const { min, max } = conditions.pressure;
+    if (isFiniteNumber(min) && isFiniteNumber(max) && min > max) {
+      report({ pointer: "/conditions/pressure/max", value: max, message: `Highest pressure (${max}) must not be below the lowest pressure (${min}).` });
+    }
+  }
+
+  // Points: temperatures above absolute zero (k > 0 is in the schema).
+  for (let i = 0; i < points.length; i++) {
+    const p = points[i];
+    if (isRecord(p)) checkTemperature(report, `/points/${i}/T`, p.T, unitT);
+  }
+
+  // Creators: ORCID check digits (the form is in the schema).
+  if (Array.isArray(doc.creators)) {
+    doc.creators.forEach((c, i) => {
+      if (!isRecord(c) || typeof c.orcid !== "string" || !/^\d{4}-\d{4}-\d{4}-\d{3}[\dX]$/.test(c.orcid)) return;
+      if (!orcidChecksumValid(c.orcid)) {
+        report({
+          pointer: `/creators/${i}/orcid`,
+          value: c.orcid,
+          message: sentenceAt(`/creators/${i}/orcid`, `${c.orcid} has a wrong check digit (the first 15 digits call for ${expectedOrcidCheck(c.orcid)}); check it for a typing mistake`),
+        });
+      }
+    });
+  }
+
+  // Phase-specific fields given for another phase are probably a slip.
+  if (reaction.solvent !== undefined && reaction.phase !== undefined && reaction.phase !== "liquid") {
+    report({ pointer: "/reaction/solvent", message: `A solvent is only for liquid-phase reactions (phase is ${formatValue(reaction.phase)}).` });
+  }
+  if (reaction.surface !== undefined && reaction.phase !== undefined && reaction.phase !== "surface") {
+    report({ pointer: "/reaction/surface", value: reaction.surface as unknown, message: `A surface is only for surface reactions (phase is ${formatValue(reaction.phase)}).` });
+  }
+
+  // Source: a DOI given twice must agree.
+  if (isRecord(doc.source) && isRecord(doc.source.reference)) {
+    const { doi } = doc.source;
+    const refDoi = doc.source.reference.DOI;
+    if (typeof doi === "string" && typeof refDoi === "string" && doi.toLowerCase() !== refDoi.toLowerCase()) {
+      report({ pointer: "/source/reference/DOI", value: refDoi, message: `The reference's DOI (${refDoi}) differs from the publication DOI (${doi}); give one DOI or make them agree.` });
+    }
+  }
+
+  if (isRecord(doc.reportedFit)) checkReportedFit(report, doc.reportedFit, unitT);
+}
+
+function checkReportedFit(report: Report, fit: Record<string, unknown>, unitT: LinearUnit | undefined): void {
+  const eaUnit = parseUnitAt(report, "/reportedFit/EaUnit", fit.EaUnit, parseEnergyUnit);
+  if (fit.model === "arrhenius" && isFiniteNumber(fit.n) && fit.n !== 0) {
+    report({ pointer: "/reportedFit/n", value: fit.n, message: "An Arrhenius expression has no temperature exponent: choose modified_arrhenius, or leave n out." });
+  }
+  if (eaUnit && isFiniteNumber(fit.Ea) && Math.abs(fit.Ea * eaUnit.factor) > MAX_PLAUSIBLE_EA) {
+    report({
+      pointer: "/reportedFit/Ea",
+      value: fit.Ea,
+      message: `Activation energy ${fit.Ea} ${eaUnit.label} is ${(Math.abs(fit.Ea * eaUnit.factor) / 1000).toFixed(0)} kJ mol⁻¹ in size, more than any chemical barrier; check the value and its unit.`,
+    });
+  }
+  checkTemperature(report, "/reportedFit/T0", fit.T0, unitT);
+  const tMin = checkTemperature(report, "/reportedFit/Tmin", fit.Tmin, unitT);
+  const tMax = checkTemperature(report, "/reportedFit/Tmax", fit.Tmax, unitT);
+  if (tMin !== undefined && tMax !== undefined && tMin >= tMax) {
+    report({ pointer: "/reportedFit/Tmax", value: fit.Tmax, message: `Highest valid temperature (${String(fit.Tmax)}) must be above the lowest (${String(fit.Tmin)}).` });
+  }
+}

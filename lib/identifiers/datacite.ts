@@ -1,0 +1,268 @@
+// DataCite metadata (kernel 4, as the JSON:API `dois` resource of a registration agency's REST
+// API) for our version and series identifiers. Pure: no I/O, so the same stored version always
+// gives the same body, which keeps re-registration an exact upsert.
+import { isDoiSyntax } from "./mint";
+
+/** DataCite relation types we emit (a subset of the schema's controlled list). */
+export type RelationType = "IsVersionOf" | "HasVersion" | "IsNewVersionOf" | "IsSupplementTo" | "IsDescribedBy" | "IsDerivedFrom" | "References" | "Cites";
+
+export interface DataciteRelatedIdentifier {
+  relatedIdentifier: string;
+  relatedIdentifierType: "DOI" | "URL";
+  relationType: RelationType;
+}
+
+export interface DataciteCreator {
+  name: string;
+  nameType?: "Personal" | "Organizational";
+  givenName?: string;
+  familyName?: string;
+  nameIdentifiers?: { nameIdentifier: string; nameIdentifierScheme: "ORCID"; schemeUri: string }[];
+  affiliation?: { name: string }[];
+}
+
+export interface DataciteRights {
+  rights: string;
+  rightsUri: string;
+  rightsIdentifier: string;
+  rightsIdentifierScheme: "SPDX";
+  schemeUri: string;
+}
+
+export interface DataciteAttributes {
+  doi: string;
+  event: "publish";
+  url: string;
+  titles: { title: string }[];
+  creators: DataciteCreator[];
+  publisher: string;
+  publicationYear: number;
+  types: { resourceTypeGeneral: "Dataset"; resourceType: string };
+  version?: string;
+  dates?: { date: string; dateType: "Issued" }[];
+  subjects?: { subject: string }[];
+  relatedIdentifiers: DataciteRelatedIdentifier[];
+  rightsList: DataciteRights[];
+  descriptions: { description: string; descriptionType: "Abstract" | "Other" }[];
+  fundingReferences?: { funderName: string; awardNumber?: string; awardTitle?: string }[];
+  schemaVersion: string;
+}
+
+/** The JSON:API document sent with `PUT /dois/{doi}`. */
+export interface DataciteBody {
+  data: { type: "dois"; attributes: DataciteAttributes };
+}
+
+interface CommonInput {
+  /** The identifier being registered (DOI syntax, no `doi:` or resolver prefix). */
+  doi: string;
+  datasetId: number;
+  /** Public base URL of the site, without a trailing slash (e.g. `https://arrhenia.example`). */
+  baseUrl: string;
+  /** The deposit document of the version described (for a series: its newest published version). */
+  payload: unknown;
+  /** Used when the payload has no title (the version row always has one). */
+  fallbackTitle: string;
+  /** Publication time of the version (for a series: of its first version); null → `now`'s year. */
+  publishedAt: Date | null;
+  /** Number of the version described (for a series: its newest). */
+  versionNumber: number;
+  /** Clock for the publication year when `publishedAt` is missing (tests pin it). */
+  now?: Date;
+}
+
+export type DoiMetadataInput =
+  | (CommonInput & {
+      kind: "version";
+      /** The dataset's series identifier, if minted. */
+      seriesIdentifier: string | null;
+      /** Identifier of the version just before this one, if it was published. */
+      previousVersionIdentifier?: string | null;
+    })
+  | (CommonInput & {
+      kind: "series";
+      /** Identifiers of every published (or retracted) version, oldest first. */
+      versionIdentifiers: string[];
+    });
+
+/** SPDX ids the deposit schema allows, with their SPDX full names. */
+const spdxNames: Record<string, string> = {
+  "CC-BY-4.0": "Creative Commons Attribution 4.0 International",
+  "CC0-1.0": "Creative Commons Zero v1.0 Universal",
+  "CC-BY-SA-4.0": "Creative Commons Attribution Share Alike 4.0 International",
+  "CC-BY-3.0": "Creative Commons Attribution 3.0 Unported",
+  "CC-BY-SA-3.0": "Creative Commons Attribution Share Alike 3.0 Unported",
+  "ODC-By-1.0": "Open Data Commons Attribution License v1.0",
+  "ODbL-1.0": "Open Data Commons Open Database License v1.0",
+  "PDDL-1.0": "Open Data Commons Public Domain Dedication & License 1.0",
+  "CDLA-Permissive-2.0": "Community Data License Agreement Permissive 2.0",
+  "CDLA-Sharing-1.0": "Community Data License Agreement Sharing 1.0",
+};
+
+/** The deposit schema's default licence, applied when a payload names none. */
+export const DEFAULT_LICENCE = "CC-BY-4.0";
+
+/** DataCite's standard code for a value that is unavailable. */
+const UNAVAILABLE = ":unav";
+
+/** Deposit relation words → DataCite relation types. */
+const relationTypes: Record<string, RelationType> = {
+  described_by: "IsDescribedBy",
+  supplement_to: "IsSupplementTo",
+  derived_from: "IsDerivedFrom",
+  updates: "IsNewVersionOf",
+  compared_with: "References",
+  cites: "Cites",
+};
+
+const ORCID_ID = /^\d{4}-\d{4}-\d{4}-\d{3}[\dX]$/;
+
+/** Landing page of a version (`…/datasets/12/v3`) or, without a number, of the dataset. */
+export function buildLandingUrl({ baseUrl, datasetId, versionNumber }: { baseUrl: string; datasetId: number; versionNumber?: number }): string {
+  const base = `${baseUrl.replace(/\/$/, "")}/datasets/${datasetId}`;
+  return versionNumber === undefined ? base : `${base}/v${versionNumber}`;
+}
+
+/**
+ * A DOI written as `https://doi.org/…`, `doi:…` or bare, reduced to the bare form; null when
+ * what remains is not DOI syntax. Deposits validate this already; stored payloads may predate it.
+ */
+export function normaliseDoi(value: unknown): string | null {
+  const text = asString(value);
+  if (!text) return null;
+  const bare = text.replace(/^(https?:\/\/(dx\.)?doi\.org\/|doi:)/i, "");
+  return isDoiSyntax(bare) ? bare : null;
+}
+
+/** An ORCID iD as given (bare or as its https address) → `https://orcid.org/…`, or null. */
+export function orcidUri(value: unknown): string | null {
+  const text = asString(value)?.replace(/^https?:\/\/orcid\.org\//i, "");
+  return text && ORCID_ID.test(text) ? `https://orcid.org/${text}` : null;
+}
+
+/** Builds the JSON:API body that registers (or updates) one identifier. */
+export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
+  const doc = asRecord(input.payload);
+  const source = asRecord(doc.source);
+  const sourceDoi = normaliseDoi(source.doi) ?? normaliseDoi(asRecord(source.reference).DOI);
+  const related: DataciteRelatedIdentifier[] = [];
+
+  if (input.kind === "version") {
+    if (input.seriesIdentifier) related.push(doiRelation(input.seriesIdentifier, "IsVersionOf"));
+    if (input.previousVersionIdentifier) related.push(doiRelation(input.previousVersionIdentifier, "IsNewVersionOf"));
+  } else {
+    for (const id of input.versionIdentifiers) if (id !== input.doi) related.push(doiRelation(id, "HasVersion"));
+  }
+  if (sourceDoi) related.push(doiRelation(sourceDoi, "IsSupplementTo"));
+  for (const item of asArray(doc.relatedIdentifiers)) {
+    const r = asRecord(item);
+    const relationType = relationTypes[asString(r.relation) ?? ""];
+    if (!relationType) continue;
+    if (r.kind === "doi") {
+      const doi = normaliseDoi(r.identifier);
+      if (doi) related.push(doiRelation(doi, relationType));
+    } else if (r.kind === "url") {
+      const url = asString(r.identifier);
+      if (url && /^https?:\/\//.test(url)) related.push({ relatedIdentifier: url, relatedIdentifierType: "URL", relationType });
+    }
+  }
+
+  const description = asString(doc.description);
+  const locator = asString(source.locator);
+  const descriptions: DataciteAttributes["descriptions"] = [];
+  if (description) descriptions.push({ description, descriptionType: "Abstract" });
+  if (locator) descriptions.push({ description: `Numbers taken from ${locator} of the source publication.`, descriptionType: "Other" });
+
+  const subjects = asArray(doc.keywords)
+    .map(asString)
+    .filter((s): s is string => !!s)
+    .map((subject) => ({ subject }));
+  const fundingReferences = asArray(doc.funding).flatMap((item) => {
+    const f = asRecord(item);
+    const funderName = asString(f.funder);
+    if (!funderName) return [];
+    const awardNumber = asString(f.awardId);
+    const awardTitle = asString(f.awardTitle);
+    return [{ funderName, ...(awardNumber ? { awardNumber } : {}), ...(awardTitle ? { awardTitle } : {}) }];
+  });
+  const issued = input.publishedAt ? input.publishedAt.toISOString().slice(0, 10) : null;
+
+  const attributes: DataciteAttributes = {
+    doi: input.doi,
+    event: "publish",
+    url: buildLandingUrl({ baseUrl: input.baseUrl, datasetId: input.datasetId, versionNumber: input.kind === "version" ? input.versionNumber : undefined }),
+    titles: [{ title: asString(doc.title) ?? (input.fallbackTitle.trim() || UNAVAILABLE) }],
+    creators: buildCreators(doc.creators),
+    publisher: "Arrhenia",
+    publicationYear: (input.publishedAt ?? input.now ?? new Date()).getUTCFullYear(),
+    types: { resourceTypeGeneral: "Dataset", resourceType: "Rate constants k(T)" },
+    // A series stands for every version, so it carries no version number of its own.
+    ...(input.kind === "version" ? { version: String(input.versionNumber) } : {}),
+    ...(issued ? { dates: [{ date: issued, dateType: "Issued" as const }] } : {}),
+    ...(subjects.length ? { subjects } : {}),
+    relatedIdentifiers: dedupeRelations(related),
+    rightsList: [buildRights(asString(doc.license) ?? DEFAULT_LICENCE)],
+    descriptions,
+    ...(fundingReferences.length ? { fundingReferences } : {}),
+    schemaVersion: "http://datacite.org/schema/kernel-4",
+  };
+  return { data: { type: "dois", attributes } };
+}
+
+function buildCreators(value: unknown): DataciteCreator[] {
+  const creators = asArray(value).flatMap((item): DataciteCreator[] => {
+    const c = asRecord(item);
+    const name = asString(c.name);
+    if (!name) return [];
+    const creator: DataciteCreator = { name, nameType: "Personal" };
+    // "Family, Given" is the citation form the deposit editor suggests; split only that form.
+    const comma = name.indexOf(",");
+    if (comma > 0 && comma < name.length - 1) {
+      creator.familyName = name.slice(0, comma).trim();
+      creator.givenName = name.slice(comma + 1).trim();
+    }
+    const orcid = orcidUri(c.orcid);
+    if (orcid) creator.nameIdentifiers = [{ nameIdentifier: orcid, nameIdentifierScheme: "ORCID", schemeUri: "https://orcid.org" }];
+    const affiliation = asString(c.affiliation);
+    if (affiliation) creator.affiliation = [{ name: affiliation }];
+    return [creator];
+  });
+  // The agency requires at least one creator.
+  return creators.length ? creators : [{ name: UNAVAILABLE }];
+}
+
+function buildRights(id: string): DataciteRights {
+  return {
+    rights: spdxNames[id] ?? id,
+    rightsUri: `https://spdx.org/licenses/${encodeURIComponent(id)}.html`,
+    rightsIdentifier: id,
+    rightsIdentifierScheme: "SPDX",
+    schemeUri: "https://spdx.org/licenses/",
+  };
+}
+
+function doiRelation(doi: string, relationType: RelationType): DataciteRelatedIdentifier {
+  return { relatedIdentifier: doi, relatedIdentifierType: "DOI", relationType };
+}
+
+function dedupeRelations(items: DataciteRelatedIdentifier[]): DataciteRelatedIdentifier[] {
+  const seen = new Set<string>();
+  return items.filter((r) => {
+    const key = `${r.relationType} ${r.relatedIdentifierType} ${r.relatedIdentifier.toLowerCase()}`;
+    if (seen.has(key)) return false;
+    seen.add(key);
+    return true;
+  });
+}
+
+function asRecord(value: unknown): Record<string, unknown> {
+  return value && typeof value === "object" && !Array.isArray(value) ? (value as Record<string, unknown>) : {};
+}
+
+function asArray(value: unknown): unknown[] {
+  return Array.isArray(value) ? value : [];
+}
+
+function asString(value: unknown): string | null {
+  return typeof value === "string" && value.trim() ? value.trim() : null;
+}

@@ -1,0 +1,121 @@
+import "server-only";
+import { and, asc, desc, eq, isNotNull, sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { datasets, datasetVersions, identifierRegistrations } from "@/db/datasets";
+import type { VersionState } from "@/lib/curation/lifecycle";
+
+/** What registering one identifier needs to know, read in one go. */
+export interface RegistrationSubject {
+  identifier: string;
+  kind: "version" | "series";
+  datasetId: number;
+  registered: boolean;
+  attempts: number;
+  seriesIdentifier: string | null;
+  /** The version whose deposit the metadata describes: the version itself, or a series' newest published one. */
+  described: { id: number; number: number; title: string; payload: Record<string, unknown>; publishedAt: Date | null } | null;
+  /** Every version of the dataset that has an identifier (published or retracted), oldest first. */
+  versions: { id: number; number: number; versionIdentifier: string; state: VersionState; publishedAt: Date | null }[];
+}
+
+/** Registration state of one identifier, or null when no such row exists. */
+export interface IdentifierRegistrationDto {
+  identifier: string;
+  kind: string;
+  datasetId: number;
+  versionId: number | null;
+  registered: boolean;
+  attempts: number;
+  lastError: string | null;
+  registeredAt: Date | null;
+}
+
+export async function getIdentifierRegistration({ identifier }: { identifier: string }): Promise<IdentifierRegistrationDto | null> {
+  const [row] = await getDb()
+    .select({
+      identifier: identifierRegistrations.identifier,
+      kind: identifierRegistrations.kind,
+      datasetId: identifierRegistrations.datasetId,
+      versionId: identifierRegistrations.versionId,
+      registered: identifierRegistrations.registered,
+      attempts: identifierRegistrations.attempts,
+      lastError: identifierRegistrations.lastError,
+      registeredAt: identifierRegistrations.registeredAt,
+    })
+    .from(identifierRegistrations)
+    .where(eq(identifierRegistrations.identifier, identifier));
+  return row ?? null;
+}
+
+export async function getRegistrationSubject({ identifier }: { identifier: string }): Promise<RegistrationSubject | null> {
+  const db = getDb();
+  const [reg] = await db
+    .select({
+      identifier: identifierRegistrations.identifier,
+      kind: identifierRegistrations.kind,
+      datasetId: identifierRegistrations.datasetId,
+      versionId: identifierRegistrations.versionId,
+      registered: identifierRegistrations.registered,
+      attempts: identifierRegistrations.attempts,
+      seriesIdentifier: datasets.seriesIdentifier,
+    })
+    .from(identifierRegistrations)
+    .innerJoin(datasets, eq(datasets.id, identifierRegistrations.datasetId))
+    .where(eq(identifierRegistrations.identifier, identifier));
+  if (!reg) return null;
+
+  const versions = (
+    await db
+      .select({ id: datasetVersions.id, number: datasetVersions.number, versionIdentifier: datasetVersions.versionIdentifier, state: datasetVersions.state, publishedAt: datasetVersions.publishedAt })
+      .from(datasetVersions)
+      .where(and(eq(datasetVersions.datasetId, reg.datasetId), isNotNull(datasetVersions.versionIdentifier)))
+      .orderBy(asc(datasetVersions.number))
+  ).map((v) => ({ ...v, versionIdentifier: v.versionIdentifier! }));
+
+  // A series describes its newest published version; if all are retracted, the newest of those.
+  const describedId =
+    reg.kind === "version" ? reg.versionId : ([...versions].reverse().find((v) => v.state === "published") ?? versions[versions.length - 1])?.id;
+  const [described] = describedId
+    ? await db
+        .select({ id: datasetVersions.id, number: datasetVersions.number, title: datasetVersions.title, payload: datasetVersions.payload, publishedAt: datasetVersions.publishedAt })
+        .from(datasetVersions)
+        .where(eq(datasetVersions.id, describedId))
+    : [];
+
+  return {
+    identifier: reg.identifier,
+    kind: reg.kind === "version" ? "version" : "series",
+    datasetId: reg.datasetId,
+    registered: reg.registered,
+    attempts: reg.attempts,
+    seriesIdentifier: reg.seriesIdentifier,
+    described: described ?? null,
+    versions,
+  };
+}
+
+/** Identifiers not yet registered, versions before series, oldest first. */
+export async function listPendingIdentifiers({ datasetId }: { datasetId?: number } = {}): Promise<string[]> {
+  const rows = await getDb()
+    .select({ identifier: identifierRegistrations.identifier })
+    .from(identifierRegistrations)
+    .where(and(eq(identifierRegistrations.registered, false), datasetId === undefined ? undefined : eq(identifierRegistrations.datasetId, datasetId)))
+    .orderBy(desc(identifierRegistrations.kind), asc(identifierRegistrations.createdAt), asc(identifierRegistrations.identifier));
+  return rows.map((r) => r.identifier);
+}
+
+/** Marks one accepted registration (or metadata update): counts the attempt, clears the last error. */
+export async function recordRegistrationSuccess({ identifier }: { identifier: string }): Promise<void> {
+  await getDb()
+    .update(identifierRegistrations)
+    .set({ registered: true, registeredAt: sql`coalesce(${identifierRegistrations.registeredAt}, now())`, attempts: sql`${identifierRegistrations.attempts} + 1`, lastError: null })
+    .where(eq(identifierRegistrations.identifier, identifier));
+}
+
+/** Counts one failed attempt and keeps its message (first 2 000 characters) for admins. */
+export async function recordRegistrationFailure({ identifier, error }: { identifier: string; error: string }): Promise<void> {
+  await getDb()
+    .update(identifierRegistrations)
+    .set({ attempts: sql`${identifierRegistrations.attempts} + 1`, lastError: error.slice(0, 2000) })
+    .where(eq(identifierRegistrations.identifier, identifier));
+}

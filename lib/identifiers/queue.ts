@@ -1,0 +1,19 @@
+import { getSender, retryPolicy } from "@/lib/jobs/boss";
+
+/** Job data of the `register-identifier` queue. */
+export interface IdentifierJob {
+  identifier: string;
+  /** Re-send the metadata of an identifier already registered (a series after a new version). */
+  refresh?: boolean;
+}
+
+/**
+ * Queues the registration of one minted identifier; call it after the transaction that minted it
+ * has committed. The worker retries with backoff while the agency is down, and registration is
+ * idempotent, so queuing the same identifier twice is harmless.
+ */
+export async function enqueueIdentifierRegistration(identifier: string, { refresh = false }: { refresh?: boolean } = {}): Promise<string | null> {
+  const boss = await getSender();
+  const data: IdentifierJob = refresh ? { identifier, refresh } : { identifier };
+  return boss.send("register-identifier", data, retryPolicy);
+}
