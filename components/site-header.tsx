@@ -8,6 +8,8 @@ export async function SiteHeader() {
   const user = await getCurrentUser();
   const links: { href: string; label: string }[] = [{ href: "/analyse", label: "Fit data" }];
   if (user) {
+    if (can(user.role, "dataset.deposit")) links.push({ href: "/deposits", label: "My deposits" });
+    if (can(user.role, "dataset.review")) links.push({ href: "/review", label: "Review" });
     if (can(user.role, "user.manage")) links.push({ href: "/admin/people", label: "People" });
     if (can(user.role, "mail.read")) links.push({ href: "/admin/mail", label: "Mail" });
     links.push({ href: "/settings", label: "Settings" });

@@ -226,3 +226,12 @@ export async function listDecisions({ versionId }: { versionId: number }) {
     .where(eq(decisions.versionId, versionId))
     .orderBy(desc(decisions.createdAt));
 }
+
+/** Stored canonical points of a version, in order. */
+export async function getVersionPoints({ versionId }: { versionId: number }) {
+  return getDb()
+    .select({ T: versionPoints.temperatureK, k: versionPoints.rateConstant, sigmaLnK: versionPoints.sigmaLnK })
+    .from(versionPoints)
+    .where(eq(versionPoints.versionId, versionId))
+    .orderBy(versionPoints.idx);
+}

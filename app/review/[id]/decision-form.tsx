@@ -1,0 +1,97 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState, useTransition } from "react";
+import { transitionAction } from "@/app/deposits/actions";
+import type { Transition } from "@/lib/curation/lifecycle";
+
+const decisions: { value: Transition; label: string; hint: string }[] = [
+  { value: "accept", label: "Accept and publish", hint: "The version is frozen and gets its identifier." },
+  { value: "request_changes", label: "Request changes", hint: "The authors get your reason and can resubmit." },
+  { value: "decline", label: "Decline", hint: "The version will not be published." },
+];
+
+/** Start the review, or record a decision with its reason; or retract a published version. */
+export function DecisionForm({ versionId, state, coEditing }: { versionId: number; state: string; coEditing: boolean }) {
+  const router = useRouter();
+  const [pending, start] = useTransition();
+  const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const [choice, setChoice] = useState<Transition>("accept");
+  const [reason, setReason] = useState("");
+
+  function run(t: Transition, why?: string) {
+    start(async () => {
+      const r = await transitionAction(versionId, t, why);
+      if (r.ok) {
+        setMessage({ ok: true, text: `Done: the version is now ${r.state.replace("_", " ")}.` });
+        setReason("");
+        router.refresh();
+      } else setMessage({ ok: false, text: r.message });
+    });
+  }
+
+  if (coEditing) return <p className="text-sm text-muted">You co-edit this dataset, so another curator must review it.</p>;
+  const feedback = message && (
+    <p role={message.ok ? "status" : "alert"} className={`text-sm ${message.ok ? "text-ok" : "text-error"}`}>
+      {message.text}
+    </p>
+  );
+
+  if (state === "published") {
+    return (
+      <form
+        className="space-y-3"
+        onSubmit={(e) => {
+          e.preventDefault();
+          run("retract", reason);
+        }}
+      >
+        {feedback}
+        <label htmlFor="retract-notice" className="block text-sm font-medium">
+          Retraction notice (shown publicly with the version)
+        </label>
+        <textarea id="retract-notice" value={reason} onChange={(e) => setReason(e.target.value)} rows={3} className="field-input" required minLength={3} />
+        <button type="submit" className="btn-danger" disabled={pending}>
+          Retract this version
+        </button>
+      </form>
+    );
+  }
+  if (state !== "submitted" && state !== "in_review") return <p className="text-sm text-muted">Nothing to decide in this state.</p>;
+  return (
+    <div className="space-y-4">
+      {feedback}
+      {state === "submitted" && (
+        <button type="button" className="btn-secondary" disabled={pending} onClick={() => run("start_review")}>
+          Take into review
+        </button>
+      )}
+      <form
+        className="space-y-3"
+        onSubmit={(e) => {
+          e.preventDefault();
+          run(choice, reason);
+        }}
+      >
+        <fieldset className="space-y-2">
+          <legend className="text-sm font-medium">Decision</legend>
+          {decisions.map((d) => (
+            <label key={d.value} className="flex items-start gap-2 text-sm">
+              <input type="radio" name="decision" value={d.value} checked={choice === d.value} onChange={() => setChoice(d.value)} className="mt-1" />
+              <span>
+                <span className="font-medium">{d.label}</span> <span className="text-muted">— {d.hint}</span>
+              </span>
+            </label>
+          ))}
+        </fieldset>
+        <label htmlFor="decision-reason" className="block text-sm font-medium">
+          Reason (sent to the authors and kept on the record)
+        </label>
+        <textarea id="decision-reason" value={reason} onChange={(e) => setReason(e.target.value)} rows={4} className="field-input" required minLength={3} />
+        <button type="submit" className="btn-primary" disabled={pending}>
+          {pending ? "Recording…" : "Record the decision"}
+        </button>
+      </form>
+    </div>
+  );
+}

@@ -1,0 +1,92 @@
+import type { Metadata } from "next";
+import { z } from "zod";
+import { requirePagePermission } from "@/lib/auth/page-guard";
+import { QUEUE_SORTS, listReviewQueue } from "@/lib/curation/queries";
+import { REACTION_CLASSES } from "@/lib/deposits";
+import { QueueTable } from "./queue-table";
+
+export const metadata: Metadata = { title: "Review queue" };
+
+const queueParams = z.object({
+  state: z.enum(["submitted", "in_review", "changes_requested", "all"]).catch("all"),
+  class: z.string().max(40).optional().catch(undefined),
+  flag: z.string().max(40).optional().catch(undefined),
+  older: z.coerce.number().int().min(0).max(3650).optional().catch(undefined),
+  sort: z.enum(QUEUE_SORTS).catch("submitted"),
+  dir: z.enum(["asc", "desc"]).catch("asc"),
+  page: z.coerce.number().int().min(1).catch(1),
+});
+
+const flagOptions = ["unbalanced", "implausible_magnitude", "outlier", "curvature", "reported_fit_disagrees", "excess_scatter", "narrow_range"];
+
+export default async function ReviewQueuePage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
+  await requirePagePermission("dataset.review", "/review");
+  const q = queueParams.parse(await searchParams);
+  const result = await listReviewQueue({
+    states: q.state === "all" ? undefined : [q.state],
+    reactionClass: q.class || undefined,
+    flag: q.flag || undefined,
+    olderThanDays: q.older || undefined,
+    sort: q.sort,
+    direction: q.dir,
+    page: q.page,
+  });
+  return (
+    <div className="space-y-6">
+      <header>
+        <h1 className="text-3xl font-semibold">Review queue</h1>
+        <p className="text-sm text-muted">Versions submitted for review, with their checks already run. Oldest first unless you sort otherwise.</p>
+      </header>
+      <form method="get" className="card flex flex-wrap items-end gap-4 py-4" aria-label="Filter the queue">
+        <label className="space-y-1 text-sm">
+          <span className="block font-medium">State</span>
+          <select name="state" defaultValue={q.state} className="field-input">
+            <option value="all">waiting (all)</option>
+            <option value="submitted">submitted</option>
+            <option value="in_review">in review</option>
+            <option value="changes_requested">changes requested</option>
+          </select>
+        </label>
+        <label className="space-y-1 text-sm">
+          <span className="block font-medium">Reaction class</span>
+          <select name="class" defaultValue={q.class ?? ""} className="field-input">
+            <option value="">any</option>
+            {REACTION_CLASSES.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.label}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="space-y-1 text-sm">
+          <span className="block font-medium">Has check</span>
+          <select name="flag" defaultValue={q.flag ?? ""} className="field-input">
+            <option value="">any</option>
+            {flagOptions.map((f) => (
+              <option key={f} value={f}>
+                {f.replace(/_/g, " ")}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="space-y-1 text-sm">
+          <span className="block font-medium">Waiting at least (days)</span>
+          <input name="older" type="number" min={0} defaultValue={q.older ?? ""} className="field-input w-28" />
+        </label>
+        <input type="hidden" name="sort" value={q.sort} />
+        <input type="hidden" name="dir" value={q.dir} />
+        <button type="submit" className="btn-secondary">
+          Apply filters
+        </button>
+      </form>
+      <QueueTable
+        rows={result.rows.map((r) => ({ ...r, submittedAt: r.submittedAt?.toISOString() ?? null }))}
+        total={result.total}
+        page={result.page}
+        pageSize={result.pageSize}
+        sort={q.sort}
+        direction={q.dir}
+      />
+    </div>
+  );
+}

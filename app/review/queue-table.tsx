@@ -1,0 +1,132 @@
+"use client";
+
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import Link from "next/link";
+import { usePathname, useRouter, useSearchParams } from "next/navigation";
+import { SeverityLabel, StateLabel } from "@/components/state-label";
+
+export interface QueueRow {
+  versionId: number;
+  number: number;
+  title: string;
+  state: string;
+  submittedAt: string | null;
+  worstFlag: string | null;
+  flagCodes: string[] | null;
+  reactionClass: string | null;
+  pointCount: number;
+  tMin: number | null;
+  tMax: number | null;
+  owner: string;
+}
+
+const col = createColumnHelper<QueueRow>();
+const sortKeyOf: Record<string, string> = { title: "title", submittedAt: "submitted", worstFlag: "severity", pointCount: "points" };
+
+function age(iso: string | null): string {
+  if (!iso) return "—";
+  const days = Math.floor((Date.now() - new Date(iso).getTime()) / 86_400_000);
+  return days < 1 ? "today" : `${days} day${days === 1 ? "" : "s"}`;
+}
+
+const columns = [
+  col.accessor("title", { header: "Dataset", cell: (c) => <Link href={`/review/${c.row.original.versionId}`}>{c.getValue()}</Link>, enableSorting: true }),
+  col.accessor("number", { header: "Version", cell: (c) => `v${c.getValue()}`, enableSorting: false }),
+  col.accessor("owner", { header: "Owner", enableSorting: false }),
+  col.accessor("state", { header: "State", cell: (c) => <StateLabel state={c.getValue()} />, enableSorting: false }),
+  col.accessor("reactionClass", { header: "Class", cell: (c) => (c.getValue() ?? "—").replace(/_/g, " "), enableSorting: false }),
+  col.accessor("worstFlag", { header: "Checks", cell: (c) => <SeverityLabel severity={c.getValue()} />, enableSorting: true }),
+  col.accessor("pointCount", { header: "Points", enableSorting: true }),
+  col.display({ id: "range", header: "T range (K)", cell: (c) => (c.row.original.tMin === null ? "—" : `${Math.round(c.row.original.tMin)}–${Math.round(c.row.original.tMax ?? 0)}`) }),
+  col.accessor("submittedAt", { header: "Waiting", cell: (c) => age(c.getValue()), enableSorting: true }),
+];
+
+/** The review queue: sorting and paging happen on the server; the table only reflects the URL. */
+export function QueueTable({ rows, total, page, pageSize, sort, direction }: { rows: QueueRow[]; total: number; page: number; pageSize: number; sort: string; direction: "asc" | "desc" }) {
+  const router = useRouter();
+  const pathname = usePathname();
+  const params = useSearchParams();
+  const sortingColumn = Object.entries(sortKeyOf).find(([, v]) => v === sort)?.[0] ?? "submittedAt";
+  const sorting: SortingState = [{ id: sortingColumn, desc: direction === "desc" }];
+
+  function go(changes: Record<string, string>) {
+    const next = new URLSearchParams(params.toString());
+    for (const [k, v] of Object.entries(changes)) next.set(k, v);
+    router.push(`${pathname}?${next.toString()}`);
+  }
+
+  // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table v8 is not compiler-memoizable; this component is not memoized.
+  const table = useReactTable({
+    data: rows,
+    columns,
+    state: { sorting },
+    manualSorting: true,
+    manualPagination: true,
+    pageCount: Math.max(1, Math.ceil(total / pageSize)),
+    getCoreRowModel: getCoreRowModel(),
+    onSortingChange: (updater) => {
+      const next = typeof updater === "function" ? updater(sorting) : updater;
+      const first = next[0];
+      if (first) go({ sort: sortKeyOf[first.id] ?? "submitted", dir: first.desc ? "desc" : "asc", page: "1" });
+    },
+  });
+  const pages = Math.max(1, Math.ceil(total / pageSize));
+
+  return (
+    <div className="space-y-3">
+      <div className="card overflow-x-auto p-0">
+        <table className="table">
+          <thead>
+            {table.getHeaderGroups().map((hg) => (
+              <tr key={hg.id}>
+                {hg.headers.map((h) => {
+                  const sorted = h.column.getIsSorted();
+                  return (
+                    <th key={h.id} scope="col" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}>
+                      {h.column.getCanSort() ? (
+                        <button type="button" className="font-semibold hover:underline" onClick={h.column.getToggleSortingHandler()}>
+                          {flexRender(h.column.columnDef.header, h.getContext())}
+                          <span aria-hidden="true">{sorted === "asc" ? " ▲" : sorted === "desc" ? " ▼" : ""}</span>
+                        </button>
+                      ) : (
+                        flexRender(h.column.columnDef.header, h.getContext())
+                      )}
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.length === 0 ? (
+              <tr>
+                <td colSpan={columns.length} className="text-muted">
+                  Nothing waits for review with these filters.
+                </td>
+              </tr>
+            ) : (
+              table.getRowModel().rows.map((r) => (
+                <tr key={r.id}>
+                  {r.getVisibleCells().map((c) => (
+                    <td key={c.id}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>
+                  ))}
+                </tr>
+              ))
+            )}
+          </tbody>
+        </table>
+      </div>
+      <nav aria-label="Pages" className="flex items-center gap-3 text-sm">
+        <button type="button" className="btn-secondary py-1" disabled={page <= 1} onClick={() => go({ page: String(page - 1) })}>
+          Previous
+        </button>
+        <span>
+          Page {page} of {pages} · {total} version{total === 1 ? "" : "s"}
+        </span>
+        <button type="button" className="btn-secondary py-1" disabled={page >= pages} onClick={() => go({ page: String(page + 1) })}>
+          Next
+        </button>
+      </nav>
+    </div>
+  );
+}

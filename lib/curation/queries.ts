@@ -1,0 +1,108 @@
+import "server-only";
+import { and, asc, count, desc, eq, inArray, lt, ne, or, sql, type SQL } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { datasets, datasetVersions } from "@/db/datasets";
+import { users } from "@/db/users";
+import type { VersionState } from "./lifecycle";
+
+export const QUEUE_STATES: VersionState[] = ["submitted", "in_review", "changes_requested"];
+export const QUEUE_SORTS = ["submitted", "title", "severity", "points"] as const;
+export type QueueSort = (typeof QUEUE_SORTS)[number];
+
+export interface QueueQuery {
+  states?: VersionState[];
+  reactionClass?: string;
+  flag?: string;
+  /** Only versions waiting longer than this many days. */
+  olderThanDays?: number;
+  sort?: QueueSort;
+  direction?: "asc" | "desc";
+  page?: number;
+  pageSize?: number;
+}
+
+const severityOrder = sql`case ${datasetVersions.worstFlag} when 'error' then 3 when 'warn' then 2 when 'info' then 1 else 0 end`;
+const reactionClass = sql<string>`${datasetVersions.payload} -> 'reaction' ->> 'class'`;
+
+/** The curators' queue: filtered, sorted and paginated in the database. */
+export async function listReviewQueue(q: QueueQuery) {
+  const db = getDb();
+  const pageSize = Math.min(Math.max(q.pageSize ?? 20, 5), 100);
+  const page = Math.max(q.page ?? 1, 1);
+  const where: SQL[] = [inArray(datasetVersions.state, q.states?.length ? q.states : QUEUE_STATES)];
+  if (q.reactionClass) where.push(eq(reactionClass, q.reactionClass));
+  if (q.flag) where.push(sql`${q.flag} = any(${datasetVersions.flagCodes})`);
+  if (q.olderThanDays) where.push(lt(datasetVersions.submittedAt, new Date(Date.now() - q.olderThanDays * 86_400_000)));
+  const dir = q.direction === "desc" ? desc : asc;
+  const order =
+    q.sort === "title" ? dir(datasetVersions.title) : q.sort === "severity" ? dir(severityOrder) : q.sort === "points" ? dir(datasetVersions.pointCount) : dir(datasetVersions.submittedAt);
+  const rows = await db
+    .select({
+      versionId: datasetVersions.id,
+      datasetId: datasetVersions.datasetId,
+      number: datasetVersions.number,
+      title: datasetVersions.title,
+      state: datasetVersions.state,
+      submittedAt: datasetVersions.submittedAt,
+      worstFlag: datasetVersions.worstFlag,
+      flagCodes: datasetVersions.flagCodes,
+      reactionClass,
+      pointCount: datasetVersions.pointCount,
+      tMin: datasetVersions.tMin,
+      tMax: datasetVersions.tMax,
+      owner: users.name,
+    })
+    .from(datasetVersions)
+    .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
+    .innerJoin(users, eq(users.id, datasets.ownerId))
+    .where(and(...where))
+    .orderBy(order, asc(datasetVersions.id))
+    .limit(pageSize)
+    .offset((page - 1) * pageSize);
+  const [{ n }] = await db.select({ n: count() }).from(datasetVersions).where(and(...where));
+  return { rows, total: n, page, pageSize };
+}
+
+/** Other versions that may hold the same data: same reaction with overlapping temperatures, or the same source DOI. */
+export async function findPossibleDuplicates({ versionId }: { versionId: number }) {
+  const db = getDb();
+  const [me] = await db
+    .select({ datasetId: datasetVersions.datasetId, reactionId: datasets.reactionId, tMin: datasetVersions.tMin, tMax: datasetVersions.tMax, doi: sql<string | null>`${datasetVersions.payload} -> 'source' ->> 'doi'` })
+    .from(datasetVersions)
+    .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
+    .where(eq(datasetVersions.id, versionId));
+  if (!me) return [];
+  const sameReactionOverlap =
+    me.reactionId !== null && me.tMin !== null && me.tMax !== null
+      ? and(eq(datasets.reactionId, me.reactionId), sql`${datasetVersions.tMin} <= ${me.tMax}`, sql`${datasetVersions.tMax} >= ${me.tMin}`)
+      : undefined;
+  const sameDoi = me.doi ? sql`lower(${datasetVersions.payload} -> 'source' ->> 'doi') = lower(${me.doi})` : undefined;
+  const match = [sameReactionOverlap, sameDoi].filter(Boolean) as SQL[];
+  if (!match.length) return [];
+  return db
+    .select({
+      versionId: datasetVersions.id,
+      datasetId: datasetVersions.datasetId,
+      number: datasetVersions.number,
+      title: datasetVersions.title,
+      state: datasetVersions.state,
+      tMin: datasetVersions.tMin,
+      tMax: datasetVersions.tMax,
+      sameDoi: sameDoi ? sql<boolean>`${sameDoi}` : sql<boolean>`false`,
+    })
+    .from(datasetVersions)
+    .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
+    .where(and(ne(datasetVersions.datasetId, me.datasetId), inArray(datasetVersions.state, ["submitted", "in_review", "changes_requested", "published"]), or(...match)))
+    .limit(20);
+}
+
+/** The version before this one of the same dataset (the newest published, else the newest older). */
+export async function getPreviousVersion({ datasetId, number }: { datasetId: number; number: number }) {
+  const [row] = await getDb()
+    .select({ id: datasetVersions.id, number: datasetVersions.number, payload: datasetVersions.payload, state: datasetVersions.state })
+    .from(datasetVersions)
+    .where(and(eq(datasetVersions.datasetId, datasetId), lt(datasetVersions.number, number)))
+    .orderBy(desc(datasetVersions.number))
+    .limit(1);
+  return row ?? null;
+}
