@@ -7,6 +7,7 @@ import { captureSmtpPort, databaseUrl, doiApiAuth, doiApiUrl, doiFakePort, fakeD
 import { startFakeDoiService } from "@/lib/identifiers/fake-service";
 import { doiPrefix } from "@/lib/identifiers/mint";
 import { startWorkers } from "@/lib/jobs/worker";
+import { enqueuePendingIdentifierRegistrations } from "@/lib/identifiers/queue";
 import { startCaptureServer } from "@/lib/mail/capture-server";
 import { DEMO_PASSWORD, demoAccounts } from "@/db/seed-data";
 
@@ -18,6 +19,7 @@ const sql = postgres(databaseUrl(), { max: 2, onnotice: () => {} });
 const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captureSmtpPort() }) : null;
 const fakeDoi = usesFakeDoiService() ? await startFakeDoiService({ port: doiFakePort(), dataDir: fakeDoiDataDir(), auth: doiApiAuth() }) : null;
 const workers = await startWorkers();
+const pendingIdentifiers = await enqueuePendingIdentifierRegistrations();
 
 const next = spawn("node_modules/.bin/next", ["start", "-H", host, "-p", String(port)], { stdio: ["ignore", "inherit", "inherit"], env: process.env });
 
@@ -38,7 +40,7 @@ if (!quiet) {
   console.log(`
   Arrhenia is running at http://${host}:${port}
   Mail: ${capture ? `captured locally (SMTP 127.0.0.1:${captureSmtpPort()}); admins read it at /admin/mail` : "sent through SMTP_URL"}
-  Identifiers (prefix ${doiPrefix()}): ${fakeDoi ? `registered with the local fake DOI service at ${fakeDoi.url}${fakeDoiDataDir() ? ` (records in ${fakeDoiDataDir()})` : ""}` : `registered through ${doiApiUrl()}`}
+  Identifiers (prefix ${doiPrefix()}): ${fakeDoi ? `registered with the local fake DOI service at ${fakeDoi.url}${fakeDoiDataDir() ? ` (records in ${fakeDoiDataDir()})` : ""}` : `registered through ${doiApiUrl()}`}${pendingIdentifiers ? ` — ${pendingIdentifiers} waiting, queued now` : ""}
 
   Demo accounts (password for all: ${DEMO_PASSWORD})
 ${demoAccounts.map((a) => `    ${a.email.padEnd(width)}  ${a.role.padEnd(10)}  ${a.name}`).join("\n")}

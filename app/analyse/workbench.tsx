@@ -7,7 +7,7 @@ import type { AnalysisResponse } from "@/lib/analyses/analyse-request";
 import { parseColumns } from "@/lib/analyses/parse-columns";
 import { SUPPORTED_UNITS, convertEnergy, fromCanonicalRateConstant, toCanonicalRateConstant, toKelvin } from "@/lib/kinetics/units";
 import type { ReactionOrder } from "@/lib/kinetics/types";
-import { ResultTables } from "./result-tables";
+import { ResultTables } from "@/components/result-tables";
 
 interface Problem {
   title: string;

@@ -3,6 +3,7 @@ import { can } from "@/lib/auth/permissions";
 import { canEditDraft, type Transition } from "@/lib/curation/lifecycle";
 import { applyTransition } from "@/lib/curation/transitions";
 import { AppError } from "@/lib/errors";
+import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
 import { decisionMail, submissionMail } from "@/lib/mail/templates";
 import { listActiveCurators, type UserDto } from "@/lib/users/queries";
@@ -61,6 +62,12 @@ export async function transitionVersion({ actor, versionId, transition, reason }
   const title = found?.version.title ?? "your dataset";
   if (transition === "submit") {
     for (const c of await listActiveCurators()) await enqueueMail(submissionMail(c.email, c.name, title, versionId));
+  }
+  if (outcome.identifiers) {
+    // After the commit: the registration job retries until the agency has both identifiers.
+    await enqueueIdentifierRegistration(outcome.identifiers.version);
+    // A later version changes what the series record lists, so it is sent again.
+    await enqueueIdentifierRegistration(outcome.identifiers.series, (found?.version.number ?? 1) > 1 ? { refresh: true } : {});
   }
   if (transition === "accept" || transition === "request_changes" || transition === "decline" || transition === "retract") {
     const members = await listDatasetMembers({ datasetId: outcome.datasetId });

@@ -235,3 +235,14 @@ export async function getVersionPoints({ versionId }: { versionId: number }) {
     .where(eq(versionPoints.versionId, versionId))
     .orderBy(versionPoints.idx);
 }
+
+/** True when the person owns a dataset whose first version has this title (keeps seeding idempotent). */
+export async function hasDatasetTitled({ ownerId, title }: { ownerId: number; title: string }): Promise<boolean> {
+  const [row] = await getDb()
+    .select({ id: datasetVersions.id })
+    .from(datasetVersions)
+    .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
+    .where(and(eq(datasets.ownerId, ownerId), eq(datasetVersions.number, 1), eq(datasetVersions.title, title)))
+    .limit(1);
+  return Boolean(row);
+}

@@ -1,4 +1,5 @@
 import { getSender, retryPolicy } from "@/lib/jobs/boss";
+import { listPendingIdentifiers } from "./queries";
 
 /** Job data of the `register-identifier` queue. */
 export interface IdentifierJob {
@@ -16,4 +17,11 @@ export async function enqueueIdentifierRegistration(identifier: string, { refres
   const boss = await getSender();
   const data: IdentifierJob = refresh ? { identifier, refresh } : { identifier };
   return boss.send("register-identifier", data, retryPolicy);
+}
+
+/** Queues every identifier not yet registered (at start-up: nothing minted is ever left behind). */
+export async function enqueuePendingIdentifierRegistrations(): Promise<number> {
+  const pending = await listPendingIdentifiers();
+  for (const identifier of pending) await enqueueIdentifierRegistration(identifier);
+  return pending.length;
 }

@@ -26,8 +26,11 @@ describe("mail queue when the relay is down", () => {
     stops.push(capture.close);
     const mail = await waitForMail(to, { timeoutMs: 30_000 });
     expect(mail.subject).toBe("Held back");
-    const [job] = await sql`select state, retry_count from pgboss.job where id = ${jobId!}`;
-    expect(job.state).toBe("completed");
+    // pg-boss marks the job complete just after the handler returns: poll rather than read once.
+    await expect
+      .poll(async () => (await sql`select state, retry_count from pgboss.job where id = ${jobId!}`)[0], { timeout: 10_000, interval: 200 })
+      .toMatchObject({ state: "completed" });
+    const [job] = await sql`select retry_count from pgboss.job where id = ${jobId!}`;
     expect(job.retry_count).toBeGreaterThanOrEqual(1);
   });
 });

@@ -11,8 +11,10 @@ interface Props {
   energyLabel: string;
   convertK: (k: number) => number;
   convertE: (joulesPerMole: number) => number;
-  /** Pasted line of a zero-based point index. */
+  /** Pasted line (or table row) of a zero-based point index. */
   lineOf: (index: number) => number | undefined;
+  /** What lineOf numbers are called on screen; "Pasted line" when not given. */
+  pointWord?: string;
 }
 
 function sig(v: number | null | undefined, digits = 4): string {
@@ -29,7 +31,7 @@ const severityStyle: Record<Flag["severity"], string> = {
 };
 
 /** Fitted parameters in the units the person chose, and the flags in plain words. */
-export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE, lineOf }: Props) {
+export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE, lineOf, pointWord = "Pasted line" }: Props) {
   const a = analysis.arrhenius;
   const m = analysis.modifiedArrhenius;
   const e = analysis.eyring;
@@ -95,7 +97,7 @@ export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE
               <li key={i} className={`rounded-md border bg-panel px-3 py-2 text-sm ${severityStyle[f.severity]}`}>
                 <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold uppercase tracking-wide">{f.severity}</span>
                 {f.message}
-                {f.points && f.points.length > 0 && <span className="block text-xs text-muted">Pasted line{f.points.length > 1 ? "s" : ""}: {f.points.map((p) => lineOf(p) ?? p + 1).join(", ")}</span>}
+                {f.points && f.points.length > 0 && <span className="block text-xs text-muted">{pointWord}{f.points.length > 1 ? "s" : ""}: {f.points.map((p) => lineOf(p) ?? p + 1).join(", ")}</span>}
               </li>
             ))}
           </ul>

@@ -1,0 +1,67 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound, redirect } from "next/navigation";
+import { DepositEditor } from "@/components/deposit-editor/deposit-editor";
+import type { StoredCheck } from "@/components/deposit-editor/words";
+import { stateWords } from "@/components/deposit-editor/words";
+import { getCurrentUser } from "@/lib/auth/session";
+import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
+import { getLatestAnalysis, listDatasetMembers, listDecisions } from "@/lib/datasets/queries";
+import type { DepositDocument } from "@/lib/deposits/types";
+import { AppError } from "@/lib/errors";
+
+export const metadata: Metadata = { title: "Deposit" };
+
+function parseId(raw: string): number | null {
+  return /^[1-9]\d{0,9}$/.test(raw) && Number(raw) <= 2_147_483_647 ? Number(raw) : null;
+}
+
+/** The stored checks of a version: identity, balance and magnitude, then the fit's flags. */
+function storedChecks(analysis: Awaited<ReturnType<typeof getLatestAnalysis>>): StoredCheck[] {
+  if (!analysis) return [];
+  const flags = ((analysis.result as { flags?: StoredCheck[] } | null)?.flags ?? []).map(({ code, severity, message }) => ({ code, severity, message }));
+  const checks = ((analysis.checks as StoredCheck[] | null) ?? []).map(({ code, severity, message }) => ({ code, severity, message }));
+  return [...checks, ...flags];
+}
+
+export default async function DepositPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const versionId = parseId(id);
+  const user = await getCurrentUser();
+  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(`/deposits/${id}`)}`);
+  if (versionId === null) notFound();
+
+  let found;
+  try {
+    found = await getVisibleVersionOrThrow({ versionId, viewer: user });
+  } catch (err) {
+    if (err instanceof AppError && err.code === "not_found") notFound();
+    throw err;
+  }
+  const { version, datasetRole } = found;
+  const [analysis, decisions, members] = await Promise.all([getLatestAnalysis({ versionId }), listDecisions({ versionId }), datasetRole ? listDatasetMembers({ datasetId: version.datasetId }) : Promise.resolve([])]);
+
+  return (
+    <div className="space-y-6">
+      <header className="space-y-2">
+        <p className="text-sm">
+          <Link href="/deposits">My deposits</Link> / v{version.number}
+        </p>
+        <h1 className="text-3xl font-semibold">{version.title || "Untitled deposit"}</h1>
+        <p className="text-sm text-muted">
+          Version {version.number}, {stateWords(version.state)}.
+        </p>
+      </header>
+      <DepositEditor
+        mode="existing"
+        version={{ id: version.id, number: version.number, state: version.state, versionIdentifier: version.versionIdentifier, retractionNotice: version.retractionNotice }}
+        payload={version.payload as unknown as DepositDocument}
+        lockVersion={version.lockVersion}
+        role={datasetRole}
+        checks={storedChecks(analysis)}
+        decisions={decisions.map((d) => ({ id: d.id, decision: d.decision, reason: d.reason, curator: d.curator, createdAt: d.createdAt.toISOString() }))}
+        members={members.map((m) => ({ name: m.name, role: m.role }))}
+      />
+    </div>
+  );
+}
