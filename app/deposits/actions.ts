@@ -6,6 +6,7 @@ import { getCurrentUser } from "@/lib/auth/session";
 import { assertAllowed } from "@/lib/auth/guard";
 import type { Transition } from "@/lib/curation/lifecycle";
 import { depositNewDataset, transitionVersion, updateDraft } from "@/lib/datasets/deposits";
+import { inviteCoEditor } from "@/lib/datasets/invitations";
 import { parseDepositJson } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
 
@@ -16,6 +17,7 @@ export type EditorResult =
 
 function failure(err: unknown): EditorResult {
   if (err instanceof AppError) return { ok: false, status: err.status, message: err.message, errors: err.errors };
+  if (err instanceof z.ZodError) return { ok: false, status: 422, message: err.issues[0]?.message ?? "Invalid input", errors: [] };
   console.error("[deposits] action failed", err);
   return { ok: false, status: 500, message: "Something went wrong on our side; it has been logged. Nothing was stored.", errors: [] };
 }
@@ -67,5 +69,20 @@ export async function transitionAction(versionId: number, transition: Transition
     return { ok: true, versionId, lockVersion: 0, state: out.to };
   } catch (err) {
     return failure(err);
+  }
+}
+
+const inviteSchema = z.object({ email: z.string().trim().toLowerCase().email("Enter an e-mail address"), role: z.enum(["editor", "viewer"]) });
+
+/** The owner invites a co-editor by e-mail (the link is valid for 7 days). */
+export async function inviteAction(versionId: number, email: string, role: "editor" | "viewer"): Promise<{ ok: boolean; message: string }> {
+  try {
+    const { user } = await actorOrThrow();
+    const input = inviteSchema.parse({ email, role });
+    await inviteCoEditor({ actor: user, versionId, ...input });
+    return { ok: true, message: `Invitation sent to ${input.email}.` };
+  } catch (err) {
+    const r = failure(err);
+    return { ok: false, message: r.ok ? "" : r.message };
   }
 }

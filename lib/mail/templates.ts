@@ -69,3 +69,13 @@ export function decisionMail(to: string, name: string, title: string, versionId:
     url: `${appUrl()}/deposits/${versionId}`,
   });
 }
+
+export function invitationMail(to: string, name: string, inviter: string, title: string, role: "editor" | "viewer", secret: string): MailMessage {
+  return compose(
+    to,
+    `${inviter} invites you to ${role === "editor" ? "co-edit" : "read"} a dataset on Arrhenia`,
+    name,
+    [`${inviter} invites you to ${role === "editor" ? "work on" : "read"} the dataset “${title}” as ${role === "editor" ? "an editor" : "a viewer"}.`, "Sign in (or create an account with this address) and open the link. It works once, for 7 days."],
+    { label: "Accept the invitation", url: `${appUrl()}/invitations/accept?token=${encodeURIComponent(secret)}` },
+  );
+}
