@@ -1,0 +1,35 @@
+// GET /api/v1/files/:fileId — download a supplementary file (same visibility as its version)
+// DELETE /api/v1/files/:fileId — remove one from a draft (owner or editor)
+import { withApi } from "@/lib/auth/api";
+import { readVersionFile, removeVersionFile } from "@/lib/datasets/files";
+import { AppError } from "@/lib/errors";
+
+function idOf(raw: string) {
+  const id = Number(raw);
+  if (!Number.isInteger(id) || id <= 0) throw new AppError("not_found", "No such file");
+  return id;
+}
+
+export const GET = withApi<{ fileId: string }>(
+  async ({ user, params }) => {
+    const file = await readVersionFile({ viewer: user, fileId: idOf(params.fileId) });
+    return new Response(Buffer.from(file.content), {
+      headers: {
+        "content-type": file.contentType,
+        "content-length": String(file.sizeBytes),
+        "content-disposition": `attachment; filename="${file.filename.replace(/"/g, "")}"`,
+        "x-content-sha256": file.sha256,
+        "x-content-type-options": "nosniff",
+      },
+    });
+  },
+  { identify: true, scope: "read" },
+);
+
+export const DELETE = withApi<{ fileId: string }>(
+  async ({ user, params }) => {
+    await removeVersionFile({ actor: user!, fileId: idOf(params.fileId) });
+    return new Response(null, { status: 204 });
+  },
+  { permission: "dataset.deposit", scope: "deposit" },
+);
