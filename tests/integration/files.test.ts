@@ -31,7 +31,7 @@ async function draft() {
 
 function upload(versionId: number, name: string, content: Uint8Array | string) {
   const form = new FormData();
-  form.set("file", new File([content], name));
+  form.set("file", new File([typeof content === "string" ? content : new Blob([content.slice().buffer])], name));
   return postFile(new Request(`http://127.0.0.1/api/v1/versions/${versionId}/files`, { method: "POST", body: form }), { params: Promise.resolve({ id: String(versionId) }) });
 }
 

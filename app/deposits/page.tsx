@@ -1,0 +1,84 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { DateTime } from "@/components/date-time";
+import { ROLE_WORDS } from "@/components/deposit-editor/words";
+import { SeverityLabel, StateLabel } from "@/components/state-label";
+import { requirePagePermission } from "@/lib/auth/page-guard";
+import { listMyVersions } from "@/lib/datasets/queries";
+
+export const metadata: Metadata = { title: "My deposits" };
+
+function temperatureRange(tMin: number | null, tMax: number | null): string {
+  if (tMin === null || tMax === null) return "—";
+  const f = (t: number) => String(Math.round(t * 10) / 10);
+  return tMin === tMax ? `${f(tMin)} K` : `${f(tMin)}–${f(tMax)} K`;
+}
+
+export default async function MyDepositsPage() {
+  const user = await requirePagePermission("dataset.deposit", "/deposits");
+  const versions = (await listMyVersions({ userId: user.id })).sort((a, b) => b.updatedAt.getTime() - a.updatedAt.getTime());
+  return (
+    <div className="space-y-6">
+      <header className="flex flex-wrap items-end justify-between gap-4">
+        <div className="space-y-1">
+          <h1 className="text-3xl font-semibold">My deposits</h1>
+          <p className="text-sm text-muted">The datasets you own or co-edit, each at its newest version.</p>
+        </div>
+        <Link href="/deposits/new" className="btn-primary no-underline hover:no-underline">
+          New deposit
+        </Link>
+      </header>
+      {versions.length === 0 ? (
+        <div className="card space-y-2">
+          <p>You have no datasets yet.</p>
+          <p className="text-sm text-muted">
+            Start a <Link href="/deposits/new">new deposit</Link>: paste or upload a table of temperatures and rate constants, describe the reaction and where the numbers come from, and save it as a
+            draft. Nothing is public until a curator accepts it.
+          </p>
+        </div>
+      ) : (
+        <div className="card overflow-x-auto p-0">
+          <table className="table">
+            <caption className="sr-only">Your datasets, most recently changed first</caption>
+            <thead>
+              <tr>
+                <th scope="col">Title</th>
+                <th scope="col">Version</th>
+                <th scope="col">State</th>
+                <th scope="col">Your role</th>
+                <th scope="col">Worst check</th>
+                <th scope="col" className="text-right">
+                  Points
+                </th>
+                <th scope="col">Temperatures</th>
+                <th scope="col">Last change</th>
+              </tr>
+            </thead>
+            <tbody>
+              {versions.map((v) => (
+                <tr key={v.id}>
+                  <td className="max-w-md">
+                    <Link href={`/deposits/${v.id}`}>{v.title || "Untitled"}</Link>
+                  </td>
+                  <td>v{v.number}</td>
+                  <td>
+                    <StateLabel state={v.state} />
+                  </td>
+                  <td>{ROLE_WORDS[v.role]}</td>
+                  <td>
+                    <SeverityLabel severity={v.worstFlag} />
+                  </td>
+                  <td className="text-right tabular-nums">{v.pointCount.toLocaleString("en")}</td>
+                  <td className="whitespace-nowrap">{temperatureRange(v.tMin, v.tMax)}</td>
+                  <td className="whitespace-nowrap">
+                    <DateTime value={v.updatedAt} />
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,183 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState, useTransition } from "react";
+import { transitionAction } from "@/app/deposits/actions";
+import { CAUTION } from "@/lib/analyses/analyse-request";
+import type { CoEditorRole, Transition } from "@/lib/curation/lifecycle";
+import { CheckList } from "./check-list";
+import { InviteForm } from "./invite-form";
+import { blockingChecks, DECISION_WORDS, ROLE_WORDS, stateWords, type StoredCheck } from "./words";
+
+export interface DecisionView {
+  id: number;
+  decision: string;
+  reason: string;
+  curator: string;
+  /** ISO 8601. */
+  createdAt: string;
+}
+
+export interface MemberView {
+  name: string;
+  role: CoEditorRole;
+}
+
+export interface VersionView {
+  id: number;
+  number: number;
+  state: string;
+  versionIdentifier: string | null;
+  retractionNotice: string | null;
+}
+
+interface Props {
+  version: VersionView;
+  role: CoEditorRole | null;
+  checks: StoredCheck[];
+  decisions: DecisionView[];
+  members: MemberView[];
+  /** Unsaved edits: submitting sends the saved draft, so they must be saved first. */
+  dirty: boolean;
+}
+
+const STATE_EXPLAINED: Record<string, string> = {
+  draft: "Only you and your co-editors can see it. Submit it when it is ready for a curator.",
+  submitted: "Waiting for a curator. You can withdraw it to make more changes.",
+  in_review: "A curator is reviewing it. You can withdraw it to make more changes.",
+  changes_requested: "A curator asked for changes (see below). Edit the draft, save, and submit it again.",
+  published: "Public and citable. It can no longer be changed; a correction becomes a new version.",
+  declined: "A curator declined it; the reason is below.",
+  retracted: "Withdrawn from use by a curator; the notice below says why. It stays readable.",
+};
+
+function utc(iso: string): string {
+  return `${iso.slice(0, 16).replace("T", " ")} UTC`;
+}
+
+/** Where the version is in its lifecycle, what the owner can do next, and what curators said. */
+export function LifecyclePanel({ version, role, checks, decisions, members, dirty }: Props) {
+  const router = useRouter();
+  const [pending, startTransition] = useTransition();
+  const [outcome, setOutcome] = useState<{ ok: boolean; message: string } | null>(null);
+  const blocking = blockingChecks(checks);
+  const isOwner = role === "owner";
+  const canSubmit = isOwner && (version.state === "draft" || version.state === "changes_requested");
+  const canWithdraw = isOwner && (version.state === "submitted" || version.state === "in_review");
+  const submitBlocked = blocking.length > 0 || dirty;
+
+  function run(transition: Transition, done: string) {
+    setOutcome(null);
+    startTransition(async () => {
+      try {
+        const result = await transitionAction(version.id, transition);
+        if (result.ok) {
+          setOutcome({ ok: true, message: done });
+          router.refresh();
+        } else {
+          setOutcome({ ok: false, message: result.message });
+        }
+      } catch {
+        setOutcome({ ok: false, message: "The server could not be reached; nothing changed. Try again." });
+      }
+    });
+  }
+
+  return (
+    <section aria-labelledby="lifecycle-heading" className="card space-y-4">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <h2 id="lifecycle-heading" className="font-serif text-xl font-semibold">
+          Version {version.number}: {stateWords(version.state)}
+        </h2>
+        {role && <p className="text-sm text-muted">Your role: {ROLE_WORDS[role]}</p>}
+      </div>
+      <p className="text-sm">{STATE_EXPLAINED[version.state] ?? ""}</p>
+
+      {version.state === "published" && version.versionIdentifier && (
+        <div className="space-y-2">
+          <p className="text-sm">
+            Version identifier: <code className="rounded-sm bg-paper px-1.5 py-0.5">{version.versionIdentifier}</code>
+          </p>
+          <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
+        </div>
+      )}
+      {version.state === "retracted" && version.retractionNotice && (
+        <p className="rounded-md border border-error/40 bg-panel px-3 py-2 text-sm text-error">
+          <span className="font-semibold">Retraction notice: </span>
+          {version.retractionNotice}
+        </p>
+      )}
+
+      {(canSubmit || canWithdraw) && (
+        <div className="space-y-2">
+          <div className="flex flex-wrap gap-3">
+            {canSubmit && (
+              <button type="button" className="btn-primary" disabled={pending || submitBlocked} aria-describedby={submitBlocked ? "submit-blocked" : undefined} onClick={() => run("submit", "Submitted. A curator has been told.")}>
+                {pending ? "Working…" : "Submit for review"}
+              </button>
+            )}
+            {canWithdraw && (
+              <button type="button" className="btn-secondary" disabled={pending} onClick={() => run("withdraw", "Withdrawn. It is a draft again.")}>
+                {pending ? "Working…" : "Withdraw"}
+              </button>
+            )}
+          </div>
+          {canSubmit && submitBlocked && (
+            <div id="submit-blocked" className="space-y-2 text-sm">
+              {dirty && <p>Save your changes first: submitting sends the saved draft.</p>}
+              {blocking.length > 0 && (
+                <>
+                  <p>Submitting needs these checks of the last save resolved:</p>
+                  <CheckList checks={blocking} />
+                </>
+              )}
+            </div>
+          )}
+        </div>
+      )}
+      {role === "editor" && (version.state === "draft" || version.state === "changes_requested") && <p className="text-sm text-muted">The owner of the dataset submits it for review.</p>}
+      {outcome && (
+        <p role={outcome.ok ? "status" : "alert"} className={`rounded-md border bg-panel px-3 py-2 text-sm ${outcome.ok ? "border-ok/40 text-ok" : "border-error/40 text-error"}`}>
+          {outcome.message}
+        </p>
+      )}
+
+      <div className="space-y-2">
+        <h3 className="text-base font-semibold">Decisions</h3>
+        {decisions.length === 0 ? (
+          <p className="text-sm text-muted">No curator has decided on this version yet.</p>
+        ) : (
+          <ol className="space-y-2">
+            {decisions.map((d) => (
+              <li key={d.id} className="rounded-md border border-line px-3 py-2 text-sm">
+                <p>
+                  <span className="font-semibold">{DECISION_WORDS[d.decision] ?? d.decision}</span> by {d.curator}, <time dateTime={d.createdAt}>{utc(d.createdAt)}</time>
+                </p>
+                <p className="mt-1 whitespace-pre-line">{d.reason}</p>
+              </li>
+            ))}
+          </ol>
+        )}
+      </div>
+
+      <div className="space-y-2">
+        <h3 className="text-base font-semibold">Checks of the last save</h3>
+        {checks.length === 0 ? <p className="text-sm text-muted">No findings.</p> : <CheckList checks={checks} />}
+      </div>
+
+      {(members.length > 0 || isOwner) && (
+        <div className="space-y-2">
+          <h3 className="text-base font-semibold">Co-editors</h3>
+          <ul className="text-sm">
+            {members.map((m, i) => (
+              <li key={i}>
+                {m.name} <span className="text-muted">({ROLE_WORDS[m.role]})</span>
+              </li>
+            ))}
+          </ul>
+          {isOwner && <InviteForm versionId={version.id} />}
+        </div>
+      )}
+    </section>
+  );
+}

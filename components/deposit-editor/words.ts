@@ -1,0 +1,62 @@
+/** Plain words for lifecycle states, roles, severities and decisions, shared by the list and the editor. */
+import type { CoEditorRole, VersionState } from "@/lib/curation/lifecycle";
+
+export const STATE_WORDS: Record<VersionState, string> = {
+  draft: "draft",
+  submitted: "submitted",
+  in_review: "in review",
+  changes_requested: "changes requested",
+  published: "published",
+  declined: "declined",
+  retracted: "retracted",
+};
+
+export function stateWords(state: string): string {
+  return STATE_WORDS[state as VersionState] ?? state.replace(/_/g, " ");
+}
+
+export const ROLE_WORDS: Record<CoEditorRole, string> = { owner: "owner", editor: "editor", viewer: "viewer" };
+
+export type Severity = "info" | "warn" | "error";
+
+/** A severity in words (never colour alone), as the review pages word it. */
+export function severityWords(severity: string): string {
+  switch (severity) {
+    case "error":
+      return "error";
+    case "warn":
+      return "warning";
+    case "info":
+      return "info";
+    case "none":
+      return "no findings";
+    default:
+      return severity;
+  }
+}
+
+export const DECISION_WORDS: Record<string, string> = {
+  accept: "accepted",
+  request_changes: "changes requested",
+  decline: "declined",
+};
+
+/** A stored finding of the checks: species, balance, magnitude, and the fit diagnostics. */
+export interface StoredCheck {
+  code: string;
+  severity: string;
+  message: string;
+}
+
+/** The stored checks that stop a submission (error severity). */
+export function blockingChecks(checks: StoredCheck[]): StoredCheck[] {
+  return checks.filter((c) => c.severity === "error");
+}
+
+/** Codes of the identity and balance checks, shown in the reaction section. */
+export const REACTION_CHECK_CODES = new Set(["balanced", "unbalanced", "products_unknown"]);
+
+/** Editable when the version is a draft (or sent back) and the person owns or co-edits it. */
+export function isEditable(state: string, role: CoEditorRole | null): boolean {
+  return (state === "draft" || state === "changes_requested") && (role === "owner" || role === "editor");
+}

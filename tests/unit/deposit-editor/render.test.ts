@@ -1,0 +1,173 @@
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { createElement as h } from "react";
+import { renderToStaticMarkup } from "react-dom/server";
+import { describe, expect, it, vi } from "vitest";
+import { AboutSection } from "@/components/deposit-editor/about-section";
+import { EditorContextProvider } from "@/components/deposit-editor/editor-context";
+import { ErrorSummary } from "@/components/deposit-editor/error-summary";
+import { blankForm, blankPoint, documentToForm, type EditorForm } from "@/components/deposit-editor/form-model";
+import { groupErrors } from "@/components/deposit-editor/pointers";
+import { PointsTable } from "@/components/deposit-editor/points-table";
+import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
+
+vi.mock("next/navigation", () => ({ useRouter: () => ({ replace: vi.fn(), refresh: vi.fn(), push: vi.fn() }) }));
+vi.mock("@/app/deposits/actions", () => ({ createDraftAction: vi.fn(), saveDraftAction: vi.fn(), transitionAction: vi.fn() }));
+
+const noop = () => {};
+
+function withContext(node: React.ReactElement, messages: Record<string, string[]> = {}, readOnly = false) {
+  return renderToStaticMarkup(h(EditorContextProvider, { value: { readOnly, messagesFor: (p: string) => messages[p] ?? [], clearErrors: noop } }, node));
+}
+
+describe("fields", () => {
+  it("show a problem beside its input, tied to it for screen readers", () => {
+    const html = withContext(h(AboutSection, { form: blankForm({ name: "Okafor, Maren" }), update: noop }), { "/title": ["Title must be at least 3 characters."] });
+    expect(html).toContain('id="field-title"');
+    expect(html).toMatch(/<input id="field-title"[^>]*aria-invalid="true"[^>]*aria-describedby="field-title-hint field-title-error"/);
+    expect(html).toMatch(/id="field-title-error"[^>]*>.*Title must be at least 3 characters\./);
+    expect(html).toContain('<label for="field-creators-0-name"');
+    expect(html).toContain('value="Okafor, Maren"');
+    expect(html).toContain("<legend");
+  });
+
+  it("hide add and remove buttons from a read-only editor", () => {
+    const form = documentToForm(EXAMPLE_DEPOSIT);
+    expect(withContext(h(AboutSection, { form, update: noop }))).toContain("Add a creator");
+    const html = withContext(h(AboutSection, { form, update: noop }), {}, true);
+    expect(html).not.toContain("Add a creator");
+    expect(html).toMatch(/<input id="field-title"[^>]*readOnly=""/);
+  });
+});
+
+describe("PointsTable", () => {
+  const big: EditorForm = { ...blankForm(), points: Array.from({ length: 1200 }, (_, i) => ({ ...blankPoint(), T: String(200 + i / 10), k: "1e-12" })) };
+
+  it("shows the first 200 rows of a large table, with a note that every row is kept", () => {
+    const html = withContext(h(PointsTable, { form: big, update: noop, windowStart: 0, onWindowStart: noop, kLabel: "cm³ molecule⁻¹ s⁻¹", TLabel: "K" }));
+    expect(html).toContain("Showing rows 1–200 of 1,200");
+    expect(html).toContain("every row is kept and saved");
+    expect(html).toContain('id="field-points-199-T"');
+    expect(html).not.toContain('id="field-points-200-T"');
+  });
+
+  it("shows the window holding a row with a problem, and the problem in that row", () => {
+    const html = withContext(h(PointsTable, { form: big, update: noop, windowStart: 600, onWindowStart: noop, kLabel: "K", TLabel: "K" }), { "/points/650/k": ["Rate constant must be greater than 0."] });
+    expect(html).toContain("Showing rows 601–800 of 1,200");
+    expect(html).toMatch(/<input id="field-points-650-k"[^>]*aria-invalid="true"/);
+    expect(html).toContain("Rate constant must be greater than 0.");
+  });
+
+  it("shows every row of a small table, labelled for screen readers by row", () => {
+    const form = documentToForm(EXAMPLE_DEPOSIT);
+    const html = withContext(h(PointsTable, { form, update: noop, windowStart: 0, onWindowStart: noop, kLabel: "cm³ molecule⁻¹ s⁻¹", TLabel: "K" }));
+    expect(html).not.toContain("Showing rows");
+    expect(html).toContain("k, row 10");
+    expect(html).toContain("Pressure (Torr)");
+    expect(html).toContain("Remove<span class=\"sr-only\"> row 10</span>");
+  });
+});
+
+describe("ErrorSummary", () => {
+  it("lists problems no field shows, links each section with problems, and offers rows off screen", () => {
+    const form = documentToForm(EXAMPLE_DEPOSIT);
+    const errors = [
+      { pointer: "/title", message: "Title is too short." },
+      { pointer: "/reaction/solvent", message: "Solvent is required when the phase is liquid." },
+      { pointer: "/points/650/k", message: "not positive" },
+    ];
+    const html = renderToStaticMarkup(h(ErrorSummary, { message: "The deposit has 3 problems", errors, grouped: groupErrors(errors, form), hiddenRows: [650], onShowRow: noop, announce: true }));
+    expect(html).toContain('role="alert"');
+    expect(html).toContain("3 problems to correct");
+    expect(html).toContain('<a href="#section-about">About the dataset (1)</a>');
+    expect(html).toMatch(/<a href="#section-reaction">Reaction<\/a>: Solvent is required/);
+    expect(html).toContain("Show row 651");
+  });
+});
+
+describe("DepositEditor", () => {
+  it("renders a published version read-only, with its identifier and the cautions sentence", async () => {
+    const { DepositEditor } = await import("@/components/deposit-editor/deposit-editor");
+    const html = renderToStaticMarkup(
+      h(
+        QueryClientProvider,
+        { client: new QueryClient() },
+        h(DepositEditor, {
+          mode: "existing",
+          version: { id: 7, number: 1, state: "published", versionIdentifier: "10.5555/arrhenia.7.v1", retractionNotice: null },
+          payload: EXAMPLE_DEPOSIT,
+          lockVersion: 3,
+          role: "owner",
+          checks: [{ code: "balanced", severity: "info", message: "Elements and charge balance." }],
+          decisions: [{ id: 1, decision: "accept", reason: "Clear and complete.", curator: "Curator One", createdAt: "2024-05-01T10:00:00.000Z" }],
+          members: [{ name: "Okafor, Maren", role: "owner" }],
+        }),
+      ),
+    );
+    expect(html).toContain("Version 1: published");
+    expect(html).toContain("10.5555/arrhenia.7.v1");
+    expect(html).toContain("Extrapolation outside the measured temperature range is unreliable");
+    expect(html).toContain("Clear and complete.");
+    expect(html).not.toContain("Save draft");
+    expect(html).not.toContain("Submit for review");
+    expect(html).toContain("Elements and charge balance.");
+  });
+
+  it("renders a new deposit with the person as first creator and a save button", async () => {
+    const { DepositEditor } = await import("@/components/deposit-editor/deposit-editor");
+    const html = renderToStaticMarkup(h(QueryClientProvider, { client: new QueryClient() }, h(DepositEditor, { mode: "new", person: { name: "Okafor, Maren", orcid: "0000-0002-1825-0097", affiliation: null } })));
+    expect(html).toContain("Save draft");
+    expect(html).toContain('value="0000-0002-1825-0097"');
+    expect(html).not.toContain("Submit for review");
+    expect(html).toContain("Add at least two rows");
+  });
+
+  it("disables submitting a draft whose checks found an error, and says why", async () => {
+    const { DepositEditor } = await import("@/components/deposit-editor/deposit-editor");
+    const html = renderToStaticMarkup(
+      h(
+        QueryClientProvider,
+        { client: new QueryClient() },
+        h(DepositEditor, {
+          mode: "existing",
+          version: { id: 8, number: 1, state: "draft", versionIdentifier: null, retractionNotice: null },
+          payload: EXAMPLE_DEPOSIT,
+          lockVersion: 1,
+          role: "owner",
+          checks: [{ code: "unbalanced", severity: "error", message: "Hydrogen does not balance: 5 on the left, 4 on the right." }],
+          decisions: [],
+          members: [],
+        }),
+      ),
+    );
+    expect(html).toMatch(/<button type="button" class="btn-primary" disabled=""[^>]*aria-describedby="submit-blocked">Submit for review/);
+    expect(html).toContain("Hydrogen does not balance");
+    expect(html).toContain("Save draft");
+  });
+});
+
+describe("DepositEditor markup", () => {
+  it("has unique ids, and every label and description points at an element that exists", async () => {
+    const { DepositEditor } = await import("@/components/deposit-editor/deposit-editor");
+    const html = renderToStaticMarkup(
+      h(
+        QueryClientProvider,
+        { client: new QueryClient() },
+        h(DepositEditor, {
+          mode: "existing",
+          version: { id: 9, number: 2, state: "changes_requested", versionIdentifier: null, retractionNotice: null },
+          payload: EXAMPLE_DEPOSIT,
+          lockVersion: 1,
+          role: "owner",
+          checks: [],
+          decisions: [],
+          members: [],
+        }),
+      ),
+    );
+    const ids = [...html.matchAll(/ id="([^"]+)"/g)].map((m) => m[1]);
+    expect(ids.filter((id, i) => ids.indexOf(id) !== i)).toEqual([]);
+    const targets = [...[...html.matchAll(/ for="([^"]+)"/g)].map((m) => m[1]), ...[...html.matchAll(/aria-describedby="([^"]+)"/g)].flatMap((m) => m[1].split(" "))];
+    expect(targets.length).toBeGreaterThan(50);
+    expect(targets.filter((t) => !ids.includes(t))).toEqual([]);
+  });
+});

@@ -1,0 +1,61 @@
+import { describe, expect, it } from "vitest";
+import { CONFLICT_MESSAGE, saveStateWords, stateAfterFailure } from "@/components/deposit-editor/save-status";
+import { LARGE_TABLE_ROWS, ROW_WINDOW, visibleRows, windowStartFor } from "@/components/deposit-editor/row-window";
+import { blockingChecks, isEditable, stateWords } from "@/components/deposit-editor/words";
+
+describe("stateAfterFailure", () => {
+  it("turns the lock conflict into our own conflict message, and any other 409 into a conflict with the server's reason", () => {
+    expect(stateAfterFailure({ ok: false, status: 409, message: "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.", errors: [] }, true)).toEqual({ kind: "conflict" });
+    expect(stateAfterFailure({ ok: false, status: 409, message: "This version is submitted and can no longer be edited", errors: [] }, false)).toEqual({
+      kind: "conflict",
+      detail: "This version is submitted and can no longer be edited",
+    });
+    expect(CONFLICT_MESSAGE).toMatch(/your edits are still here and were not stored/);
+  });
+
+  it("counts the problems of a refused document and remembers whether autosave sent it", () => {
+    const errors = [
+      { pointer: "/title", message: "a" },
+      { pointer: "/points/3/k", message: "b" },
+    ];
+    expect(stateAfterFailure({ ok: false, status: 422, message: "The deposit has 2 problems", errors }, true)).toEqual({ kind: "invalid", message: "The deposit has 2 problems", count: 2, auto: true });
+  });
+});
+
+describe("saveStateWords", () => {
+  it("says when the draft was saved and whether newer changes wait", () => {
+    const at = new Date(2024, 0, 1, 14, 5);
+    expect(saveStateWords({ kind: "saved", at }, false)).toBe("Saved at 14:05.");
+    expect(saveStateWords({ kind: "saved", at }, true)).toMatch(/newer changes not saved yet/);
+    expect(saveStateWords({ kind: "saved", at: new Date(2024, 0, 1, 9, 7) }, false)).toBe("Saved at 09:07.");
+    expect(saveStateWords({ kind: "saving", auto: true }, true)).toBe("Saving…");
+    expect(saveStateWords({ kind: "invalid", message: "", count: 1, auto: false }, true)).toMatch(/1 problem to correct/);
+  });
+});
+
+describe("visibleRows", () => {
+  it("shows every row of a table up to the limit, and a window of rows beyond it", () => {
+    expect(visibleRows(LARGE_TABLE_ROWS, 0)).toEqual({ from: 0, to: LARGE_TABLE_ROWS, windowed: false });
+    expect(visibleRows(LARGE_TABLE_ROWS + 1, 0)).toEqual({ from: 0, to: ROW_WINDOW, windowed: true });
+    expect(visibleRows(1000, 950)).toEqual({ from: 1000 - ROW_WINDOW, to: 1000, windowed: true });
+    expect(windowStartFor(349)).toBe(200);
+  });
+});
+
+describe("words", () => {
+  it("name states plainly and find the checks that stop a submission", () => {
+    expect(stateWords("changes_requested")).toBe("changes requested");
+    expect(stateWords("in_review")).toBe("in review");
+    expect(blockingChecks([{ code: "balanced", severity: "info", message: "" }, { code: "unbalanced", severity: "error", message: "H does not balance" }])).toEqual([
+      { code: "unbalanced", severity: "error", message: "H does not balance" },
+    ]);
+  });
+
+  it("allow editing only drafts (and drafts sent back) by their owner and editors", () => {
+    expect(isEditable("draft", "owner")).toBe(true);
+    expect(isEditable("changes_requested", "editor")).toBe(true);
+    expect(isEditable("draft", "viewer")).toBe(false);
+    expect(isEditable("draft", null)).toBe(false);
+    expect(isEditable("submitted", "owner")).toBe(false);
+  });
+});
