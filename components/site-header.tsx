@@ -12,6 +12,7 @@ export async function SiteHeader() {
     if (can(user.role, "dataset.review")) links.push({ href: "/review", label: "Review" });
     if (can(user.role, "user.manage")) links.push({ href: "/admin/people", label: "People" });
     if (can(user.role, "mail.read")) links.push({ href: "/admin/mail", label: "Mail" });
+    if (can(user.role, "job.read")) links.push({ href: "/admin/jobs", label: "Jobs" });
     links.push({ href: "/settings", label: "Settings" });
   }
   return (

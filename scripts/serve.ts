@@ -8,6 +8,7 @@ import { startFakeDoiService } from "@/lib/identifiers/fake-service";
 import { doiPrefix } from "@/lib/identifiers/mint";
 import { startWorkers } from "@/lib/jobs/worker";
 import { enqueuePendingIdentifierRegistrations } from "@/lib/identifiers/queue";
+import { enqueueStaleRefits } from "@/lib/datasets/refit";
 import { startCaptureServer } from "@/lib/mail/capture-server";
 import { DEMO_PASSWORD, demoAccounts } from "@/db/seed-data";
 
@@ -20,6 +21,7 @@ const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captur
 const fakeDoi = usesFakeDoiService() ? await startFakeDoiService({ port: doiFakePort(), dataDir: fakeDoiDataDir(), auth: doiApiAuth() }) : null;
 const workers = await startWorkers();
 const pendingIdentifiers = await enqueuePendingIdentifierRegistrations();
+const staleRefits = await enqueueStaleRefits();
 
 const next = spawn("node_modules/.bin/next", ["start", "-H", host, "-p", String(port)], { stdio: ["ignore", "inherit", "inherit"], env: process.env });
 
@@ -41,6 +43,8 @@ if (!quiet) {
   Arrhenia is running at http://${host}:${port}
   Mail: ${capture ? `captured locally (SMTP 127.0.0.1:${captureSmtpPort()}); admins read it at /admin/mail` : "sent through SMTP_URL"}
   Identifiers (prefix ${doiPrefix()}): ${fakeDoi ? `registered with the local fake DOI service at ${fakeDoi.url}${fakeDoiDataDir() ? ` (records in ${fakeDoiDataDir()})` : ""}` : `registered through ${doiApiUrl()}`}${pendingIdentifiers ? ` — ${pendingIdentifiers} waiting, queued now` : ""}
+
+  Fits: ${staleRefits ? `${staleRefits} version(s) fitted by an older engine, re-fit queued` : "every version is fitted by the current engine"}
 
   Demo accounts (password for all: ${DEMO_PASSWORD})
 ${demoAccounts.map((a) => `    ${a.email.padEnd(width)}  ${a.role.padEnd(10)}  ${a.name}`).join("\n")}

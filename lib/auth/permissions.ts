@@ -13,6 +13,7 @@ export const permissions = {
   "user.manage": ["admin"],
   "mail.read": ["admin"],
   "job.read": ["admin"],
+  "job.manage": ["admin"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof permissions;

@@ -188,7 +188,7 @@ export async function getLatestAnalysis({ versionId }: { versionId: number }) {
     .select({ engineVersion: versionAnalyses.engineVersion, result: versionAnalyses.result, checks: versionAnalyses.checks, error: versionAnalyses.error, createdAt: versionAnalyses.createdAt })
     .from(versionAnalyses)
     .where(eq(versionAnalyses.versionId, versionId))
-    .orderBy(desc(versionAnalyses.createdAt), desc(versionAnalyses.id))
+    .orderBy(desc(versionAnalyses.id))
     .limit(1);
   return row ?? null;
 }

@@ -2,7 +2,7 @@ import PgBoss from "pg-boss";
 import { databaseUrl } from "@/lib/config";
 
 /** Queue names used across the app. */
-export const queues = ["mail", "register-identifier"] as const;
+export const queues = ["mail", "register-identifier", "refit"] as const;
 export type QueueName = (typeof queues)[number];
 
 /** Default retry policy: a relay or DOI agency that is down delays the work, never loses it. */

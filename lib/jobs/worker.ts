@@ -2,6 +2,7 @@ import PgBoss from "pg-boss";
 import { databaseUrl } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import type { IdentifierJob } from "@/lib/identifiers/queue";
+import { refitVersion } from "@/lib/datasets/refit";
 import { registerIdentifier } from "@/lib/identifiers/register";
 import { deliverMail } from "@/lib/mail/transport";
 import type { MailMessage } from "@/lib/mail/templates";
@@ -25,6 +26,9 @@ export async function startWorkers(): Promise<{ stop: () => Promise<void> }> {
       if (err instanceof AppError && err.code === "not_found") return console.error(`[jobs] ${err.message}; job dropped`);
       throw err;
     }
+  });
+  await boss.work<{ versionId: number }>("refit", { pollingIntervalSeconds: 2 }, async ([job]) => {
+    await refitVersion({ versionId: job.data.versionId });
   });
   return { stop: () => boss.stop({ graceful: true, wait: true, timeout: 5000 }) };
 }

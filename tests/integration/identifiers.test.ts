@@ -135,6 +135,8 @@ describe("identifier registration", () => {
   });
 
   it("registers through the pg-boss queue, retrying after the fake fails once", async () => {
+    // Other files' acceptances queue registrations too; clear them so the one failure hits ours.
+    await sql`delete from pgboss.job where name = 'register-identifier' and state in ('created', 'retry')`;
     const workers = await startWorkers();
     try {
       const { ids } = await publishDataset();

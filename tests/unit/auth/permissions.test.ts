@@ -13,6 +13,7 @@ const expected: Record<Permission, { researcher: boolean; curator: boolean; admi
   "user.manage": { researcher: false, curator: false, admin: true },
   "mail.read": { researcher: false, curator: false, admin: true },
   "job.read": { researcher: false, curator: false, admin: true },
+  "job.manage": { researcher: false, curator: false, admin: true },
 };
 
 describe("permission table", () => {

@@ -1,0 +1,58 @@
+import "server-only";
+import { desc, eq, sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { datasetVersions, versionAnalyses } from "@/db/datasets";
+import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
+import { getSender, retryPolicy } from "@/lib/jobs/boss";
+import { AnalysisError, analyseDataset } from "@/lib/kinetics";
+import { ENGINE_VERSION } from "./prepare";
+
+/**
+ * Re-analyses one version with the current engine and stores the result as a new analysis row
+ * (published versions keep their frozen points and earlier analyses; only a row is added).
+ * The non-kinetic checks (balance, units sanity) are carried over from the previous analysis.
+ */
+export async function refitVersion({ versionId }: { versionId: number }): Promise<"refitted" | "current" | "invalid"> {
+  const db = getDb();
+  const [version] = await db.select({ payload: datasetVersions.payload }).from(datasetVersions).where(eq(datasetVersions.id, versionId));
+  if (!version) return "invalid";
+  const [latest] = await db
+    .select({ engineVersion: versionAnalyses.engineVersion, checks: versionAnalyses.checks })
+    .from(versionAnalyses)
+    .where(eq(versionAnalyses.versionId, versionId))
+    .orderBy(desc(versionAnalyses.id))
+    .limit(1);
+  if (latest?.engineVersion === ENGINE_VERSION) return "current";
+  const validation = validateDeposit(version.payload);
+  if (!validation.ok) {
+    await db.insert(versionAnalyses).values({ versionId, engineVersion: ENGINE_VERSION, result: null, checks: latest?.checks ?? [], error: `stored document no longer validates: ${validation.errors[0].message}` });
+    return "invalid";
+  }
+  try {
+    const result = analyseDataset(toAnalysisInput(validation.value)) as unknown as Record<string, unknown>;
+    await db.insert(versionAnalyses).values({ versionId, engineVersion: ENGINE_VERSION, result, checks: latest?.checks ?? [] });
+    return "refitted";
+  } catch (err) {
+    if (!(err instanceof AnalysisError)) throw err;
+    await db.insert(versionAnalyses).values({ versionId, engineVersion: ENGINE_VERSION, result: null, checks: latest?.checks ?? [], error: err.message });
+    return "invalid";
+  }
+}
+
+/** Versions whose newest analysis came from another engine version (or that have none). */
+export async function listStaleVersions(): Promise<number[]> {
+  const rows = await getDb().execute<{ id: number }>(sql`
+    select v.id from dataset_versions v
+    left join lateral (select engine_version from version_analyses a where a.version_id = v.id order by a.id desc limit 1) a on true
+    where a.engine_version is distinct from ${ENGINE_VERSION}
+    order by v.id`);
+  return rows.map((r) => Number(r.id));
+}
+
+/** Queues a re-fit of every stale version (at start-up, after an engine upgrade). */
+export async function enqueueStaleRefits(): Promise<number> {
+  const ids = await listStaleVersions();
+  const boss = await getSender();
+  for (const versionId of ids) await boss.send("refit", { versionId }, { ...retryPolicy, singletonKey: `refit-${versionId}` });
+  return ids.length;
+}
