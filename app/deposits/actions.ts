@@ -5,7 +5,7 @@ import { z } from "zod";
 import { getCurrentUser } from "@/lib/auth/session";
 import { assertAllowed } from "@/lib/auth/guard";
 import type { Transition } from "@/lib/curation/lifecycle";
-import { depositNewDataset, transitionVersion, updateDraft } from "@/lib/datasets/deposits";
+import { depositNewDataset, startNextVersion, transitionVersion, updateDraft } from "@/lib/datasets/deposits";
 import { inviteCoEditor } from "@/lib/datasets/invitations";
 import { parseDepositJson } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
@@ -84,5 +84,17 @@ export async function inviteAction(versionId: number, email: string, role: "edit
   } catch (err) {
     const r = failure(err);
     return { ok: false, message: r.ok ? "" : r.message };
+  }
+}
+
+/** The owner starts the next version (a draft copy of the published one). */
+export async function startNextVersionAction(versionId: number): Promise<EditorResult> {
+  try {
+    const { user } = await actorOrThrow();
+    const v = await startNextVersion({ actor: user, versionId });
+    revalidatePath("/deposits");
+    return { ok: true, versionId: v.id, lockVersion: v.lockVersion, state: v.state };
+  } catch (err) {
+    return failure(err);
   }
 }

@@ -8,7 +8,7 @@ import { enqueueMail } from "@/lib/mail/queue";
 import { decisionMail, submissionMail } from "@/lib/mail/templates";
 import { listActiveCurators, type UserDto } from "@/lib/users/queries";
 import { prepareDepositOrThrow } from "./prepare";
-import { createDatasetDraft, getVersionWithRole, listDatasetMembers, saveDraft } from "./queries";
+import { createDatasetDraft, createNextVersion, getVersionWithRole, listDatasetMembers, saveDraft } from "./queries";
 
 /** Creates a dataset from a deposit document; a document with any problem stores nothing. */
 export async function depositNewDataset({ actor, document }: { actor: UserDto; document: unknown }) {
@@ -76,3 +76,11 @@ export async function transitionVersion({ actor, versionId, transition, reason }
   return outcome;
 }
 
+
+/** The owner starts the next version of a published dataset as a draft copy of the latest. */
+export async function startNextVersion({ actor, versionId }: { actor: UserDto; versionId: number }) {
+  const found = await getVersionWithRole({ versionId, userId: actor.id });
+  if (!found || !found.datasetRole) throw new AppError("not_found", "No such dataset version");
+  if (found.datasetRole !== "owner") throw new AppError("forbidden", "Only the dataset's owner may start a new version");
+  return createNextVersion({ datasetId: found.version.datasetId, actorId: actor.id });
+}

@@ -246,3 +246,42 @@ export async function hasDatasetTitled({ ownerId, title }: { ownerId: number; ti
     .limit(1);
   return Boolean(row);
 }
+
+/**
+ * Starts the next version of a dataset as a draft copy of its newest version (document, points,
+ * analysis). Only when the newest version is published or retracted: one open draft at a time.
+ */
+export async function createNextVersion({ datasetId, actorId }: { datasetId: number; actorId: number }) {
+  return getDb().transaction(async (tx) => {
+    const [latest] = await tx
+      .select({ id: datasetVersions.id, number: datasetVersions.number, state: datasetVersions.state, title: datasetVersions.title, payload: datasetVersions.payload })
+      .from(datasetVersions)
+      .where(eq(datasetVersions.datasetId, datasetId))
+      .orderBy(desc(datasetVersions.number))
+      .limit(1)
+      .for("update");
+    if (!latest) throw new AppError("not_found", "No such dataset");
+    if (latest.state !== "published" && latest.state !== "retracted") {
+      throw new AppError("conflict", `Version ${latest.number} is still ${latest.state.replace("_", " ")}; finish it before starting another`);
+    }
+    const points = await tx.select().from(versionPoints).where(eq(versionPoints.versionId, latest.id)).orderBy(versionPoints.idx);
+    const [analysis] = await tx.select().from(versionAnalyses).where(eq(versionAnalyses.versionId, latest.id)).orderBy(desc(versionAnalyses.id)).limit(1);
+    const stored: StoredPoint[] = points.map((p) => ({
+      T: p.temperatureK,
+      k: p.rateConstant,
+      sigmaLnK: p.sigmaLnK ?? undefined,
+      pressurePa: p.pressurePa ?? undefined,
+      bathGas: p.bathGas ?? undefined,
+      note: p.note ?? undefined,
+      original: p.original,
+    }));
+    const summary: AnalysisSummary = { engineVersion: analysis?.engineVersion ?? "unknown", result: analysis?.result ?? null, checks: analysis?.checks ?? [], error: analysis?.error };
+    const [version] = await tx
+      .insert(datasetVersions)
+      .values({ datasetId, number: latest.number + 1, title: latest.title, payload: latest.payload, createdBy: actorId, ...summarise(stored, summary) })
+      .returning(versionColumns);
+    await writePointsAndAnalysis(tx, version.id, stored, summary);
+    await recordAuditEvent(tx, { actorId, action: "dataset.version_started", subjectType: "dataset_version", subjectId: version.id, details: { from: latest.id, number: version.number } });
+    return version;
+  });
+}

@@ -76,6 +76,8 @@ export async function startFakeDoiService({ port, host = "127.0.0.1", dataDir = 
     if (!file) return Promise.resolve();
     const snapshot = JSON.stringify([...store.values()], null, 2);
     saving = saving.then(async () => {
+      // The folder may have been cleaned away while the service ran.
+      await mkdir(path.dirname(file), { recursive: true });
       await writeFile(`${file}.tmp`, snapshot);
       await rename(`${file}.tmp`, file);
     });

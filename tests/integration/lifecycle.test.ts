@@ -105,3 +105,24 @@ describe("lifecycle in the database, per role", () => {
     expect(n).toBe(2);
   });
 });
+
+describe("a new version", () => {
+  it("starts as a draft copy of the published one (owner only, one open draft at a time) and gets its own identifier", async () => {
+    const { startNextVersion } = await import("@/lib/datasets/deposits");
+    const v1 = await newDraft();
+    await applyTransition({ versionId: v1.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v1.id, actorId: curator.id, transition: "accept", reason: "Fine." });
+    await expect(startNextVersion({ actor: editor, versionId: v1.id })).rejects.toMatchObject({ status: 403 });
+    await expect(startNextVersion({ actor: stranger, versionId: v1.id })).rejects.toMatchObject({ status: 404 });
+    const v2 = await startNextVersion({ actor: owner, versionId: v1.id });
+    expect(v2).toMatchObject({ number: 2, state: "draft", datasetId: v1.datasetId, title: "OH + CH4 test" });
+    const [copy] = await sql`select (select payload from dataset_versions where id = ${v1.id}) = payload as same_payload, point_count from dataset_versions where id = ${v2.id}`;
+    expect(copy).toEqual({ same_payload: true, point_count: 2 });
+    await expect(startNextVersion({ actor: owner, versionId: v1.id })).rejects.toMatchObject({ status: 409 });
+    await applyTransition({ versionId: v2.id, actorId: owner.id, transition: "submit" });
+    const out = await applyTransition({ versionId: v2.id, actorId: curator.id, transition: "accept", reason: "Second version fine." });
+    expect(out.identifiers).toEqual({ version: `10.5072/arrhenia.${v1.datasetId}.v2`, series: `10.5072/arrhenia.${v1.datasetId}` });
+    const [v1row] = await sql`select state, version_identifier from dataset_versions where id = ${v1.id}`;
+    expect(v1row).toEqual({ state: "published", version_identifier: `10.5072/arrhenia.${v1.datasetId}.v1` });
+  });
+});

@@ -57,7 +57,15 @@ export function DecisionForm({ versionId, state, coEditing }: { versionId: numbe
       </form>
     );
   }
-  if (state !== "submitted" && state !== "in_review") return <p className="text-sm text-muted">Nothing to decide in this state.</p>;
+  // After "request changes" or "decline" the form has nothing left to offer, but the curator still needs the outcome.
+  if (state !== "submitted" && state !== "in_review") {
+    return (
+      <div className="space-y-2">
+        {feedback}
+        <p className="text-sm text-muted">Nothing to decide in this state.</p>
+      </div>
+    );
+  }
   return (
     <div className="space-y-4">
       {feedback}

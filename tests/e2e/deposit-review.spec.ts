@@ -1,0 +1,111 @@
+import { fileURLToPath } from "node:url";
+import { expect, test } from "@playwright/test";
+import { DEMO_ADMIN } from "./pages/auth-pages";
+import { DEMO_CURATORS, DEMO_RESEARCHER, DepositEditorPage, MailLog, ReviewPage, signInAs } from "./pages/deposit-pages";
+
+// Invented OH + CH4 rate constants at 8 temperatures; row 5 holds "9.40e-15x" in the k column.
+const CSV = fileURLToPath(new URL("../fixtures/e2e/oh-ch4-one-bad-cell.csv", import.meta.url));
+const K_HEADER = "k / cm3 molecule-1 s-1";
+
+test("a deposit goes from an uploaded CSV through a request for changes to publication, with the mail of each step", async ({ page }) => {
+  test.setTimeout(120_000);
+  const stamp = Date.now();
+  const title = `OH + CH4 between 230 and 400 K (end-to-end ${stamp})`;
+  const editor = new DepositEditorPage(page);
+  const review = new ReviewPage(page);
+  const curator = DEMO_CURATORS[0];
+  const changesReason = `Please say in the note of row 5 how that value was checked (${stamp}).`;
+  let versionId = 0;
+
+  await test.step("the researcher describes the dataset", async () => {
+    await signInAs(page, DEMO_RESEARCHER);
+    await editor.openNew();
+    await editor.fillAbout(title, "Rate constants of OH + CH4 measured by pulsed laser photolysis with laser-induced fluorescence of OH.");
+    await editor.fillReaction({
+      reactants: [
+        { name: "hydroxyl radical", smiles: "[OH]" },
+        { name: "methane", smiles: "C" },
+      ],
+      products: [
+        { name: "water", smiles: "O" },
+        { name: "methyl radical", smiles: "[CH3]" },
+      ],
+      reactionClass: "H-atom abstraction",
+      order: "2",
+      phase: "Gas phase",
+    });
+    await editor.fillMethod("Experiment", "pulsed laser photolysis");
+    await editor.fillSourceDoi(`10.5555/arrhenia.e2e.${stamp}`);
+  });
+
+  await test.step("uploads the CSV; the columns are recognised from the header", async () => {
+    await editor.uploadTable(CSV);
+    await expect(editor.mapping.getByRole("heading")).toContainText("8 rows, CSV, with a header row");
+    await expect(editor.mappingSelect("Temperature").locator("option:checked")).toHaveText("T / K");
+    await expect(editor.mappingSelect("Rate constant").locator("option:checked")).toHaveText(K_HEADER);
+    await expect(editor.mappingSelect("Uncertainty").locator("option:checked")).toHaveText("uncertainty %");
+    await expect(editor.mapping.getByLabel("The uncertainty column is")).toHaveValue("relative");
+    await editor.useRows();
+  });
+
+  await test.step("the bad cell is named by row and column, kept in the table, and corrected there", async () => {
+    await expect(editor.importProblems).toContainText(`Row 5, column "${K_HEADER}": "9.40e-15x" is not a number.`);
+    await expect(editor.rowCount).toHaveText("Rows (8)");
+    const badCell = editor.cell("k", 5);
+    await expect(badCell).toHaveValue("9.40e-15x");
+    await expect(badCell).toHaveAttribute("aria-invalid", "true");
+    await expect(badCell).toHaveAccessibleDescription(/"9\.40e-15x" is not a number/);
+    await badCell.fill("9.40e-15");
+    await expect(badCell).not.toHaveAttribute("aria-invalid", "true");
+    await expect(editor.cell("T", 5)).toHaveValue("320");
+  });
+
+  await test.step("saves the draft and submits it", async () => {
+    versionId = await editor.saveNewDraft();
+    await expect(editor.cell("k", 5)).toHaveValue("9.4e-15");
+    await editor.submitForReview();
+  });
+
+  await test.step("a curator takes it into review and asks for changes", async () => {
+    await signInAs(page, curator);
+    await review.openFromQueue(title);
+    await review.takeIntoReview();
+    await review.decide("Request changes", changesReason, "changes requested");
+  });
+
+  await test.step("the researcher reads the decision, edits, saves and submits again", async () => {
+    await signInAs(page, DEMO_RESEARCHER);
+    await editor.open(versionId);
+    await editor.expectState("changes requested");
+    await expect(editor.decision("changes requested")).toContainText(curator.name);
+    await expect(editor.decision("changes requested")).toContainText(changesReason);
+    await editor.cell("Note", 5).fill("re-read from the original trace");
+    await editor.saveDraft();
+    await editor.submitForReview();
+  });
+
+  await test.step("the curator accepts and publishes", async () => {
+    await signInAs(page, curator);
+    await review.openFromQueue(title);
+    await review.decide("Accept and publish", "Complete and consistent; the note on row 5 answers the question.", "published");
+  });
+
+  await test.step("the published version shows its identifier", async () => {
+    await signInAs(page, DEMO_RESEARCHER);
+    await editor.open(versionId);
+    await editor.expectState("published");
+    await expect(editor.versionIdentifier).toHaveText(/^Version identifier: 10\.5072\/arrhenia\.\d+\.v1$/);
+    await expect(editor.decision("accepted")).toContainText("the note on row 5 answers the question");
+    await expect(editor.cell("Note", 5)).toHaveValue("re-read from the original trace");
+  });
+
+  await test.step("the inbox holds the mail of every step", async () => {
+    // Each curator heard of both submissions; the researcher of both decisions.
+    await signInAs(page, { email: DEMO_ADMIN.email, name: "Rosalind Okafor" });
+    await new MailLog(page).expectCounts([
+      ...DEMO_CURATORS.map((c) => ({ to: c.email, subject: `Waiting for review: ${title}`, count: 2 })),
+      { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: request changes`, count: 1 },
+      { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: accept`, count: 1 },
+    ]);
+  });
+});
