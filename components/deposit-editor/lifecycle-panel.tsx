@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
-import { transitionAction } from "@/app/deposits/actions";
+import { startNextVersionAction, transitionAction } from "@/app/deposits/actions";
 import { CAUTION } from "@/lib/analyses/analyse-request";
 import type { CoEditorRole, Transition } from "@/lib/curation/lifecycle";
 import { CheckList } from "./check-list";
@@ -83,6 +83,15 @@ export function LifecyclePanel({ version, role, checks, decisions, members, dirt
     });
   }
 
+  function startNext() {
+    setOutcome(null);
+    startTransition(async () => {
+      const result = await startNextVersionAction(version.id);
+      if (result.ok) router.push(`/deposits/${result.versionId}`);
+      else setOutcome({ ok: false, message: result.message });
+    });
+  }
+
   return (
     <section aria-labelledby="lifecycle-heading" className="card space-y-4">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
@@ -108,6 +117,14 @@ export function LifecyclePanel({ version, role, checks, decisions, members, dirt
         </p>
       )}
 
+      {isOwner && (version.state === "published" || version.state === "retracted") && (
+        <div className="space-y-1">
+          <button type="button" className="btn-secondary" disabled={pending} onClick={startNext}>
+            {pending ? "Working…" : "Start a new version"}
+          </button>
+          <p className="text-xs text-muted">The new version begins as a draft copy of this one; this version stays as it is.</p>
+        </div>
+      )}
       {(canSubmit || canWithdraw) && (
         <div className="space-y-2">
           <div className="flex flex-wrap gap-3">

@@ -10,6 +10,7 @@ import { blankSpecies, type EditorForm, type SpeciesRow } from "./form-model";
 import { sectionAnchor } from "./pointers";
 import { removeAt, replaceAt, type SectionProps } from "./section-props";
 import type { StoredCheck } from "./words";
+import { SpeciesPreview } from "./species-preview";
 
 type Side = "reactants" | "products";
 
@@ -63,6 +64,9 @@ function SpeciesList({ side, form, update }: SectionProps & { side: Side }) {
                 </span>
               </button>
             )}
+            <div className="md:col-span-5">
+              <SpeciesPreview smiles={s.smiles} inchi={s.inchi} />
+            </div>
           </li>
         ))}
       </ol>
