@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
 import { DepositEditor } from "@/components/deposit-editor/deposit-editor";
+import { FilesPanel } from "@/components/deposit-editor/files-panel";
 import type { StoredCheck } from "@/components/deposit-editor/words";
 import { stateWords } from "@/components/deposit-editor/words";
 import { getCurrentUser } from "@/lib/auth/session";
@@ -62,6 +63,7 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
         decisions={decisions.map((d) => ({ id: d.id, decision: d.decision, reason: d.reason, curator: d.curator, createdAt: d.createdAt.toISOString() }))}
         members={members.map((m) => ({ name: m.name, role: m.role }))}
       />
+      <FilesPanel versionId={version.id} editable={(datasetRole === "owner" || datasetRole === "editor") && (version.state === "draft" || version.state === "changes_requested")} />
     </div>
   );
 }

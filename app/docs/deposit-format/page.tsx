@@ -17,7 +17,7 @@ import {
   UNCERTAINTY_KINDS,
 } from "@/lib/deposits/vocabulary";
 import { SUPPORTED_UNITS, type UnitDefinition } from "@/lib/kinetics";
-import { MarkdownText } from "./markdown-text";
+import { MarkdownText } from "@/components/markdown-text";
 
 export const metadata: Metadata = { title: "Deposit format" };
 

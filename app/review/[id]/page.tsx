@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import jsonPatch from "fast-json-patch";
 import { ArrheniusPlot } from "@/components/arrhenius-plot";
+import { MarkdownText } from "@/components/markdown-text";
 import { SeverityLabel, StateLabel } from "@/components/state-label";
 import { requirePagePermission } from "@/lib/auth/page-guard";
 import { findPossibleDuplicates, getPreviousVersion } from "@/lib/curation/queries";
@@ -75,6 +76,12 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
 
       <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
         <div className="space-y-6">
+          {typeof (version.payload as { description?: unknown }).description === "string" && (
+            <section className="card space-y-2" aria-labelledby="about-heading">
+              <h2 id="about-heading" className="text-xl font-semibold">What the authors say</h2>
+              <MarkdownText text={(version.payload as { description: string }).description} />
+            </section>
+          )}
           <section className="card space-y-3" aria-labelledby="report-heading">
             <h2 id="report-heading" className="text-xl font-semibold">Check report</h2>
             <h3 className="font-semibold">Deposit format</h3>

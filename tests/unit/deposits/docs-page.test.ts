@@ -1,6 +1,6 @@
 import { renderToStaticMarkup } from "react-dom/server";
 import { describe, expect, it } from "vitest";
-import { MarkdownText } from "@/app/docs/deposit-format/markdown-text";
+import { MarkdownText } from "@/components/markdown-text";
 import DepositFormatPage from "@/app/docs/deposit-format/page";
 import { REACTION_CLASSES } from "@/lib/deposits/vocabulary";
 
