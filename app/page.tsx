@@ -1,13 +1,16 @@
 import Link from "next/link";
 import { getCurrentUser } from "@/lib/auth/session";
+import { countPublicData } from "@/lib/reactions/queries";
 import { countUsersByRole } from "@/lib/users/queries";
 
 export const dynamic = "force-dynamic";
 
 export default async function HomePage() {
-  const [counts, user] = await Promise.all([countUsersByRole(), getCurrentUser()]);
+  const [counts, data, user] = await Promise.all([countUsersByRole(), countPublicData(), getCurrentUser()]);
   const stats = [
-    { label: "published datasets", value: 0 },
+    { label: "published datasets", value: data.datasets, href: "/reactions" },
+    { label: "reactions covered", value: data.reactions, href: "/reactions" },
+    { label: "rate constants", value: data.points },
     { label: "researchers", value: counts.researcher },
     { label: "curators", value: counts.curator },
   ];
@@ -35,12 +38,12 @@ export default async function HomePage() {
         <h2 id="numbers-heading" className="sr-only">
           Arrhenia in numbers
         </h2>
-        <dl className="grid gap-4 sm:grid-cols-3">
+        <dl className="grid gap-4 sm:grid-cols-3 lg:grid-cols-5">
           {stats.map((s) => (
             <div key={s.label} className="card">
               <dt className="text-sm text-muted">{s.label}</dt>
               <dd className="font-serif text-3xl font-semibold" data-testid={`count-${s.label.replace(/ /g, "-")}`}>
-                {s.value}
+                {s.href ? <Link href={s.href}>{s.value}</Link> : s.value}
               </dd>
             </div>
           ))}

@@ -6,7 +6,10 @@ import { SignOutButton } from "./sign-out-button";
 /** Product name, search, and the links the signed-in role may use. */
 export async function SiteHeader() {
   const user = await getCurrentUser();
-  const links: { href: string; label: string }[] = [{ href: "/analyse", label: "Fit data" }];
+  const links: { href: string; label: string }[] = [
+    { href: "/reactions", label: "Reactions" },
+    { href: "/analyse", label: "Fit data" },
+  ];
   if (user) {
     if (can(user.role, "dataset.deposit")) links.push({ href: "/deposits", label: "My deposits" });
     if (can(user.role, "dataset.review")) links.push({ href: "/review", label: "Review" });

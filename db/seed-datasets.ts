@@ -115,7 +115,8 @@ function buildDocument(spec: DatasetSpec, index: number, owner: UserDto) {
   const points = Array.from({ length: spec.n }, (_, i) => {
     // Even in 1/T, as most experiments are planned.
     const T = 1 / (1 / spec.Tmin - (i / (spec.n - 1)) * (1 / spec.Tmin - 1 / spec.Tmax));
-    const curvature = spec.special === "curved" ? Math.pow(T / 298.15, 2.4) * Math.exp(-(2.4 * 298.15) / T) : Math.pow(T / 298.15, r.n);
+    // Curved sets follow (T/T0)^2.4 exp(2.4 (1 − T0/T)): equal to the base expression at T0, curving away from it.
+    const curvature = spec.special === "curved" ? Math.pow(T / 298.15, 2.4) * Math.exp(2.4 * (1 - 298.15 / T)) : Math.pow(T / 298.15, r.n);
     let k = r.A * curvature * Math.exp(-r.EoverR / T);
     k *= Math.exp(spec.scatter * (rand() + rand() + rand() - 1.5) * 2); // ≈ normal noise
     if (spec.special === "outlier" && i === Math.floor(spec.n / 2)) k *= 4;

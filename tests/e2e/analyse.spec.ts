@@ -30,3 +30,12 @@ test("an error from the engine points at the pasted line", async ({ page }) => {
   await page.getByRole("button", { name: "Fit" }).click();
   await expect(page.getByRole("main").getByRole("alert")).toContainText("line 2:");
 });
+
+test("a reaction page compares the published datasets of the demo with their consensus", async ({ page }) => {
+  await page.goto("/reactions");
+  await page.getByRole("link", { name: /hydroxyl \+ methane → water \+ methyl/ }).first().click();
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(/hydroxyl \+ methane → water \+ methyl/);
+  await expect(page.getByRole("img", { name: /Arrhenius plot of \d+ datasets/ })).toBeVisible();
+  await expect(page.getByRole("heading", { name: /Consensus of \d+ datasets/ })).toBeVisible();
+  await expect(page.getByText(/Extrapolation outside the measured temperature range is unreliable/).first()).toBeVisible();
+});

@@ -10,7 +10,7 @@ import { findPossibleDuplicates, getPreviousVersion } from "@/lib/curation/queri
 import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
 import { getLatestAnalysis, getVersionPoints, listDecisions } from "@/lib/datasets/queries";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
-import { validateDeposit } from "@/lib/deposits";
+import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
 import { GAS_CONSTANT, type AnalysisResult, type Flag } from "@/lib/kinetics";
 import { DecisionForm } from "./decision-form";
@@ -57,7 +57,8 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
   const result = analysis?.result as AnalysisResult | null | undefined;
   const flags: Flag[] = result?.flags ?? [];
   const outliers = new Set(flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []));
-  const reported = (version.payload as { reportedFit?: { A: number; n?: number; Ea: number; EaUnit: string } }).reportedFit;
+  // The authors' expression in canonical units (A) and J/mol (Ea), comparable with the re-fit.
+  const reported = schema.ok ? toAnalysisInput(schema.value).reportedFit : undefined;
   const diff = previous ? jsonPatch.compare(previous.payload, version.payload) : null;
 
   return (
@@ -104,12 +105,12 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
                   <tbody>
                     <tr>
                       <td>A (canonical units)</td>
-                      <td>{reported ? sig(reported.A) + " (deposited units)" : "not reported"}</td>
+                      <td>{reported ? sig(reported.A) : "not reported"}</td>
                       <td>{sig(result.arrhenius.params.A)}</td>
                     </tr>
                     <tr>
                       <td>Ea</td>
-                      <td>{reported ? `${sig(reported.Ea)} ${reported.EaUnit}` : "not reported"}</td>
+                      <td>{reported ? `${sig(reported.Ea / 1000)} kJ mol⁻¹ (E/R = ${sig(reported.Ea / GAS_CONSTANT)} K)` : "not reported"}</td>
                       <td>
                         {sig(result.arrhenius.params.Ea / 1000)} kJ mol⁻¹ (E/R = {sig(result.arrhenius.params.Ea / GAS_CONSTANT)} K)
                       </td>

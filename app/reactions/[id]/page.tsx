@@ -1,0 +1,147 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { ConsensusPlot } from "@/components/consensus-plot";
+import { StateLabel } from "@/components/state-label";
+import { renderSpeciesSvg } from "@/lib/chem";
+import { FIT_CAUTION } from "@/lib/datasets/version-json";
+import { GAS_CONSTANT, consensus, getCanonicalRateConstantUnit, type AnalysisResult, type ConsensusResult, type ReactionOrder } from "@/lib/kinetics";
+import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
+import { getReaction, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
+
+export const metadata: Metadata = { title: "Reaction" };
+export const dynamic = "force-dynamic";
+
+function sig(v: number | null | undefined, d = 3) {
+  if (v === null || v === undefined || !Number.isFinite(v)) return "—";
+  return Math.abs(v) >= 1e5 || Math.abs(v) < 1e-2 ? v.toExponential(d - 1) : v.toPrecision(d);
+}
+
+/** Every public dataset of one reaction, compared on one plot, with the consensus expression. */
+export default async function ReactionPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const reactionId = Number(id);
+  const reaction = Number.isInteger(reactionId) && reactionId > 0 ? await getReaction({ id: reactionId }) : null;
+  if (!reaction) notFound();
+  const versions = await listPublicVersionsOfReaction({ reactionId });
+  const order = ((versions[0]?.payload as { reaction?: { order?: ReactionOrder } })?.reaction?.order ?? 2) as ReactionOrder;
+  const published = versions.filter((v) => v.state === "published" && new Set(v.points.map((p) => p.T)).size >= 2);
+  let result: ConsensusResult | null = null;
+  if (published.length >= 2) result = consensus(published.map((v) => ({ id: String(v.versionId), points: v.points, order })));
+  const member = (versionId: number) => result?.members.find((m) => m.id === String(versionId));
+  const pictures = await Promise.all(reaction.participants.map((p) => (p.smiles ? renderSpeciesSvg(p.smiles, { width: 140, height: 100 }).catch(() => null) : null)));
+  const kLabel = SUPPORTED_UNITS.rateConstant[order].find((u) => u.id === getCanonicalRateConstantUnit(order))?.label ?? "";
+  const modified = result?.preferred === "modified_arrhenius" ? result.modifiedArrhenius : null;
+  const preferred = result ? (modified ?? result.arrhenius) : null;
+
+  return (
+    <div className="space-y-6">
+      <header className="space-y-3">
+        <p className="text-sm text-muted">Reaction</p>
+        <h1 className="text-3xl font-semibold">{reaction.equation}</h1>
+        <ul className="flex flex-wrap gap-4" aria-label="Species">
+          {reaction.participants.map((p, i) => (
+            <li key={`${p.side}-${p.speciesId}`} className="card flex items-center gap-3 p-3 text-xs">
+              {/* SVG drawn by RDKit on our server. */}
+              {pictures[i] && <div className="h-[70px] w-[98px] [&>svg]:h-full [&>svg]:w-full" aria-hidden="true" dangerouslySetInnerHTML={{ __html: pictures[i]! }} />}
+              <div>
+                <p className="font-medium text-ink">
+                  {p.side === "reactant" ? "Reactant" : "Product"}: {p.names[0] ?? p.formula}
+                  {p.coefficient !== 1 ? ` ×${p.coefficient}` : ""}
+                </p>
+                <p>
+                  {p.formula}, {p.molarMass.toFixed(3)} g mol⁻¹
+                </p>
+                <p className="font-mono">{p.inchiKey}</p>
+              </div>
+            </li>
+          ))}
+        </ul>
+      </header>
+
+      {versions.length === 0 ? (
+        <p className="card text-sm">No published datasets of this reaction yet.</p>
+      ) : (
+        <>
+          <section className="card space-y-3" aria-labelledby="compare-heading">
+            <h2 id="compare-heading" className="text-xl font-semibold">All published datasets</h2>
+            <ConsensusPlot
+              kUnitLabel={kLabel}
+              band={preferred ? preferred.band : null}
+              series={published.map((v) => ({ label: `v${v.number} · ${v.title.split(":").pop()?.trim() ?? v.title}`, points: v.points.map((p) => ({ T: p.T, lnk: Math.log(p.k) })), excluded: member(v.versionId)?.included === false }))}
+            />
+            <p className="text-xs text-muted">{FIT_CAUTION}</p>
+          </section>
+
+          {result && preferred && (
+            <section className="card space-y-3" aria-labelledby="consensus-heading">
+              <h2 id="consensus-heading" className="text-xl font-semibold">Consensus of {result.datasets} datasets</h2>
+              <p className="text-sm">
+                k = {sig(preferred.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp(−{sig(preferred.params.Ea / GAS_CONSTANT, 4)} K / T) {kLabel}, {Math.round(result.range.Tmin)}–{Math.round(result.range.Tmax)} K
+              </p>
+              <p className="text-sm text-muted">
+                Uncertainty factor (95 %): {preferred.uncertaintyFactor.map((u) => `f = ${sig(u.f)} at ${Math.round(u.T)} K${u.extrapolated ? " (outside the data)" : ""}`).join("; ")}. Between-dataset spread τ² = {sig(preferred.tau2)} (ln k)², I² = {Math.round(preferred.i2 * 100)} %.
+              </p>
+              <p className="text-xs text-muted">{result.method}</p>
+              {result.flags.length > 0 && (
+                <ul className="space-y-2">
+                  {result.flags.map((f, i) => (
+                    <li key={i} className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">
+                      {f.message}
+                    </li>
+                  ))}
+                </ul>
+              )}
+            </section>
+          )}
+
+          <section className="card overflow-x-auto p-0" aria-labelledby="list-heading">
+            <h2 id="list-heading" className="px-6 pt-5 text-xl font-semibold">Datasets</h2>
+            <table className="table mt-2">
+              <thead>
+                <tr>
+                  <th scope="col">Dataset</th>
+                  <th scope="col">State</th>
+                  <th scope="col">Identifier</th>
+                  <th scope="col">T range (K)</th>
+                  <th scope="col">Points</th>
+                  <th scope="col">E/R (K)</th>
+                  <th scope="col">Offset from the others (log₁₀ k)</th>
+                </tr>
+              </thead>
+              <tbody>
+                {versions.map((v) => {
+                  const a = v.analysis as AnalysisResult | null;
+                  const m = member(v.versionId);
+                  return (
+                    <tr key={v.versionId}>
+                      <td>
+                        {v.title} <span className="text-muted">v{v.number}</span>
+                      </td>
+                      <td>
+                        <StateLabel state={v.state} />
+                      </td>
+                      <td className="font-mono text-xs">{v.versionIdentifier ?? "—"}</td>
+                      <td>
+                        {Math.round(v.tMin ?? 0)}–{Math.round(v.tMax ?? 0)}
+                      </td>
+                      <td>{v.pointCount}</td>
+                      <td>{a ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
+                      <td>
+                        {m?.offsetFromOthersLog10 !== null && m?.offsetFromOthersLog10 !== undefined ? sig(m.offsetFromOthersLog10, 2) : "—"}
+                        {m?.zScore !== null && m?.zScore !== undefined ? ` (z = ${sig(m.zScore, 2)})` : ""}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </section>
+        </>
+      )}
+      <p className="text-sm">
+        <Link href="/reactions">All reactions</Link>
+      </p>
+    </div>
+  );
+}

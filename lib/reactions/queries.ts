@@ -1,0 +1,88 @@
+import "server-only";
+import { and, desc, eq, inArray, sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { reactionParticipants, reactions, species, speciesNames } from "@/db/chemistry";
+import { datasets, datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
+
+/** A reaction with its species (and the names people gave them). */
+export async function getReaction({ id }: { id: number }) {
+  const db = getDb();
+  const [reaction] = await db.select({ id: reactions.id, key: reactions.key, equation: reactions.equation }).from(reactions).where(eq(reactions.id, id));
+  if (!reaction) return null;
+  const participants = await db
+    .select({
+      side: reactionParticipants.side,
+      coefficient: reactionParticipants.coefficient,
+      speciesId: species.id,
+      formula: species.formula,
+      smiles: species.canonicalSmiles,
+      inchiKey: species.inchiKey,
+      molarMass: species.molarMass,
+      names: sql<string[]>`coalesce((select array_agg(n.name order by n.name) from ${speciesNames} n where n.species_id = ${species.id}), '{}')`,
+    })
+    .from(reactionParticipants)
+    .innerJoin(species, eq(species.id, reactionParticipants.speciesId))
+    .where(eq(reactionParticipants.reactionId, id));
+  return { ...reaction, participants };
+}
+
+/**
+ * The newest public version (published or retracted) of every dataset of a reaction, with its
+ * stored points and newest analysis.
+ */
+export async function listPublicVersionsOfReaction({ reactionId }: { reactionId: number }) {
+  const db = getDb();
+  const versions = await db
+    .selectDistinctOn([datasetVersions.datasetId], {
+      versionId: datasetVersions.id,
+      datasetId: datasetVersions.datasetId,
+      number: datasetVersions.number,
+      title: datasetVersions.title,
+      state: datasetVersions.state,
+      versionIdentifier: datasetVersions.versionIdentifier,
+      tMin: datasetVersions.tMin,
+      tMax: datasetVersions.tMax,
+      pointCount: datasetVersions.pointCount,
+      payload: datasetVersions.payload,
+    })
+    .from(datasetVersions)
+    .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
+    .where(and(eq(datasets.reactionId, reactionId), inArray(datasetVersions.state, ["published", "retracted"])))
+    .orderBy(datasetVersions.datasetId, desc(datasetVersions.number));
+  if (!versions.length) return [];
+  const ids = versions.map((v) => v.versionId);
+  const points = await db
+    .select({ versionId: versionPoints.versionId, T: versionPoints.temperatureK, k: versionPoints.rateConstant, sigmaLnK: versionPoints.sigmaLnK })
+    .from(versionPoints)
+    .where(inArray(versionPoints.versionId, ids))
+    .orderBy(versionPoints.versionId, versionPoints.idx);
+  const analyses = await db
+    .selectDistinctOn([versionAnalyses.versionId], { versionId: versionAnalyses.versionId, result: versionAnalyses.result })
+    .from(versionAnalyses)
+    .where(inArray(versionAnalyses.versionId, ids))
+    .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id));
+  return versions.map((v) => ({
+    ...v,
+    points: points.filter((p) => p.versionId === v.versionId).map((p) => ({ T: p.T, k: p.k, ...(p.sigmaLnK !== null ? { sigmaLnK: p.sigmaLnK } : {}) })),
+    analysis: analyses.find((a) => a.versionId === v.versionId)?.result ?? null,
+  }));
+}
+
+/** Reactions that have at least one public dataset, with their counts (for listings). */
+export async function listReactionsWithPublicData() {
+  return getDb()
+    .select({ id: reactions.id, equation: reactions.equation, datasets: sql<number>`count(distinct ${datasets.id})::int` })
+    .from(reactions)
+    .innerJoin(datasets, eq(datasets.reactionId, reactions.id))
+    .innerJoin(datasetVersions, and(eq(datasetVersions.datasetId, datasets.id), eq(datasetVersions.state, "published")))
+    .groupBy(reactions.id)
+    .orderBy(reactions.equation);
+}
+
+/** Live figures for the home page: published datasets, the reactions they cover, their points. */
+export async function countPublicData() {
+  const [row] = await getDb().execute<{ datasets: number; reactions: number; points: number }>(sql`
+    select count(distinct d.id)::int as datasets, count(distinct d.reaction_id)::int as reactions, coalesce(sum(v.point_count), 0)::int as points
+    from dataset_versions v join datasets d on d.id = v.dataset_id where v.state = 'published'`);
+  return { datasets: Number(row?.datasets ?? 0), reactions: Number(row?.reactions ?? 0), points: Number(row?.points ?? 0) };
+}

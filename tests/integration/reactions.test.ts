@@ -1,0 +1,42 @@
+import { describe, expect, it } from "vitest";
+import { applyTransition } from "@/lib/curation/transitions";
+import { depositNewDataset } from "@/lib/datasets/deposits";
+import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
+import { countPublicData, getReaction, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
+import { createUser } from "@/lib/users/queries";
+import { sql, uniqueEmail } from "./helpers";
+
+describe("datasets of the same reaction meet on one reaction", () => {
+  it("lists only public versions, newest per dataset, with points and analysis", async () => {
+    const owner = await createUser({ email: uniqueEmail("rx"), name: "Rx Owner", passwordHash: "x", verified: true });
+    const curator = await createUser({ email: uniqueEmail("rxc"), name: "Rx Curator", passwordHash: "x", role: "curator", verified: true });
+    const before = await countPublicData();
+    const a = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Reaction page A" } });
+    // The same reaction written in another order and with other names still meets on one row.
+    const reordered = {
+      ...EXAMPLE_DEPOSIT,
+      title: "Reaction page B",
+      reaction: { ...EXAMPLE_DEPOSIT.reaction, reactants: [{ smiles: "C", name: "CH4" }, { smiles: "[OH]", name: "OH" }] },
+    };
+    const b = await depositNewDataset({ actor: owner, document: reordered });
+    const draft = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Reaction page draft" } });
+    const [ra, rb, rd] = await Promise.all([a, b, draft].map(async (v) => (await sql`select reaction_id from datasets where id = ${v.datasetId}`)[0].reaction_id));
+    expect(rb).toBe(ra);
+    expect(rd).toBe(ra);
+    for (const v of [a, b]) {
+      await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+      await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
+    }
+    const reaction = await getReaction({ id: ra });
+    expect(reaction?.participants).toHaveLength(4);
+    const names = reaction!.participants.find((p) => p.formula === "CH4")!.names;
+    expect(names).toEqual(expect.arrayContaining(["CH4", "methane"]));
+    const versions = await listPublicVersionsOfReaction({ reactionId: ra });
+    const ids = versions.map((v) => v.versionId);
+    expect(ids).toEqual(expect.arrayContaining([a.id, b.id]));
+    expect(ids).not.toContain(draft.id);
+    expect(versions.find((v) => v.versionId === a.id)!.points).toHaveLength(EXAMPLE_DEPOSIT.points.length);
+    const after = await countPublicData();
+    expect(after.datasets - before.datasets).toBe(2);
+  });
+});
