@@ -1,6 +1,7 @@
 "use client";
 
 import type { AnalysisResult, Flag, ReactionOrder } from "@/lib/kinetics/types";
+import { formatSignificant } from "@/lib/format";
 
 interface Props {
   analysis: AnalysisResult;
@@ -17,12 +18,7 @@ interface Props {
   pointWord?: string;
 }
 
-function sig(v: number | null | undefined, digits = 4): string {
-  if (v === null || v === undefined) return "—";
-  if (v === 0) return "0";
-  const a = Math.abs(v);
-  return a >= 1e5 || a < 1e-3 ? v.toExponential(digits - 1) : v.toPrecision(digits);
-}
+const sig = (v: number | null | undefined, digits = 4) => formatSignificant(v, digits);
 
 const severityStyle: Record<Flag["severity"], string> = {
   error: "border-error/50 text-error",

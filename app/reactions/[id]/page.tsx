@@ -8,14 +8,12 @@ import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { GAS_CONSTANT, consensus, getCanonicalRateConstantUnit, type AnalysisResult, type ConsensusResult, type ReactionOrder } from "@/lib/kinetics";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { getReaction, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
+import { formatSignificant } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Reaction" };
 export const dynamic = "force-dynamic";
 
-function sig(v: number | null | undefined, d = 3) {
-  if (v === null || v === undefined || !Number.isFinite(v)) return "—";
-  return Math.abs(v) >= 1e5 || Math.abs(v) < 1e-2 ? v.toExponential(d - 1) : v.toPrecision(d);
-}
+const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
 /** Every public dataset of one reaction, compared on one plot, with the consensus expression. */
 export default async function ReactionPage({ params }: { params: Promise<{ id: string }> }) {

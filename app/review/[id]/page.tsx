@@ -14,13 +14,11 @@ import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
 import { GAS_CONSTANT, type AnalysisResult, type Flag } from "@/lib/kinetics";
 import { DecisionForm } from "./decision-form";
+import { formatSignificant } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Review" };
 
-function sig(v: number | null | undefined, d = 4) {
-  if (v === null || v === undefined || !Number.isFinite(v)) return "—";
-  return Math.abs(v) >= 1e5 || Math.abs(v) < 1e-3 ? v.toExponential(d - 1) : v.toPrecision(d);
-}
+const sig = (v: number | null | undefined, digits = 4) => formatSignificant(v, digits);
 
 function CheckList({ items }: { items: { code: string; severity: string; message: string }[] }) {
   if (!items.length) return <p className="text-sm text-ok">No findings.</p>;
