@@ -285,3 +285,18 @@ export async function createNextVersion({ datasetId, actorId }: { datasetId: num
     return version;
   });
 }
+
+/** The public versions of a dataset, newest first (published or retracted only). */
+export async function listPublicVersions({ datasetId }: { datasetId: number }) {
+  return getDb()
+    .select({ id: datasetVersions.id, number: datasetVersions.number, state: datasetVersions.state, versionIdentifier: datasetVersions.versionIdentifier, publishedAt: datasetVersions.publishedAt })
+    .from(datasetVersions)
+    .where(and(eq(datasetVersions.datasetId, datasetId), inArray(datasetVersions.state, ["published", "retracted"])))
+    .orderBy(desc(datasetVersions.number));
+}
+
+/** A dataset's series identifier and reaction. */
+export async function getDatasetSummary({ datasetId }: { datasetId: number }) {
+  const [row] = await getDb().select({ id: datasets.id, seriesIdentifier: datasets.seriesIdentifier, reactionId: datasets.reactionId }).from(datasets).where(eq(datasets.id, datasetId));
+  return row ?? null;
+}

@@ -39,3 +39,14 @@ test("a reaction page compares the published datasets of the demo with their con
   await expect(page.getByRole("heading", { name: /Consensus of \d+ datasets/ })).toBeVisible();
   await expect(page.getByText(/Extrapolation outside the measured temperature range is unreliable/).first()).toBeVisible();
 });
+
+test("a published version's page shows its identifier, its fit in chosen units and the caution", async ({ page }) => {
+  await page.goto("/reactions");
+  await page.getByRole("link", { name: /chlorine atom \+ methane/ }).first().click();
+  await page.getByRole("table").getByRole("link").first().click();
+  await expect(page).toHaveURL(/\/datasets\/\d+\/v\d+$/);
+  await expect(page.getByText(/doi:10\.5072\/arrhenia\.\d+\.v\d+/).first()).toBeVisible();
+  await page.getByLabel("Show energies in").selectOption("kcal mol-1");
+  await expect(page.getByRole("cell", { name: "Ea (kcal mol⁻¹)" }).first()).toBeVisible();
+  await expect(page.getByText(/Extrapolation outside the measured temperature range is unreliable/).first()).toBeVisible();
+});

@@ -114,7 +114,7 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
                   return (
                     <tr key={v.versionId}>
                       <td>
-                        {v.title} <span className="text-muted">v{v.number}</span>
+                        <Link href={`/datasets/${v.datasetId}/v${v.number}`}>{v.title}</Link> <span className="text-muted">v{v.number}</span>
                       </td>
                       <td>
                         <StateLabel state={v.state} />

@@ -1,0 +1,135 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { MarkdownText } from "@/components/markdown-text";
+import { StateLabel } from "@/components/state-label";
+import { VersionFit } from "@/components/version-fit";
+import { getDatasetSummary, getLatestAnalysis, getVersionPoints, getVersionWithRole, listPublicVersions } from "@/lib/datasets/queries";
+import { listVersionFiles } from "@/lib/datasets/files";
+import { FIT_CAUTION } from "@/lib/datasets/version-json";
+import type { DepositDocument } from "@/lib/deposits/types";
+import type { AnalysisResult } from "@/lib/kinetics/types";
+
+export const metadata: Metadata = { title: "Dataset" };
+export const dynamic = "force-dynamic";
+
+/** The public page of one published (or retracted) version: what its version identifier resolves to. */
+export default async function DatasetVersionPage({ params }: { params: Promise<{ id: string; version: string }> }) {
+  const { id, version: v } = await params;
+  const datasetId = Number(id);
+  const number = Number(/^v(\d+)$/.exec(v)?.[1]);
+  if (!Number.isInteger(datasetId) || !Number.isInteger(number)) notFound();
+  const versions = await listPublicVersions({ datasetId });
+  const entry = versions.find((x) => x.number === number);
+  if (!entry) notFound();
+  const [found, dataset, analysis, points, files] = await Promise.all([
+    getVersionWithRole({ versionId: entry.id, userId: null }),
+    getDatasetSummary({ datasetId }),
+    getLatestAnalysis({ versionId: entry.id }),
+    getVersionPoints({ versionId: entry.id }),
+    listVersionFiles({ versionId: entry.id }),
+  ]);
+  if (!found) notFound();
+  const version = found.version;
+  const doc = version.payload as unknown as DepositDocument;
+  const result = analysis?.result as AnalysisResult | null;
+
+  return (
+    <article className="space-y-6">
+      <header className="space-y-3">
+        <p className="flex flex-wrap items-center gap-3 text-sm text-muted">
+          <StateLabel state={version.state} /> <span>Version {version.number}</span>
+          {version.publishedAt && <span>published {version.publishedAt.toISOString().slice(0, 10)}</span>}
+          {dataset?.reactionId && <Link href={`/reactions/${dataset.reactionId}`}>All datasets of this reaction</Link>}
+        </p>
+        <h1 className="text-3xl font-semibold">{version.title}</h1>
+        <p className="text-sm">{doc.creators?.map((c) => c.name).join("; ")}</p>
+        <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+          <dt className="text-muted">Version identifier</dt>
+          <dd className="font-mono">doi:{version.versionIdentifier}</dd>
+          {dataset?.seriesIdentifier && (
+            <>
+              <dt className="text-muted">All versions</dt>
+              <dd className="font-mono">doi:{dataset.seriesIdentifier}</dd>
+            </>
+          )}
+          <dt className="text-muted">Licence</dt>
+          <dd>{doc.license}</dd>
+          <dt className="text-muted">Content hash (SHA-256)</dt>
+          <dd className="break-all font-mono text-xs">{version.payloadSha256}</dd>
+        </dl>
+      </header>
+
+      {version.state === "retracted" && (
+        <p role="note" className="rounded-md border border-error/40 bg-panel px-4 py-3 text-sm text-error">
+          <span className="font-semibold">Retracted{version.retractedAt ? ` on ${version.retractedAt.toISOString().slice(0, 10)}` : ""}: </span>
+          {version.retractionNotice}
+        </p>
+      )}
+
+      {doc.description && (
+        <section className="card" aria-label="Description">
+          <MarkdownText text={doc.description} />
+        </section>
+      )}
+
+      <section className="grid gap-6 md:grid-cols-2" aria-label="How the data were obtained">
+        <div className="card space-y-1 text-sm">
+          <h2 className="text-lg font-semibold">Method</h2>
+          <p>
+            {doc.method?.category}: {doc.method?.technique}
+            {doc.method?.detection ? `; detection: ${doc.method.detection}` : ""}
+          </p>
+          {doc.method?.notes && <p className="text-muted">{doc.method.notes}</p>}
+          <p>
+            Phase: {doc.reaction.phase}; order {doc.reaction.order}
+            {doc.conditions?.bathGas ? `; bath gas ${doc.conditions.bathGas}` : ""}
+            {doc.conditions?.pressure?.value !== undefined ? `; ${doc.conditions.pressure.value} ${doc.units.pressure ?? ""}` : ""}
+          </p>
+        </div>
+        <div className="card space-y-1 text-sm">
+          <h2 className="text-lg font-semibold">Source</h2>
+          {doc.source?.doi && <p>Publication: doi:{doc.source.doi}</p>}
+          {doc.source?.reference && <p>{doc.source.reference.title}</p>}
+          {doc.source?.locator && <p className="text-muted">Numbers from {doc.source.locator}</p>}
+        </div>
+      </section>
+
+      {result && (
+        <section className="space-y-3" aria-labelledby="fit-heading">
+          <h2 id="fit-heading" className="text-2xl font-semibold">Re-fitted here</h2>
+          <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>
+          <VersionFit analysis={result} order={doc.reaction.order} points={points} />
+        </section>
+      )}
+
+      {files.length > 0 && (
+        <section className="card space-y-2" aria-labelledby="files-heading">
+          <h2 id="files-heading" className="text-lg font-semibold">Supplementary files</h2>
+          <ul className="space-y-1 text-sm">
+            {files.map((f) => (
+              <li key={f.id}>
+                <a href={`/api/v1/files/${f.id}`}>{f.filename}</a> <span className="font-mono text-xs text-muted">sha256 {f.sha256.slice(0, 16)}…</span>
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
+
+      {versions.length > 1 && (
+        <section className="card space-y-2" aria-labelledby="versions-heading">
+          <h2 id="versions-heading" className="text-lg font-semibold">Other versions</h2>
+          <ul className="space-y-1 text-sm">
+            {versions
+              .filter((x) => x.number !== number)
+              .map((x) => (
+                <li key={x.id}>
+                  <Link href={`/datasets/${datasetId}/v${x.number}`}>Version {x.number}</Link> — {x.state}, doi:{x.versionIdentifier}
+                </li>
+              ))}
+          </ul>
+        </section>
+      )}
+    </article>
+  );
+}

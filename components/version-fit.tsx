@@ -1,0 +1,56 @@
+"use client";
+
+import { useState } from "react";
+import type { AnalysisResult, ReactionOrder } from "@/lib/kinetics/types";
+import { SUPPORTED_UNITS, convertEnergy, fromCanonicalRateConstant } from "@/lib/kinetics/units";
+import { ArrheniusPlot } from "./arrhenius-plot";
+import { ResultTables } from "./result-tables";
+
+/** A stored version's fit: plot, parameters in units the reader picks, and the checks. */
+export function VersionFit({ analysis, order, points }: { analysis: AnalysisResult; order: ReactionOrder; points: { T: number; k: number }[] }) {
+  const kUnits = SUPPORTED_UNITS.rateConstant[order];
+  const [kUnit, setKUnit] = useState<string>(kUnits[0].id);
+  const [energyUnit, setEnergyUnit] = useState("kJ mol-1");
+  const outliers = new Set(analysis.flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []));
+  return (
+    <div className="space-y-4">
+      <div className="flex flex-wrap gap-4">
+        <label className="space-y-1 text-sm">
+          <span className="block font-medium">Show k in</span>
+          <select value={kUnit} onChange={(e) => setKUnit(e.target.value)} className="field-input">
+            {kUnits.map((u) => (
+              <option key={u.id} value={u.id}>
+                {u.label}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="space-y-1 text-sm">
+          <span className="block font-medium">Show energies in</span>
+          <select value={energyUnit} onChange={(e) => setEnergyUnit(e.target.value)} className="field-input">
+            {SUPPORTED_UNITS.energy.map((u) => (
+              <option key={u.id} value={u.id}>
+                {u.label}
+              </option>
+            ))}
+          </select>
+        </label>
+      </div>
+      <div className="card">
+        <ArrheniusPlot kUnitLabel={kUnits[0].label} band={analysis.band} points={points.map((p, i) => ({ T: p.T, lnk: Math.log(p.k), outlier: outliers.has(i) }))} />
+      </div>
+      <ResultTables
+        analysis={analysis}
+        order={order}
+        kUnit={kUnit}
+        kLabel={kUnits.find((u) => u.id === kUnit)?.label ?? kUnit}
+        energyUnit={energyUnit}
+        energyLabel={SUPPORTED_UNITS.energy.find((u) => u.id === energyUnit)?.label ?? energyUnit}
+        convertK={(k) => fromCanonicalRateConstant(k, kUnit, order)}
+        convertE={(e) => convertEnergy(e, "J mol-1", energyUnit)}
+        lineOf={(i) => i + 1}
+        pointWord="Point"
+      />
+    </div>
+  );
+}
