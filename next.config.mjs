@@ -11,6 +11,8 @@ const nextConfig = {
   turbopack: { root },
   outputFileTracingRoot: root,
   poweredByHeader: false,
+  // npm test builds into its own folder so it never replaces the build a running npm start serves.
+  distDir: process.env.NEXT_DIST_DIR || ".next",
   // Type errors are caught by `npm run typecheck`, its own tier in `npm test`; checking again here
   // would only double the build time.
   typescript: { ignoreBuildErrors: true },

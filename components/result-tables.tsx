@@ -40,7 +40,7 @@ export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE
         <h3 id="params-heading" className="text-lg font-semibold">
           Fitted parameters
         </h3>
-        <table className="table">
+        <table className="table [&_td]:whitespace-nowrap">
           <caption className="sr-only">Parameters of each model with standard errors</caption>
           <thead>
             <tr>

@@ -11,8 +11,8 @@ ensure_chromium || exit 1
 
 TEST_PORT="${TEST_PGPORT:-$((55000 + RANDOM % 2000))}"
 DIR="$(pg_state_dir "postgres-test-$$")"
-REPORTS="$ROOT/.data/test-reports"
-rm -rf "$REPORTS"; mkdir -p "$REPORTS"
+REPORTS="$ROOT/.data/test-reports/$$"
+mkdir -p "$REPORTS"; export TEST_REPORTS_DIR="$REPORTS"
 cleanup() { pg_stop "$DIR" 2>/dev/null; rm -rf "$DIR"; }
 trap cleanup EXIT INT TERM
 
@@ -20,6 +20,7 @@ pg_init "$DIR" fast && pg_start "$DIR" "$TEST_PORT" || exit 1
 DATABASE_URL="$(pg_url "$DIR" "$TEST_PORT")"; export DATABASE_URL
 export NEXTAUTH_SECRET="test-secret-$(head -c 16 /dev/urandom | od -An -tx1 | tr -d ' \n')"
 export BCRYPT_ROUNDS=4 # fast hashes in the throwaway cluster only
+export NEXT_DIST_DIR=.next-test # never the build that npm start serves
 TSX=(node_modules/.bin/tsx --conditions=react-server)
 
 # TEST_TIERS="unit e2e" runs a subset while developing; CI always runs every tier.
@@ -66,5 +67,7 @@ else
 fi
 fi
 
+# Reports of a green run are not needed; a red run keeps them for reading.
+[ "$failed" -eq 0 ] && rm -rf "$REPORTS"
 echo "$passed passed, $failed failed"
 [ "$failed" -eq 0 ]

@@ -40,7 +40,19 @@ export function AnalyseWorkbench() {
   const parsed = useMemo(() => parseColumns(text), [text]);
   const mutation = useMutation<AnalysisResponse, Problem, { lines: number[]; body: unknown }>({ mutationFn: ({ body }) => postAnalysis(body) });
 
+  // A result belongs to the units and order it was fitted with: changing them clears it.
+  function changeKUnit(next: string) {
+    setKUnit(next);
+    mutation.reset();
+  }
+
+  function changeTUnit(next: string) {
+    setTUnit(next);
+    mutation.reset();
+  }
+
   function changeOrder(next: ReactionOrder) {
+    mutation.reset();
     setOrder(next);
     setKUnit(SUPPORTED_UNITS.rateConstant[next][0].id);
   }
@@ -83,12 +95,15 @@ export function AnalyseWorkbench() {
         </div>
         <div className="space-y-4">
           <Select label="Reaction order" value={String(order)} onChange={(v) => changeOrder(Number(v) as ReactionOrder)} options={[["1", "1 (unimolecular)"], ["2", "2 (bimolecular)"], ["3", "3 (termolecular)"]]} />
-          <Select label="Unit of k" value={kUnit} onChange={setKUnit} options={SUPPORTED_UNITS.rateConstant[order].map((u) => [u.id, u.label])} />
-          <Select label="Unit of T" value={TUnit} onChange={setTUnit} options={SUPPORTED_UNITS.temperature.map((u) => [u.id, u.label])} />
+          <Select label="Unit of k" value={kUnit} onChange={changeKUnit} options={SUPPORTED_UNITS.rateConstant[order].map((u) => [u.id, u.label])} />
+          <Select label="Unit of T" value={TUnit} onChange={changeTUnit} options={SUPPORTED_UNITS.temperature.map((u) => [u.id, u.label])} />
           <Select label="Show energies in" value={energyUnit} onChange={setEnergyUnit} options={SUPPORTED_UNITS.energy.map((u) => [u.id, u.label])} />
-          <button type="submit" className="btn-primary w-full" disabled={mutation.isPending || parsed.errors.length > 0 || parsed.points.length < 2}>
+          <button type="submit" className="btn-primary w-full" disabled={mutation.isPending || parsed.errors.length > 0 || parsed.points.length < 2} aria-describedby="fit-needs">
             {mutation.isPending ? "Fitting…" : "Fit"}
           </button>
+          <p id="fit-needs" className="text-xs text-muted">
+            {parsed.errors.length > 0 ? "Correct the lines marked above to fit." : parsed.points.length < 2 ? "Paste at least two points at two different temperatures." : "Changing a unit or the order clears the result; fit again."}
+          </p>
         </div>
       </form>
 

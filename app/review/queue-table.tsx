@@ -4,6 +4,7 @@ import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type So
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { SeverityLabel, StateLabel } from "@/components/state-label";
+import { REACTION_CLASSES } from "@/lib/deposits/vocabulary";
 
 export interface QueueRow {
   versionId: number;
@@ -34,7 +35,7 @@ const columns = [
   col.accessor("number", { header: "Version", cell: (c) => `v${c.getValue()}`, enableSorting: false }),
   col.accessor("owner", { header: "Owner", enableSorting: false }),
   col.accessor("state", { header: "State", cell: (c) => <StateLabel state={c.getValue()} />, enableSorting: false }),
-  col.accessor("reactionClass", { header: "Class", cell: (c) => (c.getValue() ?? "—").replace(/_/g, " "), enableSorting: false }),
+  col.accessor("reactionClass", { header: "Class", cell: (c) => REACTION_CLASSES.find((k) => k.id === c.getValue())?.label ?? c.getValue() ?? "—", enableSorting: false }),
   col.accessor("worstFlag", { header: "Checks", cell: (c) => <SeverityLabel severity={c.getValue()} />, enableSorting: true }),
   col.accessor("pointCount", { header: "Points", enableSorting: true }),
   col.display({ id: "range", header: "T range (K)", cell: (c) => (c.row.original.tMin === null ? "—" : `${Math.round(c.row.original.tMin)}–${Math.round(c.row.original.tMax ?? 0)}`) }),

@@ -48,7 +48,7 @@ export function CreateTokenForm() {
           <input id="new-token" readOnly value={state.data.secret} className="field-input font-mono" onFocus={(ev) => ev.currentTarget.select()} />
         </div>
       )}
-      <FormField label="Token name" name="name" placeholder="e.g. lab upload script" required error={e.name} />
+      <FormField id="token-name" label="Token name" name="name" placeholder="e.g. lab upload script" required error={e.name} />
       <fieldset className="space-y-1">
         <legend className="text-sm font-medium">Scopes</legend>
         <label className="flex items-center gap-2 text-sm">

@@ -46,9 +46,9 @@ function SpeciesList({ side, form, update }: SectionProps & { side: Side }) {
         {rows.map((s, i) => (
           <li key={i} className="grid items-start gap-3 md:grid-cols-[1fr_1fr_1.3fr_5rem_auto]">
             <TextField pointer={`/reaction/${side}/${i}/name`} label={`${noun} ${i + 1}: name`} value={s.name} onChange={(v) => set(i, { name: v })} placeholder="e.g. hydroxyl radical" />
-            <TextField pointer={`/reaction/${side}/${i}/smiles`} label="SMILES" value={s.smiles} onChange={(v) => set(i, { smiles: v })} placeholder="e.g. [OH]" mono />
-            <TextField pointer={`/reaction/${side}/${i}/inchi`} label="InChI" value={s.inchi} onChange={(v) => set(i, { inchi: v })} placeholder="InChI=1S/…" mono />
-            <NumberField pointer={`/reaction/${side}/${i}/coefficient`} label="How many" value={s.coefficient} onChange={(v) => set(i, { coefficient: v })} />
+            <TextField pointer={`/reaction/${side}/${i}/smiles`} label={`${noun} ${i + 1}: SMILES`} value={s.smiles} onChange={(v) => set(i, { smiles: v })} placeholder="e.g. [OH]" mono />
+            <TextField pointer={`/reaction/${side}/${i}/inchi`} label={`${noun} ${i + 1}: InChI`} value={s.inchi} onChange={(v) => set(i, { inchi: v })} placeholder="InChI=1S/…" mono />
+            <NumberField pointer={`/reaction/${side}/${i}/coefficient`} label={`${noun} ${i + 1}: how many`} value={s.coefficient} onChange={(v) => set(i, { coefficient: v })} />
             {!readOnly && (
               <button
                 type="button"

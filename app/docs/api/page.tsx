@@ -1,11 +1,12 @@
 import type { Metadata } from "next";
 import { CAUTION, MAX_POINTS } from "@/lib/analyses/analyse-request";
+import { appUrl } from "@/lib/config";
 import { ANALYSIS_CONVENTIONS } from "@/lib/kinetics/conventions";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 
 export const metadata: Metadata = { title: "API" };
 
-const example = `curl -s http://127.0.0.1:3000/api/v1/analyses \\
+const example = (base: string) => `curl -s ${base}/api/v1/analyses \\
   -H 'content-type: application/json' \\
   -d '{"order": 2, "units": {"k": "cm3 molecule-1 s-1", "T": "K"},
        "points": [{"T": 250, "k": 2.1e-15}, {"T": 300, "k": 6.4e-15}, {"T": 350, "k": 1.2e-14}]}'`;
@@ -58,7 +59,7 @@ export default function ApiDocsPage() {
           <code>eyring</code>, <code>diagnostics</code>, <code>curvature</code>, <code>band</code> (50 temperatures) and <code>flags</code>. 422 for input that cannot be fitted, 413 for an
           oversized body, 429 when rate limited (with <code>Retry-After</code>).
         </p>
-        <pre className="overflow-x-auto rounded-md border border-line bg-panel p-4 text-xs">{example}</pre>
+        <pre className="overflow-x-auto rounded-md border border-line bg-panel p-4 text-xs">{example(appUrl())}</pre>
         <h3 className="font-semibold">Conventions</h3>
         <ul className="list-disc space-y-2 pl-6 text-sm">
           {ANALYSIS_CONVENTIONS.map((c, i) => (

@@ -41,7 +41,7 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
           {reaction.participants.map((p, i) => (
             <li key={`${p.side}-${p.speciesId}`} className="card flex items-center gap-3 p-3 text-xs">
               {/* SVG drawn by RDKit on our server. */}
-              {pictures[i] && <div className="h-[70px] w-[98px] [&>svg]:h-full [&>svg]:w-full" aria-hidden="true" dangerouslySetInnerHTML={{ __html: pictures[i]! }} />}
+              {pictures[i] && <div role="img" aria-label={`Structure of ${p.names[0] ?? p.formula}`} className="h-[70px] w-[98px] [&>svg]:h-full [&>svg]:w-full" dangerouslySetInnerHTML={{ __html: pictures[i]! }} />}
               <div>
                 <p className="font-medium text-ink">
                   {p.side === "reactant" ? "Reactant" : "Product"}: {p.names[0] ?? p.formula}
@@ -75,7 +75,7 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
             <section className="card space-y-3" aria-labelledby="consensus-heading">
               <h2 id="consensus-heading" className="text-xl font-semibold">Consensus of {result.datasets} datasets</h2>
               <p className="text-sm">
-                k = {sig(preferred.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp(−{sig(preferred.params.Ea / GAS_CONSTANT, 4)} K / T) {kLabel}, {Math.round(result.range.Tmin)}–{Math.round(result.range.Tmax)} K
+                k = {sig(preferred.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp({preferred.params.Ea >= 0 ? "−" : "+"}{sig(Math.abs(preferred.params.Ea) / GAS_CONSTANT, 4)} K / T) {kLabel}, {Math.round(result.range.Tmin)}–{Math.round(result.range.Tmax)} K
               </p>
               <p className="text-sm text-muted">
                 Uncertainty factor (95 %): {preferred.uncertaintyFactor.map((u) => `f = ${sig(u.f)} at ${Math.round(u.T)} K${u.extrapolated ? " (outside the data)" : ""}`).join("; ")}. Between-dataset spread τ² = {sig(preferred.tau2)} (ln k)², I² = {Math.round(preferred.i2 * 100)} %.

@@ -25,3 +25,13 @@ describe("parseColumns (pasted spreadsheet columns)", () => {
     expect(r.errors.map((e) => e.line)).toEqual([2, 3]);
   });
 });
+
+describe("decimal commas", () => {
+  it("are refused with the corrected number shown, never split into two columns", () => {
+    expect(parseColumns("250;2,1e-15").errors).toEqual([{ line: 1, message: "line 1: “2,1e-15” has a decimal comma; write it with a point (2.1e-15)" }]);
+    expect(parseColumns("250\t2,1e-15").errors).toHaveLength(1);
+  });
+  it("a comma between two numbers still separates columns", () => {
+    expect(parseColumns("250,2.1e-15").points).toEqual([{ T: 250, k: 2.1e-15 }]);
+  });
+});
