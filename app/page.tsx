@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { can } from "@/lib/auth/permissions";
 import { getCurrentUser } from "@/lib/auth/session";
 import { countPublicData } from "@/lib/reactions/queries";
 import { countUsersByRole } from "@/lib/users/queries";
@@ -23,6 +24,23 @@ export default async function HomePage() {
           published version gets its own identifier. Each dataset is re-fitted the same way — Arrhenius, modified Arrhenius and Eyring — with outliers and curvature flagged
           before anyone copies a number into a mechanism.
         </p>
+        {user && (
+          <div className="flex flex-wrap gap-3">
+            {can(user.role, "dataset.deposit") && (
+              <Link href="/deposits/new" className="btn-primary no-underline hover:no-underline">
+                New deposit
+              </Link>
+            )}
+            <Link href="/deposits" className="btn-secondary no-underline hover:no-underline">
+              My deposits
+            </Link>
+            {can(user.role, "dataset.review") && (
+              <Link href="/review" className="btn-secondary no-underline hover:no-underline">
+                Review queue
+              </Link>
+            )}
+          </div>
+        )}
         {!user && (
           <div className="flex gap-3">
             <Link href="/sign-up" className="btn-primary no-underline hover:no-underline">
