@@ -39,7 +39,7 @@ const columns = [
   col.accessor("worstFlag", { header: "Checks", cell: (c) => <SeverityLabel severity={c.getValue()} />, enableSorting: true }),
   col.accessor("pointCount", { header: "Points", enableSorting: true }),
   col.display({ id: "range", header: "T range (K)", cell: (c) => (c.row.original.tMin === null ? "—" : `${Math.round(c.row.original.tMin)}–${Math.round(c.row.original.tMax ?? 0)}`) }),
-  col.accessor("submittedAt", { header: "Waiting", cell: (c) => age(c.getValue()), enableSorting: true }),
+  col.accessor("submittedAt", { header: "Submitted (waiting for)", cell: (c) => age(c.getValue()), enableSorting: true }),
 ];
 
 /** The review queue: sorting and paging happen on the server; the table only reflects the URL. */
@@ -62,6 +62,7 @@ export function QueueTable({ rows, total, page, pageSize, sort, direction }: { r
     columns,
     state: { sorting },
     manualSorting: true,
+    enableSortingRemoval: false,
     manualPagination: true,
     pageCount: Math.max(1, Math.ceil(total / pageSize)),
     getCoreRowModel: getCoreRowModel(),

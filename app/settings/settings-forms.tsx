@@ -12,9 +12,9 @@ export function ProfileForm({ name, orcid, affiliation }: { name: string; orcid:
   return (
     <form action={action} className="space-y-4">
       <FormMessage state={state} />
-      <FormField label="Name" name="name" defaultValue={name} required autoComplete="name" error={e.name} />
-      <FormField label="Affiliation" name="affiliation" defaultValue={affiliation ?? ""} error={e.affiliation} />
-      <FormField label="ORCID iD" name="orcid" defaultValue={orcid ?? ""} placeholder="0000-0000-0000-0000" hint="Optional. The check digit is verified." error={e.orcid} />
+      <FormField label="Name" name="name" defaultValue={state.values?.name ?? name} required autoComplete="name" error={e.name} />
+      <FormField label="Affiliation" name="affiliation" defaultValue={state.values?.affiliation ?? affiliation ?? ""} error={e.affiliation} />
+      <FormField label="ORCID iD" name="orcid" defaultValue={state.values?.orcid ?? orcid ?? ""} placeholder="0000-0000-0000-0000" hint="Optional. The check digit is verified." error={e.orcid} />
       <SubmitButton>Save profile</SubmitButton>
     </form>
   );
@@ -48,7 +48,7 @@ export function CreateTokenForm() {
           <input id="new-token" readOnly value={state.data.secret} className="field-input font-mono" onFocus={(ev) => ev.currentTarget.select()} />
         </div>
       )}
-      <FormField id="token-name" label="Token name" name="name" placeholder="e.g. lab upload script" required error={e.name} />
+      <FormField id="token-name" label="Token name" name="name" placeholder="e.g. lab upload script" required error={e.name} defaultValue={state.status === "error" ? state.values?.name : undefined} />
       <fieldset className="space-y-1">
         <legend className="text-sm font-medium">Scopes</legend>
         <label className="flex items-center gap-2 text-sm">

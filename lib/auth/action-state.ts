@@ -5,6 +5,8 @@ export interface ActionState {
   fieldErrors?: Record<string, string>;
   /** Values to show once (e.g. a new API token's secret). */
   data?: Record<string, string>;
+  /** The submitted (non-secret) values, returned with an error so fields keep what was typed. */
+  values?: Record<string, string>;
 }
 
 export const idleState: ActionState = { status: "idle" };

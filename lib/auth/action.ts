@@ -23,14 +23,29 @@ function formToObject(formData: FormData): Record<string, FormDataEntryValue | F
   return out;
 }
 
+/**
+ * What the person typed, sent back with an error: React resets a form after its action, and
+ * fields show these values instead of going blank. Secrets are never echoed.
+ */
+function echoValues(formData: FormData): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const [key, value] of formData.entries()) {
+    if (key.startsWith("$ACTION") || typeof value !== "string" || /password|confirm|current|token|secret/i.test(key)) continue;
+    out[key] = value;
+  }
+  return out;
+}
+
 function fieldErrors(error: z.ZodError): Record<string, string> {
   const out: Record<string, string> = {};
   for (const issue of error.issues) out[issue.path.join(".") || "form"] ??= issue.message;
   return out;
 }
 
-function toState(err: unknown): ActionState {
-  if (err instanceof AppError) return { status: "error", message: err.message, fieldErrors: Object.fromEntries(err.errors.map((e) => [e.pointer.replace(/^\//, ""), e.message])) };
+function toState(err: unknown, formData?: FormData): ActionState {
+  if (err instanceof AppError) {
+    return { status: "error", message: err.message, fieldErrors: Object.fromEntries(err.errors.map((e) => [e.pointer.replace(/^\//, ""), e.message])), values: formData ? echoValues(formData) : undefined };
+  }
   // Next's redirect()/notFound() work by throwing: let them through.
   if (err && typeof err === "object" && "digest" in err) throw err;
   console.error("[action] failed", err);
@@ -44,11 +59,11 @@ export function protectedAction<S extends z.ZodType>(schema: S, options: { permi
       const user = await getCurrentUser();
       if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
       const parsed = schema.safeParse(formToObject(formData));
-      if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error) };
+      if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error), values: echoValues(formData) };
       assertAllowed(user, { permission: options.permission });
       return (await body(parsed.data, user)) ?? { status: "ok" };
     } catch (err) {
-      return toState(err);
+      return toState(err, formData);
     }
   };
 }
@@ -58,10 +73,10 @@ export function publicAction<S extends z.ZodType>(schema: S, body: PublicBody<S>
   return async (_prev: ActionState, formData: FormData): Promise<ActionState> => {
     try {
       const parsed = schema.safeParse(formToObject(formData));
-      if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error) };
+      if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error), values: echoValues(formData) };
       return (await body(parsed.data)) ?? { status: "ok" };
     } catch (err) {
-      return toState(err);
+      return toState(err, formData);
     }
   };
 }

@@ -99,5 +99,7 @@ export async function removeVersionFile({ actor, fileId }: { actor: UserDto; fil
     await tx.delete(versionFiles).where(eq(versionFiles.id, fileId));
     await recordAuditEvent(tx, { actorId: actor.id, action: "dataset.file_removed", subjectType: "dataset_version", subjectId: row.versionId, details: { filename: row.filename } });
   });
-  await getStorage().remove(row.storageKey);
+  // A newer version may list the same stored object; keep it while any row refers to it.
+  const [still] = await getDb().select({ id: versionFiles.id }).from(versionFiles).where(eq(versionFiles.storageKey, row.storageKey)).limit(1);
+  if (!still) await getStorage().remove(row.storageKey);
 }

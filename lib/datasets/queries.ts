@@ -1,7 +1,7 @@
 import "server-only";
 import { and, desc, eq, inArray } from "drizzle-orm";
 import { getDb, type Transaction } from "@/db/client";
-import { datasetMembers, datasets, datasetVersions, decisions, versionAnalyses, versionPoints } from "@/db/datasets";
+import { datasetMembers, datasets, datasetVersions, decisions, versionAnalyses, versionFiles, versionPoints } from "@/db/datasets";
 import { users } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import type { CoEditorRole, VersionState } from "@/lib/curation/lifecycle";
@@ -281,6 +281,11 @@ export async function createNextVersion({ datasetId, actorId }: { datasetId: num
       .values({ datasetId, number: latest.number + 1, title: latest.title, payload: latest.payload, createdBy: actorId, ...summarise(stored, summary) })
       .returning(versionColumns);
     await writePointsAndAnalysis(tx, version.id, stored, summary);
+    // Files are immutable objects: the new draft lists the same ones (removal keeps shared objects).
+    const files = await tx.select().from(versionFiles).where(eq(versionFiles.versionId, latest.id));
+    if (files.length) {
+      await tx.insert(versionFiles).values(files.map((f) => ({ versionId: version.id, filename: f.filename, contentType: f.contentType, sizeBytes: f.sizeBytes, sha256: f.sha256, storageKey: f.storageKey })));
+    }
     await recordAuditEvent(tx, { actorId, action: "dataset.version_started", subjectType: "dataset_version", subjectId: version.id, details: { from: latest.id, number: version.number } });
     return version;
   });

@@ -70,7 +70,7 @@ test("a deposit goes from an uploaded CSV through a request for changes to publi
     await signInAs(page, curator);
     await review.openFromQueue(title);
     await review.takeIntoReview();
-    await review.decide("Request changes", changesReason, "changes requested");
+    await review.decide("Request changes", changesReason, /the authors have been asked for changes/);
   });
 
   await test.step("the researcher reads the decision, edits, saves and submits again", async () => {
@@ -87,7 +87,7 @@ test("a deposit goes from an uploaded CSV through a request for changes to publi
   await test.step("the curator accepts and publishes", async () => {
     await signInAs(page, curator);
     await review.openFromQueue(title);
-    await review.decide("Accept and publish", "Complete and consistent; the note on row 5 answers the question.", "published");
+    await review.decide("Accept and publish", "Complete and consistent; the note on row 5 answers the question.", /the version is published/);
   });
 
   await test.step("the published version shows its identifier", async () => {

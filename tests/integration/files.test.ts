@@ -11,6 +11,7 @@ import { DELETE as deleteFile, GET as getFile } from "@/app/api/v1/files/[fileId
 import { GET as listFiles, POST as postFile } from "@/app/api/v1/versions/[id]/files/route";
 import { getCurrentUser } from "@/lib/auth/session";
 import { applyTransition } from "@/lib/curation/transitions";
+import { startNextVersion } from "@/lib/datasets/deposits";
 import { addDatasetMember, createDatasetDraft } from "@/lib/datasets/queries";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { uniqueEmail } from "./helpers";
@@ -87,5 +88,17 @@ describe("supplementary files", () => {
     expect(del.status).toBe(409); // and the database trigger would refuse it too
     as(null);
     expect((await getFile(new Request("http://127.0.0.1/"), { params: Promise.resolve({ fileId: String(data.id) }) })).status).toBe(200);
+
+    // The next version lists the same file; removing it there keeps the published one intact.
+    const v2 = await startNextVersion({ actor: owner, versionId: v.id });
+    as(owner);
+    const listed = await (await listFiles(new Request("http://127.0.0.1/"), { params: Promise.resolve({ id: String(v2.id) }) })).json();
+    expect(listed.data.map((f: { sha256: string }) => f.sha256)).toEqual([data.sha256]);
+    const del2 = await deleteFile(new Request("http://127.0.0.1/"), { params: Promise.resolve({ fileId: String(listed.data[0].id) }) });
+    expect(del2.status).toBe(204);
+    as(null);
+    const still = await getFile(new Request("http://127.0.0.1/"), { params: Promise.resolve({ fileId: String(data.id) }) });
+    expect(still.status).toBe(200);
+    expect(await still.text()).toBe("1,2");
   });
 });

@@ -8,7 +8,8 @@ import { activeChangeSchema, roleChangeSchema } from "@/lib/users/schemas";
 export const changeRoleAction = protectedAction(roleChangeSchema, { permission: "user.manage" }, async ({ userId, role }, admin) => {
   await changeUserRole({ actorId: admin.id, userId, role });
   revalidatePath("/admin/people");
-  return { status: "ok", message: `Role changed to ${role}.` };
+  // The form resets after the action: `values` keeps the new role selected.
+  return { status: "ok", message: `Role changed to ${role}.`, values: { role } };
 });
 
 export const setActiveAction = protectedAction(activeChangeSchema, { permission: "user.manage" }, async ({ userId, active }, admin) => {

@@ -15,7 +15,7 @@ export function RoleForm({ userId, role, name }: { userId: number; role: string;
       <label htmlFor={`role-${userId}`} className="sr-only">
         Role of {name}
       </label>
-      <select id={`role-${userId}`} name="role" defaultValue={role} className="field-input w-auto py-1">
+      <select id={`role-${userId}`} name="role" defaultValue={state.values?.role ?? role} className="field-input w-auto py-1">
         {roleOptions.map((r) => (
           <option key={r} value={r}>
             {r}

@@ -11,19 +11,28 @@ const decisions: { value: Transition; label: string; hint: string }[] = [
   { value: "decline", label: "Decline", hint: "The version will not be published." },
 ];
 
+const doneWords: Record<string, string> = {
+  in_review: "Done: the version is now in review.",
+  changes_requested: "Done: the authors have been asked for changes.",
+  published: "Done: the version is published.",
+  declined: "Done: the version is declined.",
+  retracted: "Done: the version is retracted.",
+};
+
 /** Start the review, or record a decision with its reason; or retract a published version. */
 export function DecisionForm({ versionId, state, coEditing }: { versionId: number; state: string; coEditing: boolean }) {
   const router = useRouter();
   const [pending, start] = useTransition();
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
-  const [choice, setChoice] = useState<Transition>("accept");
+  // No decision is preselected: publishing cannot be undone.
+  const [choice, setChoice] = useState<Transition | null>(null);
   const [reason, setReason] = useState("");
 
   function run(t: Transition, why?: string) {
     start(async () => {
       const r = await transitionAction(versionId, t, why);
       if (r.ok) {
-        setMessage({ ok: true, text: `Done: the version is now ${r.state.replace("_", " ")}.` });
+        setMessage({ ok: true, text: doneWords[r.state] ?? `Done: the version is now ${r.state.replace("_", " ")}.` });
         setReason("");
         router.refresh();
       } else setMessage({ ok: false, text: r.message });
@@ -78,14 +87,14 @@ export function DecisionForm({ versionId, state, coEditing }: { versionId: numbe
         className="space-y-3"
         onSubmit={(e) => {
           e.preventDefault();
-          run(choice, reason);
+          if (choice) run(choice, reason);
         }}
       >
         <fieldset className="space-y-2">
           <legend className="text-sm font-medium">Decision</legend>
           {decisions.map((d) => (
             <label key={d.value} className="flex items-start gap-2 text-sm">
-              <input type="radio" name="decision" value={d.value} checked={choice === d.value} onChange={() => setChoice(d.value)} className="mt-1" />
+              <input type="radio" name="decision" value={d.value} checked={choice === d.value} onChange={() => setChoice(d.value)} className="mt-1" required />
               <span>
                 <span className="font-medium">{d.label}</span> <span className="text-muted">— {d.hint}</span>
               </span>

@@ -61,8 +61,9 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
 
   return (
     <div className="space-y-6">
-      <p className="text-sm">
+      <p className="flex gap-4 text-sm">
         <Link href="/review">← Review queue</Link>
+        <Link href={`/deposits/${version.id}`}>The full record (reaction, data table, method, source, files)</Link>
       </p>
       <header className="space-y-2">
         <h1 className="text-3xl font-semibold">{version.title}</h1>

@@ -177,11 +177,11 @@ export class ReviewPage {
     await expect(this.page.getByRole("status").filter({ hasText: "the version is now in review" })).toBeVisible({ timeout: 15_000 });
   }
 
-  async decide(decision: "Request changes" | "Accept and publish" | "Decline", reason: string, expectedState: string) {
+  async decide(decision: "Request changes" | "Accept and publish" | "Decline", reason: string, expectedConfirmation: RegExp) {
     await this.page.getByRole("radio", { name: new RegExp(`^${decision}`) }).check();
     await this.page.getByLabel(/^Reason/).fill(reason);
     await this.page.getByRole("button", { name: "Record the decision" }).click();
-    await expect(this.page.getByRole("status").filter({ hasText: `the version is now ${expectedState}` })).toBeVisible({ timeout: 15_000 });
+    await expect(this.page.getByRole("status").filter({ hasText: expectedConfirmation })).toBeVisible({ timeout: 15_000 });
   }
 }
 

@@ -46,7 +46,7 @@ export default async function MailMessagePage({ params }: { params: Promise<{ id
           <details className="border-t border-line pt-4 text-sm">
             <summary className="cursor-pointer">Show the HTML version</summary>
             {/* Sandboxed: the message's HTML can neither run scripts nor reach this page. */}
-            <iframe title="HTML version of the message" sandbox="allow-popups" srcDoc={message.html} className="mt-3 h-96 w-full rounded-md border border-line bg-white" />
+            <iframe title="HTML version of the message" sandbox="allow-popups allow-popups-to-escape-sandbox" srcDoc={`<base target="_blank">${message.html}`} className="mt-3 h-96 w-full rounded-md border border-line bg-white" />
           </details>
         )}
       </article>

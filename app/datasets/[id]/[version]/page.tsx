@@ -109,7 +109,7 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
           <ul className="space-y-1 text-sm">
             {files.map((f) => (
               <li key={f.id}>
-                <a href={`/api/v1/files/${f.id}`}>{f.filename}</a> <span className="font-mono text-xs text-muted">sha256 {f.sha256.slice(0, 16)}…</span>
+                <a href={`/api/v1/files/${f.id}`}>{f.filename}</a> <span className="break-all font-mono text-xs text-muted">sha256 {f.sha256}</span>
               </li>
             ))}
           </ul>
