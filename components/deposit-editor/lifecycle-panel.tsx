@@ -29,6 +29,8 @@ export interface VersionView {
   state: string;
   versionIdentifier: string | null;
   retractionNotice: string | null;
+  /** Where the public page of a published version lives (/datasets/:id/v:n). */
+  publicPath?: string;
 }
 
 interface Props {
@@ -106,6 +108,12 @@ export function LifecyclePanel({ version, role, checks, decisions, members, dirt
         <div className="space-y-2">
           <p className="text-sm">
             Version identifier: <code className="rounded-sm bg-paper px-1.5 py-0.5">{version.versionIdentifier}</code>
+            {version.publicPath && (
+              <>
+                {" "}
+                — <a href={version.publicPath}>open the public page</a>
+              </>
+            )}
           </p>
           <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
         </div>

@@ -71,7 +71,8 @@ export async function transitionVersion({ actor, versionId, transition, reason }
   }
   if (transition === "accept" || transition === "request_changes" || transition === "decline" || transition === "retract") {
     const members = await listDatasetMembers({ datasetId: outcome.datasetId });
-    for (const m of members) await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? ""));
+    const published = outcome.identifiers && found ? { identifier: outcome.identifiers.version, path: `/datasets/${outcome.datasetId}/v${found.version.number}` } : undefined;
+    for (const m of members) await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? "", published));
   }
   return outcome;
 }

@@ -63,10 +63,23 @@ const decisionWords = {
   retract: "was retracted",
 } as const;
 
-export function decisionMail(to: string, name: string, title: string, versionId: number, decision: keyof typeof decisionWords, reason: string): MailMessage {
-  return compose(to, `Decision on “${title}”: ${decision.replace("_", " ")}`, name, [`Your dataset “${title}” ${decisionWords[decision]}.`, `The curator's reason: ${reason}`], {
-    label: "Open the dataset",
-    url: `${appUrl()}/deposits/${versionId}`,
+const decisionSubjects = { accept: "accepted", request_changes: "changes requested", decline: "declined", retract: "retracted" } as const;
+
+/** To each co-editor after a decision; an accepted version links its public page and identifier. */
+export function decisionMail(
+  to: string,
+  name: string,
+  title: string,
+  versionId: number,
+  decision: keyof typeof decisionWords,
+  reason: string,
+  published?: { identifier: string; path: string },
+): MailMessage {
+  const lines = [`Your dataset “${title}” ${decisionWords[decision]}.`, `The curator's reason: ${reason}`];
+  if (published) lines.push(`Its version identifier is doi:${published.identifier}; cite this version with it.`);
+  return compose(to, `Decision on “${title}”: ${decisionSubjects[decision]}`, name, lines, {
+    label: published ? "Open the published version" : "Open the dataset",
+    url: published ? `${appUrl()}${published.path}` : `${appUrl()}/deposits/${versionId}`,
   });
 }
 

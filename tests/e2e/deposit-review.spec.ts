@@ -94,7 +94,12 @@ test("a deposit goes from an uploaded CSV through a request for changes to publi
     await signInAs(page, DEMO_RESEARCHER);
     await editor.open(versionId);
     await editor.expectState("published");
-    await expect(editor.versionIdentifier).toHaveText(/^Version identifier: 10\.5072\/arrhenia\.\d+\.v1$/);
+    await expect(editor.versionIdentifier).toHaveText(/^Version identifier: 10\.5072\/arrhenia\.\d+\.v1 — open the public page$/);
+    // The public page is what the identifier resolves to.
+    await editor.versionIdentifier.getByRole("link", { name: "open the public page" }).click();
+    await expect(page).toHaveURL(/\/datasets\/\d+\/v1$/);
+    await expect(page.getByText(/doi:10\.5072\/arrhenia\.\d+\.v1/).first()).toBeVisible();
+    await page.goBack();
     await expect(editor.decision("accepted")).toContainText("the note on row 5 answers the question");
     await expect(editor.cell("Note", 5)).toHaveValue("re-read from the original trace");
   });
@@ -104,8 +109,8 @@ test("a deposit goes from an uploaded CSV through a request for changes to publi
     await signInAs(page, { email: DEMO_ADMIN.email, name: "Rosalind Okafor" });
     await new MailLog(page).expectCounts([
       ...DEMO_CURATORS.map((c) => ({ to: c.email, subject: `Waiting for review: ${title}`, count: 2 })),
-      { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: request changes`, count: 1 },
-      { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: accept`, count: 1 },
+      { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: changes requested`, count: 1 },
+      { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: accepted`, count: 1 },
     ]);
   });
 });

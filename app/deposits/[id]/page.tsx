@@ -55,7 +55,7 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
       </header>
       <DepositEditor
         mode="existing"
-        version={{ id: version.id, number: version.number, state: version.state, versionIdentifier: version.versionIdentifier, retractionNotice: version.retractionNotice }}
+        version={{ id: version.id, number: version.number, state: version.state, versionIdentifier: version.versionIdentifier, retractionNotice: version.retractionNotice, publicPath: `/datasets/${version.datasetId}/v${version.number}` }}
         payload={version.payload as unknown as DepositDocument}
         lockVersion={version.lockVersion}
         role={datasetRole}
