@@ -24,6 +24,8 @@ export NEXT_DIST_DIR=.next-test # never the build that npm start serves
 TSX=(node_modules/.bin/tsx --conditions=react-server)
 
 # TEST_TIERS="unit e2e" runs a subset while developing; CI always runs every tier.
+# TEST_FILES="consensus deposits-api" passes file filters to vitest (unit and integration tiers).
+read -r -a FILTERS <<< "${TEST_FILES:-}"
 TIERS=" ${TEST_TIERS:-lint typecheck unit integration e2e} "
 want() { [[ "$TIERS" == *" $1 "* ]]; }
 passed=0; failed=0
@@ -43,13 +45,13 @@ count_vitest() { node -e 'try{const r=require(process.argv[1]);console.log(r.num
 
 if want unit; then
 log "unit tests"
-node_modules/.bin/vitest run --project unit --reporter=default --reporter=json --outputFile.json="$REPORTS/unit.json" >&2
+node_modules/.bin/vitest run --project unit --passWithNoTests "${FILTERS[@]}" --reporter=default --reporter=json --outputFile.json="$REPORTS/unit.json" >&2
 read -r p f < <(count_vitest "$REPORTS/unit.json"); tier unit "$p" "$f"
 fi
 
 if want integration; then
 log "integration tests (PostgreSQL at 127.0.0.1:$TEST_PORT)"
-node_modules/.bin/vitest run --project integration --reporter=default --reporter=json --outputFile.json="$REPORTS/integration.json" >&2
+node_modules/.bin/vitest run --project integration --passWithNoTests "${FILTERS[@]}" --reporter=default --reporter=json --outputFile.json="$REPORTS/integration.json" >&2
 read -r p f < <(count_vitest "$REPORTS/integration.json"); tier integration "$p" "$f"
 fi
 
