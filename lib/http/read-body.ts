@@ -17,6 +17,8 @@ export interface ReadBodyOptions {
   limit: number;
   /** What the body is, for the message: "deposit document", "analysis request"… */
   what?: string;
+  /** The limit as people know it, when `limit` adds framing (a 25 MB file in a multipart body). */
+  shownLimit?: number;
 }
 
 function formatLimit(bytes: number): string {
@@ -25,8 +27,8 @@ function formatLimit(bytes: number): string {
   return `${bytes} bytes`;
 }
 
-function tooLarge({ limit, what = "request body" }: ReadBodyOptions): AppError {
-  return new AppError("payload_too_large", `The ${what} is larger than the limit of ${formatLimit(limit)}`, [{ pointer: "", message: `more than ${limit} bytes` }]);
+function tooLarge({ limit, what = "request body", shownLimit = limit }: ReadBodyOptions): AppError {
+  return new AppError("payload_too_large", `The ${what} is larger than ${formatLimit(shownLimit)}, the limit`, [{ pointer: "", message: `more than ${limit} bytes` }]);
 }
 
 /**

@@ -81,7 +81,7 @@ test("a chunked 200 MB analysis request is refused with 413 after a little over 
   expect(res.status).toBe(413);
   const problem = JSON.parse(res.body);
   expect(problem.code).toBe("payload_too_large");
-  expect(problem.title).toMatch(/limit of 12 MB/);
+  expect(problem.title).toMatch(/larger than 12 MB, the limit/);
   // The answer came while most of the 200 MB were still unsent (socket buffers hold a few MB).
   expect(res.sent).toBeLessThan(100 * MB);
   if (pid) {
