@@ -17,6 +17,12 @@ const nextConfig = {
   // would only double the build time.
   typescript: { ignoreBuildErrors: true },
   typedRoutes: false,
+  experimental: {
+    // Next reads a server action's whole body, counting it, before any action runs. The largest
+    // argument is a deposit document (at most 25 MB, MAX_DOCUMENT_BYTES) passed as a JSON string,
+    // whose escaped quotes add about a fifth; every other action sends a few kilobytes.
+    serverActions: { bodySizeLimit: "32mb" },
+  },
 };
 
 export default nextConfig;

@@ -6,3 +6,4 @@ export * from "./mail";
 export * from "./rate-limits";
 export * from "./chemistry";
 export * from "./datasets";
+export * from "./idempotency";

@@ -2,6 +2,7 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError, type z } from "zod";
 import { AppError, problemJson, type FieldError } from "@/lib/errors";
+import { BODY_LIMITS, readJsonBodyOrThrow } from "@/lib/http/read-body";
 import { getUserByApiToken, type UserDto } from "@/lib/users/queries";
 import { assertAllowed } from "./guard";
 import type { Permission } from "./permissions";
@@ -54,14 +55,9 @@ async function resolveUser(req: Request, scope?: ApiScope): Promise<UserDto | nu
   return getCurrentUser();
 }
 
-/** Parses a JSON body with a zod schema; malformed JSON and schema failures become 422s with pointers. */
-export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S): Promise<z.infer<S>> {
-  let body: unknown;
-  try {
-    body = await req.json();
-  } catch {
-    throw new AppError("validation_failed", "The request body is not valid JSON", [{ pointer: "", message: "not valid JSON" }]);
-  }
+/** Parses a JSON body (read with a byte cap) with a zod schema; malformed JSON and schema failures become 422s with pointers. */
+export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S, limit: number = BODY_LIMITS.json): Promise<z.infer<S>> {
+  const body = await readJsonBodyOrThrow(req, { limit });
   const parsed = schema.safeParse(body);
   if (!parsed.success) throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
   return parsed.data;

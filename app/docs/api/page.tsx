@@ -71,6 +71,23 @@ export default function ApiDocsPage() {
         <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
       </section>
 
+      <section className="space-y-3" aria-labelledby="limits">
+        <h2 id="limits" className="text-2xl font-semibold">
+          Body sizes and safe retries
+        </h2>
+        <p className="text-sm">
+          Every request body is counted as it arrives, with or without <code>Content-Length</code>, and refused with 413 (<code>payload_too_large</code>) as soon as it crosses its
+          limit: deposit documents 25 MB, supplementary files 25 MB, analyses 12 MB, other JSON bodies 1 MB.
+        </p>
+        <p className="text-sm">
+          <code>POST /api/v1/datasets</code>, <code>POST /api/v1/versions/:id/next</code>, <code>POST /api/v1/versions/:id/files</code> and{" "}
+          <code>POST /api/v1/versions/:id/transitions</code> accept an <code>Idempotency-Key</code> header (1 to 255 visible ASCII characters, e.g. a fresh UUID, plain or in
+          quotes). Send the same key again when retrying after a timeout: for 24 hours, the same key from the same account with the same body answers with the first response
+          (same status and body, marked <code>Idempotent-Replayed: true</code>) and creates nothing new. The same key with another body is a 422; a retry while the first request
+          is still running is a 409. Refused requests store nothing and keep no key, so they may be retried with it. Files are matched on name and content.
+        </p>
+      </section>
+
       <section className="space-y-3" aria-labelledby="other">
         <h2 id="other" className="text-2xl font-semibold">
           Other endpoints

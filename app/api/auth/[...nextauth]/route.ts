@@ -1,6 +1,25 @@
 // GET/POST /api/auth/* — next-auth's sign-in, session and sign-out endpoints
 import NextAuth from "next-auth";
+import { NextRequest } from "next/server";
+import { problemResponse } from "@/lib/auth/api";
 import { authOptions } from "@/lib/auth/options";
+import { AppError } from "@/lib/errors";
+import { BODY_LIMITS, readBodyOrThrow } from "@/lib/http/read-body";
+
+type Context = { params: Promise<{ nextauth: string[] }> };
 
 const handler = NextAuth(authOptions);
-export { handler as GET, handler as POST };
+
+// next-auth reads the whole body itself; hand it a copy read with the cap instead.
+async function POST(req: NextRequest, context: Context) {
+  let body: Uint8Array;
+  try {
+    body = await readBodyOrThrow(req, { limit: BODY_LIMITS.form, what: "sign-in request" });
+  } catch (err) {
+    if (err instanceof AppError) return problemResponse(err, new URL(req.url).pathname);
+    throw err;
+  }
+  return handler(new NextRequest(req.url, { method: "POST", headers: req.headers, body: body as BodyInit }), context);
+}
+
+export { handler as GET, POST };

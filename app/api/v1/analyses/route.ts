@@ -4,19 +4,11 @@ import { zodToFieldErrors, withApi } from "@/lib/auth/api";
 import { clientIp, consumeOrThrow } from "@/lib/auth/rate-limit";
 import { analysisRequestSchema, MAX_BODY_BYTES, runAnalysisOrThrow } from "@/lib/analyses/analyse-request";
 import { AppError } from "@/lib/errors";
+import { readJsonBodyOrThrow } from "@/lib/http/read-body";
 
 export const POST = withApi(async ({ req }) => {
   await consumeOrThrow("analysisIp", clientIp(req.headers), "Too many analyses from this network");
-  const declared = Number(req.headers.get("content-length") ?? 0);
-  if (declared > MAX_BODY_BYTES) throw new AppError("payload_too_large", `The body is larger than ${MAX_BODY_BYTES / 1024 / 1024} MB`);
-  const text = await req.text();
-  if (text.length > MAX_BODY_BYTES) throw new AppError("payload_too_large", `The body is larger than ${MAX_BODY_BYTES / 1024 / 1024} MB`);
-  let body: unknown;
-  try {
-    body = JSON.parse(text);
-  } catch (err) {
-    throw new AppError("validation_failed", "The request body is not valid JSON", [{ pointer: "", message: (err as Error).message }]);
-  }
+  const body = await readJsonBodyOrThrow(req, { limit: MAX_BODY_BYTES, what: "analysis request" });
   const parsed = analysisRequestSchema.safeParse(body);
   if (!parsed.success) {
     const errors = zodToFieldErrors(parsed.error);

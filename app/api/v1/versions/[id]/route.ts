@@ -7,6 +7,7 @@ import { getVisibleVersionOrThrow, updateDraft } from "@/lib/datasets/deposits";
 import { versionToJson } from "@/lib/datasets/version-json";
 import { MAX_DOCUMENT_BYTES, parseDepositJson } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
+import { readTextBodyOrThrow } from "@/lib/http/read-body";
 
 function versionIdOrThrow(raw: string): number {
   const id = Number(raw);
@@ -31,8 +32,7 @@ export const PUT = withApi<{ id: string }>(
     if (!ifMatch || !Number.isInteger(expected)) {
       throw new AppError("validation_failed", "Send the lock version you edited as an If-Match header (the ETag of GET)", [{ pointer: "", message: "If-Match header missing" }]);
     }
-    if (Number(req.headers.get("content-length") ?? 0) > MAX_DOCUMENT_BYTES) throw new AppError("payload_too_large", "The document is larger than 25 MB");
-    const parsed = parseDepositJson(await req.text());
+    const parsed = parseDepositJson(await readTextBodyOrThrow(req, { limit: MAX_DOCUMENT_BYTES, what: "deposit document" }));
     if (!parsed.ok) throw new AppError("validation_failed", parsed.errors[0].message, parsed.errors);
     const saved = await updateDraft({ actor: user!, versionId, expectedLockVersion: expected, document: parsed.value });
     return NextResponse.json({ data: { versionId: saved.id, lockVersion: saved.lockVersion, state: saved.state } }, { headers: { etag: `"${saved.lockVersion}"` } });

@@ -1,10 +1,13 @@
 // GET /api/v1/versions/:id/files — a version's supplementary files
-// POST /api/v1/versions/:id/files — add one (multipart field "file"; owner or editor; drafts only; ≤ 25 MB)
+// POST /api/v1/versions/:id/files — add one (multipart field "file"; owner or editor; drafts only; ≤ 25 MB; Idempotency-Key honoured)
+import { createHash } from "node:crypto";
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
 import { addVersionFile, listVersionFiles, MAX_FILE_BYTES } from "@/lib/datasets/files";
 import { AppError } from "@/lib/errors";
+import { BODY_LIMITS, readFormDataOrThrow } from "@/lib/http/read-body";
+import { withIdempotency } from "@/lib/idempotency";
 
 function idOf(raw: string) {
   const id = Number(raw);
@@ -24,13 +27,22 @@ export const GET = withApi<{ id: string }>(
 export const POST = withApi<{ id: string }>(
   async ({ req, user, params }) => {
     const versionId = idOf(params.id);
-    // Refuse before reading: multipart overhead is small next to the 25 MB limit.
-    if (Number(req.headers.get("content-length") ?? 0) > MAX_FILE_BYTES + 64 * 1024) throw new AppError("payload_too_large", "The file is larger than 25 MB");
-    const form = await req.formData().catch(() => null);
-    const file = form?.get("file");
+    // Counted before any part is decoded: an oversized upload is refused without being held.
+    const form = await readFormDataOrThrow(req, { limit: MAX_FILE_BYTES + BODY_LIMITS.multipartOverhead, what: "upload", shownLimit: MAX_FILE_BYTES });
+    const file = form.get("file");
     if (!file || typeof file === "string") throw new AppError("validation_failed", "Send the file as multipart form field “file”", [{ pointer: "/file", message: "missing" }]);
-    const saved = await addVersionFile({ actor: user!, versionId, filename: file.name, content: new Uint8Array(await file.arrayBuffer()) });
-    return NextResponse.json({ data: saved }, { status: 201 });
+    const content = new Uint8Array(await file.arrayBuffer());
+    // The multipart boundary differs on every retry, so the key is matched on name and content.
+    const fingerprint = `${file.name}\n${createHash("sha256").update(content).digest("hex")}`;
+    return withIdempotency({
+      req,
+      user: user!,
+      fingerprint,
+      run: async () => {
+        const saved = await addVersionFile({ actor: user!, versionId, filename: file.name, content });
+        return NextResponse.json({ data: saved }, { status: 201 });
+      },
+    });
   },
   { permission: "dataset.deposit", scope: "deposit" },
 );

@@ -1,15 +1,26 @@
-// POST /api/v1/versions/:id/next — start the next version of this version's dataset as a draft copy (owner)
+// POST /api/v1/versions/:id/next — start the next version of this version's dataset as a draft copy (owner; Idempotency-Key honoured)
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { startNextVersion } from "@/lib/datasets/deposits";
 import { AppError } from "@/lib/errors";
+import { BODY_LIMITS, readBodyOrThrow } from "@/lib/http/read-body";
+import { withIdempotency } from "@/lib/idempotency";
 
 export const POST = withApi<{ id: string }>(
-  async ({ user, params }) => {
+  async ({ req, user, params }) => {
     const versionId = Number(params.id);
     if (!Number.isInteger(versionId) || versionId <= 0) throw new AppError("not_found", "No such dataset version");
-    const v = await startNextVersion({ actor: user!, versionId });
-    return NextResponse.json({ data: { versionId: v.id, number: v.number, state: v.state, lockVersion: v.lockVersion } }, { status: 201, headers: { location: `/api/v1/versions/${v.id}` } });
+    // The body carries nothing, but is read with a cap so a large one cannot be queued.
+    const body = await readBodyOrThrow(req, { limit: BODY_LIMITS.json });
+    return withIdempotency({
+      req,
+      user: user!,
+      fingerprint: body,
+      run: async () => {
+        const v = await startNextVersion({ actor: user!, versionId });
+        return NextResponse.json({ data: { versionId: v.id, number: v.number, state: v.state, lockVersion: v.lockVersion } }, { status: 201, headers: { location: `/api/v1/versions/${v.id}` } });
+      },
+    });
   },
   { permission: "dataset.deposit", scope: "deposit" },
 );

@@ -1,9 +1,11 @@
-// POST /api/v1/versions/:id/transitions — submit, withdraw, review, decide or retract a version
+// POST /api/v1/versions/:id/transitions — submit, withdraw, review, decide or retract a version (Idempotency-Key honoured)
 import { NextResponse } from "next/server";
 import { z } from "zod";
-import { parseJsonBody, withApi } from "@/lib/auth/api";
+import { withApi, zodToFieldErrors } from "@/lib/auth/api";
 import { transitionVersion } from "@/lib/datasets/deposits";
 import { AppError } from "@/lib/errors";
+import { BODY_LIMITS, parseJsonBytesOrThrow, readBodyOrThrow } from "@/lib/http/read-body";
+import { withIdempotency } from "@/lib/idempotency";
 
 const bodySchema = z
   .object({
@@ -16,10 +18,20 @@ export const POST = withApi<{ id: string }>(
   async ({ req, user, params }) => {
     const versionId = Number(params.id);
     if (!Number.isInteger(versionId) || versionId <= 0) throw new AppError("not_found", "No such dataset version");
-    const { transition, reason } = await parseJsonBody(req, bodySchema);
-    // Role and dataset membership are re-read inside the transaction (lib/curation/transitions.ts).
-    const outcome = await transitionVersion({ actor: user!, versionId, transition, reason });
-    return NextResponse.json({ data: outcome });
+    const body = await readBodyOrThrow(req, { limit: BODY_LIMITS.json, what: "transition request" });
+    return withIdempotency({
+      req,
+      user: user!,
+      fingerprint: body,
+      run: async () => {
+        const parsed = bodySchema.safeParse(parseJsonBytesOrThrow(body));
+        if (!parsed.success) throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
+        const { transition, reason } = parsed.data;
+        // Role and dataset membership are re-read inside the transaction (lib/curation/transitions.ts).
+        const outcome = await transitionVersion({ actor: user!, versionId, transition, reason });
+        return NextResponse.json({ data: outcome });
+      },
+    });
   },
   { permission: "dataset.deposit", scope: "deposit" },
 );
