@@ -1,14 +1,34 @@
 import "server-only";
 import { drizzle } from "drizzle-orm/postgres-js";
 import postgres from "postgres";
+import { withConnectionRetry } from "./retry";
 import * as schema from "./schema";
 import { databaseUrl } from "@/lib/config";
 
 type Db = ReturnType<typeof createDb>;
 
+/** Seconds before a closed pooled connection reconnects: 0.05, 0.1, 0.2 … up to 1, with jitter. */
+function reconnectDelaySeconds(failures: number): number {
+  return Math.min(0.05 * 2 ** failures, 1) * (0.5 + Math.random() / 2);
+}
+
 function createDb() {
-  const client = postgres(databaseUrl(), { max: Number(process.env.DB_POOL_SIZE ?? 10), onnotice: () => {} });
-  return drizzle(client, { schema, casing: "snake_case" });
+  const client = postgres(databaseUrl(), {
+    max: Number(process.env.DB_POOL_SIZE ?? 10),
+    onnotice: () => {},
+    // A database restart or a dead peer must not leave broken connections in the pool: give up
+    // on a connection attempt after 10 s, close idle ones after a minute and every one after
+    // 15 minutes, and let TCP keep-alive notice a peer that vanished without closing.
+    connect_timeout: 10,
+    // The driver's default reconnect delay grows with a failure count shared by the whole pool
+    // (3^n / 100 s, up to 20 s): a restart closes every connection at once, so queries parked on a
+    // reconnecting connection waited 10-20 s after the server was back. Cap it at one second.
+    backoff: reconnectDelaySeconds,
+    idle_timeout: 60,
+    max_lifetime: 15 * 60,
+    keep_alive: 30,
+  });
+  return drizzle(withConnectionRetry(client), { schema, casing: "snake_case" });
 }
 
 // One pool per process; survives hot reloads in development.

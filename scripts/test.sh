@@ -17,6 +17,8 @@ cleanup() { pg_stop "$DIR" 2>/dev/null; rm -rf "$DIR"; }
 trap cleanup EXIT INT TERM
 
 pg_init "$DIR" fast && pg_start "$DIR" "$TEST_PORT" || exit 1
+# The restart test drives this cluster with pg_ctl (PGBIN is exported by ensure_postgres).
+export TEST_PG_DIR="$DIR"
 DATABASE_URL="$(pg_url "$DIR" "$TEST_PORT")"; export DATABASE_URL
 export NEXTAUTH_SECRET="test-secret-$(head -c 16 /dev/urandom | od -An -tx1 | tr -d ' \n')"
 export BCRYPT_ROUNDS=4 # fast hashes in the throwaway cluster only

@@ -2,7 +2,7 @@ import "server-only";
 import { createHash } from "node:crypto";
 import canonicalize from "canonicalize";
 import { and, eq, isNull } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Transaction } from "@/db/client";
 import { datasetMembers, datasets, datasetVersions, decisions, identifierRegistrations } from "@/db/datasets";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
@@ -30,7 +30,20 @@ export interface TransitionOutcome {
  * decision (for curator decisions) and an audit event. Acceptance freezes the version: payload
  * hash, identifiers, publication time — after which the database refuses any change.
  */
-export async function applyTransition({ versionId, actorId, transition, reason }: { versionId: number; actorId: number; transition: Transition; reason?: string }): Promise<TransitionOutcome> {
+export async function applyTransition({
+  versionId,
+  actorId,
+  transition,
+  reason,
+  beforeCommit,
+}: {
+  versionId: number;
+  actorId: number;
+  transition: Transition;
+  reason?: string;
+  /** Work that must commit or roll back with the transition (queuing the mail and jobs it causes). */
+  beforeCommit?: (tx: Transaction, outcome: TransitionOutcome) => Promise<void>;
+}): Promise<TransitionOutcome> {
   return getDb().transaction(async (tx) => {
     const [version] = await tx
       .select({ id: datasetVersions.id, datasetId: datasetVersions.datasetId, number: datasetVersions.number, state: datasetVersions.state, payload: datasetVersions.payload })
@@ -80,6 +93,7 @@ export async function applyTransition({ versionId, actorId, transition, reason }
       subjectId: versionId,
       details: { from: version.state, to, ...(reason ? { reason: reason.trim() } : {}), ...(outcome.identifiers ? { identifiers: outcome.identifiers } : {}) },
     });
+    if (beforeCommit) await beforeCommit(tx, outcome);
     return outcome;
   });
 }

@@ -53,30 +53,36 @@ export async function getVisibleVersionOrThrow({ versionId, viewer }: { versionI
 }
 
 /**
- * Applies a lifecycle transition, then queues the mail it causes: curators hear of each
- * submission; owner and co-editors of each decision and retraction.
+ * Applies a lifecycle transition and, in the same transaction, queues the mail and identifier
+ * registrations it causes (curators hear of each submission; owner and co-editors of each
+ * decision and retraction): they exist exactly when the transition commits.
  */
 export async function transitionVersion({ actor, versionId, transition, reason }: { actor: UserDto; versionId: number; transition: Transition; reason?: string }) {
-  const outcome = await applyTransition({ versionId, actorId: actor.id, transition, reason });
+  // Read before the transaction, so it holds one connection and only its own locks.
   const found = await getVersionWithRole({ versionId, userId: null });
   const title = found?.version.title ?? "your dataset";
-  if (transition === "submit") {
-    for (const c of await listActiveCurators()) await enqueueMail(submissionMail(c.email, c.name, title, versionId));
-  }
-  if (outcome.identifiers) {
-    // After the commit: the registration job retries until the agency has both identifiers.
-    await enqueueIdentifierRegistration(outcome.identifiers.version);
-    // A later version changes what the series record lists, so it is sent again.
-    await enqueueIdentifierRegistration(outcome.identifiers.series, (found?.version.number ?? 1) > 1 ? { refresh: true } : {});
-  }
-  if (transition === "accept" || transition === "request_changes" || transition === "decline" || transition === "retract") {
-    const members = await listDatasetMembers({ datasetId: outcome.datasetId });
-    const published = outcome.identifiers && found ? { identifier: outcome.identifiers.version, path: `/datasets/${outcome.datasetId}/v${found.version.number}` } : undefined;
-    for (const m of members) await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? "", published));
-  }
-  return outcome;
+  const curators = transition === "submit" ? await listActiveCurators() : [];
+  const members = ["accept", "request_changes", "decline", "retract"].includes(transition) && found ? await listDatasetMembers({ datasetId: found.version.datasetId }) : [];
+  return applyTransition({
+    versionId,
+    actorId: actor.id,
+    transition,
+    reason,
+    beforeCommit: async (tx, outcome) => {
+      for (const c of curators) await enqueueMail(submissionMail(c.email, c.name, title, versionId), { tx });
+      if (outcome.identifiers) {
+        // The registration job retries until the agency has both identifiers.
+        await enqueueIdentifierRegistration(outcome.identifiers.version, { tx });
+        // A later version changes what the series record lists, so it is sent again.
+        await enqueueIdentifierRegistration(outcome.identifiers.series, { tx, refresh: (found?.version.number ?? 1) > 1 });
+      }
+      if (transition === "accept" || transition === "request_changes" || transition === "decline" || transition === "retract") {
+        const published = outcome.identifiers && found ? { identifier: outcome.identifiers.version, path: `/datasets/${outcome.datasetId}/v${found.version.number}` } : undefined;
+        for (const m of members) await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? "", published), { tx });
+      }
+    },
+  });
 }
-
 
 /** The owner starts the next version of a published dataset as a draft copy of the latest. */
 export async function startNextVersion({ actor, versionId }: { actor: UserDto; versionId: number }) {

@@ -1,4 +1,5 @@
-import { getSender, retryPolicy } from "@/lib/jobs/boss";
+import type { Transaction } from "@/db/client";
+import { getSender, jobsInTransaction, retryPolicy } from "@/lib/jobs/boss";
 import { listPendingIdentifiers } from "./queries";
 
 /** Job data of the `register-identifier` queue. */
@@ -9,14 +10,14 @@ export interface IdentifierJob {
 }
 
 /**
- * Queues the registration of one minted identifier; call it after the transaction that minted it
- * has committed. The worker retries with backoff while the agency is down, and registration is
- * idempotent, so queuing the same identifier twice is harmless.
+ * Queues the registration of one minted identifier; pass `tx`, the transaction that minted it, so
+ * the job exists exactly when the identifier does. The worker retries with backoff while the
+ * agency is down, and registration is idempotent, so queuing the same identifier twice is harmless.
  */
-export async function enqueueIdentifierRegistration(identifier: string, { refresh = false }: { refresh?: boolean } = {}): Promise<string | null> {
+export async function enqueueIdentifierRegistration(identifier: string, { refresh = false, tx }: { refresh?: boolean; tx?: Transaction } = {}): Promise<string | null> {
   const boss = await getSender();
   const data: IdentifierJob = refresh ? { identifier, refresh } : { identifier };
-  return boss.send("register-identifier", data, retryPolicy);
+  return boss.send("register-identifier", data, { ...retryPolicy, ...(tx ? { db: jobsInTransaction(tx) } : {}) });
 }
 
 /** Queues every identifier not yet registered (at start-up: nothing minted is ever left behind). */

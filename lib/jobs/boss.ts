@@ -1,4 +1,6 @@
+import { sql, type SQL } from "drizzle-orm";
 import PgBoss from "pg-boss";
+import type { Transaction } from "@/db/client";
 import { databaseUrl } from "@/lib/config";
 
 /** Queue names used across the app. */
@@ -34,4 +36,32 @@ export async function installQueues(): Promise<void> {
     if (!(await boss.getQueue(name))) await boss.createQueue(name, { name, ...retryPolicy });
   }
   await boss.stop({ graceful: false, wait: true });
+}
+
+/** pg-boss's numbered-parameter SQL ($1, $2 …) as a Drizzle query with the same parameters. */
+function toDrizzleSql(text: string, values: unknown[]): SQL {
+  const parts = text.split(/\$(\d+)\b/);
+  return sql.join(
+    parts.map((part, i) => {
+      if (i % 2 === 0) return sql.raw(part);
+      const value = values[Number(part) - 1] ?? null;
+      // pg-boss passes job data as an object for a ::jsonb parameter.
+      const param = value !== null && typeof value === "object" && !(value instanceof Date) && !Array.isArray(value) ? JSON.stringify(value) : value;
+      return sql`${param}`;
+    }),
+  );
+}
+
+/**
+ * Lets pg-boss insert a job through an open transaction (its `db` option on `send`): the job
+ * exists exactly when the change that caused it commits, so a crash in between loses nothing and
+ * a rollback queues nothing.
+ */
+export function jobsInTransaction(tx: Transaction): PgBoss.Db {
+  return {
+    async executeSql(text: string, values: unknown[] = []) {
+      const rows = await tx.execute(toDrizzleSql(text, values));
+      return { rows: [...rows] };
+    },
+  };
 }

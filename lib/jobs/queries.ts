@@ -2,6 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { recordAuditEvent } from "@/lib/audit/record";
+import { AppError } from "@/lib/errors";
 import { getSender, queues, type QueueName } from "./boss";
 
 export interface QueueCounts {
@@ -66,8 +67,11 @@ export async function listTroubledJobs({ limit = 50 }: { limit?: number } = {}):
   }));
 }
 
-/** Puts a failed job back in its queue, on the record. */
+/** Puts a failed job back in its queue, on the record; an unknown job or one not failed says so. */
 export async function retryJob({ actorId, queue, id }: { actorId: number; queue: QueueName; id: string }) {
+  const [job] = await getDb().execute<{ state: string }>(sql`select state::text as state from pgboss.job where name = ${queue} and id = ${id}::uuid`);
+  if (!job) throw new AppError("not_found", `No job ${id} in the ${queue} queue (it may have been removed after its retention period)`);
+  if (job.state !== "failed") throw new AppError("conflict", `Job ${id} is ${job.state}, not failed: only a failed job can be retried`);
   const boss = await getSender();
   await boss.retry(queue, id);
   await recordAuditEvent(getDb(), { actorId, action: "job.retried", subjectType: "job", subjectId: id, details: { queue } });

@@ -4,7 +4,7 @@ import { AppError } from "@/lib/errors";
 import type { IdentifierJob } from "@/lib/identifiers/queue";
 import { refitVersion } from "@/lib/datasets/refit";
 import { registerIdentifier } from "@/lib/identifiers/register";
-import { deliverMail } from "@/lib/mail/transport";
+import { deliverMail, isPermanentDeliveryFailure } from "@/lib/mail/transport";
 import type { MailMessage } from "@/lib/mail/templates";
 
 /**
@@ -16,7 +16,23 @@ export async function startWorkers(): Promise<{ stop: () => Promise<void> }> {
   boss.on("error", (err) => console.error("[jobs] pg-boss error", err));
   await boss.start();
   await boss.work<MailMessage>("mail", { pollingIntervalSeconds: 1, batchSize: 5 }, async (jobs) => {
-    for (const job of jobs) await deliverMail(job.data);
+    // Each mail is settled on its own as soon as it is sent or refused: a failure never makes
+    // pg-boss fail, and later resend, the mails of the batch that went out.
+    for (const job of jobs) {
+      try {
+        await deliverMail(job.data);
+        await boss.complete("mail", job.id);
+      } catch (err) {
+        const message = err instanceof Error ? err.message : String(err);
+        if (isPermanentDeliveryFailure(err)) {
+          // The relay will refuse it again: no retries left, so pg-boss marks it failed for good.
+          await boss.getDb().executeSql("update pgboss.job set retry_limit = retry_count where name = 'mail' and id = $1", [job.id]);
+          await boss.fail("mail", job.id, { message: `Refused for good by the mail relay: ${message}` });
+        } else {
+          await boss.fail("mail", job.id, { message });
+        }
+      }
+    }
   });
   await boss.work<IdentifierJob>("register-identifier", { pollingIntervalSeconds: 1 }, async ([job]) => {
     try {

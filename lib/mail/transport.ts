@@ -14,3 +14,12 @@ export async function deliverMail(message: MailMessage): Promise<string> {
   const info = await getTransporter().sendMail({ from: mailFrom(), to: message.to, subject: message.subject, text: message.text, html: message.html });
   return info.messageId;
 }
+
+/**
+ * A refusal the relay will repeat on every attempt: an SMTP 5xx reply (RFC 5321 §4.2.1, e.g. 550
+ * mailbox unavailable). 4xx replies and network failures are temporary and worth retrying.
+ */
+export function isPermanentDeliveryFailure(err: unknown): boolean {
+  const code = (err as { responseCode?: unknown } | null)?.responseCode;
+  return typeof code === "number" && code >= 500 && code < 600;
+}

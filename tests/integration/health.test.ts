@@ -5,7 +5,10 @@ describe("GET /api/health", () => {
   it("reports the database as ok", async () => {
     const res = await GET();
     expect(res.status).toBe(200);
-    expect(await res.json()).toEqual({ status: "ok", database: "ok" });
+    const body = await res.json();
+    expect(body).toMatchObject({ status: "ok", database: "ok" });
+    expect(body.databaseLatencyMs).toBeGreaterThanOrEqual(0);
+    expect(body.databaseLatencyMs).toBeLessThan(2000);
   });
 });
 
@@ -20,7 +23,7 @@ describe("GET /api/health without a database", () => {
       const { GET: fresh } = await import("@/app/api/health/route");
       const res = await fresh();
       expect(res.status).toBe(503);
-      expect(await res.json()).toEqual({ status: "degraded", database: "unreachable" });
+      expect(await res.json()).toMatchObject({ status: "degraded", database: "unreachable" });
     } finally {
       process.env.DATABASE_URL = saved.url;
       (globalThis as { arrheniaDb?: unknown }).arrheniaDb = saved.db;

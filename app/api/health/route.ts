@@ -1,13 +1,13 @@
-// GET /api/health — liveness of the app and its database (503 when the database is unreachable)
+// GET /api/health — liveness of the app and a round trip through its database pool (503 when it fails)
 import { NextResponse } from "next/server";
-import { isDatabaseReachable } from "@/lib/health";
+import { checkDatabase } from "@/lib/health";
 
 export const dynamic = "force-dynamic";
 
 export async function GET() {
-  const ok = await isDatabaseReachable();
+  const db = await checkDatabase();
   return NextResponse.json(
-    { status: ok ? "ok" : "degraded", database: ok ? "ok" : "unreachable" },
-    { status: ok ? 200 : 503, headers: { "cache-control": "no-store" } },
+    { status: db.ok ? "ok" : "degraded", database: db.ok ? "ok" : "unreachable", databaseLatencyMs: db.latencyMs },
+    { status: db.ok ? 200 : 503, headers: { "cache-control": "no-store" } },
   );
 }

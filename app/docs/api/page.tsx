@@ -94,7 +94,7 @@ export default function ApiDocsPage() {
         </h2>
         <ul className="list-disc space-y-1 pl-6 text-sm">
           <li>
-            <code>GET /api/health</code> — <code>{'{"status":"ok","database":"ok"}'}</code>, or 503 when the database is unreachable.
+            <code>GET /api/health</code> — <code>{'{"status":"ok","database":"ok","databaseLatencyMs":2}'}</code> (one query through the app’s own connection pool, with its round-trip time), or 503 when that query fails or takes over 2 s.
           </li>
           <li>
             <code>GET /api/v1/users</code> — everyone with an account (admins).
