@@ -1,12 +1,13 @@
 // POST /api/v1/analyses — stateless re-fit of posted (T, k) points; no sign-in, rate limited
 import { NextResponse } from "next/server";
 import { zodToFieldErrors, withApi } from "@/lib/auth/api";
-import { clientIp, consumeOrThrow } from "@/lib/auth/rate-limit";
+import { clientAddress } from "@/lib/auth/client-address";
+import { consumeOrThrow } from "@/lib/auth/rate-limit";
 import { analysisRequestSchema, MAX_BODY_BYTES, runAnalysisOrThrow } from "@/lib/analyses/analyse-request";
 import { AppError } from "@/lib/errors";
 
 export const POST = withApi(async ({ req }) => {
-  await consumeOrThrow("analysisIp", clientIp(req.headers), "Too many analyses from this network");
+  await consumeOrThrow("analysisIp", clientAddress(req), "Too many analyses from this network");
   const declared = Number(req.headers.get("content-length") ?? 0);
   if (declared > MAX_BODY_BYTES) throw new AppError("payload_too_large", `The body is larger than ${MAX_BODY_BYTES / 1024 / 1024} MB`);
   const text = await req.text();
