@@ -14,6 +14,7 @@ export async function getCurrentUser(): Promise<UserDto | null> {
   if (!id) return null;
   const found = await getUserForSession({ id });
   if (!found || found.deactivatedAt || found.sessionGeneration !== session.user.sessionGeneration) return null;
-  const { sessionGeneration: _generation, ...user } = found;
+  const user: UserDto & { sessionGeneration?: number } = { ...found };
+  delete user.sessionGeneration;
   return user;
 }

@@ -10,7 +10,7 @@ vi.mock("next-auth", async (importOriginal) => ({
   ...(await importOriginal<typeof import("next-auth")>()),
   getServerSession: async (options: NextAuthOptions) => {
     const res = await authHandler({ options, req: { action: "session", method: "GET", cookies: cookieJar, headers: {} } });
-    return res.body && Object.keys(res.body).length ? (res.body as Session) : null;
+    return res.body && Object.keys(res.body).length ? (res.body as unknown as Session) : null;
   },
 }));
 
