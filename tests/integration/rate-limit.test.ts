@@ -91,3 +91,12 @@ describe("sign-in lockout by (account, address), with a ceiling per account", ()
     await expect(fresh.authorizeCredentials({ email, password }, ip)).rejects.toThrow(fresh.SIGN_IN_LOCKED);
   });
 });
+
+describe("reset requests per address", () => {
+  it("limits reset requests from one address across e-mails (10 an hour)", async () => {
+    const { requestPasswordReset } = await import("@/lib/users/accounts");
+    const ip = uniqueIp();
+    for (let i = 0; i < 10; i++) await requestPasswordReset({ email: uniqueEmail("forgetful"), ip });
+    await expect(requestPasswordReset({ email: uniqueEmail("forgetful"), ip })).rejects.toThrow(/Too many reset requests from this network/);
+  });
+});

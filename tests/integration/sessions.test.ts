@@ -97,10 +97,10 @@ describe("a session ends when the person says so", () => {
   it("a password reset ends every session; a newer reset link voids older ones, also after it is used", async () => {
     const p = await person();
     const browser = await signIn(p.email, p.password);
-    await requestPasswordReset({ email: p.email });
+    await requestPasswordReset({ email: p.email, ip: uniqueIp() });
     const linkA = linkToken((await waitForMail(p.email, { subject: /new Arrhenia password/ })).text, "/reset-password");
     await sql`update captured_mail set subject = 'read: ' || subject where ${p.email} = any(to_addresses)`;
-    await requestPasswordReset({ email: p.email });
+    await requestPasswordReset({ email: p.email, ip: uniqueIp() });
     const linkB = linkToken((await waitForMail(p.email, { subject: /^Choose a new Arrhenia password/ })).text, "/reset-password");
     expect(linkB).not.toBe(linkA);
 
@@ -116,7 +116,7 @@ describe("a session ends when the person says so", () => {
   it("a password change ends every session, and no reset link sent before it still works", async () => {
     const p = await person();
     const browser = await signIn(p.email, p.password);
-    await requestPasswordReset({ email: p.email });
+    await requestPasswordReset({ email: p.email, ip: uniqueIp() });
     const link = linkToken((await waitForMail(p.email, { subject: /new Arrhenia password/ })).text, "/reset-password");
     await changePassword({ userId: p.id, current: p.password, password: "changed-on-purpose" });
     expect(await seenWith(browser.session)).toMatchObject({ endpointUserId: null, currentUserId: null });
