@@ -190,9 +190,10 @@ export async function updateProfile({ userId, name, orcid, affiliation }: { user
 export async function setPasswordHash({ userId, passwordHash, actorId }: { userId: number; passwordHash: string; actorId: number | null }) {
   await getDb().transaction(async (tx) => {
     await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
-    // A new password ends every session, and no reset link issued before it still works.
+    // A new password ends every session, and no reset or sign-in link issued before it still works.
     await endAllSessions({ userId, tx });
     await voidOneTimeTokens({ userId, purpose: "reset_password", tx });
+    await voidOneTimeTokens({ userId, purpose: "unlock_sign_in", tx });
     await recordAuditEvent(tx, { actorId, action: "user.password_changed", subjectType: "user", subjectId: userId });
   });
 }

@@ -123,6 +123,16 @@ describe("a session ends when the person says so", () => {
     await expect(resetPassword({ secret: link, password: "sneaky-old-link" })).rejects.toThrow(/already used/);
   });
 
+  it("a password change also voids a mailed sign-in link sent before it", async () => {
+    const p = await person();
+    const [row] = await sql<{ id: number }[]>`select id from users where id = ${p.id}`;
+    const { createOneTimeToken } = await import("@/lib/users/queries");
+    const { authorizeSignInLink } = await import("@/lib/auth/options");
+    const secret = await createOneTimeToken({ userId: row.id, purpose: "unlock_sign_in" });
+    await changePassword({ userId: p.id, current: p.password, password: "changed-after-the-link" });
+    await expect(authorizeSignInLink({ token: secret }, uniqueIp())).rejects.toThrow(/already used/);
+  });
+
   it("deactivation ends every session, and reactivation does not bring the old ones back", async () => {
     const admin = await person("admin");
     const p = await person();
