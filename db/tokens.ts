@@ -1,9 +1,9 @@
 import { index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
 import { users } from "./users";
 
-export const oneTimePurposeEnum = pgEnum("one_time_purpose", ["verify_email", "reset_password"]);
+export const oneTimePurposeEnum = pgEnum("one_time_purpose", ["verify_email", "reset_password", "unlock_sign_in"]);
 
-/** E-mail verification and password-reset links: only a SHA-256 of the secret is stored. */
+/** E-mail verification, password-reset and sign-in-through-a-lock links: only a SHA-256 of the secret is stored. */
 export const oneTimeTokens = pgTable(
   "one_time_tokens",
   {

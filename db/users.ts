@@ -16,6 +16,8 @@ export const users = pgTable(
     role: roleEnum().notNull().default("researcher"),
     emailVerifiedAt: timestamp({ withTimezone: true }),
     deactivatedAt: timestamp({ withTimezone: true }),
+    /** Stamped into every session at sign-in; bumping it ends every session of this person. */
+    sessionGeneration: integer().notNull().default(0),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true })
       .notNull()

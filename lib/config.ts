@@ -56,3 +56,20 @@ export function doiApiAuth(): { user: string; password: string } | null {
 export function fakeDoiDataDir(): string | null {
   return (process.env.DOI_FAKE_DATA_DIR ?? ".data/fake-doi") || null;
 }
+
+/**
+ * Which proxies may tell us the client's address (X-Forwarded-For) and the public host
+ * (X-Forwarded-Host): unset trusts none and uses the socket address; a number trusts that many
+ * hops; otherwise a comma-separated list of addresses, CIDR ranges or `loopback` / `uniquelocal`.
+ */
+export function trustProxy(): string {
+  return process.env.TRUST_PROXY ?? "";
+}
+
+/**
+ * Set by scripts/serve.ts for the Next process it fronts: proves that the client-address header
+ * on a request came from that front server, not from the client.
+ */
+export function edgeKey(): string | null {
+  return process.env.ARRHENIA_EDGE_KEY || null;
+}

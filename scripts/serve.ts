@@ -1,9 +1,12 @@
 // Serves a built Arrhenia: the local mail capture (when SMTP_URL is unset), the local fake DOI
 // registration service (when DOI_API_URL is unset), the background workers, and `next start`
-// on 127.0.0.1. Ctrl-C stops them all.
+// on a private loopback port behind the front server (lib/auth/edge-proxy.ts) that listens on
+// HOST:PORT and alone decides the client's address. Ctrl-C stops them all.
 import { spawn } from "node:child_process";
+import { randomBytes } from "node:crypto";
 import postgres from "postgres";
-import { captureSmtpPort, databaseUrl, doiApiAuth, doiApiUrl, doiFakePort, fakeDoiDataDir, usesFakeDoiService, usesMailCapture } from "@/lib/config";
+import { captureSmtpPort, databaseUrl, doiApiAuth, doiApiUrl, doiFakePort, fakeDoiDataDir, trustProxy, usesFakeDoiService, usesMailCapture } from "@/lib/config";
+import { compileTrustProxy, freeLoopbackPort, startEdgeProxy } from "@/lib/auth/edge-proxy";
 import { startFakeDoiService } from "@/lib/identifiers/fake-service";
 import { doiPrefix } from "@/lib/identifiers/mint";
 import { startWorkers } from "@/lib/jobs/worker";
@@ -16,6 +19,12 @@ const port = Number(process.env.PORT ?? 3000);
 const host = process.env.HOST ?? "127.0.0.1";
 const quiet = process.env.SERVE_QUIET === "1";
 
+// Fails before anything starts when TRUST_PROXY cannot be read.
+const trust = compileTrustProxy(trustProxy());
+// A fresh secret per start: Next believes the client-address header only when it carries it.
+const edgeKey = randomBytes(24).toString("hex");
+process.env.ARRHENIA_EDGE_KEY = edgeKey;
+
 const sql = postgres(databaseUrl(), { max: 2, onnotice: () => {} });
 const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captureSmtpPort() }) : null;
 const fakeDoi = usesFakeDoiService() ? await startFakeDoiService({ port: doiFakePort(), dataDir: fakeDoiDataDir(), auth: doiApiAuth() }) : null;
@@ -23,14 +32,16 @@ const workers = await startWorkers();
 const pendingIdentifiers = await enqueuePendingIdentifierRegistrations();
 const staleRefits = await enqueueStaleRefits();
 
-const next = spawn("node_modules/.bin/next", ["start", "-H", host, "-p", String(port)], { stdio: ["ignore", "inherit", "inherit"], env: process.env });
+const innerPort = await freeLoopbackPort();
+const next = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", String(innerPort)], { stdio: ["ignore", "inherit", "inherit"], env: process.env });
+const edge = await startEdgeProxy({ host, port, upstreamPort: innerPort, trust, key: edgeKey });
 
 let stopping = false;
 async function stop(code: number) {
   if (stopping) return;
   stopping = true;
   next.kill("SIGTERM");
-  await Promise.allSettled([workers.stop(), capture?.close(), fakeDoi?.close(), sql.end({ timeout: 2 })]);
+  await Promise.allSettled([edge.close(), workers.stop(), capture?.close(), fakeDoi?.close(), sql.end({ timeout: 2 })]);
   process.exit(code);
 }
 process.on("SIGINT", () => void stop(0));

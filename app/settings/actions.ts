@@ -1,6 +1,7 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
 import { z } from "zod";
 import { protectedAction } from "@/lib/auth/action";
 import { changePassword } from "@/lib/users/accounts";
@@ -15,7 +16,8 @@ export const updateProfileAction = protectedAction(profileSchema, { permission: 
 
 export const changePasswordAction = protectedAction(changePasswordSchema, { permission: "account.update" }, async ({ current, password }, user) => {
   await changePassword({ userId: user.id, current, password });
-  return { status: "ok", message: "Password changed." };
+  // A new password ends every session of the person, this one included.
+  redirect("/sign-in?reset=1");
 });
 
 export const createTokenAction = protectedAction(createTokenSchema, { permission: "token.manage" }, async ({ name, scopes }, user) => {

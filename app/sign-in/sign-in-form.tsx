@@ -4,6 +4,7 @@ import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { FormField } from "@/components/form-field";
+import { safeCallbackPath } from "@/lib/auth/callback-url";
 
 export function SignInForm({ callbackUrl, verified, reset }: { callbackUrl: string; verified: boolean; reset: boolean }) {
   const router = useRouter();
@@ -21,7 +22,8 @@ export function SignInForm({ callbackUrl, verified, reset }: { callbackUrl: stri
       setError(result?.error && result.error !== "CredentialsSignin" ? result.error : "E-mail or password is not right.");
       return;
     }
-    router.push(callbackUrl);
+    // Checked again against the origin the browser is on: only a path on this site.
+    router.push(safeCallbackPath(callbackUrl, window.location.origin));
     router.refresh();
   }
 

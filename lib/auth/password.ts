@@ -13,10 +13,12 @@ export function verifyPassword(password: string, hash: string): Promise<boolean>
   return bcrypt.compare(password, hash);
 }
 
-// A fixed hash compared against when the e-mail is unknown, so timing does not reveal which e-mails exist.
-const DUMMY_HASH = "$2b$11$5flmkfu6oesVJj4zLN48XuasQvHWAraMZ5qDLjbBxDMPFxDOw4ssu";
+// A hash at the same cost as real ones, compared against when the e-mail is unknown, so timing
+// does not reveal which e-mails exist (a fixed cost would differ once BCRYPT_ROUNDS is changed).
+let dummyHash: Promise<string> | undefined;
 
 export async function verifyAgainstNothing(password: string): Promise<false> {
-  await bcrypt.compare(password, DUMMY_HASH).catch(() => false);
+  dummyHash ??= bcrypt.hash("no account has this password", ROUNDS);
+  await bcrypt.compare(password, await dummyHash).catch(() => false);
   return false;
 }

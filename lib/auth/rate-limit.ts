@@ -6,14 +6,19 @@ import { AppError } from "@/lib/errors";
 
 // Counters live in PostgreSQL (table rate_limits, created by our migrations) so limits hold
 // across every app instance.
-type LimiterName = "signInIp" | "signInAccount" | "signUpIp" | "signUpEmail" | "resetEmail" | "analysisIp";
+type LimiterName = "signInIp" | "signInPair" | "signInAccount" | "unlockMail" | "signUpIp" | "signUpEmail" | "resetEmail" | "resetIp" | "analysisIp";
 
 const limits: Record<LimiterName, { points: number; duration: number; blockDuration?: number }> = {
   signInIp: { points: 30, duration: 15 * 60 },
-  signInAccount: { points: 6, duration: 15 * 60, blockDuration: 15 * 60 },
+  // Failed passwords for one account from one address: a guesser locks only their own address.
+  signInPair: { points: 6, duration: 15 * 60, blockDuration: 15 * 60 },
+  // Failed passwords for one account from anywhere: a ceiling against guessing spread over many addresses.
+  signInAccount: { points: 60, duration: 60 * 60, blockDuration: 60 * 60 },
+  unlockMail: { points: 3, duration: 60 * 60 },
   signUpIp: { points: 10, duration: 60 * 60 },
   signUpEmail: { points: 3, duration: 60 * 60 },
   resetEmail: { points: 3, duration: 60 * 60 },
+  resetIp: { points: 10, duration: 60 * 60 },
   analysisIp: { points: 120, duration: 60 },
 };
 
@@ -55,14 +60,17 @@ export async function resetLimit(name: LimiterName, key: string): Promise<void> 
   await limiter(name).delete(key.toLowerCase());
 }
 
-/** Best-effort client address: the first hop of X-Forwarded-For (set by Next or a proxy), else a fixed key. */
-export function clientIp(headers: Headers | Record<string, string | string[] | undefined> | undefined): string {
-  let value: string | null | undefined;
-  if (!headers) value = undefined;
-  else if (headers instanceof Headers) value = headers.get("x-forwarded-for") ?? headers.get("x-real-ip");
-  else {
-    const raw = headers["x-forwarded-for"] ?? headers["x-real-ip"];
-    value = Array.isArray(raw) ? raw[0] : raw;
-  }
-  return value?.split(",")[0]?.trim() || "unknown";
+/** Counts one failure without throwing (the caller decides what a spent budget means). */
+export async function recordFailure(name: LimiterName, key: string): Promise<void> {
+  await limiter(name)
+    .consume(key.toLowerCase())
+    .catch((err: unknown) => {
+      if (!(err instanceof RateLimiterRes)) throw err;
+    });
+}
+
+/** Whether the budget is spent, without counting an attempt. */
+export async function isSpent(name: LimiterName, key: string): Promise<boolean> {
+  const res = await limiter(name).get(key.toLowerCase());
+  return res !== null && res.remainingPoints <= 0;
 }

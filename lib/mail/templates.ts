@@ -42,6 +42,19 @@ export function passwordResetMail(to: string, name: string, secret: string): Mai
   );
 }
 
+export function signInLinkMail(to: string, name: string, secret: string): MailMessage {
+  return compose(
+    to,
+    "Your Arrhenia sign-in link",
+    name,
+    [
+      "Sign-in to your Arrhenia account is paused after many failed attempts, and someone (we hope you) has just typed the right password. Use this link to sign in.",
+      "The link works once and expires in 30 minutes. If it was not you, change your password: someone knows it.",
+    ],
+    { label: "Sign in", url: `${appUrl()}/sign-in/link?token=${encodeURIComponent(secret)}` },
+  );
+}
+
 export function existingAccountMail(to: string, name: string): MailMessage {
   return compose(
     to,

@@ -46,7 +46,8 @@ export async function verifyEmail({ secret }: { secret: string }) {
 }
 
 /** Sends a reset link when the account exists; answers the same either way. */
-export async function requestPasswordReset({ email }: { email: string }) {
+export async function requestPasswordReset({ email, ip }: { email: string; ip: string }) {
+  await consumeOrThrow("resetIp", ip, "Too many reset requests from this network");
   await consumeOrThrow("resetEmail", email, "Too many reset requests for this address");
   const user = await getUserByEmail({ email });
   if (!user || user.deactivatedAt) return;

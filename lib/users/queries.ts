@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, count, desc, eq, gt, isNull, sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Database, type Transaction } from "@/db/client";
 import { apiTokens, oneTimeTokens } from "@/db/tokens";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
@@ -41,6 +41,23 @@ export async function getUserById({ id }: { id: number }): Promise<UserDto | nul
   return row ?? null;
 }
 
+/** The person plus the session generation a signed-in session must carry to still count. */
+export async function getUserForSession({ id }: { id: number }): Promise<(UserDto & { sessionGeneration: number }) | null> {
+  const [row] = await getDb()
+    .select({ ...userColumns, sessionGeneration: users.sessionGeneration })
+    .from(users)
+    .where(eq(users.id, id));
+  return row ?? null;
+}
+
+/** Ends every session of the person: sessions stamped with an older generation are refused. */
+export async function endAllSessions({ userId, tx = getDb() }: { userId: number; tx?: Database | Transaction }) {
+  await tx
+    .update(users)
+    .set({ sessionGeneration: sql`${users.sessionGeneration} + 1` })
+    .where(eq(users.id, userId));
+}
+
 export async function getUserByEmail({ email }: { email: string }): Promise<UserDto | null> {
   const [row] = await getDb()
     .select(userColumns)
@@ -53,7 +70,7 @@ export async function getUserByEmail({ email }: { email: string }): Promise<User
 export async function getPasswordHash({ email, id }: { email?: string; id?: number }) {
   const where = id !== undefined ? eq(users.id, id) : eq(sql`lower(${users.email})`, normaliseEmail(email ?? ""));
   const [row] = await getDb()
-    .select({ ...userColumns, passwordHash: users.passwordHash })
+    .select({ ...userColumns, passwordHash: users.passwordHash, sessionGeneration: users.sessionGeneration })
     .from(users)
     .where(where);
   return row ?? null;
@@ -117,6 +134,8 @@ export async function countUsersByRole(): Promise<Record<Role, number>> {
   return out;
 }
 
+const roleRank: Record<Role, number> = { researcher: 0, curator: 1, admin: 2 };
+
 export async function changeUserRole({ actorId, userId, role }: { actorId: number; userId: number; role: Role }) {
   return getDb().transaction(async (tx) => {
     const [before] = await tx.select({ role: users.role }).from(users).where(eq(users.id, userId)).for("update");
@@ -126,6 +145,8 @@ export async function changeUserRole({ actorId, userId, role }: { actorId: numbe
       throw new AppError("conflict", "You cannot remove your own admin role; ask another admin");
     }
     await tx.update(users).set({ role }).where(eq(users.id, userId));
+    // Losing a role ends the person's sessions, so no open page keeps acting with the old one.
+    if (roleRank[role] < roleRank[before.role]) await endAllSessions({ userId, tx });
     await recordAuditEvent(tx, {
       actorId,
       action: "user.role_changed",
@@ -152,7 +173,8 @@ export async function setUserActive({ actorId, userId, active }: { actorId: numb
       subjectId: userId,
     });
     if (!active) {
-      // A deactivated account keeps no working API tokens.
+      // A deactivated account keeps no working API tokens and no open session.
+      await endAllSessions({ userId, tx });
       await tx.update(apiTokens).set({ revokedAt: new Date() }).where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)));
     }
   });
@@ -168,6 +190,10 @@ export async function updateProfile({ userId, name, orcid, affiliation }: { user
 export async function setPasswordHash({ userId, passwordHash, actorId }: { userId: number; passwordHash: string; actorId: number | null }) {
   await getDb().transaction(async (tx) => {
     await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
+    // A new password ends every session, and no reset or sign-in link issued before it still works.
+    await endAllSessions({ userId, tx });
+    await voidOneTimeTokens({ userId, purpose: "reset_password", tx });
+    await voidOneTimeTokens({ userId, purpose: "unlock_sign_in", tx });
     await recordAuditEvent(tx, { actorId, action: "user.password_changed", subjectType: "user", subjectId: userId });
   });
 }
@@ -181,19 +207,32 @@ export async function markEmailVerified({ userId }: { userId: number }) {
 
 // ---- one-time tokens (e-mail verification, password reset) ----
 
-export type OneTimePurpose = "verify_email" | "reset_password";
+export type OneTimePurpose = "verify_email" | "reset_password" | "unlock_sign_in";
 
 const ttlMs: Record<OneTimePurpose, number> = {
   verify_email: 48 * 3600_000,
   reset_password: 3600_000,
+  unlock_sign_in: 30 * 60_000,
 };
+
+/** Purposes where only the newest link counts: issuing one voids the ones sent before. */
+const newestOnly: ReadonlySet<OneTimePurpose> = new Set(["reset_password", "unlock_sign_in"]);
+
+/** Marks every unused link of this purpose as spent. */
+export async function voidOneTimeTokens({ userId, purpose, tx = getDb() }: { userId: number; purpose: OneTimePurpose; tx?: Database | Transaction }) {
+  await tx
+    .update(oneTimeTokens)
+    .set({ usedAt: new Date() })
+    .where(and(eq(oneTimeTokens.userId, userId), eq(oneTimeTokens.purpose, purpose), isNull(oneTimeTokens.usedAt)));
+}
 
 /** Creates a single-use link secret; only its hash is stored. */
 export async function createOneTimeToken({ userId, purpose }: { userId: number; purpose: OneTimePurpose }): Promise<string> {
   const secret = generateSecret("", 32);
-  await getDb()
-    .insert(oneTimeTokens)
-    .values({ userId, purpose, tokenHash: hashSecret(secret), expiresAt: new Date(Date.now() + ttlMs[purpose]) });
+  await getDb().transaction(async (tx) => {
+    if (newestOnly.has(purpose)) await voidOneTimeTokens({ userId, purpose, tx });
+    await tx.insert(oneTimeTokens).values({ userId, purpose, tokenHash: hashSecret(secret), expiresAt: new Date(Date.now() + ttlMs[purpose]) });
+  });
   return secret;
 }
 

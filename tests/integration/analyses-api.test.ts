@@ -1,13 +1,13 @@
 import { describe, expect, it } from "vitest";
 import { POST } from "@/app/api/v1/analyses/route";
 import { MAX_POINTS } from "@/lib/analyses/analyse-request";
-import { uniqueIp } from "./helpers";
+import { fromAddress, uniqueIp } from "./helpers";
 
 function post(body: unknown, ip = uniqueIp(), raw?: string) {
   return POST(
     new Request("http://127.0.0.1/api/v1/analyses", {
       method: "POST",
-      headers: { "content-type": "application/json", "x-forwarded-for": ip },
+      headers: { "content-type": "application/json", ...fromAddress(ip) },
       body: raw ?? JSON.stringify(body),
     }),
     { params: Promise.resolve({}) },

@@ -1,5 +1,6 @@
 import { randomBytes } from "node:crypto";
 import postgres from "postgres";
+import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "@/lib/auth/client-address";
 import { captureSmtpPort, databaseUrl } from "@/lib/config";
 import { startWorkers } from "@/lib/jobs/worker";
 import { startCaptureServer } from "@/lib/mail/capture-server";
@@ -9,6 +10,11 @@ export const sql = postgres(databaseUrl(), { max: 3, onnotice: () => {} });
 
 export function uniqueEmail(tag: string): string {
   return `${tag}-${randomBytes(5).toString("hex")}@test.arrhenia.invalid`;
+}
+
+/** Headers as the front server (lib/auth/edge-proxy.ts) sets them for a client at `ip`. */
+export function fromAddress(ip: string): Record<string, string> {
+  return { [CLIENT_ADDRESS_HEADER]: ip, [EDGE_KEY_HEADER]: process.env.ARRHENIA_EDGE_KEY ?? "" };
 }
 
 export function uniqueIp(): string {

@@ -1,18 +1,61 @@
 import { describe, expect, it } from "vitest";
 import { hashPassword } from "@/lib/auth/password";
-import { authorizeCredentials, SIGN_IN_FAILED } from "@/lib/auth/options";
+import { authorizeCredentials, authorizeSignInLink, SIGN_IN_FAILED, SIGN_IN_LOCKED } from "@/lib/auth/options";
 import { signUp } from "@/lib/users/accounts";
 import { createUser } from "@/lib/users/queries";
-import { uniqueEmail, uniqueIp } from "./helpers";
+import { linkToken, sql, startMailPipeline, uniqueEmail, uniqueIp, waitForMail } from "./helpers";
 
-describe("rate limits (counters in PostgreSQL)", () => {
-  it("locks an account after repeated failed sign-ins, even from different addresses and with the right password", async () => {
-    const email = uniqueEmail("target");
-    await createUser({ email, name: "Target", passwordHash: await hashPassword("the-right-password"), verified: true });
-    for (let i = 0; i < 6; i++) {
-      await expect(authorizeCredentials({ email, password: `guess-${i}-wrong` }, uniqueIp())).rejects.toThrow(SIGN_IN_FAILED);
+async function target(password = "the-right-password") {
+  const email = uniqueEmail("target");
+  await createUser({ email, name: "Target", passwordHash: await hashPassword(password), verified: true });
+  return { email, password };
+}
+
+async function mailsTo(email: string): Promise<number> {
+  const [row] = await sql<{ n: number }[]>`select count(*)::int as n from captured_mail where ${email} = any(to_addresses)`;
+  return row.n;
+}
+
+describe("sign-in lockout by (account, address), with a ceiling per account", () => {
+  it("seven wrong passwords from address A do not lock the owner signing in from address B", async () => {
+    const { email, password } = await target();
+    const attacker = uniqueIp();
+    for (let i = 0; i < 7; i++) await authorizeCredentials({ email, password: `guess-${i}-wrong` }, attacker).catch(() => {});
+    await expect(authorizeCredentials({ email, password }, uniqueIp())).resolves.toMatchObject({ email });
+    // The attacker's own address is locked, and its answer does not depend on the password.
+    await expect(authorizeCredentials({ email, password: "another-guess" }, attacker)).rejects.toThrow(SIGN_IN_LOCKED);
+  });
+
+  it("six failures from one address lock that pair; the right password there gets a mailed link that works once and lifts the lock", async () => {
+    const pipeline = await startMailPipeline();
+    try {
+      const { email, password } = await target();
+      const home = uniqueIp();
+      for (let i = 0; i < 6; i++) await expect(authorizeCredentials({ email, password: `typo-${i}-wrong` }, home)).rejects.toThrow(SIGN_IN_FAILED);
+      // A wrong password through the lock: the same answer, and no mail.
+      await expect(authorizeCredentials({ email, password: "still-wrong" }, home)).rejects.toThrow(SIGN_IN_LOCKED);
+      // The right password through the lock: the same answer, plus a link in the owner's inbox.
+      await expect(authorizeCredentials({ email, password }, home)).rejects.toThrow(SIGN_IN_LOCKED);
+      const mail = await waitForMail(email, { subject: /sign-in link/ });
+      expect(await mailsTo(email)).toBe(1);
+      const token = linkToken(mail.text, "/sign-in/link");
+      await expect(authorizeSignInLink({ token }, home)).resolves.toMatchObject({ email });
+      await expect(authorizeSignInLink({ token }, home)).rejects.toThrow(/already used/);
+      // The lock on this pair is lifted.
+      await expect(authorizeCredentials({ email, password }, home)).resolves.toMatchObject({ email });
+    } finally {
+      await pipeline.stop();
     }
-    await expect(authorizeCredentials({ email, password: "the-right-password" }, uniqueIp())).rejects.toThrow(/Too many sign-in attempts for this account/);
+  });
+
+  it("failures spread over many addresses hit the account's ceiling (60 an hour); the right password then gets a mailed link", async () => {
+    const { email, password } = await target();
+    for (let i = 0; i < 60; i++) await expect(authorizeCredentials({ email, password: `spread-${i}-wrong` }, uniqueIp())).rejects.toThrow(SIGN_IN_FAILED);
+    await expect(authorizeCredentials({ email, password }, uniqueIp())).rejects.toThrow(SIGN_IN_LOCKED);
+    const [row] = await sql<{ n: number }[]>`
+      select count(*)::int as n from one_time_tokens t join users u on u.id = t.user_id
+      where u.email = ${email} and t.purpose = 'unlock_sign_in' and t.used_at is null`;
+    expect(row.n).toBe(1);
   });
 
   it("limits sign-in attempts per network address across accounts", async () => {
@@ -36,15 +79,24 @@ describe("rate limits (counters in PostgreSQL)", () => {
   });
 
   it("the same limits hold for a second app instance (a separate connection pool)", async () => {
-    const email = uniqueEmail("shared");
-    await createUser({ email, name: "Shared", passwordHash: await hashPassword("right-password-x"), verified: true });
-    for (let i = 0; i < 6; i++) await authorizeCredentials({ email, password: "nope-nope-nope" }, uniqueIp()).catch(() => {});
+    const { email, password } = await target("right-password-x");
+    const ip = uniqueIp();
+    for (let i = 0; i < 6; i++) await authorizeCredentials({ email, password: "nope-nope-nope" }, ip).catch(() => {});
     // A fresh module graph stands in for another instance: same PostgreSQL table, same verdict.
     const { vi } = await import("vitest");
     vi.resetModules();
     (globalThis as { arrheniaLimiters?: unknown }).arrheniaLimiters = undefined;
     (globalThis as { arrheniaLimitPool?: unknown }).arrheniaLimitPool = undefined;
     const fresh = await import("@/lib/auth/options");
-    await expect(fresh.authorizeCredentials({ email, password: "right-password-x" }, uniqueIp())).rejects.toThrow(/Too many/);
+    await expect(fresh.authorizeCredentials({ email, password }, ip)).rejects.toThrow(fresh.SIGN_IN_LOCKED);
+  });
+});
+
+describe("reset requests per address", () => {
+  it("limits reset requests from one address across e-mails (10 an hour)", async () => {
+    const { requestPasswordReset } = await import("@/lib/users/accounts");
+    const ip = uniqueIp();
+    for (let i = 0; i < 10; i++) await requestPasswordReset({ email: uniqueEmail("forgetful"), ip });
+    await expect(requestPasswordReset({ email: uniqueEmail("forgetful"), ip })).rejects.toThrow(/Too many reset requests from this network/);
   });
 });

@@ -1,13 +1,14 @@
 // POST /api/v1/analyses — stateless re-fit of posted (T, k) points; no sign-in, rate limited
 import { NextResponse } from "next/server";
 import { zodToFieldErrors, withApi } from "@/lib/auth/api";
-import { clientIp, consumeOrThrow } from "@/lib/auth/rate-limit";
+import { clientAddress } from "@/lib/auth/client-address";
+import { consumeOrThrow } from "@/lib/auth/rate-limit";
 import { analysisRequestSchema, MAX_BODY_BYTES, runAnalysisOrThrow } from "@/lib/analyses/analyse-request";
 import { AppError } from "@/lib/errors";
 import { readJsonBodyOrThrow } from "@/lib/http/read-body";
 
 export const POST = withApi(async ({ req }) => {
-  await consumeOrThrow("analysisIp", clientIp(req.headers), "Too many analyses from this network");
+  await consumeOrThrow("analysisIp", clientAddress(req), "Too many analyses from this network");
   const body = await readJsonBodyOrThrow(req, { limit: MAX_BODY_BYTES, what: "analysis request" });
   const parsed = analysisRequestSchema.safeParse(body);
   if (!parsed.success) {

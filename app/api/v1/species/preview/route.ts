@@ -1,12 +1,13 @@
 // GET /api/v1/species/preview?smiles=…|inchi=… — identity and structure picture of one species (no sign-in; rate limited)
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
-import { clientIp, consumeOrThrow } from "@/lib/auth/rate-limit";
+import { clientAddress } from "@/lib/auth/client-address";
+import { consumeOrThrow } from "@/lib/auth/rate-limit";
 import { ChemError, describeSpecies, renderSpeciesSvg } from "@/lib/chem";
 import { AppError } from "@/lib/errors";
 
 export const GET = withApi(async ({ req }) => {
-  await consumeOrThrow("analysisIp", clientIp(req.headers), "Too many requests from this network");
+  await consumeOrThrow("analysisIp", clientAddress(req), "Too many requests from this network");
   const url = new URL(req.url);
   const smiles = url.searchParams.get("smiles")?.trim() || undefined;
   const inchi = url.searchParams.get("inchi")?.trim() || undefined;

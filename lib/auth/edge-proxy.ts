@@ -1,0 +1,111 @@
+// The public face of `npm start`: a small HTTP server in front of `next start` that decides the
+// client's address from the socket (believing X-Forwarded-For only from proxies TRUST_PROXY
+// names), strips forwarding headers nobody trusted set, and refuses cross-origin form posts
+// (server actions) with a 403 before they reach Next.
+import http from "node:http";
+import type { AddressInfo } from "node:net";
+import proxyaddr from "proxy-addr";
+import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "./client-address";
+
+export type TrustProxy = (address: string, hop: number) => boolean;
+
+/** Parses TRUST_PROXY: "" trusts nobody, "2" trusts two hops, else a list of addresses / CIDRs. */
+export function compileTrustProxy(value: string): TrustProxy {
+  const v = value.trim();
+  if (v === "" || v === "0" || v === "false") return () => false;
+  if (/^\d+$/.test(v)) {
+    const hops = Number(v);
+    return (_address, hop) => hop < hops;
+  }
+  const list = v.split(",").map((s) => s.trim()).filter(Boolean);
+  try {
+    return proxyaddr.compile(list);
+  } catch (err) {
+    throw new Error(`TRUST_PROXY: ${(err as Error).message} (expected a hop count or addresses / CIDR ranges, comma-separated)`);
+  }
+}
+
+/** IPv4 peers on a dual-stack socket appear as ::ffff:a.b.c.d; count them as a.b.c.d. */
+function plainAddress(address: string): string {
+  return address.startsWith("::ffff:") && address.includes(".") ? address.slice(7) : address;
+}
+
+const STRIPPED_ALWAYS = [CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER, "forwarded", "x-real-ip"];
+const STRIPPED_UNTRUSTED = ["x-forwarded-host", "x-forwarded-proto", "x-forwarded-port"];
+
+/** A state-changing request to a page (a server action or form post) from another origin. */
+export function isCrossOriginPagePost(method: string | undefined, url: string | undefined, headers: http.IncomingHttpHeaders): boolean {
+  if (!method || ["GET", "HEAD", "OPTIONS"].includes(method)) return false;
+  // The REST API and next-auth's endpoints authenticate (bearer tokens, CSRF tokens) on their own.
+  if ((url ?? "/").startsWith("/api/")) return false;
+  const origin = headers.origin;
+  if (origin === undefined) return false;
+  const forwardedHost = typeof headers["x-forwarded-host"] === "string" ? headers["x-forwarded-host"].split(",")[0]?.trim() : undefined;
+  const host = forwardedHost || headers.host;
+  try {
+    return new URL(origin).host !== host;
+  } catch {
+    return true; // "null" or garbage: an opaque origin is never ours
+  }
+}
+
+/** Rewrites the incoming headers for the app behind; exported for tests. */
+export function forwardedHeaders(req: http.IncomingMessage, trust: TrustProxy, key: string): http.OutgoingHttpHeaders {
+  const headers: http.OutgoingHttpHeaders = { ...req.headers };
+  for (const name of STRIPPED_ALWAYS) delete headers[name];
+  if (!trust(req.socket.remoteAddress ?? "", 0)) for (const name of STRIPPED_UNTRUSTED) delete headers[name];
+  const address = plainAddress(proxyaddr(req, trust));
+  headers["x-forwarded-for"] = address;
+  headers[CLIENT_ADDRESS_HEADER] = address;
+  headers[EDGE_KEY_HEADER] = key;
+  return headers;
+}
+
+export async function startEdgeProxy({ host, port, upstreamPort, trust, key }: { host: string; port: number; upstreamPort: number; trust: TrustProxy; key: string }) {
+  const agent = new http.Agent({ keepAlive: true });
+  const server = http.createServer((req, res) => {
+    const headers = forwardedHeaders(req, trust, key);
+    if (isCrossOriginPagePost(req.method, req.url, headers as http.IncomingHttpHeaders)) {
+      res.writeHead(403, { "content-type": "application/problem+json" });
+      res.end(JSON.stringify({ type: "about:blank", title: "Forbidden", status: 403, code: "forbidden", detail: "This form was sent from another site." }));
+      req.resume();
+      return;
+    }
+    const upstream = http.request({ host: "127.0.0.1", port: upstreamPort, method: req.method, path: req.url, headers, agent }, (answer) => {
+      res.writeHead(answer.statusCode ?? 502, answer.headers);
+      answer.pipe(res);
+    });
+    upstream.on("error", () => {
+      if (!res.headersSent) res.writeHead(502, { "content-type": "text/plain" }).end("The application is starting or unavailable.");
+      else res.destroy();
+    });
+    // A client that goes away stops the work behind it too.
+    res.on("close", () => {
+      if (!res.writableFinished) upstream.destroy();
+    });
+    req.pipe(upstream);
+  });
+  await new Promise<void>((resolve, reject) => {
+    server.once("error", reject);
+    server.listen(port, host, () => resolve());
+  });
+  const bound = server.address() as AddressInfo;
+  return {
+    port: bound.port,
+    close: () =>
+      new Promise<void>((resolve) => {
+        agent.destroy();
+        server.close(() => resolve());
+        server.closeAllConnections();
+      }),
+  };
+}
+
+/** A free loopback port for the app behind the front server. */
+export async function freeLoopbackPort(): Promise<number> {
+  const probe = http.createServer();
+  await new Promise<void>((resolve) => probe.listen(0, "127.0.0.1", () => resolve()));
+  const { port } = probe.address() as AddressInfo;
+  await new Promise<void>((resolve) => probe.close(() => resolve()));
+  return port;
+}

@@ -1,0 +1,135 @@
+import http from "node:http";
+import type { AddressInfo } from "node:net";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { POST as analyse } from "@/app/api/v1/analyses/route";
+import { clientAddress } from "@/lib/auth/client-address";
+import { compileTrustProxy, startEdgeProxy } from "@/lib/auth/edge-proxy";
+import { authorizeCredentials } from "@/lib/auth/options";
+import { uniqueEmail } from "./helpers";
+
+// The front server that scripts/serve.ts puts before Next, in front of a small stand-in for the
+// app that answers with what the app's own code makes of each request.
+let app: http.Server;
+let appPort: number;
+const edges: { port: number; close: () => Promise<void> }[] = [];
+
+async function readBody(req: http.IncomingMessage): Promise<string> {
+  const chunks: Buffer[] = [];
+  for await (const c of req) chunks.push(c as Buffer);
+  return Buffer.concat(chunks).toString("utf8");
+}
+
+beforeAll(async () => {
+  app = http.createServer(async (req, res) => {
+    const headers = req.headers as Record<string, string>;
+    if (req.url === "/echo") {
+      res.setHeader("content-type", "application/json");
+      res.end(JSON.stringify({ address: clientAddress(headers), forwardedHost: headers["x-forwarded-host"] ?? null }));
+    } else if (req.url === "/sign-in") {
+      const answer = await authorizeCredentials(JSON.parse(await readBody(req)), clientAddress(headers)).then(
+        () => "ok",
+        (err: Error) => err.message,
+      );
+      res.end(answer);
+    } else if (req.url === "/api/v1/analyses") {
+      const web = new Request("http://127.0.0.1/api/v1/analyses", { method: "POST", headers: new Headers(headers), body: await readBody(req) });
+      const answer = await analyse(web, { params: Promise.resolve({}) });
+      res.writeHead(answer.status).end();
+    } else {
+      res.writeHead(200).end("reached the app");
+    }
+  });
+  await new Promise<void>((resolve) => app.listen(0, "127.0.0.1", () => resolve()));
+  appPort = (app.address() as AddressInfo).port;
+});
+
+afterAll(async () => {
+  await Promise.all(edges.map((e) => e.close()));
+  await new Promise((resolve) => app.close(resolve));
+});
+
+async function edge(trustProxy: string) {
+  const e = await startEdgeProxy({ host: "127.0.0.1", port: 0, upstreamPort: appPort, trust: compileTrustProxy(trustProxy), key: process.env.ARRHENIA_EDGE_KEY! });
+  edges.push(e);
+  return e.port;
+}
+
+/** One request from the loopback address `from` (127.x.y.z: every one is this machine). */
+function send(port: number, from: string, { method = "GET", path = "/echo", headers = {}, body }: { method?: string; path?: string; headers?: Record<string, string>; body?: string }) {
+  return new Promise<{ status: number; text: string }>((resolve, reject) => {
+    const req = http.request({ host: "127.0.0.1", port, method, path, headers, localAddress: from }, (res) => {
+      let text = "";
+      res.on("data", (c) => (text += c));
+      res.on("end", () => resolve({ status: res.statusCode ?? 0, text }));
+    });
+    req.on("error", reject);
+    req.end(body);
+  });
+}
+
+let n = 0;
+/** A fresh loopback source address per test, so the limits of one test do not touch another. */
+function loopback(): string {
+  n++;
+  return `127.${10 + Math.floor(Math.random() * 200)}.${n}.${1 + Math.floor(Math.random() * 250)}`;
+}
+
+const spoof = () => `203.0.113.${Math.floor(Math.random() * 250)}, 198.51.100.${Math.floor(Math.random() * 250)}`;
+
+describe("client address behind the front server", () => {
+  it("without TRUST_PROXY the socket address counts, whatever the forwarding headers say", async () => {
+    const port = await edge("");
+    const from = loopback();
+    const res = await send(port, from, { headers: { "x-forwarded-for": spoof(), "x-real-ip": "203.0.113.7", "x-arrhenia-client-address": "203.0.113.8", "x-forwarded-host": "evil.example" } });
+    expect(JSON.parse(res.text)).toEqual({ address: from, forwardedHost: null });
+  });
+
+  it("31 sign-ins from one socket with a new spoofed X-Forwarded-For each are limited after 30", async () => {
+    const port = await edge("");
+    const from = loopback();
+    const answers: string[] = [];
+    for (let i = 0; i < 31; i++) {
+      const body = JSON.stringify({ email: uniqueEmail("spoof"), password: "a-guessed-password" });
+      answers.push((await send(port, from, { method: "POST", path: "/sign-in", headers: { "x-forwarded-for": spoof(), "content-type": "application/json" }, body })).text);
+    }
+    expect(answers.slice(0, 30).every((a) => /not right/.test(a))).toBe(true);
+    expect(answers[30]).toMatch(/Too many sign-in attempts from this network/);
+  }, 60_000);
+
+  it("analyses from one socket with spoofed X-Forwarded-For get a 429 after 120 a minute", async () => {
+    const port = await edge("");
+    const from = loopback();
+    const body = JSON.stringify({ points: [250, 300, 350].map((T) => ({ T, k: 1e-12 * Math.exp(-1000 / T) })), order: 2 });
+    const statuses: number[] = [];
+    for (let i = 0; i < 121; i++) {
+      statuses.push((await send(port, from, { method: "POST", path: "/api/v1/analyses", headers: { "x-forwarded-for": spoof(), "content-type": "application/json" }, body })).status);
+    }
+    expect(statuses.slice(0, 120).every((s) => s === 200)).toBe(true);
+    expect(statuses[120]).toBe(429);
+  }, 60_000);
+
+  it("with TRUST_PROXY=1 the proxy's X-Forwarded-For and X-Forwarded-Host are believed", async () => {
+    const port = await edge("1");
+    const res = await send(port, loopback(), { headers: { "x-forwarded-for": "203.0.113.50, 192.0.2.10", "x-forwarded-host": "arrhenia.example" } });
+    expect(JSON.parse(res.text)).toEqual({ address: "192.0.2.10", forwardedHost: "arrhenia.example" });
+  });
+
+  it("with TRUST_PROXY naming other proxies, this socket is not believed", async () => {
+    const port = await edge("10.0.0.0/8");
+    const from = loopback();
+    const res = await send(port, from, { headers: { "x-forwarded-for": "203.0.113.50" } });
+    expect(JSON.parse(res.text).address).toBe(from);
+  });
+
+  it("a cross-origin server action is a 403, also when X-Forwarded-Host claims the other origin", async () => {
+    const port = await edge("");
+    const action = { "next-action": "0123456789abcdef", "content-type": "text/plain;charset=UTF-8" };
+    const crossSite = await send(port, loopback(), { method: "POST", path: "/settings", headers: { ...action, host: `127.0.0.1:${port}`, origin: "https://evil.example" }, body: "[]" });
+    expect(crossSite.status).toBe(403);
+    expect(JSON.parse(crossSite.text)).toMatchObject({ status: 403, code: "forbidden" });
+    const claimed = await send(port, loopback(), { method: "POST", path: "/settings", headers: { ...action, host: `127.0.0.1:${port}`, origin: "https://evil.example", "x-forwarded-host": "evil.example" }, body: "[]" });
+    expect(claimed.status).toBe(403);
+    const sameSite = await send(port, loopback(), { method: "POST", path: "/settings", headers: { ...action, host: `127.0.0.1:${port}`, origin: `http://127.0.0.1:${port}` }, body: "[]" });
+    expect(sameSite).toEqual({ status: 200, text: "reached the app" });
+  });
+});

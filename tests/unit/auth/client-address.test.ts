@@ -1,0 +1,78 @@
+import type http from "node:http";
+import { afterEach, describe, expect, it } from "vitest";
+import { CLIENT_ADDRESS_HEADER, clientAddress, EDGE_KEY_HEADER, UNKNOWN_ADDRESS } from "@/lib/auth/client-address";
+import { compileTrustProxy, forwardedHeaders, isCrossOriginPagePost } from "@/lib/auth/edge-proxy";
+
+function fakeRequest(remoteAddress: string, headers: http.IncomingHttpHeaders): http.IncomingMessage {
+  return { headers, socket: { remoteAddress }, connection: { remoteAddress } } as unknown as http.IncomingMessage;
+}
+
+describe("clientAddress: only the front server's word counts", () => {
+  afterEach(() => {
+    delete process.env.ARRHENIA_EDGE_KEY;
+  });
+
+  it("ignores X-Forwarded-For and X-Real-IP sent by a client", () => {
+    process.env.ARRHENIA_EDGE_KEY = "k".repeat(48);
+    expect(clientAddress(new Headers({ "x-forwarded-for": "203.0.113.9", "x-real-ip": "203.0.113.9" }))).toBe(UNKNOWN_ADDRESS);
+  });
+
+  it("believes the client-address header only with the front server's key", () => {
+    process.env.ARRHENIA_EDGE_KEY = "k".repeat(48);
+    expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "198.51.100.7", [EDGE_KEY_HEADER]: "k".repeat(48) })).toBe("198.51.100.7");
+    expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "198.51.100.7", [EDGE_KEY_HEADER]: "guessed" })).toBe(UNKNOWN_ADDRESS);
+    expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "198.51.100.7" })).toBe(UNKNOWN_ADDRESS);
+    expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "not an address", [EDGE_KEY_HEADER]: "k".repeat(48) })).toBe(UNKNOWN_ADDRESS);
+  });
+
+  it("believes nothing when no front server is configured", () => {
+    expect(clientAddress(new Request("http://x/", { headers: { [CLIENT_ADDRESS_HEADER]: "198.51.100.7", [EDGE_KEY_HEADER]: "" } }))).toBe(UNKNOWN_ADDRESS);
+  });
+});
+
+describe("TRUST_PROXY", () => {
+  const spoofed = { "x-forwarded-for": "203.0.113.50, 192.0.2.10", "x-forwarded-host": "evil.example", "x-real-ip": "203.0.113.99", [CLIENT_ADDRESS_HEADER]: "203.0.113.1" };
+
+  it("unset: the socket address, and every forwarding header dropped", () => {
+    const h = forwardedHeaders(fakeRequest("::ffff:127.0.0.1", { ...spoofed }), compileTrustProxy(""), "key");
+    expect(h[CLIENT_ADDRESS_HEADER]).toBe("127.0.0.1");
+    expect(h["x-forwarded-for"]).toBe("127.0.0.1");
+    expect(h["x-forwarded-host"]).toBeUndefined();
+    expect(h["x-real-ip"]).toBeUndefined();
+    expect(h[EDGE_KEY_HEADER]).toBe("key");
+  });
+
+  it("a hop count believes that many proxies, counted from the socket", () => {
+    expect(forwardedHeaders(fakeRequest("10.0.0.2", { ...spoofed }), compileTrustProxy("1"), "k")[CLIENT_ADDRESS_HEADER]).toBe("192.0.2.10");
+    expect(forwardedHeaders(fakeRequest("10.0.0.2", { ...spoofed }), compileTrustProxy("2"), "k")[CLIENT_ADDRESS_HEADER]).toBe("203.0.113.50");
+    expect(forwardedHeaders(fakeRequest("10.0.0.2", { ...spoofed }), compileTrustProxy("1"), "k")["x-forwarded-host"]).toBe("evil.example");
+  });
+
+  it("a list believes only the proxies it names", () => {
+    const trust = compileTrustProxy("10.0.0.0/8, 192.0.2.10");
+    expect(forwardedHeaders(fakeRequest("10.1.2.3", { ...spoofed }), trust, "k")[CLIENT_ADDRESS_HEADER]).toBe("203.0.113.50");
+    const untrusted = forwardedHeaders(fakeRequest("198.51.100.1", { ...spoofed }), trust, "k");
+    expect(untrusted[CLIENT_ADDRESS_HEADER]).toBe("198.51.100.1");
+    expect(untrusted["x-forwarded-host"]).toBeUndefined();
+  });
+
+  it("a value that is neither a count nor addresses stops start-up with a clear message", () => {
+    expect(() => compileTrustProxy("yes please")).toThrow(/TRUST_PROXY/);
+  });
+});
+
+describe("cross-origin page posts (server actions)", () => {
+  const h = (extra: http.IncomingHttpHeaders) => ({ host: "arrhenia.example", ...extra });
+  it.each([
+    ["another origin", h({ origin: "https://evil.example" }), true],
+    ["an opaque origin", h({ origin: "null" }), true],
+    ["the same host", h({ origin: "https://arrhenia.example" }), false],
+    ["no origin (not a browser)", h({}), false],
+  ])("%s", (_label, headers, refused) => {
+    expect(isCrossOriginPagePost("POST", "/settings", headers)).toBe(refused);
+  });
+  it("leaves reads and the API alone", () => {
+    expect(isCrossOriginPagePost("GET", "/settings", h({ origin: "https://evil.example" }))).toBe(false);
+    expect(isCrossOriginPagePost("POST", "/api/v1/analyses", h({ origin: "https://evil.example" }))).toBe(false);
+  });
+});
