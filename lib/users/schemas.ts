@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password";
 import { normaliseOrcid } from "@/lib/auth/orcid";
+import { idSchema } from "@/lib/ids";
 
 // Shared by forms, server actions and (later) the REST API. FormData values are strings.
 
@@ -55,15 +56,15 @@ export const createTokenSchema = z.object({
     .union([z.string(), z.array(z.string())])
     .optional()
     .transform((v) => (v === undefined ? [] : Array.isArray(v) ? v : [v]))
-    .pipe(z.array(z.enum(["read", "deposit"])).min(1, "Choose at least one scope")),
+    .pipe(z.array(z.enum(["read", "deposit", "admin"])).min(1, "Choose at least one scope")),
 });
 
 export const roleChangeSchema = z.object({
-  userId: z.coerce.number().int().positive(),
+  userId: idSchema,
   role: z.enum(["researcher", "curator", "admin"]),
 });
 
 export const activeChangeSchema = z.object({
-  userId: z.coerce.number().int().positive(),
+  userId: idSchema,
   active: z.enum(["true", "false"]).transform((v) => v === "true"),
 });

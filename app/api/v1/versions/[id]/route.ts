@@ -7,12 +7,9 @@ import { getVisibleVersionOrThrow, updateDraft } from "@/lib/datasets/deposits";
 import { versionToJson } from "@/lib/datasets/version-json";
 import { MAX_DOCUMENT_BYTES, parseDepositJson } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
+import { parseIdOrThrow } from "@/lib/ids";
 
-function versionIdOrThrow(raw: string): number {
-  const id = Number(raw);
-  if (!Number.isInteger(id) || id <= 0) throw new AppError("not_found", "No such dataset version");
-  return id;
-}
+const versionIdOrThrow = (raw: string) => parseIdOrThrow(raw, "dataset version");
 
 export const GET = withApi<{ id: string }>(
   async ({ user, params }) => {

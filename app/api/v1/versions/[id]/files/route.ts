@@ -5,12 +5,9 @@ import { withApi } from "@/lib/auth/api";
 import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
 import { addVersionFile, listVersionFiles, MAX_FILE_BYTES } from "@/lib/datasets/files";
 import { AppError } from "@/lib/errors";
+import { parseIdOrThrow } from "@/lib/ids";
 
-function idOf(raw: string) {
-  const id = Number(raw);
-  if (!Number.isInteger(id) || id <= 0) throw new AppError("not_found", "No such dataset version");
-  return id;
-}
+const idOf = (raw: string) => parseIdOrThrow(raw, "dataset version");
 
 export const GET = withApi<{ id: string }>(
   async ({ user, params }) => {

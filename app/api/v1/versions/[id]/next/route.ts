@@ -2,12 +2,11 @@
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { startNextVersion } from "@/lib/datasets/deposits";
-import { AppError } from "@/lib/errors";
+import { parseIdOrThrow } from "@/lib/ids";
 
 export const POST = withApi<{ id: string }>(
   async ({ user, params }) => {
-    const versionId = Number(params.id);
-    if (!Number.isInteger(versionId) || versionId <= 0) throw new AppError("not_found", "No such dataset version");
+    const versionId = parseIdOrThrow(params.id, "dataset version");
     const v = await startNextVersion({ actor: user!, versionId });
     return NextResponse.json({ data: { versionId: v.id, number: v.number, state: v.state, lockVersion: v.lockVersion } }, { status: 201, headers: { location: `/api/v1/versions/${v.id}` } });
   },

@@ -3,7 +3,7 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { parseJsonBody, withApi } from "@/lib/auth/api";
 import { transitionVersion } from "@/lib/datasets/deposits";
-import { AppError } from "@/lib/errors";
+import { parseIdOrThrow } from "@/lib/ids";
 
 const bodySchema = z
   .object({
@@ -14,8 +14,7 @@ const bodySchema = z
 
 export const POST = withApi<{ id: string }>(
   async ({ req, user, params }) => {
-    const versionId = Number(params.id);
-    if (!Number.isInteger(versionId) || versionId <= 0) throw new AppError("not_found", "No such dataset version");
+    const versionId = parseIdOrThrow(params.id, "dataset version");
     const { transition, reason } = await parseJsonBody(req, bodySchema);
     // Role and dataset membership are re-read inside the transaction (lib/curation/transitions.ts).
     const outcome = await transitionVersion({ actor: user!, versionId, transition, reason });
