@@ -23,12 +23,25 @@ export function parseIdOrThrow(raw: unknown, what: string): number {
   return id;
 }
 
-/** The same rule as a zod schema, for forms (strings) and action arguments (numbers). */
-export const idSchema = z.union([z.string(), z.number()]).transform((raw, ctx) => {
-  const id = parseIdOrNull(raw);
-  if (id === null) {
-    ctx.addIssue({ code: "custom", message: `Expected an id from 1 to ${MAX_ID}` });
-    return z.NEVER;
-  }
-  return id;
-});
+/**
+ * The same rule as a zod schema, for forms (strings) and action arguments (numbers). Its issue
+ * carries `params.notFound`, so action wrappers answer "No such …" (404) rather than a form error.
+ */
+export function idFor(what: string) {
+  return z.union([z.string(), z.number()]).transform((raw, ctx) => {
+    const id = parseIdOrNull(raw);
+    if (id === null) {
+      ctx.addIssue({ code: "custom", message: `No such ${what}`, params: { notFound: true } });
+      return z.NEVER;
+    }
+    return id;
+  });
+}
+
+export const idSchema = idFor("record");
+
+/** The 404 an id issue stands for, if the zod error holds one. */
+export function notFoundFromIssues(error: z.ZodError): AppError | null {
+  const issue = error.issues.find((i) => i.code === "custom" && (i as { params?: { notFound?: boolean } }).params?.notFound);
+  return issue ? new AppError("not_found", issue.message) : null;
+}

@@ -8,7 +8,7 @@ import { depositNewDataset, startNextVersion, transitionVersion, updateDraft } f
 import { inviteCoEditor } from "@/lib/datasets/invitations";
 import { MAX_DOCUMENT_BYTES, parseDepositJson } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
-import { idSchema, MAX_ID } from "@/lib/ids";
+import { idFor, MAX_ID } from "@/lib/ids";
 
 /** Result of an editor action: either the saved state or every problem with its JSON pointer. */
 export type EditorResult =
@@ -23,6 +23,7 @@ function failure(err: unknown): EditorResult {
   return { ok: false, status: 500, message: "Something went wrong on our side; it has been logged. Nothing was stored.", errors: [] };
 }
 
+const versionIdSchema = idFor("dataset version");
 const documentJson = z.string().max(MAX_DOCUMENT_BYTES, "The document is larger than 25 MB");
 const lockVersion = z.number().int().min(0).max(MAX_ID);
 const transitionSchema = z.enum(["submit", "withdraw", "start_review", "request_changes", "accept", "decline", "retract"]);
@@ -41,13 +42,13 @@ const createDraft = protectedCall(z.object({ documentJson }).strict(), { permiss
   return v;
 });
 
-const saveDraft = protectedCall(z.object({ versionId: idSchema, lockVersion, documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
+const saveDraft = protectedCall(z.object({ versionId: versionIdSchema, lockVersion, documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
   const v = await updateDraft({ actor: user, versionId: input.versionId, expectedLockVersion: input.lockVersion, document: documentOrThrow(input.documentJson) });
   revalidatePath(`/deposits/${input.versionId}`);
   return v;
 });
 
-const transitionRun = protectedCall(z.object({ versionId: idSchema, transition: transitionSchema, reason: reasonSchema }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
+const transitionRun = protectedCall(z.object({ versionId: versionIdSchema, transition: transitionSchema, reason: reasonSchema }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
   // Role, dataset role and state are re-read inside the transaction (lib/curation/transitions.ts).
   const out = await transitionVersion({ actor: user, versionId: input.versionId, transition: input.transition, reason: input.reason });
   revalidatePath(`/deposits/${input.versionId}`);
@@ -56,7 +57,7 @@ const transitionRun = protectedCall(z.object({ versionId: idSchema, transition: 
 });
 
 const invite = protectedCall(
-  z.object({ versionId: idSchema, email: z.string().trim().toLowerCase().max(320).email("Enter an e-mail address"), role: z.enum(["editor", "viewer"]) }).strict(),
+  z.object({ versionId: versionIdSchema, email: z.string().trim().toLowerCase().max(320).email("Enter an e-mail address"), role: z.enum(["editor", "viewer"]) }).strict(),
   { permission: "dataset.deposit" },
   async (input, user) => {
     await inviteCoEditor({ actor: user, versionId: input.versionId, email: input.email, role: input.role });
@@ -64,7 +65,7 @@ const invite = protectedCall(
   },
 );
 
-const startNext = protectedCall(z.object({ versionId: idSchema }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
+const startNext = protectedCall(z.object({ versionId: versionIdSchema }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
   const v = await startNextVersion({ actor: user, versionId: input.versionId });
   revalidatePath("/deposits");
   return v;
@@ -101,13 +102,13 @@ export async function transitionAction(versionId: number, transition: Transition
 }
 
 /** The owner invites a co-editor by e-mail (the link is valid for 7 days). */
-export async function inviteAction(versionId: number, email: string, role: "editor" | "viewer"): Promise<{ ok: boolean; message: string }> {
+export async function inviteAction(versionId: number, email: string, role: "editor" | "viewer"): Promise<{ ok: boolean; status: number; message: string }> {
   try {
     const address = await invite({ versionId, email, role });
-    return { ok: true, message: `Invitation sent to ${address}.` };
+    return { ok: true, status: 200, message: `Invitation sent to ${address}.` };
   } catch (err) {
     const r = failure(err);
-    return { ok: false, message: r.ok ? "" : r.message };
+    return { ok: false, status: r.ok ? 500 : r.status, message: r.ok ? "" : r.message };
   }
 }
 

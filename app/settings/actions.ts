@@ -5,7 +5,7 @@ import { z } from "zod";
 import { protectedAction } from "@/lib/auth/action";
 import { can } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
-import { idSchema } from "@/lib/ids";
+import { idFor } from "@/lib/ids";
 import { changePassword } from "@/lib/users/accounts";
 import { createApiToken, revokeApiToken, updateProfile } from "@/lib/users/queries";
 import { changePasswordSchema, createTokenSchema, profileSchema } from "@/lib/users/schemas";
@@ -31,7 +31,7 @@ export const createTokenAction = protectedAction(createTokenSchema, { permission
   return { status: "ok", message: "Token created. Copy it now: it will not be shown again.", data: { secret } };
 });
 
-export const revokeTokenAction = protectedAction(z.object({ tokenId: idSchema }), { permission: "token.manage" }, async ({ tokenId }, user) => {
+export const revokeTokenAction = protectedAction(z.object({ tokenId: idFor("token") }), { permission: "token.manage" }, async ({ tokenId }, user) => {
   // Ownership: revokeApiToken only matches the person's own tokens.
   await revokeApiToken({ userId: user.id, tokenId });
   revalidatePath("/settings");

@@ -2,6 +2,7 @@ import "server-only";
 import type { z } from "zod";
 import { AppError } from "@/lib/errors";
 import type { UserDto } from "@/lib/users/queries";
+import { notFoundFromIssues } from "@/lib/ids";
 import { zodToFieldErrors } from "./api";
 import { assertAllowed } from "./guard";
 import type { Permission } from "./permissions";
@@ -60,7 +61,11 @@ export function protectedAction<S extends z.ZodType>(schema: S, options: { permi
       const user = await getCurrentUser();
       if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
       const parsed = schema.safeParse(formToObject(formData));
-      if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error), values: echoValues(formData) };
+      if (!parsed.success) {
+        const missing = notFoundFromIssues(parsed.error);
+        if (missing) throw missing;
+        return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error), values: echoValues(formData) };
+      }
       assertAllowed(user, { permission: options.permission });
       return (await body(parsed.data, user)) ?? { status: "ok" };
     } catch (err) {
@@ -93,6 +98,8 @@ export function protectedCall<S extends z.ZodType, R>(schema: S, options: { perm
     if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
     const parsed = schema.safeParse(args);
     if (!parsed.success) {
+      const missing = notFoundFromIssues(parsed.error);
+      if (missing) throw missing;
       const errors = zodToFieldErrors(parsed.error);
       const first = errors[0];
       throw new AppError("validation_failed", first ? `${first.message} (${first.pointer.slice(1) || "arguments"})` : "Invalid arguments", errors);

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password";
 import { normaliseOrcid } from "@/lib/auth/orcid";
-import { idSchema } from "@/lib/ids";
+import { idFor } from "@/lib/ids";
 
 // Shared by forms, server actions and (later) the REST API. FormData values are strings.
 
@@ -60,11 +60,11 @@ export const createTokenSchema = z.object({
 });
 
 export const roleChangeSchema = z.object({
-  userId: idSchema,
+  userId: idFor("person"),
   role: z.enum(["researcher", "curator", "admin"]),
 });
 
 export const activeChangeSchema = z.object({
-  userId: idSchema,
+  userId: idFor("person"),
   active: z.enum(["true", "false"]).transform((v) => v === "true"),
 });
