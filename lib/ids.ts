@@ -28,7 +28,7 @@ export function parseIdOrThrow(raw: unknown, what: string): number {
  * carries `params.notFound`, so action wrappers answer "No such …" (404) rather than a form error.
  */
 export function idFor(what: string) {
-  return z.union([z.string(), z.number()]).transform((raw, ctx) => {
+  return z.unknown().transform((raw, ctx) => {
     const id = parseIdOrNull(raw);
     if (id === null) {
       ctx.addIssue({ code: "custom", message: `No such ${what}`, params: { notFound: true } });

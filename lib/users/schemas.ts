@@ -14,6 +14,7 @@ export const passwordField = z
 
 export const orcidField = z
   .string()
+  .max(100, "An ORCID iD has 19 characters")
   .trim()
   .transform((v, ctx) => {
     if (v === "") return null;
@@ -30,7 +31,7 @@ export const signUpSchema = z
     name: z.string().trim().min(1, "Enter your name").max(200),
     email: emailField,
     password: passwordField,
-    confirm: z.string(),
+    confirm: z.string().max(200),
   })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 
@@ -41,13 +42,13 @@ export const profileSchema = z.object({
 });
 
 export const changePasswordSchema = z
-  .object({ current: z.string().min(1, "Enter your current password"), password: passwordField, confirm: z.string() })
+  .object({ current: z.string().min(1, "Enter your current password").max(200), password: passwordField, confirm: z.string().max(200) })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 
 export const forgotPasswordSchema = z.object({ email: emailField });
 
 export const resetPasswordSchema = z
-  .object({ token: z.string().min(10), password: passwordField, confirm: z.string() })
+  .object({ token: z.string().min(10).max(512), password: passwordField, confirm: z.string().max(200) })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 
 export const createTokenSchema = z.object({
