@@ -2,6 +2,9 @@ import { beforeAll, describe, expect, it, vi } from "vitest";
 
 vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
+// Hundreds of transitions here: their mails and registrations would only pile up in the shared queues.
+vi.mock("@/lib/mail/queue", () => ({ enqueueMail: vi.fn() }));
+vi.mock("@/lib/identifiers/queue", () => ({ enqueueIdentifierRegistration: vi.fn() }));
 vi.mock("next/headers", () => ({ headers: async () => new Headers({ "x-forwarded-for": "10.250.0.1" }) }));
 
 import { createDraftAction, inviteAction, saveDraftAction, startNextVersionAction, transitionAction } from "@/app/deposits/actions";
