@@ -2,13 +2,13 @@
 
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
-import { getCurrentUser } from "@/lib/auth/session";
-import { assertAllowed } from "@/lib/auth/guard";
+import { protectedCall } from "@/lib/auth/action";
 import type { Transition } from "@/lib/curation/lifecycle";
 import { depositNewDataset, startNextVersion, transitionVersion, updateDraft } from "@/lib/datasets/deposits";
 import { inviteCoEditor } from "@/lib/datasets/invitations";
-import { parseDepositJson } from "@/lib/deposits";
+import { MAX_DOCUMENT_BYTES, parseDepositJson } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
+import { idFor, MAX_ID } from "@/lib/ids";
 
 /** Result of an editor action: either the saved state or every problem with its JSON pointer. */
 export type EditorResult =
@@ -17,24 +17,64 @@ export type EditorResult =
 
 function failure(err: unknown): EditorResult {
   if (err instanceof AppError) return { ok: false, status: err.status, message: err.message, errors: err.errors };
-  if (err instanceof z.ZodError) return { ok: false, status: 422, message: err.issues[0]?.message ?? "Invalid input", errors: [] };
+  // Next's redirect()/notFound() work by throwing: let them through.
+  if (err && typeof err === "object" && "digest" in err) throw err;
   console.error("[deposits] action failed", err);
   return { ok: false, status: 500, message: "Something went wrong on our side; it has been logged. Nothing was stored.", errors: [] };
 }
 
-async function actorOrThrow() {
-  const user = await getCurrentUser();
-  return { ...assertAllowed(user, { permission: "dataset.deposit" }), user: user! };
+const versionIdSchema = idFor("dataset version");
+const documentJson = z.string().max(MAX_DOCUMENT_BYTES, "The document is larger than 25 MB");
+const lockVersion = z.number().int().min(0).max(MAX_ID);
+const transitionSchema = z.enum(["submit", "withdraw", "start_review", "request_changes", "accept", "decline", "retract"]);
+// The same bound as the transitions endpoint; the minimum is the lifecycle's (a reason is needed only for decisions).
+const reasonSchema = z.string().max(5000, "Keep the reason under 5000 characters").optional();
+
+function documentOrThrow(json: string) {
+  const parsed = parseDepositJson(json);
+  if (!parsed.ok) throw new AppError("validation_failed", parsed.errors[0].message, parsed.errors);
+  return parsed.value;
 }
+
+const createDraft = protectedCall(z.object({ documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
+  const v = await depositNewDataset({ actor: user, document: documentOrThrow(input.documentJson) });
+  revalidatePath("/deposits");
+  return v;
+});
+
+const saveDraft = protectedCall(z.object({ versionId: versionIdSchema, lockVersion, documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
+  const v = await updateDraft({ actor: user, versionId: input.versionId, expectedLockVersion: input.lockVersion, document: documentOrThrow(input.documentJson) });
+  revalidatePath(`/deposits/${input.versionId}`);
+  return v;
+});
+
+const transitionRun = protectedCall(z.object({ versionId: versionIdSchema, transition: transitionSchema, reason: reasonSchema }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
+  // Role, dataset role and state are re-read inside the transaction (lib/curation/transitions.ts).
+  const out = await transitionVersion({ actor: user, versionId: input.versionId, transition: input.transition, reason: input.reason });
+  revalidatePath(`/deposits/${input.versionId}`);
+  revalidatePath("/review");
+  return out;
+});
+
+const invite = protectedCall(
+  z.object({ versionId: versionIdSchema, email: z.string().trim().toLowerCase().max(320).email("Enter an e-mail address"), role: z.enum(["editor", "viewer"]) }).strict(),
+  { permission: "dataset.deposit" },
+  async (input, user) => {
+    await inviteCoEditor({ actor: user, versionId: input.versionId, email: input.email, role: input.role });
+    return input.email;
+  },
+);
+
+const startNext = protectedCall(z.object({ versionId: versionIdSchema }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
+  const v = await startNextVersion({ actor: user, versionId: input.versionId });
+  revalidatePath("/deposits");
+  return v;
+});
 
 /** Creates a draft dataset from the editor's document (JSON text). */
 export async function createDraftAction(documentJson: string): Promise<EditorResult> {
   try {
-    const { user } = await actorOrThrow();
-    const parsed = parseDepositJson(documentJson);
-    if (!parsed.ok) throw new AppError("validation_failed", parsed.errors[0].message, parsed.errors);
-    const v = await depositNewDataset({ actor: user, document: parsed.value });
-    revalidatePath("/deposits");
+    const v = await createDraft({ documentJson });
     return { ok: true, versionId: v.id, lockVersion: v.lockVersion, state: v.state };
   } catch (err) {
     return failure(err);
@@ -44,55 +84,38 @@ export async function createDraftAction(documentJson: string): Promise<EditorRes
 /** Saves the editor's document over a draft, if nobody saved since `lockVersion`. */
 export async function saveDraftAction(versionId: number, lockVersion: number, documentJson: string): Promise<EditorResult> {
   try {
-    const { user } = await actorOrThrow();
-    z.number().int().positive().parse(versionId);
-    const parsed = parseDepositJson(documentJson);
-    if (!parsed.ok) throw new AppError("validation_failed", parsed.errors[0].message, parsed.errors);
-    const v = await updateDraft({ actor: user, versionId, expectedLockVersion: lockVersion, document: parsed.value });
-    revalidatePath(`/deposits/${versionId}`);
+    const v = await saveDraft({ versionId, lockVersion, documentJson });
     return { ok: true, versionId: v.id, lockVersion: v.lockVersion, state: v.state };
   } catch (err) {
     return failure(err);
   }
 }
 
-const transitionSchema = z.enum(["submit", "withdraw", "start_review", "request_changes", "accept", "decline", "retract"]);
-
-/** Moves a version along its lifecycle; role and membership are checked in the transaction. */
+/** Moves a version along its lifecycle. */
 export async function transitionAction(versionId: number, transition: Transition, reason?: string): Promise<EditorResult> {
   try {
-    const { user } = await actorOrThrow();
-    const t = transitionSchema.parse(transition);
-    const out = await transitionVersion({ actor: user, versionId, transition: t, reason });
-    revalidatePath(`/deposits/${versionId}`);
-    revalidatePath("/review");
-    return { ok: true, versionId, lockVersion: 0, state: out.to };
+    const out = await transitionRun({ versionId, transition, reason });
+    return { ok: true, versionId: out.versionId, lockVersion: 0, state: out.to };
   } catch (err) {
     return failure(err);
   }
 }
 
-const inviteSchema = z.object({ email: z.string().trim().toLowerCase().email("Enter an e-mail address"), role: z.enum(["editor", "viewer"]) });
-
 /** The owner invites a co-editor by e-mail (the link is valid for 7 days). */
-export async function inviteAction(versionId: number, email: string, role: "editor" | "viewer"): Promise<{ ok: boolean; message: string }> {
+export async function inviteAction(versionId: number, email: string, role: "editor" | "viewer"): Promise<{ ok: boolean; status: number; message: string }> {
   try {
-    const { user } = await actorOrThrow();
-    const input = inviteSchema.parse({ email, role });
-    await inviteCoEditor({ actor: user, versionId, ...input });
-    return { ok: true, message: `Invitation sent to ${input.email}.` };
+    const address = await invite({ versionId, email, role });
+    return { ok: true, status: 200, message: `Invitation sent to ${address}.` };
   } catch (err) {
     const r = failure(err);
-    return { ok: false, message: r.ok ? "" : r.message };
+    return { ok: false, status: r.ok ? 500 : r.status, message: r.ok ? "" : r.message };
   }
 }
 
 /** The owner starts the next version (a draft copy of the published one). */
 export async function startNextVersionAction(versionId: number): Promise<EditorResult> {
   try {
-    const { user } = await actorOrThrow();
-    const v = await startNextVersion({ actor: user, versionId });
-    revalidatePath("/deposits");
+    const v = await startNext({ versionId });
     return { ok: true, versionId: v.id, lockVersion: v.lockVersion, state: v.state };
   } catch (err) {
     return failure(err);

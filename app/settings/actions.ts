@@ -4,6 +4,9 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { protectedAction } from "@/lib/auth/action";
+import { can } from "@/lib/auth/permissions";
+import { AppError } from "@/lib/errors";
+import { idFor } from "@/lib/ids";
 import { changePassword } from "@/lib/users/accounts";
 import { createApiToken, revokeApiToken, updateProfile } from "@/lib/users/queries";
 import { changePasswordSchema, createTokenSchema, profileSchema } from "@/lib/users/schemas";
@@ -21,12 +24,16 @@ export const changePasswordAction = protectedAction(changePasswordSchema, { perm
 });
 
 export const createTokenAction = protectedAction(createTokenSchema, { permission: "token.manage" }, async ({ name, scopes }, user) => {
+  // A token never carries more than its holder may do: the admin scope is for admins only.
+  if (scopes.includes("admin") && !can(user.role, "user.manage")) {
+    throw new AppError("forbidden", "Only admins may create tokens with the admin scope", [{ pointer: "/scopes", message: "the admin scope is for admins" }]);
+  }
   const { secret } = await createApiToken({ userId: user.id, name, scopes });
   revalidatePath("/settings");
   return { status: "ok", message: "Token created. Copy it now: it will not be shown again.", data: { secret } };
 });
 
-export const revokeTokenAction = protectedAction(z.object({ tokenId: z.coerce.number().int().positive() }), { permission: "token.manage" }, async ({ tokenId }, user) => {
+export const revokeTokenAction = protectedAction(z.object({ tokenId: idFor("token") }), { permission: "token.manage" }, async ({ tokenId }, user) => {
   // Ownership: revokeApiToken only matches the person's own tokens.
   await revokeApiToken({ userId: user.id, tokenId });
   revalidatePath("/settings");

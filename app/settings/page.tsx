@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { redirect } from "next/navigation";
 import { DateTime } from "@/components/date-time";
+import { can } from "@/lib/auth/permissions";
 import { getCurrentUser } from "@/lib/auth/session";
 import { listApiTokens } from "@/lib/users/queries";
 import { CreateTokenForm, PasswordForm, ProfileForm, RevokeTokenButton } from "./settings-forms";
@@ -32,7 +33,7 @@ export default async function SettingsPage() {
       <section aria-labelledby="tokens-heading" className="card space-y-4">
         <h2 id="tokens-heading" className="text-xl font-semibold">Personal API tokens</h2>
         <p className="text-sm text-muted">Scripts use a token as <code>Authorization: Bearer …</code>. The secret is shown once, when you create it; we keep only a hash.</p>
-        <CreateTokenForm />
+        <CreateTokenForm canAdmin={can(user.role, "user.manage")} />
         {tokens.length > 0 && (
           <table className="table">
             <thead>

@@ -34,7 +34,8 @@ export function PasswordForm() {
   );
 }
 
-export function CreateTokenForm() {
+/** `admin` is offered to admins only: a token never carries more than its holder may do. */
+export function CreateTokenForm({ canAdmin }: { canAdmin: boolean }) {
   const [state, action] = useActionState(createTokenAction, idleState);
   const e = state.fieldErrors ?? {};
   return (
@@ -55,8 +56,13 @@ export function CreateTokenForm() {
           <input type="checkbox" name="scopes" value="read" defaultChecked /> read — fetch datasets, including your drafts
         </label>
         <label className="flex items-center gap-2 text-sm">
-          <input type="checkbox" name="scopes" value="deposit" /> deposit — create and edit your drafts
+          <input type="checkbox" name="scopes" value="deposit" /> deposit — create and edit your drafts, submit and withdraw them; for curators also review decisions
         </label>
+        {canAdmin && (
+          <label className="flex items-center gap-2 text-sm">
+            <input type="checkbox" name="scopes" value="admin" /> admin — list people, change their roles and accounts
+          </label>
+        )}
         {e.scopes && <p className="text-sm text-error">{e.scopes}</p>}
       </fieldset>
       <SubmitButton>Create token</SubmitButton>

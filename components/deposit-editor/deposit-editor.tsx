@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useDeferredValue, useEffect, useMemo, useRef, useState } from "react";
 import { createDraftAction, saveDraftAction } from "@/app/deposits/actions";
+import type { VersionCapabilities } from "@/lib/curation/capabilities";
 import type { CoEditorRole } from "@/lib/curation/lifecycle";
 import type { DepositDocument } from "@/lib/deposits/types";
 import type { FieldError } from "@/lib/errors";
@@ -21,7 +22,7 @@ import { ReportedFitSection } from "./reported-fit-section";
 import { visibleRows, windowStartFor } from "./row-window";
 import { AUTOSAVE_DELAY_MS, CONFLICT_MESSAGE, saveStateWords, stateAfterFailure, type SaveResult, type SaveState } from "./save-status";
 import { SourceSection } from "./source-section";
-import { REACTION_CHECK_CODES, isEditable, type StoredCheck } from "./words";
+import { REACTION_CHECK_CODES, type StoredCheck } from "./words";
 
 export type DepositEditorProps =
   | { mode: "new"; person: PersonDefaults }
@@ -31,6 +32,8 @@ export type DepositEditorProps =
       payload: DepositDocument;
       lockVersion: number;
       role: CoEditorRole | null;
+      /** What this person may do to this version (lib/curation/capabilities.ts). */
+      capabilities: VersionCapabilities;
       checks: StoredCheck[];
       decisions: DecisionView[];
       members: MemberView[];
@@ -53,7 +56,7 @@ function downloadJson(doc: DepositDocument, name: string) {
 export function DepositEditor(props: DepositEditorProps) {
   const router = useRouter();
   const existing = props.mode === "existing" ? props : null;
-  const editable = existing ? isEditable(existing.version.state, existing.role) : true;
+  const editable = existing ? existing.capabilities.edit : true;
   const versionId = existing?.version.id ?? null;
 
   const [form, setForm] = useState<EditorForm>(() => (existing ? documentToForm(existing.payload) : blankForm(props.mode === "new" ? props.person : undefined)));
@@ -170,7 +173,7 @@ export function DepositEditor(props: DepositEditorProps) {
   return (
     <EditorContextProvider value={context}>
       <div className="space-y-6">
-        {existing && <LifecyclePanel version={existing.version} role={existing.role} checks={checks} decisions={existing.decisions} members={existing.members} dirty={dirty} />}
+        {existing && <LifecyclePanel version={existing.version} role={existing.role} capabilities={existing.capabilities} checks={checks} decisions={existing.decisions} members={existing.members} dirty={dirty} />}
 
         {!editable && (
           <p className="rounded-md border border-line bg-panel px-3 py-2 text-sm">

@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
 import { startNextVersionAction, transitionAction } from "@/app/deposits/actions";
 import { CAUTION } from "@/lib/analyses/analyse-request";
+import type { VersionCapabilities } from "@/lib/curation/capabilities";
 import type { CoEditorRole, Transition } from "@/lib/curation/lifecycle";
 import { CheckList } from "./check-list";
 import { InviteForm } from "./invite-form";
@@ -36,6 +37,7 @@ export interface VersionView {
 interface Props {
   version: VersionView;
   role: CoEditorRole | null;
+  capabilities: VersionCapabilities;
   checks: StoredCheck[];
   decisions: DecisionView[];
   members: MemberView[];
@@ -58,14 +60,13 @@ function utc(iso: string): string {
 }
 
 /** Where the version is in its lifecycle, what the owner can do next, and what curators said. */
-export function LifecyclePanel({ version, role, checks, decisions, members, dirty }: Props) {
+export function LifecyclePanel({ version, role, capabilities, checks, decisions, members, dirty }: Props) {
   const router = useRouter();
   const [pending, startTransition] = useTransition();
   const [outcome, setOutcome] = useState<{ ok: boolean; message: string } | null>(null);
   const blocking = blockingChecks(checks);
-  const isOwner = role === "owner";
-  const canSubmit = isOwner && (version.state === "draft" || version.state === "changes_requested");
-  const canWithdraw = isOwner && (version.state === "submitted" || version.state === "in_review");
+  const canSubmit = capabilities.submit;
+  const canWithdraw = capabilities.withdraw;
   const submitBlocked = blocking.length > 0 || dirty;
 
   function run(transition: Transition, done: string) {
@@ -125,7 +126,7 @@ export function LifecyclePanel({ version, role, checks, decisions, members, dirt
         </p>
       )}
 
-      {isOwner && (version.state === "published" || version.state === "retracted") && (
+      {capabilities.start_next_version && (
         <div className="space-y-1">
           <button type="button" className="btn-secondary" disabled={pending} onClick={startNext}>
             {pending ? "Working…" : "Start a new version"}
@@ -160,7 +161,7 @@ export function LifecyclePanel({ version, role, checks, decisions, members, dirt
           )}
         </div>
       )}
-      {role === "editor" && (version.state === "draft" || version.state === "changes_requested") && <p className="text-sm text-muted">The owner of the dataset submits it for review.</p>}
+      {capabilities.edit && !capabilities.submit && <p className="text-sm text-muted">The owner of the dataset submits it for review.</p>}
       {outcome && (
         <p role={outcome.ok ? "status" : "alert"} className={`rounded-md border bg-panel px-3 py-2 text-sm ${outcome.ok ? "border-ok/40 text-ok" : "border-error/40 text-error"}`}>
           {outcome.message}
@@ -190,7 +191,7 @@ export function LifecyclePanel({ version, role, checks, decisions, members, dirt
         {checks.length === 0 ? <p className="text-sm text-muted">No findings.</p> : <CheckList checks={checks} />}
       </div>
 
-      {(members.length > 0 || isOwner) && (
+      {(members.length > 0 || capabilities.invite) && (
         <div className="space-y-2">
           <h3 className="text-base font-semibold">Co-editors</h3>
           <ul className="text-sm">
@@ -200,7 +201,7 @@ export function LifecyclePanel({ version, role, checks, decisions, members, dirt
               </li>
             ))}
           </ul>
-          {isOwner && <InviteForm versionId={version.id} />}
+          {capabilities.invite && <InviteForm versionId={version.id} />}
         </div>
       )}
     </section>

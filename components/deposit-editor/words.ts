@@ -55,8 +55,3 @@ export function blockingChecks(checks: StoredCheck[]): StoredCheck[] {
 
 /** Codes of the identity and balance checks, shown in the reaction section. */
 export const REACTION_CHECK_CODES = new Set(["balanced", "unbalanced", "products_unknown"]);
-
-/** Editable when the version is a draft (or sent back) and the person owns or co-edits it. */
-export function isEditable(state: string, role: CoEditorRole | null): boolean {
-  return (state === "draft" || state === "changes_requested") && (role === "owner" || role === "editor");
-}

@@ -2,6 +2,8 @@ import "server-only";
 import type { z } from "zod";
 import { AppError } from "@/lib/errors";
 import type { UserDto } from "@/lib/users/queries";
+import { notFoundFromIssues } from "@/lib/ids";
+import { zodToFieldErrors } from "./api";
 import { assertAllowed } from "./guard";
 import type { Permission } from "./permissions";
 import { getCurrentUser } from "./session";
@@ -59,7 +61,11 @@ export function protectedAction<S extends z.ZodType>(schema: S, options: { permi
       const user = await getCurrentUser();
       if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
       const parsed = schema.safeParse(formToObject(formData));
-      if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error), values: echoValues(formData) };
+      if (!parsed.success) {
+        const missing = notFoundFromIssues(parsed.error);
+        if (missing) throw missing;
+        return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error), values: echoValues(formData) };
+      }
       assertAllowed(user, { permission: options.permission });
       return (await body(parsed.data, user)) ?? { status: "ok" };
     } catch (err) {
@@ -78,5 +84,27 @@ export function publicAction<S extends z.ZodType>(schema: S, body: PublicBody<S>
     } catch (err) {
       return toState(err, formData);
     }
+  };
+}
+
+/**
+ * Server action called with arguments rather than a form (the deposit editor): session → zod on
+ * the arguments → permission → body. Throws AppError (bad arguments are a 422 with pointers);
+ * the caller turns it into its result type.
+ */
+export function protectedCall<S extends z.ZodType, R>(schema: S, options: { permission: Permission }, body: (input: z.infer<S>, user: UserDto) => Promise<R>) {
+  return async (args: z.input<S>): Promise<R> => {
+    const user = await getCurrentUser();
+    if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
+    const parsed = schema.safeParse(args);
+    if (!parsed.success) {
+      const missing = notFoundFromIssues(parsed.error);
+      if (missing) throw missing;
+      const errors = zodToFieldErrors(parsed.error);
+      const first = errors[0];
+      throw new AppError("validation_failed", first ? `${first.message} (${first.pointer.slice(1) || "arguments"})` : "Invalid arguments", errors);
+    }
+    assertAllowed(user, { permission: options.permission });
+    return body(parsed.data, user);
   };
 }

@@ -3,7 +3,7 @@ import { NextResponse } from "next/server";
 import { ZodError, type z } from "zod";
 import { AppError, problemJson, type FieldError } from "@/lib/errors";
 import { BODY_LIMITS, readJsonBodyOrThrow } from "@/lib/http/read-body";
-import { getUserByApiToken, type UserDto } from "@/lib/users/queries";
+import { getUserByApiToken, type ApiTokenScope, type UserDto } from "@/lib/users/queries";
 import { assertAllowed } from "./guard";
 import type { Permission } from "./permissions";
 import { getCurrentUser } from "./session";
@@ -14,16 +14,19 @@ export interface ApiContext<P> {
   params: P;
 }
 
-/** Scopes a personal token must hold for an endpoint; a browser session holds them all. */
-export type ApiScope = "read" | "deposit";
+/**
+ * Scopes a personal token must hold for an endpoint; a browser session holds them all.
+ * read: GET what the person may see; deposit: create, edit and move versions; admin: people.
+ */
+export type ApiScope = ApiTokenScope;
 
-interface ApiOptions {
+export interface ApiOptions {
   /** Omit for public endpoints. */
   permission?: Permission;
   /** Public endpoints that still want to know who calls (e.g. to show drafts to their owner). */
   identify?: boolean;
-  /** Required token scope when the caller uses a bearer token. */
-  scope?: ApiScope;
+  /** The token scope the endpoint needs; null only for public endpoints that ignore the caller. */
+  scope: ApiScope | null;
 }
 
 const escapePointer = (p: PropertyKey) => String(p).replace(/~/g, "~0").replace(/\//g, "~1");
@@ -44,15 +47,17 @@ export function problemResponse(error: AppError, instance?: string): NextRespons
   return new NextResponse(JSON.stringify(problemJson(error, instance)), { status: error.status, headers });
 }
 
-async function resolveUser(req: Request, scope?: ApiScope): Promise<UserDto | null> {
+function bearerSecret(req: Request): string | null {
   const auth = req.headers.get("authorization");
-  if (auth?.toLowerCase().startsWith("bearer ")) {
-    const found = await getUserByApiToken({ secret: auth.slice(7).trim() });
-    if (!found) throw new AppError("unauthenticated", "The API token is unknown or revoked");
-    if (scope && !found.scopes.includes(scope)) throw new AppError("forbidden", `This token lacks the “${scope}” scope`);
-    return found.user;
-  }
-  return getCurrentUser();
+  return auth?.toLowerCase().startsWith("bearer ") ? auth.slice(7).trim() : null;
+}
+
+/** A bearer token must be valid wherever it is sent (an unknown or revoked one is never ignored), and hold the endpoint's scope. */
+async function resolveToken(secret: string, scope: ApiScope | null): Promise<UserDto> {
+  const found = await getUserByApiToken({ secret });
+  if (!found) throw new AppError("unauthenticated", "The API token is unknown or revoked");
+  if (scope && !found.scopes.includes(scope)) throw new AppError("forbidden", `This token lacks the “${scope}” scope`);
+  return found.user;
 }
 
 /** Parses a JSON body (read with a byte cap) with a zod schema; malformed JSON and schema failures become 422s with pointers. */
@@ -67,12 +72,16 @@ export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S
  * Route handler wrapper: who is calling (session or bearer token) → permission → handler →
  * one error shape (RFC 9457 problem+json). Internals are logged, never echoed.
  */
-export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>) => Promise<Response>, options: ApiOptions = {}) {
-  return async (req: Request, context: { params: Promise<P> }) => {
+export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>) => Promise<Response>, options: ApiOptions = { scope: null }) {
+  // Checked when the route module loads, so an endpoint that forgets its scope never serves.
+  if ((options.permission || options.identify) && !options.scope) throw new Error("withApi: an endpoint that knows its caller must declare the token scope it needs");
+  const route = async (req: Request, context: { params: Promise<P> }) => {
     const instance = new URL(req.url).pathname;
     try {
+      const secret = bearerSecret(req);
+      const wantsCaller = options.permission || options.identify;
       // Public endpoints skip the session look-up unless they ask for it.
-      const user = options.permission || options.identify ? await resolveUser(req, options.scope) : null;
+      const user = secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
       if (options.permission) assertAllowed(user, { permission: options.permission });
       return await handler({ req, user, params: await context.params });
     } catch (err) {
@@ -82,4 +91,6 @@ export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>
       return problemResponse(new AppError("internal", "Something went wrong on our side; it has been logged"), instance);
     }
   };
+  // Exposed so a test can compare every endpoint with the published scope table.
+  return Object.assign(route, { apiOptions: options });
 }

@@ -1,6 +1,4 @@
 import type { Role } from "@/db/users";
-import { can } from "@/lib/auth/permissions";
-import { AppError } from "@/lib/errors";
 
 export type VersionState = "draft" | "submitted" | "in_review" | "changes_requested" | "published" | "declined" | "retracted";
 export type CoEditorRole = "owner" | "editor" | "viewer";
@@ -35,7 +33,7 @@ export const lifecycle: Record<Transition, Rule> = {
   retract: { from: ["published"], to: "retracted", by: "curator", needsReason: true },
 };
 
-const stateWords: Record<VersionState, string> = {
+export const stateWords: Record<VersionState, string> = {
   draft: "a draft",
   submitted: "submitted",
   in_review: "in review",
@@ -45,7 +43,7 @@ const stateWords: Record<VersionState, string> = {
   retracted: "retracted",
 };
 
-const transitionWords: Record<Transition, string> = {
+export const transitionWords: Record<Transition, string> = {
   submit: "submitted",
   withdraw: "withdrawn",
   start_review: "taken into review",
@@ -54,30 +52,3 @@ const transitionWords: Record<Transition, string> = {
   decline: "declined",
   retract: "retracted",
 };
-
-/**
- * Decides whether `actor` may apply `transition` to a version in `state`; returns the next state
- * or throws 403 (not allowed for this person) / 409 (not possible in this state) / 422 (no reason).
- */
-export function planTransition(state: VersionState, transition: Transition, actor: TransitionActor, reason?: string): VersionState {
-  const rule = lifecycle[transition];
-  if (rule.by === "owner" && actor.datasetRole !== "owner") {
-    throw new AppError("forbidden", `Only the dataset's owner may ${transition.replace("_", " ")} it`);
-  }
-  if (rule.by === "curator") {
-    if (!can(actor.role, "dataset.review")) throw new AppError("forbidden", "Only curators may do this");
-    if (actor.datasetRole !== null) throw new AppError("forbidden", "You co-edit this dataset, so another curator must review it");
-  }
-  if (!rule.from.includes(state)) {
-    throw new AppError("conflict", `This version is ${stateWords[state]}; it cannot be ${transitionWords[transition]} now`);
-  }
-  if (rule.needsReason && !(reason && reason.trim().length >= 3)) {
-    throw new AppError("validation_failed", "Give a reason: it is sent to the authors and kept on the record", [{ pointer: "/reason", message: "required" }]);
-  }
-  return rule.to;
-}
-
-/** What co-editor roles may do on a draft. */
-export function canEditDraft(datasetRole: CoEditorRole | null): boolean {
-  return datasetRole === "owner" || datasetRole === "editor";
-}

@@ -8,7 +8,8 @@ import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { AppError } from "@/lib/errors";
 import { seriesIdentifier, versionIdentifier } from "@/lib/identifiers/mint";
-import { planTransition, type CoEditorRole, type Transition, type VersionState } from "./lifecycle";
+import { planTransition } from "./capabilities";
+import type { CoEditorRole, Transition, VersionState } from "./lifecycle";
 
 /** SHA-256 of the payload in RFC 8785 canonical JSON: the same document always gives the same hash. */
 export function payloadSha256(payload: unknown): string {

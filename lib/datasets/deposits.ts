@@ -1,6 +1,6 @@
 import "server-only";
-import { can } from "@/lib/auth/permissions";
-import { canEditDraft, type Transition } from "@/lib/curation/lifecycle";
+import { assertVersionCapability, type VersionAction } from "@/lib/curation/capabilities";
+import type { Transition } from "@/lib/curation/lifecycle";
 import { applyTransition } from "@/lib/curation/transitions";
 import { AppError } from "@/lib/errors";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
@@ -25,9 +25,7 @@ export async function depositNewDataset({ actor, document }: { actor: UserDto; d
 
 /** Replaces a draft's document (owner or editor), guarded by the lock version the editor loaded. */
 export async function updateDraft({ actor, versionId, expectedLockVersion, document }: { actor: UserDto; versionId: number; expectedLockVersion: number; document: unknown }) {
-  const found = await getVersionWithRole({ versionId, userId: actor.id });
-  if (!found || (!found.datasetRole && !can(actor.role, "dataset.review"))) throw new AppError("not_found", "No such dataset version");
-  if (!canEditDraft(found.datasetRole)) throw new AppError("forbidden", "Only the owner and editors of this dataset may change it");
+  await getVersionForOrThrow({ versionId, actor, action: "edit" });
   // Prepared before the save: a failed upload leaves the draft exactly as it was.
   const prepared = await prepareDepositOrThrow(document);
   return saveDraft({
@@ -42,14 +40,20 @@ export async function updateDraft({ actor, versionId, expectedLockVersion, docum
   });
 }
 
+/**
+ * A version with the caller's dataset role and capabilities, when `action` is allowed to them
+ * (lib/curation/capabilities.ts): 404 if they may not see it, 403 / 409 if they may not do that.
+ */
+export async function getVersionForOrThrow({ versionId, actor, action }: { versionId: number; actor: UserDto | null; action: VersionAction }) {
+  const found = await getVersionWithRole({ versionId, userId: actor?.id ?? null });
+  if (!found) throw new AppError("not_found", "No such dataset version");
+  const capabilities = assertVersionCapability({ state: found.version.state, siteRole: actor?.role ?? null, datasetRole: found.datasetRole }, action);
+  return { ...found, capabilities };
+}
+
 /** Who may see a version: anyone once published; before that its co-editors, curators and admins. */
 export async function getVisibleVersionOrThrow({ versionId, viewer }: { versionId: number; viewer: UserDto | null }) {
-  const found = await getVersionWithRole({ versionId, userId: viewer?.id ?? null });
-  const isPublic = found && (found.version.state === "published" || found.version.state === "retracted");
-  if (!found || (!isPublic && !found.datasetRole && !(viewer && can(viewer.role, "dataset.review")))) {
-    throw new AppError("not_found", "No such dataset version");
-  }
-  return found;
+  return getVersionForOrThrow({ versionId, actor: viewer, action: "view" });
 }
 
 /**
@@ -86,8 +90,6 @@ export async function transitionVersion({ actor, versionId, transition, reason }
 
 /** The owner starts the next version of a published dataset as a draft copy of the latest. */
 export async function startNextVersion({ actor, versionId }: { actor: UserDto; versionId: number }) {
-  const found = await getVersionWithRole({ versionId, userId: actor.id });
-  if (!found || !found.datasetRole) throw new AppError("not_found", "No such dataset version");
-  if (found.datasetRole !== "owner") throw new AppError("forbidden", "Only the dataset's owner may start a new version");
+  const found = await getVersionForOrThrow({ versionId, actor, action: "start_next_version" });
   return createNextVersion({ datasetId: found.version.datasetId, actorId: actor.id });
 }

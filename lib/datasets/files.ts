@@ -4,11 +4,10 @@ import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { versionFiles } from "@/db/datasets";
 import { recordAuditEvent } from "@/lib/audit/record";
-import { canEditDraft } from "@/lib/curation/lifecycle";
 import { AppError } from "@/lib/errors";
 import { getStorage } from "@/lib/storage";
 import type { UserDto } from "@/lib/users/queries";
-import { getVisibleVersionOrThrow } from "./deposits";
+import { getVersionForOrThrow, getVisibleVersionOrThrow } from "./deposits";
 
 export const MAX_FILE_BYTES = 25 * 1024 * 1024;
 
@@ -48,9 +47,7 @@ function safeName(name: string): string {
 
 /** Stores one supplementary file on a draft (owner or editor): type allowlist, size limit, SHA-256 recorded. */
 export async function addVersionFile({ actor, versionId, filename, content }: { actor: UserDto; versionId: number; filename: string; content: Uint8Array }) {
-  const { version, datasetRole } = await getVisibleVersionOrThrow({ versionId, viewer: actor });
-  if (!canEditDraft(datasetRole)) throw new AppError("forbidden", "Only the owner and editors may add files");
-  if (version.state !== "draft" && version.state !== "changes_requested") throw new AppError("conflict", "Files can be added to drafts only");
+  const { version } = await getVersionForOrThrow({ versionId, actor, action: "upload_files" });
   const name = safeName(filename);
   const ext = name.split(".").pop()?.toLowerCase() ?? "";
   const contentType = FILE_TYPES[ext];
@@ -91,9 +88,7 @@ export async function readVersionFile({ viewer, fileId }: { viewer: UserDto | nu
 export async function removeVersionFile({ actor, fileId }: { actor: UserDto; fileId: number }) {
   const [row] = await getDb().select({ versionId: versionFiles.versionId, storageKey: versionFiles.storageKey, filename: versionFiles.filename }).from(versionFiles).where(eq(versionFiles.id, fileId));
   if (!row) throw new AppError("not_found", "No such file");
-  const { version, datasetRole } = await getVisibleVersionOrThrow({ versionId: row.versionId, viewer: actor });
-  if (!canEditDraft(datasetRole)) throw new AppError("forbidden", "Only the owner and editors may remove files");
-  if (version.state !== "draft" && version.state !== "changes_requested") throw new AppError("conflict", "Files can be removed from drafts only");
+  await getVersionForOrThrow({ versionId: row.versionId, actor, action: "upload_files" });
   await getDb().transaction(async (tx) => {
     // The database refuses this for published versions.
     await tx.delete(versionFiles).where(eq(versionFiles.id, fileId));

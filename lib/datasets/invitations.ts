@@ -9,16 +9,14 @@ import { AppError } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/queue";
 import { invitationMail } from "@/lib/mail/templates";
 import { getUserByEmail, normaliseEmail, type UserDto } from "@/lib/users/queries";
-import { getVersionWithRole } from "./queries";
+import { getVersionForOrThrow } from "./deposits";
 
 /** Invitation links work for seven days. */
 export const INVITATION_TTL_MS = 7 * 24 * 3600_000;
 
 /** The owner invites someone by e-mail to co-edit (editor) or read (viewer) the dataset of a version. */
 export async function inviteCoEditor({ actor, versionId, email, role }: { actor: UserDto; versionId: number; email: string; role: Exclude<CoEditorRole, "owner"> }) {
-  const found = await getVersionWithRole({ versionId, userId: actor.id });
-  if (!found || !found.datasetRole) throw new AppError("not_found", "No such dataset version");
-  if (found.datasetRole !== "owner") throw new AppError("forbidden", "Only the dataset's owner may invite co-editors");
+  const found = await getVersionForOrThrow({ versionId, actor, action: "invite" });
   const address = normaliseEmail(email);
   if (address === actor.email) throw new AppError("conflict", "You already own this dataset");
   const secret = generateSecret("", 32);

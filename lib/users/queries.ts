@@ -258,7 +258,7 @@ export async function consumeOneTimeTokenOrThrow({ secret, purpose }: { secret: 
 
 // ---- personal API tokens ----
 
-export const apiTokenScopes = ["read", "deposit"] as const;
+export const apiTokenScopes = ["read", "deposit", "admin"] as const;
 export type ApiTokenScope = (typeof apiTokenScopes)[number];
 
 export interface ApiTokenDto {

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password";
 import { normaliseOrcid } from "@/lib/auth/orcid";
+import { idFor } from "@/lib/ids";
 
 // Shared by forms, server actions and (later) the REST API. FormData values are strings.
 
@@ -13,6 +14,7 @@ export const passwordField = z
 
 export const orcidField = z
   .string()
+  .max(100, "An ORCID iD has 19 characters")
   .trim()
   .transform((v, ctx) => {
     if (v === "") return null;
@@ -29,7 +31,7 @@ export const signUpSchema = z
     name: z.string().trim().min(1, "Enter your name").max(200),
     email: emailField,
     password: passwordField,
-    confirm: z.string(),
+    confirm: z.string().max(200),
   })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 
@@ -40,13 +42,13 @@ export const profileSchema = z.object({
 });
 
 export const changePasswordSchema = z
-  .object({ current: z.string().min(1, "Enter your current password"), password: passwordField, confirm: z.string() })
+  .object({ current: z.string().min(1, "Enter your current password").max(200), password: passwordField, confirm: z.string().max(200) })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 
 export const forgotPasswordSchema = z.object({ email: emailField });
 
 export const resetPasswordSchema = z
-  .object({ token: z.string().min(10), password: passwordField, confirm: z.string() })
+  .object({ token: z.string().min(10).max(512), password: passwordField, confirm: z.string().max(200) })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 
 export const createTokenSchema = z.object({
@@ -55,15 +57,15 @@ export const createTokenSchema = z.object({
     .union([z.string(), z.array(z.string())])
     .optional()
     .transform((v) => (v === undefined ? [] : Array.isArray(v) ? v : [v]))
-    .pipe(z.array(z.enum(["read", "deposit"])).min(1, "Choose at least one scope")),
+    .pipe(z.array(z.enum(["read", "deposit", "admin"])).min(1, "Choose at least one scope")),
 });
 
 export const roleChangeSchema = z.object({
-  userId: z.coerce.number().int().positive(),
+  userId: idFor("person"),
   role: z.enum(["researcher", "curator", "admin"]),
 });
 
 export const activeChangeSchema = z.object({
-  userId: z.coerce.number().int().positive(),
+  userId: idFor("person"),
   active: z.enum(["true", "false"]).transform((v) => v === "true"),
 });

@@ -36,7 +36,9 @@ async function status(p: Promise<unknown>): Promise<number | "ok"> {
 describe("lifecycle in the database, per role", () => {
   it("only the owner submits", async () => {
     const v = await newDraft();
-    for (const who of [editor, stranger, curator, admin]) expect(await status(applyTransition({ versionId: v.id, actorId: who.id, transition: "submit" }))).toBe(403);
+    for (const who of [editor, curator, admin]) expect(await status(applyTransition({ versionId: v.id, actorId: who.id, transition: "submit" }))).toBe(403);
+    // Someone who may not see the draft is not told it exists.
+    expect(await status(applyTransition({ versionId: v.id, actorId: stranger.id, transition: "submit" }))).toBe(404);
     expect(await status(applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" }))).toBe("ok");
     const [row] = await sql`select state, submitted_at from dataset_versions where id = ${v.id}`;
     expect(row.state).toBe("submitted");
@@ -47,7 +49,7 @@ describe("lifecycle in the database, per role", () => {
     const v = await newDraft();
     await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
     expect(await status(applyTransition({ versionId: v.id, actorId: coCurator.id, transition: "start_review" }))).toBe(403);
-    expect(await status(applyTransition({ versionId: v.id, actorId: stranger.id, transition: "start_review" }))).toBe(403);
+    expect(await status(applyTransition({ versionId: v.id, actorId: stranger.id, transition: "start_review" }))).toBe(404);
     await applyTransition({ versionId: v.id, actorId: curator.id, transition: "start_review" });
     expect(await status(applyTransition({ versionId: v.id, actorId: curator.id, transition: "request_changes", reason: "" }))).toBe(422);
     await applyTransition({ versionId: v.id, actorId: curator.id, transition: "request_changes", reason: "Give the bath gas of each point." });
@@ -113,7 +115,8 @@ describe("a new version", () => {
     await applyTransition({ versionId: v1.id, actorId: owner.id, transition: "submit" });
     await applyTransition({ versionId: v1.id, actorId: curator.id, transition: "accept", reason: "Fine." });
     await expect(startNextVersion({ actor: editor, versionId: v1.id })).rejects.toMatchObject({ status: 403 });
-    await expect(startNextVersion({ actor: stranger, versionId: v1.id })).rejects.toMatchObject({ status: 404 });
+    // v1 is public, so a stranger sees it but may not continue it.
+    await expect(startNextVersion({ actor: stranger, versionId: v1.id })).rejects.toMatchObject({ status: 403 });
     const v2 = await startNextVersion({ actor: owner, versionId: v1.id });
     expect(v2).toMatchObject({ number: 2, state: "draft", datasetId: v1.datasetId, title: "OH + CH4 test" });
     const [copy] = await sql`select (select payload from dataset_versions where id = ${v1.id}) = payload as same_payload, point_count from dataset_versions where id = ${v2.id}`;

@@ -10,12 +10,9 @@ import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
 import { getLatestAnalysis, listDatasetMembers, listDecisions } from "@/lib/datasets/queries";
 import type { DepositDocument } from "@/lib/deposits/types";
 import { AppError } from "@/lib/errors";
+import { parseIdOrNull } from "@/lib/ids";
 
 export const metadata: Metadata = { title: "Deposit" };
-
-function parseId(raw: string): number | null {
-  return /^[1-9]\d{0,9}$/.test(raw) && Number(raw) <= 2_147_483_647 ? Number(raw) : null;
-}
 
 /** The stored checks of a version: identity, balance and magnitude, then the fit's flags. */
 function storedChecks(analysis: Awaited<ReturnType<typeof getLatestAnalysis>>): StoredCheck[] {
@@ -27,7 +24,7 @@ function storedChecks(analysis: Awaited<ReturnType<typeof getLatestAnalysis>>): 
 
 export default async function DepositPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const versionId = parseId(id);
+  const versionId = parseIdOrNull(id);
   const user = await getCurrentUser();
   if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(`/deposits/${id}`)}`);
   if (versionId === null) notFound();
@@ -39,7 +36,7 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
     if (err instanceof AppError && err.code === "not_found") notFound();
     throw err;
   }
-  const { version, datasetRole } = found;
+  const { version, datasetRole, capabilities } = found;
   const [analysis, decisions, members] = await Promise.all([getLatestAnalysis({ versionId }), listDecisions({ versionId }), datasetRole ? listDatasetMembers({ datasetId: version.datasetId }) : Promise.resolve([])]);
 
   return (
@@ -59,11 +56,12 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
         payload={version.payload as unknown as DepositDocument}
         lockVersion={version.lockVersion}
         role={datasetRole}
+        capabilities={capabilities}
         checks={storedChecks(analysis)}
         decisions={decisions.map((d) => ({ id: d.id, decision: d.decision, reason: d.reason, curator: d.curator, createdAt: d.createdAt.toISOString() }))}
         members={members.map((m) => ({ name: m.name, role: m.role }))}
       />
-      <FilesPanel versionId={version.id} editable={(datasetRole === "owner" || datasetRole === "editor") && (version.state === "draft" || version.state === "changes_requested")} />
+      <FilesPanel versionId={version.id} editable={capabilities.upload_files} />
     </div>
   );
 }

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import { CAUTION, MAX_POINTS } from "@/lib/analyses/analyse-request";
+import { endpointScopes } from "@/lib/auth/endpoint-scopes";
 import { appUrl } from "@/lib/config";
 import { ANALYSIS_CONVENTIONS } from "@/lib/kinetics/conventions";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
@@ -30,6 +31,40 @@ export default function ApiDocsPage() {
           JSON pointers (RFC 6901) and plain messages. Scripts authenticate with a personal token from Settings: <code>Authorization: Bearer arr_pat_…</code>.
         </p>
       </header>
+
+      <section className="space-y-3" aria-labelledby="scopes">
+        <h2 id="scopes" className="text-2xl font-semibold">
+          Tokens and scopes
+        </h2>
+        <p className="text-sm">
+          A token carries one or more scopes, chosen when it is created: <code>read</code> (fetch what you may see, including your drafts), <code>deposit</code> (create, edit, submit and
+          withdraw your datasets; for curators also review decisions) and <code>admin</code> (people and roles; offered to admins only). An endpoint answers 403 to a token without the scope
+          it needs, even when the person holds the role; a revoked or unknown token is refused with 401 on every endpoint, public ones included. Ids in paths are whole numbers from 1 to
+          2147483647; anything else is 404.
+        </p>
+        <table className="table text-sm">
+          <thead>
+            <tr>
+              <th scope="col">Endpoint</th>
+              <th scope="col">Scope</th>
+              <th scope="col">Who</th>
+            </tr>
+          </thead>
+          <tbody>
+            {endpointScopes.map((e) => (
+              <tr key={`${e.method} ${e.path}`}>
+                <td>
+                  <code>
+                    {e.method} {e.path}
+                  </code>
+                </td>
+                <td>{e.scope ? <code>{e.scope}</code> : "none"}</td>
+                <td>{e.who}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </section>
 
       <section className="space-y-3" aria-labelledby="analyses">
         <h2 id="analyses" className="text-2xl font-semibold">

@@ -9,6 +9,7 @@ import { GAS_CONSTANT, consensus, getCanonicalRateConstantUnit, type AnalysisRes
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { getReaction, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
 import { formatSignificant } from "@/lib/format";
+import { parseIdOrNull } from "@/lib/ids";
 
 export const metadata: Metadata = { title: "Reaction" };
 export const dynamic = "force-dynamic";
@@ -18,10 +19,10 @@ const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, d
 /** Every public dataset of one reaction, compared on one plot, with the consensus expression. */
 export default async function ReactionPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const reactionId = Number(id);
-  const reaction = Number.isInteger(reactionId) && reactionId > 0 ? await getReaction({ id: reactionId }) : null;
+  const reactionId = parseIdOrNull(id);
+  const reaction = reactionId !== null ? await getReaction({ id: reactionId }) : null;
   if (!reaction) notFound();
-  const versions = await listPublicVersionsOfReaction({ reactionId });
+  const versions = await listPublicVersionsOfReaction({ reactionId: reaction.id });
   const order = ((versions[0]?.payload as { reaction?: { order?: ReactionOrder } })?.reaction?.order ?? 2) as ReactionOrder;
   const published = versions.filter((v) => v.state === "published" && new Set(v.points.map((p) => p.T)).size >= 2);
   let result: ConsensusResult | null = null;

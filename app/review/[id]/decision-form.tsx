@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
 import { transitionAction } from "@/app/deposits/actions";
+import type { VersionCapabilities } from "@/lib/curation/capabilities";
 import type { Transition } from "@/lib/curation/lifecycle";
 
 const decisions: { value: Transition; label: string; hint: string }[] = [
@@ -20,7 +21,7 @@ const doneWords: Record<string, string> = {
 };
 
 /** Start the review, or record a decision with its reason; or retract a published version. */
-export function DecisionForm({ versionId, state, coEditing }: { versionId: number; state: string; coEditing: boolean }) {
+export function DecisionForm({ versionId, coEditing, capabilities }: { versionId: number; coEditing: boolean; capabilities: VersionCapabilities }) {
   const router = useRouter();
   const [pending, start] = useTransition();
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
@@ -46,7 +47,7 @@ export function DecisionForm({ versionId, state, coEditing }: { versionId: numbe
     </p>
   );
 
-  if (state === "published") {
+  if (capabilities.retract) {
     return (
       <form
         className="space-y-3"
@@ -67,7 +68,7 @@ export function DecisionForm({ versionId, state, coEditing }: { versionId: numbe
     );
   }
   // After "request changes" or "decline" the form has nothing left to offer, but the curator still needs the outcome.
-  if (state !== "submitted" && state !== "in_review") {
+  if (!capabilities.accept) {
     return (
       <div className="space-y-2">
         {feedback}
@@ -78,7 +79,7 @@ export function DecisionForm({ versionId, state, coEditing }: { versionId: numbe
   return (
     <div className="space-y-4">
       {feedback}
-      {state === "submitted" && (
+      {capabilities.start_review && (
         <button type="button" className="btn-secondary" disabled={pending} onClick={() => run("start_review")}>
           Take into review
         </button>

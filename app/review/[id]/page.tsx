@@ -12,6 +12,7 @@ import { getLatestAnalysis, getVersionPoints, listDecisions } from "@/lib/datase
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
+import { parseIdOrThrow } from "@/lib/ids";
 import { GAS_CONSTANT, type AnalysisResult, type Flag } from "@/lib/kinetics";
 import { DecisionForm } from "./decision-form";
 import { formatSignificant } from "@/lib/format";
@@ -38,12 +39,12 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
   const curator = await requirePagePermission("dataset.review", `/review/${id}`);
   let found;
   try {
-    found = await getVisibleVersionOrThrow({ versionId: Number(id), viewer: curator });
+    found = await getVisibleVersionOrThrow({ versionId: parseIdOrThrow(id, "dataset version"), viewer: curator });
   } catch (err) {
     if (err instanceof AppError) notFound();
     throw err;
   }
-  const { version, datasetRole } = found;
+  const { version, datasetRole, capabilities } = found;
   const [analysis, points, duplicates, previous, decisions] = await Promise.all([
     getLatestAnalysis({ versionId: version.id }),
     getVersionPoints({ versionId: version.id }),
@@ -172,7 +173,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
         <aside className="space-y-6">
           <section className="card space-y-3" aria-labelledby="decide-heading">
             <h2 id="decide-heading" className="text-xl font-semibold">Decision</h2>
-            <DecisionForm versionId={version.id} state={version.state} coEditing={datasetRole !== null} />
+            <DecisionForm versionId={version.id} coEditing={datasetRole !== null} capabilities={capabilities} />
           </section>
           <section className="card space-y-2" aria-labelledby="history-heading">
             <h2 id="history-heading" className="text-xl font-semibold">Earlier decisions</h2>

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { lifecycle, planTransition, type CoEditorRole, type Transition, type VersionState } from "@/lib/curation/lifecycle";
+import { planTransition } from "@/lib/curation/capabilities";
+import { lifecycle, type CoEditorRole, type Transition, type VersionState } from "@/lib/curation/lifecycle";
 import { AppError } from "@/lib/errors";
 
 type Who = { role: "researcher" | "curator" | "admin"; datasetRole: CoEditorRole | null };
@@ -25,7 +26,7 @@ describe("lifecycle rules", () => {
     ["draft", "submit", owner, "owner", "submitted"],
     ["draft", "submit", editor, "editor", 403],
     ["draft", "submit", viewer, "viewer", 403],
-    ["draft", "submit", stranger, "other researcher", 403],
+    ["draft", "submit", stranger, "other researcher (may not see it)", 404],
     ["draft", "submit", curator, "curator", 403],
     ["changes_requested", "submit", owner, "owner resubmits", "submitted"],
     ["submitted", "withdraw", owner, "owner", "draft"],
@@ -37,7 +38,8 @@ describe("lifecycle rules", () => {
     ["in_review", "request_changes", curator, "curator", "changes_requested"],
     ["in_review", "accept", curator, "curator", "published"],
     ["in_review", "accept", coEditingCurator, "curator who co-edits", 403],
-    ["in_review", "accept", stranger, "other researcher", 403],
+    ["in_review", "accept", stranger, "other researcher (may not see it)", 404],
+    ["published", "retract", stranger, "other researcher on a public version", 403],
     ["in_review", "decline", curator, "curator", "declined"],
     ["published", "retract", curator, "curator", "retracted"],
     ["published", "retract", owner, "owner", 403],

@@ -8,6 +8,7 @@ import { ErrorSummary } from "@/components/deposit-editor/error-summary";
 import { blankForm, blankPoint, documentToForm, type EditorForm } from "@/components/deposit-editor/form-model";
 import { groupErrors } from "@/components/deposit-editor/pointers";
 import { PointsTable } from "@/components/deposit-editor/points-table";
+import { versionCapabilities } from "@/lib/curation/capabilities";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 
 vi.mock("next/navigation", () => ({ useRouter: () => ({ replace: vi.fn(), refresh: vi.fn(), push: vi.fn() }) }));
@@ -97,6 +98,7 @@ describe("DepositEditor", () => {
           payload: EXAMPLE_DEPOSIT,
           lockVersion: 3,
           role: "owner",
+          capabilities: versionCapabilities({ state: "published", siteRole: "researcher", datasetRole: "owner" }),
           checks: [{ code: "balanced", severity: "info", message: "Elements and charge balance." }],
           decisions: [{ id: 1, decision: "accept", reason: "Clear and complete.", curator: "Curator One", createdAt: "2024-05-01T10:00:00.000Z" }],
           members: [{ name: "Okafor, Maren", role: "owner" }],
@@ -133,6 +135,7 @@ describe("DepositEditor", () => {
           payload: EXAMPLE_DEPOSIT,
           lockVersion: 1,
           role: "owner",
+          capabilities: versionCapabilities({ state: "draft", siteRole: "researcher", datasetRole: "owner" }),
           checks: [{ code: "unbalanced", severity: "error", message: "Hydrogen does not balance: 5 on the left, 4 on the right." }],
           decisions: [],
           members: [],
@@ -158,6 +161,7 @@ describe("DepositEditor markup", () => {
           payload: EXAMPLE_DEPOSIT,
           lockVersion: 1,
           role: "owner",
+          capabilities: versionCapabilities({ state: "changes_requested", siteRole: "researcher", datasetRole: "owner" }),
           checks: [],
           decisions: [],
           members: [],

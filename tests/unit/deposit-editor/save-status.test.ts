@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { CONFLICT_MESSAGE, saveStateWords, stateAfterFailure } from "@/components/deposit-editor/save-status";
 import { LARGE_TABLE_ROWS, ROW_WINDOW, visibleRows, windowStartFor } from "@/components/deposit-editor/row-window";
-import { blockingChecks, isEditable, stateWords } from "@/components/deposit-editor/words";
+import { blockingChecks, stateWords } from "@/components/deposit-editor/words";
 
 describe("stateAfterFailure", () => {
   it("turns the lock conflict into our own conflict message, and any other 409 into a conflict with the server's reason", () => {
@@ -49,13 +49,5 @@ describe("words", () => {
     expect(blockingChecks([{ code: "balanced", severity: "info", message: "" }, { code: "unbalanced", severity: "error", message: "H does not balance" }])).toEqual([
       { code: "unbalanced", severity: "error", message: "H does not balance" },
     ]);
-  });
-
-  it("allow editing only drafts (and drafts sent back) by their owner and editors", () => {
-    expect(isEditable("draft", "owner")).toBe(true);
-    expect(isEditable("changes_requested", "editor")).toBe(true);
-    expect(isEditable("draft", "viewer")).toBe(false);
-    expect(isEditable("draft", null)).toBe(false);
-    expect(isEditable("submitted", "owner")).toBe(false);
   });
 });

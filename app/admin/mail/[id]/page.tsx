@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { DateTime } from "@/components/date-time";
 import { requirePagePermission } from "@/lib/auth/page-guard";
+import { parseIdOrNull } from "@/lib/ids";
 import { getCapturedMail } from "@/lib/mail/queries";
 
 export const metadata: Metadata = { title: "Message" };
@@ -23,8 +24,8 @@ function linkify(text: string) {
 export default async function MailMessagePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   await requirePagePermission("mail.read", `/admin/mail/${id}`);
-  const numeric = Number(id);
-  const message = Number.isInteger(numeric) && numeric > 0 ? await getCapturedMail({ id: numeric }) : null;
+  const numeric = parseIdOrNull(id);
+  const message = numeric !== null ? await getCapturedMail({ id: numeric }) : null;
   if (!message) notFound();
   return (
     <div className="space-y-6">

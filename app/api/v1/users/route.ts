@@ -8,5 +8,5 @@ export const GET = withApi(
     const people = await listUsers();
     return NextResponse.json({ data: people });
   },
-  { permission: "user.list" },
+  { permission: "user.list", scope: "admin" },
 );

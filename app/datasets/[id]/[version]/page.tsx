@@ -6,6 +6,7 @@ import { StateLabel } from "@/components/state-label";
 import { VersionFit } from "@/components/version-fit";
 import { getDatasetSummary, getLatestAnalysis, getVersionPoints, getVersionWithRole, listPublicVersions } from "@/lib/datasets/queries";
 import { listVersionFiles } from "@/lib/datasets/files";
+import { parseIdOrNull } from "@/lib/ids";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import type { DepositDocument } from "@/lib/deposits/types";
 import type { AnalysisResult } from "@/lib/kinetics/types";
@@ -16,9 +17,10 @@ export const dynamic = "force-dynamic";
 /** The public page of one published (or retracted) version: what its version identifier resolves to. */
 export default async function DatasetVersionPage({ params }: { params: Promise<{ id: string; version: string }> }) {
   const { id, version: v } = await params;
-  const datasetId = Number(id);
-  const number = Number(/^v(\d+)$/.exec(v)?.[1]);
-  if (!Number.isInteger(datasetId) || !Number.isInteger(number)) notFound();
+  const datasetId = parseIdOrNull(id);
+  // Version numbers follow the id rule too: "v" then 1 … 2³¹−1.
+  const number = parseIdOrNull(/^v(\d+)$/.exec(v)?.[1]);
+  if (datasetId === null || number === null) notFound();
   const versions = await listPublicVersions({ datasetId });
   const entry = versions.find((x) => x.number === number);
   if (!entry) notFound();

@@ -2,13 +2,9 @@
 // DELETE /api/v1/files/:fileId — remove one from a draft (owner or editor)
 import { withApi } from "@/lib/auth/api";
 import { readVersionFile, removeVersionFile } from "@/lib/datasets/files";
-import { AppError } from "@/lib/errors";
+import { parseIdOrThrow } from "@/lib/ids";
 
-function idOf(raw: string) {
-  const id = Number(raw);
-  if (!Number.isInteger(id) || id <= 0) throw new AppError("not_found", "No such file");
-  return id;
-}
+const idOf = (raw: string) => parseIdOrThrow(raw, "file");
 
 export const GET = withApi<{ fileId: string }>(
   async ({ user, params }) => {

@@ -3,6 +3,7 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { parseJsonBody, withApi } from "@/lib/auth/api";
 import { AppError } from "@/lib/errors";
+import { parseIdOrThrow } from "@/lib/ids";
 import { changeUserRole, getUserById, setUserActive } from "@/lib/users/queries";
 
 const patchSchema = z
@@ -12,8 +13,7 @@ const patchSchema = z
 
 export const PATCH = withApi<{ id: string }>(
   async ({ req, user, params }) => {
-    const id = Number(params.id);
-    if (!Number.isInteger(id) || id <= 0) throw new AppError("not_found", "No such person");
+    const id = parseIdOrThrow(params.id, "person");
     const body = await parseJsonBody(req, patchSchema);
     if (body.role) await changeUserRole({ actorId: user!.id, userId: id, role: body.role });
     if (body.active !== undefined) await setUserActive({ actorId: user!.id, userId: id, active: body.active });
@@ -21,5 +21,5 @@ export const PATCH = withApi<{ id: string }>(
     if (!updated) throw new AppError("not_found", "No such person");
     return NextResponse.json({ data: updated });
   },
-  { permission: "user.manage" },
+  { permission: "user.manage", scope: "admin" },
 );

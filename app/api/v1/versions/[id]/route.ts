@@ -2,24 +2,19 @@
 // PUT /api/v1/versions/:id — replace a draft's deposit document (owner or editor; If-Match: lock version)
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
-import { can } from "@/lib/auth/permissions";
 import { getVisibleVersionOrThrow, updateDraft } from "@/lib/datasets/deposits";
 import { versionToJson } from "@/lib/datasets/version-json";
 import { MAX_DOCUMENT_BYTES, parseDepositJson } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
 import { readTextBodyOrThrow } from "@/lib/http/read-body";
+import { parseIdOrThrow } from "@/lib/ids";
 
-function versionIdOrThrow(raw: string): number {
-  const id = Number(raw);
-  if (!Number.isInteger(id) || id <= 0) throw new AppError("not_found", "No such dataset version");
-  return id;
-}
+const versionIdOrThrow = (raw: string) => parseIdOrThrow(raw, "dataset version");
 
 export const GET = withApi<{ id: string }>(
   async ({ user, params }) => {
-    const { version, datasetRole } = await getVisibleVersionOrThrow({ versionId: versionIdOrThrow(params.id), viewer: user });
-    const insider = datasetRole !== null || (user !== null && can(user.role, "dataset.review"));
-    return NextResponse.json({ data: await versionToJson(version, { withDecisions: insider }) }, { headers: { etag: `"${version.lockVersion}"` } });
+    const { version, capabilities } = await getVisibleVersionOrThrow({ versionId: versionIdOrThrow(params.id), viewer: user });
+    return NextResponse.json({ data: await versionToJson(version, { withDecisions: capabilities.view_decisions }) }, { headers: { etag: `"${version.lockVersion}"` } });
   },
   { identify: true, scope: "read" },
 );

@@ -8,12 +8,9 @@ import { addVersionFile, listVersionFiles, MAX_FILE_BYTES } from "@/lib/datasets
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, readFormDataOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
+import { parseIdOrThrow } from "@/lib/ids";
 
-function idOf(raw: string) {
-  const id = Number(raw);
-  if (!Number.isInteger(id) || id <= 0) throw new AppError("not_found", "No such dataset version");
-  return id;
-}
+const idOf = (raw: string) => parseIdOrThrow(raw, "dataset version");
 
 export const GET = withApi<{ id: string }>(
   async ({ user, params }) => {

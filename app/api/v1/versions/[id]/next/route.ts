@@ -2,14 +2,14 @@
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { startNextVersion } from "@/lib/datasets/deposits";
+import { parseIdOrThrow } from "@/lib/ids";
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, readBodyOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
 
 export const POST = withApi<{ id: string }>(
   async ({ req, user, params }) => {
-    const versionId = Number(params.id);
-    if (!Number.isInteger(versionId) || versionId <= 0) throw new AppError("not_found", "No such dataset version");
+    const versionId = parseIdOrThrow(params.id, "dataset version");
     // The body carries nothing, but is read with a cap so a large one cannot be queued.
     const body = await readBodyOrThrow(req, { limit: BODY_LIMITS.json });
     return withIdempotency({

@@ -6,6 +6,7 @@ import { transitionVersion } from "@/lib/datasets/deposits";
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, parseJsonBytesOrThrow, readBodyOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
+import { parseIdOrThrow } from "@/lib/ids";
 
 const bodySchema = z
   .object({
@@ -16,8 +17,7 @@ const bodySchema = z
 
 export const POST = withApi<{ id: string }>(
   async ({ req, user, params }) => {
-    const versionId = Number(params.id);
-    if (!Number.isInteger(versionId) || versionId <= 0) throw new AppError("not_found", "No such dataset version");
+    const versionId = parseIdOrThrow(params.id, "dataset version");
     const body = await readBodyOrThrow(req, { limit: BODY_LIMITS.json, what: "transition request" });
     return withIdempotency({
       req,

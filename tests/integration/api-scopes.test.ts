@@ -1,0 +1,152 @@
+import { beforeAll, describe, expect, it, vi } from "vitest";
+
+vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn().mockResolvedValue(null) }));
+vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
+
+import * as analyses from "@/app/api/v1/analyses/route";
+import * as datasets from "@/app/api/v1/datasets/route";
+import * as files from "@/app/api/v1/files/[fileId]/route";
+import * as speciesPreview from "@/app/api/v1/species/preview/route";
+import * as userById from "@/app/api/v1/users/[id]/route";
+import * as users from "@/app/api/v1/users/route";
+import * as versionFiles from "@/app/api/v1/versions/[id]/files/route";
+import * as next from "@/app/api/v1/versions/[id]/next/route";
+import * as version from "@/app/api/v1/versions/[id]/route";
+import * as transitions from "@/app/api/v1/versions/[id]/transitions/route";
+import { createTokenAction } from "@/app/settings/actions";
+import { idleState } from "@/lib/auth/action-state";
+import type { ApiOptions } from "@/lib/auth/api";
+import { endpointScopes } from "@/lib/auth/endpoint-scopes";
+import { getCurrentUser } from "@/lib/auth/session";
+import { createApiToken, createUser, revokeApiToken, type ApiTokenScope, type UserDto } from "@/lib/users/queries";
+import { sql, uniqueEmail, uniqueIp } from "./helpers";
+
+const modules: Record<string, Record<string, unknown>> = {
+  "/api/v1/analyses": analyses,
+  "/api/v1/datasets": datasets,
+  "/api/v1/files/:fileId": files,
+  "/api/v1/species/preview": speciesPreview,
+  "/api/v1/users/:id": userById,
+  "/api/v1/users": users,
+  "/api/v1/versions/:id/files": versionFiles,
+  "/api/v1/versions/:id/next": next,
+  "/api/v1/versions/:id": version,
+  "/api/v1/versions/:id/transitions": transitions,
+};
+
+let admin: UserDto, researcher: UserDto, subject: UserDto;
+beforeAll(async () => {
+  const mk = (tag: string, role: UserDto["role"]) => createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  [admin, researcher, subject] = await Promise.all([mk("scopeadmin", "admin"), mk("scoperesearcher", "researcher"), mk("scopesubject", "researcher")]);
+});
+
+async function tokenFor(user: UserDto, scopes: ApiTokenScope[]) {
+  return (await createApiToken({ userId: user.id, name: "test", scopes })).secret;
+}
+
+describe("every endpoint declares the scope it needs, as the API page says", () => {
+  it("each handler's scope matches the published table, and the table lists every handler", () => {
+    const declared: string[] = [];
+    for (const [path, mod] of Object.entries(modules)) {
+      for (const method of ["GET", "POST", "PUT", "PATCH", "DELETE"]) {
+        const handler = mod[method] as { apiOptions?: ApiOptions } | undefined;
+        if (!handler) continue;
+        declared.push(`${method} ${path}`);
+        const row = endpointScopes.find((e) => e.method === method && e.path === path);
+        expect(row, `${method} ${path} is missing from the table`).toBeDefined();
+        expect(handler.apiOptions?.scope ?? null, `${method} ${path}`).toBe(row!.scope);
+        // Admin-only permissions need the admin scope.
+        if (handler.apiOptions?.permission?.startsWith("user.")) expect(handler.apiOptions.scope).toBe("admin");
+      }
+    }
+    expect(endpointScopes.map((e) => `${e.method} ${e.path}`).sort()).toEqual(declared.sort());
+  });
+});
+
+describe("admin endpoints and token scopes", () => {
+  const patch = (secret: string, body: unknown) =>
+    userById.PATCH(new Request(`http://127.0.0.1/api/v1/users/${subject.id}`, { method: "PATCH", body: JSON.stringify(body), headers: { authorization: `Bearer ${secret}` } }), {
+      params: Promise.resolve({ id: String(subject.id) }),
+    });
+  const list = (secret: string) => users.GET(new Request("http://127.0.0.1/api/v1/users", { headers: { authorization: `Bearer ${secret}` } }), { params: Promise.resolve({}) });
+
+  const table: [string, ApiTokenScope[], number][] = [
+    ["read", ["read"], 403],
+    ["deposit", ["deposit"], 403],
+    ["read + deposit", ["read", "deposit"], 403],
+    ["none", [], 403],
+    ["admin", ["admin"], 200],
+  ];
+  for (const [name, scopes, status] of table) {
+    it(`an admin's token with scope ${name} → ${status}`, async () => {
+      const secret = await tokenFor(admin, scopes);
+      const res = await patch(secret, { role: "curator" });
+      expect(res.status).toBe(status);
+      expect((await list(secret)).status).toBe(status);
+      const [row] = await sql`select role from users where id = ${subject.id}`;
+      if (status === 403) {
+        expect((await res.json()).code).toBe("forbidden");
+        expect(row.role).toBe("researcher");
+      } else {
+        expect(row.role).toBe("curator");
+        await sql`update users set role = 'researcher' where id = ${subject.id}`;
+      }
+    });
+  }
+
+  it("a researcher's token with the admin scope is still refused by the role", async () => {
+    const secret = await tokenFor(researcher, ["admin"]);
+    expect((await patch(secret, { role: "admin" })).status).toBe(403);
+    const [row] = await sql`select role from users where id = ${researcher.id}`;
+    expect(row.role).toBe("researcher");
+  });
+});
+
+describe("revoked tokens are refused everywhere", () => {
+  it("on public endpoints that ignore the caller, on endpoints that identify, and on protected ones", async () => {
+    const { secret, token } = await createApiToken({ userId: researcher.id, name: "old", scopes: ["read", "deposit"] });
+    await revokeApiToken({ userId: researcher.id, tokenId: token.id });
+    const auth = { authorization: `Bearer ${secret}`, "x-forwarded-for": uniqueIp() };
+    const calls: [string, Promise<Response>][] = [
+      ["POST analyses", analyses.POST(new Request("http://127.0.0.1/api/v1/analyses", { method: "POST", headers: auth, body: JSON.stringify({ order: 2, points: [{ T: 300, k: 1e-12 }, { T: 350, k: 2e-12 }, { T: 400, k: 3e-12 }] }) }), { params: Promise.resolve({}) })],
+      ["GET species preview", speciesPreview.GET(new Request("http://127.0.0.1/api/v1/species/preview?smiles=C", { headers: auth }), { params: Promise.resolve({}) })],
+      ["GET version", version.GET(new Request("http://127.0.0.1/api/v1/versions/1", { headers: auth }), { params: Promise.resolve({ id: "1" }) })],
+      ["GET file", files.GET(new Request("http://127.0.0.1/api/v1/files/1", { headers: auth }), { params: Promise.resolve({ fileId: "1" }) })],
+      ["POST datasets", datasets.POST(new Request("http://127.0.0.1/api/v1/datasets", { method: "POST", headers: auth, body: "{}" }), { params: Promise.resolve({}) })],
+    ];
+    for (const [name, call] of calls) {
+      const res = await call;
+      expect(res.status, name).toBe(401);
+      expect((await res.json()).code, name).toBe("unauthenticated");
+    }
+  });
+
+  it("the same public endpoints still answer without a token", async () => {
+    const res = await speciesPreview.GET(new Request("http://127.0.0.1/api/v1/species/preview?smiles=C", { headers: { "x-forwarded-for": uniqueIp() } }), { params: Promise.resolve({}) });
+    expect(res.status).toBe(200);
+  });
+});
+
+describe("creating a token with the admin scope", () => {
+  const form = (scopes: string[]) => {
+    const fd = new FormData();
+    fd.set("name", "ops");
+    for (const s of scopes) fd.append("scopes", s);
+    return fd;
+  };
+  const table: [string, () => UserDto, "ok" | "error"][] = [
+    ["researcher", () => researcher, "error"],
+    ["admin", () => admin, "ok"],
+  ];
+  for (const [who, user, status] of table) {
+    it(`${who} → ${status}`, async () => {
+      vi.mocked(getCurrentUser).mockResolvedValue(user());
+      const [{ n: before }] = await sql`select count(*)::int as n from api_tokens where user_id = ${user().id}`;
+      const out = await createTokenAction(idleState, form(["read", "admin"]));
+      expect(out.status).toBe(status);
+      const [{ n: after }] = await sql`select count(*)::int as n from api_tokens where user_id = ${user().id}`;
+      expect(after - before).toBe(status === "ok" ? 1 : 0);
+      vi.mocked(getCurrentUser).mockResolvedValue(null);
+    });
+  }
+});
