@@ -1,7 +1,8 @@
 import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError, type z } from "zod";
-import { AppError, problemJson, type FieldError } from "@/lib/errors";
+import { AppError, problemJson, storageRefusal, type FieldError } from "@/lib/errors";
+import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
 import { getUserByApiToken, type UserDto } from "@/lib/users/queries";
 import { assertAllowed } from "./guard";
 import type { Permission } from "./permissions";
@@ -62,9 +63,19 @@ export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S
   } catch {
     throw new AppError("validation_failed", "The request body is not valid JSON", [{ pointer: "", message: "not valid JSON" }]);
   }
+  const unstorable = findUnstorableText(body);
+  if (unstorable.length) throw new AppError("validation_failed", unstorable[0].message, unstorable);
   const parsed = schema.safeParse(body);
   if (!parsed.success) throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
   return parsed.data;
+}
+
+/** Refuses a query parameter (name or value) holding text PostgreSQL cannot store: a 422 naming it. */
+export function assertStorableQuery(url: URL): void {
+  for (const [name, value] of url.searchParams) {
+    const why = describeUnstorableText(name) ?? describeUnstorableText(value);
+    if (why) throw new AppError("validation_failed", `The query parameter “${name}” ${why}`, [{ pointer: `/${escapePointer(name)}`, message: `The query parameter “${name}” ${why}.`, value }]);
+  }
 }
 
 /**
@@ -73,8 +84,10 @@ export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S
  */
 export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>) => Promise<Response>, options: ApiOptions = {}) {
   return async (req: Request, context: { params: Promise<P> }) => {
-    const instance = new URL(req.url).pathname;
+    const url = new URL(req.url);
+    const instance = url.pathname;
     try {
+      assertStorableQuery(url);
       // Public endpoints skip the session look-up unless they ask for it.
       const user = options.permission || options.identify ? await resolveUser(req, options.scope) : null;
       if (options.permission) assertAllowed(user, { permission: options.permission });
@@ -82,6 +95,11 @@ export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>
     } catch (err) {
       if (err instanceof AppError) return problemResponse(err, instance);
       if (err instanceof ZodError) return problemResponse(new AppError("validation_failed", "Invalid input", zodToFieldErrors(err)), instance);
+      const refused = storageRefusal(err);
+      if (refused) {
+        console.warn(`[api] ${req.method} ${instance}: input refused by the database`, err);
+        return problemResponse(refused, instance);
+      }
       console.error(`[api] ${req.method} ${instance} failed`, err);
       return problemResponse(new AppError("internal", "Something went wrong on our side; it has been logged"), instance);
     }

@@ -5,6 +5,7 @@ import { applyTransition } from "@/lib/curation/transitions";
 import { AppError } from "@/lib/errors";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
+import { describeUnstorableText } from "@/lib/storable-text";
 import { decisionMail, submissionMail } from "@/lib/mail/templates";
 import { listActiveCurators, type UserDto } from "@/lib/users/queries";
 import { prepareDepositOrThrow } from "./prepare";
@@ -57,6 +58,8 @@ export async function getVisibleVersionOrThrow({ versionId, viewer }: { versionI
  * submission; owner and co-editors of each decision and retraction.
  */
 export async function transitionVersion({ actor, versionId, transition, reason }: { actor: UserDto; versionId: number; transition: Transition; reason?: string }) {
+  const unstorable = reason === undefined ? null : describeUnstorableText(reason);
+  if (unstorable) throw new AppError("validation_failed", `The reason ${unstorable}`, [{ pointer: "/reason", message: `This text ${unstorable}.` }]);
   const outcome = await applyTransition({ versionId, actorId: actor.id, transition, reason });
   const found = await getVersionWithRole({ versionId, userId: null });
   const title = found?.version.title ?? "your dataset";
