@@ -2,12 +2,12 @@ import "server-only";
 import { drizzle } from "drizzle-orm/postgres-js";
 import postgres from "postgres";
 import * as schema from "./schema";
-import { databaseUrl } from "@/lib/config";
+import { databaseUrl, dbPoolSize } from "@/lib/config";
 
 type Db = ReturnType<typeof createDb>;
 
 function createDb() {
-  const client = postgres(databaseUrl(), { max: Number(process.env.DB_POOL_SIZE ?? 10), onnotice: () => {} });
+  const client = postgres(databaseUrl(), { max: dbPoolSize(), onnotice: () => {} });
   return drizzle(client, { schema, casing: "snake_case" });
 }
 

@@ -3,7 +3,7 @@
 // on 127.0.0.1. Ctrl-C stops them all.
 import { spawn } from "node:child_process";
 import postgres from "postgres";
-import { captureSmtpPort, databaseUrl, doiApiAuth, doiApiUrl, doiFakePort, fakeDoiDataDir, usesFakeDoiService, usesMailCapture } from "@/lib/config";
+import { assertValidConfig, captureSmtpPort, ConfigError, databaseUrl, doiApiAuth, doiApiUrl, doiFakePort, fakeDoiDataDir, serveQuiet, serverHost, serverPort, usesFakeDoiService, usesMailCapture } from "@/lib/config";
 import { startFakeDoiService } from "@/lib/identifiers/fake-service";
 import { doiPrefix } from "@/lib/identifiers/mint";
 import { startWorkers } from "@/lib/jobs/worker";
@@ -12,9 +12,17 @@ import { enqueueStaleRefits } from "@/lib/datasets/refit";
 import { startCaptureServer } from "@/lib/mail/capture-server";
 import { DEMO_PASSWORD, demoAccounts } from "@/db/seed-data";
 
-const port = Number(process.env.PORT ?? 3000);
-const host = process.env.HOST ?? "127.0.0.1";
-const quiet = process.env.SERVE_QUIET === "1";
+// A bad setting stops here, before anything listens, with every problem listed.
+try {
+  assertValidConfig();
+} catch (err) {
+  if (!(err instanceof ConfigError)) throw err;
+  console.error(`[arrhenia] ${err.message}`);
+  process.exit(1);
+}
+const port = serverPort();
+const host = serverHost();
+const quiet = serveQuiet();
 
 const sql = postgres(databaseUrl(), { max: 2, onnotice: () => {} });
 const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captureSmtpPort() }) : null;

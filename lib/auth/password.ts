@@ -1,12 +1,12 @@
 import bcrypt from "bcryptjs";
+import { bcryptRounds } from "@/lib/config";
 
-// bcrypt cost 11 ≈ 0.1–0.2 s in pure JS on this class of machine: slow for guessing, fine for people.
-const ROUNDS = Number(process.env.BCRYPT_ROUNDS ?? 11);
 
 export const PASSWORD_MIN_LENGTH = 10;
 
 export function hashPassword(password: string): Promise<string> {
-  return bcrypt.hash(password, ROUNDS);
+  // Default cost 11 ≈ 0.1–0.2 s in pure JS on this class of machine: slow for guessing, fine for people.
+  return bcrypt.hash(password, bcryptRounds());
 }
 
 export function verifyPassword(password: string, hash: string): Promise<boolean> {

@@ -1,5 +1,5 @@
 import PgBoss from "pg-boss";
-import { databaseUrl } from "@/lib/config";
+import { databaseUrl, jobRetryDelaySeconds } from "@/lib/config";
 
 /** Queue names used across the app. */
 export const queues = ["mail", "register-identifier", "refit"] as const;
@@ -8,7 +8,7 @@ export type QueueName = (typeof queues)[number];
 /** Default retry policy: a relay or DOI agency that is down delays the work, never loses it. */
 export const retryPolicy = {
   retryLimit: 12,
-  retryDelay: Number(process.env.JOB_RETRY_DELAY_SECONDS ?? 15),
+  retryDelay: jobRetryDelaySeconds(),
   retryBackoff: true,
   expireInSeconds: 300,
 };
