@@ -1,7 +1,7 @@
 // Seeds the invented demo scenario once: a second run adds nothing twice.
 import { seedsDemoDatasets } from "@/lib/config";
-import { seedDemo, demoAccounts } from "@/db/seed-data";
-import { seedDemoDatasets } from "@/db/seed-datasets";
+import { seedDemo, demoAccounts } from "./seed/seed-data";
+import { seedDemoDatasets } from "./seed/seed-datasets";
 
 const created = await seedDemo();
 console.log(`[arrhenia] demo seed: ${created} new account(s), ${demoAccounts.length - created} already present`);

@@ -10,7 +10,7 @@ import { startWorkers } from "@/lib/jobs/worker";
 import { enqueuePendingIdentifierRegistrations } from "@/lib/identifiers/queue";
 import { enqueueStaleRefits } from "@/lib/datasets/refit";
 import { startCaptureServer } from "@/lib/mail/capture-server";
-import { DEMO_PASSWORD, demoAccounts } from "@/db/seed-data";
+import { DEMO_PASSWORD, demoAccounts } from "./seed/seed-data";
 
 // A bad setting stops here, before anything listens, with every problem listed.
 try {
