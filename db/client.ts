@@ -3,7 +3,7 @@ import { drizzle } from "drizzle-orm/postgres-js";
 import postgres from "postgres";
 import { withConnectionRetry } from "./retry";
 import * as schema from "./schema";
-import { databaseUrl } from "@/lib/config";
+import { databaseUrl, dbPoolSize } from "@/lib/config";
 
 type Db = ReturnType<typeof createDb>;
 
@@ -14,7 +14,7 @@ function reconnectDelaySeconds(failures: number): number {
 
 function createDb() {
   const client = postgres(databaseUrl(), {
-    max: Number(process.env.DB_POOL_SIZE ?? 10),
+    max: dbPoolSize(),
     onnotice: () => {},
     // A database restart or a dead peer must not leave broken connections in the pool: give up
     // on a connection attempt after 10 s, close idle ones after a minute and every one after

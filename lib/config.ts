@@ -1,8 +1,87 @@
-// Environment configuration in one place. Every variable is listed in the README.
+// Environment configuration in one place, validated with zod. Every variable is listed in the
+// README. Getters read process.env on each call (tests change it between cases); start-up calls
+// assertValidConfig() so a bad value stops the app with one clear message instead of failing later.
+import { z } from "zod";
 
-function required(name: string): string {
-  const value = process.env[name];
-  if (!value) throw new Error(`${name} is not set; start the app with \`npm start\` or set it (see README, Configuration)`);
+const port = z.coerce.number({ error: "must be a port number" }).int("must be a whole number").min(1, "must be 1–65535").max(65535, "must be 1–65535");
+const httpUrl = z.string().regex(/^https?:\/\/[^\s/]+/, "must be an http(s):// address");
+const flag = z.enum(["0", "1"], { error: "must be 0 or 1" });
+
+/** Each variable's rule; `secret` ones are never echoed in error messages. */
+const variables = {
+  DATABASE_URL: { schema: z.string().regex(/^postgres(ql)?:\/\/\S+$/, "must be a postgres:// or postgresql:// URL"), secret: true },
+  APP_URL: { schema: httpUrl },
+  NEXTAUTH_URL: { schema: httpUrl },
+  NEXTAUTH_SECRET: { schema: z.string().min(16, "must be at least 16 characters (npm start generates one into .data/auth-secret)"), secret: true },
+  PORT: { schema: port },
+  HOST: { schema: z.string().regex(/^[\w.:-]+$/, "must be a host name or an IP address") },
+  SMTP_URL: { schema: z.string().regex(/^smtps?:\/\/\S+$/, "must be an smtp:// or smtps:// URL"), secret: true },
+  MAIL_CAPTURE_PORT: { schema: port },
+  MAIL_FROM: { schema: z.string().min(3, "must be a sender such as Arrhenia <no-reply@example.org>") },
+  DOI_PREFIX: { schema: z.string().regex(/^10\.\d{4,9}$/, "must be a DOI prefix such as 10.5072") },
+  DOI_API_URL: { schema: httpUrl },
+  DOI_API_USER: { schema: z.string() },
+  DOI_API_PASSWORD: { schema: z.string(), secret: true, keepEmpty: true },
+  DOI_FAKE_PORT: { schema: port },
+  DOI_FAKE_DATA_DIR: { schema: z.string(), keepEmpty: true },
+  BCRYPT_ROUNDS: { schema: z.coerce.number({ error: "must be a number" }).int("must be a whole number").min(4, "must be 4–15").max(15, "must be 4–15 (each step doubles the time of a sign-in)") },
+  DB_POOL_SIZE: { schema: z.coerce.number({ error: "must be a number" }).int("must be a whole number").min(1, "must be 1–100").max(100, "must be 1–100") },
+  JOB_RETRY_DELAY_SECONDS: { schema: z.coerce.number({ error: "must be a number" }).int("must be a whole number").min(0, "must be 0–86400").max(86400, "must be 0–86400") },
+  STORAGE_DIR: { schema: z.string().min(1) },
+  SEED_DATASETS: { schema: flag },
+  SERVE_QUIET: { schema: flag },
+  TRUST_PROXY: { schema: z.string().regex(/^[\w.:/,\s-]*$/, "must be a hop count or a comma-separated list of addresses, CIDR ranges, loopback or uniquelocal") },
+  ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
+} satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
+
+type Name = keyof typeof variables;
+type Env = Record<string, string | undefined>;
+type Value<N extends Name> = z.output<(typeof variables)[N]["schema"]>;
+
+export class ConfigError extends Error {
+  constructor(readonly problems: string[]) {
+    super(`Invalid configuration (see README, Configuration):\n${problems.map((p) => `  - ${p}`).join("\n")}`);
+    this.name = "ConfigError";
+  }
+}
+
+function rawValue(name: Name, env: Env): string | undefined {
+  const v = env[name];
+  // An empty variable means "unset", except where the README gives empty a meaning.
+  return v === "" && !("keepEmpty" in variables[name]) ? undefined : v;
+}
+
+function problemOf(name: Name, env: Env): string | null {
+  const raw = rawValue(name, env);
+  if (raw === undefined) return null;
+  const parsed = variables[name].schema.safeParse(raw);
+  if (parsed.success) return null;
+  const shown = "secret" in variables[name] ? "" : ` (got "${raw}")`;
+  return `${name} ${parsed.error.issues[0].message}${shown}`;
+}
+
+function read<N extends Name>(name: N): Value<N> | undefined {
+  const raw = rawValue(name, process.env);
+  if (raw === undefined) return undefined;
+  const parsed = variables[name].schema.safeParse(raw);
+  if (!parsed.success) throw new ConfigError([problemOf(name, process.env)!]);
+  return parsed.data as Value<N>;
+}
+
+/** Every problem with the configuration in `env`, one line each; empty when it is valid. */
+export function configProblems(env: Env = process.env): string[] {
+  return (Object.keys(variables) as Name[]).map((name) => problemOf(name, env)).filter((p): p is string => p !== null);
+}
+
+/** Start-up check: throws one ConfigError listing every bad variable. */
+export function assertValidConfig(env: Env = process.env): void {
+  const problems = configProblems(env);
+  if (problems.length) throw new ConfigError(problems);
+}
+
+function required<N extends Name>(name: N): Value<N> {
+  const value = read(name);
+  if (value === undefined) throw new ConfigError([`${name} is not set; start the app with \`npm start\` or set it`]);
   return value;
 }
 
@@ -10,51 +89,101 @@ export function databaseUrl(): string {
   return required("DATABASE_URL");
 }
 
+/** Port of the web server. */
+export function serverPort(): number {
+  return read("PORT") ?? 3000;
+}
+
+/** Address the web server listens on; loopback unless HOST says otherwise. */
+export function serverHost(): string {
+  return read("HOST") ?? "127.0.0.1";
+}
+
 /** The public base URL used in links inside e-mails. */
 export function appUrl(): string {
-  return (process.env.APP_URL ?? process.env.NEXTAUTH_URL ?? `http://127.0.0.1:${process.env.PORT ?? 3000}`).replace(/\/$/, "");
+  return (read("APP_URL") ?? read("NEXTAUTH_URL") ?? `http://127.0.0.1:${serverPort()}`).replace(/\/$/, "");
+}
+
+/** Key that signs session tokens; undefined lets next-auth refuse to run in production. */
+export function nextAuthSecret(): string | undefined {
+  return read("NEXTAUTH_SECRET");
 }
 
 /** SMTP relay; when unset, mail goes to the local capture server. */
 export function smtpUrl(): string {
-  return process.env.SMTP_URL || `smtp://127.0.0.1:${captureSmtpPort()}`;
+  return read("SMTP_URL") ?? `smtp://127.0.0.1:${captureSmtpPort()}`;
 }
 
 export function captureSmtpPort(): number {
-  return Number(process.env.MAIL_CAPTURE_PORT ?? 2525);
+  return read("MAIL_CAPTURE_PORT") ?? 2525;
 }
 
 export function usesMailCapture(): boolean {
-  return !process.env.SMTP_URL;
+  return read("SMTP_URL") === undefined;
 }
 
 export function mailFrom(): string {
-  return process.env.MAIL_FROM ?? "Arrhenia <no-reply@arrhenia.invalid>";
+  return read("MAIL_FROM") ?? "Arrhenia <no-reply@arrhenia.invalid>";
+}
+
+/** DOI prefix of minted identifiers, or undefined for the test prefix (lib/identifiers/mint.ts). */
+export function configuredDoiPrefix(): string | undefined {
+  return read("DOI_PREFIX");
 }
 
 /** Port of the local fake DOI registration service, started on 127.0.0.1 when DOI_API_URL is unset. */
 export function doiFakePort(): number {
-  return Number(process.env.DOI_FAKE_PORT ?? 5100);
+  return read("DOI_FAKE_PORT") ?? 5100;
 }
 
 /** Base URL of the DOI registration agency's REST API (no trailing slash); the local fake by default. */
 export function doiApiUrl(): string {
-  return (process.env.DOI_API_URL || `http://127.0.0.1:${doiFakePort()}`).replace(/\/$/, "");
+  return (read("DOI_API_URL") ?? `http://127.0.0.1:${doiFakePort()}`).replace(/\/$/, "");
 }
 
 export function usesFakeDoiService(): boolean {
-  return !process.env.DOI_API_URL;
+  return read("DOI_API_URL") === undefined;
 }
 
 /** Basic-auth account at the registration agency (repository id and password), or null when unset. */
 export function doiApiAuth(): { user: string; password: string } | null {
-  const user = process.env.DOI_API_USER;
-  return user ? { user, password: process.env.DOI_API_PASSWORD ?? "" } : null;
+  const user = read("DOI_API_USER");
+  return user ? { user, password: read("DOI_API_PASSWORD") ?? "" } : null;
 }
 
 /** Folder where the local fake DOI service keeps its records; set it empty to keep them in memory. */
 export function fakeDoiDataDir(): string | null {
-  return (process.env.DOI_FAKE_DATA_DIR ?? ".data/fake-doi") || null;
+  return (read("DOI_FAKE_DATA_DIR") ?? ".data/fake-doi") || null;
+}
+
+/** bcrypt cost factor of password hashes. */
+export function bcryptRounds(): number {
+  return read("BCRYPT_ROUNDS") ?? 11;
+}
+
+/** Connections per app process. */
+export function dbPoolSize(): number {
+  return read("DB_POOL_SIZE") ?? 10;
+}
+
+/** First retry delay of background jobs, seconds (doubled on each retry). */
+export function jobRetryDelaySeconds(): number {
+  return read("JOB_RETRY_DELAY_SECONDS") ?? 15;
+}
+
+/** Folder of the local-disk file storage; undefined for .data/files under the working directory. */
+export function storageDir(): string | undefined {
+  return read("STORAGE_DIR");
+}
+
+/** Whether the demo seed adds its invented datasets (SEED_DATASETS=0 seeds the people only). */
+export function seedsDemoDatasets(): boolean {
+  return read("SEED_DATASETS") !== "0";
+}
+
+/** Whether scripts/serve.ts keeps its start-up banner to itself. */
+export function serveQuiet(): boolean {
+  return read("SERVE_QUIET") === "1";
 }
 
 /**
@@ -63,7 +192,7 @@ export function fakeDoiDataDir(): string | null {
  * hops; otherwise a comma-separated list of addresses, CIDR ranges or `loopback` / `uniquelocal`.
  */
 export function trustProxy(): string {
-  return process.env.TRUST_PROXY ?? "";
+  return read("TRUST_PROXY") ?? "";
 }
 
 /**
@@ -71,5 +200,5 @@ export function trustProxy(): string {
  * on a request came from that front server, not from the client.
  */
 export function edgeKey(): string | null {
-  return process.env.ARRHENIA_EDGE_KEY || null;
+  return read("ARRHENIA_EDGE_KEY") ?? null;
 }

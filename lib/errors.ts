@@ -52,3 +52,25 @@ export function problemJson(error: AppError, instance?: string) {
     ...(error.errors.length ? { errors: error.errors } : {}),
   };
 }
+
+// SQLSTATEs by which PostgreSQL refuses a value itself (not the query): NUL or invalid bytes in
+// text (22021), a character jsonb cannot hold (22P05), a number outside its column (22003), and
+// malformed JSON such as a lone surrogate escape (22P02 on jsonb).
+const REFUSED_VALUE_STATES = new Set(["22021", "22P05", "22003"]);
+
+/**
+ * The last line behind input validation: a value PostgreSQL refused becomes a 422 (the
+ * transaction has rolled back, so nothing was stored) instead of a 500. Null for any other error.
+ */
+export function storageRefusal(err: unknown): AppError | null {
+  for (let e: unknown = err, depth = 0; e && typeof e === "object" && depth < 4; e = (e as { cause?: unknown }).cause, depth++) {
+    const { code, message } = e as { code?: unknown; message?: unknown };
+    if (typeof code !== "string") continue;
+    if (REFUSED_VALUE_STATES.has(code) || (code === "22P02" && typeof message === "string" && /json|unicode/i.test(message))) {
+      return new AppError("validation_failed", "A value in the request cannot be stored (text with U+0000 or a lone surrogate, or a number out of range); nothing was stored", [
+        { pointer: "", message: "A value cannot be stored: remove U+0000 and lone surrogates from text, and keep numbers within their documented ranges." },
+      ]);
+    }
+  }
+  return null;
+}

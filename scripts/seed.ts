@@ -1,10 +1,11 @@
 // Seeds the invented demo scenario once: a second run adds nothing twice.
-import { seedDemo, demoAccounts } from "@/db/seed-data";
-import { seedDemoDatasets } from "@/db/seed-datasets";
+import { seedsDemoDatasets } from "@/lib/config";
+import { seedDemo, demoAccounts } from "./seed/seed-data";
+import { seedDemoDatasets } from "./seed/seed-datasets";
 
 const created = await seedDemo();
 console.log(`[arrhenia] demo seed: ${created} new account(s), ${demoAccounts.length - created} already present`);
-if (process.env.SEED_DATASETS !== "0") {
+if (seedsDemoDatasets()) {
   const made = await seedDemoDatasets();
   console.log(made ? `[arrhenia] demo seed: ${made} datasets` : "[arrhenia] demo seed: datasets already present");
 }

@@ -5,7 +5,7 @@
 import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import postgres from "postgres";
-import { captureSmtpPort, databaseUrl, doiApiAuth, doiApiUrl, doiFakePort, fakeDoiDataDir, trustProxy, usesFakeDoiService, usesMailCapture } from "@/lib/config";
+import { assertValidConfig, captureSmtpPort, ConfigError, databaseUrl, doiApiAuth, doiApiUrl, doiFakePort, fakeDoiDataDir, serveQuiet, serverHost, serverPort, trustProxy, usesFakeDoiService, usesMailCapture } from "@/lib/config";
 import { compileTrustProxy, freeLoopbackPort, startEdgeProxy } from "@/lib/auth/edge-proxy";
 import { startFakeDoiService } from "@/lib/identifiers/fake-service";
 import { doiPrefix } from "@/lib/identifiers/mint";
@@ -13,11 +13,19 @@ import { startWorkers } from "@/lib/jobs/worker";
 import { enqueuePendingIdentifierRegistrations } from "@/lib/identifiers/queue";
 import { enqueueStaleRefits } from "@/lib/datasets/refit";
 import { startCaptureServer } from "@/lib/mail/capture-server";
-import { DEMO_PASSWORD, demoAccounts } from "@/db/seed-data";
+import { DEMO_PASSWORD, demoAccounts } from "./seed/seed-data";
 
-const port = Number(process.env.PORT ?? 3000);
-const host = process.env.HOST ?? "127.0.0.1";
-const quiet = process.env.SERVE_QUIET === "1";
+// A bad setting stops here, before anything listens, with every problem listed.
+try {
+  assertValidConfig();
+} catch (err) {
+  if (!(err instanceof ConfigError)) throw err;
+  console.error(`[arrhenia] ${err.message}`);
+  process.exit(1);
+}
+const port = serverPort();
+const host = serverHost();
+const quiet = serveQuiet();
 
 // Fails before anything starts when TRUST_PROXY cannot be read.
 const trust = compileTrustProxy(trustProxy());

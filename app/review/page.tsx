@@ -7,17 +7,18 @@ import { QueueTable } from "./queue-table";
 
 export const metadata: Metadata = { title: "Review queue" };
 
+const flagOptions = ["unbalanced", "implausible_magnitude", "outlier", "curvature", "reported_fit_disagrees", "excess_scatter", "narrow_range"] as const;
+
 const queueParams = z.object({
   state: z.enum(["submitted", "in_review", "changes_requested", "all"]).catch("all"),
-  class: z.string().max(40).optional().catch(undefined),
-  flag: z.string().max(40).optional().catch(undefined),
+  // Filters are closed lists: anything else (including text the database cannot hold) shows every row.
+  class: z.enum(REACTION_CLASSES.map((c) => c.id) as [string, ...string[]]).optional().catch(undefined),
+  flag: z.enum(flagOptions).optional().catch(undefined),
   older: z.coerce.number().int().min(0).max(3650).optional().catch(undefined),
   sort: z.enum(QUEUE_SORTS).catch("submitted"),
   dir: z.enum(["asc", "desc"]).catch("asc"),
   page: z.coerce.number().int().min(1).catch(1),
 });
-
-const flagOptions = ["unbalanced", "implausible_magnitude", "outlier", "curvature", "reported_fit_disagrees", "excess_scatter", "narrow_range"];
 
 export default async function ReviewQueuePage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   await requirePagePermission("dataset.review", "/review");

@@ -1,6 +1,7 @@
 import "server-only";
 import type { z } from "zod";
-import { AppError } from "@/lib/errors";
+import { AppError, storageRefusal } from "@/lib/errors";
+import { describeUnstorableText } from "@/lib/storable-text";
 import type { UserDto } from "@/lib/users/queries";
 import { notFoundFromIssues } from "@/lib/ids";
 import { zodToFieldErrors } from "./api";
@@ -44,7 +45,18 @@ function fieldErrors(error: z.ZodError): Record<string, string> {
   return out;
 }
 
+/** Fields holding text PostgreSQL cannot store (U+0000, lone surrogates): refused, never stripped. */
+function unstorableFields(formData: FormData): Record<string, string> | null {
+  let out: Record<string, string> | null = null;
+  for (const [key, value] of formData.entries()) {
+    const why = describeUnstorableText(key) ?? describeUnstorableText(typeof value === "string" ? value : value.name);
+    if (why) (out ??= {})[key] = `This text ${why}.`;
+  }
+  return out;
+}
+
 function toState(err: unknown, formData?: FormData): ActionState {
+  err = storageRefusal(err) ?? err;
   if (err instanceof AppError) {
     return { status: "error", message: err.message, fieldErrors: Object.fromEntries(err.errors.map((e) => [e.pointer.replace(/^\//, ""), e.message])), values: formData ? echoValues(formData) : undefined };
   }
@@ -60,6 +72,8 @@ export function protectedAction<S extends z.ZodType>(schema: S, options: { permi
     try {
       const user = await getCurrentUser();
       if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
+      const unstorable = unstorableFields(formData);
+      if (unstorable) return { status: "error", message: "Please correct the marked fields.", fieldErrors: unstorable, values: echoValues(formData) };
       const parsed = schema.safeParse(formToObject(formData));
       if (!parsed.success) {
         const missing = notFoundFromIssues(parsed.error);
@@ -78,6 +92,8 @@ export function protectedAction<S extends z.ZodType>(schema: S, options: { permi
 export function publicAction<S extends z.ZodType>(schema: S, body: PublicBody<S>) {
   return async (_prev: ActionState, formData: FormData): Promise<ActionState> => {
     try {
+      const unstorable = unstorableFields(formData);
+      if (unstorable) return { status: "error", message: "Please correct the marked fields.", fieldErrors: unstorable, values: echoValues(formData) };
       const parsed = schema.safeParse(formToObject(formData));
       if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error), values: echoValues(formData) };
       return (await body(parsed.data)) ?? { status: "ok" };

@@ -1,8 +1,9 @@
 import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError, type z } from "zod";
-import { AppError, problemJson, type FieldError } from "@/lib/errors";
+import { AppError, problemJson, storageRefusal, type FieldError } from "@/lib/errors";
 import { BODY_LIMITS, readJsonBodyOrThrow } from "@/lib/http/read-body";
+import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
 import { getUserByApiToken, type ApiTokenScope, type UserDto } from "@/lib/users/queries";
 import { assertAllowed } from "./guard";
 import type { Permission } from "./permissions";
@@ -63,9 +64,19 @@ async function resolveToken(secret: string, scope: ApiScope | null): Promise<Use
 /** Parses a JSON body (read with a byte cap) with a zod schema; malformed JSON and schema failures become 422s with pointers. */
 export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S, limit: number = BODY_LIMITS.json): Promise<z.infer<S>> {
   const body = await readJsonBodyOrThrow(req, { limit });
+  const unstorable = findUnstorableText(body);
+  if (unstorable.length) throw new AppError("validation_failed", unstorable[0].message, unstorable);
   const parsed = schema.safeParse(body);
   if (!parsed.success) throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
   return parsed.data;
+}
+
+/** Refuses a query parameter (name or value) holding text PostgreSQL cannot store: a 422 naming it. */
+export function assertStorableQuery(url: URL): void {
+  for (const [name, value] of url.searchParams) {
+    const why = describeUnstorableText(name) ?? describeUnstorableText(value);
+    if (why) throw new AppError("validation_failed", `The query parameter “${name}” ${why}`, [{ pointer: `/${escapePointer(name)}`, message: `The query parameter “${name}” ${why}.`, value }]);
+  }
 }
 
 /**
@@ -76,8 +87,10 @@ export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>
   // Checked when the route module loads, so an endpoint that forgets its scope never serves.
   if ((options.permission || options.identify) && !options.scope) throw new Error("withApi: an endpoint that knows its caller must declare the token scope it needs");
   const route = async (req: Request, context: { params: Promise<P> }) => {
-    const instance = new URL(req.url).pathname;
+    const url = new URL(req.url);
+    const instance = url.pathname;
     try {
+      assertStorableQuery(url);
       const secret = bearerSecret(req);
       const wantsCaller = options.permission || options.identify;
       // Public endpoints skip the session look-up unless they ask for it.
@@ -87,6 +100,11 @@ export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>
     } catch (err) {
       if (err instanceof AppError) return problemResponse(err, instance);
       if (err instanceof ZodError) return problemResponse(new AppError("validation_failed", "Invalid input", zodToFieldErrors(err)), instance);
+      const refused = storageRefusal(err);
+      if (refused) {
+        console.warn(`[api] ${req.method} ${instance}: input refused by the database`, err);
+        return problemResponse(refused, instance);
+      }
       console.error(`[api] ${req.method} ${instance} failed`, err);
       return problemResponse(new AppError("internal", "Something went wrong on our side; it has been logged"), instance);
     }

@@ -4,6 +4,7 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import { z } from "zod";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { getDb } from "@/db/client";
+import { nextAuthSecret } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { appUrl } from "@/lib/config";
 import { enqueueMail } from "@/lib/mail/queue";
@@ -109,7 +110,7 @@ export async function isSessionCurrent(uid: number | undefined, gen: number | un
 export const authOptions: NextAuthOptions = {
   session: { strategy: "jwt", maxAge: 7 * 24 * 3600 },
   pages: { signIn: "/sign-in", error: "/sign-in" },
-  secret: process.env.NEXTAUTH_SECRET,
+  secret: nextAuthSecret(),
   providers: [
     CredentialsProvider({
       name: "E-mail and password",

@@ -1,12 +1,11 @@
 import bcrypt from "bcryptjs";
-
-// bcrypt cost 11 ≈ 0.1–0.2 s in pure JS on this class of machine: slow for guessing, fine for people.
-const ROUNDS = Number(process.env.BCRYPT_ROUNDS ?? 11);
+import { bcryptRounds } from "@/lib/config";
 
 export const PASSWORD_MIN_LENGTH = 10;
 
 export function hashPassword(password: string): Promise<string> {
-  return bcrypt.hash(password, ROUNDS);
+  // Default cost 11 ≈ 0.1–0.2 s in pure JS on this class of machine: slow for guessing, fine for people.
+  return bcrypt.hash(password, bcryptRounds());
 }
 
 export function verifyPassword(password: string, hash: string): Promise<boolean> {
@@ -18,7 +17,7 @@ export function verifyPassword(password: string, hash: string): Promise<boolean>
 let dummyHash: Promise<string> | undefined;
 
 export async function verifyAgainstNothing(password: string): Promise<false> {
-  dummyHash ??= bcrypt.hash("no account has this password", ROUNDS);
+  dummyHash ??= bcrypt.hash("no account has this password", bcryptRounds());
   await bcrypt.compare(password, await dummyHash).catch(() => false);
   return false;
 }

@@ -5,6 +5,7 @@ import { applyTransition } from "@/lib/curation/transitions";
 import { AppError } from "@/lib/errors";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
+import { describeUnstorableText } from "@/lib/storable-text";
 import { decisionMail, submissionMail } from "@/lib/mail/templates";
 import { listActiveCurators, type UserDto } from "@/lib/users/queries";
 import { prepareDepositOrThrow } from "./prepare";
@@ -62,6 +63,8 @@ export async function getVisibleVersionOrThrow({ versionId, viewer }: { versionI
  * decision and retraction): they exist exactly when the transition commits.
  */
 export async function transitionVersion({ actor, versionId, transition, reason }: { actor: UserDto; versionId: number; transition: Transition; reason?: string }) {
+  const unstorable = reason === undefined ? null : describeUnstorableText(reason);
+  if (unstorable) throw new AppError("validation_failed", `The reason ${unstorable}`, [{ pointer: "/reason", message: `This text ${unstorable}.` }]);
   // Read before the transaction, so it holds one connection and only its own locks.
   const found = await getVersionWithRole({ versionId, userId: null });
   const title = found?.version.title ?? "your dataset";

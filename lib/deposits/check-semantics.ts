@@ -38,7 +38,8 @@ function expectedOrcidCheck(id: string): string {
 
 /** Parse a unit, reporting a UnitError at `pointer`; undefined when absent or unusable. */
 function parseUnitAt<U>(report: Report, pointer: string, text: unknown, parse: (t: string) => U): U | undefined {
-  if (typeof text !== "string" || text.trim() === "") return undefined;
+  // A blank string is a unit nobody can read: reported like any unknown unit.
+  if (typeof text !== "string") return undefined;
   try {
     return parse(text);
   } catch (e) {

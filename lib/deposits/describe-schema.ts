@@ -56,6 +56,7 @@ function constraintsOf(node: SchemaNode): string[] {
   if (node.minimum !== undefined && node.maximum !== undefined) out.push(`${num(node.minimum)} to ${num(node.maximum)}`);
   else if (node.minimum !== undefined) out.push(`at least ${num(node.minimum)}`);
   else if (node.maximum !== undefined) out.push(`at most ${num(node.maximum)}`);
+  if (node.multipleOf !== undefined) out.push(`a multiple of ${num(node.multipleOf)}`);
   if (node.minLength !== undefined && node.maxLength !== undefined) out.push(`${num(node.minLength)}–${num(node.maxLength)} characters`);
   else if (node.maxLength !== undefined) out.push(`up to ${num(node.maxLength)} characters`);
   if (node.minItems !== undefined && node.maxItems !== undefined) out.push(`${num(node.minItems)} to ${num(node.maxItems)} entries`);

@@ -28,6 +28,7 @@ export interface SchemaNode {
   maximum?: number;
   exclusiveMinimum?: number;
   exclusiveMaximum?: number;
+  multipleOf?: number;
   minLength?: number;
   maxLength?: number;
   minItems?: number;

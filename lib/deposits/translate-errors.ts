@@ -40,6 +40,13 @@ const SPECIFIC = new Map<object, Partial<Record<string, MessageRule>>>([
           : sentenceAt(p, `must be four groups of four digits joined by hyphens, the last character a digit or X, e.g. 0000-0002-1825-0097 (got ${formatValue(v)})`),
     },
   ],
+  [
+    defs.species.properties!.coefficient,
+    {
+      multipleOf: (p, v) => sentenceAt(p, `must be a whole number or a half, e.g. 1, 2 or 0.5 (got ${formatValue(v)})`),
+      minimum: (p, v) => sentenceAt(p, `must be at least 0.5; a species that does not take part is left out (got ${formatValue(v)})`),
+    },
+  ],
   [defs.inchi, { pattern: (p, v) => sentenceAt(p, `must start with "InChI=1S/" or "InChI=1/" and contain no spaces (got ${formatValue(v)})`) }],
   [defs.smiles, { pattern: (p, v) => sentenceAt(p, `must not contain spaces (got ${formatValue(v)})`) }],
   [defs.webAddress, { pattern: webAddressRule, format: webAddressRule }],
@@ -145,6 +152,8 @@ function messageFor(e: ErrorObject, pointer: string): string {
       return sentenceAt(pointer, `must be greater than ${String(p.limit)} (got ${formatValue(v)})`);
     case "exclusiveMaximum":
       return sentenceAt(pointer, `must be less than ${String(p.limit)} (got ${formatValue(v)})`);
+    case "multipleOf":
+      return sentenceAt(pointer, `must be a multiple of ${String(p.multipleOf)} (got ${formatValue(v)})`);
     case "minLength":
       return p.limit === 1
         ? sentenceAt(pointer, "must not be empty")

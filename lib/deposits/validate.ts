@@ -7,6 +7,7 @@
 import Ajv2020 from "ajv/dist/2020";
 import addFormats from "ajv-formats";
 import type { FieldError } from "@/lib/errors";
+import { findUnstorableText } from "@/lib/storable-text";
 import { checkDepositSemantics } from "./check-semantics";
 import { utf8ByteLength } from "./byte-length";
 import { findJsonSyntaxProblem } from "./json-syntax";
@@ -56,13 +57,16 @@ export function validateDeposit(doc: unknown): ValidationResult {
   const errors = translated.errors;
   let total = translated.total;
   const pointers = new Set(errors.map((e) => e.pointer));
-  checkDepositSemantics(doc, (error) => {
+  const report = (error: FieldError) => {
     // A value the schema already complained about needs no second message.
     if (pointers.has(error.pointer)) return;
     pointers.add(error.pointer);
     total++;
     if (errors.length < MAX_VALIDATION_ERRORS) errors.push(error);
-  });
+  };
+  checkDepositSemantics(doc, report);
+  // PostgreSQL refuses NUL and lone surrogates in text and jsonb: refused here, never stripped.
+  findUnstorableText(doc, MAX_VALIDATION_ERRORS).forEach(report);
 
   if (total === 0) {
     const value = doc as DepositDocument;

@@ -1,8 +1,10 @@
+import { configuredDoiPrefix } from "@/lib/config";
+
 /** Test prefix of the DOI system's registration agencies' sandboxes; set DOI_PREFIX in production. */
 export const DEFAULT_DOI_PREFIX = "10.5072";
 
 export function doiPrefix(): string {
-  return process.env.DOI_PREFIX || DEFAULT_DOI_PREFIX;
+  return configuredDoiPrefix() ?? DEFAULT_DOI_PREFIX;
 }
 
 /** Series identifier: one per dataset, resolving to its newest published version. */

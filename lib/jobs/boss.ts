@@ -1,7 +1,7 @@
 import { sql, type SQL } from "drizzle-orm";
 import PgBoss from "pg-boss";
 import type { Transaction } from "@/db/client";
-import { databaseUrl } from "@/lib/config";
+import { databaseUrl, jobRetryDelaySeconds } from "@/lib/config";
 
 /** Queue names used across the app. */
 export const queues = ["mail", "register-identifier", "refit"] as const;
@@ -10,7 +10,7 @@ export type QueueName = (typeof queues)[number];
 /** Default retry policy: a relay or DOI agency that is down delays the work, never loses it. */
 export const retryPolicy = {
   retryLimit: 12,
-  retryDelay: Number(process.env.JOB_RETRY_DELAY_SECONDS ?? 15),
+  retryDelay: jobRetryDelaySeconds(),
   retryBackoff: true,
   expireInSeconds: 300,
 };

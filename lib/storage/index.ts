@@ -1,6 +1,7 @@
 import "server-only";
 import { mkdir, readFile, rm, writeFile } from "node:fs/promises";
 import path from "node:path";
+import { storageDir } from "@/lib/config";
 
 /** Where supplementary files live. Local disk by default; an S3-compatible store can implement the same three calls. */
 export interface FileStorage {
@@ -38,6 +39,6 @@ export class LocalDiskStorage implements FileStorage {
 let storage: FileStorage | undefined;
 
 export function getStorage(): FileStorage {
-  storage ??= new LocalDiskStorage(process.env.STORAGE_DIR || path.join(process.cwd(), ".data", "files"));
+  storage ??= new LocalDiskStorage(storageDir() ?? path.join(process.cwd(), ".data", "files"));
   return storage;
 }

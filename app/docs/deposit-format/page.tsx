@@ -208,6 +208,11 @@ export default function DepositFormatPage() {
         <p className="max-w-3xl text-sm text-muted">
           Fields marked <span className="text-error">*</span> are required. Fields not listed are refused, so a misspelt name is caught rather than silently dropped.
         </p>
+        <p className="max-w-3xl text-sm text-muted" id="text-rule">
+          Text may hold any Unicode character except U+0000 (NUL) and lone surrogates (half of a UTF-16 pair, written <code>\ud800</code> in JSON without its partner):
+          the database cannot store them. A document containing one is refused with a pointer to the text (or property name) holding it; nothing is removed or replaced
+          silently. The same rule holds for every form and for API query parameters.
+        </p>
         {sections.map((s) => (
           <SchemaSection key={s.id} section={s} />
         ))}

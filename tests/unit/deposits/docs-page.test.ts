@@ -17,6 +17,11 @@ describe("/docs/deposit-format", () => {
     expect(html).toContain('id="field-reaction-reactants"');
   });
 
+  it("states the rule for text the database cannot store: refused with a pointer, never stripped", () => {
+    expect(html).toMatch(/except U\+0000 \(NUL\) and lone surrogates/);
+    expect(html).toContain("nothing is removed or replaced");
+  });
+
   it("states the cautions", () => {
     expect(html).toContain(
       "Extrapolation outside the measured temperature range is unreliable, and safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.",

@@ -3,7 +3,6 @@ import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { startNextVersion } from "@/lib/datasets/deposits";
 import { parseIdOrThrow } from "@/lib/ids";
-import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, readBodyOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
 

@@ -1,7 +1,7 @@
 import "server-only";
 import { hashPassword } from "@/lib/auth/password";
 import { createUser, getUserByEmail } from "@/lib/users/queries";
-import type { Role } from "./users";
+import type { Role } from "@/db/users";
 
 /** Invented demo people and groups; every name, group and address here is fictional. */
 export const DEMO_PASSWORD = "arrhenia-demo";
