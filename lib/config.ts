@@ -10,6 +10,11 @@ export function databaseUrl(): string {
   return required("DATABASE_URL");
 }
 
+/** The schema owner's URL, for migrations only; the app itself connects as DATABASE_URL's role. */
+export function migrationDatabaseUrl(): string {
+  return process.env.MIGRATION_DATABASE_URL || databaseUrl();
+}
+
 /** The public base URL used in links inside e-mails. */
 export function appUrl(): string {
   return (process.env.APP_URL ?? process.env.NEXTAUTH_URL ?? `http://127.0.0.1:${process.env.PORT ?? 3000}`).replace(/\/$/, "");

@@ -1,11 +1,8 @@
 import "server-only";
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
-import { alias } from "drizzle-orm/pg-core";
 import { getDb } from "@/db/client";
 import { reactionParticipants, reactions, species, speciesNames } from "@/db/chemistry";
 import { datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
-
-const newer = alias(datasetVersions, "newer");
 
 /**
  * The version is its dataset's newest public one. Each version carries its own reaction, so a
@@ -13,7 +10,7 @@ const newer = alias(datasetVersions, "newer");
  */
 const isNewestPublic = and(
   inArray(datasetVersions.state, ["published", "retracted"]),
-  sql`not exists (select 1 from ${newer} where ${newer.datasetId} = ${datasetVersions.datasetId} and ${newer.state} in ('published', 'retracted') and ${newer.number} > ${datasetVersions.number})`,
+  sql`not exists (select 1 from dataset_versions newer where newer.dataset_id = ${datasetVersions.datasetId} and newer.state in ('published', 'retracted') and newer.number > ${datasetVersions.number})`,
 );
 
 /** A reaction with its species (and the names people gave them). */
