@@ -67,7 +67,7 @@ BEGIN
     RETURN OLD;
   END IF;
   IF OLD.series_identifier IS NOT NULL AND NEW.series_identifier IS DISTINCT FROM OLD.series_identifier THEN
-    RAISE EXCEPTION 'dataset % keeps its series identifier %', OLD.id, OLD.series_identifier USING ERRCODE = 'integrity_constraint_violation';
+    RAISE EXCEPTION 'dataset % is published: its series identifier % cannot be changed', OLD.id, OLD.series_identifier USING ERRCODE = 'integrity_constraint_violation';
   END IF;
   IF (NEW.id IS DISTINCT FROM OLD.id OR NEW.owner_id IS DISTINCT FROM OLD.owner_id OR NEW.created_at IS DISTINCT FROM OLD.created_at)
      AND (OLD.series_identifier IS NOT NULL OR arrhenia_dataset_has_public_version(OLD.id)) THEN
@@ -179,7 +179,7 @@ BEGIN
     frozen := TG_OP <> 'INSERT' AND arrhenia_species_is_published(OLD.species_id);
   END IF;
   IF frozen THEN
-    RAISE EXCEPTION 'a published version shows this %: it cannot be changed', TG_TABLE_NAME USING ERRCODE = 'integrity_constraint_violation';
+    RAISE EXCEPTION '% row shown by a published version: it cannot be changed', TG_TABLE_NAME USING ERRCODE = 'integrity_constraint_violation';
   END IF;
   IF TG_OP = 'DELETE' THEN RETURN OLD; END IF;
   RETURN NEW;
