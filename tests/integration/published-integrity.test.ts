@@ -1,3 +1,4 @@
+import PgBoss from "pg-boss";
 import postgres from "postgres";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { formatTable, inspectRuntimePrivileges } from "@/db/privileges";
@@ -7,6 +8,7 @@ import { addDatasetMember, getVersionWithRole } from "@/lib/datasets/queries";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { recordRegistrationSuccess } from "@/lib/identifiers/queries";
 import { listPublicVersionsOfReaction } from "@/lib/reactions/queries";
+import { databaseUrl } from "@/lib/config";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { sql, uniqueEmail } from "./helpers";
 
@@ -205,6 +207,28 @@ describe("the runtime role's privileges (npm run db:privileges)", () => {
     expect(role).not.toBe("arrhenia");
     expect(checks.filter((c) => !c.ok)).toEqual([]);
     expect(tables.find((t) => t.table === "public.dataset_versions")).toMatchObject({ owner: expect.not.stringMatching(role), select: true, update: true, truncate: false, trigger: false });
+  });
+
+  it("pg-boss works as the runtime role: send, read, cancel, maintenance; creating a queue (DDL) is refused", async () => {
+    const boss = new PgBoss({ connectionString: databaseUrl(), migrate: false, schedule: false, maintenanceIntervalSeconds: 1, monitorStateIntervalSeconds: 1, max: 2 });
+    const errors: Error[] = [];
+    boss.on("error", (err) => errors.push(err));
+    const maintained = new Promise<void>((resolve) => boss.once("maintenance", () => resolve()));
+    const monitored = new Promise<void>((resolve) => boss.once("monitor-states", () => resolve()));
+    await boss.start();
+    try {
+      // Far in the future, so no worker of another test file takes it.
+      const id = await boss.send("refit", { versionId: -1 }, { startAfter: 3600 });
+      expect((await boss.getJobById("refit", id!))?.state).toBe("created");
+      await boss.cancel("refit", id!);
+      expect((await boss.getJobById("refit", id!))?.state).toBe("cancelled");
+      await boss.deleteJob("refit", id!);
+      await Promise.all([maintained, monitored]);
+      expect(errors).toEqual([]);
+      await expect(boss.createQueue("scratch-queue")).rejects.toThrow(/permission denied/);
+    } finally {
+      await boss.stop({ graceful: false, wait: true });
+    }
   });
 
   describe("as the schema owner", () => {
