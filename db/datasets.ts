@@ -15,7 +15,6 @@ export const datasets = pgTable(
     ownerId: integer()
       .notNull()
       .references(() => users.id),
-    reactionId: integer().references(() => reactions.id),
     /** DOI-style identifier of all versions; minted with the first publication. */
     seriesIdentifier: text(),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
@@ -24,7 +23,7 @@ export const datasets = pgTable(
       .defaultNow()
       .$onUpdate(() => new Date()),
   },
-  (t) => [index("datasets_owner_idx").on(t.ownerId), index("datasets_reaction_idx").on(t.reactionId), uniqueIndex("datasets_series_identifier_key").on(t.seriesIdentifier)],
+  (t) => [index("datasets_owner_idx").on(t.ownerId), uniqueIndex("datasets_series_identifier_key").on(t.seriesIdentifier)],
 );
 
 /** People working together on a dataset, with their role on it. */
@@ -78,6 +77,8 @@ export const datasetVersions = pgTable(
     number: integer().notNull(),
     state: versionStateEnum().notNull().default("draft"),
     title: text().notNull(),
+    /** The reaction this version's document describes: each version keeps its own, so a new draft never moves a published one. */
+    reactionId: integer().references(() => reactions.id),
     /** The deposit document (schemas/deposit.v1.schema.json) as last saved. */
     payload: jsonb().$type<Record<string, unknown>>().notNull(),
     lockVersion: integer().notNull().default(1),
@@ -102,6 +103,7 @@ export const datasetVersions = pgTable(
     uniqueIndex("dataset_versions_number_key").on(t.datasetId, t.number),
     uniqueIndex("dataset_versions_identifier_key").on(t.versionIdentifier),
     index("dataset_versions_state_idx").on(t.state),
+    index("dataset_versions_reaction_idx").on(t.reactionId),
   ],
 );
 

@@ -10,6 +10,7 @@ const flag = z.enum(["0", "1"], { error: "must be 0 or 1" });
 /** Each variable's rule; `secret` ones are never echoed in error messages. */
 const variables = {
   DATABASE_URL: { schema: z.string().regex(/^postgres(ql)?:\/\/\S+$/, "must be a postgres:// or postgresql:// URL"), secret: true },
+  MIGRATION_DATABASE_URL: { schema: z.string().regex(/^postgres(ql)?:\/\/\S+$/, "must be a postgres:// or postgresql:// URL"), secret: true },
   APP_URL: { schema: httpUrl },
   NEXTAUTH_URL: { schema: httpUrl },
   NEXTAUTH_SECRET: { schema: z.string().min(16, "must be at least 16 characters (npm start generates one into .data/auth-secret)"), secret: true },
@@ -97,6 +98,11 @@ export function serverPort(): number {
 /** Address the web server listens on; loopback unless HOST says otherwise. */
 export function serverHost(): string {
   return read("HOST") ?? "127.0.0.1";
+}
+
+/** The schema owner's URL, for migrations only; the app itself connects as DATABASE_URL's role. */
+export function migrationDatabaseUrl(): string {
+  return read("MIGRATION_DATABASE_URL") ?? databaseUrl();
 }
 
 /** The public base URL used in links inside e-mails. */

@@ -9,7 +9,7 @@ case "$cmd" in
     pg_init "$DIR"
     pg_start "$DIR" "$PGPORT"
     url="$(pg_url "$DIR" "$PGPORT")"
-    log "PostgreSQL is running: $(echo "$url" | sed 's#://arrhenia:[^@]*@#://arrhenia:***@#')"
+    log "PostgreSQL is running: $(echo "$url" | sed 's#:[^:@/]*@#:***@#')"
     ;;
   stop) pg_stop "$DIR" ;;
   url) pg_start "$DIR" "$PGPORT"; pg_url "$DIR" "$PGPORT" ;;

@@ -1,12 +1,22 @@
-// Applies the committed Drizzle migrations, then pg-boss's schema and our queues.
+// Applies the committed Drizzle migrations, then pg-boss's schema and our queues, as the schema
+// owner (MIGRATION_DATABASE_URL); then grants the runtime role (DATABASE_URL's user) row access only.
 import { drizzle } from "drizzle-orm/postgres-js";
 import { migrate } from "drizzle-orm/postgres-js/migrator";
 import postgres from "postgres";
-import { databaseUrl } from "@/lib/config";
+import { databaseUrl, migrationDatabaseUrl } from "@/lib/config";
 import { installQueues } from "@/lib/jobs/boss";
+import { grantRuntimeRole } from "@/db/privileges";
 
-const client = postgres(databaseUrl(), { max: 1, onnotice: () => {} });
+const ownerUrl = migrationDatabaseUrl();
+const client = postgres(ownerUrl, { max: 1, onnotice: () => {} });
 await migrate(drizzle(client, { casing: "snake_case" }), { migrationsFolder: "drizzle" });
+await installQueues(ownerUrl);
+const runtimeRole = decodeURIComponent(new URL(databaseUrl()).username);
+if (runtimeRole && runtimeRole !== decodeURIComponent(new URL(ownerUrl).username)) {
+  await grantRuntimeRole(client, runtimeRole);
+  console.log(`[arrhenia] runtime role ${runtimeRole}: row privileges granted`);
+} else {
+  console.warn("[arrhenia] the app and the migrations use one role: set MIGRATION_DATABASE_URL to the schema owner (see README)");
+}
 await client.end();
-await installQueues();
 console.log("[arrhenia] database migrated");

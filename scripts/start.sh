@@ -11,6 +11,7 @@ if [ -z "${DATABASE_URL:-}" ]; then
   pg_init "$DIR"
   pg_start "$DIR" "$PGPORT"
   DATABASE_URL="$(pg_url "$DIR" "$PGPORT")"; export DATABASE_URL
+  MIGRATION_DATABASE_URL="$(pg_owner_url "$DIR" "$PGPORT")"; export MIGRATION_DATABASE_URL
 fi
 
 # A signing secret for sessions, made once per checkout and kept out of git.
@@ -24,6 +25,7 @@ export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$PORT}"
 TSX=(node_modules/.bin/tsx --conditions=react-server)
 "${TSX[@]}" scripts/migrate.ts
 "${TSX[@]}" scripts/seed.ts
+unset MIGRATION_DATABASE_URL # the server runs as the runtime role only
 
 if [ "${SKIP_BUILD:-0}" != "1" ]; then
   log "building (next build)"

@@ -19,7 +19,9 @@ trap cleanup EXIT INT TERM
 pg_init "$DIR" fast && pg_start "$DIR" "$TEST_PORT" || exit 1
 # The restart test drives this cluster with pg_ctl (PGBIN is exported by ensure_postgres).
 export TEST_PG_DIR="$DIR"
+# The app and the tests run as the runtime role; migrations as the schema owner.
 DATABASE_URL="$(pg_url "$DIR" "$TEST_PORT")"; export DATABASE_URL
+MIGRATION_DATABASE_URL="$(pg_owner_url "$DIR" "$TEST_PORT")"; export MIGRATION_DATABASE_URL
 export NEXTAUTH_SECRET="test-secret-$(head -c 16 /dev/urandom | od -An -tx1 | tr -d ' \n')"
 export BCRYPT_ROUNDS=4 # fast hashes in the throwaway cluster only
 export NEXT_DIST_DIR=.next-test # never the build that npm start serves
@@ -37,8 +39,8 @@ tier() { # tier NAME PASSED FAILED
 }
 single() { if "$@" >&2; then echo "1 0"; else echo "0 1"; fi; }
 
-log "migrate + seed"
-if "${TSX[@]}" scripts/migrate.ts && "${TSX[@]}" scripts/seed.ts; then tier setup 1 0; else tier setup 0 1; fi
+log "migrate + seed + runtime role's privileges"
+if "${TSX[@]}" scripts/migrate.ts && "${TSX[@]}" scripts/seed.ts && "${TSX[@]}" scripts/db-privileges.ts >&2; then tier setup 1 0; else tier setup 0 1; fi
 
 want lint && { log "lint"; read -r p f < <(single node_modules/.bin/eslint --max-warnings=0 .); tier lint "$p" "$f"; }
 want typecheck && { log "typecheck"; read -r p f < <(single node_modules/.bin/tsc --noEmit); tier typecheck "$p" "$f"; }

@@ -67,14 +67,13 @@ export async function listReviewQueue(q: QueueQuery) {
 export async function findPossibleDuplicates({ versionId }: { versionId: number }) {
   const db = getDb();
   const [me] = await db
-    .select({ datasetId: datasetVersions.datasetId, reactionId: datasets.reactionId, tMin: datasetVersions.tMin, tMax: datasetVersions.tMax, doi: sql<string | null>`${datasetVersions.payload} -> 'source' ->> 'doi'` })
+    .select({ datasetId: datasetVersions.datasetId, reactionId: datasetVersions.reactionId, tMin: datasetVersions.tMin, tMax: datasetVersions.tMax, doi: sql<string | null>`${datasetVersions.payload} -> 'source' ->> 'doi'` })
     .from(datasetVersions)
-    .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
     .where(eq(datasetVersions.id, versionId));
   if (!me) return [];
   const sameReactionOverlap =
     me.reactionId !== null && me.tMin !== null && me.tMax !== null
-      ? and(eq(datasets.reactionId, me.reactionId), sql`${datasetVersions.tMin} <= ${me.tMax}`, sql`${datasetVersions.tMax} >= ${me.tMin}`)
+      ? and(eq(datasetVersions.reactionId, me.reactionId), sql`${datasetVersions.tMin} <= ${me.tMax}`, sql`${datasetVersions.tMax} >= ${me.tMin}`)
       : undefined;
   const sameDoi = me.doi ? sql`lower(${datasetVersions.payload} -> 'source' ->> 'doi') = lower(${me.doi})` : undefined;
   const match = [sameReactionOverlap, sameDoi].filter(Boolean) as SQL[];
@@ -91,7 +90,6 @@ export async function findPossibleDuplicates({ versionId }: { versionId: number 
       sameDoi: sameDoi ? sql<boolean>`${sameDoi}` : sql<boolean>`false`,
     })
     .from(datasetVersions)
-    .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
     .where(and(ne(datasetVersions.datasetId, me.datasetId), inArray(datasetVersions.state, ["submitted", "in_review", "changes_requested", "published"]), or(...match)))
     .limit(20);
 }

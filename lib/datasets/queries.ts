@@ -39,6 +39,8 @@ export interface VersionDto {
   number: number;
   state: VersionState;
   title: string;
+  /** The reaction this version describes (its own: a later draft never changes it). */
+  reactionId: number | null;
   payload: Record<string, unknown>;
   lockVersion: number;
   versionIdentifier: string | null;
@@ -60,6 +62,7 @@ const versionColumns = {
   number: datasetVersions.number,
   state: datasetVersions.state,
   title: datasetVersions.title,
+  reactionId: datasetVersions.reactionId,
   payload: datasetVersions.payload,
   lockVersion: datasetVersions.lockVersion,
   versionIdentifier: datasetVersions.versionIdentifier,
@@ -116,11 +119,11 @@ async function writePointsAndAnalysis(tx: Transaction, versionId: number, points
 export async function createDatasetDraft(input: { ownerId: number; title: string; payload: Record<string, unknown>; points: StoredPoint[]; analysis: AnalysisSummary; reaction?: ReactionInput }) {
   return getDb().transaction(async (tx) => {
     const reactionId = input.reaction ? await upsertReaction(tx, input.reaction) : null;
-    const [dataset] = await tx.insert(datasets).values({ ownerId: input.ownerId, reactionId }).returning({ id: datasets.id });
+    const [dataset] = await tx.insert(datasets).values({ ownerId: input.ownerId }).returning({ id: datasets.id });
     await tx.insert(datasetMembers).values({ datasetId: dataset.id, userId: input.ownerId, role: "owner" });
     const [version] = await tx
       .insert(datasetVersions)
-      .values({ datasetId: dataset.id, number: 1, title: input.title, payload: input.payload, createdBy: input.ownerId, ...summarise(input.points, input.analysis) })
+      .values({ datasetId: dataset.id, number: 1, title: input.title, reactionId, payload: input.payload, createdBy: input.ownerId, ...summarise(input.points, input.analysis) })
       .returning(versionColumns);
     await writePointsAndAnalysis(tx, version.id, input.points, input.analysis);
     await recordAuditEvent(tx, { actorId: input.ownerId, action: "dataset.created", subjectType: "dataset_version", subjectId: version.id, details: { datasetId: dataset.id } });
@@ -143,10 +146,13 @@ export async function saveDraft(input: {
   reaction?: ReactionInput;
 }) {
   return getDb().transaction(async (tx) => {
+    // The reaction is stored on this version only: published versions keep the one they showed.
+    const reactionId = input.reaction ? await upsertReaction(tx, input.reaction) : undefined;
     const [row] = await tx
       .update(datasetVersions)
       .set({
         title: input.title,
+        reactionId,
         payload: input.payload,
         lockVersion: input.expectedLockVersion + 1,
         updatedAt: new Date(),
@@ -161,10 +167,6 @@ export async function saveDraft(input: {
       throw new AppError("conflict", "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.");
     }
     await writePointsAndAnalysis(tx, row.id, input.points, input.analysis);
-    if (input.reaction) {
-      const reactionId = await upsertReaction(tx, input.reaction);
-      await tx.update(datasets).set({ reactionId }).where(eq(datasets.id, row.datasetId));
-    }
     await recordAuditEvent(tx, { actorId: input.actorId, action: "dataset.draft_saved", subjectType: "dataset_version", subjectId: row.id, details: { lockVersion: row.lockVersion } });
     return row;
   });
@@ -254,7 +256,7 @@ export async function hasDatasetTitled({ ownerId, title }: { ownerId: number; ti
 export async function createNextVersion({ datasetId, actorId }: { datasetId: number; actorId: number }) {
   return getDb().transaction(async (tx) => {
     const [latest] = await tx
-      .select({ id: datasetVersions.id, number: datasetVersions.number, state: datasetVersions.state, title: datasetVersions.title, payload: datasetVersions.payload })
+      .select({ id: datasetVersions.id, number: datasetVersions.number, state: datasetVersions.state, title: datasetVersions.title, reactionId: datasetVersions.reactionId, payload: datasetVersions.payload })
       .from(datasetVersions)
       .where(eq(datasetVersions.datasetId, datasetId))
       .orderBy(desc(datasetVersions.number))
@@ -278,7 +280,7 @@ export async function createNextVersion({ datasetId, actorId }: { datasetId: num
     const summary: AnalysisSummary = { engineVersion: analysis?.engineVersion ?? "unknown", result: analysis?.result ?? null, checks: analysis?.checks ?? [], error: analysis?.error };
     const [version] = await tx
       .insert(datasetVersions)
-      .values({ datasetId, number: latest.number + 1, title: latest.title, payload: latest.payload, createdBy: actorId, ...summarise(stored, summary) })
+      .values({ datasetId, number: latest.number + 1, title: latest.title, reactionId: latest.reactionId, payload: latest.payload, createdBy: actorId, ...summarise(stored, summary) })
       .returning(versionColumns);
     await writePointsAndAnalysis(tx, version.id, stored, summary);
     // Files are immutable objects: the new draft lists the same ones (removal keeps shared objects).
@@ -300,8 +302,8 @@ export async function listPublicVersions({ datasetId }: { datasetId: number }) {
     .orderBy(desc(datasetVersions.number));
 }
 
-/** A dataset's series identifier and reaction. */
+/** A dataset's series identifier (the reaction belongs to each version: `VersionDto.reactionId`). */
 export async function getDatasetSummary({ datasetId }: { datasetId: number }) {
-  const [row] = await getDb().select({ id: datasets.id, seriesIdentifier: datasets.seriesIdentifier, reactionId: datasets.reactionId }).from(datasets).where(eq(datasets.id, datasetId));
+  const [row] = await getDb().select({ id: datasets.id, seriesIdentifier: datasets.seriesIdentifier }).from(datasets).where(eq(datasets.id, datasetId));
   return row ?? null;
 }

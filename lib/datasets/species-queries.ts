@@ -19,11 +19,13 @@ export async function upsertReaction(tx: Transaction, { key, equation, participa
   const ids = new Map<string, number>();
   for (const p of participants) {
     const s = p.identity;
-    const [row] = await tx
+    // A known species is never rewritten: published versions show the row as it was stored.
+    const [inserted] = await tx
       .insert(species)
       .values({ inchiKey: s.inchiKey, inchi: s.inchi, canonicalSmiles: s.canonicalSmiles ?? "", formula: s.formula, charge: s.charge, molarMass: s.molarMass, radicalElectrons: s.radicalElectrons ?? 0 })
-      .onConflictDoUpdate({ target: species.inchiKey, set: { inchi: s.inchi } })
+      .onConflictDoNothing({ target: species.inchiKey })
       .returning({ id: species.id });
+    const row = inserted ?? (await tx.select({ id: species.id }).from(species).where(eq(species.inchiKey, s.inchiKey)))[0];
     ids.set(s.inchiKey, row.id);
     if (p.name) await tx.insert(speciesNames).values({ speciesId: row.id, name: p.name }).onConflictDoNothing();
   }

@@ -29,8 +29,8 @@ export function getSender(): Promise<PgBoss> {
 }
 
 /** Installs or upgrades pg-boss's own schema and creates our queues (run by the migrate script). */
-export async function installQueues(): Promise<void> {
-  const boss = new PgBoss({ connectionString: databaseUrl(), supervise: false, schedule: false, migrate: true, max: 2 });
+export async function installQueues(connectionString = databaseUrl()): Promise<void> {
+  const boss = new PgBoss({ connectionString, supervise: false, schedule: false, migrate: true, max: 2 });
   await boss.start();
   for (const name of queues) {
     if (!(await boss.getQueue(name))) await boss.createQueue(name, { name, ...retryPolicy });

@@ -2,7 +2,16 @@ import "server-only";
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { reactionParticipants, reactions, species, speciesNames } from "@/db/chemistry";
-import { datasets, datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
+import { datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
+
+/**
+ * The version is its dataset's newest public one. Each version carries its own reaction, so a
+ * dataset appears under the reaction of its newest public version, and no draft moves it.
+ */
+const isNewestPublic = and(
+  inArray(datasetVersions.state, ["published", "retracted"]),
+  sql`not exists (select 1 from dataset_versions newer where newer.dataset_id = ${datasetVersions.datasetId} and newer.state in ('published', 'retracted') and newer.number > ${datasetVersions.number})`,
+);
 
 /** A reaction with its species (and the names people gave them). */
 export async function getReaction({ id }: { id: number }) {
@@ -27,13 +36,13 @@ export async function getReaction({ id }: { id: number }) {
 }
 
 /**
- * The newest public version (published or retracted) of every dataset of a reaction, with its
- * stored points and newest analysis.
+ * The newest public version (published or retracted) of every dataset whose newest public version
+ * describes this reaction, with its stored points and newest analysis.
  */
 export async function listPublicVersionsOfReaction({ reactionId }: { reactionId: number }) {
   const db = getDb();
   const versions = await db
-    .selectDistinctOn([datasetVersions.datasetId], {
+    .select({
       versionId: datasetVersions.id,
       datasetId: datasetVersions.datasetId,
       number: datasetVersions.number,
@@ -46,9 +55,8 @@ export async function listPublicVersionsOfReaction({ reactionId }: { reactionId:
       payload: datasetVersions.payload,
     })
     .from(datasetVersions)
-    .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
-    .where(and(eq(datasets.reactionId, reactionId), inArray(datasetVersions.state, ["published", "retracted"])))
-    .orderBy(datasetVersions.datasetId, desc(datasetVersions.number));
+    .where(and(eq(datasetVersions.reactionId, reactionId), isNewestPublic))
+    .orderBy(datasetVersions.datasetId);
   if (!versions.length) return [];
   const ids = versions.map((v) => v.versionId);
   const points = await db
@@ -71,10 +79,9 @@ export async function listPublicVersionsOfReaction({ reactionId }: { reactionId:
 /** Reactions that have at least one public dataset, with their counts (for listings). */
 export async function listReactionsWithPublicData() {
   return getDb()
-    .select({ id: reactions.id, equation: reactions.equation, datasets: sql<number>`count(distinct ${datasets.id})::int` })
+    .select({ id: reactions.id, equation: reactions.equation, datasets: sql<number>`count(distinct ${datasetVersions.datasetId})::int` })
     .from(reactions)
-    .innerJoin(datasets, eq(datasets.reactionId, reactions.id))
-    .innerJoin(datasetVersions, and(eq(datasetVersions.datasetId, datasets.id), eq(datasetVersions.state, "published")))
+    .innerJoin(datasetVersions, and(eq(datasetVersions.reactionId, reactions.id), isNewestPublic, eq(datasetVersions.state, "published")))
     .groupBy(reactions.id)
     .orderBy(reactions.equation);
 }
@@ -82,7 +89,7 @@ export async function listReactionsWithPublicData() {
 /** Live figures for the home page: published datasets, the reactions they cover, their points. */
 export async function countPublicData() {
   const [row] = await getDb().execute<{ datasets: number; reactions: number; points: number }>(sql`
-    select count(distinct d.id)::int as datasets, count(distinct d.reaction_id)::int as reactions, coalesce(sum(v.point_count), 0)::int as points
-    from dataset_versions v join datasets d on d.id = v.dataset_id where v.state = 'published'`);
+    select count(distinct v.dataset_id)::int as datasets, count(distinct v.reaction_id)::int as reactions, coalesce(sum(v.point_count), 0)::int as points
+    from dataset_versions v where v.state = 'published'`);
   return { datasets: Number(row?.datasets ?? 0), reactions: Number(row?.reactions ?? 0), points: Number(row?.points ?? 0) };
 }

@@ -46,7 +46,7 @@ describe("POST /api/v1/datasets", () => {
     expect(json.data).toMatchObject({ number: 1, state: "draft", lockVersion: 1 });
     const [v] = await sql`select point_count, t_min, t_max, worst_flag from dataset_versions where id = ${json.data.versionId}`;
     expect(v.point_count).toBe(EXAMPLE_DEPOSIT.points.length);
-    const [r] = await sql`select r.equation from datasets d join reactions r on r.id = d.reaction_id where d.id = ${json.data.datasetId}`;
+    const [r] = await sql`select r.equation from dataset_versions v join reactions r on r.id = v.reaction_id where v.id = ${json.data.versionId}`;
     // One row per reaction: its wording comes from whichever deposit named it first.
     expect(r.equation).toMatch(/^hydroxyl( radical)? \+ methane → water \+ methyl( radical)?$/);
     const [a] = await sql`select checks, result->'arrhenius'->'params'->>'Ea' as ea from version_analyses where version_id = ${json.data.versionId}`;

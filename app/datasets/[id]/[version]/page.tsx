@@ -42,7 +42,7 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
         <p className="flex flex-wrap items-center gap-3 text-sm text-muted">
           <StateLabel state={version.state} /> <span>Version {version.number}</span>
           {version.publishedAt && <span>published {version.publishedAt.toISOString().slice(0, 10)}</span>}
-          {dataset?.reactionId && <Link href={`/reactions/${dataset.reactionId}`}>All datasets of this reaction</Link>}
+          {version.reactionId && <Link href={`/reactions/${version.reactionId}`}>All datasets of this reaction</Link>}
         </p>
         <h1 className="text-3xl font-semibold">{version.title}</h1>
         <p className="text-sm">{doc.creators?.map((c) => c.name).join("; ")}</p>

@@ -1,0 +1,162 @@
+import "server-only";
+import type { Sql } from "postgres";
+
+// What the runtime role may do, and the check that it can do nothing more. The freeze of published
+// versions lives in triggers; a role that owns a table, is a superuser, may TRUNCATE, or may set
+// session_replication_role could switch them off, so the app must connect as a role that cannot.
+
+/** Schemas whose tables the app reads and writes (ours and pg-boss's). */
+const ROW_SCHEMAS = ["public", "pgboss"] as const;
+
+/** Append-only tables: the runtime role lacks these privileges (the triggers refuse them too). */
+const WITHHELD: Record<string, string> = { decisions: "UPDATE, DELETE", audit_events: "UPDATE, DELETE", identifier_registrations: "DELETE" };
+
+/** Triggers that freeze published data (drizzle/0002, drizzle/0005); each must exist and fire. */
+export const FREEZE_TRIGGERS = [
+  "dataset_versions_frozen_when_published",
+  "dataset_versions_identity_fixed",
+  "version_points_frozen_when_published",
+  "version_analyses_frozen_when_published",
+  "version_files_frozen_when_published",
+  "datasets_frozen_when_published",
+  "dataset_members_owner_frozen_when_published",
+  "decisions_append_only",
+  "identifier_registrations_forward_only",
+  "reactions_frozen_when_published",
+  "reaction_participants_frozen_when_published",
+  "species_frozen_when_published",
+  "species_names_frozen_when_published",
+];
+
+const quoteIdent = (name: string) => `"${name.replace(/"/g, '""')}"`;
+
+/**
+ * Grants `role` row access only (SELECT, INSERT, UPDATE, DELETE; sequences' USAGE) on every table,
+ * now and in later migrations (default privileges), minus the append-only tables' UPDATE/DELETE.
+ * Run by the schema owner after migrating; idempotent.
+ */
+export async function grantRuntimeRole(sql: Sql, role: string): Promise<void> {
+  await sql.begin(async (tx) => {
+    for (const schema of ROW_SCHEMAS) {
+      const [exists] = await tx`select 1 from pg_namespace where nspname = ${schema}`;
+      if (!exists) continue;
+      await tx`grant usage on schema ${tx(schema)} to ${tx(role)}`;
+      await tx`revoke all on all tables in schema ${tx(schema)} from ${tx(role)}`;
+      await tx`grant select, insert, update, delete on all tables in schema ${tx(schema)} to ${tx(role)}`;
+      await tx`grant usage, select on all sequences in schema ${tx(schema)} to ${tx(role)}`;
+      await tx`alter default privileges in schema ${tx(schema)} grant select, insert, update, delete on tables to ${tx(role)}`;
+      await tx`alter default privileges in schema ${tx(schema)} grant usage, select on sequences to ${tx(role)}`;
+    }
+    for (const [table, privileges] of Object.entries(WITHHELD)) {
+      await tx.unsafe(`revoke ${privileges} on table public.${quoteIdent(table)} from ${quoteIdent(role)}`);
+    }
+  });
+}
+
+export interface PrivilegeCheck {
+  check: string;
+  found: string;
+  ok: boolean;
+}
+
+export interface TablePrivileges {
+  table: string;
+  owner: string;
+  select: boolean;
+  insert: boolean;
+  update: boolean;
+  delete: boolean;
+  truncate: boolean;
+  references: boolean;
+  trigger: boolean;
+}
+
+class Rollback extends Error {}
+
+/** True when the database refuses `statement` (anything it did is rolled back either way). */
+async function isRefused(sql: Sql, statement: string): Promise<boolean> {
+  try {
+    await sql.begin(async (tx) => {
+      await tx.unsafe(statement);
+      throw new Rollback();
+    });
+    return false;
+  } catch (err) {
+    return !(err instanceof Rollback);
+  }
+}
+
+const none = (xs: string[]) => (xs.length ? xs.join(", ") : "none");
+
+/** Inspects the connected role: every way it could alter a frozen row, and its table privileges. */
+export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string; checks: PrivilegeCheck[]; tables: TablePrivileges[] }> {
+  const [me] = await sql<{ role: string; rolsuper: boolean; rolcreaterole: boolean; rolcreatedb: boolean; rolreplication: boolean; rolbypassrls: boolean }[]>`
+    select current_user as role, rolsuper, rolcreaterole, rolcreatedb, rolreplication, rolbypassrls from pg_roles where rolname = current_user`;
+  const asRoles = (await sql<{ name: string }[]>`select rolname as name from pg_roles where rolname <> current_user and pg_has_role(current_user, oid, 'MEMBER') order by 1`).map((r) => r.name);
+  const owned = (
+    await sql<{ name: string }[]>`
+      select n.nspname || '.' || c.relname as name from pg_class c join pg_namespace n on n.oid = c.relnamespace
+        where pg_has_role(current_user, c.relowner, 'MEMBER') and n.nspname not like 'pg_temp%' and n.nspname not like 'pg_toast%'
+      union all select 'schema ' || nspname from pg_namespace where pg_has_role(current_user, nspowner, 'MEMBER') and nspname not like 'pg_temp%' and nspname not like 'pg_toast%'
+      union all select 'function ' || p.oid::regprocedure from pg_proc p where pg_has_role(current_user, p.proowner, 'MEMBER')
+      order by 1`
+  ).map((r) => r.name);
+  const tables = await sql<TablePrivileges[]>`
+    select n.nspname || '.' || c.relname as table, pg_get_userbyid(c.relowner) as owner,
+      has_table_privilege(c.oid, 'SELECT') as select, has_table_privilege(c.oid, 'INSERT') as insert,
+      has_table_privilege(c.oid, 'UPDATE') as update, has_table_privilege(c.oid, 'DELETE') as delete,
+      has_table_privilege(c.oid, 'TRUNCATE') as truncate, has_table_privilege(c.oid, 'REFERENCES') as references,
+      has_table_privilege(c.oid, 'TRIGGER') as trigger
+    from pg_class c join pg_namespace n on n.oid = c.relnamespace
+    where c.relkind in ('r', 'p') and n.nspname in ('public', 'pgboss', 'drizzle') order by 1`;
+  const schemasWithCreate = (await sql<{ name: string }[]>`select nspname as name from pg_namespace where has_schema_privilege(oid, 'CREATE') and nspname not like 'pg_temp%' and nspname not like 'pg_toast%' order by 1`).map((r) => r.name);
+  const [db] = await sql<{ create: boolean; replication: boolean }[]>`
+    select has_database_privilege(current_database(), 'CREATE') as create, has_parameter_privilege('session_replication_role', 'SET') as replication`;
+  const triggers = await sql<{ name: string; enabled: string }[]>`select tgname as name, tgenabled as enabled from pg_trigger where tgname = any(${FREEZE_TRIGGERS})`;
+  const missing = FREEZE_TRIGGERS.filter((t) => !triggers.some((x) => x.name === t && (x.enabled === "O" || x.enabled === "A")));
+  const appendOnlyWritable = tables
+    .filter((t) => (t.table === "public.decisions" || t.table === "public.audit_events") && (t.update || t.delete))
+    .concat(tables.filter((t) => t.table === "public.identifier_registrations" && t.delete))
+    .map((t) => t.table);
+
+  const checks: PrivilegeCheck[] = [
+    { check: "superuser", found: String(me.rolsuper), ok: !me.rolsuper },
+    { check: "may create roles", found: String(me.rolcreaterole), ok: !me.rolcreaterole },
+    { check: "may create databases", found: String(me.rolcreatedb), ok: !me.rolcreatedb },
+    { check: "replication", found: String(me.rolreplication), ok: !me.rolreplication },
+    { check: "bypasses row-level security", found: String(me.rolbypassrls), ok: !me.rolbypassrls },
+    { check: "member of (may act as) roles", found: none(asRoles), ok: asRoles.length === 0 },
+    { check: "owns objects", found: owned.length ? `${owned.length}: ${owned.slice(0, 5).join(", ")}${owned.length > 5 ? ", …" : ""}` : "none", ok: owned.length === 0 },
+    ...(["truncate", "trigger", "references"] as const).map((p) => {
+      const on = tables.filter((t) => t[p]).map((t) => t.table);
+      return { check: `${p.toUpperCase()} on tables`, found: on.length ? `${on.length}: ${on.slice(0, 3).join(", ")}${on.length > 3 ? ", …" : ""}` : "none", ok: on.length === 0 };
+    }),
+    { check: "CREATE on schemas", found: none(schemasWithCreate), ok: schemasWithCreate.length === 0 },
+    { check: "CREATE on the database", found: String(db.create), ok: !db.create },
+    { check: "may set session_replication_role", found: String(db.replication), ok: !db.replication },
+    { check: "UPDATE/DELETE on append-only tables", found: none(appendOnlyWritable), ok: appendOnlyWritable.length === 0 },
+    { check: "freeze triggers missing or disabled", found: none(missing), ok: missing.length === 0 },
+  ];
+  // Belt and braces: the attempts themselves (rolled back should any succeed).
+  const attempts: [string, string][] = [
+    ["SET session_replication_role = replica", "SET LOCAL session_replication_role = replica"],
+    ["ALTER TABLE … DISABLE TRIGGER", "ALTER TABLE public.dataset_versions DISABLE TRIGGER dataset_versions_frozen_when_published"],
+    ["DROP TRIGGER", "DROP TRIGGER version_points_frozen_when_published ON public.version_points"],
+    ["TRUNCATE", "TRUNCATE public.version_points"],
+  ];
+  for (const [check, statement] of attempts) {
+    const refused = await isRefused(sql, statement);
+    checks.push({ check: `${check} refused`, found: String(refused), ok: refused });
+  }
+  return { role: me.role, checks, tables };
+}
+
+/** Renders rows as a plain-text table (for the terminal). */
+export function formatTable(rows: Record<string, unknown>[]): string {
+  if (!rows.length) return "";
+  const cols = Object.keys(rows[0]);
+  const cell = (v: unknown) => (typeof v === "boolean" ? (v ? "yes" : "-") : String(v));
+  const width = cols.map((c) => Math.max(c.length, ...rows.map((r) => cell(r[c]).length)));
+  const line = (vals: string[]) => vals.map((v, i) => v.padEnd(width[i])).join("  ").trimEnd();
+  return [line(cols), line(width.map((w) => "-".repeat(w))), ...rows.map((r) => line(cols.map((c) => cell(r[c]))))].join("\n");
+}

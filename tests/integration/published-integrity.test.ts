@@ -1,0 +1,253 @@
+import PgBoss from "pg-boss";
+import postgres from "postgres";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { formatTable, inspectRuntimePrivileges } from "@/db/privileges";
+import { applyTransition } from "@/lib/curation/transitions";
+import { depositNewDataset, startNextVersion, updateDraft } from "@/lib/datasets/deposits";
+import { addDatasetMember, getVersionWithRole } from "@/lib/datasets/queries";
+import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
+import { recordRegistrationSuccess } from "@/lib/identifiers/queries";
+import { listPublicVersionsOfReaction } from "@/lib/reactions/queries";
+import { databaseUrl } from "@/lib/config";
+import { createUser, type UserDto } from "@/lib/users/queries";
+import { sql, uniqueEmail } from "./helpers";
+
+// `sql` connects as DATABASE_URL's role: the runtime role the app itself uses (scripts/test.sh).
+
+/** The same kind of record, about another reaction: OH + C2H6 → H2O + C2H5. */
+const ETHANE_DEPOSIT = {
+  ...EXAMPLE_DEPOSIT,
+  reaction: {
+    ...EXAMPLE_DEPOSIT.reaction,
+    reactants: [
+      { name: "hydroxyl radical", smiles: "[OH]", coefficient: 1 },
+      { name: "ethane", smiles: "CC", coefficient: 1 },
+    ],
+    products: [
+      { name: "water", smiles: "O", coefficient: 1 },
+      { name: "ethyl radical", smiles: "[CH2]C", coefficient: 1 },
+    ],
+  },
+};
+
+let owner: UserDto, curator: UserDto, stranger: UserDto;
+
+beforeAll(async () => {
+  const mk = (tag: string, role: UserDto["role"] = "researcher") => createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  [owner, curator, stranger] = await Promise.all([mk("pi-owner"), mk("pi-curator", "curator"), mk("pi-stranger")]);
+});
+
+async function publish(document: unknown) {
+  const v = await depositNewDataset({ actor: owner, document });
+  await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+  await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Consistent with the source." });
+  return v;
+}
+
+const reactionOf = async (versionId: number) => (await sql<{ reaction_id: number }[]>`select reaction_id from dataset_versions where id = ${versionId}`)[0].reaction_id;
+
+describe("a draft of the next version never moves a published version", () => {
+  it("v1 published on reaction A stays on A after v2's draft is saved on reaction B", async () => {
+    const v1 = await publish({ ...EXAMPLE_DEPOSIT, title: "Moved reaction v1" });
+    const reactionA = await reactionOf(v1.id);
+    const v2 = await startNextVersion({ actor: owner, versionId: v1.id });
+    expect(await reactionOf(v2.id)).toBe(reactionA); // the draft starts as a copy
+    const saved = await updateDraft({ actor: owner, versionId: v2.id, expectedLockVersion: v2.lockVersion, document: { ...ETHANE_DEPOSIT, title: "Moved reaction v2" } });
+    const reactionB = await reactionOf(saved.id);
+    expect(reactionB).not.toBe(reactionA);
+
+    // The version page's query, the reaction pages and the stored row all still say A for v1.
+    expect((await getVersionWithRole({ versionId: v1.id, userId: null }))!.version.reactionId).toBe(reactionA);
+    expect(await reactionOf(v1.id)).toBe(reactionA);
+    const onA = (await listPublicVersionsOfReaction({ reactionId: reactionA })).map((v) => v.versionId);
+    expect(onA).toContain(v1.id);
+    const onB = await listPublicVersionsOfReaction({ reactionId: reactionB });
+    expect(onB.map((v) => v.datasetId)).not.toContain(v1.datasetId);
+  });
+});
+
+describe("the freeze holds against the runtime role", () => {
+  let published: { id: number; datasetId: number }, draft: { id: number; datasetId: number }, reactionA: number, otherReaction: number;
+  let speciesId: number, otherSpeciesId: number, versionIdentifier: string, seriesIdentifier: string;
+  let before: string;
+
+  const snapshot = async () =>
+    JSON.stringify(
+      await sql`select
+        (select to_jsonb(v) - 'updated_at' from dataset_versions v where id = ${published.id}) as version,
+        (select jsonb_agg(to_jsonb(p) order by idx) from version_points p where version_id = ${published.id}) as points,
+        (select jsonb_agg(to_jsonb(a) order by id) from version_analyses a where version_id = ${published.id}) as analyses,
+        (select jsonb_agg(to_jsonb(f) order by id) from version_files f where version_id = ${published.id}) as files,
+        (select to_jsonb(d) - 'updated_at' from datasets d where id = ${published.datasetId}) as dataset,
+        (select jsonb_agg(to_jsonb(m) order by user_id) from dataset_members m where dataset_id = ${published.datasetId} and role = 'owner') as owners,
+        (select jsonb_agg(to_jsonb(x) order by id) from decisions x where version_id = ${published.id}) as decisions,
+        (select jsonb_agg(to_jsonb(r) order by identifier) from identifier_registrations r where dataset_id = ${published.datasetId}) as registrations,
+        (select jsonb_agg(to_jsonb(s) order by id) from species s where id in (select species_id from reaction_participants where reaction_id = ${reactionA})) as species,
+        (select jsonb_agg(to_jsonb(p) order by species_id, side) from reaction_participants p where reaction_id = ${reactionA}) as participants,
+        (select to_jsonb(r) from reactions r where id = ${reactionA}) as reaction`,
+    );
+
+  beforeAll(async () => {
+    const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Frozen record" } });
+    // A supplementary file listed before publication (storage is not needed for the freeze).
+    await sql`insert into version_files (version_id, filename, content_type, size_bytes, sha256, storage_key) values (${v.id}, 'table.csv', 'text/csv', 3, ${"a".repeat(64)}, ${"frozen-" + v.id})`;
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Consistent with the source." });
+    published = v;
+    const d = await depositNewDataset({ actor: owner, document: { ...ETHANE_DEPOSIT, title: "Draft to move" } });
+    await sql`insert into version_files (version_id, filename, content_type, size_bytes, sha256, storage_key) values (${d.id}, 'draft.csv', 'text/csv', 3, ${"b".repeat(64)}, ${"draft-" + d.id})`;
+    draft = d;
+    reactionA = await reactionOf(published.id);
+    otherReaction = await reactionOf(draft.id);
+    [{ speciesId }] = await sql<{ speciesId: number }[]>`
+      select p.species_id as "speciesId" from reaction_participants p
+        where p.reaction_id = ${reactionA} and exists (select 1 from species_names n where n.species_id = p.species_id) order by p.species_id limit 1`;
+    [{ otherSpeciesId }] = await sql<{ otherSpeciesId: number }[]>`
+      select species_id as "otherSpeciesId" from reaction_participants where reaction_id = ${otherReaction} and species_id not in (select species_id from reaction_participants where reaction_id = ${reactionA}) limit 1`;
+    [{ versionIdentifier, seriesIdentifier }] = await sql<{ versionIdentifier: string; seriesIdentifier: string }[]>`
+      select v.version_identifier as "versionIdentifier", d.series_identifier as "seriesIdentifier" from dataset_versions v join datasets d on d.id = v.dataset_id where v.id = ${published.id}`;
+    await recordRegistrationSuccess({ identifier: versionIdentifier }); // the job's one allowed step
+    before = await snapshot();
+  });
+
+  // What someone holding the app's credentials would try, with why it must fail.
+  const refusedByTrigger = /published|append-only|cannot be|move forward|inserted as published/;
+  const notAllowed = /permission denied|must be owner|must be superuser|must be a member|must have/;
+  const attempts = (): [string, string, RegExp][] => [
+    ["edit the published row", `update dataset_versions set title = 'changed' where id = ${published.id}`, refusedByTrigger],
+    ["move it to another reaction", `update dataset_versions set reaction_id = ${otherReaction} where id = ${published.id}`, refusedByTrigger],
+    ["unpublish it", `update dataset_versions set state = 'draft' where id = ${published.id}`, refusedByTrigger],
+    ["renumber it", `update dataset_versions set number = 99 where id = ${published.id}`, refusedByTrigger],
+    ["delete it", `delete from dataset_versions where id = ${published.id}`, refusedByTrigger],
+    ["insert a version as published", `insert into dataset_versions (dataset_id, number, state, title, payload) values (${published.datasetId}, 77, 'published', 'forged', '{}')`, refusedByTrigger],
+    ["edit its points", `update version_points set rate_constant = 1 where version_id = ${published.id}`, refusedByTrigger],
+    ["delete its points", `delete from version_points where version_id = ${published.id}`, refusedByTrigger],
+    ["add a point", `insert into version_points (version_id, idx, temperature_k, rate_constant, original) values (${published.id}, 9999, 300, 1e-12, '{}')`, refusedByTrigger],
+    ["move draft points in", `update version_points set version_id = ${published.id}, idx = idx + 10000 where version_id = ${draft.id}`, refusedByTrigger],
+    ["edit its analysis", `update version_analyses set result = '{}' where version_id = ${published.id}`, refusedByTrigger],
+    ["delete its analysis", `delete from version_analyses where version_id = ${published.id}`, refusedByTrigger],
+    ["move a draft analysis in", `update version_analyses set version_id = ${published.id} where version_id = ${draft.id}`, refusedByTrigger],
+    ["rename its file", `update version_files set filename = 'other.csv' where version_id = ${published.id}`, refusedByTrigger],
+    ["delete its file", `delete from version_files where version_id = ${published.id}`, refusedByTrigger],
+    ["move a draft file in", `update version_files set version_id = ${published.id} where version_id = ${draft.id}`, refusedByTrigger],
+    ["add a file", `insert into version_files (version_id, filename, content_type, size_bytes, sha256, storage_key) values (${published.id}, 'x', 'text/plain', 1, 'c', 'x')`, refusedByTrigger],
+    ["change the series identifier", `update datasets set series_identifier = '10.5072/forged' where id = ${published.datasetId}`, refusedByTrigger],
+    ["change the owner", `update datasets set owner_id = ${stranger.id} where id = ${published.datasetId}`, refusedByTrigger],
+    ["delete the dataset", `delete from datasets where id = ${published.datasetId}`, refusedByTrigger],
+    ["remove the owner link", `delete from dataset_members where dataset_id = ${published.datasetId} and role = 'owner'`, refusedByTrigger],
+    ["demote the owner", `update dataset_members set role = 'viewer' where dataset_id = ${published.datasetId} and role = 'owner'`, refusedByTrigger],
+    ["add a second owner", `insert into dataset_members (dataset_id, user_id, role) values (${published.datasetId}, ${stranger.id}, 'owner')`, refusedByTrigger],
+    ["rewrite a decision", `update decisions set reason = 'forged' where version_id = ${published.id}`, notAllowed],
+    ["delete a decision", `delete from decisions where version_id = ${published.id}`, notAllowed],
+    ["re-point a registration", `update identifier_registrations set version_id = ${draft.id} where identifier = '${versionIdentifier}'`, refusedByTrigger],
+    ["mark a registration unregistered", `update identifier_registrations set registered = false where identifier = '${versionIdentifier}'`, refusedByTrigger],
+    ["back-date a registration", `update identifier_registrations set registered_at = now() - interval '1 year' where identifier = '${versionIdentifier}'`, refusedByTrigger],
+    ["delete a registration", `delete from identifier_registrations where identifier = '${seriesIdentifier}'`, notAllowed],
+    ["change a species it shows", `update species set formula = 'XYZ' where id = ${speciesId}`, refusedByTrigger],
+    ["delete a species it shows", `delete from species where id = ${speciesId}`, refusedByTrigger],
+    ["remove a species' names", `delete from species_names where species_id = ${speciesId}`, refusedByTrigger],
+    ["rename its reaction", `update reactions set equation = 'A → B' where id = ${reactionA}`, refusedByTrigger],
+    ["drop a participant", `delete from reaction_participants where reaction_id = ${reactionA}`, refusedByTrigger],
+    ["add a participant", `insert into reaction_participants (reaction_id, species_id, side, coefficient) values (${reactionA}, ${otherSpeciesId}, 'product', 1)`, refusedByTrigger],
+    ["rewrite the audit trail", `update audit_events set action = 'forged' where subject_id = '${published.id}'`, notAllowed],
+    ["truncate points", `truncate version_points`, notAllowed],
+    ["truncate everything", `truncate dataset_versions, datasets cascade`, notAllowed],
+    ["disable the freeze trigger", `alter table dataset_versions disable trigger dataset_versions_frozen_when_published`, notAllowed],
+    ["disable every trigger", `alter table version_points disable trigger all`, notAllowed],
+    ["drop the freeze trigger", `drop trigger version_points_frozen_when_published on version_points`, notAllowed],
+    ["replace the guard function", `create or replace function arrhenia_guard_published_children() returns trigger language plpgsql as $$ begin return new; end $$`, notAllowed],
+    ["skip triggers by replication role", `set session_replication_role = replica`, /permission denied|must be superuser/],
+    ["become the owner", `set role arrhenia_owner`, /permission denied|must be a member/],
+    ["grant itself superuser", `alter role current_user superuser`, notAllowed],
+    ["create a table", `create table public.scratch (id int)`, notAllowed],
+  ];
+
+  it("refuses every statement an attacker with the app's credentials would try, and nothing changes", async () => {
+    const list = attempts();
+    expect(list.length).toBeGreaterThanOrEqual(30);
+    const outcomes: { attempt: string; refused: string }[] = [];
+    for (const [what, statement, reason] of list) {
+      let error: Error | null = null;
+      try {
+        await sql.begin((tx) => tx.unsafe(statement));
+      } catch (err) {
+        error = err as Error;
+      }
+      outcomes.push({ attempt: what, refused: error ? error.message.slice(0, 90) : "NOT REFUSED" });
+      expect(error, `${what}: ${statement}`).not.toBeNull();
+      expect(error!.message, what).toMatch(reason);
+    }
+    if (process.env.SHOW_ATTEMPTS) console.log(formatTable(outcomes));
+    expect(await snapshot()).toBe(before);
+  });
+
+  it("still allows what the product does: re-fits, aliases, co-editors, registration progress, editing drafts", async () => {
+    await sql`insert into version_analyses (version_id, engine_version, result) values (${published.id}, 'refit-test', '{}')`;
+    await sql`insert into species_names (species_id, name) values (${speciesId}, ${"alias " + published.id}) on conflict do nothing`;
+    await addDatasetMember({ datasetId: published.datasetId, userId: stranger.id, role: "viewer", actorId: owner.id });
+    await sql`update identifier_registrations set attempts = attempts + 1, last_error = 'agency down' where identifier = ${seriesIdentifier}`;
+    await sql`update version_points set rate_constant = rate_constant * 1 where version_id = ${draft.id}`;
+    const [{ n }] = await sql<{ n: number }[]>`select count(*)::int as n from version_analyses where version_id = ${published.id}`;
+    expect(n).toBe(2);
+  });
+
+  it("retraction still works, and then the retracted version is frozen too", async () => {
+    const outcome = await applyTransition({ versionId: published.id, actorId: curator.id, transition: "retract", reason: "The source table was misprinted." });
+    expect(outcome.to).toBe("retracted");
+    const [row] = await sql`select state, retraction_notice from dataset_versions where id = ${published.id}`;
+    expect(row).toMatchObject({ state: "retracted", retraction_notice: "The source table was misprinted." });
+    await expect(sql`update dataset_versions set retraction_notice = 'edited' where id = ${published.id}`).rejects.toThrow(/published/);
+    await expect(sql`update version_points set version_id = ${published.id}, idx = idx + 20000 where version_id = ${draft.id}`).rejects.toThrow(/published/);
+  });
+});
+
+describe("the runtime role's privileges (npm run db:privileges)", () => {
+  it("passes every check as the runtime role", async () => {
+    const { role, checks, tables } = await inspectRuntimePrivileges(sql);
+    expect(role).not.toBe("arrhenia");
+    expect(checks.filter((c) => !c.ok)).toEqual([]);
+    expect(tables.find((t) => t.table === "public.dataset_versions")).toMatchObject({ owner: expect.not.stringMatching(role), select: true, update: true, truncate: false, trigger: false });
+  });
+
+  it("pg-boss works as the runtime role: send, read, cancel, maintenance; creating a queue (DDL) is refused", async () => {
+    const boss = new PgBoss({ connectionString: databaseUrl(), migrate: false, schedule: false, maintenanceIntervalSeconds: 1, monitorStateIntervalSeconds: 1, max: 2 });
+    const errors: Error[] = [];
+    boss.on("error", (err) => errors.push(err));
+    const maintained = new Promise<void>((resolve) => boss.once("maintenance", () => resolve()));
+    const monitored = new Promise<void>((resolve) => boss.once("monitor-states", () => resolve()));
+    await boss.start();
+    try {
+      // Far in the future, so no worker of another test file takes it.
+      const id = await boss.send("refit", { versionId: -1 }, { startAfter: 3600 });
+      expect((await boss.getJobById("refit", id!))?.state).toBe("created");
+      await boss.cancel("refit", id!);
+      expect((await boss.getJobById("refit", id!))?.state).toBe("cancelled");
+      await boss.deleteJob("refit", id!);
+      await Promise.all([maintained, monitored]);
+      expect(errors).toEqual([]);
+      await expect(boss.createQueue("scratch-queue")).rejects.toThrow(/permission denied/);
+    } finally {
+      await boss.stop({ graceful: false, wait: true });
+    }
+  });
+
+  describe("as the schema owner", () => {
+    const ownerUrl = process.env.MIGRATION_DATABASE_URL;
+    const owner = ownerUrl ? postgres(ownerUrl, { max: 1, onnotice: () => {} }) : null;
+    afterAll(() => owner?.end());
+    it.skipIf(!owner)("fails: the owner could switch the freeze off", async () => {
+      const { checks } = await inspectRuntimePrivileges(owner!);
+      const failed = checks.filter((c) => !c.ok).map((c) => c.check);
+      expect(failed).toEqual(expect.arrayContaining(["owns objects", "CREATE on schemas", "ALTER TABLE … DISABLE TRIGGER refused"]));
+    });
+    it.skipIf(!owner)("even the owner meets the triggers: decisions and registrations stay append-only, published tables refuse TRUNCATE", async () => {
+      const refused = (statement: string) => expect(owner!.begin((tx) => tx.unsafe(statement))).rejects.toThrow(/append-only|move forward|cannot be truncated|cannot be deleted/);
+      await refused(`update decisions set reason = 'forged'`);
+      await refused(`delete from decisions`);
+      await refused(`delete from identifier_registrations`);
+      await refused(`update identifier_registrations set kind = 'forged'`);
+      await refused(`truncate version_points`);
+      await refused(`truncate decisions`);
+    });
+  });
+});
