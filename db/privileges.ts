@@ -11,7 +11,7 @@ const ROW_SCHEMAS = ["public", "pgboss"] as const;
 /** Append-only tables: the runtime role lacks these privileges (the triggers refuse them too). */
 const WITHHELD: Record<string, string> = { decisions: "UPDATE, DELETE", audit_events: "UPDATE, DELETE", identifier_registrations: "DELETE" };
 
-/** Triggers that freeze published data (drizzle/0002, drizzle/0005); each must exist and fire. */
+/** Triggers that freeze published data (drizzle/0002, drizzle/0007); each must exist and fire. */
 export const FREEZE_TRIGGERS = [
   "dataset_versions_frozen_when_published",
   "dataset_versions_identity_fixed",
