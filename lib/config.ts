@@ -56,3 +56,26 @@ export function doiApiAuth(): { user: string; password: string } | null {
 export function fakeDoiDataDir(): string | null {
   return (process.env.DOI_FAKE_DATA_DIR ?? ".data/fake-doi") || null;
 }
+
+function positiveInteger(name: string, fallback: number): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw === "") return fallback;
+  const value = Number(raw);
+  if (!Number.isInteger(value) || value < 1) throw new Error(`${name} must be a whole number of at least 1 (got "${raw}")`);
+  return value;
+}
+
+/** Worker threads that validate and analyse deposits off the request thread (one on a two-core machine). */
+export function analysisThreads(): number {
+  return positiveInteger("ANALYSIS_THREADS", 1);
+}
+
+/** Tasks that may wait for an analysis thread; beyond this a request is answered 503 at once. */
+export function analysisQueueLimit(): number {
+  return positiveInteger("ANALYSIS_QUEUE_LIMIT", 32);
+}
+
+/** Longest one validation or analysis may take, waiting included, before it is stopped (ms). */
+export function analysisTimeoutMs(): number {
+  return positiveInteger("ANALYSIS_TIMEOUT_MS", 60_000);
+}
