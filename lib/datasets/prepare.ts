@@ -3,6 +3,7 @@ import { checkBalance, ChemError, describeSpecies, reactionKey, type SpeciesIden
 import type { DepositDocument } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
 import { runAnalysisTask } from "@/lib/workers/pool";
+import { storedPointsFromColumns } from "./prepare-document";
 import type { AnalysisSummary, ReactionInput, StoredPoint } from "./queries";
 
 /** Bumped whenever lib/kinetics changes its results; the refit command compares against it. */
@@ -29,12 +30,15 @@ function invalid(message: string, errors: FieldError[]): AppError {
  */
 export async function prepareDepositOrThrow(raw: unknown): Promise<PreparedDeposit> {
   // Validation, normalisation and the analysis grow with the points: they run on a worker thread.
-  const checked = await runAnalysisTask("checkDocument", raw);
+  // The document goes as JSON text: copying a parsed document to the worker would block this thread
+  // longer than the validation it spares.
+  const checked = await runAnalysisTask("checkDocument", JSON.stringify(raw ?? null));
   if (!checked.ok) {
     const n = checked.errors.length;
     throw invalid(`The deposit has ${n} problem${n === 1 ? "" : "s"}; the first: ${checked.errors[0].message}`, checked.errors);
   }
-  const doc = checked.document;
+  // Valid, so `raw` is a deposit document; the same shallow copy validateDeposit returns.
+  const doc: DepositDocument = { ...(raw as DepositDocument), license: checked.license };
   const checks: AnalysisSummary["checks"] = [];
 
   const participants: ReactionInput["participants"] = [];
@@ -76,5 +80,5 @@ export async function prepareDepositOrThrow(raw: unknown): Promise<PreparedDepos
   checks.push(...checked.checks);
   if (!checked.analysis.ok) throw invalid(checked.analysis.message, checked.analysis.errors);
 
-  return { document: doc, title: doc.title, points: checked.points, analysis: { engineVersion: ENGINE_VERSION, result: checked.analysis.result, checks }, reaction: { key, equation, participants } };
+  return { document: doc, title: doc.title, points: storedPointsFromColumns(doc, checked.columns), analysis: { engineVersion: ENGINE_VERSION, result: checked.analysis.result, checks }, reaction: { key, equation, participants } };
 }

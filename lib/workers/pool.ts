@@ -14,7 +14,10 @@ import type { TaskMessage, TaskName, Tasks } from "./tasks";
 /** Seconds a client is asked to wait before retrying when the pool is full or a task timed out. */
 const RETRY_AFTER_SECONDS = 5;
 
-let pool: Piscina | undefined;
+// One pool per process, kept on globalThis: the production build may bundle this module into
+// several route chunks, and each copy must not start threads of its own.
+const POOL_KEY = Symbol.for("arrhenia.analysisPool");
+const holder = globalThis as typeof globalThis & { [POOL_KEY]?: Piscina };
 
 /**
  * The worker entry is found from the project folder, not from this module's location: the
@@ -26,9 +29,9 @@ export function analysisWorkerFile(): string {
 }
 
 function getPool(): Piscina {
-  if (!pool) {
+  if (!holder[POOL_KEY]) {
     const threads = analysisThreads();
-    pool = new Piscina({
+    holder[POOL_KEY] = new Piscina({
       filename: analysisWorkerFile(),
       minThreads: threads,
       maxThreads: threads,
@@ -37,7 +40,12 @@ function getPool(): Piscina {
       idleTimeout: 10 * 60_000,
     });
   }
-  return pool;
+  return holder[POOL_KEY];
+}
+
+/** Start the pool's threads now (at server start), so the first request does not wait for them. */
+export function warmAnalysisPool(): void {
+  getPool();
 }
 
 function busy(message: string): AppError {
@@ -66,7 +74,7 @@ export async function runAnalysisTask<N extends TaskName>(name: N, input: Parame
 
 /** Stop the pool's threads (tests and orderly shutdown). */
 export async function closeAnalysisPool(): Promise<void> {
-  const current = pool;
-  pool = undefined;
+  const current = holder[POOL_KEY];
+  delete holder[POOL_KEY];
   await current?.destroy();
 }

@@ -10,8 +10,8 @@ import { AppError, type ErrorCode, type FieldError } from "@/lib/errors";
 export type AnalyseOutcome = { ok: true; response: AnalysisResponse } | { ok: false; code: ErrorCode; message: string; errors: FieldError[] };
 
 export const tasks = {
-  /** Deposit document → validated, normalised, analysed (lib/datasets/prepare-document.ts). */
-  checkDocument: (raw: unknown) => checkAndAnalyseDocument(raw),
+  /** Deposit document (JSON text) → validated, normalised, analysed (lib/datasets/prepare-document.ts). */
+  checkDocument: (text: string) => checkAndAnalyseDocument(text),
   /** The stateless analysis of POST /api/v1/analyses, on an already parsed request. */
   analyse: (request: AnalysisRequest): AnalyseOutcome => {
     try {
