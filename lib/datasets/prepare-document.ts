@@ -33,7 +33,7 @@ export interface CanonicalColumns {
 }
 
 export type CheckedDocument =
-  | { ok: false; errors: FieldError[] }
+  | { ok: false; errors: FieldError[]; /** the text is not JSON at all */ syntax?: true }
   | {
       ok: true;
       /** The licence after defaulting; the caller already holds the rest of the document. */
@@ -51,7 +51,7 @@ export type CheckedDocument =
  */
 export function checkAndAnalyseDocument(text: string): CheckedDocument {
   const parsed = parseDepositJson(text);
-  if (!parsed.ok) return parsed;
+  if (!parsed.ok) return { ok: false, errors: parsed.errors, syntax: true };
   const validation = validateDeposit(parsed.value);
   if (!validation.ok) return { ok: false, errors: validation.errors };
   const doc = validation.value;

@@ -1,6 +1,6 @@
 import "server-only";
 import { checkBalance, ChemError, describeSpecies, reactionKey, type SpeciesIdentity } from "@/lib/chem";
-import type { DepositDocument } from "@/lib/deposits";
+import { parseDepositJson, type DepositDocument } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
 import { runAnalysisTask } from "@/lib/workers/pool";
 import { storedPointsFromColumns } from "./prepare-document";
@@ -29,13 +29,32 @@ function invalid(message: string, errors: FieldError[]): AppError {
  * problem with its JSON pointer; nothing is stored by this function.
  */
 export async function prepareDepositOrThrow(raw: unknown): Promise<PreparedDeposit> {
-  // Validation, normalisation and the analysis grow with the points: they run on a worker thread.
   // The document goes as JSON text: copying a parsed document to the worker would block this thread
   // longer than the validation it spares.
-  const checked = await runAnalysisTask("checkDocument", JSON.stringify(raw ?? null));
+  return prepareOrThrow(JSON.stringify(raw ?? null), raw);
+}
+
+/**
+ * prepareDepositOrThrow for a document still in its JSON text, as a request body brings it: the
+ * text is parsed on the worker, and on this thread only once it has passed, so a large refused
+ * document costs the request thread nothing but the copy. Malformed JSON is a 422 too.
+ */
+export async function prepareDepositTextOrThrow(text: string): Promise<PreparedDeposit> {
+  return prepareOrThrow(text);
+}
+
+async function prepareOrThrow(text: string, parsed?: unknown): Promise<PreparedDeposit> {
+  const checked = await runAnalysisTask("checkDocument", text);
   if (!checked.ok) {
     const n = checked.errors.length;
+    if (checked.syntax) throw invalid(checked.errors[0].message, checked.errors);
     throw invalid(`The deposit has ${n} problem${n === 1 ? "" : "s"}; the first: ${checked.errors[0].message}`, checked.errors);
+  }
+  let raw = parsed;
+  if (raw === undefined) {
+    const reparsed = parseDepositJson(text);
+    if (!reparsed.ok) throw invalid(reparsed.errors[0].message, reparsed.errors); // cannot happen: the worker parsed it
+    raw = reparsed.value;
   }
   // Valid, so `raw` is a deposit document; the same shallow copy validateDeposit returns.
   const doc: DepositDocument = { ...(raw as DepositDocument), license: checked.license };

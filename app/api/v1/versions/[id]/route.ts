@@ -5,7 +5,7 @@ import { withApi } from "@/lib/auth/api";
 import { can } from "@/lib/auth/permissions";
 import { getVisibleVersionOrThrow, updateDraft } from "@/lib/datasets/deposits";
 import { versionToJson } from "@/lib/datasets/version-json";
-import { MAX_DOCUMENT_BYTES, parseDepositJson } from "@/lib/deposits";
+import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
 
 function versionIdOrThrow(raw: string): number {
@@ -32,9 +32,8 @@ export const PUT = withApi<{ id: string }>(
       throw new AppError("validation_failed", "Send the lock version you edited as an If-Match header (the ETag of GET)", [{ pointer: "", message: "If-Match header missing" }]);
     }
     if (Number(req.headers.get("content-length") ?? 0) > MAX_DOCUMENT_BYTES) throw new AppError("payload_too_large", "The document is larger than 25 MB");
-    const parsed = parseDepositJson(await req.text());
-    if (!parsed.ok) throw new AppError("validation_failed", parsed.errors[0].message, parsed.errors);
-    const saved = await updateDraft({ actor: user!, versionId, expectedLockVersion: expected, document: parsed.value });
+    // Parsed and validated on an analysis worker thread, not here.
+    const saved = await updateDraft({ actor: user!, versionId, expectedLockVersion: expected, text: await req.text() });
     return NextResponse.json({ data: { versionId: saved.id, lockVersion: saved.lockVersion, state: saved.state } }, { headers: { etag: `"${saved.lockVersion}"` } });
   },
   { permission: "dataset.deposit", scope: "deposit" },
