@@ -6,7 +6,8 @@ const root = path.dirname(fileURLToPath(import.meta.url));
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   // RDKit loads a .wasm file next to its JS; bundling rewrites that path.
-  serverExternalPackages: ["@rdkit/rdkit", "pg-boss", "pg", "smtp-server", "mailparser", "nodemailer"],
+  // piscina starts its own worker file from its package folder, which bundling would move.
+  serverExternalPackages: ["@rdkit/rdkit", "pg-boss", "pg", "smtp-server", "mailparser", "nodemailer", "piscina"],
   // A lockfile in a parent folder would otherwise move Next's inferred root.
   turbopack: { root },
   outputFileTracingRoot: root,

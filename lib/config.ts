@@ -5,6 +5,8 @@ import { z } from "zod";
 
 const port = z.coerce.number({ error: "must be a port number" }).int("must be a whole number").min(1, "must be 1–65535").max(65535, "must be 1–65535");
 const httpUrl = z.string().regex(/^https?:\/\/[^\s/]+/, "must be an http(s):// address");
+const wholeNumber = (min: number, max: number) =>
+  z.coerce.number({ error: "must be a number" }).int("must be a whole number").min(min, `must be ${min}–${max}`).max(max, `must be ${min}–${max}`);
 const flag = z.enum(["0", "1"], { error: "must be 0 or 1" });
 
 /** Each variable's rule; `secret` ones are never echoed in error messages. */
@@ -31,6 +33,9 @@ const variables = {
   STORAGE_DIR: { schema: z.string().min(1) },
   SEED_DATASETS: { schema: flag },
   SERVE_QUIET: { schema: flag },
+  ANALYSIS_THREADS: { schema: wholeNumber(1, 64) },
+  ANALYSIS_QUEUE_LIMIT: { schema: wholeNumber(1, 10_000) },
+  ANALYSIS_TIMEOUT_MS: { schema: wholeNumber(1000, 3_600_000) },
   TRUST_PROXY: { schema: z.string().regex(/^[\w.:/,\s-]*$/, "must be a hop count or a comma-separated list of addresses, CIDR ranges, loopback or uniquelocal") },
   ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
 } satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
@@ -207,4 +212,19 @@ export function trustProxy(): string {
  */
 export function edgeKey(): string | null {
   return read("ARRHENIA_EDGE_KEY") ?? null;
+}
+
+/** Worker threads that validate and analyse deposits off the request thread (one on a two-core machine). */
+export function analysisThreads(): number {
+  return read("ANALYSIS_THREADS") ?? 1;
+}
+
+/** Tasks that may wait for an analysis thread; beyond this a request is answered 503 at once. */
+export function analysisQueueLimit(): number {
+  return read("ANALYSIS_QUEUE_LIMIT") ?? 32;
+}
+
+/** Longest one validation or analysis may take, waiting included, before it is stopped (ms). */
+export function analysisTimeoutMs(): number {
+  return read("ANALYSIS_TIMEOUT_MS") ?? 60_000;
 }

@@ -8,6 +8,7 @@ export type ErrorCode =
   | "validation_failed"
   | "rate_limited"
   | "payload_too_large"
+  | "unavailable"
   | "internal";
 
 const statusByCode: Record<ErrorCode, number> = {
@@ -18,6 +19,7 @@ const statusByCode: Record<ErrorCode, number> = {
   validation_failed: 422,
   rate_limited: 429,
   payload_too_large: 413,
+  unavailable: 503,
   internal: 500,
 };
 

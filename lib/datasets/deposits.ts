@@ -8,12 +8,19 @@ import { enqueueMail } from "@/lib/mail/queue";
 import { describeUnstorableText } from "@/lib/storable-text";
 import { decisionMail, submissionMail } from "@/lib/mail/templates";
 import { listActiveCurators, type UserDto } from "@/lib/users/queries";
-import { prepareDepositOrThrow } from "./prepare";
+import { prepareDepositOrThrow, prepareDepositTextOrThrow } from "./prepare";
+
+/** A deposit document parsed, or still as the JSON text of a request body (parsed off this thread). */
+type DocumentSource = { document: unknown; text?: undefined } | { text: string; document?: undefined };
+
+function prepareSource(source: DocumentSource) {
+  return source.text !== undefined ? prepareDepositTextOrThrow(source.text) : prepareDepositOrThrow(source.document);
+}
 import { createDatasetDraft, createNextVersion, getVersionWithRole, listDatasetMembers, saveDraft } from "./queries";
 
 /** Creates a dataset from a deposit document; a document with any problem stores nothing. */
-export async function depositNewDataset({ actor, document }: { actor: UserDto; document: unknown }) {
-  const prepared = await prepareDepositOrThrow(document);
+export async function depositNewDataset({ actor, ...source }: { actor: UserDto } & DocumentSource) {
+  const prepared = await prepareSource(source);
   return createDatasetDraft({
     ownerId: actor.id,
     title: prepared.title,
@@ -25,10 +32,10 @@ export async function depositNewDataset({ actor, document }: { actor: UserDto; d
 }
 
 /** Replaces a draft's document (owner or editor), guarded by the lock version the editor loaded. */
-export async function updateDraft({ actor, versionId, expectedLockVersion, document }: { actor: UserDto; versionId: number; expectedLockVersion: number; document: unknown }) {
+export async function updateDraft({ actor, versionId, expectedLockVersion, ...source }: { actor: UserDto; versionId: number; expectedLockVersion: number } & DocumentSource) {
   await getVersionForOrThrow({ versionId, actor, action: "edit" });
   // Prepared before the save: a failed upload leaves the draft exactly as it was.
-  const prepared = await prepareDepositOrThrow(document);
+  const prepared = await prepareSource(source);
   return saveDraft({
     versionId,
     actorId: actor.id,

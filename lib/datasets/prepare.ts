@@ -1,22 +1,15 @@
 import "server-only";
 import { checkBalance, ChemError, describeSpecies, reactionKey, type SpeciesIdentity } from "@/lib/chem";
-import { validateDeposit, normalisePoints, toAnalysisInput, type DepositDocument } from "@/lib/deposits";
+import { parseDepositJson, type DepositDocument } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
-import { AnalysisError, analyseDataset, type ReactionOrder } from "@/lib/kinetics";
+import { runAnalysisTask } from "@/lib/workers/pool";
+import { storedPointsFromColumns } from "./prepare-document";
 import type { AnalysisSummary, ReactionInput, StoredPoint } from "./queries";
 
 /** Bumped whenever lib/kinetics changes its results; the refit command compares against it. */
 export const ENGINE_VERSION = "kinetics-1";
 
-/**
- * Plausible windows of k in canonical units per order (common practice: beyond these a unit
- * mistake is far likelier than chemistry). Outside is a warning, not an error.
- */
-export const PLAUSIBLE_K: Record<ReactionOrder, [number, number, string]> = {
-  1: [1e-12, 1e17, "s⁻¹"],
-  2: [1e-30, 1e-5, "cm³ molecule⁻¹ s⁻¹"],
-  3: [1e-45, 1e-25, "cm⁶ molecule⁻² s⁻¹"],
-};
+export { PLAUSIBLE_K } from "./prepare-document";
 
 export interface PreparedDeposit {
   document: DepositDocument;
@@ -36,12 +29,35 @@ function invalid(message: string, errors: FieldError[]): AppError {
  * problem with its JSON pointer; nothing is stored by this function.
  */
 export async function prepareDepositOrThrow(raw: unknown): Promise<PreparedDeposit> {
-  const validation = validateDeposit(raw);
-  if (!validation.ok) {
-    const n = validation.errors.length;
-    throw invalid(`The deposit has ${n} problem${n === 1 ? "" : "s"}; the first: ${validation.errors[0].message}`, validation.errors);
+  // The document goes as JSON text: copying a parsed document to the worker would block this thread
+  // longer than the validation it spares.
+  return prepareOrThrow(JSON.stringify(raw ?? null), raw);
+}
+
+/**
+ * prepareDepositOrThrow for a document still in its JSON text, as a request body brings it: the
+ * text is parsed on the worker, and on this thread only once it has passed, so a large refused
+ * document costs the request thread nothing but the copy. Malformed JSON is a 422 too.
+ */
+export async function prepareDepositTextOrThrow(text: string): Promise<PreparedDeposit> {
+  return prepareOrThrow(text);
+}
+
+async function prepareOrThrow(text: string, parsed?: unknown): Promise<PreparedDeposit> {
+  const checked = await runAnalysisTask("checkDocument", text);
+  if (!checked.ok) {
+    const n = checked.errors.length;
+    if (checked.syntax) throw invalid(checked.errors[0].message, checked.errors);
+    throw invalid(`The deposit has ${n} problem${n === 1 ? "" : "s"}; the first: ${checked.errors[0].message}`, checked.errors);
   }
-  const doc = validation.value;
+  let raw = parsed;
+  if (raw === undefined) {
+    const reparsed = parseDepositJson(text);
+    if (!reparsed.ok) throw invalid(reparsed.errors[0].message, reparsed.errors); // cannot happen: the worker parsed it
+    raw = reparsed.value;
+  }
+  // Valid, so `raw` is a deposit document; the same shallow copy validateDeposit returns.
+  const doc: DepositDocument = { ...(raw as DepositDocument), license: checked.license };
   const checks: AnalysisSummary["checks"] = [];
 
   const participants: ReactionInput["participants"] = [];
@@ -80,27 +96,8 @@ export async function prepareDepositOrThrow(raw: unknown): Promise<PreparedDepos
     checks.push({ code: "products_unknown", severity: "info", message: `Products not identified (overall removal rate): ${doc.reaction.productsUnknown.reason}` });
   }
 
-  const normalised = normalisePoints(doc);
-  const [lo, hi, unit] = PLAUSIBLE_K[doc.reaction.order];
-  const outside = normalised.map((p, i) => (p.k < lo || p.k > hi ? i : -1)).filter((i) => i >= 0);
-  if (outside.length) {
-    checks.push({
-      code: "implausible_magnitude",
-      severity: "warn",
-      message: `${outside.length} point${outside.length === 1 ? "" : "s"} lie outside ${lo.toExponential(0)}–${hi.toExponential(0)} ${unit}, the usual range for order ${doc.reaction.order}; check the unit of k.`,
-    });
-  }
+  checks.push(...checked.checks);
+  if (!checked.analysis.ok) throw invalid(checked.analysis.message, checked.analysis.errors);
 
-  let result: Record<string, unknown>;
-  try {
-    result = analyseDataset(toAnalysisInput(doc)) as unknown as Record<string, unknown>;
-  } catch (err) {
-    if (err instanceof AnalysisError) {
-      throw invalid(err.message, [{ pointer: err.pointIndex !== undefined ? `/points/${err.pointIndex}` : "/points", message: err.message }]);
-    }
-    throw err;
-  }
-
-  const points: StoredPoint[] = normalised.map((p) => ({ T: p.T, k: p.k, sigmaLnK: p.sigmaLnK, pressurePa: p.pressurePa, bathGas: p.bathGas, note: p.note, original: p.original }));
-  return { document: doc, title: doc.title, points, analysis: { engineVersion: ENGINE_VERSION, result, checks }, reaction: { key, equation, participants } };
+  return { document: doc, title: doc.title, points: storedPointsFromColumns(doc, checked.columns), analysis: { engineVersion: ENGINE_VERSION, result: checked.analysis.result, checks }, reaction: { key, equation, participants } };
 }

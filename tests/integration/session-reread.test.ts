@@ -15,9 +15,9 @@ beforeAll(async () => {
   subject = await createUser({ email: uniqueEmail("reread-subject"), name: "Subject", passwordHash: "x", role: "researcher", verified: true });
 });
 
-/** A session cookie as next-auth decodes it: id and role copied onto the token at sign-in. */
-function sessionOf(user: UserDto, role = user.role) {
-  vi.mocked(getServerSession).mockResolvedValue({ user: { id: user.id, email: user.email, name: user.name, role }, expires: new Date(Date.now() + 3600_000).toISOString() });
+/** A session cookie as next-auth decodes it: id, role and session generation copied onto the token at sign-in. */
+function sessionOf(user: UserDto, role = user.role, sessionGeneration = 0) {
+  vi.mocked(getServerSession).mockResolvedValue({ user: { id: user.id, email: user.email, name: user.name, role, sessionGeneration }, expires: new Date(Date.now() + 3600_000).toISOString() });
 }
 
 const patch = (id: number, body: unknown) =>

@@ -2,8 +2,7 @@
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { depositNewDataset } from "@/lib/datasets/deposits";
-import { MAX_DOCUMENT_BYTES, parseDepositJson } from "@/lib/deposits";
-import { AppError } from "@/lib/errors";
+import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
 import { readBodyOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
 
@@ -15,9 +14,8 @@ export const POST = withApi(
       user: user!,
       fingerprint: body,
       run: async () => {
-        const parsed = parseDepositJson(new TextDecoder().decode(body));
-        if (!parsed.ok) throw new AppError("validation_failed", parsed.errors[0].message, parsed.errors);
-        const version = await depositNewDataset({ actor: user!, document: parsed.value });
+        // Parsed and validated on an analysis worker thread, not here.
+        const version = await depositNewDataset({ actor: user!, text: new TextDecoder().decode(body) });
         return NextResponse.json({ data: { versionId: version.id, datasetId: version.datasetId, number: version.number, state: version.state, lockVersion: version.lockVersion } }, { status: 201, headers: { location: `/api/v1/versions/${version.id}` } });
       },
     });

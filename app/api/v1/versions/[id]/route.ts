@@ -4,7 +4,7 @@ import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { getVisibleVersionOrThrow, updateDraft } from "@/lib/datasets/deposits";
 import { versionToJson } from "@/lib/datasets/version-json";
-import { MAX_DOCUMENT_BYTES, parseDepositJson } from "@/lib/deposits";
+import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
 import { readTextBodyOrThrow } from "@/lib/http/read-body";
 import { parseIdOrThrow } from "@/lib/ids";
@@ -27,9 +27,8 @@ export const PUT = withApi<{ id: string }>(
     if (!ifMatch || !Number.isInteger(expected)) {
       throw new AppError("validation_failed", "Send the lock version you edited as an If-Match header (the ETag of GET)", [{ pointer: "", message: "If-Match header missing" }]);
     }
-    const parsed = parseDepositJson(await readTextBodyOrThrow(req, { limit: MAX_DOCUMENT_BYTES, what: "deposit document" }));
-    if (!parsed.ok) throw new AppError("validation_failed", parsed.errors[0].message, parsed.errors);
-    const saved = await updateDraft({ actor: user!, versionId, expectedLockVersion: expected, document: parsed.value });
+    // Parsed and validated on an analysis worker thread, not here.
+    const saved = await updateDraft({ actor: user!, versionId, expectedLockVersion: expected, text: await readTextBodyOrThrow(req, { limit: MAX_DOCUMENT_BYTES, what: "deposit document" }) });
     return NextResponse.json({ data: { versionId: saved.id, lockVersion: saved.lockVersion, state: saved.state } }, { headers: { etag: `"${saved.lockVersion}"` } });
   },
   { permission: "dataset.deposit", scope: "deposit" },

@@ -1,0 +1,80 @@
+/**
+ * A small pool of worker threads (piscina) for work that grows with the input — validating and
+ * analysing a deposit, the stateless analysis — so that one large request never stalls the
+ * thread that answers every other request. Bounded three ways: threads (ANALYSIS_THREADS), tasks
+ * waiting (ANALYSIS_QUEUE_LIMIT, then 503 at once) and time per task (ANALYSIS_TIMEOUT_MS, then
+ * the thread is stopped and the request gets a 503).
+ */
+import path from "node:path";
+import { Piscina } from "piscina";
+import { analysisQueueLimit, analysisThreads, analysisTimeoutMs } from "@/lib/config";
+import { AppError } from "@/lib/errors";
+import type { TaskMessage, TaskName, Tasks } from "./tasks";
+
+/** Seconds a client is asked to wait before retrying when the pool is full or a task timed out. */
+const RETRY_AFTER_SECONDS = 5;
+
+// One pool per process, kept on globalThis: the production build may bundle this module into
+// several route chunks, and each copy must not start threads of its own.
+const POOL_KEY = Symbol.for("arrhenia.analysisPool");
+const holder = globalThis as typeof globalThis & { [POOL_KEY]?: Piscina };
+
+/**
+ * The worker entry is found from the project folder, not from this module's location: the
+ * production build bundles this module elsewhere, while the entry file is served from the source
+ * tree as it is. Every way of running the app (npm start, npm test, tsx scripts) starts in it.
+ */
+export function analysisWorkerFile(): string {
+  return path.join(process.cwd(), "lib", "workers", "analysis-worker.mjs");
+}
+
+function getPool(): Piscina {
+  if (!holder[POOL_KEY]) {
+    const threads = analysisThreads();
+    holder[POOL_KEY] = new Piscina({
+      filename: analysisWorkerFile(),
+      minThreads: threads,
+      maxThreads: threads,
+      maxQueue: analysisQueueLimit(),
+      // Threads stay up: starting one (loading the engine) costs far more than a typical task.
+      idleTimeout: 10 * 60_000,
+    });
+  }
+  return holder[POOL_KEY];
+}
+
+/** Start the pool's threads now (at server start), so the first request does not wait for them. */
+export function warmAnalysisPool(): void {
+  getPool();
+}
+
+function busy(message: string): AppError {
+  return new AppError("unavailable", message, [], RETRY_AFTER_SECONDS);
+}
+
+/** Run one task on a worker thread; 503 when the queue is full or the task runs out of time. */
+export async function runAnalysisTask<N extends TaskName>(name: N, input: Parameters<Tasks[N]>[0]): Promise<ReturnType<Tasks[N]>> {
+  const workers = getPool();
+  if (workers.queueSize >= analysisQueueLimit()) {
+    throw busy("The server is busy checking other submissions; try again in a few seconds.");
+  }
+  const timeoutMs = analysisTimeoutMs();
+  const message: TaskMessage<N> = { name, input };
+  try {
+    return await workers.run(message, { signal: AbortSignal.timeout(timeoutMs) });
+  } catch (err) {
+    const e = err as Error;
+    if (e?.name === "AbortError" || e?.name === "TimeoutError") {
+      throw busy(`Checking this submission took longer than ${Math.round(timeoutMs / 1000)} s and was stopped; try again later or split it.`);
+    }
+    if (/queue is at limit/i.test(e?.message ?? "")) throw busy("The server is busy checking other submissions; try again in a few seconds.");
+    throw err;
+  }
+}
+
+/** Stop the pool's threads (tests and orderly shutdown). */
+export async function closeAnalysisPool(): Promise<void> {
+  const current = holder[POOL_KEY];
+  delete holder[POOL_KEY];
+  await current?.destroy();
+}

@@ -1,0 +1,40 @@
+/**
+ * The tasks an analysis worker thread runs. Each takes and returns plain data (structured clone
+ * crosses the thread boundary; class instances such as AppError do not), so failures of the input
+ * come back as `{ ok: false, … }` values rather than exceptions.
+ */
+import { runAnalysisOrThrow, type AnalysisRequest, type AnalysisResponse } from "@/lib/analyses/analyse-request";
+import { checkAndAnalyseDocument } from "@/lib/datasets/prepare-document";
+import { AppError, type ErrorCode, type FieldError } from "@/lib/errors";
+
+export type AnalyseOutcome = { ok: true; response: AnalysisResponse } | { ok: false; code: ErrorCode; message: string; errors: FieldError[] };
+
+export const tasks = {
+  /** Deposit document (JSON text) → validated, normalised, analysed (lib/datasets/prepare-document.ts). */
+  checkDocument: (text: string) => checkAndAnalyseDocument(text),
+  /** The stateless analysis of POST /api/v1/analyses, on an already parsed request. */
+  analyse: (request: AnalysisRequest): AnalyseOutcome => {
+    try {
+      return { ok: true, response: runAnalysisOrThrow(request) };
+    } catch (err) {
+      if (err instanceof AppError) return { ok: false, code: err.code, message: err.message, errors: err.errors };
+      throw err;
+    }
+  },
+};
+
+export type Tasks = typeof tasks;
+export type TaskName = keyof Tasks;
+
+/** What the worker thread receives. */
+export interface TaskMessage<N extends TaskName = TaskName> {
+  name: N;
+  input: Parameters<Tasks[N]>[0];
+}
+
+/** Entry used by the worker thread: dispatch one message. */
+export function runTask({ name, input }: TaskMessage): ReturnType<Tasks[TaskName]> {
+  const task = tasks[name] as (input: unknown) => ReturnType<Tasks[TaskName]>;
+  if (!task) throw new Error(`Unknown analysis task "${String(name)}"`);
+  return task(input);
+}
