@@ -27,9 +27,11 @@ export async function startCaptureServer({ sql, port, host = "127.0.0.1" }: { sq
           const from = mail.from?.text ?? (envelopeFrom ? envelopeFrom.address : "");
           const headers: Record<string, string> = {};
           for (const [k, v] of mail.headers) headers[k] = typeof v === "string" ? v : JSON.stringify(v);
+          // The recipient list goes in as JSON and becomes text[] in the server: the driver's array
+          // typing depends on a type cache that a fresh or restarted connection may not have yet.
           await sql`insert into captured_mail (message_id, from_address, to_addresses, subject, text, html, headers)
             values (${mail.messageId ?? null}, ${from},
-                    ${sql.array(to.length ? to : envelopeTo)}, ${mail.subject ?? "(no subject)"},
+                    array(select jsonb_array_elements_text(${sql.json(to.length ? to : envelopeTo)})), ${mail.subject ?? "(no subject)"},
                     ${mail.text ?? null}, ${typeof mail.html === "string" ? mail.html : null}, ${sql.json(headers)})`;
           callback();
         })
