@@ -35,7 +35,7 @@ const variables = {
   SERVE_QUIET: { schema: flag },
   ANALYSIS_THREADS: { schema: wholeNumber(1, 64) },
   ANALYSIS_QUEUE_LIMIT: { schema: wholeNumber(1, 10_000) },
-  ANALYSIS_TIMEOUT_MS: { schema: wholeNumber(1000, 3_600_000) },
+  ANALYSIS_TIMEOUT_MS: { schema: wholeNumber(1, 3_600_000) },
   TRUST_PROXY: { schema: z.string().regex(/^[\w.:/,\s-]*$/, "must be a hop count or a comma-separated list of addresses, CIDR ranges, loopback or uniquelocal") },
   ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
 } satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
