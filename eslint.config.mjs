@@ -14,7 +14,10 @@ const config = [
         {
           patterns: [
             { group: ["@/db", "@/db/*", "**/db/*"], message: "lib/kinetics and lib/chem are pure: no database access." },
-            { group: ["next", "next/*", "react", "react/*", "react-dom", "react-dom/*"], message: "lib/kinetics and lib/chem are pure: no Next.js or React." },
+            {
+              group: ["next", "next/*", "react", "react/*", "react-dom", "react-dom/*"],
+              message: "lib/kinetics and lib/chem are pure: no Next.js or React.",
+            },
             { group: ["@/app/*", "@/components/*"], message: "lib/kinetics and lib/chem are pure: no pages or components." },
           ],
         },
@@ -26,7 +29,14 @@ const config = [
     rules: {
       "no-restricted-imports": [
         "error",
-        { patterns: [{ group: ["@/db", "@/db/*", "**/db/*"], message: "Pages, actions, handlers and components call lib/*/queries.ts, never the database layer." }] },
+        {
+          patterns: [
+            {
+              group: ["@/db", "@/db/*", "**/db/*"],
+              message: "Pages, actions, handlers and components call lib/*/queries.ts, never the database layer.",
+            },
+          ],
+        },
       ],
     },
   },
@@ -35,7 +45,14 @@ const config = [
     rules: {
       "no-restricted-imports": [
         "error",
-        { patterns: [{ group: ["@/lib/*", "!@/lib/config", "@/app/*", "@/components/*"], message: "db/ is the bottom layer: it imports configuration only, no domain service (the demo seed lives in scripts/seed/)." }] },
+        {
+          patterns: [
+            {
+              group: ["@/lib/*", "!@/lib/config", "@/app/*", "@/components/*"],
+              message: "db/ is the bottom layer: it imports configuration only, no domain service (the demo seed lives in scripts/seed/).",
+            },
+          ],
+        },
       ],
     },
   },
@@ -47,14 +64,24 @@ const config = [
       "no-restricted-syntax": [
         "error",
         {
-          selector: "CallExpression[callee.object.name=/^(req|request)$/][callee.property.name=/^(json|text|formData|arrayBuffer|blob|bytes)$/]",
+          selector:
+            "CallExpression[callee.object.name=/^(req|request)$/][callee.property.name=/^(json|text|formData|arrayBuffer|blob|bytes)$/]",
           message: "Read request bodies with lib/http/read-body.ts (streamed, with a byte limit).",
         },
       ],
     },
   },
   {
-    ignores: [".next/**", ".next-test/**", "node_modules/**", ".data/**", "drizzle/**", "test-results/**", "playwright-report/**", "next-env.d.ts"],
+    ignores: [
+      ".next/**",
+      ".next-test/**",
+      "node_modules/**",
+      ".data/**",
+      "drizzle/**",
+      "test-results/**",
+      "playwright-report/**",
+      "next-env.d.ts",
+    ],
   },
 ];
 

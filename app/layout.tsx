@@ -14,7 +14,10 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
   return (
     <html lang="en">
       <body className="min-h-screen antialiased">
-        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-4 focus:top-2 focus:z-50 focus:rounded-sm focus:bg-panel focus:px-3 focus:py-2">
+        <a
+          href="#main"
+          className="sr-only focus:not-sr-only focus:absolute focus:left-4 focus:top-2 focus:z-50 focus:rounded-sm focus:bg-panel focus:px-3 focus:py-2"
+        >
           Skip to content
         </a>
         <SiteHeader />
@@ -22,7 +25,8 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
           <Providers>{children}</Providers>
         </main>
         <footer className="mx-auto max-w-6xl px-4 pb-10 pt-4 text-xs text-muted sm:px-6">
-          Rate parameters are shown as deposited and re-fitted automatically. Extrapolation outside the measured range is unreliable, and safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.
+          Rate parameters are shown as deposited and re-fitted automatically. Extrapolation outside the measured range is unreliable, and
+          safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.
         </footer>
       </body>
     </html>

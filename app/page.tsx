@@ -20,9 +20,9 @@ export default async function HomePage() {
       <section className="space-y-4">
         <h1 className="max-w-3xl text-4xl font-semibold leading-tight">Rate constants you can trace, compare and cite.</h1>
         <p className="max-w-3xl text-lg text-muted">
-          Arrhenia is an open, curated repository of chemical rate-constant data. Researchers deposit k(T) datasets with their conditions and provenance; curators review them; every
-          published version gets its own identifier. Each dataset is re-fitted the same way — Arrhenius, modified Arrhenius and Eyring — with outliers and curvature flagged
-          before anyone copies a number into a mechanism.
+          Arrhenia is an open, curated repository of chemical rate-constant data. Researchers deposit k(T) datasets with their conditions
+          and provenance; curators review them; every published version gets its own identifier. Each dataset is re-fitted the same way —
+          Arrhenius, modified Arrhenius and Eyring — with outliers and curvature flagged before anyone copies a number into a mechanism.
         </p>
         {user && (
           <div className="flex flex-wrap gap-3">
@@ -70,15 +70,23 @@ export default async function HomePage() {
       <section className="grid gap-6 md:grid-cols-3" aria-label="Who Arrhenia is for">
         <div className="card space-y-2">
           <h2 className="text-xl font-semibold">Depositing a dataset</h2>
-          <p className="text-sm text-muted">Turn a table of measured or computed rate constants into a validated record: units converted, species identified, fits and checks run as you type.</p>
+          <p className="text-sm text-muted">
+            Turn a table of measured or computed rate constants into a validated record: units converted, species identified, fits and
+            checks run as you type.
+          </p>
         </div>
         <div className="card space-y-2">
           <h2 className="text-xl font-semibold">Reviewing</h2>
-          <p className="text-sm text-muted">Curators see every automatic check before they decide, and every decision carries a reason on the audit trail.</p>
+          <p className="text-sm text-muted">
+            Curators see every automatic check before they decide, and every decision carries a reason on the audit trail.
+          </p>
         </div>
         <div className="card space-y-2">
           <h2 className="text-xl font-semibold">Modelling</h2>
-          <p className="text-sm text-muted">Find every dataset for a reaction over your temperature window, compare them on one plot, and take parameters with units and a citation of the exact version.</p>
+          <p className="text-sm text-muted">
+            Find every dataset for a reaction over your temperature window, compare them on one plot, and take parameters with units and a
+            citation of the exact version.
+          </p>
         </div>
       </section>
     </div>

@@ -31,29 +31,100 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
   const pad = (Math.max(...xs) - Math.min(...xs)) * 0.05 || 0.1;
   const domain: [number, number] = [Math.min(...xs) - pad, Math.max(...xs) + pad];
   const ticks = niceTicks(domain[0], domain[1]);
-  const fit = band.T.map((t, i) => ({ x: 1000 / t, fit: band.lnk[i], range: band.lower && band.upper ? [band.lower[i], band.upper[i]] : undefined }));
+  const fit = band.T.map((t, i) => ({
+    x: 1000 / t,
+    fit: band.lnk[i],
+    range: band.lower && band.upper ? [band.lower[i], band.upper[i]] : undefined,
+  }));
   const normal = points.filter((p) => !p.outlier).map((p) => ({ x: 1000 / p.T, y: p.lnk, T: p.T }));
   const flagged = points.filter((p) => p.outlier).map((p) => ({ x: 1000 / p.T, y: p.lnk, T: p.T }));
   const fitName = band.model === "modified_arrhenius" ? "modified Arrhenius fit" : "Arrhenius fit";
   return (
     <figure className="space-y-2">
-      <div className="h-96 w-full" role="img" aria-label={`Arrhenius plot of ${points.length} points with the ${fitName} and its 95 % band`}>
+      <div
+        className="h-96 w-full"
+        role="img"
+        aria-label={`Arrhenius plot of ${points.length} points with the ${fitName} and its 95 % band`}
+      >
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 28, right: 24, bottom: 28, left: 16 }}>
             <CartesianGrid stroke="#e6e1d6" />
-            <XAxis xAxisId="inv" dataKey="x" type="number" domain={domain} ticks={ticks} allowDataOverflow label={{ value: "1000 / T  (K⁻¹)", position: "bottom", offset: 8 }} tickFormatter={(v: number) => v.toFixed(2)} />
-            <XAxis xAxisId="T" dataKey="x" type="number" orientation="top" domain={domain} ticks={ticks} allowDataOverflow tickFormatter={(v: number) => (1000 / v).toFixed(0)} label={{ value: "T  (K)", position: "top", offset: 8 }} />
-            <YAxis dataKey="y" type="number" domain={["auto", "auto"]} tickFormatter={(v: number) => v.toFixed(1)} label={{ value: `ln k  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }} width={80} />
-            <Tooltip formatter={(v) => (Array.isArray(v) ? v.map((x) => Number(x).toFixed(3)).join(" … ") : Number(v).toFixed(3))} labelFormatter={(x) => `1000/T = ${Number(x).toFixed(3)} K⁻¹ (T = ${(1000 / Number(x)).toFixed(1)} K)`} />
+            <XAxis
+              xAxisId="inv"
+              dataKey="x"
+              type="number"
+              domain={domain}
+              ticks={ticks}
+              allowDataOverflow
+              label={{ value: "1000 / T  (K⁻¹)", position: "bottom", offset: 8 }}
+              tickFormatter={(v: number) => v.toFixed(2)}
+            />
+            <XAxis
+              xAxisId="T"
+              dataKey="x"
+              type="number"
+              orientation="top"
+              domain={domain}
+              ticks={ticks}
+              allowDataOverflow
+              tickFormatter={(v: number) => (1000 / v).toFixed(0)}
+              label={{ value: "T  (K)", position: "top", offset: 8 }}
+            />
+            <YAxis
+              dataKey="y"
+              type="number"
+              domain={["auto", "auto"]}
+              tickFormatter={(v: number) => v.toFixed(1)}
+              label={{ value: `ln k  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
+              width={80}
+            />
+            <Tooltip
+              formatter={(v) => (Array.isArray(v) ? v.map((x) => Number(x).toFixed(3)).join(" … ") : Number(v).toFixed(3))}
+              labelFormatter={(x) => `1000/T = ${Number(x).toFixed(3)} K⁻¹ (T = ${(1000 / Number(x)).toFixed(1)} K)`}
+            />
             <Legend verticalAlign="bottom" wrapperStyle={{ paddingTop: 24 }} />
-            {band.lower && <Area xAxisId="inv" data={fit} dataKey="range" name="95 % confidence band" stroke="none" fill="#8f4419" fillOpacity={0.15} isAnimationActive={false} />}
-            <Line xAxisId="inv" data={fit} dataKey="fit" name={fitName} stroke="#8f4419" strokeWidth={2} dot={false} isAnimationActive={false} />
+            {band.lower && (
+              <Area
+                xAxisId="inv"
+                data={fit}
+                dataKey="range"
+                name="95 % confidence band"
+                stroke="none"
+                fill="#8f4419"
+                fillOpacity={0.15}
+                isAnimationActive={false}
+              />
+            )}
+            <Line
+              xAxisId="inv"
+              data={fit}
+              dataKey="fit"
+              name={fitName}
+              stroke="#8f4419"
+              strokeWidth={2}
+              dot={false}
+              isAnimationActive={false}
+            />
             <Scatter xAxisId="inv" data={normal} dataKey="y" name="measured" fill="#22537a" shape="circle" isAnimationActive={false} />
-            {flagged.length > 0 && <Scatter xAxisId="inv" data={flagged} dataKey="y" name="flagged as outlier" fill="#a12a2a" shape="cross" legendType="cross" isAnimationActive={false} />}
+            {flagged.length > 0 && (
+              <Scatter
+                xAxisId="inv"
+                data={flagged}
+                dataKey="y"
+                name="flagged as outlier"
+                fill="#a12a2a"
+                shape="cross"
+                legendType="cross"
+                isAnimationActive={false}
+              />
+            )}
           </ComposedChart>
         </ResponsiveContainer>
       </div>
-      <figcaption className="text-xs text-muted">Circles: points used in the fit. Crosses: points flagged as outliers (still part of the fit). Shaded: 95 % confidence band of the {fitName}.</figcaption>
+      <figcaption className="text-xs text-muted">
+        Circles: points used in the fit. Crosses: points flagged as outliers (still part of the fit). Shaded: 95 % confidence band of the{" "}
+        {fitName}.
+      </figcaption>
     </figure>
   );
 }

@@ -13,7 +13,15 @@ const shapes = ["circle", "square", "triangle", "diamond", "star", "cross", "wye
 const colours = ["#22537a", "#8f4419", "#1f6b3a", "#6b3fa0", "#8a5a00", "#0f6e73", "#7a2a4a"];
 
 /** Every public dataset of a reaction on one Arrhenius plot, each with its own shape, and the consensus band. */
-export function ConsensusPlot({ series, band, kUnitLabel }: { series: SeriesPoints[]; band: { T: number[]; lnk: number[]; lower: number[]; upper: number[] } | null; kUnitLabel: string }) {
+export function ConsensusPlot({
+  series,
+  band,
+  kUnitLabel,
+}: {
+  series: SeriesPoints[];
+  band: { T: number[]; lnk: number[]; lower: number[]; upper: number[] } | null;
+  kUnitLabel: string;
+}) {
   const xs = [...series.flatMap((s) => s.points.map((p) => 1000 / p.T)), ...(band?.T.map((t) => 1000 / t) ?? [])];
   if (!xs.length) return null;
   const pad = (Math.max(...xs) - Math.min(...xs)) * 0.05 || 0.1;
@@ -22,17 +30,72 @@ export function ConsensusPlot({ series, band, kUnitLabel }: { series: SeriesPoin
   const fit = band?.T.map((t, i) => ({ x: 1000 / t, fit: band.lnk[i], range: [band.lower[i], band.upper[i]] })) ?? [];
   return (
     <figure className="space-y-2">
-      <div className="h-[28rem] w-full" role="img" aria-label={`Arrhenius plot of ${series.length} datasets${band ? " with the consensus fit and its 95 % band" : ""}`}>
+      <div
+        className="h-[28rem] w-full"
+        role="img"
+        aria-label={`Arrhenius plot of ${series.length} datasets${band ? " with the consensus fit and its 95 % band" : ""}`}
+      >
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 28, right: 24, bottom: 28, left: 16 }}>
             <CartesianGrid stroke="#e6e1d6" />
-            <XAxis xAxisId="inv" dataKey="x" type="number" domain={domain} ticks={ticks} allowDataOverflow tickFormatter={(v: number) => v.toFixed(2)} label={{ value: "1000 / T  (K⁻¹)", position: "bottom", offset: 8 }} />
-            <XAxis xAxisId="T" dataKey="x" type="number" orientation="top" domain={domain} ticks={ticks} allowDataOverflow tickFormatter={(v: number) => (1000 / v).toFixed(0)} label={{ value: "T  (K)", position: "top", offset: 8 }} />
-            <YAxis dataKey="y" type="number" domain={["auto", "auto"]} tickFormatter={(v: number) => v.toFixed(1)} width={80} label={{ value: `ln k  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }} />
-            <Tooltip formatter={(v) => (Array.isArray(v) ? v.map((x) => Number(x).toFixed(3)).join(" … ") : Number(v).toFixed(3))} labelFormatter={(x) => `T = ${(1000 / Number(x)).toFixed(1)} K`} />
+            <XAxis
+              xAxisId="inv"
+              dataKey="x"
+              type="number"
+              domain={domain}
+              ticks={ticks}
+              allowDataOverflow
+              tickFormatter={(v: number) => v.toFixed(2)}
+              label={{ value: "1000 / T  (K⁻¹)", position: "bottom", offset: 8 }}
+            />
+            <XAxis
+              xAxisId="T"
+              dataKey="x"
+              type="number"
+              orientation="top"
+              domain={domain}
+              ticks={ticks}
+              allowDataOverflow
+              tickFormatter={(v: number) => (1000 / v).toFixed(0)}
+              label={{ value: "T  (K)", position: "top", offset: 8 }}
+            />
+            <YAxis
+              dataKey="y"
+              type="number"
+              domain={["auto", "auto"]}
+              tickFormatter={(v: number) => v.toFixed(1)}
+              width={80}
+              label={{ value: `ln k  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
+            />
+            <Tooltip
+              formatter={(v) => (Array.isArray(v) ? v.map((x) => Number(x).toFixed(3)).join(" … ") : Number(v).toFixed(3))}
+              labelFormatter={(x) => `T = ${(1000 / Number(x)).toFixed(1)} K`}
+            />
             <Legend verticalAlign="bottom" wrapperStyle={{ paddingTop: 24 }} />
-            {band && <Area xAxisId="inv" data={fit} dataKey="range" name="consensus 95 % band" stroke="none" fill="#8f4419" fillOpacity={0.12} isAnimationActive={false} />}
-            {band && <Line xAxisId="inv" data={fit} dataKey="fit" name="consensus" stroke="#8f4419" strokeWidth={2} dot={false} isAnimationActive={false} />}
+            {band && (
+              <Area
+                xAxisId="inv"
+                data={fit}
+                dataKey="range"
+                name="consensus 95 % band"
+                stroke="none"
+                fill="#8f4419"
+                fillOpacity={0.12}
+                isAnimationActive={false}
+              />
+            )}
+            {band && (
+              <Line
+                xAxisId="inv"
+                data={fit}
+                dataKey="fit"
+                name="consensus"
+                stroke="#8f4419"
+                strokeWidth={2}
+                dot={false}
+                isAnimationActive={false}
+              />
+            )}
             {series.map((s, i) => (
               <Scatter
                 key={s.label}
@@ -48,7 +111,9 @@ export function ConsensusPlot({ series, band, kUnitLabel }: { series: SeriesPoin
           </ComposedChart>
         </ResponsiveContainer>
       </div>
-      <figcaption className="text-xs text-muted">Each dataset has its own marker shape. Shaded: 95 % band of the consensus, including the spread between datasets.</figcaption>
+      <figcaption className="text-xs text-muted">
+        Each dataset has its own marker shape. Shaded: 95 % band of the consensus, including the spread between datasets.
+      </figcaption>
     </figure>
   );
 }

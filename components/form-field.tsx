@@ -16,7 +16,14 @@ export function FormField({ label, name, error, hint, id, ...rest }: FieldProps)
       <label htmlFor={fieldId} className="block text-sm font-medium">
         {label}
       </label>
-      <input id={fieldId} name={name} aria-invalid={error ? true : undefined} aria-describedby={described} className="field-input" {...rest} />
+      <input
+        id={fieldId}
+        name={name}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={described}
+        className="field-input"
+        {...rest}
+      />
       {hint && (
         <p id={`${fieldId}-hint`} className="text-xs text-muted">
           {hint}

@@ -50,32 +50,101 @@ export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE
             </tr>
           </thead>
           <tbody>
-            <tr><th scope="row" colSpan={3} className="bg-paper">Arrhenius  k = A exp(−Ea/RT){analysis.weighted ? " — weighted by stated uncertainties" : ""}</th></tr>
-            <tr><td>A ({kLabel})</td><td>{sig(a.params.A === null ? null : convertK(a.params.A))}</td><td>{factor(a.se.lnA)}</td></tr>
-            <tr><td>Ea ({energyLabel})</td><td>{sig(convertE(a.params.Ea))}</td><td>{a.se.Ea === null ? "—" : sig(convertE(a.se.Ea), 2)}</td></tr>
-            <tr><td>k(298.15 K) ({kLabel})</td><td>{sig(a.k298.value === null ? null : convertK(a.k298.value))}</td><td>95 %: {sig(a.k298.lower === null ? null : convertK(a.k298.lower), 3)} … {sig(a.k298.upper === null ? null : convertK(a.k298.upper), 3)}</td></tr>
-            <tr><td>R² / residual SD of ln k / dof</td><td colSpan={2}>{sig(a.r2, 5)} / {sig(a.residualSD, 3)} / {a.dof}{a.chi2Reduced !== undefined ? ` — χ²/dof ${sig(a.chi2Reduced, 3)}` : ""}</td></tr>
+            <tr>
+              <th scope="row" colSpan={3} className="bg-paper">
+                Arrhenius k = A exp(−Ea/RT){analysis.weighted ? " — weighted by stated uncertainties" : ""}
+              </th>
+            </tr>
+            <tr>
+              <td>A ({kLabel})</td>
+              <td>{sig(a.params.A === null ? null : convertK(a.params.A))}</td>
+              <td>{factor(a.se.lnA)}</td>
+            </tr>
+            <tr>
+              <td>Ea ({energyLabel})</td>
+              <td>{sig(convertE(a.params.Ea))}</td>
+              <td>{a.se.Ea === null ? "—" : sig(convertE(a.se.Ea), 2)}</td>
+            </tr>
+            <tr>
+              <td>k(298.15 K) ({kLabel})</td>
+              <td>{sig(a.k298.value === null ? null : convertK(a.k298.value))}</td>
+              <td>
+                95 %: {sig(a.k298.lower === null ? null : convertK(a.k298.lower), 3)} …{" "}
+                {sig(a.k298.upper === null ? null : convertK(a.k298.upper), 3)}
+              </td>
+            </tr>
+            <tr>
+              <td>R² / residual SD of ln k / dof</td>
+              <td colSpan={2}>
+                {sig(a.r2, 5)} / {sig(a.residualSD, 3)} / {a.dof}
+                {a.chi2Reduced !== undefined ? ` — χ²/dof ${sig(a.chi2Reduced, 3)}` : ""}
+              </td>
+            </tr>
             {m && (
               <>
-                <tr><th scope="row" colSpan={3} className="bg-paper">Modified Arrhenius  k = A (T/{m.params.T0} K)ⁿ exp(−Ea/RT)</th></tr>
-                <tr><td>A ({kLabel})</td><td>{sig(m.params.A === null ? null : convertK(m.params.A))}</td><td>{factor(m.se.lnA)}</td></tr>
-                <tr><td>n</td><td>{sig(m.params.n)}</td><td>{sig(m.se.n, 2)}</td></tr>
-                <tr><td>Ea ({energyLabel})</td><td>{sig(convertE(m.params.Ea))}</td><td>{m.se.Ea === null ? "—" : sig(convertE(m.se.Ea), 2)}</td></tr>
+                <tr>
+                  <th scope="row" colSpan={3} className="bg-paper">
+                    Modified Arrhenius k = A (T/{m.params.T0} K)ⁿ exp(−Ea/RT)
+                  </th>
+                </tr>
+                <tr>
+                  <td>A ({kLabel})</td>
+                  <td>{sig(m.params.A === null ? null : convertK(m.params.A))}</td>
+                  <td>{factor(m.se.lnA)}</td>
+                </tr>
+                <tr>
+                  <td>n</td>
+                  <td>{sig(m.params.n)}</td>
+                  <td>{sig(m.se.n, 2)}</td>
+                </tr>
+                <tr>
+                  <td>Ea ({energyLabel})</td>
+                  <td>{sig(convertE(m.params.Ea))}</td>
+                  <td>{m.se.Ea === null ? "—" : sig(convertE(m.se.Ea), 2)}</td>
+                </tr>
               </>
             )}
             {e && (
               <>
-                <tr><th scope="row" colSpan={3} className="bg-paper">Eyring (κ = 1)</th></tr>
-                <tr><td>ΔH‡ ({energyLabel})</td><td>{sig(convertE(e.params.dH))}</td><td>{e.se.dH === null ? "—" : sig(convertE(e.se.dH), 2)}</td></tr>
-                <tr><td>ΔS‡ (J mol⁻¹ K⁻¹)</td><td>{sig(e.params.dS)}</td><td>{sig(e.se.dS, 2)}</td></tr>
-                <tr><td colSpan={3} className="text-xs text-muted">{e.convention}</td></tr>
+                <tr>
+                  <th scope="row" colSpan={3} className="bg-paper">
+                    Eyring (κ = 1)
+                  </th>
+                </tr>
+                <tr>
+                  <td>ΔH‡ ({energyLabel})</td>
+                  <td>{sig(convertE(e.params.dH))}</td>
+                  <td>{e.se.dH === null ? "—" : sig(convertE(e.se.dH), 2)}</td>
+                </tr>
+                <tr>
+                  <td>ΔS‡ (J mol⁻¹ K⁻¹)</td>
+                  <td>{sig(e.params.dS)}</td>
+                  <td>{sig(e.se.dS, 2)}</td>
+                </tr>
+                <tr>
+                  <td colSpan={3} className="text-xs text-muted">
+                    {e.convention}
+                  </td>
+                </tr>
               </>
             )}
             {c && (
               <>
-                <tr><th scope="row" colSpan={3} className="bg-paper">Curvature test (modified against plain Arrhenius)</th></tr>
-                <tr><td>F (1, {analysis.n - 3}) / p</td><td colSpan={2}>{sig(c.F, 3)} / {sig(c.p, 2)}</td></tr>
-                <tr><td>ΔAICc (modified − plain)</td><td colSpan={2}>{sig(c.deltaAICc, 3)}</td></tr>
+                <tr>
+                  <th scope="row" colSpan={3} className="bg-paper">
+                    Curvature test (modified against plain Arrhenius)
+                  </th>
+                </tr>
+                <tr>
+                  <td>F (1, {analysis.n - 3}) / p</td>
+                  <td colSpan={2}>
+                    {sig(c.F, 3)} / {sig(c.p, 2)}
+                  </td>
+                </tr>
+                <tr>
+                  <td>ΔAICc (modified − plain)</td>
+                  <td colSpan={2}>{sig(c.deltaAICc, 3)}</td>
+                </tr>
               </>
             )}
           </tbody>
@@ -93,7 +162,12 @@ export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE
               <li key={i} className={`rounded-md border bg-panel px-3 py-2 text-sm ${severityStyle[f.severity]}`}>
                 <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold uppercase tracking-wide">{f.severity}</span>
                 {f.message}
-                {f.points && f.points.length > 0 && <span className="block text-xs text-muted">{pointWord}{f.points.length > 1 ? "s" : ""}: {f.points.map((p) => lineOf(p) ?? p + 1).join(", ")}</span>}
+                {f.points && f.points.length > 0 && (
+                  <span className="block text-xs text-muted">
+                    {pointWord}
+                    {f.points.length > 1 ? "s" : ""}: {f.points.map((p) => lineOf(p) ?? p + 1).join(", ")}
+                  </span>
+                )}
               </li>
             ))}
           </ul>

@@ -28,7 +28,13 @@ export async function SiteHeader() {
           <label htmlFor="site-search" className="sr-only">
             Search datasets
           </label>
-          <input id="site-search" name="q" type="search" placeholder="Search reactions, species, authors…" className="field-input max-w-md" />
+          <input
+            id="site-search"
+            name="q"
+            type="search"
+            placeholder="Search reactions, species, authors…"
+            className="field-input max-w-md"
+          />
         </form>
         <nav aria-label="Main" className="flex items-center gap-4 text-sm">
           {links.map((l) => (

@@ -17,7 +17,11 @@ const tone: Record<string, string> = {
 
 /** A version's lifecycle state in plain words (text, not colour alone, carries the meaning). */
 export function StateLabel({ state }: { state: string }) {
-  return <span className={`inline-block rounded-sm border bg-panel px-1.5 py-0.5 text-xs font-medium ${tone[state] ?? "border-line text-ink"}`}>{words[state] ?? state}</span>;
+  return (
+    <span className={`inline-block rounded-sm border bg-panel px-1.5 py-0.5 text-xs font-medium ${tone[state] ?? "border-line text-ink"}`}>
+      {words[state] ?? state}
+    </span>
+  );
 }
 
 /** Worst check severity as a word. */

@@ -7,7 +7,15 @@ import { ArrheniusPlot } from "./arrhenius-plot";
 import { ResultTables } from "./result-tables";
 
 /** A stored version's fit: plot, parameters in units the reader picks, and the checks. */
-export function VersionFit({ analysis, order, points }: { analysis: AnalysisResult; order: ReactionOrder; points: { T: number; k: number }[] }) {
+export function VersionFit({
+  analysis,
+  order,
+  points,
+}: {
+  analysis: AnalysisResult;
+  order: ReactionOrder;
+  points: { T: number; k: number }[];
+}) {
   const kUnits = SUPPORTED_UNITS.rateConstant[order];
   const [kUnit, setKUnit] = useState<string>(kUnits[0].id);
   const [energyUnit, setEnergyUnit] = useState("kJ mol-1");
@@ -37,7 +45,11 @@ export function VersionFit({ analysis, order, points }: { analysis: AnalysisResu
         </label>
       </div>
       <div className="card">
-        <ArrheniusPlot kUnitLabel={kUnits[0].label} band={analysis.band} points={points.map((p, i) => ({ T: p.T, lnk: Math.log(p.k), outlier: outliers.has(i) }))} />
+        <ArrheniusPlot
+          kUnitLabel={kUnits[0].label}
+          band={analysis.band}
+          points={points.map((p, i) => ({ T: p.T, lnk: Math.log(p.k), outlier: outliers.has(i) }))}
+        />
       </div>
       <ResultTables
         analysis={analysis}

@@ -27,7 +27,10 @@ export const speciesNames = pgTable(
       .references(() => species.id, { onDelete: "cascade" }),
     name: text().notNull(),
   },
-  (t) => [uniqueIndex("species_names_key").on(t.speciesId, sql`lower(${t.name})`), index("species_names_name_idx").on(sql`lower(${t.name})`)],
+  (t) => [
+    uniqueIndex("species_names_key").on(t.speciesId, sql`lower(${t.name})`),
+    index("species_names_name_idx").on(sql`lower(${t.name})`),
+  ],
 );
 
 export const reactionSideEnum = pgEnum("reaction_side", ["reactant", "product"]);

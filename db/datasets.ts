@@ -1,9 +1,30 @@
-import { bigint, boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import {
+  bigint,
+  boolean,
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgEnum,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  uniqueIndex,
+} from "drizzle-orm/pg-core";
 import { reactions } from "./chemistry";
 import { users } from "./users";
 
 /** Lifecycle of one version: draft → submitted → in_review → changes_requested → … → published | declined; published → retracted. */
-export const versionStateEnum = pgEnum("version_state", ["draft", "submitted", "in_review", "changes_requested", "published", "declined", "retracted"]);
+export const versionStateEnum = pgEnum("version_state", [
+  "draft",
+  "submitted",
+  "in_review",
+  "changes_requested",
+  "published",
+  "declined",
+  "retracted",
+]);
 export const coEditorRoleEnum = pgEnum("co_editor_role", ["owner", "editor", "viewer"]);
 export const decisionEnum = pgEnum("decision", ["accept", "request_changes", "decline"]);
 

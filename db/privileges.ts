@@ -9,7 +9,11 @@ import type { Sql } from "postgres";
 const ROW_SCHEMAS = ["public", "pgboss"] as const;
 
 /** Append-only tables: the runtime role lacks these privileges (the triggers refuse them too). */
-const WITHHELD: Record<string, string> = { decisions: "UPDATE, DELETE", audit_events: "UPDATE, DELETE", identifier_registrations: "DELETE" };
+const WITHHELD: Record<string, string> = {
+  decisions: "UPDATE, DELETE",
+  audit_events: "UPDATE, DELETE",
+  identifier_registrations: "DELETE",
+};
 
 /** Triggers that freeze published data (drizzle/0002, drizzle/0007); each must exist and fire. */
 export const FREEZE_TRIGGERS = [
@@ -90,9 +94,15 @@ const none = (xs: string[]) => (xs.length ? xs.join(", ") : "none");
 
 /** Inspects the connected role: every way it could alter a frozen row, and its table privileges. */
 export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string; checks: PrivilegeCheck[]; tables: TablePrivileges[] }> {
-  const [me] = await sql<{ role: string; rolsuper: boolean; rolcreaterole: boolean; rolcreatedb: boolean; rolreplication: boolean; rolbypassrls: boolean }[]>`
+  const [me] = await sql<
+    { role: string; rolsuper: boolean; rolcreaterole: boolean; rolcreatedb: boolean; rolreplication: boolean; rolbypassrls: boolean }[]
+  >`
     select current_user as role, rolsuper, rolcreaterole, rolcreatedb, rolreplication, rolbypassrls from pg_roles where rolname = current_user`;
-  const asRoles = (await sql<{ name: string }[]>`select rolname as name from pg_roles where rolname <> current_user and pg_has_role(current_user, oid, 'MEMBER') order by 1`).map((r) => r.name);
+  const asRoles = (
+    await sql<
+      { name: string }[]
+    >`select rolname as name from pg_roles where rolname <> current_user and pg_has_role(current_user, oid, 'MEMBER') order by 1`
+  ).map((r) => r.name);
   const owned = (
     await sql<{ name: string }[]>`
       select n.nspname || '.' || c.relname as name from pg_class c join pg_namespace n on n.oid = c.relnamespace
@@ -109,10 +119,16 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
       has_table_privilege(c.oid, 'TRIGGER') as trigger
     from pg_class c join pg_namespace n on n.oid = c.relnamespace
     where c.relkind in ('r', 'p') and n.nspname in ('public', 'pgboss', 'drizzle') order by 1`;
-  const schemasWithCreate = (await sql<{ name: string }[]>`select nspname as name from pg_namespace where has_schema_privilege(oid, 'CREATE') and nspname not like 'pg_temp%' and nspname not like 'pg_toast%' order by 1`).map((r) => r.name);
+  const schemasWithCreate = (
+    await sql<
+      { name: string }[]
+    >`select nspname as name from pg_namespace where has_schema_privilege(oid, 'CREATE') and nspname not like 'pg_temp%' and nspname not like 'pg_toast%' order by 1`
+  ).map((r) => r.name);
   const [db] = await sql<{ create: boolean; replication: boolean }[]>`
     select has_database_privilege(current_database(), 'CREATE') as create, has_parameter_privilege('session_replication_role', 'SET') as replication`;
-  const triggers = await sql<{ name: string; enabled: string }[]>`select tgname as name, tgenabled as enabled from pg_trigger where tgname = any(${FREEZE_TRIGGERS})`;
+  const triggers = await sql<
+    { name: string; enabled: string }[]
+  >`select tgname as name, tgenabled as enabled from pg_trigger where tgname = any(${FREEZE_TRIGGERS})`;
   const missing = FREEZE_TRIGGERS.filter((t) => !triggers.some((x) => x.name === t && (x.enabled === "O" || x.enabled === "A")));
   const appendOnlyWritable = tables
     .filter((t) => (t.table === "public.decisions" || t.table === "public.audit_events") && (t.update || t.delete))
@@ -126,10 +142,18 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     { check: "replication", found: String(me.rolreplication), ok: !me.rolreplication },
     { check: "bypasses row-level security", found: String(me.rolbypassrls), ok: !me.rolbypassrls },
     { check: "member of (may act as) roles", found: none(asRoles), ok: asRoles.length === 0 },
-    { check: "owns objects", found: owned.length ? `${owned.length}: ${owned.slice(0, 5).join(", ")}${owned.length > 5 ? ", …" : ""}` : "none", ok: owned.length === 0 },
+    {
+      check: "owns objects",
+      found: owned.length ? `${owned.length}: ${owned.slice(0, 5).join(", ")}${owned.length > 5 ? ", …" : ""}` : "none",
+      ok: owned.length === 0,
+    },
     ...(["truncate", "trigger", "references"] as const).map((p) => {
       const on = tables.filter((t) => t[p]).map((t) => t.table);
-      return { check: `${p.toUpperCase()} on tables`, found: on.length ? `${on.length}: ${on.slice(0, 3).join(", ")}${on.length > 3 ? ", …" : ""}` : "none", ok: on.length === 0 };
+      return {
+        check: `${p.toUpperCase()} on tables`,
+        found: on.length ? `${on.length}: ${on.slice(0, 3).join(", ")}${on.length > 3 ? ", …" : ""}` : "none",
+        ok: on.length === 0,
+      };
     }),
     { check: "CREATE on schemas", found: none(schemasWithCreate), ok: schemasWithCreate.length === 0 },
     { check: "CREATE on the database", found: String(db.create), ok: !db.create },
@@ -157,6 +181,10 @@ export function formatTable(rows: Record<string, unknown>[]): string {
   const cols = Object.keys(rows[0]);
   const cell = (v: unknown) => (typeof v === "boolean" ? (v ? "yes" : "-") : String(v));
   const width = cols.map((c) => Math.max(c.length, ...rows.map((r) => cell(r[c]).length)));
-  const line = (vals: string[]) => vals.map((v, i) => v.padEnd(width[i])).join("  ").trimEnd();
+  const line = (vals: string[]) =>
+    vals
+      .map((v, i) => v.padEnd(width[i]))
+      .join("  ")
+      .trimEnd();
   return [line(cols), line(width.map((w) => "-".repeat(w))), ...rows.map((r) => line(cols.map((c) => cell(r[c]))))].join("\n");
 }

@@ -3,19 +3,33 @@
 // assertValidConfig() so a bad value stops the app with one clear message instead of failing later.
 import { z } from "zod";
 
-const port = z.coerce.number({ error: "must be a port number" }).int("must be a whole number").min(1, "must be 1–65535").max(65535, "must be 1–65535");
+const port = z.coerce
+  .number({ error: "must be a port number" })
+  .int("must be a whole number")
+  .min(1, "must be 1–65535")
+  .max(65535, "must be 1–65535");
 const httpUrl = z.string().regex(/^https?:\/\/[^\s/]+/, "must be an http(s):// address");
 const wholeNumber = (min: number, max: number) =>
-  z.coerce.number({ error: "must be a number" }).int("must be a whole number").min(min, `must be ${min}–${max}`).max(max, `must be ${min}–${max}`);
+  z.coerce
+    .number({ error: "must be a number" })
+    .int("must be a whole number")
+    .min(min, `must be ${min}–${max}`)
+    .max(max, `must be ${min}–${max}`);
 const flag = z.enum(["0", "1"], { error: "must be 0 or 1" });
 
 /** Each variable's rule; `secret` ones are never echoed in error messages. */
 const variables = {
   DATABASE_URL: { schema: z.string().regex(/^postgres(ql)?:\/\/\S+$/, "must be a postgres:// or postgresql:// URL"), secret: true },
-  MIGRATION_DATABASE_URL: { schema: z.string().regex(/^postgres(ql)?:\/\/\S+$/, "must be a postgres:// or postgresql:// URL"), secret: true },
+  MIGRATION_DATABASE_URL: {
+    schema: z.string().regex(/^postgres(ql)?:\/\/\S+$/, "must be a postgres:// or postgresql:// URL"),
+    secret: true,
+  },
   APP_URL: { schema: httpUrl },
   NEXTAUTH_URL: { schema: httpUrl },
-  NEXTAUTH_SECRET: { schema: z.string().min(16, "must be at least 16 characters (npm start generates one into .data/auth-secret)"), secret: true },
+  NEXTAUTH_SECRET: {
+    schema: z.string().min(16, "must be at least 16 characters (npm start generates one into .data/auth-secret)"),
+    secret: true,
+  },
   PORT: { schema: port },
   HOST: { schema: z.string().regex(/^[\w.:-]+$/, "must be a host name or an IP address") },
   SMTP_URL: { schema: z.string().regex(/^smtps?:\/\/\S+$/, "must be an smtp:// or smtps:// URL"), secret: true },
@@ -27,16 +41,34 @@ const variables = {
   DOI_API_PASSWORD: { schema: z.string(), secret: true, keepEmpty: true },
   DOI_FAKE_PORT: { schema: port },
   DOI_FAKE_DATA_DIR: { schema: z.string(), keepEmpty: true },
-  BCRYPT_ROUNDS: { schema: z.coerce.number({ error: "must be a number" }).int("must be a whole number").min(4, "must be 4–15").max(15, "must be 4–15 (each step doubles the time of a sign-in)") },
-  DB_POOL_SIZE: { schema: z.coerce.number({ error: "must be a number" }).int("must be a whole number").min(1, "must be 1–100").max(100, "must be 1–100") },
-  JOB_RETRY_DELAY_SECONDS: { schema: z.coerce.number({ error: "must be a number" }).int("must be a whole number").min(0, "must be 0–86400").max(86400, "must be 0–86400") },
+  BCRYPT_ROUNDS: {
+    schema: z.coerce
+      .number({ error: "must be a number" })
+      .int("must be a whole number")
+      .min(4, "must be 4–15")
+      .max(15, "must be 4–15 (each step doubles the time of a sign-in)"),
+  },
+  DB_POOL_SIZE: {
+    schema: z.coerce.number({ error: "must be a number" }).int("must be a whole number").min(1, "must be 1–100").max(100, "must be 1–100"),
+  },
+  JOB_RETRY_DELAY_SECONDS: {
+    schema: z.coerce
+      .number({ error: "must be a number" })
+      .int("must be a whole number")
+      .min(0, "must be 0–86400")
+      .max(86400, "must be 0–86400"),
+  },
   STORAGE_DIR: { schema: z.string().min(1) },
   SEED_DATASETS: { schema: flag },
   SERVE_QUIET: { schema: flag },
   ANALYSIS_THREADS: { schema: wholeNumber(1, 64) },
   ANALYSIS_QUEUE_LIMIT: { schema: wholeNumber(1, 10_000) },
   ANALYSIS_TIMEOUT_MS: { schema: wholeNumber(1, 3_600_000) },
-  TRUST_PROXY: { schema: z.string().regex(/^[\w.:/,\s-]*$/, "must be a hop count or a comma-separated list of addresses, CIDR ranges, loopback or uniquelocal") },
+  TRUST_PROXY: {
+    schema: z
+      .string()
+      .regex(/^[\w.:/,\s-]*$/, "must be a hop count or a comma-separated list of addresses, CIDR ranges, loopback or uniquelocal"),
+  },
   ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
 } satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
 

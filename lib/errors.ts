@@ -69,9 +69,17 @@ export function storageRefusal(err: unknown): AppError | null {
     const { code, message } = e as { code?: unknown; message?: unknown };
     if (typeof code !== "string") continue;
     if (REFUSED_VALUE_STATES.has(code) || (code === "22P02" && typeof message === "string" && /json|unicode/i.test(message))) {
-      return new AppError("validation_failed", "A value in the request cannot be stored (text with U+0000 or a lone surrogate, or a number out of range); nothing was stored", [
-        { pointer: "", message: "A value cannot be stored: remove U+0000 and lone surrogates from text, and keep numbers within their documented ranges." },
-      ]);
+      return new AppError(
+        "validation_failed",
+        "A value in the request cannot be stored (text with U+0000 or a lone surrogate, or a number out of range); nothing was stored",
+        [
+          {
+            pointer: "",
+            message:
+              "A value cannot be stored: remove U+0000 and lone surrogates from text, and keep numbers within their documented ranges.",
+          },
+        ],
+      );
     }
   }
   return null;

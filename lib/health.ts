@@ -29,4 +29,3 @@ export async function checkDatabase(timeoutMs = 2000): Promise<DatabaseHealth> {
     clearTimeout(timer);
   }
 }
-

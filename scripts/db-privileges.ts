@@ -9,11 +9,29 @@ const sql = postgres(databaseUrl(), { max: 1, onnotice: () => {} });
 try {
   const { role, checks, tables } = await inspectRuntimePrivileges(sql);
   console.log(`Role ${role}: table privileges\n`);
-  console.log(formatTable(tables.map((t) => ({ table: t.table, owner: t.owner, SELECT: t.select, INSERT: t.insert, UPDATE: t.update, DELETE: t.delete, TRUNCATE: t.truncate, REFERENCES: t.references, TRIGGER: t.trigger }))));
+  console.log(
+    formatTable(
+      tables.map((t) => ({
+        table: t.table,
+        owner: t.owner,
+        SELECT: t.select,
+        INSERT: t.insert,
+        UPDATE: t.update,
+        DELETE: t.delete,
+        TRUNCATE: t.truncate,
+        REFERENCES: t.references,
+        TRIGGER: t.trigger,
+      })),
+    ),
+  );
   console.log(`\nRole ${role}: ways to alter a frozen row\n`);
   console.log(formatTable(checks.map((c) => ({ check: c.check, found: c.found, result: c.ok ? "ok" : "FAIL" }))));
   const failed = checks.filter((c) => !c.ok);
-  console.log(failed.length ? `\n${failed.length} check(s) failed: role ${role} could alter published data` : `\nrole ${role} cannot alter published data`);
+  console.log(
+    failed.length
+      ? `\n${failed.length} check(s) failed: role ${role} could alter published data`
+      : `\nrole ${role} cannot alter published data`,
+  );
   process.exitCode = failed.length ? 1 : 0;
 } finally {
   await sql.end();

@@ -6,7 +6,10 @@ import { listStaleVersions, refitVersion } from "@/lib/datasets/refit";
 
 const ids = await listStaleVersions();
 console.log(`[arrhenia] engine ${ENGINE_VERSION}: ${ids.length} version(s) to re-fit`);
-const bar = new SingleBar({ format: "  {bar} {value}/{total} versions | {refitted} re-fitted, {invalid} not fittable", hideCursor: true }, Presets.shades_classic);
+const bar = new SingleBar(
+  { format: "  {bar} {value}/{total} versions | {refitted} re-fitted, {invalid} not fittable", hideCursor: true },
+  Presets.shades_classic,
+);
 const counts = { refitted: 0, current: 0, invalid: 0 };
 bar.start(ids.length, 0, counts);
 for (const versionId of ids) {
@@ -14,5 +17,7 @@ for (const versionId of ids) {
   bar.increment(1, counts);
 }
 bar.stop();
-console.log(`[arrhenia] done: ${counts.refitted} re-fitted, ${counts.current} already current, ${counts.invalid} could not be fitted (their analysis records why)`);
+console.log(
+  `[arrhenia] done: ${counts.refitted} re-fitted, ${counts.current} already current, ${counts.invalid} could not be fitted (their analysis records why)`,
+);
 process.exit(0);

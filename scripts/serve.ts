@@ -5,7 +5,22 @@
 import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import postgres from "postgres";
-import { assertValidConfig, captureSmtpPort, ConfigError, databaseUrl, doiApiAuth, doiApiUrl, doiFakePort, fakeDoiDataDir, serveQuiet, serverHost, serverPort, trustProxy, usesFakeDoiService, usesMailCapture } from "@/lib/config";
+import {
+  assertValidConfig,
+  captureSmtpPort,
+  ConfigError,
+  databaseUrl,
+  doiApiAuth,
+  doiApiUrl,
+  doiFakePort,
+  fakeDoiDataDir,
+  serveQuiet,
+  serverHost,
+  serverPort,
+  trustProxy,
+  usesFakeDoiService,
+  usesMailCapture,
+} from "@/lib/config";
 import { compileTrustProxy, freeLoopbackPort, startEdgeProxy } from "@/lib/auth/edge-proxy";
 import { startFakeDoiService } from "@/lib/identifiers/fake-service";
 import { doiPrefix } from "@/lib/identifiers/mint";
@@ -35,13 +50,18 @@ process.env.ARRHENIA_EDGE_KEY = edgeKey;
 
 const sql = postgres(databaseUrl(), { max: 2, onnotice: () => {} });
 const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captureSmtpPort() }) : null;
-const fakeDoi = usesFakeDoiService() ? await startFakeDoiService({ port: doiFakePort(), dataDir: fakeDoiDataDir(), auth: doiApiAuth() }) : null;
+const fakeDoi = usesFakeDoiService()
+  ? await startFakeDoiService({ port: doiFakePort(), dataDir: fakeDoiDataDir(), auth: doiApiAuth() })
+  : null;
 const workers = await startWorkers();
 const pendingIdentifiers = await enqueuePendingIdentifierRegistrations();
 const staleRefits = await enqueueStaleRefits();
 
 const innerPort = await freeLoopbackPort();
-const next = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", String(innerPort)], { stdio: ["ignore", "inherit", "inherit"], env: process.env });
+const next = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", String(innerPort)], {
+  stdio: ["ignore", "inherit", "inherit"],
+  env: process.env,
+});
 const edge = await startEdgeProxy({ host, port, upstreamPort: innerPort, trust, key: edgeKey });
 
 let stopping = false;

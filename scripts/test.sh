@@ -42,7 +42,7 @@ single() { if "$@" >&2; then echo "1 0"; else echo "0 1"; fi; }
 log "migrate + seed + runtime role's privileges"
 if "${TSX[@]}" scripts/migrate.ts && "${TSX[@]}" scripts/seed.ts && "${TSX[@]}" scripts/db-privileges.ts >&2; then tier setup 1 0; else tier setup 0 1; fi
 
-want lint && { log "lint"; read -r p f < <(single node_modules/.bin/eslint --max-warnings=0 .); tier lint "$p" "$f"; }
+want lint && { log "lint"; read -r p f < <(single bash -c "node_modules/.bin/eslint --max-warnings=0 . && node_modules/.bin/prettier --check . >/dev/null"); tier lint "$p" "$f"; }
 want typecheck && { log "typecheck"; read -r p f < <(single node_modules/.bin/tsc --noEmit); tier typecheck "$p" "$f"; }
 
 count_vitest() { node -e 'try{const r=require(process.argv[1]);console.log(r.numPassedTests,r.numFailedTests+(r.numRuntimeErrorTestSuites||0)+(r.success===false&&r.numFailedTests===0?1:0))}catch{console.log("0 1")}' "$1"; }

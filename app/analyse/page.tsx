@@ -9,8 +9,9 @@ export default function AnalysePage() {
       <header className="space-y-2">
         <h1 className="text-3xl font-semibold">Fit your own data</h1>
         <p className="max-w-3xl text-muted">
-          Paste temperatures and rate constants to see them fitted exactly as every Arrhenia dataset is: Arrhenius, modified Arrhenius and Eyring, with outliers, curvature, range and
-          scatter checked. Nothing you paste is stored. Scripts can do the same through <code>POST /api/v1/analyses</code>.
+          Paste temperatures and rate constants to see them fitted exactly as every Arrhenia dataset is: Arrhenius, modified Arrhenius and
+          Eyring, with outliers, curvature, range and scatter checked. Nothing you paste is stored. Scripts can do the same through{" "}
+          <code>POST /api/v1/analyses</code>.
         </p>
       </header>
       <AnalyseWorkbench />

@@ -25,7 +25,11 @@ const EXAMPLE = `# T/K   k/(cm3 molecule-1 s-1)
 400   2.17e-14`;
 
 async function postAnalysis(body: unknown): Promise<AnalysisResponse> {
-  const res = await fetch("/api/v1/analyses", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+  const res = await fetch("/api/v1/analyses", {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify(body),
+  });
   const json = await res.json().catch(() => ({ title: `The server answered ${res.status}` }));
   if (!res.ok) throw json as Problem;
   return json as AnalysisResponse;
@@ -38,7 +42,9 @@ export function AnalyseWorkbench() {
   const [TUnit, setTUnit] = useState("K");
   const [energyUnit, setEnergyUnit] = useState("kJ mol-1");
   const parsed = useMemo(() => parseColumns(text), [text]);
-  const mutation = useMutation<AnalysisResponse, Problem, { lines: number[]; body: unknown }>({ mutationFn: ({ body }) => postAnalysis(body) });
+  const mutation = useMutation<AnalysisResponse, Problem, { lines: number[]; body: unknown }>({
+    mutationFn: ({ body }) => postAnalysis(body),
+  });
 
   // A result belongs to the units and order it was fitted with: changing them clears it.
   function changeKUnit(next: string) {
@@ -80,9 +86,19 @@ export function AnalyseWorkbench() {
           <label htmlFor="points" className="block text-sm font-medium">
             Data: temperature and rate constant, one point per line (optional third column: σ of ln k)
           </label>
-          <textarea id="points" value={text} onChange={(e) => setText(e.target.value)} rows={12} spellCheck={false} className="field-input font-mono" aria-invalid={parsed.errors.length > 0} aria-describedby="paste-help row-errors" />
+          <textarea
+            id="points"
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+            rows={12}
+            spellCheck={false}
+            className="field-input font-mono"
+            aria-invalid={parsed.errors.length > 0}
+            aria-describedby="paste-help row-errors"
+          />
           <p id="paste-help" className="text-xs text-muted">
-            Paste from a spreadsheet: tabs, commas, semicolons or spaces separate columns; a header line and lines starting with # are skipped. {parsed.points.length} point{parsed.points.length === 1 ? "" : "s"} read.
+            Paste from a spreadsheet: tabs, commas, semicolons or spaces separate columns; a header line and lines starting with # are
+            skipped. {parsed.points.length} point{parsed.points.length === 1 ? "" : "s"} read.
           </p>
           {parsed.errors.length > 0 && (
             <ul id="row-errors" role="alert" className="space-y-1 text-sm text-error">
@@ -94,15 +110,48 @@ export function AnalyseWorkbench() {
           )}
         </div>
         <div className="space-y-4">
-          <Select label="Reaction order" value={String(order)} onChange={(v) => changeOrder(Number(v) as ReactionOrder)} options={[["1", "1 (unimolecular)"], ["2", "2 (bimolecular)"], ["3", "3 (termolecular)"]]} />
-          <Select label="Unit of k" value={kUnit} onChange={changeKUnit} options={SUPPORTED_UNITS.rateConstant[order].map((u) => [u.id, u.label])} />
-          <Select label="Unit of T" value={TUnit} onChange={changeTUnit} options={SUPPORTED_UNITS.temperature.map((u) => [u.id, u.label])} />
-          <Select label="Show energies in" value={energyUnit} onChange={setEnergyUnit} options={SUPPORTED_UNITS.energy.map((u) => [u.id, u.label])} />
-          <button type="submit" className="btn-primary w-full" disabled={mutation.isPending || parsed.errors.length > 0 || parsed.points.length < 2} aria-describedby="fit-needs">
+          <Select
+            label="Reaction order"
+            value={String(order)}
+            onChange={(v) => changeOrder(Number(v) as ReactionOrder)}
+            options={[
+              ["1", "1 (unimolecular)"],
+              ["2", "2 (bimolecular)"],
+              ["3", "3 (termolecular)"],
+            ]}
+          />
+          <Select
+            label="Unit of k"
+            value={kUnit}
+            onChange={changeKUnit}
+            options={SUPPORTED_UNITS.rateConstant[order].map((u) => [u.id, u.label])}
+          />
+          <Select
+            label="Unit of T"
+            value={TUnit}
+            onChange={changeTUnit}
+            options={SUPPORTED_UNITS.temperature.map((u) => [u.id, u.label])}
+          />
+          <Select
+            label="Show energies in"
+            value={energyUnit}
+            onChange={setEnergyUnit}
+            options={SUPPORTED_UNITS.energy.map((u) => [u.id, u.label])}
+          />
+          <button
+            type="submit"
+            className="btn-primary w-full"
+            disabled={mutation.isPending || parsed.errors.length > 0 || parsed.points.length < 2}
+            aria-describedby="fit-needs"
+          >
             {mutation.isPending ? "Fitting…" : "Fit"}
           </button>
           <p id="fit-needs" className="text-xs text-muted">
-            {parsed.errors.length > 0 ? "Correct the lines marked above to fit." : parsed.points.length < 2 ? "Paste at least two points at two different temperatures." : "Changing a unit or the order clears the result; fit again."}
+            {parsed.errors.length > 0
+              ? "Correct the lines marked above to fit."
+              : parsed.points.length < 2
+                ? "Paste at least two points at two different temperatures."
+                : "Changing a unit or the order clears the result; fit again."}
           </p>
         </div>
       </form>
@@ -131,7 +180,11 @@ export function AnalyseWorkbench() {
             <ArrheniusPlot
               kUnitLabel={canonicalLabel}
               band={result.analysis.band}
-              points={parsed.points.map((p, i) => ({ T: toKelvin(p.T, TUnit), lnk: Math.log(toCanonicalRateConstant(p.k, kUnit, order)), outlier: outliers.has(i) }))}
+              points={parsed.points.map((p, i) => ({
+                T: toKelvin(p.T, TUnit),
+                lnk: Math.log(toCanonicalRateConstant(p.k, kUnit, order)),
+                outlier: outliers.has(i),
+              }))}
             />
           </div>
           <ResultTables
@@ -151,7 +204,17 @@ export function AnalyseWorkbench() {
   );
 }
 
-function Select({ label, value, onChange, options }: { label: string; value: string; onChange: (v: string) => void; options: (readonly [string, string])[] | [string, string][] }) {
+function Select({
+  label,
+  value,
+  onChange,
+  options,
+}: {
+  label: string;
+  value: string;
+  onChange: (v: string) => void;
+  options: (readonly [string, string])[] | [string, string][];
+}) {
   const id = `select-${label.toLowerCase().replace(/\W+/g, "-")}`;
   return (
     <div className="space-y-1">

@@ -42,22 +42,41 @@ const createDraft = protectedCall(z.object({ documentJson }).strict(), { permiss
   return v;
 });
 
-const saveDraft = protectedCall(z.object({ versionId: versionIdSchema, lockVersion, documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
-  const v = await updateDraft({ actor: user, versionId: input.versionId, expectedLockVersion: input.lockVersion, document: documentOrThrow(input.documentJson) });
-  revalidatePath(`/deposits/${input.versionId}`);
-  return v;
-});
+const saveDraft = protectedCall(
+  z.object({ versionId: versionIdSchema, lockVersion, documentJson }).strict(),
+  { permission: "dataset.deposit" },
+  async (input, user) => {
+    const v = await updateDraft({
+      actor: user,
+      versionId: input.versionId,
+      expectedLockVersion: input.lockVersion,
+      document: documentOrThrow(input.documentJson),
+    });
+    revalidatePath(`/deposits/${input.versionId}`);
+    return v;
+  },
+);
 
-const transitionRun = protectedCall(z.object({ versionId: versionIdSchema, transition: transitionSchema, reason: reasonSchema }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
-  // Role, dataset role and state are re-read inside the transaction (lib/curation/transitions.ts).
-  const out = await transitionVersion({ actor: user, versionId: input.versionId, transition: input.transition, reason: input.reason });
-  revalidatePath(`/deposits/${input.versionId}`);
-  revalidatePath("/review");
-  return out;
-});
+const transitionRun = protectedCall(
+  z.object({ versionId: versionIdSchema, transition: transitionSchema, reason: reasonSchema }).strict(),
+  { permission: "dataset.deposit" },
+  async (input, user) => {
+    // Role, dataset role and state are re-read inside the transaction (lib/curation/transitions.ts).
+    const out = await transitionVersion({ actor: user, versionId: input.versionId, transition: input.transition, reason: input.reason });
+    revalidatePath(`/deposits/${input.versionId}`);
+    revalidatePath("/review");
+    return out;
+  },
+);
 
 const invite = protectedCall(
-  z.object({ versionId: versionIdSchema, email: z.string().trim().toLowerCase().max(320).email("Enter an e-mail address"), role: z.enum(["editor", "viewer"]) }).strict(),
+  z
+    .object({
+      versionId: versionIdSchema,
+      email: z.string().trim().toLowerCase().max(320).email("Enter an e-mail address"),
+      role: z.enum(["editor", "viewer"]),
+    })
+    .strict(),
   { permission: "dataset.deposit" },
   async (input, user) => {
     await inviteCoEditor({ actor: user, versionId: input.versionId, email: input.email, role: input.role });
@@ -65,11 +84,15 @@ const invite = protectedCall(
   },
 );
 
-const startNext = protectedCall(z.object({ versionId: versionIdSchema }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
-  const v = await startNextVersion({ actor: user, versionId: input.versionId });
-  revalidatePath("/deposits");
-  return v;
-});
+const startNext = protectedCall(
+  z.object({ versionId: versionIdSchema }).strict(),
+  { permission: "dataset.deposit" },
+  async (input, user) => {
+    const v = await startNextVersion({ actor: user, versionId: input.versionId });
+    revalidatePath("/deposits");
+    return v;
+  },
+);
 
 /** Creates a draft dataset from the editor's document (JSON text). */
 export async function createDraftAction(documentJson: string): Promise<EditorResult> {
@@ -102,7 +125,11 @@ export async function transitionAction(versionId: number, transition: Transition
 }
 
 /** The owner invites a co-editor by e-mail (the link is valid for 7 days). */
-export async function inviteAction(versionId: number, email: string, role: "editor" | "viewer"): Promise<{ ok: boolean; status: number; message: string }> {
+export async function inviteAction(
+  versionId: number,
+  email: string,
+  role: "editor" | "viewer",
+): Promise<{ ok: boolean; status: number; message: string }> {
   try {
     const address = await invite({ versionId, email, role });
     return { ok: true, status: 200, message: `Invitation sent to ${address}.` };

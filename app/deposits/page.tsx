@@ -32,8 +32,8 @@ export default async function MyDepositsPage() {
         <div className="card space-y-2">
           <p>You have no datasets yet.</p>
           <p className="text-sm text-muted">
-            Start a <Link href="/deposits/new">new deposit</Link>: paste or upload a table of temperatures and rate constants, describe the reaction and where the numbers come from, and save it as a
-            draft. Nothing is public until a curator accepts it.
+            Start a <Link href="/deposits/new">new deposit</Link>: paste or upload a table of temperatures and rate constants, describe the
+            reaction and where the numbers come from, and save it as a draft. Nothing is public until a curator accepts it.
           </p>
         </div>
       ) : (

@@ -12,7 +12,15 @@ export function ForgotForm() {
   return (
     <form action={action} className="space-y-4">
       <FormMessage state={state} />
-      <FormField label="E-mail" name="email" type="email" autoComplete="email" required error={state.fieldErrors?.email} defaultValue={state.values?.email} />
+      <FormField
+        label="E-mail"
+        name="email"
+        type="email"
+        autoComplete="email"
+        required
+        error={state.fieldErrors?.email}
+        defaultValue={state.values?.email}
+      />
       <SubmitButton>Send me a link</SubmitButton>
     </form>
   );

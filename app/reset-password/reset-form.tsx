@@ -13,7 +13,16 @@ export function ResetForm({ token }: { token: string }) {
     <form action={action} className="space-y-4">
       <FormMessage state={state} />
       <input type="hidden" name="token" value={token} />
-      <FormField label="New password" name="password" type="password" autoComplete="new-password" required minLength={10} hint="At least 10 characters." error={e.password} />
+      <FormField
+        label="New password"
+        name="password"
+        type="password"
+        autoComplete="new-password"
+        required
+        minLength={10}
+        hint="At least 10 characters."
+        error={e.password}
+      />
       <FormField label="New password again" name="confirm" type="password" autoComplete="new-password" required error={e.confirm} />
       <SubmitButton>Save the new password</SubmitButton>
     </form>

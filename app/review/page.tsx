@@ -7,12 +7,23 @@ import { QueueTable } from "./queue-table";
 
 export const metadata: Metadata = { title: "Review queue" };
 
-const flagOptions = ["unbalanced", "implausible_magnitude", "outlier", "curvature", "reported_fit_disagrees", "excess_scatter", "narrow_range"] as const;
+const flagOptions = [
+  "unbalanced",
+  "implausible_magnitude",
+  "outlier",
+  "curvature",
+  "reported_fit_disagrees",
+  "excess_scatter",
+  "narrow_range",
+] as const;
 
 const queueParams = z.object({
   state: z.enum(["submitted", "in_review", "changes_requested", "all"]).catch("all"),
   // Filters are closed lists: anything else (including text the database cannot hold) shows every row.
-  class: z.enum(REACTION_CLASSES.map((c) => c.id) as [string, ...string[]]).optional().catch(undefined),
+  class: z
+    .enum(REACTION_CLASSES.map((c) => c.id) as [string, ...string[]])
+    .optional()
+    .catch(undefined),
   flag: z.enum(flagOptions).optional().catch(undefined),
   older: z.coerce.number().int().min(0).max(3650).optional().catch(undefined),
   sort: z.enum(QUEUE_SORTS).catch("submitted"),
@@ -36,7 +47,9 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
     <div className="space-y-6">
       <header>
         <h1 className="text-3xl font-semibold">Review queue</h1>
-        <p className="text-sm text-muted">Versions submitted for review, with their checks already run. Oldest first unless you sort otherwise.</p>
+        <p className="text-sm text-muted">
+          Versions submitted for review, with their checks already run. Oldest first unless you sort otherwise.
+        </p>
       </header>
       <form method="get" className="card flex flex-wrap items-end gap-4 py-4" aria-label="Filter the queue">
         <label className="space-y-1 text-sm">

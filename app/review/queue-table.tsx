@@ -31,19 +31,45 @@ function age(iso: string | null): string {
 }
 
 const columns = [
-  col.accessor("title", { header: "Dataset", cell: (c) => <Link href={`/review/${c.row.original.versionId}`}>{c.getValue()}</Link>, enableSorting: true }),
+  col.accessor("title", {
+    header: "Dataset",
+    cell: (c) => <Link href={`/review/${c.row.original.versionId}`}>{c.getValue()}</Link>,
+    enableSorting: true,
+  }),
   col.accessor("number", { header: "Version", cell: (c) => `v${c.getValue()}`, enableSorting: false }),
   col.accessor("owner", { header: "Owner", enableSorting: false }),
   col.accessor("state", { header: "State", cell: (c) => <StateLabel state={c.getValue()} />, enableSorting: false }),
-  col.accessor("reactionClass", { header: "Class", cell: (c) => REACTION_CLASSES.find((k) => k.id === c.getValue())?.label ?? c.getValue() ?? "—", enableSorting: false }),
+  col.accessor("reactionClass", {
+    header: "Class",
+    cell: (c) => REACTION_CLASSES.find((k) => k.id === c.getValue())?.label ?? c.getValue() ?? "—",
+    enableSorting: false,
+  }),
   col.accessor("worstFlag", { header: "Checks", cell: (c) => <SeverityLabel severity={c.getValue()} />, enableSorting: true }),
   col.accessor("pointCount", { header: "Points", enableSorting: true }),
-  col.display({ id: "range", header: "T range (K)", cell: (c) => (c.row.original.tMin === null ? "—" : `${Math.round(c.row.original.tMin)}–${Math.round(c.row.original.tMax ?? 0)}`) }),
+  col.display({
+    id: "range",
+    header: "T range (K)",
+    cell: (c) => (c.row.original.tMin === null ? "—" : `${Math.round(c.row.original.tMin)}–${Math.round(c.row.original.tMax ?? 0)}`),
+  }),
   col.accessor("submittedAt", { header: "Submitted (waiting for)", cell: (c) => age(c.getValue()), enableSorting: true }),
 ];
 
 /** The review queue: sorting and paging happen on the server; the table only reflects the URL. */
-export function QueueTable({ rows, total, page, pageSize, sort, direction }: { rows: QueueRow[]; total: number; page: number; pageSize: number; sort: string; direction: "asc" | "desc" }) {
+export function QueueTable({
+  rows,
+  total,
+  page,
+  pageSize,
+  sort,
+  direction,
+}: {
+  rows: QueueRow[];
+  total: number;
+  page: number;
+  pageSize: number;
+  sort: string;
+  direction: "asc" | "desc";
+}) {
   const router = useRouter();
   const pathname = usePathname();
   const params = useSearchParams();

@@ -17,25 +17,35 @@ export const updateProfileAction = protectedAction(profileSchema, { permission: 
   return { status: "ok", message: "Profile saved." };
 });
 
-export const changePasswordAction = protectedAction(changePasswordSchema, { permission: "account.update" }, async ({ current, password }, user) => {
-  await changePassword({ userId: user.id, current, password });
-  // A new password ends every session of the person, this one included.
-  redirect("/sign-in?reset=1");
-});
+export const changePasswordAction = protectedAction(
+  changePasswordSchema,
+  { permission: "account.update" },
+  async ({ current, password }, user) => {
+    await changePassword({ userId: user.id, current, password });
+    // A new password ends every session of the person, this one included.
+    redirect("/sign-in?reset=1");
+  },
+);
 
 export const createTokenAction = protectedAction(createTokenSchema, { permission: "token.manage" }, async ({ name, scopes }, user) => {
   // A token never carries more than its holder may do: the admin scope is for admins only.
   if (scopes.includes("admin") && !can(user.role, "user.manage")) {
-    throw new AppError("forbidden", "Only admins may create tokens with the admin scope", [{ pointer: "/scopes", message: "the admin scope is for admins" }]);
+    throw new AppError("forbidden", "Only admins may create tokens with the admin scope", [
+      { pointer: "/scopes", message: "the admin scope is for admins" },
+    ]);
   }
   const { secret } = await createApiToken({ userId: user.id, name, scopes });
   revalidatePath("/settings");
   return { status: "ok", message: "Token created. Copy it now: it will not be shown again.", data: { secret } };
 });
 
-export const revokeTokenAction = protectedAction(z.object({ tokenId: idFor("token") }), { permission: "token.manage" }, async ({ tokenId }, user) => {
-  // Ownership: revokeApiToken only matches the person's own tokens.
-  await revokeApiToken({ userId: user.id, tokenId });
-  revalidatePath("/settings");
-  return { status: "ok", message: "Token revoked." };
-});
+export const revokeTokenAction = protectedAction(
+  z.object({ tokenId: idFor("token") }),
+  { permission: "token.manage" },
+  async ({ tokenId }, user) => {
+    // Ownership: revokeApiToken only matches the person's own tokens.
+    await revokeApiToken({ userId: user.id, tokenId });
+    revalidatePath("/settings");
+    return { status: "ok", message: "Token revoked." };
+  },
+);

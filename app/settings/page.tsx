@@ -22,17 +22,25 @@ export default async function SettingsPage() {
       </header>
       <div className="grid gap-6 md:grid-cols-2">
         <section aria-labelledby="profile-heading" className="card space-y-4">
-          <h2 id="profile-heading" className="text-xl font-semibold">Profile</h2>
+          <h2 id="profile-heading" className="text-xl font-semibold">
+            Profile
+          </h2>
           <ProfileForm name={user.name} orcid={user.orcid} affiliation={user.affiliation} />
         </section>
         <section aria-labelledby="password-heading" className="card space-y-4">
-          <h2 id="password-heading" className="text-xl font-semibold">Password</h2>
+          <h2 id="password-heading" className="text-xl font-semibold">
+            Password
+          </h2>
           <PasswordForm />
         </section>
       </div>
       <section aria-labelledby="tokens-heading" className="card space-y-4">
-        <h2 id="tokens-heading" className="text-xl font-semibold">Personal API tokens</h2>
-        <p className="text-sm text-muted">Scripts use a token as <code>Authorization: Bearer …</code>. The secret is shown once, when you create it; we keep only a hash.</p>
+        <h2 id="tokens-heading" className="text-xl font-semibold">
+          Personal API tokens
+        </h2>
+        <p className="text-sm text-muted">
+          Scripts use a token as <code>Authorization: Bearer …</code>. The secret is shown once, when you create it; we keep only a hash.
+        </p>
         <CreateTokenForm canAdmin={can(user.role, "user.manage")} />
         {tokens.length > 0 && (
           <table className="table">
@@ -52,8 +60,12 @@ export default async function SettingsPage() {
                   <td>{t.name}</td>
                   <td className="font-mono text-xs">{t.prefix}…</td>
                   <td>{t.scopes.join(", ")}</td>
-                  <td><DateTime value={t.createdAt} /></td>
-                  <td><DateTime value={t.lastUsedAt} /></td>
+                  <td>
+                    <DateTime value={t.createdAt} />
+                  </td>
+                  <td>
+                    <DateTime value={t.lastUsedAt} />
+                  </td>
                   <td>{t.revokedAt ? <span className="text-muted">revoked</span> : <RevokeTokenButton tokenId={t.id} name={t.name} />}</td>
                 </tr>
               ))}

@@ -13,8 +13,20 @@ export function ProfileForm({ name, orcid, affiliation }: { name: string; orcid:
     <form action={action} className="space-y-4">
       <FormMessage state={state} />
       <FormField label="Name" name="name" defaultValue={state.values?.name ?? name} required autoComplete="name" error={e.name} />
-      <FormField label="Affiliation" name="affiliation" defaultValue={state.values?.affiliation ?? affiliation ?? ""} error={e.affiliation} />
-      <FormField label="ORCID iD" name="orcid" defaultValue={state.values?.orcid ?? orcid ?? ""} placeholder="0000-0000-0000-0000" hint="Optional. The check digit is verified." error={e.orcid} />
+      <FormField
+        label="Affiliation"
+        name="affiliation"
+        defaultValue={state.values?.affiliation ?? affiliation ?? ""}
+        error={e.affiliation}
+      />
+      <FormField
+        label="ORCID iD"
+        name="orcid"
+        defaultValue={state.values?.orcid ?? orcid ?? ""}
+        placeholder="0000-0000-0000-0000"
+        hint="Optional. The check digit is verified."
+        error={e.orcid}
+      />
       <SubmitButton>Save profile</SubmitButton>
     </form>
   );
@@ -27,7 +39,15 @@ export function PasswordForm() {
     <form action={action} className="space-y-4">
       <FormMessage state={state} />
       <FormField label="Current password" name="current" type="password" autoComplete="current-password" required error={e.current} />
-      <FormField label="New password" name="password" type="password" autoComplete="new-password" required minLength={10} error={e.password} />
+      <FormField
+        label="New password"
+        name="password"
+        type="password"
+        autoComplete="new-password"
+        required
+        minLength={10}
+        error={e.password}
+      />
       <FormField label="New password again" name="confirm" type="password" autoComplete="new-password" required error={e.confirm} />
       <SubmitButton>Change password</SubmitButton>
     </form>
@@ -46,17 +66,32 @@ export function CreateTokenForm({ canAdmin }: { canAdmin: boolean }) {
           <label htmlFor="new-token" className="block text-sm font-medium">
             Your new token
           </label>
-          <input id="new-token" readOnly value={state.data.secret} className="field-input font-mono" onFocus={(ev) => ev.currentTarget.select()} />
+          <input
+            id="new-token"
+            readOnly
+            value={state.data.secret}
+            className="field-input font-mono"
+            onFocus={(ev) => ev.currentTarget.select()}
+          />
         </div>
       )}
-      <FormField id="token-name" label="Token name" name="name" placeholder="e.g. lab upload script" required error={e.name} defaultValue={state.status === "error" ? state.values?.name : undefined} />
+      <FormField
+        id="token-name"
+        label="Token name"
+        name="name"
+        placeholder="e.g. lab upload script"
+        required
+        error={e.name}
+        defaultValue={state.status === "error" ? state.values?.name : undefined}
+      />
       <fieldset className="space-y-1">
         <legend className="text-sm font-medium">Scopes</legend>
         <label className="flex items-center gap-2 text-sm">
           <input type="checkbox" name="scopes" value="read" defaultChecked /> read — fetch datasets, including your drafts
         </label>
         <label className="flex items-center gap-2 text-sm">
-          <input type="checkbox" name="scopes" value="deposit" /> deposit — create and edit your drafts, submit and withdraw them; for curators also review decisions
+          <input type="checkbox" name="scopes" value="deposit" /> deposit — create and edit your drafts, submit and withdraw them; for
+          curators also review decisions
         </label>
         {canAdmin && (
           <label className="flex items-center gap-2 text-sm">

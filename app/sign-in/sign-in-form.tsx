@@ -16,7 +16,11 @@ export function SignInForm({ callbackUrl, verified, reset }: { callbackUrl: stri
     setPending(true);
     setError(null);
     const form = new FormData(event.currentTarget);
-    const result = await signIn("credentials", { email: String(form.get("email") ?? ""), password: String(form.get("password") ?? ""), redirect: false });
+    const result = await signIn("credentials", {
+      email: String(form.get("email") ?? ""),
+      password: String(form.get("password") ?? ""),
+      redirect: false,
+    });
     setPending(false);
     if (!result || result.error) {
       setError(result?.error && result.error !== "CredentialsSignin" ? result.error : "E-mail or password is not right.");

@@ -11,7 +11,11 @@ export function ConditionsSection({ form, update }: SectionProps) {
   const set = (patch: Partial<EditorForm["conditions"]>) => update((f) => ({ ...f, conditions: { ...f.conditions, ...patch } }));
   const pointPressures = form.points.some((p) => p.pressure.trim() !== "");
   return (
-    <Section id={sectionAnchor("conditions")} title="Conditions" description="Conditions shared by every point. A pressure or bath gas given on a row of the data overrides these for that row.">
+    <Section
+      id={sectionAnchor("conditions")}
+      title="Conditions"
+      description="Conditions shared by every point. A pressure or bath gas given on a row of the data overrides these for that row."
+    >
       <SubGroup legend="Pressure">
         <SelectField
           pointer="/conditions/pressure/mode"
@@ -26,11 +30,31 @@ export function ConditionsSection({ form, update }: SectionProps) {
         />
         <GroupMessages pointer="/conditions/pressure" />
         <div className="grid gap-4 md:grid-cols-3">
-          {c.pressureMode === "single" && <NumberField pointer="/conditions/pressure/value" label="Pressure" required value={c.pressure} onChange={(v) => set({ pressure: v })} />}
+          {c.pressureMode === "single" && (
+            <NumberField
+              pointer="/conditions/pressure/value"
+              label="Pressure"
+              required
+              value={c.pressure}
+              onChange={(v) => set({ pressure: v })}
+            />
+          )}
           {c.pressureMode === "range" && (
             <>
-              <NumberField pointer="/conditions/pressure/min" label="Lowest pressure" required value={c.pressureMin} onChange={(v) => set({ pressureMin: v })} />
-              <NumberField pointer="/conditions/pressure/max" label="Highest pressure" required value={c.pressureMax} onChange={(v) => set({ pressureMax: v })} />
+              <NumberField
+                pointer="/conditions/pressure/min"
+                label="Lowest pressure"
+                required
+                value={c.pressureMin}
+                onChange={(v) => set({ pressureMin: v })}
+              />
+              <NumberField
+                pointer="/conditions/pressure/max"
+                label="Highest pressure"
+                required
+                value={c.pressureMax}
+                onChange={(v) => set({ pressureMax: v })}
+              />
             </>
           )}
           {(c.pressureMode !== "none" || pointPressures) && (
@@ -45,8 +69,21 @@ export function ConditionsSection({ form, update }: SectionProps) {
           )}
         </div>
       </SubGroup>
-      <TextField pointer="/conditions/bathGas" label="Bath gas" value={c.bathGas} onChange={(v) => set({ bathGas: v })} hint='A formula or name, e.g. "He", "N2" or "air".' />
-      <TextAreaField pointer="/conditions/notes" label="Other conditions" value={c.notes} onChange={(v) => set({ notes: v })} rows={2} hint="Concentration ranges, photolysis wavelength, anything else that matters." />
+      <TextField
+        pointer="/conditions/bathGas"
+        label="Bath gas"
+        value={c.bathGas}
+        onChange={(v) => set({ bathGas: v })}
+        hint='A formula or name, e.g. "He", "N2" or "air".'
+      />
+      <TextAreaField
+        pointer="/conditions/notes"
+        label="Other conditions"
+        value={c.notes}
+        onChange={(v) => set({ notes: v })}
+        rows={2}
+        hint="Concentration ranges, photolysis wavelength, anything else that matters."
+      />
     </Section>
   );
 }

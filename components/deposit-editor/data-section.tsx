@@ -45,14 +45,23 @@ function ApplyUncertaintyStatement({ update }: Pick<SectionProps, "update">) {
           ))}
         </select>
       </label>
-      <button type="button" className="btn-secondary" onClick={() => update((f) => ({ ...f, points: f.points.map((p) => ({ ...p, uKind: kind, uConfidence: confidence })) }))}>
+      <button
+        type="button"
+        className="btn-secondary"
+        onClick={() => update((f) => ({ ...f, points: f.points.map((p) => ({ ...p, uKind: kind, uConfidence: confidence })) }))}
+      >
         Apply to every row
       </button>
     </div>
   );
 }
 
-export function DataSection({ form, update, windowStart, onWindowStart }: SectionProps & { windowStart: number; onWindowStart: (start: number) => void }) {
+export function DataSection({
+  form,
+  update,
+  windowStart,
+  onWindowStart,
+}: SectionProps & { windowStart: number; onWindowStart: (start: number) => void }) {
   const { readOnly, clearErrors } = useEditorContext();
   const labels = unitLabels(form);
 
@@ -63,7 +72,11 @@ export function DataSection({ form, update, windowStart, onWindowStart }: Sectio
   }
 
   return (
-    <Section id={sectionAnchor("data")} title="Data" description="One row per rate constant: at least two, at most 100 000. Numbers are stored as you give them, in the units chosen here.">
+    <Section
+      id={sectionAnchor("data")}
+      title="Data"
+      description="One row per rate constant: at least two, at most 100 000. Numbers are stored as you give them, in the units chosen here."
+    >
       <div className="grid gap-4 md:grid-cols-2">
         <SelectField
           pointer="/units/k"
@@ -74,7 +87,14 @@ export function DataSection({ form, update, windowStart, onWindowStart }: Sectio
           options={SUPPORTED_UNITS.rateConstant[form.reaction.order].map((u) => ({ value: u.id, label: u.label }))}
           hint={`Units for a reaction of order ${form.reaction.order}; change the order under Reaction.`}
         />
-        <SelectField pointer="/units/T" label="Unit of T" required value={form.units.T} onChange={(v) => update((f) => ({ ...f, units: { ...f.units, T: v } }))} options={SUPPORTED_UNITS.temperature.map((u) => ({ value: u.id, label: u.label }))} />
+        <SelectField
+          pointer="/units/T"
+          label="Unit of T"
+          required
+          value={form.units.T}
+          onChange={(v) => update((f) => ({ ...f, units: { ...f.units, T: v } }))}
+          options={SUPPORTED_UNITS.temperature.map((u) => ({ value: u.id, label: u.label }))}
+        />
       </div>
       {!readOnly && <TableImport form={form} onRows={takeRows} />}
       <GroupMessages pointer="/points" />
@@ -83,7 +103,14 @@ export function DataSection({ form, update, windowStart, onWindowStart }: Sectio
           Rows <span className="font-normal text-muted">({form.points.length.toLocaleString("en")})</span>
         </h3>
         {!readOnly && form.points.length > 1 && <ApplyUncertaintyStatement update={update} />}
-        <PointsTable form={form} update={update} windowStart={windowStart} onWindowStart={onWindowStart} kLabel={labels.k} TLabel={labels.T} />
+        <PointsTable
+          form={form}
+          update={update}
+          windowStart={windowStart}
+          onWindowStart={onWindowStart}
+          kLabel={labels.k}
+          TLabel={labels.T}
+        />
       </div>
     </Section>
   );

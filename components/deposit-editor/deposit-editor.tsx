@@ -59,7 +59,9 @@ export function DepositEditor(props: DepositEditorProps) {
   const editable = existing ? existing.capabilities.edit : true;
   const versionId = existing?.version.id ?? null;
 
-  const [form, setForm] = useState<EditorForm>(() => (existing ? documentToForm(existing.payload) : blankForm(props.mode === "new" ? props.person : undefined)));
+  const [form, setForm] = useState<EditorForm>(() =>
+    existing ? documentToForm(existing.payload) : blankForm(props.mode === "new" ? props.person : undefined),
+  );
   const [revision, setRevision] = useState(0);
   const [savedRevision, setSavedRevision] = useState(0);
   const [attemptedRevision, setAttemptedRevision] = useState(0);
@@ -90,7 +92,9 @@ export function DepositEditor(props: DepositEditorProps) {
     messagesFor: (pointer) => grouped.byField.get(pointer) ?? [],
     clearErrors: (pointer) =>
       setServerErrors((errors) => {
-        const kept = errors.filter((e) => !isWithin(e.pointer, pointer) && !isWithin(resolveFieldPointer(e.pointer, form) ?? e.pointer, pointer));
+        const kept = errors.filter(
+          (e) => !isWithin(e.pointer, pointer) && !isWithin(resolveFieldPointer(e.pointer, form) ?? e.pointer, pointer),
+        );
         return kept.length === errors.length ? errors : kept;
       }),
   };
@@ -141,7 +145,14 @@ export function DepositEditor(props: DepositEditorProps) {
     saveRef.current = save;
   });
   // Numbers that cannot be read yet (often half-typed) would only be refused: autosave waits for them.
-  const autosave = versionId !== null && editable && dirty && localProblems.length === 0 && revision !== attemptedRevision && saveState.kind !== "conflict" && saveState.kind !== "saving";
+  const autosave =
+    versionId !== null &&
+    editable &&
+    dirty &&
+    localProblems.length === 0 &&
+    revision !== attemptedRevision &&
+    saveState.kind !== "conflict" &&
+    saveState.kind !== "saving";
   useEffect(() => {
     if (!autosave) return;
     const timer = setTimeout(() => void saveRef.current(true), AUTOSAVE_DELAY_MS);
@@ -163,7 +174,13 @@ export function DepositEditor(props: DepositEditorProps) {
     requestAnimationFrame(() => document.getElementById(`field-points-${row}`)?.scrollIntoView({ block: "center" }));
   };
   const { from, to } = visibleRows(form.points.length, windowStart);
-  const hiddenRows = [...new Set(serverErrors.map((e) => pointRowOf(e.pointer)).filter((r): r is number => r !== null && r < form.points.length && (r < from || r >= to)))].sort((a, b) => a - b);
+  const hiddenRows = [
+    ...new Set(
+      serverErrors
+        .map((e) => pointRowOf(e.pointer))
+        .filter((r): r is number => r !== null && r < form.points.length && (r < from || r >= to)),
+    ),
+  ].sort((a, b) => a - b);
 
   const checks = existing?.checks ?? [];
   const reactionChecks = checks.filter((c) => REACTION_CHECK_CODES.has(c.code));
@@ -173,23 +190,42 @@ export function DepositEditor(props: DepositEditorProps) {
   return (
     <EditorContextProvider value={context}>
       <div className="space-y-6">
-        {existing && <LifecyclePanel version={existing.version} role={existing.role} capabilities={existing.capabilities} checks={checks} decisions={existing.decisions} members={existing.members} dirty={dirty} />}
+        {existing && (
+          <LifecyclePanel
+            version={existing.version}
+            role={existing.role}
+            capabilities={existing.capabilities}
+            checks={checks}
+            decisions={existing.decisions}
+            members={existing.members}
+            dirty={dirty}
+          />
+        )}
 
         {!editable && (
           <p className="rounded-md border border-line bg-panel px-3 py-2 text-sm">
-            {existing?.role === "owner" || existing?.role === "editor" ? `This version is ${existing.version.state.replace(/_/g, " ")}, so it can be read here but not changed.` : "You can read this version; only its owner and editors can change it."}
+            {existing?.role === "owner" || existing?.role === "editor"
+              ? `This version is ${existing.version.state.replace(/_/g, " ")}, so it can be read here but not changed.`
+              : "You can read this version; only its owner and editors can change it."}
           </p>
         )}
 
         {editable && (
           <div className="sticky top-0 z-20 -mx-2 flex flex-wrap items-center gap-3 border-b border-line bg-paper/95 px-2 py-3 backdrop-blur-sm">
-            <button type="button" className="btn-primary" onClick={() => void save(false)} disabled={saveState.kind === "saving" || saveState.kind === "conflict"}>
+            <button
+              type="button"
+              className="btn-primary"
+              onClick={() => void save(false)}
+              disabled={saveState.kind === "saving" || saveState.kind === "conflict"}
+            >
               {saveState.kind === "saving" ? "Saving…" : "Save draft"}
             </button>
             <p role="status" aria-live="polite" className="text-sm text-muted">
               {status}
             </p>
-            {versionId !== null && <p className="ml-auto text-xs text-muted">Drafts save themselves a few seconds after you stop typing.</p>}
+            {versionId !== null && (
+              <p className="ml-auto text-xs text-muted">Drafts save themselves a few seconds after you stop typing.</p>
+            )}
           </div>
         )}
 
@@ -208,7 +244,11 @@ export function DepositEditor(props: DepositEditorProps) {
               >
                 Reload
               </button>
-              <button type="button" className="btn-secondary" onClick={() => downloadJson(formToDocument(form).document, `deposit-${versionId ?? "new"}-my-edits.json`)}>
+              <button
+                type="button"
+                className="btn-secondary"
+                onClick={() => downloadJson(formToDocument(form).document, `deposit-${versionId ?? "new"}-my-edits.json`)}
+              >
                 Download my edits (JSON)
               </button>
             </div>
@@ -222,7 +262,15 @@ export function DepositEditor(props: DepositEditorProps) {
         )}
 
         {saveState.kind === "invalid" && serverErrors.length > 0 && (
-          <ErrorSummary ref={summaryRef} message={saveState.message} errors={serverErrors} grouped={serverGrouped} hiddenRows={hiddenRows} onShowRow={showRow} announce={!saveState.auto} />
+          <ErrorSummary
+            ref={summaryRef}
+            message={saveState.message}
+            errors={serverErrors}
+            grouped={serverGrouped}
+            hiddenRows={hiddenRows}
+            onShowRow={showRow}
+            announce={!saveState.auto}
+          />
         )}
 
         <nav aria-label="Sections of the deposit" className="text-sm">
@@ -249,7 +297,12 @@ export function DepositEditor(props: DepositEditorProps) {
 
         {editable && (
           <div className="flex flex-wrap items-center gap-3">
-            <button type="button" className="btn-primary" onClick={() => void save(false)} disabled={saveState.kind === "saving" || saveState.kind === "conflict"}>
+            <button
+              type="button"
+              className="btn-primary"
+              onClick={() => void save(false)}
+              disabled={saveState.kind === "saving" || saveState.kind === "conflict"}
+            >
               {saveState.kind === "saving" ? "Saving…" : "Save draft"}
             </button>
             <p className="text-sm text-muted" aria-hidden="true">

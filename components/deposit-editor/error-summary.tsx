@@ -30,7 +30,13 @@ export function ErrorSummary({ message, errors, grouped, hiddenRows, onShowRow, 
     if (s && !grouped.unplaced.some((u) => u.error === e)) perSection.set(s, (perSection.get(s) ?? 0) + 1);
   }
   return (
-    <div ref={ref} tabIndex={-1} role={announce ? "alert" : undefined} aria-labelledby="error-summary-heading" className="space-y-3 rounded-lg border-2 border-error/60 bg-panel p-4 text-sm">
+    <div
+      ref={ref}
+      tabIndex={-1}
+      role={announce ? "alert" : undefined}
+      aria-labelledby="error-summary-heading"
+      className="space-y-3 rounded-lg border-2 border-error/60 bg-panel p-4 text-sm"
+    >
       <h2 id="error-summary-heading" className="font-serif text-lg font-semibold text-error">
         The draft was not saved: {errors.length === 1 ? "1 problem" : `${errors.length} problems`} to correct
       </h2>

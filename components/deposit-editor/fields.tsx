@@ -200,7 +200,14 @@ export function SelectField({
   );
 }
 
-export function CheckboxField({ pointer, label, hint, className, checked, onChange }: BaseProps & { checked: boolean; onChange: (checked: boolean) => void }) {
+export function CheckboxField({
+  pointer,
+  label,
+  hint,
+  className,
+  checked,
+  onChange,
+}: BaseProps & { checked: boolean; onChange: (checked: boolean) => void }) {
   const { ctx, id, messages, describedBy, invalid } = useField(pointer, hint);
   return (
     <div className={`space-y-1 ${className ?? ""}`}>

@@ -18,7 +18,11 @@ function size(bytes: number): string {
 }
 
 /** Sends one file with XMLHttpRequest, which (unlike fetch) reports upload progress. */
-function uploadWithProgress(versionId: number, file: File, onProgress: (fraction: number) => void): Promise<{ ok: boolean; message?: string }> {
+function uploadWithProgress(
+  versionId: number,
+  file: File,
+  onProgress: (fraction: number) => void,
+): Promise<{ ok: boolean; message?: string }> {
   return new Promise((resolve) => {
     const xhr = new XMLHttpRequest();
     xhr.open("POST", `/api/v1/versions/${versionId}/files`);
@@ -65,7 +69,11 @@ export function FilesPanel({ versionId, editable }: { versionId: number; editabl
 
   async function remove(f: StoredFile) {
     const res = await fetch(`/api/v1/files/${f.id}`, { method: "DELETE" });
-    setMessage(res.ok ? { ok: true, text: `${f.filename} removed.` } : { ok: false, text: (await res.json().catch(() => ({}))).title ?? "Could not remove the file" });
+    setMessage(
+      res.ok
+        ? { ok: true, text: `${f.filename} removed.` }
+        : { ok: false, text: (await res.json().catch(() => ({}))).title ?? "Could not remove the file" },
+    );
     await client.invalidateQueries({ queryKey: ["version-files", versionId] });
   }
 
@@ -74,7 +82,9 @@ export function FilesPanel({ versionId, editable }: { versionId: number; editabl
       <h2 id="files-heading" className="font-serif text-xl font-semibold">
         Supplementary files
       </h2>
-      <p className="text-sm text-muted">Raw data, input files of calculations, figures. Up to 25 MB each; the SHA-256 of every file is kept with the version.</p>
+      <p className="text-sm text-muted">
+        Raw data, input files of calculations, figures. Up to 25 MB each; the SHA-256 of every file is kept with the version.
+      </p>
       {files.data && files.data.length > 0 ? (
         <table className="table">
           <thead>

@@ -90,7 +90,17 @@ export interface EditorForm {
   /** `pressure` is written to the document only when some pressure is given. */
   units: { k: string; T: string; pressure: string };
   points: PointRow[];
-  reportedFit: { enabled: boolean; model: FitModelId; A: string; n: string; Ea: string; EaUnit: string; T0: string; Tmin: string; Tmax: string };
+  reportedFit: {
+    enabled: boolean;
+    model: FitModelId;
+    A: string;
+    n: string;
+    Ea: string;
+    EaUnit: string;
+    T0: string;
+    Tmin: string;
+    Tmax: string;
+  };
   source: {
     doi: string;
     locator: string;
@@ -218,7 +228,12 @@ export function documentToForm(doc: DepositDocument): EditorForm {
       solventInchi: text(doc.reaction.solvent?.inchi),
       surface: text(doc.reaction.surface),
     },
-    method: { category: doc.method.category, technique: doc.method.technique, detection: text(doc.method.detection), notes: text(doc.method.notes) },
+    method: {
+      category: doc.method.category,
+      technique: doc.method.technique,
+      detection: text(doc.method.detection),
+      notes: text(doc.method.notes),
+    },
     conditions: {
       pressureMode: pressure === undefined ? "none" : pressure.value !== undefined ? "single" : "range",
       pressure: numberText(pressure?.value),
@@ -230,7 +245,17 @@ export function documentToForm(doc: DepositDocument): EditorForm {
     units: { k: doc.units.k, T: doc.units.T, pressure: doc.units.pressure ?? blank.units.pressure },
     points: doc.points.map(pointToRow),
     reportedFit: fit
-      ? { enabled: true, model: fit.model, A: numberText(fit.A), n: numberText(fit.n), Ea: numberText(fit.Ea), EaUnit: fit.EaUnit, T0: numberText(fit.T0), Tmin: numberText(fit.Tmin), Tmax: numberText(fit.Tmax) }
+      ? {
+          enabled: true,
+          model: fit.model,
+          A: numberText(fit.A),
+          n: numberText(fit.n),
+          Ea: numberText(fit.Ea),
+          EaUnit: fit.EaUnit,
+          T0: numberText(fit.T0),
+          Tmin: numberText(fit.Tmin),
+          Tmax: numberText(fit.Tmax),
+        }
       : blank.reportedFit,
     source: {
       doi: text(doc.source.doi),
@@ -256,7 +281,11 @@ class Reader {
     if (t === "") return undefined;
     const n = parseNumberCell(t);
     if (n !== null) return n;
-    this.problems.push({ pointer, value: t, message: `"${t}" is not a number; write it like 1.2e-11 (a point, not a comma, for decimals).` });
+    this.problems.push({
+      pointer,
+      value: t,
+      message: `"${t}" is not a number; write it like 1.2e-11 (a point, not a comma, for decimals).`,
+    });
     return t;
   }
 }
@@ -358,7 +387,13 @@ export function formToDocument(form: EditorForm): { document: DepositDocument; p
   const rx = form.reaction;
   const reaction: Record<string, unknown> = {
     reactants: speciesOut(rx.reactants, "/reaction/reactants", r),
-    products: rx.productsUnknown ? speciesOut(rx.products.filter((p) => p.name.trim() || p.smiles.trim() || p.inchi.trim()), "/reaction/products", r) : speciesOut(rx.products, "/reaction/products", r),
+    products: rx.productsUnknown
+      ? speciesOut(
+          rx.products.filter((p) => p.name.trim() || p.smiles.trim() || p.inchi.trim()),
+          "/reaction/products",
+          r,
+        )
+      : speciesOut(rx.products, "/reaction/products", r),
   };
   if (rx.productsUnknown) reaction.productsUnknown = { reason: rx.productsUnknownReason.trim() };
   put(reaction, "class", rx.class);
@@ -383,7 +418,11 @@ export function formToDocument(form: EditorForm): { document: DepositDocument; p
   const c = form.conditions;
   const conditions: Record<string, unknown> = {};
   if (c.pressureMode === "single") conditions.pressure = { value: r.number(c.pressure, "/conditions/pressure/value") ?? "" };
-  if (c.pressureMode === "range") conditions.pressure = { min: r.number(c.pressureMin, "/conditions/pressure/min") ?? "", max: r.number(c.pressureMax, "/conditions/pressure/max") ?? "" };
+  if (c.pressureMode === "range")
+    conditions.pressure = {
+      min: r.number(c.pressureMin, "/conditions/pressure/min") ?? "",
+      max: r.number(c.pressureMax, "/conditions/pressure/max") ?? "",
+    };
   put(conditions, "bathGas", c.bathGas.trim());
   put(conditions, "notes", c.notes.trim());
   if (Object.keys(conditions).length) doc.conditions = conditions;
@@ -413,7 +452,8 @@ export function formToDocument(form: EditorForm): { document: DepositDocument; p
   put(source, "locator", form.source.locator.trim());
   doc.source = source;
 
-  if (form.relatedIdentifiers.length) doc.relatedIdentifiers = form.relatedIdentifiers.map((x) => ({ kind: x.kind, identifier: x.identifier.trim(), relation: x.relation }));
+  if (form.relatedIdentifiers.length)
+    doc.relatedIdentifiers = form.relatedIdentifiers.map((x) => ({ kind: x.kind, identifier: x.identifier.trim(), relation: x.relation }));
 
   return { document: doc as unknown as DepositDocument, problems: r.problems };
 }

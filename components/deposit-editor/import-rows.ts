@@ -30,10 +30,17 @@ function rawRow(cells: string[], mapping: ColumnMapping, options: ApplyMappingOp
   };
 }
 
-export function importRows(table: Pick<InspectedTable, "columns" | "rows">, mapping: ColumnMapping, options: ApplyMappingOptions = {}): ImportedRows {
+export function importRows(
+  table: Pick<InspectedTable, "columns" | "rows">,
+  mapping: ColumnMapping,
+  options: ApplyMappingOptions = {},
+): ImportedRows {
   const { points, errors } = applyMapping(table, mapping, options);
   // Rows without an uncertainty still carry the chosen kind, for values typed in later.
-  const toRow = (p: DepositPoint): PointRow => (p.uncertainty ? pointToRow(p) : { ...pointToRow(p), uKind: options.uncertaintyKind ?? "absolute", uConfidence: options.confidence ?? "" });
+  const toRow = (p: DepositPoint): PointRow =>
+    p.uncertainty
+      ? pointToRow(p)
+      : { ...pointToRow(p), uKind: options.uncertaintyKind ?? "absolute", uConfidence: options.confidence ?? "" };
   const refused = errors.some((e) => e.pointer === "/rows" || e.pointer.startsWith("/mapping/"));
   if (refused) return { rows: [], errors, dropped: 0 };
   const bad = new Set<number>();

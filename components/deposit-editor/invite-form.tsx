@@ -32,7 +32,15 @@ export function InviteForm({ versionId }: { versionId: number }) {
           <label htmlFor="invite-email" className="block text-sm font-medium">
             Invite a co-editor by e-mail
           </label>
-          <input id="invite-email" type="email" required value={email} onChange={(e) => setEmail(e.target.value)} autoComplete="off" className="field-input" />
+          <input
+            id="invite-email"
+            type="email"
+            required
+            value={email}
+            onChange={(e) => setEmail(e.target.value)}
+            autoComplete="off"
+            className="field-input"
+          />
         </div>
         <div className="space-y-1">
           <label htmlFor="invite-role" className="block text-sm font-medium">

@@ -138,12 +138,23 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
         <div className="space-y-2">
           <div className="flex flex-wrap gap-3">
             {canSubmit && (
-              <button type="button" className="btn-primary" disabled={pending || submitBlocked} aria-describedby={submitBlocked ? "submit-blocked" : undefined} onClick={() => run("submit", "Submitted. A curator has been told.")}>
+              <button
+                type="button"
+                className="btn-primary"
+                disabled={pending || submitBlocked}
+                aria-describedby={submitBlocked ? "submit-blocked" : undefined}
+                onClick={() => run("submit", "Submitted. A curator has been told.")}
+              >
                 {pending ? "Working…" : "Submit for review"}
               </button>
             )}
             {canWithdraw && (
-              <button type="button" className="btn-secondary" disabled={pending} onClick={() => run("withdraw", "Withdrawn. It is a draft again.")}>
+              <button
+                type="button"
+                className="btn-secondary"
+                disabled={pending}
+                onClick={() => run("withdraw", "Withdrawn. It is a draft again.")}
+              >
                 {pending ? "Working…" : "Withdraw"}
               </button>
             )}
@@ -163,7 +174,10 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
       )}
       {capabilities.edit && !capabilities.submit && <p className="text-sm text-muted">The owner of the dataset submits it for review.</p>}
       {outcome && (
-        <p role={outcome.ok ? "status" : "alert"} className={`rounded-md border bg-panel px-3 py-2 text-sm ${outcome.ok ? "border-ok/40 text-ok" : "border-error/40 text-error"}`}>
+        <p
+          role={outcome.ok ? "status" : "alert"}
+          className={`rounded-md border bg-panel px-3 py-2 text-sm ${outcome.ok ? "border-ok/40 text-ok" : "border-error/40 text-error"}`}
+        >
           {outcome.message}
         </p>
       )}
@@ -177,7 +191,8 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
             {decisions.map((d) => (
               <li key={d.id} className="rounded-md border border-line px-3 py-2 text-sm">
                 <p>
-                  <span className="font-semibold">{DECISION_WORDS[d.decision] ?? d.decision}</span> by {d.curator}, <time dateTime={d.createdAt}>{utc(d.createdAt)}</time>
+                  <span className="font-semibold">{DECISION_WORDS[d.decision] ?? d.decision}</span> by {d.curator},{" "}
+                  <time dateTime={d.createdAt}>{utc(d.createdAt)}</time>
                 </p>
                 <p className="mt-1 whitespace-pre-line">{d.reason}</p>
               </li>

@@ -5,7 +5,14 @@ import { useEffect, useMemo, useState } from "react";
 import { ArrheniusPlot, type PlotPoint } from "@/components/arrhenius-plot";
 import { ResultTables } from "@/components/result-tables";
 import type { AnalysisResponse } from "@/lib/analyses/analyse-request";
-import { SUPPORTED_UNITS, convertEnergy, fromCanonicalRateConstant, getCanonicalRateConstantUnit, toCanonicalRateConstant, toKelvin } from "@/lib/kinetics/units";
+import {
+  SUPPORTED_UNITS,
+  convertEnergy,
+  fromCanonicalRateConstant,
+  getCanonicalRateConstantUnit,
+  toCanonicalRateConstant,
+  toKelvin,
+} from "@/lib/kinetics/units";
 import { buildAnalysisRequest, hashText, type BuiltAnalysisRequest } from "./analysis-request";
 import type { EditorForm } from "./form-model";
 import { pointRowOf } from "./pointers";
@@ -39,10 +46,18 @@ async function postAnalysis(bodyText: string, signal: AbortSignal): Promise<Anal
     res = await fetch("/api/v1/analyses", { method: "POST", headers: { "content-type": "application/json" }, body: bodyText, signal });
   } catch (err) {
     if ((err as Error).name === "AbortError") throw err;
-    throw { status: 0, title: "The analysis service could not be reached; check the connection. The plot will update when it is back." } satisfies Problem;
+    throw {
+      status: 0,
+      title: "The analysis service could not be reached; check the connection. The plot will update when it is back.",
+    } satisfies Problem;
   }
   const json = await res.json().catch(() => null);
-  if (!res.ok) throw { status: res.status, title: (json as { title?: string } | null)?.title ?? "", errors: (json as { errors?: Problem["errors"] } | null)?.errors } satisfies Problem;
+  if (!res.ok)
+    throw {
+      status: res.status,
+      title: (json as { title?: string } | null)?.title ?? "",
+      errors: (json as { errors?: Problem["errors"] } | null)?.errors,
+    } satisfies Problem;
   return json as AnalysisResponse;
 }
 
@@ -54,7 +69,10 @@ export function describeAnalysisProblem(problem: Problem, rows: number[]): { sum
     case 429:
       return { summary: "Too many fits from this network in the last minute; the plot will update again shortly.", details: [] };
     case 413:
-      return { summary: "The data are too large to fit while you type. Saving still works, and the saved draft is analysed in full.", details: [] };
+      return {
+        summary: "The data are too large to fit while you type. Saving still works, and the saved draft is analysed in full.",
+        details: [],
+      };
     case 422: {
       const details = (problem.errors ?? []).slice(0, 10).map((e) => {
         const index = pointRowOf(e.pointer);
@@ -66,7 +84,10 @@ export function describeAnalysisProblem(problem: Problem, rows: number[]): { sum
       return { summary: "These data cannot be fitted yet.", details: details.length ? details : [problem.title] };
     }
     default:
-      return { summary: `The fit could not be run just now (the server answered ${problem.status}). Your data are unaffected.`, details: [] };
+      return {
+        summary: `The fit could not be run just now (the server answered ${problem.status}). Your data are unaffected.`,
+        details: [],
+      };
   }
 }
 
@@ -74,7 +95,11 @@ function plotPoints(fitted: Fitted): PlotPoint[] | null {
   const { body } = fitted.built;
   const outliers = new Set(fitted.response.analysis.flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []));
   try {
-    return body.points.map((p, i) => ({ T: toKelvin(p.T, body.units.T), lnk: Math.log(toCanonicalRateConstant(p.k, body.units.k, body.order)), outlier: outliers.has(i) }));
+    return body.points.map((p, i) => ({
+      T: toKelvin(p.T, body.units.T),
+      lnk: Math.log(toCanonicalRateConstant(p.k, body.units.k, body.order)),
+      outlier: outliers.has(i),
+    }));
   } catch {
     return null;
   }
@@ -82,7 +107,10 @@ function plotPoints(fitted: Fitted): PlotPoint[] | null {
 
 /** The fit of the rows as they stand, refreshed a moment after each change. */
 export function LiveAnalysis({ form }: { form: EditorForm }) {
-  const built = useMemo(() => buildAnalysisRequest(form.points, form.reaction.order, form.units), [form.points, form.reaction.order, form.units]);
+  const built = useMemo(
+    () => buildAnalysisRequest(form.points, form.reaction.order, form.units),
+    [form.points, form.reaction.order, form.units],
+  );
   const settled = useDebouncedValue(built, ANALYSIS_DELAY_MS);
   const bodyText = useMemo(() => JSON.stringify(settled.body), [settled]);
   const enough = settled.body.points.length >= 2;
@@ -113,7 +141,9 @@ export function LiveAnalysis({ form }: { form: EditorForm }) {
           <h2 id="analysis-heading" className="font-serif text-xl font-semibold">
             Fit of the current rows
           </h2>
-          <p className="text-sm text-muted">Fitted the way every dataset here is fitted, a moment after each change. Nothing is stored until you save.</p>
+          <p className="text-sm text-muted">
+            Fitted the way every dataset here is fitted, a moment after each change. Nothing is stored until you save.
+          </p>
         </div>
         <div className="space-y-1">
           <label htmlFor="analysis-energy-unit" className="block text-sm font-medium">
@@ -129,8 +159,16 @@ export function LiveAnalysis({ form }: { form: EditorForm }) {
         </div>
       </div>
       <p role="status" aria-live="polite" className="text-sm text-muted">
-        {!enough ? "Add at least two rows with a temperature and a rate constant to see the fit." : pending ? "Updating the fit…" : problem ? "" : `Fitted ${settled.body.points.length.toLocaleString("en")} rows.`}
-        {enough && settled.skipped > 0 && ` ${settled.skipped.toLocaleString("en")} row${settled.skipped === 1 ? "" : "s"} without a readable T and k left out.`}
+        {!enough
+          ? "Add at least two rows with a temperature and a rate constant to see the fit."
+          : pending
+            ? "Updating the fit…"
+            : problem
+              ? ""
+              : `Fitted ${settled.body.points.length.toLocaleString("en")} rows.`}
+        {enough &&
+          settled.skipped > 0 &&
+          ` ${settled.skipped.toLocaleString("en")} row${settled.skipped === 1 ? "" : "s"} without a readable T and k left out.`}
       </p>
       {problem && (
         <div role="alert" className="rounded-md border border-error/40 bg-panel px-3 py-2 text-sm text-error">
@@ -147,7 +185,13 @@ export function LiveAnalysis({ form }: { form: EditorForm }) {
       {fitted && !problem && (
         <div className={`space-y-4 ${pending ? "opacity-70" : ""}`}>
           <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{fitted.response.caution}</p>
-          {points && <ArrheniusPlot kUnitLabel={SUPPORTED_UNITS.rateConstant[order][0]?.label ?? getCanonicalRateConstantUnit(order)} band={fitted.response.analysis.band} points={points} />}
+          {points && (
+            <ArrheniusPlot
+              kUnitLabel={SUPPORTED_UNITS.rateConstant[order][0]?.label ?? getCanonicalRateConstantUnit(order)}
+              band={fitted.response.analysis.band}
+              points={points}
+            />
+          )}
           <ResultTables
             analysis={fitted.response.analysis}
             order={order}

@@ -23,7 +23,15 @@ export function MethodSection({ form, update }: SectionProps) {
           hint={METHOD_CATEGORIES.find((c) => c.id === m.category)?.hint}
         />
         <div>
-          <TextField pointer="/method/technique" label="Technique" required list="technique-suggestions" value={m.technique} onChange={(v) => set({ technique: v })} hint="In your own words; common ones are suggested as you type." />
+          <TextField
+            pointer="/method/technique"
+            label="Technique"
+            required
+            list="technique-suggestions"
+            value={m.technique}
+            onChange={(v) => set({ technique: v })}
+            hint="In your own words; common ones are suggested as you type."
+          />
           <datalist id="technique-suggestions">
             {TECHNIQUE_SUGGESTIONS.map((t) => (
               <option key={t} value={t} />
@@ -31,8 +39,21 @@ export function MethodSection({ form, update }: SectionProps) {
           </datalist>
         </div>
       </div>
-      <TextField pointer="/method/detection" label="Detection" value={m.detection} onChange={(v) => set({ detection: v })} hint="For experiments: how the species were followed, e.g. laser-induced fluorescence of OH." />
-      <TextAreaField pointer="/method/notes" label="Notes on the method" value={m.notes} onChange={(v) => set({ notes: v })} rows={3} hint="Level of theory, reference reaction of a relative-rate study, corrections applied…" />
+      <TextField
+        pointer="/method/detection"
+        label="Detection"
+        value={m.detection}
+        onChange={(v) => set({ detection: v })}
+        hint="For experiments: how the species were followed, e.g. laser-induced fluorescence of OH."
+      />
+      <TextAreaField
+        pointer="/method/notes"
+        label="Notes on the method"
+        value={m.notes}
+        onChange={(v) => set({ notes: v })}
+        rows={3}
+        hint="Level of theory, reference reaction of a relative-rate study, corrections applied…"
+      />
     </Section>
   );
 }

@@ -30,7 +30,10 @@ export function sectionAnchor(section: SectionId): string {
 type Rule = [RegExp, (form: EditorForm, m: RegExpExecArray) => boolean];
 
 const always = () => true;
-const within = (list: (f: EditorForm, m: RegExpExecArray) => unknown[], group = 1) => (f: EditorForm, m: RegExpExecArray) => Number(m[group]) < list(f, m).length;
+const within =
+  (list: (f: EditorForm, m: RegExpExecArray) => unknown[], group = 1) =>
+  (f: EditorForm, m: RegExpExecArray) =>
+    Number(m[group]) < list(f, m).length;
 const anyPointPressure = (f: EditorForm) => f.points.some((p) => p.pressure.trim() !== "");
 
 /** Every pointer the editor renders an input (or a group message) for, and when it is on screen. */
@@ -39,7 +42,10 @@ const RULES: Rule[] = [
   [/^\/creators\/(\d+)\/(name|orcid|affiliation)$/, within((f) => f.creators)],
   [/^\/funding\/(\d+)\/(funder|awardId|awardTitle)$/, within((f) => f.funding)],
   [/^\/reaction\/(reactants|products)$/, always],
-  [/^\/reaction\/(reactants|products)\/(\d+)\/(name|smiles|inchi|coefficient)$/, within((f, m) => f.reaction[m[1] as "reactants" | "products"], 2)],
+  [
+    /^\/reaction\/(reactants|products)\/(\d+)\/(name|smiles|inchi|coefficient)$/,
+    within((f, m) => f.reaction[m[1] as "reactants" | "products"], 2),
+  ],
   [/^\/reaction\/productsUnknown\/reason$/, (f) => f.reaction.productsUnknown],
   [/^\/reaction\/(class|order|phase)$/, always],
   [/^\/reaction\/solvent\/(name|smiles|inchi)$/, (f) => f.reaction.phase === "liquid"],
@@ -65,7 +71,8 @@ const RULES: Rule[] = [
 function alias(pointer: string): string | undefined {
   let m: RegExpExecArray | null;
   if ((m = /^\/reaction\/(reactants|products)\/(\d+)$/.exec(pointer))) return `${pointer}/smiles`;
-  if ((m = /^\/(creators|funding|relatedIdentifiers)\/(\d+)$/.exec(pointer))) return `${pointer}/${m[1] === "creators" ? "name" : m[1] === "funding" ? "funder" : "identifier"}`;
+  if ((m = /^\/(creators|funding|relatedIdentifiers)\/(\d+)$/.exec(pointer)))
+    return `${pointer}/${m[1] === "creators" ? "name" : m[1] === "funding" ? "funder" : "identifier"}`;
   switch (pointer) {
     case "/source":
       return "/source/doi";

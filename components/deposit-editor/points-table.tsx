@@ -15,7 +15,10 @@ const KIND_SHORT = [
   { value: "factor", label: "factor f" },
 ];
 
-const COVERAGE_SHORT = [{ value: "", label: "not stated (1σ)" }, ...CONFIDENCE_LEVELS.map((c) => ({ value: c.id, label: c.id === "1sigma" ? "1σ" : "2σ" }))];
+const COVERAGE_SHORT = [
+  { value: "", label: "not stated (1σ)" },
+  ...CONFIDENCE_LEVELS.map((c) => ({ value: c.id, label: c.id === "1sigma" ? "1σ" : "2σ" })),
+];
 
 function RowMessages({ index }: { index: number }) {
   const { messagesFor } = useEditorContext();
@@ -28,9 +31,17 @@ function RowMessages({ index }: { index: number }) {
  * The data as an editable table. A large table shows ROW_WINDOW rows at a time, with controls to move
  * through it; all rows are kept and saved.
  */
-export function PointsTable({ form, update, windowStart, onWindowStart, kLabel, TLabel }: SectionProps & { windowStart: number; onWindowStart: (start: number) => void; kLabel: string; TLabel: string }) {
+export function PointsTable({
+  form,
+  update,
+  windowStart,
+  onWindowStart,
+  kLabel,
+  TLabel,
+}: SectionProps & { windowStart: number; onWindowStart: (start: number) => void; kLabel: string; TLabel: string }) {
   const { readOnly, clearErrors, messagesFor } = useEditorContext();
-  const rowHasProblem = (i: number) => ["", "/T", "/k", "/uncertainty", "/pressure", "/bathGas", "/note"].some((leaf) => messagesFor(`/points/${i}${leaf}`).length > 0);
+  const rowHasProblem = (i: number) =>
+    ["", "/T", "/k", "/uncertainty", "/pressure", "/bathGas", "/note"].some((leaf) => messagesFor(`/points/${i}${leaf}`).length > 0);
   const [goTo, setGoTo] = useState("");
   const total = form.points.length;
   const { from, to, windowed } = visibleRows(total, windowStart);
@@ -38,7 +49,8 @@ export function PointsTable({ form, update, windowStart, onWindowStart, kLabel, 
   const showBathGas = form.points.some((p) => p.bathGas.trim() !== "");
   const pressureLabel = form.units.pressure;
 
-  const setRow = (i: number, patch: Partial<PointRow>) => update((f) => ({ ...f, points: replaceAt(f.points, i, (p) => ({ ...p, ...patch })) }));
+  const setRow = (i: number, patch: Partial<PointRow>) =>
+    update((f) => ({ ...f, points: replaceAt(f.points, i, (p) => ({ ...p, ...patch })) }));
   const removeRow = (i: number) => {
     // Rows after this one move up: the server's row problems no longer match their rows.
     clearErrors("/points");
@@ -66,9 +78,13 @@ export function PointsTable({ form, update, windowStart, onWindowStart, kLabel, 
   return (
     <div className="space-y-3">
       {windowed && (
-        <nav aria-label="Rows of the data table" className="flex flex-wrap items-end gap-3 rounded-md border border-line bg-paper px-3 py-2 text-sm">
+        <nav
+          aria-label="Rows of the data table"
+          className="flex flex-wrap items-end gap-3 rounded-md border border-line bg-paper px-3 py-2 text-sm"
+        >
           <p className="mr-auto">
-            Showing rows {(from + 1).toLocaleString("en")}–{to.toLocaleString("en")} of {total.toLocaleString("en")}. Large tables show {ROW_WINDOW} rows at a time; every row is kept and saved.
+            Showing rows {(from + 1).toLocaleString("en")}–{to.toLocaleString("en")} of {total.toLocaleString("en")}. Large tables show{" "}
+            {ROW_WINDOW} rows at a time; every row is kept and saved.
           </p>
           <button type="button" className="btn-secondary" disabled={from === 0} onClick={() => onWindowStart(from - ROW_WINDOW)}>
             Previous {ROW_WINDOW}
@@ -126,32 +142,82 @@ export function PointsTable({ form, update, windowStart, onWindowStart, kLabel, 
                     <RowMessages index={i} />
                   </th>
                   <td className="min-w-28">
-                    <NumberField pointer={`/points/${i}/T`} label={`T, row ${n}`} hideLabel value={p.T} onChange={(v) => setRow(i, { T: v })} />
+                    <NumberField
+                      pointer={`/points/${i}/T`}
+                      label={`T, row ${n}`}
+                      hideLabel
+                      value={p.T}
+                      onChange={(v) => setRow(i, { T: v })}
+                    />
                   </td>
                   <td className="min-w-36">
-                    <NumberField pointer={`/points/${i}/k`} label={`k, row ${n}`} hideLabel value={p.k} onChange={(v) => setRow(i, { k: v })} />
+                    <NumberField
+                      pointer={`/points/${i}/k`}
+                      label={`k, row ${n}`}
+                      hideLabel
+                      value={p.k}
+                      onChange={(v) => setRow(i, { k: v })}
+                    />
                   </td>
                   <td className="min-w-28">
-                    <NumberField pointer={`/points/${i}/uncertainty`} label={`Uncertainty, row ${n}`} hideLabel value={p.u} onChange={(v) => setRow(i, { u: v })} />
+                    <NumberField
+                      pointer={`/points/${i}/uncertainty`}
+                      label={`Uncertainty, row ${n}`}
+                      hideLabel
+                      value={p.u}
+                      onChange={(v) => setRow(i, { u: v })}
+                    />
                   </td>
                   <td className="min-w-32">
-                    <SelectField pointer={`/points/${i}/uncertainty/kind`} label={`Uncertainty stated as, row ${n}`} hideLabel value={p.uKind} onChange={(v) => setRow(i, { uKind: v as PointRow["uKind"] })} options={KIND_SHORT} />
+                    <SelectField
+                      pointer={`/points/${i}/uncertainty/kind`}
+                      label={`Uncertainty stated as, row ${n}`}
+                      hideLabel
+                      value={p.uKind}
+                      onChange={(v) => setRow(i, { uKind: v as PointRow["uKind"] })}
+                      options={KIND_SHORT}
+                    />
                   </td>
                   <td className="min-w-32">
-                    <SelectField pointer={`/points/${i}/uncertainty/confidence`} label={`Uncertainty covers, row ${n}`} hideLabel value={p.uConfidence} onChange={(v) => setRow(i, { uConfidence: v as PointRow["uConfidence"] })} options={COVERAGE_SHORT} />
+                    <SelectField
+                      pointer={`/points/${i}/uncertainty/confidence`}
+                      label={`Uncertainty covers, row ${n}`}
+                      hideLabel
+                      value={p.uConfidence}
+                      onChange={(v) => setRow(i, { uConfidence: v as PointRow["uConfidence"] })}
+                      options={COVERAGE_SHORT}
+                    />
                   </td>
                   {showPressure && (
                     <td className="min-w-24">
-                      <NumberField pointer={`/points/${i}/pressure`} label={`Pressure, row ${n}`} hideLabel value={p.pressure} onChange={(v) => setRow(i, { pressure: v })} />
+                      <NumberField
+                        pointer={`/points/${i}/pressure`}
+                        label={`Pressure, row ${n}`}
+                        hideLabel
+                        value={p.pressure}
+                        onChange={(v) => setRow(i, { pressure: v })}
+                      />
                     </td>
                   )}
                   {showBathGas && (
                     <td className="min-w-24">
-                      <TextField pointer={`/points/${i}/bathGas`} label={`Bath gas, row ${n}`} hideLabel value={p.bathGas} onChange={(v) => setRow(i, { bathGas: v })} />
+                      <TextField
+                        pointer={`/points/${i}/bathGas`}
+                        label={`Bath gas, row ${n}`}
+                        hideLabel
+                        value={p.bathGas}
+                        onChange={(v) => setRow(i, { bathGas: v })}
+                      />
                     </td>
                   )}
                   <td className="min-w-40">
-                    <TextField pointer={`/points/${i}/note`} label={`Note, row ${n}`} hideLabel value={p.note} onChange={(v) => setRow(i, { note: v })} />
+                    <TextField
+                      pointer={`/points/${i}/note`}
+                      label={`Note, row ${n}`}
+                      hideLabel
+                      value={p.note}
+                      onChange={(v) => setRow(i, { note: v })}
+                    />
                   </td>
                   {!readOnly && (
                     <td>
@@ -174,4 +240,3 @@ export function PointsTable({ form, update, windowStart, onWindowStart, kLabel, 
     </div>
   );
 }
-

@@ -23,21 +23,29 @@ export function equationText(form: EditorForm): string {
   };
   const left = form.reaction.reactants.map(label).join(" + ") || "?";
   const products = form.reaction.products.filter((p) => p.name.trim() || p.smiles.trim() || p.inchi.trim());
-  const right = form.reaction.productsUnknown && products.length === 0 ? "products not identified" : form.reaction.products.map(label).join(" + ") || "?";
+  const right =
+    form.reaction.productsUnknown && products.length === 0
+      ? "products not identified"
+      : form.reaction.products.map(label).join(" + ") || "?";
   return `${left} → ${right}`;
 }
 
 /** Order changes the dimension of k: keep the unit when it still fits, else take the canonical one. */
 export function withOrder(form: EditorForm, order: ReactionOrder): EditorForm {
   const fits = SUPPORTED_UNITS.rateConstant[order].some((u) => u.id === form.units.k);
-  return { ...form, reaction: { ...form.reaction, order }, units: { ...form.units, k: fits ? form.units.k : getCanonicalRateConstantUnit(order) } };
+  return {
+    ...form,
+    reaction: { ...form.reaction, order },
+    units: { ...form.units, k: fits ? form.units.k : getCanonicalRateConstantUnit(order) },
+  };
 }
 
 function SpeciesList({ side, form, update }: SectionProps & { side: Side }) {
   const { readOnly, clearErrors } = useEditorContext();
   const rows = form.reaction[side];
   const noun = side === "reactants" ? "Reactant" : "Product";
-  const set = (i: number, patch: Partial<SpeciesRow>) => update((f) => ({ ...f, reaction: { ...f.reaction, [side]: replaceAt(f.reaction[side], i, (s) => ({ ...s, ...patch })) } }));
+  const set = (i: number, patch: Partial<SpeciesRow>) =>
+    update((f) => ({ ...f, reaction: { ...f.reaction, [side]: replaceAt(f.reaction[side], i, (s) => ({ ...s, ...patch })) } }));
   return (
     <SubGroup legend={side === "reactants" ? "Reactants" : "Products"}>
       <GroupMessages pointer={`/reaction/${side}`} />
@@ -45,10 +53,35 @@ function SpeciesList({ side, form, update }: SectionProps & { side: Side }) {
       <ol className="space-y-3">
         {rows.map((s, i) => (
           <li key={i} className="grid items-start gap-3 md:grid-cols-[1fr_1fr_1.3fr_5rem_auto]">
-            <TextField pointer={`/reaction/${side}/${i}/name`} label={`${noun} ${i + 1}: name`} value={s.name} onChange={(v) => set(i, { name: v })} placeholder="e.g. hydroxyl radical" />
-            <TextField pointer={`/reaction/${side}/${i}/smiles`} label={`${noun} ${i + 1}: SMILES`} value={s.smiles} onChange={(v) => set(i, { smiles: v })} placeholder="e.g. [OH]" mono />
-            <TextField pointer={`/reaction/${side}/${i}/inchi`} label={`${noun} ${i + 1}: InChI`} value={s.inchi} onChange={(v) => set(i, { inchi: v })} placeholder="InChI=1S/…" mono />
-            <NumberField pointer={`/reaction/${side}/${i}/coefficient`} label={`${noun} ${i + 1}: how many`} value={s.coefficient} onChange={(v) => set(i, { coefficient: v })} />
+            <TextField
+              pointer={`/reaction/${side}/${i}/name`}
+              label={`${noun} ${i + 1}: name`}
+              value={s.name}
+              onChange={(v) => set(i, { name: v })}
+              placeholder="e.g. hydroxyl radical"
+            />
+            <TextField
+              pointer={`/reaction/${side}/${i}/smiles`}
+              label={`${noun} ${i + 1}: SMILES`}
+              value={s.smiles}
+              onChange={(v) => set(i, { smiles: v })}
+              placeholder="e.g. [OH]"
+              mono
+            />
+            <TextField
+              pointer={`/reaction/${side}/${i}/inchi`}
+              label={`${noun} ${i + 1}: InChI`}
+              value={s.inchi}
+              onChange={(v) => set(i, { inchi: v })}
+              placeholder="InChI=1S/…"
+              mono
+            />
+            <NumberField
+              pointer={`/reaction/${side}/${i}/coefficient`}
+              label={`${noun} ${i + 1}: how many`}
+              value={s.coefficient}
+              onChange={(v) => set(i, { coefficient: v })}
+            />
             {!readOnly && (
               <button
                 type="button"
@@ -58,7 +91,8 @@ function SpeciesList({ side, form, update }: SectionProps & { side: Side }) {
                   update((f) => ({ ...f, reaction: { ...f.reaction, [side]: removeAt(f.reaction[side], i) } }));
                 }}
               >
-                Remove<span className="sr-only">
+                Remove
+                <span className="sr-only">
                   {" "}
                   {noun.toLowerCase()} {i + 1}
                 </span>
@@ -71,7 +105,11 @@ function SpeciesList({ side, form, update }: SectionProps & { side: Side }) {
         ))}
       </ol>
       {!readOnly && (
-        <button type="button" className="btn-secondary" onClick={() => update((f) => ({ ...f, reaction: { ...f.reaction, [side]: [...f.reaction[side], blankSpecies()] } }))}>
+        <button
+          type="button"
+          className="btn-secondary"
+          onClick={() => update((f) => ({ ...f, reaction: { ...f.reaction, [side]: [...f.reaction[side], blankSpecies()] } }))}
+        >
           Add a {noun.toLowerCase()}
         </button>
       )}
@@ -95,9 +133,21 @@ export function ReactionSection({ form, update, checks }: SectionProps & { check
       </p>
       <SpeciesList side="reactants" form={form} update={update} />
       <SpeciesList side="products" form={form} update={update} />
-      <CheckboxField pointer="/reaction/productsUnknown" label="The products were not identified (the data describe the overall removal of the reactants)" checked={rx.productsUnknown} onChange={(v) => setRx({ productsUnknown: v })} />
+      <CheckboxField
+        pointer="/reaction/productsUnknown"
+        label="The products were not identified (the data describe the overall removal of the reactants)"
+        checked={rx.productsUnknown}
+        onChange={(v) => setRx({ productsUnknown: v })}
+      />
       {rx.productsUnknown && (
-        <TextField pointer="/reaction/productsUnknown/reason" label="Why the products are not given" required value={rx.productsUnknownReason} onChange={(v) => setRx({ productsUnknownReason: v })} placeholder="e.g. overall removal of OH measured; products not detected" />
+        <TextField
+          pointer="/reaction/productsUnknown/reason"
+          label="Why the products are not given"
+          required
+          value={rx.productsUnknownReason}
+          onChange={(v) => setRx({ productsUnknownReason: v })}
+          placeholder="e.g. overall removal of OH measured; products not detected"
+        />
       )}
       <div className="grid gap-4 md:grid-cols-3">
         <SelectField
@@ -122,21 +172,59 @@ export function ReactionSection({ form, update, checks }: SectionProps & { check
             { value: "3", label: "3 (k in cm⁶ molecule⁻² s⁻¹ or similar)" },
           ]}
         />
-        <SelectField pointer="/reaction/phase" label="Phase" required value={rx.phase} onChange={(v) => setRx({ phase: v as EditorForm["reaction"]["phase"] })} options={PHASES.map((p) => ({ value: p.id, label: p.label }))} />
+        <SelectField
+          pointer="/reaction/phase"
+          label="Phase"
+          required
+          value={rx.phase}
+          onChange={(v) => setRx({ phase: v as EditorForm["reaction"]["phase"] })}
+          options={PHASES.map((p) => ({ value: p.id, label: p.label }))}
+        />
       </div>
       {rx.phase === "liquid" && (
         <SubGroup legend="Solvent">
           <div className="grid gap-3 md:grid-cols-3">
-            <TextField pointer="/reaction/solvent/name" label="Solvent name" required value={rx.solventName} onChange={(v) => setRx({ solventName: v })} placeholder="e.g. water" />
-            <TextField pointer="/reaction/solvent/smiles" label="Solvent SMILES" value={rx.solventSmiles} onChange={(v) => setRx({ solventSmiles: v })} mono />
-            <TextField pointer="/reaction/solvent/inchi" label="Solvent InChI" value={rx.solventInchi} onChange={(v) => setRx({ solventInchi: v })} mono />
+            <TextField
+              pointer="/reaction/solvent/name"
+              label="Solvent name"
+              required
+              value={rx.solventName}
+              onChange={(v) => setRx({ solventName: v })}
+              placeholder="e.g. water"
+            />
+            <TextField
+              pointer="/reaction/solvent/smiles"
+              label="Solvent SMILES"
+              value={rx.solventSmiles}
+              onChange={(v) => setRx({ solventSmiles: v })}
+              mono
+            />
+            <TextField
+              pointer="/reaction/solvent/inchi"
+              label="Solvent InChI"
+              value={rx.solventInchi}
+              onChange={(v) => setRx({ solventInchi: v })}
+              mono
+            />
           </div>
         </SubGroup>
       )}
-      {rx.phase === "surface" && <TextField pointer="/reaction/surface" label="Surface" value={rx.surface} onChange={(v) => setRx({ surface: v })} placeholder="e.g. Pt(111) or soot particles" />}
+      {rx.phase === "surface" && (
+        <TextField
+          pointer="/reaction/surface"
+          label="Surface"
+          value={rx.surface}
+          onChange={(v) => setRx({ surface: v })}
+          placeholder="e.g. Pt(111) or soot particles"
+        />
+      )}
       <div className="space-y-2">
         <h3 className="text-sm font-semibold">Identity and balance, as of the last save</h3>
-        {checks.length === 0 ? <p className="text-sm text-muted">Save the draft to have each species identified and the elements and charge balanced.</p> : <CheckList checks={checks} />}
+        {checks.length === 0 ? (
+          <p className="text-sm text-muted">Save the draft to have each species identified and the elements and charge balanced.</p>
+        ) : (
+          <CheckList checks={checks} />
+        )}
       </div>
     </Section>
   );

@@ -14,20 +14,56 @@ export function ReportedFitSection({ form, update }: SectionProps) {
   const TLabel = SUPPORTED_UNITS.temperature.find((u) => u.id === form.units.T)?.label ?? form.units.T;
   const modified = r.model === "modified_arrhenius";
   return (
-    <Section id={sectionAnchor("fit")} title="Reported expression (optional)" description="The expression the authors give for their data, if any. It is compared with the automatic fit.">
-      <CheckboxField pointer="/reportedFit/enabled" label="The authors report an expression for k(T)" checked={r.enabled} onChange={(v) => set({ enabled: v })} />
+    <Section
+      id={sectionAnchor("fit")}
+      title="Reported expression (optional)"
+      description="The expression the authors give for their data, if any. It is compared with the automatic fit."
+    >
+      <CheckboxField
+        pointer="/reportedFit/enabled"
+        label="The authors report an expression for k(T)"
+        checked={r.enabled}
+        onChange={(v) => set({ enabled: v })}
+      />
       {r.enabled && (
         <>
           <GroupMessages pointer="/reportedFit" />
-          <SelectField pointer="/reportedFit/model" label="Form of the expression" value={r.model} onChange={(v) => set({ model: v as EditorForm["reportedFit"]["model"] })} options={FIT_MODELS.map((m) => ({ value: m.id, label: m.label }))} />
+          <SelectField
+            pointer="/reportedFit/model"
+            label="Form of the expression"
+            value={r.model}
+            onChange={(v) => set({ model: v as EditorForm["reportedFit"]["model"] })}
+            options={FIT_MODELS.map((m) => ({ value: m.id, label: m.label }))}
+          />
           <div className="grid gap-4 md:grid-cols-3">
             <NumberField pointer="/reportedFit/A" label={`A (${kLabel})`} required value={r.A} onChange={(v) => set({ A: v })} />
             {modified && <NumberField pointer="/reportedFit/n" label="n" required value={r.n} onChange={(v) => set({ n: v })} />}
-            {(modified || r.T0.trim() !== "") && <NumberField pointer="/reportedFit/T0" label={`T0 (${TLabel})`} value={r.T0} onChange={(v) => set({ T0: v })} hint="298.15 K when left empty." />}
+            {(modified || r.T0.trim() !== "") && (
+              <NumberField
+                pointer="/reportedFit/T0"
+                label={`T0 (${TLabel})`}
+                value={r.T0}
+                onChange={(v) => set({ T0: v })}
+                hint="298.15 K when left empty."
+              />
+            )}
           </div>
           <div className="grid gap-4 md:grid-cols-3">
-            <NumberField pointer="/reportedFit/Ea" label="Ea" required value={r.Ea} onChange={(v) => set({ Ea: v })} hint="May be negative." />
-            <SelectField pointer="/reportedFit/EaUnit" label="Unit of Ea" value={r.EaUnit} onChange={(v) => set({ EaUnit: v })} options={SUPPORTED_UNITS.energy.map((u) => ({ value: u.id, label: u.label }))} />
+            <NumberField
+              pointer="/reportedFit/Ea"
+              label="Ea"
+              required
+              value={r.Ea}
+              onChange={(v) => set({ Ea: v })}
+              hint="May be negative."
+            />
+            <SelectField
+              pointer="/reportedFit/EaUnit"
+              label="Unit of Ea"
+              value={r.EaUnit}
+              onChange={(v) => set({ EaUnit: v })}
+              options={SUPPORTED_UNITS.energy.map((u) => ({ value: u.id, label: u.label }))}
+            />
           </div>
           <div className="grid gap-4 md:grid-cols-3">
             <NumberField pointer="/reportedFit/Tmin" label={`Valid from (${TLabel})`} value={r.Tmin} onChange={(v) => set({ Tmin: v })} />

@@ -14,9 +14,12 @@ export type SaveState =
   | { kind: "failed"; message: string };
 
 /** Result of createDraftAction / saveDraftAction (the EditorResult of app/deposits/actions). */
-export type SaveResult = { ok: true; versionId: number; lockVersion: number; state: string } | { ok: false; status: number; message: string; errors: FieldError[] };
+export type SaveResult =
+  | { ok: true; versionId: number; lockVersion: number; state: string }
+  | { ok: false; status: number; message: string; errors: FieldError[] };
 
-export const CONFLICT_MESSAGE = "Someone else saved this draft after you opened it. Reload to see their changes — your edits are still here and were not stored.";
+export const CONFLICT_MESSAGE =
+  "Someone else saved this draft after you opened it. Reload to see their changes — your edits are still here and were not stored.";
 
 /** Milliseconds without a change before an existing draft saves itself. */
 export const AUTOSAVE_DELAY_MS = 3000;
@@ -26,7 +29,9 @@ export function stateAfterFailure(result: Extract<SaveResult, { ok: false }>, au
   switch (result.status) {
     case 409:
       // The lock message is ours to word; any other conflict (the version left the draft state) is the server's.
-      return /saved this draft after you opened it/i.test(result.message) ? { kind: "conflict" } : { kind: "conflict", detail: result.message };
+      return /saved this draft after you opened it/i.test(result.message)
+        ? { kind: "conflict" }
+        : { kind: "conflict", detail: result.message };
     case 422:
       return { kind: "invalid", message: result.message, count: result.errors.length, auto };
     case 401:

@@ -42,7 +42,14 @@ export function SpeciesPreview({ smiles, inchi }: { smiles: string; inchi: strin
   return (
     <div className="flex items-center gap-3 text-xs text-muted">
       {/* The SVG comes from RDKit on our server and carries no script. */}
-      {p.svg && <div className="h-[90px] w-[120px] shrink-0 overflow-hidden rounded-sm border border-line bg-white [&>svg]:h-full [&>svg]:w-full" role="img" aria-label={`Structure of ${p.formula}`} dangerouslySetInnerHTML={{ __html: p.svg }} />}
+      {p.svg && (
+        <div
+          className="h-[90px] w-[120px] shrink-0 overflow-hidden rounded-sm border border-line bg-white [&>svg]:h-full [&>svg]:w-full"
+          role="img"
+          aria-label={`Structure of ${p.formula}`}
+          dangerouslySetInnerHTML={{ __html: p.svg }}
+        />
+      )}
       <p>
         <span className="font-medium text-ink">{p.formula}</span>, {p.molarMass.toFixed(3)} g mol⁻¹
         {p.radicalElectrons ? `, radical (${p.radicalElectrons} unpaired)` : ""}

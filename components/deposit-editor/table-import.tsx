@@ -51,7 +51,13 @@ function headerUnits(table: InspectedTable, form: EditorForm): { T?: string; k?:
  * Bringing a table in: paste from a spreadsheet or upload a CSV, TSV or JSON file (25 MB at most),
  * choose what each column holds, look at the first rows, then use them.
  */
-export function TableImport({ form, onRows }: { form: EditorForm; onRows: (rows: PointRow[], mode: "replace" | "append", units: Partial<EditorForm["units"]>) => void }) {
+export function TableImport({
+  form,
+  onRows,
+}: {
+  form: EditorForm;
+  onRows: (rows: PointRow[], mode: "replace" | "append", units: Partial<EditorForm["units"]>) => void;
+}) {
   const id = useId();
   const [pasted, setPasted] = useState("");
   const [problem, setProblem] = useState<string | null>(null);
@@ -122,11 +128,24 @@ export function TableImport({ form, onRows }: { form: EditorForm; onRows: (rows:
           <label htmlFor={`${id}-paste`} className="block text-sm font-medium">
             Paste from a spreadsheet
           </label>
-          <textarea id={`${id}-paste`} value={pasted} onChange={(e) => setPasted(e.target.value)} rows={5} spellCheck={false} className="field-input font-mono" aria-describedby={`${id}-paste-hint`} />
+          <textarea
+            id={`${id}-paste`}
+            value={pasted}
+            onChange={(e) => setPasted(e.target.value)}
+            rows={5}
+            spellCheck={false}
+            className="field-input font-mono"
+            aria-describedby={`${id}-paste-hint`}
+          />
           <p id={`${id}-paste-hint`} className="text-xs text-muted">
             Copy the cells (with their header row, if any) and paste them here. Tabs, commas, semicolons or bars separate the columns.
           </p>
-          <button type="button" className="btn-secondary" disabled={pasted.trim() === ""} onClick={() => inspect(pasted, "the pasted table")}>
+          <button
+            type="button"
+            className="btn-secondary"
+            disabled={pasted.trim() === ""}
+            onClick={() => inspect(pasted, "the pasted table")}
+          >
             Read the pasted table
           </button>
         </div>
@@ -172,7 +191,8 @@ export function TableImport({ form, onRows }: { form: EditorForm; onRows: (rows:
       {table && inspected && (
         <section aria-labelledby={`${id}-mapping`} className="space-y-4 border-t border-line pt-4">
           <h4 id={`${id}-mapping`} className="text-sm font-semibold">
-            What each column holds — {inspected.origin}: {table.rows.length.toLocaleString("en")} row{table.rows.length === 1 ? "" : "s"}, {table.format.toUpperCase()}
+            What each column holds — {inspected.origin}: {table.rows.length.toLocaleString("en")} row{table.rows.length === 1 ? "" : "s"},{" "}
+            {table.format.toUpperCase()}
             {table.hasHeader ? ", with a header row" : ", no header row"}
           </h4>
           <div className="grid gap-3 sm:grid-cols-3 lg:grid-cols-6">
@@ -204,7 +224,12 @@ export function TableImport({ form, onRows }: { form: EditorForm; onRows: (rows:
                 <label htmlFor={`${id}-ukind`} className="block text-sm font-medium">
                   The uncertainty column is
                 </label>
-                <select id={`${id}-ukind`} className="field-input" value={uKind} onChange={(e) => setUKind(e.target.value as UncertaintyKind)}>
+                <select
+                  id={`${id}-ukind`}
+                  className="field-input"
+                  value={uKind}
+                  onChange={(e) => setUKind(e.target.value as UncertaintyKind)}
+                >
                   {UNCERTAINTY_KINDS.map((k) => (
                     <option key={k.id} value={k.id}>
                       {k.label}
@@ -216,7 +241,12 @@ export function TableImport({ form, onRows }: { form: EditorForm; onRows: (rows:
                 <label htmlFor={`${id}-conf`} className="block text-sm font-medium">
                   It covers
                 </label>
-                <select id={`${id}-conf`} className="field-input" value={confidence} onChange={(e) => setConfidence(e.target.value as ConfidenceLevel)}>
+                <select
+                  id={`${id}-conf`}
+                  className="field-input"
+                  value={confidence}
+                  onChange={(e) => setConfidence(e.target.value as ConfidenceLevel)}
+                >
                   {CONFIDENCE_LEVELS.map((c) => (
                     <option key={c.id} value={c.id}>
                       {c.label}
@@ -228,10 +258,22 @@ export function TableImport({ form, onRows }: { form: EditorForm; onRows: (rows:
           )}
           {Object.keys(suggestedUnits).length > 0 && (
             <div className="flex items-start gap-2">
-              <input id={`${id}-units`} type="checkbox" checked={useHeaderUnits} onChange={(e) => setUseHeaderUnits(e.target.checked)} className="mt-1 h-4 w-4 accent-accent" />
+              <input
+                id={`${id}-units`}
+                type="checkbox"
+                checked={useHeaderUnits}
+                onChange={(e) => setUseHeaderUnits(e.target.checked)}
+                className="mt-1 h-4 w-4 accent-accent"
+              />
               <label htmlFor={`${id}-units`} className="text-sm">
                 Use the units named in the headers:{" "}
-                {[suggestedUnits.T && `T in ${suggestedUnits.T}`, suggestedUnits.k && `k in ${suggestedUnits.k}`, suggestedUnits.pressure && `pressure in ${suggestedUnits.pressure}`].filter(Boolean).join(", ")}
+                {[
+                  suggestedUnits.T && `T in ${suggestedUnits.T}`,
+                  suggestedUnits.k && `k in ${suggestedUnits.k}`,
+                  suggestedUnits.pressure && `pressure in ${suggestedUnits.pressure}`,
+                ]
+                  .filter(Boolean)
+                  .join(", ")}
               </label>
             </div>
           )}
@@ -268,10 +310,24 @@ export function TableImport({ form, onRows }: { form: EditorForm; onRows: (rows:
               <legend className="text-sm font-medium">The data already has {form.points.length.toLocaleString("en")} rows</legend>
               <div className="flex flex-wrap gap-4 text-sm">
                 <label className="flex items-center gap-2">
-                  <input type="radio" name={`${id}-mode`} checked={mode === "replace"} onChange={() => setMode("replace")} className="accent-accent" /> Replace them
+                  <input
+                    type="radio"
+                    name={`${id}-mode`}
+                    checked={mode === "replace"}
+                    onChange={() => setMode("replace")}
+                    className="accent-accent"
+                  />{" "}
+                  Replace them
                 </label>
                 <label className="flex items-center gap-2">
-                  <input type="radio" name={`${id}-mode`} checked={mode === "append"} onChange={() => setMode("append")} className="accent-accent" /> Add these after them
+                  <input
+                    type="radio"
+                    name={`${id}-mode`}
+                    checked={mode === "append"}
+                    onChange={() => setMode("append")}
+                    className="accent-accent"
+                  />{" "}
+                  Add these after them
                 </label>
               </div>
             </fieldset>
@@ -292,10 +348,16 @@ export function TableImport({ form, onRows }: { form: EditorForm; onRows: (rows:
           {outcome.imported > 0 && (
             <p className="text-ok">
               {outcome.imported.toLocaleString("en")} row{outcome.imported === 1 ? "" : "s"} brought into the data table
-              {outcome.errors.length > 0 && outcome.dropped === 0 ? "; rows with problems are kept there as typed, marked, for you to correct." : "."}
+              {outcome.errors.length > 0 && outcome.dropped === 0
+                ? "; rows with problems are kept there as typed, marked, for you to correct."
+                : "."}
             </p>
           )}
-          {outcome.dropped > 0 && <p className="text-error">{outcome.dropped.toLocaleString("en")} rows with problems were left out; correct the file and bring it in again to keep them.</p>}
+          {outcome.dropped > 0 && (
+            <p className="text-error">
+              {outcome.dropped.toLocaleString("en")} rows with problems were left out; correct the file and bring it in again to keep them.
+            </p>
+          )}
           {outcome.errors.length > 0 && (
             <div className="rounded-md border border-error/40 bg-panel px-3 py-2 text-error">
               <p className="font-semibold">Problems in the table (row numbers count data rows of the table, from 1):</p>

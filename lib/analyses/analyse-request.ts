@@ -62,7 +62,11 @@ export function runAnalysisOrThrow(request: AnalysisRequest): AnalysisResponse {
     try {
       k = toCanonicalRateConstant(p.k, kUnit, order);
     } catch (err) {
-      throw toProblem(err, err instanceof UnitError && (err.code === "unknown_unit" || err.code === "order_mismatch") ? "/units/k" : `/points/${i}/k`, p.k);
+      throw toProblem(
+        err,
+        err instanceof UnitError && (err.code === "unknown_unit" || err.code === "order_mismatch") ? "/units/k" : `/points/${i}/k`,
+        p.k,
+      );
     }
     points.push(p.sigmaLnK === undefined ? { T, k } : { T, k, sigmaLnK: p.sigmaLnK });
   }

@@ -28,10 +28,16 @@ export function parseColumns(text: string): ParsedColumns {
     // Tabs or semicolons, when present, separate the columns; then a comma can only be a decimal
     // comma, which is refused rather than silently split into two numbers.
     const delimiter = trimmed.includes("\t") ? /\t+/ : trimmed.includes(";") ? /\s*;\s*/ : /[\s,]+/;
-    const cells = trimmed.split(delimiter).map((c) => c.trim()).filter(Boolean);
+    const cells = trimmed
+      .split(delimiter)
+      .map((c) => c.trim())
+      .filter(Boolean);
     const comma = cells.find((c) => /^[+-]?\d+,\d/.test(c));
     if (comma) {
-      out.errors.push({ line, message: `line ${line}: “${comma}” has a decimal comma; write it with a point (${comma.replace(",", ".")})` });
+      out.errors.push({
+        line,
+        message: `line ${line}: “${comma}” has a decimal comma; write it with a point (${comma.replace(",", ".")})`,
+      });
       return;
     }
     if (out.points.length === 0 && out.errors.length === 0 && !cells.some((c) => NUMBER.test(c))) return; // header

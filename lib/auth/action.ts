@@ -58,7 +58,12 @@ function unstorableFields(formData: FormData): Record<string, string> | null {
 function toState(err: unknown, formData?: FormData): ActionState {
   err = storageRefusal(err) ?? err;
   if (err instanceof AppError) {
-    return { status: "error", message: err.message, fieldErrors: Object.fromEntries(err.errors.map((e) => [e.pointer.replace(/^\//, ""), e.message])), values: formData ? echoValues(formData) : undefined };
+    return {
+      status: "error",
+      message: err.message,
+      fieldErrors: Object.fromEntries(err.errors.map((e) => [e.pointer.replace(/^\//, ""), e.message])),
+      values: formData ? echoValues(formData) : undefined,
+    };
   }
   // Next's redirect()/notFound() work by throwing: let them through.
   if (err && typeof err === "object" && "digest" in err) throw err;
@@ -73,12 +78,18 @@ export function protectedAction<S extends z.ZodType>(schema: S, options: { permi
       const user = await getCurrentUser();
       if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
       const unstorable = unstorableFields(formData);
-      if (unstorable) return { status: "error", message: "Please correct the marked fields.", fieldErrors: unstorable, values: echoValues(formData) };
+      if (unstorable)
+        return { status: "error", message: "Please correct the marked fields.", fieldErrors: unstorable, values: echoValues(formData) };
       const parsed = schema.safeParse(formToObject(formData));
       if (!parsed.success) {
         const missing = notFoundFromIssues(parsed.error);
         if (missing) throw missing;
-        return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error), values: echoValues(formData) };
+        return {
+          status: "error",
+          message: "Please correct the marked fields.",
+          fieldErrors: fieldErrors(parsed.error),
+          values: echoValues(formData),
+        };
       }
       assertAllowed(user, { permission: options.permission });
       return (await body(parsed.data, user)) ?? { status: "ok" };
@@ -93,9 +104,16 @@ export function publicAction<S extends z.ZodType>(schema: S, body: PublicBody<S>
   return async (_prev: ActionState, formData: FormData): Promise<ActionState> => {
     try {
       const unstorable = unstorableFields(formData);
-      if (unstorable) return { status: "error", message: "Please correct the marked fields.", fieldErrors: unstorable, values: echoValues(formData) };
+      if (unstorable)
+        return { status: "error", message: "Please correct the marked fields.", fieldErrors: unstorable, values: echoValues(formData) };
       const parsed = schema.safeParse(formToObject(formData));
-      if (!parsed.success) return { status: "error", message: "Please correct the marked fields.", fieldErrors: fieldErrors(parsed.error), values: echoValues(formData) };
+      if (!parsed.success)
+        return {
+          status: "error",
+          message: "Please correct the marked fields.",
+          fieldErrors: fieldErrors(parsed.error),
+          values: echoValues(formData),
+        };
       return (await body(parsed.data)) ?? { status: "ok" };
     } catch (err) {
       return toState(err, formData);
@@ -108,7 +126,11 @@ export function publicAction<S extends z.ZodType>(schema: S, body: PublicBody<S>
  * the arguments → permission → body. Throws AppError (bad arguments are a 422 with pointers);
  * the caller turns it into its result type.
  */
-export function protectedCall<S extends z.ZodType, R>(schema: S, options: { permission: Permission }, body: (input: z.infer<S>, user: UserDto) => Promise<R>) {
+export function protectedCall<S extends z.ZodType, R>(
+  schema: S,
+  options: { permission: Permission },
+  body: (input: z.infer<S>, user: UserDto) => Promise<R>,
+) {
   return async (args: z.input<S>): Promise<R> => {
     const user = await getCurrentUser();
     if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
@@ -118,7 +140,11 @@ export function protectedCall<S extends z.ZodType, R>(schema: S, options: { perm
       if (missing) throw missing;
       const errors = zodToFieldErrors(parsed.error);
       const first = errors[0];
-      throw new AppError("validation_failed", first ? `${first.message} (${first.pointer.slice(1) || "arguments"})` : "Invalid arguments", errors);
+      throw new AppError(
+        "validation_failed",
+        first ? `${first.message} (${first.pointer.slice(1) || "arguments"})` : "Invalid arguments",
+        errors,
+      );
     }
     assertAllowed(user, { permission: options.permission });
     return body(parsed.data, user);

@@ -37,7 +37,8 @@ export function zodToFieldErrors(error: ZodError, base = ""): FieldError[] {
   return error.issues.flatMap((i) => {
     const at = base + i.path.map((p) => `/${escapePointer(p)}`).join("");
     // An unexpected property is reported at the property itself.
-    if (i.code === "unrecognized_keys") return i.keys.map((k) => ({ pointer: `${at}/${escapePointer(k)}`, message: `unexpected property “${k}”` }));
+    if (i.code === "unrecognized_keys")
+      return i.keys.map((k) => ({ pointer: `${at}/${escapePointer(k)}`, message: `unexpected property “${k}”` }));
     return [{ pointer: at, message: i.message }];
   });
 }
@@ -67,7 +68,8 @@ export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S
   const unstorable = findUnstorableText(body);
   if (unstorable.length) throw new AppError("validation_failed", unstorable[0].message, unstorable);
   const parsed = schema.safeParse(body);
-  if (!parsed.success) throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
+  if (!parsed.success)
+    throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
   return parsed.data;
 }
 
@@ -75,7 +77,10 @@ export async function parseJsonBody<S extends z.ZodType>(req: Request, schema: S
 export function assertStorableQuery(url: URL): void {
   for (const [name, value] of url.searchParams) {
     const why = describeUnstorableText(name) ?? describeUnstorableText(value);
-    if (why) throw new AppError("validation_failed", `The query parameter “${name}” ${why}`, [{ pointer: `/${escapePointer(name)}`, message: `The query parameter “${name}” ${why}.`, value }]);
+    if (why)
+      throw new AppError("validation_failed", `The query parameter “${name}” ${why}`, [
+        { pointer: `/${escapePointer(name)}`, message: `The query parameter “${name}” ${why}.`, value },
+      ]);
   }
 }
 
@@ -83,9 +88,13 @@ export function assertStorableQuery(url: URL): void {
  * Route handler wrapper: who is calling (session or bearer token) → permission → handler →
  * one error shape (RFC 9457 problem+json). Internals are logged, never echoed.
  */
-export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>) => Promise<Response>, options: ApiOptions = { scope: null }) {
+export function withApi<P = Record<string, string>>(
+  handler: (ctx: ApiContext<P>) => Promise<Response>,
+  options: ApiOptions = { scope: null },
+) {
   // Checked when the route module loads, so an endpoint that forgets its scope never serves.
-  if ((options.permission || options.identify) && !options.scope) throw new Error("withApi: an endpoint that knows its caller must declare the token scope it needs");
+  if ((options.permission || options.identify) && !options.scope)
+    throw new Error("withApi: an endpoint that knows its caller must declare the token scope it needs");
   const route = async (req: Request, context: { params: Promise<P> }) => {
     const url = new URL(req.url);
     const instance = url.pathname;
@@ -94,12 +103,14 @@ export function withApi<P = Record<string, string>>(handler: (ctx: ApiContext<P>
       const secret = bearerSecret(req);
       const wantsCaller = options.permission || options.identify;
       // Public endpoints skip the session look-up unless they ask for it.
-      const user = secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
+      const user =
+        secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
       if (options.permission) assertAllowed(user, { permission: options.permission });
       return await handler({ req, user, params: await context.params });
     } catch (err) {
       if (err instanceof AppError) return problemResponse(err, instance);
-      if (err instanceof ZodError) return problemResponse(new AppError("validation_failed", "Invalid input", zodToFieldErrors(err)), instance);
+      if (err instanceof ZodError)
+        return problemResponse(new AppError("validation_failed", "Invalid input", zodToFieldErrors(err)), instance);
       const refused = storageRefusal(err);
       if (refused) {
         console.warn(`[api] ${req.method} ${instance}: input refused by the database`, err);

@@ -17,7 +17,10 @@ export function compileTrustProxy(value: string): TrustProxy {
     const hops = Number(v);
     return (_address, hop) => hop < hops;
   }
-  const list = v.split(",").map((s) => s.trim()).filter(Boolean);
+  const list = v
+    .split(",")
+    .map((s) => s.trim())
+    .filter(Boolean);
   try {
     return proxyaddr.compile(list);
   } catch (err) {
@@ -61,20 +64,43 @@ export function forwardedHeaders(req: http.IncomingMessage, trust: TrustProxy, k
   return headers;
 }
 
-export async function startEdgeProxy({ host, port, upstreamPort, trust, key }: { host: string; port: number; upstreamPort: number; trust: TrustProxy; key: string }) {
+export async function startEdgeProxy({
+  host,
+  port,
+  upstreamPort,
+  trust,
+  key,
+}: {
+  host: string;
+  port: number;
+  upstreamPort: number;
+  trust: TrustProxy;
+  key: string;
+}) {
   const agent = new http.Agent({ keepAlive: true });
   const server = http.createServer((req, res) => {
     const headers = forwardedHeaders(req, trust, key);
     if (isCrossOriginPagePost(req.method, req.url, headers as http.IncomingHttpHeaders)) {
       res.writeHead(403, { "content-type": "application/problem+json" });
-      res.end(JSON.stringify({ type: "about:blank", title: "Forbidden", status: 403, code: "forbidden", detail: "This form was sent from another site." }));
+      res.end(
+        JSON.stringify({
+          type: "about:blank",
+          title: "Forbidden",
+          status: 403,
+          code: "forbidden",
+          detail: "This form was sent from another site.",
+        }),
+      );
       req.resume();
       return;
     }
-    const upstream = http.request({ host: "127.0.0.1", port: upstreamPort, method: req.method, path: req.url, headers, agent }, (answer) => {
-      res.writeHead(answer.statusCode ?? 502, answer.headers);
-      answer.pipe(res);
-    });
+    const upstream = http.request(
+      { host: "127.0.0.1", port: upstreamPort, method: req.method, path: req.url, headers, agent },
+      (answer) => {
+        res.writeHead(answer.statusCode ?? 502, answer.headers);
+        answer.pipe(res);
+      },
+    );
     upstream.on("error", () => {
       if (!res.headersSent) res.writeHead(502, { "content-type": "text/plain" }).end("The application is starting or unavailable.");
       else res.destroy();

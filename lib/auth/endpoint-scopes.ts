@@ -11,7 +11,12 @@ export const endpointScopes: { method: string; path: string; scope: ApiTokenScop
   { method: "POST", path: "/api/v1/datasets", scope: "deposit", who: "researchers" },
   { method: "GET", path: "/api/v1/versions/:id", scope: "read", who: "anyone for published versions; co-editors and curators otherwise" },
   { method: "PUT", path: "/api/v1/versions/:id", scope: "deposit", who: "owner and editors of a draft" },
-  { method: "POST", path: "/api/v1/versions/:id/transitions", scope: "deposit", who: "owner (submit, withdraw); curators (review, decide, retract)" },
+  {
+    method: "POST",
+    path: "/api/v1/versions/:id/transitions",
+    scope: "deposit",
+    who: "owner (submit, withdraw); curators (review, decide, retract)",
+  },
   { method: "POST", path: "/api/v1/versions/:id/next", scope: "deposit", who: "owner of a published version" },
   { method: "GET", path: "/api/v1/versions/:id/files", scope: "read", who: "whoever may see the version" },
   { method: "POST", path: "/api/v1/versions/:id/files", scope: "deposit", who: "owner and editors of a draft" },

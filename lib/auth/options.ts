@@ -88,7 +88,13 @@ export async function authorizeSignInLink(raw: unknown, ip: string) {
   if (!user || user.deactivatedAt || !user.emailVerifiedAt) throw new Error("This account cannot sign in. Write to an administrator.");
   await resetLimit("signInAccount", user.email);
   await resetLimit("signInPair", pairKey(user.email, ip));
-  await recordAuditEvent(getDb(), { actorId: user.id, action: "user.signed_in", subjectType: "user", subjectId: user.id, details: { ip, through: "mailed link" } });
+  await recordAuditEvent(getDb(), {
+    actorId: user.id,
+    action: "user.signed_in",
+    subjectType: "user",
+    subjectId: user.id,
+    details: { ip, through: "mailed link" },
+  });
   return toSessionUser(user);
 }
 

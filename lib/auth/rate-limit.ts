@@ -6,7 +6,8 @@ import { AppError } from "@/lib/errors";
 
 // Counters live in PostgreSQL (table rate_limits, created by our migrations) so limits hold
 // across every app instance.
-type LimiterName = "signInIp" | "signInPair" | "signInAccount" | "unlockMail" | "signUpIp" | "signUpEmail" | "resetEmail" | "resetIp" | "analysisIp";
+type LimiterName =
+  "signInIp" | "signInPair" | "signInAccount" | "unlockMail" | "signUpIp" | "signUpEmail" | "resetEmail" | "resetIp" | "analysisIp";
 
 const limits: Record<LimiterName, { points: number; duration: number; blockDuration?: number }> = {
   signInIp: { points: 30, duration: 15 * 60 },

@@ -46,7 +46,8 @@ function addSide(
       }
       totals.elements[symbol] = (totals.elements[symbol] ?? 0) + sign * species.coefficient * count;
     }
-    if (!Number.isFinite(species.charge)) throw new ChemError("invalid_reaction", `Species ${index + 1} among the ${field} has an invalid charge.`, field);
+    if (!Number.isFinite(species.charge))
+      throw new ChemError("invalid_reaction", `Species ${index + 1} among the ${field} has an invalid charge.`, field);
     totals.charge += sign * species.coefficient * species.charge;
   });
 }

@@ -95,7 +95,11 @@ function readAtoms(mol: Mol, smiles: string) {
       const nuclide = `${isotope}${symbol}`;
       const nuclideMass = NUCLIDE_MASSES[nuclide];
       if (nuclideMass === undefined) {
-        throw new ChemError("unsupported_species", `The SMILES ${quoteInput(smiles)} has the isotope label ${nuclide}, whose mass is not on file.`, "smiles");
+        throw new ChemError(
+          "unsupported_species",
+          `The SMILES ${quoteInput(smiles)} has the isotope label ${nuclide}, whose mass is not on file.`,
+          "smiles",
+        );
       }
       mass += nuclideMass;
     } else {

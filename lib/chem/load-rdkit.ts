@@ -44,8 +44,7 @@ async function loadToolkit(): Promise<Toolkit> {
   const wasm = findWasmFile();
   const rdkit = await initRdkitModule({
     // Without a path RDKit falls back to its own script folder, which is right when unbundled.
-    locateFile: (file: string, scriptDirectory: string) =>
-      file.endsWith(".wasm") && wasm ? wasm : scriptDirectory + file,
+    locateFile: (file: string, scriptDirectory: string) => (file.endsWith(".wasm") && wasm ? wasm : scriptDirectory + file),
   });
   // Warnings such as "not removing hydrogen atom without neighbors" are noise on a server.
   rdkit.disable_logging("rdApp.warning");
@@ -110,10 +109,18 @@ export async function parseSmilesOrThrow(smiles: string): Promise<Mol> {
   const text = smiles.trim();
   if (!text) throw new ChemError("missing_structure", "The SMILES is empty.", "smiles");
   if (text.startsWith("InChI=")) {
-    throw new ChemError("invalid_smiles", `Could not read the SMILES ${quoteInput(text)} (this is an InChI; enter it in the InChI field)`, "smiles");
+    throw new ChemError(
+      "invalid_smiles",
+      `Could not read the SMILES ${quoteInput(text)} (this is an InChI; enter it in the InChI field)`,
+      "smiles",
+    );
   }
   if (text.length > MAX_SMILES_LENGTH) {
-    throw new ChemError("invalid_smiles", `Could not read the SMILES ${quoteInput(text)} (longer than ${MAX_SMILES_LENGTH} characters)`, "smiles");
+    throw new ChemError(
+      "invalid_smiles",
+      `Could not read the SMILES ${quoteInput(text)} (longer than ${MAX_SMILES_LENGTH} characters)`,
+      "smiles",
+    );
   }
   // RDKit would silently read text after a space or line break as a name or CXSMILES extension.
   if (/\s/.test(text)) {
@@ -125,7 +132,8 @@ export async function parseSmilesOrThrow(smiles: string): Promise<Mol> {
   const mol = rdkit.get_mol(text);
   const logged = errorLog?.get_buffer() ?? "";
   errorLog?.clear_buffer();
-  if (!mol) throw new ChemError("invalid_smiles", `Could not read the SMILES ${quoteInput(text)} (${explainSmilesError(logged)})`, "smiles");
+  if (!mol)
+    throw new ChemError("invalid_smiles", `Could not read the SMILES ${quoteInput(text)} (${explainSmilesError(logged)})`, "smiles");
   if (!mol.is_valid()) {
     mol.delete();
     throw new ChemError("invalid_smiles", `Could not read the SMILES ${quoteInput(text)} (not a valid structure)`, "smiles");

@@ -29,7 +29,11 @@ function formatSide(side: readonly KeyedParticipant[], field: "reactants" | "pro
     const key = inchiKey.trim().toUpperCase();
     if (!INCHI_KEY.test(key)) throw new ChemError("invalid_reaction", `"${inchiKey}" among the ${field} is not an InChIKey.`, field);
     if (!Number.isFinite(coefficient) || coefficient <= 0) {
-      throw new ChemError("invalid_reaction", `The coefficient of ${key} among the ${field} must be a positive number, not ${coefficient}.`, field);
+      throw new ChemError(
+        "invalid_reaction",
+        `The coefficient of ${key} among the ${field} must be a positive number, not ${coefficient}.`,
+        field,
+      );
     }
     // The same species listed twice on one side is the same as one entry with the summed coefficient.
     totals.set(key, (totals.get(key) ?? 0) + coefficient);

@@ -20,7 +20,11 @@ const UNSAFE_SVG = /<script|<foreignObject|<iframe|\son[a-z]+\s*=|javascript:|<!
 
 function checkSide(value: number, name: "width" | "height"): number {
   if (!Number.isInteger(value) || value < MIN_SIDE || value > MAX_SIDE) {
-    throw new ChemError("invalid_drawing_size", `The drawing ${name} must be a whole number of pixels from ${MIN_SIDE} to ${MAX_SIDE}, not ${value}.`, "size");
+    throw new ChemError(
+      "invalid_drawing_size",
+      `The drawing ${name} must be a whole number of pixels from ${MIN_SIDE} to ${MAX_SIDE}, not ${value}.`,
+      "size",
+    );
   }
   return value;
 }

@@ -6,9 +6,25 @@ import { lifecycle, stateWords, transitionWords, type CoEditorRole, type Transit
 /** Everything a person can do to one dataset version. */
 export type VersionAction = "view" | "view_decisions" | "edit" | "upload_files" | "start_next_version" | "invite" | Transition;
 
-export const versionActions: readonly VersionAction[] = ["view", "view_decisions", "edit", "upload_files", "start_next_version", "invite", ...(Object.keys(lifecycle) as Transition[])];
+export const versionActions: readonly VersionAction[] = [
+  "view",
+  "view_decisions",
+  "edit",
+  "upload_files",
+  "start_next_version",
+  "invite",
+  ...(Object.keys(lifecycle) as Transition[]),
+];
 
-export const versionStates: readonly VersionState[] = ["draft", "submitted", "in_review", "changes_requested", "published", "declined", "retracted"];
+export const versionStates: readonly VersionState[] = [
+  "draft",
+  "submitted",
+  "in_review",
+  "changes_requested",
+  "published",
+  "declined",
+  "retracted",
+];
 
 /** What each role on a dataset allows, before the state of the version is considered. */
 export const datasetRoleTable = {
@@ -98,22 +114,37 @@ export function assertVersionCapability(input: CapabilityInput, action: VersionA
   if (caps[action]) return caps;
   const inSomeState = versionStates.some((state) => versionCapabilities({ ...input, state })[action]);
   if (!inSomeState) {
-    const coEditingCurator = can(input.siteRole, "dataset.review") && input.datasetRole !== null && action in lifecycle && lifecycle[action as Transition].by === "curator";
+    const coEditingCurator =
+      can(input.siteRole, "dataset.review") &&
+      input.datasetRole !== null &&
+      action in lifecycle &&
+      lifecycle[action as Transition].by === "curator";
     throw new AppError("forbidden", coEditingCurator ? "You co-edit this dataset, so another curator must review it" : denials[action]);
   }
-  if (action in lifecycle) throw new AppError("conflict", `This version is ${stateWords[input.state]}; it cannot be ${transitionWords[action as Transition]} now`);
-  throw new AppError("conflict", stateDenials[action]?.(input.state) ?? `This version is ${stateWords[input.state]}; that is not possible now`);
+  if (action in lifecycle)
+    throw new AppError("conflict", `This version is ${stateWords[input.state]}; it cannot be ${transitionWords[action as Transition]} now`);
+  throw new AppError(
+    "conflict",
+    stateDenials[action]?.(input.state) ?? `This version is ${stateWords[input.state]}; that is not possible now`,
+  );
 }
 
 /**
  * Decides a lifecycle transition for `actor` on a version in `state`: returns the next state or
  * throws 404 / 403 / 409 (as assertVersionCapability) or 422 when a required reason is missing.
  */
-export function planTransition(state: VersionState, transition: Transition, actor: { role: Role | null; datasetRole: CoEditorRole | null }, reason?: string): VersionState {
+export function planTransition(
+  state: VersionState,
+  transition: Transition,
+  actor: { role: Role | null; datasetRole: CoEditorRole | null },
+  reason?: string,
+): VersionState {
   assertVersionCapability({ state, siteRole: actor.role, datasetRole: actor.datasetRole }, transition);
   const rule = lifecycle[transition];
   if (rule.needsReason && !(reason && reason.trim().length >= 3)) {
-    throw new AppError("validation_failed", "Give a reason: it is sent to the authors and kept on the record", [{ pointer: "/reason", message: "required" }]);
+    throw new AppError("validation_failed", "Give a reason: it is sent to the authors and kept on the record", [
+      { pointer: "/reason", message: "required" },
+    ]);
   }
   return rule.to;
 }

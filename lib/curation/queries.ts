@@ -35,7 +35,13 @@ export async function listReviewQueue(q: QueueQuery) {
   if (q.olderThanDays) where.push(lt(datasetVersions.submittedAt, new Date(Date.now() - q.olderThanDays * 86_400_000)));
   const dir = q.direction === "desc" ? desc : asc;
   const order =
-    q.sort === "title" ? dir(datasetVersions.title) : q.sort === "severity" ? dir(severityOrder) : q.sort === "points" ? dir(datasetVersions.pointCount) : dir(datasetVersions.submittedAt);
+    q.sort === "title"
+      ? dir(datasetVersions.title)
+      : q.sort === "severity"
+        ? dir(severityOrder)
+        : q.sort === "points"
+          ? dir(datasetVersions.pointCount)
+          : dir(datasetVersions.submittedAt);
   const rows = await db
     .select({
       versionId: datasetVersions.id,
@@ -59,7 +65,10 @@ export async function listReviewQueue(q: QueueQuery) {
     .orderBy(order, asc(datasetVersions.id))
     .limit(pageSize)
     .offset((page - 1) * pageSize);
-  const [{ n }] = await db.select({ n: count() }).from(datasetVersions).where(and(...where));
+  const [{ n }] = await db
+    .select({ n: count() })
+    .from(datasetVersions)
+    .where(and(...where));
   return { rows, total: n, page, pageSize };
 }
 
@@ -67,13 +76,23 @@ export async function listReviewQueue(q: QueueQuery) {
 export async function findPossibleDuplicates({ versionId }: { versionId: number }) {
   const db = getDb();
   const [me] = await db
-    .select({ datasetId: datasetVersions.datasetId, reactionId: datasetVersions.reactionId, tMin: datasetVersions.tMin, tMax: datasetVersions.tMax, doi: sql<string | null>`${datasetVersions.payload} -> 'source' ->> 'doi'` })
+    .select({
+      datasetId: datasetVersions.datasetId,
+      reactionId: datasetVersions.reactionId,
+      tMin: datasetVersions.tMin,
+      tMax: datasetVersions.tMax,
+      doi: sql<string | null>`${datasetVersions.payload} -> 'source' ->> 'doi'`,
+    })
     .from(datasetVersions)
     .where(eq(datasetVersions.id, versionId));
   if (!me) return [];
   const sameReactionOverlap =
     me.reactionId !== null && me.tMin !== null && me.tMax !== null
-      ? and(eq(datasetVersions.reactionId, me.reactionId), sql`${datasetVersions.tMin} <= ${me.tMax}`, sql`${datasetVersions.tMax} >= ${me.tMin}`)
+      ? and(
+          eq(datasetVersions.reactionId, me.reactionId),
+          sql`${datasetVersions.tMin} <= ${me.tMax}`,
+          sql`${datasetVersions.tMax} >= ${me.tMin}`,
+        )
       : undefined;
   const sameDoi = me.doi ? sql`lower(${datasetVersions.payload} -> 'source' ->> 'doi') = lower(${me.doi})` : undefined;
   const match = [sameReactionOverlap, sameDoi].filter(Boolean) as SQL[];
@@ -90,7 +109,13 @@ export async function findPossibleDuplicates({ versionId }: { versionId: number 
       sameDoi: sameDoi ? sql<boolean>`${sameDoi}` : sql<boolean>`false`,
     })
     .from(datasetVersions)
-    .where(and(ne(datasetVersions.datasetId, me.datasetId), inArray(datasetVersions.state, ["submitted", "in_review", "changes_requested", "published"]), or(...match)))
+    .where(
+      and(
+        ne(datasetVersions.datasetId, me.datasetId),
+        inArray(datasetVersions.state, ["submitted", "in_review", "changes_requested", "published"]),
+        or(...match),
+      ),
+    )
     .limit(20);
 }
 

@@ -13,7 +13,9 @@ import type { CoEditorRole, Transition, VersionState } from "./lifecycle";
 
 /** SHA-256 of the payload in RFC 8785 canonical JSON: the same document always gives the same hash. */
 export function payloadSha256(payload: unknown): string {
-  return createHash("sha256").update(canonicalize(payload) ?? "null", "utf8").digest("hex");
+  return createHash("sha256")
+    .update(canonicalize(payload) ?? "null", "utf8")
+    .digest("hex");
 }
 
 export interface TransitionOutcome {
@@ -47,14 +49,23 @@ export async function applyTransition({
 }): Promise<TransitionOutcome> {
   return getDb().transaction(async (tx) => {
     const [version] = await tx
-      .select({ id: datasetVersions.id, datasetId: datasetVersions.datasetId, number: datasetVersions.number, state: datasetVersions.state, payload: datasetVersions.payload })
+      .select({
+        id: datasetVersions.id,
+        datasetId: datasetVersions.datasetId,
+        number: datasetVersions.number,
+        state: datasetVersions.state,
+        payload: datasetVersions.payload,
+      })
       .from(datasetVersions)
       .where(eq(datasetVersions.id, versionId))
       .for("update");
     if (!version) throw new AppError("not_found", "No such dataset version");
     const [actor] = await tx.select({ role: users.role, deactivatedAt: users.deactivatedAt }).from(users).where(eq(users.id, actorId));
     if (!actor || actor.deactivatedAt) throw new AppError("unauthenticated", "Sign in to do this");
-    const [membership] = await tx.select({ role: datasetMembers.role }).from(datasetMembers).where(and(eq(datasetMembers.datasetId, version.datasetId), eq(datasetMembers.userId, actorId)));
+    const [membership] = await tx
+      .select({ role: datasetMembers.role })
+      .from(datasetMembers)
+      .where(and(eq(datasetMembers.datasetId, version.datasetId), eq(datasetMembers.userId, actorId)));
     const datasetRole: CoEditorRole | null = membership?.role ?? null;
     const to = planTransition(version.state, transition, { role: actor.role as Role, datasetRole }, reason);
     const now = new Date();
@@ -67,7 +78,10 @@ export async function applyTransition({
         .update(datasetVersions)
         .set({ state: to, publishedAt: now, updatedAt: now, payloadSha256: payloadSha256(version.payload), versionIdentifier: ids.version })
         .where(eq(datasetVersions.id, versionId));
-      await tx.update(datasets).set({ seriesIdentifier: ids.series }).where(and(eq(datasets.id, version.datasetId), isNull(datasets.seriesIdentifier)));
+      await tx
+        .update(datasets)
+        .set({ seriesIdentifier: ids.series })
+        .where(and(eq(datasets.id, version.datasetId), isNull(datasets.seriesIdentifier)));
       // One registration row per identifier: re-running registration never mints twice.
       await tx
         .insert(identifierRegistrations)
@@ -77,7 +91,10 @@ export async function applyTransition({
         ])
         .onConflictDoNothing();
     } else if (transition === "retract") {
-      await tx.update(datasetVersions).set({ state: to, retractedAt: now, retractionNotice: reason!.trim(), updatedAt: now }).where(eq(datasetVersions.id, versionId));
+      await tx
+        .update(datasetVersions)
+        .set({ state: to, retractedAt: now, retractionNotice: reason!.trim(), updatedAt: now })
+        .where(eq(datasetVersions.id, versionId));
     } else {
       await tx
         .update(datasetVersions)
@@ -92,7 +109,12 @@ export async function applyTransition({
       action: `dataset.${transition}`,
       subjectType: "dataset_version",
       subjectId: versionId,
-      details: { from: version.state, to, ...(reason ? { reason: reason.trim() } : {}), ...(outcome.identifiers ? { identifiers: outcome.identifiers } : {}) },
+      details: {
+        from: version.state,
+        to,
+        ...(reason ? { reason: reason.trim() } : {}),
+        ...(outcome.identifiers ? { identifiers: outcome.identifiers } : {}),
+      },
     });
     if (beforeCommit) await beforeCommit(tx, outcome);
     return outcome;

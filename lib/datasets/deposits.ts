@@ -32,7 +32,12 @@ export async function depositNewDataset({ actor, ...source }: { actor: UserDto }
 }
 
 /** Replaces a draft's document (owner or editor), guarded by the lock version the editor loaded. */
-export async function updateDraft({ actor, versionId, expectedLockVersion, ...source }: { actor: UserDto; versionId: number; expectedLockVersion: number } & DocumentSource) {
+export async function updateDraft({
+  actor,
+  versionId,
+  expectedLockVersion,
+  ...source
+}: { actor: UserDto; versionId: number; expectedLockVersion: number } & DocumentSource) {
   await getVersionForOrThrow({ versionId, actor, action: "edit" });
   // Prepared before the save: a failed upload leaves the draft exactly as it was.
   const prepared = await prepareSource(source);
@@ -52,10 +57,21 @@ export async function updateDraft({ actor, versionId, expectedLockVersion, ...so
  * A version with the caller's dataset role and capabilities, when `action` is allowed to them
  * (lib/curation/capabilities.ts): 404 if they may not see it, 403 / 409 if they may not do that.
  */
-export async function getVersionForOrThrow({ versionId, actor, action }: { versionId: number; actor: UserDto | null; action: VersionAction }) {
+export async function getVersionForOrThrow({
+  versionId,
+  actor,
+  action,
+}: {
+  versionId: number;
+  actor: UserDto | null;
+  action: VersionAction;
+}) {
   const found = await getVersionWithRole({ versionId, userId: actor?.id ?? null });
   if (!found) throw new AppError("not_found", "No such dataset version");
-  const capabilities = assertVersionCapability({ state: found.version.state, siteRole: actor?.role ?? null, datasetRole: found.datasetRole }, action);
+  const capabilities = assertVersionCapability(
+    { state: found.version.state, siteRole: actor?.role ?? null, datasetRole: found.datasetRole },
+    action,
+  );
   return { ...found, capabilities };
 }
 
@@ -69,14 +85,28 @@ export async function getVisibleVersionOrThrow({ versionId, viewer }: { versionI
  * registrations it causes (curators hear of each submission; owner and co-editors of each
  * decision and retraction): they exist exactly when the transition commits.
  */
-export async function transitionVersion({ actor, versionId, transition, reason }: { actor: UserDto; versionId: number; transition: Transition; reason?: string }) {
+export async function transitionVersion({
+  actor,
+  versionId,
+  transition,
+  reason,
+}: {
+  actor: UserDto;
+  versionId: number;
+  transition: Transition;
+  reason?: string;
+}) {
   const unstorable = reason === undefined ? null : describeUnstorableText(reason);
-  if (unstorable) throw new AppError("validation_failed", `The reason ${unstorable}`, [{ pointer: "/reason", message: `This text ${unstorable}.` }]);
+  if (unstorable)
+    throw new AppError("validation_failed", `The reason ${unstorable}`, [{ pointer: "/reason", message: `This text ${unstorable}.` }]);
   // Read before the transaction, so it holds one connection and only its own locks.
   const found = await getVersionWithRole({ versionId, userId: null });
   const title = found?.version.title ?? "your dataset";
   const curators = transition === "submit" ? await listActiveCurators() : [];
-  const members = ["accept", "request_changes", "decline", "retract"].includes(transition) && found ? await listDatasetMembers({ datasetId: found.version.datasetId }) : [];
+  const members =
+    ["accept", "request_changes", "decline", "retract"].includes(transition) && found
+      ? await listDatasetMembers({ datasetId: found.version.datasetId })
+      : [];
   return applyTransition({
     versionId,
     actorId: actor.id,
@@ -91,8 +121,12 @@ export async function transitionVersion({ actor, versionId, transition, reason }
         await enqueueIdentifierRegistration(outcome.identifiers.series, { tx, refresh: (found?.version.number ?? 1) > 1 });
       }
       if (transition === "accept" || transition === "request_changes" || transition === "decline" || transition === "retract") {
-        const published = outcome.identifiers && found ? { identifier: outcome.identifiers.version, path: `/datasets/${outcome.datasetId}/v${found.version.number}` } : undefined;
-        for (const m of members) await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? "", published), { tx });
+        const published =
+          outcome.identifiers && found
+            ? { identifier: outcome.identifiers.version, path: `/datasets/${outcome.datasetId}/v${found.version.number}` }
+            : undefined;
+        for (const m of members)
+          await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? "", published), { tx });
       }
     },
   });

@@ -42,17 +42,38 @@ const fileColumns = {
 };
 
 function safeName(name: string): string {
-  return name.replace(/[/\\]/g, "_").replace(/[^\w.\- ()+]/g, "_").slice(0, 200) || "file";
+  return (
+    name
+      .replace(/[/\\]/g, "_")
+      .replace(/[^\w.\- ()+]/g, "_")
+      .slice(0, 200) || "file"
+  );
 }
 
 /** Stores one supplementary file on a draft (owner or editor): type allowlist, size limit, SHA-256 recorded. */
-export async function addVersionFile({ actor, versionId, filename, content }: { actor: UserDto; versionId: number; filename: string; content: Uint8Array }) {
+export async function addVersionFile({
+  actor,
+  versionId,
+  filename,
+  content,
+}: {
+  actor: UserDto;
+  versionId: number;
+  filename: string;
+  content: Uint8Array;
+}) {
   const { version } = await getVersionForOrThrow({ versionId, actor, action: "upload_files" });
   const name = safeName(filename);
   const ext = name.split(".").pop()?.toLowerCase() ?? "";
   const contentType = FILE_TYPES[ext];
   if (!contentType) {
-    throw new AppError("validation_failed", `Files of type “.${ext}” are not accepted. Accepted: ${Object.keys(FILE_TYPES).map((e) => `.${e}`).join(", ")}.`, [{ pointer: "/file", message: "type not accepted", value: name }]);
+    throw new AppError(
+      "validation_failed",
+      `Files of type “.${ext}” are not accepted. Accepted: ${Object.keys(FILE_TYPES)
+        .map((e) => `.${e}`)
+        .join(", ")}.`,
+      [{ pointer: "/file", message: "type not accepted", value: name }],
+    );
   }
   if (content.byteLength > MAX_FILE_BYTES) {
     throw new AppError("payload_too_large", `The file is ${(content.byteLength / 1024 / 1024).toFixed(1)} MB; the limit is 25 MB.`);
@@ -63,8 +84,17 @@ export async function addVersionFile({ actor, versionId, filename, content }: { 
   await getStorage().put(storageKey, content);
   try {
     return await getDb().transaction(async (tx) => {
-      const [row] = await tx.insert(versionFiles).values({ versionId, filename: name, contentType, sizeBytes: content.byteLength, sha256, storageKey }).returning(fileColumns);
-      await recordAuditEvent(tx, { actorId: actor.id, action: "dataset.file_added", subjectType: "dataset_version", subjectId: versionId, details: { filename: name, sha256 } });
+      const [row] = await tx
+        .insert(versionFiles)
+        .values({ versionId, filename: name, contentType, sizeBytes: content.byteLength, sha256, storageKey })
+        .returning(fileColumns);
+      await recordAuditEvent(tx, {
+        actorId: actor.id,
+        action: "dataset.file_added",
+        subjectType: "dataset_version",
+        subjectId: versionId,
+        details: { filename: name, sha256 },
+      });
       return row;
     });
   } catch (err) {
@@ -79,22 +109,38 @@ export async function listVersionFiles({ versionId }: { versionId: number }) {
 
 /** One file with its content, for whoever may see its version. */
 export async function readVersionFile({ viewer, fileId }: { viewer: UserDto | null; fileId: number }) {
-  const [row] = await getDb().select({ ...fileColumns, storageKey: versionFiles.storageKey }).from(versionFiles).where(eq(versionFiles.id, fileId));
+  const [row] = await getDb()
+    .select({ ...fileColumns, storageKey: versionFiles.storageKey })
+    .from(versionFiles)
+    .where(eq(versionFiles.id, fileId));
   if (!row) throw new AppError("not_found", "No such file");
   await getVisibleVersionOrThrow({ versionId: row.versionId, viewer });
   return { ...row, content: await getStorage().get(row.storageKey) };
 }
 
 export async function removeVersionFile({ actor, fileId }: { actor: UserDto; fileId: number }) {
-  const [row] = await getDb().select({ versionId: versionFiles.versionId, storageKey: versionFiles.storageKey, filename: versionFiles.filename }).from(versionFiles).where(eq(versionFiles.id, fileId));
+  const [row] = await getDb()
+    .select({ versionId: versionFiles.versionId, storageKey: versionFiles.storageKey, filename: versionFiles.filename })
+    .from(versionFiles)
+    .where(eq(versionFiles.id, fileId));
   if (!row) throw new AppError("not_found", "No such file");
   await getVersionForOrThrow({ versionId: row.versionId, actor, action: "upload_files" });
   await getDb().transaction(async (tx) => {
     // The database refuses this for published versions.
     await tx.delete(versionFiles).where(eq(versionFiles.id, fileId));
-    await recordAuditEvent(tx, { actorId: actor.id, action: "dataset.file_removed", subjectType: "dataset_version", subjectId: row.versionId, details: { filename: row.filename } });
+    await recordAuditEvent(tx, {
+      actorId: actor.id,
+      action: "dataset.file_removed",
+      subjectType: "dataset_version",
+      subjectId: row.versionId,
+      details: { filename: row.filename },
+    });
   });
   // A newer version may list the same stored object; keep it while any row refers to it.
-  const [still] = await getDb().select({ id: versionFiles.id }).from(versionFiles).where(eq(versionFiles.storageKey, row.storageKey)).limit(1);
+  const [still] = await getDb()
+    .select({ id: versionFiles.id })
+    .from(versionFiles)
+    .where(eq(versionFiles.storageKey, row.storageKey))
+    .limit(1);
   if (!still) await getStorage().remove(row.storageKey);
 }

@@ -5,7 +5,14 @@
  * thread. Species identity (RDKit) stays in prepare.ts. Returns plain data, never throws for bad
  * input: errors cross a thread boundary as data.
  */
-import { normalisePoints, parseDepositJson, toAnalysisInput, validateDeposit, type CanonicalPoint, type DepositDocument } from "@/lib/deposits";
+import {
+  normalisePoints,
+  parseDepositJson,
+  toAnalysisInput,
+  validateDeposit,
+  type CanonicalPoint,
+  type DepositDocument,
+} from "@/lib/deposits";
 import type { FieldError } from "@/lib/errors";
 import { AnalysisError, analyseDataset, type ReactionOrder } from "@/lib/kinetics";
 import type { AnalysisSummary, StoredPoint } from "./queries";
@@ -74,7 +81,11 @@ export function checkAndAnalyseDocument(text: string): CheckedDocument {
     analysis = { ok: true, result: analyseDataset(toAnalysisInput(doc)) as unknown as Record<string, unknown> };
   } catch (err) {
     if (!(err instanceof AnalysisError)) throw err;
-    analysis = { ok: false, message: err.message, errors: [{ pointer: err.pointIndex !== undefined ? `/points/${err.pointIndex}` : "/points", message: err.message }] };
+    analysis = {
+      ok: false,
+      message: err.message,
+      errors: [{ pointer: err.pointIndex !== undefined ? `/points/${err.pointIndex}` : "/points", message: err.message }],
+    };
   }
 
   return { ok: true, license: doc.license, columns: toCanonicalColumns(normalised), checks, analysis };
@@ -82,7 +93,12 @@ export function checkAndAnalyseDocument(text: string): CheckedDocument {
 
 export function toCanonicalColumns(points: CanonicalPoint[]): CanonicalColumns {
   const n = points.length;
-  const columns: CanonicalColumns = { T: new Float64Array(n), k: new Float64Array(n), sigmaLnK: new Float64Array(n), pressurePa: new Float64Array(n) };
+  const columns: CanonicalColumns = {
+    T: new Float64Array(n),
+    k: new Float64Array(n),
+    sigmaLnK: new Float64Array(n),
+    pressurePa: new Float64Array(n),
+  };
   for (let i = 0; i < n; i++) {
     const p = points[i];
     columns.T[i] = p.T;

@@ -75,7 +75,11 @@ async function prepareOrThrow(text: string, parsed?: unknown): Promise<PreparedD
       } catch (err) {
         if (!(err instanceof ChemError)) throw err;
         const leaf = err.field === "inchi" ? "inchi" : sp.smiles !== undefined ? "smiles" : "inchi";
-        speciesErrors.push({ pointer: `/reaction/${field}/${i}/${leaf}`, message: err.message, value: leaf === "smiles" ? sp.smiles : sp.inchi });
+        speciesErrors.push({
+          pointer: `/reaction/${field}/${i}/${leaf}`,
+          message: err.message,
+          value: leaf === "smiles" ? sp.smiles : sp.inchi,
+        });
       }
     }
   }
@@ -89,15 +93,30 @@ async function prepareOrThrow(text: string, parsed?: unknown): Promise<PreparedD
   const equation = `${reactants.map(label).join(" + ")} → ${products.length ? products.map(label).join(" + ") : "products"}`;
 
   if (!doc.reaction.productsUnknown) {
-    const toBalanced = (ps: typeof participants) => ps.map((p) => ({ elements: p.identity.elements, charge: p.identity.charge, coefficient: p.coefficient }));
+    const toBalanced = (ps: typeof participants) =>
+      ps.map((p) => ({ elements: p.identity.elements, charge: p.identity.charge, coefficient: p.coefficient }));
     const balance = checkBalance({ reactants: toBalanced(reactants), products: toBalanced(products) });
-    checks.push(balance.balanced ? { code: "balanced", severity: "info", message: "Elements and charge balance." } : { code: "unbalanced", severity: "error", message: balance.message });
+    checks.push(
+      balance.balanced
+        ? { code: "balanced", severity: "info", message: "Elements and charge balance." }
+        : { code: "unbalanced", severity: "error", message: balance.message },
+    );
   } else {
-    checks.push({ code: "products_unknown", severity: "info", message: `Products not identified (overall removal rate): ${doc.reaction.productsUnknown.reason}` });
+    checks.push({
+      code: "products_unknown",
+      severity: "info",
+      message: `Products not identified (overall removal rate): ${doc.reaction.productsUnknown.reason}`,
+    });
   }
 
   checks.push(...checked.checks);
   if (!checked.analysis.ok) throw invalid(checked.analysis.message, checked.analysis.errors);
 
-  return { document: doc, title: doc.title, points: storedPointsFromColumns(doc, checked.columns), analysis: { engineVersion: ENGINE_VERSION, result: checked.analysis.result, checks }, reaction: { key, equation, participants } };
+  return {
+    document: doc,
+    title: doc.title,
+    points: storedPointsFromColumns(doc, checked.columns),
+    analysis: { engineVersion: ENGINE_VERSION, result: checked.analysis.result, checks },
+    reaction: { key, equation, participants },
+  };
 }

@@ -81,7 +81,7 @@ const versionColumns = {
 const severityRank: Record<string, number> = { info: 1, warn: 2, error: 3 };
 
 function summarise(points: StoredPoint[], analysis: AnalysisSummary) {
-  const flags = [...analysis.checks, ...(((analysis.result?.flags as { code: string; severity: string }[] | undefined) ?? []))];
+  const flags = [...analysis.checks, ...((analysis.result?.flags as { code: string; severity: string }[] | undefined) ?? [])];
   const worst = flags.reduce((w, f) => ((severityRank[f.severity] ?? 0) > (severityRank[w] ?? 0) ? f.severity : w), "none");
   const Ts = points.map((p) => p.T);
   return {
@@ -112,21 +112,48 @@ async function writePointsAndAnalysis(tx: Transaction, versionId: number, points
     );
   }
   await tx.delete(versionAnalyses).where(eq(versionAnalyses.versionId, versionId));
-  await tx.insert(versionAnalyses).values({ versionId, engineVersion: analysis.engineVersion, result: analysis.result, checks: analysis.checks, error: analysis.error ?? null });
+  await tx.insert(versionAnalyses).values({
+    versionId,
+    engineVersion: analysis.engineVersion,
+    result: analysis.result,
+    checks: analysis.checks,
+    error: analysis.error ?? null,
+  });
 }
 
 /** Creates a dataset with its owner and a first draft version, all or nothing. */
-export async function createDatasetDraft(input: { ownerId: number; title: string; payload: Record<string, unknown>; points: StoredPoint[]; analysis: AnalysisSummary; reaction?: ReactionInput }) {
+export async function createDatasetDraft(input: {
+  ownerId: number;
+  title: string;
+  payload: Record<string, unknown>;
+  points: StoredPoint[];
+  analysis: AnalysisSummary;
+  reaction?: ReactionInput;
+}) {
   return getDb().transaction(async (tx) => {
     const reactionId = input.reaction ? await upsertReaction(tx, input.reaction) : null;
     const [dataset] = await tx.insert(datasets).values({ ownerId: input.ownerId }).returning({ id: datasets.id });
     await tx.insert(datasetMembers).values({ datasetId: dataset.id, userId: input.ownerId, role: "owner" });
     const [version] = await tx
       .insert(datasetVersions)
-      .values({ datasetId: dataset.id, number: 1, title: input.title, reactionId, payload: input.payload, createdBy: input.ownerId, ...summarise(input.points, input.analysis) })
+      .values({
+        datasetId: dataset.id,
+        number: 1,
+        title: input.title,
+        reactionId,
+        payload: input.payload,
+        createdBy: input.ownerId,
+        ...summarise(input.points, input.analysis),
+      })
       .returning(versionColumns);
     await writePointsAndAnalysis(tx, version.id, input.points, input.analysis);
-    await recordAuditEvent(tx, { actorId: input.ownerId, action: "dataset.created", subjectType: "dataset_version", subjectId: version.id, details: { datasetId: dataset.id } });
+    await recordAuditEvent(tx, {
+      actorId: input.ownerId,
+      action: "dataset.created",
+      subjectType: "dataset_version",
+      subjectId: version.id,
+      details: { datasetId: dataset.id },
+    });
     return version;
   });
 }
@@ -158,16 +185,35 @@ export async function saveDraft(input: {
         updatedAt: new Date(),
         ...summarise(input.points, input.analysis),
       })
-      .where(and(eq(datasetVersions.id, input.versionId), eq(datasetVersions.lockVersion, input.expectedLockVersion), inArray(datasetVersions.state, ["draft", "changes_requested"])))
+      .where(
+        and(
+          eq(datasetVersions.id, input.versionId),
+          eq(datasetVersions.lockVersion, input.expectedLockVersion),
+          inArray(datasetVersions.state, ["draft", "changes_requested"]),
+        ),
+      )
       .returning(versionColumns);
     if (!row) {
-      const [current] = await tx.select({ state: datasetVersions.state, lockVersion: datasetVersions.lockVersion }).from(datasetVersions).where(eq(datasetVersions.id, input.versionId));
+      const [current] = await tx
+        .select({ state: datasetVersions.state, lockVersion: datasetVersions.lockVersion })
+        .from(datasetVersions)
+        .where(eq(datasetVersions.id, input.versionId));
       if (!current) throw new AppError("not_found", "No such dataset version");
-      if (current.state !== "draft" && current.state !== "changes_requested") throw new AppError("conflict", `This version is ${current.state.replace("_", " ")} and can no longer be edited`);
-      throw new AppError("conflict", "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.");
+      if (current.state !== "draft" && current.state !== "changes_requested")
+        throw new AppError("conflict", `This version is ${current.state.replace("_", " ")} and can no longer be edited`);
+      throw new AppError(
+        "conflict",
+        "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.",
+      );
     }
     await writePointsAndAnalysis(tx, row.id, input.points, input.analysis);
-    await recordAuditEvent(tx, { actorId: input.actorId, action: "dataset.draft_saved", subjectType: "dataset_version", subjectId: row.id, details: { lockVersion: row.lockVersion } });
+    await recordAuditEvent(tx, {
+      actorId: input.actorId,
+      action: "dataset.draft_saved",
+      subjectType: "dataset_version",
+      subjectId: row.id,
+      details: { lockVersion: row.lockVersion },
+    });
     return row;
   });
 }
@@ -175,11 +221,18 @@ export async function saveDraft(input: {
 /** A version with the caller's role on its dataset (null when they have none). */
 export async function getVersionWithRole({ versionId, userId }: { versionId: number; userId: number | null }) {
   const db = getDb();
-  const [version] = await db.select({ ...versionColumns, ownerId: datasets.ownerId }).from(datasetVersions).innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId)).where(eq(datasetVersions.id, versionId));
+  const [version] = await db
+    .select({ ...versionColumns, ownerId: datasets.ownerId })
+    .from(datasetVersions)
+    .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
+    .where(eq(datasetVersions.id, versionId));
   if (!version) return null;
   let datasetRole: CoEditorRole | null = null;
   if (userId !== null) {
-    const [m] = await db.select({ role: datasetMembers.role }).from(datasetMembers).where(and(eq(datasetMembers.datasetId, version.datasetId), eq(datasetMembers.userId, userId)));
+    const [m] = await db
+      .select({ role: datasetMembers.role })
+      .from(datasetMembers)
+      .where(and(eq(datasetMembers.datasetId, version.datasetId), eq(datasetMembers.userId, userId)));
     datasetRole = m?.role ?? null;
   }
   return { version, datasetRole };
@@ -187,7 +240,13 @@ export async function getVersionWithRole({ versionId, userId }: { versionId: num
 
 export async function getLatestAnalysis({ versionId }: { versionId: number }) {
   const [row] = await getDb()
-    .select({ engineVersion: versionAnalyses.engineVersion, result: versionAnalyses.result, checks: versionAnalyses.checks, error: versionAnalyses.error, createdAt: versionAnalyses.createdAt })
+    .select({
+      engineVersion: versionAnalyses.engineVersion,
+      result: versionAnalyses.result,
+      checks: versionAnalyses.checks,
+      error: versionAnalyses.error,
+      createdAt: versionAnalyses.createdAt,
+    })
     .from(versionAnalyses)
     .where(eq(versionAnalyses.versionId, versionId))
     .orderBy(desc(versionAnalyses.id))
@@ -205,10 +264,29 @@ export async function listMyVersions({ userId }: { userId: number }) {
     .orderBy(datasetVersions.datasetId, desc(datasetVersions.number));
 }
 
-export async function addDatasetMember({ datasetId, userId, role, actorId }: { datasetId: number; userId: number; role: CoEditorRole; actorId: number }) {
+export async function addDatasetMember({
+  datasetId,
+  userId,
+  role,
+  actorId,
+}: {
+  datasetId: number;
+  userId: number;
+  role: CoEditorRole;
+  actorId: number;
+}) {
   await getDb().transaction(async (tx) => {
-    await tx.insert(datasetMembers).values({ datasetId, userId, role }).onConflictDoUpdate({ target: [datasetMembers.datasetId, datasetMembers.userId], set: { role } });
-    await recordAuditEvent(tx, { actorId, action: "dataset.member_added", subjectType: "dataset", subjectId: datasetId, details: { userId, role } });
+    await tx
+      .insert(datasetMembers)
+      .values({ datasetId, userId, role })
+      .onConflictDoUpdate({ target: [datasetMembers.datasetId, datasetMembers.userId], set: { role } });
+    await recordAuditEvent(tx, {
+      actorId,
+      action: "dataset.member_added",
+      subjectType: "dataset",
+      subjectId: datasetId,
+      details: { userId, role },
+    });
   });
 }
 
@@ -222,7 +300,13 @@ export async function listDatasetMembers({ datasetId }: { datasetId: number }) {
 
 export async function listDecisions({ versionId }: { versionId: number }) {
   return getDb()
-    .select({ id: decisions.id, decision: decisions.decision, reason: decisions.reason, createdAt: decisions.createdAt, curator: users.name })
+    .select({
+      id: decisions.id,
+      decision: decisions.decision,
+      reason: decisions.reason,
+      createdAt: decisions.createdAt,
+      curator: users.name,
+    })
     .from(decisions)
     .innerJoin(users, eq(users.id, decisions.curatorId))
     .where(eq(decisions.versionId, versionId))
@@ -256,7 +340,14 @@ export async function hasDatasetTitled({ ownerId, title }: { ownerId: number; ti
 export async function createNextVersion({ datasetId, actorId }: { datasetId: number; actorId: number }) {
   return getDb().transaction(async (tx) => {
     const [latest] = await tx
-      .select({ id: datasetVersions.id, number: datasetVersions.number, state: datasetVersions.state, title: datasetVersions.title, reactionId: datasetVersions.reactionId, payload: datasetVersions.payload })
+      .select({
+        id: datasetVersions.id,
+        number: datasetVersions.number,
+        state: datasetVersions.state,
+        title: datasetVersions.title,
+        reactionId: datasetVersions.reactionId,
+        payload: datasetVersions.payload,
+      })
       .from(datasetVersions)
       .where(eq(datasetVersions.datasetId, datasetId))
       .orderBy(desc(datasetVersions.number))
@@ -264,10 +355,18 @@ export async function createNextVersion({ datasetId, actorId }: { datasetId: num
       .for("update");
     if (!latest) throw new AppError("not_found", "No such dataset");
     if (latest.state !== "published" && latest.state !== "retracted") {
-      throw new AppError("conflict", `Version ${latest.number} is still ${latest.state.replace("_", " ")}; finish it before starting another`);
+      throw new AppError(
+        "conflict",
+        `Version ${latest.number} is still ${latest.state.replace("_", " ")}; finish it before starting another`,
+      );
     }
     const points = await tx.select().from(versionPoints).where(eq(versionPoints.versionId, latest.id)).orderBy(versionPoints.idx);
-    const [analysis] = await tx.select().from(versionAnalyses).where(eq(versionAnalyses.versionId, latest.id)).orderBy(desc(versionAnalyses.id)).limit(1);
+    const [analysis] = await tx
+      .select()
+      .from(versionAnalyses)
+      .where(eq(versionAnalyses.versionId, latest.id))
+      .orderBy(desc(versionAnalyses.id))
+      .limit(1);
     const stored: StoredPoint[] = points.map((p) => ({
       T: p.temperatureK,
       k: p.rateConstant,
@@ -277,18 +376,46 @@ export async function createNextVersion({ datasetId, actorId }: { datasetId: num
       note: p.note ?? undefined,
       original: p.original,
     }));
-    const summary: AnalysisSummary = { engineVersion: analysis?.engineVersion ?? "unknown", result: analysis?.result ?? null, checks: analysis?.checks ?? [], error: analysis?.error };
+    const summary: AnalysisSummary = {
+      engineVersion: analysis?.engineVersion ?? "unknown",
+      result: analysis?.result ?? null,
+      checks: analysis?.checks ?? [],
+      error: analysis?.error,
+    };
     const [version] = await tx
       .insert(datasetVersions)
-      .values({ datasetId, number: latest.number + 1, title: latest.title, reactionId: latest.reactionId, payload: latest.payload, createdBy: actorId, ...summarise(stored, summary) })
+      .values({
+        datasetId,
+        number: latest.number + 1,
+        title: latest.title,
+        reactionId: latest.reactionId,
+        payload: latest.payload,
+        createdBy: actorId,
+        ...summarise(stored, summary),
+      })
       .returning(versionColumns);
     await writePointsAndAnalysis(tx, version.id, stored, summary);
     // Files are immutable objects: the new draft lists the same ones (removal keeps shared objects).
     const files = await tx.select().from(versionFiles).where(eq(versionFiles.versionId, latest.id));
     if (files.length) {
-      await tx.insert(versionFiles).values(files.map((f) => ({ versionId: version.id, filename: f.filename, contentType: f.contentType, sizeBytes: f.sizeBytes, sha256: f.sha256, storageKey: f.storageKey })));
+      await tx.insert(versionFiles).values(
+        files.map((f) => ({
+          versionId: version.id,
+          filename: f.filename,
+          contentType: f.contentType,
+          sizeBytes: f.sizeBytes,
+          sha256: f.sha256,
+          storageKey: f.storageKey,
+        })),
+      );
     }
-    await recordAuditEvent(tx, { actorId, action: "dataset.version_started", subjectType: "dataset_version", subjectId: version.id, details: { from: latest.id, number: version.number } });
+    await recordAuditEvent(tx, {
+      actorId,
+      action: "dataset.version_started",
+      subjectType: "dataset_version",
+      subjectId: version.id,
+      details: { from: latest.id, number: version.number },
+    });
     return version;
   });
 }
@@ -296,7 +423,13 @@ export async function createNextVersion({ datasetId, actorId }: { datasetId: num
 /** The public versions of a dataset, newest first (published or retracted only). */
 export async function listPublicVersions({ datasetId }: { datasetId: number }) {
   return getDb()
-    .select({ id: datasetVersions.id, number: datasetVersions.number, state: datasetVersions.state, versionIdentifier: datasetVersions.versionIdentifier, publishedAt: datasetVersions.publishedAt })
+    .select({
+      id: datasetVersions.id,
+      number: datasetVersions.number,
+      state: datasetVersions.state,
+      versionIdentifier: datasetVersions.versionIdentifier,
+      publishedAt: datasetVersions.publishedAt,
+    })
     .from(datasetVersions)
     .where(and(eq(datasetVersions.datasetId, datasetId), inArray(datasetVersions.state, ["published", "retracted"])))
     .orderBy(desc(datasetVersions.number));
@@ -304,6 +437,9 @@ export async function listPublicVersions({ datasetId }: { datasetId: number }) {
 
 /** A dataset's series identifier (the reaction belongs to each version: `VersionDto.reactionId`). */
 export async function getDatasetSummary({ datasetId }: { datasetId: number }) {
-  const [row] = await getDb().select({ id: datasets.id, seriesIdentifier: datasets.seriesIdentifier }).from(datasets).where(eq(datasets.id, datasetId));
+  const [row] = await getDb()
+    .select({ id: datasets.id, seriesIdentifier: datasets.seriesIdentifier })
+    .from(datasets)
+    .where(eq(datasets.id, datasetId));
   return row ?? null;
 }

@@ -25,7 +25,13 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
   if (latest?.engineVersion === ENGINE_VERSION) return "current";
   const validation = validateDeposit(version.payload);
   if (!validation.ok) {
-    await db.insert(versionAnalyses).values({ versionId, engineVersion: ENGINE_VERSION, result: null, checks: latest?.checks ?? [], error: `stored document no longer validates: ${validation.errors[0].message}` });
+    await db.insert(versionAnalyses).values({
+      versionId,
+      engineVersion: ENGINE_VERSION,
+      result: null,
+      checks: latest?.checks ?? [],
+      error: `stored document no longer validates: ${validation.errors[0].message}`,
+    });
     return "invalid";
   }
   try {
@@ -34,7 +40,9 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
     return "refitted";
   } catch (err) {
     if (!(err instanceof AnalysisError)) throw err;
-    await db.insert(versionAnalyses).values({ versionId, engineVersion: ENGINE_VERSION, result: null, checks: latest?.checks ?? [], error: err.message });
+    await db
+      .insert(versionAnalyses)
+      .values({ versionId, engineVersion: ENGINE_VERSION, result: null, checks: latest?.checks ?? [], error: err.message });
     return "invalid";
   }
 }

@@ -15,14 +15,25 @@ export interface ResolvedParticipant {
  * Stores the reaction's species (one row per InChIKey; names kept as aliases) and the reaction
  * (one row per key), inside the caller's transaction. Returns the reaction id.
  */
-export async function upsertReaction(tx: Transaction, { key, equation, participants }: { key: string; equation: string; participants: ResolvedParticipant[] }): Promise<number> {
+export async function upsertReaction(
+  tx: Transaction,
+  { key, equation, participants }: { key: string; equation: string; participants: ResolvedParticipant[] },
+): Promise<number> {
   const ids = new Map<string, number>();
   for (const p of participants) {
     const s = p.identity;
     // A known species is never rewritten: published versions show the row as it was stored.
     const [inserted] = await tx
       .insert(species)
-      .values({ inchiKey: s.inchiKey, inchi: s.inchi, canonicalSmiles: s.canonicalSmiles ?? "", formula: s.formula, charge: s.charge, molarMass: s.molarMass, radicalElectrons: s.radicalElectrons ?? 0 })
+      .values({
+        inchiKey: s.inchiKey,
+        inchi: s.inchi,
+        canonicalSmiles: s.canonicalSmiles ?? "",
+        formula: s.formula,
+        charge: s.charge,
+        molarMass: s.molarMass,
+        radicalElectrons: s.radicalElectrons ?? 0,
+      })
       .onConflictDoNothing({ target: species.inchiKey })
       .returning({ id: species.id });
     const row = inserted ?? (await tx.select({ id: species.id }).from(species).where(eq(species.inchiKey, s.inchiKey)))[0];
@@ -38,7 +49,9 @@ export async function upsertReaction(tx: Transaction, { key, equation, participa
       const prev = merged.get(k);
       merged.set(k, { speciesId, side: p.side, coefficient: (prev?.coefficient ?? 0) + p.coefficient });
     }
-    await tx.insert(reactionParticipants).values([...merged.values()].map((m) => ({ reactionId: existing.id, ...m, coefficient: m.coefficient })));
+    await tx
+      .insert(reactionParticipants)
+      .values([...merged.values()].map((m) => ({ reactionId: existing.id, ...m, coefficient: m.coefficient })));
     return existing.id;
   }
   const [found] = await tx.select({ id: reactions.id }).from(reactions).where(eq(reactions.key, key));

@@ -66,7 +66,10 @@ function checkTemperature(report: Report, pointer: string, value: unknown, unit:
     report({
       pointer,
       value,
-      message: sentenceWithPrefix(pointer, `${value} ${unit.label} is ${kelvin < 0 ? "below" : "at"} absolute zero (${kelvin.toFixed(2)} K); a temperature in ${unit.label} must be above -273.15`),
+      message: sentenceWithPrefix(
+        pointer,
+        `${value} ${unit.label} is ${kelvin < 0 ? "below" : "at"} absolute zero (${kelvin.toFixed(2)} K); a temperature in ${unit.label} must be above -273.15`,
+      ),
     });
   } else {
     report({ pointer, value, message: sentenceAt(pointer, `must be greater than 0 K (got ${value} ${unit.label})`) });
@@ -90,12 +93,19 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
 
   const pressureGiven = isRecord(conditions.pressure) || points.some((p) => isRecord(p) && p.pressure !== undefined);
   if (pressureGiven && units.pressure === undefined) {
-    report({ pointer: "/units/pressure", message: "Pressure unit is required because the document gives pressures (under conditions or on points)." });
+    report({
+      pointer: "/units/pressure",
+      message: "Pressure unit is required because the document gives pressures (under conditions or on points).",
+    });
   }
   if (unitP && isRecord(conditions.pressure)) {
     const { min, max } = conditions.pressure;
     if (isFiniteNumber(min) && isFiniteNumber(max) && min > max) {
-      report({ pointer: "/conditions/pressure/max", value: max, message: `Highest pressure (${max}) must not be below the lowest pressure (${min}).` });
+      report({
+        pointer: "/conditions/pressure/max",
+        value: max,
+        message: `Highest pressure (${max}) must not be below the lowest pressure (${min}).`,
+      });
     }
   }
 
@@ -113,7 +123,10 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
         report({
           pointer: `/creators/${i}/orcid`,
           value: c.orcid,
-          message: sentenceAt(`/creators/${i}/orcid`, `${c.orcid} has a wrong check digit (the first 15 digits call for ${expectedOrcidCheck(c.orcid)}); check it for a typing mistake`),
+          message: sentenceAt(
+            `/creators/${i}/orcid`,
+            `${c.orcid} has a wrong check digit (the first 15 digits call for ${expectedOrcidCheck(c.orcid)}); check it for a typing mistake`,
+          ),
         });
       }
     });
@@ -121,10 +134,17 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
 
   // Phase-specific fields given for another phase are probably a slip.
   if (reaction.solvent !== undefined && reaction.phase !== undefined && reaction.phase !== "liquid") {
-    report({ pointer: "/reaction/solvent", message: `A solvent is only for liquid-phase reactions (phase is ${formatValue(reaction.phase)}).` });
+    report({
+      pointer: "/reaction/solvent",
+      message: `A solvent is only for liquid-phase reactions (phase is ${formatValue(reaction.phase)}).`,
+    });
   }
   if (reaction.surface !== undefined && reaction.phase !== undefined && reaction.phase !== "surface") {
-    report({ pointer: "/reaction/surface", value: reaction.surface as unknown, message: `A surface is only for surface reactions (phase is ${formatValue(reaction.phase)}).` });
+    report({
+      pointer: "/reaction/surface",
+      value: reaction.surface as unknown,
+      message: `A surface is only for surface reactions (phase is ${formatValue(reaction.phase)}).`,
+    });
   }
 
   // Source: a DOI given twice must agree.
@@ -132,7 +152,11 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
     const { doi } = doc.source;
     const refDoi = doc.source.reference.DOI;
     if (typeof doi === "string" && typeof refDoi === "string" && doi.toLowerCase() !== refDoi.toLowerCase()) {
-      report({ pointer: "/source/reference/DOI", value: refDoi, message: `The reference's DOI (${refDoi}) differs from the publication DOI (${doi}); give one DOI or make them agree.` });
+      report({
+        pointer: "/source/reference/DOI",
+        value: refDoi,
+        message: `The reference's DOI (${refDoi}) differs from the publication DOI (${doi}); give one DOI or make them agree.`,
+      });
     }
   }
 
@@ -142,7 +166,11 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
 function checkReportedFit(report: Report, fit: Record<string, unknown>, unitT: LinearUnit | undefined): void {
   const eaUnit = parseUnitAt(report, "/reportedFit/EaUnit", fit.EaUnit, parseEnergyUnit);
   if (fit.model === "arrhenius" && isFiniteNumber(fit.n) && fit.n !== 0) {
-    report({ pointer: "/reportedFit/n", value: fit.n, message: "An Arrhenius expression has no temperature exponent: choose modified_arrhenius, or leave n out." });
+    report({
+      pointer: "/reportedFit/n",
+      value: fit.n,
+      message: "An Arrhenius expression has no temperature exponent: choose modified_arrhenius, or leave n out.",
+    });
   }
   if (eaUnit && isFiniteNumber(fit.Ea) && Math.abs(fit.Ea * eaUnit.factor) > MAX_PLAUSIBLE_EA) {
     report({
@@ -155,6 +183,10 @@ function checkReportedFit(report: Report, fit: Record<string, unknown>, unitT: L
   const tMin = checkTemperature(report, "/reportedFit/Tmin", fit.Tmin, unitT);
   const tMax = checkTemperature(report, "/reportedFit/Tmax", fit.Tmax, unitT);
   if (tMin !== undefined && tMax !== undefined && tMin >= tMax) {
-    report({ pointer: "/reportedFit/Tmax", value: fit.Tmax, message: `Highest valid temperature (${String(fit.Tmax)}) must be above the lowest (${String(fit.Tmin)}).` });
+    report({
+      pointer: "/reportedFit/Tmax",
+      value: fit.Tmax,
+      message: `Highest valid temperature (${String(fit.Tmax)}) must be above the lowest (${String(fit.Tmin)}).`,
+    });
   }
 }

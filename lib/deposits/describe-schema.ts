@@ -41,7 +41,8 @@ function defName(node: SchemaNode): string | undefined {
 }
 
 function typeName(t: string | string[] | undefined): string {
-  const one = (x: string) => ({ string: "text", integer: "whole number", number: "number", boolean: "true/false", object: "object", array: "list" })[x] ?? x;
+  const one = (x: string) =>
+    ({ string: "text", integer: "whole number", number: "number", boolean: "true/false", object: "object", array: "list" })[x] ?? x;
   if (Array.isArray(t)) return t.map(one).join(" or ");
   return t ? one(t) : "any";
 }
@@ -79,7 +80,14 @@ export function describeDepositSchema(): SectionDoc[] {
 
   function walkObject(path: string, title: string, node: SchemaNode): string {
     const id = sectionIdOf(path);
-    const section: SectionDoc = { id, path, title, description: node.description ?? "", fields: [], open: node.additionalProperties !== false };
+    const section: SectionDoc = {
+      id,
+      path,
+      title,
+      description: node.description ?? "",
+      fields: [],
+      open: node.additionalProperties !== false,
+    };
     sections.push(section);
     const required = new Set(node.required ?? []);
     for (const [name, raw] of Object.entries(node.properties ?? {})) {
@@ -103,7 +111,8 @@ export function describeDepositSchema(): SectionDoc[] {
       } else if (field.type === "array" && field.items) {
         const items = resolveSchema(field.items);
         doc.type = `list of ${items.type === "object" ? (items.title ?? "entries") : typeName(items.type)}`;
-        if (items.type === "object" && items.properties) doc.sectionId = sectionFor(`${fieldPath}[]`, items.title ?? name, field.items, items);
+        if (items.type === "object" && items.properties)
+          doc.sectionId = sectionFor(`${fieldPath}[]`, items.title ?? name, field.items, items);
         else if (items.type === "array") doc.type = `list of lists of ${typeName(resolveSchema(items.items ?? {}).type)}`;
         else doc.constraints.push(...constraintsOf(items).map((c) => `each: ${c}`));
       }

@@ -7,7 +7,17 @@
 import { resolveSchema, type SchemaNode } from "./schema";
 
 /** Keywords a number field may carry for the fast check to decide it alone. */
-const NUMBER_KEYWORDS = new Set(["type", "title", "description", "examples", "default", "minimum", "maximum", "exclusiveMinimum", "exclusiveMaximum"]);
+const NUMBER_KEYWORDS = new Set([
+  "type",
+  "title",
+  "description",
+  "examples",
+  "default",
+  "minimum",
+  "maximum",
+  "exclusiveMinimum",
+  "exclusiveMaximum",
+]);
 /** Keywords the point object itself may carry. */
 const OBJECT_KEYWORDS = new Set(["type", "title", "description", "examples", "additionalProperties", "required", "properties"]);
 

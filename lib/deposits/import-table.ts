@@ -110,7 +110,8 @@ function headerName(header: string): string {
 export function guessColumnRole(header: string): Role | undefined {
   const full = header.toLowerCase().trim();
   // Uncertainty first: "k error" or "σ(k)" also start like a rate constant.
-  if (/±|\+\/-|\+-|sigma|σ|\berr|\bunc|stdev|std\.? ?dev|standard deviation/.test(full) || /^(sd|s\.d\.|dk|δk|u|u\(k\))$/.test(full)) return "uncertainty";
+  if (/±|\+\/-|\+-|sigma|σ|\berr|\bunc|stdev|std\.? ?dev|standard deviation/.test(full) || /^(sd|s\.d\.|dk|δk|u|u\(k\))$/.test(full))
+    return "uncertainty";
   const name = headerName(header);
   if (/^(t|temp|temperature)([ _-]?(k|c|degc|°c))?$/.test(name)) return "T";
   if (/^(k|kobs|k_obs|k\(t\)|k_[a-z0-9]+|k[0-9]|rate|rate (constant|coefficient))$/.test(name) || /^k\(t\)/.test(full)) return "k";
@@ -138,7 +139,11 @@ function tryParse(text: string | undefined, parse: (t: string) => { id: string }
   }
 }
 
-function guessMapping(columns: string[], hasHeader: boolean, rows: string[][]): Pick<InspectedTable, "guessedMapping" | "guessedUnits" | "guessedUncertaintyKind"> {
+function guessMapping(
+  columns: string[],
+  hasHeader: boolean,
+  rows: string[][],
+): Pick<InspectedTable, "guessedMapping" | "guessedUnits" | "guessedUncertaintyKind"> {
   const mapping: ColumnMapping = {};
   const units: InspectedTable["guessedUnits"] = {};
   let kind: UncertaintyKind | undefined;
@@ -183,7 +188,9 @@ function readJsonTable(text: string): { header: string[] | null; rows: string[][
     data = JSON.parse(text);
   } catch {
     const problem = findJsonSyntaxProblem(text);
-    throw unreadable(`The file is not valid JSON${problem ? `: ${problem.problem} (line ${problem.line}, column ${problem.column})` : ""}.`);
+    throw unreadable(
+      `The file is not valid JSON${problem ? `: ${problem.problem} (line ${problem.line}, column ${problem.column})` : ""}.`,
+    );
   }
   const shapeMessage = "A JSON table must be a list of rows: either objects with the same fields (one per point) or lists of cells.";
   if (!Array.isArray(data) || data.length === 0) throw unreadable(shapeMessage);
@@ -238,7 +245,8 @@ export function inspectTable(text: string, options: { filename?: string } = {}):
       comments: "#",
     });
     const quoteError = parsed.errors.find((e) => e.type === "Quotes");
-    if (quoteError) throw unreadable(`Row ${(quoteError.row ?? 0) + 1} has an unclosed quote ("); every quoted cell must end with a quote.`);
+    if (quoteError)
+      throw unreadable(`Row ${(quoteError.row ?? 0) + 1} has an unclosed quote ("); every quoted cell must end with a quote.`);
     delimiter = parsed.meta.delimiter;
     format = delimiter === "\t" ? "tsv" : "csv";
     raw = parsed.data;
@@ -286,7 +294,10 @@ export function applyMapping(
   for (const role of ["T", "k"] as const) {
     const col = mapping[role];
     if (col === undefined || col < 0 || col >= table.columns.length) {
-      errors.push({ pointer: `/mapping/${role}`, message: `Choose the column that holds ${role === "T" ? "the temperature" : "the rate constant"}.` });
+      errors.push({
+        pointer: `/mapping/${role}`,
+        message: `Choose the column that holds ${role === "T" ? "the temperature" : "the rate constant"}.`,
+      });
     }
   }
   if (errors.length) return { points: [], errors };
@@ -297,7 +308,11 @@ export function applyMapping(
   const report = (i: number, col: number, message: string, value?: string) => {
     total++;
     if (errors.length < MAX_IMPORT_ERRORS) {
-      errors.push({ pointer: `/rows/${i}/${escapePointerSegment(table.columns[col])}`, message, ...(value !== undefined ? { value } : {}) });
+      errors.push({
+        pointer: `/rows/${i}/${escapePointerSegment(table.columns[col])}`,
+        message,
+        ...(value !== undefined ? { value } : {}),
+      });
     }
   };
   const where = (i: number, col: number) => `Row ${i + 1}, column "${table.columns[col]}"`;
@@ -327,15 +342,30 @@ export function applyMapping(
     const p = readNumber(row, i, mapping.pressure, false);
     let ok = T !== null && k !== null && u !== null && p !== null;
     if (typeof k === "number" && !(k > 0)) {
-      report(i, mapping.k!, `${where(i, mapping.k!)}: ${row[mapping.k!].trim()} is not greater than 0; a rate constant must be positive.`, row[mapping.k!]);
+      report(
+        i,
+        mapping.k!,
+        `${where(i, mapping.k!)}: ${row[mapping.k!].trim()} is not greater than 0; a rate constant must be positive.`,
+        row[mapping.k!],
+      );
       ok = false;
     }
     if (typeof u === "number" && (kind === "factor" ? !(u > 1) : !(u > 0))) {
-      report(i, mapping.uncertainty!, `${where(i, mapping.uncertainty!)}: ${kind === "factor" ? "an uncertainty factor must be greater than 1" : "an uncertainty must be greater than 0"} (got ${row[mapping.uncertainty!].trim()}).`, row[mapping.uncertainty!]);
+      report(
+        i,
+        mapping.uncertainty!,
+        `${where(i, mapping.uncertainty!)}: ${kind === "factor" ? "an uncertainty factor must be greater than 1" : "an uncertainty must be greater than 0"} (got ${row[mapping.uncertainty!].trim()}).`,
+        row[mapping.uncertainty!],
+      );
       ok = false;
     }
     if (typeof p === "number" && !(p > 0)) {
-      report(i, mapping.pressure!, `${where(i, mapping.pressure!)}: a pressure must be greater than 0 (got ${row[mapping.pressure!].trim()}).`, row[mapping.pressure!]);
+      report(
+        i,
+        mapping.pressure!,
+        `${where(i, mapping.pressure!)}: a pressure must be greater than 0 (got ${row[mapping.pressure!].trim()}).`,
+        row[mapping.pressure!],
+      );
       ok = false;
     }
     if (!ok) return;
@@ -349,7 +379,10 @@ export function applyMapping(
     points.push(point);
   });
   if (total > errors.length) {
-    errors.push({ pointer: "", message: `Showing the first ${formatCount(errors.length)} of ${formatCount(total)} problems in the table.` });
+    errors.push({
+      pointer: "",
+      message: `Showing the first ${formatCount(errors.length)} of ${formatCount(total)} problems in the table.`,
+    });
   }
   return { points, errors };
 }

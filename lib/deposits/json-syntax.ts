@@ -76,7 +76,10 @@ export function findJsonSyntaxProblem(text: string): JsonSyntaxProblem | null {
     if (i >= text.length) {
       if (state === "after" && stack.length === 0) return null;
       if (stack.length === 0 && state === "value") return fail(i, "the text is empty");
-      return fail(i, `the text ends early (${stack.length ? `missing "${stack[stack.length - 1] === "{" ? "}" : "]"}"` : "a value is missing"})`);
+      return fail(
+        i,
+        `the text ends early (${stack.length ? `missing "${stack[stack.length - 1] === "{" ? "}" : "]"}"` : "a value is missing"})`,
+      );
     }
     const c = text[i];
     switch (state) {

@@ -6,7 +6,16 @@
  */
 import type { ErrorObject } from "ajv";
 import type { FieldError } from "@/lib/errors";
-import { describeType, formatCount, formatValue, joinAlternatives, lowerFirst, offendingValue, sentenceAt, sentenceWithPrefix } from "./messages";
+import {
+  describeType,
+  formatCount,
+  formatValue,
+  joinAlternatives,
+  lowerFirst,
+  offendingValue,
+  sentenceAt,
+  sentenceWithPrefix,
+} from "./messages";
 import { depositSchema, escapePointerSegment, schemaAtSegments, splitPointer, type SchemaNode } from "./schema";
 import { MAX_POINTS } from "./vocabulary";
 
@@ -14,7 +23,8 @@ type MessageRule = (pointer: string, value: unknown, error: ErrorObject) => stri
 
 const defs = depositSchema.$defs;
 const DOI_PREFIX = /^(https?:\/\/(dx\.)?doi\.org\/|doi:)/i;
-const webAddressRule: MessageRule = (p, v) => sentenceAt(p, `must be a full web address starting with http:// or https:// (got ${formatValue(v)})`);
+const webAddressRule: MessageRule = (p, v) =>
+  sentenceAt(p, `must be a full web address starting with http:// or https:// (got ${formatValue(v)})`);
 
 /**
  * Messages for particular places in the schema, keyed by the schema node that holds the keyword
@@ -27,8 +37,14 @@ const SPECIFIC = new Map<object, Partial<Record<string, MessageRule>>>([
     {
       pattern: (p, v) =>
         typeof v === "string" && DOI_PREFIX.test(v.trim())
-          ? sentenceAt(p, `must be written without the "${DOI_PREFIX.exec(v.trim())![0]}" prefix, e.g. 10.5555/abc.123 (got ${formatValue(v)})`)
-          : sentenceAt(p, `is not a DOI: a DOI starts with "10.", four or more digits and a slash, e.g. 10.5555/abc.123 (got ${formatValue(v)})`),
+          ? sentenceAt(
+              p,
+              `must be written without the "${DOI_PREFIX.exec(v.trim())![0]}" prefix, e.g. 10.5555/abc.123 (got ${formatValue(v)})`,
+            )
+          : sentenceAt(
+              p,
+              `is not a DOI: a DOI starts with "10.", four or more digits and a slash, e.g. 10.5555/abc.123 (got ${formatValue(v)})`,
+            ),
     },
   ],
   [
@@ -37,7 +53,10 @@ const SPECIFIC = new Map<object, Partial<Record<string, MessageRule>>>([
       pattern: (p, v) =>
         typeof v === "string" && /orcid\.org/i.test(v)
           ? sentenceAt(p, `must be written without "https://orcid.org/", e.g. 0000-0002-1825-0097 (got ${formatValue(v)})`)
-          : sentenceAt(p, `must be four groups of four digits joined by hyphens, the last character a digit or X, e.g. 0000-0002-1825-0097 (got ${formatValue(v)})`),
+          : sentenceAt(
+              p,
+              `must be four groups of four digits joined by hyphens, the last character a digit or X, e.g. 0000-0002-1825-0097 (got ${formatValue(v)})`,
+            ),
     },
   ],
   [
@@ -47,18 +66,27 @@ const SPECIFIC = new Map<object, Partial<Record<string, MessageRule>>>([
       minimum: (p, v) => sentenceAt(p, `must be at least 0.5; a species that does not take part is left out (got ${formatValue(v)})`),
     },
   ],
-  [defs.inchi, { pattern: (p, v) => sentenceAt(p, `must start with "InChI=1S/" or "InChI=1/" and contain no spaces (got ${formatValue(v)})`) }],
+  [
+    defs.inchi,
+    { pattern: (p, v) => sentenceAt(p, `must start with "InChI=1S/" or "InChI=1/" and contain no spaces (got ${formatValue(v)})`) },
+  ],
   [defs.smiles, { pattern: (p, v) => sentenceAt(p, `must not contain spaces (got ${formatValue(v)})`) }],
   [defs.webAddress, { pattern: webAddressRule, format: webAddressRule }],
   [
     defs.uncertainty.then!.properties!.value,
-    { exclusiveMinimum: (p, v) => sentenceWithPrefix(p, `an uncertainty factor f (k/f to k·f) must be greater than 1 (got ${formatValue(v)})`) },
+    {
+      exclusiveMinimum: (p, v) =>
+        sentenceWithPrefix(p, `an uncertainty factor f (k/f to k·f) must be greater than 1 (got ${formatValue(v)})`),
+    },
   ],
   [
     defs.reaction.allOf![1].else!.properties!.products,
     {
       minItems: (p) =>
-        sentenceAt(p, "must list at least one product; if the products were not determined (an overall removal rate), give productsUnknown with a reason instead"),
+        sentenceAt(
+          p,
+          "must list at least one product; if the products were not determined (an overall removal rate), give productsUnknown with a reason instead",
+        ),
     },
   ],
   [defs.reaction.allOf![0].then!, { required: (p) => sentenceAt(p, "is required when the phase is liquid") }],
@@ -73,7 +101,10 @@ const SPECIFIC = new Map<object, Partial<Record<string, MessageRule>>>([
     },
   ],
   [depositSchema.properties!.points, { maxItems: (_p, v) => tooManyPointsMessage(Array.isArray(v) ? v.length : MAX_POINTS + 1) }],
-  [depositSchema.properties!.$schema, { const: (p, v) => sentenceAt(p, `must be "${depositSchema.$id}" when given (got ${formatValue(v)})`) }],
+  [
+    depositSchema.properties!.$schema,
+    { const: (p, v) => sentenceAt(p, `must be "${depositSchema.$id}" when given (got ${formatValue(v)})`) },
+  ],
 ]);
 
 function specificRule(e: ErrorObject): MessageRule | undefined {
@@ -109,7 +140,9 @@ function fieldTitle(parentSegments: string[], name: string): string {
 }
 
 function alternatives(branches: SchemaNode[] | undefined, segments: string[]): string {
-  const options = (branches ?? []).map((b) => (b.required ?? []).map((name) => lowerFirst(fieldTitle(segments, name))).join(" and ")).filter(Boolean);
+  const options = (branches ?? [])
+    .map((b) => (b.required ?? []).map((name) => lowerFirst(fieldTitle(segments, name))).join(" and "))
+    .filter(Boolean);
   return joinAlternatives(options);
 }
 
@@ -136,7 +169,10 @@ function messageFor(e: ErrorObject, pointer: string): string {
           : sentenceAt(pointer, `must be ${typeWord(want)}; ${formatValue(v)} is not a number`);
       }
       if (want === "integer" && typeof v === "number") return sentenceAt(pointer, `must be a whole number (got ${v})`);
-      return sentenceAt(pointer, `must be ${typeWord(want)} (got ${describeType(v)}${v !== null && typeof v !== "object" ? ` ${formatValue(v)}` : ""})`);
+      return sentenceAt(
+        pointer,
+        `must be ${typeWord(want)} (got ${describeType(v)}${v !== null && typeof v !== "object" ? ` ${formatValue(v)}` : ""})`,
+      );
     }
     case "enum": {
       const allowed = (p.allowedValues as unknown[]).map((a) => String(a));
@@ -159,13 +195,25 @@ function messageFor(e: ErrorObject, pointer: string): string {
         ? sentenceAt(pointer, "must not be empty")
         : sentenceAt(pointer, `must be at least ${String(p.limit)} characters long (got ${formatValue(v)})`);
     case "maxLength":
-      return sentenceAt(pointer, `must be at most ${formatCount(Number(p.limit))} characters long (it has ${formatCount(String(v).length)})`);
+      return sentenceAt(
+        pointer,
+        `must be at most ${formatCount(Number(p.limit))} characters long (it has ${formatCount(String(v).length)})`,
+      );
     case "minItems":
-      return sentenceAt(pointer, `must have at least ${String(p.limit)} ${p.limit === 1 ? "entry" : "entries"} (it has ${Array.isArray(v) ? v.length : 0})`);
+      return sentenceAt(
+        pointer,
+        `must have at least ${String(p.limit)} ${p.limit === 1 ? "entry" : "entries"} (it has ${Array.isArray(v) ? v.length : 0})`,
+      );
     case "maxItems":
-      return sentenceAt(pointer, `can have at most ${formatCount(Number(p.limit))} entries (it has ${Array.isArray(v) ? formatCount(v.length) : "more"})`);
+      return sentenceAt(
+        pointer,
+        `can have at most ${formatCount(Number(p.limit))} entries (it has ${Array.isArray(v) ? formatCount(v.length) : "more"})`,
+      );
     case "uniqueItems":
-      return sentenceAt(pointer, `lists the same value twice (entries ${Math.min(Number(p.i), Number(p.j)) + 1} and ${Math.max(Number(p.i), Number(p.j)) + 1})`);
+      return sentenceAt(
+        pointer,
+        `lists the same value twice (entries ${Math.min(Number(p.i), Number(p.j)) + 1} and ${Math.max(Number(p.i), Number(p.j)) + 1})`,
+      );
     case "anyOf":
       return sentenceAt(pointer, `needs at least one of: ${alternatives((e.schema as SchemaNode[]) ?? [], segments)}`);
     case "oneOf":
@@ -209,7 +257,10 @@ export function translateAjvErrors(errors: readonly ErrorObject[], limit: number
   const combined = errors.filter((e) => e.keyword === "anyOf" || e.keyword === "oneOf");
   const isBranchError = (e: ErrorObject) =>
     combined.some(
-      (c) => c !== e && e.schemaPath.startsWith(`${c.schemaPath}/`) && (e.instancePath === c.instancePath || e.instancePath.startsWith(`${c.instancePath}/`)),
+      (c) =>
+        c !== e &&
+        e.schemaPath.startsWith(`${c.schemaPath}/`) &&
+        (e.instancePath === c.instancePath || e.instancePath.startsWith(`${c.instancePath}/`)),
     );
   const seen = new Set<string>();
   const out: FieldError[] = [];

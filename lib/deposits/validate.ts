@@ -46,7 +46,9 @@ const POINTS_STAND_IN = [
   { T: 300, k: 1 },
 ];
 /** Top-level fields the schema lists after points: their errors come after the rows' errors. */
-const FIELDS_AFTER_POINTS = new Set(Object.keys(depositSchema.properties!).slice(Object.keys(depositSchema.properties!).indexOf("points") + 1));
+const FIELDS_AFTER_POINTS = new Set(
+  Object.keys(depositSchema.properties!).slice(Object.keys(depositSchema.properties!).indexOf("points") + 1),
+);
 
 /**
  * Schema errors of a document, at most `limit` translated, plus the number of distinct problems.
@@ -101,7 +103,12 @@ export function validateDeposit(doc: unknown): ValidationResult {
     }
   } else {
     const got = Array.isArray(doc) ? "a list" : doc === null ? "null" : typeof doc;
-    return { ok: false, errors: [{ pointer: "", message: `A deposit document must be a JSON object with fields such as title, reaction and points (got ${got}).` }] };
+    return {
+      ok: false,
+      errors: [
+        { pointer: "", message: `A deposit document must be a JSON object with fields such as title, reaction and points (got ${got}).` },
+      ],
+    };
   }
 
   const translated = schemaErrorsOf(doc as Record<string, unknown>, MAX_VALIDATION_ERRORS);
@@ -124,7 +131,10 @@ export function validateDeposit(doc: unknown): ValidationResult {
     return { ok: true, value: { ...value, license: value.license ?? DEFAULT_LICENCE } };
   }
   if (total > errors.length) {
-    errors.push({ pointer: "", message: `Showing the first ${formatCount(errors.length)} of ${formatCount(total)} problems; correct these and validate again to see the rest.` });
+    errors.push({
+      pointer: "",
+      message: `Showing the first ${formatCount(errors.length)} of ${formatCount(total)} problems; correct these and validate again to see the rest.`,
+    });
   }
   return { ok: false, errors };
 }
@@ -137,9 +147,13 @@ export function validateDeposit(doc: unknown): ValidationResult {
 export function parseDepositJson(text: string): { ok: true; value: unknown } | { ok: false; errors: FieldError[] } {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text; // a byte-order mark is not JSON
   if (body.length > MAX_DOCUMENT_BYTES || utf8ByteLength(body) > MAX_DOCUMENT_BYTES) {
-    return { ok: false, errors: [{ pointer: "", message: `The document is ${(utf8ByteLength(body) / 1024 / 1024).toFixed(1)} MB; the limit is 25 MB.` }] };
+    return {
+      ok: false,
+      errors: [{ pointer: "", message: `The document is ${(utf8ByteLength(body) / 1024 / 1024).toFixed(1)} MB; the limit is 25 MB.` }],
+    };
   }
-  if (body.trim() === "") return { ok: false, errors: [{ pointer: "", message: "The document is empty; a deposit document is a JSON object." }] };
+  if (body.trim() === "")
+    return { ok: false, errors: [{ pointer: "", message: "The document is empty; a deposit document is a JSON object." }] };
   try {
     return { ok: true, value: JSON.parse(body) };
   } catch (e) {

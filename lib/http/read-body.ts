@@ -28,7 +28,9 @@ function formatLimit(bytes: number): string {
 }
 
 function tooLarge({ limit, what = "request body", shownLimit = limit }: ReadBodyOptions): AppError {
-  return new AppError("payload_too_large", `The ${what} is larger than ${formatLimit(shownLimit)}, the limit`, [{ pointer: "", message: `more than ${limit} bytes` }]);
+  return new AppError("payload_too_large", `The ${what} is larger than ${formatLimit(shownLimit)}, the limit`, [
+    { pointer: "", message: `more than ${limit} bytes` },
+  ]);
 }
 
 /**
@@ -97,12 +99,16 @@ export async function readFormDataOrThrow(req: Request, options: ReadBodyOptions
   const contentType = req.headers.get("content-type") ?? "";
   if (!/^multipart\/form-data\b/i.test(contentType)) {
     await req.body?.cancel().catch(() => {});
-    throw new AppError("validation_failed", "Send the body as multipart/form-data", [{ pointer: "", message: `content type “${contentType || "none"}”` }]);
+    throw new AppError("validation_failed", "Send the body as multipart/form-data", [
+      { pointer: "", message: `content type “${contentType || "none"}”` },
+    ]);
   }
   const bytes = await readBodyOrThrow(req, options);
   try {
     return await new Response(bytes as BodyInit, { headers: { "content-type": contentType } }).formData();
   } catch {
-    throw new AppError("validation_failed", "The multipart body could not be read", [{ pointer: "", message: "malformed multipart/form-data" }]);
+    throw new AppError("validation_failed", "The multipart body could not be read", [
+      { pointer: "", message: "malformed multipart/form-data" },
+    ]);
   }
 }

@@ -19,7 +19,9 @@ function keyOf(req: Request): string | null {
   const trimmed = raw.trim();
   const key = trimmed.length >= 2 && trimmed.startsWith('"') && trimmed.endsWith('"') ? trimmed.slice(1, -1) : trimmed;
   if (!KEY_PATTERN.test(key)) {
-    throw new AppError("validation_failed", "The Idempotency-Key header must be 1 to 255 visible ASCII characters", [{ pointer: "", message: "invalid Idempotency-Key header" }]);
+    throw new AppError("validation_failed", "The Idempotency-Key header must be 1 to 255 visible ASCII characters", [
+      { pointer: "", message: "invalid Idempotency-Key header" },
+    ]);
   }
   return key;
 }
@@ -30,7 +32,17 @@ function keyOf(req: Request): string | null {
  * retry). Without the header, `run` simply runs. Only successful (2xx) responses are kept: a
  * refused request stored nothing, so its retry may run again.
  */
-export async function withIdempotency({ req, user, fingerprint, run }: { req: Request; user: UserDto; fingerprint: Uint8Array | string; run: () => Promise<Response> }): Promise<Response> {
+export async function withIdempotency({
+  req,
+  user,
+  fingerprint,
+  run,
+}: {
+  req: Request;
+  user: UserDto;
+  fingerprint: Uint8Array | string;
+  run: () => Promise<Response>;
+}): Promise<Response> {
   const key = keyOf(req);
   if (key === null) return run();
   const endpoint = `${req.method} ${new URL(req.url).pathname}`;
@@ -38,12 +50,18 @@ export async function withIdempotency({ req, user, fingerprint, run }: { req: Re
   const existing = await claimIdempotencyKey({ userId: user.id, key, endpoint, requestHash });
   if (existing) {
     if (existing.endpoint !== endpoint || existing.requestHash !== requestHash) {
-      throw new AppError("validation_failed", "This Idempotency-Key was already used for a different request; use a new key for a new request", [
-        { pointer: "", message: `key first used for ${existing.endpoint} with another body` },
-      ]);
+      throw new AppError(
+        "validation_failed",
+        "This Idempotency-Key was already used for a different request; use a new key for a new request",
+        [{ pointer: "", message: `key first used for ${existing.endpoint} with another body` }],
+      );
     }
-    if (existing.responseStatus === null) throw new AppError("conflict", "A request with this Idempotency-Key is still being processed; retry later");
-    return new Response(existing.responseBody, { status: existing.responseStatus, headers: { ...existing.responseHeaders, "idempotent-replayed": "true" } });
+    if (existing.responseStatus === null)
+      throw new AppError("conflict", "A request with this Idempotency-Key is still being processed; retry later");
+    return new Response(existing.responseBody, {
+      status: existing.responseStatus,
+      headers: { ...existing.responseHeaders, "idempotent-replayed": "true" },
+    });
   }
   let response: Response;
   try {

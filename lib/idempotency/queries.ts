@@ -18,7 +18,17 @@ export interface IdempotencyRecord {
  * Claims a key for a request about to run. Returns null when this call claimed it, else the
  * record already there (in flight or finished). Expired records are cleared first.
  */
-export async function claimIdempotencyKey({ userId, key, endpoint, requestHash }: { userId: number; key: string; endpoint: string; requestHash: string }): Promise<IdempotencyRecord | null> {
+export async function claimIdempotencyKey({
+  userId,
+  key,
+  endpoint,
+  requestHash,
+}: {
+  userId: number;
+  key: string;
+  endpoint: string;
+  requestHash: string;
+}): Promise<IdempotencyRecord | null> {
   const db = getDb();
   await db.delete(idempotencyKeys).where(lt(idempotencyKeys.expiresAt, sql`now()`));
   const inserted = await db
@@ -42,7 +52,19 @@ export async function claimIdempotencyKey({ userId, key, endpoint, requestHash }
 }
 
 /** Stores the response of a finished request so that retries replay it. */
-export async function completeIdempotencyKey({ userId, key, status, headers, body }: { userId: number; key: string; status: number; headers: Record<string, string>; body: string }) {
+export async function completeIdempotencyKey({
+  userId,
+  key,
+  status,
+  headers,
+  body,
+}: {
+  userId: number;
+  key: string;
+  status: number;
+  headers: Record<string, string>;
+  body: string;
+}) {
   await getDb()
     .update(idempotencyKeys)
     .set({ responseStatus: status, responseHeaders: headers, responseBody: body })

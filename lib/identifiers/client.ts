@@ -75,7 +75,8 @@ async function callAgency(method: "GET" | "PUT", doi: string, options: AgencyOpt
 
 async function readRecord(res: Response, doi: string): Promise<DoiRecord> {
   const json = (await res.json().catch(() => null)) as { data?: DoiRecord } | null;
-  if (!json?.data?.attributes) throw new DoiAgencyError(`DOI agency answered ${res.status} for ${doi} without a JSON:API record`, res.status, null);
+  if (!json?.data?.attributes)
+    throw new DoiAgencyError(`DOI agency answered ${res.status} for ${doi} without a JSON:API record`, res.status, null);
   return json.data;
 }
 

@@ -4,7 +4,8 @@
 import { isDoiSyntax } from "./mint";
 
 /** DataCite relation types we emit (a subset of the schema's controlled list). */
-export type RelationType = "IsVersionOf" | "HasVersion" | "IsNewVersionOf" | "IsSupplementTo" | "IsDescribedBy" | "IsDerivedFrom" | "References" | "Cites";
+export type RelationType =
+  "IsVersionOf" | "HasVersion" | "IsNewVersionOf" | "IsSupplementTo" | "IsDescribedBy" | "IsDerivedFrom" | "References" | "Cites";
 
 export interface DataciteRelatedIdentifier {
   relatedIdentifier: string;
@@ -118,7 +119,15 @@ const relationTypes: Record<string, RelationType> = {
 const ORCID_ID = /^\d{4}-\d{4}-\d{4}-\d{3}[\dX]$/;
 
 /** Landing page of a version (`…/datasets/12/v3`) or, without a number, of the dataset. */
-export function buildLandingUrl({ baseUrl, datasetId, versionNumber }: { baseUrl: string; datasetId: number; versionNumber?: number }): string {
+export function buildLandingUrl({
+  baseUrl,
+  datasetId,
+  versionNumber,
+}: {
+  baseUrl: string;
+  datasetId: number;
+  versionNumber?: number;
+}): string {
   const base = `${baseUrl.replace(/\/$/, "")}/datasets/${datasetId}`;
   return versionNumber === undefined ? base : `${base}/v${versionNumber}`;
 }
@@ -190,7 +199,11 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
   const attributes: DataciteAttributes = {
     doi: input.doi,
     event: "publish",
-    url: buildLandingUrl({ baseUrl: input.baseUrl, datasetId: input.datasetId, versionNumber: input.kind === "version" ? input.versionNumber : undefined }),
+    url: buildLandingUrl({
+      baseUrl: input.baseUrl,
+      datasetId: input.datasetId,
+      versionNumber: input.kind === "version" ? input.versionNumber : undefined,
+    }),
     titles: [{ title: asString(doc.title) ?? (input.fallbackTitle.trim() || UNAVAILABLE) }],
     creators: buildCreators(doc.creators),
     publisher: "Arrhenia",

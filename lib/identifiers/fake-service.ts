@@ -58,13 +58,22 @@ export interface FakeDoiServiceOptions {
 const JSON_API = "application/vnd.api+json";
 const MAX_BODY_BYTES = 1_000_000;
 
-export async function startFakeDoiService({ port, host = "127.0.0.1", dataDir = null, prefix = doiPrefix(), auth = null }: FakeDoiServiceOptions): Promise<FakeDoiService> {
+export async function startFakeDoiService({
+  port,
+  host = "127.0.0.1",
+  dataDir = null,
+  prefix = doiPrefix(),
+  auth = null,
+}: FakeDoiServiceOptions): Promise<FakeDoiService> {
   const file = dataDir ? path.join(dataDir, "dois.json") : null;
   // DOIs are case-insensitive: keys are lower case, records keep the spelling first sent.
   const store = new Map<string, FakeDoiRecord>();
   if (file) {
     await mkdir(dataDir!, { recursive: true });
-    const saved = await readFile(file, "utf8").then((t) => JSON.parse(t) as FakeDoiRecord[], () => []);
+    const saved = await readFile(file, "utf8").then(
+      (t) => JSON.parse(t) as FakeDoiRecord[],
+      () => [],
+    );
     for (const r of saved) store.set(r.doi.toLowerCase(), r);
   }
   const log: FakeDoiRequest[] = [];
@@ -121,7 +130,9 @@ export async function startFakeDoiService({ port, host = "127.0.0.1", dataDir = 
     const problems = validate(body, doi, prefix);
     if (problems.length) {
       log.push({ method: "PUT", doi, status: 422 });
-      res.writeHead(422, { "content-type": JSON_API }).end(JSON.stringify({ errors: problems.map((p) => ({ status: "422", source: p.source, title: p.title })) }));
+      res
+        .writeHead(422, { "content-type": JSON_API })
+        .end(JSON.stringify({ errors: problems.map((p) => ({ status: "422", source: p.source, title: p.title })) }));
       return;
     }
     const attributes = (body as { data: { attributes: Record<string, unknown> } }).data.attributes;
@@ -184,7 +195,21 @@ function nextState(current: FakeDoiRecord["state"] | undefined, event: unknown):
 
 function toResource(r: FakeDoiRecord) {
   const slash = r.doi.indexOf("/");
-  return { data: { id: r.doi.toLowerCase(), type: "dois", attributes: { ...r.attributes, doi: r.doi.toLowerCase(), prefix: r.doi.slice(0, slash), suffix: r.doi.slice(slash + 1), state: r.state, created: r.created, updated: r.updated } } };
+  return {
+    data: {
+      id: r.doi.toLowerCase(),
+      type: "dois",
+      attributes: {
+        ...r.attributes,
+        doi: r.doi.toLowerCase(),
+        prefix: r.doi.slice(0, slash),
+        suffix: r.doi.slice(slash + 1),
+        state: r.state,
+        created: r.created,
+        updated: r.updated,
+      },
+    },
+  };
 }
 
 /** The checks a real agency would fail us on, kept to what our own metadata could get wrong. */
@@ -194,16 +219,19 @@ function validate(body: unknown, pathDoi: string, prefix: string): { source: str
   const a = data.attributes ?? {};
   const problems: { source: string; title: string }[] = [];
   const doi = typeof a.doi === "string" ? a.doi : "";
-  if (doi.toLowerCase() !== pathDoi.toLowerCase()) problems.push({ source: "doi", title: "DOI in the body must equal the DOI in the path." });
+  if (doi.toLowerCase() !== pathDoi.toLowerCase())
+    problems.push({ source: "doi", title: "DOI in the body must equal the DOI in the path." });
   if (!isDoiSyntax(pathDoi)) problems.push({ source: "doi", title: "Not DOI syntax." });
   if (!pathDoi.toLowerCase().startsWith(`${prefix.toLowerCase()}/`)) problems.push({ source: "doi", title: `Prefix must be ${prefix}.` });
   if (a.event === "publish") {
-    if (typeof a.url !== "string" || !/^https?:\/\//.test(a.url)) problems.push({ source: "url", title: "A findable DOI needs an http(s) URL." });
+    if (typeof a.url !== "string" || !/^https?:\/\//.test(a.url))
+      problems.push({ source: "url", title: "A findable DOI needs an http(s) URL." });
     if (!nonEmptyArray(a.titles)) problems.push({ source: "titles", title: "Can't be blank." });
     if (!nonEmptyArray(a.creators)) problems.push({ source: "creators", title: "Can't be blank." });
     if (!a.publisher) problems.push({ source: "publisher", title: "Can't be blank." });
     if (!Number.isInteger(Number(a.publicationYear))) problems.push({ source: "publicationYear", title: "Must be a year." });
-    if (!(a.types as { resourceTypeGeneral?: unknown } | undefined)?.resourceTypeGeneral) problems.push({ source: "types", title: "resourceTypeGeneral can't be blank." });
+    if (!(a.types as { resourceTypeGeneral?: unknown } | undefined)?.resourceTypeGeneral)
+      problems.push({ source: "types", title: "resourceTypeGeneral can't be blank." });
   }
   return problems;
 }

@@ -66,7 +66,13 @@ export async function getRegistrationSubject({ identifier }: { identifier: strin
 
   const versions = (
     await db
-      .select({ id: datasetVersions.id, number: datasetVersions.number, versionIdentifier: datasetVersions.versionIdentifier, state: datasetVersions.state, publishedAt: datasetVersions.publishedAt })
+      .select({
+        id: datasetVersions.id,
+        number: datasetVersions.number,
+        versionIdentifier: datasetVersions.versionIdentifier,
+        state: datasetVersions.state,
+        publishedAt: datasetVersions.publishedAt,
+      })
       .from(datasetVersions)
       .where(and(eq(datasetVersions.datasetId, reg.datasetId), isNotNull(datasetVersions.versionIdentifier)))
       .orderBy(asc(datasetVersions.number))
@@ -74,10 +80,18 @@ export async function getRegistrationSubject({ identifier }: { identifier: strin
 
   // A series describes its newest published version; if all are retracted, the newest of those.
   const describedId =
-    reg.kind === "version" ? reg.versionId : ([...versions].reverse().find((v) => v.state === "published") ?? versions[versions.length - 1])?.id;
+    reg.kind === "version"
+      ? reg.versionId
+      : ([...versions].reverse().find((v) => v.state === "published") ?? versions[versions.length - 1])?.id;
   const [described] = describedId
     ? await db
-        .select({ id: datasetVersions.id, number: datasetVersions.number, title: datasetVersions.title, payload: datasetVersions.payload, publishedAt: datasetVersions.publishedAt })
+        .select({
+          id: datasetVersions.id,
+          number: datasetVersions.number,
+          title: datasetVersions.title,
+          payload: datasetVersions.payload,
+          publishedAt: datasetVersions.publishedAt,
+        })
         .from(datasetVersions)
         .where(eq(datasetVersions.id, describedId))
     : [];
@@ -99,7 +113,12 @@ export async function listPendingIdentifiers({ datasetId }: { datasetId?: number
   const rows = await getDb()
     .select({ identifier: identifierRegistrations.identifier })
     .from(identifierRegistrations)
-    .where(and(eq(identifierRegistrations.registered, false), datasetId === undefined ? undefined : eq(identifierRegistrations.datasetId, datasetId)))
+    .where(
+      and(
+        eq(identifierRegistrations.registered, false),
+        datasetId === undefined ? undefined : eq(identifierRegistrations.datasetId, datasetId),
+      ),
+    )
     .orderBy(desc(identifierRegistrations.kind), asc(identifierRegistrations.createdAt), asc(identifierRegistrations.identifier));
   return rows.map((r) => r.identifier);
 }
@@ -108,7 +127,12 @@ export async function listPendingIdentifiers({ datasetId }: { datasetId?: number
 export async function recordRegistrationSuccess({ identifier }: { identifier: string }): Promise<void> {
   await getDb()
     .update(identifierRegistrations)
-    .set({ registered: true, registeredAt: sql`coalesce(${identifierRegistrations.registeredAt}, now())`, attempts: sql`${identifierRegistrations.attempts} + 1`, lastError: null })
+    .set({
+      registered: true,
+      registeredAt: sql`coalesce(${identifierRegistrations.registeredAt}, now())`,
+      attempts: sql`${identifierRegistrations.attempts} + 1`,
+      lastError: null,
+    })
     .where(eq(identifierRegistrations.identifier, identifier));
 }
 

@@ -14,7 +14,10 @@ export interface IdentifierJob {
  * the job exists exactly when the identifier does. The worker retries with backoff while the
  * agency is down, and registration is idempotent, so queuing the same identifier twice is harmless.
  */
-export async function enqueueIdentifierRegistration(identifier: string, { refresh = false, tx }: { refresh?: boolean; tx?: Transaction } = {}): Promise<string | null> {
+export async function enqueueIdentifierRegistration(
+  identifier: string,
+  { refresh = false, tx }: { refresh?: boolean; tx?: Transaction } = {},
+): Promise<string | null> {
   const boss = await getSender();
   const data: IdentifierJob = refresh ? { identifier, refresh } : { identifier };
   return boss.send("register-identifier", data, { ...retryPolicy, ...(tx ? { db: jobsInTransaction(tx) } : {}) });

@@ -6,7 +6,13 @@ import { appUrl } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { registerDoi, type AgencyOptions } from "./client";
 import { buildDoiMetadata, type DataciteBody } from "./datacite";
-import { getRegistrationSubject, listPendingIdentifiers, recordRegistrationFailure, recordRegistrationSuccess, type RegistrationSubject } from "./queries";
+import {
+  getRegistrationSubject,
+  listPendingIdentifiers,
+  recordRegistrationFailure,
+  recordRegistrationSuccess,
+  type RegistrationSubject,
+} from "./queries";
 
 export interface RegistrationOutcome {
   identifier: string;
@@ -20,7 +26,10 @@ export interface RegistrationOutcome {
  * metadata of an identifier already registered (a series after a new version, say); the agency
  * updates its record and mints nothing.
  */
-export async function registerIdentifier(identifier: string, { refresh = false, agency }: { refresh?: boolean; agency?: AgencyOptions } = {}): Promise<RegistrationOutcome> {
+export async function registerIdentifier(
+  identifier: string,
+  { refresh = false, agency }: { refresh?: boolean; agency?: AgencyOptions } = {},
+): Promise<RegistrationOutcome> {
   const subject = await getRegistrationSubject({ identifier });
   if (!subject) throw new AppError("not_found", `No identifier ${identifier} awaits registration`);
   if (subject.registered && !refresh) return { identifier, status: "already_registered" };
@@ -39,7 +48,9 @@ export async function registerIdentifier(identifier: string, { refresh = false, 
  * Registers every identifier still pending (of one dataset, or all). Each is tried even when an
  * earlier one fails; if any failed, throws one error naming them after the others are done.
  */
-export async function registerPendingIdentifiers({ datasetId, agency }: { datasetId?: number; agency?: AgencyOptions } = {}): Promise<RegistrationOutcome[]> {
+export async function registerPendingIdentifiers({ datasetId, agency }: { datasetId?: number; agency?: AgencyOptions } = {}): Promise<
+  RegistrationOutcome[]
+> {
   const outcomes: RegistrationOutcome[] = [];
   const failures: string[] = [];
   for (const identifier of await listPendingIdentifiers({ datasetId })) {
@@ -67,9 +78,20 @@ export function buildRegistrationBody(subject: RegistrationSubject): DataciteBod
   };
   if (subject.kind === "version") {
     const previous = subject.versions.filter((v) => v.number < described.number).at(-1);
-    return buildDoiMetadata({ ...common, kind: "version", publishedAt: described.publishedAt, seriesIdentifier: subject.seriesIdentifier, previousVersionIdentifier: previous?.versionIdentifier ?? null });
+    return buildDoiMetadata({
+      ...common,
+      kind: "version",
+      publishedAt: described.publishedAt,
+      seriesIdentifier: subject.seriesIdentifier,
+      previousVersionIdentifier: previous?.versionIdentifier ?? null,
+    });
   }
   // A series was first made public with its first version.
   const first = subject.versions.find((v) => v.publishedAt)?.publishedAt ?? described.publishedAt;
-  return buildDoiMetadata({ ...common, kind: "series", publishedAt: first, versionIdentifiers: subject.versions.map((v) => v.versionIdentifier) });
+  return buildDoiMetadata({
+    ...common,
+    kind: "series",
+    publishedAt: first,
+    versionIdentifiers: subject.versions.map((v) => v.versionIdentifier),
+  });
 }

@@ -46,7 +46,8 @@ function toDrizzleSql(text: string, values: unknown[]): SQL {
       if (i % 2 === 0) return sql.raw(part);
       const value = values[Number(part) - 1] ?? null;
       // pg-boss passes job data as an object for a ::jsonb parameter.
-      const param = value !== null && typeof value === "object" && !(value instanceof Date) && !Array.isArray(value) ? JSON.stringify(value) : value;
+      const param =
+        value !== null && typeof value === "object" && !(value instanceof Date) && !Array.isArray(value) ? JSON.stringify(value) : value;
       return sql`${param}`;
     }),
   );

@@ -17,7 +17,9 @@ export interface QueueCounts {
 
 /** Jobs per queue and state, from pg-boss's own table. */
 export async function getQueueCounts(): Promise<QueueCounts[]> {
-  const rows = await getDb().execute<{ name: string; state: string; n: number }>(sql`select name, state::text as state, count(*)::int as n from pgboss.job group by name, state`);
+  const rows = await getDb().execute<{ name: string; state: string; n: number }>(
+    sql`select name, state::text as state, count(*)::int as n from pgboss.job group by name, state`,
+  );
   return queues.map((name) => {
     const c: QueueCounts = { name, created: 0, retry: 0, active: 0, completed: 0, failed: 0, cancelled: 0 };
     for (const r of rows) if (r.name === name && r.state in c) (c as unknown as Record<string, number>)[r.state] = Number(r.n);
@@ -69,7 +71,9 @@ export async function listTroubledJobs({ limit = 50 }: { limit?: number } = {}):
 
 /** Puts a failed job back in its queue, on the record; an unknown job or one not failed says so. */
 export async function retryJob({ actorId, queue, id }: { actorId: number; queue: QueueName; id: string }) {
-  const [job] = await getDb().execute<{ state: string }>(sql`select state::text as state from pgboss.job where name = ${queue} and id = ${id}::uuid`);
+  const [job] = await getDb().execute<{ state: string }>(
+    sql`select state::text as state from pgboss.job where name = ${queue} and id = ${id}::uuid`,
+  );
   if (!job) throw new AppError("not_found", `No job ${id} in the ${queue} queue (it may have been removed after its retention period)`);
   if (job.state !== "failed") throw new AppError("conflict", `Job ${id} is ${job.state}, not failed: only a failed job can be retried`);
   const boss = await getSender();

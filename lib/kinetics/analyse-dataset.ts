@@ -135,14 +135,11 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
     const rss2 = Math.max(modFit.rss, d.rssFloor);
     // Extra-sum-of-squares F test for one added coefficient (Draper & Smith 1998, §6.1).
     const F = Math.max(0, rss1 - rss2) / (rss2 / (n - 3));
-    const deltaAICc =
-      modSum!.aicc !== null && arrSum.aicc !== null ? modSum!.aicc - arrSum.aicc : null;
+    const deltaAICc = modSum!.aicc !== null && arrSum.aicc !== null ? modSum!.aicc - arrSum.aicc : null;
     curvature = { F, p: survivalF(F, 1, n - 3), deltaAICc, direction: modFit.beta[1] >= 0 ? "up" : "down" };
   }
   const curved = curvature !== null && curvature.p < ALPHA;
-  const band = curved
-    ? computeBand(modFit!, modSum!, d, "modified_arrhenius")
-    : computeBand(arrFit, arrSum, d, "arrhenius");
+  const band = curved ? computeBand(modFit!, modSum!, d, "modified_arrhenius") : computeBand(arrFit, arrSum, d, "arrhenius");
 
   const flags = collectFlags(d, { arrFit, arrSum, arrhenius, modFit, modifiedArrhenius, diagnostics, curvature, band }, input);
   return { n, weighted: d.weighted, arrhenius, modifiedArrhenius, eyring, diagnostics, curvature, band, flags };
@@ -231,7 +228,10 @@ function countDistinctUpTo3(T: Float64Array, n: number, Tmin: number, Tmax: numb
 
 function checkReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>): void {
   const bad = (what: string, v: unknown) =>
-    new AnalysisError("invalid_reported_fit", `The reported expression has ${what} = ${describe(v)}; ${what === "A" ? "A must be a positive finite number" : what === "T0" ? "T0 must be a positive temperature in kelvin" : `${what} must be a finite number`}.`);
+    new AnalysisError(
+      "invalid_reported_fit",
+      `The reported expression has ${what} = ${describe(v)}; ${what === "A" ? "A must be a positive finite number" : what === "T0" ? "T0 must be a positive temperature in kelvin" : `${what} must be a finite number`}.`,
+    );
   if (typeof r.A !== "number" || !Number.isFinite(r.A) || r.A <= 0) throw bad("A", r.A);
   if (typeof r.Ea !== "number" || !Number.isFinite(r.Ea)) throw bad("Ea", r.Ea);
   if (r.n !== undefined && (typeof r.n !== "number" || !Number.isFinite(r.n))) throw bad("n", r.n);
@@ -374,12 +374,7 @@ function computeDiagnostics(fit: CentredFit, cols: Float64Array[], d: Prepared):
   return { leverage: h, studentized, externallyStudentized: external, cooksDistance: cook };
 }
 
-function computeBand(
-  fit: CentredFit,
-  s: FitSummary,
-  d: Prepared,
-  model: ConfidenceBand["model"],
-): ConfidenceBand {
+function computeBand(fit: CentredFit, s: FitSummary, d: Prepared, model: ConfidenceBand["model"]): ConfidenceBand {
   const p = fit.p;
   // Pre-filled so V8 keeps packed double arrays instead of growing them by push.
   const T = new Array<number>(BAND_POINTS).fill(0);
@@ -435,7 +430,8 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
 
   if (n < MIN_POINTS_FOR_DIAGNOSTICS || d.distinctT < 3) {
     const skipped: string[] = [];
-    if (n < MIN_POINTS_FOR_DIAGNOSTICS) skipped.push(`outlier, influence and curvature checks need at least ${MIN_POINTS_FOR_DIAGNOSTICS} points (there are ${n})`);
+    if (n < MIN_POINTS_FOR_DIAGNOSTICS)
+      skipped.push(`outlier, influence and curvature checks need at least ${MIN_POINTS_FOR_DIAGNOSTICS} points (there are ${n})`);
     if (d.distinctT < 3) skipped.push(`the modified Arrhenius fit needs at least 3 different temperatures (there are ${d.distinctT})`);
     flags.push({ code: "too_few_points", severity: "info", message: `Some checks were skipped: ${skipped.join("; ")}.` });
   }
@@ -488,7 +484,8 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
   const looseEa = relSe !== null && seEa !== null && relSe > NARROW_RANGE_RELATIVE_SE && seEa > NARROW_RANGE_MIN_SE;
   if (narrowT || looseEa) {
     const why: string[] = [];
-    if (narrowT) why.push(`the temperatures span only ${fmt(d.Tmin)}–${fmt(d.Tmax)} K (Tmax/Tmin = ${ratio.toFixed(3)}, below ${NARROW_RANGE_RATIO})`);
+    if (narrowT)
+      why.push(`the temperatures span only ${fmt(d.Tmin)}–${fmt(d.Tmax)} K (Tmax/Tmin = ${ratio.toFixed(3)}, below ${NARROW_RANGE_RATIO})`);
     if (looseEa) why.push(`the standard error of Ea is ${Math.round(relSe! * 100)} % of its value (${(seEa! / 1000).toFixed(1)} kJ/mol)`);
     flags.push({
       code: "narrow_range",
@@ -552,7 +549,9 @@ function compareReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>, d: Pre
   if (!(worst > 0)) return null;
   const factor = Math.exp(Math.abs(worstDiff));
   const where = from === to ? `at ${fmt(from)} K` : `between ${fmt(from)} and ${fmt(to)} K`;
-  const bandWords = band.lower ? "outside the 95 % confidence band of the refit" : "more than 1 % away from the refit (the refit has no spare degrees of freedom)";
+  const bandWords = band.lower
+    ? "outside the 95 % confidence band of the refit"
+    : "more than 1 % away from the refit (the refit has no spare degrees of freedom)";
   return {
     code: "reported_fit_disagrees",
     severity: "warn",

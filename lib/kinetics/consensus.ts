@@ -212,7 +212,8 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
 
   const included = summaries.map(() => true);
   let arr = fitModel(summaries, included, 2);
-  if (!arr) throw new AnalysisError("too_few_temperatures", "The temperatures are too close together to fit a consensus Arrhenius expression.");
+  if (!arr)
+    throw new AnalysisError("too_few_temperatures", "The temperatures are too close together to fit a consensus Arrhenius expression.");
   let mod = fitModel(summaries, included, 3);
   let preferModified = isModifiedPreferred(mod);
   let loo = leaveOneOut(summaries, included, preferModified ? mod!.offsets : arr.offsets);

@@ -176,12 +176,7 @@ function solveResponse(
 }
 
 /** Diagonal of the hat matrix, hᵢ = ‖Gᵀaᵢ‖² with aᵢ the whitened centred row i. */
-export function computeLeverage(
-  fit: CentredFit,
-  cols: readonly Float64Array[],
-  sw: Float64Array | null,
-  out: number[],
-): void {
+export function computeLeverage(fit: CentredFit, cols: readonly Float64Array[], sw: Float64Array | null, out: number[]): void {
   const { n, p, g, means } = fit;
   for (let i = 0; i < n; i++) {
     const s = sw ? sw[i] : 1;

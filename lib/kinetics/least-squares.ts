@@ -43,12 +43,7 @@ export interface HouseholderFactor {
  * @param a column-major n×p values (overwritten)
  * @example factorHouseholder(new Float64Array([1, 1, 1, 0, 1, 2]), 3, 2)
  */
-export function factorHouseholder(
-  a: Float64Array,
-  n: number,
-  p: number,
-  rankTolerance = DEFAULT_RANK_TOLERANCE,
-): HouseholderFactor | null {
+export function factorHouseholder(a: Float64Array, n: number, p: number, rankTolerance = DEFAULT_RANK_TOLERANCE): HouseholderFactor | null {
   const f: HouseholderFactor = { n, p, qr: a, rdiag: new Float64Array(p), vnorm2: new Float64Array(p), scale: new Float64Array(p) };
   return factorHouseholderInto(f, rankTolerance) ? f : null;
 }
@@ -296,8 +291,7 @@ export function solveLeastSquares(
     leverage[i] = h;
   }
 
-  const toRows = (m: Float64Array, f: number) =>
-    Array.from({ length: p }, (_, i) => Array.from({ length: p }, (_, j) => m[i * p + j] * f));
+  const toRows = (m: Float64Array, f: number) => Array.from({ length: p }, (_, i) => Array.from({ length: p }, (_, j) => m[i * p + j] * f));
   return {
     params: Array.from(beta),
     se: s2 === null ? null : Array.from({ length: p }, (_, j) => Math.sqrt(s2 * unscaled[j * p + j])),

@@ -9,26 +9,12 @@
  * Canonical units: k in s⁻¹ (order 1), cm³ molecule⁻¹ s⁻¹ (2), cm⁶ molecule⁻² s⁻¹ (3);
  * energy J mol⁻¹; temperature K; pressure Pa.
  */
-import {
-  AVOGADRO,
-  CALORIE,
-  CELSIUS_ZERO,
-  ELEMENTARY_CHARGE,
-  GAS_CONSTANT,
-  PLANCK,
-  SPEED_OF_LIGHT,
-  STANDARD_ATMOSPHERE,
-} from "./constants";
+import { AVOGADRO, CALORIE, CELSIUS_ZERO, ELEMENTARY_CHARGE, GAS_CONSTANT, PLANCK, SPEED_OF_LIGHT, STANDARD_ATMOSPHERE } from "./constants";
 import type { ReactionOrder } from "./types";
 
 /** Stable codes of {@link UnitError}. */
 export type UnitErrorCode =
-  | "unknown_unit"
-  | "order_mismatch"
-  | "below_absolute_zero"
-  | "negative_pressure"
-  | "invalid_value"
-  | "invalid_uncertainty";
+  "unknown_unit" | "order_mismatch" | "below_absolute_zero" | "negative_pressure" | "invalid_value" | "invalid_uncertainty";
 
 /** A unit string or value that cannot be used; `accepted` lists valid spellings where relevant. */
 export class UnitError extends Error {
@@ -85,7 +71,14 @@ const RATE_UNITS: readonly RateConstantUnit[] = [
     aliases: ["l mol-1 s-1", "L/mol/s", "L/(mol s)", "dm3 mol-1 s-1", "dm3/mol/s", "M-1 s-1", "1/(M s)", "M-1s-1"],
   },
   { id: "m3 mol-1 s-1", label: "m³ mol⁻¹ s⁻¹", order: 2, exp10: 6, expAvogadro: -1, aliases: ["m3/mol/s", "m3/(mol s)"] },
-  { id: "m3 molecule-1 s-1", label: "m³ molecule⁻¹ s⁻¹", order: 2, exp10: 6, expAvogadro: 0, aliases: ["m3/molecule/s", "m3/(molecule s)"] },
+  {
+    id: "m3 molecule-1 s-1",
+    label: "m³ molecule⁻¹ s⁻¹",
+    order: 2,
+    exp10: 6,
+    expAvogadro: 0,
+    aliases: ["m3/molecule/s", "m3/(molecule s)"],
+  },
   {
     id: "cm6 molecule-2 s-1",
     label: "cm⁶ molecule⁻² s⁻¹",
@@ -198,7 +191,12 @@ function listSpellings(units: readonly UnitDefinition[]): string[] {
 }
 
 function lookup<U extends UnitDefinition>(text: unknown, index: Map<string, U>, units: readonly U[], what: string): U {
-  if (typeof text !== "string") throw new UnitError("unknown_unit", `A ${what} unit must be a string (got ${String(text)}).`, units.map((u) => u.id));
+  if (typeof text !== "string")
+    throw new UnitError(
+      "unknown_unit",
+      `A ${what} unit must be a string (got ${String(text)}).`,
+      units.map((u) => u.id),
+    );
   const unit = index.get(normaliseUnitText(text));
   if (!unit) {
     throw new UnitError(

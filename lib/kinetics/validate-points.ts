@@ -7,11 +7,9 @@ import type { RatePoint, ReactionOrder } from "./types";
 /** Throw unless order is 1, 2 or 3. */
 export function assertReactionOrder(order: unknown, datasetId?: string): asserts order is ReactionOrder {
   if (order !== 1 && order !== 2 && order !== 3) {
-    throw new AnalysisError(
-      "invalid_order",
-      `${prefix(datasetId)}Reaction order must be 1, 2 or 3 (got ${describe(order)}).`,
-      { datasetId },
-    );
+    throw new AnalysisError("invalid_order", `${prefix(datasetId)}Reaction order must be 1, 2 or 3 (got ${describe(order)}).`, {
+      datasetId,
+    });
   }
 }
 

@@ -5,7 +5,13 @@ import { capturedMail } from "@/db/mail";
 
 export async function listCapturedMail({ limit = 100 }: { limit?: number } = {}) {
   return getDb()
-    .select({ id: capturedMail.id, fromAddress: capturedMail.fromAddress, toAddresses: capturedMail.toAddresses, subject: capturedMail.subject, receivedAt: capturedMail.receivedAt })
+    .select({
+      id: capturedMail.id,
+      fromAddress: capturedMail.fromAddress,
+      toAddresses: capturedMail.toAddresses,
+      subject: capturedMail.subject,
+      receivedAt: capturedMail.receivedAt,
+    })
     .from(capturedMail)
     .orderBy(desc(capturedMail.receivedAt), desc(capturedMail.id))
     .limit(limit);

@@ -13,7 +13,13 @@ function escapeHtml(s: string): string {
 
 /** Plain layout shared by every message: a greeting, paragraphs, one action link. */
 function compose(to: string, subject: string, name: string, paragraphs: string[], action?: { label: string; url: string }): MailMessage {
-  const text = [`Hello ${name},`, "", ...paragraphs.flatMap((p) => [p, ""]), ...(action ? [`${action.label}: ${action.url}`, ""] : []), "— Arrhenia"].join("\n");
+  const text = [
+    `Hello ${name},`,
+    "",
+    ...paragraphs.flatMap((p) => [p, ""]),
+    ...(action ? [`${action.label}: ${action.url}`, ""] : []),
+    "— Arrhenia",
+  ].join("\n");
   const html = `<!doctype html><html><body style="font-family:system-ui,sans-serif;line-height:1.5;color:#1b2430">
 <p>Hello ${escapeHtml(name)},</p>
 ${paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join("\n")}
@@ -27,7 +33,10 @@ export function verificationMail(to: string, name: string, secret: string): Mail
     to,
     "Confirm your e-mail address for Arrhenia",
     name,
-    ["Someone (we hope you) created an Arrhenia account with this address. Confirm it to start depositing datasets.", "The link works once and expires in 48 hours."],
+    [
+      "Someone (we hope you) created an Arrhenia account with this address. Confirm it to start depositing datasets.",
+      "The link works once and expires in 48 hours.",
+    ],
     { label: "Confirm my address", url: `${appUrl()}/verify?token=${encodeURIComponent(secret)}` },
   );
 }
@@ -37,7 +46,10 @@ export function passwordResetMail(to: string, name: string, secret: string): Mai
     to,
     "Choose a new Arrhenia password",
     name,
-    ["A new password was requested for your Arrhenia account. If it was not you, ignore this message: your password stays as it is.", "The link works once and expires in one hour."],
+    [
+      "A new password was requested for your Arrhenia account. If it was not you, ignore this message: your password stays as it is.",
+      "The link works once and expires in one hour.",
+    ],
     { label: "Choose a new password", url: `${appUrl()}/reset-password?token=${encodeURIComponent(secret)}` },
   );
 }
@@ -60,13 +72,18 @@ export function existingAccountMail(to: string, name: string): MailMessage {
     to,
     "You already have an Arrhenia account",
     name,
-    ["Someone tried to create a new Arrhenia account with this address, which already has one. If it was you, sign in, or choose a new password if you have forgotten it."],
+    [
+      "Someone tried to create a new Arrhenia account with this address, which already has one. If it was you, sign in, or choose a new password if you have forgotten it.",
+    ],
     { label: "Forgot my password", url: `${appUrl()}/forgot-password` },
   );
 }
 
 export function submissionMail(to: string, name: string, title: string, versionId: number): MailMessage {
-  return compose(to, `Waiting for review: ${title}`, name, [`A dataset was submitted and waits for a curator: “${title}”.`], { label: "Open the review", url: `${appUrl()}/review/${versionId}` });
+  return compose(to, `Waiting for review: ${title}`, name, [`A dataset was submitted and waits for a curator: “${title}”.`], {
+    label: "Open the review",
+    url: `${appUrl()}/review/${versionId}`,
+  });
 }
 
 const decisionWords = {
@@ -96,12 +113,22 @@ export function decisionMail(
   });
 }
 
-export function invitationMail(to: string, name: string, inviter: string, title: string, role: "editor" | "viewer", secret: string): MailMessage {
+export function invitationMail(
+  to: string,
+  name: string,
+  inviter: string,
+  title: string,
+  role: "editor" | "viewer",
+  secret: string,
+): MailMessage {
   return compose(
     to,
     `${inviter} invites you to ${role === "editor" ? "co-edit" : "read"} a dataset on Arrhenia`,
     name,
-    [`${inviter} invites you to ${role === "editor" ? "work on" : "read"} the dataset “${title}” as ${role === "editor" ? "an editor" : "a viewer"}.`, "Sign in (or create an account with this address) and open the link. It works once, for 7 days."],
+    [
+      `${inviter} invites you to ${role === "editor" ? "work on" : "read"} the dataset “${title}” as ${role === "editor" ? "an editor" : "a viewer"}.`,
+      "Sign in (or create an account with this address) and open the link. It works once, for 7 days.",
+    ],
     { label: "Accept the invitation", url: `${appUrl()}/invitations/accept?token=${encodeURIComponent(secret)}` },
   );
 }

@@ -11,7 +11,13 @@ function getTransporter(): Transporter {
 
 /** Hands one message to the SMTP relay (or the local capture server); throws when it refuses. */
 export async function deliverMail(message: MailMessage): Promise<string> {
-  const info = await getTransporter().sendMail({ from: mailFrom(), to: message.to, subject: message.subject, text: message.text, html: message.html });
+  const info = await getTransporter().sendMail({
+    from: mailFrom(),
+    to: message.to,
+    subject: message.subject,
+    text: message.text,
+    html: message.html,
+  });
   return info.messageId;
 }
 

@@ -16,7 +16,10 @@ const isNewestPublic = and(
 /** A reaction with its species (and the names people gave them). */
 export async function getReaction({ id }: { id: number }) {
   const db = getDb();
-  const [reaction] = await db.select({ id: reactions.id, key: reactions.key, equation: reactions.equation }).from(reactions).where(eq(reactions.id, id));
+  const [reaction] = await db
+    .select({ id: reactions.id, key: reactions.key, equation: reactions.equation })
+    .from(reactions)
+    .where(eq(reactions.id, id));
   if (!reaction) return null;
   const participants = await db
     .select({
@@ -27,7 +30,9 @@ export async function getReaction({ id }: { id: number }) {
       smiles: species.canonicalSmiles,
       inchiKey: species.inchiKey,
       molarMass: species.molarMass,
-      names: sql<string[]>`coalesce((select array_agg(n.name order by n.name) from ${speciesNames} n where n.species_id = ${species.id}), '{}')`,
+      names: sql<
+        string[]
+      >`coalesce((select array_agg(n.name order by n.name) from ${speciesNames} n where n.species_id = ${species.id}), '{}')`,
     })
     .from(reactionParticipants)
     .innerJoin(species, eq(species.id, reactionParticipants.speciesId))
@@ -60,7 +65,12 @@ export async function listPublicVersionsOfReaction({ reactionId }: { reactionId:
   if (!versions.length) return [];
   const ids = versions.map((v) => v.versionId);
   const points = await db
-    .select({ versionId: versionPoints.versionId, T: versionPoints.temperatureK, k: versionPoints.rateConstant, sigmaLnK: versionPoints.sigmaLnK })
+    .select({
+      versionId: versionPoints.versionId,
+      T: versionPoints.temperatureK,
+      k: versionPoints.rateConstant,
+      sigmaLnK: versionPoints.sigmaLnK,
+    })
     .from(versionPoints)
     .where(inArray(versionPoints.versionId, ids))
     .orderBy(versionPoints.versionId, versionPoints.idx);
@@ -71,7 +81,9 @@ export async function listPublicVersionsOfReaction({ reactionId }: { reactionId:
     .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id));
   return versions.map((v) => ({
     ...v,
-    points: points.filter((p) => p.versionId === v.versionId).map((p) => ({ T: p.T, k: p.k, ...(p.sigmaLnK !== null ? { sigmaLnK: p.sigmaLnK } : {}) })),
+    points: points
+      .filter((p) => p.versionId === v.versionId)
+      .map((p) => ({ T: p.T, k: p.k, ...(p.sigmaLnK !== null ? { sigmaLnK: p.sigmaLnK } : {}) })),
     analysis: analyses.find((a) => a.versionId === v.versionId)?.result ?? null,
   }));
 }

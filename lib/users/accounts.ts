@@ -65,7 +65,9 @@ export async function resetPassword({ secret, password }: { secret: string; pass
 export async function changePassword({ userId, current, password }: { userId: number; current: string; password: string }) {
   const row = await getPasswordHash({ id: userId });
   if (!row || !(await verifyPassword(current, row.passwordHash))) {
-    throw new AppError("validation_failed", "Your current password is not right", [{ pointer: "/current", message: "Your current password is not right" }]);
+    throw new AppError("validation_failed", "Your current password is not right", [
+      { pointer: "/current", message: "Your current password is not right" },
+    ]);
   }
   await setPasswordHash({ userId, passwordHash: await hashPassword(password), actorId: userId });
 }

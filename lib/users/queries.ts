@@ -124,11 +124,7 @@ export async function countUsers(): Promise<number> {
 }
 
 export async function countUsersByRole(): Promise<Record<Role, number>> {
-  const rows = await getDb()
-    .select({ role: users.role, n: count() })
-    .from(users)
-    .where(isNull(users.deactivatedAt))
-    .groupBy(users.role);
+  const rows = await getDb().select({ role: users.role, n: count() }).from(users).where(isNull(users.deactivatedAt)).groupBy(users.role);
   const out: Record<Role, number> = { researcher: 0, curator: 0, admin: 0 };
   for (const r of rows) out[r.role] = r.n;
   return out;
@@ -175,15 +171,34 @@ export async function setUserActive({ actorId, userId, active }: { actorId: numb
     if (!active) {
       // A deactivated account keeps no working API tokens and no open session.
       await endAllSessions({ userId, tx });
-      await tx.update(apiTokens).set({ revokedAt: new Date() }).where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)));
+      await tx
+        .update(apiTokens)
+        .set({ revokedAt: new Date() })
+        .where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)));
     }
   });
 }
 
-export async function updateProfile({ userId, name, orcid, affiliation }: { userId: number; name: string; orcid: string | null; affiliation: string | null }) {
+export async function updateProfile({
+  userId,
+  name,
+  orcid,
+  affiliation,
+}: {
+  userId: number;
+  name: string;
+  orcid: string | null;
+  affiliation: string | null;
+}) {
   await getDb().transaction(async (tx) => {
     await tx.update(users).set({ name, orcid, affiliation }).where(eq(users.id, userId));
-    await recordAuditEvent(tx, { actorId: userId, action: "user.profile_updated", subjectType: "user", subjectId: userId, details: { orcid } });
+    await recordAuditEvent(tx, {
+      actorId: userId,
+      action: "user.profile_updated",
+      subjectType: "user",
+      subjectId: userId,
+      details: { orcid },
+    });
   });
 }
 
@@ -200,7 +215,10 @@ export async function setPasswordHash({ userId, passwordHash, actorId }: { userI
 
 export async function markEmailVerified({ userId }: { userId: number }) {
   await getDb().transaction(async (tx) => {
-    await tx.update(users).set({ emailVerifiedAt: new Date() }).where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
+    await tx
+      .update(users)
+      .set({ emailVerifiedAt: new Date() })
+      .where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
     await recordAuditEvent(tx, { actorId: userId, action: "user.email_verified", subjectType: "user", subjectId: userId });
   });
 }
@@ -219,7 +237,15 @@ const ttlMs: Record<OneTimePurpose, number> = {
 const newestOnly: ReadonlySet<OneTimePurpose> = new Set(["reset_password", "unlock_sign_in"]);
 
 /** Marks every unused link of this purpose as spent. */
-export async function voidOneTimeTokens({ userId, purpose, tx = getDb() }: { userId: number; purpose: OneTimePurpose; tx?: Database | Transaction }) {
+export async function voidOneTimeTokens({
+  userId,
+  purpose,
+  tx = getDb(),
+}: {
+  userId: number;
+  purpose: OneTimePurpose;
+  tx?: Database | Transaction;
+}) {
   await tx
     .update(oneTimeTokens)
     .set({ usedAt: new Date() })
@@ -231,7 +257,9 @@ export async function createOneTimeToken({ userId, purpose }: { userId: number; 
   const secret = generateSecret("", 32);
   await getDb().transaction(async (tx) => {
     if (newestOnly.has(purpose)) await voidOneTimeTokens({ userId, purpose, tx });
-    await tx.insert(oneTimeTokens).values({ userId, purpose, tokenHash: hashSecret(secret), expiresAt: new Date(Date.now() + ttlMs[purpose]) });
+    await tx
+      .insert(oneTimeTokens)
+      .values({ userId, purpose, tokenHash: hashSecret(secret), expiresAt: new Date(Date.now() + ttlMs[purpose]) });
   });
   return secret;
 }
@@ -289,7 +317,13 @@ export async function createApiToken({ userId, name, scopes }: { userId: number;
       .insert(apiTokens)
       .values({ userId, name, scopes, tokenHash: hashSecret(secret), prefix: secret.slice(0, 12) })
       .returning(tokenColumns);
-    await recordAuditEvent(tx, { actorId: userId, action: "api_token.created", subjectType: "api_token", subjectId: row.id, details: { name, scopes } });
+    await recordAuditEvent(tx, {
+      actorId: userId,
+      action: "api_token.created",
+      subjectType: "api_token",
+      subjectId: row.id,
+      details: { name, scopes },
+    });
     return row;
   });
   return { token, secret };

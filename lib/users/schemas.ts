@@ -37,7 +37,11 @@ export const signUpSchema = z
 
 export const profileSchema = z.object({
   name: z.string().trim().min(1, "Enter your name").max(200),
-  affiliation: z.string().trim().max(300).transform((v) => v || null),
+  affiliation: z
+    .string()
+    .trim()
+    .max(300)
+    .transform((v) => v || null),
   orcid: orcidField,
 });
 

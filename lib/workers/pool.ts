@@ -65,9 +65,12 @@ export async function runAnalysisTask<N extends TaskName>(name: N, input: Parame
   } catch (err) {
     const e = err as Error;
     if (e?.name === "AbortError" || e?.name === "TimeoutError") {
-      throw busy(`Checking this submission took longer than ${Math.round(timeoutMs / 1000)} s and was stopped; try again later or split it.`);
+      throw busy(
+        `Checking this submission took longer than ${Math.round(timeoutMs / 1000)} s and was stopped; try again later or split it.`,
+      );
     }
-    if (/queue is at limit/i.test(e?.message ?? "")) throw busy("The server is busy checking other submissions; try again in a few seconds.");
+    if (/queue is at limit/i.test(e?.message ?? ""))
+      throw busy("The server is busy checking other submissions; try again in a few seconds.");
     throw err;
   }
 }

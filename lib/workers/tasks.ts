@@ -7,7 +7,8 @@ import { runAnalysisOrThrow, type AnalysisRequest, type AnalysisResponse } from 
 import { checkAndAnalyseDocument } from "@/lib/datasets/prepare-document";
 import { AppError, type ErrorCode, type FieldError } from "@/lib/errors";
 
-export type AnalyseOutcome = { ok: true; response: AnalysisResponse } | { ok: false; code: ErrorCode; message: string; errors: FieldError[] };
+export type AnalyseOutcome =
+  { ok: true; response: AnalysisResponse } | { ok: false; code: ErrorCode; message: string; errors: FieldError[] };
 
 export const tasks = {
   /** Deposit document (JSON text) → validated, normalised, analysed (lib/datasets/prepare-document.ts). */

@@ -24,18 +24,177 @@ interface ReactionSpec {
 }
 
 const reactions: ReactionSpec[] = [
-  { id: "oh-ch4", reactants: [["hydroxyl", "[OH]"], ["methane", "C"]], products: [["water", "O"], ["methyl", "[CH3]"]], cls: "h_abstraction", order: 2, A: 2.3e-12, n: 0, EoverR: 1760 },
-  { id: "oh-c2h6", reactants: [["hydroxyl", "[OH]"], ["ethane", "CC"]], products: [["water", "O"], ["ethyl", "C[CH2]"]], cls: "h_abstraction", order: 2, A: 7.9e-12, n: 0, EoverR: 1000 },
-  { id: "cl-ch4", reactants: [["chlorine atom", "[Cl]"], ["methane", "C"]], products: [["hydrogen chloride", "Cl"], ["methyl", "[CH3]"]], cls: "h_abstraction", order: 2, A: 7.0e-12, n: 0, EoverR: 1280 },
-  { id: "oh-c2h4", reactants: [["hydroxyl", "[OH]"], ["ethene", "C=C"]], products: [["2-hydroxyethyl", "OC[CH2]"]], cls: "addition", order: 2, A: 1.9e-12, n: 0, EoverR: -420 },
-  { id: "ch3-ch3", reactants: [["methyl", "[CH3]"], ["methyl", "[CH3]"]], products: [["ethane", "CC"]], cls: "recombination", order: 2, A: 6.0e-11, n: -0.4, EoverR: 0 },
-  { id: "c2h5cl", reactants: [["chloroethane", "CCCl"]], products: [["ethene", "C=C"], ["hydrogen chloride", "Cl"]], cls: "elimination", order: 1, A: 3.0e13, n: 0, EoverR: 28500 },
-  { id: "c2h6-fission", reactants: [["ethane", "CC"]], products: [["methyl", "[CH3]"], ["methyl", "[CH3]"]], cls: "bond_fission", order: 1, A: 2.0e16, n: 0, EoverR: 44000 },
-  { id: "no-o3", reactants: [["nitric oxide", "[N]=O"], ["ozone", "[O-][O+]=O"]], products: [["nitrogen dioxide", "[O]N=O"], ["oxygen", "O=O"]], cls: "other", order: 2, A: 2.8e-12, n: 0, EoverR: 1450 },
-  { id: "cl-ch3br", reactants: [["chlorine atom", "[Cl]"], ["bromomethane", "CBr"]], products: [["chloromethane", "CCl"], ["bromine atom", "[Br]"]], cls: "substitution", order: 2, A: 1.2e-11, n: 0, EoverR: 2600 },
-  { id: "cyclopropane", reactants: [["cyclopropane", "C1CC1"]], products: [["propene", "C=CC"]], cls: "isomerisation", order: 1, A: 2.8e15, n: 0, EoverR: 32900 },
-  { id: "c2h5-disp", reactants: [["ethyl", "C[CH2]"], ["ethyl", "C[CH2]"]], products: [["ethene", "C=C"], ["ethane", "CC"]], cls: "disproportionation", order: 2, A: 2.4e-12, n: 0, EoverR: 0 },
-  { id: "o1d-ch4", reactants: [["oxygen atom (excited)", "[O]"], ["methane", "C"]], products: [["methanol", "CO"]], cls: "insertion", order: 2, A: 1.3e-10, n: 0, EoverR: 0 },
+  {
+    id: "oh-ch4",
+    reactants: [
+      ["hydroxyl", "[OH]"],
+      ["methane", "C"],
+    ],
+    products: [
+      ["water", "O"],
+      ["methyl", "[CH3]"],
+    ],
+    cls: "h_abstraction",
+    order: 2,
+    A: 2.3e-12,
+    n: 0,
+    EoverR: 1760,
+  },
+  {
+    id: "oh-c2h6",
+    reactants: [
+      ["hydroxyl", "[OH]"],
+      ["ethane", "CC"],
+    ],
+    products: [
+      ["water", "O"],
+      ["ethyl", "C[CH2]"],
+    ],
+    cls: "h_abstraction",
+    order: 2,
+    A: 7.9e-12,
+    n: 0,
+    EoverR: 1000,
+  },
+  {
+    id: "cl-ch4",
+    reactants: [
+      ["chlorine atom", "[Cl]"],
+      ["methane", "C"],
+    ],
+    products: [
+      ["hydrogen chloride", "Cl"],
+      ["methyl", "[CH3]"],
+    ],
+    cls: "h_abstraction",
+    order: 2,
+    A: 7.0e-12,
+    n: 0,
+    EoverR: 1280,
+  },
+  {
+    id: "oh-c2h4",
+    reactants: [
+      ["hydroxyl", "[OH]"],
+      ["ethene", "C=C"],
+    ],
+    products: [["2-hydroxyethyl", "OC[CH2]"]],
+    cls: "addition",
+    order: 2,
+    A: 1.9e-12,
+    n: 0,
+    EoverR: -420,
+  },
+  {
+    id: "ch3-ch3",
+    reactants: [
+      ["methyl", "[CH3]"],
+      ["methyl", "[CH3]"],
+    ],
+    products: [["ethane", "CC"]],
+    cls: "recombination",
+    order: 2,
+    A: 6.0e-11,
+    n: -0.4,
+    EoverR: 0,
+  },
+  {
+    id: "c2h5cl",
+    reactants: [["chloroethane", "CCCl"]],
+    products: [
+      ["ethene", "C=C"],
+      ["hydrogen chloride", "Cl"],
+    ],
+    cls: "elimination",
+    order: 1,
+    A: 3.0e13,
+    n: 0,
+    EoverR: 28500,
+  },
+  {
+    id: "c2h6-fission",
+    reactants: [["ethane", "CC"]],
+    products: [
+      ["methyl", "[CH3]"],
+      ["methyl", "[CH3]"],
+    ],
+    cls: "bond_fission",
+    order: 1,
+    A: 2.0e16,
+    n: 0,
+    EoverR: 44000,
+  },
+  {
+    id: "no-o3",
+    reactants: [
+      ["nitric oxide", "[N]=O"],
+      ["ozone", "[O-][O+]=O"],
+    ],
+    products: [
+      ["nitrogen dioxide", "[O]N=O"],
+      ["oxygen", "O=O"],
+    ],
+    cls: "other",
+    order: 2,
+    A: 2.8e-12,
+    n: 0,
+    EoverR: 1450,
+  },
+  {
+    id: "cl-ch3br",
+    reactants: [
+      ["chlorine atom", "[Cl]"],
+      ["bromomethane", "CBr"],
+    ],
+    products: [
+      ["chloromethane", "CCl"],
+      ["bromine atom", "[Br]"],
+    ],
+    cls: "substitution",
+    order: 2,
+    A: 1.2e-11,
+    n: 0,
+    EoverR: 2600,
+  },
+  {
+    id: "cyclopropane",
+    reactants: [["cyclopropane", "C1CC1"]],
+    products: [["propene", "C=CC"]],
+    cls: "isomerisation",
+    order: 1,
+    A: 2.8e15,
+    n: 0,
+    EoverR: 32900,
+  },
+  {
+    id: "c2h5-disp",
+    reactants: [
+      ["ethyl", "C[CH2]"],
+      ["ethyl", "C[CH2]"],
+    ],
+    products: [
+      ["ethene", "C=C"],
+      ["ethane", "CC"],
+    ],
+    cls: "disproportionation",
+    order: 2,
+    A: 2.4e-12,
+    n: 0,
+    EoverR: 0,
+  },
+  {
+    id: "o1d-ch4",
+    reactants: [
+      ["oxygen atom (excited)", "[O]"],
+      ["methane", "C"],
+    ],
+    products: [["methanol", "CO"]],
+    cls: "insertion",
+    order: 2,
+    A: 1.3e-10,
+    n: 0,
+    EoverR: 0,
+  },
 ];
 
 /** Deterministic pseudo-random numbers (mulberry32) so every demo database is the same. */
@@ -67,26 +226,82 @@ const P = ["submit", "review", "accept"] as const;
 const specs: DatasetSpec[] = [
   { reaction: "oh-ch4", owner: "tanaka", Tmin: 220, Tmax: 420, n: 10, scatter: 0.05, path: [...P] },
   { reaction: "oh-ch4", owner: "varga", Tmin: 250, Tmax: 400, n: 8, scatter: 0.06, path: [...P], special: "outlier" },
-  { reaction: "oh-ch4", owner: "lindqvist", Tmin: 200, Tmax: 2000, n: 16, scatter: 0.02, path: [...P], special: "curved", technique: "transition-state theory with tunnelling correction" },
+  {
+    reaction: "oh-ch4",
+    owner: "lindqvist",
+    Tmin: 200,
+    Tmax: 2000,
+    n: 16,
+    scatter: 0.02,
+    path: [...P],
+    special: "curved",
+    technique: "transition-state theory with tunnelling correction",
+  },
   { reaction: "oh-ch4", owner: "varga", Tmin: 260, Tmax: 380, n: 7, scatter: 0.05, path: ["submit"], special: "unit_mistake" },
   { reaction: "oh-c2h6", owner: "tanaka", Tmin: 230, Tmax: 400, n: 9, scatter: 0.05, path: [...P] },
-  { reaction: "oh-c2h6", owner: "adeyemi", Tmin: 250, Tmax: 1500, n: 12, scatter: 0.03, path: [...P], special: "curved", technique: "variational transition-state theory" },
+  {
+    reaction: "oh-c2h6",
+    owner: "adeyemi",
+    Tmin: 250,
+    Tmax: 1500,
+    n: 12,
+    scatter: 0.03,
+    path: [...P],
+    special: "curved",
+    technique: "variational transition-state theory",
+  },
   { reaction: "oh-c2h6", owner: "varga", Tmin: 240, Tmax: 360, n: 6, scatter: 0.07, path: ["submit", "review"] },
   { reaction: "cl-ch4", owner: "tanaka", Tmin: 200, Tmax: 300, n: 8, scatter: 0.04, path: [...P] },
   { reaction: "cl-ch4", owner: "varga", Tmin: 220, Tmax: 320, n: 7, scatter: 0.05, path: [...P], special: "reported_disagrees" },
-  { reaction: "cl-ch4", owner: "lindqvist", Tmin: 200, Tmax: 1000, n: 10, scatter: 0.02, path: ["submit", "review", "changes"], technique: "canonical variational theory" },
+  {
+    reaction: "cl-ch4",
+    owner: "lindqvist",
+    Tmin: 200,
+    Tmax: 1000,
+    n: 10,
+    scatter: 0.02,
+    path: ["submit", "review", "changes"],
+    technique: "canonical variational theory",
+  },
   { reaction: "oh-c2h4", owner: "tanaka", Tmin: 200, Tmax: 350, n: 8, scatter: 0.05, path: [...P] },
   { reaction: "oh-c2h4", owner: "varga", Tmin: 220, Tmax: 330, n: 6, scatter: 0.06, path: [...P] },
   { reaction: "oh-c2h4", owner: "tanaka", Tmin: 230, Tmax: 300, n: 5, scatter: 0.05, path: [] },
-  { reaction: "ch3-ch3", owner: "adeyemi", Tmin: 300, Tmax: 1500, n: 10, scatter: 0.03, path: [...P], technique: "RRKM/master equation, high-pressure limit" },
+  {
+    reaction: "ch3-ch3",
+    owner: "adeyemi",
+    Tmin: 300,
+    Tmax: 1500,
+    n: 10,
+    scatter: 0.03,
+    path: [...P],
+    technique: "RRKM/master equation, high-pressure limit",
+  },
   { reaction: "ch3-ch3", owner: "varga", Tmin: 300, Tmax: 600, n: 6, scatter: 0.08, path: [...P] },
   { reaction: "ch3-ch3", owner: "tanaka", Tmin: 290, Tmax: 500, n: 6, scatter: 0.08, path: ["submit"] },
   { reaction: "c2h5cl", owner: "varga", Tmin: 650, Tmax: 800, n: 8, scatter: 0.06, path: [...P], technique: "shock tube" },
   { reaction: "c2h5cl", owner: "lindqvist", Tmin: 600, Tmax: 1200, n: 10, scatter: 0.02, path: [...P] },
-  { reaction: "c2h5cl", owner: "varga", Tmin: 660, Tmax: 760, n: 5, scatter: 0.1, path: ["submit", "review", "decline"], technique: "static reactor" },
+  {
+    reaction: "c2h5cl",
+    owner: "varga",
+    Tmin: 660,
+    Tmax: 760,
+    n: 5,
+    scatter: 0.1,
+    path: ["submit", "review", "decline"],
+    technique: "static reactor",
+  },
   { reaction: "c2h6-fission", owner: "adeyemi", Tmin: 1000, Tmax: 2000, n: 11, scatter: 0.03, path: [...P] },
   { reaction: "c2h6-fission", owner: "tanaka", Tmin: 1100, Tmax: 1500, n: 7, scatter: 0.1, path: [...P], technique: "shock tube" },
-  { reaction: "c2h6-fission", owner: "tanaka", Tmin: 1150, Tmax: 1450, n: 6, scatter: 0.1, path: [...P, "retract"], technique: "shock tube" },
+  {
+    reaction: "c2h6-fission",
+    owner: "tanaka",
+    Tmin: 1150,
+    Tmax: 1450,
+    n: 6,
+    scatter: 0.1,
+    path: [...P, "retract"],
+    technique: "shock tube",
+  },
   { reaction: "no-o3", owner: "tanaka", Tmin: 200, Tmax: 320, n: 9, scatter: 0.04, path: [...P] },
   { reaction: "no-o3", owner: "varga", Tmin: 210, Tmax: 300, n: 7, scatter: 0.05, path: [...P] },
   { reaction: "no-o3", owner: "varga", Tmin: 220, Tmax: 310, n: 6, scatter: 0.05, path: ["submit", "review", "changes"] },
@@ -101,7 +316,16 @@ const specs: DatasetSpec[] = [
   { reaction: "o1d-ch4", owner: "tanaka", Tmin: 200, Tmax: 350, n: 7, scatter: 0.06, path: [...P] },
   { reaction: "o1d-ch4", owner: "varga", Tmin: 220, Tmax: 340, n: 6, scatter: 0.07, path: [...P] },
   { reaction: "o1d-ch4", owner: "lindqvist", Tmin: 200, Tmax: 400, n: 6, scatter: 0.02, path: [] },
-  { reaction: "oh-ch4", owner: "adeyemi", Tmin: 250, Tmax: 2500, n: 14, scatter: 0.02, path: [...P, "retract"], technique: "transition-state theory" },
+  {
+    reaction: "oh-ch4",
+    owner: "adeyemi",
+    Tmin: 250,
+    Tmax: 2500,
+    n: 14,
+    scatter: 0.02,
+    path: [...P, "retract"],
+    technique: "transition-state theory",
+  },
   { reaction: "cl-ch4", owner: "varga", Tmin: 210, Tmax: 300, n: 6, scatter: 0.05, path: ["submit", "review", "changes"] },
   { reaction: "oh-c2h6", owner: "lindqvist", Tmin: 250, Tmax: 600, n: 8, scatter: 0.02, path: [] },
   { reaction: "ch3-ch3", owner: "adeyemi", Tmin: 300, Tmax: 2000, n: 9, scatter: 0.02, path: ["submit", "review"] },
@@ -122,7 +346,11 @@ function buildDocument(spec: DatasetSpec, index: number, owner: UserDto) {
     if (spec.special === "outlier" && i === Math.floor(spec.n / 2)) k *= 4;
     if (spec.special === "unit_mistake") k *= 6.02214076e23; // per-mole values labelled per molecule
     const Tr = Math.round(T * 10) / 10;
-    return { T: Tr, k: Number(k.toPrecision(3)), uncertainty: { kind: "relative", value: Math.round(spec.scatter * 200), confidence: "2sigma" } };
+    return {
+      T: Tr,
+      k: Number(k.toPrecision(3)),
+      uncertainty: { kind: "relative", value: Math.round(spec.scatter * 200), confidence: "2sigma" },
+    };
   });
   const kUnit = r.order === 1 ? "s-1" : r.order === 2 ? "cm3 molecule-1 s-1" : "cm6 molecule-2 s-1";
   const theory = theorists.has(spec.owner);
@@ -142,18 +370,35 @@ function buildDocument(spec: DatasetSpec, index: number, owner: UserDto) {
     },
     method: theory
       ? { category: "theory", technique: spec.technique ?? "transition-state theory", notes: "Demo record." }
-      : { category: "experiment", technique: spec.technique ?? "pulsed laser photolysis", detection: "laser-induced fluorescence", notes: "Demo record." },
+      : {
+          category: "experiment",
+          technique: spec.technique ?? "pulsed laser photolysis",
+          detection: "laser-induced fluorescence",
+          notes: "Demo record.",
+        },
     conditions: { pressure: { value: 100 }, bathGas: "He" },
     units: { k: kUnit, T: "K", pressure: "Torr" },
     points,
     source: {
-      reference: { type: "report", title: `Arrhenia demo data set ${index + 1}`, author: [{ literal: owner.name }], issued: { "date-parts": [[2026]] } },
+      reference: {
+        type: "report",
+        title: `Arrhenia demo data set ${index + 1}`,
+        author: [{ literal: owner.name }],
+        issued: { "date-parts": [[2026]] },
+      },
       locator: `Table ${1 + (index % 3)}`,
     },
   };
   if (spec.special === "reported_disagrees") {
     // The authors' own expression, with an activation energy that their data do not support.
-    doc.reportedFit = { model: "arrhenius", A: r.A, Ea: (r.EoverR + 600) * GAS_CONSTANT / 1000, EaUnit: "kJ mol-1", Tmin: spec.Tmin, Tmax: spec.Tmax };
+    doc.reportedFit = {
+      model: "arrhenius",
+      A: r.A,
+      Ea: ((r.EoverR + 600) * GAS_CONSTANT) / 1000,
+      EaUnit: "kJ mol-1",
+      Tmin: spec.Tmin,
+      Tmax: spec.Tmax,
+    };
   }
   return doc;
 }

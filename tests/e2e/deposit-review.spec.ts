@@ -87,7 +87,11 @@ test("a deposit goes from an uploaded CSV through a request for changes to publi
   await test.step("the curator accepts and publishes", async () => {
     await signInAs(page, curator);
     await review.openFromQueue(title);
-    await review.decide("Accept and publish", "Complete and consistent; the note on row 5 answers the question.", /the version is published/);
+    await review.decide(
+      "Accept and publish",
+      "Complete and consistent; the note on row 5 answers the question.",
+      /the version is published/,
+    );
   });
 
   await test.step("the published version shows its identifier", async () => {

@@ -49,16 +49,20 @@ function chunkedPost(url: URL, total: number): Promise<{ status: number; body: s
     let sent = 0;
     let answered = false;
     const chunk = Buffer.alloc(64 * 1024, 0x20);
-    const req = http.request(url, { method: "POST", headers: { "content-type": "application/json", "transfer-encoding": "chunked" } }, (res) => {
-      answered = true;
-      let body = "";
-      res.setEncoding("utf8");
-      res.on("data", (d) => (body += d));
-      res.on("end", () => {
-        req.destroy();
-        resolve({ status: res.statusCode ?? 0, body, sent });
-      });
-    });
+    const req = http.request(
+      url,
+      { method: "POST", headers: { "content-type": "application/json", "transfer-encoding": "chunked" } },
+      (res) => {
+        answered = true;
+        let body = "";
+        res.setEncoding("utf8");
+        res.on("data", (d) => (body += d));
+        res.on("end", () => {
+          req.destroy();
+          resolve({ status: res.statusCode ?? 0, body, sent });
+        });
+      },
+    );
     req.on("error", (err) => (answered ? undefined : reject(err)));
     const write = () => {
       while (!answered && sent < total) {
@@ -71,7 +75,9 @@ function chunkedPost(url: URL, total: number): Promise<{ status: number; body: s
   });
 }
 
-test("a chunked 200 MB analysis request is refused with 413 after a little over 12 MB, without the server's memory growing", async ({ baseURL }) => {
+test("a chunked 200 MB analysis request is refused with 413 after a little over 12 MB, without the server's memory growing", async ({
+  baseURL,
+}) => {
   const url = new URL("/api/v1/analyses", baseURL);
   const pid = listenerPid(Number(url.port));
   const before = pid ? rssBytes(pid) : 0;
@@ -86,7 +92,9 @@ test("a chunked 200 MB analysis request is refused with 413 after a little over 
   expect(res.sent).toBeLessThan(100 * MB);
   if (pid) {
     const grown = rssBytes(pid) - before;
-    console.log(`server pid ${pid}: RSS grew by ${(grown / MB).toFixed(1)} MB; client sent ${(res.sent / MB).toFixed(1)} MB before the answer`);
+    console.log(
+      `server pid ${pid}: RSS grew by ${(grown / MB).toFixed(1)} MB; client sent ${(res.sent / MB).toFixed(1)} MB before the answer`,
+    );
     expect(grown).toBeLessThan(100 * MB);
   }
 });

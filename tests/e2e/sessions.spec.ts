@@ -30,13 +30,22 @@ test("signing out ends the session: a copied cookie no longer opens the settings
 
 test("a server action posted from another origin is a 403", async ({ request }) => {
   const res = await request.post("/settings", {
-    headers: { origin: "https://evil.example", "next-action": "00000000000000000000000000000000000000000000", "content-type": "text/plain;charset=UTF-8" },
+    headers: {
+      origin: "https://evil.example",
+      "next-action": "00000000000000000000000000000000000000000000",
+      "content-type": "text/plain;charset=UTF-8",
+    },
     data: "[]",
   });
   expect(res.status()).toBe(403);
   // Claiming the other origin as the forwarded host does not help a client that is not a trusted proxy.
   const claimed = await request.post("/settings", {
-    headers: { origin: "https://evil.example", "x-forwarded-host": "evil.example", "next-action": "0000", "content-type": "text/plain;charset=UTF-8" },
+    headers: {
+      origin: "https://evil.example",
+      "x-forwarded-host": "evil.example",
+      "next-action": "0000",
+      "content-type": "text/plain;charset=UTF-8",
+    },
     data: "[]",
   });
   expect(claimed.status()).toBe(403);

@@ -33,7 +33,8 @@ const PASSWORD = "correct horse battery";
 
 beforeAll(async () => {
   const passwordHash = await hashPassword(PASSWORD);
-  for (const r of ["researcher", "curator", "admin"] as const) people[r] = await createUser({ email: uniqueEmail(`act-${r}`), name: r, passwordHash, role: r, verified: true });
+  for (const r of ["researcher", "curator", "admin"] as const)
+    people[r] = await createUser({ email: uniqueEmail(`act-${r}`), name: r, passwordHash, role: r, verified: true });
   other = await createUser({ email: uniqueEmail("act-other"), name: "Other", passwordHash, verified: true });
 });
 
@@ -60,7 +61,10 @@ describe("form actions on one's own account, per role", () => {
 
     it(`changePasswordAction: ${who} → ${allowed ? "checks the current password" : "refused"}`, async () => {
       as(who);
-      const out = await changePasswordAction(idleState, form({ current: "not the password", password: "another good password", confirm: "another good password" }));
+      const out = await changePasswordAction(
+        idleState,
+        form({ current: "not the password", password: "another good password", confirm: "another good password" }),
+      );
       expect(out.status).toBe("error");
       expect(out.message).toMatch(allowed ? /correct the marked|current password/i : signInMessage);
       expect(isInternal(out)).toBe(false);
@@ -102,7 +106,11 @@ describe("the deposit editor's actions, per role", () => {
       }
       expect(created.ok).toBe(true);
       if (!created.ok) return;
-      const saved = await saveDraftAction(created.versionId, created.lockVersion, JSON.stringify({ ...EXAMPLE_DEPOSIT, title: "Saved again" }));
+      const saved = await saveDraftAction(
+        created.versionId,
+        created.lockVersion,
+        JSON.stringify({ ...EXAMPLE_DEPOSIT, title: "Saved again" }),
+      );
       expect(saved).toMatchObject({ ok: true, lockVersion: created.lockVersion + 1 });
       expect(await inviteAction(created.versionId, uniqueEmail("co"), "editor")).toMatchObject({ ok: true });
       expect(await transitionAction(created.versionId, "submit")).toMatchObject({ ok: true, state: "submitted" });
@@ -144,10 +152,34 @@ describe("public actions answer every role alike and never fail inside", () => {
     it(`${who}: sign-up, forgotten password, reset and verify with bad input`, async () => {
       as(who);
       const outs: [string, ActionState][] = [
-        ["sign-up, passwords differ", await signUpAction(idleState, form({ name: "N", email: uniqueEmail("su"), password: "long enough password", confirm: "different password" }))],
-        ["sign-up, bad e-mail", await signUpAction(idleState, form({ name: "N", email: "nope", password: "long enough password", confirm: "long enough password" }))],
-        ["reset, unknown link", await resetPasswordAction(idleState, form({ token: "y".repeat(40), password: "long enough password", confirm: "long enough password" }))],
-        ["reset, oversized link", await resetPasswordAction(idleState, form({ token: "y".repeat(5000), password: "long enough password", confirm: "long enough password" }))],
+        [
+          "sign-up, passwords differ",
+          await signUpAction(
+            idleState,
+            form({ name: "N", email: uniqueEmail("su"), password: "long enough password", confirm: "different password" }),
+          ),
+        ],
+        [
+          "sign-up, bad e-mail",
+          await signUpAction(
+            idleState,
+            form({ name: "N", email: "nope", password: "long enough password", confirm: "long enough password" }),
+          ),
+        ],
+        [
+          "reset, unknown link",
+          await resetPasswordAction(
+            idleState,
+            form({ token: "y".repeat(40), password: "long enough password", confirm: "long enough password" }),
+          ),
+        ],
+        [
+          "reset, oversized link",
+          await resetPasswordAction(
+            idleState,
+            form({ token: "y".repeat(5000), password: "long enough password", confirm: "long enough password" }),
+          ),
+        ],
         ["verify, unknown link", await verifyAction(idleState, form({ token: "z".repeat(40) }))],
         ["verify, oversized link", await verifyAction(idleState, form({ token: "z".repeat(5000) }))],
       ];

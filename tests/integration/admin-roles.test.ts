@@ -17,7 +17,12 @@ let admin: UserDto, curator: UserDto, researcher: UserDto, subject: UserDto;
 beforeAll(async () => {
   const passwordHash = await hashPassword("irrelevant-here");
   const mk = (tag: string, role: UserDto["role"]) => createUser({ email: uniqueEmail(tag), name: tag, passwordHash, role, verified: true });
-  [admin, curator, researcher, subject] = await Promise.all([mk("admin", "admin"), mk("curator", "curator"), mk("researcher", "researcher"), mk("subject", "researcher")]);
+  [admin, curator, researcher, subject] = await Promise.all([
+    mk("admin", "admin"),
+    mk("curator", "curator"),
+    mk("researcher", "researcher"),
+    mk("subject", "researcher"),
+  ]);
 });
 
 function signInAs(user: UserDto | null) {
@@ -25,9 +30,16 @@ function signInAs(user: UserDto | null) {
 }
 
 function patch(id: number, body: unknown) {
-  return PATCH(new Request(`http://127.0.0.1/api/v1/users/${id}`, { method: "PATCH", body: JSON.stringify(body), headers: { "content-type": "application/json" } }), {
-    params: Promise.resolve({ id: String(id) }),
-  });
+  return PATCH(
+    new Request(`http://127.0.0.1/api/v1/users/${id}`, {
+      method: "PATCH",
+      body: JSON.stringify(body),
+      headers: { "content-type": "application/json" },
+    }),
+    {
+      params: Promise.resolve({ id: String(id) }),
+    },
+  );
 }
 
 function form(values: Record<string, string>) {
@@ -46,7 +58,13 @@ describe("PATCH /api/v1/users/:id, per role", () => {
   for (const [who, actor, status] of table) {
     it(`${who} → ${status}`, async () => {
       // A researcher of its own per row, so each row sees whether its own request changed the role.
-      const target = await createUser({ email: uniqueEmail(`patch-${who}`), name: "Target", passwordHash: "x", role: "researcher", verified: true });
+      const target = await createUser({
+        email: uniqueEmail(`patch-${who}`),
+        name: "Target",
+        passwordHash: "x",
+        role: "researcher",
+        verified: true,
+      });
       signInAs(actor());
       const res = await patch(target.id, { role: "curator" });
       expect(res.status).toBe(status);
@@ -93,7 +111,8 @@ describe("role change by an admin is audited", () => {
     expect(state.status).toBe("ok");
     const [row] = await sql`select role from users where id = ${subject.id}`;
     expect(row.role).toBe("admin");
-    const events = await sql`select actor_id, details from audit_events where action = 'user.role_changed' and subject_id = ${String(subject.id)} order by id desc limit 1`;
+    const events =
+      await sql`select actor_id, details from audit_events where action = 'user.role_changed' and subject_id = ${String(subject.id)} order by id desc limit 1`;
     expect(events[0].actor_id).toBe(admin.id);
     expect(events[0].details).toMatchObject({ to: "admin" });
   });
@@ -116,7 +135,8 @@ describe("role change by an admin is audited", () => {
     expect(u.deactivated_at).toBeInstanceOf(Date);
     const [t] = await sql`select revoked_at from api_tokens where user_id = ${target.id}`;
     expect(t.revoked_at).toBeInstanceOf(Date);
-    const [e] = await sql`select count(*)::int as n from audit_events where action = 'user.deactivated' and subject_id = ${String(target.id)}`;
+    const [e] =
+      await sql`select count(*)::int as n from audit_events where action = 'user.deactivated' and subject_id = ${String(target.id)}`;
     expect(e.n).toBe(1);
   });
 });

@@ -40,14 +40,59 @@ describe("POST /api/v1/analyses", () => {
   });
 
   const bad: [string, unknown, string | RegExp, string?][] = [
-    ["a non-positive k", { points: [{ T: 300, k: 1e-12 }, { T: 350, k: -1 }], order: 2 }, "/points/1", undefined],
-    ["T below absolute zero in °C", { points: [{ T: 20, k: 1 }, { T: -300, k: 2 }], order: 1, units: { T: "degC" } }, "/points/1/T", undefined],
+    [
+      "a non-positive k",
+      {
+        points: [
+          { T: 300, k: 1e-12 },
+          { T: 350, k: -1 },
+        ],
+        order: 2,
+      },
+      "/points/1",
+      undefined,
+    ],
+    [
+      "T below absolute zero in °C",
+      {
+        points: [
+          { T: 20, k: 1 },
+          { T: -300, k: 2 },
+        ],
+        order: 1,
+        units: { T: "degC" },
+      },
+      "/points/1/T",
+      undefined,
+    ],
     ["an unknown unit", { points, order: 2, units: { k: "furlongs per fortnight" } }, "/units/k", undefined],
     ["a k unit of the wrong order", { points, order: 1, units: { k: "cm3 molecule-1 s-1" } }, "/units/k", undefined],
     ["an order of 4", { points, order: 4 }, "/order", undefined],
-    ["a string where a number belongs", { points: [{ T: "300", k: 1 }, { T: 310, k: 2 }], order: 1 }, "/points/0/T", undefined],
+    [
+      "a string where a number belongs",
+      {
+        points: [
+          { T: "300", k: 1 },
+          { T: 310, k: 2 },
+        ],
+        order: 1,
+      },
+      "/points/0/T",
+      undefined,
+    ],
     ["a single point", { points: [{ T: 300, k: 1 }], order: 1 }, "/points", undefined],
-    ["one temperature only", { points: [{ T: 300, k: 1 }, { T: 300, k: 2 }], order: 1 }, "/points", undefined],
+    [
+      "one temperature only",
+      {
+        points: [
+          { T: 300, k: 1 },
+          { T: 300, k: 2 },
+        ],
+        order: 1,
+      },
+      "/points",
+      undefined,
+    ],
     ["an unexpected field", { points, order: 2, colour: "red" }, "/colour", undefined],
   ];
   for (const [what, body, pointer] of bad) {

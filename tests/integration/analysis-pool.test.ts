@@ -6,7 +6,10 @@ import { AppError } from "@/lib/errors";
 import { closeAnalysisPool, runAnalysisTask } from "@/lib/workers/pool";
 
 const badDocument = () => ({ ...EXAMPLE_DEPOSIT, points: Array.from({ length: 100_000 }, () => ({ T: "x", k: -1 })) });
-const bigValidDocument = () => ({ ...EXAMPLE_DEPOSIT, points: Array.from({ length: 100_000 }, (_, i) => ({ T: 250 + (i % 170), k: 1e-14 * (1 + (i % 7) / 10) })) });
+const bigValidDocument = () => ({
+  ...EXAMPLE_DEPOSIT,
+  points: Array.from({ length: 100_000 }, (_, i) => ({ T: 250 + (i % 170), k: 1e-14 * (1 + (i % 7) / 10) })),
+});
 const bigValidText = () => JSON.stringify(bigValidDocument());
 
 async function refusal(promise: Promise<unknown>): Promise<AppError> {
@@ -46,7 +49,11 @@ describe("analysis worker pool", () => {
   it("prepares a valid 100 000-point document on the worker: stored points and the analysis", async () => {
     const prepared = await prepareDepositOrThrow(bigValidDocument());
     expect(prepared.points).toHaveLength(100_000);
-    expect(prepared.points[0]).toMatchObject({ T: 250, k: 1e-14, original: { T: 250, k: 1e-14, unitT: EXAMPLE_DEPOSIT.units.T, unitK: EXAMPLE_DEPOSIT.units.k } });
+    expect(prepared.points[0]).toMatchObject({
+      T: 250,
+      k: 1e-14,
+      original: { T: 250, k: 1e-14, unitT: EXAMPLE_DEPOSIT.units.T, unitK: EXAMPLE_DEPOSIT.units.k },
+    });
     expect(prepared.analysis.result).not.toBeNull();
     expect(prepared.document.license).toBe(EXAMPLE_DEPOSIT.license ?? "CC-BY-4.0");
     expect(prepared.reaction.participants.length).toBeGreaterThan(1);
@@ -78,9 +85,22 @@ describe("analysis worker pool", () => {
   }, 60_000);
 
   it("runs the stateless analysis on the worker and returns input errors as data", async () => {
-    const ok = await runAnalysisTask("analyse", { order: 2, points: [{ T: 300, k: 1e-12 }, { T: 400, k: 3e-12 }, { T: 500, k: 6e-12 }] });
+    const ok = await runAnalysisTask("analyse", {
+      order: 2,
+      points: [
+        { T: 300, k: 1e-12 },
+        { T: 400, k: 3e-12 },
+        { T: 500, k: 6e-12 },
+      ],
+    });
     expect(ok.ok).toBe(true);
-    const bad = await runAnalysisTask("analyse", { order: 2, points: [{ T: 300, k: 1e-12 }, { T: 400, k: 0 }] });
+    const bad = await runAnalysisTask("analyse", {
+      order: 2,
+      points: [
+        { T: 300, k: 1e-12 },
+        { T: 400, k: 0 },
+      ],
+    });
     expect(bad).toMatchObject({ ok: false, code: "validation_failed" });
     if (!bad.ok) expect(bad.errors[0].pointer).toMatch(/^\/points\/1/);
   }, 60_000);

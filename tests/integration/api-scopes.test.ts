@@ -36,8 +36,13 @@ const modules: Record<string, Record<string, unknown>> = {
 
 let admin: UserDto, researcher: UserDto, subject: UserDto;
 beforeAll(async () => {
-  const mk = (tag: string, role: UserDto["role"]) => createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
-  [admin, researcher, subject] = await Promise.all([mk("scopeadmin", "admin"), mk("scoperesearcher", "researcher"), mk("scopesubject", "researcher")]);
+  const mk = (tag: string, role: UserDto["role"]) =>
+    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  [admin, researcher, subject] = await Promise.all([
+    mk("scopeadmin", "admin"),
+    mk("scoperesearcher", "researcher"),
+    mk("scopesubject", "researcher"),
+  ]);
 });
 
 async function tokenFor(user: UserDto, scopes: ApiTokenScope[]) {
@@ -65,10 +70,20 @@ describe("every endpoint declares the scope it needs, as the API page says", () 
 
 describe("admin endpoints and token scopes", () => {
   const patch = (secret: string, body: unknown) =>
-    userById.PATCH(new Request(`http://127.0.0.1/api/v1/users/${subject.id}`, { method: "PATCH", body: JSON.stringify(body), headers: { authorization: `Bearer ${secret}` } }), {
-      params: Promise.resolve({ id: String(subject.id) }),
+    userById.PATCH(
+      new Request(`http://127.0.0.1/api/v1/users/${subject.id}`, {
+        method: "PATCH",
+        body: JSON.stringify(body),
+        headers: { authorization: `Bearer ${secret}` },
+      }),
+      {
+        params: Promise.resolve({ id: String(subject.id) }),
+      },
+    );
+  const list = (secret: string) =>
+    users.GET(new Request("http://127.0.0.1/api/v1/users", { headers: { authorization: `Bearer ${secret}` } }), {
+      params: Promise.resolve({}),
     });
-  const list = (secret: string) => users.GET(new Request("http://127.0.0.1/api/v1/users", { headers: { authorization: `Bearer ${secret}` } }), { params: Promise.resolve({}) });
 
   const table: [string, ApiTokenScope[], number][] = [
     ["read", ["read"], 403],
@@ -108,11 +123,44 @@ describe("revoked tokens are refused everywhere", () => {
     await revokeApiToken({ userId: researcher.id, tokenId: token.id });
     const auth = { authorization: `Bearer ${secret}`, "x-forwarded-for": uniqueIp() };
     const calls: [string, Promise<Response>][] = [
-      ["POST analyses", analyses.POST(new Request("http://127.0.0.1/api/v1/analyses", { method: "POST", headers: auth, body: JSON.stringify({ order: 2, points: [{ T: 300, k: 1e-12 }, { T: 350, k: 2e-12 }, { T: 400, k: 3e-12 }] }) }), { params: Promise.resolve({}) })],
-      ["GET species preview", speciesPreview.GET(new Request("http://127.0.0.1/api/v1/species/preview?smiles=C", { headers: auth }), { params: Promise.resolve({}) })],
-      ["GET version", version.GET(new Request("http://127.0.0.1/api/v1/versions/1", { headers: auth }), { params: Promise.resolve({ id: "1" }) })],
-      ["GET file", files.GET(new Request("http://127.0.0.1/api/v1/files/1", { headers: auth }), { params: Promise.resolve({ fileId: "1" }) })],
-      ["POST datasets", datasets.POST(new Request("http://127.0.0.1/api/v1/datasets", { method: "POST", headers: auth, body: "{}" }), { params: Promise.resolve({}) })],
+      [
+        "POST analyses",
+        analyses.POST(
+          new Request("http://127.0.0.1/api/v1/analyses", {
+            method: "POST",
+            headers: auth,
+            body: JSON.stringify({
+              order: 2,
+              points: [
+                { T: 300, k: 1e-12 },
+                { T: 350, k: 2e-12 },
+                { T: 400, k: 3e-12 },
+              ],
+            }),
+          }),
+          { params: Promise.resolve({}) },
+        ),
+      ],
+      [
+        "GET species preview",
+        speciesPreview.GET(new Request("http://127.0.0.1/api/v1/species/preview?smiles=C", { headers: auth }), {
+          params: Promise.resolve({}),
+        }),
+      ],
+      [
+        "GET version",
+        version.GET(new Request("http://127.0.0.1/api/v1/versions/1", { headers: auth }), { params: Promise.resolve({ id: "1" }) }),
+      ],
+      [
+        "GET file",
+        files.GET(new Request("http://127.0.0.1/api/v1/files/1", { headers: auth }), { params: Promise.resolve({ fileId: "1" }) }),
+      ],
+      [
+        "POST datasets",
+        datasets.POST(new Request("http://127.0.0.1/api/v1/datasets", { method: "POST", headers: auth, body: "{}" }), {
+          params: Promise.resolve({}),
+        }),
+      ],
     ];
     for (const [name, call] of calls) {
       const res = await call;
@@ -122,7 +170,10 @@ describe("revoked tokens are refused everywhere", () => {
   });
 
   it("the same public endpoints still answer without a token", async () => {
-    const res = await speciesPreview.GET(new Request("http://127.0.0.1/api/v1/species/preview?smiles=C", { headers: { "x-forwarded-for": uniqueIp() } }), { params: Promise.resolve({}) });
+    const res = await speciesPreview.GET(
+      new Request("http://127.0.0.1/api/v1/species/preview?smiles=C", { headers: { "x-forwarded-for": uniqueIp() } }),
+      { params: Promise.resolve({}) },
+    );
     expect(res.status).toBe(200);
   });
 });

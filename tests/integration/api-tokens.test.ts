@@ -38,7 +38,8 @@ describe("personal API tokens", () => {
   it("route handlers accept a bearer token and refuse an unknown one with 401", async () => {
     const admin = await createUser({ email: uniqueEmail("apiadmin"), name: "Api Admin", passwordHash: "x", role: "admin", verified: true });
     const { secret } = await createApiToken({ userId: admin.id, name: "ops", scopes: ["admin"] });
-    const call = (auth: string) => listUsersRoute(new Request("http://127.0.0.1/api/v1/users", { headers: { authorization: auth } }), { params: Promise.resolve({}) });
+    const call = (auth: string) =>
+      listUsersRoute(new Request("http://127.0.0.1/api/v1/users", { headers: { authorization: auth } }), { params: Promise.resolve({}) });
     expect((await call(`Bearer ${secret}`)).status).toBe(200);
     const bad = await call("Bearer arr_pat_not-a-real-token");
     expect(bad.status).toBe(401);

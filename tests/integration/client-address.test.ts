@@ -32,7 +32,11 @@ beforeAll(async () => {
       );
       res.end(answer);
     } else if (req.url === "/api/v1/analyses") {
-      const web = new Request("http://127.0.0.1/api/v1/analyses", { method: "POST", headers: new Headers(headers), body: await readBody(req) });
+      const web = new Request("http://127.0.0.1/api/v1/analyses", {
+        method: "POST",
+        headers: new Headers(headers),
+        body: await readBody(req),
+      });
       const answer = await analyse(web, { params: Promise.resolve({}) });
       res.writeHead(answer.status).end();
     } else {
@@ -49,13 +53,28 @@ afterAll(async () => {
 });
 
 async function edge(trustProxy: string) {
-  const e = await startEdgeProxy({ host: "127.0.0.1", port: 0, upstreamPort: appPort, trust: compileTrustProxy(trustProxy), key: process.env.ARRHENIA_EDGE_KEY! });
+  const e = await startEdgeProxy({
+    host: "127.0.0.1",
+    port: 0,
+    upstreamPort: appPort,
+    trust: compileTrustProxy(trustProxy),
+    key: process.env.ARRHENIA_EDGE_KEY!,
+  });
   edges.push(e);
   return e.port;
 }
 
 /** One request from the loopback address `from` (127.x.y.z: every one is this machine). */
-function send(port: number, from: string, { method = "GET", path = "/echo", headers = {}, body }: { method?: string; path?: string; headers?: Record<string, string>; body?: string }) {
+function send(
+  port: number,
+  from: string,
+  {
+    method = "GET",
+    path = "/echo",
+    headers = {},
+    body,
+  }: { method?: string; path?: string; headers?: Record<string, string>; body?: string },
+) {
   return new Promise<{ status: number; text: string }>((resolve, reject) => {
     const req = http.request({ host: "127.0.0.1", port, method, path, headers, localAddress: from }, (res) => {
       let text = "";
@@ -80,7 +99,14 @@ describe("client address behind the front server", () => {
   it("without TRUST_PROXY the socket address counts, whatever the forwarding headers say", async () => {
     const port = await edge("");
     const from = loopback();
-    const res = await send(port, from, { headers: { "x-forwarded-for": spoof(), "x-real-ip": "203.0.113.7", "x-arrhenia-client-address": "203.0.113.8", "x-forwarded-host": "evil.example" } });
+    const res = await send(port, from, {
+      headers: {
+        "x-forwarded-for": spoof(),
+        "x-real-ip": "203.0.113.7",
+        "x-arrhenia-client-address": "203.0.113.8",
+        "x-forwarded-host": "evil.example",
+      },
+    });
     expect(JSON.parse(res.text)).toEqual({ address: from, forwardedHost: null });
   });
 
@@ -90,7 +116,16 @@ describe("client address behind the front server", () => {
     const answers: string[] = [];
     for (let i = 0; i < 31; i++) {
       const body = JSON.stringify({ email: uniqueEmail("spoof"), password: "a-guessed-password" });
-      answers.push((await send(port, from, { method: "POST", path: "/sign-in", headers: { "x-forwarded-for": spoof(), "content-type": "application/json" }, body })).text);
+      answers.push(
+        (
+          await send(port, from, {
+            method: "POST",
+            path: "/sign-in",
+            headers: { "x-forwarded-for": spoof(), "content-type": "application/json" },
+            body,
+          })
+        ).text,
+      );
     }
     expect(answers.slice(0, 30).every((a) => /not right/.test(a))).toBe(true);
     expect(answers[30]).toMatch(/Too many sign-in attempts from this network/);
@@ -102,7 +137,16 @@ describe("client address behind the front server", () => {
     const body = JSON.stringify({ points: [250, 300, 350].map((T) => ({ T, k: 1e-12 * Math.exp(-1000 / T) })), order: 2 });
     const statuses: number[] = [];
     for (let i = 0; i < 121; i++) {
-      statuses.push((await send(port, from, { method: "POST", path: "/api/v1/analyses", headers: { "x-forwarded-for": spoof(), "content-type": "application/json" }, body })).status);
+      statuses.push(
+        (
+          await send(port, from, {
+            method: "POST",
+            path: "/api/v1/analyses",
+            headers: { "x-forwarded-for": spoof(), "content-type": "application/json" },
+            body,
+          })
+        ).status,
+      );
     }
     expect(statuses.slice(0, 120).every((s) => s === 200)).toBe(true);
     expect(statuses[120]).toBe(429);
@@ -110,7 +154,9 @@ describe("client address behind the front server", () => {
 
   it("with TRUST_PROXY=1 the proxy's X-Forwarded-For and X-Forwarded-Host are believed", async () => {
     const port = await edge("1");
-    const res = await send(port, loopback(), { headers: { "x-forwarded-for": "203.0.113.50, 192.0.2.10", "x-forwarded-host": "arrhenia.example" } });
+    const res = await send(port, loopback(), {
+      headers: { "x-forwarded-for": "203.0.113.50, 192.0.2.10", "x-forwarded-host": "arrhenia.example" },
+    });
     expect(JSON.parse(res.text)).toEqual({ address: "192.0.2.10", forwardedHost: "arrhenia.example" });
   });
 
@@ -124,12 +170,27 @@ describe("client address behind the front server", () => {
   it("a cross-origin server action is a 403, also when X-Forwarded-Host claims the other origin", async () => {
     const port = await edge("");
     const action = { "next-action": "0123456789abcdef", "content-type": "text/plain;charset=UTF-8" };
-    const crossSite = await send(port, loopback(), { method: "POST", path: "/settings", headers: { ...action, host: `127.0.0.1:${port}`, origin: "https://evil.example" }, body: "[]" });
+    const crossSite = await send(port, loopback(), {
+      method: "POST",
+      path: "/settings",
+      headers: { ...action, host: `127.0.0.1:${port}`, origin: "https://evil.example" },
+      body: "[]",
+    });
     expect(crossSite.status).toBe(403);
     expect(JSON.parse(crossSite.text)).toMatchObject({ status: 403, code: "forbidden" });
-    const claimed = await send(port, loopback(), { method: "POST", path: "/settings", headers: { ...action, host: `127.0.0.1:${port}`, origin: "https://evil.example", "x-forwarded-host": "evil.example" }, body: "[]" });
+    const claimed = await send(port, loopback(), {
+      method: "POST",
+      path: "/settings",
+      headers: { ...action, host: `127.0.0.1:${port}`, origin: "https://evil.example", "x-forwarded-host": "evil.example" },
+      body: "[]",
+    });
     expect(claimed.status).toBe(403);
-    const sameSite = await send(port, loopback(), { method: "POST", path: "/settings", headers: { ...action, host: `127.0.0.1:${port}`, origin: `http://127.0.0.1:${port}` }, body: "[]" });
+    const sameSite = await send(port, loopback(), {
+      method: "POST",
+      path: "/settings",
+      headers: { ...action, host: `127.0.0.1:${port}`, origin: `http://127.0.0.1:${port}` },
+      body: "[]",
+    });
     expect(sameSite).toEqual({ status: 200, text: "reached the app" });
   });
 });

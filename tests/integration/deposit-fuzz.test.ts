@@ -6,7 +6,10 @@ import { beforeAll, describe, expect, it, vi } from "vitest";
 
 vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
 // The per-address limit is tested elsewhere; here every case must reach the handler's body.
-vi.mock("@/lib/auth/rate-limit", async (importOriginal) => ({ ...(await importOriginal<object>()), consumeOrThrow: vi.fn(async () => undefined) }));
+vi.mock("@/lib/auth/rate-limit", async (importOriginal) => ({
+  ...(await importOriginal<object>()),
+  consumeOrThrow: vi.fn(async () => undefined),
+}));
 
 import { POST as postAnalysis } from "@/app/api/v1/analyses/route";
 import { POST as createDataset } from "@/app/api/v1/datasets/route";
@@ -30,7 +33,8 @@ type Path = (string | number)[];
 /** Every path to a value inside a JSON value (the root excluded). */
 function pathsOf(value: Json, at: Path = []): Path[] {
   if (Array.isArray(value)) return value.flatMap((v, i) => [[...at, i], ...pathsOf(v, [...at, i])]);
-  if (value !== null && typeof value === "object") return Object.entries(value).flatMap(([k, v]) => [[...at, k], ...pathsOf(v, [...at, k])]);
+  if (value !== null && typeof value === "object")
+    return Object.entries(value).flatMap(([k, v]) => [[...at, k], ...pathsOf(v, [...at, k])]);
   return [];
 }
 
@@ -47,11 +51,35 @@ const badText = fc.oneof(
   fc.constantFrom("\u0000", "\ud83d", "\ude00\ud83d", "a\u0000b\ud800c"),
 );
 const oddNumber = fc.oneof(
-  fc.constantFrom(5e-324, -5e-324, 1e-320, 1e-310, 1e-300, 1e-45, 1e38, 3.5e38, 1e300, 1e308, -1e308, 0, -0, -1, 2 ** 31, -(2 ** 31) - 1, 2 ** 53 + 2, 0.1 + 0.2, 1.5, 0.5),
+  fc.constantFrom(
+    5e-324,
+    -5e-324,
+    1e-320,
+    1e-310,
+    1e-300,
+    1e-45,
+    1e38,
+    3.5e38,
+    1e300,
+    1e308,
+    -1e308,
+    0,
+    -0,
+    -1,
+    2 ** 31,
+    -(2 ** 31) - 1,
+    2 ** 53 + 2,
+    0.1 + 0.2,
+    1.5,
+    0.5,
+  ),
   fc.double({ noNaN: true, noDefaultInfinity: true }),
   fc.integer(),
 );
-const wrongType = fc.oneof(fc.constantFrom<Json>(null, true, false, [], {}, "", " ", "NaN", "Infinity", "-Infinity", "1e999", "0x10"), fc.jsonValue({ maxDepth: 2 }) as fc.Arbitrary<Json>);
+const wrongType = fc.oneof(
+  fc.constantFrom<Json>(null, true, false, [], {}, "", " ", "NaN", "Infinity", "-Infinity", "1e999", "0x10"),
+  fc.jsonValue({ maxDepth: 2 }) as fc.Arbitrary<Json>,
+);
 // Huge values travel as small descriptions, expanded when applied, so that a counterexample prints.
 type Big = { $long: number } | { $deep: number; $object: boolean };
 const longString = fc.constantFrom(10_000, 100_000, 1_000_000).map((n): Big => ({ $long: n }));
@@ -70,17 +98,68 @@ function toText(doc: Json): string {
     return kind === "o" ? '{"a":'.repeat(n) + "1" + "}".repeat(n) : "[".repeat(n) + "1" + "]".repeat(n);
   });
 }
-const unitString = fc.constantFrom(" ", "", "\t", "K ", " K", "°C", "degC", "kelvin", "cm3", "cm3 molecule-1", "m3 molecule-1 s-1", "L mol-1 s-1", "cm^3/molecule/s", "s-1", "cm6 molecule-2 s-1", "kJ", "Torr\u0000", "x".repeat(200), "⁻¹");
-const speciesString = fc.constantFrom("", " ", "C1CC", "[OH", "X", "[Xx]", "C".repeat(3000), "[Na+].[Cl-]", "[H]", "[2H]", "c1ccccc1", "InChI=1S/", "InChI=1S/H2O/h1H2", "InChI=1S/garbage", "O=O", "[O-][O+]=O", "*");
+const unitString = fc.constantFrom(
+  " ",
+  "",
+  "\t",
+  "K ",
+  " K",
+  "°C",
+  "degC",
+  "kelvin",
+  "cm3",
+  "cm3 molecule-1",
+  "m3 molecule-1 s-1",
+  "L mol-1 s-1",
+  "cm^3/molecule/s",
+  "s-1",
+  "cm6 molecule-2 s-1",
+  "kJ",
+  "Torr\u0000",
+  "x".repeat(200),
+  "⁻¹",
+);
+const speciesString = fc.constantFrom(
+  "",
+  " ",
+  "C1CC",
+  "[OH",
+  "X",
+  "[Xx]",
+  "C".repeat(3000),
+  "[Na+].[Cl-]",
+  "[H]",
+  "[2H]",
+  "c1ccccc1",
+  "InChI=1S/",
+  "InChI=1S/H2O/h1H2",
+  "InChI=1S/garbage",
+  "O=O",
+  "[O-][O+]=O",
+  "*",
+);
 const anyValue: fc.Arbitrary<Json | Big> = fc.oneof(badText, oddNumber, wrongType, longString, deep);
 
-type Mutation = { kind: "set"; path: Path; value: Json | Big } | { kind: "delete"; path: Path } | { kind: "add"; path: Path; key: string; value: Json | Big };
+type Mutation =
+  | { kind: "set"; path: Path; value: Json | Big }
+  | { kind: "delete"; path: Path }
+  | { kind: "add"; path: Path; key: string; value: Json | Big };
 
 const pathArb = fc.constantFrom(...PATHS);
 const mutation: fc.Arbitrary<Mutation> = fc.oneof(
   { weight: 4, arbitrary: fc.record({ kind: fc.constant("set" as const), path: pathArb, value: anyValue }) },
-  { weight: 2, arbitrary: fc.record({ kind: fc.constant("set" as const), path: fc.constantFrom(...UNIT_PATHS), value: fc.oneof(unitString, badText) }) },
-  { weight: 2, arbitrary: fc.record({ kind: fc.constant("set" as const), path: fc.constantFrom(...SPECIES_PATHS), value: fc.oneof(speciesString, oddNumber, badText) }) },
+  {
+    weight: 2,
+    arbitrary: fc.record({ kind: fc.constant("set" as const), path: fc.constantFrom(...UNIT_PATHS), value: fc.oneof(unitString, badText) }),
+  },
+  {
+    weight: 2,
+    arbitrary: fc.record({
+      kind: fc.constant("set" as const),
+      path: fc.constantFrom(...SPECIES_PATHS),
+      value: fc.oneof(speciesString, oddNumber, badText),
+    }),
+  },
   { weight: 1, arbitrary: fc.record({ kind: fc.constant("delete" as const), path: pathArb }) },
   {
     weight: 1,
@@ -127,35 +206,61 @@ function expectPointers(problem: Problem) {
 }
 
 describe("fuzz: POST /api/v1/datasets", () => {
-  it(`never answers 5xx, points at every problem and stores nothing from a refused document (${RUNS} cases)`, { timeout: 120_000 }, async () => {
-    const seen = new Map<number, number>();
-    await fc.assert(
-      fc.asyncProperty(fc.array(mutation, { minLength: 1, maxLength: 3 }), async (mutations) => {
-        const doc = mutations.reduce(apply, structuredClone(EXAMPLE));
-        const before = await counts();
-        const res = await createDataset(new Request("http://127.0.0.1/api/v1/datasets", { method: "POST", body: toText(doc) }), { params: Promise.resolve({}) });
-        seen.set(res.status, (seen.get(res.status) ?? 0) + 1);
-        expect(res.status).toBeLessThan(500);
-        expect([201, 413, 422]).toContain(res.status);
-        if (res.status === 201) return;
-        if (res.status === 422) expectPointers(await res.json());
-        expect(await counts()).toEqual(before);
-      }),
-      { numRuns: RUNS, seed: SEED, endOnFailure: true },
-    );
-    // The generator must reach both outcomes, or it tests nothing.
-    expect(seen.get(422)).toBeGreaterThan(RUNS / 4);
-    expect(seen.get(201) ?? 0).toBeGreaterThan(0);
-  });
+  it(
+    `never answers 5xx, points at every problem and stores nothing from a refused document (${RUNS} cases)`,
+    { timeout: 120_000 },
+    async () => {
+      const seen = new Map<number, number>();
+      await fc.assert(
+        fc.asyncProperty(fc.array(mutation, { minLength: 1, maxLength: 3 }), async (mutations) => {
+          const doc = mutations.reduce(apply, structuredClone(EXAMPLE));
+          const before = await counts();
+          const res = await createDataset(new Request("http://127.0.0.1/api/v1/datasets", { method: "POST", body: toText(doc) }), {
+            params: Promise.resolve({}),
+          });
+          seen.set(res.status, (seen.get(res.status) ?? 0) + 1);
+          expect(res.status).toBeLessThan(500);
+          expect([201, 413, 422]).toContain(res.status);
+          if (res.status === 201) return;
+          if (res.status === 422) expectPointers(await res.json());
+          expect(await counts()).toEqual(before);
+        }),
+        { numRuns: RUNS, seed: SEED, endOnFailure: true },
+      );
+      // The generator must reach both outcomes, or it tests nothing.
+      expect(seen.get(422)).toBeGreaterThan(RUNS / 4);
+      expect(seen.get(201) ?? 0).toBeGreaterThan(0);
+    },
+  );
 });
 
 describe("fuzz: POST /api/v1/analyses", () => {
-  const valid: Json = { order: 2, units: { k: "cm3 molecule-1 s-1", T: "K" }, T0: 298, points: [250, 300, 350, 400].map((T, i) => ({ T, k: 1e-12 * Math.exp(-1500 / T), sigmaLnK: 0.05 + i / 100 })) };
+  const valid: Json = {
+    order: 2,
+    units: { k: "cm3 molecule-1 s-1", T: "K" },
+    T0: 298,
+    points: [250, 300, 350, 400].map((T, i) => ({ T, k: 1e-12 * Math.exp(-1500 / T), sigmaLnK: 0.05 + i / 100 })),
+  };
   const analysisPaths = pathsOf(valid);
   const analysisMutation: fc.Arbitrary<Mutation> = fc.oneof(
-    { weight: 4, arbitrary: fc.record({ kind: fc.constant("set" as const), path: fc.constantFrom(...analysisPaths), value: fc.oneof(anyValue, unitString) }) },
+    {
+      weight: 4,
+      arbitrary: fc.record({
+        kind: fc.constant("set" as const),
+        path: fc.constantFrom(...analysisPaths),
+        value: fc.oneof(anyValue, unitString),
+      }),
+    },
     { weight: 1, arbitrary: fc.record({ kind: fc.constant("delete" as const), path: fc.constantFrom(...analysisPaths) }) },
-    { weight: 1, arbitrary: fc.record({ kind: fc.constant("add" as const), path: fc.constantFrom<Path>([], ["units"], ["points", 0]), key: fc.oneof(fc.string({ maxLength: 8 }), badText), value: anyValue }) },
+    {
+      weight: 1,
+      arbitrary: fc.record({
+        kind: fc.constant("add" as const),
+        path: fc.constantFrom<Path>([], ["units"], ["points", 0]),
+        key: fc.oneof(fc.string({ maxLength: 8 }), badText),
+        value: anyValue,
+      }),
+    },
   );
   const runs = Math.max(20, Math.round(RUNS / 3));
 
@@ -164,7 +269,9 @@ describe("fuzz: POST /api/v1/analyses", () => {
     await fc.assert(
       fc.asyncProperty(fc.array(analysisMutation, { minLength: 1, maxLength: 3 }), async (mutations) => {
         const body = mutations.reduce(apply, structuredClone(valid));
-        const res = await postAnalysis(new Request("http://127.0.0.1/api/v1/analyses", { method: "POST", body: toText(body) }), { params: Promise.resolve({}) });
+        const res = await postAnalysis(new Request("http://127.0.0.1/api/v1/analyses", { method: "POST", body: toText(body) }), {
+          params: Promise.resolve({}),
+        });
         expect(res.status).toBeLessThan(500);
         expect([200, 413, 422]).toContain(res.status);
         if (res.status === 200) ok++;

@@ -14,8 +14,16 @@ import { sql, uniqueEmail } from "./helpers";
 let owner: UserDto, editor: UserDto, viewer: UserDto, stranger: UserDto, curator: UserDto, admin: UserDto;
 
 beforeAll(async () => {
-  const mk = (tag: string, role: UserDto["role"] = "researcher") => createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
-  [owner, editor, viewer, stranger, curator, admin] = await Promise.all([mk("owner"), mk("editor"), mk("viewer"), mk("stranger"), mk("curator", "curator"), mk("admin", "admin")]);
+  const mk = (tag: string, role: UserDto["role"] = "researcher") =>
+    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  [owner, editor, viewer, stranger, curator, admin] = await Promise.all([
+    mk("owner"),
+    mk("editor"),
+    mk("viewer"),
+    mk("stranger"),
+    mk("curator", "curator"),
+    mk("admin", "admin"),
+  ]);
 });
 
 const as = (u: UserDto | null) => vi.mocked(getCurrentUser).mockResolvedValue(u);
@@ -37,7 +45,8 @@ async function withMembers() {
   return { versionId: versionId as number, datasetId: datasetId as number };
 }
 
-const transition = (id: number, body: unknown) => postTransition(req(`/api/v1/versions/${id}/transitions`, { method: "POST", body: JSON.stringify(body) }), ctx(id));
+const transition = (id: number, body: unknown) =>
+  postTransition(req(`/api/v1/versions/${id}/transitions`, { method: "POST", body: JSON.stringify(body) }), ctx(id));
 
 describe("POST /api/v1/datasets", () => {
   it("stores a valid document as a draft with species, reaction, points and the analysis", async () => {
@@ -46,10 +55,12 @@ describe("POST /api/v1/datasets", () => {
     expect(json.data).toMatchObject({ number: 1, state: "draft", lockVersion: 1 });
     const [v] = await sql`select point_count, t_min, t_max, worst_flag from dataset_versions where id = ${json.data.versionId}`;
     expect(v.point_count).toBe(EXAMPLE_DEPOSIT.points.length);
-    const [r] = await sql`select r.equation from dataset_versions v join reactions r on r.id = v.reaction_id where v.id = ${json.data.versionId}`;
+    const [r] =
+      await sql`select r.equation from dataset_versions v join reactions r on r.id = v.reaction_id where v.id = ${json.data.versionId}`;
     // One row per reaction: its wording comes from whichever deposit named it first.
     expect(r.equation).toMatch(/^hydroxyl( radical)? \+ methane → water \+ methyl( radical)?$/);
-    const [a] = await sql`select checks, result->'arrhenius'->'params'->>'Ea' as ea from version_analyses where version_id = ${json.data.versionId}`;
+    const [a] =
+      await sql`select checks, result->'arrhenius'->'params'->>'Ea' as ea from version_analyses where version_id = ${json.data.versionId}`;
     expect(a.checks.map((c: { code: string }) => c.code)).toContain("balanced");
     expect(Number(a.ea) / 8.31446261815324).toBeGreaterThan(1500); // the example follows E/R ≈ 1750 K
   });
@@ -58,18 +69,54 @@ describe("POST /api/v1/datasets", () => {
     as(null);
     expect((await createDataset(req("/api/v1/datasets", { method: "POST", body: doc() }), ctx())).status).toBe(401);
     const { secret } = await createApiToken({ userId: owner.id, name: "read only", scopes: ["read"] });
-    const res = await createDataset(req("/api/v1/datasets", { method: "POST", body: doc(), headers: { authorization: `Bearer ${secret}` } }), ctx());
+    const res = await createDataset(
+      req("/api/v1/datasets", { method: "POST", body: doc(), headers: { authorization: `Bearer ${secret}` } }),
+      ctx(),
+    );
     expect(res.status).toBe(403);
   });
 
   const bad: [string, string, string, RegExp][] = [
     ["malformed JSON", '{"title": "x",', "", /not valid JSON/],
     ["a wrong type", doc({ title: 42 }), "/title", /.+/],
-    ["a missing required field", JSON.stringify({ ...EXAMPLE_DEPOSIT, reaction: { ...EXAMPLE_DEPOSIT.reaction, order: undefined } }), "/reaction/order", /.+/],
-    ["T ≤ 0 K", doc({ points: [{ T: 0, k: 1e-12 }, { T: 300, k: 2e-12 }] }), "/points/0/T", /.+/],
-    ["k ≤ 0", doc({ points: [{ T: 250, k: 1e-12 }, { T: 300, k: -2e-12 }] }), "/points/1/k", /.+/],
+    [
+      "a missing required field",
+      JSON.stringify({ ...EXAMPLE_DEPOSIT, reaction: { ...EXAMPLE_DEPOSIT.reaction, order: undefined } }),
+      "/reaction/order",
+      /.+/,
+    ],
+    [
+      "T ≤ 0 K",
+      doc({
+        points: [
+          { T: 0, k: 1e-12 },
+          { T: 300, k: 2e-12 },
+        ],
+      }),
+      "/points/0/T",
+      /.+/,
+    ],
+    [
+      "k ≤ 0",
+      doc({
+        points: [
+          { T: 250, k: 1e-12 },
+          { T: 300, k: -2e-12 },
+        ],
+      }),
+      "/points/1/k",
+      /.+/,
+    ],
     ["an unknown unit", doc({ units: { ...EXAMPLE_DEPOSIT.units, k: "furlongs" } }), "/units/k", /.+/],
-    ["an unparsable SMILES", JSON.stringify({ ...EXAMPLE_DEPOSIT, reaction: { ...EXAMPLE_DEPOSIT.reaction, reactants: [{ smiles: "C1CC" }, EXAMPLE_DEPOSIT.reaction.reactants[1]] } }), "/reaction/reactants/0/smiles", /Could not read the SMILES/],
+    [
+      "an unparsable SMILES",
+      JSON.stringify({
+        ...EXAMPLE_DEPOSIT,
+        reaction: { ...EXAMPLE_DEPOSIT.reaction, reactants: [{ smiles: "C1CC" }, EXAMPLE_DEPOSIT.reaction.reactants[1]] },
+      }),
+      "/reaction/reactants/0/smiles",
+      /Could not read the SMILES/,
+    ],
   ];
   for (const [what, body, pointer, message] of bad) {
     it(`answers 422 with a pointer for ${what}, storing nothing`, async () => {
@@ -86,7 +133,10 @@ describe("POST /api/v1/datasets", () => {
   }
 
   it("flags an unbalanced reaction as an error check (but keeps the draft for fixing)", async () => {
-    const unbalanced = { ...EXAMPLE_DEPOSIT, reaction: { ...EXAMPLE_DEPOSIT.reaction, products: [{ name: "water", smiles: "O", coefficient: 1 }] } };
+    const unbalanced = {
+      ...EXAMPLE_DEPOSIT,
+      reaction: { ...EXAMPLE_DEPOSIT.reaction, products: [{ name: "water", smiles: "O", coefficient: 1 }] },
+    };
     const { res, json } = await deposit(JSON.stringify(unbalanced));
     expect(res.status).toBe(201);
     const [v] = await sql`select worst_flag, flag_codes from dataset_versions where id = ${json.data.versionId}`;
@@ -117,7 +167,10 @@ describe("GET and PUT /api/v1/versions/:id, per role", () => {
     const { versionId } = await withMembers();
     const put = (user: UserDto | null, lock: number, body = doc({ title: `Edited by ${user?.name}` })) => {
       as(user);
-      return putVersion(req(`/api/v1/versions/${versionId}`, { method: "PUT", body, headers: { "if-match": `"${lock}"` } }), ctx(versionId));
+      return putVersion(
+        req(`/api/v1/versions/${versionId}`, { method: "PUT", body, headers: { "if-match": `"${lock}"` } }),
+        ctx(versionId),
+      );
     };
     expect((await put(null, 1)).status).toBe(401);
     expect((await put(viewer, 1)).status).toBe(403);
@@ -128,7 +181,20 @@ describe("GET and PUT /api/v1/versions/:id, per role", () => {
     expect(ok.headers.get("etag")).toBe('"2"');
     expect((await put(owner, 1)).status).toBe(409);
     // A failed upload leaves the draft as it was.
-    expect((await put(owner, 2, doc({ points: [{ T: -5, k: 1 }, { T: 300, k: 1 }] }))).status).toBe(422);
+    expect(
+      (
+        await put(
+          owner,
+          2,
+          doc({
+            points: [
+              { T: -5, k: 1 },
+              { T: 300, k: 1 },
+            ],
+          }),
+        )
+      ).status,
+    ).toBe(422);
     const [row] = await sql`select title, lock_version from dataset_versions where id = ${versionId}`;
     expect(row).toEqual({ title: "Edited by editor", lock_version: 2 });
   });
@@ -167,7 +233,8 @@ describe("POST /api/v1/versions/:id/transitions, per role", () => {
     await transition(versionId, { transition: "submit" });
     as(curator);
     await transition(versionId, { transition: "decline", reason: "Duplicate of an existing dataset." });
-    const jobs = await sql`select data->>'to' as to, data->>'subject' as subject from pgboss.job where name = 'mail' and data->>'subject' like ${"%OH + CH4 rate constants%"} order by created_on desc limit 50`;
+    const jobs =
+      await sql`select data->>'to' as to, data->>'subject' as subject from pgboss.job where name = 'mail' and data->>'subject' like ${"%OH + CH4 rate constants%"} order by created_on desc limit 50`;
     const tos = jobs.map((j) => j.to);
     expect(tos).toContain(curator.email);
     for (const m of [owner, editor, viewer]) expect(tos).toContain(m.email);

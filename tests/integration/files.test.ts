@@ -18,14 +18,21 @@ import { uniqueEmail } from "./helpers";
 
 let owner: UserDto, viewer: UserDto, stranger: UserDto, curator: UserDto;
 beforeAll(async () => {
-  const mk = (tag: string, role: UserDto["role"] = "researcher") => createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  const mk = (tag: string, role: UserDto["role"] = "researcher") =>
+    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
   [owner, viewer, stranger, curator] = await Promise.all([mk("owner"), mk("viewer"), mk("stranger"), mk("curator", "curator")]);
 });
 
 const as = (u: UserDto | null) => vi.mocked(getCurrentUser).mockResolvedValue(u);
 
 async function draft() {
-  const v = await createDatasetDraft({ ownerId: owner.id, title: "Files test", payload: {}, points: [], analysis: { engineVersion: "t", result: null, checks: [] } });
+  const v = await createDatasetDraft({
+    ownerId: owner.id,
+    title: "Files test",
+    payload: {},
+    points: [],
+    analysis: { engineVersion: "t", result: null, checks: [] },
+  });
   await addDatasetMember({ datasetId: v.datasetId, userId: viewer.id, role: "viewer", actorId: owner.id });
   return v;
 }
@@ -33,7 +40,9 @@ async function draft() {
 function upload(versionId: number, name: string, content: Uint8Array | string) {
   const form = new FormData();
   form.set("file", new File([typeof content === "string" ? content : new Blob([content.slice().buffer])], name));
-  return postFile(new Request(`http://127.0.0.1/api/v1/versions/${versionId}/files`, { method: "POST", body: form }), { params: Promise.resolve({ id: String(versionId) }) });
+  return postFile(new Request(`http://127.0.0.1/api/v1/versions/${versionId}/files`, { method: "POST", body: form }), {
+    params: Promise.resolve({ id: String(versionId) }),
+  });
 }
 
 describe("supplementary files", () => {
@@ -46,9 +55,16 @@ describe("supplementary files", () => {
     const { data } = await res.json();
     expect(data.sha256).toBe(createHash("sha256").update(text).digest("hex"));
     expect(data).toMatchObject({ filename: "raw data.csv", contentType: "text/csv", sizeBytes: text.length });
-    for (const [who, status] of [[viewer, 200], [curator, 200], [stranger, 404], [null, 404]] as const) {
+    for (const [who, status] of [
+      [viewer, 200],
+      [curator, 200],
+      [stranger, 404],
+      [null, 404],
+    ] as const) {
       as(who);
-      const got = await getFile(new Request(`http://127.0.0.1/api/v1/files/${data.id}`), { params: Promise.resolve({ fileId: String(data.id) }) });
+      const got = await getFile(new Request(`http://127.0.0.1/api/v1/files/${data.id}`), {
+        params: Promise.resolve({ fileId: String(data.id) }),
+      });
       expect(got.status).toBe(status);
       if (status === 200) expect(await got.text()).toBe(text);
     }
@@ -84,7 +100,9 @@ describe("supplementary files", () => {
     await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
     await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Fine." });
     expect((await upload(v.id, "b.csv", "3")).status).toBe(409);
-    const del = await deleteFile(new Request(`http://127.0.0.1/api/v1/files/${data.id}`, { method: "DELETE" }), { params: Promise.resolve({ fileId: String(data.id) }) });
+    const del = await deleteFile(new Request(`http://127.0.0.1/api/v1/files/${data.id}`, { method: "DELETE" }), {
+      params: Promise.resolve({ fileId: String(data.id) }),
+    });
     expect(del.status).toBe(409); // and the database trigger would refuse it too
     as(null);
     expect((await getFile(new Request("http://127.0.0.1/"), { params: Promise.resolve({ fileId: String(data.id) }) })).status).toBe(200);

@@ -54,5 +54,14 @@ export function linkToken(text: string, path: string): string {
 }
 
 export function asDto(u: Partial<UserDto> & { id: number; role: UserDto["role"] }): UserDto {
-  return { email: "x@y.invalid", name: "Test", affiliation: null, orcid: null, emailVerifiedAt: new Date(), deactivatedAt: null, createdAt: new Date(), ...u };
+  return {
+    email: "x@y.invalid",
+    name: "Test",
+    affiliation: null,
+    orcid: null,
+    emailVerifiedAt: new Date(),
+    deactivatedAt: null,
+    createdAt: new Date(),
+    ...u,
+  };
 }

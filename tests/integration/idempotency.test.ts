@@ -20,7 +20,8 @@ import { sql, uniqueEmail } from "./helpers";
 
 let owner: UserDto, other: UserDto, curator: UserDto;
 beforeAll(async () => {
-  const mk = (tag: string, role: UserDto["role"] = "researcher") => createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  const mk = (tag: string, role: UserDto["role"] = "researcher") =>
+    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
   [owner, other, curator] = await Promise.all([mk("idem-owner"), mk("idem-other"), mk("idem-curator", "curator")]);
 });
 
@@ -29,7 +30,8 @@ const ctx = (id?: number) => ({ params: Promise.resolve({ id: String(id ?? 0) })
 let n = 0;
 const newKey = () => `test-${Date.now()}-${++n}`;
 const doc = (title: string) => JSON.stringify({ ...EXAMPLE_DEPOSIT, title });
-const titled = async (title: string) => Number((await sql`select count(*) from dataset_versions where payload->>'title' = ${title}`)[0].count);
+const titled = async (title: string) =>
+  Number((await sql`select count(*) from dataset_versions where payload->>'title' = ${title}`)[0].count);
 
 function deposit(body: string, key?: string) {
   const headers: Record<string, string> = { "content-type": "application/json" };
@@ -93,7 +95,12 @@ describe("Idempotency-Key on POST /api/v1/datasets", () => {
     const { createHash } = await import("node:crypto");
     const endpoint = "POST /api/v1/datasets";
     // The state a running first request leaves: claimed, no response yet.
-    await claimIdempotencyKey({ userId: owner.id, key, endpoint, requestHash: createHash("sha256").update(endpoint).update("\n").update(new TextEncoder().encode(body)).digest("hex") });
+    await claimIdempotencyKey({
+      userId: owner.id,
+      key,
+      endpoint,
+      requestHash: createHash("sha256").update(endpoint).update("\n").update(new TextEncoder().encode(body)).digest("hex"),
+    });
     const res = await deposit(body, key);
     expect(res.status).toBe(409);
     expect((await res.json()).title).toMatch(/still being processed/);
@@ -121,7 +128,13 @@ describe("Idempotency-Key on POST /api/v1/datasets", () => {
 
 describe("Idempotency-Key on next versions, files and transitions", () => {
   async function draft() {
-    return createDatasetDraft({ ownerId: owner.id, title: "Idempotency", payload: {}, points: [], analysis: { engineVersion: "t", result: null, checks: [] } });
+    return createDatasetDraft({
+      ownerId: owner.id,
+      title: "Idempotency",
+      payload: {},
+      points: [],
+      analysis: { engineVersion: "t", result: null, checks: [] },
+    });
   }
 
   it("POST versions/:id/files: the retry (new multipart boundary, same file) returns the same file and stores one", async () => {
@@ -131,7 +144,10 @@ describe("Idempotency-Key on next versions, files and transitions", () => {
     const upload = () => {
       const form = new FormData();
       form.set("file", new File(["T,k\n300,1e-12\n"], "raw.csv"));
-      return postFile(new Request(`http://127.0.0.1/api/v1/versions/${v.id}/files`, { method: "POST", body: form, headers: { "idempotency-key": key } }), ctx(v.id));
+      return postFile(
+        new Request(`http://127.0.0.1/api/v1/versions/${v.id}/files`, { method: "POST", body: form, headers: { "idempotency-key": key } }),
+        ctx(v.id),
+      );
     };
     const first = await (await upload()).json();
     const retry = await upload();
@@ -145,7 +161,14 @@ describe("Idempotency-Key on next versions, files and transitions", () => {
     as(owner);
     const key = newKey();
     const submit = (k?: string) =>
-      postTransition(new Request(`http://127.0.0.1/api/v1/versions/${v.id}/transitions`, { method: "POST", body: JSON.stringify({ transition: "submit" }), headers: k ? { "idempotency-key": k } : {} }), ctx(v.id));
+      postTransition(
+        new Request(`http://127.0.0.1/api/v1/versions/${v.id}/transitions`, {
+          method: "POST",
+          body: JSON.stringify({ transition: "submit" }),
+          headers: k ? { "idempotency-key": k } : {},
+        }),
+        ctx(v.id),
+      );
     const first = await submit(key);
     expect(first.status).toBe(200);
     const retry = await submit(key);
@@ -153,7 +176,11 @@ describe("Idempotency-Key on next versions, files and transitions", () => {
     expect(await retry.json()).toEqual(await first.json());
     // Without the key the same call is judged afresh: the version is no longer a draft.
     expect((await submit()).status).toBe(409);
-    expect((await sql`select count(*) from audit_events where action = 'dataset.submit' and subject_type = 'dataset_version' and subject_id = ${v.id}`)[0].count).toBe("1");
+    expect(
+      (
+        await sql`select count(*) from audit_events where action = 'dataset.submit' and subject_type = 'dataset_version' and subject_id = ${v.id}`
+      )[0].count,
+    ).toBe("1");
   });
 
   it("POST versions/:id/next: the retry returns the same new version", async () => {
@@ -162,7 +189,11 @@ describe("Idempotency-Key on next versions, files and transitions", () => {
     await applyTransition({ actorId: curator.id, versionId: v.id, transition: "accept", reason: "Fine." });
     as(owner);
     const key = newKey();
-    const next = () => postNext(new Request(`http://127.0.0.1/api/v1/versions/${v.id}/next`, { method: "POST", headers: { "idempotency-key": key } }), ctx(v.id));
+    const next = () =>
+      postNext(
+        new Request(`http://127.0.0.1/api/v1/versions/${v.id}/next`, { method: "POST", headers: { "idempotency-key": key } }),
+        ctx(v.id),
+      );
     const first = await next();
     expect(first.status).toBe(201);
     const retry = await next();

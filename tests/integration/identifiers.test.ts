@@ -50,7 +50,8 @@ async function publishDataset() {
 }
 
 async function registration(identifier: string) {
-  const [row] = await sql`select registered, attempts, last_error, registered_at from identifier_registrations where identifier = ${identifier}`;
+  const [row] =
+    await sql`select registered, attempts, last_error, registered_at from identifier_registrations where identifier = ${identifier}`;
   return row;
 }
 
@@ -91,7 +92,12 @@ describe("identifier registration", () => {
       url: `${process.env.APP_URL}/datasets/${datasetId}/v1`,
       publisher: "Arrhenia",
       version: "1",
-      creators: [{ name: "Okafor, Maren", nameIdentifiers: [{ nameIdentifier: "https://orcid.org/0000-0002-1825-0097", nameIdentifierScheme: "ORCID" }] }],
+      creators: [
+        {
+          name: "Okafor, Maren",
+          nameIdentifiers: [{ nameIdentifier: "https://orcid.org/0000-0002-1825-0097", nameIdentifierScheme: "ORCID" }],
+        },
+      ],
       relatedIdentifiers: [
         { relatedIdentifier: ids.series, relatedIdentifierType: "DOI", relationType: "IsVersionOf" },
         { relatedIdentifier: "10.5555/example.123", relatedIdentifierType: "DOI", relationType: "IsSupplementTo" },
@@ -100,7 +106,9 @@ describe("identifier registration", () => {
     const series = records.find((r) => r.doi === ids.series)!;
     expect(series.attributes).toMatchObject({
       url: `${process.env.APP_URL}/datasets/${datasetId}`,
-      relatedIdentifiers: expect.arrayContaining([{ relatedIdentifier: ids.version, relatedIdentifierType: "DOI", relationType: "HasVersion" }]),
+      relatedIdentifiers: expect.arrayContaining([
+        { relatedIdentifier: ids.version, relatedIdentifierType: "DOI", relationType: "HasVersion" },
+      ]),
     });
   });
 
@@ -108,7 +116,9 @@ describe("identifier registration", () => {
     const { datasetId, ids } = await publishDataset();
     // The fake stores the first PUT and then answers 500, as if the answer were lost.
     fake.failNext(1, { when: "after" });
-    await expect(registerPendingIdentifiers({ datasetId })).rejects.toThrow(new RegExp(`1 identifier registration\\(s\\) failed — ${ids.version.replace(/\./g, "\\.")}`));
+    await expect(registerPendingIdentifiers({ datasetId })).rejects.toThrow(
+      new RegExp(`1 identifier registration\\(s\\) failed — ${ids.version.replace(/\./g, "\\.")}`),
+    );
     expect(await registration(ids.version)).toMatchObject({ registered: false, attempts: 1 });
     expect(await registration(ids.series)).toMatchObject({ registered: true, attempts: 1 });
     const created = fake.records().find((r) => r.doi === ids.version)!.created;
@@ -144,17 +154,27 @@ describe("identifier registration", () => {
       const jobIds = [await enqueueIdentifierRegistration(ids.version), await enqueueIdentifierRegistration(ids.series)];
       expect(jobIds.every(Boolean)).toBe(true);
       await expect
-        .poll(async () => [(await registration(ids.version)).registered, (await registration(ids.series)).registered], { timeout: 25_000, interval: 250 })
+        .poll(async () => [(await registration(ids.version)).registered, (await registration(ids.series)).registered], {
+          timeout: 25_000,
+          interval: 250,
+        })
         .toEqual([true, true]);
-      const [{ attempts }] = await sql`select sum(attempts)::int as attempts from identifier_registrations where identifier in (${ids.version}, ${ids.series})`;
+      const [{ attempts }] =
+        await sql`select sum(attempts)::int as attempts from identifier_registrations where identifier in (${ids.version}, ${ids.series})`;
       expect(attempts).toBe(3);
-      await expect.poll(async () => (await sql`select state from pgboss.job where id in ${sql(jobIds as string[])}`).map((j) => j.state), { timeout: 10_000 }).toEqual(["completed", "completed"]);
+      await expect
+        .poll(async () => (await sql`select state from pgboss.job where id in ${sql(jobIds as string[])}`).map((j) => j.state), {
+          timeout: 10_000,
+        })
+        .toEqual(["completed", "completed"]);
       const [{ retries }] = await sql`select sum(retry_count)::int as retries from pgboss.job where id in ${sql(jobIds as string[])}`;
       expect(retries).toBe(1);
 
       // Queuing a registered identifier again completes without sending anything.
       const again = await enqueueIdentifierRegistration(ids.version);
-      await expect.poll(async () => (await sql`select state from pgboss.job where id = ${again!}`)[0]?.state, { timeout: 10_000 }).toBe("completed");
+      await expect
+        .poll(async () => (await sql`select state from pgboss.job where id = ${again!}`)[0]?.state, { timeout: 10_000 })
+        .toBe("completed");
       expect(acceptedPuts(ids.version)).toBe(1);
       expect(acceptedPuts(ids.series)).toBe(1);
     } finally {

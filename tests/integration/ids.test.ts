@@ -28,7 +28,25 @@ import { createUser, type UserDto } from "@/lib/users/queries";
 import { uniqueEmail } from "./helpers";
 
 /** Ids that must never reach the database: each is a 404 (or "No such …"), never a 500. */
-const badIds = ["0", "-1", "1.5", "abc", "2147483648", "99999999999", "1e3", "%00", "\u0000", "01", "+1", " 1", "0x10", "Infinity", "NaN", "", "9".repeat(5000)];
+const badIds = [
+  "0",
+  "-1",
+  "1.5",
+  "abc",
+  "2147483648",
+  "99999999999",
+  "1e3",
+  "%00",
+  "\u0000",
+  "01",
+  "+1",
+  " 1",
+  "0x10",
+  "Infinity",
+  "NaN",
+  "",
+  "9".repeat(5000),
+];
 /** Well-formed ids of rows that do not exist: also 404. */
 const missingIds = [String(MAX_ID), "2147483646"];
 
@@ -50,8 +68,20 @@ describe("parseIdOrNull", () => {
 type Handler = (req: Request, ctx: { params: Promise<any> }) => Promise<Response>;
 const apiCases: [string, string, Handler, string, () => RequestInit][] = [
   ["GET", "/api/v1/versions/[id]", versionRoute.GET as Handler, "id", () => ({})],
-  ["PUT", "/api/v1/versions/[id]", versionRoute.PUT as Handler, "id", () => ({ method: "PUT", body: JSON.stringify(EXAMPLE_DEPOSIT), headers: { "if-match": '"1"' } })],
-  ["POST", "/api/v1/versions/[id]/transitions", transitionsRoute.POST as Handler, "id", () => ({ method: "POST", body: JSON.stringify({ transition: "submit" }) })],
+  [
+    "PUT",
+    "/api/v1/versions/[id]",
+    versionRoute.PUT as Handler,
+    "id",
+    () => ({ method: "PUT", body: JSON.stringify(EXAMPLE_DEPOSIT), headers: { "if-match": '"1"' } }),
+  ],
+  [
+    "POST",
+    "/api/v1/versions/[id]/transitions",
+    transitionsRoute.POST as Handler,
+    "id",
+    () => ({ method: "POST", body: JSON.stringify({ transition: "submit" }) }),
+  ],
   ["POST", "/api/v1/versions/[id]/next", nextRoute.POST as Handler, "id", () => ({ method: "POST" })],
   ["GET", "/api/v1/versions/[id]/files", versionFilesRoute.GET as Handler, "id", () => ({})],
   [
@@ -67,7 +97,13 @@ const apiCases: [string, string, Handler, string, () => RequestInit][] = [
   ],
   ["GET", "/api/v1/files/[fileId]", filesRoute.GET as Handler, "fileId", () => ({})],
   ["DELETE", "/api/v1/files/[fileId]", filesRoute.DELETE as Handler, "fileId", () => ({ method: "DELETE" })],
-  ["PATCH", "/api/v1/users/[id]", usersRoute.PATCH as Handler, "id", () => ({ method: "PATCH", body: JSON.stringify({ role: "curator" }) })],
+  [
+    "PATCH",
+    "/api/v1/users/[id]",
+    usersRoute.PATCH as Handler,
+    "id",
+    () => ({ method: "PATCH", body: JSON.stringify({ role: "curator" }) }),
+  ],
 ];
 
 type Page = (props: { params: Promise<Record<string, string>> }) => Promise<unknown>;
@@ -120,7 +156,9 @@ describe("ids in paths: anything but 1 … 2³¹−1 is a 404", () => {
       vi.mocked(getCurrentUser).mockResolvedValue(admin);
       const wrong: string[] = [];
       for (const id of [...badIds, ...missingIds]) {
-        const res = await handler(new Request(`http://127.0.0.1${route.replace(`[${param}]`, encodeURIComponent(id) || "x")}`, init()), { params: Promise.resolve({ [param]: id }) });
+        const res = await handler(new Request(`http://127.0.0.1${route.replace(`[${param}]`, encodeURIComponent(id) || "x")}`, init()), {
+          params: Promise.resolve({ [param]: id }),
+        });
         if (res.status !== 404) wrong.push(`${JSON.stringify(id.slice(0, 20))} → ${res.status}`);
         else expect(res.headers.get("content-type")).toBe("application/problem+json");
       }
@@ -160,8 +198,14 @@ describe("ids in server actions: parsed by the same rule", () => {
   it("form actions say the record does not exist", async () => {
     vi.mocked(getCurrentUser).mockResolvedValue(admin);
     for (const id of ["0", "1.5", "abc", "2147483648", "99999999999", "1e3"]) {
-      expect(await changeRoleAction(idleState, form({ userId: id, role: "curator" })), id).toMatchObject({ status: "error", message: "No such person" });
-      expect(await setActiveAction(idleState, form({ userId: id, active: "false" })), id).toMatchObject({ status: "error", message: "No such person" });
+      expect(await changeRoleAction(idleState, form({ userId: id, role: "curator" })), id).toMatchObject({
+        status: "error",
+        message: "No such person",
+      });
+      expect(await setActiveAction(idleState, form({ userId: id, active: "false" })), id).toMatchObject({
+        status: "error",
+        message: "No such person",
+      });
       expect(await revokeTokenAction(idleState, form({ tokenId: id })), id).toMatchObject({ status: "error", message: "No such token" });
     }
   });

@@ -17,7 +17,8 @@ async function draft() {
 }
 
 async function invitationSecret(email: string) {
-  const [job] = await sql`select data->>'text' as text from pgboss.job where name = 'mail' and data->>'to' = ${email} order by created_on desc limit 1`;
+  const [job] =
+    await sql`select data->>'text' as text from pgboss.job where name = 'mail' and data->>'to' = ${email} order by created_on desc limit 1`;
   return linkToken(job.text, "/invitations/accept");
 }
 
@@ -26,7 +27,8 @@ describe("co-editor invitations", () => {
     const v = await draft();
     await inviteCoEditor({ actor: owner, versionId: v.id, email: invitee.email.toUpperCase(), role: "editor" });
     const secret = await invitationSecret(invitee.email);
-    const [row] = await sql`select token_hash, round(extract(epoch from expires_at - created_at) / 3600) as ttl_hours from dataset_invitations where dataset_id = ${v.datasetId}`;
+    const [row] =
+      await sql`select token_hash, round(extract(epoch from expires_at - created_at) / 3600) as ttl_hours from dataset_invitations where dataset_id = ${v.datasetId}`;
     expect(row.token_hash).not.toContain(secret);
     expect(Number(row.ttl_hours)).toBe(168);
     await expect(acceptInvitation({ actor: other, secret })).rejects.toMatchObject({ status: 403 });
@@ -40,8 +42,12 @@ describe("co-editor invitations", () => {
     const v = await draft();
     await inviteCoEditor({ actor: owner, versionId: v.id, email: invitee.email, role: "editor" });
     await acceptInvitation({ actor: invitee, secret: await invitationSecret(invitee.email) });
-    await expect(inviteCoEditor({ actor: invitee, versionId: v.id, email: other.email, role: "viewer" })).rejects.toMatchObject({ status: 403 });
-    await expect(inviteCoEditor({ actor: other, versionId: v.id, email: other.email, role: "viewer" })).rejects.toMatchObject({ status: 404 });
+    await expect(inviteCoEditor({ actor: invitee, versionId: v.id, email: other.email, role: "viewer" })).rejects.toMatchObject({
+      status: 403,
+    });
+    await expect(inviteCoEditor({ actor: other, versionId: v.id, email: other.email, role: "viewer" })).rejects.toMatchObject({
+      status: 404,
+    });
   });
 
   it("an expired link does not work", async () => {

@@ -17,7 +17,11 @@ describe("failed jobs are visible to admins and can be retried", () => {
     const id = await boss.send("refit", { versionId: -1 }, { retryLimit: 0 });
     await sql`update pgboss.job set state = 'failed', output = '{"message": "stored document no longer validates"}'::jsonb where id = ${id!}`;
     const troubled = await listTroubledJobs();
-    expect(troubled.find((j) => j.id === id)).toMatchObject({ name: "refit", state: "failed", error: "stored document no longer validates" });
+    expect(troubled.find((j) => j.id === id)).toMatchObject({
+      name: "refit",
+      state: "failed",
+      error: "stored document no longer validates",
+    });
     expect((await getQueueCounts()).find((c) => c.name === "refit")!.failed).toBeGreaterThanOrEqual(1);
 
     const form = new FormData();

@@ -13,12 +13,26 @@ const analysis: AnalysisSummary = { engineVersion: "test", result: { flags: [] }
 let owner: UserDto, editor: UserDto, stranger: UserDto, curator: UserDto, coCurator: UserDto, admin: UserDto;
 
 beforeAll(async () => {
-  const mk = (tag: string, role: UserDto["role"] = "researcher") => createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
-  [owner, editor, stranger, curator, coCurator, admin] = await Promise.all([mk("owner"), mk("editor"), mk("stranger"), mk("curator", "curator"), mk("cocurator", "curator"), mk("admin", "admin")]);
+  const mk = (tag: string, role: UserDto["role"] = "researcher") =>
+    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  [owner, editor, stranger, curator, coCurator, admin] = await Promise.all([
+    mk("owner"),
+    mk("editor"),
+    mk("stranger"),
+    mk("curator", "curator"),
+    mk("cocurator", "curator"),
+    mk("admin", "admin"),
+  ]);
 });
 
 async function newDraft() {
-  const v = await createDatasetDraft({ ownerId: owner.id, title: "OH + CH4 test", payload: { title: "OH + CH4 test", points: [1, 2] }, points, analysis });
+  const v = await createDatasetDraft({
+    ownerId: owner.id,
+    title: "OH + CH4 test",
+    payload: { title: "OH + CH4 test", points: [1, 2] },
+    points,
+    analysis,
+  });
   await addDatasetMember({ datasetId: v.datasetId, userId: editor.id, role: "editor", actorId: owner.id });
   await addDatasetMember({ datasetId: v.datasetId, userId: coCurator.id, role: "editor", actorId: owner.id });
   return v;
@@ -36,7 +50,8 @@ async function status(p: Promise<unknown>): Promise<number | "ok"> {
 describe("lifecycle in the database, per role", () => {
   it("only the owner submits", async () => {
     const v = await newDraft();
-    for (const who of [editor, curator, admin]) expect(await status(applyTransition({ versionId: v.id, actorId: who.id, transition: "submit" }))).toBe(403);
+    for (const who of [editor, curator, admin])
+      expect(await status(applyTransition({ versionId: v.id, actorId: who.id, transition: "submit" }))).toBe(403);
     // Someone who may not see the draft is not told it exists.
     expect(await status(applyTransition({ versionId: v.id, actorId: stranger.id, transition: "submit" }))).toBe(404);
     expect(await status(applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" }))).toBe("ok");
@@ -52,13 +67,27 @@ describe("lifecycle in the database, per role", () => {
     expect(await status(applyTransition({ versionId: v.id, actorId: stranger.id, transition: "start_review" }))).toBe(404);
     await applyTransition({ versionId: v.id, actorId: curator.id, transition: "start_review" });
     expect(await status(applyTransition({ versionId: v.id, actorId: curator.id, transition: "request_changes", reason: "" }))).toBe(422);
-    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "request_changes", reason: "Give the bath gas of each point." });
+    await applyTransition({
+      versionId: v.id,
+      actorId: curator.id,
+      transition: "request_changes",
+      reason: "Give the bath gas of each point.",
+    });
     await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
     await applyTransition({ versionId: v.id, actorId: admin.id, transition: "start_review" });
     const out = await applyTransition({ versionId: v.id, actorId: admin.id, transition: "accept", reason: "Complete and consistent." });
     expect(out.to).toBe("published");
-    const events = await sql`select action from audit_events where subject_type = 'dataset_version' and subject_id = ${String(v.id)} order by id`;
-    expect(events.map((e) => e.action)).toEqual(["dataset.created", "dataset.submit", "dataset.start_review", "dataset.request_changes", "dataset.submit", "dataset.start_review", "dataset.accept"]);
+    const events =
+      await sql`select action from audit_events where subject_type = 'dataset_version' and subject_id = ${String(v.id)} order by id`;
+    expect(events.map((e) => e.action)).toEqual([
+      "dataset.created",
+      "dataset.submit",
+      "dataset.start_review",
+      "dataset.request_changes",
+      "dataset.submit",
+      "dataset.start_review",
+      "dataset.accept",
+    ]);
     const ds = await sql`select decision, reason from decisions where version_id = ${v.id} order by id`;
     expect(ds.map((d) => d.decision)).toEqual(["request_changes", "accept"]);
   });
@@ -78,16 +107,27 @@ describe("lifecycle in the database, per role", () => {
     await expect(sql`update dataset_versions set title = 'changed' where id = ${v.id}`).rejects.toThrow(/published and cannot be changed/);
     await expect(sql`update dataset_versions set payload = '{}' where id = ${v.id}`).rejects.toThrow(/published/);
     await expect(sql`delete from dataset_versions where id = ${v.id}`).rejects.toThrow(/cannot be deleted/);
-    await expect(sql`update version_points set rate_constant = 1 where version_id = ${v.id}`).rejects.toThrow(/version_points cannot be changed/);
+    await expect(sql`update version_points set rate_constant = 1 where version_id = ${v.id}`).rejects.toThrow(
+      /version_points cannot be changed/,
+    );
     await expect(sql`delete from version_points where version_id = ${v.id}`).rejects.toThrow(/published/);
-    await expect(sql`insert into version_points (version_id, idx, temperature_k, rate_constant, original) values (${v.id}, 99, 300, 1, '{}')`).rejects.toThrow(/published/);
-    await expect(saveDraft({ versionId: v.id, actorId: owner.id, expectedLockVersion: 1, title: "x", payload: {}, points, analysis })).rejects.toThrow(/can no longer be edited/);
+    await expect(
+      sql`insert into version_points (version_id, idx, temperature_k, rate_constant, original) values (${v.id}, 99, 300, 1, '{}')`,
+    ).rejects.toThrow(/published/);
+    await expect(
+      saveDraft({ versionId: v.id, actorId: owner.id, expectedLockVersion: 1, title: "x", payload: {}, points, analysis }),
+    ).rejects.toThrow(/can no longer be edited/);
     const [after] = await sql`select title, payload_sha256 from dataset_versions where id = ${v.id}`;
     expect(after).toEqual({ title: "OH + CH4 test", payload_sha256: row.payload_sha256 });
 
     // Retraction is the one change allowed, with a public notice; after it nothing changes.
     expect(await status(applyTransition({ versionId: v.id, actorId: owner.id, transition: "retract", reason: "mine" }))).toBe(403);
-    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "retract", reason: "Detector calibration error found by the authors." });
+    await applyTransition({
+      versionId: v.id,
+      actorId: curator.id,
+      transition: "retract",
+      reason: "Detector calibration error found by the authors.",
+    });
     const [retracted] = await sql`select state, retraction_notice from dataset_versions where id = ${v.id}`;
     expect(retracted.state).toBe("retracted");
     await expect(sql`update dataset_versions set retraction_notice = 'edited' where id = ${v.id}`).rejects.toThrow(/published/);
@@ -95,9 +135,27 @@ describe("lifecycle in the database, per role", () => {
 
   it("a stale save gets a conflict and never overwrites a co-editor", async () => {
     const v = await newDraft();
-    const first = await saveDraft({ versionId: v.id, actorId: editor.id, expectedLockVersion: 1, title: "Editor's title", payload: { title: "Editor's title" }, points, analysis });
+    const first = await saveDraft({
+      versionId: v.id,
+      actorId: editor.id,
+      expectedLockVersion: 1,
+      title: "Editor's title",
+      payload: { title: "Editor's title" },
+      points,
+      analysis,
+    });
     expect(first.lockVersion).toBe(2);
-    await expect(saveDraft({ versionId: v.id, actorId: owner.id, expectedLockVersion: 1, title: "Owner's stale title", payload: {}, points: points.slice(0, 1), analysis })).rejects.toMatchObject({
+    await expect(
+      saveDraft({
+        versionId: v.id,
+        actorId: owner.id,
+        expectedLockVersion: 1,
+        title: "Owner's stale title",
+        payload: {},
+        points: points.slice(0, 1),
+        analysis,
+      }),
+    ).rejects.toMatchObject({
       status: 409,
       message: expect.stringMatching(/Someone saved this draft after you opened it/),
     });
@@ -119,7 +177,8 @@ describe("a new version", () => {
     await expect(startNextVersion({ actor: stranger, versionId: v1.id })).rejects.toMatchObject({ status: 403 });
     const v2 = await startNextVersion({ actor: owner, versionId: v1.id });
     expect(v2).toMatchObject({ number: 2, state: "draft", datasetId: v1.datasetId, title: "OH + CH4 test" });
-    const [copy] = await sql`select (select payload from dataset_versions where id = ${v1.id}) = payload as same_payload, point_count from dataset_versions where id = ${v2.id}`;
+    const [copy] =
+      await sql`select (select payload from dataset_versions where id = ${v1.id}) = payload as same_payload, point_count from dataset_versions where id = ${v2.id}`;
     expect(copy).toEqual({ same_payload: true, point_count: 2 });
     await expect(startNextVersion({ actor: owner, versionId: v1.id })).rejects.toMatchObject({ status: 409 });
     await applyTransition({ versionId: v2.id, actorId: owner.id, transition: "submit" });

@@ -57,7 +57,8 @@ async function startFlakyRelay({ temporary, permanent }: { temporary: Map<string
 }
 
 const mail = (to: string, subject: string) => ({ to, subject, text: "body", html: "<p>body</p>" });
-const jobState = async (id: string) => (await sql<{ state: string; retry_count: number }[]>`select state::text as state, retry_count from pgboss.job where id = ${id}`)[0];
+const jobState = async (id: string) =>
+  (await sql<{ state: string; retry_count: number }[]>`select state::text as state, retry_count from pgboss.job where id = ${id}`)[0];
 
 describe("mail delivery, one job per mail", () => {
   const temporary = new Map<string, number>();
@@ -79,7 +80,9 @@ describe("mail delivery, one job per mail", () => {
     const ids: (string | null)[] = [];
     for (const [i, address] of to.entries()) ids.push(await enqueueMail(mail(address, `Batch ${i}`)));
     workers = await startWorkers();
-    await expect.poll(async () => (await Promise.all(ids.map((id) => jobState(id!)))).map((j) => j.state), { timeout: 30_000, interval: 250 }).toEqual(Array(5).fill("completed"));
+    await expect
+      .poll(async () => (await Promise.all(ids.map((id) => jobState(id!)))).map((j) => j.state), { timeout: 30_000, interval: 250 })
+      .toEqual(Array(5).fill("completed"));
     expect(to.map((a) => relay.delivered.get(a) ?? 0)).toEqual([1, 1, 1, 1, 1]);
     expect(relay.attempts.get(to[2])).toBe(3);
     expect((await jobState(ids[2]!)).retry_count).toBe(2);
@@ -115,7 +118,8 @@ describe("jobs are queued in the transaction of the change that causes them", ()
       points: [{ T: 300, k: 1e-12, original: { T: 300, k: 1e-12 } }],
       analysis: { engineVersion: "test", result: { flags: [] }, checks: [] },
     });
-  const mailJobsTo = async (to: string) => (await sql<{ n: number }[]>`select count(*)::int as n from pgboss.job where name = 'mail' and data->>'to' = ${to}`)[0].n;
+  const mailJobsTo = async (to: string) =>
+    (await sql<{ n: number }[]>`select count(*)::int as n from pgboss.job where name = 'mail' and data->>'to' = ${to}`)[0].n;
 
   it("a transition whose transaction rolls back queues nothing; one that commits queues its mail", async () => {
     const v = await draft();

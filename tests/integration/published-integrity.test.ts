@@ -33,7 +33,8 @@ const ETHANE_DEPOSIT = {
 let owner: UserDto, curator: UserDto, stranger: UserDto;
 
 beforeAll(async () => {
-  const mk = (tag: string, role: UserDto["role"] = "researcher") => createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  const mk = (tag: string, role: UserDto["role"] = "researcher") =>
+    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
   [owner, curator, stranger] = await Promise.all([mk("pi-owner"), mk("pi-curator", "curator"), mk("pi-stranger")]);
 });
 
@@ -44,7 +45,8 @@ async function publish(document: unknown) {
   return v;
 }
 
-const reactionOf = async (versionId: number) => (await sql<{ reaction_id: number }[]>`select reaction_id from dataset_versions where id = ${versionId}`)[0].reaction_id;
+const reactionOf = async (versionId: number) =>
+  (await sql<{ reaction_id: number }[]>`select reaction_id from dataset_versions where id = ${versionId}`)[0].reaction_id;
 
 describe("a draft of the next version never moves a published version", () => {
   it("v1 published on reaction A stays on A after v2's draft is saved on reaction B", async () => {
@@ -52,7 +54,12 @@ describe("a draft of the next version never moves a published version", () => {
     const reactionA = await reactionOf(v1.id);
     const v2 = await startNextVersion({ actor: owner, versionId: v1.id });
     expect(await reactionOf(v2.id)).toBe(reactionA); // the draft starts as a copy
-    const saved = await updateDraft({ actor: owner, versionId: v2.id, expectedLockVersion: v2.lockVersion, document: { ...ETHANE_DEPOSIT, title: "Moved reaction v2" } });
+    const saved = await updateDraft({
+      actor: owner,
+      versionId: v2.id,
+      expectedLockVersion: v2.lockVersion,
+      document: { ...ETHANE_DEPOSIT, title: "Moved reaction v2" },
+    });
     const reactionB = await reactionOf(saved.id);
     expect(reactionB).not.toBe(reactionA);
 
@@ -115,47 +122,103 @@ describe("the freeze holds against the runtime role", () => {
   const notAllowed = /permission denied|must be owner|must be superuser|must be a member|must have/;
   const attempts = (): [string, string, RegExp][] => [
     ["edit the published row", `update dataset_versions set title = 'changed' where id = ${published.id}`, refusedByTrigger],
-    ["move it to another reaction", `update dataset_versions set reaction_id = ${otherReaction} where id = ${published.id}`, refusedByTrigger],
+    [
+      "move it to another reaction",
+      `update dataset_versions set reaction_id = ${otherReaction} where id = ${published.id}`,
+      refusedByTrigger,
+    ],
     ["unpublish it", `update dataset_versions set state = 'draft' where id = ${published.id}`, refusedByTrigger],
     ["renumber it", `update dataset_versions set number = 99 where id = ${published.id}`, refusedByTrigger],
     ["delete it", `delete from dataset_versions where id = ${published.id}`, refusedByTrigger],
-    ["insert a version as published", `insert into dataset_versions (dataset_id, number, state, title, payload) values (${published.datasetId}, 77, 'published', 'forged', '{}')`, refusedByTrigger],
+    [
+      "insert a version as published",
+      `insert into dataset_versions (dataset_id, number, state, title, payload) values (${published.datasetId}, 77, 'published', 'forged', '{}')`,
+      refusedByTrigger,
+    ],
     ["edit its points", `update version_points set rate_constant = 1 where version_id = ${published.id}`, refusedByTrigger],
     ["delete its points", `delete from version_points where version_id = ${published.id}`, refusedByTrigger],
-    ["add a point", `insert into version_points (version_id, idx, temperature_k, rate_constant, original) values (${published.id}, 9999, 300, 1e-12, '{}')`, refusedByTrigger],
-    ["move draft points in", `update version_points set version_id = ${published.id}, idx = idx + 10000 where version_id = ${draft.id}`, refusedByTrigger],
+    [
+      "add a point",
+      `insert into version_points (version_id, idx, temperature_k, rate_constant, original) values (${published.id}, 9999, 300, 1e-12, '{}')`,
+      refusedByTrigger,
+    ],
+    [
+      "move draft points in",
+      `update version_points set version_id = ${published.id}, idx = idx + 10000 where version_id = ${draft.id}`,
+      refusedByTrigger,
+    ],
     ["edit its analysis", `update version_analyses set result = '{}' where version_id = ${published.id}`, refusedByTrigger],
     ["delete its analysis", `delete from version_analyses where version_id = ${published.id}`, refusedByTrigger],
-    ["move a draft analysis in", `update version_analyses set version_id = ${published.id} where version_id = ${draft.id}`, refusedByTrigger],
+    [
+      "move a draft analysis in",
+      `update version_analyses set version_id = ${published.id} where version_id = ${draft.id}`,
+      refusedByTrigger,
+    ],
     ["rename its file", `update version_files set filename = 'other.csv' where version_id = ${published.id}`, refusedByTrigger],
     ["delete its file", `delete from version_files where version_id = ${published.id}`, refusedByTrigger],
     ["move a draft file in", `update version_files set version_id = ${published.id} where version_id = ${draft.id}`, refusedByTrigger],
-    ["add a file", `insert into version_files (version_id, filename, content_type, size_bytes, sha256, storage_key) values (${published.id}, 'x', 'text/plain', 1, 'c', 'x')`, refusedByTrigger],
-    ["change the series identifier", `update datasets set series_identifier = '10.5072/forged' where id = ${published.datasetId}`, refusedByTrigger],
+    [
+      "add a file",
+      `insert into version_files (version_id, filename, content_type, size_bytes, sha256, storage_key) values (${published.id}, 'x', 'text/plain', 1, 'c', 'x')`,
+      refusedByTrigger,
+    ],
+    [
+      "change the series identifier",
+      `update datasets set series_identifier = '10.5072/forged' where id = ${published.datasetId}`,
+      refusedByTrigger,
+    ],
     ["change the owner", `update datasets set owner_id = ${stranger.id} where id = ${published.datasetId}`, refusedByTrigger],
     ["delete the dataset", `delete from datasets where id = ${published.datasetId}`, refusedByTrigger],
     ["remove the owner link", `delete from dataset_members where dataset_id = ${published.datasetId} and role = 'owner'`, refusedByTrigger],
-    ["demote the owner", `update dataset_members set role = 'viewer' where dataset_id = ${published.datasetId} and role = 'owner'`, refusedByTrigger],
-    ["add a second owner", `insert into dataset_members (dataset_id, user_id, role) values (${published.datasetId}, ${stranger.id}, 'owner')`, refusedByTrigger],
+    [
+      "demote the owner",
+      `update dataset_members set role = 'viewer' where dataset_id = ${published.datasetId} and role = 'owner'`,
+      refusedByTrigger,
+    ],
+    [
+      "add a second owner",
+      `insert into dataset_members (dataset_id, user_id, role) values (${published.datasetId}, ${stranger.id}, 'owner')`,
+      refusedByTrigger,
+    ],
     ["rewrite a decision", `update decisions set reason = 'forged' where version_id = ${published.id}`, notAllowed],
     ["delete a decision", `delete from decisions where version_id = ${published.id}`, notAllowed],
-    ["re-point a registration", `update identifier_registrations set version_id = ${draft.id} where identifier = '${versionIdentifier}'`, refusedByTrigger],
-    ["mark a registration unregistered", `update identifier_registrations set registered = false where identifier = '${versionIdentifier}'`, refusedByTrigger],
-    ["back-date a registration", `update identifier_registrations set registered_at = now() - interval '1 year' where identifier = '${versionIdentifier}'`, refusedByTrigger],
+    [
+      "re-point a registration",
+      `update identifier_registrations set version_id = ${draft.id} where identifier = '${versionIdentifier}'`,
+      refusedByTrigger,
+    ],
+    [
+      "mark a registration unregistered",
+      `update identifier_registrations set registered = false where identifier = '${versionIdentifier}'`,
+      refusedByTrigger,
+    ],
+    [
+      "back-date a registration",
+      `update identifier_registrations set registered_at = now() - interval '1 year' where identifier = '${versionIdentifier}'`,
+      refusedByTrigger,
+    ],
     ["delete a registration", `delete from identifier_registrations where identifier = '${seriesIdentifier}'`, notAllowed],
     ["change a species it shows", `update species set formula = 'XYZ' where id = ${speciesId}`, refusedByTrigger],
     ["delete a species it shows", `delete from species where id = ${speciesId}`, refusedByTrigger],
     ["remove a species' names", `delete from species_names where species_id = ${speciesId}`, refusedByTrigger],
     ["rename its reaction", `update reactions set equation = 'A → B' where id = ${reactionA}`, refusedByTrigger],
     ["drop a participant", `delete from reaction_participants where reaction_id = ${reactionA}`, refusedByTrigger],
-    ["add a participant", `insert into reaction_participants (reaction_id, species_id, side, coefficient) values (${reactionA}, ${otherSpeciesId}, 'product', 1)`, refusedByTrigger],
+    [
+      "add a participant",
+      `insert into reaction_participants (reaction_id, species_id, side, coefficient) values (${reactionA}, ${otherSpeciesId}, 'product', 1)`,
+      refusedByTrigger,
+    ],
     ["rewrite the audit trail", `update audit_events set action = 'forged' where subject_id = '${published.id}'`, notAllowed],
     ["truncate points", `truncate version_points`, notAllowed],
     ["truncate everything", `truncate dataset_versions, datasets cascade`, notAllowed],
     ["disable the freeze trigger", `alter table dataset_versions disable trigger dataset_versions_frozen_when_published`, notAllowed],
     ["disable every trigger", `alter table version_points disable trigger all`, notAllowed],
     ["drop the freeze trigger", `drop trigger version_points_frozen_when_published on version_points`, notAllowed],
-    ["replace the guard function", `create or replace function arrhenia_guard_published_children() returns trigger language plpgsql as $$ begin return new; end $$`, notAllowed],
+    [
+      "replace the guard function",
+      `create or replace function arrhenia_guard_published_children() returns trigger language plpgsql as $$ begin return new; end $$`,
+      notAllowed,
+    ],
     ["skip triggers by replication role", `set session_replication_role = replica`, /permission denied|must be superuser/],
     ["become the owner", `set role arrhenia_owner`, /permission denied|must be a member/],
     ["grant itself superuser", `alter role current_user superuser`, notAllowed],
@@ -192,12 +255,19 @@ describe("the freeze holds against the runtime role", () => {
   });
 
   it("retraction still works, and then the retracted version is frozen too", async () => {
-    const outcome = await applyTransition({ versionId: published.id, actorId: curator.id, transition: "retract", reason: "The source table was misprinted." });
+    const outcome = await applyTransition({
+      versionId: published.id,
+      actorId: curator.id,
+      transition: "retract",
+      reason: "The source table was misprinted.",
+    });
     expect(outcome.to).toBe("retracted");
     const [row] = await sql`select state, retraction_notice from dataset_versions where id = ${published.id}`;
     expect(row).toMatchObject({ state: "retracted", retraction_notice: "The source table was misprinted." });
     await expect(sql`update dataset_versions set retraction_notice = 'edited' where id = ${published.id}`).rejects.toThrow(/published/);
-    await expect(sql`update version_points set version_id = ${published.id}, idx = idx + 20000 where version_id = ${draft.id}`).rejects.toThrow(/published/);
+    await expect(
+      sql`update version_points set version_id = ${published.id}, idx = idx + 20000 where version_id = ${draft.id}`,
+    ).rejects.toThrow(/published/);
   });
 });
 
@@ -206,11 +276,24 @@ describe("the runtime role's privileges (npm run db:privileges)", () => {
     const { role, checks, tables } = await inspectRuntimePrivileges(sql);
     expect(role).not.toBe("arrhenia");
     expect(checks.filter((c) => !c.ok)).toEqual([]);
-    expect(tables.find((t) => t.table === "public.dataset_versions")).toMatchObject({ owner: expect.not.stringMatching(role), select: true, update: true, truncate: false, trigger: false });
+    expect(tables.find((t) => t.table === "public.dataset_versions")).toMatchObject({
+      owner: expect.not.stringMatching(role),
+      select: true,
+      update: true,
+      truncate: false,
+      trigger: false,
+    });
   });
 
   it("pg-boss works as the runtime role: send, read, cancel, maintenance; creating a queue (DDL) is refused", async () => {
-    const boss = new PgBoss({ connectionString: databaseUrl(), migrate: false, schedule: false, maintenanceIntervalSeconds: 1, monitorStateIntervalSeconds: 1, max: 2 });
+    const boss = new PgBoss({
+      connectionString: databaseUrl(),
+      migrate: false,
+      schedule: false,
+      maintenanceIntervalSeconds: 1,
+      monitorStateIntervalSeconds: 1,
+      max: 2,
+    });
     const errors: Error[] = [];
     boss.on("error", (err) => errors.push(err));
     const maintained = new Promise<void>((resolve) => boss.once("maintenance", () => resolve()));
@@ -240,14 +323,20 @@ describe("the runtime role's privileges (npm run db:privileges)", () => {
       const failed = checks.filter((c) => !c.ok).map((c) => c.check);
       expect(failed).toEqual(expect.arrayContaining(["owns objects", "CREATE on schemas", "ALTER TABLE … DISABLE TRIGGER refused"]));
     });
-    it.skipIf(!owner)("even the owner meets the triggers: decisions and registrations stay append-only, published tables refuse TRUNCATE", async () => {
-      const refused = (statement: string) => expect(owner!.begin((tx) => tx.unsafe(statement))).rejects.toThrow(/append-only|move forward|cannot be truncated|cannot be deleted/);
-      await refused(`update decisions set reason = 'forged'`);
-      await refused(`delete from decisions`);
-      await refused(`delete from identifier_registrations`);
-      await refused(`update identifier_registrations set kind = 'forged'`);
-      await refused(`truncate version_points`);
-      await refused(`truncate decisions`);
-    });
+    it.skipIf(!owner)(
+      "even the owner meets the triggers: decisions and registrations stay append-only, published tables refuse TRUNCATE",
+      async () => {
+        const refused = (statement: string) =>
+          expect(owner!.begin((tx) => tx.unsafe(statement))).rejects.toThrow(
+            /append-only|move forward|cannot be truncated|cannot be deleted/,
+          );
+        await refused(`update decisions set reason = 'forged'`);
+        await refused(`delete from decisions`);
+        await refused(`delete from identifier_registrations`);
+        await refused(`update identifier_registrations set kind = 'forged'`);
+        await refused(`truncate version_points`);
+        await refused(`truncate decisions`);
+      },
+    );
   });
 });

@@ -31,7 +31,8 @@ describe("sign-in lockout by (account, address), with a ceiling per account", ()
     try {
       const { email, password } = await target();
       const home = uniqueIp();
-      for (let i = 0; i < 6; i++) await expect(authorizeCredentials({ email, password: `typo-${i}-wrong` }, home)).rejects.toThrow(SIGN_IN_FAILED);
+      for (let i = 0; i < 6; i++)
+        await expect(authorizeCredentials({ email, password: `typo-${i}-wrong` }, home)).rejects.toThrow(SIGN_IN_FAILED);
       // A wrong password through the lock: the same answer, and no mail.
       await expect(authorizeCredentials({ email, password: "still-wrong" }, home)).rejects.toThrow(SIGN_IN_LOCKED);
       // The right password through the lock: the same answer, plus a link in the owner's inbox.
@@ -50,7 +51,8 @@ describe("sign-in lockout by (account, address), with a ceiling per account", ()
 
   it("failures spread over many addresses hit the account's ceiling (60 an hour); the right password then gets a mailed link", async () => {
     const { email, password } = await target();
-    for (let i = 0; i < 60; i++) await expect(authorizeCredentials({ email, password: `spread-${i}-wrong` }, uniqueIp())).rejects.toThrow(SIGN_IN_FAILED);
+    for (let i = 0; i < 60; i++)
+      await expect(authorizeCredentials({ email, password: `spread-${i}-wrong` }, uniqueIp())).rejects.toThrow(SIGN_IN_FAILED);
     await expect(authorizeCredentials({ email, password }, uniqueIp())).rejects.toThrow(SIGN_IN_LOCKED);
     const [row] = await sql<{ n: number }[]>`
       select count(*)::int as n from one_time_tokens t join users u on u.id = t.user_id
@@ -97,6 +99,8 @@ describe("reset requests per address", () => {
     const { requestPasswordReset } = await import("@/lib/users/accounts");
     const ip = uniqueIp();
     for (let i = 0; i < 10; i++) await requestPasswordReset({ email: uniqueEmail("forgetful"), ip });
-    await expect(requestPasswordReset({ email: uniqueEmail("forgetful"), ip })).rejects.toThrow(/Too many reset requests from this network/);
+    await expect(requestPasswordReset({ email: uniqueEmail("forgetful"), ip })).rejects.toThrow(
+      /Too many reset requests from this network/,
+    );
   });
 });

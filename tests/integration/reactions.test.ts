@@ -16,11 +16,19 @@ describe("datasets of the same reaction meet on one reaction", () => {
     const reordered = {
       ...EXAMPLE_DEPOSIT,
       title: "Reaction page B",
-      reaction: { ...EXAMPLE_DEPOSIT.reaction, reactants: [{ smiles: "C", name: "CH4" }, { smiles: "[OH]", name: "OH" }] },
+      reaction: {
+        ...EXAMPLE_DEPOSIT.reaction,
+        reactants: [
+          { smiles: "C", name: "CH4" },
+          { smiles: "[OH]", name: "OH" },
+        ],
+      },
     };
     const b = await depositNewDataset({ actor: owner, document: reordered });
     const draft = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Reaction page draft" } });
-    const [ra, rb, rd] = await Promise.all([a, b, draft].map(async (v) => (await sql`select reaction_id from dataset_versions where id = ${v.id}`)[0].reaction_id));
+    const [ra, rb, rd] = await Promise.all(
+      [a, b, draft].map(async (v) => (await sql`select reaction_id from dataset_versions where id = ${v.id}`)[0].reaction_id),
+    );
     expect(rb).toBe(ra);
     expect(rd).toBe(ra);
     for (const v of [a, b]) {

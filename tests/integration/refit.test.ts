@@ -10,7 +10,13 @@ import { sql, uniqueEmail } from "./helpers";
 describe("re-fitting after an engine change", () => {
   it("adds a current analysis to stale versions, published ones included, and leaves current ones alone", async () => {
     const owner = await createUser({ email: uniqueEmail("refit"), name: "Refit Owner", passwordHash: "x", verified: true });
-    const curator = await createUser({ email: uniqueEmail("refitc"), name: "Refit Curator", passwordHash: "x", role: "curator", verified: true });
+    const curator = await createUser({
+      email: uniqueEmail("refitc"),
+      name: "Refit Curator",
+      passwordHash: "x",
+      role: "curator",
+      verified: true,
+    });
     const draft = await depositNewDataset({ actor: owner, document: EXAMPLE_DEPOSIT });
     const published = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Refit published" } });
     await applyTransition({ versionId: published.id, actorId: owner.id, transition: "submit" });
@@ -25,7 +31,8 @@ describe("re-fitting after an engine change", () => {
     expect(stale).toEqual(expect.arrayContaining([draft.id, published.id]));
     expect(await refitVersion({ versionId: published.id })).toBe("refitted");
     expect(await refitVersion({ versionId: draft.id })).toBe("refitted");
-    const rows = await sql`select engine_version, result is not null as has_result from version_analyses where version_id = ${published.id} order by id desc`;
+    const rows =
+      await sql`select engine_version, result is not null as has_result from version_analyses where version_id = ${published.id} order by id desc`;
     expect(rows[0]).toEqual({ engine_version: ENGINE_VERSION, has_result: true });
     expect(rows.length).toBe(3); // frozen rows stay; the new one is added
   });

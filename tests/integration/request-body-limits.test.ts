@@ -46,23 +46,42 @@ function endlessBody(total = 200 * MB, prefix = "") {
   return { stream, pulled: () => pulled };
 }
 
-function streamed(url: string, body: ReadableStream<Uint8Array>, { method = "POST", headers = {} }: { method?: string; headers?: Record<string, string> } = {}) {
+function streamed(
+  url: string,
+  body: ReadableStream<Uint8Array>,
+  { method = "POST", headers = {} }: { method?: string; headers?: Record<string, string> } = {},
+) {
   return new Request(`http://127.0.0.1${url}`, { method, body, headers, duplex: "half" } as RequestInit);
 }
 
 let owner: UserDto, admin: UserDto;
 beforeAll(async () => {
-  owner = await createUser({ email: uniqueEmail("limits-owner"), name: "Limits owner", passwordHash: "x", role: "researcher", verified: true });
+  owner = await createUser({
+    email: uniqueEmail("limits-owner"),
+    name: "Limits owner",
+    passwordHash: "x",
+    role: "researcher",
+    verified: true,
+  });
   admin = await createUser({ email: uniqueEmail("limits-admin"), name: "Limits admin", passwordHash: "x", role: "admin", verified: true });
 });
 
 const as = (u: UserDto | null) => vi.mocked(getCurrentUser).mockResolvedValue(u);
 const ctx = (params: Record<string, unknown> = {}) => ({ params: Promise.resolve(params) }) as never;
 const countDatasets = async () => Number((await sql`select count(*) from datasets where owner_id = ${owner.id}`)[0].count);
-const countVersions = async () => Number((await sql`select count(*) from dataset_versions v join datasets d on d.id = v.dataset_id where d.owner_id = ${owner.id}`)[0].count);
+const countVersions = async () =>
+  Number(
+    (await sql`select count(*) from dataset_versions v join datasets d on d.id = v.dataset_id where d.owner_id = ${owner.id}`)[0].count,
+  );
 
 async function draftOfOwner() {
-  return createDatasetDraft({ ownerId: owner.id, title: "Body limits", payload: {}, points: [], analysis: { engineVersion: "t", result: null, checks: [] } });
+  return createDatasetDraft({
+    ownerId: owner.id,
+    title: "Body limits",
+    payload: {},
+    points: [],
+    analysis: { engineVersion: "t", result: null, checks: [] },
+  });
 }
 
 async function expect413(res: Response, limitText: RegExp) {
@@ -89,7 +108,10 @@ describe("chunked bodies without Content-Length are cut off at the route's limit
     const v = await draftOfOwner();
     as(owner);
     const body = endlessBody();
-    const res = await putVersion(streamed(`/api/v1/versions/${v.id}`, body.stream, { method: "PUT", headers: { "if-match": `"${v.lockVersion}"` } }), ctx({ id: String(v.id) }));
+    const res = await putVersion(
+      streamed(`/api/v1/versions/${v.id}`, body.stream, { method: "PUT", headers: { "if-match": `"${v.lockVersion}"` } }),
+      ctx({ id: String(v.id) }),
+    );
     await expect413(res, /larger than 25 MB, the limit/);
     expect(body.pulled()).toBeLessThanOrEqual(MAX_DOCUMENT_BYTES + 2 * CHUNK);
     const [row] = await sql`select lock_version from dataset_versions where id = ${v.id}`;
@@ -100,8 +122,14 @@ describe("chunked bodies without Content-Length are cut off at the route's limit
     const v = await draftOfOwner();
     as(owner);
     const boundary = "----arrhenia-limit-test";
-    const body = endlessBody(200 * MB, `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.csv"\r\nContent-Type: text/csv\r\n\r\n`);
-    const res = await postFile(streamed(`/api/v1/versions/${v.id}/files`, body.stream, { headers: { "content-type": `multipart/form-data; boundary=${boundary}` } }), ctx({ id: String(v.id) }));
+    const body = endlessBody(
+      200 * MB,
+      `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.csv"\r\nContent-Type: text/csv\r\n\r\n`,
+    );
+    const res = await postFile(
+      streamed(`/api/v1/versions/${v.id}/files`, body.stream, { headers: { "content-type": `multipart/form-data; boundary=${boundary}` } }),
+      ctx({ id: String(v.id) }),
+    );
     await expect413(res, /upload is larger than 25 MB, the limit/);
     expect(body.pulled()).toBeLessThanOrEqual(MAX_FILE_BYTES + 64 * 1024 + 2 * CHUNK);
     expect((await sql`select count(*) from version_files where version_id = ${v.id}`)[0].count).toBe("0");
@@ -121,26 +149,43 @@ describe("chunked bodies without Content-Length are cut off at the route's limit
     const versionsBefore = await countVersions();
     as(owner);
     let body = endlessBody();
-    await expect413(await postTransition(streamed(`/api/v1/versions/${v.id}/transitions`, body.stream), ctx({ id: String(v.id) })), /larger than 1 MB, the limit/);
+    await expect413(
+      await postTransition(streamed(`/api/v1/versions/${v.id}/transitions`, body.stream), ctx({ id: String(v.id) })),
+      /larger than 1 MB, the limit/,
+    );
     expect(body.pulled()).toBeLessThanOrEqual(MB + 2 * CHUNK);
     const [row] = await sql`select state from dataset_versions where id = ${v.id}`;
     expect(row.state).toBe("draft");
 
     body = endlessBody();
-    await expect413(await postNext(streamed(`/api/v1/versions/${v.id}/next`, body.stream), ctx({ id: String(v.id) })), /larger than 1 MB, the limit/);
+    await expect413(
+      await postNext(streamed(`/api/v1/versions/${v.id}/next`, body.stream), ctx({ id: String(v.id) })),
+      /larger than 1 MB, the limit/,
+    );
     expect(body.pulled()).toBeLessThanOrEqual(MB + 2 * CHUNK);
     expect(await countVersions()).toBe(versionsBefore);
 
     as(admin);
     body = endlessBody();
-    await expect413(await patchUser(streamed(`/api/v1/users/${owner.id}`, body.stream, { method: "PATCH" }), ctx({ id: String(owner.id) })), /larger than 1 MB, the limit/);
+    await expect413(
+      await patchUser(streamed(`/api/v1/users/${owner.id}`, body.stream, { method: "PATCH" }), ctx({ id: String(owner.id) })),
+      /larger than 1 MB, the limit/,
+    );
     expect(body.pulled()).toBeLessThanOrEqual(MB + 2 * CHUNK);
   });
 
   it("the sign-in endpoint stops after 64 KB", async () => {
     const body = endlessBody();
-    const req = new NextRequest("http://127.0.0.1/api/auth/callback/credentials", { method: "POST", body: body.stream, headers: { "content-type": "application/x-www-form-urlencoded" }, duplex: "half" } as never);
-    await expect413(await signInPost(req, ctx({ nextauth: ["callback", "credentials"] })), /sign-in request is larger than 64 KB, the limit/);
+    const req = new NextRequest("http://127.0.0.1/api/auth/callback/credentials", {
+      method: "POST",
+      body: body.stream,
+      headers: { "content-type": "application/x-www-form-urlencoded" },
+      duplex: "half",
+    } as never);
+    await expect413(
+      await signInPost(req, ctx({ nextauth: ["callback", "credentials"] })),
+      /sign-in request is larger than 64 KB, the limit/,
+    );
     expect(body.pulled()).toBeLessThanOrEqual(64 * 1024 + 2 * CHUNK);
   });
 });

@@ -23,9 +23,9 @@ import { fromAddress, linkToken, sql, startMailPipeline, uniqueEmail, uniqueIp, 
 
 // next-auth exports its request core only by file path (package "exports" leave it out).
 type AuthResponse = { status?: number; body?: Record<string, unknown>; redirect?: string; cookies?: { name: string; value: string }[] };
-const authHandler: (p: { options: NextAuthOptions; req: Record<string, unknown> }) => Promise<AuthResponse> = createRequire(import.meta.url)(
-  path.resolve("node_modules/next-auth/core/index.js"),
-).AuthHandler;
+const authHandler: (p: { options: NextAuthOptions; req: Record<string, unknown> }) => Promise<AuthResponse> = createRequire(
+  import.meta.url,
+)(path.resolve("node_modules/next-auth/core/index.js")).AuthHandler;
 
 const SESSION_COOKIE = "next-auth.session-token";
 
@@ -41,7 +41,14 @@ async function signIn(email: string, password: string) {
   const csrfToken = String(csrf.body?.csrfToken);
   const res = await authHandler({
     options: authOptions,
-    req: { action: "callback", providerId: "credentials", method: "POST", cookies, headers, body: { email, password, csrfToken, callbackUrl: "/deposits" } },
+    req: {
+      action: "callback",
+      providerId: "credentials",
+      method: "POST",
+      cookies,
+      headers,
+      body: { email, password, csrfToken, callbackUrl: "/deposits" },
+    },
   });
   const all = { ...cookies, ...jar(res) };
   if (!all[SESSION_COOKIE]) throw new Error(`sign-in failed: ${res.redirect}`);
@@ -49,7 +56,8 @@ async function signIn(email: string, password: string) {
     cookies: all,
     session: all[SESSION_COOKIE],
     redirect: res.redirect,
-    signOut: () => authHandler({ options: authOptions, req: { action: "signout", method: "POST", cookies: all, headers, body: { csrfToken } } }),
+    signOut: () =>
+      authHandler({ options: authOptions, req: { action: "signout", method: "POST", cookies: all, headers, body: { csrfToken } } }),
   };
 }
 
@@ -58,7 +66,11 @@ async function seenWith(sessionCookie: string) {
   cookieJar = { [SESSION_COOKIE]: sessionCookie };
   const endpoint = await authHandler({ options: authOptions, req: { action: "session", method: "GET", cookies: cookieJar, headers: {} } });
   const user = await getCurrentUser();
-  return { endpointUserId: (endpoint.body?.user as { id?: number } | undefined)?.id ?? null, currentUserId: user?.id ?? null, clears: (endpoint.cookies ?? []).some((c) => c.name === SESSION_COOKIE && c.value === "") };
+  return {
+    endpointUserId: (endpoint.body?.user as { id?: number } | undefined)?.id ?? null,
+    currentUserId: user?.id ?? null,
+    clears: (endpoint.cookies ?? []).some((c) => c.name === SESSION_COOKIE && c.value === ""),
+  };
 }
 
 async function person(role: "researcher" | "curator" | "admin" = "researcher") {
@@ -104,9 +116,13 @@ describe("a session ends when the person says so", () => {
     const linkB = linkToken((await waitForMail(p.email, { subject: /^Choose a new Arrhenia password/ })).text, "/reset-password");
     expect(linkB).not.toBe(linkA);
 
-    await expect(resetPassword({ secret: linkA, password: "older-link-password" })).rejects.toThrow(/invalid, has expired, or was already used/);
+    await expect(resetPassword({ secret: linkA, password: "older-link-password" })).rejects.toThrow(
+      /invalid, has expired, or was already used/,
+    );
     await resetPassword({ secret: linkB, password: "the-newest-password" });
-    await expect(resetPassword({ secret: linkA, password: "older-link-password" })).rejects.toThrow(/invalid, has expired, or was already used/);
+    await expect(resetPassword({ secret: linkA, password: "older-link-password" })).rejects.toThrow(
+      /invalid, has expired, or was already used/,
+    );
     await expect(resetPassword({ secret: linkB, password: "again-the-link" })).rejects.toThrow(/already used/);
 
     expect(await seenWith(browser.session)).toMatchObject({ endpointUserId: null, currentUserId: null });
@@ -164,7 +180,13 @@ describe("a session ends when the person says so", () => {
     const browser = await signIn(p.email, p.password);
     expect(browser.redirect).toBe("http://localhost:3000/deposits");
     const redirect = authOptions.callbacks!.redirect!;
-    for (const url of ["/\\evil.example/phish", "/%5Cevil.example/phish", "//evil.example", "https://evil.example/", "http://localhost:3000//evil.example"]) {
+    for (const url of [
+      "/\\evil.example/phish",
+      "/%5Cevil.example/phish",
+      "//evil.example",
+      "https://evil.example/",
+      "http://localhost:3000//evil.example",
+    ]) {
       expect(await redirect({ url, baseUrl: "http://localhost:3000" })).toBe("http://localhost:3000/");
     }
   });

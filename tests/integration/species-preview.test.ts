@@ -2,7 +2,8 @@ import { describe, expect, it } from "vitest";
 import { GET } from "@/app/api/v1/species/preview/route";
 import { fromAddress, uniqueIp } from "./helpers";
 
-const get = (q: string) => GET(new Request(`http://127.0.0.1/api/v1/species/preview?${q}`, { headers: fromAddress(uniqueIp()) }), { params: Promise.resolve({}) });
+const get = (q: string) =>
+  GET(new Request(`http://127.0.0.1/api/v1/species/preview?${q}`, { headers: fromAddress(uniqueIp()) }), { params: Promise.resolve({}) });
 
 describe("GET /api/v1/species/preview", () => {
   it("describes a radical and draws it", async () => {

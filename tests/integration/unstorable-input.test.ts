@@ -23,19 +23,40 @@ const as = (u: UserDto | null) => vi.mocked(getCurrentUser).mockResolvedValue(u)
 const ctx = { params: Promise.resolve({}) };
 const req = (url: string, init: RequestInit = {}) => new Request(`http://127.0.0.1${url}`, init);
 const ex = EXAMPLE_DEPOSIT;
-const counts = async () => (await sql`select (select count(*) from datasets)::int as d, (select count(*) from dataset_versions)::int as v, (select count(*) from version_points)::int as p`)[0];
+const counts = async () =>
+  (
+    await sql`select (select count(*) from datasets)::int as d, (select count(*) from dataset_versions)::int as v, (select count(*) from version_points)::int as p`
+  )[0];
 
 // JSON text written by hand: a lone surrogate cannot survive JSON.stringify of a JS string into a
 // request body as anything but the escape itself, which is what a client sends.
 const cases: [string, string, string][] = [
   ["U+0000 in the title", JSON.stringify({ ...ex, title: "OH + CH4 \u0000 rate" }), "/title"],
   ["a lone high surrogate in the description", JSON.stringify({ ...ex, description: "abc \ud800 def" }), "/description"],
-  ["a lone low surrogate in a point note", JSON.stringify({ ...ex, points: [...ex.points.slice(0, 9), { ...ex.points[9], note: "x\udc00" }] }), "/points/9/note"],
+  [
+    "a lone low surrogate in a point note",
+    JSON.stringify({ ...ex, points: [...ex.points.slice(0, 9), { ...ex.points[9], note: "x\udc00" }] }),
+    "/points/9/note",
+  ],
   ["U+0000 in a creator name", JSON.stringify({ ...ex, creators: [{ name: "A\u0000B" }] }), "/creators/0/name"],
   ["U+0000 in a property name", JSON.stringify({ ...ex, "x\u0000": 1 }), "/x\u0000"],
   ["U+0000 in a unit", JSON.stringify({ ...ex, units: { ...ex.units, k: "cm3\u0000 molecule-1 s-1" } }), "/units/k"],
-  ["a coefficient of 5e-324", JSON.stringify({ ...ex, reaction: { ...ex.reaction, reactants: [{ ...ex.reaction.reactants[0], coefficient: 5e-324 }, ex.reaction.reactants[1]] } }), "/reaction/reactants/0/coefficient"],
-  ["a coefficient of 0.3", JSON.stringify({ ...ex, reaction: { ...ex.reaction, reactants: [{ ...ex.reaction.reactants[0], coefficient: 0.3 }, ex.reaction.reactants[1]] } }), "/reaction/reactants/0/coefficient"],
+  [
+    "a coefficient of 5e-324",
+    JSON.stringify({
+      ...ex,
+      reaction: { ...ex.reaction, reactants: [{ ...ex.reaction.reactants[0], coefficient: 5e-324 }, ex.reaction.reactants[1]] },
+    }),
+    "/reaction/reactants/0/coefficient",
+  ],
+  [
+    "a coefficient of 0.3",
+    JSON.stringify({
+      ...ex,
+      reaction: { ...ex.reaction, reactants: [{ ...ex.reaction.reactants[0], coefficient: 0.3 }, ex.reaction.reactants[1]] },
+    }),
+    "/reaction/reactants/0/coefficient",
+  ],
   ["a k unit of one space", JSON.stringify({ ...ex, units: { ...ex.units, k: " " } }), "/units/k"],
   ["a T unit of one space", JSON.stringify({ ...ex, units: { ...ex.units, T: " " } }), "/units/T"],
   ["a pressure unit of one space", JSON.stringify({ ...ex, units: { ...ex.units, pressure: " " } }), "/units/pressure"],
@@ -75,7 +96,15 @@ describe("query parameters and analysis bodies", () => {
 
   it("answers 422 with a pointer for U+0000 in an analysis request", async () => {
     as(null);
-    const body = JSON.stringify({ order: 2, units: { k: "cm3 molecule-1 s-1\u0000", T: "K" }, points: [{ T: 300, k: 1e-12 }, { T: 400, k: 2e-12 }, { T: 500, k: 3e-12 }] });
+    const body = JSON.stringify({
+      order: 2,
+      units: { k: "cm3 molecule-1 s-1\u0000", T: "K" },
+      points: [
+        { T: 300, k: 1e-12 },
+        { T: 400, k: 2e-12 },
+        { T: 500, k: 3e-12 },
+      ],
+    });
     const res = await postAnalysis(req("/api/v1/analyses", { method: "POST", body, headers: { "x-forwarded-for": "10.9.9.9" } }), ctx);
     expect(res.status).toBe(422);
     expect((await res.json()).errors[0].pointer).toBe("/units/k");
@@ -91,7 +120,10 @@ const form = (fields: Record<string, string>) => {
 describe("form actions and reasons", () => {
   it("refuses a sign-up whose name holds U+0000, naming the field and creating nobody", async () => {
     const email = uniqueEmail("nul-signup");
-    const state = await signUpAction({ status: "idle" }, form({ name: "Ada\u0000", email, password: "a-long-enough-password", confirm: "a-long-enough-password" }));
+    const state = await signUpAction(
+      { status: "idle" },
+      form({ name: "Ada\u0000", email, password: "a-long-enough-password", confirm: "a-long-enough-password" }),
+    );
     expect(state.status).toBe("error");
     expect(state.fieldErrors?.name).toMatch(/U\+0000/);
     expect(await sql`select 1 from users where email = ${email}`).toHaveLength(0);
@@ -111,10 +143,15 @@ describe("form actions and reasons", () => {
     as(owner);
     const created = await (await createDataset(req("/api/v1/datasets", { method: "POST", body: JSON.stringify(ex) }), ctx)).json();
     const id = created.data.versionId as number;
-    const res = await postTransition(req(`/api/v1/versions/${id}/transitions`, { method: "POST", body: JSON.stringify({ transition: "submit", reason: "ready\u0000" }) }), { params: Promise.resolve({ id: String(id) }) });
+    const res = await postTransition(
+      req(`/api/v1/versions/${id}/transitions`, { method: "POST", body: JSON.stringify({ transition: "submit", reason: "ready\u0000" }) }),
+      { params: Promise.resolve({ id: String(id) }) },
+    );
     expect(res.status).toBe(422);
     expect((await res.json()).errors[0].pointer).toBe("/reason");
-    await expect(transitionVersion({ actor: owner, versionId: id, transition: "submit", reason: "a\udc00" })).rejects.toMatchObject({ status: 422 });
+    await expect(transitionVersion({ actor: owner, versionId: id, transition: "submit", reason: "a\udc00" })).rejects.toMatchObject({
+      status: 422,
+    });
     const [v] = await sql`select state from dataset_versions where id = ${id}`;
     expect(v.state).toBe("draft");
   });

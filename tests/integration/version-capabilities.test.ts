@@ -43,7 +43,14 @@ const byName = (n: string) => people.find((p) => p.name === n)!;
 
 beforeAll(async () => {
   for (const p of people) {
-    if (p.siteRole) p.user = await createUser({ email: uniqueEmail(p.name.replace(/\W/g, "")), name: p.name, passwordHash: "x", role: p.siteRole, verified: true });
+    if (p.siteRole)
+      p.user = await createUser({
+        email: uniqueEmail(p.name.replace(/\W/g, "")),
+        name: p.name,
+        passwordHash: "x",
+        role: p.siteRole,
+        verified: true,
+      });
   }
 });
 
@@ -51,27 +58,51 @@ const points: StoredPoint[] = EXAMPLE_DEPOSIT.points.map((p) => ({ T: p.T, k: p.
 const path: Record<VersionState, [Transition, string][]> = {
   draft: [],
   submitted: [["submit", "owner"]],
-  in_review: [["submit", "owner"], ["start_review", "curator"]],
-  changes_requested: [["submit", "owner"], ["request_changes", "curator"]],
-  published: [["submit", "owner"], ["accept", "curator"]],
-  declined: [["submit", "owner"], ["decline", "curator"]],
-  retracted: [["submit", "owner"], ["accept", "curator"], ["retract", "curator"]],
+  in_review: [
+    ["submit", "owner"],
+    ["start_review", "curator"],
+  ],
+  changes_requested: [
+    ["submit", "owner"],
+    ["request_changes", "curator"],
+  ],
+  published: [
+    ["submit", "owner"],
+    ["accept", "curator"],
+  ],
+  declined: [
+    ["submit", "owner"],
+    ["decline", "curator"],
+  ],
+  retracted: [
+    ["submit", "owner"],
+    ["accept", "curator"],
+    ["retract", "curator"],
+  ],
 };
 
 /** A version in `state` whose dataset has an owner, an editor, a viewer and a co-editing curator. */
 async function versionIn(state: VersionState) {
   const owner = byName("owner").user!;
-  const v = await createDatasetDraft({ ownerId: owner.id, title: EXAMPLE_DEPOSIT.title, payload: EXAMPLE_DEPOSIT as unknown as Record<string, unknown>, points, analysis: { engineVersion: "test", result: { flags: [] }, checks: [] } });
+  const v = await createDatasetDraft({
+    ownerId: owner.id,
+    title: EXAMPLE_DEPOSIT.title,
+    payload: EXAMPLE_DEPOSIT as unknown as Record<string, unknown>,
+    points,
+    analysis: { engineVersion: "test", result: { flags: [] }, checks: [] },
+  });
   for (const n of ["editor", "viewer", "co-editing curator"]) {
     const p = byName(n);
     await addDatasetMember({ datasetId: v.datasetId, userId: p.user!.id, role: p.datasetRole!, actorId: owner.id });
   }
-  for (const [t, by] of path[state]) await applyTransition({ versionId: v.id, actorId: byName(by).user!.id, transition: t, reason: "Reason for the record." });
+  for (const [t, by] of path[state])
+    await applyTransition({ versionId: v.id, actorId: byName(by).user!.id, transition: t, reason: "Reason for the record." });
   return v.id;
 }
 
 async function snapshot(versionId: number) {
-  const [row] = await sql`select v.state, v.lock_version, v.title, (select count(*)::int from dataset_versions w where w.dataset_id = v.dataset_id) as versions,
+  const [row] =
+    await sql`select v.state, v.lock_version, v.title, (select count(*)::int from dataset_versions w where w.dataset_id = v.dataset_id) as versions,
     (select count(*)::int from version_files f where f.version_id = v.id) as files, (select count(*)::int from dataset_invitations i where i.dataset_id = v.dataset_id) as invitations
     from dataset_versions v where v.id = ${versionId}`;
   return row;
@@ -94,7 +125,12 @@ async function perform(action: VersionAction, versionId: number): Promise<number
     case "edit": {
       const [{ lock_version }] = await sql`select lock_version from dataset_versions where id = ${versionId}`;
       const body = JSON.stringify({ ...EXAMPLE_DEPOSIT, title: "Edited through the API" });
-      return (await putVersion(req(`/api/v1/versions/${versionId}`, { method: "PUT", body, headers: { "if-match": `"${lock_version}"` } }), ctx(versionId))).status;
+      return (
+        await putVersion(
+          req(`/api/v1/versions/${versionId}`, { method: "PUT", body, headers: { "if-match": `"${lock_version}"` } }),
+          ctx(versionId),
+        )
+      ).status;
     }
     case "upload_files": {
       const form = new FormData();
@@ -106,12 +142,25 @@ async function perform(action: VersionAction, versionId: number): Promise<number
     case "invite":
       return (await inviteAction(versionId, uniqueEmail("invitee"), "viewer")).status;
     default:
-      return (await postTransition(req(`/api/v1/versions/${versionId}/transitions`, { method: "POST", body: JSON.stringify({ transition: action, reason }) }), ctx(versionId))).status;
+      return (
+        await postTransition(
+          req(`/api/v1/versions/${versionId}/transitions`, { method: "POST", body: JSON.stringify({ transition: action, reason }) }),
+          ctx(versionId),
+        )
+      ).status;
   }
 }
 
 const okStatus: Partial<Record<VersionAction, number>> = { upload_files: 201, start_next_version: 201 };
-const actions: VersionAction[] = ["view", "view_decisions", "edit", "upload_files", "start_next_version", "invite", ...(Object.keys(lifecycle) as Transition[])];
+const actions: VersionAction[] = [
+  "view",
+  "view_decisions",
+  "edit",
+  "upload_files",
+  "start_next_version",
+  "invite",
+  ...(Object.keys(lifecycle) as Transition[]),
+];
 
 function expected(p: Person, state: VersionState, action: VersionAction): number {
   // Everything but reading needs a signed-in depositor before the version is even looked at.
@@ -162,7 +211,11 @@ describe("the editor's server actions answer like the routes", () => {
     expect(await saveDraftAction(id, 1, JSON.stringify(EXAMPLE_DEPOSIT))).toMatchObject({ ok: false, status: 404 });
     expect(await inviteAction(id, uniqueEmail("x"), "editor")).toMatchObject({ ok: false, status: 404 });
     vi.mocked(getCurrentUser).mockResolvedValue(byName("editor").user);
-    expect(await transitionAction(id, "submit")).toMatchObject({ ok: false, status: 403, message: "Only the dataset's owner may submit it" });
+    expect(await transitionAction(id, "submit")).toMatchObject({
+      ok: false,
+      status: 403,
+      message: "Only the dataset's owner may submit it",
+    });
     vi.mocked(getCurrentUser).mockResolvedValue(byName("owner").user);
     expect(await transitionAction(id, "submit")).toMatchObject({ ok: true, state: "submitted" });
   });

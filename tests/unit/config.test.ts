@@ -1,5 +1,16 @@
 import { afterEach, describe, expect, it } from "vitest";
-import { assertValidConfig, bcryptRounds, ConfigError, configProblems, dbPoolSize, fakeDoiDataDir, jobRetryDelaySeconds, seedsDemoDatasets, serverPort, storageDir } from "@/lib/config";
+import {
+  assertValidConfig,
+  bcryptRounds,
+  ConfigError,
+  configProblems,
+  dbPoolSize,
+  fakeDoiDataDir,
+  jobRetryDelaySeconds,
+  seedsDemoDatasets,
+  serverPort,
+  storageDir,
+} from "@/lib/config";
 import { doiPrefix } from "@/lib/identifiers/mint";
 
 const saved = { ...process.env };
@@ -16,19 +27,50 @@ describe("configuration", () => {
 
   it("gives the documented defaults when variables are unset or empty", () => {
     const env = { ...process.env };
-    for (const k of ["BCRYPT_ROUNDS", "DB_POOL_SIZE", "JOB_RETRY_DELAY_SECONDS", "PORT", "STORAGE_DIR", "SEED_DATASETS", "DOI_PREFIX"]) delete process.env[k];
+    for (const k of ["BCRYPT_ROUNDS", "DB_POOL_SIZE", "JOB_RETRY_DELAY_SECONDS", "PORT", "STORAGE_DIR", "SEED_DATASETS", "DOI_PREFIX"])
+      delete process.env[k];
     process.env.DB_POOL_SIZE = "";
-    expect([bcryptRounds(), dbPoolSize(), jobRetryDelaySeconds(), serverPort(), storageDir(), seedsDemoDatasets(), doiPrefix()]).toEqual([11, 10, 15, 3000, undefined, true, "10.5072"]);
+    expect([bcryptRounds(), dbPoolSize(), jobRetryDelaySeconds(), serverPort(), storageDir(), seedsDemoDatasets(), doiPrefix()]).toEqual([
+      11,
+      10,
+      15,
+      3000,
+      undefined,
+      true,
+      "10.5072",
+    ]);
     expect(configProblems(env)).toEqual([]);
   });
 
   it("reads and converts set values", () => {
-    Object.assign(process.env, { BCRYPT_ROUNDS: "6", DB_POOL_SIZE: "3", JOB_RETRY_DELAY_SECONDS: "0", SEED_DATASETS: "0", DOI_PREFIX: "10.5555", DOI_FAKE_DATA_DIR: "" });
-    expect([bcryptRounds(), dbPoolSize(), jobRetryDelaySeconds(), seedsDemoDatasets(), doiPrefix(), fakeDoiDataDir()]).toEqual([6, 3, 0, false, "10.5555", null]);
+    Object.assign(process.env, {
+      BCRYPT_ROUNDS: "6",
+      DB_POOL_SIZE: "3",
+      JOB_RETRY_DELAY_SECONDS: "0",
+      SEED_DATASETS: "0",
+      DOI_PREFIX: "10.5555",
+      DOI_FAKE_DATA_DIR: "",
+    });
+    expect([bcryptRounds(), dbPoolSize(), jobRetryDelaySeconds(), seedsDemoDatasets(), doiPrefix(), fakeDoiDataDir()]).toEqual([
+      6,
+      3,
+      0,
+      false,
+      "10.5555",
+      null,
+    ]);
   });
 
   it("lists every bad value in one error, naming the variable and never echoing a secret", () => {
-    const env = { BCRYPT_ROUNDS: "eleven", DB_POOL_SIZE: "0", PORT: "70000", DOI_PREFIX: "10.1/x", NEXTAUTH_SECRET: "short", DATABASE_URL: "mysql://u:hunter2@h/db", SEED_DATASETS: "yes" };
+    const env = {
+      BCRYPT_ROUNDS: "eleven",
+      DB_POOL_SIZE: "0",
+      PORT: "70000",
+      DOI_PREFIX: "10.1/x",
+      NEXTAUTH_SECRET: "short",
+      DATABASE_URL: "mysql://u:hunter2@h/db",
+      SEED_DATASETS: "yes",
+    };
     const problems = configProblems(env);
     expect(problems).toHaveLength(7);
     expect(problems).toEqual(

@@ -3,7 +3,10 @@ import { decisionMail } from "@/lib/mail/templates";
 
 describe("decision mail", () => {
   it("an acceptance names the version identifier and links the public page", () => {
-    const m = decisionMail("a@b.invalid", "A", "OH + CH4", 7, "accept", "Consistent.", { identifier: "10.5072/arrhenia.3.v2", path: "/datasets/3/v2" });
+    const m = decisionMail("a@b.invalid", "A", "OH + CH4", 7, "accept", "Consistent.", {
+      identifier: "10.5072/arrhenia.3.v2",
+      path: "/datasets/3/v2",
+    });
     expect(m.subject).toBe("Decision on “OH + CH4”: accepted");
     expect(m.text).toContain("doi:10.5072/arrhenia.3.v2");
     expect(m.text).toMatch(/Open the published version: http:\/\/\S+\/datasets\/3\/v2/);

@@ -5,7 +5,10 @@ import { readBodyOrThrow, readFormDataOrThrow, readJsonBodyOrThrow } from "@/lib
 /** A request whose body arrives in the given chunks, without Content-Length. */
 function chunked(chunks: Uint8Array[], headers: Record<string, string> = {}) {
   let i = 0;
-  const body = new ReadableStream<Uint8Array>({ pull: (c) => (i < chunks.length ? c.enqueue(chunks[i++]) : c.close()) }, { highWaterMark: 0 });
+  const body = new ReadableStream<Uint8Array>(
+    { pull: (c) => (i < chunks.length ? c.enqueue(chunks[i++]) : c.close()) },
+    { highWaterMark: 0 },
+  );
   return { req: new Request("http://127.0.0.1/", { method: "POST", body, headers, duplex: "half" } as RequestInit), pulled: () => i };
 }
 

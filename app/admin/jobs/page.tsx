@@ -51,7 +51,9 @@ export default async function JobsPage() {
         </table>
       </div>
       <section aria-labelledby="troubled-heading" className="space-y-3">
-        <h2 id="troubled-heading" className="text-xl font-semibold">Failing or retrying</h2>
+        <h2 id="troubled-heading" className="text-xl font-semibold">
+          Failing or retrying
+        </h2>
         {troubled.length === 0 ? (
           <p className="card text-sm">Nothing is failing.</p>
         ) : (

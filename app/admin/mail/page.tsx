@@ -34,7 +34,9 @@ export default async function MailInboxPage() {
             <tbody>
               {messages.map((m) => (
                 <tr key={m.id}>
-                  <td className="whitespace-nowrap"><DateTime value={m.receivedAt} /></td>
+                  <td className="whitespace-nowrap">
+                    <DateTime value={m.receivedAt} />
+                  </td>
                   <td>{m.toAddresses.join(", ")}</td>
                   <td>
                     <Link href={`/admin/mail/${m.id}`}>{m.subject}</Link>

@@ -34,10 +34,16 @@ export default async function PeoplePage() {
                 <td>{p.email}</td>
                 <td>{p.emailVerifiedAt ? "yes" : "not yet"}</td>
                 <td className="whitespace-nowrap">{p.createdAt.toISOString().slice(0, 10)}</td>
-                <td><RoleForm userId={p.id} role={p.role} name={p.name} /></td>
+                <td>
+                  <RoleForm userId={p.id} role={p.role} name={p.name} />
+                </td>
                 <td>
                   {p.deactivatedAt && <div className="text-xs">deactivated</div>}
-                  {p.id === admin.id ? <span className="text-xs text-muted">you</span> : <ActiveForm userId={p.id} active={!p.deactivatedAt} name={p.name} />}
+                  {p.id === admin.id ? (
+                    <span className="text-xs text-muted">you</span>
+                  ) : (
+                    <ActiveForm userId={p.id} active={!p.deactivatedAt} name={p.name} />
+                  )}
                 </td>
               </tr>
             ))}

@@ -26,7 +26,10 @@ export function RoleForm({ userId, role, name }: { userId: number; role: string;
         Save<span className="sr-only"> role of {name}</span>
       </SubmitButton>
       {state.message && (
-        <span role={state.status === "error" ? "alert" : "status"} className={state.status === "error" ? "text-sm text-error" : "text-sm text-ok"}>
+        <span
+          role={state.status === "error" ? "alert" : "status"}
+          className={state.status === "error" ? "text-sm text-error" : "text-sm text-ok"}
+        >
           {state.message}
         </span>
       )}

@@ -17,7 +17,11 @@ export const metadata: Metadata = { title: "Deposit" };
 /** The stored checks of a version: identity, balance and magnitude, then the fit's flags. */
 function storedChecks(analysis: Awaited<ReturnType<typeof getLatestAnalysis>>): StoredCheck[] {
   if (!analysis) return [];
-  const flags = ((analysis.result as { flags?: StoredCheck[] } | null)?.flags ?? []).map(({ code, severity, message }) => ({ code, severity, message }));
+  const flags = ((analysis.result as { flags?: StoredCheck[] } | null)?.flags ?? []).map(({ code, severity, message }) => ({
+    code,
+    severity,
+    message,
+  }));
   const checks = ((analysis.checks as StoredCheck[] | null) ?? []).map(({ code, severity, message }) => ({ code, severity, message }));
   return [...checks, ...flags];
 }
@@ -37,7 +41,11 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
     throw err;
   }
   const { version, datasetRole, capabilities } = found;
-  const [analysis, decisions, members] = await Promise.all([getLatestAnalysis({ versionId }), listDecisions({ versionId }), datasetRole ? listDatasetMembers({ datasetId: version.datasetId }) : Promise.resolve([])]);
+  const [analysis, decisions, members] = await Promise.all([
+    getLatestAnalysis({ versionId }),
+    listDecisions({ versionId }),
+    datasetRole ? listDatasetMembers({ datasetId: version.datasetId }) : Promise.resolve([]),
+  ]);
 
   return (
     <div className="space-y-6">
@@ -52,13 +60,26 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
       </header>
       <DepositEditor
         mode="existing"
-        version={{ id: version.id, number: version.number, state: version.state, versionIdentifier: version.versionIdentifier, retractionNotice: version.retractionNotice, publicPath: `/datasets/${version.datasetId}/v${version.number}` }}
+        version={{
+          id: version.id,
+          number: version.number,
+          state: version.state,
+          versionIdentifier: version.versionIdentifier,
+          retractionNotice: version.retractionNotice,
+          publicPath: `/datasets/${version.datasetId}/v${version.number}`,
+        }}
         payload={version.payload as unknown as DepositDocument}
         lockVersion={version.lockVersion}
         role={datasetRole}
         capabilities={capabilities}
         checks={storedChecks(analysis)}
-        decisions={decisions.map((d) => ({ id: d.id, decision: d.decision, reason: d.reason, curator: d.curator, createdAt: d.createdAt.toISOString() }))}
+        decisions={decisions.map((d) => ({
+          id: d.id,
+          decision: d.decision,
+          reason: d.reason,
+          curator: d.curator,
+          createdAt: d.createdAt.toISOString(),
+        }))}
         members={members.map((m) => ({ name: m.name, role: m.role }))}
       />
       <FilesPanel versionId={version.id} editable={capabilities.upload_files} />

@@ -15,8 +15,9 @@ export default async function NewDepositPage() {
         </p>
         <h1 className="text-3xl font-semibold">New deposit</h1>
         <p className="max-w-3xl text-muted">
-          Describe the reaction, bring in your table of temperatures and rate constants, and say where the numbers come from. The fit below follows your data as you type. Saving keeps a private
-          draft that you can come back to; a curator sees it only once you submit it. The <Link href="/docs/deposit-format">deposit format</Link> page explains every field.
+          Describe the reaction, bring in your table of temperatures and rate constants, and say where the numbers come from. The fit below
+          follows your data as you type. Saving keeps a private draft that you can come back to; a curator sees it only once you submit it.
+          The <Link href="/docs/deposit-format">deposit format</Link> page explains every field.
         </p>
       </header>
       <DepositEditor mode="new" person={{ name: user.name, orcid: user.orcid, affiliation: user.affiliation }} />

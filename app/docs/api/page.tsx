@@ -16,7 +16,9 @@ const example = (base: string) => `curl -s ${base}/api/v1/analyses \\
 function Inline({ text }: { text: string }) {
   return (
     <>
-      {text.split(/(`[^`]+`)/g).map((part, i) => (part.startsWith("`") ? <code key={i}>{part.slice(1, -1)}</code> : <span key={i}>{part}</span>))}
+      {text
+        .split(/(`[^`]+`)/g)
+        .map((part, i) => (part.startsWith("`") ? <code key={i}>{part.slice(1, -1)}</code> : <span key={i}>{part}</span>))}
     </>
   );
 }
@@ -27,8 +29,9 @@ export default function ApiDocsPage() {
       <header className="space-y-2">
         <h1 className="text-3xl font-semibold">API</h1>
         <p className="text-muted">
-          JSON over HTTP. Errors are <code>application/problem+json</code> (RFC 9457) with a stable <code>code</code>; validation errors carry an <code>errors</code> list of
-          JSON pointers (RFC 6901) and plain messages. Scripts authenticate with a personal token from Settings: <code>Authorization: Bearer arr_pat_…</code>.
+          JSON over HTTP. Errors are <code>application/problem+json</code> (RFC 9457) with a stable <code>code</code>; validation errors
+          carry an <code>errors</code> list of JSON pointers (RFC 6901) and plain messages. Scripts authenticate with a personal token from
+          Settings: <code>Authorization: Bearer arr_pat_…</code>.
         </p>
       </header>
 
@@ -37,10 +40,11 @@ export default function ApiDocsPage() {
           Tokens and scopes
         </h2>
         <p className="text-sm">
-          A token carries one or more scopes, chosen when it is created: <code>read</code> (fetch what you may see, including your drafts), <code>deposit</code> (create, edit, submit and
-          withdraw your datasets; for curators also review decisions) and <code>admin</code> (people and roles; offered to admins only). An endpoint answers 403 to a token without the scope
-          it needs, even when the person holds the role; a revoked or unknown token is refused with 401 on every endpoint, public ones included. Ids in paths are whole numbers from 1 to
-          2147483647; anything else is 404.
+          A token carries one or more scopes, chosen when it is created: <code>read</code> (fetch what you may see, including your drafts),{" "}
+          <code>deposit</code> (create, edit, submit and withdraw your datasets; for curators also review decisions) and <code>admin</code>{" "}
+          (people and roles; offered to admins only). An endpoint answers 403 to a token without the scope it needs, even when the person
+          holds the role; a revoked or unknown token is refused with 401 on every endpoint, public ones included. Ids in paths are whole
+          numbers from 1 to 2147483647; anything else is 404.
         </p>
         <table className="table text-sm">
           <thead>
@@ -70,12 +74,15 @@ export default function ApiDocsPage() {
         <h2 id="analyses" className="text-2xl font-semibold">
           POST /api/v1/analyses
         </h2>
-        <p>Fits posted points exactly as every deposited dataset is fitted. No sign-in; limited to 120 requests a minute per address; at most {MAX_POINTS.toLocaleString("en")} points and 12 MB per request. Nothing is stored.</p>
+        <p>
+          Fits posted points exactly as every deposited dataset is fitted. No sign-in; limited to 120 requests a minute per address; at most{" "}
+          {MAX_POINTS.toLocaleString("en")} points and 12 MB per request. Nothing is stored.
+        </p>
         <h3 className="font-semibold">Body</h3>
         <ul className="list-disc space-y-1 pl-6 text-sm">
           <li>
-            <code>points</code>: list of <code>{"{ T, k, sigmaLnK? }"}</code> — temperature, rate constant, and optionally the standard uncertainty of ln k. Weights 1/σ² apply only when every
-            point has one.
+            <code>points</code>: list of <code>{"{ T, k, sigmaLnK? }"}</code> — temperature, rate constant, and optionally the standard
+            uncertainty of ln k. Weights 1/σ² apply only when every point has one.
           </li>
           <li>
             <code>order</code>: 1, 2 or 3 (fixes the unit of k).
@@ -85,14 +92,16 @@ export default function ApiDocsPage() {
           </li>
           <li>
             <code>units</code>: <code>{"{ k?, T? }"}</code>; default the canonical units. k:{" "}
-            {[1, 2, 3].map((o) => SUPPORTED_UNITS.rateConstant[o as 1 | 2 | 3].map((u) => u.id).join(", ")).join("; ")}. T: {SUPPORTED_UNITS.temperature.map((u) => u.id).join(", ")}.
+            {[1, 2, 3].map((o) => SUPPORTED_UNITS.rateConstant[o as 1 | 2 | 3].map((u) => u.id).join(", ")).join("; ")}. T:{" "}
+            {SUPPORTED_UNITS.temperature.map((u) => u.id).join(", ")}.
           </li>
         </ul>
         <h3 className="font-semibold">Answer</h3>
         <p className="text-sm">
-          200 with <code>{"{ units, analysis, caution }"}</code>: <code>analysis</code> holds <code>n</code>, <code>weighted</code>, <code>arrhenius</code>, <code>modifiedArrhenius</code>,{" "}
-          <code>eyring</code>, <code>diagnostics</code>, <code>curvature</code>, <code>band</code> (50 temperatures) and <code>flags</code>. 422 for input that cannot be fitted, 413 for an
-          oversized body, 429 when rate limited (with <code>Retry-After</code>).
+          200 with <code>{"{ units, analysis, caution }"}</code>: <code>analysis</code> holds <code>n</code>, <code>weighted</code>,{" "}
+          <code>arrhenius</code>, <code>modifiedArrhenius</code>, <code>eyring</code>, <code>diagnostics</code>, <code>curvature</code>,{" "}
+          <code>band</code> (50 temperatures) and <code>flags</code>. 422 for input that cannot be fitted, 413 for an oversized body, 429
+          when rate limited (with <code>Retry-After</code>).
         </p>
         <pre className="overflow-x-auto rounded-md border border-line bg-panel p-4 text-xs">{example(appUrl())}</pre>
         <h3 className="font-semibold">Conventions</h3>
@@ -111,15 +120,18 @@ export default function ApiDocsPage() {
           Body sizes and safe retries
         </h2>
         <p className="text-sm">
-          Every request body is counted as it arrives, with or without <code>Content-Length</code>, and refused with 413 (<code>payload_too_large</code>) as soon as it crosses its
-          limit: deposit documents 25 MB, supplementary files 25 MB, analyses 12 MB, other JSON bodies 1 MB.
+          Every request body is counted as it arrives, with or without <code>Content-Length</code>, and refused with 413 (
+          <code>payload_too_large</code>) as soon as it crosses its limit: deposit documents 25 MB, supplementary files 25 MB, analyses 12
+          MB, other JSON bodies 1 MB.
         </p>
         <p className="text-sm">
           <code>POST /api/v1/datasets</code>, <code>POST /api/v1/versions/:id/next</code>, <code>POST /api/v1/versions/:id/files</code> and{" "}
-          <code>POST /api/v1/versions/:id/transitions</code> accept an <code>Idempotency-Key</code> header (1 to 255 visible ASCII characters, e.g. a fresh UUID, plain or in
-          quotes). Send the same key again when retrying after a timeout: for 24 hours, the same key from the same account with the same body answers with the first response
-          (same status and body, marked <code>Idempotent-Replayed: true</code>) and creates nothing new. The same key with another body is a 422; a retry while the first request
-          is still running is a 409. Refused requests store nothing and keep no key, so they may be retried with it. Files are matched on name and content.
+          <code>POST /api/v1/versions/:id/transitions</code> accept an <code>Idempotency-Key</code> header (1 to 255 visible ASCII
+          characters, e.g. a fresh UUID, plain or in quotes). Send the same key again when retrying after a timeout: for 24 hours, the same
+          key from the same account with the same body answers with the first response (same status and body, marked{" "}
+          <code>Idempotent-Replayed: true</code>) and creates nothing new. The same key with another body is a 422; a retry while the first
+          request is still running is a 409. Refused requests store nothing and keep no key, so they may be retried with it. Files are
+          matched on name and content.
         </p>
       </section>
 
@@ -129,13 +141,15 @@ export default function ApiDocsPage() {
         </h2>
         <ul className="list-disc space-y-1 pl-6 text-sm">
           <li>
-            <code>GET /api/health</code> — <code>{'{"status":"ok","database":"ok","databaseLatencyMs":2}'}</code> (one query through the app’s own connection pool, with its round-trip time), or 503 when that query fails or takes over 2 s.
+            <code>GET /api/health</code> — <code>{'{"status":"ok","database":"ok","databaseLatencyMs":2}'}</code> (one query through the
+            app’s own connection pool, with its round-trip time), or 503 when that query fails or takes over 2 s.
           </li>
           <li>
             <code>GET /api/v1/users</code> — everyone with an account (admins).
           </li>
           <li>
-            <code>PATCH /api/v1/users/:id</code> — body <code>{"{ role?, active? }"}</code>; changes a role or deactivates an account (admins; audited).
+            <code>PATCH /api/v1/users/:id</code> — body <code>{"{ role?, active? }"}</code>; changes a role or deactivates an account
+            (admins; audited).
           </li>
         </ul>
       </section>

@@ -48,15 +48,14 @@ function FieldRow({ field }: { field: FieldDoc }) {
           </span>
         )}
       </td>
-      <td className="text-xs">
-        {field.sectionId ? <a href={`#${field.sectionId}`}>{field.type}</a> : field.type}
-      </td>
+      <td className="text-xs">{field.sectionId ? <a href={`#${field.sectionId}`}>{field.type}</a> : field.type}</td>
       <td>
         <p className="font-medium">{field.title}</p>
         <p className="text-muted">{field.description}</p>
         {field.allowed && (
           <p className="mt-1 text-xs">
-            Allowed: {field.allowed.map((a, i) => (
+            Allowed:{" "}
+            {field.allowed.map((a, i) => (
               <span key={a}>
                 {i > 0 && ", "}
                 <code>{a}</code>
@@ -160,21 +159,26 @@ export default function DepositFormatPage() {
       <header className="space-y-3">
         <h1 className="text-3xl font-semibold">Deposit format</h1>
         <p className="max-w-3xl text-muted">
-          A dataset is deposited as one JSON document: who produced the data, the reaction, the method, the conditions, the units, the points themselves and where they were
-          published. The editor builds this document for you; scripts can send it to the API directly. This page describes version 1, field by field.
+          A dataset is deposited as one JSON document: who produced the data, the reaction, the method, the conditions, the units, the
+          points themselves and where they were published. The editor builds this document for you; scripts can send it to the API directly.
+          This page describes version 1, field by field.
         </p>
         <ul className="max-w-3xl list-disc space-y-1 pl-6 text-sm">
           <li>
-            JSON Schema (draft 2020-12): <a href={SCHEMA_PATH}>{SCHEMA_PATH}</a>, with <code>$id</code> <code className="break-all">{DEPOSIT_SCHEMA_ID}</code>. Point your editor at it
-            for completion.
+            JSON Schema (draft 2020-12): <a href={SCHEMA_PATH}>{SCHEMA_PATH}</a>, with <code>$id</code>{" "}
+            <code className="break-all">{DEPOSIT_SCHEMA_ID}</code>. Point your editor at it for completion.
           </li>
           <li>
             {MIN_POINTS} to {MAX_POINTS.toLocaleString("en-GB")} points per dataset; files for import (CSV, TSV or JSON) up to 25 MB.
           </li>
-          <li>Numbers stay as you deposit them; they are converted to K, Pa, J mol⁻¹ and molecule-based rate-constant units only for analysis and comparison.</li>
+          <li>
+            Numbers stay as you deposit them; they are converted to K, Pa, J mol⁻¹ and molecule-based rate-constant units only for analysis
+            and comparison.
+          </li>
         </ul>
         <p className="max-w-3xl rounded-md border border-warn/40 bg-panel p-3 text-sm" role="note">
-          Extrapolation outside the measured temperature range is unreliable, and safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.
+          Extrapolation outside the measured temperature range is unreliable, and safety-critical use (reactor, storage, process hazards)
+          needs qualified review under local codes.
         </p>
       </header>
 
@@ -206,12 +210,14 @@ export default function DepositFormatPage() {
           Fields
         </h2>
         <p className="max-w-3xl text-sm text-muted">
-          Fields marked <span className="text-error">*</span> are required. Fields not listed are refused, so a misspelt name is caught rather than silently dropped.
+          Fields marked <span className="text-error">*</span> are required. Fields not listed are refused, so a misspelt name is caught
+          rather than silently dropped.
         </p>
         <p className="max-w-3xl text-sm text-muted" id="text-rule">
-          Text may hold any Unicode character except U+0000 (NUL) and lone surrogates (half of a UTF-16 pair, written <code>\ud800</code> in JSON without its partner):
-          the database cannot store them. A document containing one is refused with a pointer to the text (or property name) holding it; nothing is removed or replaced
-          silently. The same rule holds for every form and for API query parameters.
+          Text may hold any Unicode character except U+0000 (NUL) and lone surrogates (half of a UTF-16 pair, written <code>\ud800</code> in
+          JSON without its partner): the database cannot store them. A document containing one is refused with a pointer to the text (or
+          property name) holding it; nothing is removed or replaced silently. The same rule holds for every form and for API query
+          parameters.
         </p>
         {sections.map((s) => (
           <SchemaSection key={s.id} section={s} />
@@ -241,8 +247,8 @@ export default function DepositFormatPage() {
           Supported units
         </h2>
         <p className="max-w-3xl text-sm text-muted">
-          Write exponents as digits (cm3), with a caret (cm^3) or as superscripts (cm³); a dot or an asterisk between factors reads as a space. Case matters: M is molar, m is metre.
-          The rate-constant unit must belong to the reaction order.
+          Write exponents as digits (cm3), with a caret (cm^3) or as superscripts (cm³); a dot or an asterisk between factors reads as a
+          space. Case matters: M is molar, m is metre. The rate-constant unit must belong to the reaction order.
         </p>
         <div className="grid gap-6 lg:grid-cols-2">
           <UnitTable caption="Rate constants, first order" units={SUPPORTED_UNITS.rateConstant[1]} />
@@ -259,10 +265,11 @@ export default function DepositFormatPage() {
           How problems are reported
         </h2>
         <p className="max-w-3xl text-sm text-muted">
-          Every problem comes with a JSON pointer to the value (<code>/points/2/k</code> is the third point&apos;s rate constant), the value itself where there is one, and a sentence
-          saying what to change. The editor shows it beside the field or row; the API answers <code>422</code> with the list under <code>errors</code> in an{" "}
-          <code>application/problem+json</code> body. At most 200 problems are listed at once. These are the real messages for a copy of the example below with a mistyped number,
-          a negative rate constant, a wrong unit and the reaction order left out:
+          Every problem comes with a JSON pointer to the value (<code>/points/2/k</code> is the third point&apos;s rate constant), the value
+          itself where there is one, and a sentence saying what to change. The editor shows it beside the field or row; the API answers{" "}
+          <code>422</code> with the list under <code>errors</code> in an <code>application/problem+json</code> body. At most 200 problems
+          are listed at once. These are the real messages for a copy of the example below with a mistyped number, a negative rate constant,
+          a wrong unit and the reaction order left out:
         </p>
         <div className="overflow-x-auto">
           <table className="table">
@@ -289,12 +296,17 @@ export default function DepositFormatPage() {
           A complete example
         </h2>
         <p className="max-w-3xl text-sm text-muted">
-          OH + CH₄ → H₂O + CH₃. The people, title, funder, DOI and every number are invented for this page; nothing is taken from a publication. Its description renders like this:
+          OH + CH₄ → H₂O + CH₃. The people, title, funder, DOI and every number are invented for this page; nothing is taken from a
+          publication. Its description renders like this:
         </p>
         <div className="card max-w-3xl">
           <MarkdownText text={EXAMPLE_DEPOSIT.description} />
         </div>
-        <pre className="max-h-[40rem] overflow-auto rounded-lg border border-line bg-panel p-4 font-mono text-xs" tabIndex={0} aria-label="Example deposit document (JSON)">
+        <pre
+          className="max-h-[40rem] overflow-auto rounded-lg border border-line bg-panel p-4 font-mono text-xs"
+          tabIndex={0}
+          aria-label="Example deposit document (JSON)"
+        >
           {JSON.stringify(EXAMPLE_DEPOSIT, null, 2)}
         </pre>
         <p className="text-sm">

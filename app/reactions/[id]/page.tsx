@@ -5,7 +5,14 @@ import { ConsensusPlot } from "@/components/consensus-plot";
 import { StateLabel } from "@/components/state-label";
 import { renderSpeciesSvg } from "@/lib/chem";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
-import { GAS_CONSTANT, consensus, getCanonicalRateConstantUnit, type AnalysisResult, type ConsensusResult, type ReactionOrder } from "@/lib/kinetics";
+import {
+  GAS_CONSTANT,
+  consensus,
+  getCanonicalRateConstantUnit,
+  type AnalysisResult,
+  type ConsensusResult,
+  type ReactionOrder,
+} from "@/lib/kinetics";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { getReaction, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
 import { formatSignificant } from "@/lib/format";
@@ -28,7 +35,9 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
   let result: ConsensusResult | null = null;
   if (published.length >= 2) result = consensus(published.map((v) => ({ id: String(v.versionId), points: v.points, order })));
   const member = (versionId: number) => result?.members.find((m) => m.id === String(versionId));
-  const pictures = await Promise.all(reaction.participants.map((p) => (p.smiles ? renderSpeciesSvg(p.smiles, { width: 140, height: 100 }).catch(() => null) : null)));
+  const pictures = await Promise.all(
+    reaction.participants.map((p) => (p.smiles ? renderSpeciesSvg(p.smiles, { width: 140, height: 100 }).catch(() => null) : null)),
+  );
   const kLabel = SUPPORTED_UNITS.rateConstant[order].find((u) => u.id === getCanonicalRateConstantUnit(order))?.label ?? "";
   const modified = result?.preferred === "modified_arrhenius" ? result.modifiedArrhenius : null;
   const preferred = result ? (modified ?? result.arrhenius) : null;
@@ -42,7 +51,14 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
           {reaction.participants.map((p, i) => (
             <li key={`${p.side}-${p.speciesId}`} className="card flex items-center gap-3 p-3 text-xs">
               {/* SVG drawn by RDKit on our server. */}
-              {pictures[i] && <div role="img" aria-label={`Structure of ${p.names[0] ?? p.formula}`} className="h-[70px] w-[98px] [&>svg]:h-full [&>svg]:w-full" dangerouslySetInnerHTML={{ __html: pictures[i]! }} />}
+              {pictures[i] && (
+                <div
+                  role="img"
+                  aria-label={`Structure of ${p.names[0] ?? p.formula}`}
+                  className="h-[70px] w-[98px] [&>svg]:h-full [&>svg]:w-full"
+                  dangerouslySetInnerHTML={{ __html: pictures[i]! }}
+                />
+              )}
               <div>
                 <p className="font-medium text-ink">
                   {p.side === "reactant" ? "Reactant" : "Product"}: {p.names[0] ?? p.formula}
@@ -63,23 +79,38 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
       ) : (
         <>
           <section className="card space-y-3" aria-labelledby="compare-heading">
-            <h2 id="compare-heading" className="text-xl font-semibold">All published datasets</h2>
+            <h2 id="compare-heading" className="text-xl font-semibold">
+              All published datasets
+            </h2>
             <ConsensusPlot
               kUnitLabel={kLabel}
               band={preferred ? preferred.band : null}
-              series={published.map((v) => ({ label: `v${v.number} · ${v.title.split(":").pop()?.trim() ?? v.title}`, points: v.points.map((p) => ({ T: p.T, lnk: Math.log(p.k) })), excluded: member(v.versionId)?.included === false }))}
+              series={published.map((v) => ({
+                label: `v${v.number} · ${v.title.split(":").pop()?.trim() ?? v.title}`,
+                points: v.points.map((p) => ({ T: p.T, lnk: Math.log(p.k) })),
+                excluded: member(v.versionId)?.included === false,
+              }))}
             />
             <p className="text-xs text-muted">{FIT_CAUTION}</p>
           </section>
 
           {result && preferred && (
             <section className="card space-y-3" aria-labelledby="consensus-heading">
-              <h2 id="consensus-heading" className="text-xl font-semibold">Consensus of {result.datasets} datasets</h2>
+              <h2 id="consensus-heading" className="text-xl font-semibold">
+                Consensus of {result.datasets} datasets
+              </h2>
               <p className="text-sm">
-                k = {sig(preferred.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp({preferred.params.Ea >= 0 ? "−" : "+"}{sig(Math.abs(preferred.params.Ea) / GAS_CONSTANT, 4)} K / T) {kLabel}, {Math.round(result.range.Tmin)}–{Math.round(result.range.Tmax)} K
+                k = {sig(preferred.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp(
+                {preferred.params.Ea >= 0 ? "−" : "+"}
+                {sig(Math.abs(preferred.params.Ea) / GAS_CONSTANT, 4)} K / T) {kLabel}, {Math.round(result.range.Tmin)}–
+                {Math.round(result.range.Tmax)} K
               </p>
               <p className="text-sm text-muted">
-                Uncertainty factor (95 %): {preferred.uncertaintyFactor.map((u) => `f = ${sig(u.f)} at ${Math.round(u.T)} K${u.extrapolated ? " (outside the data)" : ""}`).join("; ")}. Between-dataset spread τ² = {sig(preferred.tau2)} (ln k)², I² = {Math.round(preferred.i2 * 100)} %.
+                Uncertainty factor (95 %):{" "}
+                {preferred.uncertaintyFactor
+                  .map((u) => `f = ${sig(u.f)} at ${Math.round(u.T)} K${u.extrapolated ? " (outside the data)" : ""}`)
+                  .join("; ")}
+                . Between-dataset spread τ² = {sig(preferred.tau2)} (ln k)², I² = {Math.round(preferred.i2 * 100)} %.
               </p>
               <p className="text-xs text-muted">{result.method}</p>
               {result.flags.length > 0 && (
@@ -95,7 +126,9 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
           )}
 
           <section className="card overflow-x-auto p-0" aria-labelledby="list-heading">
-            <h2 id="list-heading" className="px-6 pt-5 text-xl font-semibold">Datasets</h2>
+            <h2 id="list-heading" className="px-6 pt-5 text-xl font-semibold">
+              Datasets
+            </h2>
             <table className="table mt-2">
               <thead>
                 <tr>
@@ -115,7 +148,8 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
                   return (
                     <tr key={v.versionId}>
                       <td>
-                        <Link href={`/datasets/${v.datasetId}/v${v.number}`}>{v.title}</Link> <span className="text-muted">v{v.number}</span>
+                        <Link href={`/datasets/${v.datasetId}/v${v.number}`}>{v.title}</Link>{" "}
+                        <span className="text-muted">v{v.number}</span>
                       </td>
                       <td>
                         <StateLabel state={v.state} />
@@ -127,7 +161,9 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
                       <td>{v.pointCount}</td>
                       <td>{a ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
                       <td>
-                        {m?.offsetFromOthersLog10 !== null && m?.offsetFromOthersLog10 !== undefined ? sig(m.offsetFromOthersLog10, 2) : "—"}
+                        {m?.offsetFromOthersLog10 !== null && m?.offsetFromOthersLog10 !== undefined
+                          ? sig(m.offsetFromOthersLog10, 2)
+                          : "—"}
                         {m?.zScore !== null && m?.zScore !== undefined ? ` (z = ${sig(m.zScore, 2)})` : ""}
                       </td>
                     </tr>

@@ -21,7 +21,15 @@ const doneWords: Record<string, string> = {
 };
 
 /** Start the review, or record a decision with its reason; or retract a published version. */
-export function DecisionForm({ versionId, coEditing, capabilities }: { versionId: number; coEditing: boolean; capabilities: VersionCapabilities }) {
+export function DecisionForm({
+  versionId,
+  coEditing,
+  capabilities,
+}: {
+  versionId: number;
+  coEditing: boolean;
+  capabilities: VersionCapabilities;
+}) {
   const router = useRouter();
   const [pending, start] = useTransition();
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
@@ -60,7 +68,15 @@ export function DecisionForm({ versionId, coEditing, capabilities }: { versionId
         <label htmlFor="retract-notice" className="block text-sm font-medium">
           Retraction notice (shown publicly with the version)
         </label>
-        <textarea id="retract-notice" value={reason} onChange={(e) => setReason(e.target.value)} rows={3} className="field-input" required minLength={3} />
+        <textarea
+          id="retract-notice"
+          value={reason}
+          onChange={(e) => setReason(e.target.value)}
+          rows={3}
+          className="field-input"
+          required
+          minLength={3}
+        />
         <button type="submit" className="btn-danger" disabled={pending}>
           Retract this version
         </button>
@@ -95,7 +111,15 @@ export function DecisionForm({ versionId, coEditing, capabilities }: { versionId
           <legend className="text-sm font-medium">Decision</legend>
           {decisions.map((d) => (
             <label key={d.value} className="flex items-start gap-2 text-sm">
-              <input type="radio" name="decision" value={d.value} checked={choice === d.value} onChange={() => setChoice(d.value)} className="mt-1" required />
+              <input
+                type="radio"
+                name="decision"
+                value={d.value}
+                checked={choice === d.value}
+                onChange={() => setChoice(d.value)}
+                className="mt-1"
+                required
+              />
               <span>
                 <span className="font-medium">{d.label}</span> <span className="text-muted">— {d.hint}</span>
               </span>
@@ -105,7 +129,15 @@ export function DecisionForm({ versionId, coEditing, capabilities }: { versionId
         <label htmlFor="decision-reason" className="block text-sm font-medium">
           Reason (sent to the authors and kept on the record)
         </label>
-        <textarea id="decision-reason" value={reason} onChange={(e) => setReason(e.target.value)} rows={4} className="field-input" required minLength={3} />
+        <textarea
+          id="decision-reason"
+          value={reason}
+          onChange={(e) => setReason(e.target.value)}
+          rows={4}
+          className="field-input"
+          required
+          minLength={3}
+        />
         <button type="submit" className="btn-primary" disabled={pending}>
           {pending ? "Recording…" : "Record the decision"}
         </button>

@@ -70,7 +70,11 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
         <h1 className="text-3xl font-semibold">{version.title}</h1>
         <p className="flex flex-wrap items-center gap-3 text-sm text-muted">
           <StateLabel state={version.state} /> <span>version {version.number}</span> <span>{version.pointCount} points</span>
-          {version.tMin !== null && <span>{Math.round(version.tMin)}–{Math.round(version.tMax ?? 0)} K</span>}
+          {version.tMin !== null && (
+            <span>
+              {Math.round(version.tMin)}–{Math.round(version.tMax ?? 0)} K
+            </span>
+          )}
           {version.versionIdentifier && <span>identifier {version.versionIdentifier}</span>}
         </p>
       </header>
@@ -79,14 +83,22 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
         <div className="space-y-6">
           {typeof (version.payload as { description?: unknown }).description === "string" && (
             <section className="card space-y-2" aria-labelledby="about-heading">
-              <h2 id="about-heading" className="text-xl font-semibold">What the authors say</h2>
+              <h2 id="about-heading" className="text-xl font-semibold">
+                What the authors say
+              </h2>
               <MarkdownText text={(version.payload as { description: string }).description} />
             </section>
           )}
           <section className="card space-y-3" aria-labelledby="report-heading">
-            <h2 id="report-heading" className="text-xl font-semibold">Check report</h2>
+            <h2 id="report-heading" className="text-xl font-semibold">
+              Check report
+            </h2>
             <h3 className="font-semibold">Deposit format</h3>
-            {schema.ok ? <p className="text-sm text-ok">Valid against deposit format v1.</p> : <CheckList items={schema.errors.map((e) => ({ code: "schema", severity: "error", message: `${e.pointer}: ${e.message}` }))} />}
+            {schema.ok ? (
+              <p className="text-sm text-ok">Valid against deposit format v1.</p>
+            ) : (
+              <CheckList items={schema.errors.map((e) => ({ code: "schema", severity: "error", message: `${e.pointer}: ${e.message}` }))} />
+            )}
             <h3 className="font-semibold">Reaction and units</h3>
             <CheckList items={analysis?.checks ?? []} />
             <h3 className="font-semibold">Fit diagnostics</h3>
@@ -110,7 +122,9 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
                     </tr>
                     <tr>
                       <td>Ea</td>
-                      <td>{reported ? `${sig(reported.Ea / 1000)} kJ mol⁻¹ (E/R = ${sig(reported.Ea / GAS_CONSTANT)} K)` : "not reported"}</td>
+                      <td>
+                        {reported ? `${sig(reported.Ea / 1000)} kJ mol⁻¹ (E/R = ${sig(reported.Ea / GAS_CONSTANT)} K)` : "not reported"}
+                      </td>
                       <td>
                         {sig(result.arrhenius.params.Ea / 1000)} kJ mol⁻¹ (E/R = {sig(result.arrhenius.params.Ea / GAS_CONSTANT)} K)
                       </td>
@@ -130,21 +144,30 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
 
           {result && points.length > 0 && (
             <section className="card space-y-2" aria-labelledby="plot-heading">
-              <h2 id="plot-heading" className="text-xl font-semibold">Arrhenius plot</h2>
-              <ArrheniusPlot points={points.map((p, i) => ({ T: p.T, lnk: Math.log(p.k), outlier: outliers.has(i) }))} band={result.band} kUnitLabel="canonical units" />
+              <h2 id="plot-heading" className="text-xl font-semibold">
+                Arrhenius plot
+              </h2>
+              <ArrheniusPlot
+                points={points.map((p, i) => ({ T: p.T, lnk: Math.log(p.k), outlier: outliers.has(i) }))}
+                band={result.band}
+                kUnitLabel="canonical units"
+              />
               <p className="text-xs text-muted">{FIT_CAUTION}</p>
             </section>
           )}
 
           <section className="card space-y-2" aria-labelledby="dup-heading">
-            <h2 id="dup-heading" className="text-xl font-semibold">Possible duplicates</h2>
+            <h2 id="dup-heading" className="text-xl font-semibold">
+              Possible duplicates
+            </h2>
             {duplicates.length === 0 ? (
               <p className="text-sm text-muted">No other dataset of this reaction overlaps in temperature or cites the same source.</p>
             ) : (
               <ul className="list-disc space-y-1 pl-5 text-sm">
                 {duplicates.map((d) => (
                   <li key={d.versionId}>
-                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, {d.state.replace("_", " ")}, {Math.round(d.tMin ?? 0)}–{Math.round(d.tMax ?? 0)} K){d.sameDoi ? " — same source DOI" : ""}
+                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, {d.state.replace("_", " ")},{" "}
+                    {Math.round(d.tMin ?? 0)}–{Math.round(d.tMax ?? 0)} K){d.sameDoi ? " — same source DOI" : ""}
                   </li>
                 ))}
               </ul>
@@ -152,7 +175,9 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
           </section>
 
           <section className="card space-y-2" aria-labelledby="diff-heading">
-            <h2 id="diff-heading" className="text-xl font-semibold">Changes since the previous version</h2>
+            <h2 id="diff-heading" className="text-xl font-semibold">
+              Changes since the previous version
+            </h2>
             {!diff ? (
               <p className="text-sm text-muted">This is the first version.</p>
             ) : diff.length === 0 ? (
@@ -172,18 +197,23 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
 
         <aside className="space-y-6">
           <section className="card space-y-3" aria-labelledby="decide-heading">
-            <h2 id="decide-heading" className="text-xl font-semibold">Decision</h2>
+            <h2 id="decide-heading" className="text-xl font-semibold">
+              Decision
+            </h2>
             <DecisionForm versionId={version.id} coEditing={datasetRole !== null} capabilities={capabilities} />
           </section>
           <section className="card space-y-2" aria-labelledby="history-heading">
-            <h2 id="history-heading" className="text-xl font-semibold">Earlier decisions</h2>
+            <h2 id="history-heading" className="text-xl font-semibold">
+              Earlier decisions
+            </h2>
             {decisions.length === 0 ? (
               <p className="text-sm text-muted">None yet.</p>
             ) : (
               <ul className="space-y-2 text-sm">
                 {decisions.map((d) => (
                   <li key={d.id}>
-                    <span className="font-medium">{d.decision.replace("_", " ")}</span> by {d.curator}, {d.createdAt.toISOString().slice(0, 10)}: {d.reason}
+                    <span className="font-medium">{d.decision.replace("_", " ")}</span> by {d.curator},{" "}
+                    {d.createdAt.toISOString().slice(0, 10)}: {d.reason}
                   </li>
                 ))}
               </ul>

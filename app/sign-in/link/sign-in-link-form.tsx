@@ -18,7 +18,11 @@ export function SignInLinkForm({ token }: { token: string }) {
     const result = await signIn("sign-in-link", { token, redirect: false });
     setPending(false);
     if (!result || result.error) {
-      setError(result?.error && result.error !== "CredentialsSignin" ? result.error : "This link is invalid, has expired, or was already used. Sign in again to get a new one.");
+      setError(
+        result?.error && result.error !== "CredentialsSignin"
+          ? result.error
+          : "This link is invalid, has expired, or was already used. Sign in again to get a new one.",
+      );
       return;
     }
     router.push("/");
@@ -27,7 +31,9 @@ export function SignInLinkForm({ token }: { token: string }) {
 
   return (
     <form onSubmit={onSubmit} className="space-y-4">
-      <p className="text-sm">The link works once. Sign-in for your account was paused after many failed attempts; this signs you in and lifts the pause.</p>
+      <p className="text-sm">
+        The link works once. Sign-in for your account was paused after many failed attempts; this signs you in and lifts the pause.
+      </p>
       {error && (
         <p role="alert" className="rounded-md border border-error/40 px-3 py-2 text-sm text-error">
           {error}

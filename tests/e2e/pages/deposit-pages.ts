@@ -64,7 +64,19 @@ export class DepositEditorPage {
     return this.section("About the dataset").getByLabel(/^Description/);
   }
 
-  async fillReaction({ reactants, products, reactionClass, order, phase }: { reactants: Species[]; products: Species[]; reactionClass: string; order: "1" | "2" | "3"; phase: string }) {
+  async fillReaction({
+    reactants,
+    products,
+    reactionClass,
+    order,
+    phase,
+  }: {
+    reactants: Species[];
+    products: Species[];
+    reactionClass: string;
+    order: "1" | "2" | "3";
+    phase: string;
+  }) {
     await this.fillSpecies("Reactant", reactants);
     await this.fillSpecies("Product", products);
     await this.page.getByLabel("Reaction class").selectOption({ label: reactionClass });
@@ -197,7 +209,8 @@ export class MailLog {
   async expectCounts(expected: { to: string; subject: string; count: number }[]) {
     await expect(async () => {
       await this.page.goto("/admin/mail");
-      for (const e of expected) await expect(this.rows(e.to, e.subject), `${e.count} × “${e.subject}” to ${e.to}`).toHaveCount(e.count, { timeout: 500 });
+      for (const e of expected)
+        await expect(this.rows(e.to, e.subject), `${e.count} × “${e.subject}” to ${e.to}`).toHaveCount(e.count, { timeout: 500 });
     }).toPass({ timeout: 30_000 });
   }
 }

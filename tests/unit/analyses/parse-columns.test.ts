@@ -28,7 +28,9 @@ describe("parseColumns (pasted spreadsheet columns)", () => {
 
 describe("decimal commas", () => {
   it("are refused with the corrected number shown, never split into two columns", () => {
-    expect(parseColumns("250;2,1e-15").errors).toEqual([{ line: 1, message: "line 1: “2,1e-15” has a decimal comma; write it with a point (2.1e-15)" }]);
+    expect(parseColumns("250;2,1e-15").errors).toEqual([
+      { line: 1, message: "line 1: “2,1e-15” has a decimal comma; write it with a point (2.1e-15)" },
+    ]);
     expect(parseColumns("250\t2,1e-15").errors).toHaveLength(1);
   });
   it("a comma between two numbers still separates columns", () => {

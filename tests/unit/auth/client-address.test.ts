@@ -26,12 +26,19 @@ describe("clientAddress: only the front server's word counts", () => {
   });
 
   it("believes nothing when no front server is configured", () => {
-    expect(clientAddress(new Request("http://x/", { headers: { [CLIENT_ADDRESS_HEADER]: "198.51.100.7", [EDGE_KEY_HEADER]: "" } }))).toBe(UNKNOWN_ADDRESS);
+    expect(clientAddress(new Request("http://x/", { headers: { [CLIENT_ADDRESS_HEADER]: "198.51.100.7", [EDGE_KEY_HEADER]: "" } }))).toBe(
+      UNKNOWN_ADDRESS,
+    );
   });
 });
 
 describe("TRUST_PROXY", () => {
-  const spoofed = { "x-forwarded-for": "203.0.113.50, 192.0.2.10", "x-forwarded-host": "evil.example", "x-real-ip": "203.0.113.99", [CLIENT_ADDRESS_HEADER]: "203.0.113.1" };
+  const spoofed = {
+    "x-forwarded-for": "203.0.113.50, 192.0.2.10",
+    "x-forwarded-host": "evil.example",
+    "x-real-ip": "203.0.113.99",
+    [CLIENT_ADDRESS_HEADER]: "203.0.113.1",
+  };
 
   it("unset: the socket address, and every forwarding header dropped", () => {
     const h = forwardedHeaders(fakeRequest("::ffff:127.0.0.1", { ...spoofed }), compileTrustProxy(""), "key");
@@ -43,8 +50,12 @@ describe("TRUST_PROXY", () => {
   });
 
   it("a hop count believes that many proxies, counted from the socket", () => {
-    expect(forwardedHeaders(fakeRequest("10.0.0.2", { ...spoofed }), compileTrustProxy("1"), "k")[CLIENT_ADDRESS_HEADER]).toBe("192.0.2.10");
-    expect(forwardedHeaders(fakeRequest("10.0.0.2", { ...spoofed }), compileTrustProxy("2"), "k")[CLIENT_ADDRESS_HEADER]).toBe("203.0.113.50");
+    expect(forwardedHeaders(fakeRequest("10.0.0.2", { ...spoofed }), compileTrustProxy("1"), "k")[CLIENT_ADDRESS_HEADER]).toBe(
+      "192.0.2.10",
+    );
+    expect(forwardedHeaders(fakeRequest("10.0.0.2", { ...spoofed }), compileTrustProxy("2"), "k")[CLIENT_ADDRESS_HEADER]).toBe(
+      "203.0.113.50",
+    );
     expect(forwardedHeaders(fakeRequest("10.0.0.2", { ...spoofed }), compileTrustProxy("1"), "k")["x-forwarded-host"]).toBe("evil.example");
   });
 

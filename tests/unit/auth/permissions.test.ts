@@ -65,7 +65,11 @@ describe("assertAllowed", () => {
     ["admin manage users → allowed", () => assertAllowed(admin, { permission: "user.manage" }), "allowed"],
     ["owner of the record → allowed", () => assertAllowed(researcher, { permission: "dataset.deposit", ownerId: 1 }), "allowed"],
     ["someone else's record → 403", () => assertAllowed(researcher, { permission: "dataset.deposit", ownerId: 99 }), 403],
-    ["curator override on someone else's record → allowed", () => assertAllowed(curator, { ownerId: 99, overridePermission: "dataset.review" }), "allowed"],
+    [
+      "curator override on someone else's record → allowed",
+      () => assertAllowed(curator, { ownerId: 99, overridePermission: "dataset.review" }),
+      "allowed",
+    ],
     ["researcher has no override → 403", () => assertAllowed(researcher, { ownerId: 99, overridePermission: "dataset.review" }), 403],
   ];
   for (const [name, fn, status] of cases) it(name, () => expect(statusOf(fn)).toBe(status));

@@ -50,7 +50,9 @@ describe("checkBalance", () => {
   });
 
   it("checks charge: OH⁻ + H⁺ → H2O balances, OH⁻ → OH does not", () => {
-    expect(checkBalance({ reactants: [species({ H: 1, O: 1 }, -1), species({ H: 1 }, 1)], products: [species({ H: 2, O: 1 })] }).balanced).toBe(true);
+    expect(
+      checkBalance({ reactants: [species({ H: 1, O: 1 }, -1), species({ H: 1 }, 1)], products: [species({ H: 2, O: 1 })] }).balanced,
+    ).toBe(true);
     const result = checkBalance({ reactants: [species({ H: 1, O: 1 }, -1)], products: [species({ H: 1, O: 1 })] });
     expect(result.balanced).toBe(false);
     expect(result.elementDifferences).toEqual({});
@@ -60,8 +62,12 @@ describe("checkBalance", () => {
 
   it("weights by coefficients, fractional ones included", () => {
     // 2 H2 + O2 → 2 H2O and CO + ½ O2 → CO2.
-    expect(checkBalance({ reactants: [species({ H: 2 }, 0, 2), species({ O: 2 })], products: [species({ H: 2, O: 1 }, 0, 2)] }).balanced).toBe(true);
-    expect(checkBalance({ reactants: [species({ C: 1, O: 1 }), species({ O: 2 }, 0, 0.5)], products: [species({ C: 1, O: 2 })] }).balanced).toBe(true);
+    expect(
+      checkBalance({ reactants: [species({ H: 2 }, 0, 2), species({ O: 2 })], products: [species({ H: 2, O: 1 }, 0, 2)] }).balanced,
+    ).toBe(true);
+    expect(
+      checkBalance({ reactants: [species({ C: 1, O: 1 }), species({ O: 2 }, 0, 0.5)], products: [species({ C: 1, O: 2 })] }).balanced,
+    ).toBe(true);
     // 0.1 + 0.2 of O2 against 0.3 of O2 is balanced despite floating point.
     expect(
       checkBalance({ reactants: [species({ O: 2 }, 0, 0.1), species({ O: 2 }, 0, 0.2)], products: [species({ O: 2 }, 0, 0.3)] }).balanced,

@@ -180,7 +180,14 @@ describe("describeSpecies: from an InChI", () => {
     async (smiles) => {
       const fromSmiles = await describeSpecies({ smiles });
       const fromInchi = await describeSpecies({ inchi: fromSmiles.inchi });
-      const pick = ({ inchi, inchiKey, formula, charge, molarMass, elements }: SpeciesIdentity) => ({ inchi, inchiKey, formula, charge, molarMass, elements });
+      const pick = ({ inchi, inchiKey, formula, charge, molarMass, elements }: SpeciesIdentity) => ({
+        inchi,
+        inchiKey,
+        formula,
+        charge,
+        molarMass,
+        elements,
+      });
       expect(pick(fromInchi)).toEqual(pick(fromSmiles));
       // MinimalLib cannot build a structure from an InChI, so these stay unknown.
       expect(fromInchi.canonicalSmiles).toBeNull();
@@ -202,7 +209,12 @@ describe("describeSpecies: from an InChI", () => {
       /SMILES "C" and the InChI "InChI=1S\/H2O\/h1H2" describe different species.*VNWKTOKETHGBQD-UHFFFAOYSA-N.*XLYOFNOQVPJJNP-UHFFFAOYSA-N/,
     );
     // Hydroxyl and hydroxide differ only by charge; that is still a different species.
-    await expectChemError(() => describeSpecies({ smiles: "[OH]", inchi: "InChI=1S/H2O/h1H2/p-1" }), "identity_mismatch", "inchi", /different species/);
+    await expectChemError(
+      () => describeSpecies({ smiles: "[OH]", inchi: "InChI=1S/H2O/h1H2/p-1" }),
+      "identity_mismatch",
+      "inchi",
+      /different species/,
+    );
   });
 });
 
@@ -234,11 +246,21 @@ describe("describeSpecies: messages for what cannot be read", () => {
   });
 
   it("rejects a malformed InChI even when a SMILES is given too", async () => {
-    await expectChemError(() => describeSpecies({ smiles: "C", inchi: "InChI=1S/CH4/h1H4/zz" }), "invalid_inchi", "inchi", /unexpected layer/);
+    await expectChemError(
+      () => describeSpecies({ smiles: "C", inchi: "InChI=1S/CH4/h1H4/zz" }),
+      "invalid_inchi",
+      "inchi",
+      /unexpected layer/,
+    );
   });
 
   it("asks for a structure when neither field is filled", async () => {
-    await expectChemError(() => describeSpecies({ smiles: "  ", inchi: "" }), "missing_structure", "smiles", /Give a SMILES or a standard InChI/);
+    await expectChemError(
+      () => describeSpecies({ smiles: "  ", inchi: "" }),
+      "missing_structure",
+      "smiles",
+      /Give a SMILES or a standard InChI/,
+    );
   });
 
   it.each([

@@ -24,7 +24,10 @@ describe("reactionKey", () => {
       [reactants, products],
       [[...reactants].reverse(), products],
       [reactants, [...products].reverse()],
-      [[reactants[1], reactants[2], reactants[0]], [products[2], products[0], products[1]]],
+      [
+        [reactants[1], reactants[2], reactants[0]],
+        [products[2], products[0], products[1]],
+      ],
     ];
     for (const [r, p] of permutations) expect(reactionKey({ reactants: r, products: p })).toBe(expected);
   });
@@ -45,7 +48,9 @@ describe("reactionKey", () => {
   });
 
   it("tells 2 A → B from A → B", () => {
-    expect(reactionKey({ reactants: [one(CH3, 2)], products: [one(H2)] })).not.toBe(reactionKey({ reactants: [one(CH3)], products: [one(H2)] }));
+    expect(reactionKey({ reactants: [one(CH3, 2)], products: [one(H2)] })).not.toBe(
+      reactionKey({ reactants: [one(CH3)], products: [one(H2)] }),
+    );
   });
 
   it.each([

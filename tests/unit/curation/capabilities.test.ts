@@ -1,6 +1,12 @@
 import { describe, expect, it } from "vitest";
 import type { Role } from "@/db/users";
-import { assertVersionCapability, versionActions, versionCapabilities, versionStates, type VersionAction } from "@/lib/curation/capabilities";
+import {
+  assertVersionCapability,
+  versionActions,
+  versionCapabilities,
+  versionStates,
+  type VersionAction,
+} from "@/lib/curation/capabilities";
 import type { CoEditorRole, VersionState } from "@/lib/curation/lifecycle";
 import { AppError } from "@/lib/errors";
 
@@ -106,6 +112,8 @@ describe("assertVersionCapability: 404 hides, 403 refuses the person, 409 refuse
   }
 
   it("tells a co-editing curator why they may not review", () => {
-    expect(() => assertVersionCapability({ state: "in_review", siteRole: "curator", datasetRole: "editor" }, "accept")).toThrow(/another curator/);
+    expect(() => assertVersionCapability({ state: "in_review", siteRole: "curator", datasetRole: "editor" }, "accept")).toThrow(
+      /another curator/,
+    );
   });
 });

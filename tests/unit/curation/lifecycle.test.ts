@@ -63,7 +63,9 @@ describe("lifecycle rules", () => {
   it("every state can be reached and published is left only by retraction", () => {
     const reachable = new Set<VersionState>(["draft", ...Object.values(lifecycle).map((r) => r.to)]);
     expect([...reachable].sort()).toEqual(["changes_requested", "declined", "draft", "in_review", "published", "retracted", "submitted"]);
-    const fromPublished = Object.entries(lifecycle).filter(([, r]) => r.from.includes("published")).map(([t]) => t);
+    const fromPublished = Object.entries(lifecycle)
+      .filter(([, r]) => r.from.includes("published"))
+      .map(([t]) => t);
     expect(fromPublished).toEqual(["retract"]);
   });
 });

@@ -5,7 +5,15 @@ import { EXAMPLE_DEPOSIT, normalisePoints, type DepositDocument } from "@/lib/de
 describe("checkAndAnalyseDocument (the worker's part of preparing a deposit)", () => {
   it("answers malformed JSON and schema problems as data with pointers", () => {
     expect(checkAndAnalyseDocument('{"title": }')).toMatchObject({ ok: false, errors: [{ pointer: "" }] });
-    const bad = checkAndAnalyseDocument(JSON.stringify({ ...EXAMPLE_DEPOSIT, points: [{ T: "x", k: -1 }, { T: 300, k: 1e-12 }] }));
+    const bad = checkAndAnalyseDocument(
+      JSON.stringify({
+        ...EXAMPLE_DEPOSIT,
+        points: [
+          { T: "x", k: -1 },
+          { T: 300, k: 1e-12 },
+        ],
+      }),
+    );
     expect(bad.ok).toBe(false);
     if (!bad.ok) expect(bad.errors.map((e) => e.pointer)).toEqual(["/points/0/T", "/points/0/k"]);
   });

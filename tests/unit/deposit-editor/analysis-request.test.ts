@@ -6,15 +6,29 @@ const row = (T: string, k: string, extra: Partial<PointRow> = {}): PointRow => (
 
 describe("buildAnalysisRequest", () => {
   it("posts the readable rows in the document's units and maps each back to its table row", () => {
-    const built = buildAnalysisRequest([row("250", "2.09e-15"), row("", "3e-15"), row("280", "abc"), row("300", "6e-15")], 2, { k: "cm3 molecule-1 s-1", T: "K" });
-    expect(built.body).toEqual({ points: [{ T: 250, k: 2.09e-15 }, { T: 300, k: 6e-15 }], order: 2, units: { k: "cm3 molecule-1 s-1", T: "K" } });
+    const built = buildAnalysisRequest([row("250", "2.09e-15"), row("", "3e-15"), row("280", "abc"), row("300", "6e-15")], 2, {
+      k: "cm3 molecule-1 s-1",
+      T: "K",
+    });
+    expect(built.body).toEqual({
+      points: [
+        { T: 250, k: 2.09e-15 },
+        { T: 300, k: 6e-15 },
+      ],
+      order: 2,
+      units: { k: "cm3 molecule-1 s-1", T: "K" },
+    });
     expect(built.rows).toEqual([0, 3]);
     expect(built.skipped).toBe(2);
   });
 
   it("turns stated uncertainties into σ(ln k) as the stored analysis does: 8 % at 2σ → 0.04; factor 1.1 at 1σ → ln 1.1", () => {
     const built = buildAnalysisRequest(
-      [row("300", "1e-12", { u: "8", uKind: "relative", uConfidence: "2sigma" }), row("350", "2e-12", { u: "1.1", uKind: "factor" }), row("400", "3e-12", { u: "0.9", uKind: "factor" })],
+      [
+        row("300", "1e-12", { u: "8", uKind: "relative", uConfidence: "2sigma" }),
+        row("350", "2e-12", { u: "1.1", uKind: "factor" }),
+        row("400", "3e-12", { u: "0.9", uKind: "factor" }),
+      ],
       2,
       { k: "cm3 molecule-1 s-1", T: "K" },
     );

@@ -18,7 +18,9 @@ describe("blankForm", () => {
   });
 
   it("leaves ORCID and affiliation empty when the person has none", () => {
-    expect(blankForm({ name: "Lindqvist, Tomas", orcid: null, affiliation: null }).creators).toEqual([{ name: "Lindqvist, Tomas", orcid: "", affiliation: "" }]);
+    expect(blankForm({ name: "Lindqvist, Tomas", orcid: null, affiliation: null }).creators).toEqual([
+      { name: "Lindqvist, Tomas", orcid: "", affiliation: "" },
+    ]);
   });
 
   it("gives a document the server refuses with a pointer per missing field, each of which the editor shows beside an input", () => {
@@ -82,7 +84,13 @@ describe("documentToForm and formToDocument", () => {
 
   it("split authors on semicolons (Family, Given) and keep a name without a comma whole", () => {
     const form = documentToForm(EXAMPLE_DEPOSIT);
-    form.source = { ...form.source, refTitle: "Rate constants of an example", refAuthors: "Okafor, Maren; Example Kinetics Consortium", refJournal: "Example Journal", refYear: "2021" };
+    form.source = {
+      ...form.source,
+      refTitle: "Rate constants of an example",
+      refAuthors: "Okafor, Maren; Example Kinetics Consortium",
+      refJournal: "Example Journal",
+      refYear: "2021",
+    };
     const ref = formToDocument(form).document.source.reference;
     expect(ref).toEqual({
       type: "article-journal",
@@ -102,7 +110,13 @@ describe("documentToForm and formToDocument", () => {
     const form = documentToForm(doc);
     expect(formToDocument(form).document.source).toEqual(doc.source);
     form.source = { ...form.source, refYear: "2019" };
-    expect(formToDocument(form).document.source.reference).toEqual({ type: "article-journal", title: "T", volume: 12, page: "100-110", issued: { "date-parts": [[2019]] } });
+    expect(formToDocument(form).document.source.reference).toEqual({
+      type: "article-journal",
+      title: "T",
+      volume: 12,
+      page: "100-110",
+      issued: { "date-parts": [[2019]] },
+    });
   });
 
   it("write the solvent only for the liquid phase and the surface only for the surface phase", () => {
@@ -118,7 +132,12 @@ describe("documentToForm and formToDocument", () => {
 
   it("leave out empty product rows when the products were not identified", () => {
     const form = documentToForm(EXAMPLE_DEPOSIT);
-    form.reaction = { ...form.reaction, products: [{ name: "", smiles: "", inchi: "", coefficient: "1" }], productsUnknown: true, productsUnknownReason: "overall removal of OH measured" };
+    form.reaction = {
+      ...form.reaction,
+      products: [{ name: "", smiles: "", inchi: "", coefficient: "1" }],
+      productsUnknown: true,
+      productsUnknownReason: "overall removal of OH measured",
+    };
     const doc = formToDocument(form).document;
     expect(doc.reaction.products).toEqual([]);
     expect(doc.reaction.productsUnknown).toEqual({ reason: "overall removal of OH measured" });

@@ -17,12 +17,16 @@ vi.mock("@/app/deposits/actions", () => ({ createDraftAction: vi.fn(), saveDraft
 const noop = () => {};
 
 function withContext(node: React.ReactElement, messages: Record<string, string[]> = {}, readOnly = false) {
-  return renderToStaticMarkup(h(EditorContextProvider, { value: { readOnly, messagesFor: (p: string) => messages[p] ?? [], clearErrors: noop } }, node));
+  return renderToStaticMarkup(
+    h(EditorContextProvider, { value: { readOnly, messagesFor: (p: string) => messages[p] ?? [], clearErrors: noop } }, node),
+  );
 }
 
 describe("fields", () => {
   it("show a problem beside its input, tied to it for screen readers", () => {
-    const html = withContext(h(AboutSection, { form: blankForm({ name: "Okafor, Maren" }), update: noop }), { "/title": ["Title must be at least 3 characters."] });
+    const html = withContext(h(AboutSection, { form: blankForm({ name: "Okafor, Maren" }), update: noop }), {
+      "/title": ["Title must be at least 3 characters."],
+    });
     expect(html).toContain('id="field-title"');
     expect(html).toMatch(/<input id="field-title"[^>]*aria-invalid="true"[^>]*aria-describedby="field-title-hint field-title-error"/);
     expect(html).toMatch(/id="field-title-error"[^>]*>.*Title must be at least 3 characters\./);
@@ -41,10 +45,15 @@ describe("fields", () => {
 });
 
 describe("PointsTable", () => {
-  const big: EditorForm = { ...blankForm(), points: Array.from({ length: 1200 }, (_, i) => ({ ...blankPoint(), T: String(200 + i / 10), k: "1e-12" })) };
+  const big: EditorForm = {
+    ...blankForm(),
+    points: Array.from({ length: 1200 }, (_, i) => ({ ...blankPoint(), T: String(200 + i / 10), k: "1e-12" })),
+  };
 
   it("shows the first 200 rows of a large table, with a note that every row is kept", () => {
-    const html = withContext(h(PointsTable, { form: big, update: noop, windowStart: 0, onWindowStart: noop, kLabel: "cm³ molecule⁻¹ s⁻¹", TLabel: "K" }));
+    const html = withContext(
+      h(PointsTable, { form: big, update: noop, windowStart: 0, onWindowStart: noop, kLabel: "cm³ molecule⁻¹ s⁻¹", TLabel: "K" }),
+    );
     expect(html).toContain("Showing rows 1–200 of 1,200");
     expect(html).toContain("every row is kept and saved");
     expect(html).toContain('id="field-points-199-T"');
@@ -52,7 +61,9 @@ describe("PointsTable", () => {
   });
 
   it("shows the window holding a row with a problem, and the problem in that row", () => {
-    const html = withContext(h(PointsTable, { form: big, update: noop, windowStart: 600, onWindowStart: noop, kLabel: "K", TLabel: "K" }), { "/points/650/k": ["Rate constant must be greater than 0."] });
+    const html = withContext(h(PointsTable, { form: big, update: noop, windowStart: 600, onWindowStart: noop, kLabel: "K", TLabel: "K" }), {
+      "/points/650/k": ["Rate constant must be greater than 0."],
+    });
     expect(html).toContain("Showing rows 601–800 of 1,200");
     expect(html).toMatch(/<input id="field-points-650-k"[^>]*aria-invalid="true"/);
     expect(html).toContain("Rate constant must be greater than 0.");
@@ -60,11 +71,13 @@ describe("PointsTable", () => {
 
   it("shows every row of a small table, labelled for screen readers by row", () => {
     const form = documentToForm(EXAMPLE_DEPOSIT);
-    const html = withContext(h(PointsTable, { form, update: noop, windowStart: 0, onWindowStart: noop, kLabel: "cm³ molecule⁻¹ s⁻¹", TLabel: "K" }));
+    const html = withContext(
+      h(PointsTable, { form, update: noop, windowStart: 0, onWindowStart: noop, kLabel: "cm³ molecule⁻¹ s⁻¹", TLabel: "K" }),
+    );
     expect(html).not.toContain("Showing rows");
     expect(html).toContain("k, row 10");
     expect(html).toContain("Pressure (Torr)");
-    expect(html).toContain("Remove<span class=\"sr-only\"> row 10</span>");
+    expect(html).toContain('Remove<span class="sr-only"> row 10</span>');
   });
 });
 
@@ -76,7 +89,16 @@ describe("ErrorSummary", () => {
       { pointer: "/reaction/solvent", message: "Solvent is required when the phase is liquid." },
       { pointer: "/points/650/k", message: "not positive" },
     ];
-    const html = renderToStaticMarkup(h(ErrorSummary, { message: "The deposit has 3 problems", errors, grouped: groupErrors(errors, form), hiddenRows: [650], onShowRow: noop, announce: true }));
+    const html = renderToStaticMarkup(
+      h(ErrorSummary, {
+        message: "The deposit has 3 problems",
+        errors,
+        grouped: groupErrors(errors, form),
+        hiddenRows: [650],
+        onShowRow: noop,
+        announce: true,
+      }),
+    );
     expect(html).toContain('role="alert"');
     expect(html).toContain("3 problems to correct");
     expect(html).toContain('<a href="#section-about">About the dataset (1)</a>');
@@ -100,7 +122,9 @@ describe("DepositEditor", () => {
           role: "owner",
           capabilities: versionCapabilities({ state: "published", siteRole: "researcher", datasetRole: "owner" }),
           checks: [{ code: "balanced", severity: "info", message: "Elements and charge balance." }],
-          decisions: [{ id: 1, decision: "accept", reason: "Clear and complete.", curator: "Curator One", createdAt: "2024-05-01T10:00:00.000Z" }],
+          decisions: [
+            { id: 1, decision: "accept", reason: "Clear and complete.", curator: "Curator One", createdAt: "2024-05-01T10:00:00.000Z" },
+          ],
           members: [{ name: "Okafor, Maren", role: "owner" }],
         }),
       ),
@@ -116,7 +140,13 @@ describe("DepositEditor", () => {
 
   it("renders a new deposit with the person as first creator and a save button", async () => {
     const { DepositEditor } = await import("@/components/deposit-editor/deposit-editor");
-    const html = renderToStaticMarkup(h(QueryClientProvider, { client: new QueryClient() }, h(DepositEditor, { mode: "new", person: { name: "Okafor, Maren", orcid: "0000-0002-1825-0097", affiliation: null } })));
+    const html = renderToStaticMarkup(
+      h(
+        QueryClientProvider,
+        { client: new QueryClient() },
+        h(DepositEditor, { mode: "new", person: { name: "Okafor, Maren", orcid: "0000-0002-1825-0097", affiliation: null } }),
+      ),
+    );
     expect(html).toContain("Save draft");
     expect(html).toContain('value="0000-0002-1825-0097"');
     expect(html).not.toContain("Submit for review");
@@ -170,7 +200,10 @@ describe("DepositEditor markup", () => {
     );
     const ids = [...html.matchAll(/ id="([^"]+)"/g)].map((m) => m[1]);
     expect(ids.filter((id, i) => ids.indexOf(id) !== i)).toEqual([]);
-    const targets = [...[...html.matchAll(/ for="([^"]+)"/g)].map((m) => m[1]), ...[...html.matchAll(/aria-describedby="([^"]+)"/g)].flatMap((m) => m[1].split(" "))];
+    const targets = [
+      ...[...html.matchAll(/ for="([^"]+)"/g)].map((m) => m[1]),
+      ...[...html.matchAll(/aria-describedby="([^"]+)"/g)].flatMap((m) => m[1].split(" ")),
+    ];
     expect(targets.length).toBeGreaterThan(50);
     expect(targets.filter((t) => !ids.includes(t))).toEqual([]);
   });

@@ -5,8 +5,20 @@ import { blockingChecks, stateWords } from "@/components/deposit-editor/words";
 
 describe("stateAfterFailure", () => {
   it("turns the lock conflict into our own conflict message, and any other 409 into a conflict with the server's reason", () => {
-    expect(stateAfterFailure({ ok: false, status: 409, message: "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.", errors: [] }, true)).toEqual({ kind: "conflict" });
-    expect(stateAfterFailure({ ok: false, status: 409, message: "This version is submitted and can no longer be edited", errors: [] }, false)).toEqual({
+    expect(
+      stateAfterFailure(
+        {
+          ok: false,
+          status: 409,
+          message: "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.",
+          errors: [],
+        },
+        true,
+      ),
+    ).toEqual({ kind: "conflict" });
+    expect(
+      stateAfterFailure({ ok: false, status: 409, message: "This version is submitted and can no longer be edited", errors: [] }, false),
+    ).toEqual({
       kind: "conflict",
       detail: "This version is submitted and can no longer be edited",
     });
@@ -18,7 +30,12 @@ describe("stateAfterFailure", () => {
       { pointer: "/title", message: "a" },
       { pointer: "/points/3/k", message: "b" },
     ];
-    expect(stateAfterFailure({ ok: false, status: 422, message: "The deposit has 2 problems", errors }, true)).toEqual({ kind: "invalid", message: "The deposit has 2 problems", count: 2, auto: true });
+    expect(stateAfterFailure({ ok: false, status: 422, message: "The deposit has 2 problems", errors }, true)).toEqual({
+      kind: "invalid",
+      message: "The deposit has 2 problems",
+      count: 2,
+      auto: true,
+    });
   });
 });
 
@@ -46,8 +63,11 @@ describe("words", () => {
   it("name states plainly and find the checks that stop a submission", () => {
     expect(stateWords("changes_requested")).toBe("changes requested");
     expect(stateWords("in_review")).toBe("in review");
-    expect(blockingChecks([{ code: "balanced", severity: "info", message: "" }, { code: "unbalanced", severity: "error", message: "H does not balance" }])).toEqual([
-      { code: "unbalanced", severity: "error", message: "H does not balance" },
-    ]);
+    expect(
+      blockingChecks([
+        { code: "balanced", severity: "info", message: "" },
+        { code: "unbalanced", severity: "error", message: "H does not balance" },
+      ]),
+    ).toEqual([{ code: "unbalanced", severity: "error", message: "H does not balance" }]);
   });
 });

@@ -31,7 +31,7 @@ describe("/docs/deposit-format", () => {
   it("shows real error messages for a broken copy of the example", () => {
     expect(html).toContain("Reaction order is required.");
     expect(html).toContain("Point 3: rate constant must be greater than 0 (got -4.33e-15).");
-    expect(html).toContain('Point 2: rate constant must be a number; &quot;2.89e-15x&quot; is not a number.');
+    expect(html).toContain("Point 2: rate constant must be a number; &quot;2.89e-15x&quot; is not a number.");
   });
 
   it("renders the Markdown description sanitised", () => {
@@ -40,7 +40,9 @@ describe("/docs/deposit-format", () => {
   });
 
   it("drops raw HTML and script links from a description", () => {
-    const out = renderToStaticMarkup(MarkdownText({ text: 'Hi <script>alert(1)</script> [click](javascript:alert(2)) <img src=x onerror="alert(3)">' }));
+    const out = renderToStaticMarkup(
+      MarkdownText({ text: 'Hi <script>alert(1)</script> [click](javascript:alert(2)) <img src=x onerror="alert(3)">' }),
+    );
     expect(out).not.toContain("<script");
     expect(out).not.toContain("javascript:");
     expect(out).not.toContain("onerror");

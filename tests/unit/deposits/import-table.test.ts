@@ -89,7 +89,9 @@ describe("inspectTable", () => {
   });
 
   it("refuses malformed JSON and JSON that is not a table, with a message", () => {
-    expect(() => inspectTable('[{"T": 300,}]', { filename: "x.json" })).toThrow(/^The file is not valid JSON: unexpected "}"; a trailing comma is not allowed \(line 1, column 12\)\.$/);
+    expect(() => inspectTable('[{"T": 300,}]', { filename: "x.json" })).toThrow(
+      /^The file is not valid JSON: unexpected "}"; a trailing comma is not allowed \(line 1, column 12\)\.$/,
+    );
     expect(() => inspectTable('{"T": [300]}', { filename: "x.json" })).toThrow("A JSON table must be a list of rows");
     expect(() => inspectTable("   ", { filename: "x.csv" })).toThrow("The file is empty.");
   });
@@ -158,11 +160,29 @@ describe("applyMapping", () => {
     expect(errors).toEqual([]);
     expect(points).toEqual([
       { T: 250, k: 2.09e-15, uncertainty: { kind: "absolute", value: 1.7e-16, confidence: "2sigma" }, pressure: 50, bathGas: "He" },
-      { T: 298, k: 5.89e-15, uncertainty: { kind: "absolute", value: 4.7e-16, confidence: "2sigma" }, pressure: 50, bathGas: "He", note: "room temperature" },
-      { T: 375, k: 2.17e-14, uncertainty: { kind: "absolute", value: 1.7e-15, confidence: "2sigma" }, pressure: 100, bathGas: "N2", note: "checked, twice" },
+      {
+        T: 298,
+        k: 5.89e-15,
+        uncertainty: { kind: "absolute", value: 4.7e-16, confidence: "2sigma" },
+        pressure: 50,
+        bathGas: "He",
+        note: "room temperature",
+      },
+      {
+        T: 375,
+        k: 2.17e-14,
+        uncertainty: { kind: "absolute", value: 1.7e-15, confidence: "2sigma" },
+        pressure: 100,
+        bathGas: "N2",
+        note: "checked, twice",
+      },
     ]);
     // The imported points make a valid deposit with the units read from the header.
-    const doc = { ...structuredClone(EXAMPLE_DEPOSIT), points, units: { k: table.guessedUnits.k!, T: table.guessedUnits.T!, pressure: table.guessedUnits.pressure } };
+    const doc = {
+      ...structuredClone(EXAMPLE_DEPOSIT),
+      points,
+      units: { k: table.guessedUnits.k!, T: table.guessedUnits.T!, pressure: table.guessedUnits.pressure },
+    };
     expect(validateDeposit(doc).ok).toBe(true);
   });
 
@@ -190,7 +210,14 @@ describe("applyMapping", () => {
   });
 
   it("refuses k ≤ 0, non-positive uncertainties and factors not above 1, row by row", () => {
-    const table = { columns: ["T", "k", "f", "p"], rows: [["300", "0", "1.2", "10"], ["310", "1e-12", "1", "10"], ["320", "1e-12", "1.5", "-3"]] };
+    const table = {
+      columns: ["T", "k", "f", "p"],
+      rows: [
+        ["300", "0", "1.2", "10"],
+        ["310", "1e-12", "1", "10"],
+        ["320", "1e-12", "1.5", "-3"],
+      ],
+    };
     const { points, errors } = applyMapping(table, { T: 0, k: 1, uncertainty: 2, pressure: 3 }, { uncertaintyKind: "factor" });
     expect(points).toEqual([]);
     expect(errors.map((e) => e.message)).toEqual([
@@ -213,7 +240,8 @@ describe("applyMapping", () => {
       {
         pointer: "/rows",
         value: 100_001,
-        message: "The table has 100,001 rows; a dataset can hold at most 100,000 points. Split the file into several datasets, for example by temperature range or bath gas.",
+        message:
+          "The table has 100,001 rows; a dataset can hold at most 100,000 points. Split the file into several datasets, for example by temperature range or bath gas.",
       },
     ]);
   });

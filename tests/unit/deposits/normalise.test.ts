@@ -43,7 +43,12 @@ describe("normalisePoints: canonical units", () => {
   it("keeps the document's values next to the converted ones and applies per-point overrides", () => {
     const points = normalisePoints(example());
     expect(points).toHaveLength(10);
-    expect(points[0]).toMatchObject({ T: 250, k: 2.09e-15, bathGas: "He", original: { T: 250, k: 2.09e-15, unitT: "K", unitK: "cm3 molecule-1 s-1" } });
+    expect(points[0]).toMatchObject({
+      T: 250,
+      k: 2.09e-15,
+      bathGas: "He",
+      original: { T: 250, k: 2.09e-15, unitT: "K", unitK: "cm3 molecule-1 s-1" },
+    });
     // 50 Torr from conditions; the eighth point says 100 Torr; the last point's bath gas is N2.
     expect(points[0].pressurePa).toBeCloseTo((50 * 101325) / 760, 9);
     expect(points[7].pressurePa).toBeCloseTo((100 * 101325) / 760, 9);
@@ -62,7 +67,7 @@ describe("normalisePoints: canonical units", () => {
     delete doc.reportedFit;
     expect(validateDeposit(doc).ok).toBe(true);
     const [p] = normalisePoints(doc);
-    expect(p.k / (1e9 * 1e6 / 6.02214076e23 / 6.02214076e23)).toBeCloseTo(1, 14);
+    expect(p.k / ((1e9 * 1e6) / 6.02214076e23 / 6.02214076e23)).toBeCloseTo(1, 14);
   });
 });
 
@@ -88,7 +93,7 @@ describe("toAnalysisInput", () => {
     const input = toAnalysisInput(example());
     expect(input.order).toBe(2);
     expect(input.points).toHaveLength(10);
-    expect(input.points[0]).toEqual({ T: 250, k: 2.09e-15, sigmaLnK: (1.7e-16 / 2.09e-15) / 2 });
+    expect(input.points[0]).toEqual({ T: 250, k: 2.09e-15, sigmaLnK: 1.7e-16 / 2.09e-15 / 2 });
     expect(input.T0).toBeUndefined();
     expect(input.reportedFit).toEqual({ A: 2.2e-12, n: 0, Ea: 14550, T0: 298.15 });
   });

@@ -96,7 +96,22 @@ describe("describeDepositSchema (the documentation page's field list)", () => {
   it("has a section for the document and for each nested object, once each", () => {
     const paths = sections.map((s) => s.path);
     expect(paths).toEqual(
-      expect.arrayContaining(["", "creators[]", "reaction", "reaction.reactants[]", "method", "conditions", "conditions.pressure", "units", "points[]", "points[].uncertainty", "reportedFit", "source", "source.reference", "relatedIdentifiers[]"]),
+      expect.arrayContaining([
+        "",
+        "creators[]",
+        "reaction",
+        "reaction.reactants[]",
+        "method",
+        "conditions",
+        "conditions.pressure",
+        "units",
+        "points[]",
+        "points[].uncertainty",
+        "reportedFit",
+        "source",
+        "source.reference",
+        "relatedIdentifiers[]",
+      ]),
     );
     expect(new Set(sections.map((s) => s.id)).size).toBe(sections.length);
     // Products share the species fields: documented once, linked from both lists.

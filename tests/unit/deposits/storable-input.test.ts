@@ -38,7 +38,12 @@ describe("storable text", () => {
     let deep: unknown = "\u0000";
     for (let i = 0; i < 100_000; i++) deep = [deep];
     expect(findUnstorableText(deep)).toHaveLength(1);
-    expect(findUnstorableText(Array.from({ length: 500 }, () => "\u0000"), 10)).toHaveLength(10);
+    expect(
+      findUnstorableText(
+        Array.from({ length: 500 }, () => "\u0000"),
+        10,
+      ),
+    ).toHaveLength(10);
   });
 });
 
@@ -88,8 +93,10 @@ describe("validateDeposit refuses what PostgreSQL cannot store", () => {
 
 describe("storageRefusal", () => {
   it("turns PostgreSQL's refusal of a value into a 422, also when wrapped as a cause", () => {
-    expect(storageRefusal({ code: "22021", message: "invalid byte sequence for encoding \"UTF8\": 0x00" })?.status).toBe(422);
-    expect(storageRefusal(new Error("Failed query", { cause: { code: "22003", message: "out of range for type real" } }))?.status).toBe(422);
+    expect(storageRefusal({ code: "22021", message: 'invalid byte sequence for encoding "UTF8": 0x00' })?.status).toBe(422);
+    expect(storageRefusal(new Error("Failed query", { cause: { code: "22003", message: "out of range for type real" } }))?.status).toBe(
+      422,
+    );
     expect(storageRefusal({ code: "22P02", message: "invalid input syntax for type json" })?.errors[0].pointer).toBe("");
   });
 

@@ -30,7 +30,10 @@ function referenceErrors(doc: unknown): FieldError[] {
     if (errors.length < MAX_VALIDATION_ERRORS) errors.push(error);
   });
   if (total > errors.length) {
-    errors.push({ pointer: "", message: `Showing the first ${formatCount(errors.length)} of ${formatCount(total)} problems; correct these and validate again to see the rest.` });
+    errors.push({
+      pointer: "",
+      message: `Showing the first ${formatCount(errors.length)} of ${formatCount(total)} problems; correct these and validate again to see the rest.`,
+    });
   }
   return errors;
 }
@@ -78,13 +81,19 @@ describe("points validated row by row give the errors the whole-document validat
   });
 
   it("keeps the order of errors before, inside and after the points", () => {
-    const doc = withPoints([{ T: "x", k: -1 }, { T: 300, k: 1e-12 }], (d) => {
-      d.title = "";
-      d.reaction.order = 4;
-      d.source.doi = "not a doi";
-      d.relatedIdentifiers = [{}];
-      d.units.T = "furlongs";
-    });
+    const doc = withPoints(
+      [
+        { T: "x", k: -1 },
+        { T: 300, k: 1e-12 },
+      ],
+      (d) => {
+        d.title = "";
+        d.reaction.order = 4;
+        d.source.doi = "not a doi";
+        d.relatedIdentifiers = [{}];
+        d.units.T = "furlongs";
+      },
+    );
     const got = errorsOf(doc);
     expect(got.map((e) => e.pointer)).toEqual(referenceErrors(doc).map((e) => e.pointer));
     expect(got).toEqual(referenceErrors(doc));
@@ -102,7 +111,11 @@ describe("points validated row by row give the errors the whole-document validat
     const row = fc.oneof(
       fc.record({ T: value, k: value }, { requiredKeys: [] }),
       fc.record({ T: value, k: value, pressure: value, note: fc.oneof(fc.string(), value) }, { requiredKeys: ["T", "k"] }),
-      fc.record({ T: value, k: value, uncertainty: fc.record({ kind: fc.constantFrom("absolute", "relative", "factor", "other"), value }, { requiredKeys: [] }) }),
+      fc.record({
+        T: value,
+        k: value,
+        uncertainty: fc.record({ kind: fc.constantFrom("absolute", "relative", "factor", "other"), value }, { requiredKeys: [] }),
+      }),
       value,
     );
     fc.assert(
@@ -141,7 +154,14 @@ describe("fast point check", () => {
   });
 
   it("turns itself off for a point schema it does not understand", () => {
-    expect(makeFastPointCheck({ type: "object", additionalProperties: false, properties: { T: { type: "number", multipleOf: 5 } }, required: ["T"] })).toBeUndefined();
+    expect(
+      makeFastPointCheck({
+        type: "object",
+        additionalProperties: false,
+        properties: { T: { type: "number", multipleOf: 5 } },
+        required: ["T"],
+      }),
+    ).toBeUndefined();
     expect(makeFastPointCheck({ type: "object", properties: { T: { type: "number" } } })).toBeUndefined();
   });
 

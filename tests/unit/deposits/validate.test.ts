@@ -46,7 +46,14 @@ describe("validateDeposit: valid documents", () => {
     doc.reaction.solvent = { name: "water", smiles: "O" };
     doc.conditions.pressure = { min: 20, max: 600 };
     doc.reportedFit = { model: "modified_arrhenius", A: 1e-13, n: 2.1, Ea: 1200, EaUnit: "K", T0: 300 };
-    doc.source = { reference: { type: "article-journal", title: "An invented article", author: [{ family: "Okafor", given: "M." }], issued: { "date-parts": [[2020, 4]] } } };
+    doc.source = {
+      reference: {
+        type: "article-journal",
+        title: "An invented article",
+        author: [{ family: "Okafor", given: "M." }],
+        issued: { "date-parts": [[2020, 4]] },
+      },
+    };
     expect(validateDeposit(doc)).toMatchObject({ ok: true });
   });
 
@@ -66,7 +73,9 @@ describe("parseDepositJson: malformed JSON", () => {
     expect(result).toMatchObject({ ok: false });
     const [error] = (result as { errors: FieldError[] }).errors;
     expect(error.pointer).toBe("");
-    expect(error.message).toBe('The document is not valid JSON: unexpected "}"; a trailing comma is not allowed (line 3, column 1, character 26).');
+    expect(error.message).toBe(
+      'The document is not valid JSON: unexpected "}"; a trailing comma is not allowed (line 3, column 1, character 26).',
+    );
   });
 
   it.each([
@@ -88,10 +97,15 @@ describe("parseDepositJson: malformed JSON", () => {
   });
 
   it("refuses an empty text and a non-object document", () => {
-    expect(parseDepositJson("  ")).toEqual({ ok: false, errors: [{ pointer: "", message: "The document is empty; a deposit document is a JSON object." }] });
+    expect(parseDepositJson("  ")).toEqual({
+      ok: false,
+      errors: [{ pointer: "", message: "The document is empty; a deposit document is a JSON object." }],
+    });
     expect(parseAndValidateDeposit("[1, 2]")).toEqual({
       ok: false,
-      errors: [{ pointer: "", message: "A deposit document must be a JSON object with fields such as title, reaction and points (got a list)." }],
+      errors: [
+        { pointer: "", message: "A deposit document must be a JSON object with fields such as title, reaction and points (got a list)." },
+      ],
     });
   });
 
@@ -123,7 +137,11 @@ describe("validateDeposit: schema errors in plain English", () => {
     const doc = example();
     doc.points[3].T = "abc";
     doc.points[6].k = "1.2e-1x";
-    expect(errorAt(doc, "/points/3/T")).toEqual({ pointer: "/points/3/T", value: "abc", message: 'Point 4: temperature must be a number; "abc" is not a number.' });
+    expect(errorAt(doc, "/points/3/T")).toEqual({
+      pointer: "/points/3/T",
+      value: "abc",
+      message: 'Point 4: temperature must be a number; "abc" is not a number.',
+    });
     expect(errorAt(doc, "/points/6/k").message).toBe('Point 7: rate constant must be a number; "1.2e-1x" is not a number.');
   });
 
@@ -131,7 +149,11 @@ describe("validateDeposit: schema errors in plain English", () => {
     const doc = example();
     doc.points[2].k = 0;
     doc.points[4].k = -8.59e-15;
-    expect(errorAt(doc, "/points/2/k")).toEqual({ pointer: "/points/2/k", value: 0, message: "Point 3: rate constant must be greater than 0 (got 0)." });
+    expect(errorAt(doc, "/points/2/k")).toEqual({
+      pointer: "/points/2/k",
+      value: 0,
+      message: "Point 3: rate constant must be greater than 0 (got 0).",
+    });
     expect(errorAt(doc, "/points/4/k").message).toBe("Point 5: rate constant must be greater than 0 (got -8.59e-15).");
   });
 
@@ -147,7 +169,9 @@ describe("validateDeposit: schema errors in plain English", () => {
     const doc = example();
     doc.reaction.class = "abstraction";
     doc.license = "CC-BY-NC-4.0";
-    expect(errorAt(doc, "/reaction/class").message).toMatch(/^Reaction class must be one of: h_abstraction, addition, .* \(got "abstraction"\)\.$/);
+    expect(errorAt(doc, "/reaction/class").message).toMatch(
+      /^Reaction class must be one of: h_abstraction, addition, .* \(got "abstraction"\)\.$/,
+    );
     expect(errorAt(doc, "/license").message).toContain('(got "CC-BY-NC-4.0")');
   });
 
@@ -176,9 +200,13 @@ describe("validateDeposit: schema errors in plain English", () => {
     doc.points[8].uncertainty = { kind: "factor", value: 1 };
     doc.points[5].uncertainty = { kind: "relative", value: 0 };
     doc.points[0].uncertainty.confidence = "3sigma";
-    expect(errorAt(doc, "/points/8/uncertainty/value").message).toBe("Point 9: an uncertainty factor f (k/f to k·f) must be greater than 1 (got 1).");
+    expect(errorAt(doc, "/points/8/uncertainty/value").message).toBe(
+      "Point 9: an uncertainty factor f (k/f to k·f) must be greater than 1 (got 1).",
+    );
     expect(errorAt(doc, "/points/5/uncertainty/value").message).toBe("Point 6: uncertainty must be greater than 0 (got 0).");
-    expect(errorAt(doc, "/points/0/uncertainty/confidence").message).toBe('Point 1: confidence must be one of: 1sigma, 2sigma (got "3sigma").');
+    expect(errorAt(doc, "/points/0/uncertainty/confidence").message).toBe(
+      'Point 1: confidence must be one of: 1sigma, 2sigma (got "3sigma").',
+    );
   });
 
   it("DOIs are checked for syntax", () => {
@@ -202,7 +230,9 @@ describe("validateDeposit: schema errors in plain English", () => {
   it("web addresses must be http(s)", () => {
     const doc = example();
     doc.relatedIdentifiers[0].identifier = "ftp://example.invalid/data";
-    expect(errorAt(doc, "/relatedIdentifiers/0/identifier").message).toContain("must be a full web address starting with http:// or https://");
+    expect(errorAt(doc, "/relatedIdentifiers/0/identifier").message).toContain(
+      "must be a full web address starting with http:// or https://",
+    );
   });
 
   it("a pressure is a value or a range, not both", () => {
@@ -231,7 +261,11 @@ describe("validateDeposit: checks beyond the schema", () => {
     const doc = example();
     doc.points[0].T = 0;
     doc.points[1].T = -5;
-    expect(errorAt(doc, "/points/0/T")).toEqual({ pointer: "/points/0/T", value: 0, message: "Point 1: temperature must be greater than 0 K (got 0 K)." });
+    expect(errorAt(doc, "/points/0/T")).toEqual({
+      pointer: "/points/0/T",
+      value: 0,
+      message: "Point 1: temperature must be greater than 0 K (got 0 K).",
+    });
     expect(errorAt(doc, "/points/1/T").message).toBe("Point 2: temperature must be greater than 0 K (got -5 K).");
   });
 
@@ -242,7 +276,11 @@ describe("validateDeposit: checks beyond the schema", () => {
     doc.points[2].T = -300;
     delete doc.reportedFit;
     expect(errorsOf(doc)).toEqual([
-      { pointer: "/points/2/T", value: -300, message: "Point 3: -300 °C is below absolute zero (-26.85 K); a temperature in °C must be above -273.15." },
+      {
+        pointer: "/points/2/T",
+        value: -300,
+        message: "Point 3: -300 °C is below absolute zero (-26.85 K); a temperature in °C must be above -273.15.",
+      },
     ]);
   });
 
@@ -266,7 +304,8 @@ describe("validateDeposit: checks beyond the schema", () => {
     expect(errorAt(doc, "/units/k")).toEqual({
       pointer: "/units/k",
       value: "s-1",
-      message: '"s-1" is a first-order unit, but this reaction is second order. Use one of: cm3 molecule-1 s-1, cm3 mol-1 s-1, L mol-1 s-1, m3 mol-1 s-1, m3 molecule-1 s-1.',
+      message:
+        '"s-1" is a first-order unit, but this reaction is second order. Use one of: cm3 molecule-1 s-1, cm3 mol-1 s-1, L mol-1 s-1, m3 mol-1 s-1, m3 molecule-1 s-1.',
     });
     doc.units.k = "cm6 molecule-2 s-1";
     expect(errorAt(doc, "/units/k").message).toContain("is a third-order unit, but this reaction is second order");
@@ -275,7 +314,9 @@ describe("validateDeposit: checks beyond the schema", () => {
   it("pressures need a pressure unit", () => {
     const doc = example();
     delete doc.units.pressure;
-    expect(errorAt(doc, "/units/pressure").message).toBe("Pressure unit is required because the document gives pressures (under conditions or on points).");
+    expect(errorAt(doc, "/units/pressure").message).toBe(
+      "Pressure unit is required because the document gives pressures (under conditions or on points).",
+    );
   });
 
   it("ORCID check digits are verified", () => {
@@ -291,7 +332,9 @@ describe("validateDeposit: checks beyond the schema", () => {
   it("the reported fit must make sense", () => {
     const doc = example();
     doc.reportedFit = { model: "arrhenius", A: 2.2e-12, n: 1.5, Ea: 14550, EaUnit: "kJ mol-1", Tmin: 420, Tmax: 250, T0: -1 };
-    expect(errorAt(doc, "/reportedFit/n").message).toBe("An Arrhenius expression has no temperature exponent: choose modified_arrhenius, or leave n out.");
+    expect(errorAt(doc, "/reportedFit/n").message).toBe(
+      "An Arrhenius expression has no temperature exponent: choose modified_arrhenius, or leave n out.",
+    );
     expect(errorAt(doc, "/reportedFit/Ea").message).toContain("more than any chemical barrier; check the value and its unit");
     expect(errorAt(doc, "/reportedFit/Tmax").message).toBe("Highest valid temperature (250) must be above the lowest (420).");
     expect(errorAt(doc, "/reportedFit/T0").message).toBe("Reference temperature must be greater than 0 K (got -1 K).");
@@ -317,7 +360,8 @@ describe("validateDeposit: size limits", () => {
         {
           pointer: "/points",
           value: 100_001,
-          message: "The dataset has 100,001 points; the limit is 100,000. Split it into several datasets, for example by temperature range or bath gas.",
+          message:
+            "The dataset has 100,001 points; the limit is 100,000. Split it into several datasets, for example by temperature range or bath gas.",
         },
       ],
     });
@@ -325,7 +369,11 @@ describe("validateDeposit: size limits", () => {
 
   it("accepts exactly 100 000 points in well under two seconds", () => {
     const doc = example();
-    doc.points = Array.from({ length: 100_000 }, (_, i) => ({ T: 250 + (i % 170), k: 1e-14 * (1 + (i % 7) / 10), uncertainty: { kind: "relative", value: 5 } }));
+    doc.points = Array.from({ length: 100_000 }, (_, i) => ({
+      T: 250 + (i % 170),
+      k: 1e-14 * (1 + (i % 7) / 10),
+      uncertainty: { kind: "relative", value: 5 },
+    }));
     const started = performance.now();
     expect(validateDeposit(doc).ok).toBe(true);
     expect(performance.now() - started).toBeLessThan(2000);
@@ -358,7 +406,7 @@ describe("every error is well formed", () => {
       expect(e.pointer).toMatch(/^(\/[^/]+)*$/);
       expect(e.message).toMatch(/^[A-Z"].*\.$/);
     }
-    expect(errorAt(doc, "/title").message).toBe("Title must be at least 3 characters long (got \"\").");
+    expect(errorAt(doc, "/title").message).toBe('Title must be at least 3 characters long (got "").');
     expect(errorAt(doc, "/keywords").message).toBe("Keywords lists the same value twice (entries 1 and 2).");
   });
 });

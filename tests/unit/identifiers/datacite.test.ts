@@ -6,10 +6,7 @@ const payload = {
   description: "Pulsed laser photolysis with laser-induced fluorescence detection of OH.",
   keywords: ["methane", "hydroxyl radical"],
   license: "CC0-1.0",
-  creators: [
-    { name: "Okafor, Maren", orcid: "0000-0002-1825-0097", affiliation: "Example Institute" },
-    { name: "Lin Tao" },
-  ],
+  creators: [{ name: "Okafor, Maren", orcid: "0000-0002-1825-0097", affiliation: "Example Institute" }, { name: "Lin Tao" }],
   funding: [{ funder: "Example Science Fund", awardId: "ESF-123" }],
   source: { doi: "10.5555/example.123", locator: "Table 2" },
   relatedIdentifiers: [
@@ -57,7 +54,9 @@ describe("buildDoiMetadata for a version", () => {
         nameType: "Personal",
         familyName: "Okafor",
         givenName: "Maren",
-        nameIdentifiers: [{ nameIdentifier: "https://orcid.org/0000-0002-1825-0097", nameIdentifierScheme: "ORCID", schemeUri: "https://orcid.org" }],
+        nameIdentifiers: [
+          { nameIdentifier: "https://orcid.org/0000-0002-1825-0097", nameIdentifierScheme: "ORCID", schemeUri: "https://orcid.org" },
+        ],
         affiliation: [{ name: "Example Institute" }],
       },
       { name: "Lin Tao", nameType: "Personal" },
@@ -113,14 +112,24 @@ describe("buildDoiMetadata for a series", () => {
     expect(a.url).toBe("https://arrhenia.test/datasets/7");
     expect(a.version).toBeUndefined();
     expect(a.publicationYear).toBe(2023);
-    expect(a.relatedIdentifiers.filter((r) => r.relationType === "HasVersion").map((r) => r.relatedIdentifier)).toEqual(["10.5072/arrhenia.7.v1", "10.5072/arrhenia.7.v2"]);
+    expect(a.relatedIdentifiers.filter((r) => r.relationType === "HasVersion").map((r) => r.relatedIdentifier)).toEqual([
+      "10.5072/arrhenia.7.v1",
+      "10.5072/arrhenia.7.v2",
+    ]);
     expect(a.relatedIdentifiers.some((r) => r.relationType === "IsVersionOf")).toBe(false);
   });
 });
 
 describe("buildDoiMetadata with a sparse or malformed payload", () => {
   const sparse = (payload: unknown) =>
-    buildDoiMetadata({ ...version, payload, seriesIdentifier: null, previousVersionIdentifier: null, publishedAt: null, now: new Date("2026-01-02T00:00:00Z") }).data.attributes;
+    buildDoiMetadata({
+      ...version,
+      payload,
+      seriesIdentifier: null,
+      previousVersionIdentifier: null,
+      publishedAt: null,
+      now: new Date("2026-01-02T00:00:00Z"),
+    }).data.attributes;
 
   it("falls back to the row's title, a placeholder creator, the default licence and no relations", () => {
     for (const payload of [{}, null, "not an object", [1, 2]]) {
@@ -141,19 +150,28 @@ describe("buildDoiMetadata with a sparse or malformed payload", () => {
     const a = sparse({
       creators: [{ name: "  " }, { name: "Ada Example", orcid: "1234" }, "just a string", { name: "Bo, " }],
       source: { doi: "not a doi", reference: { type: "article-journal", title: "T", DOI: "https://doi.org/10.5555/from.csl" } },
-      relatedIdentifiers: [{ kind: "doi", identifier: "10.5555/x", relation: "is_friend_of" }, { kind: "url", identifier: "ftp://x", relation: "cites" }, null],
+      relatedIdentifiers: [
+        { kind: "doi", identifier: "10.5555/x", relation: "is_friend_of" },
+        { kind: "url", identifier: "ftp://x", relation: "cites" },
+        null,
+      ],
       keywords: ["ok", 3, ""],
     });
     expect(a.creators).toEqual([
       { name: "Ada Example", nameType: "Personal" },
       { name: "Bo,", nameType: "Personal" },
     ]);
-    expect(a.relatedIdentifiers).toEqual([{ relatedIdentifier: "10.5555/from.csl", relatedIdentifierType: "DOI", relationType: "IsSupplementTo" }]);
+    expect(a.relatedIdentifiers).toEqual([
+      { relatedIdentifier: "10.5555/from.csl", relatedIdentifierType: "DOI", relationType: "IsSupplementTo" },
+    ]);
     expect(a.subjects).toEqual([{ subject: "ok" }]);
   });
 
   it("does not repeat a relation given twice", () => {
-    const a = sparse({ source: { doi: "10.5555/dup" }, relatedIdentifiers: [{ kind: "doi", identifier: "10.5555/DUP", relation: "supplement_to" }] });
+    const a = sparse({
+      source: { doi: "10.5555/dup" },
+      relatedIdentifiers: [{ kind: "doi", identifier: "10.5555/DUP", relation: "supplement_to" }],
+    });
     expect(a.relatedIdentifiers).toHaveLength(1);
   });
 });
@@ -161,7 +179,9 @@ describe("buildDoiMetadata with a sparse or malformed payload", () => {
 describe("helpers", () => {
   it("builds landing URLs without doubled slashes", () => {
     expect(buildLandingUrl({ baseUrl: "http://127.0.0.1:3000/", datasetId: 3 })).toBe("http://127.0.0.1:3000/datasets/3");
-    expect(buildLandingUrl({ baseUrl: "http://127.0.0.1:3000", datasetId: 3, versionNumber: 1 })).toBe("http://127.0.0.1:3000/datasets/3/v1");
+    expect(buildLandingUrl({ baseUrl: "http://127.0.0.1:3000", datasetId: 3, versionNumber: 1 })).toBe(
+      "http://127.0.0.1:3000/datasets/3/v1",
+    );
   });
 
   it("normalises DOIs given with a resolver or scheme prefix", () => {

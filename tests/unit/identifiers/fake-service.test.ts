@@ -9,7 +9,17 @@ import { startFakeDoiService, type FakeDoiService } from "@/lib/identifiers/fake
 const auth = { user: "ARRHENIA.TEST", password: "secret" };
 
 function body(doi: string, title = "A dataset"): DataciteBody {
-  return buildDoiMetadata({ kind: "series", doi, datasetId: 1, versionNumber: 1, baseUrl: "http://127.0.0.1:3000", payload: { title }, fallbackTitle: title, publishedAt: new Date("2025-01-01T00:00:00Z"), versionIdentifiers: [] });
+  return buildDoiMetadata({
+    kind: "series",
+    doi,
+    datasetId: 1,
+    versionNumber: 1,
+    baseUrl: "http://127.0.0.1:3000",
+    payload: { title },
+    fallbackTitle: title,
+    publishedAt: new Date("2025-01-01T00:00:00Z"),
+    versionIdentifiers: [],
+  });
 }
 
 async function refusal(p: Promise<unknown>): Promise<DoiAgencyError> {
@@ -58,12 +68,19 @@ describe("client against the fake registration service", () => {
 
     const res = await fetch(`${fake.url}/dois/10.5072/arrhenia.3`, {
       method: "PUT",
-      headers: { authorization: `Basic ${Buffer.from("ARRHENIA.TEST:secret").toString("base64")}`, "content-type": "application/vnd.api+json" },
+      headers: {
+        authorization: `Basic ${Buffer.from("ARRHENIA.TEST:secret").toString("base64")}`,
+        "content-type": "application/vnd.api+json",
+      },
       body: JSON.stringify({ data: { type: "dois", attributes: { doi: "10.5072/arrhenia.4" } } }),
     });
     expect(res.status).toBe(422);
     expect(res.headers.get("content-type")).toBe("application/vnd.api+json");
-    const wrongType = await fetch(`${fake.url}/dois/10.5072/arrhenia.3`, { method: "PUT", headers: { authorization: `Basic ${Buffer.from("ARRHENIA.TEST:secret").toString("base64")}` }, body: JSON.stringify({ data: { type: "works" } }) });
+    const wrongType = await fetch(`${fake.url}/dois/10.5072/arrhenia.3`, {
+      method: "PUT",
+      headers: { authorization: `Basic ${Buffer.from("ARRHENIA.TEST:secret").toString("base64")}` },
+      body: JSON.stringify({ data: { type: "works" } }),
+    });
     expect(wrongType.status).toBe(422);
     expect(fake.records().some((r) => r.doi.endsWith("arrhenia.3"))).toBe(false);
   });

@@ -24,7 +24,13 @@ describe("identifier syntax", () => {
   });
 
   it("gives every version its own identifier, distinct from the series", () => {
-    const ids = new Set([seriesIdentifier(5), versionIdentifier(5, 1), versionIdentifier(5, 2), versionIdentifier(51, 1), seriesIdentifier(51)]);
+    const ids = new Set([
+      seriesIdentifier(5),
+      versionIdentifier(5, 1),
+      versionIdentifier(5, 2),
+      versionIdentifier(51, 1),
+      seriesIdentifier(51),
+    ]);
     expect(ids.size).toBe(5);
   });
 

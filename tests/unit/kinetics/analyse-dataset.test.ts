@@ -30,7 +30,10 @@ function noise(i: number): number {
   return Math.sin(12.9898 * (i + 1)) * 0.5 + Math.sin(78.233 * (i + 3)) * 0.5;
 }
 
-function arrheniusPoints(n: number, opts: { A?: number; Ea?: number; T1?: number; T2?: number; sd?: number; sigma?: number } = {}): RatePoint[] {
+function arrheniusPoints(
+  n: number,
+  opts: { A?: number; Ea?: number; T1?: number; T2?: number; sd?: number; sigma?: number } = {},
+): RatePoint[] {
   const { A = 2.45e-12, Ea = 14757.67, T1 = 220, T2 = 400, sd = 0.03, sigma } = opts;
   return Array.from({ length: n }, (_, i) => {
     const T = T1 + ((T2 - T1) * i) / (n - 1);
@@ -69,14 +72,24 @@ describe("analyseDataset: degenerate input", () => {
   it("names the temperature problem and the point", () => {
     const pts = good.map((p) => ({ ...p }));
     pts[2].T = -5;
-    expectAnalysisError({ points: pts, order: 2 }, "invalid_point", /Point 3 \(points\[2\]\) has temperature T = -5; temperatures must be positive finite numbers in kelvin/, 2);
+    expectAnalysisError(
+      { points: pts, order: 2 },
+      "invalid_point",
+      /Point 3 \(points\[2\]\) has temperature T = -5; temperatures must be positive finite numbers in kelvin/,
+      2,
+    );
     pts[2].T = Number.POSITIVE_INFINITY;
     expectAnalysisError({ points: pts, order: 2 }, "invalid_point", /T = Infinity/, 2);
   });
   it("names a non-positive or non-finite k", () => {
     const pts = good.map((p) => ({ ...p }));
     pts[4].k = 0;
-    expectAnalysisError({ points: pts, order: 2 }, "invalid_point", /Point 5 \(points\[4\]\) has rate constant k = 0; rate constants must be positive finite numbers/, 4);
+    expectAnalysisError(
+      { points: pts, order: 2 },
+      "invalid_point",
+      /Point 5 \(points\[4\]\) has rate constant k = 0; rate constants must be positive finite numbers/,
+      4,
+    );
     pts[4].k = Number.NaN;
     expectAnalysisError({ points: pts, order: 2 }, "invalid_point", /k = NaN/, 4);
     (pts[4] as { k: unknown }).k = undefined;
@@ -102,9 +115,22 @@ describe("analyseDataset: edge cases never produce NaN", () => {
     ["weighted, dof 0", { points: arrheniusPoints(2, { sigma: 0.1 }), order: 2 }],
     ["weighted, 3 points (modified dof 0)", { points: arrheniusPoints(3, { sigma: 0.1 }), order: 3 }],
     ["noise-free, 10 points", { points: arrheniusPoints(10, { sd: 0 }), order: 2 }],
-    ["two temperatures, repeats", { points: [300, 300, 400, 400].map((T, i) => ({ T, k: 1e-12 * (T / 300) ** 3 * (1 + 0.01 * i) })), order: 2 }],
+    [
+      "two temperatures, repeats",
+      { points: [300, 300, 400, 400].map((T, i) => ({ T, k: 1e-12 * (T / 300) ** 3 * (1 + 0.01 * i) })), order: 2 },
+    ],
     ["a point with leverage 1", { points: [300, 300, 300, 400].map((T, i) => ({ T, k: 1e-3 * (1 + 0.05 * i) })), order: 1 }],
-    ["huge A (k near overflow)", { points: [{ T: 2000, k: 1e300 }, { T: 2001, k: 1.1e300 }, { T: 2002, k: 1.05e300 }], order: 1 }],
+    [
+      "huge A (k near overflow)",
+      {
+        points: [
+          { T: 2000, k: 1e300 },
+          { T: 2001, k: 1.1e300 },
+          { T: 2002, k: 1.05e300 },
+        ],
+        order: 1,
+      },
+    ],
     ["tiny k", { points: arrheniusPoints(6, { A: 1e-300, Ea: 1000 }), order: 3 }],
   ];
   it.each(cases)("%s", (_, input) => {
@@ -211,9 +237,7 @@ describe("analyseDataset: fits and statistics", () => {
     const sxx = x.reduce((a, b) => a + (b - xbar) ** 2, 0);
     x.forEach((xi, i) => expect(d.leverage[i]).toBeCloseTo(1 / n + (xi - xbar) ** 2 / sxx, 12));
     // External from internal: tᵢ = rᵢ √((n−p−1)/(n−p−rᵢ²)) (Cook & Weisberg 1982, eq. 2.2.9).
-    d.studentized.forEach((ri, i) =>
-      expect(d.externallyStudentized[i]).toBeCloseTo(ri * Math.sqrt((n - p - 1) / (n - p - ri * ri)), 10),
-    );
+    d.studentized.forEach((ri, i) => expect(d.externallyStudentized[i]).toBeCloseTo(ri * Math.sqrt((n - p - 1) / (n - p - ri * ri)), 10));
   });
 });
 

@@ -164,7 +164,11 @@ describe("consensus", () => {
 
   it("reports uncertainty factors at 298.15 K and the range ends, and no NaN", () => {
     const normal = makeNormal(2);
-    const sets = [makeSet("a", normal, { T1: 350, T2: 600 }), makeSet("b", normal, { T1: 400, T2: 700, factor: 1.5 }), makeSet("c", normal, { n: 3, T1: 500, T2: 500.5 })];
+    const sets = [
+      makeSet("a", normal, { T1: 350, T2: 600 }),
+      makeSet("b", normal, { T1: 400, T2: 700, factor: 1.5 }),
+      makeSet("c", normal, { n: 3, T1: 500, T2: 500.5 }),
+    ];
     const c = consensus(sets);
     const [at298, atMin, atMax] = c.arrhenius.uncertaintyFactor;
     expect(at298).toMatchObject({ T: 298.15, extrapolated: true });
@@ -179,7 +183,11 @@ describe("consensus", () => {
 
   it("accepts single-temperature datasets alongside others", () => {
     const normal = makeNormal(4);
-    const room: ConsensusDataset = { id: "room", order: 2, points: [298, 298, 298].map((T) => ({ T, k: evaluateRateExpression(TRUE, T) * Math.exp(0.05 * normal()) })) };
+    const room: ConsensusDataset = {
+      id: "room",
+      order: 2,
+      points: [298, 298, 298].map((T) => ({ T, k: evaluateRateExpression(TRUE, T) * Math.exp(0.05 * normal()) })),
+    };
     const c = consensus([makeSet("a", normal), makeSet("b", normal), room]);
     expect(c.members.find((m) => m.id === "room")!.sigmaLnK!).toBeGreaterThan(0);
     expect(c.modifiedArrhenius).not.toBeNull();
@@ -211,8 +219,17 @@ describe("consensus", () => {
     expect((caught as AnalysisError).datasetId).toBe("bad");
     expect((caught as AnalysisError).pointIndex).toBe(2);
     expect((caught as AnalysisError).message).toMatch(/^Dataset bad: Point 3 \(points\[2\]\) has rate constant k = -1/);
-    expect(() => consensus([{ id: "flat", order: 2, points: [{ T: 300, k: 1e-12 }, { T: 300, k: 2e-12 }] }])).toThrow(
-      /All points are at 300 K/,
-    );
+    expect(() =>
+      consensus([
+        {
+          id: "flat",
+          order: 2,
+          points: [
+            { T: 300, k: 1e-12 },
+            { T: 300, k: 2e-12 },
+          ],
+        },
+      ]),
+    ).toThrow(/All points are at 300 K/);
   });
 });

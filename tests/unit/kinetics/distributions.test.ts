@@ -1,13 +1,6 @@
 import { describe, expect, it } from "vitest";
 import jStat from "jstat";
-import {
-  bonferroniStudentT,
-  quantileNormal,
-  quantileStudentT,
-  survivalChiSquare,
-  survivalF,
-  t95,
-} from "@/lib/kinetics/distributions";
+import { bonferroniStudentT, quantileNormal, quantileStudentT, survivalChiSquare, survivalF, t95 } from "@/lib/kinetics/distributions";
 
 describe("distribution functions", () => {
   // Source: NIST/SEMATECH e-Handbook of Statistical Methods, §1.3.6.7.2 (critical values of

@@ -35,7 +35,8 @@ describe("handbook Arrhenius expressions (values from memory; fixture handbook-a
   it("the engine's R is the one the file's E/R ↔ Ea figures were computed with", () => {
     expect(GAS_CONSTANT).toBe(handbook.R_J_per_mol_K);
     // toJoulesPerMole(E/R in K) is the code under test; Ea_kJ_per_mol is the file's own figure.
-    for (const e of handbook["bimolecular_cm3_molecule-1_s-1"]) expect(toJoulesPerMole(e.E_over_R_K, "K") / 1000 / e.Ea_kJ_per_mol).toBeCloseTo(1, 12);
+    for (const e of handbook["bimolecular_cm3_molecule-1_s-1"])
+      expect(toJoulesPerMole(e.E_over_R_K, "K") / 1000 / e.Ea_kJ_per_mol).toBeCloseTo(1, 12);
   });
 
   it.each(entries)("$id: k(298 K) and k(250 K) from A and E/R match the file's computed values", (e) => {

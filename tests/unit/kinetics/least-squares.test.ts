@@ -97,10 +97,7 @@ describe("solveLeastSquares behaviour", () => {
     ];
     const y = [0.1, 1.2, 1.9, 3.3];
     const weighted = solveLeastSquares(x, y, [1, 2, 1, 3]);
-    const repeated = solveLeastSquares(
-      [x[0], x[1], x[1], x[2], x[3], x[3], x[3]],
-      [y[0], y[1], y[1], y[2], y[3], y[3], y[3]],
-    );
+    const repeated = solveLeastSquares([x[0], x[1], x[1], x[2], x[3], x[3], x[3]], [y[0], y[1], y[1], y[2], y[3], y[3], y[3]]);
     weighted.params.forEach((b, j) => expect(b).toBeCloseTo(repeated.params[j], 12));
     expect(weighted.rss).toBeCloseTo(repeated.rss, 12);
   });
@@ -149,7 +146,7 @@ describe("cross-checks against general-purpose npm libraries", () => {
     const points = makeArrheniusData(15, 11, weighted);
     const result = analyseDataset({ points, order: 2 });
     const sw = points.map((p) => ("sigmaLnK" in p ? 1 / (p.sigmaLnK as number) : 1));
-    const X = new Matrix(points.map((p, i) => [sw[i], (-sw[i] / (GAS_CONSTANT * p.T))]));
+    const X = new Matrix(points.map((p, i) => [sw[i], -sw[i] / (GAS_CONSTANT * p.T)]));
     const y = Matrix.columnVector(points.map((p, i) => sw[i] * Math.log(p.k)));
     // ml-matrix 6.15: β = X⁺y, (XᵀWX)⁻¹ = X⁺X⁺ᵀ.
     const pinv = pseudoInverse(X);

@@ -52,7 +52,8 @@ describe("analyseDataset properties (fast-check)", () => {
         expectClose(b.arrhenius.params.Ea, a.arrhenius.params.Ea, (a.arrhenius.se.Ea ?? 0) + 1);
         expectClose(b.arrhenius.params.lnA, a.arrhenius.params.lnA, (a.arrhenius.se.lnA ?? 0) + 1e-4);
         expectClose(b.arrhenius.rss, a.arrhenius.rss, 1e-14); // RSS below ~1e-20 is rounding noise
-        if (a.modifiedArrhenius) expectClose(b.modifiedArrhenius!.params.n, a.modifiedArrhenius.params.n, (a.modifiedArrhenius.se.n ?? 0) + 1e-6, 1e-6);
+        if (a.modifiedArrhenius)
+          expectClose(b.modifiedArrhenius!.params.n, a.modifiedArrhenius.params.n, (a.modifiedArrhenius.se.n ?? 0) + 1e-6, 1e-6);
         perm.forEach((from, to) => {
           expectClose(b.diagnostics!.leverage[to], a.diagnostics!.leverage[from], 1e-12);
           expectClose(b.diagnostics!.cooksDistance[to], a.diagnostics!.cooksDistance[from], 1e-12, 1e-6);

@@ -121,7 +121,13 @@ describe("energy conversions (fixture factors and worked examples)", () => {
   it.each(codata.energy_examples)("example %#", (example) => {
     const from = "from" in example ? (example.from as string) : null;
     const source =
-      from === "1 eV" ? { v: 1, u: "eV" } : from === "1 kcal/mol" ? { v: 1, u: "kcal/mol" } : from === "Ea/R = 1000 K" ? { v: 1000, u: "K" } : { v: example.Ea_J_per_mol as number, u: "J/mol" };
+      from === "1 eV"
+        ? { v: 1, u: "eV" }
+        : from === "1 kcal/mol"
+          ? { v: 1, u: "kcal/mol" }
+          : from === "Ea/R = 1000 K"
+            ? { v: 1000, u: "K" }
+            : { v: example.Ea_J_per_mol as number, u: "J/mol" };
     for (const [key, unit] of Object.entries(spelling)) {
       relClose(convertEnergy(source.v, source.u, unit), (example as unknown as Record<string, number>)[key], 1e-13);
     }

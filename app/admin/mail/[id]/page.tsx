@@ -40,14 +40,21 @@ export default async function MailMessagePage({ params }: { params: Promise<{ id
           <dt className="text-muted">To</dt>
           <dd>{message.toAddresses.join(", ")}</dd>
           <dt className="text-muted">Received</dt>
-          <dd><DateTime value={message.receivedAt} /></dd>
+          <dd>
+            <DateTime value={message.receivedAt} />
+          </dd>
         </dl>
         <div className="whitespace-pre-wrap border-t border-line pt-4 text-sm leading-relaxed">{linkify(message.text ?? "")}</div>
         {message.html && (
           <details className="border-t border-line pt-4 text-sm">
             <summary className="cursor-pointer">Show the HTML version</summary>
             {/* Sandboxed: the message's HTML can neither run scripts nor reach this page. */}
-            <iframe title="HTML version of the message" sandbox="allow-popups allow-popups-to-escape-sandbox" srcDoc={`<base target="_blank">${message.html}`} className="mt-3 h-96 w-full rounded-md border border-line bg-white" />
+            <iframe
+              title="HTML version of the message"
+              sandbox="allow-popups allow-popups-to-escape-sandbox"
+              srcDoc={`<base target="_blank">${message.html}`}
+              className="mt-3 h-96 w-full rounded-md border border-line bg-white"
+            />
           </details>
         )}
       </article>

@@ -14,7 +14,11 @@ export const POST = withApi(async ({ req }) => {
   const parsed = analysisRequestSchema.safeParse(body);
   if (!parsed.success) {
     const errors = zodToFieldErrors(parsed.error);
-    throw new AppError("validation_failed", `The request has ${errors.length} problem${errors.length === 1 ? "" : "s"}: ${errors[0].pointer} ${errors[0].message}`, errors.slice(0, 100));
+    throw new AppError(
+      "validation_failed",
+      `The request has ${errors.length} problem${errors.length === 1 ? "" : "s"}: ${errors[0].pointer} ${errors[0].message}`,
+      errors.slice(0, 100),
+    );
   }
   // The fit grows with the points: it runs on a worker thread, not the one serving requests.
   const outcome = await runAnalysisTask("analyse", parsed.data);

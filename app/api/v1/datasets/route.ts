@@ -16,7 +16,18 @@ export const POST = withApi(
       run: async () => {
         // Parsed and validated on an analysis worker thread, not here.
         const version = await depositNewDataset({ actor: user!, text: new TextDecoder().decode(body) });
-        return NextResponse.json({ data: { versionId: version.id, datasetId: version.datasetId, number: version.number, state: version.state, lockVersion: version.lockVersion } }, { status: 201, headers: { location: `/api/v1/versions/${version.id}` } });
+        return NextResponse.json(
+          {
+            data: {
+              versionId: version.id,
+              datasetId: version.datasetId,
+              number: version.number,
+              state: version.state,
+              lockVersion: version.lockVersion,
+            },
+          },
+          { status: 201, headers: { location: `/api/v1/versions/${version.id}` } },
+        );
       },
     });
   },

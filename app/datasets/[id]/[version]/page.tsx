@@ -64,7 +64,9 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
 
       {version.state === "retracted" && (
         <p role="note" className="rounded-md border border-error/40 bg-panel px-4 py-3 text-sm text-error">
-          <span className="font-semibold">Retracted{version.retractedAt ? ` on ${version.retractedAt.toISOString().slice(0, 10)}` : ""}: </span>
+          <span className="font-semibold">
+            Retracted{version.retractedAt ? ` on ${version.retractedAt.toISOString().slice(0, 10)}` : ""}:{" "}
+          </span>
           {version.retractionNotice}
         </p>
       )}
@@ -99,7 +101,9 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
 
       {result && (
         <section className="space-y-3" aria-labelledby="fit-heading">
-          <h2 id="fit-heading" className="text-2xl font-semibold">Re-fitted here</h2>
+          <h2 id="fit-heading" className="text-2xl font-semibold">
+            Re-fitted here
+          </h2>
           <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>
           <VersionFit analysis={result} order={doc.reaction.order} points={points} />
         </section>
@@ -107,11 +111,14 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
 
       {files.length > 0 && (
         <section className="card space-y-2" aria-labelledby="files-heading">
-          <h2 id="files-heading" className="text-lg font-semibold">Supplementary files</h2>
+          <h2 id="files-heading" className="text-lg font-semibold">
+            Supplementary files
+          </h2>
           <ul className="space-y-1 text-sm">
             {files.map((f) => (
               <li key={f.id}>
-                <a href={`/api/v1/files/${f.id}`}>{f.filename}</a> <span className="break-all font-mono text-xs text-muted">sha256 {f.sha256}</span>
+                <a href={`/api/v1/files/${f.id}`}>{f.filename}</a>{" "}
+                <span className="break-all font-mono text-xs text-muted">sha256 {f.sha256}</span>
               </li>
             ))}
           </ul>
@@ -120,7 +127,9 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
 
       {versions.length > 1 && (
         <section className="card space-y-2" aria-labelledby="versions-heading">
-          <h2 id="versions-heading" className="text-lg font-semibold">Other versions</h2>
+          <h2 id="versions-heading" className="text-lg font-semibold">
+            Other versions
+          </h2>
           <ul className="space-y-1 text-sm">
             {versions
               .filter((x) => x.number !== number)

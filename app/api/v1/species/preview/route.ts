@@ -17,7 +17,10 @@ export const GET = withApi(async ({ req }) => {
     const svg = identity.canonicalSmiles ? await renderSpeciesSvg(identity.canonicalSmiles, { width: 160, height: 120 }) : null;
     return NextResponse.json({ data: { ...identity, svg } }, { headers: { "cache-control": "public, max-age=86400" } });
   } catch (err) {
-    if (err instanceof ChemError) throw new AppError("validation_failed", err.message, [{ pointer: `/${err.field ?? (smiles ? "smiles" : "inchi")}`, message: err.message }]);
+    if (err instanceof ChemError)
+      throw new AppError("validation_failed", err.message, [
+        { pointer: `/${err.field ?? (smiles ? "smiles" : "inchi")}`, message: err.message },
+      ]);
     throw err;
   }
 });

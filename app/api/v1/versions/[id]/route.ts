@@ -14,7 +14,10 @@ const versionIdOrThrow = (raw: string) => parseIdOrThrow(raw, "dataset version")
 export const GET = withApi<{ id: string }>(
   async ({ user, params }) => {
     const { version, capabilities } = await getVisibleVersionOrThrow({ versionId: versionIdOrThrow(params.id), viewer: user });
-    return NextResponse.json({ data: await versionToJson(version, { withDecisions: capabilities.view_decisions }) }, { headers: { etag: `"${version.lockVersion}"` } });
+    return NextResponse.json(
+      { data: await versionToJson(version, { withDecisions: capabilities.view_decisions }) },
+      { headers: { etag: `"${version.lockVersion}"` } },
+    );
   },
   { identify: true, scope: "read" },
 );
@@ -25,11 +28,21 @@ export const PUT = withApi<{ id: string }>(
     const ifMatch = req.headers.get("if-match")?.replace(/"/g, "");
     const expected = Number(ifMatch);
     if (!ifMatch || !Number.isInteger(expected)) {
-      throw new AppError("validation_failed", "Send the lock version you edited as an If-Match header (the ETag of GET)", [{ pointer: "", message: "If-Match header missing" }]);
+      throw new AppError("validation_failed", "Send the lock version you edited as an If-Match header (the ETag of GET)", [
+        { pointer: "", message: "If-Match header missing" },
+      ]);
     }
     // Parsed and validated on an analysis worker thread, not here.
-    const saved = await updateDraft({ actor: user!, versionId, expectedLockVersion: expected, text: await readTextBodyOrThrow(req, { limit: MAX_DOCUMENT_BYTES, what: "deposit document" }) });
-    return NextResponse.json({ data: { versionId: saved.id, lockVersion: saved.lockVersion, state: saved.state } }, { headers: { etag: `"${saved.lockVersion}"` } });
+    const saved = await updateDraft({
+      actor: user!,
+      versionId,
+      expectedLockVersion: expected,
+      text: await readTextBodyOrThrow(req, { limit: MAX_DOCUMENT_BYTES, what: "deposit document" }),
+    });
+    return NextResponse.json(
+      { data: { versionId: saved.id, lockVersion: saved.lockVersion, state: saved.state } },
+      { headers: { etag: `"${saved.lockVersion}"` } },
+    );
   },
   { permission: "dataset.deposit", scope: "deposit" },
 );

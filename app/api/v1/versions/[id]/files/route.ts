@@ -25,9 +25,14 @@ export const POST = withApi<{ id: string }>(
   async ({ req, user, params }) => {
     const versionId = idOf(params.id);
     // Counted before any part is decoded: an oversized upload is refused without being held.
-    const form = await readFormDataOrThrow(req, { limit: MAX_FILE_BYTES + BODY_LIMITS.multipartOverhead, what: "upload", shownLimit: MAX_FILE_BYTES });
+    const form = await readFormDataOrThrow(req, {
+      limit: MAX_FILE_BYTES + BODY_LIMITS.multipartOverhead,
+      what: "upload",
+      shownLimit: MAX_FILE_BYTES,
+    });
     const file = form.get("file");
-    if (!file || typeof file === "string") throw new AppError("validation_failed", "Send the file as multipart form field “file”", [{ pointer: "/file", message: "missing" }]);
+    if (!file || typeof file === "string")
+      throw new AppError("validation_failed", "Send the file as multipart form field “file”", [{ pointer: "/file", message: "missing" }]);
     const content = new Uint8Array(await file.arrayBuffer());
     // The multipart boundary differs on every retry, so the key is matched on name and content.
     const fingerprint = `${file.name}\n${createHash("sha256").update(content).digest("hex")}`;

@@ -17,7 +17,10 @@ export const POST = withApi<{ id: string }>(
       fingerprint: body,
       run: async () => {
         const v = await startNextVersion({ actor: user!, versionId });
-        return NextResponse.json({ data: { versionId: v.id, number: v.number, state: v.state, lockVersion: v.lockVersion } }, { status: 201, headers: { location: `/api/v1/versions/${v.id}` } });
+        return NextResponse.json(
+          { data: { versionId: v.id, number: v.number, state: v.state, lockVersion: v.lockVersion } },
+          { status: 201, headers: { location: `/api/v1/versions/${v.id}` } },
+        );
       },
     });
   },

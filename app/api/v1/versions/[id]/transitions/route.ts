@@ -25,7 +25,8 @@ export const POST = withApi<{ id: string }>(
       fingerprint: body,
       run: async () => {
         const parsed = bodySchema.safeParse(parseJsonBytesOrThrow(body));
-        if (!parsed.success) throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
+        if (!parsed.success)
+          throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
         const { transition, reason } = parsed.data;
         // Role and dataset membership are re-read inside the transaction (lib/curation/transitions.ts).
         const outcome = await transitionVersion({ actor: user!, versionId, transition, reason });
