@@ -56,8 +56,14 @@ function formatSide(side: readonly KeyedParticipant[], field: "reactants" | "pro
  * belongs to one direction (the reverse one follows only through the equilibrium constant).
  * Species on both sides (third bodies, catalysts) are kept as written, not cancelled.
  *
+ * With `productsUnknown`, an empty product side is allowed and written "*".
+ *
  * @example reactionKey({ reactants: [{ inchiKey: OH, coefficient: 1 }, { inchiKey: CH4, coefficient: 1 }], products: [...] })
  */
-export function reactionKey(reaction: KeyedReaction): string {
-  return `${formatSide(reaction.reactants, "reactants")}>>${formatSide(reaction.products, "products")}`;
+export function reactionKey(reaction: KeyedReaction, options: { productsUnknown?: boolean } = {}): string {
+  // An overall removal rate (products not determined) has no product side: "*" stands for it, so
+  // every removal-rate deposit of the same reactants lands on one reaction, apart from the
+  // reactions whose products are known.
+  const products = options.productsUnknown && reaction.products.length === 0 ? "*" : formatSide(reaction.products, "products");
+  return `${formatSide(reaction.reactants, "reactants")}>>${products}`;
 }

@@ -88,7 +88,10 @@ async function prepareOrThrow(text: string, parsed?: unknown): Promise<PreparedD
   const reactants = participants.filter((p) => p.side === "reactant");
   const products = participants.filter((p) => p.side === "product");
   const toKeyed = (ps: typeof participants) => ps.map((p) => ({ inchiKey: p.identity.inchiKey, coefficient: p.coefficient }));
-  const key = reactionKey({ reactants: toKeyed(reactants), products: toKeyed(products) });
+  const key = reactionKey(
+    { reactants: toKeyed(reactants), products: toKeyed(products) },
+    { productsUnknown: Boolean(doc.reaction.productsUnknown) },
+  );
   const label = (p: (typeof participants)[number]) => `${p.coefficient !== 1 ? `${p.coefficient} ` : ""}${p.name ?? p.identity.formula}`;
   const equation = `${reactants.map(label).join(" + ")} → ${products.length ? products.map(label).join(" + ") : "products"}`;
 

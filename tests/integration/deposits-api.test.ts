@@ -49,6 +49,20 @@ const transition = (id: number, body: unknown) =>
   postTransition(req(`/api/v1/versions/${id}/transitions`, { method: "POST", body: JSON.stringify(body) }), ctx(id));
 
 describe("POST /api/v1/datasets", () => {
+  it("stores an overall removal rate (products not determined) on a reaction of its own", async () => {
+    const reaction = {
+      ...EXAMPLE_DEPOSIT.reaction,
+      products: [],
+      productsUnknown: { reason: "loss of the radical followed; products not analysed" },
+    };
+    const { res, json } = await deposit(doc({ reaction }));
+    expect(res.status).toBe(201);
+    const [r] =
+      await sql`select r.key, r.equation from dataset_versions v join reactions r on r.id = v.reaction_id where v.id = ${json.data.versionId}`;
+    expect(r.key).toMatch(/>>\*$/);
+    expect(r.equation).toMatch(/→ products$/);
+  });
+
   it("stores a valid document as a draft with species, reaction, points and the analysis", async () => {
     const { res, json } = await deposit();
     expect(res.status).toBe(201);

@@ -32,6 +32,13 @@ describe("reactionKey", () => {
     for (const [r, p] of permutations) expect(reactionKey({ reactants: r, products: p })).toBe(expected);
   });
 
+  it("writes an undetermined product side as * only when the products are declared unknown", () => {
+    expect(reactionKey({ reactants: [one(CH4), one(OH)], products: [] }, { productsUnknown: true })).toBe(`${OH}+${CH4}>>*`);
+    expect(() => reactionKey({ reactants: [one(OH), one(CH4)], products: [] })).toThrow(/at least one species among its products/);
+    const known = reactionKey({ reactants: [one(OH), one(CH4)], products: [one(H2O), one(CH3)] }, { productsUnknown: true });
+    expect(known).toBe(`${OH}+${CH4}>>${CH3}+${H2O}`);
+  });
+
   it("keeps direction: A + B → C and C → A + B are different reactions", () => {
     const forward = reactionKey({ reactants: [one(OH), one(CH4)], products: [one(H2O), one(CH3)] });
     const reverse = reactionKey({ reactants: [one(H2O), one(CH3)], products: [one(OH), one(CH4)] });
