@@ -102,6 +102,11 @@ export const datasetVersions = pgTable(
     reactionId: integer().references(() => reactions.id),
     /** The deposit document (schemas/deposit.v1.schema.json) as last saved. */
     payload: jsonb().$type<Record<string, unknown>>().notNull(),
+    /**
+     * The names this version's document gives its species. Public pages show names from published
+     * versions only, and they join the species' names at publication: a draft never renames anything.
+     */
+    participantNames: jsonb().$type<{ speciesId: number; name: string }[]>().notNull().default([]),
     lockVersion: integer().notNull().default(1),
     /** SHA-256 of the canonical payload, fixed at publication. */
     payloadSha256: text(),

@@ -124,8 +124,18 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
       { name: string }[]
     >`select nspname as name from pg_namespace where has_schema_privilege(oid, 'CREATE') and nspname not like 'pg_temp%' and nspname not like 'pg_toast%' order by 1`
   ).map((r) => r.name);
-  const [db] = await sql<{ create: boolean; replication: boolean }[]>`
-    select has_database_privilege(current_database(), 'CREATE') as create, has_parameter_privilege('session_replication_role', 'SET') as replication`;
+  const [db] = await sql<{ create: boolean; temporary: boolean; replication: boolean }[]>`
+    select has_database_privilege(current_database(), 'CREATE') as create, has_database_privilege(current_database(), 'TEMPORARY') as temporary,
+      has_parameter_privilege('session_replication_role', 'SET') as replication`;
+  // A guard function that resolves table names through the caller's search_path can be fooled by
+  // a temporary table of the same name: each must carry its own search_path.
+  const unpinned = (
+    await sql<{ name: string }[]>`
+      select p.proname as name from pg_proc p join pg_namespace n on n.oid = p.pronamespace
+        where n.nspname = 'public' and left(p.proname, 9) = 'arrhenia_'
+          and not exists (select 1 from unnest(coalesce(p.proconfig, '{}')) c where c like 'search_path=%' and c not like 'search_path=%pg_temp%,%')
+        order by 1`
+  ).map((r) => r.name);
   const triggers = await sql<
     { name: string; enabled: string }[]
   >`select tgname as name, tgenabled as enabled from pg_trigger where tgname = any(${FREEZE_TRIGGERS})`;
@@ -157,6 +167,8 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     }),
     { check: "CREATE on schemas", found: none(schemasWithCreate), ok: schemasWithCreate.length === 0 },
     { check: "CREATE on the database", found: String(db.create), ok: !db.create },
+    { check: "TEMPORARY on the database (tables that shadow)", found: String(db.temporary), ok: !db.temporary },
+    { check: "guard functions without a fixed search_path", found: none(unpinned), ok: unpinned.length === 0 },
     { check: "may set session_replication_role", found: String(db.replication), ok: !db.replication },
     { check: "UPDATE/DELETE on append-only tables", found: none(appendOnlyWritable), ok: appendOnlyWritable.length === 0 },
     { check: "freeze triggers missing or disabled", found: none(missing), ok: missing.length === 0 },
@@ -167,6 +179,7 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     ["ALTER TABLE … DISABLE TRIGGER", "ALTER TABLE public.dataset_versions DISABLE TRIGGER dataset_versions_frozen_when_published"],
     ["DROP TRIGGER", "DROP TRIGGER version_points_frozen_when_published ON public.version_points"],
     ["TRUNCATE", "TRUNCATE public.version_points"],
+    ["CREATE TEMP TABLE dataset_versions", "CREATE TEMP TABLE dataset_versions (id integer, state text)"],
   ];
   for (const [check, statement] of attempts) {
     const refused = await isRefused(sql, statement);

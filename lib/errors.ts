@@ -84,3 +84,33 @@ export function storageRefusal(err: unknown): AppError | null {
   }
   return null;
 }
+
+// Connection failures of the database (a restart, a full pool that cannot connect): the request
+// may be retried in a moment, so they answer 503 with Retry-After rather than 500.
+const UNAVAILABLE_CODES = new Set([
+  "ECONNREFUSED",
+  "ECONNRESET",
+  "EPIPE",
+  "CONNECTION_CLOSED",
+  "CONNECTION_ENDED",
+  "CONNECTION_DESTROYED",
+  "CONNECT_TIMEOUT",
+  "57P01", // admin_shutdown
+  "57P02", // crash_shutdown
+  "57P03", // cannot_connect_now (starting up)
+  "08000",
+  "08001",
+  "08003",
+  "08006",
+]);
+
+/** The 503 for an error that means the database is briefly out of reach, or null. */
+export function databaseUnavailable(err: unknown): AppError | null {
+  for (let e: unknown = err, depth = 0; e && typeof e === "object" && depth < 4; e = (e as { cause?: unknown }).cause, depth++) {
+    const { code } = e as { code?: unknown };
+    if (typeof code === "string" && UNAVAILABLE_CODES.has(code)) {
+      return new AppError("unavailable", "The database is out of reach for a moment; try again in a few seconds", [], 5);
+    }
+  }
+  return null;
+}

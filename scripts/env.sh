@@ -147,7 +147,8 @@ ALTER ROLE $APP_ROLE WITH LOGIN NOSUPERUSER NOCREATEDB NOCREATEROLE NOREPLICATIO
 SELECT 'CREATE DATABASE arrhenia OWNER $OWNER_ROLE' WHERE NOT EXISTS (SELECT 1 FROM pg_database WHERE datname = 'arrhenia') \gexec
 ALTER DATABASE arrhenia OWNER TO $OWNER_ROLE;
 REVOKE ALL ON DATABASE arrhenia FROM PUBLIC;
-GRANT CONNECT, TEMPORARY ON DATABASE arrhenia TO $APP_ROLE;
+REVOKE TEMPORARY ON DATABASE arrhenia FROM $APP_ROLE;
+GRANT CONNECT ON DATABASE arrhenia TO $APP_ROLE;
 SQL
   # Clusters from older checkouts: everything the superuser created moves to the owner role.
   pg_admin_psql "$dir" "$port" arrhenia <<SQL >/dev/null

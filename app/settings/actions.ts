@@ -22,7 +22,8 @@ export const changePasswordAction = protectedAction(
   { permission: "account.update" },
   async ({ current, password }, user) => {
     await changePassword({ userId: user.id, current, password });
-    // A new password ends every session of the person, this one included.
+    // A new password ends every session of the person, this one included: the header must say so too.
+    revalidatePath("/", "layout");
     redirect("/sign-in?reset=1");
   },
 );

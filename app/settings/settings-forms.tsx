@@ -49,6 +49,9 @@ export function PasswordForm() {
         error={e.password}
       />
       <FormField label="New password again" name="confirm" type="password" autoComplete="new-password" required error={e.confirm} />
+      <p className="text-sm text-muted">
+        Changing it signs you out everywhere, here too. API tokens keep working: revoke them below if your password may have leaked.
+      </p>
       <SubmitButton>Change password</SubmitButton>
     </form>
   );

@@ -40,7 +40,7 @@ export function SignInForm({ callbackUrl, verified, reset }: { callbackUrl: stri
       )}
       {reset && (
         <p role="status" className="rounded-md border border-ok/40 px-3 py-2 text-sm text-ok">
-          Your password has been changed. Sign in with the new one.
+          Your password has been changed and every session of yours has ended. Sign in with the new one.
         </p>
       )}
       {error && (

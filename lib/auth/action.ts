@@ -74,6 +74,8 @@ function toState(err: unknown, formData?: FormData): ActionState {
 /** Server action for signed-in people: session → zod → permission → body → error mapping. */
 export function protectedAction<S extends z.ZodType>(schema: S, options: { permission: Permission }, body: Body<S>) {
   return async (_prev: ActionState, formData: FormData): Promise<ActionState> => {
+    // Anyone can post any arguments to an action's id: a form action takes form data only.
+    if (!(formData instanceof FormData)) return { status: "error", message: "This form was sent in a shape it does not accept." };
     try {
       const user = await getCurrentUser();
       if (!user) throw new AppError("unauthenticated", "Your session has ended; sign in again");
@@ -102,6 +104,8 @@ export function protectedAction<S extends z.ZodType>(schema: S, options: { permi
 /** Server action open to anyone (sign-up, password reset): zod → body → error mapping. */
 export function publicAction<S extends z.ZodType>(schema: S, body: PublicBody<S>) {
   return async (_prev: ActionState, formData: FormData): Promise<ActionState> => {
+    // Anyone can post any arguments to an action's id: a form action takes form data only.
+    if (!(formData instanceof FormData)) return { status: "error", message: "This form was sent in a shape it does not accept." };
     try {
       const unstorable = unstorableFields(formData);
       if (unstorable)

@@ -1,7 +1,7 @@
 import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError, type z } from "zod";
-import { AppError, problemJson, storageRefusal, type FieldError } from "@/lib/errors";
+import { AppError, databaseUnavailable, problemJson, storageRefusal, type FieldError } from "@/lib/errors";
 import { BODY_LIMITS, readJsonBodyOrThrow } from "@/lib/http/read-body";
 import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
 import { getUserByApiToken, type ApiTokenScope, type UserDto } from "@/lib/users/queries";
@@ -58,7 +58,10 @@ function bearerSecret(req: Request): string | null {
 async function resolveToken(secret: string, scope: ApiScope | null): Promise<UserDto> {
   const found = await getUserByApiToken({ secret });
   if (!found) throw new AppError("unauthenticated", "The API token is unknown or revoked");
-  if (scope && !found.scopes.includes(scope)) throw new AppError("forbidden", `This token lacks the “${scope}” scope`);
+  // A token that may change things may also read what its holder may see.
+  const held = new Set<ApiScope>(found.scopes);
+  if (held.has("deposit") || held.has("admin")) held.add("read");
+  if (scope && !held.has(scope)) throw new AppError("forbidden", `This token lacks the “${scope}” scope`);
   return found.user;
 }
 
@@ -111,6 +114,11 @@ export function withApi<P = Record<string, string>>(
       if (err instanceof AppError) return problemResponse(err, instance);
       if (err instanceof ZodError)
         return problemResponse(new AppError("validation_failed", "Invalid input", zodToFieldErrors(err)), instance);
+      const unavailable = databaseUnavailable(err);
+      if (unavailable) {
+        console.warn(`[api] ${req.method} ${instance}: database out of reach`, (err as Error).message);
+        return problemResponse(unavailable, instance);
+      }
       const refused = storageRefusal(err);
       if (refused) {
         console.warn(`[api] ${req.method} ${instance}: input refused by the database`, err);

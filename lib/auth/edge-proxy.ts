@@ -39,8 +39,9 @@ const STRIPPED_UNTRUSTED = ["x-forwarded-host", "x-forwarded-proto", "x-forwarde
 /** A state-changing request to a page (a server action or form post) from another origin. */
 export function isCrossOriginPagePost(method: string | undefined, url: string | undefined, headers: http.IncomingHttpHeaders): boolean {
   if (!method || ["GET", "HEAD", "OPTIONS"].includes(method)) return false;
-  // The REST API and next-auth's endpoints authenticate (bearer tokens, CSRF tokens) on their own.
-  if ((url ?? "/").startsWith("/api/")) return false;
+  // The REST API and next-auth's endpoints authenticate (bearer tokens, CSRF tokens) on their own;
+  // a server action is checked whatever path it is sent to.
+  if ((url ?? "/").startsWith("/api/") && headers["next-action"] === undefined) return false;
   const origin = headers.origin;
   if (origin === undefined) return false;
   const forwardedHost = typeof headers["x-forwarded-host"] === "string" ? headers["x-forwarded-host"].split(",")[0]?.trim() : undefined;
@@ -50,6 +51,27 @@ export function isCrossOriginPagePost(method: string | undefined, url: string | 
   } catch {
     return true; // "null" or garbage: an opaque origin is never ours
   }
+}
+
+/** Largest server-action body, bytes: the deposit editor sends whole documents, every other action a form. */
+export function actionBodyLimit(url: string | undefined): number {
+  return (url ?? "/").startsWith("/deposits") ? 32 * 1024 * 1024 : 1024 * 1024;
+}
+
+/** A path Next.js cannot decode (bad percent-encoding) is answered here, as not found. */
+export function hasUndecodablePath(url: string | undefined): boolean {
+  const path = (url ?? "/").split("?")[0];
+  try {
+    decodeURIComponent(path);
+    return false;
+  } catch {
+    return true;
+  }
+}
+
+function refuse(res: http.ServerResponse, status: number, code: string, title: string, detail: string) {
+  res.writeHead(status, { "content-type": "application/problem+json", connection: "close" });
+  res.end(JSON.stringify({ type: "about:blank", title, status, code, detail }));
 }
 
 /** Rewrites the incoming headers for the app behind; exported for tests. */
@@ -81,17 +103,21 @@ export async function startEdgeProxy({
   const server = http.createServer((req, res) => {
     const headers = forwardedHeaders(req, trust, key);
     if (isCrossOriginPagePost(req.method, req.url, headers as http.IncomingHttpHeaders)) {
-      res.writeHead(403, { "content-type": "application/problem+json" });
-      res.end(
-        JSON.stringify({
-          type: "about:blank",
-          title: "Forbidden",
-          status: 403,
-          code: "forbidden",
-          detail: "This form was sent from another site.",
-        }),
-      );
+      refuse(res, 403, "forbidden", "Forbidden", "This form was sent from another site.");
       req.resume();
+      return;
+    }
+    if (hasUndecodablePath(req.url)) {
+      refuse(res, 404, "not_found", "Not found", "This address has a malformed %-escape.");
+      req.resume();
+      return;
+    }
+    // Server actions: Next reads the whole body before any code of ours runs, so it is capped here.
+    const limit = req.headers["next-action"] !== undefined ? actionBodyLimit(req.url) : Infinity;
+    const tooLarge = () => refuse(res, 413, "payload_too_large", "Payload too large", `A form may send at most ${limit / 1024 / 1024} MB.`);
+    if (Number(req.headers["content-length"] ?? 0) > limit) {
+      tooLarge();
+      req.destroy();
       return;
     }
     const upstream = http.request(
@@ -102,6 +128,7 @@ export async function startEdgeProxy({
       },
     );
     upstream.on("error", () => {
+      if (res.writableEnded) return; // already answered (e.g. 413)
       if (!res.headersSent) res.writeHead(502, { "content-type": "text/plain" }).end("The application is starting or unavailable.");
       else res.destroy();
     });
@@ -109,7 +136,25 @@ export async function startEdgeProxy({
     res.on("close", () => {
       if (!res.writableFinished) upstream.destroy();
     });
-    req.pipe(upstream);
+    if (limit === Infinity) {
+      req.pipe(upstream);
+      return;
+    }
+    let received = 0;
+    req.on("data", (chunk: Buffer) => {
+      received += chunk.length;
+      if (received > limit) {
+        if (!res.headersSent) tooLarge();
+        upstream.destroy();
+        req.unpipe();
+        req.removeAllListeners("data");
+        req.resume();
+        return;
+      }
+      if (!upstream.write(chunk)) req.pause();
+    });
+    upstream.on("drain", () => req.resume());
+    req.on("end", () => upstream.end());
   });
   await new Promise<void>((resolve, reject) => {
     server.once("error", reject);

@@ -23,7 +23,7 @@ export const SIGN_IN_FAILED = "E-mail or password is not right.";
 
 /** The one wording while sign-in is paused, whatever password was typed, so a lock never confirms a guess. */
 export const SIGN_IN_LOCKED =
-  "Sign-in to this account is paused after too many failed attempts. If the password you typed is right, we have e-mailed you a link that signs you in.";
+  "Sign-in to this account from here is paused for 15 minutes after too many failed attempts (longer after failures from many places). If the password you typed is right and the address is confirmed, we have e-mailed you a link that signs you in; if you have forgotten the password, choose a new one (link below).";
 
 const pairKey = (email: string, ip: string) => `${email.toLowerCase()}|${ip}`;
 

@@ -6,6 +6,7 @@ import { getDb, type Transaction } from "@/db/client";
 import { datasetMembers, datasets, datasetVersions, decisions, identifierRegistrations } from "@/db/datasets";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
+import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
 import { AppError } from "@/lib/errors";
 import { seriesIdentifier, versionIdentifier } from "@/lib/identifiers/mint";
 import { planTransition } from "./capabilities";
@@ -55,6 +56,7 @@ export async function applyTransition({
         number: datasetVersions.number,
         state: datasetVersions.state,
         payload: datasetVersions.payload,
+        participantNames: datasetVersions.participantNames,
       })
       .from(datasetVersions)
       .where(eq(datasetVersions.id, versionId))
@@ -78,6 +80,7 @@ export async function applyTransition({
         .update(datasetVersions)
         .set({ state: to, publishedAt: now, updatedAt: now, payloadSha256: payloadSha256(version.payload), versionIdentifier: ids.version })
         .where(eq(datasetVersions.id, versionId));
+      await addPublishedSpeciesNames(tx, version.participantNames);
       await tx
         .update(datasets)
         .set({ seriesIdentifier: ids.series })

@@ -131,7 +131,9 @@ export async function createDatasetDraft(input: {
   reaction?: ReactionInput;
 }) {
   return getDb().transaction(async (tx) => {
-    const reactionId = input.reaction ? await upsertReaction(tx, input.reaction) : null;
+    const { reactionId, participantNames } = input.reaction
+      ? await upsertReaction(tx, input.reaction)
+      : { reactionId: null, participantNames: [] };
     const [dataset] = await tx.insert(datasets).values({ ownerId: input.ownerId }).returning({ id: datasets.id });
     await tx.insert(datasetMembers).values({ datasetId: dataset.id, userId: input.ownerId, role: "owner" });
     const [version] = await tx
@@ -142,6 +144,7 @@ export async function createDatasetDraft(input: {
         title: input.title,
         reactionId,
         payload: input.payload,
+        participantNames,
         createdBy: input.ownerId,
         ...summarise(input.points, input.analysis),
       })
@@ -174,13 +177,16 @@ export async function saveDraft(input: {
 }) {
   return getDb().transaction(async (tx) => {
     // The reaction is stored on this version only: published versions keep the one they showed.
-    const reactionId = input.reaction ? await upsertReaction(tx, input.reaction) : undefined;
+    const { reactionId, participantNames } = input.reaction
+      ? await upsertReaction(tx, input.reaction)
+      : { reactionId: undefined, participantNames: undefined };
     const [row] = await tx
       .update(datasetVersions)
       .set({
         title: input.title,
         reactionId,
         payload: input.payload,
+        participantNames,
         lockVersion: input.expectedLockVersion + 1,
         updatedAt: new Date(),
         ...summarise(input.points, input.analysis),
@@ -347,6 +353,7 @@ export async function createNextVersion({ datasetId, actorId }: { datasetId: num
         title: datasetVersions.title,
         reactionId: datasetVersions.reactionId,
         payload: datasetVersions.payload,
+        participantNames: datasetVersions.participantNames,
       })
       .from(datasetVersions)
       .where(eq(datasetVersions.datasetId, datasetId))
@@ -390,6 +397,7 @@ export async function createNextVersion({ datasetId, actorId }: { datasetId: num
         title: latest.title,
         reactionId: latest.reactionId,
         payload: latest.payload,
+        participantNames: latest.participantNames,
         createdBy: actorId,
         ...summarise(stored, summary),
       })

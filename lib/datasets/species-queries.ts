@@ -11,14 +11,18 @@ export interface ResolvedParticipant {
   side: "reactant" | "product";
 }
 
+/** The names a version's document gives its species; kept on the version (participant_names). */
+export type ParticipantNames = { speciesId: number; name: string }[];
+
 /**
- * Stores the reaction's species (one row per InChIKey; names kept as aliases) and the reaction
- * (one row per key), inside the caller's transaction. Returns the reaction id.
+ * Stores the reaction's species (one row per InChIKey) and the reaction (one row per key), inside
+ * the caller's transaction. Returns the reaction id and the names the document gives each species;
+ * those become the species' names only when the version is published (addPublishedSpeciesNames).
  */
 export async function upsertReaction(
   tx: Transaction,
   { key, equation, participants }: { key: string; equation: string; participants: ResolvedParticipant[] },
-): Promise<number> {
+): Promise<{ reactionId: number; participantNames: ParticipantNames }> {
   const ids = new Map<string, number>();
   for (const p of participants) {
     const s = p.identity;
@@ -38,7 +42,6 @@ export async function upsertReaction(
       .returning({ id: species.id });
     const row = inserted ?? (await tx.select({ id: species.id }).from(species).where(eq(species.inchiKey, s.inchiKey)))[0];
     ids.set(s.inchiKey, row.id);
-    if (p.name) await tx.insert(speciesNames).values({ speciesId: row.id, name: p.name }).onConflictDoNothing();
   }
   const [existing] = await tx.insert(reactions).values({ key, equation }).onConflictDoNothing().returning({ id: reactions.id });
   if (existing) {
@@ -52,8 +55,17 @@ export async function upsertReaction(
     await tx
       .insert(reactionParticipants)
       .values([...merged.values()].map((m) => ({ reactionId: existing.id, ...m, coefficient: m.coefficient })));
-    return existing.id;
+    return { reactionId: existing.id, participantNames: namesOf(participants, ids) };
   }
   const [found] = await tx.select({ id: reactions.id }).from(reactions).where(eq(reactions.key, key));
-  return found.id;
+  return { reactionId: found.id, participantNames: namesOf(participants, ids) };
+}
+
+function namesOf(participants: ResolvedParticipant[], ids: Map<string, number>): ParticipantNames {
+  return participants.filter((p) => p.name).map((p) => ({ speciesId: ids.get(p.identity.inchiKey)!, name: p.name! }));
+}
+
+/** At publication: the names the version gives its species join the species' names (aliases). */
+export async function addPublishedSpeciesNames(tx: Transaction, names: ParticipantNames): Promise<void> {
+  if (names.length) await tx.insert(speciesNames).values(names).onConflictDoNothing();
 }

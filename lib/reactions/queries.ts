@@ -1,7 +1,7 @@
 import "server-only";
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { reactionParticipants, reactions, species, speciesNames } from "@/db/chemistry";
+import { reactionParticipants, reactions, species } from "@/db/chemistry";
 import { datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
 
 /**
@@ -30,9 +30,13 @@ export async function getReaction({ id }: { id: number }) {
       smiles: species.canonicalSmiles,
       inchiKey: species.inchiKey,
       molarMass: species.molarMass,
-      names: sql<
-        string[]
-      >`coalesce((select array_agg(n.name order by n.name) from ${speciesNames} n where n.species_id = ${species.id}), '{}')`,
+      // Names come from the published versions of this reaction, the newest first: a draft never renames a species.
+      names: sql<string[]>`coalesce((
+        select array_agg(name order by newest desc, name) from (
+          select e->>'name' as name, max(v.published_at) as newest
+          from ${datasetVersions} v, jsonb_array_elements(v.participant_names) e
+          where v.reaction_id = ${id} and v.state in ('published', 'retracted') and (e->>'speciesId')::int = ${species.id}
+          group by e->>'name') named), '{}')`,
     })
     .from(reactionParticipants)
     .innerJoin(species, eq(species.id, reactionParticipants.speciesId))

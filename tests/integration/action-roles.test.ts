@@ -192,3 +192,15 @@ describe("public actions answer every role alike and never fail inside", () => {
     });
   }
 });
+
+describe("form actions called with arguments of another shape", () => {
+  it("answer with a plain error, never an exception", async () => {
+    vi.mocked(getCurrentUser).mockResolvedValue(null);
+    for (const action of [forgotPasswordAction, signUpAction, updateProfileAction, changePasswordAction]) {
+      for (const args of [["x"], { entries: 1 }, null, "text"]) {
+        const state = await (action as (p: ActionState, f: unknown) => Promise<ActionState>)(idleState, args);
+        expect(state).toMatchObject({ status: "error", message: "This form was sent in a shape it does not accept." });
+      }
+    }
+  });
+});

@@ -201,3 +201,22 @@ describe("creating a token with the admin scope", () => {
     });
   }
 });
+
+describe("a token that may change things may also read", () => {
+  it("deposit and admin tokens read a published version; a token with no scope does not", async () => {
+    const [published] = await sql`select id from dataset_versions where state = 'published' order by id limit 1`;
+    const get = async (scopes: ApiTokenScope[]) =>
+      (
+        await version.GET(
+          new Request(`http://127.0.0.1/api/v1/versions/${published.id}`, {
+            headers: { authorization: `Bearer ${await tokenFor(admin, scopes)}` },
+          }),
+          { params: Promise.resolve({ id: String(published.id) }) },
+        )
+      ).status;
+    expect(await get(["deposit"])).toBe(200);
+    expect(await get(["admin"])).toBe(200);
+    expect(await get(["read"])).toBe(200);
+    expect(await get([])).toBe(403);
+  });
+});

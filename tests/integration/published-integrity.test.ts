@@ -223,6 +223,11 @@ describe("the freeze holds against the runtime role", () => {
     ["become the owner", `set role arrhenia_owner`, /permission denied|must be a member/],
     ["grant itself superuser", `alter role current_user superuser`, notAllowed],
     ["create a table", `create table public.scratch (id int)`, notAllowed],
+    [
+      "shadow dataset_versions with a temporary table, then edit the points",
+      `create temp table dataset_versions (id int, state text); update public.version_points set rate_constant = 1 where version_id = ${published.id}`,
+      notAllowed,
+    ],
   ];
 
   it("refuses every statement an attacker with the app's credentials would try, and nothing changes", async () => {
@@ -322,6 +327,15 @@ describe("the runtime role's privileges (npm run db:privileges)", () => {
       const { checks } = await inspectRuntimePrivileges(owner!);
       const failed = checks.filter((c) => !c.ok).map((c) => c.check);
       expect(failed).toEqual(expect.arrayContaining(["owns objects", "CREATE on schemas", "ALTER TABLE … DISABLE TRIGGER refused"]));
+    });
+    it.skipIf(!owner)("a guard function without a fixed search_path fails the runtime role's check", async () => {
+      await owner!.unsafe(`create function arrhenia_unpinned_probe() returns boolean language sql as 'select true'`);
+      try {
+        const { checks } = await inspectRuntimePrivileges(sql);
+        expect(checks.find((c) => c.check.startsWith("guard functions"))).toMatchObject({ ok: false, found: "arrhenia_unpinned_probe" });
+      } finally {
+        await owner!.unsafe(`drop function arrhenia_unpinned_probe()`);
+      }
     });
     it.skipIf(!owner)(
       "even the owner meets the triggers: decisions and registrations stay append-only, published tables refuse TRUNCATE",

@@ -48,3 +48,43 @@ describe("datasets of the same reaction meet on one reaction", () => {
     expect(after.datasets - before.datasets).toBe(2);
   });
 });
+
+describe("species names on public pages", () => {
+  it("come from published versions only: a draft's names change nothing until it is published", async () => {
+    const owner = await createUser({ email: uniqueEmail("rxn"), name: "Names Owner", passwordHash: "x", verified: true });
+    const curator = await createUser({
+      email: uniqueEmail("rxnc"),
+      name: "Names Curator",
+      passwordHash: "x",
+      role: "curator",
+      verified: true,
+    });
+    const named = (title: string, methane: string) => ({
+      ...EXAMPLE_DEPOSIT,
+      title,
+      reaction: {
+        ...EXAMPLE_DEPOSIT.reaction,
+        reactants: [
+          { smiles: "[OH]", name: "hydroxyl" },
+          { smiles: "C", name: methane },
+        ],
+      },
+    });
+    const published = await depositNewDataset({ actor: owner, document: named("Names published", "methane") });
+    await applyTransition({ versionId: published.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: published.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
+    const [{ reaction_id: reactionId }] = await sql`select reaction_id from dataset_versions where id = ${published.id}`;
+    const methaneNames = async () => (await getReaction({ id: reactionId }))!.participants.find((p) => p.formula === "CH4")!.names;
+
+    const draft = await depositNewDataset({ actor: owner, document: named("Names draft", "AAA renamed by a draft") });
+    expect(await methaneNames()).not.toContain("AAA renamed by a draft");
+    const [{ n }] = await sql`select count(*)::int as n from species_names where name = 'AAA renamed by a draft'`;
+    expect(n).toBe(0);
+
+    await applyTransition({ versionId: draft.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: draft.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
+    expect(await methaneNames()).toContain("AAA renamed by a draft");
+    const [{ m }] = await sql`select count(*)::int as m from species_names where name = 'AAA renamed by a draft'`;
+    expect(m).toBe(1);
+  });
+});

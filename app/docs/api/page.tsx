@@ -42,9 +42,9 @@ export default function ApiDocsPage() {
         <p className="text-sm">
           A token carries one or more scopes, chosen when it is created: <code>read</code> (fetch what you may see, including your drafts),{" "}
           <code>deposit</code> (create, edit, submit and withdraw your datasets; for curators also review decisions) and <code>admin</code>{" "}
-          (people and roles; offered to admins only). An endpoint answers 403 to a token without the scope it needs, even when the person
-          holds the role; a revoked or unknown token is refused with 401 on every endpoint, public ones included. Ids in paths are whole
-          numbers from 1 to 2147483647; anything else is 404.
+          (people and roles; offered to admins only); <code>deposit</code> and <code>admin</code> include <code>read</code>. An endpoint
+          answers 403 to a token without the scope it needs, even when the person holds the role; a revoked or unknown token is refused with
+          401 on every endpoint, public ones included. Ids in paths are whole numbers from 1 to 2147483647; anything else is 404.
         </p>
         <table className="table text-sm">
           <thead>

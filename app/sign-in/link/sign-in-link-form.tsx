@@ -1,6 +1,7 @@
 "use client";
 
 import { signIn } from "next-auth/react";
+import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 
@@ -21,7 +22,7 @@ export function SignInLinkForm({ token }: { token: string }) {
       setError(
         result?.error && result.error !== "CredentialsSignin"
           ? result.error
-          : "This link is invalid, has expired, or was already used. Sign in again to get a new one.",
+          : "This link is invalid, has expired, or was already used. Sign in with your password: a locked sign-in with the right password mails a new link.",
       );
       return;
     }
@@ -39,9 +40,15 @@ export function SignInLinkForm({ token }: { token: string }) {
           {error}
         </p>
       )}
-      <button type="submit" className="btn-primary w-full" disabled={pending}>
-        {pending ? "Signing in…" : "Sign in"}
-      </button>
+      {error ? (
+        <Link href="/sign-in" className="btn-primary block w-full text-center">
+          Sign in with your password
+        </Link>
+      ) : (
+        <button type="submit" className="btn-primary w-full" disabled={pending}>
+          {pending ? "Signing in…" : "Sign in"}
+        </button>
+      )}
     </form>
   );
 }
