@@ -6,7 +6,7 @@ import { protectedCall } from "@/lib/auth/action";
 import type { Transition } from "@/lib/curation/lifecycle";
 import { depositNewDataset, startNextVersion, transitionVersion, updateDraft } from "@/lib/datasets/deposits";
 import { inviteCoEditor } from "@/lib/datasets/invitations";
-import { MAX_DOCUMENT_BYTES, parseDepositJson } from "@/lib/deposits";
+import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
 import { idFor, MAX_ID } from "@/lib/ids";
 
@@ -30,14 +30,9 @@ const transitionSchema = z.enum(["submit", "withdraw", "start_review", "request_
 // The same bound as the transitions endpoint; the minimum is the lifecycle's (a reason is needed only for decisions).
 const reasonSchema = z.string().max(5000, "Keep the reason under 5000 characters").optional();
 
-function documentOrThrow(json: string) {
-  const parsed = parseDepositJson(json);
-  if (!parsed.ok) throw new AppError("validation_failed", parsed.errors[0].message, parsed.errors);
-  return parsed.value;
-}
-
 const createDraft = protectedCall(z.object({ documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
-  const v = await depositNewDataset({ actor: user, document: documentOrThrow(input.documentJson) });
+  // The text goes to an analysis worker, which parses and validates it off the request thread.
+  const v = await depositNewDataset({ actor: user, text: input.documentJson });
   revalidatePath("/deposits");
   return v;
 });
@@ -50,7 +45,7 @@ const saveDraft = protectedCall(
       actor: user,
       versionId: input.versionId,
       expectedLockVersion: input.lockVersion,
-      document: documentOrThrow(input.documentJson),
+      text: input.documentJson,
     });
     revalidatePath(`/deposits/${input.versionId}`);
     return v;
