@@ -250,7 +250,9 @@ describe("the freeze holds against the runtime role", () => {
   });
 
   it("still allows what the product does: re-fits, aliases, co-editors, registration progress, editing drafts", async () => {
-    await sql`insert into version_analyses (version_id, engine_version, result) values (${published.id}, 'refit-test', '{}')`;
+    // A re-fit adds a row like the ones before it (here a copy of the newest), never changes one.
+    await sql`insert into version_analyses (version_id, engine_version, result, checks)
+      select version_id, 'refit-test', result, checks from version_analyses where version_id = ${published.id} order by id desc limit 1`;
     await sql`insert into species_names (species_id, name) values (${speciesId}, ${"alias " + published.id}) on conflict do nothing`;
     await addDatasetMember({ datasetId: published.datasetId, userId: stranger.id, role: "viewer", actorId: owner.id });
     await sql`update identifier_registrations set attempts = attempts + 1, last_error = 'agency down' where identifier = ${seriesIdentifier}`;

@@ -4,15 +4,8 @@ import { notFound } from "next/navigation";
 import { ConsensusPlot } from "@/components/consensus-plot";
 import { StateLabel } from "@/components/state-label";
 import { renderSpeciesSvg } from "@/lib/chem";
-import { FIT_CAUTION } from "@/lib/datasets/version-json";
-import {
-  GAS_CONSTANT,
-  consensus,
-  getCanonicalRateConstantUnit,
-  type AnalysisResult,
-  type ConsensusResult,
-  type ReactionOrder,
-} from "@/lib/kinetics";
+import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
+import { GAS_CONSTANT, consensus, getCanonicalRateConstantUnit, type ConsensusResult, type ReactionOrder } from "@/lib/kinetics";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { getReaction, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
 import { formatSignificant } from "@/lib/format";
@@ -143,7 +136,7 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
               </thead>
               <tbody>
                 {versions.map((v) => {
-                  const a = v.analysis as AnalysisResult | null;
+                  const a = drawableFit(v.analysis);
                   const m = member(v.versionId);
                   return (
                     <tr key={v.versionId}>
@@ -159,7 +152,7 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
                         {Math.round(v.tMin ?? 0)}–{Math.round(v.tMax ?? 0)}
                       </td>
                       <td>{v.pointCount}</td>
-                      <td>{a ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
+                      <td>{a?.arrhenius ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
                       <td>
                         {m?.offsetFromOthersLog10 !== null && m?.offsetFromOthersLog10 !== undefined
                           ? sig(m.offsetFromOthersLog10, 2)

@@ -9,11 +9,11 @@ import { requirePagePermission } from "@/lib/auth/page-guard";
 import { findPossibleDuplicates, getPreviousVersion } from "@/lib/curation/queries";
 import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
 import { getLatestAnalysis, getVersionPoints, listDecisions } from "@/lib/datasets/queries";
-import { FIT_CAUTION } from "@/lib/datasets/version-json";
+import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
 import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
 import { parseIdOrThrow } from "@/lib/ids";
-import { GAS_CONSTANT, type AnalysisResult, type Flag } from "@/lib/kinetics";
+import { GAS_CONSTANT, type Flag } from "@/lib/kinetics";
 import { DecisionForm } from "./decision-form";
 import { formatSignificant } from "@/lib/format";
 
@@ -53,7 +53,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
     listDecisions({ versionId: version.id }),
   ]);
   const schema = validateDeposit(version.payload);
-  const result = analysis?.result as AnalysisResult | null | undefined;
+  const result = drawableFit(analysis?.result);
   const flags: Flag[] = result?.flags ?? [];
   const outliers = new Set(flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []));
   // The authors' expression in canonical units (A) and J/mol (Ea), comparable with the re-fit.

@@ -7,9 +7,8 @@ import { VersionFit } from "@/components/version-fit";
 import { getDatasetSummary, getLatestAnalysis, getVersionPoints, getVersionWithRole, listPublicVersions } from "@/lib/datasets/queries";
 import { listVersionFiles } from "@/lib/datasets/files";
 import { parseIdOrNull } from "@/lib/ids";
-import { FIT_CAUTION } from "@/lib/datasets/version-json";
+import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
 import type { DepositDocument } from "@/lib/deposits/types";
-import type { AnalysisResult } from "@/lib/kinetics/types";
 
 export const metadata: Metadata = { title: "Dataset" };
 export const dynamic = "force-dynamic";
@@ -34,7 +33,7 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
   if (!found) notFound();
   const version = found.version;
   const doc = version.payload as unknown as DepositDocument;
-  const result = analysis?.result as AnalysisResult | null;
+  const result = drawableFit(analysis?.result);
 
   return (
     <article className="space-y-6">
