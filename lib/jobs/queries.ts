@@ -80,3 +80,8 @@ export async function retryJob({ actorId, queue, id }: { actorId: number; queue:
   await boss.retry(queue, id);
   await recordAuditEvent(getDb(), { actorId, action: "job.retried", subjectType: "job", subjectId: id, details: { queue } });
 }
+
+/** Leaves a job no retries, so the next failure is final (a mail the relay refused for good). */
+export async function endJobRetries({ queue, id }: { queue: QueueName; id: string }): Promise<void> {
+  await getDb().execute(sql`update pgboss.job set retry_limit = retry_count where name = ${queue} and id = ${id}`);
+}

@@ -6,6 +6,7 @@ import { refitVersion } from "@/lib/datasets/refit";
 import { registerIdentifier } from "@/lib/identifiers/register";
 import { deliverMail, isPermanentDeliveryFailure } from "@/lib/mail/transport";
 import type { MailMessage } from "@/lib/mail/templates";
+import { endJobRetries } from "./queries";
 
 /**
  * Starts the background workers (one process is enough; several are safe: pg-boss hands each job
@@ -26,7 +27,7 @@ export async function startWorkers(): Promise<{ stop: () => Promise<void> }> {
         const message = err instanceof Error ? err.message : String(err);
         if (isPermanentDeliveryFailure(err)) {
           // The relay will refuse it again: no retries left, so pg-boss marks it failed for good.
-          await boss.getDb().executeSql("update pgboss.job set retry_limit = retry_count where name = 'mail' and id = $1", [job.id]);
+          await endJobRetries({ queue: "mail", id: job.id });
           await boss.fail("mail", job.id, { message: `Refused for good by the mail relay: ${message}` });
         } else {
           await boss.fail("mail", job.id, { message });
