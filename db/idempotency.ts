@@ -2,8 +2,9 @@ import { index, integer, jsonb, pgTable, primaryKey, smallint, text, timestamp }
 import { users } from "./users";
 
 /**
- * Idempotency-Key records of POSTs that create things, per caller: the request's fingerprint,
- * and once it finished, the response to replay. Kept 24 hours.
+ * Idempotency-Key records of POSTs that create things, per caller: the request's fingerprint and
+ * the response to replay. A record is written in the transaction that creates the thing, so it
+ * exists exactly when the thing does (never "in flight"). Kept 24 hours.
  */
 export const idempotencyKeys = pgTable(
   "idempotency_keys",
@@ -16,10 +17,9 @@ export const idempotencyKeys = pgTable(
     endpoint: text().notNull(),
     /** SHA-256 (hex) of the endpoint and the request body. */
     requestHash: text().notNull(),
-    /** Null while the first request is still running. */
-    responseStatus: smallint(),
-    responseHeaders: jsonb().$type<Record<string, string>>(),
-    responseBody: text(),
+    responseStatus: smallint().notNull(),
+    responseHeaders: jsonb().$type<Record<string, string>>().notNull(),
+    responseBody: text().notNull(),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     expiresAt: timestamp({ withTimezone: true }).notNull(),
   },

@@ -1,12 +1,13 @@
 import "server-only";
 import { assertVersionCapability, type VersionAction } from "@/lib/curation/capabilities";
 import type { Transition } from "@/lib/curation/lifecycle";
-import { applyTransition } from "@/lib/curation/transitions";
+import { applyTransition, type TransitionOutcome } from "@/lib/curation/transitions";
 import { AppError } from "@/lib/errors";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
 import { describeUnstorableText } from "@/lib/storable-text";
 import { decisionMail, submissionMail } from "@/lib/mail/templates";
+import type { Transaction } from "@/db/client";
 import { listActiveCurators, type UserDto } from "@/lib/users/queries";
 import { prepareDepositOrThrow, prepareDepositTextOrThrow } from "./prepare";
 
@@ -16,10 +17,17 @@ type DocumentSource = { document: unknown; text?: undefined } | { text: string; 
 function prepareSource(source: DocumentSource) {
   return source.text !== undefined ? prepareDepositTextOrThrow(source.text) : prepareDepositOrThrow(source.document);
 }
-import { createDatasetDraft, createNextVersion, getVersionWithRole, listDatasetMembers, saveDraft } from "./queries";
+import { createDatasetDraft, createNextVersion, getVersionWithRole, listDatasetMembers, saveDraft, type VersionDto } from "./queries";
+
+/** Work that commits or rolls back with the change (an Idempotency-Key's record). */
+type BeforeCommit<T> = (tx: Transaction, created: T) => Promise<void>;
 
 /** Creates a dataset from a deposit document; a document with any problem stores nothing. */
-export async function depositNewDataset({ actor, ...source }: { actor: UserDto } & DocumentSource) {
+export async function depositNewDataset({
+  actor,
+  beforeCommit,
+  ...source
+}: { actor: UserDto; beforeCommit?: BeforeCommit<VersionDto> } & DocumentSource) {
   const prepared = await prepareSource(source);
   return createDatasetDraft({
     ownerId: actor.id,
@@ -28,6 +36,7 @@ export async function depositNewDataset({ actor, ...source }: { actor: UserDto }
     points: prepared.points,
     analysis: prepared.analysis,
     reaction: prepared.reaction,
+    beforeCommit,
   });
 }
 
@@ -90,11 +99,13 @@ export async function transitionVersion({
   versionId,
   transition,
   reason,
+  beforeCommit,
 }: {
   actor: UserDto;
   versionId: number;
   transition: Transition;
   reason?: string;
+  beforeCommit?: BeforeCommit<TransitionOutcome>;
 }) {
   const unstorable = reason === undefined ? null : describeUnstorableText(reason);
   if (unstorable)
@@ -128,12 +139,21 @@ export async function transitionVersion({
         for (const m of members)
           await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? "", published), { tx });
       }
+      await beforeCommit?.(tx, outcome);
     },
   });
 }
 
 /** The owner starts the next version of a published dataset as a draft copy of the latest. */
-export async function startNextVersion({ actor, versionId }: { actor: UserDto; versionId: number }) {
+export async function startNextVersion({
+  actor,
+  versionId,
+  beforeCommit,
+}: {
+  actor: UserDto;
+  versionId: number;
+  beforeCommit?: BeforeCommit<VersionDto>;
+}) {
   const found = await getVersionForOrThrow({ versionId, actor, action: "start_next_version" });
-  return createNextVersion({ datasetId: found.version.datasetId, actorId: actor.id });
+  return createNextVersion({ datasetId: found.version.datasetId, actorId: actor.id, beforeCommit });
 }

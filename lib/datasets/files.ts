@@ -1,7 +1,7 @@
 import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Transaction } from "@/db/client";
 import { versionFiles } from "@/db/datasets";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { AppError } from "@/lib/errors";
@@ -41,6 +41,17 @@ const fileColumns = {
   createdAt: versionFiles.createdAt,
 };
 
+/** A stored file as the API shows it. */
+export interface VersionFileDto {
+  id: number;
+  versionId: number;
+  filename: string;
+  contentType: string;
+  sizeBytes: number;
+  sha256: string;
+  createdAt: Date;
+}
+
 function safeName(name: string): string {
   return (
     name
@@ -56,11 +67,14 @@ export async function addVersionFile({
   versionId,
   filename,
   content,
+  beforeCommit,
 }: {
   actor: UserDto;
   versionId: number;
   filename: string;
   content: Uint8Array;
+  /** Work that commits or rolls back with the file's row (an Idempotency-Key's record). */
+  beforeCommit?: (tx: Transaction, saved: VersionFileDto) => Promise<void>;
 }) {
   const { version } = await getVersionForOrThrow({ versionId, actor, action: "upload_files" });
   const name = safeName(filename);
@@ -95,6 +109,7 @@ export async function addVersionFile({
         subjectId: versionId,
         details: { filename: name, sha256 },
       });
+      await beforeCommit?.(tx, row);
       return row;
     });
   } catch (err) {

@@ -129,6 +129,8 @@ export async function createDatasetDraft(input: {
   points: StoredPoint[];
   analysis: AnalysisSummary;
   reaction?: ReactionInput;
+  /** Work that commits or rolls back with the new dataset (an Idempotency-Key's record). */
+  beforeCommit?: (tx: Transaction, created: VersionDto) => Promise<void>;
 }) {
   return getDb().transaction(async (tx) => {
     const { reactionId, participantNames } = input.reaction
@@ -157,6 +159,7 @@ export async function createDatasetDraft(input: {
       subjectId: version.id,
       details: { datasetId: dataset.id },
     });
+    await input.beforeCommit?.(tx, version);
     return version;
   });
 }
@@ -343,7 +346,16 @@ export async function hasDatasetTitled({ ownerId, title }: { ownerId: number; ti
  * Starts the next version of a dataset as a draft copy of its newest version (document, points,
  * analysis). Only when the newest version is published or retracted: one open draft at a time.
  */
-export async function createNextVersion({ datasetId, actorId }: { datasetId: number; actorId: number }) {
+export async function createNextVersion({
+  datasetId,
+  actorId,
+  beforeCommit,
+}: {
+  datasetId: number;
+  actorId: number;
+  /** Work that commits or rolls back with the new version (an Idempotency-Key's record). */
+  beforeCommit?: (tx: Transaction, created: VersionDto) => Promise<void>;
+}) {
   return getDb().transaction(async (tx) => {
     const [latest] = await tx
       .select({
@@ -424,6 +436,7 @@ export async function createNextVersion({ datasetId, actorId }: { datasetId: num
       subjectId: version.id,
       details: { from: latest.id, number: version.number },
     });
+    await beforeCommit?.(tx, version);
     return version;
   });
 }

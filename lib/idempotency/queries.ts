@@ -1,6 +1,6 @@
 import "server-only";
-import { and, eq, isNull, lt, sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { and, eq, gt, lt, sql } from "drizzle-orm";
+import { getDb, type Transaction } from "@/db/client";
 import { idempotencyKeys } from "@/db/idempotency";
 
 /** How long a key and its stored response are kept. */
@@ -9,35 +9,23 @@ export const IDEMPOTENCY_TTL_HOURS = 24;
 export interface IdempotencyRecord {
   endpoint: string;
   requestHash: string;
-  responseStatus: number | null;
-  responseHeaders: Record<string, string> | null;
-  responseBody: string | null;
+  responseStatus: number;
+  responseHeaders: Record<string, string>;
+  responseBody: string;
 }
 
-/**
- * Claims a key for a request about to run. Returns null when this call claimed it, else the
- * record already there (in flight or finished). Expired records are cleared first.
- */
-export async function claimIdempotencyKey({
-  userId,
-  key,
-  endpoint,
-  requestHash,
-}: {
-  userId: number;
-  key: string;
-  endpoint: string;
-  requestHash: string;
-}): Promise<IdempotencyRecord | null> {
+/** Thrown inside a creating transaction when another request already recorded the same key: roll back. */
+export class IdempotencyKeyTakenError extends Error {
+  constructor() {
+    super("This Idempotency-Key was recorded by another request");
+  }
+}
+
+/** The live record of a key, if any (expired records are cleared first). */
+export async function findIdempotencyRecord({ userId, key }: { userId: number; key: string }): Promise<IdempotencyRecord | null> {
   const db = getDb();
   await db.delete(idempotencyKeys).where(lt(idempotencyKeys.expiresAt, sql`now()`));
-  const inserted = await db
-    .insert(idempotencyKeys)
-    .values({ userId, key, endpoint, requestHash, expiresAt: sql`now() + make_interval(hours => ${IDEMPOTENCY_TTL_HOURS})` })
-    .onConflictDoNothing()
-    .returning({ key: idempotencyKeys.key });
-  if (inserted.length) return null;
-  const [existing] = await db
+  const [found] = await db
     .select({
       endpoint: idempotencyKeys.endpoint,
       requestHash: idempotencyKeys.requestHash,
@@ -46,34 +34,56 @@ export async function claimIdempotencyKey({
       responseBody: idempotencyKeys.responseBody,
     })
     .from(idempotencyKeys)
-    .where(and(eq(idempotencyKeys.userId, userId), eq(idempotencyKeys.key, key)));
-  // Expired and removed between the two statements: claim again.
-  return existing ?? claimIdempotencyKey({ userId, key, endpoint, requestHash });
+    .where(and(eq(idempotencyKeys.userId, userId), eq(idempotencyKeys.key, key), gt(idempotencyKeys.expiresAt, sql`now()`)));
+  return found ?? null;
 }
 
-/** Stores the response of a finished request so that retries replay it. */
-export async function completeIdempotencyKey({
-  userId,
-  key,
-  status,
-  headers,
-  body,
-}: {
-  userId: number;
-  key: string;
-  status: number;
-  headers: Record<string, string>;
-  body: string;
-}) {
-  await getDb()
-    .update(idempotencyKeys)
-    .set({ responseStatus: status, responseHeaders: headers, responseBody: body })
-    .where(and(eq(idempotencyKeys.userId, userId), eq(idempotencyKeys.key, key), isNull(idempotencyKeys.responseStatus)));
-}
-
-/** Frees a key whose request failed and stored nothing, so a retry runs afresh. */
-export async function releaseIdempotencyKey({ userId, key }: { userId: number; key: string }) {
-  await getDb()
-    .delete(idempotencyKeys)
-    .where(and(eq(idempotencyKeys.userId, userId), eq(idempotencyKeys.key, key), isNull(idempotencyKeys.responseStatus)));
+/**
+ * Records a key with the response to replay, inside the transaction that created what the
+ * response describes: both commit, or neither. When a live record of the key exists (a concurrent
+ * request with the same key committed first; this insert waits for it), throws
+ * IdempotencyKeyTakenError so that this transaction rolls back.
+ */
+export async function recordIdempotentResponse(
+  tx: Transaction,
+  {
+    userId,
+    key,
+    endpoint,
+    requestHash,
+    status,
+    headers,
+    body,
+  }: { userId: number; key: string; endpoint: string; requestHash: string; status: number; headers: Record<string, string>; body: string },
+): Promise<void> {
+  const values = {
+    userId,
+    key,
+    endpoint,
+    requestHash,
+    responseStatus: status,
+    responseHeaders: headers,
+    responseBody: body,
+    createdAt: sql`now()`,
+    expiresAt: sql`now() + make_interval(hours => ${IDEMPOTENCY_TTL_HOURS})`,
+  };
+  const written = await tx
+    .insert(idempotencyKeys)
+    .values(values)
+    // An expired record of the same key is replaced; a live one is kept.
+    .onConflictDoUpdate({
+      target: [idempotencyKeys.userId, idempotencyKeys.key],
+      set: {
+        endpoint,
+        requestHash,
+        responseStatus: status,
+        responseHeaders: headers,
+        responseBody: body,
+        createdAt: sql`now()`,
+        expiresAt: values.expiresAt,
+      },
+      setWhere: lt(idempotencyKeys.expiresAt, sql`now()`),
+    })
+    .returning({ key: idempotencyKeys.key });
+  if (!written.length) throw new IdempotencyKeyTakenError();
 }

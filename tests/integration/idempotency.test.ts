@@ -4,17 +4,33 @@ import path from "node:path";
 import { beforeAll, describe, expect, it, vi } from "vitest";
 
 vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
+// A crash of the app inside the creating transaction, right after the key was recorded: the
+// transaction never commits (PostgreSQL rolls back a dead session's transaction the same way).
+const crash = vi.hoisted(() => ({ insideTransaction: false }));
+vi.mock("@/lib/idempotency/queries", async (importOriginal) => {
+  const real = await importOriginal<typeof import("@/lib/idempotency/queries")>();
+  return {
+    ...real,
+    recordIdempotentResponse: async (...args: Parameters<typeof real.recordIdempotentResponse>) => {
+      await real.recordIdempotentResponse(...args);
+      if (crash.insideTransaction) {
+        crash.insideTransaction = false;
+        throw new Error("the process died before COMMIT");
+      }
+    },
+  };
+});
 process.env.STORAGE_DIR = mkdtempSync(path.join(tmpdir(), "arrhenia-idempotency-"));
 
 import { POST as createDataset } from "@/app/api/v1/datasets/route";
 import { GET as listFiles, POST as postFile } from "@/app/api/v1/versions/[id]/files/route";
 import { POST as postNext } from "@/app/api/v1/versions/[id]/next/route";
 import { POST as postTransition } from "@/app/api/v1/versions/[id]/transitions/route";
+import { NextResponse } from "next/server";
 import { getCurrentUser } from "@/lib/auth/session";
 import { applyTransition } from "@/lib/curation/transitions";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { createDatasetDraft } from "@/lib/datasets/queries";
-import { claimIdempotencyKey } from "@/lib/idempotency/queries";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { sql, uniqueEmail } from "./helpers";
 
@@ -87,24 +103,50 @@ describe("Idempotency-Key on POST /api/v1/datasets", () => {
     expect(await titled(title)).toBe(2);
   });
 
-  it("while the first request with a key is still running, a retry gets 409", async () => {
+  it("two requests racing with one key create one dataset; both answer 201 with the same version", async () => {
     as(owner);
     const key = newKey();
-    const title = `In flight ${key}`;
-    const body = doc(title);
-    const { createHash } = await import("node:crypto");
-    const endpoint = "POST /api/v1/datasets";
-    // The state a running first request leaves: claimed, no response yet.
-    await claimIdempotencyKey({
-      userId: owner.id,
-      key,
-      endpoint,
-      requestHash: createHash("sha256").update(endpoint).update("\n").update(new TextEncoder().encode(body)).digest("hex"),
-    });
-    const res = await deposit(body, key);
-    expect(res.status).toBe(409);
-    expect((await res.json()).title).toMatch(/still being processed/);
+    const title = `Race ${key}`;
+    const [a, b] = await Promise.all([deposit(doc(title), key), deposit(doc(title), key)]);
+    expect([a.status, b.status]).toEqual([201, 201]);
+    const [ja, jb] = [await a.json(), await b.json()];
+    expect(ja.data.versionId).toBe(jb.data.versionId);
+    expect([a.headers.get("idempotent-replayed"), b.headers.get("idempotent-replayed")]).toContain("true");
+    expect(await titled(title)).toBe(1);
+  });
+
+  it("a crash inside the creating transaction leaves neither the dataset nor the key: the retry creates it once", async () => {
+    as(owner);
+    const key = newKey();
+    const title = `Crash inside ${key}`;
+    crash.insideTransaction = true;
+    const crashed = await deposit(doc(title), key);
+    expect(crashed.status).toBe(500);
     expect(await titled(title)).toBe(0);
+    expect((await sql`select count(*) from idempotency_keys where user_id = ${owner.id} and key = ${key}`)[0].count).toBe("0");
+    const retry = await deposit(doc(title), key);
+    expect(retry.status).toBe(201);
+    expect(retry.headers.get("idempotent-replayed")).toBeNull();
+    expect(await titled(title)).toBe(1);
+  });
+
+  it("a crash after the commit, before the answer was sent: the retry replays the dataset it created", async () => {
+    as(owner);
+    const key = newKey();
+    const title = `Crash after ${key}`;
+    const json = vi.spyOn(NextResponse, "json").mockImplementationOnce(() => {
+      throw new Error("the process died before answering");
+    });
+    try {
+      expect((await deposit(doc(title), key)).status).toBe(500);
+    } finally {
+      json.mockRestore();
+    }
+    expect(await titled(title)).toBe(1);
+    const retry = await deposit(doc(title), key);
+    expect(retry.status).toBe(201);
+    expect(retry.headers.get("idempotent-replayed")).toBe("true");
+    expect(await titled(title)).toBe(1);
   });
 
   it("a refused request frees its key: after fixing nothing, the retry is judged again, not replayed", async () => {
@@ -200,5 +242,72 @@ describe("Idempotency-Key on next versions, files and transitions", () => {
     expect(retry.status).toBe(201);
     expect((await retry.json()).data.versionId).toBe((await first.json()).data.versionId);
     expect((await sql`select count(*) from dataset_versions where dataset_id = ${v.datasetId}`)[0].count).toBe("2");
+  });
+
+  // Each creating route records its key inside its own transaction: a crash there leaves nothing
+  // behind (no row, no key), so the retry runs afresh and creates exactly one.
+  it.each([
+    {
+      route: "files",
+      call: (v: { id: number }, key: string) => {
+        const form = new FormData();
+        form.set("file", new File(["T,k\n300,1e-12\n"], "crash.csv"));
+        return postFile(
+          new Request(`http://127.0.0.1/api/v1/versions/${v.id}/files`, {
+            method: "POST",
+            body: form,
+            headers: { "idempotency-key": key },
+          }),
+          ctx(v.id),
+        );
+      },
+      created: async (v: { id: number }) => Number((await sql`select count(*) from version_files where version_id = ${v.id}`)[0].count),
+      publish: false,
+    },
+    {
+      route: "transitions",
+      call: (v: { id: number }, key: string) =>
+        postTransition(
+          new Request(`http://127.0.0.1/api/v1/versions/${v.id}/transitions`, {
+            method: "POST",
+            body: JSON.stringify({ transition: "submit" }),
+            headers: { "idempotency-key": key },
+          }),
+          ctx(v.id),
+        ),
+      created: async (v: { id: number }) =>
+        Number((await sql`select count(*) from dataset_versions where id = ${v.id} and state = 'submitted'`)[0].count),
+      publish: false,
+    },
+    {
+      route: "next",
+      call: (v: { id: number }, key: string) =>
+        postNext(
+          new Request(`http://127.0.0.1/api/v1/versions/${v.id}/next`, { method: "POST", headers: { "idempotency-key": key } }),
+          ctx(v.id),
+        ),
+      created: async (v: { datasetId: number }) =>
+        Number((await sql`select count(*) from dataset_versions where dataset_id = ${v.datasetId}`)[0].count) - 1,
+      publish: true,
+    },
+  ])("POST versions/:id/$route: a crash inside its transaction stores nothing and frees the key", async ({ call, created, publish }) => {
+    const v = await draft();
+    if (publish) {
+      await applyTransition({ actorId: owner.id, versionId: v.id, transition: "submit" });
+      await applyTransition({ actorId: curator.id, versionId: v.id, transition: "accept", reason: "Fine." });
+    }
+    as(owner);
+    const key = newKey();
+    crash.insideTransaction = true;
+    expect((await call(v, key)).status).toBe(500);
+    expect(await created(v)).toBe(0);
+    expect((await sql`select count(*) from idempotency_keys where user_id = ${owner.id} and key = ${key}`)[0].count).toBe("0");
+    const retry = await call(v, key);
+    expect(retry.status).toBeLessThan(300);
+    expect(retry.headers.get("idempotent-replayed")).toBeNull();
+    expect(await created(v)).toBe(1);
+    const replay = await call(v, key);
+    expect(replay.headers.get("idempotent-replayed")).toBe("true");
+    expect(await created(v)).toBe(1);
   });
 });

@@ -1,7 +1,7 @@
 // POST /api/v1/datasets — deposit a new dataset (a draft) from a deposit document (Idempotency-Key honoured)
-import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { depositNewDataset } from "@/lib/datasets/deposits";
+import type { VersionDto } from "@/lib/datasets/queries";
 import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
 import { readBodyOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
@@ -13,11 +13,10 @@ export const POST = withApi(
       req,
       user: user!,
       fingerprint: body,
-      run: async () => {
-        // Parsed and validated on an analysis worker thread, not here.
-        const version = await depositNewDataset({ actor: user!, text: new TextDecoder().decode(body) });
-        return NextResponse.json(
-          {
+      run: async (keep) => {
+        const created = (version: VersionDto) => ({
+          status: 201,
+          body: {
             data: {
               versionId: version.id,
               datasetId: version.datasetId,
@@ -26,8 +25,11 @@ export const POST = withApi(
               lockVersion: version.lockVersion,
             },
           },
-          { status: 201, headers: { location: `/api/v1/versions/${version.id}` } },
-        );
+          headers: { location: `/api/v1/versions/${version.id}` },
+        });
+        // Parsed and validated on an analysis worker thread, not here.
+        const version = await depositNewDataset({ actor: user!, text: new TextDecoder().decode(body), beforeCommit: keep(created) });
+        return created(version);
       },
     });
   },

@@ -4,7 +4,7 @@ import { createHash } from "node:crypto";
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
-import { addVersionFile, listVersionFiles, MAX_FILE_BYTES } from "@/lib/datasets/files";
+import { addVersionFile, listVersionFiles, MAX_FILE_BYTES, type VersionFileDto } from "@/lib/datasets/files";
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, readFormDataOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
@@ -40,9 +40,9 @@ export const POST = withApi<{ id: string }>(
       req,
       user: user!,
       fingerprint,
-      run: async () => {
-        const saved = await addVersionFile({ actor: user!, versionId, filename: file.name, content });
-        return NextResponse.json({ data: saved }, { status: 201 });
+      run: async (keep) => {
+        const created = (saved: VersionFileDto) => ({ status: 201, body: { data: saved } });
+        return created(await addVersionFile({ actor: user!, versionId, filename: file.name, content, beforeCommit: keep(created) }));
       },
     });
   },

@@ -1,7 +1,7 @@
 // POST /api/v1/versions/:id/next — start the next version of this version's dataset as a draft copy (owner; Idempotency-Key honoured)
-import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { startNextVersion } from "@/lib/datasets/deposits";
+import type { VersionDto } from "@/lib/datasets/queries";
 import { parseIdOrThrow } from "@/lib/ids";
 import { BODY_LIMITS, readBodyOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
@@ -15,12 +15,13 @@ export const POST = withApi<{ id: string }>(
       req,
       user: user!,
       fingerprint: body,
-      run: async () => {
-        const v = await startNextVersion({ actor: user!, versionId });
-        return NextResponse.json(
-          { data: { versionId: v.id, number: v.number, state: v.state, lockVersion: v.lockVersion } },
-          { status: 201, headers: { location: `/api/v1/versions/${v.id}` } },
-        );
+      run: async (keep) => {
+        const created = (v: VersionDto) => ({
+          status: 201,
+          body: { data: { versionId: v.id, number: v.number, state: v.state, lockVersion: v.lockVersion } },
+          headers: { location: `/api/v1/versions/${v.id}` },
+        });
+        return created(await startNextVersion({ actor: user!, versionId, beforeCommit: keep(created) }));
       },
     });
   },

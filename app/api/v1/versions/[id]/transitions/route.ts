@@ -1,7 +1,7 @@
 // POST /api/v1/versions/:id/transitions — submit, withdraw, review, decide or retract a version (Idempotency-Key honoured)
-import { NextResponse } from "next/server";
 import { z } from "zod";
 import { withApi, zodToFieldErrors } from "@/lib/auth/api";
+import type { TransitionOutcome } from "@/lib/curation/transitions";
 import { transitionVersion } from "@/lib/datasets/deposits";
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, parseJsonBytesOrThrow, readBodyOrThrow } from "@/lib/http/read-body";
@@ -23,14 +23,14 @@ export const POST = withApi<{ id: string }>(
       req,
       user: user!,
       fingerprint: body,
-      run: async () => {
+      run: async (keep) => {
         const parsed = bodySchema.safeParse(parseJsonBytesOrThrow(body));
         if (!parsed.success)
           throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
         const { transition, reason } = parsed.data;
         // Role and dataset membership are re-read inside the transaction (lib/curation/transitions.ts).
-        const outcome = await transitionVersion({ actor: user!, versionId, transition, reason });
-        return NextResponse.json({ data: outcome });
+        const answer = (outcome: TransitionOutcome) => ({ status: 200, body: { data: outcome } });
+        return answer(await transitionVersion({ actor: user!, versionId, transition, reason, beforeCommit: keep(answer) }));
       },
     });
   },
