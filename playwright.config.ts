@@ -4,6 +4,8 @@ import { defineConfig, devices } from "@playwright/test";
 // that scripts/test.sh made, served by the same script `npm start` uses.
 const port = Number(process.env.E2E_PORT ?? 3100);
 const baseURL = `http://127.0.0.1:${port}`;
+// Next's private port behind the front server, fixed here so a test can knock on it directly.
+const innerPort = Number(process.env.E2E_INNER_PORT ?? port + 1);
 
 export default defineConfig({
   testDir: "tests/e2e",
@@ -40,6 +42,7 @@ export default defineConfig({
     stderr: "pipe",
     env: {
       PORT: String(port),
+      INNER_PORT: String(innerPort),
       MAIL_CAPTURE_PORT: String(Number(process.env.E2E_MAIL_PORT ?? 2625)),
       // The fake DOI service on its own port and folder, so a running `npm start` is untouched.
       DOI_FAKE_PORT: String(Number(process.env.E2E_DOI_PORT ?? 5190)),

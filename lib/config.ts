@@ -32,6 +32,7 @@ const variables = {
   },
   PORT: { schema: port },
   HOST: { schema: z.string().regex(/^[\w.:-]+$/, "must be a host name or an IP address") },
+  INNER_PORT: { schema: port },
   SMTP_URL: { schema: z.string().regex(/^smtps?:\/\/\S+$/, "must be an smtp:// or smtps:// URL"), secret: true },
   MAIL_CAPTURE_PORT: { schema: port },
   MAIL_FROM: { schema: z.string().min(3, "must be a sender such as Arrhenia <no-reply@example.org>") },
@@ -135,6 +136,14 @@ export function serverPort(): number {
 /** Address the web server listens on; loopback unless HOST says otherwise. */
 export function serverHost(): string {
   return read("HOST") ?? "127.0.0.1";
+}
+
+/**
+ * Loopback port of the Next.js server behind the front server; a free one when unset. Only the
+ * front server can use it: Next refuses every request without the front server's per-start key.
+ */
+export function innerPort(): number | undefined {
+  return read("INNER_PORT");
 }
 
 /** The schema owner's URL, for migrations only; the app itself connects as DATABASE_URL's role. */

@@ -1,11 +1,14 @@
 // Serves a built Arrhenia: the local mail capture (when SMTP_URL is unset), the local fake DOI
 // registration service (when DOI_API_URL is unset), the background workers, and `next start`
 // on a private loopback port behind the front server (lib/auth/edge-proxy.ts) that listens on
-// HOST:PORT and alone decides the client's address. Ctrl-C stops them all.
+// HOST:PORT and alone decides the client's address. Next answers only requests carrying the
+// front server's per-start key (proxy.ts), so the private port is no way around the front
+// server's checks. Ctrl-C stops them all.
 import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import postgres from "postgres";
 import {
+  appUrl,
   assertValidConfig,
   captureSmtpPort,
   ConfigError,
@@ -14,6 +17,7 @@ import {
   doiApiUrl,
   doiFakePort,
   fakeDoiDataDir,
+  innerPort as configuredInnerPort,
   serveQuiet,
   serverHost,
   serverPort,
@@ -57,12 +61,12 @@ const workers = await startWorkers();
 const pendingIdentifiers = await enqueuePendingIdentifierRegistrations();
 const staleRefits = await enqueueStaleRefits();
 
-const innerPort = await freeLoopbackPort();
+const innerPort = configuredInnerPort() ?? (await freeLoopbackPort());
 const next = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", String(innerPort)], {
   stdio: ["ignore", "inherit", "inherit"],
   env: process.env,
 });
-const edge = await startEdgeProxy({ host, port, upstreamPort: innerPort, trust, key: edgeKey });
+const edge = await startEdgeProxy({ host, port, upstreamPort: innerPort, trust, key: edgeKey, appOrigin: new URL(appUrl()).origin });
 
 let stopping = false;
 async function stop(code: number) {

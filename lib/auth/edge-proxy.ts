@@ -1,10 +1,13 @@
 // The public face of `npm start`: a small HTTP server in front of `next start` that decides the
 // client's address from the socket (believing X-Forwarded-For only from proxies TRUST_PROXY
-// names), strips forwarding headers nobody trusted set, and refuses cross-origin form posts
-// (server actions) with a 403 before they reach Next.
+// names), strips forwarding headers nobody trusted set, and refuses before they reach Next: form
+// posts (server actions) from another origin than APP_URL's (403), action bodies over their size
+// (413) or nested past what Next's decoder survives (400), and undecodable paths (404). Next itself
+// listens on a private loopback port and answers only requests that carry this server's key.
 import http from "node:http";
-import type { AddressInfo } from "node:net";
+import { isIP, type AddressInfo } from "node:net";
 import proxyaddr from "proxy-addr";
+import { ActionBodyGuard, isActionRequest } from "./action-body-guard";
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "./client-address";
 
 export type TrustProxy = (address: string, hop: number) => boolean;
@@ -36,21 +39,42 @@ function plainAddress(address: string): string {
 const STRIPPED_ALWAYS = [CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER, "forwarded", "x-real-ip"];
 const STRIPPED_UNTRUSTED = ["x-forwarded-host", "x-forwarded-proto", "x-forwarded-port"];
 
-/** A state-changing request to a page (a server action or form post) from another origin. */
-export function isCrossOriginPagePost(method: string | undefined, url: string | undefined, headers: http.IncomingHttpHeaders): boolean {
+/** localhost, 127.0.0.0/8, ::1 (IPv4-mapped too). */
+export function isLoopbackHost(hostname: string): boolean {
+  const h = hostname.replace(/^\[|\]$/g, "").toLowerCase();
+  if (h === "localhost" || h.endsWith(".localhost")) return true;
+  const plain = plainAddress(h);
+  if (isIP(plain) === 4) return plain.startsWith("127.");
+  return plain === "::1";
+}
+
+/**
+ * A state-changing request to a page (a server action or form post) from another origin than the
+ * app's own (APP_URL). Host and X-Forwarded-Host are never the reference: a client chooses them.
+ * One exception keeps development and tests working: a browser on this machine that reached the
+ * front server directly on a loopback address (socket, Origin and Host all loopback and equal).
+ */
+export function isCrossOriginPagePost(
+  method: string | undefined,
+  url: string | undefined,
+  headers: http.IncomingHttpHeaders,
+  { appOrigin, peerAddress }: { appOrigin: string; peerAddress: string | undefined },
+): boolean {
   if (!method || ["GET", "HEAD", "OPTIONS"].includes(method)) return false;
   // The REST API and next-auth's endpoints authenticate (bearer tokens, CSRF tokens) on their own;
   // a server action is checked whatever path it is sent to.
   if ((url ?? "/").startsWith("/api/") && headers["next-action"] === undefined) return false;
   const origin = headers.origin;
   if (origin === undefined) return false;
-  const forwardedHost = typeof headers["x-forwarded-host"] === "string" ? headers["x-forwarded-host"].split(",")[0]?.trim() : undefined;
-  const host = forwardedHost || headers.host;
+  let parsed: URL;
   try {
-    return new URL(origin).host !== host;
+    parsed = new URL(origin);
   } catch {
     return true; // "null" or garbage: an opaque origin is never ours
   }
+  if (parsed.origin === appOrigin) return false;
+  const direct = isLoopbackHost(parsed.hostname) && headers.host === parsed.host && isLoopbackHost(peerAddress ?? "");
+  return !direct;
 }
 
 /** Largest server-action body, bytes: the deposit editor sends whole documents, every other action a form. */
@@ -92,28 +116,35 @@ export async function startEdgeProxy({
   upstreamPort,
   trust,
   key,
+  appOrigin,
 }: {
   host: string;
   port: number;
   upstreamPort: number;
   trust: TrustProxy;
   key: string;
+  /** The origin of APP_URL: the one origin server actions are accepted from. */
+  appOrigin: string;
 }) {
   const agent = new http.Agent({ keepAlive: true });
+  const ownOrigin = new URL(appOrigin).origin;
   const server = http.createServer((req, res) => {
     const headers = forwardedHeaders(req, trust, key);
-    if (isCrossOriginPagePost(req.method, req.url, headers as http.IncomingHttpHeaders)) {
+    if (isCrossOriginPagePost(req.method, req.url, req.headers, { appOrigin: ownOrigin, peerAddress: req.socket.remoteAddress })) {
       refuse(res, 403, "forbidden", "Forbidden", "This form was sent from another site.");
       req.resume();
       return;
     }
+    const action = isActionRequest(req.method, req.url, req.headers);
+    // Next compares an action's Origin with the host it is told; tell it the host just approved.
+    if (action && typeof req.headers.origin === "string") headers["x-forwarded-host"] = new URL(req.headers.origin).host;
     if (hasUndecodablePath(req.url)) {
       refuse(res, 404, "not_found", "Not found", "This address has a malformed %-escape.");
       req.resume();
       return;
     }
     // Server actions: Next reads the whole body before any code of ours runs, so it is capped here.
-    const limit = req.headers["next-action"] !== undefined ? actionBodyLimit(req.url) : Infinity;
+    const limit = action ? actionBodyLimit(req.url) : Infinity;
     const tooLarge = () => refuse(res, 413, "payload_too_large", "Payload too large", `A form may send at most ${limit / 1024 / 1024} MB.`);
     if (Number(req.headers["content-length"] ?? 0) > limit) {
       tooLarge();
@@ -141,14 +172,25 @@ export async function startEdgeProxy({
       return;
     }
     let received = 0;
+    const guard = new ActionBodyGuard(req.headers["content-type"]);
+    const stopForwarding = () => {
+      upstream.destroy();
+      req.unpipe();
+      req.removeAllListeners("data");
+      req.resume();
+    };
     req.on("data", (chunk: Buffer) => {
       received += chunk.length;
       if (received > limit) {
         if (!res.headersSent) tooLarge();
-        upstream.destroy();
-        req.unpipe();
-        req.removeAllListeners("data");
-        req.resume();
+        stopForwarding();
+        return;
+      }
+      // Scanned before it is forwarded: a refused body never reaches Next's decoder whole.
+      const problem = guard.write(chunk);
+      if (problem) {
+        if (!res.headersSent) refuse(res, 400, "bad_request", "Bad request", problem);
+        stopForwarding();
         return;
       }
       if (!upstream.write(chunk)) req.pause();

@@ -53,6 +53,8 @@ afterAll(async () => {
   await new Promise((resolve) => app.close(resolve));
 });
 
+const APP_ORIGIN = "https://arrhenia.example";
+
 async function edge(trustProxy: string) {
   const e = await startEdgeProxy({
     host: "127.0.0.1",
@@ -60,6 +62,7 @@ async function edge(trustProxy: string) {
     upstreamPort: appPort,
     trust: compileTrustProxy(trustProxy),
     key: process.env.ARRHENIA_EDGE_KEY!,
+    appOrigin: APP_ORIGIN,
   });
   edges.push(e);
   return e.port;
@@ -252,5 +255,82 @@ describe("client address behind the front server", () => {
     expect(chunked).toBe(413);
     const small = await send(port, loopback(), { method: "POST", path: "/forgot-password", headers: action, body: "[]" });
     expect(small).toEqual({ status: 200, text: "reached the app" });
+  });
+
+  it("server actions are accepted from APP_URL's origin only: a forged Host (or X-Forwarded-Host) to match another origin is a 403", async () => {
+    for (const trust of ["", "1"]) {
+      const port = await edge(trust);
+      const action = { "next-action": "0123456789abcdef", "content-type": "text/plain;charset=UTF-8" };
+      const forged = await send(port, loopback(), {
+        method: "POST",
+        path: "/settings",
+        headers: { ...action, host: "evil.example", origin: "http://evil.example" },
+        body: "[]",
+      });
+      expect(forged.status, `TRUST_PROXY=${trust}`).toBe(403);
+      const forwarded = await send(port, loopback(), {
+        method: "POST",
+        path: "/settings",
+        headers: { ...action, host: "evil.example", origin: "https://evil.example", "x-forwarded-host": "evil.example" },
+        body: "[]",
+      });
+      expect(forwarded.status, `TRUST_PROXY=${trust}`).toBe(403);
+      const ours = await send(port, loopback(), {
+        method: "POST",
+        path: "/settings",
+        headers: { ...action, host: `127.0.0.1:${port}`, origin: APP_ORIGIN },
+        body: "[]",
+      });
+      expect(ours).toEqual({ status: 200, text: "reached the app" });
+    }
+  });
+
+  it("an action body nested past the limit is a 400 before Next decodes it, as text or multipart; files and strings are not counted", async () => {
+    const port = await edge("");
+    const headers = { "next-action": "0123456789abcdef", host: `127.0.0.1:${port}`, origin: `http://127.0.0.1:${port}` };
+    const deep = "[".repeat(100_000);
+    const text = await send(port, loopback(), {
+      method: "POST",
+      path: "/deposits/new",
+      headers: { ...headers, "content-type": "text/plain;charset=UTF-8" },
+      body: deep,
+    });
+    expect(text.status).toBe(400);
+    expect(JSON.parse(text.text)).toMatchObject({ status: 400, detail: expect.stringMatching(/nested more than 128 levels/) });
+
+    const boundary = "----formdata-arrhenia-test";
+    const multipart = (parts: string[]) => parts.map((p) => `--${boundary}\r\n${p}\r\n`).join("") + `--${boundary}--\r\n`;
+    const field = (name: string, value: string) => `Content-Disposition: form-data; name="${name}"\r\n\r\n${value}`;
+    const file = (name: string, value: string) =>
+      `Content-Disposition: form-data; name="${name}"; filename="blob"\r\nContent-Type: application/octet-stream\r\n\r\n${value}`;
+    const form = { "content-type": `multipart/form-data; boundary=${boundary}` };
+    // With the Next-Action header, and as a form that works without script (no header).
+    for (const h of [
+      { ...headers, ...form },
+      { host: headers.host, origin: headers.origin, ...form },
+    ]) {
+      const nested = await send(port, loopback(), {
+        method: "POST",
+        path: "/settings",
+        headers: h,
+        body: multipart([field("0", '["$K1"]'), field("1_x", deep)]),
+      });
+      expect(nested.status).toBe(400);
+    }
+    const inFile = await send(port, loopback(), {
+      method: "POST",
+      path: "/settings",
+      headers: { ...headers, ...form },
+      body: multipart([field("0", '["$K1"]'), file("1", deep)]),
+    });
+    expect(inFile).toEqual({ status: 200, text: "reached the app" });
+    // Brackets inside a JSON string (a deposit document sent as text) are data, not nesting.
+    const asString = await send(port, loopback(), {
+      method: "POST",
+      path: "/deposits/new",
+      headers: { ...headers, "content-type": "text/plain;charset=UTF-8" },
+      body: JSON.stringify([JSON.stringify({ points: deep.length, deep })]),
+    });
+    expect(asString).toEqual({ status: 200, text: "reached the app" });
   });
 });

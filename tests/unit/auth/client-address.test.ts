@@ -73,17 +73,30 @@ describe("TRUST_PROXY", () => {
 });
 
 describe("cross-origin page posts (server actions)", () => {
+  const app = { appOrigin: "https://arrhenia.example", peerAddress: "203.0.113.9" };
   const h = (extra: http.IncomingHttpHeaders) => ({ host: "arrhenia.example", ...extra });
   it.each([
     ["another origin", h({ origin: "https://evil.example" }), true],
     ["an opaque origin", h({ origin: "null" }), true],
-    ["the same host", h({ origin: "https://arrhenia.example" }), false],
+    ["the app's origin", h({ origin: "https://arrhenia.example" }), false],
+    ["the app's host over another scheme", h({ origin: "http://arrhenia.example" }), true],
     ["no origin (not a browser)", h({}), false],
+    // The Host header is the client's to choose: matching it proves nothing.
+    ["another origin with a forged Host to match", { host: "evil.example", origin: "https://evil.example" }, true],
+    ["another origin claimed by X-Forwarded-Host", h({ origin: "https://evil.example", "x-forwarded-host": "evil.example" }), true],
+    ["a loopback origin from a remote socket", { host: "127.0.0.1:3000", origin: "http://127.0.0.1:3000" }, true],
   ])("%s", (_label, headers, refused) => {
-    expect(isCrossOriginPagePost("POST", "/settings", headers)).toBe(refused);
+    expect(isCrossOriginPagePost("POST", "/settings", headers, app)).toBe(refused);
+  });
+  it("a browser on this machine reaching the server directly on loopback keeps working", () => {
+    const local = { ...app, peerAddress: "::ffff:127.0.0.1" };
+    expect(isCrossOriginPagePost("POST", "/settings", { host: "127.0.0.1:3000", origin: "http://127.0.0.1:3000" }, local)).toBe(false);
+    expect(isCrossOriginPagePost("POST", "/settings", { host: "localhost:3000", origin: "http://localhost:3000" }, local)).toBe(false);
+    // Another local site (another port) is another origin.
+    expect(isCrossOriginPagePost("POST", "/settings", { host: "127.0.0.1:3000", origin: "http://127.0.0.1:8080" }, local)).toBe(true);
   });
   it("leaves reads and the API alone", () => {
-    expect(isCrossOriginPagePost("GET", "/settings", h({ origin: "https://evil.example" }))).toBe(false);
-    expect(isCrossOriginPagePost("POST", "/api/v1/analyses", h({ origin: "https://evil.example" }))).toBe(false);
+    expect(isCrossOriginPagePost("GET", "/settings", h({ origin: "https://evil.example" }), app)).toBe(false);
+    expect(isCrossOriginPagePost("POST", "/api/v1/analyses", h({ origin: "https://evil.example" }), app)).toBe(false);
   });
 });

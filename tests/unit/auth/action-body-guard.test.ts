@@ -1,0 +1,69 @@
+import { describe, expect, it } from "vitest";
+import { ActionBodyGuard, isActionRequest, MAX_ACTION_NESTING } from "@/lib/auth/action-body-guard";
+
+/** Feeds `body` to a fresh guard in chunks of `size` bytes; the first refusal, or null. */
+function scan(body: string, contentType = "text/plain;charset=UTF-8", size = Infinity): string | null {
+  const guard = new ActionBodyGuard(contentType);
+  const bytes = Buffer.from(body);
+  const step = Math.min(size, bytes.length || 1);
+  for (let i = 0; i < bytes.length; i += step) {
+    const problem = guard.write(bytes.subarray(i, i + step));
+    if (problem) return problem;
+  }
+  return null;
+}
+
+const boundary = "----formdata-xyz";
+const multipart = `multipart/form-data; boundary=${boundary}`;
+const body = (...parts: string[]) => parts.map((p) => `--${boundary}\r\n${p}\r\n`).join("") + `--${boundary}--\r\n`;
+const field = (name: string, value: string) => `Content-Disposition: form-data; name="${name}"\r\n\r\n${value}`;
+const file = (value: string) => `Content-Disposition: form-data; name="1"; filename="blob"\r\nContent-Type: text/plain\r\n\r\n${value}`;
+
+describe("ActionBodyGuard", () => {
+  it("allows nesting up to the limit and refuses one level more, however the body is cut into chunks", () => {
+    const ok = "[".repeat(MAX_ACTION_NESTING) + "]".repeat(MAX_ACTION_NESTING);
+    const deep = "{".repeat(MAX_ACTION_NESTING + 1);
+    for (const size of [1, 7, 4096, Infinity]) {
+      expect(scan(ok, undefined, size)).toBeNull();
+      expect(scan(deep, undefined, size)).toMatch(/nested more than 128 levels/);
+    }
+  });
+
+  it("counts depth, not brackets: many shallow arrays pass", () => {
+    expect(scan(JSON.stringify(Array.from({ length: 10_000 }, (_, i) => [i, { a: [i] }])))).toBeNull();
+  });
+
+  it("brackets inside strings (with escaped quotes) are not nesting", () => {
+    const text = JSON.stringify(['\\"' + "[".repeat(1000) + '"' + "{".repeat(1000)]);
+    expect(scan(text, undefined, 3)).toBeNull();
+  });
+
+  it("multipart: text fields are scanned, each on its own; files are skipped; boundaries may straddle chunks", () => {
+    const deepField = body(field("0", '["$K1"]'), field("1_a", "[".repeat(5000)));
+    const deepFile = body(field("0", '["$K1"]'), file("[".repeat(5000)));
+    const manyFields = body(...Array.from({ length: 50 }, (_, i) => field(String(i), "[".repeat(100))));
+    for (const size of [1, 5, 64, Infinity]) {
+      expect(scan(deepField, multipart, size)).toMatch(/nested/);
+      expect(scan(deepFile, multipart, size)).toBeNull();
+      expect(scan(manyFields, multipart, size)).toBeNull();
+    }
+  });
+
+  it("a quoted boundary parameter is understood", () => {
+    const deep = body(field("0", "[".repeat(500)));
+    expect(scan(deep, `multipart/form-data; boundary="${boundary}"`)).toMatch(/nested/);
+  });
+});
+
+describe("isActionRequest", () => {
+  it.each([
+    ["POST", "/deposits/new", { "next-action": "abc" }, true],
+    ["POST", "/api/v1/x", { "next-action": "abc" }, true],
+    ["POST", "/settings", { "content-type": "multipart/form-data; boundary=x" }, true],
+    ["POST", "/api/v1/versions/1/files", { "content-type": "multipart/form-data; boundary=x" }, false],
+    ["POST", "/api/v1/analyses", { "content-type": "application/json" }, false],
+    ["GET", "/settings", { "next-action": "abc" }, false],
+  ])("%s %s %j → %s", (method, url, headers, expected) => {
+    expect(isActionRequest(method, url, headers)).toBe(expected);
+  });
+});
