@@ -15,6 +15,9 @@ const WITHHELD: Record<string, string> = {
   identifier_registrations: "DELETE",
 };
 
+/** Functions that run as the schema owner and that the runtime role may call (each checks its own rule). */
+export const RUNTIME_FUNCTIONS = ["arrhenia_append_refit_analysis(integer, text, jsonb, jsonb, text)"];
+
 /** Triggers that freeze published data (drizzle/0002, drizzle/0007); each must exist and fire. */
 export const FREEZE_TRIGGERS = [
   "dataset_versions_frozen_when_published",
@@ -53,6 +56,10 @@ export async function grantRuntimeRole(sql: Sql, role: string): Promise<void> {
     }
     for (const [table, privileges] of Object.entries(WITHHELD)) {
       await tx.unsafe(`revoke ${privileges} on table public.${quoteIdent(table)} from ${quoteIdent(role)}`);
+    }
+    for (const signature of RUNTIME_FUNCTIONS) {
+      const [exists] = await tx`select to_regprocedure(${"public." + signature}) is not null as found`;
+      if (exists.found) await tx.unsafe(`grant execute on function public.${signature} to ${quoteIdent(role)}`);
     }
   });
 }
@@ -136,6 +143,14 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
           and not exists (select 1 from unnest(coalesce(p.proconfig, '{}')) c where c like 'search_path=%' and c not like 'search_path=%pg_temp%,%')
         order by 1`
   ).map((r) => r.name);
+  // Functions that run as their owner are ways around the freeze unless each is one we meant.
+  const sameSignature = (a: string, b: string) => a.replace(/\s|^public\./g, "") === b.replace(/\s|^public\./g, "");
+  const definers = (
+    await sql<{ name: string }[]>`
+      select p.oid::regprocedure::text as name from pg_proc p join pg_namespace n on n.oid = p.pronamespace
+        where p.prosecdef and n.nspname in ('public', 'pgboss') and has_function_privilege(p.oid, 'EXECUTE') order by 1`
+  ).map((r) => r.name);
+  const unexpectedDefiners = definers.filter((d) => !RUNTIME_FUNCTIONS.some((f) => sameSignature(d, f)));
   const triggers = await sql<
     { name: string; enabled: string }[]
   >`select tgname as name, tgenabled as enabled from pg_trigger where tgname = any(${FREEZE_TRIGGERS})`;
@@ -172,6 +187,7 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     { check: "may set session_replication_role", found: String(db.replication), ok: !db.replication },
     { check: "UPDATE/DELETE on append-only tables", found: none(appendOnlyWritable), ok: appendOnlyWritable.length === 0 },
     { check: "freeze triggers missing or disabled", found: none(missing), ok: missing.length === 0 },
+    { check: "owner-run functions it may call, beyond the re-fit's", found: none(unexpectedDefiners), ok: unexpectedDefiners.length === 0 },
   ];
   // Belt and braces: the attempts themselves (rolled back should any succeed).
   const attempts: [string, string][] = [

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, desc, eq, inArray } from "drizzle-orm";
+import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import { getDb, type Transaction } from "@/db/client";
 import { datasetMembers, datasets, datasetVersions, decisions, versionAnalyses, versionFiles, versionPoints } from "@/db/datasets";
 import { users } from "@/db/users";
@@ -463,4 +463,34 @@ export async function getDatasetSummary({ datasetId }: { datasetId: number }) {
     .from(datasets)
     .where(eq(datasets.id, datasetId));
   return row ?? null;
+}
+
+/**
+ * Adds a re-fit's analysis to a version (published ones included) through the database function
+ * that alone may (drizzle/0011): append-only, and only when the newest analysis came from another
+ * engine version. Returns false when the version is already fitted by `engineVersion`.
+ */
+export async function appendRefitAnalysis({
+  versionId,
+  engineVersion,
+  result,
+  checks,
+  error,
+}: {
+  versionId: number;
+  engineVersion: string;
+  result: Record<string, unknown> | null;
+  checks: AnalysisSummary["checks"];
+  error?: string;
+}): Promise<boolean> {
+  try {
+    await getDb().execute(
+      sql`select arrhenia_append_refit_analysis(${versionId}, ${engineVersion}, ${result === null ? null : JSON.stringify(result)}::jsonb, ${JSON.stringify(checks)}::jsonb, ${error ?? null})`,
+    );
+    return true;
+  } catch (err) {
+    // Another run of the job fitted it meanwhile.
+    if ((err as { code?: string }).code === "23505" || (err as { cause?: { code?: string } }).cause?.code === "23505") return false;
+    throw err;
+  }
 }

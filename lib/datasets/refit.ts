@@ -6,10 +6,12 @@ import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { getSender, retryPolicy } from "@/lib/jobs/boss";
 import { AnalysisError, analyseDataset } from "@/lib/kinetics";
 import { ENGINE_VERSION } from "./prepare";
+import { appendRefitAnalysis } from "./queries";
 
 /**
  * Re-analyses one version with the current engine and stores the result as a new analysis row
- * (published versions keep their frozen points and earlier analyses; only a row is added).
+ * (published versions keep their frozen points and earlier analyses; only a row is added, through
+ * the one database function allowed to add it: this is the only path that may).
  * The non-kinetic checks (balance, units sanity) are carried over from the previous analysis.
  */
 export async function refitVersion({ versionId }: { versionId: number }): Promise<"refitted" | "current" | "invalid"> {
@@ -23,28 +25,21 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
     .orderBy(desc(versionAnalyses.id))
     .limit(1);
   if (latest?.engineVersion === ENGINE_VERSION) return "current";
+  const checks = latest?.checks ?? [];
+  const append = (result: Record<string, unknown> | null, error?: string) =>
+    appendRefitAnalysis({ versionId, engineVersion: ENGINE_VERSION, result, checks, error });
   const validation = validateDeposit(version.payload);
   if (!validation.ok) {
-    await db.insert(versionAnalyses).values({
-      versionId,
-      engineVersion: ENGINE_VERSION,
-      result: null,
-      checks: latest?.checks ?? [],
-      error: `stored document no longer validates: ${validation.errors[0].message}`,
-    });
-    return "invalid";
+    return (await append(null, `stored document no longer validates: ${validation.errors[0].message}`)) ? "invalid" : "current";
   }
+  let result: Record<string, unknown>;
   try {
-    const result = analyseDataset(toAnalysisInput(validation.value)) as unknown as Record<string, unknown>;
-    await db.insert(versionAnalyses).values({ versionId, engineVersion: ENGINE_VERSION, result, checks: latest?.checks ?? [] });
-    return "refitted";
+    result = analyseDataset(toAnalysisInput(validation.value)) as unknown as Record<string, unknown>;
   } catch (err) {
     if (!(err instanceof AnalysisError)) throw err;
-    await db
-      .insert(versionAnalyses)
-      .values({ versionId, engineVersion: ENGINE_VERSION, result: null, checks: latest?.checks ?? [], error: err.message });
-    return "invalid";
+    return (await append(null, err.message)) ? "invalid" : "current";
   }
+  return (await append(result)) ? "refitted" : "current";
 }
 
 /** Versions whose newest analysis came from another engine version (or that have none). */

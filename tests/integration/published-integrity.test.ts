@@ -150,6 +150,16 @@ describe("the freeze holds against the runtime role", () => {
     ["edit its analysis", `update version_analyses set result = '{}' where version_id = ${published.id}`, refusedByTrigger],
     ["delete its analysis", `delete from version_analyses where version_id = ${published.id}`, refusedByTrigger],
     [
+      "append an analysis directly (not the re-fit path)",
+      `insert into version_analyses (version_id, engine_version, result, checks) values (${published.id}, 'forged-engine', '{}', '[]')`,
+      refusedByTrigger,
+    ],
+    [
+      "append through the re-fit path an analysis by the engine that already fitted it",
+      `select arrhenia_append_refit_analysis(${published.id}, (select engine_version from version_analyses where version_id = ${published.id} order by id desc limit 1), '{}', '[]', null)`,
+      /already fitted/,
+    ],
+    [
       "move a draft analysis in",
       `update version_analyses set version_id = ${published.id} where version_id = ${draft.id}`,
       refusedByTrigger,
@@ -250,9 +260,10 @@ describe("the freeze holds against the runtime role", () => {
   });
 
   it("still allows what the product does: re-fits, aliases, co-editors, registration progress, editing drafts", async () => {
-    // A re-fit adds a row like the ones before it (here a copy of the newest), never changes one.
-    await sql`insert into version_analyses (version_id, engine_version, result, checks)
-      select version_id, 'refit-test', result, checks from version_analyses where version_id = ${published.id} order by id desc limit 1`;
+    // A re-fit by another engine adds a row like the ones before it (here a copy of the newest),
+    // through the one path that may, and never changes one.
+    await sql`select arrhenia_append_refit_analysis(version_id, 'refit-test', result, checks, null)
+      from (select version_id, result, checks from version_analyses where version_id = ${published.id} order by id desc limit 1) newest`;
     await sql`insert into species_names (species_id, name) values (${speciesId}, ${"alias " + published.id}) on conflict do nothing`;
     await addDatasetMember({ datasetId: published.datasetId, userId: stranger.id, role: "viewer", actorId: owner.id });
     await sql`update identifier_registrations set attempts = attempts + 1, last_error = 'agency down' where identifier = ${seriesIdentifier}`;
