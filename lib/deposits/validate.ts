@@ -5,7 +5,7 @@
  * field or row) and for the API (a problem+json 422 list).
  */
 import Ajv2020 from "ajv/dist/2020";
-import type { ErrorObject } from "ajv";
+import type { ErrorObject, ValidateFunction } from "ajv";
 import addFormats from "ajv-formats";
 import type { FieldError } from "@/lib/errors";
 import { findUnstorableText } from "@/lib/storable-text";
@@ -27,19 +27,33 @@ export const MAX_DOCUMENT_BYTES = 25 * 1024 * 1024;
 
 export type ValidationResult = { ok: true; value: DepositDocument } | { ok: false; errors: FieldError[] };
 
-// Compiled once at module load: compiling takes milliseconds. verbose: true keeps the offending
-// value (`data`) on each error.
-const ajv = new Ajv2020({ allErrors: true, verbose: true, strictTuples: false, allowUnionTypes: true });
-addFormats(ajv, ["uri"]);
-const validateAgainstSchema = ajv.compile<DepositDocument>(depositSchema);
-
+// Compiled once per process, on first use rather than at module load: compiling takes a few
+// hundred milliseconds, and the request thread, which loads this module with every deposit
+// route, never validates a document itself (the analysis worker threads do). verbose: true keeps
+// the offending value (`data`) on each error.
+//
 // The points are validated row by row, never by the document validator: with allErrors, ajv
 // concatenates the error list of every referenced subschema call into the parent's, which is
 // quadratic in the number of errors (a 20 000-row table with a bad value per row took a minute).
 // Row by row the cost is linear, and rows the fast check recognises skip ajv altogether.
 const pointsItems = depositSchema.properties!.points.items!;
-const validatePoint = ajv.compile({ $ref: `${depositSchema.$id}#/properties/points/items` });
-const isCertainlyValidPoint = makeFastPointCheck(pointsItems) ?? (() => false);
+let compiled: {
+  validateAgainstSchema: ValidateFunction<DepositDocument>;
+  validatePoint: ValidateFunction;
+  isCertainlyValidPoint: (row: unknown) => boolean;
+} | null = null;
+function validators() {
+  if (!compiled) {
+    const ajv = new Ajv2020({ allErrors: true, verbose: true, strictTuples: false, allowUnionTypes: true });
+    addFormats(ajv, ["uri"]);
+    compiled = {
+      validateAgainstSchema: ajv.compile<DepositDocument>(depositSchema),
+      validatePoint: ajv.compile({ $ref: `${depositSchema.$id}#/properties/points/items` }),
+      isCertainlyValidPoint: makeFastPointCheck(pointsItems) ?? (() => false),
+    };
+  }
+  return compiled;
+}
 /** What the document validator sees instead of a long points list (two rows it accepts). */
 const POINTS_STAND_IN = [
   { T: 300, k: 1 },
@@ -55,6 +69,7 @@ const FIELDS_AFTER_POINTS = new Set(
  * The document is validated with its points replaced by a stand-in; then each row on its own.
  */
 function schemaErrorsOf(doc: Record<string, unknown>, limit: number): { errors: FieldError[]; total: number } {
+  const { validateAgainstSchema, validatePoint, isCertainlyValidPoint } = validators();
   const points = doc.points;
   // Fewer than two rows: the document validator reports minItems itself (and the rows are few).
   const rows = Array.isArray(points) && points.length >= 2 ? points : undefined;
