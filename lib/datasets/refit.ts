@@ -2,9 +2,8 @@ import "server-only";
 import { desc, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasetVersions, versionAnalyses } from "@/db/datasets";
-import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { getSender, retryPolicy } from "@/lib/jobs/boss";
-import { AnalysisError, analyseDataset } from "@/lib/kinetics";
+import { runAnalysisTask } from "@/lib/workers/pool";
 import { ENGINE_VERSION } from "./prepare";
 import { appendRefitAnalysis } from "./queries";
 
@@ -13,10 +12,17 @@ import { appendRefitAnalysis } from "./queries";
  * (published versions keep their frozen points and earlier analyses; only a row is added, through
  * the one database function allowed to add it: this is the only path that may).
  * The non-kinetic checks (balance, units sanity) are carried over from the previous analysis.
+ * Validation and fitting run on an analysis worker thread: the job worker shares its thread with
+ * the front server (scripts/serve.ts), and a queue of re-fits after an engine change must not
+ * stall every request passing through it.
  */
 export async function refitVersion({ versionId }: { versionId: number }): Promise<"refitted" | "current" | "invalid"> {
   const db = getDb();
-  const [version] = await db.select({ payload: datasetVersions.payload }).from(datasetVersions).where(eq(datasetVersions.id, versionId));
+  // As text: parsing a 100 000-point document here only to send it to the worker as text again would cost this thread twice.
+  const [version] = await db
+    .select({ payload: sql<string>`${datasetVersions.payload}::text` })
+    .from(datasetVersions)
+    .where(eq(datasetVersions.id, versionId));
   if (!version) return "invalid";
   const [latest] = await db
     .select({ engineVersion: versionAnalyses.engineVersion, checks: versionAnalyses.checks })
@@ -28,17 +34,12 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
   const checks = latest?.checks ?? [];
   const append = (result: Record<string, unknown> | null, error?: string) =>
     appendRefitAnalysis({ versionId, engineVersion: ENGINE_VERSION, result, checks, error });
-  const validation = validateDeposit(version.payload);
-  if (!validation.ok) {
-    return (await append(null, `stored document no longer validates: ${validation.errors[0].message}`)) ? "invalid" : "current";
+  const checked = await runAnalysisTask("checkDocument", version.payload);
+  if (!checked.ok) {
+    return (await append(null, `stored document no longer validates: ${checked.errors[0].message}`)) ? "invalid" : "current";
   }
-  let result: Record<string, unknown>;
-  try {
-    result = analyseDataset(toAnalysisInput(validation.value)) as unknown as Record<string, unknown>;
-  } catch (err) {
-    if (!(err instanceof AnalysisError)) throw err;
-    return (await append(null, err.message)) ? "invalid" : "current";
-  }
+  if (!checked.analysis.ok) return (await append(null, checked.analysis.message)) ? "invalid" : "current";
+  const result = checked.analysis.result;
   return (await append(result)) ? "refitted" : "current";
 }
 
