@@ -33,6 +33,7 @@ const variables = {
   PORT: { schema: port },
   HOST: { schema: z.string().regex(/^[\w.:-]+$/, "must be a host name or an IP address") },
   INNER_PORT: { schema: port },
+  NEXT_DIST_DIR: { schema: z.string().regex(/^[\w.\/-]+$/, "must be a folder name such as .next") },
   SMTP_URL: { schema: z.string().regex(/^smtps?:\/\/\S+$/, "must be an smtp:// or smtps:// URL"), secret: true },
   MAIL_CAPTURE_PORT: { schema: port },
   MAIL_FROM: { schema: z.string().min(3, "must be a sender such as Arrhenia <no-reply@example.org>") },
@@ -144,6 +145,11 @@ export function serverHost(): string {
  */
 export function innerPort(): number | undefined {
   return read("INNER_PORT");
+}
+
+/** Folder of the production build (next.config.mjs reads the same variable). */
+export function nextDistDir(): string {
+  return read("NEXT_DIST_DIR") ?? ".next";
 }
 
 /** The schema owner's URL, for migrations only; the app itself connects as DATABASE_URL's role. */

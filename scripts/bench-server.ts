@@ -16,11 +16,12 @@ import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { encode } from "next-auth/jwt";
+import { nextDistDir } from "@/lib/config";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 import { createApiToken, createUser, getUserForSession } from "@/lib/users/queries";
 
 const dir = path.resolve(process.env.BENCH_DIR ?? process.cwd());
-const distDir = process.env.NEXT_DIST_DIR || ".next";
+const distDir = nextDistDir();
 const rounds = Number(process.env.BENCH_ROUNDS ?? 3);
 const secret = `bench-${Math.random().toString(36).slice(2)}-${Date.now()}`;
 

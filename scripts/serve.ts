@@ -18,6 +18,7 @@ import {
   doiFakePort,
   fakeDoiDataDir,
   innerPort as configuredInnerPort,
+  nextDistDir,
   serveQuiet,
   serverHost,
   serverPort,
@@ -33,6 +34,7 @@ import { enqueuePendingIdentifierRegistrations } from "@/lib/identifiers/queue";
 import { enqueueStaleRefits } from "@/lib/datasets/refit";
 import { startCaptureServer } from "@/lib/mail/capture-server";
 import { DEMO_PASSWORD, demoAccounts } from "./seed/seed-data";
+import { warmUpApp } from "./warm-up";
 
 // A bad setting stops here, before anything listens, with every problem listed.
 try {
@@ -66,19 +68,22 @@ const next = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", 
   stdio: ["ignore", "inherit", "inherit"],
   env: process.env,
 });
-const edge = await startEdgeProxy({ host, port, upstreamPort: innerPort, trust, key: edgeKey, appOrigin: new URL(appUrl()).origin });
-
+let edge: Awaited<ReturnType<typeof startEdgeProxy>> | undefined;
 let stopping = false;
 async function stop(code: number) {
   if (stopping) return;
   stopping = true;
   next.kill("SIGTERM");
-  await Promise.allSettled([edge.close(), workers.stop(), capture?.close(), fakeDoi?.close(), sql.end({ timeout: 2 })]);
+  await Promise.allSettled([edge?.close(), workers.stop(), capture?.close(), fakeDoi?.close(), sql.end({ timeout: 2 })]);
   process.exit(code);
 }
 process.on("SIGINT", () => void stop(0));
 process.on("SIGTERM", () => void stop(0));
 next.on("exit", (code) => void stop(code ?? 0));
+
+// The front server opens once Next is up and every route's modules are loaded (scripts/warm-up.ts).
+await warmUpApp({ port: innerPort, key: edgeKey, distDir: nextDistDir() });
+edge = await startEdgeProxy({ host, port, upstreamPort: innerPort, trust, key: edgeKey, appOrigin: new URL(appUrl()).origin });
 
 if (!quiet) {
   const width = Math.max(...demoAccounts.map((a) => a.email.length));

@@ -9,12 +9,19 @@ import { describeUnstorableText } from "@/lib/storable-text";
 import { decisionMail, submissionMail } from "@/lib/mail/templates";
 import type { Transaction } from "@/db/client";
 import { listActiveCurators, type UserDto } from "@/lib/users/queries";
-import { prepareDepositOrThrow, prepareDepositTextOrThrow } from "./prepare";
+import { prepareDepositBytesOrThrow, prepareDepositOrThrow, prepareDepositTextOrThrow } from "./prepare";
 
-/** A deposit document parsed, or still as the JSON text of a request body (parsed off this thread). */
-type DocumentSource = { document: unknown; text?: undefined } | { text: string; document?: undefined };
+/**
+ * A deposit document parsed, or still as the JSON text or the UTF-8 bytes of a request body
+ * (decoded and parsed off this thread; bytes are moved to the worker, unusable afterwards).
+ */
+type DocumentSource =
+  | { document: unknown; text?: undefined; bytes?: undefined }
+  | { text: string; document?: undefined; bytes?: undefined }
+  | { bytes: Uint8Array; document?: undefined; text?: undefined };
 
 function prepareSource(source: DocumentSource) {
+  if (source.bytes !== undefined) return prepareDepositBytesOrThrow(source.bytes);
   return source.text !== undefined ? prepareDepositTextOrThrow(source.text) : prepareDepositOrThrow(source.document);
 }
 import { createDatasetDraft, createNextVersion, getVersionWithRole, listDatasetMembers, saveDraft, type VersionDto } from "./queries";

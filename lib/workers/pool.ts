@@ -53,7 +53,11 @@ function busy(message: string): AppError {
 }
 
 /** Run one task on a worker thread; 503 when the queue is full or the task runs out of time. */
-export async function runAnalysisTask<N extends TaskName>(name: N, input: Parameters<Tasks[N]>[0]): Promise<ReturnType<Tasks[N]>> {
+export async function runAnalysisTask<N extends TaskName>(
+  name: N,
+  input: Parameters<Tasks[N]>[0],
+  { transfer }: { /** Moved to the worker, not copied (and unusable here afterwards). */ transfer?: ArrayBuffer[] } = {},
+): Promise<ReturnType<Tasks[N]>> {
   const workers = getPool();
   if (workers.queueSize >= analysisQueueLimit()) {
     throw busy("The server is busy checking other submissions; try again in a few seconds.");
@@ -61,7 +65,7 @@ export async function runAnalysisTask<N extends TaskName>(name: N, input: Parame
   const timeoutMs = analysisTimeoutMs();
   const message: TaskMessage<N> = { name, input };
   try {
-    return await workers.run(message, { signal: AbortSignal.timeout(timeoutMs) });
+    return await workers.run(message, { signal: AbortSignal.timeout(timeoutMs), transferList: transfer });
   } catch (err) {
     const e = err as Error;
     if (e?.name === "AbortError" || e?.name === "TimeoutError") {

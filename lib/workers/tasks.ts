@@ -4,15 +4,24 @@
  * come back as `{ ok: false, … }` values rather than exceptions.
  */
 import { runAnalysisOrThrow, type AnalysisRequest, type AnalysisResponse } from "@/lib/analyses/analyse-request";
-import { checkAndAnalyseDocument } from "@/lib/datasets/prepare-document";
+import { checkAndAnalyseDocument, type CheckedDocument } from "@/lib/datasets/prepare-document";
 import { AppError, type ErrorCode, type FieldError } from "@/lib/errors";
 
 export type AnalyseOutcome =
   { ok: true; response: AnalysisResponse } | { ok: false; code: ErrorCode; message: string; errors: FieldError[] };
 
 export const tasks = {
-  /** Deposit document (JSON text) → validated, normalised, analysed (lib/datasets/prepare-document.ts). */
-  checkDocument: (text: string) => checkAndAnalyseDocument(text),
+  /**
+   * Deposit document (JSON text, or its UTF-8 bytes as a request brought them) → validated,
+   * normalised, analysed (lib/datasets/prepare-document.ts). Bytes are decoded here, not on the
+   * request thread, and a valid document's text is sent back for the caller to store.
+   */
+  checkDocument: (input: string | Uint8Array): CheckedDocument & { text?: string } => {
+    if (typeof input === "string") return checkAndAnalyseDocument(input);
+    const text = new TextDecoder().decode(input);
+    const checked = checkAndAnalyseDocument(text);
+    return checked.ok ? { ...checked, text } : checked;
+  },
   /** The stateless analysis of POST /api/v1/analyses, on an already parsed request. */
   analyse: (request: AnalysisRequest): AnalyseOutcome => {
     try {

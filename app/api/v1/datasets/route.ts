@@ -27,8 +27,8 @@ export const POST = withApi(
           },
           headers: { location: `/api/v1/versions/${version.id}` },
         });
-        // Parsed and validated on an analysis worker thread, not here.
-        const version = await depositNewDataset({ actor: user!, text: new TextDecoder().decode(body), beforeCommit: keep(created) });
+        // Decoded, parsed and validated on an analysis worker thread, not here (the bytes move there).
+        const version = await depositNewDataset({ actor: user!, bytes: body, beforeCommit: keep(created) });
         return created(version);
       },
     });
