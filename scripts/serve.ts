@@ -68,13 +68,14 @@ const next = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", 
   stdio: ["ignore", "inherit", "inherit"],
   env: process.env,
 });
-let edge: Awaited<ReturnType<typeof startEdgeProxy>> | undefined;
+// Set once the front server listens; stop() may run before that (Next exiting during warm-up).
+const running: { edge?: Awaited<ReturnType<typeof startEdgeProxy>> } = {};
 let stopping = false;
 async function stop(code: number) {
   if (stopping) return;
   stopping = true;
   next.kill("SIGTERM");
-  await Promise.allSettled([edge?.close(), workers.stop(), capture?.close(), fakeDoi?.close(), sql.end({ timeout: 2 })]);
+  await Promise.allSettled([running.edge?.close(), workers.stop(), capture?.close(), fakeDoi?.close(), sql.end({ timeout: 2 })]);
   process.exit(code);
 }
 process.on("SIGINT", () => void stop(0));
@@ -83,7 +84,7 @@ next.on("exit", (code) => void stop(code ?? 0));
 
 // The front server opens once Next is up and every route's modules are loaded (scripts/warm-up.ts).
 await warmUpApp({ port: innerPort, key: edgeKey, distDir: nextDistDir() });
-edge = await startEdgeProxy({ host, port, upstreamPort: innerPort, trust, key: edgeKey, appOrigin: new URL(appUrl()).origin });
+running.edge = await startEdgeProxy({ host, port, upstreamPort: innerPort, trust, key: edgeKey, appOrigin: new URL(appUrl()).origin });
 
 if (!quiet) {
   const width = Math.max(...demoAccounts.map((a) => a.email.length));
