@@ -75,7 +75,12 @@ export function ConsensusChoiceForm({
           <legend className="text-sm font-medium">Datasets</legend>
           {CONSENSUS_INCLUDES.map((value) => (
             <label key={value} className="flex items-center gap-2 text-sm">
-              <input type="radio" name="include" value={value} defaultChecked={(values.include || "all") === value} />
+              <input
+                type="radio"
+                name="include"
+                value={value}
+                defaultChecked={((CONSENSUS_INCLUDES as readonly string[]).includes(values.include) ? values.include : "all") === value}
+              />
               {includeLabels[value]}
             </label>
           ))}
