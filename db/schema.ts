@@ -7,3 +7,4 @@ export * from "./rate-limits";
 export * from "./chemistry";
 export * from "./datasets";
 export * from "./idempotency";
+export * from "./consensus";

@@ -1,6 +1,7 @@
 // One error type for the whole app; its code maps to an HTTP status and an RFC 9457 problem.
 
 export type ErrorCode =
+  | "bad_request"
   | "unauthenticated"
   | "forbidden"
   | "not_found"
@@ -12,6 +13,7 @@ export type ErrorCode =
   | "internal";
 
 const statusByCode: Record<ErrorCode, number> = {
+  bad_request: 400,
   unauthenticated: 401,
   forbidden: 403,
   not_found: 404,
@@ -26,6 +28,8 @@ const statusByCode: Record<ErrorCode, number> = {
 export interface FieldError {
   /** JSON pointer to the offending value, e.g. `/points/3/T`. */
   pointer: string;
+  /** The query parameter at fault, when the error is about one. */
+  parameter?: string;
   message: string;
   value?: unknown;
 }

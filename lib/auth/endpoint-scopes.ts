@@ -8,6 +8,7 @@ import type { ApiTokenScope } from "@/lib/users/queries";
 export const endpointScopes: { method: string; path: string; scope: ApiTokenScope | null; who: string }[] = [
   { method: "POST", path: "/api/v1/analyses", scope: null, who: "anyone" },
   { method: "GET", path: "/api/v1/species/preview", scope: null, who: "anyone" },
+  { method: "GET", path: "/api/v1/reactions/:id/consensus", scope: null, who: "anyone" },
   { method: "POST", path: "/api/v1/datasets", scope: "deposit", who: "researchers" },
   { method: "GET", path: "/api/v1/versions/:id", scope: "read", who: "anyone for published versions; co-editors and curators otherwise" },
   { method: "PUT", path: "/api/v1/versions/:id", scope: "deposit", who: "owner and editors of a draft" },

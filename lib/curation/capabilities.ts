@@ -4,7 +4,8 @@ import { AppError } from "@/lib/errors";
 import { lifecycle, stateWords, transitionWords, type CoEditorRole, type Transition, type VersionState } from "./lifecycle";
 
 /** Everything a person can do to one dataset version. */
-export type VersionAction = "view" | "view_decisions" | "edit" | "upload_files" | "start_next_version" | "invite" | Transition;
+export type VersionAction =
+  "view" | "view_decisions" | "edit" | "upload_files" | "start_next_version" | "invite" | "exclude_from_consensus" | Transition;
 
 export const versionActions: readonly VersionAction[] = [
   "view",
@@ -13,6 +14,7 @@ export const versionActions: readonly VersionAction[] = [
   "upload_files",
   "start_next_version",
   "invite",
+  "exclude_from_consensus",
   ...(Object.keys(lifecycle) as Transition[]),
 ];
 
@@ -65,6 +67,9 @@ export function versionCapabilities({ state, siteRole, datasetRole }: Capability
     upload_files: edit,
     start_next_version: depositor && !!member?.startNextVersion && finishedStates.includes(state),
     invite: depositor && !!member?.invite,
+    // Leaving a published version out of its reaction's consensus (or taking it back) is a
+    // curator's judgement of the data, so, as with reviews, never by one who co-edits it.
+    exclude_from_consensus: curator && datasetRole === null && state === "published",
     submit: false,
     withdraw: false,
     start_review: false,
@@ -88,6 +93,7 @@ const denials: Record<VersionAction, string> = {
   upload_files: "Only the owner and editors may add or remove files",
   start_next_version: "Only the dataset's owner may start a new version",
   invite: "Only the dataset's owner may invite co-editors",
+  exclude_from_consensus: "Only curators who do not co-edit this dataset may leave it out of a consensus or include it again",
   submit: "Only the dataset's owner may submit it",
   withdraw: "Only the dataset's owner may withdraw it",
   start_review: "Only curators may do this",
@@ -101,6 +107,7 @@ const stateDenials: Partial<Record<VersionAction, (state: VersionState) => strin
   edit: (s) => `This version is ${stateWords[s]} and can no longer be edited`,
   upload_files: () => "Files can be added to or removed from drafts only",
   start_next_version: (s) => `This version is ${stateWords[s]}; finish it before starting another`,
+  exclude_from_consensus: (s) => `This version is ${stateWords[s]}; only published versions enter a consensus`,
 };
 
 /**

@@ -1,8 +1,12 @@
 import "server-only";
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Transaction } from "@/db/client";
 import { reactionParticipants, reactions, species } from "@/db/chemistry";
-import { datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
+import { consensusExclusions } from "@/db/consensus";
+import { datasetMembers, datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
+import { recordAuditEvent } from "@/lib/audit/record";
+import { AppError } from "@/lib/errors";
+import type { CuratorExclusion } from "./consensus-selection";
 
 /**
  * The version is its dataset's newest public one. Each version carries its own reaction, so a
@@ -108,4 +112,83 @@ export async function countPublicData() {
     select count(distinct v.dataset_id)::int as datasets, count(distinct v.reaction_id)::int as reactions, coalesce(sum(v.point_count), 0)::int as points
     from dataset_versions v where v.state = 'published'`);
   return { datasets: Number(row?.datasets ?? 0), reactions: Number(row?.reactions ?? 0), points: Number(row?.points ?? 0) };
+}
+
+/** Curators' exclusions from the consensus of one reaction (the versions that describe it). */
+export async function listConsensusExclusions({ reactionId }: { reactionId: number }): Promise<CuratorExclusion[]> {
+  return getDb()
+    .select({ versionId: consensusExclusions.versionId, reason: consensusExclusions.reason, excludedAt: consensusExclusions.excludedAt })
+    .from(consensusExclusions)
+    .innerJoin(datasetVersions, eq(datasetVersions.id, consensusExclusions.versionId))
+    .where(eq(datasetVersions.reactionId, reactionId))
+    .orderBy(consensusExclusions.versionId);
+}
+
+/** The version, locked against a concurrent retraction until the transaction ends; 409 unless published. */
+async function lockPublishedVersion(tx: Transaction, versionId: number) {
+  const [row] = await tx
+    .select({ state: datasetVersions.state, reactionId: datasetVersions.reactionId })
+    .from(datasetVersions)
+    .where(eq(datasetVersions.id, versionId))
+    .for("share");
+  if (!row) throw new AppError("not_found", "No such dataset version");
+  if (row.state !== "published") throw new AppError("conflict", "Only published versions enter a consensus");
+  return row;
+}
+
+/**
+ * Leaves a published version out of its reaction's consensus with a reason (or changes the reason),
+ * audited in the same transaction. Touches nothing of the version itself.
+ */
+export async function saveConsensusExclusion({ versionId, actorId, reason }: { versionId: number; actorId: number; reason: string }) {
+  return getDb().transaction(async (tx) => {
+    const { reactionId } = await lockPublishedVersion(tx, versionId);
+    const [before] = await tx
+      .select({ reason: consensusExclusions.reason })
+      .from(consensusExclusions)
+      .where(eq(consensusExclusions.versionId, versionId))
+      .for("update");
+    await tx
+      .insert(consensusExclusions)
+      .values({ versionId, reason, excludedBy: actorId })
+      .onConflictDoUpdate({ target: consensusExclusions.versionId, set: { reason, excludedBy: actorId, excludedAt: sql`now()` } });
+    await recordAuditEvent(tx, {
+      actorId,
+      action: before ? "consensus.exclusion_changed" : "consensus.excluded",
+      subjectType: "dataset_version",
+      subjectId: versionId,
+      details: { reactionId, reason, ...(before ? { previousReason: before.reason } : {}) },
+    });
+    return { reactionId, changed: !!before };
+  });
+}
+
+/** Takes a version back into its reaction's consensus, audited; 409 when it was not left out. */
+export async function deleteConsensusExclusion({ versionId, actorId }: { versionId: number; actorId: number }) {
+  return getDb().transaction(async (tx) => {
+    const { reactionId } = await lockPublishedVersion(tx, versionId);
+    const [removed] = await tx
+      .delete(consensusExclusions)
+      .where(eq(consensusExclusions.versionId, versionId))
+      .returning({ reason: consensusExclusions.reason });
+    if (!removed) throw new AppError("conflict", "This version is not left out of the consensus");
+    await recordAuditEvent(tx, {
+      actorId,
+      action: "consensus.included",
+      subjectType: "dataset_version",
+      subjectId: versionId,
+      details: { reactionId, previousReason: removed.reason },
+    });
+    return { reactionId };
+  });
+}
+
+/** The person's role on each of these datasets (absent when they hold none), for per-version capabilities. */
+export async function listDatasetRolesOf({ userId, datasetIds }: { userId: number; datasetIds: number[] }) {
+  if (!datasetIds.length) return new Map<number, (typeof datasetMembers.$inferSelect)["role"]>();
+  const rows = await getDb()
+    .select({ datasetId: datasetMembers.datasetId, role: datasetMembers.role })
+    .from(datasetMembers)
+    .where(and(eq(datasetMembers.userId, userId), inArray(datasetMembers.datasetId, datasetIds)));
+  return new Map(rows.map((r) => [r.datasetId, r.role]));
 }

@@ -7,6 +7,7 @@ vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }
 
 import { changeRoleAction, setActiveAction } from "@/app/admin/people/actions";
 import * as filesRoute from "@/app/api/v1/files/[fileId]/route";
+import * as reactionConsensusRoute from "@/app/api/v1/reactions/[id]/consensus/route";
 import * as usersRoute from "@/app/api/v1/users/[id]/route";
 import * as versionFilesRoute from "@/app/api/v1/versions/[id]/files/route";
 import * as nextRoute from "@/app/api/v1/versions/[id]/next/route";
@@ -96,6 +97,7 @@ const apiCases: [string, string, Handler, string, () => RequestInit][] = [
     },
   ],
   ["GET", "/api/v1/files/[fileId]", filesRoute.GET as Handler, "fileId", () => ({})],
+  ["GET", "/api/v1/reactions/[id]/consensus", reactionConsensusRoute.GET as Handler, "id", () => ({})],
   ["DELETE", "/api/v1/files/[fileId]", filesRoute.DELETE as Handler, "fileId", () => ({ method: "DELETE" })],
   [
     "PATCH",

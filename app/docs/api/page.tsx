@@ -4,6 +4,7 @@ import { endpointScopes } from "@/lib/auth/endpoint-scopes";
 import { appUrl } from "@/lib/config";
 import { ANALYSIS_CONVENTIONS } from "@/lib/kinetics/conventions";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
+import { CONSENSUS_SELECTION_RULES } from "@/lib/reactions/consensus-selection";
 
 export const metadata: Metadata = { title: "API" };
 
@@ -112,6 +113,55 @@ export default function ApiDocsPage() {
             </li>
           ))}
         </ul>
+        <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
+      </section>
+
+      <section className="space-y-3" aria-labelledby="consensus">
+        <h2 id="consensus" className="text-2xl font-semibold">
+          GET /api/v1/reactions/:id/consensus
+        </h2>
+        <p>
+          The consensus expression of one reaction, computed from the datasets your parameters choose, with the list of what went in and
+          what did not, and why. The same choice and the same lists appear on the reaction page, where the choice lives in the page’s URL
+          (the same parameters). No sign-in.
+        </p>
+        <h3 className="font-semibold">Query parameters</h3>
+        <ul className="list-disc space-y-1 pl-6 text-sm">
+          <li>
+            <code>include</code>: <code>all</code> (default: measured and calculated), <code>measured</code> or <code>calculated</code>.
+          </li>
+          <li>
+            <code>Tmin</code>, <code>Tmax</code>: the temperature window in kelvin, plain decimal numbers above zero, <code>Tmin</code>{" "}
+            below <code>Tmax</code>; either may be left out.
+          </li>
+        </ul>
+        <p className="text-sm">
+          An empty value means “not set”. Names are case-sensitive; an unknown or repeated parameter, or a value that cannot be read, is
+          refused with 400 (<code>bad_request</code>) and an <code>errors</code> list in which each entry names its <code>parameter</code>,
+          a <code>pointer</code> to it (<code>/Tmin</code>), the <code>value</code> sent and a plain <code>message</code>. An unknown
+          reaction, or one with no published data yet, is 404.
+        </p>
+        <h3 className="font-semibold">Answer</h3>
+        <p className="text-sm">
+          200 with <code>{"{ data: { reaction, units, selection, consensus, unavailable, caution } }"}</code>. <code>selection</code> holds
+          the choice (<code>include</code>, <code>Tmin</code>, <code>Tmax</code>, <code>description</code>), the reaction <code>order</code>
+          , <code>used</code> (each version with <code>kind</code>, <code>points</code>, <code>pointsUsed</code> and the temperatures used),{" "}
+          <code>notUsed</code> (each with <code>reasons</code>: a stable <code>code</code> — <code>retracted</code>, <code>evaluated</code>,{" "}
+          <code>unknown_method</code>, <code>not_chosen</code>, <code>excluded_by_curator</code>, <code>other_order</code>,{" "}
+          <code>too_few_temperatures</code>, <code>outside_window</code> — and a <code>message</code>) and <code>curatorExclusions</code>{" "}
+          (version, reason, time). <code>consensus</code> is the engine’s result in canonical units (<code>units</code>); its{" "}
+          <code>members[].id</code> are the version ids of <code>used</code>, as strings. When no consensus can be formed,{" "}
+          <code>consensus</code> is null and <code>unavailable</code> says why.
+        </p>
+        <h3 className="font-semibold">Which datasets go in</h3>
+        <ul className="list-disc space-y-2 pl-6 text-sm">
+          {CONSENSUS_SELECTION_RULES.map((c, i) => (
+            <li key={i}>
+              <Inline text={c} />
+            </li>
+          ))}
+        </ul>
+        <pre className="overflow-x-auto rounded-md border border-line bg-panel p-4 text-xs">{`curl -s '${appUrl()}/api/v1/reactions/1/consensus?include=measured&Tmin=250&Tmax=400'`}</pre>
         <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
       </section>
 

@@ -5,11 +5,18 @@ import { ConsensusPlot } from "@/components/consensus-plot";
 import { StateLabel } from "@/components/state-label";
 import { renderSpeciesSvg } from "@/lib/chem";
 import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
-import { GAS_CONSTANT, consensus, getCanonicalRateConstantUnit, type ConsensusResult, type ReactionOrder } from "@/lib/kinetics";
+import { getCurrentUser } from "@/lib/auth/session";
+import { can } from "@/lib/auth/permissions";
+import { versionCapabilities } from "@/lib/curation/capabilities";
+import type { VersionState } from "@/lib/curation/lifecycle";
+import { GAS_CONSTANT, getCanonicalRateConstantUnit, type ReactionOrder } from "@/lib/kinetics";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
-import { getReaction, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
+import { parseConsensusChoice } from "@/lib/reactions/consensus-selection";
+import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
+import { getReaction, listDatasetRolesOf } from "@/lib/reactions/queries";
 import { formatSignificant } from "@/lib/format";
 import { parseIdOrNull } from "@/lib/ids";
+import { ConsensusChoiceForm, WhatWentIn, type ExclusionRow } from "./consensus-selection";
 
 export const metadata: Metadata = { title: "Reaction" };
 export const dynamic = "force-dynamic";
@@ -17,16 +24,28 @@ export const dynamic = "force-dynamic";
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
 /** Every public dataset of one reaction, compared on one plot, with the consensus expression. */
-export default async function ReactionPage({ params }: { params: Promise<{ id: string }> }) {
+export default async function ReactionPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ id: string }>;
+  searchParams?: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { id } = await params;
   const reactionId = parseIdOrNull(id);
   const reaction = reactionId !== null ? await getReaction({ id: reactionId }) : null;
   if (!reaction) notFound();
-  const versions = await listPublicVersionsOfReaction({ reactionId: reaction.id });
-  const order = ((versions[0]?.payload as { reaction?: { order?: ReactionOrder } })?.reaction?.order ?? 2) as ReactionOrder;
+  // The reader's choice of data lives in the URL; a choice that cannot be read falls back to the default, saying so.
+  const query = (await searchParams) ?? {};
+  const chosen = parseConsensusChoice(query);
+  const raw = (name: string) => [query[name]].flat()[0] ?? "";
+  const { versions, selection, result, unavailable } = await loadReactionConsensus({ reactionId: reaction.id, choice: chosen.choice });
+  const order = (selection.order ??
+    (versions[0]?.payload as { reaction?: { order?: ReactionOrder } })?.reaction?.order ??
+    2) as ReactionOrder;
   const published = versions.filter((v) => v.state === "published" && new Set(v.points.map((p) => p.T)).size >= 2);
-  let result: ConsensusResult | null = null;
-  if (published.length >= 2) result = consensus(published.map((v) => ({ id: String(v.versionId), points: v.points, order })));
+  const used = new Set(selection.used.map((d) => d.versionId));
+  const curatorRows = await exclusionRowsFor(versions, selection.curatorExclusions);
   const member = (versionId: number) => result?.members.find((m) => m.id === String(versionId));
   const pictures = await Promise.all(
     reaction.participants.map((p) => (p.smiles ? renderSpeciesSvg(p.smiles, { width: 140, height: 100 }).catch(() => null) : null)),
@@ -71,6 +90,11 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
         <p className="card text-sm">No published datasets of this reaction yet.</p>
       ) : (
         <>
+          <ConsensusChoiceForm
+            reactionId={reaction.id}
+            values={{ include: raw("include"), Tmin: raw("Tmin"), Tmax: raw("Tmax") }}
+            errors={chosen.ok ? [] : chosen.errors}
+          />
           <section className="card space-y-3" aria-labelledby="compare-heading">
             <h2 id="compare-heading" className="text-xl font-semibold">
               All published datasets
@@ -81,7 +105,7 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
               series={published.map((v) => ({
                 label: `v${v.number} · ${v.title.split(":").pop()?.trim() ?? v.title}`,
                 points: v.points.map((p) => ({ T: p.T, lnk: Math.log(p.k) })),
-                excluded: member(v.versionId)?.included === false,
+                excluded: !used.has(v.versionId) || member(v.versionId)?.included === false,
               }))}
             />
             <p className="text-xs text-muted">{FIT_CAUTION}</p>
@@ -117,6 +141,8 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
               )}
             </section>
           )}
+
+          <WhatWentIn selection={selection} unavailable={unavailable} curatorRows={curatorRows} />
 
           <section className="card overflow-x-auto p-0" aria-labelledby="list-heading">
             <h2 id="list-heading" className="px-6 pt-5 text-xl font-semibold">
@@ -172,4 +198,26 @@ export default async function ReactionPage({ params }: { params: Promise<{ id: s
       </p>
     </div>
   );
+}
+
+/** The published versions the viewer may leave out of the consensus (curators who do not co-edit them), or null. */
+async function exclusionRowsFor(
+  versions: { versionId: number; datasetId: number; number: number; title: string; state: string }[],
+  exclusions: { versionId: number; reason: string }[],
+): Promise<ExclusionRow[] | null> {
+  const viewer = await getCurrentUser();
+  if (!viewer || !can(viewer.role, "dataset.review")) return null;
+  const roles = await listDatasetRolesOf({ userId: viewer.id, datasetIds: versions.map((v) => v.datasetId) });
+  return versions
+    .filter(
+      (v) =>
+        versionCapabilities({ state: v.state as VersionState, siteRole: viewer.role, datasetRole: roles.get(v.datasetId) ?? null })
+          .exclude_from_consensus,
+    )
+    .map((v) => ({
+      versionId: v.versionId,
+      number: v.number,
+      title: v.title,
+      currentReason: exclusions.find((e) => e.versionId === v.versionId)?.reason ?? null,
+    }));
 }

@@ -36,6 +36,7 @@ const curatorTable: Partial<Record<VersionAction, VersionState[]>> = {
   accept: ["submitted", "in_review"],
   decline: ["submitted", "in_review"],
   retract: ["published"],
+  exclude_from_consensus: ["published"],
 };
 const expected: Record<string, Partial<Record<VersionAction, VersionState[]>>> = {
   anonymous: { view: finished },
@@ -60,7 +61,7 @@ const expected: Record<string, Partial<Record<VersionAction, VersionState[]>>> =
 describe("versionCapabilities: site role × dataset role × state × action", () => {
   it("knows every state and action", () => {
     expect(versionStates).toHaveLength(7);
-    expect(versionActions).toHaveLength(13);
+    expect(versionActions).toHaveLength(14);
   });
   for (const who of people) {
     for (const state of versionStates) {
@@ -101,6 +102,10 @@ describe("assertVersionCapability: 404 hides, 403 refuses the person, 409 refuse
     ["draft", "curator", "accept", 409],
     ["draft", "owner", "start_next_version", 409],
     ["published", "editor", "upload_files", 409],
+    ["published", "co-editing curator", "exclude_from_consensus", 403],
+    ["published", "owner", "exclude_from_consensus", 403],
+    ["retracted", "curator", "exclude_from_consensus", 409],
+    ["published", "admin", "exclude_from_consensus", "ok"],
     ["draft", "owner", "submit", "ok"],
     ["published", "anonymous", "view", "ok"],
   ];

@@ -1,0 +1,29 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { protectedAction } from "@/lib/auth/action";
+import { excludeFromConsensus, includeInConsensus } from "@/lib/reactions/exclusions";
+import { excludeFromConsensusSchema, includeInConsensusSchema } from "@/lib/reactions/schemas";
+
+// The permission table admits curators and admins; versionCapabilities then decides for the one
+// version (published, and not co-edited by the curator).
+
+export const excludeFromConsensusAction = protectedAction(
+  excludeFromConsensusSchema,
+  { permission: "dataset.review" },
+  async ({ versionId, reason }, user) => {
+    const { reactionId, changed } = await excludeFromConsensus({ actor: user, versionId, reason });
+    revalidatePath(`/reactions/${reactionId}`);
+    return { status: "ok", message: changed ? "Reason changed." : "Left out of the consensus." };
+  },
+);
+
+export const includeInConsensusAction = protectedAction(
+  includeInConsensusSchema,
+  { permission: "dataset.review" },
+  async ({ versionId }, user) => {
+    const { reactionId } = await includeInConsensus({ actor: user, versionId });
+    revalidatePath(`/reactions/${reactionId}`);
+    return { status: "ok", message: "Included in the consensus again." };
+  },
+);
