@@ -37,7 +37,8 @@ export default defineConfig({
     command: "node_modules/.bin/tsx --conditions=react-server scripts/serve.ts",
     url: `${baseURL}/api/health`,
     reuseExistingServer: false,
-    timeout: 60_000,
+    // Start-up includes one warm-up request per route before the front server opens (scripts/warm-up.ts).
+    timeout: 120_000,
     stdout: "pipe",
     stderr: "pipe",
     env: {

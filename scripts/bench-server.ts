@@ -7,12 +7,14 @@
  * stops it at the end. Not a test: prints a table. Run with `npm run bench:server`.
  *
  * BENCH_DIR serves another checkout of the project (with its own build) for a before/after
- * comparison; BENCH_ROUNDS (default 3) repeats each loaded scenario.
+ * comparison; BENCH_ROUNDS (default 3) repeats each loaded scenario; BENCH_PROFILE_DIR writes a
+ * CPU profile of the front server's process (scripts/serve.ts) there.
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { mkdtempSync } from "node:fs";
 import { createServer } from "node:net";
+import { Worker } from "node:worker_threads";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { encode } from "next-auth/jwt";
@@ -37,7 +39,8 @@ const port = await freePort();
 const base = `http://127.0.0.1:${port}`;
 
 function startServer(): ChildProcess {
-  return spawn(path.join(dir, "node_modules/.bin/tsx"), ["--conditions=react-server", "scripts/serve.ts"], {
+  const profile = process.env.BENCH_PROFILE_DIR ? ["--cpu-prof", `--cpu-prof-dir=${process.env.BENCH_PROFILE_DIR}`] : [];
+  return spawn(path.join(dir, "node_modules/.bin/tsx"), [...profile, "--conditions=react-server", "scripts/serve.ts"], {
     cwd: dir,
     stdio: ["ignore", "ignore", "inherit"],
     env: {
@@ -67,19 +70,40 @@ async function waitForHealth(deadline = Date.now() + 120_000) {
   throw new Error("the server did not answer /api/health within 2 minutes");
 }
 
-/** Samples GET /api/health back to back (a 10 ms pause between) until `until` settles. */
-async function sampleHealth(until: Promise<unknown>): Promise<number[]> {
-  let done = false;
-  void until.finally(() => (done = true));
-  const samples: number[] = [];
-  while (!done) {
+/** One health request: its latency, and the database round trip the server measured inside it (ms). */
+type Sample = [number, number];
+
+// The health sampler runs on a thread of its own: on this thread, sending 17 MB of uploads would
+// delay its requests and blame the server for the client's own work.
+const SAMPLER = `
+const { parentPort, workerData } = require("node:worker_threads");
+let stopped = false;
+parentPort.once("message", () => (stopped = true));
+(async () => {
+  const samples = [];
+  while (!stopped) {
     const t0 = performance.now();
-    const res = await fetch(`${base}/api/health`, { cache: "no-store" });
-    await res.arrayBuffer();
-    samples.push(performance.now() - t0);
+    const res = await fetch(workerData.url, { cache: "no-store" });
+    const body = await res.json().catch(() => ({}));
+    samples.push([performance.now() - t0, body.databaseLatencyMs ?? NaN]);
     await new Promise((r) => setTimeout(r, 10));
   }
-  return samples;
+  parentPort.postMessage(samples);
+})();
+`;
+
+/** Samples GET /api/health back to back (a 10 ms pause between) until `until` settles. */
+async function sampleHealth(until: Promise<unknown>): Promise<Sample[]> {
+  const sampler = new Worker(SAMPLER, { eval: true, workerData: { url: `${base}/api/health` } });
+  const samples = new Promise<Sample[]>((resolve, reject) => {
+    sampler.once("message", resolve);
+    sampler.once("error", reject);
+  });
+  await until.catch(() => {});
+  sampler.postMessage("stop");
+  const result = await samples;
+  await sampler.terminate();
+  return result;
 }
 
 const pct = (xs: number[], p: number) => {
@@ -116,27 +140,29 @@ try {
   });
   const { secret: token } = await createApiToken({ userId: user.id, name: "bench", scopes: ["deposit"] });
   const auth = { authorization: `Bearer ${token}` };
-  const rows: string[][] = [["scenario", "samples", "p50 ms", "p95 ms", "max ms", "the loaded requests"]];
-  const row = (name: string, samples: number[], note: string) =>
-    rows.push([name, String(samples.length), ms(pct(samples, 50)), ms(pct(samples, 95)), ms(Math.max(...samples)), note]);
+  const rows: string[][] = [["scenario", "samples", "p50 ms", "p95 ms", "max ms", "db max ms", "the loaded requests"]];
+  const row = (name: string, samples: Sample[], note: string) => {
+    const total = samples.map((s) => s[0]);
+    const db = samples.map((s) => s[1]).filter(Number.isFinite);
+    rows.push([name, String(total.length), ms(pct(total, 50)), ms(pct(total, 95)), ms(Math.max(...total)), ms(Math.max(...db)), note]);
+  };
 
   // Warm-up: the first requests compile routes and start the analysis threads.
   for (let i = 0; i < 20; i++) await (await fetch(`${base}/api/health`)).arrayBuffer();
 
-  const idle: number[] = [];
-  for (let i = 0; i < 200; i++) {
-    const t0 = performance.now();
-    await (await fetch(`${base}/api/health`)).arrayBuffer();
-    idle.push(performance.now() - t0);
-  }
-  row("health, idle", idle, "");
+  let idleDone = () => {};
+  const idleFor = new Promise<void>((resolve) => (idleDone = resolve));
+  setTimeout(() => idleDone(), 4000);
+  row("health, idle (4 s)", await sampleHealth(idleFor), "");
 
   // Ten documents of 100 000 bad points at once.
-  const bad = pointsDocument(
-    Array.from({ length: 100_000 }, () => ({ T: "x", k: -1 })),
-    "Bench bad",
+  const bad = Buffer.from(
+    pointsDocument(
+      Array.from({ length: 100_000 }, () => ({ T: "x", k: -1 })),
+      "Bench bad",
+    ),
   );
-  const loaded: number[] = [];
+  const loaded: Sample[] = [];
   const postTimes: number[] = [];
   const statuses = new Map<number, number>();
   for (let r = 0; r < rounds; r++) {
@@ -158,7 +184,7 @@ try {
   }
   const answered = [...statuses].map(([s, n]) => `${n}×${s}`).join(" ");
   row(
-    `health, 10 × ${(Buffer.byteLength(bad) / 1e6).toFixed(1)} MB bad documents`,
+    `health, 10 × ${(bad.byteLength / 1e6).toFixed(1)} MB bad documents`,
     loaded,
     `${answered}; each ${ms(Math.min(...postTimes))}–${ms(Math.max(...postTimes))} ms`,
   );
@@ -181,7 +207,7 @@ try {
     k: 1e-12 * Math.exp(-1000 / (250 + (i % 500) * 0.5)),
   }));
   const saveTimes: number[] = [];
-  const duringSave: number[] = [];
+  const duringSave: Sample[] = [];
   let lockVersion = draft.lockVersion;
   for (let r = 0; r < rounds; r++) {
     const text = pointsDocument(good, `Bench editor ${r}`);
@@ -216,7 +242,7 @@ try {
   console.log(`Serving ${dir} (${distDir}), ${rounds} round(s) per loaded scenario\n`);
   const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => r[c].length)));
   for (const r of rows)
-    console.log(r.map((cell, c) => (c === 0 || c === 5 ? cell.padEnd(widths[c]) : cell.padStart(widths[c]))).join("  "));
+    console.log(r.map((cell, c) => (c === 0 || c === 6 ? cell.padEnd(widths[c]) : cell.padStart(widths[c]))).join("  "));
 } finally {
   stop();
 }

@@ -158,8 +158,10 @@ export async function startEdgeProxy({
         answer.pipe(res);
       },
     );
-    upstream.on("error", () => {
+    upstream.on("error", (err: NodeJS.ErrnoException) => {
       if (res.writableEnded) return; // already answered (e.g. 413)
+      if (!res.headersSent)
+        console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}: the app did not answer (${err.code ?? err.message})`);
       if (!res.headersSent) res.writeHead(502, { "content-type": "text/plain" }).end("The application is starting or unavailable.");
       else res.destroy();
     });

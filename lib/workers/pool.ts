@@ -38,6 +38,11 @@ function getPool(): Piscina {
       maxQueue: analysisQueueLimit(),
       // Threads stay up: starting one (loading the engine) costs far more than a typical task.
       idleTimeout: 10 * 60_000,
+      // The threads yield the CPU to the request thread (and to PostgreSQL): on a two-core machine
+      // a thread validating at full tilt otherwise delayed small requests, health included, by
+      // hundreds of milliseconds. Linux nice values are per thread (piscina sets it through
+      // @napi-rs/nice, its optional dependency; without it the threads run at normal priority).
+      niceIncrement: 10,
     });
   }
   return holder[POOL_KEY];
