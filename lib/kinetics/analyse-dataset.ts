@@ -20,7 +20,7 @@ import type {
   EyringFit,
   FitResiduals,
   Flag,
-  FlagQuantityKind,
+  FlagQuantity,
   ModifiedArrheniusFit,
   RateAtTemperature,
   ReactionOrder,
@@ -350,13 +350,15 @@ function buildArrhenius(fit: CentredFit, s: FitSummary, t: number, d: Prepared):
 /** Residual spread and per-point residuals and fitted values of one fit. */
 function residualFields(fit: CentredFit, s: FitSummary, d: Prepared): FitResiduals {
   const { n, resid } = fit;
+  // Pre-filled so V8 keeps packed double arrays.
   const residuals = new Array<number>(n).fill(0);
   const fitted = new Array<number>(n).fill(0);
+  const y = d.y;
   let ss = 0;
   for (let i = 0; i < n; i++) {
     const r = resid[i];
     residuals[i] = r;
-    fitted[i] = d.y[i] - r;
+    fitted[i] = y[i] - r;
     ss += r * r;
   }
   return {
@@ -503,17 +505,33 @@ interface FlagContext {
   chosen: { fit: CentredFit; sum: FitSummary; model: ConfidenceBand["model"] };
 }
 
-/** Quantities of a flag from [name, kind, value] triples; entries with an undefined value are left out. */
-function quantities(...entries: [string, FlagQuantityKind, number | undefined][]): FlagQuantities {
-  const out: FlagQuantities = {};
-  for (const [name, kind, value] of entries) if (value !== undefined) out[name] = { kind, value };
-  return out;
+// The numbers behind a flag, by kind (flag-text.ts writes them in the reader's units).
+const count = (value: number): FlagQuantity => ({ kind: "count", value });
+const statistic = (value: number): FlagQuantity => ({ kind: "statistic", value });
+const probability = (value: number): FlagQuantity => ({ kind: "probability", value });
+const energy = (value: number): FlagQuantity => ({ kind: "energy", value });
+const temperature = (value: number): FlagQuantity => ({ kind: "temperature", value });
+const ratio = (value: number): FlagQuantity => ({ kind: "ratio", value });
+const percent = (value: number): FlagQuantity => ({ kind: "percent", value });
+
+/** A flag with its message, written by the same function a page uses to show it in other units. */
+function toFlag(draft: FlagDraft): Flag {
+  const flag: Flag = { code: draft.code, severity: draft.severity, message: "" };
+  if (draft.points) flag.points = draft.points;
+  flag.quantities = draft.quantities;
+  flag.message = formatFlagMessage(flag);
+  return flag;
+}
+
+/** A point nearer the Arrhenius fit than its own stated uncertainty is within what its authors claim. */
+function withinStatedUncertainty(input: AnalysisInput, resid: Float64Array, i: number): boolean {
+  const sigma = input.points[i].sigmaLnK;
+  return typeof sigma === "number" && Math.abs(resid[i]) < sigma;
 }
 
 function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[] {
   const flags: Flag[] = [];
-  // Every message is written by the same function a page uses to show it in other units.
-  const push = (draft: FlagDraft) => flags.push({ ...draft, message: formatFlagMessage({ ...draft, message: "" }) });
+  const push = (draft: FlagDraft) => flags.push(toFlag(draft));
   const { n } = d;
   const Ea = c.arrhenius.params.Ea;
 
@@ -522,7 +540,7 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     push({
       code: "uncertainties_ignored",
       severity: "info",
-      quantities: quantities(["stated", "count", stated], ["n", "count", n]),
+      quantities: { stated: count(stated), n: count(n) },
     });
   }
 
@@ -530,38 +548,29 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
   const outlierMinPoints = P_ARRHENIUS + 1 + MIN_DOF_FOR_OUTLIER_TEST;
   const testOutliers = c.diagnostics !== null && n >= outlierMinPoints;
   if (!testOutliers || n < MIN_POINTS_FOR_DIAGNOSTICS || d.distinctT < 3) {
-    push({
-      code: "too_few_points",
-      severity: "info",
-      quantities: quantities(
-        ["n", "count", n],
-        ["distinctT", "count", d.distinctT],
-        ["outlierMinPoints", "count", testOutliers ? undefined : outlierMinPoints],
-        ["diagnosticsMinPoints", "count", n < MIN_POINTS_FOR_DIAGNOSTICS ? MIN_POINTS_FOR_DIAGNOSTICS : undefined],
-        ["modifiedMinTemperatures", "count", d.distinctT < 3 ? 3 : undefined],
-      ),
-    });
+    const q: FlagQuantities = { n: count(n), distinctT: count(d.distinctT) };
+    if (!testOutliers) q.outlierMinPoints = count(outlierMinPoints);
+    if (n < MIN_POINTS_FOR_DIAGNOSTICS) q.diagnosticsMinPoints = count(MIN_POINTS_FOR_DIAGNOSTICS);
+    if (d.distinctT < 3) q.modifiedMinTemperatures = count(3);
+    push({ code: "too_few_points", severity: "info", quantities: q });
   }
 
-  // A point nearer the Arrhenius fit than its own stated uncertainty is within what its authors claim.
-  const withinStated = (i: number) => {
-    const sigma = input.points[i].sigmaLnK;
-    return typeof sigma === "number" && Math.abs(c.arrFit.resid[i]) < sigma;
-  };
+  const resid = c.arrFit.resid;
   if (c.diagnostics) {
     const dof = c.arrSum.dof;
+    const external = c.diagnostics.externallyStudentized;
     if (testOutliers) {
       const bound = bonferroniStudentT(ALPHA, n, dof - 1);
       const outliers: number[] = [];
-      c.diagnostics.externallyStudentized.forEach((t, i) => {
-        if (Math.abs(t) > bound && !withinStated(i)) outliers.push(i);
-      });
+      for (let i = 0; i < n; i++) {
+        if (Math.abs(external[i]) > bound && !withinStatedUncertainty(input, resid, i)) outliers.push(i);
+      }
       if (outliers.length > 0) {
         push({
           code: "outlier",
           severity: "warn",
           points: outliers,
-          quantities: quantities(["bound", "statistic", bound], ["alpha", "probability", ALPHA], ["dof", "count", dof - 1]),
+          quantities: { bound: statistic(bound), alpha: probability(ALPHA), dof: count(dof - 1) },
         });
       }
     }
@@ -569,27 +578,28 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     const tPoint = quantileStudentT(1 - INFLUENCE_RESIDUAL_ALPHA / 2, dof - 1);
     const influential: number[] = [];
     let largest = 0;
-    c.diagnostics.cooksDistance.forEach((D, i) => {
+    const cook = c.diagnostics.cooksDistance;
+    for (let i = 0; i < n; i++) {
       // Heavy enough to move the parameters and off the line the other points imply: the ends of
       // a design carry weight by intent, and an ordinary residual there is no finding.
-      if (D > cookBound && Math.abs(c.diagnostics!.externallyStudentized[i]) > tPoint && !withinStated(i)) {
+      if (cook[i] > cookBound && Math.abs(external[i]) > tPoint && !withinStatedUncertainty(input, resid, i)) {
         influential.push(i);
-        largest = Math.max(largest, D);
+        largest = Math.max(largest, cook[i]);
       }
-    });
+    }
     if (influential.length > 0) {
       push({
         code: "influential_point",
         severity: "info",
         points: influential,
-        quantities: quantities(
-          ["largest", "statistic", largest],
-          ["bound", "statistic", cookBound],
-          ["dfNum", "count", P_ARRHENIUS],
-          ["dfDenom", "count", n - P_ARRHENIUS],
-          ["residualBound", "statistic", tPoint],
-          ["dof", "count", dof - 1],
-        ),
+        quantities: {
+          largest: statistic(largest),
+          bound: statistic(cookBound),
+          dfNum: count(P_ARRHENIUS),
+          dfDenom: count(n - P_ARRHENIUS),
+          residualBound: statistic(tPoint),
+          dof: count(dof - 1),
+        },
       });
     }
   }
@@ -600,41 +610,41 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     push({
       code: "curvature",
       severity: "warn",
-      quantities: quantities(
-        ["F", "statistic", c.curvature.F],
-        ["dfNum", "count", c.curvature.dfNum],
-        ["dfDenom", "count", c.curvature.dfDenom],
-        ["p", "probability", c.curvature.p],
-        ["eaLow", "energy", eaAt(d.Tmin)],
-        ["tLow", "temperature", d.Tmin],
-        ["eaHigh", "energy", eaAt(d.Tmax)],
-        ["tHigh", "temperature", d.Tmax],
-      ),
+      quantities: {
+        F: statistic(c.curvature.F),
+        dfNum: count(c.curvature.dfNum),
+        dfDenom: count(c.curvature.dfDenom),
+        p: probability(c.curvature.p),
+        eaLow: energy(eaAt(d.Tmin)),
+        tLow: temperature(d.Tmin),
+        eaHigh: energy(eaAt(d.Tmax)),
+        tHigh: temperature(d.Tmax),
+      },
     });
   }
 
-  const ratio = d.Tmax / d.Tmin;
+  const tRatio = d.Tmax / d.Tmin;
   const seEa = c.arrhenius.se.Ea;
   const relSe = seEa !== null && Ea !== 0 ? seEa / Math.abs(Ea) : null;
-  const narrowT = ratio < NARROW_RANGE_RATIO;
+  const narrowT = tRatio < NARROW_RANGE_RATIO;
   const looseEa = relSe !== null && seEa !== null && relSe > NARROW_RANGE_RELATIVE_SE && seEa > NARROW_RANGE_MIN_SE;
   if (narrowT || looseEa) {
-    push({
-      code: "narrow_range",
-      severity: "warn",
-      quantities: quantities(
-        ["tMin", "temperature", narrowT ? d.Tmin : undefined],
-        ["tMax", "temperature", narrowT ? d.Tmax : undefined],
-        ["ratio", "ratio", narrowT ? ratio : undefined],
-        ["ratioLimit", "ratio", narrowT ? NARROW_RANGE_RATIO : undefined],
-        ["relativeSE", "percent", looseEa ? relSe! * 100 : undefined],
-        ["seEa", "energy", looseEa ? seEa! : undefined],
-      ),
-    });
+    const q: FlagQuantities = {};
+    if (narrowT) {
+      q.tMin = temperature(d.Tmin);
+      q.tMax = temperature(d.Tmax);
+      q.ratio = ratio(tRatio);
+      q.ratioLimit = ratio(NARROW_RANGE_RATIO);
+    }
+    if (looseEa) {
+      q.relativeSE = percent(relSe! * 100);
+      q.seEa = energy(seEa!);
+    }
+    push({ code: "narrow_range", severity: "warn", quantities: q });
   }
 
   if (Ea < NEGATIVE_EA_THRESHOLD) {
-    push({ code: "negative_activation_energy", severity: "info", quantities: quantities(["Ea", "energy", Ea]) });
+    push({ code: "negative_activation_energy", severity: "info", quantities: { Ea: energy(Ea) } });
   }
 
   if (d.weighted && c.arrSum.dof > 0) {
@@ -644,12 +654,7 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
       push({
         code: "excess_scatter",
         severity: "warn",
-        quantities: quantities(
-          ["chi2Reduced", "statistic", chi2],
-          ["scaleFactor", "statistic", Math.sqrt(chi2)],
-          ["dof", "count", c.arrSum.dof],
-          ["p", "probability", p],
-        ),
+        quantities: { chi2Reduced: statistic(chi2), scaleFactor: statistic(Math.sqrt(chi2)), dof: count(c.arrSum.dof), p: probability(p) },
       });
     }
   }
@@ -669,15 +674,17 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
 function compareReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>, d: Prepared, c: FlagContext): FlagDraft | null {
   const from = Math.max(d.Tmin, r.Tmin ?? d.Tmin);
   const to = Math.min(d.Tmax, r.Tmax ?? d.Tmax);
-  const stated = (): [string, FlagQuantityKind, number | undefined][] => [
-    ["reportedMin", "temperature", r.Tmin],
-    ["reportedMax", "temperature", r.Tmax],
-  ];
+  // The range as the authors state it (either end may be missing).
+  const stated = (q: FlagQuantities): FlagQuantities => {
+    if (r.Tmin !== undefined) q.reportedMin = temperature(r.Tmin);
+    if (r.Tmax !== undefined) q.reportedMax = temperature(r.Tmax);
+    return q;
+  };
   if (from > to) {
     return {
       code: "reported_range_outside_data",
       severity: "warn",
-      quantities: quantities(...stated(), ["dataMin", "temperature", d.Tmin], ["dataMax", "temperature", d.Tmax]),
+      quantities: stated({ dataMin: temperature(d.Tmin), dataMax: temperature(d.Tmax) }),
     };
   }
   const restricted = from > d.Tmin || to < d.Tmax;
@@ -707,21 +714,20 @@ function compareReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>, d: Pre
     }
   }
   if (!(worst > 0)) return null;
-  return {
-    code: "reported_fit_disagrees",
-    severity: "warn",
-    quantities: quantities(
-      ["factor", "ratio", Math.min(Math.max(Math.exp(worstDiff), 1e-300), 1e300)],
-      ["at", "temperature", worstT],
-      ["outsideFrom", "temperature", outFrom],
-      ["outsideTo", "temperature", outTo],
-      ["confidence", "percent", band.lower ? 95 : undefined],
-      ["tolerance", "percent", 100 * Math.expm1(REPORTED_FIT_TOLERANCE)],
-      ["from", "temperature", restricted ? from : undefined],
-      ["to", "temperature", restricted ? to : undefined],
-      ...(restricted ? stated() : []),
-    ),
+  const q: FlagQuantities = {
+    factor: ratio(Math.min(Math.max(Math.exp(worstDiff), 1e-300), 1e300)),
+    at: temperature(worstT),
+    outsideFrom: temperature(outFrom),
+    outsideTo: temperature(outTo),
+    tolerance: percent(100 * Math.expm1(REPORTED_FIT_TOLERANCE)),
   };
+  if (band.lower) q.confidence = percent(95);
+  if (restricted) {
+    q.from = temperature(from);
+    q.to = temperature(to);
+    stated(q);
+  }
+  return { code: "reported_fit_disagrees", severity: "warn", quantities: q };
 }
 
 function expOrNull(x: number): number | null {

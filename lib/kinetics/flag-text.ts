@@ -3,7 +3,7 @@
  * engine writes `message` with this function in the default units (kJ mol⁻¹, K), so the stored
  * message and what a page shows in other units cannot say different things.
  */
-import { parseEnergyUnit, parseTemperatureUnit } from "./units";
+import { parseEnergyUnit, parseTemperatureUnit, type LinearUnit } from "./units";
 import type { Extrapolation, Flag, FlagCode, FlagQuantity } from "./types";
 
 /** Units a reader chose; ids or aliases as accepted by units.ts. */
@@ -38,6 +38,19 @@ export function formatFlagMessage(flag: Pick<Flag, "code" | "message" | "points"
   }
 }
 
+// Parsed units by spelling: every analysis writes its messages, and parsing normalises text.
+const energyUnits = new Map<string, LinearUnit>();
+const temperatureUnits = new Map<string, LinearUnit>();
+
+function cachedUnit(cache: Map<string, LinearUnit>, text: string, parse: (text: string) => LinearUnit): LinearUnit {
+  let unit = cache.get(text);
+  if (!unit) {
+    unit = parse(text);
+    if (cache.size < 64) cache.set(text, unit);
+  }
+  return unit;
+}
+
 class Writer {
   private readonly energyFactor: number;
   private readonly energyLabel: string;
@@ -49,10 +62,10 @@ class Writer {
     private readonly q: FlagQuantities,
     units: FlagUnits,
   ) {
-    const e = parseEnergyUnit(units.energy ?? "kJ mol-1");
+    const e = cachedUnit(energyUnits, units.energy ?? "kJ mol-1", parseEnergyUnit);
     this.energyFactor = e.factor;
     this.energyLabel = e.label;
-    const t = parseTemperatureUnit(units.temperature ?? "K");
+    const t = cachedUnit(temperatureUnits, units.temperature ?? "K", parseTemperatureUnit);
     this.tFactor = t.factor;
     this.tOffset = t.offset ?? 0;
     this.tLabel = t.label;
@@ -197,9 +210,31 @@ function listPoints(idx: number[]): string {
   return names.length === 1 ? `Point ${names[0]}` : `Points ${names.slice(0, -1).join(", ")} and ${names[names.length - 1]}`;
 }
 
-/** `digits` significant digits (default 4), exponent form outside 0.01 … 100 000. */
+/**
+ * `digits` significant digits (default 4) without trailing zeros, exponent form outside
+ * 0.01 … 100 000: what String(Number(x.toPrecision(digits))) gives, built from the rounded
+ * integer, which is several times faster (every analysis writes its messages).
+ *
+ * @example formatNumber(14757.67) // "14760"; formatNumber(0.012345, 3) // "0.0123"
+ */
 export function formatNumber(x: number, digits = 4): string {
-  return Math.abs(x) >= 1e5 || (Math.abs(x) < 1e-2 && x !== 0) ? x.toExponential(digits - 2) : String(Number(x.toPrecision(digits)));
+  const a = Math.abs(x);
+  if (a === 0) return "0";
+  if (a >= 1e5 || a < 1e-2) return x.toExponential(digits - 2);
+  // x ≈ m·10^(−shift) with m an integer of `digits` digits (or 10^digits after rounding up).
+  const shift = digits - 1 - Math.floor(Math.log10(a));
+  const m = shift >= 0 ? Math.round(a * 10 ** shift) : Math.round(a / 10 ** -shift);
+  let text = String(m);
+  if (shift <= 0) {
+    text += "0".repeat(-shift);
+  } else {
+    if (text.length <= shift) text = "0".repeat(shift - text.length + 1) + text;
+    let end = text.length;
+    while (end > text.length - shift && text.charCodeAt(end - 1) === 48) end--; // trailing "0"
+    const point = text.length - shift;
+    text = end > point ? `${text.slice(0, point)}.${text.slice(point, end)}` : text.slice(0, point);
+  }
+  return x < 0 ? `-${text}` : text;
 }
 
 /** A p-value as written in a message: "p = 0.012", or "p < 0.0001" below 0.0001. */

@@ -13,6 +13,7 @@ import {
   type RatePoint,
 } from "@/lib/kinetics";
 import { bonferroniStudentT, quantileStudentT, t95 } from "@/lib/kinetics/distributions";
+import { formatNumber } from "@/lib/kinetics/flag-text";
 
 /*
  * Constructed data whose answers are known by construction: ln k = ln A − Ea/(RT) + eᵢ with the
@@ -364,6 +365,28 @@ describe("flag messages in the reader's units", () => {
       ].sort(),
     );
     expect(flagOf(curved(), "curvature")!.message).toMatch(/\(F\(1, 9\) = \d+, p < 0\.0001\)/);
+  });
+
+  it("formatNumber gives what toPrecision gives, without trailing zeros", () => {
+    // Reference: ECMAScript Number.prototype.toPrecision (V8), on deterministic values over the whole range.
+    let seed = 7;
+    const next = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+    for (let i = 0; i < 20000; i++) {
+      const x = (next() < 0.5 ? -1 : 1) * 10 ** (-3 + 9 * next());
+      for (const digits of [2, 3, 4]) {
+        const a = Math.abs(x);
+        const ref = a >= 1e5 || a < 1e-2 ? x.toExponential(digits - 2) : String(Number(x.toPrecision(digits)));
+        expect(formatNumber(x, digits), `${x} to ${digits}`).toBe(ref);
+      }
+    }
+    expect([0, 14757.67, 999.96, 0.0123456, -12.125, 300].map((x) => formatNumber(x))).toEqual([
+      "0",
+      "14760",
+      "1000",
+      "0.01235",
+      "-12.13",
+      "300",
+    ]);
   });
 
   it("formatP writes p = 0.012 or p < 0.0001", () => {
