@@ -6,8 +6,8 @@ import { AnalysisError } from "./analysis-error";
 import { AVOGADRO, GAS_CONSTANT, LN_BOLTZMANN_OVER_PLANCK, REFERENCE_TEMPERATURE } from "./constants";
 import { bonferroniStudentT, quantileStudentT, survivalChiSquare, survivalF, t95 } from "./distributions";
 import { computeLeverage, fitCentred, quadraticForm, type CentredFit } from "./fit-centred";
-import { formatFlagMessage, type FlagDraft, type FlagQuantities } from "./flag-text";
 import { extrapolationOf } from "./extrapolation";
+import { formatFlagMessage, type FlagDraft, type FlagQuantities } from "./flag-text";
 import { cooksDistanceBound } from "./influence-bound";
 import { assertReactionOrder, checkPoints, describe } from "./validate-points";
 import type {
