@@ -1,6 +1,7 @@
 "use client";
 
 import type { AnalysisResult, Flag, ReactionOrder } from "@/lib/kinetics/types";
+import { describeExtrapolation, formatFlagMessage } from "@/lib/kinetics/flag-text";
 import { formatSignificant } from "@/lib/format";
 
 interface Props {
@@ -12,6 +13,8 @@ interface Props {
   energyLabel: string;
   convertK: (k: number) => number;
   convertE: (joulesPerMole: number) => number;
+  /** Unit id temperatures in the checks are written in ("K" unless given). */
+  temperatureUnit?: string;
   /** Pasted line (or table row) of a zero-based point index. */
   lineOf: (index: number) => number | undefined;
   /** What lineOf numbers are called on screen; "Pasted line" when not given. */
@@ -27,13 +30,26 @@ const severityStyle: Record<Flag["severity"], string> = {
 };
 
 /** Fitted parameters in the units the person chose, and the flags in plain words. */
-export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE, lineOf, pointWord = "Pasted line" }: Props) {
+export function ResultTables({
+  analysis,
+  kLabel,
+  energyUnit,
+  energyLabel,
+  convertK,
+  convertE,
+  temperatureUnit = "K",
+  lineOf,
+  pointWord = "Pasted line",
+}: Props) {
   const a = analysis.arrhenius;
   const m = analysis.modifiedArrhenius;
   const e = analysis.eyring;
   const c = analysis.curvature;
   // A's uncertainty is multiplicative: A ×/÷ exp(se(ln A)).
   const factor = (se: number | null) => (se === null ? "—" : `×/÷ ${sig(Math.exp(se), 3)}`);
+  const k = (v: number | null) => sig(v === null ? null : convertK(v));
+  const interval = (lower: number | null, upper: number | null) =>
+    `95 %: ${sig(lower === null ? null : convertK(lower), 3)} … ${sig(upper === null ? null : convertK(upper), 3)}`;
   return (
     <div className="grid gap-6 lg:grid-cols-2">
       <section aria-labelledby="params-heading" className="card space-y-3 overflow-x-auto">
@@ -66,18 +82,36 @@ export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE
               <td>{a.se.Ea === null ? "—" : sig(convertE(a.se.Ea), 2)}</td>
             </tr>
             <tr>
-              <td>k(298.15 K) ({kLabel})</td>
-              <td>{sig(a.k298.value === null ? null : convertK(a.k298.value))}</td>
               <td>
-                95 %: {sig(a.k298.lower === null ? null : convertK(a.k298.lower), 3)} …{" "}
-                {sig(a.k298.upper === null ? null : convertK(a.k298.upper), 3)}
+                k(298.15 K) ({kLabel})
+                {a.k298.extrapolation && (
+                  <span className="block whitespace-normal text-xs text-warn">{describeExtrapolation(a.k298.extrapolation)}</span>
+                )}
+              </td>
+              <td>
+                {k(a.k298.value)}
+                {a.k298.extrapolated && <span className="text-warn"> (extrapolated)</span>}
+              </td>
+              <td>{interval(a.k298.lower, a.k298.upper)}</td>
+            </tr>
+            <tr>
+              <td>
+                k({sig(a.kMid.T)} K), middle of the range in 1/T ({kLabel})
+              </td>
+              <td>{k(a.kMid.value)}</td>
+              <td>{interval(a.kMid.lower, a.kMid.upper)}</td>
+            </tr>
+            <tr>
+              <td>R² / dof</td>
+              <td colSpan={2}>
+                {sig(a.r2, 5)} / {a.dof}
               </td>
             </tr>
             <tr>
-              <td>R² / residual SD of ln k / dof</td>
-              <td colSpan={2}>
-                {sig(a.r2, 5)} / {sig(a.residualSD, 3)} / {a.dof}
-                {a.chi2Reduced !== undefined ? ` — χ²/dof ${sig(a.chi2Reduced, 3)}` : ""}
+              <td>Residual spread</td>
+              <td colSpan={2} className="whitespace-normal">
+                SD of ln k residuals {sig(a.residualSDLnK, 3)}
+                {analysis.weighted && ` · √(χ²/dof) ${sig(a.scaleFactor, 3)} (in units of the stated uncertainties)`}
               </td>
             </tr>
             {m && (
@@ -136,7 +170,9 @@ export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE
                   </th>
                 </tr>
                 <tr>
-                  <td>F (1, {analysis.n - 3}) / p</td>
+                  <td>
+                    F ({c.dfNum}, {c.dfDenom}) / p
+                  </td>
                   <td colSpan={2}>
                     {sig(c.F, 3)} / {sig(c.p, 2)}
                   </td>
@@ -161,7 +197,7 @@ export function ResultTables({ analysis, kLabel, energyLabel, convertK, convertE
             {analysis.flags.map((f, i) => (
               <li key={i} className={`rounded-md border bg-panel px-3 py-2 text-sm ${severityStyle[f.severity]}`}>
                 <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold uppercase tracking-wide">{f.severity}</span>
-                {f.message}
+                {formatFlagMessage(f, { energy: energyUnit, temperature: temperatureUnit })}
                 {f.points && f.points.length > 0 && (
                   <span className="block text-xs text-muted">
                     {pointWord}

@@ -196,6 +196,7 @@ export function AnalyseWorkbench() {
             energyLabel={SUPPORTED_UNITS.energy.find((u) => u.id === energyUnit)?.label ?? energyUnit}
             convertK={(k) => fromCanonicalRateConstant(k, kUnit, order)}
             convertE={(e) => convertEnergy(e, "J mol-1", energyUnit)}
+            temperatureUnit={TUnit}
             lineOf={(i) => parsed.lines[i]}
           />
         </section>

@@ -201,6 +201,7 @@ export function LiveAnalysis({ form }: { form: EditorForm }) {
             energyLabel={SUPPORTED_UNITS.energy.find((u) => u.id === energyUnit)?.label ?? energyUnit}
             convertK={(k) => fromCanonicalRateConstant(k, kUnit, order)}
             convertE={(e) => convertEnergy(e, "J mol-1", energyUnit)}
+            temperatureUnit={fitted.built.body.units.T}
             lineOf={(i) => (fitted.built.rows[i] ?? i) + 1}
             pointWord="Row"
           />

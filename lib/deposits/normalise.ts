@@ -88,15 +88,16 @@ export function normalisePoints(doc: DepositDocument): CanonicalPoint[] {
   });
 }
 
-/** Input of analyseDataset built from a deposit; a reported fit always states n and T0. */
+/** Input of analyseDataset built from a deposit; a reported fit always states n and T0 (its range only when the document does). */
 export interface DepositAnalysisInput extends AnalysisInput {
-  reportedFit?: Required<ReportedFit>;
+  reportedFit?: Required<Pick<ReportedFit, "A" | "n" | "Ea" | "T0">> & Pick<ReportedFit, "Tmin" | "Tmax">;
 }
 
 /**
  * The input of analyseDataset for a validated document: canonical points, the reaction order, the
  * reference temperature T0 (the reported fit's, in K, when it states one) and the reported fit
- * with A in canonical units, Ea in J mol⁻¹ and T0 in K (298.15 K when not stated).
+ * with A in canonical units, Ea in J mol⁻¹, T0 in K (298.15 K when not stated) and its stated
+ * validity range in K.
  */
 export function toAnalysisInput(doc: DepositDocument): DepositAnalysisInput {
   const points = normalisePoints(doc).map(({ T, k, sigmaLnK }) => (sigmaLnK === undefined ? { T, k } : { T, k, sigmaLnK }));
@@ -111,6 +112,8 @@ export function toAnalysisInput(doc: DepositDocument): DepositAnalysisInput {
       Ea: toJoulesPerMole(fit.Ea, fit.EaUnit),
       T0: T0 ?? REFERENCE_TEMPERATURE,
     };
+    if (fit.Tmin !== undefined) input.reportedFit.Tmin = toKelvin(fit.Tmin, doc.units.T);
+    if (fit.Tmax !== undefined) input.reportedFit.Tmax = toKelvin(fit.Tmax, doc.units.T);
   }
   return input;
 }

@@ -4,8 +4,11 @@
  */
 import { AnalysisError } from "./analysis-error";
 import { AVOGADRO, GAS_CONSTANT, LN_BOLTZMANN_OVER_PLANCK, REFERENCE_TEMPERATURE } from "./constants";
-import { bonferroniStudentT, survivalChiSquare, survivalF, t95 } from "./distributions";
+import { bonferroniStudentT, quantileStudentT, survivalChiSquare, survivalF, t95 } from "./distributions";
 import { computeLeverage, fitCentred, quadraticForm, type CentredFit } from "./fit-centred";
+import { extrapolationOf } from "./extrapolation";
+import { formatFlagMessage, type FlagDraft, type FlagQuantities } from "./flag-text";
+import { cooksDistanceBound } from "./influence-bound";
 import { assertReactionOrder, checkPoints, describe } from "./validate-points";
 import type {
   AnalysisInput,
@@ -15,8 +18,11 @@ import type {
   CurvatureTest,
   Diagnostics,
   EyringFit,
+  FitResiduals,
   Flag,
+  FlagQuantity,
   ModifiedArrheniusFit,
+  RateAtTemperature,
   ReactionOrder,
 } from "./types";
 
@@ -38,6 +44,18 @@ export const REPORTED_FIT_TOLERANCE = Math.log(1.01);
 export const BAND_POINTS = 50;
 /** Points needed for diagnostics and the curvature test. */
 export const MIN_POINTS_FOR_DIAGNOSTICS = 4;
+/**
+ * Residual degrees of freedom the outlier test needs once the tested point is set aside
+ * (n − p − 1). With fewer, t_{1−α/(2n)} runs to ±50 and beyond: no point could ever be flagged.
+ */
+export const MIN_DOF_FOR_OUTLIER_TEST = 3;
+/**
+ * Two-sided level of the residual test a point of large Cook's distance must also fail to be
+ * reported as influential (externally studentized residual beyond t_{1−α/2, n−p−1}).
+ */
+export const INFLUENCE_RESIDUAL_ALPHA = 0.05;
+/** Coefficients of the Arrhenius fit, on which the diagnostics are computed. */
+const P_ARRHENIUS = 2;
 /**
  * Relative size of ln k below which residuals count as rounding noise: an RSS under
  * Σ wᵢ(1e-13·(1 + |ln kᵢ|))² is treated as that floor, so noise-free data neither divide by zero
@@ -136,12 +154,22 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
     // Extra-sum-of-squares F test for one added coefficient (Draper & Smith 1998, §6.1).
     const F = Math.max(0, rss1 - rss2) / (rss2 / (n - 3));
     const deltaAICc = modSum!.aicc !== null && arrSum.aicc !== null ? modSum!.aicc - arrSum.aicc : null;
-    curvature = { F, p: survivalF(F, 1, n - 3), deltaAICc, direction: modFit.beta[1] >= 0 ? "up" : "down" };
+    curvature = {
+      F,
+      dfNum: 1,
+      dfDenom: n - 3,
+      p: survivalF(F, 1, n - 3),
+      deltaAICc,
+      direction: modFit.beta[1] >= 0 ? "up" : "down",
+    };
   }
   const curved = curvature !== null && curvature.p < ALPHA;
-  const band = curved ? computeBand(modFit!, modSum!, d, "modified_arrhenius") : computeBand(arrFit, arrSum, d, "arrhenius");
+  const chosen = curved
+    ? { fit: modFit!, sum: modSum!, model: "modified_arrhenius" as const }
+    : { fit: arrFit, sum: arrSum, model: "arrhenius" as const };
+  const band = computeBand(chosen.fit, chosen.sum, d, chosen.model);
 
-  const flags = collectFlags(d, { arrFit, arrSum, arrhenius, modFit, modifiedArrhenius, diagnostics, curvature, band }, input);
+  const flags = collectFlags(d, { arrFit, arrSum, arrhenius, modifiedArrhenius, diagnostics, curvature, band, chosen }, input);
   return { n, weighted: d.weighted, arrhenius, modifiedArrhenius, eyring, diagnostics, curvature, band, flags };
 }
 
@@ -236,6 +264,23 @@ function checkReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>): void {
   if (typeof r.Ea !== "number" || !Number.isFinite(r.Ea)) throw bad("Ea", r.Ea);
   if (r.n !== undefined && (typeof r.n !== "number" || !Number.isFinite(r.n))) throw bad("n", r.n);
   if (r.T0 !== undefined && (typeof r.T0 !== "number" || !Number.isFinite(r.T0) || r.T0 <= 0)) throw bad("T0", r.T0);
+  for (const [what, v] of [
+    ["Tmin", r.Tmin],
+    ["Tmax", r.Tmax],
+  ] as const) {
+    if (v !== undefined && (typeof v !== "number" || !Number.isFinite(v) || v <= 0)) {
+      throw new AnalysisError(
+        "invalid_reported_fit",
+        `The reported expression has ${what} = ${describe(v)}; ${what} must be a positive temperature in kelvin.`,
+      );
+    }
+  }
+  if (r.Tmin !== undefined && r.Tmax !== undefined && !(r.Tmin < r.Tmax)) {
+    throw new AnalysisError(
+      "invalid_reported_fit",
+      `The reported expression's range is ${r.Tmin}–${r.Tmax} K; its highest temperature must be above its lowest.`,
+    );
+  }
 }
 
 function summariseFit(fit: CentredFit, d: Prepared, y: Float64Array): FitSummary {
@@ -294,10 +339,54 @@ function buildArrhenius(fit: CentredFit, s: FitSummary, t: number, d: Prepared):
     dof: s.dof,
     rss: fit.rss,
     aicc: s.aicc,
-    k298: { value: expOrNull(lnk298), lower, upper },
+    ...residualFields(fit, s, d),
+    k298: { value: expOrNull(lnk298), lower, upper, ...extrapolationOf(REFERENCE_TEMPERATURE, d.Tmin, d.Tmax) },
+    kMid: arrheniusAt(fit, s, t, 2 / (1 / d.Tmin + 1 / d.Tmax)),
   };
   if (d.weighted) out.chi2Reduced = s.chi2Reduced;
   return out;
+}
+
+/** Residual spread and per-point residuals and fitted values of one fit. */
+function residualFields(fit: CentredFit, s: FitSummary, d: Prepared): FitResiduals {
+  const { n, resid } = fit;
+  // Pre-filled so V8 keeps packed double arrays.
+  const residuals = new Array<number>(n).fill(0);
+  const fitted = new Array<number>(n).fill(0);
+  const y = d.y;
+  let ss = 0;
+  for (let i = 0; i < n; i++) {
+    const r = resid[i];
+    residuals[i] = r;
+    fitted[i] = y[i] - r;
+    ss += r * r;
+  }
+  return {
+    scaleFactor: d.weighted && s.s2 !== null ? Math.sqrt(s.s2) : null,
+    residualSDLnK: s.dof > 0 ? Math.sqrt(ss / s.dof) : null,
+    residuals,
+    fitted,
+  };
+}
+
+/**
+ * Arrhenius k at temperature T with its 95 % interval. The variance of ln k̂ is taken from the
+ * centred factor, ‖Gᵀ(1, x − x̄)‖² with x = −1/(RT), which keeps full precision near the data.
+ */
+function arrheniusAt(fit: CentredFit, s: FitSummary, t: number, T: number): RateAtTemperature {
+  const x = -1 / (GAS_CONSTANT * T);
+  const lnk = fit.beta[0] + fit.beta[1] * x;
+  let lower: number | null = null;
+  let upper: number | null = null;
+  if (s.s2 !== null) {
+    const g = fit.g; // upper triangular, row-major 2×2
+    const u0 = g[0];
+    const u1 = g[1] + g[3] * (x - fit.means[0]);
+    const half = t * Math.sqrt(s.s2 * (u0 * u0 + u1 * u1));
+    lower = expOrNull(lnk - half);
+    upper = expOrNull(lnk + half);
+  }
+  return { T, value: expOrNull(lnk), lower, upper };
 }
 
 function buildModified(fit: CentredFit, s: FitSummary, d: Prepared): ModifiedArrheniusFit {
@@ -311,6 +400,7 @@ function buildModified(fit: CentredFit, s: FitSummary, d: Prepared): ModifiedArr
     dof: s.dof,
     rss: fit.rss,
     aicc: s.aicc,
+    ...residualFields(fit, s, d),
   };
   if (d.weighted) out.chi2Reduced = s.chi2Reduced;
   return out;
@@ -407,129 +497,206 @@ interface FlagContext {
   arrFit: CentredFit;
   arrSum: FitSummary;
   arrhenius: ArrheniusFit;
-  modFit: CentredFit | null;
   modifiedArrhenius: ModifiedArrheniusFit | null;
   diagnostics: Diagnostics | null;
   curvature: CurvatureTest | null;
   band: ConfidenceBand;
+  /** The model the band is drawn for, with its fit. */
+  chosen: { fit: CentredFit; sum: FitSummary; model: ConfidenceBand["model"] };
+}
+
+// The numbers behind a flag, by kind (flag-text.ts writes them in the reader's units).
+const count = (value: number): FlagQuantity => ({ kind: "count", value });
+const statistic = (value: number): FlagQuantity => ({ kind: "statistic", value });
+const probability = (value: number): FlagQuantity => ({ kind: "probability", value });
+const energy = (value: number): FlagQuantity => ({ kind: "energy", value });
+const temperature = (value: number): FlagQuantity => ({ kind: "temperature", value });
+const ratio = (value: number): FlagQuantity => ({ kind: "ratio", value });
+const percent = (value: number): FlagQuantity => ({ kind: "percent", value });
+
+/** A flag with its message, written by the same function a page uses to show it in other units. */
+function toFlag(draft: FlagDraft): Flag {
+  const flag: Flag = { code: draft.code, severity: draft.severity, message: "" };
+  if (draft.points) flag.points = draft.points;
+  flag.quantities = draft.quantities;
+  flag.message = formatFlagMessage(flag);
+  return flag;
+}
+
+/** A point nearer the Arrhenius fit than its own stated uncertainty is within what its authors claim. */
+function withinStatedUncertainty(input: AnalysisInput, resid: Float64Array, i: number): boolean {
+  const sigma = input.points[i].sigmaLnK;
+  return typeof sigma === "number" && Math.abs(resid[i]) < sigma;
 }
 
 function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[] {
   const flags: Flag[] = [];
+  const push = (draft: FlagDraft) => flags.push(toFlag(draft));
   const { n } = d;
   const Ea = c.arrhenius.params.Ea;
 
   if (!d.weighted && d.someSigma) {
     const stated = input.points.filter((pt) => pt.sigmaLnK !== undefined && pt.sigmaLnK !== null).length;
-    flags.push({
+    push({
       code: "uncertainties_ignored",
       severity: "info",
-      message: `Only ${stated} of ${n} points state an uncertainty, so all fits are unweighted.`,
+      quantities: { stated: count(stated), n: count(n) },
     });
   }
 
-  if (n < MIN_POINTS_FOR_DIAGNOSTICS || d.distinctT < 3) {
-    const skipped: string[] = [];
-    if (n < MIN_POINTS_FOR_DIAGNOSTICS)
-      skipped.push(`outlier, influence and curvature checks need at least ${MIN_POINTS_FOR_DIAGNOSTICS} points (there are ${n})`);
-    if (d.distinctT < 3) skipped.push(`the modified Arrhenius fit needs at least 3 different temperatures (there are ${d.distinctT})`);
-    flags.push({ code: "too_few_points", severity: "info", message: `Some checks were skipped: ${skipped.join("; ")}.` });
+  // The outlier test deletes one point from the Arrhenius fit: n − p − 1 residual dof remain.
+  const outlierMinPoints = P_ARRHENIUS + 1 + MIN_DOF_FOR_OUTLIER_TEST;
+  const testOutliers = c.diagnostics !== null && n >= outlierMinPoints;
+  if (!testOutliers || n < MIN_POINTS_FOR_DIAGNOSTICS || d.distinctT < 3) {
+    const q: FlagQuantities = { n: count(n), distinctT: count(d.distinctT) };
+    if (!testOutliers) q.outlierMinPoints = count(outlierMinPoints);
+    if (n < MIN_POINTS_FOR_DIAGNOSTICS) q.diagnosticsMinPoints = count(MIN_POINTS_FOR_DIAGNOSTICS);
+    if (d.distinctT < 3) q.modifiedMinTemperatures = count(3);
+    push({ code: "too_few_points", severity: "info", quantities: q });
   }
 
+  const resid = c.arrFit.resid;
   if (c.diagnostics) {
     const dof = c.arrSum.dof;
-    const bound = bonferroniStudentT(ALPHA, n, dof - 1);
-    const outliers: number[] = [];
+    const external = c.diagnostics.externallyStudentized;
+    if (testOutliers) {
+      const bound = bonferroniStudentT(ALPHA, n, dof - 1);
+      const outliers: number[] = [];
+      for (let i = 0; i < n; i++) {
+        if (Math.abs(external[i]) > bound && !withinStatedUncertainty(input, resid, i)) outliers.push(i);
+      }
+      if (outliers.length > 0) {
+        push({
+          code: "outlier",
+          severity: "warn",
+          points: outliers,
+          quantities: { bound: statistic(bound), alpha: probability(ALPHA), dof: count(dof - 1) },
+        });
+      }
+    }
+    const cookBound = cooksDistanceBound(P_ARRHENIUS, n);
+    const tPoint = quantileStudentT(1 - INFLUENCE_RESIDUAL_ALPHA / 2, dof - 1);
     const influential: number[] = [];
-    const cookLimit = 4 / n;
-    c.diagnostics.externallyStudentized.forEach((t, i) => {
-      if (Math.abs(t) > bound) outliers.push(i);
-    });
-    c.diagnostics.cooksDistance.forEach((D, i) => {
-      if (D > cookLimit) influential.push(i);
-    });
-    if (outliers.length > 0) {
-      flags.push({
-        code: "outlier",
-        severity: "warn",
-        message: `${listPoints(outliers)} ${outliers.length === 1 ? "lies" : "lie"} off the Arrhenius fit: externally studentized residual beyond ±${bound.toFixed(2)} (Bonferroni-corrected Student t, α = ${ALPHA}, ${dof - 1} dof).`,
-        points: outliers,
-      });
+    let largest = 0;
+    const cook = c.diagnostics.cooksDistance;
+    for (let i = 0; i < n; i++) {
+      // Heavy enough to move the parameters and off the line the other points imply: the ends of
+      // a design carry weight by intent, and an ordinary residual there is no finding.
+      if (cook[i] > cookBound && Math.abs(external[i]) > tPoint && !withinStatedUncertainty(input, resid, i)) {
+        influential.push(i);
+        largest = Math.max(largest, cook[i]);
+      }
     }
     if (influential.length > 0) {
-      flags.push({
+      push({
         code: "influential_point",
         severity: "info",
-        message: `${listPoints(influential)} ${influential.length === 1 ? "has" : "have"} a large influence on the Arrhenius parameters (Cook's distance above 4/n = ${cookLimit.toFixed(2)}).`,
         points: influential,
+        quantities: {
+          largest: statistic(largest),
+          bound: statistic(cookBound),
+          dfNum: count(P_ARRHENIUS),
+          dfDenom: count(n - P_ARRHENIUS),
+          residualBound: statistic(tPoint),
+          dof: count(dof - 1),
+        },
       });
     }
   }
 
   if (c.curvature && c.curvature.p < ALPHA && c.modifiedArrhenius) {
     const m = c.modifiedArrhenius.params;
-    const eaAt = (T: number) => (m.Ea + m.n * GAS_CONSTANT * T) / 1000;
-    const trend = c.curvature.direction === "up" ? "rises" : "falls";
-    flags.push({
+    const eaAt = (T: number) => m.Ea + m.n * GAS_CONSTANT * T;
+    push({
       code: "curvature",
       severity: "warn",
-      message: `The Arrhenius plot is curved (F = ${fmt(c.curvature.F)}, p = ${fmtP(c.curvature.p)}): the apparent activation energy ${trend} with temperature, Ea(T) = Ea + nRT = ${eaAt(d.Tmin).toFixed(1)} kJ/mol at ${fmt(d.Tmin)} K and ${eaAt(d.Tmax).toFixed(1)} kJ/mol at ${fmt(d.Tmax)} K. The modified Arrhenius expression describes these data better.`,
+      quantities: {
+        F: statistic(c.curvature.F),
+        dfNum: count(c.curvature.dfNum),
+        dfDenom: count(c.curvature.dfDenom),
+        p: probability(c.curvature.p),
+        eaLow: energy(eaAt(d.Tmin)),
+        tLow: temperature(d.Tmin),
+        eaHigh: energy(eaAt(d.Tmax)),
+        tHigh: temperature(d.Tmax),
+      },
     });
   }
 
-  const ratio = d.Tmax / d.Tmin;
+  const tRatio = d.Tmax / d.Tmin;
   const seEa = c.arrhenius.se.Ea;
   const relSe = seEa !== null && Ea !== 0 ? seEa / Math.abs(Ea) : null;
-  const narrowT = ratio < NARROW_RANGE_RATIO;
+  const narrowT = tRatio < NARROW_RANGE_RATIO;
   const looseEa = relSe !== null && seEa !== null && relSe > NARROW_RANGE_RELATIVE_SE && seEa > NARROW_RANGE_MIN_SE;
   if (narrowT || looseEa) {
-    const why: string[] = [];
-    if (narrowT)
-      why.push(`the temperatures span only ${fmt(d.Tmin)}–${fmt(d.Tmax)} K (Tmax/Tmin = ${ratio.toFixed(3)}, below ${NARROW_RANGE_RATIO})`);
-    if (looseEa) why.push(`the standard error of Ea is ${Math.round(relSe! * 100)} % of its value (${(seEa! / 1000).toFixed(1)} kJ/mol)`);
-    flags.push({
-      code: "narrow_range",
-      severity: "warn",
-      message: `The activation energy is poorly constrained: ${why.join(", and ")}. Extrapolation outside the measured range is unreliable.`,
-    });
+    const q: FlagQuantities = {};
+    if (narrowT) {
+      q.tMin = temperature(d.Tmin);
+      q.tMax = temperature(d.Tmax);
+      q.ratio = ratio(tRatio);
+      q.ratioLimit = ratio(NARROW_RANGE_RATIO);
+    }
+    if (looseEa) {
+      q.relativeSE = percent(relSe! * 100);
+      q.seEa = energy(seEa!);
+    }
+    push({ code: "narrow_range", severity: "warn", quantities: q });
   }
 
   if (Ea < NEGATIVE_EA_THRESHOLD) {
-    flags.push({
-      code: "negative_activation_energy",
-      severity: "info",
-      message: `The fitted activation energy is negative (${(Ea / 1000).toFixed(2)} kJ/mol): k decreases as temperature rises. This is common for barrierless and association reactions; check that it is not a sign error.`,
-    });
+    push({ code: "negative_activation_energy", severity: "info", quantities: { Ea: energy(Ea) } });
   }
 
   if (d.weighted && c.arrSum.dof > 0) {
     const p = survivalChiSquare(c.arrFit.rss, c.arrSum.dof);
     if (p < EXCESS_SCATTER_P) {
-      flags.push({
+      const chi2 = c.arrFit.rss / c.arrSum.dof;
+      push({
         code: "excess_scatter",
         severity: "warn",
-        message: `The points scatter more than their stated uncertainties allow: χ²/dof = ${fmt(c.arrFit.rss / c.arrSum.dof)} on ${c.arrSum.dof} dof (p = ${fmtP(p)}). The uncertainties may be underestimated, or the Arrhenius form may not fit.`,
+        quantities: { chi2Reduced: statistic(chi2), scaleFactor: statistic(Math.sqrt(chi2)), dof: count(c.arrSum.dof), p: probability(p) },
       });
     }
   }
 
   const reported = input.reportedFit;
   if (reported) {
-    const flag = compareReportedFit(reported, d, c.band);
-    if (flag) flags.push(flag);
+    const flag = compareReportedFit(reported, d, c);
+    if (flag) push(flag);
   }
   return flags;
 }
 
-function compareReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>, d: Prepared, band: ConfidenceBand): Flag | null {
+/**
+ * The reported expression against the refit's confidence band, over the temperatures where both
+ * the data and the reported validity range lie. No overlap at all is a finding of its own.
+ */
+function compareReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>, d: Prepared, c: FlagContext): FlagDraft | null {
+  const from = Math.max(d.Tmin, r.Tmin ?? d.Tmin);
+  const to = Math.min(d.Tmax, r.Tmax ?? d.Tmax);
+  // The range as the authors state it (either end may be missing).
+  const stated = (q: FlagQuantities): FlagQuantities => {
+    if (r.Tmin !== undefined) q.reportedMin = temperature(r.Tmin);
+    if (r.Tmax !== undefined) q.reportedMax = temperature(r.Tmax);
+    return q;
+  };
+  if (from > to) {
+    return {
+      code: "reported_range_outside_data",
+      severity: "warn",
+      quantities: stated({ dataMin: temperature(d.Tmin), dataMax: temperature(d.Tmax) }),
+    };
+  }
+  const restricted = from > d.Tmin || to < d.Tmax;
+  const band = restricted ? computeBand(c.chosen.fit, c.chosen.sum, { ...d, Tmin: from, Tmax: to }, c.chosen.model) : c.band;
   const nExp = r.n ?? 0;
   const T0 = r.T0 ?? d.T0;
   const lnA = Math.log(r.A);
   let worst = 0;
   let worstT = 0;
   let worstDiff = 0;
-  let from = Infinity;
-  let to = -Infinity;
+  let outFrom = Infinity;
+  let outTo = -Infinity;
   for (let i = 0; i < band.T.length; i++) {
     const T = band.T[i];
     const lnkRep = lnA + nExp * Math.log(T / T0) - r.Ea / (GAS_CONSTANT * T);
@@ -537,8 +704,8 @@ function compareReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>, d: Pre
     const half = band.lower ? band.lnk[i] - band.lower[i] : 0;
     const excess = Math.abs(diff) - half - REPORTED_FIT_TOLERANCE;
     if (excess > 0) {
-      from = Math.min(from, T);
-      to = Math.max(to, T);
+      outFrom = Math.min(outFrom, T);
+      outTo = Math.max(outTo, T);
       if (excess > worst) {
         worst = excess;
         worstT = T;
@@ -547,16 +714,20 @@ function compareReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>, d: Pre
     }
   }
   if (!(worst > 0)) return null;
-  const factor = Math.exp(Math.abs(worstDiff));
-  const where = from === to ? `at ${fmt(from)} K` : `between ${fmt(from)} and ${fmt(to)} K`;
-  const bandWords = band.lower
-    ? "outside the 95 % confidence band of the refit"
-    : "more than 1 % away from the refit (the refit has no spare degrees of freedom)";
-  return {
-    code: "reported_fit_disagrees",
-    severity: "warn",
-    message: `The reported expression lies ${bandWords} ${where}; the largest difference is a factor of ${factor.toPrecision(3)} (${worstDiff > 0 ? "higher" : "lower"}) at ${fmt(worstT)} K.`,
+  const q: FlagQuantities = {
+    factor: ratio(Math.min(Math.max(Math.exp(worstDiff), 1e-300), 1e300)),
+    at: temperature(worstT),
+    outsideFrom: temperature(outFrom),
+    outsideTo: temperature(outTo),
+    tolerance: percent(100 * Math.expm1(REPORTED_FIT_TOLERANCE)),
   };
+  if (band.lower) q.confidence = percent(95);
+  if (restricted) {
+    q.from = temperature(from);
+    q.to = temperature(to);
+    stated(q);
+  }
+  return { code: "reported_fit_disagrees", severity: "warn", quantities: q };
 }
 
 function expOrNull(x: number): number | null {
@@ -572,17 +743,4 @@ function toRows(m: ArrayLike<number>, p: number, f: number): number[][] {
     rows.push(row);
   }
   return rows;
-}
-
-function listPoints(idx: number[]): string {
-  const names = idx.map((i) => `${i + 1}`);
-  return names.length === 1 ? `Point ${names[0]}` : `Points ${names.slice(0, -1).join(", ")} and ${names[names.length - 1]}`;
-}
-
-function fmt(x: number): string {
-  return Math.abs(x) >= 1e5 || (Math.abs(x) < 1e-2 && x !== 0) ? x.toExponential(2) : String(Number(x.toPrecision(4)));
-}
-
-function fmtP(p: number): string {
-  return p < 1e-4 ? "< 0.0001" : p.toPrecision(2);
 }

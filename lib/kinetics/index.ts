@@ -22,6 +22,9 @@ export {
 export * from "./constants";
 export { ANALYSIS_CONVENTIONS } from "./conventions";
 export { evaluateRateExpression, type RateExpression } from "./evaluate-expression";
+export { extrapolationOf } from "./extrapolation";
+export { describeExtrapolation, formatFlagMessage, formatP, type FlagUnits } from "./flag-text";
+export { cooksDistanceBound } from "./influence-bound";
 export { solveLeastSquares, LeastSquaresError, type LeastSquaresOptions, type LeastSquaresResult } from "./least-squares";
 export {
   SUPPORTED_UNITS,

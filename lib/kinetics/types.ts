@@ -27,6 +27,10 @@ export interface ReportedFit {
   Ea: number;
   /** Reference temperature of the (T/T0)^n term, K (default: the analysis T0). */
   T0?: number;
+  /** Lowest temperature the authors state the expression for, K. */
+  Tmin?: number;
+  /** Highest temperature the authors state the expression for, K. */
+  Tmax?: number;
 }
 
 /** Input of {@link analyseDataset}. */
@@ -50,16 +54,35 @@ export type FlagCode =
   | "excess_scatter"
   | "too_few_points"
   | "reported_fit_disagrees"
+  | "reported_range_outside_data"
   | "uncertainties_ignored";
+
+/**
+ * What a number behind a flag measures, so it can be written in the reader's units: energy in
+ * J mol⁻¹, temperature in K; the other kinds have no unit (a ratio is a plain quotient, such as
+ * Tmax/Tmin in kelvin or a factor between two rate constants).
+ */
+export type FlagQuantityKind = "energy" | "temperature" | "count" | "probability" | "statistic" | "ratio" | "percent";
+
+/** One number behind a flag, in SI units (J mol⁻¹, K) when it has a unit. */
+export interface FlagQuantity {
+  kind: FlagQuantityKind;
+  value: number;
+}
 
 /** One machine finding about a dataset. */
 export interface Flag {
   code: FlagCode;
   severity: Severity;
-  /** Plain-English explanation with the numbers behind it. */
+  /** Plain-English explanation with the numbers behind it, energies in kJ mol⁻¹ and temperatures in K. */
   message: string;
   /** Zero-based indices into the input points, where the finding concerns specific points. */
   points?: number[];
+  /**
+   * The numbers of the message by name, each with its kind, so formatFlagMessage (flag-text.ts)
+   * can write the message in other units. Absent from analyses stored by engines before kinetics-2.
+   */
+  quantities?: Record<string, FlagQuantity>;
 }
 
 /** A value with its two-sided 95 % confidence limits (limits null when dof = 0; any entry null if exp overflows a double). */
@@ -69,8 +92,47 @@ export interface ConfidenceInterval {
   upper: number | null;
 }
 
+/** How far a temperature lies outside the measured range. */
+export interface Extrapolation {
+  /** "below": under the lowest measured temperature; "above": over the highest. */
+  side: "below" | "above";
+  /** Distance to the nearest end of the range, K. */
+  kelvin: number;
+  /** The same distance in 1/T, as a multiple of the width of the measured range in 1/T (1/Tmin − 1/Tmax). */
+  inverseTWidths: number;
+}
+
+/** k(298.15 K) with its interval, and whether 298.15 K lies outside the measured range. */
+export interface RateAt298 extends ConfidenceInterval {
+  /** True when 298.15 K is outside [Tmin, Tmax]: the value is an extrapolation of the fit. */
+  extrapolated: boolean;
+  /** How far outside; null when not extrapolated. */
+  extrapolation: Extrapolation | null;
+}
+
+/** k at a temperature inside the measured range, with its 95 % confidence interval. */
+export interface RateAtTemperature extends ConfidenceInterval {
+  /** Temperature, K. */
+  T: number;
+}
+
+/** Residual spread and per-point values of a fit (ln k, in input order). */
+export interface FitResiduals {
+  /**
+   * √(χ²/dof) = √(RSS_w/dof) with weights 1/σ²: the typical residual in units of the stated
+   * uncertainties (1 when the points scatter as stated). Dimensionless; null on unweighted fits and when dof = 0.
+   */
+  scaleFactor: number | null;
+  /** √(Σ rᵢ²/dof) of the unweighted ln k residuals rᵢ; null when dof = 0. */
+  residualSDLnK: number | null;
+  /** rᵢ = ln kᵢ − fitted ln kᵢ (not weighted), per point. */
+  residuals: number[];
+  /** Fitted ln k at each point's temperature. */
+  fitted: number[];
+}
+
 /** Two-parameter Arrhenius fit ln k = ln A − Ea/(RT). */
-export interface ArrheniusFit {
+export interface ArrheniusFit extends FitResiduals {
   params: {
     lnA: number;
     /** exp(lnA) in canonical units; null if it overflows a double. */
@@ -84,7 +146,7 @@ export interface ArrheniusFit {
   covariance: number[][] | null;
   /** Weighted R² about the weighted mean of ln k; null when all ln k are equal. */
   r2: number | null;
-  /** s = √(RSS_w/dof); null when dof = 0. */
+  /** s = √(RSS_w/dof): scaleFactor on weighted fits, residualSDLnK on unweighted ones; null when dof = 0. */
   residualSD: number | null;
   dof: number;
   /** Weighted residual sum of squares of ln k. */
@@ -93,12 +155,14 @@ export interface ArrheniusFit {
   aicc: number | null;
   /** RSS_w/dof with absolute weights 1/σ²; only on weighted fits, null when dof = 0. */
   chi2Reduced?: number | null;
-  /** k(298.15 K) in canonical units with its 95 % confidence interval. */
-  k298: ConfidenceInterval;
+  /** k(298.15 K) in canonical units with its 95 % confidence interval, marked when 298.15 K is outside the data. */
+  k298: RateAt298;
+  /** k at the middle of the measured range in 1/T, T = 2/(1/Tmin + 1/Tmax), with its 95 % confidence interval. */
+  kMid: RateAtTemperature;
 }
 
 /** Three-parameter fit ln k = ln A + n ln(T/T0) − Ea/(RT). */
-export interface ModifiedArrheniusFit {
+export interface ModifiedArrheniusFit extends FitResiduals {
   params: { lnA: number; A: number | null; n: number; Ea: number; T0: number };
   se: { lnA: number | null; n: number | null; Ea: number | null };
   /** s²(XᵀWX)⁻¹ over [lnA, n, Ea]; null when dof = 0. */
@@ -130,8 +194,12 @@ export interface Diagnostics {
 
 /** Test of the modified against the plain Arrhenius expression. */
 export interface CurvatureTest {
-  /** F statistic on (1, n − 3) degrees of freedom. */
+  /** F statistic on (dfNum, dfDenom) = (1, n − 3) degrees of freedom. */
   F: number;
+  /** Numerator degrees of freedom (one added coefficient). */
+  dfNum: number;
+  /** Denominator degrees of freedom, n − 3 (residual dof of the modified fit). */
+  dfDenom: number;
   /** Upper-tail probability of F. */
   p: number;
   /** AICc(modified) − AICc(Arrhenius); null when either AICc is null. */

@@ -29,6 +29,28 @@ describe("POST /api/v1/analyses", () => {
     expect(body.caution).toMatch(/Extrapolation outside the measured temperature range is unreliable/);
   });
 
+  it("answers with the residual fields, k at mid-range, the extrapolation of k(298.15 K) and flag quantities", async () => {
+    // The same exact curve at 1000–1500 K with one point pushed up by a factor e (invented).
+    const hot = [1000, 1050, 1100, 1150, 1200, 1300, 1400, 1500].map((T, i) => ({
+      T,
+      k: 2.45e-12 * Math.exp(-1775 / T + (i === 3 ? 1 : 0.01 * Math.sin(i))),
+    }));
+    const res = await post({ points: hot, order: 2 });
+    expect(res.status).toBe(200);
+    const { analysis } = await res.json();
+    expect(analysis.arrhenius.k298).toMatchObject({ extrapolated: true, extrapolation: { side: "below" } });
+    expect(analysis.arrhenius.k298.extrapolation.kelvin).toBeCloseTo(701.85, 9);
+    expect(analysis.arrhenius.kMid.T).toBeCloseTo(2 / (1 / 1000 + 1 / 1500), 9);
+    expect(analysis.arrhenius.scaleFactor).toBeNull();
+    expect(analysis.arrhenius.residualSDLnK).toBe(analysis.arrhenius.residualSD);
+    expect(analysis.arrhenius.residuals).toHaveLength(8);
+    expect(analysis.arrhenius.fitted).toHaveLength(8);
+    expect(analysis.curvature).toMatchObject({ dfNum: 1, dfDenom: 5 });
+    const outlier = analysis.flags.find((f: { code: string }) => f.code === "outlier");
+    expect(outlier.points).toEqual([3]);
+    expect(outlier.quantities.dof).toEqual({ kind: "count", value: 5 });
+  });
+
   it("converts posted units: L mol⁻¹ s⁻¹ and °C give the same Ea", async () => {
     const NA = 6.02214076e23; // CODATA 2018
     const converted = points.map((p) => ({ T: p.T - 273.15, k: p.k * NA * 1e-3 }));

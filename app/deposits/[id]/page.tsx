@@ -11,16 +11,18 @@ import { getLatestAnalysis, listDatasetMembers, listDecisions } from "@/lib/data
 import type { DepositDocument } from "@/lib/deposits/types";
 import { AppError } from "@/lib/errors";
 import { parseIdOrNull } from "@/lib/ids";
+import { formatFlagMessage, type Flag } from "@/lib/kinetics";
 
 export const metadata: Metadata = { title: "Deposit" };
 
 /** The stored checks of a version: identity, balance and magnitude, then the fit's flags. */
 function storedChecks(analysis: Awaited<ReturnType<typeof getLatestAnalysis>>): StoredCheck[] {
   if (!analysis) return [];
-  const flags = ((analysis.result as { flags?: StoredCheck[] } | null)?.flags ?? []).map(({ code, severity, message }) => ({
-    code,
-    severity,
-    message,
+  // Flags of older engines are shown as stored; current ones are rewritten from their quantities.
+  const flags = ((analysis.result as { flags?: Flag[] } | null)?.flags ?? []).map((f) => ({
+    code: f.code,
+    severity: f.severity,
+    message: formatFlagMessage(f),
   }));
   const checks = ((analysis.checks as StoredCheck[] | null) ?? []).map(({ code, severity, message }) => ({ code, severity, message }));
   return [...checks, ...flags];

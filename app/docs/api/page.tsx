@@ -104,6 +104,15 @@ export default function ApiDocsPage() {
           <code>band</code> (50 temperatures) and <code>flags</code>. 422 for input that cannot be fitted, 413 for an oversized body, 429
           when rate limited (with <code>Retry-After</code>).
         </p>
+        <p className="text-sm">
+          Each fit carries <code>scaleFactor</code> (√(χ²/dof), weighted fits) and <code>residualSDLnK</code> beside <code>residualSD</code>
+          , and per point <code>residuals</code> and <code>fitted</code> (ln k). <code>arrhenius.k298</code> says whether 298.15 K lies
+          outside the data (<code>extrapolated</code>, <code>extrapolation</code>: side, kelvin, inverseTWidths);{" "}
+          <code>arrhenius.kMid</code> is k at the middle of the measured range in 1/T, with its interval. <code>curvature</code> gives its
+          degrees of freedom (<code>dfNum</code>, <code>dfDenom</code>). Each flag has <code>code</code>, <code>severity</code>,{" "}
+          <code>message</code> (kJ mol⁻¹, K), <code>points</code> where it concerns points, and <code>quantities</code>: the numbers of the
+          message with their kind, to write it in other units.
+        </p>
         <pre className="overflow-x-auto rounded-md border border-line bg-panel p-4 text-xs">{example(appUrl())}</pre>
         <h3 className="font-semibold">Conventions</h3>
         <ul className="list-disc space-y-2 pl-6 text-sm">

@@ -13,7 +13,7 @@ import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
 import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
 import { parseIdOrThrow } from "@/lib/ids";
-import { GAS_CONSTANT, type Flag } from "@/lib/kinetics";
+import { describeExtrapolation, formatFlagMessage, GAS_CONSTANT, REFERENCE_TEMPERATURE, type Flag } from "@/lib/kinetics";
 import { DecisionForm } from "./decision-form";
 import { formatSignificant } from "@/lib/format";
 
@@ -54,10 +54,13 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
   ]);
   const schema = validateDeposit(version.payload);
   const result = drawableFit(analysis?.result);
-  const flags: Flag[] = result?.flags ?? [];
+  const flags: Flag[] = (result?.flags ?? []).map((f) => ({ ...f, message: formatFlagMessage(f) }));
   const outliers = new Set(flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []));
   // The authors' expression in canonical units (A) and J/mol (Ea), comparable with the re-fit.
   const reported = schema.ok ? toAnalysisInput(schema.value).reportedFit : undefined;
+  // The reported expression at a temperature, K → canonical units.
+  const reportedK = (T: number) =>
+    reported ? reported.A * Math.pow(T / reported.T0, reported.n) * Math.exp(-reported.Ea / (GAS_CONSTANT * T)) : null;
   const diff = previous ? jsonPatch.compare(previous.payload, version.payload) : null;
 
   return (
@@ -127,6 +130,36 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
                       </td>
                       <td>
                         {sig(result.arrhenius.params.Ea / 1000)} kJ mol⁻¹ (E/R = {sig(result.arrhenius.params.Ea / GAS_CONSTANT)} K)
+                      </td>
+                    </tr>
+                    <tr>
+                      <td>Temperature range</td>
+                      <td>
+                        {reported?.Tmin !== undefined || reported?.Tmax !== undefined
+                          ? `${reported.Tmin !== undefined ? sig(reported.Tmin) : "…"}–${reported.Tmax !== undefined ? sig(reported.Tmax) : "…"} K`
+                          : "not stated"}
+                      </td>
+                      <td>
+                        {sig(result.band.T[0])}–{sig(result.band.T[result.band.T.length - 1])} K (the data)
+                      </td>
+                    </tr>
+                    <tr>
+                      <td>k({sig(result.arrhenius.kMid.T)} K), middle of the data in 1/T</td>
+                      <td>{reported ? sig(reportedK(result.arrhenius.kMid.T)) : "—"}</td>
+                      <td>
+                        {sig(result.arrhenius.kMid.value)} (95 %: {sig(result.arrhenius.kMid.lower, 3)} …{" "}
+                        {sig(result.arrhenius.kMid.upper, 3)})
+                      </td>
+                    </tr>
+                    <tr>
+                      <td>k(298.15 K)</td>
+                      <td>{reported ? sig(reportedK(REFERENCE_TEMPERATURE)) : "—"}</td>
+                      <td>
+                        {sig(result.arrhenius.k298.value)} (95 %: {sig(result.arrhenius.k298.lower, 3)} …{" "}
+                        {sig(result.arrhenius.k298.upper, 3)})
+                        {result.arrhenius.k298.extrapolation && (
+                          <span className="block text-xs text-warn">{describeExtrapolation(result.arrhenius.k298.extrapolation)}</span>
+                        )}
                       </td>
                     </tr>
                     {result.modifiedArrhenius && (

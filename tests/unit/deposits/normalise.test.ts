@@ -95,10 +95,10 @@ describe("toAnalysisInput", () => {
     expect(input.points).toHaveLength(10);
     expect(input.points[0]).toEqual({ T: 250, k: 2.09e-15, sigmaLnK: 1.7e-16 / 2.09e-15 / 2 });
     expect(input.T0).toBeUndefined();
-    expect(input.reportedFit).toEqual({ A: 2.2e-12, n: 0, Ea: 14550, T0: 298.15 });
+    expect(input.reportedFit).toEqual({ A: 2.2e-12, n: 0, Ea: 14550, T0: 298.15, Tmin: 250, Tmax: 420 });
   });
 
-  it("converts A, Ea and T0 from the document's units", () => {
+  it("converts A, Ea, T0 and the stated range from the document's units", () => {
     const doc = example();
     doc.units = { k: "L mol-1 s-1", T: "degC" };
     delete doc.conditions;
@@ -106,7 +106,7 @@ describe("toAnalysisInput", () => {
       { T: 0, k: 1e9 },
       { T: 100, k: 3e9 },
     ];
-    doc.reportedFit = { model: "modified_arrhenius", A: 1e10, n: 1.5, Ea: 2, EaUnit: "kcal mol-1", T0: 26.85 };
+    doc.reportedFit = { model: "modified_arrhenius", A: 1e10, n: 1.5, Ea: 2, EaUnit: "kcal mol-1", T0: 26.85, Tmin: 0, Tmax: 100 };
     expect(validateDeposit(doc).ok).toBe(true);
     const input = toAnalysisInput(doc);
     expect(input.points[0].T).toBe(273.15);
@@ -115,6 +115,8 @@ describe("toAnalysisInput", () => {
     expect(input.reportedFit!.Ea).toBeCloseTo(8368, 9); // 2 × 4184 J (thermochemical calorie)
     expect(input.reportedFit!.n).toBe(1.5);
     expect(input.reportedFit!.T0).toBeCloseTo(300, 12);
+    expect(input.reportedFit!.Tmin).toBe(273.15);
+    expect(input.reportedFit!.Tmax).toBe(373.15);
   });
 
   it("feeds analyseDataset, whose Arrhenius fit recovers the invented parameters", () => {

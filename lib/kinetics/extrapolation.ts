@@ -1,0 +1,28 @@
+/**
+ * Whether a temperature lies outside a measured range, and how far: in kelvin from the nearest
+ * end, and in 1/T as a multiple of the range's width in 1/T (the scale on which the Arrhenius
+ * fit's uncertainty grows, so 1 means "as far again as the data span").
+ */
+import type { Extrapolation } from "./types";
+
+/**
+ * @param T temperature, K
+ * @param Tmin lowest measured temperature, K
+ * @param Tmax highest measured temperature, K (> Tmin)
+ * @example extrapolationOf(298.15, 1000, 2000) // { extrapolated: true, extrapolation: { side: "below", kelvin: 701.85, inverseTWidths: 4.708… } }
+ */
+export function extrapolationOf(T: number, Tmin: number, Tmax: number): { extrapolated: boolean; extrapolation: Extrapolation | null } {
+  if (T >= Tmin && T <= Tmax) return { extrapolated: false, extrapolation: null };
+  const below = T < Tmin;
+  const end = below ? Tmin : Tmax;
+  const widths = Math.abs(1 / T - 1 / end) / (1 / Tmin - 1 / Tmax);
+  return {
+    extrapolated: true,
+    extrapolation: {
+      side: below ? "below" : "above",
+      kelvin: Math.abs(T - end),
+      // A range narrower than double precision can resolve in 1/T: as far as a number can say.
+      inverseTWidths: Number.isFinite(widths) ? widths : Number.MAX_VALUE,
+    },
+  };
+}

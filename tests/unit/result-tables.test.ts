@@ -1,0 +1,70 @@
+import { createElement as h } from "react";
+import { renderToStaticMarkup } from "react-dom/server";
+import { describe, expect, it } from "vitest";
+import { ResultTables } from "@/components/result-tables";
+import { drawableFit } from "@/lib/datasets/version-json";
+import { analyseDataset, convertEnergy, fromCanonicalRateConstant, GAS_CONSTANT, type AnalysisResult } from "@/lib/kinetics";
+
+// Invented points at 1000–2000 K on a curved line (n = 2.5), so k(298.15 K) is an extrapolation and the curvature flag is raised.
+const points = Array.from({ length: 10 }, (_, i) => {
+  const T = 1000 + (1000 * i) / 9;
+  return { T, k: 1e-14 * (T / 298.15) ** 2.5 * Math.exp(-5000 / (GAS_CONSTANT * T) + 0.01 * Math.sin(3 * i)) };
+});
+
+function render(analysis: AnalysisResult, energyUnit: string, temperatureUnit?: string) {
+  return renderToStaticMarkup(
+    h(ResultTables, {
+      analysis,
+      order: 2,
+      kUnit: "cm3 molecule-1 s-1",
+      kLabel: "cm³ molecule⁻¹ s⁻¹",
+      energyUnit,
+      energyLabel: energyUnit,
+      convertK: (k: number) => fromCanonicalRateConstant(k, "cm3 molecule-1 s-1", 2),
+      convertE: (e: number) => convertEnergy(e, "J mol-1", energyUnit),
+      temperatureUnit,
+      lineOf: (i: number) => i + 1,
+    }),
+  );
+}
+
+describe("ResultTables", () => {
+  const analysis = analyseDataset({ points, order: 2 });
+
+  it("marks k(298.15 K) as extrapolated, says how far, and shows k at mid-range beside it", () => {
+    const html = render(analysis, "kJ mol-1");
+    expect(analysis.arrhenius.k298.extrapolated).toBe(true);
+    expect(html).toContain("(extrapolated)");
+    expect(html).toContain("extrapolated: 702 K below the lowest measured temperature");
+    expect(html).toContain("k(1333 K), middle of the range in 1/T");
+    expect(html).toContain("SD of ln k residuals");
+    expect(html).toContain("F (1, 7) / p");
+  });
+
+  it("writes the checks in the chosen energy and temperature units", () => {
+    const flag = analysis.flags.find((f) => f.code === "curvature")!;
+    const kcal = Number((flag.quantities!.eaLow.value / 4184).toPrecision(4));
+    const html = render(analysis, "kcal mol-1", "degC");
+    expect(html).toContain(`Ea(T) = Ea + nRT = ${kcal} kcal mol⁻¹ at 726.9 °C`);
+    expect(html).not.toContain("kJ mol⁻¹ at");
+  });
+
+  it("draws an analysis stored by the previous engine (no kMid, no extrapolation, no quantities)", () => {
+    const stored = JSON.parse(JSON.stringify(analysis));
+    delete stored.arrhenius.kMid;
+    delete stored.arrhenius.k298.extrapolated;
+    delete stored.arrhenius.k298.extrapolation;
+    delete stored.arrhenius.scaleFactor;
+    delete stored.arrhenius.residualSDLnK;
+    delete stored.curvature.dfNum;
+    delete stored.curvature.dfDenom;
+    for (const f of stored.flags) {
+      delete f.quantities;
+      f.message = "The Arrhenius plot is curved (F = 12, p = < 0.0001).";
+    }
+    const html = render(drawableFit(stored)!, "kcal mol-1");
+    expect(html).toContain("(extrapolated)");
+    expect(html).toContain("middle of the range in 1/T");
+    expect(html).toContain("The Arrhenius plot is curved (F = 12, p &lt; 0.0001).");
+  });
+});
