@@ -179,7 +179,13 @@ export function fitModel(rows: Rows, blocks: readonly number[], q: 2 | 3): Model
  * and suffix factors weighted with the full data's τ² (for many datasets, where one dataset
  * moves τ² by O(1/J)).
  */
-export function leaveOneOutFits(rows: Rows, blocks: readonly number[], q: 2 | 3, full: ModelFit | null, exact: boolean): (ModelFit | null)[] {
+export function leaveOneOutFits(
+  rows: Rows,
+  blocks: readonly number[],
+  q: 2 | 3,
+  full: ModelFit | null,
+  exact: boolean,
+): (ModelFit | null)[] {
   const J = blocks.length;
   const size = GlsState.size(q);
   const prefix = prefixStates(rows, blocks, q, 0);

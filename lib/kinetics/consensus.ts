@@ -2,8 +2,9 @@
  * Consensus expression for one reaction from several datasets: a two-stage random-effects model.
  *
  * Stage 1 (consensus-support.ts). Each dataset is summarised by its own fit — the model its own
- * analysis prefers — as fitted ln k at support temperatures inside its own measured range, with
- * the covariance V_j of those values from that fit. A dataset therefore weighs by its
+ * analysis prefers — as fitted ln k at support temperatures inside its own measured range (both
+ * ends and the middle in 1/T), with their covariance V_j (from the modified fit whenever it is
+ * determined, so an undetected curvature is not ruled out). A dataset therefore weighs by its
  * information, not by its number of points, and never speaks outside its range. One
  * temperature: one support value (weighted mean ln k) with its variance; two temperatures: the
  * Arrhenius line through them (both ends). Without stated uncertainties and without spare
@@ -283,7 +284,10 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     const { allSigma } = checkPoints(ds.points, ds.id);
     if (ds.points.length === 0) throw new AnalysisError("too_few_points", `Dataset ${ds.id} has no points.`, { datasetId: ds.id });
     supports.push(
-      summariseDataset({ id: ds.id, points: ds.points, weighted: allSigma, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } }, T0),
+      summariseDataset(
+        { id: ds.id, points: ds.points, weighted: allSigma, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } },
+        T0,
+      ),
     );
   }
   assignPooledScales(supports.filter((s): s is DatasetSupport => s !== null));
@@ -331,7 +335,8 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     Tmin: Math.min(...included.map((j) => supports[j]!.Tmin)),
     Tmax: Math.max(...included.map((j) => supports[j]!.Tmax)),
   };
-  const coverage = (T: number) => included.filter((j) => supports[j]!.Tmin <= T * (1 + 1e-12) && T <= supports[j]!.Tmax * (1 + 1e-12)).length;
+  const coverage = (T: number) =>
+    included.filter((j) => supports[j]!.Tmin <= T * (1 + 1e-12) && T <= supports[j]!.Tmax * (1 + 1e-12)).length;
 
   const label = (j: number) => datasets[j].label ?? `Dataset ${datasets[j].id}`;
   const shareAt = new Map<number, number>();
@@ -695,7 +700,9 @@ function expOrNull(x: number): number | null {
 
 function gridT(Tmin: number, Tmax: number, n: number): number[] {
   if (!(Tmax > Tmin)) return [Tmin];
-  return Array.from({ length: n }, (_, i) => (i === 0 ? Tmin : i === n - 1 ? Tmax : 1 / (1 / Tmin + ((1 / Tmax - 1 / Tmin) * i) / (n - 1))));
+  return Array.from({ length: n }, (_, i) =>
+    i === 0 ? Tmin : i === n - 1 ? Tmax : 1 / (1 / Tmin + ((1 / Tmax - 1 / Tmin) * i) / (n - 1)),
+  );
 }
 
 function commonParts(

@@ -241,7 +241,11 @@ describe("consensus stage 2: GLS with V_j + τ²·I and DerSimonian–Laird τ²
       return M;
     };
     const y = Matrix.columnVector(ys);
-    const check = (X: Matrix, fit: { q: number; tau2: number; params: Record<string, number | null>; covariance: number[][] }, order: string[]) => {
+    const check = (
+      X: Matrix,
+      fit: { q: number; tau2: number; params: Record<string, number | null>; covariance: number[][] },
+      order: string[],
+    ) => {
       const p = X.columns;
       const gls = (w: Matrix) => {
         const cov = inverse(X.transpose().mmul(w).mmul(X));
@@ -278,7 +282,8 @@ describe("consensus stage 2: GLS with V_j + τ²·I and DerSimonian–Laird τ²
     expect(c.arrhenius.params.lnA).toBeCloseTo(a.params.lnA, 9);
     expect(c.arrhenius.tau2).toBe(0);
     const widen = (t95(12) / Z95) ** 2;
-    for (let i = 0; i < 2; i++) for (let j = 0; j < 2; j++) expect(c.arrhenius.covariance[i][j] / (widen * a.covariance![i][j])).toBeCloseTo(1, 8);
+    for (let i = 0; i < 2; i++)
+      for (let j = 0; j < 2; j++) expect(c.arrhenius.covariance[i][j] / (widen * a.covariance![i][j])).toBeCloseTo(1, 8);
     expect(member(c, "only").disagreement).toBeNull();
     expect(member(c, "only").verdict).toMatch(/only dataset in the consensus/);
     expect(c.flags.map((f) => f.code)).toEqual(["few_datasets"]);
@@ -300,7 +305,9 @@ describe("consensus stage 2: GLS with V_j + τ²·I and DerSimonian–Laird τ²
   it("merges prefix and suffix factors for many datasets: close to the exact leave-one-out fits", () => {
     const normal = makeNormal(41);
     const sets = Array.from({ length: 30 }, (_, j) => makeSet(`s${j}`, normal, { n: 6, factor: Math.exp(0.2 * normal()) }));
-    const supports = sets.map((s) => summariseDataset({ id: s.id, points: s.points, weighted: false, window: { Tmin: 0, Tmax: Infinity } }, 298.15));
+    const supports = sets.map((s) =>
+      summariseDataset({ id: s.id, points: s.points, weighted: false, window: { Tmin: 0, Tmax: Infinity } }, 298.15),
+    );
     const rows = buildRows(supports, 298.15);
     const blocks = sets.map((_, j) => j);
     const full = fitModel(rows, blocks, 2)!;
@@ -369,7 +376,9 @@ describe("consensus: constructed cases with a known answer", () => {
     }
     expect(d.meanOffsetLog10).toBeCloseTo(Math.log10(3), 1);
     expect(d.activationEnergy).toBe("same");
-    expect(m.verdict).toMatch(/^Dataset m2 is off the consensus of the other 3( \(which rests \d+ % on [^)]+\))?: a factor (2\.[6-9]|3\.[0-4]) above at 250 K, .* above at 400 K — about the same factor throughout/);
+    expect(m.verdict).toMatch(
+      /^Dataset m2 is off the consensus of the other 3( \(which rests \d+ % on [^)]+\))?: a factor (2\.[6-9]|3\.[0-4]) above at 250 K, .* above at 400 K — about the same factor throughout/,
+    );
     const flags = c.flags.filter((f) => f.code === "off_consensus");
     expect(flags.map((f) => f.datasetIds)).toEqual([["m2"]]);
     for (const id of ["m1", "m3"]) expect(member(c, id).disagreement!.off).toBe(false);
@@ -414,14 +423,18 @@ describe("consensus: constructed cases with a known answer", () => {
     expect(m.disagreement!.off).toBe(false);
     for (const p of m.disagreement!.points) expect(Math.abs(p.z)).toBeLessThan(m.disagreement!.bound);
     expect(c.flags.some((f) => f.datasetIds?.includes("precise"))).toBe(false);
-    expect(m.verdict).toMatch(/^Dataset precise agrees with the consensus of the other 3( \(which rests \d+ % on [^)]+\))? within its uncertainty at 220, 289 and 420 K/);
+    expect(m.verdict).toMatch(
+      /^Dataset precise agrees with the consensus of the other 3( \(which rests \d+ % on [^)]+\))? within its uncertainty at 220, 289 and 420 K/,
+    );
   });
 
   it("says in words where two datasets disagree when only two are in the consensus", () => {
     const normal = makeNormal(2);
     const c = consensus([makeSet("a", normal, { sd: 0.02 }), makeSet("b", normal, { sd: 0.02, factor: 2 })]);
     expect(c.flags.map((f) => f.code).sort()).toEqual(["datasets_disagree", "datasets_disagree", "few_datasets"]);
-    expect(member(c, "b").verdict).toMatch(/^Dataset b is off the only other dataset: a factor (1\.9\d|2\.0|2\.1) above at 220 K, .* above at 420 K/);
+    expect(member(c, "b").verdict).toMatch(
+      /^Dataset b is off the only other dataset: a factor (1\.9\d|2\.0|2\.1) above at 220 K, .* above at 420 K/,
+    );
     expect(member(c, "a").verdict).toMatch(/^Dataset a is off the only other dataset: a factor (1\.9\d|2\.0|2\.1) below at 220 K/);
   });
 
@@ -436,7 +449,9 @@ describe("consensus: constructed cases with a known answer", () => {
     const hot = member(c, "hot");
     expect(hot.disagreement!.range).toBeNull();
     expect(hot.disagreement!.points).toEqual([]);
-    expect(hot.verdict).toMatch(/^Dataset hot \(800 K–1200 K\) lies outside the temperatures of the consensus of the other 3 \(220 K–420 K\): not compared\.$/);
+    expect(hot.verdict).toMatch(
+      /^Dataset hot \(800 K–1200 K\) lies outside the temperatures of the consensus of the other 3 \(220 K–420 K\): not compared\.$/,
+    );
     expect(c.flags.find((f) => f.code === "not_compared")!.datasetIds).toEqual(["hot"]);
     const f = preferred(c).uncertaintyFactor;
     expect(f[0].T).toBe(220);
@@ -493,7 +508,12 @@ describe("consensus: unit mistakes, window, exclusions, input errors", () => {
     expect(a.n).toBe(a.pointsGiven - sets[0].points.filter((p) => p.T < 250 || p.T > 380).length);
     expect(a.Tmin!).toBeGreaterThanOrEqual(250);
     expect(a.Tmax!).toBeLessThanOrEqual(380);
-    expect(member(c, "hot")).toMatchObject({ n: 0, included: false, leftOut: "no points inside the temperature window", disagreement: null });
+    expect(member(c, "hot")).toMatchObject({
+      n: 0,
+      included: false,
+      leftOut: "no points inside the temperature window",
+      disagreement: null,
+    });
     expect(c.points).toBe(a.n + member(c, "b").n);
     expect(c.range.Tmin).toBeGreaterThanOrEqual(250);
     expect(c.range.Tmax).toBeLessThanOrEqual(380);
@@ -506,7 +526,9 @@ describe("consensus: unit mistakes, window, exclusions, input errors", () => {
     const c = consensus([...sets.slice(0, 3), { ...sets[3], excludedReason: "superseded by a later measurement" }]);
     expect(member(c, "x")).toMatchObject({ included: false, leftOut: "superseded by a later measurement" });
     expect(member(c, "x").disagreement!.off).toBe(true);
-    expect(member(c, "x").verdict).toMatch(/^Dataset x is off the consensus: .*Left out of the consensus: superseded by a later measurement\.$/);
+    expect(member(c, "x").verdict).toMatch(
+      /^Dataset x is off the consensus: .*Left out of the consensus: superseded by a later measurement\.$/,
+    );
     // Equal up to rounding (the design is centred on every dataset's support temperatures).
     expect(c.arrhenius.params.Ea / without.arrhenius.params.Ea).toBeCloseTo(1, 12);
     expect(c.arrhenius.params.lnA).toBeCloseTo(without.arrhenius.params.lnA, 11);
@@ -550,5 +572,41 @@ describe("consensus: unit mistakes, window, exclusions, input errors", () => {
       ],
     });
     expect(() => consensus([flat("f1"), flat("f2")])).toThrow(/cover a single temperature/);
+  });
+});
+
+describe("consensus: who carries the consensus", () => {
+  it("gives each dataset's share in the prediction, the shares adding up to 1", async () => {
+    const { buildRows: build, fitModel: fit, shareDirection, shareVectors } = await import("@/lib/kinetics/consensus-fit");
+    const normal = makeNormal(43);
+    const sets = [makeSet("a", normal), makeSet("b", normal, { n: 8, sigma: 0.05 }), computedSet("calc", normal)];
+    const supports = sets.map((s, j) =>
+      summariseDataset({ id: s.id, points: s.points, weighted: j === 1, window: { Tmin: 0, Tmax: Infinity } }, 298.15),
+    );
+    const rows = build(supports, 298.15);
+    const blocks = [0, 1, 2];
+    for (const q of [2, 3] as const) {
+      const f = fit(rows, blocks, q)!;
+      const g = shareVectors(rows, blocks, f.weightTau2);
+      for (const T of [200, 300, 420, 1500]) {
+        const a = shareDirection(rows, f, T);
+        const shares = blocks.map((j) => a[0] * g[3 * j] + a[1] * g[3 * j + 1] + a[2] * g[3 * j + 2]);
+        expect(shares.reduce((x, y) => x + y, 0)).toBeCloseTo(1, 10);
+      }
+    }
+  });
+
+  it("names datasets by their labels and says when the others' consensus rests on one of them", () => {
+    const normal = makeNormal(47);
+    const c = consensus([
+      { ...makeSet("a", normal, { sd: 0.1 }), label: "“first measurement” (dataset 7)" },
+      { ...makeSet("b", normal, { n: 30, sd: 0.003, sigma: 0.003 }), label: "“precise calculation” (dataset 8)" },
+      { ...makeSet("c", normal, { sd: 0.1, factor: 3 }), label: "“third measurement” (dataset 9)" },
+    ]);
+    const third = member(c, "c");
+    expect(third.disagreement!.restsOn!.id).toBe("b");
+    expect(third.verdict).toMatch(
+      /^“third measurement” \(dataset 9\) is off the consensus of the other 2 \(which rests \d+ % on “precise calculation” \(dataset 8\) there\): a factor/,
+    );
   });
 });
