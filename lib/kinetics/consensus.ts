@@ -12,7 +12,7 @@
  *
  * Stage 2 (consensus-fit.ts, consensus-meta.ts). The consensus curve, Arrhenius
  * ln k = ln A − Ea/(RT) and, where the support temperatures span at least a factor 1.5 in T (3
- * distinct, ≥ 4 values), modified Arrhenius ln k = ln A + n ln(T/T0) − Ea/(RT), by generalised
+ * distinct), modified Arrhenius ln k = ln A + n ln(T/T0) − Ea/(RT), by generalised
  * least squares on all support values with covariance V_j + τ²·I per dataset; τ² is the
  * between-dataset variance of ln k (any shape the expression cannot follow included), estimated
  * by the DerSimonian–Laird moment estimator for meta-regression (DerSimonian & Laird 1986;
@@ -417,7 +417,7 @@ function range(n: number): number[] {
 }
 
 /** Support temperatures of the given datasets: distinct count and span, for the modified fit. */
-function supportsModified(supports: readonly (DatasetSupport | null)[], blocks: readonly number[], rowsCount: number): boolean {
+function supportsModified(supports: readonly (DatasetSupport | null)[], blocks: readonly number[]): boolean {
   const temps = new Set<number>();
   let lo = Infinity;
   let hi = -Infinity;
@@ -428,7 +428,7 @@ function supportsModified(supports: readonly (DatasetSupport | null)[], blocks: 
       hi = Math.max(hi, T);
     }
   }
-  return temps.size >= 3 && rowsCount >= 4 && hi / lo >= MODIFIED_MIN_SPAN;
+  return temps.size >= 3 && hi / lo >= MODIFIED_MIN_SPAN;
 }
 
 function prefer(arr: ModelFit, mod: ModelFit | null): ModelFit {
@@ -445,8 +445,7 @@ function fitAll(rows: Rows, supports: readonly (DatasetSupport | null)[], includ
       "The datasets in the consensus cover a single temperature; a consensus k(T) needs at least two different temperatures.",
     );
   }
-  const n = included.reduce((acc, j) => acc + supports[j]!.temps.length, 0);
-  const mod = supportsModified(supports, included, n) ? fitModel(rows, included, 3) : null;
+  const mod = supportsModified(supports, included) ? fitModel(rows, included, 3) : null;
   return { arr, mod, preferred: prefer(arr, mod) };
 }
 
@@ -483,9 +482,7 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
   }
   // Modified fit of the others: the same rule on their support temperatures.
   const tempCount = new Map<number, number>();
-  let totalRows = 0;
   for (const j of included) {
-    totalRows += supports[j]!.temps.length;
     for (const T of supports[j]!.temps) tempCount.set(T, (tempCount.get(T) ?? 0) + 1);
   }
   const sortedTemps = [...tempCount.keys()].sort((a, b) => a - b);
@@ -501,7 +498,7 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
     let hi = sortedTemps.length - 1;
     while (hi >= lo && onlyOwn(sortedTemps[hi])) hi--;
     const span = hi > lo ? sortedTemps[hi] / sortedTemps[lo] : 1;
-    const modOk = mod && distinct >= 3 && totalRows - own.length >= 4 && span >= MODIFIED_MIN_SPAN;
+    const modOk = mod && distinct >= 3 && span >= MODIFIED_MIN_SPAN;
     const fit = prefer(a, modOk ? mod[i] : null);
     out[j] = {
       fit,

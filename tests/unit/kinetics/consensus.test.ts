@@ -438,6 +438,31 @@ describe("consensus: constructed cases with a known answer", () => {
     expect(member(c, "a").verdict).toMatch(/^Dataset a is off the only other dataset: a factor (1\.9\d|2\.0|2\.1) below at 220 K/);
   });
 
+  it("judges two disagreeing datasets alike, a curved one by its own curve", () => {
+    const normal = makeNormal(53);
+    const curved = makeSet("curved", normal, {
+      n: 16,
+      T1: 200,
+      T2: 2000,
+      sd: 0.01,
+      factor: (T) => (T / 298.15) ** 2.4 * Math.exp(2.4 * (1 - 298.15 / T)),
+    });
+    const c = consensus([makeSet("straight", normal), curved]);
+    expect(member(c, "curved").model).toBe("modified_arrhenius");
+    for (const id of ["straight", "curved"]) {
+      const d = member(c, id).disagreement!;
+      expect(d.off).toBe(true);
+      // The other side is one dataset: its own fit, no between-dataset variance to hide behind.
+      expect(d.tau2).toBe(0);
+      expect(d.points[0].T).toBe(220);
+      expect(Math.abs(d.points[0].log10Ratio)).toBeGreaterThan(Math.log10(4));
+    }
+    expect(member(c, "straight").disagreement!.model).toBe("modified_arrhenius");
+    expect(member(c, "straight").disagreement!.activationEnergy).toBe("lower");
+    expect(member(c, "curved").disagreement!.activationEnergy).toBe("higher");
+    expect(c.flags.filter((f) => f.code === "datasets_disagree").map((f) => f.datasetIds![0])).toEqual(["straight", "curved"]);
+  });
+
   it("does not compare a dataset the others do not overlap, and gives f(T) only where the data are", () => {
     const normal = makeNormal(19);
     const c = consensus([
