@@ -12,7 +12,8 @@
  *   otherwise Arrhenius; a dataset at one temperature is summarised by its weighted mean ln k.
  * - Support temperatures: both ends and the middle in 1/T (both ends with two temperatures, the
  *   temperature itself with one). Values come from the preferred fit; their covariance from the
- *   modified fit whenever it is determined (≥ 3 temperatures), the Arrhenius fit otherwise. The
+ *   modified fit whenever it is determined (≥ 3 temperatures over at least 1 % in T), the Arrhenius fit
+ *   otherwise (and then at both ends only). The
  *   modified fit nests the Arrhenius one, so a dataset whose curvature was too small to detect
  *   does not forbid curvature in the consensus (with the Arrhenius covariance, three values on a
  *   line have a singular V_j that pins the consensus' curvature to zero over its range), and V_j
@@ -41,6 +42,8 @@ export const DEFAULT_POINT_SIGMA = 0.1;
 export const Z95 = 1.959963984540054;
 /** Same rounding-level floor of the residual sum of squares as the single-dataset analysis. */
 const NOISE_FLOOR = 1e-13;
+/** Smallest Tmax/Tmin for which a dataset's modified fit is used (its covariance, or as its model). */
+export const MIN_MODIFIED_SPAN = 1.01;
 /** Relative |R_11| below which ln T and 1/T are too collinear for a modified fit. */
 const MODIFIED_RANK_TOLERANCE = 1e-9;
 
@@ -239,7 +242,9 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   } else {
     const rssA = r12 * r12 + r22 * r22;
     let modified = false;
-    gModified = distinctT >= 3 && r11 > MODIFIED_RANK_TOLERANCE * Math.sqrt(nL);
+    // Over less than 1 % in T, ln T is a straight line in 1/T to ~1e-5 and the modified covariance is
+    // rounding noise: such a dataset is summarised by its Arrhenius fit at both ends.
+    gModified = distinctT >= 3 && Tmax >= MIN_MODIFIED_SPAN * Tmin && r11 > MODIFIED_RANK_TOLERANCE * Math.sqrt(nL);
     if (gModified) {
       // (R₂ᵀR₂)⁻¹ = R₂⁻¹R₂⁻ᵀ with R₂ = [[r00, r01], [0, r11]].
       const i00 = 1 / r00;
