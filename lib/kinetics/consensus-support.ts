@@ -31,6 +31,7 @@
 import { ALPHA, MIN_POINTS_FOR_DIAGNOSTICS } from "./analyse-dataset";
 import { GAS_CONSTANT } from "./constants";
 import { survivalF, t95 } from "./distributions";
+import { checkPoints } from "./validate-points";
 
 export type OwnModel = "arrhenius" | "modified_arrhenius" | "single_temperature";
 
@@ -116,15 +117,14 @@ function ensureScratch(n: number): void {
 export interface SupportInput {
   id: string;
   points: readonly { T: number; k: number; sigmaLnK?: number | null }[];
-  /** Whether every point (inside the window) states sigmaLnK. */
-  weighted: boolean;
   window: { Tmin: number; Tmax: number };
 }
 
 /**
- * Stage 1 for one dataset (points already validated). Returns null when no point lies inside the
- * window. Datasets without stated uncertainties and no spare points get their scale later, from
- * {@link assignPooledScales}.
+ * Stage 1 for one dataset. The points are checked in the same pass (an invalid one is reported by
+ * checkPoints, with its index); the fit is weighted when every point states sigmaLnK, as in the
+ * dataset's own analysis. Returns null when no point lies inside the window. Datasets without
+ * stated uncertainties and no spare points get their scale later, from {@link assignPooledScales}.
  */
 export function summariseDataset(input: SupportInput, T0: number): DatasetSupport | null {
   const pts = input.points;
@@ -132,7 +132,9 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   ensureScratch(pts.length);
   const lnT0 = Math.log(T0);
   const invR = 1 / GAS_CONSTANT; // a local: the hot loop should not re-read a module binding
-  const weighted = input.weighted;
+  if (!Array.isArray(pts)) checkPoints(pts, input.id);
+  let bad = false;
+  let withSigma = 0;
   let n = 0;
   let Tmin = Infinity;
   let Tmax = -Infinity;
@@ -142,12 +144,31 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   let secondT = NaN;
   for (let i = 0; i < pts.length; i++) {
     const p = pts[i];
+    if (p === null || typeof p !== "object") {
+      bad = true;
+      break;
+    }
     const T = p.T;
+    const k = p.k;
+    const sigma = p.sigmaLnK;
+    // NaN fails every comparison, so these also refuse NaN.
+    if (!(typeof T === "number" && T > 0 && T < Infinity && typeof k === "number" && k > 0 && k < Infinity)) {
+      bad = true;
+      break;
+    }
+    let sw = NaN;
+    if (sigma !== undefined && sigma !== null) {
+      if (!(typeof sigma === "number" && sigma > 0 && sigma < Infinity)) {
+        bad = true;
+        break;
+      }
+      withSigma++;
+      sw = 1 / sigma;
+    }
     if (T < wMin || T > wMax) continue;
     sxE[n] = -invR / T;
     sxL[n] = Math.log(T) - lnT0;
-    sy[n] = Math.log(p.k);
-    const sw = weighted ? 1 / (p.sigmaLnK as number) : 1;
+    sy[n] = Math.log(k);
     ssw[n] = sw;
     if (sw > maxSw) maxSw = sw;
     n++;
@@ -161,7 +182,14 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
       }
     }
   }
+  // The first invalid point is reported with its index and a message for people.
+  if (bad) checkPoints(pts, input.id);
+  const weighted = pts.length > 0 && withSigma === pts.length;
   if (n === 0) return null;
+  if (!weighted) {
+    for (let i = 0; i < n; i++) ssw[i] = 1;
+    maxSw = 1;
+  }
   // Weights relative to the largest, so that Σw and the rotations cannot overflow whatever the
   // stated σ; the variance scale below is expressed per relative weight.
   const invMaxSw = 1 / maxSw;
@@ -279,7 +307,7 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   let scaleSource: ScaleSource;
   let sigmaLnK: number | null = null;
   let statedScale: number | null = null;
-  if (input.weighted) {
+  if (weighted) {
     scaleSource = "stated";
     // c = max(1, χ²/dof) with χ² = RSS'·maxSw²; per relative weight that is max(1/maxSw², RSS'/dof).
     const unit = invMaxSw * invMaxSw;
@@ -303,7 +331,7 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   const support: DatasetSupport = {
     id: input.id,
     n,
-    weighted: input.weighted,
+    weighted,
     Tmin,
     Tmax,
     fit,

@@ -281,13 +281,10 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     }
     if (seen.has(ds.id)) throw new AnalysisError("invalid_input", `Dataset ${ds.id} is given twice.`, { datasetId: ds.id });
     seen.add(ds.id);
-    const { allSigma } = checkPoints(ds.points, ds.id);
+    if (!Array.isArray(ds.points)) checkPoints(ds.points, ds.id);
     if (ds.points.length === 0) throw new AnalysisError("too_few_points", `Dataset ${ds.id} has no points.`, { datasetId: ds.id });
     supports.push(
-      summariseDataset(
-        { id: ds.id, points: ds.points, weighted: allSigma, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } },
-        T0,
-      ),
+      summariseDataset({ id: ds.id, points: ds.points, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } }, T0),
     );
   }
   assignPooledScales(supports.filter((s): s is DatasetSupport => s !== null));
@@ -526,17 +523,21 @@ function bonferroniNormal(m: number): number {
 
 /** Share vectors per τ² in the weights: one for every leave-one-out fit merged at the full τ². */
 class ShareCache {
-  private readonly byTau2 = new Map<number, Float64Array>();
+  private readonly byTau2 = new Map<number, { g: Float64Array; maxNorm: number }>();
   constructor(private readonly rows: Rows) {}
 
-  get(blocks: readonly number[], tau2: number): Float64Array {
-    let g = this.byTau2.get(tau2);
-    if (!g) {
+  /** The share vectors and the largest of their norms (a bound on any share by Cauchy–Schwarz). */
+  get(blocks: readonly number[], tau2: number): { g: Float64Array; maxNorm: number } {
+    let entry = this.byTau2.get(tau2);
+    if (!entry) {
       // Rows of the dataset left out contribute to its own share only, which is never read.
-      g = shareVectors(this.rows, blocks, tau2);
-      this.byTau2.set(tau2, g);
+      const g = shareVectors(this.rows, blocks, tau2);
+      let max = 0;
+      for (const k of blocks) max = Math.max(max, g[3 * k] ** 2 + g[3 * k + 1] ** 2 + g[3 * k + 2] ** 2);
+      entry = { g, maxNorm: Math.sqrt(max) };
+      this.byTau2.set(tau2, entry);
     }
-    return g;
+    return entry;
   }
 }
 
@@ -591,11 +592,13 @@ function compare(
   if (overlap && o.count >= 2) {
     // Where the dataset is judged hardest: the comparison temperature with the largest |z|.
     const worst = diffs.reduce((a, b) => (Math.abs(b.z) > Math.abs(a.z) ? b : a));
-    const g = shareCache.get(o.blocks, fit.weightTau2);
+    const { g, maxNorm } = shareCache.get(o.blocks, fit.weightTau2);
     const a = shareDirection(rows, fit, worst.T);
     let best = -1;
     let bestShare = -Infinity;
-    for (const k of o.blocks) {
+    // No share can exceed ‖a‖·max‖g_k‖: with many datasets that settles it without the loop.
+    const reachable = Math.hypot(a[0], a[1], a[2]) * maxNorm > DOMINANT_SHARE;
+    for (const k of reachable ? o.blocks : []) {
       if (k === o.skip) continue;
       const share = a[0] * g[3 * k] + a[1] * g[3 * k + 1] + a[2] * g[3 * k + 2];
       if (share > bestShare) {

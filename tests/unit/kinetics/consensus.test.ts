@@ -124,7 +124,7 @@ describe("consensus stage 1: each dataset summarised by its own fit", () => {
     ];
     for (const s of sets) {
       const a = analyseDataset({ points: s.points, order: 2 });
-      const sup = summariseDataset({ id: s.id, points: s.points, weighted: a.weighted, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+      const sup = summariseDataset({ id: s.id, points: s.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
       expect(sup.fit.model).toBe(a.band.model);
       expect(sup.temps[0]).toBe(a.band.T[0]);
       expect(sup.temps[sup.temps.length - 1]).toBe(a.band.T[a.band.T.length - 1]);
@@ -140,7 +140,7 @@ describe("consensus stage 1: each dataset summarised by its own fit", () => {
     const set = makeSet("u", normal, { n: 8 });
     const a = analyseDataset({ points: set.points, order: 2 });
     expect(a.band.model).toBe("arrhenius");
-    const sup = summariseDataset({ id: "u", points: set.points, weighted: false, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+    const sup = summariseDataset({ id: "u", points: set.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
     expect(sup.temps).toHaveLength(3);
     expect(sup.temps[1]).toBeCloseTo(2 / (1 / sup.temps[0] + 1 / sup.temps[2]), 10);
     // Values on the Arrhenius line; covariance c·x₁ᵀ(XᵀX)⁻¹x₂ of the modified fit, c = s²_Arrhenius·(t₆/z)².
@@ -162,7 +162,7 @@ describe("consensus stage 1: each dataset summarised by its own fit", () => {
     const pair = makeSet("p", normal, { n: 6 });
     pair.points = pair.points.map((p, i) => ({ ...p, T: i % 2 ? 400 : 250 }));
     const b = analyseDataset({ points: pair.points, order: 2 });
-    const sup2 = summariseDataset({ id: "p", points: pair.points, weighted: false, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+    const sup2 = summariseDataset({ id: "p", points: pair.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
     expect(sup2.temps).toEqual([250, 400]);
     expect(Z95 * Math.sqrt(sup2.cov[0])).toBeCloseTo(b.band.lnk[0] - b.band.lower![0], 9);
     expect(Z95 * Math.sqrt(sup2.cov[3])).toBeCloseTo(b.band.lnk[49] - b.band.lower![49], 9);
@@ -171,10 +171,10 @@ describe("consensus stage 1: each dataset summarised by its own fit", () => {
   it("never lets stated uncertainties shrink: the scale is max(1, χ²/dof)", () => {
     const normal = makeNormal(31);
     const tight = makeSet("tight", normal, { sd: 0.01, sigma: 0.05 });
-    const sup = summariseDataset({ id: "t", points: tight.points, weighted: true, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+    const sup = summariseDataset({ id: "t", points: tight.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
     expect(sup.statedScale).toBe(1);
     const loose = makeSet("loose", normal, { sd: 0.2, sigma: 0.05 });
-    const sup2 = summariseDataset({ id: "l", points: loose.points, weighted: true, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+    const sup2 = summariseDataset({ id: "l", points: loose.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
     expect(sup2.statedScale!).toBeCloseTo(analyseDataset({ points: loose.points, order: 2 }).arrhenius.chi2Reduced!, 8);
   });
 
@@ -305,9 +305,7 @@ describe("consensus stage 2: GLS with V_j + τ²·I and DerSimonian–Laird τ²
   it("merges prefix and suffix factors for many datasets: close to the exact leave-one-out fits", () => {
     const normal = makeNormal(41);
     const sets = Array.from({ length: 30 }, (_, j) => makeSet(`s${j}`, normal, { n: 6, factor: Math.exp(0.2 * normal()) }));
-    const supports = sets.map((s) =>
-      summariseDataset({ id: s.id, points: s.points, weighted: false, window: { Tmin: 0, Tmax: Infinity } }, 298.15),
-    );
+    const supports = sets.map((s) => summariseDataset({ id: s.id, points: s.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15));
     const rows = buildRows(supports, 298.15);
     const blocks = sets.map((_, j) => j);
     const full = fitModel(rows, blocks, 2)!;
@@ -605,9 +603,7 @@ describe("consensus: who carries the consensus", () => {
     const { buildRows: build, fitModel: fit, shareDirection, shareVectors } = await import("@/lib/kinetics/consensus-fit");
     const normal = makeNormal(43);
     const sets = [makeSet("a", normal), makeSet("b", normal, { n: 8, sigma: 0.05 }), computedSet("calc", normal)];
-    const supports = sets.map((s, j) =>
-      summariseDataset({ id: s.id, points: s.points, weighted: j === 1, window: { Tmin: 0, Tmax: Infinity } }, 298.15),
-    );
+    const supports = sets.map((s, j) => summariseDataset({ id: s.id, points: s.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15));
     const rows = build(supports, 298.15);
     const blocks = [0, 1, 2];
     for (const q of [2, 3] as const) {
