@@ -133,6 +133,11 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   const lnT0 = Math.log(T0);
   const invR = 1 / GAS_CONSTANT; // a local: the hot loop should not re-read a module binding
   if (!Array.isArray(pts)) checkPoints(pts, input.id);
+  // Locals, not module bindings, in the hot loops.
+  const xEs = sxE;
+  const xLs = sxL;
+  const ys = sy;
+  const sws = ssw;
   let bad = false;
   let withSigma = 0;
   let n = 0;
@@ -166,10 +171,10 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
       sw = 1 / sigma;
     }
     if (T < wMin || T > wMax) continue;
-    sxE[n] = -invR / T;
-    sxL[n] = Math.log(T) - lnT0;
-    sy[n] = Math.log(k);
-    ssw[n] = sw;
+    xEs[n] = -invR / T;
+    xLs[n] = Math.log(T) - lnT0;
+    ys[n] = Math.log(k);
+    sws[n] = sw;
     if (sw > maxSw) maxSw = sw;
     n++;
     if (T < Tmin) Tmin = T;
@@ -187,7 +192,7 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   const weighted = pts.length > 0 && withSigma === pts.length;
   if (n === 0) return null;
   if (!weighted) {
-    for (let i = 0; i < n; i++) ssw[i] = 1;
+    for (let i = 0; i < n; i++) sws[i] = 1;
     maxSw = 1;
   }
   // Weights relative to the largest, so that Σw and the rotations cannot overflow whatever the
@@ -199,14 +204,14 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   let sY = 0;
   let rssFloor = 0;
   for (let i = 0; i < n; i++) {
-    const sw = ssw[i] * invMaxSw;
-    ssw[i] = sw;
+    const sw = sws[i] * invMaxSw;
+    sws[i] = sw;
     const w = sw * sw;
     S += w;
-    sE += w * sxE[i];
-    sL += w * sxL[i];
-    sY += w * sy[i];
-    const noise = NOISE_FLOOR * (1 + Math.abs(sy[i]));
+    sE += w * xEs[i];
+    sL += w * xLs[i];
+    sY += w * ys[i];
+    const noise = NOISE_FLOOR * (1 + Math.abs(ys[i]));
     rssFloor += w * noise * noise;
   }
   const distinctT = third ? 3 : Number.isNaN(secondT) ? 1 : 2;
@@ -224,10 +229,10 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   let r22 = 0;
   let nL = 0;
   for (let i = 0; i < n; i++) {
-    const sw = ssw[i];
-    let a = oneT ? 0 : sw * (sxE[i] - mE);
-    let b = oneT ? 0 : sw * (sxL[i] - mL);
-    let c = sw * (sy[i] - mY);
+    const sw = sws[i];
+    let a = oneT ? 0 : sw * (xEs[i] - mE);
+    let b = oneT ? 0 : sw * (xLs[i] - mL);
+    let c = sw * (ys[i] - mY);
     nL += b * b;
     // Givens rotations (Golub & Van Loan 2013, Alg. 5.1.3); entries are O(1) here, so √(x² + y²)
     // is safe and much faster than Math.hypot.
