@@ -603,7 +603,7 @@ describe("consensus: who carries the consensus", () => {
     const { buildRows: build, fitModel: fit, shareDirection, shareVectors } = await import("@/lib/kinetics/consensus-fit");
     const normal = makeNormal(43);
     const sets = [makeSet("a", normal), makeSet("b", normal, { n: 8, sigma: 0.05 }), computedSet("calc", normal)];
-    const supports = sets.map((s, j) => summariseDataset({ id: s.id, points: s.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15));
+    const supports = sets.map((s) => summariseDataset({ id: s.id, points: s.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15));
     const rows = build(supports, 298.15);
     const blocks = [0, 1, 2];
     for (const q of [2, 3] as const) {
