@@ -7,6 +7,8 @@ export interface SeriesPoints {
   points: { T: number; lnk: number }[];
   /** Drawn hollow and grey when left out of the consensus (e.g. a suspected unit mistake). */
   excluded?: boolean;
+  /** Off the consensus of the others somewhere in its range (named so in the legend). */
+  off?: boolean;
 }
 
 const shapes = ["circle", "square", "triangle", "diamond", "star", "cross", "wye"] as const;
@@ -100,7 +102,7 @@ export function ConsensusPlot({
               <Scatter
                 key={s.label}
                 xAxisId="inv"
-                name={s.excluded ? `${s.label} (left out)` : s.label}
+                name={s.excluded ? `${s.label} (left out)` : s.off ? `${s.label} (off the others)` : s.label}
                 data={s.points.map((p) => ({ x: 1000 / p.T, y: p.lnk }))}
                 dataKey="y"
                 shape={shapes[i % shapes.length]}
@@ -112,7 +114,8 @@ export function ConsensusPlot({
         </ResponsiveContainer>
       </div>
       <figcaption className="text-xs text-muted">
-        Each dataset has its own marker shape. Shaded: 95 % band of the consensus, including the spread between datasets.
+        Each dataset has its own marker shape. Shaded: 95 % band of the consensus, including the spread between datasets, drawn only over
+        the temperatures the datasets cover.
       </figcaption>
     </figure>
   );

@@ -1,55 +1,92 @@
 /**
- * Consensus expression for one reaction from several datasets, with a between-dataset
- * (random-effects) variance component.
+ * Consensus expression for one reaction from several datasets: a two-stage random-effects model.
  *
- * Model: ln k_ij = f(T_ij; β) + u_j + ε_ij, with u_j ~ N(0, τ²) the offset of dataset j and
- * ε_ij ~ N(0, σ_ij²) the scatter within it; f is Arrhenius (ln A − Ea/RT) or modified Arrhenius
- * (ln A + n ln(T/T0) − Ea/RT).
+ * Stage 1 (consensus-support.ts). Each dataset is summarised by its own fit — the model its own
+ * analysis prefers — as fitted ln k at support temperatures inside its own measured range (both
+ * ends and the middle in 1/T), with their covariance V_j (from the modified fit whenever it is
+ * determined, so an undetected curvature is not ruled out). A dataset therefore weighs by its
+ * information, not by its number of points, and never speaks outside its range. One
+ * temperature: one support value (weighted mean ln k) with its variance; two temperatures: the
+ * Arrhenius line through them (both ends). Without stated uncertainties and without spare
+ * points, a dataset borrows the pooled residual variance of the others.
  *
- * Method, in order:
- * 1. Within-dataset variances: σ_ij = sigmaLnK when every point of dataset j states one;
- *    otherwise one σ_j per dataset, the residual SD of the dataset's own Arrhenius fit (the SD
- *    about its mean when it has one temperature), pooled over such datasets when a dataset has no
- *    spare points, never below 0.01 (1 %) and 0.1 when nothing can be estimated.
- * 2. One pass over the points builds, per dataset, weighted means and the R factor of its centred
- *    rows by Givens rotations (Golub & Van Loan 2013, §5.1.8–5.1.9): O(1) memory per dataset,
- *    no n×p matrix is ever formed and the normal equations are never used.
- * 3. τ² by the DerSimonian–Laird moment estimator (DerSimonian & Laird 1986, Control. Clin.
- *    Trials 7:177) applied to the dataset offsets about the fixed-effect (τ² = 0) fit.
- * 4. The random-effects GLS fit, min (y − Xβ)ᵀV⁻¹(y − Xβ) with V = diag(σ²) + τ²·blocks of 11ᵀ,
- *    solved exactly by quasi-demeaning each dataset with θ_j = 1 − 1/√(1 + τ²S_j), S_j = Σ 1/σ_ij²
- *    (the random-effects transformation of Fuller & Battese 1974; Wooldridge 2010, §10.7).
- *    Covariance (XᵀV⁻¹X)⁻¹: variances are treated as known, as in DerSimonian–Laird.
- * 5. Offsets: d_j = weighted mean of ln k_ij − f(T_ij; β̂) in dataset j (reported in log10).
- *    z-score: the externally standardised offset of Viechtbauer & Cheung (2010, Res. Synth.
- *    Methods 1:112), z_j = (d_j − μ̂₋ⱼ)/√(v_j + τ̂²₋ⱼ + Var μ̂₋ⱼ), v_j = 1/S_j, from a DL
- *    meta-analysis of the other datasets' offsets (curve shape held at the consensus).
- *    |z_j| > 2 flags the dataset as off the consensus.
- * 6. unit_suspect: |d_j − μ̂₋ⱼ| in log10 within 0.15 of a unit-mistake factor for the order m:
- *    N_A^(m−1), 10^(3(m−1)), 10^(6(m−1)), (N_A/10³)^(m−1), (N_A/10⁶)^(m−1). Such datasets are
- *    left out of the consensus (and the fit repeated) as long as one dataset remains.
- * 7. Bands and uncertainty factors include τ²: ln k̂(T) ± 1.96·√(xᵀCx + τ²), f(T) = exp(1.96·√(…)),
- *    normal quantile as in DerSimonian–Laird.
- * The preferred expression is the modified one when its n differs from 0 by more than 1.96 se.
+ * Stage 2 (consensus-fit.ts, consensus-meta.ts). The consensus curve, Arrhenius
+ * ln k = ln A − Ea/(RT) and, where the support temperatures span at least a factor 1.5 in T (3
+ * distinct), modified Arrhenius ln k = ln A + n ln(T/T0) − Ea/(RT), by generalised
+ * least squares on all support values with covariance V_j + τ²·I per dataset; τ² is the
+ * between-dataset variance of ln k (any shape the expression cannot follow included), estimated
+ * by the DerSimonian–Laird moment estimator for meta-regression (DerSimonian & Laird 1986;
+ * Viechtbauer 2010, J. Stat. Softw. 36(3)); covariance of the parameters (FᵀWF)⁻¹, variances
+ * treated as known. Modified Arrhenius is preferred when |n| > 1.96·se(n).
+ *
+ * Disagreement is a curve. For each dataset j: the consensus of the other datasets, built by the
+ * same rules (τ²₋ⱼ re-estimated), and at comparison temperatures spread over the part of j's
+ * range the others cover (both ends and the middle in 1/T, two more when it spans more than a
+ * factor 2) the ratio k_j(T)/k₋ⱼ(T) with z = (ln k_j − ln k₋ⱼ)/√(var_j + τ²₋ⱼ + var₋ⱼ), the
+ * externally standardised residual of Viechtbauer & Cheung (2010, Res. Synth. Methods 1:112)
+ * taken along the curve. Off the consensus: any |z| above the Bonferroni bound z_{1−0.05/(2m)}
+ * over its m comparison temperatures (1.96 for one, 2.39 for three). Whether its activation
+ * energy differs: the difference of the log ratios between the cold and the hot end against its
+ * standard error (|z| > 1.96). A dataset that agrees everywhere is never flagged, however precise.
+ *
+ * unit_suspect: the mean log10 ratio within 0.15 of a unit-mistake factor for the order m
+ * (N_A^(m−1), 10^(3(m−1)), 10^(6(m−1)), (N_A/10³)^(m−1), (N_A/10⁶)^(m−1)); such a dataset is
+ * left out and the consensus refitted, the largest mistake first, as long as one dataset remains.
+ *
+ * Uncertainty factor f(T) = exp(1.96·√(var ln k̂(T) + τ²)) over the temperatures the included
+ * data cover; outside them it is not given (extrapolation).
  */
 import { AnalysisError } from "./analysis-error";
-import { AVOGADRO, GAS_CONSTANT, REFERENCE_TEMPERATURE } from "./constants";
+import {
+  buildRows,
+  fitModel,
+  leaveOneOutFits,
+  predict,
+  predictDifferenceVariance,
+  shareDirection,
+  shareVectors,
+  toPublished,
+  type ModelFit,
+  type Rows,
+} from "./consensus-fit";
+import {
+  assignPooledScales,
+  evaluateOwnFit,
+  ownDifferenceVariance,
+  summariseDataset,
+  Z95,
+  type DatasetSupport,
+  type OwnModel,
+  type ScaleSource,
+} from "./consensus-support";
+import { describeComparison, describeFactor, describeSlope, describeT, listTemperatures, matchUnitMistake } from "./consensus-words";
+import { REFERENCE_TEMPERATURE } from "./constants";
+import { quantileNormal } from "./distributions";
 import { assertReactionOrder, checkPoints, describe } from "./validate-points";
 import type { RatePoint, ReactionOrder, Severity } from "./types";
+
+export { matchUnitMistake, UNIT_SUSPECT_WINDOW } from "./consensus-words";
+export { combineEffectsDL, type CombinedEffects } from "./consensus-meta";
 
 /** One dataset of a reaction, in canonical units. */
 export interface ConsensusDataset {
   id: string;
   points: readonly RatePoint[];
   order: ReactionOrder;
+  /** Set to leave the dataset out of the consensus (the reason is shown); it is still compared with it. */
+  excludedReason?: string | null;
+  /** How the words name it (default "Dataset <id>"). */
+  label?: string;
 }
 
 export interface ConsensusOptions {
   /** Reference temperature of the modified Arrhenius term, K (default 298.15). */
   T0?: number;
+  /** Only points with Tmin ≤ T ≤ Tmax (K) enter; either end may be left open. */
+  window?: { Tmin?: number | null; Tmax?: number | null } | null;
 }
 
-export type ConsensusFlagCode = "off_consensus" | "unit_suspect" | "few_datasets";
+export type ConsensusFlagCode = "off_consensus" | "unit_suspect" | "few_datasets" | "datasets_disagree" | "not_compared";
 
 export interface ConsensusFlag {
   code: ConsensusFlagCode;
@@ -58,26 +95,30 @@ export interface ConsensusFlag {
   datasetIds?: string[];
 }
 
-/** Uncertainty factor f: k̂/f … k̂·f covers 95 % (between-dataset variance included). */
+/** Uncertainty factor f: k̂/f … k̂·f covers 95 %, between-dataset variance included. */
 export interface UncertaintyFactor {
   /** K */
   T: number;
-  f: number;
-  /** True when T lies outside the temperatures of the data. */
-  extrapolated: boolean;
+  /** Null only if it overflows a double. */
+  f: number | null;
+  /** Included datasets whose range contains T. */
+  datasets: number;
 }
 
 interface ConsensusFitCommon {
   covariance: number[][];
   /** Between-dataset variance of ln k (DerSimonian–Laird). */
   tau2: number;
-  /** Cochran's Q of the offsets about the fixed-effect fit. */
+  /** Generalised Cochran's Q of the support values about the fixed-effect fit, on dof = values − coefficients. */
   q: number;
-  /** Higgins I² = max(0, (Q − df)/Q), share of offset variance due to between-dataset differences. */
+  dof: number;
+  /** Higgins I² = max(0, (Q − dof)/Q). */
   i2: number;
-  /** 95 % band of ln k including τ², 50 temperatures evenly spaced in 1/T over the data. */
+  /** Support values the fit rests on. */
+  supportValues: number;
+  /** 95 % band of ln k including τ², 50 temperatures evenly spaced in 1/T over the covered range. */
   band: { T: number[]; lnk: number[]; lower: number[]; upper: number[] };
-  /** At 298.15 K and at both ends of the range. */
+  /** f(T) at 7 temperatures evenly spaced in 1/T over the covered range (and 298.15 K when inside it). */
   uncertaintyFactor: UncertaintyFactor[];
 }
 
@@ -91,29 +132,86 @@ export interface ConsensusModifiedArrhenius extends ConsensusFitCommon {
   se: { lnA: number; n: number; Ea: number };
 }
 
-/** How one dataset sits against the consensus (preferred expression). */
+/** One fitted value of a dataset's own fit. */
+export interface SupportValue {
+  /** K */
+  T: number;
+  lnk: number;
+  se: number;
+}
+
+/** The dataset against the consensus of the others at one temperature. */
+export interface ComparisonPoint {
+  /** K */
+  T: number;
+  /** k_j(T)/k₋ⱼ(T); null only if it overflows a double. */
+  ratio: number | null;
+  log10Ratio: number;
+  z: number;
+  agrees: boolean;
+}
+
+/** How one dataset sits against the consensus of the others, along its range. */
+export interface Disagreement {
+  /** Other datasets in that consensus. */
+  comparedWith: number;
+  model: "arrhenius" | "modified_arrhenius";
+  /** τ² of the others' consensus. */
+  tau2: number;
+  /** Part of the dataset's range the others cover; null when they cover none of it. */
+  range: { Tmin: number; Tmax: number } | null;
+  points: ComparisonPoint[];
+  /** Bonferroni bound on |z| over the comparison temperatures (family level 0.05). */
+  bound: number;
+  off: boolean;
+  /** Its activation energy against the others' ("same" when the difference is not significant); null with one temperature. */
+  activationEnergy: "lower" | "higher" | "same" | null;
+  /** z of the difference of log ratios between the cold and the hot end. */
+  slopeZ: number | null;
+  /** Mean log10 ratio over the comparison temperatures (over its support temperatures when none). */
+  meanOffsetLog10: number;
+  /** The other dataset with the largest share in the others' consensus at the comparison temperature with the largest |z|, when that share is over 2/3. */
+  restsOn: { id: string; share: number } | null;
+}
+
+/** One dataset: what it brought (stage 1) and how it compares. */
 export interface ConsensusMember {
   id: string;
+  /** Points used (inside the window). */
   n: number;
-  /** Whether the dataset's own sigmaLnK were used. */
+  /** Points given. */
+  pointsGiven: number;
+  Tmin: number | null;
+  Tmax: number | null;
   weighted: boolean;
-  /** σ(ln k) assumed for unweighted datasets; null for weighted ones. */
-  sigmaLnK: number | null;
-  /** Whether it contributes to the consensus (unit-suspect datasets do not). */
   included: boolean;
-  /** Mean log10 residual versus the consensus. */
-  offsetLog10: number;
-  /** Offset versus the consensus of the other datasets, log10; null with one dataset. */
-  offsetFromOthersLog10: number | null;
-  /** Externally standardised offset; null with fewer than 2 other datasets. */
-  zScore: number | null;
+  /** Why it is not in the consensus; null when it is. */
+  leftOut: string | null;
+  /** The own fit that summarises it. */
+  model: OwnModel | null;
+  /** σ(ln k) per point behind its variance when no uncertainties are stated. */
+  sigmaLnK: number | null;
+  scaleSource: ScaleSource | null;
+  support: SupportValue[];
+  supportCovariance: number[][];
+  disagreement: Disagreement | null;
+  /** Its share in the consensus at the middle of its range (in 1/T); null when left out. */
+  share: number | null;
+  unitSuspect: string | null;
+  /** The comparison in one sentence. */
+  verdict: string;
 }
 
 export interface ConsensusResult {
   order: ReactionOrder;
   T0: number;
+  window: { Tmin: number | null; Tmax: number | null };
+  /** Datasets given, datasets in the consensus, their points and support values. */
   datasets: number;
+  included: number;
   points: number;
+  supportValues: number;
+  /** Temperatures covered by the included datasets. */
   range: { Tmin: number; Tmax: number };
   method: string;
   arrhenius: ConsensusArrhenius;
@@ -123,50 +221,40 @@ export interface ConsensusResult {
   flags: ConsensusFlag[];
 }
 
-/** |z| above which a dataset is flagged as off the consensus. */
-export const OFF_CONSENSUS_Z = 2;
-/** Window (log10 units) around a unit-mistake factor. */
-export const UNIT_SUSPECT_WINDOW = 0.15;
-/** Smallest σ(ln k) assumed for a dataset without stated uncertainties. */
-export const MIN_DATASET_SIGMA = 0.01;
-/** σ(ln k) assumed when no dataset has spare points to estimate its scatter. */
-export const DEFAULT_DATASET_SIGMA = 0.1;
-const Z95 = 1.959963984540054;
+/** Family-wise level of the off-consensus test. */
+export const OFF_CONSENSUS_ALPHA = 0.05;
+/** Smallest Tmax/Tmin of the support temperatures for a modified Arrhenius consensus. */
+export const MODIFIED_MIN_SPAN = 1.5;
+/** Up to this many included datasets every leave-one-out fit is redone at its own τ². */
+export const EXACT_LEAVE_ONE_OUT_LIMIT = 400;
+/** Share above which the others' consensus is said to rest on one dataset. */
+const DOMINANT_SHARE = 2 / 3;
 const BAND_POINTS = 50;
-const LOO_EXACT_LIMIT = 5000;
+const FACTOR_POINTS = 7;
 
-interface DatasetSummary {
-  id: string;
-  n: number;
-  weighted: boolean;
-  sigma: number | null;
-  S: number; // Σ w
-  mE: number;
-  mL: number;
-  mY: number;
-  Tmin: number;
-  Tmax: number;
-  // Within-dataset R over centred columns [xE, xL, y] (upper triangle), weights applied.
-  r: Float64Array;
+interface Fits {
+  arr: ModelFit;
+  mod: ModelFit | null;
+  preferred: ModelFit;
 }
 
-interface ModelFit {
-  p: number;
-  beta: Float64Array; // [lnA, Ea] or [lnA, Ea, n]
-  cov: Float64Array;
-  tau2: number;
-  q: number;
-  i2: number;
-  offsets: Float64Array;
+interface Others {
+  fit: ModelFit;
+  /** The datasets in the consensus, one of which (skip) may be the dataset compared. */
+  blocks: readonly number[];
+  skip: number;
+  count: number;
+  Tmin: number;
+  Tmax: number;
 }
 
 /**
- * Consensus Arrhenius and modified Arrhenius expressions over several datasets of one reaction,
- * with a DerSimonian–Laird between-dataset variance (see the module comment for the method).
- * Linear in the number of points; throws {@link AnalysisError} on invalid input.
+ * Two-stage random-effects consensus of several datasets of one reaction (see the module
+ * comment). Throws {@link AnalysisError} on invalid input.
  *
  * @param datasets datasets with points in canonical units (T in K) and a common reaction order
- * @example consensus([{ id: "a", order: 2, points }, { id: "b", order: 2, points: others }]).arrhenius.params.Ea
+ * @param options T0 of the modified term; a temperature window
+ * @example consensus([{ id: "a", order: 2, points }, { id: "b", order: 2, points: others }]).members[1].verdict
  */
 export function consensus(datasets: readonly ConsensusDataset[], options: ConsensusOptions = {}): ConsensusResult {
   if (!Array.isArray(datasets) || datasets.length === 0) {
@@ -175,14 +263,13 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
   const order = datasets[0].order;
   assertReactionOrder(order, datasets[0].id);
   const T0 = options.T0 ?? REFERENCE_TEMPERATURE;
-  if (!Number.isFinite(T0) || T0 <= 0) {
+  if (typeof T0 !== "number" || !Number.isFinite(T0) || T0 <= 0) {
     throw new AnalysisError("invalid_reference_temperature", `T0 must be a positive temperature in kelvin (got ${describe(T0)}).`);
   }
+  const window = checkWindow(options.window);
 
-  const summaries: DatasetSummary[] = [];
-  let totalPoints = 0;
-  let Tmin = Infinity;
-  let Tmax = -Infinity;
+  const seen = new Set<string>();
+  const supports: (DatasetSupport | null)[] = [];
   for (const ds of datasets) {
     assertReactionOrder(ds.order, ds.id);
     if (ds.order !== order) {
@@ -192,509 +279,418 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
         { datasetId: ds.id },
       );
     }
-    const { allSigma } = checkPoints(ds.points, ds.id);
-    if (ds.points.length === 0) {
-      throw new AnalysisError("too_few_points", `Dataset ${ds.id} has no points.`, { datasetId: ds.id });
-    }
-    const s = summariseDataset(ds, allSigma, T0);
-    summaries.push(s);
-    totalPoints += s.n;
-    Tmin = Math.min(Tmin, s.Tmin);
-    Tmax = Math.max(Tmax, s.Tmax);
-  }
-  if (!(Tmax > Tmin)) {
-    throw new AnalysisError(
-      "too_few_temperatures",
-      `All points are at ${Tmin} K; a consensus k(T) needs at least two different temperatures.`,
+    if (seen.has(ds.id)) throw new AnalysisError("invalid_input", `Dataset ${ds.id} is given twice.`, { datasetId: ds.id });
+    seen.add(ds.id);
+    if (!Array.isArray(ds.points)) checkPoints(ds.points, ds.id);
+    if (ds.points.length === 0) throw new AnalysisError("too_few_points", `Dataset ${ds.id} has no points.`, { datasetId: ds.id });
+    supports.push(
+      summariseDataset({ id: ds.id, points: ds.points, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } }, T0),
     );
   }
-  assignDatasetSigmas(summaries);
+  assignPooledScales(supports.filter((s): s is DatasetSupport => s !== null));
 
-  const included = summaries.map(() => true);
-  let arr = fitModel(summaries, included, 2);
-  if (!arr)
-    throw new AnalysisError("too_few_temperatures", "The temperatures are too close together to fit a consensus Arrhenius expression.");
-  let mod = fitModel(summaries, included, 3);
-  let preferModified = isModifiedPreferred(mod);
-  let loo = leaveOneOut(summaries, included, preferModified ? mod!.offsets : arr.offsets);
-
-  // Datasets whose offset matches a unit mistake are left out and the consensus refitted once.
-  const suspects = summaries.map((s, j) => (loo.fromOthers[j] === null ? null : matchUnitMistake(loo.fromOthers[j]! / Math.LN10, order)));
-  const nSuspect = suspects.filter((m) => m !== null).length;
-  if (nSuspect > 0 && nSuspect < summaries.length) {
-    suspects.forEach((m, j) => {
-      if (m) included[j] = false;
-    });
-    arr = fitModel(summaries, included, 2) ?? arr;
-    mod = fitModel(summaries, included, 3);
-    preferModified = isModifiedPreferred(mod);
-    loo = leaveOneOut(summaries, included, preferModified ? mod!.offsets : arr.offsets);
+  const J = datasets.length;
+  const leftOut: (string | null)[] = datasets.map((ds, j) =>
+    !supports[j] ? "no points inside the temperature window" : ds.excludedReason ? ds.excludedReason : null,
+  );
+  if (supports.every((s) => !s)) {
+    throw new AnalysisError("too_few_points", `No dataset has points between ${windowWords(window)}.`);
   }
-  const chosen = preferModified ? mod! : arr;
-
-  const members: ConsensusMember[] = summaries.map((s, j) => ({
-    id: s.id,
-    n: s.n,
-    weighted: s.weighted,
-    sigmaLnK: s.weighted ? null : s.sigma,
-    included: included[j],
-    offsetLog10: chosen.offsets[j] / Math.LN10,
-    offsetFromOthersLog10: loo.fromOthers[j] === null ? null : loo.fromOthers[j]! / Math.LN10,
-    zScore: loo.z[j],
-  }));
-
-  const flags: ConsensusFlag[] = [];
-  const nIncluded = included.filter(Boolean).length;
-  if (nIncluded < 3) {
-    flags.push({
-      code: "few_datasets",
-      severity: "info",
-      message: `Only ${nIncluded} dataset${nIncluded === 1 ? "" : "s"} in the consensus: the between-dataset variance and the off-consensus check need at least 3 to mean much.`,
-    });
+  if (leftOut.every((r) => r !== null)) {
+    throw new AnalysisError("invalid_input", "Every dataset is left out of the consensus; at least one must be in it.");
   }
-  suspects.forEach((m, j) => {
-    if (!m) return;
-    flags.push({
-      code: "unit_suspect",
-      severity: "warn",
-      message: `Dataset ${summaries[j].id} is ${describeFactor(loo.fromOthers[j]! / Math.LN10)} ${loo.fromOthers[j]! > 0 ? "above" : "below"} the other datasets, close to ${m}: a likely unit mistake. It was ${included[j] ? "kept in" : "left out of"} the consensus; check its units.`,
-      datasetIds: [summaries[j].id],
-    });
+  const rows = buildRows(supports, T0);
+  const unitSuspect: (string | null)[] = new Array(J).fill(null);
+
+  let fits: Fits;
+  let comparisons: (Disagreement | null)[];
+  let others: (Others | null)[];
+  for (;;) {
+    const included = range(J).filter((j) => leftOut[j] === null);
+    fits = fitAll(rows, supports, included);
+    others = leaveOneOut(rows, supports, included, fits);
+    const shares = new ShareCache(rows);
+    comparisons = range(J).map((j) => compare(rows, supports, others[j], j, datasets, shares));
+    // The largest unit mistake among the included datasets leaves first; the rest are judged again.
+    let worst = -1;
+    for (const j of included) {
+      const d = comparisons[j];
+      if (!d || !matchUnitMistake(d.meanOffsetLog10, order)) continue;
+      if (worst < 0 || Math.abs(d.meanOffsetLog10) > Math.abs(comparisons[worst]!.meanOffsetLog10)) worst = j;
+    }
+    if (worst < 0 || included.length < 2) break;
+    unitSuspect[worst] = matchUnitMistake(comparisons[worst]!.meanOffsetLog10, order);
+    leftOut[worst] = `a likely unit mistake (${unitSuspect[worst]})`;
+  }
+  for (let j = 0; j < J; j++) {
+    const d = comparisons[j];
+    if (!unitSuspect[j] && d && leftOut[j] !== null) unitSuspect[j] = matchUnitMistake(d.meanOffsetLog10, order);
+  }
+
+  const included = range(J).filter((j) => leftOut[j] === null);
+  const covered = {
+    Tmin: Math.min(...included.map((j) => supports[j]!.Tmin)),
+    Tmax: Math.max(...included.map((j) => supports[j]!.Tmax)),
+  };
+  const coverage = (T: number) =>
+    included.filter((j) => supports[j]!.Tmin <= T * (1 + 1e-12) && T <= supports[j]!.Tmax * (1 + 1e-12)).length;
+
+  const label = (j: number) => datasets[j].label ?? `Dataset ${datasets[j].id}`;
+  const shareAt = new Map<number, number>();
+  const g = shareVectors(rows, included, fits.preferred.weightTau2);
+  for (const j of included) {
+    const s = supports[j]!;
+    const a = shareDirection(rows, fits.preferred, 2 / (1 / s.Tmin + 1 / s.Tmax));
+    shareAt.set(j, a[0] * g[3 * j] + a[1] * g[3 * j + 1] + a[2] * g[3 * j + 2]);
+  }
+  const members: ConsensusMember[] = datasets.map((ds, j) => {
+    const s = supports[j];
+    const d = comparisons[j];
+    return {
+      id: ds.id,
+      n: s?.n ?? 0,
+      pointsGiven: ds.points.length,
+      Tmin: s?.Tmin ?? null,
+      Tmax: s?.Tmax ?? null,
+      weighted: s?.weighted ?? false,
+      included: leftOut[j] === null,
+      leftOut: leftOut[j],
+      model: s?.fit.model ?? null,
+      sigmaLnK: s?.sigmaLnK ?? null,
+      scaleSource: s?.scaleSource ?? null,
+      support: s ? s.temps.map((T, a) => ({ T, lnk: s.lnk[a], se: Math.sqrt(s.cov[a * s.temps.length + a]) })) : [],
+      supportCovariance: s ? s.temps.map((_, a) => s.temps.map((__, b) => s.cov[a * s.temps.length + b])) : [],
+      disagreement: d,
+      share: shareAt.get(j) ?? null,
+      unitSuspect: unitSuspect[j],
+      verdict: verdictOf(label, j, s, d, others[j], leftOut[j], unitSuspect[j], included.length - (leftOut[j] === null ? 1 : 0), datasets),
+    };
   });
-  const off = members.filter((m) => m.zScore !== null && Math.abs(m.zScore) > OFF_CONSENSUS_Z && m.included);
-  for (const m of off) {
-    flags.push({
-      code: "off_consensus",
-      severity: "warn",
-      message: `Dataset ${m.id} lies ${describeFactor(m.offsetFromOthersLog10 ?? m.offsetLog10)} ${(m.offsetFromOthersLog10 ?? m.offsetLog10) > 0 ? "above" : "below"} the other datasets (z = ${m.zScore!.toFixed(1)}, beyond ±${OFF_CONSENSUS_Z}).`,
-      datasetIds: [m.id],
-    });
-  }
 
-  const range = { Tmin, Tmax };
+  const flags = collectFlags(members, included.length);
+  const points = included.reduce((acc, j) => acc + supports[j]!.n, 0);
   return {
     order,
     T0,
-    datasets: summaries.length,
-    points: totalPoints,
-    range,
+    window,
+    datasets: J,
+    included: included.length,
+    points,
+    supportValues: fits.arr.rows,
+    range: covered,
     method:
-      "Random-effects GLS (DerSimonian–Laird τ², quasi-demeaned Givens QR); covariance (XᵀV⁻¹X)⁻¹; bands and f(T) at 95 % including τ².",
-    arrhenius: buildArrhenius(arr, range, T0),
-    modifiedArrhenius: mod ? buildModified(mod, range, T0) : null,
-    preferred: preferModified ? "modified_arrhenius" : "arrhenius",
+      "Two-stage random effects: each dataset's own fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range; bands and f(T) at 95 % including τ².",
+    arrhenius: buildArrhenius(rows, fits.arr, covered, coverage),
+    modifiedArrhenius: fits.mod ? buildModified(rows, fits.mod, covered, coverage, T0) : null,
+    preferred: fits.preferred.q === 3 ? "modified_arrhenius" : "arrhenius",
     members,
     flags,
   };
 }
 
-/** One pass over a dataset: weighted means, then Givens QR of its centred, weighted rows. */
-function summariseDataset(ds: ConsensusDataset, weighted: boolean, T0: number): DatasetSummary {
-  const pts = ds.points;
-  const n = pts.length;
-  const invR = 1 / GAS_CONSTANT;
-  let S = 0;
-  let sE = 0;
-  let sL = 0;
-  let sY = 0;
-  let Tmin = Infinity;
-  let Tmax = -Infinity;
-  const xE = new Float64Array(n);
-  const xL = new Float64Array(n);
-  const y = new Float64Array(n);
-  const w = weighted ? new Float64Array(n) : null;
-  for (let i = 0; i < n; i++) {
-    const { T, k } = pts[i];
-    const wi = w ? 1 / ((pts[i].sigmaLnK as number) * (pts[i].sigmaLnK as number)) : 1;
-    if (w) w[i] = wi;
-    xE[i] = -invR / T;
-    xL[i] = Math.log(T / T0);
-    y[i] = Math.log(k);
-    S += wi;
-    sE += wi * xE[i];
-    sL += wi * xL[i];
-    sY += wi * y[i];
-    if (T < Tmin) Tmin = T;
-    if (T > Tmax) Tmax = T;
-  }
-  const mE = sE / S;
-  const mL = sL / S;
-  const mY = sY / S;
-  const oneT = Tmin === Tmax; // centred temperature columns are exactly zero, not rounding noise
-  let r00 = 0;
-  let r01 = 0;
-  let r02 = 0;
-  let r11 = 0;
-  let r12 = 0;
-  let r22 = 0;
-  for (let i = 0; i < n; i++) {
-    const sw = w ? Math.sqrt(w[i]) : 1;
-    let a = oneT ? 0 : sw * (xE[i] - mE);
-    let b = oneT ? 0 : sw * (xL[i] - mL);
-    let c = sw * (y[i] - mY);
-    // Givens rotation of the new row into R (Golub & Van Loan 2013, Alg. 5.1.3).
-    if (a !== 0) {
-      const rho = Math.sqrt(r00 * r00 + a * a);
-      const cs = r00 / rho;
-      const sn = a / rho;
-      r00 = rho;
-      let t = r01;
-      r01 = cs * t + sn * b;
-      b = cs * b - sn * t;
-      t = r02;
-      r02 = cs * t + sn * c;
-      c = cs * c - sn * t;
-      a = 0;
+function checkWindow(w: ConsensusOptions["window"]): { Tmin: number | null; Tmax: number | null } {
+  const Tmin = w?.Tmin ?? null;
+  const Tmax = w?.Tmax ?? null;
+  for (const [name, v] of [
+    ["Tmin", Tmin],
+    ["Tmax", Tmax],
+  ] as const) {
+    if (v !== null && (typeof v !== "number" || !Number.isFinite(v) || v <= 0)) {
+      throw new AnalysisError("invalid_input", `The window's ${name} must be a positive temperature in kelvin (got ${describe(v)}).`);
     }
-    if (b !== 0) {
-      const rho = Math.sqrt(r11 * r11 + b * b);
-      const cs = r11 / rho;
-      const sn = b / rho;
-      r11 = rho;
-      const t = r12;
-      r12 = cs * t + sn * c;
-      c = cs * c - sn * t;
-    }
-    r22 = Math.sqrt(r22 * r22 + c * c);
   }
-  return {
-    id: ds.id,
-    n,
-    weighted,
-    sigma: null,
-    S,
-    mE,
-    mL,
-    mY,
-    Tmin,
-    Tmax,
-    r: Float64Array.of(r00, r01, r02, r11, r12, r22),
-  };
+  if (Tmin !== null && Tmax !== null && !(Tmin < Tmax)) {
+    throw new AnalysisError("invalid_input", `The window's Tmin (${Tmin} K) must be below its Tmax (${Tmax} K).`);
+  }
+  return { Tmin, Tmax };
 }
 
-/** Step 1 of the method: σ_j for datasets without stated uncertainties; rescale their R and S. */
-function assignDatasetSigmas(summaries: DatasetSummary[]): void {
-  let pooledRss = 0;
-  let pooledDof = 0;
-  const own: (number | null)[] = summaries.map((s) => {
-    if (s.weighted) return null;
-    // Own Arrhenius fit: RSS = r12² + r22² (the xL column dropped); one temperature → SD about the mean.
-    const dof = s.n - (s.Tmin === s.Tmax ? 1 : 2);
-    if (dof <= 0) return null;
-    const rss = s.r[4] * s.r[4] + s.r[5] * s.r[5];
-    pooledRss += rss;
-    pooledDof += dof;
-    return rss / dof;
-  });
-  const pooled = pooledDof > 0 ? pooledRss / pooledDof : DEFAULT_DATASET_SIGMA ** 2;
-  summaries.forEach((s, j) => {
-    if (s.weighted) return;
-    const variance = Math.max(own[j] ?? pooled, MIN_DATASET_SIGMA ** 2);
-    s.sigma = Math.sqrt(variance);
-    const f = 1 / s.sigma;
-    for (let k = 0; k < 6; k++) s.r[k] *= f;
-    s.S = s.n / variance;
-  });
+function windowWords(w: { Tmin: number | null; Tmax: number | null }): string {
+  return `${w.Tmin ?? 0} and ${w.Tmax ?? "∞"} K`;
 }
 
-/** Upper-triangular accumulator of rows by Givens rotations, m columns (last = response). */
-class GivensAccumulator {
-  readonly r: Float64Array;
-  readonly colNorm2: Float64Array;
-  private readonly row: Float64Array;
+function range(n: number): number[] {
+  return Array.from({ length: n }, (_, i) => i);
+}
 
-  constructor(readonly m: number) {
-    this.r = new Float64Array(m * m);
-    this.colNorm2 = new Float64Array(m);
-    this.row = new Float64Array(m);
-  }
-
-  add(values: ArrayLike<number>, scale: number): void {
-    const { m, r, row, colNorm2 } = this;
-    for (let j = 0; j < m; j++) {
-      row[j] = values[j] * scale;
-      colNorm2[j] += row[j] * row[j];
+/** Support temperatures of the given datasets: distinct count and span, for the modified fit. */
+function supportsModified(supports: readonly (DatasetSupport | null)[], blocks: readonly number[]): boolean {
+  const temps = new Set<number>();
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const j of blocks) {
+    for (const T of supports[j]!.temps) {
+      temps.add(T);
+      lo = Math.min(lo, T);
+      hi = Math.max(hi, T);
     }
-    for (let k = 0; k < m; k++) {
-      const v = row[k];
-      if (v === 0) continue;
-      const d = r[k * m + k];
-      const rho = Math.sqrt(d * d + v * v);
-      const cs = d / rho;
-      const sn = v / rho;
-      r[k * m + k] = rho;
-      for (let j = k + 1; j < m; j++) {
-        const t = r[k * m + j];
-        r[k * m + j] = cs * t + sn * row[j];
-        row[j] = cs * row[j] - sn * t;
+  }
+  return temps.size >= 3 && hi / lo >= MODIFIED_MIN_SPAN;
+}
+
+function prefer(arr: ModelFit, mod: ModelFit | null): ModelFit {
+  if (!mod) return arr;
+  const se = Math.sqrt(mod.cov[2 * 3 + 2]);
+  return se > 0 && Math.abs(mod.beta[2] / se) > Z95 ? mod : arr;
+}
+
+function fitAll(rows: Rows, supports: readonly (DatasetSupport | null)[], included: number[]): Fits {
+  const arr = fitModel(rows, included, 2);
+  if (!arr) {
+    throw new AnalysisError(
+      "too_few_temperatures",
+      "The datasets in the consensus cover a single temperature; a consensus k(T) needs at least two different temperatures.",
+    );
+  }
+  const mod = supportsModified(supports, included) ? fitModel(rows, included, 3) : null;
+  return { arr, mod, preferred: prefer(arr, mod) };
+}
+
+/** The consensus of the others for every dataset (the full consensus for a dataset left out). */
+function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], included: number[], fits: Fits): (Others | null)[] {
+  const J = supports.length;
+  const out: (Others | null)[] = new Array(J).fill(null);
+  const hull = (blocks: number[]) => ({
+    Tmin: Math.min(...blocks.map((j) => supports[j]!.Tmin)),
+    Tmax: Math.max(...blocks.map((j) => supports[j]!.Tmax)),
+  });
+  const all = hull(included);
+  const inConsensus = new Set(included);
+  for (let j = 0; j < J; j++) {
+    if (supports[j] && !inConsensus.has(j)) out[j] = { fit: fits.preferred, blocks: included, skip: -1, count: included.length, ...all };
+  }
+  if (included.length < 2) return out;
+  const exact = included.length <= EXACT_LEAVE_ONE_OUT_LIMIT;
+  const arr = leaveOneOutFits(rows, included, 2, fits.arr, exact);
+  const mod = fits.mod ? leaveOneOutFits(rows, included, 3, fits.mod, exact) : null;
+  // Others' hull from prefix and suffix minima and maxima.
+  const m = included.length;
+  const preMin = new Array<number>(m + 1).fill(Infinity);
+  const preMax = new Array<number>(m + 1).fill(-Infinity);
+  const sufMin = new Array<number>(m + 1).fill(Infinity);
+  const sufMax = new Array<number>(m + 1).fill(-Infinity);
+  for (let i = 0; i < m; i++) {
+    preMin[i + 1] = Math.min(preMin[i], supports[included[i]]!.Tmin);
+    preMax[i + 1] = Math.max(preMax[i], supports[included[i]]!.Tmax);
+  }
+  for (let i = m - 1; i >= 0; i--) {
+    sufMin[i] = Math.min(sufMin[i + 1], supports[included[i]]!.Tmin);
+    sufMax[i] = Math.max(sufMax[i + 1], supports[included[i]]!.Tmax);
+  }
+  // Modified fit of the others: the same rule on their support temperatures.
+  const tempCount = new Map<number, number>();
+  for (const j of included) {
+    for (const T of supports[j]!.temps) tempCount.set(T, (tempCount.get(T) ?? 0) + 1);
+  }
+  const sortedTemps = [...tempCount.keys()].sort((a, b) => a - b);
+  for (let i = 0; i < m; i++) {
+    const j = included[i];
+    const a = arr[i];
+    if (!a) continue;
+    const own = supports[j]!.temps;
+    const onlyOwn = (T: number) => tempCount.get(T) === 1 && own.includes(T);
+    const distinct = tempCount.size - own.filter((T) => tempCount.get(T) === 1).length;
+    let lo = 0;
+    while (lo < sortedTemps.length && onlyOwn(sortedTemps[lo])) lo++;
+    let hi = sortedTemps.length - 1;
+    while (hi >= lo && onlyOwn(sortedTemps[hi])) hi--;
+    const span = hi > lo ? sortedTemps[hi] / sortedTemps[lo] : 1;
+    const modOk = mod && distinct >= 3 && span >= MODIFIED_MIN_SPAN;
+    const fit = prefer(a, modOk ? mod[i] : null);
+    out[j] = {
+      fit,
+      blocks: included,
+      skip: j,
+      count: m - 1,
+      Tmin: Math.min(preMin[i], sufMin[i + 1]),
+      Tmax: Math.max(preMax[i], sufMax[i + 1]),
+    };
+  }
+  return out;
+}
+
+const bonferroniBounds = new Map<number, number>();
+
+/** z_{1−α/(2m)}: the two-sided Bonferroni bound for m comparisons at family level α. */
+function bonferroniNormal(m: number): number {
+  let b = bonferroniBounds.get(m);
+  if (b === undefined) {
+    b = quantileNormal(1 - OFF_CONSENSUS_ALPHA / (2 * m));
+    bonferroniBounds.set(m, b);
+  }
+  return b;
+}
+
+/** Share vectors per τ² in the weights: one for every leave-one-out fit merged at the full τ². */
+class ShareCache {
+  private readonly byTau2 = new Map<number, { g: Float64Array; maxNorm: number }>();
+  constructor(private readonly rows: Rows) {}
+
+  /** The share vectors and the largest of their norms (a bound on any share by Cauchy–Schwarz). */
+  get(blocks: readonly number[], tau2: number): { g: Float64Array; maxNorm: number } {
+    let entry = this.byTau2.get(tau2);
+    if (!entry) {
+      // Rows of the dataset left out contribute to its own share only, which is never read.
+      const g = shareVectors(this.rows, blocks, tau2);
+      let max = 0;
+      for (const k of blocks) max = Math.max(max, g[3 * k] ** 2 + g[3 * k + 1] ** 2 + g[3 * k + 2] ** 2);
+      entry = { g, maxNorm: Math.sqrt(max) };
+      this.byTau2.set(tau2, entry);
+    }
+    return entry;
+  }
+}
+
+/** Comparison temperatures over [a, b]: both ends and the middle in 1/T, quartiles too beyond a factor 2. */
+function comparisonTemperatures(a: number, b: number): number[] {
+  if (!(b > a)) return [a];
+  const steps = b / a > 2 ? 4 : 2;
+  return Array.from({ length: steps + 1 }, (_, i) => (i === 0 ? a : i === steps ? b : 1 / (1 / a + ((1 / b - 1 / a) * i) / steps)));
+}
+
+function compare(
+  rows: Rows,
+  supports: readonly (DatasetSupport | null)[],
+  o: Others | null,
+  j: number,
+  datasets: readonly ConsensusDataset[],
+  shareCache: ShareCache,
+): Disagreement | null {
+  const s = supports[j];
+  if (!s || !o) return null;
+  const { fit } = o;
+  const a = Math.max(s.Tmin, o.Tmin);
+  const b = Math.min(s.Tmax, o.Tmax);
+  const overlap = a <= b;
+  const temps = overlap ? (s.fit.model === "single_temperature" ? [s.temps[0]] : comparisonTemperatures(a, b)) : s.temps;
+  const diffs = temps.map((T) => {
+    const own = evaluateOwnFit(s.fit, T);
+    const cons = predict(rows, fit, T);
+    const d = own.lnk - cons.lnk;
+    return { T, d, z: d / Math.sqrt(own.variance + fit.tau2 + cons.variance) };
+  });
+  const meanOffsetLog10 = diffs.reduce((acc, x) => acc + x.d, 0) / diffs.length / Math.LN10;
+  const m = overlap ? temps.length : 0;
+  const bound = bonferroniNormal(Math.max(1, m));
+  const points: ComparisonPoint[] = overlap
+    ? diffs.map(({ T, d, z }) => {
+        const ratio = Math.exp(d);
+        return { T, ratio: Number.isFinite(ratio) ? ratio : null, log10Ratio: d / Math.LN10, z, agrees: Math.abs(z) <= bound };
+      })
+    : [];
+  let activationEnergy: Disagreement["activationEnergy"] = null;
+  let slopeZ: number | null = null;
+  if (points.length >= 2 && s.fit.model !== "single_temperature") {
+    const lo = diffs[0];
+    const hi = diffs[diffs.length - 1];
+    const v = ownDifferenceVariance(s.fit, lo.T, hi.T) + predictDifferenceVariance(rows, fit, lo.T, hi.T) + 2 * fit.tau2;
+    slopeZ = (lo.d - hi.d) / Math.sqrt(v);
+    // Relatively higher at the cold end: k rises less steeply with T, so a lower activation energy.
+    activationEnergy = Math.abs(slopeZ) > Z95 ? (slopeZ > 0 ? "lower" : "higher") : "same";
+  }
+  let restsOn: Disagreement["restsOn"] = null;
+  if (overlap && o.count >= 2) {
+    // Where the dataset is judged hardest: the comparison temperature with the largest |z|.
+    const worst = diffs.reduce((a, b) => (Math.abs(b.z) > Math.abs(a.z) ? b : a));
+    const { g, maxNorm } = shareCache.get(o.blocks, fit.weightTau2);
+    const a = shareDirection(rows, fit, worst.T);
+    let best = -1;
+    let bestShare = -Infinity;
+    // No share can exceed ‖a‖·max‖g_k‖: with many datasets that settles it without the loop.
+    const reachable = Math.hypot(a[0], a[1], a[2]) * maxNorm > DOMINANT_SHARE;
+    for (const k of reachable ? o.blocks : []) {
+      if (k === o.skip) continue;
+      const share = a[0] * g[3 * k] + a[1] * g[3 * k + 1] + a[2] * g[3 * k + 2];
+      if (share > bestShare) {
+        bestShare = share;
+        best = k;
       }
     }
+    if (best >= 0 && bestShare > DOMINANT_SHARE) restsOn = { id: datasets[best].id, share: Math.min(1, bestShare) };
   }
-}
-
-/**
- * Fit the consensus with p = 2 (Arrhenius) or 3 (modified) coefficients: fixed-effect fit,
- * DerSimonian–Laird τ², then the random-effects fit. Returns null if the design is degenerate.
- */
-function fitModel(summaries: DatasetSummary[], included: boolean[], p: 2 | 3): ModelFit | null {
-  const fixed = solveGls(summaries, included, p, 0);
-  if (!fixed) return null;
-  // DerSimonian–Laird moment estimator on the offsets about the fixed-effect fit.
-  let sumU = 0;
-  let sumU2 = 0;
-  let sumUd = 0;
-  let sumUd2 = 0;
-  let J = 0;
-  summaries.forEach((s, j) => {
-    if (!included[j]) return;
-    const d = fixed.offsets[j];
-    sumU += s.S;
-    sumU2 += s.S * s.S;
-    sumUd += s.S * d;
-    sumUd2 += s.S * d * d;
-    J++;
-  });
-  const q = Math.max(0, sumUd2 - (sumUd * sumUd) / sumU);
-  const denom = sumU - sumU2 / sumU;
-  const tau2 = J > 1 && denom > 0 ? Math.max(0, (q - (J - 1)) / denom) : 0;
-  const i2 = q > J - 1 && q > 0 ? (q - (J - 1)) / q : 0;
-  const random = tau2 > 0 ? solveGls(summaries, included, p, tau2) : fixed;
-  if (!random) return null;
-  return { p, beta: random.beta, cov: random.cov, tau2, q, i2, offsets: random.offsets };
-}
-
-/** GLS fit for a given τ² by quasi-demeaning (step 4); offsets for every dataset, included or not. */
-function solveGls(
-  summaries: DatasetSummary[],
-  included: boolean[],
-  p: 2 | 3,
-  tau2: number,
-): { beta: Float64Array; cov: Float64Array; offsets: Float64Array } | null {
-  // Global centring of the temperature columns keeps the intercept column well conditioned.
-  let sumS = 0;
-  let ME = 0;
-  let ML = 0;
-  summaries.forEach((s, j) => {
-    if (!included[j]) return;
-    sumS += s.S;
-    ME += s.S * s.mE;
-    ML += s.S * s.mL;
-  });
-  ME /= sumS;
-  ML /= sumS;
-  const m = p + 1;
-  const acc = new GivensAccumulator(m);
-  const row = new Float64Array(m);
-  summaries.forEach((s, j) => {
-    if (!included[j]) return;
-    const r = s.r; // [r00 r01 r02; · r11 r12; · · r22] over [xE, xL, y]
-    // Within rows (intercept column 0 after centring).
-    if (p === 3) {
-      acc.add([0, r[0], r[1], r[2]], 1);
-      acc.add([0, 0, r[3], r[4]], 1);
-      acc.add([0, 0, 0, r[5]], 1);
-    } else {
-      acc.add([0, r[0], r[2]], 1);
-      acc.add([0, 0, r[4]], 1);
-      acc.add([0, 0, r[5]], 1);
-    }
-    // Mean row, weight √S·(1 − θ) with θ = 1 − 1/√(1 + τ²S): √S/√(1 + τ²S).
-    const scale = Math.sqrt(s.S / (1 + tau2 * s.S));
-    row[0] = 1;
-    row[1] = s.mE - ME;
-    if (p === 3) row[2] = s.mL - ML;
-    row[m - 1] = s.mY;
-    acc.add(row, scale);
-  });
-  const R = acc.r;
-  for (let k = 0; k < p; k++) {
-    if (!(R[k * m + k] > 1e-12 * Math.sqrt(acc.colNorm2[k]))) return null;
-  }
-  const betaC = new Float64Array(p);
-  for (let k = p - 1; k >= 0; k--) {
-    let s = R[k * m + p];
-    for (let j = k + 1; j < p; j++) s -= R[k * m + j] * betaC[j];
-    betaC[k] = s / R[k * m + k];
-  }
-  // (RᵀR)⁻¹ = R⁻¹R⁻ᵀ in centred coordinates.
-  const inv = new Float64Array(p * p);
-  for (let j = 0; j < p; j++) {
-    inv[j * p + j] = 1 / R[j * m + j];
-    for (let i = j - 1; i >= 0; i--) {
-      let s = 0;
-      for (let k = i + 1; k <= j; k++) s += R[i * m + k] * inv[k * p + j];
-      inv[i * p + j] = -s / R[i * m + i];
-    }
-  }
-  const cc = new Float64Array(p * p);
-  for (let i = 0; i < p; i++) {
-    for (let j = 0; j < p; j++) {
-      let s = 0;
-      for (let k = Math.max(i, j); k < p; k++) s += inv[i * p + k] * inv[j * p + k];
-      cc[i * p + j] = s;
-    }
-  }
-  // Undo the centring: β0 = β0c − Σ M_k β_k; C = J·Cc·Jᵀ with J's first row [1, −M…].
-  const M = p === 3 ? [ME, ML] : [ME];
-  const beta = betaC.slice();
-  for (let k = 1; k < p; k++) beta[0] -= M[k - 1] * betaC[k];
-  const jrow = [1, ...M.map((v) => -v)];
-  const cov = cc.slice();
-  let c00 = 0;
-  for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) c00 += jrow[a] * cc[a * p + b] * jrow[b];
-  cov[0] = c00;
-  for (let k = 1; k < p; k++) {
-    let s = 0;
-    for (let a = 0; a < p; a++) s += jrow[a] * cc[a * p + k];
-    cov[k] = s;
-    cov[k * p] = s;
-  }
-  const offsets = new Float64Array(summaries.length);
-  summaries.forEach((s, j) => {
-    let fit = beta[0] + beta[1] * s.mE;
-    if (p === 3) fit += beta[2] * s.mL;
-    offsets[j] = s.mY - fit;
-  });
-  return { beta, cov, offsets };
-}
-
-function isModifiedPreferred(mod: ModelFit | null): boolean {
-  if (!mod) return false;
-  const se = Math.sqrt(mod.cov[2 * 3 + 2]);
-  return se > 0 && Math.abs(mod.beta[2] / se) > Z95;
-}
-
-/**
- * Step 5: for each dataset, the DL random-effects mean of the other included datasets' offsets,
- * and the externally standardised offset. Exact O(J²) up to 5000 datasets; beyond that the
- * others' τ² is approximated by the overall one.
- */
-function leaveOneOut(
-  summaries: DatasetSummary[],
-  included: boolean[],
-  offsets: Float64Array,
-): { fromOthers: (number | null)[]; z: (number | null)[] } {
-  const J = summaries.length;
-  const fromOthers: (number | null)[] = new Array(J).fill(null);
-  const z: (number | null)[] = new Array(J).fill(null);
-  const idx = summaries.map((_, j) => j).filter((j) => included[j]);
-  const u = summaries.map((s) => s.S);
-  let totU = 0;
-  let totU2 = 0;
-  let totUd = 0;
-  let totUd2 = 0;
-  for (const i of idx) {
-    totU += u[i];
-    totU2 += u[i] * u[i];
-    totUd += u[i] * offsets[i];
-    totUd2 += u[i] * offsets[i] * offsets[i];
-  }
-  const exact = idx.length <= LOO_EXACT_LIMIT;
-  const tauAll = dlTau2(totU, totU2, totUd, totUd2, idx.length);
-  for (let j = 0; j < J; j++) {
-    const self = included[j] ? 1 : 0;
-    const others = idx.length - self;
-    if (others < 1) continue;
-    const sU = totU - self * u[j];
-    const sU2 = totU2 - self * u[j] * u[j];
-    const sUd = totUd - self * u[j] * offsets[j];
-    const sUd2 = totUd2 - self * u[j] * offsets[j] * offsets[j];
-    const tau2 = exact ? dlTau2(sU, sU2, sUd, sUd2, others) : tauAll;
-    let wSum = 0;
-    let wd = 0;
-    for (const i of idx) {
-      if (i === j) continue;
-      const wi = 1 / (1 / u[i] + tau2);
-      wSum += wi;
-      wd += wi * offsets[i];
-    }
-    const mu = wd / wSum;
-    fromOthers[j] = offsets[j] - mu;
-    if (others >= 2) z[j] = (offsets[j] - mu) / Math.sqrt(1 / u[j] + tau2 + 1 / wSum);
-  }
-  return { fromOthers, z };
-}
-
-function dlTau2(sU: number, sU2: number, sUd: number, sUd2: number, k: number): number {
-  if (k < 2 || !(sU > 0)) return 0;
-  const q = Math.max(0, sUd2 - (sUd * sUd) / sU);
-  const denom = sU - sU2 / sU;
-  return denom > 0 ? Math.max(0, (q - (k - 1)) / denom) : 0;
-}
-
-/** Step 6: the unit mistake whose factor (log10) lies within the window of |offset|, if any. */
-export function matchUnitMistake(offsetLog10: number, order: ReactionOrder): string | null {
-  const m = order - 1;
-  if (m === 0) return null;
-  const lgNA = Math.log10(AVOGADRO);
-  const candidates: [number, string][] = [
-    [m * lgNA, `a factor of N_A${m > 1 ? "²" : ""} (molecule ↔ mol)`],
-    [3 * m, `a factor of 10^${3 * m} (L ↔ cm³)`],
-    [6 * m, `a factor of 10^${6 * m} (m³ ↔ cm³)`],
-    [m * (lgNA - 3), `a factor of (N_A/1000)${m > 1 ? "²" : ""} (L mol⁻¹ ↔ cm³ molecule⁻¹)`],
-    [m * (lgNA - 6), `a factor of (N_A/10⁶)${m > 1 ? "²" : ""} (m³ mol⁻¹ ↔ cm³ molecule⁻¹)`],
-  ];
-  const a = Math.abs(offsetLog10);
-  for (const [c, label] of candidates) if (Math.abs(a - c) <= UNIT_SUSPECT_WINDOW) return label;
-  return null;
-}
-
-function describeFactor(log10: number): string {
-  const a = Math.abs(log10);
-  return a < 3 ? `a factor of ${(10 ** a).toPrecision(3)}` : `a factor of 10^${a.toFixed(2)}`;
-}
-
-function gridT(Tmin: number, Tmax: number): number[] {
-  const T = new Array<number>(BAND_POINTS);
-  for (let i = 0; i < BAND_POINTS; i++) {
-    T[i] = i === 0 ? Tmin : i === BAND_POINTS - 1 ? Tmax : 1 / (1 / Tmin + ((1 / Tmax - 1 / Tmin) * i) / (BAND_POINTS - 1));
-  }
-  return T;
-}
-
-function designRow(T: number, p: number, T0: number): number[] {
-  const x = [1, -1 / (GAS_CONSTANT * T)];
-  if (p === 3) x.push(Math.log(T / T0));
-  return x;
-}
-
-function predict(fit: ModelFit, T: number, T0: number): { lnk: number; half: number } {
-  const x = designRow(T, fit.p, T0);
-  let lnk = 0;
-  let v = 0;
-  for (let a = 0; a < fit.p; a++) {
-    lnk += fit.beta[a] * x[a];
-    for (let b = 0; b < fit.p; b++) v += x[a] * fit.cov[a * fit.p + b] * x[b];
-  }
-  return { lnk, half: Z95 * Math.sqrt(Math.max(0, v) + fit.tau2) };
-}
-
-function commonParts(fit: ModelFit, range: { Tmin: number; Tmax: number }, T0: number): ConsensusFitCommon {
-  const p = fit.p;
-  const T = gridT(range.Tmin, range.Tmax);
-  const lnk: number[] = [];
-  const lower: number[] = [];
-  const upper: number[] = [];
-  for (const t of T) {
-    const { lnk: v, half } = predict(fit, t, T0);
-    lnk.push(v);
-    lower.push(v - half);
-    upper.push(v + half);
-  }
-  const factorAt = (t: number): UncertaintyFactor => ({
-    T: t,
-    f: Math.exp(predict(fit, t, T0).half),
-    extrapolated: t < range.Tmin || t > range.Tmax,
-  });
-  const covariance = Array.from({ length: p }, (_, a) => Array.from({ length: p }, (_, b) => fit.cov[a * p + b]));
   return {
-    covariance,
+    comparedWith: o.count,
+    model: fit.q === 3 ? "modified_arrhenius" : "arrhenius",
     tau2: fit.tau2,
-    q: fit.q,
-    i2: fit.i2,
-    band: { T, lnk, lower, upper },
-    uncertaintyFactor: [factorAt(REFERENCE_TEMPERATURE), factorAt(range.Tmin), factorAt(range.Tmax)],
+    range: overlap ? { Tmin: a, Tmax: b } : null,
+    points,
+    bound,
+    off: points.some((p) => !p.agrees),
+    activationEnergy,
+    slopeZ,
+    meanOffsetLog10,
+    restsOn,
   };
+}
+
+function verdictOf(
+  label: (j: number) => string,
+  j: number,
+  s: DatasetSupport | null,
+  d: Disagreement | null,
+  o: Others | null,
+  leftOut: string | null,
+  unitSuspect: string | null,
+  otherCount: number,
+  datasets: readonly ConsensusDataset[],
+): string {
+  const name = label(j);
+  const out = leftOut ? ` Left out of the consensus: ${leftOut}.` : "";
+  if (!s) return `${name} has no points inside the temperature window.`;
+  if (!d || !o) {
+    return otherCount === 0
+      ? `${name} is the only dataset in the consensus: there is nothing to compare it with.${out}`
+      : `The other datasets alone cover a single temperature, so ${lowerFirst(name)} cannot be compared with them.${out}`;
+  }
+  let against = leftOut ? "the consensus" : o.count === 1 ? "the only other dataset" : `the consensus of the other ${o.count}`;
+  if (d.restsOn) {
+    const k = datasets.findIndex((ds) => ds.id === d.restsOn!.id);
+    against += ` (which rests ${Math.round(d.restsOn.share * 100)} % on ${lowerFirst(label(k))} there)`;
+  }
+  if (unitSuspect) {
+    return `${name} is ${describeFactor(d.meanOffsetLog10)} ${against}, close to ${unitSuspect}: check its units.${out}`;
+  }
+  if (!d.range) {
+    return `${name} (${describeT(s.Tmin)}–${describeT(s.Tmax)}) lies outside the temperatures of ${against} (${describeT(o.Tmin)}–${describeT(o.Tmax)}): not compared.${out}`;
+  }
+  const differs = d.activationEnergy === "lower" || d.activationEnergy === "higher";
+  if (!d.off) {
+    const widest = d.points.reduce((a, b) => (Math.abs(b.log10Ratio) > Math.abs(a.log10Ratio) ? b : a));
+    const within = `within its uncertainty at ${listTemperatures(d.points.map((p) => p.T))} (largest difference ${describeFactor(widest.log10Ratio)}, at ${describeT(widest.T)})`;
+    return `${name} agrees with ${against} ${within}${differs ? `, though ${describeSlope(d.activationEnergy)}` : ""}.${out}`;
+  }
+  const where = describeComparison(d.points);
+  const slope = differs ? `: ${describeSlope(d.activationEnergy)}` : d.activationEnergy === "same" ? ` — ${describeSlope("same")}` : "";
+  return `${name} is off ${against}: ${where}${slope}.${out}`;
+}
+
+/** "Dataset 12" → "dataset 12" inside a sentence; other labels are kept as given. */
+function lowerFirst(label: string): string {
+  return label.startsWith("Dataset ") ? `d${label.slice(1)}` : label;
+}
+
+function collectFlags(members: ConsensusMember[], nIncluded: number): ConsensusFlag[] {
+  const flags: ConsensusFlag[] = [];
+  if (nIncluded < 3) {
+    flags.push({
+      code: "few_datasets",
+      severity: "info",
+      message: `Only ${nIncluded} dataset${nIncluded === 1 ? "" : "s"} in the consensus: the between-dataset variance and the comparison of each dataset with the others need at least 3 to mean much.`,
+    });
+  }
+  for (const m of members) {
+    const d = m.disagreement;
+    if (m.unitSuspect) {
+      flags.push({ code: "unit_suspect", severity: "warn", message: m.verdict, datasetIds: [m.id] });
+    } else if (d && !d.range) {
+      flags.push({ code: "not_compared", severity: "info", message: m.verdict, datasetIds: [m.id] });
+    } else if (d?.off) {
+      // Two datasets that disagree: neither can be called the odd one out.
+      const pair = m.included && d.comparedWith === 1;
+      flags.push({ code: pair ? "datasets_disagree" : "off_consensus", severity: "warn", message: m.verdict, datasetIds: [m.id] });
+    }
+  }
+  return flags;
 }
 
 function expOrNull(x: number): number | null {
@@ -702,22 +698,70 @@ function expOrNull(x: number): number | null {
   return Number.isFinite(v) ? v : null;
 }
 
-function buildArrhenius(fit: ModelFit, range: { Tmin: number; Tmax: number }, T0: number): ConsensusArrhenius {
+function gridT(Tmin: number, Tmax: number, n: number): number[] {
+  if (!(Tmax > Tmin)) return [Tmin];
+  return Array.from({ length: n }, (_, i) =>
+    i === 0 ? Tmin : i === n - 1 ? Tmax : 1 / (1 / Tmin + ((1 / Tmax - 1 / Tmin) * i) / (n - 1)),
+  );
+}
+
+function commonParts(
+  rows: Rows,
+  fit: ModelFit,
+  covered: { Tmin: number; Tmax: number },
+  coverage: (T: number) => number,
+): Omit<ConsensusFitCommon, "covariance"> {
+  const T = gridT(covered.Tmin, covered.Tmax, BAND_POINTS);
+  const lnk: number[] = [];
+  const lower: number[] = [];
+  const upper: number[] = [];
+  for (const t of T) {
+    const p = predict(rows, fit, t);
+    const half = Z95 * Math.sqrt(p.variance + fit.tau2);
+    lnk.push(p.lnk);
+    lower.push(p.lnk - half);
+    upper.push(p.lnk + half);
+  }
+  const factorT = gridT(covered.Tmin, covered.Tmax, FACTOR_POINTS);
+  if (REFERENCE_TEMPERATURE > covered.Tmin && REFERENCE_TEMPERATURE < covered.Tmax) {
+    factorT.push(REFERENCE_TEMPERATURE);
+    factorT.sort((a, b) => a - b);
+  }
+  const uncertaintyFactor = factorT.map((t) => ({
+    T: t,
+    f: expOrNull(Z95 * Math.sqrt(predict(rows, fit, t).variance + fit.tau2)),
+    datasets: coverage(t),
+  }));
+  return { tau2: fit.tau2, q: fit.Q, dof: fit.df, i2: fit.i2, supportValues: fit.rows, band: { T, lnk, lower, upper }, uncertaintyFactor };
+}
+
+function buildArrhenius(
+  rows: Rows,
+  fit: ModelFit,
+  covered: { Tmin: number; Tmax: number },
+  coverage: (T: number) => number,
+): ConsensusArrhenius {
+  const { values, cov } = toPublished(rows, fit);
   return {
-    params: { lnA: fit.beta[0], A: expOrNull(fit.beta[0]), Ea: fit.beta[1] },
-    se: { lnA: Math.sqrt(fit.cov[0]), Ea: Math.sqrt(fit.cov[3]) },
-    ...commonParts(fit, range, T0),
+    params: { lnA: values[0], A: expOrNull(values[0]), Ea: values[1] },
+    se: { lnA: Math.sqrt(cov[0][0]), Ea: Math.sqrt(cov[1][1]) },
+    covariance: cov,
+    ...commonParts(rows, fit, covered, coverage),
   };
 }
 
-function buildModified(fit: ModelFit, range: { Tmin: number; Tmax: number }, T0: number): ConsensusModifiedArrhenius {
-  const parts = commonParts(fit, range, T0);
-  // Internal order is [lnA, Ea, n]; published order is [lnA, n, Ea] as in the single-dataset fit.
-  const perm = [0, 2, 1];
-  parts.covariance = perm.map((a) => perm.map((b) => fit.cov[a * 3 + b]));
+function buildModified(
+  rows: Rows,
+  fit: ModelFit,
+  covered: { Tmin: number; Tmax: number },
+  coverage: (T: number) => number,
+  T0: number,
+): ConsensusModifiedArrhenius {
+  const { values, cov } = toPublished(rows, fit);
   return {
-    params: { lnA: fit.beta[0], A: expOrNull(fit.beta[0]), n: fit.beta[2], Ea: fit.beta[1], T0 },
-    se: { lnA: Math.sqrt(fit.cov[0]), n: Math.sqrt(fit.cov[8]), Ea: Math.sqrt(fit.cov[4]) },
-    ...parts,
+    params: { lnA: values[0], A: expOrNull(values[0]), n: values[1], Ea: values[2], T0 },
+    se: { lnA: Math.sqrt(cov[0][0]), n: Math.sqrt(cov[1][1]), Ea: Math.sqrt(cov[2][2]) },
+    covariance: cov,
+    ...commonParts(rows, fit, covered, coverage),
   };
 }

@@ -7,8 +7,11 @@
 export { analyseDataset } from "./analyse-dataset";
 export { AnalysisError, type AnalysisErrorCode } from "./analysis-error";
 export {
+  combineEffectsDL,
   consensus,
   matchUnitMistake,
+  type CombinedEffects,
+  type ComparisonPoint,
   type ConsensusArrhenius,
   type ConsensusDataset,
   type ConsensusFlag,
@@ -17,10 +20,12 @@ export {
   type ConsensusModifiedArrhenius,
   type ConsensusOptions,
   type ConsensusResult,
+  type Disagreement,
+  type SupportValue,
   type UncertaintyFactor,
 } from "./consensus";
 export * from "./constants";
-export { ANALYSIS_CONVENTIONS } from "./conventions";
+export { ANALYSIS_CONVENTIONS, CONSENSUS_CONVENTIONS } from "./conventions";
 export { evaluateRateExpression, type RateExpression } from "./evaluate-expression";
 export { extrapolationOf } from "./extrapolation";
 export { describeExtrapolation, formatFlagMessage, formatP, type FlagUnits } from "./flag-text";

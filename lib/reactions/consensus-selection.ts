@@ -29,6 +29,11 @@ export interface ConsensusChoice {
 
 export const DEFAULT_CONSENSUS_CHOICE: ConsensusChoice = { include: "all", Tmin: null, Tmax: null };
 
+/** How the consensus's sentences name a dataset: the last part of its title and its number. */
+export function consensusLabel(v: { title: string; datasetId: number }): string {
+  return `“${v.title.split(":").pop()?.trim() || v.title}” (dataset ${v.datasetId})`;
+}
+
 /** A consensus needs this many datasets; with fewer there is nothing to compare. */
 export const MIN_CONSENSUS_DATASETS = 2;
 
@@ -339,7 +344,7 @@ export function selectConsensusDatasets({
     }
     const { lo, hi } = rangeOf(j.kept);
     used.push({ ...base(j), pointsUsed: j.kept.length, Tmin: lo, Tmax: hi });
-    inputs.push({ id: String(j.v.versionId), points: j.kept, order: j.order! });
+    inputs.push({ id: String(j.v.versionId), points: j.kept, order: j.order!, label: consensusLabel(j.v) });
   }
   const listed = new Set(versions.map((v) => v.versionId));
   return {

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { CAUTION, MAX_POINTS } from "@/lib/analyses/analyse-request";
 import { endpointScopes } from "@/lib/auth/endpoint-scopes";
 import { appUrl } from "@/lib/config";
-import { ANALYSIS_CONVENTIONS } from "@/lib/kinetics/conventions";
+import { ANALYSIS_CONVENTIONS, CONSENSUS_CONVENTIONS } from "@/lib/kinetics/conventions";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { CONSENSUS_SELECTION_RULES } from "@/lib/reactions/consensus-selection";
 
@@ -117,6 +117,18 @@ export default function ApiDocsPage() {
         <h3 className="font-semibold">Conventions</h3>
         <ul className="list-disc space-y-2 pl-6 text-sm">
           {ANALYSIS_CONVENTIONS.map((c, i) => (
+            <li key={i}>
+              <Inline text={c} />
+            </li>
+          ))}
+        </ul>
+        <h3 className="font-semibold">Conventions of the consensus (reaction pages)</h3>
+        <p className="text-sm">
+          A reaction&apos;s page combines its published datasets into one consensus expression and compares each dataset with the others.
+          The model, in words:
+        </p>
+        <ul className="list-disc space-y-2 pl-6 text-sm">
+          {CONSENSUS_CONVENTIONS.map((c, i) => (
             <li key={i}>
               <Inline text={c} />
             </li>

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ConsensusPlot } from "@/components/consensus-plot";
+import { ConsensusComparisons, ConsensusSummary, comparisonCell } from "@/components/consensus-report";
 import { StateLabel } from "@/components/state-label";
 import { renderSpeciesSvg } from "@/lib/chem";
 import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
@@ -11,7 +12,7 @@ import { versionCapabilities } from "@/lib/curation/capabilities";
 import type { VersionState } from "@/lib/curation/lifecycle";
 import { GAS_CONSTANT, getCanonicalRateConstantUnit, type ReactionOrder } from "@/lib/kinetics";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
-import { parseConsensusChoice } from "@/lib/reactions/consensus-selection";
+import { consensusLabel, parseConsensusChoice } from "@/lib/reactions/consensus-selection";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { getReaction, listDatasetRolesOf } from "@/lib/reactions/queries";
 import { formatSignificant } from "@/lib/format";
@@ -46,13 +47,14 @@ export default async function ReactionPage({
   const published = versions.filter((v) => v.state === "published" && new Set(v.points.map((p) => p.T)).size >= 2);
   const used = new Set(selection.used.map((d) => d.versionId));
   const curatorRows = await exclusionRowsFor(versions, selection.curatorExclusions);
+  // How the words of the consensus name each dataset.
+  const labels = new Map(versions.map((v) => [String(v.versionId), consensusLabel(v)]));
   const member = (versionId: number) => result?.members.find((m) => m.id === String(versionId));
   const pictures = await Promise.all(
     reaction.participants.map((p) => (p.smiles ? renderSpeciesSvg(p.smiles, { width: 140, height: 100 }).catch(() => null) : null)),
   );
   const kLabel = SUPPORTED_UNITS.rateConstant[order].find((u) => u.id === getCanonicalRateConstantUnit(order))?.label ?? "";
-  const modified = result?.preferred === "modified_arrhenius" ? result.modifiedArrhenius : null;
-  const preferred = result ? (modified ?? result.arrhenius) : null;
+  const preferred = result ? ((result.preferred === "modified_arrhenius" ? result.modifiedArrhenius : null) ?? result.arrhenius) : null;
 
   return (
     <div className="space-y-6">
@@ -106,41 +108,14 @@ export default async function ReactionPage({
                 label: `v${v.number} · ${v.title.split(":").pop()?.trim() ?? v.title}`,
                 points: v.points.map((p) => ({ T: p.T, lnk: Math.log(p.k) })),
                 excluded: !used.has(v.versionId) || member(v.versionId)?.included === false,
+                off: member(v.versionId)?.disagreement?.off === true,
               }))}
             />
             <p className="text-xs text-muted">{FIT_CAUTION}</p>
           </section>
 
-          {result && preferred && (
-            <section className="card space-y-3" aria-labelledby="consensus-heading">
-              <h2 id="consensus-heading" className="text-xl font-semibold">
-                Consensus of {result.datasets} datasets
-              </h2>
-              <p className="text-sm">
-                k = {sig(preferred.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp(
-                {preferred.params.Ea >= 0 ? "−" : "+"}
-                {sig(Math.abs(preferred.params.Ea) / GAS_CONSTANT, 4)} K / T) {kLabel}, {Math.round(result.range.Tmin)}–
-                {Math.round(result.range.Tmax)} K
-              </p>
-              <p className="text-sm text-muted">
-                Uncertainty factor (95 %):{" "}
-                {preferred.uncertaintyFactor
-                  .map((u) => `f = ${sig(u.f)} at ${Math.round(u.T)} K${u.extrapolated ? " (outside the data)" : ""}`)
-                  .join("; ")}
-                . Between-dataset spread τ² = {sig(preferred.tau2)} (ln k)², I² = {Math.round(preferred.i2 * 100)} %.
-              </p>
-              <p className="text-xs text-muted">{result.method}</p>
-              {result.flags.length > 0 && (
-                <ul className="space-y-2">
-                  {result.flags.map((f, i) => (
-                    <li key={i} className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">
-                      {f.message}
-                    </li>
-                  ))}
-                </ul>
-              )}
-            </section>
-          )}
+          {result && <ConsensusSummary result={result} kUnitLabel={kLabel} labels={labels} caution={FIT_CAUTION} />}
+          {result && <ConsensusComparisons result={result} labels={labels} />}
 
           <WhatWentIn selection={selection} unavailable={unavailable} curatorRows={curatorRows} />
 
@@ -157,7 +132,7 @@ export default async function ReactionPage({
                   <th scope="col">T range (K)</th>
                   <th scope="col">Points</th>
                   <th scope="col">E/R (K)</th>
-                  <th scope="col">Offset from the others (log₁₀ k)</th>
+                  <th scope="col">Against the others</th>
                 </tr>
               </thead>
               <tbody>
@@ -179,12 +154,7 @@ export default async function ReactionPage({
                       </td>
                       <td>{v.pointCount}</td>
                       <td>{a?.arrhenius ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
-                      <td>
-                        {m?.offsetFromOthersLog10 !== null && m?.offsetFromOthersLog10 !== undefined
-                          ? sig(m.offsetFromOthersLog10, 2)
-                          : "—"}
-                        {m?.zScore !== null && m?.zScore !== undefined ? ` (z = ${sig(m.zScore, 2)})` : ""}
-                      </td>
+                      <td>{comparisonCell(m)}</td>
                     </tr>
                   );
                 })}

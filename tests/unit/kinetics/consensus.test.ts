@@ -4,13 +4,20 @@ import {
   AnalysisError,
   analyseDataset,
   AVOGADRO,
+  combineEffectsDL,
   consensus,
   evaluateRateExpression,
   GAS_CONSTANT,
   matchUnitMistake,
   type ConsensusDataset,
+  type ConsensusResult,
   type RatePoint,
+  type RateExpression,
 } from "@/lib/kinetics";
+import { t95 } from "@/lib/kinetics/distributions";
+import { buildRows, fitModel, leaveOneOutFits, symmetricEigen } from "@/lib/kinetics/consensus-fit";
+import { summariseDataset, Z95 } from "@/lib/kinetics/consensus-support";
+import reference from "@/tests/fixtures/meta-analysis-dl-statsmodels.json";
 
 /** Reproducible standard normal deviates (Park–Miller + Box–Muller). */
 function makeNormal(seed: number): () => number {
@@ -22,20 +29,47 @@ function makeNormal(seed: number): () => number {
   return () => Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u());
 }
 
-const TRUE = { A: 2.45e-12, Ea: 14757.67 };
+/** The true expression of the constructed tests (invented). */
+const TRUE: RateExpression = { A: 2.0e-12, Ea: 12000 };
 
-function makeSet(
-  id: string,
-  normal: () => number,
-  opts: { n?: number; T1?: number; T2?: number; sd?: number; factor?: number; sigma?: number } = {},
-): ConsensusDataset {
-  const { n = 10, T1 = 230, T2 = 420, sd = 0.05, factor = 1, sigma } = opts;
+interface SetOptions {
+  n?: number;
+  T1?: number;
+  T2?: number;
+  sd?: number;
+  /** Stated σ(ln k); omitted → no uncertainties. */
+  sigma?: number;
+  /** Multiplies every k: a constant factor, or a function of T. */
+  factor?: number | ((T: number) => number);
+  truth?: RateExpression;
+}
+
+function makeSet(id: string, normal: () => number, opts: SetOptions = {}): ConsensusDataset {
+  const { n = 10, T1 = 220, T2 = 420, sd = 0.05, sigma, factor = 1, truth = TRUE } = opts;
   const points: RatePoint[] = Array.from({ length: n }, (_, i) => {
-    const T = T1 + ((T2 - T1) * i) / (n - 1);
-    const k = evaluateRateExpression(TRUE, T) * factor * Math.exp(sd * normal());
+    // Even in 1/T, as experiments are usually planned.
+    const T = i === n - 1 ? T2 : 1 / (1 / T1 + ((1 / T2 - 1 / T1) * i) / (n - 1));
+    const f = typeof factor === "number" ? factor : factor(T);
+    const k = evaluateRateExpression(truth, T) * f * Math.exp(sd * normal());
     return sigma === undefined ? { T, k } : { T, k, sigmaLnK: sigma };
   });
   return { id, order: 2, points };
+}
+
+/**
+ * A computed set over 200–2000 K whose curvature differs from the truth: same k and slope at
+ * 300 K, ln(k/k_true) = δ·(ln(T/300) + 300/T − 1), i.e. n = δ more — 2.7 % at 220 and 420 K,
+ * a factor 1.7 at 2000 K for δ = 0.5.
+ */
+function computedSet(id: string, normal: () => number, delta = 0.5): ConsensusDataset {
+  const Tc = 300;
+  return makeSet(id, normal, {
+    n: 16,
+    T1: 200,
+    T2: 2000,
+    sd: 0.01,
+    factor: (T) => Math.exp(delta * (Math.log(T / Tc) + Tc / T - 1)),
+  });
 }
 
 function expectAllFinite(value: unknown): void {
@@ -44,93 +78,414 @@ function expectAllFinite(value: unknown): void {
   else if (value && typeof value === "object") Object.values(value).forEach(expectAllFinite);
 }
 
-describe("consensus", () => {
-  it("with one unweighted dataset reproduces the single-dataset Arrhenius fit and covariance", () => {
-    const set = makeSet("only", makeNormal(3), { n: 14 });
-    const c = consensus([set]);
-    const a = analyseDataset({ points: set.points, order: 2 }).arrhenius;
-    expect(c.arrhenius.params.Ea).toBeCloseTo(a.params.Ea, 6);
-    expect(c.arrhenius.params.lnA).toBeCloseTo(a.params.lnA, 10);
-    expect(c.arrhenius.tau2).toBe(0);
-    for (let i = 0; i < 2; i++) for (let j = 0; j < 2; j++) expect(c.arrhenius.covariance[i][j] / a.covariance![i][j]).toBeCloseTo(1, 8);
-    expect(c.members[0].zScore).toBeNull();
-    expect(c.flags.map((f) => f.code)).toEqual(["few_datasets"]);
+function member(c: ConsensusResult, id: string) {
+  const m = c.members.find((x) => x.id === id);
+  if (!m) throw new Error(`no member ${id}`);
+  return m;
+}
+
+function preferred(c: ConsensusResult) {
+  return c.preferred === "modified_arrhenius" ? c.modifiedArrhenius! : c.arrhenius;
+}
+
+function lnkOf(c: ConsensusResult, T: number): number {
+  const p = preferred(c).params;
+  const n = "n" in p ? (p.n as number) : 0;
+  return p.lnA + n * Math.log(T / 298.15) - p.Ea / (GAS_CONSTANT * T);
+}
+
+describe("combineEffectsDL (the one-parameter case of stage 2)", () => {
+  // Reference: statsmodels 0.15.0 combine_effects(method_re="dl"), see the fixture's source field.
+  it.each(reference.cases.map((c, i) => [i + 1, c] as const))("matches statsmodels on case %i", (_, c) => {
+    const r = combineEffectsDL(c.effects, c.variances);
+    expect(r.tau2).toBeCloseTo(c.tau2_DL, 12);
+    expect(r.meanRandom).toBeCloseTo(c.mu_random, 12);
+    expect(r.seRandom).toBeCloseTo(c.se_mu_random, 12);
+    expect(r.q).toBeCloseTo(c.Q, 10);
+    expect(r.meanFixed).toBeCloseTo(c.mu_fixed, 12);
   });
 
-  it("solves the random-effects GLS exactly (checked against an explicit V⁻¹ with ml-matrix)", () => {
+  it("truncates τ² at zero for homogeneous effects", () => {
+    const r = combineEffectsDL([0.1, 0.11, 0.09], [0.01, 0.01, 0.01]);
+    expect(r.tau2).toBe(0);
+    expect(r.meanRandom).toBeCloseTo(0.1, 12);
+    expect(r.seRandom).toBeCloseTo(Math.sqrt(0.01 / 3), 12);
+  });
+});
+
+describe("consensus stage 1: each dataset summarised by its own fit", () => {
+  it("uses the model its own analysis prefers, with the fitted ln k at its support temperatures", () => {
+    const normal = makeNormal(17);
+    const sets = [
+      makeSet("straight", normal, { truth: { A: 2e-12, Ea: 12000 } }),
+      makeSet("curved", normal, { n: 16, T1: 200, T2: 2000, sd: 0.01, truth: { A: 1e-13, n: 2.8, Ea: 4000 } }),
+      makeSet("weighted", normal, { sigma: 0.05, n: 7 }),
+      makeSet("three", normal, { n: 3 }),
+    ];
+    for (const s of sets) {
+      const a = analyseDataset({ points: s.points, order: 2 });
+      const sup = summariseDataset({ id: s.id, points: s.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+      expect(sup.fit.model).toBe(a.band.model);
+      expect(sup.temps[0]).toBe(a.band.T[0]);
+      expect(sup.temps[sup.temps.length - 1]).toBe(a.band.T[a.band.T.length - 1]);
+      expect(sup.temps).toHaveLength(3);
+      // The band starts and ends at the range ends: same ln k there.
+      expect(sup.lnk[0]).toBeCloseTo(a.band.lnk[0], 9);
+      expect(sup.lnk[sup.lnk.length - 1]).toBeCloseTo(a.band.lnk[a.band.lnk.length - 1], 9);
+    }
+  });
+
+  it("carries a fit's covariance: the modified fit's with three support values, the dataset's own band with two", () => {
+    const normal = makeNormal(23);
+    const set = makeSet("u", normal, { n: 8 });
+    const a = analyseDataset({ points: set.points, order: 2 });
+    expect(a.band.model).toBe("arrhenius");
+    const sup = summariseDataset({ id: "u", points: set.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+    expect(sup.temps).toHaveLength(3);
+    expect(sup.temps[1]).toBeCloseTo(2 / (1 / sup.temps[0] + 1 / sup.temps[2]), 10);
+    // Values on the Arrhenius line; covariance c·x₁ᵀ(XᵀX)⁻¹x₂ of the modified fit, c = s²_Arrhenius·(t₆/z)².
+    const A = a.arrhenius.params;
+    sup.temps.forEach((T, i) => expect(sup.lnk[i]).toBeCloseTo(A.lnA - A.Ea / (GAS_CONSTANT * T), 9));
+    const m = a.modifiedArrhenius!;
+    const unscaled = m.covariance!.map((row) => row.map((v) => v / m.residualSD! ** 2));
+    const x = (T: number) => [1, Math.log(T / 298.15), -1 / (GAS_CONSTANT * T)];
+    const c = a.arrhenius.residualSD! ** 2 * (t95(6) / Z95) ** 2;
+    for (let i = 0; i < 3; i++) {
+      for (let j = 0; j < 3; j++) {
+        const [xi, xj] = [x(sup.temps[i]), x(sup.temps[j])];
+        let q = 0;
+        for (let r = 0; r < 3; r++) for (let k = 0; k < 3; k++) q += xi[r] * unscaled[r][k] * xj[k];
+        expect(sup.cov[i * 3 + j] / (c * q)).toBeCloseTo(1, 6);
+      }
+    }
+    // Two temperatures: the Arrhenius line's own 95 % band, as a normal variance (±1.96·√V = ±t·se).
+    const pair = makeSet("p", normal, { n: 6 });
+    pair.points = pair.points.map((p, i) => ({ ...p, T: i % 2 ? 400 : 250 }));
+    const b = analyseDataset({ points: pair.points, order: 2 });
+    const sup2 = summariseDataset({ id: "p", points: pair.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+    expect(sup2.temps).toEqual([250, 400]);
+    expect(Z95 * Math.sqrt(sup2.cov[0])).toBeCloseTo(b.band.lnk[0] - b.band.lower![0], 9);
+    expect(Z95 * Math.sqrt(sup2.cov[3])).toBeCloseTo(b.band.lnk[49] - b.band.lower![49], 9);
+  });
+
+  it("never lets stated uncertainties shrink: the scale is max(1, χ²/dof)", () => {
+    const normal = makeNormal(31);
+    const tight = makeSet("tight", normal, { sd: 0.01, sigma: 0.05 });
+    const sup = summariseDataset({ id: "t", points: tight.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+    expect(sup.statedScale).toBe(1);
+    const loose = makeSet("loose", normal, { sd: 0.2, sigma: 0.05 });
+    const sup2 = summariseDataset({ id: "l", points: loose.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15)!;
+    expect(sup2.statedScale!).toBeCloseTo(analyseDataset({ points: loose.points, order: 2 }).arrhenius.chi2Reduced!, 8);
+  });
+
+  it("summarises one temperature by its mean and two points by the line through them, with a borrowed variance", () => {
+    const normal = makeNormal(4);
+    const room: ConsensusDataset = {
+      id: "room",
+      order: 2,
+      points: [298, 298, 298].map((T) => ({ T, k: evaluateRateExpression(TRUE, T) * Math.exp(0.05 * normal()) })),
+    };
+    const pair: ConsensusDataset = {
+      id: "pair",
+      order: 2,
+      points: [250, 350].map((T) => ({ T, k: evaluateRateExpression(TRUE, T) })),
+    };
+    const single: ConsensusDataset = { id: "single", order: 2, points: [{ T: 320, k: evaluateRateExpression(TRUE, 320), sigmaLnK: 0.1 }] };
+    const c = consensus([makeSet("a", normal), makeSet("b", normal, { n: 8 }), room, pair, single]);
+    expect(member(c, "room")).toMatchObject({ model: "single_temperature", scaleSource: "residuals" });
+    expect(member(c, "room").support).toHaveLength(1);
+    expect(member(c, "room").support[0].T).toBe(298);
+    expect(member(c, "pair")).toMatchObject({ model: "arrhenius", scaleSource: "pooled" });
+    expect(member(c, "pair").support.map((s) => s.T)).toEqual([250, 350]);
+    expect(member(c, "single").support).toHaveLength(1);
+    expect(member(c, "single").support[0].T).toBe(320);
+    expect(member(c, "single").support[0].lnk).toBeCloseTo(Math.log(evaluateRateExpression(TRUE, 320)), 12);
+    expect(member(c, "single").support[0].se).toBe(0.1);
+    // A single temperature is compared at that temperature only, with the one-point bound 1.96.
+    expect(member(c, "room").disagreement!.points.map((p) => p.T)).toEqual([298]);
+    expect(member(c, "room").disagreement!.bound).toBeCloseTo(1.959964, 5);
+    expectAllFinite(c);
+  });
+});
+
+describe("consensus stage 2: GLS with V_j + τ²·I and DerSimonian–Laird τ²", () => {
+  it("equals the dense GLS and the matrix DL estimator (checked with ml-matrix)", () => {
     const normal = makeNormal(11);
     const sets = [
       makeSet("a", normal, { n: 6, sd: 0.05, factor: 1.3 }),
       makeSet("b", normal, { n: 5, T1: 300, T2: 500, sd: 0.05, sigma: 0.04, factor: 0.8 }),
-      makeSet("c", normal, { n: 7, T1: 200, T2: 330, sd: 0.08 }),
+      makeSet("c", normal, { n: 12, T1: 200, T2: 1200, sd: 0.01, truth: { A: 1e-13, n: 2.8, Ea: 4000 } }),
       makeSet("d", normal, { n: 4, sd: 0.02, factor: 1.1, sigma: 0.03 }),
     ];
     const c = consensus(sets);
-    expect(c.arrhenius.tau2).toBeGreaterThan(0);
-    // Dense GLS: β = (XᵀV⁻¹X)⁻¹XᵀV⁻¹y with V = diag(σ²) + τ²·(block of ones per dataset).
-    const rows: number[][] = [];
-    const y: number[] = [];
-    const sig2: number[] = [];
-    const block: number[] = [];
-    sets.forEach((s, j) => {
-      for (const p of s.points) {
-        rows.push([1, -1 / (GAS_CONSTANT * p.T)]);
-        y.push(Math.log(p.k));
-        sig2.push((p.sigmaLnK ?? c.members[j].sigmaLnK!) ** 2);
-        block.push(j);
+    expect(member(c, "c").model).toBe("modified_arrhenius");
+    // Dense matrices from the reported support values and covariances.
+    const ys: number[] = [];
+    const F: number[][] = [];
+    const blocks: { start: number; V: number[][] }[] = [];
+    for (const m of c.members) {
+      blocks.push({ start: ys.length, V: m.supportCovariance });
+      for (const s of m.support) {
+        ys.push(s.lnk);
+        F.push([1, -1 / (GAS_CONSTANT * s.T)]);
       }
-    });
-    const N = y.length;
-    const V = Matrix.zeros(N, N);
-    for (let i = 0; i < N; i++) {
-      for (let k = 0; k < N; k++) V.set(i, k, (i === k ? sig2[i] : 0) + (block[i] === block[k] ? c.arrhenius.tau2 : 0));
     }
-    const X = new Matrix(rows);
-    const Vi = inverse(V);
-    const XtVi = X.transpose().mmul(Vi);
-    const cov = inverse(XtVi.mmul(X));
-    const beta = cov.mmul(XtVi).mmul(Matrix.columnVector(y));
-    expect(c.arrhenius.params.lnA).toBeCloseTo(beta.get(0, 0), 8);
-    expect(c.arrhenius.params.Ea / beta.get(1, 0)).toBeCloseTo(1, 9);
-    for (let i = 0; i < 2; i++) for (let j = 0; j < 2; j++) expect(c.arrhenius.covariance[i][j] / cov.get(i, j)).toBeCloseTo(1, 7);
+    const N = ys.length;
+    const W = (tau2: number) => {
+      const M = Matrix.zeros(N, N);
+      for (const b of blocks) {
+        const K = b.V.length;
+        const Vi = inverse(new Matrix(b.V.map((row, i) => row.map((v, j) => v + (i === j ? tau2 : 0)))));
+        for (let i = 0; i < K; i++) for (let j = 0; j < K; j++) M.set(b.start + i, b.start + j, Vi.get(i, j));
+      }
+      return M;
+    };
+    const y = Matrix.columnVector(ys);
+    const check = (
+      X: Matrix,
+      fit: { q: number; tau2: number; params: Record<string, number | null>; covariance: number[][] },
+      order: string[],
+    ) => {
+      const p = X.columns;
+      const gls = (w: Matrix) => {
+        const cov = inverse(X.transpose().mmul(w).mmul(X));
+        return { cov, beta: cov.mmul(X.transpose()).mmul(w).mmul(y) };
+      };
+      // DL: Q = rᵀV⁻¹r about the fixed-effect fit; tr P = tr W − tr((XᵀWX)⁻¹XᵀW²X).
+      const W0 = W(0);
+      const fixed = gls(W0);
+      const r = y.clone().sub(X.mmul(fixed.beta));
+      const Q = r.transpose().mmul(W0).mmul(r).get(0, 0);
+      const trP = W0.trace() - fixed.cov.mmul(X.transpose().mmul(W0).mmul(W0).mmul(X)).trace();
+      const tau2 = Math.max(0, (Q - (N - p)) / trP);
+      expect(fit.q / Q).toBeCloseTo(1, 8);
+      expect(fit.tau2).toBeGreaterThan(0);
+      expect(fit.tau2 / tau2).toBeCloseTo(1, 8);
+      const random = gls(W(tau2));
+      // Published order [lnA, (n,) Ea]; dense columns [1, −1/(RT), (ln(T/T0))].
+      const idx = order.map((name) => ["lnA", "Ea", "n"].indexOf(name));
+      order.forEach((name, a) => {
+        expect((fit.params[name] as number) / random.beta.get(idx[a], 0)).toBeCloseTo(1, 8);
+        order.forEach((_, b) => expect(fit.covariance[a][b] / random.cov.get(idx[a], idx[b])).toBeCloseTo(1, 7));
+      });
+    };
+    check(new Matrix(F), c.arrhenius, ["lnA", "Ea"]);
+    const F3 = F.map((row) => [...row, Math.log(-1 / (GAS_CONSTANT * row[1]) / 298.15)]);
+    check(new Matrix(F3), c.modifiedArrhenius!, ["lnA", "n", "Ea"]);
   });
 
-  it("finds no between-dataset variance for consistent datasets and flags none of them", () => {
-    const normal = makeNormal(5);
-    const sets = [
-      makeSet("a", normal),
-      makeSet("b", normal, { T1: 200, T2: 300, n: 8 }),
-      makeSet("c", normal, { T1: 280, T2: 450, n: 12 }),
-      makeSet("d", normal, { sigma: 0.05 }),
-      makeSet("e", normal, { n: 6 }),
+  it("with one dataset reproduces its own Arrhenius fit, with the covariance of its support values", () => {
+    const set = makeSet("only", makeNormal(3), { n: 14, truth: { A: 2.45e-12, Ea: 14757.67 } });
+    const c = consensus([set]);
+    const a = analyseDataset({ points: set.points, order: 2 }).arrhenius;
+    expect(c.arrhenius.params.Ea / a.params.Ea).toBeCloseTo(1, 9);
+    expect(c.arrhenius.params.lnA).toBeCloseTo(a.params.lnA, 9);
+    expect(c.arrhenius.tau2).toBe(0);
+    const widen = (t95(12) / Z95) ** 2;
+    for (let i = 0; i < 2; i++)
+      for (let j = 0; j < 2; j++) expect(c.arrhenius.covariance[i][j] / (widen * a.covariance![i][j])).toBeCloseTo(1, 8);
+    expect(member(c, "only").disagreement).toBeNull();
+    expect(member(c, "only").verdict).toMatch(/only dataset in the consensus/);
+    expect(c.flags.map((f) => f.code)).toEqual(["few_datasets"]);
+  });
+
+  it("diagonalises small covariances exactly (Jacobi)", () => {
+    const A = [4, 1, 0.5, 1, 3, 0.2, 0.5, 0.2, 2];
+    const { values, vectors } = symmetricEigen(A, 3);
+    for (let i = 0; i < 3; i++) {
+      for (let r = 0; r < 3; r++) {
+        let Av = 0;
+        for (let k = 0; k < 3; k++) Av += A[r * 3 + k] * vectors[k * 3 + i];
+        expect(Av).toBeCloseTo(values[i] * vectors[r * 3 + i], 13);
+      }
+    }
+    expect(values.reduce((a, b) => a + b, 0)).toBeCloseTo(9, 13);
+  });
+
+  it("merges prefix and suffix factors for many datasets: close to the exact leave-one-out fits", () => {
+    const normal = makeNormal(41);
+    const sets = Array.from({ length: 30 }, (_, j) => makeSet(`s${j}`, normal, { n: 6, factor: Math.exp(0.2 * normal()) }));
+    const supports = sets.map((s) => summariseDataset({ id: s.id, points: s.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15));
+    const rows = buildRows(supports, 298.15);
+    const blocks = sets.map((_, j) => j);
+    const full = fitModel(rows, blocks, 2)!;
+    expect(full.tau2).toBeGreaterThan(0);
+    const exact = leaveOneOutFits(rows, blocks, 2, full, true);
+    const approx = leaveOneOutFits(rows, blocks, 2, full, false);
+    for (let i = 0; i < blocks.length; i++) {
+      expect(approx[i]!.tau2).toBe(exact[i]!.tau2);
+      expect(approx[i]!.beta[0]).toBeCloseTo(exact[i]!.beta[0], 2);
+      // The exact one is the fit of the others at their own τ².
+      const others = blocks.filter((j) => j !== i);
+      const direct = fitModel(rows, others, 2)!;
+      expect(exact[i]!.beta[0]).toBeCloseTo(direct.beta[0], 10);
+      expect(exact[i]!.beta[1]).toBeCloseTo(direct.beta[1], 10);
+      expect(exact[i]!.tau2).toBeCloseTo(direct.tau2, 12);
+    }
+  });
+});
+
+describe("consensus: constructed cases with a known answer", () => {
+  /** Three measured sets from TRUE with noise, one wide computed set with another curvature. */
+  function baseSets(seed: number): ConsensusDataset[] {
+    const normal = makeNormal(seed);
+    return [
+      makeSet("m1", normal, { n: 10, T1: 220, T2: 420, sd: 0.05, sigma: 0.05 }),
+      makeSet("m2", normal, { n: 8, T1: 250, T2: 400, sd: 0.06 }),
+      makeSet("m3", normal, { n: 9, T1: 230, T2: 380, sd: 0.05, sigma: 0.05 }),
+      computedSet("calc", normal),
     ];
+  }
+
+  it.each([5, 6, 7])("flags no measured set, and the consensus lies in each measured set's band over its range (seed %i)", (seed) => {
+    const sets = baseSets(seed);
     const c = consensus(sets);
-    expect(c.arrhenius.tau2).toBeLessThan(1e-4);
-    expect(c.flags).toEqual([]);
-    expect(c.arrhenius.params.Ea / TRUE.Ea).toBeCloseTo(1, 1);
-    for (const m of c.members) expect(Math.abs(m.offsetLog10)).toBeLessThan(0.05);
+    for (const id of ["m1", "m2", "m3"]) {
+      const m = member(c, id);
+      expect(m.disagreement!.off).toBe(false);
+      expect(m.verdict).toMatch(new RegExp(`^Dataset ${id} agrees with the consensus of the other 3.* within its uncertainty`));
+      const band = analyseDataset({ points: sets.find((s) => s.id === id)!.points, order: 2 }).band;
+      band.T.forEach((T, i) => {
+        const v = lnkOf(c, T);
+        expect(v).toBeGreaterThan(band.lower![i]);
+        expect(v).toBeLessThan(band.upper![i]);
+      });
+    }
+    expect(c.flags.filter((f) => f.code === "off_consensus").map((f) => f.datasetIds)).not.toContainEqual(["m1"]);
+    // The computed set alone covers 420–2000 K: the consensus is given there with one dataset behind it.
+    expect(c.range).toEqual({ Tmin: 200, Tmax: 2000 });
+    const f2000 = preferred(c).uncertaintyFactor.at(-1)!;
+    expect(f2000).toMatchObject({ T: 2000, datasets: 1 });
+    expect(preferred(c).uncertaintyFactor.find((u) => u.T === 298.15)!.datasets).toBe(4);
+    expectAllFinite(c);
   });
 
-  it("flags a dataset a factor of 3 off the others", () => {
+  it("flags a set shifted by a factor 3, above, by that factor, with the same activation energy", () => {
+    const sets = baseSets(5);
+    sets[1] = { ...sets[1], points: sets[1].points.map((p) => ({ ...p, k: p.k * 3 })) };
+    const c = consensus(sets);
+    const m = member(c, "m2");
+    const d = m.disagreement!;
+    expect(d.off).toBe(true);
+    for (const p of d.points) {
+      expect(p.log10Ratio).toBeGreaterThan(Math.log10(2.4));
+      expect(p.log10Ratio).toBeLessThan(Math.log10(3.7));
+      expect(p.z).toBeGreaterThan(0);
+    }
+    expect(d.meanOffsetLog10).toBeCloseTo(Math.log10(3), 1);
+    expect(d.activationEnergy).toBe("same");
+    expect(m.verdict).toMatch(
+      /^Dataset m2 is off the consensus of the other 3( \(which rests \d+ % on [^)]+\))?: a factor (2\.[6-9]|3\.[0-4]) above at 250 K, .* above at 400 K — about the same factor throughout/,
+    );
+    const flags = c.flags.filter((f) => f.code === "off_consensus");
+    expect(flags.map((f) => f.datasetIds)).toEqual([["m2"]]);
+    for (const id of ["m1", "m3"]) expect(member(c, id).disagreement!.off).toBe(false);
+  });
+
+  it("flags a set whose slope disagrees and says where: ×5 at the cold end, agreeing at the hot end", () => {
     const normal = makeNormal(8);
     const sets = [
-      makeSet("a", normal),
-      makeSet("b", normal, { n: 8 }),
-      makeSet("c", normal, { n: 12 }),
-      makeSet("d", normal),
-      makeSet("high", normal, { factor: 3 }),
+      makeSet("a", normal, { sigma: 0.05 }),
+      makeSet("b", normal, { n: 8, T1: 240, T2: 400 }),
+      makeSet("c", normal, { n: 9, sigma: 0.05 }),
+      // k × 5 at 220 K falling to × 1 at 420 K, linear in 1/T: a lower activation energy.
+      makeSet("tilted", normal, { sd: 0.03, factor: (T) => 5 ** ((1 / T - 1 / 420) / (1 / 220 - 1 / 420)) }),
     ];
     const c = consensus(sets);
-    const off = c.flags.filter((f) => f.code === "off_consensus");
-    expect(off.map((f) => f.datasetIds)).toEqual([["high"]]);
-    expect(off[0].message).toMatch(/Dataset high lies a factor of (2\.9\d|3\.0\d) above the other datasets/);
-    const high = c.members.find((m) => m.id === "high")!;
-    expect(high.offsetFromOthersLog10!).toBeCloseTo(Math.log10(3), 1);
-    expect(high.zScore!).toBeGreaterThan(2);
-    expect(c.arrhenius.tau2).toBeGreaterThan(0.05);
-    expect(c.arrhenius.uncertaintyFactor[0].f).toBeGreaterThan(1.5);
+    const d = member(c, "tilted").disagreement!;
+    expect(d.off).toBe(true);
+    expect(d.points[0].T).toBe(220);
+    expect(d.points[0].agrees).toBe(false);
+    expect(d.points[0].ratio!).toBeGreaterThan(4);
+    expect(d.points[0].ratio!).toBeLessThan(6.2);
+    expect(d.points.at(-1)!.T).toBe(420);
+    expect(d.points.at(-1)!.agrees).toBe(true);
+    expect(d.activationEnergy).toBe("lower");
+    expect(member(c, "tilted").verdict).toMatch(
+      /^Dataset tilted is off the consensus of the other 3( \(which rests \d+ % on [^)]+\))?: a factor (4\.\d|5\.\d|6\.\d) above at 220 K, .*agrees at .*420 K: its activation energy is lower than the others'\.$/,
+    );
+    const flag = c.flags.find((f) => f.code === "off_consensus")!;
+    expect(flag.datasetIds).toEqual(["tilted"]);
   });
 
+  it("never flags a very precise set that agrees", () => {
+    const normal = makeNormal(13);
+    const sets = [
+      makeSet("a", normal, { sd: 0.08 }),
+      makeSet("b", normal, { n: 8, sd: 0.08, T1: 240, T2: 400 }),
+      makeSet("c", normal, { n: 9, sd: 0.08 }),
+      makeSet("precise", normal, { n: 30, sd: 0.002, sigma: 0.002 }),
+    ];
+    const c = consensus(sets);
+    const m = member(c, "precise");
+    expect(m.disagreement!.off).toBe(false);
+    for (const p of m.disagreement!.points) expect(Math.abs(p.z)).toBeLessThan(m.disagreement!.bound);
+    expect(c.flags.some((f) => f.datasetIds?.includes("precise"))).toBe(false);
+    expect(m.verdict).toMatch(
+      /^Dataset precise agrees with the consensus of the other 3( \(which rests \d+ % on [^)]+\))? within its uncertainty at 220, 289 and 420 K/,
+    );
+  });
+
+  it("says in words where two datasets disagree when only two are in the consensus", () => {
+    const normal = makeNormal(2);
+    const c = consensus([makeSet("a", normal, { sd: 0.02 }), makeSet("b", normal, { sd: 0.02, factor: 2 })]);
+    expect(c.flags.map((f) => f.code).sort()).toEqual(["datasets_disagree", "datasets_disagree", "few_datasets"]);
+    expect(member(c, "b").verdict).toMatch(
+      /^Dataset b is off the only other dataset: a factor (1\.9\d|2\.0|2\.1) above at 220 K, .* above at 420 K/,
+    );
+    expect(member(c, "a").verdict).toMatch(/^Dataset a is off the only other dataset: a factor (1\.9\d|2\.0|2\.1) below at 220 K/);
+  });
+
+  it("judges two disagreeing datasets alike, a curved one by its own curve", () => {
+    const normal = makeNormal(53);
+    const curved = makeSet("curved", normal, {
+      n: 16,
+      T1: 200,
+      T2: 2000,
+      sd: 0.01,
+      factor: (T) => (T / 298.15) ** 2.4 * Math.exp(2.4 * (1 - 298.15 / T)),
+    });
+    const c = consensus([makeSet("straight", normal), curved]);
+    expect(member(c, "curved").model).toBe("modified_arrhenius");
+    for (const id of ["straight", "curved"]) {
+      const d = member(c, id).disagreement!;
+      expect(d.off).toBe(true);
+      // The other side is one dataset: its own fit, no between-dataset variance to hide behind.
+      expect(d.tau2).toBe(0);
+      expect(d.points[0].T).toBe(220);
+      expect(Math.abs(d.points[0].log10Ratio)).toBeGreaterThan(Math.log10(4));
+    }
+    expect(member(c, "straight").disagreement!.model).toBe("modified_arrhenius");
+    expect(member(c, "straight").disagreement!.activationEnergy).toBe("lower");
+    expect(member(c, "curved").disagreement!.activationEnergy).toBe("higher");
+    expect(c.flags.filter((f) => f.code === "datasets_disagree").map((f) => f.datasetIds![0])).toEqual(["straight", "curved"]);
+  });
+
+  it("does not compare a dataset the others do not overlap, and gives f(T) only where the data are", () => {
+    const normal = makeNormal(19);
+    const c = consensus([
+      makeSet("a", normal),
+      makeSet("b", normal, { n: 8 }),
+      makeSet("c", normal, { n: 8, T1: 240, T2: 400 }),
+      makeSet("hot", normal, { T1: 800, T2: 1200, n: 6 }),
+    ]);
+    const hot = member(c, "hot");
+    expect(hot.disagreement!.range).toBeNull();
+    expect(hot.disagreement!.points).toEqual([]);
+    expect(hot.verdict).toMatch(
+      /^Dataset hot \(800 K–1200 K\) lies outside the temperatures of the consensus of the other 3 \(220 K–420 K\): not compared\.$/,
+    );
+    expect(c.flags.find((f) => f.code === "not_compared")!.datasetIds).toEqual(["hot"]);
+    const f = preferred(c).uncertaintyFactor;
+    expect(f[0].T).toBe(220);
+    expect(f.at(-1)!.T).toBe(1200);
+    expect(f.every((u) => u.T >= 220 && u.T <= 1200)).toBe(true);
+    expect(preferred(c).band.T[0]).toBe(220);
+    expect(preferred(c).band.T.at(-1)).toBe(1200);
+  });
+});
+
+describe("consensus: unit mistakes, window, exclusions, input errors", () => {
   it.each([
     ["a factor of N_A (molecule ↔ mol)", AVOGADRO],
     ["a factor of (N_A/1000) (L mol⁻¹ ↔ cm³ molecule⁻¹)", AVOGADRO * 1e-3],
@@ -143,12 +498,14 @@ describe("consensus", () => {
     const flag = c.flags.find((f) => f.code === "unit_suspect")!;
     expect(flag.datasetIds).toEqual(["wrong"]);
     expect(flag.message).toContain(label);
-    expect(flag.message).toContain("left out of the consensus");
-    expect(c.members.find((m) => m.id === "wrong")!.included).toBe(false);
-    expect(c.members.find((m) => m.id === "wrong")!.offsetLog10).toBeCloseTo(Math.log10(factor), 1);
-    // The consensus itself is not dragged by the mistaken dataset.
-    expect(c.arrhenius.params.Ea / TRUE.Ea).toBeCloseTo(1, 1);
-    expect(c.arrhenius.tau2).toBeLessThan(1e-3);
+    expect(flag.message).toContain("Left out of the consensus: a likely unit mistake");
+    const wrong = member(c, "wrong");
+    expect(wrong.included).toBe(false);
+    expect(wrong.disagreement!.meanOffsetLog10).toBeCloseTo(Math.log10(factor), 1);
+    expect(c.included).toBe(3);
+    // The consensus is not dragged by the mistaken dataset.
+    expect(Math.abs(lnkOf(c, 300) - Math.log(evaluateRateExpression(TRUE, 300)))).toBeLessThan(0.05);
+    expect(c.flags.filter((f) => f.code === "off_consensus")).toEqual([]);
   });
 
   it("recognises unit-mistake factors per reaction order", () => {
@@ -162,51 +519,57 @@ describe("consensus", () => {
     expect(matchUnitMistake(23.78, 1)).toBeNull();
   });
 
-  it("reports uncertainty factors at 298.15 K and the range ends, and no NaN", () => {
-    const normal = makeNormal(2);
-    const sets = [
-      makeSet("a", normal, { T1: 350, T2: 600 }),
-      makeSet("b", normal, { T1: 400, T2: 700, factor: 1.5 }),
-      makeSet("c", normal, { n: 3, T1: 500, T2: 500.5 }),
-    ];
-    const c = consensus(sets);
-    const [at298, atMin, atMax] = c.arrhenius.uncertaintyFactor;
-    expect(at298).toMatchObject({ T: 298.15, extrapolated: true });
-    expect(atMin).toMatchObject({ T: 350, extrapolated: false });
-    expect(atMax).toMatchObject({ T: 700, extrapolated: false });
-    for (const u of [at298, atMin, atMax]) expect(u.f).toBeGreaterThan(1);
-    // Extrapolating to 298 K widens the band.
-    expect(at298.f).toBeGreaterThan(atMin.f);
-    expect(c.arrhenius.band.T).toHaveLength(50);
-    expectAllFinite(c);
+  it("keeps only the points inside a temperature window and says what went in", () => {
+    const normal = makeNormal(29);
+    const sets = [makeSet("a", normal), makeSet("b", normal, { n: 8 }), makeSet("hot", normal, { T1: 600, T2: 900 })];
+    const c = consensus(sets, { window: { Tmin: 250, Tmax: 380 } });
+    expect(c.window).toEqual({ Tmin: 250, Tmax: 380 });
+    expect(c.datasets).toBe(3);
+    expect(c.included).toBe(2);
+    const a = member(c, "a");
+    expect(a.pointsGiven).toBe(10);
+    expect(a.n).toBe(a.pointsGiven - sets[0].points.filter((p) => p.T < 250 || p.T > 380).length);
+    expect(a.Tmin!).toBeGreaterThanOrEqual(250);
+    expect(a.Tmax!).toBeLessThanOrEqual(380);
+    expect(member(c, "hot")).toMatchObject({
+      n: 0,
+      included: false,
+      leftOut: "no points inside the temperature window",
+      disagreement: null,
+    });
+    expect(c.points).toBe(a.n + member(c, "b").n);
+    expect(c.range.Tmin).toBeGreaterThanOrEqual(250);
+    expect(c.range.Tmax).toBeLessThanOrEqual(380);
   });
 
-  it("accepts single-temperature datasets alongside others", () => {
-    const normal = makeNormal(4);
-    const room: ConsensusDataset = {
-      id: "room",
-      order: 2,
-      points: [298, 298, 298].map((T) => ({ T, k: evaluateRateExpression(TRUE, T) * Math.exp(0.05 * normal()) })),
-    };
-    const c = consensus([makeSet("a", normal), makeSet("b", normal), room]);
-    expect(c.members.find((m) => m.id === "room")!.sigmaLnK!).toBeGreaterThan(0);
-    expect(c.modifiedArrhenius).not.toBeNull();
-    expectAllFinite(c);
+  it("compares a dataset left out by the caller without letting it into the consensus", () => {
+    const normal = makeNormal(37);
+    const sets = [makeSet("a", normal), makeSet("b", normal, { n: 8 }), makeSet("c", normal), makeSet("x", normal, { factor: 3 })];
+    const without = consensus(sets.slice(0, 3));
+    const c = consensus([...sets.slice(0, 3), { ...sets[3], excludedReason: "superseded by a later measurement" }]);
+    expect(member(c, "x")).toMatchObject({ included: false, leftOut: "superseded by a later measurement" });
+    expect(member(c, "x").disagreement!.off).toBe(true);
+    expect(member(c, "x").verdict).toMatch(
+      /^Dataset x is off the consensus: .*Left out of the consensus: superseded by a later measurement\.$/,
+    );
+    // Equal up to rounding (the design is centred on every dataset's support temperatures).
+    expect(c.arrhenius.params.Ea / without.arrhenius.params.Ea).toBeCloseTo(1, 12);
+    expect(c.arrhenius.params.lnA).toBeCloseTo(without.arrhenius.params.lnA, 11);
   });
 
   it("handles a large dataset in one pass", () => {
     const normal = makeNormal(9);
-    const sets = [makeSet("big", normal, { n: 200_000, T1: 200, T2: 1000 }), makeSet("small", normal)];
-    const c = consensus(sets);
+    const c = consensus([makeSet("big", normal, { n: 200_000, T1: 200, T2: 1000 }), makeSet("small", normal)]);
     expect(c.points).toBe(200_010);
-    expect(c.arrhenius.params.Ea / TRUE.Ea).toBeCloseTo(1, 2);
+    expect(Math.abs(lnkOf(c, 400) - Math.log(evaluateRateExpression(TRUE, 400)))).toBeLessThan(0.01);
   });
 
-  it("rejects mixed orders, bad points and empty input with clear messages", () => {
+  it("rejects mixed orders, bad points, repeated ids, bad windows and empty input with clear messages", () => {
     const normal = makeNormal(1);
     const a = makeSet("a", normal);
     expect(() => consensus([])).toThrow(/at least one dataset/);
     expect(() => consensus([a, { ...makeSet("b", normal), order: 3 }])).toThrow(/Dataset b is order 3 but dataset a is order 2/);
+    expect(() => consensus([a, a])).toThrow(/Dataset a is given twice/);
     const bad = makeSet("bad", normal);
     bad.points = bad.points.map((p, i) => (i === 2 ? { ...p, k: -1 } : p));
     let caught: unknown;
@@ -219,17 +582,52 @@ describe("consensus", () => {
     expect((caught as AnalysisError).datasetId).toBe("bad");
     expect((caught as AnalysisError).pointIndex).toBe(2);
     expect((caught as AnalysisError).message).toMatch(/^Dataset bad: Point 3 \(points\[2\]\) has rate constant k = -1/);
-    expect(() =>
-      consensus([
-        {
-          id: "flat",
-          order: 2,
-          points: [
-            { T: 300, k: 1e-12 },
-            { T: 300, k: 2e-12 },
-          ],
-        },
-      ]),
-    ).toThrow(/All points are at 300 K/);
+    expect(() => consensus([a], { window: { Tmin: 400, Tmax: 300 } })).toThrow(/Tmin \(400 K\) must be below its Tmax \(300 K\)/);
+    expect(() => consensus([a], { window: { Tmin: -5 } })).toThrow(/window's Tmin must be a positive temperature/);
+    expect(() => consensus([a], { window: { Tmin: 1000 } })).toThrow(/No dataset has points between 1000 and ∞ K/);
+    expect(() => consensus([{ ...a, excludedReason: "test" }])).toThrow(/Every dataset is left out/);
+    const flat = (id: string): ConsensusDataset => ({
+      id,
+      order: 2,
+      points: [
+        { T: 300, k: 1e-12 },
+        { T: 300, k: 2e-12 },
+      ],
+    });
+    expect(() => consensus([flat("f1"), flat("f2")])).toThrow(/cover a single temperature/);
+  });
+});
+
+describe("consensus: who carries the consensus", () => {
+  it("gives each dataset's share in the prediction, the shares adding up to 1", async () => {
+    const { buildRows: build, fitModel: fit, shareDirection, shareVectors } = await import("@/lib/kinetics/consensus-fit");
+    const normal = makeNormal(43);
+    const sets = [makeSet("a", normal), makeSet("b", normal, { n: 8, sigma: 0.05 }), computedSet("calc", normal)];
+    const supports = sets.map((s) => summariseDataset({ id: s.id, points: s.points, window: { Tmin: 0, Tmax: Infinity } }, 298.15));
+    const rows = build(supports, 298.15);
+    const blocks = [0, 1, 2];
+    for (const q of [2, 3] as const) {
+      const f = fit(rows, blocks, q)!;
+      const g = shareVectors(rows, blocks, f.weightTau2);
+      for (const T of [200, 300, 420, 1500]) {
+        const a = shareDirection(rows, f, T);
+        const shares = blocks.map((j) => a[0] * g[3 * j] + a[1] * g[3 * j + 1] + a[2] * g[3 * j + 2]);
+        expect(shares.reduce((x, y) => x + y, 0)).toBeCloseTo(1, 10);
+      }
+    }
+  });
+
+  it("names datasets by their labels and says when the others' consensus rests on one of them", () => {
+    const normal = makeNormal(47);
+    const c = consensus([
+      { ...makeSet("a", normal, { sd: 0.1 }), label: "“first measurement” (dataset 7)" },
+      { ...makeSet("b", normal, { n: 30, sd: 0.003, sigma: 0.003 }), label: "“precise calculation” (dataset 8)" },
+      { ...makeSet("c", normal, { sd: 0.1, factor: 3 }), label: "“third measurement” (dataset 9)" },
+    ]);
+    const third = member(c, "c");
+    expect(third.disagreement!.restsOn!.id).toBe("b");
+    expect(third.verdict).toMatch(
+      /^“third measurement” \(dataset 9\) is off the consensus of the other 2 \(which rests \d+ % on “precise calculation” \(dataset 8\) there\): a factor/,
+    );
   });
 });

@@ -1,0 +1,184 @@
+import { GAS_CONSTANT, type ConsensusMember, type ConsensusResult } from "@/lib/kinetics";
+import { formatSignificant } from "@/lib/format";
+
+const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
+
+/** "a factor 4.8 above" from a log10 ratio, as the engine words it. */
+function factorWords(log10: number): string {
+  const a = Math.abs(log10);
+  const size = a < 3 ? (10 ** a).toPrecision(10 ** a < 2 ? 3 : 2) : `10^${a.toFixed(2)}`;
+  return `×${size} ${log10 >= 0 ? "above" : "below"}`;
+}
+
+/** The consensus expression, what went in, f(T) over the covered range, and the engine's flags. */
+export function ConsensusSummary({
+  result,
+  kUnitLabel,
+  labels,
+  caution,
+}: {
+  result: ConsensusResult;
+  kUnitLabel: string;
+  labels: Map<string, string>;
+  caution: string;
+}) {
+  const modified = result.preferred === "modified_arrhenius" ? result.modifiedArrhenius : null;
+  const fit = modified ?? result.arrhenius;
+  const leftOut = result.members.filter((m) => !m.included);
+  const { Tmin, Tmax } = result.range;
+  return (
+    <section className="card space-y-3" aria-labelledby="consensus-heading">
+      <h2 id="consensus-heading" className="text-xl font-semibold">
+        Consensus of {result.included} datasets
+      </h2>
+      <p className="text-sm">
+        k = {sig(fit.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp(
+        {fit.params.Ea >= 0 ? "−" : "+"}
+        {sig(Math.abs(fit.params.Ea) / GAS_CONSTANT, 4)} K / T) {kUnitLabel}, for {Math.round(Tmin)}–{Math.round(Tmax)} K (
+        {modified ? "modified Arrhenius: the temperature exponent n is significant" : "Arrhenius"}).
+      </p>
+      <p className="text-sm text-muted">
+        What went in: {result.included} of {result.datasets} datasets, {result.points} points, summarised by {fit.supportValues} fitted
+        values of ln k inside each dataset&apos;s own range
+        {result.window.Tmin !== null || result.window.Tmax !== null
+          ? `; only points between ${result.window.Tmin ?? 0} and ${result.window.Tmax ?? "∞"} K`
+          : ""}
+        .
+        {leftOut.length > 0 && (
+          <>
+            {" "}
+            Left out:{" "}
+            {leftOut.map((m, i) => (
+              <span key={m.id}>
+                {i > 0 ? "; " : ""}
+                {labels.get(m.id) ?? m.id} ({m.leftOut})
+              </span>
+            ))}
+            .
+          </>
+        )}
+      </p>
+      <div className="overflow-x-auto">
+        <table className="table" aria-label="Uncertainty factor of the consensus">
+          <caption className="text-left text-sm text-muted">
+            Uncertainty factor f(T): k̂/f … k̂·f covers 95 %, spread between datasets included. Outside {Math.round(Tmin)}–{Math.round(Tmax)}{" "}
+            K the consensus is an extrapolation and no uncertainty is given.
+          </caption>
+          <thead>
+            <tr>
+              <th scope="col">T (K)</th>
+              <th scope="col">f</th>
+              <th scope="col">Datasets covering T</th>
+            </tr>
+          </thead>
+          <tbody>
+            {fit.uncertaintyFactor.map((u) => (
+              <tr key={u.T}>
+                <td>{Math.round(u.T * 10) / 10}</td>
+                <td>{u.f === null ? "—" : sig(u.f)}</td>
+                <td>{u.datasets}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <p className="text-sm text-muted">
+        Between-dataset variance τ² = {sig(fit.tau2)} (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
+      </p>
+      <p className="text-xs text-muted">{result.method}</p>
+      {result.flags.length > 0 && (
+        <ul className="space-y-2" aria-label="Consensus findings">
+          {result.flags.map((f, i) => (
+            <li
+              key={i}
+              className={`rounded-md border bg-panel px-3 py-2 text-sm ${f.severity === "warn" ? "border-warn/40 text-warn" : "border-line"}`}
+            >
+              {f.message}
+            </li>
+          ))}
+        </ul>
+      )}
+      <p className="text-xs text-muted">{caution}</p>
+    </section>
+  );
+}
+
+/** Each dataset against the consensus of the others: the verdict in words and per comparison temperature. */
+export function ConsensusComparisons({ result, labels }: { result: ConsensusResult; labels: Map<string, string> }) {
+  return (
+    <section className="card space-y-4" aria-labelledby="comparison-heading">
+      <h2 id="comparison-heading" className="text-xl font-semibold">
+        How each dataset compares with the others
+      </h2>
+      <p className="text-sm text-muted">
+        Each dataset is compared with the consensus of the other datasets, over the part of its range they cover. z includes the
+        dataset&apos;s own uncertainty, that of the others&apos; consensus and the spread between datasets; a dataset is off when any |z|
+        exceeds the bound for its number of temperatures (family level 5 %).
+      </p>
+      {result.members.map((m) => (
+        <MemberComparison key={m.id} member={m} label={labels.get(m.id) ?? m.id} />
+      ))}
+    </section>
+  );
+}
+
+function MemberComparison({ member: m, label }: { member: ConsensusMember; label: string }) {
+  const d = m.disagreement;
+  const status = !m.included ? "left out" : !d || !d.range ? "not compared" : d.off ? "off the consensus" : "agrees";
+  return (
+    <article className="space-y-2 border-t border-line pt-3" aria-label={`${label}: ${status}`}>
+      <h3 className="font-medium">
+        {label} <span className={`text-sm ${d?.off ? "text-warn" : "text-muted"}`}>— {status}</span>
+      </h3>
+      <p className="text-sm">{m.verdict}</p>
+      <p className="text-xs text-muted">
+        {m.n} points, {m.Tmin !== null ? `${Math.round(m.Tmin)}–${Math.round(m.Tmax!)} K` : "no temperatures"}; summarised by its{" "}
+        {m.model === "modified_arrhenius"
+          ? "modified Arrhenius"
+          : m.model === "single_temperature"
+            ? "mean at one temperature"
+            : "Arrhenius"}{" "}
+        fit{m.share !== null ? `; share in the consensus at the middle of its range ${Math.round(m.share * 100)} %` : ""}.
+      </p>
+      {d && d.points.length > 0 && (
+        <div className="overflow-x-auto">
+          <table className="table" aria-label={`${label} against the others`}>
+            <thead>
+              <tr>
+                <th scope="col">T (K)</th>
+                <th scope="col">k / k of the others</th>
+                <th scope="col">z</th>
+                <th scope="col">|z| ≤ {d.bound.toFixed(2)}?</th>
+              </tr>
+            </thead>
+            <tbody>
+              {d.points.map((p) => (
+                <tr key={p.T}>
+                  <td>{Math.round(p.T)}</td>
+                  <td>
+                    {p.ratio !== null && Math.abs(p.log10Ratio) < 3 ? sig(p.ratio) : `10^${p.log10Ratio.toFixed(2)}`} (
+                    {factorWords(p.log10Ratio)})
+                  </td>
+                  <td>{p.z.toFixed(1)}</td>
+                  <td className={p.agrees ? "" : "font-medium text-warn"}>{p.agrees ? "agrees" : "off"}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </article>
+  );
+}
+
+/** One short cell for the datasets table. */
+export function comparisonCell(m: ConsensusMember | undefined): string {
+  if (!m) return "—";
+  const d = m.disagreement;
+  if (!m.included && m.leftOut) return `left out: ${m.leftOut}`;
+  if (!d) return "—";
+  if (!d.range) return "not compared (no overlap)";
+  if (!d.off) return "agrees";
+  const worst = d.points.reduce((a, b) => (Math.abs(b.z) > Math.abs(a.z) ? b : a));
+  return `off: ${factorWords(worst.log10Ratio)} at ${Math.round(worst.T)} K`;
+}
