@@ -29,6 +29,7 @@ export {
   convertEnergy,
   convertPressure,
   convertRateConstant,
+  convertRateConstantBetween,
   convertTemperature,
   fromCanonicalRateConstant,
   getCanonicalRateConstantUnit,

@@ -50,7 +50,8 @@ export type FlagCode =
   | "excess_scatter"
   | "too_few_points"
   | "reported_fit_disagrees"
-  | "uncertainties_ignored";
+  | "uncertainties_ignored"
+  | "modified_fit_undetermined";
 
 /** One machine finding about a dataset. */
 export interface Flag {
