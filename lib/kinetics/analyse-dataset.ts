@@ -207,12 +207,17 @@ function prepareInput(input: AnalysisInput): Prepared {
   const lnT0 = Math.log(T0);
   let Tmin = points[0].T;
   let Tmax = Tmin;
+  let iMin = 0;
   for (let i = 0; i < n; i++) {
     const pt = points[i];
-    T[i] = pt.T;
+    const Ti = pt.T;
+    T[i] = Ti;
     y[i] = Math.log(pt.k);
-    if (T[i] < Tmin) Tmin = T[i];
-    if (T[i] > Tmax) Tmax = T[i];
+    if (Ti < Tmin) {
+      Tmin = Ti;
+      iMin = i;
+    }
+    if (Ti > Tmax) Tmax = Ti;
   }
   if (Tmin === Tmax) {
     throw new AnalysisError(
@@ -223,22 +228,28 @@ function prepareInput(input: AnalysisInput): Prepared {
   // Columns as differences from a temperature inside the data: T − Tref is exact for nearby T,
   // so a window of microkelvin keeps full relative precision in 1/T − 1/Tref.
   const Tref = Tmin / 2 + Tmax / 2;
+  if (!Number.isFinite(Tmax / Tref / (GAS_CONSTANT * Tmin))) {
+    throw new AnalysisError(
+      "invalid_point",
+      `Point ${iMin + 1} (points[${iMin}]) has temperature T = ${Tmin} K, too small to fit: 1/T exceeds the largest representable number. Check the value and its unit.`,
+      { pointIndex: iMin },
+    );
+  }
   const shiftE = 1 / (GAS_CONSTANT * Tref);
-  const shiftLnT = lnT0 - Math.log(Tref);
+  const lnTref = Math.log(Tref);
+  const shiftLnT = lnT0 - lnTref;
+  // ln T − ln Tref is exact enough unless the window is narrow; then log1p of the exact difference.
+  const narrow = Tmax < 2 * Tmin;
   for (let i = 0; i < n; i++) {
-    const rel = (T[i] - Tref) / Tref;
-    xE[i] = -1 / (GAS_CONSTANT * T[i]);
-    xEc[i] = rel / (GAS_CONSTANT * T[i]);
-    lnTabs[i] = Math.log(T[i]);
-    lnT[i] = lnTabs[i] - lnT0;
-    lnTc[i] = Math.log1p(rel);
-    if (!Number.isFinite(xE[i]) || !Number.isFinite(xEc[i])) {
-      throw new AnalysisError(
-        "invalid_point",
-        `Point ${i + 1} (points[${i}]) has temperature T = ${T[i]} K, too small to fit: 1/T exceeds the largest representable number. Check the value and its unit.`,
-        { pointIndex: i },
-      );
-    }
+    const Ti = T[i];
+    // (T − Tref)/(R·T·Tref): T − Tref is exact for T near Tref.
+    const xc = ((Ti - Tref) * shiftE) / Ti;
+    xEc[i] = xc;
+    xE[i] = xc - shiftE;
+    const lnTi = Math.log(Ti);
+    lnTabs[i] = lnTi;
+    lnT[i] = lnTi - lnT0;
+    lnTc[i] = narrow ? Math.log1p((Ti - Tref) / Tref) : lnTi - lnTref;
   }
   const sw = allSigma ? wsSw : null;
   let sumLogW = 0;
@@ -309,8 +320,14 @@ function prepareWeights(points: AnalysisInput["points"], sw: Float64Array, n: nu
       );
     }
     sw[i] = s;
-    if (s > maxSw) [maxSw, iMax] = [s, i];
-    if (s < minSw) [minSw, iMin] = [s, i];
+    if (s > maxSw) {
+      maxSw = s;
+      iMax = i;
+    }
+    if (s < minSw) {
+      minSw = s;
+      iMin = i;
+    }
   }
   const scale = maxSw > WEIGHT_RESCALE_LIMIT || maxSw < 1 / WEIGHT_RESCALE_LIMIT ? 2 ** Math.round(Math.log2(maxSw)) : 1;
   if ((minSw / maxSw) ** 2 < MIN_RELATIVE_WEIGHT) {
@@ -505,7 +522,7 @@ function rssWithout(i: number, d: Prepared): number {
 
 /** −1/(RT) + 1/(R·Tref), the fitted 1/T column, at any temperature. */
 function shiftedInverseT(d: Prepared, T: number): number {
-  return (T - d.Tref) / d.Tref / (GAS_CONSTANT * T);
+  return ((T - d.Tref) * d.shiftE) / T;
 }
 
 function computeBand(fit: CentredFit, s: FitSummary, d: Prepared, model: ConfidenceBand["model"]): ConfidenceBand {
@@ -520,12 +537,13 @@ function computeBand(fit: CentredFit, s: FitSummary, d: Prepared, model: Confide
   const invMax = 1 / d.Tmax;
   // The point in the fit's shifted coordinates: [ln(T/Tref), 1/(R·Tref) − 1/(RT)] or the latter alone.
   const x = p === 3 ? [0, 0] : [0];
+  const pred = { value: 0, variance: 0 };
   for (let i = 0; i < BAND_POINTS; i++) {
     const Ti = i === 0 ? d.Tmin : i === BAND_POINTS - 1 ? d.Tmax : 1 / (invMin + ((invMax - invMin) * i) / (BAND_POINTS - 1));
     T[i] = Ti;
     if (p === 3) x[0] = Math.log1p((Ti - d.Tref) / d.Tref);
     x[p - 2] = shiftedInverseT(d, Ti);
-    const pred = predictCentred(fit, x);
+    predictCentred(fit, x, pred);
     const v = pred.value;
     lnk[i] = v;
     if (lower && upper) {

@@ -19,6 +19,9 @@ import {
 const RANK_TOLERANCE = 1e-12;
 const MAX_P = 3;
 
+const NO_SHIFT_1: readonly number[] = [0];
+const NO_SHIFT_2: readonly number[] = [0, 0];
+
 let capacity = 0;
 const factor: HouseholderFactor = {
   n: 0,
@@ -63,7 +66,7 @@ export interface CentredFit extends ResponseFit {
   /** Weighted means of the slope columns as given (shifted, see {@link FitOptions.shift}). */
   means: number[];
   /** Shifts of the slope columns: original column = given column − shift. */
-  shift: number[];
+  shift: readonly number[];
   /** Smallest |R_jj| of the unit-norm centred slope columns: sin of the angle between them (1 for one slope). */
   minSine: number;
   /** Inverse factor G in centred coordinates, (XcᵀWXc)⁻¹ = G·Gᵀ, row-major p×p. */
@@ -100,7 +103,7 @@ export function fitCentred(
 ): CentredFit | null {
   const q = cols.length;
   const p = q + 1;
-  const shift = options.shift ? [...options.shift] : q === 1 ? [0] : [0, 0];
+  const shift = options.shift ?? (q === 1 ? NO_SHIFT_1 : NO_SHIFT_2);
   ensureCapacity(n);
   let sumW = 0;
   const means = q === 1 ? [0] : [0, 0];
@@ -126,7 +129,7 @@ export function fitCentred(
   gramInverse(gBuf, p, ccBuf);
 
   // Means of the original columns, for the uncentred intercept.
-  const m0 = means.map((m, j) => m - shift[j]);
+  const m0 = q === 1 ? [means[0] - shift[0]] : [means[0] - shift[0], means[1] - shift[1]];
   // Back to the uncentred parameterisation: C = J·Cc·Jᵀ, J's first row [1, −m1, …].
   const cov = new Array<number>(p * p);
   for (let k = 0; k < p * p; k++) cov[k] = ccBuf[k];
@@ -238,10 +241,10 @@ export function computeLeverage(fit: CentredFit, cols: readonly Float64Array[], 
 export function predictCentred(
   fit: CentredFit,
   xShifted: readonly number[],
-  response: ResponseFit = fit,
+  out: { value: number; variance: number } = { value: 0, variance: 0 },
 ): { value: number; variance: number } {
   const { p, g, means } = fit;
-  const b = response.betaCentred;
+  const b = fit.betaCentred;
   let value = b[0];
   for (let j = 1; j < p; j++) value += b[j] * (xShifted[j - 1] - means[j - 1]);
   let variance = 0;
@@ -250,7 +253,9 @@ export function predictCentred(
     for (let j = 1; j <= k; j++) t += g[j * p + k] * (xShifted[j - 1] - means[j - 1]);
     variance += t * t;
   }
-  return { value, variance };
+  out.value = value;
+  out.variance = variance;
+  return out;
 }
 
 /** xᵀ·C·x for a row-major p×p matrix C. */
