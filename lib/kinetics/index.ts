@@ -31,6 +31,7 @@ export {
   convertRateConstant,
   convertRateConstantBetween,
   convertTemperature,
+  displayConversion,
   fromCanonicalRateConstant,
   getCanonicalRateConstantUnit,
   normaliseUnitText,

@@ -305,6 +305,21 @@ export function convertRateConstant(value: number, from: string, to: string, ord
   return convertRateConstantBetween(value, f, t);
 }
 
+/**
+ * For tables: the conversion's result, or NaN (shown as "—") when it leaves the range of a double,
+ * so a page never fails on a value it cannot display.
+ *
+ * @example displayConversion(() => convertRateConstant(1e300, "cm3 molecule-1 s-1", "L mol-1 s-1")) // NaN
+ */
+export function displayConversion(convert: () => number): number {
+  try {
+    return convert();
+  } catch (e) {
+    if (e instanceof UnitError && e.code === "out_of_range") return Number.NaN;
+    throw e;
+  }
+}
+
 /** Rate constant in the canonical unit of `order` (s⁻¹, cm³ molecule⁻¹ s⁻¹, cm⁶ molecule⁻² s⁻¹). */
 export function toCanonicalRateConstant(value: number, unit: string, order: ReactionOrder): number {
   return convertRateConstant(value, unit, getCanonicalRateConstantUnit(order), order);

@@ -9,7 +9,7 @@ import reference from "@/tests/fixtures/tails/reference.json";
 import { analyseDataset } from "@/lib/kinetics/analyse-dataset";
 import { AnalysisError } from "@/lib/kinetics/analysis-error";
 import { bonferroniStudentT, quantileStudentT, survivalChiSquare, survivalF, t95 } from "@/lib/kinetics/distributions";
-import { UnitError, convertEnergy, convertRateConstant, toPascal } from "@/lib/kinetics/units";
+import { UnitError, convertEnergy, convertRateConstant, displayConversion, toPascal } from "@/lib/kinetics/units";
 import { runAnalysisOrThrow } from "@/lib/analyses/analyse-request";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 import type { DepositDocument } from "@/lib/deposits/types";
@@ -210,6 +210,11 @@ describe("unit conversions that leave the range of a double", () => {
     expect(() => convertEnergy(1e307, "kcal/mol", "J mol-1")).toThrow(UnitError);
     expect(() => toPascal(1e305, "atm")).toThrow(UnitError);
     expect(convertEnergy(0, "kcal/mol", "J mol-1")).toBe(0);
+  });
+  it("tables show a value they cannot convert as NaN (printed as —) instead of failing", () => {
+    expect(displayConversion(() => convertRateConstant(1e300, "cm3 molecule-1 s-1", "cm3 mol-1 s-1"))).toBeNaN();
+    expect(displayConversion(() => convertRateConstant(1, "cm3 molecule-1 s-1", "cm3 mol-1 s-1"))).toBe(6.02214076e23);
+    expect(() => displayConversion(() => convertRateConstant(1, "furlongs", "cm3 mol-1 s-1"))).toThrow(/Unknown/);
   });
   it("the analysis request answers 422 with the point's pointer", () => {
     try {
