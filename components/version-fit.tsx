@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import type { AnalysisResult, ReactionOrder } from "@/lib/kinetics/types";
-import { SUPPORTED_UNITS, convertEnergy, fromCanonicalRateConstant } from "@/lib/kinetics/units";
+import { SUPPORTED_UNITS, convertEnergy, displayConversion, fromCanonicalRateConstant } from "@/lib/kinetics/units";
 import { ArrheniusPlot } from "./arrhenius-plot";
 import { ResultTables } from "./result-tables";
 
@@ -58,8 +58,8 @@ export function VersionFit({
         kLabel={kUnits.find((u) => u.id === kUnit)?.label ?? kUnit}
         energyUnit={energyUnit}
         energyLabel={SUPPORTED_UNITS.energy.find((u) => u.id === energyUnit)?.label ?? energyUnit}
-        convertK={(k) => fromCanonicalRateConstant(k, kUnit, order)}
-        convertE={(e) => convertEnergy(e, "J mol-1", energyUnit)}
+        convertK={(k) => displayConversion(() => fromCanonicalRateConstant(k, kUnit, order))}
+        convertE={(e) => displayConversion(() => convertEnergy(e, "J mol-1", energyUnit))}
         lineOf={(i) => i + 1}
         pointWord="Point"
       />

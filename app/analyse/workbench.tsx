@@ -5,7 +5,14 @@ import { useMemo, useState } from "react";
 import { ArrheniusPlot } from "@/components/arrhenius-plot";
 import type { AnalysisResponse } from "@/lib/analyses/analyse-request";
 import { parseColumns } from "@/lib/analyses/parse-columns";
-import { SUPPORTED_UNITS, convertEnergy, fromCanonicalRateConstant, toCanonicalRateConstant, toKelvin } from "@/lib/kinetics/units";
+import {
+  SUPPORTED_UNITS,
+  convertEnergy,
+  displayConversion,
+  fromCanonicalRateConstant,
+  toCanonicalRateConstant,
+  toKelvin,
+} from "@/lib/kinetics/units";
 import type { ReactionOrder } from "@/lib/kinetics/types";
 import { ResultTables } from "@/components/result-tables";
 
@@ -194,8 +201,8 @@ export function AnalyseWorkbench() {
             kLabel={kLabel}
             energyUnit={energyUnit}
             energyLabel={SUPPORTED_UNITS.energy.find((u) => u.id === energyUnit)?.label ?? energyUnit}
-            convertK={(k) => fromCanonicalRateConstant(k, kUnit, order)}
-            convertE={(e) => convertEnergy(e, "J mol-1", energyUnit)}
+            convertK={(k) => displayConversion(() => fromCanonicalRateConstant(k, kUnit, order))}
+            convertE={(e) => displayConversion(() => convertEnergy(e, "J mol-1", energyUnit))}
             temperatureUnit={TUnit}
             lineOf={(i) => parsed.lines[i]}
           />

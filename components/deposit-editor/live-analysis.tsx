@@ -8,6 +8,7 @@ import type { AnalysisResponse } from "@/lib/analyses/analyse-request";
 import {
   SUPPORTED_UNITS,
   convertEnergy,
+  displayConversion,
   fromCanonicalRateConstant,
   getCanonicalRateConstantUnit,
   toCanonicalRateConstant,
@@ -199,8 +200,8 @@ export function LiveAnalysis({ form }: { form: EditorForm }) {
             kLabel={kLabel}
             energyUnit={energyUnit}
             energyLabel={SUPPORTED_UNITS.energy.find((u) => u.id === energyUnit)?.label ?? energyUnit}
-            convertK={(k) => fromCanonicalRateConstant(k, kUnit, order)}
-            convertE={(e) => convertEnergy(e, "J mol-1", energyUnit)}
+            convertK={(k) => displayConversion(() => fromCanonicalRateConstant(k, kUnit, order))}
+            convertE={(e) => displayConversion(() => convertEnergy(e, "J mol-1", energyUnit))}
             temperatureUnit={fitted.built.body.units.T}
             lineOf={(i) => (fitted.built.rows[i] ?? i) + 1}
             pointWord="Row"

@@ -8,11 +8,15 @@ import { orcidChecksumValid } from "@/lib/auth/orcid";
 import type { FieldError } from "@/lib/errors";
 import {
   UnitError,
+  convertRateConstantBetween,
+  getCanonicalRateConstantUnit,
   parseEnergyUnit,
   parsePressureUnit,
   parseRateConstantUnit,
   parseTemperatureUnit,
+  toPascal,
   type LinearUnit,
+  type RateConstantUnit,
   type ReactionOrder,
 } from "@/lib/kinetics";
 import { formatValue, sentenceAt, sentenceWithPrefix } from "./messages";
@@ -88,7 +92,7 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
 
   // Units. k is checked against the order only when the order itself is valid.
   const unitT = parseUnitAt(report, "/units/T", units.T, parseTemperatureUnit);
-  parseUnitAt(report, "/units/k", units.k, (t) => parseRateConstantUnit(t, order));
+  const unitK = parseUnitAt(report, "/units/k", units.k, (t) => parseRateConstantUnit(t, order));
   const unitP = parseUnitAt(report, "/units/pressure", units.pressure, parsePressureUnit);
 
   const pressureGiven = isRecord(conditions.pressure) || points.some((p) => isRecord(p) && p.pressure !== undefined);
@@ -109,10 +113,17 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
     }
   }
 
-  // Points: temperatures above absolute zero (k > 0 is in the schema).
+  // Points: temperatures above absolute zero (k > 0 is in the schema), k representable once converted.
+  const canonicalK = unitK && order ? parseRateConstantUnit(getCanonicalRateConstantUnit(order), order) : undefined;
   for (let i = 0; i < points.length; i++) {
     const p = points[i];
-    if (isRecord(p)) checkTemperature(report, `/points/${i}/T`, p.T, unitT);
+    if (!isRecord(p)) continue;
+    checkTemperature(report, `/points/${i}/T`, p.T, unitT);
+    if (unitK && canonicalK) checkRateConstantRange(report, `/points/${i}/k`, p.k, unitK, canonicalK);
+    if (unitP) checkPressureRange(report, `/points/${i}/pressure`, p.pressure, unitP);
+  }
+  if (unitP && isRecord(conditions.pressure)) {
+    for (const key of ["value", "min", "max"]) checkPressureRange(report, `/conditions/pressure/${key}`, conditions.pressure[key], unitP);
   }
 
   // Creators: ORCID check digits (the form is in the schema).
@@ -160,7 +171,32 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
     }
   }
 
-  if (isRecord(doc.reportedFit)) checkReportedFit(report, doc.reportedFit, unitT);
+  if (isRecord(doc.reportedFit)) {
+    checkReportedFit(report, doc.reportedFit, unitT);
+    if (unitK && canonicalK) checkRateConstantRange(report, "/reportedFit/A", doc.reportedFit.A, unitK, canonicalK);
+  }
+}
+
+/** Report a pressure whose value in Pa would overflow or underflow a double (negative ones are the schema's). */
+function checkPressureRange(report: Report, pointer: string, value: unknown, unit: LinearUnit): void {
+  if (!isFiniteNumber(value) || value <= 0) return;
+  try {
+    toPascal(value, unit.id);
+  } catch (e) {
+    if (!(e instanceof UnitError)) throw e;
+    report({ pointer, message: e.message, value });
+  }
+}
+
+/** Report a rate constant whose value in canonical units would overflow or underflow a double. */
+function checkRateConstantRange(report: Report, pointer: string, value: unknown, from: RateConstantUnit, to: RateConstantUnit): void {
+  if (!isFiniteNumber(value) || value <= 0) return;
+  try {
+    convertRateConstantBetween(value, from, to);
+  } catch (e) {
+    if (!(e instanceof UnitError)) throw e;
+    report({ pointer, message: e.message, value });
+  }
 }
 
 function checkReportedFit(report: Report, fit: Record<string, unknown>, unitT: LinearUnit | undefined): void {

@@ -5,7 +5,7 @@
 import { AnalysisError } from "./analysis-error";
 import { AVOGADRO, GAS_CONSTANT, LN_BOLTZMANN_OVER_PLANCK, REFERENCE_TEMPERATURE } from "./constants";
 import { bonferroniStudentT, quantileStudentT, survivalChiSquare, survivalF, t95 } from "./distributions";
-import { computeLeverage, fitCentred, quadraticForm, type CentredFit } from "./fit-centred";
+import { computeLeverage, fitCentred, predictCentred, type CentredFit } from "./fit-centred";
 import { extrapolationOf } from "./extrapolation";
 import { formatFlagMessage, type FlagDraft, type FlagQuantities } from "./flag-text";
 import { cooksDistanceBound } from "./influence-bound";
@@ -62,6 +62,16 @@ const P_ARRHENIUS = 2;
  * nor produce outliers or curvature from rounding.
  */
 const NOISE_FLOOR = 1e-13;
+/**
+ * Below this sine of the angle between the centred ln T and 1/T columns (a window of ~20 mK at
+ * 300 K) rounding of the data alone moves n and Ea by more than ~1e-6 relative (error ∝ ε/sin²θ):
+ * the modified Arrhenius fit is reported as not determinable.
+ */
+export const MODIFIED_MIN_SINE = 1e-5;
+/** √w beyond 2^±450 (w beyond ~1e±271) is rescaled by a power of two before fitting. */
+const WEIGHT_RESCALE_LIMIT = 2 ** 450;
+/** Relative weights w_min/w_max below this cannot be represented together. */
+const MIN_RELATIVE_WEIGHT = 1e-280;
 
 const LN_LITRE_PER_MOLECULE_CM3 = Math.log(AVOGADRO * 1e-3);
 
@@ -75,6 +85,8 @@ let wsLnT = new Float64Array(0);
 let wsLnTabs = new Float64Array(0);
 let wsSw = new Float64Array(0);
 let wsYe = new Float64Array(0);
+let wsXEc = new Float64Array(0);
+let wsLnTc = new Float64Array(0);
 
 function ensureWorkspace(n: number): void {
   if (n <= workspaceSize) return;
@@ -86,6 +98,8 @@ function ensureWorkspace(n: number): void {
   wsLnTabs = new Float64Array(workspaceSize);
   wsSw = new Float64Array(workspaceSize);
   wsYe = new Float64Array(workspaceSize);
+  wsXEc = new Float64Array(workspaceSize);
+  wsLnTc = new Float64Array(workspaceSize);
 }
 
 interface Prepared {
@@ -97,7 +111,16 @@ interface Prepared {
   xE: Float64Array; // −1/(RT): the coefficient on this column is Ea in J mol⁻¹
   lnT: Float64Array; // ln(T/T0)
   lnTabs: Float64Array; // ln(T/K)
+  /** Tref = (Tmin + Tmax)/2: the fitted columns are differences from it, formed without cancellation. */
+  Tref: number;
+  xEc: Float64Array; // −1/(RT) + 1/(R·Tref) = (T − Tref)/(R·T·Tref)
+  lnTc: Float64Array; // ln(T/Tref)
+  shiftE: number; // xEc − xE
+  shiftLnT: number; // lnTc − lnT
+  /** √wᵢ divided by weightScale (a power of two, 1 unless 1/σ² would overflow or underflow). */
   sw: Float64Array | null;
+  weightScale: number;
+  /** Σ ln wᵢ with the stated (unscaled) weights. */
   sumLogW: number;
   weighted: boolean;
   someSigma: boolean;
@@ -109,6 +132,9 @@ interface Prepared {
 
 interface FitSummary {
   dof: number;
+  /** Σ wᵢrᵢ² with the stated weights. */
+  rss: number;
+  /** s² with the scaled weights: pairs with the fit's unscaled covariance. */
   s2: number | null;
   cov: number[][] | null;
   se: (number | null)[];
@@ -128,9 +154,9 @@ interface FitSummary {
  */
 export function analyseDataset(input: AnalysisInput): AnalysisResult {
   const d = prepareInput(input);
-  const { n, y, xE, lnT, sw } = d;
-  const colsA = [xE];
-  const arrFit = fitCentred(colsA, y, sw, n, [eyringResponse(d)]);
+  const { n, y, sw } = d;
+  const colsA = [d.xEc];
+  const arrFit = fitCentred(colsA, y, sw, n, [eyringResponse(d)], { shift: [d.shiftE] });
   if (!arrFit) {
     throw new AnalysisError("too_few_temperatures", "The temperatures are too close together to fit an Arrhenius expression.");
   }
@@ -139,8 +165,11 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
 
   const arrhenius = buildArrhenius(arrFit, arrSum, tArr, d);
 
-  const colsM = [lnT, xE];
-  const modFit = d.distinctT >= 3 ? fitCentred(colsM, y, sw, n) : null;
+  const colsM = [d.lnTc, d.xEc];
+  let modFit = d.distinctT >= 3 ? fitCentred(colsM, y, sw, n, [], { shift: [d.shiftLnT, d.shiftE] }) : null;
+  // ln T and 1/T are nearly proportional over a very narrow window: n and Ea would be rounding noise.
+  const modSine = modFit && modFit.minSine < MODIFIED_MIN_SINE ? modFit.minSine : null;
+  if (modSine !== null) modFit = null;
   const modSum = modFit ? summariseFit(modFit, d, y) : null;
   const modifiedArrhenius = modFit && modSum ? buildModified(modFit, modSum, d) : null;
 
@@ -170,6 +199,15 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
   const band = computeBand(chosen.fit, chosen.sum, d, chosen.model);
 
   const flags = collectFlags(d, { arrFit, arrSum, arrhenius, modifiedArrhenius, diagnostics, curvature, band, chosen }, input);
+  if (modSine !== null) {
+    flags.push(
+      toFlag({
+        code: "modified_fit_undetermined",
+        severity: "info",
+        quantities: { Tmin: temperature(d.Tmin), Tmax: temperature(d.Tmax), sine: statistic(modSine) },
+      }),
+    );
+  }
   return { n, weighted: d.weighted, arrhenius, modifiedArrhenius, eyring, diagnostics, curvature, band, flags };
 }
 
@@ -194,37 +232,68 @@ function prepareInput(input: AnalysisInput): Prepared {
   const xE = wsXE;
   const lnT = wsLnT;
   const lnTabs = wsLnTabs;
+  const xEc = wsXEc;
+  const lnTc = wsLnTc;
   const lnT0 = Math.log(T0);
-  const sw = allSigma ? wsSw : null;
-  let sumLogW = 0;
-  let rssFloor = 0;
+  let Tmin = points[0].T;
+  let Tmax = Tmin;
+  let iMin = 0;
   for (let i = 0; i < n; i++) {
     const pt = points[i];
-    T[i] = pt.T;
+    const Ti = pt.T;
+    T[i] = Ti;
     y[i] = Math.log(pt.k);
-    xE[i] = -1 / (GAS_CONSTANT * pt.T);
-    lnTabs[i] = Math.log(pt.T);
-    lnT[i] = lnTabs[i] - lnT0;
-    let w = 1;
-    if (sw) {
-      sw[i] = 1 / (pt.sigmaLnK as number);
-      w = sw[i] * sw[i];
-      sumLogW += Math.log(w);
+    if (Ti < Tmin) {
+      Tmin = Ti;
+      iMin = i;
     }
-    const noise = NOISE_FLOOR * (1 + Math.abs(y[i]));
-    rssFloor += w * noise * noise;
-  }
-  let Tmin = T[0];
-  let Tmax = T[0];
-  for (let i = 1; i < n; i++) {
-    if (T[i] < Tmin) Tmin = T[i];
-    if (T[i] > Tmax) Tmax = T[i];
+    if (Ti > Tmax) Tmax = Ti;
   }
   if (Tmin === Tmax) {
     throw new AnalysisError(
       "too_few_temperatures",
       `All ${n} points are at the same temperature (${Tmin} K); at least two different temperatures are needed to fit k(T).`,
     );
+  }
+  // Columns as differences from a temperature inside the data: T − Tref is exact for nearby T,
+  // so a window of microkelvin keeps full relative precision in 1/T − 1/Tref.
+  const Tref = Tmin / 2 + Tmax / 2;
+  if (!Number.isFinite(Tmax / Tref / (GAS_CONSTANT * Tmin))) {
+    throw new AnalysisError(
+      "invalid_point",
+      `Point ${iMin + 1} (points[${iMin}]) has temperature T = ${Tmin} K, too small to fit: 1/T exceeds the largest representable number. Check the value and its unit.`,
+      { pointIndex: iMin },
+    );
+  }
+  const shiftE = 1 / (GAS_CONSTANT * Tref);
+  const lnTref = Math.log(Tref);
+  const shiftLnT = lnT0 - lnTref;
+  // ln T − ln Tref is exact enough unless the window is narrow; then log1p of the exact difference.
+  const narrow = Tmax < 2 * Tmin;
+  for (let i = 0; i < n; i++) {
+    const Ti = T[i];
+    // (T − Tref)/(R·T·Tref): T − Tref is exact for T near Tref.
+    const xc = ((Ti - Tref) * shiftE) / Ti;
+    xEc[i] = xc;
+    xE[i] = xc - shiftE;
+    const lnTi = Math.log(Ti);
+    lnTabs[i] = lnTi;
+    lnT[i] = lnTi - lnT0;
+    lnTc[i] = narrow ? Math.log1p((Ti - Tref) / Tref) : lnTi - lnTref;
+  }
+  const sw = allSigma ? wsSw : null;
+  let sumLogW = 0;
+  let weightScale = 1;
+  if (sw) weightScale = prepareWeights(points, sw, n);
+  let rssFloor = 0;
+  for (let i = 0; i < n; i++) {
+    let w = 1;
+    if (sw) {
+      w = sw[i] * sw[i];
+      sumLogW -= 2 * Math.log(points[i].sigmaLnK as number);
+    }
+    const noise = NOISE_FLOOR * (1 + Math.abs(y[i]));
+    rssFloor += w * noise * noise;
   }
   const distinctT = countDistinctUpTo3(T, n, Tmin, Tmax);
   if (input.reportedFit !== undefined && input.reportedFit !== null) checkReportedFit(input.reportedFit);
@@ -237,7 +306,13 @@ function prepareInput(input: AnalysisInput): Prepared {
     xE,
     lnT,
     lnTabs,
+    Tref,
+    xEc,
+    lnTc,
+    shiftE,
+    shiftLnT,
     sw,
+    weightScale,
     sumLogW,
     weighted: allSigma,
     someSigma,
@@ -252,6 +327,48 @@ function prepareInput(input: AnalysisInput): Prepared {
 function countDistinctUpTo3(T: Float64Array, n: number, Tmin: number, Tmax: number): number {
   for (let i = 0; i < n; i++) if (T[i] !== Tmin && T[i] !== Tmax) return 3;
   return 2;
+}
+
+/**
+ * Fill sw with √wᵢ = 1/σᵢ divided by a power of two chosen so that wᵢ neither overflows nor
+ * underflows (exact: only the exponent changes); returns that power of two. Refuses σ whose
+ * weight cannot be represented at all, or a spread of σ no double can hold together.
+ */
+function prepareWeights(points: AnalysisInput["points"], sw: Float64Array, n: number): number {
+  let maxSw = 0;
+  let minSw = Infinity;
+  let iMax = 0;
+  let iMin = 0;
+  for (let i = 0; i < n; i++) {
+    const sigma = points[i].sigmaLnK as number;
+    const s = 1 / sigma;
+    if (!Number.isFinite(s)) {
+      throw new AnalysisError(
+        "weights_out_of_range",
+        `Point ${i + 1} (points[${i}]) has uncertainty sigmaLnK = ${sigma}, too small to use as a weight (1/σ overflows). sigmaLnK is the relative standard uncertainty of k (0.05 for 5 %).`,
+        { pointIndex: i },
+      );
+    }
+    sw[i] = s;
+    if (s > maxSw) {
+      maxSw = s;
+      iMax = i;
+    }
+    if (s < minSw) {
+      minSw = s;
+      iMin = i;
+    }
+  }
+  const scale = maxSw > WEIGHT_RESCALE_LIMIT || maxSw < 1 / WEIGHT_RESCALE_LIMIT ? 2 ** Math.round(Math.log2(maxSw)) : 1;
+  if ((minSw / maxSw) ** 2 < MIN_RELATIVE_WEIGHT) {
+    throw new AnalysisError(
+      "weights_out_of_range",
+      `The stated uncertainties span too wide a range to weight one fit: sigmaLnK = ${points[iMax].sigmaLnK} at point ${iMax + 1} and ${points[iMin].sigmaLnK} at point ${iMin + 1}, so the weights 1/σ² differ by more than a factor of 1e280.`,
+      { pointIndex: iMin },
+    );
+  }
+  if (scale !== 1) for (let i = 0; i < n; i++) sw[i] /= scale;
+  return scale;
 }
 
 function checkReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>): void {
@@ -302,31 +419,42 @@ function summariseFit(fit: CentredFit, d: Prepared, y: Float64Array): FitSummary
   }
   const cov = s2 === null ? null : toRows(unscaledCov, p, s2);
   const se = Array.from({ length: p }, (_, j) => (s2 === null ? null : Math.sqrt(s2 * unscaledCov[j * p + j])));
+  // The fit ran on weights divided by weightScale²: the sum of squares with the stated weights.
+  const scale = d.weightScale;
+  const rssStated = rss * scale * scale;
+  if (!Number.isFinite(rssStated)) {
+    throw new AnalysisError(
+      "weights_out_of_range",
+      "The stated uncertainties are too small for these data: with weights 1/sigmaLnK² the weighted sum of squared residuals exceeds the largest representable number. sigmaLnK is the relative standard uncertainty of k (0.05 for 5 %).",
+    );
+  }
   // Gaussian log-likelihood at the ML variance, weights as relative precisions (as statsmodels WLS.loglike).
   const rssF = Math.max(rss, d.rssFloor);
-  const lnL = -0.5 * n * (Math.log((2 * Math.PI * rssF) / n) + 1) + 0.5 * d.sumLogW;
+  const lnL = -0.5 * n * (Math.log((2 * Math.PI * rssF) / n) + 2 * Math.log(scale) + 1) + 0.5 * d.sumLogW;
   // AICc (Hurvich & Tsai 1989); k counts regression coefficients only.
   const aicc = n - p - 1 > 0 ? -2 * lnL + 2 * p + (2 * p * (p + 1)) / (n - p - 1) : null;
   return {
     dof,
+    rss: rssStated,
     s2,
     cov,
     se,
     r2: tss > 0 ? 1 - rss / tss : null,
-    residualSD: s2 === null ? null : Math.sqrt(s2),
+    residualSD: s2 === null ? null : Math.sqrt(s2) * scale,
     aicc,
-    chi2Reduced: d.weighted && s2 !== null ? s2 : null,
+    chi2Reduced: d.weighted && s2 !== null ? rssStated / dof : null,
   };
 }
 
 function buildArrhenius(fit: CentredFit, s: FitSummary, t: number, d: Prepared): ArrheniusFit {
   const [lnA, Ea] = fit.beta;
-  const x0 = [1, -1 / (GAS_CONSTANT * REFERENCE_TEMPERATURE)];
-  const lnk298 = lnA + Ea * x0[1];
+  // Prediction and its variance from the centred factor: exact however narrow the window.
+  const at298 = predictCentred(fit, [shiftedInverseT(d, REFERENCE_TEMPERATURE)]);
+  const lnk298 = at298.value;
   let lower: number | null = null;
   let upper: number | null = null;
   if (s.s2 !== null) {
-    const half = t * Math.sqrt(s.s2 * quadraticForm(fit.unscaledCov, x0, 2));
+    const half = t * Math.sqrt(s.s2 * at298.variance);
     lower = expOrNull(lnk298 - half);
     upper = expOrNull(lnk298 + half);
   }
@@ -337,11 +465,11 @@ function buildArrhenius(fit: CentredFit, s: FitSummary, t: number, d: Prepared):
     r2: s.r2,
     residualSD: s.residualSD,
     dof: s.dof,
-    rss: fit.rss,
+    rss: s.rss,
     aicc: s.aicc,
     ...residualFields(fit, s, d),
     k298: { value: expOrNull(lnk298), lower, upper, ...extrapolationOf(REFERENCE_TEMPERATURE, d.Tmin, d.Tmax) },
-    kMid: arrheniusAt(fit, s, t, 2 / (1 / d.Tmin + 1 / d.Tmax)),
+    kMid: arrheniusAt(fit, s, t, 2 / (1 / d.Tmin + 1 / d.Tmax), d),
   };
   if (d.weighted) out.chi2Reduced = s.chi2Reduced;
   return out;
@@ -362,7 +490,7 @@ function residualFields(fit: CentredFit, s: FitSummary, d: Prepared): FitResidua
     ss += r * r;
   }
   return {
-    scaleFactor: d.weighted && s.s2 !== null ? Math.sqrt(s.s2) : null,
+    scaleFactor: d.weighted ? s.residualSD : null,
     residualSDLnK: s.dof > 0 ? Math.sqrt(ss / s.dof) : null,
     residuals,
     fitted,
@@ -373,20 +501,16 @@ function residualFields(fit: CentredFit, s: FitSummary, d: Prepared): FitResidua
  * Arrhenius k at temperature T with its 95 % interval. The variance of ln k̂ is taken from the
  * centred factor, ‖Gᵀ(1, x − x̄)‖² with x = −1/(RT), which keeps full precision near the data.
  */
-function arrheniusAt(fit: CentredFit, s: FitSummary, t: number, T: number): RateAtTemperature {
-  const x = -1 / (GAS_CONSTANT * T);
-  const lnk = fit.beta[0] + fit.beta[1] * x;
+function arrheniusAt(fit: CentredFit, s: FitSummary, t: number, T: number, d: Prepared): RateAtTemperature {
+  const at = predictCentred(fit, [shiftedInverseT(d, T)]);
   let lower: number | null = null;
   let upper: number | null = null;
   if (s.s2 !== null) {
-    const g = fit.g; // upper triangular, row-major 2×2
-    const u0 = g[0];
-    const u1 = g[1] + g[3] * (x - fit.means[0]);
-    const half = t * Math.sqrt(s.s2 * (u0 * u0 + u1 * u1));
-    lower = expOrNull(lnk - half);
-    upper = expOrNull(lnk + half);
+    const half = t * Math.sqrt(s.s2 * at.variance);
+    lower = expOrNull(at.value - half);
+    upper = expOrNull(at.value + half);
   }
-  return { T, value: expOrNull(lnk), lower, upper };
+  return { T, value: expOrNull(at.value), lower, upper };
 }
 
 function buildModified(fit: CentredFit, s: FitSummary, d: Prepared): ModifiedArrheniusFit {
@@ -398,7 +522,7 @@ function buildModified(fit: CentredFit, s: FitSummary, d: Prepared): ModifiedArr
     r2: s.r2,
     residualSD: s.residualSD,
     dof: s.dof,
-    rss: fit.rss,
+    rss: s.rss,
     aicc: s.aicc,
     ...residualFields(fit, s, d),
   };
@@ -456,12 +580,37 @@ function computeDiagnostics(fit: CentredFit, cols: Float64Array[], d: Prepared):
       const r = e / (s * Math.sqrt(oneMinusH));
       studentized[i] = r;
       cook[i] = (r * r * h[i]) / (p * oneMinusH);
-      // Externally studentized: variance re-estimated without point i, RSS₍ᵢ₎ = RSS − eᵢ²/(1 − hᵢ).
-      const s2i = Math.max((rss - (e * e) / oneMinusH) / (dof - 1), floorDeleted);
+      // Externally studentized: variance re-estimated without point i, RSS₍ᵢ₎ = RSS − eᵢ²/(1 − hᵢ);
+      // when point i holds most of the RSS that difference cancels, so refit without it instead.
+      let rssDeleted = rss - (e * e) / oneMinusH;
+      if (rssDeleted < rss / 16) rssDeleted = rssWithout(i, d);
+      const s2i = Math.max(rssDeleted / (dof - 1), floorDeleted);
       external[i] = e / Math.sqrt(s2i * oneMinusH);
     }
   }
   return { leverage: h, studentized, externallyStudentized: external, cooksDistance: cook };
+}
+
+/** RSS of the Arrhenius fit refitted without point i (scaled weights, as the fit's own RSS). */
+function rssWithout(i: number, d: Prepared): number {
+  const m = d.n - 1;
+  const x = new Float64Array(m);
+  const y = new Float64Array(m);
+  const sw = d.sw ? new Float64Array(m) : null;
+  for (let j = 0, k = 0; j < d.n; j++) {
+    if (j === i) continue;
+    x[k] = d.xEc[j];
+    y[k] = d.y[j];
+    if (sw) sw[k] = (d.sw as Float64Array)[j];
+    k++;
+  }
+  const fit = fitCentred([x], y, sw, m, [], { shift: [d.shiftE] });
+  return fit ? fit.rss : 0;
+}
+
+/** −1/(RT) + 1/(R·Tref), the fitted 1/T column, at any temperature. */
+function shiftedInverseT(d: Prepared, T: number): number {
+  return ((T - d.Tref) * d.shiftE) / T;
 }
 
 function computeBand(fit: CentredFit, s: FitSummary, d: Prepared, model: ConfidenceBand["model"]): ConfidenceBand {
@@ -474,18 +623,20 @@ function computeBand(fit: CentredFit, s: FitSummary, d: Prepared, model: Confide
   const t = s.s2 === null ? 0 : t95(s.dof);
   const invMin = 1 / d.Tmin;
   const invMax = 1 / d.Tmax;
-  const x = p === 3 ? [1, 0, 0] : [1, 0];
-  const beta = fit.beta;
+  // The point in the fit's shifted coordinates: [ln(T/Tref), 1/(R·Tref) − 1/(RT)] or the latter alone.
+  const x = p === 3 ? [0, 0] : [0];
+  const pred = { value: 0, variance: 0 };
   for (let i = 0; i < BAND_POINTS; i++) {
     const Ti = i === 0 ? d.Tmin : i === BAND_POINTS - 1 ? d.Tmax : 1 / (invMin + ((invMax - invMin) * i) / (BAND_POINTS - 1));
     T[i] = Ti;
-    if (p === 3) x[1] = Math.log(Ti / d.T0);
-    x[p - 1] = -1 / (GAS_CONSTANT * Ti);
-    const v = p === 3 ? beta[0] + beta[1] * x[1] + beta[2] * x[2] : beta[0] + beta[1] * x[1];
+    if (p === 3) x[0] = Math.log1p((Ti - d.Tref) / d.Tref);
+    x[p - 2] = shiftedInverseT(d, Ti);
+    predictCentred(fit, x, pred);
+    const v = pred.value;
     lnk[i] = v;
     if (lower && upper) {
       // Pointwise confidence band of the mean: ŷ ± t·s·√(xᵀ(XᵀWX)⁻¹x) (Draper & Smith 1998, §3.4).
-      const half = t * Math.sqrt((s.s2 as number) * Math.max(0, quadraticForm(fit.unscaledCov, x, p)));
+      const half = t * Math.sqrt((s.s2 as number) * pred.variance);
       lower[i] = v - half;
       upper[i] = v + half;
     }
@@ -648,9 +799,9 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
   }
 
   if (d.weighted && c.arrSum.dof > 0) {
-    const p = survivalChiSquare(c.arrFit.rss, c.arrSum.dof);
+    const p = survivalChiSquare(c.arrhenius.rss, c.arrSum.dof);
     if (p < EXCESS_SCATTER_P) {
-      const chi2 = c.arrFit.rss / c.arrSum.dof;
+      const chi2 = c.arrhenius.rss / c.arrSum.dof;
       push({
         code: "excess_scatter",
         severity: "warn",

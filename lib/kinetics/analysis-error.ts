@@ -7,7 +7,8 @@ export type AnalysisErrorCode =
   | "too_few_temperatures"
   | "invalid_reference_temperature"
   | "invalid_reported_fit"
-  | "mixed_orders";
+  | "mixed_orders"
+  | "weights_out_of_range";
 
 /**
  * Input that cannot be analysed. The message is written for the person who deposited the data;

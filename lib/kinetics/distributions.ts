@@ -1,17 +1,95 @@
 /**
- * Distribution functions for the fit statistics: thin, cached wrappers over jstat
- * (https://jstat.github.io/distributions.html), so repeated analyses do not re-run the
- * iterative inverse incomplete beta for the same degrees of freedom.
+ * Distribution functions for the fit statistics, accurate to a few units in the last place of
+ * a double: tails are evaluated directly as regularised incomplete beta / gamma functions (or
+ * their complements), never as 1 − CDF, so probabilities keep full relative precision down to
+ * 1e-300; Student-t quantiles are polished by Newton steps on those direct tails.
+ *
+ * Special functions: @stdlib/math-base-special-betainc, -betaincinv, -gammainc, -gammaln * (ports of the Boost.Math implementations, https://stdlib.io).
  */
+import betainc from "@stdlib/math-base-special-betainc";
+import betaincinv from "@stdlib/math-base-special-betaincinv";
+import gammainc from "@stdlib/math-base-special-gammainc";
+import gammaln from "@stdlib/math-base-special-gammaln";
 import jStat from "jstat";
 
 const quantileCache = new Map<number, Map<number, number>>();
+const EPSILON = 2 ** -52;
+const MAX_NEWTON_STEPS = 12;
 
 /**
- * Quantile t_{p, dof} of Student's t distribution (dof > 0), cached per (p, dof).
- * jstat's inverse is polished by one Newton step on its CDF (relative accuracy ≈ 1e-10).
+ * P(T > t) for t ≥ 0: ½·I_{ν/(ν+t²)}(ν/2, ½), or ½·(1 − I_{t²/(ν+t²)}(½, ν/2)) near the median,
+ * whichever argument is the small, accurately representable one.
+ */
+function upperTailT(t: number, nu: number): number {
+  const r = t / Math.sqrt(nu);
+  const r2 = r * r;
+  if (r2 >= 1) return 0.5 * betainc(1 / (1 + r2), nu / 2, 0.5);
+  return 0.5 * betainc(r2 / (1 + r2), 0.5, nu / 2, true, true);
+}
+
+/** P(0 < T < t) for t ≥ 0, accurate relative to itself for small t. */
+function centralT(t: number, nu: number): number {
+  const r = t / Math.sqrt(nu);
+  const r2 = r * r;
+  if (r2 <= 1) return 0.5 * betainc(r2 / (1 + r2), 0.5, nu / 2);
+  return 0.5 * betainc(1 / (1 + r2), nu / 2, 0.5, true, true);
+}
+
+/** Student-t density; only the Newton steps use it, so ~1e-9 relative accuracy is plenty. */
+function densityT(t: number, nu: number): number {
+  const lnC = gammaln((nu + 1) / 2) - gammaln(nu / 2) - 0.5 * Math.log(nu * Math.PI);
+  return Math.exp(lnC - ((nu + 1) / 2) * Math.log1p((t * t) / nu));
+}
+
+/**
+ * t ≥ 0 with P(T > t) = q for 0 < q ≤ ½. Closed forms for ν = 1 and 2; otherwise the inverse
+ * incomplete beta as a start, then Newton on ln P(T > t) (tails) or on P(0 < T < t) (near the
+ * median) until the step is below the rounding of t.
+ */
+function upperQuantileT(q: number, nu: number): number {
+  if (q === 0.5) return 0;
+  // d = ½ − q is exact for q ≥ ¼ (Sterbenz), so the centre keeps its relative precision.
+  const central = q >= 0.25;
+  const d = 0.5 - q;
+  if (nu === 1) return central ? Math.tan(Math.PI * d) : 1 / Math.tan(Math.PI * q);
+  if (nu === 2) return central ? (2 * d) / Math.sqrt(2 * (0.5 - d) * (0.5 + d)) : (1 - 2 * q) / Math.sqrt(2 * q * (1 - q));
+  let t: number;
+  if (central) {
+    // I_y(½, ν/2) = 2d with y = t²/(ν + t²).
+    const y = betaincinv(2 * d, 0.5, nu / 2);
+    t = Math.sqrt((nu * y) / (1 - y));
+  } else {
+    // I_x(ν/2, ½) = 2q with x = ν/(ν + t²).
+    const x = betaincinv(2 * q, nu / 2, 0.5);
+    t = Math.sqrt(nu * ((1 - x) / x));
+  }
+  if (!(t > 0) || !Number.isFinite(t)) t = central ? d * 2.5 : 1;
+  const lnQ = Math.log(q);
+  for (let step = 0; step < MAX_NEWTON_STEPS; step++) {
+    const pdf = densityT(t, nu);
+    if (!(pdf > 0)) break;
+    let next: number;
+    if (central) {
+      next = t - (centralT(t, nu) - d) / pdf;
+    } else {
+      const s = upperTailT(t, nu);
+      if (!(s > 0)) break;
+      // Newton on ln S(t): steps stay sensible many orders of magnitude into the tail.
+      next = t + (Math.log(s) - lnQ) * (s / pdf);
+    }
+    if (!(next > 0) || !Number.isFinite(next)) next = central ? t / 2 : t * 2;
+    const change = Math.abs(next - t);
+    t = next;
+    if (change <= 2 * EPSILON * t) break;
+  }
+  return t;
+}
+
+/**
+ * Quantile t_{p, dof} of Student's t distribution (dof > 0, 0 < p < 1), cached per (p, dof);
+ * relative error ≤ 1e-13 (checked against mpmath at 60 digits).
  *
- * @example quantileStudentT(0.975, 10) // 2.2281388…
+ * @example quantileStudentT(0.975, 10) // 2.2281388519862735
  */
 export function quantileStudentT(p: number, dof: number): number {
   let byDof = quantileCache.get(p);
@@ -21,10 +99,10 @@ export function quantileStudentT(p: number, dof: number): number {
   }
   const cached = byDof.get(dof);
   if (cached !== undefined) return cached;
-  let t = jStat.studentt.inv(p, dof);
-  // One Newton step: jstat's inverse stops near 1e-9, its CDF is good to ~1e-12.
-  const pdf = jStat.studentt.pdf(t, dof);
-  if (pdf > 0) t -= (jStat.studentt.cdf(t, dof) - p) / pdf;
+  let t: number;
+  if (!(p > 0 && p < 1) || !(dof > 0)) t = Number.NaN;
+  // 1 − p is exact for p ≥ ½; below ½ the lower tail is p itself (by symmetry).
+  else t = p >= 0.5 ? upperQuantileT(1 - p, dof) : -upperQuantileT(p, dof);
   byDof.set(dof, t);
   return t;
 }
@@ -42,16 +120,21 @@ export function bonferroniStudentT(alpha: number, n: number, dof: number): numbe
   return quantileStudentT(1 - alpha / (2 * n), dof);
 }
 
-/** Upper-tail probability P(F > f) of the F distribution with (d1, d2) degrees of freedom. */
+/**
+ * Upper-tail probability P(F > f) of the F distribution with (d1, d2) degrees of freedom:
+ * I_{d2/(d2 + d1·f)}(d2/2, d1/2), or the complement of I_{d1·f/(d2 + d1·f)}(d1/2, d2/2) for small f.
+ */
 export function survivalF(f: number, d1: number, d2: number): number {
   if (!(f > 0)) return 1;
-  return clampProbability(1 - jStat.centralF.cdf(f, d1, d2));
+  const u = (d1 * f) / d2;
+  if (u >= 1) return clampProbability(betainc(1 / (1 + u), d2 / 2, d1 / 2));
+  return clampProbability(betainc(u / (1 + u), d1 / 2, d2 / 2, true, true));
 }
 
-/** Upper-tail probability P(X > x) of the chi-square distribution with dof degrees of freedom. */
+/** Upper-tail probability P(X > x) of the chi-square distribution: Q(dof/2, x/2), computed directly. */
 export function survivalChiSquare(x: number, dof: number): number {
   if (!(x > 0)) return 1;
-  return clampProbability(1 - jStat.chisquare.cdf(x, dof));
+  return clampProbability(gammainc(x / 2, dof / 2, true, true));
 }
 
 /** Standard normal quantile z_p. */

@@ -19,6 +19,9 @@ import {
 const RANK_TOLERANCE = 1e-12;
 const MAX_P = 3;
 
+const NO_SHIFT_1: readonly number[] = [0];
+const NO_SHIFT_2: readonly number[] = [0, 0];
+
 let capacity = 0;
 const factor: HouseholderFactor = {
   n: 0,
@@ -45,6 +48,8 @@ function ensureCapacity(n: number): void {
 export interface ResponseFit {
   /** [intercept, slopes…] in the original units. */
   beta: number[];
+  /** [value at the weighted column means, slopes…]: predictions from these never cancel. */
+  betaCentred: number[];
   /** Σ wᵢ rᵢ². */
   rss: number;
   /** y − Xβ (not weighted). */
@@ -58,12 +63,26 @@ export interface CentredFit extends ResponseFit {
   n: number;
   /** (XᵀWX)⁻¹, row-major p×p, in the original parameterisation. */
   unscaledCov: number[];
-  /** Weighted column means of the slope columns. */
+  /** Weighted means of the slope columns as given (shifted, see {@link FitOptions.shift}). */
   means: number[];
+  /** Shifts of the slope columns: original column = given column − shift. */
+  shift: readonly number[];
+  /** Smallest |R_jj| of the unit-norm centred slope columns: sin of the angle between them (1 for one slope). */
+  minSine: number;
   /** Inverse factor G in centred coordinates, (XcᵀWXc)⁻¹ = G·Gᵀ, row-major p×p. */
   g: number[];
   /** Fits of the extra responses on the same design, in the order given. */
   extra: ResponseFit[];
+}
+
+/** Options of {@link fitCentred}. */
+export interface FitOptions {
+  /**
+   * Per slope column, the constant c added to the original column x to give the column passed
+   * in (x + c). Passing columns already shifted near their mean, each computed without
+   * cancellation, keeps a narrow range of x exact; parameters are mapped back to x.
+   */
+  shift?: readonly number[];
 }
 
 /**
@@ -80,9 +99,11 @@ export function fitCentred(
   sw: Float64Array | null,
   n: number,
   extraResponses: readonly Float64Array[] = [],
+  options: FitOptions = {},
 ): CentredFit | null {
   const q = cols.length;
   const p = q + 1;
+  const shift = options.shift ?? (q === 1 ? NO_SHIFT_1 : NO_SHIFT_2);
   ensureCapacity(n);
   let sumW = 0;
   const means = q === 1 ? [0] : [0, 0];
@@ -102,30 +123,47 @@ export function fitCentred(
   factor.n = n;
   factor.p = p;
   if (!factorHouseholderInto(factor, RANK_TOLERANCE)) return null;
+  let minSine = 1;
+  for (let j = 1; j < p; j++) minSine = Math.min(minSine, Math.abs(factor.rdiag[j]));
   inverseFactor(factor, gBuf);
   gramInverse(gBuf, p, ccBuf);
 
+  // Means of the original columns, for the uncentred intercept.
+  const m0 = q === 1 ? [means[0] - shift[0]] : [means[0] - shift[0], means[1] - shift[1]];
   // Back to the uncentred parameterisation: C = J·Cc·Jᵀ, J's first row [1, −m1, …].
   const cov = new Array<number>(p * p);
   for (let k = 0; k < p * p; k++) cov[k] = ccBuf[k];
   let c00 = 0;
   for (let r = 0; r < p; r++) {
-    const jr = r === 0 ? 1 : -means[r - 1];
-    for (let c = 0; c < p; c++) c00 += jr * ccBuf[r * p + c] * (c === 0 ? 1 : -means[c - 1]);
+    const jr = r === 0 ? 1 : -m0[r - 1];
+    for (let c = 0; c < p; c++) c00 += jr * ccBuf[r * p + c] * (c === 0 ? 1 : -m0[c - 1]);
   }
   cov[0] = c00;
   for (let j = 1; j < p; j++) {
     let s = 0;
-    for (let r = 0; r < p; r++) s += (r === 0 ? 1 : -means[r - 1]) * ccBuf[r * p + j];
+    for (let r = 0; r < p; r++) s += (r === 0 ? 1 : -m0[r - 1]) * ccBuf[r * p + j];
     cov[j] = s;
     cov[j * p] = s;
   }
   const g = new Array<number>(p * p);
   for (let k = 0; k < p * p; k++) g[k] = gBuf[k];
 
-  const main = solveResponse(cols, y, sw, means, p, n);
-  const extra = extraResponses.map((ye) => solveResponse(cols, ye, sw, means, p, n));
-  return { p, n, beta: main.beta, rss: main.rss, resid: main.resid, unscaledCov: cov, means, g, extra };
+  const main = solveResponse(cols, y, sw, means, m0, p, n);
+  const extra = extraResponses.map((ye) => solveResponse(cols, ye, sw, means, m0, p, n));
+  return {
+    p,
+    n,
+    beta: main.beta,
+    betaCentred: main.betaCentred,
+    rss: main.rss,
+    resid: main.resid,
+    unscaledCov: cov,
+    means,
+    shift,
+    minSine,
+    g,
+    extra,
+  };
 }
 
 /**
@@ -137,6 +175,7 @@ function solveResponse(
   y: Float64Array,
   sw: Float64Array | null,
   means: number[],
+  originalMeans: number[],
   p: number,
   n: number,
 ): ResponseFit {
@@ -167,12 +206,15 @@ function solveResponse(
     for (let j = 0; j < p; j++) betaC[j] += delta[j];
   }
   const beta = new Array<number>(p);
+  const betaCentred = new Array<number>(p);
   beta[0] = betaC[0];
+  betaCentred[0] = betaC[0];
   for (let j = 1; j < p; j++) {
     beta[j] = betaC[j];
-    beta[0] -= means[j - 1] * betaC[j];
+    betaCentred[j] = betaC[j];
+    beta[0] -= originalMeans[j - 1] * betaC[j];
   }
-  return { beta, rss, resid };
+  return { beta, betaCentred, rss, resid };
 }
 
 /** Diagonal of the hat matrix, hᵢ = ‖Gᵀaᵢ‖² with aᵢ the whitened centred row i. */
@@ -189,6 +231,31 @@ export function computeLeverage(fit: CentredFit, cols: readonly Float64Array[], 
     }
     out[i] = h;
   }
+}
+
+/**
+ * Prediction and unscaled variance at a point given in the fit's shifted coordinates (x + shift,
+ * as the columns were passed): ŷ = b₀ + Σ bⱼ(xⱼ − mⱼ) and xᵀ(XᵀWX)⁻¹x = ‖Gᵀ[1, x − m]‖², both
+ * from the centred factor, so neither cancels however narrow the data (Björck 1996, §2.8).
+ */
+export function predictCentred(
+  fit: CentredFit,
+  xShifted: readonly number[],
+  out: { value: number; variance: number } = { value: 0, variance: 0 },
+): { value: number; variance: number } {
+  const { p, g, means } = fit;
+  const b = fit.betaCentred;
+  let value = b[0];
+  for (let j = 1; j < p; j++) value += b[j] * (xShifted[j - 1] - means[j - 1]);
+  let variance = 0;
+  for (let k = 0; k < p; k++) {
+    let t = g[k];
+    for (let j = 1; j <= k; j++) t += g[j * p + k] * (xShifted[j - 1] - means[j - 1]);
+    variance += t * t;
+  }
+  out.value = value;
+  out.variance = variance;
+  return out;
 }
 
 /** xᵀ·C·x for a row-major p×p matrix C. */

@@ -128,6 +128,9 @@ class Writer {
 type Template = (w: Writer, points: number[]) => string;
 
 const TEMPLATES: Record<FlagCode, Template> = {
+  modified_fit_undetermined: (w) =>
+    `The modified Arrhenius expression cannot be determined from these data: over ${w.range("Tmin", "Tmax")}, ln T and 1/T are proportional to within ${w.value("sine").toExponential(1)}, so n and Ea cannot be told apart (the curvature test is skipped).`,
+
   uncertainties_ignored: (w) => `Only ${w.get("stated")} of ${w.get("n")} points state an uncertainty, so all fits are unweighted.`,
 
   too_few_points: (w) => {

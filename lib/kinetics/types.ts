@@ -55,7 +55,8 @@ export type FlagCode =
   | "too_few_points"
   | "reported_fit_disagrees"
   | "reported_range_outside_data"
-  | "uncertainties_ignored";
+  | "uncertainties_ignored"
+  | "modified_fit_undetermined";
 
 /**
  * What a number behind a flag measures, so it can be written in the reader's units: energy in

@@ -14,7 +14,13 @@ import type { ReactionOrder } from "./types";
 
 /** Stable codes of {@link UnitError}. */
 export type UnitErrorCode =
-  "unknown_unit" | "order_mismatch" | "below_absolute_zero" | "negative_pressure" | "invalid_value" | "invalid_uncertainty";
+  | "unknown_unit"
+  | "order_mismatch"
+  | "below_absolute_zero"
+  | "negative_pressure"
+  | "invalid_value"
+  | "invalid_uncertainty"
+  | "out_of_range";
 
 /** A unit string or value that cannot be used; `accepted` lists valid spellings where relevant. */
 export class UnitError extends Error {
@@ -247,11 +253,37 @@ function assertFinite(value: number, what: string): void {
   }
 }
 
+/** Smallest positive double held to full precision (2^−1022); below it digits are lost. */
+const MIN_NORMAL = 2.2250738585072014e-308;
+
+/**
+ * The converted value, or a {@link UnitError} when it left the range of a double: beyond
+ * ±1.8e308 (it would be Infinity) or, from a non-zero value, below 2.2e-308 (digits lost or 0).
+ */
+function inRange(converted: number, value: number, from: string, to: string, what: string): number {
+  if (Number.isFinite(converted) && (value === 0 || Math.abs(converted) >= MIN_NORMAL)) return converted;
+  const direction = Number.isFinite(converted)
+    ? "below 2.2e-308, the smallest number held to full precision"
+    : "beyond 1.8e308, the largest representable number";
+  throw new UnitError(
+    "out_of_range",
+    `The ${what} ${value} ${from} is ${direction}, once converted to ${to}; check the value and its unit.`,
+  );
+}
+
 /** Multiply by 10^e10 · N_A^eNA with at most one rounding per factor (divisions for negative powers). */
 function scaleRate(value: number, e10: number, eNA: number): number {
   let v = value;
   for (let i = 0; i < Math.abs(eNA); i++) v = eNA > 0 ? v * AVOGADRO : v / AVOGADRO;
   return e10 >= 0 ? v * 10 ** e10 : v / 10 ** -e10;
+}
+
+/**
+ * Convert between two parsed rate-constant units of the same order; throws a {@link UnitError}
+ * ("out_of_range") when the result does not fit a double.
+ */
+export function convertRateConstantBetween(value: number, f: RateConstantUnit, t: RateConstantUnit): number {
+  return inRange(scaleRate(value, f.exp10 - t.exp10, f.expAvogadro - t.expAvogadro), value, f.label, t.label, "rate constant");
 }
 
 /**
@@ -270,7 +302,22 @@ export function convertRateConstant(value: number, from: string, to: string, ord
       RATE_UNITS.filter((u) => u.order === f.order).map((u) => u.id),
     );
   }
-  return scaleRate(value, f.exp10 - t.exp10, f.expAvogadro - t.expAvogadro);
+  return convertRateConstantBetween(value, f, t);
+}
+
+/**
+ * For tables: the conversion's result, or NaN (shown as "—") when it leaves the range of a double,
+ * so a page never fails on a value it cannot display.
+ *
+ * @example displayConversion(() => convertRateConstant(1e300, "cm3 molecule-1 s-1", "L mol-1 s-1")) // NaN
+ */
+export function displayConversion(convert: () => number): number {
+  try {
+    return convert();
+  } catch (e) {
+    if (e instanceof UnitError && e.code === "out_of_range") return Number.NaN;
+    throw e;
+  }
 }
 
 /** Rate constant in the canonical unit of `order` (s⁻¹, cm³ molecule⁻¹ s⁻¹, cm⁶ molecule⁻² s⁻¹). */
@@ -293,7 +340,7 @@ export function convertEnergy(value: number, from: string, to: string): number {
   const f = parseEnergyUnit(from);
   const t = parseEnergyUnit(to);
   if (f === t) return value;
-  return (value * f.factor) / t.factor;
+  return inRange((value * f.factor) / t.factor, value, f.label, t.label, "energy");
 }
 
 /** Energy in J mol⁻¹. */
@@ -328,14 +375,14 @@ export function toPascal(value: number, unit: string): number {
   assertFinite(value, "pressure");
   const u = parsePressureUnit(unit);
   if (value < 0) throw new UnitError("negative_pressure", `A pressure cannot be negative (got ${value} ${u.label}).`);
-  return value * u.factor;
+  return inRange(value * u.factor, value, u.label, "Pa", "pressure");
 }
 
 /** Convert a pressure between Pa, kPa, bar, mbar, atm and Torr. */
 export function convertPressure(value: number, from: string, to: string): number {
   const pa = toPascal(value, from);
   const t = parsePressureUnit(to);
-  return t.factor === 1 ? pa : pa / t.factor;
+  return t.factor === 1 ? pa : inRange(pa / t.factor, value, parsePressureUnit(from).label, t.label, "pressure");
 }
 
 /**
