@@ -159,6 +159,7 @@ export async function startEdgeProxy({
     );
     upstream.on("error", (err: NodeJS.ErrnoException) => {
       if (res.writableEnded) return; // already answered (e.g. 413)
+      if (res.destroyed) return; // the client went away first (and we stopped the request behind it)
       if (!res.headersSent)
         console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}: the app did not answer (${err.code ?? err.message})`);
       if (!res.headersSent) res.writeHead(502, { "content-type": "text/plain" }).end("The application is starting or unavailable.");
