@@ -139,10 +139,7 @@ export function serverHost(): string {
   return read("HOST") ?? "127.0.0.1";
 }
 
-/**
- * Loopback port of the Next.js server behind the front server; a free one when unset. Only the
- * front server can use it: Next refuses every request without the front server's per-start key.
- */
+/** Loopback port of the Next.js server behind the front server; a free one when unset. */
 export function innerPort(): number | undefined {
   return read("INNER_PORT");
 }

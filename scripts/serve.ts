@@ -1,9 +1,7 @@
 // Serves a built Arrhenia: the local mail capture (when SMTP_URL is unset), the local fake DOI
 // registration service (when DOI_API_URL is unset), the background workers, and `next start`
 // on a private loopback port behind the front server (lib/auth/edge-proxy.ts) that listens on
-// HOST:PORT and alone decides the client's address. Next answers only requests carrying the
-// front server's per-start key (proxy.ts), so the private port is no way around the front
-// server's checks. Ctrl-C stops them all.
+// HOST:PORT and alone decides the client's address. Ctrl-C stops them all.
 import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import postgres from "postgres";

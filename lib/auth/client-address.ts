@@ -27,17 +27,6 @@ function sameSecret(given: string, expected: string): boolean {
 }
 
 /**
- * Whether a request came through the front server (carries its per-start key). True when no key
- * is configured: Next runs on its own (next dev, route tests), with no front server to require.
- */
-export function hasEdgeKey(source: HeaderSource): boolean {
-  const key = edgeKey();
-  if (!key) return true;
-  const given = headerValue(source, EDGE_KEY_HEADER);
-  return !!given && sameSecret(given, key);
-}
-
-/**
  * The address every per-address limit counts by. Only the front server's header is believed (it
  * applies TRUST_PROXY); X-Forwarded-For straight from a client never is.
  */

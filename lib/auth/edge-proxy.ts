@@ -2,8 +2,7 @@
 // client's address from the socket (believing X-Forwarded-For only from proxies TRUST_PROXY
 // names), strips forwarding headers nobody trusted set, and refuses before they reach Next: form
 // posts (server actions) from another origin than APP_URL's (403), action bodies over their size
-// (413) or nested past what Next's decoder survives (400), and undecodable paths (404). Next itself
-// listens on a private loopback port and answers only requests that carry this server's key.
+// (413) or nested past what Next's decoder survives (400), and undecodable paths (404).
 import http from "node:http";
 import { isIP, type AddressInfo } from "node:net";
 import proxyaddr from "proxy-addr";
@@ -160,6 +159,7 @@ export async function startEdgeProxy({
     );
     upstream.on("error", (err: NodeJS.ErrnoException) => {
       if (res.writableEnded) return; // already answered (e.g. 413)
+      if (res.destroyed) return; // the client went away first (and we stopped the request behind it)
       if (!res.headersSent)
         console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}: the app did not answer (${err.code ?? err.message})`);
       if (!res.headersSent) res.writeHead(502, { "content-type": "text/plain" }).end("The application is starting or unavailable.");

@@ -98,33 +98,3 @@ test("a chunked 200 MB analysis request is refused with 413 after a little over 
     expect(grown).toBeLessThan(100 * MB);
   }
 });
-
-test("Next's private port answers nothing without the front server's key: no page, no action, no API", async ({ baseURL }) => {
-  // As playwright.config.ts sets INNER_PORT for the server it starts.
-  const innerPort = Number(process.env.E2E_INNER_PORT ?? Number(process.env.E2E_PORT ?? 3100) + 1);
-  const inner = `http://127.0.0.1:${innerPort}`;
-  // The port is there (Next listens on it) …
-  for (const [method, path, headers, body] of [
-    ["GET", "/api/health", {}, undefined],
-    ["GET", "/", {}, undefined],
-    [
-      "POST",
-      "/deposits/new",
-      { "next-action": "0".repeat(42), "content-type": "text/plain;charset=UTF-8", origin: inner },
-      "[".repeat(100_000),
-    ],
-    ["GET", "/api/health", { "x-arrhenia-edge-key": "guessed", "x-arrhenia-client-address": "203.0.113.1" }, undefined],
-  ] as const) {
-    const res = await fetch(`${inner}${path}`, { method, headers, body });
-    expect(res.status, `${method} ${path}`).toBe(403);
-    expect((await res.json()).code).toBe("forbidden");
-  }
-  // … and the same requests through the front server are served (or refused by it, as it should).
-  expect((await fetch(`${baseURL}/api/health`)).status).toBe(200);
-  const nested = await fetch(`${baseURL}/deposits/new`, {
-    method: "POST",
-    headers: { "next-action": "0".repeat(42), "content-type": "text/plain;charset=UTF-8", origin: baseURL! },
-    body: "[".repeat(100_000),
-  });
-  expect(nested.status).toBe(400);
-});
