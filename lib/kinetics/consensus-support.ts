@@ -118,6 +118,8 @@ export interface SupportInput {
   id: string;
   points: readonly { T: number; k: number; sigmaLnK?: number | null }[];
   window: { Tmin: number; Tmax: number };
+  /** Indices of points left out of the summary (outliers of the dataset's own fit); still checked. */
+  skip?: ReadonlySet<number> | null;
 }
 
 /**
@@ -129,6 +131,7 @@ export interface SupportInput {
 export function summariseDataset(input: SupportInput, T0: number): DatasetSupport | null {
   const pts = input.points;
   const { Tmin: wMin, Tmax: wMax } = input.window;
+  const skip = input.skip ?? null;
   ensureScratch(pts.length);
   const lnT0 = Math.log(T0);
   const invR = 1 / GAS_CONSTANT; // a local: the hot loop should not re-read a module binding
@@ -170,7 +173,7 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
       withSigma++;
       sw = 1 / sigma;
     }
-    if (T < wMin || T > wMax) continue;
+    if (T < wMin || T > wMax || (skip !== null && skip.has(i))) continue;
     xEs[n] = -invR / T;
     xLs[n] = Math.log(T) - lnT0;
     ys[n] = Math.log(k);

@@ -36,6 +36,7 @@
  * Uncertainty factor f(T) = exp(1.96·√(var ln k̂(T) + τ²)) over the temperatures the included
  * data cover; outside them it is not given (extrapolation).
  */
+import { ALPHA, analyseDataset, MIN_DOF_FOR_OUTLIER_TEST } from "./analyse-dataset";
 import { AnalysisError } from "./analysis-error";
 import {
   buildRows,
@@ -77,6 +78,8 @@ export interface ConsensusDataset {
   excludedReason?: string | null;
   /** How the words name it (default "Dataset <id>"). */
   label?: string;
+  /** The number each point has where the reader sees it (default 1, 2, …), for the words about outliers. */
+  pointNumbers?: readonly number[];
 }
 
 export interface ConsensusOptions {
@@ -177,8 +180,10 @@ export interface Disagreement {
 /** One dataset: what it brought (stage 1) and how it compares. */
 export interface ConsensusMember {
   id: string;
-  /** Points used (inside the window). */
+  /** Points used (inside the window, outliers of its own fit left out). */
   n: number;
+  /** Zero-based indices (into the points given) of the outliers of its own fit, left out of its summary. */
+  outliers: number[];
   /** Points given. */
   pointsGiven: number;
   Tmin: number | null;
@@ -270,6 +275,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
 
   const seen = new Set<string>();
   const supports: (DatasetSupport | null)[] = [];
+  const outliers: number[][] = [];
   for (const ds of datasets) {
     assertReactionOrder(ds.order, ds.id);
     if (ds.order !== order) {
@@ -283,9 +289,13 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     seen.add(ds.id);
     if (!Array.isArray(ds.points)) checkPoints(ds.points, ds.id);
     if (ds.points.length === 0) throw new AnalysisError("too_few_points", `Dataset ${ds.id} has no points.`, { datasetId: ds.id });
-    supports.push(
-      summariseDataset({ id: ds.id, points: ds.points, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } }, T0),
-    );
+    const input = { id: ds.id, points: ds.points, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } };
+    let support = summariseDataset(input, T0);
+    // One pass: the outliers of the dataset's own fit are left out of its summary, and it is summarised again.
+    const own = support ? ownOutliers(ds, input.window, T0) : [];
+    if (own.length > 0) support = summariseDataset({ ...input, skip: new Set(own) }, T0);
+    outliers.push(own);
+    supports.push(support);
   }
   assignPooledScales(supports.filter((s): s is DatasetSupport => s !== null));
 
@@ -349,6 +359,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     return {
       id: ds.id,
       n: s?.n ?? 0,
+      outliers: outliers[j],
       pointsGiven: ds.points.length,
       Tmin: s?.Tmin ?? null,
       Tmax: s?.Tmax ?? null,
@@ -363,7 +374,9 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       disagreement: d,
       share: shareAt.get(j) ?? null,
       unitSuspect: unitSuspect[j],
-      verdict: verdictOf(label, j, s, d, others[j], leftOut[j], unitSuspect[j], included.length - (leftOut[j] === null ? 1 : 0), datasets),
+      verdict:
+        verdictOf(label, j, s, d, others[j], leftOut[j], unitSuspect[j], included.length - (leftOut[j] === null ? 1 : 0), datasets) +
+        outlierWords(outliers[j], ds.pointNumbers),
     };
   });
 
@@ -386,6 +399,44 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     members,
     flags,
   };
+}
+
+/**
+ * Points the dataset's own analysis (analyseDataset, on its points inside the window) flags as
+ * outliers, as zero-based indices into its points; none when it has too few points to test, when
+ * its curvature test is significant (it is then summarised by its modified fit) or the analysis refuses it.
+ */
+function ownOutliers(ds: ConsensusDataset, window: { Tmin: number; Tmax: number }, T0: number): number[] {
+  const index: number[] = [];
+  const points: RatePoint[] = [];
+  ds.points.forEach((p, i) => {
+    if (p.T >= window.Tmin && p.T <= window.Tmax) {
+      index.push(i);
+      points.push(p);
+    }
+  });
+  // The Arrhenius fit's outlier test needs n − 2 − 1 ≥ MIN_DOF_FOR_OUTLIER_TEST.
+  if (points.length < MIN_DOF_FOR_OUTLIER_TEST + 3) return [];
+  try {
+    const own = analyseDataset({ points, order: ds.order, T0 });
+    // The test is on the Arrhenius line: the ends of a curved dataset stand off it by their curvature, not by error.
+    if (own.curvature !== null && own.curvature.p < ALPHA) return [];
+    const flagged = own.flags.find((f) => f.code === "outlier")?.points ?? [];
+    return flagged.map((i) => index[i]);
+  } catch (err) {
+    if (err instanceof AnalysisError) return [];
+    throw err;
+  }
+}
+
+/** " Point 5, an outlier of its own fit, is left out of its summary." */
+function outlierWords(outliers: readonly number[], numbers: readonly number[] | undefined): string {
+  if (outliers.length === 0) return "";
+  const named = outliers.map((i) => String(numbers?.[i] ?? i + 1));
+  const list = named.length === 1 ? named[0] : `${named.slice(0, -1).join(", ")} and ${named[named.length - 1]}`;
+  return named.length === 1
+    ? ` Point ${list}, an outlier of its own fit, is left out of its summary.`
+    : ` Points ${list}, outliers of its own fit, are left out of its summary.`;
 }
 
 function checkWindow(w: ConsensusOptions["window"]): { Tmin: number | null; Tmax: number | null } {

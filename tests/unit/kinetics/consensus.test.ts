@@ -631,3 +631,54 @@ describe("consensus: who carries the consensus", () => {
     );
   });
 });
+
+describe("consensus: a gross outlier of a dataset's own fit", () => {
+  /**
+   * Two measured sets from TRUE (8 points, stated 6 %), the first with its 5th point ×4, and a
+   * precise computed set with Ea 10 kJ mol⁻¹ higher, equal to TRUE at 310 K (invented).
+   */
+  function sets(): ConsensusDataset[] {
+    const normal = makeNormal(41);
+    const m1 = makeSet("m1", normal, { n: 8, T1: 250, T2: 400, sd: 0.04, sigma: 0.06 });
+    m1.points = m1.points.map((p, i) => (i === 4 ? { ...p, k: p.k * 4 } : p));
+    const m2 = makeSet("m2", normal, { n: 8, T1: 260, T2: 410, sd: 0.04, sigma: 0.06 });
+    const higher = (T: number) => Math.exp((-10000 / GAS_CONSTANT) * (1 / T - 1 / 310));
+    const calc = makeSet("calc", normal, { n: 8, T1: 250, T2: 410, sd: 0.01, factor: higher });
+    return [m1, m2, calc];
+  }
+
+  it("is flagged by the dataset's own analysis (the case the rule is for)", () => {
+    const a = analyseDataset({ points: sets()[0].points, order: 2 });
+    expect(a.flags.find((f) => f.code === "outlier")?.points).toEqual([4]);
+    // Kept in, it would make the set say almost nothing: χ²/dof far above 1.
+    expect(a.arrhenius.chi2Reduced!).toBeGreaterThan(20);
+  });
+
+  it("is left out of that dataset's summary, so the computed set is off and both measured sets agree", () => {
+    const c = consensus(sets());
+    const m1 = member(c, "m1");
+    expect(member(c, "m2").disagreement!.off).toBe(false);
+    expect(m1.outliers).toEqual([4]);
+    expect(m1.n).toBe(7);
+    expect(m1.pointsGiven).toBe(8);
+    expect(m1.verdict).toMatch(/ Point 5, an outlier of its own fit, is left out of its summary\.$/);
+    expect(member(c, "m2").outliers).toEqual([]);
+    expect(member(c, "m2").verdict).not.toMatch(/outlier/);
+    expect(m1.disagreement!.off).toBe(false);
+    expect(member(c, "m2").disagreement!.off).toBe(false);
+    const calc = member(c, "calc");
+    expect(calc.disagreement!.off).toBe(true);
+    expect(calc.disagreement!.activationEnergy).toBe("higher");
+    expect(c.points).toBe(7 + 8 + 8);
+    // Without the outlier m1's summary is its line through the other 7 points: close to TRUE.
+    expect(Math.abs(m1.support[0].lnk - Math.log(evaluateRateExpression(TRUE, m1.support[0].T)))).toBeLessThan(0.1);
+  });
+
+  it("numbers the outlier as the reader sees it, and never drops a point of a set too small to test", () => {
+    const [m1, m2, calc] = sets();
+    const c = consensus([{ ...m1, pointNumbers: [3, 4, 5, 6, 9, 10, 11, 12] }, m2, calc]);
+    expect(member(c, "m1").verdict).toMatch(/Point 9, an outlier of its own fit/);
+    const small = consensus([{ ...m1, points: m1.points.slice(0, 5) }, m2, calc]);
+    expect(member(small, "m1")).toMatchObject({ outliers: [], n: 5 });
+  });
+});
