@@ -124,7 +124,9 @@ export function ConsensusComparisons({ result, labels }: { result: ConsensusResu
 
 function MemberComparison({ member: m, label }: { member: ConsensusMember; label: string }) {
   const d = m.disagreement;
-  const status = !m.included ? "left out" : !d || !d.range ? "not compared" : d.off ? "off the consensus" : "agrees";
+  const compared = !d || !d.range ? "not compared" : d.off ? "off the consensus" : "agrees";
+  // A dataset left out by a curator is still compared with the consensus.
+  const status = !m.included ? (d?.range ? `left out; ${compared}` : "left out") : compared;
   return (
     <article className="space-y-2 border-t border-line pt-3" aria-label={`${label}: ${status}`}>
       <h3 className="font-medium">
@@ -175,10 +177,9 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
 export function comparisonCell(m: ConsensusMember | undefined): string {
   if (!m) return "—";
   const d = m.disagreement;
-  if (!m.included && m.leftOut) return `left out: ${m.leftOut}`;
-  if (!d) return "—";
-  if (!d.range) return "not compared (no overlap)";
-  if (!d.off) return "agrees";
+  const out = !m.included && m.leftOut ? `left out: ${m.leftOut}` : null;
+  if (!d || !d.range) return out ?? (d ? "not compared (no overlap)" : "—");
   const worst = d.points.reduce((a, b) => (Math.abs(b.z) > Math.abs(a.z) ? b : a));
-  return `off: ${factorWords(worst.log10Ratio)} at ${Math.round(worst.T)} K`;
+  const verdict = d.off ? `off: ${factorWords(worst.log10Ratio)} at ${Math.round(worst.T)} K` : "agrees";
+  return out ? `${out}; compared: ${verdict}` : verdict;
 }

@@ -11,9 +11,10 @@ import { AnalysisError, consensus, type ConsensusDataset, type ConsensusResult, 
 export const CONSENSUS_SELECTION_RULES: readonly string[] = [
   "Each dataset counts once, by its newest public version: older versions are superseded. A dataset whose newest version is retracted stays out (its earlier versions are not used in its place).",
   "Measured (method category `experiment`) and calculated (`theory`) datasets may enter. Evaluated datasets (`evaluation`) never do: they are recommended values derived from other work, often the very datasets here, so counting them beside those would count the same data twice. `include=all` (the default) therefore means measured and calculated; `include=measured` and `include=calculated` keep one kind.",
-  "A curator may leave a published version out with a reason; it is listed with that reason whatever else is chosen, and the deposit and the published version stay untouched. A new version of the dataset is judged afresh.",
+  "A curator may leave a published version out with a reason; it is listed with that reason whatever else is chosen, and the deposit and the published version stay untouched. A new version of the dataset is judged afresh. When nothing else keeps it out, it is still compared with the consensus (its verdict and comparison table are shown) but never enters the fit, nor counts towards the datasets a consensus needs.",
   "The temperature window `Tmin` … `Tmax` (K, both inclusive, either may be left out) drops the points outside it before the fit. A dataset left with fewer than 2 distinct temperatures cannot be fitted and is listed as not used, with how many of its points fell inside.",
   "All datasets of one consensus share one reaction order (the unit of k): the order most of them have; the others are listed as not used.",
+  "A dataset the consensus itself leaves out as a likely unit mistake (its rate constants off the others by a unit-conversion factor; see the consensus conventions) moves from used to not used, with that reason (`unit_suspect`).",
   "A consensus needs at least 2 datasets; with fewer, or input the engine refuses, `consensus` is null and `unavailable` says why.",
 ];
 
@@ -187,7 +188,8 @@ export type NotUsedCode =
   | "excluded_by_curator"
   | "other_order"
   | "too_few_temperatures"
-  | "outside_window";
+  | "outside_window"
+  | "unit_suspect";
 
 export interface SelectedDataset {
   versionId: number;
@@ -216,7 +218,10 @@ export interface ConsensusSelection {
   notUsed: LeftOutDataset[];
   /** Every curator exclusion among the listed versions, whatever else keeps them out. */
   curatorExclusions: CuratorExclusion[];
-  /** The engine's input: id is the version id as a string, points inside the window. */
+  /**
+   * The engine's input: id is the version id as a string, points inside the window (numbered as in
+   * the dataset); versions left out by a curator and by nothing else come with excludedReason.
+   */
   inputs: ConsensusDataset[];
 }
 
@@ -262,7 +267,9 @@ export function selectConsensusDatasets({
   const judged = versions.map((v) => {
     const kind = methodKind(v.payload);
     const order = reactionOrder(v.payload);
-    const kept = v.points.filter(inWindow);
+    // Points inside the window, and the number each has in the dataset (for the engine's words).
+    const keptNumbers = v.points.flatMap((p, i) => (inWindow(p) ? [i + 1] : []));
+    const kept = keptNumbers.map((i) => v.points[i - 1]);
     const reasons: LeftOutDataset["reasons"] = [];
     if (v.state === "retracted")
       reasons.push({
@@ -308,7 +315,7 @@ export function selectConsensusDatasets({
         });
       }
     }
-    return { v, kind, order, kept, reasons };
+    return { v, kind, order, kept, keptNumbers, reasons, exclusion };
   });
 
   // One order for the consensus: the most common among the datasets that could enter (ties: the lower).
@@ -337,14 +344,25 @@ export function selectConsensusDatasets({
   const used: SelectedDataset[] = [];
   const inputs: ConsensusDataset[] = [];
   const notUsed: LeftOutDataset[] = [];
+  const input = (j: (typeof judged)[number]): ConsensusDataset => ({
+    id: String(j.v.versionId),
+    points: j.kept,
+    order: j.order!,
+    label: consensusLabel(j.v),
+    pointNumbers: j.keptNumbers,
+  });
   for (const j of judged) {
     if (j.reasons.length) {
       notUsed.push({ ...base(j), reasons: j.reasons });
+      // Left out by a curator alone: still compared with the consensus, never part of it.
+      if (j.exclusion && j.order === order && j.reasons.every((r) => r.code === "excluded_by_curator")) {
+        inputs.push({ ...input(j), excludedReason: `by a curator (${j.exclusion.reason.trim().replace(/\.$/, "")})` });
+      }
       continue;
     }
     const { lo, hi } = rangeOf(j.kept);
     used.push({ ...base(j), pointsUsed: j.kept.length, Tmin: lo, Tmax: hi });
-    inputs.push({ id: String(j.v.versionId), points: j.kept, order: j.order!, label: consensusLabel(j.v) });
+    inputs.push(input(j));
   }
   const listed = new Set(versions.map((v) => v.versionId));
   return {
@@ -362,7 +380,7 @@ export function selectConsensusDatasets({
  * input the engine refuses, the result is null and `unavailable` says why in plain words.
  */
 export function runSelectedConsensus(selection: ConsensusSelection): { result: ConsensusResult | null; unavailable: string | null } {
-  const n = selection.inputs.length;
+  const n = selection.inputs.filter((d) => !d.excludedReason).length;
   if (n < MIN_CONSENSUS_DATASETS) {
     return {
       result: null,
@@ -375,6 +393,35 @@ export function runSelectedConsensus(selection: ConsensusSelection): { result: C
     if (err instanceof AnalysisError) return { result: null, unavailable: `No consensus for this choice: ${err.message}` };
     throw err;
   }
+}
+
+/**
+ * The selection after the engine has run: a used dataset the engine left out as a likely unit
+ * mistake moves to the not-used list with that reason, so the lists say what the fit rests on.
+ */
+export function withEngineLeftOut(selection: ConsensusSelection, result: ConsensusResult | null): ConsensusSelection {
+  if (!result) return selection;
+  const suspect = new Map(
+    result.members.filter((m) => !m.included && m.unitSuspect && m.leftOut?.startsWith("a likely unit mistake")).map((m) => [m.id, m]),
+  );
+  const moved = selection.used.filter((d) => suspect.has(String(d.versionId)));
+  if (!moved.length) return selection;
+  return {
+    ...selection,
+    used: selection.used.filter((d) => !suspect.has(String(d.versionId))),
+    notUsed: [
+      ...selection.notUsed,
+      ...moved.map(({ pointsUsed: _p, Tmin: _lo, Tmax: _hi, ...d }) => ({
+        ...d,
+        reasons: [
+          {
+            code: "unit_suspect" as const,
+            message: `Left out by the consensus: its rate constants are off the others by about ${suspect.get(String(d.versionId))!.unitSuspect}, a likely unit mistake; check its units.`,
+          },
+        ],
+      })),
+    ],
+  };
 }
 
 /** The selection as the API returns it (without the points, which the version endpoints serve). */

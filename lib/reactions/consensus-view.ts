@@ -1,6 +1,6 @@
 import "server-only";
 import { listConsensusExclusions, listPublicVersionsOfReaction } from "./queries";
-import { runSelectedConsensus, selectConsensusDatasets, type ConsensusChoice } from "./consensus-selection";
+import { runSelectedConsensus, selectConsensusDatasets, withEngineLeftOut, type ConsensusChoice } from "./consensus-selection";
 
 /**
  * A reaction's public versions, the datasets the reader's choice lets into its consensus (and why
@@ -8,6 +8,7 @@ import { runSelectedConsensus, selectConsensusDatasets, type ConsensusChoice } f
  */
 export async function loadReactionConsensus({ reactionId, choice }: { reactionId: number; choice: ConsensusChoice }) {
   const [versions, exclusions] = await Promise.all([listPublicVersionsOfReaction({ reactionId }), listConsensusExclusions({ reactionId })]);
-  const selection = selectConsensusDatasets({ versions, exclusions, choice });
-  return { versions, selection, ...runSelectedConsensus(selection) };
+  const selected = selectConsensusDatasets({ versions, exclusions, choice });
+  const run = runSelectedConsensus(selected);
+  return { versions, selection: withEngineLeftOut(selected, run.result), ...run };
 }

@@ -7,6 +7,7 @@ import {
   runSelectedConsensus,
   selectConsensusDatasets,
   selectionToJson,
+  withEngineLeftOut,
   type CandidateVersion,
   type ConsensusChoice,
   type CuratorExclusion,
@@ -254,5 +255,76 @@ describe("runSelectedConsensus", () => {
     );
     expect(result).toBeNull();
     expect(unavailable).toMatch(/^No consensus for this choice: /);
+  });
+
+  it("compares a dataset left out by a curator with the consensus, without letting it into the fit or the count", () => {
+    const a = version({ Ts: [220, 260, 300, 340, 380] });
+    const b = version({ Ts: [240, 280, 320, 360, 400], points: pointsAt([240, 280, 320, 360, 400], 1.02) });
+    const x = version({ points: pointsAt([250, 300, 350, 400], 3) });
+    const exclusions: CuratorExclusion[] = [{ versionId: x.versionId, reason: "superseded by a later measurement.", excludedAt: new Date() }];
+    const sel = selectConsensusDatasets({ versions: [a, b, x], exclusions, choice: choice() });
+    expect(sel.used.map((d) => d.versionId)).toEqual([a.versionId, b.versionId]);
+    expect(reasonCodes(sel, x.versionId)).toEqual(["excluded_by_curator"]);
+    const { result, unavailable } = runSelectedConsensus(sel);
+    expect(unavailable).toBeNull();
+    const without = runSelectedConsensus(selectConsensusDatasets({ versions: [a, b], exclusions: [], choice: choice() })).result!;
+    expect(result!.included).toBe(2);
+    expect(result!.arrhenius.params.Ea / without.arrhenius.params.Ea).toBeCloseTo(1, 10);
+    const m = result!.members.find((d) => d.id === String(x.versionId))!;
+    expect(m).toMatchObject({ included: false, leftOut: "by a curator (superseded by a later measurement)" });
+    expect(m.disagreement!.off).toBe(true);
+    expect(m.verdict).toMatch(/is off the consensus: .* above .*Left out of the consensus: by a curator \(superseded by a later measurement\)\.$/);
+    // One dataset in the fit is not a consensus, however many are compared with it.
+    const one = runSelectedConsensus(selectConsensusDatasets({ versions: [a, x], exclusions, choice: choice() }));
+    expect(one).toEqual({ result: null, unavailable: "A consensus needs at least 2 datasets; only one of this choice can enter." });
+    // Kept out for another reason too (here: evaluated), it is not compared.
+    const evaluated = version({ category: "evaluation" });
+    const both = selectConsensusDatasets({
+      versions: [a, b, evaluated],
+      exclusions: [{ versionId: evaluated.versionId, reason: "duplicate", excludedAt: new Date() }],
+      choice: choice(),
+    });
+    expect(both.inputs.map((d) => d.id)).toEqual([String(a.versionId), String(b.versionId)]);
+  });
+
+  it("lists a dataset the engine leaves out as a likely unit mistake among the datasets not used, with that reason", () => {
+    const a = version({ Ts: [220, 260, 300, 340, 380] });
+    const b = version({ Ts: [240, 280, 320, 360, 400], points: pointsAt([240, 280, 320, 360, 400], 1.02) });
+    const c = version({ Ts: [230, 270, 310, 350, 390], points: pointsAt([230, 270, 310, 350, 390], 0.98) });
+    const wrong = version({ points: pointsAt([250, 300, 350, 400], 1e3) });
+    const sel = selectConsensusDatasets({ versions: [a, b, c, wrong], exclusions: [], choice: choice() });
+    expect(sel.used).toHaveLength(4);
+    const { result } = runSelectedConsensus(sel);
+    expect(result!.members.find((m) => m.id === String(wrong.versionId))!.unitSuspect).toMatch(/10\^3/);
+    const after = withEngineLeftOut(sel, result);
+    expect(after.used.map((d) => d.versionId)).toEqual([a.versionId, b.versionId, c.versionId]);
+    const listed = after.notUsed.find((d) => d.versionId === wrong.versionId)!;
+    expect(listed).toMatchObject({ datasetId: wrong.datasetId, points: 4, kind: "measured" });
+    expect(listed).not.toHaveProperty("pointsUsed");
+    expect(listed.reasons).toEqual([
+      {
+        code: "unit_suspect",
+        message:
+          "Left out by the consensus: its rate constants are off the others by about a factor of 10^3 (L ↔ cm³), a likely unit mistake; check its units.",
+      },
+    ]);
+    expect(selectionToJson(after).notUsed.map((d) => d.versionId)).toEqual([wrong.versionId]);
+    // Nothing moves without a result or without a unit mistake.
+    expect(withEngineLeftOut(sel, null)).toBe(sel);
+    const fine = selectConsensusDatasets({ versions: [a, b, c], exclusions: [], choice: choice() });
+    expect(withEngineLeftOut(fine, runSelectedConsensus(fine).result)).toBe(fine);
+  });
+
+  it("names an outlier by its number in the dataset when a window drops earlier points", () => {
+    const Ts = [200, 210, 250, 270, 290, 310, 330, 350, 370, 390];
+    const points = pointsAt(Ts).map((p, i) => (i === 5 ? { ...p, k: p.k * 4 } : p));
+    const a = version({ points });
+    const b = version({ Ts: [240, 280, 320, 360, 400], points: pointsAt([240, 280, 320, 360, 400], 1.02) });
+    const sel = selectConsensusDatasets({ versions: [a, b], exclusions: [], choice: choice({ Tmin: 240 }) });
+    expect(sel.inputs[0].pointNumbers).toEqual([3, 4, 5, 6, 7, 8, 9, 10]);
+    const m = runSelectedConsensus(sel).result!.members.find((d) => d.id === String(a.versionId))!;
+    // Point 6 of the dataset is the 4th point inside the window.
+    expect(m.outliers).toEqual([3]);
+    expect(m.verdict).toMatch(/Point 6, an outlier of its own fit, is left out of its summary\.$/);
   });
 });
