@@ -9,6 +9,13 @@ export interface SeriesPoints {
   excluded?: boolean;
   /** Off the consensus of the others somewhere in its range (named so in the legend). */
   off?: boolean;
+  /**
+   * Points of a dataset in the consensus that it does not use (outside the reader's temperature
+   * window, or outliers of the dataset's own fit): drawn hollow and faded, named so in the legend.
+   */
+  unused?: { T: number; lnk: number }[];
+  /** Why those points are not used, for the legend ("outside the window"). */
+  unusedWhy?: string;
 }
 
 const shapes = ["circle", "square", "triangle", "diamond", "star", "cross", "wye"] as const;
@@ -24,7 +31,8 @@ export function ConsensusPlot({
   band: { T: number[]; lnk: number[]; lower: number[]; upper: number[] } | null;
   kUnitLabel: string;
 }) {
-  const xs = [...series.flatMap((s) => s.points.map((p) => 1000 / p.T)), ...(band?.T.map((t) => 1000 / t) ?? [])];
+  const xs = [...series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => 1000 / p.T)), ...(band?.T.map((t) => 1000 / t) ?? [])];
+  const unusedCount = series.reduce((n, s) => n + (s.excluded ? 0 : (s.unused?.length ?? 0)), 0);
   if (!xs.length) return null;
   const pad = (Math.max(...xs) - Math.min(...xs)) * 0.05 || 0.1;
   const domain: [number, number] = [Math.min(...xs) - pad, Math.max(...xs) + pad];
@@ -35,7 +43,9 @@ export function ConsensusPlot({
       <div
         className="h-[28rem] w-full"
         role="img"
-        aria-label={`Arrhenius plot of ${series.length} datasets${band ? " with the consensus fit and its 95 % band" : ""}`}
+        aria-label={`Arrhenius plot of ${series.length} datasets${band ? " with the consensus fit and its 95 % band" : ""}${
+          unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn hollow` : ""
+        }`}
       >
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 28, right: 24, bottom: 28, left: 16 }}>
@@ -103,19 +113,39 @@ export function ConsensusPlot({
                 key={s.label}
                 xAxisId="inv"
                 name={s.excluded ? `${s.label} (left out)` : s.off ? `${s.label} (off the others)` : s.label}
-                data={s.points.map((p) => ({ x: 1000 / p.T, y: p.lnk }))}
+                data={(s.excluded ? [...s.points, ...(s.unused ?? [])] : s.points).map((p) => ({ x: 1000 / p.T, y: p.lnk }))}
                 dataKey="y"
                 shape={shapes[i % shapes.length]}
                 fill={s.excluded ? "#9aa3ad" : colours[i % colours.length]}
                 isAnimationActive={false}
               />
             ))}
+            {series.map((s, i) =>
+              !s.excluded && s.unused?.length ? (
+                <Scatter
+                  key={`${s.label} unused`}
+                  xAxisId="inv"
+                  name={`${s.label}: ${s.unused.length} point${s.unused.length === 1 ? "" : "s"} not used (${s.unusedWhy ?? "outside the window"}), hollow`}
+                  data={s.unused.map((p) => ({ x: 1000 / p.T, y: p.lnk }))}
+                  dataKey="y"
+                  shape={shapes[i % shapes.length]}
+                  fill={colours[i % colours.length]}
+                  fillOpacity={0.1}
+                  stroke={colours[i % colours.length]}
+                  strokeOpacity={0.7}
+                  strokeDasharray="2 1"
+                  isAnimationActive={false}
+                />
+              ) : null,
+            )}
           </ComposedChart>
         </ResponsiveContainer>
       </div>
       <figcaption className="text-xs text-muted">
         Each dataset has its own marker shape. Shaded: 95 % band of the consensus, including the spread between datasets, drawn only over
         the temperatures the datasets cover.
+        {unusedCount > 0 &&
+          " Hollow, faded markers of a dataset's shape are its points the consensus does not use: outside the chosen temperature window, or outliers of the dataset's own fit; the legend names them per dataset."}
       </figcaption>
     </figure>
   );

@@ -441,3 +441,27 @@ export function selectionToJson(selection: ConsensusSelection) {
     })),
   };
 }
+
+/**
+ * A dataset's points as the plot draws them: those its consensus summary uses, and those it does
+ * not (outside the reader's window, or outliers of its own fit) with why.
+ */
+export function plotPoints(
+  v: { points: readonly { T: number; k: number }[] },
+  input: { pointNumbers?: readonly number[] } | undefined,
+  m: { outliers: number[] } | undefined,
+) {
+  const toLnk = (p: { T: number; k: number }) => ({ T: p.T, lnk: Math.log(p.k) });
+  if (!input?.pointNumbers) return { points: v.points.map(toLnk), unused: [] };
+  const kept = new Set(input.pointNumbers.map((n) => n - 1));
+  const outliers = new Set((m?.outliers ?? []).map((i) => input.pointNumbers![i] - 1));
+  const used = v.points.filter((_, i) => kept.has(i) && !outliers.has(i));
+  const unused = v.points.filter((_, i) => !kept.has(i) || outliers.has(i));
+  const why = [
+    kept.size < v.points.length ? "outside the window" : null,
+    outliers.size ? `${outliers.size === 1 ? "an outlier" : "outliers"} of its own fit` : null,
+  ]
+    .filter(Boolean)
+    .join(" or ");
+  return { points: used.map(toLnk), unused: unused.map(toLnk), unusedWhy: why };
+}

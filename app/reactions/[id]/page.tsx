@@ -12,7 +12,7 @@ import { versionCapabilities } from "@/lib/curation/capabilities";
 import type { VersionState } from "@/lib/curation/lifecycle";
 import { GAS_CONSTANT, getCanonicalRateConstantUnit, type ReactionOrder } from "@/lib/kinetics";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
-import { consensusLabel, parseConsensusChoice } from "@/lib/reactions/consensus-selection";
+import { consensusLabel, parseConsensusChoice, plotPoints } from "@/lib/reactions/consensus-selection";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { getReaction, listDatasetRolesOf } from "@/lib/reactions/queries";
 import { formatSignificant } from "@/lib/format";
@@ -106,7 +106,11 @@ export default async function ReactionPage({
               band={preferred ? preferred.band : null}
               series={published.map((v) => ({
                 label: `v${v.number} · ${v.title.split(":").pop()?.trim() ?? v.title}`,
-                points: v.points.map((p) => ({ T: p.T, lnk: Math.log(p.k) })),
+                ...plotPoints(
+                  v,
+                  selection.inputs.find((d) => d.id === String(v.versionId)),
+                  member(v.versionId),
+                ),
                 excluded: !used.has(v.versionId) || member(v.versionId)?.included === false,
                 off: member(v.versionId)?.disagreement?.off === true,
               }))}

@@ -261,7 +261,9 @@ describe("runSelectedConsensus", () => {
     const a = version({ Ts: [220, 260, 300, 340, 380] });
     const b = version({ Ts: [240, 280, 320, 360, 400], points: pointsAt([240, 280, 320, 360, 400], 1.02) });
     const x = version({ points: pointsAt([250, 300, 350, 400], 3) });
-    const exclusions: CuratorExclusion[] = [{ versionId: x.versionId, reason: "superseded by a later measurement.", excludedAt: new Date() }];
+    const exclusions: CuratorExclusion[] = [
+      { versionId: x.versionId, reason: "superseded by a later measurement.", excludedAt: new Date() },
+    ];
     const sel = selectConsensusDatasets({ versions: [a, b, x], exclusions, choice: choice() });
     expect(sel.used.map((d) => d.versionId)).toEqual([a.versionId, b.versionId]);
     expect(reasonCodes(sel, x.versionId)).toEqual(["excluded_by_curator"]);
@@ -273,7 +275,9 @@ describe("runSelectedConsensus", () => {
     const m = result!.members.find((d) => d.id === String(x.versionId))!;
     expect(m).toMatchObject({ included: false, leftOut: "by a curator (superseded by a later measurement)" });
     expect(m.disagreement!.off).toBe(true);
-    expect(m.verdict).toMatch(/is off the consensus: .* above .*Left out of the consensus: by a curator \(superseded by a later measurement\)\.$/);
+    expect(m.verdict).toMatch(
+      /is off the consensus: .* above .*Left out of the consensus: by a curator \(superseded by a later measurement\)\.$/,
+    );
     // One dataset in the fit is not a consensus, however many are compared with it.
     const one = runSelectedConsensus(selectConsensusDatasets({ versions: [a, x], exclusions, choice: choice() }));
     expect(one).toEqual({ result: null, unavailable: "A consensus needs at least 2 datasets; only one of this choice can enter." });
