@@ -411,8 +411,14 @@ export function withEngineLeftOut(selection: ConsensusSelection, result: Consens
     used: selection.used.filter((d) => !suspect.has(String(d.versionId))),
     notUsed: [
       ...selection.notUsed,
-      ...moved.map(({ pointsUsed: _p, Tmin: _lo, Tmax: _hi, ...d }) => ({
-        ...d,
+      ...moved.map((d) => ({
+        versionId: d.versionId,
+        datasetId: d.datasetId,
+        number: d.number,
+        title: d.title,
+        versionIdentifier: d.versionIdentifier,
+        kind: d.kind,
+        points: d.points,
         reasons: [
           {
             code: "unit_suspect" as const,

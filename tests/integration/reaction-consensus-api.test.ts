@@ -74,7 +74,12 @@ type Body = {
       notUsed: { versionId: number; reasons: { code: string; message: string }[] }[];
       curatorExclusions: { versionId: number; reason: string; excludedAt: string }[];
     };
-    consensus: { members: { id: string }[]; points: number; range: { Tmin: number; Tmax: number } } | null;
+    consensus: {
+      members: { id: string; included: boolean; leftOut: string | null; disagreement: { off: boolean } | null }[];
+      included: number;
+      points: number;
+      range: { Tmin: number; Tmax: number };
+    } | null;
     unavailable: string | null;
     caution: string;
   };
@@ -101,10 +106,18 @@ describe("GET /api/v1/reactions/:id/consensus: what went in", () => {
     expect(selection.curatorExclusions).toEqual([{ versionId: ids.excluded, reason: EXCLUSION_REASON, excludedAt: expect.any(String) }]);
     // Six public datasets, nothing else: the draft is not listed at all.
     expect(selection.used.length + selection.notUsed.length).toBe(6);
-    // The engine saw exactly the used datasets, all their points.
+    // The engine fitted exactly the used datasets, all their points; the one a curator left out is only compared.
     expect(consensus).not.toBeNull();
-    expect(consensus!.members.map((m) => m.id).sort()).toEqual([ids.measuredA, ids.measuredB, ids.calculated].map(String).sort());
+    expect(consensus!.members.map((m) => m.id).sort()).toEqual(
+      [ids.measuredA, ids.measuredB, ids.calculated, ids.excluded].map(String).sort(),
+    );
+    expect(consensus!.included).toBe(3);
     expect(consensus!.points).toBe(6 + 5 + 6);
+    expect(consensus!.members.find((m) => m.id === String(ids.excluded))).toMatchObject({
+      included: false,
+      leftOut: `by a curator (${EXCLUSION_REASON.replace(/\.$/, "")})`,
+      disagreement: { off: true },
+    });
     expect(body.data.unavailable).toBeNull();
     expect(body.data.units).toEqual({ T: "K", k: "cm3 molecule-1 s-1" });
     expect(body.data.caution).toMatch(/Extrapolation/);
@@ -115,7 +128,7 @@ describe("GET /api/v1/reactions/:id/consensus: what went in", () => {
     const measured = (await (await get("?include=measured")).json()) as Body;
     expect(measured.data.selection.used.map((d) => d.versionId).sort()).toEqual([ids.measuredA, ids.measuredB].sort());
     expect(reasonsOf(measured, ids.calculated)).toEqual(["not_chosen"]);
-    expect(measured.data.consensus!.members).toHaveLength(2);
+    expect(measured.data.consensus!.members.filter((m) => m.included)).toHaveLength(2);
 
     const calculated = (await (await get("?include=calculated")).json()) as Body;
     expect(calculated.data.selection.used.map((d) => d.versionId)).toEqual([ids.calculated]);
