@@ -70,7 +70,8 @@ describe("a draft of the next version never moves a published version", () => {
     expect(onA).toContain(v1.id);
     const onB = await listPublicVersionsOfReaction({ reactionId: reactionB });
     expect(onB.map((v) => v.datasetId)).not.toContain(v1.datasetId);
-  });
+    // The file's first test starts the analysis worker threads and RDKit: slow on a busy machine.
+  }, 120_000);
 });
 
 describe("the freeze holds against the runtime role", () => {
