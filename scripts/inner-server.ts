@@ -27,7 +27,18 @@ const handle = app.getRequestHandler();
 await app.prepare();
 const upgrade = app.getUpgradeHandler();
 
-const server = http.createServer(innerGate(key, (req, res) => handle(req, res)));
+// As `next start` does: an error Next's handler lets through is a 500, never a crash.
+async function serve(req: http.IncomingMessage, res: http.ServerResponse) {
+  try {
+    await handle(req, res);
+  } catch (err) {
+    console.error(`[inner] ${req.method} ${req.url?.slice(0, 200)}:`, err);
+    if (!res.headersSent) res.writeHead(500, { "content-type": "text/plain" });
+    res.end("Internal Server Error");
+  }
+}
+
+const server = http.createServer(innerGate(key, serve));
 server.on(
   "upgrade",
   innerGateUpgrade(key, (req, socket, head) => upgrade(req, socket, head)),
