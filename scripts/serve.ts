@@ -1,6 +1,7 @@
 // Serves a built Arrhenia: the local mail capture (when SMTP_URL is unset), the local fake DOI
-// registration service (when DOI_API_URL is unset), the background workers, and `next start`
-// on a private loopback port behind the front server (lib/auth/edge-proxy.ts) that listens on
+// registration service (when DOI_API_URL is unset), the background workers, and Next
+// (scripts/inner-server.ts, answering only requests that carry the per-start key) on a private
+// loopback port behind the front server (lib/auth/edge-proxy.ts) that listens on
 // HOST:PORT and alone decides the client's address. Ctrl-C stops them all.
 import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
@@ -48,7 +49,7 @@ const quiet = serveQuiet();
 
 // Fails before anything starts when TRUST_PROXY cannot be read.
 const trust = compileTrustProxy(trustProxy());
-// A fresh secret per start: Next believes the client-address header only when it carries it.
+// A fresh secret per start: the inner server answers only requests that carry it (lib/auth/inner-gate.ts).
 const edgeKey = randomBytes(24).toString("hex");
 process.env.ARRHENIA_EDGE_KEY = edgeKey;
 
@@ -62,7 +63,8 @@ const pendingIdentifiers = await enqueuePendingIdentifierRegistrations();
 const staleRefits = await enqueueStaleRefits();
 
 const innerPort = configuredInnerPort() ?? (await freeLoopbackPort());
-const next = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", String(innerPort)], {
+// Without the react-server condition: Next's own server loads its vendored React as `next start` does.
+const next = spawn("node_modules/.bin/tsx", ["scripts/inner-server.ts", String(innerPort)], {
   stdio: ["ignore", "inherit", "inherit"],
   env: process.env,
 });

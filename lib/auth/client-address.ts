@@ -20,6 +20,16 @@ function headerValue(source: HeaderSource, name: string): string | undefined {
   return Array.isArray(raw) ? raw[0] : raw;
 }
 
+/**
+ * Set on globalThis by the inner server (scripts/inner-server.ts), where every request reaching
+ * Next has passed the key check of lib/auth/inner-gate.ts, which then removed the key header.
+ */
+export const INNER_GATE_MARK = Symbol.for("arrhenia.inner-gate");
+
+function behindInnerGate(): boolean {
+  return (globalThis as Record<symbol, unknown>)[INNER_GATE_MARK] === true;
+}
+
 function sameSecret(given: string, expected: string): boolean {
   const a = Buffer.from(given);
   const b = Buffer.from(expected);
@@ -28,12 +38,15 @@ function sameSecret(given: string, expected: string): boolean {
 
 /**
  * The address every per-address limit counts by. Only the front server's header is believed (it
- * applies TRUST_PROXY); X-Forwarded-For straight from a client never is.
+ * applies TRUST_PROXY): behind the inner gate every request is the front server's; elsewhere (a
+ * handler called directly) only one carrying the key. X-Forwarded-For from a client never is.
  */
 export function clientAddress(source: HeaderSource): string {
-  const key = edgeKey();
-  const given = headerValue(source, EDGE_KEY_HEADER);
-  if (!key || !given || !sameSecret(given, key)) return UNKNOWN_ADDRESS;
+  if (!behindInnerGate()) {
+    const key = edgeKey();
+    const given = headerValue(source, EDGE_KEY_HEADER);
+    if (!key || !given || !sameSecret(given, key)) return UNKNOWN_ADDRESS;
+  }
   const address = headerValue(source, CLIENT_ADDRESS_HEADER)?.trim();
   return address && isIP(address) ? address : UNKNOWN_ADDRESS;
 }

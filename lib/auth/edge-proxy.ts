@@ -1,4 +1,4 @@
-// The public face of `npm start`: a small HTTP server in front of `next start` that decides the
+// The public face of `npm start`: a small HTTP server in front of Next (scripts/inner-server.ts) that decides the
 // client's address from the socket (believing X-Forwarded-For only from proxies TRUST_PROXY
 // names), strips forwarding headers nobody trusted set, and refuses before they reach Next: form
 // posts (server actions) from another origin than APP_URL's (403), action bodies over their size

@@ -1,6 +1,6 @@
 import type http from "node:http";
 import { afterEach, describe, expect, it } from "vitest";
-import { CLIENT_ADDRESS_HEADER, clientAddress, EDGE_KEY_HEADER, UNKNOWN_ADDRESS } from "@/lib/auth/client-address";
+import { CLIENT_ADDRESS_HEADER, clientAddress, EDGE_KEY_HEADER, INNER_GATE_MARK, UNKNOWN_ADDRESS } from "@/lib/auth/client-address";
 import { compileTrustProxy, forwardedHeaders, isCrossOriginPagePost } from "@/lib/auth/edge-proxy";
 
 function fakeRequest(remoteAddress: string, headers: http.IncomingHttpHeaders): http.IncomingMessage {
@@ -23,6 +23,19 @@ describe("clientAddress: only the front server's word counts", () => {
     expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "198.51.100.7", [EDGE_KEY_HEADER]: "guessed" })).toBe(UNKNOWN_ADDRESS);
     expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "198.51.100.7" })).toBe(UNKNOWN_ADDRESS);
     expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "not an address", [EDGE_KEY_HEADER]: "k".repeat(48) })).toBe(UNKNOWN_ADDRESS);
+  });
+
+  it("behind the inner gate (which checked the key and removed it) believes the front server's header", () => {
+    const marks = globalThis as Record<symbol, unknown>;
+    marks[INNER_GATE_MARK] = true;
+    try {
+      expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "198.51.100.7" })).toBe("198.51.100.7");
+      expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "not an address" })).toBe(UNKNOWN_ADDRESS);
+      expect(clientAddress(new Headers({ "x-forwarded-for": "203.0.113.9" }))).toBe(UNKNOWN_ADDRESS);
+    } finally {
+      delete marks[INNER_GATE_MARK];
+    }
+    expect(clientAddress({ [CLIENT_ADDRESS_HEADER]: "198.51.100.7" })).toBe(UNKNOWN_ADDRESS);
   });
 
   it("believes nothing when no front server is configured", () => {

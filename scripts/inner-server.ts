@@ -1,0 +1,61 @@
+// Next's production server on the private loopback port behind the front server, in place of
+// `next start`: Next's own request handler, reached only through the gate of lib/auth/inner-gate.ts
+// (the front server's per-start key, ARRHENIA_EDGE_KEY, or 403). No proxy.ts: with one, Next would
+// buffer every body whole (see DEVELOPERS.md). Started by scripts/serve.ts with the port as argument.
+import http from "node:http";
+import { INNER_GATE_MARK } from "@/lib/auth/client-address";
+import { innerGate, innerGateUpgrade } from "@/lib/auth/inner-gate";
+
+const port = Number(process.argv[2]);
+const key = process.env.ARRHENIA_EDGE_KEY ?? "";
+if (!Number.isInteger(port) || port <= 0 || port > 65535) {
+  console.error(`[inner] usage: inner-server.ts PORT (got ${process.argv[2] ?? "nothing"})`);
+  process.exit(1);
+}
+if (key.length < 16) {
+  console.error("[inner] ARRHENIA_EDGE_KEY is missing: start the app with scripts/serve.ts (npm start)");
+  process.exit(1);
+}
+// As `next start` does; Next warns about and misbehaves under any other value.
+(process.env as Record<string, string>).NODE_ENV = "production";
+(globalThis as Record<symbol, unknown>)[INNER_GATE_MARK] = true;
+
+// Loaded after NODE_ENV is set: Next reads it while loading.
+const { default: next } = await import("next");
+const app = next({ dev: false, dir: process.cwd(), hostname: "127.0.0.1", port });
+const handle = app.getRequestHandler();
+await app.prepare();
+const upgrade = app.getUpgradeHandler();
+
+// As `next start` does: an error Next's handler lets through is a 500, never a crash.
+async function serve(req: http.IncomingMessage, res: http.ServerResponse) {
+  try {
+    await handle(req, res);
+  } catch (err) {
+    console.error(`[inner] ${req.method} ${req.url?.slice(0, 200)}:`, err);
+    if (!res.headersSent) res.writeHead(500, { "content-type": "text/plain" });
+    res.end("Internal Server Error");
+  }
+}
+
+const server = http.createServer(innerGate(key, serve));
+server.on(
+  "upgrade",
+  innerGateUpgrade(key, (req, socket, head) => upgrade(req, socket, head)),
+);
+await new Promise<void>((resolve, reject) => {
+  server.once("error", reject);
+  server.listen(port, "127.0.0.1", () => resolve());
+});
+
+let closing = false;
+function close() {
+  if (closing) return;
+  closing = true;
+  server.close();
+  server.closeIdleConnections();
+  void app.close().finally(() => process.exit(0));
+  setTimeout(() => process.exit(0), 5_000).unref();
+}
+process.on("SIGTERM", close);
+process.on("SIGINT", close);
