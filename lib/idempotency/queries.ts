@@ -56,9 +56,8 @@ export async function recordIdempotentResponse(
     body,
   }: { userId: number; key: string; endpoint: string; requestHash: string; status: number; headers: Record<string, string>; body: string },
 ): Promise<void> {
-  const values = {
-    userId,
-    key,
+  // What a replaced (expired) record is overwritten with: everything but its identity.
+  const record = {
     endpoint,
     requestHash,
     responseStatus: status,
@@ -69,19 +68,11 @@ export async function recordIdempotentResponse(
   };
   const written = await tx
     .insert(idempotencyKeys)
-    .values(values)
+    .values({ userId, key, ...record })
     // An expired record of the same key is replaced; a live one is kept.
     .onConflictDoUpdate({
       target: [idempotencyKeys.userId, idempotencyKeys.key],
-      set: {
-        endpoint,
-        requestHash,
-        responseStatus: status,
-        responseHeaders: headers,
-        responseBody: body,
-        createdAt: sql`now()`,
-        expiresAt: values.expiresAt,
-      },
+      set: record,
       setWhere: lt(idempotencyKeys.expiresAt, sql`now()`),
     })
     .returning({ key: idempotencyKeys.key });
