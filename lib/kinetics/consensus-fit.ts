@@ -283,6 +283,18 @@ export function shareDirection(rows: Rows, fit: ModelFit, T: number): number[] {
   return a;
 }
 
+/** Covariance of ln k̂(T1) and ln k̂(T2) for a consensus fit: x(T1)ᵀC x(T2) (τ² not included). */
+export function predictCovariance(rows: Rows, fit: ModelFit, T1: number, T2: number): number {
+  const x1 = [0, 0, 0];
+  const x2 = [0, 0, 0];
+  designRow(rows, T1, x1);
+  designRow(rows, T2, x2);
+  const { q, cov } = fit;
+  let v = 0;
+  for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) v += x1[a] * cov[a * q + b] * x2[b];
+  return v;
+}
+
 /** Variance of ln k̂(T1) − ln k̂(T2) for a consensus fit (the intercept cancels). */
 export function predictDifferenceVariance(rows: Rows, fit: ModelFit, T1: number, T2: number): number {
   const x1 = [0, 0, 0];

@@ -64,10 +64,88 @@ export function describeComparison(points: ComparedPoint[]): string {
   return parts.join("; ");
 }
 
-/** The slope sentence from the difference of log ratios between the cold and the hot end. */
-export function describeSlope(slope: "lower" | "higher" | "same" | null): string {
-  if (slope === "lower") return "its activation energy is lower than the others'";
-  if (slope === "higher") return "its activation energy is higher than the others'";
-  if (slope === "same") return "about the same factor throughout: its activation energy agrees with the others'";
+/** Whose activation energy a dataset is compared with: one other dataset's, or several others'. */
+export function othersPossessive(otherCount: number): string {
+  return otherCount === 1 ? "the other dataset's" : "the others'";
+}
+
+/**
+ * The slope clause from the test between the cold and the hot end ("lower"/"higher": |z| > 1.96),
+ * and, when the ends agree, from the test of a constant factor along the range.
+ */
+export function describeSlope(
+  slope: "lower" | "higher" | "same" | null,
+  otherCount: number,
+  factorChanges: boolean | null = false,
+): string {
+  const whose = othersPossessive(otherCount);
+  if (slope === "lower") return `its activation energy is lower than ${whose}`;
+  if (slope === "higher") return `its activation energy is higher than ${whose}`;
+  if (slope === "same" && factorChanges === false) return `about the same factor throughout: its activation energy agrees with ${whose}`;
+  if (slope === "same" && factorChanges)
+    return `the factor changes along its range, though not between its ends: its curvature differs from ${whose}`;
   return "";
+}
+
+/** "Dataset 12" → "dataset 12" inside a sentence; other labels are kept as given. */
+export function lowerFirst(label: string): string {
+  return label.startsWith("Dataset ") ? `d${label.slice(1)}` : label;
+}
+
+/** What the verdict sentence needs to know about one dataset's comparison. */
+export interface VerdictInput {
+  /** How the dataset is named ("Dataset 12", or a label). */
+  name: string;
+  /** Its own range inside the window; null when it has no points there. */
+  own: { Tmin: number; Tmax: number } | null;
+  /** Why it is left out of the consensus; null when it is in. */
+  leftOut: string | null;
+  /** Included datasets other than this one. */
+  otherCount: number;
+  unitSuspect: string | null;
+  /** Null when it could not be compared (nothing else in the consensus, or the others cover one temperature). */
+  comparison: {
+    /** Datasets in the consensus it is compared with. */
+    count: number;
+    /** Temperatures those datasets cover. */
+    othersRange: { Tmin: number; Tmax: number };
+    /** The other dataset carrying most of the others' consensus, with its name. */
+    restsOn: { name: string; share: number } | null;
+    /** The overlap of the ranges; null when there is none. */
+    range: { Tmin: number; Tmax: number } | null;
+    points: ComparedPoint[];
+    off: boolean;
+    activationEnergy: "lower" | "higher" | "same" | null;
+    factorChanges: boolean | null;
+    meanOffsetLog10: number;
+  } | null;
+}
+
+/** The comparison of one dataset with the others, in one or two sentences (each template with its condition). */
+export function describeVerdict(v: VerdictInput): string {
+  const { name, leftOut, unitSuspect } = v;
+  const out = leftOut ? ` Left out of the consensus: ${leftOut}.` : "";
+  if (!v.own) return `${name} has no points inside the temperature window.`;
+  const d = v.comparison;
+  if (!d) {
+    return v.otherCount === 0
+      ? `${name} is the only dataset in the consensus: there is nothing to compare it with.${out}`
+      : `The other datasets alone cover a single temperature, so ${lowerFirst(name)} cannot be compared with them.${out}`;
+  }
+  let against = leftOut ? "the consensus" : d.count === 1 ? "the only other dataset" : `the consensus of the other ${d.count}`;
+  if (d.restsOn) against += ` (which rests ${Math.round(d.restsOn.share * 100)} % on ${lowerFirst(d.restsOn.name)} there)`;
+  if (unitSuspect) return `${name} is ${describeFactor(d.meanOffsetLog10)} ${against}, close to ${unitSuspect}: check its units.${out}`;
+  if (!d.range || d.points.length === 0) {
+    return `${name} (${describeT(v.own.Tmin)}–${describeT(v.own.Tmax)}) lies outside the temperatures of ${against} (${describeT(d.othersRange.Tmin)}–${describeT(d.othersRange.Tmax)}): not compared.${out}`;
+  }
+  const differs = d.activationEnergy === "lower" || d.activationEnergy === "higher";
+  if (!d.off) {
+    const widest = d.points.reduce((a, b) => (Math.abs(b.log10Ratio) > Math.abs(a.log10Ratio) ? b : a));
+    const within = `within its uncertainty at ${listTemperatures(d.points.map((p) => p.T))} (largest difference ${describeFactor(widest.log10Ratio)}, at ${describeT(widest.T)})`;
+    return `${name} agrees with ${against} ${within}${differs ? `, though ${describeSlope(d.activationEnergy, d.count)}` : ""}.${out}`;
+  }
+  const where = describeComparison(d.points);
+  const clause = describeSlope(d.activationEnergy, d.count, d.factorChanges);
+  const slope = !clause ? "" : differs ? `: ${clause}` : ` — ${clause}`;
+  return `${name} is off ${against}: ${where}${slope}.${out}`;
 }

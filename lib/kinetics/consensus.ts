@@ -43,8 +43,10 @@ import {
   fitModel,
   leaveOneOutFits,
   predict,
+  predictCovariance,
   predictDifferenceVariance,
   shareDirection,
+  symmetricEigen,
   shareVectors,
   toPublished,
   type ModelFit,
@@ -53,6 +55,7 @@ import {
 import {
   assignPooledScales,
   evaluateOwnFit,
+  ownCovariance,
   ownDifferenceVariance,
   summariseDataset,
   Z95,
@@ -60,9 +63,9 @@ import {
   type OwnModel,
   type ScaleSource,
 } from "./consensus-support";
-import { describeComparison, describeFactor, describeSlope, describeT, listTemperatures, matchUnitMistake } from "./consensus-words";
+import { describeVerdict, matchUnitMistake } from "./consensus-words";
 import { REFERENCE_TEMPERATURE } from "./constants";
-import { quantileNormal } from "./distributions";
+import { quantileNormal, survivalChiSquare } from "./distributions";
 import { assertReactionOrder, checkPoints, describe } from "./validate-points";
 import type { RatePoint, ReactionOrder, Severity } from "./types";
 
@@ -152,6 +155,9 @@ export interface ComparisonPoint {
   log10Ratio: number;
   z: number;
   agrees: boolean;
+  /** Standard errors of ln k of the dataset's own fit and of the other side at T: with tau2, the denominator of z. */
+  seOwn: number;
+  seOthers: number;
 }
 
 /** How one dataset sits against the consensus of the others, along its range. */
@@ -159,7 +165,7 @@ export interface Disagreement {
   /** Other datasets in that consensus. */
   comparedWith: number;
   model: "arrhenius" | "modified_arrhenius";
-  /** τ² of the others' consensus. */
+  /** τ²₋ⱼ: the between-dataset variance of the others' consensus, without this dataset (0 when the other side is one dataset). */
   tau2: number;
   /** Part of the dataset's range the others cover; null when they cover none of it. */
   range: { Tmin: number; Tmax: number } | null;
@@ -171,6 +177,10 @@ export interface Disagreement {
   activationEnergy: "lower" | "higher" | "same" | null;
   /** z of the difference of log ratios between the cold and the hot end. */
   slopeZ: number | null;
+  /** Whether the log ratio changes along the comparison temperatures (χ² test of its contrasts, p < 0.05); null with one temperature. */
+  factorChanges: boolean | null;
+  /** p of that test. */
+  factorChangeP: number | null;
   /** Mean log10 ratio over the comparison temperatures (over its support temperatures when none). */
   meanOffsetLog10: number;
   /** The other dataset with the largest share in the others' consensus at the comparison temperature with the largest |z|, when that share is over 2/3. */
@@ -599,6 +609,72 @@ function comparisonTemperatures(a: number, b: number): number[] {
   return Array.from({ length: steps + 1 }, (_, i) => (i === 0 ? a : i === steps ? b : 1 / (1 / a + ((1 / b - 1 / a) * i) / steps)));
 }
 
+/** How the other side of a comparison is read: the others' consensus curve, or the one other dataset's own fit. */
+interface OtherSide {
+  lnk(T: number): number;
+  variance(T: number): number;
+  covariance(T1: number, T2: number): number;
+  differenceVariance(T1: number, T2: number): number;
+  tau2: number;
+  model: "arrhenius" | "modified_arrhenius";
+}
+
+function otherSide(rows: Rows, supports: readonly (DatasetSupport | null)[], o: Others): OtherSide {
+  // One other dataset: its own fit, read exactly as the dataset compared is read, so that the
+  // verdict of A against B is the mirror of B against A (z and slope z change sign, nothing else).
+  const single = o.count === 1 ? o.blocks.find((k) => k !== o.skip) : undefined;
+  const s = single !== undefined ? supports[single] : null;
+  if (s && s.fit.model !== "single_temperature") {
+    const fit = s.fit;
+    return {
+      lnk: (T) => evaluateOwnFit(fit, T).lnk,
+      variance: (T) => evaluateOwnFit(fit, T).variance,
+      covariance: (T1, T2) => ownCovariance(fit, T1, T2),
+      differenceVariance: (T1, T2) => ownDifferenceVariance(fit, T1, T2),
+      tau2: 0,
+      model: fit.model as "arrhenius" | "modified_arrhenius",
+    };
+  }
+  const { fit } = o;
+  return {
+    lnk: (T) => predict(rows, fit, T).lnk,
+    variance: (T) => predict(rows, fit, T).variance,
+    covariance: (T1, T2) => predictCovariance(rows, fit, T1, T2),
+    differenceVariance: (T1, T2) => predictDifferenceVariance(rows, fit, T1, T2),
+    tau2: fit.tau2,
+    model: fit.q === 3 ? "modified_arrhenius" : "arrhenius",
+  };
+}
+
+/**
+ * Whether the log ratio changes along the comparison temperatures: the Wald statistic of its
+ * contrasts d_i − d_m with their covariance (own fit + the other side + τ²·I), pseudo-inverse
+ * over the directions with eigenvalue above 1e-10 of the largest; χ² on that many dof.
+ */
+export function factorChangeTest(d: readonly number[], cov: readonly number[]): { chi2: number; dof: number; p: number } | null {
+  const m = d.length;
+  if (m < 2) return null;
+  const k = m - 1;
+  const c = d.slice(0, k).map((x) => x - d[k]);
+  const S = new Array<number>(k * k);
+  for (let a = 0; a < k; a++) {
+    for (let b = 0; b < k; b++) S[a * k + b] = cov[a * m + b] - cov[a * m + k] - cov[k * m + b] + cov[k * m + k];
+  }
+  const { values, vectors } = symmetricEigen(S, k);
+  const top = Math.max(...values);
+  if (!(top > 0)) return null;
+  let chi2 = 0;
+  let dof = 0;
+  for (let i = 0; i < k; i++) {
+    if (!(values[i] > 1e-10 * top)) continue;
+    let proj = 0;
+    for (let a = 0; a < k; a++) proj += vectors[a * k + i] * c[a];
+    chi2 += (proj * proj) / values[i];
+    dof++;
+  }
+  return { chi2, dof, p: survivalChiSquare(chi2, dof) };
+}
+
 function compare(
   rows: Rows,
   supports: readonly (DatasetSupport | null)[],
@@ -610,34 +686,63 @@ function compare(
   const s = supports[j];
   if (!s || !o) return null;
   const { fit } = o;
+  const other = otherSide(rows, supports, o);
   const a = Math.max(s.Tmin, o.Tmin);
   const b = Math.min(s.Tmax, o.Tmax);
   const overlap = a <= b;
   const temps = overlap ? (s.fit.model === "single_temperature" ? [s.temps[0]] : comparisonTemperatures(a, b)) : s.temps;
   const diffs = temps.map((T) => {
     const own = evaluateOwnFit(s.fit, T);
-    const cons = predict(rows, fit, T);
-    const d = own.lnk - cons.lnk;
-    return { T, d, z: d / Math.sqrt(own.variance + fit.tau2 + cons.variance) };
+    const ownSe = Math.sqrt(own.variance);
+    const othersSe = Math.sqrt(other.variance(T));
+    const d = own.lnk - other.lnk(T);
+    return { T, d, z: d / Math.sqrt(own.variance + other.tau2 + othersSe * othersSe), ownSe, othersSe };
   });
   const meanOffsetLog10 = diffs.reduce((acc, x) => acc + x.d, 0) / diffs.length / Math.LN10;
   const m = overlap ? temps.length : 0;
   const bound = bonferroniNormal(Math.max(1, m));
   const points: ComparisonPoint[] = overlap
-    ? diffs.map(({ T, d, z }) => {
+    ? diffs.map(({ T, d, z, ownSe, othersSe }) => {
         const ratio = Math.exp(d);
-        return { T, ratio: Number.isFinite(ratio) ? ratio : null, log10Ratio: d / Math.LN10, z, agrees: Math.abs(z) <= bound };
+        return {
+          T,
+          ratio: Number.isFinite(ratio) ? ratio : null,
+          log10Ratio: d / Math.LN10,
+          z,
+          agrees: Math.abs(z) <= bound,
+          seOwn: ownSe,
+          seOthers: othersSe,
+        };
       })
     : [];
   let activationEnergy: Disagreement["activationEnergy"] = null;
   let slopeZ: number | null = null;
+  let factorChanges: boolean | null = null;
+  let factorChangeP: number | null = null;
   if (points.length >= 2 && s.fit.model !== "single_temperature") {
     const lo = diffs[0];
     const hi = diffs[diffs.length - 1];
-    const v = ownDifferenceVariance(s.fit, lo.T, hi.T) + predictDifferenceVariance(rows, fit, lo.T, hi.T) + 2 * fit.tau2;
+    // The same variance model as the z of each temperature: own fit, the other side and τ² per temperature.
+    const v = ownDifferenceVariance(s.fit, lo.T, hi.T) + other.differenceVariance(lo.T, hi.T) + 2 * other.tau2;
     slopeZ = (lo.d - hi.d) / Math.sqrt(v);
     // Relatively higher at the cold end: k rises less steeply with T, so a lower activation energy.
     activationEnergy = Math.abs(slopeZ) > Z95 ? (slopeZ > 0 ? "lower" : "higher") : "same";
+    const cov = new Array<number>(m * m);
+    for (let p = 0; p < m; p++) {
+      for (let q = p; q < m; q++) {
+        const v = ownCovariance(s.fit, temps[p], temps[q]) + other.covariance(temps[p], temps[q]) + (p === q ? other.tau2 : 0);
+        cov[p * m + q] = v;
+        cov[q * m + p] = v;
+      }
+    }
+    const test = factorChangeTest(
+      diffs.map((x) => x.d),
+      cov,
+    );
+    if (test) {
+      factorChangeP = test.p;
+      factorChanges = test.p < OFF_CONSENSUS_ALPHA;
+    }
   }
   let restsOn: Disagreement["restsOn"] = null;
   if (overlap && o.count >= 2) {
@@ -661,14 +766,16 @@ function compare(
   }
   return {
     comparedWith: o.count,
-    model: fit.q === 3 ? "modified_arrhenius" : "arrhenius",
-    tau2: fit.tau2,
+    model: other.model,
+    tau2: other.tau2,
     range: overlap ? { Tmin: a, Tmax: b } : null,
     points,
     bound,
     off: points.some((p) => !p.agrees),
     activationEnergy,
     slopeZ,
+    factorChanges,
+    factorChangeP,
     meanOffsetLog10,
     restsOn,
   };
@@ -685,39 +792,27 @@ function verdictOf(
   otherCount: number,
   datasets: readonly ConsensusDataset[],
 ): string {
-  const name = label(j);
-  const out = leftOut ? ` Left out of the consensus: ${leftOut}.` : "";
-  if (!s) return `${name} has no points inside the temperature window.`;
-  if (!d || !o) {
-    return otherCount === 0
-      ? `${name} is the only dataset in the consensus: there is nothing to compare it with.${out}`
-      : `The other datasets alone cover a single temperature, so ${lowerFirst(name)} cannot be compared with them.${out}`;
-  }
-  let against = leftOut ? "the consensus" : o.count === 1 ? "the only other dataset" : `the consensus of the other ${o.count}`;
-  if (d.restsOn) {
-    const k = datasets.findIndex((ds) => ds.id === d.restsOn!.id);
-    against += ` (which rests ${Math.round(d.restsOn.share * 100)} % on ${lowerFirst(label(k))} there)`;
-  }
-  if (unitSuspect) {
-    return `${name} is ${describeFactor(d.meanOffsetLog10)} ${against}, close to ${unitSuspect}: check its units.${out}`;
-  }
-  if (!d.range) {
-    return `${name} (${describeT(s.Tmin)}–${describeT(s.Tmax)}) lies outside the temperatures of ${against} (${describeT(o.Tmin)}–${describeT(o.Tmax)}): not compared.${out}`;
-  }
-  const differs = d.activationEnergy === "lower" || d.activationEnergy === "higher";
-  if (!d.off) {
-    const widest = d.points.reduce((a, b) => (Math.abs(b.log10Ratio) > Math.abs(a.log10Ratio) ? b : a));
-    const within = `within its uncertainty at ${listTemperatures(d.points.map((p) => p.T))} (largest difference ${describeFactor(widest.log10Ratio)}, at ${describeT(widest.T)})`;
-    return `${name} agrees with ${against} ${within}${differs ? `, though ${describeSlope(d.activationEnergy)}` : ""}.${out}`;
-  }
-  const where = describeComparison(d.points);
-  const slope = differs ? `: ${describeSlope(d.activationEnergy)}` : d.activationEnergy === "same" ? ` — ${describeSlope("same")}` : "";
-  return `${name} is off ${against}: ${where}${slope}.${out}`;
-}
-
-/** "Dataset 12" → "dataset 12" inside a sentence; other labels are kept as given. */
-function lowerFirst(label: string): string {
-  return label.startsWith("Dataset ") ? `d${label.slice(1)}` : label;
+  return describeVerdict({
+    name: label(j),
+    own: s ? { Tmin: s.Tmin, Tmax: s.Tmax } : null,
+    leftOut,
+    otherCount,
+    unitSuspect,
+    comparison:
+      d && o
+        ? {
+            count: o.count,
+            othersRange: { Tmin: o.Tmin, Tmax: o.Tmax },
+            restsOn: d.restsOn ? { name: label(datasets.findIndex((ds) => ds.id === d.restsOn!.id)), share: d.restsOn.share } : null,
+            range: d.range,
+            points: d.points,
+            off: d.off,
+            activationEnergy: d.activationEnergy,
+            factorChanges: d.factorChanges,
+            meanOffsetLog10: d.meanOffsetLog10,
+          }
+        : null,
+  });
 }
 
 function collectFlags(members: ConsensusMember[], nIncluded: number): ConsensusFlag[] {
