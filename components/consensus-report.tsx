@@ -143,6 +143,13 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
         fit{m.share !== null ? `; share in the consensus at the middle of its range ${Math.round(m.share * 100)} %` : ""}.
       </p>
       {d && d.points.length > 0 && (
+        <p className="text-xs text-muted">
+          {d.comparedWith === 1
+            ? "Against one other dataset: no spread between datasets in z (τ² = 0)."
+            : `Spread between the others without this dataset: τ²₋ⱼ = ${sig(d.tau2)} (ln k)², in every z beside its own and the others' uncertainty.`}
+        </p>
+      )}
+      {d && d.points.length > 0 && (
         <div className="overflow-x-auto">
           <table className="table" aria-label={`${label} against the others`}>
             <thead>

@@ -47,11 +47,22 @@ export interface ModelFit {
   weightTau2: number;
 }
 
-/** Stack every dataset's rotated support rows. */
+/** Eigenvalues at or below this fraction of a dataset's largest are its V_j's null directions. */
+export const SUPPORT_RANK_TOLERANCE = 1e-10;
+
+/**
+ * Stack every dataset's rotated support rows. V_j has rank ≤ p_j (the coefficients of the own
+ * fit), however many support values there are: the GLS uses its pseudo-inverse, keeping the rows
+ * along eigenvectors with eigenvalue above SUPPORT_RANK_TOLERANCE of the largest. The rows
+ * dropped are combinations of the support values that vanish for every curve of the own fit's
+ * form (value and design both zero but for rounding), so they carry no information.
+ */
 export function buildRows(supports: readonly (DatasetSupport | null)[], T0: number): Rows {
   const J = supports.length;
   const start = new Int32Array(J + 1);
+  const eig: ({ values: number[]; vectors: number[]; keep: number[] } | null)[] = new Array(J).fill(null);
   let N = 0;
+  let values = 0;
   let sumE = 0;
   let sumL = 0;
   for (let j = 0; j < J; j++) {
@@ -62,11 +73,16 @@ export function buildRows(supports: readonly (DatasetSupport | null)[], T0: numb
       sumE += xE(T);
       sumL += Math.log(T / T0);
     }
-    N += s.temps.length;
+    values += s.temps.length;
+    const e = symmetricEigen(s.cov, s.temps.length);
+    const top = Math.max(...e.values);
+    const keep = e.values.flatMap((v, i) => (v > SUPPORT_RANK_TOLERANCE * top ? [i] : []));
+    eig[j] = { ...e, keep };
+    N += keep.length;
   }
   start[J] = N;
-  const cE = N ? sumE / N : 0;
-  const cL = N ? sumL / N : 0;
+  const cE = values ? sumE / values : 0;
+  const cL = values ? sumL / values : 0;
   let ssE = 0;
   let ssL = 0;
   for (const s of supports) {
@@ -76,8 +92,8 @@ export function buildRows(supports: readonly (DatasetSupport | null)[], T0: numb
       ssL += (Math.log(T / T0) - cL) ** 2;
     }
   }
-  const sE = ssE > 0 ? Math.sqrt(ssE / N) : Math.abs(cE) || 1;
-  const sL = ssL > 0 ? Math.sqrt(ssL / N) : 1;
+  const sE = ssE > 0 ? Math.sqrt(ssE / values) : Math.abs(cE) || 1;
+  const sL = ssL > 0 ? Math.sqrt(ssL / values) : 1;
   const rows: Rows = {
     N,
     f: new Float64Array(3 * N),
@@ -91,15 +107,17 @@ export function buildRows(supports: readonly (DatasetSupport | null)[], T0: numb
     sL,
     T0,
   };
-  const design = new Float64Array(9);
+  let design = new Float64Array(21);
   for (let j = 0; j < J; j++) {
     const s = supports[j];
-    if (!s) continue;
+    const e = eig[j];
+    if (!s || !e) continue;
     const K = s.temps.length;
+    if (design.length < 3 * K) design = new Float64Array(3 * K);
     for (let a = 0; a < K; a++) designRow(rows, s.temps[a], design, 3 * a);
-    const { values, vectors } = symmetricEigen(s.cov, K);
-    for (let i = 0; i < K; i++) {
-      const r = start[j] + i;
+    const { vectors } = e;
+    e.keep.forEach((i, n) => {
+      const r = start[j] + n;
       let yi = 0;
       let f0 = 0;
       let f1 = 0;
@@ -118,9 +136,8 @@ export function buildRows(supports: readonly (DatasetSupport | null)[], T0: numb
       rows.f[3 * r] = f0;
       rows.f[3 * r + 1] = f1;
       rows.f[3 * r + 2] = f2;
-      // Eigenvalues of a covariance are ≥ 0; rounding may leave a tiny negative one.
-      rows.v[r] = Math.max(values[i], 1e-300);
-    }
+      rows.v[r] = e.values[i];
+    });
   }
   return rows;
 }

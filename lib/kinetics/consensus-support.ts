@@ -10,8 +10,9 @@
  * - The model is the one the dataset's own analysis prefers (analyse-dataset.ts): modified
  *   Arrhenius when its curvature F-test gives p < ALPHA (n ≥ 4 points, ≥ 3 temperatures),
  *   otherwise Arrhenius; a dataset at one temperature is summarised by its weighted mean ln k.
- * - Support temperatures: both ends and the middle in 1/T (both ends with two temperatures, the
- *   temperature itself with one). Values come from the preferred fit; their covariance from the
+ * - Support temperatures: evenly spaced in 1/T from Tmin to Tmax, 1 + ⌈log₂(Tmax/Tmin)⌉ of them
+ *   (3 to 7; both ends with two temperatures, the temperature itself with one). V_j has rank ≤ 3
+ *   whatever their number; stage 2 uses its pseudo-inverse (consensus-fit.ts). Values come from the preferred fit; their covariance from the
  *   modified fit whenever it is determined (≥ 3 temperatures over at least 1 % in T), the Arrhenius fit
  *   otherwise (and then at both ends only). The
  *   modified fit nests the Arrhenius one, so a dataset whose curvature was too small to detect
@@ -334,7 +335,7 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
     model === "single_temperature"
       ? [distinctT === 1 ? Tmin : -1 / (GAS_CONSTANT * mE)]
       : gModified
-        ? [Tmin, 2 / (1 / Tmin + 1 / Tmax), Tmax]
+        ? supportTemperatures(Tmin, Tmax)
         : [Tmin, Tmax];
   const support: DatasetSupport = {
     id: input.id,
@@ -354,6 +355,23 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   };
   fillSupportValues(support);
   return support;
+}
+
+/** One more support value for every factor SUPPORT_STEP in Tmax/Tmin, between MIN_SUPPORT and MAX_SUPPORT. */
+export const SUPPORT_STEP = 2;
+export const MIN_SUPPORT = 3;
+export const MAX_SUPPORT = 7;
+
+/**
+ * Support temperatures of a dataset whose modified fit is determined: evenly spaced in 1/T from
+ * Tmin to Tmax, 1 + ⌈log₂(Tmax/Tmin)⌉ of them, at least 3 and at most 7 (220–420 K: 3;
+ * 200–1000 K: 4; 200–2000 K: 5; a factor 32 or more: 7).
+ */
+export function supportTemperatures(Tmin: number, Tmax: number): number[] {
+  const K = Math.min(MAX_SUPPORT, Math.max(MIN_SUPPORT, 1 + Math.ceil(Math.log(Tmax / Tmin) / Math.log(SUPPORT_STEP) - 1e-9)));
+  return Array.from({ length: K }, (_, i) =>
+    i === 0 ? Tmin : i === K - 1 ? Tmax : 1 / (1 / Tmin + ((1 / Tmax - 1 / Tmin) * i) / (K - 1)),
+  );
 }
 
 /** (t_{0.975,dof}/z_{0.975})²: residual-based variances carry the dataset's own Student-t band. */

@@ -3,7 +3,7 @@
  *
  * Stage 1 (consensus-support.ts). Each dataset is summarised by its own fit — the model its own
  * analysis prefers — as fitted ln k at support temperatures inside its own measured range (both
- * ends and the middle in 1/T), with their covariance V_j (from the modified fit whenever it is
+ * ends and the middle in 1/T; one more per doubling of Tmax/Tmin, up to 7), with their covariance V_j (from the modified fit whenever it is
  * determined, so an undetected curvature is not ruled out). A dataset therefore weighs by its
  * information, not by its number of points, and never speaks outside its range. One
  * temperature: one support value (weighted mean ln k) with its variance; two temperatures: the
@@ -36,7 +36,7 @@
  * Uncertainty factor f(T) = exp(1.96·√(var ln k̂(T) + τ²)) over the temperatures the included
  * data cover; outside them it is not given (extrapolation).
  */
-import { ALPHA, analyseDataset, MIN_DOF_FOR_OUTLIER_TEST } from "./analyse-dataset";
+import { analyseDataset, MIN_DOF_FOR_OUTLIER_TEST } from "./analyse-dataset";
 import { AnalysisError } from "./analysis-error";
 import {
   buildRows,
@@ -83,6 +83,12 @@ export interface ConsensusDataset {
   label?: string;
   /** The number each point has where the reader sees it (default 1, 2, …), for the words about outliers. */
   pointNumbers?: readonly number[];
+  /**
+   * Zero-based indices (into points) of the outliers its own analysis flagged on exactly these
+   * points, when that analysis is at hand (a stored one): the consensus then takes them instead of
+   * analysing the dataset again. Left out (undefined), the consensus analyses the dataset itself.
+   */
+  outliers?: readonly number[] | null;
 }
 
 export interface ConsensusOptions {
@@ -115,7 +121,7 @@ interface ConsensusFitCommon {
   covariance: number[][];
   /** Between-dataset variance of ln k (DerSimonian–Laird). */
   tau2: number;
-  /** Generalised Cochran's Q of the support values about the fixed-effect fit, on dof = values − coefficients. */
+  /** Generalised Cochran's Q of the support values about the fixed-effect fit, on dof = independent rows (Σ rank V_j) − coefficients. */
   q: number;
   dof: number;
   /** Higgins I² = max(0, (Q − dof)/Q). */
@@ -302,7 +308,9 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     const input = { id: ds.id, points: ds.points, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } };
     let support = summariseDataset(input, T0);
     // One pass: the outliers of the dataset's own fit are left out of its summary, and it is summarised again.
-    const own = support ? ownOutliers(ds, input.window, T0) : [];
+    // The test is on the Arrhenius line: the ends of a curved dataset stand off it by their curvature, not by error.
+    const curved = support?.fit.model === "modified_arrhenius";
+    const own = !support || curved ? [] : ds.outliers != null ? givenOutliers(ds, window) : ownOutliers(ds, input.window, T0);
     if (own.length > 0) support = summariseDataset({ ...input, skip: new Set(own) }, T0);
     outliers.push(own);
     supports.push(support);
@@ -392,6 +400,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
 
   const flags = collectFlags(members, included.length);
   const points = included.reduce((acc, j) => acc + supports[j]!.n, 0);
+  const values = included.reduce((acc, j) => acc + supports[j]!.temps.length, 0);
   return {
     order,
     T0,
@@ -399,12 +408,12 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     datasets: J,
     included: included.length,
     points,
-    supportValues: fits.arr.rows,
+    supportValues: values,
     range: covered,
     method:
       "Two-stage random effects: each dataset's own fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range; bands and f(T) at 95 % including τ².",
-    arrhenius: buildArrhenius(rows, fits.arr, covered, coverage),
-    modifiedArrhenius: fits.mod ? buildModified(rows, fits.mod, covered, coverage, T0) : null,
+    arrhenius: { ...buildArrhenius(rows, fits.arr, covered, coverage), supportValues: values },
+    modifiedArrhenius: fits.mod ? { ...buildModified(rows, fits.mod, covered, coverage, T0), supportValues: values } : null,
     preferred: fits.preferred.q === 3 ? "modified_arrhenius" : "arrhenius",
     members,
     flags,
@@ -429,14 +438,31 @@ function ownOutliers(ds: ConsensusDataset, window: { Tmin: number; Tmax: number 
   if (points.length < MIN_DOF_FOR_OUTLIER_TEST + 3) return [];
   try {
     const own = analyseDataset({ points, order: ds.order, T0 });
-    // The test is on the Arrhenius line: the ends of a curved dataset stand off it by their curvature, not by error.
-    if (own.curvature !== null && own.curvature.p < ALPHA) return [];
     const flagged = own.flags.find((f) => f.code === "outlier")?.points ?? [];
     return flagged.map((i) => index[i]);
   } catch (err) {
     if (err instanceof AnalysisError) return [];
     throw err;
   }
+}
+
+/** Outliers given with the dataset, checked: integers indexing its points, inside the window. */
+function givenOutliers(ds: ConsensusDataset, window: { Tmin: number | null; Tmax: number | null }): number[] {
+  const list = ds.outliers!;
+  if (!Array.isArray(list)) throw new AnalysisError("invalid_input", `Dataset ${ds.id}: outliers must be a list of point indices.`);
+  const out = new Set<number>();
+  for (const [at, i] of list.entries()) {
+    if (!Number.isInteger(i) || i < 0 || i >= ds.points.length) {
+      throw new AnalysisError(
+        "invalid_input",
+        `Dataset ${ds.id}: outliers[${at}] must be the zero-based index of one of its ${ds.points.length} points (got ${describe(i)}).`,
+        { datasetId: ds.id },
+      );
+    }
+    const T = ds.points[i].T;
+    if ((window.Tmin === null || T >= window.Tmin) && (window.Tmax === null || T <= window.Tmax)) out.add(i);
+  }
+  return [...out].sort((a, b) => a - b);
 }
 
 /** " Point 5, an outlier of its own fit, is left out of its summary." */

@@ -170,6 +170,8 @@ export interface CandidateVersion {
   versionIdentifier: string | null;
   payload: unknown;
   points: readonly RatePoint[];
+  /** Its stored analysis (the engine's result over all its points), when there is one. */
+  analysis?: unknown;
 }
 
 /** A curator's decision to leave a version out, as readers see it. */
@@ -350,6 +352,8 @@ export function selectConsensusDatasets({
     order: j.order!,
     label: consensusLabel(j.v),
     pointNumbers: j.keptNumbers,
+    // The stored analysis covers every point: its outliers hold only when the window keeps them all.
+    ...(j.kept.length === j.v.points.length ? storedOutliers(j.v.analysis, j.v.points.length) : {}),
   });
   for (const j of judged) {
     if (j.reasons.length) {
@@ -373,6 +377,16 @@ export function selectConsensusDatasets({
     curatorExclusions: exclusions.filter((e) => listed.has(e.versionId)),
     inputs,
   };
+}
+
+/** The outliers a stored analysis flagged (zero-based point indices), when it has a readable list. */
+function storedOutliers(analysis: unknown, points: number): { outliers: number[] } | Record<string, never> {
+  const flags = (analysis as { flags?: unknown } | null | undefined)?.flags;
+  if (!Array.isArray(flags)) return {};
+  const flag = flags.find((f) => (f as { code?: unknown } | null)?.code === "outlier") as { points?: unknown } | undefined;
+  if (!flag) return { outliers: [] };
+  const list = flag.points;
+  return Array.isArray(list) && list.every((i) => Number.isInteger(i) && i >= 0 && i < points) ? { outliers: list as number[] } : {};
 }
 
 /**

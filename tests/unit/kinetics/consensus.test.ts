@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { Matrix, inverse } from "ml-matrix";
+import { Matrix, inverse, pseudoInverse } from "ml-matrix";
 import {
   AnalysisError,
   analyseDataset,
@@ -128,7 +128,8 @@ describe("consensus stage 1: each dataset summarised by its own fit", () => {
       expect(sup.fit.model).toBe(a.band.model);
       expect(sup.temps[0]).toBe(a.band.T[0]);
       expect(sup.temps[sup.temps.length - 1]).toBe(a.band.T[a.band.T.length - 1]);
-      expect(sup.temps).toHaveLength(3);
+      // One support value per doubling of Tmax/Tmin, at least 3: 200–2000 K gets 5.
+      expect(sup.temps).toHaveLength(s.id === "curved" ? 5 : 3);
       // The band starts and ends at the range ends: same ln k there.
       expect(sup.lnk[0]).toBeCloseTo(a.band.lnk[0], 9);
       expect(sup.lnk[sup.lnk.length - 1]).toBeCloseTo(a.band.lnk[a.band.lnk.length - 1], 9);
@@ -231,11 +232,20 @@ describe("consensus stage 2: GLS with V_j + τ²·I and DerSimonian–Laird τ²
       }
     }
     const N = ys.length;
+    // V_j has rank ≤ 3 however many support values: its pseudo-inverse at τ² = 0, and as many independent rows.
+    const rank = blocks.reduce((acc, b) => {
+      const { values } = symmetricEigen(b.V.flat(), b.V.length);
+      const top = Math.max(...values);
+      return acc + values.filter((v) => v > 1e-10 * top).length;
+    }, 0);
+    expect(member(c, "c").support.length).toBe(4);
+    expect(rank).toBe(N - 1);
     const W = (tau2: number) => {
       const M = Matrix.zeros(N, N);
       for (const b of blocks) {
         const K = b.V.length;
-        const Vi = inverse(new Matrix(b.V.map((row, i) => row.map((v, j) => v + (i === j ? tau2 : 0)))));
+        const Vt = new Matrix(b.V.map((row, i) => row.map((v, j) => v + (i === j ? tau2 : 0))));
+        const Vi = tau2 > 0 ? inverse(Vt) : pseudoInverse(Vt, 1e-10);
         for (let i = 0; i < K; i++) for (let j = 0; j < K; j++) M.set(b.start + i, b.start + j, Vi.get(i, j));
       }
       return M;
@@ -257,7 +267,7 @@ describe("consensus stage 2: GLS with V_j + τ²·I and DerSimonian–Laird τ²
       const r = y.clone().sub(X.mmul(fixed.beta));
       const Q = r.transpose().mmul(W0).mmul(r).get(0, 0);
       const trP = W0.trace() - fixed.cov.mmul(X.transpose().mmul(W0).mmul(W0).mmul(X)).trace();
-      const tau2 = Math.max(0, (Q - (N - p)) / trP);
+      const tau2 = Math.max(0, (Q - (rank - p)) / trP);
       expect(fit.q / Q).toBeCloseTo(1, 8);
       expect(fit.tau2).toBeGreaterThan(0);
       expect(fit.tau2 / tau2).toBeCloseTo(1, 8);
