@@ -692,3 +692,135 @@ describe("consensus: a gross outlier of a dataset's own fit", () => {
     expect(member(small, "m1")).toMatchObject({ outliers: [], n: 5 });
   });
 });
+
+describe("consensus: outliers taken from a dataset's stored analysis", () => {
+  it("gives the same result as analysing the dataset itself, and checks the indices it is given", () => {
+    const normal = makeNormal(41);
+    const m1 = makeSet("m1", normal, { n: 8, T1: 250, T2: 400, sd: 0.04, sigma: 0.06 });
+    m1.points = m1.points.map((p, i) => (i === 4 ? { ...p, k: p.k * 4 } : p));
+    const others = [makeSet("m2", normal, { n: 8, T1: 260, T2: 410, sd: 0.04 }), makeSet("m3", normal, { n: 9, sd: 0.05 })];
+    const stored = analyseDataset({ points: m1.points, order: 2 }).flags.find((f) => f.code === "outlier")!.points!;
+    const fresh = consensus([m1, ...others]);
+    const given = consensus([{ ...m1, outliers: stored }, ...others]);
+    expect(given).toEqual(fresh);
+    expect(member(given, "m1").outliers).toEqual([4]);
+    // An empty list is an answer too: nothing is left out.
+    expect(member(consensus([{ ...m1, outliers: [] }, ...others]), "m1")).toMatchObject({ outliers: [], n: 8 });
+    expect(() => consensus([{ ...m1, outliers: [8] }, ...others])).toThrow(
+      /Dataset m1: outliers\[0\] must be the zero-based index of one of its 8 points \(got 8\)/,
+    );
+    expect(() => consensus([{ ...m1, outliers: [1.5] }, ...others])).toThrow(AnalysisError);
+  });
+});
+
+describe("consensus: two datasets judge each other alike", () => {
+  it("mirrors z, the slope test and the verdict of A against B in B against A", () => {
+    const normal = makeNormal(71);
+    // B's activation energy 1.5 kJ mol⁻¹ lower over an overlapping range: a borderline slope, as in the demo.
+    const a = makeSet("a", normal, { n: 8, T1: 200, T2: 300, sd: 0.04, sigma: 0.04 });
+    const b = makeSet("b", normal, {
+      n: 7,
+      T1: 220,
+      T2: 320,
+      sd: 0.05,
+      sigma: 0.05,
+      truth: { A: 2.0e-12 * Math.exp(-1500 / (GAS_CONSTANT * 260)), Ea: 10500 },
+    });
+    for (const sets of [
+      [a, b],
+      [b, a],
+    ]) {
+      const c = consensus(sets);
+      const da = member(c, "a").disagreement!;
+      const db = member(c, "b").disagreement!;
+      expect(da.points.map((p) => p.T)).toEqual(db.points.map((p) => p.T));
+      da.points.forEach((p, i) => {
+        expect(p.z).toBeCloseTo(-db.points[i].z, 12);
+        expect(p.log10Ratio).toBeCloseTo(-db.points[i].log10Ratio, 12);
+        expect(p.agrees).toBe(db.points[i].agrees);
+      });
+      expect(da.slopeZ!).toBeCloseTo(-db.slopeZ!, 12);
+      const mirror = { lower: "higher", higher: "lower", same: "same" } as const;
+      expect(db.activationEnergy).toBe(mirror[da.activationEnergy!]);
+      expect(da.factorChanges).toBe(db.factorChanges);
+      expect(da.tau2).toBe(0);
+      expect(db.tau2).toBe(0);
+      // One other dataset: its own words.
+      for (const m of c.members) expect(m.verdict).not.toMatch(/the others'/);
+    }
+  });
+
+  it("says the factor changes when a curved set meets a straight one with the same ends, never 'about the same factor'", () => {
+    const normal = makeNormal(29);
+    // ln ratio 0 at 220 and 420 K, −0.35 in the middle (in 1/T): the same activation energy between the ends.
+    const bow = (T: number) => {
+      const x = (1 / T - 1 / 420) / (1 / 220 - 1 / 420);
+      return Math.exp(-1.4 * x * (1 - x));
+    };
+    const sets = [
+      makeSet("a", normal, { sd: 0.02, sigma: 0.02 }),
+      makeSet("b", normal, { n: 9, sd: 0.02, sigma: 0.02 }),
+      makeSet("c", normal, { n: 8, sd: 0.02, sigma: 0.02 }),
+      makeSet("bent", normal, { n: 14, sd: 0.01, sigma: 0.01, factor: bow }),
+    ];
+    const c = consensus(sets);
+    const d = member(c, "bent").disagreement!;
+    expect(d.off).toBe(true);
+    expect(d.activationEnergy).toBe("same");
+    expect(d.factorChanges).toBe(true);
+    expect(d.factorChangeP!).toBeLessThan(0.05);
+    expect(member(c, "bent").verdict).toMatch(
+      /the factor changes along its range, though not between its ends: its curvature differs from the others'\.$/,
+    );
+    expect(member(c, "bent").verdict).not.toMatch(/same factor/);
+  });
+});
+
+describe("consensus: wide ranges get more support values, and the consensus follows the data where they are", () => {
+  /** Three measured sets 220–420 K from TRUE with noise, and a computed set 200–2000 K with n 0.5 more (2.7 % off TRUE at 220 and 420 K). */
+  function sets(seed: number): ConsensusDataset[] {
+    const normal = makeNormal(seed);
+    return [
+      makeSet("m1", normal, { n: 10, T1: 220, T2: 420, sd: 0.05, sigma: 0.05 }),
+      makeSet("m2", normal, { n: 8, T1: 250, T2: 400, sd: 0.06 }),
+      makeSet("m3", normal, { n: 9, T1: 230, T2: 380, sd: 0.05, sigma: 0.05 }),
+      computedSet("calc", normal),
+    ];
+  }
+
+  it.each([1, 2, 3, 4, 5, 6, 7, 8, 9])(
+    "lies within every measured set's band over its range and within the computed set's band above 420 K (seed %i)",
+    (seed) => {
+      const data = sets(seed);
+      const c = consensus(data);
+      for (const s of data) {
+        const band = analyseDataset({ points: s.points, order: 2 }).band;
+        band.T.forEach((T, i) => {
+          if (s.id === "calc" && T < 420) return;
+          const v = lnkOf(c, T);
+          expect(v).toBeGreaterThan(band.lower![i]);
+          expect(v).toBeLessThan(band.upper![i]);
+        });
+      }
+      for (const id of ["m1", "m2", "m3"]) expect(member(c, id).disagreement!.off).toBe(false);
+      // Where the computed set alone speaks, the consensus does not run on one side of all its points.
+      const hot = data[3].points.filter((p) => p.T > 420).map((p) => Math.sign(Math.log(p.k) - lnkOf(c, p.T)));
+      expect(hot).toContain(1);
+      expect(hot).toContain(-1);
+    },
+  );
+
+  it("gives 3 support values to 220–420 K and 5 to 200–2000 K, with a positive semi-definite covariance of rank 3", () => {
+    const c = consensus(sets(3));
+    expect(member(c, "m1").support.map((s) => s.T)).toHaveLength(3);
+    const calc = member(c, "calc");
+    expect(calc.support.map((s) => Math.round(s.T))).toEqual([200, 258, 364, 615, 2000]);
+    const { values } = symmetricEigen(calc.supportCovariance.flat(), 5);
+    const top = Math.max(...values);
+    for (const v of values) expect(v).toBeGreaterThan(-1e-12 * top);
+    expect(values.filter((v) => v > 1e-10 * top)).toHaveLength(3);
+    // Each dataset contributes as many independent rows as its own fit has coefficients: 4 × 3, on 3 coefficients.
+    expect(c.modifiedArrhenius!.dof).toBe(12 - 3);
+    expect(c.supportValues).toBe(3 * 3 + 5);
+  });
+});
