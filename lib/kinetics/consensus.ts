@@ -27,7 +27,10 @@
  * taken along the curve. Off the consensus: any |z| above the Bonferroni bound z_{1−0.05/(2m)}
  * over its m comparison temperatures (1.96 for one, 2.39 for three). Whether its activation
  * energy differs: the difference of the log ratios between the cold and the hot end against its
- * standard error (|z| > 1.96). A dataset that agrees everywhere is never flagged, however precise.
+ * standard error (|z| > 1.96); whether the factor changes at all: a χ² test of the log ratio's
+ * contrasts. Against one other dataset, that dataset is read through its own fit, as the dataset
+ * compared is (τ² = 0), so A against B mirrors B against A. A dataset that agrees everywhere is
+ * never flagged, however precise.
  *
  * unit_suspect: the mean log10 ratio within 0.15 of a unit-mistake factor for the order m
  * (N_A^(m−1), 10^(3(m−1)), 10^(6(m−1)), (N_A/10³)^(m−1), (N_A/10⁶)^(m−1)); such a dataset is

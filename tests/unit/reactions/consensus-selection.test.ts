@@ -332,3 +332,22 @@ describe("runSelectedConsensus", () => {
     expect(m.verdict).toMatch(/Point 6, an outlier of its own fit, is left out of its summary\.$/);
   });
 });
+
+describe("selectConsensusDatasets: outliers from the stored analyses", () => {
+  const analysis = { flags: [{ code: "outlier", points: [2] }] };
+  it("hands the engine a stored analysis' outliers when the window keeps every point, never when it cuts some", () => {
+    const a = version({ analysis, Ts: [250, 280, 300, 350, 400] });
+    const b = version({ analysis: { flags: [] } });
+    const c = version({ analysis: null });
+    const all = selectConsensusDatasets({ versions: [a, b, c], exclusions: [], choice: choice() });
+    expect(all.inputs.map((i) => i.outliers)).toEqual([[2], [], undefined]);
+    const cut = selectConsensusDatasets({ versions: [a, b, c], exclusions: [], choice: choice({ Tmin: 260 }) });
+    expect(cut.inputs.map((i) => i.outliers)).toEqual([undefined, undefined, undefined]);
+  });
+
+  it("ignores a stored list it cannot read", () => {
+    const bad = version({ analysis: { flags: [{ code: "outlier", points: [7] }] } });
+    const sel = selectConsensusDatasets({ versions: [bad, version()], exclusions: [], choice: choice() });
+    expect(sel.inputs[0].outliers).toBeUndefined();
+  });
+});
