@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { EXAMPLE_DEPOSIT, parseAndValidateDeposit, validateDeposit } from "@/lib/deposits";
 import { findDuplicateKeys } from "@/lib/deposits/duplicate-keys";
 import { depositSchema, type SchemaNode } from "@/lib/deposits/schema";
+import type { DepositDocument } from "@/lib/deposits/types";
 
 const clone = <T>(x: T): T => structuredClone(x);
 const errorsOf = (doc: unknown) => {
@@ -32,17 +33,17 @@ describe("required text must say something", () => {
   });
 
   it.each([
-    ["/creators/0/name", (d: Record<string, any>) => (d.creators[0].name = "   ")],
-    ["/title", (d: Record<string, any>) => (d.title = "      ")],
-    ["/source/reference/type", (d: Record<string, any>) => (d.source = { reference: { type: " ", title: "A paper" } })],
-    ["/source/reference/title", (d: Record<string, any>) => (d.source = { reference: { type: "article-journal", title: "\t" } })],
-    ["/reaction/reactants/1/name", (d: Record<string, any>) => (d.reaction.reactants[1].name = "\u00a0")],
-    ["/method/technique", (d: Record<string, any>) => (d.method.technique = "    ")],
-    ["/points/7/note", (d: Record<string, any>) => (d.points[7].note = " ")],
-    ["/units/k", (d: Record<string, any>) => (d.units.k = " ")],
-    ["/keywords/0", (d: Record<string, any>) => (d.keywords[0] = "  ")],
+    ["/creators/0/name", (d: DepositDocument) => (d.creators[0].name = "   ")],
+    ["/title", (d: DepositDocument) => (d.title = "      ")],
+    ["/source/reference/type", (d: DepositDocument) => (d.source = { reference: { type: " ", title: "A paper" } })],
+    ["/source/reference/title", (d: DepositDocument) => (d.source = { reference: { type: "article-journal", title: "\t" } })],
+    ["/reaction/reactants/1/name", (d: DepositDocument) => (d.reaction.reactants[1].name = "\u00a0")],
+    ["/method/technique", (d: DepositDocument) => (d.method.technique = "    ")],
+    ["/points/7/note", (d: DepositDocument) => (d.points[7].note = " ")],
+    ["/units/k", (d: DepositDocument) => (d.units.k = " ")],
+    ["/keywords/0", (d: DepositDocument) => (d.keywords![0] = "  ")],
   ])("%s made of spaces is refused with its pointer", (pointer, spoil) => {
-    const doc = clone(EXAMPLE_DEPOSIT) as unknown as Record<string, any>;
+    const doc = clone(EXAMPLE_DEPOSIT);
     spoil(doc);
     const errors = errorsOf(doc);
     const mine = errors.filter((e) => e.pointer === pointer);
