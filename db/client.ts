@@ -17,16 +17,17 @@ function createDb() {
     max: dbPoolSize(),
     onnotice: () => {},
     // A database restart or a dead peer must not leave broken connections in the pool: give up
-    // on a connection attempt after 10 s, close idle ones after a minute and every one after
-    // 15 minutes, and let TCP keep-alive notice a peer that vanished without closing.
-    connect_timeout: 10,
+    // on a connection attempt after 3 s (db/retry.ts then tries a fresh one; a 10 s limit let a
+    // request stall 10 s after a restart), close idle ones after a minute and every one after
+    // 15 minutes, and let TCP keep-alive (probes after 5 s idle) notice a peer that vanished.
+    connect_timeout: 3,
     // The driver's default reconnect delay grows with a failure count shared by the whole pool
     // (3^n / 100 s, up to 20 s): a restart closes every connection at once, so queries parked on a
     // reconnecting connection waited 10-20 s after the server was back. Cap it at one second.
     backoff: reconnectDelaySeconds,
     idle_timeout: 60,
     max_lifetime: 15 * 60,
-    keep_alive: 30,
+    keep_alive: 5,
   });
   return drizzle(withConnectionRetry(client), { schema, casing: "snake_case" });
 }

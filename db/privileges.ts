@@ -13,6 +13,8 @@ const WITHHELD: Record<string, string> = {
   decisions: "UPDATE, DELETE",
   audit_events: "UPDATE, DELETE",
   identifier_registrations: "DELETE",
+  // The current engine version (drizzle/0013): written by the owner only, read by the re-fit function.
+  arrhenia_engine: "INSERT, UPDATE, DELETE",
 };
 
 /** Functions that run as the schema owner and that the runtime role may call (each checks its own rule). */
@@ -159,6 +161,8 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     .filter((t) => (t.table === "public.decisions" || t.table === "public.audit_events") && (t.update || t.delete))
     .concat(tables.filter((t) => t.table === "public.identifier_registrations" && t.delete))
     .map((t) => t.table);
+  const engineRow = tables.find((t) => t.table === "public.arrhenia_engine");
+  const engineWritable = engineRow ? (["insert", "update", "delete", "truncate"] as const).filter((p) => engineRow[p]) : [];
 
   const checks: PrivilegeCheck[] = [
     { check: "superuser", found: String(me.rolsuper), ok: !me.rolsuper },
@@ -186,6 +190,11 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     { check: "guard functions without a fixed search_path", found: none(unpinned), ok: unpinned.length === 0 },
     { check: "may set session_replication_role", found: String(db.replication), ok: !db.replication },
     { check: "UPDATE/DELETE on append-only tables", found: none(appendOnlyWritable), ok: appendOnlyWritable.length === 0 },
+    {
+      check: "current engine version row exists, and the role may not change it",
+      found: engineRow ? none(engineWritable.map((p) => p.toUpperCase())) : "no table public.arrhenia_engine",
+      ok: !!engineRow && engineWritable.length === 0,
+    },
     { check: "freeze triggers missing or disabled", found: none(missing), ok: missing.length === 0 },
     { check: "owner-run functions it may call, beyond the re-fit's", found: none(unexpectedDefiners), ok: unexpectedDefiners.length === 0 },
   ];
@@ -196,6 +205,14 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     ["DROP TRIGGER", "DROP TRIGGER version_points_frozen_when_published ON public.version_points"],
     ["TRUNCATE", "TRUNCATE public.version_points"],
     ["CREATE TEMP TABLE dataset_versions", "CREATE TEMP TABLE dataset_versions (id integer, state text)"],
+    ["UPDATE the current engine version", "UPDATE public.arrhenia_engine SET engine_version = 'forged'"],
+    ["INSERT a current engine version", "INSERT INTO public.arrhenia_engine (only_row, engine_version) VALUES (true, 'forged')"],
+    ["DELETE the current engine version", "DELETE FROM public.arrhenia_engine"],
+    ["CREATE FUNCTION", "CREATE FUNCTION public.arrhenia_forged_refit() RETURNS integer LANGUAGE sql SECURITY DEFINER AS 'SELECT 1'"],
+    [
+      "a re-fit by an engine that is not the current one",
+      "SELECT public.arrhenia_append_refit_analysis(NULL, 'forged-engine', NULL, NULL, NULL)",
+    ],
   ];
   for (const [check, statement] of attempts) {
     const refused = await isRefused(sql, statement);

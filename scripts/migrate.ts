@@ -1,9 +1,10 @@
 // Applies the committed Drizzle migrations, then pg-boss's schema and our queues, as the schema
-// owner (MIGRATION_DATABASE_URL); then grants the runtime role (DATABASE_URL's user) row access only.
+// owner (MIGRATION_DATABASE_URL), records the current engine version; then grants the runtime role (DATABASE_URL's user) row access only.
 import { drizzle } from "drizzle-orm/postgres-js";
 import { migrate } from "drizzle-orm/postgres-js/migrator";
 import postgres from "postgres";
 import { databaseUrl, migrationDatabaseUrl } from "@/lib/config";
+import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { installQueues } from "@/lib/jobs/boss";
 import { grantRuntimeRole } from "@/db/privileges";
 
@@ -11,6 +12,11 @@ const ownerUrl = migrationDatabaseUrl();
 const client = postgres(ownerUrl, { max: 1, onnotice: () => {} });
 await migrate(drizzle(client, { casing: "snake_case" }), { migrationsFolder: "drizzle" });
 await installQueues(ownerUrl);
+// The one engine version re-fits may append analyses for (drizzle/0013); only this owner may write it.
+await client`insert into arrhenia_engine (only_row, engine_version) values (true, ${ENGINE_VERSION})
+  on conflict (only_row) do update set engine_version = excluded.engine_version, recorded_at = now()
+  where arrhenia_engine.engine_version is distinct from excluded.engine_version`;
+console.log(`[arrhenia] current engine version: ${ENGINE_VERSION}`);
 const runtimeRole = decodeURIComponent(new URL(databaseUrl()).username);
 if (runtimeRole && runtimeRole !== decodeURIComponent(new URL(ownerUrl).username)) {
   await grantRuntimeRole(client, runtimeRole);

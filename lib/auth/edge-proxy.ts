@@ -92,9 +92,32 @@ export function hasUndecodablePath(url: string | undefined): boolean {
   }
 }
 
+/** Ends the connection once the answer is out: what the client still sends of its body is never read. */
+function closeAfterAnswer(req: http.IncomingMessage, res: http.ServerResponse) {
+  const drop = () => req.socket.destroy();
+  if (res.writableFinished) drop();
+  else res.once("finish", drop);
+}
+
 function refuse(res: http.ServerResponse, status: number, code: string, title: string, detail: string) {
   res.writeHead(status, { "content-type": "application/problem+json", connection: "close" });
   res.end(JSON.stringify({ type: "about:blank", title, status, code, detail }));
+}
+
+/**
+ * How long a request body may stall (no byte arriving) before the front server answers 408 and
+ * closes: a client that declares more bytes than it sends would otherwise hold a request, and
+ * Next's handler behind it, open until Node's five-minute request timeout.
+ */
+export const BODY_IDLE_TIMEOUT_MS = 10_000;
+
+/** GET and HEAD carry no content (RFC 9110 §9.3.1–2); a declared body there is refused, never forwarded. */
+const BODYLESS_METHODS = new Set(["GET", "HEAD"]);
+
+/** True when the headers announce content: a Content-Length above 0, or any Transfer-Encoding. */
+export function declaresBody(headers: http.IncomingHttpHeaders): boolean {
+  const length = headers["content-length"];
+  return (length !== undefined && Number(length) !== 0) || headers["transfer-encoding"] !== undefined;
 }
 
 /** Rewrites the incoming headers for the app behind; exported for tests. */
@@ -116,6 +139,7 @@ export async function startEdgeProxy({
   trust,
   key,
   appOrigin,
+  bodyIdleTimeoutMs = BODY_IDLE_TIMEOUT_MS,
 }: {
   host: string;
   port: number;
@@ -124,6 +148,7 @@ export async function startEdgeProxy({
   key: string;
   /** The origin of APP_URL: the one origin server actions are accepted from. */
   appOrigin: string;
+  bodyIdleTimeoutMs?: number;
 }) {
   const agent = new http.Agent({ keepAlive: true });
   const ownOrigin = new URL(appOrigin).origin;
@@ -140,6 +165,11 @@ export async function startEdgeProxy({
     if (hasUndecodablePath(req.url)) {
       refuse(res, 404, "not_found", "Not found", "This address has a malformed %-escape.");
       req.resume();
+      return;
+    }
+    if (BODYLESS_METHODS.has(req.method ?? "") && declaresBody(req.headers)) {
+      refuse(res, 400, "bad_request", "Bad request", `A ${req.method} request has no body; this one declares one.`);
+      closeAfterAnswer(req, res);
       return;
     }
     // Server actions: Next reads the whole body before any code of ours runs, so it is capped here.
@@ -167,8 +197,42 @@ export async function startEdgeProxy({
     });
     // A client that goes away stops the work behind it too.
     res.on("close", () => {
+      clearTimeout(idle);
       if (!res.writableFinished) upstream.destroy();
     });
+    // A body that stops arriving (fewer bytes than Content-Length, a chunked body never ended) is
+    // answered 408 here, and the request behind is stopped, rather than left waiting on both sides.
+    let idle: NodeJS.Timeout | undefined;
+    const stalled = () => {
+      // Paused by backpressure (the app reads slowly): the client is not the one stalling.
+      if (req.isPaused() || req.readableFlowing === false) return void (idle = setTimeout(stalled, bodyIdleTimeoutMs));
+      upstream.destroy();
+      req.unpipe();
+      if (!res.headersSent) {
+        const declared = req.headers["content-length"];
+        refuse(
+          res,
+          408,
+          "request_timeout",
+          "Request timeout",
+          declared !== undefined
+            ? `The body is shorter than its Content-Length: ${arrived} of ${declared} bytes arrived, then nothing for ${bodyIdleTimeoutMs / 1000} s.`
+            : `The body stopped arriving before its end: nothing for ${bodyIdleTimeoutMs / 1000} s after ${arrived} bytes.`,
+        );
+      }
+      closeAfterAnswer(req, res);
+    };
+    let arrived = 0;
+    const watchBody = (chunk?: Buffer) => {
+      arrived += chunk?.length ?? 0;
+      clearTimeout(idle);
+      if (!req.complete) idle = setTimeout(stalled, bodyIdleTimeoutMs);
+    };
+    if (declaresBody(req.headers)) {
+      watchBody(undefined);
+      req.on("data", watchBody);
+      req.on("end", () => clearTimeout(idle));
+    }
     if (limit === Infinity) {
       req.pipe(upstream);
       return;

@@ -26,7 +26,16 @@ const limits: Record<LimiterName, { points: number; duration: number; blockDurat
 const globalForLimits = globalThis as unknown as { arrheniaLimiters?: Map<LimiterName, RateLimiterPostgres>; arrheniaLimitPool?: pg.Pool };
 
 function limiter(name: LimiterName): RateLimiterPostgres {
-  globalForLimits.arrheniaLimitPool ??= new pg.Pool({ connectionString: databaseUrl(), max: 3 });
+  // As db/client.ts: after a database restart a connection attempt that hangs is given up after
+  // 3 s (the default waits for ever), idle connections are closed, and TCP keep-alive notices a peer that vanished.
+  globalForLimits.arrheniaLimitPool ??= new pg.Pool({
+    connectionString: databaseUrl(),
+    max: 3,
+    connectionTimeoutMillis: 3000,
+    idleTimeoutMillis: 30_000,
+    keepAlive: true,
+    keepAliveInitialDelayMillis: 5000,
+  });
   globalForLimits.arrheniaLimiters ??= new Map();
   let l = globalForLimits.arrheniaLimiters.get(name);
   if (!l) {

@@ -64,7 +64,7 @@ async function prepareOrThrow(source: string | Uint8Array, parsed?: unknown, tra
   }
   let raw = parsed;
   if (raw === undefined) {
-    const reparsed = parseDepositJson(text);
+    const reparsed = parseDepositJson(text, { checkDuplicateKeys: false }); // the worker checked them
     if (!reparsed.ok) throw invalid(reparsed.errors[0].message, reparsed.errors); // cannot happen: the worker parsed it
     raw = reparsed.value;
   }

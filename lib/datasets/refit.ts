@@ -34,7 +34,7 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
   const checks = latest?.checks ?? [];
   const append = (result: Record<string, unknown> | null, error?: string) =>
     appendRefitAnalysis({ versionId, engineVersion: ENGINE_VERSION, result, checks, error });
-  const checked = await runAnalysisTask("checkDocument", version.payload);
+  const checked = await runAnalysisTask("checkDocument", version.payload, { background: true });
   if (!checked.ok) {
     return (await append(null, `stored document no longer validates: ${checked.errors[0].message}`)) ? "invalid" : "current";
   }

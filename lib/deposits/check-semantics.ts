@@ -1,6 +1,6 @@
 /**
  * Checks of a deposit document that JSON Schema cannot express: unit strings parse (and k's unit
- * fits the reaction order), temperatures lie above absolute zero after conversion, ORCID check
+ * fits the reaction order), temperatures lie above absolute zero and at most 100 000 K after conversion, ORCID check
  * digits, pressure ranges, and the sanity of the reported fit. Written defensively: it runs on
  * documents that may also have failed the schema, and looks only at values of the right type.
  */
@@ -20,6 +20,16 @@ import {
   type ReactionOrder,
 } from "@/lib/kinetics";
 import { formatValue, sentenceAt, sentenceWithPrefix } from "./messages";
+
+/**
+ * Highest temperature accepted, K (the schema's description says so). Measured and computed rate
+ * constants stop well below it (shock tubes and flames reach a few thousand kelvin); beyond it a
+ * value is a typing or unit mistake, and a fit in 1/T would only see it as 1/T ≈ 0.
+ */
+export const MAX_TEMPERATURE_K = 100_000;
+
+/** An absolute uncertainty above this multiple of k is a relative uncertainty over 1000 % (the schema's bound). */
+export const MAX_ABSOLUTE_UNCERTAINTY_RATIO = 10;
 
 /** |Ea| above this (J mol⁻¹) is taken as a unit mistake rather than chemistry. */
 export const MAX_PLAUSIBLE_EA = 1e6;
@@ -65,6 +75,18 @@ function kelvinOf(value: number, unit: LinearUnit): number {
 function checkTemperature(report: Report, pointer: string, value: unknown, unit: LinearUnit | undefined): number | undefined {
   if (!isFiniteNumber(value) || !unit) return undefined;
   const kelvin = kelvinOf(value, unit);
+  if (kelvin > MAX_TEMPERATURE_K) {
+    const converted = Number.isFinite(kelvin) ? `${formatValue(Number(kelvin.toPrecision(4)))} K` : "beyond any number of kelvin";
+    report({
+      pointer,
+      value,
+      message: sentenceAt(
+        pointer,
+        `is out of range: ${formatValue(value)} ${unit.label} is ${converted}; a temperature must be above 0 K and at most ${MAX_TEMPERATURE_K.toLocaleString("en-GB").replace(/,/g, " ")} K`,
+      ),
+    });
+    return undefined;
+  }
   if (kelvin > 0) return kelvin;
   if (unit.offset) {
     report({
@@ -119,6 +141,7 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
     const p = points[i];
     if (!isRecord(p)) continue;
     checkTemperature(report, `/points/${i}/T`, p.T, unitT);
+    checkAbsoluteUncertainty(report, `/points/${i}/uncertainty/value`, p);
     if (unitK && canonicalK) checkRateConstantRange(report, `/points/${i}/k`, p.k, unitK, canonicalK);
     if (unitP) checkPressureRange(report, `/points/${i}/pressure`, p.pressure, unitP);
   }
@@ -175,6 +198,21 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
     checkReportedFit(report, doc.reportedFit, unitT);
     if (unitK && canonicalK) checkRateConstantRange(report, "/reportedFit/A", doc.reportedFit.A, unitK, canonicalK);
   }
+}
+
+/** Report an absolute uncertainty larger than the schema allows a relative one (1000 % of k). */
+function checkAbsoluteUncertainty(report: Report, pointer: string, point: Record<string, unknown>): void {
+  const u = point.uncertainty;
+  if (!isRecord(u) || u.kind !== "absolute" || !isFiniteNumber(u.value) || !isFiniteNumber(point.k) || point.k <= 0) return;
+  if (u.value / point.k <= MAX_ABSOLUTE_UNCERTAINTY_RATIO) return;
+  report({
+    pointer,
+    value: u.value,
+    message: sentenceWithPrefix(
+      pointer,
+      `an absolute uncertainty of ${formatValue(u.value)} is more than ${MAX_ABSOLUTE_UNCERTAINTY_RATIO} times k (${formatValue(point.k)}), i.e. over 1000 %; check the value and its unit`,
+    ),
+  });
 }
 
 /** Report a pressure whose value in Pa would overflow or underflow a double (negative ones are the schema's). */

@@ -22,6 +22,10 @@ import { MAX_POINTS } from "./vocabulary";
 type MessageRule = (pointer: string, value: unknown, error: ErrorObject) => string;
 
 const defs = depositSchema.$defs;
+/** The schema's pattern for required text: at least one character that is not a space. */
+const NON_BLANK_PATTERN = "\\S";
+/** The schema's bound on a relative uncertainty, percent. */
+export const MAX_RELATIVE_UNCERTAINTY_PERCENT = defs.uncertainty.allOf![1].then!.properties!.value.maximum!;
 const DOI_PREFIX = /^(https?:\/\/(dx\.)?doi\.org\/|doi:)/i;
 const webAddressRule: MessageRule = (p, v) =>
   sentenceAt(p, `must be a full web address starting with http:// or https:// (got ${formatValue(v)})`);
@@ -73,7 +77,17 @@ const SPECIFIC = new Map<object, Partial<Record<string, MessageRule>>>([
   [defs.smiles, { pattern: (p, v) => sentenceAt(p, `must not contain spaces (got ${formatValue(v)})`) }],
   [defs.webAddress, { pattern: webAddressRule, format: webAddressRule }],
   [
-    defs.uncertainty.then!.properties!.value,
+    defs.uncertainty.allOf![1].then!.properties!.value,
+    {
+      maximum: (p, v) =>
+        sentenceWithPrefix(
+          p,
+          `a relative uncertainty may be at most ${formatValue(MAX_RELATIVE_UNCERTAINTY_PERCENT)} % (got ${formatValue(v)} %); check the value, or give it as a factor`,
+        ),
+    },
+  ],
+  [
+    defs.uncertainty.allOf![0].then!.properties!.value,
     {
       exclusiveMinimum: (p, v) =>
         sentenceWithPrefix(p, `an uncertainty factor f (k/f to k·f) must be greater than 1 (got ${formatValue(v)})`),
@@ -223,6 +237,8 @@ function messageFor(e: ErrorObject, pointer: string): string {
     case "dependentRequired":
       return sentenceAt(pointer, `is required when ${lowerFirst(fieldTitle(segments, String(p.property)))} is given`);
     case "pattern":
+      // Required text must say something: blanks alone are refused as the class they are.
+      if (e.schema === NON_BLANK_PATTERN) return sentenceAt(pointer, `must contain a character other than spaces (got ${formatValue(v)})`);
       return sentenceAt(pointer, `is not in the expected form (got ${formatValue(v)})`);
     case "format":
       return sentenceAt(pointer, `is not a valid ${String(p.format)} (got ${formatValue(v)})`);

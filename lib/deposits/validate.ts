@@ -11,8 +11,9 @@ import type { FieldError } from "@/lib/errors";
 import { findUnstorableText } from "@/lib/storable-text";
 import { checkDepositSemantics } from "./check-semantics";
 import { utf8ByteLength } from "./byte-length";
+import { findDuplicateKeys } from "./duplicate-keys";
 import { findJsonSyntaxProblem } from "./json-syntax";
-import { formatCount } from "./messages";
+import { formatCount, sentenceAt } from "./messages";
 import { makeFastPointCheck } from "./fast-point-check";
 import { depositSchema, splitPointer } from "./schema";
 import { tooManyPointsMessage, translateAjvErrors } from "./translate-errors";
@@ -159,7 +160,10 @@ export function validateDeposit(doc: unknown): ValidationResult {
  * message gives the line, column and character position, e.g.
  * `The document is not valid JSON: unexpected "}"; a trailing comma is not allowed (line 3, column 1, character 25).`
  */
-export function parseDepositJson(text: string): { ok: true; value: unknown } | { ok: false; errors: FieldError[] } {
+export function parseDepositJson(
+  text: string,
+  { checkDuplicateKeys = true }: { checkDuplicateKeys?: boolean } = {},
+): { ok: true; value: unknown } | { ok: false; errors: FieldError[] } {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text; // a byte-order mark is not JSON
   if (body.length > MAX_DOCUMENT_BYTES || utf8ByteLength(body) > MAX_DOCUMENT_BYTES) {
     return {
@@ -169,8 +173,9 @@ export function parseDepositJson(text: string): { ok: true; value: unknown } | {
   }
   if (body.trim() === "")
     return { ok: false, errors: [{ pointer: "", message: "The document is empty; a deposit document is a JSON object." }] };
+  let value: unknown;
   try {
-    return { ok: true, value: JSON.parse(body) };
+    value = JSON.parse(body);
   } catch (e) {
     const problem = findJsonSyntaxProblem(body);
     if (!problem) return { ok: false, errors: [{ pointer: "", message: `The document is not valid JSON: ${(e as Error).message}` }] };
@@ -186,6 +191,21 @@ export function parseDepositJson(text: string): { ok: true; value: unknown } | {
       ],
     };
   }
+  // JSON.parse keeps the last of two equal keys; a document must say each thing once.
+  const duplicates = checkDuplicateKeys ? findDuplicateKeys(body, MAX_VALIDATION_ERRORS) : [];
+  if (duplicates.length) {
+    return {
+      ok: false,
+      errors: duplicates.map((d) => ({
+        pointer: d.pointer,
+        message: sentenceAt(
+          d.pointer,
+          `is given more than once (again at line ${d.line}, column ${d.column}); JSON keeps only one of them, so give each field once`,
+        ),
+      })),
+    };
+  }
+  return { ok: true, value };
 }
 
 /** parseDepositJson, then validateDeposit. */

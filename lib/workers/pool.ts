@@ -3,7 +3,8 @@
  * analysing a deposit, the stateless analysis — so that one large request never stalls the
  * thread that answers every other request. Bounded three ways: threads (ANALYSIS_THREADS), tasks
  * waiting (ANALYSIS_QUEUE_LIMIT, then 503 at once) and time per task (ANALYSIS_TIMEOUT_MS, then
- * the thread is stopped and the request gets a 503).
+ * the thread is stopped and the request gets a 503). Re-fits run on a background thread of lower
+ * CPU priority.
  */
 import path from "node:path";
 import { Piscina } from "piscina";
@@ -14,10 +15,11 @@ import type { TaskMessage, TaskName, Tasks } from "./tasks";
 /** Seconds a client is asked to wait before retrying when the pool is full or a task timed out. */
 const RETRY_AFTER_SECONDS = 5;
 
-// One pool per process, kept on globalThis: the production build may bundle this module into
-// several route chunks, and each copy must not start threads of its own.
+// One pool of each kind per process, kept on globalThis: the production build may bundle this
+// module into several route chunks, and each copy must not start threads of its own.
 const POOL_KEY = Symbol.for("arrhenia.analysisPool");
-const holder = globalThis as typeof globalThis & { [POOL_KEY]?: Piscina };
+const BACKGROUND_POOL_KEY = Symbol.for("arrhenia.backgroundAnalysisPool");
+const holder = globalThis as typeof globalThis & { [POOL_KEY]?: Piscina; [BACKGROUND_POOL_KEY]?: Piscina };
 
 /**
  * The worker entry is found from the project folder, not from this module's location: the
@@ -28,6 +30,12 @@ export function analysisWorkerFile(): string {
   return path.join(process.cwd(), "lib", "workers", "analysis-worker.mjs");
 }
 
+/**
+ * Work someone is waiting for (a deposit's validation, an analysis) runs at the request thread's
+ * priority: at nice 10 it got a tenth of a core's share against each busy process of the machine,
+ * and a 100 000-point document took 8–13 s to its 422 on a loaded machine instead of 0.2 s.
+ * The request thread keeps a core of its own because the threads are at most cores − 1.
+ */
 function getPool(): Piscina {
   if (!holder[POOL_KEY]) {
     const threads = analysisThreads();
@@ -38,14 +46,26 @@ function getPool(): Piscina {
       maxQueue: analysisQueueLimit(),
       // Threads stay up: starting one (loading the engine) costs far more than a typical task.
       idleTimeout: 10 * 60_000,
-      // The threads yield the CPU to the request thread (and to PostgreSQL): on a two-core machine
-      // a thread validating at full tilt otherwise delayed small requests, health included, by
-      // hundreds of milliseconds. Linux nice values are per thread (piscina sets it through
-      // @napi-rs/nice, its optional dependency; without it the threads run at normal priority).
-      niceIncrement: 10,
     });
   }
   return holder[POOL_KEY];
+}
+
+/**
+ * Work nobody waits for (re-fits queued after an engine upgrade) runs on its own thread at a lower
+ * CPU priority (nice 10), so that a queue of re-fits yields to requests and to PostgreSQL. Linux
+ * nice values are per thread (piscina sets it through @napi-rs/nice, its optional dependency;
+ * without it the thread runs at normal priority). Started on first use, stopped when idle.
+ */
+function getBackgroundPool(): Piscina {
+  holder[BACKGROUND_POOL_KEY] ??= new Piscina({
+    filename: analysisWorkerFile(),
+    minThreads: 0,
+    maxThreads: 1,
+    idleTimeout: 60_000,
+    niceIncrement: 10,
+  });
+  return holder[BACKGROUND_POOL_KEY];
 }
 
 /** Start the pool's threads now (at server start), so the first request does not wait for them. */
@@ -61,10 +81,17 @@ function busy(message: string): AppError {
 export async function runAnalysisTask<N extends TaskName>(
   name: N,
   input: Parameters<Tasks[N]>[0],
-  { transfer }: { /** Moved to the worker, not copied (and unusable here afterwards). */ transfer?: ArrayBuffer[] } = {},
+  {
+    transfer,
+    background = false,
+  }: {
+    /** Moved to the worker, not copied (and unusable here afterwards). */ transfer?: ArrayBuffer[];
+    /** Nobody waits for the answer (a re-fit): run at the lower priority of the background thread. */
+    background?: boolean;
+  } = {},
 ): Promise<ReturnType<Tasks[N]>> {
-  const workers = getPool();
-  if (workers.queueSize >= analysisQueueLimit()) {
+  const workers = background ? getBackgroundPool() : getPool();
+  if (!background && workers.queueSize >= analysisQueueLimit()) {
     throw busy("The server is busy checking other submissions; try again in a few seconds.");
   }
   const timeoutMs = analysisTimeoutMs();
@@ -86,7 +113,8 @@ export async function runAnalysisTask<N extends TaskName>(
 
 /** Stop the pool's threads (tests and orderly shutdown). */
 export async function closeAnalysisPool(): Promise<void> {
-  const current = holder[POOL_KEY];
+  const pools = [holder[POOL_KEY], holder[BACKGROUND_POOL_KEY]];
   delete holder[POOL_KEY];
-  await current?.destroy();
+  delete holder[BACKGROUND_POOL_KEY];
+  await Promise.all(pools.map((p) => p?.destroy()));
 }

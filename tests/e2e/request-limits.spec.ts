@@ -1,5 +1,6 @@
 import { readdirSync, readFileSync, readlinkSync } from "node:fs";
 import http from "node:http";
+import net from "node:net";
 import { expect, test } from "@playwright/test";
 
 // A chunked upload without Content-Length against the real server: it must answer 413 long
@@ -97,4 +98,38 @@ test("a chunked 200 MB analysis request is refused with 413 after a little over 
     );
     expect(grown).toBeLessThan(100 * MB);
   }
+});
+
+/** Raw bytes to the front server; the status line answered and how long it took (the socket is closed after 20 s at most). */
+function rawRequest(baseURL: string, bytes: string): Promise<{ status: number; ms: number }> {
+  const { hostname, port } = new URL(baseURL);
+  return new Promise((resolve, reject) => {
+    const started = Date.now();
+    const socket = net.connect(Number(port), hostname);
+    let answer = "";
+    const done = () => {
+      socket.destroy();
+      resolve({ status: Number(/^HTTP\/1\.[01] (\d{3})/.exec(answer)?.[1] ?? 0), ms: Date.now() - started });
+    };
+    socket.on("data", (d) => (answer += d));
+    socket.on("end", done);
+    socket.on("close", done);
+    socket.on("error", reject);
+    socket.setTimeout(20_000, done);
+    socket.write(bytes);
+  });
+}
+
+test("a GET declaring a body it never sends is a 400 at once; a short POST body a 408 within seconds, never a 502", async ({ baseURL }) => {
+  const get = await rawRequest(baseURL!, "GET /api/health HTTP/1.1\r\nHost: 127.0.0.1\r\nContent-Length: 5\r\n\r\n");
+  expect(get.status).toBe(400);
+  expect(get.ms).toBeLessThan(2000);
+  const post = await rawRequest(
+    baseURL!,
+    'POST /api/v1/analyses HTTP/1.1\r\nHost: 127.0.0.1\r\nContent-Type: application/json\r\nContent-Length: 50\r\n\r\n{"points":',
+  );
+  expect(post.status).toBe(408);
+  expect(post.ms).toBeLessThan(15_000);
+  // The server is unharmed.
+  expect((await fetch(`${baseURL}/api/health`)).status).toBe(200);
 });

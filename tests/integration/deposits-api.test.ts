@@ -254,3 +254,55 @@ describe("POST /api/v1/versions/:id/transitions, per role", () => {
     for (const m of [owner, editor, viewer]) expect(tos).toContain(m.email);
   });
 });
+
+describe("junk in a deposit document is refused with a pointer and changes nothing", () => {
+  const withPoint0 = (p: Record<string, unknown>) =>
+    doc({ points: [{ ...EXAMPLE_DEPOSIT.points[0], ...p }, ...EXAMPLE_DEPOSIT.points.slice(1)] });
+  const cases: [string, string, string, RegExp][] = [
+    ["a creator's name of spaces", doc({ creators: [{ name: "   " }] }), "/creators/0/name", /other than spaces/],
+    [
+      "a source type of spaces",
+      doc({ source: { reference: { type: "  ", title: "A paper" } } }),
+      "/source/reference/type",
+      /other than spaces/,
+    ],
+    [
+      "a relative uncertainty of 9e15 %",
+      withPoint0({ uncertainty: { kind: "relative", value: 9e15 } }),
+      "/points/0/uncertainty/value",
+      /at most 1000 %/,
+    ],
+    ["T = 1e308 K", withPoint0({ T: 1e308, uncertainty: undefined }), "/points/0/T", /out of range.*100 000 K/],
+    ["a key written twice", doc().replace('"title":', '"title":"Other","title":'), "/title", /more than once/],
+  ];
+
+  it.each(cases)("%s: 422 on deposit, nothing stored", async (_what, body, pointer, message) => {
+    const ownedBy = async () =>
+      (await sql`select count(*)::int as n from dataset_members where user_id = ${owner.id} and role = 'owner'`)[0].n as number;
+    const before = await ownedBy();
+    const { res, json } = await deposit(body);
+    expect(res.status).toBe(422);
+    expect(json.errors).toEqual(expect.arrayContaining([expect.objectContaining({ pointer, message: expect.stringMatching(message) })]));
+    expect(json.errors.map((e: { message: string }) => e.message).join(" ")).not.toMatch(/too close/);
+    expect(await ownedBy()).toBe(before);
+  });
+
+  it.each(cases)("%s: 422 on saving a draft, which stays as it was", async (_what, body, pointer, message) => {
+    const { versionId } = await withMembers();
+    const snapshot = async () =>
+      (
+        await sql`select title, lock_version, payload::text as payload, (select count(*)::int from version_points where version_id = ${versionId}) as points
+          from dataset_versions where id = ${versionId}`
+      )[0];
+    const before = await snapshot();
+    as(owner);
+    const res = await putVersion(
+      req(`/api/v1/versions/${versionId}`, { method: "PUT", body, headers: { "if-match": `"${before.lock_version}"` } }),
+      ctx(versionId),
+    );
+    expect(res.status).toBe(422);
+    const json = await res.json();
+    expect(json.errors).toEqual(expect.arrayContaining([expect.objectContaining({ pointer, message: expect.stringMatching(message) })]));
+    expect(await snapshot()).toEqual(before);
+  });
+});

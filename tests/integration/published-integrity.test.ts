@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { formatTable, inspectRuntimePrivileges } from "@/db/privileges";
 import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset, startNextVersion, updateDraft } from "@/lib/datasets/deposits";
+import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { addDatasetMember, getVersionWithRole } from "@/lib/datasets/queries";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { recordRegistrationSuccess } from "@/lib/identifiers/queries";
@@ -97,6 +98,8 @@ describe("the freeze holds against the runtime role", () => {
 
   beforeAll(async () => {
     const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Frozen record" } });
+    // Fitted by an older engine (relabelled while still a draft), so that the current engine's re-fit is legitimate.
+    await sql`update version_analyses set engine_version = 'kinetics-0' where version_id = ${v.id}`;
     // A supplementary file listed before publication (storage is not needed for the freeze).
     await sql`insert into version_files (version_id, filename, content_type, size_bytes, sha256, storage_key) values (${v.id}, 'table.csv', 'text/csv', 3, ${"a".repeat(64)}, ${"frozen-" + v.id})`;
     await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
@@ -158,8 +161,14 @@ describe("the freeze holds against the runtime role", () => {
     [
       "append through the re-fit path an analysis by the engine that already fitted it",
       `select arrhenia_append_refit_analysis(${published.id}, (select engine_version from version_analyses where version_id = ${published.id} order by id desc limit 1), '{}', '[]', null)`,
-      /already fitted/,
+      /is not the current engine/,
     ],
+    [
+      "append through the re-fit path an analysis by an engine name of the caller's choosing",
+      `select arrhenia_append_refit_analysis(${published.id}, 'forged-engine', '{}', '[]', null)`,
+      /is not the current engine/,
+    ],
+    ["change the current engine version", `update arrhenia_engine set engine_version = 'forged-engine'`, notAllowed],
     [
       "move a draft analysis in",
       `update version_analyses set version_id = ${published.id} where version_id = ${draft.id}`,
@@ -261,9 +270,9 @@ describe("the freeze holds against the runtime role", () => {
   });
 
   it("still allows what the product does: re-fits, aliases, co-editors, registration progress, editing drafts", async () => {
-    // A re-fit by another engine adds a row like the ones before it (here a copy of the newest),
+    // A re-fit by the current engine adds a row like the ones before it (here a copy of the newest),
     // through the one path that may, and never changes one.
-    await sql`select arrhenia_append_refit_analysis(version_id, 'refit-test', result, checks, null)
+    await sql`select arrhenia_append_refit_analysis(version_id, ${ENGINE_VERSION}, result, checks, null)
       from (select version_id, result, checks from version_analyses where version_id = ${published.id} order by id desc limit 1) newest`;
     await sql`insert into species_names (species_id, name) values (${speciesId}, ${"alias " + published.id}) on conflict do nothing`;
     await addDatasetMember({ datasetId: published.datasetId, userId: stranger.id, role: "viewer", actorId: owner.id });

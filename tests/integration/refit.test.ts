@@ -4,67 +4,103 @@ import { depositNewDataset } from "@/lib/datasets/deposits";
 import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { listStaleVersions, refitVersion } from "@/lib/datasets/refit";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
-import { createUser } from "@/lib/users/queries";
+import { createUser, type UserDto } from "@/lib/users/queries";
 import { sql, uniqueEmail } from "./helpers";
 
-describe("re-fitting after an engine change", () => {
-  it("adds a current analysis to stale versions, published ones included, and leaves current ones alone", async () => {
-    const owner = await createUser({ email: uniqueEmail("refit"), name: "Refit Owner", passwordHash: "x", verified: true });
-    const curator = await createUser({
-      email: uniqueEmail("refitc"),
-      name: "Refit Curator",
-      passwordHash: "x",
-      role: "curator",
-      verified: true,
-    });
-    const draft = await depositNewDataset({ actor: owner, document: EXAMPLE_DEPOSIT });
-    const published = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Refit published" } });
-    await applyTransition({ versionId: published.id, actorId: owner.id, transition: "submit" });
-    await applyTransition({ versionId: published.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
+// `sql` connects as the runtime role (DATABASE_URL), as the app does.
 
-    expect(await refitVersion({ versionId: draft.id })).toBe("current");
-    // Pretend both were fitted by an older engine: add an older analysis row as the newest.
-    for (const id of [draft.id, published.id]) {
-      await sql`select arrhenia_append_refit_analysis(${id}, 'kinetics-0', null, '[]', null)`;
-    }
+async function people(tag: string): Promise<[UserDto, UserDto]> {
+  const owner = await createUser({ email: uniqueEmail(tag), name: "Refit Owner", passwordHash: "x", verified: true });
+  const curator = await createUser({
+    email: uniqueEmail(tag + "c"),
+    name: "Refit Curator",
+    passwordHash: "x",
+    role: "curator",
+    verified: true,
+  });
+  return [owner, curator];
+}
+
+/** A version fitted by an older engine: a draft's analysis may still be relabelled, then it is published (or not). */
+async function fittedByOlderEngine(owner: UserDto, curator: UserDto, title: string, publish: boolean) {
+  const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title } });
+  await sql`update version_analyses set engine_version = 'kinetics-0' where version_id = ${v.id}`;
+  if (publish) {
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
+  }
+  return v;
+}
+
+const enginesOf = async (versionId: number) =>
+  (await sql<{ engine_version: string }[]>`select engine_version from version_analyses where version_id = ${versionId} order by id`).map(
+    (r) => r.engine_version,
+  );
+
+describe("re-fitting after an engine change", () => {
+  it("the database knows the current engine version, as the code does", async () => {
+    expect(await sql`select engine_version from arrhenia_engine`).toEqual([{ engine_version: ENGINE_VERSION }]);
+  });
+
+  it("adds a current analysis to stale versions, published ones included, and leaves current ones alone", async () => {
+    const [owner, curator] = await people("refit");
+    const current = await depositNewDataset({ actor: owner, document: EXAMPLE_DEPOSIT });
+    expect(await refitVersion({ versionId: current.id })).toBe("current");
+    const draft = await fittedByOlderEngine(owner, curator, "Refit draft", false);
+    const published = await fittedByOlderEngine(owner, curator, "Refit published", true);
+
     const stale = await listStaleVersions();
     expect(stale).toEqual(expect.arrayContaining([draft.id, published.id]));
+    expect(stale).not.toContain(current.id);
     expect(await refitVersion({ versionId: published.id })).toBe("refitted");
     expect(await refitVersion({ versionId: draft.id })).toBe("refitted");
     const rows =
       await sql`select engine_version, result is not null as has_result from version_analyses where version_id = ${published.id} order by id desc`;
     expect(rows[0]).toEqual({ engine_version: ENGINE_VERSION, has_result: true });
-    expect(rows.length).toBe(3); // frozen rows stay; the new one is added
+    expect(rows.length).toBe(2); // the frozen row stays; the new one is added
     // A second run of the job finds it current; nothing is added twice.
     expect(await refitVersion({ versionId: published.id })).toBe("current");
-    expect((await sql`select count(*)::int as n from version_analyses where version_id = ${published.id}`)[0].n).toBe(3);
+    expect(await enginesOf(published.id)).toEqual(["kinetics-0", ENGINE_VERSION]);
   });
 
-  it("only the re-fit path may add to a published version's analyses, only appending, never by the engine that fitted it last", async () => {
-    const owner = await createUser({ email: uniqueEmail("refit2"), name: "Refit Owner", passwordHash: "x", verified: true });
-    const curator = await createUser({
-      email: uniqueEmail("refit2c"),
-      name: "Refit Curator",
-      passwordHash: "x",
-      role: "curator",
-      verified: true,
-    });
-    const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Refit guarded" } });
-    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
-    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
-    // The runtime role (these tests' connection) cannot insert directly, nor update or delete.
+  it("the runtime role cannot forge a re-fit: other engines, the same engine twice, moving the engine row, its own function", async () => {
+    const [owner, curator] = await people("refit-forge");
+    const v = await fittedByOlderEngine(owner, curator, "Refit guarded", true);
+    // Direct writes to a published version's analyses are refused by the trigger.
     await expect(
       sql`insert into version_analyses (version_id, engine_version, result, checks) values (${v.id}, 'kinetics-99', '{}', '[]')`,
     ).rejects.toThrow(/published.*re-fit adds analyses through arrhenia_append_refit_analysis only/);
     await expect(sql`update version_analyses set engine_version = 'x' where version_id = ${v.id}`).rejects.toThrow(/published/);
     await expect(sql`delete from version_analyses where version_id = ${v.id}`).rejects.toThrow(/published/);
-    // Through the function: refused for the engine that fitted it last, accepted for another.
+    // Through the function, any engine name but the current one is refused, whatever it is.
+    for (const forged of ["kinetics-99", "kinetics-0", "", " ", ENGINE_VERSION + " ", ENGINE_VERSION.toUpperCase()]) {
+      await expect(sql`select arrhenia_append_refit_analysis(${v.id}, ${forged}, '{}', '[]', null)`, forged).rejects.toThrow(
+        /is not the current engine/,
+      );
+    }
+    await expect(sql`select arrhenia_append_refit_analysis(${v.id}, null, '{}', '[]', null)`).rejects.toThrow(/is not the current engine/);
+    // The current engine: once, and a second time is refused.
+    await sql`select arrhenia_append_refit_analysis(${v.id}, ${ENGINE_VERSION}, '{}', '[]', null)`;
     await expect(sql`select arrhenia_append_refit_analysis(${v.id}, ${ENGINE_VERSION}, '{}', '[]', null)`).rejects.toThrow(
       /already fitted/,
     );
-    await sql`select arrhenia_append_refit_analysis(${v.id}, 'kinetics-0', null, '[]', null)`;
-    expect(await refitVersion({ versionId: v.id })).toBe("refitted");
-    const engines = await sql`select engine_version from version_analyses where version_id = ${v.id} order by id`;
-    expect(engines.map((r) => r.engine_version)).toEqual([ENGINE_VERSION, "kinetics-0", ENGINE_VERSION]);
+    // The engine row cannot be moved to a name of the caller's choosing, nor replaced, nor emptied.
+    const denied = /permission denied/;
+    await expect(sql`update arrhenia_engine set engine_version = 'kinetics-forged'`).rejects.toThrow(denied);
+    await expect(sql`delete from arrhenia_engine`).rejects.toThrow(denied);
+    await expect(
+      sql`insert into arrhenia_engine (only_row, engine_version) values (true, 'kinetics-forged') on conflict do nothing`,
+    ).rejects.toThrow(denied);
+    await expect(sql`truncate arrhenia_engine`).rejects.toThrow(denied);
+    // Nor can it bring its own owner-run function or a table that shadows the engine row.
+    await expect(
+      sql.unsafe(`create function public.forge_refit() returns integer language sql security definer as 'select 1'`),
+    ).rejects.toThrow(denied);
+    await expect(sql.unsafe(`create function pg_temp.arrhenia_engine() returns text language sql as 'select 1'`)).rejects.toThrow(denied);
+    await expect(sql.unsafe(`create temp table arrhenia_engine (only_row boolean, engine_version text)`)).rejects.toThrow(denied);
+
+    expect(await enginesOf(v.id)).toEqual(["kinetics-0", ENGINE_VERSION]);
+    expect(await sql`select engine_version from arrhenia_engine`).toEqual([{ engine_version: ENGINE_VERSION }]);
+    expect(await refitVersion({ versionId: v.id })).toBe("current");
   });
 });

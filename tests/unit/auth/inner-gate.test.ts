@@ -1,5 +1,5 @@
 import http from "node:http";
-import type { AddressInfo } from "node:net";
+import net, { type AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { EDGE_KEY_HEADER } from "@/lib/auth/client-address";
 import { carriesEdgeKey, innerGate } from "@/lib/auth/inner-gate";
@@ -122,5 +122,74 @@ describe("carriesEdgeKey", () => {
 
   it("refuses to build a gate without a key", () => {
     expect(() => innerGate("", () => {})).toThrow(/ARRHENIA_EDGE_KEY/);
+  });
+});
+
+describe("the inner gate against requests written by hand", () => {
+  /** Sends raw bytes on one connection and collects everything answered until the server closes (or 3 s). */
+  function raw(bytes: string): Promise<string> {
+    return new Promise((resolve, reject) => {
+      const socket = net.connect(port, "127.0.0.1");
+      let got = "";
+      const done = () => resolve(got);
+      socket.on("data", (d) => (got += d));
+      socket.on("end", done);
+      socket.on("close", done);
+      socket.on("error", reject);
+      socket.setTimeout(3000, () => {
+        socket.destroy();
+        done();
+      });
+      socket.write(bytes);
+    });
+  }
+  const statuses = (answer: string) => [...answer.matchAll(/^HTTP\/1\.[01] (\d{3})/gm)].map((m) => Number(m[1]));
+  const wrongSameLength = KEY.split("").reverse().join("");
+
+  it.each([
+    ["no key", `GET / HTTP/1.1\r\nHost: x\r\nConnection: close\r\n\r\n`, [403]],
+    [
+      "a wrong key of the same length",
+      `GET / HTTP/1.1\r\nHost: x\r\nX-Arrhenia-Edge-Key: ${wrongSameLength}\r\nConnection: close\r\n\r\n`,
+      [403],
+    ],
+    ["the key in upper case", `GET / HTTP/1.1\r\nHost: x\r\nx-arrhenia-edge-key: ${KEY.toUpperCase()}\r\nConnection: close\r\n\r\n`, [403]],
+    [
+      "the key twice, in two casings of the header name",
+      `GET / HTTP/1.1\r\nHost: x\r\nX-ARRHENIA-EDGE-KEY: ${KEY}\r\nx-arrhenia-edge-key: ${KEY}\r\nConnection: close\r\n\r\n`,
+      [403],
+    ],
+    [
+      "a wrong key then the right one",
+      `GET / HTTP/1.1\r\nHost: x\r\nx-arrhenia-edge-key: ${wrongSameLength}\r\nx-arrhenia-edge-key: ${KEY}\r\nConnection: close\r\n\r\n`,
+      [403],
+    ],
+    ["HTTP/1.0 without the key", `GET / HTTP/1.0\r\n\r\n`, [403]],
+    [
+      "the key as a header of another name",
+      `GET / HTTP/1.1\r\nHost: x\r\nx-arrhenia-edge-key-2: ${KEY}\r\nConnection: close\r\n\r\n`,
+      [403],
+    ],
+    ["a header far over the size limit", `GET / HTTP/1.1\r\nHost: x\r\nx-pad: ${"a".repeat(64 * 1024)}\r\n\r\n`, [431]],
+  ])("%s is refused before the handler", async (_what, request, expected) => {
+    const before = reached;
+    expect(statuses(await raw(request))).toEqual(expected);
+    expect(reached).toBe(before);
+  });
+
+  it("pipelined: a request with the key, then one without, on one connection: the second is refused", async () => {
+    const before = reached;
+    const answer = await raw(
+      `GET / HTTP/1.1\r\nHost: x\r\nx-arrhenia-edge-key: ${KEY}\r\n\r\nGET / HTTP/1.1\r\nHost: x\r\nConnection: close\r\n\r\n`,
+    );
+    expect(statuses(answer)).toEqual([200, 403]);
+    expect(reached).toBe(before + 1);
+  });
+
+  it("the header name's casing does not matter with the right key (HTTP header names are case-insensitive), and the key is removed", async () => {
+    const answer = await raw(`GET / HTTP/1.0\r\nX-ArRhEnIa-EdGe-KeY: ${KEY}\r\n\r\n`);
+    expect(statuses(answer)).toEqual([200]);
+    expect(answer).not.toContain(KEY);
+    expect(answer.toLowerCase()).not.toContain("x-arrhenia-edge-key");
   });
 });
