@@ -530,13 +530,21 @@ function buildModified(fit: CentredFit, s: FitSummary, d: Prepared): ModifiedArr
   return out;
 }
 
-/** ln(k_c·h/(k_B·T)) per point, the response of the Eyring fit. */
+/**
+ * ln(k_c·h/(k_B·T)) per point, the response of the Eyring fit, less the constant ln(k_B/h) − ln Tref
+ * + (m − 1)·ln(N_A/10³) (eyringOffset): ln(T/Tref) is formed without cancellation, so in a window of
+ * microkelvin the T term keeps its precision against the small change of ln k.
+ */
 function eyringResponse(d: Prepared): Float64Array {
-  // Eyring–Evans–Polanyi: k_c = κ (k_B T/h) (c°)^(1−m) exp(ΔS‡/R) exp(−ΔH‡/RT), κ = 1, c° = 1 mol dm⁻³.
-  const shift = (d.order - 1) * LN_LITRE_PER_MOLECULE_CM3 - LN_BOLTZMANN_OVER_PLANCK;
   const ye = wsYe;
-  for (let i = 0; i < d.n; i++) ye[i] = d.y[i] - d.lnTabs[i] + shift;
+  for (let i = 0; i < d.n; i++) ye[i] = d.y[i] - d.lnTc[i];
   return ye;
+}
+
+/** The constant left out of {@link eyringResponse}, added back to the intercept. */
+function eyringOffset(d: Prepared): number {
+  // Eyring–Evans–Polanyi: k_c = κ (k_B T/h) (c°)^(1−m) exp(ΔS‡/R) exp(−ΔH‡/RT), κ = 1, c° = 1 mol dm⁻³.
+  return (d.order - 1) * LN_LITRE_PER_MOLECULE_CM3 - LN_BOLTZMANN_OVER_PLANCK - Math.log(d.Tref);
 }
 
 function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
@@ -550,7 +558,7 @@ function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
       ? "κ = 1; first-order rate constant, so no standard-state term."
       : `κ = 1; standard state c° = 1 mol dm⁻³ (k converted to ${order === 2 ? "dm³ mol⁻¹ s⁻¹" : "dm⁶ mol⁻² s⁻¹"} before fitting ln(k/T) on 1/T).`;
   return {
-    params: { dH: beta[1], dS: GAS_CONSTANT * beta[0] },
+    params: { dH: beta[1], dS: GAS_CONSTANT * (beta[0] + eyringOffset(d)) },
     se: {
       dH: s2 === null ? null : Math.sqrt(s2 * c[3]),
       dS: s2 === null ? null : GAS_CONSTANT * Math.sqrt(s2 * c[0]),

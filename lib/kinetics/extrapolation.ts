@@ -15,7 +15,9 @@ export function extrapolationOf(T: number, Tmin: number, Tmax: number): { extrap
   if (T >= Tmin && T <= Tmax) return { extrapolated: false, extrapolation: null };
   const below = T < Tmin;
   const end = below ? Tmin : Tmax;
-  const widths = Math.abs(1 / T - 1 / end) / (1 / Tmin - 1 / Tmax);
+  // |1/T − 1/end| / (1/Tmin − 1/Tmax) = |end − T|·Tmin·Tmax / (T·end·(Tmax − Tmin)), written with the
+  // differences of temperatures (exact for close values), never of their reciprocals, which cancel in a narrow range.
+  const widths = (Math.abs(end - T) / (Tmax - Tmin)) * (Tmin / T) * (Tmax / end);
   return {
     extrapolated: true,
     extrapolation: {
