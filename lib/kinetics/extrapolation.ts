@@ -6,6 +6,13 @@
 import type { Extrapolation } from "./types";
 
 /**
+ * k(298.15 K) beyond this many widths of the measured range in 1/T is given without a confidence
+ * interval: that far out the interval only says how well the line is known if the expression
+ * still holds there, which the data cannot show.
+ */
+export const K298_INTERVAL_MAX_WIDTHS = 1;
+
+/**
  * @param T temperature, K
  * @param Tmin lowest measured temperature, K
  * @param Tmax highest measured temperature, K (> Tmin)
