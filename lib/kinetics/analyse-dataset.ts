@@ -6,7 +6,7 @@ import { AnalysisError } from "./analysis-error";
 import { AVOGADRO, GAS_CONSTANT, LN_BOLTZMANN_OVER_PLANCK, REFERENCE_TEMPERATURE } from "./constants";
 import { bonferroniStudentT, quantileStudentT, survivalChiSquare, survivalF, t95 } from "./distributions";
 import { computeLeverage, fitCentred, predictCentred, type CentredFit } from "./fit-centred";
-import { extrapolationOf } from "./extrapolation";
+import { extrapolationOf, K298_INTERVAL_MAX_WIDTHS } from "./extrapolation";
 import { formatFlagMessage, type FlagDraft, type FlagQuantities } from "./flag-text";
 import { cooksDistanceBound } from "./influence-bound";
 import { assertReactionOrder, checkPoints, describe } from "./validate-points";
@@ -54,8 +54,13 @@ export const MIN_DOF_FOR_OUTLIER_TEST = 3;
  * reported as influential (externally studentized residual beyond t_{1−α/2, n−p−1}).
  */
 export const INFLUENCE_RESIDUAL_ALPHA = 0.05;
-/** Coefficients of the Arrhenius fit, on which the diagnostics are computed. */
-const P_ARRHENIUS = 2;
+/**
+ * Largest standard error of the temperature exponent n for which the modified Arrhenius fit is
+ * reported. Beyond it the 95 % interval of n is wider than about ±10, more than the whole range of
+ * exponents met in gas-phase kinetics (|n| ≲ 5): the data do not determine n, and n, Ea and ln A
+ * would be the rounding and scatter of a near-collinear fit (a 300–300.5 K set gives n ≈ −2e4).
+ */
+export const MODIFIED_MAX_SE_N = 5;
 /**
  * Relative size of ln k below which residuals count as rounding noise: an RSS under
  * Σ wᵢ(1e-13·(1 + |ln kᵢ|))² is treated as that floor, so noise-free data neither divide by zero
@@ -170,11 +175,17 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
   // ln T and 1/T are nearly proportional over a very narrow window: n and Ea would be rounding noise.
   const modSine = modFit && modFit.minSine < MODIFIED_MIN_SINE ? modFit.minSine : null;
   if (modSine !== null) modFit = null;
-  const modSum = modFit ? summariseFit(modFit, d, y) : null;
+  let modSum = modFit ? summariseFit(modFit, d, y) : null;
+  // n not determined by the data: its standard error spans more than every exponent met in practice.
+  const seN = modSum?.se[1] ?? null;
+  const nUndetermined = modFit && seN !== null && seN > MODIFIED_MAX_SE_N ? { n: modFit.beta[1], seN } : null;
+  if (nUndetermined) {
+    modFit = null;
+    modSum = null;
+  }
   const modifiedArrhenius = modFit && modSum ? buildModified(modFit, modSum, d) : null;
 
   const eyring = buildEyring(arrFit, d);
-  const diagnostics = n >= MIN_POINTS_FOR_DIAGNOSTICS ? computeDiagnostics(arrFit, colsA, d) : null;
 
   let curvature: CurvatureTest | null = null;
   if (modFit && n >= MIN_POINTS_FOR_DIAGNOSTICS) {
@@ -197,6 +208,9 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
     ? { fit: modFit!, sum: modSum!, model: "modified_arrhenius" as const }
     : { fit: arrFit, sum: arrSum, model: "arrhenius" as const };
   const band = computeBand(chosen.fit, chosen.sum, d, chosen.model);
+  // Points are judged against the model the analysis prefers: the ends of a curved dataset stand
+  // off the straight line by its curvature, not by error.
+  const diagnostics = n >= MIN_POINTS_FOR_DIAGNOSTICS ? computeDiagnostics(chosen.fit, curved ? colsM : colsA, d, chosen.model) : null;
 
   const flags = collectFlags(d, { arrFit, arrSum, arrhenius, modifiedArrhenius, diagnostics, curvature, band, chosen }, input);
   if (modSine !== null) {
@@ -205,6 +219,20 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
         code: "modified_fit_undetermined",
         severity: "info",
         quantities: { Tmin: temperature(d.Tmin), Tmax: temperature(d.Tmax), sine: statistic(modSine) },
+      }),
+    );
+  } else if (nUndetermined) {
+    flags.push(
+      toFlag({
+        code: "modified_fit_undetermined",
+        severity: "info",
+        quantities: {
+          Tmin: temperature(d.Tmin),
+          Tmax: temperature(d.Tmax),
+          n: statistic(nUndetermined.n),
+          seN: statistic(nUndetermined.seN),
+          seNLimit: statistic(MODIFIED_MAX_SE_N),
+        },
       }),
     );
   }
@@ -451,9 +479,11 @@ function buildArrhenius(fit: CentredFit, s: FitSummary, t: number, d: Prepared):
   // Prediction and its variance from the centred factor: exact however narrow the window.
   const at298 = predictCentred(fit, [shiftedInverseT(d, REFERENCE_TEMPERATURE)]);
   const lnk298 = at298.value;
+  const where = extrapolationOf(REFERENCE_TEMPERATURE, d.Tmin, d.Tmax);
+  const intervalOmitted = where.extrapolation !== null && where.extrapolation.inverseTWidths > K298_INTERVAL_MAX_WIDTHS;
   let lower: number | null = null;
   let upper: number | null = null;
-  if (s.s2 !== null) {
+  if (s.s2 !== null && !intervalOmitted) {
     const half = t * Math.sqrt(s.s2 * at298.variance);
     lower = expOrNull(lnk298 - half);
     upper = expOrNull(lnk298 + half);
@@ -468,7 +498,7 @@ function buildArrhenius(fit: CentredFit, s: FitSummary, t: number, d: Prepared):
     rss: s.rss,
     aicc: s.aicc,
     ...residualFields(fit, s, d),
-    k298: { value: expOrNull(lnk298), lower, upper, ...extrapolationOf(REFERENCE_TEMPERATURE, d.Tmin, d.Tmax) },
+    k298: { value: expOrNull(lnk298), lower, upper, intervalOmitted, ...where },
     kMid: arrheniusAt(fit, s, t, 2 / (1 / d.Tmin + 1 / d.Tmax), d),
   };
   if (d.weighted) out.chi2Reduced = s.chi2Reduced;
@@ -530,13 +560,21 @@ function buildModified(fit: CentredFit, s: FitSummary, d: Prepared): ModifiedArr
   return out;
 }
 
-/** ln(k_c·h/(k_B·T)) per point, the response of the Eyring fit. */
+/**
+ * ln(k_c·h/(k_B·T)) per point, the response of the Eyring fit, less the constant ln(k_B/h) − ln Tref
+ * + (m − 1)·ln(N_A/10³) (eyringOffset): ln(T/Tref) is formed without cancellation, so in a window of
+ * microkelvin the T term keeps its precision against the small change of ln k.
+ */
 function eyringResponse(d: Prepared): Float64Array {
-  // Eyring–Evans–Polanyi: k_c = κ (k_B T/h) (c°)^(1−m) exp(ΔS‡/R) exp(−ΔH‡/RT), κ = 1, c° = 1 mol dm⁻³.
-  const shift = (d.order - 1) * LN_LITRE_PER_MOLECULE_CM3 - LN_BOLTZMANN_OVER_PLANCK;
   const ye = wsYe;
-  for (let i = 0; i < d.n; i++) ye[i] = d.y[i] - d.lnTabs[i] + shift;
+  for (let i = 0; i < d.n; i++) ye[i] = d.y[i] - d.lnTc[i];
   return ye;
+}
+
+/** The constant left out of {@link eyringResponse}, added back to the intercept. */
+function eyringOffset(d: Prepared): number {
+  // Eyring–Evans–Polanyi: k_c = κ (k_B T/h) (c°)^(1−m) exp(ΔS‡/R) exp(−ΔH‡/RT), κ = 1, c° = 1 mol dm⁻³.
+  return (d.order - 1) * LN_LITRE_PER_MOLECULE_CM3 - LN_BOLTZMANN_OVER_PLANCK - Math.log(d.Tref);
 }
 
 function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
@@ -550,7 +588,7 @@ function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
       ? "κ = 1; first-order rate constant, so no standard-state term."
       : `κ = 1; standard state c° = 1 mol dm⁻³ (k converted to ${order === 2 ? "dm³ mol⁻¹ s⁻¹" : "dm⁶ mol⁻² s⁻¹"} before fitting ln(k/T) on 1/T).`;
   return {
-    params: { dH: beta[1], dS: GAS_CONSTANT * beta[0] },
+    params: { dH: beta[1], dS: GAS_CONSTANT * (beta[0] + eyringOffset(d)) },
     se: {
       dH: s2 === null ? null : Math.sqrt(s2 * c[3]),
       dS: s2 === null ? null : GAS_CONSTANT * Math.sqrt(s2 * c[0]),
@@ -559,7 +597,7 @@ function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
   };
 }
 
-function computeDiagnostics(fit: CentredFit, cols: Float64Array[], d: Prepared): Diagnostics {
+function computeDiagnostics(fit: CentredFit, cols: Float64Array[], d: Prepared, model: Diagnostics["model"]): Diagnostics {
   const { n, p, resid, rss } = fit;
   const dof = n - p;
   const h = new Array<number>(n);
@@ -568,6 +606,8 @@ function computeDiagnostics(fit: CentredFit, cols: Float64Array[], d: Prepared):
   const external = new Array<number>(n).fill(0);
   const cook = new Array<number>(n).fill(0);
   // Residuals at rounding level carry no information: leave studentized residuals at 0.
+  // With no residual dof left after deleting a point, externally studentized residuals are undefined (0).
+  const deletable = dof - 1 > 0;
   if (rss > d.rssFloor) {
     const s = Math.sqrt(rss / dof);
     const floorDeleted = d.rssFloor / (dof - 1);
@@ -582,29 +622,30 @@ function computeDiagnostics(fit: CentredFit, cols: Float64Array[], d: Prepared):
       cook[i] = (r * r * h[i]) / (p * oneMinusH);
       // Externally studentized: variance re-estimated without point i, RSS₍ᵢ₎ = RSS − eᵢ²/(1 − hᵢ);
       // when point i holds most of the RSS that difference cancels, so refit without it instead.
+      if (!deletable) continue;
       let rssDeleted = rss - (e * e) / oneMinusH;
-      if (rssDeleted < rss / 16) rssDeleted = rssWithout(i, d);
+      if (rssDeleted < rss / 16) rssDeleted = rssWithout(i, d, cols, fit.shift);
       const s2i = Math.max(rssDeleted / (dof - 1), floorDeleted);
       external[i] = e / Math.sqrt(s2i * oneMinusH);
     }
   }
-  return { leverage: h, studentized, externallyStudentized: external, cooksDistance: cook };
+  return { model, leverage: h, studentized, externallyStudentized: external, cooksDistance: cook };
 }
 
-/** RSS of the Arrhenius fit refitted without point i (scaled weights, as the fit's own RSS). */
-function rssWithout(i: number, d: Prepared): number {
+/** RSS of the same model refitted without point i (scaled weights, as the fit's own RSS). */
+function rssWithout(i: number, d: Prepared, cols: Float64Array[], shift: readonly number[]): number {
   const m = d.n - 1;
-  const x = new Float64Array(m);
+  const xs = cols.map(() => new Float64Array(m));
   const y = new Float64Array(m);
   const sw = d.sw ? new Float64Array(m) : null;
   for (let j = 0, k = 0; j < d.n; j++) {
     if (j === i) continue;
-    x[k] = d.xEc[j];
+    for (let c = 0; c < cols.length; c++) xs[c][k] = cols[c][j];
     y[k] = d.y[j];
     if (sw) sw[k] = (d.sw as Float64Array)[j];
     k++;
   }
-  const fit = fitCentred([x], y, sw, m, [], { shift: [d.shiftE] });
+  const fit = fitCentred(xs, y, sw, m, [], { shift });
   return fit ? fit.rss : 0;
 }
 
@@ -674,7 +715,7 @@ function toFlag(draft: FlagDraft): Flag {
   return flag;
 }
 
-/** A point nearer the Arrhenius fit than its own stated uncertainty is within what its authors claim. */
+/** A point nearer the fit than its own stated uncertainty is within what its authors claim. */
 function withinStatedUncertainty(input: AnalysisInput, resid: Float64Array, i: number): boolean {
   const sigma = input.points[i].sigmaLnK;
   return typeof sigma === "number" && Math.abs(resid[i]) < sigma;
@@ -695,8 +736,12 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     });
   }
 
-  // The outlier test deletes one point from the Arrhenius fit: n − p − 1 residual dof remain.
-  const outlierMinPoints = P_ARRHENIUS + 1 + MIN_DOF_FOR_OUTLIER_TEST;
+  // Points are judged on the preferred fit (the diagnostics' model), with its p coefficients; the
+  // outlier test deletes one point from it, so n − p − 1 residual dof remain.
+  const judged = c.chosen;
+  const pJudged = judged.fit.p;
+  const modelQ = count(pJudged);
+  const outlierMinPoints = pJudged + 1 + MIN_DOF_FOR_OUTLIER_TEST;
   const testOutliers = c.diagnostics !== null && n >= outlierMinPoints;
   if (!testOutliers || n < MIN_POINTS_FOR_DIAGNOSTICS || d.distinctT < 3) {
     const q: FlagQuantities = { n: count(n), distinctT: count(d.distinctT) };
@@ -706,9 +751,9 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     push({ code: "too_few_points", severity: "info", quantities: q });
   }
 
-  const resid = c.arrFit.resid;
+  const resid = judged.fit.resid;
   if (c.diagnostics) {
-    const dof = c.arrSum.dof;
+    const dof = judged.sum.dof;
     const external = c.diagnostics.externallyStudentized;
     if (testOutliers) {
       const bound = bonferroniStudentT(ALPHA, n, dof - 1);
@@ -721,12 +766,13 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
           code: "outlier",
           severity: "warn",
           points: outliers,
-          quantities: { bound: statistic(bound), alpha: probability(ALPHA), dof: count(dof - 1) },
+          quantities: { bound: statistic(bound), alpha: probability(ALPHA), dof: count(dof - 1), coefficients: modelQ },
         });
       }
     }
-    const cookBound = cooksDistanceBound(P_ARRHENIUS, n);
-    const tPoint = quantileStudentT(1 - INFLUENCE_RESIDUAL_ALPHA / 2, dof - 1);
+    const cookBound = cooksDistanceBound(pJudged, n);
+    // No residual dof after deleting a point: the residual half of the influence test cannot be made.
+    const tPoint = dof - 1 > 0 ? quantileStudentT(1 - INFLUENCE_RESIDUAL_ALPHA / 2, dof - 1) : Infinity;
     const influential: number[] = [];
     let largest = 0;
     const cook = c.diagnostics.cooksDistance;
@@ -746,10 +792,11 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
         quantities: {
           largest: statistic(largest),
           bound: statistic(cookBound),
-          dfNum: count(P_ARRHENIUS),
-          dfDenom: count(n - P_ARRHENIUS),
+          dfNum: count(pJudged),
+          dfDenom: count(n - pJudged),
           residualBound: statistic(tPoint),
           dof: count(dof - 1),
+          coefficients: modelQ,
         },
       });
     }
@@ -794,8 +841,16 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     push({ code: "narrow_range", severity: "warn", quantities: q });
   }
 
-  if (Ea < NEGATIVE_EA_THRESHOLD) {
-    push({ code: "negative_activation_energy", severity: "info", quantities: { Ea: energy(Ea) } });
+  // Only an Ea whose 95 % interval lies wholly below zero: one that cannot be told from 0 is no finding.
+  if (seEa !== null && Ea < NEGATIVE_EA_THRESHOLD) {
+    const half = t95(c.arrSum.dof) * seEa;
+    if (Ea + half < 0) {
+      push({
+        code: "negative_activation_energy",
+        severity: "info",
+        quantities: { Ea: energy(Ea), lower: energy(Ea - half), upper: energy(Ea + half) },
+      });
+    }
   }
 
   if (d.weighted && c.arrSum.dof > 0) {

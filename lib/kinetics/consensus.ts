@@ -17,7 +17,7 @@
  * between-dataset variance of ln k (any shape the expression cannot follow included), estimated
  * by the DerSimonian–Laird moment estimator for meta-regression (DerSimonian & Laird 1986;
  * Viechtbauer 2010, J. Stat. Softw. 36(3)); covariance of the parameters (FᵀWF)⁻¹, variances
- * treated as known. Modified Arrhenius is preferred when |n| > 1.96·se(n).
+ * treated as known. Modified Arrhenius is preferred when |n| > z_{0.975}·se(n) (1.959964).
  *
  * Disagreement is a curve. For each dataset j: the consensus of the other datasets, built by the
  * same rules (τ²₋ⱼ re-estimated), and at comparison temperatures spread over the part of j's
@@ -25,9 +25,9 @@
  * factor 2) the ratio k_j(T)/k₋ⱼ(T) with z = (ln k_j − ln k₋ⱼ)/√(var_j + τ²₋ⱼ + var₋ⱼ), the
  * externally standardised residual of Viechtbauer & Cheung (2010, Res. Synth. Methods 1:112)
  * taken along the curve. Off the consensus: any |z| above the Bonferroni bound z_{1−0.05/(2m)}
- * over its m comparison temperatures (1.96 for one, 2.39 for three). Whether its activation
+ * over its m comparison temperatures (1.959964 for one, 2.393980 for three). Whether its activation
  * energy differs: the difference of the log ratios between the cold and the hot end against its
- * standard error (|z| > 1.96); whether the factor changes at all: a χ² test of the log ratio's
+ * standard error (|z| > 1.959964); whether the factor changes at all: a χ² test of the log ratio's
  * contrasts. Against one other dataset, that dataset is read through its own fit, as the dataset
  * compared is (τ² = 0), so A against B mirrors B against A. A dataset that agrees everywhere is
  * never flagged, however precise.
@@ -36,7 +36,7 @@
  * (N_A^(m−1), 10^(3(m−1)), 10^(6(m−1)), (N_A/10³)^(m−1), (N_A/10⁶)^(m−1)); such a dataset is
  * left out and the consensus refitted, the largest mistake first, as long as one dataset remains.
  *
- * Uncertainty factor f(T) = exp(1.96·√(var ln k̂(T) + τ²)) over the temperatures the included
+ * Uncertainty factor f(T) = exp(1.959964·√(var ln k̂(T) + τ²)) over the temperatures the included
  * data cover; outside them it is not given (extrapolation).
  */
 import { analyseDataset, MIN_DOF_FOR_OUTLIER_TEST } from "./analyse-dataset";
@@ -311,9 +311,8 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     const input = { id: ds.id, points: ds.points, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } };
     let support = summariseDataset(input, T0);
     // One pass: the outliers of the dataset's own fit are left out of its summary, and it is summarised again.
-    // The test is on the Arrhenius line: the ends of a curved dataset stand off it by their curvature, not by error.
-    const curved = support?.fit.model === "modified_arrhenius";
-    const own = !support || curved ? [] : ds.outliers != null ? givenOutliers(ds, window) : ownOutliers(ds, input.window, T0);
+    // The dataset's own analysis judges outliers on the model it prefers, so a curved dataset's ends are not outliers.
+    const own = !support ? [] : ds.outliers != null ? givenOutliers(ds, window) : ownOutliers(ds, input.window, T0);
     if (own.length > 0) support = summariseDataset({ ...input, skip: new Set(own) }, T0);
     outliers.push(own);
     supports.push(support);

@@ -4,13 +4,15 @@
  * their complements), never as 1 − CDF, so probabilities keep full relative precision down to
  * 1e-300; Student-t quantiles are polished by Newton steps on those direct tails.
  *
- * Special functions: @stdlib/math-base-special-betainc, -betaincinv, -gammainc, -gammaln * (ports of the Boost.Math implementations, https://stdlib.io).
+ * Special functions: @stdlib/math-base-special-betainc, -betaincinv, -gammaln (ports of the
+ * Boost.Math implementations, https://stdlib.io) and the incomplete gamma of incomplete-gamma.ts
+ * (the same package's pieces, dispatched correctly for large dof).
  */
 import betainc from "@stdlib/math-base-special-betainc";
 import betaincinv from "@stdlib/math-base-special-betaincinv";
-import gammainc from "@stdlib/math-base-special-gammainc";
 import gammaln from "@stdlib/math-base-special-gammaln";
 import jStat from "jstat";
+import { regularisedGamma } from "./incomplete-gamma";
 
 const quantileCache = new Map<number, Map<number, number>>();
 const EPSILON = 2 ** -52;
@@ -21,6 +23,12 @@ const MAX_NEWTON_STEPS = 12;
  * whichever argument is the small, accurately representable one.
  */
 function upperTailT(t: number, nu: number): number {
+  // Closed forms: Cauchy, and ν = 2 written without cancellation.
+  if (nu === 1) return t < 1 ? 0.5 - Math.atan(t) / Math.PI : Math.atan(1 / t) / Math.PI;
+  if (nu === 2) {
+    const root = Math.sqrt(t * t + 2);
+    return 1 / (root * (root + t));
+  }
   const r = t / Math.sqrt(nu);
   const r2 = r * r;
   if (r2 >= 1) return 0.5 * betainc(1 / (1 + r2), nu / 2, 0.5);
@@ -131,10 +139,20 @@ export function survivalF(f: number, d1: number, d2: number): number {
   return clampProbability(betainc(u / (1 + u), d1 / 2, d2 / 2, true, true));
 }
 
+/**
+ * Upper-tail probability P(T > t) of Student's t distribution with dof degrees of freedom, computed
+ * directly (closed forms for 1 and 2 dof, else the incomplete beta function on its accurate side).
+ */
+export function survivalStudentT(t: number, dof: number): number {
+  if (Number.isNaN(t) || !(dof > 0)) return Number.NaN;
+  if (t < 0) return clampProbability(0.5 + centralT(-t, dof));
+  return clampProbability(upperTailT(t, dof));
+}
+
 /** Upper-tail probability P(X > x) of the chi-square distribution: Q(dof/2, x/2), computed directly. */
 export function survivalChiSquare(x: number, dof: number): number {
   if (!(x > 0)) return 1;
-  return clampProbability(gammainc(x / 2, dof / 2, true, true));
+  return clampProbability(regularisedGamma(dof / 2, x / 2, true));
 }
 
 /** Standard normal quantile z_p. */

@@ -6,6 +6,13 @@
 import type { Extrapolation } from "./types";
 
 /**
+ * k(298.15 K) beyond this many widths of the measured range in 1/T is given without a confidence
+ * interval: that far out the interval only says how well the line is known if the expression
+ * still holds there, which the data cannot show.
+ */
+export const K298_INTERVAL_MAX_WIDTHS = 1;
+
+/**
  * @param T temperature, K
  * @param Tmin lowest measured temperature, K
  * @param Tmax highest measured temperature, K (> Tmin)
@@ -15,7 +22,9 @@ export function extrapolationOf(T: number, Tmin: number, Tmax: number): { extrap
   if (T >= Tmin && T <= Tmax) return { extrapolated: false, extrapolation: null };
   const below = T < Tmin;
   const end = below ? Tmin : Tmax;
-  const widths = Math.abs(1 / T - 1 / end) / (1 / Tmin - 1 / Tmax);
+  // |1/T − 1/end| / (1/Tmin − 1/Tmax) = |end − T|·Tmin·Tmax / (T·end·(Tmax − Tmin)), written with the
+  // differences of temperatures (exact for close values), never of their reciprocals, which cancel in a narrow range.
+  const widths = (Math.abs(end - T) / (Tmax - Tmin)) * (Tmin / T) * (Tmax / end);
   return {
     extrapolated: true,
     extrapolation: {

@@ -5,6 +5,7 @@
  */
 import { parseEnergyUnit, parseTemperatureUnit, type LinearUnit } from "./units";
 import type { Extrapolation, Flag, FlagCode, FlagQuantity } from "./types";
+import { K298_INTERVAL_MAX_WIDTHS } from "./extrapolation";
 
 /** Units a reader chose; ids or aliases as accepted by units.ts. */
 export interface FlagUnits {
@@ -129,7 +130,9 @@ type Template = (w: Writer, points: number[]) => string;
 
 const TEMPLATES: Record<FlagCode, Template> = {
   modified_fit_undetermined: (w) =>
-    `The modified Arrhenius expression cannot be determined from these data: over ${w.range("Tmin", "Tmax")}, ln T and 1/T are proportional to within ${w.value("sine").toExponential(1)}, so n and Ea cannot be told apart (the curvature test is skipped).`,
+    w.has("sine")
+      ? `The modified Arrhenius expression cannot be determined from these data: over ${w.range("Tmin", "Tmax")}, ln T and 1/T are proportional to within ${w.value("sine").toExponential(1)}, so n and Ea cannot be told apart (the curvature test is skipped).`
+      : `The modified Arrhenius expression cannot be determined from these data: over ${w.range("Tmin", "Tmax")} the temperature exponent comes out as n = ${w.get("n")} with a standard error of ${w.get("seN")}, above ${w.get("seNLimit")}, so the data do not fix n (the curvature test is skipped).`,
 
   uncertainties_ignored: (w) => `Only ${w.get("stated")} of ${w.get("n")} points state an uncertainty, so all fits are unweighted.`,
 
@@ -147,11 +150,11 @@ const TEMPLATES: Record<FlagCode, Template> = {
   },
 
   outlier: (w, points) =>
-    `${listPoints(points)} ${points.length === 1 ? "lies" : "lie"} off the Arrhenius fit: externally studentized residual beyond ±${w.value("bound").toFixed(2)} (Bonferroni-corrected Student t, α = ${w.get("alpha")}, ${w.get("dof")} dof).`,
+    `${listPoints(points)} ${points.length === 1 ? "lies" : "lie"} off the ${modelName(w)} fit: externally studentized residual beyond ±${w.value("bound").toFixed(2)} (Bonferroni-corrected Student t, α = ${w.get("alpha")}, ${w.get("dof")} dof).`,
 
   influential_point: (w, points) => {
     const one = points.length === 1;
-    return `${listPoints(points)} ${one ? "weighs" : "weigh"} heavily on the Arrhenius parameters and ${one ? "lies" : "lie"} off the line of the other points: Cook's distance ${one ? "" : "up to "}${w.get("largest")} is above ${w.get("bound")}, the median of F(${w.get("dfNum")}, ${w.get("dfDenom")}) (without ${one ? "this point" : "such a point"} the parameters would move beyond their 50 % confidence region), and the externally studentized residual is beyond ±${w.value("residualBound").toFixed(2)} (two-sided 95 % Student t, ${w.get("dof")} dof).`;
+    return `${listPoints(points)} ${one ? "weighs" : "weigh"} heavily on the ${modelName(w)} parameters and ${one ? "lies" : "lie"} off the line of the other points: Cook's distance ${one ? "" : "up to "}${w.get("largest")} is above ${w.get("bound")}, the median of F(${w.get("dfNum")}, ${w.get("dfDenom")}) (without ${one ? "this point" : "such a point"} the parameters would move beyond their 50 % confidence region), and the externally studentized residual is beyond ±${w.value("residualBound").toFixed(2)} (two-sided 95 % Student t, ${w.get("dof")} dof).`;
   },
 
   curvature: (w) => {
@@ -170,7 +173,7 @@ const TEMPLATES: Record<FlagCode, Template> = {
   },
 
   negative_activation_energy: (w) =>
-    `The fitted activation energy is negative (${w.get("Ea")}): k decreases as temperature rises. This is common for barrierless and association reactions; check that it is not a sign error.`,
+    `The fitted activation energy is negative (${w.get("Ea")}${w.has("upper") ? `, 95 % interval ${w.get("lower")} to ${w.get("upper")}` : ""}): k decreases as temperature rises. This is common for barrierless and association reactions; check that it is not a sign error.`,
 
   excess_scatter: (w) =>
     `The points scatter more than their stated uncertainties allow: χ²/dof = ${w.get("chi2Reduced")} on ${w.get("dof")} dof (${w.p("p")}), so the residuals are typically ${w.get("scaleFactor")} times the stated uncertainties. The uncertainties may be underestimated, or the Arrhenius form may not fit.`,
@@ -197,7 +200,16 @@ const TEMPLATES: Record<FlagCode, Template> = {
  */
 export function describeExtrapolation(x: Extrapolation): string {
   const end = x.side === "below" ? "lowest" : "highest";
-  return `extrapolated: ${formatNumber(x.kelvin, 3)} K ${x.side} the ${end} measured temperature, ${formatNumber(x.inverseTWidths, 2)} times the width of the measured range in 1/T`;
+  const far =
+    x.inverseTWidths > K298_INTERVAL_MAX_WIDTHS
+      ? `; no confidence interval is given beyond ${K298_INTERVAL_MAX_WIDTHS} width, as it would hold only if the expression held that far out`
+      : "";
+  return `extrapolated: ${formatNumber(x.kelvin, 3)} K ${x.side} the ${end} measured temperature, ${formatNumber(x.inverseTWidths, 2)} times the width of the measured range in 1/T${far}`;
+}
+
+/** The fit a point was judged on, from its number of coefficients (Arrhenius when not stated: older records). */
+function modelName(w: Writer): string {
+  return w.has("coefficients") && w.value("coefficients") === 3 ? "modified Arrhenius" : "Arrhenius";
 }
 
 /** The validity range the authors state: both ends, or the one they gave. */

@@ -103,8 +103,14 @@ export interface Extrapolation {
   inverseTWidths: number;
 }
 
-/** k(298.15 K) with its interval, and whether 298.15 K lies outside the measured range. */
+/**
+ * k(298.15 K) with its interval, and whether 298.15 K lies outside the measured range. Beyond one
+ * width of the measured range in 1/T the limits are null (a model-conditional interval that far out
+ * misleads) and intervalOmitted says so.
+ */
 export interface RateAt298 extends ConfidenceInterval {
+  /** True when lower and upper are null because 298.15 K lies too far outside the data (not because dof = 0). */
+  intervalOmitted?: boolean;
   /** True when 298.15 K is outside [Tmin, Tmax]: the value is an extrapolation of the fit. */
   extrapolated: boolean;
   /** How far outside; null when not extrapolated. */
@@ -185,8 +191,13 @@ export interface EyringFit {
   convention: string;
 }
 
-/** Per-point influence measures of the Arrhenius fit, in input order. */
+/**
+ * Per-point influence measures, in input order, of the fit the analysis prefers: the modified
+ * Arrhenius fit when the curvature test is significant (band.model), else the Arrhenius fit.
+ */
 export interface Diagnostics {
+  /** The fit the measures are computed on. Absent from analyses stored by engines before kinetics-3 (Arrhenius). */
+  model?: "arrhenius" | "modified_arrhenius";
   leverage: number[];
   studentized: number[];
   externallyStudentized: number[];

@@ -45,7 +45,13 @@ describe("POST /api/v1/analyses", () => {
     expect(analysis.arrhenius.residualSDLnK).toBe(analysis.arrhenius.residualSD);
     expect(analysis.arrhenius.residuals).toHaveLength(8);
     expect(analysis.arrhenius.fitted).toHaveLength(8);
-    expect(analysis.curvature).toMatchObject({ dfNum: 1, dfDenom: 5 });
+    // 7 widths of the data in 1/T below them: k(298.15 K) without limits, and saying so.
+    expect(analysis.arrhenius.k298).toMatchObject({ intervalOmitted: true, lower: null, upper: null });
+    // With a factor-e point in 1000–1500 K the data do not fix n (se(n) > 5): no modified fit, no curvature test.
+    expect(analysis.modifiedArrhenius).toBeNull();
+    expect(analysis.curvature).toBeNull();
+    const undetermined = analysis.flags.find((f: { code: string }) => f.code === "modified_fit_undetermined");
+    expect(undetermined.quantities.seN.value).toBeGreaterThan(5);
     const outlier = analysis.flags.find((f: { code: string }) => f.code === "outlier");
     expect(outlier.points).toEqual([3]);
     expect(outlier.quantities.dof).toEqual({ kind: "count", value: 5 });

@@ -107,11 +107,13 @@ export default function ApiDocsPage() {
         <p className="text-sm">
           Each fit carries <code>scaleFactor</code> (√(χ²/dof), weighted fits) and <code>residualSDLnK</code> beside <code>residualSD</code>
           , and per point <code>residuals</code> and <code>fitted</code> (ln k). <code>arrhenius.k298</code> says whether 298.15 K lies
-          outside the data (<code>extrapolated</code>, <code>extrapolation</code>: side, kelvin, inverseTWidths);{" "}
-          <code>arrhenius.kMid</code> is k at the middle of the measured range in 1/T, with its interval. <code>curvature</code> gives its
-          degrees of freedom (<code>dfNum</code>, <code>dfDenom</code>). Each flag has <code>code</code>, <code>severity</code>,{" "}
-          <code>message</code> (kJ mol⁻¹, K), <code>points</code> where it concerns points, and <code>quantities</code>: the numbers of the
-          message with their kind, to write it in other units.
+          outside the data (<code>extrapolated</code>, <code>extrapolation</code>: side, kelvin, inverseTWidths) and, with{" "}
+          <code>intervalOmitted</code>, when its limits are left out because it lies more than one width of the data in 1/T away;{" "}
+          <code>diagnostics.model</code> names the fit the points are judged on; <code>arrhenius.kMid</code> is k at the middle of the
+          measured range in 1/T, with its interval. <code>curvature</code> gives its degrees of freedom (<code>dfNum</code>,{" "}
+          <code>dfDenom</code>). Each flag has <code>code</code>, <code>severity</code>, <code>message</code> (kJ mol⁻¹, K),{" "}
+          <code>points</code> where it concerns points, and <code>quantities</code>: the numbers of the message with their kind, to write it
+          in other units.
         </p>
         <pre className="overflow-x-auto rounded-md border border-line bg-panel p-4 text-xs">{example(appUrl())}</pre>
         <h3 className="font-semibold">Conventions</h3>

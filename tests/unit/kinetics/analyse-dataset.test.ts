@@ -291,7 +291,7 @@ describe("analyseDataset: flags", () => {
     const r = analyseDataset({ points: arrheniusPoints(6, { A: 3.3e-12, Ea: -2245 }), order: 2 });
     const f = r.flags.find((x) => x.code === "negative_activation_energy")!;
     expect(f.severity).toBe("info");
-    expect(f.message).toMatch(/negative \(-2\.\d+ kJ mol⁻¹\)/);
+    expect(f.message).toMatch(/negative \(-2\.\d+ kJ mol⁻¹, 95 % interval -2\.\d+ kJ mol⁻¹ to -\d\.\d+ kJ mol⁻¹\)/);
   });
 
   it("excess_scatter: weighted fit whose scatter exceeds the stated σ", () => {

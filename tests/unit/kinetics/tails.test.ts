@@ -185,11 +185,15 @@ describe("modified Arrhenius fit in a window where ln T and 1/T are collinear to
     expect(flag?.message).toMatch(/ln T and 1\/T are proportional/);
     expect(r.band.model).toBe("arrhenius");
   });
-  it("a 0.1 K window keeps its modified fit (columns still distinct to 5e-5)", () => {
+  it("a 0.1 K window is not refused for collinearity (columns distinct to 5e-5), but 1 % scatter leaves n undetermined", () => {
     const w = reference.windows.find((x) => x.width === 0.1)!;
     const r = analyseDataset({ order: 2, points: w.points as Pt[] });
-    expect(r.modifiedArrhenius).not.toBeNull();
-    expect(r.flags.map((f) => f.code)).not.toContain("modified_fit_undetermined");
+    expect(r.modifiedArrhenius).toBeNull();
+    const flag = r.flags.find((f) => f.code === "modified_fit_undetermined")!;
+    expect(flag.quantities!.sine).toBeUndefined();
+    expect(flag.quantities!.seN.value).toBeGreaterThan(5);
+    expect(flag.message).toMatch(/standard error of .* above 5, so the data do not fix n/);
+    expect(flag.message).not.toMatch(/proportional/);
   });
 });
 
