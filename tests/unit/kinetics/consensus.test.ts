@@ -570,7 +570,10 @@ describe("consensus: unit mistakes, window, exclusions, input errors", () => {
   it("handles a large dataset in one pass", () => {
     const normal = makeNormal(9);
     const c = consensus([makeSet("big", normal, { n: 200_000, T1: 200, T2: 1000 }), makeSet("small", normal)]);
-    expect(c.points).toBe(200_010);
+    // A 5 % Bonferroni outlier test over 200 000 points may leave out a point by chance, never more than a few.
+    const leftOut = member(c, "big").outliers.length + member(c, "small").outliers.length;
+    expect(leftOut).toBeLessThanOrEqual(2);
+    expect(c.points).toBe(200_010 - leftOut);
     expect(Math.abs(lnkOf(c, 400) - Math.log(evaluateRateExpression(TRUE, 400)))).toBeLessThan(0.01);
   });
 
