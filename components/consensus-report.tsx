@@ -1,5 +1,5 @@
 import { GAS_CONSTANT, type ConsensusMember, type ConsensusResult } from "@/lib/kinetics";
-import { formatSignificant } from "@/lib/format";
+import { formatRange, formatSignificant } from "@/lib/format";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
@@ -34,7 +34,7 @@ export function ConsensusSummary({
       <p className="text-sm">
         k = {sig(fit.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp(
         {fit.params.Ea >= 0 ? "−" : "+"}
-        {sig(Math.abs(fit.params.Ea) / GAS_CONSTANT, 4)} K / T) {kUnitLabel}, for {Math.round(Tmin)}–{Math.round(Tmax)} K (
+        {sig(Math.abs(fit.params.Ea) / GAS_CONSTANT, 4)} K / T) {kUnitLabel}, for {formatRange(Tmin, Tmax, "K")} (
         {modified ? "modified Arrhenius: the temperature exponent n is significant" : "Arrhenius"}).
       </p>
       <p className="text-sm text-muted">
@@ -61,8 +61,8 @@ export function ConsensusSummary({
       <div className="overflow-x-auto">
         <table className="table" aria-label="Uncertainty factor of the consensus">
           <caption className="text-left text-sm text-muted">
-            Uncertainty factor f(T): k̂/f … k̂·f covers 95 %, spread between datasets included. Outside {Math.round(Tmin)}–{Math.round(Tmax)}{" "}
-            K the consensus is an extrapolation and no uncertainty is given.
+            Uncertainty factor f(T): k̂/f … k̂·f covers 95 %, spread between datasets included. Outside {formatRange(Tmin, Tmax, "K")} the
+            consensus is an extrapolation and no uncertainty is given.
           </caption>
           <thead>
             <tr>
@@ -134,7 +134,7 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
       </h3>
       <p className="text-sm">{m.verdict}</p>
       <p className="text-xs text-muted">
-        {m.n} points, {m.Tmin !== null ? `${Math.round(m.Tmin)}–${Math.round(m.Tmax!)} K` : "no temperatures"}; summarised by its{" "}
+        {m.n} points, {m.Tmin !== null ? formatRange(m.Tmin, m.Tmax, "K") : "no temperatures"}; summarised by its{" "}
         {m.model === "modified_arrhenius"
           ? "modified Arrhenius"
           : m.model === "single_temperature"

@@ -18,6 +18,7 @@ import {
 } from "@/lib/deposits/vocabulary";
 import { SUPPORTED_UNITS, type UnitDefinition } from "@/lib/kinetics";
 import { MarkdownText } from "@/components/markdown-text";
+import { ScrollRegion } from "@/components/scroll-region";
 
 export const metadata: Metadata = { title: "Deposit format" };
 
@@ -83,7 +84,7 @@ function SchemaSection({ section }: { section: SectionDoc }) {
       </h3>
       {section.description && <p className="max-w-3xl text-sm text-muted">{section.description}</p>}
       {section.open && <p className="text-xs text-muted">Fields other than those listed are accepted and kept as given.</p>}
-      <div className="overflow-x-auto">
+      <ScrollRegion label={`Fields of ${section.title}`}>
         <table className="table">
           <thead>
             <tr>
@@ -98,7 +99,7 @@ function SchemaSection({ section }: { section: SectionDoc }) {
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
     </section>
   );
 }
@@ -271,7 +272,7 @@ export default function DepositFormatPage() {
           are listed at once. These are the real messages for a copy of the example below with a mistyped number, a negative rate constant,
           a wrong unit and the reaction order left out:
         </p>
-        <div className="overflow-x-auto">
+        <ScrollRegion label="Example of a refused document and its errors">
           <table className="table">
             <thead>
               <tr>
@@ -288,7 +289,7 @@ export default function DepositFormatPage() {
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollRegion>
       </section>
 
       <section aria-labelledby="example" className="space-y-3">
@@ -305,6 +306,7 @@ export default function DepositFormatPage() {
         <pre
           className="max-h-[40rem] overflow-auto rounded-lg border border-line bg-panel p-4 font-mono text-xs"
           tabIndex={0}
+          role="region"
           aria-label="Example deposit document (JSON)"
         >
           {JSON.stringify(EXAMPLE_DEPOSIT, null, 2)}

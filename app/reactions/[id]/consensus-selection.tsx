@@ -8,6 +8,7 @@ import {
   type ParameterError,
 } from "@/lib/reactions/consensus-selection";
 import { ExclusionControls } from "./exclusion-forms";
+import { formatRange } from "@/lib/format";
 
 const kindWords: Record<MethodKind, string> = {
   measured: "measured",
@@ -15,8 +16,6 @@ const kindWords: Record<MethodKind, string> = {
   evaluated: "evaluated",
   unknown: "method not stated",
 };
-
-const kelvin = (T: number) => Number(T.toPrecision(4));
 
 /**
  * The reader's choice of data for the consensus: a plain GET form, so the choice lives in the URL
@@ -149,7 +148,7 @@ export function WhatWentIn({
             <li key={d.versionId}>
               <Link href={`/datasets/${d.datasetId}/v${d.number}`}>{d.title}</Link> <span className="text-muted">v{d.number}</span> —{" "}
               {kindWords[d.kind]}, {d.pointsUsed === d.points ? `${d.points} points` : `${d.pointsUsed} of its ${d.points} points`},{" "}
-              {kelvin(d.Tmin)}–{kelvin(d.Tmax)} K
+              {formatRange(d.Tmin, d.Tmax, "K")}
             </li>
           ))}
         </ul>

@@ -15,7 +15,7 @@ import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { consensusLabel, parseConsensusChoice, plotPoints } from "@/lib/reactions/consensus-selection";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { getReaction, listDatasetRolesOf } from "@/lib/reactions/queries";
-import { formatSignificant } from "@/lib/format";
+import { formatRange, formatSignificant } from "@/lib/format";
 import { parseIdOrNull } from "@/lib/ids";
 import { ConsensusChoiceForm, WhatWentIn, type ExclusionRow } from "./consensus-selection";
 
@@ -153,9 +153,7 @@ export default async function ReactionPage({
                         <StateLabel state={v.state} />
                       </td>
                       <td className="font-mono text-xs">{v.versionIdentifier ?? "—"}</td>
-                      <td>
-                        {Math.round(v.tMin ?? 0)}–{Math.round(v.tMax ?? 0)}
-                      </td>
+                      <td className="whitespace-nowrap">{formatRange(v.tMin, v.tMax, "")}</td>
                       <td>{v.pointCount}</td>
                       <td>{a?.arrhenius ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
                       <td>{comparisonCell(m)}</td>
