@@ -1,5 +1,6 @@
 import { GAS_CONSTANT, type ConsensusMember, type ConsensusResult } from "@/lib/kinetics";
 import { formatRange, formatSignificant } from "@/lib/format";
+import { ScrollRegion } from "./scroll-region";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
@@ -58,7 +59,7 @@ export function ConsensusSummary({
           </>
         )}
       </p>
-      <div className="overflow-x-auto">
+      <ScrollRegion label="Uncertainty factor of the consensus (table)">
         <table className="table" aria-label="Uncertainty factor of the consensus">
           <caption className="text-left text-sm text-muted">
             Uncertainty factor f(T): k̂/f … k̂·f covers 95 %, spread between datasets included. Outside {formatRange(Tmin, Tmax, "K")} the
@@ -81,7 +82,7 @@ export function ConsensusSummary({
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
       <p className="text-sm text-muted">
         Between-dataset variance τ² = {sig(fit.tau2)} (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
       </p>
@@ -143,7 +144,7 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
         fit{m.share !== null ? `; share in the consensus at the middle of its range ${Math.round(m.share * 100)} %` : ""}.
       </p>
       {d && d.points.length > 0 && (
-        <div className="overflow-x-auto">
+        <ScrollRegion label={`${label} against the others (table)`}>
           <table className="table" aria-label={`${label} against the others`}>
             <thead>
               <tr>
@@ -167,7 +168,7 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollRegion>
       )}
     </article>
   );

@@ -59,7 +59,9 @@ for (const [role, who] of Object.entries(roles) as [keyof typeof roles, (typeof 
       await page.waitForLoadState("networkidle");
       if (path === "/analyse") {
         // The parameter tables only exist once something is fitted.
-        await page.getByLabel(/Data: temperature and rate constant/).fill("250 2.09e-15\n290 4.90e-15\n330 9.1e-15\n370 1.5e-14\n410 2.3e-14");
+        await page
+          .getByLabel(/Data: temperature and rate constant/)
+          .fill("250 2.09e-15\n290 4.90e-15\n330 9.1e-15\n370 1.5e-14\n410 2.3e-14");
         await page.getByRole("button", { name: "Fit" }).click();
         await expect(page.getByRole("heading", { name: "Result" })).toBeVisible();
       }
@@ -99,7 +101,10 @@ test("the signed-in header folds into a menu on a phone that the keyboard opens"
 test("a wide parameter table scrolls by keyboard and says so", async ({ page }) => {
   await page.setViewportSize(PHONE);
   await page.goto("/docs/api");
-  const region = page.getByRole("region").filter({ has: page.locator("table") }).first();
+  const region = page
+    .getByRole("region")
+    .filter({ has: page.locator("table") })
+    .first();
   await region.focus();
   await expect(region).toBeFocused();
   const before = await region.evaluate((el) => el.scrollLeft);
