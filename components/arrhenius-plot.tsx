@@ -1,6 +1,10 @@
 "use client";
 
-import { formatRange } from "@/lib/format";
+import { formatRange, formatSignificant } from "@/lib/format";
+import { ScrollRegion } from "./scroll-region";
+
+// Up to this many points the figure carries them as a table too; beyond, the page's downloads do.
+const TABLE_LIMIT = 500;
 import { niceScale, temperatureTicks } from "./plot-scales";
 import { Area, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 
@@ -39,7 +43,7 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
   const flagged = points.filter((p) => p.outlier).map((p) => ({ x: 1000 / p.T, y: p.lnk, T: p.T }));
   const fitName = band.model === "modified_arrhenius" ? "modified Arrhenius fit" : "Arrhenius fit";
   const Ts = points.map((p) => p.T);
-  const summary = `Arrhenius plot, ln k against 1000/T, of ${points.length} points between ${formatRange(Math.min(...Ts), Math.max(...Ts), "K")}, ln k from ${y.domain[0]} to ${y.domain[1]}, with the ${fitName}${band.lower ? " and its 95 % band" : ""}${flagged.length ? `; ${flagged.length} point${flagged.length === 1 ? "" : "s"} flagged as outliers drawn as crosses` : ""}. The fitted parameters are in the table below.`;
+  const summary = `Arrhenius plot, ln k against 1000/T, of ${points.length} points between ${formatRange(Math.min(...Ts), Math.max(...Ts), "K")}, ln k from ${y.domain[0]} to ${y.domain[1]}, with the ${fitName}${band.lower ? " and its 95 % band" : ""}${flagged.length ? `; ${flagged.length} point${flagged.length === 1 ? "" : "s"} flagged as outlier${flagged.length === 1 ? "" : "s"}, drawn as crosses` : ""}. The fitted parameters are in the table below.`;
   return (
     <figure className="space-y-2">
       <div className="h-96 w-full" role="img" aria-label={summary}>
@@ -120,9 +124,36 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
         </ResponsiveContainer>
       </div>
       <figcaption className="text-xs text-muted">
-        Circles: points used in the fit. Crosses: points flagged as outliers (still part of the fit). Shaded: 95 % confidence band of the{" "}
-        {fitName}.
+        Circles: points used in the fit. Crosses: points flagged as outliers (still part of the fit).
+        {band.lower ? ` Shaded: 95 % confidence band of the ${fitName}.` : ""}
       </figcaption>
+      {points.length <= TABLE_LIMIT && (
+        <details className="text-sm">
+          <summary className="cursor-pointer text-link">The plotted points as a table</summary>
+          <ScrollRegion label="Plotted points" scrollClassName="max-h-80 overflow-auto">
+            <table className="table">
+              <thead>
+                <tr>
+                  <th scope="col">T (K)</th>
+                  <th scope="col">1000/T (K⁻¹)</th>
+                  <th scope="col">ln k</th>
+                  <th scope="col">Flag</th>
+                </tr>
+              </thead>
+              <tbody>
+                {points.map((p, i) => (
+                  <tr key={i}>
+                    <td>{formatSignificant(p.T, 5)}</td>
+                    <td>{formatSignificant(1000 / p.T, 5)}</td>
+                    <td>{formatSignificant(p.lnk, 5)}</td>
+                    <td>{p.outlier ? "outlier" : ""}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </ScrollRegion>
+        </details>
+      )}
     </figure>
   );
 }
