@@ -32,6 +32,8 @@ export function ScrollRegion({
     if (el.firstElementChild) observer.observe(el.firstElementChild);
     return () => observer.disconnect();
   }, []);
+  // The scrolling box is positioned, so absolutely placed content (screen-reader-only labels in
+  // cells) is clipped there too instead of widening the page.
   return (
     <div className={`min-w-0 space-y-1 ${className}`}>
       <div
@@ -39,7 +41,7 @@ export function ScrollRegion({
         role="region"
         aria-label={label}
         tabIndex={0}
-        className={`${scrollClassName} rounded-sm focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-link`}
+        className={`relative ${scrollClassName} rounded-sm focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-link`}
       >
         {children}
       </div>

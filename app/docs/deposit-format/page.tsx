@@ -106,49 +106,53 @@ function SchemaSection({ section }: { section: SectionDoc }) {
 
 function UnitTable({ caption, units }: { caption: string; units: readonly UnitDefinition[] }) {
   return (
-    <table className="table">
-      <caption className="py-2 text-left font-semibold">{caption}</caption>
-      <thead>
-        <tr>
-          <th scope="col">Write</th>
-          <th scope="col">Means</th>
-          <th scope="col">Also accepted</th>
-        </tr>
-      </thead>
-      <tbody>
-        {units.map((u) => (
-          <tr key={u.id}>
-            <td className="font-mono text-xs">{u.id}</td>
-            <td>{u.label}</td>
-            <td className="font-mono text-xs text-muted">{u.aliases.join(", ") || "—"}</td>
+    <ScrollRegion label={caption}>
+      <table className="table">
+        <caption className="py-2 text-left font-semibold">{caption}</caption>
+        <thead>
+          <tr>
+            <th scope="col">Write</th>
+            <th scope="col">Means</th>
+            <th scope="col">Also accepted</th>
           </tr>
-        ))}
-      </tbody>
-    </table>
+        </thead>
+        <tbody>
+          {units.map((u) => (
+            <tr key={u.id}>
+              <td className="font-mono text-xs">{u.id}</td>
+              <td>{u.label}</td>
+              <td className="font-mono text-xs text-muted">{u.aliases.join(", ") || "—"}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </ScrollRegion>
   );
 }
 
 function VocabularyTable({ caption, rows }: { caption: string; rows: readonly { id: string; label: string; hint?: string }[] }) {
   return (
-    <table className="table">
-      <caption className="py-2 text-left font-semibold">{caption}</caption>
-      <thead>
-        <tr>
-          <th scope="col">Value</th>
-          <th scope="col">Shown as</th>
-          {rows.some((r) => r.hint) && <th scope="col">Use for</th>}
-        </tr>
-      </thead>
-      <tbody>
-        {rows.map((r) => (
-          <tr key={r.id}>
-            <td className="font-mono text-xs">{r.id}</td>
-            <td>{r.label}</td>
-            {rows.some((x) => x.hint) && <td className="text-muted">{r.hint}</td>}
+    <ScrollRegion label={caption}>
+      <table className="table">
+        <caption className="py-2 text-left font-semibold">{caption}</caption>
+        <thead>
+          <tr>
+            <th scope="col">Value</th>
+            <th scope="col">Shown as</th>
+            {rows.some((r) => r.hint) && <th scope="col">Use for</th>}
           </tr>
-        ))}
-      </tbody>
-    </table>
+        </thead>
+        <tbody>
+          {rows.map((r) => (
+            <tr key={r.id}>
+              <td className="font-mono text-xs">{r.id}</td>
+              <td>{r.label}</td>
+              {rows.some((x) => x.hint) && <td className="text-muted">{r.hint}</td>}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </ScrollRegion>
   );
 }
 
