@@ -25,6 +25,7 @@ const shapes = ["circle", "square", "triangle", "diamond", "star", "cross", "wye
 const colours = ["#22537a", "#b5541c", "#1f6b3a", "#6b3fa0", "#8a5a00", "#0f6e73", "#a3365f"];
 const CONSENSUS_INK = "#1b2430";
 const LEFT_OUT_GREY = "#8a939e";
+const BAND_GREY = "#9aa3ad";
 
 /** The marker of the i-th dataset: shape, colour, and hollow from the eighth on, so 14 datasets look different in grey too. */
 function markerOf(i: number) {
@@ -66,7 +67,7 @@ export function ConsensusPlot({
   const fit = band?.T.map((t, i) => ({ x: 1000 / t, fit: band.lnk[i], range: [band.lower[i], band.upper[i]] })) ?? [];
   return (
     <figure className="space-y-2">
-      <div className="h-[28rem] w-full" role="img" aria-label={summary}>
+      <div className="h-[36rem] w-full sm:h-[28rem]" role="img" aria-label={summary}>
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 28, right: 24, bottom: 28, left: 16 }}>
             <CartesianGrid stroke="#e6e1d6" />
@@ -112,8 +113,8 @@ export function ConsensusPlot({
                 dataKey="range"
                 name="consensus 95 % band"
                 stroke="none"
-                fill={CONSENSUS_INK}
-                fillOpacity={0.1}
+                fill={BAND_GREY}
+                fillOpacity={0.3}
                 legendType="rect"
                 isAnimationActive={false}
               />

@@ -39,24 +39,31 @@ export function niceScale(min: number, max: number, count = 5): { domain: [numbe
 
 /**
  * Round temperatures for the top axis of an Arrhenius plot whose bottom axis is 1000/T in
- * `domain` (K⁻¹), returned as positions on that axis. Temperatures are round in kelvin (steps of
- * 1, 2, 5 × 10ⁿ), thinned so that neighbouring labels stay apart on the 1/T scale.
+ * `domain` (K⁻¹), returned as positions on that axis. Temperatures are round in kelvin, thinned
+ * so that neighbouring labels stay apart on the 1/T scale.
  */
 export function temperatureTicks(domain: [number, number], count = 5): { x: number; T: number }[] {
-  const [x0, x1] = domain;
-  if (!(x0 > 0) || !(x1 > x0)) return [];
+  const x1 = domain[1];
+  // A domain that starts at 0 K⁻¹ reaches infinite T: label up to 40 times the lowest temperature.
+  const x0 = domain[0] > 0 ? domain[0] : x1 / 40;
+  if (!(x1 > x0)) return [];
   const tLow = 1000 / x1;
   const tHigh = 1000 / x0;
-  // Finer steps than count suggests: on a 1/T axis high temperatures crowd together, and are thinned below.
+  // Candidates: multiples of a round linear step (narrow ranges) and round values of every decade
+  // (wide ranges, where high temperatures crowd together on the 1/T scale).
   const step = niceStep(tHigh - tLow, count * 2);
   const decimals = decimalsOf(step);
+  const candidates = new Set<number>();
+  for (let T = Math.ceil(tLow / step - 1e-9) * step; T <= tHigh + step * 1e-9; T += step) candidates.add(Number(T.toFixed(decimals)));
+  for (let k = Math.floor(Math.log10(tLow)); k <= Math.ceil(Math.log10(tHigh)); k++) {
+    for (const m of [1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8]) candidates.add(Number((m * 10 ** k).toPrecision(6)));
+  }
   const minGap = (x1 - x0) / (count * 1.6);
   const out: { x: number; T: number }[] = [];
-  for (let T = Math.ceil(tLow / step - 1e-9) * step; T <= tHigh + step * 1e-9; T += step) {
-    const t = Number(T.toFixed(decimals));
+  // From the lowest temperature (largest 1000/T) up, a tick is kept only if it is far enough from the last kept one.
+  for (const t of [...candidates].sort((a, b) => a - b)) {
     const x = 1000 / t;
     if (x < x0 || x > x1) continue;
-    // From the lowest temperature (largest 1000/T) up, keep a tick only if it is far enough from the last kept one.
     if (out.length === 0 || Math.abs(out[out.length - 1].x - x) >= minGap) out.push({ x, T: t });
   }
   return out;

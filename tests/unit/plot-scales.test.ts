@@ -56,4 +56,10 @@ describe("temperatureTicks", () => {
     const ticks = temperatureTicks([0.5, 4]); // 250 … 2000 K
     for (let i = 1; i < ticks.length; i++) expect(Math.abs(ticks[i].x - ticks[i - 1].x)).toBeGreaterThanOrEqual(3.5 / 8);
   });
+
+  it("labels a domain that starts at 1000/T = 0 (a wide computed range) instead of giving up", () => {
+    const ticks = temperatureTicks([0, 5]);
+    expect(ticks.length).toBeGreaterThanOrEqual(3);
+    expect(ticks.every((t) => Number.isFinite(t.T) && t.x > 0 && t.x <= 5)).toBe(true);
+  });
 });
