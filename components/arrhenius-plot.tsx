@@ -1,5 +1,11 @@
 "use client";
 
+import { formatRange, formatSignificant } from "@/lib/format";
+import { ScrollRegion } from "./scroll-region";
+
+// Up to this many points the figure carries them as a table too; beyond, the page's downloads do.
+const TABLE_LIMIT = 500;
+import { niceScale, temperatureTicks } from "./plot-scales";
 import { Area, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 
 export interface PlotPoint {
@@ -16,11 +22,6 @@ export interface PlotBand {
   upper: number[] | null;
 }
 
-function niceTicks(min: number, max: number, count = 6): number[] {
-  const step = (max - min) / (count - 1);
-  return Array.from({ length: count }, (_, i) => Number((min + i * step).toPrecision(4)));
-}
-
 /**
  * Arrhenius plot: ln k against 1000/T, with T in K on the top axis. Measured points are circles;
  * points flagged as outliers are crosses (shape and colour both differ). The fitted line and its
@@ -28,9 +29,11 @@ function niceTicks(min: number, max: number, count = 6): number[] {
  */
 export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[]; band: PlotBand; kUnitLabel: string }) {
   const xs = [...points.map((p) => 1000 / p.T), ...band.T.map((t) => 1000 / t)];
-  const pad = (Math.max(...xs) - Math.min(...xs)) * 0.05 || 0.1;
-  const domain: [number, number] = [Math.min(...xs) - pad, Math.max(...xs) + pad];
-  const ticks = niceTicks(domain[0], domain[1]);
+  const x = niceScale(Math.min(...xs), Math.max(...xs));
+  const domain = x.domain;
+  const topTicks = temperatureTicks(domain);
+  const ys = [...points.map((p) => p.lnk), ...(band.lower ?? band.lnk), ...(band.upper ?? band.lnk)].filter(Number.isFinite);
+  const y = niceScale(Math.min(...ys), Math.max(...ys));
   const fit = band.T.map((t, i) => ({
     x: 1000 / t,
     fit: band.lnk[i],
@@ -39,13 +42,11 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
   const normal = points.filter((p) => !p.outlier).map((p) => ({ x: 1000 / p.T, y: p.lnk, T: p.T }));
   const flagged = points.filter((p) => p.outlier).map((p) => ({ x: 1000 / p.T, y: p.lnk, T: p.T }));
   const fitName = band.model === "modified_arrhenius" ? "modified Arrhenius fit" : "Arrhenius fit";
+  const Ts = points.map((p) => p.T);
+  const summary = `Arrhenius plot, ln k against 1000/T, of ${points.length} points between ${formatRange(Math.min(...Ts), Math.max(...Ts), "K")}, ln k from ${y.domain[0]} to ${y.domain[1]}, with the ${fitName}${band.lower ? " and its 95 % band" : ""}${flagged.length ? `; ${flagged.length} point${flagged.length === 1 ? "" : "s"} flagged as outlier${flagged.length === 1 ? "" : "s"}, drawn as crosses` : ""}. The fitted parameters are in the table below.`;
   return (
     <figure className="space-y-2">
-      <div
-        className="h-96 w-full"
-        role="img"
-        aria-label={`Arrhenius plot of ${points.length} points with the ${fitName} and its 95 % band`}
-      >
+      <div className="h-96 w-full" role="img" aria-label={summary}>
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 28, right: 24, bottom: 28, left: 16 }}>
             <CartesianGrid stroke="#e6e1d6" />
@@ -54,10 +55,10 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
               dataKey="x"
               type="number"
               domain={domain}
-              ticks={ticks}
+              ticks={x.ticks}
               allowDataOverflow
               label={{ value: "1000 / T  (K⁻¹)", position: "bottom", offset: 8 }}
-              tickFormatter={(v: number) => v.toFixed(2)}
+              tickFormatter={(v: number) => v.toFixed(x.decimals)}
             />
             <XAxis
               xAxisId="T"
@@ -65,16 +66,17 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
               type="number"
               orientation="top"
               domain={domain}
-              ticks={ticks}
+              ticks={topTicks.map((t) => t.x)}
               allowDataOverflow
-              tickFormatter={(v: number) => (1000 / v).toFixed(0)}
+              tickFormatter={(v: number) => String(topTicks.find((t) => Math.abs(t.x - v) < 1e-9)?.T ?? Math.round(1000 / v))}
               label={{ value: "T  (K)", position: "top", offset: 8 }}
             />
             <YAxis
               dataKey="y"
               type="number"
-              domain={["auto", "auto"]}
-              tickFormatter={(v: number) => v.toFixed(1)}
+              domain={y.domain}
+              ticks={y.ticks}
+              tickFormatter={(v: number) => v.toFixed(y.decimals).replace("-", "\u2212")}
               label={{ value: `ln k  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
               width={80}
             />
@@ -122,9 +124,36 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
         </ResponsiveContainer>
       </div>
       <figcaption className="text-xs text-muted">
-        Circles: points used in the fit. Crosses: points flagged as outliers (still part of the fit). Shaded: 95 % confidence band of the{" "}
-        {fitName}.
+        Circles: points used in the fit. Crosses: points flagged as outliers (still part of the fit).
+        {band.lower ? ` Shaded: 95 % confidence band of the ${fitName}.` : ""}
       </figcaption>
+      {points.length <= TABLE_LIMIT && (
+        <details className="text-sm">
+          <summary className="cursor-pointer text-link">The plotted points as a table</summary>
+          <ScrollRegion label="Plotted points" scrollClassName="max-h-80 overflow-auto">
+            <table className="table">
+              <thead>
+                <tr>
+                  <th scope="col">T (K)</th>
+                  <th scope="col">1000/T (K⁻¹)</th>
+                  <th scope="col">ln k</th>
+                  <th scope="col">Flag</th>
+                </tr>
+              </thead>
+              <tbody>
+                {points.map((p, i) => (
+                  <tr key={i}>
+                    <td>{formatSignificant(p.T, 5)}</td>
+                    <td>{formatSignificant(1000 / p.T, 5)}</td>
+                    <td>{formatSignificant(p.lnk, 5)}</td>
+                    <td>{p.outlier ? "outlier" : ""}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </ScrollRegion>
+        </details>
+      )}
     </figure>
   );
 }

@@ -1,5 +1,7 @@
 "use client";
 
+import { formatRange } from "@/lib/format";
+import { niceScale, temperatureTicks } from "./plot-scales";
 import { Area, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 
 export interface SeriesPoints {
@@ -19,34 +21,53 @@ export interface SeriesPoints {
 }
 
 const shapes = ["circle", "square", "triangle", "diamond", "star", "cross", "wye"] as const;
-const colours = ["#22537a", "#8f4419", "#1f6b3a", "#6b3fa0", "#8a5a00", "#0f6e73", "#7a2a4a"];
+// Dataset colours; none is the consensus's ink, and the shape (then filled or hollow) tells datasets apart without colour.
+const colours = ["#22537a", "#b5541c", "#1f6b3a", "#6b3fa0", "#8a5a00", "#0f6e73", "#a3365f"];
+const CONSENSUS_INK = "#1b2430";
+const LEFT_OUT_GREY = "#8a939e";
+const BAND_GREY = "#9aa3ad";
+
+/** The marker of the i-th dataset: shape, colour, and hollow from the eighth on, so 14 datasets look different in grey too. */
+function markerOf(i: number) {
+  return { shape: shapes[i % shapes.length], colour: colours[i % colours.length], hollow: Math.floor(i / shapes.length) % 2 === 1 };
+}
 
 /** Every public dataset of a reaction on one Arrhenius plot, each with its own shape, and the consensus band. */
 export function ConsensusPlot({
   series,
   band,
   kUnitLabel,
+  tableHref,
 }: {
   series: SeriesPoints[];
   band: { T: number[]; lnk: number[]; lower: number[]; upper: number[] } | null;
   kUnitLabel: string;
+  /** Where the same data are given as a table (the text alternative links to it). */
+  tableHref?: string;
 }) {
   const xs = [...series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => 1000 / p.T)), ...(band?.T.map((t) => 1000 / t) ?? [])];
   const unusedCount = series.reduce((n, s) => n + (s.excluded ? 0 : (s.unused?.length ?? 0)), 0);
   if (!xs.length) return null;
-  const pad = (Math.max(...xs) - Math.min(...xs)) * 0.05 || 0.1;
-  const domain: [number, number] = [Math.min(...xs) - pad, Math.max(...xs) + pad];
-  const ticks = Array.from({ length: 6 }, (_, i) => Number((domain[0] + (i * (domain[1] - domain[0])) / 5).toPrecision(4)));
+  const x = niceScale(Math.min(...xs), Math.max(...xs));
+  const domain = x.domain;
+  const topTicks = temperatureTicks(domain);
+  const ys = [
+    ...series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => p.lnk)),
+    ...(band ? [...band.lower, ...band.upper] : []),
+  ].filter(Number.isFinite);
+  const y = niceScale(Math.min(...ys), Math.max(...ys));
+  const Ts = series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => p.T));
+  const summary = `Arrhenius plot, ln k against 1000/T, of ${series.length} dataset${series.length === 1 ? "" : "s"} between ${formatRange(
+    Math.min(...Ts),
+    Math.max(...Ts),
+    "K",
+  )}${band ? ", with the consensus as a dashed line and its 95 % band" : ", without a consensus line"}${
+    unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn hollow` : ""
+  }.`;
   const fit = band?.T.map((t, i) => ({ x: 1000 / t, fit: band.lnk[i], range: [band.lower[i], band.upper[i]] })) ?? [];
   return (
     <figure className="space-y-2">
-      <div
-        className="h-[28rem] w-full"
-        role="img"
-        aria-label={`Arrhenius plot of ${series.length} datasets${band ? " with the consensus fit and its 95 % band" : ""}${
-          unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn hollow` : ""
-        }`}
-      >
+      <div className="h-[36rem] w-full sm:h-[28rem]" role="img" aria-label={summary}>
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 28, right: 24, bottom: 28, left: 16 }}>
             <CartesianGrid stroke="#e6e1d6" />
@@ -55,9 +76,9 @@ export function ConsensusPlot({
               dataKey="x"
               type="number"
               domain={domain}
-              ticks={ticks}
+              ticks={x.ticks}
               allowDataOverflow
-              tickFormatter={(v: number) => v.toFixed(2)}
+              tickFormatter={(v: number) => v.toFixed(x.decimals)}
               label={{ value: "1000 / T  (K⁻¹)", position: "bottom", offset: 8 }}
             />
             <XAxis
@@ -66,17 +87,18 @@ export function ConsensusPlot({
               type="number"
               orientation="top"
               domain={domain}
-              ticks={ticks}
+              ticks={topTicks.map((t) => t.x)}
               allowDataOverflow
-              tickFormatter={(v: number) => (1000 / v).toFixed(0)}
+              tickFormatter={(v: number) => String(topTicks.find((t) => Math.abs(t.x - v) < 1e-9)?.T ?? Math.round(1000 / v))}
               label={{ value: "T  (K)", position: "top", offset: 8 }}
             />
             <YAxis
               dataKey="y"
               type="number"
-              domain={["auto", "auto"]}
-              tickFormatter={(v: number) => v.toFixed(1)}
-              width={80}
+              domain={y.domain}
+              ticks={y.ticks}
+              tickFormatter={(v: number) => v.toFixed(y.decimals).replace("-", "\u2212")}
+              width={72}
               label={{ value: `ln k  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
             />
             <Tooltip
@@ -91,8 +113,9 @@ export function ConsensusPlot({
                 dataKey="range"
                 name="consensus 95 % band"
                 stroke="none"
-                fill="#8f4419"
-                fillOpacity={0.12}
+                fill={BAND_GREY}
+                fillOpacity={0.3}
+                legendType="rect"
                 isAnimationActive={false}
               />
             )}
@@ -101,25 +124,34 @@ export function ConsensusPlot({
                 xAxisId="inv"
                 data={fit}
                 dataKey="fit"
-                name="consensus"
-                stroke="#8f4419"
-                strokeWidth={2}
+                name="consensus (dashed)"
+                stroke={CONSENSUS_INK}
+                strokeWidth={2.5}
+                strokeDasharray="8 4"
+                legendType="plainline"
                 dot={false}
                 isAnimationActive={false}
               />
             )}
-            {series.map((s, i) => (
-              <Scatter
-                key={s.label}
-                xAxisId="inv"
-                name={s.excluded ? `${s.label} (left out)` : s.off ? `${s.label} (off the others)` : s.label}
-                data={(s.excluded ? [...s.points, ...(s.unused ?? [])] : s.points).map((p) => ({ x: 1000 / p.T, y: p.lnk }))}
-                dataKey="y"
-                shape={shapes[i % shapes.length]}
-                fill={s.excluded ? "#9aa3ad" : colours[i % colours.length]}
-                isAnimationActive={false}
-              />
-            ))}
+            {series.map((s, i) => {
+              const m = markerOf(i);
+              const colour = s.excluded ? LEFT_OUT_GREY : m.colour;
+              return (
+                <Scatter
+                  key={s.label}
+                  xAxisId="inv"
+                  name={s.excluded ? `${s.label} (left out)` : s.off ? `${s.label} (off the others)` : s.label}
+                  data={(s.excluded ? [...s.points, ...(s.unused ?? [])] : s.points).map((p) => ({ x: 1000 / p.T, y: p.lnk }))}
+                  dataKey="y"
+                  shape={m.shape}
+                  legendType={m.shape}
+                  fill={m.hollow ? "#ffffff" : colour}
+                  stroke={colour}
+                  strokeWidth={m.hollow ? 1.5 : 0}
+                  isAnimationActive={false}
+                />
+              );
+            })}
             {series.map((s, i) =>
               !s.excluded && s.unused?.length ? (
                 <Scatter
@@ -128,10 +160,11 @@ export function ConsensusPlot({
                   name={`${s.label}: ${s.unused.length} point${s.unused.length === 1 ? "" : "s"} not used (${s.unusedWhy ?? "outside the window"}), hollow`}
                   data={s.unused.map((p) => ({ x: 1000 / p.T, y: p.lnk }))}
                   dataKey="y"
-                  shape={shapes[i % shapes.length]}
-                  fill={colours[i % colours.length]}
+                  shape={markerOf(i).shape}
+                  legendType={markerOf(i).shape}
+                  fill={markerOf(i).colour}
                   fillOpacity={0.1}
-                  stroke={colours[i % colours.length]}
+                  stroke={markerOf(i).colour}
                   strokeOpacity={0.7}
                   strokeDasharray="2 1"
                   isAnimationActive={false}
@@ -142,10 +175,18 @@ export function ConsensusPlot({
         </ResponsiveContainer>
       </div>
       <figcaption className="text-xs text-muted">
-        Each dataset has its own marker shape. Shaded: 95 % band of the consensus, including the spread between datasets, drawn only over
-        the temperatures the datasets cover.
+        Each dataset has its own marker shape{series.length > shapes.length ? " (filled, then hollow)" : ""}.
+        {band
+          ? " Dashed dark line: the consensus; shaded: its 95 % band, including the spread between datasets, drawn only over the temperatures the datasets cover."
+          : " No consensus line: this choice of data gives no consensus."}
         {unusedCount > 0 &&
           " Hollow, faded markers of a dataset's shape are its points the consensus does not use: outside the chosen temperature window, or outliers of the dataset's own fit; the legend names them per dataset."}
+        {tableHref && (
+          <>
+            {" "}
+            <a href={tableHref}>The same datasets as a table</a>.
+          </>
+        )}
       </figcaption>
     </figure>
   );

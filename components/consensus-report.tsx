@@ -1,5 +1,6 @@
 import { GAS_CONSTANT, type ConsensusMember, type ConsensusResult } from "@/lib/kinetics";
-import { formatSignificant } from "@/lib/format";
+import { formatRange, formatSignificant } from "@/lib/format";
+import { ScrollRegion } from "./scroll-region";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
@@ -34,7 +35,7 @@ export function ConsensusSummary({
       <p className="text-sm">
         k = {sig(fit.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp(
         {fit.params.Ea >= 0 ? "−" : "+"}
-        {sig(Math.abs(fit.params.Ea) / GAS_CONSTANT, 4)} K / T) {kUnitLabel}, for {Math.round(Tmin)}–{Math.round(Tmax)} K (
+        {sig(Math.abs(fit.params.Ea) / GAS_CONSTANT, 4)} K / T) {kUnitLabel}, for {formatRange(Tmin, Tmax, "K")} (
         {modified ? "modified Arrhenius: the temperature exponent n is significant" : "Arrhenius"}).
       </p>
       <p className="text-sm text-muted">
@@ -58,11 +59,11 @@ export function ConsensusSummary({
           </>
         )}
       </p>
-      <div className="overflow-x-auto">
+      <ScrollRegion label="Uncertainty factor of the consensus (table)">
         <table className="table" aria-label="Uncertainty factor of the consensus">
           <caption className="text-left text-sm text-muted">
-            Uncertainty factor f(T): k̂/f … k̂·f covers 95 %, spread between datasets included. Outside {Math.round(Tmin)}–{Math.round(Tmax)}{" "}
-            K the consensus is an extrapolation and no uncertainty is given.
+            Uncertainty factor f(T): k̂/f … k̂·f covers 95 %, spread between datasets included. Outside {formatRange(Tmin, Tmax, "K")} the
+            consensus is an extrapolation and no uncertainty is given.
           </caption>
           <thead>
             <tr>
@@ -81,7 +82,7 @@ export function ConsensusSummary({
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
       <p className="text-sm text-muted">
         Between-dataset variance τ² = {sig(fit.tau2)} (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
       </p>
@@ -134,7 +135,7 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
       </h3>
       <p className="text-sm">{m.verdict}</p>
       <p className="text-xs text-muted">
-        {m.n} points, {m.Tmin !== null ? `${Math.round(m.Tmin)}–${Math.round(m.Tmax!)} K` : "no temperatures"}; summarised by its{" "}
+        {m.n} points, {m.Tmin !== null ? formatRange(m.Tmin, m.Tmax, "K") : "no temperatures"}; summarised by its{" "}
         {m.model === "modified_arrhenius"
           ? "modified Arrhenius"
           : m.model === "single_temperature"
@@ -150,7 +151,7 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
         </p>
       )}
       {d && d.points.length > 0 && (
-        <div className="overflow-x-auto">
+        <ScrollRegion label={`${label} against the others (table)`}>
           <table className="table" aria-label={`${label} against the others`}>
             <thead>
               <tr>
@@ -174,7 +175,7 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollRegion>
       )}
     </article>
   );

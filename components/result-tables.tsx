@@ -3,14 +3,17 @@
 import type { AnalysisResult, Flag, ReactionOrder } from "@/lib/kinetics/types";
 import { describeExtrapolation, formatFlagMessage } from "@/lib/kinetics/flag-text";
 import { formatSignificant } from "@/lib/format";
+import { convertEntropy, energyQuantityLabel, entropyQuantityLabel } from "@/lib/unit-labels";
+import { displayConversion } from "@/lib/kinetics/units";
+import { ScrollRegion } from "./scroll-region";
 
 interface Props {
   analysis: AnalysisResult;
   order: ReactionOrder;
   kUnit: string;
   kLabel: string;
+  /** Energy unit id; every energy and entropy label is written from it (lib/unit-labels.ts). */
   energyUnit: string;
-  energyLabel: string;
   convertK: (k: number) => number;
   convertE: (joulesPerMole: number) => number;
   /** Unit id temperatures in the checks are written in ("K" unless given). */
@@ -34,7 +37,6 @@ export function ResultTables({
   analysis,
   kLabel,
   energyUnit,
-  energyLabel,
   convertK,
   convertE,
   temperatureUnit = "K",
@@ -48,143 +50,147 @@ export function ResultTables({
   // A's uncertainty is multiplicative: A ×/÷ exp(se(ln A)).
   const factor = (se: number | null) => (se === null ? "—" : `×/÷ ${sig(Math.exp(se), 3)}`);
   const k = (v: number | null) => sig(v === null ? null : convertK(v));
+  const energy = (symbol: string) => energyQuantityLabel(symbol, energyUnit);
+  const entropy = (v: number | null) => (v === null ? null : displayConversion(() => convertEntropy(v, energyUnit)));
   const interval = (lower: number | null, upper: number | null) =>
     `95 %: ${sig(lower === null ? null : convertK(lower), 3)} … ${sig(upper === null ? null : convertK(upper), 3)}`;
   return (
     <div className="grid gap-6 lg:grid-cols-2">
-      <section aria-labelledby="params-heading" className="card space-y-3 overflow-x-auto">
+      <section aria-labelledby="params-heading" className="card min-w-0 space-y-3">
         <h3 id="params-heading" className="text-lg font-semibold">
           Fitted parameters
         </h3>
-        <table className="table [&_td]:whitespace-nowrap">
-          <caption className="sr-only">Parameters of each model with standard errors</caption>
-          <thead>
-            <tr>
-              <th scope="col">Quantity</th>
-              <th scope="col">Value</th>
-              <th scope="col">Standard error</th>
-            </tr>
-          </thead>
-          <tbody>
-            <tr>
-              <th scope="row" colSpan={3} className="bg-paper">
-                Arrhenius k = A exp(−Ea/RT){analysis.weighted ? " — weighted by stated uncertainties" : ""}
-              </th>
-            </tr>
-            <tr>
-              <td>A ({kLabel})</td>
-              <td>{sig(a.params.A === null ? null : convertK(a.params.A))}</td>
-              <td>{factor(a.se.lnA)}</td>
-            </tr>
-            <tr>
-              <td>Ea ({energyLabel})</td>
-              <td>{sig(convertE(a.params.Ea))}</td>
-              <td>{a.se.Ea === null ? "—" : sig(convertE(a.se.Ea), 2)}</td>
-            </tr>
-            <tr>
-              <td>
-                k(298.15 K) ({kLabel})
-                {a.k298.extrapolation && (
-                  <span className="block whitespace-normal text-xs text-warn">{describeExtrapolation(a.k298.extrapolation)}</span>
-                )}
-              </td>
-              <td>
-                {k(a.k298.value)}
-                {a.k298.extrapolated && <span className="text-warn"> (extrapolated)</span>}
-              </td>
-              <td>{interval(a.k298.lower, a.k298.upper)}</td>
-            </tr>
-            <tr>
-              <td>
-                k({sig(a.kMid.T)} K), middle of the range in 1/T ({kLabel})
-              </td>
-              <td>{k(a.kMid.value)}</td>
-              <td>{interval(a.kMid.lower, a.kMid.upper)}</td>
-            </tr>
-            <tr>
-              <td>R² / dof</td>
-              <td colSpan={2}>
-                {sig(a.r2, 5)} / {a.dof}
-              </td>
-            </tr>
-            <tr>
-              <td>Residual spread</td>
-              <td colSpan={2} className="whitespace-normal">
-                SD of ln k residuals {sig(a.residualSDLnK, 3)}
-                {analysis.weighted && ` · √(χ²/dof) ${sig(a.scaleFactor, 3)} (in units of the stated uncertainties)`}
-              </td>
-            </tr>
-            {m && (
-              <>
-                <tr>
-                  <th scope="row" colSpan={3} className="bg-paper">
-                    Modified Arrhenius k = A (T/{m.params.T0} K)ⁿ exp(−Ea/RT)
-                  </th>
-                </tr>
-                <tr>
-                  <td>A ({kLabel})</td>
-                  <td>{sig(m.params.A === null ? null : convertK(m.params.A))}</td>
-                  <td>{factor(m.se.lnA)}</td>
-                </tr>
-                <tr>
-                  <td>n</td>
-                  <td>{sig(m.params.n)}</td>
-                  <td>{sig(m.se.n, 2)}</td>
-                </tr>
-                <tr>
-                  <td>Ea ({energyLabel})</td>
-                  <td>{sig(convertE(m.params.Ea))}</td>
-                  <td>{m.se.Ea === null ? "—" : sig(convertE(m.se.Ea), 2)}</td>
-                </tr>
-              </>
-            )}
-            {e && (
-              <>
-                <tr>
-                  <th scope="row" colSpan={3} className="bg-paper">
-                    Eyring (κ = 1)
-                  </th>
-                </tr>
-                <tr>
-                  <td>ΔH‡ ({energyLabel})</td>
-                  <td>{sig(convertE(e.params.dH))}</td>
-                  <td>{e.se.dH === null ? "—" : sig(convertE(e.se.dH), 2)}</td>
-                </tr>
-                <tr>
-                  <td>ΔS‡ (J mol⁻¹ K⁻¹)</td>
-                  <td>{sig(e.params.dS)}</td>
-                  <td>{sig(e.se.dS, 2)}</td>
-                </tr>
-                <tr>
-                  <td colSpan={3} className="text-xs text-muted">
-                    {e.convention}
-                  </td>
-                </tr>
-              </>
-            )}
-            {c && (
-              <>
-                <tr>
-                  <th scope="row" colSpan={3} className="bg-paper">
-                    Curvature test (modified against plain Arrhenius)
-                  </th>
-                </tr>
-                <tr>
-                  <td>
-                    F ({c.dfNum}, {c.dfDenom}) / p
-                  </td>
-                  <td colSpan={2}>
-                    {sig(c.F, 3)} / {sig(c.p, 2)}
-                  </td>
-                </tr>
-                <tr>
-                  <td>ΔAICc (modified − plain)</td>
-                  <td colSpan={2}>{sig(c.deltaAICc, 3)}</td>
-                </tr>
-              </>
-            )}
-          </tbody>
-        </table>
+        <ScrollRegion label="Fitted parameters (scrollable table)">
+          <table className="table [&_td]:whitespace-nowrap">
+            <caption className="sr-only">Parameters of each model with standard errors</caption>
+            <thead>
+              <tr>
+                <th scope="col">Quantity</th>
+                <th scope="col">Value</th>
+                <th scope="col">Standard error</th>
+              </tr>
+            </thead>
+            <tbody>
+              <tr>
+                <th scope="row" colSpan={3} className="bg-paper">
+                  Arrhenius k = A exp(−Ea/RT){analysis.weighted ? " — weighted by stated uncertainties" : ""}
+                </th>
+              </tr>
+              <tr>
+                <td>A ({kLabel})</td>
+                <td>{sig(a.params.A === null ? null : convertK(a.params.A))}</td>
+                <td>{factor(a.se.lnA)}</td>
+              </tr>
+              <tr>
+                <td>{energy("Ea")}</td>
+                <td>{sig(convertE(a.params.Ea))}</td>
+                <td>{a.se.Ea === null ? "—" : sig(convertE(a.se.Ea), 2)}</td>
+              </tr>
+              <tr>
+                <td>
+                  k(298.15 K) ({kLabel})
+                  {a.k298.extrapolation && (
+                    <span className="block whitespace-normal text-xs text-warn">{describeExtrapolation(a.k298.extrapolation)}</span>
+                  )}
+                </td>
+                <td>
+                  {k(a.k298.value)}
+                  {a.k298.extrapolated && <span className="text-warn"> (extrapolated)</span>}
+                </td>
+                <td>{interval(a.k298.lower, a.k298.upper)}</td>
+              </tr>
+              <tr>
+                <td>
+                  k({sig(a.kMid.T)} K), middle of the range in 1/T ({kLabel})
+                </td>
+                <td>{k(a.kMid.value)}</td>
+                <td>{interval(a.kMid.lower, a.kMid.upper)}</td>
+              </tr>
+              <tr>
+                <td>R² / dof</td>
+                <td colSpan={2}>
+                  {sig(a.r2, 5)} / {a.dof}
+                </td>
+              </tr>
+              <tr>
+                <td>Residual spread</td>
+                <td colSpan={2} className="whitespace-normal">
+                  SD of ln k residuals {sig(a.residualSDLnK, 3)}
+                  {analysis.weighted && ` · √(χ²/dof) ${sig(a.scaleFactor, 3)} (in units of the stated uncertainties)`}
+                </td>
+              </tr>
+              {m && (
+                <>
+                  <tr>
+                    <th scope="row" colSpan={3} className="bg-paper">
+                      Modified Arrhenius k = A (T/{m.params.T0} K)ⁿ exp(−Ea/RT)
+                    </th>
+                  </tr>
+                  <tr>
+                    <td>A ({kLabel})</td>
+                    <td>{sig(m.params.A === null ? null : convertK(m.params.A))}</td>
+                    <td>{factor(m.se.lnA)}</td>
+                  </tr>
+                  <tr>
+                    <td>n</td>
+                    <td>{sig(m.params.n)}</td>
+                    <td>{sig(m.se.n, 2)}</td>
+                  </tr>
+                  <tr>
+                    <td>{energy("Ea")}</td>
+                    <td>{sig(convertE(m.params.Ea))}</td>
+                    <td>{m.se.Ea === null ? "—" : sig(convertE(m.se.Ea), 2)}</td>
+                  </tr>
+                </>
+              )}
+              {e && (
+                <>
+                  <tr>
+                    <th scope="row" colSpan={3} className="bg-paper">
+                      Eyring (κ = 1)
+                    </th>
+                  </tr>
+                  <tr>
+                    <td>{energy("ΔH‡")}</td>
+                    <td>{sig(convertE(e.params.dH))}</td>
+                    <td>{e.se.dH === null ? "—" : sig(convertE(e.se.dH), 2)}</td>
+                  </tr>
+                  <tr>
+                    <td>{entropyQuantityLabel("ΔS‡", energyUnit)}</td>
+                    <td>{sig(entropy(e.params.dS))}</td>
+                    <td>{sig(entropy(e.se.dS), 2)}</td>
+                  </tr>
+                  <tr>
+                    <td colSpan={3} className="text-xs text-muted">
+                      {e.convention}
+                    </td>
+                  </tr>
+                </>
+              )}
+              {c && (
+                <>
+                  <tr>
+                    <th scope="row" colSpan={3} className="bg-paper">
+                      Curvature test (modified against plain Arrhenius)
+                    </th>
+                  </tr>
+                  <tr>
+                    <td>
+                      F ({c.dfNum}, {c.dfDenom}) / p
+                    </td>
+                    <td colSpan={2}>
+                      {sig(c.F, 3)} / {sig(c.p, 2)}
+                    </td>
+                  </tr>
+                  <tr>
+                    <td>ΔAICc (modified − plain)</td>
+                    <td colSpan={2}>{sig(c.deltaAICc, 3)}</td>
+                  </tr>
+                </>
+              )}
+            </tbody>
+          </table>
+        </ScrollRegion>
       </section>
       <section aria-labelledby="flags-heading" className="card space-y-3">
         <h3 id="flags-heading" className="text-lg font-semibold">

@@ -1,12 +1,12 @@
 import Link from "next/link";
 import { can } from "@/lib/auth/permissions";
 import { getCurrentUser } from "@/lib/auth/session";
-import { SignOutButton } from "./sign-out-button";
+import { MainNav, type NavLink } from "./main-nav";
 
 /** Product name, search, and the links the signed-in role may use. */
 export async function SiteHeader() {
   const user = await getCurrentUser();
-  const links: { href: string; label: string }[] = [
+  const links: NavLink[] = [
     { href: "/reactions", label: "Reactions" },
     { href: "/analyse", label: "Fit data" },
   ];
@@ -21,10 +21,15 @@ export async function SiteHeader() {
   return (
     <header className="border-b border-line bg-panel">
       <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-3 px-4 py-3 sm:px-6">
-        <Link href="/" className="font-serif text-xl font-semibold text-ink no-underline hover:no-underline">
+        <Link href="/" className="mr-auto font-serif text-xl sm:mr-0 font-semibold text-ink no-underline hover:no-underline">
           Arrhenia
         </Link>
-        <form action="/search" method="get" role="search" className="flex min-w-48 flex-1 items-center">
+        <form
+          action="/search"
+          method="get"
+          role="search"
+          className="order-last flex w-full items-center sm:order-none sm:w-auto sm:min-w-48 sm:flex-1"
+        >
           <label htmlFor="site-search" className="sr-only">
             Search datasets
           </label>
@@ -36,28 +41,7 @@ export async function SiteHeader() {
             className="field-input max-w-md"
           />
         </form>
-        <nav aria-label="Main" className="flex items-center gap-4 text-sm">
-          {links.map((l) => (
-            <Link key={l.href} href={l.href}>
-              {l.label}
-            </Link>
-          ))}
-          {user ? (
-            <>
-              <span className="text-muted" title={user.email}>
-                {user.name} <span className="rounded-sm bg-paper px-1.5 py-0.5 text-xs">{user.role}</span>
-              </span>
-              <SignOutButton />
-            </>
-          ) : (
-            <>
-              <Link href="/sign-in">Sign in</Link>
-              <Link href="/sign-up" className="btn-primary no-underline hover:no-underline">
-                Create account
-              </Link>
-            </>
-          )}
-        </nav>
+        <MainNav links={links} user={user ? { name: user.name, email: user.email, role: user.role } : null} />
       </div>
     </header>
   );

@@ -57,7 +57,6 @@ export function VersionFit({
         kUnit={kUnit}
         kLabel={kUnits.find((u) => u.id === kUnit)?.label ?? kUnit}
         energyUnit={energyUnit}
-        energyLabel={SUPPORTED_UNITS.energy.find((u) => u.id === energyUnit)?.label ?? energyUnit}
         convertK={(k) => displayConversion(() => fromCanonicalRateConstant(k, kUnit, order))}
         convertE={(e) => displayConversion(() => convertEnergy(e, "J mol-1", energyUnit))}
         lineOf={(i) => i + 1}

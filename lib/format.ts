@@ -1,10 +1,41 @@
+/** The minus sign (U+2212) a reader sees; "-" is a hyphen. */
+export const MINUS = "\u2212";
+
 /**
  * A number to `digits` significant digits for tables: exponent form outside 0.001…100 000,
- * "—" for a missing or non-finite value. The same on server and client.
+ * "—" for a missing or non-finite value, negative values with a true minus sign. The same on
+ * server and client.
  */
 export function formatSignificant(v: number | null | undefined, digits = 4): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return "—";
   if (v === 0) return "0";
   const a = Math.abs(v);
-  return a >= 1e5 || a < 1e-3 ? v.toExponential(digits - 1) : v.toPrecision(digits);
+  return (a >= 1e5 || a < 1e-3 ? v.toExponential(digits - 1) : v.toPrecision(digits)).replace(/-/g, MINUS);
+}
+
+/**
+ * Both ends of a range written alike: the same number of decimals, chosen so that the end of
+ * larger magnitude has `digits` significant digits (at most 3 decimals, less the trailing zeros
+ * both ends share), a true minus sign, and
+ * "a to b" when an end is negative ("−248.2 to −98.2 °C", where an en dash would read as a minus),
+ * "a–b" otherwise. One value when both ends round to the same text.
+ *
+ * @example formatRange(-248.15, -98.15, "°C") // "−248.2 to −98.2 °C"; formatRange(250, 400, "K") // "250–400 K"
+ */
+export function formatRange(lo: number | null | undefined, hi: number | null | undefined, unit: string, digits = 4): string {
+  if (lo === null || lo === undefined || hi === null || hi === undefined || !Number.isFinite(lo) || !Number.isFinite(hi)) return "—";
+  const big = Math.max(Math.abs(lo), Math.abs(hi));
+  let decimals = big === 0 ? 0 : Math.min(3, Math.max(0, digits - 1 - Math.floor(Math.log10(big))));
+  const text = (v: number) => {
+    // Halves round away from zero after the binary noise is dropped: −248.15 → −248.2, as a reader rounds.
+    const scaled = Math.round(Number((Math.abs(v) * 10 ** decimals).toPrecision(12)));
+    const s = (scaled / 10 ** decimals).toFixed(decimals);
+    return scaled === 0 || v >= 0 ? s : `${MINUS}${s}`;
+  };
+  // Zeros both ends share at the end say nothing: 250.0–400.0 K is 250–400 K.
+  while (decimals > 0 && text(lo).endsWith("0") && text(hi).endsWith("0")) decimals--;
+  const [a, b] = [text(lo), text(hi)];
+  const space = unit === "" ? "" : ` ${unit}`;
+  if (a === b) return `${a}${space}`;
+  return lo < 0 || hi < 0 ? `${a} to ${b}${space}` : `${a}–${b}${space}`;
 }

@@ -200,7 +200,6 @@ export function AnalyseWorkbench() {
             kUnit={kUnit}
             kLabel={kLabel}
             energyUnit={energyUnit}
-            energyLabel={SUPPORTED_UNITS.energy.find((u) => u.id === energyUnit)?.label ?? energyUnit}
             convertK={(k) => displayConversion(() => fromCanonicalRateConstant(k, kUnit, order))}
             convertE={(e) => displayConversion(() => convertEnergy(e, "J mol-1", energyUnit))}
             temperatureUnit={TUnit}

@@ -5,14 +5,10 @@ import { ROLE_WORDS } from "@/components/deposit-editor/words";
 import { SeverityLabel, StateLabel } from "@/components/state-label";
 import { requirePagePermission } from "@/lib/auth/page-guard";
 import { listMyVersions } from "@/lib/datasets/queries";
+import { ScrollRegion } from "@/components/scroll-region";
+import { formatRange } from "@/lib/format";
 
 export const metadata: Metadata = { title: "My deposits" };
-
-function temperatureRange(tMin: number | null, tMax: number | null): string {
-  if (tMin === null || tMax === null) return "—";
-  const f = (t: number) => String(Math.round(t * 10) / 10);
-  return tMin === tMax ? `${f(tMin)} K` : `${f(tMin)}–${f(tMax)} K`;
-}
 
 export default async function MyDepositsPage() {
   const user = await requirePagePermission("dataset.deposit", "/deposits");
@@ -37,7 +33,7 @@ export default async function MyDepositsPage() {
           </p>
         </div>
       ) : (
-        <div className="card overflow-x-auto p-0">
+        <ScrollRegion label="Your datasets" className="card p-0">
           <table className="table">
             <caption className="sr-only">Your datasets, most recently changed first</caption>
             <thead>
@@ -69,7 +65,7 @@ export default async function MyDepositsPage() {
                     <SeverityLabel severity={v.worstFlag} />
                   </td>
                   <td className="text-right tabular-nums">{v.pointCount.toLocaleString("en")}</td>
-                  <td className="whitespace-nowrap">{temperatureRange(v.tMin, v.tMax)}</td>
+                  <td className="whitespace-nowrap">{formatRange(v.tMin, v.tMax, "K")}</td>
                   <td className="whitespace-nowrap">
                     <DateTime value={v.updatedAt} />
                   </td>
@@ -77,7 +73,7 @@ export default async function MyDepositsPage() {
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollRegion>
       )}
     </div>
   );

@@ -5,6 +5,8 @@ import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { SeverityLabel, StateLabel } from "@/components/state-label";
 import { REACTION_CLASSES } from "@/lib/deposits/vocabulary";
+import { ScrollRegion } from "@/components/scroll-region";
+import { formatRange } from "@/lib/format";
 
 export interface QueueRow {
   versionId: number;
@@ -49,7 +51,7 @@ const columns = [
   col.display({
     id: "range",
     header: "T range (K)",
-    cell: (c) => (c.row.original.tMin === null ? "—" : `${Math.round(c.row.original.tMin)}–${Math.round(c.row.original.tMax ?? 0)}`),
+    cell: (c) => formatRange(c.row.original.tMin, c.row.original.tMax, ""),
   }),
   col.accessor("submittedAt", { header: "Submitted (waiting for)", cell: (c) => age(c.getValue()), enableSorting: true }),
 ];
@@ -102,7 +104,7 @@ export function QueueTable({
 
   return (
     <div className="space-y-3">
-      <div className="card overflow-x-auto p-0">
+      <ScrollRegion label="Review queue" className="card p-0">
         <table className="table">
           <thead>
             {table.getHeaderGroups().map((hg) => (
@@ -143,7 +145,7 @@ export function QueueTable({
             )}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
       <nav aria-label="Pages" className="flex items-center gap-3 text-sm">
         <button type="button" className="btn-secondary py-1" disabled={page <= 1} onClick={() => go({ page: String(page - 1) })}>
           Previous

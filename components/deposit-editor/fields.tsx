@@ -250,7 +250,7 @@ export function GroupMessages({ pointer }: { pointer: string }) {
 /** A section of the editor: a fieldset with a visible legend and an anchor for the error summary. */
 export function Section({ id, title, description, children }: { id: string; title: string; description?: ReactNode; children: ReactNode }) {
   return (
-    <fieldset id={id} className="card scroll-mt-6 space-y-5">
+    <fieldset id={id} className="card min-w-0 scroll-mt-6 space-y-5">
       <legend className="float-left mb-1 w-full font-serif text-xl font-semibold">{title}</legend>
       {description && <p className="clear-left text-sm text-muted">{description}</p>}
       <div className="clear-left space-y-5">{children}</div>

@@ -2,6 +2,7 @@
 
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
+import { ScrollRegion } from "@/components/scroll-region";
 
 interface StoredFile {
   id: number;
@@ -86,38 +87,40 @@ export function FilesPanel({ versionId, editable }: { versionId: number; editabl
         Raw data, input files of calculations, figures. Up to 25 MB each; the SHA-256 of every file is kept with the version.
       </p>
       {files.data && files.data.length > 0 ? (
-        <table className="table">
-          <thead>
-            <tr>
-              <th scope="col">File</th>
-              <th scope="col">Size</th>
-              <th scope="col">SHA-256</th>
-              <th scope="col">
-                <span className="sr-only">Actions</span>
-              </th>
-            </tr>
-          </thead>
-          <tbody>
-            {files.data.map((f) => (
-              <tr key={f.id}>
-                <td>
-                  <a href={`/api/v1/files/${f.id}`}>{f.filename}</a>
-                </td>
-                <td>{size(f.sizeBytes)}</td>
-                <td className="font-mono text-xs" title={f.sha256}>
-                  {f.sha256.slice(0, 16)}…
-                </td>
-                <td>
-                  {editable && (
-                    <button type="button" className="btn-secondary py-1" onClick={() => remove(f)}>
-                      Remove<span className="sr-only"> {f.filename}</span>
-                    </button>
-                  )}
-                </td>
+        <ScrollRegion label="Files of this version">
+          <table className="table">
+            <thead>
+              <tr>
+                <th scope="col">File</th>
+                <th scope="col">Size</th>
+                <th scope="col">SHA-256</th>
+                <th scope="col">
+                  <span className="sr-only">Actions</span>
+                </th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {files.data.map((f) => (
+                <tr key={f.id}>
+                  <td>
+                    <a href={`/api/v1/files/${f.id}`}>{f.filename}</a>
+                  </td>
+                  <td>{size(f.sizeBytes)}</td>
+                  <td className="font-mono text-xs" title={f.sha256}>
+                    {f.sha256.slice(0, 16)}…
+                  </td>
+                  <td>
+                    {editable && (
+                      <button type="button" className="btn-secondary py-1" onClick={() => remove(f)}>
+                        Remove<span className="sr-only"> {f.filename}</span>
+                      </button>
+                    )}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollRegion>
       ) : (
         <p className="text-sm text-muted">{files.isPending ? "Loading…" : "No files."}</p>
       )}

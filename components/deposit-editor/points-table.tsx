@@ -8,6 +8,7 @@ import { blankPoint, type EditorForm, type PointRow } from "./form-model";
 import { fieldId } from "./pointers";
 import { ROW_WINDOW, visibleRows, windowStartFor } from "./row-window";
 import { removeAt, replaceAt, type SectionProps } from "./section-props";
+import { ScrollRegion } from "@/components/scroll-region";
 
 const KIND_SHORT = [
   { value: "absolute", label: "± in k's unit" },
@@ -110,7 +111,7 @@ export function PointsTable({
           </form>
         </nav>
       )}
-      <div className="max-h-[36rem] overflow-auto rounded-md border border-line">
+      <ScrollRegion label="Data rows" scrollClassName="max-h-[36rem] overflow-auto rounded-md border border-line">
         <table className="table">
           <caption className="sr-only">Data rows: temperature, rate constant, uncertainty and note</caption>
           <thead className="sticky top-0 z-10 bg-panel">
@@ -231,7 +232,7 @@ export function PointsTable({
             })}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
       {!readOnly && (
         <button type="button" className="btn-secondary" onClick={addRow}>
           Add a row

@@ -7,6 +7,7 @@ import { AppError, type FieldError } from "@/lib/errors";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import type { EditorForm, PointRow } from "./form-model";
 import { importRows } from "./import-rows";
+import { ScrollRegion } from "@/components/scroll-region";
 
 type Role = keyof ColumnMapping;
 
@@ -277,7 +278,7 @@ export function TableImport({
               </label>
             </div>
           )}
-          <div className="overflow-x-auto">
+          <ScrollRegion label="First rows of the imported table">
             <table className="table">
               <caption className="py-1 text-left text-xs text-muted">First {table.preview.length} rows as read</caption>
               <thead>
@@ -304,7 +305,7 @@ export function TableImport({
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollRegion>
           {form.points.length > 0 && (
             <fieldset className="space-y-1">
               <legend className="text-sm font-medium">The data already has {form.points.length.toLocaleString("en")} rows</legend>

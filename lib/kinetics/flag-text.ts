@@ -3,6 +3,7 @@
  * engine writes `message` with this function in the default units (kJ mol⁻¹, K), so the stored
  * message and what a page shows in other units cannot say different things.
  */
+import { formatRange, MINUS } from "../format";
 import { parseEnergyUnit, parseTemperatureUnit, type LinearUnit } from "./units";
 import type { Extrapolation, Flag, FlagCode, FlagQuantity } from "./types";
 import { K298_INTERVAL_MAX_WIDTHS } from "./extrapolation";
@@ -105,12 +106,16 @@ class Writer {
 
   /** A temperature number without its unit (for ranges "a–b K"). */
   temperatureNumber(kelvin: number): string {
-    return formatNumber((kelvin - this.tOffset) / this.tFactor);
+    return formatNumber((kelvin - this.tOffset) / this.tFactor).replace("-", MINUS);
   }
 
-  /** "300–310 K" from two temperature quantities. */
+  private inUnit(kelvin: number): number {
+    return (kelvin - this.tOffset) / this.tFactor;
+  }
+
+  /** "300–310 K", "−23.2 to 126.9 °C" from two temperature quantities (both ends written alike). */
   range(from: string, to: string): string {
-    return `${this.temperatureNumber(this.value(from))}–${this.temperatureNumber(this.value(to))} ${this.tLabel}`;
+    return formatRange(this.inUnit(this.value(from)), this.inUnit(this.value(to)), this.tLabel);
   }
 
   /** "between 220 and 400 K", or "at 220 K" when both ends are one temperature. */

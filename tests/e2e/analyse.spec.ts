@@ -11,7 +11,7 @@ test("anyone pastes two columns, fits them, and sees the plot, parameters, flags
   await page.getByRole("button", { name: "Fit" }).click();
 
   await expect(page.getByRole("heading", { name: "Result" })).toBeVisible();
-  await expect(page.getByRole("img", { name: /Arrhenius plot of 10 points/ })).toBeVisible();
+  await expect(page.getByRole("img", { name: /Arrhenius plot, ln k against 1000\/T, of 10 points/ })).toBeVisible();
   await expect(page.getByText("flagged as outlier").first()).toBeVisible();
   await expect(page.getByRole("cell", { name: "Ea (kcal mol⁻¹)" }).first()).toBeVisible();
   const checks = page
@@ -42,7 +42,7 @@ test("a reaction page compares the published datasets of the demo with their con
     .first()
     .click();
   await expect(page.getByRole("heading", { level: 1 })).toHaveText(/hydroxyl \+ methane → water \+ methyl/);
-  await expect(page.getByRole("img", { name: /Arrhenius plot of \d+ datasets/ })).toBeVisible();
+  await expect(page.getByRole("img", { name: /Arrhenius plot, ln k against 1000\/T, of \d+ datasets/ })).toBeVisible();
   await expect(page.getByRole("heading", { name: /Consensus of \d+ datasets/ })).toBeVisible();
   await expect(page.getByText(/Extrapolation outside the measured temperature range is unreliable/).first()).toBeVisible();
 });

@@ -57,7 +57,11 @@ test("a curator leaves a dataset out with a reason and includes it again, withou
   await expect(inputs).toContainText(`Left out by a curator: ${reason}`);
   await expect(plain.getByRole("status").filter({ hasText: "Left out of the consensus." })).toBeVisible();
 
-  await inputs.getByRole("button", { name: /Include again/ }).click();
+  // Including again asks first, as leaving out does.
+  await expect(inputs.getByRole("button", { name: /include it again/ })).toBeHidden();
+  await inputs.getByText("Include again").first().click();
+  await expect(inputs).toContainText(`readers will no longer see the reason “${reason}”`);
+  await inputs.getByRole("button", { name: /Yes, include it again/ }).click();
   await expect(inputs).not.toContainText(reason);
   await context.close();
 });

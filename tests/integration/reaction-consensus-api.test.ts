@@ -213,6 +213,10 @@ describe("the reaction page says the same", () => {
     expect(html).toContain("Measured datasets, points from 260 K and above; evaluated datasets never enter.");
     expect(html).toContain(`Left out by a curator: ${EXCLUSION_REASON}`);
     expect(html).toContain("Calculated; the choice is measured datasets only.");
+    // The datasets table says what each dataset is against the others, never a bare dash; the excluded one says it was left out.
+    const table = html.slice(html.indexOf('id="list-heading"'));
+    expect(table).not.toContain('<td class="min-w-56">—</td>');
+    expect(table.toLowerCase()).toContain("left out");
     // Readers get no curator controls.
     expect(html).not.toContain("Leave out of the consensus");
   });
@@ -220,7 +224,9 @@ describe("the reaction page says the same", () => {
   it("says when the choice in the URL cannot be read, and falls back to the default", async () => {
     const html = await render({ Tmin: "warm" });
     expect(html).toContain("This choice could not be read");
-    expect(html).toContain("Tmin must be a temperature in kelvin");
+    // In the form's words: the field is labelled "From (K)", not by its query name.
+    expect(html).toContain("“From (K)” must be a temperature in kelvin");
+    expect(html).not.toContain("Tmin must be");
     expect(html).toContain('aria-invalid="true"');
     expect(html).toContain("Measured and calculated datasets, every temperature");
   });

@@ -1,14 +1,28 @@
 import { describe, expect, it } from "vitest";
-import { formatSignificant } from "@/lib/format";
+import { formatRange, formatSignificant } from "@/lib/format";
 
 describe("formatSignificant", () => {
   it.each([
-    [6.343733432497232e-15, 4, "6.344e-15"],
+    [6.343733432497232e-15, 4, "6.344e\u221215"],
     [12.47169392722986, 4, "12.47"],
     [123456, 3, "1.23e+5"],
     [0, 4, "0"],
     [null, 4, "—"],
     [Number.NaN, 4, "—"],
-    [-0.5, 2, "-0.50"],
+    [-0.5, 2, "\u22120.50"],
   ] as const)("%s to %i digits → %s", (v, d, out) => expect(formatSignificant(v, d)).toBe(out));
+});
+
+describe("formatRange", () => {
+  it.each([
+    // 25 K and 175.0 K in °C: both ends with the decimals of the larger one, a true minus, "to".
+    [25 - 273.15, 175 - 273.15, "°C", "\u2212248.2 to \u221298.2 °C"],
+    [-23.15, 126.85, "°C", "\u221223.2 to 126.9 °C"],
+    [250, 400, "K", "250–400 K"],
+    [298.15, 1500, "K", "298–1500 K"],
+    [2.5, 12.25, "K", "2.50–12.25 K"],
+    [300, 300.0001, "K", "300 K"],
+    [null, 300, "K", "—"],
+    [-0.04, 0.3, "°C", "\u22120.04 to 0.30 °C"],
+  ] as const)("%s … %s %s → %s", (lo, hi, unit, out) => expect(formatRange(lo, hi, unit)).toBe(out));
 });

@@ -3,6 +3,7 @@ import { renderToStaticMarkup } from "react-dom/server";
 import { describe, expect, it } from "vitest";
 import { ResultTables } from "@/components/result-tables";
 import { drawableFit } from "@/lib/datasets/version-json";
+import { formatSignificant } from "@/lib/format";
 import { analyseDataset, convertEnergy, fromCanonicalRateConstant, GAS_CONSTANT, type AnalysisResult } from "@/lib/kinetics";
 
 // Invented points at 1000–2000 K on a curved line (n = 2.5), so k(298.15 K) is an extrapolation and the curvature flag is raised.
@@ -19,7 +20,6 @@ function render(analysis: AnalysisResult, energyUnit: string, temperatureUnit?: 
       kUnit: "cm3 molecule-1 s-1",
       kLabel: "cm³ molecule⁻¹ s⁻¹",
       energyUnit,
-      energyLabel: energyUnit,
       convertK: (k: number) => fromCanonicalRateConstant(k, "cm3 molecule-1 s-1", 2),
       convertE: (e: number) => convertEnergy(e, "J mol-1", energyUnit),
       temperatureUnit,
@@ -66,5 +66,25 @@ describe("ResultTables", () => {
     expect(html).toContain("(extrapolated)");
     expect(html).toContain("middle of the range in 1/T");
     expect(html).toContain("The Arrhenius plot is curved (F = 12, p &lt; 0.0001).");
+  });
+});
+
+describe("ResultTables labels", () => {
+  const analysis = analyseDataset({ points, order: 2 });
+
+  it("names Ea as E/R when energies are shown in kelvin, never as 'K (E/R)' inside parentheses", () => {
+    const html = render(analysis, "K");
+    expect(html).toContain("Ea/R (K)");
+    expect(html).toContain("ΔH‡/R (K)");
+    expect(html).toContain("ΔS‡/R");
+    expect(html).not.toContain("(E/R))");
+  });
+
+  it("writes ΔS‡ in the chosen energy unit per mol per K (thermochemical calorie, 4.184 J)", () => {
+    const dS = analysis.eyring!.params.dS!;
+    const html = render(analysis, "cal mol-1");
+    expect(html).toContain("ΔS‡ (cal mol⁻¹ K⁻¹)");
+    expect(html).not.toContain("J mol⁻¹ K⁻¹");
+    expect(html).toContain(`<td>${formatSignificant(dS / 4.184, 4)}</td>`);
   });
 });

@@ -3,6 +3,7 @@ import { DateTime } from "@/components/date-time";
 import { requirePagePermission } from "@/lib/auth/page-guard";
 import { getQueueCounts, listTroubledJobs } from "@/lib/jobs/queries";
 import { RetryButton } from "./retry-button";
+import { ScrollRegion } from "@/components/scroll-region";
 
 export const metadata: Metadata = { title: "Background jobs" };
 export const dynamic = "force-dynamic";
@@ -22,7 +23,7 @@ export default async function JobsPage() {
         <h1 className="text-3xl font-semibold">Background jobs</h1>
         <p className="text-sm text-muted">Failed jobs are retried with growing delays; those that ran out of retries wait here for you.</p>
       </header>
-      <div className="card overflow-x-auto p-0">
+      <ScrollRegion label="Job queues" className="card p-0">
         <table className="table">
           <thead>
             <tr>
@@ -49,7 +50,7 @@ export default async function JobsPage() {
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
       <section aria-labelledby="troubled-heading" className="space-y-3">
         <h2 id="troubled-heading" className="text-xl font-semibold">
           Failing or retrying
@@ -57,7 +58,7 @@ export default async function JobsPage() {
         {troubled.length === 0 ? (
           <p className="card text-sm">Nothing is failing.</p>
         ) : (
-          <div className="card overflow-x-auto p-0">
+          <ScrollRegion label="Failed jobs" className="card p-0">
             <table className="table">
               <thead>
                 <tr>
@@ -88,7 +89,7 @@ export default async function JobsPage() {
                 ))}
               </tbody>
             </table>
-          </div>
+          </ScrollRegion>
         )}
       </section>
     </div>

@@ -4,6 +4,7 @@ import { DateTime } from "@/components/date-time";
 import { requirePagePermission } from "@/lib/auth/page-guard";
 import { usesMailCapture } from "@/lib/config";
 import { listCapturedMail } from "@/lib/mail/queries";
+import { ScrollRegion } from "@/components/scroll-region";
 
 export const metadata: Metadata = { title: "Outgoing mail" };
 export const dynamic = "force-dynamic";
@@ -22,7 +23,7 @@ export default async function MailInboxPage() {
       {messages.length === 0 ? (
         <p className="card text-sm">No messages yet.</p>
       ) : (
-        <div className="card overflow-x-auto p-0">
+        <ScrollRegion label="Captured mail" className="card p-0">
           <table className="table">
             <thead>
               <tr>
@@ -45,7 +46,7 @@ export default async function MailInboxPage() {
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollRegion>
       )}
     </div>
   );

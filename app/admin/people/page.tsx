@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { requirePagePermission } from "@/lib/auth/page-guard";
 import { listUsers } from "@/lib/users/queries";
 import { ActiveForm, RoleForm } from "./people-controls";
+import { ScrollRegion } from "@/components/scroll-region";
 
 export const metadata: Metadata = { title: "People" };
 
@@ -12,7 +13,7 @@ export default async function PeoplePage() {
     <div className="space-y-6">
       <h1 className="text-3xl font-semibold">People</h1>
       <p className="text-sm text-muted">Every role change and deactivation is written to the audit trail.</p>
-      <div className="card overflow-x-auto p-0">
+      <ScrollRegion label="People and roles" className="card p-0">
         <table className="table">
           <thead>
             <tr>
@@ -49,7 +50,7 @@ export default async function PeoplePage() {
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
     </div>
   );
 }

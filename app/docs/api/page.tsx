@@ -5,6 +5,7 @@ import { appUrl } from "@/lib/config";
 import { ANALYSIS_CONVENTIONS, CONSENSUS_CONVENTIONS } from "@/lib/kinetics/conventions";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { CONSENSUS_SELECTION_RULES } from "@/lib/reactions/consensus-selection";
+import { ScrollRegion } from "@/components/scroll-region";
 
 export const metadata: Metadata = { title: "API" };
 
@@ -47,28 +48,30 @@ export default function ApiDocsPage() {
           answers 403 to a token without the scope it needs, even when the person holds the role; a revoked or unknown token is refused with
           401 on every endpoint, public ones included. Ids in paths are whole numbers from 1 to 2147483647; anything else is 404.
         </p>
-        <table className="table text-sm">
-          <thead>
-            <tr>
-              <th scope="col">Endpoint</th>
-              <th scope="col">Scope</th>
-              <th scope="col">Who</th>
-            </tr>
-          </thead>
-          <tbody>
-            {endpointScopes.map((e) => (
-              <tr key={`${e.method} ${e.path}`}>
-                <td>
-                  <code>
-                    {e.method} {e.path}
-                  </code>
-                </td>
-                <td>{e.scope ? <code>{e.scope}</code> : "none"}</td>
-                <td>{e.who}</td>
+        <ScrollRegion label="Endpoints and their scopes">
+          <table className="table text-sm">
+            <thead>
+              <tr>
+                <th scope="col">Endpoint</th>
+                <th scope="col">Scope</th>
+                <th scope="col">Who</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {endpointScopes.map((e) => (
+                <tr key={`${e.method} ${e.path}`}>
+                  <td>
+                    <code>
+                      {e.method} {e.path}
+                    </code>
+                  </td>
+                  <td>{e.scope ? <code>{e.scope}</code> : "none"}</td>
+                  <td>{e.who}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollRegion>
       </section>
 
       <section className="space-y-3" aria-labelledby="analyses">
@@ -115,7 +118,9 @@ export default function ApiDocsPage() {
           <code>points</code> where it concerns points, and <code>quantities</code>: the numbers of the message with their kind, to write it
           in other units.
         </p>
-        <pre className="overflow-x-auto rounded-md border border-line bg-panel p-4 text-xs">{example(appUrl())}</pre>
+        <ScrollRegion label="Example request and response">
+          <pre className="w-max min-w-full rounded-md border border-line bg-panel p-4 text-xs">{example(appUrl())}</pre>
+        </ScrollRegion>
         <h3 className="font-semibold">Conventions</h3>
         <ul className="list-disc space-y-2 pl-6 text-sm">
           {ANALYSIS_CONVENTIONS.map((c, i) => (
@@ -185,7 +190,9 @@ export default function ApiDocsPage() {
             </li>
           ))}
         </ul>
-        <pre className="overflow-x-auto rounded-md border border-line bg-panel p-4 text-xs">{`curl -s '${appUrl()}/api/v1/reactions/1/consensus?include=measured&Tmin=250&Tmax=400'`}</pre>
+        <ScrollRegion label="Example consensus request">
+          <pre className="w-max min-w-full rounded-md border border-line bg-panel p-4 text-xs">{`curl -s '${appUrl()}/api/v1/reactions/1/consensus?include=measured&Tmin=250&Tmax=400'`}</pre>
+        </ScrollRegion>
         <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
       </section>
 

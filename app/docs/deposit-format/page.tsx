@@ -18,6 +18,7 @@ import {
 } from "@/lib/deposits/vocabulary";
 import { SUPPORTED_UNITS, type UnitDefinition } from "@/lib/kinetics";
 import { MarkdownText } from "@/components/markdown-text";
+import { ScrollRegion } from "@/components/scroll-region";
 
 export const metadata: Metadata = { title: "Deposit format" };
 
@@ -83,7 +84,7 @@ function SchemaSection({ section }: { section: SectionDoc }) {
       </h3>
       {section.description && <p className="max-w-3xl text-sm text-muted">{section.description}</p>}
       {section.open && <p className="text-xs text-muted">Fields other than those listed are accepted and kept as given.</p>}
-      <div className="overflow-x-auto">
+      <ScrollRegion label={`Fields of ${section.title}`}>
         <table className="table">
           <thead>
             <tr>
@@ -98,56 +99,60 @@ function SchemaSection({ section }: { section: SectionDoc }) {
             ))}
           </tbody>
         </table>
-      </div>
+      </ScrollRegion>
     </section>
   );
 }
 
 function UnitTable({ caption, units }: { caption: string; units: readonly UnitDefinition[] }) {
   return (
-    <table className="table">
-      <caption className="py-2 text-left font-semibold">{caption}</caption>
-      <thead>
-        <tr>
-          <th scope="col">Write</th>
-          <th scope="col">Means</th>
-          <th scope="col">Also accepted</th>
-        </tr>
-      </thead>
-      <tbody>
-        {units.map((u) => (
-          <tr key={u.id}>
-            <td className="font-mono text-xs">{u.id}</td>
-            <td>{u.label}</td>
-            <td className="font-mono text-xs text-muted">{u.aliases.join(", ") || "—"}</td>
+    <ScrollRegion label={caption}>
+      <table className="table">
+        <caption className="py-2 text-left font-semibold">{caption}</caption>
+        <thead>
+          <tr>
+            <th scope="col">Write</th>
+            <th scope="col">Means</th>
+            <th scope="col">Also accepted</th>
           </tr>
-        ))}
-      </tbody>
-    </table>
+        </thead>
+        <tbody>
+          {units.map((u) => (
+            <tr key={u.id}>
+              <td className="font-mono text-xs">{u.id}</td>
+              <td>{u.label}</td>
+              <td className="font-mono text-xs text-muted">{u.aliases.join(", ") || "—"}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </ScrollRegion>
   );
 }
 
 function VocabularyTable({ caption, rows }: { caption: string; rows: readonly { id: string; label: string; hint?: string }[] }) {
   return (
-    <table className="table">
-      <caption className="py-2 text-left font-semibold">{caption}</caption>
-      <thead>
-        <tr>
-          <th scope="col">Value</th>
-          <th scope="col">Shown as</th>
-          {rows.some((r) => r.hint) && <th scope="col">Use for</th>}
-        </tr>
-      </thead>
-      <tbody>
-        {rows.map((r) => (
-          <tr key={r.id}>
-            <td className="font-mono text-xs">{r.id}</td>
-            <td>{r.label}</td>
-            {rows.some((x) => x.hint) && <td className="text-muted">{r.hint}</td>}
+    <ScrollRegion label={caption}>
+      <table className="table">
+        <caption className="py-2 text-left font-semibold">{caption}</caption>
+        <thead>
+          <tr>
+            <th scope="col">Value</th>
+            <th scope="col">Shown as</th>
+            {rows.some((r) => r.hint) && <th scope="col">Use for</th>}
           </tr>
-        ))}
-      </tbody>
-    </table>
+        </thead>
+        <tbody>
+          {rows.map((r) => (
+            <tr key={r.id}>
+              <td className="font-mono text-xs">{r.id}</td>
+              <td>{r.label}</td>
+              {rows.some((x) => x.hint) && <td className="text-muted">{r.hint}</td>}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </ScrollRegion>
   );
 }
 
@@ -271,7 +276,7 @@ export default function DepositFormatPage() {
           are listed at once. These are the real messages for a copy of the example below with a mistyped number, a negative rate constant,
           a wrong unit and the reaction order left out:
         </p>
-        <div className="overflow-x-auto">
+        <ScrollRegion label="Example of a refused document and its errors">
           <table className="table">
             <thead>
               <tr>
@@ -288,7 +293,7 @@ export default function DepositFormatPage() {
               ))}
             </tbody>
           </table>
-        </div>
+        </ScrollRegion>
       </section>
 
       <section aria-labelledby="example" className="space-y-3">
@@ -305,6 +310,7 @@ export default function DepositFormatPage() {
         <pre
           className="max-h-[40rem] overflow-auto rounded-lg border border-line bg-panel p-4 font-mono text-xs"
           tabIndex={0}
+          role="region"
           aria-label="Example deposit document (JSON)"
         >
           {JSON.stringify(EXAMPLE_DEPOSIT, null, 2)}

@@ -8,6 +8,8 @@ import {
   type ParameterError,
 } from "@/lib/reactions/consensus-selection";
 import { ExclusionControls } from "./exclusion-forms";
+import { fieldLabels, inFormWords } from "./form-words";
+import { formatRange } from "@/lib/format";
 
 const kindWords: Record<MethodKind, string> = {
   measured: "measured",
@@ -15,8 +17,6 @@ const kindWords: Record<MethodKind, string> = {
   evaluated: "evaluated",
   unknown: "method not stated",
 };
-
-const kelvin = (T: number) => Number(T.toPrecision(4));
 
 /**
  * The reader's choice of data for the consensus: a plain GET form, so the choice lives in the URL
@@ -31,7 +31,10 @@ export function ConsensusChoiceForm({
   values: { include: string; Tmin: string; Tmax: string };
   errors: ParameterError[];
 }) {
-  const errorOf = (name: string) => errors.find((e) => e.parameter === name)?.message;
+  const errorOf = (name: string) => {
+    const message = errors.find((e) => e.parameter === name)?.message;
+    return message === undefined ? undefined : inFormWords(message);
+  };
   const field = (name: "Tmin" | "Tmax", label: string) => {
     const error = errorOf(name);
     return (
@@ -93,8 +96,8 @@ export function ConsensusChoiceForm({
         <fieldset className="space-y-1">
           <legend className="text-sm font-medium">Temperature window</legend>
           <div className="flex gap-3">
-            {field("Tmin", "From (K)")}
-            {field("Tmax", "To (K)")}
+            {field("Tmin", fieldLabels.Tmin)}
+            {field("Tmax", fieldLabels.Tmax)}
           </div>
           <p id="choice-window-hint" className="text-xs text-muted">
             Leave blank for no limit. Points outside are dropped before the fit.
@@ -149,7 +152,7 @@ export function WhatWentIn({
             <li key={d.versionId}>
               <Link href={`/datasets/${d.datasetId}/v${d.number}`}>{d.title}</Link> <span className="text-muted">v{d.number}</span> —{" "}
               {kindWords[d.kind]}, {d.pointsUsed === d.points ? `${d.points} points` : `${d.pointsUsed} of its ${d.points} points`},{" "}
-              {kelvin(d.Tmin)}–{kelvin(d.Tmax)} K
+              {formatRange(d.Tmin, d.Tmax, "K")}
             </li>
           ))}
         </ul>

@@ -28,12 +28,21 @@ export function ExclusionControls({ versionId, title, currentReason }: { version
   return (
     <div className="space-y-2 text-sm">
       {currentReason !== null && (
-        <form action={include}>
-          <input type="hidden" name="versionId" value={versionId} />
-          <SubmitButton className="btn-secondary py-1">
+        // Two steps, as leaving out is: open, read what will change, confirm.
+        <details open={includeState.status === "error" || undefined}>
+          <summary className="cursor-pointer text-link">
             Include again<span className="sr-only"> {title}</span>
-          </SubmitButton>
-        </form>
+          </summary>
+          <form action={include} className="mt-2 space-y-2">
+            <input type="hidden" name="versionId" value={versionId} />
+            <p>
+              {title} will count in the consensus again, and readers will no longer see the reason “{currentReason}”. The change is audited.
+            </p>
+            <SubmitButton className="btn-secondary py-1">
+              Yes, include it again<span className="sr-only"> ({title})</span>
+            </SubmitButton>
+          </form>
+        </details>
       )}
       <Outcome state={includeState} />
       <details open={excludeState.status === "error" || undefined}>

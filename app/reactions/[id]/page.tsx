@@ -15,9 +15,11 @@ import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { consensusLabel, parseConsensusChoice, plotPoints } from "@/lib/reactions/consensus-selection";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { getReaction, listDatasetRolesOf } from "@/lib/reactions/queries";
-import { formatSignificant } from "@/lib/format";
+import { formatRange, formatSignificant } from "@/lib/format";
 import { parseIdOrNull } from "@/lib/ids";
 import { ConsensusChoiceForm, WhatWentIn, type ExclusionRow } from "./consensus-selection";
+import { ScrollRegion } from "@/components/scroll-region";
+import { energyQuantityLabel } from "@/lib/unit-labels";
 
 export const metadata: Metadata = { title: "Reaction" };
 export const dynamic = "force-dynamic";
@@ -50,6 +52,13 @@ export default async function ReactionPage({
   // How the words of the consensus name each dataset.
   const labels = new Map(versions.map((v) => [String(v.versionId), consensusLabel(v)]));
   const member = (versionId: number) => result?.members.find((m) => m.id === String(versionId));
+  // A dataset the consensus did not take says why (left out by a curator, evaluated, other order…), never a bare dash.
+  const againstOthers = (versionId: number) => {
+    const cell = comparisonCell(member(versionId));
+    const why = selection.notUsed.find((d) => d.versionId === versionId)?.reasons.map((r) => r.message);
+    if (cell !== "—" || !why?.length) return cell;
+    return why.join(" ");
+  };
   const pictures = await Promise.all(
     reaction.participants.map((p) => (p.smiles ? renderSpeciesSvg(p.smiles, { width: 140, height: 100 }).catch(() => null) : null)),
   );
@@ -102,6 +111,7 @@ export default async function ReactionPage({
               All published datasets
             </h2>
             <ConsensusPlot
+              tableHref="#list-heading"
               kUnitLabel={kLabel}
               band={preferred ? preferred.band : null}
               series={published.map((v) => ({
@@ -123,47 +133,46 @@ export default async function ReactionPage({
 
           <WhatWentIn selection={selection} unavailable={unavailable} curatorRows={curatorRows} />
 
-          <section className="card overflow-x-auto p-0" aria-labelledby="list-heading">
+          <section className="card p-0" aria-labelledby="list-heading">
             <h2 id="list-heading" className="px-6 pt-5 text-xl font-semibold">
               Datasets
             </h2>
-            <table className="table mt-2">
-              <thead>
-                <tr>
-                  <th scope="col">Dataset</th>
-                  <th scope="col">State</th>
-                  <th scope="col">Identifier</th>
-                  <th scope="col">T range (K)</th>
-                  <th scope="col">Points</th>
-                  <th scope="col">E/R (K)</th>
-                  <th scope="col">Against the others</th>
-                </tr>
-              </thead>
-              <tbody>
-                {versions.map((v) => {
-                  const a = drawableFit(v.analysis);
-                  const m = member(v.versionId);
-                  return (
-                    <tr key={v.versionId}>
-                      <td>
-                        <Link href={`/datasets/${v.datasetId}/v${v.number}`}>{v.title}</Link>{" "}
-                        <span className="text-muted">v{v.number}</span>
-                      </td>
-                      <td>
-                        <StateLabel state={v.state} />
-                      </td>
-                      <td className="font-mono text-xs">{v.versionIdentifier ?? "—"}</td>
-                      <td>
-                        {Math.round(v.tMin ?? 0)}–{Math.round(v.tMax ?? 0)}
-                      </td>
-                      <td>{v.pointCount}</td>
-                      <td>{a?.arrhenius ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
-                      <td>{comparisonCell(m)}</td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
+            <ScrollRegion label="Datasets of this reaction" className="mt-2">
+              <table className="table">
+                <thead>
+                  <tr>
+                    <th scope="col">Dataset</th>
+                    <th scope="col">State</th>
+                    <th scope="col">Identifier</th>
+                    <th scope="col">T (K)</th>
+                    <th scope="col">Points</th>
+                    <th scope="col">{energyQuantityLabel("Ea", "K")}</th>
+                    <th scope="col">Against the others</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {versions.map((v) => {
+                    const a = drawableFit(v.analysis);
+                    return (
+                      <tr key={v.versionId}>
+                        <td>
+                          <Link href={`/datasets/${v.datasetId}/v${v.number}`}>{v.title}</Link>{" "}
+                          <span className="text-muted">v{v.number}</span>
+                        </td>
+                        <td>
+                          <StateLabel state={v.state} />
+                        </td>
+                        <td className="font-mono text-xs">{v.versionIdentifier ?? "—"}</td>
+                        <td className="whitespace-nowrap">{formatRange(v.tMin, v.tMax, "")}</td>
+                        <td>{v.pointCount}</td>
+                        <td>{a?.arrhenius ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
+                        <td className="min-w-56">{againstOthers(v.versionId)}</td>
+                      </tr>
+                    );
+                  })}
+                </tbody>
+              </table>
+            </ScrollRegion>
           </section>
         </>
       )}

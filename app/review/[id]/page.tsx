@@ -15,7 +15,8 @@ import { AppError } from "@/lib/errors";
 import { parseIdOrThrow } from "@/lib/ids";
 import { describeExtrapolation, formatFlagMessage, GAS_CONSTANT, REFERENCE_TEMPERATURE, type Flag } from "@/lib/kinetics";
 import { DecisionForm } from "./decision-form";
-import { formatSignificant } from "@/lib/format";
+import { formatRange, formatSignificant } from "@/lib/format";
+import { ScrollRegion } from "@/components/scroll-region";
 
 export const metadata: Metadata = { title: "Review" };
 
@@ -73,11 +74,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
         <h1 className="text-3xl font-semibold">{version.title}</h1>
         <p className="flex flex-wrap items-center gap-3 text-sm text-muted">
           <StateLabel state={version.state} /> <span>version {version.number}</span> <span>{version.pointCount} points</span>
-          {version.tMin !== null && (
-            <span>
-              {Math.round(version.tMin)}–{Math.round(version.tMax ?? 0)} K
-            </span>
-          )}
+          {version.tMin !== null && <span>{formatRange(version.tMin, version.tMax ?? version.tMin, "K")}</span>}
           {version.versionIdentifier && <span>identifier {version.versionIdentifier}</span>}
         </p>
       </header>
@@ -109,68 +106,70 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
             {result && (
               <>
                 <h3 className="font-semibold">Reported versus re-fitted</h3>
-                <table className="table">
-                  <thead>
-                    <tr>
-                      <th scope="col">Parameter</th>
-                      <th scope="col">Reported by the authors</th>
-                      <th scope="col">Re-fitted here (Arrhenius)</th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    <tr>
-                      <td>A (canonical units)</td>
-                      <td>{reported ? sig(reported.A) : "not reported"}</td>
-                      <td>{sig(result.arrhenius.params.A)}</td>
-                    </tr>
-                    <tr>
-                      <td>Ea</td>
-                      <td>
-                        {reported ? `${sig(reported.Ea / 1000)} kJ mol⁻¹ (E/R = ${sig(reported.Ea / GAS_CONSTANT)} K)` : "not reported"}
-                      </td>
-                      <td>
-                        {sig(result.arrhenius.params.Ea / 1000)} kJ mol⁻¹ (E/R = {sig(result.arrhenius.params.Ea / GAS_CONSTANT)} K)
-                      </td>
-                    </tr>
-                    <tr>
-                      <td>Temperature range</td>
-                      <td>
-                        {reported?.Tmin !== undefined || reported?.Tmax !== undefined
-                          ? `${reported.Tmin !== undefined ? sig(reported.Tmin) : "…"}–${reported.Tmax !== undefined ? sig(reported.Tmax) : "…"} K`
-                          : "not stated"}
-                      </td>
-                      <td>
-                        {sig(result.band.T[0])}–{sig(result.band.T[result.band.T.length - 1])} K (the data)
-                      </td>
-                    </tr>
-                    <tr>
-                      <td>k({sig(result.arrhenius.kMid.T)} K), middle of the data in 1/T</td>
-                      <td>{reported ? sig(reportedK(result.arrhenius.kMid.T)) : "—"}</td>
-                      <td>
-                        {sig(result.arrhenius.kMid.value)} (95 %: {sig(result.arrhenius.kMid.lower, 3)} …{" "}
-                        {sig(result.arrhenius.kMid.upper, 3)})
-                      </td>
-                    </tr>
-                    <tr>
-                      <td>k(298.15 K)</td>
-                      <td>{reported ? sig(reportedK(REFERENCE_TEMPERATURE)) : "—"}</td>
-                      <td>
-                        {sig(result.arrhenius.k298.value)} (95 %: {sig(result.arrhenius.k298.lower, 3)} …{" "}
-                        {sig(result.arrhenius.k298.upper, 3)})
-                        {result.arrhenius.k298.extrapolation && (
-                          <span className="block text-xs text-warn">{describeExtrapolation(result.arrhenius.k298.extrapolation)}</span>
-                        )}
-                      </td>
-                    </tr>
-                    {result.modifiedArrhenius && (
+                <ScrollRegion label="Reported versus re-fitted parameters">
+                  <table className="table">
+                    <thead>
                       <tr>
-                        <td>n (modified Arrhenius)</td>
-                        <td>{reported?.n !== undefined ? sig(reported.n) : "—"}</td>
-                        <td>{sig(result.modifiedArrhenius.params.n)}</td>
+                        <th scope="col">Parameter</th>
+                        <th scope="col">Reported by the authors</th>
+                        <th scope="col">Re-fitted here (Arrhenius)</th>
                       </tr>
-                    )}
-                  </tbody>
-                </table>
+                    </thead>
+                    <tbody>
+                      <tr>
+                        <td>A (canonical units)</td>
+                        <td>{reported ? sig(reported.A) : "not reported"}</td>
+                        <td>{sig(result.arrhenius.params.A)}</td>
+                      </tr>
+                      <tr>
+                        <td>Ea</td>
+                        <td>
+                          {reported ? `${sig(reported.Ea / 1000)} kJ mol⁻¹ (E/R = ${sig(reported.Ea / GAS_CONSTANT)} K)` : "not reported"}
+                        </td>
+                        <td>
+                          {sig(result.arrhenius.params.Ea / 1000)} kJ mol⁻¹ (E/R = {sig(result.arrhenius.params.Ea / GAS_CONSTANT)} K)
+                        </td>
+                      </tr>
+                      <tr>
+                        <td>Temperature range</td>
+                        <td>
+                          {reported?.Tmin !== undefined || reported?.Tmax !== undefined
+                            ? reported.Tmin !== undefined && reported.Tmax !== undefined
+                              ? formatRange(reported.Tmin, reported.Tmax, "K")
+                              : `${reported.Tmin !== undefined ? `from ${sig(reported.Tmin)}` : `up to ${sig(reported.Tmax)}`} K`
+                            : "not stated"}
+                        </td>
+                        <td>{formatRange(result.band.T[0], result.band.T[result.band.T.length - 1], "K")} (the data)</td>
+                      </tr>
+                      <tr>
+                        <td>k({sig(result.arrhenius.kMid.T)} K), middle of the data in 1/T</td>
+                        <td>{reported ? sig(reportedK(result.arrhenius.kMid.T)) : "—"}</td>
+                        <td>
+                          {sig(result.arrhenius.kMid.value)} (95 %: {sig(result.arrhenius.kMid.lower, 3)} …{" "}
+                          {sig(result.arrhenius.kMid.upper, 3)})
+                        </td>
+                      </tr>
+                      <tr>
+                        <td>k(298.15 K)</td>
+                        <td>{reported ? sig(reportedK(REFERENCE_TEMPERATURE)) : "—"}</td>
+                        <td>
+                          {sig(result.arrhenius.k298.value)} (95 %: {sig(result.arrhenius.k298.lower, 3)} …{" "}
+                          {sig(result.arrhenius.k298.upper, 3)})
+                          {result.arrhenius.k298.extrapolation && (
+                            <span className="block text-xs text-warn">{describeExtrapolation(result.arrhenius.k298.extrapolation)}</span>
+                          )}
+                        </td>
+                      </tr>
+                      {result.modifiedArrhenius && (
+                        <tr>
+                          <td>n (modified Arrhenius)</td>
+                          <td>{reported?.n !== undefined ? sig(reported.n) : "—"}</td>
+                          <td>{sig(result.modifiedArrhenius.params.n)}</td>
+                        </tr>
+                      )}
+                    </tbody>
+                  </table>
+                </ScrollRegion>
               </>
             )}
           </section>
@@ -200,7 +199,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
                 {duplicates.map((d) => (
                   <li key={d.versionId}>
                     <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, {d.state.replace("_", " ")},{" "}
-                    {Math.round(d.tMin ?? 0)}–{Math.round(d.tMax ?? 0)} K){d.sameDoi ? " — same source DOI" : ""}
+                    {formatRange(d.tMin, d.tMax, "K")}){d.sameDoi ? " — same source DOI" : ""}
                   </li>
                 ))}
               </ul>

@@ -256,7 +256,7 @@ describe("reported expression against the refit", () => {
     expect(flagOf(lowOnly, "reported_range_outside_data")!.message).toContain("(from 500 K)");
     // In °C the same finding reads in °C.
     expect(formatFlagMessage(flag, { temperature: "degC" })).toContain(
-      "(246.9–396.9 °C) does not overlap the measured temperatures (-23.15–126.9 °C)",
+      "(246.9–396.9 °C) does not overlap the measured temperatures (\u221223.2 to 126.9 °C)",
     );
   });
 

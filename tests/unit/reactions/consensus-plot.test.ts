@@ -3,6 +3,7 @@ import { renderToStaticMarkup } from "react-dom/server";
 import { describe, expect, it } from "vitest";
 import { ConsensusPlot } from "@/components/consensus-plot";
 import { plotPoints } from "@/lib/reactions/consensus-selection";
+import { inFormWords } from "@/app/reactions/[id]/form-words";
 
 // Constructed points (invented): ten temperatures, k = e^(−1000 K / T).
 const points = [200, 220, 240, 260, 280, 300, 320, 340, 360, 380].map((T) => ({ T, k: Math.exp(-1000 / T) }));
@@ -42,5 +43,24 @@ describe("ConsensusPlot", () => {
       expect(html).not.toContain("not used in the consensus");
       expect(html).not.toContain("Hollow, faded");
     }
+  });
+
+  it("mentions a consensus line and band only when there is one", () => {
+    const without = renderToStaticMarkup(h(ConsensusPlot, { series: series([]), band: null, kUnitLabel: "s⁻¹" }));
+    expect(without).not.toContain("Shaded");
+    expect(without).not.toContain("95 % band");
+    expect(without).toContain("No consensus line");
+    const band = { T: [250, 300, 350], lnk: [-4, -3, -2.5], lower: [-4.2, -3.1, -2.7], upper: [-3.8, -2.9, -2.3] };
+    const withBand = renderToStaticMarkup(h(ConsensusPlot, { series: series([]), band, kUnitLabel: "s⁻¹", tableHref: "#list" }));
+    expect(withBand).toContain("Dashed dark line: the consensus; shaded: its 95 % band");
+    expect(withBand).toContain("with the consensus as a dashed line and its 95 % band");
+    expect(withBand).toContain('href="#list"');
+  });
+});
+
+describe("ConsensusChoiceForm words", () => {
+  it("names the window's fields as the form labels them, not by their query names", () => {
+    expect(inFormWords("Tmax (300 K) must be above Tmin (350 K)")).toBe("“To (K)” (300 K) must be above “From (K)” (350 K)");
+    expect(inFormWords("Tmin must be a temperature in kelvin above zero")).toBe("“From (K)” must be a temperature in kelvin above zero");
   });
 });

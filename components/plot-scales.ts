@@ -1,0 +1,70 @@
+/**
+ * Round axis ticks for the plots: steps of 1, 2 or 5 × 10ⁿ, so every label is a short round
+ * number and no two labels read the same.
+ */
+
+/** The round step (1, 2, 2.5 or 5 × 10ⁿ) that splits `span` into about `count` intervals. */
+export function niceStep(span: number, count = 5): number {
+  if (!(span > 0) || !Number.isFinite(span)) return 1;
+  const raw = span / Math.max(1, count);
+  const power = 10 ** Math.floor(Math.log10(raw));
+  const m = raw / power;
+  return (m <= 1 ? 1 : m <= 2 ? 2 : m <= 2.5 ? 2.5 : m <= 5 ? 5 : 10) * power;
+}
+
+/** Decimals needed to write multiples of `step` exactly (0.25 → 2, 5 → 0). */
+export function decimalsOf(step: number): number {
+  for (let d = 0; d < 12; d++) if (Math.abs(Math.round(step * 10 ** d) - step * 10 ** d) < 1e-9 * 10 ** d) return d;
+  return 12;
+}
+
+/**
+ * Round ticks covering [min, max] and the domain widened to the outer ticks.
+ * @example niceScale(3.1, 4.62) // { domain: [3, 5], ticks: [3, 3.5, 4, 4.5, 5], decimals: 1 }
+ */
+export function niceScale(min: number, max: number, count = 5): { domain: [number, number]; ticks: number[]; decimals: number } {
+  if (!Number.isFinite(min) || !Number.isFinite(max)) return { domain: [0, 1], ticks: [0, 1], decimals: 0 };
+  if (min === max) {
+    const half = Math.abs(min) * 0.05 || 0.5;
+    return niceScale(min - half, max + half, count);
+  }
+  const step = niceStep(max - min, count);
+  const decimals = decimalsOf(step);
+  const lo = Math.floor(min / step + 1e-9) * step;
+  const hi = Math.ceil(max / step - 1e-9) * step;
+  const ticks: number[] = [];
+  for (let i = 0; lo + i * step <= hi + step * 1e-9; i++) ticks.push(Number((lo + i * step).toFixed(decimals)));
+  return { domain: [ticks[0], ticks[ticks.length - 1]], ticks, decimals };
+}
+
+/**
+ * Round temperatures for the top axis of an Arrhenius plot whose bottom axis is 1000/T in
+ * `domain` (K⁻¹), returned as positions on that axis. Temperatures are round in kelvin, thinned
+ * so that neighbouring labels stay apart on the 1/T scale.
+ */
+export function temperatureTicks(domain: [number, number], count = 5): { x: number; T: number }[] {
+  const x1 = domain[1];
+  // A domain that starts at 0 K⁻¹ reaches infinite T: label up to 40 times the lowest temperature.
+  const x0 = domain[0] > 0 ? domain[0] : x1 / 40;
+  if (!(x1 > x0)) return [];
+  const tLow = 1000 / x1;
+  const tHigh = 1000 / x0;
+  // Candidates: multiples of a round linear step (narrow ranges) and round values of every decade
+  // (wide ranges, where high temperatures crowd together on the 1/T scale).
+  const step = niceStep(tHigh - tLow, count * 2);
+  const decimals = decimalsOf(step);
+  const candidates = new Set<number>();
+  for (let T = Math.ceil(tLow / step - 1e-9) * step; T <= tHigh + step * 1e-9; T += step) candidates.add(Number(T.toFixed(decimals)));
+  for (let k = Math.floor(Math.log10(tLow)); k <= Math.ceil(Math.log10(tHigh)); k++) {
+    for (const m of [1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8]) candidates.add(Number((m * 10 ** k).toPrecision(6)));
+  }
+  const minGap = (x1 - x0) / (count * 1.6);
+  const out: { x: number; T: number }[] = [];
+  // From the lowest temperature (largest 1000/T) up, a tick is kept only if it is far enough from the last kept one.
+  for (const t of [...candidates].sort((a, b) => a - b)) {
+    const x = 1000 / t;
+    if (x < x0 || x > x1) continue;
+    if (out.length === 0 || Math.abs(out[out.length - 1].x - x) >= minGap) out.push({ x, T: t });
+  }
+  return out;
+}

@@ -1,0 +1,36 @@
+/**
+ * Column and row labels of quantities in the unit a reader chose: the one place a symbol and its
+ * unit are put together, so "Ea (K (E/R))" or an entropy left in joules beside energies in
+ * calories cannot happen on one page and not another.
+ */
+import { convertEnergy, parseEnergyUnit } from "@/lib/kinetics/units";
+
+/** The energy unit that is a temperature (E/R). */
+const isTemperatureEnergy = (unitId: string) => parseEnergyUnit(unitId).id === "K";
+
+/**
+ * "Ea (kcal mol⁻¹)", or "Ea/R (K)" when energies are shown as temperatures.
+ * @example energyQuantityLabel("ΔH‡", "K") // "ΔH‡/R (K)"
+ */
+export function energyQuantityLabel(symbol: string, unitId: string): string {
+  if (isTemperatureEnergy(unitId)) return `${symbol}/R (K)`;
+  if (parseEnergyUnit(unitId).id === "eV") return `${symbol} (eV, per molecule)`;
+  return `${symbol} (${parseEnergyUnit(unitId).label})`;
+}
+
+/**
+ * An entropy (or heat capacity) label in the chosen energy unit per kelvin: "ΔS‡ (cal mol⁻¹ K⁻¹)",
+ * "ΔS‡ (eV K⁻¹, per molecule)", or "ΔS‡/R" (a pure number) when energies are shown as temperatures.
+ */
+export function entropyQuantityLabel(symbol: string, unitId: string): string {
+  const u = parseEnergyUnit(unitId);
+  if (u.id === "K") return `${symbol}/R`;
+  if (u.id === "eV") return `${symbol} (eV K⁻¹, per molecule)`;
+  return `${symbol} (${u.label} K⁻¹)`;
+}
+
+/** An entropy in J mol⁻¹ K⁻¹ in the chosen energy unit per kelvin (ΔS/R when the unit is K). */
+export function convertEntropy(joulesPerMoleKelvin: number, unitId: string): number {
+  // Per kelvin, an entropy converts as an energy does; "K" as energy divides by R, giving ΔS/R.
+  return convertEnergy(joulesPerMoleKelvin, "J mol-1", unitId);
+}

@@ -1,0 +1,112 @@
+import AxeBuilder from "@axe-core/playwright";
+import { expect, test, type Page } from "@playwright/test";
+import { DEMO_ADMIN } from "./pages/auth-pages";
+import { DEMO_CURATORS, DEMO_RESEARCHER, signInAs } from "./pages/deposit-pages";
+
+// Every page, as each role, on a 390 px wide phone: nothing wider than the screen, and no serious
+// or critical accessibility violation found by axe-core.
+
+const PHONE = { width: 390, height: 844 };
+const PUBLIC_PAGES = ["/", "/reactions", "/analyse", "/docs/api", "/docs/deposit-format", "/search?q=methane"];
+const SIGNED_OUT_PAGES = ["/sign-in", "/sign-up", "/forgot-password"];
+
+const roles = {
+  anonymous: null,
+  researcher: DEMO_RESEARCHER,
+  curator: DEMO_CURATORS[0],
+  admin: { email: DEMO_ADMIN.email, name: "Rosalind Okafor" },
+} as const;
+
+/** The first link in the main content whose address matches `pattern`, or null. */
+async function firstLink(page: Page, path: string, pattern: RegExp): Promise<string | null> {
+  await page.goto(path);
+  const hrefs = await page.locator("main a[href]").evaluateAll((as) => as.map((a) => a.getAttribute("href") ?? ""));
+  return hrefs.find((h) => pattern.test(h)) ?? null;
+}
+
+/** The pages a role can open, with real ids taken from the demo data. */
+async function pagesFor(page: Page, role: keyof typeof roles): Promise<string[]> {
+  const paths = [...PUBLIC_PAGES, ...(role === "anonymous" ? SIGNED_OUT_PAGES : ["/settings"])];
+  const reaction = await firstLink(page, "/reactions", /^\/reactions\/\d+$/);
+  expect(reaction, "a reaction page in the demo").not.toBeNull();
+  paths.push(reaction!);
+  const version = await firstLink(page, reaction!, /^\/datasets\/\d+\/v\d+$/);
+  expect(version, "a published version in the demo").not.toBeNull();
+  paths.push(version!, version!.replace(/\/v\d+$/, ""));
+  if (role === "researcher" || role === "admin") {
+    paths.push("/deposits", "/deposits/new");
+    const deposit = await firstLink(page, "/deposits", /^\/deposits\/\d+$/);
+    if (deposit) paths.push(deposit);
+  }
+  if (role === "curator" || role === "admin") {
+    paths.push("/review");
+    const review = await firstLink(page, "/review", /^\/review\/\d+$/);
+    if (review) paths.push(review);
+  }
+  if (role === "admin") paths.push("/admin/people", "/admin/mail", "/admin/jobs");
+  return paths;
+}
+
+for (const [role, who] of Object.entries(roles) as [keyof typeof roles, (typeof roles)[keyof typeof roles]][]) {
+  test(`every page fits a 390 px screen and passes axe, as ${role}`, async ({ page }) => {
+    test.setTimeout(300_000);
+    if (who) await signInAs(page, who);
+    const paths = await pagesFor(page, role);
+    await page.setViewportSize(PHONE);
+    const problems: string[] = [];
+    for (const path of paths) {
+      await page.goto(path);
+      await page.waitForLoadState("networkidle");
+      if (path === "/analyse") {
+        // The parameter tables only exist once something is fitted.
+        await page
+          .getByLabel(/Data: temperature and rate constant/)
+          .fill("250 2.09e-15\n290 4.90e-15\n330 9.1e-15\n370 1.5e-14\n410 2.3e-14");
+        await page.getByRole("button", { name: "Fit" }).click();
+        await expect(page.getByRole("heading", { name: "Result" })).toBeVisible();
+      }
+      const { scrollWidth, clientWidth } = await page.evaluate(() => ({
+        scrollWidth: document.documentElement.scrollWidth,
+        clientWidth: document.documentElement.clientWidth,
+      }));
+      if (scrollWidth > clientWidth) problems.push(`${path}: ${scrollWidth} px wide on a ${clientWidth} px screen`);
+      const axe = await new AxeBuilder({ page }).analyze();
+      for (const v of axe.violations.filter((x) => x.impact === "serious" || x.impact === "critical")) {
+        problems.push(`${path}: axe ${v.id} (${v.impact}) on ${v.nodes.length} element(s), e.g. ${v.nodes[0]?.target.join(" ")}`);
+      }
+    }
+    expect(paths.length).toBeGreaterThan(8);
+    expect(problems).toEqual([]);
+  });
+}
+
+test("the signed-in header folds into a menu on a phone that the keyboard opens", async ({ page }) => {
+  await signInAs(page, DEMO_CURATORS[0]);
+  await page.setViewportSize(PHONE);
+  await page.goto("/reactions");
+  const menu = page.getByRole("button", { name: /Menu/ });
+  await expect(menu).toBeVisible();
+  await expect(menu).toHaveAttribute("aria-expanded", "false");
+  await menu.focus();
+  await page.keyboard.press("Enter");
+  await expect(menu).toHaveAttribute("aria-expanded", "true");
+  const nav = page.getByRole("navigation", { name: "Main" });
+  await expect(nav.getByRole("link", { name: "Review" })).toBeVisible();
+  await expect(nav).toContainText(DEMO_CURATORS[0].name);
+  await page.keyboard.press("Escape");
+  await expect(menu).toHaveAttribute("aria-expanded", "false");
+  await expect(menu).toBeFocused();
+});
+
+test("a wide code block scrolls by keyboard and says so", async ({ page }) => {
+  await page.setViewportSize(PHONE);
+  await page.goto("/docs/api");
+  const region = page.getByRole("region", { name: "Example request and response" });
+  await region.focus();
+  await expect(region).toBeFocused();
+  const before = await region.evaluate((el) => el.scrollLeft);
+  await page.keyboard.press("ArrowRight");
+  await page.keyboard.press("ArrowRight");
+  await expect.poll(() => region.evaluate((el) => el.scrollLeft)).toBeGreaterThan(before);
+  await expect(page.getByText(/scroll sideways/).first()).toBeVisible();
+});

@@ -1,0 +1,65 @@
+import { describe, expect, it } from "vitest";
+import { decimalsOf, niceScale, niceStep, temperatureTicks } from "@/components/plot-scales";
+
+describe("niceScale", () => {
+  it.each([
+    [3.1, 4.62, [3, 3.5, 4, 4.5, 5]],
+    [-35.2, -28.9, [-36, -34, -32, -30, -28]],
+    [0.00123, 0.00456, [0.001, 0.002, 0.003, 0.004, 0.005]],
+  ])("%s … %s → round ticks", (min, max, ticks) => {
+    const s = niceScale(min, max);
+    expect(s.ticks).toEqual(ticks);
+    expect(s.domain).toEqual([ticks[0], ticks[ticks.length - 1]]);
+  });
+
+  it("labels written with the step's decimals never repeat", () => {
+    for (const [min, max] of [
+      [2.201, 2.209],
+      [-31.02, -30.97],
+      [1.9, 4.1],
+      [100, 100],
+    ]) {
+      const s = niceScale(min, max);
+      const labels = s.ticks.map((t) => t.toFixed(s.decimals));
+      expect(new Set(labels).size).toBe(labels.length);
+      expect(s.domain[0]).toBeLessThanOrEqual(min);
+      expect(s.domain[1]).toBeGreaterThanOrEqual(max);
+    }
+  });
+
+  it("steps are 1, 2, 2.5 or 5 × 10ⁿ", () => {
+    expect(niceStep(7, 5)).toBe(2);
+    expect(niceStep(0.9, 5)).toBe(0.2);
+    expect(niceStep(12, 5)).toBe(2.5);
+    expect(decimalsOf(0.25)).toBe(2);
+    expect(decimalsOf(50)).toBe(0);
+  });
+});
+
+describe("temperatureTicks", () => {
+  it("gives round kelvin values inside the 1000/T domain, distinct, ordered from cold to hot", () => {
+    // 1000/T from 2 to 5 K⁻¹: 200 … 500 K.
+    const ticks = temperatureTicks([2, 5]);
+    expect(ticks.length).toBeGreaterThanOrEqual(3);
+    for (const t of ticks) {
+      expect(t.T % 10).toBe(0);
+      expect(t.x).toBeCloseTo(1000 / t.T, 12);
+      expect(t.x).toBeGreaterThanOrEqual(2);
+      expect(t.x).toBeLessThanOrEqual(5);
+    }
+    const Ts = ticks.map((t) => t.T);
+    expect(new Set(Ts).size).toBe(Ts.length);
+    expect([...Ts].sort((a, b) => a - b)).toEqual(Ts);
+  });
+
+  it("keeps labels apart where high temperatures crowd together on the 1/T scale", () => {
+    const ticks = temperatureTicks([0.5, 4]); // 250 … 2000 K
+    for (let i = 1; i < ticks.length; i++) expect(Math.abs(ticks[i].x - ticks[i - 1].x)).toBeGreaterThanOrEqual(3.5 / 8);
+  });
+
+  it("labels a domain that starts at 1000/T = 0 (a wide computed range) instead of giving up", () => {
+    const ticks = temperatureTicks([0, 5]);
+    expect(ticks.length).toBeGreaterThanOrEqual(3);
+    expect(ticks.every((t) => Number.isFinite(t.T) && t.x > 0 && t.x <= 5)).toBe(true);
+  });
+});
