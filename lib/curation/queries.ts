@@ -5,7 +5,7 @@ import { datasets, datasetVersions } from "@/db/datasets";
 import { users } from "@/db/users";
 import type { VersionState } from "./lifecycle";
 
-export const QUEUE_STATES: VersionState[] = ["submitted", "in_review", "changes_requested"];
+export const QUEUE_STATES: VersionState[] = ["submitted", "in_review", "returned"];
 export const QUEUE_SORTS = ["submitted", "title", "severity", "points"] as const;
 export type QueueSort = (typeof QUEUE_SORTS)[number];
 
@@ -112,7 +112,7 @@ export async function findPossibleDuplicates({ versionId }: { versionId: number 
     .where(
       and(
         ne(datasetVersions.datasetId, me.datasetId),
-        inArray(datasetVersions.state, ["submitted", "in_review", "changes_requested", "published"]),
+        inArray(datasetVersions.state, ["submitted", "in_review", "returned", "published"]),
         or(...match),
       ),
     )

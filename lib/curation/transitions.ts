@@ -104,7 +104,7 @@ export async function applyTransition({
         .set({ state: to, updatedAt: now, ...(transition === "submit" ? { submittedAt: now } : {}) })
         .where(eq(datasetVersions.id, versionId));
     }
-    if (transition === "accept" || transition === "request_changes" || transition === "decline") {
+    if (transition === "accept" || transition === "return" || transition === "decline") {
       await tx.insert(decisions).values({ versionId, curatorId: actorId, decision: transition, reason: reason!.trim() });
     }
     await recordAuditEvent(tx, {

@@ -205,7 +205,7 @@ export async function saveDraft(input: {
         and(
           eq(datasetVersions.id, input.versionId),
           eq(datasetVersions.lockVersion, input.expectedLockVersion),
-          inArray(datasetVersions.state, ["draft", "changes_requested"]),
+          inArray(datasetVersions.state, ["draft", "returned"]),
         ),
       )
       .returning(versionColumns);
@@ -215,7 +215,7 @@ export async function saveDraft(input: {
         .from(datasetVersions)
         .where(eq(datasetVersions.id, input.versionId));
       if (!current) throw new AppError("not_found", "No such dataset version");
-      if (current.state !== "draft" && current.state !== "changes_requested")
+      if (current.state !== "draft" && current.state !== "returned")
         throw new AppError("conflict", `This version is ${current.state.replace("_", " ")} and can no longer be edited`);
       throw new AppError(
         "conflict",

@@ -433,7 +433,7 @@ export async function seedDemoDatasets(): Promise<number> {
           : step === "review"
             ? ["start_review", curator, undefined]
             : step === "changes"
-              ? ["request_changes", curator, reasons.changes]
+              ? ["return", curator, reasons.changes]
               : step === "accept"
                 ? ["accept", curator, reasons.accept]
                 : step === "decline"

@@ -66,11 +66,11 @@ describe("lifecycle in the database, per role", () => {
     expect(await status(applyTransition({ versionId: v.id, actorId: coCurator.id, transition: "start_review" }))).toBe(403);
     expect(await status(applyTransition({ versionId: v.id, actorId: stranger.id, transition: "start_review" }))).toBe(404);
     await applyTransition({ versionId: v.id, actorId: curator.id, transition: "start_review" });
-    expect(await status(applyTransition({ versionId: v.id, actorId: curator.id, transition: "request_changes", reason: "" }))).toBe(422);
+    expect(await status(applyTransition({ versionId: v.id, actorId: curator.id, transition: "return", reason: "" }))).toBe(422);
     await applyTransition({
       versionId: v.id,
       actorId: curator.id,
-      transition: "request_changes",
+      transition: "return",
       reason: "Give the bath gas of each point.",
     });
     await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
@@ -83,13 +83,13 @@ describe("lifecycle in the database, per role", () => {
       "dataset.created",
       "dataset.submit",
       "dataset.start_review",
-      "dataset.request_changes",
+      "dataset.return",
       "dataset.submit",
       "dataset.start_review",
       "dataset.accept",
     ]);
     const ds = await sql`select decision, reason from decisions where version_id = ${v.id} order by id`;
-    expect(ds.map((d) => d.decision)).toEqual(["request_changes", "accept"]);
+    expect(ds.map((d) => d.decision)).toEqual(["return", "accept"]);
   });
 
   it("acceptance freezes the version: hash, identifiers, and a trigger that refuses changes", async () => {

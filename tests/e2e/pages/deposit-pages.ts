@@ -189,7 +189,7 @@ export class ReviewPage {
     await expect(this.page.getByRole("status").filter({ hasText: "the version is now in review" })).toBeVisible({ timeout: 15_000 });
   }
 
-  async decide(decision: "Request changes" | "Accept and publish" | "Decline", reason: string, expectedConfirmation: RegExp) {
+  async decide(decision: "Return to the authors" | "Accept and publish" | "Decline", reason: string, expectedConfirmation: RegExp) {
     await this.page.getByRole("radio", { name: new RegExp(`^${decision}`) }).check();
     await this.page.getByLabel(/^Reason/).fill(reason);
     await this.page.getByRole("button", { name: "Record the decision" }).click();

@@ -187,11 +187,11 @@ describe("DepositEditor markup", () => {
         { client: new QueryClient() },
         h(DepositEditor, {
           mode: "existing",
-          version: { id: 9, number: 2, state: "changes_requested", versionIdentifier: null, retractionNotice: null },
+          version: { id: 9, number: 2, state: "returned", versionIdentifier: null, retractionNotice: null },
           payload: EXAMPLE_DEPOSIT,
           lockVersion: 1,
           role: "owner",
-          capabilities: versionCapabilities({ state: "changes_requested", siteRole: "researcher", datasetRole: "owner" }),
+          capabilities: versionCapabilities({ state: "returned", siteRole: "researcher", datasetRole: "owner" }),
           checks: [],
           decisions: [],
           members: [],
