@@ -98,11 +98,13 @@ test("a deposit goes from an uploaded CSV through a return to the authors to pub
     await signInAs(page, DEMO_RESEARCHER);
     await editor.open(versionId);
     await editor.expectState("published");
-    await expect(editor.versionIdentifier).toHaveText(/^Version identifier: 10\.5072\/arrhenia\.\d+\.v1 — open the public page$/);
+    await expect(editor.versionIdentifier).toHaveText(
+      /^Version identifier: 10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{3}[0-9A-Z*~$=]\/1 — open the public page$/,
+    );
     // The public page is what the identifier resolves to.
     await editor.versionIdentifier.getByRole("link", { name: "open the public page" }).click();
     await expect(page).toHaveURL(/\/datasets\/\d+\/v1$/);
-    await expect(page.getByText(/doi:10\.5072\/arrhenia\.\d+\.v1/).first()).toBeVisible();
+    await expect(page.getByText(/doi:10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{3}[0-9A-Z*~$=]\/1/).first()).toBeVisible();
     await page.goBack();
     await expect(editor.decision("accepted")).toContainText("the note on row 5 answers the question");
     await expect(editor.cell("Note", 5)).toHaveValue("re-read from the original trace");

@@ -236,7 +236,7 @@ describe("POST /api/v1/versions/:id/transitions, per role", () => {
     expect(res.status).toBe(200);
     const body = await res.json();
     expect(body.data.state).toBe("published");
-    expect(body.data.versionIdentifier).toMatch(/^10\.5072\/arrhenia\.\d+\.v1$/);
+    expect(body.data.versionIdentifier).toMatch(/^10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{3}[0-9A-Z*~$=]\/1$/);
     expect(body.data.decisions).toBeUndefined(); // the public does not see the review history
     expect(body.data.caution).toMatch(/Extrapolation outside the measured temperature range is unreliable/);
   });

@@ -96,8 +96,9 @@ describe("lifecycle in the database, per role", () => {
     const v = await newDraft();
     await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
     const out = await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Fine." });
-    expect(out.identifiers?.version).toBe(`10.5072/arrhenia.${v.datasetId}.v1`);
-    expect(out.identifiers?.series).toBe(`10.5072/arrhenia.${v.datasetId}`);
+    expect(out.identifiers?.series).toMatch(/^10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{3}[0-9A-Z*~$=]$/);
+    expect(out.identifiers?.series).not.toContain(String(v.datasetId));
+    expect(out.identifiers?.version).toBe(`${out.identifiers?.series}/1`);
     const [row] = await sql`select payload, payload_sha256, version_identifier, published_at from dataset_versions where id = ${v.id}`;
     expect(row.payload_sha256).toBe(payloadSha256(row.payload));
     expect(row.version_identifier).toBe(out.identifiers?.version);
@@ -183,8 +184,9 @@ describe("a new version", () => {
     await expect(startNextVersion({ actor: owner, versionId: v1.id })).rejects.toMatchObject({ status: 409 });
     await applyTransition({ versionId: v2.id, actorId: owner.id, transition: "submit" });
     const out = await applyTransition({ versionId: v2.id, actorId: curator.id, transition: "accept", reason: "Second version fine." });
-    expect(out.identifiers).toEqual({ version: `10.5072/arrhenia.${v1.datasetId}.v2`, series: `10.5072/arrhenia.${v1.datasetId}` });
+    const [{ series }] = await sql`select series_identifier as series from datasets where id = ${v1.datasetId}`;
+    expect(out.identifiers).toEqual({ version: `${series}/2`, series });
     const [v1row] = await sql`select state, version_identifier from dataset_versions where id = ${v1.id}`;
-    expect(v1row).toEqual({ state: "published", version_identifier: `10.5072/arrhenia.${v1.datasetId}.v1` });
+    expect(v1row).toEqual({ state: "published", version_identifier: `${series}/1` });
   });
 });
