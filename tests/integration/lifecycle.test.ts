@@ -190,3 +190,20 @@ describe("a new version", () => {
     expect(v1row).toEqual({ state: "published", version_identifier: `${series}/1` });
   });
 });
+
+describe("a reaction-class id retired after publication", () => {
+  it("stays in the published document, and the next version starts with the current id", async () => {
+    const { startNextVersion } = await import("@/lib/datasets/deposits");
+    const legacy = { title: "OH + CH4 test", reaction: { class: "h_abstraction", order: 2 }, points: [1, 2] };
+    const v1 = await createDatasetDraft({ ownerId: owner.id, title: "OH + CH4 test", payload: legacy, points, analysis });
+    await applyTransition({ versionId: v1.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v1.id, actorId: curator.id, transition: "accept", reason: "Fine." });
+    const v2 = await startNextVersion({ actor: owner, versionId: v1.id });
+    const rows =
+      await sql`select id, payload -> 'reaction' as reaction from dataset_versions where id in (${v1.id}, ${v2.id}) order by number`;
+    expect(rows.map((r) => r.reaction)).toEqual([
+      { class: "h_abstraction", order: 2 },
+      { class: "hydrogen-abstraction", order: 2 },
+    ]);
+  });
+});
