@@ -83,10 +83,11 @@ export const PHASES = [
 
 export type PhaseId = (typeof PHASES)[number]["id"];
 
+/** How the rate constants were obtained; the ids stay as the deposit format names them, the labels are ours. */
 export const METHOD_CATEGORIES = [
-  { id: "experiment", label: "Experiment", hint: "Rate constants measured in the laboratory." },
-  { id: "theory", label: "Theory", hint: "Rate constants computed, e.g. from transition-state or master-equation calculations." },
-  { id: "evaluation", label: "Evaluation", hint: "Values recommended after weighing several sources." },
+  { id: "experiment", label: "Measured", hint: "Rate constants measured in the laboratory." },
+  { id: "theory", label: "Calculated", hint: "Rate constants computed, e.g. from transition-state or master-equation calculations." },
+  { id: "evaluation", label: "Evaluated from other work", hint: "Values recommended after weighing other published sources." },
 ] as const;
 
 export type MethodCategoryId = (typeof METHOD_CATEGORIES)[number]["id"];
@@ -145,8 +146,8 @@ export const IDENTIFIER_KINDS = [
 export type IdentifierKind = (typeof IDENTIFIER_KINDS)[number]["id"];
 
 export const FIT_MODELS = [
-  { id: "arrhenius", label: "Arrhenius: k = A exp(−Ea/RT)" },
-  { id: "modified_arrhenius", label: "Modified Arrhenius: k = A (T/T0)^n exp(−Ea/RT)" },
+  { id: "arrhenius", label: "Arrhenius (no temperature power, n = 0)" },
+  { id: "modified_arrhenius", label: "Modified Arrhenius (with the power n of T/T0)" },
 ] as const;
 
 export type FitModelId = (typeof FIT_MODELS)[number]["id"];

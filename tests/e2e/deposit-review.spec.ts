@@ -34,7 +34,7 @@ test("a deposit goes from an uploaded CSV through a return to the authors to pub
       order: "2",
       phase: "Gas phase",
     });
-    await editor.fillMethod("Experiment", "pulsed laser photolysis");
+    await editor.fillMethod("Measured", "pulsed laser photolysis");
     await editor.fillSourceDoi(`10.5555/arrhenia.e2e.${stamp}`);
   });
 
