@@ -55,13 +55,13 @@ export class DepositEditorPage {
   }
 
   async fillAbout(title: string, description: string) {
-    const about = this.section("About the dataset");
+    const about = this.section("Title and summary");
     await about.getByLabel(/^Title/).fill(title);
     await this.description.fill(description);
   }
 
   get description(): Locator {
-    return this.section("About the dataset").getByLabel(/^Description/);
+    return this.section("Title and summary").getByLabel(/^Description/);
   }
 
   async fillReaction({
@@ -96,7 +96,7 @@ export class DepositEditorPage {
   }
 
   async fillMethod(kind: string, technique: string) {
-    await this.page.getByLabel("Kind of work").selectOption({ label: kind });
+    await this.page.getByLabel("Obtained by").selectOption({ label: kind });
     await this.page.getByLabel(/^Technique/).fill(technique);
   }
 
