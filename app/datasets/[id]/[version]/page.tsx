@@ -48,11 +48,11 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
         <h1 className="text-3xl font-semibold">{version.title}</h1>
         <p className="text-sm">{doc.creators?.map((c) => c.name).join("; ")}</p>
         <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-          <dt className="text-muted">Version identifier</dt>
+          <dt className="text-muted">This version</dt>
           <dd className="font-mono">doi:{version.versionIdentifier}</dd>
           {dataset?.seriesIdentifier && (
             <>
-              <dt className="text-muted">All versions</dt>
+              <dt className="text-muted">The dataset (newest version)</dt>
               <dd className="font-mono">doi:{dataset.seriesIdentifier}</dd>
             </>
           )}
