@@ -2,7 +2,7 @@ const words: Record<string, string> = {
   draft: "draft",
   submitted: "submitted",
   in_review: "in review",
-  changes_requested: "changes requested",
+  returned: "returned for revision",
   published: "published",
   declined: "declined",
   retracted: "retracted",
@@ -12,7 +12,7 @@ const tone: Record<string, string> = {
   published: "border-ok/50 text-ok",
   declined: "border-error/40 text-error",
   retracted: "border-error/40 text-error",
-  changes_requested: "border-warn/50 text-warn",
+  returned: "border-warn/50 text-warn",
 };
 
 /** A version's lifecycle state in plain words (text, not colour alone, carries the meaning). */

@@ -15,18 +15,18 @@ import {
 import { reactions } from "./chemistry";
 import { users } from "./users";
 
-/** Lifecycle of one version: draft → submitted → in_review → changes_requested → … → published | declined; published → retracted. */
+/** Lifecycle of one version: draft → submitted → in_review → returned → … → published | declined; published → retracted. */
 export const versionStateEnum = pgEnum("version_state", [
   "draft",
   "submitted",
   "in_review",
-  "changes_requested",
+  "returned",
   "published",
   "declined",
   "retracted",
 ]);
 export const coEditorRoleEnum = pgEnum("co_editor_role", ["owner", "editor", "viewer"]);
-export const decisionEnum = pgEnum("decision", ["accept", "request_changes", "decline"]);
+export const decisionEnum = pgEnum("decision", ["accept", "return", "decline"]);
 
 /** One deposited body of data, all its versions together. */
 export const datasets = pgTable(

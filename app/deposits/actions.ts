@@ -26,7 +26,7 @@ function failure(err: unknown): EditorResult {
 const versionIdSchema = idFor("dataset version");
 const documentJson = z.string().max(MAX_DOCUMENT_BYTES, "The document is larger than 25 MB");
 const lockVersion = z.number().int().min(0).max(MAX_ID);
-const transitionSchema = z.enum(["submit", "withdraw", "start_review", "request_changes", "accept", "decline", "retract"]);
+const transitionSchema = z.enum(["submit", "withdraw", "start_review", "return", "accept", "decline", "retract"]);
 // The same bound as the transitions endpoint; the minimum is the lifecycle's (a reason is needed only for decisions).
 const reasonSchema = z.string().max(5000, "Keep the reason under 5000 characters").optional();
 

@@ -18,7 +18,7 @@ const flagOptions = [
 ] as const;
 
 const queueParams = z.object({
-  state: z.enum(["submitted", "in_review", "changes_requested", "all"]).catch("all"),
+  state: z.enum(["submitted", "in_review", "returned", "all"]).catch("all"),
   // Filters are closed lists: anything else (including text the database cannot hold) shows every row.
   class: z
     .enum(REACTION_CLASSES.map((c) => c.id) as [string, ...string[]])
@@ -58,7 +58,7 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
             <option value="all">waiting (all)</option>
             <option value="submitted">submitted</option>
             <option value="in_review">in review</option>
-            <option value="changes_requested">changes requested</option>
+            <option value="returned">returned for revision</option>
           </select>
         </label>
         <label className="space-y-1 text-sm">

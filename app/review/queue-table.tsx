@@ -4,7 +4,7 @@ import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type So
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { SeverityLabel, StateLabel } from "@/components/state-label";
-import { REACTION_CLASSES } from "@/lib/deposits/vocabulary";
+import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { ScrollRegion } from "@/components/scroll-region";
 import { formatRange } from "@/lib/format";
 
@@ -43,7 +43,7 @@ const columns = [
   col.accessor("state", { header: "State", cell: (c) => <StateLabel state={c.getValue()} />, enableSorting: false }),
   col.accessor("reactionClass", {
     header: "Class",
-    cell: (c) => REACTION_CLASSES.find((k) => k.id === c.getValue())?.label ?? c.getValue() ?? "—",
+    cell: (c) => reactionClassFor(c.getValue())?.label ?? c.getValue() ?? "—",
     enableSorting: false,
   }),
   col.accessor("worstFlag", { header: "Checks", cell: (c) => <SeverityLabel severity={c.getValue()} />, enableSorting: true }),

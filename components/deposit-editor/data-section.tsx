@@ -74,7 +74,7 @@ export function DataSection({
   return (
     <Section
       id={sectionAnchor("data")}
-      title="Data"
+      title="Rate constants"
       description="One row per rate constant: at least two, at most 100 000. Numbers are stored as you give them, in the units chosen here."
     >
       <div className="grid gap-4 md:grid-cols-2">

@@ -9,6 +9,7 @@ import type { DepositDocument } from "@/lib/deposits/types";
 import type { FieldError } from "@/lib/errors";
 import { AboutSection } from "./about-section";
 import { ConditionsSection } from "./conditions-section";
+import { CreditSection } from "./credit-section";
 import { DataSection } from "./data-section";
 import { EditorContextProvider, type EditorContextValue } from "./editor-context";
 import { ErrorSummary } from "./error-summary";
@@ -294,6 +295,7 @@ export function DepositEditor(props: DepositEditorProps) {
         <LiveAnalysis form={deferredForm} />
         <ReportedFitSection form={form} update={update} />
         <SourceSection form={form} update={update} />
+        <CreditSection form={form} update={update} />
 
         {editable && (
           <div className="flex flex-wrap items-center gap-3">

@@ -49,7 +49,7 @@ const STATE_EXPLAINED: Record<string, string> = {
   draft: "Only you and your co-editors can see it. Submit it when it is ready for a curator.",
   submitted: "Waiting for a curator. You can withdraw it to make more changes.",
   in_review: "A curator is reviewing it. You can withdraw it to make more changes.",
-  changes_requested: "A curator asked for changes (see below). Edit the draft, save, and submit it again.",
+  returned: "A curator returned this version for revision (see the reason below). Edit the draft, save, and submit it again.",
   published: "Public and citable. It can no longer be changed; a correction becomes a new version.",
   declined: "A curator declined it; the reason is below.",
   retracted: "Withdrawn from use by a curator; the notice below says why. It stays readable.",

@@ -10,11 +10,15 @@ export function MethodSection({ form, update }: SectionProps) {
   const m = form.method;
   const set = (patch: Partial<EditorForm["method"]>) => update((f) => ({ ...f, method: { ...f.method, ...patch } }));
   return (
-    <Section id={sectionAnchor("method")} title="Method" description="How the rate constants were obtained.">
+    <Section
+      id={sectionAnchor("method")}
+      title="How k was obtained"
+      description="Measured, calculated, or evaluated from other work, and by which technique."
+    >
       <div className="grid gap-4 md:grid-cols-2">
         <SelectField
           pointer="/method/category"
-          label="Kind of work"
+          label="Obtained by"
           required
           placeholder="Choose…"
           value={m.category}

@@ -6,16 +6,17 @@
 import type { FieldError } from "@/lib/errors";
 import type { EditorForm } from "./form-model";
 
-export type SectionId = "about" | "reaction" | "method" | "conditions" | "data" | "fit" | "source";
+export type SectionId = "about" | "reaction" | "method" | "conditions" | "data" | "fit" | "source" | "credit";
 
 export const SECTIONS: { id: SectionId; title: string }[] = [
-  { id: "about", title: "About the dataset" },
+  { id: "about", title: "Title and summary" },
   { id: "reaction", title: "Reaction" },
-  { id: "method", title: "Method" },
+  { id: "method", title: "How k was obtained" },
   { id: "conditions", title: "Conditions" },
-  { id: "data", title: "Data" },
-  { id: "fit", title: "Reported expression" },
-  { id: "source", title: "Source" },
+  { id: "data", title: "Rate constants" },
+  { id: "fit", title: "The authors' expression" },
+  { id: "source", title: "Where the numbers were published" },
+  { id: "credit", title: "People, grants and links" },
 ];
 
 /** The element id of the input for a pointer: "/reaction/reactants/0/smiles" → "field-reaction-reactants-0-smiles". */
@@ -116,9 +117,11 @@ export function sectionOf(pointer: string): SectionId | null {
     case "description":
     case "keywords":
     case "license":
+      return "about";
     case "creators":
     case "funding":
-      return "about";
+    case "relatedIdentifiers":
+      return "credit";
     case "reaction":
       return "reaction";
     case "method":
@@ -132,7 +135,6 @@ export function sectionOf(pointer: string): SectionId | null {
     case "reportedFit":
       return "fit";
     case "source":
-    case "relatedIdentifiers":
       return "source";
     default:
       return null;

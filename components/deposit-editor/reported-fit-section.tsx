@@ -16,8 +16,8 @@ export function ReportedFitSection({ form, update }: SectionProps) {
   return (
     <Section
       id={sectionAnchor("fit")}
-      title="Reported expression (optional)"
-      description="The expression the authors give for their data, if any. It is compared with the automatic fit."
+      title="The authors' expression"
+      description="The expression the authors give for their data, if any: k(T) = A · (T / T0)ⁿ · exp(−Ea / RT), with n = 0 in the plain Arrhenius form and T0 = 298.15 K unless given. It is compared with the automatic fit."
     >
       <CheckboxField
         pointer="/reportedFit/enabled"

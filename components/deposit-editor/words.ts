@@ -5,7 +5,7 @@ export const STATE_WORDS: Record<VersionState, string> = {
   draft: "draft",
   submitted: "submitted",
   in_review: "in review",
-  changes_requested: "changes requested",
+  returned: "returned for revision",
   published: "published",
   declined: "declined",
   retracted: "retracted",
@@ -37,7 +37,7 @@ export function severityWords(severity: string): string {
 
 export const DECISION_WORDS: Record<string, string> = {
   accept: "accepted",
-  request_changes: "changes requested",
+  return: "returned to the authors",
   decline: "declined",
 };
 

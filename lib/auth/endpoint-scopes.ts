@@ -9,6 +9,7 @@ export const endpointScopes: { method: string; path: string; scope: ApiTokenScop
   { method: "POST", path: "/api/v1/analyses", scope: null, who: "anyone" },
   { method: "GET", path: "/api/v1/species/preview", scope: null, who: "anyone" },
   { method: "GET", path: "/api/v1/reactions/:id/consensus", scope: null, who: "anyone" },
+  { method: "GET", path: "/api/v1/identifiers", scope: null, who: "anyone" },
   { method: "POST", path: "/api/v1/datasets", scope: "deposit", who: "researchers" },
   { method: "GET", path: "/api/v1/versions/:id", scope: "read", who: "anyone for published versions; co-editors and curators otherwise" },
   { method: "PUT", path: "/api/v1/versions/:id", scope: "deposit", who: "owner and editors of a draft" },

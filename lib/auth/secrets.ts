@@ -1,6 +1,6 @@
 import { createHash, randomBytes, timingSafeEqual } from "node:crypto";
 
-/** A URL-safe random secret with a readable prefix, e.g. `arr_pat_…` for personal API tokens. */
+/** A URL-safe random secret with a readable prefix, e.g. `arh_key_…` for API keys. */
 export function generateSecret(prefix: string, bytes = 32): string {
   return `${prefix}${randomBytes(bytes).toString("base64url")}`;
 }

@@ -18,15 +18,7 @@ export const versionActions: readonly VersionAction[] = [
   ...(Object.keys(lifecycle) as Transition[]),
 ];
 
-export const versionStates: readonly VersionState[] = [
-  "draft",
-  "submitted",
-  "in_review",
-  "changes_requested",
-  "published",
-  "declined",
-  "retracted",
-];
+export const versionStates: readonly VersionState[] = ["draft", "submitted", "in_review", "returned", "published", "declined", "retracted"];
 
 /** What each role on a dataset allows, before the state of the version is considered. */
 export const datasetRoleTable = {
@@ -36,7 +28,7 @@ export const datasetRoleTable = {
 } as const satisfies Record<CoEditorRole, { edit: boolean; invite: boolean; startNextVersion: boolean; authorTransitions: boolean }>;
 
 /** States whose content may change: the document, its points and its files. */
-export const editableStates: readonly VersionState[] = ["draft", "changes_requested"];
+export const editableStates: readonly VersionState[] = ["draft", "returned"];
 /** States from which the next version may start: the newest one must be finished. */
 export const finishedStates: readonly VersionState[] = ["published", "retracted"];
 
@@ -73,7 +65,7 @@ export function versionCapabilities({ state, siteRole, datasetRole }: Capability
     submit: false,
     withdraw: false,
     start_review: false,
-    request_changes: false,
+    return: false,
     accept: false,
     decline: false,
     retract: false,
@@ -97,7 +89,7 @@ const denials: Record<VersionAction, string> = {
   submit: "Only the dataset's owner may submit it",
   withdraw: "Only the dataset's owner may withdraw it",
   start_review: "Only curators may do this",
-  request_changes: "Only curators may do this",
+  return: "Only curators may do this",
   accept: "Only curators may do this",
   decline: "Only curators may do this",
   retract: "Only curators may do this",

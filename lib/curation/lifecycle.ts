@@ -1,8 +1,8 @@
 import type { Role } from "@/db/users";
 
-export type VersionState = "draft" | "submitted" | "in_review" | "changes_requested" | "published" | "declined" | "retracted";
+export type VersionState = "draft" | "submitted" | "in_review" | "returned" | "published" | "declined" | "retracted";
 export type CoEditorRole = "owner" | "editor" | "viewer";
-export type Transition = "submit" | "withdraw" | "start_review" | "request_changes" | "accept" | "decline" | "retract";
+export type Transition = "submit" | "withdraw" | "start_review" | "return" | "accept" | "decline" | "retract";
 
 /** Who acts, as far as the lifecycle cares: site role and role on this dataset (if any). */
 export interface TransitionActor {
@@ -20,14 +20,14 @@ interface Rule {
 
 /**
  * The lifecycle, one rule per transition:
- * draft → submitted → in_review → changes_requested → submitted … → published | declined;
+ * draft → submitted → in_review → returned → submitted … → published | declined;
  * published → retracted (with a public notice).
  */
 export const lifecycle: Record<Transition, Rule> = {
-  submit: { from: ["draft", "changes_requested"], to: "submitted", by: "owner", needsReason: false },
+  submit: { from: ["draft", "returned"], to: "submitted", by: "owner", needsReason: false },
   withdraw: { from: ["submitted", "in_review"], to: "draft", by: "owner", needsReason: false },
   start_review: { from: ["submitted"], to: "in_review", by: "curator", needsReason: false },
-  request_changes: { from: ["submitted", "in_review"], to: "changes_requested", by: "curator", needsReason: true },
+  return: { from: ["submitted", "in_review"], to: "returned", by: "curator", needsReason: true },
   accept: { from: ["submitted", "in_review"], to: "published", by: "curator", needsReason: true },
   decline: { from: ["submitted", "in_review"], to: "declined", by: "curator", needsReason: true },
   retract: { from: ["published"], to: "retracted", by: "curator", needsReason: true },
@@ -37,7 +37,7 @@ export const stateWords: Record<VersionState, string> = {
   draft: "a draft",
   submitted: "submitted",
   in_review: "in review",
-  changes_requested: "waiting for changes",
+  returned: "returned for revision",
   published: "published",
   declined: "declined",
   retracted: "retracted",
@@ -47,7 +47,7 @@ export const transitionWords: Record<Transition, string> = {
   submit: "submitted",
   withdraw: "withdrawn",
   start_review: "taken into review",
-  request_changes: "sent back for changes",
+  return: "returned to the authors",
   accept: "accepted",
   decline: "declined",
   retract: "retracted",

@@ -3,9 +3,10 @@ import { and, asc, count, desc, eq, inArray, lt, ne, or, sql, type SQL } from "d
 import { getDb } from "@/db/client";
 import { datasets, datasetVersions } from "@/db/datasets";
 import { users } from "@/db/users";
+import { RETIRED_REACTION_CLASS_IDS } from "@/lib/deposits/vocabulary";
 import type { VersionState } from "./lifecycle";
 
-export const QUEUE_STATES: VersionState[] = ["submitted", "in_review", "changes_requested"];
+export const QUEUE_STATES: VersionState[] = ["submitted", "in_review", "returned"];
 export const QUEUE_SORTS = ["submitted", "title", "severity", "points"] as const;
 export type QueueSort = (typeof QUEUE_SORTS)[number];
 
@@ -30,7 +31,11 @@ export async function listReviewQueue(q: QueueQuery) {
   const pageSize = Math.min(Math.max(q.pageSize ?? 20, 5), 100);
   const page = Math.max(q.page ?? 1, 1);
   const where: SQL[] = [inArray(datasetVersions.state, q.states?.length ? q.states : QUEUE_STATES)];
-  if (q.reactionClass) where.push(eq(reactionClass, q.reactionClass));
+  if (q.reactionClass) {
+    // Published versions keep the class id they were published with, retired ones included.
+    const retired = Object.entries(RETIRED_REACTION_CLASS_IDS).filter(([, id]) => id === q.reactionClass);
+    where.push(inArray(reactionClass, [q.reactionClass, ...retired.map(([old]) => old)]));
+  }
   if (q.flag) where.push(sql`${q.flag} = any(${datasetVersions.flagCodes})`);
   if (q.olderThanDays) where.push(lt(datasetVersions.submittedAt, new Date(Date.now() - q.olderThanDays * 86_400_000)));
   const dir = q.direction === "desc" ? desc : asc;
@@ -112,7 +117,7 @@ export async function findPossibleDuplicates({ versionId }: { versionId: number 
     .where(
       and(
         ne(datasetVersions.datasetId, me.datasetId),
-        inArray(datasetVersions.state, ["submitted", "in_review", "changes_requested", "published"]),
+        inArray(datasetVersions.state, ["submitted", "in_review", "returned", "published"]),
         or(...match),
       ),
     )

@@ -8,7 +8,7 @@ import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
 import { AppError } from "@/lib/errors";
-import { seriesIdentifier, versionIdentifier } from "@/lib/identifiers/mint";
+import { mintSeriesIdentifier, versionIdentifier } from "@/lib/identifiers/mint";
 import { planTransition } from "./capabilities";
 import type { CoEditorRole, Transition, VersionState } from "./lifecycle";
 
@@ -74,17 +74,14 @@ export async function applyTransition({
     const outcome: TransitionOutcome = { versionId, datasetId: version.datasetId, from: version.state, to };
 
     if (transition === "accept") {
-      const ids = { version: versionIdentifier(version.datasetId, version.number), series: seriesIdentifier(version.datasetId) };
+      const series = await seriesIdentifierFor(tx, version.datasetId);
+      const ids = { version: versionIdentifier(series, version.number), series };
       outcome.identifiers = ids;
       await tx
         .update(datasetVersions)
         .set({ state: to, publishedAt: now, updatedAt: now, payloadSha256: payloadSha256(version.payload), versionIdentifier: ids.version })
         .where(eq(datasetVersions.id, versionId));
       await addPublishedSpeciesNames(tx, version.participantNames);
-      await tx
-        .update(datasets)
-        .set({ seriesIdentifier: ids.series })
-        .where(and(eq(datasets.id, version.datasetId), isNull(datasets.seriesIdentifier)));
       // One registration row per identifier: re-running registration never mints twice.
       await tx
         .insert(identifierRegistrations)
@@ -104,7 +101,7 @@ export async function applyTransition({
         .set({ state: to, updatedAt: now, ...(transition === "submit" ? { submittedAt: now } : {}) })
         .where(eq(datasetVersions.id, versionId));
     }
-    if (transition === "accept" || transition === "request_changes" || transition === "decline") {
+    if (transition === "accept" || transition === "return" || transition === "decline") {
       await tx.insert(decisions).values({ versionId, curatorId: actorId, decision: transition, reason: reason!.trim() });
     }
     await recordAuditEvent(tx, {
@@ -122,4 +119,25 @@ export async function applyTransition({
     if (beforeCommit) await beforeCommit(tx, outcome);
     return outcome;
   });
+}
+
+/**
+ * The dataset's series identifier, minted (and stored) with its first publication. The dataset row
+ * is locked, so two versions accepted at once share one series; a random code already taken by
+ * another dataset is drawn again.
+ */
+async function seriesIdentifierFor(tx: Transaction, datasetId: number): Promise<string> {
+  const [row] = await tx.select({ series: datasets.seriesIdentifier }).from(datasets).where(eq(datasets.id, datasetId)).for("update");
+  if (row?.series) return row.series;
+  for (let attempt = 0; attempt < 8; attempt++) {
+    const series = mintSeriesIdentifier();
+    const [taken] = await tx.select({ id: datasets.id }).from(datasets).where(eq(datasets.seriesIdentifier, series));
+    if (taken) continue;
+    await tx
+      .update(datasets)
+      .set({ seriesIdentifier: series })
+      .where(and(eq(datasets.id, datasetId), isNull(datasets.seriesIdentifier)));
+    return series;
+  }
+  throw new Error("No free series code after 8 draws");
 }

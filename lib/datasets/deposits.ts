@@ -122,7 +122,7 @@ export async function transitionVersion({
   const title = found?.version.title ?? "your dataset";
   const curators = transition === "submit" ? await listActiveCurators() : [];
   const members =
-    ["accept", "request_changes", "decline", "retract"].includes(transition) && found
+    ["accept", "return", "decline", "retract"].includes(transition) && found
       ? await listDatasetMembers({ datasetId: found.version.datasetId })
       : [];
   return applyTransition({
@@ -138,7 +138,7 @@ export async function transitionVersion({
         // A later version changes what the series record lists, so it is sent again.
         await enqueueIdentifierRegistration(outcome.identifiers.series, { tx, refresh: (found?.version.number ?? 1) > 1 });
       }
-      if (transition === "accept" || transition === "request_changes" || transition === "decline" || transition === "retract") {
+      if (transition === "accept" || transition === "return" || transition === "decline" || transition === "retract") {
         const published =
           outcome.identifiers && found
             ? { identifier: outcome.identifiers.version, path: `/datasets/${outcome.datasetId}/v${found.version.number}` }

@@ -5,6 +5,7 @@ import { datasetMembers, datasets, datasetVersions, decisions, versionAnalyses, 
 import { users } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import type { CoEditorRole, VersionState } from "@/lib/curation/lifecycle";
+import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { AppError } from "@/lib/errors";
 import { upsertReaction, type ResolvedParticipant } from "./species-queries";
 
@@ -205,7 +206,7 @@ export async function saveDraft(input: {
         and(
           eq(datasetVersions.id, input.versionId),
           eq(datasetVersions.lockVersion, input.expectedLockVersion),
-          inArray(datasetVersions.state, ["draft", "changes_requested"]),
+          inArray(datasetVersions.state, ["draft", "returned"]),
         ),
       )
       .returning(versionColumns);
@@ -215,7 +216,7 @@ export async function saveDraft(input: {
         .from(datasetVersions)
         .where(eq(datasetVersions.id, input.versionId));
       if (!current) throw new AppError("not_found", "No such dataset version");
-      if (current.state !== "draft" && current.state !== "changes_requested")
+      if (current.state !== "draft" && current.state !== "returned")
         throw new AppError("conflict", `This version is ${current.state.replace("_", " ")} and can no longer be edited`);
       throw new AppError(
         "conflict",
@@ -415,7 +416,7 @@ export async function createNextVersion({
         number: latest.number + 1,
         title: latest.title,
         reactionId: latest.reactionId,
-        payload: latest.payload,
+        payload: withCurrentReactionClass(latest.payload),
         participantNames: latest.participantNames,
         createdBy: actorId,
         ...summarise(stored, summary),
@@ -500,4 +501,12 @@ export async function appendRefitAnalysis({
     if ((err as { code?: string }).code === "23505" || (err as { cause?: { code?: string } }).cause?.code === "23505") return false;
     throw err;
   }
+}
+
+/** A published document may carry a retired reaction-class id; its next version starts with the current one. */
+function withCurrentReactionClass(payload: Record<string, unknown>): Record<string, unknown> {
+  const reaction = payload.reaction as { class?: unknown } | undefined;
+  const current = reactionClassFor(reaction?.class);
+  if (!reaction || !current || current.id === reaction.class) return payload;
+  return { ...payload, reaction: { ...reaction, class: current.id } };
 }

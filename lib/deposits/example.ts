@@ -36,7 +36,7 @@ export const EXAMPLE_DEPOSIT: DepositDocument = {
       { name: "water", smiles: "O", coefficient: 1 },
       { name: "methyl radical", smiles: "[CH3]", coefficient: 1 },
     ],
-    class: "h_abstraction",
+    class: "hydrogen-abstraction",
     order: 2,
     phase: "gas",
   },

@@ -17,7 +17,7 @@ import {
   sentenceWithPrefix,
 } from "./messages";
 import { depositSchema, escapePointerSegment, schemaAtSegments, splitPointer, type SchemaNode } from "./schema";
-import { MAX_POINTS } from "./vocabulary";
+import { MAX_POINTS, RETIRED_REACTION_CLASS_IDS } from "./vocabulary";
 
 type MessageRule = (pointer: string, value: unknown, error: ErrorObject) => string;
 
@@ -190,6 +190,9 @@ function messageFor(e: ErrorObject, pointer: string): string {
     }
     case "enum": {
       const allowed = (p.allowedValues as unknown[]).map((a) => String(a));
+      if (pointer === "/reaction/class" && typeof v === "string" && Object.hasOwn(RETIRED_REACTION_CLASS_IDS, v)) {
+        return sentenceAt(pointer, `uses the retired id ${formatValue(v)}: write "${RETIRED_REACTION_CLASS_IDS[v]}" instead`);
+      }
       return sentenceAt(pointer, `must be one of: ${allowed.join(", ")} (got ${formatValue(v)})`);
     }
     case "const":

@@ -13,22 +13,45 @@ export const MAX_POINTS = 100_000;
 /** Fewest points one dataset may hold. */
 export const MIN_POINTS = 2;
 
-/** Reaction classes: snake_case id (stored, in the schema) and the label shown on screens. */
+/** Reaction classes: kebab-case id (stored, in the schema) and the label shown on screens. */
 export const REACTION_CLASSES = [
-  { id: "h_abstraction", label: "H-atom abstraction", hint: "A radical or atom removes a hydrogen atom: OH + CH₄ → H₂O + CH₃." },
+  { id: "hydrogen-abstraction", label: "H-atom abstraction", hint: "A radical or atom removes a hydrogen atom: OH + CH₄ → H₂O + CH₃." },
   { id: "addition", label: "Addition", hint: "Two species join across a multiple bond: OH + C₂H₄ → HOCH₂CH₂." },
   { id: "elimination", label: "Elimination", hint: "A small molecule leaves, forming a multiple bond: C₂H₅Cl → C₂H₄ + HCl." },
-  { id: "bond_fission", label: "Bond fission", hint: "One molecule breaks into two fragments: C₂H₆ → 2 CH₃." },
+  { id: "bond-fission", label: "Bond fission", hint: "One molecule breaks into two fragments: C₂H₆ → 2 CH₃." },
   { id: "recombination", label: "Recombination", hint: "Two radicals or atoms combine: CH₃ + CH₃ → C₂H₆." },
   { id: "isomerisation", label: "Isomerisation", hint: "One species rearranges into another of the same formula." },
   { id: "substitution", label: "Substitution", hint: "One group replaces another: Cl + CH₃Br → CH₃Cl + Br." },
-  { id: "disproportionation", label: "Disproportionation", hint: "Two radicals exchange an atom to give two closed-shell products." },
-  { id: "electron_transfer", label: "Electron transfer", hint: "An electron moves from one species to another." },
+  {
+    id: "radical-disproportionation",
+    label: "Disproportionation",
+    hint: "Two radicals exchange an atom to give two closed-shell products.",
+  },
+  { id: "electron-transfer", label: "Electron transfer", hint: "An electron moves from one species to another." },
   { id: "insertion", label: "Insertion", hint: "An atom or carbene inserts into a bond: O(¹D) + CH₄ → CH₃OH." },
   { id: "other", label: "Other", hint: "None of the above; say more in the description." },
 ] as const;
 
 export type ReactionClassId = (typeof REACTION_CLASSES)[number]["id"];
+
+/**
+ * Ids used before the classes were renamed. Published versions keep them in their frozen
+ * documents (the payload's hash covers them); screens read them through `reactionClassFor`, and a
+ * new document that still uses one is refused with the id to write instead.
+ */
+export const RETIRED_REACTION_CLASS_IDS: Readonly<Record<string, ReactionClassId>> = {
+  h_abstraction: "hydrogen-abstraction",
+  bond_fission: "bond-fission",
+  disproportionation: "radical-disproportionation",
+  electron_transfer: "electron-transfer",
+};
+
+/** The class an id stands for, current or retired; undefined for anything else. */
+export function reactionClassFor(id: unknown): (typeof REACTION_CLASSES)[number] | undefined {
+  if (typeof id !== "string") return undefined;
+  const current = Object.hasOwn(RETIRED_REACTION_CLASS_IDS, id) ? RETIRED_REACTION_CLASS_IDS[id] : id;
+  return REACTION_CLASSES.find((c) => c.id === current);
+}
 
 /**
  * Licences a dataset may carry (SPDX ids). Open data and content licences only: the repository is
@@ -60,10 +83,11 @@ export const PHASES = [
 
 export type PhaseId = (typeof PHASES)[number]["id"];
 
+/** How the rate constants were obtained; the ids stay as the deposit format names them, the labels are ours. */
 export const METHOD_CATEGORIES = [
-  { id: "experiment", label: "Experiment", hint: "Rate constants measured in the laboratory." },
-  { id: "theory", label: "Theory", hint: "Rate constants computed, e.g. from transition-state or master-equation calculations." },
-  { id: "evaluation", label: "Evaluation", hint: "Values recommended after weighing several sources." },
+  { id: "experiment", label: "Measured", hint: "Rate constants measured in the laboratory." },
+  { id: "theory", label: "Calculated", hint: "Rate constants computed, e.g. from transition-state or master-equation calculations." },
+  { id: "evaluation", label: "Evaluated from other work", hint: "Values recommended after weighing other published sources." },
 ] as const;
 
 export type MethodCategoryId = (typeof METHOD_CATEGORIES)[number]["id"];
@@ -122,8 +146,8 @@ export const IDENTIFIER_KINDS = [
 export type IdentifierKind = (typeof IDENTIFIER_KINDS)[number]["id"];
 
 export const FIT_MODELS = [
-  { id: "arrhenius", label: "Arrhenius: k = A exp(−Ea/RT)" },
-  { id: "modified_arrhenius", label: "Modified Arrhenius: k = A (T/T0)^n exp(−Ea/RT)" },
+  { id: "arrhenius", label: "Arrhenius (no temperature power, n = 0)" },
+  { id: "modified_arrhenius", label: "Modified Arrhenius (with the power n of T/T0)" },
 ] as const;
 
 export type FitModelId = (typeof FIT_MODELS)[number]["id"];

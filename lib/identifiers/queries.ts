@@ -143,3 +143,20 @@ export async function recordRegistrationFailure({ identifier, error }: { identif
     .set({ attempts: sql`${identifierRegistrations.attempts} + 1`, lastError: error.slice(0, 2000) })
     .where(eq(identifierRegistrations.identifier, identifier));
 }
+
+/** Where a minted identifier leads: a public version, or a series (its newest public version). */
+export type ResolvedIdentifier =
+  | { kind: "version"; identifier: string; datasetId: number; versionNumber: number; state: VersionState }
+  | { kind: "series"; identifier: string; datasetId: number };
+
+/** Looks up an identifier exactly as minted (either scheme); drafts and declined versions never have one. */
+export async function resolveIdentifier({ identifier }: { identifier: string }): Promise<ResolvedIdentifier | null> {
+  const db = getDb();
+  const [version] = await db
+    .select({ datasetId: datasetVersions.datasetId, number: datasetVersions.number, state: datasetVersions.state })
+    .from(datasetVersions)
+    .where(eq(datasetVersions.versionIdentifier, identifier));
+  if (version) return { kind: "version", identifier, datasetId: version.datasetId, versionNumber: version.number, state: version.state };
+  const [series] = await db.select({ id: datasets.id }).from(datasets).where(eq(datasets.seriesIdentifier, identifier));
+  return series ? { kind: "series", identifier, datasetId: series.id } : null;
+}

@@ -88,12 +88,12 @@ export function submissionMail(to: string, name: string, title: string, versionI
 
 const decisionWords = {
   accept: "was accepted and is now published",
-  request_changes: "needs changes before it can be published",
+  return: "was returned to you for revision before it can be published",
   decline: "was declined",
   retract: "was retracted",
 } as const;
 
-const decisionSubjects = { accept: "accepted", request_changes: "changes requested", decline: "declined", retract: "retracted" } as const;
+const decisionSubjects = { accept: "accepted", return: "returned for revision", decline: "declined", retract: "retracted" } as const;
 
 /** To each co-editor after a decision; an accepted version links its public page and identifier. */
 export function decisionMail(

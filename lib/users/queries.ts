@@ -311,7 +311,7 @@ const tokenColumns = {
 
 /** Creates a token and returns its secret: the only time the secret is ever available. */
 export async function createApiToken({ userId, name, scopes }: { userId: number; name: string; scopes: ApiTokenScope[] }) {
-  const secret = generateSecret("arr_pat_", 32);
+  const secret = generateSecret("arh_key_", 32);
   const token = await getDb().transaction(async (tx) => {
     const [row] = await tx
       .insert(apiTokens)

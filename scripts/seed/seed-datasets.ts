@@ -34,7 +34,7 @@ const reactions: ReactionSpec[] = [
       ["water", "O"],
       ["methyl", "[CH3]"],
     ],
-    cls: "h_abstraction",
+    cls: "hydrogen-abstraction",
     order: 2,
     A: 2.3e-12,
     n: 0,
@@ -50,7 +50,7 @@ const reactions: ReactionSpec[] = [
       ["water", "O"],
       ["ethyl", "C[CH2]"],
     ],
-    cls: "h_abstraction",
+    cls: "hydrogen-abstraction",
     order: 2,
     A: 7.9e-12,
     n: 0,
@@ -66,7 +66,7 @@ const reactions: ReactionSpec[] = [
       ["hydrogen chloride", "Cl"],
       ["methyl", "[CH3]"],
     ],
-    cls: "h_abstraction",
+    cls: "hydrogen-abstraction",
     order: 2,
     A: 7.0e-12,
     n: 0,
@@ -118,7 +118,7 @@ const reactions: ReactionSpec[] = [
       ["methyl", "[CH3]"],
       ["methyl", "[CH3]"],
     ],
-    cls: "bond_fission",
+    cls: "bond-fission",
     order: 1,
     A: 2.0e16,
     n: 0,
@@ -176,7 +176,7 @@ const reactions: ReactionSpec[] = [
       ["ethene", "C=C"],
       ["ethane", "CC"],
     ],
-    cls: "disproportionation",
+    cls: "radical-disproportionation",
     order: 2,
     A: 2.4e-12,
     n: 0,
@@ -433,7 +433,7 @@ export async function seedDemoDatasets(): Promise<number> {
           : step === "review"
             ? ["start_review", curator, undefined]
             : step === "changes"
-              ? ["request_changes", curator, reasons.changes]
+              ? ["return", curator, reasons.changes]
               : step === "accept"
                 ? ["accept", curator, reasons.accept]
                 : step === "decline"

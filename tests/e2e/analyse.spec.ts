@@ -55,7 +55,7 @@ test("a published version's page shows its identifier, its fit in chosen units a
     .click();
   await page.getByRole("table").getByRole("link").first().click();
   await expect(page).toHaveURL(/\/datasets\/\d+\/v\d+$/);
-  await expect(page.getByText(/doi:10\.5072\/arrhenia\.\d+\.v\d+/).first()).toBeVisible();
+  await expect(page.getByText(/doi:10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{3}[0-9A-Z*~$=]\/\d+/).first()).toBeVisible();
   await page.getByLabel("Show energies in").selectOption("kcal mol-1");
   await expect(page.getByRole("cell", { name: "Ea (kcal mol⁻¹)" }).first()).toBeVisible();
   await expect(page.getByText(/Extrapolation outside the measured temperature range is unreliable/).first()).toBeVisible();

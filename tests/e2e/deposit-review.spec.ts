@@ -7,7 +7,7 @@ import { DEMO_CURATORS, DEMO_RESEARCHER, DepositEditorPage, MailLog, ReviewPage,
 const CSV = fileURLToPath(new URL("../fixtures/e2e/oh-ch4-one-bad-cell.csv", import.meta.url));
 const K_HEADER = "k / cm3 molecule-1 s-1";
 
-test("a deposit goes from an uploaded CSV through a request for changes to publication, with the mail of each step", async ({ page }) => {
+test("a deposit goes from an uploaded CSV through a return to the authors to publication, with the mail of each step", async ({ page }) => {
   test.setTimeout(120_000);
   const stamp = Date.now();
   const title = `OH + CH4 between 230 and 400 K (end-to-end ${stamp})`;
@@ -34,7 +34,7 @@ test("a deposit goes from an uploaded CSV through a request for changes to publi
       order: "2",
       phase: "Gas phase",
     });
-    await editor.fillMethod("Experiment", "pulsed laser photolysis");
+    await editor.fillMethod("Measured", "pulsed laser photolysis");
     await editor.fillSourceDoi(`10.5555/arrhenia.e2e.${stamp}`);
   });
 
@@ -66,19 +66,19 @@ test("a deposit goes from an uploaded CSV through a request for changes to publi
     await editor.submitForReview();
   });
 
-  await test.step("a curator takes it into review and asks for changes", async () => {
+  await test.step("a curator takes it into review and returns it to the authors", async () => {
     await signInAs(page, curator);
     await review.openFromQueue(title);
     await review.takeIntoReview();
-    await review.decide("Request changes", changesReason, /the authors have been asked for changes/);
+    await review.decide("Return to the authors", changesReason, /returned to the authors for revision/);
   });
 
   await test.step("the researcher reads the decision, edits, saves and submits again", async () => {
     await signInAs(page, DEMO_RESEARCHER);
     await editor.open(versionId);
-    await editor.expectState("changes requested");
-    await expect(editor.decision("changes requested")).toContainText(curator.name);
-    await expect(editor.decision("changes requested")).toContainText(changesReason);
+    await editor.expectState("returned for revision");
+    await expect(editor.decision("returned to the authors")).toContainText(curator.name);
+    await expect(editor.decision("returned to the authors")).toContainText(changesReason);
     await editor.cell("Note", 5).fill("re-read from the original trace");
     await editor.saveDraft();
     await editor.submitForReview();
@@ -98,11 +98,13 @@ test("a deposit goes from an uploaded CSV through a request for changes to publi
     await signInAs(page, DEMO_RESEARCHER);
     await editor.open(versionId);
     await editor.expectState("published");
-    await expect(editor.versionIdentifier).toHaveText(/^Version identifier: 10\.5072\/arrhenia\.\d+\.v1 — open the public page$/);
+    await expect(editor.versionIdentifier).toHaveText(
+      /^Version identifier: 10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{3}[0-9A-Z*~$=]\/1 — open the public page$/,
+    );
     // The public page is what the identifier resolves to.
     await editor.versionIdentifier.getByRole("link", { name: "open the public page" }).click();
     await expect(page).toHaveURL(/\/datasets\/\d+\/v1$/);
-    await expect(page.getByText(/doi:10\.5072\/arrhenia\.\d+\.v1/).first()).toBeVisible();
+    await expect(page.getByText(/doi:10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{3}[0-9A-Z*~$=]\/1/).first()).toBeVisible();
     await page.goBack();
     await expect(editor.decision("accepted")).toContainText("the note on row 5 answers the question");
     await expect(editor.cell("Note", 5)).toHaveValue("re-read from the original trace");
@@ -113,7 +115,7 @@ test("a deposit goes from an uploaded CSV through a request for changes to publi
     await signInAs(page, { email: DEMO_ADMIN.email, name: "Rosalind Okafor" });
     await new MailLog(page).expectCounts([
       ...DEMO_CURATORS.map((c) => ({ to: c.email, subject: `Waiting for review: ${title}`, count: 2 })),
-      { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: changes requested`, count: 1 },
+      { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: returned for revision`, count: 1 },
       { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: accepted`, count: 1 },
     ]);
   });

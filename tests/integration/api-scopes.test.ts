@@ -6,6 +6,7 @@ vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }
 import * as analyses from "@/app/api/v1/analyses/route";
 import * as datasets from "@/app/api/v1/datasets/route";
 import * as files from "@/app/api/v1/files/[fileId]/route";
+import * as identifiers from "@/app/api/v1/identifiers/route";
 import * as reactionConsensus from "@/app/api/v1/reactions/[id]/consensus/route";
 import * as speciesPreview from "@/app/api/v1/species/preview/route";
 import * as userById from "@/app/api/v1/users/[id]/route";
@@ -26,6 +27,7 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/analyses": analyses,
   "/api/v1/datasets": datasets,
   "/api/v1/files/:fileId": files,
+  "/api/v1/identifiers": identifiers,
   "/api/v1/reactions/:id/consensus": reactionConsensus,
   "/api/v1/species/preview": speciesPreview,
   "/api/v1/users/:id": userById,

@@ -11,7 +11,7 @@ describe("personal API tokens", () => {
   it("stores only the SHA-256 of the secret and resolves the bearer to its owner", async () => {
     const user = await createUser({ email: uniqueEmail("tok"), name: "Token Owner", passwordHash: "x", verified: true });
     const { secret, token } = await createApiToken({ userId: user.id, name: "upload script", scopes: ["read", "deposit"] });
-    expect(secret).toMatch(/^arr_pat_/);
+    expect(secret).toMatch(/^arh_key_/);
     const [row] = await sql`select token_hash, prefix from api_tokens where id = ${token.id}`;
     expect(row.token_hash).toBe(hashSecret(secret));
     expect(row.token_hash).not.toContain(secret);
@@ -41,7 +41,7 @@ describe("personal API tokens", () => {
     const call = (auth: string) =>
       listUsersRoute(new Request("http://127.0.0.1/api/v1/users", { headers: { authorization: auth } }), { params: Promise.resolve({}) });
     expect((await call(`Bearer ${secret}`)).status).toBe(200);
-    const bad = await call("Bearer arr_pat_not-a-real-token");
+    const bad = await call("Bearer arh_key_not-a-real-token");
     expect(bad.status).toBe(401);
     expect((await bad.json()).code).toBe("unauthenticated");
   });

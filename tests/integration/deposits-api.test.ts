@@ -215,7 +215,7 @@ describe("GET and PUT /api/v1/versions/:id, per role", () => {
 });
 
 describe("POST /api/v1/versions/:id/transitions, per role", () => {
-  it("walks a version through submission, changes requested, resubmission and acceptance", async () => {
+  it("walks a version through submission, return to the authors, resubmission and acceptance", async () => {
     const { versionId } = await withMembers();
     const step = async (user: UserDto | null, body: unknown) => {
       as(user);
@@ -227,8 +227,8 @@ describe("POST /api/v1/versions/:id/transitions, per role", () => {
     expect(await step(owner, { transition: "submit" })).toBe(200);
     expect(await step(owner, { transition: "submit" })).toBe(409); // a duplicate submission
     expect(await step(owner, { transition: "accept", reason: "mine" })).toBe(403);
-    expect(await step(curator, { transition: "request_changes" })).toBe(422);
-    expect(await step(curator, { transition: "request_changes", reason: "State the bath gas pressure of each point." })).toBe(200);
+    expect(await step(curator, { transition: "return" })).toBe(422);
+    expect(await step(curator, { transition: "return", reason: "State the bath gas pressure of each point." })).toBe(200);
     expect(await step(owner, { transition: "submit" })).toBe(200);
     expect(await step(admin, { transition: "accept", reason: "Consistent and complete." })).toBe(200);
     as(null);
@@ -236,7 +236,7 @@ describe("POST /api/v1/versions/:id/transitions, per role", () => {
     expect(res.status).toBe(200);
     const body = await res.json();
     expect(body.data.state).toBe("published");
-    expect(body.data.versionIdentifier).toMatch(/^10\.5072\/arrhenia\.\d+\.v1$/);
+    expect(body.data.versionIdentifier).toMatch(/^10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{3}[0-9A-Z*~$=]\/1$/);
     expect(body.data.decisions).toBeUndefined(); // the public does not see the review history
     expect(body.data.caution).toMatch(/Extrapolation outside the measured temperature range is unreliable/);
   });

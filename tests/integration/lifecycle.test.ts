@@ -66,11 +66,11 @@ describe("lifecycle in the database, per role", () => {
     expect(await status(applyTransition({ versionId: v.id, actorId: coCurator.id, transition: "start_review" }))).toBe(403);
     expect(await status(applyTransition({ versionId: v.id, actorId: stranger.id, transition: "start_review" }))).toBe(404);
     await applyTransition({ versionId: v.id, actorId: curator.id, transition: "start_review" });
-    expect(await status(applyTransition({ versionId: v.id, actorId: curator.id, transition: "request_changes", reason: "" }))).toBe(422);
+    expect(await status(applyTransition({ versionId: v.id, actorId: curator.id, transition: "return", reason: "" }))).toBe(422);
     await applyTransition({
       versionId: v.id,
       actorId: curator.id,
-      transition: "request_changes",
+      transition: "return",
       reason: "Give the bath gas of each point.",
     });
     await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
@@ -83,21 +83,22 @@ describe("lifecycle in the database, per role", () => {
       "dataset.created",
       "dataset.submit",
       "dataset.start_review",
-      "dataset.request_changes",
+      "dataset.return",
       "dataset.submit",
       "dataset.start_review",
       "dataset.accept",
     ]);
     const ds = await sql`select decision, reason from decisions where version_id = ${v.id} order by id`;
-    expect(ds.map((d) => d.decision)).toEqual(["request_changes", "accept"]);
+    expect(ds.map((d) => d.decision)).toEqual(["return", "accept"]);
   });
 
   it("acceptance freezes the version: hash, identifiers, and a trigger that refuses changes", async () => {
     const v = await newDraft();
     await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
     const out = await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Fine." });
-    expect(out.identifiers?.version).toBe(`10.5072/arrhenia.${v.datasetId}.v1`);
-    expect(out.identifiers?.series).toBe(`10.5072/arrhenia.${v.datasetId}`);
+    expect(out.identifiers?.series).toMatch(/^10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{3}[0-9A-Z*~$=]$/);
+    expect(out.identifiers?.series).not.toContain(String(v.datasetId));
+    expect(out.identifiers?.version).toBe(`${out.identifiers?.series}/1`);
     const [row] = await sql`select payload, payload_sha256, version_identifier, published_at from dataset_versions where id = ${v.id}`;
     expect(row.payload_sha256).toBe(payloadSha256(row.payload));
     expect(row.version_identifier).toBe(out.identifiers?.version);
@@ -183,8 +184,26 @@ describe("a new version", () => {
     await expect(startNextVersion({ actor: owner, versionId: v1.id })).rejects.toMatchObject({ status: 409 });
     await applyTransition({ versionId: v2.id, actorId: owner.id, transition: "submit" });
     const out = await applyTransition({ versionId: v2.id, actorId: curator.id, transition: "accept", reason: "Second version fine." });
-    expect(out.identifiers).toEqual({ version: `10.5072/arrhenia.${v1.datasetId}.v2`, series: `10.5072/arrhenia.${v1.datasetId}` });
+    const [{ series }] = await sql`select series_identifier as series from datasets where id = ${v1.datasetId}`;
+    expect(out.identifiers).toEqual({ version: `${series}/2`, series });
     const [v1row] = await sql`select state, version_identifier from dataset_versions where id = ${v1.id}`;
-    expect(v1row).toEqual({ state: "published", version_identifier: `10.5072/arrhenia.${v1.datasetId}.v1` });
+    expect(v1row).toEqual({ state: "published", version_identifier: `${series}/1` });
+  });
+});
+
+describe("a reaction-class id retired after publication", () => {
+  it("stays in the published document, and the next version starts with the current id", async () => {
+    const { startNextVersion } = await import("@/lib/datasets/deposits");
+    const legacy = { title: "OH + CH4 test", reaction: { class: "h_abstraction", order: 2 }, points: [1, 2] };
+    const v1 = await createDatasetDraft({ ownerId: owner.id, title: "OH + CH4 test", payload: legacy, points, analysis });
+    await applyTransition({ versionId: v1.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v1.id, actorId: curator.id, transition: "accept", reason: "Fine." });
+    const v2 = await startNextVersion({ actor: owner, versionId: v1.id });
+    const rows =
+      await sql`select id, payload -> 'reaction' as reaction from dataset_versions where id in (${v1.id}, ${v2.id}) order by number`;
+    expect(rows.map((r) => r.reaction)).toEqual([
+      { class: "h_abstraction", order: 2 },
+      { class: "hydrogen-abstraction", order: 2 },
+    ]);
   });
 });

@@ -62,9 +62,9 @@ const path: Record<VersionState, [Transition, string][]> = {
     ["submit", "owner"],
     ["start_review", "curator"],
   ],
-  changes_requested: [
+  returned: [
     ["submit", "owner"],
-    ["request_changes", "curator"],
+    ["return", "curator"],
   ],
   published: [
     ["submit", "owner"],

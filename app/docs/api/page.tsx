@@ -33,7 +33,7 @@ export default function ApiDocsPage() {
         <p className="text-muted">
           JSON over HTTP. Errors are <code>application/problem+json</code> (RFC 9457) with a stable <code>code</code>; validation errors
           carry an <code>errors</code> list of JSON pointers (RFC 6901) and plain messages. Scripts authenticate with a personal token from
-          Settings: <code>Authorization: Bearer arr_pat_…</code>.
+          Settings: <code>Authorization: Bearer arh_key_…</code>.
         </p>
       </header>
 

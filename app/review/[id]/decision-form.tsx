@@ -8,13 +8,13 @@ import type { Transition } from "@/lib/curation/lifecycle";
 
 const decisions: { value: Transition; label: string; hint: string }[] = [
   { value: "accept", label: "Accept and publish", hint: "The version is frozen and gets its identifier." },
-  { value: "request_changes", label: "Request changes", hint: "The authors get your reason and can resubmit." },
+  { value: "return", label: "Return to the authors", hint: "The authors get your reason and can resubmit." },
   { value: "decline", label: "Decline", hint: "The version will not be published." },
 ];
 
 const doneWords: Record<string, string> = {
   in_review: "Done: the version is now in review.",
-  changes_requested: "Done: the authors have been asked for changes.",
+  returned: "Done: the version is returned to the authors for revision.",
   published: "Done: the version is published.",
   declined: "Done: the version is declined.",
   retracted: "Done: the version is retracted.",
@@ -83,7 +83,7 @@ export function DecisionForm({
       </form>
     );
   }
-  // After "request changes" or "decline" the form has nothing left to offer, but the curator still needs the outcome.
+  // After "return to the authors" or "decline" the form has nothing left to offer, but the curator still needs the outcome.
   if (!capabilities.accept) {
     return (
       <div className="space-y-2">

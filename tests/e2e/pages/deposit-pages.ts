@@ -55,13 +55,13 @@ export class DepositEditorPage {
   }
 
   async fillAbout(title: string, description: string) {
-    const about = this.section("About the dataset");
+    const about = this.section("Title and summary");
     await about.getByLabel(/^Title/).fill(title);
     await this.description.fill(description);
   }
 
   get description(): Locator {
-    return this.section("About the dataset").getByLabel(/^Description/);
+    return this.section("Title and summary").getByLabel(/^Description/);
   }
 
   async fillReaction({
@@ -96,7 +96,7 @@ export class DepositEditorPage {
   }
 
   async fillMethod(kind: string, technique: string) {
-    await this.page.getByLabel("Kind of work").selectOption({ label: kind });
+    await this.page.getByLabel("Obtained by").selectOption({ label: kind });
     await this.page.getByLabel(/^Technique/).fill(technique);
   }
 
@@ -189,7 +189,7 @@ export class ReviewPage {
     await expect(this.page.getByRole("status").filter({ hasText: "the version is now in review" })).toBeVisible({ timeout: 15_000 });
   }
 
-  async decide(decision: "Request changes" | "Accept and publish" | "Decline", reason: string, expectedConfirmation: RegExp) {
+  async decide(decision: "Return to the authors" | "Accept and publish" | "Decline", reason: string, expectedConfirmation: RegExp) {
     await this.page.getByRole("radio", { name: new RegExp(`^${decision}`) }).check();
     await this.page.getByLabel(/^Reason/).fill(reason);
     await this.page.getByRole("button", { name: "Record the decision" }).click();

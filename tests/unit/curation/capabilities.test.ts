@@ -26,13 +26,13 @@ const people: Who[] = [
  * The expected table, written out by hand (not derived from the code under test): for each person,
  * the states in which each action is allowed. Actions not listed are never allowed.
  */
-const editable: VersionState[] = ["draft", "changes_requested"];
+const editable: VersionState[] = ["draft", "returned"];
 const finished: VersionState[] = ["published", "retracted"];
 const curatorTable: Partial<Record<VersionAction, VersionState[]>> = {
   view: [...versionStates],
   view_decisions: [...versionStates],
   start_review: ["submitted"],
-  request_changes: ["submitted", "in_review"],
+  return: ["submitted", "in_review"],
   accept: ["submitted", "in_review"],
   decline: ["submitted", "in_review"],
   retract: ["published"],

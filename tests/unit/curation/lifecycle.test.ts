@@ -28,14 +28,14 @@ describe("lifecycle rules", () => {
     ["draft", "submit", viewer, "viewer", 403],
     ["draft", "submit", stranger, "other researcher (may not see it)", 404],
     ["draft", "submit", curator, "curator", 403],
-    ["changes_requested", "submit", owner, "owner resubmits", "submitted"],
+    ["returned", "submit", owner, "owner resubmits", "submitted"],
     ["submitted", "withdraw", owner, "owner", "draft"],
     ["submitted", "withdraw", editor, "editor", 403],
     ["submitted", "start_review", curator, "curator", "in_review"],
     ["submitted", "start_review", admin, "admin", "in_review"],
     ["submitted", "start_review", owner, "owner", 403],
     ["submitted", "start_review", coEditingCurator, "curator who co-edits", 403],
-    ["in_review", "request_changes", curator, "curator", "changes_requested"],
+    ["in_review", "return", curator, "curator", "returned"],
     ["in_review", "accept", curator, "curator", "published"],
     ["in_review", "accept", coEditingCurator, "curator who co-edits", 403],
     ["in_review", "accept", stranger, "other researcher (may not see it)", 404],
@@ -53,7 +53,7 @@ describe("lifecycle rules", () => {
   }
 
   it("decisions and retraction need a reason", () => {
-    for (const t of ["accept", "request_changes", "decline"] as const) {
+    for (const t of ["accept", "return", "decline"] as const) {
       expect(outcome("in_review", t, curator, "")).toBe(422);
     }
     expect(outcome("published", "retract", curator, "  ")).toBe(422);
@@ -62,7 +62,7 @@ describe("lifecycle rules", () => {
 
   it("every state can be reached and published is left only by retraction", () => {
     const reachable = new Set<VersionState>(["draft", ...Object.values(lifecycle).map((r) => r.to)]);
-    expect([...reachable].sort()).toEqual(["changes_requested", "declined", "draft", "in_review", "published", "retracted", "submitted"]);
+    expect([...reachable].sort()).toEqual(["declined", "draft", "in_review", "published", "retracted", "returned", "submitted"]);
     const fromPublished = Object.entries(lifecycle)
       .filter(([, r]) => r.from.includes("published"))
       .map(([t]) => t);

@@ -77,7 +77,10 @@ describe("small helpers", () => {
   it("find the section and the row of a pointer", () => {
     expect(sectionOf("/units/pressure")).toBe("conditions");
     expect(sectionOf("/units/k")).toBe("data");
-    expect(sectionOf("/relatedIdentifiers/0/identifier")).toBe("source");
+    expect(sectionOf("/relatedIdentifiers/0/identifier")).toBe("credit");
+    expect(sectionOf("/creators/0/name")).toBe("credit");
+    expect(sectionOf("/funding/1/funder")).toBe("credit");
+    expect(sectionOf("/license")).toBe("about");
     expect(sectionOf("")).toBeNull();
     expect(pointRowOf("/points/12/k")).toBe(12);
     expect(pointRowOf("/points/12")).toBe(12);

@@ -3,6 +3,7 @@ import { createElement as h } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { describe, expect, it, vi } from "vitest";
 import { AboutSection } from "@/components/deposit-editor/about-section";
+import { CreditSection } from "@/components/deposit-editor/credit-section";
 import { EditorContextProvider } from "@/components/deposit-editor/editor-context";
 import { ErrorSummary } from "@/components/deposit-editor/error-summary";
 import { blankForm, blankPoint, documentToForm, type EditorForm } from "@/components/deposit-editor/form-model";
@@ -30,16 +31,30 @@ describe("fields", () => {
     expect(html).toContain('id="field-title"');
     expect(html).toMatch(/<input id="field-title"[^>]*aria-invalid="true"[^>]*aria-describedby="field-title-hint field-title-error"/);
     expect(html).toMatch(/id="field-title-error"[^>]*>.*Title must be at least 3 characters\./);
-    expect(html).toContain('<label for="field-creators-0-name"');
-    expect(html).toContain('value="Okafor, Maren"');
-    expect(html).toContain("<legend");
+    const credit = withContext(h(CreditSection, { form: blankForm({ name: "Okafor, Maren" }), update: noop }));
+    expect(credit).toContain('<label for="field-creators-0-name"');
+    expect(credit).toContain('value="Okafor, Maren"');
+    expect(credit).toContain("<legend");
+  });
+
+  it("group people, grants and linked records in one section of our own, apart from the title and summary", () => {
+    const credit = withContext(h(CreditSection, { form: documentToForm(EXAMPLE_DEPOSIT), update: noop }));
+    expect([...credit.matchAll(/<legend[^>]*>([^<]*)</g)].map((m) => m[1])).toEqual([
+      "People, grants and links",
+      "People credited",
+      "Grants",
+      "Linked records",
+    ]);
+    const about = withContext(h(AboutSection, { form: documentToForm(EXAMPLE_DEPOSIT), update: noop }));
+    expect(about).not.toContain("field-creators-0-name");
+    expect(about).not.toContain("field-funding");
   });
 
   it("hide add and remove buttons from a read-only editor", () => {
     const form = documentToForm(EXAMPLE_DEPOSIT);
-    expect(withContext(h(AboutSection, { form, update: noop }))).toContain("Add a creator");
+    expect(withContext(h(CreditSection, { form, update: noop }))).toContain("Add a person");
+    expect(withContext(h(CreditSection, { form, update: noop }), {}, true)).not.toContain("Add a person");
     const html = withContext(h(AboutSection, { form, update: noop }), {}, true);
-    expect(html).not.toContain("Add a creator");
     expect(html).toMatch(/<input id="field-title"[^>]*readOnly=""/);
   });
 });
@@ -101,7 +116,7 @@ describe("ErrorSummary", () => {
     );
     expect(html).toContain('role="alert"');
     expect(html).toContain("3 problems to correct");
-    expect(html).toContain('<a href="#section-about">About the dataset (1)</a>');
+    expect(html).toContain('<a href="#section-about">Title and summary (1)</a>');
     expect(html).toMatch(/<a href="#section-reaction">Reaction<\/a>: Solvent is required/);
     expect(html).toContain("Show row 651");
   });
@@ -187,11 +202,11 @@ describe("DepositEditor markup", () => {
         { client: new QueryClient() },
         h(DepositEditor, {
           mode: "existing",
-          version: { id: 9, number: 2, state: "changes_requested", versionIdentifier: null, retractionNotice: null },
+          version: { id: 9, number: 2, state: "returned", versionIdentifier: null, retractionNotice: null },
           payload: EXAMPLE_DEPOSIT,
           lockVersion: 1,
           role: "owner",
-          capabilities: versionCapabilities({ state: "changes_requested", siteRole: "researcher", datasetRole: "owner" }),
+          capabilities: versionCapabilities({ state: "returned", siteRole: "researcher", datasetRole: "owner" }),
           checks: [],
           decisions: [],
           members: [],

@@ -61,7 +61,7 @@ describe("visibleRows", () => {
 
 describe("words", () => {
   it("name states plainly and find the checks that stop a submission", () => {
-    expect(stateWords("changes_requested")).toBe("changes requested");
+    expect(stateWords("returned")).toBe("returned for revision");
     expect(stateWords("in_review")).toBe("in review");
     expect(
       blockingChecks([

@@ -13,7 +13,7 @@ describe("/docs/deposit-format", () => {
     for (const c of REACTION_CLASSES) expect(html).toContain(c.label);
     expect(html).toContain("cm3 molecule-1 s-1");
     expect(html).toContain("Torr");
-    expect(html).toContain("&quot;class&quot;: &quot;h_abstraction&quot;");
+    expect(html).toContain("&quot;class&quot;: &quot;hydrogen-abstraction&quot;");
     expect(html).toContain('id="field-reaction-reactants"');
   });
 

@@ -74,8 +74,8 @@ describe("the deposit schema file", () => {
     expect(schemaAtSegments(["$schema"])!.const).toBe(DEPOSIT_SCHEMA_ID);
   });
 
-  it("names reaction classes in snake_case", () => {
-    for (const c of REACTION_CLASSES) expect(c.id).toMatch(/^[a-z]+(_[a-z]+)*$/);
+  it("names reaction classes in kebab-case words", () => {
+    for (const c of REACTION_CLASSES) expect(c.id).toMatch(/^[a-z]+(-[a-z]+)*$/);
     expect(REACTION_CLASSES).toHaveLength(11);
   });
 });

@@ -170,9 +170,22 @@ describe("validateDeposit: schema errors in plain English", () => {
     doc.reaction.class = "abstraction";
     doc.license = "CC-BY-NC-4.0";
     expect(errorAt(doc, "/reaction/class").message).toMatch(
-      /^Reaction class must be one of: h_abstraction, addition, .* \(got "abstraction"\)\.$/,
+      /^Reaction class must be one of: hydrogen-abstraction, addition, .* \(got "abstraction"\)\.$/,
     );
     expect(errorAt(doc, "/license").message).toContain('(got "CC-BY-NC-4.0")');
+  });
+
+  it.each([
+    ["h_abstraction", "hydrogen-abstraction"],
+    ["bond_fission", "bond-fission"],
+    ["disproportionation", "radical-disproportionation"],
+    ["electron_transfer", "electron-transfer"],
+  ])("a retired reaction-class id (%s) is refused with the id to write instead", (retired, current) => {
+    const doc = example();
+    doc.reaction.class = retired;
+    expect(errorAt(doc, "/reaction/class").message).toBe(`Reaction class uses the retired id "${retired}": write "${current}" instead.`);
+    doc.reaction.class = current;
+    expect(validateDeposit(doc).ok).toBe(true);
   });
 
   it("a species needs a SMILES or an InChI", () => {

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { MarkdownText } from "@/components/markdown-text";
+import { ReportedExpression } from "@/components/reported-expression";
 import { StateLabel } from "@/components/state-label";
 import { VersionFit } from "@/components/version-fit";
 import { getDatasetSummary, getLatestAnalysis, getVersionPoints, getVersionWithRole, listPublicVersions } from "@/lib/datasets/queries";
@@ -9,6 +10,7 @@ import { listVersionFiles } from "@/lib/datasets/files";
 import { parseIdOrNull } from "@/lib/ids";
 import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
 import type { DepositDocument } from "@/lib/deposits/types";
+import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
 
 export const metadata: Metadata = { title: "Dataset" };
 export const dynamic = "force-dynamic";
@@ -46,11 +48,11 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
         <h1 className="text-3xl font-semibold">{version.title}</h1>
         <p className="text-sm">{doc.creators?.map((c) => c.name).join("; ")}</p>
         <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-          <dt className="text-muted">Version identifier</dt>
+          <dt className="text-muted">This version</dt>
           <dd className="font-mono">doi:{version.versionIdentifier}</dd>
           {dataset?.seriesIdentifier && (
             <>
-              <dt className="text-muted">All versions</dt>
+              <dt className="text-muted">The dataset (newest version)</dt>
               <dd className="font-mono">doi:{dataset.seriesIdentifier}</dd>
             </>
           )}
@@ -80,10 +82,16 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
         <div className="card space-y-1 text-sm">
           <h2 className="text-lg font-semibold">Method</h2>
           <p>
-            {doc.method?.category}: {doc.method?.technique}
+            {METHOD_CATEGORIES.find((c) => c.id === doc.method?.category)?.label ?? doc.method?.category}: {doc.method?.technique}
             {doc.method?.detection ? `; detection: ${doc.method.detection}` : ""}
           </p>
           {doc.method?.notes && <p className="text-muted">{doc.method.notes}</p>}
+          {doc.reportedFit && (
+            <>
+              <h3 className="pt-2 font-semibold">Expression the authors report</h3>
+              <ReportedExpression doc={doc} />
+            </>
+          )}
           <p>
             Phase: {doc.reaction.phase}; order {doc.reaction.order}
             {doc.conditions?.bathGas ? `; bath gas ${doc.conditions.bathGas}` : ""}

@@ -10,7 +10,7 @@ import { parseIdOrThrow } from "@/lib/ids";
 
 const bodySchema = z
   .object({
-    transition: z.enum(["submit", "withdraw", "start_review", "request_changes", "accept", "decline", "retract"]),
+    transition: z.enum(["submit", "withdraw", "start_review", "return", "accept", "decline", "retract"]),
     reason: z.string().trim().max(5000).optional(),
   })
   .strict();

@@ -1,0 +1,35 @@
+import { renderToStaticMarkup } from "react-dom/server";
+import { createElement } from "react";
+import { describe, expect, it } from "vitest";
+import { ReportedExpression } from "@/components/reported-expression";
+import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
+import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
+import type { DepositDocument } from "@/lib/deposits/types";
+
+const render = (doc: DepositDocument) => renderToStaticMarkup(createElement(ReportedExpression, { doc }));
+
+describe("the reported expression", () => {
+  it("states the formula once and the parameters as a table, with T0 stated", () => {
+    const doc: DepositDocument = {
+      ...structuredClone(EXAMPLE_DEPOSIT),
+      reportedFit: { model: "modified_arrhenius", A: 2.45e-12, n: 1.5, Ea: 7.5, EaUnit: "kJ/mol", Tmin: 250, Tmax: 420 },
+    };
+    const html = render(doc);
+    expect(html.match(/k\(T\) =/g)).toHaveLength(1);
+    expect(html).toContain("<table");
+    expect(html).toMatch(/<th scope="row"[^>]*>A<\/th><td[^>]*>2\.45e-12<\/td>/);
+    expect(html).toMatch(/<th scope="row"[^>]*>n<\/th><td[^>]*>1\.5<\/td><td[^>]*>with T0 = 298\.15 K<\/td>/);
+    expect(html).toMatch(/<th scope="row"[^>]*>Ea<\/th><td[^>]*>7\.5<\/td>/);
+    expect(html).toMatch(/250–420/);
+  });
+
+  it("shows nothing when the authors report no expression", () => {
+    const doc = { ...structuredClone(EXAMPLE_DEPOSIT) };
+    delete doc.reportedFit;
+    expect(render(doc)).toBe("");
+  });
+
+  it("names method categories in our own words", () => {
+    expect(METHOD_CATEGORIES.map((c) => c.label)).toEqual(["Measured", "Calculated", "Evaluated from other work"]);
+  });
+});
