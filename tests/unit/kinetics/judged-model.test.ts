@@ -64,7 +64,7 @@ describe("modified Arrhenius fit refused when the data do not determine n", () =
     expect(r.curvature).toBeNull();
     const flag = r.flags.find((f) => f.code === "modified_fit_undetermined")!;
     expect(flag.quantities!.seN.value).toBeGreaterThan(5);
-    expect(flag.message).toMatch(/over 300–300\.5 K the temperature exponent comes out as n = .* with a standard error of .*, above 5/);
+    expect(flag.message).toMatch(/over 300\.0–300\.5 K the temperature exponent comes out as n = .* with a standard error of .*, above 5/);
     expect(Number.isFinite(r.arrhenius.params.Ea)).toBe(true);
     expect(r.band.model).toBe("arrhenius");
   });
