@@ -561,17 +561,18 @@ function buildModified(fit: CentredFit, s: FitSummary, d: Prepared): ModifiedArr
 }
 
 /**
- * ln(k_c·h/(k_B·T)) per point, the response of the Eyring fit, less the constant ln(k_B/h) − ln Tref
- * + (m − 1)·ln(N_A/10³) (eyringOffset): ln(T/Tref) is formed without cancellation, so in a window of
- * microkelvin the T term keeps its precision against the small change of ln k.
+ * ln(T/Tref) per point, fitted on the Arrhenius design: by linearity of least squares the Eyring
+ * fit of ln k − ln(T/Tref) is the Arrhenius fit minus this one. Subtracting coefficients instead of
+ * responses keeps a microkelvin window exact, where ln k − ln(T/Tref) would round to ulp(ln k)
+ * against a signal of 1e-8.
  */
 function eyringResponse(d: Prepared): Float64Array {
   const ye = wsYe;
-  for (let i = 0; i < d.n; i++) ye[i] = d.y[i] - d.lnTc[i];
+  for (let i = 0; i < d.n; i++) ye[i] = d.lnTc[i];
   return ye;
 }
 
-/** The constant left out of {@link eyringResponse}, added back to the intercept. */
+/** ln(k_B/h), ln Tref and the standard-state term, left out of the Eyring fit and added back to its intercept. */
 function eyringOffset(d: Prepared): number {
   // Eyring–Evans–Polanyi: k_c = κ (k_B T/h) (c°)^(1−m) exp(ΔS‡/R) exp(−ΔH‡/RT), κ = 1, c° = 1 mol dm⁻³.
   return (d.order - 1) * LN_LITRE_PER_MOLECULE_CM3 - LN_BOLTZMANN_OVER_PLANCK - Math.log(d.Tref);
@@ -579,7 +580,15 @@ function eyringOffset(d: Prepared): number {
 
 function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
   const { n, order } = d;
-  const { beta, rss } = arrFit.extra[0];
+  const lnTFit = arrFit.extra[0];
+  const bc0 = arrFit.betaCentred[0] - lnTFit.betaCentred[0];
+  const slope = arrFit.betaCentred[1] - lnTFit.betaCentred[1];
+  const intercept = bc0 - (arrFit.means[0] - arrFit.shift[0]) * slope;
+  let rss = 0;
+  for (let i = 0; i < n; i++) {
+    const e = (d.sw ? d.sw[i] : 1) * (arrFit.resid[i] - lnTFit.resid[i]);
+    rss += e * e;
+  }
   const dof = n - 2;
   const s2 = dof > 0 ? rss / dof : null;
   const c = arrFit.unscaledCov;
@@ -588,7 +597,7 @@ function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
       ? "κ = 1; first-order rate constant, so no standard-state term."
       : `κ = 1; standard state c° = 1 mol dm⁻³ (k converted to ${order === 2 ? "dm³ mol⁻¹ s⁻¹" : "dm⁶ mol⁻² s⁻¹"} before fitting ln(k/T) on 1/T).`;
   return {
-    params: { dH: beta[1], dS: GAS_CONSTANT * (beta[0] + eyringOffset(d)) },
+    params: { dH: slope, dS: GAS_CONSTANT * (intercept + eyringOffset(d)) },
     se: {
       dH: s2 === null ? null : Math.sqrt(s2 * c[3]),
       dS: s2 === null ? null : GAS_CONSTANT * Math.sqrt(s2 * c[0]),
