@@ -24,12 +24,18 @@ export function matchUnitMistake(offsetLog10: number, order: ReactionOrder): str
   return null;
 }
 
-/** "a factor 4.8 above" / "a factor 10^23.78 below" from a log10 ratio. */
-export function describeFactor(log10: number): string {
+/**
+ * The size of a factor from |log10|: three significant digits below 1000 ("1.04", "2.00", "4.80",
+ * "12.3"), so factors side by side read alike; a power of ten for unit-size factors ("10^23.78").
+ */
+export function factorSize(log10: number): string {
   const a = Math.abs(log10);
-  // Three digits below a factor 2 ("1.04"), two above ("4.8"), a power of ten for unit-size factors.
-  const size = a < 3 ? (10 ** a).toPrecision(10 ** a < 2 ? 3 : 2) : `10^${a.toFixed(2)}`;
-  return `a factor ${size} ${log10 >= 0 ? "above" : "below"}`;
+  return a < 3 ? (10 ** a).toPrecision(3) : `10^${a.toFixed(2)}`;
+}
+
+/** "a factor 4.80 above" / "a factor 10^23.78 below" from a log10 ratio. */
+export function describeFactor(log10: number): string {
+  return `a factor ${factorSize(log10)} ${log10 >= 0 ? "above" : "below"}`;
 }
 
 /** A temperature for prose: whole kelvin above 100 K, three significant digits below. */
@@ -70,20 +76,55 @@ export function othersPossessive(otherCount: number): string {
 }
 
 /**
- * The slope clause from the test between the cold and the hot end ("lower"/"higher": |z| > 1.96),
- * and, when the ends agree, from the test of a constant factor along the range.
+ * Where the log ratio bends away from the straight line (in 1/T) between its ends by more than the
+ * ends differ: "higher"/"lower" in the middle, or null. With fewer than 3 temperatures, null.
  */
-export function describeSlope(
-  slope: "lower" | "higher" | "same" | null,
-  otherCount: number,
-  factorChanges: boolean | null = false,
-): string {
-  const whose = othersPossessive(otherCount);
-  if (slope === "lower") return `its activation energy is lower than ${whose}`;
-  if (slope === "higher") return `its activation energy is higher than ${whose}`;
-  if (slope === "same" && factorChanges === false) return `about the same factor throughout: its activation energy agrees with ${whose}`;
-  if (slope === "same" && factorChanges)
+export function middleBend(points: readonly ComparedPoint[]): "higher" | "lower" | null {
+  if (points.length < 3) return null;
+  const lo = points[0];
+  const hi = points[points.length - 1];
+  const ends = Math.abs(hi.log10Ratio - lo.log10Ratio);
+  let worst = 0;
+  for (const p of points.slice(1, -1)) {
+    const chord = lo.log10Ratio + ((hi.log10Ratio - lo.log10Ratio) * (1 / p.T - 1 / lo.T)) / (1 / hi.T - 1 / lo.T);
+    const dev = p.log10Ratio - chord;
+    if (Math.abs(dev) > Math.abs(worst)) worst = dev;
+  }
+  return Math.abs(worst) > ends ? (worst > 0 ? "higher" : "lower") : null;
+}
+
+/** Everything the slope and shape clause depends on. */
+export interface SlopeInput {
+  activationEnergy: "lower" | "higher" | "same" | null;
+  otherCount: number;
+  factorChanges: boolean | null;
+  /** Off at every comparison temperature, all in the same direction. */
+  offThroughout?: boolean;
+  /** From {@link middleBend}. */
+  bend?: "higher" | "lower" | null;
+  /** "the others' consensus" instead of "the others'" (the others disagree with each other). */
+  whose?: string;
+}
+
+/**
+ * The clause on how the factor runs along the range, each wording with its condition:
+ * - the factor changes (χ² test p < 0.05) and bends in the middle more than the ends differ →
+ *   the curvature differs (this wins over an end-to-end slope, which a bulge can also tilt);
+ * - the ends differ (|slope z| > 1.96) → its activation energy is lower or higher;
+ * - the ends agree but the factor changes → the curvature differs;
+ * - the ends agree, the factor test does not reject, and it is off at every temperature in the
+ *   same direction → about the same factor throughout;
+ * - otherwise nothing: the factors listed say all the data show.
+ */
+export function describeSlope(v: SlopeInput): string {
+  const whose = v.whose ?? othersPossessive(v.otherCount);
+  if (v.factorChanges && v.bend) return `its curvature differs from ${whose}: ${v.bend} in the middle of its range than at its ends`;
+  if (v.activationEnergy === "lower") return `its activation energy is lower than ${whose}`;
+  if (v.activationEnergy === "higher") return `its activation energy is higher than ${whose}`;
+  if (v.activationEnergy === "same" && v.factorChanges)
     return `the factor changes along its range, though not between its ends: its curvature differs from ${whose}`;
+  if (v.activationEnergy === "same" && v.factorChanges === false && v.offThroughout)
+    return `about the same factor throughout: its activation energy agrees with ${whose}`;
   return "";
 }
 
@@ -118,6 +159,11 @@ export interface VerdictInput {
     activationEnergy: "lower" | "higher" | "same" | null;
     factorChanges: boolean | null;
     meanOffsetLog10: number;
+    /**
+     * Set when it agrees only within the spread between the others (τ²₋ⱼ outweighs both fits'
+     * own variances where it would otherwise be off): τ²₋ⱼ, and the others that are themselves off.
+     */
+    spread?: { tau2: number; offOthers: string[] } | null;
   } | null;
 }
 
@@ -139,13 +185,39 @@ export function describeVerdict(v: VerdictInput): string {
     return `${name} (${describeT(v.own.Tmin)}–${describeT(v.own.Tmax)}) lies outside the temperatures of ${against} (${describeT(d.othersRange.Tmin)}–${describeT(d.othersRange.Tmax)}): not compared.${out}`;
   }
   const differs = d.activationEnergy === "lower" || d.activationEnergy === "higher";
+  const bend = middleBend(d.points);
   if (!d.off) {
     const widest = d.points.reduce((a, b) => (Math.abs(b.log10Ratio) > Math.abs(a.log10Ratio) ? b : a));
-    const within = `within its uncertainty at ${listTemperatures(d.points.map((p) => p.T))} (largest difference ${describeFactor(widest.log10Ratio)}, at ${describeT(widest.T)})`;
-    return `${name} agrees with ${against} ${within}${differs ? `, though ${describeSlope(d.activationEnergy, d.count)}` : ""}.${out}`;
+    const largest = `largest difference ${describeFactor(widest.log10Ratio)}, at ${describeT(widest.T)}`;
+    const temps = listTemperatures(d.points.map((p) => p.T));
+    const spread = d.spread;
+    // The others disagreeing with each other: compare with their consensus, and say who is off.
+    const whose = spread ? "the others' consensus" : undefined;
+    const clause = differs ? describeSlope({ ...slopeOf(d), bend: null, whose }) : "";
+    const though = clause ? `, though ${clause}` : "";
+    if (spread) {
+      const n = spread.offOthers.length;
+      const who = n ? `, and ${listNames(spread.offOthers)} ${n === 1 ? "is" : "are"} off the consensus of the rest` : "";
+      const tau = `τ² of the others = ${spread.tau2.toPrecision(2)} in (ln k)², a factor ${Math.exp(Math.sqrt(spread.tau2)).toPrecision(3)} per standard deviation`;
+      const slope = clause ? ` ${clause[0].toUpperCase()}${clause.slice(1)}.` : "";
+      return `${name} agrees with ${against} at ${temps} (${largest}) only within the wide spread between the others (${tau}): they disagree with each other${who}.${slope}${out}`;
+    }
+    return `${name} agrees with ${against} within its uncertainty at ${temps} (${largest})${though}.${out}`;
   }
   const where = describeComparison(d.points);
-  const clause = describeSlope(d.activationEnergy, d.count, d.factorChanges);
-  const slope = !clause ? "" : differs ? `: ${clause}` : ` — ${clause}`;
+  const offThroughout =
+    d.points.every((p) => !p.agrees) && (d.points.every((p) => p.log10Ratio > 0) || d.points.every((p) => p.log10Ratio < 0));
+  const clause = describeSlope({ ...slopeOf(d), offThroughout, bend });
+  const slope = !clause ? "" : differs || (d.factorChanges && bend) ? `: ${clause}` : ` — ${clause}`;
   return `${name} is off ${against}: ${where}${slope}.${out}`;
+}
+
+function slopeOf(d: NonNullable<VerdictInput["comparison"]>): SlopeInput {
+  return { activationEnergy: d.activationEnergy, otherCount: d.count, factorChanges: d.factorChanges };
+}
+
+/** "A", "A and B", "A, B and C". */
+function listNames(names: string[]): string {
+  const parts = names.map(lowerFirst);
+  return parts.length === 1 ? parts[0] : `${parts.slice(0, -1).join(", ")} and ${parts[parts.length - 1]}`;
 }

@@ -194,6 +194,12 @@ export interface Disagreement {
   meanOffsetLog10: number;
   /** The other dataset with the largest share in the others' consensus at the comparison temperature with the largest |z|, when that share is over 2/3. */
   restsOn: { id: string; share: number } | null;
+  /**
+   * It agrees only because the others disagree with each other: at some comparison temperature
+   * |d| exceeds the bound against its own and the other side's uncertainty alone, and τ²₋ⱼ exceeds
+   * their sum there. False when off, or with one other dataset.
+   */
+  agreesOnlyWithinSpread: boolean;
 }
 
 /** One dataset: what it brought (stage 1) and how it compares. */
@@ -395,8 +401,19 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       share: shareAt.get(j) ?? null,
       unitSuspect: unitSuspect[j],
       verdict:
-        verdictOf(label, j, s, d, others[j], leftOut[j], unitSuspect[j], included.length - (leftOut[j] === null ? 1 : 0), datasets) +
-        outlierWords(outliers[j], ds.pointNumbers),
+        verdictOf(
+          label,
+          j,
+          s,
+          d,
+          others[j],
+          leftOut[j],
+          unitSuspect[j],
+          included.length - (leftOut[j] === null ? 1 : 0),
+          datasets,
+          // The others that are themselves off the consensus of the rest: the odd ones out.
+          d?.agreesOnlyWithinSpread ? included.filter((k) => k !== j && comparisons[k]?.off).map(label) : [],
+        ) + outlierWords(outliers[j], ds.pointNumbers),
     };
   });
 
@@ -792,6 +809,17 @@ function compare(
     }
     if (best >= 0 && bestShare > DOMINANT_SHARE) restsOn = { id: datasets[best].id, share: Math.min(1, bestShare) };
   }
+  const off = points.some((p) => !p.agrees);
+  // Without τ²₋ⱼ the dataset would be off there, and τ²₋ⱼ outweighs both fits' own variances.
+  const agreesOnlyWithinSpread =
+    !off &&
+    o.count >= 2 &&
+    diffs.some(
+      (x) =>
+        other.tau2 > x.ownSe * x.ownSe + x.othersSe * x.othersSe &&
+        Math.abs(x.d) > bound * Math.sqrt(x.ownSe * x.ownSe + x.othersSe * x.othersSe),
+    ) &&
+    overlap;
   return {
     comparedWith: o.count,
     model: other.model,
@@ -799,13 +827,14 @@ function compare(
     range: overlap ? { Tmin: a, Tmax: b } : null,
     points,
     bound,
-    off: points.some((p) => !p.agrees),
+    off,
     activationEnergy,
     slopeZ,
     factorChanges,
     factorChangeP,
     meanOffsetLog10,
     restsOn,
+    agreesOnlyWithinSpread,
   };
 }
 
@@ -819,6 +848,7 @@ function verdictOf(
   unitSuspect: string | null,
   otherCount: number,
   datasets: readonly ConsensusDataset[],
+  offOthers: string[],
 ): string {
   return describeVerdict({
     name: label(j),
@@ -838,6 +868,7 @@ function verdictOf(
             activationEnergy: d.activationEnergy,
             factorChanges: d.factorChanges,
             meanOffsetLog10: d.meanOffsetLog10,
+            spread: d.agreesOnlyWithinSpread ? { tau2: d.tau2, offOthers } : null,
           }
         : null,
   });

@@ -3,6 +3,7 @@ import {
   describeComparison,
   describeFactor,
   describeSlope,
+  middleBend,
   describeT,
   describeVerdict,
   listTemperatures,
@@ -48,7 +49,14 @@ const offPoints = [
 describe("consensus words: the small parts", () => {
   it("writes factors with three digits below 2, two above, powers of ten for unit-size factors", () => {
     expect(describeFactor(Math.log10(1.04))).toBe("a factor 1.04 above");
-    expect(describeFactor(-Math.log10(4.8))).toBe("a factor 4.8 below");
+    expect(describeFactor(-Math.log10(4.8))).toBe("a factor 4.80 below");
+    // One rule on both sides of 2 and of 10: three significant digits.
+    expect([1.994, 1.996, 2.004, 12.34].map((f) => describeFactor(Math.log10(f)))).toEqual([
+      "a factor 1.99 above",
+      "a factor 2.00 above",
+      "a factor 2.00 above",
+      "a factor 12.3 above",
+    ]);
     expect(describeFactor(23.78)).toBe("a factor 10^23.78 above");
     expect(describeFactor(0)).toBe("a factor 1.00 above");
   });
@@ -62,24 +70,58 @@ describe("consensus words: the small parts", () => {
   });
 
   it("names every temperature: off ones with their factor, agreeing ones together", () => {
-    expect(describeComparison(offPoints)).toBe("a factor 4.8 above at 220 K, a factor 2.0 above at 289 K; agrees at 420 K");
-    expect(describeComparison(offPoints.slice(0, 2))).toBe("a factor 4.8 above at 220 K, a factor 2.0 above at 289 K");
+    expect(describeComparison(offPoints)).toBe("a factor 4.80 above at 220 K, a factor 2.00 above at 289 K; agrees at 420 K");
+    expect(describeComparison(offPoints.slice(0, 2))).toBe("a factor 4.80 above at 220 K, a factor 2.00 above at 289 K");
   });
 
   it("says 'the other dataset's' with one other dataset and 'the others'' with several", () => {
     expect(othersPossessive(1)).toBe("the other dataset's");
     expect(othersPossessive(2)).toBe("the others'");
-    expect(describeSlope("lower", 1)).toBe("its activation energy is lower than the other dataset's");
-    expect(describeSlope("higher", 4)).toBe("its activation energy is higher than the others'");
+    expect(describeSlope({ activationEnergy: "lower", otherCount: 1, factorChanges: false })).toBe(
+      "its activation energy is lower than the other dataset's",
+    );
+    expect(describeSlope({ activationEnergy: "higher", otherCount: 4, factorChanges: null })).toBe(
+      "its activation energy is higher than the others'",
+    );
   });
 
-  it("says 'about the same factor throughout' only when the factor does not change along the range", () => {
-    expect(describeSlope("same", 3, false)).toBe("about the same factor throughout: its activation energy agrees with the others'");
-    expect(describeSlope("same", 3, true)).toBe(
+  it("says 'about the same factor throughout' only when off everywhere in one direction and the factor does not change", () => {
+    const same = { activationEnergy: "same", otherCount: 3 } as const;
+    expect(describeSlope({ ...same, factorChanges: false, offThroughout: true })).toBe(
+      "about the same factor throughout: its activation energy agrees with the others'",
+    );
+    // The test not rejecting a constant factor is not enough when it agrees somewhere: the factors say it all.
+    expect(describeSlope({ ...same, factorChanges: false, offThroughout: false })).toBe("");
+    expect(describeSlope({ ...same, factorChanges: true })).toBe(
       "the factor changes along its range, though not between its ends: its curvature differs from the others'",
     );
-    expect(describeSlope("same", 3, null)).toBe("");
-    expect(describeSlope(null, 3, false)).toBe("");
+    expect(describeSlope({ ...same, factorChanges: null, offThroughout: true })).toBe("");
+    expect(describeSlope({ activationEnergy: null, otherCount: 3, factorChanges: false, offThroughout: true })).toBe("");
+  });
+
+  it("lets the curvature wording win over an end-to-end slope when the factor bends in the middle", () => {
+    expect(describeSlope({ activationEnergy: "lower", otherCount: 2, factorChanges: true, bend: "higher" })).toBe(
+      "its curvature differs from the others': higher in the middle of its range than at its ends",
+    );
+    // A bend without a significant change of factor is noise: the slope test speaks.
+    expect(describeSlope({ activationEnergy: "lower", otherCount: 2, factorChanges: false, bend: "higher" })).toBe(
+      "its activation energy is lower than the others'",
+    );
+  });
+
+  it("finds a bend only where the middle leaves the line between the ends by more than the ends differ", () => {
+    const at = (r: number[]) => [250, 308, 400, 571, 1000].map((T, i) => ({ T, log10Ratio: Math.log10(r[i]), agrees: true }));
+    // Ends 1.053 and 0.966, middle up to 1.469 (a bulge): higher in the middle.
+    expect(middleBend(at([1.053, 1.303, 1.469, 1.414, 0.966]))).toBe("higher");
+    expect(middleBend(at([1.053, 0.8, 0.7, 0.75, 0.966]))).toBe("lower");
+    // Linear in 1/T from ×5 to ×1: no bend.
+    const tilt = [250, 308, 400, 571, 1000].map((T) => ({
+      T,
+      log10Ratio: Math.log10(5) * ((1 / T - 1 / 1000) / (1 / 250 - 1 / 1000)),
+      agrees: true,
+    }));
+    expect(middleBend(tilt)).toBeNull();
+    expect(middleBend(at([1.053, 1.303, 1.469, 1.414, 0.966]).slice(0, 2))).toBeNull();
   });
 
   it("lowers only the default label inside a sentence", () => {
@@ -138,7 +180,7 @@ describe("consensus words: every verdict template under its condition", () => {
 
   it("off, with a different activation energy", () => {
     expect(describeVerdict(input({}, { off: true, points: offPoints, activationEnergy: "lower", factorChanges: true }))).toBe(
-      "Dataset 7 is off the consensus of the other 3: a factor 4.8 above at 220 K, a factor 2.0 above at 289 K; agrees at 420 K: its activation energy is lower than the others'.",
+      "Dataset 7 is off the consensus of the other 3: a factor 4.80 above at 220 K, a factor 2.00 above at 289 K; agrees at 420 K: its activation energy is lower than the others'.",
     );
   });
 
@@ -147,7 +189,7 @@ describe("consensus words: every verdict template under its condition", () => {
     expect(
       describeVerdict(input({ otherCount: 1 }, { count: 1, off: true, points: shifted, activationEnergy: "same", factorChanges: false })),
     ).toBe(
-      "Dataset 7 is off the only other dataset: a factor 3.0 above at 220 K, a factor 3.0 above at 289 K, a factor 3.0 above at 420 K — about the same factor throughout: its activation energy agrees with the other dataset's.",
+      "Dataset 7 is off the only other dataset: a factor 3.00 above at 220 K, a factor 3.00 above at 289 K, a factor 3.00 above at 420 K — about the same factor throughout: its activation energy agrees with the other dataset's.",
     );
   });
 
@@ -159,7 +201,44 @@ describe("consensus words: every verdict template under its condition", () => {
     ];
     const words = describeVerdict(input({}, { off: true, points: bent, activationEnergy: "same", factorChanges: true }));
     expect(words).not.toMatch(/same factor/);
-    expect(words).toMatch(/ — the factor changes along its range, though not between its ends: its curvature differs from the others'\.$/);
+    expect(words).toMatch(/: its curvature differs from the others': lower in the middle of its range than at its ends\.$/);
+  });
+
+  it("off at one end and agreeing at the others: the factors alone, never 'about the same factor'", () => {
+    const pts = [
+      { T: 220, log10Ratio: Math.log10(1.339), agrees: false },
+      { T: 284, log10Ratio: Math.log10(1.217), agrees: true },
+      { T: 400, log10Ratio: Math.log10(1.083), agrees: true },
+    ];
+    expect(describeVerdict(input({}, { off: true, points: pts, activationEnergy: "same", factorChanges: false }))).toBe(
+      "Dataset 7 is off the consensus of the other 3: a factor 1.34 above at 220 K; agrees at 284 and 400 K.",
+    );
+  });
+
+  it("off with a bulge in the middle and ends alike: the curvature, not the activation energy", () => {
+    const pts = [250, 308, 400, 571, 1000].map((T, i) => ({
+      T,
+      log10Ratio: Math.log10([1.053, 1.303, 1.469, 1.414, 0.966][i]),
+      agrees: i === 0 || i === 4,
+    }));
+    expect(describeVerdict(input({}, { count: 2, off: true, points: pts, activationEnergy: "lower", factorChanges: true }))).toBe(
+      "Dataset 7 is off the consensus of the other 2: a factor 1.30 above at 308 K, a factor 1.47 above at 400 K, a factor 1.41 above at 571 K; agrees at 250 and 1000 K: its curvature differs from the others': higher in the middle of its range than at its ends.",
+    );
+  });
+
+  it("agreeing only within the spread between the others: says so, names the odd one out, compares with their consensus", () => {
+    const pts = [
+      { T: 220, log10Ratio: Math.log10(4.03), agrees: true },
+      { T: 289, log10Ratio: Math.log10(1.2), agrees: true },
+      { T: 420, log10Ratio: -Math.log10(1.5), agrees: true },
+    ];
+    const words = describeVerdict(
+      input({ otherCount: 2 }, { count: 2, points: pts, activationEnergy: "lower", spread: { tau2: 0.486, offOthers: ["Dataset 3"] } }),
+    );
+    expect(words).toBe(
+      "Dataset 7 agrees with the consensus of the other 2 at 220, 289 and 420 K (largest difference a factor 4.03 above, at 220 K) only within the wide spread between the others (τ² of the others = 0.49 in (ln k)², a factor 2.01 per standard deviation): they disagree with each other, and dataset 3 is off the consensus of the rest. Its activation energy is lower than the others' consensus.",
+    );
+    expect(words).not.toMatch(/within its uncertainty/);
   });
 
   it("off at its one temperature: no slope clause", () => {
@@ -167,6 +246,6 @@ describe("consensus words: every verdict template under its condition", () => {
       describeVerdict(
         input({}, { off: true, points: [{ T: 298, log10Ratio: -0.5, agrees: false }], activationEnergy: null, factorChanges: null }),
       ),
-    ).toBe("Dataset 7 is off the consensus of the other 3: a factor 3.2 below at 298 K.");
+    ).toBe("Dataset 7 is off the consensus of the other 3: a factor 3.16 below at 298 K.");
   });
 });
