@@ -195,9 +195,9 @@ export interface Disagreement {
   /** The other dataset with the largest share in the others' consensus at the comparison temperature with the largest |z|, when that share is over 2/3. */
   restsOn: { id: string; share: number } | null;
   /**
-   * It agrees only because the others disagree with each other: at some comparison temperature
-   * |d| exceeds the bound against its own and the other side's uncertainty alone, and τ²₋ⱼ exceeds
-   * their sum there. False when off, or with one other dataset.
+   * It agrees only because the others disagree with each other: at some comparison temperature its
+   * difference exceeds the bound against its own uncertainty, and τ²₋ⱼ exceeds its own and the other
+   * side's variance together. False when off, or with one other dataset.
    */
   agreesOnlyWithinSpread: boolean;
 }
@@ -810,16 +810,12 @@ function compare(
     if (best >= 0 && bestShare > DOMINANT_SHARE) restsOn = { id: datasets[best].id, share: Math.min(1, bestShare) };
   }
   const off = points.some((p) => !p.agrees);
-  // Without τ²₋ⱼ the dataset would be off there, and τ²₋ⱼ outweighs both fits' own variances.
+  // Beyond its own uncertainty there, and τ²₋ⱼ (which also widens the other side) outweighs both variances.
   const agreesOnlyWithinSpread =
+    overlap &&
     !off &&
     o.count >= 2 &&
-    diffs.some(
-      (x) =>
-        other.tau2 > x.ownSe * x.ownSe + x.othersSe * x.othersSe &&
-        Math.abs(x.d) > bound * Math.sqrt(x.ownSe * x.ownSe + x.othersSe * x.othersSe),
-    ) &&
-    overlap;
+    diffs.some((x) => other.tau2 > x.ownSe * x.ownSe + x.othersSe * x.othersSe && Math.abs(x.d) > bound * x.ownSe);
   return {
     comparedWith: o.count,
     model: other.model,
