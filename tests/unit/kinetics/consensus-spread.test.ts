@@ -6,7 +6,8 @@
 import { describe, expect, it } from "vitest";
 import { consensus } from "@/lib/kinetics/consensus";
 import { evaluateRateExpression } from "@/lib/kinetics/evaluate-expression";
-import type { ConsensusDataset, RatePoint } from "@/lib/kinetics/types";
+import type { ConsensusDataset } from "@/lib/kinetics/consensus";
+import type { RatePoint } from "@/lib/kinetics/types";
 
 function makeNormal(seed: number): () => number {
   let s = seed;
