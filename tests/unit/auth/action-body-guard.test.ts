@@ -49,6 +49,26 @@ describe("ActionBodyGuard", () => {
     }
   });
 
+  it("multipart: only parts Next's parser treats as files are skipped; a mere mention of filename is scanned", () => {
+    const deep = "[".repeat(5000) + "]".repeat(5000);
+    const notFiles = [
+      `Content-Disposition: form-data; name="0"\r\nX-Note: filename=x`,
+      `Content-Disposition: form-data; name="0"; x="filename="`,
+      `Content-Disposition: form-data; name="0"; filename*=`,
+      `Content-Disposition: form-data; name="0"; filename=""`,
+      `X-Filename: filename="a"\r\nContent-Disposition: form-data; name="0"`,
+    ];
+    for (const headers of notFiles) {
+      for (const size of [1, 64, Infinity]) expect(scan(body(`${headers}\r\n\r\n${deep}`), multipart, size), headers).toMatch(/nested/);
+    }
+    const files = [
+      `Content-Disposition: form-data; name="1"; filename="data.json"`,
+      `Content-Disposition: form-data; name="1"; filename*=utf-8''d%C3%A9p%C3%B4t.json`,
+      `Content-Disposition: form-data; name="1"\r\nContent-Type: application/octet-stream`,
+    ];
+    for (const headers of files) expect(scan(body(`${headers}\r\n\r\n${deep}`), multipart, 7), headers).toBeNull();
+  });
+
   it("a quoted boundary parameter is understood", () => {
     const deep = body(field("0", "[".repeat(500)));
     expect(scan(deep, `multipart/form-data; boundary="${boundary}"`)).toMatch(/nested/);
