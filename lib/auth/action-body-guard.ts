@@ -153,6 +153,29 @@ export class ActionBodyGuard {
 }
 
 /**
+ * Whether a request goes to the REST API / next-auth (under /api/). Next resolves dot segments
+ * ("%2e" and "\\" included) and repeated slashes before routing, so "/api/%2e%2e/admin" is the
+ * page /admin: a path with a dot segment, an encoded dot, slash or backslash, a backslash or "//"
+ * is never counted as the API, whatever it starts with; it gets every check a page gets.
+ */
+export function isApiPath(url: string | undefined): boolean {
+  const raw = (url ?? "/").split("?")[0];
+  if (/%2e|%2f|%5c|\\|\/\//i.test(raw) || /(^|\/)\.\.?(\/|$)/.test(raw)) return false;
+  return raw.startsWith("/api/");
+}
+
+/** The path of a request as Next routes it (dot segments resolved, backslashes read as slashes). */
+export function pagePath(url: string | undefined): string {
+  const raw = url ?? "/";
+  if (!raw.startsWith("/")) return raw;
+  try {
+    return new URL(`http://front.invalid${raw}`).pathname;
+  } catch {
+    return raw;
+  }
+}
+
+/**
  * Whether a request is a server action (or may be one) that Next will decode: a POST with the
  * Next-Action header, or a multipart form posted to a page (a form that works without script).
  */
@@ -160,5 +183,5 @@ export function isActionRequest(method: string | undefined, url: string | undefi
   if (method !== "POST") return false;
   if (headers["next-action"] !== undefined) return true;
   const type = headers["content-type"];
-  return typeof type === "string" && /^multipart\/form-data/i.test(type) && !(url ?? "/").startsWith("/api/");
+  return typeof type === "string" && /^multipart\/form-data/i.test(type) && !isApiPath(url);
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { ActionBodyGuard, isActionRequest, MAX_ACTION_NESTING } from "@/lib/auth/action-body-guard";
+import { ActionBodyGuard, isActionRequest, isApiPath, MAX_ACTION_NESTING, pagePath } from "@/lib/auth/action-body-guard";
 
 /** Feeds `body` to a fresh guard in chunks of `size` bytes; the first refusal, or null. */
 function scan(body: string, contentType = "text/plain;charset=UTF-8", size = Infinity): string | null {
@@ -83,7 +83,31 @@ describe("isActionRequest", () => {
     ["POST", "/api/v1/versions/1/files", { "content-type": "multipart/form-data; boundary=x" }, false],
     ["POST", "/api/v1/analyses", { "content-type": "application/json" }, false],
     ["GET", "/settings", { "next-action": "abc" }, false],
+    // Paths Next resolves to a page are pages, whatever they start with.
+    ...[
+      "/api/%2e%2e/admin/people",
+      "/api/%2E./admin",
+      "/api/../admin",
+      "/api/./x",
+      "/api\\..\\admin",
+      "/api//../admin",
+      "/api/..%2fadmin",
+      "/api/x%5c..%5cy",
+    ].map((url) => ["POST", url, { "content-type": "multipart/form-data; boundary=x" }, true] as const),
   ])("%s %s %j → %s", (method, url, headers, expected) => {
     expect(isActionRequest(method, url, headers)).toBe(expected);
+  });
+});
+
+describe("isApiPath / pagePath", () => {
+  it("the API is a plain /api/ path; a dot segment or encoded separator makes it a page", () => {
+    expect(isApiPath("/api/v1/analyses?x=../y")).toBe(true);
+    expect(isApiPath("/api/v1/versions/a.b")).toBe(true);
+    expect(isApiPath("/api/%2e%2e/admin/people")).toBe(false);
+    expect(isApiPath("/apix")).toBe(false);
+  });
+  it("pagePath resolves dot segments as Next routes them", () => {
+    expect(pagePath("/api/%2e%2e/deposits/new")).toBe("/deposits/new");
+    expect(pagePath("//evil/api/x")).toBe("//evil/api/x");
   });
 });
