@@ -76,7 +76,7 @@ describe("ActionBodyGuard", () => {
 });
 
 describe("isActionRequest", () => {
-  it.each([
+  it.each<[string, string, Record<string, string>, boolean]>([
     ["POST", "/deposits/new", { "next-action": "abc" }, true],
     ["POST", "/api/v1/x", { "next-action": "abc" }, true],
     ["POST", "/settings", { "content-type": "multipart/form-data; boundary=x" }, true],
@@ -93,7 +93,12 @@ describe("isActionRequest", () => {
       "/api//../admin",
       "/api/..%2fadmin",
       "/api/x%5c..%5cy",
-    ].map((url) => ["POST", url, { "content-type": "multipart/form-data; boundary=x" }, true] as const),
+    ].map((url): [string, string, Record<string, string>, boolean] => [
+      "POST",
+      url,
+      { "content-type": "multipart/form-data; boundary=x" },
+      true,
+    ]),
   ])("%s %s %j → %s", (method, url, headers, expected) => {
     expect(isActionRequest(method, url, headers)).toBe(expected);
   });
