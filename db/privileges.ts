@@ -20,10 +20,19 @@ const WITHHELD: Record<string, string> = {
 /** Functions that run as the schema owner and that the runtime role may call (each checks its own rule). */
 export const RUNTIME_FUNCTIONS = ["arrhenia_append_refit_analysis(integer, text, jsonb, jsonb, text)"];
 
-/** Triggers that freeze published data (drizzle/0002, drizzle/0007); each must exist and fire. */
+/** A draft of its own making set published by hand: refused by drizzle/0016 whatever the database holds. */
+export const PUBLISH_BY_HAND = `DO $$ DECLARE u integer; d integer; v integer; BEGIN
+        INSERT INTO public.users (email, name, password_hash) VALUES ('privileges-probe@example.invalid', 'probe', 'x') RETURNING id INTO u;
+        INSERT INTO public.datasets (owner_id) VALUES (u) RETURNING id INTO d;
+        INSERT INTO public.dataset_versions (dataset_id, number, title, payload) VALUES (d, 1, 'probe', '{}') RETURNING id INTO v;
+        UPDATE public.dataset_versions SET state = 'published', published_at = now() WHERE id = v;
+      END $$`;
+
+/** Triggers that freeze published data (drizzle/0002, drizzle/0007, drizzle/0016); each must exist and fire. */
 export const FREEZE_TRIGGERS = [
   "dataset_versions_frozen_when_published",
   "dataset_versions_identity_fixed",
+  "dataset_versions_published_by_acceptance",
   "version_points_frozen_when_published",
   "version_analyses_frozen_when_published",
   "version_files_frozen_when_published",
@@ -208,6 +217,7 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     ["UPDATE the current engine version", "UPDATE public.arrhenia_engine SET engine_version = 'forged'"],
     ["INSERT a current engine version", "INSERT INTO public.arrhenia_engine (only_row, engine_version) VALUES (true, 'forged')"],
     ["DELETE the current engine version", "DELETE FROM public.arrhenia_engine"],
+    ["publish a draft by hand", PUBLISH_BY_HAND],
     ["CREATE FUNCTION", "CREATE FUNCTION public.arrhenia_forged_refit() RETURNS integer LANGUAGE sql SECURITY DEFINER AS 'SELECT 1'"],
     [
       "a re-fit by an engine that is not the current one",

@@ -2,7 +2,10 @@
 // whose text fields are JSON) recursively, before any code of ours runs: a body of 100 000 nested
 // `[` overflows the stack there and answers 500. The front server therefore scans each action
 // body as it streams through, in constant memory and one pass, and refuses it as soon as brackets
-// nest deeper than any form of the app ever sends. File parts of a multipart body are skipped.
+// nest deeper than any form of the app ever sends. File parts of a multipart body are skipped:
+// which parts are files is decided by the very multipart parser Next uses (its bundled busboy), so
+// a part that merely mentions "filename" somewhere in its headers is still scanned.
+import { createRequire } from "node:module";
 
 /** Deepest nesting of `[` / `{` (outside JSON strings) an action body may carry. */
 export const MAX_ACTION_NESTING = 128;
@@ -20,6 +23,37 @@ const LF = 0x0a;
 const MAX_PART_HEADERS = 16 * 1024;
 
 type Mode = "json" | "headers" | "file";
+
+type Busboy = NodeJS.WritableStream & {
+  on(event: "file", listener: (name: string, stream: NodeJS.ReadableStream) => void): Busboy;
+  on(event: "error", listener: (err: unknown) => void): Busboy;
+};
+const busboy = createRequire(import.meta.url)("next/dist/compiled/busboy") as (options: object) => Busboy;
+
+/**
+ * Whether Next's multipart parser treats a part with these header bytes (everything after its
+ * delimiter, up to and including the blank line) as a file, which is never decoded as JSON. The
+ * part is replayed, empty, through the same parser with the same options as Next's action handler;
+ * anything else (a field, a part it ignores, headers it rejects) counts as not a file.
+ */
+export function isFilePart(headers: Buffer): boolean {
+  const boundary = "arrhenia-part-probe";
+  let file = false;
+  try {
+    const parser = busboy({ defParamCharset: "utf8", headers: { "content-type": `multipart/form-data; boundary=${boundary}` } });
+    parser.on("file", (_name, stream) => {
+      file = true;
+      stream.resume();
+    });
+    parser.on("error", () => {});
+    // Writable.write runs the parser synchronously while nothing is queued: the verdict is known on return.
+    parser.write(Buffer.concat([Buffer.from(`--${boundary}`, "latin1"), headers, Buffer.from(`\r\n--${boundary}--\r\n`, "latin1")]));
+    parser.end();
+  } catch {
+    return false;
+  }
+  return file;
+}
 
 /** KMP failure table of the multipart delimiter, for a streaming search. */
 function failureTable(pattern: Buffer): Int32Array {
@@ -113,8 +147,31 @@ export class ActionBodyGuard {
     // "\r\n\r\n" ends the headers (the delimiter line's own CRLF counts as the first pair's start).
     this.headerEnd = b === (this.headerEnd % 2 === 0 ? CR : LF) ? this.headerEnd + 1 : b === CR ? 1 : 0;
     if (this.headerEnd < 4) return;
-    const text = Buffer.from(this.headers).toString("latin1");
-    this.mode = /\bfilename\*?=/i.test(text) ? "file" : "json";
+    // Headers cut at MAX_PART_HEADERS end without their blank line: never a file, so scanned.
+    this.mode = this.headers.length < MAX_PART_HEADERS && isFilePart(Buffer.from(this.headers)) ? "file" : "json";
+  }
+}
+
+/**
+ * Whether a request goes to the REST API / next-auth (under /api/). Next resolves dot segments
+ * ("%2e" and "\\" included) and repeated slashes before routing, so "/api/%2e%2e/admin" is the
+ * page /admin: a path with a dot segment, an encoded dot, slash or backslash, a backslash or "//"
+ * is never counted as the API, whatever it starts with; it gets every check a page gets.
+ */
+export function isApiPath(url: string | undefined): boolean {
+  const raw = (url ?? "/").split("?")[0];
+  if (/%2e|%2f|%5c|\\|\/\//i.test(raw) || /(^|\/)\.\.?(\/|$)/.test(raw)) return false;
+  return raw.startsWith("/api/");
+}
+
+/** The path of a request as Next routes it (dot segments resolved, backslashes read as slashes). */
+export function pagePath(url: string | undefined): string {
+  const raw = url ?? "/";
+  if (!raw.startsWith("/")) return raw;
+  try {
+    return new URL(`http://front.invalid${raw}`).pathname;
+  } catch {
+    return raw;
   }
 }
 
@@ -126,5 +183,5 @@ export function isActionRequest(method: string | undefined, url: string | undefi
   if (method !== "POST") return false;
   if (headers["next-action"] !== undefined) return true;
   const type = headers["content-type"];
-  return typeof type === "string" && /^multipart\/form-data/i.test(type) && !(url ?? "/").startsWith("/api/");
+  return typeof type === "string" && /^multipart\/form-data/i.test(type) && !isApiPath(url);
 }

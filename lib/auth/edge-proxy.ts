@@ -6,7 +6,7 @@
 import http from "node:http";
 import { isIP, type AddressInfo } from "node:net";
 import proxyaddr from "proxy-addr";
-import { ActionBodyGuard, isActionRequest } from "./action-body-guard";
+import { ActionBodyGuard, isActionRequest, isApiPath, pagePath } from "./action-body-guard";
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "./client-address";
 
 export type TrustProxy = (address: string, hop: number) => boolean;
@@ -62,7 +62,7 @@ export function isCrossOriginPagePost(
   if (!method || ["GET", "HEAD", "OPTIONS"].includes(method)) return false;
   // The REST API and next-auth's endpoints authenticate (bearer tokens, CSRF tokens) on their own;
   // a server action is checked whatever path it is sent to.
-  if ((url ?? "/").startsWith("/api/") && headers["next-action"] === undefined) return false;
+  if (isApiPath(url) && headers["next-action"] === undefined) return false;
   const origin = headers.origin;
   if (origin === undefined) return false;
   let parsed: URL;
@@ -78,7 +78,7 @@ export function isCrossOriginPagePost(
 
 /** Largest server-action body, bytes: the deposit editor sends whole documents, every other action a form. */
 export function actionBodyLimit(url: string | undefined): number {
-  return (url ?? "/").startsWith("/deposits") ? 32 * 1024 * 1024 : 1024 * 1024;
+  return pagePath(url).startsWith("/deposits") ? 32 * 1024 * 1024 : 1024 * 1024;
 }
 
 /** A path Next.js cannot decode (bad percent-encoding) is answered here, as not found. */

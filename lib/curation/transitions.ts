@@ -73,6 +73,11 @@ export async function applyTransition({
     const now = new Date();
     const outcome: TransitionOutcome = { versionId, datasetId: version.datasetId, from: version.state, to };
 
+    // The decision goes on record first: the database publishes a version only with its accept
+    // decision already there (drizzle/0016).
+    if (transition === "accept" || transition === "return" || transition === "decline") {
+      await tx.insert(decisions).values({ versionId, curatorId: actorId, decision: transition, reason: reason!.trim() });
+    }
     if (transition === "accept") {
       const series = await seriesIdentifierFor(tx, version.datasetId);
       const ids = { version: versionIdentifier(series, version.number), series };
@@ -100,9 +105,6 @@ export async function applyTransition({
         .update(datasetVersions)
         .set({ state: to, updatedAt: now, ...(transition === "submit" ? { submittedAt: now } : {}) })
         .where(eq(datasetVersions.id, versionId));
-    }
-    if (transition === "accept" || transition === "return" || transition === "decline") {
-      await tx.insert(decisions).values({ versionId, curatorId: actorId, decision: transition, reason: reason!.trim() });
     }
     await recordAuditEvent(tx, {
       actorId,

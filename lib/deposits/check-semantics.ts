@@ -20,6 +20,8 @@ import {
   type ReactionOrder,
 } from "@/lib/kinetics";
 import { formatValue, sentenceAt, sentenceWithPrefix } from "./messages";
+import { sigmaLnKOf } from "./normalise";
+import type { PointUncertainty } from "./types";
 
 /**
  * Highest temperature accepted, K (the schema's description says so). Measured and computed rate
@@ -27,6 +29,20 @@ import { formatValue, sentenceAt, sentenceWithPrefix } from "./messages";
  * value is a typing or unit mistake, and a fit in 1/T would only see it as 1/T ≈ 0.
  */
 export const MAX_TEMPERATURE_K = 100_000;
+
+/**
+ * Lowest temperature accepted, K: one nanokelvin, below the coldest gases whose rate constants are
+ * measured (ultracold molecules, some hundred nanokelvin; from memory). Below it a value is a
+ * typing or unit mistake, and 1/T leaves the range a fit can hold.
+ */
+export const MIN_TEMPERATURE_K = 1e-9;
+
+/**
+ * Smallest standard uncertainty of ln k a point may carry (a relative uncertainty of 1e-7 %): no
+ * measurement or calculation of k is that precise, and the fit weighs a point by 1/σ², which
+ * must stay a number.
+ */
+export const MIN_SIGMA_LN_K = 1e-9;
 
 /** An absolute uncertainty above this multiple of k is a relative uncertainty over 1000 % (the schema's bound). */
 export const MAX_ABSOLUTE_UNCERTAINTY_RATIO = 10;
@@ -87,6 +103,17 @@ function checkTemperature(report: Report, pointer: string, value: unknown, unit:
     });
     return undefined;
   }
+  if (kelvin > 0 && kelvin < MIN_TEMPERATURE_K) {
+    report({
+      pointer,
+      value,
+      message: sentenceAt(
+        pointer,
+        `is out of range: ${formatValue(value)} ${unit.label}${kelvin === value ? "" : ` is ${formatValue(Number(kelvin.toPrecision(4)))} K`}; a temperature must be at least ${MIN_TEMPERATURE_K} K (one nanokelvin); check the value and its unit`,
+      ),
+    });
+    return undefined;
+  }
   if (kelvin > 0) return kelvin;
   if (unit.offset) {
     report({
@@ -142,6 +169,7 @@ export function checkDepositSemantics(doc: unknown, report: Report): void {
     if (!isRecord(p)) continue;
     checkTemperature(report, `/points/${i}/T`, p.T, unitT);
     checkAbsoluteUncertainty(report, `/points/${i}/uncertainty/value`, p);
+    checkUsableUncertainty(report, `/points/${i}/uncertainty/value`, p);
     if (unitK && canonicalK) checkRateConstantRange(report, `/points/${i}/k`, p.k, unitK, canonicalK);
     if (unitP) checkPressureRange(report, `/points/${i}/pressure`, p.pressure, unitP);
   }
@@ -211,6 +239,27 @@ function checkAbsoluteUncertainty(report: Report, pointer: string, point: Record
     message: sentenceWithPrefix(
       pointer,
       `an absolute uncertainty of ${formatValue(u.value)} is more than ${MAX_ABSOLUTE_UNCERTAINTY_RATIO} times k (${formatValue(point.k)}), i.e. over 1000 %; check the value and its unit`,
+    ),
+  });
+}
+
+/**
+ * Report an uncertainty so small that, as the standard uncertainty of ln k the fit weighs points
+ * by, it is below MIN_SIGMA_LN_K (e.g. 5e-324, or a factor of 1 + 1e-17): said at the value given.
+ */
+function checkUsableUncertainty(report: Report, pointer: string, point: Record<string, unknown>): void {
+  const u = point.uncertainty;
+  if (!isRecord(u) || !isFiniteNumber(u.value) || !isFiniteNumber(point.k) || point.k <= 0) return;
+  if (!["absolute", "relative", "factor"].includes(u.kind as string)) return;
+  if (u.kind === "factor" ? u.value <= 1 : u.value <= 0) return; // the schema's own bounds say so
+  const sigma = sigmaLnKOf({ k: point.k, uncertainty: u as unknown as PointUncertainty });
+  if (sigma !== undefined && Number.isFinite(sigma) && sigma >= MIN_SIGMA_LN_K) return;
+  report({
+    pointer,
+    value: u.value,
+    message: sentenceWithPrefix(
+      pointer,
+      `an uncertainty of ${formatValue(u.value)} (${String(u.kind)}) is too small: as a standard uncertainty of ln k it is ${formatValue(Number((sigma ?? 0).toPrecision(2)))}, below ${MIN_SIGMA_LN_K} (no k is known that precisely); check the value and its kind, or leave it out`,
     ),
   });
 }

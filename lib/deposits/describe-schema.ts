@@ -48,7 +48,7 @@ function typeName(t: string | string[] | undefined): string {
 }
 
 function num(n: number): string {
-  return n >= 10000 ? n.toLocaleString("en-GB") : String(n);
+  return n >= 1e9 ? String(n) : n >= 10000 ? n.toLocaleString("en-GB") : String(n);
 }
 
 function constraintsOf(node: SchemaNode): string[] {

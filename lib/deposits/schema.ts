@@ -12,6 +12,7 @@ export interface SchemaNode {
   type?: string | string[];
   properties?: Record<string, SchemaNode>;
   items?: SchemaNode;
+  prefixItems?: SchemaNode[];
   required?: string[];
   enum?: unknown[];
   const?: unknown;
@@ -73,6 +74,8 @@ export function schemaAtSegments(segments: readonly string[], root: SchemaNode =
   for (const seg of segments) {
     if (!node) return undefined;
     if (node.properties && Object.hasOwn(node.properties, seg)) node = resolveSchema(node.properties[seg]);
+    else if (node.prefixItems && /^\d+$/.test(seg) && Number(seg) < node.prefixItems.length)
+      node = resolveSchema(node.prefixItems[Number(seg)]);
     else if (node.items && /^\d+$/.test(seg)) node = resolveSchema(node.items);
     else return undefined;
   }

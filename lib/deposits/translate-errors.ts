@@ -105,6 +105,7 @@ const SPECIFIC = new Map<object, Partial<Record<string, MessageRule>>>([
   ],
   [defs.reaction.allOf![0].then!, { required: (p) => sentenceAt(p, "is required when the phase is liquid") }],
   [defs.reportedFit.then!, { required: (p) => sentenceAt(p, "is required for the modified_arrhenius model") }],
+  [defs.cslName, { anyOf: (p) => sentenceAt(p, "needs a family name or a literal name (an organisation) that is not blank") }],
   [
     defs.pressureCondition,
     {

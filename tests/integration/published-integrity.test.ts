@@ -1,7 +1,7 @@
 import PgBoss from "pg-boss";
 import postgres from "postgres";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { formatTable, inspectRuntimePrivileges } from "@/db/privileges";
+import { formatTable, inspectRuntimePrivileges, PUBLISH_BY_HAND } from "@/db/privileges";
 import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset, startNextVersion, updateDraft } from "@/lib/datasets/deposits";
 import { ENGINE_VERSION } from "@/lib/datasets/prepare";
@@ -138,6 +138,32 @@ describe("the freeze holds against the runtime role", () => {
       "insert a version as published",
       `insert into dataset_versions (dataset_id, number, state, title, payload) values (${published.datasetId}, 77, 'published', 'forged', '{}')`,
       refusedByTrigger,
+    ],
+    [
+      "publish a draft by hand (no identifier, checksum or decision)",
+      `update dataset_versions set state = 'published', published_at = now() where id = ${draft.id}`,
+      /published only by acceptance/,
+    ],
+    ["db:privileges' own attempt: publish a fresh draft by hand", PUBLISH_BY_HAND, /published only by acceptance/],
+    [
+      "publish an in-review version by hand with an identifier and checksum, but no decision",
+      `update dataset_versions set state = 'in_review' where id = ${draft.id};
+       update dataset_versions set state = 'published', published_at = now(), version_identifier = '10.5072/forged/1', payload_sha256 = 'x' where id = ${draft.id}`,
+      /without a curator's accept decision/,
+    ],
+    [
+      "publish an in-review version by hand without an identifier",
+      `update dataset_versions set state = 'in_review' where id = ${draft.id};
+       insert into decisions (version_id, curator_id, decision, reason) values (${draft.id}, ${curator.id}, 'accept', 'forged');
+       update dataset_versions set state = 'published', published_at = now(), payload_sha256 = 'x' where id = ${draft.id}`,
+      /without its identifier/,
+    ],
+    [
+      "publish with an accept decision recorded by a researcher",
+      `update dataset_versions set state = 'in_review' where id = ${draft.id};
+       insert into decisions (version_id, curator_id, decision, reason) values (${draft.id}, ${stranger.id}, 'accept', 'forged');
+       update dataset_versions set state = 'published', published_at = now(), version_identifier = '10.5072/forged/1', payload_sha256 = 'x' where id = ${draft.id}`,
+      /without a curator's accept decision/,
     ],
     ["edit its points", `update version_points set rate_constant = 1 where version_id = ${published.id}`, refusedByTrigger],
     ["delete its points", `delete from version_points where version_id = ${published.id}`, refusedByTrigger],

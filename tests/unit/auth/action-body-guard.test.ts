@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { ActionBodyGuard, isActionRequest, MAX_ACTION_NESTING } from "@/lib/auth/action-body-guard";
+import { ActionBodyGuard, isActionRequest, isApiPath, MAX_ACTION_NESTING, pagePath } from "@/lib/auth/action-body-guard";
 
 /** Feeds `body` to a fresh guard in chunks of `size` bytes; the first refusal, or null. */
 function scan(body: string, contentType = "text/plain;charset=UTF-8", size = Infinity): string | null {
@@ -49,6 +49,26 @@ describe("ActionBodyGuard", () => {
     }
   });
 
+  it("multipart: only parts Next's parser treats as files are skipped; a mere mention of filename is scanned", () => {
+    const deep = "[".repeat(5000) + "]".repeat(5000);
+    const notFiles = [
+      `Content-Disposition: form-data; name="0"\r\nX-Note: filename=x`,
+      `Content-Disposition: form-data; name="0"; x="filename="`,
+      `Content-Disposition: form-data; name="0"; filename*=`,
+      `Content-Disposition: form-data; name="0"; filename=""`,
+      `X-Filename: filename="a"\r\nContent-Disposition: form-data; name="0"`,
+    ];
+    for (const headers of notFiles) {
+      for (const size of [1, 64, Infinity]) expect(scan(body(`${headers}\r\n\r\n${deep}`), multipart, size), headers).toMatch(/nested/);
+    }
+    const files = [
+      `Content-Disposition: form-data; name="1"; filename="data.json"`,
+      `Content-Disposition: form-data; name="1"; filename*=utf-8''d%C3%A9p%C3%B4t.json`,
+      `Content-Disposition: form-data; name="1"\r\nContent-Type: application/octet-stream`,
+    ];
+    for (const headers of files) expect(scan(body(`${headers}\r\n\r\n${deep}`), multipart, 7), headers).toBeNull();
+  });
+
   it("a quoted boundary parameter is understood", () => {
     const deep = body(field("0", "[".repeat(500)));
     expect(scan(deep, `multipart/form-data; boundary="${boundary}"`)).toMatch(/nested/);
@@ -56,14 +76,43 @@ describe("ActionBodyGuard", () => {
 });
 
 describe("isActionRequest", () => {
-  it.each([
+  it.each<[string, string, Record<string, string>, boolean]>([
     ["POST", "/deposits/new", { "next-action": "abc" }, true],
     ["POST", "/api/v1/x", { "next-action": "abc" }, true],
     ["POST", "/settings", { "content-type": "multipart/form-data; boundary=x" }, true],
     ["POST", "/api/v1/versions/1/files", { "content-type": "multipart/form-data; boundary=x" }, false],
     ["POST", "/api/v1/analyses", { "content-type": "application/json" }, false],
     ["GET", "/settings", { "next-action": "abc" }, false],
+    // Paths Next resolves to a page are pages, whatever they start with.
+    ...[
+      "/api/%2e%2e/admin/people",
+      "/api/%2E./admin",
+      "/api/../admin",
+      "/api/./x",
+      "/api\\..\\admin",
+      "/api//../admin",
+      "/api/..%2fadmin",
+      "/api/x%5c..%5cy",
+    ].map((url): [string, string, Record<string, string>, boolean] => [
+      "POST",
+      url,
+      { "content-type": "multipart/form-data; boundary=x" },
+      true,
+    ]),
   ])("%s %s %j → %s", (method, url, headers, expected) => {
     expect(isActionRequest(method, url, headers)).toBe(expected);
+  });
+});
+
+describe("isApiPath / pagePath", () => {
+  it("the API is a plain /api/ path; a dot segment or encoded separator makes it a page", () => {
+    expect(isApiPath("/api/v1/analyses?x=../y")).toBe(true);
+    expect(isApiPath("/api/v1/versions/a.b")).toBe(true);
+    expect(isApiPath("/api/%2e%2e/admin/people")).toBe(false);
+    expect(isApiPath("/apix")).toBe(false);
+  });
+  it("pagePath resolves dot segments as Next routes them", () => {
+    expect(pagePath("/api/%2e%2e/deposits/new")).toBe("/deposits/new");
+    expect(pagePath("//evil/api/x")).toBe("//evil/api/x");
   });
 });

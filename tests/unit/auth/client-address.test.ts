@@ -112,4 +112,8 @@ describe("cross-origin page posts (server actions)", () => {
     expect(isCrossOriginPagePost("GET", "/settings", h({ origin: "https://evil.example" }), app)).toBe(false);
     expect(isCrossOriginPagePost("POST", "/api/v1/analyses", h({ origin: "https://evil.example" }), app)).toBe(false);
   });
+  it("a page reached through /api/ with dot segments is a page", () => {
+    for (const url of ["/api/%2e%2e/admin/people", "/api/../admin/people", "/api\\..\\admin"])
+      expect(isCrossOriginPagePost("POST", url, h({ origin: "https://evil.example" }), app)).toBe(true);
+  });
 });

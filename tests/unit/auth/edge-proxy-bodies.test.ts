@@ -108,6 +108,19 @@ describe("bodies that are not what their headers say, at the front server", () =
     expect(answer).toMatch(/\{"bytes":6\}/);
   });
 
+  it("a form posted to /api/%2e%2e/<page> (Next routes it to the page) gets a page's checks: origin, nesting, size", async () => {
+    const path = "/api/%2e%2e/admin/people";
+    const form = (origin: string, body: string, length = Buffer.byteLength(body)) =>
+      `POST ${path} HTTP/1.1\r\nHost: 127.0.0.1\r\nOrigin: ${origin}\r\nContent-Type: multipart/form-data; boundary=b\r\nContent-Length: ${length}\r\n\r\n${body}`;
+    const before = reached;
+    const small = `--b\r\nContent-Disposition: form-data; name="0"\r\n\r\n[]\r\n--b--\r\n`;
+    expect(statusOf((await raw(form("https://evil.example", small))).answer)).toBe(403);
+    const deep = `--b\r\nContent-Disposition: form-data; name="0"\r\n\r\n${"[".repeat(100_000)}${"]".repeat(100_000)}\r\n--b--\r\n`;
+    expect(statusOf((await raw(form("http://127.0.0.1", deep))).answer)).toBe(400);
+    expect(statusOf((await raw(form("http://127.0.0.1", small, 200 * 1024 * 1024))).answer)).toBe(413);
+    expect(reached).toBe(before);
+  });
+
   it("declaresBody", () => {
     expect(declaresBody({ "content-length": "5" })).toBe(true);
     expect(declaresBody({ "content-length": "0" })).toBe(false);

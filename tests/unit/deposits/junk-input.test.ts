@@ -150,3 +150,68 @@ describe("a key written twice", () => {
     expect(parseAndValidateDeposit(JSON.stringify(EXAMPLE_DEPOSIT)).ok).toBe(true);
   });
 });
+
+describe("a reference's authors, dates and a point's k, T and uncertainty within stated bounds", () => {
+  const withReference = (reference: Record<string, unknown>) => {
+    const d = clone(EXAMPLE_DEPOSIT) as DepositDocument;
+    d.source = { reference: { type: "article-journal", title: "A paper", ...reference } } as DepositDocument["source"];
+    return d;
+  };
+
+  it.each([{ literal: "   " }, { literal: "" }, {}, { given: "A." }, { family: "\u00a0", given: "B." }, { family: "", literal: "\t" }])(
+    "an author %j with no family name or literal that says something is refused at its pointer",
+    (author) => {
+      const errors = errorsOf(withReference({ author: [{ family: "Smith", given: "J." }, author] }));
+      expect(errors.map((e) => e.pointer)).toEqual(["/source/reference/author/1"]);
+      expect(errors[0].message).toMatch(/Author 2 needs a family name or a literal name .* not blank/);
+    },
+  );
+
+  it("a family name or a literal alone is an author", () => {
+    expect(errorsOf(withReference({ author: [{ family: "Smith" }, { literal: "A working group" }] }))).toEqual([]);
+  });
+
+  it.each([1e308, 0, -5, 999, 2101])("an issued year %s is refused at its pointer", (year) => {
+    const errors = errorsOf(withReference({ issued: { "date-parts": [[year, 5]] } }));
+    expect(errors.map((e) => e.pointer)).toEqual(["/source/reference/issued/date-parts/0/0"]);
+    expect(errors[0].message).toMatch(/year .* must be at (least 1000|most 2100)/);
+  });
+
+  it("a plausible date, and a month or day of 0, are told apart", () => {
+    expect(errorsOf(withReference({ issued: { "date-parts": [[1998, 5, 31]] } }))).toEqual([]);
+    expect(errorsOf(withReference({ issued: { "date-parts": [[1998, 0]] } })).map((e) => e.pointer)).toEqual([
+      "/source/reference/issued/date-parts/0/1",
+    ]);
+  });
+
+  it("k above 1e100 (in any unit, beyond physics) is refused at /points/i/k; 1e100 itself passes the schema", () => {
+    const d = clone(EXAMPLE_DEPOSIT);
+    d.points[2] = { T: 280, k: 1e308 };
+    expect(errorsOf(d).map((e) => e.pointer)).toEqual(["/points/2/k"]);
+    d.points[2] = { T: 280, k: 1e100 };
+    expect(errorsOf(d)).toEqual([]);
+  });
+
+  it("T = 5e-324 K is refused at /points/i/T, not at the point", () => {
+    const d = clone(EXAMPLE_DEPOSIT);
+    d.points[1] = { ...d.points[1], T: 5e-324 };
+    const errors = errorsOf(d);
+    expect(errors.map((e) => e.pointer)).toEqual(["/points/1/T"]);
+    expect(errors[0].message).toMatch(/at least 1e-9 K/);
+    d.points[1] = { ...d.points[1], T: 2e-7 }; // ultracold, but a temperature
+    expect(errorsOf(d)).toEqual([]);
+  });
+
+  it.each([
+    ["absolute", 5e-324],
+    ["relative", 5e-324],
+    ["factor", 1 + 2 ** -52],
+  ] as const)("a %s uncertainty of %s is refused at its value, in the document's own terms", (kind, value) => {
+    const d = clone(EXAMPLE_DEPOSIT);
+    d.points[0] = { T: 250, k: 2.09e-15, uncertainty: { kind, value } };
+    const errors = errorsOf(d);
+    expect(errors.map((e) => e.pointer)).toEqual(["/points/0/uncertainty/value"]);
+    expect(errors[0].message).toMatch(new RegExp(`an uncertainty of .* \\(${kind}\\) is too small`));
+    expect(errors[0].message).not.toMatch(/sigmaLnK/);
+  });
+});

@@ -129,7 +129,7 @@ describe("describeDepositSchema (the documentation page's field list)", () => {
     expect(license).toMatchObject({ required: false, default: "CC-BY-4.0" });
     expect(license.allowed).toContain("CC0-1.0");
     const k = sections.find((s) => s.path === "points[]")!.fields.find((f) => f.name === "k")!;
-    expect(k).toMatchObject({ required: true, type: "number", constraints: ["greater than 0"] });
+    expect(k).toMatchObject({ required: true, type: "number", constraints: ["greater than 0", "at most 1e+100"] });
     for (const s of sections) for (const f of s.fields) expect(f.description, f.path).not.toBe("");
   });
 });
