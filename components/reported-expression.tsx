@@ -1,9 +1,16 @@
 import type { DepositDocument } from "@/lib/deposits/types";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 
-/** Up to five significant digits, as the authors' numbers are shown beside our own. */
-const show = (x: number) =>
-  Math.abs(x) >= 1e5 || (x !== 0 && Math.abs(x) < 1e-3) ? x.toExponential(4).replace(/\.?0+e/, "e") : String(+x.toPrecision(5));
+import { formatNumber, formatRange } from "@/lib/format";
+
+/** Up to five significant digits, written as our own numbers are (true minus, "e−11"). */
+const show = (x: number) => formatNumber(x, 5);
+
+/** The validity range: both ends alike ("−23.2 to 126.9"), "…" for an end not stated. */
+const validRange = (lo: number | undefined, hi: number | undefined) =>
+  lo !== undefined && hi !== undefined
+    ? formatRange(lo, hi, "")
+    : `${lo !== undefined ? show(lo) : "…"} to ${hi !== undefined ? show(hi) : "…"}`;
 
 /**
  * The expression the authors report, in our layout: the formula once, then its parameters as a
@@ -51,9 +58,7 @@ export function ReportedExpression({ doc }: { doc: DepositDocument }) {
               <th scope="row" className="pr-4 font-medium">
                 Valid
               </th>
-              <td className="font-mono">
-                {r.Tmin !== undefined ? show(r.Tmin) : "…"}–{r.Tmax !== undefined ? show(r.Tmax) : "…"}
-              </td>
+              <td className="font-mono">{validRange(r.Tmin, r.Tmax)}</td>
               <td className="pl-2 text-muted">{TUnit}</td>
             </tr>
           )}

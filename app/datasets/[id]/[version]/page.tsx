@@ -11,6 +11,7 @@ import { parseIdOrNull } from "@/lib/ids";
 import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
 import type { DepositDocument } from "@/lib/deposits/types";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
+import { formatNumber } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Dataset" };
 export const dynamic = "force-dynamic";
@@ -95,7 +96,9 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
           <p>
             Phase: {doc.reaction.phase}; order {doc.reaction.order}
             {doc.conditions?.bathGas ? `; bath gas ${doc.conditions.bathGas}` : ""}
-            {doc.conditions?.pressure?.value !== undefined ? `; ${doc.conditions.pressure.value} ${doc.units.pressure ?? ""}` : ""}
+            {doc.conditions?.pressure?.value !== undefined
+              ? `; ${formatNumber(doc.conditions.pressure.value)} ${doc.units.pressure ?? ""}`
+              : ""}
           </p>
         </div>
         <div className="card space-y-1 text-sm">
