@@ -31,7 +31,7 @@ test("a dataset page at 1366 px shows every table cell whole", async ({ page }) 
         if (cell.scrollWidth > cell.clientWidth + 1)
           out.push(`cell "${cell.textContent?.slice(0, 40)}" ${cell.scrollWidth} > ${cell.clientWidth}`);
       }
-      for (const table of document.querySelectorAll<HTMLElement>("main table")) {
+      for (const table of document.querySelectorAll<HTMLTableElement>("main table")) {
         const box = table.parentElement!;
         if (box.scrollWidth > box.clientWidth + 1)
           out.push(`table "${table.caption?.textContent}" ${box.scrollWidth} px in ${box.clientWidth} px`);
