@@ -67,3 +67,19 @@ export function formatRange(lo: number | null | undefined, hi: number | null | u
   if (a === b) return `${a}${space}`;
   return lo < 0 || hi < 0 ? `${a} to ${b}${space}` : `${a}–${b}${space}`;
 }
+
+/**
+ * 10^log10 in the exponent form of formatSignificant ("2.24e−305"), also where the power itself
+ * would overflow to Infinity or underflow to 0.
+ */
+export function formatTenTo(log10: number, digits = 3): string {
+  if (!Number.isFinite(log10)) return "—";
+  if (Math.abs(log10) < 300) return formatSignificant(10 ** log10, digits);
+  let exponent = Math.floor(log10);
+  let mantissa = Number((10 ** (log10 - exponent)).toFixed(digits - 1));
+  if (mantissa >= 10) {
+    mantissa /= 10;
+    exponent += 1;
+  }
+  return `${mantissa.toFixed(digits - 1)}e${exponent}`.replace(/-/g, MINUS);
+}

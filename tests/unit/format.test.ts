@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatFixed, formatNumber, formatRange, formatSignificant } from "@/lib/format";
+import { formatFixed, formatNumber, formatTenTo, formatRange, formatSignificant } from "@/lib/format";
 
 describe("formatSignificant", () => {
   it.each([
@@ -52,4 +52,14 @@ describe("formatFixed", () => {
     [2.26, 2, "2.26"],
     [Number.NaN, 1, "—"],
   ] as const)("%s to %i decimals → %s", (v, d, out) => expect(formatFixed(v, d)).toBe(out));
+});
+
+describe("formatTenTo", () => {
+  it.each([
+    [2, 3, "100"],
+    [-2, 3, "0.0100"],
+    [5.35, 3, "2.24e5"],
+    [-400.65, 3, "2.24e\u2212401"],
+    [400.35, 2, "2.2e400"],
+  ] as const)("10^%s to %i digits → %s", (v, d, out) => expect(formatTenTo(v, d)).toBe(out));
 });
