@@ -1,5 +1,5 @@
 import type { DepositDocument } from "@/lib/deposits/types";
-import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
+import { SUPPORTED_UNITS, convertEnergy, convertRateConstant, displayConversion } from "@/lib/kinetics/units";
 
 import { formatNumber, formatRange } from "@/lib/format";
 
@@ -12,17 +12,37 @@ const validRange = (lo: number | undefined, hi: number | undefined) =>
     ? formatRange(lo, hi, "")
     : `${lo !== undefined ? show(lo) : "…"} to ${hi !== undefined ? show(hi) : "…"}`;
 
+/** What the authors' expression needs of a deposit document (small enough to hand to a client component). */
+export type ReportedExpressionSource = Pick<DepositDocument, "reportedFit" | "units"> & {
+  reaction: Pick<DepositDocument["reaction"], "order">;
+};
+
 /**
  * The expression the authors report, in our layout: the formula once, then its parameters as a
  * small table in the document's own units, with the reference temperature T0 always stated.
  */
-export function ReportedExpression({ doc }: { doc: DepositDocument }) {
+export function ReportedExpression({
+  doc,
+  kUnit: kShown,
+  energyUnit,
+}: {
+  doc: ReportedExpressionSource;
+  /** Unit id to show A in (the document's own when not given). */
+  kUnit?: string;
+  /** Unit id to show Ea in, as the reader chose for the fitted parameters (the reported unit when not given). */
+  energyUnit?: string;
+}) {
   const r = doc.reportedFit;
   if (!r) return null;
   const modified = r.model === "modified_arrhenius";
-  const kUnit = SUPPORTED_UNITS.rateConstant[doc.reaction.order].find((u) => u.id === doc.units.k)?.label ?? doc.units.k;
+  const order = doc.reaction.order;
+  const kId = kShown ?? doc.units.k;
+  const kUnit = SUPPORTED_UNITS.rateConstant[order].find((u) => u.id === kId)?.label ?? kId;
   const TUnit = SUPPORTED_UNITS.temperature.find((u) => u.id === doc.units.T)?.label ?? doc.units.T;
-  const EUnit = SUPPORTED_UNITS.energy.find((u) => u.id === r.EaUnit)?.label ?? r.EaUnit;
+  const eId = energyUnit ?? r.EaUnit;
+  const EUnit = SUPPORTED_UNITS.energy.find((u) => u.id === eId)?.label ?? eId;
+  const A = kShown ? displayConversion(() => convertRateConstant(r.A, doc.units.k, kShown, order)) : r.A;
+  const Ea = energyUnit ? displayConversion(() => convertEnergy(r.Ea, r.EaUnit, energyUnit)) : r.Ea;
   const T0 = r.T0 !== undefined ? `${show(r.T0)} ${TUnit}` : "298.15 K";
   return (
     <div className="space-y-2 text-sm">
@@ -34,7 +54,7 @@ export function ReportedExpression({ doc }: { doc: DepositDocument }) {
             <th scope="row" className="pr-4 font-medium">
               A
             </th>
-            <td className="font-mono">{show(r.A)}</td>
+            <td className="font-mono">{show(A)}</td>
             <td className="pl-2 text-muted">{kUnit}</td>
           </tr>
           {modified && (
@@ -50,7 +70,7 @@ export function ReportedExpression({ doc }: { doc: DepositDocument }) {
             <th scope="row" className="pr-4 font-medium">
               Ea
             </th>
-            <td className="font-mono">{show(r.Ea)}</td>
+            <td className="font-mono">{show(Ea)}</td>
             <td className="pl-2 text-muted">{EUnit}</td>
           </tr>
           {(r.Tmin !== undefined || r.Tmax !== undefined) && (

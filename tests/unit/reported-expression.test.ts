@@ -36,6 +36,18 @@ describe("the reported expression", () => {
     expect(html.replace(/<[^>]*>/g, " ")).not.toMatch(/\d-\d|\de-/);
   });
 
+  it("converts A and Ea to the units the reader chose", () => {
+    const doc: DepositDocument = {
+      ...structuredClone(EXAMPLE_DEPOSIT),
+      reportedFit: { model: "arrhenius", A: 1e-11, Ea: 4.184, EaUnit: "kJ/mol" },
+    };
+    const html = createElement(ReportedExpression, { doc, kUnit: "cm3 mol-1 s-1", energyUnit: "kcal mol-1" });
+    const text = renderToStaticMarkup(html);
+    // 1e−11 cm³ molecule⁻¹ s⁻¹ × N_A (6.02214076e23, CODATA 2018) = 6.0221e12 cm³ mol⁻¹ s⁻¹; 4.184 kJ = 1 kcal.
+    expect(text).toMatch(/>A<\/th><td[^>]*>6\.0221e12<\/td><td[^>]*>cm³ mol⁻¹ s⁻¹</);
+    expect(text).toMatch(/>Ea<\/th><td[^>]*>1<\/td><td[^>]*>kcal mol⁻¹</);
+  });
+
   it("shows nothing when the authors report no expression", () => {
     const doc = { ...structuredClone(EXAMPLE_DEPOSIT) };
     delete doc.reportedFit;

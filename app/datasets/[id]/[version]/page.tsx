@@ -90,7 +90,7 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
           {doc.reportedFit && (
             <>
               <h3 className="pt-2 font-semibold">Expression the authors report</h3>
-              <ReportedExpression doc={doc} />
+              {result ? <p>Shown beside the re-fitted parameters below, in the units chosen there.</p> : <ReportedExpression doc={doc} />}
             </>
           )}
           <p>
@@ -115,7 +115,14 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
             Re-fitted here
           </h2>
           <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>
-          <VersionFit analysis={result} order={doc.reaction.order} points={points} />
+          <VersionFit
+            analysis={result}
+            order={doc.reaction.order}
+            points={points}
+            reported={
+              doc.reportedFit ? { reportedFit: doc.reportedFit, units: doc.units, reaction: { order: doc.reaction.order } } : undefined
+            }
+          />
         </section>
       )}
 
