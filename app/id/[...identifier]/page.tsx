@@ -5,7 +5,8 @@ import { resolveIdentifier } from "@/lib/identifiers/queries";
 
 export async function generateMetadata({ params }: { params: Promise<{ identifier: string[] }> }): Promise<Metadata> {
   const { identifier } = await params;
-  return { title: `Identifier ${identifier.map((part) => safeDecode(part)).join("/")}` };
+  const parsed = parseIdentifier(identifier.map((part) => safeDecode(part)).join("/"));
+  return { title: parsed.ok ? `Identifier ${parsed.identifier}` : "Not found" };
 }
 export const dynamic = "force-dynamic";
 

@@ -13,7 +13,16 @@ import type { DepositDocument } from "@/lib/deposits/types";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
 import { formatNumber } from "@/lib/format";
 
-export const metadata: Metadata = { title: "Dataset" };
+/** The version's own title in the browser tab, "Not found" when there is no such public version. */
+export async function generateMetadata({ params }: { params: Promise<{ id: string; version: string }> }): Promise<Metadata> {
+  const { id, version: v } = await params;
+  const datasetId = parseIdOrNull(id);
+  const number = parseIdOrNull(/^v(\d+)$/.exec(v)?.[1]);
+  if (datasetId === null || number === null) return { title: "Not found" };
+  const entry = (await listPublicVersions({ datasetId })).find((x) => x.number === number);
+  const found = entry ? await getVersionWithRole({ versionId: entry.id, userId: null }) : null;
+  return { title: found ? `${found.version.title} (version ${number})` : "Not found" };
+}
 export const dynamic = "force-dynamic";
 
 /** The public page of one published (or retracted) version: what its version identifier resolves to. */
