@@ -1,13 +1,14 @@
 import { GAS_CONSTANT, type ConsensusMember, type ConsensusResult } from "@/lib/kinetics";
-import { formatRange, formatSignificant } from "@/lib/format";
+import { formatFixed, formatRange, formatSignificant, formatTenTo } from "@/lib/format";
 import { ScrollRegion } from "./scroll-region";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
-/** "a factor 4.8 above" from a log10 ratio, as the engine words it. */
+/** "×4.8 above" from a log10 ratio; "the same" when the factor rounds to 1.00. */
 function factorWords(log10: number): string {
   const a = Math.abs(log10);
-  const size = a < 3 ? (10 ** a).toPrecision(10 ** a < 2 ? 3 : 2) : `10^${a.toFixed(2)}`;
+  const size = 10 ** a < 2 ? (10 ** a).toFixed(2) : formatTenTo(a, 2);
+  if (size === "1.00") return "the same to three digits";
   return `×${size} ${log10 >= 0 ? "above" : "below"}`;
 }
 
@@ -33,7 +34,13 @@ export function ConsensusSummary({
         Consensus of {result.included} datasets
       </h2>
       <p className="text-sm">
-        k = {sig(fit.params.A)} {modified ? `(T/${modified.params.T0} K)^${sig(modified.params.n)} ` : ""}exp(
+        k = {sig(fit.params.A)}{" "}
+        {modified && (
+          <>
+            (T/{formatSignificant(modified.params.T0, 5)} K)<sup>{sig(modified.params.n)}</sup>{" "}
+          </>
+        )}
+        exp(
         {fit.params.Ea >= 0 ? "−" : "+"}
         {sig(Math.abs(fit.params.Ea) / GAS_CONSTANT, 4)} K / T) {kUnitLabel}, for {formatRange(Tmin, Tmax, "K")} (
         {modified ? "modified Arrhenius: the temperature exponent n is significant" : "Arrhenius"}).
@@ -166,10 +173,10 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
                 <tr key={p.T}>
                   <td>{Math.round(p.T)}</td>
                   <td>
-                    {p.ratio !== null && Math.abs(p.log10Ratio) < 3 ? sig(p.ratio) : `10^${p.log10Ratio.toFixed(2)}`} (
+                    {p.ratio !== null && Math.abs(p.log10Ratio) < 3 ? sig(p.ratio) : formatTenTo(p.log10Ratio, 3)} (
                     {factorWords(p.log10Ratio)})
                   </td>
-                  <td>{p.z.toFixed(1)}</td>
+                  <td>{formatFixed(p.z, 1)}</td>
                   <td className={p.agrees ? "" : "font-medium text-warn"}>{p.agrees ? "agrees" : "off"}</td>
                 </tr>
               ))}

@@ -1,21 +1,48 @@
 import type { DepositDocument } from "@/lib/deposits/types";
-import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
+import { SUPPORTED_UNITS, convertEnergy, convertRateConstant, displayConversion } from "@/lib/kinetics/units";
 
-/** Up to five significant digits, as the authors' numbers are shown beside our own. */
-const show = (x: number) =>
-  Math.abs(x) >= 1e5 || (x !== 0 && Math.abs(x) < 1e-3) ? x.toExponential(4).replace(/\.?0+e/, "e") : String(+x.toPrecision(5));
+import { formatNumber, formatRange } from "@/lib/format";
+
+/** Up to five significant digits, written as our own numbers are (true minus, "e−11"). */
+const show = (x: number) => formatNumber(x, 5);
+
+/** The validity range: both ends alike ("−23.2 to 126.9"), "…" for an end not stated. */
+const validRange = (lo: number | undefined, hi: number | undefined) =>
+  lo !== undefined && hi !== undefined
+    ? formatRange(lo, hi, "")
+    : `${lo !== undefined ? show(lo) : "…"} to ${hi !== undefined ? show(hi) : "…"}`;
+
+/** What the authors' expression needs of a deposit document (small enough to hand to a client component). */
+export type ReportedExpressionSource = Pick<DepositDocument, "reportedFit" | "units"> & {
+  reaction: Pick<DepositDocument["reaction"], "order">;
+};
 
 /**
  * The expression the authors report, in our layout: the formula once, then its parameters as a
  * small table in the document's own units, with the reference temperature T0 always stated.
  */
-export function ReportedExpression({ doc }: { doc: DepositDocument }) {
+export function ReportedExpression({
+  doc,
+  kUnit: kShown,
+  energyUnit,
+}: {
+  doc: ReportedExpressionSource;
+  /** Unit id to show A in (the document's own when not given). */
+  kUnit?: string;
+  /** Unit id to show Ea in, as the reader chose for the fitted parameters (the reported unit when not given). */
+  energyUnit?: string;
+}) {
   const r = doc.reportedFit;
   if (!r) return null;
   const modified = r.model === "modified_arrhenius";
-  const kUnit = SUPPORTED_UNITS.rateConstant[doc.reaction.order].find((u) => u.id === doc.units.k)?.label ?? doc.units.k;
+  const order = doc.reaction.order;
+  const kId = kShown ?? doc.units.k;
+  const kUnit = SUPPORTED_UNITS.rateConstant[order].find((u) => u.id === kId)?.label ?? kId;
   const TUnit = SUPPORTED_UNITS.temperature.find((u) => u.id === doc.units.T)?.label ?? doc.units.T;
-  const EUnit = SUPPORTED_UNITS.energy.find((u) => u.id === r.EaUnit)?.label ?? r.EaUnit;
+  const eId = energyUnit ?? r.EaUnit;
+  const EUnit = SUPPORTED_UNITS.energy.find((u) => u.id === eId)?.label ?? eId;
+  const A = kShown ? displayConversion(() => convertRateConstant(r.A, doc.units.k, kShown, order)) : r.A;
+  const Ea = energyUnit ? displayConversion(() => convertEnergy(r.Ea, r.EaUnit, energyUnit)) : r.Ea;
   const T0 = r.T0 !== undefined ? `${show(r.T0)} ${TUnit}` : "298.15 K";
   return (
     <div className="space-y-2 text-sm">
@@ -27,7 +54,7 @@ export function ReportedExpression({ doc }: { doc: DepositDocument }) {
             <th scope="row" className="pr-4 font-medium">
               A
             </th>
-            <td className="font-mono">{show(r.A)}</td>
+            <td className="font-mono">{show(A)}</td>
             <td className="pl-2 text-muted">{kUnit}</td>
           </tr>
           {modified && (
@@ -43,7 +70,7 @@ export function ReportedExpression({ doc }: { doc: DepositDocument }) {
             <th scope="row" className="pr-4 font-medium">
               Ea
             </th>
-            <td className="font-mono">{show(r.Ea)}</td>
+            <td className="font-mono">{show(Ea)}</td>
             <td className="pl-2 text-muted">{EUnit}</td>
           </tr>
           {(r.Tmin !== undefined || r.Tmax !== undefined) && (
@@ -51,9 +78,7 @@ export function ReportedExpression({ doc }: { doc: DepositDocument }) {
               <th scope="row" className="pr-4 font-medium">
                 Valid
               </th>
-              <td className="font-mono">
-                {r.Tmin !== undefined ? show(r.Tmin) : "…"}–{r.Tmax !== undefined ? show(r.Tmax) : "…"}
-              </td>
+              <td className="font-mono">{validRange(r.Tmin, r.Tmax)}</td>
               <td className="pl-2 text-muted">{TUnit}</td>
             </tr>
           )}

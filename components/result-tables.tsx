@@ -55,7 +55,9 @@ export function ResultTables({
   const interval = (lower: number | null, upper: number | null) =>
     `95 %: ${sig(lower === null ? null : convertK(lower), 3)} … ${sig(upper === null ? null : convertK(upper), 3)}`;
   return (
-    <div className="grid gap-6 lg:grid-cols-2">
+    // The parameters take the width their numbers need; the checks sit below them until the screen
+    // is wide enough for both side by side (at 1366 px a half-width table clipped its values).
+    <div className="grid gap-6 2xl:grid-cols-[auto_minmax(18rem,1fr)]">
       <section aria-labelledby="params-heading" className="card min-w-0 space-y-3">
         <h3 id="params-heading" className="text-lg font-semibold">
           Fitted parameters
@@ -114,7 +116,7 @@ export function ResultTables({
               </tr>
               <tr>
                 <td>Residual spread</td>
-                <td colSpan={2} className="whitespace-normal">
+                <td colSpan={2} className="whitespace-normal!">
                   SD of ln k residuals {sig(a.residualSDLnK, 3)}
                   {analysis.weighted && ` · √(χ²/dof) ${sig(a.scaleFactor, 3)} (in units of the stated uncertainties)`}
                 </td>
@@ -161,7 +163,7 @@ export function ResultTables({
                     <td>{sig(entropy(e.se.dS), 2)}</td>
                   </tr>
                   <tr>
-                    <td colSpan={3} className="text-xs text-muted">
+                    <td colSpan={3} className="whitespace-normal! text-xs text-muted">
                       {e.convention}
                     </td>
                   </tr>

@@ -4,6 +4,7 @@ import { useState } from "react";
 import type { AnalysisResult, ReactionOrder } from "@/lib/kinetics/types";
 import { SUPPORTED_UNITS, convertEnergy, displayConversion, fromCanonicalRateConstant } from "@/lib/kinetics/units";
 import { ArrheniusPlot } from "./arrhenius-plot";
+import { ReportedExpression, type ReportedExpressionSource } from "./reported-expression";
 import { ResultTables } from "./result-tables";
 
 /** A stored version's fit: plot, parameters in units the reader picks, and the checks. */
@@ -11,10 +12,13 @@ export function VersionFit({
   analysis,
   order,
   points,
+  reported,
 }: {
   analysis: AnalysisResult;
   order: ReactionOrder;
   points: { T: number; k: number }[];
+  /** The authors' own expression, shown in the units chosen here so it can be read beside the fit. */
+  reported?: ReportedExpressionSource;
 }) {
   const kUnits = SUPPORTED_UNITS.rateConstant[order];
   const [kUnit, setKUnit] = useState<string>(kUnits[0].id);
@@ -44,6 +48,14 @@ export function VersionFit({
           </select>
         </label>
       </div>
+      {reported?.reportedFit && (
+        <section className="card space-y-2" aria-labelledby="reported-heading">
+          <h3 id="reported-heading" className="font-semibold">
+            Expression the authors report, in the units chosen above
+          </h3>
+          <ReportedExpression doc={reported} kUnit={kUnit} energyUnit={energyUnit} />
+        </section>
+      )}
       <div className="card">
         <ArrheniusPlot
           kUnitLabel={kUnits[0].label}

@@ -2,15 +2,43 @@
 export const MINUS = "\u2212";
 
 /**
- * A number to `digits` significant digits for tables: exponent form outside 0.001…100 000,
- * "—" for a missing or non-finite value, negative values with a true minus sign. The same on
- * server and client.
+ * A number to `digits` significant digits for tables: exponent form "1.234e−11" / "1.23e5"
+ * outside 0.001…100 000 (never "e+"), plain decimals inside ("190", not "1.9e+2"), "—" for a
+ * missing or non-finite value, a true minus sign and never a negative zero. The same on server
+ * and client; every number on the dataset and reaction pages goes through it or formatNumber.
  */
 export function formatSignificant(v: number | null | undefined, digits = 4): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return "—";
   if (v === 0) return "0";
   const a = Math.abs(v);
-  return (a >= 1e5 || a < 1e-3 ? v.toExponential(digits - 1) : v.toPrecision(digits)).replace(/-/g, MINUS);
+  const text = a >= 1e5 || a < 1e-3 ? v.toExponential(digits - 1).replace("e+", "e") : plainDecimal(v, digits);
+  return text.replace(/-/g, MINUS);
+}
+
+/** `v` rounded to `digits` significant digits, written without an exponent (trailing zeros kept). */
+function plainDecimal(v: number, digits: number): string {
+  const rounded = Number(v.toPrecision(digits));
+  if (rounded === 0) return "0";
+  const decimals = Math.max(0, digits - 1 - Math.floor(Math.log10(Math.abs(rounded))));
+  return rounded.toFixed(Math.min(decimals, 100));
+}
+
+/**
+ * A number as a person typed it, at most `digits` significant digits and no trailing zeros
+ * ("8.3e−11", "7.5", "298.15"), in the same exponent form and with the same minus as
+ * formatSignificant.
+ */
+export function formatNumber(v: number | null | undefined, digits = 5): string {
+  const s = formatSignificant(v, digits);
+  if (s === "—" || s === "0") return s;
+  return s.replace(/(\.\d*?)0+(?=e|$)/, "$1").replace(/\.(?=e|$)/, "");
+}
+
+/** A signed value to `decimals` places with a true minus, "0.0" rather than "−0.0". */
+export function formatFixed(v: number | null | undefined, decimals: number): string {
+  if (v === null || v === undefined || !Number.isFinite(v)) return "—";
+  const s = v.toFixed(decimals);
+  return Number(s) === 0 ? s.replace("-", "") : s.replace("-", MINUS);
 }
 
 /**
@@ -38,4 +66,20 @@ export function formatRange(lo: number | null | undefined, hi: number | null | u
   const space = unit === "" ? "" : ` ${unit}`;
   if (a === b) return `${a}${space}`;
   return lo < 0 || hi < 0 ? `${a} to ${b}${space}` : `${a}–${b}${space}`;
+}
+
+/**
+ * 10^log10 in the exponent form of formatSignificant ("2.24e−305"), also where the power itself
+ * would overflow to Infinity or underflow to 0.
+ */
+export function formatTenTo(log10: number, digits = 3): string {
+  if (!Number.isFinite(log10)) return "—";
+  if (Math.abs(log10) < 300) return formatSignificant(10 ** log10, digits);
+  let exponent = Math.floor(log10);
+  let mantissa = Number((10 ** (log10 - exponent)).toFixed(digits - 1));
+  if (mantissa >= 10) {
+    mantissa /= 10;
+    exponent += 1;
+  }
+  return `${mantissa.toFixed(digits - 1)}e${exponent}`.replace(/-/g, MINUS);
 }

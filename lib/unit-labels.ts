@@ -23,14 +23,24 @@ export function energyQuantityLabel(symbol: string, unitId: string): string {
  * "ΔS‡ (eV K⁻¹, per molecule)", or "ΔS‡/R" (a pure number) when energies are shown as temperatures.
  */
 export function entropyQuantityLabel(symbol: string, unitId: string): string {
-  const u = parseEnergyUnit(unitId);
+  const u = parseEnergyUnit(entropyEnergyUnit(unitId));
   if (u.id === "K") return `${symbol}/R`;
   if (u.id === "eV") return `${symbol} (eV K⁻¹, per molecule)`;
   return `${symbol} (${u.label} K⁻¹)`;
 }
 
+/**
+ * The energy unit entropies are written in beside energies in `unitId`: an entropy is about a
+ * thousandth of an enthalpy, so J beside kJ and cal beside kcal ("−49.04 J mol⁻¹ K⁻¹", not
+ * "−0.04904 kJ mol⁻¹ K⁻¹"); any other unit as it is.
+ */
+export function entropyEnergyUnit(unitId: string): string {
+  const id = parseEnergyUnit(unitId).id;
+  return id === "kJ mol-1" ? "J mol-1" : id === "kcal mol-1" ? "cal mol-1" : id;
+}
+
 /** An entropy in J mol⁻¹ K⁻¹ in the chosen energy unit per kelvin (ΔS/R when the unit is K). */
 export function convertEntropy(joulesPerMoleKelvin: number, unitId: string): number {
   // Per kelvin, an entropy converts as an energy does; "K" as energy divides by R, giving ΔS/R.
-  return convertEnergy(joulesPerMoleKelvin, "J mol-1", unitId);
+  return convertEnergy(joulesPerMoleKelvin, "J mol-1", entropyEnergyUnit(unitId));
 }

@@ -24,9 +24,24 @@ function groupCode(symbols: string): string {
   return `${SERIES_CODE_TAG}-${symbols.slice(0, 4)}-${symbols.slice(4)}`;
 }
 
-/** A new series code from a value in [0, 32⁷) (random by default). */
-export function newSeriesCode(value: number = randomInt(0, SPACE)): string {
+/** A random value whose check symbol is a digit or letter: * ~ $ = break BibTeX and LaTeX and are hard to read aloud. */
+function drawValue(): number {
+  for (;;) {
+    const value = randomInt(0, SPACE);
+    if (value % 37 < 32) return value;
+  }
+}
+
+/**
+ * A new series code from a value in [0, 32⁷) whose check symbol is one of the 32 base symbols
+ * (random by default). Codes with the other five check symbols minted earlier still parse.
+ */
+export function newSeriesCode(value: number = drawValue()): string {
   if (!Number.isInteger(value) || value < 0 || value >= SPACE) throw new RangeError(`series code value ${value} out of range`);
+  if (value % 37 >= 32)
+    throw new RangeError(
+      `series code value ${value} has the check symbol ${checkSymbol(value)}; codes are drawn with a digit or letter there`,
+    );
   const digits = CrockfordBase32.encode(value, { variant: "ulid" }).replace(/^0+/, "").padStart(SERIES_CODE_SYMBOLS, "0");
   return groupCode(digits + checkSymbol(value));
 }
@@ -57,7 +72,8 @@ const LEGACY_FORM = /^10\.\d{4,9}\/arrhenia\.[1-9]\d{0,9}(\.v[1-9]\d{0,5})?$/;
  */
 export function parseIdentifier(raw: string): ParsedIdentifier {
   let text = raw.trim().replace(/^doi:\s*/i, "");
-  text = text.replace(/^https?:\/\/(dx\.)?doi\.org\//i, "");
+  // One slash too: a resolver address pasted into a path has its "//" collapsed to "/".
+  text = text.replace(/^https?:\/\/?(dx\.)?doi\.org\//i, "");
   try {
     text = decodeURIComponent(text);
   } catch {

@@ -66,6 +66,14 @@ describe("identifier resolution", () => {
     expect((await get("10.5072/ARH-0000-0000")).status).toBe(404);
     expect((await get("10.5072/nothing.of.ours")).status).toBe(422);
     expect((await get("")).status).toBe(400);
+    const twice = await GET(
+      new Request("http://localhost/api/v1/identifiers?identifier=10.5072/ARH-0000-0000&identifier=10.5072/ARH-0000-0011"),
+      {
+        params: Promise.resolve({}),
+      },
+    );
+    expect(twice.status).toBe(400);
+    expect((await twice.json()).errors[0]).toMatchObject({ parameter: "identifier", message: "Give identifier once (it appears 2 times)" });
   });
 
   it("keeps a series minted before the codes in its own form, and both forms resolve", async () => {

@@ -11,7 +11,9 @@ describe("unit labels", () => {
   });
 
   it("writes entropies in the chosen energy unit per kelvin", () => {
-    expect(entropyQuantityLabel("ΔS‡", "kcal mol-1")).toBe("ΔS‡ (kcal mol⁻¹ K⁻¹)");
+    // Entropies beside kJ and kcal are written per J and per cal: −49.04, not −0.04904.
+    expect(entropyQuantityLabel("ΔS‡", "kcal mol-1")).toBe("ΔS‡ (cal mol⁻¹ K⁻¹)");
+    expect(entropyQuantityLabel("ΔS‡", "kJ mol-1")).toBe("ΔS‡ (J mol⁻¹ K⁻¹)");
     expect(entropyQuantityLabel("ΔS‡", "cal mol-1")).toBe("ΔS‡ (cal mol⁻¹ K⁻¹)");
     expect(entropyQuantityLabel("ΔS‡", "K")).toBe("ΔS‡/R");
     expect(entropyQuantityLabel("ΔS‡", "eV")).toBe("ΔS‡ (eV K⁻¹, per molecule)");
@@ -19,7 +21,8 @@ describe("unit labels", () => {
 
   it("converts entropies as energies per kelvin (thermochemical calorie = 4.184 J exactly)", () => {
     expect(convertEntropy(-41.84, "cal mol-1")).toBeCloseTo(-10, 12);
-    expect(convertEntropy(-41.84, "kcal mol-1")).toBeCloseTo(-0.01, 14);
+    expect(convertEntropy(-41.84, "kcal mol-1")).toBeCloseTo(-10, 12);
+    expect(convertEntropy(-49.04, "kJ mol-1")).toBeCloseTo(-49.04, 12);
     expect(convertEntropy(GAS_CONSTANT * 3, "K")).toBeCloseTo(3, 12);
   });
 });

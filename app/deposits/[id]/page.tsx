@@ -13,7 +13,18 @@ import { AppError } from "@/lib/errors";
 import { parseIdOrNull } from "@/lib/ids";
 import { formatFlagMessage, type Flag } from "@/lib/kinetics";
 
-export const metadata: Metadata = { title: "Deposit" };
+/** The deposit's title in the browser tab, for the people who may see it. */
+export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
+  const versionId = parseIdOrNull((await params).id);
+  const user = await getCurrentUser();
+  if (!user || versionId === null) return { title: user ? "Not found" : "Deposit" };
+  try {
+    const { version } = await getVisibleVersionOrThrow({ versionId, viewer: user });
+    return { title: `Deposit: ${version.title || "untitled"}` };
+  } catch {
+    return { title: "Not found" };
+  }
+}
 
 /** The stored checks of a version: identity, balance and magnitude, then the fit's flags. */
 function storedChecks(analysis: Awaited<ReturnType<typeof getLatestAnalysis>>): StoredCheck[] {

@@ -3,7 +3,11 @@ import { notFound, redirect } from "next/navigation";
 import { parseIdentifier } from "@/lib/identifiers/series-code";
 import { resolveIdentifier } from "@/lib/identifiers/queries";
 
-export const metadata: Metadata = { title: "Identifier" };
+export async function generateMetadata({ params }: { params: Promise<{ identifier: string[] }> }): Promise<Metadata> {
+  const { identifier } = await params;
+  const parsed = parseIdentifier(identifier.map((part) => safeDecode(part)).join("/"));
+  return { title: parsed.ok ? `Identifier ${parsed.identifier}` : "Not found" };
+}
 export const dynamic = "force-dynamic";
 
 // /id/10.5072/ARH-4F7K-9QXM[/2] — where an identifier resolves: the version's page, or the series' newest version.
@@ -11,18 +15,8 @@ export default async function IdentifierPage({ params }: { params: Promise<{ ide
   const { identifier } = await params;
   const typed = identifier.map((part) => safeDecode(part)).join("/");
   const parsed = parseIdentifier(typed);
-  if (!parsed.ok) {
-    // Said before any lookup: the check character alone shows a mistyped code.
-    return (
-      <article className="space-y-3">
-        <h1 className="text-2xl font-semibold">
-          {parsed.reason === "mistyped" ? "Mistyped identifier" : "Not an identifier of this repository"}
-        </h1>
-        <p role="alert">{parsed.message}</p>
-        <p className="font-mono text-sm break-all">{typed}</p>
-      </article>
-    );
-  }
+  // Mistyped or malformed: answered 404 (not 200) before any lookup, with the page in not-found.tsx.
+  if (!parsed.ok) notFound();
   const found = await resolveIdentifier({ identifier: parsed.identifier });
   if (!found) notFound();
   redirect(found.kind === "version" ? `/datasets/${found.datasetId}/v${found.versionNumber}` : `/datasets/${found.datasetId}`);

@@ -21,7 +21,12 @@ import { ConsensusChoiceForm, WhatWentIn, type ExclusionRow } from "./consensus-
 import { ScrollRegion } from "@/components/scroll-region";
 import { energyQuantityLabel } from "@/lib/unit-labels";
 
-export const metadata: Metadata = { title: "Reaction" };
+/** The reaction's equation in the browser tab. */
+export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
+  const reactionId = parseIdOrNull((await params).id);
+  const reaction = reactionId !== null ? await getReaction({ id: reactionId }) : null;
+  return { title: reaction ? reaction.equation : "Not found" };
+}
 export const dynamic = "force-dynamic";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);

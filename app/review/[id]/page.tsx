@@ -12,13 +12,25 @@ import { getLatestAnalysis, getVersionPoints, listDecisions } from "@/lib/datase
 import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
 import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
-import { parseIdOrThrow } from "@/lib/ids";
+import { parseIdOrNull, parseIdOrThrow } from "@/lib/ids";
+import { getCurrentUser } from "@/lib/auth/session";
 import { describeExtrapolation, formatFlagMessage, GAS_CONSTANT, REFERENCE_TEMPERATURE, type Flag } from "@/lib/kinetics";
 import { DecisionForm } from "./decision-form";
 import { formatRange, formatSignificant } from "@/lib/format";
 import { ScrollRegion } from "@/components/scroll-region";
 
-export const metadata: Metadata = { title: "Review" };
+/** "Review of <title>" in the browser tab, for a reader who may see the version. */
+export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
+  const versionId = parseIdOrNull((await params).id);
+  const user = await getCurrentUser();
+  if (!user || versionId === null) return { title: user ? "Not found" : "Review" };
+  try {
+    const { version } = await getVisibleVersionOrThrow({ versionId, viewer: user });
+    return { title: `Review of ${version.title || "an untitled deposit"}` };
+  } catch {
+    return { title: "Not found" };
+  }
+}
 
 const sig = (v: number | null | undefined, digits = 4) => formatSignificant(v, digits);
 

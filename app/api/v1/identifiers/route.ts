@@ -8,7 +8,13 @@ import { parseIdentifier } from "@/lib/identifiers/series-code";
 
 export const GET = withApi(
   async ({ req }) => {
-    const raw = new URL(req.url).searchParams.get("identifier");
+    const given = new URL(req.url).searchParams.getAll("identifier");
+    if (given.length > 1) {
+      throw new AppError("bad_request", "Give the identifier once", [
+        { pointer: "/identifier", parameter: "identifier", message: `Give identifier once (it appears ${given.length} times)` },
+      ]);
+    }
+    const raw = given[0];
     if (!raw) {
       throw new AppError("bad_request", "Give the identifier to resolve", [
         { pointer: "/identifier", parameter: "identifier", message: "Required, e.g. 10.5072/ARH-4F7K-9QXM" },

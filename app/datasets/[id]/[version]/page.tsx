@@ -11,8 +11,18 @@ import { parseIdOrNull } from "@/lib/ids";
 import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
 import type { DepositDocument } from "@/lib/deposits/types";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
+import { formatNumber } from "@/lib/format";
 
-export const metadata: Metadata = { title: "Dataset" };
+/** The version's own title in the browser tab, "Not found" when there is no such public version. */
+export async function generateMetadata({ params }: { params: Promise<{ id: string; version: string }> }): Promise<Metadata> {
+  const { id, version: v } = await params;
+  const datasetId = parseIdOrNull(id);
+  const number = parseIdOrNull(/^v(\d+)$/.exec(v)?.[1]);
+  if (datasetId === null || number === null) return { title: "Not found" };
+  const entry = (await listPublicVersions({ datasetId })).find((x) => x.number === number);
+  const found = entry ? await getVersionWithRole({ versionId: entry.id, userId: null }) : null;
+  return { title: found ? `${found.version.title} (version ${number})` : "Not found" };
+}
 export const dynamic = "force-dynamic";
 
 /** The public page of one published (or retracted) version: what its version identifier resolves to. */
@@ -89,13 +99,15 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
           {doc.reportedFit && (
             <>
               <h3 className="pt-2 font-semibold">Expression the authors report</h3>
-              <ReportedExpression doc={doc} />
+              {result ? <p>Shown beside the re-fitted parameters below, in the units chosen there.</p> : <ReportedExpression doc={doc} />}
             </>
           )}
           <p>
             Phase: {doc.reaction.phase}; order {doc.reaction.order}
             {doc.conditions?.bathGas ? `; bath gas ${doc.conditions.bathGas}` : ""}
-            {doc.conditions?.pressure?.value !== undefined ? `; ${doc.conditions.pressure.value} ${doc.units.pressure ?? ""}` : ""}
+            {doc.conditions?.pressure?.value !== undefined
+              ? `; ${formatNumber(doc.conditions.pressure.value)} ${doc.units.pressure ?? ""}`
+              : ""}
           </p>
         </div>
         <div className="card space-y-1 text-sm">
@@ -112,7 +124,14 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
             Re-fitted here
           </h2>
           <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>
-          <VersionFit analysis={result} order={doc.reaction.order} points={points} />
+          <VersionFit
+            analysis={result}
+            order={doc.reaction.order}
+            points={points}
+            reported={
+              doc.reportedFit ? { reportedFit: doc.reportedFit, units: doc.units, reaction: { order: doc.reaction.order } } : undefined
+            }
+          />
         </section>
       )}
 
