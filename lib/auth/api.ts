@@ -46,12 +46,33 @@ export function zodToFieldErrors(error: ZodError, base = ""): FieldError[] {
 export function problemResponse(error: AppError, instance?: string): NextResponse {
   const headers: Record<string, string> = { "content-type": "application/problem+json" };
   if (error.retryAfterSeconds) headers["retry-after"] = String(error.retryAfterSeconds);
+  // RFC 9110 §15.5.2: a 401 names the scheme that would be accepted.
+  if (error.status === 401) headers["www-authenticate"] = 'Bearer realm="arrhenia"';
   return new NextResponse(JSON.stringify(problemJson(error, instance)), { status: error.status, headers });
 }
 
-function bearerSecret(req: Request): string | null {
+/** RFC 6750 §2.1: a bearer credential is one b64token. */
+const B64_TOKEN = /^[A-Za-z0-9\-._~+/]+=*$/;
+/** An auth-scheme is an RFC 9110 token; only a short one is repeated back. */
+const SCHEME_TOKEN = /^[A-Za-z0-9!#$%&'*+.^_`|~-]{1,32}$/;
+const EXPECTED_SCHEME = "send the API token as “Authorization: Bearer <token>”";
+
+/**
+ * The bearer secret of a request, null when it sends no Authorization header. Any other scheme,
+ * or a bearer credential that is not one token, is a 401: a caller who meant to authenticate is
+ * never served as anonymous.
+ */
+function bearerSecretOrThrow(req: Request): string | null {
   const auth = req.headers.get("authorization");
-  return auth?.toLowerCase().startsWith("bearer ") ? auth.slice(7).trim() : null;
+  if (auth === null) return null;
+  const [scheme = "", ...rest] = auth.trim().split(/[ \t]+/);
+  if (scheme.toLowerCase() !== "bearer") {
+    const named = SCHEME_TOKEN.test(scheme) ? `the “${scheme}” scheme` : "an unknown scheme";
+    throw new AppError("unauthenticated", `The Authorization header uses ${named}; ${EXPECTED_SCHEME}`);
+  }
+  if (rest.length !== 1 || !B64_TOKEN.test(rest[0]))
+    throw new AppError("unauthenticated", `The Authorization header's bearer token is missing or malformed; ${EXPECTED_SCHEME}`);
+  return rest[0];
 }
 
 /** A bearer token must be valid wherever it is sent (an unknown or revoked one is never ignored), and hold the endpoint's scope. */
@@ -103,7 +124,7 @@ export function withApi<P = Record<string, string>>(
     const instance = url.pathname;
     try {
       assertStorableQuery(url);
-      const secret = bearerSecret(req);
+      const secret = bearerSecretOrThrow(req);
       const wantsCaller = options.permission || options.identify;
       // Public endpoints skip the session look-up unless they ask for it.
       const user =

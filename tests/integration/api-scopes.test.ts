@@ -224,3 +224,39 @@ describe("a token that may change things may also read", () => {
     expect(await get([])).toBe(403);
   });
 });
+
+describe("an Authorization header that is not one bearer token is a 401, never anonymous", () => {
+  const headers = ["Token xyz", "Basic dXNlcjpwYXNz", "Bearer", "Bearer ", "Bearer a b", "Bearer arh_key_x;y", "bearer,arh_key_x", ""];
+  for (const authorization of headers) {
+    it(`“${authorization}” on every endpoint and method → 401 problem+json naming the Bearer scheme`, async () => {
+      for (const [path, mod] of Object.entries(modules)) {
+        for (const method of ["GET", "POST", "PUT", "PATCH", "DELETE"]) {
+          const handler = mod[method] as ((req: Request, ctx: { params: Promise<unknown> }) => Promise<Response>) | undefined;
+          if (!handler) continue;
+          const url = `http://127.0.0.1${path.replace(/:\w+/g, "1")}?smiles=C&identifier=x`;
+          const body = method === "GET" || method === "DELETE" ? undefined : "{}";
+          const res = await handler(new Request(url, { method, body, headers: { authorization, "x-forwarded-for": uniqueIp() } }), {
+            params: Promise.resolve({ id: "1", fileId: "1" }),
+          });
+          const where = `${method} ${path}`;
+          expect(res.status, where).toBe(401);
+          expect(res.headers.get("content-type"), where).toBe("application/problem+json");
+          expect(res.headers.get("www-authenticate"), where).toMatch(/^Bearer /);
+          const problem = await res.json();
+          expect(problem.code, where).toBe("unauthenticated");
+          expect(problem.title, where).toContain("Authorization: Bearer <token>");
+        }
+      }
+    });
+  }
+  it("the scheme name is case-insensitive (RFC 9110 §11.1): “bearer <valid token>” is served", async () => {
+    const secret = await tokenFor(researcher, ["read"]);
+    const res = await speciesPreview.GET(
+      new Request("http://127.0.0.1/api/v1/species/preview?smiles=C", {
+        headers: { authorization: `bearer ${secret}`, "x-forwarded-for": uniqueIp() },
+      }),
+      { params: Promise.resolve({}) },
+    );
+    expect(res.status).toBe(200);
+  });
+});
