@@ -2,7 +2,7 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError, type z } from "zod";
 import { AppError, databaseUnavailable, problemJson, storageRefusal, type FieldError } from "@/lib/errors";
-import { BODY_LIMITS, readJsonBodyOrThrow } from "@/lib/http/read-body";
+import { BODY_LIMITS, isClientAbort, readJsonBodyOrThrow } from "@/lib/http/read-body";
 import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
 import { getUserByApiToken, type ApiTokenScope, type UserDto } from "@/lib/users/queries";
 import { assertAllowed } from "./guard";
@@ -49,6 +49,16 @@ export function problemResponse(error: AppError, instance?: string): NextRespons
   // RFC 9110 §15.5.2: a 401 names the scheme that would be accepted.
   if (error.status === 401) headers["www-authenticate"] = 'Bearer realm="arrhenia"';
   return new NextResponse(JSON.stringify(problemJson(error, instance)), { status: error.status, headers });
+}
+
+/**
+ * The answer to a request whose client went away (logged as an abort, never as an outage or a
+ * failure; nobody reads it), or null when `err` is something else.
+ */
+export function clientAbortResponse(req: Request, err: unknown, instance: string): NextResponse | null {
+  if (!isClientAbort(err, req)) return null;
+  console.info(`[api] ${req.method} ${instance}: aborted by the client (${err instanceof Error ? err.message : "signal"})`);
+  return problemResponse(new AppError("bad_request", "The request was closed by the client before it was complete"), instance);
 }
 
 /** RFC 6750 §2.1: a bearer credential is one b64token. */
@@ -133,6 +143,9 @@ export function withApi<P = Record<string, string>>(
       return await handler({ req, user, params: await context.params });
     } catch (err) {
       if (err instanceof AppError) return problemResponse(err, instance);
+      // Checked before the database's codes: a closed client socket also reads as ECONNRESET.
+      const aborted = clientAbortResponse(req, err, instance);
+      if (aborted) return aborted;
       if (err instanceof ZodError)
         return problemResponse(new AppError("validation_failed", "Invalid input", zodToFieldErrors(err)), instance);
       const unavailable = databaseUnavailable(err);

@@ -21,6 +21,26 @@ export interface ReadBodyOptions {
   shownLimit?: number;
 }
 
+/**
+ * The client closed its connection before its request body had arrived: nothing is wrong on our
+ * side (no outage, no 5xx to count), and nobody is left to answer.
+ */
+export class ClientAbortError extends Error {
+  readonly code = "CLIENT_ABORTED";
+  constructor(
+    readonly bytesReceived: number,
+    cause?: unknown,
+  ) {
+    super(`The client closed the request after ${bytesReceived} bytes of its body`, { cause });
+    this.name = "ClientAbortError";
+  }
+}
+
+/** True when the request failed because its client went away (its body stream broke, or Next aborted its signal). */
+export function isClientAbort(err: unknown, req: Request): boolean {
+  return err instanceof ClientAbortError || req.signal?.aborted === true;
+}
+
 function formatLimit(bytes: number): string {
   if (bytes >= 1024 * 1024) return `${+(bytes / 1024 / 1024).toFixed(1)} MB`;
   if (bytes >= 1024) return `${+(bytes / 1024).toFixed(1)} KB`;
@@ -51,7 +71,15 @@ export async function readBodyOrThrow(req: Request, options: ReadBodyOptions): P
   const chunks: Uint8Array[] = [];
   let total = 0;
   for (;;) {
-    const { done, value } = await reader.read();
+    let next: ReadableStreamReadResult<Uint8Array>;
+    try {
+      next = await reader.read();
+    } catch (err) {
+      // Only the client feeds this stream: a failure here is its connection closing, whatever
+      // the code says (Node reports it as ECONNRESET "aborted", the code a database reset has too).
+      throw new ClientAbortError(total, err);
+    }
+    const { done, value } = next;
     if (done) break;
     total += value.byteLength;
     if (total > options.limit) {

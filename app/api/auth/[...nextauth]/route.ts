@@ -1,7 +1,7 @@
 // GET/POST /api/auth/* — next-auth's sign-in, session and sign-out endpoints
 import NextAuth from "next-auth";
 import { NextRequest } from "next/server";
-import { problemResponse } from "@/lib/auth/api";
+import { clientAbortResponse, problemResponse } from "@/lib/auth/api";
 import { authOptions } from "@/lib/auth/options";
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, readBodyOrThrow } from "@/lib/http/read-body";
@@ -16,7 +16,10 @@ async function POST(req: NextRequest, context: Context) {
   try {
     body = await readBodyOrThrow(req, { limit: BODY_LIMITS.form, what: "sign-in request" });
   } catch (err) {
-    if (err instanceof AppError) return problemResponse(err, new URL(req.url).pathname);
+    const instance = new URL(req.url).pathname;
+    if (err instanceof AppError) return problemResponse(err, instance);
+    const aborted = clientAbortResponse(req, err, instance);
+    if (aborted) return aborted;
     throw err;
   }
   return handler(new NextRequest(req.url, { method: "POST", headers: req.headers, body: body as BodyInit }), context);
