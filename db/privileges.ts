@@ -18,7 +18,16 @@ const WITHHELD: Record<string, string> = {
 };
 
 /** Functions that run as the schema owner and that the runtime role may call (each checks its own rule). */
-export const RUNTIME_FUNCTIONS = ["arrhenia_append_refit_analysis(integer, text, jsonb, jsonb, text)"];
+export const RUNTIME_FUNCTIONS = [
+  "arrhenia_append_refit_analysis(integer, text, jsonb, jsonb, text)",
+  // Acceptance (drizzle/0017): the one way a version is published.
+  "arrhenia_publish_version(integer, integer, text)",
+];
+
+/** Columns only acceptance writes (drizzle/0017): the runtime role may UPDATE every other column of these tables. */
+export const OWNER_WRITTEN_COLUMNS: Record<string, string[]> = {
+  dataset_versions: ["published_at", "payload_sha256", "version_identifier"],
+};
 
 /** A draft of its own making set published by hand: refused by drizzle/0016 whatever the database holds. */
 export const PUBLISH_BY_HAND = `DO $$ DECLARE u integer; d integer; v integer; BEGIN
@@ -26,6 +35,25 @@ export const PUBLISH_BY_HAND = `DO $$ DECLARE u integer; d integer; v integer; B
         INSERT INTO public.datasets (owner_id) VALUES (u) RETURNING id INTO d;
         INSERT INTO public.dataset_versions (dataset_id, number, title, payload) VALUES (d, 1, 'probe', '{}') RETURNING id INTO v;
         UPDATE public.dataset_versions SET state = 'published', published_at = now() WHERE id = v;
+      END $$`;
+
+/** A probe version in review, its dataset and a probe curator (PL/pgSQL, before the statement that needs them). */
+const PROBE_IN_REVIEW = `DECLARE u integer; c integer; d integer; v integer; BEGIN
+        INSERT INTO public.users (email, name, password_hash) VALUES ('privileges-probe@example.invalid', 'probe', 'x') RETURNING id INTO u;
+        INSERT INTO public.users (email, name, password_hash, role) VALUES ('privileges-curator@example.invalid', 'probe', 'x', 'curator') RETURNING id INTO c;
+        INSERT INTO public.datasets (owner_id, series_identifier) VALUES (u, '10.5072/ARH-PRBE-PRB0') RETURNING id INTO d;
+        INSERT INTO public.dataset_versions (dataset_id, number, title, payload) VALUES (d, 1, 'probe', '{}') RETURNING id INTO v;
+        UPDATE public.dataset_versions SET state = 'submitted' WHERE id = v;`;
+
+/** A curator's accept decision written directly: refused by drizzle/0017 (only acceptance writes one). */
+export const WRITE_ACCEPT_DECISION = `DO $$ ${PROBE_IN_REVIEW}
+        INSERT INTO public.decisions (version_id, curator_id, decision, reason) VALUES (v, c, 'accept', 'forged');
+      END $$`;
+
+/** A version in review set published with everything the guard of drizzle/0016 asked for: refused by drizzle/0017. */
+export const PUBLISH_FULL_ROW = `DO $$ ${PROBE_IN_REVIEW}
+        UPDATE public.dataset_versions SET state = 'published', published_at = now(), version_identifier = '10.5072/ARH-PRBE-PRB0/1',
+          payload_sha256 = repeat('0', 64) WHERE id = v;
       END $$`;
 
 /** Triggers that freeze published data (drizzle/0002, drizzle/0007, drizzle/0016); each must exist and fire. */
@@ -39,6 +67,7 @@ export const FREEZE_TRIGGERS = [
   "datasets_frozen_when_published",
   "dataset_members_owner_frozen_when_published",
   "decisions_append_only",
+  "decisions_accept_only_by_publication",
   "identifier_registrations_forward_only",
   "reactions_frozen_when_published",
   "reaction_participants_frozen_when_published",
@@ -67,6 +96,17 @@ export async function grantRuntimeRole(sql: Sql, role: string): Promise<void> {
     }
     for (const [table, privileges] of Object.entries(WITHHELD)) {
       await tx.unsafe(`revoke ${privileges} on table public.${quoteIdent(table)} from ${quoteIdent(role)}`);
+    }
+    // Column privileges: UPDATE on every column but those only acceptance writes (columns added
+    // later are included when this runs again after their migration).
+    for (const [table, withheld] of Object.entries(OWNER_WRITTEN_COLUMNS)) {
+      const columns = await tx<{ name: string }[]>`
+        select column_name as name from information_schema.columns
+          where table_schema = 'public' and table_name = ${table} and column_name <> all(${withheld}) order by ordinal_position`;
+      await tx.unsafe(`revoke update on table public.${quoteIdent(table)} from ${quoteIdent(role)}`);
+      await tx.unsafe(
+        `grant update (${columns.map((c) => quoteIdent(c.name)).join(", ")}) on table public.${quoteIdent(table)} to ${quoteIdent(role)}`,
+      );
     }
     for (const signature of RUNTIME_FUNCTIONS) {
       const [exists] = await tx`select to_regprocedure(${"public." + signature}) is not null as found`;
@@ -170,6 +210,13 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     .filter((t) => (t.table === "public.decisions" || t.table === "public.audit_events") && (t.update || t.delete))
     .concat(tables.filter((t) => t.table === "public.identifier_registrations" && t.delete))
     .map((t) => t.table);
+  const ownerColumns = Object.entries(OWNER_WRITTEN_COLUMNS).flatMap(([table, columns]) => columns.map((c) => `${table}.${c}`));
+  const ownerColumnsWritable = (
+    await sql<{ name: string }[]>`
+      select c.table_name || '.' || c.column_name as name from information_schema.columns c
+        where c.table_schema = 'public' and c.table_name || '.' || c.column_name = any(${ownerColumns})
+          and has_column_privilege('public.' || quote_ident(c.table_name), c.column_name, 'UPDATE') order by 1`
+  ).map((r) => r.name);
   const engineRow = tables.find((t) => t.table === "public.arrhenia_engine");
   const engineWritable = engineRow ? (["insert", "update", "delete", "truncate"] as const).filter((p) => engineRow[p]) : [];
 
@@ -204,8 +251,17 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
       found: engineRow ? none(engineWritable.map((p) => p.toUpperCase())) : "no table public.arrhenia_engine",
       ok: !!engineRow && engineWritable.length === 0,
     },
+    {
+      check: "UPDATE on columns only acceptance writes (identifier, checksum, publication time)",
+      found: none(ownerColumnsWritable),
+      ok: ownerColumnsWritable.length === 0,
+    },
     { check: "freeze triggers missing or disabled", found: none(missing), ok: missing.length === 0 },
-    { check: "owner-run functions it may call, beyond the re-fit's", found: none(unexpectedDefiners), ok: unexpectedDefiners.length === 0 },
+    {
+      check: "owner-run functions it may call, beyond re-fit and acceptance",
+      found: none(unexpectedDefiners),
+      ok: unexpectedDefiners.length === 0,
+    },
   ];
   // Belt and braces: the attempts themselves (rolled back should any succeed).
   const attempts: [string, string][] = [
@@ -218,6 +274,10 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     ["INSERT a current engine version", "INSERT INTO public.arrhenia_engine (only_row, engine_version) VALUES (true, 'forged')"],
     ["DELETE the current engine version", "DELETE FROM public.arrhenia_engine"],
     ["publish a draft by hand", PUBLISH_BY_HAND],
+    ["write an accept decision", WRITE_ACCEPT_DECISION],
+    ["publish a version in review with a full row (identifier, checksum, time)", PUBLISH_FULL_ROW],
+    ["set a draft's checksum", "UPDATE public.dataset_versions SET payload_sha256 = repeat('0', 64) WHERE false"],
+    ["publish through the acceptance function as nobody", "SELECT * FROM public.arrhenia_publish_version(NULL, NULL, 'forged')"],
     ["CREATE FUNCTION", "CREATE FUNCTION public.arrhenia_forged_refit() RETURNS integer LANGUAGE sql SECURITY DEFINER AS 'SELECT 1'"],
     [
       "a re-fit by an engine that is not the current one",

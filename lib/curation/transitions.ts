@@ -1,14 +1,14 @@
 import "server-only";
 import { createHash } from "node:crypto";
 import canonicalize from "canonicalize";
-import { and, eq, isNull } from "drizzle-orm";
+import { and, eq, isNull, sql } from "drizzle-orm";
 import { getDb, type Transaction } from "@/db/client";
 import { datasetMembers, datasets, datasetVersions, decisions, identifierRegistrations } from "@/db/datasets";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
 import { AppError } from "@/lib/errors";
-import { mintSeriesIdentifier, versionIdentifier } from "@/lib/identifiers/mint";
+import { mintSeriesIdentifier } from "@/lib/identifiers/mint";
 import { planTransition } from "./capabilities";
 import type { CoEditorRole, Transition, VersionState } from "./lifecycle";
 
@@ -31,8 +31,9 @@ export interface TransitionOutcome {
 /**
  * Applies one lifecycle transition in one transaction: locks the version, re-reads the actor's
  * site role and dataset role from the database, checks the rule, changes the state, records the
- * decision (for curator decisions) and an audit event. Acceptance freezes the version: payload
- * hash, identifiers, publication time — after which the database refuses any change.
+ * decision (for curator decisions) and an audit event. Acceptance freezes the version through the
+ * database's arrhenia_publish_version: payload hash, identifiers, publication time — after which
+ * the database refuses any change.
  */
 export async function applyTransition({
   versionId,
@@ -73,19 +74,19 @@ export async function applyTransition({
     const now = new Date();
     const outcome: TransitionOutcome = { versionId, datasetId: version.datasetId, from: version.state, to };
 
-    // The decision goes on record first: the database publishes a version only with its accept
-    // decision already there (drizzle/0016).
-    if (transition === "accept" || transition === "return" || transition === "decline") {
+    if (transition === "return" || transition === "decline") {
       await tx.insert(decisions).values({ versionId, curatorId: actorId, decision: transition, reason: reason!.trim() });
     }
     if (transition === "accept") {
       const series = await seriesIdentifierFor(tx, version.datasetId);
-      const ids = { version: versionIdentifier(series, version.number), series };
+      // The one path to publication (drizzle/0017): the database function, run as the schema owner,
+      // checks the curator again, writes the accept decision and sets the identifier, the payload's
+      // checksum (computed from the stored payload) and the publication time.
+      const [published] = await tx.execute<{ version_identifier: string }>(
+        sql`select version_identifier from arrhenia_publish_version(${versionId}, ${actorId}, ${reason!.trim()})`,
+      );
+      const ids = { version: published.version_identifier, series };
       outcome.identifiers = ids;
-      await tx
-        .update(datasetVersions)
-        .set({ state: to, publishedAt: now, updatedAt: now, payloadSha256: payloadSha256(version.payload), versionIdentifier: ids.version })
-        .where(eq(datasetVersions.id, versionId));
       await addPublishedSpeciesNames(tx, version.participantNames);
       // One registration row per identifier: re-running registration never mints twice.
       await tx

@@ -1,8 +1,9 @@
 import PgBoss from "pg-boss";
 import postgres from "postgres";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { formatTable, inspectRuntimePrivileges, PUBLISH_BY_HAND } from "@/db/privileges";
-import { applyTransition } from "@/lib/curation/transitions";
+import { formatTable, inspectRuntimePrivileges, PUBLISH_BY_HAND, PUBLISH_FULL_ROW, WRITE_ACCEPT_DECISION } from "@/db/privileges";
+import canonicalize from "canonicalize";
+import { applyTransition, payloadSha256 } from "@/lib/curation/transitions";
 import { depositNewDataset, startNextVersion, updateDraft } from "@/lib/datasets/deposits";
 import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { addDatasetMember, getVersionWithRole } from "@/lib/datasets/queries";
@@ -142,28 +143,63 @@ describe("the freeze holds against the runtime role", () => {
     [
       "publish a draft by hand (no identifier, checksum or decision)",
       `update dataset_versions set state = 'published', published_at = now() where id = ${draft.id}`,
-      /published only by acceptance/,
+      notAllowed,
     ],
-    ["db:privileges' own attempt: publish a fresh draft by hand", PUBLISH_BY_HAND, /published only by acceptance/],
+    ["db:privileges' own attempt: publish a fresh draft by hand", PUBLISH_BY_HAND, notAllowed],
     [
       "publish an in-review version by hand with an identifier and checksum, but no decision",
       `update dataset_versions set state = 'in_review' where id = ${draft.id};
        update dataset_versions set state = 'published', published_at = now(), version_identifier = '10.5072/forged/1', payload_sha256 = 'x' where id = ${draft.id}`,
-      /without a curator's accept decision/,
+      notAllowed,
     ],
     [
-      "publish an in-review version by hand without an identifier",
+      "publish an in-review version by hand, state only",
       `update dataset_versions set state = 'in_review' where id = ${draft.id};
-       insert into decisions (version_id, curator_id, decision, reason) values (${draft.id}, ${curator.id}, 'accept', 'forged');
-       update dataset_versions set state = 'published', published_at = now(), payload_sha256 = 'x' where id = ${draft.id}`,
-      /without its identifier/,
+       update dataset_versions set state = 'published' where id = ${draft.id}`,
+      /published only by acceptance/,
     ],
     [
-      "publish with an accept decision recorded by a researcher",
+      "write a curator's accept decision itself",
       `update dataset_versions set state = 'in_review' where id = ${draft.id};
-       insert into decisions (version_id, curator_id, decision, reason) values (${draft.id}, ${stranger.id}, 'accept', 'forged');
-       update dataset_versions set state = 'published', published_at = now(), version_identifier = '10.5072/forged/1', payload_sha256 = 'x' where id = ${draft.id}`,
-      /without a curator's accept decision/,
+       insert into decisions (version_id, curator_id, decision, reason) values (${draft.id}, ${curator.id}, 'accept', 'forged')`,
+      /accept decision is written only by acceptance/,
+    ],
+    ["db:privileges' own attempt: write an accept decision", WRITE_ACCEPT_DECISION, /accept decision is written only by acceptance/],
+    ["db:privileges' own attempt: publish a full row by hand", PUBLISH_FULL_ROW, notAllowed],
+    [
+      "set a draft's checksum",
+      `update dataset_versions set payload_sha256 = ${"'" + "0".repeat(64) + "'"} where id = ${draft.id}`,
+      notAllowed,
+    ],
+    ["set a draft's identifier", `update dataset_versions set version_identifier = '10.5072/forged/1' where id = ${draft.id}`, notAllowed],
+    ["set a draft's publication time", `update dataset_versions set published_at = now() where id = ${draft.id}`, notAllowed],
+    [
+      "publish through the function as a researcher",
+      `update dataset_versions set state = 'in_review' where id = ${draft.id};
+       select * from arrhenia_publish_version(${draft.id}, ${stranger.id}, 'forged')`,
+      /only by an active curator/,
+    ],
+    [
+      "publish through the function as a curator who co-edits the dataset",
+      `update dataset_versions set state = 'in_review' where id = ${draft.id};
+       insert into dataset_members (dataset_id, user_id, role) values (${draft.datasetId}, ${curator.id}, 'editor');
+       select * from arrhenia_publish_version(${draft.id}, ${curator.id}, 'forged')`,
+      /own co-editors/,
+    ],
+    [
+      "publish a draft (never submitted) through the function",
+      `select * from arrhenia_publish_version(${draft.id}, ${curator.id}, 'forged')`,
+      /only by acceptance from review/,
+    ],
+    [
+      "publish the published version again",
+      `select * from arrhenia_publish_version(${published.id}, ${curator.id}, 'again')`,
+      /only by acceptance from review/,
+    ],
+    [
+      "replace the publication function",
+      `create or replace function arrhenia_publish_version(integer, integer, text) returns table (version_identifier text, payload_sha256 text, published_at timestamptz) language sql as 'select null::text, null::text, now()'`,
+      notAllowed,
     ],
     ["edit its points", `update version_points set rate_constant = 1 where version_id = ${published.id}`, refusedByTrigger],
     ["delete its points", `delete from version_points where version_id = ${published.id}`, refusedByTrigger],
@@ -333,7 +369,8 @@ describe("the runtime role's privileges (npm run db:privileges)", () => {
     expect(tables.find((t) => t.table === "public.dataset_versions")).toMatchObject({
       owner: expect.not.stringMatching(role),
       select: true,
-      update: true,
+      // UPDATE on its columns but the identifier, checksum and publication time (drizzle/0017).
+      update: false,
       truncate: false,
       trigger: false,
     });
@@ -402,4 +439,29 @@ describe("the runtime role's privileges (npm run db:privileges)", () => {
       },
     );
   });
+});
+
+describe("acceptance computes the checksum in the database, from the stored payload", () => {
+  it("a published version's checksum is SHA-256 of its payload in RFC 8785 canonical JSON (the canonicalize package)", async () => {
+    const v = await publish({ ...EXAMPLE_DEPOSIT, title: "Checksum “quoted” \\ ünïcode 𝑘 – line\nbreak" });
+    const [row] = await sql<
+      { payload: unknown; payload_sha256: string }[]
+    >`select payload, payload_sha256 from dataset_versions where id = ${v.id}`;
+    expect(row.payload_sha256).toBe(payloadSha256(row.payload));
+  });
+
+  // RFC 8785 §3.2.2.3 and Appendix B: numbers as ECMAScript writes them; strings escaped as JSON.stringify does.
+  const values: unknown[] = [
+    [0, -0, 1, -1, 1.5, 0.1, 1e-7, 1e-6, 0.000001234, 1e21, 1e20, 123456789012345680000, 4.5e-12, 6.02214076e23, 1e100, -2.5e-300],
+    [5e-324, 1.7976931348623157e308, 333333333.3333333, 9007199254740993, 295147905179352830000, 0.0001, 1e-5, 100, 1e15, 1e16],
+    { b: 1, a: [true, false, null], "": "empty key", é: "e-acute", Z: "upper", aa: { y: "\u0001\u001f\u007f\u2028", x: 'tab\t"q"\\' } },
+    "☺ 𝄞 \u00e9\u0301",
+  ];
+  it.each(values.map((v) => [JSON.stringify(v).slice(0, 60), v]))(
+    "arrhenia_canonical_json(%s) equals canonicalize's",
+    async (_label, value) => {
+      const [row] = await sql<{ text: string }[]>`select arrhenia_canonical_json(${sql.json(value as never)}::jsonb) as text`;
+      expect(row.text).toBe(canonicalize(value));
+    },
+  );
 });
