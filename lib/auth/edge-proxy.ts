@@ -57,23 +57,59 @@ export function isCrossOriginPagePost(
   method: string | undefined,
   url: string | undefined,
   headers: http.IncomingHttpHeaders,
-  { appOrigin, peerAddress }: { appOrigin: string; peerAddress: string | undefined },
+  { appOrigin, peerAddress, ownPort }: { appOrigin: string; peerAddress: string | undefined; ownPort?: number },
 ): boolean {
   if (!method || ["GET", "HEAD", "OPTIONS"].includes(method)) return false;
   // The REST API and next-auth's endpoints authenticate (bearer tokens, CSRF tokens) on their own;
   // a server action is checked whatever path it is sent to.
   if (isApiPath(url) && headers["next-action"] === undefined) return false;
-  const origin = headers.origin;
-  if (origin === undefined) return false;
+  // Browsers send Origin with every POST; a server action without it (and without a same-origin
+  // Referer) proves nothing about where it came from.
+  const claimed = headers.origin ?? originOf(headers.referer);
+  if (claimed === undefined) return isActionRequest(method, url, headers);
   let parsed: URL;
   try {
-    parsed = new URL(origin);
+    parsed = new URL(claimed);
   } catch {
     return true; // "null" or garbage: an opaque origin is never ours
   }
   if (parsed.origin === appOrigin) return false;
-  const direct = isLoopbackHost(parsed.hostname) && headers.host === parsed.host && isLoopbackHost(peerAddress ?? "");
+  // The front server's own loopback address (its port), never the Host header the client chose.
+  const direct =
+    ownPort !== undefined &&
+    parsed.protocol === "http:" &&
+    isLoopbackHost(parsed.hostname) &&
+    Number(parsed.port || 80) === ownPort &&
+    isLoopbackHost(peerAddress ?? "");
   return !direct;
+}
+
+/** The origin of a Referer header, undefined when there is none or it is not a URL. */
+function originOf(referer: string | undefined): string | undefined {
+  if (!referer) return undefined;
+  try {
+    return new URL(referer).origin;
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * The request target as Next may see it: always origin-form. An absolute-form target
+ * (`GET http://evil.example/ HTTP/1.1`, RFC 9112 §3.2.2) becomes its path and query, and the Host
+ * sent on is APP_URL's, so nothing Next builds from the request (redirects, links) names a host
+ * the client chose. Null when the target is neither form (refused as a bad request).
+ */
+export function originFormTarget(url: string | undefined): string | null {
+  const target = url ?? "/";
+  if (target.startsWith("/")) return target;
+  if (!/^https?:\/\//i.test(target)) return null;
+  try {
+    const parsed = new URL(target);
+    return parsed.pathname + parsed.search;
+  } catch {
+    return null;
+  }
 }
 
 /** Largest server-action body, bytes: the deposit editor sends whole documents, every other action a form. */
@@ -152,16 +188,28 @@ export async function startEdgeProxy({
 }) {
   const agent = new http.Agent({ keepAlive: true });
   const ownOrigin = new URL(appOrigin).origin;
+  const ownHost = new URL(appOrigin).host;
   const server = http.createServer((req, res) => {
+    const target = originFormTarget(req.url);
+    if (target === null) {
+      refuse(res, 400, "bad_request", "Bad request", "The request target must be a path (or an http URL).");
+      closeAfterAnswer(req, res);
+      return;
+    }
+    const absoluteForm = target !== req.url;
+    req.url = target;
     const headers = forwardedHeaders(req, trust, key);
-    if (isCrossOriginPagePost(req.method, req.url, req.headers, { appOrigin: ownOrigin, peerAddress: req.socket.remoteAddress })) {
-      refuse(res, 403, "forbidden", "Forbidden", "This form was sent from another site.");
+    // A client that named a host in the target chose it: Next hears APP_URL's host instead.
+    if (absoluteForm) headers.host = ownHost;
+    const ownPort = (req.socket.localPort ?? undefined) as number | undefined;
+    if (isCrossOriginPagePost(req.method, req.url, req.headers, { appOrigin: ownOrigin, peerAddress: req.socket.remoteAddress, ownPort })) {
+      refuse(res, 403, "forbidden", "Forbidden", "This form was sent from another site, or without saying where from.");
       req.resume();
       return;
     }
     const action = isActionRequest(req.method, req.url, req.headers);
     // Next compares an action's Origin with the host it is told; tell it the host just approved.
-    if (action && typeof req.headers.origin === "string") headers["x-forwarded-host"] = new URL(req.headers.origin).host;
+    if (action) headers["x-forwarded-host"] = new URL(req.headers.origin ?? originOf(req.headers.referer) ?? ownOrigin).host;
     if (hasUndecodablePath(req.url)) {
       refuse(res, 404, "not_found", "Not found", "This address has a malformed %-escape.");
       req.resume();

@@ -24,7 +24,7 @@ beforeAll(async () => {
     const headers = req.headers as Record<string, string>;
     if (req.url === "/echo") {
       res.setHeader("content-type", "application/json");
-      res.end(JSON.stringify({ address: clientAddress(headers), forwardedHost: headers["x-forwarded-host"] ?? null }));
+      res.end(JSON.stringify({ address: clientAddress(headers), forwardedHost: headers["x-forwarded-host"] ?? null, host: headers.host }));
     } else if (req.url === "/sign-in") {
       const answer = await authorizeCredentials(JSON.parse(await readBody(req)), clientAddress(headers)).then(
         () => "ok",
@@ -111,7 +111,7 @@ describe("client address behind the front server", () => {
         "x-forwarded-host": "evil.example",
       },
     });
-    expect(JSON.parse(res.text)).toEqual({ address: from, forwardedHost: null });
+    expect(JSON.parse(res.text)).toMatchObject({ address: from, forwardedHost: null });
   });
 
   it("31 sign-ins from one socket with a new spoofed X-Forwarded-For each are limited after 30", async () => {
@@ -161,7 +161,7 @@ describe("client address behind the front server", () => {
     const res = await send(port, loopback(), {
       headers: { "x-forwarded-for": "203.0.113.50, 192.0.2.10", "x-forwarded-host": "arrhenia.example" },
     });
-    expect(JSON.parse(res.text)).toEqual({ address: "192.0.2.10", forwardedHost: "arrhenia.example" });
+    expect(JSON.parse(res.text)).toMatchObject({ address: "192.0.2.10", forwardedHost: "arrhenia.example" });
   });
 
   it("with TRUST_PROXY naming other proxies, this socket is not believed", async () => {
@@ -283,6 +283,39 @@ describe("client address behind the front server", () => {
       });
       expect(ours).toEqual({ status: 200, text: "reached the app" });
     }
+  });
+
+  it("an absolute-form request (GET http://evil.example/ HTTP/1.1) reaches the app as its path, with APP_URL's host", async () => {
+    const port = await edge("");
+    for (const target of ["http://evil.example/echo", "https://evil.example:8443/echo"]) {
+      const res = await send(port, loopback(), { path: target, headers: { host: "evil.example" } });
+      expect(res.status, target).toBe(200);
+      expect(JSON.parse(res.text), target).toMatchObject({ host: new URL(APP_ORIGIN).host, forwardedHost: null });
+    }
+    // An ordinary request keeps its Host (Next answers under it; links come from APP_URL).
+    const plain = await send(port, loopback(), { path: "/echo", headers: { host: `127.0.0.1:${port}` } });
+    expect(JSON.parse(plain.text)).toMatchObject({ host: `127.0.0.1:${port}` });
+  });
+
+  it("a server action without Origin is a 403 unless its Referer is on APP_URL's origin", async () => {
+    const port = await edge("");
+    const action = { "next-action": "0123456789abcdef", "content-type": "text/plain;charset=UTF-8", host: `127.0.0.1:${port}` };
+    const bare = await send(port, loopback(), { method: "POST", path: "/settings", headers: action, body: "[]" });
+    expect(bare.status).toBe(403);
+    const elsewhere = await send(port, loopback(), {
+      method: "POST",
+      path: "/settings",
+      headers: { ...action, referer: "https://evil.example/page" },
+      body: "[]",
+    });
+    expect(elsewhere.status).toBe(403);
+    const ours = await send(port, loopback(), {
+      method: "POST",
+      path: "/settings",
+      headers: { ...action, referer: `${APP_ORIGIN}/settings` },
+      body: "[]",
+    });
+    expect(ours).toEqual({ status: 200, text: "reached the app" });
   });
 
   it("an action body nested past the limit is a 400 before Next decodes it, as text or multipart; files and strings are not counted", async () => {

@@ -1,7 +1,7 @@
 import type http from "node:http";
 import { afterEach, describe, expect, it } from "vitest";
 import { CLIENT_ADDRESS_HEADER, clientAddress, EDGE_KEY_HEADER, INNER_GATE_MARK, UNKNOWN_ADDRESS } from "@/lib/auth/client-address";
-import { compileTrustProxy, forwardedHeaders, isCrossOriginPagePost } from "@/lib/auth/edge-proxy";
+import { compileTrustProxy, forwardedHeaders, isCrossOriginPagePost, originFormTarget } from "@/lib/auth/edge-proxy";
 
 function fakeRequest(remoteAddress: string, headers: http.IncomingHttpHeaders): http.IncomingMessage {
   return { headers, socket: { remoteAddress }, connection: { remoteAddress } } as unknown as http.IncomingMessage;
@@ -93,7 +93,12 @@ describe("cross-origin page posts (server actions)", () => {
     ["an opaque origin", h({ origin: "null" }), true],
     ["the app's origin", h({ origin: "https://arrhenia.example" }), false],
     ["the app's host over another scheme", h({ origin: "http://arrhenia.example" }), true],
-    ["no origin (not a browser)", h({}), false],
+    ["a server action with no origin and no referer", h({ "next-action": "abc" }), true],
+    ["a multipart form post with no origin and no referer", h({ "content-type": "multipart/form-data; boundary=x" }), true],
+    ["a plain post with no origin (not an action; Next refuses it itself)", h({}), false],
+    ["no origin, a referer on the app's origin", h({ referer: "https://arrhenia.example/deposits/4" }), false],
+    ["no origin, a referer on another site", h({ referer: "https://evil.example/arrhenia.example/" }), true],
+    ["an action with no origin and a referer that is not a URL", h({ "next-action": "abc", referer: "arrhenia.example" }), true],
     // The Host header is the client's to choose: matching it proves nothing.
     ["another origin with a forged Host to match", { host: "evil.example", origin: "https://evil.example" }, true],
     ["another origin claimed by X-Forwarded-Host", h({ origin: "https://evil.example", "x-forwarded-host": "evil.example" }), true],
@@ -102,11 +107,24 @@ describe("cross-origin page posts (server actions)", () => {
     expect(isCrossOriginPagePost("POST", "/settings", headers, app)).toBe(refused);
   });
   it("a browser on this machine reaching the server directly on loopback keeps working", () => {
-    const local = { ...app, peerAddress: "::ffff:127.0.0.1" };
+    const local = { ...app, peerAddress: "::ffff:127.0.0.1", ownPort: 3000 };
     expect(isCrossOriginPagePost("POST", "/settings", { host: "127.0.0.1:3000", origin: "http://127.0.0.1:3000" }, local)).toBe(false);
     expect(isCrossOriginPagePost("POST", "/settings", { host: "localhost:3000", origin: "http://localhost:3000" }, local)).toBe(false);
     // Another local site (another port) is another origin.
     expect(isCrossOriginPagePost("POST", "/settings", { host: "127.0.0.1:3000", origin: "http://127.0.0.1:8080" }, local)).toBe(true);
+    // The reference is the front server's own port, not the Host header the client chose.
+    expect(isCrossOriginPagePost("POST", "/settings", { host: "127.0.0.1:8080", origin: "http://127.0.0.1:8080" }, local)).toBe(true);
+  });
+  it.each([
+    ["/settings?x=1", "/settings?x=1"],
+    ["http://evil.example/", "/"],
+    ["https://evil.example/sign-in?callbackUrl=%2F", "/sign-in?callbackUrl=%2F"],
+    ["HTTP://evil.example:8080/datasets/1", "/datasets/1"],
+    ["evil.example/", null],
+    ["*", null],
+    ["ftp://evil.example/", null],
+  ])("the request target %s reaches Next as %s", (target, expected) => {
+    expect(originFormTarget(target)).toBe(expected);
   });
   it("leaves reads and the API alone", () => {
     expect(isCrossOriginPagePost("GET", "/settings", h({ origin: "https://evil.example" }), app)).toBe(false);
