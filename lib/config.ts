@@ -1,6 +1,7 @@
 // Environment configuration in one place, validated with zod. Every variable is listed in the
 // README. Getters read process.env on each call (tests change it between cases); start-up calls
 // assertValidConfig() so a bad value stops the app with one clear message instead of failing later.
+import { availableParallelism } from "node:os";
 import { z } from "zod";
 
 const port = z.coerce
@@ -258,9 +259,12 @@ export function edgeKey(): string | null {
   return read("ARRHENIA_EDGE_KEY") ?? null;
 }
 
-/** Worker threads that validate and analyse deposits off the request thread (one on a two-core machine). */
+/**
+ * Worker threads that validate and analyse deposits off the request thread: by default one fewer
+ * than the cores (at least one), so the request thread always keeps a core of its own.
+ */
 export function analysisThreads(): number {
-  return read("ANALYSIS_THREADS") ?? 1;
+  return read("ANALYSIS_THREADS") ?? Math.max(1, availableParallelism() - 1);
 }
 
 /** Tasks that may wait for an analysis thread; beyond this a request is answered 503 at once. */
