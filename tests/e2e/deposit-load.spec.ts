@@ -1,3 +1,4 @@
+import { Worker } from "node:worker_threads";
 import { expect, test, type APIRequestContext } from "@playwright/test";
 import { EXAMPLE_DEPOSIT } from "../../lib/deposits/example";
 
@@ -46,33 +47,71 @@ test("a 100 000-point document with a bad value in every row is refused 422 with
   expect(best).toBeLessThan(3000);
 });
 
-test("/api/health keeps answering within 200 ms while ten such documents are posted at once", async ({ request, baseURL }) => {
-  await signIn(request);
-  await postBad(request);
-  // Health is asked with this process's own fetch, as another client would: through the request
-  // fixture it would queue behind the 17 MB of uploads in Playwright's driver process.
-  const latencies: number[] = [];
-  let posting = true;
-  const posts = Promise.all(Array.from({ length: 10 }, () => postBad(request))).finally(() => (posting = false));
-  while (posting) {
-    const started = Date.now();
-    const res = await fetch(`${baseURL}/api/health`);
-    await res.text();
-    latencies.push(Date.now() - started);
-    expect(res.status).toBe(200);
+// The sampler runs on a thread of its own. On this thread, Playwright serialises each 1.7 MB
+// upload into a message for its driver process (17 MB of JSON in all), which would delay the
+// health requests here and blame the server for the client's own work.
+const SAMPLER = `
+const { parentPort, workerData } = require("node:worker_threads");
+let stopped = false;
+parentPort.once("message", () => (stopped = true));
+(async () => {
+  const samples = [];
+  while (!stopped) {
+    const started = performance.now();
+    const res = await fetch(workerData.url, { cache: "no-store" });
+    const body = await res.json().catch(() => ({}));
+    samples.push({ ms: performance.now() - started, status: res.status, databaseMs: body.databaseLatencyMs });
     await new Promise((r) => setTimeout(r, 50));
   }
+  parentPort.postMessage(samples);
+})();
+`;
+
+interface HealthSample {
+  ms: number;
+  status: number;
+  databaseMs?: number;
+}
+
+/** GET /api/health back to back (50 ms apart) from another thread until `until` settles; latencies sorted, ms. */
+async function sampleHealth(baseURL: string, until: Promise<unknown>): Promise<number[]> {
+  const sampler = new Worker(SAMPLER, { eval: true, workerData: { url: `${baseURL}/api/health` } });
+  const samples = new Promise<HealthSample[]>((resolve, reject) => {
+    sampler.once("message", resolve);
+    sampler.once("error", reject);
+  });
+  await until.catch(() => {});
+  sampler.postMessage("stop");
+  const result = await samples;
+  await sampler.terminate();
+  expect(result.filter((s) => s.status !== 200)).toEqual([]);
+  return result.map((s) => s.ms).sort((a, b) => a - b);
+}
+const median = (xs: number[]) => xs[xs.length >> 1];
+
+test("/api/health answers within 200 ms, every sample, while ten such documents are posted at once", async ({ request, baseURL }) => {
+  await signIn(request);
+  await postBad(request);
+  // Health is asked with plain fetch, as another client would: through the request fixture it
+  // would queue behind the 17 MB of uploads in Playwright's driver process.
+  // The control: the same sampling for 5 s while the server has nothing else to do. What this
+  // machine adds on its own (other processes holding both cores) shows as its max above its median.
+  const idle = await sampleHealth(baseURL!, new Promise((r) => setTimeout(r, 5000)));
+  const posts = Promise.all(Array.from({ length: 10 }, () => postBad(request)));
+  const loaded = await sampleHealth(baseURL!, posts);
   const responses = await posts;
   expect(responses.map((r) => r.status())).toEqual(Array(10).fill(422));
-  latencies.sort((a, b) => a - b);
+  const machineStall = Math.max(0, idle.at(-1)! - median(idle));
+  const round = (x: number) => Math.round(x);
   console.log(
-    `health during ten uploads: ${latencies.length} requests, median ${latencies[latencies.length >> 1]} ms, max ${latencies.at(-1)} ms`,
+    `health idle: ${idle.length} requests, median ${round(median(idle))} ms, max ${round(idle.at(-1)!)} ms; ` +
+      `during ten uploads: ${loaded.length} requests, median ${round(median(loaded))} ms, max ${round(loaded.at(-1)!)} ms; ` +
+      `allowance for the machine ${round(machineStall)} ms`,
   );
   // Enough samples to mean something: the uploads keep the server busy for seconds.
-  expect(latencies.length).toBeGreaterThanOrEqual(5);
-  // The bar is 200 ms. On a shared two-core machine a single sample can lose the CPU for a few
-  // seconds to other processes, so the median is held to the bar and every sample to a bound far
-  // below the 149 s that health waited when validation ran on the request thread.
-  expect(latencies[latencies.length >> 1]).toBeLessThan(200);
-  expect(latencies.at(-1)!).toBeLessThan(5000);
+  expect(loaded.length).toBeGreaterThanOrEqual(5);
+  // The bar is 200 ms for every sample. The only allowance is the stall the idle control proved
+  // this machine imposes with the server doing nothing (0 on a quiet machine).
+  expect(median(loaded)).toBeLessThan(200);
+  expect(loaded.at(-1)!).toBeLessThan(200 + machineStall);
 });

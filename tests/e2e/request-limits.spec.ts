@@ -101,7 +101,7 @@ test("a chunked 200 MB analysis request is refused with 413 after a little over 
 });
 
 /** Raw bytes to the front server; the status line answered and how long it took (the socket is closed after 20 s at most). */
-function rawRequest(baseURL: string, bytes: string): Promise<{ status: number; ms: number }> {
+function rawRequest(baseURL: string, bytes: string): Promise<{ status: number; ms: number; answer: string }> {
   const { hostname, port } = new URL(baseURL);
   return new Promise((resolve, reject) => {
     const started = Date.now();
@@ -109,7 +109,7 @@ function rawRequest(baseURL: string, bytes: string): Promise<{ status: number; m
     let answer = "";
     const done = () => {
       socket.destroy();
-      resolve({ status: Number(/^HTTP\/1\.[01] (\d{3})/.exec(answer)?.[1] ?? 0), ms: Date.now() - started });
+      resolve({ status: Number(/^HTTP\/1\.[01] (\d{3})/.exec(answer)?.[1] ?? 0), ms: Date.now() - started, answer });
     };
     socket.on("data", (d) => (answer += d));
     socket.on("end", done);
@@ -131,5 +131,28 @@ test("a GET declaring a body it never sends is a 400 at once; a short POST body 
   expect(post.status).toBe(408);
   expect(post.ms).toBeLessThan(15_000);
   // The server is unharmed.
+  expect((await fetch(`${baseURL}/api/health`)).status).toBe(200);
+});
+
+test("an absolute-form request naming another host gets no redirect or link to that host", async ({ baseURL }) => {
+  // RFC 9112 §3.2.2: a server must accept `GET http://host/path`; the host named there is the client's choice.
+  for (const path of ["/", "/deposits", "/review", "/datasets/", "/sign-in?callbackUrl=%2Fdeposits", "/no-such-page"]) {
+    const res = await rawRequest(baseURL!, `GET http://evil.example${path} HTTP/1.1\r\nHost: evil.example\r\nConnection: close\r\n\r\n`);
+    expect(res.status, path).toBeGreaterThanOrEqual(200);
+    expect(res.status, path).toBeLessThan(500);
+    expect(res.answer, path).not.toMatch(/evil\.example/i);
+  }
+});
+
+test("a server action without Origin is a 403; one nested 100 000 brackets deep is a 400, never a 500", async ({ baseURL }) => {
+  const action = "Next-Action: 0123456789abcdef0123456789abcdef01234567\r\nContent-Type: text/plain;charset=UTF-8\r\nConnection: close";
+  const bare = await rawRequest(baseURL!, `POST /settings HTTP/1.1\r\nHost: 127.0.0.1\r\n${action}\r\nContent-Length: 2\r\n\r\n[]`);
+  expect(bare.status).toBe(403);
+  const deep = "[".repeat(100_000);
+  const nested = await rawRequest(
+    baseURL!,
+    `POST /deposits/new HTTP/1.1\r\nHost: 127.0.0.1\r\nOrigin: ${baseURL}\r\n${action}\r\nContent-Length: ${deep.length}\r\n\r\n${deep}`,
+  );
+  expect([400, 413]).toContain(nested.status);
   expect((await fetch(`${baseURL}/api/health`)).status).toBe(200);
 });
