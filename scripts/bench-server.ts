@@ -14,13 +14,13 @@ import { spawn, type ChildProcess } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { mkdtempSync } from "node:fs";
 import { createServer } from "node:net";
-import { Worker } from "node:worker_threads";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { encode } from "next-auth/jwt";
 import { nextDistDir } from "@/lib/config";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 import { createApiToken, createUser, getUserForSession } from "@/lib/users/queries";
+import { sampleHealth as sampleHealthFrom } from "./health-sampler";
 
 const dir = path.resolve(process.env.BENCH_DIR ?? process.cwd());
 const distDir = nextDistDir();
@@ -73,37 +73,9 @@ async function waitForHealth(deadline = Date.now() + 120_000) {
 /** One health request: its latency, and the database round trip the server measured inside it (ms). */
 type Sample = [number, number];
 
-// The health sampler runs on a thread of its own: on this thread, sending 17 MB of uploads would
-// delay its requests and blame the server for the client's own work.
-const SAMPLER = `
-const { parentPort, workerData } = require("node:worker_threads");
-let stopped = false;
-parentPort.once("message", () => (stopped = true));
-(async () => {
-  const samples = [];
-  while (!stopped) {
-    const t0 = performance.now();
-    const res = await fetch(workerData.url, { cache: "no-store" });
-    const body = await res.json().catch(() => ({}));
-    samples.push([performance.now() - t0, body.databaseLatencyMs ?? NaN]);
-    await new Promise((r) => setTimeout(r, 10));
-  }
-  parentPort.postMessage(samples);
-})();
-`;
-
 /** Samples GET /api/health back to back (a 10 ms pause between) until `until` settles. */
 async function sampleHealth(until: Promise<unknown>): Promise<Sample[]> {
-  const sampler = new Worker(SAMPLER, { eval: true, workerData: { url: `${base}/api/health` } });
-  const samples = new Promise<Sample[]>((resolve, reject) => {
-    sampler.once("message", resolve);
-    sampler.once("error", reject);
-  });
-  await until.catch(() => {});
-  sampler.postMessage("stop");
-  const result = await samples;
-  await sampler.terminate();
-  return result;
+  return (await sampleHealthFrom(`${base}/api/health`, until)).map((s) => [s.ms, s.databaseMs]);
 }
 
 const pct = (xs: number[], p: number) => {

@@ -1,6 +1,6 @@
-import { Worker } from "node:worker_threads";
 import { expect, test, type APIRequestContext } from "@playwright/test";
 import { EXAMPLE_DEPOSIT } from "../../lib/deposits/example";
+import { sampleHealth as sampleHealthFrom } from "../../scripts/health-sampler";
 
 // A document of 100 000 points, each bad in two fields: validating it once took minutes on the
 // request thread and stalled every other request. Now it is refused quickly, and the server keeps
@@ -47,45 +47,11 @@ test("a 100 000-point document with a bad value in every row is refused 422 with
   expect(best).toBeLessThan(3000);
 });
 
-// The sampler runs on a thread of its own. On this thread, Playwright serialises each 1.7 MB
-// upload into a message for its driver process (17 MB of JSON in all), which would delay the
-// health requests here and blame the server for the client's own work.
-const SAMPLER = `
-const { parentPort, workerData } = require("node:worker_threads");
-let stopped = false;
-parentPort.once("message", () => (stopped = true));
-(async () => {
-  const samples = [];
-  while (!stopped) {
-    const started = performance.now();
-    const res = await fetch(workerData.url, { cache: "no-store" });
-    const body = await res.json().catch(() => ({}));
-    samples.push({ ms: performance.now() - started, status: res.status, databaseMs: body.databaseLatencyMs });
-    await new Promise((r) => setTimeout(r, 50));
-  }
-  parentPort.postMessage(samples);
-})();
-`;
-
-interface HealthSample {
-  ms: number;
-  status: number;
-  databaseMs?: number;
-}
-
-/** GET /api/health back to back (50 ms apart) from another thread until `until` settles; latencies sorted, ms. */
+/** GET /api/health back to back (50 ms apart, from another thread) until `until` settles; latencies sorted, ms. */
 async function sampleHealth(baseURL: string, until: Promise<unknown>): Promise<number[]> {
-  const sampler = new Worker(SAMPLER, { eval: true, workerData: { url: `${baseURL}/api/health` } });
-  const samples = new Promise<HealthSample[]>((resolve, reject) => {
-    sampler.once("message", resolve);
-    sampler.once("error", reject);
-  });
-  await until.catch(() => {});
-  sampler.postMessage("stop");
-  const result = await samples;
-  await sampler.terminate();
-  expect(result.filter((s) => s.status !== 200)).toEqual([]);
-  return result.map((s) => s.ms).sort((a, b) => a - b);
+  const samples = await sampleHealthFrom(`${baseURL}/api/health`, until, 50);
+  expect(samples.filter((s) => s.status !== 200)).toEqual([]);
+  return samples.map((s) => s.ms).sort((a, b) => a - b);
 }
 const median = (xs: number[]) => xs[xs.length >> 1];
 
@@ -94,9 +60,10 @@ test("/api/health answers within 200 ms, every sample, while ten such documents 
   await postBad(request);
   // Health is asked with plain fetch, as another client would: through the request fixture it
   // would queue behind the 17 MB of uploads in Playwright's driver process.
-  // The control: the same sampling for 5 s while the server has nothing else to do. What this
+  // The control: the same sampling for 3 s while the server has nothing else to do (shorter than
+  // Node's 5 s keep-alive, which would close the upload connections Playwright then reuses). What this
   // machine adds on its own (other processes holding both cores) shows as its max above its median.
-  const idle = await sampleHealth(baseURL!, new Promise((r) => setTimeout(r, 5000)));
+  const idle = await sampleHealth(baseURL!, new Promise((r) => setTimeout(r, 3000)));
   const posts = Promise.all(Array.from({ length: 10 }, () => postBad(request)));
   const loaded = await sampleHealth(baseURL!, posts);
   const responses = await posts;
