@@ -380,16 +380,15 @@ describe("validateDeposit: size limits", () => {
     });
   });
 
-  it("accepts exactly 100 000 points in well under two seconds", () => {
+  // Its speed is measured by `npm run bench:validation`, not here.
+  it("accepts exactly 100 000 points", () => {
     const doc = example();
     doc.points = Array.from({ length: 100_000 }, (_, i) => ({
       T: 250 + (i % 170),
       k: 1e-14 * (1 + (i % 7) / 10),
       uncertainty: { kind: "relative", value: 5 },
     }));
-    const started = performance.now();
     expect(validateDeposit(doc).ok).toBe(true);
-    expect(performance.now() - started).toBeLessThan(2000);
   });
 
   it(`caps the list at ${MAX_VALIDATION_ERRORS} errors and says how many there were`, () => {
