@@ -25,8 +25,8 @@ export function ConflictPanel({ fields, onMerge, onDownloadMine, saving }: Props
         A co-editor saved this draft while you were editing it
       </h2>
       <p>
-        Nothing of yours was stored and nothing is lost. {fields.length === 1 ? "One field differs" : `${fields.length} fields differ`}: choose
-        for each whether to keep yours or take theirs, then save the merge on top of their version.
+        Nothing of yours was stored and nothing is lost. {fields.length === 1 ? "One field differs" : `${fields.length} fields differ`}:
+        choose for each whether to keep yours or take theirs, then save the merge on top of their version.
       </p>
       <div className="flex flex-wrap gap-2">
         <button type="button" className="btn-secondary" onClick={() => setAll("mine")}>

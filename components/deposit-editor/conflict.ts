@@ -73,7 +73,13 @@ export function conflictFields(base: Doc, mine: Doc, theirs: Doc): ConflictField
     .map((pointer) => {
       const m = valueAt(mine, pointer);
       const t = valueAt(theirs, pointer);
-      return { pointer, where: describeWhere(pointer), mine: m, theirs: t, proposed: sameValue(m, valueAt(base, pointer)) ? "theirs" : "mine" } as ConflictField;
+      return {
+        pointer,
+        where: describeWhere(pointer),
+        mine: m,
+        theirs: t,
+        proposed: sameValue(m, valueAt(base, pointer)) ? "theirs" : "mine",
+      } as ConflictField;
     })
     .filter((f) => !sameValue(f.mine, f.theirs))
     .sort((a, b) => {

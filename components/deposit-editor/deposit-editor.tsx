@@ -83,7 +83,9 @@ export function DepositEditor(props: DepositEditorProps) {
   const [windowStart, setWindowStart] = useState(0);
   const lockVersion = useRef(existing?.lockVersion ?? 0);
   // The document as last loaded or saved: a merge proposes theirs where mine is still this.
-  const baseDocument = useRef<Record<string, unknown>>(existing ? (formToDocument(form).document as unknown as Record<string, unknown>) : {});
+  const baseDocument = useRef<Record<string, unknown>>(
+    existing ? (formToDocument(form).document as unknown as Record<string, unknown>) : {},
+  );
   const inFlight = useRef(false);
   const readinessRef = useRef<HTMLDivElement>(null);
   const dirty = revision !== savedRevision;
@@ -134,7 +136,12 @@ export function DepositEditor(props: DepositEditorProps) {
     try {
       result = versionId === null ? await createDraftAction(json) : await saveDraftAction(versionId, lock, json);
     } catch {
-      result = { ok: false, status: 0, message: "the server could not be reached; your edits are still here and will be sent again.", errors: [] };
+      result = {
+        ok: false,
+        status: 0,
+        message: "the server could not be reached; your edits are still here and will be sent again.",
+        errors: [],
+      };
     } finally {
       inFlight.current = false;
     }
@@ -145,16 +152,17 @@ export function DepositEditor(props: DepositEditorProps) {
       setSavedRevision(rev);
       setServerErrors(result.problems ?? []);
       setSaveState({ kind: "saved", at: new Date() });
-      if (versionId === null) {
+      if (props.mode === "new") {
         setVersionId(result.versionId);
         if (!auto) {
+          // Saved by hand: move to the stored draft's own page (its lifecycle, checks and files).
           guard.allow();
           router.replace(`/deposits/${result.versionId}`);
-        } else {
+        } else if (versionId === null) {
           // The address names the stored draft at once (a reload finds it) without leaving this editor.
           window.history.replaceState(null, "", `/deposits/${result.versionId}`);
         }
-      } else if (props.mode === "existing") {
+      } else {
         // New checks (identity, balance, fit) come with the refreshed page.
         router.refresh();
       }
@@ -226,7 +234,8 @@ export function DepositEditor(props: DepositEditorProps) {
         className="space-y-6"
         onBlur={(e) => {
           // Focus moving between two inputs of the editor counts too: each field left is saved.
-          if (e.target instanceof HTMLInputElement || e.target instanceof HTMLTextAreaElement || e.target instanceof HTMLSelectElement) flush();
+          if (e.target instanceof HTMLInputElement || e.target instanceof HTMLTextAreaElement || e.target instanceof HTMLSelectElement)
+            flush();
         }}
       >
         {existing && (

@@ -69,8 +69,18 @@ export function ReportedFitSection({ form, update, rangeWarning }: SectionProps 
           <fieldset className="space-y-2">
             <legend className="text-sm font-medium">Temperatures the authors say it is valid for</legend>
             <div className="grid gap-4 md:grid-cols-3">
-              <NumberField pointer="/reportedFit/Tmin" label={`Valid from (${rangeLabel})`} value={r.Tmin} onChange={(v) => set({ Tmin: v })} />
-              <NumberField pointer="/reportedFit/Tmax" label={`Valid up to (${rangeLabel})`} value={r.Tmax} onChange={(v) => set({ Tmax: v })} />
+              <NumberField
+                pointer="/reportedFit/Tmin"
+                label={`Valid from (${rangeLabel})`}
+                value={r.Tmin}
+                onChange={(v) => set({ Tmin: v })}
+              />
+              <NumberField
+                pointer="/reportedFit/Tmax"
+                label={`Valid up to (${rangeLabel})`}
+                value={r.Tmax}
+                onChange={(v) => set({ Tmax: v })}
+              />
               <SelectField
                 pointer="/reportedFit/rangeUnit"
                 label="Unit of the valid range"

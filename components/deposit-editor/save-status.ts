@@ -40,7 +40,10 @@ export function stateAfterFailure(result: Extract<SaveResult, { ok: false }>, au
     case 413:
       return { kind: "failed", message: `${lowerFirst(result.message.replace(/\.$/, ""))}; your edits are still here.` };
     default:
-      return { kind: "failed", message: result.message ? lowerFirst(result.message) : "the draft could not be saved; your edits are still here." };
+      return {
+        kind: "failed",
+        message: result.message ? lowerFirst(result.message) : "the draft could not be saved; your edits are still here.",
+      };
   }
 }
 

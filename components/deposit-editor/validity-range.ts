@@ -53,7 +53,11 @@ export function validityRangeWarning(form: EditorForm): string | null {
   if (overlaps(range, data)) return null;
   const side = range[1] < data[0] ? "below" : "above";
   const stated =
-    lo !== null && hi !== null ? formatRange(lo, hi, "K") : lo !== null ? `from ${formatSignificant(lo)} K` : `up to ${formatSignificant(hi)} K`;
+    lo !== null && hi !== null
+      ? formatRange(lo, hi, "K")
+      : lo !== null
+        ? `from ${formatSignificant(lo)} K`
+        : `up to ${formatSignificant(hi)} K`;
   let advice = "Check the numbers and the unit chosen beside them.";
   const other = fit.rangeUnit === "K" ? "degC" : "K";
   const otherLo = kelvinOrNull(fit.Tmin, other);

@@ -74,7 +74,11 @@ export async function applyTransition({
     // Only a valid document is submitted: an incomplete draft lists what it still needs.
     if (transition === "submit" && version.draftProblems) {
       const n = version.draftProblems.length;
-      throw new AppError("validation_failed", `The draft is not ready to submit: ${n} problem${n === 1 ? "" : "s"} to correct first`, version.draftProblems);
+      throw new AppError(
+        "validation_failed",
+        `The draft is not ready to submit: ${n} problem${n === 1 ? "" : "s"} to correct first`,
+        version.draftProblems,
+      );
     }
     const now = new Date();
     const outcome: TransitionOutcome = { versionId, datasetId: version.datasetId, from: version.state, to };

@@ -220,7 +220,13 @@ export async function saveDraft(
     expectedLockVersion: number;
     title: string;
   } & (
-    | { payload: Record<string, unknown>; points: StoredPoint[]; analysis: AnalysisSummary; reaction?: ReactionInput; incomplete?: undefined }
+    | {
+        payload: Record<string, unknown>;
+        points: StoredPoint[];
+        analysis: AnalysisSummary;
+        reaction?: ReactionInput;
+        incomplete?: undefined;
+      }
     | { incomplete: IncompleteDraft; payload?: undefined; points?: undefined; analysis?: undefined; reaction?: undefined }
   ),
 ) {

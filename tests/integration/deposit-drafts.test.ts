@@ -74,7 +74,11 @@ describe("editor saves of incomplete drafts", () => {
 
     // The API shows the last valid document and still refuses an invalid one (the schema is its contract).
     const put = await putVersion(
-      new Request(`http://127.0.0.1/api/v1/versions/${created.versionId}`, { method: "PUT", headers: { "if-match": '"2"' }, body: json(broken) }),
+      new Request(`http://127.0.0.1/api/v1/versions/${created.versionId}`, {
+        method: "PUT",
+        headers: { "if-match": '"2"' },
+        body: json(broken),
+      }),
       { params: Promise.resolve({ id: String(created.versionId) }) },
     );
     expect(put.status).toBe(422);
