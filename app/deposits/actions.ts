@@ -43,9 +43,10 @@ const reasonSchema = z.string().max(5000, "Keep the reason under 5000 characters
 
 const createDraft = protectedCall(z.object({ documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
   // The text goes to an analysis worker, which parses and validates it off the request thread.
-  const v = await depositNewDraft({ actor: user, text: input.documentJson });
-  revalidatePath("/deposits");
-  return v;
+  // No revalidatePath here: it would re-render the page in the action's response, and once the
+  // editor has moved its address to the new draft that page is another route, whose editor would
+  // replace this one and drop whatever was typed since the save began.
+  return depositNewDraft({ actor: user, text: input.documentJson });
 });
 
 const saveDraft = protectedCall(
@@ -59,7 +60,7 @@ const saveDraft = protectedCall(
         expectedLockVersion: input.lockVersion,
         text: input.documentJson,
       });
-      revalidatePath(`/deposits/${input.versionId}`);
+      // The editor refreshes its page itself (see createDraft on why not revalidatePath).
       return { saved: v };
     } catch (err) {
       if (!(err instanceof AppError) || err.message !== STALE_SAVE_MESSAGE) throw err;

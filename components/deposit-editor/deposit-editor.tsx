@@ -89,6 +89,10 @@ export function DepositEditor(props: DepositEditorProps) {
   const inFlight = useRef(false);
   const readinessRef = useRef<HTMLDivElement>(null);
   const dirty = revision !== savedRevision;
+  const latestRevision = useRef(revision);
+  useEffect(() => {
+    latestRevision.current = revision;
+  });
   const saving = saveState.kind === "saving";
   const guard = useLeaveGuard(editable && (dirty || saving));
 
@@ -154,8 +158,9 @@ export function DepositEditor(props: DepositEditorProps) {
       setSaveState({ kind: "saved", at: new Date() });
       if (props.mode === "new") {
         setVersionId(result.versionId);
-        if (!auto) {
-          // Saved by hand: move to the stored draft's own page (its lifecycle, checks and files).
+        if (!auto && latestRevision.current === rev) {
+          // Saved by hand with nothing typed since: move to the stored draft's own page (its
+          // lifecycle, checks and files). That page is another route, so this editor is replaced.
           guard.allow();
           router.replace(`/deposits/${result.versionId}`);
         } else if (versionId === null) {

@@ -32,7 +32,7 @@ const ITEM_WORDS: Record<string, string> = {
 /** Plain names of fields whose property names are not words. */
 const FIELD_WORDS: Record<string, string> = {
   title: "title",
-  description: "summary",
+  description: "description",
   keywords: "keywords",
   license: "licence",
   smiles: "SMILES",

@@ -60,6 +60,10 @@ export class DepositEditorPage {
     await this.description.fill(description);
   }
 
+  get title(): Locator {
+    return this.section("Title and summary").getByLabel(/^Title/);
+  }
+
   get description(): Locator {
     return this.section("Title and summary").getByLabel(/^Description/);
   }
