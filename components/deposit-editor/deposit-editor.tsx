@@ -165,7 +165,7 @@ export function DepositEditor(props: DepositEditorProps) {
           router.replace(`/deposits/${result.versionId}`);
         } else if (versionId === null) {
           // The address names the stored draft at once (a reload finds it) without leaving this editor.
-          window.history.replaceState(null, "", `/deposits/${result.versionId}`);
+          guard.replaceAddress(`/deposits/${result.versionId}`);
         }
       } else {
         // New checks (identity, balance, fit) come with the refreshed page.

@@ -11,16 +11,19 @@ export const LEAVE_QUESTION = "Some changes to this draft are not saved yet. Lea
  * (a same-URL guard entry is pushed on the history; going back pops it and we ask). Nothing is
  * asked once everything is saved. `allow()` lets one navigation through (the editor's own).
  */
-export function useLeaveGuard(unsaved: boolean): { allow: () => void } {
+export function useLeaveGuard(unsaved: boolean): { allow: () => void; replaceAddress: (path: string) => void } {
   const unsavedRef = useRef(unsaved);
   const allowed = useRef(false);
   const guarded = useRef(false);
+  // The address of this page's (top) history entry, to restore when the person stays.
+  const address = useRef("");
 
   useEffect(() => {
     unsavedRef.current = unsaved;
     if (unsaved && !guarded.current) {
       // Next keeps its router state in history.state: the guard entry carries the same.
-      window.history.pushState(window.history.state, "", window.location.href);
+      address.current = window.location.href;
+      window.history.pushState(window.history.state, "", address.current);
       guarded.current = true;
     }
   }, [unsaved]);
@@ -61,7 +64,7 @@ export function useLeaveGuard(unsaved: boolean): { allow: () => void } {
         window.history.back();
         return;
       }
-      window.history.pushState(window.history.state, "", window.location.href);
+      window.history.pushState(window.history.state, "", address.current);
       guarded.current = true;
     };
 
@@ -78,6 +81,11 @@ export function useLeaveGuard(unsaved: boolean): { allow: () => void } {
   return {
     allow: () => {
       allowed.current = true;
+    },
+    /** Gives this page's entry another address (a new draft's own), without a navigation. */
+    replaceAddress: (path: string) => {
+      address.current = new URL(path, window.location.href).href;
+      window.history.replaceState(null, "", address.current);
     },
   };
 }

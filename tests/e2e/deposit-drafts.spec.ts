@@ -18,10 +18,7 @@ function recordDialogs(page: Page, accept: () => boolean) {
 async function newTitledDraft(page: Page, title: string): Promise<number> {
   const editor = new DepositEditorPage(page);
   await editor.openNew();
-  await editor
-    .section("Title and summary")
-    .getByLabel(/^Title/)
-    .fill(title);
+  await editor.title.fill(title);
   await editor.expectSaved();
   await expect(page).toHaveURL(/\/deposits\/\d+$/);
   return editor.versionId();
@@ -35,10 +32,7 @@ test("a new deposit saves itself once it has a title, and lists what it lacks wi
   await expect(editor.saveStatus).toHaveText(/^Not saved: give the deposit a title/, { timeout: 10_000 });
 
   const title = `Autosaved draft ${Date.now()}`;
-  await editor
-    .section("Title and summary")
-    .getByLabel(/^Title/)
-    .fill(title);
+  await editor.title.fill(title);
   await editor.expectSaved();
   await expect(page).toHaveURL(/\/deposits\/\d+$/);
   await expect(editor.readiness).toBeVisible();
