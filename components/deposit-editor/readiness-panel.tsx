@@ -39,7 +39,7 @@ export function ReadinessPanel({ items, onShowRow, ref }: Props) {
       id="readiness"
       tabIndex={-1}
       aria-labelledby="readiness-heading"
-      className="space-y-2 rounded-lg border border-warn/60 bg-panel p-4 text-sm"
+      className="scroll-mt-28 space-y-2 rounded-lg border border-warn/60 bg-panel p-4 text-sm"
     >
       <h2 id="readiness-heading" className="font-serif text-lg font-semibold">
         Not ready to submit: {items.length === 1 ? "1 thing" : `${items.length} things`} to complete or correct
