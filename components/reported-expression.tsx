@@ -39,6 +39,8 @@ export function ReportedExpression({
   const kId = kShown ?? doc.units.k;
   const kUnit = SUPPORTED_UNITS.rateConstant[order].find((u) => u.id === kId)?.label ?? kId;
   const TUnit = SUPPORTED_UNITS.temperature.find((u) => u.id === doc.units.T)?.label ?? doc.units.T;
+  const rangeId = r.rangeUnit ?? doc.units.T;
+  const rangeUnit = SUPPORTED_UNITS.temperature.find((u) => u.id === rangeId)?.label ?? rangeId;
   const eId = energyUnit ?? r.EaUnit;
   const EUnit = SUPPORTED_UNITS.energy.find((u) => u.id === eId)?.label ?? eId;
   const A = kShown ? displayConversion(() => convertRateConstant(r.A, doc.units.k, kShown, order)) : r.A;
@@ -79,7 +81,7 @@ export function ReportedExpression({
                 Valid
               </th>
               <td className="font-mono">{validRange(r.Tmin, r.Tmax)}</td>
-              <td className="pl-2 text-muted">{TUnit}</td>
+              <td className="pl-2 text-muted">{rangeUnit}</td>
             </tr>
           )}
         </tbody>

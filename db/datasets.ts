@@ -107,6 +107,13 @@ export const datasetVersions = pgTable(
      * versions only, and they join the species' names at publication: a draft never renames anything.
      */
     participantNames: jsonb().$type<{ speciesId: number; name: string }[]>().notNull().default([]),
+    /**
+     * The editor's latest document when it is not yet valid (an incomplete draft), with what is
+     * missing or wrong. Null when `payload` is the latest. The points, analysis and summary columns
+     * always describe the last valid document; a version is submitted only with both null.
+     */
+    draftDocument: jsonb().$type<Record<string, unknown>>(),
+    draftProblems: jsonb().$type<{ pointer: string; message: string }[]>(),
     lockVersion: integer().notNull().default(1),
     /** SHA-256 of the canonical payload, fixed at publication. */
     payloadSha256: text(),

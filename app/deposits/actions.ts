@@ -4,16 +4,27 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { protectedCall } from "@/lib/auth/action";
 import type { Transition } from "@/lib/curation/lifecycle";
-import { depositNewDataset, startNextVersion, transitionVersion, updateDraft } from "@/lib/datasets/deposits";
+import { depositNewDraft, getVersionForOrThrow, startNextVersion, transitionVersion, updateDraftFromEditor } from "@/lib/datasets/deposits";
+import { STALE_SAVE_MESSAGE } from "@/lib/datasets/queries";
 import { inviteCoEditor } from "@/lib/datasets/invitations";
 import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
 import { idFor, MAX_ID } from "@/lib/ids";
 
-/** Result of an editor action: either the saved state or every problem with its JSON pointer. */
+/** The draft as a co-editor saved it, returned with a save that lost the lock so the editor can offer a merge. */
+export interface LatestDraft {
+  lockVersion: number;
+  document: Record<string, unknown>;
+  problems: FieldError[];
+}
+
+/**
+ * Result of an editor action: either the saved state (with what still keeps the draft from being
+ * submitted: `problems`, empty when it is ready) or every problem with its JSON pointer.
+ */
 export type EditorResult =
-  | { ok: true; versionId: number; lockVersion: number; state: string }
-  | { ok: false; status: number; message: string; errors: FieldError[] };
+  | { ok: true; versionId: number; lockVersion: number; state: string; problems?: FieldError[] }
+  | { ok: false; status: number; message: string; errors: FieldError[]; latest?: LatestDraft };
 
 function failure(err: unknown): EditorResult {
   if (err instanceof AppError) return { ok: false, status: err.status, message: err.message, errors: err.errors };
@@ -32,23 +43,36 @@ const reasonSchema = z.string().max(5000, "Keep the reason under 5000 characters
 
 const createDraft = protectedCall(z.object({ documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
   // The text goes to an analysis worker, which parses and validates it off the request thread.
-  const v = await depositNewDataset({ actor: user, text: input.documentJson });
-  revalidatePath("/deposits");
-  return v;
+  // No revalidatePath here: it would re-render the page in the action's response, and once the
+  // editor has moved its address to the new draft that page is another route, whose editor would
+  // replace this one and drop whatever was typed since the save began.
+  return depositNewDraft({ actor: user, text: input.documentJson });
 });
 
 const saveDraft = protectedCall(
   z.object({ versionId: versionIdSchema, lockVersion, documentJson }).strict(),
   { permission: "dataset.deposit" },
   async (input, user) => {
-    const v = await updateDraft({
-      actor: user,
-      versionId: input.versionId,
-      expectedLockVersion: input.lockVersion,
-      text: input.documentJson,
-    });
-    revalidatePath(`/deposits/${input.versionId}`);
-    return v;
+    try {
+      const v = await updateDraftFromEditor({
+        actor: user,
+        versionId: input.versionId,
+        expectedLockVersion: input.lockVersion,
+        text: input.documentJson,
+      });
+      // The editor refreshes its page itself (see createDraft on why not revalidatePath).
+      return { saved: v };
+    } catch (err) {
+      if (!(err instanceof AppError) || err.message !== STALE_SAVE_MESSAGE) throw err;
+      // Someone saved first: their draft comes back with the refusal, for the merge.
+      const { version } = await getVersionForOrThrow({ versionId: input.versionId, actor: user, action: "edit" });
+      const latest: LatestDraft = {
+        lockVersion: version.lockVersion,
+        document: version.draftDocument ?? version.payload,
+        problems: version.draftProblems ?? [],
+      };
+      return { conflict: { error: err, latest } };
+    }
   },
 );
 
@@ -93,7 +117,7 @@ const startNext = protectedCall(
 export async function createDraftAction(documentJson: string): Promise<EditorResult> {
   try {
     const v = await createDraft({ documentJson });
-    return { ok: true, versionId: v.id, lockVersion: v.lockVersion, state: v.state };
+    return { ok: true, versionId: v.id, lockVersion: v.lockVersion, state: v.state, problems: v.draftProblems ?? [] };
   } catch (err) {
     return failure(err);
   }
@@ -102,8 +126,10 @@ export async function createDraftAction(documentJson: string): Promise<EditorRes
 /** Saves the editor's document over a draft, if nobody saved since `lockVersion`. */
 export async function saveDraftAction(versionId: number, lockVersion: number, documentJson: string): Promise<EditorResult> {
   try {
-    const v = await saveDraft({ versionId, lockVersion, documentJson });
-    return { ok: true, versionId: v.id, lockVersion: v.lockVersion, state: v.state };
+    const out = await saveDraft({ versionId, lockVersion, documentJson });
+    if (out.conflict) return { ...(failure(out.conflict.error) as Extract<EditorResult, { ok: false }>), latest: out.conflict.latest };
+    const v = out.saved!;
+    return { ok: true, versionId: v.id, lockVersion: v.lockVersion, state: v.state, problems: v.draftProblems ?? [] };
   } catch (err) {
     return failure(err);
   }

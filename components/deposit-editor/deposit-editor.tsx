@@ -1,8 +1,8 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useDeferredValue, useEffect, useMemo, useRef, useState } from "react";
-import { createDraftAction, saveDraftAction } from "@/app/deposits/actions";
+import { useCallback, useDeferredValue, useEffect, useMemo, useRef, useState } from "react";
+import { createDraftAction, saveDraftAction, type LatestDraft } from "@/app/deposits/actions";
 import type { VersionCapabilities } from "@/lib/curation/capabilities";
 import type { CoEditorRole } from "@/lib/curation/lifecycle";
 import type { DepositDocument } from "@/lib/deposits/types";
@@ -12,17 +12,22 @@ import { ConditionsSection } from "./conditions-section";
 import { CreditSection } from "./credit-section";
 import { DataSection } from "./data-section";
 import { EditorContextProvider, type EditorContextValue } from "./editor-context";
-import { ErrorSummary } from "./error-summary";
+import { conflictFields, mergeDocuments, type ConflictField, type Side } from "./conflict";
+import { ConflictPanel } from "./conflict-panel";
 import { blankForm, documentToForm, formToDocument, type EditorForm, type PersonDefaults } from "./form-model";
 import { LifecyclePanel, type DecisionView, type MemberView, type VersionView } from "./lifecycle-panel";
 import { LiveAnalysis } from "./live-analysis";
 import { MethodSection } from "./method-section";
-import { groupErrors, isWithin, pointRowOf, resolveFieldPointer, SECTIONS, sectionAnchor } from "./pointers";
+import { fieldId, groupErrors, isWithin, resolveFieldPointer, SECTIONS, sectionAnchor } from "./pointers";
 import { ReactionSection } from "./reaction-section";
 import { ReportedFitSection } from "./reported-fit-section";
-import { visibleRows, windowStartFor } from "./row-window";
-import { AUTOSAVE_DELAY_MS, CONFLICT_MESSAGE, saveStateWords, stateAfterFailure, type SaveResult, type SaveState } from "./save-status";
+import { readinessItems } from "./readiness";
+import { ReadinessPanel } from "./readiness-panel";
+import { windowStartFor } from "./row-window";
+import { AUTOSAVE_DELAY_MS, NEEDS_TITLE, saveStateWords, stateAfterFailure, type SaveResult, type SaveState } from "./save-status";
 import { SourceSection } from "./source-section";
+import { useLeaveGuard } from "./use-leave-guard";
+import { validityRangeWarning } from "./validity-range";
 import { REACTION_CHECK_CODES, type StoredCheck } from "./words";
 
 export type DepositEditorProps =
@@ -30,7 +35,10 @@ export type DepositEditorProps =
   | {
       mode: "existing";
       version: VersionView;
-      payload: DepositDocument;
+      /** The latest saved document: the draft document of an incomplete draft, else the payload. */
+      payload: DepositDocument | Record<string, unknown>;
+      /** What keeps the saved draft from being submitted (empty when it is ready). */
+      problems?: FieldError[];
       lockVersion: number;
       role: CoEditorRole | null;
       /** What this person may do to this version (lib/curation/capabilities.ts). */
@@ -40,7 +48,7 @@ export type DepositEditorProps =
       members: MemberView[];
     };
 
-function downloadJson(doc: DepositDocument, name: string) {
+function downloadJson(doc: unknown, name: string) {
   const url = URL.createObjectURL(new Blob([JSON.stringify(doc, null, 2)], { type: "application/json" }));
   const a = document.createElement("a");
   a.href = url;
@@ -50,15 +58,18 @@ function downloadJson(doc: DepositDocument, name: string) {
 }
 
 /**
- * The deposit editor: the document in sections, the live fit of its rows, saving (by hand, and by
- * itself three seconds after the last change to an existing draft) with optimistic locking, and —
- * for a stored version — where it is in its lifecycle.
+ * The deposit editor: the document in sections, the live fit of its rows, and saving. Every change
+ * saves itself (AUTOSAVE_DELAY_MS after the last keystroke, at once when focus leaves a field or the
+ * tab is hidden), complete or not, once the deposit has a title; what keeps it from being submitted
+ * is listed under "Not ready to submit". Saves are guarded by the lock version: when a co-editor
+ * saved first, the two drafts are compared field by field and merged as the person chooses. Leaving
+ * with unsaved changes asks first. For a stored version it also shows where it is in its lifecycle.
  */
 export function DepositEditor(props: DepositEditorProps) {
   const router = useRouter();
   const existing = props.mode === "existing" ? props : null;
   const editable = existing ? existing.capabilities.edit : true;
-  const versionId = existing?.version.id ?? null;
+  const [versionId, setVersionId] = useState<number | null>(existing?.version.id ?? null);
 
   const [form, setForm] = useState<EditorForm>(() =>
     existing ? documentToForm(existing.payload) : blankForm(props.mode === "new" ? props.person : undefined),
@@ -66,15 +77,24 @@ export function DepositEditor(props: DepositEditorProps) {
   const [revision, setRevision] = useState(0);
   const [savedRevision, setSavedRevision] = useState(0);
   const [attemptedRevision, setAttemptedRevision] = useState(0);
-  const [serverErrors, setServerErrors] = useState<FieldError[]>([]);
+  const [serverErrors, setServerErrors] = useState<FieldError[]>(existing?.problems ?? []);
   const [saveState, setSaveState] = useState<SaveState>({ kind: "idle" });
+  const [conflict, setConflict] = useState<{ latest: LatestDraft; fields: ConflictField[]; mine: Record<string, unknown> } | null>(null);
   const [windowStart, setWindowStart] = useState(0);
   const lockVersion = useRef(existing?.lockVersion ?? 0);
+  // The document as last loaded or saved: a merge proposes theirs where mine is still this.
+  const baseDocument = useRef<Record<string, unknown>>(
+    existing ? (formToDocument(form).document as unknown as Record<string, unknown>) : {},
+  );
   const inFlight = useRef(false);
-  const leaving = useRef(false);
-  const summaryRef = useRef<HTMLDivElement>(null);
-  const [summaryFocus, setSummaryFocus] = useState(0);
+  const readinessRef = useRef<HTMLDivElement>(null);
   const dirty = revision !== savedRevision;
+  const latestRevision = useRef(revision);
+  useEffect(() => {
+    latestRevision.current = revision;
+  });
+  const saving = saveState.kind === "saving";
+  const guard = useLeaveGuard(editable && (dirty || saving));
 
   const update = (change: (f: EditorForm) => EditorForm) => {
     setForm(change);
@@ -86,7 +106,8 @@ export function DepositEditor(props: DepositEditorProps) {
   const localProblems = useMemo(() => formToDocument(deferredForm).problems, [deferredForm]);
   const allErrors = useMemo(() => [...localProblems, ...serverErrors], [localProblems, serverErrors]);
   const grouped = useMemo(() => groupErrors(allErrors, form), [allErrors, form]);
-  const serverGrouped = useMemo(() => groupErrors(serverErrors, form), [serverErrors, form]);
+  const readiness = useMemo(() => readinessItems(allErrors, deferredForm), [allErrors, deferredForm]);
+  const rangeWarning = useMemo(() => validityRangeWarning(deferredForm), [deferredForm]);
 
   const context: EditorContextValue = {
     readOnly: !editable,
@@ -100,97 +121,128 @@ export function DepositEditor(props: DepositEditorProps) {
       }),
   };
 
-  async function save(auto: boolean) {
-    if (inFlight.current || !editable || saveState.kind === "conflict") return;
-    inFlight.current = true;
-    const rev = revision;
+  async function save(auto: boolean, over?: { form: EditorForm; lockVersion: number; revision: number }) {
+    if (inFlight.current || !editable || (conflict && !over)) return;
+    const current = over?.form ?? form;
+    const rev = over?.revision ?? revision;
     setAttemptedRevision(rev);
+    if (current.title.trim() === "") {
+      setSaveState({ kind: "failed", message: NEEDS_TITLE });
+      if (!auto) document.getElementById(fieldId("/title"))?.focus();
+      return;
+    }
+    inFlight.current = true;
     setSaveState({ kind: "saving", auto });
-    const json = JSON.stringify(formToDocument(form).document);
+    const sent = formToDocument(current).document as unknown as Record<string, unknown>;
+    const json = JSON.stringify(sent);
+    const lock = over?.lockVersion ?? lockVersion.current;
     let result: SaveResult;
     try {
-      result = versionId === null ? await createDraftAction(json) : await saveDraftAction(versionId, lockVersion.current, json);
+      result = versionId === null ? await createDraftAction(json) : await saveDraftAction(versionId, lock, json);
     } catch {
-      result = { ok: false, status: 0, message: "The server could not be reached. Your edits are still here; try again.", errors: [] };
+      result = {
+        ok: false,
+        status: 0,
+        message: "the server could not be reached; your edits are still here and will be sent again.",
+        errors: [],
+      };
     } finally {
       inFlight.current = false;
     }
     if (result.ok) {
       lockVersion.current = result.lockVersion;
+      baseDocument.current = sent;
+      setConflict(null);
       setSavedRevision(rev);
-      setServerErrors([]);
+      setServerErrors(result.problems ?? []);
       setSaveState({ kind: "saved", at: new Date() });
-      if (versionId === null) {
-        leaving.current = true;
-        router.replace(`/deposits/${result.versionId}`);
+      if (props.mode === "new") {
+        setVersionId(result.versionId);
+        if (!auto && latestRevision.current === rev) {
+          // Saved by hand with nothing typed since: move to the stored draft's own page (its
+          // lifecycle, checks and files). That page is another route, so this editor is replaced.
+          guard.allow();
+          router.replace(`/deposits/${result.versionId}`);
+        } else if (versionId === null) {
+          // The address names the stored draft at once (a reload finds it) without leaving this editor.
+          guard.replaceAddress(`/deposits/${result.versionId}`);
+        }
       } else {
         // New checks (identity, balance, fit) come with the refreshed page.
         router.refresh();
       }
       return;
     }
-    setServerErrors(result.status === 422 ? result.errors : []);
+    if (result.status === 409 && result.latest) {
+      const mine = sent;
+      const theirs = result.latest.document;
+      setConflict({ latest: result.latest, fields: conflictFields(baseDocument.current, mine, theirs), mine });
+      setSaveState({ kind: "conflict" });
+      return;
+    }
+    if (result.status === 422) setServerErrors(result.errors);
     setSaveState(stateAfterFailure(result, auto));
-    if (result.status === 422 && !auto) setSummaryFocus((n) => n + 1);
+    if (result.status === 422 && !auto) readinessRef.current?.focus();
   }
 
-  // A refused save the person asked for moves focus to the list of problems.
-  useEffect(() => {
-    if (summaryFocus > 0) summaryRef.current?.focus();
-  }, [summaryFocus]);
+  function merge(choices: Record<string, Side>) {
+    if (!conflict) return;
+    const merged = mergeDocuments(conflict.mine, conflict.latest.document, conflict.fields, choices);
+    const mergedForm = documentToForm(merged);
+    baseDocument.current = conflict.latest.document;
+    lockVersion.current = conflict.latest.lockVersion;
+    const rev = revision + 1;
+    setForm(mergedForm);
+    setRevision(rev);
+    setServerErrors(conflict.latest.problems);
+    void save(false, { form: mergedForm, lockVersion: conflict.latest.lockVersion, revision: rev });
+  }
 
-  // Autosave: an existing, editable draft saves itself once changes have rested; never after a conflict,
-  // and never twice for the same edits (a refused save waits for the next change).
+  // Autosave: once changes have rested, never during a conflict, and never twice for the same edits
+  // (a refused save waits for the next change).
   const saveRef = useRef(save);
   useEffect(() => {
     saveRef.current = save;
   });
-  // Numbers that cannot be read yet (often half-typed) would only be refused: autosave waits for them.
-  const autosave =
-    versionId !== null &&
-    editable &&
-    dirty &&
-    localProblems.length === 0 &&
-    revision !== attemptedRevision &&
-    saveState.kind !== "conflict" &&
-    saveState.kind !== "saving";
+  const autosave = editable && dirty && revision !== attemptedRevision && !conflict && !saving;
   useEffect(() => {
     if (!autosave) return;
     const timer = setTimeout(() => void saveRef.current(true), AUTOSAVE_DELAY_MS);
     return () => clearTimeout(timer);
   }, [autosave, revision]);
 
+  // Leaving a field or the tab saves at once (the timer may never fire on a closing tab).
+  const autosaveRef = useRef(autosave);
   useEffect(() => {
-    if (!dirty || !editable) return;
-    const warn = (e: BeforeUnloadEvent) => {
-      if (leaving.current) return;
-      e.preventDefault();
+    autosaveRef.current = autosave;
+  });
+  const flush = useCallback(() => {
+    if (autosaveRef.current) void saveRef.current(true);
+  }, []);
+  useEffect(() => {
+    const onHidden = () => {
+      if (document.visibilityState === "hidden") flush();
     };
-    window.addEventListener("beforeunload", warn);
-    return () => window.removeEventListener("beforeunload", warn);
-  }, [dirty, editable]);
+    document.addEventListener("visibilitychange", onHidden);
+    return () => document.removeEventListener("visibilitychange", onHidden);
+  }, [flush]);
 
-  const showRow = (row: number) => {
-    setWindowStart(windowStartFor(row));
-    requestAnimationFrame(() => document.getElementById(`field-points-${row}`)?.scrollIntoView({ block: "center" }));
-  };
-  const { from, to } = visibleRows(form.points.length, windowStart);
-  const hiddenRows = [
-    ...new Set(
-      serverErrors
-        .map((e) => pointRowOf(e.pointer))
-        .filter((r): r is number => r !== null && r < form.points.length && (r < from || r >= to)),
-    ),
-  ].sort((a, b) => a - b);
+  const showRow = (row: number) => setWindowStart(windowStartFor(row));
 
   const checks = existing?.checks ?? [];
   const reactionChecks = checks.filter((c) => REACTION_CHECK_CODES.has(c.code));
-  const waiting = versionId !== null && dirty && localProblems.length > 0 && (saveState.kind === "idle" || saveState.kind === "saved");
-  const status = `${saveStateWords(saveState, dirty)}${waiting ? " Autosave waits until every number can be read." : ""}`;
+  const status = saveStateWords(saveState, dirty);
 
   return (
     <EditorContextProvider value={context}>
-      <div className="space-y-6">
+      <div
+        className="space-y-6"
+        onBlur={(e) => {
+          // Focus moving between two inputs of the editor counts too: each field left is saved.
+          if (e.target instanceof HTMLInputElement || e.target instanceof HTMLTextAreaElement || e.target instanceof HTMLSelectElement)
+            flush();
+        }}
+      >
         {existing && (
           <LifecyclePanel
             version={existing.version}
@@ -200,6 +252,7 @@ export function DepositEditor(props: DepositEditorProps) {
             decisions={existing.decisions}
             members={existing.members}
             dirty={dirty}
+            notReady={readiness.length}
           />
         )}
 
@@ -212,66 +265,36 @@ export function DepositEditor(props: DepositEditorProps) {
         )}
 
         {editable && (
-          <div className="sticky top-0 z-20 -mx-2 flex flex-wrap items-center gap-3 border-b border-line bg-paper/95 px-2 py-3 backdrop-blur-sm">
-            <button
-              type="button"
-              className="btn-primary"
-              onClick={() => void save(false)}
-              disabled={saveState.kind === "saving" || saveState.kind === "conflict"}
-            >
-              {saveState.kind === "saving" ? "Saving…" : "Save draft"}
+          <div className="sticky top-0 z-20 -mx-2 flex flex-wrap items-center gap-x-3 gap-y-1 border-b border-line bg-paper/95 px-2 py-3 backdrop-blur-sm">
+            <button type="button" className="btn-primary" onClick={() => void save(false)} disabled={saving || conflict !== null}>
+              {saving ? "Saving…" : "Save draft"}
             </button>
-            <p role="status" aria-live="polite" className="text-sm text-muted">
+            <p role="status" aria-live="polite" className="min-w-0 text-sm text-muted" data-testid="save-status">
               {status}
             </p>
-            {versionId !== null && (
-              <p className="ml-auto text-xs text-muted">Drafts save themselves a few seconds after you stop typing.</p>
-            )}
+            <p className="text-xs text-muted md:ml-auto">Every change is saved as you type, once the deposit has a title.</p>
           </div>
         )}
 
-        {saveState.kind === "conflict" && (
-          <div role="alert" className="space-y-3 rounded-lg border-2 border-error/60 bg-panel p-4 text-sm">
-            <p className="font-semibold text-error">{CONFLICT_MESSAGE}</p>
-            {saveState.detail && <p>{saveState.detail}</p>}
-            <div className="flex flex-wrap gap-3">
-              <button
-                type="button"
-                className="btn-primary"
-                onClick={() => {
-                  leaving.current = true;
-                  window.location.reload();
-                }}
-              >
-                Reload
-              </button>
-              <button
-                type="button"
-                className="btn-secondary"
-                onClick={() => downloadJson(formToDocument(form).document, `deposit-${versionId ?? "new"}-my-edits.json`)}
-              >
-                Download my edits (JSON)
-              </button>
-            </div>
-          </div>
+        {conflict && (
+          <ConflictPanel
+            key={conflict.latest.lockVersion}
+            fields={conflict.fields}
+            saving={saving}
+            onMerge={merge}
+            onDownloadMine={() => downloadJson(conflict.mine, `deposit-${versionId ?? "new"}-my-edits.json`)}
+          />
         )}
 
-        {saveState.kind === "failed" && (
+        {saveState.kind === "failed" && saveState.message !== NEEDS_TITLE && (
           <p role="alert" className="rounded-md border border-error/40 bg-panel px-3 py-2 text-sm text-error">
-            {saveState.message}
+            Not saved: {saveState.message}
           </p>
         )}
 
-        {saveState.kind === "invalid" && serverErrors.length > 0 && (
-          <ErrorSummary
-            ref={summaryRef}
-            message={saveState.message}
-            errors={serverErrors}
-            grouped={serverGrouped}
-            hiddenRows={hiddenRows}
-            onShowRow={showRow}
-            announce={!saveState.auto}
-          />
+        {editable && readiness.length > 0 && <ReadinessPanel ref={readinessRef} items={readiness} onShowRow={showRow} />}
+        {editable && versionId !== null && readiness.length === 0 && !dirty && saveState.kind !== "saving" && (
+          <p className="text-sm text-muted">Nothing is missing: the saved draft is ready to submit.</p>
         )}
 
         <nav aria-label="Sections of the deposit" className="text-sm">
@@ -293,19 +316,14 @@ export function DepositEditor(props: DepositEditorProps) {
         <ConditionsSection form={form} update={update} />
         <DataSection form={form} update={update} windowStart={windowStart} onWindowStart={setWindowStart} />
         <LiveAnalysis form={deferredForm} />
-        <ReportedFitSection form={form} update={update} />
+        <ReportedFitSection form={form} update={update} rangeWarning={rangeWarning} />
         <SourceSection form={form} update={update} />
         <CreditSection form={form} update={update} />
 
         {editable && (
           <div className="flex flex-wrap items-center gap-3">
-            <button
-              type="button"
-              className="btn-primary"
-              onClick={() => void save(false)}
-              disabled={saveState.kind === "saving" || saveState.kind === "conflict"}
-            >
-              {saveState.kind === "saving" ? "Saving…" : "Save draft"}
+            <button type="button" className="btn-primary" onClick={() => void save(false)} disabled={saving || conflict !== null}>
+              {saving ? "Saving…" : "Save draft"}
             </button>
             <p className="text-sm text-muted" aria-hidden="true">
               {status}

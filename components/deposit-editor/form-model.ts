@@ -100,6 +100,8 @@ export interface EditorForm {
     T0: string;
     Tmin: string;
     Tmax: string;
+    /** Unit of Tmin and Tmax, chosen beside them (K by default, whatever units.T is). */
+    rangeUnit: string;
   };
   source: {
     doi: string;
@@ -161,7 +163,18 @@ export function blankForm(person?: PersonDefaults): EditorForm {
     conditions: { pressureMode: "none", pressure: "", pressureMin: "", pressureMax: "", bathGas: "", notes: "" },
     units: { k: getCanonicalRateConstantUnit(2), T: "K", pressure: "Torr" },
     points: [],
-    reportedFit: { enabled: false, model: "arrhenius", A: "", n: "", Ea: "", EaUnit: "kJ mol-1", T0: "", Tmin: "", Tmax: "" },
+    reportedFit: {
+      enabled: false,
+      model: "arrhenius",
+      A: "",
+      n: "",
+      Ea: "",
+      EaUnit: "kJ mol-1",
+      T0: "",
+      Tmin: "",
+      Tmax: "",
+      rangeUnit: "K",
+    },
     source: { doi: "", locator: "", refType: "article-journal", refTitle: "", refAuthors: "", refJournal: "", refYear: "", refExtra: {} },
     relatedIdentifiers: [],
   };
@@ -176,18 +189,21 @@ function text(s: string | undefined | null): string {
   return s ?? "";
 }
 
-function speciesToRow(s: { name?: string; smiles?: string; inchi?: string; coefficient?: number }): SpeciesRow {
+type SpeciesLike = { name?: string; smiles?: string; inchi?: string; coefficient?: number };
+
+function speciesToRow(s: SpeciesLike): SpeciesRow {
   return { name: text(s.name), smiles: text(s.smiles), inchi: text(s.inchi), coefficient: numberText(s.coefficient) };
 }
 
 export function pointToRow(p: DepositPoint): PointRow {
+  // loose(): an incomplete draft may keep a cell as the text its author typed.
   return {
-    T: numberText(p.T),
-    k: numberText(p.k),
-    u: numberText(p.uncertainty?.value),
+    T: loose(p.T),
+    k: loose(p.k),
+    u: loose(p.uncertainty?.value),
     uKind: p.uncertainty?.kind ?? "absolute",
     uConfidence: p.uncertainty?.confidence ?? "",
-    pressure: numberText(p.pressure),
+    pressure: loose(p.pressure),
     bathGas: text(p.bathGas),
     note: text(p.note),
   };
@@ -199,75 +215,105 @@ function authorText(a: { family?: string; given?: string; literal?: string }): s
 
 const REFERENCE_FIELDS = new Set(["type", "title", "author", "container-title"]);
 
-/** Loads a stored (valid) document into the form. */
-export function documentToForm(doc: DepositDocument): EditorForm {
+/** A stored document that may be incomplete (a draft saved before it was valid): any part may be missing. */
+type StoredDocument = DepositDocument | Record<string, unknown>;
+
+/** Text of a value the form shows in a text field: numbers and strings as they are, anything else blank. */
+function loose(v: unknown): string {
+  return typeof v === "string" ? v : typeof v === "number" ? String(v) : "";
+}
+
+function list<T>(v: unknown): T[] {
+  return Array.isArray(v) ? (v as T[]) : [];
+}
+
+/** Loads a stored document into the form; parts an incomplete draft lacks come from the blank form. */
+export function documentToForm(stored: StoredDocument): EditorForm {
+  // Every part is read defensively: an incomplete draft may hold anything its author typed.
+  const doc = stored as Partial<DepositDocument> & { [key: string]: unknown };
   const blank = blankForm();
   const pressure = doc.conditions?.pressure;
-  const ref = doc.source.reference;
+  const ref = doc.source?.reference;
   const refExtra: Record<string, unknown> = {};
   if (ref) for (const [key, value] of Object.entries(ref)) if (!REFERENCE_FIELDS.has(key)) refExtra[key] = value;
   const fit = doc.reportedFit;
+  const rx: Partial<DepositDocument["reaction"]> = doc.reaction ?? {};
+  const method: Partial<DepositDocument["method"]> = doc.method ?? {};
   return {
     schemaRef: doc.$schema,
-    title: doc.title,
-    description: doc.description,
-    keywords: (doc.keywords ?? []).join(", "),
+    title: loose(doc.title),
+    description: loose(doc.description),
+    keywords: list<string>(doc.keywords).join(", "),
     license: doc.license ?? DEFAULT_LICENCE,
-    creators: doc.creators.map((c) => ({ name: c.name, orcid: text(c.orcid), affiliation: text(c.affiliation) })),
-    funding: (doc.funding ?? []).map((f) => ({ funder: f.funder, awardId: text(f.awardId), awardTitle: text(f.awardTitle) })),
+    creators: list<Partial<DepositDocument["creators"][number]>>(doc.creators).map((c) => ({
+      name: loose(c.name),
+      orcid: loose(c.orcid),
+      affiliation: loose(c.affiliation),
+    })),
+    funding: list<Partial<NonNullable<DepositDocument["funding"]>[number]>>(doc.funding).map((f) => ({
+      funder: loose(f.funder),
+      awardId: loose(f.awardId),
+      awardTitle: loose(f.awardTitle),
+    })),
     reaction: {
-      reactants: doc.reaction.reactants.map(speciesToRow),
-      products: doc.reaction.products.map(speciesToRow),
-      productsUnknown: doc.reaction.productsUnknown !== undefined,
-      productsUnknownReason: text(doc.reaction.productsUnknown?.reason),
-      class: doc.reaction.class,
-      order: doc.reaction.order,
-      phase: doc.reaction.phase,
-      solventName: text(doc.reaction.solvent?.name),
-      solventSmiles: text(doc.reaction.solvent?.smiles),
-      solventInchi: text(doc.reaction.solvent?.inchi),
-      surface: text(doc.reaction.surface),
+      reactants: list<SpeciesLike>(rx.reactants).map(speciesToRow),
+      products: list<SpeciesLike>(rx.products).map(speciesToRow),
+      productsUnknown: rx.productsUnknown !== undefined,
+      productsUnknownReason: loose(rx.productsUnknown?.reason),
+      class: rx.class ?? blank.reaction.class,
+      order: rx.order ?? blank.reaction.order,
+      phase: rx.phase ?? blank.reaction.phase,
+      solventName: loose(rx.solvent?.name),
+      solventSmiles: loose(rx.solvent?.smiles),
+      solventInchi: loose(rx.solvent?.inchi),
+      surface: loose(rx.surface),
     },
     method: {
-      category: doc.method.category,
-      technique: doc.method.technique,
-      detection: text(doc.method.detection),
-      notes: text(doc.method.notes),
+      category: method.category ?? "",
+      technique: loose(method.technique),
+      detection: loose(method.detection),
+      notes: loose(method.notes),
     },
     conditions: {
       pressureMode: pressure === undefined ? "none" : pressure.value !== undefined ? "single" : "range",
-      pressure: numberText(pressure?.value),
-      pressureMin: numberText(pressure?.min),
-      pressureMax: numberText(pressure?.max),
-      bathGas: text(doc.conditions?.bathGas),
-      notes: text(doc.conditions?.notes),
+      pressure: loose(pressure?.value),
+      pressureMin: loose(pressure?.min),
+      pressureMax: loose(pressure?.max),
+      bathGas: loose(doc.conditions?.bathGas),
+      notes: loose(doc.conditions?.notes),
     },
-    units: { k: doc.units.k, T: doc.units.T, pressure: doc.units.pressure ?? blank.units.pressure },
-    points: doc.points.map(pointToRow),
+    units: { k: doc.units?.k ?? blank.units.k, T: doc.units?.T ?? blank.units.T, pressure: doc.units?.pressure ?? blank.units.pressure },
+    points: list<DepositPoint>(doc.points).map(pointToRow),
     reportedFit: fit
       ? {
           enabled: true,
-          model: fit.model,
-          A: numberText(fit.A),
-          n: numberText(fit.n),
-          Ea: numberText(fit.Ea),
-          EaUnit: fit.EaUnit,
-          T0: numberText(fit.T0),
-          Tmin: numberText(fit.Tmin),
-          Tmax: numberText(fit.Tmax),
+          model: fit.model ?? blank.reportedFit.model,
+          A: loose(fit.A),
+          n: loose(fit.n),
+          Ea: loose(fit.Ea),
+          EaUnit: fit.EaUnit ?? blank.reportedFit.EaUnit,
+          T0: loose(fit.T0),
+          Tmin: loose(fit.Tmin),
+          Tmax: loose(fit.Tmax),
+          // A document without a range unit gives its range in units.T (the format's rule before the unit existed).
+          rangeUnit: fit.rangeUnit ?? doc.units?.T ?? "K",
         }
       : blank.reportedFit,
     source: {
-      doi: text(doc.source.doi),
-      locator: text(doc.source.locator),
+      doi: loose(doc.source?.doi),
+      locator: loose(doc.source?.locator),
       refType: ref?.type ?? blank.source.refType,
-      refTitle: text(ref?.title),
-      refAuthors: (ref?.author ?? []).map(authorText).join("; "),
-      refJournal: text(ref?.["container-title"]),
-      refYear: numberText(ref?.issued?.["date-parts"]?.[0]?.[0]),
+      refTitle: loose(ref?.title),
+      refAuthors: list<{ family?: string; given?: string; literal?: string }>(ref?.author).map(authorText).join("; "),
+      refJournal: loose(ref?.["container-title"]),
+      refYear: loose(ref?.issued?.["date-parts"]?.[0]?.[0]),
       refExtra,
     },
-    relatedIdentifiers: (doc.relatedIdentifiers ?? []).map((r) => ({ kind: r.kind, identifier: r.identifier, relation: r.relation })),
+    relatedIdentifiers: list<Partial<RelatedRow>>(doc.relatedIdentifiers).map((r) => ({
+      kind: r.kind ?? "doi",
+      identifier: loose(r.identifier),
+      relation: r.relation ?? "described_by",
+    })),
   };
 }
 
@@ -442,6 +488,7 @@ export function formToDocument(form: EditorForm): { document: DepositDocument; p
     put(fit, "T0", r.number(f.T0, "/reportedFit/T0"));
     put(fit, "Tmin", r.number(f.Tmin, "/reportedFit/Tmin"));
     put(fit, "Tmax", r.number(f.Tmax, "/reportedFit/Tmax"));
+    if (fit.Tmin !== undefined || fit.Tmax !== undefined) fit.rangeUnit = f.rangeUnit;
     doc.reportedFit = fit;
   }
 

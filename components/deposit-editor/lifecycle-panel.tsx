@@ -43,6 +43,8 @@ interface Props {
   members: MemberView[];
   /** Unsaved edits: submitting sends the saved draft, so they must be saved first. */
   dirty: boolean;
+  /** Problems that keep the saved draft from being submitted (listed under "Not ready to submit"). */
+  notReady: number;
 }
 
 const STATE_EXPLAINED: Record<string, string> = {
@@ -60,14 +62,14 @@ function utc(iso: string): string {
 }
 
 /** Where the version is in its lifecycle, what the owner can do next, and what curators said. */
-export function LifecyclePanel({ version, role, capabilities, checks, decisions, members, dirty }: Props) {
+export function LifecyclePanel({ version, role, capabilities, checks, decisions, members, dirty, notReady }: Props) {
   const router = useRouter();
   const [pending, startTransition] = useTransition();
   const [outcome, setOutcome] = useState<{ ok: boolean; message: string } | null>(null);
   const blocking = blockingChecks(checks);
   const canSubmit = capabilities.submit;
   const canWithdraw = capabilities.withdraw;
-  const submitBlocked = blocking.length > 0 || dirty;
+  const submitBlocked = blocking.length > 0 || dirty || notReady > 0;
 
   function run(transition: Transition, done: string) {
     setOutcome(null);
@@ -162,6 +164,12 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
           {canSubmit && submitBlocked && (
             <div id="submit-blocked" className="space-y-2 text-sm">
               {dirty && <p>Save your changes first: submitting sends the saved draft.</p>}
+              {notReady > 0 && (
+                <p>
+                  The draft is not ready to submit: <a href="#readiness">{notReady === 1 ? "1 problem" : `${notReady} problems`}</a> to
+                  correct first.
+                </p>
+              )}
               {blocking.length > 0 && (
                 <>
                   <p>Submitting needs these checks of the last save resolved:</p>

@@ -60,7 +60,7 @@ const RULES: Rule[] = [
   [/^\/units\/(k|T)$/, always],
   [/^\/points$/, always],
   [/^\/points\/(\d+)(\/(T|k|uncertainty|note|pressure|bathGas))?$/, within((f) => f.points)],
-  [/^\/reportedFit(\/(model|A|Ea|EaUnit|Tmin|Tmax))?$/, (f) => f.reportedFit.enabled],
+  [/^\/reportedFit(\/(model|A|Ea|EaUnit|Tmin|Tmax|rangeUnit))?$/, (f) => f.reportedFit.enabled],
   [/^\/reportedFit\/n$/, (f) => f.reportedFit.enabled && f.reportedFit.model === "modified_arrhenius"],
   [/^\/reportedFit\/T0$/, (f) => f.reportedFit.enabled && (f.reportedFit.model === "modified_arrhenius" || f.reportedFit.T0.trim() !== "")],
   [/^\/source\/(doi|locator)$/, always],

@@ -4,11 +4,11 @@ import { PHASES, REACTION_CLASSES } from "@/lib/deposits/vocabulary";
 import { SUPPORTED_UNITS, getCanonicalRateConstantUnit } from "@/lib/kinetics/units";
 import type { ReactionOrder } from "@/lib/kinetics/types";
 import { CheckList } from "./check-list";
-import { useEditorContext } from "./editor-context";
-import { CheckboxField, GroupMessages, NumberField, Section, SelectField, SubGroup, TextField } from "./fields";
+import { CheckboxField, NumberField, Section, SelectField, SubGroup, TextField } from "./fields";
 import { blankSpecies, type EditorForm, type SpeciesRow } from "./form-model";
+import { ListEditor } from "./list-editor";
 import { sectionAnchor } from "./pointers";
-import { removeAt, replaceAt, type SectionProps } from "./section-props";
+import type { SectionProps } from "./section-props";
 import type { StoredCheck } from "./words";
 import { SpeciesPreview } from "./species-preview";
 
@@ -41,79 +41,53 @@ export function withOrder(form: EditorForm, order: ReactionOrder): EditorForm {
 }
 
 function SpeciesList({ side, form, update }: SectionProps & { side: Side }) {
-  const { readOnly, clearErrors } = useEditorContext();
-  const rows = form.reaction[side];
   const noun = side === "reactants" ? "Reactant" : "Product";
-  const set = (i: number, patch: Partial<SpeciesRow>) =>
-    update((f) => ({ ...f, reaction: { ...f.reaction, [side]: replaceAt(f.reaction[side], i, (s) => ({ ...s, ...patch })) } }));
   return (
-    <SubGroup legend={side === "reactants" ? "Reactants" : "Products"}>
-      <GroupMessages pointer={`/reaction/${side}`} />
-      {rows.length === 0 && <p className="text-sm text-muted">None listed.</p>}
-      <ol className="space-y-3">
-        {rows.map((s, i) => (
-          <li key={i} className="grid items-start gap-3 md:grid-cols-[1fr_1fr_1.3fr_5rem_auto]">
-            <TextField
-              pointer={`/reaction/${side}/${i}/name`}
-              label={`${noun} ${i + 1}: name`}
-              value={s.name}
-              onChange={(v) => set(i, { name: v })}
-              placeholder="e.g. hydroxyl radical"
-            />
-            <TextField
-              pointer={`/reaction/${side}/${i}/smiles`}
-              label={`${noun} ${i + 1}: SMILES`}
-              value={s.smiles}
-              onChange={(v) => set(i, { smiles: v })}
-              placeholder="e.g. [OH]"
-              mono
-            />
-            <TextField
-              pointer={`/reaction/${side}/${i}/inchi`}
-              label={`${noun} ${i + 1}: InChI`}
-              value={s.inchi}
-              onChange={(v) => set(i, { inchi: v })}
-              placeholder="InChI=1S/…"
-              mono
-            />
-            <NumberField
-              pointer={`/reaction/${side}/${i}/coefficient`}
-              label={`${noun} ${i + 1}: how many`}
-              value={s.coefficient}
-              onChange={(v) => set(i, { coefficient: v })}
-            />
-            {!readOnly && (
-              <button
-                type="button"
-                className="btn-secondary md:mt-6"
-                onClick={() => {
-                  clearErrors(`/reaction/${side}`);
-                  update((f) => ({ ...f, reaction: { ...f.reaction, [side]: removeAt(f.reaction[side], i) } }));
-                }}
-              >
-                Remove
-                <span className="sr-only">
-                  {" "}
-                  {noun.toLowerCase()} {i + 1}
-                </span>
-              </button>
-            )}
-            <div className="md:col-span-5">
-              <SpeciesPreview smiles={s.smiles} inchi={s.inchi} />
-            </div>
-          </li>
-        ))}
-      </ol>
-      {!readOnly && (
-        <button
-          type="button"
-          className="btn-secondary"
-          onClick={() => update((f) => ({ ...f, reaction: { ...f.reaction, [side]: [...f.reaction[side], blankSpecies()] } }))}
-        >
-          Add a {noun.toLowerCase()}
-        </button>
+    <ListEditor
+      legend={side === "reactants" ? "Reactants" : "Products"}
+      pointer={`/reaction/${side}`}
+      rows={form.reaction[side]}
+      updateRows={(change) => update((f) => ({ ...f, reaction: { ...f.reaction, [side]: change(f.reaction[side]) } }))}
+      blank={blankSpecies}
+      noun={noun.toLowerCase()}
+      addLabel={`Add a ${noun.toLowerCase()}`}
+      empty={<p className="text-sm text-muted">None listed.</p>}
+      columns="md:grid-cols-[1fr_1fr_1.3fr_5rem_auto]"
+      renderRow={(s, i, set) => (
+        <>
+          <TextField
+            pointer={`/reaction/${side}/${i}/name`}
+            label={`${noun} ${i + 1}: name`}
+            value={s.name}
+            onChange={(v) => set({ name: v })}
+            placeholder="e.g. hydroxyl radical"
+          />
+          <TextField
+            pointer={`/reaction/${side}/${i}/smiles`}
+            label={`${noun} ${i + 1}: SMILES`}
+            value={s.smiles}
+            onChange={(v) => set({ smiles: v })}
+            placeholder="e.g. [OH]"
+            mono
+          />
+          <TextField
+            pointer={`/reaction/${side}/${i}/inchi`}
+            label={`${noun} ${i + 1}: InChI`}
+            value={s.inchi}
+            onChange={(v) => set({ inchi: v })}
+            placeholder="InChI=1S/…"
+            mono
+          />
+          <NumberField
+            pointer={`/reaction/${side}/${i}/coefficient`}
+            label={`${noun} ${i + 1}: how many`}
+            value={s.coefficient}
+            onChange={(v) => set({ coefficient: v })}
+          />
+        </>
       )}
-    </SubGroup>
+      renderBelow={(s) => <SpeciesPreview smiles={s.smiles} inchi={s.inchi} />}
+    />
   );
 }
 

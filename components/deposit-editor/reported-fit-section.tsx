@@ -7,11 +7,12 @@ import type { EditorForm } from "./form-model";
 import { sectionAnchor } from "./pointers";
 import type { SectionProps } from "./section-props";
 
-export function ReportedFitSection({ form, update }: SectionProps) {
+export function ReportedFitSection({ form, update, rangeWarning }: SectionProps & { rangeWarning?: string | null }) {
   const r = form.reportedFit;
   const set = (patch: Partial<EditorForm["reportedFit"]>) => update((f) => ({ ...f, reportedFit: { ...f.reportedFit, ...patch } }));
   const kLabel = SUPPORTED_UNITS.rateConstant[form.reaction.order].find((u) => u.id === form.units.k)?.label ?? form.units.k;
   const TLabel = SUPPORTED_UNITS.temperature.find((u) => u.id === form.units.T)?.label ?? form.units.T;
+  const rangeLabel = SUPPORTED_UNITS.temperature.find((u) => u.id === r.rangeUnit)?.label ?? r.rangeUnit;
   const modified = r.model === "modified_arrhenius";
   return (
     <Section
@@ -65,10 +66,37 @@ export function ReportedFitSection({ form, update }: SectionProps) {
               options={SUPPORTED_UNITS.energy.map((u) => ({ value: u.id, label: u.label }))}
             />
           </div>
-          <div className="grid gap-4 md:grid-cols-3">
-            <NumberField pointer="/reportedFit/Tmin" label={`Valid from (${TLabel})`} value={r.Tmin} onChange={(v) => set({ Tmin: v })} />
-            <NumberField pointer="/reportedFit/Tmax" label={`Valid up to (${TLabel})`} value={r.Tmax} onChange={(v) => set({ Tmax: v })} />
-          </div>
+          <fieldset className="space-y-2">
+            <legend className="text-sm font-medium">Temperatures the authors say it is valid for</legend>
+            <div className="grid gap-4 md:grid-cols-3">
+              <NumberField
+                pointer="/reportedFit/Tmin"
+                label={`Valid from (${rangeLabel})`}
+                value={r.Tmin}
+                onChange={(v) => set({ Tmin: v })}
+              />
+              <NumberField
+                pointer="/reportedFit/Tmax"
+                label={`Valid up to (${rangeLabel})`}
+                value={r.Tmax}
+                onChange={(v) => set({ Tmax: v })}
+              />
+              <SelectField
+                pointer="/reportedFit/rangeUnit"
+                label="Unit of the valid range"
+                value={r.rangeUnit}
+                onChange={(v) => set({ rangeUnit: v })}
+                options={SUPPORTED_UNITS.temperature.map((u) => ({ value: u.id, label: u.label }))}
+                hint={`Papers usually give it in K; independent of the data's unit (${TLabel}).`}
+              />
+            </div>
+            {rangeWarning && (
+              <p id="reported-range-warning" role="status" className="rounded-md border border-warn/60 bg-panel px-3 py-2 text-sm">
+                <span className="font-semibold">Check the valid range: </span>
+                {rangeWarning}
+              </p>
+            )}
+          </fieldset>
         </>
       )}
     </Section>

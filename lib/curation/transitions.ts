@@ -58,6 +58,7 @@ export async function applyTransition({
         state: datasetVersions.state,
         payload: datasetVersions.payload,
         participantNames: datasetVersions.participantNames,
+        draftProblems: datasetVersions.draftProblems,
       })
       .from(datasetVersions)
       .where(eq(datasetVersions.id, versionId))
@@ -71,6 +72,15 @@ export async function applyTransition({
       .where(and(eq(datasetMembers.datasetId, version.datasetId), eq(datasetMembers.userId, actorId)));
     const datasetRole: CoEditorRole | null = membership?.role ?? null;
     const to = planTransition(version.state, transition, { role: actor.role as Role, datasetRole }, reason);
+    // Only a valid document is submitted: an incomplete draft lists what it still needs.
+    if (transition === "submit" && version.draftProblems) {
+      const n = version.draftProblems.length;
+      throw new AppError(
+        "validation_failed",
+        `The draft is not ready to submit: ${n} problem${n === 1 ? "" : "s"} to correct first`,
+        version.draftProblems,
+      );
+    }
     const now = new Date();
     const outcome: TransitionOutcome = { versionId, datasetId: version.datasetId, from: version.state, to };
 

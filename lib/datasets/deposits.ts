@@ -5,11 +5,11 @@ import { applyTransition, type TransitionOutcome } from "@/lib/curation/transiti
 import { AppError } from "@/lib/errors";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
-import { describeUnstorableText } from "@/lib/storable-text";
+import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
 import { decisionMail, submissionMail } from "@/lib/mail/templates";
 import type { Transaction } from "@/db/client";
 import { listActiveCurators, type UserDto } from "@/lib/users/queries";
-import { prepareDepositBytesOrThrow, prepareDepositOrThrow, prepareDepositTextOrThrow } from "./prepare";
+import { prepareDepositBytesOrThrow, prepareDepositOrThrow, prepareDepositTextOrThrow, type PreparedDeposit } from "./prepare";
 
 /**
  * A deposit document parsed, or still as the JSON text or the UTF-8 bytes of a request body
@@ -24,7 +24,50 @@ function prepareSource(source: DocumentSource) {
   if (source.bytes !== undefined) return prepareDepositBytesOrThrow(source.bytes);
   return source.text !== undefined ? prepareDepositTextOrThrow(source.text) : prepareDepositOrThrow(source.document);
 }
-import { createDatasetDraft, createNextVersion, getVersionWithRole, listDatasetMembers, saveDraft, type VersionDto } from "./queries";
+import {
+  createDatasetDraft,
+  createNextVersion,
+  getVersionWithRole,
+  listDatasetMembers,
+  saveDraft,
+  type IncompleteDraft,
+  type VersionDto,
+} from "./queries";
+
+/** The problems an incomplete draft keeps (the first ones; the editor shows them all again on the next save). */
+const MAX_KEPT_PROBLEMS = 200;
+
+/**
+ * The editor's document, prepared if valid; otherwise, when it has a title and nothing PostgreSQL
+ * cannot store, kept as an incomplete draft with its problems. Malformed JSON, a missing title and
+ * unstorable text are still refused (422), so nothing half-readable is stored.
+ */
+async function prepareDraftText(
+  text: string,
+): Promise<{ prepared: PreparedDeposit; incomplete?: undefined } | { incomplete: IncompleteDraft & { title: string } }> {
+  try {
+    return { prepared: await prepareDepositTextOrThrow(text) };
+  } catch (err) {
+    if (!(err instanceof AppError) || err.code !== "validation_failed") throw err;
+    let doc: unknown;
+    try {
+      // The worker found the text readable; an editor's draft is parsed here only when it is incomplete.
+      doc = JSON.parse(text);
+    } catch {
+      throw err;
+    }
+    if (doc === null || typeof doc !== "object" || Array.isArray(doc)) throw err;
+    const title = (doc as { title?: unknown }).title;
+    if (typeof title !== "string" || title.trim() === "")
+      throw new AppError("validation_failed", "Give the deposit a title to save it; everything else can be completed later.", [
+        { pointer: "/title", message: "A draft is saved once it has a title." },
+      ]);
+    const unstorable = findUnstorableText(doc, MAX_KEPT_PROBLEMS);
+    if (unstorable.length) throw new AppError("validation_failed", `The draft cannot be stored: ${unstorable[0].message}`, unstorable);
+    const problems = err.errors.slice(0, MAX_KEPT_PROBLEMS).map(({ pointer, message }) => ({ pointer, message }));
+    return { incomplete: { document: doc as Record<string, unknown>, problems, title: title.trim() } };
+  }
+}
 
 /** Work that commits or rolls back with the change (an Idempotency-Key's record). */
 type BeforeCommit<T> = (tx: Transaction, created: T) => Promise<void>;
@@ -35,7 +78,10 @@ export async function depositNewDataset({
   beforeCommit,
   ...source
 }: { actor: UserDto; beforeCommit?: BeforeCommit<VersionDto> } & DocumentSource) {
-  const prepared = await prepareSource(source);
+  return depositPrepared(actor, await prepareSource(source), beforeCommit);
+}
+
+function depositPrepared(actor: UserDto, prepared: PreparedDeposit, beforeCommit?: BeforeCommit<VersionDto>) {
   return createDatasetDraft({
     ownerId: actor.id,
     title: prepared.title,
@@ -47,16 +93,7 @@ export async function depositNewDataset({
   });
 }
 
-/** Replaces a draft's document (owner or editor), guarded by the lock version the editor loaded. */
-export async function updateDraft({
-  actor,
-  versionId,
-  expectedLockVersion,
-  ...source
-}: { actor: UserDto; versionId: number; expectedLockVersion: number } & DocumentSource) {
-  await getVersionForOrThrow({ versionId, actor, action: "edit" });
-  // Prepared before the save: a failed upload leaves the draft exactly as it was.
-  const prepared = await prepareSource(source);
+function savePrepared(actor: UserDto, versionId: number, expectedLockVersion: number, prepared: PreparedDeposit) {
   return saveDraft({
     versionId,
     actorId: actor.id,
@@ -67,6 +104,48 @@ export async function updateDraft({
     analysis: prepared.analysis,
     reaction: prepared.reaction,
   });
+}
+
+/**
+ * The editor's save of a new deposit: a valid document as depositNewDataset stores it, an
+ * incomplete one (with a title) as a draft with its problems and no rows.
+ */
+export async function depositNewDraft({ actor, text }: { actor: UserDto; text: string }) {
+  const out = await prepareDraftText(text);
+  if (!out.incomplete) return depositPrepared(actor, out.prepared);
+  const { title, ...incomplete } = out.incomplete;
+  return createDatasetDraft({ ownerId: actor.id, title, payload: incomplete.document, points: [], analysis: null, incomplete });
+}
+
+/** The editor's save over a draft: like updateDraft, but an incomplete document is kept with its problems. */
+export async function updateDraftFromEditor({
+  actor,
+  versionId,
+  expectedLockVersion,
+  text,
+}: {
+  actor: UserDto;
+  versionId: number;
+  expectedLockVersion: number;
+  text: string;
+}) {
+  await getVersionForOrThrow({ versionId, actor, action: "edit" });
+  const out = await prepareDraftText(text);
+  if (!out.incomplete) return savePrepared(actor, versionId, expectedLockVersion, out.prepared);
+  const { title, ...incomplete } = out.incomplete;
+  return saveDraft({ versionId, actorId: actor.id, expectedLockVersion, title, incomplete });
+}
+
+/** Replaces a draft's document (owner or editor), guarded by the lock version the editor loaded. */
+export async function updateDraft({
+  actor,
+  versionId,
+  expectedLockVersion,
+  ...source
+}: { actor: UserDto; versionId: number; expectedLockVersion: number } & DocumentSource) {
+  await getVersionForOrThrow({ versionId, actor, action: "edit" });
+  // Prepared before the save: a failed upload leaves the draft exactly as it was.
+  return savePrepared(actor, versionId, expectedLockVersion, await prepareSource(source));
 }
 
 /**

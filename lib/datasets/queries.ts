@@ -43,6 +43,10 @@ export interface VersionDto {
   /** The reaction this version describes (its own: a later draft never changes it). */
   reactionId: number | null;
   payload: Record<string, unknown>;
+  /** The editor's latest document when it is not valid yet (null when `payload` is the latest). */
+  draftDocument: Record<string, unknown> | null;
+  /** What keeps `draftDocument` from being submitted, each with its JSON pointer. */
+  draftProblems: { pointer: string; message: string }[] | null;
   lockVersion: number;
   versionIdentifier: string | null;
   payloadSha256: string | null;
@@ -65,6 +69,8 @@ const versionColumns = {
   title: datasetVersions.title,
   reactionId: datasetVersions.reactionId,
   payload: datasetVersions.payload,
+  draftDocument: datasetVersions.draftDocument,
+  draftProblems: datasetVersions.draftProblems,
   lockVersion: datasetVersions.lockVersion,
   versionIdentifier: datasetVersions.versionIdentifier,
   payloadSha256: datasetVersions.payloadSha256,
@@ -129,13 +135,24 @@ async function writePointsAndAnalysis(tx: Transaction, versionId: number, points
   });
 }
 
-/** Creates a dataset with its owner and a first draft version, all or nothing. */
+/** An editor's document that is not valid yet: kept as typed, with its problems; no rows are derived from it. */
+export interface IncompleteDraft {
+  document: Record<string, unknown>;
+  problems: { pointer: string; message: string }[];
+}
+
+/**
+ * Creates a dataset with its owner and a first draft version, all or nothing. An incomplete first
+ * draft stores its document (as payload and as the draft document, with its problems) and no
+ * points or analysis until a valid save.
+ */
 export async function createDatasetDraft(input: {
   ownerId: number;
   title: string;
   payload: Record<string, unknown>;
   points: StoredPoint[];
-  analysis: AnalysisSummary;
+  analysis: AnalysisSummary | null;
+  incomplete?: IncompleteDraft;
   reaction?: ReactionInput;
   /** Work that commits or rolls back with the new dataset (an Idempotency-Key's record). */
   beforeCommit?: (tx: Transaction, created: VersionDto) => Promise<void>;
@@ -154,12 +171,14 @@ export async function createDatasetDraft(input: {
         title: input.title,
         reactionId,
         payload: input.payload,
+        draftDocument: input.incomplete?.document ?? null,
+        draftProblems: input.incomplete?.problems ?? null,
         participantNames,
         createdBy: input.ownerId,
-        ...summarise(input.points, input.analysis),
+        ...(input.analysis ? summarise(input.points, input.analysis) : {}),
       })
       .returning(versionColumns);
-    await writePointsAndAnalysis(tx, version.id, input.points, input.analysis);
+    if (input.analysis) await writePointsAndAnalysis(tx, version.id, input.points, input.analysis);
     await recordAuditEvent(tx, {
       actorId: input.ownerId,
       action: "dataset.created",
@@ -172,64 +191,79 @@ export async function createDatasetDraft(input: {
   });
 }
 
+/** Versions whose document may still change. */
+const EDITABLE_STATES: VersionState[] = ["draft", "returned"];
+
+/** Why a guarded update matched no row: gone, no longer editable, or saved by someone else first. */
+async function staleSaveError(tx: Transaction, versionId: number): Promise<AppError> {
+  const [current] = await tx.select({ state: datasetVersions.state }).from(datasetVersions).where(eq(datasetVersions.id, versionId));
+  if (!current) return new AppError("not_found", "No such dataset version");
+  if (!EDITABLE_STATES.includes(current.state))
+    return new AppError("conflict", `This version is ${current.state.replace("_", " ")} and can no longer be edited`);
+  return new AppError("conflict", STALE_SAVE_MESSAGE);
+}
+
+/** The message of a save that lost the optimistic lock (the editor recognises it and offers a merge). */
+export const STALE_SAVE_MESSAGE = "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.";
+
 /**
  * Saves a draft if nobody saved it since `expectedLockVersion` (optimistic locking). A stale save
- * changes nothing and answers 409, so a co-editor's work is never overwritten.
+ * changes nothing and answers 409, so a co-editor's work is never overwritten. A valid document
+ * replaces the payload and its rows and clears any incomplete draft document; an incomplete one is
+ * stored on its own (`draftDocument`, `draftProblems`) and leaves the last valid payload, points and
+ * analysis as they were.
  */
-export async function saveDraft(input: {
-  versionId: number;
-  actorId: number;
-  expectedLockVersion: number;
-  title: string;
-  payload: Record<string, unknown>;
-  points: StoredPoint[];
-  analysis: AnalysisSummary;
-  reaction?: ReactionInput;
-}) {
+export async function saveDraft(
+  input: {
+    versionId: number;
+    actorId: number;
+    expectedLockVersion: number;
+    title: string;
+  } & (
+    | {
+        payload: Record<string, unknown>;
+        points: StoredPoint[];
+        analysis: AnalysisSummary;
+        reaction?: ReactionInput;
+        incomplete?: undefined;
+      }
+    | { incomplete: IncompleteDraft; payload?: undefined; points?: undefined; analysis?: undefined; reaction?: undefined }
+  ),
+) {
   return getDb().transaction(async (tx) => {
     // The reaction is stored on this version only: published versions keep the one they showed.
     const { reactionId, participantNames } = input.reaction
       ? await upsertReaction(tx, input.reaction)
       : { reactionId: undefined, participantNames: undefined };
+    const contents = input.incomplete
+      ? { draftDocument: input.incomplete.document, draftProblems: input.incomplete.problems }
+      : {
+          reactionId,
+          payload: input.payload,
+          participantNames,
+          draftDocument: null,
+          draftProblems: null,
+          ...summarise(input.points, input.analysis),
+        };
     const [row] = await tx
       .update(datasetVersions)
-      .set({
-        title: input.title,
-        reactionId,
-        payload: input.payload,
-        participantNames,
-        lockVersion: input.expectedLockVersion + 1,
-        updatedAt: new Date(),
-        ...summarise(input.points, input.analysis),
-      })
+      .set({ title: input.title, ...contents, lockVersion: input.expectedLockVersion + 1, updatedAt: new Date() })
       .where(
         and(
           eq(datasetVersions.id, input.versionId),
           eq(datasetVersions.lockVersion, input.expectedLockVersion),
-          inArray(datasetVersions.state, ["draft", "returned"]),
+          inArray(datasetVersions.state, EDITABLE_STATES),
         ),
       )
       .returning(versionColumns);
-    if (!row) {
-      const [current] = await tx
-        .select({ state: datasetVersions.state, lockVersion: datasetVersions.lockVersion })
-        .from(datasetVersions)
-        .where(eq(datasetVersions.id, input.versionId));
-      if (!current) throw new AppError("not_found", "No such dataset version");
-      if (current.state !== "draft" && current.state !== "returned")
-        throw new AppError("conflict", `This version is ${current.state.replace("_", " ")} and can no longer be edited`);
-      throw new AppError(
-        "conflict",
-        "Someone saved this draft after you opened it. Reload to see their changes; nothing of yours was stored.",
-      );
-    }
-    await writePointsAndAnalysis(tx, row.id, input.points, input.analysis);
+    if (!row) throw await staleSaveError(tx, input.versionId);
+    if (!input.incomplete) await writePointsAndAnalysis(tx, row.id, input.points, input.analysis);
     await recordAuditEvent(tx, {
       actorId: input.actorId,
       action: "dataset.draft_saved",
       subjectType: "dataset_version",
       subjectId: row.id,
-      details: { lockVersion: row.lockVersion },
+      details: { lockVersion: row.lockVersion, ...(input.incomplete ? { problems: input.incomplete.problems.length } : {}) },
     });
     return row;
   });

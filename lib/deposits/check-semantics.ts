@@ -303,8 +303,11 @@ function checkReportedFit(report: Report, fit: Record<string, unknown>, unitT: L
     });
   }
   checkTemperature(report, "/reportedFit/T0", fit.T0, unitT);
-  const tMin = checkTemperature(report, "/reportedFit/Tmin", fit.Tmin, unitT);
-  const tMax = checkTemperature(report, "/reportedFit/Tmax", fit.Tmax, unitT);
+  // The range has its own unit (papers give it in K even when the data are in °C); units.T when left out.
+  const rangeUnit =
+    fit.rangeUnit === undefined ? unitT : parseUnitAt(report, "/reportedFit/rangeUnit", fit.rangeUnit, parseTemperatureUnit);
+  const tMin = checkTemperature(report, "/reportedFit/Tmin", fit.Tmin, rangeUnit);
+  const tMax = checkTemperature(report, "/reportedFit/Tmax", fit.Tmax, rangeUnit);
   if (tMin !== undefined && tMax !== undefined && tMin >= tMax) {
     report({
       pointer: "/reportedFit/Tmax",

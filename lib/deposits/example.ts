@@ -69,7 +69,7 @@ export const EXAMPLE_DEPOSIT: DepositDocument = {
     { T: 400, k: 2.74e-14, uncertainty: { kind: "factor", value: 1.1 } },
     { T: 420, k: 3.28e-14, uncertainty: { kind: "factor", value: 1.1 }, bathGas: "N2" },
   ],
-  reportedFit: { model: "arrhenius", A: 2.2e-12, Ea: 14.55, EaUnit: "kJ mol-1", Tmin: 250, Tmax: 420 },
+  reportedFit: { model: "arrhenius", A: 2.2e-12, Ea: 14.55, EaUnit: "kJ mol-1", Tmin: 250, Tmax: 420, rangeUnit: "K" },
   source: {
     doi: "10.5555/arrhenia.example.0001",
     locator: "Table 1",

@@ -112,8 +112,9 @@ export function toAnalysisInput(doc: DepositDocument): DepositAnalysisInput {
       Ea: toJoulesPerMole(fit.Ea, fit.EaUnit),
       T0: T0 ?? REFERENCE_TEMPERATURE,
     };
-    if (fit.Tmin !== undefined) input.reportedFit.Tmin = toKelvin(fit.Tmin, doc.units.T);
-    if (fit.Tmax !== undefined) input.reportedFit.Tmax = toKelvin(fit.Tmax, doc.units.T);
+    const rangeUnit = fit.rangeUnit ?? doc.units.T;
+    if (fit.Tmin !== undefined) input.reportedFit.Tmin = toKelvin(fit.Tmin, rangeUnit);
+    if (fit.Tmax !== undefined) input.reportedFit.Tmax = toKelvin(fit.Tmax, rangeUnit);
   }
   return input;
 }

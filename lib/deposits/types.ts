@@ -116,7 +116,7 @@ export interface DepositPoint {
   note?: string;
 }
 
-/** The authors' own expression: A in units.k; Ea in EaUnit; T0, Tmin, Tmax in units.T. */
+/** The authors' own expression: A in units.k; Ea in EaUnit; T0 in units.T; Tmin, Tmax in rangeUnit (units.T when left out). */
 export interface DepositReportedFit {
   model: FitModelId;
   A: number;
@@ -126,6 +126,7 @@ export interface DepositReportedFit {
   T0?: number;
   Tmin?: number;
   Tmax?: number;
+  rangeUnit?: string;
 }
 
 /** A CSL-JSON item; fields beyond the few named here are kept as given. */

@@ -81,7 +81,8 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
           retractionNotice: version.retractionNotice,
           publicPath: `/datasets/${version.datasetId}/v${version.number}`,
         }}
-        payload={version.payload as unknown as DepositDocument}
+        payload={(version.draftDocument ?? version.payload) as unknown as DepositDocument}
+        problems={version.draftProblems ?? []}
         lockVersion={version.lockVersion}
         role={datasetRole}
         capabilities={capabilities}

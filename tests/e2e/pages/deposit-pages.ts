@@ -60,6 +60,10 @@ export class DepositEditorPage {
     await this.description.fill(description);
   }
 
+  get title(): Locator {
+    return this.section("Title and summary").getByLabel(/^Title/);
+  }
+
   get description(): Locator {
     return this.section("Title and summary").getByLabel(/^Description/);
   }
@@ -136,6 +140,21 @@ export class DepositEditorPage {
     return this.page.getByRole("heading", { name: /^Rows \(/ });
   }
 
+  /** The save status line ("Saved 14:32", "Saving…", "Not saved: …"), announced politely. */
+  get saveStatus(): Locator {
+    return this.page.getByTestId("save-status");
+  }
+
+  /** Waits until autosave (or a save by hand) has stored every change. */
+  async expectSaved() {
+    await expect(this.saveStatus).toHaveText(/^Saved \d\d:\d\d$/, { timeout: 20_000 });
+  }
+
+  /** "Not ready to submit": the list of what the draft still lacks. */
+  get readiness(): Locator {
+    return this.page.getByRole("heading", { name: /^Not ready to submit/ });
+  }
+
   /** Saves a new deposit: the first save creates the draft and moves to its own address. */
   async saveNewDraft(): Promise<number> {
     await this.page.getByRole("button", { name: "Save draft" }).first().click();
@@ -147,7 +166,7 @@ export class DepositEditorPage {
   /** Saves a stored draft with the top button and waits until the status line says it is stored. */
   async saveDraft() {
     await this.page.getByRole("button", { name: "Save draft" }).first().click();
-    await expect(this.page.getByRole("status").filter({ hasText: /^Saved at \d\d:\d\d\.$/ })).toBeVisible({ timeout: 20_000 });
+    await expect(this.page.getByRole("status").filter({ hasText: /^Saved \d\d:\d\d$/ })).toBeVisible({ timeout: 20_000 });
   }
 
   async expectState(words: string) {

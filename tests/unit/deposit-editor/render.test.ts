@@ -5,9 +5,9 @@ import { describe, expect, it, vi } from "vitest";
 import { AboutSection } from "@/components/deposit-editor/about-section";
 import { CreditSection } from "@/components/deposit-editor/credit-section";
 import { EditorContextProvider } from "@/components/deposit-editor/editor-context";
-import { ErrorSummary } from "@/components/deposit-editor/error-summary";
 import { blankForm, blankPoint, documentToForm, type EditorForm } from "@/components/deposit-editor/form-model";
-import { groupErrors } from "@/components/deposit-editor/pointers";
+import { readinessItems } from "@/components/deposit-editor/readiness";
+import { ReadinessPanel } from "@/components/deposit-editor/readiness-panel";
 import { PointsTable } from "@/components/deposit-editor/points-table";
 import { versionCapabilities } from "@/lib/curation/capabilities";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
@@ -96,29 +96,20 @@ describe("PointsTable", () => {
   });
 });
 
-describe("ErrorSummary", () => {
-  it("lists problems no field shows, links each section with problems, and offers rows off screen", () => {
+describe("ReadinessPanel", () => {
+  it("lists every problem in the order of the form, each linked to its input or its section", () => {
     const form = documentToForm(EXAMPLE_DEPOSIT);
     const errors = [
+      { pointer: "/points/650/k", message: "not positive" },
       { pointer: "/title", message: "Title is too short." },
       { pointer: "/reaction/solvent", message: "Solvent is required when the phase is liquid." },
-      { pointer: "/points/650/k", message: "not positive" },
     ];
-    const html = renderToStaticMarkup(
-      h(ErrorSummary, {
-        message: "The deposit has 3 problems",
-        errors,
-        grouped: groupErrors(errors, form),
-        hiddenRows: [650],
-        onShowRow: noop,
-        announce: true,
-      }),
-    );
-    expect(html).toContain('role="alert"');
-    expect(html).toContain("3 problems to correct");
-    expect(html).toContain('<a href="#section-about">Title and summary (1)</a>');
-    expect(html).toMatch(/<a href="#section-reaction">Reaction<\/a>: Solvent is required/);
-    expect(html).toContain("Show row 651");
+    const html = renderToStaticMarkup(h(ReadinessPanel, { items: readinessItems(errors, form), onShowRow: noop }));
+    expect(html).toContain("Not ready to submit: 3 things to complete or correct");
+    expect(html).toMatch(/<a href="#field-title">Title and summary, title<\/a>: Title is too short\./);
+    expect(html).toMatch(/<a href="#section-reaction">Reaction, solvent<\/a>: Solvent is required/);
+    // Row 651 is beyond the example's rows: the problem goes to the table as a whole.
+    expect(html.indexOf("Title is too short")).toBeLessThan(html.indexOf("not positive"));
   });
 });
 

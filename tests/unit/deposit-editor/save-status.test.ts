@@ -1,10 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { CONFLICT_MESSAGE, saveStateWords, stateAfterFailure } from "@/components/deposit-editor/save-status";
+import { NEEDS_TITLE, saveStateWords, stateAfterFailure } from "@/components/deposit-editor/save-status";
 import { LARGE_TABLE_ROWS, ROW_WINDOW, visibleRows, windowStartFor } from "@/components/deposit-editor/row-window";
 import { blockingChecks, stateWords } from "@/components/deposit-editor/words";
 
 describe("stateAfterFailure", () => {
-  it("turns the lock conflict into our own conflict message, and any other 409 into a conflict with the server's reason", () => {
+  it("turns the lock conflict into a conflict (merged in the editor), and any other 409 into a failure with the server's reason", () => {
     expect(
       stateAfterFailure(
         {
@@ -18,35 +18,32 @@ describe("stateAfterFailure", () => {
     ).toEqual({ kind: "conflict" });
     expect(
       stateAfterFailure({ ok: false, status: 409, message: "This version is submitted and can no longer be edited", errors: [] }, false),
-    ).toEqual({
-      kind: "conflict",
-      detail: "This version is submitted and can no longer be edited",
-    });
-    expect(CONFLICT_MESSAGE).toMatch(/your edits are still here and were not stored/);
+    ).toEqual({ kind: "failed", message: "this version is submitted and can no longer be edited; your edits are still here." });
   });
 
-  it("counts the problems of a refused document and remembers whether autosave sent it", () => {
-    const errors = [
-      { pointer: "/title", message: "a" },
-      { pointer: "/points/3/k", message: "b" },
-    ];
-    expect(stateAfterFailure({ ok: false, status: 422, message: "The deposit has 2 problems", errors }, true)).toEqual({
+  it("keeps the server's words for a refused document and remembers whether autosave sent it", () => {
+    const errors = [{ pointer: "/title", message: "A draft is saved once it has a title." }];
+    expect(stateAfterFailure({ ok: false, status: 422, message: "Give the deposit a title", errors }, true)).toEqual({
       kind: "invalid",
-      message: "The deposit has 2 problems",
-      count: 2,
+      message: "Give the deposit a title",
+      count: 1,
       auto: true,
     });
   });
 });
 
 describe("saveStateWords", () => {
-  it("says when the draft was saved and whether newer changes wait", () => {
+  it("says when the draft was saved, that it is saving, or why it was not saved", () => {
     const at = new Date(2024, 0, 1, 14, 5);
-    expect(saveStateWords({ kind: "saved", at }, false)).toBe("Saved at 14:05.");
+    expect(saveStateWords({ kind: "saved", at }, false)).toBe("Saved 14:05");
     expect(saveStateWords({ kind: "saved", at }, true)).toMatch(/newer changes not saved yet/);
-    expect(saveStateWords({ kind: "saved", at: new Date(2024, 0, 1, 9, 7) }, false)).toBe("Saved at 09:07.");
+    expect(saveStateWords({ kind: "saved", at: new Date(2024, 0, 1, 9, 7) }, false)).toBe("Saved 09:07");
     expect(saveStateWords({ kind: "saving", auto: true }, true)).toBe("Saving…");
-    expect(saveStateWords({ kind: "invalid", message: "", count: 1, auto: false }, true)).toMatch(/1 problem to correct/);
+    expect(saveStateWords({ kind: "failed", message: NEEDS_TITLE }, true)).toMatch(/^Not saved: give the deposit a title/);
+    expect(saveStateWords({ kind: "invalid", message: "The draft cannot be stored: x", count: 1, auto: false }, true)).toBe(
+      "Not saved: the draft cannot be stored: x",
+    );
+    expect(saveStateWords({ kind: "idle" }, false)).toBe("");
   });
 });
 

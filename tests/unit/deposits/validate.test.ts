@@ -61,9 +61,27 @@ describe("validateDeposit: valid documents", () => {
     const doc = example();
     doc.units = { k: "cm³ molecule⁻¹ s⁻¹", T: "°C", pressure: "torr" };
     doc.points = doc.points.map((p: { T: number }) => ({ ...p, T: p.T - 273.15 }));
+    // Without its own unit the valid range is in units.T (documents written before rangeUnit existed).
+    delete doc.reportedFit.rangeUnit;
     doc.reportedFit.Tmin = -23.15;
     doc.reportedFit.Tmax = 146.85;
     expect(validateDeposit(doc)).toMatchObject({ ok: true });
+  });
+
+  it("reads the valid range in its own unit, whatever units.T is", () => {
+    const doc = example();
+    doc.units = { ...doc.units, T: "degC" };
+    doc.points = doc.points.map((p: { T: number }) => ({ ...p, T: p.T - 273.15 }));
+    // 250 K and 420 K stay valid in kelvin beside data in °C; -23.15 K is below absolute zero.
+    expect(validateDeposit(doc)).toMatchObject({ ok: true });
+    doc.reportedFit.Tmin = -23.15;
+    const out = validateDeposit(doc);
+    expect(out.ok).toBe(false);
+    expect(out.ok ? [] : out.errors.map((e) => e.pointer)).toEqual(["/reportedFit/Tmin"]);
+    doc.reportedFit.rangeUnit = "furlongs";
+    expect(
+      validateDeposit(doc).ok ? [] : (validateDeposit(doc) as { errors: { pointer: string }[] }).errors.map((e) => e.pointer),
+    ).toContain("/reportedFit/rangeUnit");
   });
 });
 
