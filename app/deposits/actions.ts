@@ -3,6 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { protectedCall } from "@/lib/auth/action";
+import { REPLY_MAX } from "@/lib/curation/capabilities";
 import type { Transition } from "@/lib/curation/lifecycle";
 import { depositNewDataset, startNextVersion, transitionVersion, updateDraft } from "@/lib/datasets/deposits";
 import { inviteCoEditor } from "@/lib/datasets/invitations";
@@ -29,6 +30,11 @@ const lockVersion = z.number().int().min(0).max(MAX_ID);
 const transitionSchema = z.enum(["submit", "withdraw", "start_review", "return", "accept", "decline", "retract"]);
 // The same bound as the transitions endpoint; the minimum is the lifecycle's (a reason is needed only for decisions).
 const reasonSchema = z.string().max(5000, "Keep the reason under 5000 characters").optional();
+// A hard cap on what is read; the rule and its wording are checkReplyOrThrow's (lib/curation/capabilities.ts).
+const replySchema = z
+  .string()
+  .max(2 * REPLY_MAX, `Keep the reply under ${REPLY_MAX} characters`)
+  .optional();
 
 const createDraft = protectedCall(z.object({ documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
   // The text goes to an analysis worker, which parses and validates it off the request thread.
@@ -53,11 +59,17 @@ const saveDraft = protectedCall(
 );
 
 const transitionRun = protectedCall(
-  z.object({ versionId: versionIdSchema, transition: transitionSchema, reason: reasonSchema }).strict(),
+  z.object({ versionId: versionIdSchema, transition: transitionSchema, reason: reasonSchema, reply: replySchema }).strict(),
   { permission: "dataset.deposit" },
   async (input, user) => {
     // Role, dataset role and state are re-read inside the transaction (lib/curation/transitions.ts).
-    const out = await transitionVersion({ actor: user, versionId: input.versionId, transition: input.transition, reason: input.reason });
+    const out = await transitionVersion({
+      actor: user,
+      versionId: input.versionId,
+      transition: input.transition,
+      reason: input.reason,
+      reply: input.reply,
+    });
     revalidatePath(`/deposits/${input.versionId}`);
     revalidatePath("/review");
     return out;
@@ -110,9 +122,9 @@ export async function saveDraftAction(versionId: number, lockVersion: number, do
 }
 
 /** Moves a version along its lifecycle. */
-export async function transitionAction(versionId: number, transition: Transition, reason?: string): Promise<EditorResult> {
+export async function transitionAction(versionId: number, transition: Transition, reason?: string, reply?: string): Promise<EditorResult> {
   try {
-    const out = await transitionRun({ versionId, transition, reason });
+    const out = await transitionRun({ versionId, transition, reason, reply });
     return { ok: true, versionId: out.versionId, lockVersion: 0, state: out.to };
   } catch (err) {
     return failure(err);

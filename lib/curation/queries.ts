@@ -1,7 +1,7 @@
 import "server-only";
-import { and, asc, count, desc, eq, inArray, lt, ne, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, inArray, isNull, lt, ne, or, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { datasets, datasetVersions } from "@/db/datasets";
+import { datasets, datasetVersions, decisions, submissionSnapshots } from "@/db/datasets";
 import { users } from "@/db/users";
 import { RETIRED_REACTION_CLASS_IDS } from "@/lib/deposits/vocabulary";
 import type { VersionState } from "./lifecycle";
@@ -133,4 +133,34 @@ export async function getPreviousVersion({ datasetId, number }: { datasetId: num
     .orderBy(desc(datasetVersions.number))
     .limit(1);
   return row ?? null;
+}
+
+/** Every submission snapshot of a version, newest first, with who sent it and the authors' reply. */
+export async function listSubmissionSnapshots({ versionId }: { versionId: number }) {
+  return getDb()
+    .select({
+      id: submissionSnapshots.id,
+      sequence: submissionSnapshots.sequence,
+      reply: submissionSnapshots.reply,
+      payload: submissionSnapshots.payload,
+      points: submissionSnapshots.points,
+      createdAt: submissionSnapshots.createdAt,
+      submittedBy: users.name,
+    })
+    .from(submissionSnapshots)
+    .leftJoin(users, eq(users.id, submissionSnapshots.submittedBy))
+    .where(eq(submissionSnapshots.versionId, versionId))
+    .orderBy(desc(submissionSnapshots.sequence));
+}
+
+/** Active curators who returned this version to its authors, each once, with their latest reason. */
+export async function listReturningCurators({ versionId }: { versionId: number }) {
+  const rows = await getDb()
+    .select({ id: users.id, email: users.email, name: users.name, reason: decisions.reason })
+    .from(decisions)
+    .innerJoin(users, eq(users.id, decisions.curatorId))
+    .where(and(eq(decisions.versionId, versionId), eq(decisions.decision, "return"), isNull(users.deactivatedAt)))
+    .orderBy(desc(decisions.createdAt), desc(decisions.id));
+  const seen = new Set<number>();
+  return rows.filter((r) => (seen.has(r.id) ? false : (seen.add(r.id), true)));
 }

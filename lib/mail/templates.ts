@@ -86,6 +86,17 @@ export function submissionMail(to: string, name: string, title: string, versionI
   });
 }
 
+/** To a curator who returned a version, when its authors submit it again: their reason and the authors' reply. */
+export function resubmissionMail(to: string, name: string, title: string, versionId: number, reason: string, reply: string): MailMessage {
+  return compose(
+    to,
+    `Back for review after your return: ${title}`,
+    name,
+    [`The authors of “${title}” revised it and submitted it again.`, `Your reason for returning it: ${reason}`, `Their reply: ${reply}`],
+    { label: "Open the review, with the changes since the last submission", url: `${appUrl()}/review/${versionId}` },
+  );
+}
+
 const decisionWords = {
   accept: "was accepted and is now published",
   return: "was returned to you for revision before it can be published",

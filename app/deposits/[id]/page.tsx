@@ -6,6 +6,8 @@ import { FilesPanel } from "@/components/deposit-editor/files-panel";
 import type { StoredCheck } from "@/components/deposit-editor/words";
 import { stateWords } from "@/components/deposit-editor/words";
 import { getCurrentUser } from "@/lib/auth/session";
+import { can } from "@/lib/auth/permissions";
+import { auditTrailPath } from "@/lib/audit/paths";
 import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
 import { getLatestAnalysis, listDatasetMembers, listDecisions } from "@/lib/datasets/queries";
 import type { DepositDocument } from "@/lib/deposits/types";
@@ -54,6 +56,8 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
     throw err;
   }
   const { version, datasetRole, capabilities } = found;
+  // A curator or admin who is not a member reads the record as a reviewer, not as an author.
+  const curatorView = !datasetRole && can(user.role, "dataset.review");
   const [analysis, decisions, members] = await Promise.all([
     getLatestAnalysis({ versionId }),
     listDecisions({ versionId }),
@@ -63,9 +67,19 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
   return (
     <div className="space-y-6">
       <header className="space-y-2">
-        <p className="text-sm">
-          <Link href="/deposits">My deposits</Link> / v{version.number}
-        </p>
+        {/* Members come from their deposits; curators and admins from the review of this version. */}
+        <nav aria-label="Where you are" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+          {datasetRole ? (
+            <span>
+              <Link href="/deposits">My deposits</Link> / v{version.number}
+            </span>
+          ) : curatorView ? (
+            <span>
+              <Link href="/review">Review queue</Link> / <Link href={`/review/${version.id}`}>Review of version {version.number}</Link>
+            </span>
+          ) : null}
+          {(datasetRole || curatorView) && <Link href={auditTrailPath(version.datasetId)}>Audit trail</Link>}
+        </nav>
         <h1 className="text-3xl font-semibold">{version.title || "Untitled deposit"}</h1>
         <p className="text-sm text-muted">
           Version {version.number}, {stateWords(version.state)}.
