@@ -3,6 +3,7 @@ import { z } from "zod";
 import { requirePagePermission } from "@/lib/auth/page-guard";
 import { QUEUE_SORTS, listReviewQueue } from "@/lib/curation/queries";
 import { REACTION_CLASSES } from "@/lib/deposits";
+import { formatWaiting } from "@/lib/format";
 import { QueueTable } from "./queue-table";
 
 export const metadata: Metadata = { title: "Review queue" };
@@ -43,6 +44,7 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
     direction: q.dir,
     page: q.page,
   });
+  const now = Date.now();
   return (
     <div className="space-y-6">
       <header>
@@ -94,7 +96,11 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
         </button>
       </form>
       <QueueTable
-        rows={result.rows.map((r) => ({ ...r, submittedAt: r.submittedAt?.toISOString() ?? null }))}
+        rows={result.rows.map((r) => ({
+          ...r,
+          submittedAt: r.submittedAt?.toISOString() ?? null,
+          waiting: r.submittedAt ? formatWaiting(now - r.submittedAt.getTime()) : "—",
+        }))}
         total={result.total}
         page={result.page}
         pageSize={result.pageSize}

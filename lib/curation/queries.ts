@@ -25,6 +25,18 @@ export interface QueueQuery {
 const severityOrder = sql`case ${datasetVersions.worstFlag} when 'error' then 3 when 'warn' then 2 when 'info' then 1 else 0 end`;
 const reactionClass = sql<string>`${datasetVersions.payload} -> 'reaction' ->> 'class'`;
 
+/**
+ * Who holds a queued version: the curator who took it into review (in review), or who returned it
+ * (returned), from the newest such event on its audit trail.
+ */
+const handledBy = sql<string | null>`case ${datasetVersions.state}
+  when 'in_review' then (select u.name from audit_events e join users u on u.id = e.actor_id
+    where e.subject_type = 'dataset_version' and e.subject_id = ${datasetVersions.id}::text and e.action = 'dataset.start_review'
+    order by e.id desc limit 1)
+  when 'returned' then (select u.name from decisions d join users u on u.id = d.curator_id
+    where d.version_id = ${datasetVersions.id} and d.decision = 'return' order by d.id desc limit 1)
+  end`;
+
 /** The curators' queue: filtered, sorted and paginated in the database. */
 export async function listReviewQueue(q: QueueQuery) {
   const db = getDb();
@@ -62,6 +74,7 @@ export async function listReviewQueue(q: QueueQuery) {
       tMin: datasetVersions.tMin,
       tMax: datasetVersions.tMax,
       owner: users.name,
+      handledBy,
     })
     .from(datasetVersions)
     .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))

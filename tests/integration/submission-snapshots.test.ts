@@ -145,7 +145,17 @@ describe("snapshots are append-only in the database (runtime role)", () => {
       points: firstPoints,
       analysis,
     });
-    const points = sql.json(firstPoints.map((p) => ({ ...p, sigmaLnK: null, pressurePa: null, bathGas: null, note: null })));
+    const points = sql.json(
+      firstPoints.map((p) => ({
+        T: p.T,
+        k: p.k,
+        sigmaLnK: null,
+        pressurePa: null,
+        bathGas: null,
+        note: null,
+        original: { T: p.T, k: p.k },
+      })),
+    );
     await expect(
       sql`insert into submission_snapshots (version_id, sequence, payload, points) values (${draft.id}, 1, ${sql.json(doc("Forged", firstPoints))}, ${points})`,
     ).rejects.toThrow(/only as it is submitted/);

@@ -18,6 +18,7 @@ import { parseIdOrNull, parseIdOrThrow } from "@/lib/ids";
 import { getCurrentUser } from "@/lib/auth/session";
 import { formatFlagMessage, type Flag } from "@/lib/kinetics";
 import { DecisionForm } from "./decision-form";
+import { DECISION_WORDS } from "@/components/deposit-editor/words";
 import { formatRange } from "@/lib/format";
 import { ReviewFit, type ReportedCanonical } from "./review-fit";
 
@@ -35,7 +36,6 @@ export async function generateMetadata({ params }: { params: Promise<{ id: strin
 }
 
 const utc = (d: Date) => `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
-const DECISION_WORDS: Record<string, string> = { accept: "Accepted", return: "Returned to the authors", decline: "Declined" };
 
 type Decision = Awaited<ReturnType<typeof listDecisions>>[number];
 type Snapshot = Awaited<ReturnType<typeof listSubmissionSnapshots>>[number];
@@ -74,7 +74,7 @@ function historyOf(decisions: Decision[], snapshots: Snapshot[]) {
     ...snapshots.map((s) => ({
       key: `s${s.id}`,
       at: s.createdAt,
-      what: s.sequence === 1 ? "Submitted" : `Submitted again (submission ${s.sequence})`,
+      what: s.sequence === 1 ? "submitted" : `submitted again (submission ${s.sequence})`,
       who: s.submittedBy ?? "the owner",
       text: s.reply ? `Reply: ${s.reply}` : "",
     })),
@@ -249,7 +249,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
               <ul className="list-disc space-y-1 pl-5 text-sm">
                 {duplicates.map((d) => (
                   <li key={d.versionId}>
-                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, {d.state.replace("_", " ")},{" "}
+                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, <StateLabel state={d.state} />,{" "}
                     {formatRange(d.tMin, d.tMax, "K")}){d.sameDoi ? " — same source DOI" : ""}
                   </li>
                 ))}
