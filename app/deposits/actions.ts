@@ -6,7 +6,7 @@ import { protectedCall } from "@/lib/auth/action";
 import { REPLY_MAX } from "@/lib/curation/capabilities";
 import type { Transition } from "@/lib/curation/lifecycle";
 import { depositNewDataset, startNextVersion, transitionVersion, updateDraft } from "@/lib/datasets/deposits";
-import { inviteCoEditor } from "@/lib/datasets/invitations";
+import { inviteCoEditor, revokeInvitation } from "@/lib/datasets/invitations";
 import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
 import { idFor, MAX_ID } from "@/lib/ids";
@@ -87,6 +87,8 @@ const invite = protectedCall(
   { permission: "dataset.deposit" },
   async (input, user) => {
     await inviteCoEditor({ actor: user, versionId: input.versionId, email: input.email, role: input.role });
+    // The owner's list of pending invitations on this page shows the new one.
+    revalidatePath(`/deposits/${input.versionId}`);
     return input.email;
   },
 );
@@ -140,6 +142,25 @@ export async function inviteAction(
   try {
     const address = await invite({ versionId, email, role });
     return { ok: true, status: 200, message: `Invitation sent to ${address}.` };
+  } catch (err) {
+    const r = failure(err);
+    return { ok: false, status: r.ok ? 500 : r.status, message: r.ok ? "" : r.message };
+  }
+}
+
+const revoke = protectedCall(
+  z.object({ invitationId: idFor("invitation") }).strict(),
+  { permission: "dataset.deposit" },
+  async (input, user) => {
+    await revokeInvitation({ actor: user, invitationId: input.invitationId });
+  },
+);
+
+/** The owner revokes an invitation that was not accepted yet. */
+export async function revokeInvitationAction(invitationId: number): Promise<{ ok: boolean; status: number; message: string }> {
+  try {
+    await revoke({ invitationId });
+    return { ok: true, status: 200, message: "Invitation revoked: its link no longer works." };
   } catch (err) {
     const r = failure(err);
     return { ok: false, status: r.ok ? 500 : r.status, message: r.ok ? "" : r.message };

@@ -143,3 +143,22 @@ export function invitationMail(
     { label: "Accept the invitation", url: `${appUrl()}/invitations/accept?token=${encodeURIComponent(secret)}` },
   );
 }
+
+/** To the dataset's owner (and the sender) when an invitation is accepted. */
+export function invitationAcceptedMail(
+  to: string,
+  name: string,
+  who: string,
+  whoEmail: string,
+  title: string,
+  role: "owner" | "editor" | "viewer",
+  versionId: number | null,
+): MailMessage {
+  return compose(
+    to,
+    `${who} joined “${title}”`,
+    name,
+    [`${who} (${whoEmail}) accepted your invitation and is now ${role === "editor" ? "an editor" : "a viewer"} of “${title}”.`],
+    versionId ? { label: "Open the dataset", url: `${appUrl()}/deposits/${versionId}` } : undefined,
+  );
+}

@@ -3,6 +3,8 @@ import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
 import { DepositEditor } from "@/components/deposit-editor/deposit-editor";
 import { FilesPanel } from "@/components/deposit-editor/files-panel";
+import { listPendingInvitations } from "@/lib/datasets/invitations";
+import { InvitationsPanel } from "./invitations-panel";
 import type { StoredCheck } from "@/components/deposit-editor/words";
 import { stateWords } from "@/components/deposit-editor/words";
 import { getCurrentUser } from "@/lib/auth/session";
@@ -58,10 +60,11 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
   const { version, datasetRole, capabilities } = found;
   // A curator or admin who is not a member reads the record as a reviewer, not as an author.
   const curatorView = !datasetRole && can(user.role, "dataset.review");
-  const [analysis, decisions, members] = await Promise.all([
+  const [analysis, decisions, members, invitations] = await Promise.all([
     getLatestAnalysis({ versionId }),
     listDecisions({ versionId }),
     datasetRole ? listDatasetMembers({ datasetId: version.datasetId }) : Promise.resolve([]),
+    datasetRole === "owner" ? listPendingInvitations({ actor: user, versionId }) : Promise.resolve(null),
   ]);
 
   return (
@@ -110,6 +113,11 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
         members={members.map((m) => ({ name: m.name, role: m.role }))}
       />
       <FilesPanel versionId={version.id} editable={capabilities.upload_files} />
+      {invitations && (
+        <InvitationsPanel
+          invitations={invitations.map((i) => ({ ...i, createdAt: i.createdAt.toISOString(), expiresAt: i.expiresAt.toISOString() }))}
+        />
+      )}
     </div>
   );
 }
