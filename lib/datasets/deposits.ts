@@ -1,3 +1,4 @@
+import { versionPath } from "@/lib/identifiers/paths";
 import "server-only";
 import { assertVersionCapability, type VersionAction } from "@/lib/curation/capabilities";
 import type { Transition } from "@/lib/curation/lifecycle";
@@ -151,7 +152,7 @@ export async function transitionVersion({
       if (transition === "accept" || transition === "return" || transition === "decline" || transition === "retract") {
         const published =
           outcome.identifiers && found
-            ? { identifier: outcome.identifiers.version, path: `/datasets/${outcome.datasetId}/v${found.version.number}` }
+            ? { identifier: outcome.identifiers.version, path: versionPath(outcome.datasetId, found.version.number) }
             : undefined;
         for (const m of members)
           await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? "", published), { tx });

@@ -1,3 +1,4 @@
+import { versionPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
@@ -96,7 +97,7 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
           state: version.state,
           versionIdentifier: version.versionIdentifier,
           retractionNotice: version.retractionNotice,
-          publicPath: `/datasets/${version.datasetId}/v${version.number}`,
+          publicPath: versionPath(version.datasetId, version.number),
         }}
         payload={version.payload as unknown as DepositDocument}
         lockVersion={version.lockVersion}
