@@ -145,7 +145,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
   const result = drawableFit(analysis?.result);
   const flags: Flag[] = (result?.flags ?? []).map((f) => ({ ...f, message: formatFlagMessage(f) }));
   const outliers = flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []);
-  // The authors' expression in canonical units (A), J mol⁻¹ (Ea) and K, with the model they report.
+  // The authors' expression in the storage units (A: s⁻¹, cm³ molecule⁻¹ s⁻¹ … by order), J mol⁻¹ (Ea) and K, with the model they report.
   const reportedInput = schema.ok ? toAnalysisInput(schema.value).reportedFit : undefined;
   const reported: ReportedCanonical | undefined =
     schema.ok && reportedInput && schema.value.reportedFit

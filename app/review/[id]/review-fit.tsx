@@ -10,7 +10,7 @@ import type { AnalysisResult, ReactionOrder } from "@/lib/kinetics/types";
 import { SUPPORTED_UNITS, convertEnergy, displayConversion, fromCanonicalRateConstant } from "@/lib/kinetics/units";
 import { energyQuantityLabel } from "@/lib/unit-labels";
 
-/** The authors' expression in canonical units (A), J mol⁻¹ (Ea) and K (T0, range), with the model they report. */
+/** The authors' expression in the storage units (A: s⁻¹, cm³ molecule⁻¹ s⁻¹ … by order), J mol⁻¹ (Ea) and K (T0, range), with the model they report. */
 export interface ReportedCanonical {
   model: "arrhenius" | "modified_arrhenius";
   A: number;
@@ -24,7 +24,7 @@ export interface ReportedCanonical {
 const sig = (v: number | null | undefined, digits = 4) => formatSignificant(v, digits);
 const MODEL_WORDS = { arrhenius: "Arrhenius, k = A exp(−Ea/RT)", modified_arrhenius: "Modified Arrhenius, k = A (T/T0)ⁿ exp(−Ea/RT)" };
 
-/** k(T) of a (modified) Arrhenius expression in canonical units. */
+/** k(T) of a (modified) Arrhenius expression in the storage units. */
 const kOf = (e: { A: number; n: number; Ea: number; T0: number }, T: number) =>
   e.A * Math.pow(T / e.T0, e.n) * Math.exp(-e.Ea / (GAS_CONSTANT * T));
 
