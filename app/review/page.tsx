@@ -44,7 +44,6 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
     direction: q.dir,
     page: q.page,
   });
-  const now = Date.now();
   return (
     <div className="space-y-6">
       <header>
@@ -99,7 +98,7 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
         rows={result.rows.map((r) => ({
           ...r,
           submittedAt: r.submittedAt?.toISOString() ?? null,
-          waiting: r.submittedAt ? formatWaiting(now - r.submittedAt.getTime()) : "—",
+          waiting: r.waitingSeconds !== null ? formatWaiting(r.waitingSeconds * 1000) : "—",
         }))}
         total={result.total}
         page={result.page}

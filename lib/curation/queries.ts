@@ -75,6 +75,8 @@ export async function listReviewQueue(q: QueueQuery) {
       tMax: datasetVersions.tMax,
       owner: users.name,
       handledBy,
+      /** Seconds since submission, by the database's clock. */
+      waitingSeconds: sql<number | null>`extract(epoch from now() - ${datasetVersions.submittedAt})::float8`,
     })
     .from(datasetVersions)
     .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
