@@ -1,6 +1,7 @@
 "use client";
 
 import { useState } from "react";
+import { UnitPickers } from "@/components/unit-pickers";
 import { ArrheniusPlot } from "@/components/arrhenius-plot";
 import { ScrollRegion } from "@/components/scroll-region";
 import { formatRange, formatSignificant } from "@/lib/format";
@@ -81,28 +82,7 @@ export function ReviewFit({
 
   return (
     <div className="space-y-4">
-      <div className="flex flex-wrap gap-4">
-        <label className="space-y-1 text-sm">
-          <span className="block font-medium">Show k in</span>
-          <select value={kUnit} onChange={(e) => setKUnit(e.target.value)} className="field-input">
-            {kUnits.map((u) => (
-              <option key={u.id} value={u.id}>
-                {u.label}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="space-y-1 text-sm">
-          <span className="block font-medium">Show energies in</span>
-          <select value={energyUnit} onChange={(e) => setEnergyUnit(e.target.value)} className="field-input">
-            {SUPPORTED_UNITS.energy.map((u) => (
-              <option key={u.id} value={u.id}>
-                {u.label}
-              </option>
-            ))}
-          </select>
-        </label>
-      </div>
+      <UnitPickers order={order} kUnit={kUnit} onKUnit={setKUnit} energyUnit={energyUnit} onEnergyUnit={setEnergyUnit} />
 
       <ArrheniusPlot
         points={points.map((p, i) => ({ T: p.T, lnk: Math.log(p.k) + lnFactor, outlier: outlierSet.has(i) }))}
