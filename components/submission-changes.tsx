@@ -12,14 +12,14 @@ function OldNew({ before, after }: { before?: string; after?: string }) {
   return (
     <>
       {before !== undefined && (
-        <del className="break-all">
+        <del className="break-words">
           <span className="sr-only">was </span>
           {before}
         </del>
       )}
       {before !== undefined && after !== undefined && <span aria-hidden="true"> → </span>}
       {after !== undefined && (
-        <ins className="break-all no-underline">
+        <ins className="break-words no-underline">
           <span className="sr-only">{before !== undefined ? ", now " : "now "}</span>
           {after}
         </ins>

@@ -93,7 +93,7 @@ export function ReviewFit({
 
       <h3 className="font-semibold">Reported versus re-fitted</h3>
       <p className="text-sm text-muted">
-        k in {kLabel}; energies in {energyQuantityLabel("", energyUnit).trim()}. Temperatures in K.
+        k in {kLabel}; energies in {SUPPORTED_UNITS.energy.find((u) => u.id === energyUnit)?.label ?? energyUnit}. Temperatures in K.
       </p>
       <ScrollRegion label="Reported versus re-fitted parameters">
         <table className="table">

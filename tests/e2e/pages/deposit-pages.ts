@@ -188,7 +188,7 @@ export class ReviewPage {
 
   /** The section comparing this submission with the one before it. */
   get sinceLastSubmission(): Locator {
-    return this.page.getByRole("region", { name: /^Changes since the last submission/ });
+    return this.page.getByRole("region", { name: "Changes since the last submission", exact: true });
   }
 
   async takeIntoReview() {
