@@ -27,12 +27,31 @@ export interface PlotBand {
  * points flagged as outliers are crosses (shape and colour both differ). The fitted line and its
  * 95 % confidence band come from the chosen model.
  */
-export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[]; band: PlotBand; kUnitLabel: string }) {
-  const xs = [...points.map((p) => 1000 / p.T), ...band.T.map((t) => 1000 / t)];
+export function ArrheniusPlot({
+  points,
+  band,
+  kUnitLabel,
+  reported,
+}: {
+  points: PlotPoint[];
+  band: PlotBand;
+  kUnitLabel: string;
+  /** The authors' own expression, drawn dashed over the data and the re-fit (same units as the points). */
+  reported?: { T: number[]; lnk: number[] };
+}) {
+  const reportedLine = reported
+    ? reported.T.map((t, i) => ({ x: 1000 / t, reported: reported.lnk[i] })).filter((p) => Number.isFinite(p.reported))
+    : [];
+  const xs = [...points.map((p) => 1000 / p.T), ...band.T.map((t) => 1000 / t), ...reportedLine.map((p) => p.x)];
   const x = niceScale(Math.min(...xs), Math.max(...xs));
   const domain = x.domain;
   const topTicks = temperatureTicks(domain);
-  const ys = [...points.map((p) => p.lnk), ...(band.lower ?? band.lnk), ...(band.upper ?? band.lnk)].filter(Number.isFinite);
+  const ys = [
+    ...points.map((p) => p.lnk),
+    ...(band.lower ?? band.lnk),
+    ...(band.upper ?? band.lnk),
+    ...reportedLine.map((p) => p.reported),
+  ].filter(Number.isFinite);
   const y = niceScale(Math.min(...ys), Math.max(...ys));
   const fit = band.T.map((t, i) => ({
     x: 1000 / t,
@@ -43,7 +62,7 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
   const flagged = points.filter((p) => p.outlier).map((p) => ({ x: 1000 / p.T, y: p.lnk, T: p.T }));
   const fitName = band.model === "modified_arrhenius" ? "modified Arrhenius fit" : "Arrhenius fit";
   const Ts = points.map((p) => p.T);
-  const summary = `Arrhenius plot, ln k against 1000/T, of ${points.length} points between ${formatRange(Math.min(...Ts), Math.max(...Ts), "K")}, ln k from ${y.domain[0]} to ${y.domain[1]}, with the ${fitName}${band.lower ? " and its 95 % band" : ""}${flagged.length ? `; ${flagged.length} point${flagged.length === 1 ? "" : "s"} flagged as outlier${flagged.length === 1 ? "" : "s"}, drawn as crosses` : ""}. The fitted parameters are in the table below.`;
+  const summary = `Arrhenius plot, ln k against 1000/T, of ${points.length} points between ${formatRange(Math.min(...Ts), Math.max(...Ts), "K")}, ln k from ${y.domain[0]} to ${y.domain[1]}, with the ${fitName}${band.lower ? " and its 95 % band" : ""}${flagged.length ? `; ${flagged.length} point${flagged.length === 1 ? "" : "s"} flagged as outlier${flagged.length === 1 ? "" : "s"}, drawn as crosses` : ""}${reportedLine.length ? "; the expression the authors report is drawn dashed" : ""}. The fitted parameters are in the table below.`;
   return (
     <figure className="space-y-2">
       <div className="h-96 w-full" role="img" aria-label={summary}>
@@ -107,6 +126,19 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
               dot={false}
               isAnimationActive={false}
             />
+            {reportedLine.length > 0 && (
+              <Line
+                xAxisId="inv"
+                data={reportedLine}
+                dataKey="reported"
+                name="expression the authors report"
+                stroke="#3d6b35"
+                strokeWidth={2}
+                strokeDasharray="6 4"
+                dot={false}
+                isAnimationActive={false}
+              />
+            )}
             <Scatter xAxisId="inv" data={normal} dataKey="y" name="measured" fill="#22537a" shape="circle" isAnimationActive={false} />
             {flagged.length > 0 && (
               <Scatter
@@ -126,6 +158,7 @@ export function ArrheniusPlot({ points, band, kUnitLabel }: { points: PlotPoint[
       <figcaption className="text-xs text-muted">
         Circles: points used in the fit. Crosses: points flagged as outliers (still part of the fit).
         {band.lower ? ` Shaded: 95 % confidence band of the ${fitName}.` : ""}
+        {reportedLine.length ? " Dashed: the expression the authors report, over its stated range (else the data's)." : ""}
       </figcaption>
       {points.length <= TABLE_LIMIT && (
         <details className="text-sm">

@@ -1,12 +1,4 @@
-const words: Record<string, string> = {
-  draft: "draft",
-  submitted: "submitted",
-  in_review: "in review",
-  returned: "returned for revision",
-  published: "published",
-  declined: "declined",
-  retracted: "retracted",
-};
+import { stateWords } from "./deposit-editor/words";
 
 const tone: Record<string, string> = {
   published: "border-ok/50 text-ok",
@@ -19,7 +11,7 @@ const tone: Record<string, string> = {
 export function StateLabel({ state }: { state: string }) {
   return (
     <span className={`inline-block rounded-sm border bg-panel px-1.5 py-0.5 text-xs font-medium ${tone[state] ?? "border-line text-ink"}`}>
-      {words[state] ?? state}
+      {stateWords(state)}
     </span>
   );
 }

@@ -1,6 +1,7 @@
 "use client";
 
 import { useState } from "react";
+import { UnitPickers } from "@/components/unit-pickers";
 import type { AnalysisResult, ReactionOrder } from "@/lib/kinetics/types";
 import { SUPPORTED_UNITS, convertEnergy, displayConversion, fromCanonicalRateConstant } from "@/lib/kinetics/units";
 import { ArrheniusPlot } from "./arrhenius-plot";
@@ -26,28 +27,7 @@ export function VersionFit({
   const outliers = new Set(analysis.flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []));
   return (
     <div className="space-y-4">
-      <div className="flex flex-wrap gap-4">
-        <label className="space-y-1 text-sm">
-          <span className="block font-medium">Show k in</span>
-          <select value={kUnit} onChange={(e) => setKUnit(e.target.value)} className="field-input">
-            {kUnits.map((u) => (
-              <option key={u.id} value={u.id}>
-                {u.label}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="space-y-1 text-sm">
-          <span className="block font-medium">Show energies in</span>
-          <select value={energyUnit} onChange={(e) => setEnergyUnit(e.target.value)} className="field-input">
-            {SUPPORTED_UNITS.energy.map((u) => (
-              <option key={u.id} value={u.id}>
-                {u.label}
-              </option>
-            ))}
-          </select>
-        </label>
-      </div>
+      <UnitPickers order={order} kUnit={kUnit} onKUnit={setKUnit} energyUnit={energyUnit} onEnergyUnit={setEnergyUnit} />
       {reported?.reportedFit && (
         <section className="card space-y-2" aria-labelledby="reported-heading">
           <h3 id="reported-heading" className="font-semibold">

@@ -195,6 +195,40 @@ export const decisions = pgTable(
   (t) => [index("decisions_version_idx").on(t.versionId)],
 );
 
+/** One point of a submission snapshot: the normalised numbers (canonical units) and what was deposited. */
+export interface SnapshotPoint {
+  T: number;
+  k: number;
+  sigmaLnK: number | null;
+  pressurePa: number | null;
+  bathGas: string | null;
+  note: string | null;
+  original: Record<string, unknown>;
+}
+
+/**
+ * Every submission of a version, as it was sent: the document and its points, and the authors'
+ * reply when it answers a return. Append-only (drizzle/0018): curators compare submissions with it.
+ */
+export const submissionSnapshots = pgTable(
+  "submission_snapshots",
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    versionId: integer()
+      .notNull()
+      .references(() => datasetVersions.id),
+    /** 1 for the version's first submission, 2 for the next, … */
+    sequence: integer().notNull(),
+    submittedBy: integer().references(() => users.id),
+    /** The authors' answer to the return this submission follows; null for a first submission. */
+    reply: text(),
+    payload: jsonb().$type<Record<string, unknown>>().notNull(),
+    points: jsonb().$type<SnapshotPoint[]>().notNull(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex("submission_snapshots_sequence_key").on(t.versionId, t.sequence)],
+);
+
 /** Supplementary files of a version; content lives in the storage backend under `storageKey`. */
 export const versionFiles = pgTable(
   "version_files",

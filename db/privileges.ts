@@ -12,6 +12,7 @@ const ROW_SCHEMAS = ["public", "pgboss"] as const;
 const WITHHELD: Record<string, string> = {
   decisions: "UPDATE, DELETE",
   audit_events: "UPDATE, DELETE",
+  submission_snapshots: "UPDATE, DELETE",
   identifier_registrations: "DELETE",
   // The current engine version (drizzle/0013): written by the owner only, read by the re-fit function.
   arrhenia_engine: "INSERT, UPDATE, DELETE",
@@ -68,6 +69,8 @@ export const FREEZE_TRIGGERS = [
   "dataset_members_owner_frozen_when_published",
   "decisions_append_only",
   "decisions_accept_only_by_publication",
+  "submission_snapshots_append_only",
+  "submission_snapshots_taken_at_submission",
   "identifier_registrations_forward_only",
   "reactions_frozen_when_published",
   "reaction_participants_frozen_when_published",

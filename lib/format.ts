@@ -83,3 +83,19 @@ export function formatTenTo(log10: number, digits = 3): string {
   }
   return `${mantissa.toFixed(digits - 1)}e${exponent}`.replace(/-/g, MINUS);
 }
+
+/**
+ * How long something has waited, in our plain units: "under 1 h", "3 h", "2 d 4 h", "12 d".
+ * Hours are dropped from 10 days on (they no longer tell anything).
+ *
+ * @example formatWaiting(52 * 3_600_000) // "2 d 4 h"
+ */
+export function formatWaiting(ms: number): string {
+  if (!Number.isFinite(ms) || ms < 3_600_000) return "under 1 h";
+  const hours = Math.floor(ms / 3_600_000);
+  const days = Math.floor(hours / 24);
+  const rest = hours % 24;
+  if (days === 0) return `${hours} h`;
+  if (days >= 10 || rest === 0) return `${days} d`;
+  return `${days} d ${rest} h`;
+}

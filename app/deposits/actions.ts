@@ -3,10 +3,11 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { protectedCall } from "@/lib/auth/action";
+import { REPLY_MAX } from "@/lib/curation/capabilities";
 import type { Transition } from "@/lib/curation/lifecycle";
 import { depositNewDraft, getVersionForOrThrow, startNextVersion, transitionVersion, updateDraftFromEditor } from "@/lib/datasets/deposits";
 import { STALE_SAVE_MESSAGE } from "@/lib/datasets/queries";
-import { inviteCoEditor } from "@/lib/datasets/invitations";
+import { inviteCoEditor, revokeInvitation } from "@/lib/datasets/invitations";
 import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
 import { AppError, type FieldError } from "@/lib/errors";
 import { idFor, MAX_ID } from "@/lib/ids";
@@ -40,6 +41,11 @@ const lockVersion = z.number().int().min(0).max(MAX_ID);
 const transitionSchema = z.enum(["submit", "withdraw", "start_review", "return", "accept", "decline", "retract"]);
 // The same bound as the transitions endpoint; the minimum is the lifecycle's (a reason is needed only for decisions).
 const reasonSchema = z.string().max(5000, "Keep the reason under 5000 characters").optional();
+// A hard cap on what is read; the rule and its wording are checkReplyOrThrow's (lib/curation/capabilities.ts).
+const replySchema = z
+  .string()
+  .max(2 * REPLY_MAX, `Keep the reply under ${REPLY_MAX} characters`)
+  .optional();
 
 const createDraft = protectedCall(z.object({ documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
   // The text goes to an analysis worker, which parses and validates it off the request thread.
@@ -77,11 +83,17 @@ const saveDraft = protectedCall(
 );
 
 const transitionRun = protectedCall(
-  z.object({ versionId: versionIdSchema, transition: transitionSchema, reason: reasonSchema }).strict(),
+  z.object({ versionId: versionIdSchema, transition: transitionSchema, reason: reasonSchema, reply: replySchema }).strict(),
   { permission: "dataset.deposit" },
   async (input, user) => {
     // Role, dataset role and state are re-read inside the transaction (lib/curation/transitions.ts).
-    const out = await transitionVersion({ actor: user, versionId: input.versionId, transition: input.transition, reason: input.reason });
+    const out = await transitionVersion({
+      actor: user,
+      versionId: input.versionId,
+      transition: input.transition,
+      reason: input.reason,
+      reply: input.reply,
+    });
     revalidatePath(`/deposits/${input.versionId}`);
     revalidatePath("/review");
     return out;
@@ -99,6 +111,8 @@ const invite = protectedCall(
   { permission: "dataset.deposit" },
   async (input, user) => {
     await inviteCoEditor({ actor: user, versionId: input.versionId, email: input.email, role: input.role });
+    // The owner's list of pending invitations on this page shows the new one.
+    revalidatePath(`/deposits/${input.versionId}`);
     return input.email;
   },
 );
@@ -136,9 +150,9 @@ export async function saveDraftAction(versionId: number, lockVersion: number, do
 }
 
 /** Moves a version along its lifecycle. */
-export async function transitionAction(versionId: number, transition: Transition, reason?: string): Promise<EditorResult> {
+export async function transitionAction(versionId: number, transition: Transition, reason?: string, reply?: string): Promise<EditorResult> {
   try {
-    const out = await transitionRun({ versionId, transition, reason });
+    const out = await transitionRun({ versionId, transition, reason, reply });
     return { ok: true, versionId: out.versionId, lockVersion: 0, state: out.to };
   } catch (err) {
     return failure(err);
@@ -154,6 +168,25 @@ export async function inviteAction(
   try {
     const address = await invite({ versionId, email, role });
     return { ok: true, status: 200, message: `Invitation sent to ${address}.` };
+  } catch (err) {
+    const r = failure(err);
+    return { ok: false, status: r.ok ? 500 : r.status, message: r.ok ? "" : r.message };
+  }
+}
+
+const revoke = protectedCall(
+  z.object({ invitationId: idFor("invitation") }).strict(),
+  { permission: "dataset.deposit" },
+  async (input, user) => {
+    await revokeInvitation({ actor: user, invitationId: input.invitationId });
+  },
+);
+
+/** The owner revokes an invitation that was not accepted yet. */
+export async function revokeInvitationAction(invitationId: number): Promise<{ ok: boolean; status: number; message: string }> {
+  try {
+    await revoke({ invitationId });
+    return { ok: true, status: 200, message: "Invitation revoked: its link no longer works." };
   } catch (err) {
     const r = failure(err);
     return { ok: false, status: r.ok ? 500 : r.status, message: r.ok ? "" : r.message };

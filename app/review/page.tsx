@@ -3,6 +3,7 @@ import { z } from "zod";
 import { requirePagePermission } from "@/lib/auth/page-guard";
 import { QUEUE_SORTS, listReviewQueue } from "@/lib/curation/queries";
 import { REACTION_CLASSES } from "@/lib/deposits";
+import { formatWaiting } from "@/lib/format";
 import { QueueTable } from "./queue-table";
 
 export const metadata: Metadata = { title: "Review queue" };
@@ -94,7 +95,11 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
         </button>
       </form>
       <QueueTable
-        rows={result.rows.map((r) => ({ ...r, submittedAt: r.submittedAt?.toISOString() ?? null }))}
+        rows={result.rows.map((r) => ({
+          ...r,
+          submittedAt: r.submittedAt?.toISOString() ?? null,
+          waiting: r.waitingSeconds !== null ? formatWaiting(r.waitingSeconds * 1000) : "—",
+        }))}
         total={result.total}
         page={result.page}
         pageSize={result.pageSize}

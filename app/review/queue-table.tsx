@@ -21,16 +21,16 @@ export interface QueueRow {
   tMin: number | null;
   tMax: number | null;
   owner: string;
+  /** Who took it into review (in review) or returned it (returned), when that is on record. */
+  handledBy: string | null;
+  /** How long it has waited since it was submitted, in words ("2 d 4 h"), worked out on the server. */
+  waiting: string;
 }
 
 const col = createColumnHelper<QueueRow>();
 const sortKeyOf: Record<string, string> = { title: "title", submittedAt: "submitted", worstFlag: "severity", pointCount: "points" };
 
-function age(iso: string | null): string {
-  if (!iso) return "—";
-  const days = Math.floor((Date.now() - new Date(iso).getTime()) / 86_400_000);
-  return days < 1 ? "today" : `${days} day${days === 1 ? "" : "s"}`;
-}
+const utcMinute = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
 
 const columns = [
   col.accessor("title", {
@@ -41,6 +41,16 @@ const columns = [
   col.accessor("number", { header: "Version", cell: (c) => `v${c.getValue()}`, enableSorting: false }),
   col.accessor("owner", { header: "Owner", enableSorting: false }),
   col.accessor("state", { header: "State", cell: (c) => <StateLabel state={c.getValue()} />, enableSorting: false }),
+  col.accessor("handledBy", {
+    header: "Curator",
+    cell: (c) =>
+      c.getValue()
+        ? `${c.row.original.state === "returned" ? "returned by" : "taken by"} ${c.getValue()}`
+        : c.row.original.state === "submitted"
+          ? "nobody yet"
+          : "—",
+    enableSorting: false,
+  }),
   col.accessor("reactionClass", {
     header: "Class",
     cell: (c) => reactionClassFor(c.getValue())?.label ?? c.getValue() ?? "—",
@@ -53,7 +63,20 @@ const columns = [
     header: "T range (K)",
     cell: (c) => formatRange(c.row.original.tMin, c.row.original.tMax, ""),
   }),
-  col.accessor("submittedAt", { header: "Submitted (waiting for)", cell: (c) => age(c.getValue()), enableSorting: true }),
+  col.accessor("submittedAt", {
+    header: "Waiting since submission",
+    cell: (c) => {
+      const iso = c.getValue();
+      return iso ? (
+        <time dateTime={iso} title={`Submitted ${utcMinute(iso)}`}>
+          {c.row.original.waiting}
+        </time>
+      ) : (
+        "—"
+      );
+    },
+    enableSorting: true,
+  }),
 ];
 
 /** The review queue: sorting and paging happen on the server; the table only reflects the URL. */

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
 import { startNextVersionAction, transitionAction } from "@/app/deposits/actions";
 import { CAUTION } from "@/lib/analyses/analyse-request";
-import type { VersionCapabilities } from "@/lib/curation/capabilities";
+import { REPLY_MAX, REPLY_MIN, type VersionCapabilities } from "@/lib/curation/capabilities";
 import type { CoEditorRole, Transition } from "@/lib/curation/lifecycle";
 import { CheckList } from "./check-list";
 import { InviteForm } from "./invite-form";
@@ -57,6 +57,17 @@ const STATE_EXPLAINED: Record<string, string> = {
   retracted: "Withdrawn from use by a curator; the notice below says why. It stays readable.",
 };
 
+/** The same states as a reader who is not an author (a curator, an admin) sees them. */
+const STATE_FOR_READERS: Record<string, string> = {
+  draft: "A draft: its authors are still working on it.",
+  submitted: "Submitted and waiting for a curator.",
+  in_review: "Taken into review by a curator.",
+  returned: "Returned to the authors for revision; the reason is below.",
+  published: STATE_EXPLAINED.published,
+  declined: "Declined; the reason is below.",
+  retracted: STATE_EXPLAINED.retracted,
+};
+
 function utc(iso: string): string {
   return `${iso.slice(0, 16).replace("T", " ")} UTC`;
 }
@@ -66,6 +77,9 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
   const router = useRouter();
   const [pending, startTransition] = useTransition();
   const [outcome, setOutcome] = useState<{ ok: boolean; message: string } | null>(null);
+  // After a return, the owner answers the curator with the resubmission (required, lib/curation/capabilities.ts).
+  const [reply, setReply] = useState("");
+  const answersReturn = version.state === "returned" && capabilities.submit;
   const blocking = blockingChecks(checks);
   const canSubmit = capabilities.submit;
   const canWithdraw = capabilities.withdraw;
@@ -75,9 +89,15 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
     setOutcome(null);
     startTransition(async () => {
       try {
-        const result = await transitionAction(version.id, transition);
+        const result = await transitionAction(
+          version.id,
+          transition,
+          undefined,
+          transition === "submit" && answersReturn ? reply : undefined,
+        );
         if (result.ok) {
           setOutcome({ ok: true, message: done });
+          setReply("");
           router.refresh();
         } else {
           setOutcome({ ok: false, message: result.message });
@@ -105,7 +125,7 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
         </h2>
         {role && <p className="text-sm text-muted">Your role: {ROLE_WORDS[role]}</p>}
       </div>
-      <p className="text-sm">{STATE_EXPLAINED[version.state] ?? ""}</p>
+      <p className="text-sm">{(role ? STATE_EXPLAINED : STATE_FOR_READERS)[version.state] ?? ""}</p>
 
       {version.state === "published" && version.versionIdentifier && (
         <div className="space-y-2">
@@ -138,12 +158,28 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
       )}
       {(canSubmit || canWithdraw) && (
         <div className="space-y-2">
+          {answersReturn && (
+            <label className="block space-y-1 text-sm">
+              <span className="block font-medium">Your reply to the curator (required)</span>
+              <span className="block text-xs text-muted">
+                What you changed in answer to the reason below; the curator reads it beside that reason. Up to {REPLY_MAX} characters.
+              </span>
+              <textarea
+                name="reply"
+                className="field-input w-full"
+                rows={3}
+                maxLength={REPLY_MAX}
+                value={reply}
+                onChange={(e) => setReply(e.target.value)}
+              />
+            </label>
+          )}
           <div className="flex flex-wrap gap-3">
             {canSubmit && (
               <button
                 type="button"
                 className="btn-primary"
-                disabled={pending || submitBlocked}
+                disabled={pending || submitBlocked || (answersReturn && reply.trim().length < REPLY_MIN)}
                 aria-describedby={submitBlocked ? "submit-blocked" : undefined}
                 onClick={() => run("submit", "Submitted. A curator has been told.")}
               >

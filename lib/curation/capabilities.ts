@@ -1,3 +1,4 @@
+import { describeUnstorableText } from "@/lib/storable-text";
 import type { Role } from "@/db/users";
 import { can } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
@@ -128,15 +129,43 @@ export function assertVersionCapability(input: CapabilityInput, action: VersionA
   );
 }
 
+/** Bounds of the authors' reply to a return (characters, after trimming). */
+export const REPLY_MIN = 3;
+export const REPLY_MAX = 2000;
+
+/**
+ * The authors' reply when a returned version is submitted again: required there (3 … 2000
+ * characters, storable text), refused anywhere else. Returns the trimmed reply, or undefined.
+ */
+export function checkReplyOrThrow(state: VersionState, transition: Transition, reply: string | undefined): string | undefined {
+  const text = reply?.trim() ?? "";
+  const answersReturn = transition === "submit" && state === "returned";
+  if (!answersReturn) {
+    if (text)
+      throw new AppError("validation_failed", "A reply goes only with a resubmission after a return", [
+        { pointer: "/reply", message: "not expected here" },
+      ]);
+    return undefined;
+  }
+  const fail = (message: string) =>
+    new AppError("validation_failed", `The reply to the curator ${message}`, [{ pointer: "/reply", message }]);
+  if (text.length < REPLY_MIN) throw fail(`is required: say in a few words what you changed (at least ${REPLY_MIN} characters)`);
+  if (text.length > REPLY_MAX) throw fail(`is ${text.length} characters long; keep it under ${REPLY_MAX}`);
+  const unstorable = describeUnstorableText(text);
+  if (unstorable) throw fail(unstorable);
+  return text;
+}
+
 /**
  * Decides a lifecycle transition for `actor` on a version in `state`: returns the next state or
- * throws 404 / 403 / 409 (as assertVersionCapability) or 422 when a required reason is missing.
+ * throws 404 / 403 / 409 (as assertVersionCapability) or 422 when a required reason or reply is missing.
  */
 export function planTransition(
   state: VersionState,
   transition: Transition,
   actor: { role: Role | null; datasetRole: CoEditorRole | null },
   reason?: string,
+  reply?: string,
 ): VersionState {
   assertVersionCapability({ state, siteRole: actor.role, datasetRole: actor.datasetRole }, transition);
   const rule = lifecycle[transition];
@@ -145,5 +174,6 @@ export function planTransition(
       { pointer: "/reason", message: "required" },
     ]);
   }
+  checkReplyOrThrow(state, transition, reply);
   return rule.to;
 }

@@ -1,7 +1,7 @@
 import "server-only";
-import { and, asc, count, desc, eq, inArray, lt, ne, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, inArray, isNull, lt, ne, or, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { datasets, datasetVersions } from "@/db/datasets";
+import { datasets, datasetVersions, decisions, submissionSnapshots } from "@/db/datasets";
 import { users } from "@/db/users";
 import { RETIRED_REACTION_CLASS_IDS } from "@/lib/deposits/vocabulary";
 import type { VersionState } from "./lifecycle";
@@ -24,6 +24,18 @@ export interface QueueQuery {
 
 const severityOrder = sql`case ${datasetVersions.worstFlag} when 'error' then 3 when 'warn' then 2 when 'info' then 1 else 0 end`;
 const reactionClass = sql<string>`${datasetVersions.payload} -> 'reaction' ->> 'class'`;
+
+/**
+ * Who holds a queued version: the curator who took it into review (in review), or who returned it
+ * (returned), from the newest such event on its audit trail.
+ */
+const handledBy = sql<string | null>`case ${datasetVersions.state}
+  when 'in_review' then (select u.name from audit_events e join users u on u.id = e.actor_id
+    where e.subject_type = 'dataset_version' and e.subject_id = ${datasetVersions.id}::text and e.action = 'dataset.start_review'
+    order by e.id desc limit 1)
+  when 'returned' then (select u.name from decisions d join users u on u.id = d.curator_id
+    where d.version_id = ${datasetVersions.id} and d.decision = 'return' order by d.id desc limit 1)
+  end`;
 
 /** The curators' queue: filtered, sorted and paginated in the database. */
 export async function listReviewQueue(q: QueueQuery) {
@@ -62,6 +74,9 @@ export async function listReviewQueue(q: QueueQuery) {
       tMin: datasetVersions.tMin,
       tMax: datasetVersions.tMax,
       owner: users.name,
+      handledBy,
+      /** Seconds since submission, by the database's clock. */
+      waitingSeconds: sql<number | null>`extract(epoch from now() - ${datasetVersions.submittedAt})::float8`,
     })
     .from(datasetVersions)
     .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
@@ -133,4 +148,34 @@ export async function getPreviousVersion({ datasetId, number }: { datasetId: num
     .orderBy(desc(datasetVersions.number))
     .limit(1);
   return row ?? null;
+}
+
+/** Every submission snapshot of a version, newest first, with who sent it and the authors' reply. */
+export async function listSubmissionSnapshots({ versionId }: { versionId: number }) {
+  return getDb()
+    .select({
+      id: submissionSnapshots.id,
+      sequence: submissionSnapshots.sequence,
+      reply: submissionSnapshots.reply,
+      payload: submissionSnapshots.payload,
+      points: submissionSnapshots.points,
+      createdAt: submissionSnapshots.createdAt,
+      submittedBy: users.name,
+    })
+    .from(submissionSnapshots)
+    .leftJoin(users, eq(users.id, submissionSnapshots.submittedBy))
+    .where(eq(submissionSnapshots.versionId, versionId))
+    .orderBy(desc(submissionSnapshots.sequence));
+}
+
+/** Active curators who returned this version to its authors, each once, with their latest reason. */
+export async function listReturningCurators({ versionId }: { versionId: number }) {
+  const rows = await getDb()
+    .select({ id: users.id, email: users.email, name: users.name, reason: decisions.reason })
+    .from(decisions)
+    .innerJoin(users, eq(users.id, decisions.curatorId))
+    .where(and(eq(decisions.versionId, versionId), eq(decisions.decision, "return"), isNull(users.deactivatedAt)))
+    .orderBy(desc(decisions.createdAt), desc(decisions.id));
+  const seen = new Set<number>();
+  return rows.filter((r) => (seen.has(r.id) ? false : (seen.add(r.id), true)));
 }

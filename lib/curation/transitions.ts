@@ -1,9 +1,17 @@
 import "server-only";
 import { createHash } from "node:crypto";
 import canonicalize from "canonicalize";
-import { and, eq, isNull, sql } from "drizzle-orm";
+import { and, asc, count, eq, isNull, sql } from "drizzle-orm";
 import { getDb, type Transaction } from "@/db/client";
-import { datasetMembers, datasets, datasetVersions, decisions, identifierRegistrations } from "@/db/datasets";
+import {
+  datasetMembers,
+  datasets,
+  datasetVersions,
+  decisions,
+  identifierRegistrations,
+  submissionSnapshots,
+  versionPoints,
+} from "@/db/datasets";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
@@ -40,12 +48,15 @@ export async function applyTransition({
   actorId,
   transition,
   reason,
+  reply,
   beforeCommit,
 }: {
   versionId: number;
   actorId: number;
   transition: Transition;
   reason?: string;
+  /** The authors' answer when a returned version is submitted again (required then, refused otherwise). */
+  reply?: string;
   /** Work that must commit or roll back with the transition (queuing the mail and jobs it causes). */
   beforeCommit?: (tx: Transaction, outcome: TransitionOutcome) => Promise<void>;
 }): Promise<TransitionOutcome> {
@@ -71,7 +82,7 @@ export async function applyTransition({
       .from(datasetMembers)
       .where(and(eq(datasetMembers.datasetId, version.datasetId), eq(datasetMembers.userId, actorId)));
     const datasetRole: CoEditorRole | null = membership?.role ?? null;
-    const to = planTransition(version.state, transition, { role: actor.role as Role, datasetRole }, reason);
+    const to = planTransition(version.state, transition, { role: actor.role as Role, datasetRole }, reason, reply);
     // Only a valid document is submitted: an incomplete draft lists what it still needs.
     if (transition === "submit" && version.draftProblems) {
       const n = version.draftProblems.length;
@@ -117,6 +128,8 @@ export async function applyTransition({
         .set({ state: to, updatedAt: now, ...(transition === "submit" ? { submittedAt: now } : {}) })
         .where(eq(datasetVersions.id, versionId));
     }
+    // Every submission is kept as it was sent (append-only, drizzle/0018): curators compare with it.
+    if (transition === "submit") await takeSubmissionSnapshot(tx, { versionId, actorId, payload: version.payload, reply: reply?.trim() });
     await recordAuditEvent(tx, {
       actorId,
       action: `dataset.${transition}`,
@@ -126,6 +139,7 @@ export async function applyTransition({
         from: version.state,
         to,
         ...(reason ? { reason: reason.trim() } : {}),
+        ...(reply?.trim() ? { reply: reply.trim() } : {}),
         ...(outcome.identifiers ? { identifiers: outcome.identifiers } : {}),
       },
     });
@@ -153,4 +167,26 @@ async function seriesIdentifierFor(tx: Transaction, datasetId: number): Promise<
     return series;
   }
   throw new Error("No free series code after 8 draws");
+}
+
+/** Keeps the submitted document and its points as the version's next snapshot (the version is already `submitted`). */
+async function takeSubmissionSnapshot(
+  tx: Transaction,
+  { versionId, actorId, payload, reply }: { versionId: number; actorId: number; payload: Record<string, unknown>; reply?: string },
+): Promise<void> {
+  const points = await tx
+    .select({
+      T: versionPoints.temperatureK,
+      k: versionPoints.rateConstant,
+      sigmaLnK: versionPoints.sigmaLnK,
+      pressurePa: versionPoints.pressurePa,
+      bathGas: versionPoints.bathGas,
+      note: versionPoints.note,
+      original: versionPoints.original,
+    })
+    .from(versionPoints)
+    .where(eq(versionPoints.versionId, versionId))
+    .orderBy(asc(versionPoints.idx));
+  const [{ n }] = await tx.select({ n: count() }).from(submissionSnapshots).where(eq(submissionSnapshots.versionId, versionId));
+  await tx.insert(submissionSnapshots).values({ versionId, sequence: n + 1, submittedBy: actorId, reply: reply || null, payload, points });
 }

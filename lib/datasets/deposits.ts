@@ -1,3 +1,4 @@
+import { versionPath } from "@/lib/identifiers/paths";
 import "server-only";
 import { assertVersionCapability, type VersionAction } from "@/lib/curation/capabilities";
 import type { Transition } from "@/lib/curation/lifecycle";
@@ -6,7 +7,8 @@ import { AppError } from "@/lib/errors";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
 import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
-import { decisionMail, submissionMail } from "@/lib/mail/templates";
+import { decisionMail, resubmissionMail, submissionMail } from "@/lib/mail/templates";
+import { listReturningCurators } from "@/lib/curation/queries";
 import type { Transaction } from "@/db/client";
 import { listActiveCurators, type UserDto } from "@/lib/users/queries";
 import { prepareDepositBytesOrThrow, prepareDepositOrThrow, prepareDepositTextOrThrow, type PreparedDeposit } from "./prepare";
@@ -185,12 +187,15 @@ export async function transitionVersion({
   versionId,
   transition,
   reason,
+  reply,
   beforeCommit,
 }: {
   actor: UserDto;
   versionId: number;
   transition: Transition;
   reason?: string;
+  /** The authors' answer to a return, sent with the resubmission (required then). */
+  reply?: string;
   beforeCommit?: BeforeCommit<TransitionOutcome>;
 }) {
   const unstorable = reason === undefined ? null : describeUnstorableText(reason);
@@ -200,6 +205,8 @@ export async function transitionVersion({
   const found = await getVersionWithRole({ versionId, userId: null });
   const title = found?.version.title ?? "your dataset";
   const curators = transition === "submit" ? await listActiveCurators() : [];
+  // A resubmission after a return: the curators who returned it hear of it with the authors' reply.
+  const returning = transition === "submit" && found?.version.state === "returned" ? await listReturningCurators({ versionId }) : [];
   const members =
     ["accept", "return", "decline", "retract"].includes(transition) && found
       ? await listDatasetMembers({ datasetId: found.version.datasetId })
@@ -209,8 +216,12 @@ export async function transitionVersion({
     actorId: actor.id,
     transition,
     reason,
+    reply,
     beforeCommit: async (tx, outcome) => {
-      for (const c of curators) await enqueueMail(submissionMail(c.email, c.name, title, versionId), { tx });
+      const back = outcome.from === "returned" ? returning : [];
+      for (const c of back) await enqueueMail(resubmissionMail(c.email, c.name, title, versionId, c.reason, reply!.trim()), { tx });
+      for (const c of curators)
+        if (!back.some((b) => b.id === c.id)) await enqueueMail(submissionMail(c.email, c.name, title, versionId), { tx });
       if (outcome.identifiers) {
         // The registration job retries until the agency has both identifiers.
         await enqueueIdentifierRegistration(outcome.identifiers.version, { tx });
@@ -220,7 +231,7 @@ export async function transitionVersion({
       if (transition === "accept" || transition === "return" || transition === "decline" || transition === "retract") {
         const published =
           outcome.identifiers && found
-            ? { identifier: outcome.identifiers.version, path: `/datasets/${outcome.datasetId}/v${found.version.number}` }
+            ? { identifier: outcome.identifiers.version, path: versionPath(outcome.datasetId, found.version.number) }
             : undefined;
         for (const m of members)
           await enqueueMail(decisionMail(m.email, m.name, title, versionId, transition, reason ?? "", published), { tx });

@@ -86,6 +86,17 @@ export function submissionMail(to: string, name: string, title: string, versionI
   });
 }
 
+/** To a curator who returned a version, when its authors submit it again: their reason and the authors' reply. */
+export function resubmissionMail(to: string, name: string, title: string, versionId: number, reason: string, reply: string): MailMessage {
+  return compose(
+    to,
+    `Back for review after your return: ${title}`,
+    name,
+    [`The authors of “${title}” revised it and submitted it again.`, `Your reason for returning it: ${reason}`, `Their reply: ${reply}`],
+    { label: "Open the review, with the changes since the last submission", url: `${appUrl()}/review/${versionId}` },
+  );
+}
+
 const decisionWords = {
   accept: "was accepted and is now published",
   return: "was returned to you for revision before it can be published",
@@ -130,5 +141,24 @@ export function invitationMail(
       "Sign in (or create an account with this address) and open the link. It works once, for 7 days.",
     ],
     { label: "Accept the invitation", url: `${appUrl()}/invitations/accept?token=${encodeURIComponent(secret)}` },
+  );
+}
+
+/** To the dataset's owner (and the sender) when an invitation is accepted. */
+export function invitationAcceptedMail(
+  to: string,
+  name: string,
+  who: string,
+  whoEmail: string,
+  title: string,
+  role: "owner" | "editor" | "viewer",
+  versionId: number | null,
+): MailMessage {
+  return compose(
+    to,
+    `${who} joined “${title}”`,
+    name,
+    [`${who} (${whoEmail}) accepted your invitation and is now ${role === "editor" ? "an editor" : "a viewer"} of “${title}”.`],
+    versionId ? { label: "Open the dataset", url: `${appUrl()}/deposits/${versionId}` } : undefined,
   );
 }

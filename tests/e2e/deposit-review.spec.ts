@@ -15,6 +15,7 @@ test("a deposit goes from an uploaded CSV through a return to the authors to pub
   const review = new ReviewPage(page);
   const curator = DEMO_CURATORS[0];
   const changesReason = `Please say in the note of row 5 how that value was checked (${stamp}).`;
+  const reply = `Row 5 now says how it was checked (${stamp}).`;
   let versionId = 0;
 
   await test.step("the researcher describes the dataset", async () => {
@@ -81,11 +82,52 @@ test("a deposit goes from an uploaded CSV through a return to the authors to pub
     await expect(editor.decision("returned to the authors")).toContainText(changesReason);
     await editor.cell("Note", 5).fill("re-read from the original trace");
     await editor.saveDraft();
-    await editor.submitForReview();
+    // Submitting again needs a reply to the curator.
+    await expect(page.getByRole("button", { name: "Submit for review" })).toBeDisabled();
+    await editor.submitForReview(reply);
+  });
+
+  await test.step("the curator sees who holds it, the reason beside the reply, and the changes since the last submission", async () => {
+    await signInAs(page, curator);
+    await page.goto("/review?sort=submitted&dir=desc");
+    await expect(page.getByRole("row").filter({ hasText: title })).toContainText(/under 1 h/);
+    await review.openFromQueue(title);
+    const changes = review.sinceLastSubmission;
+    await expect(changes.getByRole("heading", { name: "Reason for returning it" }).locator("..")).toContainText(changesReason);
+    await expect(changes.getByRole("heading", { name: "The authors' reply" }).locator("..")).toContainText(reply);
+    await expect(changes).toContainText("Points: 8 before, 8 now; 0 added, 0 removed, 1 changed");
+    const row5 = changes.getByRole("row").filter({ hasText: "re-read from the original trace" });
+    await expect(row5).toHaveCount(1);
+    await expect(row5.getByRole("cell").nth(0)).toHaveText("5");
+    await expect(row5).toContainText("changed");
+    await expect(page.getByText("This is the first version")).toHaveCount(0);
+    // The plot and the table are in the document's unit, never "canonical units".
+    await expect(page.getByRole("region", { name: /^Data, re-fit/ })).toContainText("cm³ molecule⁻¹ s⁻¹");
+    await expect(page.getByText(/canonical units/)).toHaveCount(0);
+    const shots = process.env.E2E_SHOTS_DIR;
+    if (shots) {
+      for (const width of [1366, 390]) {
+        await page.setViewportSize({ width, height: 900 });
+        await page.screenshot({ path: `${shots}/review-page-${width}.png`, fullPage: true });
+      }
+      await page.setViewportSize({ width: 1280, height: 720 });
+    }
+  });
+
+  await test.step("the full record reads as a curator's, and the audit trail has the reply", async () => {
+    await page.getByRole("link", { name: /^The full record/ }).click();
+    await expect(page).toHaveURL(/\/deposits\/\d+$/);
+    // The site header keeps its own menu; the page itself has no author crumbs.
+    await expect(page.getByRole("main").getByRole("link", { name: "My deposits", exact: true })).toHaveCount(0);
+    await expect(page.getByText(/withdraw it/)).toHaveCount(0);
+    await expect(page.getByRole("link", { name: /^Review of version 1$/ })).toBeVisible();
+    await page.getByRole("link", { name: "Audit trail", exact: true }).click();
+    await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Audit trail: ${title}`);
+    await expect(page.getByRole("row").filter({ hasText: "returned it to the authors" })).toContainText(changesReason);
+    await expect(page.getByRole("row").filter({ hasText: reply })).toContainText("submitted it for review");
   });
 
   await test.step("the curator accepts and publishes", async () => {
-    await signInAs(page, curator);
     await review.openFromQueue(title);
     await review.decide(
       "Accept and publish",
@@ -111,10 +153,12 @@ test("a deposit goes from an uploaded CSV through a return to the authors to pub
   });
 
   await test.step("the inbox holds the mail of every step", async () => {
-    // Each curator heard of both submissions; the researcher of both decisions.
+    // Each curator heard of both submissions (the one who returned it with the reply); the researcher of both decisions.
     await signInAs(page, { email: DEMO_ADMIN.email, name: "Rosalind Okafor" });
     await new MailLog(page).expectCounts([
-      ...DEMO_CURATORS.map((c) => ({ to: c.email, subject: `Waiting for review: ${title}`, count: 2 })),
+      { to: curator.email, subject: `Waiting for review: ${title}`, count: 1 },
+      { to: curator.email, subject: `Back for review after your return: ${title}`, count: 1 },
+      { to: DEMO_CURATORS[1].email, subject: `Waiting for review: ${title}`, count: 2 },
       { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: returned for revision`, count: 1 },
       { to: DEMO_RESEARCHER.email, subject: `Decision on “${title}”: accepted`, count: 1 },
     ]);

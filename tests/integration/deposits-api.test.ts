@@ -229,7 +229,8 @@ describe("POST /api/v1/versions/:id/transitions, per role", () => {
     expect(await step(owner, { transition: "accept", reason: "mine" })).toBe(403);
     expect(await step(curator, { transition: "return" })).toBe(422);
     expect(await step(curator, { transition: "return", reason: "State the bath gas pressure of each point." })).toBe(200);
-    expect(await step(owner, { transition: "submit" })).toBe(200);
+    expect(await step(owner, { transition: "submit" })).toBe(422); // a resubmission answers the return
+    expect(await step(owner, { transition: "submit", reply: "Added the bath gas pressure of each point." })).toBe(200);
     expect(await step(admin, { transition: "accept", reason: "Consistent and complete." })).toBe(200);
     as(null);
     const res = await getVersion(req(`/api/v1/versions/${versionId}`), ctx(versionId));

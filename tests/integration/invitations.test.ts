@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { acceptInvitation, inviteCoEditor } from "@/lib/datasets/invitations";
+import { acceptInvitation, describeInvitation, inviteCoEditor, listPendingInvitations, revokeInvitation } from "@/lib/datasets/invitations";
 import { createDatasetDraft, getVersionWithRole, type AnalysisSummary } from "@/lib/datasets/queries";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { linkToken, sql, uniqueEmail } from "./helpers";
@@ -56,5 +56,47 @@ describe("co-editor invitations", () => {
     const secret = await invitationSecret(other.email);
     await sql`update dataset_invitations set expires_at = now() - interval '1 minute' where dataset_id = ${v.datasetId}`;
     await expect(acceptInvitation({ actor: other, secret })).rejects.toThrow(/expired/);
+  });
+
+  it("the accept page names the dataset; accepting lands on its newest version and tells the owner by mail", async () => {
+    const v = await draft();
+    await inviteCoEditor({ actor: owner, versionId: v.id, email: invitee.email, role: "viewer" });
+    const secret = await invitationSecret(invitee.email);
+    expect(await describeInvitation({ secret })).toEqual({
+      usable: true,
+      title: "Invitation test",
+      role: "viewer",
+      inviter: owner.name,
+      email: invitee.email,
+    });
+    const accepted = await acceptInvitation({ actor: invitee, secret });
+    expect(accepted).toMatchObject({ versionId: v.id, title: "Invitation test", role: "viewer" });
+    expect(await describeInvitation({ secret })).toMatchObject({ usable: false, why: expect.stringMatching(/already used/) });
+    const [mail] = await sql`select data->>'subject' as subject, data->>'text' as text from pgboss.job
+      where name = 'mail' and data->>'to' = ${owner.email} and data->>'subject' like '%joined%' order by created_on desc limit 1`;
+    expect(mail.subject).toBe(`${invitee.name} joined “Invitation test”`);
+    expect(mail.text).toContain(`${invitee.email}) accepted your invitation and is now a viewer`);
+    expect(mail.text).toContain(`/deposits/${v.id}`);
+  });
+
+  it("owners see pending invitations and revoke them; the link then stops working; others may not", async () => {
+    const v = await draft();
+    await inviteCoEditor({ actor: owner, versionId: v.id, email: invitee.email, role: "editor" });
+    await acceptInvitation({ actor: invitee, secret: await invitationSecret(invitee.email) });
+    const address = uniqueEmail("pending");
+    await inviteCoEditor({ actor: owner, versionId: v.id, email: address, role: "viewer" });
+    const secret = await invitationSecret(address);
+    const pending = await listPendingInvitations({ actor: owner, versionId: v.id });
+    expect(pending.map((p) => [p.email, p.role, p.expired])).toEqual([[address, "viewer", false]]);
+    await expect(listPendingInvitations({ actor: invitee, versionId: v.id })).rejects.toMatchObject({ status: 403 });
+    await expect(listPendingInvitations({ actor: other, versionId: v.id })).rejects.toMatchObject({ status: 404 });
+    await expect(revokeInvitation({ actor: invitee, invitationId: pending[0].id })).rejects.toMatchObject({ status: 403 });
+    await expect(revokeInvitation({ actor: other, invitationId: pending[0].id })).rejects.toMatchObject({ status: 404 });
+    await revokeInvitation({ actor: owner, invitationId: pending[0].id });
+    expect(await listPendingInvitations({ actor: owner, versionId: v.id })).toEqual([]);
+    expect(await describeInvitation({ secret })).toMatchObject({ usable: false, why: expect.stringMatching(/revoked/) });
+    const [event] =
+      await sql`select details from audit_events where action = 'dataset.invitation_revoked' and subject_id = ${String(v.datasetId)}`;
+    expect(event.details).toEqual({ email: address, role: "viewer" });
   });
 });

@@ -73,7 +73,7 @@ describe("lifecycle in the database, per role", () => {
       transition: "return",
       reason: "Give the bath gas of each point.",
     });
-    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit", reply: "Each point now has its bath gas." });
     await applyTransition({ versionId: v.id, actorId: admin.id, transition: "start_review" });
     const out = await applyTransition({ versionId: v.id, actorId: admin.id, transition: "accept", reason: "Complete and consistent." });
     expect(out.to).toBe("published");

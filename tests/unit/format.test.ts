@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatFixed, formatNumber, formatTenTo, formatRange, formatSignificant } from "@/lib/format";
+import { formatFixed, formatNumber, formatTenTo, formatRange, formatSignificant, formatWaiting } from "@/lib/format";
 
 describe("formatSignificant", () => {
   it.each([
@@ -62,4 +62,15 @@ describe("formatTenTo", () => {
     [-400.65, 3, "2.24e\u2212401"],
     [400.35, 2, "2.2e400"],
   ] as const)("10^%s to %i digits → %s", (v, d, out) => expect(formatTenTo(v, d)).toBe(out));
+});
+
+describe("formatWaiting", () => {
+  const h = 3_600_000;
+  it("says hours under a day, days and hours after, days alone from ten days on", () => {
+    expect(formatWaiting(20 * 60_000)).toBe("under 1 h");
+    expect(formatWaiting(3 * h + 59 * 60_000)).toBe("3 h");
+    expect(formatWaiting(24 * h)).toBe("1 d");
+    expect(formatWaiting(52 * h)).toBe("2 d 4 h");
+    expect(formatWaiting(12 * 24 * h + 5 * h)).toBe("12 d");
+  });
 });

@@ -1,3 +1,4 @@
+import { versionPath } from "@/lib/identifiers/paths";
 import { notFound, redirect } from "next/navigation";
 import { listPublicVersions } from "@/lib/datasets/queries";
 import { parseIdOrNull } from "@/lib/ids";
@@ -10,5 +11,5 @@ export default async function DatasetSeriesPage({ params }: { params: Promise<{ 
   const versions = await listPublicVersions({ datasetId });
   const newest = versions.find((v) => v.state === "published") ?? versions[0];
   if (!newest) notFound();
-  redirect(`/datasets/${datasetId}/v${newest.number}`);
+  redirect(versionPath(datasetId, newest.number));
 }

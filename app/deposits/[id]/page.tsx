@@ -1,11 +1,16 @@
+import { versionPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
 import { DepositEditor } from "@/components/deposit-editor/deposit-editor";
 import { FilesPanel } from "@/components/deposit-editor/files-panel";
+import { listPendingInvitations } from "@/lib/datasets/invitations";
+import { InvitationsPanel } from "./invitations-panel";
 import type { StoredCheck } from "@/components/deposit-editor/words";
 import { stateWords } from "@/components/deposit-editor/words";
 import { getCurrentUser } from "@/lib/auth/session";
+import { can } from "@/lib/auth/permissions";
+import { auditTrailPath } from "@/lib/audit/paths";
 import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
 import { getLatestAnalysis, listDatasetMembers, listDecisions } from "@/lib/datasets/queries";
 import type { DepositDocument } from "@/lib/deposits/types";
@@ -54,18 +59,31 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
     throw err;
   }
   const { version, datasetRole, capabilities } = found;
-  const [analysis, decisions, members] = await Promise.all([
+  // A curator or admin who is not a member reads the record as a reviewer, not as an author.
+  const curatorView = !datasetRole && can(user.role, "dataset.review");
+  const [analysis, decisions, members, invitations] = await Promise.all([
     getLatestAnalysis({ versionId }),
     listDecisions({ versionId }),
     datasetRole ? listDatasetMembers({ datasetId: version.datasetId }) : Promise.resolve([]),
+    datasetRole === "owner" ? listPendingInvitations({ actor: user, versionId }) : Promise.resolve(null),
   ]);
 
   return (
     <div className="space-y-6">
       <header className="space-y-2">
-        <p className="text-sm">
-          <Link href="/deposits">My deposits</Link> / v{version.number}
-        </p>
+        {/* Members come from their deposits; curators and admins from the review of this version. */}
+        <nav aria-label="Where you are" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+          {datasetRole ? (
+            <span>
+              <Link href="/deposits">My deposits</Link> / v{version.number}
+            </span>
+          ) : curatorView ? (
+            <span>
+              <Link href="/review">Review queue</Link> / <Link href={`/review/${version.id}`}>Review of version {version.number}</Link>
+            </span>
+          ) : null}
+          {(datasetRole || curatorView) && <Link href={auditTrailPath(version.datasetId)}>Audit trail</Link>}
+        </nav>
         <h1 className="text-3xl font-semibold">{version.title || "Untitled deposit"}</h1>
         <p className="text-sm text-muted">
           Version {version.number}, {stateWords(version.state)}.
@@ -79,7 +97,7 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
           state: version.state,
           versionIdentifier: version.versionIdentifier,
           retractionNotice: version.retractionNotice,
-          publicPath: `/datasets/${version.datasetId}/v${version.number}`,
+          publicPath: versionPath(version.datasetId, version.number),
         }}
         payload={(version.draftDocument ?? version.payload) as unknown as DepositDocument}
         problems={version.draftProblems ?? []}
@@ -97,6 +115,11 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
         members={members.map((m) => ({ name: m.name, role: m.role }))}
       />
       <FilesPanel versionId={version.id} editable={capabilities.upload_files} />
+      {invitations && (
+        <InvitationsPanel
+          invitations={invitations.map((i) => ({ ...i, createdAt: i.createdAt.toISOString(), expiresAt: i.expiresAt.toISOString() }))}
+        />
+      )}
     </div>
   );
 }

@@ -95,9 +95,9 @@ export default function ApiDocsPage() {
             <code>T0</code>: reference temperature of the modified Arrhenius term, K (default 298.15).
           </li>
           <li>
-            <code>units</code>: <code>{"{ k?, T? }"}</code>; default the canonical units. k:{" "}
-            {[1, 2, 3].map((o) => SUPPORTED_UNITS.rateConstant[o as 1 | 2 | 3].map((u) => u.id).join(", ")).join("; ")}. T:{" "}
-            {SUPPORTED_UNITS.temperature.map((u) => u.id).join(", ")}.
+            <code>units</code>: <code>{"{ k?, T? }"}</code>; default the storage units (K; s⁻¹, cm³ molecule⁻¹ s⁻¹ or cm⁶ molecule⁻² s⁻¹ by
+            reaction order). k: {[1, 2, 3].map((o) => SUPPORTED_UNITS.rateConstant[o as 1 | 2 | 3].map((u) => u.id).join(", ")).join("; ")}.
+            T: {SUPPORTED_UNITS.temperature.map((u) => u.id).join(", ")}.
           </li>
         </ul>
         <h3 className="font-semibold">Answer</h3>
@@ -177,9 +177,9 @@ export default function ApiDocsPage() {
           <code>notUsed</code> (each with <code>reasons</code>: a stable <code>code</code> — <code>retracted</code>, <code>evaluated</code>,{" "}
           <code>unknown_method</code>, <code>not_chosen</code>, <code>excluded_by_curator</code>, <code>other_order</code>,{" "}
           <code>too_few_temperatures</code>, <code>outside_window</code>, <code>unit_suspect</code> — and a <code>message</code>) and{" "}
-          <code>curatorExclusions</code> (version, reason, time). <code>consensus</code> is the engine’s result in canonical units (
-          <code>units</code>); its <code>members[].id</code> are the version ids of <code>used</code>, as strings, plus those left out by a
-          curator alone (compared, not fitted) and those it left out as a likely unit mistake. When no consensus can be formed,{" "}
+          <code>curatorExclusions</code> (version, reason, time). <code>consensus</code> is the engine’s result in the storage units named
+          in (<code>units</code>); its <code>members[].id</code> are the version ids of <code>used</code>, as strings, plus those left out
+          by a curator alone (compared, not fitted) and those it left out as a likely unit mistake. When no consensus can be formed,{" "}
           <code>consensus</code> is null and <code>unavailable</code> says why.
         </p>
         <h3 className="font-semibold">Which datasets go in</h3>

@@ -1,3 +1,4 @@
+import { resolvedIdentifierPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
 import { notFound, redirect } from "next/navigation";
 import { parseIdentifier } from "@/lib/identifiers/series-code";
@@ -19,7 +20,7 @@ export default async function IdentifierPage({ params }: { params: Promise<{ ide
   if (!parsed.ok) notFound();
   const found = await resolveIdentifier({ identifier: parsed.identifier });
   if (!found) notFound();
-  redirect(found.kind === "version" ? `/datasets/${found.datasetId}/v${found.versionNumber}` : `/datasets/${found.datasetId}`);
+  redirect(resolvedIdentifierPath(found));
 }
 
 function safeDecode(part: string): string {

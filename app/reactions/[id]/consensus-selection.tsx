@@ -1,3 +1,4 @@
+import { versionPath } from "@/lib/identifiers/paths";
 import Link from "next/link";
 import {
   CONSENSUS_INCLUDES,
@@ -150,7 +151,7 @@ export function WhatWentIn({
         <ul className="list-disc space-y-1 pl-6 text-sm">
           {used.map((d) => (
             <li key={d.versionId}>
-              <Link href={`/datasets/${d.datasetId}/v${d.number}`}>{d.title}</Link> <span className="text-muted">v{d.number}</span> —{" "}
+              <Link href={versionPath(d.datasetId, d.number)}>{d.title}</Link> <span className="text-muted">v{d.number}</span> —{" "}
               {kindWords[d.kind]}, {d.pointsUsed === d.points ? `${d.points} points` : `${d.pointsUsed} of its ${d.points} points`},{" "}
               {formatRange(d.Tmin, d.Tmax, "K")}
             </li>
@@ -164,7 +165,7 @@ export function WhatWentIn({
         <ul className="list-disc space-y-2 pl-6 text-sm">
           {notUsed.map((d) => (
             <li key={d.versionId}>
-              <Link href={`/datasets/${d.datasetId}/v${d.number}`}>{d.title}</Link> <span className="text-muted">v{d.number}</span> —{" "}
+              <Link href={versionPath(d.datasetId, d.number)}>{d.title}</Link> <span className="text-muted">v{d.number}</span> —{" "}
               {kindWords[d.kind]}:
               <ul className="pl-4">
                 {d.reasons.map((r) => (

@@ -1,3 +1,4 @@
+import { versionPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -161,8 +162,7 @@ export default async function ReactionPage({
                     return (
                       <tr key={v.versionId}>
                         <td>
-                          <Link href={`/datasets/${v.datasetId}/v${v.number}`}>{v.title}</Link>{" "}
-                          <span className="text-muted">v{v.number}</span>
+                          <Link href={versionPath(v.datasetId, v.number)}>{v.title}</Link> <span className="text-muted">v{v.number}</span>
                         </td>
                         <td>
                           <StateLabel state={v.state} />

@@ -5,6 +5,7 @@ import { useState, useTransition } from "react";
 import { transitionAction } from "@/app/deposits/actions";
 import type { VersionCapabilities } from "@/lib/curation/capabilities";
 import type { Transition } from "@/lib/curation/lifecycle";
+import { stateWords } from "@/components/deposit-editor/words";
 
 const decisions: { value: Transition; label: string; hint: string }[] = [
   { value: "accept", label: "Accept and publish", hint: "The version is frozen and gets its identifier." },
@@ -41,7 +42,7 @@ export function DecisionForm({
     start(async () => {
       const r = await transitionAction(versionId, t, why);
       if (r.ok) {
-        setMessage({ ok: true, text: doneWords[r.state] ?? `Done: the version is now ${r.state.replace("_", " ")}.` });
+        setMessage({ ok: true, text: doneWords[r.state] ?? `Done: the version is now ${stateWords(r.state)}.` });
         setReason("");
         router.refresh();
       } else setMessage({ ok: false, text: r.message });

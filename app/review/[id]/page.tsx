@@ -1,12 +1,14 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import jsonPatch from "fast-json-patch";
-import { ArrheniusPlot } from "@/components/arrhenius-plot";
+import { SubmissionChanges } from "@/components/submission-changes";
 import { MarkdownText } from "@/components/markdown-text";
 import { SeverityLabel, StateLabel } from "@/components/state-label";
 import { requirePagePermission } from "@/lib/auth/page-guard";
-import { findPossibleDuplicates, getPreviousVersion } from "@/lib/curation/queries";
+import { findPossibleDuplicates, getPreviousVersion, listSubmissionSnapshots } from "@/lib/curation/queries";
+import { stateWords } from "@/lib/curation/lifecycle";
+import { diffSubmissions } from "@/lib/curation/submission-diff";
+import { auditTrailPath } from "@/lib/audit/paths";
 import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
 import { getLatestAnalysis, getVersionPoints, listDecisions } from "@/lib/datasets/queries";
 import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
@@ -14,10 +16,11 @@ import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
 import { parseIdOrNull, parseIdOrThrow } from "@/lib/ids";
 import { getCurrentUser } from "@/lib/auth/session";
-import { describeExtrapolation, formatFlagMessage, GAS_CONSTANT, REFERENCE_TEMPERATURE, type Flag } from "@/lib/kinetics";
+import { formatFlagMessage, type Flag } from "@/lib/kinetics";
 import { DecisionForm } from "./decision-form";
-import { formatRange, formatSignificant } from "@/lib/format";
-import { ScrollRegion } from "@/components/scroll-region";
+import { DECISION_WORDS } from "@/components/deposit-editor/words";
+import { formatRange } from "@/lib/format";
+import { ReviewFit, type ReportedCanonical } from "./review-fit";
 
 /** "Review of <title>" in the browser tab, for a reader who may see the version. */
 export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
@@ -32,7 +35,79 @@ export async function generateMetadata({ params }: { params: Promise<{ id: strin
   }
 }
 
-const sig = (v: number | null | undefined, digits = 4) => formatSignificant(v, digits);
+const utc = (d: Date) => `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
+
+type Decision = Awaited<ReturnType<typeof listDecisions>>[number];
+type Snapshot = Awaited<ReturnType<typeof listSubmissionSnapshots>>[number];
+
+interface Exchange {
+  snapshotId: number;
+  returned?: Decision;
+  reply: string;
+  repliedAt: Date;
+  by: string;
+}
+
+/** Each reply with the return it answers (the newest return before it). */
+function replyExchanges(decisions: Decision[], snapshots: Snapshot[]): Exchange[] {
+  return snapshots
+    .filter((s) => s.reply)
+    .map((s) => ({
+      snapshotId: s.id,
+      returned: decisions.find((d) => d.decision === "return" && d.createdAt <= s.createdAt),
+      reply: s.reply!,
+      repliedAt: s.createdAt,
+      by: s.submittedBy ?? "the owner",
+    }));
+}
+
+/** Decisions and submissions of this version, newest first. */
+function historyOf(decisions: Decision[], snapshots: Snapshot[]) {
+  return [
+    ...decisions.map((d) => ({
+      key: `d${d.id}`,
+      at: d.createdAt,
+      what: DECISION_WORDS[d.decision] ?? d.decision,
+      who: d.curator,
+      text: d.reason,
+    })),
+    ...snapshots.map((s) => ({
+      key: `s${s.id}`,
+      at: s.createdAt,
+      what: s.sequence === 1 ? "submitted" : `submitted again (submission ${s.sequence})`,
+      who: s.submittedBy ?? "the owner",
+      text: s.reply ? `Reply: ${s.reply}` : "",
+    })),
+  ].sort((a, b) => b.at.getTime() - a.at.getTime());
+}
+
+/** The curator's reason for the return and the authors' reply, side by side. */
+function ReturnAndReply({ exchange }: { exchange: Exchange }) {
+  return (
+    <div className="grid gap-3 sm:grid-cols-2">
+      <div className="rounded-md border border-line bg-panel px-3 py-2 text-sm">
+        <h3 className="font-semibold">Reason for returning it</h3>
+        {exchange.returned ? (
+          <>
+            <p className="text-xs text-muted">
+              {exchange.returned.curator}, {utc(exchange.returned.createdAt)}
+            </p>
+            <p className="mt-1 whitespace-pre-line break-words">{exchange.returned.reason}</p>
+          </>
+        ) : (
+          <p className="text-muted">Not on record.</p>
+        )}
+      </div>
+      <div className="rounded-md border border-line bg-panel px-3 py-2 text-sm">
+        <h3 className="font-semibold">The authors&apos; reply</h3>
+        <p className="text-xs text-muted">
+          {exchange.by}, {utc(exchange.repliedAt)}
+        </p>
+        <p className="mt-1 whitespace-pre-line break-words">{exchange.reply}</p>
+      </div>
+    </div>
+  );
+}
 
 function CheckList({ items }: { items: { code: string; severity: string; message: string }[] }) {
   if (!items.length) return <p className="text-sm text-ok">No findings.</p>;
@@ -58,41 +133,78 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
     throw err;
   }
   const { version, datasetRole, capabilities } = found;
-  const [analysis, points, duplicates, previous, decisions] = await Promise.all([
+  const [analysis, points, duplicates, previous, decisions, snapshots] = await Promise.all([
     getLatestAnalysis({ versionId: version.id }),
     getVersionPoints({ versionId: version.id }),
     findPossibleDuplicates({ versionId: version.id }),
     getPreviousVersion({ datasetId: version.datasetId, number: version.number }),
     listDecisions({ versionId: version.id }),
+    listSubmissionSnapshots({ versionId: version.id }),
   ]);
   const schema = validateDeposit(version.payload);
   const result = drawableFit(analysis?.result);
   const flags: Flag[] = (result?.flags ?? []).map((f) => ({ ...f, message: formatFlagMessage(f) }));
-  const outliers = new Set(flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []));
-  // The authors' expression in canonical units (A) and J/mol (Ea), comparable with the re-fit.
-  const reported = schema.ok ? toAnalysisInput(schema.value).reportedFit : undefined;
-  // The reported expression at a temperature, K → canonical units.
-  const reportedK = (T: number) =>
-    reported ? reported.A * Math.pow(T / reported.T0, reported.n) * Math.exp(-reported.Ea / (GAS_CONSTANT * T)) : null;
-  const diff = previous ? jsonPatch.compare(previous.payload, version.payload) : null;
+  const outliers = flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []);
+  // The authors' expression in the storage units (A: s⁻¹, cm³ molecule⁻¹ s⁻¹ … by order), J mol⁻¹ (Ea) and K, with the model they report.
+  const reportedInput = schema.ok ? toAnalysisInput(schema.value).reportedFit : undefined;
+  const reported: ReportedCanonical | undefined =
+    schema.ok && reportedInput && schema.value.reportedFit
+      ? { ...reportedInput, model: schema.value.reportedFit.model ?? "arrhenius" }
+      : undefined;
+  const docKUnit = schema.ok ? schema.value.units.k : "";
+  const order = schema.ok ? schema.value.reaction.order : null;
+
+  // Submissions of this version, newest first. While it waits for a curator, the newest snapshot is
+  // what is under review and the one before it the last submission; once returned, the draft is
+  // compared with the newest snapshot (what the authors changed so far).
+  const underReview = version.state === "submitted" || version.state === "in_review";
+  const [latest, earlier] = underReview ? [snapshots[0], snapshots[1]] : [undefined, snapshots[0]];
+  const sinceSubmission = earlier ? diffSubmissions(earlier.payload, latest?.payload ?? version.payload) : null;
+  const sinceVersion = previous ? diffSubmissions(previous.payload, version.payload) : null;
+  const exchanges = replyExchanges(decisions, snapshots);
+  const lastExchange = latest?.reply ? exchanges.find((e) => e.snapshotId === latest.id) : undefined;
 
   return (
     <div className="space-y-6">
-      <p className="flex gap-4 text-sm">
+      <nav aria-label="Review" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
         <Link href="/review">← Review queue</Link>
         <Link href={`/deposits/${version.id}`}>The full record (reaction, data table, method, source, files)</Link>
-      </p>
+        <Link href={auditTrailPath(version.datasetId)}>Audit trail of this dataset</Link>
+      </nav>
       <header className="space-y-2">
-        <h1 className="text-3xl font-semibold">{version.title}</h1>
+        <h1 className="text-3xl font-semibold break-words">{version.title}</h1>
         <p className="flex flex-wrap items-center gap-3 text-sm text-muted">
           <StateLabel state={version.state} /> <span>version {version.number}</span> <span>{version.pointCount} points</span>
           {version.tMin !== null && <span>{formatRange(version.tMin, version.tMax ?? version.tMin, "K")}</span>}
+          {snapshots.length > 0 && <span>submission {snapshots[0].sequence} of this version</span>}
           {version.versionIdentifier && <span>identifier {version.versionIdentifier}</span>}
         </p>
       </header>
 
-      <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
-        <div className="space-y-6">
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
+        <div className="min-w-0 space-y-6">
+          <section className="card space-y-3" aria-labelledby="resubmission-heading">
+            <h2 id="resubmission-heading" className="text-xl font-semibold">
+              {underReview ? "Changes since the last submission" : "Changes since the last submission (the draft now)"}
+            </h2>
+            {lastExchange && <ReturnAndReply exchange={lastExchange} />}
+            {!sinceSubmission ? (
+              <p className="text-sm text-muted">
+                {snapshots.length <= 1
+                  ? "This is the first submission of this version: nothing to compare within it."
+                  : "Nothing to compare yet."}
+              </p>
+            ) : (
+              <>
+                <p className="text-sm text-muted">
+                  Submission {earlier!.sequence} ({earlier!.createdAt.toISOString().slice(0, 16).replace("T", " ")} UTC) compared with{" "}
+                  {latest ? `submission ${latest.sequence}, under review now` : "the draft as saved now"}.
+                </p>
+                <SubmissionChanges diff={sinceSubmission} label="Changes since the last submission" />
+              </>
+            )}
+          </section>
+
           {typeof (version.payload as { description?: unknown }).description === "string" && (
             <section className="card space-y-2" aria-labelledby="about-heading">
               <h2 id="about-heading" className="text-xl font-semibold">
@@ -115,87 +227,14 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
             <CheckList items={analysis?.checks ?? []} />
             <h3 className="font-semibold">Fit diagnostics</h3>
             <CheckList items={flags} />
-            {result && (
-              <>
-                <h3 className="font-semibold">Reported versus re-fitted</h3>
-                <ScrollRegion label="Reported versus re-fitted parameters">
-                  <table className="table">
-                    <thead>
-                      <tr>
-                        <th scope="col">Parameter</th>
-                        <th scope="col">Reported by the authors</th>
-                        <th scope="col">Re-fitted here (Arrhenius)</th>
-                      </tr>
-                    </thead>
-                    <tbody>
-                      <tr>
-                        <td>A (canonical units)</td>
-                        <td>{reported ? sig(reported.A) : "not reported"}</td>
-                        <td>{sig(result.arrhenius.params.A)}</td>
-                      </tr>
-                      <tr>
-                        <td>Ea</td>
-                        <td>
-                          {reported ? `${sig(reported.Ea / 1000)} kJ mol⁻¹ (E/R = ${sig(reported.Ea / GAS_CONSTANT)} K)` : "not reported"}
-                        </td>
-                        <td>
-                          {sig(result.arrhenius.params.Ea / 1000)} kJ mol⁻¹ (E/R = {sig(result.arrhenius.params.Ea / GAS_CONSTANT)} K)
-                        </td>
-                      </tr>
-                      <tr>
-                        <td>Temperature range</td>
-                        <td>
-                          {reported?.Tmin !== undefined || reported?.Tmax !== undefined
-                            ? reported.Tmin !== undefined && reported.Tmax !== undefined
-                              ? formatRange(reported.Tmin, reported.Tmax, "K")
-                              : `${reported.Tmin !== undefined ? `from ${sig(reported.Tmin)}` : `up to ${sig(reported.Tmax)}`} K`
-                            : "not stated"}
-                        </td>
-                        <td>{formatRange(result.band.T[0], result.band.T[result.band.T.length - 1], "K")} (the data)</td>
-                      </tr>
-                      <tr>
-                        <td>k({sig(result.arrhenius.kMid.T)} K), middle of the data in 1/T</td>
-                        <td>{reported ? sig(reportedK(result.arrhenius.kMid.T)) : "—"}</td>
-                        <td>
-                          {sig(result.arrhenius.kMid.value)} (95 %: {sig(result.arrhenius.kMid.lower, 3)} …{" "}
-                          {sig(result.arrhenius.kMid.upper, 3)})
-                        </td>
-                      </tr>
-                      <tr>
-                        <td>k(298.15 K)</td>
-                        <td>{reported ? sig(reportedK(REFERENCE_TEMPERATURE)) : "—"}</td>
-                        <td>
-                          {sig(result.arrhenius.k298.value)} (95 %: {sig(result.arrhenius.k298.lower, 3)} …{" "}
-                          {sig(result.arrhenius.k298.upper, 3)})
-                          {result.arrhenius.k298.extrapolation && (
-                            <span className="block text-xs text-warn">{describeExtrapolation(result.arrhenius.k298.extrapolation)}</span>
-                          )}
-                        </td>
-                      </tr>
-                      {result.modifiedArrhenius && (
-                        <tr>
-                          <td>n (modified Arrhenius)</td>
-                          <td>{reported?.n !== undefined ? sig(reported.n) : "—"}</td>
-                          <td>{sig(result.modifiedArrhenius.params.n)}</td>
-                        </tr>
-                      )}
-                    </tbody>
-                  </table>
-                </ScrollRegion>
-              </>
-            )}
           </section>
 
-          {result && points.length > 0 && (
-            <section className="card space-y-2" aria-labelledby="plot-heading">
+          {result && points.length > 0 && order !== null && (
+            <section className="card min-w-0 space-y-3" aria-labelledby="plot-heading">
               <h2 id="plot-heading" className="text-xl font-semibold">
-                Arrhenius plot
+                Data, re-fit and the authors&apos; expression
               </h2>
-              <ArrheniusPlot
-                points={points.map((p, i) => ({ T: p.T, lnk: Math.log(p.k), outlier: outliers.has(i) }))}
-                band={result.band}
-                kUnitLabel="canonical units"
-              />
+              <ReviewFit result={result} points={points} outliers={outliers} order={order} initialKUnit={docKUnit} reported={reported} />
               <p className="text-xs text-muted">{FIT_CAUTION}</p>
             </section>
           )}
@@ -210,7 +249,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
               <ul className="list-disc space-y-1 pl-5 text-sm">
                 {duplicates.map((d) => (
                   <li key={d.versionId}>
-                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, {d.state.replace("_", " ")},{" "}
+                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, <StateLabel state={d.state} />,{" "}
                     {formatRange(d.tMin, d.tMax, "K")}){d.sameDoi ? " — same source DOI" : ""}
                   </li>
                 ))}
@@ -220,21 +259,12 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
 
           <section className="card space-y-2" aria-labelledby="diff-heading">
             <h2 id="diff-heading" className="text-xl font-semibold">
-              Changes since the previous version
+              {previous ? `Changes since version ${previous.number} (${stateWords[previous.state]})` : "Changes since the previous version"}
             </h2>
-            {!diff ? (
-              <p className="text-sm text-muted">This is the first version.</p>
-            ) : diff.length === 0 ? (
-              <p className="text-sm text-muted">No changes to version {previous!.number}.</p>
+            {!sinceVersion ? (
+              <p className="text-sm text-muted">This is the dataset&apos;s first version: there is no earlier version to compare with.</p>
             ) : (
-              <ul className="space-y-1 font-mono text-xs">
-                {diff.slice(0, 200).map((op, i) => (
-                  <li key={i}>
-                    <span className="font-semibold">{op.op}</span> {op.path}
-                    {"value" in op ? ` → ${JSON.stringify(op.value).slice(0, 120)}` : ""}
-                  </li>
-                ))}
-              </ul>
+              <SubmissionChanges diff={sinceVersion} label={`Changes since version ${previous!.number}`} />
             )}
           </section>
         </div>
@@ -248,20 +278,25 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
           </section>
           <section className="card space-y-2" aria-labelledby="history-heading">
             <h2 id="history-heading" className="text-xl font-semibold">
-              Earlier decisions
+              Earlier decisions and replies
             </h2>
-            {decisions.length === 0 ? (
+            {decisions.length === 0 && snapshots.length === 0 ? (
               <p className="text-sm text-muted">None yet.</p>
             ) : (
-              <ul className="space-y-2 text-sm">
-                {decisions.map((d) => (
-                  <li key={d.id}>
-                    <span className="font-medium">{d.decision.replace("_", " ")}</span> by {d.curator},{" "}
-                    {d.createdAt.toISOString().slice(0, 10)}: {d.reason}
+              <ol className="space-y-2 text-sm">
+                {historyOf(decisions, snapshots).map((h) => (
+                  <li key={h.key} className="rounded-md border border-line px-3 py-2">
+                    <p>
+                      <span className="font-medium">{h.what}</span> by {h.who}, <time dateTime={h.at.toISOString()}>{utc(h.at)}</time>
+                    </p>
+                    {h.text && <p className="mt-1 whitespace-pre-line break-words">{h.text}</p>}
                   </li>
                 ))}
-              </ul>
+              </ol>
             )}
+            <p className="text-xs">
+              <Link href={auditTrailPath(version.datasetId)}>Every event of this dataset, in the audit trail</Link>
+            </p>
           </section>
         </aside>
       </div>

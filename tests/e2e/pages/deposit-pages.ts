@@ -173,7 +173,9 @@ export class DepositEditorPage {
     await expect(this.page.getByRole("heading", { name: new RegExp(`^Version \\d+: ${words}$`) })).toBeVisible({ timeout: 15_000 });
   }
 
-  async submitForReview() {
+  /** Submits the saved draft; after a return, `reply` is the answer to the curator the form requires. */
+  async submitForReview(reply?: string) {
+    if (reply !== undefined) await this.page.getByLabel(/^Your reply to the curator/).fill(reply);
     const submit = this.page.getByRole("button", { name: "Submit for review" });
     await expect(submit).toBeEnabled({ timeout: 15_000 });
     await submit.click();
@@ -201,6 +203,11 @@ export class ReviewPage {
     await expect(this.page.getByRole("heading", { level: 1, name: "Review queue" })).toBeVisible();
     await this.page.getByRole("link", { name: title, exact: true }).click();
     await expect(this.page.getByRole("heading", { level: 1, name: title })).toBeVisible();
+  }
+
+  /** The section comparing this submission with the one before it. */
+  get sinceLastSubmission(): Locator {
+    return this.page.getByRole("region", { name: "Changes since the last submission", exact: true });
   }
 
   async takeIntoReview() {

@@ -14,7 +14,8 @@ const admin: Who = { role: "admin", datasetRole: null };
 
 function outcome(state: VersionState, t: Transition, who: Who, reason = "a reason") {
   try {
-    return planTransition(state, t, who, reason);
+    // A returned version goes back with the authors' reply (checkReplyOrThrow).
+    return planTransition(state, t, who, reason, state === "returned" && t === "submit" ? "Answered the return." : undefined);
   } catch (err) {
     if (err instanceof AppError) return err.status;
     throw err;

@@ -1,4 +1,5 @@
 // GET /api/v1/identifiers?identifier=10.5072/ARH-4F7K-9QXM/2 — what an identifier resolves to (a mistyped code is told apart before any lookup)
+import { resolvedIdentifierPath } from "@/lib/identifiers/paths";
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { appUrl } from "@/lib/config";
@@ -30,7 +31,7 @@ export const GET = withApi(
     }
     const found = await resolveIdentifier({ identifier: parsed.identifier });
     if (!found) throw new AppError("not_found", `No published dataset has the identifier ${parsed.identifier}`);
-    const path = found.kind === "version" ? `/datasets/${found.datasetId}/v${found.versionNumber}` : `/datasets/${found.datasetId}`;
+    const path = resolvedIdentifierPath(found);
     return NextResponse.json({
       data: {
         identifier: found.identifier,

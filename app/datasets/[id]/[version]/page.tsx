@@ -1,3 +1,4 @@
+import { versionPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -161,7 +162,7 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
               .filter((x) => x.number !== number)
               .map((x) => (
                 <li key={x.id}>
-                  <Link href={`/datasets/${datasetId}/v${x.number}`}>Version {x.number}</Link> — {x.state}, doi:{x.versionIdentifier}
+                  <Link href={versionPath(datasetId, x.number)}>Version {x.number}</Link> — {x.state}, doi:{x.versionIdentifier}
                 </li>
               ))}
           </ul>

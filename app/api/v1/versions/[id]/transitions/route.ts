@@ -1,6 +1,7 @@
 // POST /api/v1/versions/:id/transitions — submit, withdraw, review, decide or retract a version (Idempotency-Key honoured)
 import { z } from "zod";
 import { withApi, zodToFieldErrors } from "@/lib/auth/api";
+import { REPLY_MAX } from "@/lib/curation/capabilities";
 import type { TransitionOutcome } from "@/lib/curation/transitions";
 import { transitionVersion } from "@/lib/datasets/deposits";
 import { AppError } from "@/lib/errors";
@@ -12,6 +13,11 @@ const bodySchema = z
   .object({
     transition: z.enum(["submit", "withdraw", "start_review", "return", "accept", "decline", "retract"]),
     reason: z.string().trim().max(5000).optional(),
+    // Bounds and wording of the rule: checkReplyOrThrow (lib/curation/capabilities.ts).
+    reply: z
+      .string()
+      .max(2 * REPLY_MAX)
+      .optional(),
   })
   .strict();
 
@@ -27,10 +33,10 @@ export const POST = withApi<{ id: string }>(
         const parsed = bodySchema.safeParse(parseJsonBytesOrThrow(body));
         if (!parsed.success)
           throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
-        const { transition, reason } = parsed.data;
+        const { transition, reason, reply } = parsed.data;
         // Role and dataset membership are re-read inside the transaction (lib/curation/transitions.ts).
         const answer = (outcome: TransitionOutcome) => ({ status: 200, body: { data: outcome } });
-        return answer(await transitionVersion({ actor: user!, versionId, transition, reason, beforeCommit: keep(answer) }));
+        return answer(await transitionVersion({ actor: user!, versionId, transition, reason, reply, beforeCommit: keep(answer) }));
       },
     });
   },

@@ -1,0 +1,15 @@
+/**
+ * The public pages identifiers resolve to, built in one place: a series to `/datasets/:id` (its
+ * newest public version), a version to `/datasets/:id/v:n`. Pure: pages, route handlers, mail and
+ * client components share it.
+ */
+export const seriesPath = (datasetId: number) => `/datasets/${datasetId}`;
+
+export const versionPath = (datasetId: number, versionNumber: number) => `/datasets/${datasetId}/v${versionNumber}`;
+
+/** Where a resolved identifier (lib/identifiers/queries.ts resolveIdentifier) leads. */
+export function resolvedIdentifierPath(found: { kind: "version" | "series"; datasetId: number; versionNumber?: number | null }): string {
+  return found.kind === "version" && found.versionNumber != null
+    ? versionPath(found.datasetId, found.versionNumber)
+    : seriesPath(found.datasetId);
+}
