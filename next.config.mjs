@@ -23,6 +23,8 @@ const nextConfig = {
     // argument is a deposit document (at most 25 MB, MAX_DOCUMENT_BYTES) passed as a JSON string,
     // whose escaped quotes add about a fifth; every other action sends a few kilobytes.
     serverActions: { bodySizeLimit: "32mb" },
+    // forbidden() (app/forbidden.tsx, a 403 "You do not have access" page) needs this flag in Next 16.
+    authInterrupts: true,
   },
 };
 

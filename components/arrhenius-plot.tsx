@@ -1,17 +1,21 @@
 "use client";
 
+import { useId } from "react";
 import { formatRange, formatSignificant } from "@/lib/format";
 import { ScrollRegion } from "./scroll-region";
+import { kScaleSymbol, onKScale, useKScale } from "./k-scale";
+import { niceScale, temperatureTicks } from "./plot-scales";
+import { Area, CartesianGrid, ComposedChart, ErrorBar, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 
 // Up to this many points the figure carries them as a table too; beyond, the page's downloads do.
 const TABLE_LIMIT = 500;
-import { niceScale, temperatureTicks } from "./plot-scales";
-import { Area, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 
 export interface PlotPoint {
   T: number;
   lnk: number;
   outlier: boolean;
+  /** Stated standard uncertainty of ln k, drawn as a ±1σ error bar. */
+  sigmaLnK?: number;
 }
 
 export interface PlotBand {
@@ -23,48 +27,89 @@ export interface PlotBand {
 }
 
 /**
- * Arrhenius plot: ln k against 1000/T, with T in K on the top axis. Measured points are circles;
- * points flagged as outliers are crosses (shape and colour both differ). The fitted line and its
- * 95 % confidence band come from the chosen model.
+ * Arrhenius plot: ln k (or log₁₀ k, the reader's choice) against 1000/T, with T in K on the top
+ * axis. Measured points are circles, with ±1σ bars where an uncertainty is stated; points flagged
+ * as outliers are crosses (shape and colour both differ). The fitted line and its 95 % confidence
+ * band come from the chosen model. `totalPoints` above `points.length` says the points were thinned
+ * for drawing (the fit used all of them); `tableHref` points the text alternative at the data as a
+ * table when the figure does not carry one itself.
  */
 export function ArrheniusPlot({
   points,
   band,
   kUnitLabel,
   reported,
+  totalPoints,
+  tableHref,
 }: {
   points: PlotPoint[];
   band: PlotBand;
   kUnitLabel: string;
   /** The authors' own expression, drawn dashed over the data and the re-fit (same units as the points). */
   reported?: { T: number[]; lnk: number[] };
+  totalPoints?: number;
+  tableHref?: string;
 }) {
+  const [scale, scaleControl] = useKScale();
+  const tableId = useId();
+  const total = Math.max(totalPoints ?? 0, points.length);
+  const thinned = total > points.length;
+  const yOf = (lnk: number) => onKScale(lnk, scale);
+  const symbol = kScaleSymbol(scale);
   const reportedLine = reported
-    ? reported.T.map((t, i) => ({ x: 1000 / t, reported: reported.lnk[i] })).filter((p) => Number.isFinite(p.reported))
+    ? reported.T.map((t, i) => ({ x: 1000 / t, reported: yOf(reported.lnk[i]) })).filter((p) => Number.isFinite(p.reported))
     : [];
   const xs = [...points.map((p) => 1000 / p.T), ...band.T.map((t) => 1000 / t), ...reportedLine.map((p) => p.x)];
   const x = niceScale(Math.min(...xs), Math.max(...xs));
   const domain = x.domain;
   const topTicks = temperatureTicks(domain);
   const ys = [
-    ...points.map((p) => p.lnk),
+    ...points.flatMap((p) => (p.sigmaLnK ? [p.lnk - p.sigmaLnK, p.lnk + p.sigmaLnK] : [p.lnk])),
     ...(band.lower ?? band.lnk),
     ...(band.upper ?? band.lnk),
-    ...reportedLine.map((p) => p.reported),
-  ].filter(Number.isFinite);
-  const y = niceScale(Math.min(...ys), Math.max(...ys));
+  ]
+    .map(yOf)
+    .concat(reportedLine.map((p) => p.reported))
+    .filter(Number.isFinite);
+  let yMin = Infinity;
+  let yMax = -Infinity;
+  for (const v of ys) {
+    if (v < yMin) yMin = v;
+    if (v > yMax) yMax = v;
+  }
+  const y = niceScale(yMin, yMax);
   const fit = band.T.map((t, i) => ({
     x: 1000 / t,
-    fit: band.lnk[i],
-    range: band.lower && band.upper ? [band.lower[i], band.upper[i]] : undefined,
+    fit: yOf(band.lnk[i]),
+    range: band.lower && band.upper ? [yOf(band.lower[i]), yOf(band.upper[i])] : undefined,
   }));
-  const normal = points.filter((p) => !p.outlier).map((p) => ({ x: 1000 / p.T, y: p.lnk, T: p.T }));
-  const flagged = points.filter((p) => p.outlier).map((p) => ({ x: 1000 / p.T, y: p.lnk, T: p.T }));
+  const drawn = (p: PlotPoint) => ({ x: 1000 / p.T, y: yOf(p.lnk), T: p.T, ...(p.sigmaLnK ? { err: yOf(p.sigmaLnK) } : {}) });
+  const normal = points.filter((p) => !p.outlier).map(drawn);
+  const flagged = points.filter((p) => p.outlier).map(drawn);
+  const withBars = points.some((p) => p.sigmaLnK);
   const fitName = band.model === "modified_arrhenius" ? "modified Arrhenius fit" : "Arrhenius fit";
-  const Ts = points.map((p) => p.T);
-  const summary = `Arrhenius plot, ln k against 1000/T, of ${points.length} points between ${formatRange(Math.min(...Ts), Math.max(...Ts), "K")}, ln k from ${y.domain[0]} to ${y.domain[1]}, with the ${fitName}${band.lower ? " and its 95 % band" : ""}${flagged.length ? `; ${flagged.length} point${flagged.length === 1 ? "" : "s"} flagged as outlier${flagged.length === 1 ? "" : "s"}, drawn as crosses` : ""}${reportedLine.length ? "; the expression the authors report is drawn dashed" : ""}. The fitted parameters are in the table below.`;
+  let tLow = Infinity;
+  let tHigh = -Infinity;
+  for (const p of points) {
+    if (p.T < tLow) tLow = p.T;
+    if (p.T > tHigh) tHigh = p.T;
+  }
+  const counted = thinned
+    ? `${total.toLocaleString("en")} points (${points.length.toLocaleString("en")} of them drawn)`
+    : `${points.length} points`;
+  const summary = `Arrhenius plot, ${symbol} against 1000/T, of ${counted} between ${formatRange(tLow, tHigh, "K")}, ${symbol} from ${y.domain[0]} to ${y.domain[1]}, with the ${fitName}${band.lower ? " and its 95 % band" : ""}${withBars ? "; error bars show the stated ±1σ" : ""}${flagged.length ? `; ${flagged.length} point${flagged.length === 1 ? "" : "s"} flagged as outlier${flagged.length === 1 ? "" : "s"}, drawn as crosses` : ""}${reportedLine.length ? "; the expression the authors report is drawn dashed" : ""}. The fitted parameters are in the table below.`;
+  const tableLink = points.length <= TABLE_LIMIT && !thinned ? `#${tableId}` : tableHref;
   return (
     <figure className="space-y-2">
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        {scaleControl}
+        {thinned && (
+          <p className="text-xs text-muted" data-testid="drawn-count">
+            {points.length.toLocaleString("en")} of {total.toLocaleString("en")} points drawn (thinned for drawing, keeping the extremes and
+            every outlier); the fit uses all {total.toLocaleString("en")}.
+          </p>
+        )}
+      </div>
       <div className="h-96 w-full" role="img" aria-label={summary}>
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 28, right: 24, bottom: 28, left: 16 }}>
@@ -96,7 +141,7 @@ export function ArrheniusPlot({
               domain={y.domain}
               ticks={y.ticks}
               tickFormatter={(v: number) => v.toFixed(y.decimals).replace("-", "\u2212")}
-              label={{ value: `ln k  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
+              label={{ value: `${symbol}  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
               width={80}
             />
             <Tooltip
@@ -113,6 +158,7 @@ export function ArrheniusPlot({
                 stroke="none"
                 fill="#8f4419"
                 fillOpacity={0.15}
+                legendType="rect"
                 isAnimationActive={false}
               />
             )}
@@ -123,6 +169,7 @@ export function ArrheniusPlot({
               name={fitName}
               stroke="#8f4419"
               strokeWidth={2}
+              legendType="plainline"
               dot={false}
               isAnimationActive={false}
             />
@@ -139,7 +186,18 @@ export function ArrheniusPlot({
                 isAnimationActive={false}
               />
             )}
-            <Scatter xAxisId="inv" data={normal} dataKey="y" name="measured" fill="#22537a" shape="circle" isAnimationActive={false} />
+            <Scatter
+              xAxisId="inv"
+              data={normal}
+              dataKey="y"
+              name={withBars ? "measured (±1σ bars)" : "measured"}
+              fill="#22537a"
+              shape="circle"
+              legendType="circle"
+              isAnimationActive={false}
+            >
+              {withBars && <ErrorBar dataKey="err" direction="y" stroke="#22537a" width={3} />}
+            </Scatter>
             {flagged.length > 0 && (
               <Scatter
                 xAxisId="inv"
@@ -150,7 +208,9 @@ export function ArrheniusPlot({
                 shape="cross"
                 legendType="cross"
                 isAnimationActive={false}
-              />
+              >
+                {withBars && <ErrorBar dataKey="err" direction="y" stroke="#a12a2a" width={3} />}
+              </Scatter>
             )}
           </ComposedChart>
         </ResponsiveContainer>
@@ -159,9 +219,19 @@ export function ArrheniusPlot({
         Circles: points used in the fit. Crosses: points flagged as outliers (still part of the fit).
         {band.lower ? ` Shaded: 95 % confidence band of the ${fitName}.` : ""}
         {reportedLine.length ? " Dashed: the expression the authors report, over its stated range (else the data's)." : ""}
+        {withBars ? " Bars: the stated ±1σ of each point." : ""}
+        {tableLink && (
+          <>
+            {" "}
+            <a href={tableLink}>
+              {thinned ? "All points, with fitted values and residuals, as a download" : "The plotted points as a table"}
+            </a>
+            .
+          </>
+        )}
       </figcaption>
-      {points.length <= TABLE_LIMIT && (
-        <details className="text-sm">
+      {points.length <= TABLE_LIMIT && !thinned && (
+        <details className="text-sm" id={tableId}>
           <summary className="cursor-pointer text-link">The plotted points as a table</summary>
           <ScrollRegion label="Plotted points" scrollClassName="max-h-80 overflow-auto">
             <table className="table">
@@ -170,6 +240,7 @@ export function ArrheniusPlot({
                   <th scope="col">T (K)</th>
                   <th scope="col">1000/T (K⁻¹)</th>
                   <th scope="col">ln k</th>
+                  {withBars && <th scope="col">σ(ln k)</th>}
                   <th scope="col">Flag</th>
                 </tr>
               </thead>
@@ -179,6 +250,7 @@ export function ArrheniusPlot({
                     <td>{formatSignificant(p.T, 5)}</td>
                     <td>{formatSignificant(1000 / p.T, 5)}</td>
                     <td>{formatSignificant(p.lnk, 5)}</td>
+                    {withBars && <td>{p.sigmaLnK ? formatSignificant(p.sigmaLnK, 3) : ""}</td>}
                     <td>{p.outlier ? "outlier" : ""}</td>
                   </tr>
                 ))}

@@ -1,27 +1,8 @@
 "use client";
 
-import { useActionState } from "react";
-import { FormField } from "@/components/form-field";
-import { FormMessage, SubmitButton } from "@/components/form-status";
-import { idleState } from "@/lib/auth/action-state";
+import { EmailRequestForm } from "@/components/email-request-form";
 import { forgotPasswordAction } from "./actions";
 
 export function ForgotForm() {
-  const [state, action] = useActionState(forgotPasswordAction, idleState);
-  if (state.status === "ok") return <FormMessage state={state} />;
-  return (
-    <form action={action} className="space-y-4">
-      <FormMessage state={state} />
-      <FormField
-        label="E-mail"
-        name="email"
-        type="email"
-        autoComplete="email"
-        required
-        error={state.fieldErrors?.email}
-        defaultValue={state.values?.email}
-      />
-      <SubmitButton>Send me a link</SubmitButton>
-    </form>
-  );
+  return <EmailRequestForm action={forgotPasswordAction} button="Send me a link" />;
 }

@@ -1,20 +1,26 @@
 "use client";
 
 import { signIn } from "next-auth/react";
+import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { FormField } from "@/components/form-field";
 import { safeCallbackPath } from "@/lib/auth/callback-url";
 
+// The start of lib/auth/options.ts's answer to the right password of an unconfirmed account.
+const UNCONFIRMED = "Confirm your e-mail address first";
+
 export function SignInForm({ callbackUrl, verified, reset }: { callbackUrl: string; verified: boolean; reset: boolean }) {
   const router = useRouter();
   const [error, setError] = useState<string | null>(null);
+  const [unconfirmed, setUnconfirmed] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
 
   async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
     event.preventDefault();
     setPending(true);
     setError(null);
+    setUnconfirmed(null);
     const form = new FormData(event.currentTarget);
     const result = await signIn("credentials", {
       email: String(form.get("email") ?? ""),
@@ -24,6 +30,8 @@ export function SignInForm({ callbackUrl, verified, reset }: { callbackUrl: stri
     setPending(false);
     if (!result || result.error) {
       setError(result?.error && result.error !== "CredentialsSignin" ? result.error : "E-mail or password is not right.");
+      // Said only after the right password, so it tells nothing about who has an account.
+      if (result?.error?.startsWith(UNCONFIRMED)) setUnconfirmed(String(form.get("email") ?? ""));
       return;
     }
     // Checked again against the origin the browser is on: only a path on this site.
@@ -46,6 +54,12 @@ export function SignInForm({ callbackUrl, verified, reset }: { callbackUrl: stri
       {error && (
         <p role="alert" className="rounded-md border border-error/40 px-3 py-2 text-sm text-error">
           {error}
+          {unconfirmed !== null && (
+            <>
+              {" "}
+              <Link href={`/verify/resend?email=${encodeURIComponent(unconfirmed)}`}>Send me a new confirmation link</Link>
+            </>
+          )}
         </p>
       )}
       <FormField label="E-mail" name="email" type="email" autoComplete="email" required autoFocus />

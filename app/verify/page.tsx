@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { VerifyForm } from "./verify-form";
 
 export const metadata: Metadata = { title: "Confirm your e-mail address" };
@@ -17,9 +18,14 @@ export default async function VerifyPage({ searchParams }: { searchParams: Promi
             <VerifyForm token={token} />
           </>
         ) : (
-          <p role="alert" className="text-sm text-error">
-            This link has no confirmation code. Open the link from the e-mail exactly as it was sent.
-          </p>
+          <>
+            <p role="alert" className="text-sm text-error">
+              This link has no confirmation code. Open the link from the e-mail exactly as it was sent.
+            </p>
+            <p className="text-sm">
+              <Link href="/verify/resend">Send me a new confirmation link</Link>
+            </p>
+          </>
         )}
       </div>
     </div>

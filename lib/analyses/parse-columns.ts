@@ -12,34 +12,31 @@ export interface ParsedColumns {
 }
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+/** One comma between digits, as in "2,09e-15" or "298,15". */
+const DECIMAL_COMMA = /^[+-]?\d*,\d+([eE][+-]?\d+)?$/;
 
 /**
  * Reads pasted columns — T, k and optionally σ(ln k) — separated by tabs, commas, semicolons or
  * spaces (as copied from a spreadsheet). Blank lines and `#` comments are skipped; a first line
- * without numbers is taken as a header.
+ * without numbers is taken as a header. When tabs or semicolons separate the columns, a comma can
+ * only be a decimal comma (as spreadsheets in many locales write them) and is read as a point.
+ * Line numbers count every line the person sees, blank, comment and header lines included.
  */
 export function parseColumns(text: string): ParsedColumns {
   const out: ParsedColumns = { points: [], lines: [], errors: [] };
-  const rows = text.split(/\r?\n/);
+  const rows = text.split(/\r\n|\r|\n/);
   rows.forEach((raw, index) => {
     const line = index + 1;
     const trimmed = raw.trim();
     if (!trimmed || trimmed.startsWith("#")) return;
-    // Tabs or semicolons, when present, separate the columns; then a comma can only be a decimal
-    // comma, which is refused rather than silently split into two numbers.
+    // Tabs or semicolons, when present, separate the columns; then a comma can only be a decimal comma.
+    const decimalComma = trimmed.includes("\t") || trimmed.includes(";");
     const delimiter = trimmed.includes("\t") ? /\t+/ : trimmed.includes(";") ? /\s*;\s*/ : /[\s,]+/;
     const cells = trimmed
       .split(delimiter)
       .map((c) => c.trim())
-      .filter(Boolean);
-    const comma = cells.find((c) => /^[+-]?\d+,\d/.test(c));
-    if (comma) {
-      out.errors.push({
-        line,
-        message: `line ${line}: “${comma}” has a decimal comma; write it with a point (${comma.replace(",", ".")})`,
-      });
-      return;
-    }
+      .filter(Boolean)
+      .map((c) => (decimalComma && DECIMAL_COMMA.test(c) ? c.replace(",", ".") : c));
     if (out.points.length === 0 && out.errors.length === 0 && !cells.some((c) => NUMBER.test(c))) return; // header
     if (cells.length < 2) {
       out.errors.push({ line, message: `line ${line}: expected two columns (T and k), found ${cells.length}` });

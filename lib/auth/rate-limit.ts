@@ -7,7 +7,17 @@ import { AppError } from "@/lib/errors";
 // Counters live in PostgreSQL (table rate_limits, created by our migrations) so limits hold
 // across every app instance.
 type LimiterName =
-  "signInIp" | "signInPair" | "signInAccount" | "unlockMail" | "signUpIp" | "signUpEmail" | "resetEmail" | "resetIp" | "analysisIp";
+  | "signInIp"
+  | "signInPair"
+  | "signInAccount"
+  | "unlockMail"
+  | "signUpIp"
+  | "signUpEmail"
+  | "resetEmail"
+  | "resetIp"
+  | "confirmEmail"
+  | "confirmIp"
+  | "analysisIp";
 
 const limits: Record<LimiterName, { points: number; duration: number; blockDuration?: number }> = {
   signInIp: { points: 30, duration: 15 * 60 },
@@ -20,6 +30,8 @@ const limits: Record<LimiterName, { points: number; duration: number; blockDurat
   signUpEmail: { points: 3, duration: 60 * 60 },
   resetEmail: { points: 3, duration: 60 * 60 },
   resetIp: { points: 10, duration: 60 * 60 },
+  confirmEmail: { points: 3, duration: 60 * 60 },
+  confirmIp: { points: 10, duration: 60 * 60 },
   analysisIp: { points: 120, duration: 60 },
 };
 

@@ -45,6 +45,20 @@ export async function verifyEmail({ secret }: { secret: string }) {
   return getUserById({ id: userId });
 }
 
+/**
+ * Sends a new confirmation link when the address belongs to an account still waiting for one
+ * (the old link was used, expired or lost); answers the same either way, and counts every request
+ * against the address and the network, so it cannot be used to find accounts or to flood an inbox.
+ */
+export async function requestConfirmationLink({ email, ip }: { email: string; ip: string }) {
+  await consumeOrThrow("confirmIp", ip, "Too many requests for a confirmation link from this network");
+  await consumeOrThrow("confirmEmail", email, "Too many requests for a confirmation link for this address");
+  const user = await getUserByEmail({ email });
+  if (!user || user.deactivatedAt || user.emailVerifiedAt) return;
+  const secret = await createOneTimeToken({ userId: user.id, purpose: "verify_email" });
+  await enqueueMail(verificationMail(user.email, user.name, secret));
+}
+
 /** Sends a reset link when the account exists; answers the same either way. */
 export async function requestPasswordReset({ email, ip }: { email: string; ip: string }) {
   await consumeOrThrow("resetIp", ip, "Too many reset requests from this network");

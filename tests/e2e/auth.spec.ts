@@ -16,6 +16,21 @@ test("sign up, read the confirmation in the admin inbox, verify, sign in, sign o
   await signIn.open();
   await signIn.signIn(email, password);
   await expect(page.getByRole("main").getByRole("alert")).toContainText("Confirm your e-mail address first");
+  // …and offers a new link, with the same answer for an address that has no account.
+  await page.getByRole("link", { name: "Send me a new confirmation link" }).click();
+  await expect(page.getByLabel("E-mail")).toHaveValue(email);
+  await page.getByRole("button", { name: "Send me a new confirmation link" }).click();
+  await expect(page.getByRole("main").getByRole("status")).toHaveText(
+    `If ${email} belongs to an account waiting for confirmation, a new confirmation link is on its way. Earlier links still work until they expire.`,
+  );
+  const nobody = `nobody-${Date.now()}@test.arrhenia.invalid`;
+  await page.goto("/verify/resend");
+  await page.getByLabel("E-mail").fill(nobody);
+  await page.getByRole("button", { name: "Send me a new confirmation link" }).click();
+  await expect(page.getByRole("main").getByRole("status")).toHaveText(
+    `If ${nobody} belongs to an account waiting for confirmation, a new confirmation link is on its way. Earlier links still work until they expire.`,
+  );
+  await signIn.open();
 
   // The admin reads the captured message and follows its link.
   await signIn.signIn(DEMO_ADMIN.email, DEMO_ADMIN.password);
@@ -29,7 +44,13 @@ test("sign up, read the confirmation in the admin inbox, verify, sign in, sign o
   await link.page().goto(href!);
   await page.getByRole("button", { name: "Confirm my address" }).click();
   await expect(page.getByRole("main").getByRole("status")).toContainText("Your address is confirmed");
+  // A used link says so and offers a new one.
+  await page.goto(href!);
+  await page.getByRole("button", { name: "Confirm my address" }).click();
+  await expect(page.getByRole("main").getByRole("alert")).toContainText("already used");
+  await expect(page.getByRole("link", { name: "Send me a new confirmation link" })).toBeVisible();
 
+  await signIn.open();
   await signIn.signIn(email, password);
   await header.expectSignedInAs("Eve Tester");
   await page.goto("/settings");
@@ -62,7 +83,9 @@ test("a wrong password gets the same message as an unknown e-mail", async ({ pag
   await expect(page.getByRole("main").getByRole("alert")).toHaveText("E-mail or password is not right.");
 });
 
-test("researchers cannot open admin pages; the home page shows live counts", async ({ page }) => {
+test("researchers are told they lack access to admin pages, and which role opens them; the home page shows live counts", async ({
+  page,
+}) => {
   await page.goto("/");
   // Live from the database: the two demo curators, plus any that other tests created.
   const curators = Number(await page.getByTestId("count-curators").textContent());
@@ -72,5 +95,46 @@ test("researchers cannot open admin pages; the home page shows live counts", asy
   await new Header(page).expectSignedInAs("Emi Tanaka");
   await expect(page.getByRole("link", { name: "People" })).toHaveCount(0);
   const res = await page.goto("/admin/people");
-  expect(res?.status()).toBe(404);
+  expect(res?.status()).toBe(403);
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText("You do not have access");
+  await expect(page.getByRole("main")).toContainText("You are signed in as a researcher, and this page needs another role.");
+  await expect(page.getByRole("main").getByRole("listitem").filter({ hasText: "/admin" })).toContainText("needs the admin role");
+  expect((await page.goto("/review"))?.status()).toBe(403);
+  await expect(page.getByRole("main")).toContainText("curator or admin role");
+  // Signed out, the same address asks for a sign-in instead.
+  await page.context().clearCookies();
+  await page.goto("/admin/people");
+  await expect(page).toHaveURL(/\/sign-in\?callbackUrl=%2Fadmin%2Fpeople/);
+});
+
+test("an admin's role control shows the saved role after a change, and the refusal when a change is refused", async ({ page }) => {
+  const stamp = Date.now();
+  const email = `e2e-role-${stamp}@test.arrhenia.invalid`;
+  const name = `Rolf Rollwechsel ${stamp}`;
+  await new SignUpPage(page).open();
+  await new SignUpPage(page).signUp(name, email, "a-long-e2e-password");
+  await expect(page.getByRole("main").getByRole("status")).toContainText("confirmation link");
+  const signIn = new SignInPage(page);
+  await signIn.open();
+  await signIn.signIn(DEMO_ADMIN.email, DEMO_ADMIN.password);
+  await new Header(page).expectSignedInAs("Rosalind Okafor");
+
+  await page.goto("/admin/people");
+  const role = page.getByLabel(`Role of ${name}`);
+  await expect(role).toHaveValue("researcher");
+  await role.selectOption("curator");
+  await page.getByRole("button", { name: `Save role of ${name}` }).click();
+  await expect(page.getByRole("row").filter({ hasText: email }).getByRole("status")).toHaveText("Role changed to curator.");
+  await expect(role).toHaveValue("curator");
+  await page.reload();
+  await expect(role).toHaveValue("curator");
+
+  // The admin's own role cannot be lowered: the control says why and keeps showing the saved role.
+  const own = page.getByLabel("Role of Rosalind Okafor");
+  await own.selectOption("researcher");
+  await page.getByRole("button", { name: "Save role of Rosalind Okafor" }).click();
+  await expect(page.getByRole("row").filter({ hasText: DEMO_ADMIN.email }).getByRole("alert")).toContainText(
+    "You cannot remove your own admin role",
+  );
+  await expect(own).toHaveValue("admin");
 });

@@ -8,7 +8,7 @@ import { DEMO_CURATORS, DEMO_RESEARCHER, signInAs } from "./pages/deposit-pages"
 
 const PHONE = { width: 390, height: 844 };
 const PUBLIC_PAGES = ["/", "/reactions", "/analyse", "/docs/api", "/docs/deposit-format", "/search?q=methane"];
-const SIGNED_OUT_PAGES = ["/sign-in", "/sign-up", "/forgot-password"];
+const SIGNED_OUT_PAGES = ["/sign-in", "/sign-up", "/forgot-password", "/verify/resend"];
 
 const roles = {
   anonymous: null,
@@ -44,6 +44,9 @@ async function pagesFor(page: Page, role: keyof typeof roles): Promise<string[]>
     if (review) paths.push(review);
   }
   if (role === "admin") paths.push("/admin/people", "/admin/mail", "/admin/jobs");
+  // The "You do not have access" page (403) of a role that may not open a page.
+  if (role === "researcher") paths.push("/review");
+  if (role === "curator") paths.push("/admin/people");
   return paths;
 }
 

@@ -26,12 +26,24 @@ describe("parseColumns (pasted spreadsheet columns)", () => {
   });
 });
 
+describe("line numbers", () => {
+  it("count header, blank, comment and carriage-return-only lines as the person sees them", () => {
+    const r = parseColumns("T K\r\n\r\n# c\r300 1e-12\n\n350 x");
+    expect(r.lines).toEqual([4]);
+    expect(r.errors).toEqual([{ line: 6, message: "line 6: “x” in column 2 is not a number" }]);
+  });
+});
+
 describe("decimal commas", () => {
-  it("are refused with the corrected number shown, never split into two columns", () => {
-    expect(parseColumns("250;2,1e-15").errors).toEqual([
-      { line: 1, message: "line 1: “2,1e-15” has a decimal comma; write it with a point (2.1e-15)" },
+  it("are read as decimal points when semicolons or tabs separate the columns", () => {
+    expect(parseColumns("298,15;2,1e-15;0,1").points).toEqual([{ T: 298.15, k: 2.1e-15, sigmaLnK: 0.1 }]);
+    expect(parseColumns("250\t2,1e-15\n300\t,5").points).toEqual([
+      { T: 250, k: 2.1e-15 },
+      { T: 300, k: 0.5 },
     ]);
-    expect(parseColumns("250\t2,1e-15").errors).toHaveLength(1);
+  });
+  it("a cell with two commas is still not a number", () => {
+    expect(parseColumns("250;2,1,5").errors).toEqual([{ line: 1, message: "line 1: “2,1,5” in column 2 is not a number" }]);
   });
   it("a comma between two numbers still separates columns", () => {
     expect(parseColumns("250,2.1e-15").points).toEqual([{ T: 250, k: 2.1e-15 }]);
