@@ -225,8 +225,14 @@ export interface ConsensusMember {
   support: SupportValue[];
   supportCovariance: number[][];
   disagreement: Disagreement | null;
-  /** Its share in the consensus at the middle of its range (in 1/T); null when left out. */
+  /**
+   * Its share in the consensus ln k̂ at shareT, the middle of its own range in 1/T; null when left
+   * out. Each dataset's share is read at its own temperature, so these do not add up to 1 across
+   * datasets: {@link ConsensusResult.shares} gives every dataset's share at common temperatures.
+   */
   share: number | null;
+  /** K: where share is read (the middle of its range in 1/T); null when left out. */
+  shareT: number | null;
   unitSuspect: string | null;
   /** The comparison in one sentence. */
   verdict: string;
@@ -247,8 +253,21 @@ export interface ConsensusResult {
   arrhenius: ConsensusArrhenius;
   modifiedArrhenius: ConsensusModifiedArrhenius | null;
   preferred: "arrhenius" | "modified_arrhenius";
+  /**
+   * Who carries the preferred consensus at each temperature of its uncertaintyFactor: the share of
+   * every included dataset in ln k̂(T) (the GLS prediction is linear in the support values), in the
+   * order of members. At each temperature the shares add up to 1; a share can be negative.
+   */
+  shares: ConsensusShares[];
   members: ConsensusMember[];
   flags: ConsensusFlag[];
+}
+
+/** Every included dataset's share in the consensus at one temperature (they add up to 1). */
+export interface ConsensusShares {
+  /** K */
+  T: number;
+  shares: { id: string; share: number }[];
 }
 
 /** Family-wise level of the off-consensus test. */
@@ -372,13 +391,18 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     included.filter((j) => supports[j]!.Tmin <= T * (1 + 1e-12) && T <= supports[j]!.Tmax * (1 + 1e-12)).length;
 
   const label = (j: number) => datasets[j].label ?? `Dataset ${datasets[j].id}`;
-  const shareAt = new Map<number, number>();
+  const shareAt = new Map<number, { T: number; share: number }>();
   const g = shareVectors(rows, included, fits.preferred.weightTau2);
+  const shareOf = (j: number, a: readonly number[]) => a[0] * g[3 * j] + a[1] * g[3 * j + 1] + a[2] * g[3 * j + 2];
   for (const j of included) {
     const s = supports[j]!;
-    const a = shareDirection(rows, fits.preferred, 2 / (1 / s.Tmin + 1 / s.Tmax));
-    shareAt.set(j, a[0] * g[3 * j] + a[1] * g[3 * j + 1] + a[2] * g[3 * j + 2]);
+    const T = 2 / (1 / s.Tmin + 1 / s.Tmax);
+    shareAt.set(j, { T, share: shareOf(j, shareDirection(rows, fits.preferred, T)) });
   }
+  const shares: ConsensusShares[] = gridT(covered.Tmin, covered.Tmax, FACTOR_POINTS).map((T) => {
+    const a = shareDirection(rows, fits.preferred, T);
+    return { T, shares: included.map((j) => ({ id: datasets[j].id, share: shareOf(j, a) })) };
+  });
   const members: ConsensusMember[] = datasets.map((ds, j) => {
     const s = supports[j];
     const d = comparisons[j];
@@ -398,7 +422,8 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       support: s ? s.temps.map((T, a) => ({ T, lnk: s.lnk[a], se: Math.sqrt(s.cov[a * s.temps.length + a]) })) : [],
       supportCovariance: s ? s.temps.map((_, a) => s.temps.map((__, b) => s.cov[a * s.temps.length + b])) : [],
       disagreement: d,
-      share: shareAt.get(j) ?? null,
+      share: shareAt.get(j)?.share ?? null,
+      shareT: shareAt.get(j)?.T ?? null,
       unitSuspect: unitSuspect[j],
       verdict:
         verdictOf(
@@ -434,6 +459,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     arrhenius: { ...buildArrhenius(rows, fits.arr, covered, coverage), supportValues: values },
     modifiedArrhenius: fits.mod ? { ...buildModified(rows, fits.mod, covered, coverage, T0), supportValues: values } : null,
     preferred: fits.preferred.q === 3 ? "modified_arrhenius" : "arrhenius",
+    shares,
     members,
     flags,
   };

@@ -499,8 +499,8 @@ describe("consensus: unit mistakes, window, exclusions, input errors", () => {
   it.each([
     ["a factor of N_A (molecule ↔ mol)", AVOGADRO],
     ["a factor of (N_A/1000) (L mol⁻¹ ↔ cm³ molecule⁻¹)", AVOGADRO * 1e-3],
-    ["a factor of 10^3 (L ↔ cm³)", 1e3],
-    ["a factor of 10^6 (m³ ↔ cm³)", 1e-6],
+    ["a factor of 10³ (L ↔ cm³)", 1e3],
+    ["a factor of 10⁶ (m³ ↔ cm³)", 1e-6],
   ])("marks a dataset off by %s as unit_suspect and leaves it out", (label, factor) => {
     const normal = makeNormal(21);
     const sets = [makeSet("a", normal), makeSet("b", normal, { n: 7 }), makeSet("c", normal), makeSet("wrong", normal, { factor })];
@@ -521,10 +521,10 @@ describe("consensus: unit mistakes, window, exclusions, input errors", () => {
   it("recognises unit-mistake factors per reaction order", () => {
     expect(matchUnitMistake(23.7, 2)).toMatch(/N_A/);
     expect(matchUnitMistake(-23.9, 2)).toMatch(/N_A/);
-    expect(matchUnitMistake(3.1, 2)).toMatch(/10\^3/);
-    expect(matchUnitMistake(6, 2)).toMatch(/10\^6/);
+    expect(matchUnitMistake(3.1, 2)).toMatch(/10³/);
+    expect(matchUnitMistake(6, 2)).toMatch(/10⁶/);
     expect(matchUnitMistake(47.56, 3)).toMatch(/N_A²/);
-    expect(matchUnitMistake(12, 3)).toMatch(/10\^12/);
+    expect(matchUnitMistake(12, 3)).toMatch(/10¹²/);
     expect(matchUnitMistake(1.0, 2)).toBeNull();
     expect(matchUnitMistake(23.78, 1)).toBeNull();
   });
@@ -628,6 +628,26 @@ describe("consensus: who carries the consensus", () => {
         expect(shares.reduce((x, y) => x + y, 0)).toBeCloseTo(1, 10);
       }
     }
+  });
+
+  it("reports every dataset's share at common temperatures (adding up to 1 at each), and each member's at its own stated temperature", () => {
+    const normal = makeNormal(43);
+    const sets = [makeSet("a", normal), makeSet("b", normal, { n: 8, sigma: 0.05, T1: 250, T2: 400 }), computedSet("calc", normal)];
+    const c = consensus(sets);
+    const temps = preferred(c)
+      .uncertaintyFactor.filter((u) => u.T !== 298.15)
+      .map((u) => u.T);
+    expect(c.shares.map((r) => r.T)).toEqual(temps);
+    for (const row of c.shares) {
+      expect(row.shares.map((x) => x.id)).toEqual(["a", "b", "calc"]);
+      // The GLS prediction is linear in the support values with weights summing to 1 (an intercept in the design).
+      expect(row.shares.reduce((acc, x) => acc + x.share, 0)).toBeCloseTo(1, 10);
+    }
+    // A member's share is read at the middle of its own range in 1/T, so members' shares need not add up to 1.
+    const b = member(c, "b");
+    expect(b.shareT).toBeCloseTo(2 / (1 / 250 + 1 / 400), 9);
+    // Where only the computed set speaks (2000 K), it carries the consensus alone.
+    expect(c.shares.at(-1)!.shares.find((x) => x.id === "calc")!.share).toBeGreaterThan(0.9);
   });
 
   it("names datasets by their labels and says when the others' consensus rests on one of them", () => {
