@@ -30,8 +30,13 @@ console.log(
   `Consensus: ${result.preferred}, ${result.included} of ${result.datasets} datasets, ${Math.round(result.range.Tmin)}–${Math.round(result.range.Tmax)} K`,
 );
 for (const m of result.members) {
-  console.log(`\n- ${title.get(m.id) ?? m.id} [version ${m.id}]${m.share === null ? "" : `, share ${(100 * m.share).toFixed(0)} %`}`);
+  const share = m.share === null || m.shareT === null ? "" : `, share ${(100 * m.share).toFixed(0)} % at ${Math.round(m.shareT)} K`;
+  console.log(`\n- ${title.get(m.id) ?? m.id} [version ${m.id}]${share}`);
   console.log(`  ${m.verdict}`);
+}
+console.log("\nShares in the consensus k̂ (each row adds up to 100 %):");
+for (const row of result.shares) {
+  console.log(`  ${Math.round(row.T)} K: ${row.shares.map((x) => `version ${x.id} ${(100 * x.share).toFixed(0)} %`).join("; ")}`);
 }
 for (const f of result.flags) console.log(`\nflag ${f.code}${f.datasetIds ? ` (${f.datasetIds.join(", ")})` : ""}: ${f.message}`);
 process.exit(0);
