@@ -50,7 +50,7 @@ export function ConsensusSummary({
         {result.window.Tmin !== null || result.window.Tmax !== null
           ? `; only points between ${result.window.Tmin ?? 0} and ${result.window.Tmax ?? "∞"} K`
           : ""}
-        .
+        . The curve comes from {result.curveFrom.map((id) => labels.get(id) ?? id).join(", ")}.
         {leftOut.length > 0 && (
           <>
             {" "}

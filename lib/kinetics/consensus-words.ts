@@ -168,6 +168,8 @@ export interface VerdictInput {
   own: { Tmin: number; Tmax: number } | null;
   /** Why it is left out of the consensus; null when it is in. */
   leftOut: string | null;
+  /** Set aside as off the consensus of the others (largest consistent subset): compared with the datasets that shaped the curve. */
+  setAside?: boolean;
   /** Included datasets other than this one. */
   otherCount: number;
   unitSuspect: string | null;
@@ -197,7 +199,8 @@ export interface VerdictInput {
 /** The comparison of one dataset with the others, in one or two sentences (each template with its condition). */
 export function describeVerdict(v: VerdictInput): string {
   const { name, leftOut, unitSuspect } = v;
-  const out = leftOut ? ` Left out of the consensus: ${leftOut}.` : "";
+  const setAside = v.setAside === true;
+  const out = setAside ? " Off the consensus — not used for the curve." : leftOut ? ` Left out of the consensus: ${leftOut}.` : "";
   if (!v.own) return `${name} has no points inside the temperature window.`;
   const d = v.comparison;
   if (!d) {
@@ -205,7 +208,7 @@ export function describeVerdict(v: VerdictInput): string {
       ? `${name} is the only dataset in the consensus: there is nothing to compare it with.${out}`
       : `The other datasets alone cover a single temperature, so ${lowerFirst(name)} cannot be compared with them.${out}`;
   }
-  let against = leftOut ? "the consensus" : d.count === 1 ? "the only other dataset" : `the consensus of the other ${d.count}`;
+  let against = leftOut && !setAside ? "the consensus" : d.count === 1 ? "the only other dataset" : `the consensus of the other ${d.count}`;
   if (d.restsOn) against += ` (which rests ${Math.round(d.restsOn.share * 100)} % on ${lowerFirst(d.restsOn.name)} there)`;
   if (unitSuspect) return `${name} is ${describeFactor(d.meanOffsetLog10)} ${against}, close to ${unitSuspect}: check its units.${out}`;
   if (!d.range || d.points.length === 0) {
