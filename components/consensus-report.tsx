@@ -1,15 +1,14 @@
 import { GAS_CONSTANT, type ConsensusMember, type ConsensusResult } from "@/lib/kinetics";
+import { factorRoundsToOne, factorSize } from "@/lib/kinetics/consensus-words";
 import { formatFixed, formatRange, formatSignificant, formatTenTo } from "@/lib/format";
 import { ScrollRegion } from "./scroll-region";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
-/** "×4.8 above" from a log10 ratio; "the same" when the factor rounds to 1.00. */
+/** "×4.80 above" from a log10 ratio (the engine's factorSize); "the same to three digits" when the factor rounds to 1.00. */
 function factorWords(log10: number): string {
-  const a = Math.abs(log10);
-  const size = 10 ** a < 2 ? (10 ** a).toFixed(2) : formatTenTo(a, 2);
-  if (size === "1.00") return "the same to three digits";
-  return `×${size} ${log10 >= 0 ? "above" : "below"}`;
+  if (factorRoundsToOne(log10)) return "the same to three digits";
+  return `×${factorSize(log10)} ${log10 >= 0 ? "above" : "below"}`;
 }
 
 /** The consensus expression, what went in, f(T) over the covered range, and the engine's flags. */
@@ -51,7 +50,7 @@ export function ConsensusSummary({
         {result.window.Tmin !== null || result.window.Tmax !== null
           ? `; only points between ${result.window.Tmin ?? 0} and ${result.window.Tmax ?? "∞"} K`
           : ""}
-        .
+        . The curve comes from {result.curveFrom.map((id) => labels.get(id) ?? id).join(", ")}.
         {leftOut.length > 0 && (
           <>
             {" "}
@@ -90,6 +89,7 @@ export function ConsensusSummary({
           </tbody>
         </table>
       </ScrollRegion>
+      <SharesTable result={result} labels={labels} />
       <p className="text-sm text-muted">
         Between-dataset variance τ² = {sig(fit.tau2)} (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
       </p>
@@ -111,6 +111,46 @@ export function ConsensusSummary({
   );
 }
 
+/**
+ * Who carries the consensus: each included dataset's share in k̂ at the temperatures of f(T). The
+ * shares add up to 1 at each temperature (not across a row: a dataset's share changes along T).
+ */
+function SharesTable({ result, labels }: { result: ConsensusResult; labels: Map<string, string> }) {
+  const rows = result.shares;
+  if (rows.length === 0 || rows[0].shares.length < 2) return null;
+  const ids = rows[0].shares.map((s) => s.id);
+  return (
+    <ScrollRegion label="Share of each dataset in the consensus (table)">
+      <table className="table" aria-label="Share of each dataset in the consensus">
+        <caption className="text-left text-sm text-muted">
+          Share of each dataset in the consensus k̂ at each temperature, in %: the shares at one temperature add up to 100 % (a negative
+          share tilts the curve away from that dataset&apos;s values).
+        </caption>
+        <thead>
+          <tr>
+            <th scope="col">T (K)</th>
+            {ids.map((id) => (
+              <th scope="col" key={id}>
+                {labels.get(id) ?? id}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((r) => (
+            <tr key={r.T}>
+              <td>{Math.round(r.T * 10) / 10}</td>
+              {r.shares.map((s) => (
+                <td key={s.id}>{formatFixed(s.share * 100, 0)}</td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </ScrollRegion>
+  );
+}
+
 /** Each dataset against the consensus of the others: the verdict in words and per comparison temperature. */
 export function ConsensusComparisons({ result, labels }: { result: ConsensusResult; labels: Map<string, string> }) {
   return (
@@ -124,13 +164,31 @@ export function ConsensusComparisons({ result, labels }: { result: ConsensusResu
         exceeds the bound for its number of temperatures (family level 5 %).
       </p>
       {result.members.map((m) => (
-        <MemberComparison key={m.id} member={m} label={labels.get(m.id) ?? m.id} />
+        <MemberComparison key={m.id} member={m} label={labels.get(m.id) ?? m.id} otherSide={otherSideOf(result, m, labels)} />
       ))}
     </section>
   );
 }
 
-function MemberComparison({ member: m, label }: { member: ConsensusMember; label: string }) {
+/**
+ * What a dataset's k is divided by in its table: the consensus of the other datasets, or — when
+ * there is one other — that dataset's own fit (a comparison of two datasets, not with a consensus).
+ */
+export function otherSideOf(result: ConsensusResult, m: ConsensusMember, labels: Map<string, string>): { single: string | null } {
+  if (m.disagreement?.comparedWith !== 1) return { single: null };
+  const other = result.members.find((x) => x.included && x.id !== m.id);
+  return { single: other ? (labels.get(other.id) ?? other.id) : null };
+}
+
+function MemberComparison({
+  member: m,
+  label,
+  otherSide,
+}: {
+  member: ConsensusMember;
+  label: string;
+  otherSide: { single: string | null };
+}) {
   const d = m.disagreement;
   const compared = !d || !d.range ? "not compared" : d.off ? "off the consensus" : "agrees";
   // A dataset left out by a curator is still compared with the consensus.
@@ -148,12 +206,16 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
           : m.model === "single_temperature"
             ? "mean at one temperature"
             : "Arrhenius"}{" "}
-        fit{m.share !== null ? `; share in the consensus at the middle of its range ${Math.round(m.share * 100)} %` : ""}.
+        fit
+        {m.share !== null && m.shareT !== null
+          ? `; its share in the consensus k̂ at ${Math.round(m.shareT)} K (the middle of its range) ${formatFixed(m.share * 100, 0)} %`
+          : ""}
+        .
       </p>
       {d && d.points.length > 0 && (
         <p className="text-xs text-muted">
           {d.comparedWith === 1
-            ? "Against one other dataset: no spread between datasets in z (τ² = 0)."
+            ? `Only one other dataset is in the consensus, so there is no consensus of the others: the ratio compares this dataset's own fit with ${otherSide.single ?? "the other dataset"}'s own fit, and z has no spread between datasets (τ² = 0).`
             : `Spread between the others without this dataset: τ²₋ⱼ = ${sig(d.tau2)} (ln k)², in every z beside its own and the others' uncertainty.`}
         </p>
       )}
@@ -163,9 +225,9 @@ function MemberComparison({ member: m, label }: { member: ConsensusMember; label
             <thead>
               <tr>
                 <th scope="col">T (K)</th>
-                <th scope="col">k / k of the others</th>
+                <th scope="col">{otherSide.single ? `k / k of ${otherSide.single} (its own fit)` : "k / k of the others' consensus"}</th>
                 <th scope="col">z</th>
-                <th scope="col">|z| ≤ {d.bound.toFixed(2)}?</th>
+                <th scope="col">|z| ≤ {formatFixed(d.bound, 2)}?</th>
               </tr>
             </thead>
             <tbody>

@@ -179,7 +179,10 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
   // n not determined by the data: its standard error spans more than every exponent met in practice.
   const seN = modSum?.se[1] ?? null;
   const nUndetermined = modFit && seN !== null && seN > MODIFIED_MAX_SE_N ? { n: modFit.beta[1], seN } : null;
-  if (nUndetermined) {
+  // As many points as coefficients: the curve passes through every point whatever the noise, and
+  // nothing tells n from scatter (three points with 1 % scatter over 250–350 K give |n| in the thousands).
+  const exactlyDetermined = modFit && modSum && modSum.dof === 0;
+  if (nUndetermined || exactlyDetermined) {
     modFit = null;
     modSum = null;
   }
@@ -219,6 +222,14 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
         code: "modified_fit_undetermined",
         severity: "info",
         quantities: { Tmin: temperature(d.Tmin), Tmax: temperature(d.Tmax), sine: statistic(modSine) },
+      }),
+    );
+  } else if (exactlyDetermined) {
+    flags.push(
+      toFlag({
+        code: "modified_fit_undetermined",
+        severity: "info",
+        quantities: { Tmin: temperature(d.Tmin), Tmax: temperature(d.Tmax), points: count(n) },
       }),
     );
   } else if (nUndetermined) {

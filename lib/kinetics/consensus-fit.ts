@@ -51,11 +51,13 @@ export interface ModelFit {
 export const SUPPORT_RANK_TOLERANCE = 1e-10;
 
 /**
- * Stack every dataset's rotated support rows. V_j has rank ≤ p_j (the coefficients of the own
- * fit), however many support values there are: the GLS uses its pseudo-inverse, keeping the rows
- * along eigenvectors with eigenvalue above SUPPORT_RANK_TOLERANCE of the largest. The rows
- * dropped are combinations of the support values that vanish for every curve of the own fit's
- * form (value and design both zero but for rounding), so they carry no information.
+ * Stack every dataset's rotated support rows. V_j has rank p_j (the coefficients of the own fit),
+ * however many support values there are. Rows along eigenvectors with eigenvalue at or below
+ * SUPPORT_RANK_TOLERANCE of the largest (combinations of the support values that vanish for every
+ * curve of the own fit's form, e.g. the curvature of a straight set's values) get within variance
+ * 0: the fixed-effect fit (τ² = 0) leaves them out, which is the pseudo-inverse of V_j, and with
+ * τ² > 0 they enter with variance τ², as V_j + τ²·I says. Rows with design and value both zero
+ * (the extra null directions of a modified fit's five support values) change nothing.
  */
 export function buildRows(supports: readonly (DatasetSupport | null)[], T0: number): Rows {
   const J = supports.length;
@@ -75,8 +77,7 @@ export function buildRows(supports: readonly (DatasetSupport | null)[], T0: numb
     }
     values += s.temps.length;
     const e = symmetricEigen(s.cov, s.temps.length);
-    const top = Math.max(...e.values);
-    const keep = e.values.flatMap((v, i) => (v > SUPPORT_RANK_TOLERANCE * top ? [i] : []));
+    const keep = e.values.map((_, i) => i);
     eig[j] = { ...e, keep };
     N += keep.length;
   }
@@ -116,6 +117,7 @@ export function buildRows(supports: readonly (DatasetSupport | null)[], T0: numb
     if (design.length < 3 * K) design = new Float64Array(3 * K);
     for (let a = 0; a < K; a++) designRow(rows, s.temps[a], design, 3 * a);
     const { vectors } = e;
+    const top = Math.max(...e.values);
     e.keep.forEach((i, n) => {
       const r = start[j] + n;
       let yi = 0;
@@ -136,7 +138,8 @@ export function buildRows(supports: readonly (DatasetSupport | null)[], T0: numb
       rows.f[3 * r] = f0;
       rows.f[3 * r + 1] = f1;
       rows.f[3 * r + 2] = f2;
-      rows.v[r] = e.values[i];
+      // A null direction of V_j: no within variance, only τ² (left out of the τ² = 0 fit, the pseudo-inverse).
+      rows.v[r] = e.values[i] > SUPPORT_RANK_TOLERANCE * top ? e.values[i] : 0;
     });
   }
   return rows;
@@ -157,7 +160,10 @@ export function designRow(rows: Pick<Rows, "cE" | "sE" | "cL" | "sL" | "T0">, T:
 function addBlocks(state: GlsState, rows: Rows, blocks: readonly number[], tau2: number, skip = -1): void {
   for (const j of blocks) {
     if (j === skip) continue;
-    for (let r = rows.start[j]; r < rows.start[j + 1]; r++) state.addRow(rows.f, 3 * r, rows.y[r], 1 / (rows.v[r] + tau2));
+    for (let r = rows.start[j]; r < rows.start[j + 1]; r++) {
+      const v = rows.v[r] + tau2;
+      if (v > 0) state.addRow(rows.f, 3 * r, rows.y[r], 1 / v);
+    }
   }
 }
 
@@ -281,7 +287,9 @@ export function shareVectors(rows: Rows, blocks: readonly number[], tau2: number
   const g = new Float64Array(3 * J);
   for (const j of blocks) {
     for (let r = rows.start[j]; r < rows.start[j + 1]; r++) {
-      const c = rows.u1[r] / (rows.v[r] + tau2);
+      const v = rows.v[r] + tau2;
+      if (!(v > 0)) continue;
+      const c = rows.u1[r] / v;
       g[3 * j] += c * rows.f[3 * r];
       g[3 * j + 1] += c * rows.f[3 * r + 1];
       g[3 * j + 2] += c * rows.f[3 * r + 2];

@@ -82,6 +82,12 @@ export interface DatasetSupport {
   Tmin: number;
   Tmax: number;
   fit: OwnFit;
+  /**
+   * The fit by which the dataset is judged against the others: the same curve (fit's values), with
+   * the modified fit's covariance whenever that is determined, so a line whose curvature was too
+   * small to detect is not held to be exactly straight. The same object as fit otherwise.
+   */
+  judge: OwnFit;
   /** Support temperatures, ascending, K. */
   temps: number[];
   /** Fitted ln k at the support temperatures. */
@@ -270,6 +276,8 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   let bL = 0;
   let g: [number, number, number] = [0, 0, 0];
   let gModified = false;
+  let determined = false;
+  let judgeG: [number, number, number] = [0, 0, 0];
   let rss: number;
   let p: number;
   if (oneT) {
@@ -282,6 +290,7 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
     // Over less than 1 % in T, ln T is a straight line in 1/T to ~1e-5 and the modified covariance is
     // rounding noise: such a dataset is summarised by its Arrhenius fit at both ends.
     gModified = distinctT >= 3 && Tmax >= MIN_MODIFIED_SPAN * Tmin && r11 > MODIFIED_RANK_TOLERANCE * Math.sqrt(nL);
+    determined = gModified;
     if (gModified) {
       // (R₂ᵀR₂)⁻¹ = R₂⁻¹R₂⁻ᵀ with R₂ = [[r00, r01], [0, r11]].
       const i00 = 1 / r00;
@@ -297,6 +306,13 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
       const rss2 = Math.max(r22 * r22, rssFloor);
       const F = Math.max(0, rss1 - rss2) / (rss2 / (n - 3));
       modified = survivalF(F, 1, n - 3) < ALPHA;
+    }
+    judgeG = g;
+    if (!modified && gModified) {
+      // The covariance is the preferred fit's: a dataset whose own analysis prefers a straight line
+      // is summarised by that line and its Arrhenius covariance (rank 2 over its support values).
+      g = [1 / (r00 * r00), 0, 0];
+      gModified = false;
     }
     if (modified) {
       model = "modified_arrhenius";
@@ -331,10 +347,12 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
     sigmaLnK = DEFAULT_POINT_SIGMA;
     fit.scale = DEFAULT_POINT_SIGMA ** 2;
   }
+  // Judged with the covariance that does not assume its curve is straight (the modified fit's, when determined).
+  const judge: OwnFit = determined && !gModified ? { ...fit, g: judgeG, gModified: true } : fit;
   const temps =
     model === "single_temperature"
       ? [distinctT === 1 ? Tmin : -1 / (GAS_CONSTANT * mE)]
-      : gModified
+      : determined
         ? supportTemperatures(Tmin, Tmax)
         : [Tmin, Tmax];
   const support: DatasetSupport = {
@@ -344,6 +362,7 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
     Tmin,
     Tmax,
     fit,
+    judge,
     temps,
     lnk: [],
     cov: [],
@@ -448,6 +467,7 @@ export function assignPooledScales(supports: DatasetSupport[]): void {
     s.sigmaLnK = sigma;
     s.dof = dof;
     s.fit.scale = sigma * sigma * tInflation(dof);
+    s.judge.scale = s.fit.scale;
     fillSupportValues(s);
   }
 }

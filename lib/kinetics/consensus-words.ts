@@ -1,6 +1,7 @@
 /**
  * The consensus' findings in words: factors, places and directions a reader can check on the plot.
  */
+import { formatNumber, formatSignificant, formatTenTo } from "../format";
 import { AVOGADRO } from "./constants";
 import type { ReactionOrder } from "./types";
 
@@ -14,8 +15,8 @@ export function matchUnitMistake(offsetLog10: number, order: ReactionOrder): str
   const lgNA = Math.log10(AVOGADRO);
   const candidates: [number, string][] = [
     [m * lgNA, `a factor of N_A${m > 1 ? "²" : ""} (molecule ↔ mol)`],
-    [3 * m, `a factor of 10^${3 * m} (L ↔ cm³)`],
-    [6 * m, `a factor of 10^${6 * m} (m³ ↔ cm³)`],
+    [3 * m, `a factor of 10${superscript(3 * m)} (L ↔ cm³)`],
+    [6 * m, `a factor of 10${superscript(6 * m)} (m³ ↔ cm³)`],
     [m * (lgNA - 3), `a factor of (N_A/1000)${m > 1 ? "²" : ""} (L mol⁻¹ ↔ cm³ molecule⁻¹)`],
     [m * (lgNA - 6), `a factor of (N_A/10⁶)${m > 1 ? "²" : ""} (m³ mol⁻¹ ↔ cm³ molecule⁻¹)`],
   ];
@@ -24,23 +25,49 @@ export function matchUnitMistake(offsetLog10: number, order: ReactionOrder): str
   return null;
 }
 
+const SUPERSCRIPT = "⁰¹²³⁴⁵⁶⁷⁸⁹";
+
+/** 12 → "¹²": the exponent of an exact power of ten in a unit's name. */
+function superscript(n: number): string {
+  return String(n).replace(/\d/g, (d) => SUPERSCRIPT[Number(d)]);
+}
+
 /**
- * The size of a factor from |log10|: three significant digits below 1000 ("1.04", "2.00", "4.80",
- * "12.3"), so factors side by side read alike; a power of ten for unit-size factors ("10^23.78").
+ * The size of a factor from |log10|, through the site's one formatter (lib/format.ts): three
+ * significant digits below 1000 ("1.04", "2.00", "4.80", "12.3"), so factors side by side read
+ * alike; above, the exponent form of every page ("6.02e23"), also where 10^|log10| overflows.
  */
 export function factorSize(log10: number): string {
   const a = Math.abs(log10);
-  return a < 3 ? (10 ** a).toPrecision(3) : `10^${a.toFixed(2)}`;
+  return a < 3 ? formatSignificant(10 ** a, 3) : formatTenTo(a, 3);
 }
 
-/** "a factor 4.80 above" / "a factor 10^23.78 below" from a log10 ratio. */
+/** Whether a factor is written "1.00": it then reads as agreement, never as "a factor 1.00 below". */
+export function factorRoundsToOne(log10: number): boolean {
+  return factorSize(log10) === "1.00";
+}
+
+/**
+ * "a factor 4.80 above" / "a factor 6.02e23 below" from a log10 ratio; a factor that rounds to
+ * 1.00 is "the same to three digits" (no direction can be read from it).
+ */
 export function describeFactor(log10: number): string {
+  if (factorRoundsToOne(log10)) return "the same to three digits";
   return `a factor ${factorSize(log10)} ${log10 >= 0 ? "above" : "below"}`;
+}
+
+/**
+ * A factor at a temperature where the dataset is off: as describeFactor, but a difference too
+ * small to show in three digits (a very precise pair) is given in percent with its direction.
+ */
+export function describeOffFactor(log10: number): string {
+  if (!factorRoundsToOne(log10)) return describeFactor(log10);
+  return `${formatNumber(Math.abs(Math.expm1(log10 * Math.LN10)) * 100, 2)} % ${log10 >= 0 ? "above" : "below"}`;
 }
 
 /** A temperature for prose: whole kelvin above 100 K, three significant digits below. */
 export function describeT(T: number): string {
-  return T >= 100 ? `${Math.round(T)} K` : `${Number(T.toPrecision(3))} K`;
+  return T >= 100 ? `${Math.round(T)} K` : `${formatNumber(T, 3)} K`;
 }
 
 /** "220 K", "220 and 300 K", "220, 300 and 420 K". */
@@ -62,7 +89,7 @@ export interface ComparedPoint {
  * temperature, off ones with their factor, agreeing ones together.
  */
 export function describeComparison(points: ComparedPoint[]): string {
-  const off = points.filter((p) => !p.agrees).map((p) => `${describeFactor(p.log10Ratio)} at ${describeT(p.T)}`);
+  const off = points.filter((p) => !p.agrees).map((p) => `${describeOffFactor(p.log10Ratio)} at ${describeT(p.T)}`);
   const agreeing = points.filter((p) => p.agrees).map((p) => p.T);
   const parts: string[] = [];
   if (off.length) parts.push(off.join(", "));
@@ -141,6 +168,8 @@ export interface VerdictInput {
   own: { Tmin: number; Tmax: number } | null;
   /** Why it is left out of the consensus; null when it is in. */
   leftOut: string | null;
+  /** Set aside as off the consensus of the others (largest consistent subset): compared with the datasets that shaped the curve. */
+  setAside?: boolean;
   /** Included datasets other than this one. */
   otherCount: number;
   unitSuspect: string | null;
@@ -170,7 +199,8 @@ export interface VerdictInput {
 /** The comparison of one dataset with the others, in one or two sentences (each template with its condition). */
 export function describeVerdict(v: VerdictInput): string {
   const { name, leftOut, unitSuspect } = v;
-  const out = leftOut ? ` Left out of the consensus: ${leftOut}.` : "";
+  const setAside = v.setAside === true;
+  const out = setAside ? " Off the consensus — not used for the curve." : leftOut ? ` Left out of the consensus: ${leftOut}.` : "";
   if (!v.own) return `${name} has no points inside the temperature window.`;
   const d = v.comparison;
   if (!d) {
@@ -178,7 +208,7 @@ export function describeVerdict(v: VerdictInput): string {
       ? `${name} is the only dataset in the consensus: there is nothing to compare it with.${out}`
       : `The other datasets alone cover a single temperature, so ${lowerFirst(name)} cannot be compared with them.${out}`;
   }
-  let against = leftOut ? "the consensus" : d.count === 1 ? "the only other dataset" : `the consensus of the other ${d.count}`;
+  let against = leftOut && !setAside ? "the consensus" : d.count === 1 ? "the only other dataset" : `the consensus of the other ${d.count}`;
   if (d.restsOn) against += ` (which rests ${Math.round(d.restsOn.share * 100)} % on ${lowerFirst(d.restsOn.name)} there)`;
   if (unitSuspect) return `${name} is ${describeFactor(d.meanOffsetLog10)} ${against}, close to ${unitSuspect}: check its units.${out}`;
   if (!d.range || d.points.length === 0) {
@@ -188,7 +218,9 @@ export function describeVerdict(v: VerdictInput): string {
   const bend = middleBend(d.points);
   if (!d.off) {
     const widest = d.points.reduce((a, b) => (Math.abs(b.log10Ratio) > Math.abs(a.log10Ratio) ? b : a));
-    const largest = `largest difference ${describeFactor(widest.log10Ratio)}, at ${describeT(widest.T)}`;
+    const largest = factorRoundsToOne(widest.log10Ratio)
+      ? "k the same to three digits at each"
+      : `largest difference ${describeFactor(widest.log10Ratio)}, at ${describeT(widest.T)}`;
     const temps = listTemperatures(d.points.map((p) => p.T));
     const spread = d.spread;
     // The others disagreeing with each other: compare with their consensus, and say who is off.
@@ -198,7 +230,7 @@ export function describeVerdict(v: VerdictInput): string {
     if (spread) {
       const n = spread.offOthers.length;
       const who = n ? `, and ${listNames(spread.offOthers)} ${n === 1 ? "is" : "are"} off the consensus of the rest` : "";
-      const tau = `τ² of the others = ${spread.tau2.toPrecision(2)} in (ln k)², a factor ${Math.exp(Math.sqrt(spread.tau2)).toPrecision(3)} per standard deviation`;
+      const tau = `τ² of the others = ${formatNumber(spread.tau2, 2)} in (ln k)², a factor ${factorSize(Math.sqrt(spread.tau2) / Math.LN10)} per standard deviation`;
       const slope = clause ? ` ${clause[0].toUpperCase()}${clause.slice(1)}.` : "";
       return `${name} agrees with ${against} at ${temps} (${largest}) only within the wide spread between the others (${tau}): they disagree with each other${who}.${slope}${out}`;
     }

@@ -3,8 +3,10 @@
  *
  * Stage 1 (consensus-support.ts). Each dataset is summarised by its own fit — the model its own
  * analysis prefers — as fitted ln k at support temperatures inside its own measured range (both
- * ends and the middle in 1/T; one more per doubling of Tmax/Tmin, up to 7), with their covariance V_j (from the modified fit whenever it is
- * determined, so an undetected curvature is not ruled out). A dataset therefore weighs by its
+ * ends and the middle in 1/T; one more per doubling of Tmax/Tmin, up to 7), with their covariance
+ * V_j from that fit (rank 2 for a straight set: it says nothing of curvature beyond τ², so a
+ * modified consensus needs a curved set). It is judged against the others with the modified fit's
+ * covariance whenever that is determined, so an undetected curvature is not ruled out. A dataset therefore weighs by its
  * information, not by its number of points, and never speaks outside its range. One
  * temperature: one support value (weighted mean ln k) with its variance; two temperatures: the
  * Arrhenius line through them (both ends). Without stated uncertainties and without spare
@@ -31,6 +33,10 @@
  * contrasts. Against one other dataset, that dataset is read through its own fit, as the dataset
  * compared is (τ² = 0), so A against B mirrors B against A. A dataset that agrees everywhere is
  * never flagged, however precise.
+ *
+ * Largest consistent subset (Cox 2007, Metrologia 44:187): while a dataset is off the consensus of
+ * the others and more than two remain, the one furthest off is set aside (at most 3; compared with, not used
+ * for, the curve) and everything is refitted.
  *
  * unit_suspect: the mean log10 ratio within 0.15 of a unit-mistake factor for the order m
  * (N_A^(m−1), 10^(3(m−1)), 10^(6(m−1)), (N_A/10³)^(m−1), (N_A/10⁶)^(m−1)); such a dataset is
@@ -225,9 +231,20 @@ export interface ConsensusMember {
   support: SupportValue[];
   supportCovariance: number[][];
   disagreement: Disagreement | null;
-  /** Its share in the consensus at the middle of its range (in 1/T); null when left out. */
+  /**
+   * Its share in the consensus ln k̂ at shareT, the middle of its own range in 1/T; null when left
+   * out. Each dataset's share is read at its own temperature, so these do not add up to 1 across
+   * datasets: {@link ConsensusResult.shares} gives every dataset's share at common temperatures.
+   */
   share: number | null;
+  /** K: where share is read (the middle of its range in 1/T); null when left out. */
+  shareT: number | null;
   unitSuspect: string | null;
+  /**
+   * Set aside by the largest-consistent-subset rule: off the consensus of the others, so left out
+   * of the curve (leftOut says so); its disagreement is with the final consensus.
+   */
+  setAside: boolean;
   /** The comparison in one sentence. */
   verdict: string;
 }
@@ -241,16 +258,40 @@ export interface ConsensusResult {
   included: number;
   points: number;
   supportValues: number;
+  /** Ids of the datasets that shaped the curve (the included ones, in the order given). */
+  curveFrom: string[];
   /** Temperatures covered by the included datasets. */
   range: { Tmin: number; Tmax: number };
   method: string;
   arrhenius: ConsensusArrhenius;
   modifiedArrhenius: ConsensusModifiedArrhenius | null;
   preferred: "arrhenius" | "modified_arrhenius";
+  /**
+   * Who carries the preferred consensus at each temperature of its uncertaintyFactor: the share of
+   * every included dataset in ln k̂(T) (the GLS prediction is linear in the support values), in the
+   * order of members. At each temperature the shares add up to 1; a share can be negative.
+   */
+  shares: ConsensusShares[];
   members: ConsensusMember[];
   flags: ConsensusFlag[];
 }
 
+/** Every included dataset's share in the consensus at one temperature (they add up to 1). */
+export interface ConsensusShares {
+  /** K */
+  T: number;
+  shares: { id: string; share: number }[];
+}
+
+/** The largest consistent subset stops setting datasets aside when this many remain. */
+export const MIN_CONSISTENT_SUBSET = 2;
+/**
+ * At most this many datasets are set aside (each costs a refit): beyond a few, the data are not one
+ * consensus with a few stray sets, and the remaining ones off it are flagged as they are.
+ */
+export const MAX_SET_ASIDE = 3;
+/** leftOut of a dataset set aside by the largest-consistent-subset rule. */
+export const SET_ASIDE_REASON = "off the consensus — not used for the curve";
 /** Family-wise level of the off-consensus test. */
 export const OFF_CONSENSUS_ALPHA = 0.05;
 /** Smallest Tmax/Tmin of the support temperatures for a modified Arrhenius consensus. */
@@ -337,6 +378,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
   }
   const rows = buildRows(supports, T0);
   const unitSuspect: (string | null)[] = new Array(J).fill(null);
+  const setAside: boolean[] = new Array(J).fill(false);
 
   let fits: Fits;
   let comparisons: (Disagreement | null)[];
@@ -354,9 +396,29 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       if (!d || !matchUnitMistake(d.meanOffsetLog10, order)) continue;
       if (worst < 0 || Math.abs(d.meanOffsetLog10) > Math.abs(comparisons[worst]!.meanOffsetLog10)) worst = j;
     }
-    if (worst < 0 || included.length < 2) break;
-    unitSuspect[worst] = matchUnitMistake(comparisons[worst]!.meanOffsetLog10, order);
-    leftOut[worst] = `a likely unit mistake (${unitSuspect[worst]})`;
+    if (worst >= 0 && included.length >= 2) {
+      unitSuspect[worst] = matchUnitMistake(comparisons[worst]!.meanOffsetLog10, order);
+      leftOut[worst] = `a likely unit mistake (${unitSuspect[worst]})`;
+      continue;
+    }
+    // Largest consistent subset (Cox 2007, Metrologia 44:187): the dataset furthest off the
+    // consensus of the others leaves the curve, and the rest are fitted and judged again, until
+    // none is off or two remain.
+    if (included.length <= MIN_CONSISTENT_SUBSET || setAside.filter(Boolean).length >= MAX_SET_ASIDE) break;
+    let far = -1;
+    let farZ = 1;
+    for (const j of included) {
+      const d = comparisons[j];
+      if (!d?.off) continue;
+      const z = Math.max(...d.points.map((p) => Math.abs(p.z))) / d.bound;
+      if (z > farZ) {
+        farZ = z;
+        far = j;
+      }
+    }
+    if (far < 0) break;
+    setAside[far] = true;
+    leftOut[far] = SET_ASIDE_REASON;
   }
   for (let j = 0; j < J; j++) {
     const d = comparisons[j];
@@ -372,13 +434,18 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     included.filter((j) => supports[j]!.Tmin <= T * (1 + 1e-12) && T <= supports[j]!.Tmax * (1 + 1e-12)).length;
 
   const label = (j: number) => datasets[j].label ?? `Dataset ${datasets[j].id}`;
-  const shareAt = new Map<number, number>();
+  const shareAt = new Map<number, { T: number; share: number }>();
   const g = shareVectors(rows, included, fits.preferred.weightTau2);
+  const shareOf = (j: number, a: readonly number[]) => a[0] * g[3 * j] + a[1] * g[3 * j + 1] + a[2] * g[3 * j + 2];
   for (const j of included) {
     const s = supports[j]!;
-    const a = shareDirection(rows, fits.preferred, 2 / (1 / s.Tmin + 1 / s.Tmax));
-    shareAt.set(j, a[0] * g[3 * j] + a[1] * g[3 * j + 1] + a[2] * g[3 * j + 2]);
+    const T = 2 / (1 / s.Tmin + 1 / s.Tmax);
+    shareAt.set(j, { T, share: shareOf(j, shareDirection(rows, fits.preferred, T)) });
   }
+  const shares: ConsensusShares[] = gridT(covered.Tmin, covered.Tmax, FACTOR_POINTS).map((T) => {
+    const a = shareDirection(rows, fits.preferred, T);
+    return { T, shares: included.map((j) => ({ id: datasets[j].id, share: shareOf(j, a) })) };
+  });
   const members: ConsensusMember[] = datasets.map((ds, j) => {
     const s = supports[j];
     const d = comparisons[j];
@@ -398,8 +465,10 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       support: s ? s.temps.map((T, a) => ({ T, lnk: s.lnk[a], se: Math.sqrt(s.cov[a * s.temps.length + a]) })) : [],
       supportCovariance: s ? s.temps.map((_, a) => s.temps.map((__, b) => s.cov[a * s.temps.length + b])) : [],
       disagreement: d,
-      share: shareAt.get(j) ?? null,
+      share: shareAt.get(j)?.share ?? null,
+      shareT: shareAt.get(j)?.T ?? null,
       unitSuspect: unitSuspect[j],
+      setAside: setAside[j],
       verdict:
         verdictOf(
           label,
@@ -428,12 +497,14 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     included: included.length,
     points,
     supportValues: values,
+    curveFrom: included.map((j) => datasets[j].id),
     range: covered,
     method:
-      "Two-stage random effects: each dataset's own fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range; bands and f(T) at 95 % including τ².",
+      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and one off it is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain; bands and f(T) at 95 % including τ².",
     arrhenius: { ...buildArrhenius(rows, fits.arr, covered, coverage), supportValues: values },
     modifiedArrhenius: fits.mod ? { ...buildModified(rows, fits.mod, covered, coverage, T0), supportValues: values } : null,
     preferred: fits.preferred.q === 3 ? "modified_arrhenius" : "arrhenius",
+    shares,
     members,
     flags,
   };
@@ -531,7 +602,16 @@ function supportsModified(supports: readonly (DatasetSupport | null)[], blocks: 
       hi = Math.max(hi, T);
     }
   }
-  return temps.size >= 3 && hi / lo >= MODIFIED_MIN_SPAN;
+  return temps.size >= 3 && hi / lo >= MODIFIED_MIN_SPAN && blocks.some((j) => carriesCurvature(supports[j]));
+}
+
+/**
+ * Whether a dataset's summary says anything about curvature: its own fit is the modified one. A
+ * straight set's summary (rank 2) carries level and slope only, and two straight sets whose slopes
+ * differ are a spread between datasets, not a curvature of the consensus.
+ */
+function carriesCurvature(s: DatasetSupport | null): boolean {
+  return s?.fit.model === "modified_arrhenius";
 }
 
 function prefer(arr: ModelFit, mod: ModelFit | null): ModelFit {
@@ -589,6 +669,7 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
     for (const T of supports[j]!.temps) tempCount.set(T, (tempCount.get(T) ?? 0) + 1);
   }
   const sortedTemps = [...tempCount.keys()].sort((a, b) => a - b);
+  const curved = included.filter((j) => carriesCurvature(supports[j])).length;
   for (let i = 0; i < m; i++) {
     const j = included[i];
     const a = arr[i];
@@ -601,7 +682,7 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
     let hi = sortedTemps.length - 1;
     while (hi >= lo && onlyOwn(sortedTemps[hi])) hi--;
     const span = hi > lo ? sortedTemps[hi] / sortedTemps[lo] : 1;
-    const modOk = mod && distinct >= 3 && span >= MODIFIED_MIN_SPAN;
+    const modOk = mod && distinct >= 3 && span >= MODIFIED_MIN_SPAN && curved - (carriesCurvature(supports[j]) ? 1 : 0) > 0;
     const fit = prefer(a, modOk ? mod[i] : null);
     out[j] = {
       fit,
@@ -670,7 +751,7 @@ function otherSide(rows: Rows, supports: readonly (DatasetSupport | null)[], o: 
   const single = o.count === 1 ? o.blocks.find((k) => k !== o.skip) : undefined;
   const s = single !== undefined ? supports[single] : null;
   if (s && s.fit.model !== "single_temperature") {
-    const fit = s.fit;
+    const fit = s.judge;
     return {
       lnk: (T) => evaluateOwnFit(fit, T).lnk,
       variance: (T) => evaluateOwnFit(fit, T).variance,
@@ -737,7 +818,7 @@ function compare(
   const overlap = a <= b;
   const temps = overlap ? (s.fit.model === "single_temperature" ? [s.temps[0]] : comparisonTemperatures(a, b)) : s.temps;
   const diffs = temps.map((T) => {
-    const own = evaluateOwnFit(s.fit, T);
+    const own = evaluateOwnFit(s.judge, T);
     const ownSe = Math.sqrt(own.variance);
     const othersSe = Math.sqrt(other.variance(T));
     const d = own.lnk - other.lnk(T);
@@ -768,14 +849,14 @@ function compare(
     const lo = diffs[0];
     const hi = diffs[diffs.length - 1];
     // The same variance model as the z of each temperature: own fit, the other side and τ² per temperature.
-    const v = ownDifferenceVariance(s.fit, lo.T, hi.T) + other.differenceVariance(lo.T, hi.T) + 2 * other.tau2;
+    const v = ownDifferenceVariance(s.judge, lo.T, hi.T) + other.differenceVariance(lo.T, hi.T) + 2 * other.tau2;
     slopeZ = (lo.d - hi.d) / Math.sqrt(v);
     // Relatively higher at the cold end: k rises less steeply with T, so a lower activation energy.
     activationEnergy = Math.abs(slopeZ) > Z95 ? (slopeZ > 0 ? "lower" : "higher") : "same";
     const cov = new Array<number>(m * m);
     for (let p = 0; p < m; p++) {
       for (let q = p; q < m; q++) {
-        const v = ownCovariance(s.fit, temps[p], temps[q]) + other.covariance(temps[p], temps[q]) + (p === q ? other.tau2 : 0);
+        const v = ownCovariance(s.judge, temps[p], temps[q]) + other.covariance(temps[p], temps[q]) + (p === q ? other.tau2 : 0);
         cov[p * m + q] = v;
         cov[q * m + p] = v;
       }
@@ -850,6 +931,7 @@ function verdictOf(
     name: label(j),
     own: s ? { Tmin: s.Tmin, Tmax: s.Tmax } : null,
     leftOut,
+    setAside: leftOut === SET_ASIDE_REASON,
     otherCount,
     unitSuspect,
     comparison:
@@ -885,9 +967,9 @@ function collectFlags(members: ConsensusMember[], nIncluded: number): ConsensusF
       flags.push({ code: "unit_suspect", severity: "warn", message: m.verdict, datasetIds: [m.id] });
     } else if (d && !d.range) {
       flags.push({ code: "not_compared", severity: "info", message: m.verdict, datasetIds: [m.id] });
-    } else if (d?.off) {
+    } else if (d?.off || m.setAside) {
       // Two datasets that disagree: neither can be called the odd one out.
-      const pair = m.included && d.comparedWith === 1;
+      const pair = m.included && d?.comparedWith === 1;
       flags.push({ code: pair ? "datasets_disagree" : "off_consensus", severity: "warn", message: m.verdict, datasetIds: [m.id] });
     }
   }

@@ -3,7 +3,7 @@
  * engine writes `message` with this function in the default units (kJ mol⁻¹, K), so the stored
  * message and what a page shows in other units cannot say different things.
  */
-import { formatRange, MINUS } from "../format";
+import { formatRange, formatSignificant, MINUS } from "../format";
 import { parseEnergyUnit, parseTemperatureUnit, type LinearUnit } from "./units";
 import type { Extrapolation, Flag, FlagCode, FlagQuantity } from "./types";
 import { K298_INTERVAL_MAX_WIDTHS } from "./extrapolation";
@@ -136,8 +136,10 @@ type Template = (w: Writer, points: number[]) => string;
 const TEMPLATES: Record<FlagCode, Template> = {
   modified_fit_undetermined: (w) =>
     w.has("sine")
-      ? `The modified Arrhenius expression cannot be determined from these data: over ${w.range("Tmin", "Tmax")}, ln T and 1/T are proportional to within ${w.value("sine").toExponential(1)}, so n and Ea cannot be told apart (the curvature test is skipped).`
-      : `The modified Arrhenius expression cannot be determined from these data: over ${w.range("Tmin", "Tmax")} the temperature exponent comes out as n = ${w.get("n")} with a standard error of ${w.get("seN")}, above ${w.get("seNLimit")}, so the data do not fix n (the curvature test is skipped).`,
+      ? `The modified Arrhenius expression cannot be determined from these data: over ${w.range("Tmin", "Tmax")}, ln T and 1/T are proportional to within ${formatSignificant(w.value("sine"), 2)}, so n and Ea cannot be told apart (the curvature test is skipped).`
+      : w.has("points")
+        ? `The modified Arrhenius expression cannot be determined from these data: its three coefficients pass exactly through the ${w.get("points")} points over ${w.range("Tmin", "Tmax")}, whatever their scatter, so n would be the scatter itself and has no standard error. At least 4 points at 3 or more temperatures are needed.`
+        : `The modified Arrhenius expression cannot be determined from these data: over ${w.range("Tmin", "Tmax")} the temperature exponent comes out as n = ${w.get("n")} with a standard error of ${w.get("seN")}, above ${w.get("seNLimit")}, so the data do not fix n (the curvature test is skipped).`,
 
   uncertainties_ignored: (w) => `Only ${w.get("stated")} of ${w.get("n")} points state an uncertainty, so all fits are unweighted.`,
 
@@ -192,7 +194,7 @@ const TEMPLATES: Record<FlagCode, Template> = {
     const overlap = w.has("from")
       ? ` Compared only over ${w.range("from", "to")}, where the stated range of the expression (${statedRange(w)}) overlaps the data.`
       : "";
-    return `The reported expression lies ${bandWords} ${w.span("outsideFrom", "outsideTo")}; the largest difference is a factor of ${times.toPrecision(3)} (${factor >= 1 ? "higher" : "lower"}) at ${w.get("at")}.${overlap}`;
+    return `The reported expression lies ${bandWords} ${w.span("outsideFrom", "outsideTo")}; the largest difference is a factor of ${formatSignificant(times, 3)} (${factor >= 1 ? "higher" : "lower"}) at ${w.get("at")}.${overlap}`;
   },
 
   reported_range_outside_data: (w) =>

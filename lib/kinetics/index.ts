@@ -20,6 +20,7 @@ export {
   type ConsensusModifiedArrhenius,
   type ConsensusOptions,
   type ConsensusResult,
+  type ConsensusShares,
   type Disagreement,
   type SupportValue,
   type UncertaintyFactor,

@@ -15,6 +15,7 @@ export const CONSENSUS_SELECTION_RULES: readonly string[] = [
   "The temperature window `Tmin` … `Tmax` (K, both inclusive, either may be left out) drops the points outside it before the fit. A dataset left with fewer than 2 distinct temperatures cannot be fitted and is listed as not used, with how many of its points fell inside.",
   "All datasets of one consensus share one reaction order (the unit of k): the order most of them have; the others are listed as not used.",
   "A dataset the consensus itself leaves out as a likely unit mistake (its rate constants off the others by a unit-conversion factor; see the consensus conventions) moves from used to not used, with that reason (`unit_suspect`).",
+  "A dataset the consensus sets aside as off the consensus of the others (the largest consistent subset; see the consensus conventions) moves from used to not used, with that reason (`off_consensus`); it is still compared with the final consensus, and consensus.curveFrom lists the datasets that shaped the curve.",
   "A consensus needs at least 2 datasets; with fewer, or input the engine refuses, `consensus` is null and `unavailable` says why.",
 ];
 
@@ -191,7 +192,8 @@ export type NotUsedCode =
   | "other_order"
   | "too_few_temperatures"
   | "outside_window"
-  | "unit_suspect";
+  | "unit_suspect"
+  | "off_consensus";
 
 export interface SelectedDataset {
   versionId: number;
@@ -410,19 +412,32 @@ export function runSelectedConsensus(selection: ConsensusSelection): { result: C
 }
 
 /**
- * The selection after the engine has run: a used dataset the engine left out as a likely unit
- * mistake moves to the not-used list with that reason, so the lists say what the fit rests on.
+ * The selection after the engine has run: a used dataset the engine left out — as a likely unit
+ * mistake, or set aside as off the consensus of the others — moves to the not-used list with that
+ * reason, so the lists say what the fit rests on.
  */
 export function withEngineLeftOut(selection: ConsensusSelection, result: ConsensusResult | null): ConsensusSelection {
   if (!result) return selection;
-  const suspect = new Map(
-    result.members.filter((m) => !m.included && m.unitSuspect && m.leftOut?.startsWith("a likely unit mistake")).map((m) => [m.id, m]),
-  );
-  const moved = selection.used.filter((d) => suspect.has(String(d.versionId)));
+  const reasonOf = new Map<string, { code: "unit_suspect" | "off_consensus"; message: string }>();
+  for (const m of result.members) {
+    if (m.included) continue;
+    if (m.unitSuspect && m.leftOut?.startsWith("a likely unit mistake")) {
+      reasonOf.set(m.id, {
+        code: "unit_suspect",
+        message: `Left out by the consensus: its rate constants are off the others by about ${m.unitSuspect}, a likely unit mistake; check its units.`,
+      });
+    } else if (m.setAside) {
+      reasonOf.set(m.id, {
+        code: "off_consensus",
+        message: "Left out by the consensus: off the consensus of the others — not used for the curve (it is still compared with it).",
+      });
+    }
+  }
+  const moved = selection.used.filter((d) => reasonOf.has(String(d.versionId)));
   if (!moved.length) return selection;
   return {
     ...selection,
-    used: selection.used.filter((d) => !suspect.has(String(d.versionId))),
+    used: selection.used.filter((d) => !reasonOf.has(String(d.versionId))),
     notUsed: [
       ...selection.notUsed,
       ...moved.map((d) => ({
@@ -433,12 +448,7 @@ export function withEngineLeftOut(selection: ConsensusSelection, result: Consens
         versionIdentifier: d.versionIdentifier,
         kind: d.kind,
         points: d.points,
-        reasons: [
-          {
-            code: "unit_suspect" as const,
-            message: `Left out by the consensus: its rate constants are off the others by about ${suspect.get(String(d.versionId))!.unitSuspect}, a likely unit mistake; check its units.`,
-          },
-        ],
+        reasons: [reasonOf.get(String(d.versionId))!],
       })),
     ],
   };

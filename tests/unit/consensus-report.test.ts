@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { comparisonCell } from "@/components/consensus-report";
-import type { ConsensusMember } from "@/lib/kinetics";
+import { comparisonCell, otherSideOf } from "@/components/consensus-report";
+import type { ConsensusMember, ConsensusResult } from "@/lib/kinetics";
 
 /** A constructed member that is off at one comparison temperature by the given log10 ratio. */
 const member = (log10Ratio: number) =>
@@ -12,9 +12,35 @@ const member = (log10Ratio: number) =>
 
 describe("comparisonCell", () => {
   it("writes the factor with true signs and exponents, never ×1.00", () => {
-    expect(comparisonCell(member(-0.5))).toBe("off: ×3.2 below at 300 K");
+    // The engine's factorSize (lib/format.ts): 10^0.5 = 3.162…, 10^5.35 = 2.239e5 (common arithmetic).
+    expect(comparisonCell(member(-0.5))).toBe("off: ×3.16 below at 300 K");
     expect(comparisonCell(member(0.001))).toBe("off: the same to three digits at 300 K");
-    expect(comparisonCell(member(5.35))).toBe("off: ×2.2e5 above at 300 K");
-    expect(comparisonCell(member(-400.35))).toBe("off: ×2.2e400 below at 300 K");
+    expect(comparisonCell(member(5.35))).toBe("off: ×2.24e5 above at 300 K");
+    expect(comparisonCell(member(-400.35))).toBe("off: ×2.24e400 below at 300 K");
+  });
+});
+
+describe("otherSideOf: what a dataset's k is divided by in its table", () => {
+  const m = (id: string, comparedWith: number | null, included = true) =>
+    ({ id, included, disagreement: comparedWith === null ? null : { comparedWith } }) as unknown as ConsensusMember;
+  const labels = new Map([
+    ["1", "“first” (dataset 1)"],
+    ["2", "“second” (dataset 2)"],
+  ]);
+
+  it("names the one other dataset (its own fit) when only one other is in the consensus", () => {
+    const result = { members: [m("1", 1), m("2", 1)] } as unknown as ConsensusResult;
+    expect(otherSideOf(result, result.members[0], labels)).toEqual({ single: "“second” (dataset 2)" });
+    expect(otherSideOf(result, result.members[1], labels)).toEqual({ single: "“first” (dataset 1)" });
+  });
+
+  it("names the one included dataset for a dataset left out of a consensus of one", () => {
+    const result = { members: [m("1", 1), m("2", 1, false)] } as unknown as ConsensusResult;
+    expect(otherSideOf(result, result.members[1], labels)).toEqual({ single: "“first” (dataset 1)" });
+  });
+
+  it("speaks of the others' consensus with two or more others", () => {
+    const result = { members: [m("1", 2), m("2", 2), m("3", 2)] } as unknown as ConsensusResult;
+    expect(otherSideOf(result, result.members[0], labels)).toEqual({ single: null });
   });
 });

@@ -176,11 +176,11 @@ export default function ApiDocsPage() {
           , <code>used</code> (each version with <code>kind</code>, <code>points</code>, <code>pointsUsed</code> and the temperatures used),{" "}
           <code>notUsed</code> (each with <code>reasons</code>: a stable <code>code</code> — <code>retracted</code>, <code>evaluated</code>,{" "}
           <code>unknown_method</code>, <code>not_chosen</code>, <code>excluded_by_curator</code>, <code>other_order</code>,{" "}
-          <code>too_few_temperatures</code>, <code>outside_window</code>, <code>unit_suspect</code> — and a <code>message</code>) and{" "}
-          <code>curatorExclusions</code> (version, reason, time). <code>consensus</code> is the engine’s result in the storage units named
-          in (<code>units</code>); its <code>members[].id</code> are the version ids of <code>used</code>, as strings, plus those left out
-          by a curator alone (compared, not fitted) and those it left out as a likely unit mistake. When no consensus can be formed,{" "}
-          <code>consensus</code> is null and <code>unavailable</code> says why.
+          <code>too_few_temperatures</code>, <code>outside_window</code>, <code>unit_suspect</code>, <code>off_consensus</code> — and a{" "}
+          <code>message</code>) and <code>curatorExclusions</code> (version, reason, time). <code>consensus</code> is the engine’s result in
+          the storage units named in (<code>units</code>); its <code>members[].id</code> are the version ids of <code>used</code>, as
+          strings, plus those left out by a curator alone (compared, not fitted) and those it left out as a likely unit mistake. When no
+          consensus can be formed, <code>consensus</code> is null and <code>unavailable</code> says why.
         </p>
         <h3 className="font-semibold">Which datasets go in</h3>
         <ul className="list-disc space-y-2 pl-6 text-sm">

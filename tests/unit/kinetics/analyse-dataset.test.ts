@@ -303,7 +303,9 @@ describe("analyseDataset: flags", () => {
     const r = analyseDataset({ points: arrheniusPoints(3), order: 2 });
     expect(r.flags.find((f) => f.code === "too_few_points")?.severity).toBe("info");
     expect(r.diagnostics).toBeNull();
-    expect(r.modifiedArrhenius).not.toBeNull();
+    // Three coefficients through three points: not determinable (no residual dof).
+    expect(r.modifiedArrhenius).toBeNull();
+    expect(r.flags.map((f) => f.code)).toContain("modified_fit_undetermined");
   });
 
   it("reported_fit_disagrees only when the reported expression leaves the band", () => {

@@ -2,6 +2,8 @@ import { describe, expect, it } from "vitest";
 import {
   describeComparison,
   describeFactor,
+  describeOffFactor,
+  factorSize,
   describeSlope,
   middleBend,
   describeT,
@@ -47,7 +49,7 @@ const offPoints = [
 ];
 
 describe("consensus words: the small parts", () => {
-  it("writes factors with three digits below 2, two above, powers of ten for unit-size factors", () => {
+  it("writes factors through the site's formatter: three significant digits, the exponent form for unit-size factors", () => {
     expect(describeFactor(Math.log10(1.04))).toBe("a factor 1.04 above");
     expect(describeFactor(-Math.log10(4.8))).toBe("a factor 4.80 below");
     // One rule on both sides of 2 and of 10: three significant digits.
@@ -57,8 +59,17 @@ describe("consensus words: the small parts", () => {
       "a factor 2.00 above",
       "a factor 12.3 above",
     ]);
-    expect(describeFactor(23.78)).toBe("a factor 10^23.78 above");
-    expect(describeFactor(0)).toBe("a factor 1.00 above");
+    // 10^23.78 = 6.0256e23 (common arithmetic), in lib/format.ts's exponent form with a true minus nowhere needed.
+    expect(describeFactor(23.78)).toBe("a factor 6.03e23 above");
+    expect(describeFactor(-400.35)).toBe("a factor 2.24e400 below");
+    expect(factorSize(Math.log10(1.004))).toBe("1.00");
+    // A factor that rounds to 1.00 reads as agreement, never "a factor 1.00 below".
+    for (const l of [0, 0.0009, -0.0009]) expect(describeFactor(l)).toBe("the same to three digits");
+    // Where a dataset is off by less than that, the difference is given in percent with its direction.
+    expect(describeOffFactor(Math.log10(0.9977))).toBe("0.23 % below");
+    expect(describeOffFactor(Math.log10(4.8))).toBe("a factor 4.80 above");
+    // No number in the words is written by toPrecision/toFixed or as "10^x".
+    for (const l of [0.5, 3.5, 23.78, -301.2]) expect(describeFactor(l)).not.toMatch(/\^|e\+/);
   });
 
   it("writes temperatures in whole kelvin above 100 K and three digits below, and lists them", () => {
@@ -153,7 +164,7 @@ describe("consensus words: every verdict template under its condition", () => {
         ),
       ),
     ).toBe(
-      "Dataset 7 is a factor 10^23.80 above the consensus, close to a factor of N_A (molecule ↔ mol): check its units. Left out of the consensus: a likely unit mistake (a factor of N_A (molecule ↔ mol)).",
+      "Dataset 7 is a factor 6.31e23 above the consensus, close to a factor of N_A (molecule ↔ mol): check its units. Left out of the consensus: a likely unit mistake (a factor of N_A (molecule ↔ mol)).",
     );
   });
 

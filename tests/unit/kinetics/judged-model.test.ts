@@ -75,10 +75,29 @@ describe("modified Arrhenius fit refused when the data do not determine n", () =
     expect(Math.abs(m.params.n - 2.8)).toBeLessThan(3 * m.se.n!);
     expect(codes(r)).not.toContain("modified_fit_undetermined");
   });
-  it("three points at three temperatures (no dof, no se) keep their exactly determined modified fit", () => {
-    const pts = [250, 300, 350].map((T) => ({ T, k: 1e-12 * (T / 298.15) ** 1.5 * Math.exp(-1000 / T) }));
+  it("three points at three temperatures (no residual dof): not determinable, null with a flag in plain words", () => {
+    // 1 % scatter on k = 1e-12 (T/298.15)^1.5 exp(−1000 K/T) (invented): the exact fit through three points
+    // turns the scatter into n — here hundreds, as the n = −4244 a three-point set once showed.
+    const pts = [250, 251, 252].map((T, i) => ({ T, k: 1e-12 * (T / 298.15) ** 1.5 * Math.exp(-1000 / T + 0.01 * [1, -1, 1][i]) }));
     const r = analyseDataset({ order: 2, points: pts });
-    expect(r.modifiedArrhenius!.params.n).toBeCloseTo(1.5, 8);
+    expect(r.modifiedArrhenius).toBeNull();
+    expect(r.curvature).toBeNull();
+    const flag = r.flags.find((f) => f.code === "modified_fit_undetermined")!;
+    expect(flag.quantities!.points.value).toBe(3);
+    expect(flag.message).toBe(
+      "The modified Arrhenius expression cannot be determined from these data: its three coefficients pass exactly through the 3 points over 250–252 K, whatever their scatter, so n would be the scatter itself and has no standard error. At least 4 points at 3 or more temperatures are needed.",
+    );
+    // The Arrhenius fit (one residual dof) is kept.
+    expect(r.arrhenius.dof).toBe(1);
+    // Noise-free points are no different: with no dof nothing shows that n is right.
+    const exact = [250, 300, 350].map((T) => ({ T, k: 1e-12 * (T / 298.15) ** 1.5 * Math.exp(-1000 / T) }));
+    expect(analyseDataset({ order: 2, points: exact }).modifiedArrhenius).toBeNull();
+  });
+  it("four points (one residual dof) fall under the se(n) rule instead", () => {
+    const pts = [250, 251, 252, 253].map((T, i) => ({ T, k: 1e-12 * Math.exp(-1000 / T + 0.01 * [1, -1, 1, -1][i]) }));
+    const flag = analyseDataset({ order: 2, points: pts }).flags.find((f) => f.code === "modified_fit_undetermined")!;
+    expect(flag.quantities!.seN.value).toBeGreaterThan(5);
+    expect(flag.quantities!.points).toBeUndefined();
   });
 });
 

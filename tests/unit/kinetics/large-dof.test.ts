@@ -11,6 +11,7 @@
  */
 import { describe, expect, it } from "vitest";
 import reference from "@/tests/fixtures/large-dof/reference.json";
+import far from "@/tests/fixtures/far-gamma-tails/reference.json";
 import { regularisedGamma } from "@/lib/kinetics/incomplete-gamma";
 import { survivalChiSquare, survivalF, survivalStudentT } from "@/lib/kinetics/distributions";
 import { analyseDataset } from "@/lib/kinetics/analyse-dataset";
@@ -59,6 +60,25 @@ describe("regularised incomplete gamma P and Q (reference: mpmath 1.3, 40 digits
   });
   it("Q(5000, 5000) = 0.49811936596618… (the value that was 0.50376)", () => {
     expect(regularisedGamma(5000, 5000, true)).toBeCloseTo(0.4981193659661827, 14);
+  });
+});
+
+describe("far tails at large a (reference: tests/fixtures/far-gamma-tails, mpmath 1.3.0 at 80 digits)", () => {
+  it(`${far.cases.length} cases, a from 150 to 1e6, x = a ± z√a with z from 0.5 to 35, down to 1e-300, within 1e-12 relative`, () => {
+    // The reference is computed at the exact binary64 a and x, so no condition number enters: this is the engine's own error.
+    let worst = { err: 0, what: "" };
+    for (const c of far.cases) {
+      const err = relErr(regularisedGamma(c.a, c.x, c.tail === "Q"), c.value);
+      if (err > worst.err) worst = { err, what: `${c.tail}(${c.a}, ${c.x}) off by ${err}` };
+    }
+    expect(worst.err, worst.what).toBeLessThanOrEqual(1e-12);
+    // The case the tail was 1e-10 off in: dof ≥ 2e4 and Q below 1e-39.
+    expect(far.cases.some((c) => c.a >= 1e4 && c.tail === "Q" && Number(c.value) < 1e-39)).toBe(true);
+    expect(far.source).toMatch(/^mpmath 1\.3\.0, mp\.dps = 80/);
+  });
+  it("χ² upper tail at dof 2e6, 3.5 standard deviations out (Q ≈ 1.26e-38), as survivalChiSquare reads it", () => {
+    const c = far.cases.find((x) => x.a === 1e6 && x.tail === "Q" && Number(x.value) < 1e-37 && Number(x.value) > 1e-39)!;
+    expect(relErr(survivalChiSquare(2 * c.x, 2 * c.a), c.value)).toBeLessThanOrEqual(1e-12);
   });
 });
 

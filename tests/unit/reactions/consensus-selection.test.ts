@@ -299,7 +299,7 @@ describe("runSelectedConsensus", () => {
     const sel = selectConsensusDatasets({ versions: [a, b, c, wrong], exclusions: [], choice: choice() });
     expect(sel.used).toHaveLength(4);
     const { result } = runSelectedConsensus(sel);
-    expect(result!.members.find((m) => m.id === String(wrong.versionId))!.unitSuspect).toMatch(/10\^3/);
+    expect(result!.members.find((m) => m.id === String(wrong.versionId))!.unitSuspect).toMatch(/10³/);
     const after = withEngineLeftOut(sel, result);
     expect(after.used.map((d) => d.versionId)).toEqual([a.versionId, b.versionId, c.versionId]);
     const listed = after.notUsed.find((d) => d.versionId === wrong.versionId)!;
@@ -309,7 +309,7 @@ describe("runSelectedConsensus", () => {
       {
         code: "unit_suspect",
         message:
-          "Left out by the consensus: its rate constants are off the others by about a factor of 10^3 (L ↔ cm³), a likely unit mistake; check its units.",
+          "Left out by the consensus: its rate constants are off the others by about a factor of 10³ (L ↔ cm³), a likely unit mistake; check its units.",
       },
     ]);
     expect(selectionToJson(after).notUsed.map((d) => d.versionId)).toEqual([wrong.versionId]);
