@@ -5,6 +5,8 @@ import { formatRange, formatSignificant } from "@/lib/format";
 import { ScrollRegion } from "./scroll-region";
 import { kScaleSymbol, onKScale, useKScale } from "./k-scale";
 import { niceScale, temperatureTicks } from "./plot-scales";
+import { PointCloud, POINT_CLOUD_FROM } from "./point-cloud";
+import { usePlotWidth } from "./plot-width";
 import { Area, CartesianGrid, ComposedChart, ErrorBar, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 
 // Up to this many points the figure carries them as a table too; beyond, the page's downloads do.
@@ -51,6 +53,7 @@ export function ArrheniusPlot({
   tableHref?: string;
 }) {
   const [scale, scaleControl] = useKScale();
+  const { ref: plotRef, tickCount } = usePlotWidth<HTMLDivElement>();
   const tableId = useId();
   const total = Math.max(totalPoints ?? 0, points.length);
   const thinned = total > points.length;
@@ -60,9 +63,10 @@ export function ArrheniusPlot({
     ? reported.T.map((t, i) => ({ x: 1000 / t, reported: yOf(reported.lnk[i]) })).filter((p) => Number.isFinite(p.reported))
     : [];
   const xs = [...points.map((p) => 1000 / p.T), ...band.T.map((t) => 1000 / t), ...reportedLine.map((p) => p.x)];
-  const x = niceScale(Math.min(...xs), Math.max(...xs));
+  // Fewer ticks on a narrow plot, so the labels of both x axes stay apart.
+  const x = niceScale(Math.min(...xs), Math.max(...xs), Math.max(3, tickCount));
   const domain = x.domain;
-  const topTicks = temperatureTicks(domain);
+  const topTicks = temperatureTicks(domain, tickCount);
   const ys = [
     ...points.flatMap((p) => (p.sigmaLnK ? [p.lnk - p.sigmaLnK, p.lnk + p.sigmaLnK] : [p.lnk])),
     ...(band.lower ?? band.lnk),
@@ -87,6 +91,8 @@ export function ArrheniusPlot({
   const normal = points.filter((p) => !p.outlier).map(drawn);
   const flagged = points.filter((p) => p.outlier).map(drawn);
   const withBars = points.some((p) => p.sigmaLnK);
+  // Many points: the scatter's legend entry stays, the points themselves are drawn as one path.
+  const cloud = normal.length >= POINT_CLOUD_FROM;
   const fitName = band.model === "modified_arrhenius" ? "modified Arrhenius fit" : "Arrhenius fit";
   let tLow = Infinity;
   let tHigh = -Infinity;
@@ -110,7 +116,7 @@ export function ArrheniusPlot({
           </p>
         )}
       </div>
-      <div className="h-96 w-full" role="img" aria-label={summary}>
+      <div ref={plotRef} className="h-96 w-full" role="img" aria-label={summary}>
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 28, right: 24, bottom: 28, left: 16 }}>
             <CartesianGrid stroke="#e6e1d6" />
@@ -188,7 +194,7 @@ export function ArrheniusPlot({
             )}
             <Scatter
               xAxisId="inv"
-              data={normal}
+              data={cloud ? [] : normal}
               dataKey="y"
               name={withBars ? "measured (±1σ bars)" : "measured"}
               fill="#22537a"
@@ -198,6 +204,7 @@ export function ArrheniusPlot({
             >
               {withBars && <ErrorBar dataKey="err" direction="y" stroke="#22537a" width={3} />}
             </Scatter>
+            {cloud && <PointCloud points={normal} xAxisId="inv" colour="#22537a" />}
             {flagged.length > 0 && (
               <Scatter
                 xAxisId="inv"
@@ -216,7 +223,8 @@ export function ArrheniusPlot({
         </ResponsiveContainer>
       </div>
       <figcaption className="text-xs text-muted">
-        Circles: points used in the fit. Crosses: points flagged as outliers (still part of the fit).
+        {normal.length > 0 ? "Circles: points used in the fit." : ""}
+        {flagged.length > 0 ? " Crosses: points flagged as outliers (still part of the fit)." : ""}
         {band.lower ? ` Shaded: 95 % confidence band of the ${fitName}.` : ""}
         {reportedLine.length ? " Dashed: the expression the authors report, over its stated range (else the data's)." : ""}
         {withBars ? " Bars: the stated ±1σ of each point." : ""}

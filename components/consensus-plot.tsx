@@ -1,7 +1,9 @@
 "use client";
 
 import { formatRange } from "@/lib/format";
+import { kScaleSymbol, onKScale, useKScale } from "./k-scale";
 import { niceScale, temperatureTicks } from "./plot-scales";
+import { usePlotWidth } from "./plot-width";
 import { Area, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 
 export interface SeriesPoints {
@@ -45,29 +47,37 @@ export function ConsensusPlot({
   /** Where the same data are given as a table (the text alternative links to it). */
   tableHref?: string;
 }) {
+  const [scale, scaleControl] = useKScale();
+  const { ref: plotRef, tickCount } = usePlotWidth<HTMLDivElement>();
+  const yOf = (lnk: number) => onKScale(lnk, scale);
+  const symbol = kScaleSymbol(scale);
   const xs = [...series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => 1000 / p.T)), ...(band?.T.map((t) => 1000 / t) ?? [])];
   const unusedCount = series.reduce((n, s) => n + (s.excluded ? 0 : (s.unused?.length ?? 0)), 0);
   if (!xs.length) return null;
-  const x = niceScale(Math.min(...xs), Math.max(...xs));
+  // Fewer ticks on a narrow plot, so the labels of both x axes stay apart.
+  const x = niceScale(Math.min(...xs), Math.max(...xs), Math.max(3, tickCount));
   const domain = x.domain;
-  const topTicks = temperatureTicks(domain);
+  const topTicks = temperatureTicks(domain, tickCount);
   const ys = [
     ...series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => p.lnk)),
     ...(band ? [...band.lower, ...band.upper] : []),
-  ].filter(Number.isFinite);
+  ]
+    .map(yOf)
+    .filter(Number.isFinite);
   const y = niceScale(Math.min(...ys), Math.max(...ys));
   const Ts = series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => p.T));
-  const summary = `Arrhenius plot, ln k against 1000/T, of ${series.length} dataset${series.length === 1 ? "" : "s"} between ${formatRange(
+  const summary = `Arrhenius plot, ${symbol} against 1000/T, of ${series.length} dataset${series.length === 1 ? "" : "s"} between ${formatRange(
     Math.min(...Ts),
     Math.max(...Ts),
     "K",
   )}${band ? ", with the consensus as a dashed line and its 95 % band" : ", without a consensus line"}${
     unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn hollow` : ""
   }.`;
-  const fit = band?.T.map((t, i) => ({ x: 1000 / t, fit: band.lnk[i], range: [band.lower[i], band.upper[i]] })) ?? [];
+  const fit = band?.T.map((t, i) => ({ x: 1000 / t, fit: yOf(band.lnk[i]), range: [yOf(band.lower[i]), yOf(band.upper[i])] })) ?? [];
   return (
     <figure className="space-y-2">
-      <div className="h-[36rem] w-full sm:h-[28rem]" role="img" aria-label={summary}>
+      {scaleControl}
+      <div ref={plotRef} className="h-[36rem] w-full sm:h-[28rem]" role="img" aria-label={summary}>
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart margin={{ top: 28, right: 24, bottom: 28, left: 16 }}>
             <CartesianGrid stroke="#e6e1d6" />
@@ -99,7 +109,7 @@ export function ConsensusPlot({
               ticks={y.ticks}
               tickFormatter={(v: number) => v.toFixed(y.decimals).replace("-", "\u2212")}
               width={72}
-              label={{ value: `ln k  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
+              label={{ value: `${symbol}  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
             />
             <Tooltip
               formatter={(v) => (Array.isArray(v) ? v.map((x) => Number(x).toFixed(3)).join(" … ") : Number(v).toFixed(3))}
@@ -141,7 +151,7 @@ export function ConsensusPlot({
                   key={s.label}
                   xAxisId="inv"
                   name={s.excluded ? `${s.label} (left out)` : s.off ? `${s.label} (off the others)` : s.label}
-                  data={(s.excluded ? [...s.points, ...(s.unused ?? [])] : s.points).map((p) => ({ x: 1000 / p.T, y: p.lnk }))}
+                  data={(s.excluded ? [...s.points, ...(s.unused ?? [])] : s.points).map((p) => ({ x: 1000 / p.T, y: yOf(p.lnk) }))}
                   dataKey="y"
                   shape={m.shape}
                   legendType={m.shape}
@@ -158,7 +168,7 @@ export function ConsensusPlot({
                   key={`${s.label} unused`}
                   xAxisId="inv"
                   name={`${s.label}: ${s.unused.length} point${s.unused.length === 1 ? "" : "s"} not used (${s.unusedWhy ?? "outside the window"}), hollow`}
-                  data={s.unused.map((p) => ({ x: 1000 / p.T, y: p.lnk }))}
+                  data={s.unused.map((p) => ({ x: 1000 / p.T, y: yOf(p.lnk) }))}
                   dataKey="y"
                   shape={markerOf(i).shape}
                   legendType={markerOf(i).shape}

@@ -5,6 +5,10 @@ import { expect, test, type Page } from "@playwright/test";
 // thread, the plot draws a thinned set and says so, and the page never freezes (> 500 ms).
 
 const DATA = page_data();
+
+// Playwright's trace recorder snapshots the whole page on the page's own main thread at every
+// action; that is the test's cost, not the page's, so the timing here runs without it.
+test.use({ trace: "off" });
 const SHOTS = process.env.ANALYSE_SHOTS_DIR;
 
 /** 100 000 invented points on an Arrhenius line with a few per cent of scatter, after a header and a blank line. */

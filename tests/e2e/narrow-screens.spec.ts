@@ -36,12 +36,17 @@ async function pagesFor(page: Page, role: keyof typeof roles): Promise<string[]>
   if (role === "researcher" || role === "admin") {
     paths.push("/deposits", "/deposits/new");
     const deposit = await firstLink(page, "/deposits", /^\/deposits\/\d+$/);
+    // A deposit page carries its dataset's invitations list and links its audit trail.
     if (deposit) paths.push(deposit);
+    const audit = deposit && (await firstLink(page, deposit, /^\/datasets\/\d+\/audit$/));
+    if (audit) paths.push(audit);
   }
   if (role === "curator" || role === "admin") {
     paths.push("/review");
     const review = await firstLink(page, "/review", /^\/review\/\d+$/);
     if (review) paths.push(review);
+    const audit = review && (await firstLink(page, review, /^\/datasets\/\d+\/audit$/));
+    if (audit && !paths.includes(audit)) paths.push(audit);
   }
   if (role === "admin") paths.push("/admin/people", "/admin/mail", "/admin/jobs");
   // The "You do not have access" page (403) of a role that may not open a page.
@@ -113,3 +118,62 @@ test("a wide code block scrolls by keyboard and says so", async ({ page }) => {
   await expect.poll(() => region.evaluate((el) => el.scrollLeft)).toBeGreaterThan(before);
   await expect(page.getByText(/scroll sideways/).first()).toBeVisible();
 });
+
+/** The tick labels of every plot axis on the page, with their horizontal extent. */
+async function plotTicks(page: Page) {
+  return page.evaluate(() =>
+    [...document.querySelectorAll<SVGGElement>("figure .recharts-cartesian-axis-tick-labels")].map((axis) => ({
+      vertical: axis.classList.contains("recharts-yAxis-tick-labels"),
+      labels: [...axis.querySelectorAll<SVGTextElement>(".recharts-cartesian-axis-tick-value")].map((t) => {
+        const box = t.getBoundingClientRect();
+        return { text: t.textContent ?? "", left: box.left, right: box.right };
+      }),
+    })),
+  );
+}
+
+/** Null when every label is a round number (at most two decimals). */
+function roundTicksProblem(texts: string[]): string | null {
+  const values = texts.map((t) => Number(t.replace("\u2212", "-")));
+  if (values.some((v) => !Number.isFinite(v) || Math.abs(v * 100 - Math.round(v * 100)) > 1e-6)) return `not round: ${texts.join(" ")}`;
+  return null;
+}
+
+for (const [name, size] of [
+  ["390", PHONE],
+  ["1366", { width: 1366, height: 900 }],
+] as const) {
+  test(`plot axes at ${name} px: round tick labels in ln k and log₁₀ k, top temperatures apart`, async ({ page }) => {
+    await page.setViewportSize(size);
+    const reaction = await firstLink(page, "/reactions", /^\/reactions\/\d+$/);
+    const version = await firstLink(page, reaction!, /^\/datasets\/\d+\/v\d+$/);
+    const problems: string[] = [];
+    for (const path of [reaction!, version!]) {
+      await page.goto(path);
+      const figure = page
+        .locator("figure")
+        .filter({ has: page.getByRole("radio", { name: "log₁₀ k" }) })
+        .first();
+      await figure.scrollIntoViewIfNeeded();
+      for (const scale of ["ln k", "log₁₀ k"]) {
+        await figure.getByRole("radio", { name: scale }).check();
+        await expect(figure.getByRole("img", { name: new RegExp(`${scale} against 1000/T`) })).toBeVisible();
+        for (const axis of await plotTicks(page)) {
+          const texts = axis.labels.map((l) => l.text);
+          if (texts.length < 2) problems.push(`${path} ${scale}: an axis with ${texts.length} labels`);
+          const round = roundTicksProblem(texts);
+          if (round) problems.push(`${path} ${scale}: ${round}`);
+          if (!axis.vertical) {
+            const sorted = [...axis.labels].sort((a, b) => a.left - b.left);
+            for (let i = 1; i < sorted.length; i++)
+              if (sorted[i].left - sorted[i - 1].right < 6)
+                problems.push(
+                  `${path} ${scale}: labels ${sorted[i - 1].text} and ${sorted[i].text} crowd (${Math.round(sorted[i].left - sorted[i - 1].right)} px apart)`,
+                );
+          }
+        }
+      }
+    }
+    expect(problems).toEqual([]);
+  });
+}

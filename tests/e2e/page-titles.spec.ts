@@ -1,4 +1,5 @@
 import { expect, test } from "@playwright/test";
+import { DEMO_RESEARCHER, signInAs } from "./pages/deposit-pages";
 
 // Every page names itself in the browser tab: a reaction by its equation, a dataset by its title,
 // a missing page as "Not found".
@@ -23,4 +24,12 @@ test("reaction and dataset pages are titled by what they show; missing pages 'No
     await page.goto(missing);
     await expect(page, missing).toHaveTitle("Not found · Arrhenia");
   }
+});
+
+test("a refused page names the tab 'You do not have access · Arrhenia', not the page it refused", async ({ page }) => {
+  await signInAs(page, DEMO_RESEARCHER);
+  const answer = await page.goto("/admin/people");
+  expect(answer?.status()).toBe(403);
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText("You do not have access");
+  await expect(page).toHaveTitle("You do not have access · Arrhenia");
 });
