@@ -100,6 +100,7 @@ export const FREEZE_TRIGGERS = [
   "decisions_accept_only_by_publication",
   "submission_snapshots_append_only",
   "submission_snapshots_taken_at_submission",
+  "submission_snapshots_written_by_function",
   "dataset_versions_frozen_under_review",
   "version_points_frozen_under_review",
   "version_files_frozen_under_review",

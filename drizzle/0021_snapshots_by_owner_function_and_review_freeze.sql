@@ -135,33 +135,19 @@ $$ LANGUAGE plpgsql SECURITY DEFINER SET search_path = pg_catalog, public, pg_te
 REVOKE ALL ON FUNCTION arrhenia_take_submission_snapshot(integer, integer, text) FROM PUBLIC;
 --> statement-breakpoint
 
--- As in drizzle/0020, and only the owner (so only arrhenia_take_submission_snapshot) inserts.
-CREATE OR REPLACE FUNCTION arrhenia_guard_snapshot_insert() RETURNS trigger AS $$
-DECLARE
-  v record;
-  n integer;
+-- Only the owner (so only arrhenia_take_submission_snapshot) inserts; drizzle/0020's trigger checks the rest.
+CREATE OR REPLACE FUNCTION arrhenia_guard_snapshot_by_function() RETURNS trigger AS $$
 BEGIN
   IF NOT arrhenia_current_user_owns(TG_RELID) THEN
     RAISE EXCEPTION 'a snapshot of version % is taken only by arrhenia_take_submission_snapshot', NEW.version_id USING ERRCODE = 'insufficient_privilege';
   END IF;
-  SELECT state, payload INTO v FROM dataset_versions WHERE id = NEW.version_id;
-  IF v.state IS DISTINCT FROM 'submitted' THEN
-    RAISE EXCEPTION 'a snapshot of version % is taken only as it is submitted (it is %)', NEW.version_id, v.state USING ERRCODE = 'integrity_constraint_violation';
-  END IF;
-  IF NEW.payload IS DISTINCT FROM v.payload THEN
-    RAISE EXCEPTION 'a snapshot of version % must hold the submitted document', NEW.version_id USING ERRCODE = 'integrity_constraint_violation';
-  END IF;
-  SELECT count(*) INTO n FROM version_points WHERE version_id = NEW.version_id;
-  IF jsonb_typeof(NEW.points) IS DISTINCT FROM 'array' OR jsonb_array_length(NEW.points) <> n THEN
-    RAISE EXCEPTION 'a snapshot of version % must hold its % points', NEW.version_id, n USING ERRCODE = 'integrity_constraint_violation';
-  END IF;
-  IF NEW.sequence <> 1 + (SELECT count(*) FROM submission_snapshots WHERE version_id = NEW.version_id) THEN
-    RAISE EXCEPTION 'snapshots of version % are numbered in order', NEW.version_id USING ERRCODE = 'integrity_constraint_violation';
-  END IF;
-  NEW.created_at := now();
   RETURN NEW;
 END;
 $$ LANGUAGE plpgsql SET search_path = pg_catalog, public, pg_temp;
+--> statement-breakpoint
+CREATE TRIGGER submission_snapshots_written_by_function
+  BEFORE INSERT ON submission_snapshots
+  FOR EACH ROW EXECUTE FUNCTION arrhenia_guard_snapshot_by_function();
 --> statement-breakpoint
 REVOKE INSERT ON TABLE submission_snapshots FROM PUBLIC;
 --> statement-breakpoint
