@@ -12,7 +12,8 @@ const ROW_SCHEMAS = ["public", "pgboss"] as const;
 const WITHHELD: Record<string, string> = {
   decisions: "UPDATE, DELETE",
   audit_events: "UPDATE, DELETE",
-  submission_snapshots: "UPDATE, DELETE",
+  // Written only by arrhenia_take_submission_snapshot (drizzle/0021), from the stored document and points.
+  submission_snapshots: "INSERT, UPDATE, DELETE",
   identifier_registrations: "DELETE",
   // The current engine version (drizzle/0013): written by the owner only, read by the re-fit function.
   arrhenia_engine: "INSERT, UPDATE, DELETE",
@@ -23,6 +24,8 @@ export const RUNTIME_FUNCTIONS = [
   "arrhenia_append_refit_analysis(integer, text, jsonb, jsonb, text)",
   // Acceptance (drizzle/0017): the one way a version is published.
   "arrhenia_publish_version(integer, integer, text)",
+  // Submission (drizzle/0021): the one way a submission snapshot is written.
+  "arrhenia_take_submission_snapshot(integer, integer, text)",
 ];
 
 /** Columns only acceptance writes (drizzle/0017): the runtime role may UPDATE every other column of these tables. */
@@ -42,9 +45,9 @@ export const PUBLISH_BY_HAND = `DO $$ DECLARE u integer; d integer; v integer; B
 const PROBE_IN_REVIEW = `DECLARE u integer; c integer; d integer; v integer; BEGIN
         INSERT INTO public.users (email, name, password_hash) VALUES ('privileges-probe@example.invalid', 'probe', 'x') RETURNING id INTO u;
         INSERT INTO public.users (email, name, password_hash, role) VALUES ('privileges-curator@example.invalid', 'probe', 'x', 'curator') RETURNING id INTO c;
-        INSERT INTO public.datasets (owner_id, series_identifier) VALUES (u, '10.5072/ARH-PRBE-PRB0') RETURNING id INTO d;
+        INSERT INTO public.datasets (owner_id, series_identifier) VALUES (u, '10.5072/ARH-PRBE-PR0R') RETURNING id INTO d;
         INSERT INTO public.dataset_versions (dataset_id, number, title, payload) VALUES (d, 1, 'probe', '{}') RETURNING id INTO v;
-        UPDATE public.dataset_versions SET state = 'submitted' WHERE id = v;`;
+        UPDATE public.dataset_versions SET state = 'submitted', submitted_at = now() WHERE id = v;`;
 
 /** A curator's accept decision written directly: refused by drizzle/0017 (only acceptance writes one). */
 export const WRITE_ACCEPT_DECISION = `DO $$ ${PROBE_IN_REVIEW}
@@ -55,6 +58,32 @@ export const WRITE_ACCEPT_DECISION = `DO $$ ${PROBE_IN_REVIEW}
 export const PUBLISH_FULL_ROW = `DO $$ ${PROBE_IN_REVIEW}
         UPDATE public.dataset_versions SET state = 'published', published_at = now(), version_identifier = '10.5072/ARH-PRBE-PRB0/1',
           payload_sha256 = repeat('0', 64) WHERE id = v;
+      END $$`;
+
+/** A version in review whose document is replaced: refused by drizzle/0021. */
+export const CHANGE_UNDER_REVIEW = `DO $$ ${PROBE_IN_REVIEW}
+        UPDATE public.dataset_versions SET payload = '{"forged": true}' WHERE id = v;
+      END $$`;
+
+/** A point added to a version in review: refused by drizzle/0021. */
+export const ADD_POINT_UNDER_REVIEW = `DO $$ ${PROBE_IN_REVIEW}
+        INSERT INTO public.version_points (version_id, idx, temperature_k, rate_constant, original) VALUES (v, 0, 1, 1, '{}');
+      END $$`;
+
+/** A snapshot written directly, as the version is submitted: refused by drizzle/0021 (no INSERT; only the owner-run function). */
+export const WRITE_SNAPSHOT = `DO $$ ${PROBE_IN_REVIEW}
+        INSERT INTO public.submission_snapshots (version_id, sequence, submitted_by, reply, payload, points) VALUES (v, 1, c, 'forged', '{}', '[]');
+      END $$`;
+
+/** A second snapshot through the function, with another person's name: refused by drizzle/0021 (only the dataset's owner, once per submission). */
+export const SNAPSHOT_BY_ANOTHER = `DO $$ ${PROBE_IN_REVIEW}
+        PERFORM public.arrhenia_take_submission_snapshot(v, c, 'forged');
+      END $$`;
+
+/** Acceptance minting from a series identifier that is not ours: refused by drizzle/0021. */
+export const PUBLISH_FOREIGN_SERIES = `DO $$ ${PROBE_IN_REVIEW.replace("'10.5072/ARH-PRBE-PR0R'", "NULL")}
+        UPDATE public.datasets SET series_identifier = 'javascript:alert(1)//' WHERE id = d;
+        PERFORM public.arrhenia_publish_version(v, c, 'forged');
       END $$`;
 
 /** Triggers that freeze published data (drizzle/0002, drizzle/0007, drizzle/0016); each must exist and fire. */
@@ -71,6 +100,10 @@ export const FREEZE_TRIGGERS = [
   "decisions_accept_only_by_publication",
   "submission_snapshots_append_only",
   "submission_snapshots_taken_at_submission",
+  "submission_snapshots_written_by_function",
+  "dataset_versions_frozen_under_review",
+  "version_points_frozen_under_review",
+  "version_files_frozen_under_review",
   "identifier_registrations_forward_only",
   "reactions_frozen_when_published",
   "reaction_participants_frozen_when_published",
@@ -212,6 +245,7 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
   const appendOnlyWritable = tables
     .filter((t) => (t.table === "public.decisions" || t.table === "public.audit_events") && (t.update || t.delete))
     .concat(tables.filter((t) => t.table === "public.identifier_registrations" && t.delete))
+    .concat(tables.filter((t) => t.table === "public.submission_snapshots" && (t.insert || t.update || t.delete)))
     .map((t) => t.table);
   const ownerColumns = Object.entries(OWNER_WRITTEN_COLUMNS).flatMap(([table, columns]) => columns.map((c) => `${table}.${c}`));
   const ownerColumnsWritable = (
@@ -248,7 +282,11 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     { check: "TEMPORARY on the database (tables that shadow)", found: String(db.temporary), ok: !db.temporary },
     { check: "guard functions without a fixed search_path", found: none(unpinned), ok: unpinned.length === 0 },
     { check: "may set session_replication_role", found: String(db.replication), ok: !db.replication },
-    { check: "UPDATE/DELETE on append-only tables", found: none(appendOnlyWritable), ok: appendOnlyWritable.length === 0 },
+    {
+      check: "UPDATE/DELETE on append-only tables (INSERT on submission snapshots)",
+      found: none(appendOnlyWritable),
+      ok: appendOnlyWritable.length === 0,
+    },
     {
       check: "current engine version row exists, and the role may not change it",
       found: engineRow ? none(engineWritable.map((p) => p.toUpperCase())) : "no table public.arrhenia_engine",
@@ -261,7 +299,7 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     },
     { check: "freeze triggers missing or disabled", found: none(missing), ok: missing.length === 0 },
     {
-      check: "owner-run functions it may call, beyond re-fit and acceptance",
+      check: "owner-run functions it may call, beyond re-fit, acceptance and submission snapshots",
       found: none(unexpectedDefiners),
       ok: unexpectedDefiners.length === 0,
     },
@@ -281,6 +319,11 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     ["publish a version in review with a full row (identifier, checksum, time)", PUBLISH_FULL_ROW],
     ["set a draft's checksum", "UPDATE public.dataset_versions SET payload_sha256 = repeat('0', 64) WHERE false"],
     ["publish through the acceptance function as nobody", "SELECT * FROM public.arrhenia_publish_version(NULL, NULL, 'forged')"],
+    ["change the document of a version in review", CHANGE_UNDER_REVIEW],
+    ["add a point to a version in review", ADD_POINT_UNDER_REVIEW],
+    ["write a submission snapshot directly", WRITE_SNAPSHOT],
+    ["a submission snapshot by someone other than the dataset's owner", SNAPSHOT_BY_ANOTHER],
+    ["publish with a series identifier not of our form", PUBLISH_FOREIGN_SERIES],
     ["CREATE FUNCTION", "CREATE FUNCTION public.arrhenia_forged_refit() RETURNS integer LANGUAGE sql SECURITY DEFINER AS 'SELECT 1'"],
     [
       "a re-fit by an engine that is not the current one",

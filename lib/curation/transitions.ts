@@ -1,17 +1,9 @@
 import "server-only";
 import { createHash } from "node:crypto";
 import canonicalize from "canonicalize";
-import { and, asc, count, eq, isNull, sql } from "drizzle-orm";
+import { and, eq, isNull, sql } from "drizzle-orm";
 import { getDb, type Transaction } from "@/db/client";
-import {
-  datasetMembers,
-  datasets,
-  datasetVersions,
-  decisions,
-  identifierRegistrations,
-  submissionSnapshots,
-  versionPoints,
-} from "@/db/datasets";
+import { datasetMembers, datasets, datasetVersions, decisions, identifierRegistrations } from "@/db/datasets";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
@@ -125,11 +117,12 @@ export async function applyTransition({
     } else {
       await tx
         .update(datasetVersions)
-        .set({ state: to, updatedAt: now, ...(transition === "submit" ? { submittedAt: now } : {}) })
+        // submitted_at is the transaction's now(): the snapshot function checks it was submitted in this transaction.
+        .set({ state: to, updatedAt: now, ...(transition === "submit" ? { submittedAt: sql`now()` } : {}) })
         .where(eq(datasetVersions.id, versionId));
     }
-    // Every submission is kept as it was sent (append-only, drizzle/0018): curators compare with it.
-    if (transition === "submit") await takeSubmissionSnapshot(tx, { versionId, actorId, payload: version.payload, reply: reply?.trim() });
+    // Every submission is kept as it was sent (append-only, drizzle/0020–0021): curators compare with it.
+    if (transition === "submit") await takeSubmissionSnapshot(tx, { versionId, actorId, reply: reply?.trim() });
     await recordAuditEvent(tx, {
       actorId,
       action: `dataset.${transition}`,
@@ -169,24 +162,14 @@ async function seriesIdentifierFor(tx: Transaction, datasetId: number): Promise<
   throw new Error("No free series code after 8 draws");
 }
 
-/** Keeps the submitted document and its points as the version's next snapshot (the version is already `submitted`). */
+/**
+ * Keeps the submitted document and its points as the version's next snapshot (the version is already
+ * `submitted`, in this transaction): the owner-run arrhenia_take_submission_snapshot (drizzle/0021)
+ * builds it from the stored payload and points; the runtime role cannot write snapshots itself.
+ */
 async function takeSubmissionSnapshot(
   tx: Transaction,
-  { versionId, actorId, payload, reply }: { versionId: number; actorId: number; payload: Record<string, unknown>; reply?: string },
-): Promise<void> {
-  const points = await tx
-    .select({
-      T: versionPoints.temperatureK,
-      k: versionPoints.rateConstant,
-      sigmaLnK: versionPoints.sigmaLnK,
-      pressurePa: versionPoints.pressurePa,
-      bathGas: versionPoints.bathGas,
-      note: versionPoints.note,
-      original: versionPoints.original,
-    })
-    .from(versionPoints)
-    .where(eq(versionPoints.versionId, versionId))
-    .orderBy(asc(versionPoints.idx));
-  const [{ n }] = await tx.select({ n: count() }).from(submissionSnapshots).where(eq(submissionSnapshots.versionId, versionId));
-  await tx.insert(submissionSnapshots).values({ versionId, sequence: n + 1, submittedBy: actorId, reply: reply || null, payload, points });
+  { versionId, actorId, reply }: { versionId: number; actorId: number; reply?: string },
+) {
+  await tx.execute(sql`select arrhenia_take_submission_snapshot(${versionId}, ${actorId}, ${reply || null})`);
 }

@@ -9,6 +9,7 @@ import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { addDatasetMember, getVersionWithRole } from "@/lib/datasets/queries";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { recordRegistrationSuccess } from "@/lib/identifiers/queries";
+import { newSeriesIdentifier } from "@/lib/identifiers/series-code";
 import { listPublicVersionsOfReaction } from "@/lib/reactions/queries";
 import { databaseUrl } from "@/lib/config";
 import { createUser, type UserDto } from "@/lib/users/queries";
@@ -438,6 +439,68 @@ describe("the runtime role's privileges (npm run db:privileges)", () => {
         await refused(`truncate decisions`);
       },
     );
+  });
+});
+
+describe("acceptance mints only identifiers of our form (drizzle/0021)", () => {
+  async function submitted(title: string) {
+    const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title } });
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    return v;
+  }
+
+  it("refuses a series identifier that is not <DOI prefix>/ARH-XXXX-XXXC with a right check symbol, as the runtime role", async () => {
+    const v = await submitted("Forged series");
+    const good = newSeriesIdentifier("10.5072");
+    // The same code with another check symbol: Crockford's mod-37 symbol no longer matches.
+    const wrongCheck = good.slice(0, -1) + (good.endsWith("0") ? "1" : "0");
+    for (const forged of [
+      "javascript:alert(1)//",
+      "10.5072/forged",
+      wrongCheck,
+      good.toLowerCase(),
+      `${good}/1`,
+      good.replace("10.5072/", "10.50/"),
+      good.replace("10.5072/", "https://evil.example/"),
+      `${good}\n`,
+      good.replace(/.$/, "I"),
+    ]) {
+      await expect(sql`update datasets set series_identifier = ${forged} where id = ${v.datasetId}`, forged).rejects.toThrow(
+        /datasets_series_identifier_format/,
+      );
+    }
+    const [row] = await sql`select series_identifier from datasets where id = ${v.datasetId}`;
+    expect(row.series_identifier).toBeNull();
+    // A right one (any configured prefix) is accepted and minted from.
+    const other = newSeriesIdentifier("10.123456789");
+    await sql`update datasets set series_identifier = ${other} where id = ${v.datasetId}`;
+    const outcome = await applyTransition({
+      versionId: v.id,
+      actorId: curator.id,
+      transition: "accept",
+      reason: "Consistent with the source.",
+    });
+    expect(outcome.identifiers?.version).toBe(`${other}/1`);
+  });
+
+  const ownerUrl = process.env.MIGRATION_DATABASE_URL;
+  it.skipIf(!ownerUrl)("the acceptance function itself refuses a series identifier stored before the constraint", async () => {
+    const v = await submitted("Series stored before the check");
+    const schemaOwner = postgres(ownerUrl!, { max: 1, onnotice: () => {} });
+    try {
+      // Rolled back: the constraint is dropped only inside this transaction, to stand for a row older than it.
+      await expect(
+        schemaOwner.begin(async (tx) => {
+          await tx`alter table datasets drop constraint datasets_series_identifier_format`;
+          await tx`update datasets set series_identifier = 'javascript:alert(1)//' where id = ${v.datasetId}`;
+          await tx`select * from arrhenia_publish_version(${v.id}, ${curator.id}, 'forged')`;
+        }),
+      ).rejects.toThrow(/not one this repository mints/);
+    } finally {
+      await schemaOwner.end();
+    }
+    const [row] = await sql`select state, version_identifier from dataset_versions where id = ${v.id}`;
+    expect(row).toEqual({ state: "submitted", version_identifier: null });
   });
 });
 

@@ -137,7 +137,21 @@ describe("snapshots are append-only in the database (runtime role)", () => {
     expect(row).toEqual({ n: 1, reply: null });
   });
 
-  it("refuses a forged snapshot: of a draft, with another document, with missing points, out of order", async () => {
+  it("refuses a forged snapshot: no INSERT for the runtime role, and the function writes only what was submitted, by the owner, once", async () => {
+    const v = await submittedDraft();
+    const forgedPoints = sql.json(firstPoints.map(() => ({ T: 1, k: 1 })));
+    // Snapshot #2 of a submitted version with every point replaced, signed by a curator.
+    await expect(
+      sql`insert into submission_snapshots (version_id, sequence, submitted_by, reply, payload, points)
+        values (${v.id}, 2, ${curator.id}, 'forged reply', ${sql.json(doc("Snapshot test", firstPoints))}, ${forgedPoints})`,
+    ).rejects.toThrow(/permission denied/);
+    const [priv] = await sql`select has_table_privilege(current_user, 'submission_snapshots', 'INSERT') as i`;
+    expect(priv.i).toBe(false);
+    // The function, outside the transaction that submitted the version.
+    await expect(sql`select arrhenia_take_submission_snapshot(${v.id}, ${owner.id}, 'forged reply')`).rejects.toThrow(
+      /only as it is submitted, in the same transaction/,
+    );
+    // Of a draft.
     const draft = await createDatasetDraft({
       ownerId: owner.id,
       title: "Forged",
@@ -145,7 +159,28 @@ describe("snapshots are append-only in the database (runtime role)", () => {
       points: firstPoints,
       analysis,
     });
-    const points = sql.json(
+    await expect(sql`select arrhenia_take_submission_snapshot(${draft.id}, ${owner.id}, null)`).rejects.toThrow(/only as it is submitted/);
+    // Submitted by hand in the attacker's transaction: not in a curator's name, and only once.
+    const submitByHand = (as: number, times = 1) =>
+      sql.begin(async (tx) => {
+        await tx`update dataset_versions set state = 'submitted', submitted_at = now() where id = ${draft.id}`;
+        for (let i = 0; i < times; i++) await tx`select arrhenia_take_submission_snapshot(${draft.id}, ${as}, 'forged reply')`;
+      });
+    await expect(submitByHand(curator.id)).rejects.toThrow(/submitted only by the owner of its dataset/);
+    await expect(submitByHand(owner.id, 2)).rejects.toThrow(/already has the snapshot of this submission/);
+    const rows =
+      await sql`select version_id, sequence, submitted_by, reply, points from submission_snapshots where version_id in (${v.id}, ${draft.id}) order by version_id, sequence`;
+    expect(rows).toHaveLength(1);
+    expect(rows[0]).toMatchObject({ version_id: v.id, sequence: 1, submitted_by: owner.id, reply: null });
+    expect(rows[0].points.map((p: { T: number; k: number }) => [p.T, p.k])).toEqual(firstPoints.map((p) => [p.T, p.k]));
+  });
+
+  it("a snapshot is built from the stored payload and points, whatever the caller holds", async () => {
+    const v = await submittedDraft();
+    const [snap] =
+      await sql`select s.payload = v.payload as same_payload, s.points from submission_snapshots s join dataset_versions v on v.id = s.version_id where s.version_id = ${v.id}`;
+    expect(snap.same_payload).toBe(true);
+    expect(snap.points).toEqual(
       firstPoints.map((p) => ({
         T: p.T,
         k: p.k,
@@ -156,18 +191,51 @@ describe("snapshots are append-only in the database (runtime role)", () => {
         original: { T: p.T, k: p.k },
       })),
     );
-    await expect(
-      sql`insert into submission_snapshots (version_id, sequence, payload, points) values (${draft.id}, 1, ${sql.json(doc("Forged", firstPoints))}, ${points})`,
-    ).rejects.toThrow(/only as it is submitted/);
+  });
+});
+
+describe("a version under review keeps the document the curators review (runtime role)", () => {
+  const refused = /under review/;
+
+  it("refuses changing its document, points and files while submitted or in review; withdraw and return change only the state", async () => {
     const v = await submittedDraft();
-    await expect(
-      sql`insert into submission_snapshots (version_id, sequence, payload, points) values (${v.id}, 2, ${sql.json({ title: "Something else" })}, ${points})`,
-    ).rejects.toThrow(/must hold the submitted document/);
-    await expect(
-      sql`insert into submission_snapshots (version_id, sequence, payload, points) values (${v.id}, 2, ${sql.json(doc("Snapshot test", firstPoints))}, ${sql.json([])})`,
-    ).rejects.toThrow(/must hold its 3 points/);
-    await expect(
-      sql`insert into submission_snapshots (version_id, sequence, payload, points) values (${v.id}, 7, ${sql.json(doc("Snapshot test", firstPoints))}, ${points})`,
-    ).rejects.toThrow(/numbered in order/);
+    const attacks = (id: number) => [
+      sql`update dataset_versions set payload = ${sql.json({ title: "Something else" })} where id = ${id}`,
+      sql`update dataset_versions set draft_document = ${sql.json({ title: "Something else" })} where id = ${id}`,
+      sql`update dataset_versions set draft_problems = ${sql.json([{ pointer: "", message: "x" }])} where id = ${id}`,
+      // The trigger refuses before the foreign key is checked.
+      sql`update dataset_versions set reaction_id = 2147483647 where id = ${id}`,
+      sql`update dataset_versions set title = 'Renamed', lock_version = lock_version + 1 where id = ${id}`,
+      sql`update dataset_versions set submitted_at = now() where id = ${id}`,
+      sql`delete from dataset_versions where id = ${id}`,
+      sql`update version_points set rate_constant = 1 where version_id = ${id}`,
+      sql`delete from version_points where version_id = ${id}`,
+      sql`insert into version_points (version_id, idx, temperature_k, rate_constant, original) values (${id}, 99, 1, 1, '{}')`,
+      sql`insert into version_files (version_id, filename, content_type, size_bytes, sha256, storage_key) values (${id}, 'x.csv', 'text/csv', 1, 'c', 'k')`,
+    ];
+    const before = await sql`select payload, title, lock_version, point_count from dataset_versions where id = ${v.id}`;
+    for (const attack of attacks(v.id)) await expect(attack).rejects.toThrow(refused);
+    await transitionVersion({ actor: curator, versionId: v.id, transition: "start_review" });
+    for (const attack of attacks(v.id)) await expect(attack).rejects.toThrow(refused);
+    expect(await sql`select payload, title, lock_version, point_count from dataset_versions where id = ${v.id}`).toEqual(before);
+    const [{ n }] = await sql`select count(*)::int as n from version_points where version_id = ${v.id}`;
+    expect(n).toBe(3);
+    // Returned to the authors: the state changed, and they may edit again.
+    await transitionVersion({ actor: curator, versionId: v.id, transition: "return", reason: "Add the pressure." });
+    await saveDraft({
+      versionId: v.id,
+      actorId: owner.id,
+      expectedLockVersion: 1,
+      title: "Snapshot test, with pressure",
+      payload: doc("Snapshot test, with pressure", firstPoints),
+      points: firstPoints,
+      analysis,
+    });
+    // Withdrawn after resubmitting: back to a draft, editable.
+    await transitionVersion({ actor: owner, versionId: v.id, transition: "submit", reply: "Pressure added." });
+    await transitionVersion({ actor: owner, versionId: v.id, transition: "withdraw" });
+    await sql`update version_points set note = 'edited as a draft' where version_id = ${v.id} and idx = 0`;
+    const [row] = await sql`select state, title from dataset_versions where id = ${v.id}`;
+    expect(row).toEqual({ state: "draft", title: "Snapshot test, with pressure" });
   });
 });
