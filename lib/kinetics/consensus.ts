@@ -317,6 +317,11 @@ interface Others {
   count: number;
   Tmin: number;
   Tmax: number;
+  /**
+   * Excess Q − dof of the others' fixed-effect Arrhenius fit: every subset has one, so removals are
+   * compared in one model with the same number of coefficients (null for a dataset not in the consensus).
+   */
+  restExcess: number | null;
 }
 
 /**
@@ -401,21 +406,13 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       leftOut[worst] = `a likely unit mistake (${unitSuspect[worst]})`;
       continue;
     }
-    // Largest consistent subset (Cox 2007, Metrologia 44:187): the dataset furthest off the
-    // consensus of the others leaves the curve, and the rest are fitted and judged again, until
-    // none is off or two remain.
+    // Largest consistent subset (Cox 2007, Metrologia 44:187): while some dataset is off the
+    // consensus of the others, the dataset whose removal leaves the most consistent rest (the
+    // smallest excess Q − dof of the others' generalised χ², Arrhenius fit) leaves the curve, near-ties going to
+    // the one furthest off; the rest are fitted and judged again, until none is off or two remain.
     if (included.length <= MIN_CONSISTENT_SUBSET || setAside.filter(Boolean).length >= MAX_SET_ASIDE) break;
-    let far = -1;
-    let farZ = 1;
-    for (const j of included) {
-      const d = comparisons[j];
-      if (!d?.off) continue;
-      const z = Math.max(...d.points.map((p) => Math.abs(p.z))) / d.bound;
-      if (z > farZ) {
-        farZ = z;
-        far = j;
-      }
-    }
+    if (!included.some((j) => comparisons[j]?.off)) break;
+    const far = leastConsistent(included, others, comparisons);
     if (far < 0) break;
     setAside[far] = true;
     leftOut[far] = SET_ASIDE_REASON;
@@ -632,6 +629,36 @@ function fitAll(rows: Rows, supports: readonly (DatasetSupport | null)[], includ
   return { arr, mod, preferred: prefer(arr, mod) };
 }
 
+/** Excess Q within which two removals count as equally good and the z rule decides. */
+const SUBSET_Q_TIE = 1e-6;
+
+/**
+ * The dataset to set aside: the one whose removal leaves the smallest excess Q − dof of the
+ * others' fixed-effect Arrhenius fit (Cox 2007 chooses by the consistency of what remains); among near-ties,
+ * the one furthest off by its largest |z| over its Bonferroni bound.
+ */
+function leastConsistent(
+  included: readonly number[],
+  others: readonly (Others | null)[],
+  comparisons: readonly (Disagreement | null)[],
+): number {
+  const excess = (j: number) => others[j]?.restExcess ?? Infinity;
+  const far = (j: number) => {
+    const d = comparisons[j];
+    return d && d.points.length > 0 ? Math.max(...d.points.map((p) => Math.abs(p.z))) / d.bound : 0;
+  };
+  let best = -1;
+  for (const j of included) {
+    if (best < 0) {
+      best = j;
+      continue;
+    }
+    const dq = excess(j) - excess(best);
+    if (dq < -SUBSET_Q_TIE || (Math.abs(dq) <= SUBSET_Q_TIE && far(j) > far(best))) best = j;
+  }
+  return best;
+}
+
 /** The consensus of the others for every dataset (the full consensus for a dataset left out). */
 function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], included: number[], fits: Fits): (Others | null)[] {
   const J = supports.length;
@@ -643,7 +670,8 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
   const all = hull(included);
   const inConsensus = new Set(included);
   for (let j = 0; j < J; j++) {
-    if (supports[j] && !inConsensus.has(j)) out[j] = { fit: fits.preferred, blocks: included, skip: -1, count: included.length, ...all };
+    if (supports[j] && !inConsensus.has(j))
+      out[j] = { fit: fits.preferred, blocks: included, skip: -1, count: included.length, ...all, restExcess: null };
   }
   if (included.length < 2) return out;
   const exact = included.length <= EXACT_LEAVE_ONE_OUT_LIMIT;
@@ -691,6 +719,7 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
       count: m - 1,
       Tmin: Math.min(preMin[i], sufMin[i + 1]),
       Tmax: Math.max(preMax[i], sufMax[i + 1]),
+      restExcess: a.Q - a.df,
     };
   }
   return out;
