@@ -35,8 +35,9 @@
  * never flagged, however precise.
  *
  * Largest consistent subset (Cox 2007, Metrologia 44:187): while a dataset is off the consensus of
- * the others and more than two remain, the one furthest off is set aside (at most 3; compared with, not used
- * for, the curve) and everything is refitted.
+ * the others and more than two remain, the dataset whose removal leaves the smallest excess Q − dof of
+ * the others' fixed-effect Arrhenius fit is set aside (near-ties: the one furthest off; at most 3;
+ * compared with, not used for, the curve) and everything is refitted.
  *
  * unit_suspect: the mean log10 ratio within 0.15 of a unit-mistake factor for the order m
  * (N_A^(m−1), 10^(3(m−1)), 10^(6(m−1)), (N_A/10³)^(m−1), (N_A/10⁶)^(m−1)); such a dataset is
@@ -198,8 +199,12 @@ export interface Disagreement {
   factorChangeP: number | null;
   /** Mean log10 ratio over the comparison temperatures (over its support temperatures when none). */
   meanOffsetLog10: number;
-  /** The other dataset with the largest share in the others' consensus at the comparison temperature with the largest |z|, when that share is over 2/3. */
-  restsOn: { id: string; share: number } | null;
+  /**
+   * The other dataset with the largest share in the others' consensus at the comparison temperature
+   * with the largest |z| (T), when that share is over 2/3; inRange says whether T lies inside that
+   * dataset's own range (outside it, the others' curve there is an extrapolation of that dataset).
+   */
+  restsOn: { id: string; share: number; T: number; Tmin: number; Tmax: number; inRange: boolean } | null;
   /**
    * It agrees only because the others disagree with each other: at some comparison temperature its
    * difference exceeds the bound against its own uncertainty, and τ²₋ⱼ exceeds its own and the other
@@ -497,7 +502,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     curveFrom: included.map((j) => datasets[j].id),
     range: covered,
     method:
-      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and one off it is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain; bands and f(T) at 95 % including τ².",
+      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and while one is off, the one whose removal leaves the others most consistent (smallest Q − dof) is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain; bands and f(T) at 95 % including τ².",
     arrhenius: { ...buildArrhenius(rows, fits.arr, covered, coverage), supportValues: values },
     modifiedArrhenius: fits.mod ? { ...buildModified(rows, fits.mod, covered, coverage, T0), supportValues: values } : null,
     preferred: fits.preferred.q === 3 ? "modified_arrhenius" : "arrhenius",
@@ -917,7 +922,11 @@ function compare(
         best = k;
       }
     }
-    if (best >= 0 && bestShare > DOMINANT_SHARE) restsOn = { id: datasets[best].id, share: Math.min(1, bestShare) };
+    if (best >= 0 && bestShare > DOMINANT_SHARE) {
+      const { Tmin, Tmax } = supports[best]!;
+      const inRange = Tmin <= worst.T * (1 + 1e-12) && worst.T <= Tmax * (1 + 1e-12);
+      restsOn = { id: datasets[best].id, share: Math.min(1, bestShare), T: worst.T, Tmin, Tmax, inRange };
+    }
   }
   const off = points.some((p) => !p.agrees);
   // Beyond its own uncertainty there, and τ²₋ⱼ (which also widens the other side) outweighs both variances.
@@ -968,7 +977,7 @@ function verdictOf(
         ? {
             count: o.count,
             othersRange: { Tmin: o.Tmin, Tmax: o.Tmax },
-            restsOn: d.restsOn ? { name: label(datasets.findIndex((ds) => ds.id === d.restsOn!.id)), share: d.restsOn.share } : null,
+            restsOn: d.restsOn ? { ...d.restsOn, name: label(datasets.findIndex((ds) => ds.id === d.restsOn!.id)) } : null,
             range: d.range,
             points: d.points,
             off: d.off,
