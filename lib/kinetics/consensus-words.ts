@@ -179,8 +179,11 @@ export interface VerdictInput {
     count: number;
     /** Temperatures those datasets cover. */
     othersRange: { Tmin: number; Tmax: number };
-    /** The other dataset carrying most of the others' consensus, with its name. */
-    restsOn: { name: string; share: number } | null;
+    /**
+     * The other dataset carrying most of the others' consensus at temperature T, with its name and
+     * range; inRange false when T is outside that range (the others' curve there extrapolates it).
+     */
+    restsOn: { name: string; share: number; T?: number; Tmin?: number; Tmax?: number; inRange?: boolean } | null;
     /** The overlap of the ranges; null when there is none. */
     range: { Tmin: number; Tmax: number } | null;
     points: ComparedPoint[];
@@ -196,6 +199,19 @@ export interface VerdictInput {
   } | null;
 }
 
+/**
+ * Who carries the others' consensus where the dataset is judged hardest. A share at a temperature
+ * outside that dataset's own range is not support there: the curve there extrapolates it.
+ */
+function restsOnWords(r: NonNullable<NonNullable<VerdictInput["comparison"]>["restsOn"]>): string {
+  const pct = Math.round(r.share * 100);
+  const name = lowerFirst(r.name);
+  if (r.inRange === false && r.T != null && r.Tmin != null && r.Tmax != null) {
+    return `which at ${describeT(r.T)} is an extrapolation of ${name}, measured at ${describeT(r.Tmin)}–${describeT(r.Tmax)}, with ${pct} % of its weight`;
+  }
+  return `which rests ${pct} % on ${name} there`;
+}
+
 /** The comparison of one dataset with the others, in one or two sentences (each template with its condition). */
 export function describeVerdict(v: VerdictInput): string {
   const { name, leftOut, unitSuspect } = v;
@@ -209,7 +225,7 @@ export function describeVerdict(v: VerdictInput): string {
       : `The other datasets alone cover a single temperature, so ${lowerFirst(name)} cannot be compared with them.${out}`;
   }
   let against = leftOut && !setAside ? "the consensus" : d.count === 1 ? "the only other dataset" : `the consensus of the other ${d.count}`;
-  if (d.restsOn) against += ` (which rests ${Math.round(d.restsOn.share * 100)} % on ${lowerFirst(d.restsOn.name)} there)`;
+  if (d.restsOn) against += ` (${restsOnWords(d.restsOn)})`;
   if (unitSuspect) return `${name} is ${describeFactor(d.meanOffsetLog10)} ${against}, close to ${unitSuspect}: check its units.${out}`;
   if (!d.range || d.points.length === 0) {
     return `${name} (${describeT(v.own.Tmin)}–${describeT(v.own.Tmax)}) lies outside the temperatures of ${against} (${describeT(d.othersRange.Tmin)}–${describeT(d.othersRange.Tmax)}): not compared.${out}`;

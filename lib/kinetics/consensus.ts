@@ -35,8 +35,9 @@
  * never flagged, however precise.
  *
  * Largest consistent subset (Cox 2007, Metrologia 44:187): while a dataset is off the consensus of
- * the others and more than two remain, the one furthest off is set aside (at most 3; compared with, not used
- * for, the curve) and everything is refitted.
+ * the others and more than two remain, the dataset whose removal leaves the smallest excess Q − dof of
+ * the others' fixed-effect Arrhenius fit is set aside (near-ties: the one furthest off; at most 3;
+ * compared with, not used for, the curve) and everything is refitted.
  *
  * unit_suspect: the mean log10 ratio within 0.15 of a unit-mistake factor for the order m
  * (N_A^(m−1), 10^(3(m−1)), 10^(6(m−1)), (N_A/10³)^(m−1), (N_A/10⁶)^(m−1)); such a dataset is
@@ -198,8 +199,12 @@ export interface Disagreement {
   factorChangeP: number | null;
   /** Mean log10 ratio over the comparison temperatures (over its support temperatures when none). */
   meanOffsetLog10: number;
-  /** The other dataset with the largest share in the others' consensus at the comparison temperature with the largest |z|, when that share is over 2/3. */
-  restsOn: { id: string; share: number } | null;
+  /**
+   * The other dataset with the largest share in the others' consensus at the comparison temperature
+   * with the largest |z| (T), when that share is over 2/3; inRange says whether T lies inside that
+   * dataset's own range (outside it, the others' curve there is an extrapolation of that dataset).
+   */
+  restsOn: { id: string; share: number; T: number; Tmin: number; Tmax: number; inRange: boolean } | null;
   /**
    * It agrees only because the others disagree with each other: at some comparison temperature its
    * difference exceeds the bound against its own uncertainty, and τ²₋ⱼ exceeds its own and the other
@@ -317,6 +322,11 @@ interface Others {
   count: number;
   Tmin: number;
   Tmax: number;
+  /**
+   * Excess Q − dof of the others' fixed-effect Arrhenius fit: every subset has one, so removals are
+   * compared in one model with the same number of coefficients (null for a dataset not in the consensus).
+   */
+  restExcess: number | null;
 }
 
 /**
@@ -401,21 +411,13 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       leftOut[worst] = `a likely unit mistake (${unitSuspect[worst]})`;
       continue;
     }
-    // Largest consistent subset (Cox 2007, Metrologia 44:187): the dataset furthest off the
-    // consensus of the others leaves the curve, and the rest are fitted and judged again, until
-    // none is off or two remain.
+    // Largest consistent subset (Cox 2007, Metrologia 44:187): while some dataset is off the
+    // consensus of the others, the dataset whose removal leaves the most consistent rest (the
+    // smallest excess Q − dof of the others' generalised χ², Arrhenius fit) leaves the curve, near-ties going to
+    // the one furthest off; the rest are fitted and judged again, until none is off or two remain.
     if (included.length <= MIN_CONSISTENT_SUBSET || setAside.filter(Boolean).length >= MAX_SET_ASIDE) break;
-    let far = -1;
-    let farZ = 1;
-    for (const j of included) {
-      const d = comparisons[j];
-      if (!d?.off) continue;
-      const z = Math.max(...d.points.map((p) => Math.abs(p.z))) / d.bound;
-      if (z > farZ) {
-        farZ = z;
-        far = j;
-      }
-    }
+    if (!included.some((j) => comparisons[j]?.off)) break;
+    const far = leastConsistent(included, others, comparisons);
     if (far < 0) break;
     setAside[far] = true;
     leftOut[far] = SET_ASIDE_REASON;
@@ -500,7 +502,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     curveFrom: included.map((j) => datasets[j].id),
     range: covered,
     method:
-      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and one off it is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain; bands and f(T) at 95 % including τ².",
+      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and while one is off, the one whose removal leaves the others most consistent (smallest Q − dof) is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain; bands and f(T) at 95 % including τ².",
     arrhenius: { ...buildArrhenius(rows, fits.arr, covered, coverage), supportValues: values },
     modifiedArrhenius: fits.mod ? { ...buildModified(rows, fits.mod, covered, coverage, T0), supportValues: values } : null,
     preferred: fits.preferred.q === 3 ? "modified_arrhenius" : "arrhenius",
@@ -632,6 +634,36 @@ function fitAll(rows: Rows, supports: readonly (DatasetSupport | null)[], includ
   return { arr, mod, preferred: prefer(arr, mod) };
 }
 
+/** Excess Q within which two removals count as equally good and the z rule decides. */
+const SUBSET_Q_TIE = 1e-6;
+
+/**
+ * The dataset to set aside: the one whose removal leaves the smallest excess Q − dof of the
+ * others' fixed-effect Arrhenius fit (Cox 2007 chooses by the consistency of what remains); among near-ties,
+ * the one furthest off by its largest |z| over its Bonferroni bound.
+ */
+function leastConsistent(
+  included: readonly number[],
+  others: readonly (Others | null)[],
+  comparisons: readonly (Disagreement | null)[],
+): number {
+  const excess = (j: number) => others[j]?.restExcess ?? Infinity;
+  const far = (j: number) => {
+    const d = comparisons[j];
+    return d && d.points.length > 0 ? Math.max(...d.points.map((p) => Math.abs(p.z))) / d.bound : 0;
+  };
+  let best = -1;
+  for (const j of included) {
+    if (best < 0) {
+      best = j;
+      continue;
+    }
+    const dq = excess(j) - excess(best);
+    if (dq < -SUBSET_Q_TIE || (Math.abs(dq) <= SUBSET_Q_TIE && far(j) > far(best))) best = j;
+  }
+  return best;
+}
+
 /** The consensus of the others for every dataset (the full consensus for a dataset left out). */
 function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], included: number[], fits: Fits): (Others | null)[] {
   const J = supports.length;
@@ -643,7 +675,8 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
   const all = hull(included);
   const inConsensus = new Set(included);
   for (let j = 0; j < J; j++) {
-    if (supports[j] && !inConsensus.has(j)) out[j] = { fit: fits.preferred, blocks: included, skip: -1, count: included.length, ...all };
+    if (supports[j] && !inConsensus.has(j))
+      out[j] = { fit: fits.preferred, blocks: included, skip: -1, count: included.length, ...all, restExcess: null };
   }
   if (included.length < 2) return out;
   const exact = included.length <= EXACT_LEAVE_ONE_OUT_LIMIT;
@@ -691,6 +724,7 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
       count: m - 1,
       Tmin: Math.min(preMin[i], sufMin[i + 1]),
       Tmax: Math.max(preMax[i], sufMax[i + 1]),
+      restExcess: a.Q - a.df,
     };
   }
   return out;
@@ -888,7 +922,11 @@ function compare(
         best = k;
       }
     }
-    if (best >= 0 && bestShare > DOMINANT_SHARE) restsOn = { id: datasets[best].id, share: Math.min(1, bestShare) };
+    if (best >= 0 && bestShare > DOMINANT_SHARE) {
+      const { Tmin, Tmax } = supports[best]!;
+      const inRange = Tmin <= worst.T * (1 + 1e-12) && worst.T <= Tmax * (1 + 1e-12);
+      restsOn = { id: datasets[best].id, share: Math.min(1, bestShare), T: worst.T, Tmin, Tmax, inRange };
+    }
   }
   const off = points.some((p) => !p.agrees);
   // Beyond its own uncertainty there, and τ²₋ⱼ (which also widens the other side) outweighs both variances.
@@ -939,7 +977,7 @@ function verdictOf(
         ? {
             count: o.count,
             othersRange: { Tmin: o.Tmin, Tmax: o.Tmax },
-            restsOn: d.restsOn ? { name: label(datasets.findIndex((ds) => ds.id === d.restsOn!.id)), share: d.restsOn.share } : null,
+            restsOn: d.restsOn ? { ...d.restsOn, name: label(datasets.findIndex((ds) => ds.id === d.restsOn!.id)) } : null,
             range: d.range,
             points: d.points,
             off: d.off,

@@ -183,6 +183,14 @@ describe("consensus words: every verdict template under its condition", () => {
     );
   });
 
+  it("calls the others' curve an extrapolation of a dataset where it is read outside that dataset's range", () => {
+    const v = describeVerdict(input({}, { restsOn: { name: "Dataset d1", share: 0.74, T: 329, Tmin: 445, Tmax: 507, inRange: false } }));
+    expect(v).toMatch(
+      /^Dataset 7 agrees with the consensus of the other 3 \(which at 329 K is an extrapolation of dataset d1, measured at 445 K–507 K, with 74 % of its weight\) /,
+    );
+    expect(v).not.toContain("rests");
+  });
+
   it("names the dataset the others' consensus rests on", () => {
     expect(describeVerdict(input({}, { restsOn: { name: "Dataset 3", share: 0.81 } }))).toMatch(
       /^Dataset 7 agrees with the consensus of the other 3 \(which rests 81 % on dataset 3 there\) within/,
