@@ -5,6 +5,7 @@ import { useCallback, useDeferredValue, useEffect, useMemo, useRef, useState } f
 import { createDraftAction, saveDraftAction, type LatestDraft } from "@/app/deposits/actions";
 import type { VersionCapabilities } from "@/lib/curation/capabilities";
 import type { CoEditorRole } from "@/lib/curation/lifecycle";
+import { MAX_DOCUMENT_BYTES } from "@/lib/deposits/limits";
 import type { DepositDocument } from "@/lib/deposits/types";
 import type { FieldError } from "@/lib/errors";
 import { AboutSection } from "./about-section";
@@ -134,11 +135,22 @@ export function DepositEditor(props: DepositEditorProps) {
     inFlight.current = true;
     setSaveState({ kind: "saving", auto });
     const sent = formToDocument(current).document as unknown as Record<string, unknown>;
-    const json = JSON.stringify(sent);
+    // Sent as a Blob (a file part): React refuses text arguments over 1 000 000 characters.
+    const json = new Blob([JSON.stringify(sent)], { type: "application/json" });
     const lock = over?.lockVersion ?? lockVersion.current;
     let result: SaveResult;
     try {
-      result = versionId === null ? await createDraftAction(json) : await saveDraftAction(versionId, lock, json);
+      result =
+        json.size > MAX_DOCUMENT_BYTES
+          ? {
+              ok: false,
+              status: 413,
+              message: `The document is ${(json.size / 1024 / 1024).toFixed(1)} MB; the limit is 25 MB.`,
+              errors: [],
+            }
+          : versionId === null
+            ? await createDraftAction(json)
+            : await saveDraftAction(versionId, lock, json);
     } catch {
       result = {
         ok: false,

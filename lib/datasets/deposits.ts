@@ -4,6 +4,7 @@ import { assertVersionCapability, type VersionAction } from "@/lib/curation/capa
 import type { Transition } from "@/lib/curation/lifecycle";
 import { applyTransition, type TransitionOutcome } from "@/lib/curation/transitions";
 import { AppError } from "@/lib/errors";
+import { assertNotTooDeep } from "@/lib/json-depth";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
 import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
@@ -59,6 +60,8 @@ async function prepareDraftText(
       throw err;
     }
     if (doc === null || typeof doc !== "object" || Array.isArray(doc)) throw err;
+    // The checks below walk the tree recursively (the worker refused such a document already).
+    assertNotTooDeep(doc);
     const title = (doc as { title?: unknown }).title;
     if (typeof title !== "string" || title.trim() === "")
       throw new AppError("validation_failed", "Give the deposit a title to save it; everything else can be completed later.", [

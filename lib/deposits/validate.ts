@@ -8,6 +8,7 @@ import Ajv2020 from "ajv/dist/2020";
 import type { ErrorObject, ValidateFunction } from "ajv";
 import addFormats from "ajv-formats";
 import type { FieldError } from "@/lib/errors";
+import { tooDeepError } from "@/lib/json-depth";
 import { findUnstorableText } from "@/lib/storable-text";
 import { checkDepositSemantics } from "./check-semantics";
 import { utf8ByteLength } from "./byte-length";
@@ -19,12 +20,12 @@ import { depositSchema, splitPointer } from "./schema";
 import { tooManyPointsMessage, translateAjvErrors } from "./translate-errors";
 import type { DepositDocument } from "./types";
 import { DEFAULT_LICENCE, MAX_POINTS } from "./vocabulary";
+import { MAX_DOCUMENT_BYTES } from "./limits";
 
 /** Most errors returned for one document; a 100 000-row table with one mistake per row stays readable. */
 export const MAX_VALIDATION_ERRORS = 200;
 
-/** Largest JSON text accepted, bytes (the same limit as an uploaded file). */
-export const MAX_DOCUMENT_BYTES = 25 * 1024 * 1024;
+export { MAX_DOCUMENT_BYTES };
 
 export type ValidationResult = { ok: true; value: DepositDocument } | { ok: false; errors: FieldError[] };
 
@@ -197,6 +198,9 @@ export function parseDepositJson(
       ],
     };
   }
+  // Every later check walks the tree recursively: a value nested thousands deep is refused first.
+  const tooDeep = tooDeepError(value);
+  if (tooDeep) return { ok: false, errors: [tooDeep] };
   // JSON.parse keeps the last of two equal keys; a document must say each thing once.
   const duplicates = checkDuplicateKeys ? findDuplicateKeys(body, MAX_VALIDATION_ERRORS) : [];
   if (duplicates.length) {

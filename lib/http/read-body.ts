@@ -1,6 +1,7 @@
 // Every request body is read through here: streamed, counted, and refused (413) the moment it
 // crosses its route's limit, so a chunked upload without Content-Length cannot fill memory.
 import { AppError } from "@/lib/errors";
+import { assertNotTooDeep } from "@/lib/json-depth";
 
 /** Body limits per kind of request, bytes. */
 export const BODY_LIMITS = {
@@ -105,11 +106,15 @@ export async function readTextBodyOrThrow(req: Request, options: ReadBodyOptions
 
 /** Bytes already read, parsed as JSON; malformed JSON is a 422 naming the parser's complaint. */
 export function parseJsonBytesOrThrow(bytes: Uint8Array): unknown {
+  let value: unknown;
   try {
-    return JSON.parse(new TextDecoder().decode(bytes));
+    value = JSON.parse(new TextDecoder().decode(bytes));
   } catch (err) {
     throw new AppError("validation_failed", "The request body is not valid JSON", [{ pointer: "", message: (err as Error).message }]);
   }
+  // Validation (zod) recurses: a body nested thousands deep is refused before it.
+  assertNotTooDeep(value);
+  return value;
 }
 
 /** The body parsed as JSON, read with the cap. */

@@ -15,13 +15,36 @@ export const retryPolicy = {
   expireInSeconds: 300,
 };
 
+type PoolClient = { on(event: "error", listener: (err: Error) => void): void };
+type OwnDb = { open?: () => Promise<void>; pool?: { on(event: "connect", listener: (client: PoolClient) => void): void } };
+
+/**
+ * A pg-boss whose every database error is logged, never thrown as uncaught. pg-boss forwards its
+ * pool's 'error' events to its own; but a client the pool has lent out (or just ended) can emit
+ * 'error' once more when its server process goes away (`pg_ctl -m immediate`: "Connection
+ * terminated unexpectedly"), with nobody listening, which would end the process. Each client the
+ * pool opens therefore gets a listener of its own, for its whole life.
+ */
+export function newBoss(options: PgBoss.ConstructorOptions): PgBoss {
+  const boss = new PgBoss(options);
+  const log = (err: unknown) => console.error("[jobs] pg-boss error", err);
+  boss.on("error", log);
+  const db = boss.getDb() as OwnDb;
+  const open = db.open?.bind(db);
+  if (open)
+    db.open = async () => {
+      await open();
+      db.pool?.on("connect", (client) => client.on("error", log));
+    };
+  return boss;
+}
+
 const globalForBoss = globalThis as unknown as { arrheniaBoss?: Promise<PgBoss> };
 
 /** A started pg-boss for sending jobs from the web app (no maintenance, no schema changes). */
 export function getSender(): Promise<PgBoss> {
   globalForBoss.arrheniaBoss ??= (async () => {
-    const boss = new PgBoss({ connectionString: databaseUrl(), supervise: false, schedule: false, migrate: false, max: 3 });
-    boss.on("error", (err) => console.error("[jobs] pg-boss error", err));
+    const boss = newBoss({ connectionString: databaseUrl(), supervise: false, schedule: false, migrate: false, max: 3 });
     await boss.start();
     return boss;
   })();
@@ -30,7 +53,7 @@ export function getSender(): Promise<PgBoss> {
 
 /** Installs or upgrades pg-boss's own schema and creates our queues (run by the migrate script). */
 export async function installQueues(connectionString = databaseUrl()): Promise<void> {
-  const boss = new PgBoss({ connectionString, supervise: false, schedule: false, migrate: true, max: 2 });
+  const boss = newBoss({ connectionString, supervise: false, schedule: false, migrate: true, max: 2 });
   await boss.start();
   for (const name of queues) {
     if (!(await boss.getQueue(name))) await boss.createQueue(name, { name, ...retryPolicy });

@@ -1,4 +1,3 @@
-import PgBoss from "pg-boss";
 import { databaseUrl } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import type { IdentifierJob } from "@/lib/identifiers/queue";
@@ -6,6 +5,7 @@ import { refitVersion } from "@/lib/datasets/refit";
 import { registerIdentifier } from "@/lib/identifiers/register";
 import { deliverMail, isPermanentDeliveryFailure } from "@/lib/mail/transport";
 import type { MailMessage } from "@/lib/mail/templates";
+import { newBoss } from "./boss";
 import { endJobRetries } from "./queries";
 
 /**
@@ -13,8 +13,7 @@ import { endJobRetries } from "./queries";
  * to one worker). A handler that throws leaves the job to be retried with backoff.
  */
 export async function startWorkers(): Promise<{ stop: () => Promise<void> }> {
-  const boss = new PgBoss({ connectionString: databaseUrl(), migrate: false, max: 4 });
-  boss.on("error", (err) => console.error("[jobs] pg-boss error", err));
+  const boss = newBoss({ connectionString: databaseUrl(), migrate: false, max: 4 });
   await boss.start();
   await boss.work<MailMessage>("mail", { pollingIntervalSeconds: 1, batchSize: 5 }, async (jobs) => {
     // Each mail is settled on its own as soon as it is sent or refused: a failure never makes

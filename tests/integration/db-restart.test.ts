@@ -24,6 +24,8 @@ async function pgCtl(args: string[]) {
 
 interface Attempt {
   n: number;
+  /** What the request wrote: an audit row through the app's pool, or a job through pg-boss's. */
+  kind?: "audit" | "job";
   start: number;
   end: number;
   ok: boolean;
@@ -88,94 +90,102 @@ describe.skipIf(!dir || !pgBin)("a PostgreSQL restart under a write load", () =>
     await boss.stop({ graceful: false, wait: true }).catch(() => {});
   });
 
-  it("loses no acknowledged write and serves every request again within 10 s", { timeout: 90_000 }, async () => {
-    const db = getDb();
-    const boss = await getSender();
-    expect(await boss.send("refit", { versionId: -1 }, { retryLimit: 0 })).toBeTruthy();
+  // "fast" ends each session politely; "immediate" drops every connection mid-query, which once
+  // reached pg-boss's pg client as an uncaught "Connection terminated unexpectedly".
+  it.each(["fast", "immediate"] as const)(
+    "-m %s: loses no acknowledged write and serves every request again within 10 s",
+    { timeout: 90_000 },
+    async (mode) => {
+      const db = getDb();
+      const boss = await getSender();
+      expect(await boss.send("refit", { versionId: -1 }, { retryLimit: 0 })).toBeTruthy();
 
-    const attempts: Attempt[] = [];
-    let n = 0;
-    let stopAt = Number.POSITIVE_INFINITY;
-    // One request = one acknowledged insert through the app's pool, bounded by a client timeout
-    // so a request that hangs counts as failed instead of stalling the test.
-    async function writer() {
-      while (Date.now() < stopAt) {
-        const a: Attempt = { n: ++n, start: Date.now(), end: 0, ok: false };
-        let timer: ReturnType<typeof setTimeout> | undefined;
-        try {
-          await Promise.race([
-            recordAuditEvent(db, { actorId: null, action: tag, subjectType: "probe", subjectId: a.n }),
-            new Promise((_, reject) => {
-              timer = setTimeout(() => reject(Object.assign(new Error("no answer"), { code: "CLIENT_TIMEOUT" })), requestTimeoutMs);
-            }),
-          ]);
-          a.ok = true;
-        } catch (err) {
-          const e = err as { code?: string; cause?: { code?: string } };
-          a.error = e.code ?? e.cause?.code ?? String(err);
-        } finally {
-          clearTimeout(timer);
+      const attempts: Attempt[] = [];
+      let n = 0;
+      let stopAt = Number.POSITIVE_INFINITY;
+      // One request = one acknowledged insert through the app's pool, bounded by a client timeout
+      // so a request that hangs counts as failed instead of stalling the test.
+      async function writer() {
+        while (Date.now() < stopAt) {
+          const a: Attempt = { n: ++n, kind: n % 4 === 0 ? "job" : "audit", start: Date.now(), end: 0, ok: false };
+          let timer: ReturnType<typeof setTimeout> | undefined;
+          try {
+            await Promise.race([
+              a.kind === "job"
+                ? boss.send("refit", { versionId: -1 }, { retryLimit: 0 })
+                : recordAuditEvent(db, { actorId: null, action: tag, subjectType: "probe", subjectId: a.n }),
+              new Promise((_, reject) => {
+                timer = setTimeout(() => reject(Object.assign(new Error("no answer"), { code: "CLIENT_TIMEOUT" })), requestTimeoutMs);
+              }),
+            ]);
+            a.ok = true;
+          } catch (err) {
+            const e = err as { code?: string; cause?: { code?: string } };
+            a.error = e.code ?? e.cause?.code ?? String(err);
+          } finally {
+            clearTimeout(timer);
+          }
+          a.end = Date.now();
+          attempts.push(a);
+          await sleep(20);
         }
-        a.end = Date.now();
-        attempts.push(a);
-        await sleep(20);
       }
-    }
-    let restartStart = 0;
-    let restartDone = 0;
-    const uncaught = await uncaughtDuring(async () => {
-      const writers = Array.from({ length: 12 }, writer);
-      await sleep(1500);
-      restartStart = Date.now();
-      await pgCtl(["-D", `${dir}/data`, "-l", `${dir}/server.log`, "-m", "fast", "-w", "-t", "60", "restart"]);
-      restartDone = Date.now();
-      stopAt = restartDone + 6000;
-      await Promise.all(writers);
-    });
-    // A connection closed under a pending write fails its query; nothing escapes as uncaught.
-    expect(uncaught.map(String)).toEqual([]);
+      let restartStart = 0;
+      let restartDone = 0;
+      const uncaught = await uncaughtDuring(async () => {
+        const writers = Array.from({ length: 12 }, writer);
+        await sleep(1500);
+        restartStart = Date.now();
+        await pgCtl(["-D", `${dir}/data`, "-l", `${dir}/server.log`, "-m", mode, "-w", "-t", "60", "restart"]);
+        restartDone = Date.now();
+        stopAt = restartDone + 6000;
+        await Promise.all(writers);
+      });
+      // A connection closed under a pending write fails its query; nothing escapes as uncaught.
+      expect(uncaught.map(String)).toEqual([]);
 
-    const failures = attempts.filter((a) => !a.ok);
-    const afterRecovery = attempts.filter((a) => a.start >= restartDone + 1000);
-    const summary = {
-      restartMs: restartDone - restartStart,
-      requests: attempts.length,
-      failed: failures.length,
-      failureCodes: [...new Set(failures.map((a) => a.error))],
-      hung: failures.filter((a) => a.error === "CLIENT_TIMEOUT").map((a) => a.start - restartStart),
-      lastFailureAfterRestartMs: failures.length ? Math.max(...failures.map((a) => a.end)) - restartStart : 0,
-      slowestAfterRecoveryMs: Math.max(...afterRecovery.map((a) => a.end - a.start)),
-    };
-    console.info("[restart under load]", JSON.stringify(summary));
+      const failures = attempts.filter((a) => !a.ok);
+      const afterRecovery = attempts.filter((a) => a.start >= restartDone + 1000);
+      const summary = {
+        restartMs: restartDone - restartStart,
+        requests: attempts.length,
+        failed: failures.length,
+        failureCodes: [...new Set(failures.map((a) => a.error))],
+        hung: failures.filter((a) => a.error === "CLIENT_TIMEOUT").map((a) => a.start - restartStart),
+        lastFailureAfterRestartMs: failures.length ? Math.max(...failures.map((a) => a.end)) - restartStart : 0,
+        slowestAfterRecoveryMs: Math.max(...afterRecovery.map((a) => a.end - a.start)),
+      };
+      console.info(`[restart -m ${mode} under load]`, JSON.stringify(summary));
 
-    // No request is left hanging on a connection that waits to reconnect.
-    expect(summary.hung).toEqual([]);
-    // Every request from a second after the server is back succeeds, none waiting long.
-    expect(afterRecovery.length).toBeGreaterThan(50);
-    expect(afterRecovery.filter((a) => !a.ok)).toEqual([]);
-    expect(summary.slowestAfterRecoveryMs).toBeLessThan(2000);
-    // The outage as seen by requests ends within 10 s of the restart.
-    expect(summary.lastFailureAfterRestartMs).toBeLessThan(10_000);
+      // No request is left hanging on a connection that waits to reconnect.
+      expect(summary.hung).toEqual([]);
+      // Every request from a second after the server is back succeeds, none waiting long.
+      expect(afterRecovery.length).toBeGreaterThan(50);
+      expect(afterRecovery.filter((a) => !a.ok)).toEqual([]);
+      expect(summary.slowestAfterRecoveryMs).toBeLessThan(2000);
+      // The outage as seen by requests ends within 10 s of the restart.
+      expect(summary.lastFailureAfterRestartMs).toBeLessThan(10_000);
 
-    // No acknowledged write is lost: check through a connection opened after the restart.
-    const check = postgres(databaseUrl(), { max: 1, onnotice: () => {} });
-    try {
-      const rows = await check<{ subject_id: string }[]>`select subject_id from audit_events where action = ${tag}`;
-      const stored = new Set(rows.map((r) => Number(r.subject_id)));
-      const acknowledged = attempts.filter((a) => a.ok).map((a) => a.n);
-      expect(acknowledged.filter((k) => !stored.has(k))).toEqual([]);
-      expect(acknowledged.length).toBeGreaterThan(100);
-    } finally {
-      await check.end({ timeout: 5 });
-    }
+      // No acknowledged write is lost: check through a connection opened after the restart.
+      const check = postgres(databaseUrl(), { max: 1, onnotice: () => {} });
+      try {
+        const rows = await check<{ subject_id: string }[]>`select subject_id from audit_events where action = ${tag}`;
+        const stored = new Set(rows.map((r) => Number(r.subject_id)));
+        const acknowledged = attempts.filter((a) => a.ok && a.kind === "audit").map((a) => a.n);
+        expect(acknowledged.filter((k) => !stored.has(k))).toEqual([]);
+        expect(acknowledged.length).toBeGreaterThan(100);
+      } finally {
+        await check.end({ timeout: 5 });
+      }
 
-    // The pool also answers the health check again, with its round-trip time.
-    const health = await checkDatabase();
-    expect(health.ok).toBe(true);
-    expect(health.latencyMs).toBeLessThan(2000);
-    // pg-boss keeps its own pool (lib/jobs/boss.ts): it must send again too.
-    expect(await boss.send("refit", { versionId: -1 }, { retryLimit: 0 })).toBeTruthy();
-  });
+      // The pool also answers the health check again, with its round-trip time.
+      const health = await checkDatabase();
+      expect(health.ok).toBe(true);
+      expect(health.latencyMs).toBeLessThan(2000);
+      // pg-boss keeps its own pool (lib/jobs/boss.ts): it must send again too.
+      expect(await boss.send("refit", { versionId: -1 }, { retryLimit: 0 })).toBeTruthy();
+    },
+  );
 
   it("connections left idle across a restart never stall a later request", { timeout: 90_000 }, async () => {
     const db = getDb();

@@ -11,10 +11,12 @@ vi.mock("@/lib/auth/rate-limit", async (importOriginal) => ({
   consumeOrThrow: vi.fn(async () => undefined),
 }));
 
+import { createDraftAction, saveDraftAction } from "@/app/deposits/actions";
 import { POST as postAnalysis } from "@/app/api/v1/analyses/route";
 import { POST as createDataset } from "@/app/api/v1/datasets/route";
 import { getCurrentUser } from "@/lib/auth/session";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
+import { MAX_JSON_DEPTH } from "@/lib/json-depth";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { sql, uniqueEmail } from "./helpers";
 
@@ -280,5 +282,53 @@ describe("fuzz: POST /api/v1/analyses", () => {
       { numRuns: runs, seed: SEED, endOnFailure: true },
     );
     expect(ok).toBeGreaterThan(0);
+  });
+});
+
+describe("deeply nested documents are refused with the pointer of the first place too deep", () => {
+  // Each check of a document (schema, unstorable text) walks it recursively: thousands of levels
+  // once overflowed the stack (500) in the incomplete-draft save.
+  const arrays = (levels: number) => `${"[".repeat(levels)}${"]".repeat(levels)}`;
+  const objects = (levels: number) => `${'{"a":'.repeat(levels)}1${"}".repeat(levels)}`;
+  const nested = [
+    { name: "6000 levels of arrays", text: arrays(6000), pointer: `/description${"/0".repeat(MAX_JSON_DEPTH - 1)}` },
+    { name: "5000 levels of objects", text: objects(5000), pointer: `/description${"/a".repeat(MAX_JSON_DEPTH - 1)}` },
+  ];
+  const draft = (inner: string) => `{"title":"nest","description":${inner}}`;
+
+  for (const { name, text, pointer } of nested) {
+    it(`${name}: editor actions (text and Blob), the deposit API and the analysis API answer 422 at ${pointer.slice(0, 20)}…`, async () => {
+      const before = await counts();
+      for (const out of [await createDraftAction(draft(text)), await createDraftAction(new Blob([draft(text)]))]) {
+        expect(out).toMatchObject({ ok: false, status: 422 });
+        if (!out.ok) expect(out.errors[0].pointer).toBe(pointer);
+      }
+      const created = await createDraftAction(draft('"a draft to save over"'));
+      if (!created.ok) throw new Error(created.message);
+      const saved = await saveDraftAction(created.versionId, created.lockVersion, new Blob([draft(text)]));
+      expect(saved).toMatchObject({ ok: false, status: 422 });
+      if (!saved.ok) expect(saved.errors[0].pointer).toBe(pointer);
+
+      const api = await createDataset(new Request("http://127.0.0.1/api/v1/datasets", { method: "POST", body: draft(text) }), {
+        params: Promise.resolve({}),
+      });
+      expect(api.status).toBe(422);
+      expect((await api.json()).errors[0].pointer).toBe(pointer);
+
+      const analysis = await postAnalysis(
+        new Request("http://127.0.0.1/api/v1/analyses", { method: "POST", body: `{"order":2,"points":${text}}` }),
+        { params: Promise.resolve({}) },
+      );
+      expect(analysis.status).toBe(422);
+      expect((await analysis.json()).errors[0].pointer).toMatch(/^\/points(\/(0|a))+$/);
+      // Only the one draft saved over is new; nothing of the refused documents is stored.
+      const after = await counts();
+      expect(after).toEqual({ ...before, datasets: before.datasets + 1, versions: before.versions + 1 });
+    });
+  }
+
+  it(`a draft nested ${MAX_JSON_DEPTH} levels deep is still kept as incomplete`, async () => {
+    const out = await createDraftAction(draft(arrays(MAX_JSON_DEPTH - 1)));
+    expect(out).toMatchObject({ ok: true, state: "draft" });
   });
 });

@@ -109,7 +109,7 @@ export class DepositEditorPage {
   }
 
   /** Uploads a table and waits for the column mapping to appear. */
-  async uploadTable(path: string) {
+  async uploadTable(path: string | { name: string; mimeType: string; buffer: Buffer }) {
     await this.page.getByLabel("Upload a file").setInputFiles(path);
     await expect(this.mapping).toBeVisible();
   }
