@@ -16,6 +16,8 @@ export default defineConfig({
           name: "unit",
           include: ["tests/unit/**/*.test.ts", "lib/**/*.test.ts"],
           environment: "node",
+          // Room for a shared, loaded machine: a timeout is a hang detector here, not a speed target.
+          testTimeout: 20_000,
         },
       },
       {
