@@ -12,7 +12,7 @@ import { ConditionsSection } from "./conditions-section";
 import { CreditSection } from "./credit-section";
 import { DataSection } from "./data-section";
 import { EditorContextProvider, type EditorContextValue } from "./editor-context";
-import { conflictFields, mergeDocuments, type ConflictField, type Side } from "./conflict";
+import { conflictFields, mergeDocuments, type Side } from "./conflict";
 import { ConflictPanel } from "./conflict-panel";
 import { blankForm, documentToForm, formToDocument, type EditorForm, type PersonDefaults } from "./form-model";
 import { LifecyclePanel, type DecisionView, type MemberView, type VersionView } from "./lifecycle-panel";
@@ -28,7 +28,7 @@ import { AUTOSAVE_DELAY_MS, NEEDS_TITLE, saveStateWords, stateAfterFailure, type
 import { SourceSection } from "./source-section";
 import { useLeaveGuard } from "./use-leave-guard";
 import { validityRangeWarning } from "./validity-range";
-import { REACTION_CHECK_CODES, type StoredCheck } from "./words";
+import { blockingChecks, checkPointer, REACTION_CHECK_CODES, type StoredCheck } from "./words";
 
 export type DepositEditorProps =
   | { mode: "new"; person: PersonDefaults }
@@ -79,7 +79,8 @@ export function DepositEditor(props: DepositEditorProps) {
   const [attemptedRevision, setAttemptedRevision] = useState(0);
   const [serverErrors, setServerErrors] = useState<FieldError[]>(existing?.problems ?? []);
   const [saveState, setSaveState] = useState<SaveState>({ kind: "idle" });
-  const [conflict, setConflict] = useState<{ latest: LatestDraft; fields: ConflictField[]; mine: Record<string, unknown> } | null>(null);
+  // A co-editor's newer draft and the document both started from (the person's last successful save).
+  const [conflict, setConflict] = useState<{ latest: LatestDraft; base: Record<string, unknown> } | null>(null);
   const [windowStart, setWindowStart] = useState(0);
   const lockVersion = useRef(existing?.lockVersion ?? 0);
   // The document as last loaded or saved: a merge proposes theirs where mine is still this.
@@ -104,7 +105,13 @@ export function DepositEditor(props: DepositEditorProps) {
   // Numbers the form cannot read are flagged as they are typed; deferred so long tables stay responsive.
   const deferredForm = useDeferredValue(form);
   const localProblems = useMemo(() => formToDocument(deferredForm).problems, [deferredForm]);
-  const allErrors = useMemo(() => [...localProblems, ...serverErrors], [localProblems, serverErrors]);
+  // Checks of the last save that stop a submission (e.g. an unbalanced reaction) are listed beside their field too.
+  const storedChecks = existing?.checks;
+  const checkErrors = useMemo(
+    () => blockingChecks(storedChecks ?? []).map((c) => ({ pointer: checkPointer(c.code), message: c.message })),
+    [storedChecks],
+  );
+  const allErrors = useMemo(() => [...localProblems, ...serverErrors, ...checkErrors], [localProblems, serverErrors, checkErrors]);
   const grouped = useMemo(() => groupErrors(allErrors, form), [allErrors, form]);
   const readiness = useMemo(() => readinessItems(allErrors, deferredForm), [allErrors, deferredForm]);
   const rangeWarning = useMemo(() => validityRangeWarning(deferredForm), [deferredForm]);
@@ -174,9 +181,7 @@ export function DepositEditor(props: DepositEditorProps) {
       return;
     }
     if (result.status === 409 && result.latest) {
-      const mine = sent;
-      const theirs = result.latest.document;
-      setConflict({ latest: result.latest, fields: conflictFields(baseDocument.current, mine, theirs), mine });
+      setConflict({ latest: result.latest, base: baseDocument.current });
       setSaveState({ kind: "conflict" });
       return;
     }
@@ -185,9 +190,16 @@ export function DepositEditor(props: DepositEditorProps) {
     if (result.status === 422 && !auto) readinessRef.current?.focus();
   }
 
+  // "Mine" is the form as it is now: typing while the panel is open updates the comparison.
+  const conflictView = useMemo(() => {
+    if (!conflict) return null;
+    const mine = formToDocument(form).document as unknown as Record<string, unknown>;
+    return { mine, fields: conflictFields(conflict.base, mine, conflict.latest.document) };
+  }, [conflict, form]);
+
   function merge(choices: Record<string, Side>) {
-    if (!conflict) return;
-    const merged = mergeDocuments(conflict.mine, conflict.latest.document, conflict.fields, choices);
+    if (!conflict || !conflictView) return;
+    const merged = mergeDocuments(conflictView.mine, conflict.latest.document, conflictView.fields, choices);
     const mergedForm = documentToForm(merged);
     baseDocument.current = conflict.latest.document;
     lockVersion.current = conflict.latest.lockVersion;
@@ -276,13 +288,13 @@ export function DepositEditor(props: DepositEditorProps) {
           </div>
         )}
 
-        {conflict && (
+        {conflict && conflictView && (
           <ConflictPanel
             key={conflict.latest.lockVersion}
-            fields={conflict.fields}
+            fields={conflictView.fields}
             saving={saving}
             onMerge={merge}
-            onDownloadMine={() => downloadJson(conflict.mine, `deposit-${versionId ?? "new"}-my-edits.json`)}
+            onDownloadMine={() => downloadJson(conflictView.mine, `deposit-${versionId ?? "new"}-my-edits.json`)}
           />
         )}
 
