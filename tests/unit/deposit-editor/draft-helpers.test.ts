@@ -154,7 +154,19 @@ describe("validityRangeWarning", () => {
   it("says a range below the data in kelvin would cover it in °C (0 °C = 273.15 K, CODATA/SI definition)", () => {
     const warning = validityRangeWarning(withRange("25", "150", "K"));
     expect(warning).toMatch(/lies wholly below the measured temperatures/);
-    expect(warning).toMatch(/Read in °C they would cover the data/);
+    expect(warning).toMatch(/Read in °C the same numbers would match the data much better/);
+    // One end only: written as a reader writes it, no trailing zeros.
+    expect(validityRangeWarning(withRange("", "127", "K"))).toMatch(/\(up to 127 K\)/);
+  });
+
+  // The example's data run 250–420 K. The rule: an end beyond T/1.5 or 1.5·T of the data, or less
+  // than half of the range within the data (our own thresholds, REACH_FACTOR and MIN_COVERED).
+  it("flags a range reaching well beyond the data, and is silent for one a little wider", () => {
+    const celsius = validityRangeWarning(withRange("20", "300", "degC")); // 293.15–573.15 K: 45 % within the data
+    expect(celsius).toMatch(/reaches well beyond the measured temperatures \(250–420 K\)/);
+    expect(celsius).not.toMatch(/Read in/);
+    expect(validityRangeWarning(withRange("250", "1000", "K"))).toMatch(/reaches well beyond/); // 1000 > 1.5 × 420
+    expect(validityRangeWarning(withRange("200", "500", "K"))).toBeNull();
   });
 
   it("flags a range above the data, and waits until there are rows", () => {
