@@ -1,4 +1,4 @@
-import { expect, test, type Dialog, type Page } from "@playwright/test";
+import { expect, test, type BrowserContext, type Dialog, type Page } from "@playwright/test";
 import { DEMO_RESEARCHER, DepositEditorPage, signInAs } from "./pages/deposit-pages";
 
 // Drafts: saved as they are typed once they have a title, incomplete or not; a warning before
@@ -105,18 +105,24 @@ test("leaving with unsaved changes asks first: a header link, the back button an
   });
 });
 
+/** The same researcher signed in twice (two browser contexts), on one new draft; B opens it. */
+async function oneDraftTwice(a: BrowserContext, b: BrowserContext, title: string) {
+  const pageA = await a.newPage();
+  const pageB = await b.newPage();
+  await signInAs(pageA, DEMO_RESEARCHER);
+  await signInAs(pageB, DEMO_RESEARCHER);
+  const id = await newTitledDraft(pageA, `${title} ${Date.now()}`);
+  const editorA = new DepositEditorPage(pageA);
+  const editorB = new DepositEditorPage(pageB);
+  await editorB.open(id);
+  return { pageA, pageB, editorA, editorB };
+}
+
 test("a co-editor's save is merged field by field, never thrown away", async ({ browser }) => {
   const a = await browser.newContext();
   const b = await browser.newContext();
   try {
-    const pageA = await a.newPage();
-    const pageB = await b.newPage();
-    await signInAs(pageA, DEMO_RESEARCHER);
-    await signInAs(pageB, DEMO_RESEARCHER);
-    const id = await newTitledDraft(pageA, `Two editors ${Date.now()}`);
-    const editorA = new DepositEditorPage(pageA);
-    const editorB = new DepositEditorPage(pageB);
-    await editorB.open(id);
+    const { pageA, pageB, editorA, editorB } = await oneDraftTwice(a, b, "Two editors");
 
     await editorA.description.fill("Summary written in the first window.");
     await editorA.expectSaved();
@@ -152,14 +158,7 @@ test("edits typed while the merge panel is open are kept by the merge", async ({
   const a = await browser.newContext();
   const b = await browser.newContext();
   try {
-    const pageA = await a.newPage();
-    const pageB = await b.newPage();
-    await signInAs(pageA, DEMO_RESEARCHER);
-    await signInAs(pageB, DEMO_RESEARCHER);
-    const id = await newTitledDraft(pageA, `Typed during a merge ${Date.now()}`);
-    const editorA = new DepositEditorPage(pageA);
-    const editorB = new DepositEditorPage(pageB);
-    await editorB.open(id);
+    const { pageA, pageB, editorA, editorB } = await oneDraftTwice(a, b, "Typed during a merge");
 
     await pageA.getByLabel("Keywords").fill("hydroxyl radical, methane");
     await editorA.expectSaved();
