@@ -1,5 +1,16 @@
 import type { SubmissionDiff } from "@/lib/curation/submission-diff";
+import { describeWhere } from "./deposit-editor/readiness";
 import { ScrollRegion } from "./scroll-region";
+
+/** A readable diff path ("creators › 2 › name", positions from 1) in the editor's words ("People, grants and links, person 2, name"). */
+export function fieldLabel(path: string): string {
+  if (path === "") return describeWhere("");
+  const pointer = path
+    .split(" › ")
+    .map((s) => (/^\d+$/.test(s) ? String(Number(s) - 1) : s.replace(/~/g, "~0").replace(/\//g, "~1")))
+    .join("/");
+  return describeWhere(`/${pointer}`);
+}
 
 /** At most this many field and point rows are listed; the count of the rest is said. */
 const LIMIT = 300;
@@ -52,8 +63,8 @@ export function SubmissionChanges({ diff, label }: { diff: SubmissionDiff; label
               <tbody>
                 {fields.map((c, i) => (
                   <tr key={i}>
-                    <th scope="row" className="font-mono text-xs font-normal">
-                      {c.path}
+                    <th scope="row" className="font-normal">
+                      {fieldLabel(c.path)}
                     </th>
                     <td className={KIND_CLASS[c.kind]}>{KIND_WORDS[c.kind]}</td>
                     <td className="max-w-md">

@@ -28,7 +28,8 @@ export NEXT_DIST_DIR=.next-test # never the build that npm start serves
 TSX=(node_modules/.bin/tsx --conditions=react-server)
 
 # TEST_TIERS="unit e2e" runs a subset while developing; CI always runs every tier.
-# TEST_FILES="consensus deposits-api" passes file filters to vitest (unit and integration tiers).
+# TEST_FILES="consensus deposits-api" passes file filters to vitest (unit and integration tiers) and to
+# Playwright (e2e tier: TEST_TIERS=e2e TEST_FILES=deposit-drafts).
 read -r -a FILTERS <<< "${TEST_FILES:-}"
 TIERS=" ${TEST_TIERS:-lint typecheck unit integration e2e} "
 want() { [[ "$TIERS" == *" $1 "* ]]; }
@@ -66,7 +67,7 @@ if node_modules/.bin/next build > "$REPORTS/build.log" 2>&1; then
   log "end-to-end tests (Chromium)"
   # Ports of its own, so two test runs (or a running npm start) on one machine never collide.
   export E2E_PORT="${E2E_PORT:-$((33000 + RANDOM % 2000))}" E2E_MAIL_PORT="${E2E_MAIL_PORT:-$((35000 + RANDOM % 2000))}" E2E_DOI_PORT="${E2E_DOI_PORT:-$((37000 + RANDOM % 2000))}" E2E_INNER_PORT="${E2E_INNER_PORT:-$((39000 + RANDOM % 2000))}"
-  PLAYWRIGHT_JSON_OUTPUT_NAME="$REPORTS/e2e.json" node_modules/.bin/playwright test --reporter=list,json >&2
+  PLAYWRIGHT_JSON_OUTPUT_NAME="$REPORTS/e2e.json" node_modules/.bin/playwright test --reporter=list,json "${FILTERS[@]}" >&2
   read -r p f < <(node -e 'try{const s=require(process.argv[1]).stats;console.log(s.expected+s.flaky,s.unexpected+(s.expected+s.unexpected+s.flaky===0?1:0))}catch{console.log("0 1")}' "$REPORTS/e2e.json")
   tier e2e "$p" "$f"
 else

@@ -61,7 +61,8 @@ const columns = [
   col.display({
     id: "range",
     header: "T range (K)",
-    cell: (c) => formatRange(c.row.original.tMin, c.row.original.tMax, ""),
+    // One line: "260–380" never breaks at its dash.
+    cell: (c) => <span className="whitespace-nowrap">{formatRange(c.row.original.tMin, c.row.original.tMax, "")}</span>,
   }),
   col.accessor("submittedAt", {
     header: "Waiting since submission",

@@ -18,6 +18,11 @@ export interface ConflictField {
   theirs: unknown;
   /** What the merge takes unless the person chooses otherwise: theirs where only they changed it, else mine. */
   proposed: Side;
+  /**
+   * Who changed it since the person's last successful save: "me" (the co-editor left it as it was,
+   * so mine is always kept, whatever is chosen), "them", or "both" (the person chooses).
+   */
+  changedBy: "me" | "them" | "both";
 }
 
 const isObject = (v: unknown): v is Record<string, unknown> => v !== null && typeof v === "object" && !Array.isArray(v);
@@ -73,12 +78,15 @@ export function conflictFields(base: Doc, mine: Doc, theirs: Doc): ConflictField
     .map((pointer) => {
       const m = valueAt(mine, pointer);
       const t = valueAt(theirs, pointer);
+      const b = valueAt(base, pointer);
+      const changedBy = sameValue(m, b) ? "them" : sameValue(t, b) ? "me" : "both";
       return {
         pointer,
         where: describeWhere(pointer),
         mine: m,
         theirs: t,
-        proposed: sameValue(m, valueAt(base, pointer)) ? "theirs" : "mine",
+        proposed: changedBy === "them" ? "theirs" : "mine",
+        changedBy,
       } as ConflictField;
     })
     .filter((f) => !sameValue(f.mine, f.theirs))
@@ -89,15 +97,20 @@ export function conflictFields(base: Doc, mine: Doc, theirs: Doc): ConflictField
     });
 }
 
+/** The side a field is merged from: mine wherever only I changed it, else the choice or the proposal. */
+export function sideOf(f: ConflictField, choices: Record<string, Side>): Side {
+  return f.changedBy === "me" ? "mine" : (choices[f.pointer] ?? f.proposed);
+}
+
 /**
- * Their document with my value wherever I chose mine. A list item I chose to have removed (mine is
+ * Their document with my value wherever I chose mine (and wherever only I changed it). A list item I chose to have removed (mine is
  * missing) is dropped; one I added is appended in its place.
  */
 export function mergeDocuments(mine: Doc, theirs: Doc, fields: ConflictField[], choices: Record<string, Side>): Doc {
   const merged = structuredClone(theirs);
   const removed = new Map<unknown[], Set<number>>();
   for (const f of fields) {
-    if ((choices[f.pointer] ?? f.proposed) !== "mine") continue;
+    if (sideOf(f, choices) !== "mine") continue;
     const [, rawTop, rawKey] = f.pointer.split("/");
     const top = rawTop.replace(/~1/g, "/").replace(/~0/g, "~");
     if (rawKey === undefined) {

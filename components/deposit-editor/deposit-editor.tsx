@@ -13,7 +13,7 @@ import { ConditionsSection } from "./conditions-section";
 import { CreditSection } from "./credit-section";
 import { DataSection } from "./data-section";
 import { EditorContextProvider, type EditorContextValue } from "./editor-context";
-import { conflictFields, mergeDocuments, type ConflictField, type Side } from "./conflict";
+import { conflictFields, mergeDocuments, type Side } from "./conflict";
 import { ConflictPanel } from "./conflict-panel";
 import { blankForm, documentToForm, formToDocument, type EditorForm, type PersonDefaults } from "./form-model";
 import { LifecyclePanel, type DecisionView, type MemberView, type VersionView } from "./lifecycle-panel";
@@ -29,7 +29,7 @@ import { AUTOSAVE_DELAY_MS, NEEDS_TITLE, saveStateWords, stateAfterFailure, type
 import { SourceSection } from "./source-section";
 import { useLeaveGuard } from "./use-leave-guard";
 import { validityRangeWarning } from "./validity-range";
-import { REACTION_CHECK_CODES, type StoredCheck } from "./words";
+import { blockingChecks, checkPointer, REACTION_CHECK_CODES, type StoredCheck } from "./words";
 
 export type DepositEditorProps =
   | { mode: "new"; person: PersonDefaults }
@@ -80,7 +80,8 @@ export function DepositEditor(props: DepositEditorProps) {
   const [attemptedRevision, setAttemptedRevision] = useState(0);
   const [serverErrors, setServerErrors] = useState<FieldError[]>(existing?.problems ?? []);
   const [saveState, setSaveState] = useState<SaveState>({ kind: "idle" });
-  const [conflict, setConflict] = useState<{ latest: LatestDraft; fields: ConflictField[]; mine: Record<string, unknown> } | null>(null);
+  // A co-editor's newer draft and the document both started from (the person's last successful save).
+  const [conflict, setConflict] = useState<{ latest: LatestDraft; base: Record<string, unknown> } | null>(null);
   const [windowStart, setWindowStart] = useState(0);
   const lockVersion = useRef(existing?.lockVersion ?? 0);
   // The document as last loaded or saved: a merge proposes theirs where mine is still this.
@@ -88,6 +89,7 @@ export function DepositEditor(props: DepositEditorProps) {
     existing ? (formToDocument(form).document as unknown as Record<string, unknown>) : {},
   );
   const inFlight = useRef(false);
+  const savedByHandMeanwhile = useRef(false);
   const readinessRef = useRef<HTMLDivElement>(null);
   const dirty = revision !== savedRevision;
   const latestRevision = useRef(revision);
@@ -105,7 +107,13 @@ export function DepositEditor(props: DepositEditorProps) {
   // Numbers the form cannot read are flagged as they are typed; deferred so long tables stay responsive.
   const deferredForm = useDeferredValue(form);
   const localProblems = useMemo(() => formToDocument(deferredForm).problems, [deferredForm]);
-  const allErrors = useMemo(() => [...localProblems, ...serverErrors], [localProblems, serverErrors]);
+  // Checks of the last save that stop a submission (e.g. an unbalanced reaction) are listed beside their field too.
+  const storedChecks = existing?.checks;
+  const checkErrors = useMemo(
+    () => blockingChecks(storedChecks ?? []).map((c) => ({ pointer: checkPointer(c.code), message: c.message })),
+    [storedChecks],
+  );
+  const allErrors = useMemo(() => [...localProblems, ...serverErrors, ...checkErrors], [localProblems, serverErrors, checkErrors]);
   const grouped = useMemo(() => groupErrors(allErrors, form), [allErrors, form]);
   const readiness = useMemo(() => readinessItems(allErrors, deferredForm), [allErrors, deferredForm]);
   const rangeWarning = useMemo(() => validityRangeWarning(deferredForm), [deferredForm]);
@@ -123,7 +131,13 @@ export function DepositEditor(props: DepositEditorProps) {
   };
 
   async function save(auto: boolean, over?: { form: EditorForm; lockVersion: number; revision: number }) {
-    if (inFlight.current || !editable || (conflict && !over)) return;
+    if (inFlight.current) {
+      // "Save draft" pressed while an autosave (e.g. the one leaving a field starts) is on its way:
+      // that save carries the same edits, and its answer is treated as saved by hand.
+      if (!auto) savedByHandMeanwhile.current = true;
+      return;
+    }
+    if (!editable || (conflict && !over)) return;
     const current = over?.form ?? form;
     const rev = over?.revision ?? revision;
     setAttemptedRevision(rev);
@@ -161,6 +175,8 @@ export function DepositEditor(props: DepositEditorProps) {
     } finally {
       inFlight.current = false;
     }
+    const byHand = !auto || savedByHandMeanwhile.current;
+    savedByHandMeanwhile.current = false;
     if (result.ok) {
       lockVersion.current = result.lockVersion;
       baseDocument.current = sent;
@@ -170,7 +186,7 @@ export function DepositEditor(props: DepositEditorProps) {
       setSaveState({ kind: "saved", at: new Date() });
       if (props.mode === "new") {
         setVersionId(result.versionId);
-        if (!auto && latestRevision.current === rev) {
+        if (byHand && latestRevision.current === rev) {
           // Saved by hand with nothing typed since: move to the stored draft's own page (its
           // lifecycle, checks and files). That page is another route, so this editor is replaced.
           guard.allow();
@@ -186,20 +202,25 @@ export function DepositEditor(props: DepositEditorProps) {
       return;
     }
     if (result.status === 409 && result.latest) {
-      const mine = sent;
-      const theirs = result.latest.document;
-      setConflict({ latest: result.latest, fields: conflictFields(baseDocument.current, mine, theirs), mine });
+      setConflict({ latest: result.latest, base: baseDocument.current });
       setSaveState({ kind: "conflict" });
       return;
     }
     if (result.status === 422) setServerErrors(result.errors);
-    setSaveState(stateAfterFailure(result, auto));
-    if (result.status === 422 && !auto) readinessRef.current?.focus();
+    setSaveState(stateAfterFailure(result, !byHand));
+    if (result.status === 422 && byHand) readinessRef.current?.focus();
   }
 
+  // "Mine" is the form as it is now: typing while the panel is open updates the comparison.
+  const conflictView = useMemo(() => {
+    if (!conflict) return null;
+    const mine = formToDocument(form).document as unknown as Record<string, unknown>;
+    return { mine, fields: conflictFields(conflict.base, mine, conflict.latest.document) };
+  }, [conflict, form]);
+
   function merge(choices: Record<string, Side>) {
-    if (!conflict) return;
-    const merged = mergeDocuments(conflict.mine, conflict.latest.document, conflict.fields, choices);
+    if (!conflict || !conflictView) return;
+    const merged = mergeDocuments(conflictView.mine, conflict.latest.document, conflictView.fields, choices);
     const mergedForm = documentToForm(merged);
     baseDocument.current = conflict.latest.document;
     lockVersion.current = conflict.latest.lockVersion;
@@ -288,13 +309,13 @@ export function DepositEditor(props: DepositEditorProps) {
           </div>
         )}
 
-        {conflict && (
+        {conflict && conflictView && (
           <ConflictPanel
             key={conflict.latest.lockVersion}
-            fields={conflict.fields}
+            fields={conflictView.fields}
             saving={saving}
             onMerge={merge}
-            onDownloadMine={() => downloadJson(conflict.mine, `deposit-${versionId ?? "new"}-my-edits.json`)}
+            onDownloadMine={() => downloadJson(conflictView.mine, `deposit-${versionId ?? "new"}-my-edits.json`)}
           />
         )}
 

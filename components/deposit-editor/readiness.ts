@@ -27,6 +27,7 @@ const ITEM_WORDS: Record<string, string> = {
   funding: "grant",
   relatedIdentifiers: "linked record",
   author: "author",
+  keywords: "keyword",
 };
 
 /** Plain names of fields whose property names are not words. */
@@ -54,6 +55,8 @@ const FIELD_WORDS: Record<string, string> = {
   orcid: "ORCID",
   k: "k",
   T: "T",
+  // The data section's table itself: its section title says enough.
+  points: "",
 };
 
 const unescape = (segment: string) => segment.replace(/~1/g, "/").replace(/~0/g, "~");
@@ -74,7 +77,27 @@ export function describeWhere(pointer: string): string {
       words.push(FIELD_WORDS[s] ?? s);
     }
   }
-  return [title, ...words].join(", ");
+  return [title, ...words].filter(Boolean).join(", ");
+}
+
+const NUMBER_WORDS = ["no", "one", "two", "three", "four", "five", "six", "seven", "eight", "nine", "ten"];
+const countWord = (n: number) => NUMBER_WORDS[n] ?? String(n);
+
+/**
+ * The schema's length rules in plain words for the list (the list already says where):
+ * "Technique must be at least 2 characters long (got "")" → "Write at least two characters.",
+ * "Points must have at least 2 entries (it has 0)" → "Add at least two rows." Other messages are kept.
+ */
+export function plainMessage(pointer: string, message: string): string {
+  let m = /must be at least (\d+) characters long \(got .*\)\.?$/.exec(message);
+  if (m) return `Write at least ${countWord(Number(m[1]))} characters.`;
+  m = /must have at least (\d+) (?:entry|entries) \(it has \d+\)\.?$/.exec(message);
+  if (m) {
+    const n = Number(m[1]);
+    const item = ITEM_WORDS[unescape(pointer.split("/").pop() ?? "")] ?? "entry";
+    return `Add at least ${countWord(n)} ${n === 1 ? item : item === "entry" ? "entries" : `${item}s`}.`;
+  }
+  return message;
 }
 
 const sectionRank = (pointer: string) => {
@@ -95,7 +118,7 @@ export function readinessItems(errors: FieldError[], form: EditorForm): Readines
     items.push({
       pointer: e.pointer,
       where: describeWhere(e.pointer),
-      message: e.message,
+      message: plainMessage(e.pointer, e.message),
       targetId: field !== null ? fieldId(field) : section ? sectionAnchor(section) : null,
       row: field !== null ? pointRowOf(field) : null,
     });

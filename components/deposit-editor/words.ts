@@ -53,5 +53,13 @@ export function blockingChecks(checks: StoredCheck[]): StoredCheck[] {
   return checks.filter((c) => c.severity === "error");
 }
 
+/**
+ * The field a stored check is about, for the "Not ready to submit" list: the reaction's species
+ * for identity and balance, else the document as a whole.
+ */
+export function checkPointer(code: string): string {
+  return REACTION_CHECK_CODES.has(code) ? "/reaction/products" : "";
+}
+
 /** Codes of the identity and balance checks, shown in the reaction section. */
 export const REACTION_CHECK_CODES = new Set(["balanced", "unbalanced", "products_unknown"]);

@@ -13,7 +13,7 @@ import { consumeOneTimeTokenOrThrow, createOneTimeToken, endAllSessions, getPass
 import { safeCallbackPath } from "./callback-url";
 import { clientAddress } from "./client-address";
 import { verifyAgainstNothing, verifyPassword } from "./password";
-import { consumeOrThrow, isSpent, recordFailure, resetLimit } from "./rate-limit";
+import { isSpent, recordFailure, resetLimit, throwIfSpent } from "./rate-limit";
 
 const credentialsSchema = z.object({ email: z.string().trim().email().max(320), password: z.string().min(1).max(200) });
 const linkSchema = z.object({ token: z.string().min(20).max(200) });
@@ -50,7 +50,8 @@ export async function authorizeCredentials(raw: unknown, ip: string) {
   const parsed = credentialsSchema.safeParse(raw);
   if (!parsed.success) throw new Error(SIGN_IN_FAILED);
   const { email, password } = parsed.data;
-  await rethrowLimit(() => consumeOrThrow("signInIp", ip, "Too many sign-in attempts from this network"));
+  // Only failures count against the address: a lab signing in rightly from one address is never locked out.
+  await rethrowLimit(() => throwIfSpent("signInIp", ip, "Too many failed sign-in attempts from this network"));
   const locked = (await isSpent("signInPair", pairKey(email, ip))) || (await isSpent("signInAccount", email));
   const user = await getPasswordHash({ email });
   const ok = user ? await verifyPassword(password, user.passwordHash) : await verifyAgainstNothing(password);
@@ -58,6 +59,7 @@ export async function authorizeCredentials(raw: unknown, ip: string) {
     if (user && ok && !user.deactivatedAt && user.emailVerifiedAt) await mailSignInLink(user);
     throw new Error(SIGN_IN_LOCKED);
   }
+  if (!ok) await recordFailure("signInIp", ip);
   if (!user || !ok) {
     await recordFailure("signInPair", pairKey(email, ip));
     await recordFailure("signInAccount", email);

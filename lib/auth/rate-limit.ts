@@ -20,6 +20,7 @@ type LimiterName =
   | "analysisIp";
 
 const limits: Record<LimiterName, { points: number; duration: number; blockDuration?: number }> = {
+  // Failed sign-ins from one address across accounts (successes are not counted).
   signInIp: { points: 30, duration: 15 * 60 },
   // Failed passwords for one account from one address: a guesser locks only their own address.
   signInPair: { points: 6, duration: 15 * 60, blockDuration: 15 * 60 },
@@ -76,6 +77,19 @@ export async function consumeOrThrow(name: LimiterName, key: string, message = "
     }
     throw err;
   }
+}
+
+/** Throws the same 429 as consumeOrThrow when the budget is spent, without counting an attempt. */
+export async function throwIfSpent(name: LimiterName, key: string, message = "Too many attempts"): Promise<void> {
+  const res = await limiter(name).get(key.toLowerCase());
+  if (res === null || res.remainingPoints > 0) return;
+  const minutes = Math.max(1, Math.ceil(res.msBeforeNext / 60000));
+  throw new AppError(
+    "rate_limited",
+    `${message}. Try again in ${minutes} minute${minutes === 1 ? "" : "s"}.`,
+    [],
+    Math.ceil(res.msBeforeNext / 1000),
+  );
 }
 
 export async function resetLimit(name: LimiterName, key: string): Promise<void> {

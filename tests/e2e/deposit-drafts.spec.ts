@@ -1,4 +1,4 @@
-import { expect, test, type Dialog, type Page } from "@playwright/test";
+import { expect, test, type BrowserContext, type Dialog, type Page } from "@playwright/test";
 import { DEMO_RESEARCHER, DepositEditorPage, signInAs } from "./pages/deposit-pages";
 
 // Drafts: saved as they are typed once they have a title, incomplete or not; a warning before
@@ -105,18 +105,24 @@ test("leaving with unsaved changes asks first: a header link, the back button an
   });
 });
 
+/** The same researcher signed in twice (two browser contexts), on one new draft; B opens it. */
+async function oneDraftTwice(a: BrowserContext, b: BrowserContext, title: string) {
+  const pageA = await a.newPage();
+  const pageB = await b.newPage();
+  await signInAs(pageA, DEMO_RESEARCHER);
+  await signInAs(pageB, DEMO_RESEARCHER);
+  const id = await newTitledDraft(pageA, `${title} ${Date.now()}`);
+  const editorA = new DepositEditorPage(pageA);
+  const editorB = new DepositEditorPage(pageB);
+  await editorB.open(id);
+  return { pageA, pageB, editorA, editorB };
+}
+
 test("a co-editor's save is merged field by field, never thrown away", async ({ browser }) => {
   const a = await browser.newContext();
   const b = await browser.newContext();
   try {
-    const pageA = await a.newPage();
-    const pageB = await b.newPage();
-    await signInAs(pageA, DEMO_RESEARCHER);
-    await signInAs(pageB, DEMO_RESEARCHER);
-    const id = await newTitledDraft(pageA, `Two editors ${Date.now()}`);
-    const editorA = new DepositEditorPage(pageA);
-    const editorB = new DepositEditorPage(pageB);
-    await editorB.open(id);
+    const { pageA, pageB, editorA, editorB } = await oneDraftTwice(a, b, "Two editors");
 
     await editorA.description.fill("Summary written in the first window.");
     await editorA.expectSaved();
@@ -126,9 +132,9 @@ test("a co-editor's save is merged field by field, never thrown away", async ({ 
     const conflict = pageB.getByRole("alert").filter({ hasText: "A co-editor saved this draft while you were editing it" });
     await expect(conflict).toBeVisible({ timeout: 20_000 });
     await expect(editorB.saveStatus).toHaveText(/^Not saved: a co-editor saved first/);
-    // Both versions of each differing field are shown; mine is proposed where only I changed it.
+    // Each differing field is shown; mine is kept where only I changed it, theirs proposed where only they did.
     const titleField = conflict.getByRole("group", { name: "Title and summary, title" });
-    await expect(titleField.getByRole("radio", { name: /Keep mine/ })).toBeChecked();
+    await expect(titleField).toContainText("Yours is kept");
     await expect(titleField).toContainText(titleB);
     const summaryField = conflict.getByRole("group", { name: "Title and summary, description" });
     await expect(summaryField.getByRole("radio", { name: /Take theirs/ })).toBeChecked();
@@ -169,4 +175,40 @@ test("a draft of 100 000 points (about 2 MB of JSON) is saved from the editor an
   await expect(() => editor.open(id)).toPass({ timeout: 60_000 });
   await expect(editor.rowCount).toHaveText("Rows (100,000)", { timeout: 60_000 });
   await expect(editor.cell("k", 1)).toHaveValue("1e-12");
+});
+
+test("edits typed while the merge panel is open are kept by the merge", async ({ browser }) => {
+  const a = await browser.newContext();
+  const b = await browser.newContext();
+  try {
+    const { pageA, pageB, editorA, editorB } = await oneDraftTwice(a, b, "Typed during a merge");
+
+    await pageA.getByLabel("Keywords").fill("hydroxyl radical, methane");
+    await editorA.expectSaved();
+
+    await editorB.description.fill("Summary typed in the second window.");
+    const conflict = pageB.getByRole("alert").filter({ hasText: "A co-editor saved this draft while you were editing it" });
+    await expect(conflict).toBeVisible({ timeout: 20_000 });
+    // A new title typed while the panel is open is compared too, and kept as mine.
+    const titleB = `Retitled during the merge ${Date.now()}`;
+    await editorB.title.fill(titleB);
+    const titleField = conflict.getByRole("group", { name: "Title and summary, title" });
+    await expect(titleField).toContainText("Yours is kept");
+    await expect(titleField).toContainText(titleB);
+
+    await conflict.getByRole("button", { name: "Save the merged draft" }).click();
+    await editorB.expectSaved();
+    await expect(conflict).toBeHidden();
+    await expect(editorB.title).toHaveValue(titleB);
+    await expect(editorB.description).toHaveValue("Summary typed in the second window.");
+    await expect(pageB.getByLabel("Keywords")).toHaveValue("hydroxyl radical, methane");
+
+    await pageA.reload();
+    await expect(editorA.title).toHaveValue(titleB);
+    await expect(editorA.description).toHaveValue("Summary typed in the second window.");
+    await expect(pageA.getByLabel("Keywords")).toHaveValue("hydroxyl radical, methane");
+  } finally {
+    await a.close();
+    await b.close();
+  }
 });

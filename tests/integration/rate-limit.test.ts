@@ -68,7 +68,19 @@ describe("sign-in lockout by (account, address), with a ceiling per account", ()
         if (/from this network/.test(err.message)) limited++;
       });
     }
-    expect(limited).toBe(2); // 30 allowed per 15 minutes
+    expect(limited).toBe(2); // 30 failures allowed per 15 minutes
+  });
+
+  it("successful sign-ins do not count against the address: a lab behind one address is not locked out", async () => {
+    const ip = uniqueIp();
+    const { email, password } = await target();
+    for (let i = 0; i < 35; i++) await expect(authorizeCredentials({ email, password }, ip)).resolves.toMatchObject({ email });
+    // Failures from that address still count, across accounts.
+    for (let i = 0; i < 30; i++)
+      await expect(authorizeCredentials({ email: uniqueEmail("spray"), password: "whatever-password" }, ip)).rejects.toThrow(
+        SIGN_IN_FAILED,
+      );
+    await expect(authorizeCredentials({ email, password }, ip)).rejects.toThrow(/failed sign-in attempts from this network/);
   });
 
   it("limits sign-ups per address", async () => {

@@ -198,7 +198,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
               <>
                 <p className="text-sm text-muted">
                   Submission {earlier!.sequence} ({earlier!.createdAt.toISOString().slice(0, 16).replace("T", " ")} UTC) compared with{" "}
-                  {latest ? `submission ${latest.sequence}, under review now` : "the draft as saved now"}.
+                  {latest ? `submission ${latest.sequence} (${stateWords[version.state]} now)` : "the draft as saved now"}.
                 </p>
                 <SubmissionChanges diff={sinceSubmission} label="Changes since the last submission" />
               </>

@@ -4,7 +4,7 @@ import { useState } from "react";
 import { UnitPickers } from "@/components/unit-pickers";
 import { ArrheniusPlot } from "@/components/arrhenius-plot";
 import { ScrollRegion } from "@/components/scroll-region";
-import { formatRange, formatSignificant } from "@/lib/format";
+import { formatNumber, formatRange, formatSignificant } from "@/lib/format";
 import { describeExtrapolation } from "@/lib/kinetics/flag-text";
 import { GAS_CONSTANT, REFERENCE_TEMPERATURE } from "@/lib/kinetics/constants";
 import type { AnalysisResult, ReactionOrder } from "@/lib/kinetics/types";
@@ -108,9 +108,13 @@ export function ReviewFit({
             <tr>
               <th scope="row">Temperature range (K)</th>
               <td>
-                {reported?.Tmin !== undefined || reported?.Tmax !== undefined
-                  ? `${reported.Tmin !== undefined ? sig(reported.Tmin) : "…"} to ${reported.Tmax !== undefined ? sig(reported.Tmax) : "…"}`
-                  : "not stated"}
+                {reported?.Tmin !== undefined && reported?.Tmax !== undefined
+                  ? formatRange(reported.Tmin, reported.Tmax, "")
+                  : reported?.Tmin !== undefined
+                    ? `from ${formatNumber(reported.Tmin, 4)}`
+                    : reported?.Tmax !== undefined
+                      ? `up to ${formatNumber(reported.Tmax, 4)}`
+                      : "not stated"}
               </td>
               <td>{formatRange(TminData, TmaxData, "")} (the data)</td>
             </tr>
