@@ -11,15 +11,15 @@ function escapePointerToken(key: string): string {
 }
 
 /**
- * The JSON pointer of the first array or object nested deeper than `max` levels (the top-level
- * value is level 1), or null when the value stays within it.
+ * The JSON pointer of the first value (in document order) for which `test` holds, given the value
+ * and its level (the top-level value is level 1); a value that passes is not descended into.
  */
-export function findTooDeep(value: unknown, max = MAX_JSON_DEPTH): string | null {
+function firstPointerWhere(value: unknown, test: (value: unknown, depth: number) => boolean): string | null {
   const stack: { value: unknown; pointer: string; depth: number }[] = [{ value, pointer: "", depth: 1 }];
   while (stack.length) {
     const item = stack.pop()!;
+    if (test(item.value, item.depth)) return item.pointer;
     if (item.value === null || typeof item.value !== "object") continue;
-    if (item.depth > max) return item.pointer;
     // Pushed in reverse so the first member is walked first (the pointer named is the first in document order).
     if (Array.isArray(item.value)) {
       for (let i = item.value.length - 1; i >= 0; i--)
@@ -37,6 +37,22 @@ export function findTooDeep(value: unknown, max = MAX_JSON_DEPTH): string | null
     }
   }
   return null;
+}
+
+/**
+ * The JSON pointer of the first array or object nested deeper than `max` levels (the top-level
+ * value is level 1), or null when the value stays within it.
+ */
+export function findTooDeep(value: unknown, max = MAX_JSON_DEPTH): string | null {
+  return firstPointerWhere(value, (v, depth) => v !== null && typeof v === "object" && depth > max);
+}
+
+/**
+ * The JSON pointer of the first number JSON.parse turned into ±Infinity (a literal such as 1e400,
+ * beyond the largest double), or null. PostgreSQL's jsonb would store it as null.
+ */
+export function findNumberTooLarge(value: unknown): string | null {
+  return firstPointerWhere(value, (v) => typeof v === "number" && !Number.isFinite(v));
 }
 
 /** The problem for a value nested too deeply, or null. */

@@ -4,7 +4,7 @@ import { assertVersionCapability, type VersionAction } from "@/lib/curation/capa
 import type { Transition } from "@/lib/curation/lifecycle";
 import { applyTransition, type TransitionOutcome } from "@/lib/curation/transitions";
 import { AppError } from "@/lib/errors";
-import { assertNotTooDeep } from "@/lib/json-depth";
+import { assertNotTooDeep, findNumberTooLarge } from "@/lib/json-depth";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
 import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
@@ -67,6 +67,11 @@ async function prepareDraftText(
       throw new AppError("validation_failed", "Give the deposit a title to save it; everything else can be completed later.", [
         { pointer: "/title", message: "A draft is saved once it has a title." },
       ]);
+    const huge = findNumberTooLarge(doc);
+    if (huge !== null) {
+      const message = `The number at ${huge} is too large to store (beyond about 1.8e308); correct it to save the draft.`;
+      throw new AppError("validation_failed", `The draft cannot be stored: ${message}`, [{ pointer: huge, message }]);
+    }
     const unstorable = findUnstorableText(doc, MAX_KEPT_PROBLEMS);
     if (unstorable.length) throw new AppError("validation_failed", `The draft cannot be stored: ${unstorable[0].message}`, unstorable);
     const problems = err.errors.slice(0, MAX_KEPT_PROBLEMS).map(({ pointer, message }) => ({ pointer, message }));

@@ -46,13 +46,16 @@ describe("editor saves of incomplete drafts", () => {
     expect(v.draft_problems.length).toBe(r.problems?.length);
   });
 
-  it("refuses a deposit without a title and one with text PostgreSQL cannot store, storing nothing", async () => {
+  it("refuses a deposit without a title, one with text PostgreSQL cannot store and one with a number too large to store, storing nothing", async () => {
     as(owner);
     const [{ n: before }] = await sql`select count(*)::int as n from dataset_versions where created_by = ${owner.id}`;
     const untitled = await createDraftAction(json({ title: "  ", description: "x" }));
     expect(untitled).toMatchObject({ ok: false, status: 422, errors: [{ pointer: "/title" }] });
     const nul = await createDraftAction(json({ title: "With a NUL", description: "a\u0000b" }));
     expect(nul).toMatchObject({ ok: false, status: 422, errors: [{ pointer: "/description" }] });
+    // A number beyond the largest double would be stored by jsonb as null: refused where it is.
+    const huge = await createDraftAction('{"title":"A number too large","points":[{"T":300,"k":1e400}]}');
+    expect(huge).toMatchObject({ ok: false, status: 422, errors: [{ pointer: "/points/0/k" }] });
     const [{ n: after }] = await sql`select count(*)::int as n from dataset_versions where created_by = ${owner.id}`;
     expect(after).toBe(before);
   });
