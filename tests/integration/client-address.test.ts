@@ -132,7 +132,7 @@ describe("client address behind the front server", () => {
       );
     }
     expect(answers.slice(0, 30).every((a) => /not right/.test(a))).toBe(true);
-    expect(answers[30]).toMatch(/Too many sign-in attempts from this network/);
+    expect(answers[30]).toMatch(/Too many failed sign-in attempts from this network/);
   }, 60_000);
 
   it("analyses from one socket with spoofed X-Forwarded-For get a 429 after 120 a minute", async () => {
