@@ -2,6 +2,7 @@ import { randomBytes } from "node:crypto";
 import postgres from "postgres";
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "@/lib/auth/client-address";
 import { captureSmtpPort, databaseUrl } from "@/lib/config";
+import { getSender } from "@/lib/jobs/boss";
 import { startWorkers } from "@/lib/jobs/worker";
 import { startCaptureServer } from "@/lib/mail/capture-server";
 import type { UserDto } from "@/lib/users/queries";
@@ -22,8 +23,13 @@ export function uniqueIp(): string {
   return `10.${b[0]}.${b[1]}.${b[2]}`;
 }
 
-/** The local SMTP capture plus the mail worker, as `npm start` runs them. */
+/**
+ * The local SMTP capture plus the mail worker, as `npm start` runs them. Mails that earlier test
+ * files queued with no worker running (every submission mails every curator) are dropped first:
+ * a file waits only for its own mails, never behind a backlog of hundreds.
+ */
 export async function startMailPipeline() {
+  await (await getSender()).purgeQueue("mail");
   const capture = await startCaptureServer({ sql, port: captureSmtpPort() });
   const workers = await startWorkers();
   return {
