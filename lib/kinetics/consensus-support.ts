@@ -347,8 +347,15 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
     sigmaLnK = DEFAULT_POINT_SIGMA;
     fit.scale = DEFAULT_POINT_SIGMA ** 2;
   }
-  // Judged with the covariance that does not assume its curve is straight (the modified fit's, when determined).
-  const judge: OwnFit = determined && !gModified ? { ...fit, g: judgeG, gModified: true } : fit;
+  // Judged by the fit that does not assume its curve is straight: the modified fit's curve and
+  // covariance when determined. The straight line's values with the modified covariance would mix two
+  // fits: where the truth bends, the line is off it at both ends and the middle by more than its own
+  // variance says, and a precise curved consensus would call a correct straight set off.
+  let judge = fit;
+  if (determined && !gModified) {
+    const jL = r12 / r11;
+    judge = { ...fit, g: judgeG, gModified: true, bL: jL, bE: (r02 - r01 * jL) / r00 };
+  }
   const temps =
     model === "single_temperature"
       ? [distinctT === 1 ? Tmin : -1 / (GAS_CONSTANT * mE)]

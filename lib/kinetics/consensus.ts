@@ -5,8 +5,9 @@
  * analysis prefers — as fitted ln k at support temperatures inside its own measured range (both
  * ends and the middle in 1/T; one more per doubling of Tmax/Tmin, up to 7), with their covariance
  * V_j from that fit (rank 2 for a straight set: it says nothing of curvature beyond τ², so a
- * modified consensus needs a curved set). It is judged against the others with the modified fit's
- * covariance whenever that is determined, so an undetected curvature is not ruled out. A dataset therefore weighs by its
+ * modified consensus needs a curved set). It is judged against the others through its modified fit
+ * (values and covariance) whenever that is determined, so an undetected curvature is not ruled out;
+ * the only curved dataset is judged against the others' modified consensus of those fits. A dataset therefore weighs by its
  * information, not by its number of points, and never speaks outside its range. One
  * temperature: one support value (weighted mean ln k) with its variance; two temperatures: the
  * Arrhenius line through them (both ends). Without stated uncertainties and without spare
@@ -327,6 +328,12 @@ interface Others {
    * compared in one model with the same number of coefficients (null for a dataset not in the consensus).
    */
   restExcess: number | null;
+  /**
+   * Rows the fit was made on when they are not the consensus' own: the others' support values with
+   * the covariance of the fits that judge them (the modified fit's when determined), used when the
+   * dataset compared is the only one that carries curvature (see {@link leaveOneOut}).
+   */
+  rows?: Rows;
 }
 
 /**
@@ -664,6 +671,22 @@ function leastConsistent(
   return best;
 }
 
+/** A dataset's support values and covariance from the fit that judges it (the modified fit's when determined). */
+function judgedSupport(s: DatasetSupport | null): DatasetSupport | null {
+  if (!s || s.judge === s.fit) return s;
+  const K = s.temps.length;
+  const lnk = s.temps.map((T) => evaluateOwnFit(s.judge, T).lnk);
+  const cov = new Array<number>(K * K);
+  for (let a = 0; a < K; a++) {
+    for (let b = a; b < K; b++) {
+      const v = ownCovariance(s.judge, s.temps[a], s.temps[b]);
+      cov[a * K + b] = v;
+      cov[b * K + a] = v;
+    }
+  }
+  return { ...s, lnk, cov };
+}
+
 /** The consensus of the others for every dataset (the full consensus for a dataset left out). */
 function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], included: number[], fits: Fits): (Others | null)[] {
   const J = supports.length;
@@ -703,6 +726,7 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
   }
   const sortedTemps = [...tempCount.keys()].sort((a, b) => a - b);
   const curved = included.filter((j) => carriesCurvature(supports[j])).length;
+  let judgedRows: Rows | null = null;
   for (let i = 0; i < m; i++) {
     const j = included[i];
     const a = arr[i];
@@ -715,17 +739,28 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
     let hi = sortedTemps.length - 1;
     while (hi >= lo && onlyOwn(sortedTemps[hi])) hi--;
     const span = hi > lo ? sortedTemps[hi] / sortedTemps[lo] : 1;
-    const modOk = mod && distinct >= 3 && span >= MODIFIED_MIN_SPAN && curved - (carriesCurvature(supports[j]) ? 1 : 0) > 0;
+    const shaped = distinct >= 3 && span >= MODIFIED_MIN_SPAN;
+    const othersCurved = curved - (carriesCurvature(supports[j]) ? 1 : 0) > 0;
+    const modOk = mod && shaped && othersCurved;
     const fit = prefer(a, modOk ? mod[i] : null);
-    out[j] = {
-      fit,
-      blocks: included,
-      skip: j,
-      count: m - 1,
-      Tmin: Math.min(preMin[i], sufMin[i + 1]),
-      Tmax: Math.max(preMax[i], sufMax[i + 1]),
-      restExcess: a.Q - a.df,
-    };
+    const hull = { Tmin: Math.min(preMin[i], sufMin[i + 1]), Tmax: Math.max(preMax[i], sufMax[i + 1]) };
+    const restExcess = a.Q - a.df;
+    if (shaped && !othersCurved && carriesCurvature(supports[j])) {
+      // The dataset compared is the only curved one: the others' straight summaries do not say their
+      // curve is straight, only that none of them alone could tell. Their modified consensus on the
+      // covariance of the fits that judge them (the modified fit's) says what they know of its shape.
+      judgedRows ??= buildRows(supports.map(judgedSupport), rows.T0);
+      const curve = fitModel(
+        judgedRows,
+        included.filter((k) => k !== j),
+        3,
+      );
+      if (curve) {
+        out[j] = { fit: curve, blocks: included, skip: j, count: m - 1, ...hull, restExcess, rows: judgedRows };
+        continue;
+      }
+    }
+    out[j] = { fit, blocks: included, skip: j, count: m - 1, ...hull, restExcess };
   }
   return out;
 }
@@ -846,7 +881,8 @@ function compare(
   const s = supports[j];
   if (!s || !o) return null;
   const { fit } = o;
-  const other = otherSide(rows, supports, o);
+  const own = o.rows ?? rows;
+  const other = otherSide(own, supports, o);
   const a = Math.max(s.Tmin, o.Tmin);
   const b = Math.min(s.Tmax, o.Tmax);
   const overlap = a <= b;
@@ -908,8 +944,8 @@ function compare(
   if (overlap && o.count >= 2) {
     // Where the dataset is judged hardest: the comparison temperature with the largest |z|.
     const worst = diffs.reduce((a, b) => (Math.abs(b.z) > Math.abs(a.z) ? b : a));
-    const { g, maxNorm } = shareCache.get(o.blocks, fit.weightTau2);
-    const a = shareDirection(rows, fit, worst.T);
+    const { g, maxNorm } = (o.rows ? new ShareCache(o.rows) : shareCache).get(o.blocks, fit.weightTau2);
+    const a = shareDirection(own, fit, worst.T);
     let best = -1;
     let bestShare = -Infinity;
     // No share can exceed ‖a‖·max‖g_k‖: with many datasets that settles it without the loop.

@@ -70,10 +70,13 @@ describe("consensus words when one set is far off the two others", () => {
   });
 
   it("keeps the plain wording when the others agree with each other", () => {
-    const agreeing = consensus([...sets.slice(0, 2), set("measured 3", makeNormal(12), 9, 225, 400, 0.05, () => 1)]);
+    // Its own stream from a seed spread over the generator's range: seeds 11 and 12 would each start
+    // with a deviate beyond 3.5σ (Park–Miller's first uniform from a small seed is tiny), giving both
+    // sets the same extreme cold-end point.
+    const agreeing = consensus([...sets.slice(0, 2), set("measured 3", makeNormal(1013904223 + 12 * 48271), 9, 225, 400, 0.05, () => 1)]);
     for (const x of agreeing.members) {
       expect(x.disagreement!.agreesOnlyWithinSpread).toBe(false);
-      expect(x.verdict).toMatch(/agrees with the consensus of the other 2 within its uncertainty/);
+      expect(x.verdict).toMatch(/agrees with the consensus of the other 2( \(which rests \d+ % on [^)]+\))? within its uncertainty/);
     }
   });
 });

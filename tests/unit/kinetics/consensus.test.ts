@@ -29,6 +29,16 @@ function makeNormal(seed: number): () => number {
   return () => Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u());
 }
 
+/**
+ * A seed spread over the generator's range (one step of the MINSTD multiplier 48271 plus an
+ * offset). Park–Miller's first uniform from a small seed s is 16807·s/(2³¹ − 1) < 2e-3 for s ≤ 200,
+ * so the first deviate of every small seed is beyond 3.5σ: each constructed set would start with the
+ * same extreme point at its cold end. The many-seed tests use mixed seeds.
+ */
+function mixSeed(seed: number): number {
+  return Number((BigInt(seed) * 48271n + 1013904223n) % 2147483647n);
+}
+
 /** The true expression of the constructed tests (invented). */
 const TRUE: RateExpression = { A: 2.0e-12, Ea: 12000 };
 
@@ -350,8 +360,7 @@ describe("consensus stage 2: GLS with V_j + τ²·I and DerSimonian–Laird τ²
 
 describe("consensus: constructed cases with a known answer", () => {
   /** Three measured sets from TRUE with noise, one wide computed set with another curvature. */
-  function baseSets(seed: number, delta = 0.5): ConsensusDataset[] {
-    const normal = makeNormal(seed);
+  function baseSets(seed: number, delta = 0.5, normal = makeNormal(mixSeed(seed))): ConsensusDataset[] {
     return [
       makeSet("m1", normal, { n: 10, T1: 220, T2: 420, sd: 0.05, sigma: 0.05 }),
       makeSet("m2", normal, { n: 8, T1: 250, T2: 400, sd: 0.06 }),
@@ -372,8 +381,8 @@ describe("consensus: constructed cases with a known answer", () => {
    *   c = consensus only; (b − c)/√(b + c) < 1.645). The truth is inside all three only in about
    *   58 % of seeds, so "inside in every seed" would be a wrong requirement; with δ = 0 the consensus
    *   must do at least as well as the truth.
-   * - A measured set shifted by a factor 3 is flagged in ≥ 95 % of seeds, above, with a mean factor
-   *   within [2, 4.5].
+   * - A measured set shifted by a factor 3 is flagged in every seed and every δ, above, with a mean
+   *   factor within [2, 4.5].
    * About 2.5 s alone; the longer timeout is for a machine busy with other test files.
    */
   it("flags measured sets no more often than chance allows and lies in their bands as often as the truth does (200 seeds, δ = 0, 0.5, 1)", () => {
@@ -382,6 +391,7 @@ describe("consensus: constructed cases with a known answer", () => {
     const tally = new Map<number, { flags: number; inside: number; truthOnly: number; consensusOnly: number }>();
     let truthInside = 0;
     let shifted = 0;
+    const missed: string[] = [];
     for (let seed = 1; seed <= SEEDS; seed++) {
       // The measured sets come first from the stream, so they are the same for every δ.
       const base = baseSets(seed, 0);
@@ -400,11 +410,15 @@ describe("consensus: constructed cases with a known answer", () => {
         if (consensusIn && !truthIn) t.consensusOnly++;
         tally.set(delta, t);
       }
-      const sets = baseSets(seed, 0.5);
-      sets[1] = { ...sets[1], points: sets[1].points.map((p) => ({ ...p, k: p.k * 3 })) };
-      const d = member(consensus(sets), "m2").disagreement!;
-      const factor = 10 ** d.meanOffsetLog10;
-      if (d.off && factor >= 2 && factor <= 4.5) shifted++;
+      for (const delta of [0, 0.5, 1]) {
+        const sets = baseSets(seed, delta);
+        sets[1] = { ...sets[1], points: sets[1].points.map((p) => ({ ...p, k: p.k * 3 })) };
+        const d = member(consensus(sets), "m2").disagreement!;
+        const factor = 10 ** d.meanOffsetLog10;
+        // Off, above wherever it is off, by a factor near 3.
+        if (d.off && factor >= 2 && factor <= 4.5 && d.points.every((p) => p.agrees || p.z > 0)) shifted++;
+        else missed.push(`seed ${seed}, δ = ${delta}: off ${d.off}, factor ${factor.toFixed(2)}`);
+      }
     }
     for (const [delta, t] of tally) {
       expect(t.flags, `measured sets flagged at δ = ${delta}`).toBeLessThanOrEqual(0.05 * 3 * SEEDS);
@@ -413,7 +427,33 @@ describe("consensus: constructed cases with a known answer", () => {
       expect(mcnemar, `consensus inside ${t.inside}, truth ${truthInside} of ${SEEDS} at δ = ${delta}`).toBeLessThan(1.645);
       if (delta === 0) expect(t.inside).toBeGreaterThanOrEqual(truthInside);
     }
-    expect(shifted).toBeGreaterThanOrEqual(0.95 * SEEDS);
+    expect(missed, "the ×3 set, every seed and δ").toEqual([]);
+    expect(shifted).toBe(3 * SEEDS);
+  }, 30_000);
+
+  /**
+   * Every set from one curved truth (modified Arrhenius, n = 2.5, invented): three narrow measured
+   * sets, each too narrow to show the curvature on its own (their own analyses prefer a straight
+   * line in most seeds), and one precise computed set over 200–2000 K that shows it plainly. A
+   * straight line's values are off a curved truth at its ends and middle by more than the line's
+   * own variance, so each set is judged by its modified fit (values and covariance), and the only
+   * curved set is judged against the others' modified consensus of those fits. Measured sets are
+   * flagged no more often than the family level allows (5 % of 600 verdicts, as above).
+   */
+  it("does not flag correct narrow sets when the true curve bends and only the wide set shows it (200 seeds)", () => {
+    const CURVED: RateExpression = { A: 3.0e-13, n: 2.5, Ea: 8000, T0: 298.15 };
+    let flagged = 0;
+    for (let seed = 1; seed <= 200; seed++) {
+      const normal = makeNormal(mixSeed(seed));
+      const c = consensus([
+        makeSet("m1", normal, { n: 10, T1: 220, T2: 420, sd: 0.05, sigma: 0.05, truth: CURVED }),
+        makeSet("m2", normal, { n: 8, T1: 250, T2: 400, sd: 0.06, truth: CURVED }),
+        makeSet("m3", normal, { n: 9, T1: 230, T2: 380, sd: 0.05, sigma: 0.05, truth: CURVED }),
+        makeSet("calc", normal, { n: 16, T1: 200, T2: 2000, sd: 0.01, truth: CURVED }),
+      ]);
+      flagged += ["m1", "m2", "m3"].filter((id) => member(c, id).disagreement!.off).length;
+    }
+    expect(flagged).toBeLessThanOrEqual(0.05 * 3 * 200);
   }, 30_000);
 
   /**
@@ -439,7 +479,6 @@ describe("consensus: constructed cases with a known answer", () => {
     expect(member(c, "m1").setAside).toBe(true);
     expect(member(c, "m2").included).toBe(true);
     expect(member(c, "m3").included).toBe(true);
-    expect(member(c, "calc").setAside).toBe(true);
     let correctSetAside = 0;
     for (let seed = 1; seed <= 60; seed++) {
       const r = consensus(curvedComputedSets(seed));
@@ -483,7 +522,7 @@ describe("consensus: constructed cases with a known answer", () => {
   });
 
   it("flags a set shifted by a factor 3, above, by that factor, with the same activation energy", () => {
-    const sets = baseSets(5);
+    const sets = baseSets(5, 0.5, makeNormal(5));
     sets[1] = { ...sets[1], points: sets[1].points.map((p) => ({ ...p, k: p.k * 3 })) };
     const c = consensus(sets);
     const m = member(c, "m2");
