@@ -404,8 +404,9 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     const included = range(J).filter((j) => leftOut[j] === null);
     fits = fitAll(rows, supports, included);
     others = leaveOneOut(rows, supports, included, fits);
-    const shares = new ShareCache(rows);
-    comparisons = range(J).map((j) => compare(rows, supports, others[j], j, datasets, shares));
+    // While datasets may still leave, only where each one is off is needed: the slope and
+    // changing-factor tests and who carries the others are read once, when the subset is settled.
+    comparisons = range(J).map((j) => compare(rows, supports, others[j], j, datasets, null));
     // The largest unit mistake among the included datasets leaves first; the rest are judged again.
     let worst = -1;
     for (const j of included) {
@@ -428,6 +429,11 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     if (far < 0) break;
     setAside[far] = true;
     leftOut[far] = SET_ASIDE_REASON;
+  }
+  {
+    const shares = new ShareCache(rows);
+    const settled = others;
+    comparisons = range(J).map((j) => compare(rows, supports, settled[j], j, datasets, shares));
   }
   for (let j = 0; j < J; j++) {
     const d = comparisons[j];
@@ -876,7 +882,8 @@ function compare(
   o: Others | null,
   j: number,
   datasets: readonly ConsensusDataset[],
-  shareCache: ShareCache,
+  /** Null for the quick reading inside the subset loop: z per temperature and off only. */
+  shareCache: ShareCache | null,
 ): Disagreement | null {
   const s = supports[j];
   if (!s || !o) return null;
@@ -911,6 +918,24 @@ function compare(
         };
       })
     : [];
+  if (!shareCache) {
+    return {
+      comparedWith: o.count,
+      model: other.model,
+      tau2: other.tau2,
+      range: overlap ? { Tmin: a, Tmax: b } : null,
+      points,
+      bound,
+      off: points.some((p) => !p.agrees),
+      activationEnergy: null,
+      slopeZ: null,
+      factorChanges: null,
+      factorChangeP: null,
+      meanOffsetLog10,
+      restsOn: null,
+      agreesOnlyWithinSpread: false,
+    };
+  }
   let activationEnergy: Disagreement["activationEnergy"] = null;
   let slopeZ: number | null = null;
   let factorChanges: boolean | null = null;
