@@ -181,7 +181,9 @@ export function ResultTables({
                       F ({c.dfNum}, {c.dfDenom}) / p
                     </td>
                     <td colSpan={2}>
-                      {sig(c.F, 3)} / {sig(c.p, 2)}
+                      {c.exact || c.F === null
+                        ? "curved exactly, within the arithmetic (p below any printable bound)"
+                        : `${sig(c.F, 3)} / ${sig(c.p, 2)}`}
                     </td>
                   </tr>
                   <tr>

@@ -46,7 +46,9 @@ function withCurrentFields(r: AnalysisResult): AnalysisResult {
     ...r,
     arrhenius,
     modifiedArrhenius: r.modifiedArrhenius ? spread(r.modifiedArrhenius) : null,
-    curvature: r.curvature ? { ...r.curvature, dfNum: r.curvature.dfNum ?? 1, dfDenom: r.curvature.dfDenom ?? r.n - 3 } : null,
+    curvature: r.curvature
+      ? { ...r.curvature, dfNum: r.curvature.dfNum ?? 1, dfDenom: r.curvature.dfDenom ?? r.n - 3, exact: r.curvature.exact ?? false }
+      : null,
   };
 }
 

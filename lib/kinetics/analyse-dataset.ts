@@ -67,6 +67,19 @@ export const MODIFIED_MAX_SE_N = 5;
  * nor produce outliers or curvature from rounding.
  */
 const NOISE_FLOOR = 1e-13;
+
+/**
+ * Whether the modified fit reproduces ln k to within rounding while the Arrhenius fit does not
+ * (beyond 100 times the floor, so that two rounding-level sums are never called a curvature).
+ */
+export function curvatureIsExact(rssArrhenius: number, rssModified: number, rssFloor: number): boolean {
+  return rssModified <= rssFloor && rssArrhenius > 100 * rssFloor;
+}
+
+/** The curvature test says curved: exact within the arithmetic, or p < ALPHA. */
+export function curvatureSignificant(c: { exact?: boolean; p: number | null }): boolean {
+  return c.exact === true || (c.p !== null && c.p < ALPHA);
+}
 /**
  * Below this sine of the angle between the centred ln T and 1/T columns (a window of ~20 mK at
  * 300 K) rounding of the data alone moves n and Ea by more than ~1e-6 relative (error ∝ ε/sin²θ):
@@ -194,19 +207,23 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
   if (modFit && n >= MIN_POINTS_FOR_DIAGNOSTICS) {
     const rss1 = Math.max(arrFit.rss, d.rssFloor);
     const rss2 = Math.max(modFit.rss, d.rssFloor);
-    // Extra-sum-of-squares F test for one added coefficient (Draper & Smith 1998, §6.1).
-    const F = Math.max(0, rss1 - rss2) / (rss2 / (n - 3));
+    // Extra-sum-of-squares F test for one added coefficient (Draper & Smith 1998, §6.1). When the
+    // modified fit leaves only rounding (its RSS at the floor) and the Arrhenius fit does not, the
+    // ratio would divide by rounding noise: the curvature is exact, and no F or p is given.
+    const exact = curvatureIsExact(arrFit.rss, modFit.rss, d.rssFloor);
+    const F = exact ? null : Math.max(0, rss1 - rss2) / (rss2 / (n - 3));
     const deltaAICc = modSum!.aicc !== null && arrSum.aicc !== null ? modSum!.aicc - arrSum.aicc : null;
     curvature = {
       F,
       dfNum: 1,
       dfDenom: n - 3,
-      p: survivalF(F, 1, n - 3),
+      p: F === null ? null : survivalF(F, 1, n - 3),
+      exact,
       deltaAICc,
       direction: modFit.beta[1] >= 0 ? "up" : "down",
     };
   }
-  const curved = curvature !== null && curvature.p < ALPHA;
+  const curved = curvature !== null && curvatureSignificant(curvature);
   const chosen = curved
     ? { fit: modFit!, sum: modSum!, model: "modified_arrhenius" as const }
     : { fit: arrFit, sum: arrSum, model: "arrhenius" as const };
@@ -822,17 +839,17 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     }
   }
 
-  if (c.curvature && c.curvature.p < ALPHA && c.modifiedArrhenius) {
+  if (c.curvature && curvatureSignificant(c.curvature) && c.modifiedArrhenius) {
     const m = c.modifiedArrhenius.params;
     const eaAt = (T: number) => m.Ea + m.n * GAS_CONSTANT * T;
+    const test = c.curvature;
     push({
       code: "curvature",
       severity: "warn",
       quantities: {
-        F: statistic(c.curvature.F),
-        dfNum: count(c.curvature.dfNum),
-        dfDenom: count(c.curvature.dfDenom),
-        p: probability(c.curvature.p),
+        ...(test.F !== null && test.p !== null
+          ? { F: statistic(test.F), dfNum: count(test.dfNum), dfDenom: count(test.dfDenom), p: probability(test.p) }
+          : { exact: count(1) }),
         eaLow: energy(eaAt(d.Tmin)),
         tLow: temperature(d.Tmin),
         eaHigh: energy(eaAt(d.Tmax)),

@@ -166,7 +166,10 @@ const TEMPLATES: Record<FlagCode, Template> = {
 
   curvature: (w) => {
     const trend = w.value("eaHigh") >= w.value("eaLow") ? "rises" : "falls";
-    return `The Arrhenius plot is curved (F(${w.get("dfNum")}, ${w.get("dfDenom")}) = ${w.get("F")}, ${w.p("p")}): the apparent activation energy ${trend} with temperature, Ea(T) = Ea + nRT = ${w.get("eaLow")} at ${w.get("tLow")} and ${w.get("eaHigh")} at ${w.get("tHigh")}. The modified Arrhenius expression describes these data better.`;
+    const test = w.has("exact")
+      ? "exactly, within the arithmetic: the modified Arrhenius expression reproduces every ln k to its rounding, so no F-test is needed (p below any printable bound)"
+      : `F(${w.get("dfNum")}, ${w.get("dfDenom")}) = ${w.get("F")}, ${w.p("p")}`;
+    return `The Arrhenius plot is curved (${test}): the apparent activation energy ${trend} with temperature, Ea(T) = Ea + nRT = ${w.get("eaLow")} at ${w.get("tLow")} and ${w.get("eaHigh")} at ${w.get("tHigh")}. The modified Arrhenius expression describes these data better.`;
   },
 
   narrow_range: (w) => {

@@ -206,14 +206,23 @@ export interface Diagnostics {
 
 /** Test of the modified against the plain Arrhenius expression. */
 export interface CurvatureTest {
-  /** F statistic on (dfNum, dfDenom) = (1, n − 3) degrees of freedom. */
-  F: number;
+  /**
+   * F statistic on (dfNum, dfDenom) = (1, n − 3) degrees of freedom; null when exact (the modified
+   * fit's residuals are the rounding of ln k, so any F would be a ratio of rounding errors).
+   */
+  F: number | null;
   /** Numerator degrees of freedom (one added coefficient). */
   dfNum: number;
   /** Denominator degrees of freedom, n − 3 (residual dof of the modified fit). */
   dfDenom: number;
-  /** Upper-tail probability of F. */
-  p: number;
+  /** Upper-tail probability of F; null when exact (below any printable bound). */
+  p: number | null;
+  /**
+   * The modified fit reproduces ln k to within its rounding (RSS at or below Σwᵢ(1e-13·(1 + |ln kᵢ|))²)
+   * while the Arrhenius fit does not: the data lie on a curved modified Arrhenius expression exactly,
+   * within the arithmetic. The curvature is then significant, with no F or p to print.
+   */
+  exact: boolean;
   /** AICc(modified) − AICc(Arrhenius); null when either AICc is null. */
   deltaAICc: number | null;
   /** "up": apparent Ea rises with T (n > 0); "down": it falls. */

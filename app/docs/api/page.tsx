@@ -114,7 +114,8 @@ export default function ApiDocsPage() {
           <code>intervalOmitted</code>, when its limits are left out because it lies more than one width of the data in 1/T away;{" "}
           <code>diagnostics.model</code> names the fit the points are judged on; <code>arrhenius.kMid</code> is k at the middle of the
           measured range in 1/T, with its interval. <code>curvature</code> gives its degrees of freedom (<code>dfNum</code>,{" "}
-          <code>dfDenom</code>). Each flag has <code>code</code>, <code>severity</code>, <code>message</code> (kJ mol⁻¹, K),{" "}
+          <code>dfDenom</code>); with <code>exact</code> the modified fit reproduces the data to their rounding, and <code>F</code> and{" "}
+          <code>p</code> are null. Each flag has <code>code</code>, <code>severity</code>, <code>message</code> (kJ mol⁻¹, K),{" "}
           <code>points</code> where it concerns points, and <code>quantities</code>: the numbers of the message with their kind, to write it
           in other units.
         </p>

@@ -277,6 +277,52 @@ describe("reported expression against the refit", () => {
   });
 });
 
+describe("curvature of noise-free data", () => {
+  // A modified Arrhenius expression sampled without noise (common practice: data constructed from a
+  // known expression). In exact arithmetic the modified fit's RSS is 0 and F is not finite; in
+  // doubles that RSS is rounding of ln k, and any F computed from it is a ratio of rounding errors.
+  const T = evenInInverseT(20, 250, 1500);
+  const r = analyseDataset({
+    points: pointsOf(
+      T,
+      T.map((t) => 2.5 * Math.log(t / 298.15)),
+    ),
+    order: 2,
+  });
+
+  it("says the curvature is exact within the arithmetic instead of printing an F of rounding errors", () => {
+    expect(r.curvature).toMatchObject({ exact: true, F: null, p: null, dfNum: 1, dfDenom: 17 });
+    expect(r.diagnostics!.model).toBe("modified_arrhenius");
+    const flag = flagOf(r, "curvature")!;
+    expect(flag.message).toContain("exactly, within the arithmetic");
+    expect(flag.message).toContain("p below any printable bound");
+    expect(flag.message).not.toMatch(/F\(1/);
+    expect(flag.quantities).not.toHaveProperty("F");
+    expect(r.modifiedArrhenius!.params.n).toBeCloseTo(2.5, 9);
+  });
+
+  it("keeps the F-test for data with scatter, and for noise-free straight data finds no curvature", () => {
+    const noisy = analyseDataset({
+      points: pointsOf(
+        T,
+        T.map((t, i) => 2.5 * Math.log(t / 298.15) + 0.02 * Math.sin(2.3 * i)),
+      ),
+      order: 2,
+    });
+    expect(noisy.curvature!.exact).toBe(false);
+    expect(noisy.curvature!.F).toBeGreaterThan(100);
+    const straight = analyseDataset({
+      points: pointsOf(
+        T,
+        T.map(() => 0),
+      ),
+      order: 2,
+    });
+    expect(straight.curvature!.exact).toBe(false);
+    expect(flagOf(straight, "curvature")).toBeUndefined();
+  });
+});
+
 describe("flag messages in the reader's units", () => {
   // A strongly curved set (modified Arrhenius, n = 2.5) with a point far off and a reported expression that disagrees.
   const curved = () => {
