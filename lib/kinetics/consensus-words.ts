@@ -137,7 +137,7 @@ export interface SlopeInput {
  * The clause on how the factor runs along the range, each wording with its condition:
  * - the factor changes (χ² test p < 0.05) and bends in the middle more than the ends differ →
  *   the curvature differs (this wins over an end-to-end slope, which a bulge can also tilt);
- * - the ends differ (|slope z| > 1.96) → its activation energy is lower or higher;
+ * - the ends differ (|slope z| > z_{0.975} = 1.959964) → its activation energy is lower or higher;
  * - the ends agree but the factor changes → the curvature differs;
  * - the ends agree, the factor test does not reject, and it is off at every temperature in the
  *   same direction → about the same factor throughout;
