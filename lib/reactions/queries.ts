@@ -1,11 +1,12 @@
 import "server-only";
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
-import { getDb, type Transaction } from "@/db/client";
+import { getDb, type Database, type Transaction } from "@/db/client";
 import { reactionParticipants, reactions, species } from "@/db/chemistry";
 import { consensusExclusions } from "@/db/consensus";
 import { datasetMembers, datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { AppError } from "@/lib/errors";
+import { writeReactionSummary } from "@/lib/search/documents";
 import type { CuratorExclusion } from "./consensus-selection";
 
 /**
@@ -52,8 +53,7 @@ export async function getReaction({ id }: { id: number }) {
  * The newest public version (published or retracted) of every dataset whose newest public version
  * describes this reaction, with its stored points and newest analysis.
  */
-export async function listPublicVersionsOfReaction({ reactionId }: { reactionId: number }) {
-  const db = getDb();
+export async function listPublicVersionsOfReaction({ reactionId, db = getDb() }: { reactionId: number; db?: Transaction | Database }) {
   const versions = await db
     .select({
       versionId: datasetVersions.id,
@@ -115,8 +115,14 @@ export async function countPublicData() {
 }
 
 /** Curators' exclusions from the consensus of one reaction (the versions that describe it). */
-export async function listConsensusExclusions({ reactionId }: { reactionId: number }): Promise<CuratorExclusion[]> {
-  return getDb()
+export async function listConsensusExclusions({
+  reactionId,
+  db = getDb(),
+}: {
+  reactionId: number;
+  db?: Transaction | Database;
+}): Promise<CuratorExclusion[]> {
+  return db
     .select({ versionId: consensusExclusions.versionId, reason: consensusExclusions.reason, excludedAt: consensusExclusions.excludedAt })
     .from(consensusExclusions)
     .innerJoin(datasetVersions, eq(datasetVersions.id, consensusExclusions.versionId))
@@ -159,6 +165,8 @@ export async function saveConsensusExclusion({ versionId, actorId, reason }: { v
       subjectId: versionId,
       details: { reactionId, reason, ...(before ? { previousReason: before.reason } : {}) },
     });
+    // The reactions view of search shows this consensus: rewritten with the exclusion.
+    if (reactionId !== null) await writeReactionSummary(tx, reactionId);
     return { reactionId, changed: !!before };
   });
 }
@@ -179,6 +187,7 @@ export async function deleteConsensusExclusion({ versionId, actorId }: { version
       subjectId: versionId,
       details: { reactionId, previousReason: removed.reason },
     });
+    if (reactionId !== null) await writeReactionSummary(tx, reactionId);
     return { reactionId };
   });
 }
