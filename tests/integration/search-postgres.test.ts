@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { GET as searchGET } from "@/app/api/v1/search/route";
 import { GET as suggestGET } from "@/app/api/v1/search/suggest/route";
 import { applyTransition } from "@/lib/curation/transitions";
-import { depositNewDataset } from "@/lib/datasets/deposits";
+import { depositNewDataset, startNextVersion } from "@/lib/datasets/deposits";
 import { refitVersion } from "@/lib/datasets/refit";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { postgresEngine } from "@/lib/search/engines/postgres";
@@ -46,6 +46,35 @@ describe("search documents in the transaction of the change", () => {
     expect(await docs()).toEqual([{ latest: true, retracted: false }]);
     await applyTransition({ versionId: v.id, actorId: curator.id, transition: "retract", reason: "Withdrawn by its authors." });
     expect(await docs()).toEqual([{ latest: true, retracted: true }]);
+  });
+
+  it("list only the newest public version of a dataset: publishing v2 unlists v1 in the same transaction", async () => {
+    const owner = await createUser({ email: uniqueEmail("sd-v2"), name: "Second Owner", passwordHash: "x", verified: true });
+    const curator = await createUser({
+      email: uniqueEmail("sd-v2c"),
+      name: "Second Curator",
+      passwordHash: "x",
+      role: "curator",
+      verified: true,
+    });
+    const v1 = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Search latest test" } });
+    await applyTransition({ versionId: v1.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v1.id, actorId: curator.id, transition: "accept", reason: "Fine." });
+    const v2 = await startNextVersion({ actor: owner, versionId: v1.id });
+    const latest = async () =>
+      (
+        await sql<
+          { version_id: number; latest: boolean }[]
+        >`select version_id, latest from search_documents where version_id in (${v1.id}, ${v2.id}) order by version_id`
+      ).map((r) => [r.version_id, r.latest]);
+    // A draft of the next version changes nothing.
+    expect(await latest()).toEqual([[v1.id, true]]);
+    await applyTransition({ versionId: v2.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v2.id, actorId: curator.id, transition: "accept", reason: "Second version fine." });
+    expect(await latest()).toEqual([
+      [v1.id, false],
+      [v2.id, true],
+    ]);
   });
 
   it("are rewritten by a re-fit (new Ea, A and flags) in its transaction", async () => {
