@@ -72,6 +72,10 @@ const variables = {
       .string()
       .regex(/^[\w.:/,\s-]*$/, "must be a hop count or a comma-separated list of addresses, CIDR ranges, loopback or uniquelocal"),
   },
+  SEARCH_ENGINE: { schema: z.enum(["postgres", "meilisearch"], { error: "must be postgres or meilisearch" }) },
+  MEILISEARCH_URL: { schema: httpUrl },
+  MEILISEARCH_KEY: { schema: z.string(), secret: true },
+  MEILISEARCH_INDEX: { schema: z.string().regex(/^[A-Za-z0-9_-]{1,400}$/, "must be letters, digits, - or _") },
   ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
 } satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
 
@@ -111,7 +115,10 @@ function read<N extends Name>(name: N): Value<N> | undefined {
 
 /** Every problem with the configuration in `env`, one line each; empty when it is valid. */
 export function configProblems(env: Env = process.env): string[] {
-  return (Object.keys(variables) as Name[]).map((name) => problemOf(name, env)).filter((p): p is string => p !== null);
+  const problems = (Object.keys(variables) as Name[]).map((name) => problemOf(name, env)).filter((p): p is string => p !== null);
+  if (rawValue("SEARCH_ENGINE", env) === "meilisearch" && rawValue("MEILISEARCH_URL", env) === undefined)
+    problems.push("SEARCH_ENGINE is meilisearch but MEILISEARCH_URL is not set");
+  return problems;
 }
 
 /** Start-up check: throws one ConfigError listing every bad variable. */
@@ -275,4 +282,20 @@ export function analysisQueueLimit(): number {
 /** Longest one validation or analysis may take, waiting included, before it is stopped (ms). */
 export function analysisTimeoutMs(): number {
   return read("ANALYSIS_TIMEOUT_MS") ?? 60_000;
+}
+
+/** The engine that answers searches: PostgreSQL unless SEARCH_ENGINE=meilisearch. */
+export function searchEngineName(): "postgres" | "meilisearch" {
+  return read("SEARCH_ENGINE") ?? "postgres";
+}
+
+/**
+ * The Meilisearch service, or null when none is configured. When it is set, every change to the
+ * searchable versions also goes into the outbox that the `search-sync` job drains into it, whichever
+ * engine answers searches, so switching SEARCH_ENGINE finds an index that is up to date.
+ */
+export function meilisearchConfig(): { host: string; apiKey: string | undefined; index: string } | null {
+  const host = read("MEILISEARCH_URL");
+  if (!host) return null;
+  return { host: host.replace(/\/$/, ""), apiKey: read("MEILISEARCH_KEY"), index: read("MEILISEARCH_INDEX") ?? "datasets" };
 }
