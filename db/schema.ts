@@ -8,4 +8,5 @@ export * from "./chemistry";
 export * from "./datasets";
 export * from "./idempotency";
 export * from "./consensus";
+export * from "./search";
 export * from "./search-outbox";

@@ -1,6 +1,7 @@
 // Environment configuration in one place, validated with zod. Every variable is listed in the
 // README. Getters read process.env on each call (tests change it between cases); start-up calls
 // assertValidConfig() so a bad value stops the app with one clear message instead of failing later.
+import { randomBytes } from "node:crypto";
 import { availableParallelism } from "node:os";
 import { z } from "zod";
 
@@ -74,7 +75,8 @@ const variables = {
   },
   SEARCH_ENGINE: { schema: z.enum(["postgres", "meilisearch"], { error: "must be postgres or meilisearch" }) },
   MEILISEARCH_URL: { schema: httpUrl },
-  MEILISEARCH_KEY: { schema: z.string(), secret: true },
+  MEILISEARCH_API_KEY: { schema: z.string(), secret: true },
+  SEARCH_CURSOR_SECRET: { schema: z.string().min(16, "must be at least 16 characters"), secret: true },
   MEILISEARCH_INDEX: { schema: z.string().regex(/^[A-Za-z0-9_-]{1,400}$/, "must be letters, digits, - or _") },
   ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
 } satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
@@ -284,18 +286,39 @@ export function analysisTimeoutMs(): number {
   return read("ANALYSIS_TIMEOUT_MS") ?? 60_000;
 }
 
-/** The engine that answers searches: PostgreSQL unless SEARCH_ENGINE=meilisearch. */
+/** The search engine: SEARCH_ENGINE when set, else meilisearch when MEILISEARCH_URL is set, else postgres. */
 export function searchEngineName(): "postgres" | "meilisearch" {
-  return read("SEARCH_ENGINE") ?? "postgres";
+  return read("SEARCH_ENGINE") ?? (read("MEILISEARCH_URL") ? "meilisearch" : "postgres");
+}
+
+/** Base URL of the Meilisearch service (no trailing slash), or null when search stays in PostgreSQL. */
+export function meilisearchUrl(): string | null {
+  return read("MEILISEARCH_URL")?.replace(/\/$/, "") ?? null;
+}
+
+export function meilisearchApiKey(): string | undefined {
+  return read("MEILISEARCH_API_KEY");
+}
+
+// Made once per process when neither secret is set: cursors then last as long as the process.
+let processCursorSecret: string | null = null;
+
+/**
+ * Key that signs search cursors (HMAC): SEARCH_CURSOR_SECRET, else NEXTAUTH_SECRET, else a random
+ * key of this process (a cursor from before a restart is then refused as tampered with).
+ */
+export function searchCursorSecret(): string {
+  const configured = read("SEARCH_CURSOR_SECRET") ?? read("NEXTAUTH_SECRET");
+  if (configured) return configured;
+  processCursorSecret ??= randomBytes(32).toString("hex");
+  return processCursorSecret;
 }
 
 /**
- * The Meilisearch service, or null when none is configured. When it is set, every change to the
- * searchable versions also goes into the outbox that the `search-sync` job drains into it, whichever
- * engine answers searches, so switching SEARCH_ENGINE finds an index that is up to date.
+ * The Meilisearch service and index, or null when none is configured. When it is set, every change
+ * to the searchable versions also goes into the outbox that the search-sync job drains into it.
  */
 export function meilisearchConfig(): { host: string; apiKey: string | undefined; index: string } | null {
-  const host = read("MEILISEARCH_URL");
-  if (!host) return null;
-  return { host: host.replace(/\/$/, ""), apiKey: read("MEILISEARCH_KEY"), index: read("MEILISEARCH_INDEX") ?? "datasets" };
+  const host = meilisearchUrl();
+  return host ? { host, apiKey: meilisearchApiKey(), index: read("MEILISEARCH_INDEX") ?? "datasets" } : null;
 }
