@@ -5,6 +5,7 @@ import { searchOutbox } from "@/db/search-outbox";
 import { jobRetryDelaySeconds, meilisearchConfig } from "@/lib/config";
 import { getSender, jobsInTransaction } from "@/lib/jobs/boss";
 import { meiliIndex, waitForSuccess } from "@/lib/search/meili/client";
+import { loadSearchDocuments } from "@/lib/search/meili/documents";
 import { toIndexedDocument } from "@/lib/search/meili/index-settings";
 import type { SearchDocument } from "@/lib/search/types";
 
@@ -57,14 +58,14 @@ export interface DrainOutcome {
  * most an hour). One drainer at a time (a transaction-scoped advisory lock).
  */
 export async function drainSearchOutbox({
-  loadDocuments,
+  loadDocuments = loadSearchDocuments,
   batchSize = 500,
   retryDelaySeconds = jobRetryDelaySeconds(),
 }: {
-  loadDocuments: DocumentLoader;
+  loadDocuments?: DocumentLoader;
   batchSize?: number;
   retryDelaySeconds?: number;
-}): Promise<DrainOutcome> {
+} = {}): Promise<DrainOutcome> {
   const outcome: DrainOutcome = { written: 0, deleted: 0, confirmed: 0, postponed: 0, error: null };
   const config = meilisearchConfig();
   if (!config) return outcome;

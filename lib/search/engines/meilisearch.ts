@@ -1,6 +1,7 @@
 import "server-only";
 import type { Meilisearch, MultiSearchQuery, SearchResponse } from "meilisearch";
 import { meiliIndex } from "@/lib/search/meili/client";
+import { loadReactionSummaries } from "@/lib/search/meili/documents";
 import { FACET_ATTRIBUTES, buildFilter, facetConditions, textPart, type MeiliFilter } from "@/lib/search/meili/filter";
 import type { IndexedDocument } from "@/lib/search/meili/index-settings";
 import {
@@ -47,7 +48,6 @@ const SORTS: Record<Exclude<SearchSort, "relevance">, string[]> = {
 /** What a reaction row needs beyond what the index holds (consensus and spread come from PostgreSQL). */
 export type ReactionSummaries = (reactionIds: number[]) => Promise<Map<number, Pick<ReactionHit, "consensus" | "spread">>>;
 
-const noSummaries: ReactionSummaries = async () => new Map();
 
 type Counted = SearchResponse<IndexedDocument> & { totalHits?: number };
 
@@ -65,7 +65,7 @@ export class MeilisearchEngine implements SearchEngine {
   private readonly indexUid: string;
 
   constructor(
-    private readonly summarise: ReactionSummaries = noSummaries,
+    private readonly summarise: ReactionSummaries = loadReactionSummaries,
     config?: Parameters<typeof meiliIndex>[0],
   ) {
     const { client, uid } = meiliIndex(config);
