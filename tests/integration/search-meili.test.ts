@@ -3,7 +3,7 @@ import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset, startNextVersion } from "@/lib/datasets/deposits";
 import { refitVersion } from "@/lib/datasets/refit";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
-import { MeilisearchEngine } from "@/lib/search/engines/meilisearch";
+import { MeilisearchEngine, meilisearchEngine } from "@/lib/search/engines/meilisearch";
 import { applyIndexSettings } from "@/lib/search/meili/client";
 import { reindexMeilisearch } from "@/lib/search/meili/reindex";
 import { drainSearchOutbox } from "@/lib/search/outbox";
@@ -11,6 +11,7 @@ import type { EngineQuery, ParsedQuery, SearchFilters } from "@/lib/search/types
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { startMeiliStandIn, type MeiliStandIn } from "../support/meili-stand-in";
 import { sql, uniqueEmail } from "./helpers";
+import { runSearchConformance } from "./search-conformance";
 
 // The Meilisearch engine, its settings and its outbox, against the local stand-in service
 // (tests/support/meili-stand-in.ts), with PostgreSQL's search documents as the reference.
@@ -46,6 +47,17 @@ afterAll(async () => {
 beforeEach(async () => {
   standIn.failTasks = false;
   await standIn.up();
+});
+
+// The same queries and the same expected hits as the PostgreSQL engine (search-postgres.test.ts):
+// the fixtures are published with MEILISEARCH_URL set, so they reach the index through the outbox.
+runSearchConformance("Meilisearch (local stand-in)", {
+  engine: () => meilisearchEngine,
+  sync: async () => {
+    await applyIndexSettings();
+    const drained = await drainSearchOutbox();
+    expect(drained.error).toBeNull();
+  },
 });
 
 const docs = () => standIn.indexes.get(process.env.MEILISEARCH_INDEX!)?.docs ?? new Map<string, Record<string, unknown>>();

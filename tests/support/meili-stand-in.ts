@@ -7,9 +7,10 @@
 //   GET /tasks/:uid (every write is applied at once and its task is "succeeded", or "failed" while
 //   failTasks is on) · POST /indexes/:uid/search · POST /multi-search
 // Search: q matched word by word (every word must be found in a searchable attribute, the last one
-// as a prefix; a word also matches through the index's synonyms), score = the earliest searchable
+// as a prefix; with Meilisearch's default typo tolerance: one edit from 5 letters, two from 9; a
+// word also matches through the index's synonyms), score = the earliest searchable
 // attribute each word is found in; filter in array form only (outer AND, inner OR) with conditions
-//   attr = value · attr IN [v, …] · attr >= n · attr <= n · attr IS EMPTY   (JSON literals);
+//   attr = value · attr IN [v, …] · attr >= n · attr <= n   (values as JSON literals);
 // sort (attr:asc|desc, before relevance, as the engine's ranking rules put "sort" first), facets
 // (facetDistribution over the filtered matches), offset/limit (estimatedTotalHits) or
 // page/hitsPerPage (totalHits), attributesToRetrieve and distinct. Anything else is refused with
@@ -100,15 +101,7 @@ function valuesOf(doc: Doc, attr: string): unknown[] {
 
 /** One condition of the subset documented above. */
 export function parseCondition(text: string): Condition {
-  let m = /^(\w+) IS EMPTY$/.exec(text);
-  if (m) {
-    const attr = m[1];
-    return (d) => {
-      const v = d[attr];
-      return v === "" || (Array.isArray(v) && v.length === 0) || (typeof v === "object" && v !== null && !Array.isArray(v) && !Object.keys(v).length);
-    };
-  }
-  m = /^(\w+) IN \[(.*)\]$/.exec(text);
+  let m = /^(\w+) IN \[(.*)\]$/.exec(text);
   if (m) {
     const attr = m[1];
     const wanted = (parseLiteral(`[${m[2]}]`) as unknown[]).map(String);
@@ -139,6 +132,25 @@ function parseFilter(filter: unknown): Condition {
   return (d) => all.every((c) => c(d));
 }
 
+/** Edits (insert, delete, substitute) between two words, at most `max` + 1 counted. */
+function editDistance(a: string, b: string, max: number): number {
+  if (Math.abs(a.length - b.length) > max) return max + 1;
+  let prev = Array.from({ length: b.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= a.length; i++) {
+    const row = [i];
+    for (let j = 1; j <= b.length; j++) row[j] = Math.min(prev[j] + 1, row[j - 1] + 1, prev[j - 1] + (a[i - 1] === b[j - 1] ? 0 : 1));
+    prev = row;
+  }
+  return prev[b.length];
+}
+
+/** Whether token t matches the query word w (exactly, within the typos its length allows, or as a prefix when last). */
+function wordMatches(w: string, t: string, prefix: boolean): boolean {
+  if (t === w || (prefix && t.startsWith(w))) return true;
+  const typos = w.length >= 9 ? 2 : w.length >= 5 ? 1 : 0;
+  return typos > 0 && editDistance(w, t, typos) <= typos;
+}
+
 /** Score of a document for q: undefined when a word is missing; lower = better (earlier attribute). */
 function scoreOf(doc: Doc, q: string, index: Index): number | undefined {
   const qWords = words(q);
@@ -148,7 +160,7 @@ function scoreOf(doc: Doc, q: string, index: Index): number | undefined {
   const attrWords = searchable.map((a) => valuesOf(doc, a).flatMap((v) => words(String(v))));
   const position = (phrase: string[], prefix: boolean) =>
     attrWords.findIndex((ws) =>
-      phrase.every((w, i) => ws.some((t) => (prefix && i === phrase.length - 1 ? t.startsWith(w) : t === w))),
+      phrase.every((w, i) => ws.some((t) => wordMatches(w, t, prefix && i === phrase.length - 1))),
     );
   let score = 0;
   for (const [i, w] of qWords.entries()) {

@@ -3,7 +3,7 @@ import type { Meilisearch, MultiSearchQuery, SearchResponse } from "meilisearch"
 import { meiliIndex } from "@/lib/search/meili/client";
 import { loadReactionSummaries } from "@/lib/search/meili/documents";
 import { FACET_ATTRIBUTES, buildFilter, facetConditions, textPart, type MeiliFilter } from "@/lib/search/meili/filter";
-import type { IndexedDocument } from "@/lib/search/meili/index-settings";
+import { MAX_TOTAL_HITS, type IndexedDocument } from "@/lib/search/meili/index-settings";
 import {
   SEARCH_FACETS,
   type DatasetHit,
@@ -51,103 +51,94 @@ export type ReactionSummaries = (reactionIds: number[]) => Promise<Map<number, P
 
 type Counted = SearchResponse<IndexedDocument> & { totalHits?: number };
 
+const emptyFacets = () => Object.fromEntries(SEARCH_FACETS.map((f) => [f, []])) as unknown as Record<SearchFacet, FacetCount[]>;
+
 /**
  * The Meilisearch engine. One multi-search per request: the page of hits; the count with every
  * filter (and the distribution of each facet the reader left alone); one query per facet the reader
- * narrowed, with every other facet's filter applied (Meilisearch counts with all filters applied);
- * for "flags", one more for datasets without any flag. The cursor is an offset into the sorted
- * matches (every sort ends with versionId, so the order is total); the reactions view asks for
- * `distinct: reactionId` and counts reactions from the reactionId distribution.
+ * narrowed, with every other facet's filter applied (Meilisearch counts with all filters applied).
+ * The cursor is an offset into the sorted matches (every sort ends with versionId, so the order is
+ * total and pages neither overlap nor skip). The reactions view, as the PostgreSQL engine orders it:
+ * by relevance or newest through `distinct: reactionId` (a reaction ranks as its best dataset),
+ * and by widest range or most points (over all its matching datasets, which Meilisearch cannot
+ * add up) by grouping every match here; reactions are counted from the reactionId distribution.
  */
 export class MeilisearchEngine implements SearchEngine {
   readonly name = "meilisearch" as const;
-  private readonly client: Meilisearch;
-  private readonly indexUid: string;
 
   constructor(
     private readonly summarise: ReactionSummaries = loadReactionSummaries,
-    config?: Parameters<typeof meiliIndex>[0],
-  ) {
-    const { client, uid } = meiliIndex(config);
-    this.client = client;
-    this.indexUid = uid;
-  }
+    private readonly config?: Parameters<typeof meiliIndex>[0],
+  ) {}
 
   async search(query: EngineQuery): Promise<SearchResult> {
     const { parsed, filters, view, limit } = query;
     const { q } = textPart(parsed);
+    // Text without a word in it ("%_\\") matches nothing (Meilisearch would take it as "everything").
+    if (parsed.kind === "text" && !/[\p{L}\p{N}]/u.test(parsed.text)) return { view, total: 0, hits: [], facets: emptyFacets(), nextAfter: null };
+    const { client, uid } = meiliIndex(this.config);
     const offset = parseOffset(query.after);
     const sort = query.sort === "relevance" ? (q ? undefined : SORTS.newest) : SORTS[query.sort];
     const narrowed = SEARCH_FACETS.filter((f) => facetConditions(f, filters).length > 0);
     const untouched = SEARCH_FACETS.filter((f) => !narrowed.includes(f));
-    const count = (filter: MeiliFilter, facets: string[]): MultiSearchQuery => ({
-      indexUid: this.indexUid,
-      q,
-      filter,
-      facets,
-      page: 1,
-      hitsPerPage: 0,
-      matchingStrategy: "all",
-    });
+    const base = { indexUid: uid, q, matchingStrategy: "all" } as const;
+    const count = (filter: MeiliFilter, facets: string[]): MultiSearchQuery => ({ ...base, filter, facets, page: 1, hitsPerPage: 0 });
     const full = buildFilter(parsed, filters);
-    const queries: MultiSearchQuery[] = [
-      {
-        indexUid: this.indexUid,
-        q,
-        filter: full,
-        sort,
-        offset,
-        limit,
-        matchingStrategy: "all",
-        attributesToRetrieve: view === "reactions" ? ["reactionId", "reactionKey", "equation"] : [...DATASET_HIT_FIELDS],
-        ...(view === "reactions" ? { distinct: "reactionId" } : {}),
-      },
+    const grouped = view === "reactions" && (query.sort === "widest" || query.sort === "points");
+    const pageQuery: MultiSearchQuery = grouped
+      ? { ...base, filter: full, attributesToRetrieve: ["reactionId", "reactionKey", "equation", "tMin", "tMax", "pointCount"], limit: MAX_TOTAL_HITS }
+      : view === "reactions"
+        ? { ...base, filter: full, sort, offset, limit, distinct: "reactionId", attributesToRetrieve: ["reactionId", "reactionKey", "equation"] }
+        : { ...base, filter: full, sort, offset, limit, attributesToRetrieve: [...DATASET_HIT_FIELDS] };
+    const queries = [
+      pageQuery,
       count(full, [...untouched.map((f) => FACET_ATTRIBUTES[f]), ...(view === "reactions" ? ["reactionId"] : [])]),
       ...narrowed.map((f) => count(buildFilter(parsed, filters, f), [FACET_ATTRIBUTES[f]])),
-      count([...buildFilter(parsed, filters, "flags"), "flags IS EMPTY"], []),
     ];
-    const { results } = await this.client.multiSearch({ queries });
-    const [page, total, ...rest] = results as unknown as Counted[];
-    const unflagged = rest.pop()!.totalHits ?? 0;
+    const { results } = await client.multiSearch({ queries });
+    const [page, total, ...perFacet] = results as unknown as Counted[];
     const distribution = (facet: SearchFacet): Record<string, number> => {
       const i = narrowed.indexOf(facet);
-      return (i >= 0 ? rest[i] : total).facetDistribution?.[FACET_ATTRIBUTES[facet]] ?? {};
+      return (i >= 0 ? perFacet[i] : total).facetDistribution?.[FACET_ATTRIBUTES[facet]] ?? {};
     };
-    const facets = Object.fromEntries(
-      SEARCH_FACETS.map((f) => [f, facetCounts(distribution(f), f === "flags" ? unflagged : 0)]),
-    ) as Record<SearchFacet, FacetCount[]>;
+    const facets = Object.fromEntries(SEARCH_FACETS.map((f) => [f, facetCounts(distribution(f))])) as Record<SearchFacet, FacetCount[]>;
+    const next = (shown: number, matches: number) => (offset + shown < matches ? String(offset + shown) : null);
 
     if (view === "datasets") {
       const matches = total.totalHits ?? 0;
       const hits = page.hits.map((h) => Object.fromEntries(DATASET_HIT_FIELDS.map((k) => [k, h[k]])) as DatasetHit);
-      return { view, total: matches, hits, facets, nextAfter: offset + hits.length < matches ? String(offset + hits.length) : null };
+      return { view, total: matches, hits, facets, nextAfter: next(hits.length, matches) };
     }
     const perReaction = total.facetDistribution?.reactionId ?? {};
-    const reactionIds = page.hits.map((h) => h.reactionId);
-    const [ranges, summaries] = await Promise.all([this.temperatureRanges(full, q, reactionIds), this.summarise(reactionIds)]);
-    const hits: ReactionHit[] = page.hits.map((h) => ({
+    const matches = Object.keys(perReaction).length;
+    const rows = grouped ? groupByReaction(page.hits, query.sort as "widest" | "points").slice(offset, offset + limit) : page.hits;
+    const reactionIds = rows.map((h) => h.reactionId);
+    const [ranges, summaries] = await Promise.all([
+      grouped ? new Map(rows.map((r) => [r.reactionId, r])) : this.temperatureRanges(client, uid, full, q, reactionIds),
+      this.summarise(reactionIds),
+    ]);
+    const hits: ReactionHit[] = rows.map((h) => ({
       reactionId: h.reactionId,
       reactionKey: h.reactionKey,
       equation: h.equation,
       datasetCount: perReaction[String(h.reactionId)] ?? 0,
-      tMin: ranges.get(h.reactionId)?.tMin ?? 0,
-      tMax: ranges.get(h.reactionId)?.tMax ?? 0,
+      tMin: ranges.get(h.reactionId)?.tMin ?? h.tMin,
+      tMax: ranges.get(h.reactionId)?.tMax ?? h.tMax,
       consensus: summaries.get(h.reactionId)?.consensus ?? null,
       spread: summaries.get(h.reactionId)?.spread ?? null,
     }));
-    const matches = Object.keys(perReaction).length;
-    return { view, total: matches, hits, facets, nextAfter: offset + hits.length < matches ? String(offset + hits.length) : null };
+    return { view, total: matches, hits, facets, nextAfter: next(hits.length, matches) };
   }
 
   /** The temperature range each reaction's matching datasets cover together (a second query, over this page's reactions). */
-  private async temperatureRanges(filter: MeiliFilter, q: string, reactionIds: number[]) {
+  private async temperatureRanges(client: Meilisearch, uid: string, filter: MeiliFilter, q: string, reactionIds: number[]) {
     const ranges = new Map<number, { tMin: number; tMax: number }>();
     if (!reactionIds.length) return ranges;
-    const res = await this.client.index<IndexedDocument>(this.indexUid).search(q, {
+    const res = await client.index<IndexedDocument>(uid).search(q, {
       filter: [...filter, `reactionId IN [${reactionIds.join(", ")}]`],
       attributesToRetrieve: ["reactionId", "tMin", "tMax"],
       matchingStrategy: "all",
-      limit: 10_000,
+      limit: MAX_TOTAL_HITS,
     });
     for (const h of res.hits) {
       const r = ranges.get(h.reactionId);
@@ -157,15 +148,38 @@ export class MeilisearchEngine implements SearchEngine {
   }
 }
 
+/** The engine of the configuration (MEILISEARCH_URL, MEILISEARCH_API_KEY, MEILISEARCH_INDEX), read at each search. */
+export const meilisearchEngine = new MeilisearchEngine();
+
+type Matched = Pick<IndexedDocument, "reactionId" | "reactionKey" | "equation" | "tMin" | "tMax" | "pointCount">;
+
+/** Reactions of all matches, ordered as the PostgreSQL engine orders them: widest combined range, or most points in all; then reactionId. */
+function groupByReaction(matches: Matched[], sort: "widest" | "points") {
+  const groups = new Map<number, Matched>();
+  for (const m of matches) {
+    const g = groups.get(m.reactionId);
+    groups.set(
+      m.reactionId,
+      g ? { ...g, tMin: Math.min(g.tMin, m.tMin), tMax: Math.max(g.tMax, m.tMax), pointCount: g.pointCount + m.pointCount } : { ...m },
+    );
+  }
+  const key = (g: Matched) => (sort === "widest" ? g.tMax - g.tMin : g.pointCount);
+  return [...groups.values()].sort((x, y) => key(y) - key(x) || y.reactionId - x.reactionId);
+}
+
 /** The cursor's offset; anything else than a whole number ≥ 0 starts at the top. */
 function parseOffset(after: string | null): number {
   const n = after === null ? 0 : Number(after);
   return Number.isSafeInteger(n) && n >= 0 ? n : 0;
 }
 
-/** Counts largest first, then by value; "none" (datasets without a flag) joins the flags when there are any. */
-function facetCounts(distribution: Record<string, number>, none: number): FacetCount[] {
-  const counts = Object.entries(distribution).map(([value, count]) => ({ value, count }));
-  if (none > 0) counts.push({ value: "none", count: none });
-  return counts.filter((c) => c.count > 0).sort((x, y) => y.count - x.count || x.value.localeCompare(y.value));
+/** Most values listed per facet, as the PostgreSQL engine lists them: largest count first, then by value. */
+const FACET_VALUES = 50;
+
+function facetCounts(distribution: Record<string, number>): FacetCount[] {
+  return Object.entries(distribution)
+    .map(([value, count]) => ({ value, count }))
+    .filter((c) => c.count > 0)
+    .sort((x, y) => y.count - x.count || (x.value < y.value ? -1 : x.value > y.value ? 1 : 0))
+    .slice(0, FACET_VALUES);
 }

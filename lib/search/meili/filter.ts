@@ -1,6 +1,6 @@
 // PURE: an EngineQuery's text and filters as a Meilisearch filter. The filter is always in array
 // form (outer array = AND, an inner array = OR of conditions), and every condition is one of
-//   attr = value · attr IN [v, …] · attr >= number · attr <= number · attr IS EMPTY
+//   attr = value · attr IN [v, …] · attr >= number · attr <= number
 // (values are JSON literals: quoted strings, numbers, true). tests/support/meili-stand-in.ts
 // parses exactly this subset.
 import { SEARCH_FACETS, type ParsedQuery, type SearchFacet, type SearchFilters } from "@/lib/search/types";
@@ -32,12 +32,11 @@ export function textPart(parsed: ParsedQuery): { q: string; filter: MeiliFilter 
     case "species":
       return { q: "", filter: [[anyOf("reactantKeys", parsed.inchiKeys), anyOf("productKeys", parsed.inchiKeys)]] };
     case "reaction": {
+      // Each term among its side's keys; other reactants and products may be there too.
       const filter: MeiliFilter = [
         ...parsed.reactants.map((keys) => anyOf("reactantKeys", keys)),
         ...parsed.products.map((keys) => anyOf("productKeys", keys)),
       ];
-      // Without "*", the terms written are all the reactants there are.
-      if (!parsed.otherReactants && parsed.reactants.length) filter.push(`reactantCount = ${parsed.reactants.length}`);
       return { q: "", filter };
     }
     case "reactionKey":
@@ -53,11 +52,6 @@ export function facetConditions(facet: SearchFacet, filters: SearchFilters): Mei
       ...(filters.yearMax !== null ? [`sourceYear <= ${filters.yearMax}`] : []),
     ];
   }
-  if (facet === "flags") {
-    const named = filters.flags.filter((f) => f !== "none");
-    const or = [...(named.length ? [anyOf("flags", named)] : []), ...(filters.flags.includes("none") ? ["flags IS EMPTY"] : [])];
-    return or.length === 0 ? [] : [or];
-  }
   const values = filters[facet];
   return values.length ? [anyOf(FACET_ATTRIBUTES[facet], values)] : [];
 }
@@ -66,10 +60,9 @@ export function facetConditions(facet: SearchFacet, filters: SearchFilters): Mei
 function windowConditions(filters: SearchFilters): string[] {
   const out: string[] = [];
   const { tMin, tMax, pMin, pMax } = filters;
-  if (filters.tCovers) {
-    if (tMin !== null) out.push(`tMin <= ${tMin}`);
-    if (tMax !== null) out.push(`tMax >= ${tMax}`);
-  } else {
+  // "Covers" needs both ends of the window; with one open end it is an overlap.
+  if (filters.tCovers && tMin !== null && tMax !== null) out.push(`tMin <= ${tMin}`, `tMax >= ${tMax}`);
+  else {
     if (tMin !== null) out.push(`tMax >= ${tMin}`);
     if (tMax !== null) out.push(`tMin <= ${tMax}`);
   }

@@ -1,14 +1,12 @@
 // PURE: what the Meilisearch index holds and how it is set up (applied by `npm run search:setup`).
 import type { SearchDocument } from "@/lib/search/types";
 
-/** A search document as indexed: the contract's fields plus three derived ones the engine filters and sorts on. */
+/** A search document as indexed: the contract's fields plus two derived ones the engine sorts on. */
 export type IndexedDocument = SearchDocument & {
   /** Publication time in seconds since 1970 (ISO strings do not sort as numbers). */
   publishedTs: number;
   /** Width of the measured temperature range, K ("widest" sort). */
   tSpan: number;
-  /** Reactant terms of the reaction ("OH + CH4" without "*" asks for exactly two). */
-  reactantCount: number;
 };
 
 export function toIndexedDocument(doc: SearchDocument): IndexedDocument {
@@ -16,7 +14,6 @@ export function toIndexedDocument(doc: SearchDocument): IndexedDocument {
     ...doc,
     publishedTs: Math.floor(Date.parse(doc.publishedAt) / 1000),
     tSpan: doc.tMax - doc.tMin,
-    reactantCount: doc.reactantKeys.length,
   };
 }
 
@@ -48,7 +45,6 @@ export function indexSettings(synonyms: Record<string, string[]>) {
       "reactionKey",
       "reactantKeys",
       "productKeys",
-      "reactantCount",
       "reactionClass",
       "phase",
       "methodCategory",
