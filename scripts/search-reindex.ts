@@ -9,7 +9,10 @@ import { rebuildSearchDocuments } from "@/lib/search/documents";
 import { reindexMeilisearch } from "@/lib/search/meili/reindex";
 
 const engine = searchEngineName();
-const bar = new SingleBar({ format: `  {bar} {value}/{total} ${engine === "postgres" ? "versions" : "documents"}`, hideCursor: true }, Presets.shades_classic);
+const bar = new SingleBar(
+  { format: `  {bar} {value}/{total} ${engine === "postgres" ? "versions" : "documents"}`, hideCursor: true },
+  Presets.shades_classic,
+);
 let started = false;
 const onProgress = (done: number, total: number) => {
   if (!started) bar.start(total, 0);

@@ -7,7 +7,8 @@ import { MeilisearchEngine, meilisearchEngine } from "@/lib/search/engines/meili
 import { applyIndexSettings } from "@/lib/search/meili/client";
 import { reindexMeilisearch } from "@/lib/search/meili/reindex";
 import { drainSearchOutbox } from "@/lib/search/outbox";
-import type { EngineQuery, ParsedQuery, SearchFilters } from "@/lib/search/types";
+import { EMPTY_FILTERS } from "@/lib/search/params";
+import type { EngineQuery, ParsedQuery } from "@/lib/search/types";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { startMeiliStandIn, type MeiliStandIn } from "../support/meili-stand-in";
 import { sql, uniqueEmail } from "./helpers";
@@ -64,7 +65,9 @@ const docs = () => standIn.indexes.get(process.env.MEILISEARCH_INDEX!)?.docs ?? 
 const outboxRows = async (versionId?: number) =>
   versionId === undefined
     ? await sql<{ version_id: number; attempts: number }[]>`select version_id, attempts from search_outbox order by id`
-    : await sql<{ version_id: number; attempts: number }[]>`select version_id, attempts from search_outbox where version_id = ${versionId} order by id`;
+    : await sql<
+        { version_id: number; attempts: number }[]
+      >`select version_id, attempts from search_outbox where version_id = ${versionId} order by id`;
 
 async function publish(title: string, document: Record<string, unknown> = {}) {
   const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, ...document, title } });
@@ -73,22 +76,7 @@ async function publish(title: string, document: Record<string, unknown> = {}) {
   return v;
 }
 
-const noFilters: SearchFilters = {
-  reactionClass: [],
-  phase: [],
-  methodCategory: [],
-  bathGas: [],
-  licence: [],
-  flags: [],
-  creator: [],
-  tMin: null,
-  tMax: null,
-  tCovers: false,
-  pMin: null,
-  pMax: null,
-  yearMin: null,
-  yearMax: null,
-};
+const noFilters = EMPTY_FILTERS;
 const query = (parsed: ParsedQuery, more: Partial<EngineQuery> = {}): EngineQuery => ({
   parsed,
   view: "datasets",
@@ -241,9 +229,13 @@ describe("the Meilisearch engine", () => {
 
     // Temperature window: overlap and cover.
     const { t_min, t_max } = listed[0];
-    const overlap = await engine.search(query({ kind: "all" }, { filters: { ...noFilters, tMin: t_max, tMax: t_max + 1000 }, limit: 1000 }));
+    const overlap = await engine.search(
+      query({ kind: "all" }, { filters: { ...noFilters, tMin: t_max, tMax: t_max + 1000 }, limit: 1000 }),
+    );
     expect(overlap.total).toBe(listed.filter((r) => r.t_max >= t_max && r.t_min <= t_max + 1000).length);
-    const covers = await engine.search(query({ kind: "all" }, { filters: { ...noFilters, tMin: t_min, tMax: t_max, tCovers: true }, limit: 1000 }));
+    const covers = await engine.search(
+      query({ kind: "all" }, { filters: { ...noFilters, tMin: t_min, tMax: t_max, tCovers: true }, limit: 1000 }),
+    );
     expect(covers.total).toBe(listed.filter((r) => r.t_min <= t_min && r.t_max >= t_max).length);
 
     // Live counts: a facet's counts apply every other facet's filter but not its own.

@@ -159,9 +159,7 @@ function scoreOf(doc: Doc, q: string, index: Index): number | undefined {
   const synonyms = (index.settings.synonyms as Record<string, string[]> | undefined) ?? {};
   const attrWords = searchable.map((a) => valuesOf(doc, a).flatMap((v) => words(String(v))));
   const position = (phrase: string[], prefix: boolean) =>
-    attrWords.findIndex((ws) =>
-      phrase.every((w, i) => ws.some((t) => wordMatches(w, t, prefix && i === phrase.length - 1))),
-    );
+    attrWords.findIndex((ws) => phrase.every((w, i) => ws.some((t) => wordMatches(w, t, prefix && i === phrase.length - 1))));
   let score = 0;
   for (const [i, w] of qWords.entries()) {
     const last = i === qWords.length - 1;
@@ -222,7 +220,14 @@ function search(index: Index, params: Record<string, unknown>) {
     const page = Number(params.page ?? 1);
     const hitsPerPage = Number(params.hitsPerPage ?? 20);
     const hits = matches.slice((page - 1) * hitsPerPage, page * hitsPerPage).map(pick);
-    return { ...base, hits, page, hitsPerPage, totalHits: matches.length, totalPages: hitsPerPage ? Math.ceil(matches.length / hitsPerPage) : 0 };
+    return {
+      ...base,
+      hits,
+      page,
+      hitsPerPage,
+      totalHits: matches.length,
+      totalPages: hitsPerPage ? Math.ceil(matches.length / hitsPerPage) : 0,
+    };
   }
   const offset = Number(params.offset ?? 0);
   const limit = Number(params.limit ?? 20);
@@ -285,7 +290,10 @@ export async function startMeiliStandIn(): Promise<MeiliStandIn> {
     }
     if (method === "POST" && path === "/multi-search") {
       const { queries } = body as { queries: Record<string, unknown>[] };
-      return { status: 200, body: { results: queries.map((qy) => ({ indexUid: qy.indexUid, ...search(existing(String(qy.indexUid)), qy) })) } };
+      return {
+        status: 200,
+        body: { results: queries.map((qy) => ({ indexUid: qy.indexUid, ...search(existing(String(qy.indexUid)), qy) })) },
+      };
     }
     m = /^\/indexes\/([\w-]+)(\/.*)?$/.exec(path);
     if (!m) throw new BadRequest(`stand-in: no route for ${method} ${path}`, "not_found", 404);

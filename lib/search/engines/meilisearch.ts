@@ -48,7 +48,6 @@ const SORTS: Record<Exclude<SearchSort, "relevance">, string[]> = {
 /** What a reaction row needs beyond what the index holds (consensus and spread come from PostgreSQL). */
 export type ReactionSummaries = (reactionIds: number[]) => Promise<Map<number, Pick<ReactionHit, "consensus" | "spread">>>;
 
-
 type Counted = SearchResponse<IndexedDocument> & { totalHits?: number };
 
 const emptyFacets = () => Object.fromEntries(SEARCH_FACETS.map((f) => [f, []])) as unknown as Record<SearchFacet, FacetCount[]>;
@@ -75,7 +74,8 @@ export class MeilisearchEngine implements SearchEngine {
     const { parsed, filters, view, limit } = query;
     const { q } = textPart(parsed);
     // Text without a word in it ("%_\\") matches nothing (Meilisearch would take it as "everything").
-    if (parsed.kind === "text" && !/[\p{L}\p{N}]/u.test(parsed.text)) return { view, total: 0, hits: [], facets: emptyFacets(), nextAfter: null };
+    if (parsed.kind === "text" && !/[\p{L}\p{N}]/u.test(parsed.text))
+      return { view, total: 0, hits: [], facets: emptyFacets(), nextAfter: null };
     const { client, uid } = meiliIndex(this.config);
     const offset = parseOffset(query.after);
     const sort = query.sort === "relevance" ? (q ? undefined : SORTS.newest) : SORTS[query.sort];
@@ -86,9 +86,22 @@ export class MeilisearchEngine implements SearchEngine {
     const full = buildFilter(parsed, filters);
     const grouped = view === "reactions" && (query.sort === "widest" || query.sort === "points");
     const pageQuery: MultiSearchQuery = grouped
-      ? { ...base, filter: full, attributesToRetrieve: ["reactionId", "reactionKey", "equation", "tMin", "tMax", "pointCount"], limit: MAX_TOTAL_HITS }
+      ? {
+          ...base,
+          filter: full,
+          attributesToRetrieve: ["reactionId", "reactionKey", "equation", "tMin", "tMax", "pointCount"],
+          limit: MAX_TOTAL_HITS,
+        }
       : view === "reactions"
-        ? { ...base, filter: full, sort, offset, limit, distinct: "reactionId", attributesToRetrieve: ["reactionId", "reactionKey", "equation"] }
+        ? {
+            ...base,
+            filter: full,
+            sort,
+            offset,
+            limit,
+            distinct: "reactionId",
+            attributesToRetrieve: ["reactionId", "reactionKey", "equation"],
+          }
         : { ...base, filter: full, sort, offset, limit, attributesToRetrieve: [...DATASET_HIT_FIELDS] };
     const queries = [
       pageQuery,

@@ -18,7 +18,8 @@ export function meiliIndex(config = meilisearchConfig()) {
  */
 export async function waitForSuccess(client: Meilisearch, enqueued: EnqueuedTask | Promise<EnqueuedTask>, timeout = 60_000): Promise<Task> {
   const task = await client.tasks.waitForTask((await enqueued).taskUid, { timeout, interval: 50 });
-  if (task.status !== "succeeded") throw new Error(`Meilisearch task ${task.uid} (${task.type}) ${task.status}: ${task.error?.message ?? "no reason given"}`);
+  if (task.status !== "succeeded")
+    throw new Error(`Meilisearch task ${task.uid} (${task.type}) ${task.status}: ${task.error?.message ?? "no reason given"}`);
   return task;
 }
 

@@ -63,7 +63,11 @@ export async function loadSearchDocuments(versionIds: number[]): Promise<SearchD
 export async function loadReactionSummaries(reactionIds: number[]): Promise<Map<number, Pick<ReactionHit, "consensus" | "spread">>> {
   if (!reactionIds.length) return new Map();
   const rows = await getDb()
-    .select({ reactionId: searchReactionSummaries.reactionId, consensus: searchReactionSummaries.consensus, spread: searchReactionSummaries.spread })
+    .select({
+      reactionId: searchReactionSummaries.reactionId,
+      consensus: searchReactionSummaries.consensus,
+      spread: searchReactionSummaries.spread,
+    })
     .from(searchReactionSummaries)
     .where(inArray(searchReactionSummaries.reactionId, reactionIds));
   return new Map(rows.map((r) => [r.reactionId, { consensus: r.consensus ?? null, spread: r.spread }]));

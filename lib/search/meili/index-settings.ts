@@ -59,7 +59,9 @@ export function indexSettings(synonyms: Record<string, string[]>) {
       "pMax",
     ],
     sortableAttributes: ["publishedTs", "tSpan", "pointCount", "versionId"],
-    rankingRules: ["words", "typo", "proximity", "attribute", "sort", "exactness"],
+    // "sort" first: a chosen order (newest, widest, points) decides, as in the PostgreSQL engine;
+    // relevance is asked with no sort, and then the text rules decide.
+    rankingRules: ["sort", "words", "typo", "proximity", "attribute", "exactness"],
     synonyms,
     faceting: { maxValuesPerFacet: MAX_FACET_VALUES },
     pagination: { maxTotalHits: MAX_TOTAL_HITS },
