@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { buildFilter, facetConditions, textPart } from "@/lib/search/meili/filter";
 import { indexSettings, synonymsFromNames, toIndexedDocument } from "@/lib/search/meili/index-settings";
+import { configProblems, meilisearchConfig, searchEngineName } from "@/lib/config";
 import { EMPTY_FILTERS } from "@/lib/search/params";
 import type { SearchDocument } from "@/lib/search/types";
 import { parseCondition } from "../../support/meili-stand-in";
@@ -70,5 +71,24 @@ describe("Meilisearch index settings", () => {
   it("indexes the publication time as seconds and the width of the range", () => {
     const doc = { publishedAt: "2026-01-02T03:04:05.000Z", tMin: 250, tMax: 400 } as SearchDocument;
     expect(toIndexedDocument(doc)).toMatchObject({ publishedTs: 1767323045, tSpan: 150 });
+  });
+});
+
+describe("Meilisearch configuration", () => {
+  it("is off unless MEILISEARCH_URL is set; SEARCH_ENGINE=meilisearch without it is a configuration problem", () => {
+    const saved = { ...process.env };
+    try {
+      delete process.env.MEILISEARCH_URL;
+      delete process.env.SEARCH_ENGINE;
+      expect(meilisearchConfig()).toBeNull();
+      expect(searchEngineName()).toBe("postgres");
+      expect(configProblems({ SEARCH_ENGINE: "meilisearch" })).toEqual(["SEARCH_ENGINE is meilisearch but MEILISEARCH_URL is not set"]);
+      Object.assign(process.env, { MEILISEARCH_URL: "http://127.0.0.1:7700/", MEILISEARCH_API_KEY: "k" });
+      expect(meilisearchConfig()).toEqual({ host: "http://127.0.0.1:7700", apiKey: "k", index: "datasets" });
+      process.env.SEARCH_ENGINE = "postgres";
+      expect(searchEngineName()).toBe("postgres");
+    } finally {
+      process.env = saved;
+    }
   });
 });
