@@ -3,6 +3,7 @@ import { GET as searchGET } from "@/app/api/v1/search/route";
 import { GET as suggestGET } from "@/app/api/v1/search/suggest/route";
 import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset } from "@/lib/datasets/deposits";
+import { refitVersion } from "@/lib/datasets/refit";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { postgresEngine } from "@/lib/search/engines/postgres";
 import { createUser } from "@/lib/users/queries";
@@ -45,6 +46,28 @@ describe("search documents in the transaction of the change", () => {
     expect(await docs()).toEqual([{ latest: true, retracted: false }]);
     await applyTransition({ versionId: v.id, actorId: curator.id, transition: "retract", reason: "Withdrawn by its authors." });
     expect(await docs()).toEqual([{ latest: true, retracted: true }]);
+  });
+
+  it("are rewritten by a re-fit (new Ea, A and flags) in its transaction", async () => {
+    const owner = await createUser({ email: uniqueEmail("sd-refit"), name: "Refit Owner", passwordHash: "x", verified: true });
+    const curator = await createUser({
+      email: uniqueEmail("sd-refitc"),
+      name: "Refit Curator",
+      passwordHash: "x",
+      role: "curator",
+      verified: true,
+    });
+    const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Search document re-fit test" } });
+    // Fitted by an older engine, then published: the re-fit appends the current engine's analysis.
+    await sql`update version_analyses set engine_version = 'kinetics-0' where version_id = ${v.id}`;
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
+    const [before] = await sql<{ ea: number }[]>`select ea from search_documents where version_id = ${v.id}`;
+    await sql`update search_documents set ea = 0, flags = '{curved}' where version_id = ${v.id}`;
+    expect(await refitVersion({ versionId: v.id })).toBe("refitted");
+    const [after] = await sql<{ ea: number; flags: string[] }[]>`select ea, flags from search_documents where version_id = ${v.id}`;
+    expect(after.ea).toBeCloseTo(before.ea, 6);
+    expect(after.flags).not.toContain("curved");
   });
 
   it("are refused by the database for a version that is not public", async () => {

@@ -26,7 +26,9 @@ import {
  * - Filters: values of one facet are or-ed, facets and-ed; temperature window overlap (or cover),
  *   pressure window overlap, source years.
  * - Sorts, each with version_id as the tiebreak: relevance (ts_rank for text, newest otherwise),
- *   newest, widest range, most points; keyset pagination on (sort key, id).
+ *   newest, widest range, most points; keyset pagination on (sort key, id). "desc nulls last" as
+ *   the partial indexes are written (drizzle/0022): with plain "desc" (nulls first) the planner
+ *   cannot walk them and sorts every match instead.
  * - Facet counts: each facet counted over the matches with every other facet's filter applied.
  */
 
@@ -219,7 +221,7 @@ async function datasetHits(base: SQL, query: EngineQuery, after: { key: string; 
       SEARCH_FACETS.map((f) => facetFilter(f, query.filters)),
       sql` and `,
     )} ${keyset}
-    order by ${key} desc, d.version_id desc
+    order by ${key} desc nulls last, d.version_id desc nulls last
     limit ${query.limit + 1}`);
   const page = rows.slice(0, query.limit);
   const hits: DatasetHit[] = page.map((r) => ({
