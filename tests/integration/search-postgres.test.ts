@@ -2,11 +2,11 @@ import { describe, expect, it } from "vitest";
 import { GET as searchGET } from "@/app/api/v1/search/route";
 import { GET as suggestGET } from "@/app/api/v1/search/suggest/route";
 import { applyTransition } from "@/lib/curation/transitions";
-import { depositNewDataset } from "@/lib/datasets/deposits";
+import { depositNewDataset, startNextVersion } from "@/lib/datasets/deposits";
 import { refitVersion } from "@/lib/datasets/refit";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { postgresEngine } from "@/lib/search/engines/postgres";
-import { createUser } from "@/lib/users/queries";
+import { createApiToken, createUser } from "@/lib/users/queries";
 import { sql, uniqueEmail } from "./helpers";
 import { runSearchConformance } from "./search-conformance";
 
@@ -46,6 +46,35 @@ describe("search documents in the transaction of the change", () => {
     expect(await docs()).toEqual([{ latest: true, retracted: false }]);
     await applyTransition({ versionId: v.id, actorId: curator.id, transition: "retract", reason: "Withdrawn by its authors." });
     expect(await docs()).toEqual([{ latest: true, retracted: true }]);
+  });
+
+  it("list only the newest public version of a dataset: publishing v2 unlists v1 in the same transaction", async () => {
+    const owner = await createUser({ email: uniqueEmail("sd-v2"), name: "Second Owner", passwordHash: "x", verified: true });
+    const curator = await createUser({
+      email: uniqueEmail("sd-v2c"),
+      name: "Second Curator",
+      passwordHash: "x",
+      role: "curator",
+      verified: true,
+    });
+    const v1 = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Search latest test" } });
+    await applyTransition({ versionId: v1.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v1.id, actorId: curator.id, transition: "accept", reason: "Fine." });
+    const v2 = await startNextVersion({ actor: owner, versionId: v1.id });
+    const latest = async () =>
+      (
+        await sql<
+          { version_id: number; latest: boolean }[]
+        >`select version_id, latest from search_documents where version_id in (${v1.id}, ${v2.id}) order by version_id`
+      ).map((r) => [r.version_id, r.latest]);
+    // A draft of the next version changes nothing.
+    expect(await latest()).toEqual([[v1.id, true]]);
+    await applyTransition({ versionId: v2.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v2.id, actorId: curator.id, transition: "accept", reason: "Second version fine." });
+    expect(await latest()).toEqual([
+      [v1.id, false],
+      [v2.id, true],
+    ]);
   });
 
   it("are rewritten by a re-fit (new Ea, A and flags) in its transaction", async () => {
@@ -135,6 +164,90 @@ describe("GET /api/v1/search", () => {
     expect(first.nextCursor).toBeTruthy();
     const res = await call(searchGET, `/api/v1/search?limit=1&sort=points&cursor=${encodeURIComponent(first.nextCursor)}`);
     expect(res.status).toBe(400);
+  });
+});
+
+describe("visibility per role", () => {
+  it("no caller — anonymous, the owner, a curator, an admin — finds a draft, a submission or a returned or declined version", async () => {
+    const mk = (tag: string, role: "researcher" | "curator" | "admin") =>
+      createUser({ email: uniqueEmail(tag), name: `Vis ${tag}`, passwordHash: "x", role, verified: true });
+    const [owner, curator, admin] = await Promise.all([mk("vis-owner", "researcher"), mk("vis-cur", "curator"), mk("vis-admin", "admin")]);
+    // A reaction of its own (cyclononane), never published by anyone.
+    const document = {
+      ...EXAMPLE_DEPOSIT,
+      reaction: {
+        ...EXAMPLE_DEPOSIT.reaction,
+        reactants: [
+          { name: "hydroxyl", smiles: "[OH]", coefficient: 1 },
+          { name: "cyclononane", smiles: "C1CCCCCCCC1", coefficient: 1 },
+        ],
+        products: [
+          { name: "water", smiles: "O", coefficient: 1 },
+          { name: "cyclononyl", smiles: "[CH]1CCCCCCCC1", coefficient: 1 },
+        ],
+      },
+    };
+    const steps: [string, ["submit" | "start_review" | "return" | "decline", "owner" | "curator"][]][] = [
+      ["draft", []],
+      ["submitted", [["submit", "owner"]]],
+      [
+        "in review",
+        [
+          ["submit", "owner"],
+          ["start_review", "curator"],
+        ],
+      ],
+      [
+        "returned",
+        [
+          ["submit", "owner"],
+          ["start_review", "curator"],
+          ["return", "curator"],
+        ],
+      ],
+      [
+        "declined",
+        [
+          ["submit", "owner"],
+          ["start_review", "curator"],
+          ["decline", "curator"],
+        ],
+      ],
+    ];
+    for (const [title, path] of steps) {
+      const v = await depositNewDataset({ actor: owner, document: { ...document, title: `Visibility ${title}` } });
+      for (const [transition, who] of path)
+        await applyTransition({
+          versionId: v.id,
+          actorId: (who === "owner" ? owner : curator).id,
+          transition,
+          reason: "A reason for the record.",
+        });
+    }
+    const tokens = await Promise.all(
+      [owner, curator, admin].map(
+        async (u) =>
+          (
+            await createApiToken({
+              userId: u.id,
+              name: "vis",
+              scopes: ["read", "deposit", ...(u.role === "admin" ? (["admin"] as const) : [])],
+            })
+          ).secret,
+      ),
+    );
+    for (const secret of [null, ...tokens]) {
+      const headers: Record<string, string> = secret ? { authorization: `Bearer ${secret}` } : {};
+      for (const q of ["C1CCCCCCCC1", "cyclononane", "Visibility", "OH + C1CCCCCCCC1"]) {
+        const res = await searchGET(new Request(`http://127.0.0.1/api/v1/search?q=${encodeURIComponent(q)}`, { headers }), {
+          params: Promise.resolve({}),
+        });
+        expect(res.status).toBe(200);
+        const body = await res.json();
+        expect((body.hits as { title: string }[]).filter((h) => h.title.startsWith("Visibility"))).toEqual([]);
+        if (q !== "Visibility") expect(body.total).toBe(0);
+      }
+    }
   });
 });
 
