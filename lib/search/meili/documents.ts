@@ -70,5 +70,5 @@ export async function loadReactionSummaries(reactionIds: number[]): Promise<Map<
     })
     .from(searchReactionSummaries)
     .where(inArray(searchReactionSummaries.reactionId, reactionIds));
-  return new Map(rows.map((r) => [r.reactionId, { consensus: r.consensus ?? null, spread: r.spread }]));
+  return new Map(rows.map((r) => [r.reactionId, { consensus: (r.consensus as ReactionHit["consensus"]) ?? null, spread: r.spread }]));
 }
