@@ -9,3 +9,4 @@ export * from "./datasets";
 export * from "./idempotency";
 export * from "./consensus";
 export * from "./search";
+export * from "./search-outbox";

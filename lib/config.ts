@@ -77,6 +77,7 @@ const variables = {
   MEILISEARCH_URL: { schema: httpUrl },
   MEILISEARCH_API_KEY: { schema: z.string(), secret: true },
   SEARCH_CURSOR_SECRET: { schema: z.string().min(16, "must be at least 16 characters"), secret: true },
+  MEILISEARCH_INDEX: { schema: z.string().regex(/^[A-Za-z0-9_-]{1,400}$/, "must be letters, digits, - or _") },
   ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
 } satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
 
@@ -116,7 +117,10 @@ function read<N extends Name>(name: N): Value<N> | undefined {
 
 /** Every problem with the configuration in `env`, one line each; empty when it is valid. */
 export function configProblems(env: Env = process.env): string[] {
-  return (Object.keys(variables) as Name[]).map((name) => problemOf(name, env)).filter((p): p is string => p !== null);
+  const problems = (Object.keys(variables) as Name[]).map((name) => problemOf(name, env)).filter((p): p is string => p !== null);
+  if (rawValue("SEARCH_ENGINE", env) === "meilisearch" && rawValue("MEILISEARCH_URL", env) === undefined)
+    problems.push("SEARCH_ENGINE is meilisearch but MEILISEARCH_URL is not set");
+  return problems;
 }
 
 /** Start-up check: throws one ConfigError listing every bad variable. */
@@ -308,4 +312,13 @@ export function searchCursorSecret(): string {
   if (configured) return configured;
   processCursorSecret ??= randomBytes(32).toString("hex");
   return processCursorSecret;
+}
+
+/**
+ * The Meilisearch service and index, or null when none is configured. When it is set, every change
+ * to the searchable versions also goes into the outbox that the search-sync job drains into it.
+ */
+export function meilisearchConfig(): { host: string; apiKey: string | undefined; index: string } | null {
+  const host = meilisearchUrl();
+  return host ? { host, apiKey: meilisearchApiKey(), index: read("MEILISEARCH_INDEX") ?? "datasets" } : null;
 }

@@ -4,8 +4,16 @@ import type { Transaction } from "@/db/client";
 import { databaseUrl, jobRetryDelaySeconds } from "@/lib/config";
 
 /** Queue names used across the app. */
-export const queues = ["mail", "register-identifier", "refit"] as const;
+export const queues = ["mail", "register-identifier", "refit", "search-sync"] as const;
 export type QueueName = (typeof queues)[number];
+
+/**
+ * Queues that differ from the default policy. search-sync drains the search outbox, whose rows keep
+ * their own back-off: at most one job waits ("short"), and a failed drain is not retried by pg-boss.
+ */
+const queueOptions: Partial<Record<QueueName, Partial<PgBoss.Queue>>> = {
+  "search-sync": { policy: "short", retryLimit: 0 },
+};
 
 /** Default retry policy: a relay or DOI agency that is down delays the work, never loses it. */
 export const retryPolicy = {
@@ -56,7 +64,7 @@ export async function installQueues(connectionString = databaseUrl()): Promise<v
   const boss = newBoss({ connectionString, supervise: false, schedule: false, migrate: true, max: 2 });
   await boss.start();
   for (const name of queues) {
-    if (!(await boss.getQueue(name))) await boss.createQueue(name, { name, ...retryPolicy });
+    if (!(await boss.getQueue(name))) await boss.createQueue(name, { name, ...retryPolicy, ...queueOptions[name] });
   }
   await boss.stop({ graceful: false, wait: true });
 }

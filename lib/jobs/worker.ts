@@ -1,8 +1,9 @@
-import { databaseUrl } from "@/lib/config";
+import { databaseUrl, meilisearchConfig } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import type { IdentifierJob } from "@/lib/identifiers/queue";
 import { refitVersion } from "@/lib/datasets/refit";
 import { registerIdentifier } from "@/lib/identifiers/register";
+import { SEARCH_SYNC_QUEUE, drainSearchOutbox } from "@/lib/search/outbox";
 import { deliverMail, isPermanentDeliveryFailure } from "@/lib/mail/transport";
 import type { MailMessage } from "@/lib/mail/templates";
 import { newBoss } from "./boss";
@@ -46,5 +47,12 @@ export async function startWorkers(): Promise<{ stop: () => Promise<void> }> {
   await boss.work<{ versionId: number }>("refit", { pollingIntervalSeconds: 2 }, async ([job]) => {
     await refitVersion({ versionId: job.data.versionId });
   });
+  // The search outbox: drained when a change is recorded, and every minute for rows waiting their back-off.
+  await boss.work(SEARCH_SYNC_QUEUE, { pollingIntervalSeconds: 1 }, async () => {
+    const outcome = await drainSearchOutbox();
+    if (outcome.error) console.error(`[jobs] search index not reached (${outcome.postponed} change(s) wait their retry): ${outcome.error}`);
+  });
+  if (meilisearchConfig()) await boss.schedule(SEARCH_SYNC_QUEUE, "* * * * *");
+  else await boss.unschedule(SEARCH_SYNC_QUEUE);
   return { stop: () => boss.stop({ graceful: true, wait: true, timeout: 5000 }) };
 }

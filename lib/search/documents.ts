@@ -9,6 +9,7 @@ import { GAS_CONSTANT, type ReactionOrder } from "@/lib/kinetics";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { DEFAULT_CONSENSUS_CHOICE } from "@/lib/reactions/consensus-selection";
 import type { ReactionHit, SearchFlag } from "./types";
+import { recordSearchChange } from "@/lib/search/outbox";
 
 /**
  * The PostgreSQL engine's documents: `buildSearchDocument` (re)writes the one of a version inside
@@ -109,6 +110,8 @@ export async function buildSearchDocument(
     });
     await tx.insert(searchDocuments).values(row).onConflictDoUpdate({ target: searchDocuments.versionId, set: row });
   }
+  // The Meilisearch outbox (when a service is configured) commits with the same change.
+  await recordSearchChange(tx, versionId);
   if (!v) return;
   await refreshLatest(tx, v.datasetId);
   if (!summaries) return;

@@ -1,6 +1,7 @@
 import "server-only";
 import { searchEngineName } from "@/lib/config";
 import { cursorPositionOrThrow, signCursor } from "./cursor";
+import { meilisearchEngine } from "./engines/meilisearch";
 import { postgresEngine } from "./engines/postgres";
 import { resolveQuery } from "./resolve-query";
 import type { FacetCount, ParsedQuery, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
@@ -10,8 +11,8 @@ import type { FacetCount, ParsedQuery, SearchEngine, SearchFacet, SearchRequest,
  * checks the cursor, asks the configured engine and signs the next cursor.
  */
 
-/** Engines by name; the Meilisearch engine registers itself here (lib/search/engines/meilisearch.ts). */
-const engines: Partial<Record<SearchEngine["name"], SearchEngine>> = { postgres: postgresEngine };
+/** Engines by name. */
+const engines: Partial<Record<SearchEngine["name"], SearchEngine>> = { postgres: postgresEngine, meilisearch: meilisearchEngine };
 
 export function registerSearchEngine(engine: SearchEngine): void {
   engines[engine.name] = engine;

@@ -12,6 +12,7 @@ const queueWords: Record<string, string> = {
   mail: "Outgoing mail",
   "register-identifier": "Identifier registration",
   refit: "Re-fits after an engine change",
+  "search-sync": "Search index updates (Meilisearch)",
 };
 
 export default async function JobsPage() {
