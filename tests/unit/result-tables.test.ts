@@ -97,7 +97,7 @@ describe("ResultTables residual spread", () => {
     const html = render(weighted, "kJ mol-1");
     expect(weighted.weighted).toBe(true);
     expect(html).toContain(
-      'SD of ln k residuals (unweighted)</td><td colspan="2">' + formatSignificant(weighted.arrhenius.residualSDLnK, 3),
+      'SD of ln k residuals (unweighted)</td><td colSpan="2">' + formatSignificant(weighted.arrhenius.residualSDLnK, 3),
     );
     expect(html).toContain("√(χ²/dof), weighted");
     expect(html).toContain("dimensionless");
