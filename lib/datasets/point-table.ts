@@ -12,10 +12,11 @@ import { formatNumber, formatSignificant } from "@/lib/format";
 /** How many rows a version's page shows; the downloads carry every point. */
 export const POINT_TABLE_ROWS = 1000;
 
-/** One stored point (lib/datasets/queries.ts getVersionPointRows). */
+/** One stored point (lib/datasets/queries.ts getVersionPointRows): T in K, k canonical, pressure in Pa. */
 export interface StoredPointRow {
   T: number;
   k: number;
+  /** Standard uncertainty of ln k (dimensionless); null when none is stated. */
   sigmaLnK: number | null;
   pressurePa: number | null;
   bathGas: string | null;
@@ -31,7 +32,8 @@ export interface PointMark {
   reason: string;
 }
 
-export interface PointRow {
+/** A stored point (canonical numbers) with what was deposited, its residual and its findings. */
+export interface PointRow extends Omit<StoredPointRow, "original"> {
   /** Row number as the deposit counts its points, from 1. */
   row: number;
   deposited: {
@@ -43,15 +45,6 @@ export interface PointRow {
     pressure: number | null;
     pressureUnit: string | null;
   };
-  /** K. */
-  T: number;
-  /** Canonical unit of the reaction order. */
-  k: number;
-  /** Standard uncertainty of ln k (dimensionless); null when none is stated. */
-  sigmaLnK: number | null;
-  pressurePa: number | null;
-  bathGas: string | null;
-  note: string | null;
   /** ln k − fitted ln k of the re-fit drawn on the page (band.model); null when the stored analysis has no residuals. */
   residualLnK: number | null;
   /** The residual in units of the point's stated σ(ln k): only on weighted fits. */

@@ -1,7 +1,7 @@
 import { mkdirSync, readFileSync } from "node:fs";
 import path from "node:path";
-import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
+import { widthAndAxeProblems } from "./pages/layout-checks";
 
 // The public page of a dataset version, from the demo data: the data table and plot follow the
 // reader's unit, the points download, an older version points to the newest, a retracted one
@@ -156,15 +156,7 @@ for (const [name, size] of [
           .map((c) => `${c.textContent} (${c.scrollWidth} > ${c.clientWidth})`),
       );
       problems.push(...cut.map((c) => `${p}: cell cut off: ${c}`));
-      const { scrollWidth, clientWidth } = await page.evaluate(() => ({
-        scrollWidth: document.documentElement.scrollWidth,
-        clientWidth: document.documentElement.clientWidth,
-      }));
-      if (scrollWidth > clientWidth) problems.push(`${p}: ${scrollWidth} px wide on a ${clientWidth} px screen`);
-      const axe = await new AxeBuilder({ page }).analyze();
-      for (const v of axe.violations.filter((x) => x.impact === "serious" || x.impact === "critical")) {
-        problems.push(`${p}: axe ${v.id} (${v.impact}) on ${v.nodes.length} element(s), e.g. ${v.nodes[0]?.target.join(" ")}`);
-      }
+      problems.push(...(await widthAndAxeProblems(page, p)));
       await page.screenshot({ path: path.join(SHOTS, `dataset-${["newest", "older", "retracted"][i]}-${name}.png`), fullPage: true });
     }
     expect(problems).toEqual([]);
