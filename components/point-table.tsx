@@ -94,7 +94,7 @@ export function PointTable({
         )}
       </p>
       <ScrollRegion label="The data (scrollable table)" scrollClassName="max-h-[36rem] overflow-auto">
-        <table className="table [&_td]:whitespace-nowrap [&_th]:whitespace-nowrap">
+        <table className="table [&_td]:whitespace-nowrap [&_th]:min-w-16">
           <caption className="sr-only">
             Every point of this version: temperature and rate constant as deposited and in the chosen unit, uncertainty, conditions,
             residual of the re-fit and findings
@@ -102,9 +102,9 @@ export function PointTable({
           <thead className="sticky top-0 bg-panel">
             <tr>
               <th scope="col">#</th>
-              <th scope="col">T ({tUnit}), as deposited</th>
+              <th scope="col">T as deposited ({tUnit})</th>
               {showKelvin && <th scope="col">T (K)</th>}
-              <th scope="col">k ({kUnit}), as deposited</th>
+              <th scope="col">k as deposited ({kUnit})</th>
               <th scope="col" data-testid="chosen-k-header">
                 k ({kUnitLabel})
               </th>

@@ -9,8 +9,8 @@ const REVISED_TITLE = "hydroxyl + methane → water + methyl: measured rate cons
 
 /**
  * Gives one published demo dataset a second published version, so its first version shows that
- * a newer one exists: the highest-temperature rate constant corrected (a transcription slip in
- * version 1). Once: a dataset whose newest version is already past version 1 is left alone.
+ * a newer one exists: the same numbers with each point's pressure stated and a note on the first.
+ * Once: a dataset whose newest version is already past version 1 is left alone.
  */
 export async function seedDemoRevision(): Promise<boolean> {
   const [owner, curator] = await Promise.all([
@@ -21,10 +21,16 @@ export async function seedDemoRevision(): Promise<boolean> {
   const newest = (await listMyVersions({ userId: owner.id })).find((v) => v.title === REVISED_TITLE);
   if (!newest || newest.number !== 1 || newest.state !== "published") return false;
   const draft = await startNextVersion({ actor: owner, versionId: newest.id });
-  const doc = structuredClone(draft.payload) as { description: string; points: { k: number }[] };
-  const last = doc.points[doc.points.length - 1];
-  last.k = Number((last.k * 1.12).toPrecision(3));
-  doc.description += "\n\nVersion 2 corrects the rate constant at the highest temperature, mistyped in version 1.";
+  // The numbers stay; version 2 states each point's pressure and how the first point was read, so the fit is unchanged.
+  const doc = structuredClone(draft.payload) as {
+    description: string;
+    conditions?: { pressure?: { value?: number } };
+    points: { pressure?: number; note?: string }[];
+  };
+  const pressure = doc.conditions?.pressure?.value ?? 100;
+  for (const p of doc.points) p.pressure = pressure;
+  doc.points[0].note = "Read again from the laboratory notebook for version 2.";
+  doc.description += "\n\nVersion 2 states the pressure of each point, as the curator asked, and how the first point was read.";
   await updateDraft({ actor: owner, versionId: draft.id, expectedLockVersion: draft.lockVersion, document: doc });
   for (const [transition, actor, reason] of [
     ["submit", owner, undefined],
