@@ -77,15 +77,15 @@ export function ConsensusPlot({
     .map(yOf)
     .filter(Number.isFinite);
   const y = niceScale(Math.min(...ys), Math.max(...ys));
+  const withBars = series.some((s) => [...s.points, ...(s.unused ?? [])].some((p) => p.sigmaLnK));
   const Ts = series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => p.T));
   const summary = `Arrhenius plot, ${symbol} against 1000/T, of ${series.length} dataset${series.length === 1 ? "" : "s"} between ${formatRange(
     Math.min(...Ts),
     Math.max(...Ts),
     "K",
-  )}${band ? ", with the consensus as a dashed line and its 95 % band" : ", without a consensus line"}${
+  )}${band ? ", with the consensus as a dashed line and its 95 % band" : ", without a consensus line"}${withBars ? "; error bars show the stated ±1σ" : ""}${
     unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn hollow` : ""
   }.`;
-  const withBars = series.some((s) => [...s.points, ...(s.unused ?? [])].some((p) => p.sigmaLnK));
   // What a hovered or focused point tells: its dataset, T and k (and the error bar's size).
   const drawn = (s: SeriesPoints, p: SeriesPoint) => ({
     x: 1000 / p.T,
