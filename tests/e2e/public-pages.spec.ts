@@ -103,6 +103,7 @@ test("sitemap.xml lists reactions by key, species, classes and versions; robots.
 });
 
 test("reaction, species and class pages pass axe at 1366 and 390 px and fit a phone", async ({ page }) => {
+  test.setTimeout(300_000);
   const reaction = await firstReactionPath(page);
   await page.goto(reaction);
   const species = await page.locator("main a[href^='/species/']").first().getAttribute("href");
@@ -189,18 +190,19 @@ test("a newly published version shows on its reaction and species pages without 
   const row = page.getByRole("row", { name: new RegExp(name) });
   await expect(row).toContainText("1");
   await reactionLink.click();
-  await expect(page.getByRole("link", { name: title })).toBeVisible();
+  await expect(page.getByRole("region", { name: "Datasets of this reaction" }).getByRole("link", { name: title })).toBeVisible();
   await expect(page.getByText("Only one dataset of this reaction is published")).toBeVisible();
   const reactionPath = new URL(page.url()).pathname;
   await page.getByRole("link", { name, exact: true }).click();
-  await expect(page.getByRole("heading", { level: 1, name })).toBeVisible();
+  await expect(page).toHaveURL(/\/species\/[A-Z]{14}-[A-Z]{10}-[A-Z]$/);
+  await expect(page.getByRole("heading", { level: 1, name, exact: true })).toBeVisible();
   const speciesPath = new URL(page.url()).pathname;
 
   await transition(curator, versionId, { transition: "retract", reason: "A calibration error was found after publication." });
   await page.goto(speciesPath);
   await expect(page.getByRole("row", { name: new RegExp(name) })).toContainText("0 (and 1 retracted)");
   await page.goto(reactionPath);
-  await expect(page.getByRole("row", { name: new RegExp(title) })).toContainText("Retracted");
+  await expect(page.getByRole("row", { name: new RegExp(title) })).toContainText("Version 1 is retracted.");
   await researcher.dispose();
   await curator.dispose();
 });
