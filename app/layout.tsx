@@ -11,6 +11,16 @@ export const metadata: Metadata = {
   description: "An open, curated repository of chemical rate-constant datasets, each re-fitted the same way and citable by version.",
 };
 
+/** The public pages every footer links. */
+const BROWSE_LINKS = [
+  ["/reactions", "Reactions"],
+  ["/classes", "Reaction classes"],
+  ["/search", "Search"],
+  ["/analyse", "Fit your own data"],
+  ["/docs/api", "API"],
+  ["/docs/deposit-format", "Deposit format"],
+] as const;
+
 export default function RootLayout({ children }: { children: React.ReactNode }) {
   return (
     <html lang="en">
@@ -28,24 +38,11 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
         <footer className="mx-auto max-w-6xl space-y-3 px-4 pb-10 pt-4 text-xs text-muted sm:px-6">
           <nav aria-label="Browse">
             <ul className="flex flex-wrap gap-x-4 gap-y-1">
-              <li>
-                <Link href="/reactions">Reactions</Link>
-              </li>
-              <li>
-                <Link href="/classes">Reaction classes</Link>
-              </li>
-              <li>
-                <Link href="/search">Search</Link>
-              </li>
-              <li>
-                <Link href="/analyse">Fit your own data</Link>
-              </li>
-              <li>
-                <Link href="/docs/api">API</Link>
-              </li>
-              <li>
-                <Link href="/docs/deposit-format">Deposit format</Link>
-              </li>
+              {BROWSE_LINKS.map(([href, label]) => (
+                <li key={href}>
+                  <Link href={href}>{label}</Link>
+                </li>
+              ))}
             </ul>
           </nav>
           <p>

@@ -1,6 +1,6 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, request as newRequest, test, type APIRequestContext, type Page } from "@playwright/test";
-import { EXAMPLE_DEPOSIT } from "../../lib/deposits/example";
+import { labelledAlkaneDeposit } from "../fixtures/labelled-alkane-deposit";
 import { DEMO_CURATORS, DEMO_PASSWORD, DEMO_RESEARCHER } from "./pages/deposit-pages";
 
 // The public reaction, species and class pages, their metadata, the sitemap and robots.txt, and
@@ -148,25 +148,9 @@ test("a newly published version shows on its reaction and species pages without 
 }) => {
   test.setTimeout(120_000);
   // An invented deposit of a reaction of its own (a 13C-labelled alkane drawn at random for this run).
-  const heavy = Array.from({ length: 18 }, (_, i) => i > 0 && Math.random() < 0.5);
-  const chain = (first: number) => heavy.map((h, i) => `[${h ? "13" : ""}CH${i === 0 ? first : i === 17 ? 3 : 2}]`).join("");
   const title = `Cache check ${Date.now()}`;
   const name = `labelled octadecane ${Date.now()}`;
-  const document = {
-    ...EXAMPLE_DEPOSIT,
-    title,
-    reaction: {
-      ...EXAMPLE_DEPOSIT.reaction,
-      reactants: [
-        { name: "hydroxyl radical", smiles: "[OH]", coefficient: 1 },
-        { name, smiles: chain(3), coefficient: 1 },
-      ],
-      products: [
-        { name: "water", smiles: "O", coefficient: 1 },
-        { name: `${name} radical`, smiles: chain(2), coefficient: 1 },
-      ],
-    },
-  };
+  const document = labelledAlkaneDeposit({ title, name, carbons: 18 });
   const researcher = await signedIn(baseURL!, DEMO_RESEARCHER);
   const curator = await signedIn(baseURL!, DEMO_CURATORS[0]);
   const created = await researcher.post("/api/v1/datasets", { data: document });

@@ -1,7 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset } from "@/lib/datasets/deposits";
-import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import {
   findPublicReaction,
   findPublicSpecies,
@@ -14,33 +13,10 @@ import {
   listVersionCacheTags,
 } from "@/lib/reactions/public-queries";
 import { createUser } from "@/lib/users/queries";
+import { labelledAlkaneDeposit } from "../fixtures/labelled-alkane-deposit";
 import { sql, uniqueEmail } from "./helpers";
 
-/**
- * An n-alkane of 20 carbons with 13C at random positions, so each run has species and a reaction
- * of its own (invented for the test): OH + RH → H2O + R, R the radical at the first carbon.
- */
-function labelledAbstraction(title: string, name: string) {
-  const heavy = Array.from({ length: 20 }, (_, i) => i > 0 && Math.random() < 0.5);
-  const atom = (i: number, h: number) => `[${heavy[i] ? "13" : ""}CH${h}]`;
-  const chain = (first: number) => heavy.map((_, i) => atom(i, i === 0 ? first : i === 19 ? 3 : 2)).join("");
-  return {
-    ...EXAMPLE_DEPOSIT,
-    title,
-    reaction: {
-      ...EXAMPLE_DEPOSIT.reaction,
-      reactants: [
-        { name: "hydroxyl radical", smiles: "[OH]", coefficient: 1 },
-        { name, smiles: chain(3), coefficient: 1 },
-      ],
-      products: [
-        { name: "water", smiles: "O", coefficient: 1 },
-        { name: `${name} radical`, smiles: chain(2), coefficient: 1 },
-      ],
-      class: "hydrogen-abstraction" as const,
-    },
-  };
-}
+const labelledAbstraction = (title: string, name: string) => labelledAlkaneDeposit({ title, name });
 
 async function people() {
   const owner = await createUser({ email: uniqueEmail("pub"), name: "Public Owner", passwordHash: "x", verified: true });
