@@ -27,7 +27,7 @@ async function firstLink(page: Page, path: string, pattern: RegExp): Promise<str
 /** The pages a role can open, with real ids taken from the demo data. */
 async function pagesFor(page: Page, role: keyof typeof roles): Promise<string[]> {
   const paths = [...PUBLIC_PAGES, ...(role === "anonymous" ? SIGNED_OUT_PAGES : ["/settings"])];
-  const reaction = await firstLink(page, "/reactions", /^\/reactions\/\d+$/);
+  const reaction = await firstLink(page, "/reactions", /^\/reactions\/[A-Z0-9.*+~-]+$/);
   expect(reaction, "a reaction page in the demo").not.toBeNull();
   paths.push(reaction!);
   const version = await firstLink(page, reaction!, /^\/datasets\/\d+\/v\d+$/);
@@ -137,7 +137,7 @@ for (const [name, size] of [
 ] as const) {
   test(`plot axes at ${name} px: round tick labels in ln k and log₁₀ k, top temperatures apart`, async ({ page }) => {
     await page.setViewportSize(size);
-    const reaction = await firstLink(page, "/reactions", /^\/reactions\/\d+$/);
+    const reaction = await firstLink(page, "/reactions", /^\/reactions\/[A-Z0-9.*+~-]+$/);
     const version = await firstLink(page, reaction!, /^\/datasets\/\d+\/v\d+$/);
     const problems: string[] = [];
     for (const path of [reaction!, version!]) {

@@ -7,7 +7,7 @@ import { DEMO_RESEARCHER, signInAs } from "./pages/deposit-pages";
 test("reaction and dataset pages are titled by what they show; missing pages 'Not found · Arrhenia'", async ({ page }) => {
   await page.goto("/reactions");
   const reaction = (await page.locator("main a[href]").evaluateAll((as) => as.map((a) => a.getAttribute("href") ?? ""))).find((h) =>
-    /^\/reactions\/\d+$/.test(h),
+    /^\/reactions\/[A-Z0-9.*+~-]+$/.test(h),
   );
   expect(reaction).toBeTruthy();
   await page.goto(reaction!);

@@ -11,7 +11,7 @@ const LAPTOP = { width: 1366, height: 768 };
 async function versionPages(page: Page): Promise<string[]> {
   await page.goto("/reactions");
   const reactions = await page.locator("main a[href]").evaluateAll((as) => as.map((a) => a.getAttribute("href") ?? ""));
-  const reaction = reactions.find((h) => /^\/reactions\/\d+$/.test(h));
+  const reaction = reactions.find((h) => /^\/reactions\/[A-Z0-9.*+~-]+$/.test(h));
   expect(reaction, "a reaction page in the demo").toBeTruthy();
   await page.goto(reaction!);
   const links = await page.locator("main a[href]").evaluateAll((as) => as.map((a) => a.getAttribute("href") ?? ""));

@@ -2,7 +2,7 @@ import { renderToStaticMarkup } from "react-dom/server";
 import { beforeAll, describe, expect, it, vi } from "vitest";
 
 vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn().mockResolvedValue(null) }));
-vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
+vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn(), unstable_cache: (fn: () => unknown) => fn }));
 vi.mock("@/lib/mail/queue", () => ({ enqueueMail: vi.fn() }));
 vi.mock("@/lib/identifiers/queue", () => ({ enqueueIdentifierRegistration: vi.fn() }));
 
@@ -10,6 +10,7 @@ import { GET } from "@/app/api/v1/reactions/[id]/consensus/route";
 import ReactionPage from "@/app/reactions/[id]/page";
 import { getCurrentUser } from "@/lib/auth/session";
 import { depositNewDataset } from "@/lib/datasets/deposits";
+import { reactionSegment } from "@/lib/reactions/paths";
 import { saveConsensusExclusion } from "@/lib/reactions/queries";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { consensusDocument, publish } from "./consensus-fixtures";
@@ -195,10 +196,16 @@ describe("GET /api/v1/reactions/:id/consensus: what went in", () => {
   });
 });
 
+/** The reaction page's path segment: its key, written URL-safe. */
+const segmentOf = async (id: number) => reactionSegment((await sql`select key from reactions where id = ${id}`)[0].key);
+
 describe("the reaction page says the same", () => {
   const render = async (searchParams: Record<string, string>) =>
     renderToStaticMarkup(
-      (await ReactionPage({ params: Promise.resolve({ id: String(reactionId) }), searchParams: Promise.resolve(searchParams) })) as never,
+      (await ReactionPage({
+        params: Promise.resolve({ id: await segmentOf(reactionId) }),
+        searchParams: Promise.resolve(searchParams),
+      })) as never,
     );
 
   it("shows the choice form (GET, labelled fields) and what went in, with the curator's reason", async () => {
@@ -206,7 +213,7 @@ describe("the reaction page says the same", () => {
     const html = await render({ include: "measured", Tmin: "260" });
     const form = /<form [^>]*>/.exec(html.slice(html.indexOf("Choose the data")))![0];
     expect(form).toContain('method="get"');
-    expect(form).toContain(`action="/reactions/${reactionId}"`);
+    expect(form).toContain(`action="/reactions/${await segmentOf(reactionId)}"`);
     expect(html).toContain('<label for="choice-Tmin"');
     expect(html).toMatch(/name="Tmin"[^>]*value="260"|value="260"[^>]*name="Tmin"/);
     expect(html).toContain("What went into the consensus");

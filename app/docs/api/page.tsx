@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { publicPageMetadata } from "@/lib/page-metadata";
 import { CAUTION, MAX_POINTS } from "@/lib/analyses/analyse-request";
 import { endpointScopes } from "@/lib/auth/endpoint-scopes";
 import { appUrl } from "@/lib/config";
@@ -11,7 +12,14 @@ import { SEARCH_QUERY_RULES } from "@/lib/search/parse-query";
 import { SEARCH_FACETS, SEARCH_FLAGS } from "@/lib/search/types";
 import { ScrollRegion } from "@/components/scroll-region";
 
-export const metadata: Metadata = { title: "API" };
+export async function generateMetadata(): Promise<Metadata> {
+  return publicPageMetadata({
+    title: "API",
+    description:
+      "The REST API for reading and depositing rate-constant datasets: endpoints, tokens, units and the conventions of the fits.",
+    path: "/docs/api",
+  });
+}
 
 const example = (base: string) => `curl -s ${base}/api/v1/analyses \\
   -H 'content-type: application/json' \\

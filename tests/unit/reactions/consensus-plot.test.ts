@@ -64,3 +64,19 @@ describe("ConsensusChoiceForm words", () => {
     expect(inFormWords("Tmin must be a temperature in kelvin above zero")).toBe("“From (K)” must be a temperature in kelvin above zero");
   });
 });
+
+describe("ConsensusPlot error bars", () => {
+  it("carries each point's stated uncertainty and says the bars are ±1σ only when some point has one", () => {
+    const withSigma = plotPoints({ points: [{ T: 300, k: Math.exp(-3), sigmaLnK: 0.1 }] }, undefined, undefined);
+    expect(withSigma.points[0]).toEqual({ T: 300, lnk: -3, sigmaLnK: 0.1 });
+    const html = renderToStaticMarkup(
+      h(ConsensusPlot, { series: [{ label: "v1 · a", points: withSigma.points }], band: null, kUnitLabel: "s⁻¹" }),
+    );
+    expect(html).toContain("error bars show the stated ±1σ");
+    expect(html).toContain("Bars: the stated ±1σ of each point where its authors give one.");
+    const plain = renderToStaticMarkup(
+      h(ConsensusPlot, { series: [{ label: "v1 · a", points: [{ T: 300, lnk: -3 }] }], band: null, kUnitLabel: "s⁻¹" }),
+    );
+    expect(plain).not.toContain("±1σ");
+  });
+});
