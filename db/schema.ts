@@ -8,3 +8,4 @@ export * from "./chemistry";
 export * from "./datasets";
 export * from "./idempotency";
 export * from "./consensus";
+export * from "./search";

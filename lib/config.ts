@@ -1,6 +1,7 @@
 // Environment configuration in one place, validated with zod. Every variable is listed in the
 // README. Getters read process.env on each call (tests change it between cases); start-up calls
 // assertValidConfig() so a bad value stops the app with one clear message instead of failing later.
+import { randomBytes } from "node:crypto";
 import { availableParallelism } from "node:os";
 import { z } from "zod";
 
@@ -72,6 +73,10 @@ const variables = {
       .string()
       .regex(/^[\w.:/,\s-]*$/, "must be a hop count or a comma-separated list of addresses, CIDR ranges, loopback or uniquelocal"),
   },
+  SEARCH_ENGINE: { schema: z.enum(["postgres", "meilisearch"], { error: "must be postgres or meilisearch" }) },
+  MEILISEARCH_URL: { schema: httpUrl },
+  MEILISEARCH_API_KEY: { schema: z.string(), secret: true },
+  SEARCH_CURSOR_SECRET: { schema: z.string().min(16, "must be at least 16 characters"), secret: true },
   ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
 } satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
 
@@ -275,4 +280,32 @@ export function analysisQueueLimit(): number {
 /** Longest one validation or analysis may take, waiting included, before it is stopped (ms). */
 export function analysisTimeoutMs(): number {
   return read("ANALYSIS_TIMEOUT_MS") ?? 60_000;
+}
+
+/** The search engine: SEARCH_ENGINE when set, else meilisearch when MEILISEARCH_URL is set, else postgres. */
+export function searchEngineName(): "postgres" | "meilisearch" {
+  return read("SEARCH_ENGINE") ?? (read("MEILISEARCH_URL") ? "meilisearch" : "postgres");
+}
+
+/** Base URL of the Meilisearch service (no trailing slash), or null when search stays in PostgreSQL. */
+export function meilisearchUrl(): string | null {
+  return read("MEILISEARCH_URL")?.replace(/\/$/, "") ?? null;
+}
+
+export function meilisearchApiKey(): string | undefined {
+  return read("MEILISEARCH_API_KEY");
+}
+
+// Made once per process when neither secret is set: cursors then last as long as the process.
+let processCursorSecret: string | null = null;
+
+/**
+ * Key that signs search cursors (HMAC): SEARCH_CURSOR_SECRET, else NEXTAUTH_SECRET, else a random
+ * key of this process (a cursor from before a restart is then refused as tampered with).
+ */
+export function searchCursorSecret(): string {
+  const configured = read("SEARCH_CURSOR_SECRET") ?? read("NEXTAUTH_SECRET");
+  if (configured) return configured;
+  processCursorSecret ??= randomBytes(32).toString("hex");
+  return processCursorSecret;
 }

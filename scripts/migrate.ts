@@ -7,6 +7,7 @@ import { databaseUrl, migrationDatabaseUrl } from "@/lib/config";
 import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { installQueues } from "@/lib/jobs/boss";
 import { grantRuntimeRole } from "@/db/privileges";
+import { rebuildSearchDocuments } from "@/lib/search/documents";
 
 const ownerUrl = migrationDatabaseUrl();
 const client = postgres(ownerUrl, { max: 1, onnotice: () => {} });
@@ -25,4 +26,9 @@ if (runtimeRole && runtimeRole !== decodeURIComponent(new URL(ownerUrl).username
   console.warn("[arrhenia] the app and the migrations use one role: set MIGRATION_DATABASE_URL to the schema owner (see README)");
 }
 await client.end();
+// Public versions without a search document (a database from before search documents): built as the runtime role, as the app would.
+const built = await rebuildSearchDocuments({ onlyMissing: true });
+if (built) console.log(`[arrhenia] search documents built for ${built} version(s)`);
 console.log("[arrhenia] database migrated");
+// The app's pool (getDb) would keep the process alive until its idle timeout.
+process.exit(0);

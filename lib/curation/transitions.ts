@@ -9,6 +9,7 @@ import { recordAuditEvent } from "@/lib/audit/record";
 import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
 import { AppError } from "@/lib/errors";
 import { mintSeriesIdentifier } from "@/lib/identifiers/mint";
+import { buildSearchDocument } from "@/lib/search/documents";
 import { planTransition } from "./capabilities";
 import type { CoEditorRole, Transition, VersionState } from "./lifecycle";
 
@@ -121,6 +122,8 @@ export async function applyTransition({
         .set({ state: to, updatedAt: now, ...(transition === "submit" ? { submittedAt: sql`now()` } : {}) })
         .where(eq(datasetVersions.id, versionId));
     }
+    // The search document commits or rolls back with the publication or retraction it describes.
+    if (transition === "accept" || transition === "retract") await buildSearchDocument(tx, versionId);
     // Every submission is kept as it was sent (append-only, drizzle/0020–0021): curators compare with it.
     if (transition === "submit") await takeSubmissionSnapshot(tx, { versionId, actorId, reply: reply?.trim() });
     await recordAuditEvent(tx, {

@@ -7,6 +7,7 @@ import { recordAuditEvent } from "@/lib/audit/record";
 import type { CoEditorRole, VersionState } from "@/lib/curation/lifecycle";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { AppError } from "@/lib/errors";
+import { buildSearchDocument } from "@/lib/search/documents";
 import { upsertReaction, type ResolvedParticipant } from "./species-queries";
 
 export interface ReactionInput {
@@ -527,9 +528,14 @@ export async function appendRefitAnalysis({
   error?: string;
 }): Promise<boolean> {
   try {
-    await getDb().execute(
-      sql`select arrhenia_append_refit_analysis(${versionId}, ${engineVersion}, ${result === null ? null : JSON.stringify(result)}::jsonb, ${JSON.stringify(checks)}::jsonb, ${error ?? null})`,
-    );
+    await getDb().transaction(async (tx) => {
+      await tx.execute(
+        sql`select arrhenia_append_refit_analysis(${versionId}, ${engineVersion}, ${result === null ? null : JSON.stringify(result)}::jsonb, ${JSON.stringify(checks)}::jsonb, ${error ?? null})`,
+      );
+      // A public version's search document carries the re-fit's Ea, A and flags: rewritten in the same transaction.
+      const [v] = await tx.select({ state: datasetVersions.state }).from(datasetVersions).where(eq(datasetVersions.id, versionId));
+      if (v?.state === "published" || v?.state === "retracted") await buildSearchDocument(tx, versionId);
+    });
     return true;
   } catch (err) {
     // Another run of the job fitted it meanwhile.

@@ -1,6 +1,6 @@
 import "server-only";
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
-import { getDb, type Transaction } from "@/db/client";
+import { getDb, type Database, type Transaction } from "@/db/client";
 import { reactionParticipants, reactions, species } from "@/db/chemistry";
 import { consensusExclusions } from "@/db/consensus";
 import { datasetMembers, datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
@@ -52,8 +52,7 @@ export async function getReaction({ id }: { id: number }) {
  * The newest public version (published or retracted) of every dataset whose newest public version
  * describes this reaction, with its stored points and newest analysis.
  */
-export async function listPublicVersionsOfReaction({ reactionId }: { reactionId: number }) {
-  const db = getDb();
+export async function listPublicVersionsOfReaction({ reactionId, db = getDb() }: { reactionId: number; db?: Transaction | Database }) {
   const versions = await db
     .select({
       versionId: datasetVersions.id,
@@ -115,8 +114,14 @@ export async function countPublicData() {
 }
 
 /** Curators' exclusions from the consensus of one reaction (the versions that describe it). */
-export async function listConsensusExclusions({ reactionId }: { reactionId: number }): Promise<CuratorExclusion[]> {
-  return getDb()
+export async function listConsensusExclusions({
+  reactionId,
+  db = getDb(),
+}: {
+  reactionId: number;
+  db?: Transaction | Database;
+}): Promise<CuratorExclusion[]> {
+  return db
     .select({ versionId: consensusExclusions.versionId, reason: consensusExclusions.reason, excludedAt: consensusExclusions.excludedAt })
     .from(consensusExclusions)
     .innerJoin(datasetVersions, eq(datasetVersions.id, consensusExclusions.versionId))

@@ -1,0 +1,114 @@
+import { sql } from "drizzle-orm";
+import { boolean, customType, doublePrecision, index, integer, jsonb, pgTable, text, timestamp } from "drizzle-orm/pg-core";
+import { reactions } from "./chemistry";
+import { datasetVersions } from "./datasets";
+
+const tsvector = customType<{ data: string }>({ dataType: () => "tsvector" });
+
+/**
+ * The PostgreSQL search engine's documents (lib/search/types.ts SearchDocument): one row per
+ * published or retracted version, written in the transaction that publishes, retracts or re-fits
+ * it (lib/search/documents.ts). A trigger (drizzle/0022) refuses a row for any other version, so
+ * a draft, a submission or a declined dataset can never be found.
+ */
+export const searchDocuments = pgTable(
+  "search_documents",
+  {
+    versionId: integer()
+      .primaryKey()
+      .references(() => datasetVersions.id, { onDelete: "cascade" }),
+    datasetId: integer().notNull(),
+    versionNumber: integer().notNull(),
+    /** The newest public version of its dataset: only these are listed. */
+    latest: boolean().notNull(),
+    retracted: boolean().notNull(),
+    versionIdentifier: text(),
+    title: text().notNull(),
+    description: text().notNull(),
+    keywords: text().array().notNull(),
+    creators: text().array().notNull(),
+    technique: text().notNull(),
+    source: text().notNull(),
+    sourceYear: integer(),
+    reactionId: integer()
+      .notNull()
+      .references(() => reactions.id),
+    reactionKey: text().notNull(),
+    equation: text().notNull(),
+    reactantKeys: text().array().notNull(),
+    productKeys: text().array().notNull(),
+    speciesNames: text().array().notNull(),
+    formulas: text().array().notNull(),
+    reactionClass: text().notNull(),
+    phase: text().notNull(),
+    methodCategory: text().notNull(),
+    bathGases: text().array().notNull(),
+    licence: text().notNull(),
+    tMin: doublePrecision().notNull(),
+    tMax: doublePrecision().notNull(),
+    pMin: doublePrecision(),
+    pMax: doublePrecision(),
+    pointCount: integer().notNull(),
+    flags: text().array().notNull(),
+    ea: doublePrecision(),
+    a: doublePrecision(),
+    aUnit: text(),
+    publishedAt: timestamp({ withTimezone: true }).notNull(),
+    /** Width of the measured range (K), for the "widest range" sort. */
+    tSpan: doublePrecision().generatedAlwaysAs(sql`t_max - t_min`),
+    /** Weighted text: title, equation, species names and formulas (A); keywords, creators, technique (B); description, source (C). */
+    document: tsvector()
+      .notNull()
+      .generatedAlwaysAs(
+        sql`arrhenia_search_vector(title, equation, species_names, formulas, keywords, creators, technique, description, source)`,
+      ),
+    /** Names, formulas and the equation in lower case, for typo-tolerant matching (pg_trgm). */
+    namesText: text()
+      .notNull()
+      .generatedAlwaysAs(sql`arrhenia_search_names(species_names, formulas, equation)`),
+  },
+  (t) => [
+    index("search_documents_dataset_idx").on(t.datasetId),
+    index("search_documents_reaction_idx").on(t.reactionId),
+    index("search_documents_document_idx").using("gin", t.document),
+    index("search_documents_names_trgm_idx").using("gin", sql`${t.namesText} gin_trgm_ops`),
+    index("search_documents_reactant_keys_idx").using("gin", t.reactantKeys),
+    index("search_documents_product_keys_idx").using("gin", t.productKeys),
+    index("search_documents_creators_idx").using("gin", t.creators),
+    index("search_documents_t_min_idx").on(t.tMin),
+    index("search_documents_t_max_idx").on(t.tMax),
+    index("search_documents_p_min_idx").on(t.pMin),
+    index("search_documents_p_max_idx").on(t.pMax),
+    index("search_documents_newest_idx")
+      .on(t.publishedAt.desc(), t.versionId.desc())
+      .where(sql`latest`),
+    index("search_documents_points_idx")
+      .on(t.pointCount.desc(), t.versionId.desc())
+      .where(sql`latest`),
+    index("search_documents_span_idx")
+      .on(t.tSpan.desc(), t.versionId.desc())
+      .where(sql`latest`),
+  ],
+);
+
+/**
+ * Per reaction with public data: the consensus over the reader's default selection and the spread
+ * of its datasets, for the reactions view of search. Rewritten with the search documents.
+ */
+export const searchReactionSummaries = pgTable("search_reaction_summaries", {
+  reactionId: integer()
+    .primaryKey()
+    .references(() => reactions.id, { onDelete: "cascade" }),
+  /** lib/search/types.ts ReactionHit["consensus"]. */
+  consensus: jsonb().$type<{
+    model: "arrhenius" | "modified_arrhenius";
+    a: number;
+    n: number;
+    ea: number;
+    aUnit: string;
+    tMin: number;
+    tMax: number;
+  } | null>(),
+  spread: doublePrecision(),
+  updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+});
