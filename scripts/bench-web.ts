@@ -4,9 +4,9 @@
  *
  * 1. The benchmark's own cluster (scripts/with-bench-db.sh: .data/bench-postgres, port 54489) gets
  *    a fresh database, migrated by scripts/migrate.ts, filled with synthetic published data
- *    (scripts/bench/fill.ts) and given its search documents (`npm run search:reindex`, timed). The
- *    filled database is kept: the next run skips the fill while the migrations, the generator and
- *    the size are unchanged (BENCH_FRESH=1 refills).
+ *    (scripts/bench/fill.ts) and given its search documents (lib/search/documents.ts, timed). The
+ *    filled database is kept: the next run only migrates it, unless the generator's version
+ *    (FILL_VERSION) or the size changed (BENCH_FRESH=1 refills; BENCH_FILL_ONLY=1 stops after the fill).
  * 2. `next build` into .next-bench (skipped when the checkout has not changed since), served by
  *    scripts/serve.ts, the real front server, on 127.0.0.1:3400 (BENCH_PORT).
  * 3. autocannon, 32 connections (BENCH_CONNECTIONS), a short warm-up then BENCH_SECONDS (10) per
@@ -22,7 +22,7 @@ import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import postgres from "postgres";
-import { fillBenchDatabase, fillSize, type FillReport } from "./bench/fill";
+import { fillBenchDatabase, fillSize, FILL_VERSION, type FillReport } from "./bench/fill";
 import { drive, formatTable, sampleTreeMemory, type ScenarioResult } from "./bench/load";
 
 const root = process.cwd();
@@ -59,18 +59,15 @@ interface FillStamp {
   searchDocuments: number | null;
 }
 
-/** What the fill depends on: the migrations, the generator and the size. */
-const signature = sha(
-  readFileSync("drizzle/meta/_journal.json"),
-  readFileSync("scripts/bench/synthetic.ts"),
-  readFileSync("scripts/bench/fill.ts"),
-  String(datasets),
-);
+/** What the fill depends on: the generator's version and the size (migrations are applied to a kept database at every run). */
+const signature = `fill-${FILL_VERSION}-${datasets}`;
 
 async function readStamp(): Promise<FillStamp | null> {
   const sql = postgres(ownerUrl, { max: 1, onnotice: () => {} });
   try {
-    const [row] = await sql<{ comment: string | null }[]>`select shobj_description(oid, 'pg_database') as comment from pg_database where datname = ${databaseName}`;
+    const [row] = await sql<
+      { comment: string | null }[]
+    >`select shobj_description(oid, 'pg_database') as comment from pg_database where datname = ${databaseName}`;
     const stamp = row?.comment?.startsWith("bench-fill ") ? (JSON.parse(row.comment.slice("bench-fill ".length)) as FillStamp) : null;
     return stamp;
   } finally {
@@ -95,16 +92,50 @@ async function recreateDatabase() {
   run("bash", ["-c", `source scripts/env.sh && ensure_postgres && pg_roles "$BENCH_PG_DIR" ${port}`]);
 }
 
-/** `npm run search:reindex` against the bench database, timed; null when the project has no such command yet. */
-function buildSearchDocuments(): number | null {
-  const scripts = (JSON.parse(readFileSync("package.json", "utf8")) as { scripts: Record<string, string> }).scripts;
-  if (!scripts["search:reindex"]) {
-    log("no `npm run search:reindex` in this checkout: search documents not built");
+/**
+ * The search documents of every public version, written by the search code's own builder
+ * (buildSearchDocument, one transaction per version as `npm run search:reindex` does) but several
+ * versions at a time, then each reaction's summary; timed. Null when this checkout has no builder.
+ */
+async function buildSearchDocuments(): Promise<number | null> {
+  if (!existsSync("lib/search/documents.ts")) {
+    log("no lib/search/documents.ts in this checkout: search documents not built");
     return null;
   }
+  const { buildSearchDocument, writeReactionSummary } = await import("@/lib/search/documents");
+  const { getDb } = await import("@/db/client");
+  const db = getDb();
+  const sql = postgres(databaseUrl, { max: 1, onnotice: () => {} });
+  const ids = (await sql<{ id: number }[]>`select id from dataset_versions where state in ('published', 'retracted') order by id`).map(
+    (r) => r.id,
+  );
+  const reactionIds = (
+    await sql<
+      { id: number }[]
+    >`select distinct reaction_id as id from dataset_versions where state in ('published', 'retracted') order by 1`
+  ).map((r) => r.id);
+  await sql.end();
+  const parallel = env("BENCH_INDEX_PARALLEL", 6);
   const t0 = performance.now();
-  run("npm", ["run", "--silent", "search:reindex"]);
-  return (performance.now() - t0) / 1000;
+  const each = async (items: number[], work: (id: number) => Promise<unknown>, what: string) => {
+    let next = 0;
+    let done = 0;
+    await Promise.all(
+      Array.from({ length: parallel }, async () => {
+        while (next < items.length) {
+          await work(items[next++]);
+          if (++done % 10_000 === 0) log(`  ${done}/${items.length} ${what} (${((performance.now() - t0) / 1000).toFixed(0)} s)`);
+        }
+      }),
+    );
+  };
+  log(`building ${ids.length} search documents (${parallel} at a time), then ${reactionIds.length} reaction summaries`);
+  await each(ids, (id) => db.transaction((tx) => buildSearchDocument(tx, id, { summaries: false })), "search documents");
+  const documentsSeconds = (performance.now() - t0) / 1000;
+  await each(reactionIds, (id) => db.transaction((tx) => writeReactionSummary(tx, id)), "reaction summaries");
+  const total = (performance.now() - t0) / 1000;
+  log(`search documents in ${documentsSeconds.toFixed(1)} s, reaction summaries in ${(total - documentsSeconds).toFixed(1)} s`);
+  return total;
 }
 
 async function countSearchDocuments(): Promise<number | null> {
@@ -123,6 +154,7 @@ async function ensureFilledDatabase(): Promise<FillStamp> {
   const existing = process.env.BENCH_FRESH ? null : await readStamp().catch(() => null);
   if (existing?.signature === signature) {
     log(`reusing the filled database (${existing.report.datasets} datasets; BENCH_FRESH=1 refills)`);
+    run("node_modules/.bin/tsx", ["--conditions=react-server", "scripts/migrate.ts"]);
     return existing;
   }
   log(existing ? "the migrations, the generator or the size changed: refilling" : "filling a new benchmark database");
@@ -135,7 +167,7 @@ async function ensureFilledDatabase(): Promise<FillStamp> {
   } finally {
     await owner.end();
   }
-  const searchDocumentsSeconds = buildSearchDocuments();
+  const searchDocumentsSeconds = await buildSearchDocuments();
   const stamp: FillStamp = { signature, report, searchDocumentsSeconds, searchDocuments: await countSearchDocuments() };
   const sql = postgres(ownerUrl, { max: 1, onnotice: () => {} });
   try {
@@ -217,7 +249,8 @@ const routeExists = (...segments: string[]) => existsSync(path.join(root, "app",
 /** URLs spread over the data, read from the bench database (as the runtime role). */
 async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
   const sql = postgres(databaseUrl, { max: 1, onnotice: () => {} });
-  const q = (params: Record<string, string | number>) => `/api/v1/search?${new URLSearchParams(Object.entries(params).map(([k, v]) => [k, String(v)]))}`;
+  const q = (params: Record<string, string | number>) =>
+    `/api/v1/search?${new URLSearchParams(Object.entries(params).map(([k, v]) => [k, String(v)]))}`;
   try {
     const versions = await sql<{ dataset_id: number; number: number }[]>`
       select dataset_id, number from dataset_versions where state in ('published', 'retracted') order by random() limit 3000`;
@@ -233,7 +266,16 @@ async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
              (select name from species_names where species_id = b.species_id order by length(name), name limit 1) as m
       from reaction_participants a join reaction_participants b on a.reaction_id = b.reaction_id and a.side = 'reactant' and b.side = 'reactant' and a.species_id < b.species_id
       order by random() limit 2000`;
-    const techniques = ["flash photolysis", "shock tube", "discharge flow", "master equation", "relative rate", "pulsed laser photolysis", "combustion", "halocarbons"];
+    const techniques = [
+      "flash photolysis",
+      "shock tube",
+      "discharge flow",
+      "master equation",
+      "relative rate",
+      "pulsed laser photolysis",
+      "combustion",
+      "halocarbons",
+    ];
     const text = [...techniques, ...words.map((w) => w.w)];
     const classes = ["hydrogen-abstraction", "addition", "bond-fission", "recombination"];
     const list: Scenario[] = [];
@@ -260,7 +302,8 @@ async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
       kind: "page",
       paths: reactions.map((r) => (byKey ? `/reactions/${encodeURIComponent(r.key)}` : `/reactions/${r.id}`)),
     });
-    if (routeExists("species", "[inchikey]")) list.push({ name: "page: species", kind: "page", paths: species.map((s) => `/species/${s.inchi_key}`) });
+    if (routeExists("species", "[inchikey]"))
+      list.push({ name: "page: species", kind: "page", paths: species.map((s) => `/species/${s.inchi_key}`) });
     else missing.push("species page (no app/species/[inchikey] yet)");
     return { list, missing };
   } finally {
@@ -281,6 +324,10 @@ const ms = (x: number) => (Number.isFinite(x) ? x.toFixed(x < 10 ? 1 : 0) : "-")
 const mib = (b: number) => `${(b / 2 ** 20).toFixed(0)} MiB`;
 
 const stamp = await ensureFilledDatabase();
+if (process.env.BENCH_FILL_ONLY) {
+  log(`filled: ${JSON.stringify(stamp)}`);
+  process.exit(0);
+}
 buildApp();
 log(`starting scripts/serve.ts on ${base}`);
 const startedAt = performance.now();
@@ -311,16 +358,36 @@ try {
   console.log(
     `\nArrhenia web benchmark: ${rep.datasets} datasets (${rep.versions} published versions, ${rep.points} points, ${rep.reactions} reactions, ${rep.species} species)`,
   );
-  console.log(`autocannon ${connections} connections, ${seconds} s per scenario after ${warmSeconds} s warm-up; server ${base} (scripts/serve.ts, ${distDir})\n`);
+  console.log(
+    `autocannon ${connections} connections, ${seconds} s per scenario after ${warmSeconds} s warm-up; server ${base} (scripts/serve.ts, ${distDir})\n`,
+  );
   const rows = [["scenario", "p50 ms", "p95 ms", "p99 ms", "req/s", "requests", "non-2xx", "errors"]];
-  for (const r of results) rows.push([r.name, ms(r.p50), ms(r.p95), ms(r.p99), r.requestsPerSecond.toFixed(0), String(r.requests), String(r.non2xx), String(r.errors)]);
+  for (const r of results)
+    rows.push([
+      r.name,
+      ms(r.p50),
+      ms(r.p95),
+      ms(r.p99),
+      r.requestsPerSecond.toFixed(0),
+      String(r.requests),
+      String(r.non2xx),
+      String(r.errors),
+    ]);
   console.log(formatTable(rows));
-  console.log(`\nserver peak RSS (process tree, ${memory.processes} processes): ${mib(memory.peak)}; start to first answer ${startSeconds.toFixed(1)} s`);
+  console.log(
+    `\nserver peak RSS (process tree, ${memory.processes} processes): ${mib(memory.peak)}; start to first answer ${startSeconds.toFixed(1)} s`,
+  );
   console.log(
     `search documents: ${stamp.searchDocumentsSeconds === null ? "not built (no search:reindex)" : `${stamp.searchDocuments ?? "?"} built in ${stamp.searchDocumentsSeconds.toFixed(1)} s`}`,
   );
-  console.log(`fill: ${Object.entries(rep.seconds).map(([k, v]) => `${k} ${v.toFixed(1)} s`).join("; ")}`);
-  console.log(`load average (1/5/15 min): before ${loadBefore.map((x) => x.toFixed(2)).join(" ")}, after ${loadAfter.map((x) => x.toFixed(2)).join(" ")}\n`);
+  console.log(
+    `fill: ${Object.entries(rep.seconds)
+      .map(([k, v]) => `${k} ${v.toFixed(1)} s`)
+      .join("; ")}`,
+  );
+  console.log(
+    `load average (1/5/15 min): before ${loadBefore.map((x) => x.toFixed(2)).join(" ")}, after ${loadAfter.map((x) => x.toFixed(2)).join(" ")}\n`,
+  );
 
   const search = results.filter((r) => r.kind === "search");
   const pages = results.filter((r) => r.kind === "page");
@@ -336,7 +403,11 @@ try {
       verdict(search.length ? search.every((r) => r.requestsPerSecond >= 200) : null),
     ],
     ["server memory < 1 GiB", mib(memory.peak), verdict(memory.peak < 2 ** 30)],
-    ["every answer 2xx", String(results.reduce((n, r) => n + r.non2xx + r.errors, 0)), verdict(results.every((r) => r.non2xx === 0 && r.errors === 0))],
+    [
+      "every answer 2xx",
+      String(results.reduce((n, r) => n + r.non2xx + r.errors, 0)),
+      verdict(results.every((r) => r.non2xx === 0 && r.errors === 0)),
+    ],
   ];
   console.log(formatTable(targets));
   if (missing.length) console.log(`\nnot measured: ${missing.join("; ")}`);
@@ -354,3 +425,4 @@ try {
   stopServer();
   await new Promise((r) => (server.exitCode === null ? server.once("exit", r) : r(null)));
 }
+process.exit(0);

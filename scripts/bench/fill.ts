@@ -33,6 +33,9 @@ import {
   type Random,
 } from "./synthetic";
 
+/** Bumped whenever the generator or the load changes what a fill writes: a kept database of another version is refilled. */
+export const FILL_VERSION = 1;
+
 export interface FillSize {
   datasets: number;
   reactions: number;
@@ -188,7 +191,19 @@ function makeReactions(r: Random, { species, radicals, abstractionProducts }: De
     // unimolecular A 1e12…1e16 s⁻¹, Ea 150…350 kJ/mol.
     const lnA = order === 2 ? Math.log(10 ** r.uniform(-13, -10)) : Math.log(10 ** r.uniform(12, 16));
     const ea = (order === 2 ? r.uniform(-4, 40) : r.uniform(150, 350)) * 1000;
-    reactions.push({ id: reactions.length + 1, key, equation, reactants, products, productsUnknown, reactionClass, order, lnA, n: r.chance(0.2) ? r.uniform(0.5, 2.5) : 0, ea });
+    reactions.push({
+      id: reactions.length + 1,
+      key,
+      equation,
+      reactants,
+      products,
+      productsUnknown,
+      reactionClass,
+      order,
+      lnA,
+      n: r.chance(0.2) ? r.uniform(0.5, 2.5) : 0,
+      ea,
+    });
   }
   return reactions;
 }
@@ -207,7 +222,12 @@ export interface FillReport {
  * Writes everything into an empty, migrated database through `owner` (the schema owner's
  * connection). `workDir` holds the COPY files while the fill runs.
  */
-export async function fillBenchDatabase(owner: postgres.Sql, size: FillSize, workDir: string, log: (s: string) => void): Promise<FillReport> {
+export async function fillBenchDatabase(
+  owner: postgres.Sql,
+  size: FillSize,
+  workDir: string,
+  log: (s: string) => void,
+): Promise<FillReport> {
   const seconds: Record<string, number> = {};
   let t0 = performance.now();
   const lap = (name: string) => {
@@ -239,12 +259,22 @@ export async function fillBenchDatabase(owner: postgres.Sql, size: FillSize, wor
   }
   await users.close();
 
-  const speciesFile = file("species", ["id", "inchi_key", "inchi", "canonical_smiles", "formula", "charge", "molar_mass", "radical_electrons"]);
+  const speciesFile = file("species", [
+    "id",
+    "inchi_key",
+    "inchi",
+    "canonical_smiles",
+    "formula",
+    "charge",
+    "molar_mass",
+    "radical_electrons",
+  ]);
   const namesFile = file("species_names", ["species_id", "name"]);
   for (const s of species) {
     await speciesFile.write([s.id, s.inchiKey, s.inchi, s.smiles, s.formula, s.charge, s.molarMass, s.radicalElectrons]);
-    const seen = new Set<string>();
-    for (const name of s.names) if (!seen.has(name.toLowerCase())) (seen.add(name.toLowerCase()), await namesFile.write([s.id, name]));
+    // One row per name, case-insensitively (species_names_key).
+    const names = new Map(s.names.map((name) => [name.toLowerCase(), name]));
+    for (const name of names.values()) await namesFile.write([s.id, name]);
   }
   await speciesFile.close();
   await namesFile.close();
@@ -297,11 +327,37 @@ export async function fillBenchDatabase(owner: postgres.Sql, size: FillSize, wor
     "created_at",
     "updated_at",
   ]);
-  const pointsFile = file("version_points", ["version_id", "idx", "temperature_k", "rate_constant", "sigma_ln_k", "pressure_pa", "bath_gas", "note", "original"]);
+  const pointsFile = file("version_points", [
+    "version_id",
+    "idx",
+    "temperature_k",
+    "rate_constant",
+    "sigma_ln_k",
+    "pressure_pa",
+    "bath_gas",
+    "note",
+    "original",
+  ]);
   const analysesFile = file("version_analyses", ["id", "version_id", "engine_version", "result", "checks", "error", "created_at"]);
-  const publishFile = new CopyFile(path.join(workDir, "publish.copy"), "bench_publish", ["id", "submitted_at", "published_at", "identifier", "sha", "retract"]);
+  const publishFile = new CopyFile(path.join(workDir, "publish.copy"), "bench_publish", [
+    "id",
+    "submitted_at",
+    "published_at",
+    "identifier",
+    "sha",
+    "retract",
+  ]);
 
   const prefix = doiPrefix();
+  // Distinct series codes spread over the code space (an odd multiplier permutes 0…32⁷−1), skipping
+  // values whose check symbol is not a digit or letter (codes are never drawn with one of those).
+  const usedValues = new Set<number>();
+  const seriesValue = (d: number) => {
+    for (let j = 0; ; j++) {
+      const value = ((d + j * 1_000_003) * 2654435761) % 32 ** 7;
+      if (value % 37 < 32 && !usedValues.has(value)) return (usedValues.add(value), value);
+    }
+  };
   const start = Date.parse("2024-03-01T00:00:00Z");
   const end = Date.parse("2026-11-30T00:00:00Z");
   let versionId = 0;
@@ -310,8 +366,7 @@ export async function fillBenchDatabase(owner: postgres.Sql, size: FillSize, wor
   for (let d = 1; d <= size.datasets; d++) {
     const reaction = reactionFor(d - 1);
     const ownerId = 2 + ((d * 7) % depositorCount);
-    // Distinct series codes: an odd multiplier permutes 0…32⁷−1.
-    const series = newSeriesIdentifier(prefix, (d * 2654435761) % 32 ** 7);
+    const series = newSeriesIdentifier(prefix, seriesValue(d));
     const firstPublished = start + r.next() * (end - start - 86_400_000 * 30);
     await datasetsFile.write([d, ownerId, series, new Date(firstPublished - 86_400_000 * 7), new Date(firstPublished)]);
     await membersFile.write([d, ownerId, "owner", new Date(firstPublished - 86_400_000 * 7)]);
@@ -322,13 +377,18 @@ export async function fillBenchDatabase(owner: postgres.Sql, size: FillSize, wor
       const plan = makeDocument(r, reaction, people, d, v - 1);
       const a0 = performance.now();
       const checked = checkAndAnalyseDocument(JSON.stringify(plan.document));
-      if (!checked.ok) throw new Error(`synthetic dataset ${d} v${v} is not a valid deposit: ${JSON.stringify(checked.errors.slice(0, 3))}`);
+      if (!checked.ok)
+        throw new Error(`synthetic dataset ${d} v${v} is not a valid deposit: ${JSON.stringify(checked.errors.slice(0, 3))}`);
       if (!checked.analysis.ok) throw new Error(`synthetic dataset ${d} v${v} could not be analysed: ${checked.analysis.message}`);
       analyseMs += performance.now() - a0;
       const doc = { ...plan.document, license: checked.license };
       const stored = storedPointsFromColumns(doc, checked.columns);
       const balance = reaction.productsUnknown
-        ? { code: "products_unknown", severity: "info", message: `Products not identified (overall removal rate): ${doc.reaction.productsUnknown!.reason}` }
+        ? {
+            code: "products_unknown",
+            severity: "info",
+            message: `Products not identified (overall removal rate): ${doc.reaction.productsUnknown!.reason}`,
+          }
         : (() => {
             const side = (list: BenchSpecies[]) => list.map((s) => ({ elements: s.elements, charge: s.charge, coefficient: 1 }));
             const b = checkBalance({ reactants: side(reaction.reactants), products: side(reaction.products) });
@@ -336,7 +396,11 @@ export async function fillBenchDatabase(owner: postgres.Sql, size: FillSize, wor
               ? { code: "balanced", severity: "info", message: "Elements and charge balance." }
               : { code: "unbalanced", severity: "error", message: b.message };
           })();
-      const analysis: AnalysisSummary = { engineVersion: ENGINE_VERSION, result: checked.analysis.result, checks: [balance, ...checked.checks] };
+      const analysis: AnalysisSummary = {
+        engineVersion: ENGINE_VERSION,
+        result: checked.analysis.result,
+        checks: [balance, ...checked.checks],
+      };
       const summary = summarise(stored, analysis);
       const published = new Date(v === 1 ? firstPublished : firstPublished + r.uniform(20, 300) * 86_400_000);
       const createdAt = new Date(published.getTime() - 86_400_000 * r.uniform(2, 20));
@@ -361,7 +425,17 @@ export async function fillBenchDatabase(owner: postgres.Sql, size: FillSize, wor
       ]);
       for (let i = 0; i < stored.length; i++) {
         const p = stored[i];
-        await pointsFile.write([versionId, i, p.T, p.k, p.sigmaLnK ?? null, p.pressurePa ?? null, p.bathGas ?? null, p.note ?? null, p.original]);
+        await pointsFile.write([
+          versionId,
+          i,
+          p.T,
+          p.k,
+          p.sigmaLnK ?? null,
+          p.pressurePa ?? null,
+          p.bathGas ?? null,
+          p.note ?? null,
+          p.original,
+        ]);
       }
       points += stored.length;
       await analysesFile.write([versionId, versionId, ENGINE_VERSION, analysis.result, analysis.checks, null, createdAt]);
@@ -381,7 +455,8 @@ export async function fillBenchDatabase(owner: postgres.Sql, size: FillSize, wor
   seconds["  of which analysis"] = analyseMs / 1000;
   log(`${size.datasets} datasets, ${versionId} versions, ${points} points generated; loading`);
 
-  for (const f of [users, speciesFile, namesFile, reactionsFile, participantsFile, datasetsFile, membersFile, versionsFile]) await copyIn(owner, f);
+  for (const f of [users, speciesFile, namesFile, reactionsFile, participantsFile, datasetsFile, membersFile, versionsFile])
+    await copyIn(owner, f);
   lap("copy users, chemistry, datasets, versions");
   await copyIn(owner, pointsFile);
   lap("copy points");
@@ -409,5 +484,13 @@ export async function fillBenchDatabase(owner: postgres.Sql, size: FillSize, wor
   await owner`analyze`;
   lap("analyze");
   rmSync(workDir, { recursive: true, force: true });
-  return { users: depositorCount + 1, species: species.length, reactions: reactions.length, datasets: size.datasets, versions: versionId, points, seconds };
+  return {
+    users: depositorCount + 1,
+    species: species.length,
+    reactions: reactions.length,
+    datasets: size.datasets,
+    versions: versionId,
+    points,
+    seconds,
+  };
 }

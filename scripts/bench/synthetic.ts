@@ -207,12 +207,105 @@ export const PRODUCTS_UNKNOWN_REASON = "Only the loss of the reactant was follow
 // ---------------------------------------------------------------------------------------------
 // People, words, places
 
-const GIVEN = ["Ada", "Bo", "Cai", "Dara", "Eli", "Femi", "Greta", "Hana", "Ilya", "Jun", "Kira", "Lev", "Mina", "Nils", "Oona", "Pau", "Quinn", "Rhea", "Sami", "Tove", "Uma", "Vero", "Wen", "Xan", "Yara", "Zeno"];
-const SYLLABLES = ["ka", "lo", "mer", "sen", "tar", "vik", "hol", "dra", "ben", "sto", "rin", "mak", "fel", "gor", "nes", "pri", "qui", "wal", "zet", "yor", "lund", "berg", "ova", "ito", "ez", "son"];
-const PLACES = ["Norvale", "Easthaven", "Kestrel Bay", "Lindmark", "Port Amsel", "Saltcombe", "Vireo", "Tallowfield", "Brackenridge", "Oskarholm"];
-const INSTITUTES = ["Institute of Physical Chemistry", "Department of Chemistry", "Combustion Laboratory", "Atmospheric Research Centre", "School of Chemical Sciences", "Reaction Dynamics Group"];
-const JOURNALS = ["Journal of Invented Kinetics", "Letters in Imaginary Physical Chemistry", "Annals of Synthetic Reaction Rates", "Transactions of Example Chemistry", "Review of Placeholder Combustion"];
-const KEYWORDS = ["atmospheric chemistry", "combustion", "halocarbons", "radical kinetics", "temperature dependence", "pressure dependence", "tropospheric oxidation", "ignition", "pyrolysis", "ab initio", "relative rates", "flame chemistry", "aerosol precursors", "ozone depletion"];
+const GIVEN = [
+  "Ada",
+  "Bo",
+  "Cai",
+  "Dara",
+  "Eli",
+  "Femi",
+  "Greta",
+  "Hana",
+  "Ilya",
+  "Jun",
+  "Kira",
+  "Lev",
+  "Mina",
+  "Nils",
+  "Oona",
+  "Pau",
+  "Quinn",
+  "Rhea",
+  "Sami",
+  "Tove",
+  "Uma",
+  "Vero",
+  "Wen",
+  "Xan",
+  "Yara",
+  "Zeno",
+];
+const SYLLABLES = [
+  "ka",
+  "lo",
+  "mer",
+  "sen",
+  "tar",
+  "vik",
+  "hol",
+  "dra",
+  "ben",
+  "sto",
+  "rin",
+  "mak",
+  "fel",
+  "gor",
+  "nes",
+  "pri",
+  "qui",
+  "wal",
+  "zet",
+  "yor",
+  "lund",
+  "berg",
+  "ova",
+  "ito",
+  "ez",
+  "son",
+];
+const PLACES = [
+  "Norvale",
+  "Easthaven",
+  "Kestrel Bay",
+  "Lindmark",
+  "Port Amsel",
+  "Saltcombe",
+  "Vireo",
+  "Tallowfield",
+  "Brackenridge",
+  "Oskarholm",
+];
+const INSTITUTES = [
+  "Institute of Physical Chemistry",
+  "Department of Chemistry",
+  "Combustion Laboratory",
+  "Atmospheric Research Centre",
+  "School of Chemical Sciences",
+  "Reaction Dynamics Group",
+];
+const JOURNALS = [
+  "Journal of Invented Kinetics",
+  "Letters in Imaginary Physical Chemistry",
+  "Annals of Synthetic Reaction Rates",
+  "Transactions of Example Chemistry",
+  "Review of Placeholder Combustion",
+];
+const KEYWORDS = [
+  "atmospheric chemistry",
+  "combustion",
+  "halocarbons",
+  "radical kinetics",
+  "temperature dependence",
+  "pressure dependence",
+  "tropospheric oxidation",
+  "ignition",
+  "pyrolysis",
+  "ab initio",
+  "relative rates",
+  "flame chemistry",
+  "aerosol precursors",
+  "ozone depletion",
+];
 
 export function personName(r: Random): string {
   const family = Array.from({ length: r.int(2, 3) }, () => r.pick(SYLLABLES)).join("");
@@ -248,9 +341,28 @@ export function makePeople(r: Random, count: number): Person[] {
 // ---------------------------------------------------------------------------------------------
 // Documents
 
-const EXPERIMENT = ["pulsed laser photolysis", "flash photolysis", "discharge flow", "shock tube", "flow reactor", "static reactor", "relative rate", "pulse radiolysis", "stopped flow", "jet-stirred reactor"];
+const EXPERIMENT = [
+  "pulsed laser photolysis",
+  "flash photolysis",
+  "discharge flow",
+  "shock tube",
+  "flow reactor",
+  "static reactor",
+  "relative rate",
+  "pulse radiolysis",
+  "stopped flow",
+  "jet-stirred reactor",
+];
 const THEORY = ["transition state theory", "variational transition state theory", "master equation", "trajectory calculations"];
-const DETECTION = ["laser-induced fluorescence", "resonance fluorescence", "mass spectrometry", "UV absorption", "FTIR spectroscopy", "cavity ring-down spectroscopy", "gas chromatography"];
+const DETECTION = [
+  "laser-induced fluorescence",
+  "resonance fluorescence",
+  "mass spectrometry",
+  "UV absorption",
+  "FTIR spectroscopy",
+  "cavity ring-down spectroscopy",
+  "gas chromatography",
+];
 const BATH = ["He", "N2", "Ar", "air", "O2", "SF6"];
 
 const weightedLicences = LICENCES.map((l, i) => [l.id, i === 0 ? 50 : i === 1 ? 20 : 30 / (LICENCES.length - 2)] as const);
@@ -281,7 +393,8 @@ export function makeDocument(r: Random, reaction: BenchReaction, people: Person[
     ["theory", 18],
     ["evaluation", 7],
   ] as const);
-  const technique = category === "experiment" ? r.pick(EXPERIMENT) : category === "theory" ? r.pick(THEORY) : "critical evaluation of published data";
+  const technique =
+    category === "experiment" ? r.pick(EXPERIMENT) : category === "theory" ? r.pick(THEORY) : "critical evaluation of published data";
   const phase =
     reaction.reactionClass === "electron-transfer"
       ? "liquid"
@@ -311,29 +424,39 @@ export function makeDocument(r: Random, reaction: BenchReaction, people: Person[
     return withUncertainty ? { T, k, uncertainty: { kind: "relative" as const, value: roundTo(r.uniform(5, 25), 2) } } : { T, k };
   });
   const year = Math.min(2026, Math.round(2026 - Math.abs(r.normal()) * 18));
-  const creators = Array.from({ length: r.weighted([[1, 15], [2, 30], [3, 30], [4, 15], [6, 10]] as const) }, () => r.pick(people));
+  const creators = Array.from(
+    {
+      length: r.weighted([
+        [1, 15],
+        [2, 30],
+        [3, 30],
+        [4, 15],
+        [6, 10],
+      ] as const),
+    },
+    () => r.pick(people),
+  );
   const nameOf = (s: BenchSpecies) => (r.chance(0.8) ? s.names[0] : r.pick(s.names));
   const side = (list: BenchSpecies[]) => list.map((s) => ({ name: nameOf(s), smiles: s.smiles, coefficient: 1 }));
   const reactants = side(reaction.reactants);
   const products = side(reaction.products);
   const words = reaction.equation;
-  const title = r.pick([
-    `Rate constants for ${words} from ${Math.round(tMin)} to ${Math.round(tMax)} K`,
-    `Temperature dependence of ${words}`,
-    `Kinetics of ${words} by ${technique}`,
-    `${words}: ${category === "theory" ? "computed" : "measured"} rate constants (${technique})`,
-  ]) + (variant ? " (revised)" : "");
+  const title =
+    r.pick([
+      `Rate constants for ${words} from ${Math.round(tMin)} to ${Math.round(tMax)} K`,
+      `Temperature dependence of ${words}`,
+      `Kinetics of ${words} by ${technique}`,
+      `${words}: ${category === "theory" ? "computed" : "measured"} rate constants (${technique})`,
+    ]) + (variant ? " (revised)" : "");
   const bathGas = phase === "gas" ? r.pick(BATH) : undefined;
-  const reported =
-    r.chance(0.4) &&
-    ({
-      model: "arrhenius" as const,
-      A: roundTo(Math.exp(reaction.lnA + bias) * toUnit * (r.chance(0.05) ? 30 : 1), 3),
-      Ea: roundTo(reaction.ea / 1000, 3),
-      EaUnit: "kJ mol-1",
-      Tmin: tMin,
-      Tmax: tMax,
-    });
+  const reported = r.chance(0.4) && {
+    model: "arrhenius" as const,
+    A: roundTo(Math.exp(reaction.lnA + bias) * toUnit * (r.chance(0.05) ? 30 : 1), 3),
+    Ea: roundTo(reaction.ea / 1000, 3),
+    EaUnit: "kJ mol-1",
+    Tmin: tMin,
+    Tmax: tMax,
+  };
   const document: DepositDocument = {
     title,
     description: [
@@ -364,7 +487,12 @@ export function makeDocument(r: Random, reaction: BenchReaction, people: Person[
       ...(category === "experiment" ? { detection: r.pick(DETECTION) } : {}),
     },
     ...(phase === "gas"
-      ? { conditions: { pressure: r.chance(0.7) ? { value: roundTo(r.uniform(1, 760), 3) } : { min: 10, max: roundTo(r.uniform(20, 760), 3) }, bathGas } }
+      ? {
+          conditions: {
+            pressure: r.chance(0.7) ? { value: roundTo(r.uniform(1, 760), 3) } : { min: 10, max: roundTo(r.uniform(20, 760), 3) },
+            bathGas,
+          },
+        }
       : {}),
     units: { k: kUnit, T: "K", ...(phase === "gas" ? { pressure: "Torr" } : {}) },
     points,
