@@ -2,6 +2,7 @@ import "@fontsource-variable/inter";
 import "@fontsource-variable/source-serif-4";
 import "./globals.css";
 import type { Metadata } from "next";
+import Link from "next/link";
 import { Providers } from "@/components/providers";
 import { SiteHeader } from "@/components/site-header";
 
@@ -24,9 +25,33 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
         <main id="main" className="mx-auto w-full max-w-6xl px-4 py-8 sm:px-6">
           <Providers>{children}</Providers>
         </main>
-        <footer className="mx-auto max-w-6xl px-4 pb-10 pt-4 text-xs text-muted sm:px-6">
-          Rate parameters are shown as deposited and re-fitted automatically. Extrapolation outside the measured range is unreliable, and
-          safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.
+        <footer className="mx-auto max-w-6xl space-y-3 px-4 pb-10 pt-4 text-xs text-muted sm:px-6">
+          <nav aria-label="Browse">
+            <ul className="flex flex-wrap gap-x-4 gap-y-1">
+              <li>
+                <Link href="/reactions">Reactions</Link>
+              </li>
+              <li>
+                <Link href="/classes">Reaction classes</Link>
+              </li>
+              <li>
+                <Link href="/search">Search</Link>
+              </li>
+              <li>
+                <Link href="/analyse">Fit your own data</Link>
+              </li>
+              <li>
+                <Link href="/docs/api">API</Link>
+              </li>
+              <li>
+                <Link href="/docs/deposit-format">Deposit format</Link>
+              </li>
+            </ul>
+          </nav>
+          <p>
+            Rate parameters are shown as deposited and re-fitted automatically. Extrapolation outside the measured range is unreliable, and
+            safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.
+          </p>
         </footer>
       </body>
     </html>

@@ -1,13 +1,26 @@
+import type { Metadata } from "next";
 import Link from "next/link";
+import { publicPageMetadata } from "@/lib/page-metadata";
+import { countPublicDataCached } from "@/lib/reactions/cached";
 import { can } from "@/lib/auth/permissions";
 import { getCurrentUser } from "@/lib/auth/session";
-import { countPublicData } from "@/lib/reactions/queries";
 import { countUsersByRole } from "@/lib/users/queries";
 
+export async function generateMetadata(): Promise<Metadata> {
+  const title = "Arrhenia — curated rate constants";
+  return {
+    ...publicPageMetadata({
+      title,
+      description: "An open, curated repository of chemical rate-constant datasets, each re-fitted the same way and citable by version.",
+      path: "/",
+    }),
+    title: { absolute: title },
+  };
+}
 export const dynamic = "force-dynamic";
 
 export default async function HomePage() {
-  const [counts, data, user] = await Promise.all([countUsersByRole(), countPublicData(), getCurrentUser()]);
+  const [counts, data, user] = await Promise.all([countUsersByRole(), countPublicDataCached(), getCurrentUser()]);
   const stats = [
     { label: "published datasets", value: data.datasets, href: "/reactions" },
     { label: "reactions covered", value: data.reactions, href: "/reactions" },

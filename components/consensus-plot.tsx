@@ -4,20 +4,30 @@ import { formatRange } from "@/lib/format";
 import { kScaleSymbol, onKScale, useKScale } from "./k-scale";
 import { niceScale, temperatureTicks } from "./plot-scales";
 import { usePlotWidth } from "./plot-width";
-import { Area, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
+import { formatSignificant } from "@/lib/format";
+import { Area, CartesianGrid, ComposedChart, ErrorBar, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
+
+/** One point of a dataset: T in K, ln k, and the stated standard uncertainty of ln k when there is one. */
+export interface SeriesPoint {
+  T: number;
+  lnk: number;
+  sigmaLnK?: number;
+}
 
 export interface SeriesPoints {
   label: string;
-  points: { T: number; lnk: number }[];
+  points: SeriesPoint[];
   /** Drawn hollow and grey when left out of the consensus (e.g. a suspected unit mistake). */
   excluded?: boolean;
   /** Off the consensus of the others somewhere in its range (named so in the legend). */
   off?: boolean;
+  /** Why it is left out or off, in the consensus report's words (shown when its point is hovered). */
+  note?: string;
   /**
    * Points of a dataset in the consensus that it does not use (outside the reader's temperature
    * window, or outliers of the dataset's own fit): drawn hollow and faded, named so in the legend.
    */
-  unused?: { T: number; lnk: number }[];
+  unused?: SeriesPoint[];
   /** Why those points are not used, for the legend ("outside the window"). */
   unusedWhy?: string;
 }
@@ -59,7 +69,9 @@ export function ConsensusPlot({
   const domain = x.domain;
   const topTicks = temperatureTicks(domain, tickCount);
   const ys = [
-    ...series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => p.lnk)),
+    ...series.flatMap((s) =>
+      [...s.points, ...(s.unused ?? [])].flatMap((p) => (p.sigmaLnK ? [p.lnk - p.sigmaLnK, p.lnk + p.sigmaLnK] : [p.lnk])),
+    ),
     ...(band ? [...band.lower, ...band.upper] : []),
   ]
     .map(yOf)
@@ -73,6 +85,17 @@ export function ConsensusPlot({
   )}${band ? ", with the consensus as a dashed line and its 95 % band" : ", without a consensus line"}${
     unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn hollow` : ""
   }.`;
+  const withBars = series.some((s) => [...s.points, ...(s.unused ?? [])].some((p) => p.sigmaLnK));
+  // What a hovered or focused point tells: its dataset, T and k (and the error bar's size).
+  const drawn = (s: SeriesPoints, p: SeriesPoint) => ({
+    x: 1000 / p.T,
+    y: yOf(p.lnk),
+    T: p.T,
+    k: Math.exp(p.lnk),
+    dataset: s.label,
+    note: s.note,
+    ...(p.sigmaLnK ? { err: yOf(p.sigmaLnK) } : {}),
+  });
   const fit = band?.T.map((t, i) => ({ x: 1000 / t, fit: yOf(band.lnk[i]), range: [yOf(band.lower[i]), yOf(band.upper[i])] })) ?? [];
   return (
     <figure className="space-y-2">
@@ -111,10 +134,7 @@ export function ConsensusPlot({
               width={72}
               label={{ value: `${symbol}  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
             />
-            <Tooltip
-              formatter={(v) => (Array.isArray(v) ? v.map((x) => Number(x).toFixed(3)).join(" … ") : Number(v).toFixed(3))}
-              labelFormatter={(x) => `T = ${(1000 / Number(x)).toFixed(1)} K`}
-            />
+            <Tooltip content={<PointTip kUnitLabel={kUnitLabel} />} />
             <Legend verticalAlign="bottom" wrapperStyle={{ paddingTop: 24 }} />
             {band && (
               <Area
@@ -151,7 +171,7 @@ export function ConsensusPlot({
                   key={s.label}
                   xAxisId="inv"
                   name={s.excluded ? `${s.label} (left out)` : s.off ? `${s.label} (off the others)` : s.label}
-                  data={(s.excluded ? [...s.points, ...(s.unused ?? [])] : s.points).map((p) => ({ x: 1000 / p.T, y: yOf(p.lnk) }))}
+                  data={(s.excluded ? [...s.points, ...(s.unused ?? [])] : s.points).map((p) => drawn(s, p))}
                   dataKey="y"
                   shape={m.shape}
                   legendType={m.shape}
@@ -159,7 +179,9 @@ export function ConsensusPlot({
                   stroke={colour}
                   strokeWidth={m.hollow ? 1.5 : 0}
                   isAnimationActive={false}
-                />
+                >
+                  {withBars && <ErrorBar dataKey="err" direction="y" stroke={colour} width={3} />}
+                </Scatter>
               );
             })}
             {series.map((s, i) =>
@@ -168,7 +190,7 @@ export function ConsensusPlot({
                   key={`${s.label} unused`}
                   xAxisId="inv"
                   name={`${s.label}: ${s.unused.length} point${s.unused.length === 1 ? "" : "s"} not used (${s.unusedWhy ?? "outside the window"}), hollow`}
-                  data={s.unused.map((p) => ({ x: 1000 / p.T, y: yOf(p.lnk) }))}
+                  data={s.unused.map((p) => drawn(s, p))}
                   dataKey="y"
                   shape={markerOf(i).shape}
                   legendType={markerOf(i).shape}
@@ -178,7 +200,9 @@ export function ConsensusPlot({
                   strokeOpacity={0.7}
                   strokeDasharray="2 1"
                   isAnimationActive={false}
-                />
+                >
+                  {withBars && <ErrorBar dataKey="err" direction="y" stroke={markerOf(i).colour} strokeOpacity={0.7} width={3} />}
+                </Scatter>
               ) : null,
             )}
           </ComposedChart>
@@ -189,6 +213,7 @@ export function ConsensusPlot({
         {band
           ? " Dashed dark line: the consensus; shaded: its 95 % band, including the spread between datasets, drawn only over the temperatures the datasets cover."
           : " No consensus line: this choice of data gives no consensus."}
+        {withBars && " Bars: the stated ±1σ of each point where its authors give one."}
         {unusedCount > 0 &&
           " Hollow, faded markers of a dataset's shape are its points the consensus does not use: outside the chosen temperature window, or outliers of the dataset's own fit; the legend names them per dataset."}
         {tableHref && (
@@ -200,4 +225,32 @@ export function ConsensusPlot({
       </figcaption>
     </figure>
   );
+}
+
+/** The hovered (or keyboard-focused) point: its dataset, T and k; the consensus line's value elsewhere. */
+function PointTip({
+  active,
+  payload,
+  kUnitLabel,
+}: {
+  active?: boolean;
+  payload?: readonly { name?: unknown; value?: unknown; payload?: Record<string, unknown> }[];
+  kUnitLabel: string;
+}) {
+  if (!active || !payload?.length) return null;
+  const point = payload.find((p) => typeof p.payload?.dataset === "string")?.payload;
+  const body = point ? (
+    <>
+      <p className="font-medium">{String(point.dataset)}</p>
+      <p>T = {formatSignificant(Number(point.T), 5)} K</p>
+      <p>
+        k = {formatSignificant(Number(point.k), 4)} {kUnitLabel}
+      </p>
+      {typeof point.err === "number" && <p>error bar ±{formatSignificant(Number(point.err), 2)} on the axis</p>}
+      {typeof point.note === "string" && <p className="text-muted">{point.note}</p>}
+    </>
+  ) : (
+    <p>T = {formatSignificant(1000 / Number(payload[0]?.payload?.x), 4)} K (consensus)</p>
+  );
+  return <div className="rounded-md border border-line bg-panel px-3 py-2 text-xs shadow-xs">{body}</div>;
 }

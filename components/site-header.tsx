@@ -8,6 +8,7 @@ export async function SiteHeader() {
   const user = await getCurrentUser();
   const links: NavLink[] = [
     { href: "/reactions", label: "Reactions" },
+    { href: "/classes", label: "Classes" },
     { href: "/analyse", label: "Fit data" },
   ];
   if (user) {

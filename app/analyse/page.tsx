@@ -1,7 +1,15 @@
 import type { Metadata } from "next";
+import { publicPageMetadata } from "@/lib/page-metadata";
 import { AnalyseWorkbench } from "./workbench";
 
-export const metadata: Metadata = { title: "Fit your own data" };
+export async function generateMetadata(): Promise<Metadata> {
+  return publicPageMetadata({
+    title: "Fit your own data",
+    description:
+      "Paste a table of rate constants against temperature and get the Arrhenius, modified Arrhenius and Eyring fits with outliers and curvature flagged.",
+    path: "/analyse",
+  });
+}
 
 export default function AnalysePage() {
   return (

@@ -1,6 +1,13 @@
 import type { Metadata } from "next";
+import { publicPageMetadata } from "@/lib/page-metadata";
 
-export const metadata: Metadata = { title: "Search" };
+export async function generateMetadata(): Promise<Metadata> {
+  return publicPageMetadata({
+    title: "Search",
+    description: "Search published rate-constant datasets by species, reaction, author, technique or words of their description.",
+    path: "/search",
+  });
+}
 
 export default async function SearchPage({ searchParams }: { searchParams: Promise<{ q?: string }> }) {
   const { q } = await searchParams;

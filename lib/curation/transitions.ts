@@ -9,6 +9,8 @@ import { recordAuditEvent } from "@/lib/audit/record";
 import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
 import { AppError } from "@/lib/errors";
 import { mintSeriesIdentifier } from "@/lib/identifiers/mint";
+import { invalidatePublicCache } from "@/lib/public-cache";
+import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 import { buildSearchDocument } from "@/lib/search/documents";
 import { planTransition } from "./capabilities";
 import type { CoEditorRole, Transition, VersionState } from "./lifecycle";
@@ -53,7 +55,7 @@ export async function applyTransition({
   /** Work that must commit or roll back with the transition (queuing the mail and jobs it causes). */
   beforeCommit?: (tx: Transaction, outcome: TransitionOutcome) => Promise<void>;
 }): Promise<TransitionOutcome> {
-  return getDb().transaction(async (tx) => {
+  const outcome = await getDb().transaction(async (tx) => {
     const [version] = await tx
       .select({
         id: datasetVersions.id,
@@ -142,6 +144,9 @@ export async function applyTransition({
     if (beforeCommit) await beforeCommit(tx, outcome);
     return outcome;
   });
+  // What the public sees changed only on publication and retraction: its pages' cached data go stale now.
+  if (transition === "accept" || transition === "retract") invalidatePublicCache(await listVersionCacheTags({ versionId }));
+  return outcome;
 }
 
 /**

@@ -6,6 +6,8 @@ import { getSender, retryPolicy } from "@/lib/jobs/boss";
 import { runAnalysisTask } from "@/lib/workers/pool";
 import { ENGINE_VERSION } from "./prepare";
 import { appendRefitAnalysis } from "./queries";
+import { invalidatePublicCache } from "@/lib/public-cache";
+import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 
 /**
  * Re-analyses one version with the current engine and stores the result as a new analysis row
@@ -40,7 +42,10 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
   }
   if (!checked.analysis.ok) return (await append(null, checked.analysis.message)) ? "invalid" : "current";
   const result = checked.analysis.result;
-  return (await append(result)) ? "refitted" : "current";
+  if (!(await append(result))) return "current";
+  // A public version's pages show the newest fit.
+  invalidatePublicCache(await listVersionCacheTags({ versionId }));
+  return "refitted";
 }
 
 /** Versions whose newest analysis came from another engine version (or that have none). */

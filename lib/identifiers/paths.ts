@@ -13,3 +13,9 @@ export function resolvedIdentifierPath(found: { kind: "version" | "series"; data
     ? versionPath(found.datasetId, found.versionNumber)
     : seriesPath(found.datasetId);
 }
+
+/** The page of a species, by its standard InChIKey. */
+export const speciesPath = (inchiKey: string) => `/species/${inchiKey}`;
+
+/** The page of a reaction class, by its id in the deposit schema. */
+export const classPath = (classId: string) => `/classes/${classId}`;

@@ -477,11 +477,16 @@ export function selectionToJson(selection: ConsensusSelection) {
  * not (outside the reader's window, or outliers of its own fit) with why.
  */
 export function plotPoints(
-  v: { points: readonly { T: number; k: number }[] },
+  v: { points: readonly { T: number; k: number; sigmaLnK?: number }[] },
   input: { pointNumbers?: readonly number[] } | undefined,
   m: { outliers: number[] } | undefined,
 ) {
-  const toLnk = (p: { T: number; k: number }) => ({ T: p.T, lnk: Math.log(p.k) });
+  // The stated uncertainty goes with its point, for the error bar.
+  const toLnk = (p: { T: number; k: number; sigmaLnK?: number }) => ({
+    T: p.T,
+    lnk: Math.log(p.k),
+    ...(p.sigmaLnK ? { sigmaLnK: p.sigmaLnK } : {}),
+  });
   if (!input?.pointNumbers) return { points: v.points.map(toLnk), unused: [] };
   const kept = new Set(input.pointNumbers.map((n) => n - 1));
   const outliers = new Set((m?.outliers ?? []).map((i) => input.pointNumbers![i] - 1));

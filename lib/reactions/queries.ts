@@ -98,7 +98,12 @@ export async function listPublicVersionsOfReaction({ reactionId, db = getDb() }:
 /** Reactions that have at least one public dataset, with their counts (for listings). */
 export async function listReactionsWithPublicData() {
   return getDb()
-    .select({ id: reactions.id, equation: reactions.equation, datasets: sql<number>`count(distinct ${datasetVersions.datasetId})::int` })
+    .select({
+      id: reactions.id,
+      key: reactions.key,
+      equation: reactions.equation,
+      datasets: sql<number>`count(distinct ${datasetVersions.datasetId})::int`,
+    })
     .from(reactions)
     .innerJoin(datasetVersions, and(eq(datasetVersions.reactionId, reactions.id), isNewestPublic, eq(datasetVersions.state, "published")))
     .groupBy(reactions.id)

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { publicPageMetadata } from "@/lib/page-metadata";
 import { CAUTION, MAX_POINTS } from "@/lib/analyses/analyse-request";
 import { endpointScopes } from "@/lib/auth/endpoint-scopes";
 import { appUrl } from "@/lib/config";
@@ -7,7 +8,14 @@ import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { CONSENSUS_SELECTION_RULES } from "@/lib/reactions/consensus-selection";
 import { ScrollRegion } from "@/components/scroll-region";
 
-export const metadata: Metadata = { title: "API" };
+export async function generateMetadata(): Promise<Metadata> {
+  return publicPageMetadata({
+    title: "API",
+    description:
+      "The REST API for reading and depositing rate-constant datasets: endpoints, tokens, units and the conventions of the fits.",
+    path: "/docs/api",
+  });
+}
 
 const example = (base: string) => `curl -s ${base}/api/v1/analyses \\
   -H 'content-type: application/json' \\

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { publicPageMetadata } from "@/lib/page-metadata";
 import Link from "next/link";
 import { describeDepositSchema, type FieldDoc, type SectionDoc } from "@/lib/deposits/describe-schema";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
@@ -20,7 +21,13 @@ import { SUPPORTED_UNITS, type UnitDefinition } from "@/lib/kinetics";
 import { MarkdownText } from "@/components/markdown-text";
 import { ScrollRegion } from "@/components/scroll-region";
 
-export const metadata: Metadata = { title: "Deposit format" };
+export async function generateMetadata(): Promise<Metadata> {
+  return publicPageMetadata({
+    title: "Deposit format",
+    description: "The deposit document, field by field: what a dataset of rate constants must and may say, generated from its JSON Schema.",
+    path: "/docs/deposit-format",
+  });
+}
 
 const SCHEMA_PATH = "/schemas/deposit/v1.json";
 

@@ -2,6 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { protectedAction } from "@/lib/auth/action";
+import { invalidatePublicCache, reactionTag, SEARCH_TAG } from "@/lib/public-cache";
 import { excludeFromConsensus, includeInConsensus } from "@/lib/reactions/exclusions";
 import { excludeFromConsensusSchema, includeInConsensusSchema } from "@/lib/reactions/schemas";
 
@@ -13,7 +14,8 @@ export const excludeFromConsensusAction = protectedAction(
   { permission: "dataset.review" },
   async ({ versionId, reason }, user) => {
     const { reactionId, changed } = await excludeFromConsensus({ actor: user, versionId, reason });
-    revalidatePath(`/reactions/${reactionId}`);
+    if (reactionId !== null) invalidatePublicCache([reactionTag(reactionId), SEARCH_TAG]);
+    revalidatePath("/reactions/[id]", "page");
     return { status: "ok", message: changed ? "Reason changed." : "Left out of the consensus." };
   },
 );
@@ -23,7 +25,8 @@ export const includeInConsensusAction = protectedAction(
   { permission: "dataset.review" },
   async ({ versionId }, user) => {
     const { reactionId } = await includeInConsensus({ actor: user, versionId });
-    revalidatePath(`/reactions/${reactionId}`);
+    if (reactionId !== null) invalidatePublicCache([reactionTag(reactionId), SEARCH_TAG]);
+    revalidatePath("/reactions/[id]", "page");
     return { status: "ok", message: "Included in the consensus again." };
   },
 );

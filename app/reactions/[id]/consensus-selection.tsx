@@ -24,11 +24,12 @@ const kindWords: Record<MethodKind, string> = {
  * (shareable, works without JavaScript). `values` are the raw parameters, kept when they are wrong.
  */
 export function ConsensusChoiceForm({
-  reactionId,
+  pagePath,
   values,
   errors,
 }: {
-  reactionId: number;
+  /** The reaction page this form reloads with the choice. */
+  pagePath: string;
   values: { include: string; Tmin: string; Tmax: string };
   errors: ParameterError[];
 }) {
@@ -74,7 +75,7 @@ export function ConsensusChoiceForm({
           {other.map((e) => ` ${e.message}.`).join("")}
         </p>
       )}
-      <form method="get" action={`/reactions/${reactionId}`} className="flex flex-wrap items-end gap-6">
+      <form method="get" action={pagePath} className="flex flex-wrap items-end gap-6">
         <fieldset className="space-y-1" aria-describedby={includeError ? "choice-include-error" : undefined}>
           <legend className="text-sm font-medium">Datasets</legend>
           {CONSENSUS_INCLUDES.map((value) => (
@@ -108,7 +109,7 @@ export function ConsensusChoiceForm({
           <button type="submit" className="btn-secondary">
             Show this consensus
           </button>
-          <Link href={`/reactions/${reactionId}`} className="text-sm">
+          <Link href={pagePath} className="text-sm">
             Back to the default
           </Link>
         </div>

@@ -1,7 +1,7 @@
-import { versionPath } from "@/lib/identifiers/paths";
+import { classPath, speciesPath, versionPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
+import { notFound, permanentRedirect } from "next/navigation";
 import { ConsensusPlot } from "@/components/consensus-plot";
 import { ConsensusComparisons, ConsensusSummary, comparisonCell } from "@/components/consensus-report";
 import { StateLabel } from "@/components/state-label";
@@ -15,24 +15,50 @@ import { GAS_CONSTANT, getCanonicalRateConstantUnit, type ReactionOrder } from "
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { consensusLabel, parseConsensusChoice, plotPoints } from "@/lib/reactions/consensus-selection";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
-import { getReaction, listDatasetRolesOf } from "@/lib/reactions/queries";
+import { listDatasetRolesOf } from "@/lib/reactions/queries";
+import { cachedConsensusReaders, getPublicReactionCached, getReactionCached } from "@/lib/reactions/cached";
+import { reactionPath, reactionSegment, readReactionSegment } from "@/lib/reactions/paths";
+import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
+import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { formatRange, formatSignificant } from "@/lib/format";
-import { parseIdOrNull } from "@/lib/ids";
 import { ConsensusChoiceForm, WhatWentIn, type ExclusionRow } from "./consensus-selection";
 import { ScrollRegion } from "@/components/scroll-region";
 import { energyQuantityLabel } from "@/lib/unit-labels";
 
-/** The reaction's equation in the browser tab. */
+/** A path segment as written, "%3E%3E" read as ">>" (the front server already refused malformed escapes). */
+function decoded(segment: string): string {
+  try {
+    return decodeURIComponent(segment);
+  } catch {
+    return segment;
+  }
+}
+
+/** Where a `/reactions/<id or key>` path leads: the public reaction, or null. */
+async function reactionOf(segment: string) {
+  const named = readReactionSegment(decoded(segment));
+  return named ? getPublicReactionCached(named) : null;
+}
+
+/** The reaction's equation in the browser tab, its canonical address by key, and a link preview. */
 export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
-  const reactionId = parseIdOrNull((await params).id);
-  const reaction = reactionId !== null ? await getReaction({ id: reactionId }) : null;
-  return { title: reaction ? reaction.equation : "Not found" };
+  const reaction = await reactionOf((await params).id);
+  if (!reaction) return NOT_FOUND_METADATA;
+  return publicPageMetadata({
+    title: reaction.equation,
+    description: `Every published dataset of ${reaction.equation} on one Arrhenius plot, with the consensus of the datasets and how each compares with it.`,
+    path: reactionPath(reaction.key),
+  });
 }
 export const dynamic = "force-dynamic";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
-/** Every public dataset of one reaction, compared on one plot, with the consensus expression. */
+/**
+ * Every public dataset of one reaction, compared on one plot, with the consensus expression. The
+ * address is the reaction key (lib/reactions/paths.ts); the numeric id and the key written with
+ * ">>" redirect (308) there, keeping the reader's choice of data.
+ */
 export default async function ReactionPage({
   params,
   searchParams,
@@ -40,15 +66,25 @@ export default async function ReactionPage({
   params: Promise<{ id: string }>;
   searchParams?: Promise<Record<string, string | string[] | undefined>>;
 }) {
-  const { id } = await params;
-  const reactionId = parseIdOrNull(id);
-  const reaction = reactionId !== null ? await getReaction({ id: reactionId }) : null;
-  if (!reaction) notFound();
+  const { id: segment } = await params;
+  const found = await reactionOf(segment);
+  if (!found) notFound();
   // The reader's choice of data lives in the URL; a choice that cannot be read falls back to the default, saying so.
   const query = (await searchParams) ?? {};
+  const pagePath = reactionPath(found.key);
+  if (decoded(segment) !== reactionSegment(found.key)) {
+    const search = new URLSearchParams(Object.entries(query).flatMap(([k, v]) => [v ?? []].flat().map((x) => [k, x]))).toString();
+    permanentRedirect(search ? `${pagePath}?${search}` : pagePath);
+  }
+  const reaction = await getReactionCached({ id: found.id });
+  if (!reaction) notFound();
   const chosen = parseConsensusChoice(query);
   const raw = (name: string) => [query[name]].flat()[0] ?? "";
-  const { versions, selection, result, unavailable } = await loadReactionConsensus({ reactionId: reaction.id, choice: chosen.choice });
+  const { versions, selection, result, unavailable } = await loadReactionConsensus({
+    reactionId: reaction.id,
+    choice: chosen.choice,
+    read: cachedConsensusReaders,
+  });
   const order = (selection.order ??
     (versions[0]?.payload as { reaction?: { order?: ReactionOrder } })?.reaction?.order ??
     2) as ReactionOrder;
@@ -76,6 +112,17 @@ export default async function ReactionPage({
       <header className="space-y-3">
         <p className="text-sm text-muted">Reaction</p>
         <h1 className="text-3xl font-semibold">{reaction.equation}</h1>
+        {found.classes.length > 0 && (
+          <p className="text-sm">
+            Reaction class:{" "}
+            {found.classes.map((c, i) => (
+              <span key={c}>
+                {i > 0 ? ", " : ""}
+                <Link href={classPath(c)}>{reactionClassFor(c)?.label ?? c}</Link>
+              </span>
+            ))}
+          </p>
+        )}
         <ul className="flex flex-wrap gap-4" aria-label="Species">
           {reaction.participants.map((p, i) => (
             <li key={`${p.side}-${p.speciesId}`} className="card flex items-center gap-3 p-3 text-xs">
@@ -90,7 +137,7 @@ export default async function ReactionPage({
               )}
               <div>
                 <p className="font-medium text-ink">
-                  {p.side === "reactant" ? "Reactant" : "Product"}: {p.names[0] ?? p.formula}
+                  {p.side === "reactant" ? "Reactant" : "Product"}: <Link href={speciesPath(p.inchiKey)}>{p.names[0] ?? p.formula}</Link>
                   {p.coefficient !== 1 ? ` ×${p.coefficient}` : ""}
                 </p>
                 <p>
@@ -108,7 +155,7 @@ export default async function ReactionPage({
       ) : (
         <>
           <ConsensusChoiceForm
-            reactionId={reaction.id}
+            pagePath={pagePath}
             values={{ include: raw("include"), Tmin: raw("Tmin"), Tmax: raw("Tmax") }}
             errors={chosen.ok ? [] : chosen.errors}
           />
@@ -129,8 +176,16 @@ export default async function ReactionPage({
                 ),
                 excluded: !used.has(v.versionId) || member(v.versionId)?.included === false,
                 off: member(v.versionId)?.disagreement?.off === true,
+                note: againstOthers(v.versionId) === "—" ? undefined : `Against the others: ${againstOthers(v.versionId)}`,
               }))}
             />
+            {published.length < 2 && (
+              <p className="text-sm">
+                {published.length === 1
+                  ? "Only one dataset of this reaction is published, so there is no consensus to draw: the plot shows its points, and its own fit is on its page."
+                  : "No published dataset of this reaction has points at two or more temperatures, so nothing can be fitted."}
+              </p>
+            )}
             <p className="text-xs text-muted">{FIT_CAUTION}</p>
           </section>
 
@@ -181,8 +236,9 @@ export default async function ReactionPage({
           </section>
         </>
       )}
-      <p className="text-sm">
+      <p className="flex flex-wrap gap-4 text-sm">
         <Link href="/reactions">All reactions</Link>
+        <Link href="/classes">Reaction classes</Link>
       </p>
     </div>
   );

@@ -1,5 +1,6 @@
 import { versionPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
+import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { MarkdownText } from "@/components/markdown-text";
@@ -19,10 +20,19 @@ export async function generateMetadata({ params }: { params: Promise<{ id: strin
   const { id, version: v } = await params;
   const datasetId = parseIdOrNull(id);
   const number = parseIdOrNull(/^v(\d+)$/.exec(v)?.[1]);
-  if (datasetId === null || number === null) return { title: "Not found" };
+  if (datasetId === null || number === null) return NOT_FOUND_METADATA;
   const entry = (await listPublicVersions({ datasetId })).find((x) => x.number === number);
   const found = entry ? await getVersionWithRole({ versionId: entry.id, userId: null }) : null;
-  return { title: found ? `${found.version.title} (version ${number})` : "Not found" };
+  if (!found) return NOT_FOUND_METADATA;
+  const shown = found.version;
+  return publicPageMetadata({
+    title: `${shown.title} (version ${number})`,
+    description: `${shown.state === "retracted" ? "Retracted. " : ""}Rate constants of one published dataset, version ${number}${
+      shown.versionIdentifier ? ` (${shown.versionIdentifier})` : ""
+    }: the points, the re-fitted Arrhenius parameters and how to cite it.`,
+    path: versionPath(datasetId, number),
+    type: "article",
+  });
 }
 export const dynamic = "force-dynamic";
 

@@ -1,0 +1,33 @@
+import type { Metadata } from "next";
+import { appUrl } from "@/lib/config";
+
+/** The site's name in titles and link previews. */
+export const SITE_NAME = "Arrhenia";
+
+/**
+ * A public page's metadata: its title, a one-sentence description, the canonical URL on APP_URL
+ * (read at request time, so one build serves any address) and the OpenGraph tags of link previews.
+ */
+export function publicPageMetadata({
+  title,
+  description,
+  path,
+  type = "website",
+}: {
+  title: string;
+  description: string;
+  /** The page's path, starting with "/" (query strings never belong to a canonical URL here). */
+  path: string;
+  type?: "website" | "article";
+}): Metadata {
+  const url = `${appUrl()}${path}`;
+  return {
+    title,
+    description,
+    alternates: { canonical: url },
+    openGraph: { title: `${title} · ${SITE_NAME}`, description, url, siteName: SITE_NAME, type, locale: "en" },
+  };
+}
+
+/** What a missing page says in the tab (no canonical URL: there is no page). */
+export const NOT_FOUND_METADATA: Metadata = { title: "Not found", robots: { index: false } };
