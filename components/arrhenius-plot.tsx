@@ -43,6 +43,7 @@ export function ArrheniusPlot({
   reported,
   totalPoints,
   tableHref,
+  dataTableHref,
 }: {
   points: PlotPoint[];
   band: PlotBand;
@@ -51,6 +52,8 @@ export function ArrheniusPlot({
   reported?: { T: number[]; lnk: number[] };
   totalPoints?: number;
   tableHref?: string;
+  /** The page shows every point in a table of its own there: the figure links it instead of carrying a second one. */
+  dataTableHref?: string;
 }) {
   const [scale, scaleControl] = useKScale();
   const { ref: plotRef, tickCount } = usePlotWidth<HTMLDivElement>();
@@ -104,7 +107,8 @@ export function ArrheniusPlot({
     ? `${total.toLocaleString("en")} points (${points.length.toLocaleString("en")} of them drawn)`
     : `${points.length} points`;
   const summary = `Arrhenius plot, ${symbol} against 1000/T, of ${counted} between ${formatRange(tLow, tHigh, "K")}, ${symbol} from ${y.domain[0]} to ${y.domain[1]}, with the ${fitName}${band.lower ? " and its 95 % band" : ""}${withBars ? "; error bars show the stated ±1σ" : ""}${flagged.length ? `; ${flagged.length} point${flagged.length === 1 ? "" : "s"} flagged as outlier${flagged.length === 1 ? "" : "s"}, drawn as crosses` : ""}${reportedLine.length ? "; the expression the authors report is drawn dashed" : ""}. The fitted parameters are in the table below.`;
-  const tableLink = points.length <= TABLE_LIMIT && !thinned ? `#${tableId}` : tableHref;
+  const ownTable = !dataTableHref && points.length <= TABLE_LIMIT && !thinned;
+  const tableLink = dataTableHref ?? (ownTable ? `#${tableId}` : tableHref);
   return (
     <figure className="space-y-2">
       <div className="flex flex-wrap items-center justify-between gap-2">
@@ -232,13 +236,17 @@ export function ArrheniusPlot({
           <>
             {" "}
             <a href={tableLink}>
-              {thinned ? "All points, with fitted values and residuals, as a download" : "The plotted points as a table"}
+              {dataTableHref
+                ? "Every point as a table, with its residual"
+                : thinned
+                  ? "All points, with fitted values and residuals, as a download"
+                  : "The plotted points as a table"}
             </a>
             .
           </>
         )}
       </figcaption>
-      {points.length <= TABLE_LIMIT && !thinned && (
+      {ownTable && (
         <details className="text-sm" id={tableId}>
           <summary className="cursor-pointer text-link">The plotted points as a table</summary>
           <ScrollRegion label="Plotted points" scrollClassName="max-h-80 overflow-auto">

@@ -114,13 +114,24 @@ export function ResultTables({
                   {sig(a.r2, 5)} / {a.dof}
                 </td>
               </tr>
+              {/* Two different quantities: the weighted one is dimensionless and never called an SD of ln k. */}
               <tr>
-                <td>Residual spread</td>
-                <td colSpan={2} className="whitespace-normal!">
-                  SD of ln k residuals {sig(a.residualSDLnK, 3)}
-                  {analysis.weighted && ` · √(χ²/dof) ${sig(a.scaleFactor, 3)} (in units of the stated uncertainties)`}
-                </td>
+                <td>SD of ln k residuals{analysis.weighted ? " (unweighted)" : ""}</td>
+                <td colSpan={2}>{sig(a.residualSDLnK, 3)}</td>
               </tr>
+              {analysis.weighted && (
+                <tr>
+                  <td>
+                    √(χ²/dof), weighted
+                    <span className="block whitespace-normal text-xs text-muted">
+                      dimensionless: the typical residual in units of the stated uncertainties (1 when the points scatter as stated)
+                    </span>
+                  </td>
+                  <td colSpan={2} data-testid="scale-factor">
+                    {sig(a.scaleFactor, 3)}
+                  </td>
+                </tr>
+              )}
               {m && (
                 <>
                   <tr>

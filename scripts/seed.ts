@@ -2,11 +2,13 @@
 import { seedsDemoDatasets } from "@/lib/config";
 import { seedDemo, demoAccounts } from "./seed/seed-data";
 import { seedDemoDatasets } from "./seed/seed-datasets";
+import { seedDemoRevision } from "./seed/seed-revisions";
 
 const created = await seedDemo();
 console.log(`[arrhenia] demo seed: ${created} new account(s), ${demoAccounts.length - created} already present`);
 if (seedsDemoDatasets()) {
   const made = await seedDemoDatasets();
   console.log(made ? `[arrhenia] demo seed: ${made} datasets` : "[arrhenia] demo seed: datasets already present");
+  if (await seedDemoRevision()) console.log("[arrhenia] demo seed: a second version of one dataset");
 }
 process.exit(0);

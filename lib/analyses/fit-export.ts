@@ -71,7 +71,8 @@ export function fitPointRows(input: FitExportInput): Record<string, number | str
   }));
 }
 
-const cell = (v: unknown) => {
+/** One CSV field (RFC 4180): empty for null and non-finite numbers, quoted when it holds a quote, comma, newline or `#`. */
+export const csvCell = (v: unknown) => {
   if (v === null || v === undefined) return "";
   const s = typeof v === "number" ? (Number.isFinite(v) ? String(v) : "") : String(v);
   return /[",\n#]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
@@ -88,12 +89,13 @@ export function buildFitCsv(input: FitExportInput): string {
     `# units: T in ${TUnit}; k and fitted k in ${kUnit}; energies in ${energyUnit}; residuals are ln k − fitted ln k`,
     `# n = ${response.analysis.n}${response.analysis.weighted ? ", weighted by the stated σ(ln k)" : ""}`,
     ...fitParameters(input).map(
-      (p) => `# ${p.name} = ${cell(p.value)}${p.standardError === null ? "" : ` ± ${cell(p.standardError)} (standard error)`} ${p.unit}`,
+      (p) =>
+        `# ${p.name} = ${csvCell(p.value)}${p.standardError === null ? "" : ` ± ${csvCell(p.standardError)} (standard error)`} ${p.unit}`,
     ),
   ];
   const rows = fitPointRows(input);
   const columns = rows.length ? Object.keys(rows[0]) : [RATE_HEADER];
-  const body = rows.map((r) => columns.map((c) => cell(r[c])).join(","));
+  const body = rows.map((r) => columns.map((c) => csvCell(r[c])).join(","));
   return [...head, columns.join(","), ...body].join("\n") + "\n";
 }
 

@@ -21,6 +21,8 @@ export const endpointScopes: { method: string; path: string; scope: ApiTokenScop
     scope: "deposit",
     who: "owner (submit, withdraw); curators (review, decide, retract)",
   },
+  { method: "GET", path: "/api/v1/versions/:id/points.csv", scope: null, who: "anyone, for published and retracted versions" },
+  { method: "GET", path: "/api/v1/versions/:id/points.json", scope: null, who: "anyone, for published and retracted versions" },
   { method: "POST", path: "/api/v1/versions/:id/next", scope: "deposit", who: "owner of a published version" },
   { method: "GET", path: "/api/v1/versions/:id/files", scope: "read", who: "whoever may see the version" },
   { method: "POST", path: "/api/v1/versions/:id/files", scope: "deposit", who: "owner and editors of a draft" },

@@ -375,6 +375,23 @@ export async function getVersionPoints({ versionId }: { versionId: number }) {
     .orderBy(versionPoints.idx);
 }
 
+/** Every stored column of a version's points (canonical numbers and what was deposited), in deposit order. */
+export async function getVersionPointRows({ versionId }: { versionId: number }) {
+  return getDb()
+    .select({
+      T: versionPoints.temperatureK,
+      k: versionPoints.rateConstant,
+      sigmaLnK: versionPoints.sigmaLnK,
+      pressurePa: versionPoints.pressurePa,
+      bathGas: versionPoints.bathGas,
+      note: versionPoints.note,
+      original: versionPoints.original,
+    })
+    .from(versionPoints)
+    .where(eq(versionPoints.versionId, versionId))
+    .orderBy(versionPoints.idx);
+}
+
 /** True when the person owns a dataset whose first version has this title (keeps seeding idempotent). */
 export async function hasDatasetTitled({ ownerId, title }: { ownerId: number; title: string }): Promise<boolean> {
   const [row] = await getDb()
@@ -494,6 +511,7 @@ export async function listPublicVersions({ datasetId }: { datasetId: number }) {
       state: datasetVersions.state,
       versionIdentifier: datasetVersions.versionIdentifier,
       publishedAt: datasetVersions.publishedAt,
+      retractedAt: datasetVersions.retractedAt,
     })
     .from(datasetVersions)
     .where(and(eq(datasetVersions.datasetId, datasetId), inArray(datasetVersions.state, ["published", "retracted"])))

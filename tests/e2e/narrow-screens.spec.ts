@@ -1,6 +1,6 @@
-import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { DEMO_ADMIN } from "./pages/auth-pages";
+import { widthAndAxeProblems } from "./pages/layout-checks";
 import { DEMO_CURATORS, DEMO_RESEARCHER, signInAs } from "./pages/deposit-pages";
 
 // Every page, as each role, on a 390 px wide phone: nothing wider than the screen, and no serious
@@ -73,15 +73,7 @@ for (const [role, who] of Object.entries(roles) as [keyof typeof roles, (typeof 
         await page.getByRole("button", { name: "Fit" }).click();
         await expect(page.getByRole("heading", { name: "Result" })).toBeVisible();
       }
-      const { scrollWidth, clientWidth } = await page.evaluate(() => ({
-        scrollWidth: document.documentElement.scrollWidth,
-        clientWidth: document.documentElement.clientWidth,
-      }));
-      if (scrollWidth > clientWidth) problems.push(`${path}: ${scrollWidth} px wide on a ${clientWidth} px screen`);
-      const axe = await new AxeBuilder({ page }).analyze();
-      for (const v of axe.violations.filter((x) => x.impact === "serious" || x.impact === "critical")) {
-        problems.push(`${path}: axe ${v.id} (${v.impact}) on ${v.nodes.length} element(s), e.g. ${v.nodes[0]?.target.join(" ")}`);
-      }
+      problems.push(...(await widthAndAxeProblems(page, path)));
     }
     expect(paths.length).toBeGreaterThan(8);
     expect(problems).toEqual([]);

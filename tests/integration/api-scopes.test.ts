@@ -13,6 +13,8 @@ import * as userById from "@/app/api/v1/users/[id]/route";
 import * as users from "@/app/api/v1/users/route";
 import * as versionFiles from "@/app/api/v1/versions/[id]/files/route";
 import * as next from "@/app/api/v1/versions/[id]/next/route";
+import * as pointsCsv from "@/app/api/v1/versions/[id]/points.csv/route";
+import * as pointsJson from "@/app/api/v1/versions/[id]/points.json/route";
 import * as version from "@/app/api/v1/versions/[id]/route";
 import * as transitions from "@/app/api/v1/versions/[id]/transitions/route";
 import { createTokenAction } from "@/app/settings/actions";
@@ -34,6 +36,8 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/users": users,
   "/api/v1/versions/:id/files": versionFiles,
   "/api/v1/versions/:id/next": next,
+  "/api/v1/versions/:id/points.csv": pointsCsv,
+  "/api/v1/versions/:id/points.json": pointsJson,
   "/api/v1/versions/:id": version,
   "/api/v1/versions/:id/transitions": transitions,
 };

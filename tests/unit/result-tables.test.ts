@@ -88,3 +88,25 @@ describe("ResultTables labels", () => {
     expect(html).toContain(`<td>${formatSignificant(dS / 4.184, 4)}</td>`);
   });
 });
+
+describe("ResultTables residual spread", () => {
+  // Invented points with stated σ(ln k) = 0.05, so the fit is weighted.
+  const weighted = analyseDataset({ points: points.map((p) => ({ ...p, sigmaLnK: 0.05 })), order: 2 });
+
+  it("names the weighted √(χ²/dof) as dimensionless and the SD of ln k residuals apart from it", () => {
+    const html = render(weighted, "kJ mol-1");
+    expect(weighted.weighted).toBe(true);
+    expect(html).toContain(
+      'SD of ln k residuals (unweighted)</td><td colSpan="2">' + formatSignificant(weighted.arrhenius.residualSDLnK, 3),
+    );
+    expect(html).toContain("√(χ²/dof), weighted");
+    expect(html).toContain("dimensionless");
+    expect(html).toContain(`data-testid="scale-factor">${formatSignificant(weighted.arrhenius.scaleFactor, 3)}<`);
+  });
+
+  it("shows no weighted quantity on an unweighted fit", () => {
+    const html = render(analyseDataset({ points, order: 2 }), "kJ mol-1");
+    expect(html).toContain("SD of ln k residuals</td>");
+    expect(html).not.toContain("χ²/dof");
+  });
+});

@@ -204,6 +204,48 @@ export default function ApiDocsPage() {
         <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
       </section>
 
+      <section className="space-y-3" aria-labelledby="points">
+        <h2 id="points" className="text-2xl font-semibold">
+          GET /api/v1/versions/:id/points.csv and points.json
+        </h2>
+        <p>
+          Every point of one published or retracted version, as its page’s “Download the points” links give them. No sign-in. Any other
+          version (a draft, a submission, one in review, returned or declined) is 404 to everyone, its owner included (who reads a draft
+          through <code>GET /api/v1/versions/:id</code>). <code>:id</code> is the version’s id, as in the other version endpoints.
+        </p>
+        <ul className="list-disc space-y-1 pl-6 text-sm">
+          <li>
+            <code>points.csv</code>: <code>text/csv; charset=utf-8; header=present</code>, lines ending in CRLF. First come <code>#</code>{" "}
+            comment lines: version identifier, title, version and state, the retraction notice of a retracted version, licence, the citation
+            line, the page’s address, the caution sentence and what the residuals are. Then one header row and one row per point:{" "}
+            <code>row</code>, the deposited <code>T_deposited</code>, <code>k_deposited</code> with their units, the stated uncertainty (
+            <code>uncertainty_kind</code> absolute, relative in percent or factor; <code>uncertainty_value</code>;{" "}
+            <code>uncertainty_confidence</code> 1sigma or 2sigma), the deposited pressure and its unit, then the canonical <code>T_K</code>,{" "}
+            <code>k_canonical</code> and <code>k_canonical_unit</code> (s-1, cm3 molecule-1 s-1 or cm6 molecule-2 s-1 by order),{" "}
+            <code>sigma_ln_k</code>, <code>pressure_Pa</code>, <code>bath_gas</code>, <code>residual_ln_k</code> (ln k − fitted ln k of the
+            re-fit the page draws), <code>residual_in_sigma</code> (that residual over <code>sigma_ln_k</code>, weighted fits only),{" "}
+            <code>outlier</code> and <code>influential</code> (<code>yes</code> or empty), <code>note</code>. Empty cells are missing
+            values; text that a spreadsheet would take for a formula starts with an apostrophe.
+          </li>
+          <li>
+            <code>points.json</code>: <code>application/json</code>,{" "}
+            <code>
+              {
+                "{ about: { versionIdentifier, title, version, state, retraction, licence, citation, landingPage, caution, canonicalUnits, residuals }, points: [ { row, deposited: { T, TUnit, k, kUnit, uncertainty, pressure, pressureUnit }, canonical: { T, k, sigmaLnK, pressure }, bathGas, note, residualLnK, residualInSigma, findings: [ { code, reason } ] } ] }"
+              }
+            </code>
+            .
+          </li>
+        </ul>
+        <p className="text-sm">
+          Both answer with <code>Content-Disposition: attachment</code> and a file name made of the version identifier’s code and number (
+          <code>ARH-4F7K-9QXM-2-points.csv</code>).
+        </p>
+        <ScrollRegion label="Example points request">
+          <pre className="w-max min-w-full rounded-md border border-line bg-panel p-4 text-xs">{`curl -sOJ '${appUrl()}/api/v1/versions/1/points.csv'`}</pre>
+        </ScrollRegion>
+      </section>
+
       <section className="space-y-3" aria-labelledby="limits">
         <h2 id="limits" className="text-2xl font-semibold">
           Body sizes and safe retries

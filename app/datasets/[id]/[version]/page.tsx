@@ -4,14 +4,16 @@ import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { MarkdownText } from "@/components/markdown-text";
-import { ReportedExpression } from "@/components/reported-expression";
+import { ScrollRegion } from "@/components/scroll-region";
 import { StateLabel } from "@/components/state-label";
 import { VersionFit } from "@/components/version-fit";
-import { getDatasetSummary, getLatestAnalysis, getVersionPoints, getVersionWithRole, listPublicVersions } from "@/lib/datasets/queries";
+import { getDatasetSummary, getVersionWithRole, listPublicVersions } from "@/lib/datasets/queries";
+import { POINT_TABLE_ROWS } from "@/lib/datasets/point-table";
+import { citeVersion, getPublicVersionPoints } from "@/lib/datasets/public-version";
+import { unitsFromQuery } from "@/lib/unit-choice";
 import { listVersionFiles } from "@/lib/datasets/files";
 import { parseIdOrNull } from "@/lib/ids";
-import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
-import type { DepositDocument } from "@/lib/deposits/types";
+import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
 import { formatNumber } from "@/lib/format";
 
@@ -36,34 +38,70 @@ export async function generateMetadata({ params }: { params: Promise<{ id: strin
 }
 export const dynamic = "force-dynamic";
 
+const day = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : "—");
+
 /** The public page of one published (or retracted) version: what its version identifier resolves to. */
-export default async function DatasetVersionPage({ params }: { params: Promise<{ id: string; version: string }> }) {
+export default async function DatasetVersionPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ id: string; version: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { id, version: v } = await params;
   const datasetId = parseIdOrNull(id);
   // Version numbers follow the id rule too: "v" then 1 … 2³¹−1.
   const number = parseIdOrNull(/^v(\d+)$/.exec(v)?.[1]);
   if (datasetId === null || number === null) notFound();
+  // Only published and retracted versions are listed: any other is not found, whoever asks.
   const versions = await listPublicVersions({ datasetId });
   const entry = versions.find((x) => x.number === number);
   if (!entry) notFound();
-  const [found, dataset, analysis, points, files] = await Promise.all([
-    getVersionWithRole({ versionId: entry.id, userId: null }),
+  const [loaded, dataset, files, query] = await Promise.all([
+    getPublicVersionPoints({ versionId: entry.id }),
     getDatasetSummary({ datasetId }),
-    getLatestAnalysis({ versionId: entry.id }),
-    getVersionPoints({ versionId: entry.id }),
     listVersionFiles({ versionId: entry.id }),
+    searchParams,
   ]);
-  if (!found) notFound();
-  const version = found.version;
-  const doc = version.payload as unknown as DepositDocument;
-  const result = drawableFit(analysis?.result);
+  if (!loaded) notFound();
+  const { version, doc, analysis: result, rows } = loaded;
+  const units = unitsFromQuery(doc.reaction.order, query);
+  // listPublicVersions is newest first.
+  const newest = versions[0];
+  const newer = newest.number > version.number ? newest : null;
+  const downloads = { csv: `/api/v1/versions/${version.id}/points.csv`, json: `/api/v1/versions/${version.id}/points.json` };
 
   return (
     <article className="space-y-6">
+      {version.state === "retracted" && (
+        <section
+          aria-labelledby="retraction-heading"
+          className="space-y-2 rounded-lg border-2 border-error bg-panel px-5 py-4"
+          data-testid="retraction-notice"
+        >
+          <h2 id="retraction-heading" className="text-xl font-semibold text-error">
+            This version was retracted{version.retractedAt ? ` on ${day(version.retractedAt)}` : ""}
+          </h2>
+          <p>{version.retractionNotice}</p>
+          <p className="text-sm text-muted">
+            It stays readable so that citations of it still lead here; read the notice before using its numbers.
+          </p>
+        </section>
+      )}
+      {newer && (
+        <p role="note" className="rounded-md border border-warn/50 bg-panel px-4 py-3 text-sm" data-testid="newer-version">
+          <span className="font-semibold text-warn">A newer version exists: </span>
+          <Link href={versionPath(datasetId, newer.number)}>
+            version {newer.number}
+            {newer.publishedAt ? `, published ${day(newer.publishedAt)}` : ""}
+          </Link>
+          {newer.state === "retracted" ? " (since retracted)" : ""}. This page shows version {version.number}, as cited.
+        </p>
+      )}
       <header className="space-y-3">
         <p className="flex flex-wrap items-center gap-3 text-sm text-muted">
           <StateLabel state={version.state} /> <span>Version {version.number}</span>
-          {version.publishedAt && <span>published {version.publishedAt.toISOString().slice(0, 10)}</span>}
+          {version.publishedAt && <span>published {day(version.publishedAt)}</span>}
           {version.reactionId && <Link href={`/reactions/${version.reactionId}`}>All datasets of this reaction</Link>}
         </p>
         <h1 className="text-3xl font-semibold">{version.title}</h1>
@@ -79,19 +117,12 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
           )}
           <dt className="text-muted">Licence</dt>
           <dd>{doc.license}</dd>
+          <dt className="text-muted">Cite as</dt>
+          <dd data-testid="citation">{citeVersion(version)}</dd>
           <dt className="text-muted">Content hash (SHA-256)</dt>
           <dd className="break-all font-mono text-xs">{version.payloadSha256}</dd>
         </dl>
       </header>
-
-      {version.state === "retracted" && (
-        <p role="note" className="rounded-md border border-error/40 bg-panel px-4 py-3 text-sm text-error">
-          <span className="font-semibold">
-            Retracted{version.retractedAt ? ` on ${version.retractedAt.toISOString().slice(0, 10)}` : ""}:{" "}
-          </span>
-          {version.retractionNotice}
-        </p>
-      )}
 
       {doc.description && (
         <section className="card" aria-label="Description">
@@ -110,7 +141,7 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
           {doc.reportedFit && (
             <>
               <h3 className="pt-2 font-semibold">Expression the authors report</h3>
-              {result ? <p>Shown beside the re-fitted parameters below, in the units chosen there.</p> : <ReportedExpression doc={doc} />}
+              <p>Shown below, in the units chosen there{result ? ", beside the re-fitted parameters" : ""}.</p>
             </>
           )}
           <p>
@@ -129,22 +160,47 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
         </div>
       </section>
 
-      {result && (
-        <section className="space-y-3" aria-labelledby="fit-heading">
-          <h2 id="fit-heading" className="text-2xl font-semibold">
-            Re-fitted here
-          </h2>
-          <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>
-          <VersionFit
-            analysis={result}
-            order={doc.reaction.order}
-            points={points}
-            reported={
-              doc.reportedFit ? { reportedFit: doc.reportedFit, units: doc.units, reaction: { order: doc.reaction.order } } : undefined
-            }
-          />
-        </section>
-      )}
+      <section className="space-y-3" aria-labelledby="fit-heading">
+        <h2 id="fit-heading" className="text-2xl font-semibold">
+          {result ? "The data, re-fitted here" : "The data"}
+        </h2>
+        {result && <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>}
+        <VersionFit
+          analysis={result}
+          order={doc.reaction.order}
+          points={rows.map((r) => ({ T: r.T, k: r.k, sigmaLnK: r.sigmaLnK }))}
+          rows={rows.slice(0, POINT_TABLE_ROWS)}
+          totalRows={rows.length}
+          initialKUnit={units.kUnit}
+          initialEnergyUnit={units.energyUnit}
+          downloadsHref="#downloads-heading"
+          reported={
+            doc.reportedFit ? { reportedFit: doc.reportedFit, units: doc.units, reaction: { order: doc.reaction.order } } : undefined
+          }
+        />
+      </section>
+
+      <section className="card space-y-2" aria-labelledby="downloads-heading">
+        <h2 id="downloads-heading" className="text-lg font-semibold">
+          Download the points
+        </h2>
+        <p className="text-sm">
+          Every point as deposited and in canonical units (T in K, k in {loaded.about.canonicalUnits.k}, pressure in Pa), with its
+          uncertainty, residual and findings, under a header with the identifier, licence, citation and the caution above.
+        </p>
+        <ul className="flex flex-wrap gap-3 text-sm">
+          <li>
+            <a className="btn-secondary" href={downloads.csv} download>
+              Points as CSV
+            </a>
+          </li>
+          <li>
+            <a className="btn-secondary" href={downloads.json} download>
+              Points as JSON
+            </a>
+          </li>
+        </ul>
+      </section>
 
       {files.length > 0 && (
         <section className="card space-y-2" aria-labelledby="files-heading">
@@ -162,22 +218,42 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
         </section>
       )}
 
-      {versions.length > 1 && (
-        <section className="card space-y-2" aria-labelledby="versions-heading">
-          <h2 id="versions-heading" className="text-lg font-semibold">
-            Other versions
-          </h2>
-          <ul className="space-y-1 text-sm">
-            {versions
-              .filter((x) => x.number !== number)
-              .map((x) => (
-                <li key={x.id}>
-                  <Link href={versionPath(datasetId, x.number)}>Version {x.number}</Link> — {x.state}, doi:{x.versionIdentifier}
-                </li>
+      <section className="card space-y-2" aria-labelledby="versions-heading">
+        <h2 id="versions-heading" className="text-lg font-semibold">
+          Versions
+        </h2>
+        <ScrollRegion label="Versions (scrollable table)">
+          <table className="table [&_td]:whitespace-nowrap">
+            <thead>
+              <tr>
+                <th scope="col">Version</th>
+                <th scope="col">Published</th>
+                <th scope="col">Identifier</th>
+                <th scope="col">State</th>
+              </tr>
+            </thead>
+            <tbody>
+              {versions.map((x) => (
+                <tr key={x.id} aria-current={x.number === number ? "page" : undefined}>
+                  <td>
+                    {x.number === number ? (
+                      <span className="font-semibold">Version {x.number} (this page)</span>
+                    ) : (
+                      <Link href={versionPath(datasetId, x.number)}>Version {x.number}</Link>
+                    )}
+                  </td>
+                  <td>{day(x.publishedAt)}</td>
+                  <td className="font-mono text-xs">doi:{x.versionIdentifier}</td>
+                  <td>
+                    <StateLabel state={x.state} />
+                    {x.retractedAt ? <span className="text-xs text-muted"> {day(x.retractedAt)}</span> : null}
+                  </td>
+                </tr>
               ))}
-          </ul>
-        </section>
-      )}
+            </tbody>
+          </table>
+        </ScrollRegion>
+      </section>
     </article>
   );
 }

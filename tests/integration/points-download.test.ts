@@ -1,0 +1,189 @@
+import { beforeAll, describe, expect, it, vi } from "vitest";
+
+vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
+
+import Papa from "papaparse";
+import { GET as getCsv } from "@/app/api/v1/versions/[id]/points.csv/route";
+import { GET as getJson } from "@/app/api/v1/versions/[id]/points.json/route";
+import { getCurrentUser } from "@/lib/auth/session";
+import type { Transition } from "@/lib/curation/lifecycle";
+import { applyTransition } from "@/lib/curation/transitions";
+import { depositNewDataset } from "@/lib/datasets/deposits";
+import { FIT_CAUTION } from "@/lib/datasets/version-json";
+import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
+import { createUser, type UserDto } from "@/lib/users/queries";
+import { uniqueEmail } from "./helpers";
+
+// N_A, CODATA 2018 (exact by the 2019 SI definition): k deposited per mole converts to per molecule.
+const AVOGADRO = 6.02214076e23;
+
+let owner: UserDto, other: UserDto, curator: UserDto, admin: UserDto;
+beforeAll(async () => {
+  const mk = (tag: string, role: UserDto["role"]) =>
+    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  [owner, other, curator, admin] = await Promise.all([
+    mk("points-owner", "researcher"),
+    mk("points-other", "researcher"),
+    mk("points-curator", "curator"),
+    mk("points-admin", "admin"),
+  ]);
+});
+
+/** The example deposit with k in cm³ mol⁻¹ s⁻¹ (absolute uncertainties likewise), so deposited and canonical columns differ. */
+function perMoleDocument(title: string) {
+  const doc = structuredClone(EXAMPLE_DEPOSIT) as typeof EXAMPLE_DEPOSIT;
+  doc.title = title;
+  doc.units = { ...doc.units, k: "cm3 mol-1 s-1" };
+  for (const p of doc.points) {
+    p.k = Number((p.k * AVOGADRO).toPrecision(6));
+    if (p.uncertainty?.kind === "absolute")
+      p.uncertainty = { ...p.uncertainty, value: Number((p.uncertainty.value * AVOGADRO).toPrecision(6)) };
+  }
+  delete doc.reportedFit;
+  return doc;
+}
+
+const walks: Record<string, Transition[]> = {
+  draft: [],
+  submitted: ["submit"],
+  in_review: ["submit", "start_review"],
+  returned: ["submit", "start_review", "return"],
+  declined: ["submit", "decline"],
+  published: ["submit", "accept"],
+  retracted: ["submit", "accept", "retract"],
+};
+
+async function versionIn(state: keyof typeof walks) {
+  const v = await depositNewDataset({ actor: owner, document: perMoleDocument(`Points download test (${state}) ${uniqueEmail("t")}`) });
+  for (const t of walks[state]) {
+    const byOwner = t === "submit";
+    const reason = t === "retract" ? "Retracted for the test: a calibration error." : byOwner ? undefined : "For the test.";
+    await applyTransition({ versionId: v.id, actorId: byOwner ? owner.id : curator.id, transition: t, reason });
+  }
+  return v;
+}
+
+const as = (u: UserDto | null) => vi.mocked(getCurrentUser).mockResolvedValue(u);
+const ctx = (id: number | string) => ({ params: Promise.resolve({ id: String(id) }) });
+const csv = (id: number | string) => getCsv(new Request(`http://127.0.0.1/api/v1/versions/${id}/points.csv`), ctx(id));
+const json = (id: number | string) => getJson(new Request(`http://127.0.0.1/api/v1/versions/${id}/points.json`), ctx(id));
+
+describe("downloads of a version's points", () => {
+  let published: { id: number };
+  beforeAll(async () => {
+    published = await versionIn("published");
+  }, 60_000);
+
+  it("CSV: text/csv attachment named by the identifier, # header with identifier, title, licence, citation and caution, deposited and canonical columns", async () => {
+    as(null);
+    const res = await csv(published.id);
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toMatch(/^text\/csv; charset=utf-8/);
+    const disposition = res.headers.get("content-disposition")!;
+    expect(disposition).toMatch(/^attachment; filename="ARH-[0-9A-Z]{4}-[0-9A-Z]{4}-1-points\.csv"$/);
+    const text = await res.text();
+    const comments = text.split("\r\n").filter((l) => l.startsWith("#"));
+    expect(comments.find((l) => l.startsWith("# version identifier: doi:10.5072/ARH-"))).toMatch(/\/1$/);
+    expect(comments).toContain(`# caution: ${FIT_CAUTION}`);
+    expect(comments).toContain("# licence: CC-BY-4.0");
+    expect(comments.find((l) => l.startsWith("# title: "))).toMatch(/Points download test \(published\)/);
+    expect(comments.find((l) => l.startsWith("# cite as: "))).toMatch(
+      /^# cite as: Okafor, Maren.* \(\d{4}\)\. Points download test .* Version 1\. Arrhenia\. doi:10\.5072\/ARH-/,
+    );
+    const table = Papa.parse<Record<string, string>>(
+      text
+        .split("\r\n")
+        .filter((l) => !l.startsWith("#"))
+        .join("\n"),
+      {
+        header: true,
+        skipEmptyLines: true,
+      },
+    );
+    expect(table.errors).toEqual([]);
+    expect(table.data).toHaveLength(EXAMPLE_DEPOSIT.points.length);
+    const first = table.data[0];
+    expect(first).toMatchObject({ row: "1", T_deposited: "250", T_deposited_unit: "K", k_deposited_unit: "cm3 mol-1 s-1", T_K: "250" });
+    expect(first.k_canonical_unit).toBe("cm3 molecule-1 s-1");
+    expect(Number(first.k_canonical)).toBeCloseTo(Number(first.k_deposited) / AVOGADRO, 25);
+    expect(Number(first.k_canonical) / 2.09e-15).toBeCloseTo(1, 5);
+    expect(first).toMatchObject({
+      uncertainty_kind: "absolute",
+      uncertainty_confidence: "2sigma",
+      pressure_deposited: "50",
+      pressure_deposited_unit: "Torr",
+    });
+    // 50 Torr = 50 × 101325/760 Pa (Torr defined as 1/760 atm).
+    expect(Number(first.pressure_Pa)).toBeCloseTo((50 * 101325) / 760, 6);
+    // Point 8 states its own pressure, point 10 its own bath gas, point 9 an uncertainty factor.
+    expect(table.data[7].pressure_deposited).toBe("100");
+    expect(table.data[7].note).toBe("Measured at 100 Torr to check for pressure dependence.");
+    expect(table.data[9].bath_gas).toBe("N2");
+    expect(table.data[8]).toMatchObject({ uncertainty_kind: "factor", uncertainty_value: "1.1", uncertainty_confidence: "1sigma" });
+    // The fit is weighted: every point has a residual, and the residual in σ is residual / σ(ln k).
+    for (const r of table.data) {
+      expect(Number.isFinite(Number(r.residual_ln_k))).toBe(true);
+      expect(Number(r.residual_in_sigma)).toBeCloseTo(Number(r.residual_ln_k) / Number(r.sigma_ln_k), 10);
+    }
+  });
+
+  it("JSON: the same points under an 'about' object, as an attachment", async () => {
+    as(null);
+    const res = await json(published.id);
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toMatch(/^application\/json/);
+    expect(res.headers.get("content-disposition")).toMatch(/^attachment; filename="ARH-[0-9A-Z-]+-1-points\.json"$/);
+    const body = await res.json();
+    expect(body.about).toMatchObject({
+      title: expect.stringMatching(/Points download test/),
+      version: 1,
+      state: "published",
+      retraction: null,
+      licence: "CC-BY-4.0",
+      caution: FIT_CAUTION,
+      canonicalUnits: { T: "K", k: "cm3 molecule-1 s-1", pressure: "Pa" },
+      residuals: { model: expect.stringMatching(/arrhenius/), weighted: true },
+    });
+    expect(body.about.versionIdentifier).toMatch(/^10\.5072\/ARH-.*\/1$/);
+    expect(body.about.citation).toContain(`doi:${body.about.versionIdentifier}`);
+    expect(body.points).toHaveLength(EXAMPLE_DEPOSIT.points.length);
+    expect(body.points[0].deposited).toMatchObject({ T: 250, TUnit: "K", kUnit: "cm3 mol-1 s-1", pressure: 50, pressureUnit: "Torr" });
+    expect(body.points[0].canonical.k / 2.09e-15).toBeCloseTo(1, 5);
+    expect(body.points[9].bathGas).toBe("N2");
+  });
+
+  it("a retracted version downloads with its notice in the header", async () => {
+    const v = await versionIn("retracted");
+    as(null);
+    const text = await (await csv(v.id)).text();
+    expect(text).toMatch(/^# version: 1 \(retracted\)\r$/m);
+    expect(text).toMatch(/^# retracted: \d{4}-\d\d-\d\dT.*: Retracted for the test: a calibration error\.\r$/m);
+    const body = await (await json(v.id)).json();
+    expect(body.about.retraction.notice).toBe("Retracted for the test: a calibration error.");
+  });
+
+  const roles = { anonymous: () => null, owner: () => owner, "other researcher": () => other, curator: () => curator, admin: () => admin };
+  for (const state of ["draft", "submitted", "in_review", "returned", "declined"] as const) {
+    it(`a version in state ${state} is 404 to everyone, its owner included (both formats), with nothing of it in the answer`, async () => {
+      const v = await versionIn(state);
+      for (const [role, who] of Object.entries(roles)) {
+        as(who());
+        for (const get of [csv, json]) {
+          const res = await get(v.id);
+          expect(res.status, `${role}, ${state}`).toBe(404);
+          expect(res.headers.get("content-type")).toBe("application/problem+json");
+          expect(await res.text()).not.toContain("Points download test");
+        }
+      }
+    });
+  }
+
+  it("a published version is 200 to every role; an id that is not a version id is 404", async () => {
+    for (const who of Object.values(roles)) {
+      as(who());
+      expect((await csv(published.id)).status).toBe(200);
+    }
+    as(null);
+    for (const bad of ["0", "abc", "99999999", "2147483648"]) expect((await csv(bad)).status).toBe(404);
+  });
+});
