@@ -22,6 +22,8 @@ import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import postgres from "postgres";
+import { reactionPath } from "@/lib/reactions/paths";
+import { FILTER_PARAMETERS } from "@/lib/search/params";
 import { fillBenchDatabase, fillSize, FILL_VERSION, type FillReport } from "./bench/fill";
 import { drive, formatTable, sampleTreeMemory, type ScenarioResult } from "./bench/load";
 
@@ -181,10 +183,11 @@ async function ensureFilledDatabase(): Promise<FillStamp> {
 // ---------------------------------------------------------------------------------------------
 // 2. Build and serve
 
-/** What the build depends on: the commit and every uncommitted change. */
+/** What the build depends on: every file outside scripts/, tests/ and Markdown, as committed and as changed since. */
 function buildStamp(): string {
   const git = (...args: string[]) => spawnSync("git", args, { encoding: "utf8" }).stdout;
-  return sha(git("rev-parse", "HEAD"), git("diff", "HEAD"), git("status", "--porcelain"));
+  const paths = ["--", ".", ":!scripts", ":!tests", ":!*.md"];
+  return sha(git("ls-tree", "-r", "HEAD", ...paths), git("diff", "HEAD", ...paths), git("status", "--porcelain", ...paths));
 }
 
 function buildApp() {
@@ -290,18 +293,13 @@ async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
           kind: "search",
           paths: Array.from({ length: 500 }, (_, i) => {
             const tMin = 200 + ((i * 37) % 800);
-            return q({ tMin, tMax: tMin + 100 + ((i * 53) % 400), reactionClass: classes[i % classes.length] });
+            return q({ tMin, tMax: tMin + 100 + ((i * 53) % 400), [FILTER_PARAMETERS.reactionClass]: classes[i % classes.length] });
           }),
         },
       );
     } else missing.push("search (no app/api/v1/search yet)");
     list.push({ name: "page: dataset version", kind: "page", paths: versions.map((v) => `/datasets/${v.dataset_id}/v${v.number}`) });
-    const byKey = routeExists("reactions", "[key]") || routeExists("reactions", "key");
-    list.push({
-      name: "page: reaction",
-      kind: "page",
-      paths: reactions.map((r) => (byKey ? `/reactions/${encodeURIComponent(r.key)}` : `/reactions/${r.id}`)),
-    });
+    list.push({ name: "page: reaction", kind: "page", paths: reactions.map((r) => reactionPath(r.key)) });
     if (routeExists("species", "[inchikey]"))
       list.push({ name: "page: species", kind: "page", paths: species.map((s) => `/species/${s.inchi_key}`) });
     else missing.push("species page (no app/species/[inchikey] yet)");
@@ -323,6 +321,10 @@ async function probe(s: Scenario): Promise<string> {
 const ms = (x: number) => (Number.isFinite(x) ? x.toFixed(x < 10 ? 1 : 0) : "-");
 const mib = (b: number) => `${(b / 2 ** 20).toFixed(0)} MiB`;
 
+if (process.env.BENCH_BUILD_ONLY) {
+  buildApp();
+  process.exit(0);
+}
 const stamp = await ensureFilledDatabase();
 if (process.env.BENCH_FILL_ONLY) {
   log(`filled: ${JSON.stringify(stamp)}`);
