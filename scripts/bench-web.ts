@@ -18,7 +18,7 @@
  */
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash } from "node:crypto";
-import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, statSync, writeFileSync } from "node:fs";
 import { loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import postgres from "postgres";
@@ -318,6 +318,16 @@ async function probe(s: Scenario): Promise<string> {
 
 // ---------------------------------------------------------------------------------------------
 
+/** Statements the cluster logged as slow since `offset` (log_min_duration_statement), slowest first. */
+function slowStatements(file: string, offset: number): { ms: number; text: string }[] {
+  if (!existsSync(file)) return [];
+  const text = readFileSync(file).subarray(offset).toString("utf8");
+  const found: { ms: number; text: string }[] = [];
+  for (const m of text.matchAll(/duration: ([\d.]+) ms\s+(?:statement|execute [^:]*): ([^\n]*)/g))
+    found.push({ ms: Number(m[1]), text: m[2] });
+  return found.sort((a, b) => b.ms - a.ms);
+}
+
 const ms = (x: number) => (Number.isFinite(x) ? x.toFixed(x < 10 ? 1 : 0) : "-");
 const mib = (b: number) => `${(b / 2 ** 20).toFixed(0)} MiB`;
 
@@ -331,6 +341,16 @@ if (process.env.BENCH_FILL_ONLY) {
   process.exit(0);
 }
 buildApp();
+// Statements slower than SLOW_MS go to the cluster's log, read back after the run (the plan of a slow search starts there).
+const SLOW_MS = env("BENCH_SLOW_MS", 200);
+const serverLog = path.join(process.env.BENCH_PG_DIR!, "server.log");
+{
+  const admin = postgres(process.env.BENCH_ADMIN_URL!, { max: 1, onnotice: () => {} });
+  await admin.unsafe(`alter system set log_min_duration_statement = ${SLOW_MS}`);
+  await admin`select pg_reload_conf()`;
+  await admin.end();
+}
+const logOffset = existsSync(serverLog) ? statSync(serverLog).size : 0;
 log(`starting scripts/serve.ts on ${base}`);
 const startedAt = performance.now();
 const server = startServer();
@@ -413,6 +433,9 @@ try {
   ];
   console.log(formatTable(targets));
   if (missing.length) console.log(`\nnot measured: ${missing.join("; ")}`);
+  const slow = slowStatements(serverLog, logOffset);
+  console.log(`\nPostgreSQL: ${slow.length} statement(s) over ${SLOW_MS} ms during the run (${serverLog})`);
+  for (const x of slow.slice(0, 3)) console.log(`  ${x.ms.toFixed(0)} ms: ${x.text.slice(0, 300)}`);
 
   if (process.env.BENCH_KEEP) {
     console.log(`\nThe server stays up at ${base} (bench database on port ${new URL(databaseUrl).port}); Ctrl-C stops it.`);

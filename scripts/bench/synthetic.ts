@@ -6,7 +6,7 @@
  * titles, journals and every number are made up. Nothing here is taken from any publication.
  */
 import type { DepositDocument } from "@/lib/deposits";
-import { LICENCES, type ReactionClassId } from "@/lib/deposits/vocabulary";
+import { LICENCES, TECHNIQUE_SUGGESTIONS, type ReactionClassId } from "@/lib/deposits/vocabulary";
 
 /** mulberry32: a small, fast, seedable generator (public-domain algorithm by Tommy Ettinger). */
 export function randomFrom(seed: number) {
@@ -341,19 +341,9 @@ export function makePeople(r: Random, count: number): Person[] {
 // ---------------------------------------------------------------------------------------------
 // Documents
 
-const EXPERIMENT = [
-  "pulsed laser photolysis",
-  "flash photolysis",
-  "discharge flow",
-  "shock tube",
-  "flow reactor",
-  "static reactor",
-  "relative rate",
-  "pulse radiolysis",
-  "stopped flow",
-  "jet-stirred reactor",
-];
-const THEORY = ["transition state theory", "variational transition state theory", "master equation", "trajectory calculations"];
+// The technique suggestions of the deposit vocabulary: the first ten are laboratory methods, the next four calculations.
+const EXPERIMENT = TECHNIQUE_SUGGESTIONS.slice(0, 10);
+const THEORY = TECHNIQUE_SUGGESTIONS.slice(10, 14);
 const DETECTION = [
   "laser-induced fluorescence",
   "resonance fluorescence",
