@@ -330,9 +330,14 @@ async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
 
 /** One request per scenario first: a scenario whose URLs fail is reported, not silently timed. */
 async function probe(s: Scenario): Promise<string> {
-  const res = await fetch(base + s.paths[0], { redirect: "manual" });
-  const body = await res.text();
-  return `${res.status} ${body.length} B ${s.paths[0]}`;
+  try {
+    const res = await fetch(base + s.paths[0], { redirect: "manual", signal: AbortSignal.timeout(60_000) });
+    const body = await res.text();
+    return `${res.status} ${body.length} B ${s.paths[0]}`;
+  } catch (err) {
+    // A saturated server (the previous scenario's requests still running) must not end the run.
+    return `no answer (${(err as Error).message}) ${s.paths[0]}`;
+  }
 }
 
 // ---------------------------------------------------------------------------------------------
