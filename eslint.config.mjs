@@ -75,6 +75,7 @@ const config = [
     ignores: [
       ".next/**",
       ".next-test/**",
+      ".next-bench/**",
       "node_modules/**",
       ".data/**",
       "drizzle/**",

@@ -9,9 +9,9 @@ import { recordAuditEvent } from "@/lib/audit/record";
 import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
 import { AppError } from "@/lib/errors";
 import { mintSeriesIdentifier } from "@/lib/identifiers/mint";
-import { buildSearchDocument } from "@/lib/search/documents";
 import { invalidatePublicCache } from "@/lib/public-cache";
 import { listVersionCacheTags } from "@/lib/reactions/public-queries";
+import { buildSearchDocument } from "@/lib/search/documents";
 import { planTransition } from "./capabilities";
 import type { CoEditorRole, Transition, VersionState } from "./lifecycle";
 

@@ -88,7 +88,8 @@ const versionColumns = {
 
 const severityRank: Record<string, number> = { info: 1, warn: 2, error: 3 };
 
-function summarise(points: StoredPoint[], analysis: AnalysisSummary) {
+/** The summary columns of a version (worst flag, flag codes, point count, measured range) from its points and analysis. */
+export function summarise(points: StoredPoint[], analysis: AnalysisSummary) {
   const flags = [...analysis.checks, ...((analysis.result?.flags as { code: string; severity: string }[] | undefined) ?? [])];
   const worst = flags.reduce((w, f) => ((severityRank[f.severity] ?? 0) > (severityRank[w] ?? 0) ? f.severity : w), "none");
   const Ts = points.map((p) => p.T);

@@ -1,0 +1,477 @@
+/**
+ * npm run bench:web — public discovery under load, on a database of about 100 000 published
+ * datasets. Not a test: prints one table and whether each target is met.
+ *
+ * 1. The benchmark's own cluster (scripts/with-bench-db.sh: .data/bench-postgres, port 54489) gets
+ *    a fresh database, migrated by scripts/migrate.ts, filled with synthetic published data
+ *    (scripts/bench/fill.ts) and given its search documents (lib/search/documents.ts, timed). The
+ *    filled database is kept: the next run only migrates it, unless the generator's version
+ *    (FILL_VERSION) or the size changed (BENCH_FRESH=1 refills; BENCH_FILL_ONLY=1 stops after the fill).
+ * 2. `next build` into .next-bench (skipped when the checkout has not changed since), served by
+ *    scripts/serve.ts, the real front server, on 127.0.0.1:3400 (BENCH_PORT).
+ * 3. autocannon, 32 connections (BENCH_CONNECTIONS), a short warm-up then BENCH_SECONDS (10) per
+ *    scenario, each request on the next of a few thousand URLs spread over the data; the server's
+ *    process tree's peak RSS is sampled from /proc throughout.
+ *
+ * BENCH_DATASETS (default 100 000) sizes the data (2 000 for a quick run); BENCH_KEEP=1 leaves the
+ * server running on port 3400 until Ctrl-C.
+ */
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { createHash } from "node:crypto";
+import { existsSync, mkdtempSync, readFileSync, statSync, writeFileSync } from "node:fs";
+import { loadavg, tmpdir } from "node:os";
+import path from "node:path";
+import postgres from "postgres";
+import { reactionPath } from "@/lib/reactions/paths";
+import { FILTER_PARAMETERS } from "@/lib/search/params";
+import { fillBenchDatabase, fillSize, FILL_VERSION, type FillReport } from "./bench/fill";
+import { drive, formatTable, sampleTreeMemory, type ScenarioResult } from "./bench/load";
+
+const root = process.cwd();
+const env = (name: string, fallback: number) => (process.env[name] ? Number(process.env[name]) : fallback);
+const datasets = env("BENCH_DATASETS", 100_000);
+const port = env("BENCH_PORT", 3400);
+const connections = env("BENCH_CONNECTIONS", 32);
+const seconds = env("BENCH_SECONDS", 10);
+const warmSeconds = env("BENCH_WARM_SECONDS", 2);
+const distDir = ".next-bench";
+const base = `http://127.0.0.1:${port}`;
+const log = (s: string) => console.error(`[bench:web] ${s}`);
+
+for (const name of ["DATABASE_URL", "MIGRATION_DATABASE_URL", "BENCH_ADMIN_URL", "BENCH_PG_DIR"]) {
+  if (!process.env[name]) throw new Error(`${name} is not set: run through npm run bench:web (scripts/with-bench-db.sh)`);
+}
+const databaseUrl = process.env.DATABASE_URL!;
+const ownerUrl = process.env.MIGRATION_DATABASE_URL!;
+const databaseName = new URL(databaseUrl).pathname.slice(1);
+
+const sha = (...parts: (string | Buffer)[]) => {
+  const h = createHash("sha256");
+  for (const p of parts) h.update(p);
+  return h.digest("hex").slice(0, 16);
+};
+
+// ---------------------------------------------------------------------------------------------
+// 1. The filled database
+
+interface FillStamp {
+  signature: string;
+  report: FillReport;
+  searchDocumentsSeconds: number | null;
+  searchDocuments: number | null;
+}
+
+/** What the fill depends on: the generator's version and the size (migrations are applied to a kept database at every run). */
+const signature = `fill-${FILL_VERSION}-${datasets}`;
+
+async function readStamp(): Promise<FillStamp | null> {
+  const sql = postgres(ownerUrl, { max: 1, onnotice: () => {} });
+  try {
+    const [row] = await sql<
+      { comment: string | null }[]
+    >`select shobj_description(oid, 'pg_database') as comment from pg_database where datname = ${databaseName}`;
+    const stamp = row?.comment?.startsWith("bench-fill ") ? (JSON.parse(row.comment.slice("bench-fill ".length)) as FillStamp) : null;
+    return stamp;
+  } finally {
+    await sql.end();
+  }
+}
+
+function run(command: string, args: string[], extraEnv: Record<string, string> = {}) {
+  const done = spawnSync(command, args, { stdio: ["ignore", "inherit", "inherit"], env: { ...process.env, ...extraEnv } });
+  if (done.status !== 0) throw new Error(`${command} ${args.join(" ")} failed (exit ${done.status})`);
+}
+
+async function recreateDatabase() {
+  const admin = postgres(process.env.BENCH_ADMIN_URL!, { max: 1, onnotice: () => {} });
+  try {
+    await admin.unsafe(`drop database if exists ${databaseName} with (force)`);
+  } finally {
+    await admin.end();
+  }
+  // The roles and the database, owned by the owner role, exactly as the project's clusters have them.
+  const port = new URL(databaseUrl).port;
+  run("bash", ["-c", `source scripts/env.sh && ensure_postgres && pg_roles "$BENCH_PG_DIR" ${port}`]);
+}
+
+/**
+ * The search documents of every public version, written by the search code's own builder
+ * (buildSearchDocument, one transaction per version as `npm run search:reindex` does) but several
+ * versions at a time, then each reaction's summary; timed. Null when this checkout has no builder.
+ */
+async function buildSearchDocuments(): Promise<number | null> {
+  if (!existsSync("lib/search/documents.ts")) {
+    log("no lib/search/documents.ts in this checkout: search documents not built");
+    return null;
+  }
+  const { buildSearchDocument, writeReactionSummary } = await import("@/lib/search/documents");
+  const { getDb } = await import("@/db/client");
+  const db = getDb();
+  const sql = postgres(databaseUrl, { max: 1, onnotice: () => {} });
+  const ids = (await sql<{ id: number }[]>`select id from dataset_versions where state in ('published', 'retracted') order by id`).map(
+    (r) => r.id,
+  );
+  const reactionIds = (
+    await sql<
+      { id: number }[]
+    >`select distinct reaction_id as id from dataset_versions where state in ('published', 'retracted') order by 1`
+  ).map((r) => r.id);
+  await sql.end();
+  const parallel = env("BENCH_INDEX_PARALLEL", 6);
+  const t0 = performance.now();
+  const each = async (items: number[], work: (id: number) => Promise<unknown>, what: string) => {
+    let next = 0;
+    let done = 0;
+    await Promise.all(
+      Array.from({ length: parallel }, async () => {
+        while (next < items.length) {
+          await work(items[next++]);
+          if (++done % 10_000 === 0) log(`  ${done}/${items.length} ${what} (${((performance.now() - t0) / 1000).toFixed(0)} s)`);
+        }
+      }),
+    );
+  };
+  log(`building ${ids.length} search documents (${parallel} at a time), then ${reactionIds.length} reaction summaries`);
+  await each(ids, (id) => db.transaction((tx) => buildSearchDocument(tx, id, { summaries: false })), "search documents");
+  const documentsSeconds = (performance.now() - t0) / 1000;
+  await each(reactionIds, (id) => db.transaction((tx) => writeReactionSummary(tx, id)), "reaction summaries");
+  const total = (performance.now() - t0) / 1000;
+  log(`search documents in ${documentsSeconds.toFixed(1)} s, reaction summaries in ${(total - documentsSeconds).toFixed(1)} s`);
+  return total;
+}
+
+async function countSearchDocuments(): Promise<number | null> {
+  const sql = postgres(ownerUrl, { max: 1, onnotice: () => {} });
+  try {
+    const [t] = await sql`select to_regclass('search_documents') as t`;
+    if (!t.t) return null;
+    const [row] = await sql<{ n: number }[]>`select count(*)::int as n from search_documents`;
+    return row.n;
+  } finally {
+    await sql.end();
+  }
+}
+
+/** BENCH_REUSE=1: the database as it is, described by counting (a fill still building its search documents, or changed by hand). */
+async function describeDatabaseAsIs(): Promise<FillStamp> {
+  const sql = postgres(ownerUrl, { max: 1, onnotice: () => {} });
+  try {
+    const [c] = await sql<{ datasets: number; versions: number; points: number; reactions: number; species: number; users: number }[]>`
+      select (select count(*)::int from datasets) as datasets,
+        (select count(*)::int from dataset_versions where state in ('published', 'retracted')) as versions,
+        (select count(*)::int from version_points) as points, (select count(*)::int from reactions) as reactions,
+        (select count(*)::int from species) as species, (select count(*)::int from users) as users`;
+    return { signature, report: { ...c, seconds: {} }, searchDocumentsSeconds: null, searchDocuments: await countSearchDocuments() };
+  } finally {
+    await sql.end();
+  }
+}
+
+async function ensureFilledDatabase(): Promise<FillStamp> {
+  if (process.env.BENCH_REUSE) {
+    log("BENCH_REUSE: the database as it is, no fill and no migration");
+    return describeDatabaseAsIs();
+  }
+  const existing = process.env.BENCH_FRESH ? null : await readStamp().catch(() => null);
+  if (existing?.signature === signature) {
+    log(`reusing the filled database (${existing.report.datasets} datasets; BENCH_FRESH=1 refills)`);
+    run("node_modules/.bin/tsx", ["--conditions=react-server", "scripts/migrate.ts"]);
+    return existing;
+  }
+  log(existing ? "the migrations, the generator or the size changed: refilling" : "filling a new benchmark database");
+  await recreateDatabase();
+  run("node_modules/.bin/tsx", ["--conditions=react-server", "scripts/migrate.ts"]);
+  const owner = postgres(ownerUrl, { max: 1, onnotice: () => {} });
+  let report: FillReport;
+  try {
+    report = await fillBenchDatabase(owner, fillSize(datasets), path.join(process.env.BENCH_PG_DIR!, "fill"), log);
+  } finally {
+    await owner.end();
+  }
+  const searchDocumentsSeconds = await buildSearchDocuments();
+  const stamp: FillStamp = { signature, report, searchDocumentsSeconds, searchDocuments: await countSearchDocuments() };
+  const sql = postgres(ownerUrl, { max: 1, onnotice: () => {} });
+  try {
+    await sql.unsafe(`comment on database ${databaseName} is 'bench-fill ${JSON.stringify(stamp).replace(/'/g, "''")}'`);
+  } finally {
+    await sql.end();
+  }
+  return stamp;
+}
+
+// ---------------------------------------------------------------------------------------------
+// 2. Build and serve
+
+/** What the build depends on: every file outside scripts/, tests/ and Markdown, as committed and as changed since. */
+function buildStamp(): string {
+  const git = (...args: string[]) => spawnSync("git", args, { encoding: "utf8" }).stdout;
+  const paths = ["--", ".", ":!scripts", ":!tests", ":!*.md"];
+  return sha(git("ls-tree", "-r", "HEAD", ...paths), git("diff", "HEAD", ...paths), git("status", "--porcelain", ...paths));
+}
+
+function buildApp() {
+  const stampFile = path.join(distDir, "bench-build-stamp");
+  const stamp = buildStamp();
+  if (existsSync(stampFile) && readFileSync(stampFile, "utf8") === stamp) {
+    log(`reusing the production build in ${distDir} (no change since it was made)`);
+    return;
+  }
+  log(`next build into ${distDir}`);
+  const t0 = performance.now();
+  run("node_modules/.bin/next", ["build"], { NEXT_DIST_DIR: distDir });
+  writeFileSync(stampFile, stamp);
+  log(`built in ${((performance.now() - t0) / 1000).toFixed(0)} s`);
+}
+
+function startServer(): ChildProcess {
+  return spawn("node_modules/.bin/tsx", ["--conditions=react-server", "scripts/serve.ts"], {
+    stdio: ["ignore", "inherit", "inherit"],
+    detached: false,
+    env: {
+      ...process.env,
+      PORT: String(port),
+      HOST: "127.0.0.1",
+      APP_URL: base,
+      NEXTAUTH_URL: base,
+      NEXTAUTH_SECRET: `bench-${Math.random().toString(36).slice(2)}`,
+      NEXT_DIST_DIR: distDir,
+      SERVE_QUIET: "1",
+      NODE_ENV: "production",
+      MAIL_CAPTURE_PORT: String(env("MAIL_CAPTURE_PORT", port + 5)),
+      DOI_FAKE_PORT: String(env("DOI_FAKE_PORT", port + 7)),
+      DOI_FAKE_DATA_DIR: mkdtempSync(path.join(tmpdir(), "arrhenia-bench-doi-")),
+    },
+  });
+}
+
+async function waitForServer(server: ChildProcess, deadline = Date.now() + 180_000) {
+  while (Date.now() < deadline) {
+    if (server.exitCode !== null) throw new Error(`the server exited (${server.exitCode}) before it answered`);
+    const ok = await fetch(`${base}/api/health`).then(
+      (r) => r.ok,
+      () => false,
+    );
+    if (ok) return;
+    await new Promise((r) => setTimeout(r, 300));
+  }
+  throw new Error("the server did not answer /api/health within 3 minutes");
+}
+
+// ---------------------------------------------------------------------------------------------
+// 3. Scenarios
+
+interface Scenario {
+  name: string;
+  kind: "search" | "page";
+  paths: string[];
+}
+
+const routeExists = (...segments: string[]) => existsSync(path.join(root, "app", ...segments));
+
+/** URLs spread over the data, read from the bench database (as the runtime role). */
+async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
+  const sql = postgres(databaseUrl, { max: 1, onnotice: () => {} });
+  const q = (params: Record<string, string | number>) =>
+    `/api/v1/search?${new URLSearchParams(Object.entries(params).map(([k, v]) => [k, String(v)]))}`;
+  try {
+    const versions = await sql<{ dataset_id: number; number: number }[]>`
+      select dataset_id, number from dataset_versions where state in ('published', 'retracted') order by random() limit 3000`;
+    const reactions = await sql<{ id: number; key: string }[]>`
+      select distinct r.id, r.key from reactions r join dataset_versions v on v.reaction_id = r.id and v.state = 'published' order by r.id`;
+    const species = await sql<{ inchi_key: string; name: string; formula: string }[]>`
+      select s.inchi_key, min(n.name) as name, s.formula from species s join species_names n on n.species_id = s.id
+      where exists (select 1 from reaction_participants p where p.species_id = s.id) group by s.id order by random() limit 2000`;
+    const words = await sql<{ w: string }[]>`
+      select distinct split_part(name, ',', 1) as w from users where role = 'researcher' order by 1 limit 300`;
+    const pairs = await sql<{ x: string; m: string }[]>`
+      select (select name from species_names where species_id = a.species_id order by length(name), name limit 1) as x,
+             (select name from species_names where species_id = b.species_id order by length(name), name limit 1) as m
+      from reaction_participants a join reaction_participants b on a.reaction_id = b.reaction_id and a.side = 'reactant' and b.side = 'reactant' and a.species_id < b.species_id
+      order by random() limit 2000`;
+    const techniques = [
+      "flash photolysis",
+      "shock tube",
+      "discharge flow",
+      "master equation",
+      "relative rate",
+      "pulsed laser photolysis",
+      "combustion",
+      "halocarbons",
+    ];
+    const text = [...techniques, ...words.map((w) => w.w)];
+    const classes = ["hydrogen-abstraction", "addition", "bond-fission", "recombination"];
+    const list: Scenario[] = [];
+    const missing: string[] = [];
+    if (routeExists("api", "v1", "search", "route.ts")) {
+      list.push(
+        { name: "search: text", kind: "search", paths: text.map((t) => q({ q: t })) },
+        { name: "search: species", kind: "search", paths: species.flatMap((s, i) => [q({ q: i % 3 === 2 ? s.formula : s.name })]) },
+        { name: "search: reaction (X + Y)", kind: "search", paths: pairs.map((p) => q({ q: `${p.x} + ${p.m}` })) },
+        {
+          name: "search: T window + class",
+          kind: "search",
+          paths: Array.from({ length: 500 }, (_, i) => {
+            const tMin = 200 + ((i * 37) % 800);
+            return q({ tMin, tMax: tMin + 100 + ((i * 53) % 400), [FILTER_PARAMETERS.reactionClass]: classes[i % classes.length] });
+          }),
+        },
+      );
+    } else missing.push("search (no app/api/v1/search yet)");
+    list.push({ name: "page: dataset version", kind: "page", paths: versions.map((v) => `/datasets/${v.dataset_id}/v${v.number}`) });
+    list.push({ name: "page: reaction", kind: "page", paths: reactions.map((r) => reactionPath(r.key)) });
+    if (routeExists("species", "[inchikey]"))
+      list.push({ name: "page: species", kind: "page", paths: species.map((s) => `/species/${s.inchi_key}`) });
+    else missing.push("species page (no app/species/[inchikey] yet)");
+    return { list, missing };
+  } finally {
+    await sql.end();
+  }
+}
+
+/** One request per scenario first: a scenario whose URLs fail is reported, not silently timed. */
+async function probe(s: Scenario): Promise<string> {
+  try {
+    const res = await fetch(base + s.paths[0], { redirect: "manual", signal: AbortSignal.timeout(60_000) });
+    const body = await res.text();
+    return `${res.status} ${body.length} B ${s.paths[0]}`;
+  } catch (err) {
+    // A saturated server (the previous scenario's requests still running) must not end the run.
+    return `no answer (${(err as Error).message}) ${s.paths[0]}`;
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+
+/** Statements the cluster logged as slow since `offset` (log_min_duration_statement), slowest first. */
+function slowStatements(file: string, offset: number): { ms: number; text: string }[] {
+  if (!existsSync(file)) return [];
+  const text = readFileSync(file).subarray(offset).toString("utf8");
+  const found: { ms: number; text: string }[] = [];
+  for (const m of text.matchAll(/duration: ([\d.]+) ms\s+(?:statement|execute [^:]*): ([^\n]*)/g))
+    found.push({ ms: Number(m[1]), text: m[2] });
+  return found.sort((a, b) => b.ms - a.ms);
+}
+
+const ms = (x: number) => (Number.isFinite(x) ? x.toFixed(x < 10 ? 1 : 0) : "-");
+const mib = (b: number) => `${(b / 2 ** 20).toFixed(0)} MiB`;
+
+if (process.env.BENCH_BUILD_ONLY) {
+  buildApp();
+  process.exit(0);
+}
+const stamp = await ensureFilledDatabase();
+if (process.env.BENCH_FILL_ONLY) {
+  log(`filled: ${JSON.stringify(stamp)}`);
+  process.exit(0);
+}
+buildApp();
+// Statements slower than SLOW_MS go to the cluster's log, read back after the run (the plan of a slow search starts there).
+const SLOW_MS = env("BENCH_SLOW_MS", 200);
+const serverLog = path.join(process.env.BENCH_PG_DIR!, "server.log");
+{
+  const admin = postgres(process.env.BENCH_ADMIN_URL!, { max: 1, onnotice: () => {} });
+  await admin.unsafe(`alter system set log_min_duration_statement = ${SLOW_MS}`);
+  await admin`select pg_reload_conf()`;
+  await admin.end();
+}
+const logOffset = existsSync(serverLog) ? statSync(serverLog).size : 0;
+log(`starting scripts/serve.ts on ${base}`);
+const startedAt = performance.now();
+const server = startServer();
+const stopServer = () => {
+  if (server.exitCode === null) server.kill("SIGTERM");
+};
+process.on("exit", stopServer);
+let memory: ReturnType<typeof sampleTreeMemory> | null = null;
+try {
+  await waitForServer(server);
+  const startSeconds = (performance.now() - startedAt) / 1000;
+  memory = sampleTreeMemory(server.pid!);
+  const { list, missing } = await scenarios();
+  const results: ScenarioResult[] = [];
+  const loadBefore = loadavg();
+  for (const s of list) {
+    log(`${s.name}: ${await probe(s)}`);
+    await drive(base, s.paths, warmSeconds, connections);
+    const r = await drive(base, s.paths, seconds, connections);
+    results.push({ name: s.name, kind: s.kind, ...r });
+    log(`${s.name}: p95 ${ms(r.p95)} ms, ${r.requestsPerSecond.toFixed(0)} req/s, non-2xx ${r.non2xx}`);
+  }
+  const loadAfter = loadavg();
+  memory.stop();
+
+  const rep = stamp.report;
+  console.log(
+    `\nArrhenia web benchmark: ${rep.datasets} datasets (${rep.versions} published versions, ${rep.points} points, ${rep.reactions} reactions, ${rep.species} species)`,
+  );
+  console.log(
+    `autocannon ${connections} connections, ${seconds} s per scenario after ${warmSeconds} s warm-up; server ${base} (scripts/serve.ts, ${distDir})\n`,
+  );
+  const rows = [["scenario", "p50 ms", "p95 ms", "p99 ms", "req/s", "requests", "non-2xx", "errors"]];
+  for (const r of results)
+    rows.push([
+      r.name,
+      ms(r.p50),
+      ms(r.p95),
+      ms(r.p99),
+      r.requestsPerSecond.toFixed(0),
+      String(r.requests),
+      String(r.non2xx),
+      String(r.errors),
+    ]);
+  console.log(formatTable(rows));
+  console.log(
+    `\nserver peak RSS (process tree, ${memory.processes} processes): ${mib(memory.peak)}; start to first answer ${startSeconds.toFixed(1)} s`,
+  );
+  console.log(
+    `search documents: ${stamp.searchDocuments ?? 0}${stamp.searchDocumentsSeconds === null ? " (build not timed in this run)" : ` built in ${stamp.searchDocumentsSeconds.toFixed(1)} s`}`,
+  );
+  console.log(
+    `fill: ${Object.entries(rep.seconds)
+      .map(([k, v]) => `${k} ${v.toFixed(1)} s`)
+      .join("; ")}`,
+  );
+  console.log(
+    `load average (1/5/15 min): before ${loadBefore.map((x) => x.toFixed(2)).join(" ")}, after ${loadAfter.map((x) => x.toFixed(2)).join(" ")}\n`,
+  );
+
+  const search = results.filter((r) => r.kind === "search");
+  const pages = results.filter((r) => r.kind === "page");
+  const verdict = (ok: boolean | null) => (ok === null ? "not measured" : ok ? "met" : "NOT MET");
+  const worst = (rs: ScenarioResult[]) => (rs.length ? Math.max(...rs.map((r) => r.p95)) : NaN);
+  const targets = [
+    ["target", "measured", "result"],
+    ["search p95 ≤ 50 ms", search.length ? `${ms(worst(search))} ms (worst)` : "-", verdict(search.length ? worst(search) <= 50 : null)],
+    ["pages p95 ≤ 100 ms", pages.length ? `${ms(worst(pages))} ms (worst)` : "-", verdict(pages.length ? worst(pages) <= 100 : null)],
+    [
+      "search ≥ 200 requests/s",
+      search.length ? `${Math.min(...search.map((r) => r.requestsPerSecond)).toFixed(0)} req/s (lowest)` : "-",
+      verdict(search.length ? search.every((r) => r.requestsPerSecond >= 200) : null),
+    ],
+    ["server memory < 1 GiB", mib(memory.peak), verdict(memory.peak < 2 ** 30)],
+    [
+      "every answer 2xx",
+      String(results.reduce((n, r) => n + r.non2xx + r.errors, 0)),
+      verdict(results.every((r) => r.non2xx === 0 && r.errors === 0)),
+    ],
+  ];
+  console.log(formatTable(targets));
+  if (missing.length) console.log(`\nnot measured: ${missing.join("; ")}`);
+  const slow = slowStatements(serverLog, logOffset);
+  console.log(`\nPostgreSQL: ${slow.length} statement(s) over ${SLOW_MS} ms during the run (${serverLog})`);
+  for (const x of slow.slice(0, 3)) console.log(`  ${x.ms.toFixed(0)} ms: ${x.text.slice(0, 300)}`);
+
+  if (process.env.BENCH_KEEP) {
+    console.log(`\nThe server stays up at ${base} (bench database on port ${new URL(databaseUrl).port}); Ctrl-C stops it.`);
+    await new Promise<void>((resolve) => {
+      process.once("SIGINT", resolve);
+      process.once("SIGTERM", resolve);
+      server.once("exit", () => resolve());
+    });
+  }
+} finally {
+  memory?.stop();
+  stopServer();
+  await new Promise((r) => (server.exitCode === null ? server.once("exit", r) : r(null)));
+}
+process.exit(0);
