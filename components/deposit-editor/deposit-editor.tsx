@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useCallback, useDeferredValue, useEffect, useMemo, useRef, useState } from "react";
 import { createDraftAction, saveDraftAction, type LatestDraft } from "@/app/deposits/actions";
 import type { VersionCapabilities } from "@/lib/curation/capabilities";
+import type { ConversationEntry } from "@/lib/curation/conversation";
 import type { CoEditorRole } from "@/lib/curation/lifecycle";
 import { MAX_DOCUMENT_BYTES } from "@/lib/deposits/limits";
 import type { DepositDocument } from "@/lib/deposits/types";
@@ -46,6 +47,8 @@ export type DepositEditorProps =
       capabilities: VersionCapabilities;
       checks: StoredCheck[];
       decisions: DecisionView[];
+      /** Returns and the authors' replies so far, oldest first (shown beside the reply field). */
+      conversation?: ConversationEntry[];
       members: MemberView[];
     };
 
@@ -294,6 +297,7 @@ export function DepositEditor(props: DepositEditorProps) {
             capabilities={existing.capabilities}
             checks={checks}
             decisions={existing.decisions}
+            conversation={existing.conversation}
             members={existing.members}
             dirty={dirty}
             notReady={readiness.length}

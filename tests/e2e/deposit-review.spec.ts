@@ -82,6 +82,11 @@ test("a deposit goes from an uploaded CSV through a return to the authors to pub
     await expect(editor.decision("returned to the authors")).toContainText(changesReason);
     await editor.cell("Note", 5).fill("re-read from the original trace");
     await editor.saveDraft();
+    // The conversation so far sits beside the reply field, read-only: here the one return.
+    const conversation = page.getByRole("region", { name: "The conversation so far" });
+    await expect(conversation.getByRole("listitem")).toHaveCount(1);
+    await expect(conversation).toContainText(changesReason);
+    await expect(conversation).toContainText(`Returned by ${curator.name}`);
     // Submitting again needs a reply to the curator.
     await expect(page.getByRole("button", { name: "Submit for review" })).toBeDisabled();
     await editor.submitForReview(reply);
