@@ -96,6 +96,14 @@ test("a deposit goes from an uploaded CSV through a return to the authors to pub
     await signInAs(page, curator);
     await page.goto("/review?sort=submitted&dir=desc");
     await expect(page.getByRole("row").filter({ hasText: title })).toContainText(/under 1 h/);
+    // The demo's queued submissions (invented) have waited from hours to days.
+    await page.goto("/review?sort=submitted&dir=asc");
+    await expect(
+      page
+        .getByRole("row")
+        .filter({ hasText: /\b\d+ d( \d+ h)?\b/ })
+        .first(),
+    ).toBeVisible();
     await review.openFromQueue(title);
     const changes = review.sinceLastSubmission;
     await expect(changes.getByRole("heading", { name: "Reason for returning it" }).locator("..")).toContainText(changesReason);

@@ -9,6 +9,9 @@ import { VersionFit } from "@/components/version-fit";
 import { getDatasetSummary, getLatestAnalysis, getVersionPoints, getVersionWithRole, listPublicVersions } from "@/lib/datasets/queries";
 import { listVersionFiles } from "@/lib/datasets/files";
 import { parseIdOrNull } from "@/lib/ids";
+import { auditTrailPath } from "@/lib/audit/paths";
+import { canReadAuditTrail } from "@/lib/audit/queries";
+import { getCurrentUser } from "@/lib/auth/session";
 import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
 import type { DepositDocument } from "@/lib/deposits/types";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
@@ -36,12 +39,14 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
   const versions = await listPublicVersions({ datasetId });
   const entry = versions.find((x) => x.number === number);
   if (!entry) notFound();
-  const [found, dataset, analysis, points, files] = await Promise.all([
+  const [found, dataset, analysis, points, files, mayReadAudit] = await Promise.all([
     getVersionWithRole({ versionId: entry.id, userId: null }),
     getDatasetSummary({ datasetId }),
     getLatestAnalysis({ versionId: entry.id }),
     getVersionPoints({ versionId: entry.id }),
     listVersionFiles({ versionId: entry.id }),
+    // Its members, curators and admins find the dataset's audit trail from here too.
+    getCurrentUser().then((viewer) => canReadAuditTrail({ datasetId, viewer })),
   ]);
   if (!found) notFound();
   const version = found.version;
@@ -55,6 +60,7 @@ export default async function DatasetVersionPage({ params }: { params: Promise<{
           <StateLabel state={version.state} /> <span>Version {version.number}</span>
           {version.publishedAt && <span>published {version.publishedAt.toISOString().slice(0, 10)}</span>}
           {version.reactionId && <Link href={`/reactions/${version.reactionId}`}>All datasets of this reaction</Link>}
+          {mayReadAudit && <Link href={auditTrailPath(datasetId)}>Audit trail</Link>}
         </p>
         <h1 className="text-3xl font-semibold">{version.title}</h1>
         <p className="text-sm">{doc.creators?.map((c) => c.name).join("; ")}</p>
