@@ -8,7 +8,8 @@ const CSV = fileURLToPath(new URL("../fixtures/e2e/oh-ch4-one-bad-cell.csv", imp
 const K_HEADER = "k / cm3 molecule-1 s-1";
 
 test("a deposit goes from an uploaded CSV through a return to the authors to publication, with the mail of each step", async ({ page }) => {
-  test.setTimeout(120_000);
+  // Two curators' and a researcher's sessions, two submissions and the inbox: minutes on a busy machine.
+  test.setTimeout(240_000);
   const stamp = Date.now();
   const title = `OH + CH4 between 230 and 400 K (end-to-end ${stamp})`;
   const editor = new DepositEditorPage(page);
