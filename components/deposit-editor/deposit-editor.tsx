@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useCallback, useDeferredValue, useEffect, useMemo, useRef, useState } from "react";
 import { createDraftAction, saveDraftAction, type LatestDraft } from "@/app/deposits/actions";
 import type { VersionCapabilities } from "@/lib/curation/capabilities";
+import type { ConversationEntry } from "@/lib/curation/conversation";
 import type { CoEditorRole } from "@/lib/curation/lifecycle";
 import { MAX_DOCUMENT_BYTES } from "@/lib/deposits/limits";
 import type { DepositDocument } from "@/lib/deposits/types";
@@ -46,6 +47,8 @@ export type DepositEditorProps =
       capabilities: VersionCapabilities;
       checks: StoredCheck[];
       decisions: DecisionView[];
+      /** Returns and the authors' replies so far, oldest first (shown beside the reply field). */
+      conversation?: ConversationEntry[];
       members: MemberView[];
     };
 
@@ -101,13 +104,14 @@ export function DepositEditor(props: DepositEditorProps) {
   const saving = saveState.kind === "saving";
   const guard = useLeaveGuard(editable && (dirty || saving));
 
+  // "Save draft" pressed on a new deposit opens the draft's own page once everything typed is stored.
+  // The router takes it there even though the address already names it (set by the first save).
+  const leaving = useRef(false);
   useEffect(() => {
-    if (!wantsOwnPage || versionId === null || dirty || saving || saveState.kind !== "saved") return;
-    guard.allow();
-    // The bar may already show this address (set outside the router by an autosave), which the
-    // router would take as no move at all: the browser loads the page.
-    window.location.replace(`/deposits/${versionId}`);
-  }, [wantsOwnPage, versionId, dirty, saving, saveState.kind, guard]);
+    if (!wantsOwnPage || versionId === null || dirty || saving || saveState.kind !== "saved" || leaving.current) return;
+    leaving.current = true;
+    guard.leave(() => router.replace(`/deposits/${versionId}`));
+  }, [wantsOwnPage, versionId, dirty, saving, saveState.kind, guard, router]);
 
   const update = (change: (f: EditorForm) => EditorForm) => {
     setForm(change);
@@ -293,6 +297,7 @@ export function DepositEditor(props: DepositEditorProps) {
             capabilities={existing.capabilities}
             checks={checks}
             decisions={existing.decisions}
+            conversation={existing.conversation}
             members={existing.members}
             dirty={dirty}
             notReady={readiness.length}
@@ -307,10 +312,13 @@ export function DepositEditor(props: DepositEditorProps) {
           </p>
         )}
 
+        {/* Never disabled while saving: pressing it leaves the field being typed in, whose autosave
+            starts on that mousedown; a button disabled by it then swallows the click (the save by hand
+            and, on a new deposit, the move to the draft's page). A press during a save is made after it. */}
         {editable && (
           <div className="sticky top-0 z-20 -mx-2 flex flex-wrap items-center gap-x-3 gap-y-1 border-b border-line bg-paper/95 px-2 py-3 backdrop-blur-sm">
-            <button type="button" className="btn-primary" onClick={() => void save(false)} disabled={saving || conflict !== null}>
-              {saving ? "Saving…" : "Save draft"}
+            <button type="button" className="btn-primary" onClick={() => void save(false)} disabled={conflict !== null}>
+              Save draft
             </button>
             <p role="status" aria-live="polite" className="min-w-0 text-sm text-muted" data-testid="save-status">
               {status}
@@ -365,8 +373,8 @@ export function DepositEditor(props: DepositEditorProps) {
 
         {editable && (
           <div className="flex flex-wrap items-center gap-3">
-            <button type="button" className="btn-primary" onClick={() => void save(false)} disabled={saving || conflict !== null}>
-              {saving ? "Saving…" : "Save draft"}
+            <button type="button" className="btn-primary" onClick={() => void save(false)} disabled={conflict !== null}>
+              Save draft
             </button>
             <p className="text-sm text-muted" aria-hidden="true">
               {status}

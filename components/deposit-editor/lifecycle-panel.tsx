@@ -5,6 +5,7 @@ import { useState, useTransition } from "react";
 import { startNextVersionAction, transitionAction } from "@/app/deposits/actions";
 import { CAUTION } from "@/lib/analyses/analyse-request";
 import { REPLY_MAX, REPLY_MIN, type VersionCapabilities } from "@/lib/curation/capabilities";
+import type { ConversationEntry } from "@/lib/curation/conversation";
 import type { CoEditorRole, Transition } from "@/lib/curation/lifecycle";
 import { CheckList } from "./check-list";
 import { InviteForm } from "./invite-form";
@@ -40,6 +41,8 @@ interface Props {
   capabilities: VersionCapabilities;
   checks: StoredCheck[];
   decisions: DecisionView[];
+  /** Returns and replies so far, oldest first: read beside the reply being written. */
+  conversation?: ConversationEntry[];
   members: MemberView[];
   /** Unsaved edits: submitting sends the saved draft, so they must be saved first. */
   dirty: boolean;
@@ -72,8 +75,30 @@ function utc(iso: string): string {
   return `${iso.slice(0, 16).replace("T", " ")} UTC`;
 }
 
+/** The returns and replies so far, read-only, oldest first. */
+function Conversation({ entries }: { entries: ConversationEntry[] }) {
+  return (
+    <section aria-labelledby="conversation-heading" className="min-w-0 space-y-2 text-sm">
+      <h3 id="conversation-heading" className="font-medium">
+        The conversation so far
+      </h3>
+      <ol className="space-y-2">
+        {entries.map((e, i) => (
+          <li key={i} className={`rounded-md border px-3 py-2 ${e.kind === "return" ? "border-line bg-panel" : "border-line bg-paper"}`}>
+            <p className="text-xs text-muted">
+              <span className="font-semibold text-ink">{e.kind === "return" ? "Returned" : "Your reply"}</span>{" "}
+              {e.kind === "return" ? "by" : "sent by"} {e.who}, <time dateTime={e.at}>{utc(e.at)}</time>
+            </p>
+            <p className="mt-1 whitespace-pre-line break-words">{e.text}</p>
+          </li>
+        ))}
+      </ol>
+    </section>
+  );
+}
+
 /** Where the version is in its lifecycle, what the owner can do next, and what curators said. */
-export function LifecyclePanel({ version, role, capabilities, checks, decisions, members, dirty, notReady }: Props) {
+export function LifecyclePanel({ version, role, capabilities, checks, decisions, conversation = [], members, dirty, notReady }: Props) {
   const router = useRouter();
   const [pending, startTransition] = useTransition();
   const [outcome, setOutcome] = useState<{ ok: boolean; message: string } | null>(null);
@@ -159,20 +184,23 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
       {(canSubmit || canWithdraw) && (
         <div className="space-y-2">
           {answersReturn && (
-            <label className="block space-y-1 text-sm">
-              <span className="block font-medium">Your reply to the curator (required)</span>
-              <span className="block text-xs text-muted">
-                What you changed in answer to the reason below; the curator reads it beside that reason. Up to {REPLY_MAX} characters.
-              </span>
-              <textarea
-                name="reply"
-                className="field-input w-full"
-                rows={3}
-                maxLength={REPLY_MAX}
-                value={reply}
-                onChange={(e) => setReply(e.target.value)}
-              />
-            </label>
+            <div className={conversation.length > 0 ? "grid gap-4 md:grid-cols-2" : undefined}>
+              <label className="block space-y-1 text-sm">
+                <span className="block font-medium">Your reply to the curator (required)</span>
+                <span className="block text-xs text-muted">
+                  What you changed in answer to the reason below; the curator reads it beside that reason. Up to {REPLY_MAX} characters.
+                </span>
+                <textarea
+                  name="reply"
+                  className="field-input w-full"
+                  rows={3}
+                  maxLength={REPLY_MAX}
+                  value={reply}
+                  onChange={(e) => setReply(e.target.value)}
+                />
+              </label>
+              {conversation.length > 0 && <Conversation entries={conversation} />}
+            </div>
           )}
           <div className="flex flex-wrap gap-3">
             {canSubmit && (

@@ -1,6 +1,12 @@
 "use client";
 
-import { useEffect, useRef } from "react";
+import { useEffect, useMemo, useRef } from "react";
+
+export interface LeaveGuard {
+  allow: () => void;
+  leave: (go: () => void) => void;
+  replaceAddress: (path: string) => void;
+}
 
 export const LEAVE_QUESTION = "Some changes to this draft are not saved yet. Leave the page and lose them?";
 
@@ -9,9 +15,10 @@ export const LEAVE_QUESTION = "Some changes to this draft are not saved yet. Lea
  * (beforeunload), any link to another page (the App Router has no route-change events, so clicks
  * are caught on the window in the capture phase, before Next's Link sees them) and the back button
  * (a same-URL guard entry is pushed on the history; going back pops it and we ask). Nothing is
- * asked once everything is saved. `allow()` lets one navigation through (the editor's own).
+ * asked once everything is saved. `allow()` lets one navigation through; `leave(go)` is the editor's
+ * own move to another page, which first takes the guard entry off the history.
  */
-export function useLeaveGuard(unsaved: boolean): { allow: () => void; replaceAddress: (path: string) => void } {
+export function useLeaveGuard(unsaved: boolean): LeaveGuard {
   const unsavedRef = useRef(unsaved);
   const allowed = useRef(false);
   const guarded = useRef(false);
@@ -78,14 +85,37 @@ export function useLeaveGuard(unsaved: boolean): { allow: () => void; replaceAdd
     };
   }, []);
 
-  return {
-    allow: () => {
-      allowed.current = true;
-    },
-    /** Gives this page's entry another address (a new draft's own), without a navigation. */
-    replaceAddress: (path: string) => {
-      address.current = new URL(path, window.location.href).href;
-      window.history.replaceState(null, "", address.current);
-    },
-  };
+  return useMemo(
+    () => ({
+      allow: () => {
+        allowed.current = true;
+      },
+      /**
+       * Lets `go` (a router replace) move this page elsewhere once the guard entry is off the
+       * history: otherwise that entry's twin stays beneath the new page and Back shows this one again.
+       */
+      leave: (go: () => void) => {
+        allowed.current = true;
+        if (!guarded.current) return go();
+        guarded.current = false;
+        let done = false;
+        const once = () => {
+          if (done) return;
+          done = true;
+          window.removeEventListener("popstate", once);
+          go();
+        };
+        window.addEventListener("popstate", once);
+        window.history.back();
+        // A traversal the browser never reports still moves on.
+        setTimeout(once, 1000);
+      },
+      /** Gives this page's entry another address (a new draft's own), without a navigation. */
+      replaceAddress: (path: string) => {
+        address.current = new URL(path, window.location.href).href;
+        window.history.replaceState(null, "", address.current);
+      },
+    }),
+    [],
+  );
 }

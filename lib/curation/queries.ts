@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, count, desc, eq, inArray, isNull, lt, ne, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, inArray, isNotNull, isNull, lt, ne, or, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, datasetVersions, decisions, submissionSnapshots } from "@/db/datasets";
 import { users } from "@/db/users";
@@ -166,6 +166,16 @@ export async function listSubmissionSnapshots({ versionId }: { versionId: number
     .leftJoin(users, eq(users.id, submissionSnapshots.submittedBy))
     .where(eq(submissionSnapshots.versionId, versionId))
     .orderBy(desc(submissionSnapshots.sequence));
+}
+
+/** The authors' replies sent with the submissions of a version, oldest first (no documents). */
+export async function listSubmissionReplies({ versionId }: { versionId: number }) {
+  return getDb()
+    .select({ reply: submissionSnapshots.reply, createdAt: submissionSnapshots.createdAt, submittedBy: users.name })
+    .from(submissionSnapshots)
+    .leftJoin(users, eq(users.id, submissionSnapshots.submittedBy))
+    .where(and(eq(submissionSnapshots.versionId, versionId), isNotNull(submissionSnapshots.reply)))
+    .orderBy(asc(submissionSnapshots.sequence));
 }
 
 /** Active curators who returned this version to its authors, each once, with their latest reason. */

@@ -5,6 +5,7 @@ import { depositNewDataset } from "@/lib/datasets/deposits";
 import { hasDatasetTitled } from "@/lib/datasets/queries";
 import { GAS_CONSTANT } from "@/lib/kinetics";
 import { getUserByEmail, type UserDto } from "@/lib/users/queries";
+import { backdateDemoSubmissions } from "./demo-waiting";
 
 /**
  * The demo's datasets. Molecules are real; every number, title and person is invented for the
@@ -471,6 +472,9 @@ export async function seedDemoDatasets(): Promise<number> {
     people[key] = u;
   }
   let made = 0;
+  // Invented waiting times of the queued demo submissions, in hours: from under a day to two weeks.
+  const WAITED_HOURS = [5, 28, 52, 77, 150, 230, 340, 19, 101];
+  const queued: { versionId: number; hours: number }[] = [];
   for (const [i, spec] of specs.entries()) {
     const owner = people[spec.owner];
     const curator = i % 2 ? people["curator.hale"] : people["curator.mensah"];
@@ -495,6 +499,13 @@ export async function seedDemoDatasets(): Promise<number> {
       // Identifiers minted here are registered when the app starts (scripts/serve.ts queues every pending one).
       await applyTransition({ versionId: version.id, actorId: actor.id, transition, reason });
     }
+    const last = spec.path.at(-1);
+    if (last === "submit" || last === "review" || last === "changes")
+      queued.push({ versionId: version.id, hours: WAITED_HOURS[queued.length % WAITED_HOURS.length] });
   }
+  if (!(await backdateDemoSubmissions(queued)))
+    console.warn(
+      "[arrhenia] demo seed: no schema owner connection (MIGRATION_DATABASE_URL), so the queue's demo submissions all wait under 1 h",
+    );
   return made;
 }

@@ -105,6 +105,48 @@ test("leaving with unsaved changes asks first: a header link, the back button an
   });
 });
 
+test("Back after staying, and Back from the page Save draft opens, go where the person came from", async ({ page }) => {
+  const editor = new DepositEditorPage(page);
+  await signInAs(page, DEMO_RESEARCHER);
+  await page.goto("/deposits");
+  await page.getByRole("main").getByRole("link", { name: "New deposit", exact: true }).click();
+  await expect(page.getByRole("heading", { level: 1, name: "New deposit" })).toBeVisible();
+  await editor.title.fill(`Back and stay ${Date.now()}`);
+  await editor.expectSaved();
+  const dialogs = recordDialogs(page, () => false);
+
+  await editor.description.fill("Typed, then Back, then stay.");
+  await page.goBack();
+  await expect.poll(() => dialogs.length).toBe(1);
+  await expect(page).toHaveURL(/\/deposits\/\d+$/);
+  await expect(editor.description).toHaveValue("Typed, then Back, then stay.");
+
+  // Saved by hand: the draft's own page opens, and one Back returns to My deposits (no blank
+  // "New deposit" entry left beneath it, nothing asked).
+  await editor.saveNewDraft();
+  await page.goBack();
+  await expect(page.getByRole("heading", { level: 1, name: "My deposits" })).toBeVisible();
+  await expect(page).toHaveURL(/\/deposits$/);
+  expect(dialogs).toHaveLength(1);
+});
+
+test("after staying, once the edits are saved, one Back leaves the new draft", async ({ page }) => {
+  const editor = new DepositEditorPage(page);
+  await signInAs(page, DEMO_RESEARCHER);
+  await page.goto("/deposits");
+  await page.getByRole("main").getByRole("link", { name: "New deposit", exact: true }).click();
+  await editor.title.fill(`Stay, then leave ${Date.now()}`);
+  await editor.expectSaved();
+  const dialogs = recordDialogs(page, () => false);
+  await editor.description.fill("Typed, then Back, then stay.");
+  await page.goBack();
+  await expect.poll(() => dialogs.length).toBe(1);
+  await editor.expectSaved();
+  await page.goBack();
+  await expect(page.getByRole("heading", { level: 1, name: "My deposits" })).toBeVisible();
+  expect(dialogs).toHaveLength(1);
+});
+
 /** The same researcher signed in twice (two browser contexts), on one new draft; B opens it. */
 async function oneDraftTwice(a: BrowserContext, b: BrowserContext, title: string) {
   const pageA = await a.newPage();

@@ -8,7 +8,8 @@ const CSV = fileURLToPath(new URL("../fixtures/e2e/oh-ch4-one-bad-cell.csv", imp
 const K_HEADER = "k / cm3 molecule-1 s-1";
 
 test("a deposit goes from an uploaded CSV through a return to the authors to publication, with the mail of each step", async ({ page }) => {
-  test.setTimeout(120_000);
+  // Two curators' and a researcher's sessions, two submissions and the inbox: minutes on a busy machine.
+  test.setTimeout(240_000);
   const stamp = Date.now();
   const title = `OH + CH4 between 230 and 400 K (end-to-end ${stamp})`;
   const editor = new DepositEditorPage(page);
@@ -82,6 +83,11 @@ test("a deposit goes from an uploaded CSV through a return to the authors to pub
     await expect(editor.decision("returned to the authors")).toContainText(changesReason);
     await editor.cell("Note", 5).fill("re-read from the original trace");
     await editor.saveDraft();
+    // The conversation so far sits beside the reply field, read-only: here the one return.
+    const conversation = page.getByRole("region", { name: "The conversation so far" });
+    await expect(conversation.getByRole("listitem")).toHaveCount(1);
+    await expect(conversation).toContainText(changesReason);
+    await expect(conversation).toContainText(`Returned by ${curator.name}`);
     // Submitting again needs a reply to the curator.
     await expect(page.getByRole("button", { name: "Submit for review" })).toBeDisabled();
     await editor.submitForReview(reply);
@@ -91,6 +97,14 @@ test("a deposit goes from an uploaded CSV through a return to the authors to pub
     await signInAs(page, curator);
     await page.goto("/review?sort=submitted&dir=desc");
     await expect(page.getByRole("row").filter({ hasText: title })).toContainText(/under 1 h/);
+    // The demo's queued submissions (invented) have waited from hours to days.
+    await page.goto("/review?sort=submitted&dir=asc");
+    await expect(
+      page
+        .getByRole("row")
+        .filter({ hasText: /\b\d+ d( \d+ h)?\b/ })
+        .first(),
+    ).toBeVisible();
     await review.openFromQueue(title);
     const changes = review.sinceLastSubmission;
     await expect(changes.getByRole("heading", { name: "Reason for returning it" }).locator("..")).toContainText(changesReason);

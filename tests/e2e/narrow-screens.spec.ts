@@ -33,20 +33,32 @@ async function pagesFor(page: Page, role: keyof typeof roles): Promise<string[]>
   const version = await firstLink(page, reaction!, /^\/datasets\/\d+\/v\d+$/);
   expect(version, "a published version in the demo").not.toBeNull();
   paths.push(version!, version!.replace(/\/v\d+$/, ""));
-  if (role === "researcher" || role === "admin") {
-    paths.push("/deposits", "/deposits/new");
-    const deposit = await firstLink(page, "/deposits", /^\/deposits\/\d+$/);
+  if (role === "researcher" || role === "admin") paths.push("/deposits", "/deposits/new");
+  if (role === "researcher") {
     // A deposit page carries its dataset's invitations list and links its audit trail.
-    if (deposit) paths.push(deposit);
-    const audit = deposit && (await firstLink(page, deposit, /^\/datasets\/\d+\/audit$/));
-    if (audit) paths.push(audit);
+    const deposit = await firstLink(page, "/deposits", /^\/deposits\/\d+$/);
+    expect(deposit, "a deposit of the demo researcher").not.toBeNull();
+    paths.push(deposit!);
+    const audit = await firstLink(page, deposit!, /^\/datasets\/\d+\/audit$/);
+    expect(audit, "the deposit page links its audit trail").not.toBeNull();
+    paths.push(audit!);
   }
   if (role === "curator" || role === "admin") {
     paths.push("/review");
     const review = await firstLink(page, "/review", /^\/review\/\d+$/);
-    if (review) paths.push(review);
-    const audit = review && (await firstLink(page, review, /^\/datasets\/\d+\/audit$/));
-    if (audit && !paths.includes(audit)) paths.push(audit);
+    expect(review, "a submission in the review queue of the demo").not.toBeNull();
+    paths.push(review!);
+    const audit = await firstLink(page, review!, /^\/datasets\/\d+\/audit$/);
+    expect(audit, "the review page links the audit trail").not.toBeNull();
+    if (!paths.includes(audit!)) paths.push(audit!);
+    // Curators and admins reach a published dataset's audit trail from its public page too.
+    const published = await firstLink(page, version!, /^\/datasets\/\d+\/audit$/);
+    expect(published, "the public page links the audit trail for curators and admins").not.toBeNull();
+    if (!paths.includes(published!)) paths.push(published!);
+  }
+  if (role === "anonymous") {
+    // Nobody else is shown the way to an audit trail.
+    expect(await firstLink(page, version!, /^\/datasets\/\d+\/audit$/)).toBeNull();
   }
   if (role === "admin") paths.push("/admin/people", "/admin/mail", "/admin/jobs");
   // The "You do not have access" page (403) of a role that may not open a page.

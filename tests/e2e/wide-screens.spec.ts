@@ -84,7 +84,8 @@ test("the newer pages at 1366 px: no sideways scroll, no serious axe violation",
   expect(deposit, "a deposit of the demo researcher").not.toBeNull();
   paths.push(deposit!);
   const audit = await firstLink(page, deposit!, /^\/datasets\/\d+\/audit$/);
-  if (audit) paths.push(audit);
+  expect(audit, "the deposit page links its audit trail").not.toBeNull();
+  paths.push(audit!);
   for (const path of paths) {
     await page.goto(path);
     await page.waitForLoadState("networkidle");

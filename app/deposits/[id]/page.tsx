@@ -13,6 +13,8 @@ import { can } from "@/lib/auth/permissions";
 import { auditTrailPath } from "@/lib/audit/paths";
 import { getVisibleVersionOrThrow } from "@/lib/datasets/deposits";
 import { getLatestAnalysis, listDatasetMembers, listDecisions } from "@/lib/datasets/queries";
+import { returnConversation } from "@/lib/curation/conversation";
+import { listSubmissionReplies } from "@/lib/curation/queries";
 import type { DepositDocument } from "@/lib/deposits/types";
 import { AppError } from "@/lib/errors";
 import { parseIdOrNull } from "@/lib/ids";
@@ -61,12 +63,21 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
   const { version, datasetRole, capabilities } = found;
   // A curator or admin who is not a member reads the record as a reviewer, not as an author.
   const curatorView = !datasetRole && can(user.role, "dataset.review");
-  const [analysis, decisions, members, invitations] = await Promise.all([
+  const [analysis, decisions, replies, members, invitations] = await Promise.all([
     getLatestAnalysis({ versionId }),
     listDecisions({ versionId }),
+    listSubmissionReplies({ versionId }),
     datasetRole ? listDatasetMembers({ datasetId: version.datasetId }) : Promise.resolve([]),
     datasetRole === "owner" ? listPendingInvitations({ actor: user, versionId }) : Promise.resolve(null),
   ]);
+
+  const decisionViews = decisions.map((d) => ({
+    id: d.id,
+    decision: d.decision,
+    reason: d.reason,
+    curator: d.curator,
+    createdAt: d.createdAt.toISOString(),
+  }));
 
   return (
     <div className="space-y-6">
@@ -105,13 +116,11 @@ export default async function DepositPage({ params }: { params: Promise<{ id: st
         role={datasetRole}
         capabilities={capabilities}
         checks={storedChecks(analysis)}
-        decisions={decisions.map((d) => ({
-          id: d.id,
-          decision: d.decision,
-          reason: d.reason,
-          curator: d.curator,
-          createdAt: d.createdAt.toISOString(),
-        }))}
+        decisions={decisionViews}
+        conversation={returnConversation(
+          decisionViews,
+          replies.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() })),
+        )}
         members={members.map((m) => ({ name: m.name, role: m.role }))}
       />
       <FilesPanel versionId={version.id} editable={capabilities.upload_files} />

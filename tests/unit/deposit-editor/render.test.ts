@@ -184,6 +184,56 @@ describe("DepositEditor", () => {
   });
 });
 
+describe("LifecyclePanel after a return", () => {
+  it("shows the conversation so far, read-only, beside the reply field", async () => {
+    const { LifecyclePanel } = await import("@/components/deposit-editor/lifecycle-panel");
+    const { returnConversation } = await import("@/lib/curation/conversation");
+    const conversation = returnConversation(
+      [
+        {
+          decision: "return",
+          reason: "Second return: say how row 5 was checked.",
+          curator: "Curator Two",
+          createdAt: "2024-05-03T09:00:00.000Z",
+        },
+        {
+          decision: "return",
+          reason: "First return: the units of k are missing.",
+          curator: "Curator One",
+          createdAt: "2024-05-01T10:00:00.000Z",
+        },
+      ],
+      [{ reply: "Units added to the k column.", submittedBy: "Okafor, Maren", createdAt: "2024-05-02T08:00:00.000Z" }],
+    );
+    const html = renderToStaticMarkup(
+      h(LifecyclePanel, {
+        version: { id: 9, number: 1, state: "returned", versionIdentifier: null, retractionNotice: null },
+        role: "owner",
+        capabilities: versionCapabilities({ state: "returned", siteRole: "researcher", datasetRole: "owner" }),
+        checks: [],
+        decisions: [],
+        conversation,
+        members: [],
+        dirty: false,
+        notReady: 0,
+      }),
+    );
+    const reply = html.indexOf("Your reply to the curator");
+    const heading = html.indexOf("The conversation so far");
+    expect(reply).toBeGreaterThan(-1);
+    expect(heading).toBeGreaterThan(reply);
+    const order = [
+      "First return: the units of k are missing.",
+      "Units added to the k column.",
+      "Second return: say how row 5 was checked.",
+    ].map((text) => html.indexOf(text));
+    expect(order.every((i) => i > heading)).toBe(true);
+    expect([...order].sort((a, b) => a - b)).toEqual(order);
+    // Read-only: the reply being written is the only text field.
+    expect(html.match(/<textarea/g)).toHaveLength(1);
+  });
+});
+
 describe("DepositEditor markup", () => {
   it("has unique ids, and every label and description points at an element that exists", async () => {
     const { DepositEditor } = await import("@/components/deposit-editor/deposit-editor");

@@ -13,6 +13,9 @@ import { citeVersion, getPublicVersionPoints } from "@/lib/datasets/public-versi
 import { unitsFromQuery } from "@/lib/unit-choice";
 import { listVersionFiles } from "@/lib/datasets/files";
 import { parseIdOrNull } from "@/lib/ids";
+import { auditTrailPath } from "@/lib/audit/paths";
+import { canReadAuditTrail } from "@/lib/audit/queries";
+import { getCurrentUser } from "@/lib/auth/session";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
 import { formatNumber } from "@/lib/format";
@@ -57,11 +60,13 @@ export default async function DatasetVersionPage({
   const versions = await listPublicVersions({ datasetId });
   const entry = versions.find((x) => x.number === number);
   if (!entry) notFound();
-  const [loaded, dataset, files, query] = await Promise.all([
+  const [loaded, dataset, files, query, mayReadAudit] = await Promise.all([
     getPublicVersionPoints({ versionId: entry.id }),
     getDatasetSummary({ datasetId }),
     listVersionFiles({ versionId: entry.id }),
     searchParams,
+    // Its members, curators and admins find the dataset's audit trail from here too.
+    getCurrentUser().then((viewer) => canReadAuditTrail({ datasetId, viewer })),
   ]);
   if (!loaded) notFound();
   const { version, doc, analysis: result, rows } = loaded;
@@ -103,6 +108,7 @@ export default async function DatasetVersionPage({
           <StateLabel state={version.state} /> <span>Version {version.number}</span>
           {version.publishedAt && <span>published {day(version.publishedAt)}</span>}
           {version.reactionId && <Link href={`/reactions/${version.reactionId}`}>All datasets of this reaction</Link>}
+          {mayReadAudit && <Link href={auditTrailPath(datasetId)}>Audit trail</Link>}
         </p>
         <h1 className="text-3xl font-semibold">{version.title}</h1>
         <p className="text-sm">{doc.creators?.map((c) => c.name).join("; ")}</p>
