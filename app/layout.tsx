@@ -20,10 +20,12 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
         >
           Skip to content
         </a>
-        <SiteHeader />
-        <main id="main" className="mx-auto w-full max-w-6xl px-4 py-8 sm:px-6">
-          <Providers>{children}</Providers>
-        </main>
+        <Providers>
+          <SiteHeader />
+          <main id="main" className="mx-auto w-full max-w-6xl px-4 py-8 sm:px-6">
+            {children}
+          </main>
+        </Providers>
         <footer className="mx-auto max-w-6xl px-4 pb-10 pt-4 text-xs text-muted sm:px-6">
           Rate parameters are shown as deposited and re-fitted automatically. Extrapolation outside the measured range is unreliable, and
           safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.

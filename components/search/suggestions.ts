@@ -1,0 +1,41 @@
+/**
+ * Suggestions of the header's search box (GET /api/v1/search/suggest?q=…): species and reactions
+ * matching what has been typed so far, where choosing one leads, and how many there are in words
+ * for screen readers.
+ */
+
+export interface Suggestion {
+  kind: "species" | "reaction";
+  /** What the list shows: a species' name, a reaction's equation. */
+  label: string;
+  /** A species' formula, a reaction's dataset count, in words. */
+  detail?: string;
+  /** The search text that finds it. */
+  q: string;
+}
+
+/** Where a suggestion leads: the search for it (species and reaction pages take over once they exist). */
+export function suggestionHref(s: Suggestion): string {
+  return `/search?${new URLSearchParams({ q: s.q }).toString()}`;
+}
+
+/** "3 suggestions: 2 species and 1 reaction. Up and down arrows to choose." */
+export function suggestionCountWords(list: Suggestion[]): string {
+  if (list.length === 0) return "No suggestions; press Enter to search for the text.";
+  const species = list.filter((s) => s.kind === "species").length;
+  const reactions = list.length - species;
+  const parts = [species ? `${species} species` : "", reactions ? `${reactions} reaction${reactions === 1 ? "" : "s"}` : ""].filter(
+    Boolean,
+  );
+  return `${list.length} suggestion${list.length === 1 ? "" : "s"}: ${parts.join(" and ")}. Up and down arrows to choose.`;
+}
+
+export async function fetchSuggestions(q: string, signal?: AbortSignal): Promise<Suggestion[]> {
+  const res = await fetch(`/api/v1/search/suggest?${new URLSearchParams({ q }).toString()}`, {
+    signal,
+    headers: { accept: "application/json" },
+  });
+  if (!res.ok) throw new Error(`Suggestions answered with status ${res.status}`);
+  const body = (await res.json()) as { suggestions?: Suggestion[] };
+  return body.suggestions ?? [];
+}
