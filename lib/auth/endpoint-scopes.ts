@@ -8,6 +8,8 @@ import type { ApiTokenScope } from "@/lib/users/queries";
 export const endpointScopes: { method: string; path: string; scope: ApiTokenScope | null; who: string }[] = [
   { method: "POST", path: "/api/v1/analyses", scope: null, who: "anyone" },
   { method: "GET", path: "/api/v1/species/preview", scope: null, who: "anyone" },
+  { method: "GET", path: "/api/v1/search", scope: null, who: "anyone (published and retracted datasets only)" },
+  { method: "GET", path: "/api/v1/search/suggest", scope: null, who: "anyone (published data only)" },
   { method: "GET", path: "/api/v1/reactions/:id/consensus", scope: null, who: "anyone" },
   { method: "GET", path: "/api/v1/identifiers", scope: null, who: "anyone" },
   { method: "POST", path: "/api/v1/datasets", scope: "deposit", who: "researchers" },

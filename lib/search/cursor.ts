@@ -50,9 +50,8 @@ export function cursorPositionOrThrow(request: SearchRequest): string | null {
   if (request.cursor === null) return null;
   const after = verifyCursor(request.cursor, request);
   if (after === null) {
-    throw new AppError("bad_request", "Invalid search parameter: cursor", [
-      { pointer: "", parameter: "cursor", message: "cursor was altered or belongs to another search; start again from the first page" },
-    ]);
+    const message = "cursor was altered or belongs to another search; start again from the first page";
+    throw new AppError("bad_request", message, [{ pointer: "/cursor", parameter: "cursor", message }]);
   }
   return after;
 }

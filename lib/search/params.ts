@@ -13,7 +13,7 @@
 import { z } from "zod";
 import { LICENCES, METHOD_CATEGORIES, PHASES, REACTION_CLASSES, RETIRED_REACTION_CLASS_IDS } from "@/lib/deposits/vocabulary";
 import { AppError, type FieldError } from "@/lib/errors";
-import { findUnstorableText } from "@/lib/storable-text";
+import { isStorableText } from "@/lib/storable-text";
 import { SEARCH_FLAGS, SEARCH_SORTS, SEARCH_VIEWS, type SearchFilters, type SearchRequest } from "./types";
 
 export const MAX_QUERY_LENGTH = 500;
@@ -139,7 +139,7 @@ const single = {
     .string()
     .transform((s) => s.trim())
     .pipe(z.string().max(MAX_QUERY_LENGTH, `q may have at most ${MAX_QUERY_LENGTH} characters`))
-    .refine((s) => findUnstorableText(s) === null, "q holds a character that cannot be searched (U+0000 or a lone surrogate)"),
+    .refine((s) => isStorableText(s), "q holds a character that cannot be searched (U+0000 or a lone surrogate)"),
   view: z.enum(SEARCH_VIEWS, { error: `view must be ${listOf(SEARCH_VIEWS)}` }),
   sort: z.enum(SEARCH_SORTS, { error: `sort must be ${listOf(SEARCH_SORTS)}` }),
   limit: z
@@ -171,7 +171,7 @@ function valuesOf(params: RawSearchParams): Map<string, string[]> {
 }
 
 function problem(parameter: string, message: string, value?: string): FieldError {
-  return { pointer: "", parameter, message, ...(value !== undefined ? { value } : {}) };
+  return { pointer: `/${parameter}`, parameter, message, ...(value !== undefined ? { value } : {}) };
 }
 
 export type SearchParamsResult = { ok: true; request: SearchRequest } | { ok: false; errors: FieldError[]; request: SearchRequest };
@@ -244,7 +244,9 @@ export function parseSearchParamsOrThrow(params: RawSearchParams, options: { str
   const result = parseSearchParams(params, options);
   if (!result.ok) {
     const named = [...new Set(result.errors.map((e) => e.parameter))].join(", ");
-    throw new AppError("bad_request", `Invalid search parameter${result.errors.length > 1 ? "s" : ""}: ${named}`, result.errors);
+    const title =
+      result.errors.length === 1 ? result.errors[0].message : `${result.errors.length} query parameters are not valid (${named})`;
+    throw new AppError("bad_request", title, result.errors);
   }
   return result.request;
 }

@@ -195,6 +195,53 @@ const reactions: ReactionSpec[] = [
     n: 0,
     EoverR: 0,
   },
+  // Search needs several reactions of one species, names that differ between authors (the published
+  // names become synonyms: "hydroxyl radical", "OH") and classes with several reactions each.
+  {
+    id: "oh-ch3oh",
+    reactants: [
+      ["hydroxyl radical", "[OH]"],
+      ["methanol", "CO"],
+    ],
+    products: [
+      ["water", "O"],
+      ["hydroxymethyl", "[CH2]O"],
+    ],
+    cls: "hydrogen-abstraction",
+    order: 2,
+    A: 3.1e-12,
+    n: 0,
+    EoverR: 390,
+  },
+  {
+    id: "oh-hcho",
+    reactants: [
+      ["OH", "[OH]"],
+      ["formaldehyde", "C=O"],
+    ],
+    products: [
+      ["water", "O"],
+      ["formyl", "[CH]=O"],
+    ],
+    cls: "hydrogen-abstraction",
+    order: 2,
+    A: 5.0e-12,
+    n: 0,
+    EoverR: -140,
+  },
+  {
+    id: "h-c2h4",
+    reactants: [
+      ["hydrogen atom", "[H]"],
+      ["ethylene", "C=C"],
+    ],
+    products: [["ethyl", "C[CH2]"]],
+    cls: "addition",
+    order: 2,
+    A: 9.0e-11,
+    n: 0,
+    EoverR: 1150,
+  },
 ];
 
 /** Deterministic pseudo-random numbers (mulberry32) so every demo database is the same. */
@@ -329,6 +376,11 @@ const specs: DatasetSpec[] = [
   { reaction: "cl-ch4", owner: "varga", Tmin: 210, Tmax: 300, n: 6, scatter: 0.05, path: ["submit", "review", "changes"] },
   { reaction: "oh-c2h6", owner: "lindqvist", Tmin: 250, Tmax: 600, n: 8, scatter: 0.02, path: [] },
   { reaction: "ch3-ch3", owner: "adeyemi", Tmin: 300, Tmax: 2000, n: 9, scatter: 0.02, path: ["submit", "review"] },
+  { reaction: "oh-ch3oh", owner: "tanaka", Tmin: 230, Tmax: 420, n: 9, scatter: 0.05, path: [...P], technique: "flash photolysis" },
+  { reaction: "oh-ch3oh", owner: "adeyemi", Tmin: 250, Tmax: 1500, n: 10, scatter: 0.02, path: [...P] },
+  { reaction: "oh-hcho", owner: "varga", Tmin: 220, Tmax: 400, n: 8, scatter: 0.05, path: [...P], technique: "flash photolysis" },
+  { reaction: "h-c2h4", owner: "lindqvist", Tmin: 300, Tmax: 1200, n: 10, scatter: 0.02, path: [...P] },
+  { reaction: "h-c2h4", owner: "varga", Tmin: 290, Tmax: 500, n: 7, scatter: 0.06, path: [...P], technique: "discharge flow" },
 ];
 
 const theorists = new Set(["lindqvist", "adeyemi"]);

@@ -1,0 +1,16 @@
+// GET /api/v1/search/suggest?q= — species and reactions for the header search box as the reader types (published data only)
+import { NextResponse } from "next/server";
+import { withApi } from "@/lib/auth/api";
+import { AppError } from "@/lib/errors";
+import { MAX_QUERY_LENGTH } from "@/lib/search/params";
+import { suggestSearch } from "@/lib/search/queries";
+
+export const GET = withApi(async ({ req }) => {
+  const params = new URL(req.url).searchParams;
+  const q = params.get("q") ?? "";
+  if (params.getAll("q").length > 1 || q.length > MAX_QUERY_LENGTH) {
+    const message = `q must be given once, with at most ${MAX_QUERY_LENGTH} characters`;
+    throw new AppError("bad_request", message, [{ pointer: "/q", parameter: "q", message }]);
+  }
+  return NextResponse.json(await suggestSearch({ q }));
+});

@@ -1,0 +1,61 @@
+import "server-only";
+import { searchEngineName } from "@/lib/config";
+import { cursorPositionOrThrow, signCursor } from "./cursor";
+import { postgresEngine } from "./engines/postgres";
+import { resolveQuery } from "./resolve-query";
+import type { FacetCount, ParsedQuery, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
+
+/**
+ * Search: the one entry point of pages and the API. Resolves the text (species, reaction patterns),
+ * checks the cursor, asks the configured engine and signs the next cursor.
+ */
+
+/** Engines by name; the Meilisearch engine registers itself here (lib/search/engines/meilisearch.ts). */
+const engines: Partial<Record<SearchEngine["name"], SearchEngine>> = { postgres: postgresEngine };
+
+export function registerSearchEngine(engine: SearchEngine): void {
+  engines[engine.name] = engine;
+}
+
+/** The engine configuration chooses (SEARCH_ENGINE, else MEILISEARCH_URL → meilisearch, else postgres). */
+export function currentSearchEngine(): SearchEngine {
+  const name = searchEngineName();
+  const engine = engines[name];
+  if (!engine) throw new Error(`search engine “${name}” is configured but not available in this build`);
+  return engine;
+}
+
+export interface SearchResponse {
+  /** The request as understood (cursor included). */
+  query: SearchRequest;
+  /** What the text was understood as, in words, and as the engines take it. */
+  parsed: { words: string; query: ParsedQuery };
+  total: number;
+  hits: SearchResult["hits"];
+  facets: Record<SearchFacet, FacetCount[]>;
+  /** Cursor of the next page, null on the last one. */
+  nextCursor: string | null;
+}
+
+export async function search(request: SearchRequest, engine: SearchEngine = currentSearchEngine()): Promise<SearchResponse> {
+  const after = cursorPositionOrThrow(request);
+  const { parsed, words } = await resolveQuery(request.q);
+  const result = await engine.search({
+    parsed,
+    view: request.view,
+    filters: request.filters,
+    sort: request.sort,
+    after,
+    limit: request.limit,
+  });
+  return {
+    query: request,
+    parsed: { words, query: parsed },
+    total: result.total,
+    hits: result.hits,
+    facets: result.facets,
+    nextCursor: result.nextAfter === null ? null : signCursor(result.nextAfter, request),
+  };
+}
+
+export { parseSearchParams, parseSearchParamsOrThrow, toSearchParams } from "./params";

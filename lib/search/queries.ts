@@ -1,0 +1,124 @@
+import "server-only";
+import { eq, inArray, sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { species, speciesNames } from "@/db/chemistry";
+
+/**
+ * Species lookups of the search: the InChIKeys a typed name, synonym or formula may mean, and the
+ * header box's suggestions. Species and names are shared by every version, so only species of a
+ * reaction with a public version are offered (a draft's new species is never suggested).
+ */
+
+/** InChIKeys of species known by one of these names (case-insensitive), formulas (exact Hill form) or keys. */
+export async function findSpeciesKeys({
+  names = [],
+  formulas = [],
+}: {
+  names?: string[];
+  formulas?: string[];
+}): Promise<Map<string, string[]>> {
+  const found = new Map<string, string[]>();
+  const add = (term: string, key: string) => found.set(term, [...new Set([...(found.get(term) ?? []), key])]);
+  const db = getDb();
+  if (names.length) {
+    const lowered = names.map((n) => n.toLowerCase());
+    const rows = await db
+      .selectDistinct({ name: sql<string>`lower(${speciesNames.name})`, inchiKey: species.inchiKey })
+      .from(speciesNames)
+      .innerJoin(species, eq(species.id, speciesNames.speciesId))
+      .where(inArray(sql`lower(${speciesNames.name})`, lowered));
+    for (const r of rows) for (const n of names) if (n.toLowerCase() === r.name) add(`name:${n}`, r.inchiKey);
+  }
+  if (formulas.length) {
+    const rows = await db
+      .select({ formula: species.formula, inchiKey: species.inchiKey })
+      .from(species)
+      .where(inArray(species.formula, formulas));
+    for (const r of rows) add(`formula:${r.formula}`, r.inchiKey);
+  }
+  return found;
+}
+
+/** A published name of each of these species (the shortest), for saying what was understood. */
+export async function nameSpecies({ inchiKeys }: { inchiKeys: string[] }): Promise<Map<string, string>> {
+  if (!inchiKeys.length) return new Map();
+  const rows = await getDb()
+    .select({
+      inchiKey: species.inchiKey,
+      formula: species.formula,
+      name: sql<
+        string | null
+      >`(select n.name from species_names n where n.species_id = ${species.id} order by length(n.name), n.name limit 1)`,
+    })
+    .from(species)
+    .where(inArray(species.inchiKey, inchiKeys));
+  return new Map(rows.map((r) => [r.inchiKey, r.name ?? r.formula]));
+}
+
+export interface SpeciesSuggestion {
+  inchiKey: string;
+  name: string;
+  formula: string;
+  /** The name or formula that matched what was typed. */
+  matched: string;
+}
+
+export interface ReactionSuggestion {
+  reactionId: number;
+  reactionKey: string;
+  equation: string;
+  datasetCount: number;
+}
+
+const SUGGESTIONS = 8;
+
+/**
+ * What the header box offers for `q`: species by name, synonym or formula prefix (then by trigram
+ * similarity, for typos), and reactions whose equation matches; published data only, ≤ 8 each.
+ */
+export async function suggestSearch({ q }: { q: string }): Promise<{ species: SpeciesSuggestion[]; reactions: ReactionSuggestion[] }> {
+  const text = q.trim().toLowerCase();
+  if (!text) return { species: [], reactions: [] };
+  const db = getDb();
+  const prefix = `${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  // Names and formulas first (a few thousand rows at most), then only species of a listed reaction
+  // (search_documents holds public versions only; the GIN indexes on the key arrays answer @>).
+  const speciesRows = await db.execute<{ inchi_key: string; name: string; formula: string; matched: string }>(sql`
+    with candidates as (
+      select s.inchi_key, s.formula, n.name as matched,
+        case when lower(n.name) = ${text} then 0 when lower(n.name) like ${prefix} then 1 else 2 end as rank,
+        similarity(lower(n.name), ${text}) as sim
+      from species s join species_names n on n.species_id = s.id
+      where lower(n.name) like ${prefix} or similarity(lower(n.name), ${text}) > 0.35
+      union all
+      select s.inchi_key, s.formula, s.formula, case when lower(s.formula) = ${text} then 0 else 1 end, 1
+      from species s where lower(s.formula) like ${prefix}
+    ), best as (
+      select distinct on (c.inchi_key) c.* from candidates c
+      where exists (select 1 from search_documents d where d.reactant_keys @> array[c.inchi_key])
+         or exists (select 1 from search_documents d where d.product_keys @> array[c.inchi_key])
+      order by c.inchi_key, c.rank, c.sim desc
+    )
+    select b.inchi_key, b.formula, b.matched,
+      coalesce((select n.name from species_names n join species s on s.id = n.species_id
+        where s.inchi_key = b.inchi_key order by length(n.name), n.name limit 1), b.formula) as name
+    from best b order by b.rank, b.sim desc, b.matched limit ${SUGGESTIONS}`);
+  const speciesHits = speciesRows.map((r) => ({ inchiKey: r.inchi_key, name: r.name, formula: r.formula, matched: r.matched }));
+  // names_text holds the equation too, lower-cased, under a trigram index.
+  const contains = `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  const reactionRows = await db.execute<{ reaction_id: number; reaction_key: string; equation: string; datasets: number }>(sql`
+    select d.reaction_id, d.reaction_key, d.equation, count(*)::int as datasets
+    from search_documents d
+    where d.latest and not d.retracted and d.names_text like ${contains}
+    group by d.reaction_id, d.reaction_key, d.equation
+    order by count(*) desc, d.equation limit ${SUGGESTIONS}`);
+  return {
+    species: speciesHits,
+    reactions: reactionRows.map((r) => ({
+      reactionId: Number(r.reaction_id),
+      reactionKey: r.reaction_key,
+      equation: r.equation,
+      datasetCount: Number(r.datasets),
+    })),
+  };
+}
