@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { Suspense } from "react";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
+import { parseSearchParams, search, toSearchParams } from "@/lib/search";
+import type { SearchAnswer } from "@/components/search/search-answer";
 import { SearchClient } from "./search-client";
 
 export const metadata: Metadata = {
@@ -10,8 +12,35 @@ export const metadata: Metadata = {
 };
 export const dynamic = "force-dynamic";
 
+/**
+ * The first answer, searched here for the first paint; the browser takes over from it (the same
+ * answer GET /api/v1/search gives). Null when the URL needs correcting or the search fails: the
+ * browser then asks the API, which names the problem.
+ */
+async function firstAnswer(params: Record<string, string | string[] | undefined>): Promise<{ key: string; answer: SearchAnswer } | null> {
+  const parsed = parseSearchParams(params);
+  if (!parsed.ok) return null;
+  try {
+    const r = await search(parsed.request);
+    const answer: SearchAnswer = {
+      query: r.query,
+      parsed: r.parsed.words,
+      understood: r.parsed.query,
+      total: r.total,
+      hits: r.hits,
+      facets: r.facets,
+      nextCursor: r.nextCursor,
+      caution: FIT_CAUTION,
+    };
+    return { key: toSearchParams(parsed.request).toString(), answer };
+  } catch {
+    return null;
+  }
+}
+
 /** /search: the URL holds the whole search; the results are fetched (and refetched) in the browser. */
-export default async function SearchPage() {
+export default async function SearchPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const initial = await firstAnswer(await searchParams);
   return (
     <div className="space-y-6">
       <header className="space-y-2">
@@ -23,7 +52,7 @@ export default async function SearchPage() {
         <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>
       </header>
       <Suspense fallback={<p className="text-sm text-muted">Loading the search…</p>}>
-        <SearchClient initial={null} />
+        <SearchClient initial={initial} />
       </Suspense>
     </div>
   );

@@ -7,7 +7,7 @@ import { useId, useMemo, useState, type FormEvent } from "react";
 import { DatasetRows, ReactionRows } from "@/components/search/search-results";
 import { errorsByParameter, fetchSearch, searchKey, SearchProblem, type SearchAnswer } from "@/components/search/search-answer";
 import { WINDOW_FIELDS, type WindowParameter } from "@/components/search/search-windows";
-import { activeFilters, describeParsed, SORT_LABELS, VIEW_LABELS, withFilters } from "@/components/search/search-words";
+import { activeFilters, SORT_LABELS, VIEW_LABELS, withFilters } from "@/components/search/search-words";
 import { EMPTY_FILTERS, FILTER_PARAMETERS, MAX_QUERY_LENGTH, parseSearchParams, toSearchParams } from "@/lib/search/params";
 import { SEARCH_SORTS, SEARCH_VIEWS, type DatasetHit, type ReactionHit, type SearchRequest } from "@/lib/search/types";
 import { FacetGroups, searchHref, WindowsForm, YearCounts } from "./search-filters";
@@ -63,7 +63,7 @@ export function SearchClient({ initial }: { initial: { key: string; answer: Sear
 
   return (
     <div className="space-y-6">
-      <QueryForm request={request} errors={fieldErrors.get("q") ?? []} onSearch={(q) => go({ ...request, q, cursor: null })} />
+      <QueryForm text={params.get("q") ?? ""} errors={fieldErrors.get("q") ?? []} onSearch={(q) => go({ ...request, q, cursor: null })} />
 
       <div className="flex flex-wrap items-end justify-between gap-3">
         <nav aria-label="Show results as" className="flex rounded-md border border-line bg-panel p-0.5 text-sm">
@@ -99,7 +99,7 @@ export function SearchClient({ initial }: { initial: { key: string; answer: Sear
       {answer && (
         <p className="text-sm" data-testid="understood">
           <span className="text-muted">Searched for: </span>
-          {describeParsed(answer.parsed)}
+          {answer.parsed}
         </p>
       )}
 
@@ -171,7 +171,7 @@ function statusWords(fetching: boolean, answer: SearchAnswer | undefined, reques
   return fetching ? `${found}; updating…` : found;
 }
 
-function QueryForm({ request, errors, onSearch }: { request: SearchRequest; errors: string[]; onSearch: (q: string) => void }) {
+function QueryForm({ text, errors, onSearch }: { text: string; errors: string[]; onSearch: (q: string) => void }) {
   function submit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
     onSearch(String(new FormData(e.currentTarget).get("q") ?? "").trim());
@@ -183,11 +183,11 @@ function QueryForm({ request, errors, onSearch }: { request: SearchRequest; erro
       </label>
       <div className="flex gap-2">
         <input
-          key={request.q}
+          key={text}
           id="search-q"
           name="q"
           type="search"
-          defaultValue={request.q}
+          defaultValue={text}
           maxLength={MAX_QUERY_LENGTH}
           autoComplete="off"
           aria-invalid={errors.length ? true : undefined}
@@ -286,7 +286,7 @@ function NothingFound({ request, answer }: { request: SearchRequest; answer: Sea
   return (
     <div className="card space-y-3 text-sm">
       <p className="font-medium">
-        No {noun} match. {describeParsed(answer.parsed)}
+        No {noun} match. {answer.parsed}
         {active.length > 0 ? `; ${active.map((f) => f.words).join("; ")}` : ""}.
       </p>
       {(active.length > 0 || request.q) && (

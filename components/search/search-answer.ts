@@ -9,11 +9,15 @@ import type { DatasetHit, FacetCount, ParsedQuery, ReactionHit, SearchFacet, Sea
 
 export interface SearchAnswer {
   query: SearchRequest;
-  parsed: ParsedQuery;
+  /** What the text was understood as, in words ("Species: methane (CH4)"). */
+  parsed: string;
+  /** The same as the engines take it. */
+  understood: ParsedQuery;
   total: number;
   hits: DatasetHit[] | ReactionHit[];
   facets: Record<SearchFacet, FacetCount[]>;
   nextCursor: string | null;
+  caution: string;
 }
 
 /** A refused or failed search: the status, the problem's title, and the parameters at fault. */

@@ -1,11 +1,11 @@
 /**
  * What the search page says about a request, in words: facet titles and value labels, the active
- * filters (each one something a reader can drop to widen the search), and the understood query.
+ * filters (each one something a reader can drop to widen the search).
  * Pure: the page, the empty-result message and the unit tests share it.
  */
 import { LICENCES, METHOD_CATEGORIES, PHASES, reactionClassFor } from "@/lib/deposits/vocabulary";
 import { formatNumber } from "@/lib/format";
-import type { ParsedQuery, SearchFacet, SearchFilters, SearchFlag, SearchRequest, SearchSort, SearchView } from "@/lib/search/types";
+import type { SearchFacet, SearchFilters, SearchFlag, SearchRequest, SearchSort, SearchView } from "@/lib/search/types";
 
 export const FACET_TITLES: Record<SearchFacet, string> = {
   reactionClass: "Reaction class",
@@ -139,46 +139,4 @@ export function activeFilters(request: SearchRequest): ActiveFilter[] {
     });
   }
   return out;
-}
-
-/** A list in prose: "a", "a and b", "a, b and c". */
-export function listWords(items: string[]): string {
-  if (items.length <= 1) return items.join("");
-  return `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}`;
-}
-
-/**
- * What the text was understood as, in one sentence. The species and reaction forms come with
- * the terms as typed (`terms`: the names of the reactant and product terms, in order; when the
- * answer does not carry them, the InChIKeys' count is said instead).
- */
-export function describeParsed(parsed: ParsedQuery, names?: { reactants?: string[]; products?: string[]; species?: string }): string {
-  switch (parsed.kind) {
-    case "all":
-      return "Everything published, no search words";
-    case "text":
-      return `Words: “${parsed.text}”`;
-    case "species": {
-      const name = names?.species ?? parsed.term;
-      const several = parsed.inchiKeys.length > 1 ? ` (${parsed.inchiKeys.length} structures go by this name)` : "";
-      return `Species: ${name}${several}`;
-    }
-    case "reaction": {
-      const reactants = names?.reactants ?? parsed.reactants.map((_, i) => `reactant ${i + 1}`);
-      const products = names?.products ?? parsed.products.map((_, i) => `product ${i + 1}`);
-      const parts: string[] = [];
-      if (reactants.length > 0) {
-        parts.push(
-          reactants.length === 1 && !parsed.otherReactants && products.length === 0
-            ? `Reactions of ${reactants[0]}`
-            : `Reactions with ${listWords(reactants)} among the reactants`,
-        );
-      } else parts.push("Reactions");
-      if (parsed.otherReactants) parts.push("and any other reactant");
-      if (products.length > 0) parts.push(`giving ${listWords(products)}`);
-      return parts.join(" ");
-    }
-    case "reactionKey":
-      return `The reaction with the key ${parsed.key}`;
-  }
 }

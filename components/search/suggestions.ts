@@ -4,14 +4,41 @@
  * for screen readers.
  */
 
+/** One line of the list: a species or a reaction. */
 export interface Suggestion {
   kind: "species" | "reaction";
   /** What the list shows: a species' name, a reaction's equation. */
   label: string;
-  /** A species' formula, a reaction's dataset count, in words. */
-  detail?: string;
+  /** A species' formula (and the synonym that matched), a reaction's dataset count, in words. */
+  detail: string;
   /** The search text that finds it. */
   q: string;
+}
+
+/** What GET /api/v1/search/suggest answers (lib/search/queries.ts suggestSearch). */
+export interface SuggestAnswer {
+  species: { inchiKey: string; name: string; formula: string; matched: string }[];
+  reactions: { reactionId: number; reactionKey: string; equation: string; datasetCount: number }[];
+}
+
+/** The answer as list lines: species first, then reactions. */
+export function suggestionsOf(answer: SuggestAnswer): Suggestion[] {
+  return [
+    ...answer.species.map((s) => ({
+      kind: "species" as const,
+      label: s.name,
+      detail: [s.formula !== s.name ? s.formula : "", s.matched !== s.name && s.matched !== s.formula ? `also “${s.matched}”` : ""]
+        .filter(Boolean)
+        .join(", "),
+      q: s.name,
+    })),
+    ...answer.reactions.map((r) => ({
+      kind: "reaction" as const,
+      label: r.equation,
+      detail: `${r.datasetCount} dataset${r.datasetCount === 1 ? "" : "s"}`,
+      q: r.reactionKey,
+    })),
+  ];
 }
 
 /** Where a suggestion leads: the search for it (species and reaction pages take over once they exist). */
@@ -36,6 +63,5 @@ export async function fetchSuggestions(q: string, signal?: AbortSignal): Promise
     headers: { accept: "application/json" },
   });
   if (!res.ok) throw new Error(`Suggestions answered with status ${res.status}`);
-  const body = (await res.json()) as { suggestions?: Suggestion[] };
-  return body.suggestions ?? [];
+  return suggestionsOf((await res.json()) as SuggestAnswer);
 }

@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { searchKey } from "@/components/search/search-answer";
 import { checkWindows, windowValue } from "@/components/search/search-windows";
-import { activeFilters, describeParsed, facetValueLabel, withFacetValue, withFilters, withYear } from "@/components/search/search-words";
-import { suggestionCountWords, suggestionHref } from "@/components/search/suggestions";
+import { activeFilters, facetValueLabel, withFacetValue, withFilters, withYear } from "@/components/search/search-words";
+import { suggestionCountWords, suggestionHref, suggestionsOf } from "@/components/search/suggestions";
 import { DEFAULT_REQUEST, parseSearchParams, toSearchParams } from "@/lib/search/params";
 import type { SearchRequest } from "@/lib/search/types";
 
@@ -61,27 +61,6 @@ describe("changing the request", () => {
   });
 });
 
-describe("what was understood, in words", () => {
-  it("names species, reaction patterns and keys", () => {
-    expect(describeParsed({ kind: "all" })).toBe("Everything published, no search words");
-    expect(describeParsed({ kind: "text", text: "flash photolysis" })).toBe("Words: “flash photolysis”");
-    expect(describeParsed({ kind: "species", term: "methane", inchiKeys: ["VNWKTOKETHGBQD-UHFFFAOYSA-N"] })).toBe("Species: methane");
-    expect(describeParsed({ kind: "species", term: "x", inchiKeys: ["A", "B"] })).toBe("Species: x (2 structures go by this name)");
-    expect(
-      describeParsed({ kind: "reaction", reactants: [["A"], ["B"]], products: [], otherReactants: false }, { reactants: ["OH", "CH4"] }),
-    ).toBe("Reactions with OH and CH4 among the reactants");
-    expect(describeParsed({ kind: "reaction", reactants: [["A"]], products: [], otherReactants: true }, { reactants: ["OH"] })).toBe(
-      "Reactions with OH among the reactants and any other reactant",
-    );
-    expect(
-      describeParsed(
-        { kind: "reaction", reactants: [["A"]], products: [["B"]], otherReactants: false },
-        { reactants: ["CH4"], products: ["CH3"] },
-      ),
-    ).toBe("Reactions with CH4 among the reactants giving CH3");
-  });
-});
-
 describe("the windows' own checks", () => {
   const empty = { tMin: "", tMax: "", pMin: "", pMax: "", yearMin: "", yearMax: "" };
   it("refuse a minimum above its maximum beside the maximum", () => {
@@ -109,13 +88,17 @@ describe("the query key", () => {
 
 describe("suggestions", () => {
   it("lead to the search for them and are counted in words", () => {
-    expect(suggestionHref({ kind: "reaction", label: "OH + CH4", q: "OH + CH4" })).toBe("/search?q=OH+%2B+CH4");
-    expect(
-      suggestionCountWords([
-        { kind: "species", label: "methane", q: "methane" },
-        { kind: "reaction", label: "OH + CH4 → H2O + CH3", q: "OH + CH4" },
-      ]),
-    ).toBe("2 suggestions: 1 species and 1 reaction. Up and down arrows to choose.");
+    const list = suggestionsOf({
+      species: [{ inchiKey: "TUJKJAMUKRIRHC-UHFFFAOYSA-N", name: "OH", formula: "HO", matched: "hydroxyl radical" }],
+      reactions: [{ reactionId: 3, reactionKey: "RK-1", equation: "OH + CH4 → H2O + CH3", datasetCount: 1 }],
+    });
+    expect(list).toEqual([
+      { kind: "species", label: "OH", detail: "HO, also “hydroxyl radical”", q: "OH" },
+      { kind: "reaction", label: "OH + CH4 → H2O + CH3", detail: "1 dataset", q: "RK-1" },
+    ]);
+    expect(suggestionHref(list[0])).toBe("/search?q=OH");
+    expect(suggestionHref({ kind: "species", label: "x", detail: "", q: "OH + *" })).toBe("/search?q=OH+%2B+*");
+    expect(suggestionCountWords(list)).toBe("2 suggestions: 1 species and 1 reaction. Up and down arrows to choose.");
     expect(suggestionCountWords([])).toMatch(/^No suggestions/);
   });
 });
