@@ -16,15 +16,16 @@ export function DatasetRows({ hits }: { hits: DatasetHit[] }) {
     <ul className="card divide-y divide-line p-0" aria-label="Datasets found">
       {hits.map((h) => (
         <li key={h.versionId} className="space-y-2 px-4 py-3 sm:px-6">
-          <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
-            <Link href={versionPath(h.datasetId, h.versionNumber)} className="font-medium">
-              <span className="font-mono">{h.equation}</span>
-              <span className="sr-only">: </span>
-              <span className="block text-sm font-normal sm:inline sm:before:content-['—_']">{h.title}</span>
+          <div className="space-y-0.5">
+            <p className="flex flex-wrap items-baseline gap-x-3 gap-y-1 font-medium">
+              <span className="min-w-0 break-words">{h.equation}</span>
+              {h.retracted && (
+                <span className="rounded-sm border border-error/40 bg-panel px-1.5 py-0.5 text-xs font-medium text-error">Retracted</span>
+              )}
+            </p>
+            <Link href={versionPath(h.datasetId, h.versionNumber)} className="block break-words text-sm">
+              {h.title}
             </Link>
-            {h.retracted && (
-              <span className="rounded-sm border border-error/40 bg-panel px-1.5 py-0.5 text-xs font-medium text-error">Retracted</span>
-            )}
           </div>
           <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_1fr_auto_1fr] lg:flex lg:flex-wrap lg:gap-x-2">
             <Pair term="Temperatures" value={formatRange(h.tMin, h.tMax, "K")} />
@@ -56,7 +57,7 @@ export function ReactionRows({ hits }: { hits: ReactionHit[] }) {
     <ul className="card divide-y divide-line p-0" aria-label="Reactions found">
       {hits.map((h) => (
         <li key={h.reactionId} className="space-y-2 px-4 py-3 sm:px-6">
-          <Link href={`/reactions/${h.reactionId}`} className="font-mono font-medium">
+          <Link href={`/reactions/${h.reactionId}`} className="block break-words font-medium">
             {h.equation}
           </Link>
           <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_1fr_auto_1fr] lg:flex lg:flex-wrap lg:gap-x-2">

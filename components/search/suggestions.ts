@@ -36,7 +36,8 @@ export function suggestionsOf(answer: SuggestAnswer): Suggestion[] {
       kind: "reaction" as const,
       label: r.equation,
       detail: `${r.datasetCount} dataset${r.datasetCount === 1 ? "" : "s"}`,
-      q: r.reactionKey,
+      // The equation reads better in the box than the key, and finds the same reaction.
+      q: r.equation,
     })),
   ];
 }

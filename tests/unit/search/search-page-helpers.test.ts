@@ -94,7 +94,7 @@ describe("suggestions", () => {
     });
     expect(list).toEqual([
       { kind: "species", label: "OH", detail: "HO, also “hydroxyl radical”", q: "OH" },
-      { kind: "reaction", label: "OH + CH4 → H2O + CH3", detail: "1 dataset", q: "RK-1" },
+      { kind: "reaction", label: "OH + CH4 → H2O + CH3", detail: "1 dataset", q: "OH + CH4 → H2O + CH3" },
     ]);
     expect(suggestionHref(list[0])).toBe("/search?q=OH");
     expect(suggestionHref({ kind: "species", label: "x", detail: "", q: "OH + *" })).toBe("/search?q=OH+%2B+*");
