@@ -7,8 +7,8 @@ import { FLAG_LABELS } from "./search-words";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
-/** The reaction page by its stable key. */
-export const reactionKeyPath = (key: string) => `/reactions/${encodeURIComponent(key)}`;
+/** The reaction page by its stable key, ">>" written "~" (the reaction pages' own URL-safe form). */
+export const reactionKeyPath = (key: string) => `/reactions/${key.replace(">>", "~")}`;
 
 /** One row per dataset: what a modeller checks before opening it. */
 export function DatasetRows({ hits }: { hits: DatasetHit[] }) {
