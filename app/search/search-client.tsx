@@ -3,7 +3,7 @@
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useRouter, useSearchParams } from "next/navigation";
-import { useId, useMemo, useState, type FormEvent } from "react";
+import { useId, useMemo, useOptimistic, useState, useTransition, type FormEvent } from "react";
 import { DatasetRows, ReactionRows } from "@/components/search/search-results";
 import { errorsByParameter, fetchSearch, searchKey, SearchProblem, type SearchAnswer } from "@/components/search/search-answer";
 import { WINDOW_FIELDS, type WindowParameter } from "@/components/search/search-windows";
@@ -42,7 +42,14 @@ export function SearchClient({ initial }: { initial: { key: string; answer: Sear
   const answer = query.isError ? undefined : query.data;
   const settled = answer !== undefined && !query.isPlaceholderData;
 
-  const go = (next: SearchRequest) => router.push(searchHref(next), { scroll: false });
+  // A checkbox or the order shows its new state at once, while the URL (and so the search) follows.
+  const [, startTransition] = useTransition();
+  const [shown, setShown] = useOptimistic(request);
+  const go = (next: SearchRequest) =>
+    startTransition(() => {
+      setShown(next);
+      router.push(searchHref(next), { scroll: false });
+    });
 
   const raw = Object.fromEntries([...WINDOW_FIELDS.map((f) => f.name), "tCovers"].map((n) => [n, params.get(n) ?? ""])) as Record<
     WindowParameter | "tCovers",
@@ -84,7 +91,7 @@ export function SearchClient({ initial }: { initial: { key: string; answer: Sear
           <select
             id="search-sort"
             className="field-input w-auto py-1.5"
-            value={request.sort}
+            value={shown.sort}
             onChange={(e) => go({ ...request, sort: e.target.value as SearchRequest["sort"], cursor: null })}
           >
             {SEARCH_SORTS.map((s) => (
@@ -139,7 +146,7 @@ export function SearchClient({ initial }: { initial: { key: string; answer: Sear
             {filtersOpen || windowProblems ? "Hide filters" : `Show filters${active.length ? ` (${active.length} in force)` : ""}`}
           </button>
           <div id={filtersId} className={`${filtersOpen || windowProblems ? "block" : "hidden"} card space-y-5 p-4 lg:block`}>
-            <FacetGroups request={request} facets={answer?.facets} errors={fieldErrors} onChange={go} />
+            <FacetGroups request={shown} facets={answer?.facets} errors={fieldErrors} onChange={go} />
             <YearCounts request={request} counts={answer?.facets.sourceYear} />
             <WindowsForm key={key} raw={raw} errors={fieldErrors} onApply={applyWindows} />
           </div>
