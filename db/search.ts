@@ -99,16 +99,8 @@ export const searchReactionSummaries = pgTable("search_reaction_summaries", {
   reactionId: integer()
     .primaryKey()
     .references(() => reactions.id, { onDelete: "cascade" }),
-  /** lib/search/types.ts ReactionHit["consensus"]. */
-  consensus: jsonb().$type<{
-    model: "arrhenius" | "modified_arrhenius";
-    a: number;
-    n: number;
-    ea: number;
-    aUnit: string;
-    tMin: number;
-    tMax: number;
-  } | null>(),
+  /** The consensus expression as lib/search/types.ts ReactionHit["consensus"] states it (db/ imports no domain types). */
+  consensus: jsonb().$type<Record<string, unknown> | null>(),
   spread: doublePrecision(),
   updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 });

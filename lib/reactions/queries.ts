@@ -6,6 +6,7 @@ import { consensusExclusions } from "@/db/consensus";
 import { datasetMembers, datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { AppError } from "@/lib/errors";
+import { writeReactionSummary } from "@/lib/search/documents";
 import type { CuratorExclusion } from "./consensus-selection";
 
 /**
@@ -164,6 +165,8 @@ export async function saveConsensusExclusion({ versionId, actorId, reason }: { v
       subjectId: versionId,
       details: { reactionId, reason, ...(before ? { previousReason: before.reason } : {}) },
     });
+    // The reactions view of search shows this consensus: rewritten with the exclusion.
+    if (reactionId !== null) await writeReactionSummary(tx, reactionId);
     return { reactionId, changed: !!before };
   });
 }
@@ -184,6 +187,7 @@ export async function deleteConsensusExclusion({ versionId, actorId }: { version
       subjectId: versionId,
       details: { reactionId, previousReason: removed.reason },
     });
+    if (reactionId !== null) await writeReactionSummary(tx, reactionId);
     return { reactionId };
   });
 }

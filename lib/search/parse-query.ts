@@ -129,3 +129,14 @@ export function parseQueryText(q: string): QueryShape {
   if (!/\s/.test(text)) return { kind: "species", term: readSpeciesTerm(text) };
   return { kind: "text", text, name: readSpeciesTerm(text) };
 }
+
+/** How the search text is read, in words, as /docs/api publishes them; keep them true to the code above. */
+export const SEARCH_QUERY_RULES: readonly string[] = [
+  "Nothing typed: every published dataset.",
+  "A reaction key (InChIKeys joined by `+`, the sides by `>>`): that reaction.",
+  "An arrow (`->`, `→` or `=>`): a reaction pattern, reactants on the left, products on the right: `CH4 -> CH3` finds reactions with methane among the reactants and methyl among the products. A side with `*` or nothing means anything there.",
+  "Terms joined by ` + ` (a plus with spaces around it): reactants only, in any order, any products: `OH + CH4`; `OH + *` finds every reaction with OH among the reactants.",
+  "One species: a name or synonym (any case), a formula (Hill order or another: `OH` reads as HO), a SMILES (`C`), an InChI (`InChI=1S/CH4/h1H4`) or an InChIKey. SMILES and InChI are canonicalised and matched by InChIKey; a term is read every way it can be and the readings are united (`C` is methane's SMILES and a carbon atom's formula). Datasets whose reaction has the species on either side match.",
+  "Anything else is free text over titles, equations, species names and formulas (weighted most), keywords, creators and technique, then descriptions and source references, with English word stemming; a name misspelt by a letter or two still matches.",
+  "A term that can only be a structure (an InChI, or a SMILES with brackets, `=`, `#`, `@`) and cannot be read is refused with 400 naming `q`.",
+];

@@ -8,6 +8,8 @@ import * as datasets from "@/app/api/v1/datasets/route";
 import * as files from "@/app/api/v1/files/[fileId]/route";
 import * as identifiers from "@/app/api/v1/identifiers/route";
 import * as reactionConsensus from "@/app/api/v1/reactions/[id]/consensus/route";
+import * as search from "@/app/api/v1/search/route";
+import * as searchSuggest from "@/app/api/v1/search/suggest/route";
 import * as speciesPreview from "@/app/api/v1/species/preview/route";
 import * as userById from "@/app/api/v1/users/[id]/route";
 import * as users from "@/app/api/v1/users/route";
@@ -29,6 +31,8 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/files/:fileId": files,
   "/api/v1/identifiers": identifiers,
   "/api/v1/reactions/:id/consensus": reactionConsensus,
+  "/api/v1/search": search,
+  "/api/v1/search/suggest": searchSuggest,
   "/api/v1/species/preview": speciesPreview,
   "/api/v1/users/:id": userById,
   "/api/v1/users": users,

@@ -4,7 +4,11 @@ import { endpointScopes } from "@/lib/auth/endpoint-scopes";
 import { appUrl } from "@/lib/config";
 import { ANALYSIS_CONVENTIONS, CONSENSUS_CONVENTIONS } from "@/lib/kinetics/conventions";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
+import { METHOD_CATEGORIES, PHASES, REACTION_CLASSES } from "@/lib/deposits/vocabulary";
 import { CONSENSUS_SELECTION_RULES } from "@/lib/reactions/consensus-selection";
+import { DEFAULT_LIMIT, MAX_LIMIT, MAX_QUERY_LENGTH } from "@/lib/search/params";
+import { SEARCH_QUERY_RULES } from "@/lib/search/parse-query";
+import { SEARCH_FACETS, SEARCH_FLAGS } from "@/lib/search/types";
 import { ScrollRegion } from "@/components/scroll-region";
 
 export const metadata: Metadata = { title: "API" };
@@ -141,6 +145,78 @@ export default function ApiDocsPage() {
             </li>
           ))}
         </ul>
+        <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
+      </section>
+
+      <section className="space-y-3" aria-labelledby="search">
+        <h2 id="search" className="text-2xl font-semibold">
+          GET /api/v1/search
+        </h2>
+        <p>
+          Published datasets (and retracted ones, marked <code>retracted: true</code>) matching a text, a species or a reaction pattern and
+          your filters; drafts, submissions and declined datasets never appear, not even in facet counts. Each dataset is listed by its
+          newest public version. No sign-in. The <a href="/search">search page</a> takes the same parameters in its URL.
+        </p>
+        <h3 className="font-semibold">Query parameters</h3>
+        <ul className="list-disc space-y-1 pl-6 text-sm">
+          <li>
+            <code>q</code>: what to look for, at most {MAX_QUERY_LENGTH} characters (read as below).
+          </li>
+          <li>
+            <code>view</code>: <code>datasets</code> (default) or <code>reactions</code> (one row per reaction with its datasets, the
+            consensus expression over the reaction page&apos;s default choice and the spread of the datasets&apos; own fits).
+          </li>
+          <li>
+            <code>sort</code>: <code>relevance</code> (default; for a species or a reaction pattern, the newest first), <code>newest</code>,{" "}
+            <code>widest</code> (temperature range), <code>points</code>; ties go to the newer version.
+          </li>
+          <li>
+            <code>limit</code>: 1–{MAX_LIMIT}, default {DEFAULT_LIMIT}; <code>cursor</code>: the <code>nextCursor</code> of the previous
+            page (signed and bound to its search: a changed one, or one from another search, is 400).
+          </li>
+          <li>
+            Filters, each “any of” its values, all filters together: <code>class</code> ({REACTION_CLASSES.map((c) => c.id).join(", ")}),{" "}
+            <code>phase</code> ({PHASES.map((c) => c.id).join(", ")}), <code>method</code> ({METHOD_CATEGORIES.map((c) => c.id).join(", ")}
+            ), <code>licence</code> (SPDX ids), <code>flag</code> ({SEARCH_FLAGS.join(", ")}) — repeated or comma-separated;{" "}
+            <code>bathGas</code> and <code>creator</code> — repeated (names may hold commas).
+          </li>
+          <li>
+            <code>tMin</code>, <code>tMax</code> (K): datasets whose measured range overlaps the window; with <code>tCovers=true</code>{" "}
+            (both bounds needed) only those whose range covers it whole. <code>pMin</code>, <code>pMax</code> (Pa): datasets with a stated
+            pressure overlapping the window. <code>yearMin</code>, <code>yearMax</code>: year of the source publication. Bounds are
+            non-negative plain numbers, the lower not above the upper.
+          </li>
+        </ul>
+        <h3 className="font-semibold">How the text is read</h3>
+        <ul className="list-disc space-y-2 pl-6 text-sm">
+          {SEARCH_QUERY_RULES.map((c, i) => (
+            <li key={i}>
+              <Inline text={c} />
+            </li>
+          ))}
+        </ul>
+        <h3 className="font-semibold">Answer</h3>
+        <p className="text-sm">
+          200 with <code>{"{ query, parsed, understood, total, hits, facets, nextCursor, caution }"}</code>: <code>parsed</code> says in
+          words what the text was understood as, <code>understood</code> the same as data; <code>total</code> counts datasets (or reactions)
+          before paging; each dataset hit has its version, identifier, title, equation, reaction key, class, method, temperature range,
+          points, the re-fit&apos;s <code>ea</code> (J mol⁻¹) and <code>a</code> (in <code>aUnit</code>), flags, creators and publication
+          time; <code>facets</code> counts values of {SEARCH_FACETS.join(", ")} over the matches with every other facet&apos;s filter
+          applied. Any parameter that cannot be read — an unknown one included — is 400 (<code>bad_request</code>) with an{" "}
+          <code>errors</code> list naming each <code>parameter</code>, as for the consensus below.
+        </p>
+        <h3 className="font-semibold">GET /api/v1/search/suggest?q=</h3>
+        <p className="text-sm">
+          For a search box: up to 8 species (by name, synonym or formula prefix, then by similarity for typos) and up to 8 reactions whose
+          equation or species names contain the text, from published data only:{" "}
+          <code>
+            {"{ species: [{ inchiKey, name, formula, matched }], reactions: [{ reactionId, reactionKey, equation, datasetCount }] }"}
+          </code>
+          .
+        </p>
+        <ScrollRegion label="Example search request">
+          <pre className="w-max min-w-full rounded-md border border-line bg-panel p-4 text-xs">{`curl -s '${appUrl()}/api/v1/search?q=OH+%2B+CH4&method=experiment&tMin=250&tMax=400&sort=widest'`}</pre>
+        </ScrollRegion>
         <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{CAUTION}</p>
       </section>
 

@@ -41,7 +41,8 @@ describe("search cursors", () => {
     expect(verifyCursor(cursor, { ...request, sort: "points" })).toBeNull();
     expect(verifyCursor(cursor, { ...request, filters: { ...EMPTY_FILTERS, tMin: 200 } })).toBeNull();
     // The page size is not part of the search.
-    expect(verifyCursor(cursor, { ...request, limit: 50 })).toBe('["x",12]');
+    const largerPages: SearchRequest = { ...request, limit: 50 };
+    expect(verifyCursor(cursor, largerPages)).toBe('["x",12]');
   });
 
   it("a tampered cursor is a 400 naming the cursor", () => {
