@@ -1,7 +1,7 @@
 "use client";
 
 import Link from "next/link";
-import { useId, useState, type FormEvent } from "react";
+import { useId, useState, type FormEvent, type ReactNode } from "react";
 import { FILTER_PARAMETERS, toSearchParams } from "@/lib/search/params";
 import type { FacetCount, SearchFacet, SearchRequest } from "@/lib/search/types";
 import {
@@ -183,15 +183,23 @@ export function WindowsForm({
       </div>
     );
   };
+  const pair = (legend: string, lo: WindowParameter, hi: WindowParameter, extra?: ReactNode) => (
+    <fieldset className="space-y-2">
+      <legend className="mb-1 text-sm font-semibold">{legend}</legend>
+      <div className="flex gap-2">
+        {field(lo)}
+        {field(hi)}
+      </div>
+      {extra}
+    </fieldset>
+  );
   const coversMessages = messagesOf("tCovers");
   return (
     <form onSubmit={submit} noValidate className="space-y-4" aria-label="Temperature, pressure and year">
-      <fieldset className="space-y-2">
-        <legend className="mb-1 text-sm font-semibold">Temperature window (K)</legend>
-        <div className="flex gap-2">
-          {field("tMin")}
-          {field("tMax")}
-        </div>
+      {pair(
+        "Temperature window (K)",
+        "tMin",
+        "tMax",
         <div
           role="radiogroup"
           aria-label="How the measured range meets the window"
@@ -211,22 +219,10 @@ export function WindowsForm({
               {coversMessages.join(" ")}
             </p>
           )}
-        </div>
-      </fieldset>
-      <fieldset className="space-y-2">
-        <legend className="mb-1 text-sm font-semibold">Pressure window (Pa)</legend>
-        <div className="flex gap-2">
-          {field("pMin")}
-          {field("pMax")}
-        </div>
-      </fieldset>
-      <fieldset className="space-y-2">
-        <legend className="mb-1 text-sm font-semibold">Year of the source publication</legend>
-        <div className="flex gap-2">
-          {field("yearMin")}
-          {field("yearMax")}
-        </div>
-      </fieldset>
+        </div>,
+      )}
+      {pair("Pressure window (Pa)", "pMin", "pMax")}
+      {pair("Year of the source publication", "yearMin", "yearMax")}
       <button type="submit" className="btn-secondary w-full">
         Apply these windows
       </button>
