@@ -31,10 +31,12 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
         >
           Skip to content
         </a>
-        <SiteHeader />
-        <main id="main" className="mx-auto w-full max-w-6xl px-4 py-8 sm:px-6">
-          <Providers>{children}</Providers>
-        </main>
+        <Providers>
+          <SiteHeader />
+          <main id="main" className="mx-auto w-full max-w-6xl px-4 py-8 sm:px-6">
+            {children}
+          </main>
+        </Providers>
         <footer className="mx-auto max-w-6xl space-y-3 px-4 pb-10 pt-4 text-xs text-muted sm:px-6">
           <nav aria-label="Browse">
             <ul className="flex flex-wrap gap-x-4 gap-y-1">

@@ -2,6 +2,7 @@ import Link from "next/link";
 import { can } from "@/lib/auth/permissions";
 import { getCurrentUser } from "@/lib/auth/session";
 import { MainNav, type NavLink } from "./main-nav";
+import { SiteSearch } from "./search/site-search";
 
 /** Product name, search, and the links the signed-in role may use. */
 export async function SiteHeader() {
@@ -25,23 +26,7 @@ export async function SiteHeader() {
         <Link href="/" className="mr-auto font-serif text-xl sm:mr-0 font-semibold text-ink no-underline hover:no-underline">
           Arrhenia
         </Link>
-        <form
-          action="/search"
-          method="get"
-          role="search"
-          className="order-last flex w-full items-center sm:order-none sm:w-auto sm:min-w-48 sm:flex-1"
-        >
-          <label htmlFor="site-search" className="sr-only">
-            Search datasets
-          </label>
-          <input
-            id="site-search"
-            name="q"
-            type="search"
-            placeholder="Search reactions, species, authors…"
-            className="field-input max-w-md"
-          />
-        </form>
+        <SiteSearch />
         <MainNav links={links} user={user ? { name: user.name, email: user.email, role: user.role } : null} />
       </div>
     </header>

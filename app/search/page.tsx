@@ -1,23 +1,63 @@
 import type { Metadata } from "next";
 import { publicPageMetadata } from "@/lib/page-metadata";
+import { Suspense } from "react";
+import { FIT_CAUTION } from "@/lib/datasets/version-json";
+import { parseSearchParams, search, toSearchParams } from "@/lib/search";
+import type { SearchAnswer } from "@/components/search/search-answer";
+import { SearchClient } from "./search-client";
 
 export async function generateMetadata(): Promise<Metadata> {
   return publicPageMetadata({
     title: "Search",
-    description: "Search published rate-constant datasets by species, reaction, author, technique or words of their description.",
+    description:
+      "Search every published rate-constant dataset by species, reaction, author or words, and narrow by class, conditions and findings.",
     path: "/search",
   });
 }
+export const dynamic = "force-dynamic";
 
-export default async function SearchPage({ searchParams }: { searchParams: Promise<{ q?: string }> }) {
-  const { q } = await searchParams;
+/**
+ * The first answer, searched here for the first paint; the browser takes over from it (the same
+ * answer GET /api/v1/search gives). Null when the URL needs correcting or the search fails: the
+ * browser then asks the API, which names the problem.
+ */
+async function firstAnswer(params: Record<string, string | string[] | undefined>): Promise<{ key: string; answer: SearchAnswer } | null> {
+  const parsed = parseSearchParams(params);
+  if (!parsed.ok) return null;
+  try {
+    const r = await search(parsed.request);
+    const answer: SearchAnswer = {
+      query: r.query,
+      parsed: r.parsed.words,
+      understood: r.parsed.query,
+      total: r.total,
+      hits: r.hits,
+      facets: r.facets,
+      nextCursor: r.nextCursor,
+      caution: FIT_CAUTION,
+    };
+    return { key: toSearchParams(parsed.request).toString(), answer };
+  } catch {
+    return null;
+  }
+}
+
+/** /search: the URL holds the whole search; the results are fetched (and refetched) in the browser. */
+export default async function SearchPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const initial = await firstAnswer(await searchParams);
   return (
-    <div className="space-y-4">
-      <h1 className="text-3xl font-semibold">Search</h1>
-      <p className="text-sm text-muted">
-        {q ? <>No published datasets match “{q}” yet.</> : "Type a reaction, species or author in the search box above."} Search covers
-        published datasets only.
-      </p>
+    <div className="space-y-6">
+      <header className="space-y-2">
+        <h1 className="text-3xl font-semibold">Search</h1>
+        <p className="text-sm text-muted">
+          Every published dataset (retracted ones marked), with the parameters of its automatic re-fit. Drafts and submissions are never
+          listed.
+        </p>
+        <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>
+      </header>
+      <Suspense fallback={<p className="text-sm text-muted">Loading the search…</p>}>
+        <SearchClient initial={initial} />
+      </Suspense>
     </div>
   );
 }

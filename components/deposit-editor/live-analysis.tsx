@@ -1,9 +1,10 @@
 "use client";
 
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import { useEffect, useMemo, useState } from "react";
+import { useMemo, useState } from "react";
 import { ArrheniusPlot, type PlotPoint } from "@/components/arrhenius-plot";
 import { ResultTables } from "@/components/result-tables";
+import { useDebouncedValue } from "@/components/use-debounced-value";
 import type { AnalysisResponse } from "@/lib/analyses/analyse-request";
 import {
   SUPPORTED_UNITS,
@@ -30,15 +31,6 @@ interface Problem {
 interface Fitted {
   response: AnalysisResponse;
   built: BuiltAnalysisRequest;
-}
-
-function useDebouncedValue<T>(value: T, ms: number): T {
-  const [current, setCurrent] = useState(value);
-  useEffect(() => {
-    const timer = setTimeout(() => setCurrent(value), ms);
-    return () => clearTimeout(timer);
-  }, [value, ms]);
-  return current;
 }
 
 async function postAnalysis(bodyText: string, signal: AbortSignal): Promise<AnalysisResponse> {
