@@ -1,14 +1,12 @@
 import Link from "next/link";
 import { versionPath } from "@/lib/identifiers/paths";
+import { reactionPath } from "@/lib/reactions/paths";
 import { formatRange, formatSignificant } from "@/lib/format";
 import { GAS_CONSTANT, REFERENCE_TEMPERATURE } from "@/lib/kinetics/constants";
 import type { DatasetHit, ReactionHit } from "@/lib/search/types";
 import { FLAG_LABELS } from "./search-words";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
-
-/** The reaction page by its stable key, ">>" written "~" (the reaction pages' own URL-safe form). */
-export const reactionKeyPath = (key: string) => `/reactions/${key.replace(">>", "~")}`;
 
 /** One row per dataset: what a modeller checks before opening it. */
 export function DatasetRows({ hits }: { hits: DatasetHit[] }) {
@@ -43,7 +41,7 @@ export function DatasetRows({ hits }: { hits: DatasetHit[] }) {
             {h.creators.slice(0, 3).join("; ")}
             {h.creators.length > 3 ? ` and ${h.creators.length - 3} more` : ""}
             {h.creators.length > 0 ? " · " : ""}published {h.publishedAt.slice(0, 10)} ·{" "}
-            <Link href={reactionKeyPath(h.reactionKey)}>every dataset of this reaction</Link>
+            <Link href={reactionPath(h.reactionKey)}>every dataset of this reaction</Link>
           </p>
         </li>
       ))}
@@ -57,7 +55,7 @@ export function ReactionRows({ hits }: { hits: ReactionHit[] }) {
     <ul className="card divide-y divide-line p-0" aria-label="Reactions found">
       {hits.map((h) => (
         <li key={h.reactionId} className="space-y-2 px-4 py-3 sm:px-6">
-          <Link href={`/reactions/${h.reactionId}`} className="block break-words font-medium">
+          <Link href={reactionPath(h.reactionKey)} className="block break-words font-medium">
             {h.equation}
           </Link>
           <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_1fr_auto_1fr] lg:flex lg:flex-wrap lg:gap-x-2">
