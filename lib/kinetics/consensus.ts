@@ -918,24 +918,25 @@ function compare(
         };
       })
     : [];
-  if (!shareCache) {
-    return {
-      comparedWith: o.count,
-      model: other.model,
-      tau2: other.tau2,
-      range: overlap ? { Tmin: a, Tmax: b } : null,
-      points,
-      bound,
-      off: points.some((p) => !p.agrees),
-      activationEnergy: null,
-      slopeZ: null,
-      factorChanges: null,
-      factorChangeP: null,
-      meanOffsetLog10,
-      restsOn: null,
-      agreesOnlyWithinSpread: false,
-    };
-  }
+  const off = points.some((p) => !p.agrees);
+  const result = (rest: Partial<Disagreement>): Disagreement => ({
+    comparedWith: o.count,
+    model: other.model,
+    tau2: other.tau2,
+    range: overlap ? { Tmin: a, Tmax: b } : null,
+    points,
+    bound,
+    off,
+    activationEnergy: null,
+    slopeZ: null,
+    factorChanges: null,
+    factorChangeP: null,
+    meanOffsetLog10,
+    restsOn: null,
+    agreesOnlyWithinSpread: false,
+    ...rest,
+  });
+  if (!shareCache) return result({});
   let activationEnergy: Disagreement["activationEnergy"] = null;
   let slopeZ: number | null = null;
   let factorChanges: boolean | null = null;
@@ -989,29 +990,13 @@ function compare(
       restsOn = { id: datasets[best].id, share: Math.min(1, bestShare), T: worst.T, Tmin, Tmax, inRange };
     }
   }
-  const off = points.some((p) => !p.agrees);
   // Beyond its own uncertainty there, and τ²₋ⱼ (which also widens the other side) outweighs both variances.
   const agreesOnlyWithinSpread =
     overlap &&
     !off &&
     o.count >= 2 &&
     diffs.some((x) => other.tau2 > x.ownSe * x.ownSe + x.othersSe * x.othersSe && Math.abs(x.d) > bound * x.ownSe);
-  return {
-    comparedWith: o.count,
-    model: other.model,
-    tau2: other.tau2,
-    range: overlap ? { Tmin: a, Tmax: b } : null,
-    points,
-    bound,
-    off,
-    activationEnergy,
-    slopeZ,
-    factorChanges,
-    factorChangeP,
-    meanOffsetLog10,
-    restsOn,
-    agreesOnlyWithinSpread,
-  };
+  return result({ activationEnergy, slopeZ, factorChanges, factorChangeP, restsOn, agreesOnlyWithinSpread });
 }
 
 function verdictOf(
