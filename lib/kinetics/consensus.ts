@@ -724,7 +724,8 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
   for (const j of included) {
     for (const T of supports[j]!.temps) tempCount.set(T, (tempCount.get(T) ?? 0) + 1);
   }
-  const sortedTemps = [...tempCount.keys()].sort((a, b) => a - b);
+  // A typed array sorts numerically (temperatures are positive, never NaN).
+  const sortedTemps = Float64Array.from(tempCount.keys()).sort();
   const curved = included.filter((j) => carriesCurvature(supports[j])).length;
   let judgedRows: Rows | null = null;
   for (let i = 0; i < m; i++) {
@@ -801,7 +802,11 @@ class ShareCache {
 function comparisonTemperatures(a: number, b: number): number[] {
   if (!(b > a)) return [a];
   const steps = b / a > 2 ? 4 : 2;
-  return Array.from({ length: steps + 1 }, (_, i) => (i === 0 ? a : i === steps ? b : 1 / (1 / a + ((1 / b - 1 / a) * i) / steps)));
+  const out = new Array<number>(steps + 1);
+  out[0] = a;
+  for (let i = 1; i < steps; i++) out[i] = 1 / (1 / a + ((1 / b - 1 / a) * i) / steps);
+  out[steps] = b;
+  return out;
 }
 
 /** How the other side of a comparison is read: the others' consensus curve, or the one other dataset's own fit. */
