@@ -158,12 +158,14 @@ export function designRow(rows: Pick<Rows, "cE" | "sE" | "cL" | "sL" | "T0">, T:
 
 /** Accumulate the rows of the given datasets at between variance tau2 into state. */
 function addBlocks(state: GlsState, rows: Rows, blocks: readonly number[], tau2: number, skip = -1): void {
-  for (const j of blocks) {
-    if (j === skip) continue;
-    for (let r = rows.start[j]; r < rows.start[j + 1]; r++) {
-      const v = rows.v[r] + tau2;
-      if (v > 0) state.addRow(rows.f, 3 * r, rows.y[r], 1 / v);
-    }
+  for (const j of blocks) if (j !== skip) addBlock(state, rows, j, tau2);
+}
+
+/** Accumulate the rows of dataset j at between variance tau2 into state. */
+function addBlock(state: GlsState, rows: Rows, j: number, tau2: number): void {
+  for (let r = rows.start[j]; r < rows.start[j + 1]; r++) {
+    const v = rows.v[r] + tau2;
+    if (v > 0) state.addRow(rows.f, 3 * r, rows.y[r], 1 / v);
   }
 }
 
@@ -245,7 +247,7 @@ function prefixStates(rows: Rows, blocks: readonly number[], q: 2 | 3, tau2: num
   const out = new Float64Array((blocks.length + 1) * size);
   const s = new GlsState(q);
   for (let i = 0; i < blocks.length; i++) {
-    addBlocks(s, rows, [blocks[i]], tau2);
+    addBlock(s, rows, blocks[i], tau2);
     s.save(out, (i + 1) * size);
   }
   return out;
@@ -257,7 +259,7 @@ function suffixStates(rows: Rows, blocks: readonly number[], q: 2 | 3, tau2: num
   const out = new Float64Array((blocks.length + 1) * size);
   const s = new GlsState(q);
   for (let i = blocks.length - 1; i >= 0; i--) {
-    addBlocks(s, rows, [blocks[i]], tau2);
+    addBlock(s, rows, blocks[i], tau2);
     s.save(out, i * size);
   }
   return out;

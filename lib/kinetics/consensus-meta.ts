@@ -155,6 +155,10 @@ export interface GlsSolution {
 }
 
 /** Solve the state's least-squares problem; null when a coefficient is not determined. */
+// R⁻¹ of solveGls, reused (the computation is synchronous and not re-entered).
+const invScratch2 = new Float64Array(4);
+const invScratch3 = new Float64Array(9);
+
 export function solveGls(s: GlsState): GlsSolution | null {
   const { q, m, r } = s;
   if (s.rows < q) return null;
@@ -167,8 +171,8 @@ export function solveGls(s: GlsState): GlsSolution | null {
     for (let j = k + 1; j < q; j++) v -= r[k * m + j] * beta[j];
     beta[k] = v / r[k * m + k];
   }
-  // R⁻¹ (upper triangular), then (RᵀR)⁻¹ = R⁻¹R⁻ᵀ.
-  const inv = new Float64Array(q * q);
+  // R⁻¹ (upper triangular), then (RᵀR)⁻¹ = R⁻¹R⁻ᵀ. Every entry read below is written first.
+  const inv = q === 2 ? invScratch2 : q === 3 ? invScratch3 : new Float64Array(q * q);
   for (let j = 0; j < q; j++) {
     inv[j * q + j] = 1 / r[j * m + j];
     for (let i = j - 1; i >= 0; i--) {

@@ -157,6 +157,21 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   let third = false;
   let firstT = NaN;
   let secondT = NaN;
+  // The weighted sums of the second pass, gathered in this one while the weights may be known
+  // already: without uncertainty on the first point the fit is unweighted (every relative weight
+  // 1); with one, every point in the window may state the same (relative weight sw0·(1/sw0)).
+  // The sums are the second pass' exactly, in the same order; when the guess fails, that pass runs.
+  const first = pts.length > 0 ? pts[0] : null;
+  const sigma0 = first !== null && typeof first === "object" ? first.sigmaLnK : NaN;
+  const unitWeights = sigma0 === undefined || sigma0 === null;
+  const sw0 = unitWeights ? 1 : 1 / (sigma0 as number);
+  const inv0 = 1 / sw0;
+  let early = unitWeights || (typeof sigma0 === "number" && sigma0 > 0 && sigma0 < Infinity);
+  let S = 0;
+  let sE = 0;
+  let sL = 0;
+  let sY = 0;
+  let rssFloor = 0;
   for (let i = 0; i < pts.length; i++) {
     const p = pts[i];
     if (p === null || typeof p !== "object") {
@@ -181,10 +196,25 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
       sw = 1 / sigma;
     }
     if (T < wMin || T > wMax || (skip !== null && skip.has(i))) continue;
-    xEs[n] = -invR / T;
-    xLs[n] = Math.log(T) - lnT0;
-    ys[n] = Math.log(k);
+    const xE = -invR / T;
+    const xL = Math.log(T) - lnT0;
+    const y = Math.log(k);
+    xEs[n] = xE;
+    xLs[n] = xL;
+    ys[n] = y;
     sws[n] = sw;
+    if (early) {
+      if (unitWeights || sw === sw0) {
+        const rel = unitWeights ? 1 : sw * inv0;
+        const w = rel * rel;
+        S += w;
+        sE += w * xE;
+        sL += w * xL;
+        sY += w * y;
+        const noise = NOISE_FLOOR * (1 + Math.abs(y));
+        rssFloor += w * noise * noise;
+      } else early = false;
+    }
     if (sw > maxSw) maxSw = sw;
     n++;
     if (T < Tmin) Tmin = T;
@@ -202,27 +232,33 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
   const weighted = pts.length > 0 && withSigma === pts.length;
   if (n === 0) return null;
   if (!weighted) {
-    for (let i = 0; i < n; i++) sws[i] = 1;
+    sws.fill(1, 0, n);
     maxSw = 1;
   }
   // Weights relative to the largest, so that Σw and the rotations cannot overflow whatever the
   // stated σ; the variance scale below is expressed per relative weight.
   const invMaxSw = 1 / maxSw;
-  let S = 0;
-  let sE = 0;
-  let sL = 0;
-  let sY = 0;
-  let rssFloor = 0;
-  for (let i = 0; i < n; i++) {
-    const sw = sws[i] * invMaxSw;
-    sws[i] = sw;
-    const w = sw * sw;
-    S += w;
-    sE += w * xEs[i];
-    sL += w * xLs[i];
-    sY += w * ys[i];
-    const noise = NOISE_FLOOR * (1 + Math.abs(ys[i]));
-    rssFloor += w * noise * noise;
+  // The early sums hold when the fit is unweighted as guessed, or weighted with one σ throughout
+  // (then the largest weight is sw0 and every relative weight sw0·(1/sw0)).
+  if (early && (unitWeights ? !weighted : weighted)) {
+    if (!unitWeights) sws.fill(sw0 * inv0, 0, n);
+  } else {
+    S = 0;
+    sE = 0;
+    sL = 0;
+    sY = 0;
+    rssFloor = 0;
+    for (let i = 0; i < n; i++) {
+      const sw = sws[i] * invMaxSw;
+      sws[i] = sw;
+      const w = sw * sw;
+      S += w;
+      sE += w * xEs[i];
+      sL += w * xLs[i];
+      sY += w * ys[i];
+      const noise = NOISE_FLOOR * (1 + Math.abs(ys[i]));
+      rssFloor += w * noise * noise;
+    }
   }
   const distinctT = third ? 3 : Number.isNaN(secondT) ? 1 : 2;
   const mE = sE / S;

@@ -398,7 +398,6 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
   const setAside: boolean[] = new Array(J).fill(false);
 
   let fits: Fits;
-  let comparisons: (Disagreement | null)[];
   let others: (Others | null)[];
   for (;;) {
     const included = range(J).filter((j) => leftOut[j] === null);
@@ -406,16 +405,16 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     others = leaveOneOut(rows, supports, included, fits);
     // While datasets may still leave, only where each one is off is needed: the slope and
     // changing-factor tests and who carries the others are read once, when the subset is settled.
-    comparisons = range(J).map((j) => compare(rows, supports, others[j], j, datasets, null));
+    const readings = range(J).map((j) => quickReading(rows, supports, others[j], j));
     // The largest unit mistake among the included datasets leaves first; the rest are judged again.
     let worst = -1;
     for (const j of included) {
-      const d = comparisons[j];
+      const d = readings[j];
       if (!d || !matchUnitMistake(d.meanOffsetLog10, order)) continue;
-      if (worst < 0 || Math.abs(d.meanOffsetLog10) > Math.abs(comparisons[worst]!.meanOffsetLog10)) worst = j;
+      if (worst < 0 || Math.abs(d.meanOffsetLog10) > Math.abs(readings[worst]!.meanOffsetLog10)) worst = j;
     }
     if (worst >= 0 && included.length >= 2) {
-      unitSuspect[worst] = matchUnitMistake(comparisons[worst]!.meanOffsetLog10, order);
+      unitSuspect[worst] = matchUnitMistake(readings[worst]!.meanOffsetLog10, order);
       leftOut[worst] = `a likely unit mistake (${unitSuspect[worst]})`;
       continue;
     }
@@ -424,17 +423,15 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     // smallest excess Q − dof of the others' generalised χ², Arrhenius fit) leaves the curve, near-ties going to
     // the one furthest off; the rest are fitted and judged again, until none is off or two remain.
     if (included.length <= MIN_CONSISTENT_SUBSET || setAside.filter(Boolean).length >= MAX_SET_ASIDE) break;
-    if (!included.some((j) => comparisons[j]?.off)) break;
-    const far = leastConsistent(included, others, comparisons);
+    if (!included.some((j) => readings[j]?.off)) break;
+    const far = leastConsistent(included, others, readings);
     if (far < 0) break;
     setAside[far] = true;
     leftOut[far] = SET_ASIDE_REASON;
   }
-  {
-    const shares = new ShareCache(rows);
-    const settled = others;
-    comparisons = range(J).map((j) => compare(rows, supports, settled[j], j, datasets, shares));
-  }
+  const shareCache = new ShareCache(rows);
+  const settled = others;
+  const comparisons = range(J).map((j) => compare(rows, supports, settled[j], j, datasets, shareCache));
   for (let j = 0; j < J; j++) {
     const d = comparisons[j];
     if (!unitSuspect[j] && d && leftOut[j] !== null) unitSuspect[j] = matchUnitMistake(d.meanOffsetLog10, order);
@@ -658,13 +655,10 @@ const SUBSET_Q_TIE = 1e-6;
 function leastConsistent(
   included: readonly number[],
   others: readonly (Others | null)[],
-  comparisons: readonly (Disagreement | null)[],
+  readings: readonly (QuickReading | null)[],
 ): number {
   const excess = (j: number) => others[j]?.restExcess ?? Infinity;
-  const far = (j: number) => {
-    const d = comparisons[j];
-    return d && d.points.length > 0 ? Math.max(...d.points.map((p) => Math.abs(p.z))) / d.bound : 0;
-  };
+  const far = (j: number) => readings[j]?.far ?? 0;
   let best = -1;
   for (const j of included) {
     if (best < 0) {
@@ -730,7 +724,8 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
   for (const j of included) {
     for (const T of supports[j]!.temps) tempCount.set(T, (tempCount.get(T) ?? 0) + 1);
   }
-  const sortedTemps = [...tempCount.keys()].sort((a, b) => a - b);
+  // A typed array sorts numerically (temperatures are positive, never NaN).
+  const sortedTemps = Float64Array.from(tempCount.keys()).sort();
   const curved = included.filter((j) => carriesCurvature(supports[j])).length;
   let judgedRows: Rows | null = null;
   for (let i = 0; i < m; i++) {
@@ -807,13 +802,17 @@ class ShareCache {
 function comparisonTemperatures(a: number, b: number): number[] {
   if (!(b > a)) return [a];
   const steps = b / a > 2 ? 4 : 2;
-  return Array.from({ length: steps + 1 }, (_, i) => (i === 0 ? a : i === steps ? b : 1 / (1 / a + ((1 / b - 1 / a) * i) / steps)));
+  const out = new Array<number>(steps + 1);
+  out[0] = a;
+  for (let i = 1; i < steps; i++) out[i] = 1 / (1 / a + ((1 / b - 1 / a) * i) / steps);
+  out[steps] = b;
+  return out;
 }
 
 /** How the other side of a comparison is read: the others' consensus curve, or the one other dataset's own fit. */
 interface OtherSide {
-  lnk(T: number): number;
-  variance(T: number): number;
+  /** ln k and the variance of that estimate at T. */
+  at(T: number): { lnk: number; variance: number };
   covariance(T1: number, T2: number): number;
   differenceVariance(T1: number, T2: number): number;
   tau2: number;
@@ -828,8 +827,7 @@ function otherSide(rows: Rows, supports: readonly (DatasetSupport | null)[], o: 
   if (s && s.fit.model !== "single_temperature") {
     const fit = s.judge;
     return {
-      lnk: (T) => evaluateOwnFit(fit, T).lnk,
-      variance: (T) => evaluateOwnFit(fit, T).variance,
+      at: (T) => evaluateOwnFit(fit, T),
       covariance: (T1, T2) => ownCovariance(fit, T1, T2),
       differenceVariance: (T1, T2) => ownDifferenceVariance(fit, T1, T2),
       tau2: 0,
@@ -838,8 +836,7 @@ function otherSide(rows: Rows, supports: readonly (DatasetSupport | null)[], o: 
   }
   const { fit } = o;
   return {
-    lnk: (T) => predict(rows, fit, T).lnk,
-    variance: (T) => predict(rows, fit, T).variance,
+    at: (T) => predict(rows, fit, T),
     covariance: (T1, T2) => predictCovariance(rows, fit, T1, T2),
     differenceVariance: (T1, T2) => predictDifferenceVariance(rows, fit, T1, T2),
     tau2: fit.tau2,
@@ -876,14 +873,51 @@ export function factorChangeTest(d: readonly number[], cov: readonly number[]): 
   return { chi2, dof, p: survivalChiSquare(chi2, dof) };
 }
 
+/** What the subset loop reads of a comparison: whether the dataset is off, by how far, and its mean offset. */
+interface QuickReading {
+  off: boolean;
+  /** Largest |z| over the Bonferroni bound (0 when the others cover none of its range). */
+  far: number;
+  /** As {@link Disagreement.meanOffsetLog10}. */
+  meanOffsetLog10: number;
+}
+
+/**
+ * The reading of {@link compare} the subset loop needs, with the same numbers (z per comparison
+ * temperature, the bound, the mean log ratio) and nothing else: no objects per temperature.
+ */
+function quickReading(rows: Rows, supports: readonly (DatasetSupport | null)[], o: Others | null, j: number): QuickReading | null {
+  const s = supports[j];
+  if (!s || !o) return null;
+  const other = otherSide(o.rows ?? rows, supports, o);
+  const a = Math.max(s.Tmin, o.Tmin);
+  const b = Math.min(s.Tmax, o.Tmax);
+  const overlap = a <= b;
+  const temps = overlap ? (s.fit.model === "single_temperature" ? [s.temps[0]] : comparisonTemperatures(a, b)) : s.temps;
+  const bound = bonferroniNormal(Math.max(1, overlap ? temps.length : 0));
+  let sum = 0;
+  let off = false;
+  let top = -Infinity;
+  for (const T of temps) {
+    const own = evaluateOwnFit(s.judge, T);
+    const there = other.at(T);
+    const othersSe = Math.sqrt(there.variance);
+    const d = own.lnk - there.lnk;
+    const z = Math.abs(d / Math.sqrt(own.variance + other.tau2 + othersSe * othersSe));
+    sum += d;
+    if (!(z <= bound)) off = true;
+    top = Math.max(top, z);
+  }
+  return { off: overlap && off, far: overlap ? top / bound : 0, meanOffsetLog10: sum / temps.length / Math.LN10 };
+}
+
 function compare(
   rows: Rows,
   supports: readonly (DatasetSupport | null)[],
   o: Others | null,
   j: number,
   datasets: readonly ConsensusDataset[],
-  /** Null for the quick reading inside the subset loop: z per temperature and off only. */
-  shareCache: ShareCache | null,
+  shareCache: ShareCache,
 ): Disagreement | null {
   const s = supports[j];
   if (!s || !o) return null;
@@ -896,9 +930,10 @@ function compare(
   const temps = overlap ? (s.fit.model === "single_temperature" ? [s.temps[0]] : comparisonTemperatures(a, b)) : s.temps;
   const diffs = temps.map((T) => {
     const own = evaluateOwnFit(s.judge, T);
+    const there = other.at(T);
     const ownSe = Math.sqrt(own.variance);
-    const othersSe = Math.sqrt(other.variance(T));
-    const d = own.lnk - other.lnk(T);
+    const othersSe = Math.sqrt(there.variance);
+    const d = own.lnk - there.lnk;
     return { T, d, z: d / Math.sqrt(own.variance + other.tau2 + othersSe * othersSe), ownSe, othersSe };
   });
   const meanOffsetLog10 = diffs.reduce((acc, x) => acc + x.d, 0) / diffs.length / Math.LN10;
@@ -918,24 +953,24 @@ function compare(
         };
       })
     : [];
-  if (!shareCache) {
-    return {
-      comparedWith: o.count,
-      model: other.model,
-      tau2: other.tau2,
-      range: overlap ? { Tmin: a, Tmax: b } : null,
-      points,
-      bound,
-      off: points.some((p) => !p.agrees),
-      activationEnergy: null,
-      slopeZ: null,
-      factorChanges: null,
-      factorChangeP: null,
-      meanOffsetLog10,
-      restsOn: null,
-      agreesOnlyWithinSpread: false,
-    };
-  }
+  const off = points.some((p) => !p.agrees);
+  const result = (rest: Partial<Disagreement>): Disagreement => ({
+    comparedWith: o.count,
+    model: other.model,
+    tau2: other.tau2,
+    range: overlap ? { Tmin: a, Tmax: b } : null,
+    points,
+    bound,
+    off,
+    activationEnergy: null,
+    slopeZ: null,
+    factorChanges: null,
+    factorChangeP: null,
+    meanOffsetLog10,
+    restsOn: null,
+    agreesOnlyWithinSpread: false,
+    ...rest,
+  });
   let activationEnergy: Disagreement["activationEnergy"] = null;
   let slopeZ: number | null = null;
   let factorChanges: boolean | null = null;
@@ -989,29 +1024,13 @@ function compare(
       restsOn = { id: datasets[best].id, share: Math.min(1, bestShare), T: worst.T, Tmin, Tmax, inRange };
     }
   }
-  const off = points.some((p) => !p.agrees);
   // Beyond its own uncertainty there, and τ²₋ⱼ (which also widens the other side) outweighs both variances.
   const agreesOnlyWithinSpread =
     overlap &&
     !off &&
     o.count >= 2 &&
     diffs.some((x) => other.tau2 > x.ownSe * x.ownSe + x.othersSe * x.othersSe && Math.abs(x.d) > bound * x.ownSe);
-  return {
-    comparedWith: o.count,
-    model: other.model,
-    tau2: other.tau2,
-    range: overlap ? { Tmin: a, Tmax: b } : null,
-    points,
-    bound,
-    off,
-    activationEnergy,
-    slopeZ,
-    factorChanges,
-    factorChangeP,
-    meanOffsetLog10,
-    restsOn,
-    agreesOnlyWithinSpread,
-  };
+  return result({ activationEnergy, slopeZ, factorChanges, factorChangeP, restsOn, agreesOnlyWithinSpread });
 }
 
 function verdictOf(
