@@ -16,7 +16,7 @@ async function demoVersions(page: Page): Promise<{ dataset: number; number: numb
   await page.goto("/reactions");
   const reactions = await page
     .locator("main a[href]")
-    .evaluateAll((as) => [...new Set(as.map((a) => a.getAttribute("href") ?? "").filter((h) => /^\/reactions\/\d+$/.test(h)))]);
+    .evaluateAll((as) => [...new Set(as.map((a) => a.getAttribute("href") ?? "").filter((h) => /^\/reactions\/[^/?#]+$/.test(h)))]);
   const links = new Set<string>();
   for (const r of reactions) {
     await page.goto(r);

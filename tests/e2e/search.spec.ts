@@ -33,7 +33,7 @@ test("a species by name and by SMILES; narrowed by class and temperature window;
   await box.fill("C");
   await box.press("Enter");
   await expect(page).toHaveURL(/[?&]q=C(&|$)/);
-  await expect(page.getByTestId("understood")).toContainText("methane");
+  await expect(page.getByTestId("understood")).toContainText("CH4");
   expect(await foundCount(page)).toBe(byName);
 
   // Narrow by the first reaction class offered.

@@ -3,7 +3,7 @@ import { join, relative } from "node:path";
 import { beforeAll, describe, expect, it, vi } from "vitest";
 
 vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
-vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
+vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn(), unstable_cache: (fn: () => unknown) => fn }));
 
 import { changeRoleAction, setActiveAction } from "@/app/admin/people/actions";
 import * as filesRoute from "@/app/api/v1/files/[fileId]/route";
@@ -19,6 +19,8 @@ import DatasetSeriesPage from "@/app/datasets/[id]/page";
 import { inviteAction, saveDraftAction, startNextVersionAction, transitionAction } from "@/app/deposits/actions";
 import DepositPage from "@/app/deposits/[id]/page";
 import ReactionPage from "@/app/reactions/[id]/page";
+import ClassPage from "@/app/classes/[id]/page";
+import SpeciesPage from "@/app/species/[inchikey]/page";
 import ReviewPage from "@/app/review/[id]/page";
 import { revokeTokenAction } from "@/app/settings/actions";
 import { idleState } from "@/lib/auth/action-state";
@@ -114,6 +116,9 @@ const pageCases: [string, Page, (id: string) => Record<string, string>][] = [
   ["/datasets/[id]/[version]", DatasetVersionPage as Page, (id) => ({ id, version: "v1" })],
   ["/datasets/[id]/[version] (version part)", DatasetVersionPage as Page, (id) => ({ id: "1", version: `v${id}` })],
   ["/reactions/[id]", ReactionPage as Page, (id) => ({ id })],
+  // Named by a class word and an InChIKey, not a number: a number or anything malformed is no class and no species.
+  ["/classes/[id]", ClassPage as Page, (id) => ({ id })],
+  ["/species/[inchikey]", SpeciesPage as Page, (id) => ({ inchikey: id })],
   ["/review/[id]", ReviewPage as Page, (id) => ({ id })],
   ["/deposits/[id]", DepositPage as Page, (id) => ({ id })],
   ["/admin/mail/[id]", MailMessagePage as Page, (id) => ({ id })],
