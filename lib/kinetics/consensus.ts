@@ -70,6 +70,7 @@ import {
   ownDifferenceVariance,
   summariseDataset,
   Z95,
+  type SupportInput,
   type DatasetSupport,
   type OwnModel,
   type ScaleSource,
@@ -372,12 +373,22 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     seen.add(ds.id);
     if (!Array.isArray(ds.points)) checkPoints(ds.points, ds.id);
     if (ds.points.length === 0) throw new AnalysisError("too_few_points", `Dataset ${ds.id} has no points.`, { datasetId: ds.id });
-    const input = { id: ds.id, points: ds.points, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } };
+    // One shape for every input (skip always present): a second shape for the datasets with
+    // outliers would send the summary's hot loop back to unoptimised code again and again.
+    const input: SupportInput = {
+      id: ds.id,
+      points: ds.points,
+      window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity },
+      skip: null,
+    };
     let support = summariseDataset(input, T0);
     // One pass: the outliers of the dataset's own fit are left out of its summary, and it is summarised again.
     // The dataset's own analysis judges outliers on the model it prefers, so a curved dataset's ends are not outliers.
     const own = !support ? [] : ds.outliers != null ? givenOutliers(ds, window) : ownOutliers(ds, input.window, T0);
-    if (own.length > 0) support = summariseDataset({ ...input, skip: new Set(own) }, T0);
+    if (own.length > 0) {
+      input.skip = new Set(own);
+      support = summariseDataset(input, T0);
+    }
     outliers.push(own);
     supports.push(support);
   }
