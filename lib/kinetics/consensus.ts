@@ -47,7 +47,7 @@
  * Uncertainty factor f(T) = exp(1.959964·√(var ln k̂(T) + τ²)) over the temperatures the included
  * data cover; outside them it is not given (extrapolation).
  */
-import { analyseDataset, MIN_DOF_FOR_OUTLIER_TEST } from "./analyse-dataset";
+import { analyseOutliers, MIN_DOF_FOR_OUTLIER_TEST } from "./analyse-dataset";
 import { AnalysisError } from "./analysis-error";
 import {
   buildRows,
@@ -550,9 +550,8 @@ function ownOutliers(ds: ConsensusDataset, window: { Tmin: number; Tmax: number 
   // The Arrhenius fit's outlier test needs n − 2 − 1 ≥ MIN_DOF_FOR_OUTLIER_TEST.
   if (points.length < MIN_DOF_FOR_OUTLIER_TEST + 3) return [];
   try {
-    const own = analyseDataset({ points, order: ds.order, T0 });
-    const flagged = own.flags.find((f) => f.code === "outlier")?.points ?? [];
-    return flagged.map((i) => index[i]);
+    // The outlier flag of analyseDataset on these points, without the rest of that analysis.
+    return analyseOutliers({ points, order: ds.order, T0 }).map((i) => index[i]);
   } catch (err) {
     if (err instanceof AnalysisError) return [];
     throw err;
