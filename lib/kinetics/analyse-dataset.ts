@@ -172,65 +172,15 @@ interface FitSummary {
  */
 export function analyseDataset(input: AnalysisInput): AnalysisResult {
   const d = prepareInput(input);
-  const { n, y, sw } = d;
-  const colsA = [d.xEc];
-  const arrFit = fitCentred(colsA, y, sw, n, [eyringResponse(d)], { shift: [d.shiftE] });
-  if (!arrFit) {
-    throw new AnalysisError("too_few_temperatures", "The temperatures are too close together to fit an Arrhenius expression.");
-  }
-  const arrSum = summariseFit(arrFit, d, y);
+  const { n } = d;
+  const f = fitModels(d, true);
+  const { arrFit, arrSum, modFit, modSum, modSine, nUndetermined, exactlyDetermined, curvature, chosen } = f;
   const tArr = arrSum.dof > 0 ? t95(arrSum.dof) : 0;
-
   const arrhenius = buildArrhenius(arrFit, arrSum, tArr, d);
-
-  const colsM = [d.lnTc, d.xEc];
-  let modFit = d.distinctT >= 3 ? fitCentred(colsM, y, sw, n, [], { shift: [d.shiftLnT, d.shiftE] }) : null;
-  // ln T and 1/T are nearly proportional over a very narrow window: n and Ea would be rounding noise.
-  const modSine = modFit && modFit.minSine < MODIFIED_MIN_SINE ? modFit.minSine : null;
-  if (modSine !== null) modFit = null;
-  let modSum = modFit ? summariseFit(modFit, d, y) : null;
-  // n not determined by the data: its standard error spans more than every exponent met in practice.
-  const seN = modSum?.se[1] ?? null;
-  const nUndetermined = modFit && seN !== null && seN > MODIFIED_MAX_SE_N ? { n: modFit.beta[1], seN } : null;
-  // As many points as coefficients: the curve passes through every point whatever the noise, and
-  // nothing tells n from scatter (three points with 1 % scatter over 250–350 K give |n| in the thousands).
-  const exactlyDetermined = modFit && modSum && modSum.dof === 0;
-  if (nUndetermined || exactlyDetermined) {
-    modFit = null;
-    modSum = null;
-  }
   const modifiedArrhenius = modFit && modSum ? buildModified(modFit, modSum, d) : null;
-
   const eyring = buildEyring(arrFit, d);
-
-  let curvature: CurvatureTest | null = null;
-  if (modFit && n >= MIN_POINTS_FOR_DIAGNOSTICS) {
-    const rss1 = Math.max(arrFit.rss, d.rssFloor);
-    const rss2 = Math.max(modFit.rss, d.rssFloor);
-    // Extra-sum-of-squares F test for one added coefficient (Draper & Smith 1998, §6.1). When the
-    // modified fit leaves only rounding (its RSS at the floor) and the Arrhenius fit does not, the
-    // ratio would divide by rounding noise: the curvature is exact, and no F or p is given.
-    const exact = curvatureIsExact(arrFit.rss, modFit.rss, d.rssFloor);
-    const F = exact ? null : Math.max(0, rss1 - rss2) / (rss2 / (n - 3));
-    const deltaAICc = modSum!.aicc !== null && arrSum.aicc !== null ? modSum!.aicc - arrSum.aicc : null;
-    curvature = {
-      F,
-      dfNum: 1,
-      dfDenom: n - 3,
-      p: F === null ? null : survivalF(F, 1, n - 3),
-      exact,
-      deltaAICc,
-      direction: modFit.beta[1] >= 0 ? "up" : "down",
-    };
-  }
-  const curved = curvature !== null && curvatureSignificant(curvature);
-  const chosen = curved
-    ? { fit: modFit!, sum: modSum!, model: "modified_arrhenius" as const }
-    : { fit: arrFit, sum: arrSum, model: "arrhenius" as const };
   const band = computeBand(chosen.fit, chosen.sum, d, chosen.model);
-  // Points are judged against the model the analysis prefers: the ends of a curved dataset stand
-  // off the straight line by its curvature, not by error.
-  const diagnostics = n >= MIN_POINTS_FOR_DIAGNOSTICS ? computeDiagnostics(chosen.fit, curved ? colsM : colsA, d, chosen.model) : null;
+  const diagnostics = judgedDiagnostics(d, f);
 
   const flags = collectFlags(d, { arrFit, arrSum, arrhenius, modifiedArrhenius, diagnostics, curvature, band, chosen }, input);
   if (modSine !== null) {
@@ -265,6 +215,116 @@ export function analyseDataset(input: AnalysisInput): AnalysisResult {
     );
   }
   return { n, weighted: d.weighted, arrhenius, modifiedArrhenius, eyring, diagnostics, curvature, band, flags };
+}
+
+/** Points are judged against the model the analysis prefers: the ends of a curved dataset stand off the straight line by its curvature, not by error. */
+function judgedDiagnostics(d: Prepared, f: Fits): Diagnostics | null {
+  return d.n >= MIN_POINTS_FOR_DIAGNOSTICS ? computeDiagnostics(f.chosen.fit, f.curved ? f.colsM : f.colsA, d, f.chosen.model) : null;
+}
+
+/**
+ * The points {@link analyseDataset} flags as outliers (zero-based), from the same fits and the
+ * same test, without the rest of the analysis (parameters, Eyring, band, other flags); throws
+ * where it throws.
+ */
+export function analyseOutliers(input: AnalysisInput): number[] {
+  const d = prepareInput(input);
+  const f = fitModels(d, false);
+  const diagnostics = judgedDiagnostics(d, f);
+  if (!diagnostics) return [];
+  return outlierPoints(d, f.chosen, diagnostics, input)?.outliers ?? [];
+}
+
+/** The outlier test on the judged fit: the points and the bound, or null when there are too few points for it. */
+function outlierPoints(
+  d: Prepared,
+  judged: { fit: CentredFit; sum: FitSummary },
+  diagnostics: Diagnostics,
+  input: AnalysisInput,
+): { outliers: number[]; bound: number } | null {
+  const { n } = d;
+  if (n < judged.fit.p + 1 + MIN_DOF_FOR_OUTLIER_TEST) return null;
+  const dof = judged.sum.dof;
+  const external = diagnostics.externallyStudentized;
+  const resid = judged.fit.resid;
+  const bound = bonferroniStudentT(ALPHA, n, dof - 1);
+  const outliers: number[] = [];
+  for (let i = 0; i < n; i++) {
+    if (Math.abs(external[i]) > bound && !withinStatedUncertainty(input, resid, i)) outliers.push(i);
+  }
+  return { outliers, bound };
+}
+
+interface Fits {
+  arrFit: CentredFit;
+  arrSum: FitSummary;
+  modFit: CentredFit | null;
+  modSum: FitSummary | null;
+  modSine: number | null;
+  nUndetermined: { n: number; seN: number } | null;
+  exactlyDetermined: boolean | null;
+  curvature: CurvatureTest | null;
+  curved: boolean;
+  chosen: { fit: CentredFit; sum: FitSummary; model: "arrhenius" | "modified_arrhenius" };
+  colsA: Float64Array[];
+  colsM: Float64Array[];
+}
+
+/**
+ * The Arrhenius and modified fits, the curvature test and the model the analysis prefers. With
+ * eyring, the Eyring response is solved on the Arrhenius factorisation too (its own response:
+ * the Arrhenius solution does not depend on it).
+ */
+function fitModels(d: Prepared, eyring: boolean): Fits {
+  const { n, y, sw } = d;
+  const colsA = [d.xEc];
+  const arrFit = fitCentred(colsA, y, sw, n, eyring ? [eyringResponse(d)] : [], { shift: [d.shiftE] });
+  if (!arrFit) {
+    throw new AnalysisError("too_few_temperatures", "The temperatures are too close together to fit an Arrhenius expression.");
+  }
+  const arrSum = summariseFit(arrFit, d, y);
+
+  const colsM = [d.lnTc, d.xEc];
+  let modFit = d.distinctT >= 3 ? fitCentred(colsM, y, sw, n, [], { shift: [d.shiftLnT, d.shiftE] }) : null;
+  // ln T and 1/T are nearly proportional over a very narrow window: n and Ea would be rounding noise.
+  const modSine = modFit && modFit.minSine < MODIFIED_MIN_SINE ? modFit.minSine : null;
+  if (modSine !== null) modFit = null;
+  let modSum = modFit ? summariseFit(modFit, d, y) : null;
+  // n not determined by the data: its standard error spans more than every exponent met in practice.
+  const seN = modSum?.se[1] ?? null;
+  const nUndetermined = modFit && seN !== null && seN > MODIFIED_MAX_SE_N ? { n: modFit.beta[1], seN } : null;
+  // As many points as coefficients: the curve passes through every point whatever the noise, and
+  // nothing tells n from scatter (three points with 1 % scatter over 250–350 K give |n| in the thousands).
+  const exactlyDetermined = modFit && modSum && modSum.dof === 0;
+  if (nUndetermined || exactlyDetermined) {
+    modFit = null;
+    modSum = null;
+  }
+  let curvature: CurvatureTest | null = null;
+  if (modFit && n >= MIN_POINTS_FOR_DIAGNOSTICS) {
+    const rss1 = Math.max(arrFit.rss, d.rssFloor);
+    const rss2 = Math.max(modFit.rss, d.rssFloor);
+    // Extra-sum-of-squares F test for one added coefficient (Draper & Smith 1998, §6.1). When the
+    // modified fit leaves only rounding (its RSS at the floor) and the Arrhenius fit does not, the
+    // ratio would divide by rounding noise: the curvature is exact, and no F or p is given.
+    const exact = curvatureIsExact(arrFit.rss, modFit.rss, d.rssFloor);
+    const F = exact ? null : Math.max(0, rss1 - rss2) / (rss2 / (n - 3));
+    const deltaAICc = modSum!.aicc !== null && arrSum.aicc !== null ? modSum!.aicc - arrSum.aicc : null;
+    curvature = {
+      F,
+      dfNum: 1,
+      dfDenom: n - 3,
+      p: F === null ? null : survivalF(F, 1, n - 3),
+      exact,
+      deltaAICc,
+      direction: modFit.beta[1] >= 0 ? "up" : "down",
+    };
+  }
+  const curved = curvature !== null && curvatureSignificant(curvature);
+  const chosen = curved
+    ? { fit: modFit!, sum: modSum!, model: "modified_arrhenius" as const }
+    : { fit: arrFit, sum: arrSum, model: "arrhenius" as const };
+  return { arrFit, arrSum, modFit, modSum, modSine, nUndetermined, exactlyDetermined, curvature, curved, chosen, colsA, colsM };
 }
 
 function prepareInput(input: AnalysisInput): Prepared {
@@ -792,12 +852,9 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
   if (c.diagnostics) {
     const dof = judged.sum.dof;
     const external = c.diagnostics.externallyStudentized;
-    if (testOutliers) {
-      const bound = bonferroniStudentT(ALPHA, n, dof - 1);
-      const outliers: number[] = [];
-      for (let i = 0; i < n; i++) {
-        if (Math.abs(external[i]) > bound && !withinStatedUncertainty(input, resid, i)) outliers.push(i);
-      }
+    const test = testOutliers ? outlierPoints(d, judged, c.diagnostics, input) : null;
+    if (test) {
+      const { outliers, bound } = test;
       if (outliers.length > 0) {
         push({
           code: "outlier",

@@ -213,21 +213,23 @@ export function leaveOneOutFits(
 ): (ModelFit | null)[] {
   const J = blocks.length;
   const size = GlsState.size(q);
-  const prefix = prefixStates(rows, blocks, q, 0);
-  const suffix = suffixStates(rows, blocks, q, 0);
+  const prefix = prefixStates(rows, blocks, q, 0, 0);
+  const suffix = suffixStates(rows, blocks, q, 0, 1);
   const approxTau2 = full?.tau2 ?? 0;
   const merged = !exact && approxTau2 > 0;
-  const prefixR = merged ? prefixStates(rows, blocks, q, approxTau2) : prefix;
-  const suffixR = merged ? suffixStates(rows, blocks, q, approxTau2) : suffix;
+  const prefixR = merged ? prefixStates(rows, blocks, q, approxTau2, 2) : prefix;
+  const suffixR = merged ? suffixStates(rows, blocks, q, approxTau2, 3) : suffix;
   const out: (ModelFit | null)[] = new Array(J).fill(null);
   const work = new GlsState(q);
+  // The fixed-effect coefficients are read only when they are also the random-effects ones (then copied).
+  const scratch = { beta: new Float64Array(q), cov: new Float64Array(q * q) };
   for (let i = 0; i < J; i++) {
-    const fixed = solveGls(work.load(prefix, i * size).mergeFrom(suffix, (i + 1) * size));
+    const fixed = solveGls(work.load(prefix, i * size).mergeFrom(suffix, (i + 1) * size), scratch);
     if (!fixed) continue;
     const tau2 = tau2DerSimonianLaird(fixed);
     let random: GlsSolution | null;
     let weightTau2 = tau2;
-    if (tau2 === 0 && !merged) random = fixed;
+    if (tau2 === 0 && !merged) random = { ...fixed, beta: fixed.beta.slice(), cov: fixed.cov.slice() };
     else if (exact) {
       work.reset();
       addBlocks(work, rows, blocks, tau2, blocks[i]);
@@ -241,10 +243,27 @@ export function leaveOneOutFits(
   return out;
 }
 
-/** States of the first i datasets of blocks, i = 0 … J, saved one after another. */
-function prefixStates(rows: Rows, blocks: readonly number[], q: 2 | 3, tau2: number): Float64Array {
+/**
+ * Buffers for the prefix and suffix states of {@link leaveOneOutFits}, reused from call to call
+ * (the computation is synchronous and not re-entered; each call reads only what it wrote): a
+ * consensus of many datasets would otherwise allocate megabytes of them per round.
+ */
+const stateBuffers: Float64Array[] = [new Float64Array(0), new Float64Array(0), new Float64Array(0), new Float64Array(0)];
+
+function stateBuffer(slot: number, length: number): Float64Array {
+  let buf = stateBuffers[slot];
+  if (buf.length < length) {
+    buf = new Float64Array(Math.max(length, 2 * buf.length));
+    stateBuffers[slot] = buf;
+  }
+  return buf;
+}
+
+/** States of the first i datasets of blocks, i = 0 … J, saved one after another (in the buffer of slot). */
+function prefixStates(rows: Rows, blocks: readonly number[], q: 2 | 3, tau2: number, slot: number): Float64Array {
   const size = GlsState.size(q);
-  const out = new Float64Array((blocks.length + 1) * size);
+  const out = stateBuffer(slot, (blocks.length + 1) * size);
+  out.fill(0, 0, size);
   const s = new GlsState(q);
   for (let i = 0; i < blocks.length; i++) {
     addBlock(s, rows, blocks[i], tau2);
@@ -253,10 +272,11 @@ function prefixStates(rows: Rows, blocks: readonly number[], q: 2 | 3, tau2: num
   return out;
 }
 
-/** States of the datasets of blocks from i on, i = 0 … J, saved one after another. */
-function suffixStates(rows: Rows, blocks: readonly number[], q: 2 | 3, tau2: number): Float64Array {
+/** States of the datasets of blocks from i on, i = 0 … J, saved one after another (in the buffer of slot). */
+function suffixStates(rows: Rows, blocks: readonly number[], q: 2 | 3, tau2: number, slot: number): Float64Array {
   const size = GlsState.size(q);
-  const out = new Float64Array((blocks.length + 1) * size);
+  const out = stateBuffer(slot, (blocks.length + 1) * size);
+  out.fill(0, blocks.length * size, (blocks.length + 1) * size);
   const s = new GlsState(q);
   for (let i = blocks.length - 1; i >= 0; i--) {
     addBlock(s, rows, blocks[i], tau2);

@@ -154,18 +154,21 @@ export interface GlsSolution {
   sumW: number;
 }
 
-/** Solve the state's least-squares problem; null when a coefficient is not determined. */
 // R⁻¹ of solveGls, reused (the computation is synchronous and not re-entered).
 const invScratch2 = new Float64Array(4);
 const invScratch3 = new Float64Array(9);
 
-export function solveGls(s: GlsState): GlsSolution | null {
+/**
+ * Solve the state's least-squares problem; null when a coefficient is not determined. With into,
+ * beta and cov are written there (q and q² entries) instead of new arrays.
+ */
+export function solveGls(s: GlsState, into?: { beta: Float64Array; cov: Float64Array }): GlsSolution | null {
   const { q, m, r } = s;
   if (s.rows < q) return null;
   for (let k = 0; k < q; k++) {
     if (!(Math.abs(r[k * m + k]) > RANK_TOLERANCE * Math.sqrt(s.colNorm2[k]))) return null;
   }
-  const beta = new Float64Array(q);
+  const beta = into ? into.beta : new Float64Array(q);
   for (let k = q - 1; k >= 0; k--) {
     let v = r[k * m + q];
     for (let j = k + 1; j < q; j++) v -= r[k * m + j] * beta[j];
@@ -181,7 +184,7 @@ export function solveGls(s: GlsState): GlsSolution | null {
       inv[i * q + j] = -v / r[i * m + i];
     }
   }
-  const cov = new Float64Array(q * q);
+  const cov = into ? into.cov : new Float64Array(q * q);
   for (let i = 0; i < q; i++) {
     for (let j = i; j < q; j++) {
       let v = 0;

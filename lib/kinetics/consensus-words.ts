@@ -12,17 +12,29 @@ export const UNIT_SUSPECT_WINDOW = 0.15;
 export function matchUnitMistake(offsetLog10: number, order: ReactionOrder): string | null {
   const m = order - 1;
   if (m === 0) return null;
-  const lgNA = Math.log10(AVOGADRO);
-  const candidates: [number, string][] = [
-    [m * lgNA, `a factor of N_A${m > 1 ? "²" : ""} (molecule ↔ mol)`],
-    [3 * m, `a factor of 10${superscript(3 * m)} (L ↔ cm³)`],
-    [6 * m, `a factor of 10${superscript(6 * m)} (m³ ↔ cm³)`],
-    [m * (lgNA - 3), `a factor of (N_A/1000)${m > 1 ? "²" : ""} (L mol⁻¹ ↔ cm³ molecule⁻¹)`],
-    [m * (lgNA - 6), `a factor of (N_A/10⁶)${m > 1 ? "²" : ""} (m³ mol⁻¹ ↔ cm³ molecule⁻¹)`],
-  ];
+  const candidates = unitMistakes(m);
   const a = Math.abs(offsetLog10);
   for (const [c, label] of candidates) if (Math.abs(a - c) <= UNIT_SUSPECT_WINDOW) return label;
   return null;
+}
+
+const unitMistakeCache = new Map<number, [number, string][]>();
+
+/** The unit-mistake factors (log10) and their words for order − 1 = m, made once per m. */
+function unitMistakes(m: number): [number, string][] {
+  let candidates = unitMistakeCache.get(m);
+  if (!candidates) {
+    const lgNA = Math.log10(AVOGADRO);
+    candidates = [
+      [m * lgNA, `a factor of N_A${m > 1 ? "²" : ""} (molecule ↔ mol)`],
+      [3 * m, `a factor of 10${superscript(3 * m)} (L ↔ cm³)`],
+      [6 * m, `a factor of 10${superscript(6 * m)} (m³ ↔ cm³)`],
+      [m * (lgNA - 3), `a factor of (N_A/1000)${m > 1 ? "²" : ""} (L mol⁻¹ ↔ cm³ molecule⁻¹)`],
+      [m * (lgNA - 6), `a factor of (N_A/10⁶)${m > 1 ? "²" : ""} (m³ mol⁻¹ ↔ cm³ molecule⁻¹)`],
+    ];
+    unitMistakeCache.set(m, candidates);
+  }
+  return candidates;
 }
 
 const SUPERSCRIPT = "⁰¹²³⁴⁵⁶⁷⁸⁹";

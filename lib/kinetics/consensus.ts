@@ -47,7 +47,7 @@
  * Uncertainty factor f(T) = exp(1.959964·√(var ln k̂(T) + τ²)) over the temperatures the included
  * data cover; outside them it is not given (extrapolation).
  */
-import { analyseDataset, MIN_DOF_FOR_OUTLIER_TEST } from "./analyse-dataset";
+import { analyseOutliers, MIN_DOF_FOR_OUTLIER_TEST } from "./analyse-dataset";
 import { AnalysisError } from "./analysis-error";
 import {
   buildRows,
@@ -70,6 +70,7 @@ import {
   ownDifferenceVariance,
   summariseDataset,
   Z95,
+  type SupportInput,
   type DatasetSupport,
   type OwnModel,
   type ScaleSource,
@@ -372,12 +373,22 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     seen.add(ds.id);
     if (!Array.isArray(ds.points)) checkPoints(ds.points, ds.id);
     if (ds.points.length === 0) throw new AnalysisError("too_few_points", `Dataset ${ds.id} has no points.`, { datasetId: ds.id });
-    const input = { id: ds.id, points: ds.points, window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity } };
+    // One shape for every input (skip always present): a second shape for the datasets with
+    // outliers would send the summary's hot loop back to unoptimised code again and again.
+    const input: SupportInput = {
+      id: ds.id,
+      points: ds.points,
+      window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity },
+      skip: null,
+    };
     let support = summariseDataset(input, T0);
     // One pass: the outliers of the dataset's own fit are left out of its summary, and it is summarised again.
     // The dataset's own analysis judges outliers on the model it prefers, so a curved dataset's ends are not outliers.
     const own = !support ? [] : ds.outliers != null ? givenOutliers(ds, window) : ownOutliers(ds, input.window, T0);
-    if (own.length > 0) support = summariseDataset({ ...input, skip: new Set(own) }, T0);
+    if (own.length > 0) {
+      input.skip = new Set(own);
+      support = summariseDataset(input, T0);
+    }
     outliers.push(own);
     supports.push(support);
   }
@@ -539,9 +550,8 @@ function ownOutliers(ds: ConsensusDataset, window: { Tmin: number; Tmax: number 
   // The Arrhenius fit's outlier test needs n − 2 − 1 ≥ MIN_DOF_FOR_OUTLIER_TEST.
   if (points.length < MIN_DOF_FOR_OUTLIER_TEST + 3) return [];
   try {
-    const own = analyseDataset({ points, order: ds.order, T0 });
-    const flagged = own.flags.find((f) => f.code === "outlier")?.points ?? [];
-    return flagged.map((i) => index[i]);
+    // The outlier flag of analyseDataset on these points, without the rest of that analysis.
+    return analyseOutliers({ points, order: ds.order, T0 }).map((i) => index[i]);
   } catch (err) {
     if (err instanceof AnalysisError) return [];
     throw err;
