@@ -76,18 +76,24 @@ const SUMMARY_BATCH = 200;
 /** A literal PostgreSQL integer array of ids (numbers only), for `= any(…::int[])`. */
 const idArray = (ids: readonly number[]) => `{${ids.map((id) => Math.trunc(Number(id))).join(",")}}`;
 
-/** On conflict, every written column takes the new row's value (the generated ones, t_span, document and names_text, follow). */
-const replaceDocument = Object.fromEntries(
-  Object.keys(getTableColumns(searchDocuments))
-    .filter((key) => !["versionId", "tSpan", "document", "namesText"].includes(key))
-    // Declared in camelCase, stored in snake_case (the client's casing).
-    .map((key) => [key, sql.raw(`excluded.${key.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`)}`)]),
+/**
+ * On conflict, every written column but `latest` (refreshLatest sets it right after) takes the new
+ * row's value, and only when one differs: rebuilding an unchanged document writes nothing (no
+ * index maintenance). The generated ones (t_span, document, names_text) follow.
+ */
+const replacedColumns = Object.keys(getTableColumns(searchDocuments))
+  .filter((key) => !["versionId", "latest", "tSpan", "document", "namesText"].includes(key))
+  // Declared in camelCase, stored in snake_case (the client's casing).
+  .map((key) => [key, key.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`)] as const);
+const replaceDocument = Object.fromEntries(replacedColumns.map(([key, column]) => [key, sql.raw(`excluded.${column}`)]));
+const documentChanged = sql.raw(
+  `(${replacedColumns.map(([, c]) => `search_documents.${c}`).join(", ")}) is distinct from (${replacedColumns.map(([, c]) => `excluded.${c}`).join(", ")})`,
 );
 
 /**
  * Writes the search documents of these versions as they now stand — the one definition of a
  * document, used by the publishing transaction (one version) and by the bulk rebuild (a batch):
- * five set-based reads for the whole batch, one insert … on conflict, one delete of the versions
+ * five set-based reads for the whole batch, one insert … on conflict (rows that changed only), one delete of the versions
  * no longer public. `latest` and the summaries are left to the caller. Returns the dataset ids
  * of the versions (to refresh `latest`).
  */
@@ -192,7 +198,10 @@ async function writeDocuments(tx: Transaction, versionIds: readonly number[]): P
     });
   });
   if (rows.length)
-    await tx.insert(searchDocuments).values(rows).onConflictDoUpdate({ target: searchDocuments.versionId, set: replaceDocument });
+    await tx
+      .insert(searchDocuments)
+      .values(rows)
+      .onConflictDoUpdate({ target: searchDocuments.versionId, set: replaceDocument, setWhere: documentChanged });
   const written = new Set(rows.map((r) => r.versionId));
   const gone = versionIds.filter((id) => !written.has(id));
   if (gone.length) await tx.delete(searchDocuments).where(sql`${searchDocuments.versionId} = any(${idArray(gone)}::int[])`);
