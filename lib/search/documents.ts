@@ -76,19 +76,28 @@ const SUMMARY_BATCH = 200;
 /** A literal PostgreSQL integer array of ids (numbers only), for `= any(…::int[])`. */
 const idArray = (ids: readonly number[]) => `{${ids.map((id) => Math.trunc(Number(id))).join(",")}}`;
 
+/** The columns the builder writes, in snake_case as stored (the client's casing), with their types. */
+const writtenColumns = Object.entries(getTableColumns(searchDocuments))
+  .filter(([key]) => !["tSpan", "document", "namesText"].includes(key))
+  .map(([key, column]) => ({ key, name: key.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`), type: column.getSQLType() }));
 /**
  * On conflict, every written column but `latest` (refreshLatest sets it right after) takes the new
  * row's value, and only when one differs: rebuilding an unchanged document writes nothing (no
  * index maintenance). The generated ones (t_span, document, names_text) follow.
  */
-const replacedColumns = Object.keys(getTableColumns(searchDocuments))
-  .filter((key) => !["versionId", "latest", "tSpan", "document", "namesText"].includes(key))
-  // Declared in camelCase, stored in snake_case (the client's casing).
-  .map((key) => [key, key.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`)] as const);
-const replaceDocument = Object.fromEntries(replacedColumns.map(([key, column]) => [key, sql.raw(`excluded.${column}`)]));
-const documentChanged = sql.raw(
-  `(${replacedColumns.map(([, c]) => `search_documents.${c}`).join(", ")}) is distinct from (${replacedColumns.map(([, c]) => `excluded.${c}`).join(", ")})`,
-);
+const replaced = writtenColumns.filter((c) => !["versionId", "latest"].includes(c.key)).map((c) => c.name);
+/**
+ * Inserts or replaces document rows in one statement whatever their number: the rows travel as one
+ * JSON parameter read by jsonb_to_recordset (numbers keep their shortest round-trip digits, so
+ * every double arrives exactly), not as tens of thousands of bound parameters.
+ */
+const upsertDocuments = (rows: (typeof searchDocuments.$inferInsert)[]) =>
+  sql`insert into search_documents (${sql.raw(writtenColumns.map((c) => c.name).join(", "))})
+    select ${sql.raw(writtenColumns.map((c) => c.name).join(", "))}
+    from jsonb_to_recordset(${JSON.stringify(rows.map((r) => Object.fromEntries(writtenColumns.map((c) => [c.name, r[c.key as keyof typeof r] ?? null]))))}::jsonb)
+      as x(${sql.raw(writtenColumns.map((c) => `${c.name} ${c.type}`).join(", "))})
+    on conflict (version_id) do update set ${sql.raw(replaced.map((c) => `${c} = excluded.${c}`).join(", "))}
+    where (${sql.raw(replaced.map((c) => `search_documents.${c}`).join(", "))}) is distinct from (${sql.raw(replaced.map((c) => `excluded.${c}`).join(", "))})`;
 
 /**
  * Writes the search documents of these versions as they now stand — the one definition of a
@@ -197,11 +206,7 @@ async function writeDocuments(tx: Transaction, versionIds: readonly number[]): P
       conditions: conditionsOf.get(v.id),
     });
   });
-  if (rows.length)
-    await tx
-      .insert(searchDocuments)
-      .values(rows)
-      .onConflictDoUpdate({ target: searchDocuments.versionId, set: replaceDocument, setWhere: documentChanged });
+  if (rows.length) await tx.execute(upsertDocuments(rows));
   const written = new Set(rows.map((r) => r.versionId));
   const gone = versionIds.filter((id) => !written.has(id));
   if (gone.length) await tx.delete(searchDocuments).where(sql`${searchDocuments.versionId} = any(${idArray(gone)}::int[])`);
