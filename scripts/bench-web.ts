@@ -95,48 +95,35 @@ async function recreateDatabase() {
 }
 
 /**
- * The search documents of every public version, written by the search code's own builder
- * (buildSearchDocument, one transaction per version as `npm run search:reindex` does) but several
- * versions at a time, then each reaction's summary; timed. Null when this checkout has no builder.
+ * The search documents of every public version, written by the search code's own bulk builder
+ * (rebuildSearchDocuments, as `npm run search:reindex` does: batches of versions through the same
+ * definition of a document as the publishing transaction), then each reaction's summary; timed.
+ * Null when this checkout has no builder.
  */
 async function buildSearchDocuments(): Promise<number | null> {
   if (!existsSync("lib/search/documents.ts")) {
     log("no lib/search/documents.ts in this checkout: search documents not built");
     return null;
   }
-  const { buildSearchDocument, writeReactionSummary } = await import("@/lib/search/documents");
-  const { getDb } = await import("@/db/client");
-  const db = getDb();
-  const sql = postgres(databaseUrl, { max: 1, onnotice: () => {} });
-  const ids = (await sql<{ id: number }[]>`select id from dataset_versions where state in ('published', 'retracted') order by id`).map(
-    (r) => r.id,
-  );
-  const reactionIds = (
-    await sql<
-      { id: number }[]
-    >`select distinct reaction_id as id from dataset_versions where state in ('published', 'retracted') order by 1`
-  ).map((r) => r.id);
-  await sql.end();
-  const parallel = env("BENCH_INDEX_PARALLEL", 6);
+  const { rebuildSearchDocuments } = await import("@/lib/search/documents");
   const t0 = performance.now();
-  const each = async (items: number[], work: (id: number) => Promise<unknown>, what: string) => {
-    let next = 0;
-    let done = 0;
-    await Promise.all(
-      Array.from({ length: parallel }, async () => {
-        while (next < items.length) {
-          await work(items[next++]);
-          if (++done % 10_000 === 0) log(`  ${done}/${items.length} ${what} (${((performance.now() - t0) / 1000).toFixed(0)} s)`);
-        }
-      }),
-    );
+  let documentsSeconds = 0;
+  const every = (what: string, step: number) => (done: number, total: number) => {
+    if (done % step === 0 || done === total) log(`  ${done}/${total} ${what} (${((performance.now() - t0) / 1000).toFixed(0)} s)`);
   };
-  log(`building ${ids.length} search documents (${parallel} at a time), then ${reactionIds.length} reaction summaries`);
-  await each(ids, (id) => db.transaction((tx) => buildSearchDocument(tx, id, { summaries: false })), "search documents");
-  const documentsSeconds = (performance.now() - t0) / 1000;
-  await each(reactionIds, (id) => db.transaction((tx) => writeReactionSummary(tx, id)), "reaction summaries");
+  const onVersions = every("search documents", 10_000);
+  const versions = await rebuildSearchDocuments({
+    onProgress: (done, total) => {
+      onVersions(done, total);
+      if (done === total) documentsSeconds = (performance.now() - t0) / 1000;
+    },
+    onSummaryProgress: every("reaction summaries", 2_000),
+  });
   const total = (performance.now() - t0) / 1000;
-  log(`search documents in ${documentsSeconds.toFixed(1)} s, reaction summaries in ${(total - documentsSeconds).toFixed(1)} s`);
+  log(
+    `${versions} search documents in ${documentsSeconds.toFixed(1)} s (${(versions / Math.max(documentsSeconds, 1e-3)).toFixed(0)} versions/s), ` +
+      `reaction summaries in ${(total - documentsSeconds).toFixed(1)} s`,
+  );
   return total;
 }
 

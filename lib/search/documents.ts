@@ -1,5 +1,5 @@
 import "server-only";
-import { and, desc, eq, inArray, sql } from "drizzle-orm";
+import { and, desc, eq, getTableColumns, sql } from "drizzle-orm";
 import { getDb, type Transaction } from "@/db/client";
 import { reactionParticipants, reactions, species, speciesNames } from "@/db/chemistry";
 import { datasetVersions, versionAnalyses } from "@/db/datasets";
@@ -16,7 +16,8 @@ import { recordSearchChange } from "@/lib/search/outbox";
  * the caller's transaction — acceptance, retraction and re-fit call it (lib/curation/transitions.ts,
  * lib/datasets/refit.ts), so the document commits or rolls back with the change — and keeps
  * `latest` and the reaction summary of the reactions view in step. `rebuildSearchDocuments` is the
- * backfill (`npm run search:reindex`, and scripts/migrate.ts after migrating).
+ * backfill (`npm run search:reindex`, scripts/migrate.ts after migrating, the web benchmark's
+ * fill): the same builder over batches of versions, so there is one definition of a document.
  */
 
 /** The canonical unit of k (and A) for a reaction order, as shown. */
@@ -67,18 +68,50 @@ export function describeSource(source: unknown): { line: string; year: number | 
   return { line: parts.map(String).join(". "), year };
 }
 
+/** Versions per statement of the bulk builder (38 parameters a row stay under PostgreSQL's 65 535). */
+const BATCH = 1000;
+/** Reactions per transaction when their summaries are rewritten in bulk. */
+const SUMMARY_BATCH = 200;
+
+/** A literal PostgreSQL integer array of ids (numbers only), for `= any(…::int[])`. */
+const idArray = (ids: readonly number[]) => `{${ids.map((id) => Math.trunc(Number(id))).join(",")}}`;
+
+/** The columns the builder writes, in snake_case as stored (the client's casing), with their types. */
+const writtenColumns = Object.entries(getTableColumns(searchDocuments))
+  .filter(([key]) => !["tSpan", "document", "namesText"].includes(key))
+  .map(([key, column]) => ({ key, name: key.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`), type: column.getSQLType() }));
 /**
- * Writes the search document of one version as it now stands: inserted or replaced while the
- * version is published or retracted, removed otherwise; then `latest` of its dataset's documents
- * and the summaries of the reactions concerned. Call it inside the transaction of the change.
+ * On conflict, every written column but `latest` (refreshLatest sets it right after) takes the new
+ * row's value, and only when one differs: rebuilding an unchanged document writes nothing (no
+ * index maintenance). The generated ones (t_span, document, names_text) follow.
  */
-export async function buildSearchDocument(
-  tx: Transaction,
-  versionId: number,
-  { summaries = true }: { summaries?: boolean } = {},
-): Promise<void> {
-  const [v] = await tx
+const replaced = writtenColumns.filter((c) => !["versionId", "latest"].includes(c.key)).map((c) => c.name);
+/**
+ * Inserts or replaces document rows in one statement whatever their number: the rows travel as one
+ * JSON parameter read by jsonb_to_recordset (numbers keep their shortest round-trip digits, so
+ * every double arrives exactly), not as tens of thousands of bound parameters.
+ */
+const upsertDocuments = (rows: (typeof searchDocuments.$inferInsert)[]) =>
+  sql`insert into search_documents (${sql.raw(writtenColumns.map((c) => c.name).join(", "))})
+    select ${sql.raw(writtenColumns.map((c) => c.name).join(", "))}
+    from jsonb_to_recordset(${JSON.stringify(rows.map((r) => Object.fromEntries(writtenColumns.map((c) => [c.name, r[c.key as keyof typeof r] ?? null]))))}::jsonb)
+      as x(${sql.raw(writtenColumns.map((c) => `${c.name} ${c.type}`).join(", "))})
+    on conflict (version_id) do update set ${sql.raw(replaced.map((c) => `${c} = excluded.${c}`).join(", "))}
+    where (${sql.raw(replaced.map((c) => `search_documents.${c}`).join(", "))}) is distinct from (${sql.raw(replaced.map((c) => `excluded.${c}`).join(", "))})`;
+
+/**
+ * Writes the search documents of these versions as they now stand — the one definition of a
+ * document, used by the publishing transaction (one version) and by the bulk rebuild (a batch):
+ * five set-based reads for the whole batch, one insert … on conflict (rows that changed only), one delete of the versions
+ * no longer public. `latest` and the summaries are left to the caller. Returns the dataset ids
+ * of the versions (to refresh `latest`).
+ */
+async function writeDocuments(tx: Transaction, versionIds: readonly number[]): Promise<number[]> {
+  if (!versionIds.length) return [];
+  const ids = idArray(versionIds);
+  const versions = await tx
     .select({
+      id: datasetVersions.id,
       datasetId: datasetVersions.datasetId,
       number: datasetVersions.number,
       state: datasetVersions.state,
@@ -90,91 +123,155 @@ export async function buildSearchDocument(
       tMin: datasetVersions.tMin,
       tMax: datasetVersions.tMax,
       pointCount: datasetVersions.pointCount,
+      reactionKey: reactions.key,
+      equation: reactions.equation,
     })
+    .from(datasetVersions)
+    .leftJoin(reactions, eq(reactions.id, datasetVersions.reactionId))
+    .where(sql`${datasetVersions.id} = any(${ids}::int[])`);
+  const publicVersions = versions.filter(
+    (v) =>
+      (v.state === "published" || v.state === "retracted") &&
+      v.reactionId !== null &&
+      v.publishedAt !== null &&
+      v.tMin !== null &&
+      v.tMax !== null &&
+      v.reactionKey !== null,
+  );
+  const publicIds = idArray(publicVersions.map((v) => v.id));
+  const reactionIds = idArray([...new Set(publicVersions.map((v) => v.reactionId!))]);
+  const participants = await tx
+    .select({
+      reactionId: reactionParticipants.reactionId,
+      side: reactionParticipants.side,
+      speciesId: species.id,
+      inchiKey: species.inchiKey,
+      formula: species.formula,
+    })
+    .from(reactionParticipants)
+    .innerJoin(species, eq(species.id, reactionParticipants.speciesId))
+    .where(sql`${reactionParticipants.reactionId} = any(${reactionIds}::int[])`)
+    .orderBy(reactionParticipants.reactionId, reactionParticipants.speciesId, reactionParticipants.side);
+  const names = await tx
+    .select({ speciesId: speciesNames.speciesId, name: speciesNames.name })
+    .from(speciesNames)
+    .where(sql`${speciesNames.speciesId} = any(${idArray([...new Set(participants.map((p) => p.speciesId))])}::int[])`)
+    // In the order they were recorded (a species' own name first, as its deposit gave it).
+    .orderBy(sql`ctid`);
+  const analyses = await tx
+    .selectDistinctOn([versionAnalyses.versionId], {
+      versionId: versionAnalyses.versionId,
+      result: versionAnalyses.result,
+      checks: versionAnalyses.checks,
+    })
+    .from(versionAnalyses)
+    .where(sql`${versionAnalyses.versionId} = any(${publicIds}::int[])`)
+    .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id));
+  const conditions = await tx.execute<{ version_id: number; p_min: number | null; p_max: number | null; bath_gases: string[] | null }>(sql`
+    select version_id, min(pressure_pa) as p_min, max(pressure_pa) as p_max,
+      array_agg(distinct bath_gas) filter (where bath_gas is not null) as bath_gases
+    from version_points where version_id = any(${publicIds}::int[]) group by version_id`);
+
+  const group = <T, K>(xs: T[], key: (x: T) => K) => {
+    const m = new Map<K, T[]>();
+    for (const x of xs) m.set(key(x), [...(m.get(key(x)) ?? []), x]);
+    return m;
+  };
+  const participantsOf = group(participants, (p) => p.reactionId);
+  const namesOfReaction = new Map<number, typeof names>();
+  const reactionNames = (reactionId: number, parts: typeof participants) => {
+    if (!namesOfReaction.has(reactionId)) {
+      const ofReaction = new Set(parts.map((p) => p.speciesId));
+      namesOfReaction.set(
+        reactionId,
+        names.filter((n) => ofReaction.has(n.speciesId)),
+      );
+    }
+    return namesOfReaction.get(reactionId)!;
+  };
+  const analysisOf = new Map(analyses.map((a) => [a.versionId, a]));
+  const conditionsOf = new Map(conditions.map((c) => [Number(c.version_id), c]));
+  const rows = publicVersions.map((v) => {
+    const parts = participantsOf.get(v.reactionId!) ?? [];
+    return documentRow({
+      ...v,
+      reactionId: v.reactionId!,
+      publishedAt: v.publishedAt!,
+      tMin: v.tMin!,
+      tMax: v.tMax!,
+      reaction: { key: v.reactionKey!, equation: v.equation! },
+      participants: parts,
+      names: reactionNames(v.reactionId!, parts),
+      analysis: analysisOf.get(v.id),
+      conditions: conditionsOf.get(v.id),
+    });
+  });
+  if (rows.length) await tx.execute(upsertDocuments(rows));
+  const written = new Set(rows.map((r) => r.versionId));
+  const gone = versionIds.filter((id) => !written.has(id));
+  if (gone.length) await tx.delete(searchDocuments).where(sql`${searchDocuments.versionId} = any(${idArray(gone)}::int[])`);
+  return [...new Set(versions.map((v) => v.datasetId))];
+}
+
+/**
+ * Writes the search document of one version as it now stands: inserted or replaced while the
+ * version is published or retracted, removed otherwise; then `latest` of its dataset's documents
+ * and the summaries of the reactions concerned. Call it inside the transaction of the change.
+ */
+export async function buildSearchDocument(
+  tx: Transaction,
+  versionId: number,
+  { summaries = true }: { summaries?: boolean } = {},
+): Promise<void> {
+  const [v] = await tx
+    .select({ datasetId: datasetVersions.datasetId, reactionId: datasetVersions.reactionId })
     .from(datasetVersions)
     .where(eq(datasetVersions.id, versionId));
   const reactionsBefore = await tx
     .selectDistinct({ reactionId: searchDocuments.reactionId })
     .from(searchDocuments)
     .where(eq(searchDocuments.datasetId, v?.datasetId ?? -1));
-  const isPublic = v && (v.state === "published" || v.state === "retracted") && v.reactionId !== null && v.publishedAt !== null;
-  if (!v || !isPublic || v.tMin === null || v.tMax === null) {
-    await tx.delete(searchDocuments).where(eq(searchDocuments.versionId, versionId));
-  } else {
-    const row = await documentRow(tx, versionId, {
-      ...v,
-      reactionId: v.reactionId!,
-      publishedAt: v.publishedAt!,
-      tMin: v.tMin,
-      tMax: v.tMax,
-    });
-    await tx.insert(searchDocuments).values(row).onConflictDoUpdate({ target: searchDocuments.versionId, set: row });
-  }
+  await writeDocuments(tx, [versionId]);
   // The Meilisearch outbox (when a service is configured) commits with the same change.
   await recordSearchChange(tx, versionId);
   if (!v) return;
-  await refreshLatest(tx, v.datasetId);
+  await refreshLatest(tx, [v.datasetId]);
   if (!summaries) return;
   const affected = new Set([...reactionsBefore.map((r) => r.reactionId), ...(v.reactionId !== null ? [v.reactionId] : [])]);
-  for (const reactionId of affected) await writeReactionSummary(tx, reactionId);
+  await writeReactionSummaries(tx, [...affected]);
 }
 
-/** Marks the newest public version of the dataset as its listed document, every older one not. */
-async function refreshLatest(tx: Transaction, datasetId: number) {
+/** Marks the newest public version of each dataset as its listed document, every older one not. */
+async function refreshLatest(tx: Transaction, datasetIds: readonly number[]) {
+  if (!datasetIds.length) return;
   await tx.execute(sql`
     update search_documents d set latest = (d.version_number = m.newest)
-    from (select max(version_number) as newest from search_documents where dataset_id = ${datasetId}) m
-    where d.dataset_id = ${datasetId} and d.latest is distinct from (d.version_number = m.newest)`);
+    from (select dataset_id, max(version_number) as newest from search_documents
+          where dataset_id = any(${idArray(datasetIds)}::int[]) group by dataset_id) m
+    where d.dataset_id = m.dataset_id and d.latest is distinct from (d.version_number = m.newest)`);
 }
 
-async function documentRow(
-  tx: Transaction,
-  versionId: number,
-  v: {
-    datasetId: number;
-    number: number;
-    state: string;
-    title: string;
-    payload: Record<string, unknown>;
-    reactionId: number;
-    versionIdentifier: string | null;
-    publishedAt: Date;
-    tMin: number;
-    tMax: number;
-    pointCount: number;
-  },
-): Promise<typeof searchDocuments.$inferInsert> {
-  const [reaction] = await tx
-    .select({ key: reactions.key, equation: reactions.equation })
-    .from(reactions)
-    .where(eq(reactions.id, v.reactionId));
-  const participants = await tx
-    .select({ side: reactionParticipants.side, speciesId: species.id, inchiKey: species.inchiKey, formula: species.formula })
-    .from(reactionParticipants)
-    .innerJoin(species, eq(species.id, reactionParticipants.speciesId))
-    .where(eq(reactionParticipants.reactionId, v.reactionId));
-  const names = participants.length
-    ? await tx
-        .select({ name: speciesNames.name })
-        .from(speciesNames)
-        .where(
-          inArray(
-            speciesNames.speciesId,
-            participants.map((p) => p.speciesId),
-          ),
-        )
-    : [];
-  const [analysis] = await tx
-    .select({ result: versionAnalyses.result, checks: versionAnalyses.checks })
-    .from(versionAnalyses)
-    .where(eq(versionAnalyses.versionId, versionId))
-    .orderBy(desc(versionAnalyses.id))
-    .limit(1);
-  const [conditions] = await tx.execute<{ p_min: number | null; p_max: number | null; bath_gases: string[] | null }>(sql`
-    select min(pressure_pa) as p_min, max(pressure_pa) as p_max,
-      array_agg(distinct bath_gas) filter (where bath_gas is not null) as bath_gases
-    from version_points where version_id = ${versionId}`);
-
+/** A version's document from its stored parts (a pure function of what writeDocuments read). */
+function documentRow(v: {
+  id: number;
+  datasetId: number;
+  number: number;
+  state: string;
+  title: string;
+  payload: Record<string, unknown>;
+  reactionId: number;
+  versionIdentifier: string | null;
+  publishedAt: Date;
+  tMin: number;
+  tMax: number;
+  pointCount: number;
+  reaction: { key: string; equation: string };
+  participants: { side: string; inchiKey: string; formula: string }[];
+  names: { name: string }[];
+  analysis: { result: unknown; checks: { code: string }[] } | undefined;
+  conditions: { p_min: number | null; p_max: number | null; bath_gases: string[] | null } | undefined;
+}): typeof searchDocuments.$inferInsert {
+  const { reaction, participants, names, analysis, conditions } = v;
   const p = v.payload as {
     description?: string;
     keywords?: string[];
@@ -191,7 +288,7 @@ async function documentRow(
   const fit = result?.arrhenius?.params;
   const uniq = (xs: string[]) => [...new Set(xs.filter(Boolean))];
   return {
-    versionId,
+    versionId: v.id,
     datasetId: v.datasetId,
     versionNumber: v.number,
     // Set by refreshLatest right after.
@@ -249,8 +346,19 @@ export function datasetSpread(
 
 /** Rewrites the reactions view's summary of one reaction: the consensus over the reader's default choice and the spread. */
 export async function writeReactionSummary(tx: Transaction, reactionId: number): Promise<void> {
+  await writeReactionSummaries(tx, [reactionId]);
+}
+
+/**
+ * Rewrites the summaries of these reactions: one read of their listed documents, the consensus
+ * once per reaction with two or more, one insert … on conflict and one delete (reactions with
+ * nothing listed).
+ */
+export async function writeReactionSummaries(tx: Transaction, reactionIds: readonly number[]): Promise<void> {
+  if (!reactionIds.length) return;
   const listed = await tx
     .select({
+      reactionId: searchDocuments.reactionId,
       a: searchDocuments.a,
       ea: searchDocuments.ea,
       aUnit: searchDocuments.aUnit,
@@ -258,40 +366,68 @@ export async function writeReactionSummary(tx: Transaction, reactionId: number):
       tMax: searchDocuments.tMax,
     })
     .from(searchDocuments)
-    .where(and(eq(searchDocuments.reactionId, reactionId), eq(searchDocuments.latest, true), eq(searchDocuments.retracted, false)));
-  if (!listed.length) {
-    await tx.delete(searchReactionSummaries).where(eq(searchReactionSummaries.reactionId, reactionId));
-    return;
+    .where(
+      and(
+        sql`${searchDocuments.reactionId} = any(${idArray(reactionIds)}::int[])`,
+        eq(searchDocuments.latest, true),
+        eq(searchDocuments.retracted, false),
+      ),
+    )
+    .orderBy(searchDocuments.reactionId, searchDocuments.versionId);
+  const listedOf = new Map<number, typeof listed>();
+  for (const row of listed) listedOf.set(row.reactionId, [...(listedOf.get(row.reactionId) ?? []), row]);
+  const empty = reactionIds.filter((id) => !listedOf.has(id));
+  if (empty.length)
+    await tx.delete(searchReactionSummaries).where(sql`${searchReactionSummaries.reactionId} = any(${idArray(empty)}::int[])`);
+  const rows: (typeof searchReactionSummaries.$inferInsert)[] = [];
+  for (const [reactionId, fits] of listedOf) {
+    rows.push({
+      reactionId,
+      consensus: fits.length >= 2 ? await consensusOf(tx, reactionId) : null,
+      spread: datasetSpread(fits),
+      updatedAt: new Date(),
+    });
   }
-  let consensus: ReactionHit["consensus"] = null;
-  if (listed.length >= 2) {
-    const { result } = await loadReactionConsensus({ reactionId, choice: DEFAULT_CONSENSUS_CHOICE, db: tx });
-    const preferred = result && (result.preferred === "modified_arrhenius" ? result.modifiedArrhenius : result.arrhenius);
-    if (result && preferred && preferred.params.A !== null) {
-      consensus = {
-        model: result.preferred,
-        a: preferred.params.A,
-        n: "n" in preferred.params ? (preferred.params.n as number) : 0,
-        ea: preferred.params.Ea,
-        aUnit: RATE_UNIT_LABELS[result.order],
-        tMin: result.range.Tmin,
-        tMax: result.range.Tmax,
-      };
-    }
-  }
-  const row = { reactionId, consensus, spread: datasetSpread(listed), updatedAt: new Date() };
-  await tx.insert(searchReactionSummaries).values(row).onConflictDoUpdate({ target: searchReactionSummaries.reactionId, set: row });
+  if (!rows.length) return;
+  await tx
+    .insert(searchReactionSummaries)
+    .values(rows)
+    .onConflictDoUpdate({
+      target: searchReactionSummaries.reactionId,
+      set: { consensus: sql`excluded.consensus`, spread: sql`excluded.spread`, updatedAt: sql`excluded.updated_at` },
+    });
+}
+
+/** The consensus over the reader's default choice, as the reactions view shows it; null when none can be drawn. */
+async function consensusOf(tx: Transaction, reactionId: number): Promise<ReactionHit["consensus"]> {
+  const { result } = await loadReactionConsensus({ reactionId, choice: DEFAULT_CONSENSUS_CHOICE, db: tx });
+  const preferred = result && (result.preferred === "modified_arrhenius" ? result.modifiedArrhenius : result.arrhenius);
+  if (!result || !preferred || preferred.params.A === null) return null;
+  return {
+    model: result.preferred,
+    a: preferred.params.A,
+    n: "n" in preferred.params ? (preferred.params.n as number) : 0,
+    ea: preferred.params.Ea,
+    aUnit: RATE_UNIT_LABELS[result.order],
+    tMin: result.range.Tmin,
+    tMax: result.range.Tmax,
+  };
 }
 
 /**
- * Rebuilds every document (the backfill): one transaction per version, so a long rebuild holds no
- * lock for long; documents of versions no longer public are removed. Reports progress per version.
+ * Rebuilds every document (the backfill, `npm run search:reindex`, the benchmark's fill): versions
+ * in batches of a thousand, one transaction each (so a long rebuild holds no lock for long), each
+ * batch written by the same builder as the publishing transaction; documents of versions no longer
+ * public are removed; then the summaries, each reaction once, a couple of hundred per transaction.
+ * Reports progress per batch (versions done, then reactions done).
  */
 export async function rebuildSearchDocuments({
   onProgress,
+  onSummaryProgress,
   onlyMissing = false,
 }: {
   onProgress?: (done: number, total: number) => void;
+  onSummaryProgress?: (done: number, total: number) => void;
   /** Only public versions without a document (after migrating a database that had none). */
   onlyMissing?: boolean;
 } = {}): Promise<number> {
@@ -305,13 +441,22 @@ export async function rebuildSearchDocuments({
         union select version_id from search_documents order by 1`);
   if (!rows.length) return 0;
   const ids = rows.map((r) => Number(r.id));
-  for (const [i, id] of ids.entries()) {
-    // Summaries once per reaction below, not once per version.
-    await db.transaction((tx) => buildSearchDocument(tx, id, { summaries: false }));
-    onProgress?.(i + 1, ids.length);
+  for (let i = 0; i < ids.length; i += BATCH) {
+    const batch = ids.slice(i, i + BATCH);
+    await db.transaction(async (tx) => {
+      const datasetIds = await writeDocuments(tx, batch);
+      await recordSearchChange(tx, batch);
+      await refreshLatest(tx, datasetIds);
+    });
+    onProgress?.(Math.min(i + BATCH, ids.length), ids.length);
   }
-  const reactionIds = await db.execute<{ id: number }>(sql`
-    select distinct reaction_id as id from search_documents union select reaction_id from search_reaction_summaries`);
-  for (const r of reactionIds) await db.transaction((tx) => writeReactionSummary(tx, Number(r.id)));
+  const reactionIds = (
+    await db.execute<{ id: number }>(sql`
+      select reaction_id as id from search_documents union select reaction_id from search_reaction_summaries order by 1`)
+  ).map((r) => Number(r.id));
+  for (let i = 0; i < reactionIds.length; i += SUMMARY_BATCH) {
+    await db.transaction((tx) => writeReactionSummaries(tx, reactionIds.slice(i, i + SUMMARY_BATCH)));
+    onSummaryProgress?.(Math.min(i + SUMMARY_BATCH, reactionIds.length), reactionIds.length);
+  }
   return ids.length;
 }

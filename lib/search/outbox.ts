@@ -18,18 +18,19 @@ const MAX_BACKOFF_SECONDS = 3600;
 const DRAIN_LOCK = 7_314_021;
 
 /**
- * Records that a version's searchable state changed, inside the transaction of the change: a row
+ * Records that a version's (or a batch of versions') searchable state changed, inside the transaction of the change: a row
  * per public version of its dataset (a new version also changes which one is the newest), and a
  * search-sync job. Nothing when no Meilisearch service is configured (PostgreSQL keeps its own
  * documents in the same transaction).
  */
-export async function recordSearchChange(tx: Transaction, versionId: number): Promise<void> {
+export async function recordSearchChange(tx: Transaction, versionIds: number | readonly number[]): Promise<void> {
   if (!meilisearchConfig()) return;
+  const ids = `{${(typeof versionIds === "number" ? [versionIds] : versionIds).map((id) => Math.trunc(Number(id))).join(",")}}`;
   await tx.execute(sql`
     insert into search_outbox (version_id)
     select v.id from dataset_versions v
-    where v.dataset_id = (select dataset_id from dataset_versions where id = ${versionId})
-      and (v.id = ${versionId} or v.state in ('published', 'retracted'))
+    where v.dataset_id in (select dataset_id from dataset_versions where id = any(${ids}::int[]))
+      and (v.id = any(${ids}::int[]) or v.state in ('published', 'retracted'))
     order by v.id`);
   const boss = await getSender();
   await boss.send(SEARCH_SYNC_QUEUE, {}, { db: jobsInTransaction(tx) });
