@@ -87,7 +87,10 @@ function aboutLines(about: PointsAbout): [string, string][] {
 export function buildPointsCsv(about: PointsAbout, rows: readonly PointRow[]): string {
   const columns = csvColumns(about);
   // A comment line never breaks: newlines inside a deposited text become spaces.
-  const head = aboutLines(about).map(([label, text]) => `# ${label}: ${text.replace(/[\r\n]+/g, " ")}`);
+  // A spreadsheet splits a comment line at its commas: a piece that would start a formula gets an apostrophe, as data cells do.
+  const head = aboutLines(about).map(
+    ([label, text]) => `# ${label}: ${text.replace(/[\r\n]+/g, " ").replace(/,(\s*)(?=[=+\-@\t])/g, ",$1'")}`,
+  );
   const body = rows.map((r) => columns.map(([, value]) => value(r)).join(","));
   return [...head, columns.map(([name]) => name).join(","), ...body].join("\r\n") + "\r\n";
 }

@@ -132,7 +132,8 @@ const numberSchema = (parameter: string, what: string, { whole = false } = {}) =
       `${parameter} must be ${what}, a non-negative plain number such as ${whole ? "1998" : "300"}`,
     )
     .transform(Number)
-    .refine((n) => !whole || Number.isInteger(n), `${parameter} must be a whole year`);
+    .refine((n) => !whole || Number.isInteger(n), `${parameter} must be a whole year`)
+    .refine((n) => !whole || n <= 9999, `${parameter} must be a year no later than 9999`);
 
 const single = {
   q: z

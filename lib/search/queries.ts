@@ -1,5 +1,5 @@
 import "server-only";
-import { eq, inArray, sql } from "drizzle-orm";
+import { and, eq, inArray, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { species, speciesNames } from "@/db/chemistry";
 
@@ -33,7 +33,13 @@ export async function findSpeciesKeys({
     const rows = await db
       .select({ formula: species.formula, inchiKey: species.inchiKey })
       .from(species)
-      .where(inArray(species.formula, formulas));
+      // Only species of public data: a species first seen in a draft is never offered (its names join at publication; formulas are checked here).
+      .where(
+        and(
+          inArray(species.formula, formulas),
+          sql`exists (select 1 from search_documents d where d.reactant_keys @> array[${species.inchiKey}] or d.product_keys @> array[${species.inchiKey}])`,
+        ),
+      );
     for (const r of rows) add(`formula:${r.formula}`, r.inchiKey);
   }
   return found;

@@ -81,6 +81,15 @@ describe("a version's point rows", () => {
 });
 
 describe("point downloads", () => {
+  it("CSV: a comma in a header text never starts a formula cell in a spreadsheet", () => {
+    const { rows } = rowsOf(structuredClone(EXAMPLE_DEPOSIT) as DepositDocument);
+    const text = buildPointsCsv({ ...about, title: "Probe,=1+1,@SUM(1;2), -3+3 zorbium", citation: "Doe, +J. (2026)" }, rows);
+    const head = text.split("\r\n").filter((l) => l.startsWith("#"));
+    // Every piece a spreadsheet would make of these lines (split at commas) starts with something other than = + - @.
+    const cells = Papa.parse<string[]>(head.join("\n")).data.flat();
+    for (const cell of cells) expect(cell.trimStart(), cell).not.toMatch(/^[=+\-@]/);
+    expect(head).toContain("# title: Probe,'=1+1,'@SUM(1;2), '-3+3 zorbium");
+  });
   it("CSV: one comment line per header entry even when a text holds a newline, formula-like text neutralised, every row parses", () => {
     const doc = structuredClone(EXAMPLE_DEPOSIT) as DepositDocument;
     doc.points[9] = { ...doc.points[9], bathGas: "=HYPERLINK(1)" };

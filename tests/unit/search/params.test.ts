@@ -72,6 +72,8 @@ describe("parseSearchParams", () => {
     [{ tMin: "400", tMax: "300" }, "tMax"],
     [{ pMin: "2", pMax: "1" }, "pMax"],
     [{ yearMin: "2000.5" }, "yearMin"],
+    [{ yearMin: "2147483648" }, "yearMin"],
+    [{ yearMax: "1e20" }, "yearMax"],
     [{ yearMin: "2020", yearMax: "2010" }, "yearMax"],
     [{ tCovers: "yes" }, "tCovers"],
     [{ tCovers: "true", tMin: "300" }, "tCovers"],

@@ -8,6 +8,12 @@ import { suggestSearch } from "@/lib/search/queries";
 export const GET = withApi(async ({ req }) => {
   const params = new URL(req.url).searchParams;
   const q = params.get("q") ?? "";
+  for (const name of params.keys()) {
+    if (name !== "q") {
+      const message = `${name} is not a parameter of the suggestions; only q is`;
+      throw new AppError("bad_request", message, [{ pointer: `/${name}`, parameter: name, message }]);
+    }
+  }
   if (params.getAll("q").length > 1 || q.length > MAX_QUERY_LENGTH) {
     const message = `q must be given once, with at most ${MAX_QUERY_LENGTH} characters`;
     throw new AppError("bad_request", message, [{ pointer: "/q", parameter: "q", message }]);
