@@ -947,14 +947,16 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     }
   }
 
-  if (d.weighted && c.arrSum.dof > 0) {
-    const p = survivalChiSquare(c.arrhenius.rss, c.arrSum.dof);
+  // Judged on the fit the analysis prefers: a curved set's straight line leaves scatter that is only its curvature.
+  const preferred = c.chosen.sum;
+  if (d.weighted && preferred.dof > 0) {
+    const p = survivalChiSquare(preferred.rss, preferred.dof);
     if (p < EXCESS_SCATTER_P) {
-      const chi2 = c.arrhenius.rss / c.arrSum.dof;
+      const chi2 = preferred.rss / preferred.dof;
       push({
         code: "excess_scatter",
         severity: "warn",
-        quantities: { chi2Reduced: statistic(chi2), scaleFactor: statistic(Math.sqrt(chi2)), dof: count(c.arrSum.dof), p: probability(p) },
+        quantities: { chi2Reduced: statistic(chi2), scaleFactor: statistic(Math.sqrt(chi2)), dof: count(preferred.dof), p: probability(p) },
       });
     }
   }

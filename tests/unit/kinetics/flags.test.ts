@@ -301,6 +301,31 @@ describe("curvature of noise-free data", () => {
     expect(r.modifiedArrhenius!.params.n).toBeCloseTo(2.5, 9);
   });
 
+  it("judges excess scatter on the preferred (modified) fit: a curved set within its stated σ is not told its uncertainties are too small", () => {
+    // Curved data with small scatter well inside σ(ln k) = 0.05: the straight line misses the curve
+    // by far more than 0.05, the modified fit does not (χ² test on the preferred model, common practice).
+    const curved = analyseDataset({
+      points: pointsOf(
+        T,
+        T.map((t, i) => 2.5 * Math.log(t / 298.15) + 0.01 * Math.sin(2.3 * i)),
+        0.05,
+      ),
+      order: 2,
+    });
+    expect(curved.diagnostics!.model).toBe("modified_arrhenius");
+    expect(flagOf(curved, "excess_scatter")).toBeUndefined();
+    // The same curve with scatter beyond its stated σ is still flagged.
+    const scattered = analyseDataset({
+      points: pointsOf(
+        T,
+        T.map((t, i) => 2.5 * Math.log(t / 298.15) + 0.3 * Math.sin(2.3 * i)),
+        0.05,
+      ),
+      order: 2,
+    });
+    expect(flagOf(scattered, "excess_scatter")).toBeDefined();
+  });
+
   it("keeps the F-test for data with scatter, and for noise-free straight data finds no curvature", () => {
     const noisy = analyseDataset({
       points: pointsOf(
