@@ -3,6 +3,7 @@ import "@fontsource-variable/source-serif-4";
 import "./globals.css";
 import type { Metadata } from "next";
 import Link from "next/link";
+import { CAUTION } from "@/lib/analyses/analyse-request";
 import { Providers } from "@/components/providers";
 import { SiteHeader } from "@/components/site-header";
 
@@ -47,10 +48,7 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
               ))}
             </ul>
           </nav>
-          <p>
-            Rate parameters are shown as deposited and re-fitted automatically. Extrapolation outside the measured range is unreliable, and
-            safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.
-          </p>
+          <p>Rate parameters are shown as deposited and re-fitted automatically. {CAUTION}</p>
         </footer>
       </body>
     </html>

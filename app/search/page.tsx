@@ -2,8 +2,8 @@ import type { Metadata } from "next";
 import { publicPageMetadata } from "@/lib/page-metadata";
 import { Suspense } from "react";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
-import { parseSearchParams, search, toSearchParams } from "@/lib/search";
-import type { SearchAnswer } from "@/components/search/search-answer";
+import { parseSearchParams, searchAnswer, toSearchParams } from "@/lib/search";
+import type { SearchAnswer } from "@/lib/search/types";
 import { SearchClient } from "./search-client";
 
 export async function generateMetadata(): Promise<Metadata> {
@@ -25,18 +25,7 @@ async function firstAnswer(params: Record<string, string | string[] | undefined>
   const parsed = parseSearchParams(params);
   if (!parsed.ok) return null;
   try {
-    const r = await search(parsed.request);
-    const answer: SearchAnswer = {
-      query: r.query,
-      parsed: r.parsed.words,
-      understood: r.parsed.query,
-      total: r.total,
-      hits: r.hits,
-      facets: r.facets,
-      nextCursor: r.nextCursor,
-      caution: FIT_CAUTION,
-    };
-    return { key: toSearchParams(parsed.request).toString(), answer };
+    return { key: toSearchParams(parsed.request).toString(), answer: await searchAnswer(parsed.request) };
   } catch {
     return null;
   }

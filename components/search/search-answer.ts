@@ -5,20 +5,9 @@
  */
 import type { FieldError } from "@/lib/errors";
 import { parseSearchParams, SEARCH_PARAMETERS, toSearchParams } from "@/lib/search/params";
-import type { DatasetHit, FacetCount, ParsedQuery, ReactionHit, SearchFacet, SearchRequest } from "@/lib/search/types";
+import type { SearchAnswer } from "@/lib/search/types";
 
-export interface SearchAnswer {
-  query: SearchRequest;
-  /** What the text was understood as, in words ("Species: methane (CH4)"). */
-  parsed: string;
-  /** The same as the engines take it. */
-  understood: ParsedQuery;
-  total: number;
-  hits: DatasetHit[] | ReactionHit[];
-  facets: Record<SearchFacet, FacetCount[]>;
-  nextCursor: string | null;
-  caution: string;
-}
+export type { SearchAnswer };
 
 /** A refused or failed search: the status, the problem's title, and the parameters at fault. */
 export class SearchProblem extends Error {

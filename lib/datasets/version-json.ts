@@ -1,11 +1,12 @@
 import "server-only";
+import { CAUTION } from "@/lib/analyses/analyse-request";
 import { extrapolationOf, GAS_CONSTANT, REFERENCE_TEMPERATURE, type AnalysisResult, type ArrheniusFit } from "@/lib/kinetics";
 import { t95 } from "@/lib/kinetics/distributions";
 import { getLatestAnalysis, listDecisions } from "./queries";
 import type { VersionDto } from "./queries";
 
-export const FIT_CAUTION =
-  "Extrapolation outside the measured temperature range is unreliable, and safety-critical use (reactor, storage, process hazards) needs qualified review under local codes.";
+/** The one caution sentence (lib/analyses/analyse-request.ts), under the name pages and downloads use. */
+export const FIT_CAUTION = CAUTION;
 
 /**
  * A stored analysis result that pages can draw: the fit and its band. Re-fits and older engines may

@@ -4,7 +4,8 @@ import { cursorPositionOrThrow, signCursor } from "./cursor";
 import { meilisearchEngine } from "./engines/meilisearch";
 import { postgresEngine } from "./engines/postgres";
 import { resolveQuery } from "./resolve-query";
-import type { FacetCount, ParsedQuery, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
+import { CAUTION } from "@/lib/analyses/analyse-request";
+import type { FacetCount, ParsedQuery, SearchAnswer, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
 
 /**
  * Search: the one entry point of pages and the API. Resolves the text (species, reaction patterns),
@@ -56,6 +57,21 @@ export async function search(request: SearchRequest, engine: SearchEngine = curr
     hits: result.hits,
     facets: result.facets,
     nextCursor: result.nextAfter === null ? null : signCursor(result.nextAfter, request),
+  };
+}
+
+/** The search in the shape GET /api/v1/search answers, with the caution sentence: the route and the page's first answer. */
+export async function searchAnswer(request: SearchRequest, engine?: SearchEngine): Promise<SearchAnswer> {
+  const result = await search(request, engine);
+  return {
+    query: result.query,
+    parsed: result.parsed.words,
+    understood: result.parsed.query,
+    total: result.total,
+    hits: result.hits,
+    facets: result.facets,
+    nextCursor: result.nextCursor,
+    caution: CAUTION,
   };
 }
 

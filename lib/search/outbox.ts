@@ -5,7 +5,7 @@ import { searchOutbox } from "@/db/search-outbox";
 import { jobRetryDelaySeconds, meilisearchConfig } from "@/lib/config";
 import { getSender, jobsInTransaction } from "@/lib/jobs/boss";
 import { meiliIndex, waitForSuccess } from "@/lib/search/meili/client";
-import { loadSearchDocuments } from "@/lib/search/meili/documents";
+import { loadSearchDocuments } from "@/lib/search/queries";
 import { toIndexedDocument } from "@/lib/search/meili/index-settings";
 import type { SearchDocument } from "@/lib/search/types";
 

@@ -1,11 +1,14 @@
 import "server-only";
-import { and, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, eq, gt, inArray, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { species, speciesNames } from "@/db/chemistry";
+import { searchDocuments, searchReactionSummaries } from "@/db/search";
+import type { ReactionHit, SearchDocument } from "@/lib/search/types";
 
 /**
- * Species lookups of the search: the InChIKeys a typed name, synonym or formula may mean, and the
- * header box's suggestions. Species and names are shared by every version, so only species of a
+ * The search's reads: species lookups (the InChIKeys a typed name, synonym or formula may mean),
+ * the header box's suggestions, and the stored documents and reaction summaries the Meilisearch
+ * engine, its outbox and its reindex send on. Species and names are shared by every version, so only species of a
  * reaction with a public version are offered (a draft's new species is never suggested).
  */
 
@@ -127,4 +130,96 @@ export async function suggestSearch({ q }: { q: string }): Promise<{ species: Sp
       datasetCount: Number(r.datasets),
     })),
   };
+}
+
+/**
+ * The current search documents of these versions, as the PostgreSQL engine keeps them (written in
+ * the transaction of each change, lib/search/documents.ts): Meilisearch receives exactly what
+ * PostgreSQL searches. A version without a row is no longer public.
+ */
+export async function loadSearchDocuments(versionIds: number[]): Promise<SearchDocument[]> {
+  if (!versionIds.length) return [];
+  const rows = await getDb()
+    .select({
+      versionId: searchDocuments.versionId,
+      datasetId: searchDocuments.datasetId,
+      versionNumber: searchDocuments.versionNumber,
+      latest: searchDocuments.latest,
+      retracted: searchDocuments.retracted,
+      versionIdentifier: searchDocuments.versionIdentifier,
+      title: searchDocuments.title,
+      description: searchDocuments.description,
+      keywords: searchDocuments.keywords,
+      creators: searchDocuments.creators,
+      technique: searchDocuments.technique,
+      source: searchDocuments.source,
+      sourceYear: searchDocuments.sourceYear,
+      reactionId: searchDocuments.reactionId,
+      reactionKey: searchDocuments.reactionKey,
+      equation: searchDocuments.equation,
+      reactantKeys: searchDocuments.reactantKeys,
+      productKeys: searchDocuments.productKeys,
+      speciesNames: searchDocuments.speciesNames,
+      formulas: searchDocuments.formulas,
+      reactionClass: searchDocuments.reactionClass,
+      phase: searchDocuments.phase,
+      methodCategory: searchDocuments.methodCategory,
+      bathGases: searchDocuments.bathGases,
+      licence: searchDocuments.licence,
+      tMin: searchDocuments.tMin,
+      tMax: searchDocuments.tMax,
+      pMin: searchDocuments.pMin,
+      pMax: searchDocuments.pMax,
+      pointCount: searchDocuments.pointCount,
+      flags: searchDocuments.flags,
+      ea: searchDocuments.ea,
+      a: searchDocuments.a,
+      aUnit: searchDocuments.aUnit,
+      publishedAt: searchDocuments.publishedAt,
+    })
+    .from(searchDocuments)
+    .where(inArray(searchDocuments.versionId, versionIds));
+  return rows.map((r) => ({
+    ...r,
+    id: String(r.versionId),
+    flags: r.flags as SearchDocument["flags"],
+    publishedAt: r.publishedAt.toISOString(),
+  }));
+}
+
+/** The reactions view's consensus and spread, kept in PostgreSQL beside the documents. */
+export async function loadReactionSummaries(reactionIds: number[]): Promise<Map<number, Pick<ReactionHit, "consensus" | "spread">>> {
+  if (!reactionIds.length) return new Map();
+  const rows = await getDb()
+    .select({
+      reactionId: searchReactionSummaries.reactionId,
+      consensus: searchReactionSummaries.consensus,
+      spread: searchReactionSummaries.spread,
+    })
+    .from(searchReactionSummaries)
+    .where(inArray(searchReactionSummaries.reactionId, reactionIds));
+  return new Map(rows.map((r) => [r.reactionId, { consensus: (r.consensus as ReactionHit["consensus"]) ?? null, spread: r.spread }]));
+}
+
+/** Every species' names that has more than one, grouped (the synonyms a search service is given). */
+export async function listSpeciesNameGroups(): Promise<string[][]> {
+  const rows = await getDb().execute<{ names: string[] }>(
+    sql`select array_agg(name order by name) as names from species_names group by species_id having count(*) > 1`,
+  );
+  return rows.map((r) => r.names);
+}
+
+/** How many search documents there are, and the version ids after `after`, in order, a page at a time. */
+export async function countSearchDocuments(): Promise<number> {
+  return getDb().$count(searchDocuments);
+}
+
+export async function listSearchDocumentIdsAfter({ after, limit }: { after: number; limit: number }): Promise<number[]> {
+  const rows = await getDb()
+    .select({ id: searchDocuments.versionId })
+    .from(searchDocuments)
+    .where(gt(searchDocuments.versionId, after))
+    .orderBy(asc(searchDocuments.versionId))
+    .limit(limit);
+  return rows.map((r) => r.id);
 }

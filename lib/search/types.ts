@@ -2,7 +2,7 @@
  * The contract of search: what a reader asks for, what an engine is given, and what comes back.
  * Both engines (PostgreSQL, the default; Meilisearch when MEILISEARCH_URL is set) implement
  * `SearchEngine` over the same `SearchDocument`s and must return the same hits for the same
- * `EngineQuery` (tests/integration/search-conformance.test.ts).
+ * `EngineQuery` (tests/integration/search-conformance.ts, run by search-postgres.test.ts and search-meili.test.ts).
  *
  * Only published and retracted versions ever become search documents; drafts, submissions and
  * declined datasets never reach an engine, so no engine can leak them (not even in facet counts).
@@ -197,4 +197,18 @@ export interface SearchResult {
 export interface SearchEngine {
   readonly name: "postgres" | "meilisearch";
   search(query: EngineQuery): Promise<SearchResult>;
+}
+
+/** What GET /api/v1/search answers, and what the /search page renders first (lib/search searchAnswer). */
+export interface SearchAnswer {
+  query: SearchRequest;
+  /** What the text was understood as, in words ("Species: methane (CH4)"). */
+  parsed: string;
+  /** The same as the engines take it. */
+  understood: ParsedQuery;
+  total: number;
+  hits: DatasetHit[] | ReactionHit[];
+  facets: Record<SearchFacet, FacetCount[]>;
+  nextCursor: string | null;
+  caution: string;
 }

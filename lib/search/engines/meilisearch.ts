@@ -1,7 +1,7 @@
 import "server-only";
 import type { Meilisearch, MultiSearchQuery, SearchResponse } from "meilisearch";
 import { meiliIndex } from "@/lib/search/meili/client";
-import { loadReactionSummaries } from "@/lib/search/meili/documents";
+import { loadReactionSummaries } from "@/lib/search/queries";
 import { FACET_ATTRIBUTES, buildFilter, facetConditions, textPart, type MeiliFilter } from "@/lib/search/meili/filter";
 import { MAX_TOTAL_HITS, type IndexedDocument } from "@/lib/search/meili/index-settings";
 import {

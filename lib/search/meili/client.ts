@@ -1,8 +1,7 @@
 import "server-only";
 import { Meilisearch, type EnqueuedTask, type Task } from "meilisearch";
-import { sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
 import { meilisearchConfig } from "@/lib/config";
+import { listSpeciesNameGroups } from "@/lib/search/queries";
 import { indexSettings, synonymsFromNames } from "./index-settings";
 
 /** The configured service and index; throws when MEILISEARCH_URL is unset. */
@@ -23,14 +22,6 @@ export async function waitForSuccess(client: Meilisearch, enqueued: EnqueuedTask
   return task;
 }
 
-/** Every species' names, grouped, from the species names table. */
-async function speciesNameGroups(): Promise<string[][]> {
-  const rows = await getDb().execute<{ names: string[] }>(
-    sql`select array_agg(name order by name) as names from species_names group by species_id having count(*) > 1`,
-  );
-  return rows.map((r) => r.names);
-}
-
 /** Creates the index if needed and applies the settings (idempotent); returns the settings applied. */
 export async function applyIndexSettings(config = meilisearchConfig()) {
   const { client, index, uid } = meiliIndex(config);
@@ -40,7 +31,7 @@ export async function applyIndexSettings(config = meilisearchConfig()) {
     if ((err as { cause?: { code?: string } }).cause?.code !== "index_not_found") throw err;
     await waitForSuccess(client, client.createIndex(uid, { primaryKey: "id" }));
   }
-  const settings = indexSettings(synonymsFromNames(await speciesNameGroups()));
+  const settings = indexSettings(synonymsFromNames(await listSpeciesNameGroups()));
   await waitForSuccess(client, index.updateSettings(settings));
   return settings;
 }

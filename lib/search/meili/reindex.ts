@@ -1,10 +1,7 @@
 import "server-only";
-import { asc, gt } from "drizzle-orm";
-import { getDb } from "@/db/client";
-import { searchDocuments } from "@/db/search";
 import { meilisearchConfig } from "@/lib/config";
 import { applyIndexSettings, meiliIndex, waitForSuccess } from "./client";
-import { loadSearchDocuments } from "./documents";
+import { countSearchDocuments, listSearchDocumentIdsAfter, loadSearchDocuments } from "@/lib/search/queries";
 import { MAX_TOTAL_HITS, toIndexedDocument } from "./index-settings";
 
 /**
@@ -20,20 +17,14 @@ export async function reindexMeilisearch({
   const config = meilisearchConfig();
   const { client, index } = meiliIndex(config);
   await applyIndexSettings(config);
-  const db = getDb();
-  const total = await db.$count(searchDocuments);
+  const total = await countSearchDocuments();
   const kept = new Set<string>();
   let last = 0;
   for (;;) {
-    const ids = await db
-      .select({ id: searchDocuments.versionId })
-      .from(searchDocuments)
-      .where(gt(searchDocuments.versionId, last))
-      .orderBy(asc(searchDocuments.versionId))
-      .limit(batchSize);
+    const ids = await listSearchDocumentIdsAfter({ after: last, limit: batchSize });
     if (!ids.length) break;
-    last = ids[ids.length - 1].id;
-    const docs = await loadSearchDocuments(ids.map((r) => r.id));
+    last = ids[ids.length - 1];
+    const docs = await loadSearchDocuments(ids);
     await waitForSuccess(client, index.addDocuments(docs.map(toIndexedDocument), { primaryKey: "id" }));
     for (const d of docs) kept.add(d.id);
     onProgress?.(kept.size, total);
