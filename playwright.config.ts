@@ -12,6 +12,8 @@ export default defineConfig({
   fullyParallel: false,
   workers: 1,
   retries: 0,
+  // npm run bench:analyse repeats its one test; every other run takes each test once.
+  repeatEach: Number(process.env.E2E_REPEAT_EACH ?? 1),
   timeout: 60_000,
   expect: { timeout: 10_000 },
   use: {
