@@ -380,11 +380,19 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       points: ds.points,
       window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity },
       skip: null,
+      // Without stored outliers the dataset's own outlier test runs unless its fits show it cannot find one.
+      screen: ds.outliers == null,
     };
     let support = summariseDataset(input, T0);
     // One pass: the outliers of the dataset's own fit are left out of its summary, and it is summarised again.
     // The dataset's own analysis judges outliers on the model it prefers, so a curved dataset's ends are not outliers.
-    const own = !support ? [] : ds.outliers != null ? givenOutliers(ds, window) : ownOutliers(ds, input.window, T0);
+    const own = !support
+      ? []
+      : ds.outliers != null
+        ? givenOutliers(ds, window)
+        : support.outlierFree
+          ? []
+          : ownOutliers(ds, input.window, T0);
     if (own.length > 0) {
       input.skip = new Set(own);
       support = summariseDataset(input, T0);

@@ -17,6 +17,7 @@ import {
 import { t95 } from "@/lib/kinetics/distributions";
 import { buildRows, fitModel, leaveOneOutFits, symmetricEigen } from "@/lib/kinetics/consensus-fit";
 import { ownCovariance, summariseDataset, Z95 } from "@/lib/kinetics/consensus-support";
+import { analyseOutliers } from "@/lib/kinetics/analyse-dataset";
 import reference from "@/tests/fixtures/meta-analysis-dl-statsmodels.json";
 
 /** Reproducible standard normal deviates (Park–Miller + Box–Muller). */
@@ -890,6 +891,44 @@ describe("consensus: outliers taken from a dataset's stored analysis", () => {
       /Dataset m1: outliers\[0\] must be the zero-based index of one of its 8 points \(got 8\)/,
     );
     expect(() => consensus([{ ...m1, outliers: [1.5] }, ...others])).toThrow(AnalysisError);
+  });
+
+  /**
+   * Without stored outliers, a dataset's own outlier test is skipped only when the summary's fits
+   * show it cannot find one (every point inside the bound of both fits with a margin). Many
+   * invented datasets — straight and curved, weighted, unweighted and partly weighted, some with a
+   * planted gross point — are screened and analysed: whenever the screen passes, the analysis
+   * finds no outlier; and it passes on most clean sets (otherwise it would save nothing).
+   */
+  it("skips a dataset's own outlier test only when that test would find nothing", () => {
+    let passed = 0;
+    let clean = 0;
+    for (let seed = 1; seed <= 400; seed++) {
+      const normal = makeNormal(mixSeed(seed));
+      const n = [6, 7, 9, 15, 40, 200][seed % 6];
+      const planted = seed % 4 === 0;
+      const set = makeSet("s", normal, {
+        n,
+        T1: 200 + (seed % 7) * 30,
+        T2: 400 + (seed % 5) * 300,
+        sd: 0.05,
+        sigma: seed % 3 === 0 ? 0.05 : undefined,
+        truth: seed % 2 === 0 ? TRUE : { A: 3.0e-13, n: 2.5, Ea: 8000, T0: 298.15 },
+      });
+      if (seed % 3 === 1) set.points = set.points.map((p, i) => (i % 2 === 0 ? { ...p, sigmaLnK: 0.05 } : p));
+      if (planted)
+        set.points = set.points.map((p, i) =>
+          i === seed % n ? { ...p, k: p.k * Math.exp((seed % 8 < 4 ? 1 : -1) * (0.15 + (seed % 5) * 0.1)) } : p,
+        );
+      const s = summariseDataset({ id: "s", points: set.points, window: { Tmin: 0, Tmax: Infinity }, skip: null, screen: true }, 298.15)!;
+      const found = analyseOutliers({ points: set.points, order: 2 });
+      if (s.outlierFree) {
+        passed++;
+        expect(found, `seed ${seed}`).toEqual([]);
+      }
+      if (!planted && found.length === 0) clean++;
+    }
+    expect(passed).toBeGreaterThan(0.7 * clean);
   });
 });
 
