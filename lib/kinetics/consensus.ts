@@ -420,7 +420,8 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
   const rows = buildRows(supports, T0);
   // The support values and covariance of the fits that judge each dataset (modified when determined).
   let judged: Rows | null = null;
-  const judgedRows = () => (judged ??= buildRows(supports.map(judgedSupport), T0));
+  // When every dataset is judged by the fit that summarises it, those rows are the consensus' own.
+  const judgedRows = () => (judged ??= supports.every((s) => !s || s.judge === s.fit) ? rows : buildRows(supports.map(judgedSupport), T0));
   const unitSuspect: (string | null)[] = new Array(J).fill(null);
   const setAside: boolean[] = new Array(J).fill(false);
 
@@ -429,7 +430,8 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
   for (;;) {
     const included = range(J).filter((j) => leftOut[j] === null);
     fits = fitAll(rows, supports, included);
-    others = leaveOneOut(rows, supports, included, fits, judgedRows);
+    const kept: KeptFits = { mod: null };
+    others = leaveOneOut(rows, supports, included, fits, judgedRows, kept);
     // While datasets may still leave, only where each one is off is needed: the slope and
     // changing-factor tests and who carries the others are read once, when the subset is settled.
     const readings = range(J).map((j) => quickReading(rows, supports, others[j], j));
@@ -451,7 +453,12 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     // the one furthest off; the rest are fitted and judged again, until none is off or two remain.
     if (included.length <= MIN_CONSISTENT_SUBSET || setAside.filter(Boolean).length >= MAX_SET_ASIDE) break;
     if (!included.some((j) => readings[j]?.off)) break;
-    const far = leastConsistent(included, others, readings, corroboratedExcess(judgedRows, supports, included));
+    const far = leastConsistent(
+      included,
+      others,
+      readings,
+      corroboratedExcess(judgedRows, supports, included, judgedRows() === rows && fits.mod ? { full: fits.mod, loo: kept.mod } : null),
+    );
     if (far < 0) break;
     setAside[far] = true;
     leftOut[far] = SET_ASIDE_REASON;
@@ -721,13 +728,15 @@ function corroboratedExcess(
   judgedRows: () => Rows,
   supports: readonly (DatasetSupport | null)[],
   included: readonly number[],
+  same: { full: ModelFit; loo: (ModelFit | null)[] | null } | null,
 ): Map<number, number> | null {
   if (included.length < 3 || !supportsJudgedModified(supports, included)) return null;
   const jr = judgedRows();
-  const full = fitModel(jr, included, 3);
+  // On the consensus' own rows these fits are the ones the leave-one-out step made already.
+  const full = same ? same.full : fitModel(jr, included, 3);
   if (!curvedFit(full)) return null;
   const sign = Math.sign(full!.beta[2]);
-  const loo = leaveOneOutFits(jr, included, 3, full, included.length <= EXACT_LEAVE_ONE_OUT_LIMIT);
+  const loo = same?.loo ?? leaveOneOutFits(jr, included, 3, full, included.length <= EXACT_LEAVE_ONE_OUT_LIMIT);
   const out = new Map<number, number>();
   for (let i = 0; i < included.length; i++) {
     const f = loo[i];
@@ -767,6 +776,11 @@ function judgedSupport(s: DatasetSupport | null): DatasetSupport | null {
   return { ...s, lnk, cov };
 }
 
+/** Fits of the leave-one-out step kept for the set-aside score: the modified fit without each included dataset. */
+interface KeptFits {
+  mod: (ModelFit | null)[] | null;
+}
+
 /** The consensus of the others for every dataset (the full consensus for a dataset left out). */
 function leaveOneOut(
   rows: Rows,
@@ -774,6 +788,7 @@ function leaveOneOut(
   included: number[],
   fits: Fits,
   judgedRows: () => Rows,
+  kept: KeptFits,
 ): (Others | null)[] {
   const J = supports.length;
   const out: (Others | null)[] = new Array(J).fill(null);
@@ -791,6 +806,7 @@ function leaveOneOut(
   const exact = included.length <= EXACT_LEAVE_ONE_OUT_LIMIT;
   const arr = leaveOneOutFits(rows, included, 2, fits.arr, exact);
   const mod = fits.mod ? leaveOneOutFits(rows, included, 3, fits.mod, exact) : null;
+  kept.mod = mod;
   // Others' hull from prefix and suffix minima and maxima.
   const m = included.length;
   const preMin = new Array<number>(m + 1).fill(Infinity);
