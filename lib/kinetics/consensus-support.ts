@@ -29,9 +29,9 @@
  *   dataset's own Student-t 95 % band; with no spare points (dof = 0) the pooled residual
  *   variance of the other such datasets (its dof in the t factor), or 10 % per point if none.
  */
-import { ALPHA, MIN_POINTS_FOR_DIAGNOSTICS } from "./analyse-dataset";
+import { ALPHA, MIN_DOF_FOR_OUTLIER_TEST, MIN_POINTS_FOR_DIAGNOSTICS } from "./analyse-dataset";
 import { GAS_CONSTANT } from "./constants";
-import { survivalF, t95 } from "./distributions";
+import { bonferroniStudentT, survivalF, t95 } from "./distributions";
 import { checkPoints } from "./validate-points";
 
 export type OwnModel = "arrhenius" | "modified_arrhenius" | "single_temperature";
@@ -103,6 +103,11 @@ export interface DatasetSupport {
   dof: number;
   /** RSS of the own fit (unweighted fits, for pooling). */
   rss: number;
+  /**
+   * Its own analysis cannot find an outlier among these points (see {@link SupportInput.screen}):
+   * true only when that is certain; false when not asked or not certain.
+   */
+  outlierFree: boolean;
 }
 
 // Scratch per point, reused across datasets (the computation is synchronous and not re-entered).
@@ -127,6 +132,11 @@ export interface SupportInput {
   window: { Tmin: number; Tmax: number };
   /** Indices of points left out of the summary (outliers of the dataset's own fit); still checked. */
   skip?: ReadonlySet<number> | null;
+  /**
+   * Whether to tell, from the fits the summary has at hand, that the dataset's own outlier test
+   * (analyseOutliers on the same points) would find nothing, so it need not run: see outlierFree.
+   */
+  screen?: boolean;
 }
 
 /**
@@ -414,9 +424,103 @@ export function summariseDataset(input: SupportInput, T0: number): DatasetSuppor
     statedScale,
     dof,
     rss,
+    outlierFree:
+      input.screen === true &&
+      skip === null &&
+      distinctT >= 3 &&
+      !oneT &&
+      (weighted || withSigma === 0) &&
+      r11 > MODIFIED_RANK_TOLERANCE * Math.sqrt(nL) &&
+      noOutlierPossible(n, { mE, mL, mY, S, rssFloor, r00, r01, r02, r11, r12, r22 }),
   };
   fillSupportValues(support);
   return support;
+}
+
+/** Margin by which every point must stay inside the outlier bound for the screen to pass. */
+const SCREEN_MARGIN = 1e-6;
+const screenBounds = new Map<number, number>();
+
+/** The outlier test's bound t_{1−α/(2n), dof−1}, squared (the test of analyse-dataset.ts). */
+function outlierBound2(n: number, dof: number): number {
+  const key = n * 8 + (n - dof);
+  let b = screenBounds.get(key);
+  if (b === undefined) {
+    b = bonferroniStudentT(ALPHA, n, dof - 1) ** 2;
+    if (screenBounds.size > 4096) screenBounds.clear();
+    screenBounds.set(key, b);
+  }
+  return b;
+}
+
+/**
+ * Whether no point of the dataset (in the scratch buffers, as summarised) can be an outlier of its
+ * own analysis, whichever of its two fits that analysis judges on. The analysis flags point i when
+ * its externally studentized residual exceeds the Bonferroni bound b (with n − p − 1 ≥ 3 residual
+ * dof left): t² = (dof − 1)·u/(RSS − u) > b² with u = eᵢ²/(1 − hᵢ), that is u > b²·RSS/(dof − 1 + b²);
+ * u comes from the whitened residual and leverage of the same least-squares fit read from R, with no
+ * cancellation. Certain only with a margin of 1e-6 on u, residuals far above rounding (RSS > 1e6 ×
+ * the rounding floor) and leverages below 0.99; anything else says "not certain", and the analysis runs.
+ */
+function noOutlierPossible(
+  n: number,
+  r: {
+    mE: number;
+    mL: number;
+    mY: number;
+    S: number;
+    rssFloor: number;
+    r00: number;
+    r01: number;
+    r02: number;
+    r11: number;
+    r12: number;
+    r22: number;
+  },
+): boolean {
+  const { mE, mL, mY, S, r00, r01, r02, r11, r12, r22 } = r;
+  const testA = n >= 2 + 1 + MIN_DOF_FOR_OUTLIER_TEST;
+  const testM = n >= 3 + 1 + MIN_DOF_FOR_OUTLIER_TEST;
+  if (!testA) return true;
+  const rssA = r12 * r12 + r22 * r22;
+  const rssM = r22 * r22;
+  const floor = 1e6 * r.rssFloor;
+  if (!(rssA > floor) || (testM && !(rssM > floor))) return false;
+  const bA2 = outlierBound2(n, n - 2);
+  const limA = (1 - SCREEN_MARGIN) * ((bA2 * rssA) / (n - 3 + bA2));
+  const bM2 = testM ? outlierBound2(n, n - 3) : 0;
+  const limM = testM ? (1 - SCREEN_MARGIN) * ((bM2 * rssM) / (n - 4 + bM2)) : Infinity;
+  // Arrhenius: ln k = ȳ + aE·dE; modified: ȳ + cE·dE + cL·dL (centred columns; the mean is uncorrelated with them).
+  const aE = r02 / r00;
+  const gA = 1 / (r00 * r00);
+  const cL = r12 / r11;
+  const cE = (r02 - r01 * cL) / r00;
+  const i00 = 1 / r00;
+  const i01 = -r01 / (r00 * r11);
+  const i11 = 1 / r11;
+  const g00 = i00 * i00 + i01 * i01;
+  const g01 = i01 * i11;
+  const g11 = i11 * i11;
+  const invS = 1 / S;
+  const xEs = sxE;
+  const xLs = sxL;
+  const ys = sy;
+  const sws = ssw;
+  for (let i = 0; i < n; i++) {
+    const sw = sws[i];
+    const w = sw * sw;
+    const dE = xEs[i] - mE;
+    const dL = xLs[i] - mL;
+    const dy = ys[i] - mY;
+    const hA = w * (invS + dE * dE * gA);
+    const eA = sw * (dy - aE * dE);
+    const hM = w * (invS + dE * dE * g00 + 2 * dE * dL * g01 + dL * dL * g11);
+    const eM = sw * (dy - cE * dE - cL * dL);
+    if (!(hA < 0.99 && hM < 0.99)) return false;
+    if (!(eA * eA < limA * (1 - hA))) return false;
+    if (testM && !(eM * eM < limM * (1 - hM))) return false;
+  }
+  return true;
 }
 
 /** One more support value for every factor SUPPORT_STEP in Tmax/Tmin, between MIN_SUPPORT and MAX_SUPPORT. */

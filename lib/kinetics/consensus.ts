@@ -37,8 +37,10 @@
  *
  * Largest consistent subset (Cox 2007, Metrologia 44:187): while a dataset is off the consensus of
  * the others and more than two remain, the dataset whose removal leaves the smallest excess Q − dof of
- * the others' fixed-effect Arrhenius fit is set aside (near-ties: the one furthest off; at most 3;
- * compared with, not used for, the curve) and everything is refitted.
+ * the others' fixed-effect fit is set aside (near-ties: the one furthest off; at most 3; compared
+ * with, not used for, the curve) and everything is refitted. Every removal is scored in one model:
+ * modified Arrhenius on the judging fits' values when the datasets show a curvature that rests on
+ * none of them alone (see {@link corroboratedExcess}), else the others' Arrhenius fit.
  *
  * unit_suspect: the mean log10 ratio within 0.15 of a unit-mistake factor for the order m
  * (N_A^(m−1), 10^(3(m−1)), 10^(6(m−1)), (N_A/10³)^(m−1), (N_A/10⁶)^(m−1)); such a dataset is
@@ -305,6 +307,8 @@ export const OFF_CONSENSUS_ALPHA = 0.05;
 export const MODIFIED_MIN_SPAN = 1.5;
 /** Up to this many included datasets every leave-one-out fit is redone at its own τ². */
 export const EXACT_LEAVE_ONE_OUT_LIMIT = 400;
+/** One-sided 95 % standard normal quantile z_{0.95}: the others' curvature in the same direction. */
+const Z95_ONE_SIDED = 1.6448536269514722;
 /** Share above which the others' consensus is said to rest on one dataset. */
 const DOMINANT_SHARE = 2 / 3;
 const BAND_POINTS = 50;
@@ -326,13 +330,14 @@ interface Others {
   Tmax: number;
   /**
    * Excess Q − dof of the others' fixed-effect Arrhenius fit: every subset has one, so removals are
-   * compared in one model with the same number of coefficients (null for a dataset not in the consensus).
+   * compared in one model with the same number of coefficients (null for a dataset not in the consensus);
+   * the set-aside score unless the datasets' curvature is corroborated ({@link corroboratedExcess}).
    */
   restExcess: number | null;
   /**
    * Rows the fit was made on when they are not the consensus' own: the others' support values with
    * the covariance of the fits that judge them (the modified fit's when determined), used when the
-   * dataset compared is the only one that carries curvature (see {@link leaveOneOut}).
+   * dataset compared is curved and the others' consensus is straight (see {@link leaveOneOut}).
    */
   rows?: Rows;
 }
@@ -380,11 +385,19 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       points: ds.points,
       window: { Tmin: window.Tmin ?? 0, Tmax: window.Tmax ?? Infinity },
       skip: null,
+      // Without stored outliers the dataset's own outlier test runs unless its fits show it cannot find one.
+      screen: ds.outliers == null,
     };
     let support = summariseDataset(input, T0);
     // One pass: the outliers of the dataset's own fit are left out of its summary, and it is summarised again.
     // The dataset's own analysis judges outliers on the model it prefers, so a curved dataset's ends are not outliers.
-    const own = !support ? [] : ds.outliers != null ? givenOutliers(ds, window) : ownOutliers(ds, input.window, T0);
+    const own = !support
+      ? []
+      : ds.outliers != null
+        ? givenOutliers(ds, window)
+        : support.outlierFree
+          ? []
+          : ownOutliers(ds, input.window, T0);
     if (own.length > 0) {
       input.skip = new Set(own);
       support = summariseDataset(input, T0);
@@ -405,6 +418,10 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     throw new AnalysisError("invalid_input", "Every dataset is left out of the consensus; at least one must be in it.");
   }
   const rows = buildRows(supports, T0);
+  // The support values and covariance of the fits that judge each dataset (modified when determined).
+  let judged: Rows | null = null;
+  // When every dataset is judged by the fit that summarises it, those rows are the consensus' own.
+  const judgedRows = () => (judged ??= supports.every((s) => !s || s.judge === s.fit) ? rows : buildRows(supports.map(judgedSupport), T0));
   const unitSuspect: (string | null)[] = new Array(J).fill(null);
   const setAside: boolean[] = new Array(J).fill(false);
 
@@ -413,7 +430,8 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
   for (;;) {
     const included = range(J).filter((j) => leftOut[j] === null);
     fits = fitAll(rows, supports, included);
-    others = leaveOneOut(rows, supports, included, fits);
+    const kept: KeptFits = { mod: null };
+    others = leaveOneOut(rows, supports, included, fits, judgedRows, kept);
     // While datasets may still leave, only where each one is off is needed: the slope and
     // changing-factor tests and who carries the others are read once, when the subset is settled.
     const readings = range(J).map((j) => quickReading(rows, supports, others[j], j));
@@ -431,11 +449,16 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     }
     // Largest consistent subset (Cox 2007, Metrologia 44:187): while some dataset is off the
     // consensus of the others, the dataset whose removal leaves the most consistent rest (the
-    // smallest excess Q − dof of the others' generalised χ², Arrhenius fit) leaves the curve, near-ties going to
+    // smallest excess Q − dof of the others' generalised χ², in the model of corroboratedExcess) leaves the curve, near-ties going to
     // the one furthest off; the rest are fitted and judged again, until none is off or two remain.
     if (included.length <= MIN_CONSISTENT_SUBSET || setAside.filter(Boolean).length >= MAX_SET_ASIDE) break;
     if (!included.some((j) => readings[j]?.off)) break;
-    const far = leastConsistent(included, others, readings);
+    const far = leastConsistent(
+      included,
+      others,
+      readings,
+      corroboratedExcess(judgedRows, supports, included, judgedRows() === rows && fits.mod ? { full: fits.mod, loo: kept.mod } : null),
+    );
     if (far < 0) break;
     setAside[far] = true;
     leftOut[far] = SET_ASIDE_REASON;
@@ -523,7 +546,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     curveFrom: included.map((j) => datasets[j].id),
     range: covered,
     method:
-      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and while one is off, the one whose removal leaves the others most consistent (smallest Q − dof) is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain; bands and f(T) at 95 % including τ².",
+      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and while one is off, the one whose removal leaves the others most consistent (smallest Q − dof, modified Arrhenius when a curvature rests on no one dataset, else Arrhenius) is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain; bands and f(T) at 95 % including τ².",
     arrhenius: { ...buildArrhenius(rows, fits.arr, covered, coverage), supportValues: values },
     modifiedArrhenius: fits.mod ? { ...buildModified(rows, fits.mod, covered, coverage, T0), supportValues: values } : null,
     preferred: fits.preferred.q === 3 ? "modified_arrhenius" : "arrhenius",
@@ -659,15 +682,17 @@ const SUBSET_Q_TIE = 1e-6;
 
 /**
  * The dataset to set aside: the one whose removal leaves the smallest excess Q − dof of the
- * others' fixed-effect Arrhenius fit (Cox 2007 chooses by the consistency of what remains); among near-ties,
- * the one furthest off by its largest |z| over its Bonferroni bound.
+ * others' fixed-effect fit (Cox 2007 chooses by the consistency of what remains) — the modified fit on
+ * the judging fits' values when curved (the excess by dataset from {@link corroboratedExcess}), else
+ * the Arrhenius fit; among near-ties, the one furthest off by its largest |z| over its Bonferroni bound.
  */
 function leastConsistent(
   included: readonly number[],
   others: readonly (Others | null)[],
   readings: readonly (QuickReading | null)[],
+  curved: Map<number, number> | null,
 ): number {
-  const excess = (j: number) => others[j]?.restExcess ?? Infinity;
+  const excess = (j: number) => (curved ? (curved.get(j) ?? Infinity) : (others[j]?.restExcess ?? Infinity));
   const far = (j: number) => readings[j]?.far ?? 0;
   let best = -1;
   for (const j of included) {
@@ -679,6 +704,60 @@ function leastConsistent(
     if (dq < -SUBSET_Q_TIE || (Math.abs(dq) <= SUBSET_Q_TIE && far(j) > far(best))) best = j;
   }
   return best;
+}
+
+/** Whether a modified fit's temperature exponent differs from zero: |n| > z_{0.975}·se(n), as {@link prefer}. */
+function curvedFit(fit: ModelFit | null): boolean {
+  if (!fit) return false;
+  const se = Math.sqrt(fit.cov[2 * 3 + 2]);
+  return se > 0 && Math.abs(fit.beta[2] / se) > Z95;
+}
+
+/**
+ * The set-aside score when the included datasets agree on a curvature that rests on none of them
+ * alone: on the support values of the fits that judge them (the modified fit's values and
+ * covariance whenever determined, so straight summaries still say what they know of the shape),
+ * the modified consensus of all of them is curved (|n| > z_{0.975}·se(n)), and so is the modified
+ * consensus without each one in turn, with the same sign. Then every removal is scored in that
+ * one model: the excess Q₋ⱼ − dof₋ⱼ of the others' fixed-effect modified fit on those values (by
+ * dataset index). Otherwise null, and removals are scored by the others' Arrhenius fit: a curvature
+ * only one dataset shows is that dataset's claim, and the straight model is the one every subset
+ * shares.
+ */
+function corroboratedExcess(
+  judgedRows: () => Rows,
+  supports: readonly (DatasetSupport | null)[],
+  included: readonly number[],
+  same: { full: ModelFit; loo: (ModelFit | null)[] | null } | null,
+): Map<number, number> | null {
+  if (included.length < 3 || !supportsJudgedModified(supports, included)) return null;
+  const jr = judgedRows();
+  // On the consensus' own rows these fits are the ones the leave-one-out step made already.
+  const full = same ? same.full : fitModel(jr, included, 3);
+  if (!curvedFit(full)) return null;
+  const sign = Math.sign(full!.beta[2]);
+  const loo = same?.loo ?? leaveOneOutFits(jr, included, 3, full, included.length <= EXACT_LEAVE_ONE_OUT_LIMIT);
+  const out = new Map<number, number>();
+  for (let i = 0; i < included.length; i++) {
+    const f = loo[i];
+    // Still curved the same way without it (one-sided: the others show it too, in that direction).
+    if (!f || !(sign * f.beta[2] > Z95_ONE_SIDED * Math.sqrt(f.cov[2 * 3 + 2]))) return null;
+    out.set(included[i], f.Q - f.df);
+  }
+  return out;
+}
+
+/** Support temperatures of the given datasets allow a modified fit, and each of them is judged by its modified fit. */
+function supportsJudgedModified(supports: readonly (DatasetSupport | null)[], blocks: readonly number[]): boolean {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const j of blocks) {
+    const s = supports[j]!;
+    if (!s.judge.gModified) return false;
+    lo = Math.min(lo, s.Tmin);
+    hi = Math.max(hi, s.Tmax);
+  }
+  return hi / lo >= MODIFIED_MIN_SPAN;
 }
 
 /** A dataset's support values and covariance from the fit that judges it (the modified fit's when determined). */
@@ -697,8 +776,20 @@ function judgedSupport(s: DatasetSupport | null): DatasetSupport | null {
   return { ...s, lnk, cov };
 }
 
+/** Fits of the leave-one-out step kept for the set-aside score: the modified fit without each included dataset. */
+interface KeptFits {
+  mod: (ModelFit | null)[] | null;
+}
+
 /** The consensus of the others for every dataset (the full consensus for a dataset left out). */
-function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], included: number[], fits: Fits): (Others | null)[] {
+function leaveOneOut(
+  rows: Rows,
+  supports: readonly (DatasetSupport | null)[],
+  included: number[],
+  fits: Fits,
+  judgedRows: () => Rows,
+  kept: KeptFits,
+): (Others | null)[] {
   const J = supports.length;
   const out: (Others | null)[] = new Array(J).fill(null);
   const hull = (blocks: number[]) => ({
@@ -715,6 +806,7 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
   const exact = included.length <= EXACT_LEAVE_ONE_OUT_LIMIT;
   const arr = leaveOneOutFits(rows, included, 2, fits.arr, exact);
   const mod = fits.mod ? leaveOneOutFits(rows, included, 3, fits.mod, exact) : null;
+  kept.mod = mod;
   // Others' hull from prefix and suffix minima and maxima.
   const m = included.length;
   const preMin = new Array<number>(m + 1).fill(Infinity);
@@ -737,7 +829,6 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
   // A typed array sorts numerically (temperatures are positive, never NaN).
   const sortedTemps = Float64Array.from(tempCount.keys()).sort();
   const curved = included.filter((j) => carriesCurvature(supports[j])).length;
-  let judgedRows: Rows | null = null;
   for (let i = 0; i < m; i++) {
     const j = included[i];
     const a = arr[i];
@@ -756,18 +847,21 @@ function leaveOneOut(rows: Rows, supports: readonly (DatasetSupport | null)[], i
     const fit = prefer(a, modOk ? mod[i] : null);
     const hull = { Tmin: Math.min(preMin[i], sufMin[i + 1]), Tmax: Math.max(preMax[i], sufMax[i + 1]) };
     const restExcess = a.Q - a.df;
-    if (shaped && !othersCurved && carriesCurvature(supports[j])) {
-      // The dataset compared is the only curved one: the others' straight summaries do not say their
-      // curve is straight, only that none of them alone could tell. Their modified consensus on the
-      // covariance of the fits that judge them (the modified fit's) says what they know of its shape.
-      judgedRows ??= buildRows(supports.map(judgedSupport), rows.T0);
+    if (shaped && carriesCurvature(supports[j]) && (!othersCurved || fit.q === 2)) {
+      // The dataset compared is curved and the others' consensus is straight. Their straight
+      // summaries do not say their curve is straight, only that none of them alone could tell; their
+      // modified consensus on the covariance of the fits that judge them (the modified fit's) says
+      // what they know of its shape. It is used when the dataset is the only curved one, and when
+      // others are curved too but their consensus prefers a line, only where that modified consensus
+      // shows the curvature (|n| > z_{0.975}·se(n)): then the line is not what the others say.
+      const jr = judgedRows();
       const curve = fitModel(
-        judgedRows,
+        jr,
         included.filter((k) => k !== j),
         3,
       );
-      if (curve) {
-        out[j] = { fit: curve, blocks: included, skip: j, count: m - 1, ...hull, restExcess, rows: judgedRows };
+      if (curve && (!othersCurved || curvedFit(curve))) {
+        out[j] = { fit: curve, blocks: included, skip: j, count: m - 1, ...hull, restExcess, rows: jr };
         continue;
       }
     }
