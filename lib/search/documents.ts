@@ -236,9 +236,42 @@ export async function buildSearchDocument(
   await recordSearchChange(tx, versionId);
   if (!v) return;
   await refreshLatest(tx, [v.datasetId]);
-  if (!summaries) return;
+  if (!summaries) {
+    if (v.reactionId !== null) await writeSpeciesDisplayNames(tx, { reactionIds: [v.reactionId] });
+    return;
+  }
   const affected = new Set([...reactionsBefore.map((r) => r.reactionId), ...(v.reactionId !== null ? [v.reactionId] : [])]);
+  await writeSpeciesDisplayNames(tx, { reactionIds: [...affected] });
   await writeReactionSummaries(tx, [...affected]);
+}
+
+/**
+ * Rewrites the display name (db/search.ts speciesDisplayNames) of the species of these reactions,
+ * or of every species: the name their public versions give them most often, ties broken by the
+ * lower-case then the exact spelling (drizzle/0024 backfills by the same rule); a species no
+ * public version names loses its row and is shown by its formula.
+ */
+export async function writeSpeciesDisplayNames(tx: Transaction, of: { reactionIds: readonly number[] } | "all"): Promise<void> {
+  if (of !== "all" && !of.reactionIds.length) return;
+  const ids =
+    of === "all"
+      ? sql`(select id from species)`
+      : sql`(select species_id from reaction_participants where reaction_id = any(${idArray(of.reactionIds)}::int[]))`;
+  await tx.execute(sql`
+    with named as (
+      select distinct on (sid) sid, name from (
+        select (e->>'speciesId')::int as sid, e->>'name' as name, count(*) as uses
+        from dataset_versions v, jsonb_array_elements(v.participant_names) e
+        where v.state in ('published', 'retracted') and coalesce(e->>'name', '') <> ''
+          ${of === "all" ? sql`` : sql`and v.reaction_id in (select reaction_id from reaction_participants where species_id in ${ids})`}
+        group by 1, 2) x
+      where sid in ${ids}
+      order by sid, uses desc, lower(name), name
+    ), gone as (
+      delete from species_display_names d where d.species_id in ${ids} and not exists (select 1 from named where named.sid = d.species_id)
+    )
+    insert into species_display_names (species_id, name) select sid, name from named
+    on conflict (species_id) do update set name = excluded.name where species_display_names.name is distinct from excluded.name`);
 }
 
 /** Marks the newest public version of each dataset as its listed document, every older one not. */
@@ -450,6 +483,7 @@ export async function rebuildSearchDocuments({
     });
     onProgress?.(Math.min(i + BATCH, ids.length), ids.length);
   }
+  await db.transaction((tx) => writeSpeciesDisplayNames(tx, "all"));
   const reactionIds = (
     await db.execute<{ id: number }>(sql`
       select reaction_id as id from search_documents union select reaction_id from search_reaction_summaries order by 1`)

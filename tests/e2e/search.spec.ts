@@ -127,11 +127,13 @@ test("the header box offers species and reactions, chosen by keyboard alone", as
   await expect(box).toHaveAttribute("aria-expanded", "false");
   await expect(box).toHaveValue("meth");
 
+  // Enter on a species suggestion opens the species page (the first ones are species).
   await page.keyboard.press("ArrowDown");
   await expect(options.first()).toHaveAttribute("aria-selected", "true");
+  const label = (await options.first().locator("span").first().innerText()).split(" — ")[0];
   await page.keyboard.press("Enter");
-  await expect(page).toHaveURL(/\/search\?q=/);
-  expect(await foundCount(page)).toBeGreaterThan(0);
+  await expect(page).toHaveURL(/\/species\/[A-Z]{14}-[A-Z]{10}-[A-Z]$/);
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(label);
 
   // Enter with no suggestion chosen searches for the text as typed.
   await box.fill("flash photolysis");

@@ -1,4 +1,6 @@
 import { versionPath } from "@/lib/identifiers/paths";
+import { getReactionCached } from "@/lib/reactions/cached";
+import { reactionPath } from "@/lib/reactions/paths";
 import type { Metadata } from "next";
 import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
 import Link from "next/link";
@@ -70,6 +72,8 @@ export default async function DatasetVersionPage({
   ]);
   if (!loaded) notFound();
   const { version, doc, analysis: result, rows } = loaded;
+  // Linked by its key (the numeric id is only an alias that redirects there).
+  const reaction = version.reactionId ? await getReactionCached({ id: version.reactionId }) : null;
   const units = unitsFromQuery(doc.reaction.order, query);
   // listPublicVersions is newest first.
   const newest = versions[0];
@@ -107,7 +111,7 @@ export default async function DatasetVersionPage({
         <p className="flex flex-wrap items-center gap-3 text-sm text-muted">
           <StateLabel state={version.state} /> <span>Version {version.number}</span>
           {version.publishedAt && <span>published {day(version.publishedAt)}</span>}
-          {version.reactionId && <Link href={`/reactions/${version.reactionId}`}>All datasets of this reaction</Link>}
+          {reaction && <Link href={reactionPath(reaction.key)}>All datasets of this reaction</Link>}
           {mayReadAudit && <Link href={auditTrailPath(datasetId)}>Audit trail</Link>}
         </p>
         <h1 className="text-3xl font-semibold">{version.title}</h1>
