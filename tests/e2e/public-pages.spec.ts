@@ -90,9 +90,19 @@ test("class browse → class page → reaction", async ({ page }) => {
   await expect(page.getByRole("link", { name: "H-atom abstraction" })).toBeVisible();
 });
 
-test("sitemap.xml lists reactions by key, species, classes and versions; robots.txt points to it", async ({ page, request }) => {
+test("sitemap.xml indexes files listing reactions by key, species, classes and versions; robots.txt points to it", async ({ page, request }) => {
   const path = await firstReactionPath(page);
-  const xml = await (await request.get("/sitemap.xml")).text();
+  const index = await (await request.get("/sitemap.xml")).text();
+  expect(index).toContain("<sitemapindex");
+  const files = [...index.matchAll(/<loc>[^<]*?(\/sitemaps\/sitemap\/\d+\.xml)<\/loc>/g)].map((m) => m[1]);
+  expect(files.length).toBeGreaterThan(0);
+  let xml = "";
+  for (const file of files) {
+    const res = await request.get(file);
+    expect(res.status(), file).toBe(200);
+    xml += await res.text();
+  }
+  expect(xml).toContain("<urlset");
   expect(xml).toContain(`${path}</loc>`);
   expect(xml).toMatch(/\/species\/[A-Z]{14}-[A-Z]{10}-[A-Z]<\/loc>/);
   expect(xml).toContain("/classes/hydrogen-abstraction</loc>");
