@@ -44,11 +44,18 @@ export async function listSitemapIds({ pageSize = SITEMAP_PAGE_SIZE }: { pageSiz
 }
 
 /** The addresses of file `id` (empty past the last one). */
-export async function getSitemapPage({ id, pageSize = SITEMAP_PAGE_SIZE }: { id: number; pageSize?: number }): Promise<MetadataRoute.Sitemap> {
+export async function getSitemapPage({
+  id,
+  pageSize = SITEMAP_PAGE_SIZE,
+}: {
+  id: number;
+  pageSize?: number;
+}): Promise<MetadataRoute.Sitemap> {
   return (await listSitemapEntries()).slice(id * pageSize, (id + 1) * pageSize);
 }
 
-const escapeXml = (s: string) => s.replace(/[<>&'"]/g, (c) => ({ "<": "&lt;", ">": "&gt;", "&": "&amp;", "'": "&apos;", '"': "&quot;" })[c]!);
+const escapeXml = (s: string) =>
+  s.replace(/[<>&'"]/g, (c) => ({ "<": "&lt;", ">": "&gt;", "&": "&amp;", "'": "&apos;", '"': "&quot;" })[c]!);
 
 /** The sitemap index (sitemaps.org protocol 0.9) naming every file. */
 export async function renderSitemapIndex({ pageSize = SITEMAP_PAGE_SIZE }: { pageSize?: number } = {}): Promise<string> {

@@ -5,10 +5,11 @@ import { reactionParticipants, reactions, species, speciesNames } from "@/db/che
 import { datasetVersions, versionAnalyses } from "@/db/datasets";
 import { searchDocuments, searchReactionSummaries } from "@/db/search";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
-import { GAS_CONSTANT, type ReactionOrder } from "@/lib/kinetics";
+import type { ReactionOrder } from "@/lib/kinetics";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { DEFAULT_CONSENSUS_CHOICE } from "@/lib/reactions/consensus-selection";
 import type { ReactionHit, SearchFlag } from "./types";
+import { datasetSpread, preferredFitOf } from "./spread";
 import { recordSearchChange } from "@/lib/search/outbox";
 
 /**
@@ -360,23 +361,6 @@ function documentRow(v: {
   };
 }
 
-/**
- * Spread of a reaction's datasets: largest over smallest k of their own Arrhenius fits at the
- * middle, in 1/T, of the range they cover together; null with fewer than two fits of one unit.
- */
-export function datasetSpread(
-  fits: { a: number | null; ea: number | null; aUnit: string | null; tMin: number; tMax: number }[],
-): number | null {
-  const usable = fits.filter((f) => f.a !== null && f.ea !== null && f.a > 0 && f.aUnit === fits[0]?.aUnit);
-  if (usable.length < 2) return null;
-  const tMin = Math.min(...usable.map((f) => f.tMin));
-  const tMax = Math.max(...usable.map((f) => f.tMax));
-  const tMid = 2 / (1 / tMin + 1 / tMax);
-  const lnk = usable.map((f) => Math.log(f.a!) - f.ea! / (GAS_CONSTANT * tMid));
-  const factor = Math.exp(Math.max(...lnk) - Math.min(...lnk));
-  return Number.isFinite(factor) ? factor : null;
-}
-
 /** Rewrites the reactions view's summary of one reaction: the consensus over the reader's default choice and the spread. */
 export async function writeReactionSummary(tx: Transaction, reactionId: number): Promise<void> {
   await writeReactionSummaries(tx, [reactionId]);
@@ -389,11 +373,11 @@ export async function writeReactionSummary(tx: Transaction, reactionId: number):
  */
 export async function writeReactionSummaries(tx: Transaction, reactionIds: readonly number[]): Promise<void> {
   if (!reactionIds.length) return;
+  // Retracted versions are listed (and marked) but are no evidence: neither consensus nor spread counts them.
   const listed = await tx
     .select({
       reactionId: searchDocuments.reactionId,
-      a: searchDocuments.a,
-      ea: searchDocuments.ea,
+      versionId: searchDocuments.versionId,
       aUnit: searchDocuments.aUnit,
       tMin: searchDocuments.tMin,
       tMax: searchDocuments.tMax,
@@ -407,6 +391,20 @@ export async function writeReactionSummaries(tx: Transaction, reactionIds: reado
       ),
     )
     .orderBy(searchDocuments.reactionId, searchDocuments.versionId);
+  const analyses = listed.length
+    ? await tx
+        .selectDistinctOn([versionAnalyses.versionId], {
+          versionId: versionAnalyses.versionId,
+          // Only what preferredFitOf reads (a stored result also holds every residual).
+          result: sql<unknown>`jsonb_build_object('band', jsonb_build_object('model', ${versionAnalyses.result} -> 'band' -> 'model'),
+            'arrhenius', jsonb_build_object('params', ${versionAnalyses.result} -> 'arrhenius' -> 'params'),
+            'modifiedArrhenius', jsonb_build_object('params', ${versionAnalyses.result} -> 'modifiedArrhenius' -> 'params'))`,
+        })
+        .from(versionAnalyses)
+        .where(sql`${versionAnalyses.versionId} = any(${idArray(listed.map((l) => l.versionId))}::int[])`)
+        .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id))
+    : [];
+  const preferredOf = new Map(analyses.map((a) => [a.versionId, preferredFitOf(a.result)]));
   const listedOf = new Map<number, typeof listed>();
   for (const row of listed) listedOf.set(row.reactionId, [...(listedOf.get(row.reactionId) ?? []), row]);
   const empty = reactionIds.filter((id) => !listedOf.has(id));
@@ -417,7 +415,12 @@ export async function writeReactionSummaries(tx: Transaction, reactionIds: reado
     rows.push({
       reactionId,
       consensus: fits.length >= 2 ? await consensusOf(tx, reactionId) : null,
-      spread: datasetSpread(fits),
+      spread: datasetSpread(
+        fits.map((f) => {
+          const own = preferredOf.get(f.versionId);
+          return own ? { ...own, aUnit: f.aUnit, tMin: f.tMin, tMax: f.tMax } : null;
+        }),
+      ),
       updatedAt: new Date(),
     });
   }

@@ -90,7 +90,10 @@ test("class browse → class page → reaction", async ({ page }) => {
   await expect(page.getByRole("link", { name: "H-atom abstraction" })).toBeVisible();
 });
 
-test("sitemap.xml indexes files listing reactions by key, species, classes and versions; robots.txt points to it", async ({ page, request }) => {
+test("sitemap.xml indexes files listing reactions by key, species, classes and versions; robots.txt points to it", async ({
+  page,
+  request,
+}) => {
   const path = await firstReactionPath(page);
   const index = await (await request.get("/sitemap.xml")).text();
   expect(index).toContain("<sitemapindex");

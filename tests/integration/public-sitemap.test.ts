@@ -22,7 +22,9 @@ describe("the sitemap, split into files under an index", () => {
 
   it("the index names every file, and one file holds everything while under 50 000", async () => {
     const xml = await renderSitemapIndex({ pageSize: 7 });
-    expect(xml).toMatch(/^<\?xml version="1.0" encoding="UTF-8"\?>\n<sitemapindex xmlns="http:\/\/www.sitemaps.org\/schemas\/sitemap\/0.9">/);
+    expect(xml).toMatch(
+      /^<\?xml version="1.0" encoding="UTF-8"\?>\n<sitemapindex xmlns="http:\/\/www.sitemaps.org\/schemas\/sitemap\/0.9">/,
+    );
     const locs = [...xml.matchAll(/<loc>([^<]+)<\/loc>/g)].map((m) => m[1]);
     expect(locs.length).toBe((await listSitemapIds({ pageSize: 7 })).length);
     expect(locs.at(-1)).toMatch(new RegExp(`${sitemapFilePath(locs.length - 1).replace(/\./g, "\\.")}$`));

@@ -95,7 +95,9 @@ export default async function SpeciesPage({ params }: { params: Promise<{ inchik
             </p>
             {synonyms.length > 0 && (
               <>
-                <p className="text-sm text-muted">Other names (synonyms) depositors gave it, the most used first; each finds it in search.</p>
+                <p className="text-sm text-muted">
+                  Other names (synonyms) depositors gave it, the most used first; each finds it in search.
+                </p>
                 <ul className="flex flex-wrap gap-2 text-sm" aria-label="Synonyms">
                   {synonyms.map((n) => (
                     <li key={n} className="rounded-md border border-line px-2 py-1">

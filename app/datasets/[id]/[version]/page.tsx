@@ -195,7 +195,7 @@ export default async function DatasetVersionPage({
           Download the points
         </h2>
         <p className="text-sm">
-          Every point as deposited and in canonical units (T in K, k in {loaded.about.canonicalUnits.k}, pressure in Pa), with its
+          Every point as deposited and converted to K, {loaded.about.canonicalUnits.k} and Pa (T, k and pressure), with its
           uncertainty, residual and findings, under a header with the identifier, licence, citation and the caution above.
         </p>
         <ul className="flex flex-wrap gap-3 text-sm">
