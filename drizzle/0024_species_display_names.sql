@@ -4,6 +4,7 @@ CREATE TABLE "species_display_names" (
 );
 --> statement-breakpoint
 ALTER TABLE "species_display_names" ADD CONSTRAINT "species_display_names_species_id_species_id_fk" FOREIGN KEY ("species_id") REFERENCES "public"."species"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
+CREATE INDEX "dataset_versions_participant_names_idx" ON "dataset_versions" USING gin ("participant_names" jsonb_path_ops);--> statement-breakpoint
 -- Backfill: the most used name of each species among public versions (lib/search/documents.ts writeSpeciesDisplayNames states the same rule).
 INSERT INTO "species_display_names" ("species_id", "name")
 SELECT DISTINCT ON (sid) sid, name FROM (

@@ -256,20 +256,28 @@ export async function writeSpeciesDisplayNames(tx: Transaction, of: { reactionId
   if (of !== "all" && !of.reactionIds.length) return;
   const ids =
     of === "all"
-      ? sql`(select id from species)`
-      : sql`(select species_id from reaction_participants where reaction_id = any(${idArray(of.reactionIds)}::int[]))`;
+      ? sql`select id as sid from species`
+      : sql`select distinct species_id as sid from reaction_participants where reaction_id = any(${idArray(of.reactionIds)}::int[])`;
+  // Per species, only the versions that name it (GIN on participant_names, drizzle/0024); one pass over all of them for a full rebuild.
+  const uses =
+    of === "all"
+      ? sql`select (e->>'speciesId')::int as sid, e->>'name' as name, count(*) as uses
+          from dataset_versions v cross join lateral jsonb_array_elements(v.participant_names) e
+          where v.state in ('published', 'retracted') and coalesce(e->>'name', '') <> ''
+            and (e->>'speciesId')::int in (select sid from ids)
+          group by 1, 2`
+      : sql`select ids.sid, e->>'name' as name, count(*) as uses
+          from ids join dataset_versions v on v.participant_names @> jsonb_build_array(jsonb_build_object('speciesId', ids.sid))
+          cross join lateral jsonb_array_elements(v.participant_names) e
+          where v.state in ('published', 'retracted') and (e->>'speciesId')::int = ids.sid and coalesce(e->>'name', '') <> ''
+          group by 1, 2`;
   await tx.execute(sql`
-    with named as (
-      select distinct on (sid) sid, name from (
-        select (e->>'speciesId')::int as sid, e->>'name' as name, count(*) as uses
-        from dataset_versions v, jsonb_array_elements(v.participant_names) e
-        where v.state in ('published', 'retracted') and coalesce(e->>'name', '') <> ''
-          ${of === "all" ? sql`` : sql`and v.reaction_id in (select reaction_id from reaction_participants where species_id in ${ids})`}
-        group by 1, 2) x
-      where sid in ${ids}
+    with ids as (${ids}), named as (
+      select distinct on (sid) sid, name from (${uses}) x
       order by sid, uses desc, lower(name), name
     ), gone as (
-      delete from species_display_names d where d.species_id in ${ids} and not exists (select 1 from named where named.sid = d.species_id)
+      delete from species_display_names d where d.species_id in (select sid from ids)
+        and not exists (select 1 from named where named.sid = d.species_id)
     )
     insert into species_display_names (species_id, name) select sid, name from named
     on conflict (species_id) do update set name = excluded.name where species_display_names.name is distinct from excluded.name`);

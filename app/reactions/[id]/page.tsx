@@ -3,6 +3,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound, permanentRedirect } from "next/navigation";
 import { ConsensusPlot } from "@/components/consensus-plot";
+import { StatisticGlossary } from "@/components/statistic-term";
 import { ConsensusComparisons, ConsensusSummary, comparisonCell } from "@/components/consensus-report";
 import { StateLabel } from "@/components/state-label";
 import { renderSpeciesSvg } from "@/lib/chem";
@@ -193,6 +194,7 @@ export default async function ReactionPage({
           </section>
 
           {result && <ConsensusSummary result={result} kUnitLabel={kLabel} labels={labels} caution={FIT_CAUTION} />}
+          {result && <StatisticGlossary className="card" ids={["consensus", "uncertaintyFactor", "betweenDatasets", "band"]} />}
           {result && <ConsensusComparisons result={result} labels={labels} />}
 
           <WhatWentIn selection={selection} unavailable={unavailable} curatorRows={curatorRows} />

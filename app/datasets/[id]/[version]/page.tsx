@@ -1,5 +1,6 @@
 import { versionPath } from "@/lib/identifiers/paths";
 import { getReactionCached } from "@/lib/reactions/cached";
+import { StatisticGlossary } from "@/components/statistic-term";
 import { reactionPath } from "@/lib/reactions/paths";
 import type { Metadata } from "next";
 import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
@@ -188,6 +189,12 @@ export default async function DatasetVersionPage({
             doc.reportedFit ? { reportedFit: doc.reportedFit, units: doc.units, reaction: { order: doc.reaction.order } } : undefined
           }
         />
+        {result && (
+          <StatisticGlossary
+            className="card"
+            ids={["refit", "band", "standardError", "r2", "dof", "residualSD", "scatterRatio", "sigmaLnK", "residual", "residualInSigma"]}
+          />
+        )}
       </section>
 
       <section className="card space-y-2" aria-labelledby="downloads-heading">
@@ -195,8 +202,8 @@ export default async function DatasetVersionPage({
           Download the points
         </h2>
         <p className="text-sm">
-          Every point as deposited and converted to K, {loaded.about.canonicalUnits.k} and Pa (T, k and pressure), with its
-          uncertainty, residual and findings, under a header with the identifier, licence, citation and the caution above.
+          Every point as deposited and converted to K, {loaded.about.canonicalUnits.k} and Pa (T, k and pressure), with its uncertainty,
+          residual and findings, under a header with the identifier, licence, citation and the caution above.
         </p>
         <ul className="flex flex-wrap gap-3 text-sm">
           <li>
