@@ -52,7 +52,7 @@ export const STATISTIC_WORDS = {
   residual: {
     plain: "Off the fitted line",
     term: "residual, ln k",
-    explain: "ln k of the point minus ln k of the fitted line at its temperature: 0.1 is about 10 % above the line.",
+    explain: "The point's ln k minus the fitted line's ln k at its temperature: 0.1 is about 10 % above the line.",
   },
   residualInSigma: {
     plain: "Off the line, in stated uncertainties",

@@ -172,8 +172,10 @@ export default function ApiDocsPage() {
             <code>q</code>: what to look for, at most {MAX_QUERY_LENGTH} characters (read as below).
           </li>
           <li>
-            <code>view</code>: <code>datasets</code> (default) or <code>reactions</code> (one row per reaction with its datasets, the
-            consensus expression over the reaction page&apos;s default choice and the spread of the datasets&apos; own fits).
+            <code>view</code>: <code>datasets</code> (default) or <code>reactions</code> (one row per reaction: <code>datasetCount</code> of
+            the matching datasets that count as evidence and <code>retractedCount</code> of the retracted ones, found and marked but never
+            in the count, the temperature range <code>tMin</code>–<code>tMax</code> (null when every match is retracted), the consensus
+            expression over the reaction page&apos;s default choice, and the spread of the datasets&apos; own preferred fits).
           </li>
           <li>
             <code>sort</code>: <code>relevance</code> (default; for a species or a reaction pattern, the newest first), <code>newest</code>,{" "}
@@ -217,9 +219,12 @@ export default function ApiDocsPage() {
         <h3 className="font-semibold">GET /api/v1/search/suggest?q=</h3>
         <p className="text-sm">
           For a search box: up to 8 species (by name, synonym or formula prefix, then by similarity for typos) and up to 8 reactions whose
-          equation or species names contain the text, from published data only:{" "}
+          equation or species names contain the text, from published data only, each with its own public dataset count (the same whatever
+          was typed) and named by its display name:{" "}
           <code>
-            {"{ species: [{ inchiKey, name, formula, matched }], reactions: [{ reactionId, reactionKey, equation, datasetCount }] }"}
+            {
+              "{ species: [{ inchiKey, name, formula, matched, datasetCount }], reactions: [{ reactionId, reactionKey, equation, datasetCount }] }"
+            }
           </code>
           .
         </p>
