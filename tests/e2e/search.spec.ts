@@ -135,6 +135,15 @@ test("the header box offers species and reactions, chosen by keyboard alone", as
   await expect(page).toHaveURL(/\/species\/[A-Z]{14}-[A-Z]{10}-[A-Z]$/);
   await expect(page.getByRole("heading", { level: 1 })).toHaveText(label);
 
+  // Enter on a reaction suggestion (they come after the species) opens the reaction page by its key.
+  await box.fill("meth");
+  await expect(options.last()).toBeVisible();
+  await box.press("ArrowUp");
+  await expect(options.last()).toHaveAttribute("aria-selected", "true");
+  await expect(options.last()).toContainText("reaction");
+  await box.press("Enter");
+  await expect(page).toHaveURL(/\/reactions\/[^/?]*[A-Z]{14}-[A-Z]{10}-[A-Z][^/?]*~/);
+
   // Enter with no suggestion chosen searches for the text as typed.
   await box.fill("flash photolysis");
   await box.press("Enter");
