@@ -33,7 +33,8 @@ test("a species by name and by SMILES; narrowed by class and temperature window;
   await box.fill("C");
   await box.press("Enter");
   await expect(page).toHaveURL(/[?&]q=C(&|$)/);
-  await expect(page.getByTestId("understood")).toContainText("CH4");
+  // Named by its display name (the name published datasets use most), as its species page is.
+  await expect(page.getByTestId("understood")).toContainText("(methane)");
   expect(await foundCount(page)).toBe(byName);
 
   // Narrow by the first reaction class offered.
