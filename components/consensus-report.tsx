@@ -2,6 +2,7 @@ import { GAS_CONSTANT, type ConsensusMember, type ConsensusResult } from "@/lib/
 import { factorRoundsToOne, factorSize } from "@/lib/kinetics/consensus-words";
 import { formatFixed, formatRange, formatSignificant, formatTenTo } from "@/lib/format";
 import { ScrollRegion } from "./scroll-region";
+import { StatisticTerm } from "@/components/statistic-term";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
@@ -68,8 +69,9 @@ export function ConsensusSummary({
       <ScrollRegion label="Uncertainty factor of the consensus (table)">
         <table className="table" aria-label="Uncertainty factor of the consensus">
           <caption className="text-left text-sm text-muted">
-            Uncertainty factor f(T): k̂/f … k̂·f covers 95 %, spread between datasets included. Outside {formatRange(Tmin, Tmax, "K")} the
-            consensus is an extrapolation and no uncertainty is given.
+            <StatisticTerm id="uncertaintyFactor" plain="Within a factor of f of the combined value" />: k̂/f … k̂·f covers 95 %, the
+            disagreement between datasets included. Outside {formatRange(Tmin, Tmax, "K")} the consensus is an extrapolation and no
+            uncertainty is given.
           </caption>
           <thead>
             <tr>
@@ -91,7 +93,8 @@ export function ConsensusSummary({
       </ScrollRegion>
       <SharesTable result={result} labels={labels} />
       <p className="text-sm text-muted">
-        Between-dataset variance τ² = {sig(fit.tau2)} (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
+        <StatisticTerm id="betweenDatasets" plain="How much the datasets disagree beyond their own uncertainties" />: τ² = {sig(fit.tau2)}{" "}
+        (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
       </p>
       <p className="text-xs text-muted">{result.method}</p>
       {result.flags.length > 0 && (

@@ -5,6 +5,7 @@ import type { PointMark, PointRow } from "@/lib/datasets/point-table";
 import { uncertaintyText } from "@/lib/datasets/point-table";
 import { formatNumber, formatSignificant } from "@/lib/format";
 import { ScrollRegion } from "./scroll-region";
+import { StatisticTerm } from "@/components/statistic-term";
 
 /** "outlier" or "influential", with its reason on hover and keyboard focus, and always in text for screen readers. */
 function Mark({ mark }: { mark: PointMark }) {
@@ -83,7 +84,7 @@ export function PointTable({
       <p className="text-sm text-muted">
         {totalRows} point{totalRows === 1 ? "" : "s"}, as deposited and with k in the unit chosen above.
         {hasResidual &&
-          ` Residual: ln k − fitted ln k of the ${residualModelName} re-fit${hasScaled ? "; “in σ” divides it by the point’s stated σ(ln k)" : ""}.`}
+          ` “Off the fitted line” (the residual) is ln k − fitted ln k of the ${residualModelName} re-fit${hasScaled ? "; “in stated uncertainties” divides it by the point’s stated σ(ln k)" : ""}.`}
         {marked > 0 && " Marked points carry their reason: hover over the mark or focus it."}
         {totalRows > rows.length && (
           <>
@@ -109,11 +110,23 @@ export function PointTable({
                 k ({kUnitLabel})
               </th>
               {hasUncertainty && <th scope="col">Uncertainty, as stated</th>}
-              {hasUncertainty && <th scope="col">σ(ln k)</th>}
+              {hasUncertainty && (
+                <th scope="col">
+                  <StatisticTerm id="sigmaLnK" />
+                </th>
+              )}
               {hasPressure && <th scope="col">Pressure ({pressureUnit})</th>}
               {hasBathGas && <th scope="col">Bath gas</th>}
-              {hasResidual && <th scope="col">Residual (ln k)</th>}
-              {hasScaled && <th scope="col">Residual (in σ)</th>}
+              {hasResidual && (
+                <th scope="col">
+                  <StatisticTerm id="residual" />
+                </th>
+              )}
+              {hasScaled && (
+                <th scope="col">
+                  <StatisticTerm id="residualInSigma" />
+                </th>
+              )}
               <th scope="col">Findings</th>
               {hasNotes && <th scope="col">Note</th>}
             </tr>

@@ -6,6 +6,7 @@ import { formatSignificant } from "@/lib/format";
 import { convertEntropy, energyQuantityLabel, entropyQuantityLabel } from "@/lib/unit-labels";
 import { displayConversion } from "@/lib/kinetics/units";
 import { ScrollRegion } from "./scroll-region";
+import { StatisticTerm } from "@/components/statistic-term";
 
 interface Props {
   analysis: AnalysisResult;
@@ -69,7 +70,9 @@ export function ResultTables({
               <tr>
                 <th scope="col">Quantity</th>
                 <th scope="col">Value</th>
-                <th scope="col">Standard error</th>
+                <th scope="col">
+                  <StatisticTerm id="standardError" />
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -109,20 +112,27 @@ export function ResultTables({
                 <td>{interval(a.kMid.lower, a.kMid.upper)}</td>
               </tr>
               <tr>
-                <td>R² / dof</td>
+                <td className="whitespace-normal">
+                  <StatisticTerm id="r2" /> / <StatisticTerm id="dof" />
+                </td>
                 <td colSpan={2}>
                   {sig(a.r2, 5)} / {a.dof}
                 </td>
               </tr>
               {/* Two different quantities: the weighted one is dimensionless and never called an SD of ln k. */}
               <tr>
-                <td>SD of ln k residuals{analysis.weighted ? " (unweighted)" : ""}</td>
+                <td className="whitespace-normal">
+                  <StatisticTerm
+                    id="residualSD"
+                    plain={`Typical distance of a point from the line${analysis.weighted ? ", unweighted" : ""}`}
+                  />
+                </td>
                 <td colSpan={2}>{sig(a.residualSDLnK, 3)}</td>
               </tr>
               {analysis.weighted && (
                 <tr>
                   <td>
-                    √(χ²/dof), weighted
+                    <StatisticTerm id="scatterRatio" />
                     <span className="block whitespace-normal text-xs text-muted">
                       dimensionless: the typical residual in units of the stated uncertainties (1 when the points scatter as stated)
                     </span>

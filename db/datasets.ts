@@ -137,6 +137,8 @@ export const datasetVersions = pgTable(
     uniqueIndex("dataset_versions_identifier_key").on(t.versionIdentifier),
     index("dataset_versions_state_idx").on(t.state),
     index("dataset_versions_reaction_idx").on(t.reactionId),
+    // The versions that name a species (participant_names @> [{"speciesId": …}]), for its display name.
+    index("dataset_versions_participant_names_idx").using("gin", t.participantNames.op("jsonb_path_ops")),
   ],
 );
 

@@ -1,6 +1,6 @@
 import { sql } from "drizzle-orm";
 import { boolean, customType, doublePrecision, index, integer, jsonb, pgTable, text, timestamp } from "drizzle-orm/pg-core";
-import { reactions } from "./chemistry";
+import { reactions, species } from "./chemistry";
 import { datasetVersions } from "./datasets";
 
 const tsvector = customType<{ data: string }>({ dataType: () => "tsvector" });
@@ -103,4 +103,17 @@ export const searchReactionSummaries = pgTable("search_reaction_summaries", {
   consensus: jsonb().$type<Record<string, unknown> | null>(),
   spread: doublePrecision(),
   updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+});
+
+/**
+ * The one name each species is shown by on public pages, in search and in suggestions: the name
+ * its public versions (published or retracted) give it most often, ties broken by the name's
+ * lower-case then exact spelling; a species no public version names has no row (its formula is
+ * shown). Rewritten in the publishing transaction with the search documents (lib/search/documents.ts).
+ */
+export const speciesDisplayNames = pgTable("species_display_names", {
+  speciesId: integer()
+    .primaryKey()
+    .references(() => species.id, { onDelete: "cascade" }),
+  name: text().notNull(),
 });

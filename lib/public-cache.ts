@@ -20,9 +20,9 @@ export const speciesTag = (inchiKey: string) => `species:${inchiKey}`;
 export const classTag = (classId: string) => `class:${classId}`;
 
 /**
- * A cached entry is kept at most this long even when no change invalidates it: a change made
- * outside a request of the app's own server (the background re-fit worker, the seed) cannot reach
- * its cache, so this bounds how long such a change stays unseen.
+ * A cached entry is kept at most this long even when no change invalidates it (a change made by a
+ * script with no server to tell, such as the seed or `npm run refit`, stays unseen this long at most).
+ * The background workers of scripts/serve.ts do tell the server: see `forwardCacheInvalidations`.
  */
 export const PUBLIC_CACHE_SECONDS = 60;
 
@@ -44,19 +44,71 @@ export function cachedPublic<A extends unknown[], R>(fn: (...args: A) => Promise
   };
 }
 
+/** Sends tags to the app's server, which invalidates them in its own cache (POST /api/cache-invalidations). */
+export type CacheInvalidationForwarder = (tags: string[]) => Promise<void>;
+
+let forwarder: CacheInvalidationForwarder | null = null;
+
+/**
+ * Where invalidations made outside a request go: scripts/serve.ts runs the job workers (the
+ * background re-fit) in its own process, beside Next's, and forwards their tags to Next so that a
+ * re-fit shows at once, as a publication does. Null: nowhere (scripts, the seed, tests).
+ */
+export function forwardCacheInvalidations(to: CacheInvalidationForwarder | null): void {
+  forwarder = to;
+}
+
+/** Header of the per-start secret that POST /api/cache-invalidations requires (CACHE_KEY_ENV holds it in both processes). */
+export const CACHE_KEY_HEADER = "x-arrhenia-cache-key";
+export const CACHE_KEY_ENV = "ARRHENIA_CACHE_KEY";
+
 /**
  * Marks the tagged data stale so the next request reads the database (`expire: 0`: a retraction
  * must show at once, so no stale copy is served while the new one is read; the 'max' profile
  * would serve the stale page once more). Called after the change committed. Outside a request of
- * the app's server (scripts, the job worker, integration tests) there is no cache to reach: a no-op.
+ * the app's server (the job worker) the tags go to the forwarder, if one is set, else nowhere.
+ * `forward: false` is for the receiving end, which must never send them back.
  */
-export function invalidatePublicCache(tags: Iterable<string>): void {
-  for (const tag of new Set(tags)) {
+export async function invalidatePublicCache(tags: Iterable<string>, { forward = true }: { forward?: boolean } = {}): Promise<void> {
+  const unique = [...new Set(tags)];
+  for (const tag of unique) {
     try {
       revalidateTag(tag, { expire: 0 });
     } catch (error) {
-      if (error instanceof Error && /store missing/.test(error.message)) return;
-      throw error;
+      if (!(error instanceof Error && /store missing/.test(error.message))) throw error;
+      if (forward && forwarder) {
+        // The change has committed already; a server that cannot be told serves the old data 60 s at most.
+        await forwarder(unique).catch((e: unknown) =>
+          console.error(`[cache] could not forward ${unique.length} invalidations: ${e instanceof Error ? e.message : String(e)}`),
+        );
+      }
+      return;
     }
   }
+}
+
+/**
+ * A forwarder to Next's private port (scripts/inner-server.ts): the front server's key opens the
+ * port's gate, the cache key the endpoint itself.
+ */
+export function cacheInvalidationSender({
+  port,
+  edgeKeyHeader,
+  edgeKey,
+  cacheKey,
+}: {
+  port: number;
+  edgeKeyHeader: string;
+  edgeKey: string;
+  cacheKey: string;
+}): CacheInvalidationForwarder {
+  return async (tags) => {
+    const res = await fetch(`http://127.0.0.1:${port}/api/cache-invalidations`, {
+      method: "POST",
+      headers: { "content-type": "application/json", [edgeKeyHeader]: edgeKey, [CACHE_KEY_HEADER]: cacheKey },
+      body: JSON.stringify({ tags }),
+      signal: AbortSignal.timeout(10_000),
+    });
+    if (!res.ok) throw new Error(`POST /api/cache-invalidations answered ${res.status}`);
+  };
 }

@@ -26,6 +26,8 @@ import {
   usesMailCapture,
 } from "@/lib/config";
 import { compileTrustProxy, freeLoopbackPort, startEdgeProxy } from "@/lib/auth/edge-proxy";
+import { EDGE_KEY_HEADER } from "@/lib/auth/client-address";
+import { CACHE_KEY_ENV, cacheInvalidationSender, forwardCacheInvalidations } from "@/lib/public-cache";
 import { startFakeDoiService } from "@/lib/identifiers/fake-service";
 import { doiPrefix } from "@/lib/identifiers/mint";
 import { startWorkers } from "@/lib/jobs/worker";
@@ -52,6 +54,9 @@ const trust = compileTrustProxy(trustProxy());
 // A fresh secret per start: the inner server answers only requests that carry it (lib/auth/inner-gate.ts).
 const edgeKey = randomBytes(24).toString("hex");
 process.env.ARRHENIA_EDGE_KEY = edgeKey;
+// Another per-start secret: the workers below tell Next which public data a re-fit changed (lib/public-cache.ts).
+const cacheKey = randomBytes(24).toString("hex");
+process.env[CACHE_KEY_ENV] = cacheKey;
 
 const sql = postgres(databaseUrl(), { max: 2, onnotice: () => {} });
 const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captureSmtpPort() }) : null;
@@ -64,6 +69,7 @@ const staleRefits = await enqueueStaleRefits();
 
 const innerPort = configuredInnerPort() ?? (await freeLoopbackPort());
 // Without the react-server condition: Next's own server loads its vendored React as `next start` does.
+forwardCacheInvalidations(cacheInvalidationSender({ port: innerPort, edgeKeyHeader: EDGE_KEY_HEADER, edgeKey, cacheKey }));
 const next = spawn("node_modules/.bin/tsx", ["scripts/inner-server.ts", String(innerPort)], {
   stdio: ["ignore", "inherit", "inherit"],
   env: process.env,

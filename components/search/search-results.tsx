@@ -5,74 +5,100 @@ import { formatRange, formatSignificant } from "@/lib/format";
 import { GAS_CONSTANT, REFERENCE_TEMPERATURE } from "@/lib/kinetics/constants";
 import type { DatasetHit, ReactionHit } from "@/lib/search/types";
 import { FLAG_LABELS } from "./search-words";
+import type { ReactNode } from "react";
+import { StatisticGlossary, StatisticTerm } from "@/components/statistic-term";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
 /** One row per dataset: what a modeller checks before opening it. */
 export function DatasetRows({ hits }: { hits: DatasetHit[] }) {
   return (
-    <ul className="card divide-y divide-line p-0" aria-label="Datasets found">
-      {hits.map((h) => (
-        <li key={h.versionId} className="space-y-2 px-4 py-3 sm:px-6">
-          <div className="space-y-0.5">
-            <p className="flex flex-wrap items-baseline gap-x-3 gap-y-1 font-medium">
-              <span className="min-w-0 break-words">{h.equation}</span>
-              {h.retracted && (
-                <span className="rounded-sm border border-error/40 bg-panel px-1.5 py-0.5 text-xs font-medium text-error">Retracted</span>
-              )}
+    <>
+      <ul className="card divide-y divide-line p-0" aria-label="Datasets found">
+        {hits.map((h) => (
+          <li key={h.versionId} className="space-y-2 px-4 py-3 sm:px-6">
+            <div className="space-y-0.5">
+              <p className="flex flex-wrap items-baseline gap-x-3 gap-y-1 font-medium">
+                <span className="min-w-0 break-words">{h.equation}</span>
+                {h.retracted && (
+                  <span className="rounded-sm border border-error/40 bg-panel px-1.5 py-0.5 text-xs font-medium text-error">Retracted</span>
+                )}
+              </p>
+              <Link href={versionPath(h.datasetId, h.versionNumber)} className="block break-words text-sm">
+                {h.title}
+              </Link>
+            </div>
+            <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_1fr_auto_1fr] lg:flex lg:flex-wrap lg:gap-x-2">
+              <Pair term="Temperatures" value={formatRange(h.tMin, h.tMax, "K")} />
+              <Pair term="Points" value={String(h.pointCount)} />
+              <Pair
+                term={<StatisticTerm id="refit" plain="Activation energy Ea" />}
+                value={h.ea === null ? "not fitted" : `${sig(h.ea / 1000)} kJ mol⁻¹`}
+              />
+              <Pair
+                term={<StatisticTerm id="refit" plain="Pre-exponential factor A" />}
+                value={h.a === null ? "not fitted" : `${sig(h.a)} ${h.aUnit ?? ""}`.trim()}
+              />
+              <Pair term="Checks raised" value={h.flags.length === 0 ? "none" : h.flags.map((f) => FLAG_LABELS[f] ?? f).join("; ")} />
+              <Pair
+                term="Version"
+                value={h.versionIdentifier ? `v${h.versionNumber}, doi:${h.versionIdentifier}` : `v${h.versionNumber}`}
+                mono
+              />
+            </dl>
+            <p className="text-xs text-muted">
+              {h.creators.slice(0, 3).join("; ")}
+              {h.creators.length > 3 ? ` and ${h.creators.length - 3} more` : ""}
+              {h.creators.length > 0 ? " · " : ""}published {h.publishedAt.slice(0, 10)} ·{" "}
+              <Link href={reactionPath(h.reactionKey)}>every dataset of this reaction</Link>
             </p>
-            <Link href={versionPath(h.datasetId, h.versionNumber)} className="block break-words text-sm">
-              {h.title}
-            </Link>
-          </div>
-          <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_1fr_auto_1fr] lg:flex lg:flex-wrap lg:gap-x-2">
-            <Pair term="Temperatures" value={formatRange(h.tMin, h.tMax, "K")} />
-            <Pair term="Points" value={String(h.pointCount)} />
-            <Pair term="Ea (re-fit)" value={h.ea === null ? "not fitted" : `${sig(h.ea / 1000)} kJ mol⁻¹`} />
-            <Pair term="A (re-fit)" value={h.a === null ? "not fitted" : `${sig(h.a)} ${h.aUnit ?? ""}`.trim()} />
-            <Pair term="Findings" value={h.flags.length === 0 ? "none" : h.flags.map((f) => FLAG_LABELS[f] ?? f).join("; ")} />
-            <Pair
-              term="Version"
-              value={h.versionIdentifier ? `v${h.versionNumber}, doi:${h.versionIdentifier}` : `v${h.versionNumber}`}
-              mono
-            />
-          </dl>
-          <p className="text-xs text-muted">
-            {h.creators.slice(0, 3).join("; ")}
-            {h.creators.length > 3 ? ` and ${h.creators.length - 3} more` : ""}
-            {h.creators.length > 0 ? " · " : ""}published {h.publishedAt.slice(0, 10)} ·{" "}
-            <Link href={reactionPath(h.reactionKey)}>every dataset of this reaction</Link>
-          </p>
-        </li>
-      ))}
-    </ul>
+          </li>
+        ))}
+      </ul>
+      <StatisticGlossary ids={["refit"]} className="px-1" />
+    </>
   );
 }
 
 /** One row per reaction: how many datasets, what they agree on, how far apart they are. */
 export function ReactionRows({ hits }: { hits: ReactionHit[] }) {
   return (
-    <ul className="card divide-y divide-line p-0" aria-label="Reactions found">
-      {hits.map((h) => (
-        <li key={h.reactionId} className="space-y-2 px-4 py-3 sm:px-6">
-          <Link href={reactionPath(h.reactionKey)} className="block break-words font-medium">
-            {h.equation}
-          </Link>
-          <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_1fr_auto_1fr] lg:flex lg:flex-wrap lg:gap-x-2">
-            <Pair term="Datasets" value={String(h.datasetCount)} />
-            <Pair term="Temperatures" value={formatRange(h.tMin, h.tMax, "K")} />
-            <Pair
-              term="Spread"
-              value={h.spread === null ? "one dataset" : `a factor of ${sig(h.spread, 2)} between datasets at mid-range`}
-            />
-          </dl>
-          <p className="text-sm">
-            <span className="text-muted">Consensus: </span>
-            {h.consensus ? <ConsensusExpression c={h.consensus} /> : "none (fewer than two datasets)"}
-          </p>
-        </li>
-      ))}
-    </ul>
+    <>
+      <ul className="card divide-y divide-line p-0" aria-label="Reactions found">
+        {hits.map((h) => (
+          <li key={h.reactionId} className="space-y-2 px-4 py-3 sm:px-6">
+            <Link href={reactionPath(h.reactionKey)} className="block break-words font-medium">
+              {h.equation}
+            </Link>
+            <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_1fr_auto_1fr] lg:flex lg:flex-wrap lg:gap-x-2">
+              <Pair
+                term="Datasets"
+                value={`${h.datasetCount}${h.retractedCount ? ` (and ${h.retractedCount} retracted, not counted)` : ""}`}
+              />
+              <Pair
+                term="Temperatures"
+                value={h.tMin === null || h.tMax === null ? "none counted (every match is retracted)" : formatRange(h.tMin, h.tMax, "K")}
+              />
+              <Pair
+                term={<StatisticTerm id="spread" />}
+                value={
+                  h.spread === null
+                    ? "needs two datasets"
+                    : `within a factor of ${sig(h.spread, 2)} of each other in the middle of their range`
+                }
+              />
+            </dl>
+            <p className="text-sm">
+              <span className="text-muted">
+                <StatisticTerm id="consensus" />:{" "}
+              </span>
+              {h.consensus ? <ConsensusExpression c={h.consensus} /> : "none (fewer than two counted datasets)"}
+            </p>
+          </li>
+        ))}
+      </ul>
+      <StatisticGlossary ids={["spread", "consensus"]} className="px-1" />
+    </>
   );
 }
 
@@ -92,7 +118,7 @@ function ConsensusExpression({ c }: { c: NonNullable<ReactionHit["consensus"]> }
   );
 }
 
-function Pair({ term, value, mono = false }: { term: string; value: string; mono?: boolean }) {
+function Pair({ term, value, mono = false }: { term: ReactNode; value: string; mono?: boolean }) {
   return (
     <div className="contents lg:flex lg:gap-1 lg:after:pl-1 lg:after:text-line lg:after:content-['·'] lg:last:after:content-none">
       <dt className="text-muted">{term}</dt>

@@ -1,3 +1,6 @@
+import { speciesPath } from "@/lib/identifiers/paths";
+import { reactionPath } from "@/lib/reactions/paths";
+
 /**
  * Suggestions of the header's search box (GET /api/v1/search/suggest?q=…): species and reactions
  * matching what has been typed so far, where choosing one leads, and how many there are in words
@@ -13,38 +16,48 @@ export interface Suggestion {
   detail: string;
   /** The search text that finds it. */
   q: string;
+  /** Its own page: the species page or the reaction page. */
+  href: string;
 }
 
 /** What GET /api/v1/search/suggest answers (lib/search/queries.ts suggestSearch). */
 export interface SuggestAnswer {
-  species: { inchiKey: string; name: string; formula: string; matched: string }[];
+  species: { inchiKey: string; name: string; formula: string; matched: string; datasetCount: number }[];
   reactions: { reactionId: number; reactionKey: string; equation: string; datasetCount: number }[];
 }
 
-/** The answer as list lines: species first, then reactions. */
+const datasetWords = (n: number) => `${n} dataset${n === 1 ? "" : "s"}`;
+
+/** The answer as list lines: species first, then reactions. Counts are each item's own, whatever was typed. */
 export function suggestionsOf(answer: SuggestAnswer): Suggestion[] {
   return [
     ...answer.species.map((s) => ({
       kind: "species" as const,
       label: s.name,
-      detail: [s.formula !== s.name ? s.formula : "", s.matched !== s.name && s.matched !== s.formula ? `also “${s.matched}”` : ""]
+      detail: [
+        s.formula !== s.name ? s.formula : "",
+        s.matched !== s.name && s.matched !== s.formula ? `also “${s.matched}”` : "",
+        datasetWords(s.datasetCount),
+      ]
         .filter(Boolean)
         .join(", "),
       q: s.name,
+      href: speciesPath(s.inchiKey),
     })),
     ...answer.reactions.map((r) => ({
       kind: "reaction" as const,
       label: r.equation,
-      detail: `${r.datasetCount} dataset${r.datasetCount === 1 ? "" : "s"}`,
-      // The equation reads better in the box than the key, and finds the same reaction.
+      detail: datasetWords(r.datasetCount),
+      // The equation reads better in the box than the key.
       q: r.equation,
+      href: reactionPath(r.reactionKey),
     })),
   ];
 }
 
-/** Where a suggestion leads: the search for it (species and reaction pages take over once they exist). */
+/** Where a suggestion leads: its own page (free text typed without choosing one opens /search instead). */
 export function suggestionHref(s: Suggestion): string {
-  return `/search?${new URLSearchParams({ q: s.q }).toString()}`;
+  return s.href;
 }
 
 /** "3 suggestions: 2 species and 1 reaction. Up and down arrows to choose." */

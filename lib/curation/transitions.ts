@@ -145,7 +145,7 @@ export async function applyTransition({
     return outcome;
   });
   // What the public sees changed only on publication and retraction: its pages' cached data go stale now.
-  if (transition === "accept" || transition === "retract") invalidatePublicCache(await listVersionCacheTags({ versionId }));
+  if (transition === "accept" || transition === "retract") await invalidatePublicCache(await listVersionCacheTags({ versionId }));
   return outcome;
 }
 

@@ -44,8 +44,9 @@ function csvColumns(about: PointsAbout): [string, (r: PointRow) => string][] {
     ["pressure_deposited", (r) => csvCell(r.deposited.pressure)],
     ["pressure_deposited_unit", (r) => textCell(r.deposited.pressureUnit)],
     [`T_${u.T}`, (r) => csvCell(r.T)],
-    ["k_canonical", (r) => csvCell(r.k)],
-    ["k_canonical_unit", () => textCell(u.k)],
+    // Named by its unit, as T_K and pressure_Pa are ("k_cm3_molecule-1_s-1"); k_unit repeats it under a fixed name.
+    [`k_${u.k.replace(/\s+/g, "_")}`, (r) => csvCell(r.k)],
+    ["k_unit", () => textCell(u.k)],
     ["sigma_ln_k", (r) => csvCell(r.sigmaLnK)],
     [`pressure_${u.pressure}`, (r) => csvCell(r.pressurePa)],
     ["bath_gas", (r) => textCell(r.bathGas)],
@@ -95,7 +96,7 @@ export function buildPointsCsv(about: PointsAbout, rows: readonly PointRow[]): s
   return [...head, columns.map(([name]) => name).join(","), ...body].join("\r\n") + "\r\n";
 }
 
-/** The JSON download: an "about" object, then one object per point with its deposited and canonical values. */
+/** The JSON download: an "about" object (with the units of the converted values), then one object per point with its deposited and converted values. */
 export function buildPointsJson(about: PointsAbout, rows: readonly PointRow[]) {
   return {
     about: {
@@ -108,7 +109,8 @@ export function buildPointsJson(about: PointsAbout, rows: readonly PointRow[]) {
       citation: about.citation,
       landingPage: about.landingPage,
       caution: about.caution,
-      canonicalUnits: about.canonicalUnits,
+      // The unit of each converted value, named (never "canonical").
+      units: about.canonicalUnits,
       residuals: about.residuals && {
         ...about.residuals,
         definition: aboutLines(about).find(([label]) => label === "residuals")?.[1] ?? null,
@@ -117,7 +119,7 @@ export function buildPointsJson(about: PointsAbout, rows: readonly PointRow[]) {
     points: rows.map((r) => ({
       row: r.row,
       deposited: r.deposited,
-      canonical: { T: r.T, k: r.k, sigmaLnK: r.sigmaLnK, pressure: r.pressurePa },
+      converted: { T: r.T, k: r.k, sigmaLnK: r.sigmaLnK, pressure: r.pressurePa },
       bathGas: r.bathGas,
       note: r.note,
       residualLnK: r.residualLnK,

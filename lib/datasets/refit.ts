@@ -44,7 +44,7 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
   const result = checked.analysis.result;
   if (!(await append(result))) return "current";
   // A public version's pages show the newest fit.
-  invalidatePublicCache(await listVersionCacheTags({ versionId }));
+  await invalidatePublicCache(await listVersionCacheTags({ versionId }));
   return "refitted";
 }
 

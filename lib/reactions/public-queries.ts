@@ -2,6 +2,7 @@ import "server-only";
 import { sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { REACTION_CLASSES, RETIRED_REACTION_CLASS_IDS, type ReactionClassId } from "@/lib/deposits/vocabulary";
+import { reactionDisplayEquation, speciesDisplayName } from "./display-names";
 import { classTag, datasetTag, PUBLIC_TAG, reactionTag, SEARCH_TAG, speciesTag } from "@/lib/public-cache";
 
 /**
@@ -47,7 +48,7 @@ const toCount = (r: Record<string, unknown>): ReactionCount => ({
 export async function findPublicReaction(where: { id: number } | { key: string }) {
   const match = "id" in where ? sql`r.id = ${where.id}` : sql`r.key = ${where.key}`;
   const [row] = await getDb().execute<{ id: number; key: string; equation: string; classes: string[] | null }>(sql`
-    select r.id, r.key, r.equation, array_agg(distinct n.class) filter (where n.class is not null) as classes
+    select r.id, r.key, ${reactionDisplayEquation(sql`r.id`)} as equation, array_agg(distinct n.class) filter (where n.class is not null) as classes
     from reactions r join ${newestPublic} n on n.reaction_id = r.id
     where ${match} group by r.id`);
   if (!row) return null;
@@ -69,10 +70,13 @@ export async function findPublicSpecies({ inchiKey }: { inchiKey: string }) {
     formula: string;
     charge: number;
     molar_mass: number;
+    name: string;
     names: string[] | null;
   }>(sql`
     select s.id, s.inchi_key, s.inchi, s.canonical_smiles as smiles, s.formula, s.charge, s.molar_mass,
-      (select array_agg(name order by uses desc, lower(name)) from (
+      ${speciesDisplayName(sql`s.id`, sql`s.formula`)} as name,
+      -- The display name first, then the other names (synonyms), the most used first.
+      (select array_agg(name order by (lower(name) = lower(${speciesDisplayName(sql`s.id`, sql`s.formula`)})) desc, uses desc, lower(name)) from (
         select min(name) as name, count(*) as uses from (
           select e->>'name' as name from dataset_versions v, jsonb_array_elements(v.participant_names) e
           where v.state in ('published', 'retracted') and (e->>'speciesId')::int = s.id
@@ -90,6 +94,8 @@ export async function findPublicSpecies({ inchiKey }: { inchiKey: string }) {
     formula: row.formula,
     charge: Number(row.charge),
     molarMass: Number(row.molar_mass),
+    /** The one name it is shown by (its formula when no public version names it). */
+    name: row.name,
     names: row.names ?? [],
   };
 }
@@ -97,7 +103,7 @@ export async function findPublicSpecies({ inchiKey }: { inchiKey: string }) {
 /** Every public reaction a species takes part in, on which side, with dataset counts. */
 export async function listReactionsOfSpecies({ inchiKey }: { inchiKey: string }) {
   const rows = await getDb().execute(sql`
-    select r.id, r.key, r.equation,
+    select r.id, r.key, ${reactionDisplayEquation(sql`r.id`)} as equation,
       bool_or(rp.side = 'reactant') as as_reactant, bool_or(rp.side = 'product') as as_product,
       count(distinct n.dataset_id) filter (where n.state = 'published')::int as datasets,
       count(distinct n.dataset_id) filter (where n.state = 'retracted')::int as retracted
@@ -106,7 +112,7 @@ export async function listReactionsOfSpecies({ inchiKey }: { inchiKey: string })
     join reactions r on r.id = rp.reaction_id
     join ${newestPublic} n on n.reaction_id = r.id
     where s.inchi_key = ${inchiKey}
-    group by r.id order by r.equation`);
+    group by r.id order by 3`);
   return rows.map((r) => ({ ...toCount(r), asReactant: r.as_reactant === true, asProduct: r.as_product === true }));
 }
 
@@ -124,12 +130,12 @@ export async function listClassCounts() {
 /** The public reactions with at least one dataset of this class, with the datasets of the class. */
 export async function listReactionsOfClass({ classId }: { classId: ReactionClassId }) {
   const rows = await getDb().execute(sql`
-    select r.id, r.key, r.equation,
+    select r.id, r.key, ${reactionDisplayEquation(sql`r.id`)} as equation,
       count(distinct n.dataset_id) filter (where n.state = 'published')::int as datasets,
       count(distinct n.dataset_id) filter (where n.state = 'retracted')::int as retracted
     from ${newestPublic} n join reactions r on r.id = n.reaction_id
     where n.class = ${classId}
-    group by r.id order by r.equation`);
+    group by r.id order by 3`);
   return rows.map(toCount);
 }
 

@@ -8,6 +8,7 @@ import { recordAuditEvent } from "@/lib/audit/record";
 import { AppError } from "@/lib/errors";
 import { writeReactionSummary } from "@/lib/search/documents";
 import type { CuratorExclusion } from "./consensus-selection";
+import { reactionDisplayEquation, speciesDisplayName } from "./display-names";
 
 /**
  * The version is its dataset's newest public one. Each version carries its own reaction, so a
@@ -22,7 +23,7 @@ const isNewestPublic = and(
 export async function getReaction({ id }: { id: number }) {
   const db = getDb();
   const [reaction] = await db
-    .select({ id: reactions.id, key: reactions.key, equation: reactions.equation })
+    .select({ id: reactions.id, key: reactions.key, equation: sql<string>`${reactionDisplayEquation(sql`${reactions.id}`)}` })
     .from(reactions)
     .where(eq(reactions.id, id));
   if (!reaction) return null;
@@ -35,6 +36,8 @@ export async function getReaction({ id }: { id: number }) {
       smiles: species.canonicalSmiles,
       inchiKey: species.inchiKey,
       molarMass: species.molarMass,
+      /** The one name the species is shown by (lib/reactions/display-names.ts). */
+      name: sql<string>`${speciesDisplayName(sql`${species.id}`, sql`${species.formula}`)}`,
       // Names come from the published versions of this reaction, the newest first: a draft never renames a species.
       names: sql<string[]>`coalesce((
         select array_agg(name order by newest desc, name) from (
@@ -102,13 +105,13 @@ export async function listReactionsWithPublicData() {
     .select({
       id: reactions.id,
       key: reactions.key,
-      equation: reactions.equation,
+      equation: sql<string>`${reactionDisplayEquation(sql`${reactions.id}`)}`,
       datasets: sql<number>`count(distinct ${datasetVersions.datasetId})::int`,
     })
     .from(reactions)
     .innerJoin(datasetVersions, and(eq(datasetVersions.reactionId, reactions.id), isNewestPublic, eq(datasetVersions.state, "published")))
     .groupBy(reactions.id)
-    .orderBy(reactions.equation);
+    .orderBy(sql`3`);
 }
 
 /** Live figures for the home page: published datasets, the reactions they cover, their points. */

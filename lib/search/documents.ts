@@ -5,10 +5,11 @@ import { reactionParticipants, reactions, species, speciesNames } from "@/db/che
 import { datasetVersions, versionAnalyses } from "@/db/datasets";
 import { searchDocuments, searchReactionSummaries } from "@/db/search";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
-import { GAS_CONSTANT, type ReactionOrder } from "@/lib/kinetics";
+import type { ReactionOrder } from "@/lib/kinetics";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { DEFAULT_CONSENSUS_CHOICE } from "@/lib/reactions/consensus-selection";
 import type { ReactionHit, SearchFlag } from "./types";
+import { datasetSpread, preferredFitOf } from "./spread";
 import { recordSearchChange } from "@/lib/search/outbox";
 
 /**
@@ -236,9 +237,50 @@ export async function buildSearchDocument(
   await recordSearchChange(tx, versionId);
   if (!v) return;
   await refreshLatest(tx, [v.datasetId]);
-  if (!summaries) return;
+  if (!summaries) {
+    if (v.reactionId !== null) await writeSpeciesDisplayNames(tx, { reactionIds: [v.reactionId] });
+    return;
+  }
   const affected = new Set([...reactionsBefore.map((r) => r.reactionId), ...(v.reactionId !== null ? [v.reactionId] : [])]);
+  await writeSpeciesDisplayNames(tx, { reactionIds: [...affected] });
   await writeReactionSummaries(tx, [...affected]);
+}
+
+/**
+ * Rewrites the display name (db/search.ts speciesDisplayNames) of the species of these reactions,
+ * or of every species: the name their public versions give them most often, ties broken by the
+ * lower-case then the exact spelling (drizzle/0024 backfills by the same rule); a species no
+ * public version names loses its row and is shown by its formula.
+ */
+export async function writeSpeciesDisplayNames(tx: Transaction, of: { reactionIds: readonly number[] } | "all"): Promise<void> {
+  if (of !== "all" && !of.reactionIds.length) return;
+  const ids =
+    of === "all"
+      ? sql`select id as sid from species`
+      : sql`select distinct species_id as sid from reaction_participants where reaction_id = any(${idArray(of.reactionIds)}::int[])`;
+  // Per species, only the versions that name it (GIN on participant_names, drizzle/0024); one pass over all of them for a full rebuild.
+  const uses =
+    of === "all"
+      ? sql`select (e->>'speciesId')::int as sid, e->>'name' as name, count(*) as uses
+          from dataset_versions v cross join lateral jsonb_array_elements(v.participant_names) e
+          where v.state in ('published', 'retracted') and coalesce(e->>'name', '') <> ''
+            and (e->>'speciesId')::int in (select sid from ids)
+          group by 1, 2`
+      : sql`select ids.sid, e->>'name' as name, count(*) as uses
+          from ids join dataset_versions v on v.participant_names @> jsonb_build_array(jsonb_build_object('speciesId', ids.sid))
+          cross join lateral jsonb_array_elements(v.participant_names) e
+          where v.state in ('published', 'retracted') and (e->>'speciesId')::int = ids.sid and coalesce(e->>'name', '') <> ''
+          group by 1, 2`;
+  await tx.execute(sql`
+    with ids as (${ids}), named as (
+      select distinct on (sid) sid, name from (${uses}) x
+      order by sid, uses desc, lower(name), name
+    ), gone as (
+      delete from species_display_names d where d.species_id in (select sid from ids)
+        and not exists (select 1 from named where named.sid = d.species_id)
+    )
+    insert into species_display_names (species_id, name) select sid, name from named
+    on conflict (species_id) do update set name = excluded.name where species_display_names.name is distinct from excluded.name`);
 }
 
 /** Marks the newest public version of each dataset as its listed document, every older one not. */
@@ -327,23 +369,6 @@ function documentRow(v: {
   };
 }
 
-/**
- * Spread of a reaction's datasets: largest over smallest k of their own Arrhenius fits at the
- * middle, in 1/T, of the range they cover together; null with fewer than two fits of one unit.
- */
-export function datasetSpread(
-  fits: { a: number | null; ea: number | null; aUnit: string | null; tMin: number; tMax: number }[],
-): number | null {
-  const usable = fits.filter((f) => f.a !== null && f.ea !== null && f.a > 0 && f.aUnit === fits[0]?.aUnit);
-  if (usable.length < 2) return null;
-  const tMin = Math.min(...usable.map((f) => f.tMin));
-  const tMax = Math.max(...usable.map((f) => f.tMax));
-  const tMid = 2 / (1 / tMin + 1 / tMax);
-  const lnk = usable.map((f) => Math.log(f.a!) - f.ea! / (GAS_CONSTANT * tMid));
-  const factor = Math.exp(Math.max(...lnk) - Math.min(...lnk));
-  return Number.isFinite(factor) ? factor : null;
-}
-
 /** Rewrites the reactions view's summary of one reaction: the consensus over the reader's default choice and the spread. */
 export async function writeReactionSummary(tx: Transaction, reactionId: number): Promise<void> {
   await writeReactionSummaries(tx, [reactionId]);
@@ -356,11 +381,11 @@ export async function writeReactionSummary(tx: Transaction, reactionId: number):
  */
 export async function writeReactionSummaries(tx: Transaction, reactionIds: readonly number[]): Promise<void> {
   if (!reactionIds.length) return;
+  // Retracted versions are listed (and marked) but are no evidence: neither consensus nor spread counts them.
   const listed = await tx
     .select({
       reactionId: searchDocuments.reactionId,
-      a: searchDocuments.a,
-      ea: searchDocuments.ea,
+      versionId: searchDocuments.versionId,
       aUnit: searchDocuments.aUnit,
       tMin: searchDocuments.tMin,
       tMax: searchDocuments.tMax,
@@ -374,6 +399,20 @@ export async function writeReactionSummaries(tx: Transaction, reactionIds: reado
       ),
     )
     .orderBy(searchDocuments.reactionId, searchDocuments.versionId);
+  const analyses = listed.length
+    ? await tx
+        .selectDistinctOn([versionAnalyses.versionId], {
+          versionId: versionAnalyses.versionId,
+          // Only what preferredFitOf reads (a stored result also holds every residual).
+          result: sql<unknown>`jsonb_build_object('band', jsonb_build_object('model', ${versionAnalyses.result} -> 'band' -> 'model'),
+            'arrhenius', jsonb_build_object('params', ${versionAnalyses.result} -> 'arrhenius' -> 'params'),
+            'modifiedArrhenius', jsonb_build_object('params', ${versionAnalyses.result} -> 'modifiedArrhenius' -> 'params'))`,
+        })
+        .from(versionAnalyses)
+        .where(sql`${versionAnalyses.versionId} = any(${idArray(listed.map((l) => l.versionId))}::int[])`)
+        .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id))
+    : [];
+  const preferredOf = new Map(analyses.map((a) => [a.versionId, preferredFitOf(a.result)]));
   const listedOf = new Map<number, typeof listed>();
   for (const row of listed) listedOf.set(row.reactionId, [...(listedOf.get(row.reactionId) ?? []), row]);
   const empty = reactionIds.filter((id) => !listedOf.has(id));
@@ -384,7 +423,12 @@ export async function writeReactionSummaries(tx: Transaction, reactionIds: reado
     rows.push({
       reactionId,
       consensus: fits.length >= 2 ? await consensusOf(tx, reactionId) : null,
-      spread: datasetSpread(fits),
+      spread: datasetSpread(
+        fits.map((f) => {
+          const own = preferredOf.get(f.versionId);
+          return own ? { ...own, aUnit: f.aUnit, tMin: f.tMin, tMax: f.tMax } : null;
+        }),
+      ),
       updatedAt: new Date(),
     });
   }
@@ -450,6 +494,7 @@ export async function rebuildSearchDocuments({
     });
     onProgress?.(Math.min(i + BATCH, ids.length), ids.length);
   }
+  await db.transaction((tx) => writeSpeciesDisplayNames(tx, "all"));
   const reactionIds = (
     await db.execute<{ id: number }>(sql`
       select reaction_id as id from search_documents union select reaction_id from search_reaction_summaries order by 1`)

@@ -3,6 +3,7 @@ import { searchEngineName } from "@/lib/config";
 import { cursorPositionOrThrow, signCursor } from "./cursor";
 import { meilisearchEngine } from "./engines/meilisearch";
 import { postgresEngine } from "./engines/postgres";
+import { listDisplayEquations } from "./queries";
 import { resolveQuery } from "./resolve-query";
 import { CAUTION } from "@/lib/analyses/analyse-request";
 import type { FacetCount, ParsedQuery, SearchAnswer, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
@@ -50,11 +51,14 @@ export async function search(request: SearchRequest, engine: SearchEngine = curr
     after,
     limit: request.limit,
   });
+  // Rows name species as every public page does (one display name each), whatever the engine stored.
+  const equations = await listDisplayEquations({ reactionKeys: [...new Set(result.hits.map((h) => h.reactionKey))] });
+  const hits = result.hits.map((h) => ({ ...h, equation: equations.get(h.reactionKey) ?? h.equation })) as SearchResult["hits"];
   return {
     query: request,
     parsed: { words, query: parsed },
     total: result.total,
-    hits: result.hits,
+    hits,
     facets: result.facets,
     nextCursor: result.nextAfter === null ? null : signCursor(result.nextAfter, request),
   };

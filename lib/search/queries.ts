@@ -1,8 +1,9 @@
 import "server-only";
-import { and, asc, eq, gt, inArray, sql } from "drizzle-orm";
+import { and, asc, eq, gt, inArray, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { species, speciesNames } from "@/db/chemistry";
+import { reactions, species, speciesNames } from "@/db/chemistry";
 import { searchDocuments, searchReactionSummaries } from "@/db/search";
+import { reactionDisplayEquation, speciesDisplayName } from "@/lib/reactions/display-names";
 import type { ReactionHit, SearchDocument } from "@/lib/search/types";
 
 /**
@@ -48,20 +49,32 @@ export async function findSpeciesKeys({
   return found;
 }
 
-/** A published name of each of these species (the shortest), for saying what was understood. */
+/** A species takes part in a listed (public) version: search_documents holds public versions only. */
+const isPublicSpecies = (inchiKey: SQL) =>
+  sql`exists (select 1 from search_documents d where d.reactant_keys @> array[${inchiKey}] or d.product_keys @> array[${inchiKey}])`;
+
+/**
+ * The display name of each of these species that public data describe (lib/reactions/display-names.ts),
+ * for saying what was understood. A species known only from drafts is left out, exactly like one
+ * nobody deposited: neither its names nor its formula may show that it exists.
+ */
 export async function nameSpecies({ inchiKeys }: { inchiKeys: string[] }): Promise<Map<string, string>> {
   if (!inchiKeys.length) return new Map();
   const rows = await getDb()
-    .select({
-      inchiKey: species.inchiKey,
-      formula: species.formula,
-      name: sql<
-        string | null
-      >`(select n.name from species_names n where n.species_id = ${species.id} order by length(n.name), n.name limit 1)`,
-    })
+    .select({ inchiKey: species.inchiKey, name: sql<string>`${speciesDisplayName(sql`${species.id}`, sql`${species.formula}`)}` })
     .from(species)
-    .where(inArray(species.inchiKey, inchiKeys));
-  return new Map(rows.map((r) => [r.inchiKey, r.name ?? r.formula]));
+    .where(and(inArray(species.inchiKey, inchiKeys), isPublicSpecies(sql`${species.inchiKey}`)));
+  return new Map(rows.map((r) => [r.inchiKey, r.name]));
+}
+
+/** The equation of each of these reactions in display names (search rows show these, not a depositor's words). */
+export async function listDisplayEquations({ reactionKeys }: { reactionKeys: string[] }): Promise<Map<string, string>> {
+  if (!reactionKeys.length) return new Map();
+  const rows = await getDb()
+    .select({ key: reactions.key, equation: sql<string>`${reactionDisplayEquation(sql`${reactions.id}`)}` })
+    .from(reactions)
+    .where(inArray(reactions.key, reactionKeys));
+  return new Map(rows.map((r) => [r.key, r.equation]));
 }
 
 export interface SpeciesSuggestion {
@@ -70,12 +83,15 @@ export interface SpeciesSuggestion {
   formula: string;
   /** The name or formula that matched what was typed. */
   matched: string;
+  /** Its public datasets (newest public version published, not retracted), whatever was typed. */
+  datasetCount: number;
 }
 
 export interface ReactionSuggestion {
   reactionId: number;
   reactionKey: string;
   equation: string;
+  /** Its public datasets (newest public version published, not retracted), whatever was typed. */
   datasetCount: number;
 }
 
@@ -92,7 +108,7 @@ export async function suggestSearch({ q }: { q: string }): Promise<{ species: Sp
   const prefix = `${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
   // Names and formulas first (a few thousand rows at most), then only species of a listed reaction
   // (search_documents holds public versions only; the GIN indexes on the key arrays answer @>).
-  const speciesRows = await db.execute<{ inchi_key: string; name: string; formula: string; matched: string }>(sql`
+  const speciesRows = await db.execute<{ inchi_key: string; name: string; formula: string; matched: string; datasets: number }>(sql`
     with candidates as (
       select s.inchi_key, s.formula, n.name as matched,
         case when lower(n.name) = ${text} then 0 when lower(n.name) like ${prefix} then 1 else 2 end as rank,
@@ -109,18 +125,31 @@ export async function suggestSearch({ q }: { q: string }): Promise<{ species: Sp
       order by c.inchi_key, c.rank, c.sim desc
     )
     select b.inchi_key, b.formula, b.matched,
-      coalesce((select n.name from species_names n join species s on s.id = n.species_id
-        where s.inchi_key = b.inchi_key order by length(n.name), n.name limit 1), b.formula) as name
+      ${speciesDisplayName(sql`(select s.id from species s where s.inchi_key = b.inchi_key)`, sql`b.formula`)} as name,
+      (select count(*)::int from search_documents d where d.latest and not d.retracted
+        and (d.reactant_keys @> array[b.inchi_key] or d.product_keys @> array[b.inchi_key])) as datasets
     from best b order by b.rank, b.sim desc, b.matched limit ${SUGGESTIONS}`);
-  const speciesHits = speciesRows.map((r) => ({ inchiKey: r.inchi_key, name: r.name, formula: r.formula, matched: r.matched }));
-  // names_text holds the equation too, lower-cased, under a trigram index.
+  const speciesHits = speciesRows.map((r) => ({
+    inchiKey: r.inchi_key,
+    name: r.name,
+    formula: r.formula,
+    matched: r.matched,
+    datasetCount: Number(r.datasets),
+  }));
+  // names_text holds the equation too, lower-cased, under a trigram index. What was typed only
+  // chooses the reactions; each is then counted over all its listed documents.
   const contains = `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
   const reactionRows = await db.execute<{ reaction_id: number; reaction_key: string; equation: string; datasets: number }>(sql`
-    select d.reaction_id, d.reaction_key, d.equation, count(*)::int as datasets
-    from search_documents d
-    where d.latest and not d.retracted and d.names_text like ${contains}
-    group by d.reaction_id, d.reaction_key, d.equation
-    order by count(*) desc, d.equation limit ${SUGGESTIONS}`);
+    with matched as (
+      select distinct d.reaction_id from search_documents d where d.latest and not d.retracted and d.names_text like ${contains}
+    ), counted as (
+      select d.reaction_id, min(d.reaction_key) as reaction_key, count(*)::int as datasets
+      from search_documents d join matched m on m.reaction_id = d.reaction_id
+      where d.latest and not d.retracted group by d.reaction_id
+      order by count(*) desc, min(d.reaction_key) limit ${SUGGESTIONS}
+    )
+    select c.reaction_id, c.reaction_key, c.datasets, ${reactionDisplayEquation(sql`c.reaction_id`)} as equation
+    from counted c order by c.datasets desc, c.reaction_key`);
   return {
     species: speciesHits,
     reactions: reactionRows.map((r) => ({

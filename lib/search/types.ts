@@ -160,9 +160,13 @@ export interface ReactionHit {
   reactionId: number;
   reactionKey: string;
   equation: string;
+  /** Matching datasets that count as evidence (their listed version is published, not retracted). */
   datasetCount: number;
-  tMin: number;
-  tMax: number;
+  /** Matching datasets whose listed version is retracted: found and shown, never counted as evidence. */
+  retractedCount: number;
+  /** The temperatures the counted datasets cover together; null when every match is retracted. */
+  tMin: number | null;
+  tMax: number | null;
   /** The consensus expression over the reader's default selection, null with fewer than two datasets. */
   consensus: {
     model: "arrhenius" | "modified_arrhenius";
@@ -173,7 +177,10 @@ export interface ReactionHit {
     tMin: number;
     tMax: number;
   } | null;
-  /** Largest/smallest dataset k at the middle of the covered range in 1/T, as a factor ≥ 1; null with one dataset. */
+  /**
+   * Largest/smallest k of the datasets' own preferred fits (the model each analysis prefers) at the
+   * middle of their common range in 1/T, as a factor ≥ 1; null with fewer than two. Retracted ones never count.
+   */
   spread: number | null;
 }
 

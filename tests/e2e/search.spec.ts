@@ -33,7 +33,8 @@ test("a species by name and by SMILES; narrowed by class and temperature window;
   await box.fill("C");
   await box.press("Enter");
   await expect(page).toHaveURL(/[?&]q=C(&|$)/);
-  await expect(page.getByTestId("understood")).toContainText("CH4");
+  // Named by its display name (the name published datasets use most), as its species page is.
+  await expect(page.getByTestId("understood")).toContainText("(methane)");
   expect(await foundCount(page)).toBe(byName);
 
   // Narrow by the first reaction class offered.
@@ -127,11 +128,22 @@ test("the header box offers species and reactions, chosen by keyboard alone", as
   await expect(box).toHaveAttribute("aria-expanded", "false");
   await expect(box).toHaveValue("meth");
 
+  // Enter on a species suggestion opens the species page (the first ones are species).
   await page.keyboard.press("ArrowDown");
   await expect(options.first()).toHaveAttribute("aria-selected", "true");
+  const label = (await options.first().locator("span").first().innerText()).split(" — ")[0];
   await page.keyboard.press("Enter");
-  await expect(page).toHaveURL(/\/search\?q=/);
-  expect(await foundCount(page)).toBeGreaterThan(0);
+  await expect(page).toHaveURL(/\/species\/[A-Z]{14}-[A-Z]{10}-[A-Z]$/);
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(label);
+
+  // Enter on a reaction suggestion (they come after the species) opens the reaction page by its key.
+  await box.fill("meth");
+  await expect(options.last()).toBeVisible();
+  await box.press("ArrowUp");
+  await expect(options.last()).toHaveAttribute("aria-selected", "true");
+  await expect(options.last()).toContainText("reaction");
+  await box.press("Enter");
+  await expect(page).toHaveURL(/\/reactions\/[^/?]*[A-Z]{14}-[A-Z]{10}-[A-Z][^/?]*~/);
 
   // Enter with no suggestion chosen searches for the text as typed.
   await box.fill("flash photolysis");

@@ -74,7 +74,7 @@ describe("downloads of a version's points", () => {
     published = await versionIn("published");
   }, 60_000);
 
-  it("CSV: text/csv attachment named by the identifier, # header with identifier, title, licence, citation and caution, deposited and canonical columns", async () => {
+  it("CSV: text/csv attachment named by the identifier, # header with identifier, title, licence, citation and caution, deposited and converted columns, each unit named", async () => {
     as(null);
     const res = await csv(published.id);
     expect(res.status).toBe(200);
@@ -82,6 +82,8 @@ describe("downloads of a version's points", () => {
     const disposition = res.headers.get("content-disposition")!;
     expect(disposition).toMatch(/^attachment; filename="ARH-[0-9A-Z]{4}-[0-9A-Z]{4}-1-points\.csv"$/);
     const text = await res.text();
+    // The unit is named, never "canonical".
+    expect(text).not.toMatch(/canonical/i);
     const comments = text.split("\r\n").filter((l) => l.startsWith("#"));
     expect(comments.find((l) => l.startsWith("# version identifier: doi:10.5072/ARH-"))).toMatch(/\/1$/);
     expect(comments).toContain(`# caution: ${FIT_CAUTION}`);
@@ -104,9 +106,9 @@ describe("downloads of a version's points", () => {
     expect(table.data).toHaveLength(EXAMPLE_DEPOSIT.points.length);
     const first = table.data[0];
     expect(first).toMatchObject({ row: "1", T_deposited: "250", T_deposited_unit: "K", k_deposited_unit: "cm3 mol-1 s-1", T_K: "250" });
-    expect(first.k_canonical_unit).toBe("cm3 molecule-1 s-1");
-    expect(Number(first.k_canonical)).toBeCloseTo(Number(first.k_deposited) / AVOGADRO, 25);
-    expect(Number(first.k_canonical) / 2.09e-15).toBeCloseTo(1, 5);
+    expect(first.k_unit).toBe("cm3 molecule-1 s-1");
+    expect(Number(first["k_cm3_molecule-1_s-1"])).toBeCloseTo(Number(first.k_deposited) / AVOGADRO, 25);
+    expect(Number(first["k_cm3_molecule-1_s-1"]) / 2.09e-15).toBeCloseTo(1, 5);
     expect(first).toMatchObject({
       uncertainty_kind: "absolute",
       uncertainty_confidence: "2sigma",
@@ -134,6 +136,7 @@ describe("downloads of a version's points", () => {
     expect(res.headers.get("content-type")).toMatch(/^application\/json/);
     expect(res.headers.get("content-disposition")).toMatch(/^attachment; filename="ARH-[0-9A-Z-]+-1-points\.json"$/);
     const body = await res.json();
+    expect(JSON.stringify(body)).not.toMatch(/canonical/i);
     expect(body.about).toMatchObject({
       title: expect.stringMatching(/Points download test/),
       version: 1,
@@ -141,14 +144,14 @@ describe("downloads of a version's points", () => {
       retraction: null,
       licence: "CC-BY-4.0",
       caution: FIT_CAUTION,
-      canonicalUnits: { T: "K", k: "cm3 molecule-1 s-1", pressure: "Pa" },
+      units: { T: "K", k: "cm3 molecule-1 s-1", pressure: "Pa" },
       residuals: { model: expect.stringMatching(/arrhenius/), weighted: true },
     });
     expect(body.about.versionIdentifier).toMatch(/^10\.5072\/ARH-.*\/1$/);
     expect(body.about.citation).toContain(`doi:${body.about.versionIdentifier}`);
     expect(body.points).toHaveLength(EXAMPLE_DEPOSIT.points.length);
     expect(body.points[0].deposited).toMatchObject({ T: 250, TUnit: "K", kUnit: "cm3 mol-1 s-1", pressure: 50, pressureUnit: "Torr" });
-    expect(body.points[0].canonical.k / 2.09e-15).toBeCloseTo(1, 5);
+    expect(body.points[0].converted.k / 2.09e-15).toBeCloseTo(1, 5);
     expect(body.points[9].bathGas).toBe("N2");
   });
 

@@ -1,4 +1,7 @@
-import { describe, expect, it } from "vitest";
+import { afterEach, describe, expect, it } from "vitest";
+import { POST as cacheInvalidationsRoute } from "@/app/api/cache-invalidations/route";
+import { CACHE_KEY_ENV, CACHE_KEY_HEADER, forwardCacheInvalidations } from "@/lib/public-cache";
+import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset } from "@/lib/datasets/deposits";
 import { ENGINE_VERSION } from "@/lib/datasets/prepare";
@@ -102,5 +105,49 @@ describe("re-fitting after an engine change", () => {
     expect(await enginesOf(v.id)).toEqual(["kinetics-0", ENGINE_VERSION]);
     expect(await sql`select engine_version from arrhenia_engine`).toEqual([{ engine_version: ENGINE_VERSION }]);
     expect(await refitVersion({ versionId: v.id })).toBe("current");
+  });
+});
+
+describe("a re-fit by the background worker reaches the public pages' cache", () => {
+  afterEach(() => forwardCacheInvalidations(null));
+
+  it("forwards the same tags as the publishing transaction, outside any request", async () => {
+    const [owner, curator] = await people("refit-cache");
+    const sent: string[][] = [];
+    forwardCacheInvalidations(async (tags) => void sent.push(tags));
+    const v = await fittedByOlderEngine(owner, curator, "Refit cache tags", true);
+    // Acceptance (outside a request here too) forwarded the tags of what it published.
+    expect(sent).toHaveLength(1);
+    const published = [...sent[0]].sort();
+    expect(await refitVersion({ versionId: v.id })).toBe("refitted");
+    expect(sent).toHaveLength(2);
+    expect([...sent[1]].sort()).toEqual(published);
+    expect([...sent[1]].sort()).toEqual([...(await listVersionCacheTags({ versionId: v.id }))].sort());
+    expect(sent[1]).toEqual(
+      expect.arrayContaining(["public", "search", expect.stringMatching(/^reaction:\d+$/), expect.stringMatching(/^species:/)]),
+    );
+    // Nothing re-fitted, nothing sent.
+    expect(await refitVersion({ versionId: v.id })).toBe("current");
+    expect(sent).toHaveLength(2);
+  });
+
+  it("the receiving endpoint answers only the server's own workers", async () => {
+    const key = "k".repeat(48);
+    process.env[CACHE_KEY_ENV] = key;
+    const post = (headers: Record<string, string>, body: unknown) =>
+      cacheInvalidationsRoute(
+        new Request("http://127.0.0.1/api/cache-invalidations", {
+          method: "POST",
+          headers: { "content-type": "application/json", ...headers },
+          body: JSON.stringify(body),
+        }),
+        { params: Promise.resolve({}) },
+      );
+    expect((await post({}, { tags: ["public"] })).status).toBe(404);
+    expect((await post({ [CACHE_KEY_HEADER]: "x".repeat(48) }, { tags: ["public"] })).status).toBe(404);
+    expect((await post({ [CACHE_KEY_HEADER]: key }, { tags: [] })).status).toBe(422);
+    expect((await post({ [CACHE_KEY_HEADER]: key }, { tags: ["public", "search"] })).status).toBe(204);
+    delete process.env[CACHE_KEY_ENV];
+    expect((await post({ [CACHE_KEY_HEADER]: key }, { tags: ["public"] })).status).toBe(404);
   });
 });

@@ -411,10 +411,19 @@ export function runSearchConformance(
       const hits = r.hits as ReactionHit[];
       // OH + CH4 (three datasets, one retracted) and Cl + CH4.
       expect(r.total).toBe(2);
-      expect(hits.map((h) => h.datasetCount).sort()).toEqual([1, 3]);
-      const ohCh4 = hits.find((h) => h.datasetCount === 3)!;
+      // The retracted one is found and said, but counts in neither the number nor the range.
+      expect(hits.map((h) => [h.datasetCount, h.retractedCount]).sort()).toEqual([
+        [1, 0],
+        [2, 1],
+      ]);
+      const ohCh4 = hits.find((h) => h.retractedCount === 1)!;
       expect(ohCh4.tMin).toBe(220);
       expect(ohCh4.tMax).toBe(1500);
+      // Only the retracted dataset matches the shock-tube words: listed, no range, no evidence.
+      const onlyRetracted = await mine({ view: "reactions", q: "shock tube", sort: "widest" });
+      expect((onlyRetracted.hits as ReactionHit[]).map((h) => [h.datasetCount, h.retractedCount, h.tMin, h.tMax])).toEqual([
+        [0, 1, null, null],
+      ]);
       const paged = await mine({ view: "reactions", q: "methane", sort: "points", limit: "1" });
       expect(paged.hits).toHaveLength(1);
       expect(paged.nextCursor).not.toBeNull();

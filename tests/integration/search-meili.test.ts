@@ -264,6 +264,12 @@ describe("the Meilisearch engine", () => {
     const reactions = await engine.search(query({ kind: "all" }, { view: "reactions", limit: 1000 }));
     const [{ r }] = await sql<{ r: number }[]>`select count(distinct reaction_id)::int as r from search_documents where latest`;
     expect(reactions.total).toBe(r);
-    expect((reactions.hits as { datasetCount: number }[]).reduce((s, h) => s + h.datasetCount, 0)).toBe(listed.length);
+    // Every listed document counted once: as evidence, or apart when retracted.
+    const rows = reactions.hits as { datasetCount: number; retractedCount: number }[];
+    expect(rows.reduce((s, h) => s + h.datasetCount + h.retractedCount, 0)).toBe(listed.length);
+    const [{ retracted }] = await sql<
+      { retracted: number }[]
+    >`select count(*)::int as retracted from search_documents where latest and retracted`;
+    expect(rows.reduce((s, h) => s + h.retractedCount, 0)).toBe(retracted);
   });
 });

@@ -96,17 +96,21 @@ describe("ResultTables residual spread", () => {
   it("names the weighted √(χ²/dof) as dimensionless and the SD of ln k residuals apart from it", () => {
     const html = render(weighted, "kJ mol-1");
     expect(weighted.weighted).toBe(true);
-    expect(html).toContain(
-      'SD of ln k residuals (unweighted)</td><td colSpan="2">' + formatSignificant(weighted.arrhenius.residualSDLnK, 3),
+    // Plain words first, the technical name after: the unweighted SD is said to be unweighted.
+    expect(html).toMatch(
+      new RegExp(
+        `Typical distance of a point from the line, unweighted <span[^>]*>\\(SD of ln k residuals\\)</span></td><td colSpan="2">${formatSignificant(weighted.arrhenius.residualSDLnK, 3)}<`,
+      ),
     );
-    expect(html).toContain("√(χ²/dof), weighted");
+    expect(html).toMatch(/Scatter compared with the stated uncertainties <span[^>]*>\(√\(χ²\/dof\)\)<\/span>/);
     expect(html).toContain("dimensionless");
     expect(html).toContain(`data-testid="scale-factor">${formatSignificant(weighted.arrhenius.scaleFactor, 3)}<`);
   });
 
   it("shows no weighted quantity on an unweighted fit", () => {
     const html = render(analyseDataset({ points, order: 2 }), "kJ mol-1");
-    expect(html).toContain("SD of ln k residuals</td>");
+    expect(html).toMatch(/Typical distance of a point from the line <span[^>]*>\(SD of ln k residuals\)<\/span><\/td>/);
+    expect(html).not.toContain("unweighted");
     expect(html).not.toContain("χ²/dof");
   });
 });

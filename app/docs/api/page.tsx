@@ -172,8 +172,10 @@ export default function ApiDocsPage() {
             <code>q</code>: what to look for, at most {MAX_QUERY_LENGTH} characters (read as below).
           </li>
           <li>
-            <code>view</code>: <code>datasets</code> (default) or <code>reactions</code> (one row per reaction with its datasets, the
-            consensus expression over the reaction page&apos;s default choice and the spread of the datasets&apos; own fits).
+            <code>view</code>: <code>datasets</code> (default) or <code>reactions</code> (one row per reaction: <code>datasetCount</code> of
+            the matching datasets that count as evidence and <code>retractedCount</code> of the retracted ones, found and marked but never
+            in the count, the temperature range <code>tMin</code>–<code>tMax</code> (null when every match is retracted), the consensus
+            expression over the reaction page&apos;s default choice, and the spread of the datasets&apos; own preferred fits).
           </li>
           <li>
             <code>sort</code>: <code>relevance</code> (default; for a species or a reaction pattern, the newest first), <code>newest</code>,{" "}
@@ -217,9 +219,12 @@ export default function ApiDocsPage() {
         <h3 className="font-semibold">GET /api/v1/search/suggest?q=</h3>
         <p className="text-sm">
           For a search box: up to 8 species (by name, synonym or formula prefix, then by similarity for typos) and up to 8 reactions whose
-          equation or species names contain the text, from published data only:{" "}
+          equation or species names contain the text, from published data only, each with its own public dataset count (the same whatever
+          was typed) and named by its display name:{" "}
           <code>
-            {"{ species: [{ inchiKey, name, formula, matched }], reactions: [{ reactionId, reactionKey, equation, datasetCount }] }"}
+            {
+              "{ species: [{ inchiKey, name, formula, matched, datasetCount }], reactions: [{ reactionId, reactionKey, equation, datasetCount }] }"
+            }
           </code>
           .
         </p>
@@ -297,10 +302,11 @@ export default function ApiDocsPage() {
             line, the page’s address, the caution sentence and what the residuals are. Then one header row and one row per point:{" "}
             <code>row</code>, the deposited <code>T_deposited</code>, <code>k_deposited</code> with their units, the stated uncertainty (
             <code>uncertainty_kind</code> absolute, relative in percent or factor; <code>uncertainty_value</code>;{" "}
-            <code>uncertainty_confidence</code> 1sigma or 2sigma), the deposited pressure and its unit, then the canonical <code>T_K</code>,{" "}
-            <code>k_canonical</code> and <code>k_canonical_unit</code> (s-1, cm3 molecule-1 s-1 or cm6 molecule-2 s-1 by order),{" "}
-            <code>sigma_ln_k</code>, <code>pressure_Pa</code>, <code>bath_gas</code>, <code>residual_ln_k</code> (ln k − fitted ln k of the
-            re-fit the page draws), <code>residual_in_sigma</code> (that residual over <code>sigma_ln_k</code>, weighted fits only),{" "}
+            <code>uncertainty_confidence</code> 1sigma or 2sigma), the deposited pressure and its unit, then the values converted to K, the
+            molecule-based unit of k for the order and Pa: <code>T_K</code>, <code>k_s-1</code>, <code>k_cm3_molecule-1_s-1</code> or{" "}
+            <code>k_cm6_molecule-2_s-1</code> (the column is named by its unit) and <code>k_unit</code> (that unit again, under a fixed
+            name), <code>sigma_ln_k</code>, <code>pressure_Pa</code>, <code>bath_gas</code>, <code>residual_ln_k</code> (ln k − fitted ln k
+            of the re-fit the page draws), <code>residual_in_sigma</code> (that residual over <code>sigma_ln_k</code>, weighted fits only),{" "}
             <code>outlier</code> and <code>influential</code> (<code>yes</code> or empty), <code>note</code>. Empty cells are missing
             values; text that a spreadsheet would take for a formula starts with an apostrophe.
           </li>
@@ -308,7 +314,7 @@ export default function ApiDocsPage() {
             <code>points.json</code>: <code>application/json</code>,{" "}
             <code>
               {
-                "{ about: { versionIdentifier, title, version, state, retraction, licence, citation, landingPage, caution, canonicalUnits, residuals }, points: [ { row, deposited: { T, TUnit, k, kUnit, uncertainty, pressure, pressureUnit }, canonical: { T, k, sigmaLnK, pressure }, bathGas, note, residualLnK, residualInSigma, findings: [ { code, reason } ] } ] }"
+                "{ about: { versionIdentifier, title, version, state, retraction, licence, citation, landingPage, caution, units: { T, k, pressure }, residuals }, points: [ { row, deposited: { T, TUnit, k, kUnit, uncertainty, pressure, pressureUnit }, converted: { T, k, sigmaLnK, pressure }, bathGas, note, residualLnK, residualInSigma, findings: [ { code, reason } ] } ] }"
               }
             </code>
             .

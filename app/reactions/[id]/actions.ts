@@ -14,7 +14,7 @@ export const excludeFromConsensusAction = protectedAction(
   { permission: "dataset.review" },
   async ({ versionId, reason }, user) => {
     const { reactionId, changed } = await excludeFromConsensus({ actor: user, versionId, reason });
-    if (reactionId !== null) invalidatePublicCache([reactionTag(reactionId), SEARCH_TAG]);
+    if (reactionId !== null) await invalidatePublicCache([reactionTag(reactionId), SEARCH_TAG]);
     revalidatePath("/reactions/[id]", "page");
     return { status: "ok", message: changed ? "Reason changed." : "Left out of the consensus." };
   },
@@ -25,7 +25,7 @@ export const includeInConsensusAction = protectedAction(
   { permission: "dataset.review" },
   async ({ versionId }, user) => {
     const { reactionId } = await includeInConsensus({ actor: user, versionId });
-    if (reactionId !== null) invalidatePublicCache([reactionTag(reactionId), SEARCH_TAG]);
+    if (reactionId !== null) await invalidatePublicCache([reactionTag(reactionId), SEARCH_TAG]);
     revalidatePath("/reactions/[id]", "page");
     return { status: "ok", message: "Included in the consensus again." };
   },

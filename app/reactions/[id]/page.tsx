@@ -3,6 +3,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound, permanentRedirect } from "next/navigation";
 import { ConsensusPlot } from "@/components/consensus-plot";
+import { StatisticGlossary } from "@/components/statistic-term";
 import { ConsensusComparisons, ConsensusSummary, comparisonCell } from "@/components/consensus-report";
 import { StateLabel } from "@/components/state-label";
 import { renderSpeciesSvg } from "@/lib/chem";
@@ -130,16 +131,19 @@ export default async function ReactionPage({
               {pictures[i] && (
                 <div
                   role="img"
-                  aria-label={`Structure of ${p.names[0] ?? p.formula}`}
+                  aria-label={`Structure of ${p.name}`}
                   className="h-[70px] w-[98px] [&>svg]:h-full [&>svg]:w-full"
                   dangerouslySetInnerHTML={{ __html: pictures[i]! }}
                 />
               )}
               <div>
                 <p className="font-medium text-ink">
-                  {p.side === "reactant" ? "Reactant" : "Product"}: <Link href={speciesPath(p.inchiKey)}>{p.names[0] ?? p.formula}</Link>
+                  {p.side === "reactant" ? "Reactant" : "Product"}: <Link href={speciesPath(p.inchiKey)}>{p.name}</Link>
                   {p.coefficient !== 1 ? ` ×${p.coefficient}` : ""}
                 </p>
+                {p.names.some((n) => n.toLowerCase() !== p.name.toLowerCase()) && (
+                  <p>Also named here: {p.names.filter((n) => n.toLowerCase() !== p.name.toLowerCase()).join(", ")}</p>
+                )}
                 <p>
                   {p.formula}, {p.molarMass.toFixed(3)} g mol⁻¹
                 </p>
@@ -190,6 +194,7 @@ export default async function ReactionPage({
           </section>
 
           {result && <ConsensusSummary result={result} kUnitLabel={kLabel} labels={labels} caution={FIT_CAUTION} />}
+          {result && <StatisticGlossary className="card" ids={["consensus", "uncertaintyFactor", "betweenDatasets", "band"]} />}
           {result && <ConsensusComparisons result={result} labels={labels} />}
 
           <WhatWentIn selection={selection} unavailable={unavailable} curatorRows={curatorRows} />

@@ -16,7 +16,8 @@ async function speciesOf(raw: string) {
   return INCHI_KEY.test(inchiKey) ? getPublicSpeciesCached({ inchiKey }) : null;
 }
 
-const nameOf = (s: { names: string[]; formula: string }) => s.names[0] ?? s.formula;
+/** The one name the species is shown by everywhere (lib/reactions/display-names.ts). */
+const nameOf = (s: { name: string }) => s.name;
 
 export async function generateMetadata({ params }: { params: Promise<{ inchikey: string }> }): Promise<Metadata> {
   const found = await speciesOf((await params).inchikey);
@@ -41,6 +42,7 @@ export default async function SpeciesPage({ params }: { params: Promise<{ inchik
     found.smiles ? renderSpeciesSvg(found.smiles, { width: 240, height: 180 }).catch(() => null) : null,
   ]);
   const name = nameOf(found);
+  const synonyms = found.names.filter((n) => n.toLowerCase() !== name.toLowerCase());
   return (
     <article className="space-y-6">
       <header className="space-y-2">
@@ -88,14 +90,23 @@ export default async function SpeciesPage({ params }: { params: Promise<{ inchik
         </h2>
         {found.names.length ? (
           <>
-            <p className="text-sm text-muted">The names depositors gave this species in published datasets, the most used first.</p>
-            <ul className="flex flex-wrap gap-2 text-sm">
-              {found.names.map((n) => (
-                <li key={n} className="rounded-md border border-line px-2 py-1">
-                  {n}
-                </li>
-              ))}
-            </ul>
+            <p className="text-sm">
+              Shown here and in search as <strong>{name}</strong>, the name published datasets use most.
+            </p>
+            {synonyms.length > 0 && (
+              <>
+                <p className="text-sm text-muted">
+                  Other names (synonyms) depositors gave it, the most used first; each finds it in search.
+                </p>
+                <ul className="flex flex-wrap gap-2 text-sm" aria-label="Synonyms">
+                  {synonyms.map((n) => (
+                    <li key={n} className="rounded-md border border-line px-2 py-1">
+                      {n}
+                    </li>
+                  ))}
+                </ul>
+              </>
+            )}
           </>
         ) : (
           <p className="text-sm text-muted">No published dataset names this species; it is shown by its formula.</p>

@@ -89,7 +89,7 @@ export class MeilisearchEngine implements SearchEngine {
       ? {
           ...base,
           filter: full,
-          attributesToRetrieve: ["reactionId", "reactionKey", "equation", "tMin", "tMax", "pointCount"],
+          attributesToRetrieve: ["reactionId", "reactionKey", "equation", "tMin", "tMax", "pointCount", "retracted"],
           limit: MAX_TOTAL_HITS,
         }
       : view === "reactions"
@@ -107,9 +107,13 @@ export class MeilisearchEngine implements SearchEngine {
       pageQuery,
       count(full, [...untouched.map((f) => FACET_ATTRIBUTES[f]), ...(view === "reactions" ? ["reactionId"] : [])]),
       ...narrowed.map((f) => count(buildFilter(parsed, filters, f), [FACET_ATTRIBUTES[f]])),
+      // The reactions view counts retracted matches apart: they are shown, never evidence.
+      ...(view === "reactions" ? [count([...full, "retracted = true"], ["reactionId"])] : []),
     ];
     const { results } = await client.multiSearch({ queries });
-    const [page, total, ...perFacet] = results as unknown as Counted[];
+    const [page, total, ...rest] = results as unknown as Counted[];
+    const perFacet = rest.slice(0, narrowed.length);
+    const retractedPerReaction = view === "reactions" ? (rest[narrowed.length]?.facetDistribution?.reactionId ?? {}) : {};
     const distribution = (facet: SearchFacet): Record<string, number> => {
       const i = narrowed.indexOf(facet);
       return (i >= 0 ? perFacet[i] : total).facetDistribution?.[FACET_ATTRIBUTES[facet]] ?? {};
@@ -124,31 +128,34 @@ export class MeilisearchEngine implements SearchEngine {
     }
     const perReaction = total.facetDistribution?.reactionId ?? {};
     const matches = Object.keys(perReaction).length;
-    const rows = grouped ? groupByReaction(page.hits, query.sort as "widest" | "points").slice(offset, offset + limit) : page.hits;
+    const rows: Pick<Matched, "reactionId" | "reactionKey" | "equation">[] = grouped
+      ? groupByReaction(page.hits, query.sort as "widest" | "points").slice(offset, offset + limit)
+      : page.hits;
     const reactionIds = rows.map((h) => h.reactionId);
     const [ranges, summaries] = await Promise.all([
-      grouped ? new Map(rows.map((r) => [r.reactionId, r])) : this.temperatureRanges(client, uid, full, q, reactionIds),
+      grouped ? new Map((rows as Grouped[]).map((r) => [r.reactionId, r])) : this.temperatureRanges(client, uid, full, q, reactionIds),
       this.summarise(reactionIds),
     ]);
     const hits: ReactionHit[] = rows.map((h) => ({
       reactionId: h.reactionId,
       reactionKey: h.reactionKey,
       equation: h.equation,
-      datasetCount: perReaction[String(h.reactionId)] ?? 0,
-      tMin: ranges.get(h.reactionId)?.tMin ?? h.tMin,
-      tMax: ranges.get(h.reactionId)?.tMax ?? h.tMax,
+      datasetCount: (perReaction[String(h.reactionId)] ?? 0) - (retractedPerReaction[String(h.reactionId)] ?? 0),
+      retractedCount: retractedPerReaction[String(h.reactionId)] ?? 0,
+      tMin: ranges.get(h.reactionId)?.tMin ?? null,
+      tMax: ranges.get(h.reactionId)?.tMax ?? null,
       consensus: summaries.get(h.reactionId)?.consensus ?? null,
       spread: summaries.get(h.reactionId)?.spread ?? null,
     }));
     return { view, total: matches, hits, facets, nextAfter: next(hits.length, matches) };
   }
 
-  /** The temperature range each reaction's matching datasets cover together (a second query, over this page's reactions). */
+  /** The temperature range each reaction's matching datasets that count (not retracted) cover together (a second query, over this page's reactions). */
   private async temperatureRanges(client: Meilisearch, uid: string, filter: MeiliFilter, q: string, reactionIds: number[]) {
-    const ranges = new Map<number, { tMin: number; tMax: number }>();
+    const ranges = new Map<number, { tMin: number | null; tMax: number | null }>();
     if (!reactionIds.length) return ranges;
     const res = await client.index<IndexedDocument>(uid).search(q, {
-      filter: [...filter, `reactionId IN [${reactionIds.join(", ")}]`],
+      filter: [...filter, `reactionId IN [${reactionIds.join(", ")}]`, "retracted = false"],
       attributesToRetrieve: ["reactionId", "tMin", "tMax"],
       matchingStrategy: "all",
       limit: MAX_TOTAL_HITS,
@@ -164,19 +171,32 @@ export class MeilisearchEngine implements SearchEngine {
 /** The engine of the configuration (MEILISEARCH_URL, MEILISEARCH_API_KEY, MEILISEARCH_INDEX), read at each search. */
 export const meilisearchEngine = new MeilisearchEngine();
 
-type Matched = Pick<IndexedDocument, "reactionId" | "reactionKey" | "equation" | "tMin" | "tMax" | "pointCount">;
+type Matched = Pick<IndexedDocument, "reactionId" | "reactionKey" | "equation" | "tMin" | "tMax" | "pointCount" | "retracted">;
+type Grouped = Pick<Matched, "reactionId" | "reactionKey" | "equation" | "pointCount"> & { tMin: number | null; tMax: number | null };
 
-/** Reactions of all matches, ordered as the PostgreSQL engine orders them: widest combined range, or most points in all; then reactionId. */
-function groupByReaction(matches: Matched[], sort: "widest" | "points") {
-  const groups = new Map<number, Matched>();
+/**
+ * Reactions of all matches, ordered as the PostgreSQL engine orders them: widest range, or most
+ * points, of the datasets that count (retracted ones are no evidence; -1 / 0 when all are); then reactionId.
+ */
+function groupByReaction(matches: Matched[], sort: "widest" | "points"): Grouped[] {
+  const groups = new Map<number, Grouped>();
   for (const m of matches) {
-    const g = groups.get(m.reactionId);
-    groups.set(
-      m.reactionId,
-      g ? { ...g, tMin: Math.min(g.tMin, m.tMin), tMax: Math.max(g.tMax, m.tMax), pointCount: g.pointCount + m.pointCount } : { ...m },
-    );
+    const g = groups.get(m.reactionId) ?? {
+      reactionId: m.reactionId,
+      reactionKey: m.reactionKey,
+      equation: m.equation,
+      tMin: null,
+      tMax: null,
+      pointCount: 0,
+    };
+    if (!m.retracted) {
+      g.tMin = Math.min(g.tMin ?? Infinity, m.tMin);
+      g.tMax = Math.max(g.tMax ?? -Infinity, m.tMax);
+      g.pointCount += m.pointCount;
+    }
+    groups.set(m.reactionId, g);
   }
-  const key = (g: Matched) => (sort === "widest" ? g.tMax - g.tMin : g.pointCount);
+  const key = (g: Grouped) => (sort === "widest" ? (g.tMin === null || g.tMax === null ? -1 : g.tMax - g.tMin) : g.pointCount);
   return [...groups.values()].sort((x, y) => key(y) - key(x) || y.reactionId - x.reactionId);
 }
 

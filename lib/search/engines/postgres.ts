@@ -144,10 +144,14 @@ function groupSortOf(query: EngineQuery): SortSpec {
       return { key: sql`max(ts_rank(d.document, ${tsQuery((query.parsed as { text: string }).text)}))`, type: sql`real` };
     case "newest":
       return { key: sql`max(d.published_at)`, type: sql`timestamptz` };
+    // Over the datasets that count (retracted ones are listed, not evidence); -1 / 0 when all are retracted.
     case "widest":
-      return { key: sql`max(d.t_max) - min(d.t_min)`, type: sql`double precision` };
+      return {
+        key: sql`coalesce(max(d.t_max) filter (where not d.retracted) - min(d.t_min) filter (where not d.retracted), -1)`,
+        type: sql`double precision`,
+      };
     case "points":
-      return { key: sql`sum(d.point_count)::bigint`, type: sql`bigint` };
+      return { key: sql`coalesce(sum(d.point_count) filter (where not d.retracted), 0)::bigint`, type: sql`bigint` };
   }
 }
 
@@ -260,8 +264,9 @@ type ReactionRow = {
   reaction_key: string;
   equation: string;
   datasets: number;
-  t_min: number;
-  t_max: number;
+  retracted: number;
+  t_min: number | null;
+  t_max: number | null;
   consensus: ReactionHit["consensus"];
   spread: number | null;
   sort_key: string;
@@ -271,10 +276,12 @@ async function reactionHits(base: SQL, query: EngineQuery, after: { key: string;
   const { key, type } = groupSortOf(query);
   const keyset = after ? sql`where (g.sort_value, g.reaction_id) < (${after.key}::${type}, ${after.id})` : sql``;
   const rows = await getDb().execute<ReactionRow>(sql`
-    select g.reaction_id, g.reaction_key, g.equation, g.datasets, g.t_min, g.t_max, s.consensus, s.spread, g.sort_value::text as sort_key
+    select g.reaction_id, g.reaction_key, g.equation, g.datasets, g.retracted, g.t_min, g.t_max, s.consensus, s.spread,
+      g.sort_value::text as sort_key
     from (
-      select d.reaction_id, min(d.reaction_key) as reaction_key, min(d.equation) as equation, count(*)::int as datasets,
-        min(d.t_min) as t_min, max(d.t_max) as t_max, ${key} as sort_value
+      select d.reaction_id, min(d.reaction_key) as reaction_key, min(d.equation) as equation,
+        count(*) filter (where not d.retracted)::int as datasets, count(*) filter (where d.retracted)::int as retracted,
+        min(d.t_min) filter (where not d.retracted) as t_min, max(d.t_max) filter (where not d.retracted) as t_max, ${key} as sort_value
       from search_documents d
       where ${base} and ${sql.join(
         SEARCH_FACETS.map((f) => facetFilter(f, query.filters)),
@@ -292,8 +299,9 @@ async function reactionHits(base: SQL, query: EngineQuery, after: { key: string;
     reactionKey: r.reaction_key,
     equation: r.equation,
     datasetCount: Number(r.datasets),
-    tMin: Number(r.t_min),
-    tMax: Number(r.t_max),
+    retractedCount: Number(r.retracted),
+    tMin: r.t_min === null ? null : Number(r.t_min),
+    tMax: r.t_max === null ? null : Number(r.t_max),
     consensus: r.consensus ?? null,
     spread: r.spread === null ? null : Number(r.spread),
   }));

@@ -108,7 +108,7 @@ describe("point downloads", () => {
     expect(table.data).toHaveLength(10);
     expect(table.data[9].bath_gas).toBe("'=HYPERLINK(1)");
     // Numbers keep every digit (String of a double round-trips).
-    expect(Number(table.data[0].k_canonical)).toBe(rows[0].k);
+    expect(Number(table.data[0]["k_cm3_molecule-1_s-1"])).toBe(rows[0].k);
   });
 
   it("JSON: the about object and one entry per point with its findings", () => {

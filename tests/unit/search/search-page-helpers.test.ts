@@ -87,17 +87,24 @@ describe("the query key", () => {
 });
 
 describe("suggestions", () => {
-  it("lead to the search for them and are counted in words", () => {
+  it("lead to their own pages, carry their own counts and are counted in words", () => {
     const list = suggestionsOf({
-      species: [{ inchiKey: "TUJKJAMUKRIRHC-UHFFFAOYSA-N", name: "OH", formula: "HO", matched: "hydroxyl radical" }],
-      reactions: [{ reactionId: 3, reactionKey: "RK-1", equation: "OH + CH4 → H2O + CH3", datasetCount: 1 }],
+      species: [{ inchiKey: "TUJKJAMUKRIRHC-UHFFFAOYSA-N", name: "OH", formula: "HO", matched: "hydroxyl radical", datasetCount: 4 }],
+      reactions: [{ reactionId: 3, reactionKey: "A-B>>C", equation: "OH + CH4 → H2O + CH3", datasetCount: 1 }],
     });
     expect(list).toEqual([
-      { kind: "species", label: "OH", detail: "HO, also “hydroxyl radical”", q: "OH" },
-      { kind: "reaction", label: "OH + CH4 → H2O + CH3", detail: "1 dataset", q: "OH + CH4 → H2O + CH3" },
+      {
+        kind: "species",
+        label: "OH",
+        detail: "HO, also “hydroxyl radical”, 4 datasets",
+        q: "OH",
+        href: "/species/TUJKJAMUKRIRHC-UHFFFAOYSA-N",
+      },
+      { kind: "reaction", label: "OH + CH4 → H2O + CH3", detail: "1 dataset", q: "OH + CH4 → H2O + CH3", href: "/reactions/A-B~C" },
     ]);
-    expect(suggestionHref(list[0])).toBe("/search?q=OH");
-    expect(suggestionHref({ kind: "species", label: "x", detail: "", q: "OH + *" })).toBe("/search?q=OH+%2B+*");
+    // A species opens its page, a reaction its page by key (never the numeric alias, which redirects).
+    expect(suggestionHref(list[0])).toBe("/species/TUJKJAMUKRIRHC-UHFFFAOYSA-N");
+    expect(suggestionHref(list[1])).toBe("/reactions/A-B~C");
     expect(suggestionCountWords(list)).toBe("2 suggestions: 1 species and 1 reaction. Up and down arrows to choose.");
     expect(suggestionCountWords([])).toMatch(/^No suggestions/);
   });

@@ -1,4 +1,7 @@
 import { versionPath } from "@/lib/identifiers/paths";
+import { getReactionCached } from "@/lib/reactions/cached";
+import { StatisticGlossary } from "@/components/statistic-term";
+import { reactionPath } from "@/lib/reactions/paths";
 import type { Metadata } from "next";
 import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
 import Link from "next/link";
@@ -70,6 +73,8 @@ export default async function DatasetVersionPage({
   ]);
   if (!loaded) notFound();
   const { version, doc, analysis: result, rows } = loaded;
+  // Linked by its key (the numeric id is only an alias that redirects there).
+  const reaction = version.reactionId ? await getReactionCached({ id: version.reactionId }) : null;
   const units = unitsFromQuery(doc.reaction.order, query);
   // listPublicVersions is newest first.
   const newest = versions[0];
@@ -107,7 +112,7 @@ export default async function DatasetVersionPage({
         <p className="flex flex-wrap items-center gap-3 text-sm text-muted">
           <StateLabel state={version.state} /> <span>Version {version.number}</span>
           {version.publishedAt && <span>published {day(version.publishedAt)}</span>}
-          {version.reactionId && <Link href={`/reactions/${version.reactionId}`}>All datasets of this reaction</Link>}
+          {reaction && <Link href={reactionPath(reaction.key)}>All datasets of this reaction</Link>}
           {mayReadAudit && <Link href={auditTrailPath(datasetId)}>Audit trail</Link>}
         </p>
         <h1 className="text-3xl font-semibold">{version.title}</h1>
@@ -184,6 +189,12 @@ export default async function DatasetVersionPage({
             doc.reportedFit ? { reportedFit: doc.reportedFit, units: doc.units, reaction: { order: doc.reaction.order } } : undefined
           }
         />
+        {result && (
+          <StatisticGlossary
+            className="card"
+            ids={["refit", "band", "standardError", "r2", "dof", "residualSD", "scatterRatio", "sigmaLnK", "residual", "residualInSigma"]}
+          />
+        )}
       </section>
 
       <section className="card space-y-2" aria-labelledby="downloads-heading">
@@ -191,8 +202,8 @@ export default async function DatasetVersionPage({
           Download the points
         </h2>
         <p className="text-sm">
-          Every point as deposited and in canonical units (T in K, k in {loaded.about.canonicalUnits.k}, pressure in Pa), with its
-          uncertainty, residual and findings, under a header with the identifier, licence, citation and the caution above.
+          Every point as deposited and converted to K, {loaded.about.canonicalUnits.k} and Pa (T, k and pressure), with its uncertainty,
+          residual and findings, under a header with the identifier, licence, citation and the caution above.
         </p>
         <ul className="flex flex-wrap gap-3 text-sm">
           <li>
