@@ -6,7 +6,7 @@ import { ConsensusPlot } from "@/components/consensus-plot";
 import { ConsensusComparisons, ConsensusSummary, comparisonCell } from "@/components/consensus-report";
 import { StateLabel } from "@/components/state-label";
 import { renderSpeciesSvg } from "@/lib/chem";
-import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
+import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { getCurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/permissions";
 import { versionCapabilities } from "@/lib/curation/capabilities";
@@ -213,7 +213,6 @@ export default async function ReactionPage({
                 </thead>
                 <tbody>
                   {versions.map((v) => {
-                    const a = drawableFit(v.analysis);
                     return (
                       <tr key={v.versionId}>
                         <td>
@@ -225,7 +224,7 @@ export default async function ReactionPage({
                         <td className="font-mono text-xs">{v.versionIdentifier ?? "—"}</td>
                         <td className="whitespace-nowrap">{formatRange(v.tMin, v.tMax, "")}</td>
                         <td>{v.pointCount}</td>
-                        <td>{a?.arrhenius ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
+                        <td>{v.ea !== null ? sig(v.ea / GAS_CONSTANT, 4) : "—"}</td>
                         <td className="min-w-56">{againstOthers(v.versionId)}</td>
                       </tr>
                     );
