@@ -95,26 +95,14 @@ type Row = {
 
 const LIST_COLUMN: Record<ListFacet, "bath_gases" | "flags" | "creators"> = { bathGas: "bath_gases", flags: "flags", creator: "creators" };
 
-function build(generation: string, rows: Row[]): MemoryIndex {
-  const n = rows.length;
+/** Builds the index of `n` documents from their rows, fed a slice at a time (`add`), then `done`. */
+function builder(generation: string, n: number) {
   const scalar = Object.fromEntries(
     SCALAR_FACETS.map((f) => [f, { dictionary: new Dictionary(), codes: new Int32Array(n) }]),
   ) as MemoryIndex["scalar"];
-  const list = {} as MemoryIndex["list"];
-  for (const f of LIST_FACETS) {
-    const dictionary = new Dictionary();
-    const offsets = new Int32Array(n + 1);
-    let total = 0;
-    for (let i = 0; i < n; i++) total += rows[i][LIST_COLUMN[f]].length;
-    const values = new Int32Array(total);
-    let at = 0;
-    for (let i = 0; i < n; i++) {
-      offsets[i] = at;
-      for (const v of rows[i][LIST_COLUMN[f]]) values[at++] = dictionary.code(v);
-    }
-    offsets[n] = at;
-    list[f] = { dictionary, offsets, values };
-  }
+  const lists = Object.fromEntries(
+    LIST_FACETS.map((f) => [f, { dictionary: new Dictionary(), offsets: new Int32Array(n + 1), values: [] as number[] }]),
+  ) as Record<ListFacet, { dictionary: Dictionary; offsets: Int32Array; values: number[] }>;
   const keySetOf = new Map<string, number>();
   const keySets: string[][] = [];
   // Arrays arrive as their text form ({a,b}): InChIKeys hold no comma, quote or brace.
@@ -142,15 +130,16 @@ function build(generation: string, rows: Row[]): MemoryIndex {
     publishedMicros: new Float64Array(n),
     sourceYear: new Float64Array(n),
     scalar,
-    list,
+    list: {} as MemoryIndex["list"],
     reactantSet: new Int32Array(n),
     productSet: new Int32Array(n),
     keySets,
     reactions,
     byVersion: new Map(),
   };
-  for (let i = 0; i < n; i++) {
-    const r = rows[i];
+  let i = 0;
+  const add = (r: Row) => {
+    if (i >= n) return;
     const id = Number(r.version_id);
     index.versionId[i] = id;
     index.byVersion.set(id, i);
@@ -179,10 +168,29 @@ function build(generation: string, rows: Row[]): MemoryIndex {
     scalar.methodCategory.codes[i] = scalar.methodCategory.dictionary.code(r.method_category);
     scalar.licence.codes[i] = scalar.licence.dictionary.code(r.licence);
     scalar.sourceYear.codes[i] = r.source_year === null ? -1 : scalar.sourceYear.dictionary.code(String(r.source_year));
+    for (const f of LIST_FACETS) {
+      const l = lists[f];
+      l.offsets[i] = l.values.length;
+      for (const v of r[LIST_COLUMN[f]]) l.values.push(l.dictionary.code(v));
+    }
     index.reactantSet[i] = keySet(r.reactant_keys);
     index.productSet[i] = keySet(r.product_keys);
-  }
-  return index;
+    i++;
+  };
+  const done = (): MemoryIndex => {
+    // Fewer rows than counted cannot happen in one snapshot; shrink anyway rather than keep empty slots.
+    if (i < n) return { ...finish(), size: i };
+    return finish();
+  };
+  const finish = (): MemoryIndex => {
+    for (const f of LIST_FACETS) {
+      const l = lists[f];
+      l.offsets[i] = l.values.length;
+      index.list[f] = { dictionary: l.dictionary, offsets: l.offsets, values: Int32Array.from(l.values) };
+    }
+    return index;
+  };
+  return { add, done };
 }
 
 async function currentGeneration(): Promise<string> {
@@ -190,17 +198,27 @@ async function currentGeneration(): Promise<string> {
   return row?.g ?? "none";
 }
 
+const LOAD_SLICE = 20_000;
+
 async function load(): Promise<MemoryIndex> {
   // One snapshot for the number and the rows: the index is never newer or older than its number.
   return getDb().transaction(
     async (tx) => {
       const [g] = await tx.execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
-      const rows = await tx.execute<Row>(sql`
-        select version_id, reaction_id, reaction_key, equation, reactant_keys::text as reactant_keys, product_keys::text as product_keys,
-          reaction_class, phase, method_category, licence, source_year, bath_gases, flags, creators, t_min, t_max, p_min, p_max,
-          point_count, (extract(epoch from published_at) * 1000000)::bigint::text as published_us
-        from search_documents where latest order by version_id`);
-      return build(g?.g ?? "none", rows as unknown as Row[]);
+      const [count] = await tx.execute<{ n: number }>(sql`select count(*)::int as n from search_documents where latest`);
+      const index = builder(g?.g ?? "none", Number(count?.n ?? 0));
+      // In slices of LOAD_SLICE documents by version id, so that few rows are held at once (the index itself is small).
+      for (let after = 0; ;) {
+        const slice = (await tx.execute<Row>(sql`
+          select version_id, reaction_id, reaction_key, equation, reactant_keys::text as reactant_keys, product_keys::text as product_keys,
+            reaction_class, phase, method_category, licence, source_year, bath_gases, flags, creators, t_min, t_max, p_min, p_max,
+            point_count, (extract(epoch from published_at) * 1000000)::bigint::text as published_us
+          from search_documents where latest and version_id > ${after} order by version_id limit ${LOAD_SLICE}`)) as unknown as Row[];
+        for (const r of slice) index.add(r);
+        if (slice.length < LOAD_SLICE) break;
+        after = Number(slice[slice.length - 1].version_id);
+      }
+      return index.done();
     },
     { isolationLevel: "repeatable read", accessMode: "read only" },
   );
