@@ -11,9 +11,9 @@ import type { SearchFacet, SearchFilters } from "../types";
  * in one pass over the candidates (at 100 000 documents a facet count in SQL cost hundreds of
  * milliseconds, here a few).
  *
- * Freshness: drizzle/0024 counts every change to search_documents in search_generation, in the
- * transaction of the change; each search reads that number (one indexed row) and reloads the
- * index when it moved, so a search never answers from documents older than the last committed
+ * Freshness: drizzle/0024 sets search_generation to the id of each transaction that changes
+ * search_documents, inside it; each search reads that mark (one row) and reloads the index when
+ * it moved, so a search never answers from documents older than the last committed
  * change it could see. One load at a time per process; searches during a reload wait for it.
  */
 
