@@ -231,13 +231,18 @@ let loading: Promise<MemoryIndex> | null = null;
 export async function memoryIndex(): Promise<MemoryIndex> {
   const generation = await currentGeneration();
   if (current && current.generation === generation) return current;
-  if (!loading)
-    loading = load()
-      .then((index) => (current = index))
-      .finally(() => (loading = null));
+  // A load started now reads a snapshot taken after `generation` was read: never older than what
+  // this search saw, even when more changes commit meanwhile (a stream of changes, a reindex,
+  // costs a search one load at most, never a loop of them).
+  const start = () =>
+    (loading = load()
+      .then((loaded) => (current = loaded))
+      .finally(() => (loading = null)));
+  if (!loading) return start();
   const index = await loading;
-  // A change committed while loading: the index read before it; load once more.
-  return index.generation === generation || generation === "none" ? index : memoryIndex();
+  if (index.generation === generation) return index;
+  // That load may have begun before the change this search saw: then a load begun after it.
+  return loading ?? start();
 }
 
 // ---------------------------------------------------------------------------------------------
