@@ -18,11 +18,14 @@ export function ConsensusSummary({
   kUnitLabel,
   labels,
   caution,
+  shown,
 }: {
   result: ConsensusResult;
   kUnitLabel: string;
   labels: Map<string, string>;
   caution: string;
+  /** The datasets of the page's part of a long list (ids); every one when absent. */
+  shown?: ReadonlySet<string>;
 }) {
   const modified = result.preferred === "modified_arrhenius" ? result.modifiedArrhenius : null;
   const fit = modified ?? result.arrhenius;
@@ -91,7 +94,7 @@ export function ConsensusSummary({
           </tbody>
         </table>
       </ScrollRegion>
-      <SharesTable result={result} labels={labels} />
+      <SharesTable result={result} labels={labels} shown={shown} />
       <p className="text-sm text-muted">
         <StatisticTerm id="betweenDatasets" plain="How much the datasets disagree beyond their own uncertainties" />: τ² = {sig(fit.tau2)}{" "}
         (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
@@ -118,10 +121,11 @@ export function ConsensusSummary({
  * Who carries the consensus: each included dataset's share in k̂ at the temperatures of f(T). The
  * shares add up to 1 at each temperature (not across a row: a dataset's share changes along T).
  */
-function SharesTable({ result, labels }: { result: ConsensusResult; labels: Map<string, string> }) {
+function SharesTable({ result, labels, shown }: { result: ConsensusResult; labels: Map<string, string>; shown?: ReadonlySet<string> }) {
   const rows = result.shares;
   if (rows.length === 0 || rows[0].shares.length < 2) return null;
-  const ids = rows[0].shares.map((s) => s.id);
+  const ids = rows[0].shares.map((s) => s.id).filter((id) => !shown || shown.has(id));
+  if (!ids.length) return null;
   return (
     <ScrollRegion label="Share of each dataset in the consensus (table)">
       <table className="table" aria-label="Share of each dataset in the consensus">
@@ -143,9 +147,11 @@ function SharesTable({ result, labels }: { result: ConsensusResult; labels: Map<
           {rows.map((r) => (
             <tr key={r.T}>
               <td>{Math.round(r.T * 10) / 10}</td>
-              {r.shares.map((s) => (
-                <td key={s.id}>{formatFixed(s.share * 100, 0)}</td>
-              ))}
+              {r.shares
+                .filter((s) => !shown || shown.has(s.id))
+                .map((s) => (
+                  <td key={s.id}>{formatFixed(s.share * 100, 0)}</td>
+                ))}
             </tr>
           ))}
         </tbody>
@@ -155,7 +161,16 @@ function SharesTable({ result, labels }: { result: ConsensusResult; labels: Map<
 }
 
 /** Each dataset against the consensus of the others: the verdict in words and per comparison temperature. */
-export function ConsensusComparisons({ result, labels }: { result: ConsensusResult; labels: Map<string, string> }) {
+export function ConsensusComparisons({
+  result,
+  labels,
+  shown,
+}: {
+  result: ConsensusResult;
+  labels: Map<string, string>;
+  /** The datasets of the page's part of a long list (ids); every one when absent. */
+  shown?: ReadonlySet<string>;
+}) {
   return (
     <section className="card space-y-4" aria-labelledby="comparison-heading">
       <h2 id="comparison-heading" className="text-xl font-semibold">
@@ -166,9 +181,11 @@ export function ConsensusComparisons({ result, labels }: { result: ConsensusResu
         dataset&apos;s own uncertainty, that of the others&apos; consensus and the spread between datasets; a dataset is off when any |z|
         exceeds the bound for its number of temperatures (family level 5 %).
       </p>
-      {result.members.map((m) => (
-        <MemberComparison key={m.id} member={m} label={labels.get(m.id) ?? m.id} otherSide={otherSideOf(result, m, labels)} />
-      ))}
+      {result.members
+        .filter((m) => !shown || shown.has(m.id))
+        .map((m) => (
+          <MemberComparison key={m.id} member={m} label={labels.get(m.id) ?? m.id} otherSide={otherSideOf(result, m, labels)} />
+        ))}
     </section>
   );
 }

@@ -191,9 +191,15 @@ async function ensureFilledDatabase(): Promise<FillStamp> {
 
 /** What the build depends on: every file outside scripts/, tests/ and Markdown, as committed and as changed since. */
 function buildStamp(): string {
-  const git = (...args: string[]) => spawnSync("git", args, { encoding: "utf8" }).stdout;
+  const git = (...args: string[]) => {
+    const done = spawnSync("git", args, { encoding: "utf8", maxBuffer: 256 * 2 ** 20 });
+    // A failing git (e.g. a pathspec it refuses) must not give the same stamp every time: the build would never be redone.
+    if (done.status !== 0) throw new Error(`git ${args.join(" ")} failed: ${done.stderr || done.error?.message}`);
+    return done.stdout;
+  };
   const paths = ["--", ".", ":!scripts", ":!tests", ":!*.md"];
-  return sha(git("ls-tree", "-r", "HEAD", ...paths), git("diff", "HEAD", ...paths), git("status", "--porcelain", ...paths));
+  // ls-files (not ls-tree, which refuses exclude pathspecs): the committed blobs, then what changed since.
+  return sha(git("ls-files", "--stage", ...paths), git("diff", "HEAD", ...paths), git("status", "--porcelain", ...paths));
 }
 
 function buildApp() {

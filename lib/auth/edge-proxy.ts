@@ -147,6 +147,11 @@ function refuse(res: http.ServerResponse, status: number, code: string, title: s
  */
 export const BODY_IDLE_TIMEOUT_MS = 10_000;
 
+/** How a socket the other side closed while idle fails the next request written to it. */
+export function isStaleSocketError(err: NodeJS.ErrnoException): boolean {
+  return err.code === "ECONNRESET" || err.code === "EPIPE" || err.code === "ECONNABORTED";
+}
+
 /** GET and HEAD carry no content (RFC 9110 §9.3.1–2); a declared body there is refused, never forwarded. */
 const BODYLESS_METHODS = new Set(["GET", "HEAD"]);
 
@@ -156,10 +161,22 @@ export function declaresBody(headers: http.IncomingHttpHeaders): boolean {
   return (length !== undefined && Number(length) !== 0) || headers["transfer-encoding"] !== undefined;
 }
 
+/** The Connection header and the headers it lists (Transfer-Encoding kept: the body is sent on as it came). */
+function hopByHop(connection: string | undefined): string[] {
+  const named = (connection ?? "")
+    .split(",")
+    .map((s) => s.trim().toLowerCase())
+    .filter((s) => s && s !== "transfer-encoding" && s !== "content-length");
+  return ["connection", "keep-alive", ...named];
+}
+
 /** Rewrites the incoming headers for the app behind; exported for tests. */
 export function forwardedHeaders(req: http.IncomingMessage, trust: TrustProxy, key: string): http.OutgoingHttpHeaders {
   const headers: http.OutgoingHttpHeaders = { ...req.headers };
   for (const name of STRIPPED_ALWAYS) delete headers[name];
+  // Connection and what it names concern the client's hop only (RFC 9110 §7.6.1): the connection to
+  // the app stays kept alive whatever the client asked of its own.
+  for (const name of hopByHop(req.headers.connection)) delete headers[name];
   if (!trust(req.socket.remoteAddress ?? "", 0)) for (const name of STRIPPED_UNTRUSTED) delete headers[name];
   const address = plainAddress(proxyaddr(req, trust));
   headers["x-forwarded-for"] = address;
@@ -187,6 +204,8 @@ export async function startEdgeProxy({
   bodyIdleTimeoutMs?: number;
 }) {
   const agent = new http.Agent({ keepAlive: true });
+  // One connection per request: the second try of a GET whose kept-alive socket the app had closed.
+  const freshAgent = new http.Agent({ keepAlive: false });
   const ownOrigin = new URL(appOrigin).origin;
   const ownHost = new URL(appOrigin).host;
   const server = http.createServer((req, res) => {
@@ -228,21 +247,37 @@ export async function startEdgeProxy({
       req.destroy();
       return;
     }
-    const upstream = http.request(
-      { host: "127.0.0.1", port: upstreamPort, method: req.method, path: req.url, headers, agent },
-      (answer) => {
-        res.writeHead(answer.statusCode ?? 502, answer.headers);
-        answer.pipe(res);
-      },
-    );
-    upstream.on("error", (err: NodeJS.ErrnoException) => {
-      if (res.writableEnded) return; // already answered (e.g. 413)
-      if (res.destroyed) return; // the client went away first (and we stopped the request behind it)
-      if (!res.headersSent)
-        console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}: the app did not answer (${err.code ?? err.message})`);
-      if (!res.headersSent) res.writeHead(502, { "content-type": "text/plain" }).end("The application is starting or unavailable.");
-      else res.destroy();
-    });
+    // The app behind may close a kept-alive socket just as a request is written to it (its idle
+    // timeout); a GET or HEAD that met such a socket (reused, nothing answered yet) is sent once more
+    // on a fresh connection, since repeating it changes nothing (RFC 9110 §9.2.2). Anything else is a 502.
+    const retryable = BODYLESS_METHODS.has(req.method ?? "");
+    const send = (fresh: boolean): http.ClientRequest => {
+      const sent = http.request(
+        { host: "127.0.0.1", port: upstreamPort, method: req.method, path: req.url, headers, agent: fresh ? freshAgent : agent },
+        (answer) => {
+          // The app's Connection and Keep-Alive describe the inner hop; the client's own is Node's to answer.
+          const answerHeaders = { ...answer.headers };
+          for (const name of hopByHop(answer.headers.connection)) delete answerHeaders[name];
+          res.writeHead(answer.statusCode ?? 502, answerHeaders);
+          answer.pipe(res);
+        },
+      );
+      sent.on("error", (err: NodeJS.ErrnoException) => {
+        if (res.writableEnded) return; // already answered (e.g. 413)
+        if (res.destroyed) return; // the client went away first (and we stopped the request behind it)
+        if (!fresh && retryable && sent.reusedSocket && !res.headersSent && isStaleSocketError(err)) {
+          upstream = send(true);
+          upstream.end();
+          return;
+        }
+        if (!res.headersSent)
+          console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}: the app did not answer (${err.code ?? err.message})`);
+        if (!res.headersSent) res.writeHead(502, { "content-type": "text/plain" }).end("The application is starting or unavailable.");
+        else res.destroy();
+      });
+      return sent;
+    };
+    let upstream = send(false);
     // A client that goes away stops the work behind it too.
     res.on("close", () => {
       clearTimeout(idle);
@@ -282,7 +317,11 @@ export async function startEdgeProxy({
       req.on("end", () => clearTimeout(idle));
     }
     if (limit === Infinity) {
-      req.pipe(upstream);
+      // A GET or HEAD has no body (one that declared one was refused above): sent at once, so a second try needs nothing of it.
+      if (retryable) {
+        upstream.end();
+        req.resume();
+      } else req.pipe(upstream);
       return;
     }
     let received = 0;
@@ -322,6 +361,7 @@ export async function startEdgeProxy({
     close: () =>
       new Promise<void>((resolve) => {
         agent.destroy();
+        freshAgent.destroy();
         server.close(() => resolve());
         server.closeAllConnections();
       }),

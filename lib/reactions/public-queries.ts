@@ -80,6 +80,8 @@ export async function findPublicSpecies({ inchiKey }: { inchiKey: string }) {
         select min(name) as name, count(*) as uses from (
           select e->>'name' as name from dataset_versions v, jsonb_array_elements(v.participant_names) e
           where v.state in ('published', 'retracted') and (e->>'speciesId')::int = s.id
+            -- Only versions of reactions the species takes part in can name it (by the reaction index, not every version).
+            and v.reaction_id in (select rp.reaction_id from reaction_participants rp where rp.species_id = s.id)
           union all select sn.name from species_names sn where sn.species_id = s.id) all_names
         group by lower(name)) named) as names
     from species s

@@ -10,6 +10,9 @@ import { writeReactionSummary } from "@/lib/search/documents";
 import type { CuratorExclusion } from "./consensus-selection";
 import { reactionDisplayEquation, speciesDisplayName } from "./display-names";
 
+/** What the consensus reads of a version's document: its method category and reaction order. */
+export type ConsensusPayload = { method: { category?: unknown }; reaction: { order?: unknown } };
+
 /**
  * The version is its dataset's newest public one. Each version carries its own reaction, so a
  * dataset appears under the reaction of its newest public version, and no draft moves it.
@@ -54,7 +57,12 @@ export async function getReaction({ id }: { id: number }) {
 
 /**
  * The newest public version (published or retracted) of every dataset whose newest public version
- * describes this reaction, with its stored points and newest analysis.
+ * describes this reaction, with its stored points and what the consensus and the reaction page use
+ * of its document and newest analysis — never the whole of either: from the document the method
+ * category and the reaction order; from the analysis its outlier flag (the points its own fit
+ * flagged) and the activation energy of its Arrhenius fit when that fit can be drawn. A reaction
+ * with hundreds of datasets otherwise carried every band and residual of every analysis through
+ * the page's data cache.
  */
 export async function listPublicVersionsOfReaction({ reactionId, db = getDb() }: { reactionId: number; db?: Transaction | Database }) {
   const versions = await db
@@ -68,7 +76,9 @@ export async function listPublicVersionsOfReaction({ reactionId, db = getDb() }:
       tMin: datasetVersions.tMin,
       tMax: datasetVersions.tMax,
       pointCount: datasetVersions.pointCount,
-      payload: datasetVersions.payload,
+      payload: sql<ConsensusPayload>`jsonb_build_object(
+        'method', jsonb_build_object('category', ${datasetVersions.payload} -> 'method' -> 'category'),
+        'reaction', jsonb_build_object('order', ${datasetVersions.payload} -> 'reaction' -> 'order'))`,
     })
     .from(datasetVersions)
     .where(and(eq(datasetVersions.reactionId, reactionId), isNewestPublic))
@@ -85,17 +95,36 @@ export async function listPublicVersionsOfReaction({ reactionId, db = getDb() }:
     .from(versionPoints)
     .where(inArray(versionPoints.versionId, ids))
     .orderBy(versionPoints.versionId, versionPoints.idx);
+  const result = sql.raw(`"version_analyses"."result"`);
   const analyses = await db
-    .selectDistinctOn([versionAnalyses.versionId], { versionId: versionAnalyses.versionId, result: versionAnalyses.result })
+    .selectDistinctOn([versionAnalyses.versionId], {
+      versionId: versionAnalyses.versionId,
+      // Only the outlier flag (storedOutliers in ./consensus-selection.ts); no flag list at all stays absent.
+      summary: sql<{ flags?: unknown[] } | null>`case when ${result} is null then null
+        when jsonb_typeof(${result} -> 'flags') = 'array' then jsonb_build_object('flags', coalesce(
+          (select jsonb_agg(f) from jsonb_array_elements(${result} -> 'flags') f where f ->> 'code' = 'outlier'), '[]'::jsonb))
+        else '{}'::jsonb end`,
+      // As drawableFit (lib/datasets/version-json.ts) decides: a fit with parameters and a band of two or more temperatures.
+      ea: sql<number | null>`case when jsonb_typeof(${result} -> 'arrhenius' -> 'params') = 'object'
+        and jsonb_typeof(${result} -> 'band' -> 'T') = 'array' and jsonb_array_length(${result} -> 'band' -> 'T') > 1
+        then (${result} -> 'arrhenius' -> 'params' ->> 'Ea')::float8 end`,
+    })
     .from(versionAnalyses)
     .where(inArray(versionAnalyses.versionId, ids))
     .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id));
+  const pointsOf = new Map<number, { T: number; k: number; sigmaLnK?: number }[]>();
+  for (const p of points) {
+    const list = pointsOf.get(p.versionId) ?? [];
+    list.push({ T: p.T, k: p.k, ...(p.sigmaLnK !== null ? { sigmaLnK: p.sigmaLnK } : {}) });
+    pointsOf.set(p.versionId, list);
+  }
+  const analysisOf = new Map(analyses.map((a) => [a.versionId, a]));
   return versions.map((v) => ({
     ...v,
-    points: points
-      .filter((p) => p.versionId === v.versionId)
-      .map((p) => ({ T: p.T, k: p.k, ...(p.sigmaLnK !== null ? { sigmaLnK: p.sigmaLnK } : {}) })),
-    analysis: analyses.find((a) => a.versionId === v.versionId)?.result ?? null,
+    points: pointsOf.get(v.versionId) ?? [],
+    analysis: analysisOf.get(v.versionId)?.summary ?? null,
+    /** Activation energy (J/mol) of the dataset's own Arrhenius fit, when it can be drawn. */
+    ea: analysisOf.get(v.versionId)?.ea ?? null,
   }));
 }
 

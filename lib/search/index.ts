@@ -6,6 +6,7 @@ import { postgresEngine } from "./engines/postgres";
 import { listDisplayEquations } from "./queries";
 import { resolveQuery } from "./resolve-query";
 import { CAUTION } from "@/lib/analyses/analyse-request";
+import { cachedPublic, SEARCH_TAG } from "@/lib/public-cache";
 import type { FacetCount, ParsedQuery, SearchAnswer, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
 
 /**
@@ -64,8 +65,8 @@ export async function search(request: SearchRequest, engine: SearchEngine = curr
   };
 }
 
-/** The search in the shape GET /api/v1/search answers, with the caution sentence: the route and the page's first answer. */
-export async function searchAnswer(request: SearchRequest, engine?: SearchEngine): Promise<SearchAnswer> {
+/** The search in the shape GET /api/v1/search answers, with the caution sentence. */
+async function answerOf(request: SearchRequest, engine?: SearchEngine): Promise<SearchAnswer> {
   const result = await search(request, engine);
   return {
     query: result.query,
@@ -77,6 +78,25 @@ export async function searchAnswer(request: SearchRequest, engine?: SearchEngine
     nextCursor: result.nextCursor,
     caution: CAUTION,
   };
+}
+
+/**
+ * The PostgreSQL engine's answers, cached per request (lib/public-cache.ts) under the `search` tag
+ * that publication, retraction, a re-fit and a consensus exclusion invalidate when they commit:
+ * that engine reads the same database, so a cached answer is never older than the last such
+ * change made through the app. Meilisearch's answers are not cached: its index catches up through
+ * the outbox after the change, later than the invalidation.
+ */
+const cachedPostgresAnswer = cachedPublic(
+  (request: SearchRequest) => answerOf(request, postgresEngine),
+  "search-answer",
+  () => [SEARCH_TAG],
+);
+
+/** The search in the shape GET /api/v1/search answers, with the caution sentence: the route and the page's first answer. */
+export async function searchAnswer(request: SearchRequest, engine?: SearchEngine): Promise<SearchAnswer> {
+  const chosen = engine ?? currentSearchEngine();
+  return chosen === postgresEngine ? cachedPostgresAnswer(request) : answerOf(request, chosen);
 }
 
 export { parseSearchParams, parseSearchParamsOrThrow, toSearchParams } from "./params";

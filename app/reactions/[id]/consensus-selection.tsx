@@ -131,13 +131,17 @@ export function WhatWentIn({
   selection,
   unavailable,
   curatorRows,
+  shown,
 }: {
   selection: ConsensusSelection;
   unavailable: string | null;
+  /** The versions of the page's part of a long list; every one when absent (the counts are always of all). */
+  shown?: ReadonlySet<number>;
   /** Versions the viewer may leave out or include again; null for everyone else. */
   curatorRows: ExclusionRow[] | null;
 }) {
-  const { used, notUsed } = selection;
+  const used = selection.used.filter((d) => !shown || shown.has(d.versionId));
+  const notUsed = selection.notUsed.filter((d) => !shown || shown.has(d.versionId));
   return (
     <section className="card space-y-3" aria-labelledby="inputs-heading">
       <h2 id="inputs-heading" className="text-xl font-semibold">
@@ -145,9 +149,9 @@ export function WhatWentIn({
       </h2>
       <p className="text-sm">{describeChoice(selection.choice)}</p>
       {unavailable && <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{unavailable}</p>}
-      <h3 className="font-semibold">Used ({used.length})</h3>
+      <h3 className="font-semibold">Used ({selection.used.length})</h3>
       {used.length === 0 ? (
-        <p className="text-sm text-muted">None.</p>
+        <p className="text-sm text-muted">{selection.used.length ? "None among the datasets of this part of the list." : "None."}</p>
       ) : (
         <ul className="list-disc space-y-1 pl-6 text-sm">
           {used.map((d) => (
@@ -159,9 +163,9 @@ export function WhatWentIn({
           ))}
         </ul>
       )}
-      <h3 className="font-semibold">Not used ({notUsed.length})</h3>
+      <h3 className="font-semibold">Not used ({selection.notUsed.length})</h3>
       {notUsed.length === 0 ? (
-        <p className="text-sm text-muted">None.</p>
+        <p className="text-sm text-muted">{selection.notUsed.length ? "None among the datasets of this part of the list." : "None."}</p>
       ) : (
         <ul className="list-disc space-y-2 pl-6 text-sm">
           {notUsed.map((d) => (

@@ -2,12 +2,12 @@ import { classPath, speciesPath, versionPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound, permanentRedirect } from "next/navigation";
-import { ConsensusPlot } from "@/components/consensus-plot";
+import { ConsensusPlot, type SeriesPoint } from "@/components/consensus-plot";
 import { StatisticGlossary } from "@/components/statistic-term";
 import { ConsensusComparisons, ConsensusSummary, comparisonCell } from "@/components/consensus-report";
 import { StateLabel } from "@/components/state-label";
 import { renderSpeciesSvg } from "@/lib/chem";
-import { drawableFit, FIT_CAUTION } from "@/lib/datasets/version-json";
+import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { getCurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/permissions";
 import { versionCapabilities } from "@/lib/curation/capabilities";
@@ -55,6 +55,39 @@ export const dynamic = "force-dynamic";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
+/** Datasets per part of the page's lists (the table, the comparisons, what went in). */
+const DATASETS_PER_PART = 50;
+/** Most points the plot draws in all; above it each dataset is thinned (thinForPlot). */
+const PLOT_POINTS = 3000;
+
+/**
+ * The rule for drawing a reaction with very many points: up to PLOT_POINTS every point is drawn;
+ * above, each dataset draws at most max(2, floor(PLOT_POINTS / datasets)) of its points — its
+ * lowest and highest temperatures and points evenly spaced between — so every dataset stays on
+ * the plot and the page stays small. Only the drawing: the consensus uses every point.
+ */
+function thinForPlot(counts: number[]) {
+  const total = counts.reduce((a, b) => a + b, 0);
+  if (total <= PLOT_POINTS) return { thinned: false, perDataset: Infinity, total, drawn: total };
+  const perDataset = Math.max(2, Math.floor(PLOT_POINTS / Math.max(1, counts.length)));
+  return { thinned: true, perDataset, total, drawn: counts.reduce((a, n) => a + Math.min(n, perDataset), 0) };
+}
+
+/** At most `most` points of a series (used and unused together), in temperature order, ends kept; ln k to 6 decimals. */
+function thinned<S extends { points: SeriesPoint[]; unused?: SeriesPoint[] }>(series: S, most: number): S {
+  const round = (p: SeriesPoint): SeriesPoint => ({ ...p, lnk: Math.round(p.lnk * 1e6) / 1e6 });
+  const all = [...series.points.map((p) => ({ p, used: true })), ...(series.unused ?? []).map((p) => ({ p, used: false }))];
+  if (all.length <= most) return { ...series, points: series.points.map(round), unused: series.unused?.map(round) };
+  all.sort((a, b) => a.p.T - b.p.T);
+  const keep = new Set(Array.from({ length: most }, (_, i) => Math.round((i * (all.length - 1)) / (most - 1))));
+  const kept = all.filter((_, i) => keep.has(i));
+  return {
+    ...series,
+    points: kept.filter((x) => x.used).map((x) => round(x.p)),
+    unused: kept.filter((x) => !x.used).map((x) => round(x.p)),
+  };
+}
+
 /**
  * Every public dataset of one reaction, compared on one plot, with the consensus expression. The
  * address is the reaction key (lib/reactions/paths.ts); the numeric id and the key written with
@@ -90,6 +123,21 @@ export default async function ReactionPage({
     (versions[0]?.payload as { reaction?: { order?: ReactionOrder } })?.reaction?.order ??
     2) as ReactionOrder;
   const published = versions.filter((v) => v.state === "published" && new Set(v.points.map((p) => p.T)).size >= 2);
+  // A reaction with many datasets lists them DATASETS_PER_PART at a time (?datasets=2 …); the plot and the consensus take them all.
+  const parts = Math.max(1, Math.ceil(versions.length / DATASETS_PER_PART));
+  const part = Math.min(parts, Math.max(1, Math.trunc(Number(raw("datasets")) || 1)));
+  const listed = versions.slice((part - 1) * DATASETS_PER_PART, part * DATASETS_PER_PART);
+  const shownVersions = parts > 1 ? new Set(listed.map((v) => v.versionId)) : undefined;
+  const shownIds = shownVersions ? new Set([...shownVersions].map(String)) : undefined;
+  const partHref = (n: number) => {
+    const keep = new URLSearchParams(
+      Object.entries(query).flatMap(([k, v]) => (k === "datasets" ? [] : [v ?? []].flat().map((x) => [k, x]))),
+    );
+    if (n > 1) keep.set("datasets", String(n));
+    const search = keep.toString();
+    return `${pagePath}${search ? `?${search}` : ""}#list-heading`;
+  };
+  const plotted = thinForPlot(published.map((v) => v.points.length));
   const used = new Set(selection.used.map((d) => d.versionId));
   const curatorRows = await exclusionRowsFor(versions, selection.curatorExclusions);
   // How the words of the consensus name each dataset.
@@ -173,10 +221,13 @@ export default async function ReactionPage({
               band={preferred ? preferred.band : null}
               series={published.map((v) => ({
                 label: `v${v.number} · ${v.title.split(":").pop()?.trim() ?? v.title}`,
-                ...plotPoints(
-                  v,
-                  selection.inputs.find((d) => d.id === String(v.versionId)),
-                  member(v.versionId),
+                ...thinned(
+                  plotPoints(
+                    v,
+                    selection.inputs.find((d) => d.id === String(v.versionId)),
+                    member(v.versionId),
+                  ),
+                  plotted.perDataset,
                 ),
                 excluded: !used.has(v.versionId) || member(v.versionId)?.included === false,
                 off: member(v.versionId)?.disagreement?.off === true,
@@ -190,14 +241,19 @@ export default async function ReactionPage({
                   : "No published dataset of this reaction has points at two or more temperatures, so nothing can be fitted."}
               </p>
             )}
+            {plotted.thinned && (
+              <p className="text-xs text-muted">
+                {`With ${plotted.total} points in all, the plot draws at most ${plotted.perDataset} of each dataset (its lowest and highest temperatures and points evenly spaced between): ${plotted.drawn} points. Every dataset is drawn; the consensus uses every point; each dataset's page shows all of its own.`}
+              </p>
+            )}
             <p className="text-xs text-muted">{FIT_CAUTION}</p>
           </section>
 
-          {result && <ConsensusSummary result={result} kUnitLabel={kLabel} labels={labels} caution={FIT_CAUTION} />}
+          {result && <ConsensusSummary result={result} kUnitLabel={kLabel} labels={labels} caution={FIT_CAUTION} shown={shownIds} />}
           {result && <StatisticGlossary className="card" ids={["consensus", "uncertaintyFactor", "betweenDatasets", "band"]} />}
-          {result && <ConsensusComparisons result={result} labels={labels} />}
+          {result && <ConsensusComparisons result={result} labels={labels} shown={shownIds} />}
 
-          <WhatWentIn selection={selection} unavailable={unavailable} curatorRows={curatorRows} />
+          <WhatWentIn selection={selection} unavailable={unavailable} curatorRows={curatorRows} shown={shownVersions} />
 
           <section className="card p-0" aria-labelledby="list-heading">
             <h2 id="list-heading" className="px-6 pt-5 text-xl font-semibold">
@@ -217,8 +273,7 @@ export default async function ReactionPage({
                   </tr>
                 </thead>
                 <tbody>
-                  {versions.map((v) => {
-                    const a = drawableFit(v.analysis);
+                  {listed.map((v) => {
                     return (
                       <tr key={v.versionId}>
                         <td>
@@ -230,7 +285,7 @@ export default async function ReactionPage({
                         <td className="font-mono text-xs">{v.versionIdentifier ?? "—"}</td>
                         <td className="whitespace-nowrap">{formatRange(v.tMin, v.tMax, "")}</td>
                         <td>{v.pointCount}</td>
-                        <td>{a?.arrhenius ? sig(a.arrhenius.params.Ea / GAS_CONSTANT, 4) : "—"}</td>
+                        <td>{v.ea !== null ? sig(v.ea / GAS_CONSTANT, 4) : "—"}</td>
                         <td className="min-w-56">{againstOthers(v.versionId)}</td>
                       </tr>
                     );
@@ -238,6 +293,16 @@ export default async function ReactionPage({
                 </tbody>
               </table>
             </ScrollRegion>
+            {parts > 1 && (
+              <nav aria-label="Parts of the list of datasets" className="flex flex-wrap items-center gap-3 px-6 pb-5 pt-3 text-sm">
+                <span>
+                  Datasets {(part - 1) * DATASETS_PER_PART + 1}–{(part - 1) * DATASETS_PER_PART + listed.length} of {versions.length} (the
+                  comparisons and lists above are of these datasets too):
+                </span>
+                {part > 1 && <Link href={partHref(part - 1)}>Previous {DATASETS_PER_PART}</Link>}
+                {part < parts && <Link href={partHref(part + 1)}>Next {DATASETS_PER_PART}</Link>}
+              </nav>
+            )}
           </section>
         </>
       )}
