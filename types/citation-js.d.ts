@@ -1,0 +1,20 @@
+// @citation-js ships no TypeScript types: the few calls the app makes, typed by hand.
+declare module "@citation-js/core" {
+  export class Cite {
+    constructor(data: unknown);
+    data: Record<string, unknown>[];
+    format(format: string, options?: Record<string, unknown>): string;
+  }
+  export const plugins: {
+    config: { get(name: "@csl"): { styles: { add(name: string, xml: string): void; has(name: string): boolean } } };
+  };
+}
+declare module "@citation-js/plugin-csl";
+declare module "@citation-js/plugin-bibtex";
+declare module "@citation-js/plugin-ris";
+declare module "@citation-js/name" {
+  export function parse(name: string): { given?: string; family?: string; "non-dropping-particle"?: string; suffix?: string };
+}
+declare module "@orcid/bibtex-parse-js" {
+  export function toJSON(text: string): { citationKey: string; entryType: string; entryTags: Record<string, string> }[];
+}
