@@ -43,7 +43,9 @@ function infoNode(id: string, title: string, packed: Packed): Packed {
     c: [
       { n: "title", c: [title] },
       { n: "id", c: [`http://www.zotero.org/styles/${id}`] },
-      ...kept.map((c) => (c.n === "rights" ? { ...c, c: ["This work is licensed under a Creative Commons Attribution-ShareAlike 3.0 License"] } : c)),
+      ...kept.map((c) =>
+        c.n === "rights" ? { ...c, c: ["This work is licensed under a Creative Commons Attribution-ShareAlike 3.0 License"] } : c,
+      ),
     ],
   };
 }

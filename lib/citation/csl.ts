@@ -57,7 +57,9 @@ export function cslName(name: string): CslName {
  */
 export function citationKey(subject: Pick<CitationSubject, "identifier" | "title" | "publishedAt" | "versionNumber" | "kind">): string {
   const code = subject.identifier?.split("/").slice(1).join("-") ?? "";
-  const base = code ? `arrhenia-${code}` : `arrhenia-${subject.title.split(/\s+/)[0] ?? "dataset"}${subject.publishedAt?.getUTCFullYear() ?? ""}`;
+  const base = code
+    ? `arrhenia-${code}`
+    : `arrhenia-${subject.title.split(/\s+/)[0] ?? "dataset"}${subject.publishedAt?.getUTCFullYear() ?? ""}`;
   // "…/ARH-4F7K-9QXM/2" already ends in its number; legacy ".v2" forms keep theirs.
   const key = subject.kind === "version" && subject.versionNumber !== null && code ? base.replace(/-(\d+)$/, "-v$1") : base;
   return key.replace(/[^A-Za-z0-9]+/g, "_").replace(/^_+|_+$/g, "");

@@ -14,7 +14,13 @@ const version: CitationSubject = {
   versionNumber: 2,
   url: "https://arrhenia.test/datasets/3/v2",
 };
-const series: CitationSubject = { ...version, kind: "series", identifier: "10.5072/ARH-4F7K-9QXM", versionNumber: null, url: "https://arrhenia.test/datasets/3" };
+const series: CitationSubject = {
+  ...version,
+  kind: "series",
+  identifier: "10.5072/ARH-4F7K-9QXM",
+  versionNumber: null,
+  url: "https://arrhenia.test/datasets/3",
+};
 const item = buildCslItem(version);
 
 describe("buildCslItem", () => {
@@ -66,9 +72,15 @@ describe("formatted references (citation-js + the shipped CSL styles)", () => {
     expect(formatReference(item, "apa")).toBe(
       "Tanaka, E., & Varga, B. (2026). OH + CH4 rate constants, 250–420 K (Version 2) [Dataset]. Arrhenia. https://doi.org/10.5072/ARH-4F7K-9QXM/2",
     ));
-  it("Vancouver", () => expect(formatReference(item, "vancouver")).toMatch(/^Tanaka E, Varga B\. OH \+ CH4 rate constants, 250–420 K \[Internet\]\. Arrhenia; 2026\./));
+  it("Vancouver", () =>
+    expect(formatReference(item, "vancouver")).toMatch(
+      /^Tanaka E, Varga B\. OH \+ CH4 rate constants, 250–420 K \[Internet\]\. Arrhenia; 2026\./,
+    ));
   it("Harvard", () => expect(formatReference(item, "harvard")).toMatch(/^Tanaka, E\. and Varga, B\. \(2026\)/));
-  it("American Chemical Society", () => expect(formatReference(item, "acs")).toMatch(/^Tanaka, E\.; Varga, B\. OH \+ CH4 Rate Constants, 250–420 K, 2026\. https:\/\/doi\.org\/10\.5072\/ARH-4F7K-9QXM\/2\.$/));
+  it("American Chemical Society", () =>
+    expect(formatReference(item, "acs")).toMatch(
+      /^Tanaka, E\.; Varga, B\. OH \+ CH4 Rate Constants, 250–420 K, 2026\. https:\/\/doi\.org\/10\.5072\/ARH-4F7K-9QXM\/2\.$/,
+    ));
   it("every style names the creators and the year, with no list number", () => {
     for (const s of CITATION_STYLES) {
       const text = formatReference(item, s.id);
@@ -108,7 +120,8 @@ describe("BibTeX, RIS and CSL-JSON", () => {
     expect(ris).toMatch(/^ET {2}- 2$/m);
     expect(ris).toMatch(/^DO {2}- 10\.5072\/ARH-4F7K-9QXM\/2$/m);
     const [back] = new Cite(ris).data as Record<string, unknown>[];
-    for (const k of ["type", "title", "author", "issued", "publisher", "version", "DOI", "URL"] as const) expect(back[k], k).toEqual(item[k]);
+    for (const k of ["type", "title", "author", "issued", "publisher", "version", "DOI", "URL"] as const)
+      expect(back[k], k).toEqual(item[k]);
   });
 
   it("CSL-JSON is an array of the one item, read back by citation-js unchanged", () => {

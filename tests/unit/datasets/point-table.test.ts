@@ -138,8 +138,8 @@ describe("citationLine", () => {
         url,
       }),
     ).toBe("Okafor, Maren; Lindqvist, Tomas (2026). OH + CH4 rate constants. Version 2. Arrhenia. doi:10.5072/ARH-4F7K-9QXM/2");
-    expect(citationLine({ kind: "version", creators: [], publishedAt: null, title: "Done.", versionNumber: 1, identifier: null, url })).toBe(
-      "Anonymous (n.d.). Done. Version 1. Arrhenia.",
-    );
+    expect(
+      citationLine({ kind: "version", creators: [], publishedAt: null, title: "Done.", versionNumber: 1, identifier: null, url }),
+    ).toBe("Anonymous (n.d.). Done. Version 1. Arrhenia.");
   });
 });
