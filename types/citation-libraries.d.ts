@@ -1,4 +1,4 @@
-// @citation-js ships no TypeScript types: the few calls the app makes, typed by hand.
+// Libraries that ship no TypeScript types (citation-js, a BibTeX parser, jsonld): the few calls the project makes, typed by hand.
 declare module "@citation-js/core" {
   export class Cite {
     constructor(data: unknown);
@@ -17,4 +17,10 @@ declare module "@citation-js/name" {
 }
 declare module "@orcid/bibtex-parse-js" {
   export function toJSON(text: string): { citationKey: string; entryType: string; entryTags: Record<string, string> }[];
+}
+declare module "jsonld" {
+  const jsonld: {
+    expand(input: unknown, options?: { documentLoader?: (url: string) => Promise<unknown> }): Promise<Record<string, unknown>[]>;
+  };
+  export default jsonld;
 }
