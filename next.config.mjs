@@ -6,28 +6,24 @@ const root = path.dirname(fileURLToPath(import.meta.url));
 /**
  * Content negotiation on a dataset's pages: a client asking for a citation format (and not for
  * HTML) gets the citation endpoint's answer at the page's own URL — the version (`/datasets/3/v2`)
- * or every version (`/datasets/3`). Accept types as the citation endpoint serves them.
+ * or every version (`/datasets/3`). The endpoint sees the page's URL and reads the format from
+ * Accept and the version from the path (lib/citation/request.ts citationQueryOrThrow).
  */
 const citationTypes = [
-  ["application/x-bibtex", "bibtex"],
-  ["application/x-research-info-systems", "ris"],
-  ["application/vnd.citationstyles.csl+json", "csl-json"],
-  ["text/x-bibliography", "text"],
+  "application/x-bibtex",
+  "application/x-research-info-systems",
+  "application/vnd.citationstyles.csl+json",
+  "text/x-bibliography",
 ];
-const acceptRegex = (type) => `(?:.*[,\\s])?${type.replace(/[.+]/g, "\\$&")}(?:[;,\\s].*)?`;
-const citationRewrites = citationTypes.flatMap(([type, format]) => {
-  const has = [{ type: "header", key: "accept", value: acceptRegex(type) }];
-  const missing = [{ type: "header", key: "accept", value: ".*text/html.*" }];
-  return [
-    {
-      source: "/datasets/:id(\\d+)/:version(v\\d+)",
-      has,
-      missing,
-      destination: `/api/v1/datasets/:id/citation?format=${format}&version=:version&negotiated=1`,
-    },
-    { source: "/datasets/:id(\\d+)", has, missing, destination: `/api/v1/datasets/:id/citation?format=${format}&negotiated=1` },
-  ];
-});
+const citationAccept = `(?:.*[,\\s])?(?:${citationTypes.map((t) => t.replace(/[.+]/g, "\\$&")).join("|")})(?:[;,\\s].*)?`;
+const negotiation = {
+  has: [{ type: "header", key: "accept", value: citationAccept }],
+  missing: [{ type: "header", key: "accept", value: ".*text/html.*" }],
+};
+const citationRewrites = [
+  { source: "/datasets/:id(\\d+)/:version(v\\d+)", ...negotiation, destination: "/api/v1/datasets/:id/citation" },
+  { source: "/datasets/:id(\\d+)", ...negotiation, destination: "/api/v1/datasets/:id/citation" },
+];
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {

@@ -2,14 +2,14 @@
 import { withApi } from "@/lib/auth/api";
 import { CITATION_FORMATS, formatCitation } from "@/lib/citation/formats";
 import { getPublicCitation } from "@/lib/citation/public-citation";
-import { parseCitationQueryOrThrow } from "@/lib/citation/request";
+import { citationQueryOrThrow } from "@/lib/citation/request";
 import { AppError } from "@/lib/errors";
 import { parseIdOrThrow } from "@/lib/ids";
 
 export const GET = withApi<{ id: string }>(
   async ({ req, params }) => {
     const datasetId = parseIdOrThrow(params.id, "dataset");
-    const query = parseCitationQueryOrThrow(new URL(req.url).searchParams);
+    const query = citationQueryOrThrow(req);
     const found = await getPublicCitation({ datasetId, versionNumber: query.version });
     // Drafts and versions under review are not found, whoever asks.
     if (!found)
