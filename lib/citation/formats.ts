@@ -103,12 +103,40 @@ export interface RenderedCitation {
   cslJson: string;
 }
 
+/** Rendered citations of recent items: a published version's citation never changes, and rendering all of it costs tens of ms. */
+const rendered = new Map<string, RenderedCitation>();
+const RENDERED_KEPT = 500;
+
 export function renderCitation(item: CslItem): RenderedCitation {
-  return {
+  const key = JSON.stringify(item);
+  const kept = rendered.get(key);
+  if (kept) return kept;
+  const value: RenderedCitation = {
     identifier: typeof item.DOI === "string" ? item.DOI : null,
     references: CITATION_STYLES.map((s) => ({ style: s.id, label: s.label, text: formatReference(item, s.id) })),
     bibtex: formatBibtex(item),
     ris: formatRis(item),
     cslJson: formatCslJson(item),
   };
+  if (rendered.size >= RENDERED_KEPT) rendered.delete(rendered.keys().next().value!);
+  rendered.set(key, value);
+  return value;
+}
+
+/**
+ * Registers the styles and builds citeproc's engine for each once (about a second in all): called
+ * when the citation route loads, which scripts/warm-up.ts makes happen before the server opens, so
+ * no reader's request pays it.
+ */
+export function warmCitationStyles(): void {
+  const item: CslItem = {
+    id: "warm-up",
+    type: "dataset",
+    title: "Warm-up",
+    author: [{ family: "Warm", given: "Up" }],
+    issued: { "date-parts": [[2026]] },
+  };
+  for (const s of CITATION_STYLES) formatReference(item, s.id);
+  formatBibtex(item);
+  formatRis(item);
 }

@@ -1,10 +1,13 @@
 // GET /api/v1/datasets/:id/citation — how to cite a public dataset: one version (?version=n) or every version (the series), as BibTeX, RIS, CSL-JSON or a formatted reference
 import { withApi } from "@/lib/auth/api";
-import { CITATION_FORMATS, formatCitation } from "@/lib/citation/formats";
+import { CITATION_FORMATS, formatCitation, warmCitationStyles } from "@/lib/citation/formats";
 import { getPublicCitation } from "@/lib/citation/public-citation";
 import { citationQueryOrThrow } from "@/lib/citation/request";
 import { AppError } from "@/lib/errors";
 import { parseIdOrThrow } from "@/lib/ids";
+
+// The version pages render citations too, through the same module: its engines are built here, at warm-up.
+warmCitationStyles();
 
 export const GET = withApi<{ id: string }>(
   async ({ req, params }) => {
