@@ -3,15 +3,60 @@ import { fileURLToPath } from "node:url";
 
 const root = path.dirname(fileURLToPath(import.meta.url));
 
+/**
+ * Content negotiation on a dataset's pages: a client asking for a citation format (and not for
+ * HTML) gets the citation endpoint's answer at the page's own URL — the version (`/datasets/3/v2`)
+ * or every version (`/datasets/3`). The endpoint sees the page's URL and reads the format from
+ * Accept and the version from the path (lib/citation/request.ts citationQueryOrThrow).
+ */
+const citationTypes = [
+  "application/x-bibtex",
+  "application/x-research-info-systems",
+  "application/vnd.citationstyles.csl+json",
+  "text/x-bibliography",
+];
+const citationAccept = `(?:.*[,\\s])?(?:${citationTypes.map((t) => t.replace(/[.+]/g, "\\$&")).join("|")})(?:[;,\\s].*)?`;
+const negotiation = {
+  has: [{ type: "header", key: "accept", value: citationAccept }],
+  missing: [{ type: "header", key: "accept", value: ".*text/html.*" }],
+};
+const citationRewrites = [
+  { source: "/datasets/:id(\\d+)/:version(v\\d+)", ...negotiation, destination: "/api/v1/datasets/:id/citation" },
+  { source: "/datasets/:id(\\d+)", ...negotiation, destination: "/api/v1/datasets/:id/citation" },
+];
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   // RDKit loads a .wasm file next to its JS; bundling rewrites that path.
   // piscina starts its own worker file from its package folder, which bundling would move.
-  serverExternalPackages: ["@rdkit/rdkit", "pg-boss", "pg", "smtp-server", "mailparser", "nodemailer", "piscina"],
+  // citation-js loads its plugins and citeproc as CommonJS modules that register with one shared core.
+  serverExternalPackages: [
+    "@citation-js/core",
+    "@citation-js/plugin-csl",
+    "@citation-js/plugin-bibtex",
+    "@citation-js/plugin-ris",
+    "@rdkit/rdkit",
+    "pg-boss",
+    "pg",
+    "smtp-server",
+    "mailparser",
+    "nodemailer",
+    "piscina",
+  ],
   // A lockfile in a parent folder would otherwise move Next's inferred root.
   turbopack: { root },
   outputFileTracingRoot: root,
   poweredByHeader: false,
+  async rewrites() {
+    return { beforeFiles: citationRewrites, afterFiles: [], fallback: [] };
+  },
+  async headers() {
+    // The same URL answers HTML or a citation format, by the Accept header.
+    return [
+      { source: "/datasets/:id(\\d+)", headers: [{ key: "Vary", value: "Accept" }] },
+      { source: "/datasets/:id(\\d+)/:version(v\\d+)", headers: [{ key: "Vary", value: "Accept" }] },
+    ];
+  },
   // npm test builds into its own folder so it never replaces the build a running npm start serves.
   distDir: process.env.NEXT_DIST_DIR || ".next",
   // Type errors are caught by `npm run typecheck`, its own tier in `npm test`; checking again here

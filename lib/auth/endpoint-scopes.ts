@@ -13,6 +13,19 @@ export const endpointScopes: { method: string; path: string; scope: ApiTokenScop
   { method: "GET", path: "/api/v1/reactions/:id/consensus", scope: null, who: "anyone" },
   { method: "GET", path: "/api/v1/identifiers", scope: null, who: "anyone" },
   { method: "POST", path: "/api/v1/datasets", scope: "deposit", who: "researchers" },
+  { method: "GET", path: "/api/v1/datasets/:id/citation", scope: null, who: "anyone, for published and retracted versions" },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/datacite.json",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/datacite.xml",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+  },
   { method: "GET", path: "/api/v1/versions/:id", scope: "read", who: "anyone for published versions; co-editors and curators otherwise" },
   { method: "PUT", path: "/api/v1/versions/:id", scope: "deposit", who: "owner and editors of a draft" },
   {

@@ -1,25 +1,13 @@
+import { buildCslItem, citationLineOf, type CitationSubject } from "./csl";
+
 /**
  * The one-line citation of a published version, as its page shows it and its downloads carry it:
- * creators as deposited, the year of publication, the title, the version, the publisher and the
- * version identifier. Pure. Richer formats (CSL-JSON, BibTeX, RIS) are built elsewhere.
+ * creators, the year of publication, the title, the version, the publisher and the version
+ * identifier. Pure; written from the same CSL-JSON item as every other citation format.
  *
- * @example citationLine({ creators: ["Tanaka, Hiroshi"], year: 2026, title: "OH + CH4", versionNumber: 2, identifier: "10.5072/ARH-4F7K-9QXM/2" })
- * // "Tanaka, Hiroshi (2026). OH + CH4. Version 2. Arrhenia. doi:10.5072/ARH-4F7K-9QXM/2"
+ * @example citationLine({ kind: "version", creators: ["Emi Tanaka"], publishedAt: new Date("2026-03-04"), title: "OH + CH4", versionNumber: 2, identifier: "10.5072/ARH-4F7K-9QXM/2", url: "…" })
+ * // "Tanaka, Emi (2026). OH + CH4. Version 2. Arrhenia. doi:10.5072/ARH-4F7K-9QXM/2"
  */
-export function citationLine({
-  creators,
-  year,
-  title,
-  versionNumber,
-  identifier,
-}: {
-  creators: string[];
-  year: number | null;
-  title: string;
-  versionNumber: number;
-  identifier: string | null;
-}): string {
-  const who = creators.length ? creators.join("; ") : "Anonymous";
-  const end = /[.?!]$/.test(title.trim()) ? "" : ".";
-  return `${who} (${year ?? "n.d."}). ${title.trim()}${end} Version ${versionNumber}. Arrhenia.${identifier ? ` doi:${identifier}` : ""}`;
+export function citationLine(subject: CitationSubject): string {
+  return citationLineOf(buildCslItem(subject));
 }

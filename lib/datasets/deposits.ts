@@ -32,6 +32,7 @@ import {
   createNextVersion,
   getVersionWithRole,
   listDatasetMembers,
+  listPublicVersions,
   saveDraft,
   type IncompleteDraft,
   type VersionDto,
@@ -219,6 +220,13 @@ export async function transitionVersion({
     ["accept", "return", "decline", "retract"].includes(transition) && found
       ? await listDatasetMembers({ datasetId: found.version.datasetId })
       : [];
+  // An accepted later version: the version before it gains an IsPreviousVersionOf relation.
+  const previous =
+    transition === "accept" && found && found.version.number > 1
+      ? (await listPublicVersions({ datasetId: found.version.datasetId })).find(
+          (v) => v.number < found.version.number && v.versionIdentifier,
+        )
+      : undefined;
   return applyTransition({
     versionId,
     actorId: actor.id,
@@ -235,6 +243,7 @@ export async function transitionVersion({
         await enqueueIdentifierRegistration(outcome.identifiers.version, { tx });
         // A later version changes what the series record lists, so it is sent again.
         await enqueueIdentifierRegistration(outcome.identifiers.series, { tx, refresh: (found?.version.number ?? 1) > 1 });
+        if (previous?.versionIdentifier) await enqueueIdentifierRegistration(previous.versionIdentifier, { tx, refresh: true });
       }
       if (transition === "accept" || transition === "return" || transition === "decline" || transition === "retract") {
         const published =

@@ -1,6 +1,7 @@
 import "server-only";
 import { appUrl } from "@/lib/config";
 import { citationLine } from "@/lib/citation/citation-line";
+import { versionCitationSubject } from "@/lib/citation/subjects";
 import type { DepositDocument } from "@/lib/deposits/types";
 import { DEFAULT_LICENCE } from "@/lib/identifiers/datacite";
 import { versionPath } from "@/lib/identifiers/paths";
@@ -17,15 +18,10 @@ const PUBLIC_STATES = new Set(["published", "retracted"]);
 export const isPublicVersion = (v: Pick<VersionDto, "state">) => PUBLIC_STATES.has(v.state);
 
 /** The citation line of a public version, as its page and downloads write it. */
-export function citeVersion(version: Pick<VersionDto, "title" | "number" | "versionIdentifier" | "publishedAt" | "payload">): string {
-  const doc = version.payload as unknown as DepositDocument;
-  return citationLine({
-    creators: (doc.creators ?? []).map((c) => c.name),
-    year: version.publishedAt ? version.publishedAt.getUTCFullYear() : null,
-    title: version.title,
-    versionNumber: version.number,
-    identifier: version.versionIdentifier,
-  });
+export function citeVersion(
+  version: Pick<VersionDto, "datasetId" | "title" | "number" | "versionIdentifier" | "publishedAt" | "payload">,
+): string {
+  return citationLine(versionCitationSubject(version, `${appUrl()}${versionPath(version.datasetId, version.number)}`));
 }
 
 /**

@@ -1,11 +1,22 @@
 // DataCite metadata (kernel 4, as the JSON:API `dois` resource of a registration agency's REST
 // API) for our version and series identifiers. Pure: no I/O, so the same stored version always
-// gives the same body, which keeps re-registration an exact upsert.
+// gives the same body, which keeps re-registration an exact upsert. The one builder: registration
+// sends it, and GET …/versions/:n/datacite.json and datacite.xml serve it (buildDataciteXml).
+import { create } from "xmlbuilder2";
+import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { isDoiSyntax } from "./mint";
 
 /** DataCite relation types we emit (a subset of the schema's controlled list). */
 export type RelationType =
-  "IsVersionOf" | "HasVersion" | "IsNewVersionOf" | "IsSupplementTo" | "IsDescribedBy" | "IsDerivedFrom" | "References" | "Cites";
+  | "IsVersionOf"
+  | "HasVersion"
+  | "IsNewVersionOf"
+  | "IsPreviousVersionOf"
+  | "IsSupplementTo"
+  | "IsDescribedBy"
+  | "IsDerivedFrom"
+  | "References"
+  | "Cites";
 
 export interface DataciteRelatedIdentifier {
   relatedIdentifier: string;
@@ -41,7 +52,7 @@ export interface DataciteAttributes {
   types: { resourceTypeGeneral: "Dataset"; resourceType: string };
   version?: string;
   dates?: { date: string; dateType: "Issued" }[];
-  subjects?: { subject: string }[];
+  subjects?: { subject: string; subjectScheme?: string }[];
   relatedIdentifiers: DataciteRelatedIdentifier[];
   rightsList: DataciteRights[];
   descriptions: { description: string; descriptionType: "Abstract" | "Other" }[];
@@ -79,6 +90,8 @@ export type DoiMetadataInput =
       seriesIdentifier: string | null;
       /** Identifier of the version just before this one, if it was published. */
       previousVersionIdentifier?: string | null;
+      /** Identifier of the version just after this one, once it is published. */
+      nextVersionIdentifier?: string | null;
     })
   | (CommonInput & {
       kind: "series";
@@ -159,6 +172,7 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
   if (input.kind === "version") {
     if (input.seriesIdentifier) related.push(doiRelation(input.seriesIdentifier, "IsVersionOf"));
     if (input.previousVersionIdentifier) related.push(doiRelation(input.previousVersionIdentifier, "IsNewVersionOf"));
+    if (input.nextVersionIdentifier) related.push(doiRelation(input.nextVersionIdentifier, "IsPreviousVersionOf"));
   } else {
     for (const id of input.versionIdentifiers) if (id !== input.doi) related.push(doiRelation(id, "HasVersion"));
   }
@@ -182,10 +196,19 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
   if (description) descriptions.push({ description, descriptionType: "Abstract" });
   if (locator) descriptions.push({ description: `Numbers taken from ${locator} of the source publication.`, descriptionType: "Other" });
 
-  const subjects = asArray(doc.keywords)
+  const subjects: NonNullable<DataciteAttributes["subjects"]> = asArray(doc.keywords)
     .map(asString)
     .filter((s): s is string => !!s)
     .map((subject) => ({ subject }));
+  // The reaction class and the species by the names the deposit gives them.
+  const reaction = asRecord(doc.reaction);
+  const reactionClass = reactionClassFor(reaction.class);
+  if (reactionClass) subjects.push({ subject: reactionClass.label, subjectScheme: "Arrhenia reaction class" });
+  for (const item of [...asArray(reaction.reactants), ...asArray(reaction.products)]) {
+    const name = asString(asRecord(item).name);
+    if (name && !subjects.some((s) => s.subject === name && s.subjectScheme === "species"))
+      subjects.push({ subject: name, subjectScheme: "species" });
+  }
   const fundingReferences = asArray(doc.funding).flatMap((item) => {
     const f = asRecord(item);
     const funderName = asString(f.funder);
@@ -278,4 +301,75 @@ function asArray(value: unknown): unknown[] {
 
 function asString(value: unknown): string | null {
   return typeof value === "string" && value.trim() ? value.trim() : null;
+}
+
+const KERNEL_NS = "http://datacite.org/schema/kernel-4";
+const XSI_NS = "http://www.w3.org/2001/XMLSchema-instance";
+const KERNEL_SCHEMA = "http://schema.datacite.org/meta/kernel-4/metadata.xsd";
+
+/**
+ * The same metadata as DataCite XML (kernel 4: `resource` in the kernel-4 namespace with its schema
+ * location), built with xmlbuilder2 so every text and attribute is escaped by the library.
+ */
+export function buildDataciteXml(attributes: DataciteAttributes): string {
+  const a = attributes;
+  const root = create({ version: "1.0", encoding: "UTF-8" })
+    .ele(KERNEL_NS, "resource")
+    .att(XSI_NS, "xsi:schemaLocation", `${KERNEL_NS} ${KERNEL_SCHEMA}`);
+  root.ele("identifier", { identifierType: "DOI" }).txt(a.doi);
+  const creators = root.ele("creators");
+  for (const c of a.creators) {
+    const el = creators.ele("creator");
+    el.ele("creatorName", c.nameType ? { nameType: c.nameType } : {}).txt(c.name);
+    if (c.givenName) el.ele("givenName").txt(c.givenName);
+    if (c.familyName) el.ele("familyName").txt(c.familyName);
+    for (const n of c.nameIdentifiers ?? [])
+      el.ele("nameIdentifier", { nameIdentifierScheme: n.nameIdentifierScheme, schemeURI: n.schemeUri }).txt(n.nameIdentifier);
+    for (const af of c.affiliation ?? []) el.ele("affiliation").txt(af.name);
+  }
+  const titles = root.ele("titles");
+  for (const t of a.titles) titles.ele("title").txt(t.title);
+  root.ele("publisher").txt(a.publisher);
+  root.ele("publicationYear").txt(String(a.publicationYear));
+  root.ele("resourceType", { resourceTypeGeneral: a.types.resourceTypeGeneral }).txt(a.types.resourceType);
+  if (a.subjects?.length) {
+    const subjects = root.ele("subjects");
+    for (const s of a.subjects) subjects.ele("subject", s.subjectScheme ? { subjectScheme: s.subjectScheme } : {}).txt(s.subject);
+  }
+  if (a.dates?.length) {
+    const dates = root.ele("dates");
+    for (const d of a.dates) dates.ele("date", { dateType: d.dateType }).txt(d.date);
+  }
+  if (a.relatedIdentifiers.length) {
+    const related = root.ele("relatedIdentifiers");
+    for (const r of a.relatedIdentifiers)
+      related
+        .ele("relatedIdentifier", { relatedIdentifierType: r.relatedIdentifierType, relationType: r.relationType })
+        .txt(r.relatedIdentifier);
+  }
+  if (a.version) root.ele("version").txt(a.version);
+  const rights = root.ele("rightsList");
+  for (const r of a.rightsList)
+    rights
+      .ele("rights", {
+        rightsURI: r.rightsUri,
+        rightsIdentifier: r.rightsIdentifier,
+        rightsIdentifierScheme: r.rightsIdentifierScheme,
+        schemeURI: r.schemeUri,
+      })
+      .txt(r.rights);
+  if (a.descriptions.length) {
+    const descriptions = root.ele("descriptions");
+    for (const d of a.descriptions) descriptions.ele("description", { descriptionType: d.descriptionType }).txt(d.description);
+  }
+  if (a.fundingReferences?.length) {
+    const funding = root.ele("fundingReferences");
+    for (const f of a.fundingReferences) {
+      const el = funding.ele("fundingReference");
+      el.ele("funderName").txt(f.funderName);
+      if (f.awardNumber) el.ele("awardNumber").txt(f.awardNumber);
+      if (f.awardTitle) el.ele("awardTitle").txt(f.awardTitle);
+    }
+  }
+  return root.end({ prettyPrint: true }) + "\n";
 }

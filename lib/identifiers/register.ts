@@ -78,12 +78,14 @@ export function buildRegistrationBody(subject: RegistrationSubject): DataciteBod
   };
   if (subject.kind === "version") {
     const previous = subject.versions.filter((v) => v.number < described.number).at(-1);
+    const next = subject.versions.find((v) => v.number > described.number);
     return buildDoiMetadata({
       ...common,
       kind: "version",
       publishedAt: described.publishedAt,
       seriesIdentifier: subject.seriesIdentifier,
       previousVersionIdentifier: previous?.versionIdentifier ?? null,
+      nextVersionIdentifier: next?.versionIdentifier ?? null,
     });
   }
   // A series was first made public with its first version.

@@ -4,6 +4,9 @@ vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn().mockResolvedValue
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
 
 import * as analyses from "@/app/api/v1/analyses/route";
+import * as datasetCitation from "@/app/api/v1/datasets/[id]/citation/route";
+import * as dataciteJson from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.json/route";
+import * as dataciteXml from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.xml/route";
 import * as datasets from "@/app/api/v1/datasets/route";
 import * as files from "@/app/api/v1/files/[fileId]/route";
 import * as identifiers from "@/app/api/v1/identifiers/route";
@@ -30,6 +33,9 @@ import { sql, uniqueEmail, uniqueIp } from "./helpers";
 const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/analyses": analyses,
   "/api/v1/datasets": datasets,
+  "/api/v1/datasets/:id/citation": datasetCitation,
+  "/api/v1/datasets/:id/versions/:n/datacite.json": dataciteJson,
+  "/api/v1/datasets/:id/versions/:n/datacite.xml": dataciteXml,
   "/api/v1/files/:fileId": files,
   "/api/v1/identifiers": identifiers,
   "/api/v1/reactions/:id/consensus": reactionConsensus,

@@ -125,18 +125,21 @@ describe("point downloads", () => {
 });
 
 describe("citationLine", () => {
+  const url = "https://arrhenia.test/datasets/3/v2";
   it("creators, year, title, version, publisher and identifier, once each", () => {
     expect(
       citationLine({
-        creators: ["Okafor, Maren", "Lindqvist, Tomas"],
-        year: 2026,
+        kind: "version",
+        creators: ["Okafor, Maren", "Tomas Lindqvist"],
+        publishedAt: new Date("2026-03-04T10:00:00Z"),
         title: "OH + CH4 rate constants",
         versionNumber: 2,
         identifier: "10.5072/ARH-4F7K-9QXM/2",
+        url,
       }),
     ).toBe("Okafor, Maren; Lindqvist, Tomas (2026). OH + CH4 rate constants. Version 2. Arrhenia. doi:10.5072/ARH-4F7K-9QXM/2");
-    expect(citationLine({ creators: [], year: null, title: "Done.", versionNumber: 1, identifier: null })).toBe(
-      "Anonymous (n.d.). Done. Version 1. Arrhenia.",
-    );
+    expect(
+      citationLine({ kind: "version", creators: [], publishedAt: null, title: "Done.", versionNumber: 1, identifier: null, url }),
+    ).toBe("Anonymous (n.d.). Done. Version 1. Arrhenia.");
   });
 });

@@ -22,6 +22,9 @@ import { getCurrentUser } from "@/lib/auth/session";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
 import { formatNumber } from "@/lib/format";
+import { CiteSection } from "@/components/cite/cite-section";
+import { DatasetJsonLd } from "@/components/cite/dataset-json-ld";
+import { getPublicCitation } from "@/lib/citation/public-citation";
 
 /** The version's own title in the browser tab, "Not found" when there is no such public version. */
 export async function generateMetadata({ params }: { params: Promise<{ id: string; version: string }> }): Promise<Metadata> {
@@ -63,15 +66,16 @@ export default async function DatasetVersionPage({
   const versions = await listPublicVersions({ datasetId });
   const entry = versions.find((x) => x.number === number);
   if (!entry) notFound();
-  const [loaded, dataset, files, query, mayReadAudit] = await Promise.all([
+  const [loaded, dataset, files, query, mayReadAudit, citation] = await Promise.all([
     getPublicVersionPoints({ versionId: entry.id }),
     getDatasetSummary({ datasetId }),
     listVersionFiles({ versionId: entry.id }),
     searchParams,
     // Its members, curators and admins find the dataset's audit trail from here too.
     getCurrentUser().then((viewer) => canReadAuditTrail({ datasetId, viewer })),
+    getPublicCitation({ datasetId, versionNumber: number }),
   ]);
-  if (!loaded) notFound();
+  if (!loaded || !citation) notFound();
   const { version, doc, analysis: result, rows } = loaded;
   // Linked by its key (the numeric id is only an alias that redirects there).
   const reaction = version.reactionId ? await getReactionCached({ id: version.reactionId }) : null;
@@ -83,6 +87,7 @@ export default async function DatasetVersionPage({
 
   return (
     <article className="space-y-6">
+      <DatasetJsonLd version={version} doc={doc} seriesIdentifier={dataset?.seriesIdentifier ?? null} />
       {version.state === "retracted" && (
         <section
           aria-labelledby="retraction-heading"
@@ -218,6 +223,8 @@ export default async function DatasetVersionPage({
           </li>
         </ul>
       </section>
+
+      <CiteSection citation={citation} />
 
       {files.length > 0 && (
         <section className="card space-y-2" aria-labelledby="files-heading">

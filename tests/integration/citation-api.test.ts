@@ -1,0 +1,201 @@
+import { beforeAll, describe, expect, it, vi } from "vitest";
+
+vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
+
+import { toJSON as parseBibtexIndependently } from "@orcid/bibtex-parse-js";
+import { XMLValidator } from "fast-xml-parser";
+import { GET as getCitation } from "@/app/api/v1/datasets/[id]/citation/route";
+import { GET as getDataciteJson } from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.json/route";
+import { GET as getDataciteXml } from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.xml/route";
+import { getCurrentUser } from "@/lib/auth/session";
+import type { Transition } from "@/lib/curation/lifecycle";
+import { applyTransition } from "@/lib/curation/transitions";
+import { depositNewDataset } from "@/lib/datasets/deposits";
+import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
+import { getRegistrationSubject } from "@/lib/identifiers/queries";
+import { buildRegistrationBody } from "@/lib/identifiers/register";
+import { createUser, type UserDto } from "@/lib/users/queries";
+import { uniqueEmail } from "./helpers";
+
+let owner: UserDto, other: UserDto, curator: UserDto, admin: UserDto;
+beforeAll(async () => {
+  const mk = (tag: string, role: UserDto["role"]) =>
+    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  [owner, other, curator, admin] = await Promise.all([
+    mk("cite-owner", "researcher"),
+    mk("cite-other", "researcher"),
+    mk("cite-curator", "curator"),
+    mk("cite-admin", "admin"),
+  ]);
+});
+
+const walks: Record<string, Transition[]> = {
+  draft: [],
+  submitted: ["submit"],
+  in_review: ["submit", "start_review"],
+  returned: ["submit", "start_review", "return"],
+  declined: ["submit", "decline"],
+  published: ["submit", "accept"],
+  retracted: ["submit", "accept", "retract"],
+};
+
+async function datasetIn(state: keyof typeof walks) {
+  const doc = structuredClone(EXAMPLE_DEPOSIT) as typeof EXAMPLE_DEPOSIT;
+  doc.title = `Citation test (${state}) ${uniqueEmail("t")}`;
+  const v = await depositNewDataset({ actor: owner, document: doc });
+  for (const t of walks[state]) {
+    const byOwner = t === "submit";
+    const reason = t === "retract" ? "Retracted for the test: a calibration error." : byOwner ? undefined : "For the test.";
+    await applyTransition({ versionId: v.id, actorId: byOwner ? owner.id : curator.id, transition: t, reason });
+  }
+  return { datasetId: v.datasetId, versionId: v.id, title: doc.title };
+}
+
+const as = (u: UserDto | null) => vi.mocked(getCurrentUser).mockResolvedValue(u);
+const citation = (datasetId: number | string, query = "") =>
+  getCitation(new Request(`http://127.0.0.1/api/v1/datasets/${datasetId}/citation${query}`), {
+    params: Promise.resolve({ id: String(datasetId) }),
+  });
+const datacite = (kind: "json" | "xml", datasetId: number | string, n: number | string) =>
+  (kind === "json" ? getDataciteJson : getDataciteXml)(
+    new Request(`http://127.0.0.1/api/v1/datasets/${datasetId}/versions/${n}/datacite.${kind}`),
+    {
+      params: Promise.resolve({ id: String(datasetId), n: String(n) }),
+    },
+  );
+
+const roles: [string, () => UserDto | null][] = [
+  ["anonymous", () => null],
+  ["owner", () => owner],
+  ["another researcher", () => other],
+  ["curator", () => curator],
+  ["admin", () => admin],
+];
+
+describe("GET /api/v1/datasets/:id/citation", () => {
+  const sets: Record<string, Awaited<ReturnType<typeof datasetIn>>> = {};
+  beforeAll(async () => {
+    for (const state of Object.keys(walks)) sets[state] = await datasetIn(state);
+  }, 120_000);
+
+  it.each(roles)("%s: a published or retracted version is cited; every other state is not found, even to its owner", async (_, who) => {
+    as(who());
+    for (const [state, set] of Object.entries(sets)) {
+      const res = await citation(set.datasetId, "?format=bibtex&version=1");
+      expect(res.status, `${state}`).toBe(state === "published" || state === "retracted" ? 200 : 404);
+      if (res.status === 404) expect(res.headers.get("content-type")).toBe("application/problem+json");
+    }
+  });
+
+  it("serves each format with its media type; the BibTeX parses with an independent BibTeX parser", async () => {
+    as(null);
+    const { datasetId, title } = sets.published;
+    const types = {
+      bibtex: "application/x-bibtex; charset=utf-8",
+      ris: "application/x-research-info-systems; charset=utf-8",
+      "csl-json": "application/vnd.citationstyles.csl+json; charset=utf-8",
+      text: "text/plain; charset=utf-8",
+    };
+    for (const [format, type] of Object.entries(types)) {
+      const res = await citation(datasetId, `?format=${format}&version=1`);
+      expect(res.status, format).toBe(200);
+      expect(res.headers.get("content-type"), format).toBe(type);
+    }
+    const bib = await (await citation(datasetId, "?format=bibtex&version=1")).text();
+    const [entry] = parseBibtexIndependently(bib);
+    const tags = Object.fromEntries(Object.entries(entry.entryTags).map(([k, v]) => [k.toLowerCase(), v]));
+    expect(tags.author).toBe("Okafor, Maren and Lindqvist, Tomas");
+    expect(tags.doi).toMatch(/^10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{4}\/1$/);
+    expect(tags.note).toBe("Version 1");
+    expect(tags.title.replace(/[{}]/g, "")).toContain("Citation test (published)");
+    const [item] = JSON.parse(await (await citation(datasetId, "?format=csl-json&version=1")).text());
+    expect(item).toMatchObject({ type: "dataset", title, version: "1", publisher: "Arrhenia" });
+    expect(item.URL).toMatch(new RegExp(`/datasets/${datasetId}/v1$`));
+  });
+
+  it("without a version, cites every version by the series identifier; styles are chosen by name", async () => {
+    as(null);
+    const { datasetId } = sets.published;
+    const [series] = JSON.parse(await (await citation(datasetId, "?format=csl-json")).text());
+    expect(series.DOI).toMatch(/^10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{4}$/);
+    expect(series.version).toBeUndefined();
+    const apa = await (await citation(datasetId, "?format=text&style=apa&version=1")).text();
+    expect(apa).toMatch(
+      /^Okafor, M\., & Lindqvist, T\. \(\d{4}\)\. Citation test \(published\).* \(Version 1\) \[Dataset\]\. Arrhenia\. https:\/\/doi\.org\/10\.5072\//,
+    );
+    const acs = await (await citation(datasetId, "?format=text&style=acs&version=1")).text();
+    expect(acs).toMatch(/^Okafor, M\.; Lindqvist, T\. /);
+  });
+
+  it("400 problem naming the parameter for a bad format, style or version, an unknown or repeated parameter", async () => {
+    as(null);
+    const { datasetId } = sets.published;
+    const cases: [string, string][] = [
+      ["?format=endnote", "format"],
+      ["?format=text&style=chicago", "style"],
+      ["?version=two", "version"],
+      ["?version=0", "version"],
+      ["?lang=de", "lang"],
+      ["?format=ris&format=bibtex", "format"],
+    ];
+    for (const [query, parameter] of cases) {
+      const res = await citation(datasetId, query);
+      expect(res.status, query).toBe(400);
+      expect(res.headers.get("content-type")).toBe("application/problem+json");
+      const problem = await res.json();
+      expect(
+        problem.errors.map((e: { parameter: string }) => e.parameter),
+        query,
+      ).toContain(parameter);
+    }
+  });
+
+  it("404 for a version number the dataset does not have, an id that is not one, and a dataset with only a draft", async () => {
+    as(owner);
+    expect((await citation(sets.published.datasetId, "?version=2")).status).toBe(404);
+    expect((await citation("abc")).status).toBe(404);
+    expect((await citation(sets.draft.datasetId)).status).toBe(404);
+  });
+});
+
+describe("GET /api/v1/datasets/:id/versions/:n/datacite.json and .xml", () => {
+  let published: Awaited<ReturnType<typeof datasetIn>>, draft: Awaited<ReturnType<typeof datasetIn>>;
+  beforeAll(async () => {
+    [published, draft] = [await datasetIn("published"), await datasetIn("draft")];
+  }, 60_000);
+
+  it.each(roles)("%s: a published version's metadata is the body its registration sends; a draft is not found", async (_, who) => {
+    as(who());
+    const res = await datacite("json", published.datasetId, 1);
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    const identifier = body.data.attributes.doi as string;
+    const subject = await getRegistrationSubject({ identifier });
+    expect(body).toEqual(JSON.parse(JSON.stringify(buildRegistrationBody(subject!))));
+    expect(body.data.attributes.relatedIdentifiers).toContainEqual({
+      relatedIdentifier: "10.5555/arrhenia.example.0001",
+      relatedIdentifierType: "DOI",
+      relationType: "IsSupplementTo",
+    });
+    expect(body.data.attributes.subjects).toContainEqual({ subject: "H-atom abstraction", subjectScheme: "Arrhenia reaction class" });
+    expect((await datacite("json", draft.datasetId, 1)).status).toBe(404);
+    expect((await datacite("xml", draft.datasetId, 1)).status).toBe(404);
+  });
+
+  it("XML: well-formed kernel-4 resource with the same identifier", async () => {
+    as(null);
+    const res = await datacite("xml", published.datasetId, "v1");
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toBe("application/xml; charset=utf-8");
+    const xml = await res.text();
+    expect(XMLValidator.validate(xml)).toBe(true);
+    expect(xml).toContain('<resource xmlns="http://datacite.org/schema/kernel-4"');
+    expect(xml).toMatch(/<identifier identifierType="DOI">10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{4}\/1<\/identifier>/);
+  });
+
+  it("404 for a version the dataset does not have and for a malformed number", async () => {
+    as(null);
+    expect((await datacite("json", published.datasetId, 9)).status).toBe(404);
+    expect((await datacite("xml", published.datasetId, "x1")).status).toBe(404);
+  });
+});

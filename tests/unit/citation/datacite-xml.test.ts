@@ -1,0 +1,107 @@
+import { XMLParser, XMLValidator } from "fast-xml-parser";
+import { describe, expect, it } from "vitest";
+import { buildDataciteXml, buildDoiMetadata, type DoiMetadataInput } from "@/lib/identifiers/datacite";
+
+// Invented deposit, with characters XML must escape in its title and description.
+const payload = {
+  title: "OH + CH4 <250–420 K> & more",
+  description: 'Pulsed photolysis; "quoted" & <tagged>.',
+  keywords: ["methane"],
+  license: "CC-BY-4.0",
+  creators: [{ name: "Okafor, Maren", orcid: "0000-0002-1825-0097", affiliation: "Example Institute" }, { name: "Lin Tao" }],
+  reaction: {
+    class: "hydrogen-abstraction",
+    reactants: [{ name: "OH" }, { name: "methane" }],
+    products: [{ name: "water" }, { name: "methyl" }],
+  },
+  funding: [{ funder: "Example Science Fund", awardId: "ESF-123" }],
+  source: { doi: "10.5555/example.123" },
+};
+const input: DoiMetadataInput = {
+  kind: "version",
+  doi: "10.5072/ARH-4F7K-9QXM/2",
+  datasetId: 7,
+  versionNumber: 2,
+  baseUrl: "https://arrhenia.test",
+  payload,
+  fallbackTitle: "row title",
+  publishedAt: new Date("2026-03-05T10:00:00Z"),
+  seriesIdentifier: "10.5072/ARH-4F7K-9QXM",
+  previousVersionIdentifier: "10.5072/ARH-4F7K-9QXM/1",
+  nextVersionIdentifier: "10.5072/ARH-4F7K-9QXM/3",
+};
+const attributes = buildDoiMetadata(input).data.attributes;
+const xml = buildDataciteXml(attributes);
+const parser = new XMLParser({
+  ignoreAttributes: false,
+  attributeNamePrefix: "@",
+  isArray: (name) => ["creator", "title", "subject", "relatedIdentifier", "rights", "description", "date"].includes(name),
+});
+const resource = parser.parse(xml).resource;
+
+describe("DataCite metadata (kernel 4)", () => {
+  it("adds the reaction class and the species as subjects, and the next version as IsPreviousVersionOf", () => {
+    expect(attributes.subjects).toEqual([
+      { subject: "methane" },
+      { subject: "H-atom abstraction", subjectScheme: "Arrhenia reaction class" },
+      { subject: "OH", subjectScheme: "species" },
+      { subject: "methane", subjectScheme: "species" },
+      { subject: "water", subjectScheme: "species" },
+      { subject: "methyl", subjectScheme: "species" },
+    ]);
+    expect(attributes.relatedIdentifiers.map((r) => `${r.relationType} ${r.relatedIdentifier}`)).toEqual([
+      "IsVersionOf 10.5072/ARH-4F7K-9QXM",
+      "IsNewVersionOf 10.5072/ARH-4F7K-9QXM/1",
+      "IsPreviousVersionOf 10.5072/ARH-4F7K-9QXM/3",
+      "IsSupplementTo 10.5555/example.123",
+    ]);
+  });
+
+  it("XML is well-formed (fast-xml-parser's validator) with special characters escaped", () => {
+    expect(XMLValidator.validate(xml)).toBe(true);
+    expect(xml).toContain("OH + CH4 &lt;250–420 K&gt; &amp; more");
+    expect(resource.titles.title[0]).toBe("OH + CH4 <250–420 K> & more");
+  });
+
+  it("XML is in the kernel-4 namespace with its schema location", () => {
+    expect(resource["@xmlns"]).toBe("http://datacite.org/schema/kernel-4");
+    expect(resource["@xsi:schemaLocation"]).toBe(
+      "http://datacite.org/schema/kernel-4 http://schema.datacite.org/meta/kernel-4/metadata.xsd",
+    );
+  });
+
+  // DataCite Metadata Schema 4 documentation, "mandatory properties": Identifier (with identifierType),
+  // Creator (creatorName), Title, Publisher, PublicationYear, ResourceType (resourceTypeGeneral).
+  it("XML has every mandatory property of the kernel", () => {
+    expect(resource.identifier).toEqual({ "#text": "10.5072/ARH-4F7K-9QXM/2", "@identifierType": "DOI" });
+    expect(resource.creators.creator.length).toBe(2);
+    for (const c of resource.creators.creator) expect(c.creatorName).toBeTruthy();
+    expect(resource.titles.title.length).toBe(1);
+    expect(resource.publisher).toBe("Arrhenia");
+    expect(resource.publicationYear).toBe(2026);
+    expect(resource.resourceType["@resourceTypeGeneral"]).toBe("Dataset");
+  });
+
+  it("XML carries the ORCID, version, rights, dates, subjects, relations and descriptions of the JSON", () => {
+    const okafor = resource.creators.creator[0];
+    expect(okafor.nameIdentifier).toEqual({
+      "#text": "https://orcid.org/0000-0002-1825-0097",
+      "@nameIdentifierScheme": "ORCID",
+      "@schemeURI": "https://orcid.org",
+    });
+    expect(okafor.familyName).toBe("Okafor");
+    expect(resource.version).toBe(2);
+    expect(resource.rightsList.rights[0]["@rightsIdentifier"]).toBe("CC-BY-4.0");
+    expect(resource.rightsList.rights[0]["@rightsIdentifierScheme"]).toBe("SPDX");
+    expect(resource.dates.date[0]).toEqual({ "#text": "2026-03-05", "@dateType": "Issued" });
+    expect(resource.subjects.subject.length).toBe(attributes.subjects!.length);
+    expect(resource.relatedIdentifiers.relatedIdentifier.map((r: Record<string, string>) => r["@relationType"])).toEqual([
+      "IsVersionOf",
+      "IsNewVersionOf",
+      "IsPreviousVersionOf",
+      "IsSupplementTo",
+    ]);
+    expect(resource.descriptions.description[0]["#text"]).toBe(payload.description);
+    expect(resource.fundingReferences.fundingReference.funderName).toBe("Example Science Fund");
+  });
+});

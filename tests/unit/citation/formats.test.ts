@@ -1,0 +1,134 @@
+import { toJSON as parseBibtexIndependently } from "@orcid/bibtex-parse-js";
+import { Cite } from "@citation-js/core";
+import { describe, expect, it } from "vitest";
+import { buildCslItem, citationKey, cslName, sourceCslItem, type CitationSubject } from "@/lib/citation/csl";
+import { CITATION_STYLES, formatBibtex, formatCitation, formatCslJson, formatReference, formatRis } from "@/lib/citation/formats";
+
+// Invented people, title and identifier.
+const version: CitationSubject = {
+  kind: "version",
+  identifier: "10.5072/ARH-4F7K-9QXM/2",
+  title: "OH + CH4 rate constants, 250–420 K",
+  creators: ["Emi Tanaka", "Varga, Bence"],
+  publishedAt: new Date("2026-03-04T10:00:00Z"),
+  versionNumber: 2,
+  url: "https://arrhenia.test/datasets/3/v2",
+};
+const series: CitationSubject = {
+  ...version,
+  kind: "series",
+  identifier: "10.5072/ARH-4F7K-9QXM",
+  versionNumber: null,
+  url: "https://arrhenia.test/datasets/3",
+};
+const item = buildCslItem(version);
+
+describe("buildCslItem", () => {
+  it("is a CSL-JSON dataset with creators, date, publisher, version, identifier and landing page", () => {
+    expect(item).toEqual({
+      id: "arrhenia_ARH_4F7K_9QXM_v2",
+      "citation-key": "arrhenia_ARH_4F7K_9QXM_v2",
+      type: "dataset",
+      title: version.title,
+      author: [
+        { given: "Emi", family: "Tanaka" },
+        { given: "Bence", family: "Varga" },
+      ],
+      issued: { "date-parts": [[2026, 3, 4]] },
+      publisher: "Arrhenia",
+      version: "2",
+      DOI: "10.5072/ARH-4F7K-9QXM/2",
+      URL: "https://arrhenia.test/datasets/3/v2",
+    });
+  });
+
+  it("cites every version by the series identifier, with no version number", () => {
+    const s = buildCslItem(series);
+    expect(s.DOI).toBe("10.5072/ARH-4F7K-9QXM");
+    expect(s.version).toBeUndefined();
+    expect(s.id).toBe("arrhenia_ARH_4F7K_9QXM");
+    expect(citationKey({ ...version, identifier: null })).toBe("arrhenia_OH2026");
+  });
+
+  it("keeps a name it cannot split as one literal, and particles apart (citation-js's name parser)", () => {
+    expect(cslName("Rosalind van der Berg")).toEqual({ given: "Rosalind", "non-dropping-particle": "van der", family: "Berg" });
+    expect(cslName("Kinetics Consortium")).toEqual({ given: "Kinetics", family: "Consortium" });
+  });
+
+  it("takes the source publication's own CSL reference, adding the DOI given apart", () => {
+    expect(sourceCslItem({ doi: "https://doi.org/10.5555/ex.1", reference: { type: "article-journal", title: "A study" } })).toMatchObject({
+      id: "source",
+      title: "A study",
+      DOI: "10.5555/ex.1",
+    });
+    expect(sourceCslItem({ doi: "10.5555/ex.1" })).toBeNull();
+    expect(sourceCslItem(undefined)).toBeNull();
+  });
+});
+
+describe("formatted references (citation-js + the shipped CSL styles)", () => {
+  // Expected strings follow each style's rules as the CSL style file states them (APA 7th: "(Version 2) [Dataset]").
+  it("APA", () =>
+    expect(formatReference(item, "apa")).toBe(
+      "Tanaka, E., & Varga, B. (2026). OH + CH4 rate constants, 250–420 K (Version 2) [Dataset]. Arrhenia. https://doi.org/10.5072/ARH-4F7K-9QXM/2",
+    ));
+  it("Vancouver", () =>
+    expect(formatReference(item, "vancouver")).toMatch(
+      /^Tanaka E, Varga B\. OH \+ CH4 rate constants, 250–420 K \[Internet\]\. Arrhenia; 2026\./,
+    ));
+  it("Harvard", () => expect(formatReference(item, "harvard")).toMatch(/^Tanaka, E\. and Varga, B\. \(2026\)/));
+  it("American Chemical Society", () =>
+    expect(formatReference(item, "acs")).toMatch(
+      /^Tanaka, E\.; Varga, B\. OH \+ CH4 Rate Constants, 250–420 K, 2026\. https:\/\/doi\.org\/10\.5072\/ARH-4F7K-9QXM\/2\.$/,
+    ));
+  it("every style names the creators and the year, with no list number", () => {
+    for (const s of CITATION_STYLES) {
+      const text = formatReference(item, s.id);
+      expect(text, s.id).toMatch(/^Tanaka/);
+      expect(text, s.id).toContain("2026");
+    }
+  });
+});
+
+describe("BibTeX, RIS and CSL-JSON", () => {
+  it("citation-js reads its own BibTeX back to the same creators, title, year, identifier and version note (round trip)", () => {
+    const bib = formatBibtex(item);
+    expect(bib).toMatch(/^@misc\{arrhenia_ARH_4F7K_9QXM_v2,/);
+    const [back] = new Cite(bib).data as Record<string, unknown>[];
+    expect(back.author).toEqual(item.author);
+    expect(back.title).toBe(item.title);
+    expect(back.DOI).toBe(item.DOI);
+    expect(back.note).toBe("Version 2");
+    expect((back.issued as { "date-parts": number[][] })["date-parts"][0][0]).toBe(2026);
+  });
+
+  it("a second, independent BibTeX parser (@orcid/bibtex-parse-js) reads the entry", () => {
+    const [entry] = parseBibtexIndependently(formatBibtex(item));
+    expect(entry.citationKey).toBe("arrhenia_ARH_4F7K_9QXM_v2");
+    expect(entry.entryType.toLowerCase()).toBe("misc");
+    const tags = Object.fromEntries(Object.entries(entry.entryTags).map(([k, v]) => [k.toLowerCase(), v]));
+    expect(tags.author).toBe("Tanaka, Emi and Varga, Bence");
+    expect(tags.doi).toBe("10.5072/ARH-4F7K-9QXM/2");
+    expect(tags.year).toBe("2026");
+    expect(tags.note).toBe("Version 2");
+    expect(tags.title).toContain("rate constants");
+  });
+
+  it("citation-js reads its own RIS back to the same item (round trip)", () => {
+    const ris = formatRis(item);
+    expect(ris).toMatch(/^TY {2}- DATA$/m);
+    expect(ris).toMatch(/^ET {2}- 2$/m);
+    expect(ris).toMatch(/^DO {2}- 10\.5072\/ARH-4F7K-9QXM\/2$/m);
+    const [back] = new Cite(ris).data as Record<string, unknown>[];
+    for (const k of ["type", "title", "author", "issued", "publisher", "version", "DOI", "URL"] as const)
+      expect(back[k], k).toEqual(item[k]);
+  });
+
+  it("CSL-JSON is an array of the one item, read back by citation-js unchanged", () => {
+    const json = formatCslJson(item);
+    expect(JSON.parse(json)).toEqual([item]);
+    const [back] = new Cite(JSON.parse(json)).data as Record<string, unknown>[];
+    expect(back.title).toBe(item.title);
+    expect(formatCitation(item, "text", "apa")).toBe(formatReference(item, "apa") + "\n");
+  });
+});
