@@ -170,7 +170,9 @@ export function QueueTable({
             {table.getRowModel().rows.length === 0 ? (
               <tr>
                 <td colSpan={columns.length} className="text-muted">
-                  {withAuthors ? "No returned version is with its authors with these filters." : "Nothing waits for a curator with these filters."}
+                  {withAuthors
+                    ? "No returned version is with its authors with these filters."
+                    : "Nothing waits for a curator with these filters."}
                 </td>
               </tr>
             ) : (

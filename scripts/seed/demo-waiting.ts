@@ -15,7 +15,9 @@ import { databaseUrl, migrationDatabaseUrl } from "@/lib/config";
  * Without an owner connection (no MIGRATION_DATABASE_URL) `work` runs as usual at today's times
  * and the answer is false.
  */
-export async function recordDemoHistory<T>(work: (at: (hoursAgo: number) => Promise<void>) => Promise<T>): Promise<{ value: T; dated: boolean }> {
+export async function recordDemoHistory<T>(
+  work: (at: (hoursAgo: number) => Promise<void>) => Promise<T>,
+): Promise<{ value: T; dated: boolean }> {
   const ownerUrl = migrationDatabaseUrl();
   if (ownerUrl === databaseUrl()) return { value: await work(async () => {}), dated: false };
   // One connection, so the session setting holds for every statement and transaction of `work`.

@@ -512,7 +512,8 @@ export async function seedDemoDatasets(): Promise<number> {
       undated ||= !dated;
     } else {
       const version = await depositNewDataset({ actor: owner, document });
-      for (const [transition, actor, reason] of steps) await applyTransition({ versionId: version.id, actorId: actor.id, transition, reason });
+      for (const [transition, actor, reason] of steps)
+        await applyTransition({ versionId: version.id, actorId: actor.id, transition, reason });
     }
     made++;
   }

@@ -13,8 +13,20 @@ const points = [pt(300, 1e-12), pt(400, 3e-12)];
 
 let owner: UserDto, curator: UserDto;
 beforeAll(async () => {
-  owner = await createUser({ email: uniqueEmail("clock-owner"), name: "clock owner", passwordHash: "x", role: "researcher", verified: true });
-  curator = await createUser({ email: uniqueEmail("clock-curator"), name: "clock curator", passwordHash: "x", role: "curator", verified: true });
+  owner = await createUser({
+    email: uniqueEmail("clock-owner"),
+    name: "clock owner",
+    passwordHash: "x",
+    role: "researcher",
+    verified: true,
+  });
+  curator = await createUser({
+    email: uniqueEmail("clock-curator"),
+    name: "clock curator",
+    passwordHash: "x",
+    role: "curator",
+    verified: true,
+  });
 });
 
 const draft = (title: string) => createDatasetDraft({ ownerId: owner.id, title, payload: { title, units: { T: "K" } }, points, analysis });

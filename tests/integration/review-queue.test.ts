@@ -16,8 +16,20 @@ const analysis: AnalysisSummary = {
 
 let owner: UserDto, curator: UserDto;
 beforeAll(async () => {
-  owner = await createUser({ email: uniqueEmail("queue-owner"), name: "queue owner", passwordHash: "x", role: "researcher", verified: true });
-  curator = await createUser({ email: uniqueEmail("queue-curator"), name: "queue curator", passwordHash: "x", role: "curator", verified: true });
+  owner = await createUser({
+    email: uniqueEmail("queue-owner"),
+    name: "queue owner",
+    passwordHash: "x",
+    role: "researcher",
+    verified: true,
+  });
+  curator = await createUser({
+    email: uniqueEmail("queue-curator"),
+    name: "queue curator",
+    passwordHash: "x",
+    role: "curator",
+    verified: true,
+  });
 });
 
 async function submitted(title: string) {
