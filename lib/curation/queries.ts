@@ -47,6 +47,9 @@ const handledBy = sql<string | null>`case ${datasetVersions.state}
 /** When the newest return of a version was decided (null unless it was returned). */
 const returnedAt = sql`(select max(d.created_at) from decisions d where d.version_id = ${datasetVersions.id} and d.decision = 'return')`;
 
+/** Since when a queued version has waited: for its authors since its newest return, else for a curator since its submission. */
+const waitingSince = sql`coalesce(case when ${datasetVersions.state} = 'returned' then ${returnedAt} end, ${datasetVersions.submittedAt})`;
+
 /** The filters of a queue query other than the state. */
 function queueFilters(q: QueueQuery): SQL[] {
   const where: SQL[] = [];
@@ -56,7 +59,7 @@ function queueFilters(q: QueueQuery): SQL[] {
     where.push(inArray(reactionClass, [q.reactionClass, ...retired.map(([old]) => old)]));
   }
   if (q.flag) where.push(sql`${q.flag} = any(${datasetVersions.flagCodes})`);
-  if (q.olderThanDays) where.push(lt(datasetVersions.submittedAt, new Date(Date.now() - q.olderThanDays * 86_400_000)));
+  if (q.olderThanDays) where.push(lt(waitingSince, new Date(Date.now() - q.olderThanDays * 86_400_000)));
   return where;
 }
 
@@ -74,7 +77,7 @@ export async function listReviewQueue(q: QueueQuery) {
         ? dir(severityOrder)
         : q.sort === "points"
           ? dir(datasetVersions.pointCount)
-          : dir(datasetVersions.submittedAt);
+          : dir(waitingSince);
   const rows = await db
     .select({
       versionId: datasetVersions.id,
