@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { countReviewQueue, listCheckSummaries, listReviewQueue } from "@/lib/curation/queries";
-import { transitionVersion } from "@/lib/datasets/deposits";
+import { applyTransition } from "@/lib/curation/transitions";
 import { createDatasetDraft, type AnalysisSummary, type StoredPoint } from "@/lib/datasets/queries";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { uniqueEmail } from "./helpers";
@@ -34,17 +34,18 @@ beforeAll(async () => {
 
 async function submitted(title: string) {
   const v = await createDatasetDraft({ ownerId: owner.id, title, payload: { title, units: { T: "K" } }, points, analysis });
-  await transitionVersion({ actor: owner, versionId: v.id, transition: "submit" });
+  await applyTransition({ actorId: owner.id, versionId: v.id, transition: "submit" });
   return v.id;
 }
 
+// Through the lifecycle itself (no mail): the queue's answers are what is tested, not the notices.
 describe("the review queue: waiting for a curator, or with the authors", () => {
   it("lists a returned version only among those with their authors, and counts it there", async () => {
     const tag = `queue ${Date.now()}`;
     const before = await countReviewQueue({});
     const waitingId = await submitted(`${tag} waiting`);
     const returnedId = await submitted(`${tag} returned`);
-    await transitionVersion({ actor: curator, versionId: returnedId, transition: "return", reason: "Say how row 2 was checked." });
+    await applyTransition({ actorId: curator.id, versionId: returnedId, transition: "return", reason: "Say how row 2 was checked." });
 
     const after = await countReviewQueue({});
     expect(after.waiting - before.waiting).toBe(1);
