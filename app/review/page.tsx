@@ -47,7 +47,9 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
   const withAuthors = q.state === "returned";
   const groupHref = (state: string) => {
     const p = new URLSearchParams();
-    for (const [k, v] of Object.entries({ state, class: q.class, flag: q.flag, older: q.older })) if (v) p.set(k, String(v));
+    // The other group with the same filters and order, from its first page.
+    for (const [k, v] of Object.entries({ state, class: q.class, flag: q.flag, older: q.older, sort: q.sort, dir: q.dir }))
+      if (v) p.set(k, String(v));
     return `/review?${p.toString()}`;
   };
   return (

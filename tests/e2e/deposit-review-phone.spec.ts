@@ -143,7 +143,8 @@ test("a deposit goes through a return to publication on a 390 px phone, every pa
     await tap(page.getByRole("button", { name: "Record the decision" }), "Record the decision (return)");
     await expect(page.getByRole("status").filter({ hasText: /returned to the authors for revision/ })).toBeVisible({ timeout: 15_000 });
     await check(`/review/${versionId} (returned)`);
-    // Returned, it waits for its authors: among those, not among those waiting for a curator.
+    // Returned, it waits for its authors: among those, not among those waiting for a curator. The
+    // tab keeps the order, newest return first.
     await page.goto("/review?sort=submitted&dir=desc");
     await expect(page.getByRole("link", { name: title, exact: true })).toHaveCount(0);
     await tap(page.getByRole("link", { name: /^With the authors/ }), "the queue's With the authors tab");
