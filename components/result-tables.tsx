@@ -5,6 +5,7 @@ import { describeExtrapolation, formatFlagMessage } from "@/lib/kinetics/flag-te
 import { formatSignificant } from "@/lib/format";
 import { convertEntropy, energyQuantityLabel, entropyQuantityLabel } from "@/lib/unit-labels";
 import { displayConversion } from "@/lib/kinetics/units";
+import { severityNoun } from "@/lib/curation/check-summary";
 import { ScrollRegion } from "./scroll-region";
 import { StatisticTerm } from "@/components/statistic-term";
 
@@ -227,7 +228,7 @@ export function ResultTables({
           <ul className="space-y-2">
             {analysis.flags.map((f, i) => (
               <li key={i} className={`rounded-md border bg-panel px-3 py-2 text-sm ${severityStyle[f.severity]}`}>
-                <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold uppercase tracking-wide">{f.severity}</span>
+                <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold">{severityNoun(f.severity)}</span>
                 {formatFlagMessage(f, { energy: energyUnit, temperature: temperatureUnit })}
                 {f.points && f.points.length > 0 && (
                   <span className="block text-xs text-muted">

@@ -1,3 +1,4 @@
+import { severityNoun } from "@/lib/curation/check-summary";
 import { stateWords } from "./deposit-editor/words";
 
 const tone: Record<string, string> = {
@@ -16,9 +17,12 @@ export function StateLabel({ state }: { state: string }) {
   );
 }
 
-/** Worst check severity as a word. */
+/** A finding's severity as a plain word (problem, warning, note); colour only repeats it. */
 export function SeverityLabel({ severity }: { severity: string | null }) {
   if (!severity || severity === "none") return <span className="text-xs text-muted">no findings</span>;
-  const style = severity === "error" ? "text-error" : severity === "warn" ? "text-warn" : "text-muted";
-  return <span className={`text-xs font-semibold uppercase ${style}`}>{severity === "warn" ? "warning" : severity}</span>;
+  const style =
+    severity === "error" ? "border-error/50 text-error" : severity === "warn" ? "border-warn/50 text-warn" : "border-line text-ink";
+  return (
+    <span className={`inline-block rounded-sm border bg-panel px-1.5 py-0.5 text-xs font-medium ${style}`}>{severityNoun(severity)}</span>
+  );
 }

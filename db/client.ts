@@ -1,4 +1,5 @@
 import "server-only";
+import { AsyncLocalStorage } from "node:async_hooks";
 import { drizzle } from "drizzle-orm/postgres-js";
 import postgres from "postgres";
 import { withConnectionRetry } from "./retry";
@@ -35,9 +36,26 @@ function createDb() {
 // One pool per process; survives hot reloads in development.
 const globalForDb = globalThis as unknown as { arrheniaDb?: Db };
 
+const scopedDb = new AsyncLocalStorage<Db>();
+
 export function getDb(): Db {
+  const scoped = scopedDb.getStore();
+  if (scoped) return scoped;
   globalForDb.arrheniaDb ??= createDb();
   return globalForDb.arrheniaDb;
+}
+
+/** A database handle on another connection (same schema and naming), e.g. the schema owner's for the demo seed. */
+export function databaseOn(client: postgres.Sql): Db {
+  return drizzle(client, { schema, casing: "snake_case" }) as unknown as Db;
+}
+
+/**
+ * Runs `work` with every getDb() inside it answering `db`. Only the demo seed uses it, to record
+ * its queued submissions through the ordinary lifecycle on the schema owner's connection.
+ */
+export function withDatabase<T>(db: Db, work: () => Promise<T>): Promise<T> {
+  return scopedDb.run(db, work);
 }
 
 export type Database = Db;

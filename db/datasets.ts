@@ -12,6 +12,7 @@ import {
   timestamp,
   uniqueIndex,
 } from "drizzle-orm/pg-core";
+import { recordedAt } from "./recorded-at";
 import { reactions } from "./chemistry";
 import { users } from "./users";
 
@@ -38,7 +39,7 @@ export const datasets = pgTable(
       .references(() => users.id),
     /** DOI-style identifier of all versions; minted with the first publication. */
     seriesIdentifier: text(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: timestamp({ withTimezone: true }).notNull().default(recordedAt),
     updatedAt: timestamp({ withTimezone: true })
       .notNull()
       .defaultNow()
@@ -129,8 +130,8 @@ export const datasetVersions = pgTable(
     publishedAt: timestamp({ withTimezone: true }),
     retractedAt: timestamp({ withTimezone: true }),
     retractionNotice: text(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: timestamp({ withTimezone: true }).notNull().default(recordedAt),
+    updatedAt: timestamp({ withTimezone: true }).notNull().default(recordedAt),
   },
   (t) => [
     uniqueIndex("dataset_versions_number_key").on(t.datasetId, t.number),
@@ -192,7 +193,7 @@ export const decisions = pgTable(
       .references(() => users.id),
     decision: decisionEnum().notNull(),
     reason: text().notNull(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: timestamp({ withTimezone: true }).notNull().default(recordedAt),
   },
   (t) => [index("decisions_version_idx").on(t.versionId)],
 );

@@ -80,6 +80,15 @@ export const SNAPSHOT_BY_ANOTHER = `DO $$ ${PROBE_IN_REVIEW}
         PERFORM public.arrhenia_take_submission_snapshot(v, c, 'forged');
       END $$`;
 
+/**
+ * A lifecycle time of the runtime role's own choosing (drizzle/0024): its `arrhenia.recorded_at`
+ * is ignored. The block fails (is "refused") exactly when the clock still reads now().
+ */
+export const CHOOSE_RECORDED_TIME = `DO $$ BEGIN
+        PERFORM set_config('arrhenia.recorded_at', '2000-01-01 00:00:00+00', true);
+        IF public.arrhenia_recorded_at() = now() THEN RAISE EXCEPTION 'arrhenia.recorded_at ignored'; END IF;
+      END $$`;
+
 /** Acceptance minting from a series identifier that is not ours: refused by drizzle/0021. */
 export const PUBLISH_FOREIGN_SERIES = `DO $$ ${PROBE_IN_REVIEW.replace("'10.5072/ARH-PRBE-PR0R'", "NULL")}
         UPDATE public.datasets SET series_identifier = 'javascript:alert(1)//' WHERE id = d;
@@ -324,6 +333,7 @@ export async function inspectRuntimePrivileges(sql: Sql): Promise<{ role: string
     ["write a submission snapshot directly", WRITE_SNAPSHOT],
     ["a submission snapshot by someone other than the dataset's owner", SNAPSHOT_BY_ANOTHER],
     ["publish with a series identifier not of our form", PUBLISH_FOREIGN_SERIES],
+    ["record a lifecycle step at a time of its own choosing (arrhenia.recorded_at)", CHOOSE_RECORDED_TIME],
     ["CREATE FUNCTION", "CREATE FUNCTION public.arrhenia_forged_refit() RETURNS integer LANGUAGE sql SECURITY DEFINER AS 'SELECT 1'"],
     [
       "a re-fit by an engine that is not the current one",

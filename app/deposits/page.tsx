@@ -2,7 +2,9 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { DateTime } from "@/components/date-time";
 import { ROLE_WORDS } from "@/components/deposit-editor/words";
-import { SeverityLabel, StateLabel } from "@/components/state-label";
+import { CheckSummaryCell } from "@/components/check-summary";
+import { StateLabel } from "@/components/state-label";
+import { listCheckSummaries } from "@/lib/curation/queries";
 import { requirePagePermission } from "@/lib/auth/page-guard";
 import { listMyVersions } from "@/lib/datasets/queries";
 import { ScrollRegion } from "@/components/scroll-region";
@@ -13,6 +15,7 @@ export const metadata: Metadata = { title: "My deposits" };
 export default async function MyDepositsPage() {
   const user = await requirePagePermission("dataset.deposit", "/deposits");
   const versions = (await listMyVersions({ userId: user.id })).sort((a, b) => b.updatedAt.getTime() - a.updatedAt.getTime());
+  const checks = await listCheckSummaries(versions.map((v) => v.id));
   return (
     <div className="space-y-6">
       <header className="flex flex-wrap items-end justify-between gap-4">
@@ -42,7 +45,7 @@ export default async function MyDepositsPage() {
                 <th scope="col">Version</th>
                 <th scope="col">State</th>
                 <th scope="col">Your role</th>
-                <th scope="col">Worst check</th>
+                <th scope="col">Checks</th>
                 <th scope="col" className="text-right">
                   Points
                 </th>
@@ -62,7 +65,7 @@ export default async function MyDepositsPage() {
                   </td>
                   <td>{ROLE_WORDS[v.role]}</td>
                   <td>
-                    <SeverityLabel severity={v.worstFlag} />
+                    <CheckSummaryCell summary={checks.get(v.id)} href={`/deposits/${v.id}#checks-of-last-save`} />
                   </td>
                   <td className="text-right tabular-nums">{v.pointCount.toLocaleString("en")}</td>
                   <td className="whitespace-nowrap">{formatRange(v.tMin, v.tMax, "K")}</td>

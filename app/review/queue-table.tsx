@@ -3,7 +3,9 @@
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import { SeverityLabel, StateLabel } from "@/components/state-label";
+import { CheckSummaryCell } from "@/components/check-summary";
+import { StateLabel } from "@/components/state-label";
+import type { CheckSummary } from "@/lib/curation/check-summary";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { ScrollRegion } from "@/components/scroll-region";
 import { formatRange } from "@/lib/format";
@@ -25,6 +27,10 @@ export interface QueueRow {
   handledBy: string | null;
   /** How long it has waited since it was submitted, in words ("2 d 4 h"), worked out on the server. */
   waiting: string;
+  /** How long it has been with its authors since it was returned, in words (returned versions only). */
+  withAuthorsFor: string | null;
+  /** Its findings in words, from its newest analysis. */
+  checks: CheckSummary | undefined;
 }
 
 const col = createColumnHelper<QueueRow>();
@@ -32,7 +38,7 @@ const sortKeyOf: Record<string, string> = { title: "title", submittedAt: "submit
 
 const utcMinute = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
 
-const columns = [
+const columnsFor = (withAuthors: boolean) => [
   col.accessor("title", {
     header: "Dataset",
     cell: (c) => <Link href={`/review/${c.row.original.versionId}`}>{c.getValue()}</Link>,
@@ -56,7 +62,11 @@ const columns = [
     cell: (c) => reactionClassFor(c.getValue())?.label ?? c.getValue() ?? "—",
     enableSorting: false,
   }),
-  col.accessor("worstFlag", { header: "Checks", cell: (c) => <SeverityLabel severity={c.getValue()} />, enableSorting: true }),
+  col.accessor("worstFlag", {
+    header: "Checks",
+    cell: (c) => <CheckSummaryCell summary={c.row.original.checks} href={`/review/${c.row.original.versionId}#report-heading`} />,
+    enableSorting: true,
+  }),
   col.accessor("pointCount", { header: "Points", enableSorting: true }),
   col.display({
     id: "range",
@@ -65,12 +75,13 @@ const columns = [
     cell: (c) => <span className="whitespace-nowrap">{formatRange(c.row.original.tMin, c.row.original.tMax, "")}</span>,
   }),
   col.accessor("submittedAt", {
-    header: "Waiting since submission",
+    header: withAuthors ? "With the authors since the return" : "Waiting since submission",
     cell: (c) => {
       const iso = c.getValue();
-      return iso ? (
+      const shown = withAuthors ? c.row.original.withAuthorsFor : c.row.original.waiting;
+      return iso && shown ? (
         <time dateTime={iso} title={`Submitted ${utcMinute(iso)}`}>
-          {c.row.original.waiting}
+          {shown}
         </time>
       ) : (
         "—"
@@ -88,6 +99,7 @@ export function QueueTable({
   pageSize,
   sort,
   direction,
+  withAuthors,
 }: {
   rows: QueueRow[];
   total: number;
@@ -95,7 +107,10 @@ export function QueueTable({
   pageSize: number;
   sort: string;
   direction: "asc" | "desc";
+  /** The returned versions (waiting for their authors) rather than those waiting for a curator. */
+  withAuthors: boolean;
 }) {
+  const columns = columnsFor(withAuthors);
   const router = useRouter();
   const pathname = usePathname();
   const params = useSearchParams();
@@ -155,7 +170,9 @@ export function QueueTable({
             {table.getRowModel().rows.length === 0 ? (
               <tr>
                 <td colSpan={columns.length} className="text-muted">
-                  Nothing waits for review with these filters.
+                  {withAuthors
+                    ? "No returned version is with its authors with these filters."
+                    : "Nothing waits for a curator with these filters."}
                 </td>
               </tr>
             ) : (

@@ -12,9 +12,7 @@ export function CheckList({ checks }: { checks: StoredCheck[] }) {
     <ul className="space-y-2">
       {checks.map((c, i) => (
         <li key={`${c.code}-${i}`} className={`rounded-md border bg-panel px-3 py-2 text-sm ${tone[c.severity] ?? tone.info}`}>
-          <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold uppercase tracking-wide">
-            {severityWords(c.severity)}
-          </span>
+          <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold">{severityWords(c.severity)}</span>
           {c.message}
         </li>
       ))}

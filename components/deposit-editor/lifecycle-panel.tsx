@@ -274,7 +274,9 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
       </div>
 
       <div className="space-y-2">
-        <h3 className="text-base font-semibold">Checks of the last save</h3>
+        <h3 id="checks-of-last-save" className="scroll-mt-20 text-base font-semibold">
+          Checks of the last save
+        </h3>
         {checks.length === 0 ? <p className="text-sm text-muted">No findings.</p> : <CheckList checks={checks} />}
       </div>
 

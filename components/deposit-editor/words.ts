@@ -1,4 +1,5 @@
 /** Plain words for lifecycle states, roles, severities and decisions, shared by the list and the editor. */
+import { severityNoun } from "@/lib/curation/check-summary";
 import type { CoEditorRole, VersionState } from "@/lib/curation/lifecycle";
 
 export const STATE_WORDS: Record<VersionState, string> = {
@@ -19,20 +20,9 @@ export const ROLE_WORDS: Record<CoEditorRole, string> = { owner: "owner", editor
 
 export type Severity = "info" | "warn" | "error";
 
-/** A severity in words (never colour alone), as the review pages word it. */
+/** A severity in words (never colour alone), as the review pages word it: problem, warning, note. */
 export function severityWords(severity: string): string {
-  switch (severity) {
-    case "error":
-      return "error";
-    case "warn":
-      return "warning";
-    case "info":
-      return "info";
-    case "none":
-      return "no findings";
-    default:
-      return severity;
-  }
+  return severity === "none" ? "no findings" : severityNoun(severity);
 }
 
 export const DECISION_WORDS: Record<string, string> = {

@@ -1,16 +1,23 @@
 import "server-only";
 import { and, asc, count, desc, eq, inArray, isNotNull, isNull, lt, ne, or, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { datasets, datasetVersions, decisions, submissionSnapshots } from "@/db/datasets";
+import { datasets, datasetVersions, decisions, submissionSnapshots, versionAnalyses } from "@/db/datasets";
 import { users } from "@/db/users";
 import { RETIRED_REACTION_CLASS_IDS } from "@/lib/deposits/vocabulary";
+import { formatFlagMessage, type Flag } from "@/lib/kinetics";
+import { summariseFindings, type CheckSummary } from "./check-summary";
 import type { VersionState } from "./lifecycle";
 
-export const QUEUE_STATES: VersionState[] = ["submitted", "in_review", "returned"];
+/** Versions that wait for a curator: submitted, or taken into review and not yet decided. */
+export const WAITING_STATES: VersionState[] = ["submitted", "in_review"];
+/** Versions returned to their authors: they wait for the authors, not for a curator. */
+export const WITH_AUTHORS_STATES: VersionState[] = ["returned"];
+export const QUEUE_STATES: VersionState[] = [...WAITING_STATES, ...WITH_AUTHORS_STATES];
 export const QUEUE_SORTS = ["submitted", "title", "severity", "points"] as const;
 export type QueueSort = (typeof QUEUE_SORTS)[number];
 
 export interface QueueQuery {
+  /** Default: the versions waiting for a curator (never the returned ones). */
   states?: VersionState[];
   reactionClass?: string;
   flag?: string;
@@ -37,19 +44,31 @@ const handledBy = sql<string | null>`case ${datasetVersions.state}
     where d.version_id = ${datasetVersions.id} and d.decision = 'return' order by d.id desc limit 1)
   end`;
 
-/** The curators' queue: filtered, sorted and paginated in the database. */
-export async function listReviewQueue(q: QueueQuery) {
-  const db = getDb();
-  const pageSize = Math.min(Math.max(q.pageSize ?? 20, 5), 100);
-  const page = Math.max(q.page ?? 1, 1);
-  const where: SQL[] = [inArray(datasetVersions.state, q.states?.length ? q.states : QUEUE_STATES)];
+/** When the newest return of a version was decided (null unless it was returned). */
+const returnedAt = sql`(select max(d.created_at) from decisions d where d.version_id = ${datasetVersions.id} and d.decision = 'return')`;
+
+/** Since when a queued version has waited: for its authors since its newest return, else for a curator since its submission. */
+const waitingSince = sql`coalesce(case when ${datasetVersions.state} = 'returned' then ${returnedAt} end, ${datasetVersions.submittedAt})`;
+
+/** The filters of a queue query other than the state. */
+function queueFilters(q: QueueQuery): SQL[] {
+  const where: SQL[] = [];
   if (q.reactionClass) {
     // Published versions keep the class id they were published with, retired ones included.
     const retired = Object.entries(RETIRED_REACTION_CLASS_IDS).filter(([, id]) => id === q.reactionClass);
     where.push(inArray(reactionClass, [q.reactionClass, ...retired.map(([old]) => old)]));
   }
   if (q.flag) where.push(sql`${q.flag} = any(${datasetVersions.flagCodes})`);
-  if (q.olderThanDays) where.push(lt(datasetVersions.submittedAt, new Date(Date.now() - q.olderThanDays * 86_400_000)));
+  if (q.olderThanDays) where.push(lt(waitingSince, new Date(Date.now() - q.olderThanDays * 86_400_000)));
+  return where;
+}
+
+/** The curators' queue: filtered, sorted and paginated in the database. */
+export async function listReviewQueue(q: QueueQuery) {
+  const db = getDb();
+  const pageSize = Math.min(Math.max(q.pageSize ?? 20, 5), 100);
+  const page = Math.max(q.page ?? 1, 1);
+  const where: SQL[] = [inArray(datasetVersions.state, q.states?.length ? q.states : WAITING_STATES), ...queueFilters(q)];
   const dir = q.direction === "desc" ? desc : asc;
   const order =
     q.sort === "title"
@@ -58,7 +77,7 @@ export async function listReviewQueue(q: QueueQuery) {
         ? dir(severityOrder)
         : q.sort === "points"
           ? dir(datasetVersions.pointCount)
-          : dir(datasetVersions.submittedAt);
+          : dir(waitingSince);
   const rows = await db
     .select({
       versionId: datasetVersions.id,
@@ -77,6 +96,9 @@ export async function listReviewQueue(q: QueueQuery) {
       handledBy,
       /** Seconds since submission, by the database's clock. */
       waitingSeconds: sql<number | null>`extract(epoch from now() - ${datasetVersions.submittedAt})::float8`,
+      /** Seconds since it was returned to its authors (returned versions only), by the database's clock. */
+      returnedSeconds: sql<number | null>`case when ${datasetVersions.state} = 'returned'
+        then extract(epoch from now() - ${returnedAt})::float8 end`,
     })
     .from(datasetVersions)
     .innerJoin(datasets, eq(datasets.id, datasetVersions.datasetId))
@@ -90,6 +112,52 @@ export async function listReviewQueue(q: QueueQuery) {
     .from(datasetVersions)
     .where(and(...where));
   return { rows, total: n, page, pageSize };
+}
+
+/**
+ * How many queued versions there are in each state with the same filters (class, check, age):
+ * the queue's counts, so "waiting for a curator" never counts the versions with their authors.
+ */
+export async function countReviewQueue(q: QueueQuery) {
+  const rows = await getDb()
+    .select({ state: datasetVersions.state, n: count() })
+    .from(datasetVersions)
+    .where(and(inArray(datasetVersions.state, QUEUE_STATES), ...queueFilters(q)))
+    .groupBy(datasetVersions.state);
+  const by = (s: VersionState) => rows.find((r) => r.state === s)?.n ?? 0;
+  return {
+    submitted: by("submitted"),
+    inReview: by("in_review"),
+    returned: by("returned"),
+    waiting: by("submitted") + by("in_review"),
+  };
+}
+
+/**
+ * The findings of each version's newest analysis (its checks and the fit's flags, each message in
+ * the default units) summed up in words, by version id. Only the flags are read from the stored
+ * result, never its fits.
+ */
+export async function listCheckSummaries(versionIds: number[]): Promise<Map<number, CheckSummary>> {
+  const out = new Map<number, CheckSummary>();
+  if (versionIds.length === 0) return out;
+  const rows = await getDb()
+    .selectDistinctOn([versionAnalyses.versionId], {
+      versionId: versionAnalyses.versionId,
+      checks: versionAnalyses.checks,
+      flags: sql<Flag[] | null>`${versionAnalyses.result} -> 'flags'`,
+    })
+    .from(versionAnalyses)
+    .where(inArray(versionAnalyses.versionId, versionIds))
+    .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id));
+  for (const r of rows) {
+    const flags = Array.isArray(r.flags) ? r.flags : [];
+    out.set(
+      r.versionId,
+      summariseFindings([...(r.checks ?? []), ...flags.map((f) => ({ severity: f.severity, message: formatFlagMessage(f) }))]),
+    );
+  }
+  return out;
 }
 
 /** Other versions that may hold the same data: same reaction with overlapping temperatures, or the same source DOI. */

@@ -4,6 +4,7 @@ import canonicalize from "canonicalize";
 import { and, eq, isNull, sql } from "drizzle-orm";
 import { getDb, type Transaction } from "@/db/client";
 import { datasetMembers, datasets, datasetVersions, decisions, identifierRegistrations } from "@/db/datasets";
+import { recordedAt } from "@/db/recorded-at";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
@@ -120,8 +121,8 @@ export async function applyTransition({
     } else {
       await tx
         .update(datasetVersions)
-        // submitted_at is the transaction's now(): the snapshot function checks it was submitted in this transaction.
-        .set({ state: to, updatedAt: now, ...(transition === "submit" ? { submittedAt: sql`now()` } : {}) })
+        // submitted_at is the transaction's recorded time (now(); drizzle/0024): the snapshot function checks it was submitted in this transaction.
+        .set({ state: to, updatedAt: recordedAt, ...(transition === "submit" ? { submittedAt: recordedAt } : {}) })
         .where(eq(datasetVersions.id, versionId));
     }
     // The search document commits or rolls back with the publication or retraction it describes.

@@ -5,7 +5,7 @@ import { depositNewDataset } from "@/lib/datasets/deposits";
 import { hasDatasetTitled } from "@/lib/datasets/queries";
 import { GAS_CONSTANT } from "@/lib/kinetics";
 import { getUserByEmail, type UserDto } from "@/lib/users/queries";
-import { backdateDemoSubmissions } from "./demo-waiting";
+import { recordDemoHistory } from "./demo-waiting";
 
 /**
  * The demo's datasets. Molecules are real; every number, title and person is invented for the
@@ -474,36 +474,50 @@ export async function seedDemoDatasets(): Promise<number> {
   let made = 0;
   // Invented waiting times of the queued demo submissions, in hours: from under a day to two weeks.
   const WAITED_HOURS = [5, 28, 52, 77, 150, 230, 340, 19, 101];
-  const queued: { versionId: number; hours: number }[] = [];
+  let queued = 0;
+  let undated = false;
   for (const [i, spec] of specs.entries()) {
     const owner = people[spec.owner];
     const curator = i % 2 ? people["curator.hale"] : people["curator.mensah"];
     const document = buildDocument(spec, i, owner);
     if (await hasDatasetTitled({ ownerId: owner.id, title: document.title as string })) continue;
-    const version = await depositNewDataset({ actor: owner, document });
-    made++;
-    for (const step of spec.path) {
-      const [transition, actor, reason]: [Transition, UserDto, string | undefined] =
-        step === "submit"
-          ? ["submit", owner, undefined]
-          : step === "review"
-            ? ["start_review", curator, undefined]
-            : step === "changes"
-              ? ["return", curator, reasons.changes]
-              : step === "accept"
-                ? ["accept", curator, reasons.accept]
-                : step === "decline"
-                  ? ["decline", curator, reasons.decline]
-                  : ["retract", curator, reasons.retract];
-      // Directly through the lifecycle (audited), without queuing mail for the demo.
-      // Identifiers minted here are registered when the app starts (scripts/serve.ts queues every pending one).
-      await applyTransition({ versionId: version.id, actorId: actor.id, transition, reason });
-    }
+    const steps = spec.path.map((step): [Transition, UserDto, string | undefined] =>
+      step === "submit"
+        ? ["submit", owner, undefined]
+        : step === "review"
+          ? ["start_review", curator, undefined]
+          : step === "changes"
+            ? ["return", curator, reasons.changes]
+            : step === "accept"
+              ? ["accept", curator, reasons.accept]
+              : step === "decline"
+                ? ["decline", curator, reasons.decline]
+                : ["retract", curator, reasons.retract],
+    );
+    // Directly through the lifecycle (audited), without queuing mail for the demo.
+    // Identifiers minted here are registered when the app starts (scripts/serve.ts queues every pending one).
     const last = spec.path.at(-1);
-    if (last === "submit" || last === "review" || last === "changes")
-      queued.push({ versionId: version.id, hours: WAITED_HOURS[queued.length % WAITED_HOURS.length] });
+    if (last === "submit" || last === "review" || last === "changes") {
+      // Still waiting: deposited a few hours before it was submitted `hours` ago; each later step a
+      // while after the one before, all in the past, in order.
+      const hours = WAITED_HOURS[queued++ % WAITED_HOURS.length];
+      const { dated } = await recordDemoHistory(async (at) => {
+        await at(hours + 3);
+        const version = await depositNewDataset({ actor: owner, document });
+        for (const [n, [transition, actor, reason]] of steps.entries()) {
+          await at(hours * (1 - n / (steps.length + 1)));
+          await applyTransition({ versionId: version.id, actorId: actor.id, transition, reason });
+        }
+      });
+      undated ||= !dated;
+    } else {
+      const version = await depositNewDataset({ actor: owner, document });
+      for (const [transition, actor, reason] of steps)
+        await applyTransition({ versionId: version.id, actorId: actor.id, transition, reason });
+    }
+    made++;
   }
-  if (!(await backdateDemoSubmissions(queued)))
+  if (undated)
     console.warn(
       "[arrhenia] demo seed: no schema owner connection (MIGRATION_DATABASE_URL), so the queue's demo submissions all wait under 1 h",
     );
