@@ -81,7 +81,7 @@ export const SNAPSHOT_BY_ANOTHER = `DO $$ ${PROBE_IN_REVIEW}
       END $$`;
 
 /**
- * A lifecycle time of the runtime role's own choosing (drizzle/0024): its `arrhenia.recorded_at`
+ * A lifecycle time of the runtime role's own choosing (drizzle/0026): its `arrhenia.recorded_at`
  * is ignored. The block fails (is "refused") exactly when the clock still reads now().
  */
 export const CHOOSE_RECORDED_TIME = `DO $$ BEGIN

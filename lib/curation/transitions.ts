@@ -121,7 +121,7 @@ export async function applyTransition({
     } else {
       await tx
         .update(datasetVersions)
-        // submitted_at is the transaction's recorded time (now(); drizzle/0024): the snapshot function checks it was submitted in this transaction.
+        // submitted_at is the transaction's recorded time (now(); drizzle/0026): the snapshot function checks it was submitted in this transaction.
         .set({ state: to, updatedAt: recordedAt, ...(transition === "submit" ? { submittedAt: recordedAt } : {}) })
         .where(eq(datasetVersions.id, versionId));
     }
