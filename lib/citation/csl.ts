@@ -5,6 +5,7 @@
  */
 import { parse as parseName } from "@citation-js/name";
 import { normaliseDoi } from "@/lib/identifiers/datacite";
+import { mapStrings, oneLineText } from "@/lib/text/clean";
 
 /** The publisher every citation names. */
 export const PUBLISHER = "Arrhenia";
@@ -69,18 +70,22 @@ export function citationKey(subject: Pick<CitationSubject, "identifier" | "title
 export function buildCslItem(subject: CitationSubject): CslItem {
   const d = subject.publishedAt;
   const key = citationKey(subject);
-  return {
-    id: key,
-    "citation-key": key,
-    type: "dataset",
-    title: subject.title.trim(),
-    author: subject.creators.map(cslName),
-    ...(d ? { issued: { "date-parts": [[d.getUTCFullYear(), d.getUTCMonth() + 1, d.getUTCDate()]] } } : {}),
-    publisher: PUBLISHER,
-    ...(subject.kind === "version" && subject.versionNumber !== null ? { version: String(subject.versionNumber) } : {}),
-    ...(subject.identifier ? { DOI: subject.identifier } : {}),
-    URL: subject.url,
-  };
+  // Every field one clean line: a line break would start a new tag in RIS, a control character breaks XML.
+  return mapStrings<CslItem>(
+    {
+      id: key,
+      "citation-key": key,
+      type: "dataset",
+      title: subject.title.trim(),
+      author: subject.creators.map(cslName),
+      ...(d ? { issued: { "date-parts": [[d.getUTCFullYear(), d.getUTCMonth() + 1, d.getUTCDate()]] } } : {}),
+      publisher: PUBLISHER,
+      ...(subject.kind === "version" && subject.versionNumber !== null ? { version: String(subject.versionNumber) } : {}),
+      ...(subject.identifier ? { DOI: subject.identifier } : {}),
+      URL: subject.url,
+    },
+    oneLineText,
+  );
 }
 
 /**
@@ -93,13 +98,16 @@ export function sourceCslItem(source: { doi?: unknown; reference?: unknown } | u
   const ref = source.reference && typeof source.reference === "object" ? (source.reference as Record<string, unknown>) : null;
   if (ref && typeof ref.title === "string" && ref.title.trim()) {
     const refDoi = normaliseDoi(ref.DOI) ?? doi;
-    return {
-      ...ref,
-      id: "source",
-      type: typeof ref.type === "string" ? ref.type : "article-journal",
-      title: ref.title,
-      ...(refDoi ? { DOI: refDoi } : {}),
-    } as CslItem;
+    return mapStrings(
+      {
+        ...ref,
+        id: "source",
+        type: typeof ref.type === "string" ? ref.type : "article-journal",
+        title: ref.title,
+        ...(refDoi ? { DOI: refDoi } : {}),
+      } as CslItem,
+      oneLineText,
+    );
   }
   return null;
 }

@@ -70,9 +70,21 @@ export function formatBibtex(item: CslItem): string {
   return new Cite(forBibtex).format("bibtex").trim() + "\n";
 }
 
-/** RIS (type DATA, the version as ET). */
+/** A RIS tag line: two capitals (or a capital and a digit), two spaces, a dash. */
+const RIS_TAG = /^[A-Z][A-Z0-9] {2}-/;
+
+/**
+ * RIS (type DATA, the version as ET), one line per tag: citation-js folds long values at 70
+ * characters onto untagged lines, which readers take as a new, unknown line; the folds are joined
+ * back (the item's values hold no line break of their own, see buildCslItem).
+ */
 export function formatRis(item: CslItem): string {
-  return new Cite(item).format("ris").trim() + "\n";
+  const lines: string[] = [];
+  for (const line of new Cite(item).format("ris").trim().split(/\r?\n/)) {
+    if (RIS_TAG.test(line) || !lines.length) lines.push(line);
+    else lines[lines.length - 1] += line;
+  }
+  return lines.join("\n") + "\n";
 }
 
 /** CSL-JSON: an array of one item, as CSL processors read it. */

@@ -5,6 +5,7 @@
 import { create } from "xmlbuilder2";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { isDoiSyntax } from "./mint";
+import { mapStrings, xmlSafeText } from "@/lib/text/clean";
 
 /** DataCite relation types we emit (a subset of the schema's controlled list). */
 export type RelationType =
@@ -242,7 +243,8 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
     ...(fundingReferences.length ? { fundingReferences } : {}),
     schemaVersion: "http://datacite.org/schema/kernel-4",
   };
-  return { data: { type: "dois", attributes } };
+  // What registration sends and what the XML carries: no character XML 1.0 cannot hold.
+  return { data: { type: "dois", attributes: mapStrings(attributes, xmlSafeText) } };
 }
 
 function buildCreators(value: unknown): DataciteCreator[] {
@@ -312,7 +314,7 @@ const KERNEL_SCHEMA = "http://schema.datacite.org/meta/kernel-4/metadata.xsd";
  * location), built with xmlbuilder2 so every text and attribute is escaped by the library.
  */
 export function buildDataciteXml(attributes: DataciteAttributes): string {
-  const a = attributes;
+  const a = mapStrings(attributes, xmlSafeText);
   const root = create({ version: "1.0", encoding: "UTF-8" })
     .ele(KERNEL_NS, "resource")
     .att(XSI_NS, "xsi:schemaLocation", `${KERNEL_NS} ${KERNEL_SCHEMA}`);

@@ -105,3 +105,22 @@ describe("DataCite metadata (kernel 4)", () => {
     expect(resource.fundingReferences.fundingReference.funderName).toBe("Example Science Fund");
   });
 });
+
+describe("text XML 1.0 cannot carry", () => {
+  // XML 1.0 §2.2 (production Char): no C0 control character but tab, LF and CR, no U+FFFE / U+FFFF.
+  const odd = {
+    ...payload,
+    title: "Line one\u0007\nline two \uFFFE",
+    description: "Bell\u0001 and nul\u0000 here",
+    creators: [{ name: "Ab\u0001, Cd" }],
+  };
+  const oddAttributes = buildDoiMetadata({ ...input, payload: odd }).data.attributes;
+  const oddXml = buildDataciteXml(oddAttributes);
+
+  it("is left out of the registration body and the XML, which stays well-formed", () => {
+    expect(XMLValidator.validate(oddXml)).toBe(true);
+    expect(JSON.stringify(oddAttributes)).not.toMatch(/\\u000[0-8]|\uFFFE/);
+    expect(oddAttributes.titles[0].title).toMatch(/^Line one\nline two\s*$/);
+    expect(oddXml).toContain("Bell and nul here");
+  });
+});

@@ -132,3 +132,19 @@ describe("BibTeX, RIS and CSL-JSON", () => {
     expect(formatCitation(item, "text", "apa")).toBe(formatReference(item, "apa") + "\n");
   });
 });
+
+describe("RIS of awkward titles", () => {
+  const long = "Rate constants of the reaction of hydroxyl radicals with methane measured over a wide range, 250–1500 K";
+  it("keeps a long title on its one TI line (citation-js folds at 70 characters)", () => {
+    const ris = formatRis(buildCslItem({ ...version, title: long }));
+    expect(ris.split("\n").filter((l) => l && !/^[A-Z][A-Z0-9] {2}-/.test(l))).toEqual([]);
+    // Read back by citation-js's own RIS parser: the same title.
+    expect(new Cite(ris).data[0].title).toBe(long);
+  });
+  it("never lets a line break or control character in a title start a new tag or record", () => {
+    const ris = formatRis(buildCslItem({ ...version, title: "Line one\nER  - \nTY  - BOOK\u0001" }));
+    expect(ris.match(/^TY {2}-/gm)).toHaveLength(1);
+    expect(ris.match(/^ER {2}-/gm)).toHaveLength(1);
+    expect(ris).toMatch(/^TI {2}- Line one ER - TY - BOOK$/m);
+  });
+});
