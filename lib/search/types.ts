@@ -179,7 +179,9 @@ export interface ReactionHit {
   } | null;
   /**
    * Largest/smallest k of the datasets' own preferred fits (the model each analysis prefers) at the
-   * middle of their common range in 1/T, as a factor ≥ 1; null with fewer than two. Retracted ones never count.
+   * middle of their common range in 1/T, as a factor ≥ 1; null with fewer than two. Over every published
+   * dataset of the reaction (the search's filters do not narrow it, as they do not narrow the consensus);
+   * retracted ones never count.
    */
   spread: number | null;
 }

@@ -175,7 +175,9 @@ export default function ApiDocsPage() {
             <code>view</code>: <code>datasets</code> (default) or <code>reactions</code> (one row per reaction: <code>datasetCount</code> of
             the matching datasets that count as evidence and <code>retractedCount</code> of the retracted ones, found and marked but never
             in the count, the temperature range <code>tMin</code>–<code>tMax</code> (null when every match is retracted), the consensus
-            expression over the reaction page&apos;s default choice, and the spread of the datasets&apos; own preferred fits).
+            expression over the reaction page&apos;s default choice, and the spread of the datasets&apos; own preferred fits; the consensus
+            and the spread are the reaction&apos;s own, over every published dataset of it that is not retracted, whatever the search&apos;s
+            filters: they describe the reaction, the counts and range describe the matches).
           </li>
           <li>
             <code>sort</code>: <code>relevance</code> (default; for a species or a reaction pattern, the newest first), <code>newest</code>,{" "}
