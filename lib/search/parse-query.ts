@@ -12,7 +12,8 @@
  * 4. Terms joined by " + " (a plus with spaces around it: "[O+]" and "C+" stay one SMILES) → a
  *    pattern of reactants only, any products ("OH + CH4"; "OH + *" = every reaction of OH).
  * 5. One term without spaces → a species term; text with spaces is a species only when it is a
- *    name ("nitric oxide"); anything that names no species → free text.
+ *    name ("nitric oxide"); anything that names no species → free text. A pattern (3, 4) with a term
+ *    that names no species is free text too, the whole text ("Tanaka OH + methane 2019").
  *
  * Ambiguity: a term is read every way it can be (a name or synonym, a Hill formula — also written
  * in another order, "OH" = HO —, a SMILES, an InChI, an InChIKey) and the readings are united:

@@ -79,13 +79,20 @@ export async function resolveQuery(q: string): Promise<{ parsed: ParsedQuery; wo
       const unknown = [...shape.reactants, ...shape.products]
         .filter((_, i) => [...reactants, ...products][i].length === 0)
         .map((t) => quote(t.text));
+      // A term that names no species ("NewUser test OH + methane") makes the pattern a title's words, not a reaction.
+      if (unknown.length) {
+        const text = q.trim();
+        return {
+          parsed: { kind: "text", text },
+          words: `Text ${quote(text)} (${listWords(unknown)} ${unknown.length === 1 ? "names" : "name"} no species here, so the words are searched)`,
+        };
+      }
       const r = shape.reactants.map((t) => quote(t.text));
       const p = shape.products.map((t) => quote(t.text));
       let words = r.length
         ? `Reactions with ${listWords(r)} among the reactants${shape.otherReactants ? " (and any others)" : ""}`
         : "Reactions";
       words += p.length ? `${r.length ? " and" : " with"} ${listWords(p)} among the products` : ", any products";
-      if (unknown.length) words += `; ${listWords(unknown)} ${unknown.length === 1 ? "names" : "name"} no species here, so nothing matches`;
       return { parsed: { kind: "reaction", reactants, products, otherReactants: shape.otherReactants }, words };
     }
   }

@@ -273,6 +273,8 @@ export function runSearchConformance(
       ["CH4 → CH3", ["oh-ch4", "ch4-oh-theory", "cl-ch4", "oh-ch4-retracted"]],
       ["C=C => OC[CH2]", ["oh-c2h4"]],
       ["flash photolysis", ["oh-ch4", "cl-ch4"]],
+      // A "+" between words that name no species: the whole text is searched as words, not a reaction.
+      ["flash photolysis + OH", ["oh-ch4"]],
       ["ethene", ["oh-c2h4"]],
     ])("%s finds exactly its fixtures", async (q, expected) => {
       const r = await mine({ q });
