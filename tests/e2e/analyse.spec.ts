@@ -38,10 +38,10 @@ test("an error from the engine points at the pasted line", async ({ page }) => {
 test("a reaction page compares the published datasets of the demo with their consensus", async ({ page }) => {
   await page.goto("/reactions");
   await page
-    .getByRole("link", { name: /hydroxyl \+ methane → water \+ methyl/ })
+    .getByRole("link", { name: /hydroxyl radical \+ methane → water \+ methyl radical/ })
     .first()
     .click();
-  await expect(page.getByRole("heading", { level: 1 })).toHaveText(/hydroxyl \+ methane → water \+ methyl/);
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(/hydroxyl radical \+ methane → water \+ methyl radical/);
   await expect(page.getByRole("img", { name: /Arrhenius plot, ln k against 1000\/T, of \d+ datasets/ })).toBeVisible();
   await expect(page.getByRole("heading", { name: /Consensus of \d+ datasets/ })).toBeVisible();
   await expect(page.getByText(/Extrapolation outside the measured temperature range is unreliable/).first()).toBeVisible();
