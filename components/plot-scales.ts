@@ -3,13 +3,18 @@
  * number and no two labels read the same.
  */
 
-/** The round step (1, 2, 2.5 or 5 × 10ⁿ) that splits `span` into about `count` intervals. */
+/**
+ * The round step (1, 2, 2.5 or 5 × 10ⁿ) that splits `span` into about `count` intervals. 2.5 × 10ⁿ
+ * only for n ≥ 0 (2.5, 25, …): below that it would need one decimal more than its neighbours
+ * (0.025 writes −11.675 where 0.02 writes −11.68), so 2 × 10ⁿ is taken instead.
+ */
 export function niceStep(span: number, count = 5): number {
   if (!(span > 0) || !Number.isFinite(span)) return 1;
   const raw = span / Math.max(1, count);
-  const power = 10 ** Math.floor(Math.log10(raw));
+  const exponent = Math.floor(Math.log10(raw));
+  const power = 10 ** exponent;
   const m = raw / power;
-  return (m <= 1 ? 1 : m <= 2 ? 2 : m <= 2.5 ? 2.5 : m <= 5 ? 5 : 10) * power;
+  return (m <= 1 ? 1 : m <= 2 ? 2 : m <= 2.5 ? (exponent >= 0 ? 2.5 : 2) : m <= 5 ? 5 : 10) * power;
 }
 
 /** Decimals needed to write multiples of `step` exactly (0.25 → 2, 5 → 0). */

@@ -132,7 +132,7 @@ export function ResultTables({
               </tr>
               {analysis.weighted && (
                 <tr>
-                  <td>
+                  <td className="whitespace-normal">
                     <StatisticTerm id="scatterRatio" />
                     <span className="block whitespace-normal text-xs text-muted">
                       dimensionless: the typical residual in units of the stated uncertainties (1 when the points scatter as stated)

@@ -31,6 +31,8 @@ describe("niceScale", () => {
     expect(niceStep(7, 5)).toBe(2);
     expect(niceStep(0.9, 5)).toBe(0.2);
     expect(niceStep(12, 5)).toBe(2.5);
+    // A narrow log₁₀ k axis (span 0.12): 0.02, never 0.025, whose labels need a third decimal.
+    expect(niceStep(0.12, 5)).toBe(0.02);
     expect(decimalsOf(0.25)).toBe(2);
     expect(decimalsOf(50)).toBe(0);
   });
