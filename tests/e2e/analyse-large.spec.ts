@@ -1,3 +1,4 @@
+import { openWorkbench } from "./pages/workbench";
 import { appendFile, readFile } from "node:fs/promises";
 import { expect, test, type Page } from "@playwright/test";
 
@@ -71,7 +72,7 @@ async function mainThreadFigures(page: Page) {
 test("100 000 pasted points are fitted without freezing the page", async ({ page }, info) => {
   test.setTimeout(180_000);
   await page.setViewportSize({ width: 1366, height: 900 });
-  await page.goto("/analyse");
+  await openWorkbench(page);
   await page.waitForLoadState("networkidle");
   const data = page.getByLabel(/Data: temperature and rate constant/);
   await watchMainThread(page);
@@ -114,7 +115,7 @@ test("the fit of 100 000 points looks right at 1366 and 390 px", async ({ page }
     ["analyse-100k-390", { width: 390, height: 844 }],
   ] as const) {
     await page.setViewportSize(size);
-    await page.goto("/analyse");
+    await openWorkbench(page);
     await paste(page, DATA);
     await expect(page.getByText("100,000 points read.")).toBeVisible({ timeout: 30_000 });
     await page.getByRole("button", { name: "Fit" }).click();
@@ -127,7 +128,7 @@ test("the fit of 100 000 points looks right at 1366 and 390 px", async ({ page }
 });
 
 test("an error box never outlives the text it was about, and names the line as the person counts it", async ({ page }) => {
-  await page.goto("/analyse");
+  await openWorkbench(page);
   const data = page.getByLabel(/Data: temperature and rate constant/);
   // Line 1 a header, line 2 blank, line 3 a comment: the zero k is on line 5.
   await data.fill("T\tk\n\n# invented\n300\t1e-12\n350\t0\n400\t3e-12");
@@ -141,7 +142,7 @@ test("an error box never outlives the text it was about, and names the line as t
 });
 
 test("decimal commas with semicolons are fitted, and the fit downloads as CSV and JSON with the caution", async ({ page }) => {
-  await page.goto("/analyse");
+  await openWorkbench(page);
   await page
     .getByLabel(/Data: temperature and rate constant/)
     .fill("T;k;s\n250;2,09e-15;0,05\n290;4,90e-15;0,05\n330;9,40e-15;0,05\n400;2,17e-14;0,05");

@@ -16,7 +16,7 @@ test("a reader chooses measured data and a temperature window, and the page says
   const { context, page } = await withoutJavaScript(browser);
   await page.goto("/reactions");
   await page
-    .getByRole("link", { name: /hydroxyl radical \+ methane → water \+ methyl radical/ })
+    .getByRole("link", { name: /hydroxyl( radical)? \+ methane → water \+ methyl( radical)?/ })
     .first()
     .click();
   const choose = page.getByRole("region", { name: "Choose the data" });
@@ -43,7 +43,7 @@ test("a curator leaves a dataset out with a reason and includes it again, withou
   const { context, page: plain } = await withoutJavaScript(browser, session);
   await plain.goto("/reactions");
   await plain
-    .getByRole("link", { name: /hydroxyl radical \+ ethane → water \+ ethyl/ })
+    .getByRole("link", { name: /hydroxyl( radical)? \+ ethane → water \+ ethyl/ })
     .first()
     .click();
   const inputs = plain.getByRole("region", { name: "What went into the consensus" });
