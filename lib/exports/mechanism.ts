@@ -19,8 +19,10 @@ import {
   getCanonicalRateConstantUnit,
   parseEnergyUnit,
   parseRateConstantUnit,
-  SUPPORTED_UNITS,
 } from "@/lib/kinetics/units";
+import { MECHANISM_ENERGY_UNITS } from "./mechanism-units";
+
+export { DEFAULT_MECHANISM_ENERGY, MECHANISM_ENERGY_UNITS, mechanismRateUnits } from "./mechanism-units";
 
 export type MechanismModel = "arrhenius" | "modified_arrhenius";
 
@@ -57,20 +59,6 @@ export interface MechanismSubject {
   retraction: string | null;
   caution: string;
 }
-
-/** The Ea units on offer (ids of lib/kinetics/units) and how Cantera's units block names each. */
-export const MECHANISM_ENERGY_UNITS = [
-  { id: "kJ mol-1", cantera: "kJ/mol" },
-  { id: "kcal mol-1", cantera: "kcal/mol" },
-  { id: "J mol-1", cantera: "J/mol" },
-  { id: "cal mol-1", cantera: "cal/mol" },
-  { id: "K", cantera: "K" },
-] as const;
-
-export const DEFAULT_MECHANISM_ENERGY = "kJ mol-1";
-
-/** Rate-constant units on offer for an order: every supported unit of that order (lib/kinetics/units). */
-export const mechanismRateUnits = (order: ReactionOrder) => SUPPORTED_UNITS.rateConstant[order].map((u) => u.id);
 
 /** Cantera's length and quantity for a rate-constant unit: (length³/quantity)^(order−1) s⁻¹. */
 export function canteraUnitsOf(kUnit: string, order: ReactionOrder): { length: "cm" | "dm" | "m"; quantity: "mol" | "molec" } {
