@@ -77,7 +77,7 @@ test("a whole search result exports as CSV with progress, and the file opens wit
   const panel = page.getByTestId("search-export");
   await panel.getByText("Export every result").click();
   await panel.getByLabel("for spreadsheet programs (byte order mark)").check();
-  const [download] = await Promise.all([page.waitForEvent("download"), panel.getByRole("button", { name: "Export" }).click()]);
+  const [download] = await Promise.all([page.waitForEvent("download"), panel.getByRole("button", { name: "Export", exact: true }).click()]);
   await expect(panel.getByTestId("search-export-status")).toHaveText(new RegExp(`^Saved arrhenia-search-.*\\.csv: ${found} rows`));
   expect(download.suggestedFilename()).toMatch(/^arrhenia-search-\d{4}-\d{2}-\d{2}\.csv$/);
   const bytes = readFileSync((await download.path())!);

@@ -225,7 +225,7 @@ export default async function DatasetVersionPage({
           </li>
           <li>
             <a className="btn-secondary" href={downloads.csvBom} download>
-              Points as CSV for spreadsheet programs (UTF-8 with a byte order mark)
+              CSV for spreadsheet programs (UTF-8 with a byte order mark)
             </a>
           </li>
           <li>
