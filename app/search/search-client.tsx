@@ -8,6 +8,7 @@ import { DatasetRows, ReactionRows } from "@/components/search/search-results";
 import { errorsByParameter, fetchSearch, searchKey, SearchProblem, type SearchAnswer } from "@/components/search/search-answer";
 import { WINDOW_FIELDS, type WindowParameter } from "@/components/search/search-windows";
 import { activeFilters, SORT_LABELS, VIEW_LABELS, withFilters } from "@/components/search/search-words";
+import { SearchExport } from "@/components/search/search-export";
 import { EMPTY_FILTERS, FILTER_PARAMETERS, MAX_QUERY_LENGTH, parseSearchParams, toSearchParams } from "@/lib/search/params";
 import { SEARCH_SORTS, SEARCH_VIEWS, type DatasetHit, type ReactionHit, type SearchRequest } from "@/lib/search/types";
 import { FacetGroups, searchHref, WindowsForm, YearCounts } from "./search-filters";
@@ -160,6 +161,7 @@ export function SearchClient({ initial }: { initial: { key: string; answer: Sear
             {statusWords(query.isFetching, answer, request, refused)}
           </p>
           <Results request={request} answer={answer} settled={settled} error={query.error} onRetry={() => void query.refetch()} />
+          {!refused && <SearchExport request={request} total={answer?.total ?? null} />}
         </section>
       </div>
     </div>

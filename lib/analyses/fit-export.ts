@@ -75,7 +75,7 @@ export function fitPointRows(input: FitExportInput): Record<string, number | str
 export const csvCell = (v: unknown) => {
   if (v === null || v === undefined) return "";
   const s = typeof v === "number" ? (Number.isFinite(v) ? String(v) : "") : String(v);
-  return /[",\n#]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+  return /[",\r\n#]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 };
 
 /**

@@ -26,6 +26,20 @@ export const endpointScopes: { method: string; path: string; scope: ApiTokenScop
     scope: null,
     who: "anyone, for published and retracted versions",
   },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/parameters",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/export.json",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+  },
+  { method: "GET", path: "/api/v1/reactions/:id/parameters", scope: null, who: "anyone (reactions with published data)" },
+  { method: "GET", path: "/api/v1/search/export", scope: null, who: "anyone (published and retracted datasets only)" },
   { method: "GET", path: "/api/v1/versions/:id", scope: "read", who: "anyone for published versions; co-editors and curators otherwise" },
   { method: "PUT", path: "/api/v1/versions/:id", scope: "deposit", who: "owner and editors of a draft" },
   {

@@ -27,7 +27,14 @@ export interface PointsAbout {
 const MODEL_WORDS = { arrhenius: "Arrhenius", modified_arrhenius: "modified Arrhenius" } as const;
 
 /** A text field a spreadsheet would read as a formula (= + − @) starts with an apostrophe (OWASP "CSV injection"). */
-const textCell = (v: string | null) => csvCell(v !== null && /^[=+\-@\t\r]/.test(v) ? `'${v}` : v);
+export const textCell = (v: string | null) => csvCell(v !== null && /^[=+\-@\t\r]/.test(v) ? `'${v}` : v);
+
+/**
+ * A `# label: text` comment line of a CSV header: never broken (newlines become spaces), and a piece
+ * after a comma that would start a formula gets an apostrophe, since a spreadsheet splits the line there.
+ */
+export const csvCommentLine = (label: string, text: string) =>
+  `# ${label}: ${text.replace(/[\r\n]+/g, " ").replace(/,(\s*)(?=[=+\-@\t])/g, ",$1'")}`;
 
 /** The CSV columns, in order, with the value of each for one row. */
 function csvColumns(about: PointsAbout): [string, (r: PointRow) => string][] {
@@ -89,9 +96,7 @@ export function buildPointsCsv(about: PointsAbout, rows: readonly PointRow[]): s
   const columns = csvColumns(about);
   // A comment line never breaks: newlines inside a deposited text become spaces.
   // A spreadsheet splits a comment line at its commas: a piece that would start a formula gets an apostrophe, as data cells do.
-  const head = aboutLines(about).map(
-    ([label, text]) => `# ${label}: ${text.replace(/[\r\n]+/g, " ").replace(/,(\s*)(?=[=+\-@\t])/g, ",$1'")}`,
-  );
+  const head = aboutLines(about).map(([label, text]) => csvCommentLine(label, text));
   const body = rows.map((r) => columns.map(([, value]) => value(r)).join(","));
   return [...head, columns.map(([name]) => name).join(","), ...body].join("\r\n") + "\r\n";
 }

@@ -7,6 +7,10 @@ import * as analyses from "@/app/api/v1/analyses/route";
 import * as datasetCitation from "@/app/api/v1/datasets/[id]/citation/route";
 import * as dataciteJson from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.json/route";
 import * as dataciteXml from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.xml/route";
+import * as versionExport from "@/app/api/v1/datasets/[id]/versions/[n]/export.json/route";
+import * as versionParameters from "@/app/api/v1/datasets/[id]/versions/[n]/parameters/route";
+import * as reactionParameters from "@/app/api/v1/reactions/[id]/parameters/route";
+import * as searchExport from "@/app/api/v1/search/export/route";
 import * as datasets from "@/app/api/v1/datasets/route";
 import * as files from "@/app/api/v1/files/[fileId]/route";
 import * as identifiers from "@/app/api/v1/identifiers/route";
@@ -36,6 +40,10 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/datasets/:id/citation": datasetCitation,
   "/api/v1/datasets/:id/versions/:n/datacite.json": dataciteJson,
   "/api/v1/datasets/:id/versions/:n/datacite.xml": dataciteXml,
+  "/api/v1/datasets/:id/versions/:n/export.json": versionExport,
+  "/api/v1/datasets/:id/versions/:n/parameters": versionParameters,
+  "/api/v1/reactions/:id/parameters": reactionParameters,
+  "/api/v1/search/export": searchExport,
   "/api/v1/files/:fileId": files,
   "/api/v1/identifiers": identifiers,
   "/api/v1/reactions/:id/consensus": reactionConsensus,

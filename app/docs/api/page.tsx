@@ -331,6 +331,41 @@ export default function ApiDocsPage() {
         </ScrollRegion>
       </section>
 
+      <section className="space-y-3" aria-labelledby="exports">
+        <h2 id="exports" className="text-2xl font-semibold">
+          Exports: mechanism parameters, a version as JSON, a whole search
+        </h2>
+        <ul className="list-disc space-y-1 pl-6 text-sm">
+          <li>
+            <code>GET /api/v1/datasets/:id/versions/:n/parameters</code> and <code>GET /api/v1/reactions/:key/parameters</code> (the
+            consensus over <code>include</code>, <code>Tmin</code>, <code>Tmax</code>, as on the reaction page; <code>:key</code> as the
+            reaction page’s address writes it): <code>format=table</code> (<code>text/plain</code>, every fit with A, n, Ea, T0 and A/T0
+            <sup>n</sup>, the preferred one marked) or <code>format=cantera-yaml</code> (<code>application/yaml</code>: a <code>units</code>{" "}
+            block and one elementary reaction with <code>rate-constant: {"{A, b, Ea}"}</code>, A already divided by T0
+            <sup>n</sup> since Cantera writes T<sup>b</sup> without T0; <code>fit=preferred|arrhenius|modified_arrhenius</code> chooses the
+            fit). <code>k</code>: any rate-constant unit of the reaction’s order (default the molecule-based one); <code>energy</code>:{" "}
+            <code>kJ mol-1</code> (default), <code>kcal mol-1</code>, <code>J mol-1</code>, <code>cal mol-1</code> or <code>K</code> (Ea/R).
+            Both name the reaction, the temperature range, the identifier (or the datasets of the consensus) and the caution.
+          </li>
+          <li>
+            <code>GET /api/v1/datasets/:id/versions/:n/export.json</code>:{" "}
+            <code>{"{ about, document, analysis: { engineVersion, analysedAt, result, flags, checks } }"}</code> — the deposit document as
+            stored with its newest re-fit.
+          </li>
+          <li>
+            <code>GET /api/v1/search/export?format=csv|jsonl|json</code> with the parameters of <code>GET /api/v1/search</code> (not{" "}
+            <code>limit</code> or <code>cursor</code>: the whole result, streamed as it is read). CSV opens with <code>#</code> lines (the
+            search, units, where licences and citations are, the caution); JSON lines with an <code>about</code> line; JSON is{" "}
+            <code>{"{ about, hits: [ … ] }"}</code>. <code>bom=1</code> (CSV here and in <code>points.csv</code>) puts a UTF-8 byte order
+            mark first, for spreadsheet programs.
+          </li>
+        </ul>
+        <p className="text-sm">Drafts and every version that is not published or retracted are 404; a bad parameter is a 400 naming it.</p>
+        <ScrollRegion label="Example parameters request">
+          <pre className="w-max min-w-full rounded-md border border-line bg-panel p-4 text-xs">{`curl -sOJ '${appUrl()}/api/v1/datasets/1/versions/1/parameters?format=cantera-yaml&k=cm3%20mol-1%20s-1&energy=kcal%20mol-1'`}</pre>
+        </ScrollRegion>
+      </section>
+
       <section className="space-y-3" aria-labelledby="limits">
         <h2 id="limits" className="text-2xl font-semibold">
           Body sizes and safe retries

@@ -14,7 +14,8 @@ import { versionCapabilities } from "@/lib/curation/capabilities";
 import type { VersionState } from "@/lib/curation/lifecycle";
 import { GAS_CONSTANT, getCanonicalRateConstantUnit, type ReactionOrder } from "@/lib/kinetics";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
-import { consensusLabel, parseConsensusChoice, plotPoints } from "@/lib/reactions/consensus-selection";
+import { consensusChoiceQuery, consensusLabel, parseConsensusChoice, plotPoints } from "@/lib/reactions/consensus-selection";
+import { MechanismDownload } from "@/components/exports/mechanism-download";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { listDatasetRolesOf } from "@/lib/reactions/queries";
 import { cachedConsensusReaders, getPublicReactionCached, getReactionCached } from "@/lib/reactions/cached";
@@ -250,6 +251,25 @@ export default async function ReactionPage({
           </section>
 
           {result && <ConsensusSummary result={result} kUnitLabel={kLabel} labels={labels} caution={FIT_CAUTION} shown={shownIds} />}
+          {result && (
+            <section className="card space-y-2" aria-labelledby="mechanism-heading">
+              <h2 id="mechanism-heading" className="text-lg font-semibold">
+                The consensus for a mechanism
+              </h2>
+              <p className="text-sm">
+                A, n and Ea of the consensus over the data chosen above, in the units you choose, with T0, its temperature range, the
+                reaction, the datasets it rests on and the caution: as a plain table, or as a YAML block that Cantera reads.
+              </p>
+              <MechanismDownload
+                endpoint={`/api/v1/reactions/${reactionSegment(found.key)}/parameters`}
+                order={result.order}
+                initialKUnit={getCanonicalRateConstantUnit(result.order)}
+                initialEnergyUnit="kJ mol-1"
+                fits={result.modifiedArrhenius ? ["arrhenius", "modified_arrhenius"] : ["arrhenius"]}
+                extraQuery={chosen.ok ? consensusChoiceQuery(chosen.choice).replace(/^\?/, "") : ""}
+              />
+            </section>
+          )}
           {result && <StatisticGlossary className="card" ids={["consensus", "uncertaintyFactor", "betweenDatasets", "band"]} />}
           {result && <ConsensusComparisons result={result} labels={labels} shown={shownIds} />}
 

@@ -23,6 +23,7 @@ import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
 import { formatNumber } from "@/lib/format";
 import { CiteSection } from "@/components/cite/cite-section";
+import { MechanismDownload } from "@/components/exports/mechanism-download";
 import { DatasetJsonLd } from "@/components/cite/dataset-json-ld";
 import { getPublicCitation } from "@/lib/citation/public-citation";
 
@@ -83,7 +84,13 @@ export default async function DatasetVersionPage({
   // listPublicVersions is newest first.
   const newest = versions[0];
   const newer = newest.number > version.number ? newest : null;
-  const downloads = { csv: `/api/v1/versions/${version.id}/points.csv`, json: `/api/v1/versions/${version.id}/points.json` };
+  const downloads = {
+    csv: `/api/v1/versions/${version.id}/points.csv`,
+    csvBom: `/api/v1/versions/${version.id}/points.csv?bom=1`,
+    json: `/api/v1/versions/${version.id}/points.json`,
+    export: `/api/v1/datasets/${datasetId}/versions/${number}/export.json`,
+    parameters: `/api/v1/datasets/${datasetId}/versions/${number}/parameters`,
+  };
 
   return (
     <article className="space-y-6">
@@ -217,12 +224,42 @@ export default async function DatasetVersionPage({
             </a>
           </li>
           <li>
+            <a className="btn-secondary" href={downloads.csvBom} download>
+              CSV for spreadsheet programs (UTF-8 with a byte order mark)
+            </a>
+          </li>
+          <li>
             <a className="btn-secondary" href={downloads.json} download>
               Points as JSON
             </a>
           </li>
+          <li>
+            <a className="btn-secondary" href={downloads.export} download>
+              Deposit with its re-fits and flags (JSON)
+            </a>
+          </li>
         </ul>
       </section>
+
+      {result && (
+        <section className="card space-y-2" aria-labelledby="mechanism-heading">
+          <h2 id="mechanism-heading" className="text-lg font-semibold">
+            Parameters for a mechanism
+          </h2>
+          <p className="text-sm">
+            A, n and Ea of the re-fits in the units you choose, with T0, the measured temperature range, the reaction, the identifier and
+            the caution: as a plain table, or as a YAML block that Cantera reads for an elementary reaction (A divided by T0
+            <sup>n</sup>, since Cantera writes T<sup>n</sup> without T0).
+          </p>
+          <MechanismDownload
+            endpoint={downloads.parameters}
+            order={doc.reaction.order}
+            initialKUnit={units.kUnit}
+            initialEnergyUnit={units.energyUnit}
+            fits={result.modifiedArrhenius ? ["arrhenius", "modified_arrhenius"] : ["arrhenius"]}
+          />
+        </section>
+      )}
 
       <CiteSection citation={citation} />
 

@@ -1,0 +1,190 @@
+import "server-only";
+import { CAUTION } from "@/lib/analyses/analyse-request";
+import { csvCell } from "@/lib/analyses/fit-export";
+import { appUrl } from "@/lib/config";
+import { csvCommentLine, textCell } from "@/lib/datasets/point-export";
+import { versionPath } from "@/lib/identifiers/paths";
+import { reactionPath } from "@/lib/reactions/paths";
+import { currentSearchEngine } from "./index";
+import { toSearchParams } from "./params";
+import { listDisplayEquations } from "./queries";
+import { resolveQuery } from "./resolve-query";
+import type { DatasetHit, ParsedQuery, ReactionHit, SearchEngine, SearchRequest } from "./types";
+
+/**
+ * A whole search result as a download that streams: the engine is walked with its keyset positions
+ * one batch at a time, and each batch is written to the response as soon as it is read, only when
+ * the reader asks for more (a ReadableStream's pull, one chunk ahead): nothing holds the whole
+ * result, so 100 000 rows take the memory of one batch. CSV (a `#` header block, one row per hit,
+ * formula-safe, optional UTF-8 byte order mark), JSON lines (an "about" line, then one hit per line)
+ * or one JSON document ({"about": …, "hits": [ … ]}, written piece by piece).
+ */
+
+export type SearchExportFormat = "csv" | "jsonl" | "json";
+
+/** Hits read from the engine per step. */
+export const SEARCH_EXPORT_BATCH = 1000;
+
+export const SEARCH_EXPORT_MEDIA_TYPES: Record<SearchExportFormat, string> = {
+  csv: "text/csv; charset=utf-8; header=present",
+  jsonl: "application/jsonl; charset=utf-8",
+  json: "application/json; charset=utf-8",
+};
+
+type Row = Record<string, string | number | boolean | null | string[]>;
+
+/** A datasets-view hit as an export row (canonical units named in the column). */
+function datasetRow(h: DatasetHit, origin: string): Row {
+  return {
+    version_identifier: h.versionIdentifier,
+    page: `${origin}${versionPath(h.datasetId, h.versionNumber)}`,
+    title: h.title,
+    equation: h.equation,
+    reaction_key: h.reactionKey,
+    reaction_class: h.reactionClass,
+    method: h.methodCategory,
+    T_min_K: h.tMin,
+    T_max_K: h.tMax,
+    points: h.pointCount,
+    "Ea_J_mol-1": h.ea,
+    A: h.a,
+    A_unit: h.aUnit,
+    flags: h.flags,
+    creators: h.creators,
+    published_at: h.publishedAt,
+    retracted: h.retracted,
+  };
+}
+
+/** A reactions-view hit as an export row. */
+function reactionRow(h: ReactionHit, origin: string): Row {
+  const c = h.consensus;
+  return {
+    reaction_key: h.reactionKey,
+    page: `${origin}${reactionPath(h.reactionKey)}`,
+    equation: h.equation,
+    datasets: h.datasetCount,
+    retracted_datasets: h.retractedCount,
+    T_min_K: h.tMin,
+    T_max_K: h.tMax,
+    consensus_model: c?.model ?? null,
+    consensus_A: c?.a ?? null,
+    consensus_n: c?.n ?? null,
+    "consensus_Ea_J_mol-1": c?.ea ?? null,
+    consensus_A_unit: c?.aUnit ?? null,
+    consensus_T_min_K: c?.tMin ?? null,
+    consensus_T_max_K: c?.tMax ?? null,
+    spread_factor: h.spread,
+  };
+}
+
+// The column names, in order, from the row builders themselves (one definition of a row).
+const DATASET_COLUMNS = Object.keys(datasetRow({ datasetId: 1, versionNumber: 1 } as DatasetHit, ""));
+const REACTION_COLUMNS = Object.keys(reactionRow({ reactionKey: "" } as ReactionHit, ""));
+
+/** One CSV line: numbers as JavaScript writes them, text formula-safe, lists joined by "; ". */
+function csvLine(row: Row, columns: string[]): string {
+  return columns
+    .map((c) => {
+      const v = row[c];
+      if (typeof v === "number" || v === null) return csvCell(v);
+      if (typeof v === "boolean") return v ? "yes" : "";
+      return textCell(Array.isArray(v) ? v.join("; ") : v);
+    })
+    .join(",");
+}
+
+/** What the file says about itself: the search, when, the caution, where licences and citations are. */
+function aboutOf(request: SearchRequest, words: string, origin: string) {
+  const query = toSearchParams({ ...request, cursor: null, limit: undefined }, { cursor: false }).toString();
+  return {
+    search: `${origin}/search${query ? `?${query}` : ""}`,
+    understood: words,
+    view: request.view,
+    exportedAt: new Date().toISOString(),
+    units: { T: "K", Ea: "J mol-1", A: "as A_unit names it (the canonical unit of the reaction's order)" },
+    consensus:
+      request.view === "reactions" ? "A (T/T0)^n exp(-Ea/(R T)) with T0 = 298.15 K, over the reaction's published datasets" : undefined,
+    licences: "each dataset under its own licence, named on its page",
+    cite: "cite each dataset by its version identifier (its page gives the citation)",
+    caution: CAUTION,
+  };
+}
+
+export interface SearchExportOptions {
+  format: SearchExportFormat;
+  bom?: boolean;
+  /** The engine walked (the configured one unless a test brings its own). */
+  engine?: SearchEngine;
+  batch?: number;
+  /** Called after each batch is written: rows so far (tests and logs). */
+  onBatch?: (rows: number) => void;
+}
+
+/**
+ * The whole result of `request` (its cursor and limit are not used) as a byte stream. Each pull
+ * reads one batch from the engine and enqueues its text; the stream holds at most one chunk that
+ * the reader has not taken (highWaterMark 1), so a slow reader slows the walk instead of filling memory.
+ */
+export function searchExportStream(request: SearchRequest, options: SearchExportOptions): ReadableStream<Uint8Array> {
+  const { format, bom = false, batch = SEARCH_EXPORT_BATCH, onBatch } = options;
+  const engine = options.engine ?? currentSearchEngine();
+  const origin = appUrl();
+  const encoder = new TextEncoder();
+  const columns = request.view === "reactions" ? REACTION_COLUMNS : DATASET_COLUMNS;
+  let parsed: ParsedQuery | null = null;
+  let after: string | null = null;
+  let rows = 0;
+
+  const rowsText = (list: Row[]) => {
+    if (format === "csv") return list.map((r) => `${csvLine(r, columns)}\r\n`).join("");
+    if (format === "jsonl") return list.map((r) => `${JSON.stringify(r)}\n`).join("");
+    return list.map((r, i) => `${rows + i === 0 ? "\n" : ",\n"}${JSON.stringify(r)}`).join("");
+  };
+
+  return new ReadableStream<Uint8Array>(
+    {
+      async pull(controller) {
+        if (parsed === null) {
+          const resolved = await resolveQuery(request.q);
+          parsed = resolved.parsed;
+          const about = aboutOf(request, resolved.words, origin);
+          const head =
+            format === "csv"
+              ? [
+                  ...Object.entries(about)
+                    .filter(([, v]) => v !== undefined)
+                    .map(([label, v]) => csvCommentLine(label, typeof v === "string" ? v : JSON.stringify(v))),
+                  columns.join(","),
+                ].join("\r\n") + "\r\n"
+              : format === "jsonl"
+                ? `${JSON.stringify({ about })}\n`
+                : `{"about":${JSON.stringify(about)},"hits":[`;
+          controller.enqueue(encoder.encode(`${bom ? "\uFEFF" : ""}${head}`));
+          return;
+        }
+        const page = await engine.search({ parsed, view: request.view, filters: request.filters, sort: request.sort, after, limit: batch });
+        let list: Row[];
+        if (page.view === "reactions") list = (page.hits as ReactionHit[]).map((h) => reactionRow(h, origin));
+        else {
+          // Rows name species as every public page does, whatever the engine stored.
+          const hits = page.hits as DatasetHit[];
+          const equations = await listDisplayEquations({ reactionKeys: [...new Set(hits.map((h) => h.reactionKey))] });
+          list = hits.map((h) => datasetRow({ ...h, equation: equations.get(h.reactionKey) ?? h.equation }, origin));
+        }
+        const text = rowsText(list);
+        rows += list.length;
+        after = page.nextAfter;
+        const last = after === null || list.length === 0;
+        controller.enqueue(encoder.encode(last && format === "json" ? `${text}${rows ? "\n" : ""}]}\n` : text));
+        onBatch?.(rows);
+        if (last) controller.close();
+      },
+    },
+    { highWaterMark: 1 },
+  );
+}
+
+/** The download's file name: "search-<date>.<ext>". */
+export const searchExportFileName = (format: SearchExportFormat) =>
+  `arrhenia-search-${new Date().toISOString().slice(0, 10)}.${format === "jsonl" ? "jsonl" : format}`;

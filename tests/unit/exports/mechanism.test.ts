@@ -1,0 +1,181 @@
+import { describe, expect, it } from "vitest";
+import { parse } from "yaml";
+import { AppError } from "@/lib/errors";
+import {
+  buildCanteraYaml,
+  buildMechanismTable,
+  canteraEquation,
+  convertMechanismFits,
+  mechanismRateUnits,
+  MECHANISM_ENERGY_UNITS,
+  type MechanismSubject,
+} from "@/lib/exports/mechanism";
+import { mechanismUnitsOrThrow, parseQueryOrThrow, versionParametersQuerySchema } from "@/lib/exports/requests";
+import type { ReactionOrder } from "@/lib/kinetics/types";
+// Source: CODATA 2018 recommended values (N_A and R exact since the 2019 SI), and the thermochemical
+// calorie 4.184 J (NIST SP 811, 2008, B.8): tests/fixtures/units-codata2018.json.
+import codata from "@/tests/fixtures/units-codata2018.json";
+
+const N_A = codata.constants_CODATA2018.N_A_per_mol;
+const R = codata.constants_CODATA2018.R_J_per_mol_K;
+const CAL = codata.constants_CODATA2018.cal_th_J;
+
+/** An invented subject: a curved fit (preferred) and its straight companion, for one reaction order. */
+function subject(order: ReactionOrder): MechanismSubject {
+  const lnA = order === 1 ? Math.log(3.2e13) : order === 2 ? Math.log(2.45e-12) : Math.log(6.1e-33);
+  return {
+    kind: "version",
+    title: "Invented test dataset",
+    equation: "OH + methyl radical → methanol",
+    participants: [
+      { side: "reactant", name: "OH", coefficient: 1 },
+      { side: "reactant", name: "methyl radical", coefficient: 1 },
+      { side: "product", name: "methanol", coefficient: 1 },
+    ],
+    order,
+    identifier: "10.5072/ARH-TEST-0000/1",
+    sources: [],
+    landingPage: "http://127.0.0.1/datasets/1/v1",
+    citation: "Invented, A. (2026). Invented test dataset. Version 1.",
+    range: { Tmin: 250, Tmax: 1200 },
+    fits: [
+      { model: "arrhenius", lnA: lnA + 0.3, n: 0, Ea: 14_000, T0: 300 },
+      { model: "modified_arrhenius", lnA, n: 1.73, Ea: 12_345.678, T0: 300 },
+    ],
+    preferred: "modified_arrhenius",
+    engineVersion: "test",
+    retraction: null,
+    caution: "Caution sentence.",
+  };
+}
+
+/** k(T) of one of the subject's fits, in the canonical unit: A (T/T0)^n exp(−Ea/RT). */
+const kOfFit = (f: MechanismSubject["fits"][number], T: number) => Math.exp(f.lnA) * (T / f.T0) ** f.n * Math.exp(-f.Ea / (R * T));
+
+/** Cantera's units block → factor from its A′ unit to the canonical unit (cm³ molecule⁻¹ … s⁻¹), written out from the definitions. */
+function toCanonical(units: { length: string; quantity: string }, order: ReactionOrder): number {
+  const cm3 = { cm: 1, dm: 1e3, m: 1e6 }[units.length]!;
+  // Per mole → per molecule divides by N_A for each concentration factor.
+  const perQuantity = units.quantity === "mol" ? 1 / N_A : 1;
+  return (cm3 * perQuantity) ** (order - 1);
+}
+
+/** Cantera's activation-energy unit → J mol⁻¹. */
+const energyToJoules: Record<string, number> = { "J/mol": 1, "kJ/mol": 1000, "cal/mol": CAL, "kcal/mol": 1000 * CAL, K: R };
+
+describe("Cantera YAML of a fit", () => {
+  const temperatures = [250, 298.15, 500, 900, 1200, 2000];
+  for (const order of [1, 2, 3] as const) {
+    for (const kUnit of mechanismRateUnits(order)) {
+      for (const energy of MECHANISM_ENERGY_UNITS) {
+        it(`order ${order}, k in ${kUnit}, Ea in ${energy.id}: A·T^b·exp(−Ea/RT) read back reproduces k(T) to 1e-10`, () => {
+          const s = subject(order);
+          for (const fit of ["preferred", "arrhenius", "modified_arrhenius"] as const) {
+            const text = buildCanteraYaml(s, { kUnit, energyUnit: energy.id }, fit);
+            const doc = parse(text);
+            expect(doc.units).toMatchObject({ time: "s", "activation-energy": energy.cantera });
+            expect(doc.reactions).toHaveLength(1);
+            const [reaction] = doc.reactions;
+            expect(reaction.equation).toBe("OH + methyl_radical => methanol");
+            const { A, b, Ea } = reaction["rate-constant"];
+            const model = fit === "preferred" ? "modified_arrhenius" : fit;
+            const source = s.fits.find((f) => f.model === model)!;
+            expect(b).toBe(source.n);
+            const EaJ = Ea * energyToJoules[doc.units["activation-energy"]];
+            for (const T of temperatures) {
+              const fromYaml = A * toCanonical(doc.units, order) * T ** b * Math.exp(-EaJ / (R * T));
+              expect(Math.abs(fromYaml / kOfFit(source, T) - 1)).toBeLessThan(1e-10);
+            }
+          }
+        });
+      }
+    }
+  }
+
+  it("says what it is: identifier and caution in comments and the description", () => {
+    const text = buildCanteraYaml(subject(2), { kUnit: "cm3 molecule-1 s-1", energyUnit: "kcal mol-1" });
+    expect(text).toMatch(/^# .*Arrhenia mechanism parameters/m);
+    expect(text).toContain("# doi:10.5072/ARH-TEST-0000/1");
+    const doc = parse(text);
+    expect(doc.description).toContain("caution: Caution sentence.");
+    expect(doc.description).toContain("valid range: 250 K to 1200 K");
+    expect(doc.units).toEqual({ length: "cm", quantity: "molec", time: "s", "activation-energy": "kcal/mol" });
+  });
+
+  it("writes the equation with coefficients and names made whole words", () => {
+    expect(
+      canteraEquation([
+        { side: "reactant", name: "OH", coefficient: 2 },
+        { side: "product", name: "hydrogen  peroxide", coefficient: 1 },
+      ]),
+    ).toBe("2 OH => hydrogen_peroxide");
+  });
+});
+
+describe("unit conversions of the parameters", () => {
+  it("A per mole is A per molecule × N_A (CODATA 2018); m³ is 10⁶ cm³; Ea in kcal is J / 4184 (thermochemical calorie, NIST SP 811); K is Ea/R", () => {
+    const s = subject(2);
+    const base = convertMechanismFits(s, { kUnit: "cm3 molecule-1 s-1", energyUnit: "J mol-1" });
+    const perMole = convertMechanismFits(s, { kUnit: "cm3 mol-1 s-1", energyUnit: "kcal mol-1" });
+    const si = convertMechanismFits(s, { kUnit: "m3 mol-1 s-1", energyUnit: "K" });
+    expect(base[0].model).toBe("modified_arrhenius");
+    for (let i = 0; i < base.length; i++) {
+      expect(perMole[i].A / (base[i].A * N_A) - 1).toBeCloseTo(0, 12);
+      expect(si[i].A / ((base[i].A * N_A) / 1e6) - 1).toBeCloseTo(0, 12);
+      expect(perMole[i].Ea / (base[i].Ea / (1000 * CAL)) - 1).toBeCloseTo(0, 12);
+      expect(si[i].Ea / (base[i].Ea / R) - 1).toBeCloseTo(0, 12);
+      expect(base[i].canteraA / (base[i].A / base[i].T0 ** base[i].n) - 1).toBeCloseTo(0, 12);
+    }
+  });
+});
+
+describe("the plain table", () => {
+  it("names the reaction, identifier, T0, range and caution, and aligns its columns", () => {
+    const text = buildMechanismTable(subject(2), { kUnit: "cm3 mol-1 s-1", energyUnit: "kcal mol-1" });
+    expect(text).toContain("reaction: OH + methyl radical → methanol");
+    expect(text).toContain("version identifier: doi:10.5072/ARH-TEST-0000/1");
+    expect(text).toContain("T0 = 300 K");
+    expect(text).toContain("caution: Caution sentence.");
+    const lines = text.trimEnd().split("\n");
+    const table = lines.slice(lines.findIndex((l) => l.startsWith("fit ")));
+    expect(table).toHaveLength(3);
+    expect(table[1]).toMatch(/^modified Arrhenius\s+yes\s/);
+    // Every column starts where its heading starts, on every line.
+    const heads = ["fit", "preferred", "A (", "n", "Ea (", "T0 (K)", "A/T0^n"];
+    const at = heads.map((h) => table[0].indexOf(h));
+    const cellsOf = (line: string) => at.map((start, i) => line.slice(start, at[i + 1]).trim());
+    expect(cellsOf(table[0]).every((c, i) => c.startsWith(heads[i]))).toBe(true);
+    const cells = cellsOf(table[1]);
+    expect(cells.slice(0, 2)).toEqual(["modified Arrhenius", "yes"]);
+    expect(cellsOf(table[2]).slice(0, 2)).toEqual(["Arrhenius", ""]);
+    expect(cellsOf(table[2])[3]).toBe("0");
+    expect(cells[5]).toBe("300");
+    // A in cm³ mol⁻¹ s⁻¹ = A per molecule × N_A, Ea in kcal mol⁻¹ = J mol⁻¹ / 4184.
+    expect(Number(cells[2]) / (2.45e-12 * N_A)).toBeCloseTo(1, 6);
+    expect(Number(cells[4]) / (12_345.678 / 4184)).toBeCloseTo(1, 6);
+  });
+});
+
+describe("the query", () => {
+  const bad = (f: () => unknown) => {
+    try {
+      f();
+    } catch (e) {
+      return e as AppError;
+    }
+    throw new Error("no error");
+  };
+  it("a unit of another order, an unknown energy unit, an unknown format or parameter is a 400 naming it", () => {
+    expect(bad(() => mechanismUnitsOrThrow(2, { k: "s-1" })).errors.map((e) => e.parameter)).toEqual(["k"]);
+    expect(bad(() => mechanismUnitsOrThrow(2, { energy: "eV" })).errors.map((e) => e.parameter)).toEqual(["energy"]);
+    expect(bad(() => mechanismUnitsOrThrow(2, { k: "furlongs", energy: "x" })).status).toBe(400);
+    const q = (s: string) => bad(() => parseQueryOrThrow(versionParametersQuerySchema, new URLSearchParams(s)));
+    expect(q("format=xml").errors[0]).toMatchObject({ parameter: "format", pointer: "/format" });
+    expect(q("units=K").errors[0]).toMatchObject({ parameter: "units" });
+    expect(q("k=s-1&k=s-1").errors[0]).toMatchObject({ parameter: "k" });
+  });
+  it("takes the units' other spellings and defaults to the canonical k unit and kJ mol⁻¹", () => {
+    expect(mechanismUnitsOrThrow(2, {})).toEqual({ kUnit: "cm3 molecule-1 s-1", energyUnit: "kJ mol-1" });
+    expect(mechanismUnitsOrThrow(2, { k: "cm3/mol/s", energy: "kcal/mol" })).toEqual({ kUnit: "cm3 mol-1 s-1", energyUnit: "kcal mol-1" });
+  });
+});
