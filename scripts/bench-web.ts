@@ -236,7 +236,8 @@ function buildApp() {
 }
 
 function startServer(): ChildProcess {
-  return spawn("node_modules/.bin/tsx", ["--conditions=react-server", "scripts/serve.ts"], {
+  // Node with tsx's loader, as scripts/serve.ts starts Next: no tsx command process in the measured tree.
+  return spawn(process.execPath, ["--import", "tsx", "--conditions=react-server", "scripts/serve.ts"], {
     stdio: ["ignore", "inherit", "inherit"],
     detached: false,
     env: {

@@ -73,7 +73,8 @@ if (quiet && staleRefits.engineMismatch)
 const innerPort = configuredInnerPort() ?? (await freeLoopbackPort());
 // Without the react-server condition: Next's own server loads its vendored React as `next start` does.
 forwardCacheInvalidations(cacheInvalidationSender({ port: innerPort, edgeKeyHeader: EDGE_KEY_HEADER, edgeKey, cacheKey }));
-const next = spawn("node_modules/.bin/tsx", ["scripts/inner-server.ts", String(innerPort)], {
+// Node itself with tsx's loader (`--import tsx`), not tsx's command, which would keep one more Node process (about 50 MB) only to relay signals.
+const next = spawn(process.execPath, ["--import", "tsx", "scripts/inner-server.ts", String(innerPort)], {
   stdio: ["ignore", "inherit", "inherit"],
   env: process.env,
 });
