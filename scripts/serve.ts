@@ -33,6 +33,7 @@ import { doiPrefix } from "@/lib/identifiers/mint";
 import { startWorkers } from "@/lib/jobs/worker";
 import { enqueuePendingIdentifierRegistrations } from "@/lib/identifiers/queue";
 import { enqueueStaleRefits } from "@/lib/datasets/refit";
+import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { startCaptureServer } from "@/lib/mail/capture-server";
 import { DEMO_PASSWORD, demoAccounts } from "./seed/seed-data";
 import { warmUpApp } from "./warm-up";
@@ -66,11 +67,14 @@ const fakeDoi = usesFakeDoiService()
 const workers = await startWorkers();
 const pendingIdentifiers = await enqueuePendingIdentifierRegistrations();
 const staleRefits = await enqueueStaleRefits();
+if (quiet && staleRefits.engineMismatch)
+  console.error(`[arrhenia] the database records engine ${staleRefits.engineMismatch}, this code is ${ENGINE_VERSION}: no re-fit queued`);
 
 const innerPort = configuredInnerPort() ?? (await freeLoopbackPort());
 // Without the react-server condition: Next's own server loads its vendored React as `next start` does.
 forwardCacheInvalidations(cacheInvalidationSender({ port: innerPort, edgeKeyHeader: EDGE_KEY_HEADER, edgeKey, cacheKey }));
-const next = spawn("node_modules/.bin/tsx", ["scripts/inner-server.ts", String(innerPort)], {
+// Node itself with tsx's loader (`--import tsx`), not tsx's command, which would keep one more Node process (about 50 MB) only to relay signals.
+const next = spawn(process.execPath, ["--import", "tsx", "scripts/inner-server.ts", String(innerPort)], {
   stdio: ["ignore", "inherit", "inherit"],
   env: process.env,
 });
@@ -99,7 +103,13 @@ if (!quiet) {
   Mail: ${capture ? `captured locally (SMTP 127.0.0.1:${captureSmtpPort()}); admins read it at /admin/mail` : "sent through SMTP_URL"}
   Identifiers (prefix ${doiPrefix()}): ${fakeDoi ? `registered with the local fake DOI service at ${fakeDoi.url}${fakeDoiDataDir() ? ` (records in ${fakeDoiDataDir()})` : ""}` : `registered through ${doiApiUrl()}`}${pendingIdentifiers ? ` — ${pendingIdentifiers} waiting, queued now` : ""}
 
-  Fits: ${staleRefits ? `${staleRefits} version(s) fitted by an older engine, re-fit queued` : "every version is fitted by the current engine"}
+  Fits: ${
+    staleRefits.engineMismatch
+      ? `the database records engine ${staleRefits.engineMismatch}, this code is ${ENGINE_VERSION}: no re-fit queued (run the migrations)`
+      : staleRefits.queued
+        ? `${staleRefits.queued} version(s) fitted by an older engine, re-fit queued`
+        : "every version is fitted by the current engine"
+  }
 
   Demo accounts (password for all: ${DEMO_PASSWORD})
 ${demoAccounts.map((a) => `    ${a.email.padEnd(width)}  ${a.role.padEnd(10)}  ${a.name}`).join("\n")}

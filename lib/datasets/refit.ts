@@ -58,10 +58,23 @@ export async function listStaleVersions(): Promise<number[]> {
   return rows.map((r) => Number(r.id));
 }
 
-/** Queues a re-fit of every stale version (at start-up, after an engine upgrade). */
-export async function enqueueStaleRefits(): Promise<number> {
+/** The engine version the database records as current (drizzle/0013; written by scripts/migrate.ts), null when none. */
+export async function recordedEngineVersion(): Promise<string | null> {
+  const [row] = await getDb().execute<{ engine_version: string }>(sql`select engine_version from arrhenia_engine where only_row`);
+  return row?.engine_version ?? null;
+}
+
+/**
+ * Queues a re-fit of every stale version (at start-up, after an engine upgrade). Only when the
+ * database records this code's engine as current: otherwise every re-fit would be refused by
+ * arrhenia_append_refit_analysis after its fit had been computed (a database not migrated by this
+ * code), so nothing is queued and `engineMismatch` names the database's engine.
+ */
+export async function enqueueStaleRefits(): Promise<{ queued: number; engineMismatch: string | null }> {
+  const recorded = await recordedEngineVersion();
+  if (recorded !== ENGINE_VERSION) return { queued: 0, engineMismatch: recorded ?? "none" };
   const ids = await listStaleVersions();
   const boss = await getSender();
   for (const versionId of ids) await boss.send("refit", { versionId }, { ...retryPolicy, singletonKey: `refit-${versionId}` });
-  return ids.length;
+  return { queued: ids.length, engineMismatch: null };
 }

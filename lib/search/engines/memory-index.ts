@@ -40,6 +40,19 @@ class Dictionary {
   find(value: string): number | undefined {
     return this.codes.get(value);
   }
+  private byValue: Int32Array | null = null;
+  /**
+   * The codes in byte order of their values (the database's C collation; JavaScript compares
+   * UTF-16 units, the same for these values), computed once: facet counts break ties by it.
+   */
+  inValueOrder(): Int32Array {
+    if (this.byValue && this.byValue.length === this.values.length) return this.byValue;
+    const order = Int32Array.from(this.values.keys());
+    const v = this.values;
+    order.sort((a, b) => (v[a] < v[b] ? -1 : v[a] > v[b] ? 1 : 0));
+    this.byValue = order;
+    return order;
+  }
 }
 
 export interface MemoryIndex {
@@ -253,29 +266,83 @@ export async function memoryIndex(): Promise<MemoryIndex> {
 // ---------------------------------------------------------------------------------------------
 // Filters and facet counts
 
-/** Documents that pass the temperature and pressure windows (the filters that are not facets). */
-export function passesWindows(index: MemoryIndex, i: number, f: SearchFilters): boolean {
-  if (f.tCovers && f.tMin !== null && f.tMax !== null) {
-    if (!(index.tMin[i] <= f.tMin && index.tMax[i] >= f.tMax)) return false;
-  } else {
-    if (f.tMin !== null && !(index.tMax[i] >= f.tMin)) return false;
-    if (f.tMax !== null && !(index.tMin[i] <= f.tMax)) return false;
+/**
+ * The positions among `positions` that pass the temperature and pressure windows (the filters
+ * that are not facets), in order (`keep[k]` set for each kept one). A temperature window keeps
+ * ranges overlapping it (or covering it: tCovers); a pressure window keeps datasets with a stated
+ * pressure range overlapping it (NaN, no pressure, fails every comparison, as null does).
+ */
+export function filterWindows(index: MemoryIndex, positions: Int32Array, f: SearchFilters, keep?: Uint8Array): Int32Array {
+  const covers = f.tCovers && f.tMin !== null && f.tMax !== null;
+  const none = f.tMin === null && f.tMax === null && f.pMin === null && f.pMax === null;
+  if (none) {
+    keep?.fill(1);
+    return positions;
   }
-  // A pressure window keeps datasets with a stated pressure range overlapping it (NaN fails every comparison, as null does).
-  if (f.pMin !== null && !(index.pMax[i] >= f.pMin)) return false;
-  if (f.pMax !== null && !(index.pMin[i] <= f.pMax)) return false;
-  return true;
+  // Each comparison only when its bound is given.
+  const hasTMin = f.tMin !== null;
+  const hasTMax = f.tMax !== null;
+  const hasPMin = f.pMin !== null;
+  const hasPMax = f.pMax !== null;
+  const tMin = f.tMin ?? 0;
+  const tMax = f.tMax ?? 0;
+  const pLo = f.pMin ?? 0;
+  const pHi = f.pMax ?? 0;
+  const { tMin: lo, tMax: hi, pMin, pMax } = index;
+  const out = new Int32Array(positions.length);
+  let n = 0;
+  for (let k = 0; k < positions.length; k++) {
+    const i = positions[k];
+    if (covers) {
+      if (!(lo[i] <= tMin && hi[i] >= tMax)) continue;
+    } else {
+      if (hasTMin && !(hi[i] >= tMin)) continue;
+      if (hasTMax && !(lo[i] <= tMax)) continue;
+    }
+    if (hasPMin && !(pMax[i] >= pLo)) continue;
+    if (hasPMax && !(pMin[i] <= pHi)) continue;
+    out[n++] = i;
+    if (keep) keep[k] = 1;
+  }
+  return out.subarray(0, n);
 }
 
-/** One facet's filter as a test of a document, or null when the reader chose none of its values. */
-export function facetTest(index: MemoryIndex, facet: SearchFacet, f: SearchFilters): ((i: number) => boolean) | null {
-  if (facet === "sourceYear") {
+/** A facet's column: scalar codes, or list offsets and values; its dictionary. */
+interface FacetColumn {
+  facet: SearchFacet;
+  scalar: Int32Array | null;
+  offsets: Int32Array | null;
+  values: Int32Array | null;
+  dictionary: Dictionary;
+}
+
+function facetColumn(index: MemoryIndex, facet: SearchFacet): FacetColumn {
+  if ((SCALAR_FACETS as readonly string[]).includes(facet)) {
+    const { dictionary, codes } = index.scalar[facet as ScalarFacet];
+    return { facet, scalar: codes, offsets: null, values: null, dictionary };
+  }
+  const { dictionary, offsets, values } = index.list[facet as ListFacet];
+  return { facet, scalar: null, offsets, values, dictionary };
+}
+
+/**
+ * One facet's filter, or null when the reader chose none of its values: source years as a range
+ * (a document without a year fails it), any other facet as the set of chosen value codes (a mask
+ * over its dictionary; a list facet passes when any of the document's values is chosen).
+ */
+interface FacetFilter {
+  column: FacetColumn;
+  /** Position of the facet in the facets counted (-1: filtered, not counted). */
+  at: number;
+  mask: Uint8Array | null;
+  yearMin: number;
+  yearMax: number;
+}
+
+function facetFilter(index: MemoryIndex, column: FacetColumn, f: SearchFilters, at: number): FacetFilter | null {
+  if (column.facet === "sourceYear") {
     if (f.yearMin === null && f.yearMax === null) return null;
-    const { yearMin, yearMax } = f;
-    return (i) => {
-      const y = index.sourceYear[i];
-      return (yearMin === null || y >= yearMin) && (yearMax === null || y <= yearMax);
-    };
+    return { column, at, mask: null, yearMin: f.yearMin ?? -Infinity, yearMax: f.yearMax ?? Infinity };
   }
   const chosen = {
     reactionClass: f.reactionClass,
@@ -285,19 +352,48 @@ export function facetTest(index: MemoryIndex, facet: SearchFacet, f: SearchFilte
     licence: f.licence,
     flags: f.flags,
     creator: f.creator,
-  }[facet] as readonly string[];
+  }[column.facet as Exclude<SearchFacet, "sourceYear">] as readonly string[];
   if (!chosen.length) return null;
-  if ((SCALAR_FACETS as readonly string[]).includes(facet)) {
-    const { dictionary, codes } = index.scalar[facet as ScalarFacet];
-    const wanted = new Set(chosen.map((v) => dictionary.find(v)).filter((c) => c !== undefined));
-    return (i) => wanted.has(codes[i]);
+  const mask = new Uint8Array(column.dictionary.values.length);
+  for (const v of chosen) {
+    const code = column.dictionary.find(v);
+    if (code !== undefined) mask[code] = 1;
   }
-  const { dictionary, offsets, values } = index.list[facet as ListFacet];
-  const wanted = new Set(chosen.map((v) => dictionary.find(v)).filter((c) => c !== undefined));
-  return (i) => {
-    for (let j = offsets[i]; j < offsets[i + 1]; j++) if (wanted.has(values[j])) return true;
-    return false;
-  };
+  return { column, at, mask, yearMin: 0, yearMax: 0 };
+}
+
+function passesFacet(index: MemoryIndex, t: FacetFilter, i: number): boolean {
+  const { mask, column } = t;
+  if (mask === null) {
+    const y = index.sourceYear[i];
+    return y >= t.yearMin && y <= t.yearMax;
+  }
+  if (column.scalar !== null) {
+    const code = column.scalar[i];
+    return code >= 0 && mask[code] === 1;
+  }
+  const offsets = column.offsets!;
+  const values = column.values!;
+  for (let j = offsets[i], end = offsets[i + 1]; j < end; j++) if (mask[values[j]] === 1) return true;
+  return false;
+}
+
+/** Adds the values of `docs` (positions) in one facet's column to its counts: one tight loop per column. */
+function addCounts(column: FacetColumn, counts: Int32Array, docs: Int32Array, n: number): void {
+  if (column.scalar !== null) {
+    const codes = column.scalar;
+    for (let k = 0; k < n; k++) {
+      const code = codes[docs[k]];
+      if (code >= 0) counts[code]++;
+    }
+    return;
+  }
+  const offsets = column.offsets!;
+  const values = column.values!;
+  for (let k = 0; k < n; k++) {
+    const i = docs[k];
+    for (let j = offsets[i], end = offsets[i + 1]; j < end; j++) counts[values[j]]++;
+  }
 }
 
 /** Most values listed per facet (bath gases and creators can be many). */
@@ -306,57 +402,74 @@ export const FACET_VALUES = 50;
 /**
  * Which candidates match (every chosen facet filter passes), and each facet's counts over the
  * candidates with every other facet's filter applied: a document failing exactly one facet's
- * filter still counts in that facet. One pass; counts ordered by count, then value; 50 at most.
+ * filter still counts in that facet. One pass over typed columns; counts ordered by count, then
+ * value; 50 at most.
  */
 export function countFacets(index: MemoryIndex, candidates: Int32Array, filters: SearchFilters, facets: readonly SearchFacet[]) {
-  const tests = facets.map((facet) => ({ facet, test: facetTest(index, facet, filters) })).filter((t) => t.test !== null);
-  const counts = new Map<SearchFacet, Int32Array>();
-  for (const facet of facets) {
-    const size = (SCALAR_FACETS as readonly string[]).includes(facet)
-      ? index.scalar[facet as ScalarFacet].dictionary.values.length
-      : index.list[facet as ListFacet].dictionary.values.length;
-    counts.set(facet, new Int32Array(size));
-  }
-  const add = (facet: SearchFacet, i: number) => {
-    const c = counts.get(facet)!;
-    if ((SCALAR_FACETS as readonly string[]).includes(facet)) {
-      const code = index.scalar[facet as ScalarFacet].codes[i];
-      if (code >= 0) c[code]++;
-    } else {
-      const { offsets, values } = index.list[facet as ListFacet];
-      for (let j = offsets[i]; j < offsets[i + 1]; j++) c[values[j]]++;
-    }
-  };
-  const matched: number[] = [];
+  const columns = facets.map((facet) => facetColumn(index, facet));
+  const counts = columns.map((c) => new Int32Array(c.dictionary.values.length));
+  const tests: FacetFilter[] = [];
+  columns.forEach((column, at) => {
+    const t = facetFilter(index, column, filters, at);
+    if (t) tests.push(t);
+  });
+  const matched = new Int32Array(candidates.length);
+  let found = 0;
+  // The documents failing exactly one filter, per filter.
+  const failingOne = tests.map(() => ({ docs: new Int32Array(0), n: 0 }));
   for (let k = 0; k < candidates.length; k++) {
     const i = candidates[k];
-    let failing: SearchFacet | null = null;
+    let failing = -1;
     let failures = 0;
-    for (const t of tests) {
-      if (!t.test!(i)) {
+    for (let t = 0; t < tests.length; t++) {
+      if (!passesFacet(index, tests[t], i)) {
         failures++;
-        failing = t.facet;
+        failing = t;
         if (failures > 1) break;
       }
     }
-    if (failures === 0) {
-      matched.push(i);
-      for (const facet of facets) add(facet, i);
-    } else if (failures === 1) add(failing!, i);
+    if (failures === 0) matched[found++] = i;
+    else if (failures === 1) {
+      const f = failingOne[failing];
+      if (f.n === f.docs.length) {
+        const grown = new Int32Array(Math.max(64, f.docs.length * 2));
+        grown.set(f.docs);
+        f.docs = grown;
+      }
+      f.docs[f.n++] = i;
+    }
   }
+  for (let c = 0; c < columns.length; c++) addCounts(columns[c], counts[c], matched, found);
+  tests.forEach((t, k) => addCounts(t.column, counts[t.at], failingOne[k].docs, failingOne[k].n));
   const result = {} as Record<SearchFacet, { value: string; count: number }[]>;
-  for (const facet of facets) {
-    const c = counts.get(facet)!;
-    const dictionary = (SCALAR_FACETS as readonly string[]).includes(facet)
-      ? index.scalar[facet as ScalarFacet].dictionary
-      : index.list[facet as ListFacet].dictionary;
-    const listed: { value: string; count: number }[] = [];
-    for (let code = 0; code < c.length; code++) if (c[code] > 0) listed.push({ value: dictionary.values[code], count: c[code] });
-    // Ties by value in byte order (the database's C collation; JavaScript compares UTF-16 units, the same for these values).
-    listed.sort((a, b) => b.count - a.count || (a.value < b.value ? -1 : a.value > b.value ? 1 : 0));
-    result[facet] = listed.slice(0, FACET_VALUES);
+  columns.forEach((column, at) => {
+    result[column.facet] = topValues(column.dictionary, counts[at]);
+  });
+  return { matched: matched.subarray(0, found), facets: result };
+}
+
+/**
+ * The FACET_VALUES values counted most, by count, then value in byte order: each counted value
+ * as one number (count, then its place in value order) sorted natively, not objects compared.
+ */
+function topValues(dictionary: Dictionary, counts: Int32Array): { value: string; count: number }[] {
+  const order = dictionary.inValueOrder();
+  const n = order.length;
+  const keys = new Float64Array(n);
+  let m = 0;
+  // Exact in a double: count × n + (n − 1 − place) < 2^53 for any count of documents.
+  for (let place = 0; place < n; place++) {
+    const count = counts[order[place]];
+    if (count > 0) keys[m++] = count * n + (n - 1 - place);
   }
-  return { matched, facets: result };
+  const sorted = keys.subarray(0, m).sort();
+  const listed: { value: string; count: number }[] = [];
+  for (let k = m - 1; k >= 0 && listed.length < FACET_VALUES; k--) {
+    const key = sorted[k];
+    const code = order[n - 1 - (key % n)];
+    listed.push({ value: dictionary.values[code], count: counts[code] });
+  }
+  return listed;
 }
 
 /** True when any of `keys` is in the key set. */

@@ -2,7 +2,7 @@ import "server-only";
 import { sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { AppError } from "@/lib/errors";
-import { countFacets, memoryIndex, overlaps, passesWindows, type MemoryIndex } from "./memory-index";
+import { countFacets, filterWindows, memoryIndex, overlaps, type MemoryIndex } from "./memory-index";
 import {
   SEARCH_FACETS,
   type DatasetHit,
@@ -59,16 +59,29 @@ function readAfter(after: string | null): { key: string; id: number } | null {
   throw new AppError("bad_request", message, [{ pointer: "/cursor", parameter: "cursor", message }]);
 }
 
-/** A page of candidates by (key desc, id desc), after a keyset position: the first `limit + 1` only. */
-function topByKey<T extends { key: number; id: number }>(items: T[], after: { key: number; id: number } | null, limit: number): T[] {
-  const before = (a: T, b: { key: number; id: number }) => a.key > b.key || (a.key === b.key && a.id > b.id);
-  const page: T[] = [];
-  for (const item of items) {
-    if (after && !(item.key < after.key || (item.key === after.key && item.id < after.id))) continue;
-    if (page.length > limit && !before(item, page[page.length - 1])) continue;
+/**
+ * A page of candidates by (key desc, id desc), after a keyset position: the first `limit + 1`
+ * only, as positions 0 … count - 1 with their key and id (no object per candidate).
+ */
+function topByKey(
+  count: number,
+  keyAt: (k: number) => number,
+  idAt: (k: number) => number,
+  after: { key: number; id: number } | null,
+  limit: number,
+): { key: number; id: number; k: number }[] {
+  const page: { key: number; id: number; k: number }[] = [];
+  for (let k = 0; k < count; k++) {
+    const key = keyAt(k);
+    const id = idAt(k);
+    if (after && !(key < after.key || (key === after.key && id < after.id))) continue;
+    if (page.length > limit) {
+      const last = page[page.length - 1];
+      if (!(key > last.key || (key === last.key && id > last.id))) continue;
+    }
     let at = page.length;
-    while (at > 0 && before(item, page[at - 1])) at--;
-    page.splice(at, 0, item);
+    while (at > 0 && (key > page[at - 1].key || (key === page[at - 1].key && id > page[at - 1].id))) at--;
+    page.splice(at, 0, { key, id, k });
     if (page.length > limit + 1) page.pop();
   }
   return page;
@@ -171,9 +184,11 @@ async function candidatesOf(
   }
   let test: (i: number) => boolean;
   switch (parsed.kind) {
-    case "all":
-      test = () => true;
-      break;
+    case "all": {
+      const all = new Int32Array(index.size);
+      for (let i = 0; i < index.size; i++) all[i] = i;
+      return { positions: all, rank: null };
+    }
     case "species": {
       // Decided once per distinct key set (documents of a reaction share theirs).
       const hit = index.keySets.map((set) => overlaps(set, parsed.inchiKeys));
@@ -192,9 +207,10 @@ async function candidatesOf(
       break;
     }
   }
-  const positions: number[] = [];
-  for (let i = 0; i < index.size; i++) if (test(i)) positions.push(i);
-  return { positions: Int32Array.from(positions), rank: null };
+  const positions = new Int32Array(index.size);
+  let found = 0;
+  for (let i = 0; i < index.size; i++) if (test(i)) positions[found++] = i;
+  return { positions: positions.subarray(0, found), rank: null };
 }
 
 /** The datasets view's sort key of one document. */
@@ -216,15 +232,11 @@ async function runSearch(index: MemoryIndex, query: EngineQuery, fuzzy: boolean)
   const sort = query.sort === "relevance" && query.parsed.kind !== "text" ? "newest" : query.sort;
   const { positions, rank } = await candidatesOf(index, query, fuzzy);
   // Windows first (not facets: they narrow every count), keeping each candidate's rank beside it.
-  const inWindow: number[] = [];
+  const keep = rank ? new Uint8Array(positions.length) : undefined;
+  const inWindow = filterWindows(index, positions, query.filters, keep);
   const rankOf = new Map<number, number>();
-  for (let k = 0; k < positions.length; k++) {
-    const i = positions[k];
-    if (!passesWindows(index, i, query.filters)) continue;
-    inWindow.push(i);
-    if (rank) rankOf.set(i, rank[k]);
-  }
-  const { matched, facets } = countFacets(index, Int32Array.from(inWindow), query.filters, SEARCH_FACETS);
+  if (rank && keep) for (let k = 0; k < positions.length; k++) if (keep[k]) rankOf.set(positions[k], rank[k]);
+  const { matched, facets } = countFacets(index, inWindow, query.filters, SEARCH_FACETS);
   const facetCounts = facets as Record<SearchFacet, FacetCount[]>;
   if (query.view === "reactions") {
     // Each reaction's matching documents, summed up as the reactions view sorts them. A retracted
@@ -257,7 +269,13 @@ async function runSearch(index: MemoryIndex, query: EngineQuery, fuzzy: boolean)
       g,
       key: sort === "relevance" ? g.best : sort === "newest" ? g.newest : sort === "widest" ? widest(g) : g.points,
     }));
-    const page = topByKey(items, after, query.limit);
+    const page = topByKey(
+      items.length,
+      (k) => items[k].key,
+      (k) => items[k].id,
+      after,
+      query.limit,
+    ).map((p) => items[p.k]);
     const shown = page.slice(0, query.limit);
     const summaries = await reactionSummaries(shown.map((p) => p.id));
     const hits: ReactionHit[] = shown.map((p) => ({
@@ -280,8 +298,13 @@ async function runSearch(index: MemoryIndex, query: EngineQuery, fuzzy: boolean)
       nextAfter: page.length > query.limit && last ? JSON.stringify([String(last.key), last.id]) : null,
     };
   }
-  const items = matched.map((i) => ({ id: index.versionId[i], key: datasetKey(index, sort, i, rankOf.get(i) ?? 0) }));
-  const page = topByKey(items, after, query.limit);
+  const page = topByKey(
+    matched.length,
+    (k) => datasetKey(index, sort, matched[k], rank ? (rankOf.get(matched[k]) ?? 0) : 0),
+    (k) => index.versionId[matched[k]],
+    after,
+    query.limit,
+  );
   const shown = page.slice(0, query.limit);
   const last = shown[shown.length - 1];
   return {
