@@ -30,6 +30,7 @@ function prepareSource(source: DocumentSource) {
 import {
   createDatasetDraft,
   createNextVersion,
+  getDatasetSummary,
   getVersionWithRole,
   listDatasetMembers,
   listPublicVersions,
@@ -227,6 +228,10 @@ export async function transitionVersion({
           (v) => v.number < found.version.number && v.versionIdentifier,
         )
       : undefined;
+  const seriesOfRetracted =
+    transition === "retract" && found
+      ? ((await getDatasetSummary({ datasetId: found.version.datasetId }))?.seriesIdentifier ?? null)
+      : null;
   return applyTransition({
     versionId,
     actorId: actor.id,
@@ -244,6 +249,12 @@ export async function transitionVersion({
         // A later version changes what the series record lists, so it is sent again.
         await enqueueIdentifierRegistration(outcome.identifiers.series, { tx, refresh: (found?.version.number ?? 1) > 1 });
         if (previous?.versionIdentifier) await enqueueIdentifierRegistration(previous.versionIdentifier, { tx, refresh: true });
+      }
+      // A retraction changes the version's registered metadata (a Withdrawn date, a description) and
+      // may change which version the series record describes: both are sent again.
+      if (transition === "retract" && found?.version.versionIdentifier) {
+        await enqueueIdentifierRegistration(found.version.versionIdentifier, { tx, refresh: true });
+        if (seriesOfRetracted) await enqueueIdentifierRegistration(seriesOfRetracted, { tx, refresh: true });
       }
       if (transition === "accept" || transition === "return" || transition === "decline" || transition === "retract") {
         const published =
