@@ -8,6 +8,7 @@ import { assertNotTooDeep, findNumberTooLarge } from "@/lib/json-depth";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
 import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
+import { findForbiddenCharacters } from "@/lib/deposits/text-characters";
 import { decisionMail, resubmissionMail, submissionMail } from "@/lib/mail/templates";
 import { listReturningCurators } from "@/lib/curation/queries";
 import type { Transaction } from "@/db/client";
@@ -74,8 +75,11 @@ async function prepareDraftText(
       const message = `The number at ${huge} is too large to store (beyond about 1.8e308); correct it to save the draft.`;
       throw new AppError("validation_failed", `The draft cannot be stored: ${message}`, [{ pointer: huge, message }]);
     }
+    // Text that cannot be stored, or holds a character the deposit rules refuse, is never kept in a draft either.
     const unstorable = findUnstorableText(doc, MAX_KEPT_PROBLEMS);
     if (unstorable.length) throw new AppError("validation_failed", `The draft cannot be stored: ${unstorable[0].message}`, unstorable);
+    const forbidden = findForbiddenCharacters(doc, MAX_KEPT_PROBLEMS);
+    if (forbidden.length) throw new AppError("validation_failed", `The draft cannot be stored: ${forbidden[0].message}`, forbidden);
     const problems = err.errors.slice(0, MAX_KEPT_PROBLEMS).map(({ pointer, message }) => ({ pointer, message }));
     return { incomplete: { document: doc as Record<string, unknown>, problems, title: title.trim() } };
   }
