@@ -3,15 +3,15 @@
  * Every citation the app writes starts here — the one-line citation of pages and downloads, the
  * formatted references, BibTeX, RIS and CSL-JSON. Pure: no I/O.
  */
-import { parse as parseName } from "@citation-js/name";
 import { normaliseDoi } from "@/lib/identifiers/datacite";
+import { creatorName } from "./names";
 import { mapStrings, oneLineText } from "@/lib/text/clean";
 
 /** The publisher every citation names. */
 export const PUBLISHER = "Arrhenia";
 
 /** A CSL-JSON name: family and given parts, or one literal. */
-export type CslName = { family: string; given?: string; "non-dropping-particle"?: string } | { literal: string };
+export type CslName = { family: string; given?: string; "non-dropping-particle"?: string; suffix?: string } | { literal: string };
 
 /** A CSL-JSON item (CSL 1.0.2 variables); fields beyond the ones named are kept as given. */
 export interface CslItem {
@@ -42,13 +42,23 @@ export interface CitationSubject {
   versionNumber: number | null;
   /** The landing page (absolute URL). */
   url: string;
+  /** Set when the version cited was retracted (a series: when every version was). */
+  retracted?: { at: Date | null } | null;
 }
 
-/** A creator's name as deposited → CSL name parts ("Tanaka, Emi" and "Emi Tanaka" both give family Tanaka). */
+/**
+ * A creator's name as deposited → CSL name parts ("Tanaka, Emi" and "Emi Tanaka" both give family
+ * Tanaka; an organisation's name is one literal), from the same parts DataCite's creators take (names.ts).
+ */
 export function cslName(name: string): CslName {
-  const text = name.trim();
-  const parsed = parseName(text);
-  return parsed.family ? (parsed as CslName) : { literal: text };
+  const parts = creatorName(name);
+  if (parts.kind === "organisation") return { literal: parts.name };
+  return {
+    family: parts.family,
+    ...(parts.given ? { given: parts.given } : {}),
+    ...(parts.particle ? { "non-dropping-particle": parts.particle } : {}),
+    ...(parts.suffix ? { suffix: parts.suffix } : {}),
+  };
 }
 
 /**
@@ -83,6 +93,8 @@ export function buildCslItem(subject: CitationSubject): CslItem {
       ...(subject.kind === "version" && subject.versionNumber !== null ? { version: String(subject.versionNumber) } : {}),
       ...(subject.identifier ? { DOI: subject.identifier } : {}),
       URL: subject.url,
+      // CSL 1.0.2's `status` variable lists "retracted" among its examples (from memory); styles that ignore it get it in formats.ts.
+      ...(subject.retracted ? { status: "retracted" } : {}),
     },
     oneLineText,
   );
@@ -116,7 +128,7 @@ export function sourceCslItem(source: { doi?: unknown; reference?: unknown } | u
 function nameText(n: CslName): string {
   if ("literal" in n) return n.literal;
   const family = [n["non-dropping-particle"], n.family].filter(Boolean).join(" ");
-  return n.given ? `${family}, ${n.given}` : family;
+  return [family, n.given, n.suffix].filter(Boolean).join(", ");
 }
 
 /**
@@ -132,5 +144,6 @@ export function citationLineOf(item: CslItem): string {
   const title = item.title.trim();
   const end = /[.?!]$/.test(title) ? "" : ".";
   const version = item.version ? ` Version ${item.version}.` : "";
-  return `${who} (${year ?? "n.d."}). ${title}${end}${version} ${item.publisher ?? PUBLISHER}.${item.DOI ? ` doi:${item.DOI}` : ""}`;
+  const status = item.status === "retracted" ? " Retracted." : "";
+  return `${who} (${year ?? "n.d."}). ${title}${end}${version}${status} ${item.publisher ?? PUBLISHER}.${item.DOI ? ` doi:${item.DOI}` : ""}`;
 }

@@ -4,6 +4,7 @@
  * (written by scripts/citation-styles.ts from the registry's bundle of the open CSL styles),
  * BibTeX, RIS and CSL-JSON. Server-side: the style files are read from the project folder once.
  */
+import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { Cite, plugins } from "@citation-js/core";
@@ -12,13 +13,24 @@ import "@citation-js/plugin-bibtex";
 import "@citation-js/plugin-ris";
 import type { CslItem } from "./csl";
 
-/** The styles offered: our id (API `style=`), the label on screen and the CSL style file. */
+/** CSL variables a shipped style never prints for a dataset (its style file has no rule that reads them). */
+type IgnoredVariable = "version" | "publisher" | "status" | "DOI";
+
+/**
+ * The styles offered: our id (API `style=`), the label on screen, the CSL style file and the
+ * variables that file ignores for a dataset. Every reference must name the version, the publisher
+ * a retraction and the identifier, so for those styles only (see styleItem): the version and the
+ * retraction go into the title as "(version 2, retracted)", the publisher into `container-title`,
+ * which the ACS file prints after the title, and the DOI into the address (`https://doi.org/…`),
+ * which the Vancouver file prints instead of any DOI. tests/unit/citation/formats.test.ts checks each file still ignores
+ * what is listed here.
+ */
 export const CITATION_STYLES = [
-  { id: "apa", label: "APA", file: "apa.csl" },
-  { id: "vancouver", label: "Vancouver", file: "vancouver.csl" },
-  { id: "harvard", label: "Harvard", file: "harvard-cite-them-right.csl" },
-  { id: "acs", label: "American Chemical Society", file: "american-chemical-society.csl" },
-] as const;
+  { id: "apa", label: "APA", file: "apa.csl", ignores: ["status"] },
+  { id: "vancouver", label: "Vancouver", file: "vancouver.csl", ignores: ["version", "status", "DOI"] },
+  { id: "harvard", label: "Harvard", file: "harvard-cite-them-right.csl", ignores: ["version", "status"] },
+  { id: "acs", label: "American Chemical Society", file: "american-chemical-society.csl", ignores: ["version", "publisher", "status"] },
+] as const satisfies readonly { id: string; label: string; file: string; ignores: readonly IgnoredVariable[] }[];
 
 export type CitationStyleId = (typeof CITATION_STYLES)[number]["id"];
 export const CITATION_STYLE_IDS = CITATION_STYLES.map((s) => s.id) as [CitationStyleId, ...CitationStyleId[]];
@@ -49,9 +61,28 @@ function templateName(style: CitationStyleId): string {
   return name;
 }
 
+/**
+ * The item as one style is given it: what the style's file ignores (CITATION_STYLES `ignores`) put
+ * where it prints — the version and a retraction appended to the title, the publisher as
+ * `container-title`, the DOI as the address. Styles that print them get the item unchanged.
+ */
+export function styleItem(item: CslItem, style: CitationStyleId): CslItem {
+  const ignores: readonly IgnoredVariable[] = CITATION_STYLES.find((s) => s.id === style)!.ignores;
+  const notes = [
+    ...(ignores.includes("version") && item.version ? [`version ${item.version}`] : []),
+    ...(ignores.includes("status") && item.status === "retracted" ? ["retracted"] : []),
+  ];
+  const changes: Partial<CslItem> = {
+    ...(notes.length ? { title: `${item.title} (${notes.join(", ")})` } : {}),
+    ...(ignores.includes("publisher") && item.publisher && !item["container-title"] ? { "container-title": item.publisher } : {}),
+    ...(ignores.includes("DOI") && item.DOI ? { URL: `https://doi.org/${item.DOI}` } : {}),
+  };
+  return Object.keys(changes).length ? { ...item, ...changes } : item;
+}
+
 /** A formatted reference, as plain text, in one of the four styles (no list number or trailing newline). */
 export function formatReference(item: CslItem, style: CitationStyleId): string {
-  const text = new Cite(item).format("bibliography", { format: "text", template: templateName(style), lang: "en-US" });
+  const text = new Cite(styleItem(item, style)).format("bibliography", { format: "text", template: templateName(style), lang: "en-US" });
   // Numeric styles number the one entry ("1. ", "(1) "): a single reference stands on its own.
   return text.trim().replace(/^(\(1\)|\[1\]|1\.)\s+/, "");
 }
@@ -65,22 +96,43 @@ export function formatBibtex(item: CslItem): string {
   const forBibtex: CslItem = {
     ...item,
     ...(year ? { issued: { "date-parts": [year.slice(0, 2)] } } : {}),
-    ...(item.version ? { note: `Version ${item.version}` } : {}),
+    ...(noteOf(item) ? { note: noteOf(item) } : {}),
   };
   return new Cite(forBibtex).format("bibtex").trim() + "\n";
 }
+
+/** What BibTeX's and RIS's note says: the version (neither format has a field for it in a dataset entry) and a retraction. */
+function noteOf(item: CslItem): string | null {
+  const parts = [...(item.version ? [`Version ${item.version}`] : []), ...(item.status === "retracted" ? ["Retracted"] : [])];
+  return parts.length ? parts.join(". ") : null;
+}
+
+/**
+ * RIS's ID tag holds at most 20 characters (the RIS specification; citation-js cuts longer ones),
+ * so a RIS record gets an id of its own that fits whole: the citation key without its "arrhenia_"
+ * prefix (`ARH_4F7K_9QXM_v2`), or, when that is still longer, its first 11 characters and 8 hex digits of
+ * its SHA-256 — stable, and different for different keys.
+ */
+export function risRecordId(item: CslItem): string {
+  const key = String(item["citation-key"] ?? item.id).replace(/^arrhenia_/, "");
+  if (key.length <= RIS_ID_MAX) return key;
+  return `${key.slice(0, 11)}_${createHash("sha256").update(key).digest("hex").slice(0, 8)}`;
+}
+const RIS_ID_MAX = 20;
 
 /** A RIS tag line: two capitals (or a capital and a digit), two spaces, a dash. */
 const RIS_TAG = /^[A-Z][A-Z0-9] {2}-/;
 
 /**
- * RIS (type DATA, the version as ET), one line per tag: citation-js folds long values at 70
+ * RIS (type DATA, the version as ET, the record id whole: risRecordId; a retraction in the note), one line per tag: citation-js folds long values at 70
  * characters onto untagged lines, which readers take as a new, unknown line; the folds are joined
  * back (the item's values hold no line break of their own, see buildCslItem).
  */
 export function formatRis(item: CslItem): string {
   const lines: string[] = [];
-  for (const line of new Cite(item).format("ris").trim().split(/\r?\n/)) {
+  const note = item.status === "retracted" ? noteOf(item) : null;
+  const forRis: CslItem = { ...item, id: risRecordId(item), ...(note ? { note } : {}) };
+  for (const line of new Cite(forRis).format("ris").trim().split(/\r?\n/)) {
     if (RIS_TAG.test(line) || !lines.length) lines.push(line);
     else lines[lines.length - 1] += line;
   }

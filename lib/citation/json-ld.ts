@@ -4,6 +4,7 @@
  * network. Temperatures are not `temporalCoverage` (that is time): T, k and p are
  * `variableMeasured`, each with its unit.
  */
+import { creatorName, familyWithParticle } from "./names";
 import { orcidUri, normaliseDoi } from "@/lib/identifiers/datacite";
 import { PUBLISHER } from "./csl";
 
@@ -66,10 +67,13 @@ export function buildDatasetJsonLd(input: DatasetJsonLdInput): Record<string, un
     ...(input.retracted ? { creativeWorkStatus: "Retracted" } : {}),
     creator: input.creators.map((c) => {
       const orcid = orcidUri(c.orcid);
+      // The same name parts as the CSL item and the DataCite creators (names.ts).
+      const parts = creatorName(c.name);
       return {
-        "@type": "Person",
+        "@type": parts.kind === "organisation" ? "Organization" : "Person",
         ...(orcid ? { "@id": orcid } : {}),
         name: c.name,
+        ...(parts.kind === "person" ? { familyName: familyWithParticle(parts), ...(parts.given ? { givenName: parts.given } : {}) } : {}),
         ...(c.affiliation ? { affiliation: { "@type": "Organization", name: c.affiliation } } : {}),
       };
     }),

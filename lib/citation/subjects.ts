@@ -8,6 +8,14 @@ export interface CitableVersion {
   versionIdentifier: string | null;
   publishedAt: Date | null;
   payload: Record<string, unknown>;
+  /** Lifecycle state: a `retracted` version is cited as such. */
+  state?: string;
+  retractedAt?: Date | null;
+}
+
+/** The retraction a citation mentions, or null. */
+function retractionOf(version: CitableVersion): CitationSubject["retracted"] {
+  return version.state === "retracted" ? { at: version.retractedAt ?? null } : null;
 }
 
 /** Creators' names as deposited, in their order. */
@@ -26,6 +34,7 @@ export function versionCitationSubject(version: CitableVersion, url: string): Ci
     publishedAt: version.publishedAt,
     versionNumber: version.number,
     url,
+    retracted: retractionOf(version),
   };
 }
 
@@ -45,5 +54,7 @@ export function seriesCitationSubject(
     publishedAt: firstPublishedAt ?? newest.publishedAt,
     versionNumber: null,
     url,
+    // The series describes its newest published version; only when every version is retracted is that one retracted.
+    retracted: retractionOf(newest),
   };
 }

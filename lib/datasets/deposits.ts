@@ -8,6 +8,7 @@ import { assertNotTooDeep, findNumberTooLarge } from "@/lib/json-depth";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { enqueueMail } from "@/lib/mail/queue";
 import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
+import { findForbiddenCharacters } from "@/lib/deposits/text-characters";
 import { decisionMail, resubmissionMail, submissionMail } from "@/lib/mail/templates";
 import { listReturningCurators } from "@/lib/curation/queries";
 import type { Transaction } from "@/db/client";
@@ -30,6 +31,7 @@ function prepareSource(source: DocumentSource) {
 import {
   createDatasetDraft,
   createNextVersion,
+  getDatasetSummary,
   getVersionWithRole,
   listDatasetMembers,
   listPublicVersions,
@@ -73,8 +75,11 @@ async function prepareDraftText(
       const message = `The number at ${huge} is too large to store (beyond about 1.8e308); correct it to save the draft.`;
       throw new AppError("validation_failed", `The draft cannot be stored: ${message}`, [{ pointer: huge, message }]);
     }
+    // Text that cannot be stored, or holds a character the deposit rules refuse, is never kept in a draft either.
     const unstorable = findUnstorableText(doc, MAX_KEPT_PROBLEMS);
     if (unstorable.length) throw new AppError("validation_failed", `The draft cannot be stored: ${unstorable[0].message}`, unstorable);
+    const forbidden = findForbiddenCharacters(doc, MAX_KEPT_PROBLEMS);
+    if (forbidden.length) throw new AppError("validation_failed", `The draft cannot be stored: ${forbidden[0].message}`, forbidden);
     const problems = err.errors.slice(0, MAX_KEPT_PROBLEMS).map(({ pointer, message }) => ({ pointer, message }));
     return { incomplete: { document: doc as Record<string, unknown>, problems, title: title.trim() } };
   }
@@ -227,6 +232,10 @@ export async function transitionVersion({
           (v) => v.number < found.version.number && v.versionIdentifier,
         )
       : undefined;
+  const seriesOfRetracted =
+    transition === "retract" && found
+      ? ((await getDatasetSummary({ datasetId: found.version.datasetId }))?.seriesIdentifier ?? null)
+      : null;
   return applyTransition({
     versionId,
     actorId: actor.id,
@@ -244,6 +253,12 @@ export async function transitionVersion({
         // A later version changes what the series record lists, so it is sent again.
         await enqueueIdentifierRegistration(outcome.identifiers.series, { tx, refresh: (found?.version.number ?? 1) > 1 });
         if (previous?.versionIdentifier) await enqueueIdentifierRegistration(previous.versionIdentifier, { tx, refresh: true });
+      }
+      // A retraction changes the version's registered metadata (a Withdrawn date, a description) and
+      // may change which version the series record describes: both are sent again.
+      if (transition === "retract" && found?.version.versionIdentifier) {
+        await enqueueIdentifierRegistration(found.version.versionIdentifier, { tx, refresh: true });
+        if (seriesOfRetracted) await enqueueIdentifierRegistration(seriesOfRetracted, { tx, refresh: true });
       }
       if (transition === "accept" || transition === "return" || transition === "decline" || transition === "retract") {
         const published =

@@ -19,7 +19,7 @@ export const isPublicVersion = (v: Pick<VersionDto, "state">) => PUBLIC_STATES.h
 
 /** The citation line of a public version, as its page and downloads write it. */
 export function citeVersion(
-  version: Pick<VersionDto, "datasetId" | "title" | "number" | "versionIdentifier" | "publishedAt" | "payload">,
+  version: Pick<VersionDto, "datasetId" | "title" | "number" | "versionIdentifier" | "publishedAt" | "payload" | "state" | "retractedAt">,
 ): string {
   return citationLine(versionCitationSubject(version, `${appUrl()}${versionPath(version.datasetId, version.number)}`));
 }

@@ -10,6 +10,7 @@ import addFormats from "ajv-formats";
 import type { FieldError } from "@/lib/errors";
 import { tooDeepError } from "@/lib/json-depth";
 import { findUnstorableText } from "@/lib/storable-text";
+import { findForbiddenCharacters } from "./text-characters";
 import { checkDepositSemantics } from "./check-semantics";
 import { utf8ByteLength } from "./byte-length";
 import { findDuplicateKeys } from "./duplicate-keys";
@@ -148,6 +149,8 @@ export function validateDeposit(doc: unknown): ValidationResult {
   checkDepositSemantics(doc, report);
   // PostgreSQL refuses NUL and lone surrogates in text and jsonb: refused here, never stripped.
   findUnstorableText(doc, MAX_VALIDATION_ERRORS).forEach(report);
+  // Control characters and the like in any text (tab and line breaks only in multi-line fields).
+  findForbiddenCharacters(doc, MAX_VALIDATION_ERRORS).forEach(report);
 
   if (total === 0) {
     const value = doc as DepositDocument;

@@ -4,6 +4,7 @@
 // sends it, and GET …/versions/:n/datacite.json and datacite.xml serve it (buildDataciteXml).
 import { create } from "xmlbuilder2";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
+import { creatorName, familyWithParticle, sortedNameText } from "@/lib/citation/names";
 import { isDoiSyntax } from "./mint";
 import { mapStrings, xmlSafeText } from "@/lib/text/clean";
 
@@ -21,7 +22,7 @@ export type RelationType =
 
 export interface DataciteRelatedIdentifier {
   relatedIdentifier: string;
-  relatedIdentifierType: "DOI" | "URL";
+  relatedIdentifierType: "DOI" | "URL" | "ISBN";
   relationType: RelationType;
 }
 
@@ -52,7 +53,7 @@ export interface DataciteAttributes {
   publicationYear: number;
   types: { resourceTypeGeneral: "Dataset"; resourceType: string };
   version?: string;
-  dates?: { date: string; dateType: "Issued" }[];
+  dates?: { date: string; dateType: "Issued" | "Withdrawn"; dateInformation?: string }[];
   subjects?: { subject: string; subjectScheme?: string }[];
   relatedIdentifiers: DataciteRelatedIdentifier[];
   rightsList: DataciteRights[];
@@ -82,6 +83,13 @@ interface CommonInput {
   versionNumber: number;
   /** Clock for the publication year when `publishedAt` is missing (tests pin it). */
   now?: Date;
+  /** Set when the version described was retracted: when, and the curator's stated reason. */
+  retraction?: { at: Date | null; notice: string | null } | null;
+  /**
+   * The source publication's formatted reference (lib/citation, by the caller: the builder stays
+   * pure), named in a description; without it the description names the reference's title.
+   */
+  sourceReference?: string | null;
 }
 
 export type DoiMetadataInput =
@@ -167,7 +175,8 @@ export function orcidUri(value: unknown): string | null {
 export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
   const doc = asRecord(input.payload);
   const source = asRecord(doc.source);
-  const sourceDoi = normaliseDoi(source.doi) ?? normaliseDoi(asRecord(source.reference).DOI);
+  const reference = asRecord(source.reference);
+  const sourceDoi = normaliseDoi(source.doi) ?? normaliseDoi(reference.DOI);
   const related: DataciteRelatedIdentifier[] = [];
 
   if (input.kind === "version") {
@@ -177,7 +186,13 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
   } else {
     for (const id of input.versionIdentifiers) if (id !== input.doi) related.push(doiRelation(id, "HasVersion"));
   }
+  // The source publication by the one identifier it has, best first: DOI, ISBN, web address; none → no relation.
+  const sourceIsbn = isbnOf(reference.ISBN);
+  const sourceUrl = asString(reference.URL);
   if (sourceDoi) related.push(doiRelation(sourceDoi, "IsSupplementTo"));
+  else if (sourceIsbn) related.push({ relatedIdentifier: sourceIsbn, relatedIdentifierType: "ISBN", relationType: "IsSupplementTo" });
+  else if (sourceUrl && /^https?:\/\//.test(sourceUrl))
+    related.push({ relatedIdentifier: sourceUrl, relatedIdentifierType: "URL", relationType: "IsSupplementTo" });
   for (const item of asArray(doc.relatedIdentifiers)) {
     const r = asRecord(item);
     const relationType = relationTypes[asString(r.relation) ?? ""];
@@ -195,7 +210,24 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
   const locator = asString(source.locator);
   const descriptions: DataciteAttributes["descriptions"] = [];
   if (description) descriptions.push({ description, descriptionType: "Abstract" });
-  if (locator) descriptions.push({ description: `Numbers taken from ${locator} of the source publication.`, descriptionType: "Other" });
+  const sourceText = sourceDescription({
+    locator,
+    reference: input.sourceReference ?? null,
+    title: asString(reference.title),
+    doi: sourceDoi,
+  });
+  if (sourceText) descriptions.push({ description: sourceText, descriptionType: "Other" });
+  const retraction = input.retraction ?? null;
+  const retractedOn = retraction?.at ? retraction.at.toISOString().slice(0, 10) : null;
+  if (retraction) {
+    const notice = retraction.notice?.trim().replace(/\s+/g, " ");
+    descriptions.push({
+      description:
+        `This version was retracted${retractedOn ? ` on ${retractedOn}` : ""} by the curators of Arrhenia and should not be used; ` +
+        `it stays readable so that citations of it can be followed.${notice ? ` Reason: ${/[.!?]$/.test(notice) ? notice : `${notice}.`}` : ""}`,
+      descriptionType: "Other",
+    });
+  }
 
   const subjects: NonNullable<DataciteAttributes["subjects"]> = asArray(doc.keywords)
     .map(asString)
@@ -235,7 +267,15 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
     types: { resourceTypeGeneral: "Dataset", resourceType: "Rate constants k(T)" },
     // A series stands for every version, so it carries no version number of its own.
     ...(input.kind === "version" ? { version: String(input.versionNumber) } : {}),
-    ...(issued ? { dates: [{ date: issued, dateType: "Issued" as const }] } : {}),
+    ...(issued || retractedOn
+      ? {
+          dates: [
+            ...(issued ? [{ date: issued, dateType: "Issued" as const }] : []),
+            // Kernel 4.x dateType "Withdrawn": the date the resource was removed from use (from memory).
+            ...(retractedOn ? [{ date: retractedOn, dateType: "Withdrawn" as const, dateInformation: "Retracted" }] : []),
+          ],
+        }
+      : {}),
     ...(subjects.length ? { subjects } : {}),
     relatedIdentifiers: dedupeRelations(related),
     rightsList: [buildRights(asString(doc.license) ?? DEFAULT_LICENCE)],
@@ -247,18 +287,47 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
   return { data: { type: "dois", attributes: mapStrings(attributes, xmlSafeText) } };
 }
 
+/** What a description says of the source publication: where in it the numbers are, and which it is. */
+function sourceDescription({
+  locator,
+  reference,
+  title,
+  doi,
+}: {
+  locator: string | null;
+  reference: string | null;
+  title: string | null;
+  doi: string | null;
+}): string | null {
+  const named = reference ?? (title ? `“${title}”${doi ? ` (doi:${doi})` : ""}` : null);
+  if (named) return `Numbers taken from ${locator ? `${locator} of ` : ""}the source publication: ${named}`;
+  return locator ? `Numbers taken from ${locator} of the source publication.` : null;
+}
+
+/** An ISBN (10 or 13 digits, hyphens and spaces allowed) as given, or null. */
+function isbnOf(value: unknown): string | null {
+  const text = asString(value);
+  if (!text) return null;
+  const digits = text.replace(/[\s-]/g, "");
+  return /^(97[89]\d{10}|\d{9}[\dX])$/i.test(digits) ? text : null;
+}
+
 function buildCreators(value: unknown): DataciteCreator[] {
   const creators = asArray(value).flatMap((item): DataciteCreator[] => {
     const c = asRecord(item);
-    const name = asString(c.name);
-    if (!name) return [];
-    const creator: DataciteCreator = { name, nameType: "Personal" };
-    // "Family, Given" is the citation form the deposit editor suggests; split only that form.
-    const comma = name.indexOf(",");
-    if (comma > 0 && comma < name.length - 1) {
-      creator.familyName = name.slice(0, comma).trim();
-      creator.givenName = name.slice(comma + 1).trim();
-    }
+    const deposited = asString(c.name);
+    if (!deposited) return [];
+    // The same name parts as the CSL item's (lib/citation/names.ts): "Emi Tanaka" and "Tanaka, Emi" alike.
+    const parts = creatorName(deposited);
+    const creator: DataciteCreator =
+      parts.kind === "organisation"
+        ? { name: parts.name, nameType: "Organizational" }
+        : {
+            name: sortedNameText(parts),
+            nameType: "Personal",
+            ...(parts.given ? { givenName: parts.given } : {}),
+            familyName: familyWithParticle(parts),
+          };
     const orcid = orcidUri(c.orcid);
     if (orcid) creator.nameIdentifiers = [{ nameIdentifier: orcid, nameIdentifierScheme: "ORCID", schemeUri: "https://orcid.org" }];
     const affiliation = asString(c.affiliation);
@@ -340,7 +409,8 @@ export function buildDataciteXml(attributes: DataciteAttributes): string {
   }
   if (a.dates?.length) {
     const dates = root.ele("dates");
-    for (const d of a.dates) dates.ele("date", { dateType: d.dateType }).txt(d.date);
+    for (const d of a.dates)
+      dates.ele("date", { dateType: d.dateType, ...(d.dateInformation ? { dateInformation: d.dateInformation } : {}) }).txt(d.date);
   }
   if (a.relatedIdentifiers.length) {
     const related = root.ele("relatedIdentifiers");

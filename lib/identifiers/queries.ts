@@ -13,7 +13,17 @@ export interface RegistrationSubject {
   attempts: number;
   seriesIdentifier: string | null;
   /** The version whose deposit the metadata describes: the version itself, or a series' newest published one. */
-  described: { id: number; number: number; title: string; payload: Record<string, unknown>; publishedAt: Date | null } | null;
+  described: {
+    id: number;
+    number: number;
+    title: string;
+    payload: Record<string, unknown>;
+    publishedAt: Date | null;
+    /** Optional so callers that build a subject by hand (tests) need not give them; the query always does. */
+    state?: VersionState;
+    retractedAt?: Date | null;
+    retractionNotice?: string | null;
+  } | null;
   /** Every version of the dataset that has an identifier (published or retracted), oldest first. */
   versions: { id: number; number: number; versionIdentifier: string; state: VersionState; publishedAt: Date | null }[];
 }
@@ -91,6 +101,9 @@ export async function getRegistrationSubject({ identifier }: { identifier: strin
           title: datasetVersions.title,
           payload: datasetVersions.payload,
           publishedAt: datasetVersions.publishedAt,
+          state: datasetVersions.state,
+          retractedAt: datasetVersions.retractedAt,
+          retractionNotice: datasetVersions.retractionNotice,
         })
         .from(datasetVersions)
         .where(eq(datasetVersions.id, describedId))

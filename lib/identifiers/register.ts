@@ -2,6 +2,8 @@ import "server-only";
 // Registers minted identifiers with the DOI agency. Safe to run any number of times: a registered
 // identifier is skipped, and the agency call is an upsert, so a retry after a lost answer updates
 // the same record instead of minting another.
+import { sourceCslItem } from "@/lib/citation/csl";
+import { DEFAULT_STYLE, formatReference } from "@/lib/citation/formats";
 import { appUrl } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { registerDoi, type AgencyOptions } from "./client";
@@ -75,6 +77,8 @@ export function buildRegistrationBody(subject: RegistrationSubject): DataciteBod
     payload: described.payload,
     fallbackTitle: described.title,
     versionNumber: described.number,
+    retraction: described.state === "retracted" ? { at: described.retractedAt ?? null, notice: described.retractionNotice ?? null } : null,
+    sourceReference: sourceReferenceText(described.payload),
   };
   if (subject.kind === "version") {
     const previous = subject.versions.filter((v) => v.number < described.number).at(-1);
@@ -96,4 +100,11 @@ export function buildRegistrationBody(subject: RegistrationSubject): DataciteBod
     publishedAt: first,
     versionIdentifiers: subject.versions.map((v) => v.versionIdentifier),
   });
+}
+
+/** The source publication a deposit names, as its formatted reference (the Cite panel's default style), or null. */
+function sourceReferenceText(payload: Record<string, unknown>): string | null {
+  const source = payload.source && typeof payload.source === "object" ? (payload.source as Record<string, unknown>) : undefined;
+  const item = sourceCslItem(source);
+  return item ? formatReference(item, DEFAULT_STYLE) : null;
 }

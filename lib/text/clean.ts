@@ -28,3 +28,44 @@ export function mapStrings<T>(value: T, clean: (s: string) => string): T {
   }
   return value;
 }
+
+/**
+ * Characters no deposited text may hold, so that every format the text later travels in (XML,
+ * RIS, BibTeX, CSV, a terminal) carries it as written: the C0 controls (tab, line feed and
+ * carriage return only in a field that allows lines), DEL and the C1 controls (U+007F–U+009F),
+ * lone surrogates and the noncharacters U+FFFE / U+FFFF. Refused where text enters, never removed.
+ */
+const FORBIDDEN_IN_LINE = /[\u0000-\u001F\u007F-\u009F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+const FORBIDDEN_IN_LINES =
+  /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** A character's code as U+XXXX. */
+export const codePointLabel = (c: string) => `U+${c.charCodeAt(0).toString(16).toUpperCase().padStart(4, "0")}`;
+
+const CHARACTER_NAMES: Record<string, string> = {
+  "\u0000": "NUL",
+  "\t": "tab",
+  "\n": "line feed",
+  "\r": "carriage return",
+  "\u007F": "delete",
+  "\uFFFE": "not a character",
+  "\uFFFF": "not a character",
+};
+
+/** What the character is, in words: "U+0007 (a control character)", "U+000A (line feed)". */
+export function describeCharacter(c: string): string {
+  const code = c.charCodeAt(0);
+  const name = CHARACTER_NAMES[c] ?? (code >= 0xd800 && code <= 0xdfff ? "half of a character, not valid Unicode" : "a control character");
+  return `${codePointLabel(c)} (${name})`;
+}
+
+/**
+ * The first character a deposited text may not hold (see above), with its position (from 0), or
+ * null. `lines`: the field allows several lines, so tab, line feed and carriage return are fine.
+ *
+ * @example forbiddenCharacter("Tanaka\u0007", { lines: false }) // { character: "\u0007", index: 6 }
+ */
+export function forbiddenCharacter(text: string, { lines }: { lines: boolean }): { character: string; index: number } | null {
+  const m = (lines ? FORBIDDEN_IN_LINES : FORBIDDEN_IN_LINE).exec(text);
+  return m ? { character: m[0], index: m.index } : null;
+}

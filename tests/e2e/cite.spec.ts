@@ -10,9 +10,8 @@ import { widthAndAxeProblems } from "./pages/layout-checks";
 /** A public version page from the sitemap (every public version is listed in one of the index's files). */
 async function aVersionPage(request: APIRequestContext): Promise<{ dataset: string; number: string; path: string }> {
   const index = await (await request.get("/sitemap.xml")).text();
-  const files = [...index.matchAll(/<loc>[^<]*?(\/sitemaps\/sitemap\/\d+\.xml)<\/loc>/g)].map((f) => f[1]);
   let m: RegExpExecArray | null = null;
-  for (const file of files) {
+  for (const [, file] of index.matchAll(/<loc>[^<]*?(\/sitemaps\/sitemap\/\d+\.xml)<\/loc>/g)) {
     m = /\/datasets\/(\d+)\/v(\d+)</.exec(await (await request.get(file)).text());
     if (m) break;
   }

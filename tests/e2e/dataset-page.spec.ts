@@ -149,6 +149,9 @@ test("a retracted version shows its notice with the date, above everything else"
   await expect(notice.getByRole("heading")).toHaveText(/^This version was retracted on \d{4}-\d\d-\d\d$/);
   // The notice's own words follow the heading (the demo has more than one retracted version, each with its reason).
   await expect(notice).toContainText(/\d{4}-\d\d-\d\d\s*\S.{5,}/);
+  // Its citation says it is retracted, in the line and in every formatted reference of the Cite panel.
+  await expect(page.getByTestId("citation")).toContainText("Retracted.");
+  await expect(page.getByTestId("cite-reference")).toContainText(/retracted/i);
   const [noticeTop, titleTop] = await Promise.all([notice.boundingBox(), page.getByRole("heading", { level: 1 }).boundingBox()]);
   expect(noticeTop!.y).toBeLessThan(titleTop!.y);
 });

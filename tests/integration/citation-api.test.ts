@@ -39,9 +39,10 @@ const walks: Record<string, Transition[]> = {
   retracted: ["submit", "accept", "retract"],
 };
 
-async function datasetIn(state: keyof typeof walks) {
+async function datasetIn(state: keyof typeof walks, change?: (doc: Record<string, unknown>) => void) {
   const doc = structuredClone(EXAMPLE_DEPOSIT) as typeof EXAMPLE_DEPOSIT;
   doc.title = `Citation test (${state}) ${uniqueEmail("t")}`;
+  change?.(doc as unknown as Record<string, unknown>);
   const v = await depositNewDataset({ actor: owner, document: doc });
   for (const t of walks[state]) {
     const byOwner = t === "submit";
@@ -191,6 +192,45 @@ describe("GET /api/v1/datasets/:id/versions/:n/datacite.json and .xml", () => {
     expect(XMLValidator.validate(xml)).toBe(true);
     expect(xml).toContain('<resource xmlns="http://datacite.org/schema/kernel-4"');
     expect(xml).toMatch(/<identifier identifierType="DOI">10\.5072\/ARH-[0-9A-Z]{4}-[0-9A-Z]{4}\/1<\/identifier>/);
+  });
+
+  it("a retracted version: a Withdrawn date and the retraction in a description; its citation text says it is retracted", async () => {
+    as(null);
+    const retracted = await datasetIn("retracted");
+    const a = (await (await datacite("json", retracted.datasetId, 1)).json()).data.attributes;
+    const today = new Date().toISOString().slice(0, 10);
+    expect(a.dates).toContainEqual({ date: today, dateType: "Withdrawn", dateInformation: "Retracted" });
+    expect(a.descriptions.at(-1).description).toMatch(
+      /^This version was retracted on .* Reason: Retracted for the test: a calibration error\.$/,
+    );
+    const xml = await (await datacite("xml", retracted.datasetId, 1)).text();
+    expect(xml).toContain(`<date dateType="Withdrawn" dateInformation="Retracted">${today}</date>`);
+    for (const style of ["apa", "vancouver", "harvard", "acs"])
+      expect(await (await citation(retracted.datasetId, `?format=text&style=${style}&version=1`)).text(), style).toMatch(/retracted/i);
+    expect(await (await citation(retracted.datasetId, "?format=bibtex&version=1")).text()).toMatch(/note = \{Version 1\. Retracted\}/);
+  });
+
+  it("a source publication with no DOI: named in the description, no related identifier for it", async () => {
+    as(null);
+    const noDoi = await datasetIn("published", (doc) => {
+      doc.source = {
+        reference: {
+          type: "article-journal",
+          title: "Hydroxyl radical kinetics in a heated flow tube",
+          author: [{ family: "Okafor", given: "Maren" }],
+          "container-title": "Journal of Invented Chemistry",
+          issued: { "date-parts": [[1999]] },
+        },
+        locator: "Table 2",
+      };
+    });
+    const a = (await (await datacite("json", noDoi.datasetId, 1)).json()).data.attributes;
+    expect(a.relatedIdentifiers.filter((r: { relationType: string }) => r.relationType === "IsSupplementTo")).toEqual([]);
+    expect(a.descriptions).toContainEqual({
+      description:
+        "Numbers taken from Table 2 of the source publication: Okafor, M. (1999). Hydroxyl radical kinetics in a heated flow tube. Journal of Invented Chemistry.",
+      descriptionType: "Other",
+    });
   });
 
   it("404 for a version the dataset does not have and for a malformed number", async () => {

@@ -53,6 +53,10 @@ describe("editor saves of incomplete drafts", () => {
     expect(untitled).toMatchObject({ ok: false, status: 422, errors: [{ pointer: "/title" }] });
     const nul = await createDraftAction(json({ title: "With a NUL", description: "a\u0000b" }));
     expect(nul).toMatchObject({ ok: false, status: 422, errors: [{ pointer: "/description" }] });
+    // A control character is never kept in a draft either (the deposit rule of lib/deposits/text-characters.ts).
+    const bell = await createDraftAction(json({ title: "With a bell", creators: [{ name: "A" }, { name: "Tanaka\u0007, Emi" }] }));
+    expect(bell).toMatchObject({ ok: false, status: 422, errors: [{ pointer: "/creators/1/name" }] });
+    expect(JSON.stringify(bell)).toContain("U+0007");
     // A number beyond the largest double would be stored by jsonb as null: refused where it is.
     const huge = await createDraftAction('{"title":"A number too large","points":[{"T":300,"k":1e400}]}');
     expect(huge).toMatchObject({ ok: false, status: 422, errors: [{ pointer: "/points/0/k" }] });

@@ -1,5 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { applyTransition } from "@/lib/curation/transitions";
+import { transitionVersion } from "@/lib/datasets/deposits";
+import { getRegistrationSubject } from "@/lib/identifiers/queries";
+import { buildRegistrationBody } from "@/lib/identifiers/register";
 import { createDatasetDraft, type AnalysisSummary, type StoredPoint } from "@/lib/datasets/queries";
 import { startFakeDoiService, type FakeDoiService } from "@/lib/identifiers/fake-service";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
@@ -138,6 +141,21 @@ describe("identifier registration", () => {
     expect(fake.records().filter((r) => r.doi === ids.series)).toMatchObject([{ writes: 2 }]);
     // The registration time stays the time of the first registration.
     expect((await registration(ids.series)).registered_at).toEqual(first.registered_at);
+  });
+
+  it("a retraction queues the version's and the series' metadata again, now with a Withdrawn date and the reason", async () => {
+    const { ids } = await publishDataset();
+    const [{ id: versionId }] = await sql`select id from dataset_versions where version_identifier = ${ids.version}`;
+    await sql`delete from pgboss.job where name = 'register-identifier' and state in ('created', 'retry')`;
+    await transitionVersion({ actor: curator, versionId, transition: "retract", reason: "A calibration error in every point." });
+    const jobs = await sql`
+      select data->>'identifier' as identifier, (data->>'refresh')::boolean as refresh from pgboss.job
+      where name = 'register-identifier' and state in ('created', 'retry') and data->>'identifier' in ${sql([ids.version, ids.series])}`;
+    expect(jobs.map((j) => `${j.identifier} ${j.refresh}`).sort()).toEqual([`${ids.series} true`, `${ids.version} true`].sort());
+    const a = buildRegistrationBody((await getRegistrationSubject({ identifier: ids.version }))!).data.attributes;
+    expect(a.dates?.find((d) => d.dateType === "Withdrawn")?.date).toBe(new Date().toISOString().slice(0, 10));
+    expect(a.descriptions.at(-1)?.description).toMatch(/^This version was retracted on .*Reason: A calibration error in every point\.$/);
+    await sql`delete from pgboss.job where name = 'register-identifier' and state in ('created', 'retry')`;
   });
 
   it("refuses an identifier that was never minted", async () => {

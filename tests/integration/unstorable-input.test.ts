@@ -57,6 +57,20 @@ const cases: [string, string, string][] = [
     }),
     "/reaction/reactants/0/coefficient",
   ],
+  // Control characters and the like (lib/deposits/text-characters.ts): stored fine by PostgreSQL, refused by the deposit rules.
+  [
+    "U+0007 in the second creator's name",
+    JSON.stringify({ ...ex, creators: [{ name: "Okafor, Maren" }, { name: "Tanaka\u0007, Emi" }] }),
+    "/creators/1/name",
+  ],
+  ["a line feed in the title", JSON.stringify({ ...ex, title: "OH + CH4\nrate constants" }), "/title"],
+  [
+    "U+0085 in an affiliation",
+    JSON.stringify({ ...ex, creators: [{ name: "Okafor, Maren", affiliation: "Lab\u0085" }] }),
+    "/creators/0/affiliation",
+  ],
+  ["U+FFFF in a keyword", JSON.stringify({ ...ex, keywords: ["methane\uffff"] }), "/keywords/0"],
+  ["U+001B in a method note", JSON.stringify({ ...ex, method: { ...ex.method, notes: "colour \u001b[31m" } }), "/method/notes"],
   ["a k unit of one space", JSON.stringify({ ...ex, units: { ...ex.units, k: " " } }), "/units/k"],
   ["a T unit of one space", JSON.stringify({ ...ex, units: { ...ex.units, T: " " } }), "/units/T"],
   ["a pressure unit of one space", JSON.stringify({ ...ex, units: { ...ex.units, pressure: " " } }), "/units/pressure"],
@@ -72,6 +86,8 @@ describe("POST /api/v1/datasets refuses text and numbers PostgreSQL cannot store
       expect(res.status).toBe(422);
       const problem = await res.json();
       expect(problem.errors.map((e: { pointer: string }) => e.pointer)).toContain(pointer);
+      if (/^(U\+(0007|0085|FFFF|001B)|a line feed)/.test(what))
+        expect(problem.errors.find((e: { pointer: string }) => e.pointer === pointer).message).toMatch(/U\+[0-9A-F]{4}.*\(\/.+\)/);
       expect(await counts()).toEqual(before);
     });
   }

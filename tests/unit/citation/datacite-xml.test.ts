@@ -124,3 +124,32 @@ describe("text XML 1.0 cannot carry", () => {
     expect(oddXml).toContain("Bell and nul here");
   });
 });
+
+describe("XML of a retracted version by an organisation and a person", () => {
+  const retractedXml = buildDataciteXml(
+    buildDoiMetadata({
+      ...input,
+      payload: { ...payload, creators: [{ name: "Emi Tanaka" }, { name: "Kinetics Consortium" }] },
+      retraction: { at: new Date("2026-06-01T00:00:00Z"), notice: "Mislabelled temperatures" },
+    }).data.attributes,
+  );
+  const r = parser.parse(retractedXml).resource;
+
+  it("is well-formed, with a Withdrawn date and the retraction described", () => {
+    expect(XMLValidator.validate(retractedXml)).toBe(true);
+    expect(r.dates.date[1]).toEqual({ "#text": "2026-06-01", "@dateType": "Withdrawn", "@dateInformation": "Retracted" });
+    expect(r.descriptions.description.at(-1)["#text"]).toMatch(
+      /^This version was retracted on 2026-06-01 .* Reason: Mislabelled temperatures\.$/,
+    );
+  });
+
+  // DataCite Metadata Schema 4: creatorName's nameType is Personal or Organizational; givenName and familyName are for persons.
+  it("names the person Personal with given and family names, the organisation Organizational with neither", () => {
+    expect(r.creators.creator[0]).toEqual({
+      creatorName: { "#text": "Tanaka, Emi", "@nameType": "Personal" },
+      givenName: "Emi",
+      familyName: "Tanaka",
+    });
+    expect(r.creators.creator[1]).toEqual({ creatorName: { "#text": "Kinetics Consortium", "@nameType": "Organizational" } });
+  });
+});

@@ -1,8 +1,16 @@
 import { toJSON as parseBibtexIndependently } from "@orcid/bibtex-parse-js";
 import { Cite } from "@citation-js/core";
 import { describe, expect, it } from "vitest";
-import { buildCslItem, citationKey, cslName, sourceCslItem, type CitationSubject } from "@/lib/citation/csl";
-import { CITATION_STYLES, formatBibtex, formatCitation, formatCslJson, formatReference, formatRis } from "@/lib/citation/formats";
+import { buildCslItem, citationKey, citationLineOf, cslName, sourceCslItem, type CitationSubject, type CslItem } from "@/lib/citation/csl";
+import {
+  CITATION_STYLES,
+  formatBibtex,
+  formatCitation,
+  formatCslJson,
+  formatReference,
+  formatRis,
+  risRecordId,
+} from "@/lib/citation/formats";
 
 // Invented people, title and identifier.
 const version: CitationSubject = {
@@ -50,9 +58,11 @@ describe("buildCslItem", () => {
     expect(citationKey({ ...version, identifier: null })).toBe("arrhenia_OH2026");
   });
 
-  it("keeps a name it cannot split as one literal, and particles apart (citation-js's name parser)", () => {
+  it("keeps an organisation's name as one literal, and particles and suffixes apart (citation-js's name parser)", () => {
     expect(cslName("Rosalind van der Berg")).toEqual({ given: "Rosalind", "non-dropping-particle": "van der", family: "Berg" });
-    expect(cslName("Kinetics Consortium")).toEqual({ given: "Kinetics", family: "Consortium" });
+    expect(cslName("Smith, John, Jr.")).toEqual({ given: "John", family: "Smith", suffix: "Jr." });
+    expect(cslName("Kinetics Consortium")).toEqual({ literal: "Kinetics Consortium" });
+    expect(cslName("Institute of Invented Kinetics")).toEqual({ literal: "Institute of Invented Kinetics" });
   });
 
   it("takes the source publication's own CSL reference, adding the DOI given apart", () => {
@@ -73,19 +83,86 @@ describe("formatted references (citation-js + the shipped CSL styles)", () => {
       "Tanaka, E., & Varga, B. (2026). OH + CH4 rate constants, 250–420 K (Version 2) [Dataset]. Arrhenia. https://doi.org/10.5072/ARH-4F7K-9QXM/2",
     ));
   it("Vancouver", () =>
-    expect(formatReference(item, "vancouver")).toMatch(
-      /^Tanaka E, Varga B\. OH \+ CH4 rate constants, 250–420 K \[Internet\]\. Arrhenia; 2026\./,
+    expect(formatReference(item, "vancouver")).toBe(
+      "Tanaka E, Varga B. OH + CH4 rate constants, 250–420 K (version 2) [Internet]. Arrhenia; 2026. Available from: https://doi.org/10.5072/ARH-4F7K-9QXM/2",
     ));
   it("Harvard", () => expect(formatReference(item, "harvard")).toMatch(/^Tanaka, E\. and Varga, B\. \(2026\)/));
   it("American Chemical Society", () =>
-    expect(formatReference(item, "acs")).toMatch(
-      /^Tanaka, E\.; Varga, B\. OH \+ CH4 Rate Constants, 250–420 K, 2026\. https:\/\/doi\.org\/10\.5072\/ARH-4F7K-9QXM\/2\.$/,
+    expect(formatReference(item, "acs")).toBe(
+      "Tanaka, E.; Varga, B. OH + CH4 Rate Constants, 250–420 K (Version 2). Arrhenia, 2026. https://doi.org/10.5072/ARH-4F7K-9QXM/2.",
     ));
   it("every style names the creators and the year, with no list number", () => {
     for (const s of CITATION_STYLES) {
       const text = formatReference(item, s.id);
       expect(text, s.id).toMatch(/^Tanaka/);
       expect(text, s.id).toContain("2026");
+    }
+  });
+  it("every style shows the version number, the publisher and the identifier", () => {
+    for (const s of CITATION_STYLES) {
+      const text = formatReference(item, s.id);
+      expect(text, s.id).toMatch(/\bversion 2\b/i);
+      expect(text, s.id).toContain("Arrhenia");
+      expect(text, s.id).toContain("10.5072/ARH-4F7K-9QXM/2");
+    }
+  });
+  it("each shipped style file still ignores what CITATION_STYLES says it does (else the title would say the version twice)", () => {
+    // The item as a style file alone renders it, without styleItem's adaptation.
+    const plain = (style: string, it: CslItem) =>
+      new Cite(it).format("bibliography", { format: "text", template: `arrhenia-${style}`, lang: "en-US" }) as string;
+    const retracted = { ...item, title: "Plain title", status: "retracted" };
+    for (const s of CITATION_STYLES) {
+      formatReference(item, s.id); // registers the style
+      const text = plain(s.id, retracted);
+      const ignores: readonly string[] = s.ignores;
+      expect(/version\W+2/i.test(text), `${s.id} prints the version`).toBe(!ignores.includes("version"));
+      expect(/retracted/i.test(text), `${s.id} prints the status`).toBe(!ignores.includes("status"));
+      expect(text.includes("Arrhenia"), `${s.id} prints the publisher`).toBe(!ignores.includes("publisher"));
+      expect(text.includes("10.5072/ARH-4F7K-9QXM/2"), `${s.id} prints the DOI`).toBe(!ignores.includes("DOI"));
+    }
+  });
+});
+
+describe("a retracted version", () => {
+  const retracted = buildCslItem({ ...version, retracted: { at: new Date("2026-06-01T00:00:00Z") } });
+  it("is a CSL item with status retracted (CSL 1.0.2 `status`, from memory)", () => expect(retracted.status).toBe("retracted"));
+  it("says so in every style, in its one-line citation, and in BibTeX's and RIS's note", () => {
+    for (const s of CITATION_STYLES) expect(formatReference(retracted, s.id), s.id).toMatch(/retracted/i);
+    expect(citationLineOf(retracted)).toBe(
+      "Tanaka, Emi; Varga, Bence (2026). OH + CH4 rate constants, 250–420 K. Version 2. Retracted. Arrhenia. doi:10.5072/ARH-4F7K-9QXM/2",
+    );
+    expect(formatBibtex(retracted)).toMatch(/note = \{Version 2\. Retracted\}/);
+    expect(formatRis(retracted)).toMatch(/^N1 {2}- Version 2\. Retracted$/m);
+    // A published version says nothing of the kind.
+    expect(formatRis(item)).not.toMatch(/^N1/m);
+    for (const s of CITATION_STYLES) expect(formatReference(item, s.id), s.id).not.toMatch(/retracted/i);
+  });
+});
+
+describe("a source publication without a DOI", () => {
+  // Invented reference: title, journal, year and authors only.
+  const source = sourceCslItem({
+    reference: {
+      type: "article-journal",
+      title: "Hydroxyl radical kinetics in a heated flow tube",
+      author: [{ family: "Okafor", given: "Maren" }],
+      "container-title": "Journal of Invented Chemistry",
+      volume: "12",
+      page: "34-56",
+      issued: { "date-parts": [[1999]] },
+    },
+  });
+  it("is a CSL item of its own, with no DOI", () => {
+    expect(source).toMatchObject({ id: "source", title: "Hydroxyl radical kinetics in a heated flow tube" });
+    expect(source!.DOI).toBeUndefined();
+  });
+  it("is named in every style: its authors, title, journal and year", () => {
+    for (const s of CITATION_STYLES) {
+      const text = formatReference(source!, s.id);
+      expect(text, s.id).toMatch(/^Okafor/);
+      expect(text, s.id).toMatch(/hydroxyl radical kinetics/i);
+      expect(text, s.id).toMatch(/J(ournal|) ?(of )?Invented Chem/);
+      expect(text, s.id).toContain("1999");
     }
   });
 });
@@ -117,6 +194,9 @@ describe("BibTeX, RIS and CSL-JSON", () => {
   it("citation-js reads its own RIS back to the same item (round trip)", () => {
     const ris = formatRis(item);
     expect(ris).toMatch(/^TY {2}- DATA$/m);
+    // The record id is whole: RIS's ID holds at most 20 characters (the RIS specification; citation-js cuts longer ones).
+    expect(ris).toMatch(/^ID {2}- ARH_4F7K_9QXM_v2$/m);
+    expect((new Cite(ris).data[0] as Record<string, unknown>).id).toBe("ARH_4F7K_9QXM_v2");
     expect(ris).toMatch(/^ET {2}- 2$/m);
     expect(ris).toMatch(/^DO {2}- 10\.5072\/ARH-4F7K-9QXM\/2$/m);
     const [back] = new Cite(ris).data as Record<string, unknown>[];
@@ -130,6 +210,27 @@ describe("BibTeX, RIS and CSL-JSON", () => {
     const [back] = new Cite(JSON.parse(json)).data as Record<string, unknown>[];
     expect(back.title).toBe(item.title);
     expect(formatCitation(item, "text", "apa")).toBe(formatReference(item, "apa") + "\n");
+  });
+});
+
+describe("RIS record ids", () => {
+  it("are whole, at most 20 characters, stable and read back unchanged by citation-js", () => {
+    const keys = [
+      buildCslItem(series),
+      buildCslItem({ ...version, versionNumber: 123456, identifier: "10.5072/ARH-4F7K-9QXM/123456" }),
+      buildCslItem({ ...version, identifier: null, title: "Temperature-dependent rate constants" }),
+    ];
+    const ids = keys.map(risRecordId);
+    expect(ids[0]).toBe("ARH_4F7K_9QXM");
+    expect(new Set(ids).size).toBe(ids.length);
+    for (const [i, it] of keys.entries()) {
+      const id = ids[i];
+      expect(id.length).toBeLessThanOrEqual(20);
+      expect(risRecordId(it)).toBe(id);
+      const ris = formatRis(it);
+      expect(ris).toContain(`\nID  - ${id}\n`);
+      expect((new Cite(ris).data[0] as Record<string, unknown>).id).toBe(id);
+    }
   });
 });
 

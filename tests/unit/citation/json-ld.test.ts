@@ -60,6 +60,16 @@ describe("schema.org Dataset JSON-LD", () => {
     expect(v.creativeWorkStatus).toBe("Retracted");
   });
 
+  it("names creators with the same parts as the citations: a person's given and family names, an organisation as one", () => {
+    const v = buildDatasetJsonLd({ ...input, creators: [{ name: "Okafor, Maren" }, { name: "Kinetics Consortium" }] }) as {
+      creator: Record<string, unknown>[];
+    };
+    expect(v.creator).toEqual([
+      { "@type": "Person", name: "Okafor, Maren", familyName: "Okafor", givenName: "Maren" },
+      { "@type": "Organization", name: "Kinetics Consortium" },
+    ]);
+  });
+
   it("is safe inside a script element: no '<' survives", () => {
     const text = jsonLdScript(value);
     expect(text).not.toContain("<");

@@ -158,7 +158,7 @@ describe("a reference's authors, dates and a point's k, T and uncertainty within
     return d;
   };
 
-  it.each([{ literal: "   " }, { literal: "" }, {}, { given: "A." }, { family: "\u00a0", given: "B." }, { family: "", literal: "\t" }])(
+  it.each([{ literal: "   " }, { literal: "" }, {}, { given: "A." }, { family: "\u00a0", given: "B." }, { family: "", literal: "  " }])(
     "an author %j with no family name or literal that says something is refused at its pointer",
     (author) => {
       const errors = errorsOf(withReference({ author: [{ family: "Smith", given: "J." }, author] }));

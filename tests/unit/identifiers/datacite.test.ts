@@ -47,7 +47,7 @@ describe("buildDoiMetadata for a version", () => {
     expect(a.fundingReferences).toEqual([{ funderName: "Example Science Fund", awardNumber: "ESF-123" }]);
   });
 
-  it("names creators with ORCID iDs as https://orcid.org/ URIs and splits 'Family, Given'", () => {
+  it("names creators with ORCID iDs as https://orcid.org/ URIs and splits 'Family, Given' and 'Given Family' alike", () => {
     expect(a.creators).toEqual([
       {
         name: "Okafor, Maren",
@@ -59,7 +59,7 @@ describe("buildDoiMetadata for a version", () => {
         ],
         affiliation: [{ name: "Example Institute" }],
       },
-      { name: "Lin Tao", nameType: "Personal" },
+      { name: "Tao, Lin", nameType: "Personal", givenName: "Lin", familyName: "Tao" },
     ]);
   });
 
@@ -158,8 +158,8 @@ describe("buildDoiMetadata with a sparse or malformed payload", () => {
       keywords: ["ok", 3, ""],
     });
     expect(a.creators).toEqual([
-      { name: "Ada Example", nameType: "Personal" },
-      { name: "Bo,", nameType: "Personal" },
+      { name: "Example, Ada", nameType: "Personal", givenName: "Ada", familyName: "Example" },
+      { name: "Bo", nameType: "Personal", familyName: "Bo" },
     ]);
     expect(a.relatedIdentifiers).toEqual([
       { relatedIdentifier: "10.5555/from.csl", relatedIdentifierType: "DOI", relationType: "IsSupplementTo" },
@@ -173,6 +173,103 @@ describe("buildDoiMetadata with a sparse or malformed payload", () => {
       relatedIdentifiers: [{ kind: "doi", identifier: "10.5555/DUP", relation: "supplement_to" }],
     });
     expect(a.relatedIdentifiers).toHaveLength(1);
+  });
+});
+
+describe("creators' names agree with the citations' (citation-js's name parser, @citation-js/name)", () => {
+  const creators = (names: string[]) => sparseCreators(names.map((name) => ({ name })));
+  const sparseCreators = (list: unknown[]) => buildDoiMetadata({ ...version, payload: { creators: list } }).data.attributes.creators;
+
+  it("splits a personal name written either way into givenName and familyName, particles kept with the family name", () => {
+    expect(creators(["Emi Tanaka", "Tanaka, Emi", "Rosalind van der Berg"])).toEqual([
+      { name: "Tanaka, Emi", nameType: "Personal", givenName: "Emi", familyName: "Tanaka" },
+      { name: "Tanaka, Emi", nameType: "Personal", givenName: "Emi", familyName: "Tanaka" },
+      { name: "van der Berg, Rosalind", nameType: "Personal", givenName: "Rosalind", familyName: "van der Berg" },
+    ]);
+  });
+
+  it("names an organisation as Organizational, with no given or family name", () => {
+    expect(creators(["Kinetics Consortium", "Institute of Invented Kinetics"])).toEqual([
+      { name: "Kinetics Consortium", nameType: "Organizational" },
+      { name: "Institute of Invented Kinetics", nameType: "Organizational" },
+    ]);
+  });
+
+  it("gives the same parts as the CSL item's authors", async () => {
+    const { cslName } = await import("@/lib/citation/csl");
+    for (const name of ["Emi Tanaka", "Varga, Bence", "Rosalind van der Berg", "Kinetics Consortium"]) {
+      const [c] = creators([name]);
+      const csl = cslName(name);
+      if ("literal" in csl) expect(c).toEqual({ name: csl.literal, nameType: "Organizational" });
+      else expect([c.givenName, c.familyName]).toEqual([csl.given, [csl["non-dropping-particle"], csl.family].filter(Boolean).join(" ")]);
+    }
+  });
+});
+
+describe("the source publication", () => {
+  const attrs = (source: unknown, sourceReference?: string) =>
+    buildDoiMetadata({ ...version, payload: { source }, seriesIdentifier: null, previousVersionIdentifier: null, sourceReference }).data
+      .attributes;
+  const reference = {
+    type: "article-journal",
+    title: "Hydroxyl radical kinetics",
+    "container-title": "J. Invented Chem.",
+    issued: { "date-parts": [[1999]] },
+  };
+
+  it("without any identifier: named in a description, and no related identifier", () => {
+    const a = attrs({ reference, locator: "Table 2" }, "Okafor, M. (1999). Hydroxyl radical kinetics. J. Invented Chem.");
+    expect(a.relatedIdentifiers).toEqual([]);
+    expect(a.descriptions).toEqual([
+      {
+        description:
+          "Numbers taken from Table 2 of the source publication: Okafor, M. (1999). Hydroxyl radical kinetics. J. Invented Chem.",
+        descriptionType: "Other",
+      },
+    ]);
+    // Without the formatted reference the builder names its title.
+    expect(attrs({ reference }).descriptions).toEqual([
+      { description: "Numbers taken from the source publication: “Hydroxyl radical kinetics”", descriptionType: "Other" },
+    ]);
+  });
+
+  it("relates the one identifier it has: DOI, else ISBN, else web address", () => {
+    expect(attrs({ reference: { ...reference, ISBN: "978-3-16-148410-0", URL: "https://pub.example/a" } }).relatedIdentifiers).toEqual([
+      { relatedIdentifier: "978-3-16-148410-0", relatedIdentifierType: "ISBN", relationType: "IsSupplementTo" },
+    ]);
+    expect(attrs({ reference: { ...reference, URL: "https://pub.example/a" } }).relatedIdentifiers).toEqual([
+      { relatedIdentifier: "https://pub.example/a", relatedIdentifierType: "URL", relationType: "IsSupplementTo" },
+    ]);
+    expect(attrs({ reference: { ...reference, ISBN: "not an isbn" } }).relatedIdentifiers).toEqual([]);
+  });
+});
+
+describe("a retracted version", () => {
+  const a = buildDoiMetadata({
+    ...version,
+    retraction: { at: new Date("2026-06-01T08:00:00Z"), notice: "The temperatures were mislabelled" },
+  }).data.attributes;
+
+  it("carries a Withdrawn date (DataCite kernel 4.x dateType, from memory) beside the Issued one", () => {
+    expect(a.dates).toEqual([
+      { date: "2024-03-05", dateType: "Issued" },
+      { date: "2026-06-01", dateType: "Withdrawn", dateInformation: "Retracted" },
+    ]);
+  });
+
+  it("says in a description that it was retracted, when and why", () => {
+    expect(a.descriptions.at(-1)).toEqual({
+      description:
+        "This version was retracted on 2026-06-01 by the curators of Arrhenia and should not be used; it stays readable so that " +
+        "citations of it can be followed. Reason: The temperatures were mislabelled.",
+      descriptionType: "Other",
+    });
+  });
+
+  it("a published version says nothing of the kind", () => {
+    const p = buildDoiMetadata(version).data.attributes;
+    expect(p.dates?.map((d) => d.dateType)).toEqual(["Issued"]);
+    expect(p.descriptions.some((d) => /retracted/i.test(d.description))).toBe(false);
   });
 });
 
