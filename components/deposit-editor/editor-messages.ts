@@ -132,21 +132,76 @@ export function plainWhat(pointer: string, message: string): string {
 }
 
 /**
+ * Fields whose own name alone would mislead, by their path (list positions as "*"): the words for
+ * that field, standing for every segment after the last list item ("units/pressure" is the pressure
+ * unit, not the pressure; "conditions/pressure/value" a pressure value).
+ */
+const PATH_WORDS: Record<string, string> = {
+  $schema: "deposit format version",
+  "units/k": "rate-constant unit",
+  "units/T": "temperature unit",
+  "units/pressure": "pressure unit",
+  "conditions/pressure": "pressure",
+  "conditions/pressure/value": "pressure value",
+  "conditions/pressure/min": "lowest pressure",
+  "conditions/pressure/max": "highest pressure",
+  "conditions/notes": "notes on the conditions",
+  "method/notes": "notes on the method",
+  "reaction/class": "reaction class",
+  "reaction/order": "reaction order",
+  "reaction/solvent/name": "solvent name",
+  "reaction/solvent/smiles": "solvent SMILES",
+  "reaction/solvent/inchi": "solvent InChI",
+  "reaction/productsUnknown/reason": "why the products are not identified",
+  "points/*/T": "T",
+  "points/*/k": "k",
+  "points/*/uncertainty": "uncertainty",
+  "points/*/uncertainty/value": "uncertainty",
+  "points/*/uncertainty/kind": "uncertainty stated as",
+  "points/*/uncertainty/confidence": "what the uncertainty covers",
+  "reportedFit/model": "model",
+  "source/reference/type": "kind of publication",
+  "source/reference/title": "title of the publication",
+  "source/reference/issued": "year",
+  "source/reference/author/*/family": "family name",
+  "source/reference/author/*/given": "given names",
+  "source/reference/author/*/literal": "name (an organisation)",
+  "relatedIdentifiers/*/kind": "kind of identifier",
+  "relatedIdentifiers/*/relation": "how it is related",
+};
+
+/** Segments that only group fields (their section already says it). */
+const GROUPS = ["reaction", "method", "conditions", "units", "source", "reportedFit"];
+
+/**
  * Where inside its section a pointer is, in the form's words: "/points/3/k" → "row 4, k";
- * "/creators/2/orcid" → "person 3, ORCID"; the section's own list ("/points") → "".
+ * "/creators/2/orcid" → "person 3, ORCID"; "/units/pressure" → "pressure unit"; the section's own
+ * list ("/points") → "".
  */
 export function whereInSection(pointer: string): string {
   const segments = pointer.split("/").slice(1).map(unescape);
   const words: string[] = [];
+  const generic: string[] = [];
+  let groupStart = 0;
   for (let i = 0; i < segments.length; i++) {
     const s = segments[i];
     const next = segments[i + 1];
+    generic.push(/^\d+$/.test(s) ? "*" : s);
     if (next !== undefined && /^\d+$/.test(next) && ITEM_WORDS[s]) {
       words.push(`${ITEM_WORDS[s]} ${Number(next) + 1}`);
+      generic.push("*");
+      groupStart = words.length;
       i++;
-    } else if (i === segments.length - 1 || !["reaction", "method", "conditions", "units", "source", "reportedFit"].includes(s)) {
-      words.push(FIELD_WORDS[s] ?? s);
+      continue;
     }
+    const named = PATH_WORDS[generic.join("/")];
+    if (named !== undefined) {
+      // The whole field from the last list item on, and nothing deeper (a year's date-parts, say).
+      words.splice(groupStart, words.length - groupStart, named);
+      if (!Object.keys(PATH_WORDS).some((k) => k.startsWith(`${generic.join("/")}/`))) break;
+      continue;
+    }
+    if (i === segments.length - 1 || !GROUPS.includes(s)) words.push(FIELD_WORDS[s] ?? s);
   }
   return words.filter(Boolean).join(", ");
 }
