@@ -17,7 +17,7 @@ export interface SeriesPoint {
 export interface SeriesPoints {
   label: string;
   points: SeriesPoint[];
-  /** Drawn hollow and grey when left out of the consensus (e.g. a suspected unit mistake). */
+  /** Drawn grey when left out of the consensus (e.g. a suspected unit mistake). */
   excluded?: boolean;
   /** Off the consensus of the others somewhere in its range (named so in the legend). */
   off?: boolean;
@@ -25,7 +25,7 @@ export interface SeriesPoints {
   note?: string;
   /**
    * Points of a dataset in the consensus that it does not use (outside the reader's temperature
-   * window, or outliers of the dataset's own fit): drawn hollow and faded, named so in the legend.
+   * window, or outliers of the dataset's own fit): drawn faded with a dashed outline, named so in the legend.
    */
   unused?: SeriesPoint[];
   /** Why those points are not used, for the legend ("outside the window"). */
@@ -55,7 +55,7 @@ export interface MarkStyle {
   strokeDasharray?: string;
 }
 
-/** The marks of the i-th dataset: its own points (grey when left out), and the points of it the consensus does not use (hollow, faded, dashed). */
+/** The marks of the i-th dataset: its own points (grey when left out), and the points of it the consensus does not use (faded, with a dashed outline). */
 export function markStyles(i: number, excluded: boolean): { points: MarkStyle; unused: MarkStyle } {
   const m = markerOf(i);
   const colour = excluded ? LEFT_OUT_GREY : m.colour;
@@ -169,7 +169,7 @@ export function ConsensusPlot({
     Math.max(...Ts),
     "K",
   )}${band ? ", with the consensus as a dashed line and its 95 % band" : ", without a consensus line"}${withBars ? "; error bars show the stated ±1σ" : ""}${
-    unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn hollow` : ""
+    unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn faded` : ""
   }.`;
   // What a hovered or focused point tells: its dataset, T and k (and the error bar's size).
   const drawn = (s: SeriesPoints, p: SeriesPoint) => ({
@@ -293,7 +293,7 @@ export function ConsensusPlot({
           : " No consensus line: this choice of data gives no consensus."}
         {withBars && " Bars: the stated ±1σ of each point where its authors give one."}
         {unusedCount > 0 &&
-          " Hollow, faded markers of a dataset's shape are its points the consensus does not use: outside the chosen temperature window, or outliers of the dataset's own fit; the legend names them per dataset."}
+          " Faded markers with a dashed outline, in a dataset's shape, are its points the consensus does not use: outside the chosen temperature window, or outliers of the dataset's own fit; the legend names them per dataset."}
         {tableHref && (
           <>
             {" "}
@@ -309,7 +309,7 @@ const BAND_NAME = "consensus 95 % band";
 const LINE_NAME = "consensus (dashed)";
 const seriesName = (s: SeriesPoints) => (s.excluded ? `${s.label} (left out)` : s.off ? `${s.label} (off the others)` : s.label);
 const unusedName = (s: SeriesPoints) =>
-  `${s.label}: ${s.unused?.length ?? 0} point${s.unused?.length === 1 ? "" : "s"} not used (${s.unusedWhy ?? "outside the window"}), hollow`;
+  `${s.label}: ${s.unused?.length ?? 0} point${s.unused?.length === 1 ? "" : "s"} not used (${s.unusedWhy ?? "outside the window"}), drawn faded`;
 
 /** The legend's entries in the order the plot draws them, each mark with the style it is drawn in. */
 export function legendEntries(series: SeriesPoints[], withBand: boolean): LegendEntry[] {
