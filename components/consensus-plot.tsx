@@ -5,7 +5,7 @@ import { kScaleSymbol, onKScale, useKScale } from "./k-scale";
 import { niceScale, temperatureTicks } from "./plot-scales";
 import { usePlotWidth } from "./plot-width";
 import { formatSignificant } from "@/lib/format";
-import { Area, CartesianGrid, ComposedChart, ErrorBar, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
+import { Area, CartesianGrid, ComposedChart, ErrorBar, Line, ResponsiveContainer, Scatter, Symbols, Tooltip, XAxis, YAxis } from "recharts";
 
 /** One point of a dataset: T in K, ln k, and the stated standard uncertainty of ln k when there is one. */
 export interface SeriesPoint {
@@ -17,7 +17,7 @@ export interface SeriesPoint {
 export interface SeriesPoints {
   label: string;
   points: SeriesPoint[];
-  /** Drawn hollow and grey when left out of the consensus (e.g. a suspected unit mistake). */
+  /** Drawn grey when left out of the consensus (e.g. a suspected unit mistake). */
   excluded?: boolean;
   /** Off the consensus of the others somewhere in its range (named so in the legend). */
   off?: boolean;
@@ -25,7 +25,7 @@ export interface SeriesPoints {
   note?: string;
   /**
    * Points of a dataset in the consensus that it does not use (outside the reader's temperature
-   * window, or outliers of the dataset's own fit): drawn hollow and faded, named so in the legend.
+   * window, or outliers of the dataset's own fit): drawn faded with a dashed outline, named so in the legend.
    */
   unused?: SeriesPoint[];
   /** Why those points are not used, for the legend ("outside the window"). */
@@ -42,6 +42,91 @@ const BAND_GREY = "#9aa3ad";
 /** The marker of the i-th dataset: shape, colour, and hollow from the eighth on, so 14 datasets look different in grey too. */
 function markerOf(i: number) {
   return { shape: shapes[i % shapes.length], colour: colours[i % colours.length], hollow: Math.floor(i / shapes.length) % 2 === 1 };
+}
+
+/** How one kind of mark is painted: the plot's markers and the legend's icons are drawn from the same object. */
+export interface MarkStyle {
+  shape: (typeof shapes)[number];
+  fill: string;
+  fillOpacity: number;
+  stroke: string;
+  strokeOpacity: number;
+  strokeWidth: number;
+  strokeDasharray?: string;
+}
+
+/** The marks of the i-th dataset: its own points (grey when left out), and the points of it the consensus does not use (faded, with a dashed outline). */
+export function markStyles(i: number, excluded: boolean): { points: MarkStyle; unused: MarkStyle } {
+  const m = markerOf(i);
+  const colour = excluded ? LEFT_OUT_GREY : m.colour;
+  return {
+    points: {
+      shape: m.shape,
+      fill: m.hollow ? "#ffffff" : colour,
+      fillOpacity: 1,
+      stroke: colour,
+      strokeOpacity: 1,
+      strokeWidth: m.hollow ? 1.5 : 0,
+    },
+    unused: {
+      shape: m.shape,
+      fill: m.colour,
+      fillOpacity: 0.1,
+      stroke: m.colour,
+      strokeOpacity: 0.7,
+      strokeWidth: 1,
+      strokeDasharray: "2 1",
+    },
+  };
+}
+
+/** Scatter's default symbol area (recharts' ZAxis range [64, 64]): legend icons are drawn at the plot's own size. */
+const MARK_AREA = 64;
+
+/** One legend icon: the mark as the plot draws it (same shape, fill, opacity, outline, dash). */
+export function MarkIcon({ style }: { style: MarkStyle }) {
+  return (
+    <svg width="16" height="16" viewBox="-8 -8 16 16" aria-hidden="true" className="shrink-0" data-mark={style.shape}>
+      <Symbols
+        cx={0}
+        cy={0}
+        type={style.shape}
+        size={MARK_AREA}
+        fill={style.fill}
+        fillOpacity={style.fillOpacity}
+        stroke={style.stroke}
+        strokeOpacity={style.strokeOpacity}
+        strokeWidth={style.strokeWidth}
+        strokeDasharray={style.strokeDasharray}
+      />
+    </svg>
+  );
+}
+
+type LegendEntry = { label: string } & ({ kind: "band" } | { kind: "line" } | { kind: "mark"; style: MarkStyle });
+
+/** The legend under the plot, in HTML (it wraps at any width) with icons drawn as the plot draws each mark. */
+function PlotLegend({ entries }: { entries: LegendEntry[] }) {
+  return (
+    <ul className="flex flex-wrap gap-x-4 gap-y-1 text-xs" aria-label="Legend of the plot" data-testid="plot-legend">
+      {entries.map((e) => (
+        <li key={`${e.kind} ${e.label}`} className="flex items-center gap-1.5">
+          {e.kind === "mark" ? (
+            <MarkIcon style={e.style} />
+          ) : e.kind === "band" ? (
+            <svg width="16" height="16" aria-hidden="true" className="shrink-0">
+              <rect x="0" y="3" width="16" height="10" fill={BAND_GREY} fillOpacity={0.3} />
+            </svg>
+          ) : (
+            <svg width="24" height="16" aria-hidden="true" className="shrink-0">
+              <line x1="0" y1="8" x2="24" y2="8" stroke={CONSENSUS_INK} strokeWidth={2.5} strokeDasharray="8 4" />
+            </svg>
+          )}
+          <span>{e.label}</span>
+        </li>
+      ))}
+    </ul>
+  );
 }
 
 /** Every public dataset of a reaction on one Arrhenius plot, each with its own shape, and the consensus band. */
@@ -84,7 +169,7 @@ export function ConsensusPlot({
     Math.max(...Ts),
     "K",
   )}${band ? ", with the consensus as a dashed line and its 95 % band" : ", without a consensus line"}${withBars ? "; error bars show the stated ±1σ" : ""}${
-    unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn hollow` : ""
+    unusedCount ? `; ${unusedCount} point${unusedCount === 1 ? "" : "s"} not used in the consensus drawn faded` : ""
   }.`;
   // What a hovered or focused point tells: its dataset, T and k (and the error bar's size).
   const drawn = (s: SeriesPoints, p: SeriesPoint) => ({
@@ -135,17 +220,16 @@ export function ConsensusPlot({
               label={{ value: `${symbol}  (k in ${kUnitLabel})`, angle: -90, position: "insideLeft", style: { textAnchor: "middle" } }}
             />
             <Tooltip content={<PointTip kUnitLabel={kUnitLabel} />} />
-            <Legend verticalAlign="bottom" wrapperStyle={{ paddingTop: 24 }} />
             {band && (
               <Area
                 xAxisId="inv"
                 data={fit}
                 dataKey="range"
-                name="consensus 95 % band"
+                name={BAND_NAME}
                 stroke="none"
                 fill={BAND_GREY}
                 fillOpacity={0.3}
-                legendType="rect"
+                legendType="none"
                 isAnimationActive={false}
               />
             )}
@@ -154,60 +238,54 @@ export function ConsensusPlot({
                 xAxisId="inv"
                 data={fit}
                 dataKey="fit"
-                name="consensus (dashed)"
+                name={LINE_NAME}
                 stroke={CONSENSUS_INK}
                 strokeWidth={2.5}
                 strokeDasharray="8 4"
-                legendType="plainline"
+                legendType="none"
                 dot={false}
                 isAnimationActive={false}
               />
             )}
             {series.map((s, i) => {
-              const m = markerOf(i);
-              const colour = s.excluded ? LEFT_OUT_GREY : m.colour;
+              const style = markStyles(i, Boolean(s.excluded)).points;
               return (
                 <Scatter
                   key={s.label}
                   xAxisId="inv"
-                  name={s.excluded ? `${s.label} (left out)` : s.off ? `${s.label} (off the others)` : s.label}
+                  name={seriesName(s)}
                   data={(s.excluded ? [...s.points, ...(s.unused ?? [])] : s.points).map((p) => drawn(s, p))}
                   dataKey="y"
-                  shape={m.shape}
-                  legendType={m.shape}
-                  fill={m.hollow ? "#ffffff" : colour}
-                  stroke={colour}
-                  strokeWidth={m.hollow ? 1.5 : 0}
+                  legendType="none"
+                  {...style}
                   isAnimationActive={false}
                 >
-                  {withBars && <ErrorBar dataKey="err" direction="y" stroke={colour} width={3} />}
+                  {withBars && <ErrorBar dataKey="err" direction="y" stroke={style.stroke} width={3} />}
                 </Scatter>
               );
             })}
-            {series.map((s, i) =>
-              !s.excluded && s.unused?.length ? (
+            {series.map((s, i) => {
+              if (s.excluded || !s.unused?.length) return null;
+              const style = markStyles(i, false).unused;
+              return (
                 <Scatter
                   key={`${s.label} unused`}
                   xAxisId="inv"
-                  name={`${s.label}: ${s.unused.length} point${s.unused.length === 1 ? "" : "s"} not used (${s.unusedWhy ?? "outside the window"}), hollow`}
+                  name={unusedName(s)}
                   data={s.unused.map((p) => drawn(s, p))}
                   dataKey="y"
-                  shape={markerOf(i).shape}
-                  legendType={markerOf(i).shape}
-                  fill={markerOf(i).colour}
-                  fillOpacity={0.1}
-                  stroke={markerOf(i).colour}
-                  strokeOpacity={0.7}
-                  strokeDasharray="2 1"
+                  legendType="none"
+                  {...style}
                   isAnimationActive={false}
                 >
-                  {withBars && <ErrorBar dataKey="err" direction="y" stroke={markerOf(i).colour} strokeOpacity={0.7} width={3} />}
+                  {withBars && <ErrorBar dataKey="err" direction="y" stroke={style.stroke} strokeOpacity={style.strokeOpacity} width={3} />}
                 </Scatter>
-              ) : null,
-            )}
+              );
+            })}
           </ComposedChart>
         </ResponsiveContainer>
       </div>
+      <PlotLegend entries={legendEntries(series, Boolean(band))} />
       <figcaption className="text-xs text-muted">
         Each dataset has its own marker shape{series.length > shapes.length ? " (filled, then hollow)" : ""}.
         {band
@@ -215,7 +293,7 @@ export function ConsensusPlot({
           : " No consensus line: this choice of data gives no consensus."}
         {withBars && " Bars: the stated ±1σ of each point where its authors give one."}
         {unusedCount > 0 &&
-          " Hollow, faded markers of a dataset's shape are its points the consensus does not use: outside the chosen temperature window, or outliers of the dataset's own fit; the legend names them per dataset."}
+          " Faded markers with a dashed outline, in a dataset's shape, are its points the consensus does not use: outside the chosen temperature window, or outliers of the dataset's own fit; the legend names them per dataset."}
         {tableHref && (
           <>
             {" "}
@@ -225,6 +303,28 @@ export function ConsensusPlot({
       </figcaption>
     </figure>
   );
+}
+
+const BAND_NAME = "consensus 95 % band";
+const LINE_NAME = "consensus (dashed)";
+const seriesName = (s: SeriesPoints) => (s.excluded ? `${s.label} (left out)` : s.off ? `${s.label} (off the others)` : s.label);
+const unusedName = (s: SeriesPoints) =>
+  `${s.label}: ${s.unused?.length ?? 0} point${s.unused?.length === 1 ? "" : "s"} not used (${s.unusedWhy ?? "outside the window"}), drawn faded`;
+
+/** The legend's entries in the order the plot draws them, each mark with the style it is drawn in. */
+export function legendEntries(series: SeriesPoints[], withBand: boolean): LegendEntry[] {
+  return [
+    ...(withBand
+      ? [
+          { kind: "band" as const, label: BAND_NAME },
+          { kind: "line" as const, label: LINE_NAME },
+        ]
+      : []),
+    ...series.map((s, i) => ({ kind: "mark" as const, label: seriesName(s), style: markStyles(i, Boolean(s.excluded)).points })),
+    ...series.flatMap((s, i) =>
+      !s.excluded && s.unused?.length ? [{ kind: "mark" as const, label: unusedName(s), style: markStyles(i, false).unused }] : [],
+    ),
+  ];
 }
 
 /** The hovered (or keyboard-focused) point: its dataset, T and k; the consensus line's value elsewhere. */

@@ -72,9 +72,9 @@ export function ConsensusSummary({
       <ScrollRegion label="Uncertainty factor of the consensus (table)">
         <table className="table" aria-label="Uncertainty factor of the consensus">
           <caption className="text-left text-sm text-muted">
-            <StatisticTerm id="uncertaintyFactor" plain="Within a factor of f of the combined value" />: k̂/f … k̂·f covers 95 %, the
-            disagreement between datasets included. Outside {formatRange(Tmin, Tmax, "K")} the consensus is an extrapolation and no
-            uncertainty is given.
+            <StatisticTerm id="uncertaintyFactor" plain="Within a factor of f of the combined value" />: from the consensus k divided by f
+            to the consensus k times f covers 95 %, the disagreement between datasets included. Outside {formatRange(Tmin, Tmax, "K")} the
+            consensus is an extrapolation and no uncertainty is given.
           </caption>
           <thead>
             <tr>
@@ -99,7 +99,9 @@ export function ConsensusSummary({
         <StatisticTerm id="betweenDatasets" plain="How much the datasets disagree beyond their own uncertainties" />: τ² = {sig(fit.tau2)}{" "}
         (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
       </p>
-      <p className="text-xs text-muted">{result.method}</p>
+      <p className="text-xs text-muted" data-testid="consensus-method">
+        {CONSENSUS_METHOD_WORDS}
+      </p>
       {result.flags.length > 0 && (
         <ul className="space-y-2" aria-label="Consensus findings">
           {result.flags.map((f, i) => (
@@ -118,7 +120,14 @@ export function ConsensusSummary({
 }
 
 /**
- * Who carries the consensus: each included dataset's share in k̂ at the temperatures of f(T). The
+ * How the consensus is made, in plain words with the technical names in brackets (the API's `method`
+ * keeps the terse technical sentence). Kept true to lib/kinetics/consensus.ts.
+ */
+export const CONSENSUS_METHOD_WORDS =
+  "How the consensus is made: each dataset's own fit gives its values of k at a few temperatures inside its own range, with their uncertainties (support values). One curve is then fitted through all of them, allowing the datasets to disagree by more than their own uncertainties (generalised least squares with a between-dataset variance τ², estimated by the DerSimonian–Laird method). Each dataset is compared with the curve of the others along its range; while one is off, the dataset whose removal leaves the others agreeing best is set aside and the curve fitted again (largest consistent subset, Cox 2007), until none is off or two remain. The curve bends (modified Arrhenius) only when the bend does not rest on one dataset alone. The band and the factor f are 95 % ranges that include the disagreement between datasets.";
+
+/**
+ * Who carries the consensus: each included dataset's share in the consensus k at the temperatures of f(T). The
  * shares add up to 1 at each temperature (not across a row: a dataset's share changes along T).
  */
 function SharesTable({ result, labels, shown }: { result: ConsensusResult; labels: Map<string, string>; shown?: ReadonlySet<string> }) {
@@ -130,7 +139,7 @@ function SharesTable({ result, labels, shown }: { result: ConsensusResult; label
     <ScrollRegion label="Share of each dataset in the consensus (table)">
       <table className="table" aria-label="Share of each dataset in the consensus">
         <caption className="text-left text-sm text-muted">
-          Share of each dataset in the consensus k̂ at each temperature, in %: the shares at one temperature add up to 100 % (a negative
+          Share of each dataset in the consensus k at each temperature, in %: the shares at one temperature add up to 100 % (a negative
           share tilts the curve away from that dataset&apos;s values).
         </caption>
         <thead>
@@ -228,7 +237,7 @@ function MemberComparison({
             : "Arrhenius"}{" "}
         fit
         {m.share !== null && m.shareT !== null
-          ? `; its share in the consensus k̂ at ${Math.round(m.shareT)} K (the middle of its range) ${formatFixed(m.share * 100, 0)} %`
+          ? `; its share in the consensus k at ${Math.round(m.shareT)} K (the middle of its range) ${formatFixed(m.share * 100, 0)} %`
           : ""}
         .
       </p>

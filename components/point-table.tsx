@@ -4,6 +4,7 @@ import { useId } from "react";
 import type { PointMark, PointRow } from "@/lib/datasets/point-table";
 import { uncertaintyText } from "@/lib/datasets/point-table";
 import { formatNumber, formatSignificant } from "@/lib/format";
+import { quantityLabel, unitLabel } from "@/lib/unit-labels";
 import { ScrollRegion } from "./scroll-region";
 import { StatisticTerm } from "@/components/statistic-term";
 
@@ -103,11 +104,15 @@ export function PointTable({
           <thead className="sticky top-0 bg-panel">
             <tr>
               <th scope="col">#</th>
-              <th scope="col">T as deposited ({tUnit})</th>
-              {showKelvin && <th scope="col">T (K)</th>}
-              <th scope="col">k as deposited ({kUnit})</th>
+              <th scope="col" data-testid="deposited-t-header">
+                {quantityLabel("T as deposited", "temperature", tUnit)}
+              </th>
+              {showKelvin && <th scope="col">{quantityLabel("T", "temperature", "K")}</th>}
+              <th scope="col" data-testid="deposited-k-header">
+                {quantityLabel("k as deposited", "rateConstant", kUnit)}
+              </th>
               <th scope="col" data-testid="chosen-k-header">
-                k ({kUnitLabel})
+                {quantityLabel("k", "rateConstant", kUnitLabel)}
               </th>
               {hasUncertainty && <th scope="col">Uncertainty, as stated</th>}
               {hasUncertainty && (
@@ -115,7 +120,7 @@ export function PointTable({
                   <StatisticTerm id="sigmaLnK" />
                 </th>
               )}
-              {hasPressure && <th scope="col">Pressure ({pressureUnit})</th>}
+              {hasPressure && <th scope="col">{quantityLabel("Pressure", "pressure", pressureUnit)}</th>}
               {hasBathGas && <th scope="col">Bath gas</th>}
               {hasResidual && (
                 <th scope="col">
@@ -139,7 +144,7 @@ export function PointTable({
                 {showKelvin && <td>{formatSignificant(r.T, 6)}</td>}
                 <td>{num(r.deposited.k)}</td>
                 <td>{formatSignificant(convertK(r.k), 4)}</td>
-                {hasUncertainty && <td>{uncertaintyText(r.deposited.uncertainty, r.deposited.kUnit)}</td>}
+                {hasUncertainty && <td>{uncertaintyText(r.deposited.uncertainty, unitLabel("rateConstant", r.deposited.kUnit))}</td>}
                 {hasUncertainty && <td>{formatSignificant(r.sigmaLnK, 3)}</td>}
                 {hasPressure && <td>{num(r.deposited.pressure)}</td>}
                 {hasBathGas && <td>{r.bathGas}</td>}

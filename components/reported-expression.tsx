@@ -1,5 +1,6 @@
 import type { DepositDocument } from "@/lib/deposits/types";
-import { SUPPORTED_UNITS, convertEnergy, convertRateConstant, displayConversion } from "@/lib/kinetics/units";
+import { convertEnergy, convertRateConstant, displayConversion } from "@/lib/kinetics/units";
+import { unitLabel } from "@/lib/unit-labels";
 
 import { formatNumber, formatRange } from "@/lib/format";
 
@@ -37,12 +38,10 @@ export function ReportedExpression({
   const modified = r.model === "modified_arrhenius";
   const order = doc.reaction.order;
   const kId = kShown ?? doc.units.k;
-  const kUnit = SUPPORTED_UNITS.rateConstant[order].find((u) => u.id === kId)?.label ?? kId;
-  const TUnit = SUPPORTED_UNITS.temperature.find((u) => u.id === doc.units.T)?.label ?? doc.units.T;
-  const rangeId = r.rangeUnit ?? doc.units.T;
-  const rangeUnit = SUPPORTED_UNITS.temperature.find((u) => u.id === rangeId)?.label ?? rangeId;
-  const eId = energyUnit ?? r.EaUnit;
-  const EUnit = SUPPORTED_UNITS.energy.find((u) => u.id === eId)?.label ?? eId;
+  const kUnit = unitLabel("rateConstant", kId);
+  const TUnit = unitLabel("temperature", doc.units.T);
+  const rangeUnit = unitLabel("temperature", r.rangeUnit ?? doc.units.T);
+  const EUnit = unitLabel("energy", energyUnit ?? r.EaUnit);
   const A = kShown ? displayConversion(() => convertRateConstant(r.A, doc.units.k, kShown, order)) : r.A;
   const Ea = energyUnit ? displayConversion(() => convertEnergy(r.Ea, r.EaUnit, energyUnit)) : r.Ea;
   const T0 = r.T0 !== undefined ? `${show(r.T0)} ${TUnit}` : "298.15 K";

@@ -1,4 +1,5 @@
 import type { SubmissionDiff } from "@/lib/curation/submission-diff";
+import { whereInSection } from "./deposit-editor/editor-messages";
 import { describeWhere } from "./deposit-editor/readiness";
 import { ScrollRegion } from "./scroll-region";
 
@@ -10,6 +11,15 @@ export function fieldLabel(path: string): string {
     .map((s) => (/^\d+$/.test(s) ? String(Number(s) - 1) : s.replace(/~/g, "~0").replace(/\//g, "~1")))
     .join("/");
   return describeWhere(`/${pointer}`);
+}
+
+/** A point's column in a diff ("uncertainty › kind") in the table's words ("uncertainty stated as"). */
+export function pointColumnLabel(column: string): string {
+  const pointer = column
+    .split(" › ")
+    .map((s) => (/^\d+$/.test(s) ? String(Number(s) - 1) : s.replace(/~/g, "~0").replace(/\//g, "~1")))
+    .join("/");
+  return whereInSection(`/points/0/${pointer}`).replace(/^row 1, /, "");
 }
 
 /** At most this many field and point rows are listed; the count of the rest is said. */
@@ -106,7 +116,7 @@ export function SubmissionChanges({ diff, label }: { diff: SubmissionDiff; label
                       <ul className="space-y-0.5">
                         {p.values.map((v) => (
                           <li key={v.column}>
-                            <span className="font-mono text-xs">{v.column}</span>: <OldNew before={v.before} after={v.after} />
+                            <span className="font-medium">{pointColumnLabel(v.column)}</span>: <OldNew before={v.before} after={v.after} />
                           </li>
                         ))}
                       </ul>

@@ -6,6 +6,7 @@ import type { PointRow } from "@/lib/datasets/point-table";
 import type { AnalysisResult, ReactionOrder } from "@/lib/kinetics/types";
 import { SUPPORTED_UNITS, convertEnergy, displayConversion, fromCanonicalRateConstant } from "@/lib/kinetics/units";
 import { DEFAULT_ENERGY_UNIT, UNIT_PARAMS } from "@/lib/unit-choice";
+import { unitLabel } from "@/lib/unit-labels";
 import { ArrheniusPlot } from "./arrhenius-plot";
 import { PointTable } from "./point-table";
 import { ReportedExpression, type ReportedExpressionSource } from "./reported-expression";
@@ -48,7 +49,7 @@ export function VersionFit({
   const kUnits = SUPPORTED_UNITS.rateConstant[order];
   const [kUnit, setKUnit] = useState<string>(initialKUnit);
   const [energyUnit, setEnergyUnit] = useState(initialEnergyUnit);
-  const kLabel = kUnits.find((u) => u.id === kUnit)?.label ?? kUnit;
+  const kLabel = unitLabel("rateConstant", kUnit);
   // ln k in the chosen unit is ln k (canonical) + ln(unit factor): the plot moves with the choice.
   const lnFactor = Math.log(displayConversion(() => fromCanonicalRateConstant(1, kUnit, order)));
   const shift = (xs: number[] | null) => (xs ? xs.map((x) => x + lnFactor) : null);

@@ -3,7 +3,49 @@
  * unit are put together, so "Ea (K (E/R))" or an entropy left in joules beside energies in
  * calories cannot happen on one page and not another.
  */
-import { convertEnergy, parseEnergyUnit } from "@/lib/kinetics/units";
+import {
+  convertEnergy,
+  parseEnergyUnit,
+  parsePressureUnit,
+  parseRateConstantUnit,
+  parseTemperatureUnit,
+  UnitError,
+} from "@/lib/kinetics/units";
+
+export type UnitKind = "rateConstant" | "temperature" | "pressure" | "energy";
+
+const PARSERS: Record<UnitKind, (text: string) => { label: string }> = {
+  rateConstant: (t) => parseRateConstantUnit(t),
+  temperature: parseTemperatureUnit,
+  pressure: parsePressureUnit,
+  energy: parseEnergyUnit,
+};
+
+/**
+ * THE way a page writes a unit: its display label with true superscripts, whatever spelling was
+ * stored ("cm3 molecule-1 s-1" and "cm3/molecule/s" → "cm³ molecule⁻¹ s⁻¹", "degC" → "°C"). Files
+ * (the CSV and JSON downloads) keep the plain ids; pages never show them. A unit the kinetics module
+ * does not know is shown as given.
+ * @example unitLabel("rateConstant", "cm3 molecule-1 s-1") // "cm³ molecule⁻¹ s⁻¹"
+ */
+export function unitLabel(kind: UnitKind, unit: string | null | undefined): string {
+  if (!unit) return "";
+  try {
+    return PARSERS[kind](unit).label;
+  } catch (err) {
+    if (err instanceof UnitError) return unit;
+    throw err;
+  }
+}
+
+/**
+ * "T as deposited (°C)": a quantity and its unit in the one form of a column header.
+ * @example quantityLabel("k", "rateConstant", "s-1") // "k (s⁻¹)"
+ */
+export function quantityLabel(quantity: string, kind: UnitKind, unit: string | null | undefined): string {
+  const label = unitLabel(kind, unit);
+  return label ? `${quantity} (${label})` : quantity;
+}
 
 /** The energy unit that is a temperature (E/R). */
 const isTemperatureEnergy = (unitId: string) => parseEnergyUnit(unitId).id === "K";

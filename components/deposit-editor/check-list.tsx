@@ -1,3 +1,4 @@
+import { findingsOnly, passedCheckWords } from "@/lib/curation/check-summary";
 import { severityWords, type StoredCheck } from "./words";
 
 const tone: Record<string, string> = {
@@ -6,16 +7,30 @@ const tone: Record<string, string> = {
   info: "border-line text-ink",
 };
 
-/** Stored findings, each labelled with its severity in words (colour is a second signal only). */
+/**
+ * Stored findings, each labelled with its severity in words (colour is a second signal only). A
+ * check that passed is no finding: it is said plainly above them ("Balanced: elements and charge").
+ */
 export function CheckList({ checks }: { checks: StoredCheck[] }) {
+  const findings = findingsOnly(checks);
+  const passed = passedCheckWords(checks);
   return (
-    <ul className="space-y-2">
-      {checks.map((c, i) => (
-        <li key={`${c.code}-${i}`} className={`rounded-md border bg-panel px-3 py-2 text-sm ${tone[c.severity] ?? tone.info}`}>
-          <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold">{severityWords(c.severity)}</span>
-          {c.message}
-        </li>
+    <>
+      {passed.map((words) => (
+        <p key={words} className="text-sm text-ok" data-testid="passed-check">
+          {words}.
+        </p>
       ))}
-    </ul>
+      {findings.length > 0 && (
+        <ul className="space-y-2">
+          {findings.map((c, i) => (
+            <li key={`${c.code}-${i}`} className={`rounded-md border bg-panel px-3 py-2 text-sm ${tone[c.severity] ?? tone.info}`}>
+              <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold">{severityWords(c.severity)}</span>
+              {c.message}
+            </li>
+          ))}
+        </ul>
+      )}
+    </>
   );
 }

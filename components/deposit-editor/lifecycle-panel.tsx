@@ -1,5 +1,6 @@
 "use client";
 
+import { findingsOnly } from "@/lib/curation/check-summary";
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
 import { startNextVersionAction, transitionAction } from "@/app/deposits/actions";
@@ -277,7 +278,8 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
         <h3 id="checks-of-last-save" className="scroll-mt-20 text-base font-semibold">
           Checks of the last save
         </h3>
-        {checks.length === 0 ? <p className="text-sm text-muted">No findings.</p> : <CheckList checks={checks} />}
+        {findingsOnly(checks).length === 0 && <p className="text-sm text-muted">No findings.</p>}
+        <CheckList checks={checks} />
       </div>
 
       {(members.length > 0 || capabilities.invite) && (

@@ -17,7 +17,9 @@ import {
 } from "@/lib/kinetics/units";
 import { buildAnalysisRequest, hashText, type BuiltAnalysisRequest } from "./analysis-request";
 import type { EditorForm } from "./form-model";
+import { plainWhat } from "./editor-messages";
 import { pointRowOf } from "./pointers";
+import { lowerFirst } from "@/lib/deposits/messages";
 
 /** How long the data must stay unchanged before they are fitted again. */
 export const ANALYSIS_DELAY_MS = 600;
@@ -68,11 +70,17 @@ export function describeAnalysisProblem(problem: Problem, rows: number[]): { sum
       };
     case 422: {
       const details = (problem.errors ?? []).slice(0, 10).map((e) => {
+        // The same translation as every other editor message, with the row as the table numbers it.
         const index = pointRowOf(e.pointer);
-        if (index !== null) return `Row ${(rows[index] ?? index) + 1}: ${e.message}`;
-        if (e.pointer === "/units/k") return `Unit of k: ${e.message}`;
-        if (e.pointer === "/units/T") return `Unit of T: ${e.message}`;
-        return e.message;
+        const what = plainWhat(e.pointer, e.message);
+        if (index !== null) {
+          const field = /^\/points\/\d+\/(T|k|sigmaLnK)$/.exec(e.pointer)?.[1];
+          const fieldWords = field === "sigmaLnK" ? "uncertainty" : field;
+          return `Row ${(rows[index] ?? index) + 1}${fieldWords ? `, ${fieldWords}` : ""}: ${lowerFirst(what)}`;
+        }
+        if (e.pointer === "/units/k") return `Unit of k: ${lowerFirst(what)}`;
+        if (e.pointer === "/units/T") return `Unit of T: ${lowerFirst(what)}`;
+        return what;
       });
       return { summary: "These data cannot be fitted yet.", details: details.length ? details : [problem.title] };
     }

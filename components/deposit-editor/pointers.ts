@@ -5,6 +5,7 @@
  */
 import type { FieldError } from "@/lib/errors";
 import type { EditorForm } from "./form-model";
+import { plainBeside } from "./editor-messages";
 
 export type SectionId = "about" | "reaction" | "method" | "conditions" | "data" | "fit" | "source" | "credit";
 
@@ -164,8 +165,10 @@ export function groupErrors(errors: FieldError[], form: EditorForm): GroupedErro
       unplaced.push({ error, section: sectionOf(error.pointer) });
       continue;
     }
+    // Beside the input, in the form's words with the row and field it is about (editor-messages.ts).
+    const message = plainBeside(error.pointer, error.message);
     const list = byField.get(field) ?? [];
-    if (!list.includes(error.message)) list.push(error.message);
+    if (!list.includes(message)) list.push(message);
     byField.set(field, list);
   }
   return { byField, unplaced };

@@ -4,6 +4,7 @@
  * plain words and which input to take the person to.
  */
 import type { FieldError } from "@/lib/errors";
+import { plainWhat, whereInSection } from "./editor-messages";
 import type { EditorForm } from "./form-model";
 import { fieldId, pointRowOf, resolveFieldPointer, SECTIONS, sectionAnchor, sectionOf } from "./pointers";
 
@@ -18,86 +19,11 @@ export interface ReadinessItem {
   row: number | null;
 }
 
-/** Singular words for the items of the document's lists. */
-const ITEM_WORDS: Record<string, string> = {
-  points: "row",
-  reactants: "reactant",
-  products: "product",
-  creators: "person",
-  funding: "grant",
-  relatedIdentifiers: "linked record",
-  author: "author",
-  keywords: "keyword",
-};
-
-/** Plain names of fields whose property names are not words. */
-const FIELD_WORDS: Record<string, string> = {
-  title: "title",
-  description: "description",
-  keywords: "keywords",
-  license: "licence",
-  smiles: "SMILES",
-  inchi: "InChI",
-  coefficient: "coefficient",
-  uncertainty: "uncertainty",
-  bathGas: "bath gas",
-  productsUnknown: "products not identified",
-  EaUnit: "unit of Ea",
-  Tmin: "valid from",
-  Tmax: "valid up to",
-  rangeUnit: "unit of the valid range",
-  doi: "DOI",
-  locator: "pages or article number",
-  "container-title": "journal",
-  issued: "year",
-  awardId: "award number",
-  awardTitle: "award title",
-  orcid: "ORCID",
-  k: "k",
-  T: "T",
-  // The data section's table itself: its section title says enough.
-  points: "",
-};
-
-const unescape = (segment: string) => segment.replace(/~1/g, "/").replace(/~0/g, "~");
-
 /** "/points/3/k" → "Rate constants, row 4, k"; "" → "The document as a whole". */
 export function describeWhere(pointer: string): string {
   const section = sectionOf(pointer);
   const title = SECTIONS.find((s) => s.id === section)?.title ?? "The document as a whole";
-  const segments = pointer.split("/").slice(1).map(unescape);
-  const words: string[] = [];
-  for (let i = 0; i < segments.length; i++) {
-    const s = segments[i];
-    const next = segments[i + 1];
-    if (next !== undefined && /^\d+$/.test(next) && ITEM_WORDS[s]) {
-      words.push(`${ITEM_WORDS[s]} ${Number(next) + 1}`);
-      i++;
-    } else if (i === segments.length - 1 || !["reaction", "method", "conditions", "units", "source", "reportedFit"].includes(s)) {
-      words.push(FIELD_WORDS[s] ?? s);
-    }
-  }
-  return [title, ...words].filter(Boolean).join(", ");
-}
-
-const NUMBER_WORDS = ["no", "one", "two", "three", "four", "five", "six", "seven", "eight", "nine", "ten"];
-const countWord = (n: number) => NUMBER_WORDS[n] ?? String(n);
-
-/**
- * The schema's length rules in plain words for the list (the list already says where):
- * "Technique must be at least 2 characters long (got "")" → "Write at least two characters.",
- * "Points must have at least 2 entries (it has 0)" → "Add at least two rows." Other messages are kept.
- */
-export function plainMessage(pointer: string, message: string): string {
-  let m = /must be at least (\d+) characters long \(got .*\)\.?$/.exec(message);
-  if (m) return `Write at least ${countWord(Number(m[1]))} characters.`;
-  m = /must have at least (\d+) (?:entry|entries) \(it has \d+\)\.?$/.exec(message);
-  if (m) {
-    const n = Number(m[1]);
-    const item = ITEM_WORDS[unescape(pointer.split("/").pop() ?? "")] ?? "entry";
-    return `Add at least ${countWord(n)} ${n === 1 ? item : item === "entry" ? "entries" : `${item}s`}.`;
-  }
-  return message;
+  return [title, whereInSection(pointer)].filter(Boolean).join(", ");
 }
 
 const sectionRank = (pointer: string) => {
@@ -118,7 +44,7 @@ export function readinessItems(errors: FieldError[], form: EditorForm): Readines
     items.push({
       pointer: e.pointer,
       where: describeWhere(e.pointer),
-      message: plainMessage(e.pointer, e.message),
+      message: plainWhat(e.pointer, e.message),
       targetId: field !== null ? fieldId(field) : section ? sectionAnchor(section) : null,
       row: field !== null ? pointRowOf(field) : null,
     });

@@ -20,7 +20,7 @@ export interface Suggestion {
   href: string;
 }
 
-/** What GET /api/v1/search/suggest answers (lib/search/queries.ts suggestSearch). */
+/** What GET /api/v1/search/suggest answers (lib/search/suggest.ts suggestForText). */
 export interface SuggestAnswer {
   species: { inchiKey: string; name: string; formula: string; matched: string; datasetCount: number }[];
   reactions: { reactionId: number; reactionKey: string; equation: string; datasetCount: number }[];

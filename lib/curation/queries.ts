@@ -154,7 +154,10 @@ export async function listCheckSummaries(versionIds: number[]): Promise<Map<numb
     const flags = Array.isArray(r.flags) ? r.flags : [];
     out.set(
       r.versionId,
-      summariseFindings([...(r.checks ?? []), ...flags.map((f) => ({ severity: f.severity, message: formatFlagMessage(f) }))]),
+      summariseFindings([
+        ...(r.checks ?? []),
+        ...flags.map((f) => ({ code: f.code, severity: f.severity, message: formatFlagMessage(f) })),
+      ]),
     );
   }
   return out;

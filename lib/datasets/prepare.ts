@@ -113,7 +113,7 @@ async function prepareOrThrow(source: string | Uint8Array, parsed?: unknown, tra
     const balance = checkBalance({ reactants: toBalanced(reactants), products: toBalanced(products) });
     checks.push(
       balance.balanced
-        ? { code: "balanced", severity: "info", message: "Elements and charge balance." }
+        ? { code: "balanced", severity: "info", message: "Balanced: elements and charge." }
         : { code: "unbalanced", severity: "error", message: balance.message },
     );
   } else {

@@ -1,6 +1,7 @@
 import "server-only";
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
 import { getDb, type Transaction } from "@/db/client";
+import { findingsOnly } from "@/lib/curation/check-summary";
 import { datasetMembers, datasets, datasetVersions, decisions, versionAnalyses, versionFiles, versionPoints } from "@/db/datasets";
 import { users } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
@@ -91,7 +92,8 @@ const severityRank: Record<string, number> = { info: 1, warn: 2, error: 3 };
 /** The summary columns of a version (worst flag, flag codes, point count, measured range) from its points and analysis. */
 export function summarise(points: StoredPoint[], analysis: AnalysisSummary) {
   const flags = [...analysis.checks, ...((analysis.result?.flags as { code: string; severity: string }[] | undefined) ?? [])];
-  const worst = flags.reduce((w, f) => ((severityRank[f.severity] ?? 0) > (severityRank[w] ?? 0) ? f.severity : w), "none");
+  // A passed check (elements and charge balanced) is no finding, so never the worst one.
+  const worst = findingsOnly(flags).reduce((w, f) => ((severityRank[f.severity] ?? 0) > (severityRank[w] ?? 0) ? f.severity : w), "none");
   const Ts = points.map((p) => p.T);
   return {
     worstFlag: worst,

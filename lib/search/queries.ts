@@ -4,7 +4,7 @@ import { getDb } from "@/db/client";
 import { reactions, species, speciesNames } from "@/db/chemistry";
 import { searchDocuments, searchReactionSummaries } from "@/db/search";
 import { reactionDisplayEquation, speciesDisplayName } from "@/lib/reactions/display-names";
-import type { ReactionHit, SearchDocument } from "@/lib/search/types";
+import type { ParsedQuery, ReactionHit, SearchDocument } from "@/lib/search/types";
 
 /**
  * The search's reads: species lookups (the InChIKeys a typed name, synonym or formula may mean),
@@ -97,18 +97,49 @@ export interface ReactionSuggestion {
 
 const SUGGESTIONS = 8;
 
+/** A reaction pattern the search page understands, resolved to InChIKeys (lib/search/resolve-query.ts). */
+export type SuggestPattern = Extract<ParsedQuery, { kind: "reaction" } | { kind: "reactionKey" }>;
+
+/** The SQL condition a listed document meets when its reaction fits the pattern (as the engines match it). */
+function patternCondition(pattern: SuggestPattern): SQL {
+  if (pattern.kind === "reactionKey") return sql`d.reaction_key = ${pattern.key}`;
+  const side = (column: SQL, terms: string[][]) =>
+    terms.map(
+      (keys) =>
+        sql`${column} && array[${sql.join(
+          keys.map((k) => sql`${k}`),
+          sql`, `,
+        )}]::text[]`,
+    );
+  const conditions = [...side(sql`d.reactant_keys`, pattern.reactants), ...side(sql`d.product_keys`, pattern.products)];
+  // A pattern whose every term resolved to nothing matches nothing (resolveQuery turns it into text before this).
+  if (conditions.length === 0 || [...pattern.reactants, ...pattern.products].some((keys) => keys.length === 0)) return sql`false`;
+  return sql.join(conditions, sql` and `);
+}
+
 /**
  * What the header box offers for `q`: species by name, synonym or formula prefix (then by trigram
  * similarity, for typos), and reactions whose equation matches; published data only, ≤ 8 each.
+ * With a reaction `pattern` ("OH + CH4", "CH4 -> CH3", a reaction key, resolved by the caller), the
+ * reactions the search page would find for it come first and no species are offered: the text is
+ * a reaction, not a name.
  */
-export async function suggestSearch({ q }: { q: string }): Promise<{ species: SpeciesSuggestion[]; reactions: ReactionSuggestion[] }> {
+export async function suggestSearch({
+  q,
+  pattern = null,
+}: {
+  q: string;
+  pattern?: SuggestPattern | null;
+}): Promise<{ species: SpeciesSuggestion[]; reactions: ReactionSuggestion[] }> {
   const text = q.trim().toLowerCase();
   if (!text) return { species: [], reactions: [] };
   const db = getDb();
   const prefix = `${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
   // Names and formulas first (a few thousand rows at most), then only species of a listed reaction
   // (search_documents holds public versions only; the GIN indexes on the key arrays answer @>).
-  const speciesRows = await db.execute<{ inchi_key: string; name: string; formula: string; matched: string; datasets: number }>(sql`
+  const speciesRows = pattern
+    ? []
+    : await db.execute<{ inchi_key: string; name: string; formula: string; matched: string; datasets: number }>(sql`
     with candidates as (
       select s.inchi_key, s.formula, n.name as matched,
         case when lower(n.name) = ${text} then 0 when lower(n.name) like ${prefix} then 1 else 2 end as rank,
@@ -137,19 +168,23 @@ export async function suggestSearch({ q }: { q: string }): Promise<{ species: Sp
     datasetCount: Number(r.datasets),
   }));
   // names_text holds the equation too, lower-cased, under a trigram index. What was typed only
-  // chooses the reactions; each is then counted over all its listed documents.
+  // chooses the reactions; each is then counted over all its listed documents. Reactions the
+  // pattern finds rank before those whose equation merely contains the text.
   const contains = `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  const byPattern = pattern ? patternCondition(pattern) : sql`false`;
   const reactionRows = await db.execute<{ reaction_id: number; reaction_key: string; equation: string; datasets: number }>(sql`
     with matched as (
-      select distinct d.reaction_id from search_documents d where d.latest and not d.retracted and d.names_text like ${contains}
+      select d.reaction_id, bool_or(${byPattern}) as fits from search_documents d
+      where d.latest and not d.retracted and (d.names_text like ${contains} or ${byPattern})
+      group by d.reaction_id
     ), counted as (
-      select d.reaction_id, min(d.reaction_key) as reaction_key, count(*)::int as datasets
+      select d.reaction_id, min(d.reaction_key) as reaction_key, count(*)::int as datasets, bool_or(m.fits) as fits
       from search_documents d join matched m on m.reaction_id = d.reaction_id
       where d.latest and not d.retracted group by d.reaction_id
-      order by count(*) desc, min(d.reaction_key) limit ${SUGGESTIONS}
+      order by bool_or(m.fits) desc, count(*) desc, min(d.reaction_key) limit ${SUGGESTIONS}
     )
     select c.reaction_id, c.reaction_key, c.datasets, ${reactionDisplayEquation(sql`c.reaction_id`)} as equation
-    from counted c order by c.datasets desc, c.reaction_key`);
+    from counted c order by c.fits desc, c.datasets desc, c.reaction_key`);
   return {
     species: speciesHits,
     reactions: reactionRows.map((r) => ({

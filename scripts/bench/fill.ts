@@ -393,7 +393,7 @@ export async function fillBenchDatabase(
             const side = (list: BenchSpecies[]) => list.map((s) => ({ elements: s.elements, charge: s.charge, coefficient: 1 }));
             const b = checkBalance({ reactants: side(reaction.reactants), products: side(reaction.products) });
             return b.balanced
-              ? { code: "balanced", severity: "info", message: "Elements and charge balance." }
+              ? { code: "balanced", severity: "info", message: "Balanced: elements and charge." }
               : { code: "unbalanced", severity: "error", message: b.message };
           })();
       const analysis: AnalysisSummary = {

@@ -151,6 +151,23 @@ test("the header box offers species and reactions, chosen by keyboard alone", as
   await expect(page).toHaveURL(/\/search\?q=flash\+photolysis$/);
 });
 
+test("the header box offers the reactions of a reaction pattern (both reactants, or reactant → product)", async ({ page }) => {
+  await page.setViewportSize(WIDE);
+  await page.goto("/");
+  const box = page.getByRole("combobox", { name: "Search datasets, species and reactions" });
+  const options = page.getByRole("listbox", { name: "Suggestions" }).getByRole("option");
+  for (const typed of ["OH + CH4", "CH4 -> CH3", "CH4 → CH3"]) {
+    await box.fill(typed);
+    await expect(options.first(), typed).toContainText("reaction");
+  }
+  // The first reaction of "OH + CH4" is chosen by keyboard and opens its reaction page.
+  await box.fill("OH + CH4");
+  await expect(options.first()).toContainText("reaction");
+  await box.press("ArrowDown");
+  await box.press("Enter");
+  await expect(page).toHaveURL(/\/reactions\/[^/?]*[A-Z]{14}-[A-Z]{10}-[A-Z][^/?]*~/);
+});
+
 test("the header box works from the folded menu of a phone", async ({ page }) => {
   await page.setViewportSize(PHONE);
   await page.goto("/reactions");

@@ -7,7 +7,7 @@ import { uniqueEmail } from "./helpers";
 
 const pt = (T: number, k: number): StoredPoint => ({ T, k, original: { T, k } });
 const points = [pt(300, 1e-12), pt(350, 2e-12), pt(400, 3e-12)];
-// Invented findings: one warning from the fit, one note from the checks.
+// Invented findings: one warning from the fit; the balance check passed (not a finding).
 const analysis: AnalysisSummary = {
   engineVersion: "test",
   result: { flags: [{ code: "narrow_range", severity: "warn", message: "The measured range is narrow (100 K)." }] },
@@ -66,7 +66,23 @@ describe("the review queue: waiting for a curator, or with the authors", () => {
   it("sums up each version's findings in words, with the first of the most severe kind", async () => {
     const id = await submitted(`checks ${Date.now()}`);
     const summary = (await listCheckSummaries([id])).get(id);
-    expect(summary).toMatchObject({ words: "1 warning, 1 note", worst: "warn" });
+    // The passed balance check is neither counted nor called a note.
+    expect(summary).toMatchObject({ words: "1 warning", worst: "warn", counts: { error: 0, warn: 1, info: 0 } });
     expect(summary!.first?.message).toBe("The measured range is narrow (100 K).");
+  });
+
+  it("says nothing was found when the only check is a passed one, and never sorts it as a note", async () => {
+    const title = `balanced only ${Date.now()}`;
+    const v = await createDatasetDraft({
+      ownerId: owner.id,
+      title,
+      payload: { title, units: { T: "K" } },
+      points,
+      analysis: { ...analysis, result: { flags: [] } },
+    });
+    await applyTransition({ actorId: owner.id, versionId: v.id, transition: "submit" });
+    expect((await listCheckSummaries([v.id])).get(v.id)).toMatchObject({ words: "no findings", worst: "none", first: null });
+    const rows = (await listReviewQueue({ sort: "submitted", direction: "desc", pageSize: 100 })).rows;
+    expect(rows.find((r) => r.versionId === v.id)?.worstFlag).toBe("none");
   });
 });

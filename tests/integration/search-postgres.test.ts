@@ -267,4 +267,41 @@ describe("GET /api/v1/search/suggest", () => {
     expect(hidden.species.map((s: { formula: string }) => s.formula)).not.toContain("C10H20");
     expect((await call(suggestGET, "/api/v1/search/suggest?q=")).status).toBe(200);
   });
+
+  it("offers the reactions a reaction pattern finds on the search page (both reactants, reactant → product, any arrow)", async () => {
+    const suggest = async (q: string) =>
+      (await (await call(suggestGET, `/api/v1/search/suggest?${new URLSearchParams({ q })}`)).json()) as {
+        species: unknown[];
+        reactions: { reactionKey: string; equation: string }[];
+      };
+    const search = async (q: string) =>
+      (await (await call(searchGET, `/api/v1/search?${new URLSearchParams({ q, view: "reactions" })}`)).json()) as {
+        hits: { reactionKey: string }[];
+      };
+    // The demo's OH + methane reaction (hydrogen abstraction, water and methyl).
+    for (const q of ["OH + CH4", "CH4 + OH", "CH4 -> CH3", "CH4 → CH3", "hydroxyl + methane", "OH + *"]) {
+      const body = await suggest(q);
+      const found = (await search(q)).hits.map((h) => h.reactionKey);
+      expect(found.length, q).toBeGreaterThan(0);
+      expect(body.reactions.length, q).toBeGreaterThan(0);
+      // What is offered first is what the search finds, the most datasets first.
+      expect(found, q).toContain(body.reactions[0].reactionKey);
+      if (found.length <= 8)
+        expect(
+          body.reactions
+            .slice(0, found.length)
+            .map((r) => r.reactionKey)
+            .sort(),
+          q,
+        ).toEqual([...found].sort());
+      expect(body.species, q).toEqual([]);
+    }
+    const ohMethane = await suggest("OH + CH4");
+    // A reaction key typed whole offers that reaction.
+    const key = ohMethane.reactions[0].reactionKey;
+    expect((await suggest(key)).reactions.map((r) => r.reactionKey)).toContain(key);
+    // A half-typed structure is no error while typing; a term naming no species falls back to the words.
+    expect((await call(suggestGET, `/api/v1/search/suggest?${new URLSearchParams({ q: "OH + C(" })}`)).status).toBe(200);
+    expect((await suggest("zzqx + CH4")).reactions).toEqual([]);
+  });
 });

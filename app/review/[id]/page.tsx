@@ -1,3 +1,4 @@
+import { findingsOnly, passedCheckWords } from "@/lib/curation/check-summary";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -109,16 +110,32 @@ function ReturnAndReply({ exchange }: { exchange: Exchange }) {
   );
 }
 
+/** Findings with their severity in words; a check that passed is said plainly, never counted as a finding. */
 function CheckList({ items }: { items: { code: string; severity: string; message: string }[] }) {
-  if (!items.length) return <p className="text-sm text-ok">No findings.</p>;
+  const findings = findingsOnly(items);
+  const passed = passedCheckWords(items).map((words) => (
+    <p key={words} className="text-sm text-ok" data-testid="passed-check">
+      {words}.
+    </p>
+  ));
+  if (!findings.length)
+    return (
+      <>
+        {passed}
+        <p className="text-sm text-ok">No findings.</p>
+      </>
+    );
   return (
-    <ul className="space-y-2">
-      {items.map((f, i) => (
-        <li key={i} className="rounded-md border border-line bg-panel px-3 py-2 text-sm">
-          <SeverityLabel severity={f.severity} /> <span className="ml-1">{f.message}</span>
-        </li>
-      ))}
-    </ul>
+    <>
+      {passed}
+      <ul className="space-y-2">
+        {findings.map((f, i) => (
+          <li key={i} className="rounded-md border border-line bg-panel px-3 py-2 text-sm">
+            <SeverityLabel severity={f.severity} /> <span className="ml-1">{f.message}</span>
+          </li>
+        ))}
+      </ul>
+    </>
   );
 }
 

@@ -35,7 +35,7 @@ describe("readinessItems", () => {
     ];
     const errors = blockingChecks(checks).map((c) => ({ pointer: checkPointer(c.code), message: c.message }));
     expect(readinessItems(errors, form).map((i) => [i.where, i.message, i.targetId])).toEqual([
-      ["Reaction, products", "Unbalanced: products have 1 more H than reactants", "field-reaction-products"],
+      ["Reaction, products", "Unbalanced: products have 1 more H than reactants.", "field-reaction-products"],
     ]);
   });
 
@@ -50,7 +50,7 @@ describe("readinessItems", () => {
     );
     expect(items.map((i) => `${i.where}: ${i.message}`)).toEqual([
       "How k was obtained, technique: Write at least two characters.",
-      "Rate constants: Add at least two rows.",
+      "Rate constants: Add at least two rows (there are none yet).",
     ]);
     expect(describeWhere("/keywords/0")).toBe("Title and summary, keyword 1");
   });

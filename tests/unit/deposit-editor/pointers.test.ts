@@ -60,7 +60,7 @@ describe("groupErrors", () => {
       form,
     );
     expect(grouped.byField.get("/title")).toEqual(["Title is too short."]);
-    expect(grouped.byField.get("/points/2/uncertainty")).toEqual(["must be greater than 0"]);
+    expect(grouped.byField.get("/points/2/uncertainty")).toEqual(["Row 3, uncertainty: must be greater than 0."]);
     expect(grouped.unplaced.map((u) => [u.error.pointer, u.section])).toEqual([
       ["/reaction/solvent", "reaction"],
       ["", null],

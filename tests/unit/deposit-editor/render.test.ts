@@ -109,7 +109,7 @@ describe("ReadinessPanel", () => {
     expect(html).toMatch(/<a href="#field-title">Title and summary, title<\/a>: Title is too short\./);
     expect(html).toMatch(/<a href="#section-reaction">Reaction, solvent<\/a>: Solvent is required/);
     // Row 651 is beyond the example's rows: the problem goes to the table as a whole.
-    expect(html.indexOf("Title is too short")).toBeLessThan(html.indexOf("not positive"));
+    expect(html.indexOf("Title is too short")).toBeLessThan(html.indexOf("Not positive."));
   });
 });
 
@@ -141,7 +141,10 @@ describe("DepositEditor", () => {
     expect(html).toContain("Clear and complete.");
     expect(html).not.toContain("Save draft");
     expect(html).not.toContain("Submit for review");
-    expect(html).toContain("Elements and charge balance.");
+    // A passed balance check is said plainly, never as a note.
+    expect(html).toContain("Balanced: elements and charge.");
+    expect(html).not.toContain("Elements and charge balance.");
+    expect(html).not.toMatch(/>note<\/span>/);
   });
 
   it("renders a new deposit with the person as first creator and a save button", async () => {

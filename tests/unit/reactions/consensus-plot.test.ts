@@ -31,17 +31,17 @@ describe("ConsensusPlot", () => {
     { label: "v1 · a", points: [{ T: 300, lnk: -3 }], unused, unusedWhy: "outside the window", excluded },
   ];
 
-  it("says in words, not by colour alone, that hollow points are not used", () => {
+  it("says in words, not by colour alone, that faded points are not used", () => {
     const html = renderToStaticMarkup(h(ConsensusPlot, { series: series([{ T: 200, lnk: -5 }]), band: null, kUnitLabel: "s⁻¹" }));
-    expect(html).toContain("1 point not used in the consensus drawn hollow");
-    expect(html).toContain("Hollow, faded markers of a dataset&#x27;s shape are its points the consensus does not use");
+    expect(html).toContain("1 point not used in the consensus drawn faded");
+    expect(html).toContain("Faded markers with a dashed outline, in a dataset&#x27;s shape, are its points the consensus does not use");
   });
 
   it("says nothing of unused points when there are none, or when the whole dataset is left out", () => {
     for (const s of [series([]), series([{ T: 200, lnk: -5 }], true)]) {
       const html = renderToStaticMarkup(h(ConsensusPlot, { series: s, band: null, kUnitLabel: "s⁻¹" }));
       expect(html).not.toContain("not used in the consensus");
-      expect(html).not.toContain("Hollow, faded");
+      expect(html).not.toContain("Faded markers");
     }
   });
 

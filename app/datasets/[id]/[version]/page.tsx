@@ -14,6 +14,7 @@ import { getDatasetSummary, getVersionWithRole, listPublicVersions } from "@/lib
 import { POINT_TABLE_ROWS } from "@/lib/datasets/point-table";
 import { citeVersion, getPublicVersionPoints } from "@/lib/datasets/public-version";
 import { unitsFromQuery } from "@/lib/unit-choice";
+import { unitLabel } from "@/lib/unit-labels";
 import { listVersionFiles } from "@/lib/datasets/files";
 import { parseIdOrNull } from "@/lib/ids";
 import { auditTrailPath } from "@/lib/audit/paths";
@@ -171,7 +172,7 @@ export default async function DatasetVersionPage({
             Phase: {doc.reaction.phase}; order {doc.reaction.order}
             {doc.conditions?.bathGas ? `; bath gas ${doc.conditions.bathGas}` : ""}
             {doc.conditions?.pressure?.value !== undefined
-              ? `; ${formatNumber(doc.conditions.pressure.value)} ${doc.units.pressure ?? ""}`
+              ? `; ${formatNumber(doc.conditions.pressure.value)} ${unitLabel("pressure", doc.units.pressure)}`
               : ""}
           </p>
         </div>
@@ -214,8 +215,9 @@ export default async function DatasetVersionPage({
           Download the points
         </h2>
         <p className="text-sm">
-          Every point as deposited and converted to K, {loaded.about.canonicalUnits.k} and Pa (T, k and pressure), with its uncertainty,
-          residual and findings, under a header with the identifier, licence, citation and the caution above.
+          Every point as deposited and converted to K, {unitLabel("rateConstant", loaded.about.canonicalUnits.k)} and Pa (T, k and
+          pressure), with its uncertainty, residual and findings, under a header with the identifier, licence, citation and the caution
+          above.
         </p>
         <ul className="flex flex-wrap gap-3 text-sm">
           <li>

@@ -3,7 +3,7 @@ import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { AppError } from "@/lib/errors";
 import { MAX_QUERY_LENGTH } from "@/lib/search/params";
-import { suggestSearch } from "@/lib/search/queries";
+import { suggestForText } from "@/lib/search/suggest";
 
 export const GET = withApi(async ({ req }) => {
   const params = new URL(req.url).searchParams;
@@ -18,5 +18,5 @@ export const GET = withApi(async ({ req }) => {
     const message = `q must be given once, with at most ${MAX_QUERY_LENGTH} characters`;
     throw new AppError("bad_request", message, [{ pointer: "/q", parameter: "q", message }]);
   }
-  return NextResponse.json(await suggestSearch({ q }));
+  return NextResponse.json(await suggestForText({ q }));
 });

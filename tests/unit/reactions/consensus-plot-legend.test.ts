@@ -1,0 +1,87 @@
+import { createElement as h } from "react";
+import { renderToStaticMarkup } from "react-dom/server";
+import { describe, expect, it } from "vitest";
+import { ConsensusPlot, legendEntries, markStyles, type SeriesPoints } from "@/components/consensus-plot";
+import { CONSENSUS_METHOD_WORDS, ConsensusComparisons, ConsensusSummary } from "@/components/consensus-report";
+import { consensus } from "@/lib/kinetics";
+
+// Invented datasets on k = 2e-12 exp(−1800 K / T) with a little scatter: eight of them, so the eighth is drawn hollow.
+const truth = (T: number, wobble: number) => 2e-12 * Math.exp(-1800 / T) * Math.exp(0.04 * Math.sin(wobble));
+const series = (n: number): SeriesPoints[] =>
+  Array.from({ length: n }, (_, i) => ({
+    label: `dataset ${i + 1}`,
+    points: [250, 300, 350, 400].map((T, j) => ({ T, lnk: Math.log(truth(T, i + j)) })),
+    ...(i === 1 ? { unused: [{ T: 450, lnk: Math.log(truth(450, 3)) }], unusedWhy: "outside the window" } : {}),
+    ...(i === 2 ? { excluded: true } : {}),
+  }));
+
+/** The attributes of each legend icon's mark, in order. */
+function legendMarks(html: string) {
+  const legend = html.slice(html.indexOf('data-testid="plot-legend"'));
+  return [...legend.matchAll(/<path[^>]*>/g)].map((m) => {
+    const attr = (name: string) => new RegExp(`${name}="([^"]*)"`).exec(m[0])?.[1];
+    return {
+      fill: attr("fill"),
+      fillOpacity: attr("fill-opacity"),
+      stroke: attr("stroke"),
+      strokeOpacity: attr("stroke-opacity"),
+      strokeWidth: attr("stroke-width"),
+      strokeDasharray: attr("stroke-dasharray"),
+    };
+  });
+}
+
+describe("the reaction page's plot legend", () => {
+  it("draws every legend mark exactly as the plot draws it: hollow stays hollow, faded stays faded and dashed", () => {
+    const s = series(8);
+    const html = renderToStaticMarkup(h(ConsensusPlot, { series: s, band: null, kUnitLabel: "cm³ molecule⁻¹ s⁻¹" }));
+    const entries = legendEntries(s, false);
+    const marks = legendMarks(html);
+    expect(marks).toHaveLength(entries.length);
+    entries.forEach((e, i) => {
+      if (e.kind !== "mark") return;
+      expect(marks[i], e.label).toEqual({
+        fill: e.style.fill,
+        fillOpacity: String(e.style.fillOpacity),
+        stroke: e.style.stroke,
+        strokeOpacity: String(e.style.strokeOpacity),
+        strokeWidth: String(e.style.strokeWidth),
+        strokeDasharray: e.style.strokeDasharray,
+      });
+    });
+    // The eighth dataset is hollow on the plot, so in the legend: a white inside and a coloured outline.
+    const hollow = marks[entries.findIndex((e) => e.label === "dataset 8")];
+    expect(hollow.fill).toBe("#ffffff");
+    expect(Number(hollow.strokeWidth)).toBeGreaterThan(0);
+    // The points the consensus does not use: faded fill, dashed outline, in the legend too.
+    const unused = marks[entries.findIndex((e) => e.label.startsWith("dataset 2: 1 point not used"))];
+    expect(unused).toMatchObject({ fillOpacity: "0.1", strokeDasharray: "2 1" });
+    // The same objects paint the plot's markers (markStyles), so the two cannot drift apart.
+    expect(markStyles(7, false).points.fill).toBe("#ffffff");
+    expect(markStyles(2, true).points.stroke).toBe("#8a939e");
+  });
+});
+
+describe("the words under the reaction page's plot", () => {
+  const sets = series(3).map((s, i) => ({
+    id: String(i + 1),
+    order: 2 as const,
+    points: s.points.map((p) => ({ T: p.T, k: Math.exp(p.lnk) })),
+  }));
+  const result = consensus(sets);
+  const labels = new Map(sets.map((d) => [d.id, `dataset ${d.id}`]));
+
+  it("never write k with a combining hat (Chromium sets it beside the k) and say the method in plain words, technical names in brackets", () => {
+    const html =
+      renderToStaticMarkup(h(ConsensusSummary, { result, kUnitLabel: "cm³ molecule⁻¹ s⁻¹", labels, caution: "Caution." })) +
+      renderToStaticMarkup(h(ConsensusComparisons, { result, labels }));
+    expect(html).not.toMatch(/\u0302/);
+    expect(html).toContain(CONSENSUS_METHOD_WORDS.replace(/'/g, "&#x27;"));
+    // The engine's terse sentence stays in the API, not on the page.
+    expect(html).not.toContain(result.method);
+    expect(CONSENSUS_METHOD_WORDS).toMatch(
+      /\(generalised least squares with a between-dataset variance τ², estimated by the DerSimonian–Laird method\)/,
+    );
+    expect(CONSENSUS_METHOD_WORDS).not.toMatch(/GLS|V_j|Q − dof|support temperatures/);
+  });
+});
