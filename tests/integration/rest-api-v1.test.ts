@@ -335,3 +335,32 @@ describe("rate limits (draft-ietf-httpapi-ratelimit-headers-10)", () => {
     expect((await call(classes.GET, "/api/v1/classes", {}, { headers: bearer(tokens.ownerRead) })).status).toBe(200);
   });
 });
+
+describe("drizzle/0027 renames stored token scopes", () => {
+  it("maps read → deposit:read and deposit → deposit:write, keeps admin, and leaves renamed tokens alone", async () => {
+    const { readFileSync } = await import("node:fs");
+    const rename = readFileSync("drizzle/0027_token_scope_names.sql", "utf8");
+    const cases: [string[], string[]][] = [
+      [["read"], ["deposit:read"]],
+      [
+        ["read", "deposit"],
+        ["deposit:read", "deposit:write"],
+      ],
+      [["deposit"], ["deposit:write"]],
+      [
+        ["admin", "read"],
+        ["admin", "deposit:read"],
+      ],
+      [["deposit:read"], ["deposit:read"]],
+    ];
+    const ids: number[] = [];
+    for (const [i, [scopes]] of cases.entries()) {
+      const [row] = await sql`insert into api_tokens (user_id, name, token_hash, prefix, scopes)
+        values (${owner.id}, ${`old ${i}`}, ${`old-scopes-${i}-${uniqueEmail("h")}`}, 'arh_key_old', ${sql.array(scopes)}) returning id`;
+      ids.push(row.id);
+    }
+    await sql.unsafe(rename);
+    const rows = await sql`select id, scopes from api_tokens where id = any(${sql.array(ids)}::int[]) order by id`;
+    expect(rows.map((r) => r.scopes)).toEqual(cases.map(([, after]) => after));
+  });
+});
