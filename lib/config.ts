@@ -68,6 +68,7 @@ const variables = {
   ANALYSIS_THREADS: { schema: wholeNumber(1, 64) },
   ANALYSIS_QUEUE_LIMIT: { schema: wholeNumber(1, 10_000) },
   ANALYSIS_TIMEOUT_MS: { schema: wholeNumber(1, 3_600_000) },
+  API_RATE_LIMIT: { schema: wholeNumber(1, 10_000_000) },
   TRUST_PROXY: {
     schema: z
       .string()
@@ -284,6 +285,11 @@ export function analysisQueueLimit(): number {
 /** Longest one validation or analysis may take, waiting included, before it is stopped (ms). */
 export function analysisTimeoutMs(): number {
   return read("ANALYSIS_TIMEOUT_MS") ?? 60_000;
+}
+
+/** Requests a minute one API client (a token's holder, else an address) may make before 429s. */
+export function apiRateLimit(): number {
+  return read("API_RATE_LIMIT") ?? 600;
 }
 
 /** The search engine: SEARCH_ENGINE when set, else meilisearch when MEILISEARCH_URL is set, else postgres. */

@@ -1,29 +1,52 @@
 // One error type for the whole app; its code maps to an HTTP status and an RFC 9457 problem.
 
-export type ErrorCode =
-  | "bad_request"
-  | "unauthenticated"
-  | "forbidden"
-  | "not_found"
-  | "conflict"
-  | "validation_failed"
-  | "rate_limited"
-  | "payload_too_large"
-  | "unavailable"
-  | "internal";
+/**
+ * Every problem type the API answers with (RFC 9457 §3.1.1 `type`): code → HTTP status, a short
+ * title and when it happens. /docs/api lists this table; the type URIs never change meaning.
+ */
+export const PROBLEM_TYPES = {
+  bad_request: { status: 400, title: "Bad request", when: "A query parameter or header is malformed (each one named)." },
+  unauthenticated: {
+    status: 401,
+    title: "Not signed in",
+    when: "The endpoint needs a token or session; or the token sent is unknown or revoked.",
+  },
+  forbidden: { status: 403, title: "Forbidden", when: "The token lacks the endpoint's scope, or the person's role may not do this." },
+  not_found: {
+    status: 404,
+    title: "Not found",
+    when: "No such record, or one you may not see (another person's draft is not found, never forbidden).",
+  },
+  conflict: {
+    status: 409,
+    title: "Conflict",
+    when: "The record is in a state that does not allow the change (e.g. a submitted version is no longer editable).",
+  },
+  precondition_failed: {
+    status: 412,
+    title: "Precondition failed",
+    when: "If-Match names a lock version that is no longer current: someone saved the draft since; fetch it again.",
+  },
+  payload_too_large: { status: 413, title: "Payload too large", when: "The body is larger than the endpoint accepts." },
+  validation_failed: {
+    status: 422,
+    title: "Validation failed",
+    when: "The body or a parameter is invalid; `errors` lists every problem with its JSON pointer.",
+  },
+  precondition_required: {
+    status: 428,
+    title: "Precondition required",
+    when: "A draft is replaced only with If-Match carrying the lock version you edited.",
+  },
+  rate_limited: { status: 429, title: "Too many requests", when: "The client's budget is spent; wait the seconds Retry-After gives." },
+  internal: { status: 500, title: "Internal error", when: "Something failed on our side; it has been logged." },
+  unavailable: { status: 503, title: "Unavailable", when: "The database is out of reach for a moment; retry after Retry-After." },
+} as const satisfies Record<string, { status: number; title: string; when: string }>;
 
-const statusByCode: Record<ErrorCode, number> = {
-  bad_request: 400,
-  unauthenticated: 401,
-  forbidden: 403,
-  not_found: 404,
-  conflict: 409,
-  validation_failed: 422,
-  rate_limited: 429,
-  payload_too_large: 413,
-  unavailable: 503,
-  internal: 500,
-};
+export type ErrorCode = keyof typeof PROBLEM_TYPES;
+
+/** The stable `type` URI of a problem code. */
+export const problemTypeUri = (code: ErrorCode) => `https://arrhenia.invalid/problems/${code.replace(/_/g, "-")}`;
 
 export interface FieldError {
   /** JSON pointer to the offending value, e.g. `/points/3/T`. */
@@ -44,13 +67,13 @@ export class AppError extends Error {
   ) {
     super(message);
     this.name = "AppError";
-    this.status = statusByCode[code];
+    this.status = PROBLEM_TYPES[code].status;
   }
 }
 
 export function problemJson(error: AppError, instance?: string) {
   return {
-    type: `https://arrhenia.invalid/problems/${error.code.replace(/_/g, "-")}`,
+    type: problemTypeUri(error.code),
     title: error.message,
     status: error.status,
     code: error.code,

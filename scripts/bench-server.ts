@@ -51,6 +51,7 @@ function startServer(): ChildProcess {
       NEXTAUTH_SECRET: secret,
       NEXT_DIST_DIR: distDir,
       SERVE_QUIET: "1",
+      API_RATE_LIMIT: "10000000", // one load generator is one client
       MAIL_CAPTURE_PORT: String(30000 + Math.floor(Math.random() * 2000)),
       DOI_FAKE_PORT: String(32000 + Math.floor(Math.random() * 1000)),
       DOI_FAKE_DATA_DIR: mkdtempSync(path.join(tmpdir(), "arrhenia-bench-doi-")),
@@ -110,7 +111,7 @@ try {
     role: "researcher",
     verified: true,
   });
-  const { secret: token } = await createApiToken({ userId: user.id, name: "bench", scopes: ["deposit"] });
+  const { secret: token } = await createApiToken({ userId: user.id, name: "bench", scopes: ["deposit:write"] });
   const auth = { authorization: `Bearer ${token}` };
   const rows: string[][] = [["scenario", "samples", "p50 ms", "p95 ms", "max ms", "db max ms", "the loaded requests"]];
   const row = (name: string, samples: Sample[], note: string) => {

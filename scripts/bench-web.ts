@@ -249,6 +249,8 @@ function startServer(): ChildProcess {
       NEXTAUTH_SECRET: `bench-${Math.random().toString(36).slice(2)}`,
       NEXT_DIST_DIR: distDir,
       SERVE_QUIET: "1",
+      // One load generator is one client: its budget would end the run in a second.
+      API_RATE_LIMIT: "10000000",
       NODE_ENV: "production",
       MAIL_CAPTURE_PORT: String(env("MAIL_CAPTURE_PORT", port + 5)),
       DOI_FAKE_PORT: String(env("DOI_FAKE_PORT", port + 7)),

@@ -24,6 +24,7 @@ DATABASE_URL="$(pg_url "$DIR" "$TEST_PORT")"; export DATABASE_URL
 MIGRATION_DATABASE_URL="$(pg_owner_url "$DIR" "$TEST_PORT")"; export MIGRATION_DATABASE_URL
 export NEXTAUTH_SECRET="test-secret-$(head -c 16 /dev/urandom | od -An -tx1 | tr -d ' \n')"
 export BCRYPT_ROUNDS=4 # fast hashes in the throwaway cluster only
+export API_RATE_LIMIT=1000000 # the suites share one client address; the 429 test spends a budget itself
 export NEXT_DIST_DIR=.next-test # never the build that npm start serves
 TSX=(node_modules/.bin/tsx --conditions=react-server)
 

@@ -90,11 +90,11 @@ export function CreateTokenForm({ canAdmin }: { canAdmin: boolean }) {
       <fieldset className="space-y-1">
         <legend className="text-sm font-medium">Scopes</legend>
         <label className="flex items-center gap-2 text-sm">
-          <input type="checkbox" name="scopes" value="read" defaultChecked /> read — fetch datasets, including your drafts
+          <input type="checkbox" name="scopes" value="deposit:read" defaultChecked /> deposit:read — fetch datasets, including your drafts
         </label>
         <label className="flex items-center gap-2 text-sm">
-          <input type="checkbox" name="scopes" value="deposit" /> deposit — create and edit your drafts, submit and withdraw them; for
-          curators also review decisions
+          <input type="checkbox" name="scopes" value="deposit:write" /> deposit:write — create and edit your drafts, submit and withdraw
+          them; for curators also review decisions
         </label>
         {canAdmin && (
           <label className="flex items-center gap-2 text-sm">

@@ -2,11 +2,14 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError, type z } from "zod";
 import { AppError, databaseUnavailable, problemJson, storageRefusal, type FieldError } from "@/lib/errors";
+import { withValidators, type CachePolicy } from "@/lib/http/conditional";
 import { BODY_LIMITS, isClientAbort, readJsonBodyOrThrow } from "@/lib/http/read-body";
 import { describeUnstorableText, findUnstorableText } from "@/lib/storable-text";
 import { getUserByApiToken, type ApiTokenScope, type UserDto } from "@/lib/users/queries";
+import { clientAddress } from "./client-address";
 import { assertAllowed } from "./guard";
 import type { Permission } from "./permissions";
+import { apiBudgetHeaders, consumeApiBudget, type ApiBudget } from "./rate-limit";
 import { getCurrentUser } from "./session";
 
 export interface ApiContext<P> {
@@ -17,7 +20,8 @@ export interface ApiContext<P> {
 
 /**
  * Scopes a personal token must hold for an endpoint; a browser session holds them all.
- * read: GET what the person may see; deposit: create, edit and move versions; admin: people.
+ * deposit:read: GET what the person may see (their drafts too); deposit:write: create, edit and
+ * move versions; admin: people.
  */
 export type ApiScope = ApiTokenScope;
 
@@ -28,6 +32,8 @@ export interface ApiOptions {
   identify?: boolean;
   /** The token scope the endpoint needs; null only for public endpoints that ignore the caller. */
   scope: ApiScope | null;
+  /** A public read anyone may cache: ETag, Cache-Control and 304 (lib/http/conditional.ts). */
+  cache?: CachePolicy;
 }
 
 const escapePointer = (p: PropertyKey) => String(p).replace(/~/g, "~0").replace(/\//g, "~1");
@@ -91,7 +97,7 @@ async function resolveToken(secret: string, scope: ApiScope | null): Promise<Use
   if (!found) throw new AppError("unauthenticated", "The API token is unknown or revoked");
   // A token that may change things may also read what its holder may see.
   const held = new Set<ApiScope>(found.scopes);
-  if (held.has("deposit") || held.has("admin")) held.add("read");
+  if (held.has("deposit:write") || held.has("admin")) held.add("deposit:read");
   if (scope && !held.has(scope)) throw new AppError("forbidden", `This token lacks the “${scope}” scope`);
   return found.user;
 }
@@ -129,9 +135,17 @@ export function withApi<P = Record<string, string>>(
   // Checked when the route module loads, so an endpoint that forgets its scope never serves.
   if ((options.permission || options.identify) && !options.scope)
     throw new Error("withApi: an endpoint that knows its caller must declare the token scope it needs");
+  if (options.cache && (options.permission || options.identify))
+    throw new Error("withApi: only a public endpoint that ignores its caller may be cached by anyone");
   const route = async (req: Request, context: { params: Promise<P> }) => {
     const url = new URL(req.url);
     const instance = url.pathname;
+    let budget: ApiBudget | null = null;
+    // Every answer after the count says what is left of the client's budget.
+    const counted = (res: Response) => {
+      if (budget) for (const [name, value] of Object.entries(apiBudgetHeaders(budget))) res.headers.set(name, value);
+      return res;
+    };
     try {
       assertStorableQuery(url);
       const secret = bearerSecretOrThrow(req);
@@ -139,15 +153,24 @@ export function withApi<P = Record<string, string>>(
       // Public endpoints skip the session look-up unless they ask for it.
       const user =
         secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
+      budget = await consumeApiBudget(user ? `user:${user.id}` : `address:${clientAddress(req)}`);
+      if (budget.spent)
+        throw new AppError(
+          "rate_limited",
+          `Too many requests from this client: ${budget.limit} a minute; try again in ${budget.resetSeconds} s`,
+          [],
+          budget.resetSeconds,
+        );
       if (options.permission) assertAllowed(user, { permission: options.permission });
-      return await handler({ req, user, params: await context.params });
+      const res = await handler({ req, user, params: await context.params });
+      return counted(options.cache ? await withValidators(req, res, options.cache) : res);
     } catch (err) {
-      if (err instanceof AppError) return problemResponse(err, instance);
+      if (err instanceof AppError) return counted(problemResponse(err, instance));
       // Checked before the database's codes: a closed client socket also reads as ECONNRESET.
       const aborted = clientAbortResponse(req, err, instance);
       if (aborted) return aborted;
       if (err instanceof ZodError)
-        return problemResponse(new AppError("validation_failed", "Invalid input", zodToFieldErrors(err)), instance);
+        return counted(problemResponse(new AppError("validation_failed", "Invalid input", zodToFieldErrors(err)), instance));
       const unavailable = databaseUnavailable(err);
       if (unavailable) {
         console.warn(`[api] ${req.method} ${instance}: database out of reach`, (err as Error).message);

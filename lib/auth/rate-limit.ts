@@ -1,7 +1,7 @@
 import "server-only";
 import pg from "pg";
 import { RateLimiterPostgres, RateLimiterRes } from "rate-limiter-flexible";
-import { databaseUrl } from "@/lib/config";
+import { apiRateLimit, databaseUrl } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 
 // Counters live in PostgreSQL (table rate_limits, created by our migrations) so limits hold
@@ -17,7 +17,8 @@ type LimiterName =
   | "resetIp"
   | "confirmEmail"
   | "confirmIp"
-  | "analysisIp";
+  | "analysisIp"
+  | "api";
 
 const limits: Record<LimiterName, { points: number; duration: number; blockDuration?: number }> = {
   // Failed sign-ins from one address across accounts (successes are not counted).
@@ -34,6 +35,8 @@ const limits: Record<LimiterName, { points: number; duration: number; blockDurat
   confirmEmail: { points: 3, duration: 60 * 60 },
   confirmIp: { points: 10, duration: 60 * 60 },
   analysisIp: { points: 120, duration: 60 },
+  // Every REST API request of one client (points: API_RATE_LIMIT, read when the limiter is made).
+  api: { points: 600, duration: 60 },
 };
 
 const globalForLimits = globalThis as unknown as { arrheniaLimiters?: Map<LimiterName, RateLimiterPostgres>; arrheniaLimitPool?: pg.Pool };
@@ -59,6 +62,7 @@ function limiter(name: LimiterName): RateLimiterPostgres {
       tableCreated: true,
       keyPrefix: name,
       ...limits[name],
+      ...(name === "api" ? { points: apiRateLimit() } : {}),
     });
     globalForLimits.arrheniaLimiters.set(name, l);
   }
@@ -109,4 +113,50 @@ export async function recordFailure(name: LimiterName, key: string): Promise<voi
 export async function isSpent(name: LimiterName, key: string): Promise<boolean> {
   const res = await limiter(name).get(key.toLowerCase());
   return res !== null && res.remainingPoints <= 0;
+}
+
+/** What is left of one API client's budget in the current window. */
+export interface ApiBudget {
+  limit: number;
+  remaining: number;
+  /** Seconds until the window ends and the budget is whole again. */
+  resetSeconds: number;
+  spent: boolean;
+}
+
+/** The policy's name in the RateLimit and RateLimit-Policy fields. */
+export const API_POLICY_NAME = "api";
+
+/** Counts one API request of a client (`user:<id>` or `address:<ip>`); a spent budget is returned, not thrown. */
+export async function consumeApiBudget(key: string): Promise<ApiBudget> {
+  const l = limiter("api");
+  const toBudget = (res: RateLimiterRes, spent: boolean): ApiBudget => ({
+    limit: l.points,
+    remaining: Math.max(0, res.remainingPoints),
+    resetSeconds: Math.max(1, Math.ceil(res.msBeforeNext / 1000)),
+    spent,
+  });
+  try {
+    return toBudget(await l.consume(key), false);
+  } catch (err) {
+    if (err instanceof RateLimiterRes) return toBudget(err, true);
+    throw err;
+  }
+}
+
+/** Spends `points` of a client's API budget at once (an operator's penalty; the tests' way to reach the limit). */
+export async function spendApiBudget(key: string, points: number): Promise<void> {
+  await limiter("api").penalty(key, points);
+}
+
+/**
+ * The budget as HTTP fields, following draft-ietf-httpapi-ratelimit-headers-10 (structured
+ * fields): `RateLimit-Policy: "api";q=600;w=60` (quota per window of seconds) and
+ * `RateLimit: "api";r=598;t=42` (remaining, seconds until the window resets).
+ */
+export function apiBudgetHeaders(b: ApiBudget): Record<string, string> {
+  return {
+    "ratelimit-policy": `"${API_POLICY_NAME}";q=${b.limit};w=${limits.api.duration}`,
+    ratelimit: `"${API_POLICY_NAME}";r=${b.remaining};t=${b.resetSeconds}`,
+  };
 }

@@ -182,6 +182,17 @@ export type SearchParamsResult = { ok: true; request: SearchRequest } | { ok: fa
  * does not know is an error too (a mistyped `tmin` must not be ignored silently); the page ignores
  * them. On failure, `request` holds every parameter that was valid (the page still shows them).
  */
+/**
+ * Every query parameter with the schema that reads one of its values (list filters: the values
+ * of all its occurrences), as the API document describes them.
+ */
+export function searchParameterSchemas(): Record<string, z.ZodType> {
+  const lists: Record<string, z.ZodType> = Object.fromEntries(
+    (Object.keys(FILTER_PARAMETERS) as ListFilter[]).map((f) => [FILTER_PARAMETERS[f], listSchema(f)]),
+  );
+  return { ...single, ...lists };
+}
+
 export function parseSearchParams(params: RawSearchParams, { strict = false }: { strict?: boolean } = {}): SearchParamsResult {
   const errors: FieldError[] = [];
   const request: SearchRequest = { ...DEFAULT_REQUEST, filters: { ...EMPTY_FILTERS } };

@@ -1,4 +1,5 @@
 import "server-only";
+import type { ApiTokenScope } from "./schemas";
 import { and, asc, count, desc, eq, gt, isNull, sql } from "drizzle-orm";
 import { getDb, type Database, type Transaction } from "@/db/client";
 import { apiTokens, oneTimeTokens } from "@/db/tokens";
@@ -286,8 +287,7 @@ export async function consumeOneTimeTokenOrThrow({ secret, purpose }: { secret: 
 
 // ---- personal API tokens ----
 
-export const apiTokenScopes = ["read", "deposit", "admin"] as const;
-export type ApiTokenScope = (typeof apiTokenScopes)[number];
+export { apiTokenScopes, type ApiTokenScope } from "./schemas";
 
 export interface ApiTokenDto {
   id: number;

@@ -55,13 +55,17 @@ export const resetPasswordSchema = z
   .object({ token: z.string().min(10).max(512), password: passwordField, confirm: z.string().max(200) })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 
+/** A personal token's scopes, as /docs/api publishes them (drizzle/0027 renamed the stored ones). */
+export const apiTokenScopes = ["deposit:read", "deposit:write", "admin"] as const;
+export type ApiTokenScope = (typeof apiTokenScopes)[number];
+
 export const createTokenSchema = z.object({
   name: z.string().trim().min(1, "Name the token, e.g. the script that uses it").max(100),
   scopes: z
     .union([z.string(), z.array(z.string())])
     .optional()
     .transform((v) => (v === undefined ? [] : Array.isArray(v) ? v : [v]))
-    .pipe(z.array(z.enum(["read", "deposit", "admin"])).min(1, "Choose at least one scope")),
+    .pipe(z.array(z.enum(apiTokenScopes)).min(1, "Choose at least one scope")),
 });
 
 export const roleChangeSchema = z.object({
@@ -73,3 +77,9 @@ export const activeChangeSchema = z.object({
   userId: idFor("person"),
   active: z.enum(["true", "false"]).transform((v) => v === "true"),
 });
+
+/** The body of PATCH /api/v1/users/:id (the route and the API document share it). */
+export const userPatchSchema = z
+  .object({ role: z.enum(["researcher", "curator", "admin"]).optional(), active: z.boolean().optional() })
+  .strict()
+  .refine((v) => v.role !== undefined || v.active !== undefined, { message: "Give `role`, `active`, or both" });

@@ -72,14 +72,14 @@ describe("form actions on one's own account, per role", () => {
 
     it(`createTokenAction and revokeTokenAction: ${who} → ${allowed ? "own tokens only" : "refused"}`, async () => {
       as(who);
-      const created = await createTokenAction(idleState, form({ name: "script", scopes: ["read"] }));
+      const created = await createTokenAction(idleState, form({ name: "script", scopes: ["deposit:read"] }));
       expect(created.status).toBe(allowed ? "ok" : "error");
-      const { token: othersToken } = await createApiToken({ userId: other.id, name: "theirs", scopes: ["read"] });
+      const { token: othersToken } = await createApiToken({ userId: other.id, name: "theirs", scopes: ["deposit:read"] });
       const revoked = await revokeTokenAction(idleState, form({ tokenId: String(othersToken.id) }));
       expect(revoked.status).toBe("error");
       expect((await sql`select revoked_at from api_tokens where id = ${othersToken.id}`)[0].revoked_at).toBeNull();
       if (allowed) {
-        const { token: mine } = await createApiToken({ userId: people[who]!.id, name: "mine", scopes: ["read"] });
+        const { token: mine } = await createApiToken({ userId: people[who]!.id, name: "mine", scopes: ["deposit:read"] });
         expect((await revokeTokenAction(idleState, form({ tokenId: String(mine.id) }))).status).toBe("ok");
       }
     });

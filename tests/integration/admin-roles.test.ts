@@ -128,7 +128,7 @@ describe("role change by an admin is audited", () => {
   it("deactivation is audited and revokes the person's API tokens", async () => {
     signInAs(admin);
     const target = await createUser({ email: uniqueEmail("leaver"), name: "Leaver", passwordHash: "x", verified: true });
-    await sql`insert into api_tokens (user_id, name, token_hash, prefix, scopes) values (${target.id}, 'script', ${"h" + target.id}, 'arr_pat_xxxx', ${sql.array(["read"])})`;
+    await sql`insert into api_tokens (user_id, name, token_hash, prefix, scopes) values (${target.id}, 'script', ${"h" + target.id}, 'arr_pat_xxxx', ${sql.array(["deposit:read"])})`;
     const state = await setActiveAction(idleState, form({ userId: String(target.id), active: "false" }));
     expect(state.status).toBe("ok");
     const [u] = await sql`select deactivated_at from users where id = ${target.id}`;

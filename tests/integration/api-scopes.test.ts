@@ -4,6 +4,16 @@ vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn().mockResolvedValue
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
 
 import * as analyses from "@/app/api/v1/analyses/route";
+import * as classes from "@/app/api/v1/classes/route";
+import * as datasetById from "@/app/api/v1/datasets/[id]/route";
+import * as versionAnalysis from "@/app/api/v1/datasets/[id]/versions/[n]/analysis/route";
+import * as versionPoints from "@/app/api/v1/datasets/[id]/versions/[n]/points/route";
+import * as versionByNumber from "@/app/api/v1/datasets/[id]/versions/[n]/route";
+import * as deposits from "@/app/api/v1/deposits/route";
+import * as openapi from "@/app/api/v1/openapi.json/route";
+import * as reactionByKey from "@/app/api/v1/reactions/[id]/route";
+import * as speciesByKey from "@/app/api/v1/species/[inchikey]/route";
+import * as validate from "@/app/api/v1/validate/route";
 import * as datasetCitation from "@/app/api/v1/datasets/[id]/citation/route";
 import * as dataciteJson from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.json/route";
 import * as dataciteXml from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.xml/route";
@@ -36,6 +46,16 @@ import { sql, uniqueEmail, uniqueIp } from "./helpers";
 
 const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/analyses": analyses,
+  "/api/v1/classes": classes,
+  "/api/v1/datasets/:id": datasetById,
+  "/api/v1/datasets/:id/versions/:n": versionByNumber,
+  "/api/v1/datasets/:id/versions/:n/points": versionPoints,
+  "/api/v1/datasets/:id/versions/:n/analysis": versionAnalysis,
+  "/api/v1/deposits": deposits,
+  "/api/v1/openapi.json": openapi,
+  "/api/v1/reactions/:id": reactionByKey,
+  "/api/v1/species/:inchikey": speciesByKey,
+  "/api/v1/validate": validate,
   "/api/v1/datasets": datasets,
   "/api/v1/datasets/:id/citation": datasetCitation,
   "/api/v1/datasets/:id/versions/:n/datacite.json": dataciteJson,
@@ -112,9 +132,9 @@ describe("admin endpoints and token scopes", () => {
     });
 
   const table: [string, ApiTokenScope[], number][] = [
-    ["read", ["read"], 403],
-    ["deposit", ["deposit"], 403],
-    ["read + deposit", ["read", "deposit"], 403],
+    ["deposit:read", ["deposit:read"], 403],
+    ["deposit:write", ["deposit:write"], 403],
+    ["read + deposit", ["deposit:read", "deposit:write"], 403],
     ["none", [], 403],
     ["admin", ["admin"], 200],
   ];
@@ -145,7 +165,7 @@ describe("admin endpoints and token scopes", () => {
 
 describe("revoked tokens are refused everywhere", () => {
   it("on public endpoints that ignore the caller, on endpoints that identify, and on protected ones", async () => {
-    const { secret, token } = await createApiToken({ userId: researcher.id, name: "old", scopes: ["read", "deposit"] });
+    const { secret, token } = await createApiToken({ userId: researcher.id, name: "old", scopes: ["deposit:read", "deposit:write"] });
     await revokeApiToken({ userId: researcher.id, tokenId: token.id });
     const auth = { authorization: `Bearer ${secret}`, "x-forwarded-for": uniqueIp() };
     const calls: [string, Promise<Response>][] = [
@@ -219,7 +239,7 @@ describe("creating a token with the admin scope", () => {
     it(`${who} → ${status}`, async () => {
       vi.mocked(getCurrentUser).mockResolvedValue(user());
       const [{ n: before }] = await sql`select count(*)::int as n from api_tokens where user_id = ${user().id}`;
-      const out = await createTokenAction(idleState, form(["read", "admin"]));
+      const out = await createTokenAction(idleState, form(["deposit:read", "admin"]));
       expect(out.status).toBe(status);
       const [{ n: after }] = await sql`select count(*)::int as n from api_tokens where user_id = ${user().id}`;
       expect(after - before).toBe(status === "ok" ? 1 : 0);
@@ -240,9 +260,9 @@ describe("a token that may change things may also read", () => {
           { params: Promise.resolve({ id: String(published.id) }) },
         )
       ).status;
-    expect(await get(["deposit"])).toBe(200);
+    expect(await get(["deposit:write"])).toBe(200);
     expect(await get(["admin"])).toBe(200);
-    expect(await get(["read"])).toBe(200);
+    expect(await get(["deposit:read"])).toBe(200);
     expect(await get([])).toBe(403);
   });
 });
@@ -272,7 +292,7 @@ describe("an Authorization header that is not one bearer token is a 401, never a
     });
   }
   it("the scheme name is case-insensitive (RFC 9110 §11.1): “bearer <valid token>” is served", async () => {
-    const secret = await tokenFor(researcher, ["read"]);
+    const secret = await tokenFor(researcher, ["deposit:read"]);
     const res = await speciesPreview.GET(
       new Request("http://127.0.0.1/api/v1/species/preview?smiles=C", {
         headers: { authorization: `bearer ${secret}`, "x-forwarded-for": uniqueIp() },

@@ -10,7 +10,7 @@ import { sql, uniqueEmail } from "./helpers";
 describe("personal API tokens", () => {
   it("stores only the SHA-256 of the secret and resolves the bearer to its owner", async () => {
     const user = await createUser({ email: uniqueEmail("tok"), name: "Token Owner", passwordHash: "x", verified: true });
-    const { secret, token } = await createApiToken({ userId: user.id, name: "upload script", scopes: ["read", "deposit"] });
+    const { secret, token } = await createApiToken({ userId: user.id, name: "upload script", scopes: ["deposit:read", "deposit:write"] });
     expect(secret).toMatch(/^arh_key_/);
     const [row] = await sql`select token_hash, prefix from api_tokens where id = ${token.id}`;
     expect(row.token_hash).toBe(hashSecret(secret));
@@ -18,7 +18,7 @@ describe("personal API tokens", () => {
     expect(secret.startsWith(row.prefix)).toBe(true);
     const found = await getUserByApiToken({ secret });
     expect(found?.user.id).toBe(user.id);
-    expect(found?.scopes).toEqual(["read", "deposit"]);
+    expect(found?.scopes).toEqual(["deposit:read", "deposit:write"]);
     const [used] = await sql`select last_used_at from api_tokens where id = ${token.id}`;
     expect(used.last_used_at).toBeInstanceOf(Date);
     const listed = await listApiTokens({ userId: user.id });
@@ -28,7 +28,7 @@ describe("personal API tokens", () => {
   it("a revoked token stops working; another person cannot revoke it", async () => {
     const owner = await createUser({ email: uniqueEmail("own"), name: "Owner", passwordHash: "x", verified: true });
     const other = await createUser({ email: uniqueEmail("oth"), name: "Other", passwordHash: "x", verified: true });
-    const { secret, token } = await createApiToken({ userId: owner.id, name: "t", scopes: ["read"] });
+    const { secret, token } = await createApiToken({ userId: owner.id, name: "t", scopes: ["deposit:read"] });
     await expect(revokeApiToken({ userId: other.id, tokenId: token.id })).rejects.toThrow(/No such active token/);
     expect(await getUserByApiToken({ secret })).not.toBeNull();
     await revokeApiToken({ userId: owner.id, tokenId: token.id });

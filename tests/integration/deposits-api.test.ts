@@ -82,7 +82,7 @@ describe("POST /api/v1/datasets", () => {
   it("refuses anonymous callers and tokens without the deposit scope", async () => {
     as(null);
     expect((await createDataset(req("/api/v1/datasets", { method: "POST", body: doc() }), ctx())).status).toBe(401);
-    const { secret } = await createApiToken({ userId: owner.id, name: "read only", scopes: ["read"] });
+    const { secret } = await createApiToken({ userId: owner.id, name: "read only", scopes: ["deposit:read"] });
     const res = await createDataset(
       req("/api/v1/datasets", { method: "POST", body: doc(), headers: { authorization: `Bearer ${secret}` } }),
       ctx(),
@@ -177,7 +177,7 @@ describe("GET and PUT /api/v1/versions/:id, per role", () => {
     }
   });
 
-  it("owner and editor save; viewer, stranger and curator cannot; a stale lock version gets 409 and changes nothing", async () => {
+  it("owner and editor save; viewer, stranger and curator cannot; a stale lock version gets 412 and changes nothing", async () => {
     const { versionId } = await withMembers();
     const put = (user: UserDto | null, lock: number, body = doc({ title: `Edited by ${user?.name}` })) => {
       as(user);
@@ -193,7 +193,7 @@ describe("GET and PUT /api/v1/versions/:id, per role", () => {
     const ok = await put(editor, 1);
     expect(ok.status).toBe(200);
     expect(ok.headers.get("etag")).toBe('"2"');
-    expect((await put(owner, 1)).status).toBe(409);
+    expect((await put(owner, 1)).status).toBe(412);
     // A failed upload leaves the draft as it was.
     expect(
       (

@@ -6,7 +6,11 @@ vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn(), unstable_cache: (fn: () => unknown) => fn }));
 
 import { changeRoleAction, setActiveAction } from "@/app/admin/people/actions";
+import * as datasetRoute from "@/app/api/v1/datasets/[id]/route";
+import * as datasetVersionRoute from "@/app/api/v1/datasets/[id]/versions/[n]/route";
 import * as filesRoute from "@/app/api/v1/files/[fileId]/route";
+import * as reactionRoute from "@/app/api/v1/reactions/[id]/route";
+import * as speciesRoute from "@/app/api/v1/species/[inchikey]/route";
 import * as reactionConsensusRoute from "@/app/api/v1/reactions/[id]/consensus/route";
 import * as usersRoute from "@/app/api/v1/users/[id]/route";
 import * as versionFilesRoute from "@/app/api/v1/versions/[id]/files/route";
@@ -100,6 +104,11 @@ const apiCases: [string, string, Handler, string, () => RequestInit][] = [
   ],
   ["GET", "/api/v1/files/[fileId]", filesRoute.GET as Handler, "fileId", () => ({})],
   ["GET", "/api/v1/reactions/[id]/consensus", reactionConsensusRoute.GET as Handler, "id", () => ({})],
+  ["GET", "/api/v1/datasets/[id]", datasetRoute.GET as Handler, "id", () => ({})],
+  ["GET", "/api/v1/datasets/[id]/versions/[n]", datasetVersionRoute.GET as Handler, "id", () => ({})],
+  // Named by a reaction key or an InChIKey: a number that is no id, or anything malformed, is not found either.
+  ["GET", "/api/v1/reactions/[id]", reactionRoute.GET as Handler, "id", () => ({})],
+  ["GET", "/api/v1/species/[inchikey]", speciesRoute.GET as Handler, "inchikey", () => ({})],
   ["DELETE", "/api/v1/files/[fileId]", filesRoute.DELETE as Handler, "fileId", () => ({ method: "DELETE" })],
   [
     "PATCH",

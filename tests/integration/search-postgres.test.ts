@@ -231,7 +231,7 @@ describe("visibility per role", () => {
             await createApiToken({
               userId: u.id,
               name: "vis",
-              scopes: ["read", "deposit", ...(u.role === "admin" ? (["admin"] as const) : [])],
+              scopes: ["deposit:read", "deposit:write", ...(u.role === "admin" ? (["admin"] as const) : [])],
             })
           ).secret,
       ),

@@ -2,7 +2,9 @@ import type { Metadata } from "next";
 import { publicPageMetadata } from "@/lib/page-metadata";
 import { CAUTION, MAX_POINTS } from "@/lib/analyses/analyse-request";
 import { endpointScopes } from "@/lib/auth/endpoint-scopes";
-import { appUrl } from "@/lib/config";
+import { apiRateLimit, appUrl } from "@/lib/config";
+import { RATE_LIMIT_DRAFT } from "@/lib/api/openapi";
+import { ApiReference } from "./api-reference";
 import { ANALYSIS_CONVENTIONS, CONSENSUS_CONVENTIONS } from "@/lib/kinetics/conventions";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
 import { METHOD_CATEGORIES, PHASES, REACTION_CLASSES } from "@/lib/deposits/vocabulary";
@@ -43,9 +45,12 @@ export default function ApiDocsPage() {
       <header className="space-y-2">
         <h1 className="text-3xl font-semibold">API</h1>
         <p className="text-muted">
-          JSON over HTTP. Errors are <code>application/problem+json</code> (RFC 9457) with a stable <code>code</code>; validation errors
-          carry an <code>errors</code> list of JSON pointers (RFC 6901) and plain messages. Scripts authenticate with a personal token from
-          Settings: <code>Authorization: Bearer arh_key_…</code>.
+          JSON over HTTP. Errors are <code>application/problem+json</code> (RFC 9457) with a stable <code>type</code> and <code>code</code>{" "}
+          (the list is under <a href="#problems">Problem types</a>); validation errors carry an <code>errors</code> list of JSON pointers
+          (RFC 6901) and plain messages. Scripts authenticate with a personal token from Settings:{" "}
+          <code>Authorization: Bearer arh_key_…</code>. The whole API is described as an OpenAPI 3.1 document at{" "}
+          <a href="/api/v1/openapi.json">/api/v1/openapi.json</a>; the <a href="#reference">endpoint reference</a> below is rendered from
+          it.
         </p>
       </header>
 
@@ -54,11 +59,13 @@ export default function ApiDocsPage() {
           Tokens and scopes
         </h2>
         <p className="text-sm">
-          A token carries one or more scopes, chosen when it is created: <code>read</code> (fetch what you may see, including your drafts),{" "}
-          <code>deposit</code> (create, edit, submit and withdraw your datasets; for curators also review decisions) and <code>admin</code>{" "}
-          (people and roles; offered to admins only); <code>deposit</code> and <code>admin</code> include <code>read</code>. An endpoint
-          answers 403 to a token without the scope it needs, even when the person holds the role; a revoked or unknown token is refused with
-          401 on every endpoint, public ones included. Ids in paths are whole numbers from 1 to 2147483647; anything else is 404.
+          A token carries one or more scopes, chosen when it is created: <code>deposit:read</code> (fetch what you may see, including your
+          drafts, list your deposits, validate a document), <code>deposit:write</code> (create, replace, submit and withdraw your drafts;
+          for curators also review decisions) and <code>admin</code> (people and roles; offered to admins only); <code>deposit:write</code>{" "}
+          and <code>admin</code> include <code>deposit:read</code>. Tokens made before these names keep their rights (<code>read</code>{" "}
+          became <code>deposit:read</code>, <code>deposit</code> became <code>deposit:write</code>). An endpoint answers 403 to a token
+          without the scope it needs, even when the person holds the role; a revoked or unknown token is refused with 401 on every endpoint,
+          public ones included. Ids in paths are whole numbers from 1 to 2147483647; anything else is 404.
         </p>
         <ScrollRegion label="Endpoints and their scopes">
           <table className="table text-sm">
@@ -85,6 +92,28 @@ export default function ApiDocsPage() {
           </table>
         </ScrollRegion>
       </section>
+
+      <section className="space-y-3" aria-labelledby="caching">
+        <h2 id="caching" className="text-2xl font-semibold">
+          Caching and rate limits
+        </h2>
+        <p className="text-sm">
+          Public reads (datasets, versions, points, analyses, reactions, species, classes, search and this API&apos;s document) send a
+          strong <code>ETag</code> and <code>Cache-Control: public, max-age=60</code>; send the tag back as <code>If-None-Match</code> and
+          an unchanged answer is <code>304 Not Modified</code> with no body. A draft&apos;s <code>GET /api/v1/versions/:id</code> carries
+          its lock version as its ETag: replace it with <code>PUT</code> and <code>If-Match</code> set to that tag (412 when someone saved
+          since, 428 without the header).
+        </p>
+        <p className="text-sm">
+          Each client — a token&apos;s holder, or else the network address — may make {apiRateLimit().toLocaleString("en")} requests a
+          minute. Every answer says how much is left, in the fields of {RATE_LIMIT_DRAFT} (IETF HTTPAPI working group):{" "}
+          <code>RateLimit-Policy: &quot;api&quot;;q={apiRateLimit()};w=60</code> (quota per window of seconds) and{" "}
+          <code>RateLimit: &quot;api&quot;;r=…;t=…</code> (requests left, seconds until the window resets). Past the limit the answer is 429
+          (<code>rate_limited</code>) with <code>Retry-After</code> in seconds.
+        </p>
+      </section>
+
+      <ApiReference base={appUrl()} />
 
       <section className="space-y-3" aria-labelledby="analyses">
         <h2 id="analyses" className="text-2xl font-semibold">

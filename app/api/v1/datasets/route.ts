@@ -1,10 +1,28 @@
+// GET /api/v1/datasets — published and retracted datasets matching the search parameters, a page at a time (cursor)
 // POST /api/v1/datasets — deposit a new dataset (a draft) from a deposit document (Idempotency-Key honoured)
+import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
+import { AppError } from "@/lib/errors";
+import { PUBLIC_READ_CACHE } from "@/lib/http/conditional";
+import { parseSearchParamsOrThrow, searchAnswer } from "@/lib/search";
 import { depositNewDataset } from "@/lib/datasets/deposits";
 import type { VersionDto } from "@/lib/datasets/queries";
 import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
 import { readBodyOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
+
+export const GET = withApi(
+  async ({ req }) => {
+    const request = parseSearchParamsOrThrow(new URL(req.url).searchParams, { strict: true });
+    // Datasets only: the reactions view is /api/v1/search?view=reactions.
+    if (request.view !== "datasets")
+      throw new AppError("bad_request", "This endpoint lists datasets; for reactions use /api/v1/search?view=reactions", [
+        { pointer: "/view", parameter: "view", message: "view must be datasets here", value: request.view },
+      ]);
+    return NextResponse.json(await searchAnswer(request));
+  },
+  { scope: null, cache: PUBLIC_READ_CACHE },
+);
 
 export const POST = withApi(
   async ({ req, user }) => {
@@ -33,5 +51,5 @@ export const POST = withApi(
       },
     });
   },
-  { permission: "dataset.deposit", scope: "deposit" },
+  { permission: "dataset.deposit", scope: "deposit:write" },
 );

@@ -1,9 +1,13 @@
 // GET /api/v1/search — published and retracted datasets (or their reactions) matching text, species, reaction patterns and filters
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
+import { PUBLIC_READ_CACHE } from "@/lib/http/conditional";
 import { parseSearchParamsOrThrow, searchAnswer } from "@/lib/search";
 
-export const GET = withApi(async ({ req }) => {
-  const request = parseSearchParamsOrThrow(new URL(req.url).searchParams, { strict: true });
-  return NextResponse.json(await searchAnswer(request));
-});
+export const GET = withApi(
+  async ({ req }) => {
+    const request = parseSearchParamsOrThrow(new URL(req.url).searchParams, { strict: true });
+    return NextResponse.json(await searchAnswer(request));
+  },
+  { scope: null, cache: PUBLIC_READ_CACHE },
+);

@@ -19,7 +19,7 @@ export const GET = withApi<{ fileId: string }>(
       },
     });
   },
-  { identify: true, scope: "read" },
+  { identify: true, scope: "deposit:read" },
 );
 
 export const DELETE = withApi<{ fileId: string }>(
@@ -27,5 +27,5 @@ export const DELETE = withApi<{ fileId: string }>(
     await removeVersionFile({ actor: user!, fileId: idOf(params.fileId) });
     return new Response(null, { status: 204 });
   },
-  { permission: "dataset.deposit", scope: "deposit" },
+  { permission: "dataset.deposit", scope: "deposit:write" },
 );

@@ -1,20 +1,15 @@
 // PATCH /api/v1/users/:id — change a person's role or deactivate the account (admins only, audited)
 import { NextResponse } from "next/server";
-import { z } from "zod";
 import { parseJsonBody, withApi } from "@/lib/auth/api";
 import { AppError } from "@/lib/errors";
 import { parseIdOrThrow } from "@/lib/ids";
 import { changeUserRole, getUserById, setUserActive } from "@/lib/users/queries";
-
-const patchSchema = z
-  .object({ role: z.enum(["researcher", "curator", "admin"]).optional(), active: z.boolean().optional() })
-  .strict()
-  .refine((v) => v.role !== undefined || v.active !== undefined, { message: "Give `role`, `active`, or both" });
+import { userPatchSchema } from "@/lib/users/schemas";
 
 export const PATCH = withApi<{ id: string }>(
   async ({ req, user, params }) => {
     const id = parseIdOrThrow(params.id, "person");
-    const body = await parseJsonBody(req, patchSchema);
+    const body = await parseJsonBody(req, userPatchSchema);
     if (body.role) await changeUserRole({ actorId: user!.id, userId: id, role: body.role });
     if (body.active !== undefined) await setUserActive({ actorId: user!.id, userId: id, active: body.active });
     const updated = await getUserById({ id });

@@ -18,7 +18,7 @@ export const GET = withApi<{ id: string }>(
     await getVisibleVersionOrThrow({ versionId, viewer: user });
     return NextResponse.json({ data: await listVersionFiles({ versionId }) });
   },
-  { identify: true, scope: "read" },
+  { identify: true, scope: "deposit:read" },
 );
 
 export const POST = withApi<{ id: string }>(
@@ -46,5 +46,5 @@ export const POST = withApi<{ id: string }>(
       },
     });
   },
-  { permission: "dataset.deposit", scope: "deposit" },
+  { permission: "dataset.deposit", scope: "deposit:write" },
 );

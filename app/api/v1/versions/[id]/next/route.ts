@@ -25,5 +25,5 @@ export const POST = withApi<{ id: string }>(
       },
     });
   },
-  { permission: "dataset.deposit", scope: "deposit" },
+  { permission: "dataset.deposit", scope: "deposit:write" },
 );

@@ -1,25 +1,12 @@
 // POST /api/v1/versions/:id/transitions — submit, withdraw, review, decide or retract a version (Idempotency-Key honoured)
-import { z } from "zod";
 import { withApi, zodToFieldErrors } from "@/lib/auth/api";
-import { REPLY_MAX } from "@/lib/curation/capabilities";
+import { transitionRequestSchema } from "@/lib/curation/transition-request";
 import type { TransitionOutcome } from "@/lib/curation/transitions";
 import { transitionVersion } from "@/lib/datasets/deposits";
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, parseJsonBytesOrThrow, readBodyOrThrow } from "@/lib/http/read-body";
 import { withIdempotency } from "@/lib/idempotency";
 import { parseIdOrThrow } from "@/lib/ids";
-
-const bodySchema = z
-  .object({
-    transition: z.enum(["submit", "withdraw", "start_review", "return", "accept", "decline", "retract"]),
-    reason: z.string().trim().max(5000).optional(),
-    // Bounds and wording of the rule: checkReplyOrThrow (lib/curation/capabilities.ts).
-    reply: z
-      .string()
-      .max(2 * REPLY_MAX)
-      .optional(),
-  })
-  .strict();
 
 export const POST = withApi<{ id: string }>(
   async ({ req, user, params }) => {
@@ -30,7 +17,7 @@ export const POST = withApi<{ id: string }>(
       user: user!,
       fingerprint: body,
       run: async (keep) => {
-        const parsed = bodySchema.safeParse(parseJsonBytesOrThrow(body));
+        const parsed = transitionRequestSchema.safeParse(parseJsonBytesOrThrow(body));
         if (!parsed.success)
           throw new AppError("validation_failed", "The request body does not match the expected shape", zodToFieldErrors(parsed.error));
         const { transition, reason, reply } = parsed.data;
@@ -40,5 +27,5 @@ export const POST = withApi<{ id: string }>(
       },
     });
   },
-  { permission: "dataset.deposit", scope: "deposit" },
+  { permission: "dataset.deposit", scope: "deposit:write" },
 );

@@ -1,0 +1,173 @@
+import { ScrollRegion } from "@/components/scroll-region";
+import { buildOpenApiDocument, problemTypeList } from "@/lib/api/openapi";
+
+/**
+ * The endpoint reference of /docs/api, rendered on the server from the OpenAPI document itself
+ * (lib/api/openapi.ts), so the page and /api/v1/openapi.json never disagree.
+ */
+
+interface Parameter {
+  name: string;
+  in: string;
+  required: boolean;
+  description?: string;
+  schema: Record<string, unknown>;
+}
+interface Operation {
+  operationId: string;
+  tags: string[];
+  summary: string;
+  description: string;
+  parameters?: Parameter[];
+  requestBody?: { description: string; content: Record<string, unknown> };
+  responses: Record<string, { description: string }>;
+  "x-codeSamples": { label: string; source: string }[];
+}
+
+/** A JSON Schema in a few words: type, allowed values, pattern, bounds, default. */
+export function describeSchema(s: Record<string, unknown>): string {
+  const parts: string[] = [];
+  const items = s.items as Record<string, unknown> | undefined;
+  if (s.type === "array" && items) parts.push(`list of ${describeSchema(items)}`);
+  else if (Array.isArray(s.enum)) parts.push(`one of ${s.enum.join(", ")}`);
+  else if (typeof s.type === "string") parts.push(s.type);
+  if (typeof s.pattern === "string") parts.push(`matching ${s.pattern}`);
+  if (typeof s.maxLength === "number") parts.push(`at most ${s.maxLength} characters`);
+  if (typeof s.maxItems === "number") parts.push(`at most ${s.maxItems} values`);
+  if (s.default !== undefined) parts.push(`default ${String(s.default)}`);
+  return parts.join(", ") || "any";
+}
+
+const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, "-");
+
+function OperationBlock({ method, path, op }: { method: string; path: string; op: Operation }) {
+  const headingId = `op-${op.operationId}`;
+  return (
+    <section className="space-y-2 border-t border-line pt-4" aria-labelledby={headingId}>
+      <h4 id={headingId} className="font-semibold break-all">
+        <code>
+          {method.toUpperCase()} {path}
+        </code>
+      </h4>
+      <p className="text-sm">{op.summary}.</p>
+      <p className="text-sm text-muted">{op.description}</p>
+      {op.parameters && op.parameters.length > 0 && (
+        <ScrollRegion label={`Parameters of ${method.toUpperCase()} ${path}`}>
+          <table className="table text-sm">
+            <caption className="sr-only">
+              Parameters of {method.toUpperCase()} {path}
+            </caption>
+            <thead>
+              <tr>
+                <th scope="col">Name</th>
+                <th scope="col">In</th>
+                <th scope="col">Value</th>
+              </tr>
+            </thead>
+            <tbody>
+              {op.parameters.map((p) => (
+                <tr key={`${p.in}-${p.name}`}>
+                  <td>
+                    <code>{p.name}</code>
+                    {p.required ? " (required)" : ""}
+                  </td>
+                  <td>{p.in}</td>
+                  <td>
+                    {describeSchema(p.schema)}
+                    {p.description ? `. ${p.description}` : ""}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollRegion>
+      )}
+      {op.requestBody && (
+        <p className="text-sm">
+          Body ({Object.keys(op.requestBody.content).join(", ")}): {op.requestBody.description}
+        </p>
+      )}
+      <p className="text-sm">
+        Answers:{" "}
+        {Object.entries(op.responses)
+          .map(([status, r]) => `${status} ${r.description}`)
+          .join(" · ")}
+      </p>
+      {op["x-codeSamples"].map((sample) => (
+        <ScrollRegion key={sample.label} label={`${sample.label} example of ${method.toUpperCase()} ${path}`}>
+          <pre className="w-max min-w-full rounded-md border border-line bg-panel p-3 text-xs">
+            <span className="sr-only">{sample.label}: </span>
+            {sample.source}
+          </pre>
+        </ScrollRegion>
+      ))}
+    </section>
+  );
+}
+
+export function ApiReference({ base }: { base: string }) {
+  const doc = buildOpenApiDocument(base);
+  const operations = Object.entries(doc.paths).flatMap(([path, methods]) =>
+    Object.entries(methods).map(([method, op]) => ({ path, method, op: op as Operation })),
+  );
+  return (
+    <>
+      <section className="space-y-3" aria-labelledby="reference">
+        <h2 id="reference" className="text-2xl font-semibold">
+          Endpoints
+        </h2>
+        <p className="text-sm">
+          Every endpoint, made from the same description as the machine-readable <a href="/api/v1/openapi.json">OpenAPI 3.1 document</a>,
+          with an example in curl and in Python (the <code>requests</code> package). Examples that need a token read it from the{" "}
+          <code>ARRHENIA_TOKEN</code> environment variable.
+        </p>
+        {doc.tags.map(({ name }) => (
+          <section key={name} className="space-y-3" aria-labelledby={`tag-${slug(name)}`}>
+            <h3 id={`tag-${slug(name)}`} className="text-xl font-semibold">
+              {name}
+            </h3>
+            {operations
+              .filter((o) => o.op.tags.includes(name))
+              .map((o) => (
+                <OperationBlock key={o.op.operationId} {...o} />
+              ))}
+          </section>
+        ))}
+      </section>
+      <section className="space-y-3" aria-labelledby="problems">
+        <h2 id="problems" className="text-2xl font-semibold">
+          Problem types
+        </h2>
+        <p className="text-sm">
+          Every error is <code>application/problem+json</code> (RFC 9457): <code>type</code> (one of the URIs below, stable),{" "}
+          <code>title</code>, <code>status</code>, <code>code</code>, <code>instance</code> (the path asked for) and, where values are at
+          fault, <code>errors</code> with a JSON pointer (RFC 6901) for each.
+        </p>
+        <ScrollRegion label="Problem types">
+          <table className="table text-sm">
+            <thead>
+              <tr>
+                <th scope="col">Type</th>
+                <th scope="col">Status</th>
+                <th scope="col">When</th>
+              </tr>
+            </thead>
+            <tbody>
+              {problemTypeList().map((p) => (
+                <tr key={p.code} id={`problem-${p.code.replace(/_/g, "-")}`}>
+                  <td>
+                    <code>{p.uri}</code>
+                  </td>
+                  <td>
+                    {p.status} {p.title}
+                  </td>
+                  <td>{p.when}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollRegion>
+      </section>
+    </>
+  );
+}

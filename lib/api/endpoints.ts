@@ -1,0 +1,573 @@
+import { z } from "zod";
+import { analysisRequestSchema } from "@/lib/analyses/analyse-request";
+import { citationQuerySchema } from "@/lib/citation/request";
+import { transitionRequestSchema } from "@/lib/curation/transition-request";
+import {
+  pointsCsvQuerySchema,
+  reactionParametersQuerySchema,
+  searchExportQuerySchema,
+  versionParametersQuerySchema,
+} from "@/lib/exports/requests";
+import { searchParameterSchemas } from "@/lib/search/params";
+import { userPatchSchema, type ApiTokenScope } from "@/lib/users/schemas";
+
+/**
+ * THE list of REST API endpoints: the published scope table (/docs/api, checked against every
+ * handler by a test), the OpenAPI document (/api/v1/openapi.json, lib/api/openapi.ts) and the
+ * examples of the docs page are all made from it. Adding an endpoint is one entry here.
+ * Query and body schemas are the ones the handlers parse with.
+ */
+
+export type HttpMethod = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
+
+export interface QueryParameter {
+  name: string;
+  schema: z.ZodType;
+  description?: string;
+  /** Shown in the curl and Python examples. */
+  example?: string;
+}
+
+export interface Endpoint {
+  method: HttpMethod;
+  /** Express-style path: `/api/v1/datasets/:id/versions/:n`. */
+  path: string;
+  /** The token scope the handler declares; null: public (a token sent anyway must still be valid). */
+  scope: ApiTokenScope | null;
+  /** Who may call it, in words (the published table's third column). */
+  who: string;
+  tag: "Datasets" | "Reactions and species" | "Search" | "Deposits" | "Analysis" | "Citation" | "Files" | "People" | "Document";
+  summary: string;
+  description?: string;
+  /** Example values of the path's parameters, for the examples. */
+  pathExample?: Record<string, string>;
+  query?: QueryParameter[];
+  body?: { contentType: string; schema?: z.ZodType; description: string; example?: string };
+  /** Request headers the endpoint reads (If-Match, Idempotency-Key). */
+  headers?: { name: string; required: boolean; description: string }[];
+  ok: { status: number; contentType: string; description: string };
+  /** Problem statuses beyond the ones every endpoint may answer (400, 401, 429, 500, 503). */
+  errors: number[];
+  /** Public read with ETag, Cache-Control and 304 (withApi's `cache`). */
+  cached?: boolean;
+}
+
+const JSON_TYPE = "application/json";
+const depositBody = {
+  contentType: JSON_TYPE,
+  description: "A deposit document (JSON Schema at /schemas/deposit/v1.json; the format is described on /docs/deposit-format).",
+  example: "@deposit.json",
+};
+const consensusQuery: QueryParameter[] = [
+  {
+    name: "include",
+    schema: z.enum(["all", "measured", "calculated"]),
+    description: "Which datasets: all (default), measured or calculated.",
+  },
+  { name: "Tmin", schema: z.string(), description: "Lower end of the temperature window, K." },
+  { name: "Tmax", schema: z.string(), description: "Upper end of the temperature window, K." },
+];
+const search = searchParameterSchemas();
+const searchQuery: QueryParameter[] = Object.entries(search).map(([name, schema]) => ({
+  name,
+  schema,
+  ...(name === "q" ? { example: "OH + CH4" } : name === "limit" ? { example: "20" } : {}),
+}));
+const citationShape = citationQuerySchema.shape;
+/** The query parameters of a zod object, for the document and the examples. */
+const queryOf = (shape: Record<string, z.ZodType>, examples: Record<string, string> = {}): QueryParameter[] =>
+  Object.entries(shape).map(([name, schema]) => ({ name, schema, ...(examples[name] ? { example: examples[name] } : {}) }));
+const ifMatch = {
+  name: "If-Match",
+  required: true,
+  description: 'The lock version you edited, the ETag of GET /api/v1/versions/:id ("3"). Missing: 428; stale: 412.',
+};
+const idempotencyKey = {
+  name: "Idempotency-Key",
+  required: false,
+  description: "1–255 visible ASCII characters; a retry with the same key and body answers the first response.",
+};
+const PUBLIC_VERSIONS = "anyone, for published and retracted versions";
+
+export const API_ENDPOINTS: Endpoint[] = [
+  // ---- public reads ----
+  {
+    method: "GET",
+    path: "/api/v1/datasets",
+    scope: null,
+    who: "anyone (published and retracted datasets only)",
+    tag: "Datasets",
+    summary: "List datasets matching the search parameters, a page at a time",
+    description: "The search parameters of GET /api/v1/search with view=datasets; `nextCursor` leads to the next page.",
+    query: searchQuery,
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ query, parsed, understood, total, hits, facets, nextCursor, caution }" },
+    errors: [],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id",
+    scope: null,
+    who: "anyone, for datasets with a published or retracted version",
+    tag: "Datasets",
+    summary: "One dataset: its series identifier and every public version",
+    pathExample: { id: "1" },
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ data: { id, seriesIdentifier, title, newestVersion, landingPage, versions } }",
+    },
+    errors: [404],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n",
+    scope: null,
+    who: PUBLIC_VERSIONS,
+    tag: "Datasets",
+    summary: "One public version: its deposit document, identifiers, state and newest analysis",
+    pathExample: { id: "1", n: "1" },
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ data: { id, datasetId, number, state, title, versionIdentifier, document, analysis, caution } }",
+    },
+    errors: [404],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/points",
+    scope: null,
+    who: PUBLIC_VERSIONS,
+    tag: "Datasets",
+    summary: "Every point of a public version, as deposited and in canonical units, with residuals and findings",
+    pathExample: { id: "1", n: "1" },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { about, points } } (the layout of points.json)" },
+    errors: [404],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/analysis",
+    scope: null,
+    who: PUBLIC_VERSIONS,
+    tag: "Datasets",
+    summary: "The newest re-fit of a public version: Arrhenius, modified Arrhenius and Eyring fits, diagnostics and flags",
+    pathExample: { id: "1", n: "1" },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { engineVersion, createdAt, result, checks, error, caution } }" },
+    errors: [404],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/citation",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+    tag: "Citation",
+    summary: "How to cite a dataset: one version (?version=n) or every version",
+    pathExample: { id: "1" },
+    query: [
+      { name: "format", schema: citationShape.format, example: "bibtex" },
+      { name: "style", schema: citationShape.style, description: "For format=text." },
+      { name: "version", schema: citationShape.version, example: "1" },
+    ],
+    ok: { status: 200, contentType: "application/x-bibtex", description: "BibTeX, RIS, CSL-JSON or a formatted reference, by `format`." },
+    errors: [404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/datacite.json",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+    tag: "Citation",
+    summary: "DataCite metadata (kernel 4) of a version, as JSON",
+    pathExample: { id: "1", n: "1" },
+    ok: { status: 200, contentType: JSON_TYPE, description: "DataCite JSON." },
+    errors: [404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/datacite.xml",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+    tag: "Citation",
+    summary: "DataCite metadata (kernel 4) of a version, as XML",
+    pathExample: { id: "1", n: "1" },
+    ok: { status: 200, contentType: "application/xml", description: "DataCite XML." },
+    errors: [404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/parameters",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+    tag: "Datasets",
+    summary: "Mechanism-ready parameters (A, n, Ea, T0, valid range) of a version's fits, as a table or Cantera YAML",
+    pathExample: { id: "1", n: "1" },
+    query: queryOf(versionParametersQuerySchema.shape, { format: "cantera-yaml", k: "cm3 mol-1 s-1", energy: "kcal mol-1" }),
+    ok: { status: 200, contentType: "text/plain or application/yaml", description: "An aligned table, or a YAML block with units." },
+    errors: [404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/versions/:n/export.json",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+    tag: "Datasets",
+    summary: "A version's deposit document with its re-fits, flags and the engine version",
+    pathExample: { id: "1", n: "1" },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ about, document, analysis }" },
+    errors: [404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/reactions/:id/parameters",
+    scope: null,
+    who: "anyone (reactions with published data)",
+    tag: "Reactions and species",
+    summary: "Mechanism-ready parameters of a reaction's consensus, as a table or Cantera YAML",
+    pathExample: { id: "1" },
+    query: queryOf(reactionParametersQuerySchema.shape, { format: "table" }),
+    ok: { status: 200, contentType: "text/plain or application/yaml", description: "An aligned table, or a YAML block with units." },
+    errors: [404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/search/export",
+    scope: null,
+    who: "anyone (published and retracted datasets only)",
+    tag: "Search",
+    summary: "The whole result of a search, streamed as CSV, JSON lines or JSON (every search parameter but limit and cursor)",
+    query: [
+      ...queryOf(searchExportQuerySchema.shape, { format: "csv" }),
+      ...searchQuery.filter((p) => p.name !== "limit" && p.name !== "cursor"),
+    ],
+    ok: { status: 200, contentType: "text/csv, application/x-ndjson or application/json", description: "Streamed rows." },
+    errors: [],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/reactions/:id",
+    scope: null,
+    who: "anyone, for reactions with published data",
+    tag: "Reactions and species",
+    summary: "One reaction by its key (`~` for its `>>`; the numeric id too), its datasets and its consensus",
+    pathExample: { id: "1" },
+    query: consensusQuery,
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ data: { reaction, datasets, units, selection, consensus, unavailable, caution } }",
+    },
+    errors: [404],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/reactions/:id/consensus",
+    scope: null,
+    who: "anyone",
+    tag: "Reactions and species",
+    summary: "A reaction's consensus expression, what went in and why the rest did not",
+    pathExample: { id: "1" },
+    query: consensusQuery,
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { reaction, units, selection, consensus, unavailable, caution } }" },
+    errors: [404],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/species/:inchikey",
+    scope: null,
+    who: "anyone, for species of reactions with published data",
+    tag: "Reactions and species",
+    summary: "A species by its InChIKey: identity, names and the public reactions it takes part in",
+    pathExample: { inchikey: "VNWKTOKETHGBQD-UHFFFAOYSA-N" },
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ data: { inchiKey, inchi, smiles, formula, charge, molarMass, name, names, reactions } }",
+    },
+    errors: [404],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/classes",
+    scope: null,
+    who: "anyone",
+    tag: "Reactions and species",
+    summary: "Every reaction class with its counts of public reactions and datasets",
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: [{ id, label, description, reactions, datasets, landingPage }] }" },
+    errors: [],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/search",
+    scope: null,
+    who: "anyone (published and retracted datasets only)",
+    tag: "Search",
+    summary: "Datasets or reactions matching a text, a species or a reaction pattern and filters",
+    query: searchQuery,
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ query, parsed, understood, total, hits, facets, nextCursor, caution }" },
+    errors: [],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/search/suggest",
+    scope: null,
+    who: "anyone (published data only)",
+    tag: "Search",
+    summary: "Species and reactions for a search box as the reader types",
+    query: [{ name: "q", schema: z.string().max(500), example: "meth" }],
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ species, reactions }" },
+    errors: [],
+    cached: true,
+  },
+  {
+    method: "GET",
+    path: "/api/v1/identifiers",
+    scope: null,
+    who: "anyone",
+    tag: "Citation",
+    summary: "What a version or series identifier resolves to",
+    query: [{ name: "identifier", schema: z.string(), example: "10.5072/ARH-4F7K-9QXM/2" }],
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { … } } with the page it resolves to." },
+    errors: [404, 422],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/versions/:id/points.csv",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+    tag: "Datasets",
+    summary: "A public version's points as CSV (by version id), in deposited and canonical units",
+    pathExample: { id: "1" },
+    query: queryOf(pointsCsvQuerySchema.shape),
+    ok: { status: 200, contentType: "text/csv", description: "CSV with a # header block." },
+    errors: [404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/versions/:id/points.json",
+    scope: null,
+    who: "anyone, for published and retracted versions",
+    tag: "Datasets",
+    summary: "A public version's points as JSON (by version id)",
+    pathExample: { id: "1" },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ about, points }" },
+    errors: [404],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/analyses",
+    scope: null,
+    who: "anyone",
+    tag: "Analysis",
+    summary: "Fit posted (T, k) points as every deposited dataset is fitted; nothing is stored",
+    body: {
+      contentType: JSON_TYPE,
+      schema: analysisRequestSchema,
+      description: "Points, reaction order, units and T0.",
+      example: '{"order": 2, "points": [{"T": 250, "k": 2.1e-15}, {"T": 300, "k": 6.4e-15}, {"T": 350, "k": 1.2e-14}]}',
+    },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ units, analysis, caution }" },
+    errors: [413, 422],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/species/preview",
+    scope: null,
+    who: "anyone",
+    tag: "Reactions and species",
+    summary: "Identity and structure picture of a species given by SMILES or InChI",
+    query: [
+      { name: "smiles", schema: z.string(), example: "[OH]" },
+      { name: "inchi", schema: z.string() },
+    ],
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { inchiKey, formula, …, svg } }" },
+    errors: [422],
+  },
+  // ---- deposits with a personal token ----
+  {
+    method: "GET",
+    path: "/api/v1/deposits",
+    scope: "deposit:read",
+    who: "researchers, curators and admins: their own datasets",
+    tag: "Deposits",
+    summary: "My deposits: every dataset I own or co-edit, newest version of each, drafts included",
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ data: [{ datasetId, versionId, number, title, state, role, lockVersion, problems, … }] }",
+    },
+    errors: [403],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/validate",
+    scope: "deposit:read",
+    who: "researchers, curators and admins",
+    tag: "Deposits",
+    summary: "Check a deposit document as a deposit is checked and fit it, storing nothing",
+    description: "200 whether or not the document is valid: `valid`, every error with its JSON pointer, and the analysis when valid.",
+    body: depositBody,
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { valid, errors, analysis } }" },
+    errors: [403, 413],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/datasets",
+    scope: "deposit:write",
+    who: "researchers",
+    tag: "Deposits",
+    summary: "Create a draft dataset from a deposit document",
+    body: depositBody,
+    headers: [idempotencyKey],
+    ok: {
+      status: 201,
+      contentType: JSON_TYPE,
+      description: "{ data: { versionId, datasetId, number, state, lockVersion } } and Location.",
+    },
+    errors: [403, 409, 413, 422],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/versions/:id",
+    scope: "deposit:read",
+    who: "anyone for published versions; co-editors and curators otherwise",
+    tag: "Deposits",
+    summary: "One version by id, drafts included for their members; the ETag is its lock version",
+    pathExample: { id: "1" },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { id, state, lockVersion, document, analysis, … } }" },
+    errors: [403, 404],
+  },
+  {
+    method: "PUT",
+    path: "/api/v1/versions/:id",
+    scope: "deposit:write",
+    who: "owner and editors of a draft",
+    tag: "Deposits",
+    summary: "Replace a draft's deposit document",
+    pathExample: { id: "1" },
+    body: depositBody,
+    headers: [ifMatch],
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { versionId, lockVersion, state } } with the new ETag." },
+    errors: [403, 404, 409, 412, 413, 422, 428],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/versions/:id/transitions",
+    scope: "deposit:write",
+    who: "owner (submit, withdraw); curators (review, decide, retract)",
+    tag: "Deposits",
+    summary: "Submit, withdraw, review, decide or retract a version",
+    pathExample: { id: "1" },
+    body: {
+      contentType: JSON_TYPE,
+      schema: transitionRequestSchema,
+      description: "The transition and its reason.",
+      example: '{"transition": "submit"}',
+    },
+    headers: [idempotencyKey],
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { … the version's new state } }" },
+    errors: [403, 404, 409, 422],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/versions/:id/next",
+    scope: "deposit:write",
+    who: "owner of a published version",
+    tag: "Deposits",
+    summary: "Start the next version of a published dataset as a draft copy",
+    pathExample: { id: "1" },
+    headers: [idempotencyKey],
+    ok: { status: 201, contentType: JSON_TYPE, description: "{ data: { versionId, number, state, lockVersion } } and Location." },
+    errors: [403, 404, 409],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/versions/:id/files",
+    scope: "deposit:read",
+    who: "whoever may see the version",
+    tag: "Files",
+    summary: "A version's supplementary files",
+    pathExample: { id: "1" },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: [ … ] }" },
+    errors: [403, 404],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/versions/:id/files",
+    scope: "deposit:write",
+    who: "owner and editors of a draft",
+    tag: "Files",
+    summary: "Add a supplementary file (multipart field “file”, at most 25 MB)",
+    pathExample: { id: "1" },
+    body: { contentType: "multipart/form-data", description: "One field named file.", example: "file=@spectra.zip" },
+    headers: [idempotencyKey],
+    ok: { status: 201, contentType: JSON_TYPE, description: "{ data: { … the file } }" },
+    errors: [403, 404, 409, 413, 422],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/files/:fileId",
+    scope: "deposit:read",
+    who: "whoever may see the version",
+    tag: "Files",
+    summary: "Download a supplementary file",
+    pathExample: { fileId: "1" },
+    ok: { status: 200, contentType: "application/octet-stream", description: "The file." },
+    errors: [403, 404],
+  },
+  {
+    method: "DELETE",
+    path: "/api/v1/files/:fileId",
+    scope: "deposit:write",
+    who: "owner and editors of a draft",
+    tag: "Files",
+    summary: "Remove a supplementary file from a draft",
+    pathExample: { fileId: "1" },
+    ok: { status: 204, contentType: JSON_TYPE, description: "Nothing." },
+    errors: [403, 404, 409],
+  },
+  // ---- people (admins) ----
+  {
+    method: "GET",
+    path: "/api/v1/users",
+    scope: "admin",
+    who: "admins",
+    tag: "People",
+    summary: "Everyone with an account",
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: [ … ] }" },
+    errors: [403],
+  },
+  {
+    method: "PATCH",
+    path: "/api/v1/users/:id",
+    scope: "admin",
+    who: "admins",
+    tag: "People",
+    summary: "Change a person's role or deactivate the account (audited)",
+    pathExample: { id: "2" },
+    body: { contentType: JSON_TYPE, schema: userPatchSchema, description: "role and/or active.", example: '{"role": "curator"}' },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { … the person } }" },
+    errors: [403, 404, 422],
+  },
+  // ---- this document ----
+  {
+    method: "GET",
+    path: "/api/v1/openapi.json",
+    scope: null,
+    who: "anyone",
+    tag: "Document",
+    summary: "This API as an OpenAPI 3.1 document",
+    ok: { status: 200, contentType: JSON_TYPE, description: "The OpenAPI document." },
+    errors: [],
+    cached: true,
+  },
+];
