@@ -244,7 +244,7 @@ export const API_ENDPOINTS: Endpoint[] = [
       ...queryOf(searchExportQuerySchema.shape, { format: "csv" }),
       ...searchQuery.filter((p) => p.name !== "limit" && p.name !== "cursor"),
     ],
-    ok: { status: 200, contentType: "text/csv, application/x-ndjson or application/json", description: "Streamed rows." },
+    ok: { status: 200, contentType: "text/csv, application/jsonl or application/json", description: "Streamed rows." },
     errors: [],
   },
   {

@@ -134,7 +134,7 @@ function aboutLines(subject: MechanismSubject): [string, string][] {
   lines.push(
     [
       "valid range",
-      `${num(subject.range.Tmin)} K to ${num(subject.range.Tmax)} K (the measured temperatures; outside them an extrapolation)`,
+      `${num(subject.range.Tmin)} K to ${num(subject.range.Tmax)} K (the temperatures of the data; outside them an extrapolation)`,
     ],
     ["page", subject.landingPage],
   );

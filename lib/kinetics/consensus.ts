@@ -935,7 +935,8 @@ function otherSide(rows: Rows, supports: readonly (DatasetSupport | null)[], o: 
       covariance: (T1, T2) => ownCovariance(fit, T1, T2),
       differenceVariance: (T1, T2) => ownDifferenceVariance(fit, T1, T2),
       tau2: 0,
-      model: fit.model as "arrhenius" | "modified_arrhenius",
+      // The fit that judges it: its modified fit whenever that is determined, whatever it prefers.
+      model: fit.gModified ? "modified_arrhenius" : "arrhenius",
     };
   }
   const { fit } = o;
