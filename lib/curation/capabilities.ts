@@ -170,8 +170,9 @@ export function planTransition(
   assertVersionCapability({ state, siteRole: actor.role, datasetRole: actor.datasetRole }, transition);
   const rule = lifecycle[transition];
   if (rule.needsReason && !(reason && reason.trim().length >= 3)) {
+    const given = Boolean(reason && reason.trim());
     throw new AppError("validation_failed", "Give a reason: it is sent to the authors and kept on the record", [
-      { pointer: "/reason", message: "required" },
+      { pointer: "/reason", message: given ? "a reason needs at least 3 characters" : "required" },
     ]);
   }
   checkReplyOrThrow(state, transition, reply);

@@ -1,5 +1,6 @@
 import { afterEach, describe, expect, it } from "vitest";
-import { POST as cacheInvalidationsRoute } from "@/app/api/cache-invalidations/route";
+import * as cacheInvalidations from "@/app/api/cache-invalidations/route";
+const cacheInvalidationsRoute = cacheInvalidations.POST;
 import { CACHE_KEY_ENV, CACHE_KEY_HEADER, forwardCacheInvalidations } from "@/lib/public-cache";
 import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 import { applyTransition } from "@/lib/curation/transitions";
@@ -151,6 +152,14 @@ describe("a re-fit by the background worker reaches the public pages' cache", ()
     expect((await post({ [CACHE_KEY_HEADER]: "x".repeat(48) }, { tags: ["public"] })).status).toBe(404);
     expect((await post({ [CACHE_KEY_HEADER]: key }, { tags: [] })).status).toBe(422);
     expect((await post({ [CACHE_KEY_HEADER]: key }, { tags: ["public", "search"] })).status).toBe(204);
+    // Other methods, even with the key: the same 404 (a 405 would show that the endpoint exists).
+    for (const method of ["GET", "PUT", "DELETE", "PATCH"] as const) {
+      const res = await cacheInvalidations[method](
+        new Request("http://127.0.0.1/api/cache-invalidations", { method, headers: { [CACHE_KEY_HEADER]: key } }),
+        { params: Promise.resolve({}) },
+      );
+      expect(res.status, method).toBe(404);
+    }
     delete process.env[CACHE_KEY_ENV];
     expect((await post({ [CACHE_KEY_HEADER]: key }, { tags: ["public"] })).status).toBe(404);
   });

@@ -26,3 +26,12 @@ export const POST = withApi(async ({ req }) => {
   await invalidatePublicCache(tags, { forward: false });
   return new NextResponse(null, { status: 204 });
 });
+
+// Other methods: the same 404 as a request without the key (a 405 would show that the endpoint exists).
+const notFound = withApi(async () => {
+  throw new AppError("not_found", "Not found");
+});
+export const GET = notFound;
+export const PUT = notFound;
+export const DELETE = notFound;
+export const PATCH = notFound;

@@ -61,6 +61,19 @@ describe("lifecycle rules", () => {
     expect(outcome("draft", "submit", owner, "")).toBe("submitted");
   });
 
+  it("a reason too short is told so, not called missing", () => {
+    const message = (reason: string) => {
+      try {
+        planTransition("in_review", "accept", curator, reason);
+      } catch (err) {
+        return err instanceof AppError ? err.errors[0]?.message : null;
+      }
+      return null;
+    };
+    expect(message("ok")).toBe("a reason needs at least 3 characters");
+    expect(message(" ")).toBe("required");
+  });
+
   it("every state can be reached and published is left only by retraction", () => {
     const reachable = new Set<VersionState>(["draft", ...Object.values(lifecycle).map((r) => r.to)]);
     expect([...reachable].sort()).toEqual(["declined", "draft", "in_review", "published", "retracted", "returned", "submitted"]);
