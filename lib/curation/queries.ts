@@ -59,7 +59,8 @@ function queueFilters(q: QueueQuery): SQL[] {
     where.push(inArray(reactionClass, [q.reactionClass, ...retired.map(([old]) => old)]));
   }
   if (q.flag) where.push(sql`${q.flag} = any(${datasetVersions.flagCodes})`);
-  if (q.olderThanDays) where.push(lt(waitingSince, new Date(Date.now() - q.olderThanDays * 86_400_000)));
+  // The cut-off on the database's clock (the one that stamped the waits); a whole number of days.
+  if (q.olderThanDays) where.push(sql`${waitingSince} < now() - make_interval(days => ${Math.trunc(q.olderThanDays)}::int)`);
   return where;
 }
 

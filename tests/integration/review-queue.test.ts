@@ -63,6 +63,14 @@ describe("the review queue: waiting for a curator, or with the authors", () => {
     expect(withAuthors.rows.map((r) => r.versionId)).not.toContain(waitingId);
   });
 
+  it("filters by days waited on the database's clock: a version submitted just now is not older than a day", async () => {
+    const id = await submitted(`older ${Date.now()}`);
+    const ids = async (olderThanDays?: number) =>
+      (await listReviewQueue({ olderThanDays, sort: "submitted", direction: "desc", pageSize: 100 })).rows.map((r) => r.versionId);
+    expect(await ids()).toContain(id);
+    for (const days of [1, 5, 3650]) expect(await ids(days)).not.toContain(id);
+  });
+
   it("sums up each version's findings in words, with the first of the most severe kind", async () => {
     const id = await submitted(`checks ${Date.now()}`);
     const summary = (await listCheckSummaries([id])).get(id);
