@@ -133,12 +133,14 @@ export function SearchExport({ request, total }: { request: SearchRequest; total
 }
 
 /**
- * Rows received so far, counted as bytes arrive: lines that do not start with "#" (CSV's header
- * block), less the first of them (CSV's column line, the "about" line of JSON lines and JSON). A
- * progress figure only: the file itself is what the server wrote.
+ * Rows received so far, counted as bytes arrive: lines that do not start with "#" or a quoted "#"
+ * (CSV's header block, each line one quoted cell), less the first of them (CSV's column line, the
+ * "about" line of JSON lines and JSON). A progress figure only: the file itself is what the server wrote.
  */
 function lineCounter() {
   let atStart = true;
+  /** The line began with a quote: its next byte says whether it is a header line. */
+  let quoteFirst = false;
   let comment = false;
   let lines = 0;
   return {
@@ -147,14 +149,19 @@ function lineCounter() {
         const b = bytes[i];
         // The byte order mark (EF BB BF) is not the start of a line's text.
         if (atStart && (b === 0xef || b === 0xbb || b === 0xbf)) continue;
-        if (atStart) {
-          // "#": a CSV header line; "]": the close of a JSON document.
+        if (quoteFirst) {
+          comment = b === 0x23;
+          quoteFirst = false;
+        } else if (atStart) {
+          // "#": a CSV header line; "]": the close of a JSON document; a quote: look at the next byte.
           comment = b === 0x23 || b === 0x5d;
+          quoteFirst = b === 0x22;
           atStart = false;
         }
         if (b === 0x0a) {
           if (!comment) lines++;
           atStart = true;
+          quoteFirst = false;
         }
       }
     },

@@ -28,7 +28,8 @@ export function parseColumns(text: string): ParsedColumns {
   rows.forEach((raw, index) => {
     const line = index + 1;
     const trimmed = raw.trim();
-    if (!trimmed || trimmed.startsWith("#")) return;
+    // "#…" or, as this product's CSVs write their header lines, one quoted cell "#…".
+    if (!trimmed || trimmed.startsWith("#") || trimmed.startsWith('"#')) return;
     // Tabs or semicolons, when present, separate the columns; then a comma can only be a decimal comma.
     const decimalComma = trimmed.includes("\t") || trimmed.includes(";");
     const delimiter = trimmed.includes("\t") ? /\t+/ : trimmed.includes(";") ? /\s*;\s*/ : /[\s,]+/;

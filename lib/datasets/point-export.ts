@@ -30,11 +30,12 @@ const MODEL_WORDS = { arrhenius: "Arrhenius", modified_arrhenius: "modified Arrh
 export const textCell = (v: string | null) => csvCell(v !== null && /^[=+\-@\t\r]/.test(v) ? `'${v}` : v);
 
 /**
- * A `# label: text` comment line of a CSV header: never broken (newlines become spaces), and a piece
- * after a comma that would start a formula gets an apostrophe, since a spreadsheet splits the line there.
+ * A `# label: text` comment line of a CSV header: never broken (newlines become spaces) and always
+ * ONE cell, written by `textCell` as every data cell is: it holds a `#`, so it is quoted whole with
+ * its quotes doubled, and a comma or quote in the text can never open a cell of its own (a reader
+ * splitting the line by RFC 4180 gets the whole line, starting with `#`, never a formula).
  */
-export const csvCommentLine = (label: string, text: string) =>
-  `# ${label}: ${text.replace(/[\r\n]+/g, " ").replace(/,(\s*)(?=[=+\-@\t])/g, ",$1'")}`;
+export const csvCommentLine = (label: string, text: string) => textCell(`# ${label}: ${text}`.replace(/[\r\n]+/g, " "));
 
 /** The CSV columns, in order, with the value of each for one row. */
 function csvColumns(about: PointsAbout): [string, (r: PointRow) => string][] {

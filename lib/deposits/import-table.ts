@@ -238,7 +238,8 @@ export function inspectTable(text: string, options: { filename?: string } = {}):
     header = table.header;
     raw = table.rows;
   } else {
-    const parsed = Papa.parse<string[]>(body, {
+    // A line that is one quoted cell starting with "#" (the header lines of this product's own CSVs) is a comment too.
+    const parsed = Papa.parse<string[]>(body.replace(/^"#[^\r\n]*/gm, "#"), {
       delimiter: ext === "tsv" || ext === "tab" ? "\t" : "",
       delimitersToGuess: [",", "\t", ";", "|"],
       skipEmptyLines: "greedy",

@@ -122,17 +122,22 @@ export interface SearchExportOptions {
 }
 
 /**
- * The whole result of `request` (its cursor and limit are not used) as a byte stream. Each pull
- * reads one batch from the engine and enqueues its text; the stream holds at most one chunk that
- * the reader has not taken (highWaterMark 1), so a slow reader slows the walk instead of filling memory.
+ * The whole result of `request` (its cursor and limit are not used) as a byte stream. The search text
+ * is resolved and the first batch read before the stream is returned, so a bad query (a 400 naming
+ * `q`) or a database out of reach (a 503 with Retry-After) is still an ordinary problem response.
+ * Each later pull reads one batch and enqueues its text; the stream holds at most one chunk that the
+ * reader has not taken (highWaterMark 1), so a slow reader slows the walk instead of filling memory.
+ * A batch that fails once bytes have gone out errors the stream, so the connection is cut and the
+ * download is visibly incomplete (never a file that merely stops, never a connection left open).
  */
-export function searchExportStream(request: SearchRequest, options: SearchExportOptions): ReadableStream<Uint8Array> {
+export async function searchExportStream(request: SearchRequest, options: SearchExportOptions): Promise<ReadableStream<Uint8Array>> {
   const { format, bom = false, batch = SEARCH_EXPORT_BATCH, onBatch } = options;
   const engine = options.engine ?? currentSearchEngine();
   const origin = appUrl();
   const encoder = new TextEncoder();
   const columns = request.view === "reactions" ? REACTION_COLUMNS : DATASET_COLUMNS;
-  let parsed: ParsedQuery | null = null;
+  const resolved = await resolveQuery(request.q);
+  const parsed: ParsedQuery = resolved.parsed;
   let after: string | null = null;
   let rows = 0;
 
@@ -142,43 +147,64 @@ export function searchExportStream(request: SearchRequest, options: SearchExport
     return list.map((r, i) => `${rows + i === 0 ? "\n" : ",\n"}${JSON.stringify(r)}`).join("");
   };
 
+  /** The next batch as text (the closing of a JSON document after the last); `last` when the walk is done. */
+  const nextBatch = async (): Promise<{ text: string; last: boolean }> => {
+    const page = await engine.search({ parsed, view: request.view, filters: request.filters, sort: request.sort, after, limit: batch });
+    let list: Row[];
+    if (page.view === "reactions") list = (page.hits as ReactionHit[]).map((h) => reactionRow(h, origin));
+    else {
+      // Rows name species as every public page does, whatever the engine stored.
+      const hits = page.hits as DatasetHit[];
+      const equations = await listDisplayEquations({ reactionKeys: [...new Set(hits.map((h) => h.reactionKey))] });
+      list = hits.map((h) => datasetRow({ ...h, equation: equations.get(h.reactionKey) ?? h.equation }, origin));
+    }
+    const text = rowsText(list);
+    rows += list.length;
+    after = page.nextAfter;
+    const last = after === null || list.length === 0;
+    onBatch?.(rows);
+    return { text: last && format === "json" ? `${text}${rows ? "\n" : ""}]}\n` : text, last };
+  };
+
+  const about = aboutOf(request, resolved.words, origin);
+  const head =
+    format === "csv"
+      ? [
+          ...Object.entries(about)
+            .filter(([, v]) => v !== undefined)
+            .map(([label, v]) => csvCommentLine(label, typeof v === "string" ? v : JSON.stringify(v))),
+          columns.join(","),
+        ].join("\r\n") + "\r\n"
+      : format === "jsonl"
+        ? `${JSON.stringify({ about })}\n`
+        : `{"about":${JSON.stringify(about)},"hits":[`;
+  // Read before anything is answered: an error here is still a problem response.
+  const first = await nextBatch();
+  let done = first.last;
+  // Encoded now, so no closure of the stream keeps the first batch's text.
+  let opening: Uint8Array | null = encoder.encode(`${bom ? "\uFEFF" : ""}${head}${first.text}`);
+
   return new ReadableStream<Uint8Array>(
     {
+      start(controller) {
+        controller.enqueue(opening!);
+        opening = null;
+        if (done) controller.close();
+      },
       async pull(controller) {
-        if (parsed === null) {
-          const resolved = await resolveQuery(request.q);
-          parsed = resolved.parsed;
-          const about = aboutOf(request, resolved.words, origin);
-          const head =
-            format === "csv"
-              ? [
-                  ...Object.entries(about)
-                    .filter(([, v]) => v !== undefined)
-                    .map(([label, v]) => csvCommentLine(label, typeof v === "string" ? v : JSON.stringify(v))),
-                  columns.join(","),
-                ].join("\r\n") + "\r\n"
-              : format === "jsonl"
-                ? `${JSON.stringify({ about })}\n`
-                : `{"about":${JSON.stringify(about)},"hits":[`;
-          controller.enqueue(encoder.encode(`${bom ? "\uFEFF" : ""}${head}`));
-          return;
+        if (done) return;
+        try {
+          const { text, last } = await nextBatch();
+          controller.enqueue(encoder.encode(text));
+          if (last) {
+            done = true;
+            controller.close();
+          }
+        } catch (err) {
+          done = true;
+          console.warn(`[search export] stopped after ${rows} rows:`, (err as Error)?.message ?? err);
+          controller.error(err);
         }
-        const page = await engine.search({ parsed, view: request.view, filters: request.filters, sort: request.sort, after, limit: batch });
-        let list: Row[];
-        if (page.view === "reactions") list = (page.hits as ReactionHit[]).map((h) => reactionRow(h, origin));
-        else {
-          // Rows name species as every public page does, whatever the engine stored.
-          const hits = page.hits as DatasetHit[];
-          const equations = await listDisplayEquations({ reactionKeys: [...new Set(hits.map((h) => h.reactionKey))] });
-          list = hits.map((h) => datasetRow({ ...h, equation: equations.get(h.reactionKey) ?? h.equation }, origin));
-        }
-        const text = rowsText(list);
-        rows += list.length;
-        after = page.nextAfter;
-        const last = after === null || list.length === 0;
-        controller.enqueue(encoder.encode(last && format === "json" ? `${text}${rows ? "\n" : ""}]}\n` : text));
-        onBatch?.(rows);
-        if (last) controller.close();
       },
     },
     { highWaterMark: 1 },

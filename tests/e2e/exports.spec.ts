@@ -84,8 +84,8 @@ test("a whole search result exports as CSV with progress, and the file opens wit
   expect([...bytes.subarray(0, 3)]).toEqual([0xef, 0xbb, 0xbf]);
   const text = bytes.subarray(3).toString("utf8");
   const lines = text.split("\r\n");
-  expect(lines.some((l) => l.startsWith("# caution: "))).toBe(true);
-  const table = Papa.parse<Record<string, string>>(lines.filter((l) => !l.startsWith("#")).join("\n"), {
+  expect(lines.some((l) => l.startsWith('"# caution: '))).toBe(true);
+  const table = Papa.parse<Record<string, string>>(lines.filter((l) => !l.startsWith('"#')).join("\n"), {
     header: true,
     skipEmptyLines: true,
   });

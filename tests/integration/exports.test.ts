@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it, vi } from "vitest";
 
 vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn().mockResolvedValue(null) }));
-vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
+vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn(), unstable_cache: (fn: () => unknown) => fn }));
 
 import { setFlagsFromString } from "node:v8";
 import { runInNewContext } from "node:vm";
@@ -12,6 +12,7 @@ import { GET as getParameters } from "@/app/api/v1/datasets/[id]/versions/[n]/pa
 import { GET as getConsensus } from "@/app/api/v1/reactions/[id]/consensus/route";
 import { GET as getReactionParameters } from "@/app/api/v1/reactions/[id]/parameters/route";
 import { GET as getSearchExport } from "@/app/api/v1/search/export/route";
+import { GET as getSearch } from "@/app/api/v1/search/route";
 import { GET as getPointsCsv } from "@/app/api/v1/versions/[id]/points.csv/route";
 import type { Transition } from "@/lib/curation/lifecycle";
 import { applyTransition } from "@/lib/curation/transitions";
@@ -22,6 +23,7 @@ import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 import { reactionSegment } from "@/lib/reactions/paths";
 import { getReaction } from "@/lib/reactions/queries";
 import { DEFAULT_REQUEST, EMPTY_FILTERS } from "@/lib/search/params";
+import { postgresEngine } from "@/lib/search/engines/postgres";
 import { searchExportStream } from "@/lib/search/export";
 import type { DatasetHit, EngineQuery, SearchEngine, SearchFacet, SearchResult } from "@/lib/search/types";
 import { createUser, type UserDto } from "@/lib/users/queries";
@@ -180,9 +182,10 @@ describe("mechanism parameters of a version", () => {
     const csv = (q: string) =>
       getPointsCsv(new Request(`http://127.0.0.1/api/v1/versions/${published.id}/points.csv${q}`), ctx({ id: String(published.id) }));
     const withBom = new Uint8Array(await (await csv("?bom=1")).arrayBuffer());
-    expect([...withBom.slice(0, 4)]).toEqual([0xef, 0xbb, 0xbf, "#".charCodeAt(0)]);
+    // The first header line is one quoted cell: '"#'.
+    expect([...withBom.slice(0, 5)]).toEqual([0xef, 0xbb, 0xbf, '"'.charCodeAt(0), "#".charCodeAt(0)]);
     const plain = new Uint8Array(await (await csv("")).arrayBuffer());
-    expect(plain[0]).toBe("#".charCodeAt(0));
+    expect([...plain.slice(0, 2)]).toEqual(['"'.charCodeAt(0), "#".charCodeAt(0)]);
     const bad = await csv("?bom=yes");
     expect(bad.status).toBe(400);
     expect((await bad.json()).errors[0].parameter).toBe("bom");
@@ -249,9 +252,11 @@ describe("export of a whole search result", () => {
     expect([...bytes.slice(0, 3)]).toEqual([0xef, 0xbb, 0xbf]);
     const text = new TextDecoder().decode(bytes.slice(3));
     const lines = text.split("\r\n");
-    expect(lines).toContain(`# caution: ${FIT_CAUTION}`);
-    expect(lines.find((l) => l.startsWith("# search: "))).toContain(`q=${WORD}`);
-    const table = Papa.parse<Record<string, string>>(lines.filter((l) => !l.startsWith("#")).join("\n"), {
+    // Each header line is one quoted cell (RFC 4180, read by papaparse) starting with "#".
+    const comments = lines.filter((l) => l.startsWith('"#')).map((l) => Papa.parse<string[]>(l, { delimiter: "," }).data[0][0]);
+    expect(comments).toContain(`# caution: ${FIT_CAUTION}`);
+    expect(comments.find((l) => l.startsWith("# search: "))).toContain(`q=${WORD}`);
+    const table = Papa.parse<Record<string, string>>(lines.filter((l) => !l.startsWith('"#')).join("\n"), {
       header: true,
       skipEmptyLines: true,
     });
@@ -292,6 +297,79 @@ describe("export of a whole search result", () => {
       expect(res.status, query).toBe(400);
       expect((await res.json()).errors[0].parameter, query).toBe(parameter);
     }
+  });
+});
+
+describe("a search export that cannot be answered", () => {
+  const exportOf = (query: string) => getSearchExport(new Request(`http://127.0.0.1/api/v1/search/export?${query}`), ctx({}));
+  const searchOf = (query: string) => getSearch(new Request(`http://127.0.0.1/api/v1/search?${query}`), ctx({}));
+  /** The error the postgres driver gives when the database does not accept connections. */
+  const outage = () => Object.assign(new Error("connect ECONNREFUSED 127.0.0.1:5432"), { code: "ECONNREFUSED" });
+
+  it("a search text GET /api/v1/search refuses is refused the same way, as a problem naming q, before any byte", async () => {
+    for (const q of ["[]", "%", "%ZZ", "%00", "../../etc/passwd"]) {
+      const query = `q=${q}`;
+      const search = await searchOf(query);
+      const res = await exportOf(query);
+      expect(res.status, query).toBe(search.status);
+      if (search.status === 200) continue;
+      expect(res.status, query).toBeGreaterThanOrEqual(400);
+      expect(res.status, query).toBeLessThan(500);
+      expect(res.headers.get("content-type"), query).toMatch(/^application\/problem\+json/);
+      expect((await res.json()).errors[0].pointer, query).toBe("/q");
+    }
+    // The malformed one is refused (the attack that answered 502 before).
+    expect((await exportOf("q=[]")).status).toBe(400);
+  });
+
+  it("the database out of reach for the first batch: a 503 problem with Retry-After, no download", async () => {
+    const spy = vi.spyOn(postgresEngine, "search").mockRejectedValueOnce(outage());
+    try {
+      const res = await exportOf("format=jsonl&view=reactions");
+      expect(res.status).toBe(503);
+      expect(res.headers.get("retry-after")).toBe("5");
+      expect(res.headers.get("content-type")).toMatch(/^application\/problem\+json/);
+      expect(res.headers.get("content-disposition")).toBeNull();
+    } finally {
+      spy.mockRestore();
+    }
+  });
+
+  it("the database lost after the first batch: the stream errors (the connection is cut), it never just stops or hangs", async () => {
+    const search = postgresEngine.search.bind(postgresEngine);
+    const warn = vi.spyOn(console, "warn").mockImplementation(() => {});
+    const spy = vi
+      .spyOn(postgresEngine, "search")
+      // A first page that says more follows, then the outage.
+      .mockImplementationOnce(async (query) => ({ ...(await search(query)), nextAfter: "more" }))
+      .mockRejectedValueOnce(outage());
+    try {
+      const res = await exportOf("format=jsonl&view=reactions");
+      expect(res.status).toBe(200);
+      const reader = res.body!.getReader();
+      const first = await reader.read();
+      expect(new TextDecoder().decode(first.value)).toMatch(/^\{"about":/);
+      await expect(reader.read()).rejects.toMatchObject({ code: "ECONNREFUSED" });
+      expect(warn).toHaveBeenCalled();
+    } finally {
+      spy.mockRestore();
+      warn.mockRestore();
+    }
+  });
+
+  it("CSV: a search text with commas and quotes stays inside its one header cell; no cell starts a formula (read as RFC 4180)", async () => {
+    const q = 'ozone,"=HYPERLINK(""http://evil.example"",""x"")",';
+    const res = await exportOf(`q=${encodeURIComponent(q)}`);
+    expect(res.status).toBe(200);
+    const text = await res.text();
+    // papaparse, an RFC 4180 reader.
+    const records = Papa.parse<string[]>(text, { delimiter: ",", skipEmptyLines: true }).data;
+    const head = records.filter((r) => r[0].startsWith("#"));
+    expect(head.length).toBeGreaterThan(5);
+    for (const record of head) expect(record).toHaveLength(1);
+    expect(head.find((r) => r[0].startsWith("# understood: "))![0]).toContain("=HYPERLINK(");
+    // Common practice (OWASP "CSV injection"): no text cell starts with = + - @.
+    for (const record of records) for (const cell of record) if (!Number.isFinite(Number(cell))) expect(cell).not.toMatch(/^[=+\-@\t\r]/);
   });
 });
 
@@ -344,7 +422,7 @@ describe("a search export of 100 000 rows streams", () => {
   it("the first bytes arrive after one batch is read, the walk never runs more than one batch ahead of the reader, and every row arrives", async () => {
     const { engine, served } = generatedEngine();
     const request = { ...DEFAULT_REQUEST, filters: { ...EMPTY_FILTERS } };
-    const reader = searchExportStream(request, { format: "csv", engine }).getReader();
+    const reader = (await searchExportStream(request, { format: "csv", engine })).getReader();
     const decoder = new TextDecoder();
     let chunks = 0;
     let bytes = 0;
@@ -367,12 +445,13 @@ describe("a search export of 100 000 rows streams", () => {
       chunks++;
       bytes += value.byteLength;
       const piece = decoder.decode(value, { stream: true });
-      const lines = piece.split("\r\n").filter((l) => l && !l.startsWith("#")).length;
+      const lines = piece.split("\r\n").filter((l) => l && !l.startsWith('"#')).length;
       if (lines > 1 && firstRowsAfterPages < 0) firstRowsAfterPages = served.pages;
       rows += lines;
-      // Pages the engine served beyond the chunks of rows the reader has taken (the header chunk is not a page).
-      mostAhead = Math.max(mostAhead, served.pages - (chunks - 1));
-      if (chunks <= 3 || chunks % 25 === 0) text += piece;
+      // Pages the engine served beyond the chunks the reader has taken (the header rides with the first batch).
+      mostAhead = Math.max(mostAhead, served.pages - chunks);
+      // Kept for the checks below: the first two chunks (the header rides with the first batch) and every 25th.
+      if (chunks <= 2 || chunks % 25 === 0) text += piece;
       if (chunks % 10 === 0) heapMost = Math.max(heapMost, held());
     }
     expect(rows).toBe(TOTAL);

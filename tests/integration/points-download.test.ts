@@ -84,7 +84,11 @@ describe("downloads of a version's points", () => {
     const text = await res.text();
     // The unit is named, never "canonical".
     expect(text).not.toMatch(/canonical/i);
-    const comments = text.split("\r\n").filter((l) => l.startsWith("#"));
+    // Each header line is one quoted cell (RFC 4180, read by papaparse) starting with "#".
+    const comments = text
+      .split("\r\n")
+      .filter((l) => l.startsWith('"#'))
+      .map((l) => Papa.parse<string[]>(l, { delimiter: "," }).data[0][0]);
     expect(comments.find((l) => l.startsWith("# version identifier: doi:10.5072/ARH-"))).toMatch(/\/1$/);
     expect(comments).toContain(`# caution: ${FIT_CAUTION}`);
     expect(comments).toContain("# licence: CC-BY-4.0");
@@ -95,7 +99,7 @@ describe("downloads of a version's points", () => {
     const table = Papa.parse<Record<string, string>>(
       text
         .split("\r\n")
-        .filter((l) => !l.startsWith("#"))
+        .filter((l) => !l.startsWith('"#'))
         .join("\n"),
       {
         header: true,
@@ -159,8 +163,8 @@ describe("downloads of a version's points", () => {
     const v = await versionIn("retracted");
     as(null);
     const text = await (await csv(v.id)).text();
-    expect(text).toMatch(/^# version: 1 \(retracted\)\r$/m);
-    expect(text).toMatch(/^# retracted: \d{4}-\d\d-\d\dT.*: Retracted for the test: a calibration error\.\r$/m);
+    expect(text).toMatch(/^"# version: 1 \(retracted\)"\r$/m);
+    expect(text).toMatch(/^"# retracted: \d{4}-\d\d-\d\dT.*: Retracted for the test: a calibration error\."\r$/m);
     const body = await (await json(v.id)).json();
     expect(body.about.retraction.notice).toBe("Retracted for the test: a calibration error.");
   });

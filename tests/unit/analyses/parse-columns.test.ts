@@ -32,6 +32,11 @@ describe("line numbers", () => {
     expect(r.lines).toEqual([4]);
     expect(r.errors).toEqual([{ line: 6, message: "line 6: “x” in column 2 is not a number" }]);
   });
+  it("skip a header line written as one quoted cell starting with # (this product's CSV downloads)", () => {
+    const r = parseColumns('"# title: a, ""b"""\n300 1e-12');
+    expect(r.lines).toEqual([2]);
+    expect(r.errors).toEqual([]);
+  });
 });
 
 describe("decimal commas", () => {

@@ -81,26 +81,39 @@ describe("a version's point rows", () => {
 });
 
 describe("point downloads", () => {
-  it("CSV: a comma in a header text never starts a formula cell in a spreadsheet", () => {
+  /** A CSV read by an RFC 4180 parser (papaparse): the header block's cells and the table after it. */
+  function readCsv(text: string) {
+    const records = Papa.parse<string[]>(text, { delimiter: ",", skipEmptyLines: true }).data;
+    const head = records.filter((r) => r[0].startsWith("#"));
+    const body = records.filter((r) => !r[0].startsWith("#"));
+    return { head, comments: head.map((r) => r[0]), body };
+  }
+
+  it("CSV: every header line is one cell starting with #, whatever commas and quotes its text holds; no cell starts a formula", () => {
     const { rows } = rowsOf(structuredClone(EXAMPLE_DEPOSIT) as DepositDocument);
-    const text = buildPointsCsv({ ...about, title: "Probe,=1+1,@SUM(1;2), -3+3 zorbium", citation: "Doe, +J. (2026)" }, rows);
-    const head = text.split("\r\n").filter((l) => l.startsWith("#"));
-    // Every piece a spreadsheet would make of these lines (split at commas) starts with something other than = + - @.
-    const cells = Papa.parse<string[]>(head.join("\n")).data.flat();
-    for (const cell of cells) expect(cell.trimStart(), cell).not.toMatch(/^[=+\-@]/);
-    expect(head).toContain("# title: Probe,'=1+1,'@SUM(1;2), '-3+3 zorbium");
+    for (const title of ["Probe,=1+1,@SUM(1;2), -3+3 zorbium", 'Rate constants,"=1+2",measured', '","=HYPERLINK(""x"")', "\t=1"]) {
+      const text = buildPointsCsv({ ...about, title, citation: 'Doe, +J. (2026), "-2+3"' }, rows);
+      const { head, comments } = readCsv(text);
+      // Common practice (OWASP "CSV injection"): no text cell a spreadsheet shows may start with = + - @ (a number may be negative).
+      for (const record of Papa.parse<string[]>(text, { delimiter: ",", skipEmptyLines: true }).data)
+        for (const cell of record) if (!Number.isFinite(Number(cell))) expect(cell, title).not.toMatch(/^[=+\-@\t\r]/);
+      for (const record of head) expect(record, title).toHaveLength(1);
+      expect(comments, title).toContain(`# title: ${title}`);
+      expect(comments, title).toContain('# cite as: Doe, +J. (2026), "-2+3"');
+    }
   });
   it("CSV: one comment line per header entry even when a text holds a newline, formula-like text neutralised, every row parses", () => {
     const doc = structuredClone(EXAMPLE_DEPOSIT) as DepositDocument;
     doc.points[9] = { ...doc.points[9], bathGas: "=HYPERLINK(1)" };
     const { rows } = rowsOf(doc);
     const text = buildPointsCsv(about, rows);
-    const lines = text.split("\r\n");
-    expect(lines[0]).toBe("# version identifier: doi:10.5072/ARH-4F7K-9QXM/2");
-    expect(lines).toContain("# title: A title over two lines");
-    expect(lines).toContain("# cite as: " + about.citation);
-    expect(lines).toContain("# caution: The caution sentence.");
-    const table = Papa.parse<Record<string, string>>(lines.filter((l) => !l.startsWith("#")).join("\n"), {
+    const { comments, body } = readCsv(text);
+    expect(text.split("\r\n")[0]).toBe('"# version identifier: doi:10.5072/ARH-4F7K-9QXM/2"');
+    expect(comments[0]).toBe("# version identifier: doi:10.5072/ARH-4F7K-9QXM/2");
+    expect(comments).toContain("# title: A title over two lines");
+    expect(comments).toContain("# cite as: " + about.citation);
+    expect(comments).toContain("# caution: The caution sentence.");
+    const table = Papa.parse<Record<string, string>>(Papa.unparse(body, { newline: "\n" }), {
       header: true,
       skipEmptyLines: true,
     });

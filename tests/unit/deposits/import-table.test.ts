@@ -33,6 +33,16 @@ describe("inspectTable", () => {
     expect(table.guessedUnits).toEqual({ T: "K", k: "cm3 molecule-1 s-1", pressure: "Torr" });
   });
 
+  it("skips header lines written as one quoted cell starting with # (as this product's CSV downloads write them)", () => {
+    const text = '\uFEFF"# title: Rate constants, ""=1+2"", measured"\r\n"# caution: invented"\r\nT/K,k\r\n300,1e-12\r\n400,2e-12\r\n';
+    const table = inspectTable(text, { filename: "points.csv" });
+    expect(table.columns).toEqual(["T/K", "k"]);
+    expect(table.rows).toEqual([
+      ["300", "1e-12"],
+      ["400", "2e-12"],
+    ]);
+  });
+
   it("reads a TSV file", () => {
     const table = inspectTable(fixture("points.tsv"), { filename: "points.tsv" });
     expect(table.format).toBe("tsv");

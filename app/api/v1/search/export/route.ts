@@ -18,7 +18,8 @@ export const GET = withApi(async ({ req }) => {
       throw new AppError("bad_request", message, [{ pointer: `/${name}`, parameter: name, message }]);
     }
   const request = parseSearchParamsOrThrow(searchParams, { strict: true });
-  return new Response(searchExportStream(request, { format, bom }), {
+  const body = await searchExportStream(request, { format, bom });
+  return new Response(body, {
     headers: {
       "content-type": SEARCH_EXPORT_MEDIA_TYPES[format],
       "content-disposition": `attachment; filename="${searchExportFileName(format)}"`,
