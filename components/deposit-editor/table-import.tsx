@@ -278,6 +278,16 @@ export function TableImport({
               </label>
             </div>
           )}
+          {table.notices.length > 0 && (
+            <div role="status" className="rounded-md border border-warn/40 bg-panel p-3 text-sm">
+              <p className="font-medium">Before you use these rows</p>
+              <ul className="mt-1 list-disc space-y-1 pl-5">
+                {table.notices.map((n) => (
+                  <li key={n}>{n}</li>
+                ))}
+              </ul>
+            </div>
+          )}
           <ScrollRegion label="First rows of the imported table">
             <table className="table">
               <caption className="py-1 text-left text-xs text-muted">First {table.preview.length} rows as read</caption>

@@ -51,6 +51,12 @@ export interface InspectedTable {
   guessedUnits: { T?: string; k?: string; pressure?: string };
   /** "relative" when the uncertainty header mentions % , "factor" when it says factor. */
   guessedUncertaintyKind?: UncertaintyKind;
+  /**
+   * What the reader should know before using the rows, in plain words: a unit named in a header that
+   * is not read (the column is then taken in the unit chosen for the dataset), rows with more cells
+   * than the header (often a decimal comma in a comma-separated file).
+   */
+  notices: string[];
 }
 
 export interface ApplyMappingOptions {
@@ -139,20 +145,42 @@ function tryParse(text: string | undefined, parse: (t: string) => { id: string }
   }
 }
 
+const QUANTITY_WORDS = { T: "temperature", k: "rate constant", pressure: "pressure" } as const;
+
+/** Rows (numbered from 1, as the preview numbers them) with more cells than the header has columns. */
+function widerRowsNotice(headerWidth: number, rows: string[][], delimiter: string): string | null {
+  const wider: number[] = [];
+  let count = 0;
+  rows.forEach((r, i) => {
+    if (r.length > headerWidth && r.slice(headerWidth).some((c) => c.trim() !== "")) {
+      count++;
+      if (wider.length < 5) wider.push(i + 1);
+    }
+  });
+  if (!count) return null;
+  const which = `${count === 1 ? "Row" : "Rows"} ${wider.join(", ")}${count > wider.length ? ` and ${count - wider.length} more` : ""}`;
+  const comma =
+    delimiter === ","
+      ? " In a comma-separated table a decimal comma splits a number in two (1,025e-14 becomes 1 and 025e-14): write decimal points, or separate the columns with tabs or semicolons."
+      : "";
+  return `${which} ${count === 1 ? "has" : "have"} more cells than the header has columns (${headerWidth}); the extra cells are not used.${comma}`;
+}
+
 function guessMapping(
   columns: string[],
   hasHeader: boolean,
   rows: string[][],
-): Pick<InspectedTable, "guessedMapping" | "guessedUnits" | "guessedUncertaintyKind"> {
+): Pick<InspectedTable, "guessedMapping" | "guessedUnits" | "guessedUncertaintyKind" | "notices"> {
   const mapping: ColumnMapping = {};
   const units: InspectedTable["guessedUnits"] = {};
+  const notices: string[] = [];
   let kind: UncertaintyKind | undefined;
   if (!hasHeader) {
     // Without a header the usual order is T, k, then an uncertainty.
     const width = Math.max(0, ...rows.slice(0, PREVIEW_ROWS).map((r) => r.length));
     if (width >= 2) Object.assign(mapping, { T: 0, k: 1 });
     if (width >= 3) mapping.uncertainty = 2;
-    return { guessedMapping: mapping, guessedUnits: units };
+    return { guessedMapping: mapping, guessedUnits: units, notices };
   }
   columns.forEach((header, index) => {
     const role = guessColumnRole(header);
@@ -162,13 +190,17 @@ function guessMapping(
     if (role === "T") units.T = tryParse(unitText, parseTemperatureUnit);
     if (role === "k") units.k = tryParse(unitText, (t) => parseRateConstantUnit(t));
     if (role === "pressure") units.pressure = tryParse(unitText, parsePressureUnit);
+    if ((role === "T" || role === "k" || role === "pressure") && unitText && units[role] === undefined)
+      notices.push(
+        `The header “${header}” names the unit “${unitText}”, which is not a ${QUANTITY_WORDS[role]} unit this form knows: the column will be read in the unit chosen for the dataset. Check that unit, or convert the column first.`,
+      );
     if (role === "uncertainty") {
       if (/%|percent|rel/i.test(header)) kind = "relative";
       else if (/factor|\bf\b/i.test(header)) kind = "factor";
     }
   });
   for (const key of Object.keys(units) as (keyof typeof units)[]) if (units[key] === undefined) delete units[key];
-  return { guessedMapping: mapping, guessedUnits: units, ...(kind ? { guessedUncertaintyKind: kind } : {}) };
+  return { guessedMapping: mapping, guessedUnits: units, notices, ...(kind ? { guessedUncertaintyKind: kind } : {}) };
 }
 
 function cellText(value: unknown): string {
@@ -258,6 +290,8 @@ export function inspectTable(text: string, options: { filename?: string } = {}):
   }
   const width = Math.max(header?.length ?? 0, ...raw.slice(0, 1000).map((r) => r.length));
   const columns = Array.from({ length: width }, (_, i) => header?.[i]?.trim() || `Column ${i + 1}`);
+  const guessed = guessMapping(columns, header !== null, raw);
+  const wider = header ? widerRowsNotice(header.length, raw, delimiter) : null;
   return {
     format,
     columns,
@@ -265,7 +299,8 @@ export function inspectTable(text: string, options: { filename?: string } = {}):
     preview: raw.slice(0, PREVIEW_ROWS),
     delimiter,
     hasHeader: header !== null,
-    ...guessMapping(columns, header !== null, raw),
+    ...guessed,
+    notices: wider ? [...guessed.notices, wider] : guessed.notices,
   };
 }
 

@@ -43,6 +43,24 @@ describe("inspectTable", () => {
     ]);
   });
 
+  it("says when a header names a unit it does not know, and nothing when every unit is read", () => {
+    const table = inspectTable("T (°F)\tk (ft3 lbmol-1 h-1)\n250\t2.082e-15\n300\t4.1e-15\n");
+    expect(table.guessedUnits).toEqual({});
+    expect(table.notices).toHaveLength(2);
+    expect(table.notices[0]).toMatch(/“T \(°F\)” names the unit “°F”, which is not a temperature unit this form knows/);
+    expect(table.notices[1]).toMatch(/“ft3 lbmol-1 h-1”, which is not a rate constant unit/);
+    expect(inspectTable(fixture("points.csv"), { filename: "points.csv" }).notices).toEqual([]);
+  });
+
+  it("says which rows have more cells than the header, and suggests a decimal comma in a comma-separated table", () => {
+    const table = inspectTable("T (K),k (cm3 molecule-1 s-1)\n300,1.0e-14\n325,1,025e-14\n350,1.2e-14\n");
+    expect(table.notices).toEqual([
+      expect.stringMatching(/^Row 2 has more cells than the header has columns \(2\); the extra cells are not used\. .*decimal comma/),
+    ]);
+    const tabs = inspectTable("T (K)\tk (cm3 molecule-1 s-1)\n300\t1e-14\tx\n325\t1e-14\ty\n");
+    expect(tabs.notices).toEqual([expect.stringMatching(/^Rows 1, 2 have more cells .* not used\.$/)]);
+  });
+
   it("reads a TSV file", () => {
     const table = inspectTable(fixture("points.tsv"), { filename: "points.tsv" });
     expect(table.format).toBe("tsv");
