@@ -40,17 +40,39 @@ export function describeSchema(s: Record<string, unknown>): string {
 
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, "-");
 
+/** Text with `backticked` parts set as code (the endpoint list writes names that way). */
+function Inline({ text }: { text: string }) {
+  return text
+    .split(/(`[^`]+`)/)
+    .map((part, i) => (part.length > 2 && part.startsWith("`") && part.endsWith("`") ? <code key={i}>{part.slice(1, -1)}</code> : part));
+}
+
+/** A path that may break after its slashes on a narrow screen, never inside a word. */
+function BreakablePath({ path }: { path: string }) {
+  return path.split("/").map((segment, i) => (
+    <span key={i}>
+      {i > 0 && "/"}
+      {i > 0 && <wbr />}
+      {segment}
+    </span>
+  ));
+}
+
 function OperationBlock({ method, path, op }: { method: string; path: string; op: Operation }) {
   const headingId = `op-${op.operationId}`;
   return (
     <section className="space-y-2 border-t border-line pt-4" aria-labelledby={headingId}>
-      <h4 id={headingId} className="font-semibold break-all">
+      <h4 id={headingId} className="font-semibold [overflow-wrap:anywhere]">
         <code>
-          {method.toUpperCase()} {path}
+          {method.toUpperCase()} <BreakablePath path={path} />
         </code>
       </h4>
-      <p className="text-sm">{op.summary}.</p>
-      <p className="text-sm text-muted">{op.description}</p>
+      <p className="text-sm">
+        <Inline text={op.summary} />.
+      </p>
+      <p className="text-sm text-muted">
+        <Inline text={op.description} />
+      </p>
       {op.parameters && op.parameters.length > 0 && (
         <ScrollRegion label={`Parameters of ${method.toUpperCase()} ${path}`}>
           <table className="table text-sm">
@@ -67,14 +89,20 @@ function OperationBlock({ method, path, op }: { method: string; path: string; op
             <tbody>
               {op.parameters.map((p) => (
                 <tr key={`${p.in}-${p.name}`}>
-                  <td>
+                  <td className="whitespace-nowrap">
                     <code>{p.name}</code>
                     {p.required ? " (required)" : ""}
                   </td>
                   <td>{p.in}</td>
                   <td>
                     {describeSchema(p.schema)}
-                    {p.description ? `. ${p.description}` : ""}
+                    {p.description ? (
+                      <>
+                        . <Inline text={p.description} />
+                      </>
+                    ) : (
+                      ""
+                    )}
                   </td>
                 </tr>
               ))}
@@ -84,14 +112,16 @@ function OperationBlock({ method, path, op }: { method: string; path: string; op
       )}
       {op.requestBody && (
         <p className="text-sm">
-          Body ({Object.keys(op.requestBody.content).join(", ")}): {op.requestBody.description}
+          Body ({Object.keys(op.requestBody.content).join(", ")}): <Inline text={op.requestBody.description} />
         </p>
       )}
       <p className="text-sm">
         Answers:{" "}
-        {Object.entries(op.responses)
-          .map(([status, r]) => `${status} ${r.description}`)
-          .join(" · ")}
+        <Inline
+          text={Object.entries(op.responses)
+            .map(([status, r]) => `${status} ${r.description}`)
+            .join(" · ")}
+        />
       </p>
       {op["x-codeSamples"].map((sample) => (
         <ScrollRegion key={sample.label} label={`${sample.label} example of ${method.toUpperCase()} ${path}`}>
