@@ -255,6 +255,9 @@ export function LifecyclePanel({ version, role, capabilities, checks, decisions,
         </p>
       )}
 
+      {/* After a resubmission the authors keep seeing what they answered, beside what they were asked. */}
+      {!answersReturn && conversation.some((e) => e.kind === "reply") && <Conversation entries={conversation} />}
+
       <div className="space-y-2">
         <h3 className="text-base font-semibold">Decisions</h3>
         {decisions.length === 0 ? (

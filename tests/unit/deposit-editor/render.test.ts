@@ -235,6 +235,31 @@ describe("LifecyclePanel after a return", () => {
     // Read-only: the reply being written is the only text field.
     expect(html.match(/<textarea/g)).toHaveLength(1);
   });
+
+  it("keeps showing the authors their reply once the version is submitted again", async () => {
+    const { LifecyclePanel } = await import("@/components/deposit-editor/lifecycle-panel");
+    const { returnConversation } = await import("@/lib/curation/conversation");
+    const conversation = returnConversation(
+      [{ decision: "return", reason: "The units of k are missing.", curator: "Curator One", createdAt: "2024-05-01T10:00:00.000Z" }],
+      [{ reply: "Units added to the k column.", submittedBy: "Okafor, Maren", createdAt: "2024-05-02T08:00:00.000Z" }],
+    );
+    const html = renderToStaticMarkup(
+      h(LifecyclePanel, {
+        version: { id: 9, number: 1, state: "submitted", versionIdentifier: null, retractionNotice: null },
+        role: "owner",
+        capabilities: versionCapabilities({ state: "submitted", siteRole: "researcher", datasetRole: "owner" }),
+        checks: [],
+        decisions: [],
+        conversation,
+        members: [],
+        dirty: false,
+        notReady: 0,
+      }),
+    );
+    expect(html).toContain("The conversation so far");
+    expect(html).toContain("Units added to the k column.");
+    expect(html).not.toContain("<textarea");
+  });
 });
 
 describe("DepositEditor markup", () => {
