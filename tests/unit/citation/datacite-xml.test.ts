@@ -136,7 +136,13 @@ function referencesAreDefined(xml: string): boolean {
     if (!whole.endsWith(";")) return false;
     if (["amp", "lt", "gt", "quot", "apos"].includes(name)) continue;
     const code = /^#x([0-9a-fA-F]+)$/.exec(name) ? parseInt(name.slice(2), 16) : /^#(\d+)$/.test(name) ? Number(name.slice(1)) : NaN;
-    const isChar = code === 0x9 || code === 0xa || code === 0xd || (code >= 0x20 && code <= 0xd7ff) || (code >= 0xe000 && code <= 0xfffd) || (code >= 0x10000 && code <= 0x10ffff);
+    const isChar =
+      code === 0x9 ||
+      code === 0xa ||
+      code === 0xd ||
+      (code >= 0x20 && code <= 0xd7ff) ||
+      (code >= 0xe000 && code <= 0xfffd) ||
+      (code >= 0x10000 && code <= 0x10ffff);
     if (!isChar) return false;
   }
   return true;
@@ -154,7 +160,8 @@ describe("titles with entity-like text, markup and CDATA ends", () => {
   for (const title of titles) {
     it(`${JSON.stringify(title)} reads back exactly, in the JSON and the XML alike`, () => {
       const creator = `${title} Group`;
-      const attrs = buildDoiMetadata({ ...input, payload: { ...payload, title, description: title, creators: [{ name: creator }] } }).data.attributes;
+      const attrs = buildDoiMetadata({ ...input, payload: { ...payload, title, description: title, creators: [{ name: creator }] } }).data
+        .attributes;
       const doc = buildDataciteXml(attrs);
       expect(XMLValidator.validate(doc)).toBe(true);
       expect(referencesAreDefined(doc)).toBe(true);

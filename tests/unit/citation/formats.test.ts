@@ -233,7 +233,9 @@ describe("BibTeX of names and titles with braces and backslashes", () => {
       // An independent parser (@orcid/bibtex-parse-js) sees one entry with one title and no field of the name's making.
       const entries = parseBibtexIndependently(bib);
       expect(entries).toHaveLength(1);
-      const fields = Object.keys(entries[0].entryTags).map((k) => k.toLowerCase()).sort();
+      const fields = Object.keys(entries[0].entryTags)
+        .map((k) => k.toLowerCase())
+        .sort();
       expect(fields.every((f) => ["author", "doi", "month", "note", "publisher", "title", "url", "year"].includes(f))).toBe(true);
       expect(fields.filter((f) => f === "title")).toHaveLength(1);
       expect(fields).not.toContain("howpublished");
