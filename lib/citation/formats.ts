@@ -11,7 +11,7 @@ import { Cite, plugins } from "@citation-js/core";
 import "@citation-js/plugin-csl";
 import "@citation-js/plugin-bibtex";
 import "@citation-js/plugin-ris";
-import type { CslItem } from "./csl";
+import type { CslItem, CslName } from "./csl";
 
 /** CSL variables a shipped style never prints for a dataset (its style file has no rule that reads them). */
 type IgnoredVariable = "version" | "publisher" | "status" | "DOI";
@@ -95,10 +95,49 @@ export function formatBibtex(item: CslItem): string {
   const year = item.issued?.["date-parts"]?.[0];
   const forBibtex: CslItem = {
     ...item,
+    ...(item.author ? { author: item.author.map(bibtexSafeName) } : {}),
+    ...(item.DOI ? { DOI: verbatimSafe(item.DOI) } : {}),
+    ...(item.URL ? { URL: verbatimSafe(item.URL) } : {}),
     ...(year ? { issued: { "date-parts": [year.slice(0, 2)] } } : {}),
     ...(noteOf(item) ? { note: noteOf(item) } : {}),
   };
   return new Cite(forBibtex).format("bibtex").trim() + "\n";
+}
+
+/**
+ * BibTeX's special characters as citation-js writes them in a person's name (its escaping, from
+ * @citation-js/plugin-bibtex's command table): a brace or backslash in a value would otherwise end
+ * the field or start a command.
+ */
+const BIBTEX_SPECIAL: Record<string, string> = {
+  "\\": "\\textbackslash{}",
+  "{": "\\textbraceleft{}",
+  "}": "\\textbraceright{}",
+  $: "\\textdollar{}",
+  _: "\\textunderscore{}",
+  "^": "\\textasciicircum{}",
+  "~": "\\textasciitilde{}",
+  "&": "\\&",
+  "%": "\\%",
+  "#": "\\#",
+};
+
+/** A text written into BibTeX as is, escaped as citation-js escapes a person's name. */
+export function escapeBibtexText(text: string): string {
+  return text.replace(/[\\{}$_^~&%#]/g, (c) => BIBTEX_SPECIAL[c]!);
+}
+
+/**
+ * An organisation's name (one literal) escaped before citation-js gets it: citation-js writes a
+ * literal name inside braces unescaped, where a "}" would close the field early.
+ */
+function bibtexSafeName(name: CslName): CslName {
+  return "literal" in name ? { literal: escapeBibtexText(name.literal) } : name;
+}
+
+/** DOI and URL are written verbatim (no escapes exist there): braces and backslashes percent-encoded, as in a URL. */
+function verbatimSafe(value: string): string {
+  return value.replace(/[{}\\]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
 }
 
 /** What BibTeX's and RIS's note says: the version (neither format has a field for it in a dataset entry) and a retraction. */

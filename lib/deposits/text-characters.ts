@@ -1,20 +1,20 @@
 /**
  * The one rule for characters in a deposit's text (lib/text/clean.ts forbiddenCharacter): no
- * control character, DEL/C1 control, lone surrogate or U+FFFE/U+FFFF in any text of the document;
- * tab and line breaks only in the fields written over several lines. The editor, the table import
+ * control character, DEL/C1 control, lone surrogate or noncharacter (U+FDD0–U+FDEF, U+FFFE/U+FFFF)
+ * in any text of the document; tab and line breaks only in the fields written over several lines,
+ * and no line/paragraph separator (U+2028/U+2029), text direction control or zero width space in a one-line field. The editor, the table import
  * (through the editor's save) and the API all validate through here, so a document holding one is
  * refused as a whole, with the JSON pointer and the character named. Pure.
  */
 import type { FieldError } from "@/lib/errors";
-import { describeCharacter, forbiddenCharacter } from "@/lib/text/clean";
+import { SUSPECT_CHARACTER, describeCharacter, forbiddenCharacter } from "@/lib/text/clean";
 import { sentenceAt } from "./messages";
 import { escapePointerSegment } from "./schema";
 
 /** The fields written over several lines (text areas in the editor); every other text is one line. */
 export const MULTI_LINE_FIELDS: ReadonlySet<string> = new Set(["/description", "/method/notes", "/conditions/notes"]);
 
-/** Whether a string could hold a forbidden character at all (one cheap test before the precise one). */
-const SUSPECT = /[\u0000-\u001F\u007F-\u009F\uD800-\uDFFF\uFFFE\uFFFF]/;
+const SUSPECT = SUSPECT_CHARACTER;
 
 /** The error for one string, or null when it is fine. */
 export function forbiddenCharacterError(pointer: string, text: string): FieldError | null {

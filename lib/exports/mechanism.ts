@@ -12,6 +12,7 @@
  * A′ is read in (length³/quantity)^(order−1)/time.
  */
 import { Document } from "yaml";
+import { oneLineText } from "@/lib/text/clean";
 import type { ReactionOrder } from "@/lib/kinetics/types";
 import {
   convertEnergy,
@@ -141,7 +142,8 @@ function aboutLines(subject: MechanismSubject): [string, string][] {
   if (subject.citation) lines.push(["cite as", subject.citation]);
   if (subject.engineVersion) lines.push(["fitted by", `Arrhenia kinetics engine ${subject.engineVersion}`]);
   lines.push(["caution", subject.caution]);
-  return lines;
+  // One line each, whatever the deposit holds: a YAML 1.1 reader breaks lines at U+0085/U+2028/U+2029 too.
+  return lines.map(([label, text]) => [label, oneLineText(text)]);
 }
 
 /** Pads each column to its widest cell (two spaces between columns). */
@@ -185,7 +187,7 @@ export function canteraEquation(participants: MechanismSubject["participants"]):
   const side = (s: "reactant" | "product") =>
     participants
       .filter((p) => p.side === s)
-      .map((p) => `${p.coefficient !== 1 ? `${p.coefficient} ` : ""}${p.name.trim().replace(/\s+/g, "_")}`)
+      .map((p) => `${p.coefficient !== 1 ? `${p.coefficient} ` : ""}${oneLineText(p.name).replace(/\s+/g, "_")}`)
       .join(" + ");
   return `${side("reactant")} => ${side("product") || "products"}`;
 }
@@ -221,9 +223,9 @@ export function buildCanteraYaml(
     ],
   });
   doc.commentBefore = [
-    ` Arrhenia mechanism parameters: ${subject.equation}`,
-    ...(subject.identifier ? [` doi:${subject.identifier}`] : []),
-    ` ${subject.caution}`,
+    ` Arrhenia mechanism parameters: ${oneLineText(subject.equation)}`,
+    ...(subject.identifier ? [` doi:${oneLineText(subject.identifier)}`] : []),
+    ` ${oneLineText(subject.caution)}`,
   ].join("\n");
   // Numbers as JavaScript writes them (shortest text that reads back to the same double), never folded lines.
   return doc.toString({ lineWidth: 0 });

@@ -42,6 +42,9 @@ export const reactionParametersQuerySchema = versionParametersQuerySchema
 /** GET …/versions/:n/export.json: no parameters (an unknown one is a 400, never ignored). */
 export const versionExportQuerySchema = z.object({}).strict();
 
+/** GET …/versions/:n/datacite.json and datacite.xml: no parameters (an unknown one is a 400, never ignored). */
+export const dataciteQuerySchema = z.object({}).strict();
+
 /** GET /api/v1/versions/:id/points.csv. */
 export const pointsCsvQuerySchema = z.object({ bom: flag("bom").default(false) }).strict();
 

@@ -379,11 +379,21 @@ const XSI_NS = "http://www.w3.org/2001/XMLSchema-instance";
 const KERNEL_SCHEMA = "http://schema.datacite.org/meta/kernel-4/metadata.xsd";
 
 /**
+ * A text for xmlbuilder2's `txt`/`att`: characters XML cannot carry removed and every "&" written
+ * as "&amp;" here. xmlbuilder2 escapes "<", ">" and '"' itself but leaves an "&" that starts
+ * something entity-like ("&nbsp;", "&#0;", "&amp;") as it is, so a title holding such text would
+ * come out as an undefined entity or read as another character; an "&amp;" it always leaves.
+ */
+export function xmlBuilderText(text: string): string {
+  return xmlSafeText(text).replace(/&/g, "&amp;");
+}
+
+/**
  * The same metadata as DataCite XML (kernel 4: `resource` in the kernel-4 namespace with its schema
- * location), built with xmlbuilder2 so every text and attribute is escaped by the library.
+ * location), built with xmlbuilder2; every text and attribute passes through xmlBuilderText first.
  */
 export function buildDataciteXml(attributes: DataciteAttributes): string {
-  const a = mapStrings(attributes, xmlSafeText);
+  const a = mapStrings(attributes, xmlBuilderText);
   const root = create({ version: "1.0", encoding: "UTF-8" })
     .ele(KERNEL_NS, "resource")
     .att(XSI_NS, "xsi:schemaLocation", `${KERNEL_NS} ${KERNEL_SCHEMA}`);

@@ -14,9 +14,19 @@ export function xmlSafeText(text: string): string {
   return text.replace(NOT_XML_CHAR, "");
 }
 
-/** One line of text: characters XML cannot carry removed, every run of white space (line breaks included) one space. */
+/** Characters that change how a line displays without being seen: zero width space, text direction controls, noncharacters. */
+const UNSEEN = /[\u200B\u202A-\u202E\u2066-\u2069\uFDD0-\uFDEF]/g;
+
+/**
+ * One line of text: characters XML cannot carry and unseen ones (UNSEEN) removed, every run of
+ * white space one space — line breaks included, and the ones YAML 1.1 readers also break lines at
+ * (U+0085, U+2028, U+2029), so a line-based format never gets a line the text did not mean.
+ */
 export function oneLineText(text: string): string {
-  return xmlSafeText(text).replace(/\s+/g, " ").trim();
+  return xmlSafeText(text)
+    .replace(UNSEEN, "")
+    .replace(/[\s\u0085]+/g, " ")
+    .trim();
 }
 
 /** Every string inside a JSON-like value passed through `clean` (objects and arrays copied, other values kept). */
@@ -31,13 +41,22 @@ export function mapStrings<T>(value: T, clean: (s: string) => string): T {
 
 /**
  * Characters no deposited text may hold, so that every format the text later travels in (XML,
- * RIS, BibTeX, CSV, a terminal) carries it as written: the C0 controls (tab, line feed and
+ * RIS, BibTeX, CSV, YAML, a terminal) carries it as written: the C0 controls (tab, line feed and
  * carriage return only in a field that allows lines), DEL and the C1 controls (U+007F–U+009F),
- * lone surrogates and the noncharacters U+FFFE / U+FFFF. Refused where text enters, never removed.
+ * lone surrogates and the noncharacters U+FDD0–U+FDEF, U+FFFE / U+FFFF (the Unicode Standard,
+ * §23.7). A one-line field holds none of the line and paragraph separators U+2028 / U+2029 (a
+ * YAML 1.1 reader breaks the line there), the bidirectional embeddings, overrides and isolates
+ * U+202A–U+202E and U+2066–U+2069 (which make the text display in another order than it reads,
+ * Unicode Standard Annex #9) or the zero width space U+200B. Refused where text enters, never removed.
  */
-const FORBIDDEN_IN_LINE = /[\u0000-\u001F\u007F-\u009F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+const FORBIDDEN_IN_LINE =
+  /[\u0000-\u001F\u007F-\u009F\u200B\u2028\u2029\u202A-\u202E\u2066-\u2069\uFDD0-\uFDEF\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 const FORBIDDEN_IN_LINES =
-  /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+  /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F\uFDD0-\uFDEF\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** Whether a string could hold a forbidden character at all (one cheap test before the precise one). */
+export const SUSPECT_CHARACTER =
+  /[\u0000-\u001F\u007F-\u009F\u200B\u2028\u2029\u202A-\u202E\u2066-\u2069\uD800-\uDFFF\uFDD0-\uFDEF\uFFFE\uFFFF]/;
 
 /** A character's code as U+XXXX. */
 export const codePointLabel = (c: string) => `U+${c.charCodeAt(0).toString(16).toUpperCase().padStart(4, "0")}`;
@@ -48,6 +67,9 @@ const CHARACTER_NAMES: Record<string, string> = {
   "\n": "line feed",
   "\r": "carriage return",
   "\u007F": "delete",
+  "\u200B": "zero width space",
+  "\u2028": "line separator",
+  "\u2029": "paragraph separator",
   "\uFFFE": "not a character",
   "\uFFFF": "not a character",
 };
@@ -55,7 +77,15 @@ const CHARACTER_NAMES: Record<string, string> = {
 /** What the character is, in words: "U+0007 (a control character)", "U+000A (line feed)". */
 export function describeCharacter(c: string): string {
   const code = c.charCodeAt(0);
-  const name = CHARACTER_NAMES[c] ?? (code >= 0xd800 && code <= 0xdfff ? "half of a character, not valid Unicode" : "a control character");
+  const name =
+    CHARACTER_NAMES[c] ??
+    (code >= 0xd800 && code <= 0xdfff
+      ? "half of a character, not valid Unicode"
+      : code >= 0xfdd0 && code <= 0xfdef
+        ? "not a character"
+        : (code >= 0x202a && code <= 0x202e) || (code >= 0x2066 && code <= 0x2069)
+          ? "a text direction control"
+          : "a control character");
   return `${codePointLabel(c)} (${name})`;
 }
 

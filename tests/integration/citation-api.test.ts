@@ -3,7 +3,7 @@ import { beforeAll, describe, expect, it, vi } from "vitest";
 vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
 
 import { toJSON as parseBibtexIndependently } from "@orcid/bibtex-parse-js";
-import { XMLValidator } from "fast-xml-parser";
+import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { GET as getCitation } from "@/app/api/v1/datasets/[id]/citation/route";
 import { GET as getDataciteJson } from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.json/route";
 import { GET as getDataciteXml } from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.xml/route";
@@ -57,9 +57,9 @@ const citation = (datasetId: number | string, query = "") =>
   getCitation(new Request(`http://127.0.0.1/api/v1/datasets/${datasetId}/citation${query}`), {
     params: Promise.resolve({ id: String(datasetId) }),
   });
-const datacite = (kind: "json" | "xml", datasetId: number | string, n: number | string) =>
+const datacite = (kind: "json" | "xml", datasetId: number | string, n: number | string, query = "") =>
   (kind === "json" ? getDataciteJson : getDataciteXml)(
-    new Request(`http://127.0.0.1/api/v1/datasets/${datasetId}/versions/${n}/datacite.${kind}`),
+    new Request(`http://127.0.0.1/api/v1/datasets/${datasetId}/versions/${n}/datacite.${kind}${query}`),
     {
       params: Promise.resolve({ id: String(datasetId), n: String(n) }),
     },
@@ -237,5 +237,35 @@ describe("GET /api/v1/datasets/:id/versions/:n/datacite.json and .xml", () => {
     as(null);
     expect((await datacite("json", published.datasetId, 9)).status).toBe(404);
     expect((await datacite("xml", published.datasetId, "x1")).status).toBe(404);
+  });
+
+  it("400 problem naming an unknown or repeated parameter (neither route takes any)", async () => {
+    as(null);
+    for (const kind of ["json", "xml"] as const)
+      for (const [query, parameter] of [
+        ["?format=xml", "format"],
+        ["?x=1&x=2", "x"],
+      ]) {
+        const res = await datacite(kind, published.datasetId, 1, query);
+        expect(res.status, `${kind} ${query}`).toBe(400);
+        expect(res.headers.get("content-type")).toBe("application/problem+json");
+        expect((await res.json()).errors.map((e: { parameter: string }) => e.parameter)).toContain(parameter);
+      }
+  });
+
+  it("a title with entity-like text and markup reads back as deposited from the XML, as in the JSON", async () => {
+    as(null);
+    // An invented title: "&nbsp;", "&#0;", "&amp;" and "<b>" are text here, not markup.
+    const title = `OH + ethane rate constants&nbsp;(measured) &#0; &lt;b&gt; &amp; <b>x</b> ]]> ${uniqueEmail("t")}`;
+    const odd = await datasetIn("published", (doc) => {
+      doc.title = title;
+    });
+    const json = (await (await datacite("json", odd.datasetId, 1)).json()).data.attributes;
+    const xml = await (await datacite("xml", odd.datasetId, 1)).text();
+    expect(XMLValidator.validate(xml)).toBe(true);
+    expect(xml).not.toMatch(/&(?!(amp|lt|gt|quot|apos);)/);
+    const back = new XMLParser({ isArray: (name) => name === "title" }).parse(xml).resource;
+    expect(json.titles[0].title).toBe(title);
+    expect(back.titles.title[0]).toBe(title);
   });
 });

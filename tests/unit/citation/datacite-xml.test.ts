@@ -125,6 +125,62 @@ describe("text XML 1.0 cannot carry", () => {
   });
 });
 
+/**
+ * Every "&" in a document starts a reference XML 1.0 defines without a DTD (§4.6: the five
+ * predefined entities; §4.1: a character reference to a character of production Char, §2.2), so
+ * a reader that refuses undefined entities (fast-xml-parser's validator does not check this) reads it.
+ */
+function referencesAreDefined(xml: string): boolean {
+  for (const m of xml.matchAll(/&([^;]*);?/g)) {
+    const [whole, name] = m;
+    if (!whole.endsWith(";")) return false;
+    if (["amp", "lt", "gt", "quot", "apos"].includes(name)) continue;
+    const code = /^#x([0-9a-fA-F]+)$/.exec(name) ? parseInt(name.slice(2), 16) : /^#(\d+)$/.test(name) ? Number(name.slice(1)) : NaN;
+    const isChar =
+      code === 0x9 ||
+      code === 0xa ||
+      code === 0xd ||
+      (code >= 0x20 && code <= 0xd7ff) ||
+      (code >= 0xe000 && code <= 0xfffd) ||
+      (code >= 0x10000 && code <= 0x10ffff);
+    if (!isChar) return false;
+  }
+  return true;
+}
+
+describe("titles with entity-like text, markup and CDATA ends", () => {
+  // Invented titles: text that looks like XML or HTML references must reach a reader as typed.
+  const titles = [
+    "OH + ethane rate constants&nbsp;(measured) &#0; &lt;b&gt;",
+    "OH &amp; ethane",
+    "OH + <b>ethane</b>",
+    "OH + ethane ]]> end",
+    "&#x41; &unknown; & && &#65;",
+  ];
+  for (const title of titles) {
+    it(`${JSON.stringify(title)} reads back exactly, in the JSON and the XML alike`, () => {
+      const creator = `${title} Group`;
+      const attrs = buildDoiMetadata({ ...input, payload: { ...payload, title, description: title, creators: [{ name: creator }] } }).data
+        .attributes;
+      const doc = buildDataciteXml(attrs);
+      expect(XMLValidator.validate(doc)).toBe(true);
+      expect(referencesAreDefined(doc)).toBe(true);
+      const back = parser.parse(doc).resource;
+      expect(attrs.titles[0].title).toBe(title);
+      expect(back.titles.title[0]).toBe(title);
+      expect(back.descriptions.description.map((d: { "#text": string }) => d["#text"])).toContain(title);
+      expect(back.creators.creator[0].creatorName["#text"]).toBe(creator);
+      expect(back.creators.creator[0].creatorName["#text"]).toBe(attrs.creators[0].name);
+    });
+  }
+
+  it("the check of references refuses what xmlbuilder2 would have left as it is", () => {
+    expect(referencesAreDefined("<t>&nbsp;</t>")).toBe(false);
+    expect(referencesAreDefined("<t>&#0;</t>")).toBe(false);
+    expect(referencesAreDefined("<t>&amp;nbsp; &#65; &#x41;</t>")).toBe(true);
+  });
+});
+
 describe("XML of a retracted version by an organisation and a person", () => {
   const retractedXml = buildDataciteXml(
     buildDoiMetadata({

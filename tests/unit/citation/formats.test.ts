@@ -213,6 +213,37 @@ describe("BibTeX, RIS and CSL-JSON", () => {
   });
 });
 
+describe("BibTeX of names and titles with braces and backslashes", () => {
+  // Invented names and titles: an organisation's name (a literal) trying to close its field early.
+  const awkward = [
+    ["Evil Group}}, title = {Pwned}, howpublished = {{x", "OH + ethane {rate} constants"],
+    ["Eve Consortium}}, title = {Pwned", "Rates \\ of OH }"],
+    ["Odd Team {a} \\x $1_2^3~ & 50% #1", "{{Unbalanced title"],
+    ["Smith and Jones Group", "A plain title"],
+  ] as const;
+
+  for (const [creator, title] of awkward) {
+    it(`${JSON.stringify(creator)} stays one author and the title stays one title`, () => {
+      const subject: CitationSubject = { ...version, title, creators: [creator, "Emi Tanaka"] };
+      const bib = formatBibtex(buildCslItem(subject));
+      // citation-js reads its own entry back to the deposited name and title.
+      const [back] = new Cite(bib).data as Record<string, unknown>[];
+      expect(back.title).toBe(title);
+      expect(back.author).toEqual([{ family: creator }, { family: "Tanaka", given: "Emi" }]);
+      // An independent parser (@orcid/bibtex-parse-js) sees one entry with one title and no field of the name's making.
+      const entries = parseBibtexIndependently(bib);
+      expect(entries).toHaveLength(1);
+      const fields = Object.keys(entries[0].entryTags)
+        .map((k) => k.toLowerCase())
+        .sort();
+      expect(fields.every((f) => ["author", "doi", "month", "note", "publisher", "title", "url", "year"].includes(f))).toBe(true);
+      expect(fields.filter((f) => f === "title")).toHaveLength(1);
+      expect(fields).not.toContain("howpublished");
+      expect(bib.match(/^\s*title\s*=/gm)).toHaveLength(1);
+    });
+  }
+});
+
 describe("RIS record ids", () => {
   it("are whole, at most 20 characters, stable and read back unchanged by citation-js", () => {
     const keys = [

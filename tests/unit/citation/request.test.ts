@@ -1,6 +1,10 @@
 import { describe, expect, it } from "vitest";
 import { citationQueryOrThrow, negotiateCitationFormat, parseCitationQueryOrThrow } from "@/lib/citation/request";
 import { AppError } from "@/lib/errors";
+// @ts-expect-error -- next.config.mjs is JavaScript, which the type check leaves out (allowJs is off)
+import { acceptRewritesToCitation as acceptRewritesToCitationUntyped } from "@/next.config.mjs";
+
+const acceptRewritesToCitation = acceptRewritesToCitationUntyped as (accept: string) => boolean;
 
 describe("negotiateCitationFormat (RFC 9110 §12.5.1: highest q, then the order written)", () => {
   it.each([
@@ -15,6 +19,28 @@ describe("negotiateCitationFormat (RFC 9110 §12.5.1: highest q, then the order 
     ["text/html", null],
     [null, null],
   ])("%s → %s", (accept, format) => expect(negotiateCitationFormat(accept)).toBe(format));
+});
+
+describe("a dataset page's rewrite to the citation endpoint (next.config.mjs), by Accept", () => {
+  // RFC 9110 §12.5.1 (quality values; q=0 is "not acceptable") and §8.3.1 (media types are case-insensitive).
+  it.each([
+    ["application/x-bibtex", true],
+    ["APPLICATION/X-BibTeX", true],
+    ["text/html;q=0.1, application/x-bibtex", true],
+    ["text/x-bibliography; q=1.0, TEXT/HTML;q=0.8", true],
+    ["application/x-bibtex;q=0.5", true],
+    ["application/vnd.citationstyles.csl+json", true],
+    ["application/x-bibtex;q=0", false],
+    ["application/x-bibtex; q=0.000, text/html", false],
+    ["text/html, application/x-bibtex", false],
+    ["Text/HTML, application/x-bibtex", false],
+    ["text/html,application/xhtml+xml,application/xml;q=0.9,*/*;q=0.8", false],
+    ["application/x-bibtexx", false],
+  ])("%s → citation: %s", (accept, citation) => {
+    expect(acceptRewritesToCitation(accept)).toBe(citation);
+    // Whatever the rewrite passes on, the endpoint reads a format from.
+    if (citation) expect(negotiateCitationFormat(accept)).not.toBeNull();
+  });
 });
 
 describe("citationQueryOrThrow", () => {

@@ -55,10 +55,51 @@ describe("characters no deposited text may hold", () => {
     doc.title = "Two\nlines";
     doc.units = { ...doc.units, k: "cm3 molecule-1 s-1\u0085" };
     doc.points[3] = { ...doc.points[3], note: "x\u001B[31m" };
-    doc.source = { reference: { type: "article-journal", title: "A\u2028B fine", "container-title": "J.\u007F" } };
+    doc.source = { reference: { type: "article-journal", title: "A\u00A0B fine", "container-title": "J.\u007F" } };
     const pointers = errorsOf(doc).map((e) => e.pointer);
     expect(pointers).toEqual(expect.arrayContaining(["/title", "/units/k", "/points/3/note", "/source/reference/container-title"]));
     expect(pointers).not.toContain("/source/reference/title");
+  });
+
+  // The Unicode Standard: U+2028 LINE SEPARATOR and U+2029 PARAGRAPH SEPARATOR (line breaks to a YAML 1.1
+  // reader, YAML 1.1 §5.4); U+202A–U+202E and U+2066–U+2069, the embeddings, overrides and isolates of the
+  // bidirectional algorithm (Unicode Standard Annex #9); U+200B ZERO WIDTH SPACE; U+FDD0–U+FDEF noncharacters (§23.7).
+  it.each([
+    ["\u2028", "U+2028"],
+    ["\u2029", "U+2029"],
+    ["\u202A", "U+202A"],
+    ["\u202E", "U+202E"],
+    ["\u2066", "U+2066"],
+    ["\u2069", "U+2069"],
+    ["\u200B", "U+200B"],
+    ["\uFDD0", "U+FDD0"],
+    ["\uFDEF", "U+FDEF"],
+  ])("refuses %j in a one-line field (title, a creator's name, a source reference's title), naming it as %s", (c, label) => {
+    const doc = example();
+    doc.title = `Rates${c} of OH`;
+    doc.creators = [{ name: "Okafor, Maren" }, { name: `Tanaka${c}, Emi` }];
+    doc.source = { reference: { type: "article-journal", title: `A${c}B` } };
+    const errors = errorsOf(doc);
+    for (const [pointer, at] of [
+      ["/title", 6],
+      ["/creators/1/name", 7],
+      ["/source/reference/title", 2],
+    ] as const) {
+      const error = errors.find((e) => e.pointer === pointer);
+      expect(error?.message, pointer).toContain(label);
+      expect(error?.message, pointer).toContain(pointer);
+      expect(error?.message, pointer).toContain(`at character ${at}`);
+    }
+  });
+
+  it("a field written over several lines refuses the noncharacters U+FDD0–U+FDEF but takes separators and direction controls", () => {
+    const doc = example();
+    doc.description = "First\u2028second \u2067\u05E9\u05DC\u05D5\u05DD\u2069 end";
+    expect(validateDeposit(doc).ok).toBe(true);
+    doc.description = "First \uFDD5 here";
+    const [error] = errorsOf(doc);
+    expect(error.pointer).toBe("/description");
+    expect(error.message).toContain("U+FDD5 (not a character)");
   });
 
   it("accepts ordinary text: accents, Greek, sub- and superscripts, emoji pairs", () => {

@@ -102,6 +102,31 @@ describe("Cantera YAML of a fit", () => {
     expect(doc.units).toEqual({ length: "cm", quantity: "molec", time: "s", "activation-energy": "kcal/mol" });
   });
 
+  it("reads the same under a YAML 1.1-style reading, whatever line separators the texts hold", () => {
+    // YAML 1.1 (§5.4, as PyYAML reads it) breaks lines at U+0085, U+2028 and U+2029 too; YAML 1.2 does not.
+    // Invented texts that would start keys of their own if a reader broke the line there.
+    const odd: MechanismSubject = {
+      ...subject(2),
+      title: "Rates\u2028injected: 1\u2029other: 2\u0085third: 3",
+      equation: "OH + CH4\u2028units: broken",
+      participants: [
+        { side: "reactant", name: "OH\u2028x: 1", coefficient: 1 },
+        { side: "product", name: "water\u202E", coefficient: 1 },
+      ],
+      citation: "Invented\u2028, A.\u200B (2026).",
+      caution: "Caution\u2028sentence: yes",
+    };
+    const text = buildCanteraYaml(odd, { kUnit: "cm3 molecule-1 s-1", energyUnit: "kcal mol-1" });
+    expect(text).not.toMatch(/[\u0085\u2028\u2029\u200B\u202A-\u202E\u2066-\u2069]/);
+    const as12 = parse(text);
+    const as11 = parse(text.replace(/[\u0085\u2028\u2029]/g, "\n"));
+    expect(as11).toEqual(as12);
+    expect(Object.keys(as12)).toEqual(["description", "units", "reactions"]);
+    expect(as12.description).toContain("dataset: Rates injected: 1 other: 2 third: 3");
+    expect(as12.reactions[0].equation).toBe("OH_x:_1 => water");
+    expect(text.split("\n").filter((l) => l.startsWith("#"))).toHaveLength(3);
+  });
+
   it("writes the equation with coefficients and names made whole words", () => {
     expect(
       canteraEquation([

@@ -2,9 +2,12 @@
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { dataciteForPathOrThrow } from "@/lib/identifiers/datacite-route";
+import { dataciteQuerySchema, parseQueryOrThrow } from "@/lib/exports/requests";
 
 export const GET = withApi<{ id: string; n: string }>(
-  async ({ params }) =>
-    NextResponse.json(await dataciteForPathOrThrow(params), { headers: { "content-type": "application/vnd.api+json" } }),
+  async ({ req, params }) => {
+    parseQueryOrThrow(dataciteQuerySchema, new URL(req.url).searchParams);
+    return NextResponse.json(await dataciteForPathOrThrow(params), { headers: { "content-type": "application/vnd.api+json" } });
+  },
   { scope: null },
 );
