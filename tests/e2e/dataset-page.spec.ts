@@ -118,10 +118,11 @@ test("the points download as CSV with the identifier, licence, citation and caut
   const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Points as CSV" }).click()]);
   expect(download.suggestedFilename()).toMatch(/^ARH-[0-9A-Z]{4}-[0-9A-Z]{4}-2-points\.csv$/);
   const text = readFileSync((await download.path())!, "utf8");
-  expect(text).toMatch(/^# version identifier: doi:10\.5072\/ARH-[0-9A-Z-]+\/2\r$/m);
-  expect(text).toMatch(/^# licence: CC-BY-4\.0\r$/m);
-  expect(text).toMatch(/^# cite as: .*Version 2\. Arrhenia\. doi:/m);
-  expect(text).toMatch(/^# caution: Extrapolation outside the measured temperature range is unreliable/m);
+  // Each header line is one quoted cell starting with "#" (a comma or quote in it never opens a cell of its own).
+  expect(text).toMatch(/^"# version identifier: doi:10\.5072\/ARH-[0-9A-Z-]+\/2"\r$/m);
+  expect(text).toMatch(/^"# licence: CC-BY-4\.0"\r$/m);
+  expect(text).toMatch(/^"# cite as: .*Version 2\. Arrhenia\. doi:/m);
+  expect(text).toMatch(/^"# caution: Extrapolation outside the measured temperature range is unreliable/m);
   expect(text).toMatch(/^row,T_deposited,T_deposited_unit,k_deposited,k_deposited_unit,/m);
   const json = await page.request.get((await page.getByRole("link", { name: "Points as JSON" }).getAttribute("href"))!);
   expect(json.headers()["content-type"]).toMatch(/^application\/json/);
