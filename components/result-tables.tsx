@@ -106,7 +106,7 @@ export function ResultTables({
                 <td>{interval(a.k298.lower, a.k298.upper)}</td>
               </tr>
               <tr>
-                <td>
+                <td className="whitespace-normal">
                   k({sig(a.kMid.T)} K), middle of the range in 1/T ({kLabel})
                 </td>
                 <td>{k(a.kMid.value)}</td>
@@ -202,7 +202,7 @@ export function ResultTables({
                     <td>
                       F ({c.dfNum}, {c.dfDenom}) / p
                     </td>
-                    <td colSpan={2}>
+                    <td colSpan={2} className="whitespace-normal">
                       {c.exact || c.F === null
                         ? "curved exactly, within the arithmetic (p below any printable bound)"
                         : `${sig(c.F, 3)} / ${sig(c.p, 2)}`}
