@@ -106,14 +106,14 @@ export function ResultTables({
                 <td>{interval(a.k298.lower, a.k298.upper)}</td>
               </tr>
               <tr>
-                <td className="whitespace-normal">
+                <td className="whitespace-normal!">
                   k({sig(a.kMid.T)} K), middle of the range in 1/T ({kLabel})
                 </td>
                 <td>{k(a.kMid.value)}</td>
                 <td>{interval(a.kMid.lower, a.kMid.upper)}</td>
               </tr>
               <tr>
-                <td className="whitespace-normal">
+                <td className="whitespace-normal!">
                   <StatisticTerm id="r2" /> / <StatisticTerm id="dof" />
                 </td>
                 <td colSpan={2}>
@@ -122,7 +122,7 @@ export function ResultTables({
               </tr>
               {/* Two different quantities: the weighted one is dimensionless and never called an SD of ln k. */}
               <tr>
-                <td className="whitespace-normal">
+                <td className="whitespace-normal!">
                   <StatisticTerm
                     id="residualSD"
                     plain={`Typical distance of a point from the line${analysis.weighted ? ", unweighted" : ""}`}
@@ -132,7 +132,7 @@ export function ResultTables({
               </tr>
               {analysis.weighted && (
                 <tr>
-                  <td className="whitespace-normal">
+                  <td className="whitespace-normal!">
                     <StatisticTerm id="scatterRatio" />
                     <span className="block whitespace-normal text-xs text-muted">
                       dimensionless: the typical residual in units of the stated uncertainties (1 when the points scatter as stated)
@@ -202,7 +202,7 @@ export function ResultTables({
                     <td>
                       F ({c.dfNum}, {c.dfDenom}) / p
                     </td>
-                    <td colSpan={2} className="whitespace-normal">
+                    <td colSpan={2} className="whitespace-normal!">
                       {c.exact || c.F === null
                         ? "curved exactly, within the arithmetic (p below any printable bound)"
                         : `${sig(c.F, 3)} / ${sig(c.p, 2)}`}
