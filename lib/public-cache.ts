@@ -1,10 +1,12 @@
 import "server-only";
 import { revalidateTag, unstable_cache } from "next/cache";
+import { clearHtmlCache, PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
 
 /**
  * The data cache of the public pages (and search). Every page reads the session in the site
- * header, so pages themselves render per request; what is cached is the public data they read,
- * through `cachedPublic`, tagged with what it shows. Publication, retraction, a re-fit and a
+ * header, so pages render per request; what is cached is the public data they read, through
+ * `cachedPublic`, tagged with what it shows, and (lib/html-cache.ts) the whole HTML of public pages
+ * rendered for anonymous readers, which every invalidation empties. Publication, retraction, a re-fit and a
  * curator's consensus exclusion call `invalidatePublicCache` with the tags of what they changed.
  *
  * Tags:
@@ -19,12 +21,9 @@ export const reactionTag = (reactionId: number) => `reaction:${reactionId}`;
 export const speciesTag = (inchiKey: string) => `species:${inchiKey}`;
 export const classTag = (classId: string) => `class:${classId}`;
 
-/**
- * A cached entry is kept at most this long even when no change invalidates it (a change made by a
- * script with no server to tell, such as the seed or `npm run refit`, stays unseen this long at most).
- * The background workers of scripts/serve.ts do tell the server: see `forwardCacheInvalidations`.
- */
-export const PUBLIC_CACHE_SECONDS = 60;
+// A cached entry is kept at most PUBLIC_CACHE_SECONDS even when no change invalidates it. The
+// background workers of scripts/serve.ts do tell the server: see `forwardCacheInvalidations`.
+export { PUBLIC_CACHE_SECONDS };
 
 /**
  * `fn` cached under `key` (with its arguments) and `tags`. Only for data every visitor may see
@@ -71,6 +70,9 @@ export const CACHE_KEY_ENV = "ARRHENIA_CACHE_KEY";
  */
 export async function invalidatePublicCache(tags: Iterable<string>, { forward = true }: { forward?: boolean } = {}): Promise<void> {
   const unique = [...new Set(tags)];
+  // The anonymous page cache lives in the process of Next (scripts/inner-server.ts): emptied
+  // there, whether the change was made in a request or forwarded by the job workers. Elsewhere it is empty.
+  if (unique.length > 0) clearHtmlCache();
   for (const tag of unique) {
     try {
       revalidateTag(tag, { expire: 0 });

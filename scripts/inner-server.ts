@@ -5,6 +5,7 @@
 import http from "node:http";
 import { INNER_GATE_MARK } from "@/lib/auth/client-address";
 import { innerGate, innerGateUpgrade } from "@/lib/auth/inner-gate";
+import { PUBLIC_CACHE_SECONDS, withHtmlCache } from "@/lib/html-cache";
 
 const port = Number(process.argv[2]);
 const key = process.env.ARRHENIA_EDGE_KEY ?? "";
@@ -23,7 +24,13 @@ if (key.length < 16) {
 // Loaded after NODE_ENV is set: Next reads it while loading.
 const { default: next } = await import("next");
 const app = next({ dev: false, dir: process.cwd(), hostname: "127.0.0.1", port });
-const handle = app.getRequestHandler();
+// Public pages rendered for anonymous readers are replayed from memory (lib/html-cache.ts): at most
+// 64 MiB of bodies, none over 4 MiB, each for PUBLIC_CACHE_SECONDS unless a change empties the cache first.
+const handle = withHtmlCache(app.getRequestHandler(), {
+  maxBytes: 64 * 1024 * 1024,
+  maxEntryBytes: 4 * 1024 * 1024,
+  ttlMs: PUBLIC_CACHE_SECONDS * 1000,
+});
 await app.prepare();
 const upgrade = app.getUpgradeHandler();
 

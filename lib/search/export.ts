@@ -7,7 +7,7 @@ import { versionPath } from "@/lib/identifiers/paths";
 import { reactionPath } from "@/lib/reactions/paths";
 import { currentSearchEngine } from "./index";
 import { toSearchParams } from "./params";
-import { listDisplayEquations } from "./queries";
+import { displayEquations } from "./lexicon";
 import { resolveQuery } from "./resolve-query";
 import type { DatasetHit, ParsedQuery, ReactionHit, SearchEngine, SearchRequest } from "./types";
 
@@ -155,7 +155,7 @@ export async function searchExportStream(request: SearchRequest, options: Search
     else {
       // Rows name species as every public page does, whatever the engine stored.
       const hits = page.hits as DatasetHit[];
-      const equations = await listDisplayEquations({ reactionKeys: [...new Set(hits.map((h) => h.reactionKey))] });
+      const equations = await displayEquations([...new Set(hits.map((h) => h.reactionKey))]);
       list = hits.map((h) => datasetRow({ ...h, equation: equations.get(h.reactionKey) ?? h.equation }, origin));
     }
     const text = rowsText(list);

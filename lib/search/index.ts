@@ -3,7 +3,7 @@ import { searchEngineName } from "@/lib/config";
 import { cursorPositionOrThrow, signCursor } from "./cursor";
 import { meilisearchEngine } from "./engines/meilisearch";
 import { postgresEngine } from "./engines/postgres";
-import { listDisplayEquations } from "./queries";
+import { displayEquations } from "./lexicon";
 import { resolveQuery } from "./resolve-query";
 import { CAUTION } from "@/lib/analyses/analyse-request";
 import { cachedPublic, SEARCH_TAG } from "@/lib/public-cache";
@@ -53,7 +53,7 @@ export async function search(request: SearchRequest, engine: SearchEngine = curr
     limit: request.limit,
   });
   // Rows name species as every public page does (one display name each), whatever the engine stored.
-  const equations = await listDisplayEquations({ reactionKeys: [...new Set(result.hits.map((h) => h.reactionKey))] });
+  const equations = await displayEquations([...new Set(result.hits.map((h) => h.reactionKey))]);
   const hits = result.hits.map((h) => ({ ...h, equation: equations.get(h.reactionKey) ?? h.equation })) as SearchResult["hits"];
   return {
     query: request,

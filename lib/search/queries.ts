@@ -7,47 +7,12 @@ import { reactionDisplayEquation, speciesDisplayName } from "@/lib/reactions/dis
 import type { ParsedQuery, ReactionHit, SearchDocument } from "@/lib/search/types";
 
 /**
- * The search's reads: species lookups (the InChIKeys a typed name, synonym or formula may mean),
- * the header box's suggestions, and the stored documents and reaction summaries the Meilisearch
+ * The search's reads: the species lexicon (every name, and the formula and display name of each
+ * public species, which lib/search/lexicon.ts keeps per generation), the listed documents of the
+ * in-memory index and their generation mark, the header box's suggestions, and the stored documents and reaction summaries the Meilisearch
  * engine, its outbox and its reindex send on. Species and names are shared by every version, so only species of a
  * reaction with a public version are offered (a draft's new species is never suggested).
  */
-
-/** InChIKeys of species known by one of these names (case-insensitive), formulas (exact Hill form) or keys. */
-export async function findSpeciesKeys({
-  names = [],
-  formulas = [],
-}: {
-  names?: string[];
-  formulas?: string[];
-}): Promise<Map<string, string[]>> {
-  const found = new Map<string, string[]>();
-  const add = (term: string, key: string) => found.set(term, [...new Set([...(found.get(term) ?? []), key])]);
-  const db = getDb();
-  if (names.length) {
-    const lowered = names.map((n) => n.toLowerCase());
-    const rows = await db
-      .selectDistinct({ name: sql<string>`lower(${speciesNames.name})`, inchiKey: species.inchiKey })
-      .from(speciesNames)
-      .innerJoin(species, eq(species.id, speciesNames.speciesId))
-      .where(inArray(sql`lower(${speciesNames.name})`, lowered));
-    for (const r of rows) for (const n of names) if (n.toLowerCase() === r.name) add(`name:${n}`, r.inchiKey);
-  }
-  if (formulas.length) {
-    const rows = await db
-      .select({ formula: species.formula, inchiKey: species.inchiKey })
-      .from(species)
-      // Only species of public data: a species first seen in a draft is never offered (its names join at publication; formulas are checked here).
-      .where(
-        and(
-          inArray(species.formula, formulas),
-          sql`exists (select 1 from search_documents d where d.reactant_keys @> array[${species.inchiKey}] or d.product_keys @> array[${species.inchiKey}])`,
-        ),
-      );
-    for (const r of rows) add(`formula:${r.formula}`, r.inchiKey);
-  }
-  return found;
-}
 
 /** A species takes part in a listed (public) version: search_documents holds public versions only. */
 const isPublicSpecies = (inchiKey: SQL) =>
@@ -286,4 +251,99 @@ export async function listSearchDocumentIdsAfter({ after, limit }: { after: numb
     .orderBy(asc(searchDocuments.versionId))
     .limit(limit);
   return rows.map((r) => r.id);
+}
+
+/** The mark of the search documents' state (drizzle/0025 sets it in every transaction that changes them); "none" before any. */
+export async function getSearchGeneration(): Promise<string> {
+  const [row] = await getDb().execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
+  return row?.g ?? "none";
+}
+
+/** A listed (`latest`) search document as the in-memory index reads it (arrays in their text form). */
+export type ListedDocumentRow = {
+  version_id: number;
+  reaction_id: number;
+  reaction_key: string;
+  equation: string;
+  reactant_keys: string;
+  product_keys: string;
+  reaction_class: string;
+  phase: string;
+  method_category: string;
+  licence: string;
+  source_year: number | null;
+  bath_gases: string[];
+  flags: string[];
+  creators: string[];
+  t_min: number;
+  t_max: number;
+  p_min: number | null;
+  p_max: number | null;
+  point_count: number;
+  retracted: boolean;
+  published_us: string;
+};
+
+/**
+ * Every listed document, in one snapshot with its generation mark (the index is never newer or
+ * older than its mark): `start` is told the mark and the number of documents, then given the rows
+ * `slice` at a time by version id, so that few rows are held at once.
+ */
+export async function readListedDocuments<T>({
+  slice,
+  start,
+}: {
+  slice: number;
+  start: (generation: string, count: number) => { add(row: ListedDocumentRow): void; done(): T };
+}): Promise<T> {
+  return getDb().transaction(
+    async (tx) => {
+      const [g] = await tx.execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
+      const [count] = await tx.execute<{ n: number }>(sql`select count(*)::int as n from search_documents where latest`);
+      const sink = start(g?.g ?? "none", Number(count?.n ?? 0));
+      for (let after = 0; ; ) {
+        const rows = (await tx.execute<ListedDocumentRow>(sql`
+          select version_id, reaction_id, reaction_key, equation, reactant_keys::text as reactant_keys, product_keys::text as product_keys,
+            reaction_class, phase, method_category, licence, source_year, bath_gases, flags, creators, t_min, t_max, p_min, p_max,
+            point_count, retracted, (extract(epoch from published_at) * 1000000)::bigint::text as published_us
+          from search_documents where latest and version_id > ${after} order by version_id limit ${slice}`)) as unknown as ListedDocumentRow[];
+        for (const r of rows) sink.add(r);
+        if (rows.length < slice) break;
+        after = Number(rows[rows.length - 1].version_id);
+      }
+      return sink.done();
+    },
+    { isolationLevel: "repeatable read", accessMode: "read only" },
+  );
+}
+
+/** What resolving search text needs of every species, read at once (lib/search/lexicon.ts keeps it per generation). */
+export interface SpeciesLexiconRows {
+  /** Every species name, lower-cased, with its species' InChIKey (names join at publication, so all are public). */
+  names: { name: string; inchiKey: string }[];
+  /** Species of public data (in a search document): InChIKey, formula and display name. */
+  publicSpecies: { inchiKey: string; formula: string; name: string }[];
+}
+
+/** The rows of the species lexicon, in one snapshot (its generation mark with it). */
+export async function readSpeciesLexicon(): Promise<SpeciesLexiconRows & { generation: string }> {
+  return getDb().transaction(
+    async (tx) => {
+      const [g] = await tx.execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
+      const names = await tx
+        .selectDistinct({ name: sql<string>`lower(${speciesNames.name})`, inchiKey: species.inchiKey })
+        .from(speciesNames)
+        .innerJoin(species, eq(species.id, speciesNames.speciesId));
+      const publicSpecies = (await tx.execute<{ inchi_key: string; formula: string; name: string }>(sql`
+        with keys as (select distinct k from search_documents d, unnest(d.reactant_keys || d.product_keys) k)
+        select s.inchi_key, s.formula, ${speciesDisplayName(sql`s.id`, sql`s.formula`)} as name
+        from species s join keys on keys.k = s.inchi_key`)) as unknown as { inchi_key: string; formula: string; name: string }[];
+      return {
+        generation: g?.g ?? "none",
+        names,
+        publicSpecies: publicSpecies.map((r) => ({ inchiKey: r.inchi_key, formula: r.formula, name: r.name })),
+      };
+    },
+    { isolationLevel: "repeatable read", accessMode: "read only" },
+  );
 }

@@ -2,7 +2,7 @@ import "server-only";
 import { ChemError, describeSpecies } from "@/lib/chem";
 import { AppError } from "@/lib/errors";
 import { parseQueryText, type SpeciesTerm } from "./parse-query";
-import { findSpeciesKeys, nameSpecies } from "./queries";
+import { findSpeciesKeysIn, speciesLexicon, type SpeciesLexicon } from "./lexicon";
 import type { ParsedQuery } from "./types";
 
 /** A 400 about the search text, naming `q`. */
@@ -26,8 +26,8 @@ async function structureKey(term: SpeciesTerm, hasOtherReadings: boolean): Promi
 }
 
 /** Every InChIKey one term may mean: the union of its readings (parse-query.ts says why). */
-async function resolveTerms(terms: SpeciesTerm[]): Promise<string[][]> {
-  const found = await findSpeciesKeys({
+async function resolveTerms(lexicon: SpeciesLexicon, terms: SpeciesTerm[]): Promise<string[][]> {
+  const found = findSpeciesKeysIn(lexicon, {
     names: terms.filter((t) => t.name).map((t) => t.text),
     formulas: terms.map((t) => t.formula).filter((f): f is string => f !== null),
   });
@@ -63,19 +63,22 @@ export async function resolveQuery(q: string): Promise<{ parsed: ParsedQuery; wo
     case "reactionKey":
       return { parsed: shape, words: `The reaction with the key ${shape.key}` };
     case "text": {
-      const [keys] = await resolveTerms([{ ...shape.name, smiles: false, formula: null, structureOnly: false }]);
+      const lexicon = await speciesLexicon();
+      const [keys] = await resolveTerms(lexicon, [{ ...shape.name, smiles: false, formula: null, structureOnly: false }]);
       if (keys.length)
-        return { parsed: { kind: "species", term: shape.text, inchiKeys: keys }, words: await speciesWords(shape.text, keys) };
+        return { parsed: { kind: "species", term: shape.text, inchiKeys: keys }, words: speciesWords(lexicon, shape.text, keys) };
       return { parsed: { kind: "text", text: shape.text }, words: `Text ${quote(shape.text)}` };
     }
     case "species": {
-      const [keys] = await resolveTerms([shape.term]);
+      const lexicon = await speciesLexicon();
+      const [keys] = await resolveTerms(lexicon, [shape.term]);
       if (!keys.length) return { parsed: { kind: "text", text: shape.term.text }, words: `Text ${quote(shape.term.text)}` };
-      return { parsed: { kind: "species", term: shape.term.text, inchiKeys: keys }, words: await speciesWords(shape.term.text, keys) };
+      return { parsed: { kind: "species", term: shape.term.text, inchiKeys: keys }, words: speciesWords(lexicon, shape.term.text, keys) };
     }
     case "reaction": {
-      const reactants = await resolveTerms(shape.reactants);
-      const products = await resolveTerms(shape.products);
+      const lexicon = await speciesLexicon();
+      const reactants = await resolveTerms(lexicon, shape.reactants);
+      const products = await resolveTerms(lexicon, shape.products);
       const unknown = [...shape.reactants, ...shape.products]
         .filter((_, i) => [...reactants, ...products][i].length === 0)
         .map((t) => quote(t.text));
@@ -98,8 +101,8 @@ export async function resolveQuery(q: string): Promise<{ parsed: ParsedQuery; wo
   }
 }
 
-async function speciesWords(term: string, keys: string[]): Promise<string> {
-  const names = await nameSpecies({ inchiKeys: keys });
-  const shown = keys.map((k) => names.get(k) ?? k);
+/** A species known only from drafts has no display name here (the lexicon holds public species only): its key shows. */
+function speciesWords(lexicon: SpeciesLexicon, term: string, keys: string[]): string {
+  const shown = keys.map((k) => lexicon.displayName.get(k) ?? k);
   return `Datasets with ${quote(term)} on either side of the reaction (${keys.length === 1 ? shown[0] : `${keys.length} species: ${listWords(shown)}`})`;
 }

@@ -208,3 +208,35 @@ test("a newly published version shows on its reaction and species pages without 
   await researcher.dispose();
   await curator.dispose();
 });
+
+test("public pages are replayed to anonymous readers, never a draft: 404 before and after a member read it", async ({ baseURL }) => {
+  const anonymous = await newRequest.newContext({ baseURL });
+  const researcher = await signedIn(baseURL!, DEMO_RESEARCHER);
+  // A public page: rendered once, then replayed whole.
+  const first = await anonymous.get("/classes");
+  const again = await anonymous.get("/classes");
+  expect(first.status()).toBe(200);
+  expect(again.headers()["x-arrhenia-html-cache"]).toBe("hit");
+  expect(await again.text()).toBe(await first.text());
+  // A member's request is rendered for them alone (the header names them).
+  const mine = await researcher.get("/classes");
+  expect(mine.headers()["x-arrhenia-html-cache"]).toBeUndefined();
+  expect(await mine.text()).toContain("My deposits");
+  expect(await again.text()).not.toContain("My deposits");
+
+  const document = labelledAlkaneDeposit({ title: `Draft cache check ${Date.now()}`, name: `labelled nonadecane ${Date.now()}`, carbons: 19 });
+  const created = await researcher.post("/api/v1/datasets", { data: document });
+  expect(created.status(), await created.text()).toBe(201);
+  const draft = `/datasets/${(await created.json()).data.datasetId}/v1`;
+  expect((await anonymous.get(draft)).status()).toBe(404);
+  const seen = await researcher.get(draft);
+  expect(seen.status()).toBe(200);
+  expect(await seen.text()).toContain("Draft cache check");
+  for (let i = 0; i < 2; i++) {
+    const res = await anonymous.get(draft);
+    expect(res.status()).toBe(404);
+    expect(await res.text()).not.toContain("Draft cache check");
+  }
+  await anonymous.dispose();
+  await researcher.dispose();
+});

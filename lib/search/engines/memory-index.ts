@@ -1,6 +1,5 @@
 import "server-only";
-import { sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getSearchGeneration, readListedDocuments, type ListedDocumentRow } from "../queries";
 import type { SearchFacet, SearchFilters } from "../types";
 
 /**
@@ -85,29 +84,7 @@ export interface MemoryIndex {
   byVersion: Map<number, number>;
 }
 
-type Row = {
-  version_id: number;
-  reaction_id: number;
-  reaction_key: string;
-  equation: string;
-  reactant_keys: string;
-  product_keys: string;
-  reaction_class: string;
-  phase: string;
-  method_category: string;
-  licence: string;
-  source_year: number | null;
-  bath_gases: string[];
-  flags: string[];
-  creators: string[];
-  t_min: number;
-  t_max: number;
-  p_min: number | null;
-  p_max: number | null;
-  point_count: number;
-  retracted: boolean;
-  published_us: string;
-};
+type Row = ListedDocumentRow;
 
 const LIST_COLUMN: Record<ListFacet, "bath_gases" | "flags" | "creators"> = { bathGas: "bath_gases", flags: "flags", creator: "creators" };
 
@@ -211,35 +188,11 @@ function builder(generation: string, n: number) {
   return { add, done };
 }
 
-async function currentGeneration(): Promise<string> {
-  const [row] = await getDb().execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
-  return row?.g ?? "none";
-}
-
 const LOAD_SLICE = 20_000;
 
-async function load(): Promise<MemoryIndex> {
-  // One snapshot for the number and the rows: the index is never newer or older than its number.
-  return getDb().transaction(
-    async (tx) => {
-      const [g] = await tx.execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
-      const [count] = await tx.execute<{ n: number }>(sql`select count(*)::int as n from search_documents where latest`);
-      const index = builder(g?.g ?? "none", Number(count?.n ?? 0));
-      // In slices of LOAD_SLICE documents by version id, so that few rows are held at once (the index itself is small).
-      for (let after = 0; ;) {
-        const slice = (await tx.execute<Row>(sql`
-          select version_id, reaction_id, reaction_key, equation, reactant_keys::text as reactant_keys, product_keys::text as product_keys,
-            reaction_class, phase, method_category, licence, source_year, bath_gases, flags, creators, t_min, t_max, p_min, p_max,
-            point_count, retracted, (extract(epoch from published_at) * 1000000)::bigint::text as published_us
-          from search_documents where latest and version_id > ${after} order by version_id limit ${LOAD_SLICE}`)) as unknown as Row[];
-        for (const r of slice) index.add(r);
-        if (slice.length < LOAD_SLICE) break;
-        after = Number(slice[slice.length - 1].version_id);
-      }
-      return index.done();
-    },
-    { isolationLevel: "repeatable read", accessMode: "read only" },
-  );
+/** One snapshot of the listed documents and their generation mark (lib/search/queries.ts), built slice by slice. */
+function load(): Promise<MemoryIndex> {
+  return readListedDocuments({ slice: LOAD_SLICE, start: builder });
 }
 
 let current: MemoryIndex | null = null;
@@ -247,7 +200,7 @@ let loading: Promise<MemoryIndex> | null = null;
 
 /** The index as of the last committed change to search_documents (reloaded when it moved). */
 export async function memoryIndex(): Promise<MemoryIndex> {
-  const generation = await currentGeneration();
+  const generation = await getSearchGeneration();
   if (current && current.generation === generation) return current;
   // A load started now reads a snapshot taken after `generation` was read: never older than what
   // this search saw, even when more changes commit meanwhile (a stream of changes, a reindex,

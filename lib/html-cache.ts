@@ -1,0 +1,201 @@
+import type http from "node:http";
+
+/**
+ * The rendered HTML of public pages for anonymous readers (and crawlers), kept in the memory of the
+ * process that runs Next (scripts/inner-server.ts wraps Next's handler with `withHtmlCache`).
+ *
+ * Every page renders per request because the site header (and a few pages) read the session; for a
+ * request that carries no session cookie and no credentials that render is the same for everyone,
+ * so its answer can be replayed. What keeps non-public content out:
+ * - only GET requests without a session cookie or Authorization header are read from or written to
+ *   the cache: a member's request never touches it, so what only members may see (a draft, curator
+ *   controls) is never stored;
+ * - only a 200 without Set-Cookie is stored (a draft fetched anonymously is a 404: never stored);
+ * - only the public page paths below (never an API route, an action or a client navigation's RSC
+ *   payload, which Next asks for with the `rsc` header).
+ * Freshness: `invalidatePublicCache` (lib/public-cache.ts, after publication, retraction, re-fit,
+ * consensus exclusion; in this process or forwarded to it) empties the whole cache, and an entry
+ * lives at most `PUBLIC_CACHE_SECONDS`, as the data cache's entries do. A render that was running
+ * when the cache was emptied is not stored (it may have read the old data).
+ */
+
+/**
+ * How long a cached entry (here and in the data cache of lib/public-cache.ts) is served when no
+ * change invalidates it: a change made by a script with no server to tell (the seed, `npm run refit`)
+ * stays unseen this long at most.
+ */
+export const PUBLIC_CACHE_SECONDS = 60;
+
+/** Public pages whose anonymous render is cached: home, reactions list and pages, species, classes, datasets. */
+const CACHED_PATHS = [
+  /^\/$/,
+  /^\/reactions$/,
+  /^\/reactions\/[^/]+$/,
+  /^\/species\/[^/]+$/,
+  /^\/classes$/,
+  /^\/classes\/[^/]+$/,
+  /^\/datasets\/\d+$/,
+  /^\/datasets\/\d+\/v\d+$/,
+];
+
+/** Request headers that make an answer personal or not a plain page (an RSC payload, a server action). */
+const BYPASS_HEADERS = ["authorization", "rsc", "next-action", "next-router-state-tree", "next-router-prefetch", "next-router-segment-prefetch"];
+
+/** next-auth's session cookie (`next-auth.session-token`, `__Secure-…`, chunked `.0`, `.1`). */
+const SESSION_COOKIE = /(?:^|;\s*)(?:__Secure-|__Host-)?next-auth\.session-token(?:\.\d+)?=/;
+
+/** Response header saying whether the answer came from the cache (`hit`) or was rendered and stored (`miss`). */
+export const HTML_CACHE_HEADER = "x-arrhenia-html-cache";
+
+export interface HtmlCacheOptions {
+  /** Largest total of stored bodies; the least recently used entries go first. */
+  maxBytes: number;
+  /** Largest single body stored. */
+  maxEntryBytes: number;
+  /** How long an entry is served, in milliseconds. */
+  ttlMs: number;
+  now?: () => number;
+}
+
+interface Entry {
+  status: number;
+  headers: http.OutgoingHttpHeaders;
+  body: Buffer;
+  storedAt: number;
+}
+
+interface Store {
+  entries: Map<string, Entry>;
+  bytes: number;
+  /** Moves on every invalidation; a render that began under an older generation is not stored. */
+  generation: number;
+}
+
+// On globalThis: the server script and Next's own bundle of lib/public-cache.ts load this module
+// separately, and both must reach the one store of the process.
+const STORE = Symbol.for("arrhenia.htmlCache");
+function store(): Store {
+  const g = globalThis as Record<symbol, Store | undefined>;
+  return (g[STORE] ??= { entries: new Map(), bytes: 0, generation: 0 });
+}
+
+/** Empties the cache (every invalidation of public data). */
+export function clearHtmlCache(): void {
+  const s = store();
+  s.entries.clear();
+  s.bytes = 0;
+  s.generation += 1;
+}
+
+/** The cache key of a request, or null when its answer must be rendered for it alone. */
+export function htmlCacheKey(req: Pick<http.IncomingMessage, "method" | "url" | "headers">): string | null {
+  if (req.method !== "GET" || !req.url) return null;
+  const headers = req.headers;
+  if (BYPASS_HEADERS.some((name) => headers[name] !== undefined)) return null;
+  const cookie = headers.cookie;
+  if (cookie && SESSION_COOKIE.test(cookie)) return null;
+  const q = req.url.indexOf("?");
+  const path = q === -1 ? req.url : req.url.slice(0, q);
+  if (!CACHED_PATHS.some((re) => re.test(path))) return null;
+  if (new URLSearchParams(q === -1 ? "" : req.url.slice(q + 1)).has("_rsc")) return null;
+  // The same address answers HTML or a citation format by Accept, and compressed or not.
+  return `${req.url}\n${headers.accept ?? ""}\n${headers["accept-encoding"] ?? ""}`;
+}
+
+function evict(s: Store, maxBytes: number) {
+  for (const [key, entry] of s.entries) {
+    if (s.bytes <= maxBytes) break;
+    s.entries.delete(key);
+    s.bytes -= entry.body.length;
+  }
+}
+
+type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => Promise<void> | void;
+
+/** `handle` with the anonymous page cache in front (see the module comment). */
+export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handler {
+  const now = options.now ?? Date.now;
+  return async (req, res) => {
+    const key = htmlCacheKey(req);
+    if (key === null) return handle(req, res);
+    const s = store();
+    const hit = s.entries.get(key);
+    if (hit && now() - hit.storedAt < options.ttlMs) {
+      // Least recently used first: a hit moves to the end.
+      s.entries.delete(key);
+      s.entries.set(key, hit);
+      res.writeHead(hit.status, { ...hit.headers, [HTML_CACHE_HEADER]: "hit", "content-length": hit.body.length });
+      res.end(hit.body);
+      return;
+    }
+    if (hit) {
+      s.entries.delete(key);
+      s.bytes -= hit.body.length;
+    }
+    const generation = s.generation;
+    const chunks: Buffer[] = [];
+    let size = 0;
+    let keep = true;
+    const record = (chunk: unknown, encoding?: unknown) => {
+      if (!keep || chunk == null || typeof chunk === "function") return;
+      const buf =
+        typeof chunk === "string"
+          ? Buffer.from(chunk, typeof encoding === "string" ? (encoding as BufferEncoding) : "utf8")
+          : Buffer.from(chunk as Uint8Array);
+      size += buf.length;
+      if (size > options.maxEntryBytes) {
+        keep = false;
+        chunks.length = 0;
+      } else chunks.push(buf);
+    };
+    const write = res.write.bind(res) as (...args: unknown[]) => boolean;
+    const end = res.end.bind(res) as (...args: unknown[]) => http.ServerResponse;
+    const writeHead = res.writeHead.bind(res) as (...args: unknown[]) => http.ServerResponse;
+    res.writeHead = ((...args: unknown[]) => {
+      // Headers given to writeHead itself (not set before) are taken into getHeaders() here.
+      const headers = args.find((a, i) => i > 0 && a !== null && typeof a === "object");
+      if (headers && !Array.isArray(headers) && !res.headersSent) {
+        for (const [name, value] of Object.entries(headers as http.OutgoingHttpHeaders)) if (value !== undefined) res.setHeader(name, value);
+        args = args.filter((a) => a !== headers);
+      } else if (Array.isArray(headers)) keep = false;
+      if (!res.headersSent) res.setHeader(HTML_CACHE_HEADER, "miss");
+      return writeHead(...args);
+    }) as typeof res.writeHead;
+    res.write = ((...args: unknown[]) => {
+      record(args[0], args[1]);
+      if (!res.headersSent && !res.hasHeader(HTML_CACHE_HEADER)) res.setHeader(HTML_CACHE_HEADER, "miss");
+      return write(...args);
+    }) as typeof res.write;
+    res.end = ((...args: unknown[]) => {
+      record(args[0], args[1]);
+      if (!res.headersSent && !res.hasHeader(HTML_CACHE_HEADER)) res.setHeader(HTML_CACHE_HEADER, "miss");
+      const status = res.statusCode;
+      const headers = res.getHeaders();
+      const result = end(...args);
+      // A reader who left mid-answer may have cut the body short: never stored.
+      if (res.destroyed || req.socket?.destroyed) keep = false;
+      if (keep && status === 200 && headers["set-cookie"] === undefined && s.generation === generation) {
+        const body = Buffer.concat(chunks);
+        delete headers[HTML_CACHE_HEADER];
+        // Replayed whole with its own length; hop-by-hop framing is the replay's own.
+        delete headers["transfer-encoding"];
+        delete headers["content-length"];
+        delete headers.connection;
+        delete headers["keep-alive"];
+        const old = s.entries.get(key);
+        if (old) s.bytes -= old.body.length;
+        s.entries.set(key, { status, headers, body, storedAt: now() });
+        s.bytes += body.length;
+        evict(s, options.maxBytes);
+      }
+      return result;
+    }) as typeof res.end;
+    return handle(req, res);
+  };
+}
+
+/** What the cache holds (for the benchmark and tests). */
+export function htmlCacheSize(): { entries: number; bytes: number } {
+  const s = store();
+  return { entries: s.entries.size, bytes: s.bytes };
+}

@@ -1,0 +1,122 @@
+import http from "node:http";
+import type { AddressInfo } from "node:net";
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { clearHtmlCache, HTML_CACHE_HEADER, htmlCacheKey, htmlCacheSize, withHtmlCache } from "@/lib/html-cache";
+
+// The anonymous page cache in front of a stand-in for Next's handler: what is replayed, what never is.
+
+const SESSION = "next-auth.session-token=abc";
+let clock = 0;
+let renders = 0;
+/** Set by a test to run while a render is under way (before it ends). */
+let duringRender: (() => void) | null = null;
+
+function page(req: http.IncomingMessage, res: http.ServerResponse): void {
+  renders += 1;
+  const url = new URL(req.url!, "http://x");
+  const member = (req.headers.cookie ?? "").includes("session-token");
+  if (url.pathname === "/datasets/7/v1" && !member) {
+    res.writeHead(404, { "content-type": "text/html" });
+    res.end("<h1>Not found</h1>");
+    return;
+  }
+  if (url.pathname === "/datasets/8/v1") res.setHeader("set-cookie", "a=b");
+  res.setHeader("content-type", "text/html; charset=utf-8");
+  res.write(`<p>${url.pathname}${url.search} ${member ? "member" : "anyone"} render ${renders}</p>`);
+  duringRender?.();
+  res.end(url.pathname === "/reactions/big" ? "x".repeat(5000) : "<footer></footer>");
+}
+
+let server: http.Server;
+let base = "";
+beforeAll(async () => {
+  server = http.createServer(withHtmlCache(page, { maxBytes: 400, maxEntryBytes: 1000, ttlMs: 60_000, now: () => clock }));
+  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+});
+afterAll(() => new Promise<void>((resolve) => server.close(() => resolve())));
+beforeEach(() => {
+  clearHtmlCache();
+  clock = 0;
+  duringRender = null;
+});
+
+async function get(path: string, headers: Record<string, string> = {}) {
+  const res = await fetch(base + path, { headers });
+  return { status: res.status, body: await res.text(), cache: res.headers.get(HTML_CACHE_HEADER), cookie: res.headers.get("set-cookie") };
+}
+
+describe("html cache", () => {
+  it("replays an anonymous public page, same body and headers", async () => {
+    const first = await get("/datasets/5/v2?unit=x");
+    const second = await get("/datasets/5/v2?unit=x");
+    expect(first.cache).toBe("miss");
+    expect(second).toEqual({ ...first, cache: "hit" });
+    // Another query is another page.
+    expect((await get("/datasets/5/v2")).cache).toBe("miss");
+  });
+
+  it("never lets a member's request in or out: a draft stays 404 to anyone after a member saw it", async () => {
+    expect((await get("/datasets/7/v1")).status).toBe(404);
+    const member = await get("/datasets/7/v1", { cookie: `theme=dark; ${SESSION}` });
+    expect(member.status).toBe(200);
+    expect(member.cache).toBeNull();
+    expect((await get("/datasets/7/v1")).status).toBe(404);
+    expect(htmlCacheSize().entries).toBe(0);
+    // A public page cached for anyone is rendered afresh for a member.
+    await get("/reactions/ab");
+    expect((await get("/reactions/ab", { cookie: `__Secure-next-auth.session-token.0=x` })).body).toContain("member");
+  });
+
+  it("stores only 200s without Set-Cookie, on public page paths, for plain GETs", async () => {
+    await get("/datasets/8/v1");
+    expect((await get("/datasets/8/v1")).cache).toBe("miss");
+    for (const path of ["/api/v1/search?q=x", "/deposits", "/datasets/5/audit", "/search?q=x"]) {
+      await get(path);
+      expect((await get(path)).cache, path).toBeNull();
+    }
+    await get("/species/K");
+    expect((await get("/species/K", { rsc: "1" })).cache).toBeNull();
+    expect((await get("/species/K?_rsc=abc")).cache).toBeNull();
+    expect((await get("/species/K", { authorization: "Bearer arh_key_x" })).cache).toBeNull();
+    // The same address in another format (by Accept) is another entry.
+    expect((await get("/species/K", { accept: "application/x-bibtex" })).cache).toBe("miss");
+  });
+
+  it("empties on invalidation, and does not store a render that was under way then", async () => {
+    await get("/classes/x");
+    clearHtmlCache();
+    expect((await get("/classes/x")).cache).toBe("miss");
+    duringRender = clearHtmlCache;
+    await get("/classes/y");
+    duringRender = null;
+    expect((await get("/classes/y")).cache).toBe("miss");
+  });
+
+  it("serves an entry for its lifetime only, and keeps the byte budget (least recently used out)", async () => {
+    await get("/classes");
+    clock = 59_999;
+    expect((await get("/classes")).cache).toBe("hit");
+    clock = 60_000;
+    expect((await get("/classes")).cache).toBe("miss");
+    // Each body is about 45 bytes: 400 bytes hold eight; "/classes" stays, being used.
+    for (let i = 0; i < 12; i++) {
+      await get(`/species/S${i}`);
+      await get("/classes");
+    }
+    expect(htmlCacheSize().bytes).toBeLessThanOrEqual(400);
+    expect((await get("/classes")).cache).toBe("hit");
+    expect((await get("/species/S0")).cache).toBe("miss");
+    // Over the single-entry limit: passed on, never stored.
+    await get("/reactions/big");
+    expect((await get("/reactions/big")).cache).toBe("miss");
+  });
+
+  it("keys only what may be shared", () => {
+    expect(htmlCacheKey({ method: "HEAD", url: "/", headers: {} })).toBeNull();
+    expect(htmlCacheKey({ method: "GET", url: "/", headers: { cookie: "other=1" } })).not.toBeNull();
+    expect(htmlCacheKey({ method: "GET", url: "/", headers: { cookie: "next-auth.csrf-token=1" } })).not.toBeNull();
+    expect(htmlCacheKey({ method: "GET", url: "/reactions/A/extra", headers: {} })).toBeNull();
+    expect(htmlCacheKey({ method: "GET", url: "/datasets/1/v1", headers: { "next-router-prefetch": "1" } })).toBeNull();
+  });
+});
