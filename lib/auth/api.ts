@@ -153,7 +153,9 @@ export function withApi<P = Record<string, string>>(
       // Public endpoints skip the session look-up unless they ask for it.
       const user =
         secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
-      budget = await consumeApiBudget(user ? `user:${user.id}` : `address:${clientAddress(req)}`);
+      // An anonymous read of a public endpoint is counted in this process's memory (rate-limit.ts says why).
+      const publicRead = user === null && options.cache !== undefined && (req.method === "GET" || req.method === "HEAD");
+      budget = await consumeApiBudget(user ? `user:${user.id}` : `address:${clientAddress(req)}`, { inProcess: publicRead });
       if (budget.spent)
         throw new AppError(
           "rate_limited",

@@ -1,6 +1,6 @@
 import "server-only";
 import pg from "pg";
-import { RateLimiterPostgres, RateLimiterRes } from "rate-limiter-flexible";
+import { RateLimiterMemory, RateLimiterPostgres, RateLimiterRes } from "rate-limiter-flexible";
 import { apiRateLimit, databaseUrl } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 
@@ -127,9 +127,30 @@ export interface ApiBudget {
 /** The policy's name in the RateLimit and RateLimit-Policy fields. */
 export const API_POLICY_NAME = "api";
 
-/** Counts one API request of a client (`user:<id>` or `address:<ip>`); a spent budget is returned, not thrown. */
-export async function consumeApiBudget(key: string): Promise<ApiBudget> {
-  const l = limiter("api");
+const globalForLocal = globalThis as unknown as { arrheniaLocalApiLimiter?: RateLimiterMemory };
+
+/**
+ * The API budget of anonymous public reads, counted in this process's memory. Counting in
+ * PostgreSQL is one upsert of the client's row per request: measured on the 100 000-dataset bench
+ * database, 32 requests at once from one address wait on that row and on the limiter's pool,
+ * p50 12 ms and p95 35 ms per count (0.05 ms in memory), which is most of a cached search answer.
+ * Each app process then grants the budget on its own: with N processes an address may make N times
+ * API_RATE_LIMIT public reads a minute. Callers that identify themselves stay counted in PostgreSQL.
+ */
+function localApiLimiter(): RateLimiterMemory {
+  return (globalForLocal.arrheniaLocalApiLimiter ??= new RateLimiterMemory({
+    keyPrefix: "api",
+    points: apiRateLimit(),
+    duration: limits.api.duration,
+  }));
+}
+
+/**
+ * Counts one API request of a client (`user:<id>` or `address:<ip>`); a spent budget is returned,
+ * not thrown. `inProcess`: an anonymous public read, counted in this process (localApiLimiter).
+ */
+export async function consumeApiBudget(key: string, { inProcess = false }: { inProcess?: boolean } = {}): Promise<ApiBudget> {
+  const l = inProcess ? localApiLimiter() : limiter("api");
   const toBudget = (res: RateLimiterRes, spent: boolean): ApiBudget => ({
     limit: l.points,
     remaining: Math.max(0, res.remainingPoints),
@@ -147,6 +168,7 @@ export async function consumeApiBudget(key: string): Promise<ApiBudget> {
 /** Spends `points` of a client's API budget at once (an operator's penalty; the tests' way to reach the limit). */
 export async function spendApiBudget(key: string, points: number): Promise<void> {
   await limiter("api").penalty(key, points);
+  await localApiLimiter().penalty(key, points);
 }
 
 /**

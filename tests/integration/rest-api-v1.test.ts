@@ -24,7 +24,7 @@ import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 import { apiRateLimit } from "@/lib/config";
 import { reactionSegment } from "@/lib/reactions/paths";
 import { createApiToken, createUser, revokeApiToken, type ApiTokenScope, type UserDto } from "@/lib/users/queries";
-import { sql, uniqueEmail } from "./helpers";
+import { fromAddress, sql, uniqueEmail, uniqueIp } from "./helpers";
 
 type Handler = (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>;
 const call = (handler: unknown, path: string, params: Record<string, string> = {}, init: RequestInit = {}) =>
@@ -333,6 +333,24 @@ describe("rate limits (draft-ietf-httpapi-ratelimit-headers-10)", () => {
     expect(problem).toMatchObject({ status: 429, code: "rate_limited", type: "https://arrhenia.invalid/problems/rate-limited" });
     // Another client is not affected.
     expect((await call(classes.GET, "/api/v1/classes", {}, { headers: bearer(tokens.ownerRead) })).status).toBe(200);
+  });
+});
+
+describe("rate limits of anonymous public reads", () => {
+  it("are counted in the process (no row in PostgreSQL), with the same budget, fields and 429", async () => {
+    const ip = uniqueIp();
+    const limit = apiRateLimit();
+    const first = await call(classes.GET, "/api/v1/classes", {}, { headers: fromAddress(ip) });
+    expect(first.status).toBe(200);
+    expect(first.headers.get("ratelimit")).toMatch(new RegExp(`^"api";r=${limit - 1};t=\\d+$`));
+    const rows = await sql`select key from rate_limits where key like ${`%address:${ip}`}`;
+    expect(rows).toHaveLength(0);
+    await spendApiBudget(`address:${ip}`, limit);
+    const refused = await call(classes.GET, "/api/v1/classes", {}, { headers: fromAddress(ip) });
+    expect(refused.status).toBe(429);
+    expect(Number(refused.headers.get("retry-after"))).toBeGreaterThanOrEqual(1);
+    // Another address is not affected.
+    expect((await call(classes.GET, "/api/v1/classes", {}, { headers: fromAddress(uniqueIp()) })).status).toBe(200);
   });
 });
 
