@@ -39,7 +39,14 @@ const CACHED_PATHS = [
 ];
 
 /** Request headers that make an answer personal or not a plain page (an RSC payload, a server action). */
-const BYPASS_HEADERS = ["authorization", "rsc", "next-action", "next-router-state-tree", "next-router-prefetch", "next-router-segment-prefetch"];
+const BYPASS_HEADERS = [
+  "authorization",
+  "rsc",
+  "next-action",
+  "next-router-state-tree",
+  "next-router-prefetch",
+  "next-router-segment-prefetch",
+];
 
 /** next-auth's session cookie (`next-auth.session-token`, `__Secure-…`, chunked `.0`, `.1`). */
 const SESSION_COOKIE = /(?:^|;\s*)(?:__Secure-|__Host-)?next-auth\.session-token(?:\.\d+)?=/;
@@ -155,7 +162,8 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       // Headers given to writeHead itself (not set before) are taken into getHeaders() here.
       const headers = args.find((a, i) => i > 0 && a !== null && typeof a === "object");
       if (headers && !Array.isArray(headers) && !res.headersSent) {
-        for (const [name, value] of Object.entries(headers as http.OutgoingHttpHeaders)) if (value !== undefined) res.setHeader(name, value);
+        for (const [name, value] of Object.entries(headers as http.OutgoingHttpHeaders))
+          if (value !== undefined) res.setHeader(name, value);
         args = args.filter((a) => a !== headers);
       } else if (Array.isArray(headers)) keep = false;
       if (!res.headersSent) res.setHeader(HTML_CACHE_HEADER, "miss");

@@ -301,7 +301,7 @@ export async function readListedDocuments<T>({
       const [g] = await tx.execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
       const [count] = await tx.execute<{ n: number }>(sql`select count(*)::int as n from search_documents where latest`);
       const sink = start(g?.g ?? "none", Number(count?.n ?? 0));
-      for (let after = 0; ; ) {
+      for (let after = 0; ;) {
         const rows = (await tx.execute<ListedDocumentRow>(sql`
           select version_id, reaction_id, reaction_key, equation, reactant_keys::text as reactant_keys, product_keys::text as product_keys,
             reaction_class, phase, method_category, licence, source_year, bath_gases, flags, creators, t_min, t_max, p_min, p_max,

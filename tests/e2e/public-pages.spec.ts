@@ -209,7 +209,7 @@ test("a newly published version shows on its reaction and species pages without 
   await curator.dispose();
 });
 
-test("public pages are replayed to anonymous readers, never a draft: 404 before and after a member read it", async ({ baseURL }) => {
+test("public pages are replayed to anonymous readers, never a draft: 404 before and after its owner read it", async ({ baseURL }) => {
   const anonymous = await newRequest.newContext({ baseURL });
   const researcher = await signedIn(baseURL!, DEMO_RESEARCHER);
   // A public page: rendered once, then replayed whole.
@@ -224,14 +224,21 @@ test("public pages are replayed to anonymous readers, never a draft: 404 before 
   expect(await mine.text()).toContain("My deposits");
   expect(await again.text()).not.toContain("My deposits");
 
-  const document = labelledAlkaneDeposit({ title: `Draft cache check ${Date.now()}`, name: `labelled nonadecane ${Date.now()}`, carbons: 19 });
+  const document = labelledAlkaneDeposit({
+    title: `Draft cache check ${Date.now()}`,
+    name: `labelled nonadecane ${Date.now()}`,
+    carbons: 19,
+  });
   const created = await researcher.post("/api/v1/datasets", { data: document });
   expect(created.status(), await created.text()).toBe(201);
-  const draft = `/datasets/${(await created.json()).data.datasetId}/v1`;
+  const { datasetId, versionId } = (await created.json()).data;
+  // The public address of the draft's version: 404 to everyone (its owner works on it under /deposits).
+  const draft = `/datasets/${datasetId}/v1`;
   expect((await anonymous.get(draft)).status()).toBe(404);
-  const seen = await researcher.get(draft);
+  const seen = await researcher.get(`/deposits/${versionId}`);
   expect(seen.status()).toBe(200);
   expect(await seen.text()).toContain("Draft cache check");
+  expect((await researcher.get(draft)).status()).toBe(404);
   for (let i = 0; i < 2; i++) {
     const res = await anonymous.get(draft);
     expect(res.status()).toBe(404);
