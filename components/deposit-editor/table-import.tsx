@@ -31,6 +31,8 @@ interface Outcome {
   imported: number;
   errors: FieldError[];
   dropped: number;
+  /** What was read with a change (extra cells not used, a header unit not read), from the table's notices. */
+  notices: string[];
 }
 
 function describeError(err: unknown): string {
@@ -110,10 +112,15 @@ export function TableImport({
 
   function takeRows() {
     if (!inspected) return;
-    const result = importRows(inspected.table, mapping, { uncertaintyKind: uKind, confidence });
-    setOutcome({ imported: result.rows.length, errors: result.errors, dropped: result.dropped });
+    const units = useHeaderUnits ? headerUnits(inspected.table, form) : {};
+    const result = importRows(inspected.table, mapping, {
+      uncertaintyKind: uKind,
+      confidence,
+      temperatureUnit: units.T ?? form.units.T,
+    });
+    setOutcome({ imported: result.rows.length, errors: result.errors, dropped: result.dropped, notices: inspected.table.notices });
     if (result.rows.length === 0) return;
-    onRows(result.rows, form.points.length ? mode : "replace", useHeaderUnits ? headerUnits(inspected.table, form) : {});
+    onRows(result.rows, form.points.length ? mode : "replace", units);
     setInspected(null);
   }
 
@@ -375,6 +382,16 @@ export function TableImport({
               <ul className="mt-1 max-h-60 list-disc space-y-0.5 overflow-y-auto pl-5">
                 {outcome.errors.map((e, i) => (
                   <li key={i}>{e.message}</li>
+                ))}
+              </ul>
+            </div>
+          )}
+          {outcome.imported > 0 && outcome.notices.length > 0 && (
+            <div className="rounded-md border border-warn/40 bg-panel px-3 py-2">
+              <p className="font-semibold">Read with a change:</p>
+              <ul className="mt-1 list-disc space-y-0.5 pl-5">
+                {outcome.notices.map((n) => (
+                  <li key={n}>{n}</li>
                 ))}
               </ul>
             </div>
