@@ -267,7 +267,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
               <ul className="list-disc space-y-1 pl-5 text-sm">
                 {duplicates.map((d) => (
                   <li key={d.versionId}>
-                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, <StateLabel state={d.state} />,{" "}
+                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, {stateWords[d.state]},{" "}
                     {formatRange(d.tMin, d.tMax, "K")}){d.sameDoi ? " — same source DOI" : ""}
                   </li>
                 ))}
