@@ -378,7 +378,10 @@ export function TableImport({
           )}
           {outcome.errors.length > 0 && (
             <div className="rounded-md border border-error/40 bg-panel px-3 py-2 text-error">
-              <p className="font-semibold">Problems in the table (row numbers count data rows of the table, from 1):</p>
+              <p className="font-semibold">
+                Problems in the table as it was brought in (row numbers count data rows of the table, from 1; correct them in the rows
+                below):
+              </p>
               <ul className="mt-1 max-h-60 list-disc space-y-0.5 overflow-y-auto pl-5">
                 {outcome.errors.map((e, i) => (
                   <li key={i}>{e.message}</li>
