@@ -1,7 +1,7 @@
 "use client";
 
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
-import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/vocabulary";
+import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/field-labels";
 import { GroupMessages, NumberField, Section, SelectField, SubGroup, TextAreaField, TextField } from "./fields";
 import type { EditorForm, PressureMode } from "./form-model";
 import { sectionAnchor } from "./pointers";

@@ -8,7 +8,7 @@
  */
 import type { FieldError } from "@/lib/errors";
 import { describePointer, lowerFirst, upperFirst } from "@/lib/deposits/messages";
-import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/vocabulary";
+import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/field-labels";
 
 /** Singular words for the items of the document's lists, as the form names them. */
 export const ITEM_WORDS: Record<string, string> = {

@@ -5,7 +5,7 @@
  * identifier, title, licence, citation line and the caution sentence. Pure.
  */
 import { csvCell } from "@/lib/analyses/fit-export";
-import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/vocabulary";
+import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/field-labels";
 import type { PointRow } from "./point-table";
 
 /** What the header of a download says about the version. */

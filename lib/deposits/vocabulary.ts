@@ -84,12 +84,6 @@ export const PHASES = [
 export type PhaseId = (typeof PHASES)[number]["id"];
 
 /** How the rate constants were obtained; the ids stay as the deposit format names them, the labels are ours. */
-/**
- * THE name of the deposit's free-text conditions (`conditions.notes`): the editor's label, the
- * review's change lists, the dataset page and the downloads' header all say it so.
- */
-export const OTHER_CONDITIONS_LABEL = "Other conditions";
-
 export const METHOD_CATEGORIES = [
   { id: "experiment", label: "Measured", hint: "Rate constants measured in the laboratory." },
   { id: "theory", label: "Calculated", hint: "Rate constants computed, e.g. from transition-state or master-equation calculations." },

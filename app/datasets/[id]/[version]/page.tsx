@@ -21,7 +21,7 @@ import { auditTrailPath } from "@/lib/audit/paths";
 import { canReadAuditTrail } from "@/lib/audit/queries";
 import { getCurrentUser } from "@/lib/auth/session";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
-import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/vocabulary";
+import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/field-labels";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
 import { formatNumber } from "@/lib/format";
 import { CiteSection } from "@/components/cite/cite-section";
