@@ -4,7 +4,7 @@ import { useId } from "react";
 import { formatRange, formatSignificant } from "@/lib/format";
 import { ScrollRegion } from "./scroll-region";
 import { kScaleSymbol, onKScale, useKScale } from "./k-scale";
-import { niceScale, temperatureTicks } from "./plot-scales";
+import { plotScale, temperatureTicks } from "./plot-scales";
 import { PointCloud, POINT_CLOUD_FROM } from "./point-cloud";
 import { usePlotWidth } from "./plot-width";
 import { Area, CartesianGrid, ComposedChart, ErrorBar, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
@@ -67,7 +67,7 @@ export function ArrheniusPlot({
     : [];
   const xs = [...points.map((p) => 1000 / p.T), ...band.T.map((t) => 1000 / t), ...reportedLine.map((p) => p.x)];
   // Fewer ticks on a narrow plot, so the labels of both x axes stay apart.
-  const x = niceScale(Math.min(...xs), Math.max(...xs), Math.max(3, tickCount));
+  const x = plotScale(Math.min(...xs), Math.max(...xs), Math.max(3, tickCount));
   const domain = x.domain;
   const topTicks = temperatureTicks(domain, tickCount);
   const ys = [
@@ -84,7 +84,7 @@ export function ArrheniusPlot({
     if (v < yMin) yMin = v;
     if (v > yMax) yMax = v;
   }
-  const y = niceScale(yMin, yMax);
+  const y = plotScale(yMin, yMax);
   const fit = band.T.map((t, i) => ({
     x: 1000 / t,
     fit: yOf(band.lnk[i]),

@@ -2,7 +2,7 @@
 
 import { formatRange } from "@/lib/format";
 import { kScaleSymbol, onKScale, useKScale } from "./k-scale";
-import { niceScale, temperatureTicks } from "./plot-scales";
+import { plotScale, temperatureTicks } from "./plot-scales";
 import { usePlotWidth } from "./plot-width";
 import { formatSignificant } from "@/lib/format";
 import { Area, CartesianGrid, ComposedChart, ErrorBar, Line, ResponsiveContainer, Scatter, Symbols, Tooltip, XAxis, YAxis } from "recharts";
@@ -150,7 +150,7 @@ export function ConsensusPlot({
   const unusedCount = series.reduce((n, s) => n + (s.excluded ? 0 : (s.unused?.length ?? 0)), 0);
   if (!xs.length) return null;
   // Fewer ticks on a narrow plot, so the labels of both x axes stay apart.
-  const x = niceScale(Math.min(...xs), Math.max(...xs), Math.max(3, tickCount));
+  const x = plotScale(Math.min(...xs), Math.max(...xs), Math.max(3, tickCount));
   const domain = x.domain;
   const topTicks = temperatureTicks(domain, tickCount);
   const ys = [
@@ -161,7 +161,7 @@ export function ConsensusPlot({
   ]
     .map(yOf)
     .filter(Number.isFinite);
-  const y = niceScale(Math.min(...ys), Math.max(...ys));
+  const y = plotScale(Math.min(...ys), Math.max(...ys));
   const withBars = series.some((s) => [...s.points, ...(s.unused ?? [])].some((p) => p.sigmaLnK));
   const Ts = series.flatMap((s) => [...s.points, ...(s.unused ?? [])].map((p) => p.T));
   const summary = `Arrhenius plot, ${symbol} against 1000/T, of ${series.length} dataset${series.length === 1 ? "" : "s"} between ${formatRange(

@@ -95,13 +95,17 @@ export function ConsensusSummary({
         </table>
       </ScrollRegion>
       <SharesTable result={result} labels={labels} shown={shown} />
-      <p className="text-sm text-muted">
-        <StatisticTerm id="betweenDatasets" plain="How much the datasets disagree beyond their own uncertainties" />: τ² = {sig(fit.tau2)}{" "}
-        (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
-      </p>
+      <p className="text-sm text-muted">{betweenDatasetWords(fit)}</p>
       <p className="text-xs text-muted" data-testid="consensus-method">
         {CONSENSUS_METHOD_WORDS}
       </p>
+      <details className="text-xs text-muted" data-testid="consensus-computation">
+        <summary className="cursor-pointer">How this is computed</summary>
+        <p className="mt-1">{CONSENSUS_COMPUTATION_WORDS}</p>
+        <p className="mt-1">
+          Between-dataset variance τ² = {sig(fit.tau2)} (ln k)², I² = {Math.round(fit.i2 * 100)} % (Q = {sig(fit.q)} on {fit.dof} dof).
+        </p>
+      </details>
       {result.flags.length > 0 && (
         <ul className="space-y-2" aria-label="Consensus findings">
           {result.flags.map((f, i) => (
@@ -120,11 +124,27 @@ export function ConsensusSummary({
 }
 
 /**
- * How the consensus is made, in plain words with the technical names in brackets (the API's `method`
- * keeps the terse technical sentence). Kept true to lib/kinetics/consensus.ts.
+ * The between-dataset spread for a reader: how far apart the datasets are beyond their own
+ * uncertainties, as a factor (exp τ: one standard deviation of ln k between datasets), and how much
+ * of their disagreement that spread is (I², in words). The technical figures go in "How this is computed".
+ */
+export function betweenDatasetWords(fit: { tau2: number; i2: number }): string {
+  if (!(fit.tau2 > 0))
+    return "Between-dataset spread: none beyond their own uncertainties; the datasets agree as well as their uncertainties say they should.";
+  const factor = Math.exp(Math.sqrt(fit.tau2));
+  return `Between-dataset spread: the datasets differ from one another by about a factor ${sig(factor)} (one standard deviation) beyond their own uncertainties; ${Math.round(fit.i2 * 100)} % of their disagreement comes from this spread rather than from the uncertainties they state.`;
+}
+
+/**
+ * How the consensus is made, in plain words (the API's `method` keeps the terse technical sentence;
+ * the technical names are in {@link CONSENSUS_COMPUTATION_WORDS}). Kept true to lib/kinetics/consensus.ts.
  */
 export const CONSENSUS_METHOD_WORDS =
-  "How the consensus is made: each dataset's own fit gives its values of k at a few temperatures inside its own range, with their uncertainties (support values). One curve is then fitted through all of them, allowing the datasets to disagree by more than their own uncertainties (generalised least squares with a between-dataset variance τ², estimated by the DerSimonian–Laird method). Each dataset is compared with the curve of the others along its range; while one is off, the dataset whose removal leaves the others agreeing best is set aside and the curve fitted again (largest consistent subset, Cox 2007), until none is off or two remain. The curve bends (modified Arrhenius) only when the bend does not rest on one dataset alone. The band and the factor f are 95 % ranges that include the disagreement between datasets.";
+  "How the consensus is made: each dataset's own fit gives its values of k at a few temperatures inside its own range, with their uncertainties. One curve is then fitted through all of them, allowing the datasets to disagree with one another by more than their own uncertainties (the between-dataset spread). Each dataset is compared with the curve of the others along its range; while one is off, the dataset whose removal leaves the others agreeing best is set aside and the curve fitted again, until none is off or two remain. The curve bends (modified Arrhenius) only when the bend does not rest on one dataset alone. The band and the factor f are 95 % ranges that include the disagreement between datasets.";
+
+/** The same method with its technical names, for the specialist's "How this is computed" note. */
+export const CONSENSUS_COMPUTATION_WORDS =
+  "Each dataset's values of k at a few temperatures inside its range are its support values. The curve is a generalised least-squares fit with a between-dataset variance τ², estimated by the DerSimonian–Laird method; I² is the share of the total disagreement (Cochran's Q) that τ² explains. Datasets are set aside by the largest consistent subset (Cox 2007).";
 
 /**
  * Who carries the consensus: each included dataset's share in the consensus k at the temperatures of f(T). The
@@ -200,6 +220,14 @@ export function ConsensusComparisons({
 }
 
 /**
+ * The engine's verdict as a reader reads it: the spread of the others as a factor only ("a factor 1.5
+ * per standard deviation"), without the τ² figure the engine writes beside it for the API.
+ */
+export function readerVerdict(verdict: string): string {
+  return verdict.replace(/τ² of the others = [^,()]+ in \(ln k\)², (a factor [^()]+ per standard deviation)/g, "$1");
+}
+
+/**
  * What a dataset's k is divided by in its table: the consensus of the other datasets, or — when
  * there is one other — that dataset's own fit (a comparison of two datasets, not with a consensus).
  */
@@ -227,7 +255,7 @@ function MemberComparison({
       <h3 className="font-medium">
         {label} <span className={`text-sm ${d?.off ? "text-warn" : "text-muted"}`}>— {status}</span>
       </h3>
-      <p className="text-sm">{m.verdict}</p>
+      <p className="text-sm">{readerVerdict(m.verdict)}</p>
       <p className="text-xs text-muted">
         {m.n} points, {m.Tmin !== null ? formatRange(m.Tmin, m.Tmax, "K") : "no temperatures"}; summarised by its{" "}
         {m.model === "modified_arrhenius"
@@ -244,8 +272,10 @@ function MemberComparison({
       {d && d.points.length > 0 && (
         <p className="text-xs text-muted">
           {d.comparedWith === 1
-            ? `Only one other dataset is in the consensus, so there is no consensus of the others: the ratio compares this dataset's own fit with ${otherSide.single ?? "the other dataset"}'s own fit, and z has no spread between datasets (τ² = 0).`
-            : `Spread between the others without this dataset: τ²₋ⱼ = ${sig(d.tau2)} (ln k)², in every z beside its own and the others' uncertainty.`}
+            ? `Only one other dataset is in the consensus, so there is no consensus of the others: the ratio compares this dataset's own fit with ${otherSide.single ?? "the other dataset"}'s own fit, and z counts no spread between datasets.`
+            : d.tau2 > 0
+              ? `Without this dataset, the others differ from one another by about a factor ${sig(Math.exp(Math.sqrt(d.tau2)))} (one standard deviation) beyond their own uncertainties; every z counts that spread beside this dataset's and the others' uncertainty.`
+              : "Without this dataset, the others agree with one another within their own uncertainties, so z counts only this dataset's and the others' uncertainty."}
         </p>
       )}
       {d && d.points.length > 0 && (

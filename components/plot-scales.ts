@@ -42,6 +42,20 @@ export function niceScale(min: number, max: number, count = 5): { domain: [numbe
   return { domain: [ticks[0], ticks[ticks.length - 1]], ticks, decimals };
 }
 
+/** The share of the data's span kept free on each side of a plot's axis. */
+export const PLOT_MARGIN = 0.04;
+
+/**
+ * THE scale of a plot's axis: niceScale over the data widened by {@link PLOT_MARGIN} of their span on
+ * each side, so a point on a round value at the data's edge is never on the axis line with half its
+ * marker clipped off. Every plot (dataset, review, reaction, editor preview, /analyse) uses it.
+ * @example plotScale(2.5, 4) // { domain: [2.4, 4.2], … }: 2.5 and 4 lie inside, not on the edge
+ */
+export function plotScale(min: number, max: number, count = 5): { domain: [number, number]; ticks: number[]; decimals: number } {
+  const margin = max > min && Number.isFinite(max - min) ? (max - min) * PLOT_MARGIN : 0;
+  return niceScale(min - margin, max + margin, count);
+}
+
 /**
  * Round temperatures for the top axis of an Arrhenius plot whose bottom axis is 1000/T in
  * `domain` (K⁻¹), returned as positions on that axis. Temperatures are round in kelvin, thinned

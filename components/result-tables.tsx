@@ -1,7 +1,8 @@
 "use client";
 
 import type { AnalysisResult, Flag, ReactionOrder } from "@/lib/kinetics/types";
-import { describeExtrapolation, formatFlagMessage } from "@/lib/kinetics/flag-text";
+import { describeExtrapolation } from "@/lib/kinetics/flag-text";
+import { readerFlagMessage, technicalFlagNote } from "@/lib/flag-words";
 import { formatSignificant } from "@/lib/format";
 import { convertEntropy, energyQuantityLabel, entropyQuantityLabel } from "@/lib/unit-labels";
 import { displayConversion } from "@/lib/kinetics/units";
@@ -226,18 +227,28 @@ export function ResultTables({
           <p className="text-sm text-ok">No findings: no outliers, no significant curvature, range and scatter as expected.</p>
         ) : (
           <ul className="space-y-2">
-            {analysis.flags.map((f, i) => (
-              <li key={i} className={`rounded-md border bg-panel px-3 py-2 text-sm ${severityStyle[f.severity]}`}>
-                <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold">{severityNoun(f.severity)}</span>
-                {formatFlagMessage(f, { energy: energyUnit, temperature: temperatureUnit })}
-                {f.points && f.points.length > 0 && (
-                  <span className="block text-xs text-muted">
-                    {pointWord}
-                    {f.points.length > 1 ? "s" : ""}: {f.points.map((p) => lineOf(p) ?? p + 1).join(", ")}
-                  </span>
-                )}
-              </li>
-            ))}
+            {analysis.flags.map((f, i) => {
+              const units = { energy: energyUnit, temperature: temperatureUnit };
+              const technical = technicalFlagNote(f, units);
+              return (
+                <li key={i} className={`rounded-md border bg-panel px-3 py-2 text-sm ${severityStyle[f.severity]}`}>
+                  <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold">{severityNoun(f.severity)}</span>{" "}
+                  {readerFlagMessage(f, units)}
+                  {technical && (
+                    <details className="mt-1 text-xs text-muted">
+                      <summary className="cursor-pointer">How this is found</summary>
+                      <p className="mt-1">{technical}</p>
+                    </details>
+                  )}
+                  {f.points && f.points.length > 0 && (
+                    <span className="block text-xs text-muted">
+                      {pointWord}
+                      {f.points.length > 1 ? "s" : ""}: {f.points.map((p) => lineOf(p) ?? p + 1).join(", ")}
+                    </span>
+                  )}
+                </li>
+              );
+            })}
           </ul>
         )}
       </section>

@@ -3,7 +3,7 @@
  * in the document's units, with σ(ln k) from its stated uncertainty exactly as the stored analysis
  * computes it (lib/deposits/normalise). `rows` maps each posted point back to its table row.
  */
-import { parseNumberCell } from "@/lib/deposits/import-table";
+import { parseNumberText } from "@/lib/number-text";
 import { sigmaLnKOf } from "@/lib/deposits/normalise";
 import type { ReactionOrder } from "@/lib/kinetics/types";
 import { rowUncertainty, type PointRow } from "./form-model";
@@ -33,8 +33,8 @@ export function buildAnalysisRequest(points: PointRow[], order: ReactionOrder, u
   const out: AnalysisRequestBody["points"] = [];
   const rows: number[] = [];
   points.forEach((row, i) => {
-    const T = parseNumberCell(row.T);
-    const k = parseNumberCell(row.k);
+    const T = parseNumberText(row.T);
+    const k = parseNumberText(row.k);
     if (T === null || k === null) return;
     const sigmaLnK = k > 0 ? validSigma(row, k) : undefined;
     out.push(sigmaLnK === undefined ? { T, k } : { T, k, sigmaLnK });

@@ -25,8 +25,7 @@ export function CheckList({ checks }: { checks: StoredCheck[] }) {
         <ul className="space-y-2">
           {findings.map((c, i) => (
             <li key={`${c.code}-${i}`} className={`rounded-md border bg-panel px-3 py-2 text-sm ${tone[c.severity] ?? tone.info}`}>
-              <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold">{severityWords(c.severity)}</span>
-              {c.message}
+              <span className="mr-2 rounded-sm bg-paper px-1.5 py-0.5 text-xs font-semibold">{severityWords(c.severity)}</span> {c.message}
             </li>
           ))}
         </ul>

@@ -1,6 +1,7 @@
 "use client";
 
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
+import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/field-labels";
 import { GroupMessages, NumberField, Section, SelectField, SubGroup, TextAreaField, TextField } from "./fields";
 import type { EditorForm, PressureMode } from "./form-model";
 import { sectionAnchor } from "./pointers";
@@ -78,7 +79,7 @@ export function ConditionsSection({ form, update }: SectionProps) {
       />
       <TextAreaField
         pointer="/conditions/notes"
-        label="Other conditions"
+        label={OTHER_CONDITIONS_LABEL}
         value={c.notes}
         onChange={(v) => set({ notes: v })}
         rows={2}

@@ -20,7 +20,7 @@ import { blankForm, documentToForm, formToDocument, type EditorForm, type Person
 import { LifecyclePanel, type DecisionView, type MemberView, type VersionView } from "./lifecycle-panel";
 import { LiveAnalysis } from "./live-analysis";
 import { MethodSection } from "./method-section";
-import { fieldId, groupErrors, isWithin, resolveFieldPointer, SECTIONS, sectionAnchor } from "./pointers";
+import { fieldId, groupErrors, isWithin, mergeProblems, resolveFieldPointer, SECTIONS, sectionAnchor } from "./pointers";
 import { ReactionSection } from "./reaction-section";
 import { ReportedFitSection } from "./reported-fit-section";
 import { readinessItems } from "./readiness";
@@ -127,7 +127,7 @@ export function DepositEditor(props: DepositEditorProps) {
     () => blockingChecks(storedChecks ?? []).map((c) => ({ pointer: checkPointer(c.code), message: c.message })),
     [storedChecks],
   );
-  const allErrors = useMemo(() => [...localProblems, ...serverErrors, ...checkErrors], [localProblems, serverErrors, checkErrors]);
+  const allErrors = useMemo(() => mergeProblems(localProblems, serverErrors, checkErrors), [localProblems, serverErrors, checkErrors]);
   const grouped = useMemo(() => groupErrors(allErrors, form), [allErrors, form]);
   const readiness = useMemo(() => readinessItems(allErrors, deferredForm), [allErrors, deferredForm]);
   const rangeWarning = useMemo(() => validityRangeWarning(deferredForm), [deferredForm]);

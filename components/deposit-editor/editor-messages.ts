@@ -8,6 +8,7 @@
  */
 import type { FieldError } from "@/lib/errors";
 import { describePointer, lowerFirst, upperFirst } from "@/lib/deposits/messages";
+import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/field-labels";
 
 /** Singular words for the items of the document's lists, as the form names them. */
 export const ITEM_WORDS: Record<string, string> = {
@@ -145,7 +146,7 @@ const PATH_WORDS: Record<string, string> = {
   "conditions/pressure/value": "pressure value",
   "conditions/pressure/min": "lowest pressure",
   "conditions/pressure/max": "highest pressure",
-  "conditions/notes": "notes on the conditions",
+  "conditions/notes": lowerFirst(OTHER_CONDITIONS_LABEL),
   "method/notes": "notes on the method",
   "reaction/class": "reaction class",
   "reaction/order": "reaction order",

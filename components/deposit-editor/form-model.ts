@@ -1,10 +1,11 @@
 /**
  * The editor's form: a deposit document with every number kept as the text the person typed, so
- * that "1.2e-" mid-keystroke or a pasted "1,2" survives until it is corrected. formToDocument turns
- * it back into a document (unreadable numbers go to the server as text, where the schema names
- * them; the editor flags them at once with the same pointer), documentToForm loads a stored one.
+ * that "1.2e-" mid-keystroke survives until it is corrected; numbers are read by lib/number-text.ts
+ * (decimal commas too, as /analyse and the table import read them). formToDocument turns it back into
+ * a document (unreadable numbers go to the server as text; the editor flags them at once with the same
+ * pointer and the server's own message there is not shown again), documentToForm loads a stored one.
  */
-import { parseNumberCell } from "@/lib/deposits/import-table";
+import { parseNumberText, readNumberText } from "@/lib/number-text";
 import type { CslReference, DepositDocument, DepositPoint, PointUncertainty } from "@/lib/deposits/types";
 import {
   DEFAULT_LICENCE,
@@ -325,13 +326,9 @@ class Reader {
   number(value: string, pointer: string): number | string | undefined {
     const t = value.trim();
     if (t === "") return undefined;
-    const n = parseNumberCell(t);
-    if (n !== null) return n;
-    this.problems.push({
-      pointer,
-      value: t,
-      message: `"${t}" is not a number; write it like 1.2e-11 (a point, not a comma, for decimals).`,
-    });
+    const read = readNumberText(t);
+    if (read.ok) return read.value;
+    this.problems.push({ pointer, value: t, message: `${read.problem}; write it like 1.2e-11 or 1,2e-11.` });
     return t;
   }
 }
@@ -507,7 +504,7 @@ export function formToDocument(form: EditorForm): { document: DepositDocument; p
 
 /** A point's uncertainty as the document states it, when the row holds a readable one. */
 export function rowUncertainty(row: PointRow): PointUncertainty | undefined {
-  const v = parseNumberCell(row.u);
+  const v = parseNumberText(row.u);
   if (v === null) return undefined;
   return row.uConfidence ? { kind: row.uKind, value: v, confidence: row.uConfidence } : { kind: row.uKind, value: v };
 }

@@ -174,6 +174,23 @@ export function groupErrors(errors: FieldError[], form: EditorForm): GroupedErro
   return { byField, unplaced };
 }
 
+/**
+ * Every problem the editor shows, each once: the form's own (a number it cannot read), the last
+ * save's (schema and checks) and the stored checks that block submission. The server reads an
+ * unreadable cell as text and says "must be a number" at the same pointer; the form already said
+ * what is wrong there, in more words, so the server's is left out.
+ */
+export function mergeProblems(local: FieldError[], server: FieldError[], checks: FieldError[] = []): FieldError[] {
+  const own = new Set(local.map((e) => e.pointer));
+  // The pointer or any pointer it lies within (/points/2/uncertainty/value within /points/2/uncertainty).
+  const reported = (pointer: string) => {
+    for (let p = pointer; p; p = p.slice(0, p.lastIndexOf("/"))) if (own.has(p)) return true;
+    return false;
+  };
+  const kept = own.size ? server.filter((e) => !reported(e.pointer)) : server;
+  return [...local, ...kept, ...checks];
+}
+
 /** Whether a problem shown at `field` is about the value at `pointer` or inside it (edits clear those). */
 export function isWithin(field: string, pointer: string): boolean {
   return field === pointer || field.startsWith(`${pointer}/`);

@@ -31,6 +31,8 @@ interface Outcome {
   imported: number;
   errors: FieldError[];
   dropped: number;
+  /** What was read with a change (extra cells not used, a header unit not read), from the table's notices. */
+  notices: string[];
 }
 
 function describeError(err: unknown): string {
@@ -110,10 +112,15 @@ export function TableImport({
 
   function takeRows() {
     if (!inspected) return;
-    const result = importRows(inspected.table, mapping, { uncertaintyKind: uKind, confidence });
-    setOutcome({ imported: result.rows.length, errors: result.errors, dropped: result.dropped });
+    const units = useHeaderUnits ? headerUnits(inspected.table, form) : {};
+    const result = importRows(inspected.table, mapping, {
+      uncertaintyKind: uKind,
+      confidence,
+      temperatureUnit: units.T ?? form.units.T,
+    });
+    setOutcome({ imported: result.rows.length, errors: result.errors, dropped: result.dropped, notices: inspected.table.notices });
     if (result.rows.length === 0) return;
-    onRows(result.rows, form.points.length ? mode : "replace", useHeaderUnits ? headerUnits(inspected.table, form) : {});
+    onRows(result.rows, form.points.length ? mode : "replace", units);
     setInspected(null);
   }
 
@@ -371,10 +378,23 @@ export function TableImport({
           )}
           {outcome.errors.length > 0 && (
             <div className="rounded-md border border-error/40 bg-panel px-3 py-2 text-error">
-              <p className="font-semibold">Problems in the table (row numbers count data rows of the table, from 1):</p>
+              <p className="font-semibold">
+                Problems in the table as it was brought in (row numbers count data rows of the table, from 1; correct them in the rows
+                below):
+              </p>
               <ul className="mt-1 max-h-60 list-disc space-y-0.5 overflow-y-auto pl-5">
                 {outcome.errors.map((e, i) => (
                   <li key={i}>{e.message}</li>
+                ))}
+              </ul>
+            </div>
+          )}
+          {outcome.imported > 0 && outcome.notices.length > 0 && (
+            <div className="rounded-md border border-warn/40 bg-panel px-3 py-2">
+              <p className="font-semibold">Read with a change:</p>
+              <ul className="mt-1 list-disc space-y-0.5 pl-5">
+                {outcome.notices.map((n) => (
+                  <li key={n}>{n}</li>
                 ))}
               </ul>
             </div>

@@ -4,7 +4,7 @@
  * and one reaching well beyond them claims more than the data show; the editor says where the two
  * lie, in kelvin, and when the other unit would match the data much better.
  */
-import { parseNumberCell } from "@/lib/deposits/import-table";
+import { parseNumberText } from "@/lib/number-text";
 import { formatNumber, formatRange } from "@/lib/format";
 import { toKelvin, UnitError } from "@/lib/kinetics/units";
 import type { EditorForm } from "./form-model";
@@ -12,7 +12,7 @@ import type { EditorForm } from "./form-model";
 const UNIT_WORDS: Record<string, string> = { K: "kelvin", degC: "°C" };
 
 function kelvinOrNull(text: string, unit: string): number | null {
-  const v = parseNumberCell(text.trim());
+  const v = parseNumberText(text.trim());
   if (v === null) return null;
   try {
     return toKelvin(v, unit);

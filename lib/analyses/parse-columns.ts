@@ -11,15 +11,14 @@ export interface ParsedColumns {
   errors: RowError[];
 }
 
-const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-/** One comma between digits, as in "2,09e-15" or "298,15". */
-const DECIMAL_COMMA = /^[+-]?\d*,\d+([eE][+-]?\d+)?$/;
+import { readNumberText } from "@/lib/number-text";
 
 /**
  * Reads pasted columns — T, k and optionally σ(ln k) — separated by tabs, commas, semicolons or
  * spaces (as copied from a spreadsheet). Blank lines and `#` comments are skipped; a first line
  * without numbers is taken as a header. When tabs or semicolons separate the columns, a comma can
- * only be a decimal comma (as spreadsheets in many locales write them) and is read as a point.
+ * only be a decimal comma (as spreadsheets in many locales write them); each cell is read by
+ * lib/number-text.ts, as the deposit editor and the table import read theirs.
  * Line numbers count every line the person sees, blank, comment and header lines included.
  */
 export function parseColumns(text: string): ParsedColumns {
@@ -31,14 +30,13 @@ export function parseColumns(text: string): ParsedColumns {
     // "#…" or, as this product's CSVs write their header lines, one quoted cell "#…".
     if (!trimmed || trimmed.startsWith("#") || trimmed.startsWith('"#')) return;
     // Tabs or semicolons, when present, separate the columns; then a comma can only be a decimal comma.
-    const decimalComma = trimmed.includes("\t") || trimmed.includes(";");
     const delimiter = trimmed.includes("\t") ? /\t+/ : trimmed.includes(";") ? /\s*;\s*/ : /[\s,]+/;
     const cells = trimmed
       .split(delimiter)
       .map((c) => c.trim())
-      .filter(Boolean)
-      .map((c) => (decimalComma && DECIMAL_COMMA.test(c) ? c.replace(",", ".") : c));
-    if (out.points.length === 0 && out.errors.length === 0 && !cells.some((c) => NUMBER.test(c))) return; // header
+      .filter(Boolean);
+    const read = cells.map(readNumberText);
+    if (out.points.length === 0 && out.errors.length === 0 && !read.some((r) => r.ok)) return; // header
     if (cells.length < 2) {
       out.errors.push({ line, message: `line ${line}: expected two columns (T and k), found ${cells.length}` });
       return;
@@ -47,12 +45,17 @@ export function parseColumns(text: string): ParsedColumns {
       out.errors.push({ line, message: `line ${line}: expected two or three columns (T, k, σ(ln k)), found ${cells.length}` });
       return;
     }
-    const bad = cells.findIndex((c) => !NUMBER.test(c));
+    const bad = read.findIndex((r) => !r.ok);
     if (bad >= 0) {
-      out.errors.push({ line, message: `line ${line}: “${cells[bad]}” in column ${bad + 1} is not a number` });
+      const r = read[bad];
+      const message =
+        !r.ok && !r.problem.endsWith("is not a number")
+          ? `line ${line}, column ${bad + 1}: ${r.problem}`
+          : `line ${line}: “${cells[bad]}” in column ${bad + 1} is not a number`;
+      out.errors.push({ line, message });
       return;
     }
-    const [T, k, s] = cells.map(Number);
+    const [T, k, s] = read.map((r) => (r.ok ? r.value : NaN));
     out.points.push(s === undefined ? { T, k } : { T, k, sigmaLnK: s });
     out.lines.push(line);
   });

@@ -4,7 +4,8 @@ import { getDb } from "@/db/client";
 import { datasets, datasetVersions, decisions, submissionSnapshots, versionAnalyses } from "@/db/datasets";
 import { users } from "@/db/users";
 import { RETIRED_REACTION_CLASS_IDS } from "@/lib/deposits/vocabulary";
-import { formatFlagMessage, type Flag } from "@/lib/kinetics";
+import type { Flag } from "@/lib/kinetics";
+import { readerFlagMessage } from "@/lib/flag-words";
 import { summariseFindings, type CheckSummary } from "./check-summary";
 import type { VersionState } from "./lifecycle";
 
@@ -157,7 +158,7 @@ export async function listCheckSummaries(versionIds: number[]): Promise<Map<numb
       r.versionId,
       summariseFindings([
         ...(r.checks ?? []),
-        ...flags.map((f) => ({ code: f.code, severity: f.severity, message: formatFlagMessage(f) })),
+        ...flags.map((f) => ({ code: f.code, severity: f.severity, message: readerFlagMessage(f) })),
       ]),
     );
   }

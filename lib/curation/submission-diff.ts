@@ -7,6 +7,7 @@
  */
 import canonicalize from "canonicalize";
 import { diffArrays } from "diff";
+import { unitLabel } from "@/lib/unit-labels";
 
 export type ChangeKind = "added" | "removed" | "changed";
 
@@ -65,13 +66,38 @@ function compareLeaves(before: Map<string, unknown>, after: Map<string, unknown>
   return out;
 }
 
-function rowValues(row: unknown) {
-  return leaves(row);
+/** The units a document states (its `units`), for writing point values with them. */
+type DocumentUnits = { T?: string; k?: string; pressure?: string };
+
+function unitsOf(doc: Record<string, unknown>): DocumentUnits {
+  const u = doc.units;
+  return u !== null && typeof u === "object" ? (u as DocumentUnits) : {};
 }
 
-function pointChange(kind: ChangeKind, before?: { row: number; value: unknown }, after?: { row: number; value: unknown }): PointChange {
+/**
+ * The row's leaves, each number written with its unit as the document states it: T, k and pressure in
+ * the document's units; an uncertainty by its kind (absolute: k's unit, relative: %, factor: no unit).
+ */
+function rowValues(row: unknown, units: DocumentUnits = {}): Map<string, unknown> {
+  const out = leaves(row);
+  const point = (row ?? {}) as { uncertainty?: { kind?: string } };
+  const withUnit = (column: string, label: string) => {
+    const v = out.get(column);
+    if (typeof v === "number" && label) out.set(column, `${show(v)} ${label}`);
+  };
+  withUnit("T", unitLabel("temperature", units.T));
+  withUnit("k", unitLabel("rateConstant", units.k));
+  withUnit("pressure", unitLabel("pressure", units.pressure));
+  const kind = point.uncertainty?.kind;
+  withUnit("uncertainty › value", kind === "relative" ? "%" : kind === "factor" ? "" : unitLabel("rateConstant", units.k));
+  return out;
+}
+
+type Side = { row: number; value: unknown; units?: DocumentUnits };
+
+function pointChange(kind: ChangeKind, before?: Side, after?: Side): PointChange {
   if (kind === "changed") {
-    const values = compareLeaves(rowValues(before!.value), rowValues(after!.value)).map((c) => ({
+    const values = compareLeaves(rowValues(before!.value, before!.units), rowValues(after!.value, after!.units)).map((c) => ({
       column: c.path,
       before: c.before,
       after: c.after,
@@ -79,12 +105,20 @@ function pointChange(kind: ChangeKind, before?: { row: number; value: unknown },
     return { kind, rowBefore: before!.row, rowAfter: after!.row, values };
   }
   const side = (before ?? after)!;
-  const values = [...rowValues(side.value)].map(([column, v]) => (before ? { column, before: show(v) } : { column, after: show(v) }));
+  const values = [...rowValues(side.value, side.units)].map(([column, v]) =>
+    before ? { column, before: show(v) } : { column, after: show(v) },
+  );
   return { kind, rowBefore: before?.row, rowAfter: after?.row, values };
 }
 
 /** Points row by row: Myers alignment of the rows, removed+added runs paired as changes. */
-export function diffPoints(before: unknown[], after: unknown[]): PointChange[] {
+export function diffPoints(
+  before: unknown[],
+  after: unknown[],
+  units: { before?: DocumentUnits; after?: DocumentUnits } = {},
+): PointChange[] {
+  const b = (row: number, value: unknown): Side => ({ row, value, units: units.before });
+  const a = (row: number, value: unknown): Side => ({ row, value, units: units.after });
   const keysBefore = before.map((p) => canonicalize(p) ?? "");
   const keysAfter = after.map((p) => canonicalize(p) ?? "");
   const parts = diffArrays(keysBefore, keysAfter, { maxEditLength: MAX_EDIT_LENGTH });
@@ -92,10 +126,9 @@ export function diffPoints(before: unknown[], after: unknown[]): PointChange[] {
   if (!parts) {
     // Too different to align within the bound: compare position by position.
     for (let i = 0; i < Math.max(before.length, after.length); i++) {
-      if (i >= after.length) out.push(pointChange("removed", { row: i + 1, value: before[i] }));
-      else if (i >= before.length) out.push(pointChange("added", undefined, { row: i + 1, value: after[i] }));
-      else if (keysBefore[i] !== keysAfter[i])
-        out.push(pointChange("changed", { row: i + 1, value: before[i] }, { row: i + 1, value: after[i] }));
+      if (i >= after.length) out.push(pointChange("removed", b(i + 1, before[i])));
+      else if (i >= before.length) out.push(pointChange("added", undefined, a(i + 1, after[i])));
+      else if (keysBefore[i] !== keysAfter[i]) out.push(pointChange("changed", b(i + 1, before[i]), a(i + 1, after[i])));
     }
     return out;
   }
@@ -112,20 +145,19 @@ export function diffPoints(before: unknown[], after: unknown[]): PointChange[] {
     if (part.removed && parts[p + 1]?.added) {
       const m = parts[p + 1].value.length;
       const paired = Math.min(n, m);
-      for (let k = 0; k < paired; k++)
-        out.push(pointChange("changed", { row: i + k + 1, value: before[i + k] }, { row: j + k + 1, value: after[j + k] }));
-      for (let k = paired; k < n; k++) out.push(pointChange("removed", { row: i + k + 1, value: before[i + k] }));
-      for (let k = paired; k < m; k++) out.push(pointChange("added", undefined, { row: j + k + 1, value: after[j + k] }));
+      for (let k = 0; k < paired; k++) out.push(pointChange("changed", b(i + k + 1, before[i + k]), a(j + k + 1, after[j + k])));
+      for (let k = paired; k < n; k++) out.push(pointChange("removed", b(i + k + 1, before[i + k])));
+      for (let k = paired; k < m; k++) out.push(pointChange("added", undefined, a(j + k + 1, after[j + k])));
       i += n;
       j += m;
       p++;
       continue;
     }
     if (part.removed) {
-      for (let k = 0; k < n; k++) out.push(pointChange("removed", { row: i + k + 1, value: before[i + k] }));
+      for (let k = 0; k < n; k++) out.push(pointChange("removed", b(i + k + 1, before[i + k])));
       i += n;
     } else {
-      for (let k = 0; k < n; k++) out.push(pointChange("added", undefined, { row: j + k + 1, value: after[j + k] }));
+      for (let k = 0; k < n; k++) out.push(pointChange("added", undefined, a(j + k + 1, after[j + k])));
       j += n;
     }
   }
@@ -145,7 +177,7 @@ export function diffSubmissions(before: Record<string, unknown>, after: Record<s
   const pointsAfter = Array.isArray(pa) ? pa : [];
   return {
     fields: compareLeaves(leaves(restBefore), leaves(restAfter)),
-    points: diffPoints(pointsBefore, pointsAfter),
+    points: diffPoints(pointsBefore, pointsAfter, { before: unitsOf(before), after: unitsOf(after) }),
     pointsBefore: pointsBefore.length,
     pointsAfter: pointsAfter.length,
   };

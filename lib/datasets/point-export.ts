@@ -5,6 +5,7 @@
  * identifier, title, licence, citation line and the caution sentence. Pure.
  */
 import { csvCell } from "@/lib/analyses/fit-export";
+import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/field-labels";
 import type { PointRow } from "./point-table";
 
 /** What the header of a download says about the version. */
@@ -19,6 +20,8 @@ export interface PointsAbout {
   /** The version's public page, absolute. */
   landingPage: string;
   caution: string;
+  /** The deposit's free-text conditions (`conditions.notes`), under OTHER_CONDITIONS_LABEL; absent when none. */
+  otherConditions?: string | null;
   canonicalUnits: { T: string; k: string; pressure: string };
   /** The fit the residuals are measured from, and whether it is weighted by the stated uncertainties. */
   residuals: { model: "arrhenius" | "modified_arrhenius"; weighted: boolean; engineVersion: string | null } | null;
@@ -76,6 +79,7 @@ function aboutLines(about: PointsAbout): [string, string][] {
   if (about.retraction) {
     lines.push(["retracted", `${about.retraction.at ?? "date not recorded"}: ${about.retraction.notice ?? ""}`.trim()]);
   }
+  if (about.otherConditions) lines.push([OTHER_CONDITIONS_LABEL.toLowerCase(), about.otherConditions]);
   lines.push(["licence", about.licence], ["cite as", about.citation], ["page", about.landingPage], ["caution", about.caution]);
   if (about.residuals) {
     const r = about.residuals;
@@ -115,6 +119,7 @@ export function buildPointsJson(about: PointsAbout, rows: readonly PointRow[]) {
       citation: about.citation,
       landingPage: about.landingPage,
       caution: about.caution,
+      otherConditions: about.otherConditions ?? null,
       // The unit of each converted value, named (never "canonical").
       units: about.canonicalUnits,
       residuals: about.residuals && {

@@ -65,11 +65,11 @@ function reasonFor(flag: Flag, i: number, analysis: AnalysisResult): string {
   const q = flag.quantities ?? {};
   const t = d?.externallyStudentized?.[i];
   if (flag.code === "outlier" && t !== undefined && q.bound) {
-    return `externally studentized residual ${fmt(t)} lies beyond ±${fmt(q.bound.value)}, the bound for any point of this set at α = 0.05`;
+    return `${fmt(Math.abs(t))} times the typical scatter away from the line through the other points; the limit for any point of this set is ${fmt(q.bound.value)}`;
   }
   const cook = d?.cooksDistance?.[i];
   if (flag.code === "influential_point" && cook !== undefined && t !== undefined && q.bound && q.residualBound) {
-    return `Cook's distance ${fmt(cook)} is above ${fmt(q.bound.value)} and its externally studentized residual ${fmt(t)} beyond ±${fmt(q.residualBound.value)}: this point alone moves the fit`;
+    return `this point pulls the fit more than any other should: without it the fitted parameters would change noticeably, and it lies ${fmt(Math.abs(t))} times the typical scatter away from the line through the other points (beyond ${fmt(q.residualBound.value)})`;
   }
   return flag.message;
 }

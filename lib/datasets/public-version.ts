@@ -46,6 +46,7 @@ export async function getPublicVersionPoints({ versionId }: { versionId: number 
     citation: citeVersion(version),
     landingPage: `${appUrl()}${versionPath(version.datasetId, version.number)}`,
     caution: FIT_CAUTION,
+    otherConditions: doc.conditions?.notes ?? null,
     canonicalUnits: { T: "K", k: getCanonicalRateConstantUnit(doc.reaction.order), pressure: "Pa" },
     residuals: analysis
       ? { model: residualModel(analysis), weighted: analysis.weighted, engineVersion: analysisRow?.engineVersion ?? null }

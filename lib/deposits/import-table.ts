@@ -12,6 +12,7 @@ import { parsePressureUnit, parseRateConstantUnit, parseTemperatureUnit } from "
 import { utf8ByteLength } from "./byte-length";
 import { findJsonSyntaxProblem } from "./json-syntax";
 import { formatCount } from "./messages";
+import { readNumberText, parseNumberText } from "@/lib/number-text";
 import { escapePointerSegment } from "./schema";
 import type { ConfidenceLevel, DepositPoint, UncertaintyKind } from "./types";
 import { MAX_POINTS } from "./vocabulary";
@@ -64,6 +65,8 @@ export interface ApplyMappingOptions {
   uncertaintyKind?: UncertaintyKind;
   /** "1sigma" when not given. */
   confidence?: ConfidenceLevel;
+  /** The unit the temperature column is read in ("K" when not given): a row at or below absolute zero is refused. */
+  temperatureUnit?: string;
 }
 
 const MIB = 1024 * 1024;
@@ -84,21 +87,8 @@ export function assertUploadSize(bytes: number): void {
   if (error) throw new AppError("payload_too_large", error.message, [error]);
 }
 
-const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eEdD][+-]?\d+)?$/;
-
-/**
- * A cell as a number, or null when it is not one. Accepts 1.2e-11, 1.2E-11, the Unicode minus
- * (−) of typeset tables and Fortran's 1.2D-11; rejects thousands separators and decimal commas,
- * which are ambiguous.
- */
-export function parseNumberCell(cell: string): number | null {
-  const t = cell.trim().replace(/\u2212/g, "-");
-  if (!NUMBER.test(t)) return null;
-  return Number(t.replace(/[dD]/, "e"));
-}
-
 function isNumeric(cell: string): boolean {
-  return parseNumberCell(cell) !== null;
+  return parseNumberText(cell) !== null;
 }
 
 type Role = keyof ColumnMapping;
@@ -147,18 +137,27 @@ function tryParse(text: string | undefined, parse: (t: string) => { id: string }
 
 const QUANTITY_WORDS = { T: "temperature", k: "rate constant", pressure: "pressure" } as const;
 
-/** Rows (numbered from 1, as the preview numbers them) with more cells than the header has columns. */
+/** Row numbers (ascending) with runs of three or more shortened: [1, 2, 4, 5, 6, 9] → "1, 2, 4–6, 9". */
+export function rowRuns(rows: number[]): string {
+  const runs: string[] = [];
+  for (let i = 0; i < rows.length;) {
+    let j = i;
+    while (j + 1 < rows.length && rows[j + 1] === rows[j] + 1) j++;
+    runs.push(j - i >= 2 ? `${rows[i]}–${rows[j]}` : rows.slice(i, j + 1).join(", "));
+    i = j + 1;
+  }
+  return runs.join(", ");
+}
+
+/** Rows (numbered from 1, as the preview numbers them) with more cells than the header: every one of them named. */
 function widerRowsNotice(headerWidth: number, rows: string[][], delimiter: string): string | null {
   const wider: number[] = [];
-  let count = 0;
   rows.forEach((r, i) => {
-    if (r.length > headerWidth && r.slice(headerWidth).some((c) => c.trim() !== "")) {
-      count++;
-      if (wider.length < 5) wider.push(i + 1);
-    }
+    if (r.length > headerWidth && r.slice(headerWidth).some((c) => c.trim() !== "")) wider.push(i + 1);
   });
-  if (!count) return null;
-  const which = `${count === 1 ? "Row" : "Rows"} ${wider.join(", ")}${count > wider.length ? ` and ${count - wider.length} more` : ""}`;
+  if (!wider.length) return null;
+  const count = wider.length;
+  const which = `${count === 1 ? "Row" : "Rows"} ${rowRuns(wider)}`;
   const comma =
     delimiter === ","
       ? " In a comma-separated table a decimal comma splits a number in two (1,025e-14 becomes 1 and 025e-14): write decimal points, or separate the columns with tabs or semicolons."
@@ -361,13 +360,24 @@ export function applyMapping(
       if (required) report(i, col, `${where(i, col)} is empty.`, cell);
       return required ? null : undefined;
     }
-    const n = parseNumberCell(strip ? cell.replace(strip, "") : cell);
-    if (n === null) {
-      report(i, col, `${where(i, col)}: "${cell}" is not a number.`, cell);
+    const read = readNumberText(strip ? cell.replace(strip, "") : cell);
+    if (!read.ok) {
+      report(i, col, `${where(i, col)}: ${read.problem}.`, cell);
       return null;
     }
-    return n;
+    return read.value;
   };
+  /** One wording for every value out of its range: "Row 3, column "k": a rate constant must be greater than 0 (got -1)." */
+  const outOfRange = (row: string[], i: number, col: number, rule: string, got?: string) => {
+    const cell = (row[col] ?? "").trim();
+    report(i, col, `${where(i, col)}: ${rule} (got ${got ?? cell}).`, row[col]);
+  };
+  let tUnit: { factor: number; offset?: number; label: string } | undefined;
+  try {
+    tUnit = parseTemperatureUnit(options.temperatureUnit ?? "K");
+  } catch {
+    tUnit = undefined;
+  }
 
   const points: DepositPoint[] = [];
   table.rows.forEach((row, i) => {
@@ -377,31 +387,29 @@ export function applyMapping(
     const u = readNumber(row, i, mapping.uncertainty, false, kind === "relative" ? /^(±|\+\/-)\s*|\s*%$/g : /^(±|\+\/-)\s*/);
     const p = readNumber(row, i, mapping.pressure, false);
     let ok = T !== null && k !== null && u !== null && p !== null;
+    if (typeof T === "number" && tUnit) {
+      const kelvin = T * tUnit.factor + (tUnit.offset ?? 0);
+      if (!(kelvin > 0)) {
+        const got = `${(row[mapping.T!] ?? "").trim()} ${tUnit.label}${tUnit.offset ? `, which is ${Number(kelvin.toFixed(2))} K` : ""}`;
+        outOfRange(row, i, mapping.T!, "a temperature must be above absolute zero", got);
+        ok = false;
+      }
+    }
     if (typeof k === "number" && !(k > 0)) {
-      report(
-        i,
-        mapping.k!,
-        `${where(i, mapping.k!)}: ${row[mapping.k!].trim()} is not greater than 0; a rate constant must be positive.`,
-        row[mapping.k!],
-      );
+      outOfRange(row, i, mapping.k!, "a rate constant must be greater than 0");
       ok = false;
     }
     if (typeof u === "number" && (kind === "factor" ? !(u > 1) : !(u > 0))) {
-      report(
+      outOfRange(
+        row,
         i,
         mapping.uncertainty!,
-        `${where(i, mapping.uncertainty!)}: ${kind === "factor" ? "an uncertainty factor must be greater than 1" : "an uncertainty must be greater than 0"} (got ${row[mapping.uncertainty!].trim()}).`,
-        row[mapping.uncertainty!],
+        kind === "factor" ? "an uncertainty factor must be greater than 1" : "an uncertainty must be greater than 0",
       );
       ok = false;
     }
     if (typeof p === "number" && !(p > 0)) {
-      report(
-        i,
-        mapping.pressure!,
-        `${where(i, mapping.pressure!)}: a pressure must be greater than 0 (got ${row[mapping.pressure!].trim()}).`,
-        row[mapping.pressure!],
-      );
+      outOfRange(row, i, mapping.pressure!, "a pressure must be greater than 0");
       ok = false;
     }
     if (!ok) return;

@@ -12,7 +12,6 @@ export {
   checkUploadSize,
   guessColumnRole,
   inspectTable,
-  parseNumberCell,
   type ApplyMappingOptions,
   type ColumnMapping,
   type InspectedTable,

@@ -188,11 +188,11 @@ test("an outlier's reason shows on keyboard focus and is in the text for screen 
   await page.goto(found.outlier!);
   const mark = page.getByText("× outlier").first();
   await mark.focus();
-  await expect(mark).toHaveAccessibleDescription(/externally studentized residual .* beyond ±/);
+  await expect(mark).toHaveAccessibleDescription(/times the typical scatter away from the line .* the limit for any point of this set/);
   await expect(
     page
       .locator("[aria-hidden=true]")
-      .filter({ hasText: /externally studentized residual/ })
+      .filter({ hasText: /times the typical scatter away from the line/ })
       .first(),
   ).toBeVisible();
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { decimalsOf, niceScale, niceStep, temperatureTicks } from "@/components/plot-scales";
+import { decimalsOf, niceScale, niceStep, PLOT_MARGIN, plotScale, temperatureTicks } from "@/components/plot-scales";
 
 describe("niceScale", () => {
   it.each([
@@ -63,5 +63,25 @@ describe("temperatureTicks", () => {
     const ticks = temperatureTicks([0, 5]);
     expect(ticks.length).toBeGreaterThanOrEqual(3);
     expect(ticks.every((t) => Number.isFinite(t.T) && t.x > 0 && t.x <= 5)).toBe(true);
+  });
+});
+
+describe("plotScale: a margin inside the outer ticks", () => {
+  it.each([
+    [2.5, 4],
+    [3, 5],
+    [-30, -25],
+    [0.001, 0.004],
+  ])("data from %s to %s lie strictly inside the domain, by at least 4 % of their span", (min, max) => {
+    const s = plotScale(min, max);
+    const margin = (max - min) * PLOT_MARGIN;
+    expect(s.domain[0]).toBeLessThanOrEqual(min - margin + 1e-12);
+    expect(s.domain[1]).toBeGreaterThanOrEqual(max + margin - 1e-12);
+  });
+
+  it("keeps one value in the middle of its domain", () => {
+    const s = plotScale(300, 300);
+    expect(s.domain[0]).toBeLessThan(300);
+    expect(s.domain[1]).toBeGreaterThan(300);
   });
 });

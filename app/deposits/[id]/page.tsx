@@ -18,7 +18,8 @@ import { listSubmissionReplies } from "@/lib/curation/queries";
 import type { DepositDocument } from "@/lib/deposits/types";
 import { AppError } from "@/lib/errors";
 import { parseIdOrNull } from "@/lib/ids";
-import { formatFlagMessage, type Flag } from "@/lib/kinetics";
+import type { Flag } from "@/lib/kinetics";
+import { readerFlagMessage } from "@/lib/flag-words";
 
 /** The deposit's title in the browser tab, for the people who may see it. */
 export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
@@ -40,7 +41,7 @@ function storedChecks(analysis: Awaited<ReturnType<typeof getLatestAnalysis>>): 
   const flags = ((analysis.result as { flags?: Flag[] } | null)?.flags ?? []).map((f) => ({
     code: f.code,
     severity: f.severity,
-    message: formatFlagMessage(f),
+    message: readerFlagMessage(f),
   }));
   const checks = ((analysis.checks as StoredCheck[] | null) ?? []).map(({ code, severity, message }) => ({ code, severity, message }));
   return [...checks, ...flags];

@@ -17,7 +17,8 @@ import { toAnalysisInput, validateDeposit } from "@/lib/deposits";
 import { AppError } from "@/lib/errors";
 import { parseIdOrNull, parseIdOrThrow } from "@/lib/ids";
 import { getCurrentUser } from "@/lib/auth/session";
-import { formatFlagMessage, type Flag } from "@/lib/kinetics";
+import type { Flag } from "@/lib/kinetics";
+import { readerFlagMessage } from "@/lib/flag-words";
 import { DecisionForm } from "./decision-form";
 import { DECISION_WORDS } from "@/components/deposit-editor/words";
 import { formatRange } from "@/lib/format";
@@ -160,7 +161,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
   ]);
   const schema = validateDeposit(version.payload);
   const result = drawableFit(analysis?.result);
-  const flags: Flag[] = (result?.flags ?? []).map((f) => ({ ...f, message: formatFlagMessage(f) }));
+  const flags: Flag[] = (result?.flags ?? []).map((f) => ({ ...f, message: readerFlagMessage(f) }));
   const outliers = flags.filter((f) => f.code === "outlier").flatMap((f) => f.points ?? []);
   // The authors' expression in the storage units (A: s⁻¹, cm³ molecule⁻¹ s⁻¹ … by order), J mol⁻¹ (Ea) and K, with the model they report.
   const reportedInput = schema.ok ? toAnalysisInput(schema.value).reportedFit : undefined;
@@ -266,7 +267,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
               <ul className="list-disc space-y-1 pl-5 text-sm">
                 {duplicates.map((d) => (
                   <li key={d.versionId}>
-                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, <StateLabel state={d.state} />,{" "}
+                    <Link href={`/review/${d.versionId}`}>{d.title}</Link> (v{d.number}, {stateWords[d.state]},{" "}
                     {formatRange(d.tMin, d.tMax, "K")}){d.sameDoi ? " — same source DOI" : ""}
                   </li>
                 ))}

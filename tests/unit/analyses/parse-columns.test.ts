@@ -48,7 +48,12 @@ describe("decimal commas", () => {
     ]);
   });
   it("a cell with two commas is still not a number", () => {
-    expect(parseColumns("250;2,1,5").errors).toEqual([{ line: 1, message: "line 1: “2,1,5” in column 2 is not a number" }]);
+    expect(parseColumns("250;2,1,5").errors).toEqual([
+      {
+        line: 1,
+        message: 'line 1, column 2: "2,1,5" has more than one separator; write one decimal point or comma and no thousands separators',
+      },
+    ]);
   });
   it("a comma between two numbers still separates columns", () => {
     expect(parseColumns("250,2.1e-15").points).toEqual([{ T: 250, k: 2.1e-15 }]);

@@ -85,3 +85,32 @@ describe("checkReplyOrThrow", () => {
     expect(() => checkReplyOrThrow("draft", "submit", "hello")).toThrow(/only with a resubmission/);
   });
 });
+
+describe("diffSubmissions: point values with their units", () => {
+  it("writes T, k, pressure and each kind of uncertainty with the unit the document states", () => {
+    const units = { T: "K", k: "cm3 molecule-1 s-1", pressure: "Torr" };
+    const before = {
+      units,
+      points: [
+        { T: 300, k: 1e-12, uncertainty: { kind: "absolute", value: 1e-13 } },
+        { T: 350, k: 2e-12, uncertainty: { kind: "relative", value: 5 }, pressure: 10 },
+      ],
+    };
+    const after = {
+      units,
+      points: [
+        { T: 300, k: 1e-12, uncertainty: { kind: "absolute", value: 2e-13 } },
+        { T: 350, k: 2e-12, uncertainty: { kind: "factor", value: 1.2 }, pressure: 20 },
+      ],
+    };
+    const d = diffSubmissions(before, after);
+    expect(d.points[0].values).toEqual([
+      { column: "uncertainty › value", before: "1e-13 cm³ molecule⁻¹ s⁻¹", after: "2e-13 cm³ molecule⁻¹ s⁻¹" },
+    ]);
+    expect(d.points[1].values).toEqual([
+      { column: "uncertainty › kind", before: "relative", after: "factor" },
+      { column: "uncertainty › value", before: "5 %", after: "1.2" },
+      { column: "pressure", before: "10 Torr", after: "20 Torr" },
+    ]);
+  });
+});

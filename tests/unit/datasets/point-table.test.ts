@@ -67,14 +67,14 @@ describe("a version's point rows", () => {
     });
   });
 
-  it("mark an outlier with its externally studentized residual and the bound it passes", () => {
+  it("mark an outlier with its distance from the line in plain words and the bound it passes", () => {
     const { rows, analysis } = rowsOf(withOutlier());
     const flagged = analysis.flags.find((f) => f.code === "outlier")?.points ?? [];
     expect(flagged).toContain(4);
     const mark = rows[4].marks.find((m) => m.code === "outlier")!;
     expect(mark.word).toBe("outlier");
     expect(mark.reason).toMatch(
-      /^externally studentized residual \d+(\.\d+)? lies beyond ±\d+(\.\d+)?, the bound for any point of this set at α = 0\.05$/,
+      /^\d+(\.\d+)? times the typical scatter away from the line through the other points; the limit for any point of this set is \d+(\.\d+)?$/,
     );
     expect(rows.filter((r, i) => !flagged.includes(i)).every((r) => !r.marks.some((m) => m.code === "outlier"))).toBe(true);
   });

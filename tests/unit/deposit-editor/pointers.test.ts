@@ -1,6 +1,14 @@
 import { describe, expect, it } from "vitest";
 import { blankForm, documentToForm } from "@/components/deposit-editor/form-model";
-import { fieldId, groupErrors, isWithin, pointRowOf, resolveFieldPointer, sectionOf } from "@/components/deposit-editor/pointers";
+import {
+  fieldId,
+  groupErrors,
+  isWithin,
+  mergeProblems,
+  pointRowOf,
+  resolveFieldPointer,
+  sectionOf,
+} from "@/components/deposit-editor/pointers";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 
 const form = documentToForm(EXAMPLE_DEPOSIT);
@@ -91,5 +99,22 @@ describe("small helpers", () => {
     expect(isWithin("/points/3/k", "/points")).toBe(true);
     expect(isWithin("/points", "/points")).toBe(true);
     expect(isWithin("/pointsX", "/points")).toBe(false);
+  });
+});
+
+describe("mergeProblems", () => {
+  it("shows a cell the form cannot read once: the form's words, not the server's second \"must be a number\"", () => {
+    const local = [{ pointer: "/points/2/k", message: '"1.2x" is not a number; write it like 1.2e-11 or 1,2e-11.' }];
+    const server = [
+      { pointer: "/points/2/k", message: "Point 3: rate constant must be a number." },
+      { pointer: "/points/2/uncertainty/value", message: "must be a number" },
+      { pointer: "/points/3/k", message: "must be greater than 0" },
+    ];
+    const merged = mergeProblems(local, server, [{ pointer: "/reaction/products", message: "not balanced" }]);
+    expect(merged.map((e) => e.pointer)).toEqual(["/points/2/k", "/points/2/uncertainty/value", "/points/3/k", "/reaction/products"]);
+    const withinLocal = mergeProblems([{ pointer: "/points/2/uncertainty", message: "x" }], server);
+    expect(withinLocal.map((e) => e.pointer)).toEqual(["/points/2/uncertainty", "/points/2/k", "/points/3/k"]);
+    const grouped = groupErrors(merged, form);
+    expect(grouped.byField.get("/points/2/k")).toHaveLength(1);
   });
 });

@@ -7,7 +7,7 @@ import {
   checkUploadSize,
   guessColumnRole,
   inspectTable,
-  parseNumberCell,
+  rowRuns,
 } from "@/lib/deposits/import-table";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 import { validateDeposit } from "@/lib/deposits/validate";
@@ -164,20 +164,10 @@ describe("guessColumnRole", () => {
   });
 });
 
-describe("parseNumberCell", () => {
-  it.each([
-    ["1.2e-11", 1.2e-11],
-    [" 300 ", 300],
-    ["1.2E-11", 1.2e-11],
-    ["−5", -5],
-    ["1.2D-11", 1.2e-11],
-    [".5", 0.5],
-    ["1.2e-1x", null],
-    ["1,5", null],
-    ["1 000", null],
-    ["", null],
-  ])("%s", (cell, expected) => {
-    expect(parseNumberCell(cell)).toBe(expected);
+describe("rowRuns", () => {
+  it("writes row numbers as runs", () => {
+    expect(rowRuns([1])).toBe("1");
+    expect(rowRuns([3, 4, 5, 9, 11, 12])).toBe("3–5, 9, 11, 12");
   });
 });
 
@@ -249,9 +239,41 @@ describe("applyMapping", () => {
     const { points, errors } = applyMapping(table, { T: 0, k: 1, uncertainty: 2, pressure: 3 }, { uncertaintyKind: "factor" });
     expect(points).toEqual([]);
     expect(errors.map((e) => e.message)).toEqual([
-      'Row 1, column "k": 0 is not greater than 0; a rate constant must be positive.',
+      'Row 1, column "k": a rate constant must be greater than 0 (got 0).',
       'Row 2, column "f": an uncertainty factor must be greater than 1 (got 1).',
       'Row 3, column "p": a pressure must be greater than 0 (got -3).',
+    ]);
+  });
+
+  it("refuses a temperature at or below absolute zero in the column's unit, listed like every other refusal", () => {
+    const rows = [
+      ["-5", "1e-12"],
+      ["0", "1e-12"],
+      ["300", "1e-12"],
+    ];
+    const inKelvin = applyMapping({ columns: ["T", "k"], rows }, { T: 0, k: 1 });
+    expect(inKelvin.points).toEqual([{ T: 300, k: 1e-12 }]);
+    expect(inKelvin.errors).toEqual([
+      { pointer: "/rows/0/T", value: "-5", message: 'Row 1, column "T": a temperature must be above absolute zero (got -5 K).' },
+      { pointer: "/rows/1/T", value: "0", message: 'Row 2, column "T": a temperature must be above absolute zero (got 0 K).' },
+    ]);
+    // In °C, −5 is a fine temperature (268.15 K); −300 °C is not (−26.85 K, 0 K = −273.15 °C: CODATA/SI definition).
+    const inCelsius = applyMapping({ columns: ["T", "k"], rows: [...rows, ["-300", "1e-12"]] }, { T: 0, k: 1 }, { temperatureUnit: "°C" });
+    expect(inCelsius.points.map((p) => p.T)).toEqual([-5, 0, 300]);
+    expect(inCelsius.errors.map((e) => e.message)).toEqual([
+      'Row 4, column "T": a temperature must be above absolute zero (got -300 °C, which is -26.85 K).',
+    ]);
+  });
+
+  it("reads decimal commas in cells (a semicolon- or tab-separated table) as the editor and /analyse do", () => {
+    const table = inspectTable("T;k\n298,15;1,5e-12\n350;2,1E-12\n400;1,025\n", { filename: "x.csv" });
+    const { points, errors } = applyMapping(table, table.guessedMapping);
+    expect(points).toEqual([
+      { T: 298.15, k: 1.5e-12 },
+      { T: 350, k: 2.1e-12 },
+    ]);
+    expect(errors.map((e) => e.message)).toEqual([
+      'Row 3, column "k": "1,025" could be 1.025 or 1025; write a decimal point (1.025) or no separator (1025).',
     ]);
   });
 

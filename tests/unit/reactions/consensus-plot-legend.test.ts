@@ -2,7 +2,14 @@ import { createElement as h } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { describe, expect, it } from "vitest";
 import { ConsensusPlot, legendEntries, markStyles, type SeriesPoints } from "@/components/consensus-plot";
-import { CONSENSUS_METHOD_WORDS, ConsensusComparisons, ConsensusSummary } from "@/components/consensus-report";
+import {
+  betweenDatasetWords,
+  readerVerdict,
+  CONSENSUS_COMPUTATION_WORDS,
+  CONSENSUS_METHOD_WORDS,
+  ConsensusComparisons,
+  ConsensusSummary,
+} from "@/components/consensus-report";
 import { consensus } from "@/lib/kinetics";
 
 // Invented datasets on k = 2e-12 exp(−1800 K / T) with a little scatter: eight of them, so the eighth is drawn hollow.
@@ -79,9 +86,24 @@ describe("the words under the reaction page's plot", () => {
     expect(html).toContain(CONSENSUS_METHOD_WORDS.replace(/'/g, "&#x27;"));
     // The engine's terse sentence stays in the API, not on the page.
     expect(html).not.toContain(result.method);
-    expect(CONSENSUS_METHOD_WORDS).toMatch(
-      /\(generalised least squares with a between-dataset variance τ², estimated by the DerSimonian–Laird method\)/,
+    // The sentence a reader reads has no statistics' names; the "How this is computed" note keeps them.
+    expect(CONSENSUS_METHOD_WORDS).not.toMatch(/GLS|V_j|Q − dof|support temperatures|τ²|DerSimonian|least squares|I²/);
+    expect(CONSENSUS_COMPUTATION_WORDS).toMatch(/between-dataset variance τ², estimated by the DerSimonian–Laird method/);
+    expect(html).toContain("How this is computed");
+  });
+
+  it("say the between-dataset spread as a factor and a share, with τ² and I² only in the technical note", () => {
+    // exp(√0.25) = exp(0.5) = 1.6487 (any table of e^x).
+    expect(betweenDatasetWords({ tau2: 0.25, i2: 0.6 })).toBe(
+      "Between-dataset spread: the datasets differ from one another by about a factor 1.65 (one standard deviation) beyond their own uncertainties; 60 % of their disagreement comes from this spread rather than from the uncertainties they state.",
     );
-    expect(CONSENSUS_METHOD_WORDS).not.toMatch(/GLS|V_j|Q − dof|support temperatures/);
+    expect(betweenDatasetWords({ tau2: 0, i2: 0 })).toMatch(/none beyond their own uncertainties/);
+    expect(
+      readerVerdict(
+        "Set B agrees with the others' consensus at 300 K (×1.2) only within the wide spread between the others (τ² of the others = 0.41 in (ln k)², a factor 1.9 per standard deviation): they disagree with each other.",
+      ),
+    ).toBe(
+      "Set B agrees with the others' consensus at 300 K (×1.2) only within the wide spread between the others (a factor 1.9 per standard deviation): they disagree with each other.",
+    );
   });
 });

@@ -21,6 +21,7 @@ import { auditTrailPath } from "@/lib/audit/paths";
 import { canReadAuditTrail } from "@/lib/audit/queries";
 import { getCurrentUser } from "@/lib/auth/session";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
+import { OTHER_CONDITIONS_LABEL } from "@/lib/deposits/field-labels";
 import { METHOD_CATEGORIES } from "@/lib/deposits/vocabulary";
 import { formatNumber } from "@/lib/format";
 import { CiteSection } from "@/components/cite/cite-section";
@@ -175,6 +176,11 @@ export default async function DatasetVersionPage({
               ? `; ${formatNumber(doc.conditions.pressure.value)} ${unitLabel("pressure", doc.units.pressure)}`
               : ""}
           </p>
+          {doc.conditions?.notes && (
+            <p>
+              {OTHER_CONDITIONS_LABEL}: <span className="whitespace-pre-line">{doc.conditions.notes}</span>
+            </p>
+          )}
         </div>
         <div className="card space-y-1 text-sm">
           <h2 className="text-lg font-semibold">Source</h2>
