@@ -761,20 +761,38 @@ function computeBand(fit: CentredFit, s: FitSummary, d: Prepared, model: Confide
   const t = s.s2 === null ? 0 : t95(s.dof);
   const invMin = 1 / d.Tmin;
   const invMax = 1 / d.Tmax;
-  // The point in the fit's shifted coordinates: [ln(T/Tref), 1/(R·Tref) − 1/(RT)] or the latter alone.
-  const x = p === 3 ? [0, 0] : [0];
-  const pred = { value: 0, variance: 0 };
+  const s2 = s.s2 ?? 0;
+  // predictCentred written out for one or two slopes (the same operations in the same order, so
+  // the same numbers): this loop runs 50 times in every analysis. The point in the fit's shifted
+  // coordinates is [ln(T/Tref), 1/(R·Tref) − 1/(RT)] or the latter alone.
+  const { g, means, betaCentred: b } = fit;
+  const m0 = means[0];
+  const m1 = p === 3 ? means[1] : 0;
   for (let i = 0; i < BAND_POINTS; i++) {
     const Ti = i === 0 ? d.Tmin : i === BAND_POINTS - 1 ? d.Tmax : 1 / (invMin + ((invMax - invMin) * i) / (BAND_POINTS - 1));
     T[i] = Ti;
-    if (p === 3) x[0] = Math.log1p((Ti - d.Tref) / d.Tref);
-    x[p - 2] = shiftedInverseT(d, Ti);
-    predictCentred(fit, x, pred);
-    const v = pred.value;
+    let v: number;
+    let variance: number;
+    if (p === 3) {
+      const u0 = Math.log1p((Ti - d.Tref) / d.Tref) - m0;
+      const u1 = shiftedInverseT(d, Ti) - m1;
+      v = b[0] + b[1] * u0 + b[2] * u1;
+      const t0 = g[0];
+      const t1 = g[1] + g[4] * u0;
+      let t2 = g[2] + g[5] * u0;
+      t2 += g[8] * u1;
+      variance = t0 * t0 + t1 * t1 + t2 * t2;
+    } else {
+      const u0 = shiftedInverseT(d, Ti) - m0;
+      v = b[0] + b[1] * u0;
+      const t0 = g[0];
+      const t1 = g[1] + g[3] * u0;
+      variance = t0 * t0 + t1 * t1;
+    }
     lnk[i] = v;
     if (lower && upper) {
       // Pointwise confidence band of the mean: ŷ ± t·s·√(xᵀ(XᵀWX)⁻¹x) (Draper & Smith 1998, §3.4).
-      const half = t * Math.sqrt((s.s2 as number) * pred.variance);
+      const half = t * Math.sqrt(s2 * variance);
       lower[i] = v - half;
       upper[i] = v + half;
     }
@@ -820,17 +838,19 @@ function withinStatedUncertainty(input: AnalysisInput, resid: Float64Array, i: n
 
 function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[] {
   const flags: Flag[] = [];
-  const push = (draft: FlagDraft) => flags.push(toFlag(draft));
+  // No closure for pushing: every analysis runs this, and creating one per call costs more than its use.
   const { n } = d;
   const Ea = c.arrhenius.params.Ea;
 
   if (!d.weighted && d.someSigma) {
     const stated = input.points.filter((pt) => pt.sigmaLnK !== undefined && pt.sigmaLnK !== null).length;
-    push({
-      code: "uncertainties_ignored",
-      severity: "info",
-      quantities: { stated: count(stated), n: count(n) },
-    });
+    flags.push(
+      toFlag({
+        code: "uncertainties_ignored",
+        severity: "info",
+        quantities: { stated: count(stated), n: count(n) },
+      }),
+    );
   }
 
   // Points are judged on the preferred fit (the diagnostics' model), with its p coefficients; the
@@ -845,7 +865,7 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     if (!testOutliers) q.outlierMinPoints = count(outlierMinPoints);
     if (n < MIN_POINTS_FOR_DIAGNOSTICS) q.diagnosticsMinPoints = count(MIN_POINTS_FOR_DIAGNOSTICS);
     if (d.distinctT < 3) q.modifiedMinTemperatures = count(3);
-    push({ code: "too_few_points", severity: "info", quantities: q });
+    flags.push(toFlag({ code: "too_few_points", severity: "info", quantities: q }));
   }
 
   const resid = judged.fit.resid;
@@ -856,12 +876,14 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     if (test) {
       const { outliers, bound } = test;
       if (outliers.length > 0) {
-        push({
-          code: "outlier",
-          severity: "warn",
-          points: outliers,
-          quantities: { bound: statistic(bound), alpha: probability(ALPHA), dof: count(dof - 1), coefficients: modelQ },
-        });
+        flags.push(
+          toFlag({
+            code: "outlier",
+            severity: "warn",
+            points: outliers,
+            quantities: { bound: statistic(bound), alpha: probability(ALPHA), dof: count(dof - 1), coefficients: modelQ },
+          }),
+        );
       }
     }
     const cookBound = cooksDistanceBound(pJudged, n);
@@ -879,40 +901,39 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
       }
     }
     if (influential.length > 0) {
-      push({
-        code: "influential_point",
-        severity: "info",
-        points: influential,
-        quantities: {
-          largest: statistic(largest),
-          bound: statistic(cookBound),
-          dfNum: count(pJudged),
-          dfDenom: count(n - pJudged),
-          residualBound: statistic(tPoint),
-          dof: count(dof - 1),
-          coefficients: modelQ,
-        },
-      });
+      flags.push(
+        toFlag({
+          code: "influential_point",
+          severity: "info",
+          points: influential,
+          quantities: {
+            largest: statistic(largest),
+            bound: statistic(cookBound),
+            dfNum: count(pJudged),
+            dfDenom: count(n - pJudged),
+            residualBound: statistic(tPoint),
+            dof: count(dof - 1),
+            coefficients: modelQ,
+          },
+        }),
+      );
     }
   }
 
   if (c.curvature && curvatureSignificant(c.curvature) && c.modifiedArrhenius) {
     const m = c.modifiedArrhenius.params;
-    const eaAt = (T: number) => m.Ea + m.n * GAS_CONSTANT * T;
+    // Ea(T) = Ea + nRT at the ends of the range.
     const test = c.curvature;
-    push({
-      code: "curvature",
-      severity: "warn",
-      quantities: {
-        ...(test.F !== null && test.p !== null
-          ? { F: statistic(test.F), dfNum: count(test.dfNum), dfDenom: count(test.dfDenom), p: probability(test.p) }
-          : { exact: count(1) }),
-        eaLow: energy(eaAt(d.Tmin)),
-        tLow: temperature(d.Tmin),
-        eaHigh: energy(eaAt(d.Tmax)),
-        tHigh: temperature(d.Tmax),
-      },
-    });
+    // Keys in the order the flag has always had them (the F-test's, or exact; then the ends).
+    const q: FlagQuantities =
+      test.F !== null && test.p !== null
+        ? { F: statistic(test.F), dfNum: count(test.dfNum), dfDenom: count(test.dfDenom), p: probability(test.p) }
+        : { exact: count(1) };
+    q.eaLow = energy(m.Ea + m.n * GAS_CONSTANT * d.Tmin);
+    q.tLow = temperature(d.Tmin);
+    q.eaHigh = energy(m.Ea + m.n * GAS_CONSTANT * d.Tmax);
+    q.tHigh = temperature(d.Tmax);
+    flags.push(toFlag({ code: "curvature", severity: "warn", quantities: q }));
   }
 
   const tRatio = d.Tmax / d.Tmin;
@@ -932,39 +953,50 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
       q.relativeSE = percent(relSe! * 100);
       q.seEa = energy(seEa!);
     }
-    push({ code: "narrow_range", severity: "warn", quantities: q });
+    flags.push(toFlag({ code: "narrow_range", severity: "warn", quantities: q }));
   }
 
   // Only an Ea whose 95 % interval lies wholly below zero: one that cannot be told from 0 is no finding.
   if (seEa !== null && Ea < NEGATIVE_EA_THRESHOLD) {
     const half = t95(c.arrSum.dof) * seEa;
     if (Ea + half < 0) {
-      push({
-        code: "negative_activation_energy",
-        severity: "info",
-        quantities: { Ea: energy(Ea), lower: energy(Ea - half), upper: energy(Ea + half) },
-      });
+      flags.push(
+        toFlag({
+          code: "negative_activation_energy",
+          severity: "info",
+          quantities: { Ea: energy(Ea), lower: energy(Ea - half), upper: energy(Ea + half) },
+        }),
+      );
     }
   }
 
   // Judged on the fit the analysis prefers: a curved set's straight line leaves scatter that is only its curvature.
   const preferred = c.chosen.sum;
-  if (d.weighted && preferred.dof > 0) {
+  // χ² at or below its dof has P(χ² > ν) ≥ P(χ²₁ > 1) = 0.317 for every ν ≥ 1 (the tail at the mean
+  // rises from there towards ½; checked with survivalChiSquare for ν ≤ 2·10⁵): no tail to compute.
+  if (d.weighted && preferred.dof > 0 && preferred.rss > preferred.dof) {
     const p = survivalChiSquare(preferred.rss, preferred.dof);
     if (p < EXCESS_SCATTER_P) {
       const chi2 = preferred.rss / preferred.dof;
-      push({
-        code: "excess_scatter",
-        severity: "warn",
-        quantities: { chi2Reduced: statistic(chi2), scaleFactor: statistic(Math.sqrt(chi2)), dof: count(preferred.dof), p: probability(p) },
-      });
+      flags.push(
+        toFlag({
+          code: "excess_scatter",
+          severity: "warn",
+          quantities: {
+            chi2Reduced: statistic(chi2),
+            scaleFactor: statistic(Math.sqrt(chi2)),
+            dof: count(preferred.dof),
+            p: probability(p),
+          },
+        }),
+      );
     }
   }
 
   const reported = input.reportedFit;
   if (reported) {
     const flag = compareReportedFit(reported, d, c);
-    if (flag) push(flag);
+    if (flag) flags.push(toFlag(flag));
   }
   return flags;
 }
