@@ -98,9 +98,6 @@ const LN_LITRE_PER_MOLECULE_CM3 = Math.log(AVOGADRO * 1e-3);
 let workspaceSize = 0;
 let wsT = new Float64Array(0);
 let wsY = new Float64Array(0);
-let wsXE = new Float64Array(0);
-let wsLnT = new Float64Array(0);
-let wsLnTabs = new Float64Array(0);
 let wsSw = new Float64Array(0);
 let wsYe = new Float64Array(0);
 let wsXEc = new Float64Array(0);
@@ -111,9 +108,6 @@ function ensureWorkspace(n: number): void {
   workspaceSize = Math.max(n, 2 * workspaceSize, 64);
   wsT = new Float64Array(workspaceSize);
   wsY = new Float64Array(workspaceSize);
-  wsXE = new Float64Array(workspaceSize);
-  wsLnT = new Float64Array(workspaceSize);
-  wsLnTabs = new Float64Array(workspaceSize);
   wsSw = new Float64Array(workspaceSize);
   wsYe = new Float64Array(workspaceSize);
   wsXEc = new Float64Array(workspaceSize);
@@ -126,9 +120,6 @@ interface Prepared {
   T0: number;
   T: Float64Array;
   y: Float64Array;
-  xE: Float64Array; // −1/(RT): the coefficient on this column is Ea in J mol⁻¹
-  lnT: Float64Array; // ln(T/T0)
-  lnTabs: Float64Array; // ln(T/K)
   /** Tref = (Tmin + Tmax)/2: the fitted columns are differences from it, formed without cancellation. */
   Tref: number;
   xEc: Float64Array; // −1/(RT) + 1/(R·Tref) = (T − Tref)/(R·T·Tref)
@@ -345,9 +336,6 @@ function prepareInput(input: AnalysisInput): Prepared {
   ensureWorkspace(n);
   const T = wsT;
   const y = wsY;
-  const xE = wsXE;
-  const lnT = wsLnT;
-  const lnTabs = wsLnTabs;
   const xEc = wsXEc;
   const lnTc = wsLnTc;
   const lnT0 = Math.log(T0);
@@ -391,11 +379,7 @@ function prepareInput(input: AnalysisInput): Prepared {
     // (T − Tref)/(R·T·Tref): T − Tref is exact for T near Tref.
     const xc = ((Ti - Tref) * shiftE) / Ti;
     xEc[i] = xc;
-    xE[i] = xc - shiftE;
-    const lnTi = Math.log(Ti);
-    lnTabs[i] = lnTi;
-    lnT[i] = lnTi - lnT0;
-    lnTc[i] = narrow ? Math.log1p((Ti - Tref) / Tref) : lnTi - lnTref;
+    lnTc[i] = narrow ? Math.log1p((Ti - Tref) / Tref) : Math.log(Ti) - lnTref;
   }
   const sw = allSigma ? wsSw : null;
   let sumLogW = 0;
@@ -419,9 +403,6 @@ function prepareInput(input: AnalysisInput): Prepared {
     T0,
     T,
     y,
-    xE,
-    lnT,
-    lnTabs,
     Tref,
     xEc,
     lnTc,
@@ -520,21 +501,24 @@ function summariseFit(fit: CentredFit, d: Prepared, y: Float64Array): FitSummary
   const { n, p, rss, unscaledCov } = fit;
   const dof = n - p;
   const s2 = dof > 0 ? rss / dof : null;
+  const sw = d.sw;
   let sumW = 0;
   let sumWy = 0;
   for (let i = 0; i < n; i++) {
-    const w = d.sw ? d.sw[i] * d.sw[i] : 1;
+    const w = sw ? sw[i] * sw[i] : 1;
     sumW += w;
     sumWy += w * y[i];
   }
   const mean = sumWy / sumW;
   let tss = 0;
   for (let i = 0; i < n; i++) {
-    const w = d.sw ? d.sw[i] * d.sw[i] : 1;
-    tss += w * (y[i] - mean) ** 2;
+    const w = sw ? sw[i] * sw[i] : 1;
+    const dy = y[i] - mean;
+    tss += w * (dy * dy);
   }
   const cov = s2 === null ? null : toRows(unscaledCov, p, s2);
-  const se = Array.from({ length: p }, (_, j) => (s2 === null ? null : Math.sqrt(s2 * unscaledCov[j * p + j])));
+  const se = new Array<number | null>(p);
+  for (let j = 0; j < p; j++) se[j] = s2 === null ? null : Math.sqrt(s2 * unscaledCov[j * p + j]);
   // The fit ran on weights divided by weightScale²: the sum of squares with the stated weights.
   const scale = d.weightScale;
   const rssStated = rss * scale * scale;
@@ -596,14 +580,13 @@ function buildArrhenius(fit: CentredFit, s: FitSummary, t: number, d: Prepared):
 /** Residual spread and per-point residuals and fitted values of one fit. */
 function residualFields(fit: CentredFit, s: FitSummary, d: Prepared): FitResiduals {
   const { n, resid } = fit;
-  // Pre-filled so V8 keeps packed double arrays.
-  const residuals = new Array<number>(n).fill(0);
-  const fitted = new Array<number>(n).fill(0);
+  // The fit's own residuals array (nothing changes it after the fit).
+  const residuals = resid;
+  const fitted = new Array<number>(n);
   const y = d.y;
   let ss = 0;
   for (let i = 0; i < n; i++) {
     const r = resid[i];
-    residuals[i] = r;
     fitted[i] = y[i] - r;
     ss += r * r;
   }
@@ -753,11 +736,11 @@ function shiftedInverseT(d: Prepared, T: number): number {
 
 function computeBand(fit: CentredFit, s: FitSummary, d: Prepared, model: ConfidenceBand["model"]): ConfidenceBand {
   const p = fit.p;
-  // Pre-filled so V8 keeps packed double arrays instead of growing them by push.
-  const T = new Array<number>(BAND_POINTS).fill(0);
-  const lnk = new Array<number>(BAND_POINTS).fill(0);
-  const lower = s.s2 === null ? null : new Array<number>(BAND_POINTS).fill(0);
-  const upper = s.s2 === null ? null : new Array<number>(BAND_POINTS).fill(0);
+  // Allocated at full length: every entry is written below (faster than filling first).
+  const T = new Array<number>(BAND_POINTS);
+  const lnk = new Array<number>(BAND_POINTS);
+  const lower = s.s2 === null ? null : new Array<number>(BAND_POINTS);
+  const upper = s.s2 === null ? null : new Array<number>(BAND_POINTS);
   const t = s.s2 === null ? 0 : t95(s.dof);
   const invMin = 1 / d.Tmin;
   const invMax = 1 / d.Tmax;
@@ -831,7 +814,7 @@ function toFlag(draft: FlagDraft): Flag {
 }
 
 /** A point nearer the fit than its own stated uncertainty is within what its authors claim. */
-function withinStatedUncertainty(input: AnalysisInput, resid: Float64Array, i: number): boolean {
+function withinStatedUncertainty(input: AnalysisInput, resid: readonly number[], i: number): boolean {
   const sigma = input.points[i].sigmaLnK;
   return typeof sigma === "number" && Math.abs(resid[i]) < sigma;
 }
