@@ -1,7 +1,7 @@
 "use client";
 
 import type { AnalysisResult, Flag, ReactionOrder } from "@/lib/kinetics/types";
-import { describeExtrapolation, formatFlagMessage } from "@/lib/kinetics/flag-text";
+import { describeExtrapolation, describeWeightedErrors, formatFlagMessage } from "@/lib/kinetics/flag-text";
 import { formatSignificant } from "@/lib/format";
 import { convertEntropy, energyQuantityLabel, entropyQuantityLabel } from "@/lib/unit-labels";
 import { displayConversion } from "@/lib/kinetics/units";
@@ -27,6 +27,19 @@ interface Props {
 }
 
 const sig = (v: number | null | undefined, digits = 4) => formatSignificant(v, digits);
+
+/** The one sentence on how a weighted fit's standard errors were made (nothing for an unweighted fit). */
+function WeightedErrorsRow({ weighted, scaleFactor, testId }: { weighted: boolean; scaleFactor: number | null; testId: string }) {
+  const words = weighted ? describeWeightedErrors(scaleFactor) : null;
+  if (!words) return null;
+  return (
+    <tr>
+      <td colSpan={3} className="whitespace-normal! text-xs text-muted" data-testid={testId}>
+        {words}
+      </td>
+    </tr>
+  );
+}
 
 const severityStyle: Record<Flag["severity"], string> = {
   error: "border-error/50 text-error",
@@ -143,6 +156,7 @@ export function ResultTables({
                   </td>
                 </tr>
               )}
+              <WeightedErrorsRow weighted={analysis.weighted} scaleFactor={a.scaleFactor} testId="weighted-errors" />
               {m && (
                 <>
                   <tr>
@@ -165,6 +179,7 @@ export function ResultTables({
                     <td>{sig(convertE(m.params.Ea))}</td>
                     <td>{m.se.Ea === null ? "—" : sig(convertE(m.se.Ea), 2)}</td>
                   </tr>
+                  <WeightedErrorsRow weighted={analysis.weighted} scaleFactor={m.scaleFactor} testId="weighted-errors-modified" />
                 </>
               )}
               {e && (

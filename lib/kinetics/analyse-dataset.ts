@@ -143,7 +143,10 @@ interface FitSummary {
   dof: number;
   /** Σ wᵢrᵢ² with the stated weights. */
   rss: number;
-  /** s² with the scaled weights: pairs with the fit's unscaled covariance. */
+  /**
+   * The variance factor of the covariance with the scaled weights (pairs with the fit's unscaled
+   * covariance): s² = RSS/dof unweighted; weighted, max(1, χ²/dof) in those units (see parameterVariance).
+   */
   s2: number | null;
   cov: number[][] | null;
   se: (number | null)[];
@@ -497,10 +500,29 @@ function checkReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>): void {
   }
 }
 
+/**
+ * The factor s² of the covariance s²(XᵀWX)⁻¹, in the units of the scaled weights, from a fit's
+ * Σwᵢrᵢ² (scaled weights) and its dof; null when dof = 0. Unweighted: RSS/dof. Weighted: the
+ * stated uncertainties are taken as a floor, never as smaller than stated — s² = max(1, χ²/dof),
+ * so standard errors are those of the stated σ (scipy curve_fit's absolute_sigma=True), enlarged
+ * by S = √(χ²/dof) only when the points scatter more than the σ allow. This is the scale factor of
+ * the Particle Data Group's averaging rule (Review of Particle Physics, Introduction, "Averages
+ * and fits" — from memory), which the consensus applies to its stage-1 summaries too.
+ */
+function parameterVariance(rss: number, dof: number, d: Prepared): number | null {
+  if (dof <= 0) return null;
+  const s2 = rss / dof;
+  if (!d.weighted) return s2;
+  // χ²/dof = 1 is RSS/dof = 1/weightScale² in scaled units (a power of two: exact).
+  const unit = 1 / (d.weightScale * d.weightScale);
+  return s2 >= unit ? s2 : unit;
+}
+
 function summariseFit(fit: CentredFit, d: Prepared, y: Float64Array): FitSummary {
   const { n, p, rss, unscaledCov } = fit;
   const dof = n - p;
-  const s2 = dof > 0 ? rss / dof : null;
+  const residualS2 = dof > 0 ? rss / dof : null;
+  const s2 = parameterVariance(rss, dof, d);
   const sw = d.sw;
   let sumW = 0;
   let sumWy = 0;
@@ -540,9 +562,9 @@ function summariseFit(fit: CentredFit, d: Prepared, y: Float64Array): FitSummary
     cov,
     se,
     r2: tss > 0 ? 1 - rss / tss : null,
-    residualSD: s2 === null ? null : Math.sqrt(s2) * scale,
+    residualSD: residualS2 === null ? null : Math.sqrt(residualS2) * scale,
     aicc,
-    chi2Reduced: d.weighted && s2 !== null ? rssStated / dof : null,
+    chi2Reduced: d.weighted && residualS2 !== null ? rssStated / dof : null,
   };
 }
 
@@ -661,7 +683,7 @@ function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
     rss += e * e;
   }
   const dof = n - 2;
-  const s2 = dof > 0 ? rss / dof : null;
+  const s2 = parameterVariance(rss, dof, d);
   const c = arrFit.unscaledCov;
   const convention =
     order === 1
