@@ -5,7 +5,7 @@
  * the stated σ alone, absolute_sigma=False those times √(χ²/dof).
  */
 import { describe, expect, it } from "vitest";
-import { analyseDataset, describeWeightedErrors, GAS_CONSTANT } from "@/lib/kinetics";
+import { analyseDataset, describeWeightedErrors, GAS_CONSTANT, type AnalysisResult } from "@/lib/kinetics";
 import { t95 } from "@/lib/kinetics/distributions";
 import reference from "../../fixtures/weighted-se/reference.json";
 
@@ -30,6 +30,13 @@ function expectRelative(actual: number | null, expected: number): void {
   expect(Math.abs((actual as number) / expected - 1)).toBeLessThan(REL);
 }
 
+/** The modified fit's [lnA, n, Ea] standard errors against reference values in that order. */
+function expectModifiedSe(m: AnalysisResult["modifiedArrhenius"], expected: number[]): void {
+  expect(m).not.toBeNull();
+  const se = m!.se;
+  [se.lnA, se.n, se.Ea].forEach((v, i) => expectRelative(v, expected[i]));
+}
+
 describe("weighted-fit standard errors against scipy curve_fit", () => {
   it("a set scattering less than its stated σ keeps the σ's standard errors (absolute_sigma=True), not smaller ones", () => {
     const s = sets.tighter_than_stated;
@@ -44,12 +51,8 @@ describe("weighted-fit standard errors against scipy curve_fit", () => {
     // Not the scaled-down errors a plain s²(XᵀWX)⁻¹ would give (a factor √0.47 ≈ 0.69 smaller).
     expect((r.arrhenius.se.Ea as number) / ref.seScaledByChi2[1]).toBeGreaterThan(1.4);
     expectRelative(r.arrhenius.covariance![1][1], ref.seAbsoluteSigma[1] ** 2);
-    const m = r.modifiedArrhenius!;
-    const mref = s.modifiedArrhenius;
-    expect(mref.chi2Reduced).toBeLessThan(1);
-    expectRelative(m.se.lnA, mref.seAbsoluteSigma[0]);
-    expectRelative(m.se.n, mref.seAbsoluteSigma[1]);
-    expectRelative(m.se.Ea, mref.seAbsoluteSigma[2]);
+    expect(s.modifiedArrhenius.chi2Reduced).toBeLessThan(1);
+    expectModifiedSe(r.modifiedArrhenius, s.modifiedArrhenius.seAbsoluteSigma);
   });
 
   it("a set scattering more than its stated σ has them enlarged by √(χ²/dof) (absolute_sigma=False)", () => {
@@ -60,11 +63,7 @@ describe("weighted-fit standard errors against scipy curve_fit", () => {
     expectRelative(r.arrhenius.se.lnA, ref.seScaledByChi2[0]);
     expectRelative(r.arrhenius.se.Ea, ref.seScaledByChi2[1]);
     expectRelative(r.arrhenius.se.Ea, ref.seAbsoluteSigma[1] * Math.sqrt(ref.chi2Reduced));
-    const m = r.modifiedArrhenius!;
-    const mref = s.modifiedArrhenius;
-    expectRelative(m.se.lnA, mref.seScaledByChi2[0]);
-    expectRelative(m.se.n, mref.seScaledByChi2[1]);
-    expectRelative(m.se.Ea, mref.seScaledByChi2[2]);
+    expectModifiedSe(r.modifiedArrhenius, s.modifiedArrhenius.seScaledByChi2);
   });
 
   it("the confidence limits of k follow the same rule: the stated σ's own interval when the scatter is smaller", () => {
