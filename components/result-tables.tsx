@@ -1,7 +1,7 @@
 "use client";
 
 import type { AnalysisResult, Flag, ReactionOrder } from "@/lib/kinetics/types";
-import { describeExtrapolation } from "@/lib/kinetics/flag-text";
+import { describeExtrapolation, describeWeightedErrors } from "@/lib/kinetics/flag-text";
 import { readerFlagMessage, technicalFlagNote } from "@/lib/flag-words";
 import { formatSignificant } from "@/lib/format";
 import { convertEntropy, energyQuantityLabel, entropyQuantityLabel } from "@/lib/unit-labels";
@@ -28,6 +28,19 @@ interface Props {
 }
 
 const sig = (v: number | null | undefined, digits = 4) => formatSignificant(v, digits);
+
+/** The one sentence on how a weighted fit's standard errors were made (nothing for an unweighted fit). */
+function WeightedErrorsRow({ weighted, scaleFactor, testId }: { weighted: boolean; scaleFactor: number | null; testId: string }) {
+  const words = weighted ? describeWeightedErrors(scaleFactor) : null;
+  if (!words) return null;
+  return (
+    <tr>
+      <td colSpan={3} className="whitespace-normal! text-xs text-muted" data-testid={testId}>
+        {words}
+      </td>
+    </tr>
+  );
+}
 
 const severityStyle: Record<Flag["severity"], string> = {
   error: "border-error/50 text-error",
@@ -144,6 +157,7 @@ export function ResultTables({
                   </td>
                 </tr>
               )}
+              <WeightedErrorsRow weighted={analysis.weighted} scaleFactor={a.scaleFactor} testId="weighted-errors" />
               {m && (
                 <>
                   <tr>
@@ -166,6 +180,7 @@ export function ResultTables({
                     <td>{sig(convertE(m.params.Ea))}</td>
                     <td>{m.se.Ea === null ? "—" : sig(convertE(m.se.Ea), 2)}</td>
                   </tr>
+                  <WeightedErrorsRow weighted={analysis.weighted} scaleFactor={m.scaleFactor} testId="weighted-errors-modified" />
                 </>
               )}
               {e && (

@@ -309,6 +309,46 @@ export async function getLatestAnalysis({ versionId }: { versionId: number }) {
   return row ?? null;
 }
 
+/** The engine version and checks of a version's newest analysis (not its result), null when it has none. */
+export async function getLatestAnalysisEngine({ versionId }: { versionId: number }) {
+  const [row] = await getDb()
+    .select({ engineVersion: versionAnalyses.engineVersion, checks: versionAnalyses.checks })
+    .from(versionAnalyses)
+    .where(eq(versionAnalyses.versionId, versionId))
+    .orderBy(desc(versionAnalyses.id))
+    .limit(1);
+  return row ?? null;
+}
+
+/**
+ * A version's stored deposit document as JSON text, null when there is no such version. As text:
+ * the re-fit sends it to an analysis worker as text, and parsing 100 000 points here first would
+ * cost the calling thread twice.
+ */
+export async function getVersionPayloadText({ versionId }: { versionId: number }): Promise<string | null> {
+  const [row] = await getDb()
+    .select({ payload: sql<string>`${datasetVersions.payload}::text` })
+    .from(datasetVersions)
+    .where(eq(datasetVersions.id, versionId));
+  return row?.payload ?? null;
+}
+
+/** Ids of the versions whose newest analysis came from another engine version (or that have none), in id order. */
+export async function listVersionIdsNotAnalysedBy({ engineVersion }: { engineVersion: string }): Promise<number[]> {
+  const rows = await getDb().execute<{ id: number }>(sql`
+    select v.id from dataset_versions v
+    left join lateral (select engine_version from version_analyses a where a.version_id = v.id order by a.id desc limit 1) a on true
+    where a.engine_version is distinct from ${engineVersion}
+    order by v.id`);
+  return rows.map((r) => Number(r.id));
+}
+
+/** The engine version the database records as current (drizzle/0013; written by scripts/migrate.ts), null when none. */
+export async function getRecordedEngineVersion(): Promise<string | null> {
+  const [row] = await getDb().execute<{ engine_version: string }>(sql`select engine_version from arrhenia_engine where only_row`);
+  return row?.engine_version ?? null;
+}
+
 /** The datasets a person owns or co-edits, newest version of each. */
 export async function listMyVersions({ userId }: { userId: number }) {
   return getDb()

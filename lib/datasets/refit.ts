@@ -1,11 +1,14 @@
 import "server-only";
-import { desc, eq, sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
-import { datasetVersions, versionAnalyses } from "@/db/datasets";
 import { getSender, retryPolicy } from "@/lib/jobs/boss";
 import { runAnalysisTask } from "@/lib/workers/pool";
 import { ENGINE_VERSION } from "./prepare";
-import { appendRefitAnalysis } from "./queries";
+import {
+  appendRefitAnalysis,
+  getLatestAnalysisEngine,
+  getRecordedEngineVersion,
+  getVersionPayloadText,
+  listVersionIdsNotAnalysedBy,
+} from "./queries";
 import { invalidatePublicCache } from "@/lib/public-cache";
 import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 
@@ -19,24 +22,14 @@ import { listVersionCacheTags } from "@/lib/reactions/public-queries";
  * stall every request passing through it.
  */
 export async function refitVersion({ versionId }: { versionId: number }): Promise<"refitted" | "current" | "invalid"> {
-  const db = getDb();
-  // As text: parsing a 100 000-point document here only to send it to the worker as text again would cost this thread twice.
-  const [version] = await db
-    .select({ payload: sql<string>`${datasetVersions.payload}::text` })
-    .from(datasetVersions)
-    .where(eq(datasetVersions.id, versionId));
-  if (!version) return "invalid";
-  const [latest] = await db
-    .select({ engineVersion: versionAnalyses.engineVersion, checks: versionAnalyses.checks })
-    .from(versionAnalyses)
-    .where(eq(versionAnalyses.versionId, versionId))
-    .orderBy(desc(versionAnalyses.id))
-    .limit(1);
+  const payload = await getVersionPayloadText({ versionId });
+  if (payload === null) return "invalid";
+  const latest = await getLatestAnalysisEngine({ versionId });
   if (latest?.engineVersion === ENGINE_VERSION) return "current";
   const checks = latest?.checks ?? [];
   const append = (result: Record<string, unknown> | null, error?: string) =>
     appendRefitAnalysis({ versionId, engineVersion: ENGINE_VERSION, result, checks, error });
-  const checked = await runAnalysisTask("checkDocument", version.payload, { background: true });
+  const checked = await runAnalysisTask("checkDocument", payload, { background: true });
   if (!checked.ok) {
     return (await append(null, `stored document no longer validates: ${checked.errors[0].message}`)) ? "invalid" : "current";
   }
@@ -50,18 +43,7 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
 
 /** Versions whose newest analysis came from another engine version (or that have none). */
 export async function listStaleVersions(): Promise<number[]> {
-  const rows = await getDb().execute<{ id: number }>(sql`
-    select v.id from dataset_versions v
-    left join lateral (select engine_version from version_analyses a where a.version_id = v.id order by a.id desc limit 1) a on true
-    where a.engine_version is distinct from ${ENGINE_VERSION}
-    order by v.id`);
-  return rows.map((r) => Number(r.id));
-}
-
-/** The engine version the database records as current (drizzle/0013; written by scripts/migrate.ts), null when none. */
-export async function recordedEngineVersion(): Promise<string | null> {
-  const [row] = await getDb().execute<{ engine_version: string }>(sql`select engine_version from arrhenia_engine where only_row`);
-  return row?.engine_version ?? null;
+  return listVersionIdsNotAnalysedBy({ engineVersion: ENGINE_VERSION });
 }
 
 /**
@@ -71,7 +53,7 @@ export async function recordedEngineVersion(): Promise<string | null> {
  * code), so nothing is queued and `engineMismatch` names the database's engine.
  */
 export async function enqueueStaleRefits(): Promise<{ queued: number; engineMismatch: string | null }> {
-  const recorded = await recordedEngineVersion();
+  const recorded = await getRecordedEngineVersion();
   if (recorded !== ENGINE_VERSION) return { queued: 0, engineMismatch: recorded ?? "none" };
   const ids = await listStaleVersions();
   const boss = await getSender();

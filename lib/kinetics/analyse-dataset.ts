@@ -98,9 +98,6 @@ const LN_LITRE_PER_MOLECULE_CM3 = Math.log(AVOGADRO * 1e-3);
 let workspaceSize = 0;
 let wsT = new Float64Array(0);
 let wsY = new Float64Array(0);
-let wsXE = new Float64Array(0);
-let wsLnT = new Float64Array(0);
-let wsLnTabs = new Float64Array(0);
 let wsSw = new Float64Array(0);
 let wsYe = new Float64Array(0);
 let wsXEc = new Float64Array(0);
@@ -111,9 +108,6 @@ function ensureWorkspace(n: number): void {
   workspaceSize = Math.max(n, 2 * workspaceSize, 64);
   wsT = new Float64Array(workspaceSize);
   wsY = new Float64Array(workspaceSize);
-  wsXE = new Float64Array(workspaceSize);
-  wsLnT = new Float64Array(workspaceSize);
-  wsLnTabs = new Float64Array(workspaceSize);
   wsSw = new Float64Array(workspaceSize);
   wsYe = new Float64Array(workspaceSize);
   wsXEc = new Float64Array(workspaceSize);
@@ -126,9 +120,6 @@ interface Prepared {
   T0: number;
   T: Float64Array;
   y: Float64Array;
-  xE: Float64Array; // −1/(RT): the coefficient on this column is Ea in J mol⁻¹
-  lnT: Float64Array; // ln(T/T0)
-  lnTabs: Float64Array; // ln(T/K)
   /** Tref = (Tmin + Tmax)/2: the fitted columns are differences from it, formed without cancellation. */
   Tref: number;
   xEc: Float64Array; // −1/(RT) + 1/(R·Tref) = (T − Tref)/(R·T·Tref)
@@ -152,7 +143,10 @@ interface FitSummary {
   dof: number;
   /** Σ wᵢrᵢ² with the stated weights. */
   rss: number;
-  /** s² with the scaled weights: pairs with the fit's unscaled covariance. */
+  /**
+   * The variance factor of the covariance with the scaled weights (pairs with the fit's unscaled
+   * covariance): s² = RSS/dof unweighted; weighted, max(1, χ²/dof) in those units (see parameterVariance).
+   */
   s2: number | null;
   cov: number[][] | null;
   se: (number | null)[];
@@ -345,9 +339,6 @@ function prepareInput(input: AnalysisInput): Prepared {
   ensureWorkspace(n);
   const T = wsT;
   const y = wsY;
-  const xE = wsXE;
-  const lnT = wsLnT;
-  const lnTabs = wsLnTabs;
   const xEc = wsXEc;
   const lnTc = wsLnTc;
   const lnT0 = Math.log(T0);
@@ -391,11 +382,7 @@ function prepareInput(input: AnalysisInput): Prepared {
     // (T − Tref)/(R·T·Tref): T − Tref is exact for T near Tref.
     const xc = ((Ti - Tref) * shiftE) / Ti;
     xEc[i] = xc;
-    xE[i] = xc - shiftE;
-    const lnTi = Math.log(Ti);
-    lnTabs[i] = lnTi;
-    lnT[i] = lnTi - lnT0;
-    lnTc[i] = narrow ? Math.log1p((Ti - Tref) / Tref) : lnTi - lnTref;
+    lnTc[i] = narrow ? Math.log1p((Ti - Tref) / Tref) : Math.log(Ti) - lnTref;
   }
   const sw = allSigma ? wsSw : null;
   let sumLogW = 0;
@@ -419,9 +406,6 @@ function prepareInput(input: AnalysisInput): Prepared {
     T0,
     T,
     y,
-    xE,
-    lnT,
-    lnTabs,
     Tref,
     xEc,
     lnTc,
@@ -516,25 +500,47 @@ function checkReportedFit(r: NonNullable<AnalysisInput["reportedFit"]>): void {
   }
 }
 
+/**
+ * The factor s² of the covariance s²(XᵀWX)⁻¹, in the units of the scaled weights, from a fit's
+ * Σwᵢrᵢ² (scaled weights) and its dof; null when dof = 0. Unweighted: RSS/dof. Weighted: the
+ * stated uncertainties are taken as a floor, never as smaller than stated — s² = max(1, χ²/dof),
+ * so standard errors are those of the stated σ (scipy curve_fit's absolute_sigma=True), enlarged
+ * by S = √(χ²/dof) only when the points scatter more than the σ allow. This is the scale factor of
+ * the Particle Data Group's averaging rule (Review of Particle Physics, Introduction, "Averages
+ * and fits" — from memory), which the consensus applies to its stage-1 summaries too.
+ */
+function parameterVariance(rss: number, dof: number, d: Prepared): number | null {
+  if (dof <= 0) return null;
+  const s2 = rss / dof;
+  if (!d.weighted) return s2;
+  // χ²/dof = 1 is RSS/dof = 1/weightScale² in scaled units (a power of two: exact).
+  const unit = 1 / (d.weightScale * d.weightScale);
+  return s2 >= unit ? s2 : unit;
+}
+
 function summariseFit(fit: CentredFit, d: Prepared, y: Float64Array): FitSummary {
   const { n, p, rss, unscaledCov } = fit;
   const dof = n - p;
-  const s2 = dof > 0 ? rss / dof : null;
+  const residualS2 = dof > 0 ? rss / dof : null;
+  const s2 = parameterVariance(rss, dof, d);
+  const sw = d.sw;
   let sumW = 0;
   let sumWy = 0;
   for (let i = 0; i < n; i++) {
-    const w = d.sw ? d.sw[i] * d.sw[i] : 1;
+    const w = sw ? sw[i] * sw[i] : 1;
     sumW += w;
     sumWy += w * y[i];
   }
   const mean = sumWy / sumW;
   let tss = 0;
   for (let i = 0; i < n; i++) {
-    const w = d.sw ? d.sw[i] * d.sw[i] : 1;
-    tss += w * (y[i] - mean) ** 2;
+    const w = sw ? sw[i] * sw[i] : 1;
+    const dy = y[i] - mean;
+    tss += w * (dy * dy);
   }
   const cov = s2 === null ? null : toRows(unscaledCov, p, s2);
-  const se = Array.from({ length: p }, (_, j) => (s2 === null ? null : Math.sqrt(s2 * unscaledCov[j * p + j])));
+  const se = new Array<number | null>(p);
+  for (let j = 0; j < p; j++) se[j] = s2 === null ? null : Math.sqrt(s2 * unscaledCov[j * p + j]);
   // The fit ran on weights divided by weightScale²: the sum of squares with the stated weights.
   const scale = d.weightScale;
   const rssStated = rss * scale * scale;
@@ -556,9 +562,9 @@ function summariseFit(fit: CentredFit, d: Prepared, y: Float64Array): FitSummary
     cov,
     se,
     r2: tss > 0 ? 1 - rss / tss : null,
-    residualSD: s2 === null ? null : Math.sqrt(s2) * scale,
+    residualSD: residualS2 === null ? null : Math.sqrt(residualS2) * scale,
     aicc,
-    chi2Reduced: d.weighted && s2 !== null ? rssStated / dof : null,
+    chi2Reduced: d.weighted && residualS2 !== null ? rssStated / dof : null,
   };
 }
 
@@ -596,14 +602,13 @@ function buildArrhenius(fit: CentredFit, s: FitSummary, t: number, d: Prepared):
 /** Residual spread and per-point residuals and fitted values of one fit. */
 function residualFields(fit: CentredFit, s: FitSummary, d: Prepared): FitResiduals {
   const { n, resid } = fit;
-  // Pre-filled so V8 keeps packed double arrays.
-  const residuals = new Array<number>(n).fill(0);
-  const fitted = new Array<number>(n).fill(0);
+  // The fit's own residuals array (nothing changes it after the fit).
+  const residuals = resid;
+  const fitted = new Array<number>(n);
   const y = d.y;
   let ss = 0;
   for (let i = 0; i < n; i++) {
     const r = resid[i];
-    residuals[i] = r;
     fitted[i] = y[i] - r;
     ss += r * r;
   }
@@ -678,7 +683,7 @@ function buildEyring(arrFit: CentredFit, d: Prepared): EyringFit {
     rss += e * e;
   }
   const dof = n - 2;
-  const s2 = dof > 0 ? rss / dof : null;
+  const s2 = parameterVariance(rss, dof, d);
   const c = arrFit.unscaledCov;
   const convention =
     order === 1
@@ -753,28 +758,46 @@ function shiftedInverseT(d: Prepared, T: number): number {
 
 function computeBand(fit: CentredFit, s: FitSummary, d: Prepared, model: ConfidenceBand["model"]): ConfidenceBand {
   const p = fit.p;
-  // Pre-filled so V8 keeps packed double arrays instead of growing them by push.
-  const T = new Array<number>(BAND_POINTS).fill(0);
-  const lnk = new Array<number>(BAND_POINTS).fill(0);
-  const lower = s.s2 === null ? null : new Array<number>(BAND_POINTS).fill(0);
-  const upper = s.s2 === null ? null : new Array<number>(BAND_POINTS).fill(0);
+  // Allocated at full length: every entry is written below (faster than filling first).
+  const T = new Array<number>(BAND_POINTS);
+  const lnk = new Array<number>(BAND_POINTS);
+  const lower = s.s2 === null ? null : new Array<number>(BAND_POINTS);
+  const upper = s.s2 === null ? null : new Array<number>(BAND_POINTS);
   const t = s.s2 === null ? 0 : t95(s.dof);
   const invMin = 1 / d.Tmin;
   const invMax = 1 / d.Tmax;
-  // The point in the fit's shifted coordinates: [ln(T/Tref), 1/(R·Tref) − 1/(RT)] or the latter alone.
-  const x = p === 3 ? [0, 0] : [0];
-  const pred = { value: 0, variance: 0 };
+  const s2 = s.s2 ?? 0;
+  // predictCentred written out for one or two slopes (the same operations in the same order, so
+  // the same numbers): this loop runs 50 times in every analysis. The point in the fit's shifted
+  // coordinates is [ln(T/Tref), 1/(R·Tref) − 1/(RT)] or the latter alone.
+  const { g, means, betaCentred: b } = fit;
+  const m0 = means[0];
+  const m1 = p === 3 ? means[1] : 0;
   for (let i = 0; i < BAND_POINTS; i++) {
     const Ti = i === 0 ? d.Tmin : i === BAND_POINTS - 1 ? d.Tmax : 1 / (invMin + ((invMax - invMin) * i) / (BAND_POINTS - 1));
     T[i] = Ti;
-    if (p === 3) x[0] = Math.log1p((Ti - d.Tref) / d.Tref);
-    x[p - 2] = shiftedInverseT(d, Ti);
-    predictCentred(fit, x, pred);
-    const v = pred.value;
+    let v: number;
+    let variance: number;
+    if (p === 3) {
+      const u0 = Math.log1p((Ti - d.Tref) / d.Tref) - m0;
+      const u1 = shiftedInverseT(d, Ti) - m1;
+      v = b[0] + b[1] * u0 + b[2] * u1;
+      const t0 = g[0];
+      const t1 = g[1] + g[4] * u0;
+      let t2 = g[2] + g[5] * u0;
+      t2 += g[8] * u1;
+      variance = t0 * t0 + t1 * t1 + t2 * t2;
+    } else {
+      const u0 = shiftedInverseT(d, Ti) - m0;
+      v = b[0] + b[1] * u0;
+      const t0 = g[0];
+      const t1 = g[1] + g[3] * u0;
+      variance = t0 * t0 + t1 * t1;
+    }
     lnk[i] = v;
     if (lower && upper) {
       // Pointwise confidence band of the mean: ŷ ± t·s·√(xᵀ(XᵀWX)⁻¹x) (Draper & Smith 1998, §3.4).
-      const half = t * Math.sqrt((s.s2 as number) * pred.variance);
+      const half = t * Math.sqrt(s2 * variance);
       lower[i] = v - half;
       upper[i] = v + half;
     }
@@ -813,24 +836,26 @@ function toFlag(draft: FlagDraft): Flag {
 }
 
 /** A point nearer the fit than its own stated uncertainty is within what its authors claim. */
-function withinStatedUncertainty(input: AnalysisInput, resid: Float64Array, i: number): boolean {
+function withinStatedUncertainty(input: AnalysisInput, resid: readonly number[], i: number): boolean {
   const sigma = input.points[i].sigmaLnK;
   return typeof sigma === "number" && Math.abs(resid[i]) < sigma;
 }
 
 function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[] {
   const flags: Flag[] = [];
-  const push = (draft: FlagDraft) => flags.push(toFlag(draft));
+  // No closure for pushing: every analysis runs this, and creating one per call costs more than its use.
   const { n } = d;
   const Ea = c.arrhenius.params.Ea;
 
   if (!d.weighted && d.someSigma) {
     const stated = input.points.filter((pt) => pt.sigmaLnK !== undefined && pt.sigmaLnK !== null).length;
-    push({
-      code: "uncertainties_ignored",
-      severity: "info",
-      quantities: { stated: count(stated), n: count(n) },
-    });
+    flags.push(
+      toFlag({
+        code: "uncertainties_ignored",
+        severity: "info",
+        quantities: { stated: count(stated), n: count(n) },
+      }),
+    );
   }
 
   // Points are judged on the preferred fit (the diagnostics' model), with its p coefficients; the
@@ -845,7 +870,7 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     if (!testOutliers) q.outlierMinPoints = count(outlierMinPoints);
     if (n < MIN_POINTS_FOR_DIAGNOSTICS) q.diagnosticsMinPoints = count(MIN_POINTS_FOR_DIAGNOSTICS);
     if (d.distinctT < 3) q.modifiedMinTemperatures = count(3);
-    push({ code: "too_few_points", severity: "info", quantities: q });
+    flags.push(toFlag({ code: "too_few_points", severity: "info", quantities: q }));
   }
 
   const resid = judged.fit.resid;
@@ -856,12 +881,14 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
     if (test) {
       const { outliers, bound } = test;
       if (outliers.length > 0) {
-        push({
-          code: "outlier",
-          severity: "warn",
-          points: outliers,
-          quantities: { bound: statistic(bound), alpha: probability(ALPHA), dof: count(dof - 1), coefficients: modelQ },
-        });
+        flags.push(
+          toFlag({
+            code: "outlier",
+            severity: "warn",
+            points: outliers,
+            quantities: { bound: statistic(bound), alpha: probability(ALPHA), dof: count(dof - 1), coefficients: modelQ },
+          }),
+        );
       }
     }
     const cookBound = cooksDistanceBound(pJudged, n);
@@ -879,40 +906,39 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
       }
     }
     if (influential.length > 0) {
-      push({
-        code: "influential_point",
-        severity: "info",
-        points: influential,
-        quantities: {
-          largest: statistic(largest),
-          bound: statistic(cookBound),
-          dfNum: count(pJudged),
-          dfDenom: count(n - pJudged),
-          residualBound: statistic(tPoint),
-          dof: count(dof - 1),
-          coefficients: modelQ,
-        },
-      });
+      flags.push(
+        toFlag({
+          code: "influential_point",
+          severity: "info",
+          points: influential,
+          quantities: {
+            largest: statistic(largest),
+            bound: statistic(cookBound),
+            dfNum: count(pJudged),
+            dfDenom: count(n - pJudged),
+            residualBound: statistic(tPoint),
+            dof: count(dof - 1),
+            coefficients: modelQ,
+          },
+        }),
+      );
     }
   }
 
   if (c.curvature && curvatureSignificant(c.curvature) && c.modifiedArrhenius) {
     const m = c.modifiedArrhenius.params;
-    const eaAt = (T: number) => m.Ea + m.n * GAS_CONSTANT * T;
+    // Ea(T) = Ea + nRT at the ends of the range.
     const test = c.curvature;
-    push({
-      code: "curvature",
-      severity: "warn",
-      quantities: {
-        ...(test.F !== null && test.p !== null
-          ? { F: statistic(test.F), dfNum: count(test.dfNum), dfDenom: count(test.dfDenom), p: probability(test.p) }
-          : { exact: count(1) }),
-        eaLow: energy(eaAt(d.Tmin)),
-        tLow: temperature(d.Tmin),
-        eaHigh: energy(eaAt(d.Tmax)),
-        tHigh: temperature(d.Tmax),
-      },
-    });
+    // Keys in the order the flag has always had them (the F-test's, or exact; then the ends).
+    const q: FlagQuantities =
+      test.F !== null && test.p !== null
+        ? { F: statistic(test.F), dfNum: count(test.dfNum), dfDenom: count(test.dfDenom), p: probability(test.p) }
+        : { exact: count(1) };
+    q.eaLow = energy(m.Ea + m.n * GAS_CONSTANT * d.Tmin);
+    q.tLow = temperature(d.Tmin);
+    q.eaHigh = energy(m.Ea + m.n * GAS_CONSTANT * d.Tmax);
+    q.tHigh = temperature(d.Tmax);
+    flags.push(toFlag({ code: "curvature", severity: "warn", quantities: q }));
   }
 
   const tRatio = d.Tmax / d.Tmin;
@@ -932,39 +958,50 @@ function collectFlags(d: Prepared, c: FlagContext, input: AnalysisInput): Flag[]
       q.relativeSE = percent(relSe! * 100);
       q.seEa = energy(seEa!);
     }
-    push({ code: "narrow_range", severity: "warn", quantities: q });
+    flags.push(toFlag({ code: "narrow_range", severity: "warn", quantities: q }));
   }
 
   // Only an Ea whose 95 % interval lies wholly below zero: one that cannot be told from 0 is no finding.
   if (seEa !== null && Ea < NEGATIVE_EA_THRESHOLD) {
     const half = t95(c.arrSum.dof) * seEa;
     if (Ea + half < 0) {
-      push({
-        code: "negative_activation_energy",
-        severity: "info",
-        quantities: { Ea: energy(Ea), lower: energy(Ea - half), upper: energy(Ea + half) },
-      });
+      flags.push(
+        toFlag({
+          code: "negative_activation_energy",
+          severity: "info",
+          quantities: { Ea: energy(Ea), lower: energy(Ea - half), upper: energy(Ea + half) },
+        }),
+      );
     }
   }
 
   // Judged on the fit the analysis prefers: a curved set's straight line leaves scatter that is only its curvature.
   const preferred = c.chosen.sum;
-  if (d.weighted && preferred.dof > 0) {
+  // χ² at or below its dof has P(χ² > ν) ≥ P(χ²₁ > 1) = 0.317 for every ν ≥ 1 (the tail at the mean
+  // rises from there towards ½; checked with survivalChiSquare for ν ≤ 2·10⁵): no tail to compute.
+  if (d.weighted && preferred.dof > 0 && preferred.rss > preferred.dof) {
     const p = survivalChiSquare(preferred.rss, preferred.dof);
     if (p < EXCESS_SCATTER_P) {
       const chi2 = preferred.rss / preferred.dof;
-      push({
-        code: "excess_scatter",
-        severity: "warn",
-        quantities: { chi2Reduced: statistic(chi2), scaleFactor: statistic(Math.sqrt(chi2)), dof: count(preferred.dof), p: probability(p) },
-      });
+      flags.push(
+        toFlag({
+          code: "excess_scatter",
+          severity: "warn",
+          quantities: {
+            chi2Reduced: statistic(chi2),
+            scaleFactor: statistic(Math.sqrt(chi2)),
+            dof: count(preferred.dof),
+            p: probability(p),
+          },
+        }),
+      );
     }
   }
 
   const reported = input.reportedFit;
   if (reported) {
     const flag = compareReportedFit(reported, d, c);
-    if (flag) push(flag);
+    if (flag) flags.push(toFlag(flag));
   }
   return flags;
 }

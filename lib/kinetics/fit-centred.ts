@@ -52,8 +52,8 @@ export interface ResponseFit {
   betaCentred: number[];
   /** Σ wᵢ rᵢ². */
   rss: number;
-  /** y − Xβ (not weighted). */
-  resid: Float64Array;
+  /** y − Xβ (not weighted); a plain array, as the analysis result takes it over unchanged. */
+  resid: number[];
 }
 
 /** A fitted linear model y ≈ β0 + Σ βj xj. */
@@ -149,7 +149,8 @@ export function fitCentred(
   for (let k = 0; k < p * p; k++) g[k] = gBuf[k];
 
   const main = solveResponse(cols, y, sw, means, m0, p, n);
-  const extra = extraResponses.map((ye) => solveResponse(cols, ye, sw, means, m0, p, n));
+  const extra: ResponseFit[] = [];
+  for (let r = 0; r < extraResponses.length; r++) extra.push(solveResponse(cols, extraResponses[r], sw, means, m0, p, n));
   return {
     p,
     n,
@@ -179,12 +180,14 @@ function solveResponse(
   p: number,
   n: number,
 ): ResponseFit {
-  const resid = new Float64Array(n);
+  // A plain array: a Float64Array of more than 8 values is allocated outside V8's heap, several times slower.
+  const resid = new Array<number>(n);
   const x1 = cols[0];
   const x2 = p === 3 ? cols[1] : x1;
   const m1 = means[0];
   const m2 = p === 3 ? means[1] : 0;
-  for (let i = 0; i < n; i++) work[i] = (sw ? sw[i] : 1) * y[i];
+  if (sw) for (let i = 0; i < n; i++) work[i] = sw[i] * y[i];
+  else for (let i = 0; i < n; i++) work[i] = y[i];
   applyQTranspose(factor, work);
   solveTriangular(factor, work, betaC);
   let rss = 0;
@@ -192,13 +195,24 @@ function solveResponse(
     rss = 0;
     const b0 = betaC[0];
     const b1 = betaC[1];
-    const b2 = p === 3 ? betaC[2] : 0;
-    for (let i = 0; i < n; i++) {
-      const r = y[i] - b0 - b1 * (x1[i] - m1) - (p === 3 ? b2 * (x2[i] - m2) : 0);
-      resid[i] = r;
-      const e = sw ? sw[i] * r : r;
-      work[i] = e;
-      rss += e * e;
+    // One loop per shape (the hot path of every fit): r = y − b₀ − b₁(x₁ − m₁) [− b₂(x₂ − m₂)].
+    if (p === 3) {
+      const b2 = betaC[2];
+      for (let i = 0; i < n; i++) {
+        const r = y[i] - b0 - b1 * (x1[i] - m1) - b2 * (x2[i] - m2);
+        resid[i] = r;
+        const e = sw ? sw[i] * r : r;
+        work[i] = e;
+        rss += e * e;
+      }
+    } else {
+      for (let i = 0; i < n; i++) {
+        const r = y[i] - b0 - b1 * (x1[i] - m1);
+        resid[i] = r;
+        const e = sw ? sw[i] * r : r;
+        work[i] = e;
+        rss += e * e;
+      }
     }
     if (pass === 1) break;
     applyQTranspose(factor, work);

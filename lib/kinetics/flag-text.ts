@@ -217,6 +217,21 @@ export function describeExtrapolation(x: Extrapolation): string {
   return `extrapolated: ${formatNumber(x.kelvin, 3)} K ${x.side} the ${end} measured temperature, ${formatNumber(x.inverseTWidths, 2)} times the width of the measured range in 1/T${far}`;
 }
 
+/**
+ * How a weighted fit's standard errors were made, in one sentence, from its scale factor
+ * √(χ²/dof): the stated uncertainties are a floor, enlarged by the factor when the points scatter
+ * more than they allow and never reduced (conventions.ts); null without a scale factor (dof = 0).
+ *
+ * @example describeWeightedErrors(1.83) // "Standard errors from the stated uncertainties, enlarged by √(χ²/dof) = 1.8 because the points scatter more than those allow."
+ */
+export function describeWeightedErrors(scaleFactor: number | null): string | null {
+  if (scaleFactor === null || !Number.isFinite(scaleFactor)) return null;
+  const s = formatNumber(scaleFactor, 2);
+  return scaleFactor > 1
+    ? `Standard errors from the stated uncertainties, enlarged by √(χ²/dof) = ${s} because the points scatter more than those allow.`
+    : `Standard errors from the stated uncertainties, not reduced although √(χ²/dof) = ${s}: stated uncertainties are never taken as smaller than stated.`;
+}
+
 /** The fit a point was judged on, from its number of coefficients (Arrhenius when not stated: older records). */
 function modelName(w: Writer): string {
   return w.has("coefficients") && w.value("coefficients") === 3 ? "modified Arrhenius" : "Arrhenius";

@@ -29,7 +29,7 @@ export * from "./constants";
 export { ANALYSIS_CONVENTIONS, CONSENSUS_CONVENTIONS } from "./conventions";
 export { evaluateRateExpression, type RateExpression } from "./evaluate-expression";
 export { extrapolationOf } from "./extrapolation";
-export { describeExtrapolation, formatFlagMessage, formatP, type FlagUnits } from "./flag-text";
+export { describeExtrapolation, describeWeightedErrors, formatFlagMessage, formatP, type FlagUnits } from "./flag-text";
 export { cooksDistanceBound } from "./influence-bound";
 export { solveLeastSquares, LeastSquaresError, type LeastSquaresOptions, type LeastSquaresResult } from "./least-squares";
 export {

@@ -20,5 +20,14 @@ import jStat from "jstat";
 export function cooksDistanceBound(p: number, n: number): number {
   const m = n - p;
   if (p === 2) return (m / 2) * Math.expm1((2 / m) * Math.LN2);
-  return jStat.centralF.inv(0.5, p, m);
+  // The inverse F costs more than the rest of a small analysis: kept per (p, n − p), as few pairs occur.
+  const key = p * 65536 + m;
+  let bound = boundCache.get(key);
+  if (bound === undefined) {
+    bound = jStat.centralF.inv(0.5, p, m);
+    if (boundCache.size < 4096) boundCache.set(key, bound);
+  }
+  return bound;
 }
+
+const boundCache = new Map<number, number>();

@@ -149,7 +149,7 @@ export interface ArrheniusFit extends FitResiduals {
   };
   /** Standard errors; null when dof = 0. */
   se: { lnA: number | null; Ea: number | null };
-  /** s²(XᵀWX)⁻¹ over [lnA, Ea]; null when dof = 0. */
+  /** s²(XᵀWX)⁻¹ over [lnA, Ea], s² = RSS/dof unweighted, max(1, χ²/dof) weighted; null when dof = 0. */
   covariance: number[][] | null;
   /** Weighted R² about the weighted mean of ln k; null when all ln k are equal. */
   r2: number | null;
@@ -172,7 +172,7 @@ export interface ArrheniusFit extends FitResiduals {
 export interface ModifiedArrheniusFit extends FitResiduals {
   params: { lnA: number; A: number | null; n: number; Ea: number; T0: number };
   se: { lnA: number | null; n: number | null; Ea: number | null };
-  /** s²(XᵀWX)⁻¹ over [lnA, n, Ea]; null when dof = 0. */
+  /** s²(XᵀWX)⁻¹ over [lnA, n, Ea], s² as for the Arrhenius fit; null when dof = 0. */
   covariance: number[][] | null;
   r2: number | null;
   residualSD: number | null;

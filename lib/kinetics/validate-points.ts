@@ -24,21 +24,20 @@ export function checkPoints(points: unknown, datasetId?: string): { allSigma: bo
   let withSigma = 0;
   for (let i = 0; i < points.length; i++) {
     const pt = points[i] as Partial<RatePoint> | null;
-    const where = `${prefix(datasetId)}Point ${i + 1} (points[${i}])`;
     if (pt === null || typeof pt !== "object") {
-      throw new AnalysisError("invalid_point", `${where} is not an object with T and k.`, { pointIndex: i, datasetId });
+      throw new AnalysisError("invalid_point", `${where(i, datasetId)} is not an object with T and k.`, { pointIndex: i, datasetId });
     }
     if (!isPositiveFinite(pt.T)) {
       throw new AnalysisError(
         "invalid_point",
-        `${where} has temperature T = ${describe(pt.T)}; temperatures must be positive finite numbers in kelvin.`,
+        `${where(i, datasetId)} has temperature T = ${describe(pt.T)}; temperatures must be positive finite numbers in kelvin.`,
         { pointIndex: i, datasetId },
       );
     }
     if (!isPositiveFinite(pt.k)) {
       throw new AnalysisError(
         "invalid_point",
-        `${where} has rate constant k = ${describe(pt.k)}; rate constants must be positive finite numbers (a logarithm is taken).`,
+        `${where(i, datasetId)} has rate constant k = ${describe(pt.k)}; rate constants must be positive finite numbers (a logarithm is taken).`,
         { pointIndex: i, datasetId },
       );
     }
@@ -46,7 +45,7 @@ export function checkPoints(points: unknown, datasetId?: string): { allSigma: bo
       if (!isPositiveFinite(pt.sigmaLnK)) {
         throw new AnalysisError(
           "invalid_point",
-          `${where} has uncertainty sigmaLnK = ${describe(pt.sigmaLnK)}; it must be a positive finite number (or left out).`,
+          `${where(i, datasetId)} has uncertainty sigmaLnK = ${describe(pt.sigmaLnK)}; it must be a positive finite number (or left out).`,
           { pointIndex: i, datasetId },
         );
       }
@@ -54,6 +53,11 @@ export function checkPoints(points: unknown, datasetId?: string): { allSigma: bo
     }
   }
   return { allSigma: points.length > 0 && withSigma === points.length, someSigma: withSigma > 0 };
+}
+
+/** "Point 3 (points[2])", written only for a message (every point is checked, few are wrong). */
+function where(i: number, datasetId?: string): string {
+  return `${prefix(datasetId)}Point ${i + 1} (points[${i}])`;
 }
 
 function isPositiveFinite(v: unknown): v is number {

@@ -8,47 +8,22 @@ import { GET as getCitation } from "@/app/api/v1/datasets/[id]/citation/route";
 import { GET as getDataciteJson } from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.json/route";
 import { GET as getDataciteXml } from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.xml/route";
 import { getCurrentUser } from "@/lib/auth/session";
-import type { Transition } from "@/lib/curation/lifecycle";
-import { applyTransition } from "@/lib/curation/transitions";
-import { depositNewDataset } from "@/lib/datasets/deposits";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 import { getRegistrationSubject } from "@/lib/identifiers/queries";
 import { buildRegistrationBody } from "@/lib/identifiers/register";
-import { createUser, type UserDto } from "@/lib/users/queries";
-import { uniqueEmail } from "./helpers";
+import type { UserDto } from "@/lib/users/queries";
+import { createRolePeople, depositInState, uniqueEmail, WALKS_TO_STATE, type WalkState } from "./helpers";
 
 let owner: UserDto, other: UserDto, curator: UserDto, admin: UserDto;
 beforeAll(async () => {
-  const mk = (tag: string, role: UserDto["role"]) =>
-    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
-  [owner, other, curator, admin] = await Promise.all([
-    mk("cite-owner", "researcher"),
-    mk("cite-other", "researcher"),
-    mk("cite-curator", "curator"),
-    mk("cite-admin", "admin"),
-  ]);
+  ({ owner, other, curator, admin } = await createRolePeople("cite"));
 });
 
-const walks: Record<string, Transition[]> = {
-  draft: [],
-  submitted: ["submit"],
-  in_review: ["submit", "start_review"],
-  returned: ["submit", "start_review", "return"],
-  declined: ["submit", "decline"],
-  published: ["submit", "accept"],
-  retracted: ["submit", "accept", "retract"],
-};
-
-async function datasetIn(state: keyof typeof walks, change?: (doc: Record<string, unknown>) => void) {
+async function datasetIn(state: WalkState, change?: (doc: Record<string, unknown>) => void) {
   const doc = structuredClone(EXAMPLE_DEPOSIT) as typeof EXAMPLE_DEPOSIT;
   doc.title = `Citation test (${state}) ${uniqueEmail("t")}`;
   change?.(doc as unknown as Record<string, unknown>);
-  const v = await depositNewDataset({ actor: owner, document: doc });
-  for (const t of walks[state]) {
-    const byOwner = t === "submit";
-    const reason = t === "retract" ? "Retracted for the test: a calibration error." : byOwner ? undefined : "For the test.";
-    await applyTransition({ versionId: v.id, actorId: byOwner ? owner.id : curator.id, transition: t, reason });
-  }
+  const v = await depositInState({ owner, curator, document: doc, state });
   return { datasetId: v.datasetId, versionId: v.id, title: doc.title };
 }
 
@@ -76,7 +51,7 @@ const roles: [string, () => UserDto | null][] = [
 describe("GET /api/v1/datasets/:id/citation", () => {
   const sets: Record<string, Awaited<ReturnType<typeof datasetIn>>> = {};
   beforeAll(async () => {
-    for (const state of Object.keys(walks)) sets[state] = await datasetIn(state);
+    for (const state of Object.keys(WALKS_TO_STATE) as WalkState[]) sets[state] = await datasetIn(state);
   }, 120_000);
 
   it.each(roles)("%s: a published or retracted version is cited; every other state is not found, even to its owner", async (_, who) => {

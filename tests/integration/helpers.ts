@@ -5,7 +5,10 @@ import { captureSmtpPort, databaseUrl } from "@/lib/config";
 import { getSender } from "@/lib/jobs/boss";
 import { startWorkers } from "@/lib/jobs/worker";
 import { startCaptureServer } from "@/lib/mail/capture-server";
-import type { UserDto } from "@/lib/users/queries";
+import type { Transition } from "@/lib/curation/lifecycle";
+import { applyTransition } from "@/lib/curation/transitions";
+import { depositNewDataset } from "@/lib/datasets/deposits";
+import { createUser, type UserDto } from "@/lib/users/queries";
 
 export const sql = postgres(databaseUrl(), { max: 3, onnotice: () => {} });
 
@@ -70,4 +73,59 @@ export function asDto(u: Partial<UserDto> & { id: number; role: UserDto["role"] 
     createdAt: new Date(),
     ...u,
   };
+}
+
+/** The people a per-role test acts as: the owner of the deposits, another researcher, a curator and an admin. */
+export interface RolePeople {
+  owner: UserDto;
+  other: UserDto;
+  curator: UserDto;
+  admin: UserDto;
+}
+
+/** Four new people for a per-role test, their e-mails tagged `<tag>-owner`, `<tag>-other`, … */
+export async function createRolePeople(tag: string): Promise<RolePeople> {
+  const mk = (who: string, role: UserDto["role"]) =>
+    createUser({ email: uniqueEmail(`${tag}-${who}`), name: `${tag}-${who}`, passwordHash: "x", role, verified: true });
+  const [owner, other, curator, admin] = await Promise.all([
+    mk("owner", "researcher"),
+    mk("other", "researcher"),
+    mk("curator", "curator"),
+    mk("admin", "admin"),
+  ]);
+  return { owner, other, curator, admin };
+}
+
+/** The transitions that bring a new deposit to each state: the owner submits, a curator does the rest. */
+export const WALKS_TO_STATE = {
+  draft: [],
+  submitted: ["submit"],
+  in_review: ["submit", "start_review"],
+  returned: ["submit", "start_review", "return"],
+  declined: ["submit", "decline"],
+  published: ["submit", "accept"],
+  retracted: ["submit", "accept", "retract"],
+} satisfies Record<string, Transition[]>;
+
+export type WalkState = keyof typeof WALKS_TO_STATE;
+
+/** Deposits `document` as `owner` and walks the new version to `state` (a curator decides, with a reason). */
+export async function depositInState({
+  owner,
+  curator,
+  document,
+  state,
+}: {
+  owner: UserDto;
+  curator: UserDto;
+  document: unknown;
+  state: WalkState;
+}) {
+  const v = await depositNewDataset({ actor: owner, document });
+  for (const t of WALKS_TO_STATE[state] as Transition[]) {
+    const byOwner = t === "submit";
+    const reason = t === "retract" ? "Retracted for the test: a calibration error." : byOwner ? undefined : "For the test.";
+    await applyTransition({ versionId: v.id, actorId: byOwner ? owner.id : curator.id, transition: t, reason });
+  }
+  return v;
 }

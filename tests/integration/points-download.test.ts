@@ -6,27 +6,17 @@ import Papa from "papaparse";
 import { GET as getCsv } from "@/app/api/v1/versions/[id]/points.csv/route";
 import { GET as getJson } from "@/app/api/v1/versions/[id]/points.json/route";
 import { getCurrentUser } from "@/lib/auth/session";
-import type { Transition } from "@/lib/curation/lifecycle";
-import { applyTransition } from "@/lib/curation/transitions";
-import { depositNewDataset } from "@/lib/datasets/deposits";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
-import { createUser, type UserDto } from "@/lib/users/queries";
-import { uniqueEmail } from "./helpers";
+import type { UserDto } from "@/lib/users/queries";
+import { createRolePeople, depositInState, uniqueEmail, type WalkState } from "./helpers";
 
 // N_A, CODATA 2018 (exact by the 2019 SI definition): k deposited per mole converts to per molecule.
 const AVOGADRO = 6.02214076e23;
 
 let owner: UserDto, other: UserDto, curator: UserDto, admin: UserDto;
 beforeAll(async () => {
-  const mk = (tag: string, role: UserDto["role"]) =>
-    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
-  [owner, other, curator, admin] = await Promise.all([
-    mk("points-owner", "researcher"),
-    mk("points-other", "researcher"),
-    mk("points-curator", "curator"),
-    mk("points-admin", "admin"),
-  ]);
+  ({ owner, other, curator, admin } = await createRolePeople("points"));
 });
 
 /** The example deposit with k in cm³ mol⁻¹ s⁻¹ (absolute uncertainties likewise), so deposited and canonical columns differ. */
@@ -43,24 +33,8 @@ function perMoleDocument(title: string) {
   return doc;
 }
 
-const walks: Record<string, Transition[]> = {
-  draft: [],
-  submitted: ["submit"],
-  in_review: ["submit", "start_review"],
-  returned: ["submit", "start_review", "return"],
-  declined: ["submit", "decline"],
-  published: ["submit", "accept"],
-  retracted: ["submit", "accept", "retract"],
-};
-
-async function versionIn(state: keyof typeof walks) {
-  const v = await depositNewDataset({ actor: owner, document: perMoleDocument(`Points download test (${state}) ${uniqueEmail("t")}`) });
-  for (const t of walks[state]) {
-    const byOwner = t === "submit";
-    const reason = t === "retract" ? "Retracted for the test: a calibration error." : byOwner ? undefined : "For the test.";
-    await applyTransition({ versionId: v.id, actorId: byOwner ? owner.id : curator.id, transition: t, reason });
-  }
-  return v;
+function versionIn(state: WalkState) {
+  return depositInState({ owner, curator, document: perMoleDocument(`Points download test (${state}) ${uniqueEmail("t")}`), state });
 }
 
 const as = (u: UserDto | null) => vi.mocked(getCurrentUser).mockResolvedValue(u);

@@ -6,7 +6,8 @@ import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset } from "@/lib/datasets/deposits";
 import { ENGINE_VERSION } from "@/lib/datasets/prepare";
-import { listStaleVersions, recordedEngineVersion, refitVersion } from "@/lib/datasets/refit";
+import { getRecordedEngineVersion } from "@/lib/datasets/queries";
+import { listStaleVersions, refitVersion } from "@/lib/datasets/refit";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { sql, uniqueEmail } from "./helpers";
@@ -45,7 +46,7 @@ describe("re-fitting after an engine change", () => {
   it("the database knows the current engine version, as the code does", async () => {
     expect(await sql`select engine_version from arrhenia_engine`).toEqual([{ engine_version: ENGINE_VERSION }]);
     // enqueueStaleRefits queues re-fits only while this holds (a database recording another engine would refuse them all).
-    expect(await recordedEngineVersion()).toBe(ENGINE_VERSION);
+    expect(await getRecordedEngineVersion()).toBe(ENGINE_VERSION);
   });
 
   it("adds a current analysis to stale versions, published ones included, and leaves current ones alone", async () => {
@@ -108,7 +109,7 @@ describe("re-fitting after an engine change", () => {
     expect(await enginesOf(v.id)).toEqual(["kinetics-0", ENGINE_VERSION]);
     expect(await sql`select engine_version from arrhenia_engine`).toEqual([{ engine_version: ENGINE_VERSION }]);
     // enqueueStaleRefits queues re-fits only while this holds (a database recording another engine would refuse them all).
-    expect(await recordedEngineVersion()).toBe(ENGINE_VERSION);
+    expect(await getRecordedEngineVersion()).toBe(ENGINE_VERSION);
     expect(await refitVersion({ versionId: v.id })).toBe("current");
   });
 });

@@ -91,7 +91,7 @@ describe("ResultTables labels", () => {
 
 describe("ResultTables residual spread", () => {
   // Invented points with stated σ(ln k) = 0.05, so the fit is weighted.
-  const weighted = analyseDataset({ points: points.map((p) => ({ ...p, sigmaLnK: 0.05 })), order: 2 });
+  const weighted = analyseDataset({ points: points.map((p) => ({ ...p, sigmaLnK: 0.2 })), order: 2 });
 
   it("names the weighted √(χ²/dof) as dimensionless and the SD of ln k residuals apart from it", () => {
     const html = render(weighted, "kJ mol-1");
@@ -112,5 +112,16 @@ describe("ResultTables residual spread", () => {
     expect(html).toMatch(/Typical distance of a point from the line <span[^>]*>\(SD of ln k residuals\)<\/span><\/td>/);
     expect(html).not.toContain("unweighted");
     expect(html).not.toContain("χ²/dof");
+  });
+
+  it("says under each weighted fit how its standard errors were made, and nothing for an unweighted fit", () => {
+    // The same invented points with a stated 20 % (χ²/dof far below 1) and 0.2 % (far above).
+    const loose = analyseDataset({ points: points.map((p) => ({ ...p, sigmaLnK: 0.2 })), order: 2 });
+    expect(loose.arrhenius.scaleFactor!).toBeLessThan(1);
+    expect(render(loose, "kJ mol-1")).toContain("Standard errors from the stated uncertainties, not reduced although √(χ²/dof) = ");
+    const tight = analyseDataset({ points: points.map((p) => ({ ...p, sigmaLnK: 0.002 })), order: 2 });
+    expect(tight.arrhenius.scaleFactor!).toBeGreaterThan(1);
+    expect(render(tight, "kJ mol-1")).toContain("Standard errors from the stated uncertainties, enlarged by √(χ²/dof) = ");
+    expect(render(analyseDataset({ points, order: 2 }), "kJ mol-1")).not.toContain("Standard errors from the stated uncertainties");
   });
 });

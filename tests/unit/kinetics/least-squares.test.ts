@@ -142,7 +142,7 @@ describe("cross-checks against general-purpose npm libraries", () => {
     expect(-result.arrhenius.params.Ea / GAS_CONSTANT / m).toBeCloseTo(1, 9);
   });
 
-  it.each([false, true])("ml-matrix pseudo-inverse and QR give the same covariance s²(XᵀWX)⁻¹ (weighted: %s)", (weighted) => {
+  it.each([false, true])("ml-matrix pseudo-inverse and QR give the same covariance s²(XᵀWX)⁻¹ (weighted: %s; s² ≥ 1 then)", (weighted) => {
     const points = makeArrheniusData(15, 11, weighted);
     const result = analyseDataset({ points, order: 2 });
     const sw = points.map((p) => ("sigmaLnK" in p ? 1 / (p.sigmaLnK as number) : 1));
@@ -152,7 +152,9 @@ describe("cross-checks against general-purpose npm libraries", () => {
     const pinv = pseudoInverse(X);
     const beta = pinv.mmul(y);
     const resid = y.clone().sub(X.mmul(beta));
-    const s2 = resid.transpose().mmul(resid).get(0, 0) / (points.length - 2);
+    const chi2Reduced = resid.transpose().mmul(resid).get(0, 0) / (points.length - 2);
+    // Weighted: the stated σ are a floor, s² = max(1, χ²/dof) (conventions.ts); unweighted s² = RSS/dof.
+    const s2 = weighted ? Math.max(1, chi2Reduced) : chi2Reduced;
     const cov = pinv.mmul(pinv.transpose()).mul(s2);
     const qrBeta = new QrDecomposition(X).solve(y);
     expect(result.arrhenius.params.lnA).toBeCloseTo(beta.get(0, 0), 8);
