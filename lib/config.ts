@@ -333,7 +333,7 @@ export function meilisearchConfig(): { host: string; apiKey: string | undefined;
 
 /** Records (or headers) in one OAI-PMH list response before a resumption token. */
 export function oaiPageSize(): number {
-  return read("OAI_PAGE_SIZE") ?? 100;
+  return read("OAI_PAGE_SIZE") ?? 50;
 }
 
 /** The address OAI-PMH's Identify names as the repository's administrator: OAI_ADMIN_EMAIL, else MAIL_FROM's address. */
