@@ -12,7 +12,6 @@ import {
   timestamp,
   uniqueIndex,
 } from "drizzle-orm/pg-core";
-import { sql } from "drizzle-orm";
 import { recordedAt } from "./recorded-at";
 import { reactions } from "./chemistry";
 import { users } from "./users";
@@ -141,10 +140,6 @@ export const datasetVersions = pgTable(
     index("dataset_versions_reaction_idx").on(t.reactionId),
     // The versions that name a species (participant_names @> [{"speciesId": …}]), for its display name.
     index("dataset_versions_participant_names_idx").using("gin", t.participantNames.op("jsonb_path_ops")),
-    // OAI-PMH lists public versions by datestamp (when a version became public or was retracted), keyset-paged with the id.
-    index("dataset_versions_oai_datestamp_idx")
-      .on(sql`coalesce(${t.retractedAt}, ${t.publishedAt})`, t.id)
-      .where(sql`${t.state} in ('published', 'retracted')`),
   ],
 );
 

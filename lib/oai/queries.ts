@@ -9,12 +9,14 @@ import { classOf } from "@/lib/reactions/public-queries";
 /**
  * What OAI-PMH harvests: every public version (published, or retracted — then a deleted record),
  * never a draft, a submission, a returned or a declined one. A record's datestamp is when its
- * version became public or, once retracted, when it was retracted; lists run in (datestamp, id)
- * order and page by keyset on the partial index of drizzle/0028.
+ * record last changed (oai_record_datestamps, kept by the trigger of drizzle/0028: its publication,
+ * the publication of the version just before or after it, its retraction); lists run in
+ * (datestamp, id) order and page by keyset on that table's index.
  */
 
-/** The datestamp as the index holds it (drizzle/0028: the same expression and predicate). */
-const DATESTAMP = sql`coalesce(v.retracted_at, v.published_at)`;
+const DATESTAMP = sql`r.changed_at`;
+/** Every public version, with its datestamp as `r`. */
+const RECORDS = sql`dataset_versions v join oai_record_datestamps r on r.version_id = v.id`;
 const PUBLIC = sql`v.state in ('published', 'retracted') and v.version_identifier is not null`;
 
 export interface OaiHeaderRow {
@@ -70,31 +72,31 @@ export async function listOaiHeaders({
   after: { at: string; id: number } | null;
   limit: number;
 }): Promise<OaiHeaderRow[]> {
-  const keyset = after ? sql` and (${DATESTAMP}, v.id) > (${after.at}::timestamptz, ${after.id})` : sql``;
+  const keyset = after ? sql` and (r.changed_at, r.version_id) > (${after.at}::timestamptz, ${after.id})` : sql``;
   const rows = await getDb().execute<HeaderSqlRow>(sql`
-    select ${HEADER_COLUMNS} from dataset_versions v
+    select ${HEADER_COLUMNS} from ${RECORDS}
     where ${filterSql(filter)}${keyset}
-    order by ${DATESTAMP}, v.id limit ${limit}`);
+    order by r.changed_at, r.version_id limit ${limit}`);
   return rows.map(toHeader);
 }
 
 /** How many records the whole list holds (§3.5.1 completeListSize). */
 export async function countOaiHeaders({ filter }: { filter: OaiListFilter }): Promise<number> {
-  const [row] = await getDb().execute<{ n: number }>(sql`select count(*)::int as n from dataset_versions v where ${filterSql(filter)}`);
+  const [row] = await getDb().execute<{ n: number }>(sql`select count(*)::int as n from ${RECORDS} where ${filterSql(filter)}`);
   return Number(row?.n ?? 0);
 }
 
 /** The header of one public version by its version identifier, or null (unknown, or not public). */
 export async function getOaiHeader({ identifier }: { identifier: string }): Promise<OaiHeaderRow | null> {
   const [row] = await getDb().execute<HeaderSqlRow>(sql`
-    select ${HEADER_COLUMNS} from dataset_versions v where ${PUBLIC} and v.version_identifier = ${identifier}`);
+    select ${HEADER_COLUMNS} from ${RECORDS} where ${PUBLIC} and v.version_identifier = ${identifier}`);
   return row ? toHeader(row) : null;
 }
 
 /** The oldest datestamp of any record (Identify's earliestDatestamp), or null while none is public. */
 export async function getOaiEarliestDatestamp(): Promise<Date | null> {
   const [row] = await getDb().execute<{ earliest: Date | string | null }>(sql`
-    select min(${DATESTAMP}) as earliest from dataset_versions v where ${PUBLIC}`);
+    select min(${DATESTAMP}) as earliest from ${RECORDS} where ${PUBLIC}`);
   return row?.earliest ? new Date(row.earliest) : null;
 }
 

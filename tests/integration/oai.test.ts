@@ -7,7 +7,7 @@ import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { GET, POST } from "@/app/oai/route";
 import type { Transition } from "@/lib/curation/lifecycle";
 import { applyTransition } from "@/lib/curation/transitions";
-import { depositNewDataset } from "@/lib/datasets/deposits";
+import { depositNewDataset, startNextVersion } from "@/lib/datasets/deposits";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits/example";
 import { REACTION_CLASSES } from "@/lib/deposits/vocabulary";
 import { buildDataciteXml } from "@/lib/identifiers/datacite";
@@ -86,10 +86,13 @@ async function datasetIn(state: string, reactionClass = "hydrogen-abstraction") 
 
 const host = () => new URL(process.env.APP_URL!).hostname;
 const oaiId = (versionIdentifier: string) => `oai:${host()}:${versionIdentifier}`;
-const datestampOf = async (versionId: number) => {
-  const [row] = await sql<{ d: Date }[]>`select coalesce(retracted_at, published_at) as d from dataset_versions where id = ${versionId}`;
-  return row.d.toISOString().replace(/\.\d{3}Z$/, "Z");
+/** The exact datestamp the database keeps for a version's record (drizzle/0028). */
+const changedAt = async (versionId: number) => {
+  const [row] = await sql<{ d: Date }[]>`select changed_at as d from oai_record_datestamps where version_id = ${versionId}`;
+  return row?.d ?? null;
 };
+const atSeconds = (d: Date) => d.toISOString().replace(/\.\d{3}Z$/, "Z");
+const datestampOf = async (versionId: number) => atSeconds((await changedAt(versionId))!);
 const shift = (stamp: string, seconds: number) => new Date(Date.parse(stamp) + seconds * 1000).toISOString().replace(/\.\d{3}Z$/, "Z");
 
 beforeAll(async () => {
@@ -116,8 +119,7 @@ describe("Identify (§4.2)", () => {
     expect(id.deletedRecord).toBe("persistent");
     expect(id.granularity).toBe("YYYY-MM-DDThh:mm:ssZ");
     // §4.2 earliestDatestamp: a lower bound of every datestamp in the repository.
-    const [{ min }] = await sql<{ min: Date }[]>`
-      select min(coalesce(retracted_at, published_at)) as min from dataset_versions where state in ('published', 'retracted')`;
+    const [{ min }] = await sql<{ min: Date }[]>`select min(changed_at) as min from oai_record_datestamps`;
     expect(Date.parse(id.earliestDatestamp)).toBeLessThanOrEqual(min.getTime());
     expect(id.earliestDatestamp).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}Z$/);
     // §3.2 request: the verb echoed, the base URL as its text.
@@ -398,6 +400,81 @@ describe("ListIdentifiers (§4.3) and ListRecords (§4.5) with resumption (§3.5
     expect(errorCodes((await get(`verb=ListIdentifiers&resumptionToken=${encodeURIComponent(token)}`)).root)).toEqual([
       "badResumptionToken",
     ]);
+  });
+});
+
+describe("datestamps move when a record changes (§2.7.1: the date of creation, modification or deletion)", () => {
+  /** Waits until the clock is in a later second than `d` (datestamps are compared at seconds). */
+  const nextSecond = async (d: Date) => {
+    const wait = Math.floor(d.getTime() / 1000) * 1000 + 1000 - Date.now();
+    if (wait > 0) await new Promise((resolve) => setTimeout(resolve, wait + 20));
+  };
+  const publish = async (versionId: number, reply?: string) => {
+    await applyTransition({ versionId, actorId: owner.id, transition: "submit", reply });
+    await applyTransition({ versionId, actorId: curator.id, transition: "accept", reason: "For the test." });
+  };
+  const relationsOf = async (identifier: string, from: string) => {
+    process.env.OAI_PAGE_SIZE = "10000";
+    const { root } = await get(`verb=ListRecords&metadataPrefix=oai_datacite&set=elimination&from=${from}`);
+    const record = ((root.ListRecords?.record ?? []) as Node[]).find((r) => r.header[0].identifier === oaiId(identifier));
+    if (!record) return null;
+    const related = record.metadata.resource.relatedIdentifiers.relatedIdentifier as Node | Node[];
+    return (Array.isArray(related) ? related : [related]).map((r) => `${r["@relationType"]} ${r["#text"]}`);
+  };
+
+  it("publishing v2 moves v1's datestamp: a harvest from that moment gets v1 again, with its link to v2", async () => {
+    const v1 = await datasetIn("published", "elimination");
+    const first = (await changedAt(v1.versionId))!;
+    const [{ published_at }] = await sql<{ published_at: Date }[]>`select published_at from dataset_versions where id = ${v1.versionId}`;
+    expect(first).toEqual(published_at);
+    await nextSecond(first);
+    const v2 = await startNextVersion({ actor: owner, versionId: v1.versionId });
+    // A draft, a submission, a return and a declined version change no record.
+    await applyTransition({ versionId: v2.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v2.id, actorId: curator.id, transition: "return", reason: "For the test." });
+    expect(await changedAt(v1.versionId)).toEqual(first);
+    expect(await changedAt(v2.id)).toBeNull();
+    await publish(v2.id, "Resubmitted as it was.");
+    const [v2Row] = await sql<{ published_at: Date; version_identifier: string }[]>`
+      select published_at, version_identifier from dataset_versions where id = ${v2.id}`;
+    expect(await changedAt(v2.id)).toEqual(v2Row.published_at);
+    expect(await changedAt(v1.versionId)).toEqual(v2Row.published_at);
+    // A harvester that last came just after v1's publication gets v1 again, now naming v2.
+    const since = atSeconds(v2Row.published_at);
+    expect(since > atSeconds(first)).toBe(true);
+    expect(await relationsOf(v1.identifier!, since)).toContain(`IsPreviousVersionOf ${v2Row.version_identifier}`);
+    expect(await relationsOf(v2Row.version_identifier, since)).toContain(`IsNewVersionOf ${v1.identifier}`);
+
+    // A third version declined, and v2's retraction, leave v1's record as it is (v2 keeps its identifier and the link).
+    await nextSecond(v2Row.published_at);
+    const v3 = await startNextVersion({ actor: owner, versionId: v2.id });
+    await applyTransition({ versionId: v3.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v3.id, actorId: curator.id, transition: "decline", reason: "For the test." });
+    await applyTransition({ versionId: v2.id, actorId: curator.id, transition: "retract", reason: "Retracted for the test." });
+    const [{ retracted_at }] = await sql<{ retracted_at: Date }[]>`select retracted_at from dataset_versions where id = ${v2.id}`;
+    expect(await changedAt(v2.id)).toEqual(retracted_at);
+    expect(await changedAt(v1.versionId)).toEqual(v2Row.published_at);
+    expect(await changedAt(v3.id)).toBeNull();
+    expect(await relationsOf(v1.identifier!, since)).toContain(`IsPreviousVersionOf ${v2Row.version_identifier}`);
+
+    // v1's own retraction moves it, and it is listed from then on as a deleted record.
+    await nextSecond(retracted_at);
+    await applyTransition({ versionId: v1.versionId, actorId: curator.id, transition: "retract", reason: "Retracted for the test." });
+    const [{ retracted_at: v1Retracted }] = await sql<{ retracted_at: Date }[]>`select retracted_at from dataset_versions where id = ${v1.versionId}`;
+    expect(await changedAt(v1.versionId)).toEqual(v1Retracted);
+    process.env.OAI_PAGE_SIZE = "10000";
+    const { root } = await get(`verb=ListIdentifiers&metadataPrefix=oai_dc&set=elimination&from=${atSeconds(v1Retracted)}`);
+    const header = (root.ListIdentifiers.header as Node[]).find((h) => h.identifier === oaiId(v1.identifier!));
+    expect(header).toMatchObject({ "@status": "deleted", datestamp: atSeconds(v1Retracted) });
+  }, 60_000);
+
+  it("the runtime role cannot write a datestamp (only the trigger of a change of state does)", async () => {
+    const id = made.published.versionId;
+    await expect(sql`update oai_record_datestamps set changed_at = now() where version_id = ${id}`).rejects.toThrow(/permission denied/);
+    await expect(sql`delete from oai_record_datestamps where version_id = ${id}`).rejects.toThrow(/permission denied/);
+    await expect(sql`insert into oai_record_datestamps (version_id, changed_at) values (${made.draft.versionId}, now())`).rejects.toThrow(
+      /permission denied/,
+    );
   });
 });
 

@@ -1,1 +1,0 @@
-CREATE INDEX "dataset_versions_oai_datestamp_idx" ON "dataset_versions" USING btree (coalesce("retracted_at", "published_at"),"id") WHERE "dataset_versions"."state" in ('published', 'retracted');
