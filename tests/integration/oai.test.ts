@@ -460,7 +460,9 @@ describe("datestamps move when a record changes (§2.7.1: the date of creation, 
     // v1's own retraction moves it, and it is listed from then on as a deleted record.
     await nextSecond(retracted_at);
     await applyTransition({ versionId: v1.versionId, actorId: curator.id, transition: "retract", reason: "Retracted for the test." });
-    const [{ retracted_at: v1Retracted }] = await sql<{ retracted_at: Date }[]>`select retracted_at from dataset_versions where id = ${v1.versionId}`;
+    const [{ retracted_at: v1Retracted }] = await sql<
+      { retracted_at: Date }[]
+    >`select retracted_at from dataset_versions where id = ${v1.versionId}`;
     expect(await changedAt(v1.versionId)).toEqual(v1Retracted);
     process.env.OAI_PAGE_SIZE = "10000";
     const { root } = await get(`verb=ListIdentifiers&metadataPrefix=oai_dc&set=elimination&from=${atSeconds(v1Retracted)}`);
