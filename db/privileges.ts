@@ -17,6 +17,8 @@ const WITHHELD: Record<string, string> = {
   identifier_registrations: "DELETE",
   // The current engine version (drizzle/0013): written by the owner only, read by the re-fit function.
   arrhenia_engine: "INSERT, UPDATE, DELETE",
+  // OAI-PMH datestamps (drizzle/0028): written only by the trigger on a version's change of state.
+  oai_record_datestamps: "INSERT, UPDATE, DELETE",
 };
 
 /** Functions that run as the schema owner and that the runtime role may call (each checks its own rule). */

@@ -10,3 +10,4 @@ export * from "./idempotency";
 export * from "./consensus";
 export * from "./search";
 export * from "./search-outbox";
+export * from "./oai";

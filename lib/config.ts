@@ -79,6 +79,8 @@ const variables = {
   MEILISEARCH_API_KEY: { schema: z.string(), secret: true },
   SEARCH_CURSOR_SECRET: { schema: z.string().min(16, "must be at least 16 characters"), secret: true },
   MEILISEARCH_INDEX: { schema: z.string().regex(/^[A-Za-z0-9_-]{1,400}$/, "must be letters, digits, - or _") },
+  OAI_PAGE_SIZE: { schema: wholeNumber(1, 10_000) },
+  OAI_ADMIN_EMAIL: { schema: z.email("must be an e-mail address") },
   ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
 } satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
 
@@ -327,4 +329,17 @@ export function searchCursorSecret(): string {
 export function meilisearchConfig(): { host: string; apiKey: string | undefined; index: string } | null {
   const host = meilisearchUrl();
   return host ? { host, apiKey: meilisearchApiKey(), index: read("MEILISEARCH_INDEX") ?? "datasets" } : null;
+}
+
+/** Records (or headers) in one OAI-PMH list response before a resumption token. */
+export function oaiPageSize(): number {
+  return read("OAI_PAGE_SIZE") ?? 50;
+}
+
+/** The address OAI-PMH's Identify names as the repository's administrator: OAI_ADMIN_EMAIL, else MAIL_FROM's address. */
+export function oaiAdminEmail(): string {
+  const configured = read("OAI_ADMIN_EMAIL");
+  if (configured) return configured;
+  const from = mailFrom();
+  return /<([^>]+)>/.exec(from)?.[1] ?? from.trim();
 }

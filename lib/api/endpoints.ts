@@ -8,6 +8,7 @@ import {
   searchExportQuerySchema,
   versionParametersQuerySchema,
 } from "@/lib/exports/requests";
+import { OAI_VERBS } from "@/lib/oai/protocol";
 import { searchParameterSchemas } from "@/lib/search/params";
 import { userPatchSchema, type ApiTokenScope } from "@/lib/users/schemas";
 
@@ -36,7 +37,8 @@ export interface Endpoint {
   scope: ApiTokenScope | null;
   /** Who may call it, in words (the published table's third column). */
   who: string;
-  tag: "Datasets" | "Reactions and species" | "Search" | "Deposits" | "Analysis" | "Citation" | "Files" | "People" | "Document";
+  tag:
+    "Datasets" | "Reactions and species" | "Search" | "Deposits" | "Analysis" | "Citation" | "Harvesting" | "Files" | "People" | "Document";
   summary: string;
   description?: string;
   /** Example values of the path's parameters, for the examples. */
@@ -557,6 +559,37 @@ export const API_ENDPOINTS: Endpoint[] = [
     body: { contentType: JSON_TYPE, schema: userPatchSchema, description: "role and/or active.", example: '{"role": "curator"}' },
     ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { … the person } }" },
     errors: [403, 404, 422],
+  },
+  // ---- harvesting (OAI-PMH 2.0; arguments read by lib/oai/protocol.ts, answers are protocol XML, errors included) ----
+  {
+    method: "GET",
+    path: "/oai",
+    scope: null,
+    who: "anyone; published versions only (retracted ones as deleted records)",
+    tag: "Harvesting",
+    summary: "OAI-PMH 2.0 repository: Identify, ListMetadataFormats, ListSets, ListIdentifiers, ListRecords, GetRecord",
+    query: [
+      { name: "verb", schema: z.enum(OAI_VERBS), example: "ListRecords" },
+      { name: "metadataPrefix", schema: z.enum(["oai_dc", "oai_datacite"]), example: "oai_datacite" },
+      { name: "identifier", schema: z.string(), description: "oai:<host>:<version identifier>" },
+      { name: "set", schema: z.string(), description: "A reaction class id (ListSets names them)." },
+      { name: "from", schema: z.string(), description: "YYYY-MM-DD or YYYY-MM-DDThh:mm:ssZ, inclusive." },
+      { name: "until", schema: z.string(), description: "YYYY-MM-DD or YYYY-MM-DDThh:mm:ssZ, inclusive." },
+      { name: "resumptionToken", schema: z.string(), description: "From the previous page; alone with the verb." },
+    ],
+    ok: { status: 200, contentType: "text/xml", description: "An OAI-PMH response; protocol errors are error elements in it." },
+    errors: [],
+  },
+  {
+    method: "POST",
+    path: "/oai",
+    scope: null,
+    who: "anyone; published versions only (retracted ones as deleted records)",
+    tag: "Harvesting",
+    summary: "The same OAI-PMH requests, the arguments in a form-encoded body",
+    body: { contentType: "application/x-www-form-urlencoded", description: "The arguments of the GET form, e.g. verb=Identify." },
+    ok: { status: 200, contentType: "text/xml", description: "An OAI-PMH response; protocol errors are error elements in it." },
+    errors: [413],
   },
   // ---- this document ----
   {

@@ -153,7 +153,9 @@ export class ActionBodyGuard {
 }
 
 /**
- * Whether a request goes to the REST API / next-auth (under /api/). Next resolves dot segments
+ * Whether a request goes to a route handler that takes posts from anywhere and authenticates on its
+ * own: the REST API and next-auth (under /api/), and the OAI-PMH repository (/oai: public,
+ * read-only, no cookie used; harvesters may POST its arguments, §3.1.1.2). Next resolves dot segments
  * ("%2e" and "\\" included) and repeated slashes before routing, so "/api/%2e%2e/admin" is the
  * page /admin: a path with a dot segment, an encoded dot, slash or backslash, a backslash or "//"
  * is never counted as the API, whatever it starts with; it gets every check a page gets.
@@ -161,7 +163,7 @@ export class ActionBodyGuard {
 export function isApiPath(url: string | undefined): boolean {
   const raw = (url ?? "/").split("?")[0];
   if (/%2e|%2f|%5c|\\|\/\//i.test(raw) || /(^|\/)\.\.?(\/|$)/.test(raw)) return false;
-  return raw.startsWith("/api/");
+  return raw.startsWith("/api/") || raw === "/oai";
 }
 
 /** The path of a request as Next routes it (dot segments resolved, backslashes read as slashes). */

@@ -60,8 +60,8 @@ export function isCrossOriginPagePost(
   { appOrigin, peerAddress, ownPort }: { appOrigin: string; peerAddress: string | undefined; ownPort?: number },
 ): boolean {
   if (!method || ["GET", "HEAD", "OPTIONS"].includes(method)) return false;
-  // The REST API and next-auth's endpoints authenticate (bearer tokens, CSRF tokens) on their own;
-  // a server action is checked whatever path it is sent to.
+  // The REST API and next-auth's endpoints authenticate (bearer tokens, CSRF tokens) on their own,
+  // and /oai is public and read-only; a server action is checked whatever path it is sent to.
   if (isApiPath(url) && headers["next-action"] === undefined) return false;
   // Browsers send Origin with every POST; a server action without it (and without a same-origin
   // Referer) proves nothing about where it came from.

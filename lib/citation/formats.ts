@@ -80,11 +80,25 @@ export function styleItem(item: CslItem, style: CitationStyleId): CslItem {
   return Object.keys(changes).length ? { ...item, ...changes } : item;
 }
 
+/**
+ * Formatted references already made, by style and item (the text is a function of the two alone, so
+ * nothing ever invalidates an entry): citeproc takes several ms per reference, and a harvest page,
+ * a version's DataCite record and its registration format the same source reference again and again.
+ */
+const formatted = new Map<string, string>();
+const FORMATTED_KEPT = 5000;
+
 /** A formatted reference, as plain text, in one of the four styles (no list number or trailing newline). */
 export function formatReference(item: CslItem, style: CitationStyleId): string {
+  const key = `${style}\n${JSON.stringify(item)}`;
+  const kept = formatted.get(key);
+  if (kept !== undefined) return kept;
   const text = new Cite(styleItem(item, style)).format("bibliography", { format: "text", template: templateName(style), lang: "en-US" });
   // Numeric styles number the one entry ("1. ", "(1) "): a single reference stands on its own.
-  return text.trim().replace(/^(\(1\)|\[1\]|1\.)\s+/, "");
+  const value = text.trim().replace(/^(\(1\)|\[1\]|1\.)\s+/, "");
+  if (formatted.size >= FORMATTED_KEPT) formatted.delete(formatted.keys().next().value!);
+  formatted.set(key, value);
+  return value;
 }
 
 /**

@@ -374,6 +374,9 @@ function asString(value: unknown): string | null {
   return typeof value === "string" && value.trim() ? value.trim() : null;
 }
 
+/** An xmlbuilder2 node (the package exports no name for its type). */
+export type XmlNode = ReturnType<typeof create>;
+
 const KERNEL_NS = "http://datacite.org/schema/kernel-4";
 const XSI_NS = "http://www.w3.org/2001/XMLSchema-instance";
 const KERNEL_SCHEMA = "http://schema.datacite.org/meta/kernel-4/metadata.xsd";
@@ -393,10 +396,21 @@ export function xmlBuilderText(text: string): string {
  * location), built with xmlbuilder2; every text and attribute passes through xmlBuilderText first.
  */
 export function buildDataciteXml(attributes: DataciteAttributes): string {
+  const doc = create({ version: "1.0", encoding: "UTF-8" });
+  appendDataciteResource(doc, attributes);
+  return doc.end({ prettyPrint: true }) + "\n";
+}
+
+/** The DataCite kernel-4 namespace and its schema, as an OAI-PMH metadata format declares them. */
+export const DATACITE_KERNEL = { namespace: KERNEL_NS, schema: KERNEL_SCHEMA } as const;
+
+/**
+ * Appends the `resource` element of these attributes under `parent` (a document, or an element of
+ * another document such as an OAI-PMH record's `metadata`): the one place the XML is built.
+ */
+export function appendDataciteResource(parent: XmlNode, attributes: DataciteAttributes): XmlNode {
   const a = mapStrings(attributes, xmlBuilderText);
-  const root = create({ version: "1.0", encoding: "UTF-8" })
-    .ele(KERNEL_NS, "resource")
-    .att(XSI_NS, "xsi:schemaLocation", `${KERNEL_NS} ${KERNEL_SCHEMA}`);
+  const root = parent.ele(KERNEL_NS, "resource").att(XSI_NS, "xsi:schemaLocation", `${KERNEL_NS} ${KERNEL_SCHEMA}`);
   root.ele("identifier", { identifierType: "DOI" }).txt(a.doi);
   const creators = root.ele("creators");
   for (const c of a.creators) {
@@ -453,5 +467,5 @@ export function buildDataciteXml(attributes: DataciteAttributes): string {
       if (f.awardTitle) el.ele("awardTitle").txt(f.awardTitle);
     }
   }
-  return root.end({ prettyPrint: true }) + "\n";
+  return root;
 }

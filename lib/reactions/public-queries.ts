@@ -13,7 +13,7 @@ import { classTag, datasetTag, PUBLIC_TAG, reactionTag, SEARCH_TAG, speciesTag }
  */
 
 /** The reaction class a stored document names, with retired ids read as their current ones. */
-const classOf = (payload: SQL) => {
+export const classOf = (payload: SQL) => {
   const raw = sql`(${payload} -> 'reaction' ->> 'class')`;
   const retired = Object.entries(RETIRED_REACTION_CLASS_IDS).map(([old, current]) => sql`when ${old} then ${current}`);
   return sql`(case ${raw} ${sql.join(retired, sql` `)} else ${raw} end)`;

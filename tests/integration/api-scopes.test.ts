@@ -36,6 +36,7 @@ import * as pointsCsv from "@/app/api/v1/versions/[id]/points.csv/route";
 import * as pointsJson from "@/app/api/v1/versions/[id]/points.json/route";
 import * as version from "@/app/api/v1/versions/[id]/route";
 import * as transitions from "@/app/api/v1/versions/[id]/transitions/route";
+import * as oai from "@/app/oai/route";
 import { createTokenAction } from "@/app/settings/actions";
 import { idleState } from "@/lib/auth/action-state";
 import type { ApiOptions } from "@/lib/auth/api";
@@ -78,6 +79,7 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/versions/:id/points.json": pointsJson,
   "/api/v1/versions/:id": version,
   "/api/v1/versions/:id/transitions": transitions,
+  "/oai": oai,
 };
 
 let admin: UserDto, researcher: UserDto, subject: UserDto;

@@ -425,6 +425,14 @@ export default function ApiDocsPage() {
             app’s own connection pool, with its round-trip time), or 503 when that query fails or takes over 2 s.
           </li>
           <li>
+            <code>GET</code> or <code>POST /oai</code> — harvesting by OAI-PMH 2.0 (POST with an{" "}
+            <code>application/x-www-form-urlencoded</code> body): every published version is one record,{" "}
+            <code>oai:&lt;host&gt;:&lt;version identifier&gt;</code>, in <code>oai_dc</code> or <code>oai_datacite</code> (the DataCite
+            metadata of <code>datacite.xml</code>); sets are the reaction classes; <code>from</code>/<code>until</code> at day or second
+            granularity, both inclusive; a retracted version stays as a deleted record dated when it was retracted; lists come a page at a
+            time with a signed resumption token that expires after a day. Start with <code>{`${appUrl()}/oai?verb=Identify`}</code>.
+          </li>
+          <li>
             <code>GET /api/v1/users</code> — everyone with an account (admins).
           </li>
           <li>

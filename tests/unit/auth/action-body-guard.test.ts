@@ -110,6 +110,10 @@ describe("isApiPath / pagePath", () => {
     expect(isApiPath("/api/v1/versions/a.b")).toBe(true);
     expect(isApiPath("/api/%2e%2e/admin/people")).toBe(false);
     expect(isApiPath("/apix")).toBe(false);
+    // OAI-PMH's route handler (public, read-only) is one too, by its exact path.
+    expect(isApiPath("/oai")).toBe(true);
+    expect(isApiPath("/oai?verb=Identify")).toBe(true);
+    expect(isApiPath("/oai/x")).toBe(false);
   });
   it("pagePath resolves dot segments as Next routes them", () => {
     expect(pagePath("/api/%2e%2e/deposits/new")).toBe("/deposits/new");

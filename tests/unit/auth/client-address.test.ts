@@ -130,6 +130,15 @@ describe("cross-origin page posts (server actions)", () => {
     expect(isCrossOriginPagePost("GET", "/settings", h({ origin: "https://evil.example" }), app)).toBe(false);
     expect(isCrossOriginPagePost("POST", "/api/v1/analyses", h({ origin: "https://evil.example" }), app)).toBe(false);
   });
+  it("the OAI-PMH repository takes a harvester's POST from any origin (public, read-only); a server action sent there does not pass", async () => {
+    const form = { origin: "https://harvester.example", "content-type": "application/x-www-form-urlencoded" };
+    expect(isCrossOriginPagePost("POST", "/oai", h(form), app)).toBe(false);
+    expect(isCrossOriginPagePost("POST", "/oai?verb=Identify", h(form), app)).toBe(false);
+    expect(isCrossOriginPagePost("POST", "/oai", h({ ...form, "next-action": "abc" }), app)).toBe(true);
+    // Only /oai itself: a page whose path merely starts so, or reached through dot segments, is a page.
+    for (const url of ["/oai/../settings", "/oaix", "/oai/%2e%2e/settings"])
+      expect(isCrossOriginPagePost("POST", url, h(form), app), url).toBe(true);
+  });
   it("a page reached through /api/ with dot segments is a page", () => {
     for (const url of ["/api/%2e%2e/admin/people", "/api/../admin/people", "/api\\..\\admin"])
       expect(isCrossOriginPagePost("POST", url, h({ origin: "https://evil.example" }), app)).toBe(true);

@@ -121,6 +121,19 @@ describe("bodies that are not what their headers say, at the front server", () =
     expect(reached).toBe(before);
   });
 
+  it("a harvester's form-encoded POST to /oai from another origin reaches the app; a page posted from there is refused", async () => {
+    const body = "verb=Identify";
+    const post = (path: string) =>
+      `POST ${path} HTTP/1.1\r\nHost: 127.0.0.1\r\nOrigin: https://harvester.example\r\nContent-Type: application/x-www-form-urlencoded\r\nContent-Length: ${body.length}\r\nConnection: close\r\n\r\n${body}`;
+    const before = reached;
+    const { answer } = await raw(post("/oai"));
+    expect(statusOf(answer)).toBe(200);
+    expect(answer).toMatch(/\{"bytes":13\}/);
+    expect(reached).toBe(before + 1);
+    expect(statusOf((await raw(post("/settings"))).answer)).toBe(403);
+    expect(reached).toBe(before + 1);
+  });
+
   it("declaresBody", () => {
     expect(declaresBody({ "content-length": "5" })).toBe(true);
     expect(declaresBody({ "content-length": "0" })).toBe(false);
