@@ -1,7 +1,8 @@
 // Next's production server on the private loopback port behind the front server, in place of
 // `next start`: Next's own request handler, reached only through the gate of lib/auth/inner-gate.ts
-// (the front server's per-start key, ARRHENIA_EDGE_KEY, or 403). No proxy.ts: with one, Next would
-// buffer every body whole (see DEVELOPERS.md). Started by scripts/serve.ts with the port as argument.
+// (the front server's per-start key, ARRHENIA_EDGE_KEY, or 403), not in proxy.ts: a request the proxy
+// runs on has its body buffered whole, so proxy.ts's matcher never takes one with a body (DEVELOPERS.md).
+// Started by scripts/serve.ts with the port as argument.
 import http from "node:http";
 import { INNER_GATE_MARK } from "@/lib/auth/client-address";
 import { innerGate, innerGateUpgrade } from "@/lib/auth/inner-gate";
