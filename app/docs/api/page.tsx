@@ -242,10 +242,11 @@ export default function ApiDocsPage() {
           200 with <code>{"{ query, parsed, understood, total, hits, facets, nextCursor, caution }"}</code>: <code>parsed</code> says in
           words what the text was understood as, <code>understood</code> the same as data; <code>total</code> counts datasets (or reactions)
           before paging; each dataset hit has its version, identifier, title, equation, reaction key, class, method, temperature range,
-          points, the re-fit&apos;s <code>ea</code> (J mol⁻¹) and <code>a</code> (in <code>aUnit</code>), flags, creators and publication
-          time; <code>facets</code> counts values of {SEARCH_FACETS.join(", ")} over the matches with every other facet&apos;s filter
-          applied. Any parameter that cannot be read — an unknown one included — is 400 (<code>bad_request</code>) with an{" "}
-          <code>errors</code> list naming each <code>parameter</code>, as for the consensus below.
+          points, the re-fit&apos;s <code>ea</code> (J mol⁻¹) and <code>a</code> (in <code>aUnit</code>, written as files write units:{" "}
+          <code>cm3 molecule-1 s-1</code>), flags, creators and publication time; <code>facets</code> counts values of{" "}
+          {SEARCH_FACETS.join(", ")} over the matches with every other facet&apos;s filter applied. Any parameter that cannot be read — an
+          unknown one included — is 400 (<code>bad_request</code>) with an <code>errors</code> list naming each <code>parameter</code>, as
+          for the consensus below.
         </p>
         <h3 className="font-semibold">GET /api/v1/search/suggest?q=</h3>
         <p className="text-sm">
