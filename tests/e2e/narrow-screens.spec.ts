@@ -181,3 +181,35 @@ for (const [name, size] of [
     expect(problems).toEqual([]);
   });
 }
+
+test("the API reference is folded on a phone: every endpoint listed, each opens without JavaScript, axe clean open", async ({
+  browser,
+}) => {
+  const context = await browser.newContext({ viewport: PHONE, javaScriptEnabled: false });
+  const page = await context.newPage();
+  try {
+    await page.goto("/docs/api");
+    // Folded, the page is a list of endpoints: a few screens, not tens of thousands of pixels.
+    const folded = await page.evaluate(() => document.documentElement.scrollHeight);
+    expect(folded).toBeLessThan(16_000);
+    const openapi = await (await page.request.get("/api/v1/openapi.json")).json();
+    const operations = Object.values(openapi.paths as Record<string, Record<string, unknown>>).flatMap((m) => Object.keys(m)).length;
+    const endpoints = page.locator("details[id^='op-']");
+    await expect(endpoints).toHaveCount(operations);
+    // A summary opens its endpoint (no script on the page), and the examples inside open the same way.
+    const species = page.locator("#op-getSpeciesByInchikey");
+    await species.locator(":scope > summary").click();
+    await expect(species).toHaveAttribute("open", "");
+    await expect(species.getByText(/matching \^\[A-Z\]\{14\}/)).toBeVisible();
+    await species.locator("details > summary").click();
+    await expect(species.getByText(/curl -s/)).toBeVisible();
+    // Every endpoint open at once: still no wider than the phone and no serious axe finding.
+    await page.evaluate(() => document.querySelectorAll("details").forEach((d) => d.setAttribute("open", "")));
+    expect(await widthAndAxeProblems(page, "/docs/api (every endpoint open)")).toEqual([]);
+    console.log(
+      `/docs/api on a 390 px phone: ${folded} px folded, ${await page.evaluate(() => document.documentElement.scrollHeight)} px open`,
+    );
+  } finally {
+    await context.close();
+  }
+});

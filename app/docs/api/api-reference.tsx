@@ -58,80 +58,93 @@ function BreakablePath({ path }: { path: string }) {
   ));
 }
 
+/**
+ * One endpoint, folded to its method, path and summary (details/summary: opens without JavaScript,
+ * and a link to `#op-…` opens it); its examples fold again inside it.
+ */
 function OperationBlock({ method, path, op }: { method: string; path: string; op: Operation }) {
   const headingId = `op-${op.operationId}`;
   return (
-    <section className="space-y-2 border-t border-line pt-4" aria-labelledby={headingId}>
-      <h4 id={headingId} className="font-semibold [overflow-wrap:anywhere]">
-        <code>
-          {method.toUpperCase()} <BreakablePath path={path} />
-        </code>
-      </h4>
-      <p className="text-sm">
-        <Inline text={op.summary} />.
-      </p>
-      <p className="text-sm text-muted">
-        <Inline text={op.description} />
-      </p>
-      {op.parameters && op.parameters.length > 0 && (
-        <ScrollRegion label={`Parameters of ${method.toUpperCase()} ${path}`}>
-          <table className="table text-sm">
-            <caption className="sr-only">
-              Parameters of {method.toUpperCase()} {path}
-            </caption>
-            <thead>
-              <tr>
-                <th scope="col">Name</th>
-                <th scope="col">In</th>
-                <th scope="col">Value</th>
-              </tr>
-            </thead>
-            <tbody>
-              {op.parameters.map((p) => (
-                <tr key={`${p.in}-${p.name}`}>
-                  <td className="whitespace-nowrap">
-                    <code>{p.name}</code>
-                    {p.required ? " (required)" : ""}
-                  </td>
-                  <td>{p.in}</td>
-                  <td>
-                    {describeSchema(p.schema)}
-                    {p.description ? (
-                      <>
-                        . <Inline text={p.description} />
-                      </>
-                    ) : (
-                      ""
-                    )}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </ScrollRegion>
-      )}
-      {op.requestBody && (
-        <p className="text-sm">
-          Body ({Object.keys(op.requestBody.content).join(", ")}): <Inline text={op.requestBody.description} />
+    <details id={headingId} className="border-t border-line py-2">
+      <summary className="cursor-pointer py-1">
+        <h4 className="inline font-semibold [overflow-wrap:anywhere]">
+          <code>
+            {method.toUpperCase()} <BreakablePath path={path} />
+          </code>
+        </h4>
+        <span className="block text-sm">
+          <Inline text={op.summary} />
+        </span>
+      </summary>
+      <div className="space-y-2 pt-2">
+        <p className="text-sm text-muted">
+          <Inline text={op.description} />
         </p>
-      )}
-      <p className="text-sm">
-        Answers:{" "}
-        <Inline
-          text={Object.entries(op.responses)
-            .map(([status, r]) => `${status} ${r.description}`)
-            .join(" · ")}
-        />
-      </p>
-      {op["x-codeSamples"].map((sample) => (
-        <ScrollRegion key={sample.label} label={`${sample.label} example of ${method.toUpperCase()} ${path}`}>
-          <pre className="w-max min-w-full rounded-md border border-line bg-panel p-3 text-xs">
-            <span className="sr-only">{sample.label}: </span>
-            {sample.source}
-          </pre>
-        </ScrollRegion>
-      ))}
-    </section>
+        {op.parameters && op.parameters.length > 0 && (
+          <ScrollRegion label={`Parameters of ${method.toUpperCase()} ${path}`}>
+            <table className="table text-sm">
+              <caption className="sr-only">
+                Parameters of {method.toUpperCase()} {path}
+              </caption>
+              <thead>
+                <tr>
+                  <th scope="col">Name</th>
+                  <th scope="col">In</th>
+                  <th scope="col">Value</th>
+                </tr>
+              </thead>
+              <tbody>
+                {op.parameters.map((p) => (
+                  <tr key={`${p.in}-${p.name}`}>
+                    <td className="whitespace-nowrap">
+                      <code>{p.name}</code>
+                      {p.required ? " (required)" : ""}
+                    </td>
+                    <td>{p.in}</td>
+                    <td>
+                      {describeSchema(p.schema)}
+                      {p.description ? (
+                        <>
+                          . <Inline text={p.description} />
+                        </>
+                      ) : (
+                        ""
+                      )}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </ScrollRegion>
+        )}
+        {op.requestBody && (
+          <p className="text-sm">
+            Body ({Object.keys(op.requestBody.content).join(", ")}): <Inline text={op.requestBody.description} />
+          </p>
+        )}
+        <p className="text-sm">
+          Answers:{" "}
+          <Inline
+            text={Object.entries(op.responses)
+              .map(([status, r]) => `${status} ${r.description}`)
+              .join(" · ")}
+          />
+        </p>
+        <details className="text-sm">
+          <summary className="cursor-pointer">Examples: {op["x-codeSamples"].map((sample) => sample.label).join(", ")}</summary>
+          <div className="space-y-2 pt-2">
+            {op["x-codeSamples"].map((sample) => (
+              <ScrollRegion key={sample.label} label={`${sample.label} example of ${method.toUpperCase()} ${path}`}>
+                <pre className="w-max min-w-full rounded-md border border-line bg-panel p-3 text-xs">
+                  <span className="sr-only">{sample.label}: </span>
+                  {sample.source}
+                </pre>
+              </ScrollRegion>
+            ))}
+          </div>
+        </details>
+      </div>
+    </details>
   );
 }
 
@@ -149,11 +162,25 @@ export function ApiReference({ base }: { base: string }) {
         <p className="text-sm">
           Every endpoint, made from the same description as the machine-readable <a href="/api/v1/openapi.json">OpenAPI 3.1 document</a>,
           with an example in curl and in Python (the <code>requests</code> package). Examples that need a token read it from the{" "}
-          <code>ARRHENIA_TOKEN</code> environment variable.
+          <code>ARRHENIA_TOKEN</code> environment variable. Each endpoint opens to its parameters, answers and examples.
         </p>
+        <nav aria-label="Endpoint groups">
+          <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+            {doc.tags.map(({ name }) => (
+              <li key={name}>
+                <a href={`#tag-${slug(name)}`}>
+                  {name} ({operations.filter((o) => o.op.tags.includes(name)).length})
+                </a>
+              </li>
+            ))}
+            <li>
+              <a href="#problems">Problem types</a>
+            </li>
+          </ul>
+        </nav>
         {doc.tags.map(({ name }) => (
-          <section key={name} className="space-y-3" aria-labelledby={`tag-${slug(name)}`}>
-            <h3 id={`tag-${slug(name)}`} className="text-xl font-semibold">
+          <section key={name} className="space-y-1" aria-labelledby={`tag-${slug(name)}`}>
+            <h3 id={`tag-${slug(name)}`} className="pt-2 text-xl font-semibold">
               {name}
             </h3>
             {operations

@@ -52,6 +52,27 @@ export default function ApiDocsPage() {
           <a href="/api/v1/openapi.json">/api/v1/openapi.json</a>; the <a href="#reference">endpoint reference</a> below is rendered from
           it.
         </p>
+        <nav aria-label="On this page">
+          <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+            {[
+              ["scopes", "Tokens and scopes"],
+              ["caching", "Caching and rate limits"],
+              ["reference", "Endpoints"],
+              ["problems", "Problem types"],
+              ["analyses", "Analyses"],
+              ["search", "Search"],
+              ["consensus", "Consensus"],
+              ["points", "Points"],
+              ["exports", "Exports"],
+              ["limits", "Body sizes and retries"],
+              ["other", "Other endpoints"],
+            ].map(([id, label]) => (
+              <li key={id}>
+                <a href={`#${id}`}>{label}</a>
+              </li>
+            ))}
+          </ul>
+        </nav>
       </header>
 
       <section className="space-y-3" aria-labelledby="scopes">
@@ -373,9 +394,13 @@ export default function ApiDocsPage() {
             <sup>n</sup>, the preferred one marked) or <code>format=cantera-yaml</code> (<code>application/yaml</code>: a <code>units</code>{" "}
             block and one elementary reaction with <code>rate-constant: {"{A, b, Ea}"}</code>, A already divided by T0
             <sup>n</sup> since Cantera writes T<sup>b</sup> without T0; <code>fit=preferred|arrhenius|modified_arrhenius</code> chooses the
-            fit). <code>k</code>: any rate-constant unit of the reaction’s order (default the molecule-based one); <code>energy</code>:{" "}
-            <code>kJ mol-1</code> (default), <code>kcal mol-1</code>, <code>J mol-1</code>, <code>cal mol-1</code> or <code>K</code> (Ea/R).
-            Both name the reaction, the temperature range, the identifier (or the datasets of the consensus) and the caution.
+            fit). Species are named by formula (<code>OH</code>, <code>CH4</code>; isomers sharing a formula get <code>-</code> and the
+            first letters of their InChIKey, so two species never share a name), with a comment block mapping each name to its InChIKey and
+            the depositor’s name; <code>names=deposited</code> names them by the depositor’s words instead. <code>k</code>: any
+            rate-constant unit of the reaction’s order (default the molecule-based one); <code>energy</code>: <code>kJ mol-1</code>{" "}
+            (default), <code>kcal mol-1</code>, <code>J mol-1</code>, <code>cal mol-1</code> or <code>K</code> (Ea/R). Files and API answers
+            write units in ASCII (<code>cm3 molecule-1 s-1</code>), one spelling per unit; pages show them with superscripts. Both name the
+            reaction, the temperature range, the identifier (or the datasets of the consensus) and the caution.
           </li>
           <li>
             <code>GET /api/v1/datasets/:id/versions/:n/export.json</code>:{" "}
@@ -385,9 +410,9 @@ export default function ApiDocsPage() {
           <li>
             <code>GET /api/v1/search/export?format=csv|jsonl|json</code> with the parameters of <code>GET /api/v1/search</code> (not{" "}
             <code>limit</code> or <code>cursor</code>: the whole result, streamed as it is read). CSV opens with <code>#</code> lines (the
-            search, units, where licences and citations are, the caution); JSON lines with an <code>about</code> line; JSON is{" "}
-            <code>{"{ about, hits: [ … ] }"}</code>. <code>bom=1</code> (CSV here and in <code>points.csv</code>) puts a UTF-8 byte order
-            mark first, for spreadsheet programs.
+            search, units as plain text, where licences and citations are, the caution; each line one quoted cell); JSON lines with an{" "}
+            <code>about</code> line; JSON is <code>{"{ about, hits: [ … ] }"}</code>. <code>bom=1</code> (CSV here and in{" "}
+            <code>points.csv</code>) puts a UTF-8 byte order mark first, for spreadsheet programs.
           </li>
         </ul>
         <p className="text-sm">Drafts and every version that is not published or retracted are 404; a bad parameter is a 400 naming it.</p>
