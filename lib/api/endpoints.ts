@@ -105,9 +105,7 @@ const reactionPathParameter = z
 /** The schema of each path parameter by name; an endpoint's `pathParameters` overrides one. */
 export const PATH_PARAMETERS: Record<string, z.ZodType> = {
   id: pathId("Record"),
-  n: z
-    .union([z.int().min(1).max(2_147_483_647), z.string().regex(/^v[1-9][0-9]{0,9}$/)])
-    .describe("Version number: 2, or v2 as the page writes it"),
+  n: z.int().min(1).max(2_147_483_647).describe("Version number: 1, 2, …"),
   inchikey: z
     .string()
     .regex(/^[A-Z]{14}-[A-Z]{10}-[A-Z]$/)

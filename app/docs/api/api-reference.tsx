@@ -26,12 +26,14 @@ interface Operation {
 
 /** A JSON Schema in a few words: type, allowed values, pattern, bounds, default. */
 export function describeSchema(s: Record<string, unknown>): string {
+  if (Array.isArray(s.anyOf)) return (s.anyOf as Record<string, unknown>[]).map(describeSchema).join(", or ");
   const parts: string[] = [];
   const items = s.items as Record<string, unknown> | undefined;
   if (s.type === "array" && items) parts.push(`list of ${describeSchema(items)}`);
   else if (Array.isArray(s.enum)) parts.push(`one of ${s.enum.join(", ")}`);
   else if (typeof s.type === "string") parts.push(s.type);
   if (typeof s.pattern === "string") parts.push(`matching ${s.pattern}`);
+  if (typeof s.minimum === "number" && typeof s.maximum === "number") parts.push(`${s.minimum} to ${s.maximum}`);
   if (typeof s.maxLength === "number") parts.push(`at most ${s.maxLength} characters`);
   if (typeof s.maxItems === "number") parts.push(`at most ${s.maxItems} values`);
   if (s.default !== undefined) parts.push(`default ${String(s.default)}`);
