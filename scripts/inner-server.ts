@@ -23,7 +23,10 @@ if (key.length < 16) {
 
 // Loaded after NODE_ENV is set: Next reads it while loading.
 const { default: next } = await import("next");
-const app = next({ dev: false, dir: process.cwd(), hostname: "127.0.0.1", port });
+// Next's own name for its origin: it writes every loopback address as "localhost" in a proxy.ts
+// rewrite, and a rewrite to another origin than this one is fetched over HTTP (external), which
+// this port's gate refuses. The socket still listens on 127.0.0.1 only (below).
+const app = next({ dev: false, dir: process.cwd(), hostname: "localhost", port });
 const handle = app.getRequestHandler();
 await app.prepare();
 const upgrade = app.getUpgradeHandler();
