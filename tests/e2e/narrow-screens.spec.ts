@@ -113,6 +113,8 @@ test("the signed-in header folds into a menu on a phone that the keyboard opens"
 test("a wide code block scrolls by keyboard and says so", async ({ page }) => {
   await page.setViewportSize(PHONE);
   await page.goto("/docs/api");
+  // The section is folded (details/summary) until opened.
+  await page.locator("summary", { has: page.locator("#analyses") }).click();
   const region = page.getByRole("region", { name: "Example request and response" });
   await region.focus();
   await expect(region).toBeFocused();
@@ -120,7 +122,12 @@ test("a wide code block scrolls by keyboard and says so", async ({ page }) => {
   await page.keyboard.press("ArrowRight");
   await page.keyboard.press("ArrowRight");
   await expect.poll(() => region.evaluate((el) => el.scrollLeft)).toBeGreaterThan(before);
-  await expect(page.getByText(/scroll sideways/).first()).toBeVisible();
+  await expect(
+    page
+      .getByText(/scroll sideways/)
+      .filter({ visible: true })
+      .first(),
+  ).toBeVisible();
 });
 
 /** The tick labels of every plot axis on the page, with their horizontal extent. */

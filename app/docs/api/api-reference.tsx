@@ -193,40 +193,44 @@ export function ApiReference({ base }: { base: string }) {
           </section>
         ))}
       </section>
-      <section className="space-y-3" aria-labelledby="problems">
-        <h2 id="problems" className="text-2xl font-semibold">
-          Problem types
-        </h2>
-        <p className="text-sm">
-          Every error is <code>application/problem+json</code> (RFC 9457): <code>type</code> (one of the URIs below, stable),{" "}
-          <code>title</code>, <code>status</code>, <code>code</code>, <code>instance</code> (the path asked for) and, where values are at
-          fault, <code>errors</code> with a JSON pointer (RFC 6901) for each.
-        </p>
-        <ScrollRegion label="Problem types">
-          <table className="table text-sm">
-            <thead>
-              <tr>
-                <th scope="col">Type</th>
-                <th scope="col">Status</th>
-                <th scope="col">When</th>
-              </tr>
-            </thead>
-            <tbody>
-              {problemTypeList().map((p) => (
-                <tr key={p.code} id={`problem-${p.code.replace(/_/g, "-")}`}>
-                  <td>
-                    <code>{p.uri}</code>
-                  </td>
-                  <td>
-                    {p.status} {p.title}
-                  </td>
-                  <td>{p.when}</td>
+      <details className="border-t border-line pt-2">
+        <summary className="cursor-pointer">
+          <h2 id="problems" className="inline text-2xl font-semibold">
+            Problem types
+          </h2>
+        </summary>
+        <div className="space-y-3 pt-3">
+          <p className="text-sm">
+            Every error is <code>application/problem+json</code> (RFC 9457): <code>type</code> (one of the URIs below, stable),{" "}
+            <code>title</code>, <code>status</code>, <code>code</code>, <code>instance</code> (the path asked for) and, where values are at
+            fault, <code>errors</code> with a JSON pointer (RFC 6901) for each.
+          </p>
+          <ScrollRegion label="Problem types">
+            <table className="table text-sm">
+              <thead>
+                <tr>
+                  <th scope="col">Type</th>
+                  <th scope="col">Status</th>
+                  <th scope="col">When</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
-        </ScrollRegion>
-      </section>
+              </thead>
+              <tbody>
+                {problemTypeList().map((p) => (
+                  <tr key={p.code} id={`problem-${p.code.replace(/_/g, "-")}`}>
+                    <td>
+                      <code>{p.uri}</code>
+                    </td>
+                    <td>
+                      {p.status} {p.title}
+                    </td>
+                    <td>{p.when}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </ScrollRegion>
+        </div>
+      </details>
     </>
   );
 }
