@@ -3,56 +3,6 @@ import { fileURLToPath } from "node:url";
 
 const root = path.dirname(fileURLToPath(import.meta.url));
 
-/**
- * Content negotiation on a dataset's pages: a client asking for a citation format gets the
- * citation endpoint's answer at the page's own URL — the version (`/datasets/3/v2`) or every
- * version (`/datasets/3`). The endpoint sees the page's URL and reads the format from Accept and
- * the version from the path (lib/citation/request.ts citationQueryOrThrow). Next matches a header
- * with one regular expression (no flags), so media types are matched letter by letter in either
- * case (RFC 9110 §8.3.1), and quality values (RFC 9110 §12.4.2) only as far as a pattern can: a
- * citation type with q=0 asks for nothing; a citation type is served when HTML is not asked for,
- * or when the citation type has the full quality (no q, or q=1) and HTML a lower one. Any other
- * mix of qualities gets the page (HTML).
- */
-const citationTypes = [
-  "application/x-bibtex",
-  "application/x-research-info-systems",
-  "application/vnd.citationstyles.csl+json",
-  "text/x-bibliography",
-];
-/** A pattern matching `text` in any mix of upper and lower case. */
-const anyCase = (text) =>
-  [...text].map((c) => (/[a-z]/i.test(c) ? `[${c.toLowerCase()}${c.toUpperCase()}]` : c.replace(/[.+*/]/g, "\\$&"))).join("");
-/** One element of Accept whose media type is one of `types`, followed (in its own element) by parameters matching `rest`. */
-const element = (types, rest) => `(?:.*[,\\s])?(?:${types.map(anyCase).join("|")})${rest}(?:[;,\\s].*)?`;
-const Q = "[;]\\s*[qQ]\\s*=\\s*";
-/** After the media type: no q=0 (0, 0.0, 0.00, 0.000) in its element. */
-const positiveQ = `(?![^,]*${Q}0(?:\\.0{0,3})?\\s*(?:[;,]|$))`;
-/** After the media type: no q below 1 in its element (no q, or q=1, 1.0…). */
-const fullQ = `(?![^,]*${Q}0)`;
-const citationRules = [
-  // A citation type (q > 0) and no HTML at all.
-  {
-    has: [{ type: "header", key: "accept", value: element(citationTypes, positiveQ) }],
-    missing: [{ type: "header", key: "accept", value: element(["text/html"], "") }],
-  },
-  // A citation type at full quality; HTML, if named, at a lower one.
-  {
-    has: [{ type: "header", key: "accept", value: element(citationTypes, fullQ) }],
-    missing: [{ type: "header", key: "accept", value: element(["text/html"], fullQ) }],
-  },
-];
-const citationRewrites = citationRules.flatMap((negotiation) => [
-  { source: "/datasets/:id(\\d+)/:version(v\\d+)", ...negotiation, destination: "/api/v1/datasets/:id/citation" },
-  { source: "/datasets/:id(\\d+)", ...negotiation, destination: "/api/v1/datasets/:id/citation" },
-]);
-
-/** The rewrites' header conditions, for tests: whether Next would serve the citation for this Accept. */
-export function acceptRewritesToCitation(accept) {
-  const matches = (item) => new RegExp(`^${item.value}$`).test(accept);
-  return citationRules.some((r) => r.has.every(matches) && !r.missing.some(matches));
-}
-
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   // RDKit loads a .wasm file next to its JS; bundling rewrites that path.
@@ -75,11 +25,8 @@ const nextConfig = {
   turbopack: { root },
   outputFileTracingRoot: root,
   poweredByHeader: false,
-  async rewrites() {
-    return { beforeFiles: citationRewrites, afterFiles: [], fallback: [] };
-  },
   async headers() {
-    // The same URL answers HTML or a citation format, by the Accept header.
+    // The same URL answers HTML or a citation format, by the Accept header (proxy.ts, lib/http/content-negotiation.ts).
     return [
       { source: "/datasets/:id(\\d+)", headers: [{ key: "Vary", value: "Accept" }] },
       { source: "/datasets/:id(\\d+)/:version(v\\d+)", headers: [{ key: "Vary", value: "Accept" }] },

@@ -14,7 +14,7 @@ import {
 
 export type UnitKind = "rateConstant" | "temperature" | "pressure" | "energy";
 
-const PARSERS: Record<UnitKind, (text: string) => { label: string }> = {
+const PARSERS: Record<UnitKind, (text: string) => { id: string; label: string }> = {
   rateConstant: (t) => parseRateConstantUnit(t),
   temperature: parseTemperatureUnit,
   pressure: parsePressureUnit,
@@ -24,7 +24,7 @@ const PARSERS: Record<UnitKind, (text: string) => { label: string }> = {
 /**
  * THE way a page writes a unit: its display label with true superscripts, whatever spelling was
  * stored ("cm3 molecule-1 s-1" and "cm3/molecule/s" → "cm³ molecule⁻¹ s⁻¹", "degC" → "°C"). Files
- * (the CSV and JSON downloads) keep the plain ids; pages never show them. A unit the kinetics module
+ * (the CSV, JSON and YAML downloads, the API) write `unitText`'s plain ids; pages never show them. A unit the kinetics module
  * does not know is shown as given.
  * @example unitLabel("rateConstant", "cm3 molecule-1 s-1") // "cm³ molecule⁻¹ s⁻¹"
  */
@@ -32,6 +32,24 @@ export function unitLabel(kind: UnitKind, unit: string | null | undefined): stri
   if (!unit) return "";
   try {
     return PARSERS[kind](unit).label;
+  } catch (err) {
+    if (err instanceof UnitError) return unit;
+    throw err;
+  }
+}
+
+/**
+ * THE way a file meant for scripts writes a unit (CSV, JSON, YAML downloads and API answers): its
+ * plain ASCII id, whatever spelling was stored ("cm³ molecule⁻¹ s⁻¹" and "cm3/molecule/s" →
+ * "cm3 molecule-1 s-1", "°C" → "degC"), so one unit has one spelling in every file and a script can
+ * compare it as text. Pages use `unitLabel`. A unit the kinetics module does not know is given back
+ * as it is.
+ * @example unitText("rateConstant", "cm³ molecule⁻¹ s⁻¹") // "cm3 molecule-1 s-1"
+ */
+export function unitText(kind: UnitKind, unit: string | null | undefined): string | null {
+  if (!unit) return unit ?? null;
+  try {
+    return PARSERS[kind](unit).id;
   } catch (err) {
     if (err instanceof UnitError) return unit;
     throw err;

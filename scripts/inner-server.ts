@@ -1,7 +1,8 @@
 // Next's production server on the private loopback port behind the front server, in place of
 // `next start`: Next's own request handler, reached only through the gate of lib/auth/inner-gate.ts
-// (the front server's per-start key, ARRHENIA_EDGE_KEY, or 403). No proxy.ts: with one, Next would
-// buffer every body whole (see DEVELOPERS.md). Started by scripts/serve.ts with the port as argument.
+// (the front server's per-start key, ARRHENIA_EDGE_KEY, or 403), not in proxy.ts: a request the proxy
+// runs on has its body buffered whole, so proxy.ts's matcher never takes one with a body (DEVELOPERS.md).
+// Started by scripts/serve.ts with the port as argument.
 import http from "node:http";
 import { INNER_GATE_MARK } from "@/lib/auth/client-address";
 import { innerGate, innerGateUpgrade } from "@/lib/auth/inner-gate";
@@ -23,7 +24,10 @@ if (key.length < 16) {
 
 // Loaded after NODE_ENV is set: Next reads it while loading.
 const { default: next } = await import("next");
-const app = next({ dev: false, dir: process.cwd(), hostname: "127.0.0.1", port });
+// Next's own name for its origin: it writes every loopback address as "localhost" in a proxy.ts
+// rewrite, and a rewrite to another origin than this one is fetched over HTTP (external), which
+// this port's gate refuses. The socket still listens on 127.0.0.1 only (below).
+const app = next({ dev: false, dir: process.cwd(), hostname: "localhost", port });
 // Public pages rendered for anonymous readers are replayed from memory (lib/html-cache.ts): at most
 // 64 MiB of bodies, none over 4 MiB, each for PUBLIC_CACHE_SECONDS unless a change empties the cache first.
 const handle = withHtmlCache(app.getRequestHandler(), {

@@ -4,6 +4,7 @@ import { reactionPath } from "@/lib/reactions/paths";
 import { formatRange, formatSignificant } from "@/lib/format";
 import { GAS_CONSTANT, REFERENCE_TEMPERATURE } from "@/lib/kinetics/constants";
 import type { DatasetHit, ReactionHit } from "@/lib/search/types";
+import { unitLabel } from "@/lib/unit-labels";
 import { FLAG_LABELS } from "./search-words";
 import type { ReactNode } from "react";
 import { StatisticGlossary, StatisticTerm } from "@/components/statistic-term";
@@ -37,7 +38,7 @@ export function DatasetRows({ hits }: { hits: DatasetHit[] }) {
               />
               <Pair
                 term={<StatisticTerm id="refit" plain="Pre-exponential factor A" />}
-                value={h.a === null ? "not fitted" : `${sig(h.a)} ${h.aUnit ?? ""}`.trim()}
+                value={h.a === null ? "not fitted" : `${sig(h.a)} ${unitLabel("rateConstant", h.aUnit)}`.trim()}
               />
               <Pair term="Checks raised" value={h.flags.length === 0 ? "none" : h.flags.map((f) => FLAG_LABELS[f] ?? f).join("; ")} />
               <Pair
@@ -113,7 +114,7 @@ function ConsensusExpression({ c }: { c: NonNullable<ReactionHit["consensus"]> }
         </>
       )}
       exp({c.ea >= 0 ? "−" : "+"}
-      {sig(Math.abs(c.ea) / GAS_CONSTANT, 4)} K / T) {c.aUnit}, for {formatRange(c.tMin, c.tMax, "K")}
+      {sig(Math.abs(c.ea) / GAS_CONSTANT, 4)} K / T) {unitLabel("rateConstant", c.aUnit)}, for {formatRange(c.tMin, c.tMax, "K")}
     </span>
   );
 }

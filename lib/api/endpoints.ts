@@ -11,6 +11,7 @@ import {
 import { OAI_VERBS } from "@/lib/oai/protocol";
 import { searchParameterSchemas } from "@/lib/search/params";
 import { userPatchSchema, type ApiTokenScope } from "@/lib/users/schemas";
+import type { ResponseSchemaName } from "./responses";
 
 /**
  * THE list of REST API endpoints: the published scope table (/docs/api, checked against every
@@ -47,7 +48,10 @@ export interface Endpoint {
   body?: { contentType: string; schema?: z.ZodType; description: string; example?: string };
   /** Request headers the endpoint reads (If-Match, Idempotency-Key). */
   headers?: { name: string; required: boolean; description: string }[];
-  ok: { status: number; contentType: string; description: string };
+  /** `schema` names the answer's zod schema (lib/api/responses.ts), for JSON answers. */
+  ok: { status: number; contentType: string; description: string; schema?: ResponseSchemaName };
+  /** Schemas of the path's parameters where the name alone does not tell (PATH_PARAMETERS has the rest). */
+  pathParameters?: Record<string, z.ZodType>;
   /** Problem statuses beyond the ones every endpoint may answer (400, 401, 429, 500, 503). */
   errors: number[];
   /** Public read with ETag, Cache-Control and 304 (withApi's `cache`). */
@@ -91,6 +95,46 @@ const idempotencyKey = {
 };
 const PUBLIC_VERSIONS = "anyone, for published and retracted versions";
 
+/** A database id in a path: 1 … 2³¹−1 (lib/ids.ts; anything else is a 404). */
+const pathId = (what: string) => z.int().min(1).max(2_147_483_647).describe(`${what} id`);
+/** A reaction key as its page writes it ("~" for ">>"; lib/reactions/paths.ts) or the reaction's numeric id. */
+const KEY_PART = "(?:[0-9.e-]+\\*)?[A-Z]{14}-[A-Z]{10}-[A-Z]";
+const KEY_SIDE = `${KEY_PART}(?:\\+${KEY_PART})*`;
+const reactionPathParameter = z
+  .union([pathId("Reaction"), z.string().regex(new RegExp(`^${KEY_SIDE}~(?:${KEY_SIDE}|\\*)$`))])
+  .describe("The reaction key as the reaction page writes it (InChIKeys joined by +, ~ between the sides), or its numeric id");
+
+/** The schema of each path parameter by name; an endpoint's `pathParameters` overrides one. */
+export const PATH_PARAMETERS: Record<string, z.ZodType> = {
+  id: pathId("Record"),
+  n: z.int().min(1).max(2_147_483_647).describe("Version number: 1, 2, …"),
+  inchikey: z
+    .string()
+    .regex(/^[A-Z]{14}-[A-Z]{10}-[A-Z]$/)
+    .describe("Standard InChIKey, upper case"),
+  fileId: pathId("File"),
+};
+
+const datasetId = { id: pathId("Dataset") };
+
+/** A public read of one version by dataset id and version number (published or retracted; any other is a 404). */
+function publicVersionRead(
+  entry: Pick<Endpoint, "summary" | "ok"> & Partial<Pick<Endpoint, "tag" | "query" | "cached" | "description">> & { under: string },
+): Endpoint {
+  const { under, ...rest } = entry;
+  return {
+    method: "GET",
+    path: `/api/v1/datasets/:id/versions/:n${under}`,
+    scope: null,
+    who: PUBLIC_VERSIONS,
+    tag: "Datasets",
+    pathExample: { id: "1", n: "1" },
+    pathParameters: datasetId,
+    errors: [404],
+    ...rest,
+  };
+}
+
 export const API_ENDPOINTS: Endpoint[] = [
   // ---- public reads ----
   {
@@ -102,13 +146,19 @@ export const API_ENDPOINTS: Endpoint[] = [
     summary: "List datasets matching the search parameters, a page at a time",
     description: "The search parameters of GET /api/v1/search with view=datasets; `nextCursor` leads to the next page.",
     query: searchQuery,
-    ok: { status: 200, contentType: JSON_TYPE, description: "{ query, parsed, understood, total, hits, facets, nextCursor, caution }" },
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ query, parsed, understood, total, hits, facets, nextCursor, caution }",
+      schema: "SearchAnswer",
+    },
     errors: [],
     cached: true,
   },
   {
     method: "GET",
     path: "/api/v1/datasets/:id",
+    pathParameters: datasetId,
     scope: null,
     who: "anyone, for datasets with a published or retracted version",
     tag: "Datasets",
@@ -118,53 +168,38 @@ export const API_ENDPOINTS: Endpoint[] = [
       status: 200,
       contentType: JSON_TYPE,
       description: "{ data: { id, seriesIdentifier, title, newestVersion, landingPage, versions } }",
+      schema: "DatasetSeries",
     },
     errors: [404],
     cached: true,
   },
-  {
-    method: "GET",
-    path: "/api/v1/datasets/:id/versions/:n",
-    scope: null,
-    who: PUBLIC_VERSIONS,
-    tag: "Datasets",
+  publicVersionRead({
+    under: "",
     summary: "One public version: its deposit document, identifiers, state and newest analysis",
-    pathExample: { id: "1", n: "1" },
     ok: {
       status: 200,
       contentType: JSON_TYPE,
-      description: "{ data: { id, datasetId, number, state, title, versionIdentifier, document, analysis, caution } }",
+      description: "The version, its document and newest analysis.",
+      schema: "PublicVersion",
     },
-    errors: [404],
     cached: true,
-  },
-  {
-    method: "GET",
-    path: "/api/v1/datasets/:id/versions/:n/points",
-    scope: null,
-    who: PUBLIC_VERSIONS,
-    tag: "Datasets",
+  }),
+  publicVersionRead({
+    under: "/points",
     summary: "Every point of a public version, as deposited and in canonical units, with residuals and findings",
-    pathExample: { id: "1", n: "1" },
-    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { about, points } } (the layout of points.json)" },
-    errors: [404],
+    ok: { status: 200, contentType: JSON_TYPE, description: "The layout of points.json under `data`.", schema: "VersionPoints" },
     cached: true,
-  },
-  {
-    method: "GET",
-    path: "/api/v1/datasets/:id/versions/:n/analysis",
-    scope: null,
-    who: PUBLIC_VERSIONS,
-    tag: "Datasets",
+  }),
+  publicVersionRead({
+    under: "/analysis",
     summary: "The newest re-fit of a public version: Arrhenius, modified Arrhenius and Eyring fits, diagnostics and flags",
-    pathExample: { id: "1", n: "1" },
-    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { engineVersion, createdAt, result, checks, error, caution } }" },
-    errors: [404],
+    ok: { status: 200, contentType: JSON_TYPE, description: "The newest analysis and its engine version.", schema: "VersionAnalysis" },
     cached: true,
-  },
+  }),
   {
     method: "GET",
     path: "/api/v1/datasets/:id/citation",
+    pathParameters: datasetId,
     scope: null,
     who: "anyone, for published and retracted versions",
     tag: "Citation",
@@ -178,54 +213,33 @@ export const API_ENDPOINTS: Endpoint[] = [
     ok: { status: 200, contentType: "application/x-bibtex", description: "BibTeX, RIS, CSL-JSON or a formatted reference, by `format`." },
     errors: [404],
   },
-  {
-    method: "GET",
-    path: "/api/v1/datasets/:id/versions/:n/datacite.json",
-    scope: null,
-    who: "anyone, for published and retracted versions",
+  publicVersionRead({
+    under: "/datacite.json",
     tag: "Citation",
     summary: "DataCite metadata (kernel 4) of a version, as JSON",
-    pathExample: { id: "1", n: "1" },
     ok: { status: 200, contentType: JSON_TYPE, description: "DataCite JSON." },
-    errors: [404],
-  },
-  {
-    method: "GET",
-    path: "/api/v1/datasets/:id/versions/:n/datacite.xml",
-    scope: null,
-    who: "anyone, for published and retracted versions",
+  }),
+  publicVersionRead({
+    under: "/datacite.xml",
     tag: "Citation",
     summary: "DataCite metadata (kernel 4) of a version, as XML",
-    pathExample: { id: "1", n: "1" },
     ok: { status: 200, contentType: "application/xml", description: "DataCite XML." },
-    errors: [404],
-  },
-  {
-    method: "GET",
-    path: "/api/v1/datasets/:id/versions/:n/parameters",
-    scope: null,
-    who: "anyone, for published and retracted versions",
-    tag: "Datasets",
+  }),
+  publicVersionRead({
+    under: "/parameters",
     summary: "Mechanism-ready parameters (A, n, Ea, T0, valid range) of a version's fits, as a table or Cantera YAML",
-    pathExample: { id: "1", n: "1" },
     query: queryOf(versionParametersQuerySchema.shape, { format: "cantera-yaml", k: "cm3 mol-1 s-1", energy: "kcal mol-1" }),
     ok: { status: 200, contentType: "text/plain or application/yaml", description: "An aligned table, or a YAML block with units." },
-    errors: [404],
-  },
-  {
-    method: "GET",
-    path: "/api/v1/datasets/:id/versions/:n/export.json",
-    scope: null,
-    who: "anyone, for published and retracted versions",
-    tag: "Datasets",
+  }),
+  publicVersionRead({
+    under: "/export.json",
     summary: "A version's deposit document with its re-fits, flags and the engine version",
-    pathExample: { id: "1", n: "1" },
     ok: { status: 200, contentType: JSON_TYPE, description: "{ about, document, analysis }" },
-    errors: [404],
-  },
+  }),
   {
     method: "GET",
     path: "/api/v1/reactions/:id/parameters",
+    pathParameters: { id: reactionPathParameter },
     scope: null,
     who: "anyone (reactions with published data)",
     tag: "Reactions and species",
@@ -252,6 +266,7 @@ export const API_ENDPOINTS: Endpoint[] = [
   {
     method: "GET",
     path: "/api/v1/reactions/:id",
+    pathParameters: { id: reactionPathParameter },
     scope: null,
     who: "anyone, for reactions with published data",
     tag: "Reactions and species",
@@ -269,6 +284,7 @@ export const API_ENDPOINTS: Endpoint[] = [
   {
     method: "GET",
     path: "/api/v1/reactions/:id/consensus",
+    pathParameters: { id: reactionPathParameter },
     scope: null,
     who: "anyone",
     tag: "Reactions and species",
@@ -291,6 +307,7 @@ export const API_ENDPOINTS: Endpoint[] = [
       status: 200,
       contentType: JSON_TYPE,
       description: "{ data: { inchiKey, inchi, smiles, formula, charge, molarMass, name, names, reactions } }",
+      schema: "Species",
     },
     errors: [404],
     cached: true,
@@ -302,7 +319,12 @@ export const API_ENDPOINTS: Endpoint[] = [
     who: "anyone",
     tag: "Reactions and species",
     summary: "Every reaction class with its counts of public reactions and datasets",
-    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: [{ id, label, description, reactions, datasets, landingPage }] }" },
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ data: [{ id, label, description, reactions, datasets, landingPage }] }",
+      schema: "Classes",
+    },
     errors: [],
     cached: true,
   },
@@ -314,7 +336,12 @@ export const API_ENDPOINTS: Endpoint[] = [
     tag: "Search",
     summary: "Datasets or reactions matching a text, a species or a reaction pattern and filters",
     query: searchQuery,
-    ok: { status: 200, contentType: JSON_TYPE, description: "{ query, parsed, understood, total, hits, facets, nextCursor, caution }" },
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ query, parsed, understood, total, hits, facets, nextCursor, caution }",
+      schema: "SearchAnswer",
+    },
     errors: [],
     cached: true,
   },
@@ -344,6 +371,7 @@ export const API_ENDPOINTS: Endpoint[] = [
   {
     method: "GET",
     path: "/api/v1/versions/:id/points.csv",
+    pathParameters: { id: pathId("Version") },
     scope: null,
     who: "anyone, for published and retracted versions",
     tag: "Datasets",
@@ -356,6 +384,7 @@ export const API_ENDPOINTS: Endpoint[] = [
   {
     method: "GET",
     path: "/api/v1/versions/:id/points.json",
+    pathParameters: { id: pathId("Version") },
     scope: null,
     who: "anyone, for published and retracted versions",
     tag: "Datasets",
@@ -406,6 +435,7 @@ export const API_ENDPOINTS: Endpoint[] = [
       status: 200,
       contentType: JSON_TYPE,
       description: "{ data: [{ datasetId, versionId, number, title, state, role, lockVersion, problems, … }] }",
+      schema: "MyDeposits",
     },
     errors: [403],
   },
@@ -418,7 +448,7 @@ export const API_ENDPOINTS: Endpoint[] = [
     summary: "Check a deposit document as a deposit is checked and fit it, storing nothing",
     description: "200 whether or not the document is valid: `valid`, every error with its JSON pointer, and the analysis when valid.",
     body: depositBody,
-    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { valid, errors, analysis } }" },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { valid, errors, analysis } }", schema: "Validation" },
     errors: [403, 413],
   },
   {
@@ -433,7 +463,8 @@ export const API_ENDPOINTS: Endpoint[] = [
     ok: {
       status: 201,
       contentType: JSON_TYPE,
-      description: "{ data: { versionId, datasetId, number, state, lockVersion } } and Location.",
+      description: "The new draft, and Location.",
+      schema: "CreatedDraft",
     },
     errors: [403, 409, 413, 422],
   },

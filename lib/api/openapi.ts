@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { PROBLEM_TYPES, problemTypeUri, type ErrorCode } from "@/lib/errors";
-import { API_ENDPOINTS, type Endpoint } from "./endpoints";
+import { API_ENDPOINTS, PATH_PARAMETERS, type Endpoint } from "./endpoints";
+import { RESPONSE_SCHEMAS } from "./responses";
 import { curlExample, pythonExample } from "./examples";
 
 /**
@@ -14,9 +15,9 @@ export const API_VERSION = "1.0.0";
 /** The rate-limit fields' draft, named in the document and on the docs page. */
 export const RATE_LIMIT_DRAFT = "draft-ietf-httpapi-ratelimit-headers-10";
 
-/** JSON Schema of a zod schema as a request reads it (its input), without the dialect line. */
-function jsonSchema(schema: z.ZodType): Record<string, unknown> {
-  const out = z.toJSONSchema(schema, { io: "input", unrepresentable: "any", target: "draft-2020-12" }) as Record<string, unknown>;
+/** JSON Schema of a zod schema as a request reads it (its input) or an answer is written (output), without the dialect line. */
+function jsonSchema(schema: z.ZodType, io: "input" | "output" = "input"): Record<string, unknown> {
+  const out = z.toJSONSchema(schema, { io, unrepresentable: "any", target: "draft-2020-12" }) as Record<string, unknown>;
   delete out.$schema;
   return out;
 }
@@ -71,7 +72,7 @@ function operation(e: Endpoint, base: string) {
     name,
     in: "path",
     required: true,
-    schema: { type: "string" },
+    schema: jsonSchema(e.pathParameters?.[name] ?? PATH_PARAMETERS[name] ?? z.string()),
     ...(e.pathExample?.[name] ? { example: e.pathExample[name] } : {}),
   }));
   const query = (e.query ?? []).map((q) => ({
@@ -98,7 +99,15 @@ function operation(e: Endpoint, base: string) {
       ...(e.ok.status === 204
         ? {}
         : {
-            content: { [e.ok.contentType]: { schema: e.ok.contentType === "application/json" ? { type: "object" } : { type: "string" } } },
+            content: {
+              [e.ok.contentType]: {
+                schema: e.ok.schema
+                  ? { $ref: `#/components/schemas/${e.ok.schema}` }
+                  : e.ok.contentType === "application/json"
+                    ? { type: "object" }
+                    : { type: "string" },
+              },
+            },
           }),
     },
   };
@@ -167,7 +176,11 @@ export function buildOpenApiDocument(base: string) {
             "A personal token from Settings; scopes deposit:read, deposit:write, admin. A signed-in browser session holds every scope.",
         },
       },
-      schemas: { Problem: { ...jsonSchema(problemSchema), description: "RFC 9457 problem details" } },
+      schemas: {
+        Problem: { ...jsonSchema(problemSchema), description: "RFC 9457 problem details" },
+        // The main JSON answers, as the handlers write them (checked against them by tests/integration/api-responses.test.ts).
+        ...Object.fromEntries(Object.entries(RESPONSE_SCHEMAS).map(([name, schema]) => [name, jsonSchema(schema, "output")])),
+      },
       headers: {
         RateLimit: {
           description: `Remaining budget and seconds to its reset (${RATE_LIMIT_DRAFT}): "api";r=598;t=42`,

@@ -52,6 +52,12 @@ function limiter(name: LimiterName): RateLimiterPostgres {
     keepAlive: true,
     keepAliveInitialDelayMillis: 5000,
   });
+  // An idle connection the server ends (a restart, pg_terminate_backend) is reported on the pool;
+  // with no listener that 'error' event would be thrown and end the process. pg drops the client itself.
+  if (globalForLimits.arrheniaLimitPool.listenerCount("error") === 0)
+    globalForLimits.arrheniaLimitPool.on("error", (err: Error & { code?: string }) =>
+      console.warn(`[rate-limit] an idle database connection ended: ${err.code ?? ""} ${err.message}`),
+    );
   globalForLimits.arrheniaLimiters ??= new Map();
   let l = globalForLimits.arrheniaLimiters.get(name);
   if (!l) {

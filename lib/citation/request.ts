@@ -2,12 +2,13 @@
  * The query of GET /api/v1/datasets/:id/citation, read with zod: `format`, `style` (for `text`) and
  * `version` (a number; without it, the series — every version). Any other parameter, a repeated
  * one or a bad value is a 400 naming the parameter. A request that reached the endpoint by content
- * negotiation on a dataset page (next.config.mjs rewrites; the handler still sees the page's URL)
+ * negotiation on a dataset page (proxy.ts → lib/http/content-negotiation.ts; if the handler sees the page's URL)
  * takes its format from Accept and its version from the path, and leaves the page's own query
  * (the reader's units, say) aside. Pure.
  */
 import { z } from "zod";
 import { AppError } from "@/lib/errors";
+import { acceptedCitationStyle, CITATION_MEDIA_TYPES, negotiateCitationFormat } from "@/lib/http/content-negotiation";
 import { CITATION_FORMAT_IDS, CITATION_STYLE_IDS, DEFAULT_STYLE, type CitationFormat, type CitationStyleId } from "./formats";
 
 export const citationQuerySchema = z
@@ -58,30 +59,8 @@ export function parseCitationQueryOrThrow(params: URLSearchParams): CitationQuer
   return parsed.data;
 }
 
-/** Accept media types → citation formats (those the endpoint serves; text/x-bibliography is the formatted reference). */
-const ACCEPTED: Record<string, CitationFormat> = {
-  "application/x-bibtex": "bibtex",
-  "application/x-research-info-systems": "ris",
-  "application/vnd.citationstyles.csl+json": "csl-json",
-  "text/x-bibliography": "text",
-};
-
-/**
- * The citation format an Accept header prefers (RFC 9110 §12.5.1: highest q wins, then the order
- * written), or null when it names none of ours.
- */
-export function negotiateCitationFormat(accept: string | null): CitationFormat | null {
-  let best: { format: CitationFormat; q: number } | null = null;
-  for (const part of (accept ?? "").split(",")) {
-    const [type = "", ...params] = part.split(";").map((x) => x.trim().toLowerCase());
-    const format = ACCEPTED[type];
-    if (!format) continue;
-    const qParam = params.find((p) => p.startsWith("q="));
-    const q = qParam ? Number(qParam.slice(2)) : 1;
-    if (Number.isFinite(q) && q > 0 && (!best || q > best.q)) best = { format, q };
-  }
-  return best?.format ?? null;
-}
+/** The format an Accept header prefers among ours (lib/http/content-negotiation.ts: the `negotiator` package's rule). */
+export { negotiateCitationFormat };
 
 /** A dataset page's path: `/datasets/3` (every version) or `/datasets/3/v2`. */
 const PAGE_PATH = /^\/datasets\/\d+(?:\/v([1-9]\d{0,9}))?\/?$/;
@@ -91,9 +70,10 @@ export function citationQueryOrThrow(req: Request): CitationQuery {
   const url = new URL(req.url);
   const page = PAGE_PATH.exec(url.pathname);
   if (!page) return parseCitationQueryOrThrow(url.searchParams);
-  const format = negotiateCitationFormat(req.headers.get("accept"));
-  if (!format) throw new AppError("bad_request", `Accept names none of ${Object.keys(ACCEPTED).join(", ")}`);
-  const style = citationQuerySchema.shape.style.safeParse(url.searchParams.get("style") ?? undefined);
+  const accept = req.headers.get("accept");
+  const format = negotiateCitationFormat(accept);
+  if (!format) throw new AppError("bad_request", `Accept names none of ${Object.keys(CITATION_MEDIA_TYPES).join(", ")}`);
+  const style = citationQuerySchema.shape.style.safeParse(url.searchParams.get("style") ?? acceptedCitationStyle(accept) ?? undefined);
   const version = page[1] ? Number(page[1]) : undefined;
   if (version !== undefined && version > 2 ** 31 - 1) throw new AppError("not_found", "No such version");
   return { format, style: style.success ? style.data : DEFAULT_STYLE, ...(version !== undefined ? { version } : {}) };

@@ -22,6 +22,7 @@ import {
   parseRateConstantUnit,
 } from "@/lib/kinetics/units";
 import { MECHANISM_ENERGY_UNITS } from "./mechanism-units";
+import { mechanismSpeciesNames, type NamedSpecies, type SpeciesNaming } from "./species-names";
 
 export { DEFAULT_MECHANISM_ENERGY, MECHANISM_ENERGY_UNITS, mechanismRateUnits } from "./mechanism-units";
 
@@ -44,7 +45,8 @@ export interface MechanismSubject {
   title: string;
   /** The reaction in display names ("OH + CH4 → H2O + CH3"). */
   equation: string;
-  participants: { side: "reactant" | "product"; name: string; coefficient: number }[];
+  /** `name` is the display name (the table's equation); the YAML names species by formula or by `depositedName`. */
+  participants: (NamedSpecies & { side: "reactant" | "product"; name: string; coefficient: number })[];
   order: ReactionOrder;
   /** The version identifier (a version), null for a consensus. */
   identifier: string | null;
@@ -182,14 +184,34 @@ export function buildMechanismTable(subject: MechanismSubject, units: MechanismU
   );
 }
 
-/** The reaction as Cantera's `equation` reads it: species names (spaces inside a name become "_"), " => " (irreversible). */
-export function canteraEquation(participants: MechanismSubject["participants"]): string {
+/** The reaction as Cantera's `equation` reads it: the file's species names (lib/exports/species-names.ts), " => " (irreversible). */
+export function canteraEquation(participants: MechanismSubject["participants"], names: Map<string, string>): string {
   const side = (s: "reactant" | "product") =>
     participants
       .filter((p) => p.side === s)
-      .map((p) => `${p.coefficient !== 1 ? `${p.coefficient} ` : ""}${oneLineText(p.name).replace(/\s+/g, "_")}`)
+      .map((p) => `${p.coefficient !== 1 ? `${p.coefficient} ` : ""}${names.get(p.inchiKey)}`)
       .join(" + ");
   return `${side("reactant")} => ${side("product") || "products"}`;
+}
+
+/**
+ * The comment block that ties each name in the file to its InChIKey and the depositor's name, one
+ * species a line, aligned: "  OH      HGYJMFUXWPBSGN-UHFFFAOYSA-N  hydroxyl".
+ */
+function speciesNameComment(participants: MechanismSubject["participants"], names: Map<string, string>, naming: SpeciesNaming): string[] {
+  const rows = [...new Map(participants.map((p) => [p.inchiKey, p])).values()].map((p) => [
+    names.get(p.inchiKey)!,
+    p.inchiKey,
+    oneLineText(p.depositedName),
+  ]);
+  const width = (c: number) => Math.max(...rows.map((r) => r[c].length), c === 0 ? "name".length : "InChIKey".length);
+  return [
+    naming === "formula"
+      ? " Species are named by formula (names=deposited names them by the depositor's words); isomers get part of their InChIKey."
+      : " Species are named by the depositor's words (names=formula names them by formula).",
+    ` ${"name".padEnd(width(0))}  ${"InChIKey".padEnd(width(1))}  name given by the depositor`,
+    ...rows.map(([name, key, deposited]) => ` ${name.padEnd(width(0))}  ${key.padEnd(width(1))}  ${deposited}`),
+  ];
 }
 
 /**
@@ -202,6 +224,7 @@ export function buildCanteraYaml(
   subject: MechanismSubject,
   units: MechanismUnits,
   model: MechanismModel | "preferred" = "preferred",
+  naming: SpeciesNaming = "formula",
 ): string {
   const fits = convertMechanismFits(subject, units);
   const wanted = model === "preferred" ? subject.preferred : model;
@@ -211,12 +234,13 @@ export function buildCanteraYaml(
   const energy = MECHANISM_ENERGY_UNITS.find((u) => u.id === parseEnergyUnit(units.energyUnit).id)?.cantera;
   if (!energy) throw new RangeError(`no Cantera unit for ${units.energyUnit}`);
   const about = aboutLines(subject);
+  const names = mechanismSpeciesNames(subject.participants, naming);
   const doc = new Document({
     description: about.map(([label, text]) => `${label}: ${text}`).join("\n"),
     units: { length, quantity, time: "s", "activation-energy": energy },
     reactions: [
       {
-        equation: canteraEquation(subject.participants),
+        equation: canteraEquation(subject.participants, names),
         "rate-constant": { A: fit.canteraA, b: fit.n, Ea: fit.Ea },
         note: `${MODEL_WORDS[fit.model]} fit${fit.preferred ? " (preferred)" : ""}: A = ${num(fit.A)} ${units.kUnit} at T0 = ${num(fit.T0)} K, so A/T0^n = ${num(fit.canteraA)}; valid ${num(subject.range.Tmin)}–${num(subject.range.Tmax)} K`,
       },
@@ -226,6 +250,8 @@ export function buildCanteraYaml(
     ` Arrhenia mechanism parameters: ${oneLineText(subject.equation)}`,
     ...(subject.identifier ? [` doi:${oneLineText(subject.identifier)}`] : []),
     ` ${oneLineText(subject.caution)}`,
+    "",
+    ...speciesNameComment(subject.participants, names, naming),
   ].join("\n");
   // Numbers as JavaScript writes them (shortest text that reads back to the same double), never folded lines.
   return doc.toString({ lineWidth: 0 });

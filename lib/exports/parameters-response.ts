@@ -1,6 +1,7 @@
 import "server-only";
 import { AppError } from "@/lib/errors";
 import { buildCanteraYaml, buildMechanismTable, mechanismFileName, type MechanismSubject } from "./mechanism";
+import type { SpeciesNaming } from "./species-names";
 import { mechanismUnitsOrThrow, type MECHANISM_FITS, type MECHANISM_FORMATS } from "./requests";
 
 /**
@@ -9,7 +10,13 @@ import { mechanismUnitsOrThrow, type MECHANISM_FITS, type MECHANISM_FORMATS } fr
  */
 export function mechanismResponse(
   subject: MechanismSubject,
-  query: { format: (typeof MECHANISM_FORMATS)[number]; k?: string; energy?: string; fit: (typeof MECHANISM_FITS)[number] },
+  query: {
+    format: (typeof MECHANISM_FORMATS)[number];
+    k?: string;
+    energy?: string;
+    fit: (typeof MECHANISM_FITS)[number];
+    names?: SpeciesNaming;
+  },
   fileBase: string,
 ): Response {
   const units = mechanismUnitsOrThrow(subject.order, query);
@@ -17,7 +24,7 @@ export function mechanismResponse(
     const message = `fit “${query.fit}” was not made for this ${subject.kind === "version" ? "version" : "consensus"}: use preferred or ${subject.fits.map((f) => f.model).join(", ")}`;
     throw new AppError("bad_request", message, [{ pointer: "/fit", parameter: "fit", message }]);
   }
-  const body = query.format === "table" ? buildMechanismTable(subject, units) : buildCanteraYaml(subject, units, query.fit);
+  const body = query.format === "table" ? buildMechanismTable(subject, units) : buildCanteraYaml(subject, units, query.fit, query.names);
   return new Response(body, {
     headers: {
       "content-type": query.format === "table" ? "text/plain; charset=utf-8" : "application/yaml; charset=utf-8",

@@ -5,7 +5,7 @@
  * - GET /api/v1/datasets/:id/versions/:n/parameters and GET /api/v1/reactions/:key/parameters:
  *   format (table | cantera-yaml), k (a rate-constant unit of the reaction's order), energy (kJ mol-1,
  *   kcal mol-1, J mol-1, cal mol-1 or K), fit (preferred | arrhenius | modified_arrhenius, the fit the
- *   YAML carries); the reaction's also include, Tmin, Tmax (the consensus choice of the reaction page).
+ *   YAML carries), names (formula | deposited, how the YAML names species); the reaction's also include, Tmin, Tmax (the consensus choice of the reaction page).
  * - GET /api/v1/datasets/:id/versions/:n/export.json: no parameters.
  * - GET /api/v1/versions/:id/points.csv: bom (1/true: start with a UTF-8 byte order mark).
  * - GET /api/v1/search/export: format (csv | jsonl | json), bom, and every parameter of GET /api/v1/search
@@ -16,6 +16,7 @@ import { AppError, type FieldError } from "@/lib/errors";
 import type { ReactionOrder } from "@/lib/kinetics/types";
 import { parseEnergyUnit, parseRateConstantUnit, UnitError } from "@/lib/kinetics/units";
 import { DEFAULT_MECHANISM_ENERGY, MECHANISM_ENERGY_UNITS, mechanismRateUnits, type MechanismUnits } from "./mechanism";
+import { SPECIES_NAMINGS } from "./species-names";
 
 export const MECHANISM_FORMATS = ["table", "cantera-yaml"] as const;
 export const MECHANISM_FITS = ["preferred", "arrhenius", "modified_arrhenius"] as const;
@@ -31,6 +32,10 @@ export const versionParametersQuerySchema = z
     k: z.string().trim().min(1, "k must name a rate-constant unit").optional(),
     energy: z.string().trim().min(1, "energy must name an energy unit").optional(),
     fit: z.enum(MECHANISM_FITS, { error: `fit must be one of ${MECHANISM_FITS.join(", ")}` }).default("preferred"),
+    names: z
+      .enum(SPECIES_NAMINGS, { error: `names must be one of ${SPECIES_NAMINGS.join(", ")}` })
+      .default("formula")
+      .describe("How the YAML names species: formula (OH, CH4; isomers get part of their InChIKey) or deposited (the depositor's words)."),
   })
   .strict();
 

@@ -29,12 +29,23 @@ export async function publicVersionOfPathOrThrow(params: { id: string; n: string
   return loaded;
 }
 
-/** The participants of a reaction as the exports name them (display names, coefficients). */
-async function participantsOf(reactionId: number | null) {
-  const reaction = reactionId ? await getReaction({ id: reactionId }) : null;
+/**
+ * The participants of a reaction as the exports name them: display name, formula, charge and
+ * InChIKey, and the name the version's depositor gave (a consensus: the display name), with coefficients.
+ */
+async function participantsOf(reactionId: number | null, versionId?: number) {
+  const reaction = reactionId ? await getReaction({ id: reactionId, versionId }) : null;
   return {
     equation: reaction?.equation ?? "",
-    participants: (reaction?.participants ?? []).map((p) => ({ side: p.side, name: p.name, coefficient: Number(p.coefficient) })),
+    participants: (reaction?.participants ?? []).map((p) => ({
+      side: p.side,
+      name: p.name,
+      coefficient: Number(p.coefficient),
+      inchiKey: p.inchiKey,
+      formula: p.formula,
+      charge: p.charge,
+      depositedName: p.versionName ?? p.name,
+    })),
   };
 }
 
@@ -62,7 +73,7 @@ export async function versionMechanismSubjectOrThrow({
   return {
     kind: "version",
     title: version.title,
-    ...(await participantsOf(version.reactionId)),
+    ...(await participantsOf(version.reactionId, version.id)),
     order: doc.reaction.order,
     identifier: version.versionIdentifier,
     sources: [],

@@ -23,7 +23,7 @@ const isNewestPublic = and(
 );
 
 /** A reaction with its species (and the names people gave them). */
-export async function getReaction({ id }: { id: number }) {
+export async function getReaction({ id, versionId }: { id: number; versionId?: number }) {
   const db = getDb();
   const [reaction] = await db
     .select({ id: reactions.id, key: reactions.key, equation: sql<string>`${reactionDisplayEquation(sql`${reactions.id}`)}` })
@@ -36,11 +36,17 @@ export async function getReaction({ id }: { id: number }) {
       coefficient: reactionParticipants.coefficient,
       speciesId: species.id,
       formula: species.formula,
+      charge: species.charge,
       smiles: species.canonicalSmiles,
       inchiKey: species.inchiKey,
       molarMass: species.molarMass,
       /** The one name the species is shown by (lib/reactions/display-names.ts). */
       name: sql<string>`${speciesDisplayName(sql`${species.id}`, sql`${species.formula}`)}`,
+      /** The name one version's document gave the species (`versionId` given), else null. */
+      versionName: versionId
+        ? sql<string | null>`(select e->>'name' from ${datasetVersions} v, jsonb_array_elements(v.participant_names) e
+            where v.id = ${versionId} and (e->>'speciesId')::int = ${species.id} limit 1)`
+        : sql<string | null>`null`,
       // Names come from the published versions of this reaction, the newest first: a draft never renames a species.
       names: sql<string[]>`coalesce((
         select array_agg(name order by newest desc, name) from (

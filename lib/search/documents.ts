@@ -5,7 +5,7 @@ import { reactionParticipants, reactions, species, speciesNames } from "@/db/che
 import { datasetVersions, versionAnalyses } from "@/db/datasets";
 import { searchDocuments, searchReactionSummaries } from "@/db/search";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
-import type { ReactionOrder } from "@/lib/kinetics";
+import { getCanonicalRateConstantUnit, type ReactionOrder } from "@/lib/kinetics";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { DEFAULT_CONSENSUS_CHOICE } from "@/lib/reactions/consensus-selection";
 import type { ReactionHit, SearchFlag } from "./types";
@@ -21,12 +21,8 @@ import { recordSearchChange } from "@/lib/search/outbox";
  * fill): the same builder over batches of versions, so there is one definition of a document.
  */
 
-/** The canonical unit of k (and A) for a reaction order, as shown. */
-export const RATE_UNIT_LABELS: Record<ReactionOrder, string> = {
-  1: "s⁻¹",
-  2: "cm³ molecule⁻¹ s⁻¹",
-  3: "cm⁶ molecule⁻² s⁻¹",
-};
+/** The canonical unit of k (and A) for a reaction order, as files write it (lib/unit-labels.ts unitText; pages show unitLabel). */
+const rateUnitOf = (order: ReactionOrder) => getCanonicalRateConstantUnit(order);
 
 /** Analysis flag codes (lib/kinetics) and stored check codes behind each search flag. */
 const FLAG_CODES: Record<Exclude<SearchFlag, "none">, string[]> = {
@@ -364,7 +360,7 @@ function documentRow(v: {
     flags: searchFlagsOf(codes),
     ea: fit && Number.isFinite(fit.Ea) ? fit.Ea : null,
     a: fit?.A ?? null,
-    aUnit: order ? RATE_UNIT_LABELS[order] : null,
+    aUnit: order ? rateUnitOf(order) : null,
     publishedAt: v.publishedAt,
   };
 }
@@ -452,7 +448,7 @@ async function consensusOf(tx: Transaction, reactionId: number): Promise<Reactio
     a: preferred.params.A,
     n: "n" in preferred.params ? (preferred.params.n as number) : 0,
     ea: preferred.params.Ea,
-    aUnit: RATE_UNIT_LABELS[result.order],
+    aUnit: rateUnitOf(result.order),
     tMin: result.range.Tmin,
     tMax: result.range.Tmax,
   };

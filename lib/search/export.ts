@@ -5,6 +5,7 @@ import { appUrl } from "@/lib/config";
 import { csvCommentLine, textCell } from "@/lib/datasets/point-export";
 import { versionPath } from "@/lib/identifiers/paths";
 import { reactionPath } from "@/lib/reactions/paths";
+import { hitInFileUnits } from "./hit-units";
 import { currentSearchEngine } from "./index";
 import { toSearchParams } from "./params";
 import { displayEquations } from "./lexicon";
@@ -94,6 +95,12 @@ function csvLine(row: Row, columns: string[]): string {
     .join(",");
 }
 
+/** The units of the export's numbers, in the files' ASCII spelling (lib/unit-labels.ts unitText). */
+const EXPORT_UNITS = { T: "K", Ea: "J mol-1", A: "the unit in A_unit (the canonical unit of the reaction's order)" };
+
+/** The CSV header's units line: plain text like every other header line. */
+const EXPORT_UNITS_LINE = `T in ${EXPORT_UNITS.T}; Ea in ${EXPORT_UNITS.Ea}; A in ${EXPORT_UNITS.A}: s-1, cm3 molecule-1 s-1 or cm6 molecule-2 s-1`;
+
 /** What the file says about itself: the search, when, the caution, where licences and citations are. */
 function aboutOf(request: SearchRequest, words: string, origin: string) {
   const query = toSearchParams({ ...request, cursor: null, limit: undefined }, { cursor: false }).toString();
@@ -102,7 +109,7 @@ function aboutOf(request: SearchRequest, words: string, origin: string) {
     understood: words,
     view: request.view,
     exportedAt: new Date().toISOString(),
-    units: { T: "K", Ea: "J mol-1", A: "as A_unit names it (the canonical unit of the reaction's order)" },
+    units: EXPORT_UNITS,
     consensus:
       request.view === "reactions" ? "A (T/T0)^n exp(-Ea/(R T)) with T0 = 298.15 K, over the reaction's published datasets" : undefined,
     licences: "each dataset under its own licence, named on its page",
@@ -151,12 +158,12 @@ export async function searchExportStream(request: SearchRequest, options: Search
   const nextBatch = async (): Promise<{ text: string; last: boolean }> => {
     const page = await engine.search({ parsed, view: request.view, filters: request.filters, sort: request.sort, after, limit: batch });
     let list: Row[];
-    if (page.view === "reactions") list = (page.hits as ReactionHit[]).map((h) => reactionRow(h, origin));
+    if (page.view === "reactions") list = (page.hits as ReactionHit[]).map((h) => reactionRow(hitInFileUnits(h), origin));
     else {
       // Rows name species as every public page does, whatever the engine stored.
       const hits = page.hits as DatasetHit[];
       const equations = await displayEquations([...new Set(hits.map((h) => h.reactionKey))]);
-      list = hits.map((h) => datasetRow({ ...h, equation: equations.get(h.reactionKey) ?? h.equation }, origin));
+      list = hits.map((h) => datasetRow(hitInFileUnits({ ...h, equation: equations.get(h.reactionKey) ?? h.equation }), origin));
     }
     const text = rowsText(list);
     rows += list.length;
@@ -172,7 +179,7 @@ export async function searchExportStream(request: SearchRequest, options: Search
       ? [
           ...Object.entries(about)
             .filter(([, v]) => v !== undefined)
-            .map(([label, v]) => csvCommentLine(label, typeof v === "string" ? v : JSON.stringify(v))),
+            .map(([label, v]) => csvCommentLine(label, label === "units" ? EXPORT_UNITS_LINE : String(v))),
           columns.join(","),
         ].join("\r\n") + "\r\n"
       : format === "jsonl"

@@ -1,4 +1,5 @@
 import "server-only";
+import { hitInFileUnits } from "./hit-units";
 import { searchEngineName } from "@/lib/config";
 import { cursorPositionOrThrow, signCursor } from "./cursor";
 import { meilisearchEngine } from "./engines/meilisearch";
@@ -54,7 +55,9 @@ export async function search(request: SearchRequest, engine: SearchEngine = curr
   });
   // Rows name species as every public page does (one display name each), whatever the engine stored.
   const equations = await displayEquations([...new Set(result.hits.map((h) => h.reactionKey))]);
-  const hits = result.hits.map((h) => ({ ...h, equation: equations.get(h.reactionKey) ?? h.equation })) as SearchResult["hits"];
+  const hits = result.hits.map((h) =>
+    hitInFileUnits({ ...h, equation: equations.get(h.reactionKey) ?? h.equation }),
+  ) as SearchResult["hits"];
   return {
     query: request,
     parsed: { words, query: parsed },

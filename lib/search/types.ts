@@ -125,7 +125,7 @@ export interface SearchDocument {
   /** Re-fit (Arrhenius) activation energy in J mol⁻¹ and A in the canonical unit for the reaction's order; null if not fitted. */
   ea: number | null;
   a: number | null;
-  /** The canonical unit A is in, as shown (e.g. "cm³ molecule⁻¹ s⁻¹"). */
+  /** The canonical unit A is in, in the files' ASCII spelling ("cm3 molecule-1 s-1"; pages show unitLabel of it). */
   aUnit: string | null;
   /** ISO 8601. */
   publishedAt: string;

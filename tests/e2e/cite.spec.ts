@@ -76,6 +76,10 @@ test("the version page's URL answers citation formats by Accept, and HTML otherw
   const csl = await request.get(`${v.path}?k=L+mol-1+s-1`, { headers: { Accept: "application/vnd.citationstyles.csl+json" } });
   expect(csl.headers()["content-type"]).toBe("application/vnd.citationstyles.csl+json; charset=utf-8");
   expect((await csl.json())[0].type).toBe("dataset");
+  // Quality values decide whatever the order written (lib/http/content-negotiation.ts, negotiator).
+  const preferred = await request.get(v.path, { headers: { Accept: "text/html;q=0.5, application/x-bibtex;q=0.9" } });
+  expect(preferred.headers()["content-type"]).toBe("application/x-bibtex; charset=utf-8");
+  expect(preferred.headers()["vary"]).toMatch(/Accept/i);
   const html = await request.get(v.path, { headers: { Accept: "text/html,application/x-bibtex;q=0.5" } });
   expect(html.headers()["content-type"]).toMatch(/^text\/html/);
   expect(html.headers()["vary"]).toMatch(/Accept/i);

@@ -25,7 +25,8 @@ async function publishedVersion(page: Page): Promise<{ datasetId: number; versio
   // Second order, so A is in cm³ molecule⁻¹ s⁻¹ on the page by default.
   const hit = (await res.json()).hits.find(
     (h: { retracted: boolean; ea: number | null; aUnit: string | null }) =>
-      !h.retracted && h.ea !== null && h.aUnit === "cm³ molecule⁻¹ s⁻¹",
+      // The API writes units as files do (ASCII ids); the page shows them with superscripts.
+      !h.retracted && h.ea !== null && h.aUnit === "cm3 molecule-1 s-1",
   );
   expect(hit, "a published demo dataset with a fit").toBeDefined();
   return hit;

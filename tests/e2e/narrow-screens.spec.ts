@@ -113,6 +113,8 @@ test("the signed-in header folds into a menu on a phone that the keyboard opens"
 test("a wide code block scrolls by keyboard and says so", async ({ page }) => {
   await page.setViewportSize(PHONE);
   await page.goto("/docs/api");
+  // The section is folded (details/summary) until opened.
+  await page.locator("summary", { has: page.locator("#analyses") }).click();
   const region = page.getByRole("region", { name: "Example request and response" });
   await region.focus();
   await expect(region).toBeFocused();
@@ -120,7 +122,12 @@ test("a wide code block scrolls by keyboard and says so", async ({ page }) => {
   await page.keyboard.press("ArrowRight");
   await page.keyboard.press("ArrowRight");
   await expect.poll(() => region.evaluate((el) => el.scrollLeft)).toBeGreaterThan(before);
-  await expect(page.getByText(/scroll sideways/).first()).toBeVisible();
+  await expect(
+    page
+      .getByText(/scroll sideways/)
+      .filter({ visible: true })
+      .first(),
+  ).toBeVisible();
 });
 
 /** The tick labels of every plot axis on the page, with their horizontal extent. */
@@ -181,3 +188,36 @@ for (const [name, size] of [
     expect(problems).toEqual([]);
   });
 }
+
+test("the API reference is folded on a phone: every endpoint listed, each opens without JavaScript", async ({ browser }) => {
+  const context = await browser.newContext({ viewport: PHONE, javaScriptEnabled: false });
+  const page = await context.newPage();
+  try {
+    await page.goto("/docs/api");
+    // Folded, the page is a list of endpoints: a few screens, not tens of thousands of pixels.
+    const folded = await page.evaluate(() => document.documentElement.scrollHeight);
+    expect(folded).toBeLessThan(16_000);
+    const openapi = await (await page.request.get("/api/v1/openapi.json")).json();
+    const operations = Object.values(openapi.paths as Record<string, Record<string, unknown>>).flatMap((m) => Object.keys(m)).length;
+    const endpoints = page.locator("details[id^='op-']");
+    await expect(endpoints).toHaveCount(operations);
+    // A summary opens its endpoint (no script on the page), and the examples inside open the same way.
+    const species = page.locator("#op-getSpeciesByInchikey");
+    await species.locator(":scope > summary").click();
+    await expect(species).toHaveAttribute("open", "");
+    await expect(species.getByText(/matching \^\[A-Z\]\{14\}/)).toBeVisible();
+    await species.locator("details > summary").click();
+    await expect(species.getByText(/curl -s/)).toBeVisible();
+    console.log(`/docs/api on a 390 px phone, folded: ${folded} px`);
+  } finally {
+    await context.close();
+  }
+});
+
+test("the API reference with every section and endpoint open: no wider than a phone, no serious axe finding", async ({ page }) => {
+  await page.setViewportSize(PHONE);
+  await page.goto("/docs/api");
+  await page.evaluate(() => document.querySelectorAll("details").forEach((d) => d.setAttribute("open", "")));
+  expect(await widthAndAxeProblems(page, "/docs/api (every section open)")).toEqual([]);
+  console.log(`/docs/api on a 390 px phone, all open: ${await page.evaluate(() => document.documentElement.scrollHeight)} px`);
+});

@@ -256,6 +256,10 @@ describe("export of a whole search result", () => {
     const comments = lines.filter((l) => l.startsWith('"#')).map((l) => Papa.parse<string[]>(l, { delimiter: "," }).data[0][0]);
     expect(comments).toContain(`# caution: ${FIT_CAUTION}`);
     expect(comments.find((l) => l.startsWith("# search: "))).toContain(`q=${WORD}`);
+    // The units line is plain text like every header line, in the files' ASCII spelling.
+    const units = comments.find((l) => l.startsWith("# units: "))!;
+    expect(units).toMatch(/^# units: T in K; Ea in J mol-1; A in /);
+    expect(units).not.toMatch(/[{}⁻³]/);
     const table = Papa.parse<Record<string, string>>(lines.filter((l) => !l.startsWith('"#')).join("\n"), {
       header: true,
       skipEmptyLines: true,
@@ -266,6 +270,8 @@ describe("export of a whole search result", () => {
       expect(row.title).toContain(WORD);
       expect(row.version_identifier).toMatch(/^10\.5072\/ARH-/);
       expect(row.page).toMatch(/\/datasets\/\d+\/v\d+$/);
+      // One spelling of a unit in every file meant for scripts (lib/unit-labels.ts unitText), whatever the stored document holds.
+      if (row.A_unit) expect(row.A_unit).toMatch(/^(s-1|cm3 molecule-1 s-1|cm6 molecule-2 s-1)$/);
     }
   });
 

@@ -362,7 +362,7 @@ export function runSearchConformance(
         tMax: 350,
         pointCount: 7,
         creators: [creator],
-        aUnit: "cm³ molecule⁻¹ s⁻¹",
+        aUnit: "cm3 molecule-1 s-1",
       });
       expect(hit.equation).toMatch(/hydroxyl/);
       expect(hit.versionIdentifier).toMatch(/\/1$/);

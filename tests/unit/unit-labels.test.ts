@@ -3,8 +3,37 @@ import { createElement as h } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { PointTable } from "@/components/point-table";
 import type { PointRow } from "@/lib/datasets/point-table";
-import { convertEntropy, energyQuantityLabel, entropyQuantityLabel, quantityLabel, unitLabel } from "@/lib/unit-labels";
+import { convertEntropy, energyQuantityLabel, entropyQuantityLabel, quantityLabel, unitLabel, unitText } from "@/lib/unit-labels";
+import { hitInFileUnits } from "@/lib/search/hit-units";
+import type { DatasetHit, ReactionHit } from "@/lib/search/types";
 import { GAS_CONSTANT } from "@/lib/kinetics";
+
+describe("one spelling of a unit per medium: ASCII ids in files, superscripts on pages", () => {
+  it.each([
+    ["rateConstant", "cm³ molecule⁻¹ s⁻¹", "cm3 molecule-1 s-1", "cm³ molecule⁻¹ s⁻¹"],
+    ["rateConstant", "cm3/molecule/s", "cm3 molecule-1 s-1", "cm³ molecule⁻¹ s⁻¹"],
+    ["rateConstant", "s⁻¹", "s-1", "s⁻¹"],
+    ["rateConstant", "cm⁶ molecule⁻² s⁻¹", "cm6 molecule-2 s-1", "cm⁶ molecule⁻² s⁻¹"],
+    ["energy", "kJ/mol", "kJ mol-1", "kJ mol⁻¹"],
+    ["temperature", "°C", "degC", "°C"],
+  ] as const)("%s %s → file %s, page %s", (kind, stored, file, page) => {
+    expect(unitText(kind, stored)).toBe(file);
+    expect(unitLabel(kind, file)).toBe(page);
+    // Every file spelling is plain ASCII.
+    expect(file).toMatch(/^[\x20-\x7e]+$/);
+  });
+
+  it("gives an unknown unit back as it is, and nothing for nothing", () => {
+    expect(unitText("rateConstant", "furlongs per fortnight")).toBe("furlongs per fortnight");
+    expect(unitText("rateConstant", null)).toBeNull();
+  });
+
+  it("a search hit stored with a page label comes out in the file spelling", () => {
+    expect(hitInFileUnits({ aUnit: "cm³ molecule⁻¹ s⁻¹" } as DatasetHit).aUnit).toBe("cm3 molecule-1 s-1");
+    const reaction = { reactionKey: "x", consensus: { aUnit: "s⁻¹" } } as ReactionHit;
+    expect(hitInFileUnits(reaction).consensus?.aUnit).toBe("s-1");
+  });
+});
 
 describe("unit labels", () => {
   it("names energies once, and an energy shown as a temperature as E/R", () => {

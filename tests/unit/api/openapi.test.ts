@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import { API_ENDPOINTS } from "@/lib/api/endpoints";
 import { curlExample, pythonExample } from "@/lib/api/examples";
 import { buildOpenApiDocument, operationId, openApiPath } from "@/lib/api/openapi";
+import { describeSchema } from "@/app/docs/api/api-reference";
 
 const BASE = "https://arrhenia.example";
 
@@ -32,6 +33,51 @@ describe("the OpenAPI document", () => {
       (doc.paths[path].get as { parameters: { name: string; schema: Record<string, unknown> }[] }).parameters;
     expect(params("/api/v1/datasets").find((p) => p.name === "limit")?.schema).toMatchObject({ type: "string", pattern: "^\\d{1,4}$" });
     expect(params("/api/v1/datasets/{id}/citation").find((p) => p.name === "format")?.schema.enum).toContain("bibtex");
+  });
+
+  it("types every path parameter: integer ids (1 … 2³¹−1), version numbers, InChIKeys and reaction keys by pattern", () => {
+    type Param = { name: string; in: string; schema: Record<string, unknown> };
+    const pathParams = (path: string, method = "get") =>
+      ((doc.paths[path] as Record<string, { parameters: Param[] }>)[method].parameters ?? []).filter((p) => p.in === "path");
+    for (const [path, methods] of Object.entries(doc.paths))
+      for (const op of Object.values(methods as Record<string, { parameters?: Param[] }>))
+        for (const p of (op.parameters ?? []).filter((x) => x.in === "path"))
+          expect(p.schema, `${path} ${p.name}`).not.toEqual({ type: "string" });
+    expect(pathParams("/api/v1/datasets/{id}")[0].schema).toMatchObject({ type: "integer", minimum: 1, maximum: 2147483647 });
+    const n = pathParams("/api/v1/datasets/{id}/versions/{n}").find((p) => p.name === "n")!.schema;
+    expect(n).toMatchObject({ type: "integer", minimum: 1 });
+    const inchikey = pathParams("/api/v1/species/{inchikey}")[0].schema;
+    expect(new RegExp(inchikey.pattern as string).test("VNWKTOKETHGBQD-UHFFFAOYSA-N")).toBe(true);
+    expect(new RegExp(inchikey.pattern as string).test("methane")).toBe(false);
+    const reaction = pathParams("/api/v1/reactions/{id}")[0].schema as { anyOf: { pattern?: string }[] };
+    const keyPattern = new RegExp(reaction.anyOf.find((s) => s.pattern)!.pattern!);
+    expect(
+      keyPattern.test("TUJKJAMUKRIRHC-UHFFFAOYSA-N+VNWKTOKETHGBQD-UHFFFAOYSA-N~WCYWZMWISLQXQU-UHFFFAOYSA-N+XLYOFNOQVPJJNP-UHFFFAOYSA-N"),
+    ).toBe(true);
+    expect(keyPattern.test("OH+CH4")).toBe(false);
+    // The reference page words them.
+    expect(describeSchema(pathParams("/api/v1/datasets/{id}")[0].schema)).toBe("integer, 1 to 2147483647");
+    expect(describeSchema(pathParams("/api/v1/reactions/{id}")[0].schema)).toMatch(/^integer, 1 to 2147483647, or string, matching \^/);
+  });
+
+  it("describes the main JSON answers by schema and every problem answer by the Problem schema", () => {
+    const schemas = doc.components.schemas as Record<string, Record<string, unknown>>;
+    const ok = (path: string, method = "get", status = "200") =>
+      (doc.paths[path] as Record<string, { responses: Record<string, { content: Record<string, { schema: { $ref?: string } }> }> }>)[method]
+        .responses[status].content;
+    expect(ok("/api/v1/datasets/{id}")["application/json"].schema.$ref).toBe("#/components/schemas/DatasetSeries");
+    expect(ok("/api/v1/search")["application/json"].schema.$ref).toBe("#/components/schemas/SearchAnswer");
+    expect(ok("/api/v1/datasets", "post", "201")["application/json"].schema.$ref).toBe("#/components/schemas/CreatedDraft");
+    expect(schemas.DatasetSeries).toMatchObject({ type: "object", required: ["data"] });
+    for (const [path, methods] of Object.entries(doc.paths))
+      for (const op of Object.values(
+        methods as Record<string, { responses: Record<string, { content?: Record<string, { schema: unknown }> }> }>,
+      ))
+        for (const [status, answer] of Object.entries(op.responses))
+          if (Number(status) >= 400)
+            expect(answer.content?.["application/problem+json"].schema, `${path} ${status}`).toEqual({
+              $ref: "#/components/schemas/Problem",
+            });
   });
 
   it("names the scope of every token endpoint and marks public reads as cacheable (304)", () => {

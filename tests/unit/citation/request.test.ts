@@ -1,12 +1,11 @@
 import { describe, expect, it } from "vitest";
 import { citationQueryOrThrow, negotiateCitationFormat, parseCitationQueryOrThrow } from "@/lib/citation/request";
 import { AppError } from "@/lib/errors";
-// @ts-expect-error -- next.config.mjs is JavaScript, which the type check leaves out (allowJs is off)
-import { acceptRewritesToCitation as acceptRewritesToCitationUntyped } from "@/next.config.mjs";
+import { citationRewriteTarget, negotiateDatasetPage } from "@/lib/http/content-negotiation";
 
-const acceptRewritesToCitation = acceptRewritesToCitationUntyped as (accept: string) => boolean;
+const acceptRewritesToCitation = (accept: string) => negotiateDatasetPage(accept) !== "html";
 
-describe("negotiateCitationFormat (RFC 9110 §12.5.1: highest q, then the order written)", () => {
+describe("negotiateCitationFormat (RFC 9110 §12.5.1: highest q, then the more specific, then the order written)", () => {
   it.each([
     ["application/x-bibtex", "bibtex"],
     ["application/x-research-info-systems", "ris"],
@@ -17,11 +16,13 @@ describe("negotiateCitationFormat (RFC 9110 §12.5.1: highest q, then the order 
     ["APPLICATION/X-BIBTEX", "bibtex"],
     ["application/x-bibtex;q=0", null],
     ["text/html", null],
+    ["application/*", "bibtex"],
+    ["*/*;q=0.5, application/x-research-info-systems;q=0.4", "bibtex"],
     [null, null],
   ])("%s → %s", (accept, format) => expect(negotiateCitationFormat(accept)).toBe(format));
 });
 
-describe("a dataset page's rewrite to the citation endpoint (next.config.mjs), by Accept", () => {
+describe("a dataset page's rewrite to the citation endpoint (proxy.ts), by Accept", () => {
   // RFC 9110 §12.5.1 (quality values; q=0 is "not acceptable") and §8.3.1 (media types are case-insensitive).
   it.each([
     ["application/x-bibtex", true],
@@ -36,8 +37,24 @@ describe("a dataset page's rewrite to the citation endpoint (next.config.mjs), b
     ["Text/HTML, application/x-bibtex", false],
     ["text/html,application/xhtml+xml,application/xml;q=0.9,*/*;q=0.8", false],
     ["application/x-bibtexx", false],
+    // Quality values decide, whatever the order written (RFC 9110 §12.4.2).
+    ["text/html;q=0.5, application/x-bibtex;q=0.9", true],
+    ["application/x-bibtex;q=0.4, text/html;q=0.5", false],
+    ["text/html;q=0.9, application/x-research-info-systems;q=0.95", true],
+    // Wildcards: a range covering the page and a citation type alike gives the page; a named type beats the range.
+    ["*/*", false],
+    ["text/*", false],
+    ["*/*;q=0.1, application/x-bibtex", true],
+    ["text/html;q=0.5, */*", true],
+    ["text/*;q=0.2, application/vnd.citationstyles.csl+json;q=0.3", true],
+    // Ties at equal quality and specificity: the one written first (negotiator's rule).
+    ["application/x-bibtex, text/html", true],
+    ["text/html;q=0.7, application/x-bibtex;q=0.7", false],
+    ["application/x-bibtex;q=0.7, text/html;q=0.7", true],
+    ["", false],
   ])("%s → citation: %s", (accept, citation) => {
     expect(acceptRewritesToCitation(accept)).toBe(citation);
+    expect(citationRewriteTarget("GET", "/datasets/3/v2", accept) !== null).toBe(citation);
     // Whatever the rewrite passes on, the endpoint reads a format from.
     if (citation) expect(negotiateCitationFormat(accept)).not.toBeNull();
   });
@@ -70,5 +87,19 @@ describe("citationQueryOrThrow", () => {
       expect((e as AppError).status).toBe(400);
       expect((e as AppError).errors.map((x) => x.parameter).sort()).toEqual(["extra", "style"]);
     }
+  });
+});
+
+describe("citationRewriteTarget (proxy.ts)", () => {
+  it("rewrites a version page and a series page to the citation endpoint with the negotiated format", () => {
+    expect(citationRewriteTarget("GET", "/datasets/3/v2", "application/x-research-info-systems")).toBe(
+      "/api/v1/datasets/3/citation?format=ris&version=2",
+    );
+    expect(citationRewriteTarget("HEAD", "/datasets/3", "text/x-bibliography; style=apa")).toBe("/api/v1/datasets/3/citation?format=text");
+  });
+  it("leaves other methods and other paths to the page", () => {
+    expect(citationRewriteTarget("POST", "/datasets/3/v2", "application/x-bibtex")).toBeNull();
+    expect(citationRewriteTarget("GET", "/datasets/3/v2/edit", "application/x-bibtex")).toBeNull();
+    expect(citationRewriteTarget("GET", "/datasets/03", "application/x-bibtex")).toBeNull();
   });
 });

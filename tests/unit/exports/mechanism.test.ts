@@ -11,6 +11,7 @@ import {
   type MechanismSubject,
 } from "@/lib/exports/mechanism";
 import { mechanismUnitsOrThrow, parseQueryOrThrow, versionParametersQuerySchema } from "@/lib/exports/requests";
+import { formulaName, mechanismSpeciesNames } from "@/lib/exports/species-names";
 import type { ReactionOrder } from "@/lib/kinetics/types";
 // Source: CODATA 2018 recommended values (N_A and R exact since the 2019 SI), and the thermochemical
 // calorie 4.184 J (NIST SP 811, 2008, B.8): tests/fixtures/units-codata2018.json.
@@ -27,10 +28,35 @@ function subject(order: ReactionOrder): MechanismSubject {
     kind: "version",
     title: "Invented test dataset",
     equation: "OH + methyl radical → methanol",
+    // InChIKey-shaped keys invented for the test (the naming only compares them).
     participants: [
-      { side: "reactant", name: "OH", coefficient: 1 },
-      { side: "reactant", name: "methyl radical", coefficient: 1 },
-      { side: "product", name: "methanol", coefficient: 1 },
+      {
+        side: "reactant",
+        name: "OH",
+        coefficient: 1,
+        inchiKey: "AAAAAAAAAAAAAA-UHFFFAOYSA-N",
+        formula: "HO",
+        charge: 0,
+        depositedName: "hydroxyl",
+      },
+      {
+        side: "reactant",
+        name: "methyl radical",
+        coefficient: 1,
+        inchiKey: "BBBBBBBBBBBBBB-UHFFFAOYSA-N",
+        formula: "CH3",
+        charge: 0,
+        depositedName: "methyl radical",
+      },
+      {
+        side: "product",
+        name: "methanol",
+        coefficient: 1,
+        inchiKey: "CCCCCCCCCCCCCC-UHFFFAOYSA-N",
+        formula: "CH4O",
+        charge: 0,
+        depositedName: "methanol",
+      },
     ],
     order,
     identifier: "10.5072/ARH-TEST-0000/1",
@@ -76,7 +102,7 @@ describe("Cantera YAML of a fit", () => {
             expect(doc.units).toMatchObject({ time: "s", "activation-energy": energy.cantera });
             expect(doc.reactions).toHaveLength(1);
             const [reaction] = doc.reactions;
-            expect(reaction.equation).toBe("OH + methyl_radical => methanol");
+            expect(reaction.equation).toBe("OH + CH3 => CH4O");
             const { A, b, Ea } = reaction["rate-constant"];
             const model = fit === "preferred" ? "modified_arrhenius" : fit;
             const source = s.fits.find((f) => f.model === model)!;
@@ -110,13 +136,13 @@ describe("Cantera YAML of a fit", () => {
       title: "Rates\u2028injected: 1\u2029other: 2\u0085third: 3",
       equation: "OH + CH4\u2028units: broken",
       participants: [
-        { side: "reactant", name: "OH\u2028x: 1", coefficient: 1 },
-        { side: "product", name: "water\u202E", coefficient: 1 },
+        { ...subject(2).participants[0], name: "OH\u2028x: 1", depositedName: "OH\u2028x: 1" },
+        { ...subject(2).participants[2], side: "product", name: "water\u202E", depositedName: "water\u202E" },
       ],
       citation: "Invented\u2028, A.\u200B (2026).",
       caution: "Caution\u2028sentence: yes",
     };
-    const text = buildCanteraYaml(odd, { kUnit: "cm3 molecule-1 s-1", energyUnit: "kcal mol-1" });
+    const text = buildCanteraYaml(odd, { kUnit: "cm3 molecule-1 s-1", energyUnit: "kcal mol-1" }, "preferred", "deposited");
     expect(text).not.toMatch(/[\u0085\u2028\u2029\u200B\u202A-\u202E\u2066-\u2069]/);
     const as12 = parse(text);
     const as11 = parse(text.replace(/[\u0085\u2028\u2029]/g, "\n"));
@@ -124,16 +150,67 @@ describe("Cantera YAML of a fit", () => {
     expect(Object.keys(as12)).toEqual(["description", "units", "reactions"]);
     expect(as12.description).toContain("dataset: Rates injected: 1 other: 2 third: 3");
     expect(as12.reactions[0].equation).toBe("OH_x:_1 => water");
-    expect(text.split("\n").filter((l) => l.startsWith("#"))).toHaveLength(3);
+    // Three lines about the file, then (after a blank line) the names' explanation and heading, one line per species.
+    expect(text.split("\n").filter((l) => l.startsWith("#"))).toHaveLength(3 + 2 + 2);
   });
 
-  it("writes the equation with coefficients and names made whole words", () => {
-    expect(
-      canteraEquation([
-        { side: "reactant", name: "OH", coefficient: 2 },
-        { side: "product", name: "hydrogen  peroxide", coefficient: 1 },
-      ]),
-    ).toBe("2 OH => hydrogen_peroxide");
+  it("writes the equation with coefficients and the file's names", () => {
+    const [oh, , methanol] = subject(2).participants;
+    const participants = [
+      { ...oh, coefficient: 2 },
+      { ...methanol, name: "hydrogen  peroxide", depositedName: "hydrogen  peroxide" },
+    ];
+    expect(canteraEquation(participants, mechanismSpeciesNames(participants, "deposited"))).toBe("2 hydroxyl => hydrogen_peroxide");
+    expect(canteraEquation(participants, mechanismSpeciesNames(participants))).toBe("2 OH => CH4O");
+  });
+
+  it("names species by formula by default, with the name ↔ InChIKey ↔ depositor's name map as comments; names=deposited keeps the words", () => {
+    const text = buildCanteraYaml(subject(2), { kUnit: "cm3 molecule-1 s-1", energyUnit: "kJ mol-1" });
+    expect(parse(text).reactions[0].equation).toBe("OH + CH3 => CH4O");
+    const comments = text.split("\n").filter((l) => l.startsWith("#"));
+    expect(comments.find((l) => l.includes("AAAAAAAAAAAAAA-UHFFFAOYSA-N"))).toMatch(/^# OH\s+AAAAAAAAAAAAAA-UHFFFAOYSA-N\s+hydroxyl$/);
+    expect(comments.find((l) => l.includes("BBBBBBBBBBBBBB"))).toMatch(/^# CH3\s+BBBBBBBBBBBBBB-UHFFFAOYSA-N\s+methyl radical$/);
+    const words = buildCanteraYaml(subject(2), { kUnit: "cm3 molecule-1 s-1", energyUnit: "kJ mol-1" }, "preferred", "deposited");
+    expect(parse(words).reactions[0].equation).toBe("hydroxyl + methyl_radical => methanol");
+  });
+});
+
+describe("species names in a mechanism file", () => {
+  const sp = (inchiKey: string, formula: string, depositedName: string, charge = 0) => ({ inchiKey, formula, charge, depositedName });
+  it("writes the usual formula where it differs from Hill order, and the charge after it (common practice)", () => {
+    expect(formulaName("HO", 0)).toBe("OH");
+    expect(formulaName("H3N", 0)).toBe("NH3");
+    expect(formulaName("ClH", 0)).toBe("HCl");
+    expect(formulaName("CH4", 0)).toBe("CH4");
+    expect(formulaName("HO2", 0)).toBe("HO2");
+    expect(formulaName("HO", -1)).toBe("OH-");
+    expect(formulaName("O2", -2)).toBe("O22-");
+    // A formula shared by isomers keeps its Hill form (HNO2: nitrous acid or nitryl hydride).
+    expect(formulaName("HNO2", 0)).toBe("HNO2");
+  });
+
+  it("never merges two species: isomers sharing a formula get the shortest distinguishing part of their InChIKey", () => {
+    // Invented InChIKey-shaped keys of two C3H7 isomers and of a third species.
+    const nPropyl = sp("KDYFGRWQOYBRFD-UHFFFAOYSA-N", "C3H7", "n-propyl");
+    const isoPropyl = sp("KDYFXXXXOYBRFD-UHFFFAOYSA-N", "C3H7", "isopropyl");
+    const water = sp("XLYOFNOQVPJJNP-UHFFFAOYSA-N", "H2O", "water");
+    const names = mechanismSpeciesNames([nPropyl, isoPropyl, water, nPropyl]);
+    expect(names.get(nPropyl.inchiKey)).toBe("C3H7-KDYFG");
+    expect(names.get(isoPropyl.inchiKey)).toBe("C3H7-KDYFX");
+    expect(names.get(water.inchiKey)).toBe("H2O");
+    expect(new Set(names.values()).size).toBe(3);
+    // Two species a depositor gave one word are told apart the same way.
+    const same = mechanismSpeciesNames(
+      [sp("AAAAAAAAAAAAAA-B-N", "C2H4O", "oxide"), sp("CCCCCCCCCCCCCC-B-N", "C2H4O", "oxide")],
+      "deposited",
+    );
+    expect([...same.values()]).toEqual(["oxide-AAAA", "oxide-CCCC"]);
+    // A depositor's word that happens to be a suffixed name still cannot merge.
+    const clash = mechanismSpeciesNames(
+      [sp("AAAAAAAAAAAAAA-B-N", "X", "X"), sp("AAAAZZZZZZZZZZ-B-N", "X", "X"), sp("QQQQQQQQQQQQQQ-B-N", "Y", "X-AAAAA")],
+      "deposited",
+    );
+    expect(new Set(clash.values()).size).toBe(3);
   });
 });
 

@@ -26,7 +26,7 @@ export const GET = withApi<{ id: string }>(
       headers: {
         "content-type": `${mediaType}; charset=utf-8`,
         "x-content-type-options": "nosniff",
-        // The same URL answers the version page's content negotiation (next.config.mjs rewrites).
+        // The same URL answers the version page's content negotiation (proxy.ts, lib/http/content-negotiation.ts).
         vary: "Accept",
       },
     });
