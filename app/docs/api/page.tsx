@@ -487,7 +487,7 @@ export default function ApiDocsPage() {
               <code>application/x-www-form-urlencoded</code> body): every published version is one record,{" "}
               <code>oai:&lt;host&gt;:&lt;version identifier&gt;</code>, in <code>oai_dc</code> or <code>oai_datacite</code> (the DataCite
               metadata of <code>datacite.xml</code>); sets are the reaction classes; <code>from</code>/<code>until</code> at day or second
-              granularity, both inclusive; a record's date moves when it is published, retracted or gains a newer version; a retracted
+              granularity, both inclusive; a record’s date moves when it is published, retracted or gains a newer version; a retracted
               version stays as a deleted record; lists come a page at a time with a signed resumption token that expires after a day. Start
               with <code>{`${appUrl()}/oai?verb=Identify`}</code>.
             </li>
