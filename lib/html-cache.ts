@@ -48,8 +48,12 @@ const BYPASS_HEADERS = [
   "next-router-segment-prefetch",
 ];
 
-/** next-auth's session cookie (`next-auth.session-token`, `__Secure-…`, chunked `.0`, `.1`). */
-const SESSION_COOKIE = /(?:^|;\s*)(?:__Secure-|__Host-)?next-auth\.session-token(?:\.\d+)?=/;
+/**
+ * Any cookie next-auth may read as (part of) a session: it takes every cookie whose name *starts*
+ * with its session cookie's name (`next-auth.session-token`, `__Secure-…`, chunks `.0`, `.1` — and
+ * any other suffix), so a name that merely contains it bypasses the cache (case ignored, to be safe).
+ */
+const SESSION_COOKIE = /(?:^|;)[^=;]*next-auth\.session-token[^=;]*=/i;
 
 /** Response header saying whether the answer came from the cache (`hit`) or was rendered and stored (`miss`). */
 export const HTML_CACHE_HEADER = "x-arrhenia-html-cache";

@@ -216,7 +216,7 @@ function speciesNameComment(participants: MechanismSubject["participants"], name
 
 /**
  * The YAML block (built with the `yaml` package): a `description`, the `units` Cantera reads the
- * numbers in, and `reactions` with the chosen fit (the preferred one by default) as an elementary
+ * numbers in, `species-identities` (each name with its InChIKey and the depositor's name), and `reactions` with the chosen fit (the preferred one by default) as an elementary
  * reaction: `rate-constant: {A: A/T0^n, b: n, Ea}`. The subject and caution are comments above and
  * the `description` text; a `note` on the reaction names the fit and its T0.
  */
@@ -238,6 +238,13 @@ export function buildCanteraYaml(
   const doc = new Document({
     description: about.map(([label, text]) => `${label}: ${text}`).join("\n"),
     units: { length, quantity, time: "s", "activation-energy": energy },
+    // The same map as the comment block, as data a script reads; Cantera leaves top-level sections no
+    // phase names alone (its YAML format, from memory: only sections a phase refers to are read).
+    "species-identities": [...new Map(subject.participants.map((p) => [p.inchiKey, p])).values()].map((p) => ({
+      name: names.get(p.inchiKey)!,
+      InChIKey: p.inchiKey,
+      "deposited-name": oneLineText(p.depositedName),
+    })),
     reactions: [
       {
         equation: canteraEquation(subject.participants, names),

@@ -182,6 +182,17 @@ describe("GET /api/v1/reactions/:id/consensus: what went in", () => {
     });
   }
 
+  it("the reaction key, as the reaction page's address writes it (with ~ or >>), answers as the numeric id does", async () => {
+    const byId = (await (await get("?include=measured")).json()) as Body;
+    const segment = await segmentOf(reactionId);
+    for (const written of [segment, segment.replace("~", ">>")]) {
+      const res = await get("?include=measured", written);
+      expect(res.status).toBe(200);
+      expect(((await res.json()) as Body).data.consensus).toEqual(byId.data.consensus);
+    }
+    expect((await get("", "not-a-key")).status).toBe(404);
+  });
+
   it("404 for a reaction that does not exist or that only drafts describe", async () => {
     expect((await get("", 2147483646)).status).toBe(404);
     const owner2 = await createUser({ email: uniqueEmail("cons-draft"), name: "Draft Only", passwordHash: "x", verified: true });

@@ -68,6 +68,23 @@ describe("html cache", () => {
     expect((await get("/reactions/ab", { cookie: `__Secure-next-auth.session-token.0=x` })).body).toContain("member");
   });
 
+  it("never stores a render for a request carrying any cookie next-auth may read as a session (its name only starting with the session cookie's)", async () => {
+    for (const cookie of [
+      "next-auth.session-tokenX=jwt",
+      "a=1;next-auth.session-token_2=jwt",
+      "__Host-next-auth.session-token.9=jwt",
+      "Next-Auth.Session-Token=jwt",
+    ]) {
+      const path = `/reactions/k${cookie.length}`;
+      const res = await get(path, { cookie });
+      expect(res.cache).toBeNull();
+      expect(htmlCacheSize().entries).toBe(0);
+      // The anonymous reader gets a render of its own, never the member's.
+      expect((await get(path)).body).not.toContain("member");
+      clearHtmlCache();
+    }
+  });
+
   it("stores only 200s without Set-Cookie, on public page paths, for plain GETs", async () => {
     await get("/datasets/8/v1");
     expect((await get("/datasets/8/v1")).cache).toBe("miss");

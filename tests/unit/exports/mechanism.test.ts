@@ -147,7 +147,7 @@ describe("Cantera YAML of a fit", () => {
     const as12 = parse(text);
     const as11 = parse(text.replace(/[\u0085\u2028\u2029]/g, "\n"));
     expect(as11).toEqual(as12);
-    expect(Object.keys(as12)).toEqual(["description", "units", "reactions"]);
+    expect(Object.keys(as12)).toEqual(["description", "units", "species-identities", "reactions"]);
     expect(as12.description).toContain("dataset: Rates injected: 1 other: 2 third: 3");
     expect(as12.reactions[0].equation).toBe("OH_x:_1 => water");
     // Three lines about the file, then (after a blank line) the names' explanation and heading, one line per species.
@@ -170,8 +170,11 @@ describe("Cantera YAML of a fit", () => {
     const comments = text.split("\n").filter((l) => l.startsWith("#"));
     expect(comments.find((l) => l.includes("AAAAAAAAAAAAAA-UHFFFAOYSA-N"))).toMatch(/^# OH\s+AAAAAAAAAAAAAA-UHFFFAOYSA-N\s+hydroxyl$/);
     expect(comments.find((l) => l.includes("BBBBBBBBBBBBBB"))).toMatch(/^# CH3\s+BBBBBBBBBBBBBB-UHFFFAOYSA-N\s+methyl radical$/);
+    // The same map as data, for scripts (a YAML reader drops comments).
+    expect(parse(text)["species-identities"]).toContainEqual({ name: "OH", InChIKey: "AAAAAAAAAAAAAA-UHFFFAOYSA-N", "deposited-name": "hydroxyl" });
     const words = buildCanteraYaml(subject(2), { kUnit: "cm3 molecule-1 s-1", energyUnit: "kJ mol-1" }, "preferred", "deposited");
     expect(parse(words).reactions[0].equation).toBe("hydroxyl + methyl_radical => methanol");
+    expect(parse(words)["species-identities"].map((s: { name: string }) => s.name)).toEqual(["hydroxyl", "methyl_radical", "methanol"]);
   });
 });
 

@@ -80,13 +80,17 @@ describe("weighted-fit standard errors against scipy curve_fit", () => {
 });
 
 describe("describeWeightedErrors", () => {
-  it("says the errors were enlarged, or not reduced, with √(χ²/dof) to two digits", () => {
+  it("says the errors were enlarged, or not reduced, with √(χ²/dof) to three digits, as the row beside it", () => {
     expect(describeWeightedErrors(1.83)).toBe(
-      "Standard errors from the stated uncertainties, enlarged by √(χ²/dof) = 1.8 because the points scatter more than those allow.",
+      "Standard errors from the stated uncertainties, enlarged by √(χ²/dof) = 1.83 because the points scatter more than those allow.",
     );
     expect(describeWeightedErrors(0.49)).toBe(
       "Standard errors from the stated uncertainties, not reduced although √(χ²/dof) = 0.49: stated uncertainties are never taken as smaller than stated.",
     );
+    // A factor just above 1 is never written as a bare "1".
+    expect(describeWeightedErrors(1.0004)).toContain("enlarged by √(χ²/dof) = 1.00 because");
+    expect(describeWeightedErrors(1.032)).toContain("enlarged by √(χ²/dof) = 1.03 because");
+    expect(describeWeightedErrors(0.899)).toContain("√(χ²/dof) = 0.899:");
     expect(describeWeightedErrors(null)).toBeNull();
   });
 });
