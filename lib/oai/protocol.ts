@@ -51,6 +51,9 @@ export type OaiRequest =
 const DAY = /^(\d{4})-(\d{2})-(\d{2})$/;
 const SECONDS = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})Z$/;
 
+/** The last instant a four-digit year writes: an `until` of 9999-12-31 ends here. */
+const LAST_INSTANT = Date.UTC(9999, 11, 31, 23, 59, 59, 999);
+
 /**
  * §3.3.1: a `from`/`until` value at day (YYYY-MM-DD) or seconds (YYYY-MM-DDThh:mm:ssZ) granularity,
  * or null when it is neither or names no real date. `until` covers its whole day or second.
@@ -67,7 +70,8 @@ export function parseDateBound(text: string, role: "from" | "until"): DateBound 
   const written = day ? instant.toISOString().slice(0, 10) : formatDatestamp(instant);
   if (written !== text || Number(y) < 1) return null;
   const step = day ? 86_400_000 : 1000;
-  return { text, granularity: day ? "day" : "seconds", instant: role === "from" ? instant : new Date(ms + step) };
+  const end = Math.min(ms + step, LAST_INSTANT);
+  return { text, granularity: day ? "day" : "seconds", instant: role === "from" ? instant : new Date(end) };
 }
 
 /** §3.3.2: a UTCdatetime at seconds granularity (`2024-05-01T09:30:00Z`), fractions dropped. */

@@ -360,6 +360,10 @@ describe("ListIdentifiers (§4.3) and ListRecords (§4.5) with resumption (§3.5
     expect(await has(`from=${shift(stamp, 1)}`)).toBe(false);
     expect(await has(`until=${shift(stamp, -1)}`)).toBe(false);
     expect(await has(`from=${day}&until=${day}`)).toBe(true);
+    // The last day a four-digit year writes is a bound like any other (its end is not year 10000).
+    expect(await has(`until=9999-12-31`)).toBe(true);
+    expect(await has(`from=${day}&until=9999-12-31`)).toBe(true);
+    expect(await has(`until=9999-12-31T23:59:59Z`)).toBe(true);
     const nextDay = new Date(Date.parse(day) + 86_400_000).toISOString().slice(0, 10);
     const dayBefore = new Date(Date.parse(day) - 86_400_000).toISOString().slice(0, 10);
     expect(await has(`from=${nextDay}`)).toBe(false);

@@ -13,6 +13,9 @@ describe("UTCdatetime (§3.3)", () => {
   it("§3.3.1: day and seconds granularity; until covers its whole day or second", () => {
     expect(parseDateBound("2024-03-01", "from")).toMatchObject({ granularity: "day", instant: new Date("2024-03-01T00:00:00Z") });
     expect(parseDateBound("2024-03-01", "until")?.instant).toEqual(new Date("2024-03-02T00:00:00Z"));
+    // The last day a four-digit year writes ends within it (the next instant would be year 10000).
+    expect(parseDateBound("9999-12-31", "until")?.instant.toISOString()).toBe("9999-12-31T23:59:59.999Z");
+    expect(parseDateBound("9999-12-31T23:59:59Z", "until")?.instant.toISOString()).toBe("9999-12-31T23:59:59.999Z");
     expect(parseDateBound("2024-03-01T10:20:30Z", "until")?.instant).toEqual(new Date("2024-03-01T10:20:31Z"));
     // Leap day 2024 exists, 2023's does not (Gregorian calendar).
     expect(parseDateBound("2024-02-29", "from")).not.toBeNull();
