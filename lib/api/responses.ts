@@ -86,6 +86,8 @@ export const versionPointsResponse = z.strictObject({
       citation: z.string(),
       landingPage: url,
       caution,
+      /** The deposit's notes on its other conditions, when it gives any. */
+      otherConditions: z.string().nullable(),
       units: unitsOfPoints,
       residuals: z
         .strictObject({

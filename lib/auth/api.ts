@@ -124,6 +124,9 @@ export function assertStorableQuery(url: URL): void {
   }
 }
 
+/** A read of a public, cacheable endpoint: counted, for anonymous callers, in this process's memory. */
+const isPublicRead = (req: Request, options: ApiOptions) => options.cache !== undefined && (req.method === "GET" || req.method === "HEAD");
+
 /**
  * Route handler wrapper: who is calling (session or bearer token) → permission → handler →
  * one error shape (RFC 9457 problem+json). Internals are logged, never echoed.
@@ -148,21 +151,36 @@ export function withApi<P = Record<string, string>>(
     };
     try {
       assertStorableQuery(url);
-      const secret = bearerSecretOrThrow(req);
+      const spentOrThrow = (b: ApiBudget) => {
+        if (b.spent)
+          throw new AppError(
+            "rate_limited",
+            `Too many requests from this client: ${b.limit} a minute; try again in ${b.resetSeconds} s`,
+            [],
+            b.resetSeconds,
+          );
+      };
       const wantsCaller = options.permission || options.identify;
-      // Public endpoints skip the session look-up unless they ask for it.
-      const user =
-        secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
+      let user: UserDto | null;
+      try {
+        const secret = bearerSecretOrThrow(req);
+        // Public endpoints skip the session look-up unless they ask for it.
+        user =
+          secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
+      } catch (err) {
+        // A refused credential counts against the address, in the budget an anonymous call of this endpoint
+        // uses: guessing tokens, or sending a bogus one to step around a spent budget, is limited like any call.
+        if (err instanceof AppError && err.status === 401) {
+          budget = await consumeApiBudget(`address:${clientAddress(req)}`, { inProcess: isPublicRead(req, options) });
+          spentOrThrow(budget);
+        }
+        throw err;
+      }
       // An anonymous read of a public endpoint is counted in this process's memory (rate-limit.ts says why).
-      const publicRead = user === null && options.cache !== undefined && (req.method === "GET" || req.method === "HEAD");
-      budget = await consumeApiBudget(user ? `user:${user.id}` : `address:${clientAddress(req)}`, { inProcess: publicRead });
-      if (budget.spent)
-        throw new AppError(
-          "rate_limited",
-          `Too many requests from this client: ${budget.limit} a minute; try again in ${budget.resetSeconds} s`,
-          [],
-          budget.resetSeconds,
-        );
+      budget = await consumeApiBudget(user ? `user:${user.id}` : `address:${clientAddress(req)}`, {
+        inProcess: user === null && isPublicRead(req, options),
+      });
+      spentOrThrow(budget);
       if (options.permission) assertAllowed(user, { permission: options.permission });
       const res = await handler({ req, user, params: await context.params });
       return counted(options.cache ? await withValidators(req, res, options.cache) : res);

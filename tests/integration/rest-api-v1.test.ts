@@ -351,6 +351,18 @@ describe("rate limits of anonymous public reads", () => {
     expect(Number(refused.headers.get("retry-after"))).toBeGreaterThanOrEqual(1);
     // Another address is not affected.
     expect((await call(classes.GET, "/api/v1/classes", {}, { headers: fromAddress(uniqueIp()) })).status).toBe(200);
+    // A refused credential is counted against the address too: a bogus token does not step around a spent budget.
+    for (const authorization of ["Bearer arh_key_bogus", "Basic eHg="])
+      expect((await call(classes.GET, "/api/v1/classes", {}, { headers: { ...fromAddress(ip), authorization } })).status).toBe(429);
+    const other = uniqueIp();
+    const guessed = await call(
+      classes.GET,
+      "/api/v1/classes",
+      {},
+      { headers: { ...fromAddress(other), authorization: "Bearer arh_key_bogus" } },
+    );
+    expect(guessed.status).toBe(401);
+    expect(guessed.headers.get("ratelimit")).toMatch(new RegExp(`^"api";r=${limit - 1};t=\\d+$`));
   });
 });
 
