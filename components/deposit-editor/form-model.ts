@@ -328,7 +328,9 @@ class Reader {
     if (t === "") return undefined;
     const read = readNumberText(t);
     if (read.ok) return read.value;
-    this.problems.push({ pointer, value: t, message: `${read.problem}; write it like 1.2e-11 or 1,2e-11.` });
+    // An example only where the text is no number at all; an ambiguous or doubly separated one already says what to write.
+    const example = read.problem.endsWith("is not a number") ? "; write a number such as 298.15, 1.2e-11 or 1,2e-11" : "";
+    this.problems.push({ pointer, value: t, message: `${read.problem}${example}.` });
     return t;
   }
 }

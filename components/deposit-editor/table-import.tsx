@@ -5,6 +5,7 @@ import { checkUploadSize, inspectTable, MAX_UPLOAD_BYTES, type ColumnMapping, ty
 import { CONFIDENCE_LEVELS, UNCERTAINTY_KINDS, type ConfidenceLevel, type UncertaintyKind } from "@/lib/deposits/vocabulary";
 import { AppError, type FieldError } from "@/lib/errors";
 import { SUPPORTED_UNITS } from "@/lib/kinetics/units";
+import { unitLabel } from "@/lib/unit-labels";
 import type { EditorForm, PointRow } from "./form-model";
 import { importRows } from "./import-rows";
 import { ScrollRegion } from "@/components/scroll-region";
@@ -276,9 +277,9 @@ export function TableImport({
               <label htmlFor={`${id}-units`} className="text-sm">
                 Use the units named in the headers:{" "}
                 {[
-                  suggestedUnits.T && `T in ${suggestedUnits.T}`,
-                  suggestedUnits.k && `k in ${suggestedUnits.k}`,
-                  suggestedUnits.pressure && `pressure in ${suggestedUnits.pressure}`,
+                  suggestedUnits.T && `T in ${unitLabel("temperature", suggestedUnits.T)}`,
+                  suggestedUnits.k && `k in ${unitLabel("rateConstant", suggestedUnits.k)}`,
+                  suggestedUnits.pressure && `pressure in ${unitLabel("pressure", suggestedUnits.pressure)}`,
                 ]
                   .filter(Boolean)
                   .join(", ")}

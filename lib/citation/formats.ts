@@ -189,7 +189,16 @@ export function formatRis(item: CslItem): string {
     if (RIS_TAG.test(line) || !lines.length) lines.push(line);
     else lines[lines.length - 1] += line;
   }
-  return lines.join("\n") + "\n";
+  // RIS dates are YYYY/MM/DD/other with two-digit month and day; citation-js writes 2026/12/3/.
+  return lines.map(padRisDate).join("\n") + "\n";
+}
+
+/** "DA  - 2026/12/3/" → "DA  - 2026/12/03/" (also PY, Y1, Y2): month and day of a RIS date in two digits. */
+function padRisDate(line: string): string {
+  const m = /^(DA|PY|Y1|Y2) {2}- (\d{4})\/(\d{1,2})?\/(\d{1,2})?\/(.*)$/.exec(line);
+  if (!m) return line;
+  const two = (x: string | undefined) => (x === undefined ? "" : x.padStart(2, "0"));
+  return `${m[1]}  - ${m[2]}/${two(m[3])}/${two(m[4])}/${m[5]}`;
 }
 
 /** CSL-JSON: an array of one item, as CSL processors read it. */

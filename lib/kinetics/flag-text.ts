@@ -222,15 +222,15 @@ export function describeExtrapolation(x: Extrapolation): string {
  * √(χ²/dof): the stated uncertainties are a floor, enlarged by the factor when the points scatter
  * more than they allow and never reduced (conventions.ts); null without a scale factor (dof = 0).
  *
- * @example describeWeightedErrors(1.83) // "Standard errors from the stated uncertainties, enlarged by √(χ²/dof) = 1.83 because the points scatter more than those allow."
+ * @example describeWeightedErrors(1.83) // "The points scatter more than their stated uncertainties allow (√(χ²/dof) = 1.83); the standard errors are enlarged by that factor."
  */
 export function describeWeightedErrors(scaleFactor: number | null): string | null {
   if (scaleFactor === null || !Number.isFinite(scaleFactor)) return null;
   // Three significant digits, as the √(χ²/dof) row beside it; a factor just above 1 keeps its digits.
   const s = scaleFactor > 1 && scaleFactor < 1.1 ? scaleFactor.toPrecision(3) : formatNumber(scaleFactor, 3);
   return scaleFactor > 1
-    ? `Standard errors from the stated uncertainties, enlarged by √(χ²/dof) = ${s} because the points scatter more than those allow.`
-    : `Standard errors from the stated uncertainties, not reduced although √(χ²/dof) = ${s}: stated uncertainties are never taken as smaller than stated.`;
+    ? `The points scatter more than their stated uncertainties allow (√(χ²/dof) = ${s}); the standard errors are enlarged by that factor.`
+    : `The points scatter less than their stated uncertainties allow (√(χ²/dof) = ${s}); the standard errors still use the uncertainties as stated.`;
 }
 
 /** The fit a point was judged on, from its number of coefficients (Arrhenius when not stated: older records). */

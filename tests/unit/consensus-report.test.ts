@@ -18,6 +18,17 @@ describe("comparisonCell", () => {
     expect(comparisonCell(member(5.35))).toBe("off: ×2.24e5 above at 300 K");
     expect(comparisonCell(member(-400.35))).toBe("off: ×2.24e400 below at 300 K");
   });
+
+  it("says a dataset that agrees only within a wide spread between the others is no plain agreement", () => {
+    const within = (spread: { tau2: number; offOthers: string[] } | null) =>
+      ({
+        included: true,
+        leftOut: null,
+        disagreement: { range: { Tmin: 250, Tmax: 400 }, off: false, spread, points: [{ T: 300, z: 1.1, log10Ratio: 0.93, agrees: true }] },
+      }) as unknown as ConsensusMember;
+    expect(comparisonCell(within({ tau2: 2, offOthers: [] }))).toBe("only within a wide spread: ×8.51 above at 300 K");
+    expect(comparisonCell(within(null))).toBe("agrees");
+  });
 });
 
 describe("otherSideOf: what a dataset's k is divided by in its table", () => {

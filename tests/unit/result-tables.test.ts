@@ -118,10 +118,10 @@ describe("ResultTables residual spread", () => {
     // The same invented points with a stated 20 % (χ²/dof far below 1) and 0.2 % (far above).
     const loose = analyseDataset({ points: points.map((p) => ({ ...p, sigmaLnK: 0.2 })), order: 2 });
     expect(loose.arrhenius.scaleFactor!).toBeLessThan(1);
-    expect(render(loose, "kJ mol-1")).toContain("Standard errors from the stated uncertainties, not reduced although √(χ²/dof) = ");
+    expect(render(loose, "kJ mol-1")).toContain("The points scatter less than their stated uncertainties allow (√(χ²/dof) = ");
     const tight = analyseDataset({ points: points.map((p) => ({ ...p, sigmaLnK: 0.002 })), order: 2 });
     expect(tight.arrhenius.scaleFactor!).toBeGreaterThan(1);
-    expect(render(tight, "kJ mol-1")).toContain("Standard errors from the stated uncertainties, enlarged by √(χ²/dof) = ");
-    expect(render(analyseDataset({ points, order: 2 }), "kJ mol-1")).not.toContain("Standard errors from the stated uncertainties");
+    expect(render(tight, "kJ mol-1")).toContain("The points scatter more than their stated uncertainties allow (√(χ²/dof) = ");
+    expect(render(analyseDataset({ points, order: 2 }), "kJ mol-1")).not.toContain("than their stated uncertainties allow");
   });
 });

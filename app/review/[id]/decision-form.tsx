@@ -128,7 +128,8 @@ export function DecisionForm({
           ))}
         </fieldset>
         <label htmlFor="decision-reason" className="block text-sm font-medium">
-          Reason (sent to the authors and kept on the record)
+          Reason, also when accepting (sent to the authors and kept on the record)
+          <span className="font-normal text-muted"> (required, at least 3 characters)</span>
         </label>
         <textarea
           id="decision-reason"

@@ -135,6 +135,8 @@ describe("a retracted version", () => {
     expect(formatRis(retracted)).toMatch(/^N1 {2}- Version 2\. Retracted$/m);
     // A published version says nothing of the kind.
     expect(formatRis(item)).not.toMatch(/^N1/m);
+    // RIS dates carry a two-digit month and day (the RIS format's YYYY/MM/DD/other; common practice of RIS readers).
+    expect(formatRis(item)).toMatch(/^DA {2}- 2026\/03\/04\/$/m);
     for (const s of CITATION_STYLES) expect(formatReference(item, s.id), s.id).not.toMatch(/retracted/i);
   });
 });

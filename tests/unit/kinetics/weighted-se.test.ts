@@ -82,15 +82,15 @@ describe("weighted-fit standard errors against scipy curve_fit", () => {
 describe("describeWeightedErrors", () => {
   it("says the errors were enlarged, or not reduced, with √(χ²/dof) to three digits, as the row beside it", () => {
     expect(describeWeightedErrors(1.83)).toBe(
-      "Standard errors from the stated uncertainties, enlarged by √(χ²/dof) = 1.83 because the points scatter more than those allow.",
+      "The points scatter more than their stated uncertainties allow (√(χ²/dof) = 1.83); the standard errors are enlarged by that factor.",
     );
     expect(describeWeightedErrors(0.49)).toBe(
-      "Standard errors from the stated uncertainties, not reduced although √(χ²/dof) = 0.49: stated uncertainties are never taken as smaller than stated.",
+      "The points scatter less than their stated uncertainties allow (√(χ²/dof) = 0.49); the standard errors still use the uncertainties as stated.",
     );
     // A factor just above 1 is never written as a bare "1".
-    expect(describeWeightedErrors(1.0004)).toContain("enlarged by √(χ²/dof) = 1.00 because");
-    expect(describeWeightedErrors(1.032)).toContain("enlarged by √(χ²/dof) = 1.03 because");
-    expect(describeWeightedErrors(0.899)).toContain("√(χ²/dof) = 0.899:");
+    expect(describeWeightedErrors(1.0004)).toContain("(√(χ²/dof) = 1.00); the standard errors are enlarged");
+    expect(describeWeightedErrors(1.032)).toContain("(√(χ²/dof) = 1.03); the standard errors are enlarged");
+    expect(describeWeightedErrors(0.899)).toContain("(√(χ²/dof) = 0.899); the standard errors still use");
     expect(describeWeightedErrors(null)).toBeNull();
   });
 });
