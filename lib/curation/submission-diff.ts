@@ -7,6 +7,7 @@
  */
 import canonicalize from "canonicalize";
 import { diffArrays } from "diff";
+import { CONFIDENCE_LEVELS } from "@/lib/deposits/vocabulary";
 import { unitLabel } from "@/lib/unit-labels";
 
 export type ChangeKind = "added" | "removed" | "changed";
@@ -90,6 +91,9 @@ function rowValues(row: unknown, units: DocumentUnits = {}): Map<string, unknown
   withUnit("pressure", unitLabel("pressure", units.pressure));
   const kind = point.uncertainty?.kind;
   withUnit("uncertainty › value", kind === "relative" ? "%" : kind === "factor" ? "" : unitLabel("rateConstant", units.k));
+  // The coverage as the editor names it (1σ, 2σ), never its stored code.
+  const confidence = CONFIDENCE_LEVELS.find((c) => c.id === out.get("uncertainty › confidence"));
+  if (confidence) out.set("uncertainty › confidence", confidence.label);
   return out;
 }
 

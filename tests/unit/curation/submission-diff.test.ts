@@ -113,4 +113,14 @@ describe("diffSubmissions: point values with their units", () => {
       { column: "pressure", before: "10 Torr", after: "20 Torr" },
     ]);
   });
+
+  it("names an uncertainty's coverage as the editor does (1σ, 2σ), never by its stored code", () => {
+    const point = (confidence: string) => ({
+      units: { T: "K", k: "s-1" },
+      points: [{ T: 300, k: 1, uncertainty: { kind: "relative", value: 5, confidence } }],
+    });
+    expect(diffSubmissions(point("1sigma"), point("2sigma")).points[0].values).toEqual([
+      { column: "uncertainty › confidence", before: "1σ (about 68 %)", after: "2σ (about 95 %)" },
+    ]);
+  });
 });
