@@ -248,13 +248,20 @@ function MemberComparison({
 }) {
   const d = m.disagreement;
   // "Agrees" only within a wide spread between the others is no agreement a reader can lean on: say so in the heading.
-  const compared = !d || !d.range ? "not compared" : d.off ? "off the consensus" : d.spread ? "agrees only within a wide spread" : "agrees";
+  const compared =
+    !d || !d.range
+      ? "not compared"
+      : d.off
+        ? "off the consensus"
+        : d.agreesOnlyWithinSpread
+          ? "agrees only within a wide spread"
+          : "agrees";
   // A dataset left out by a curator is still compared with the consensus.
   const status = !m.included ? (d?.range ? `left out; ${compared}` : "left out") : compared;
   return (
     <article className="space-y-2 border-t border-line pt-3" aria-label={`${label}: ${status}`}>
       <h3 className="font-medium">
-        {label} <span className={`text-sm ${d?.off || d?.spread ? "text-warn" : "text-muted"}`}>— {status}</span>
+        {label} <span className={`text-sm ${d?.off || d?.agreesOnlyWithinSpread ? "text-warn" : "text-muted"}`}>— {status}</span>
       </h3>
       <p className="text-sm">{readerVerdict(m.verdict)}</p>
       <p className="text-xs text-muted">
@@ -319,7 +326,7 @@ export function comparisonCell(m: ConsensusMember | undefined): string {
   const worst = d.points.reduce((a, b) => (Math.abs(b.z) > Math.abs(a.z) ? b : a));
   const verdict = d.off
     ? `off: ${factorWords(worst.log10Ratio)} at ${Math.round(worst.T)} K`
-    : d.spread
+    : d.agreesOnlyWithinSpread
       ? `only within a wide spread: ${factorWords(worst.log10Ratio)} at ${Math.round(worst.T)} K`
       : "agrees";
   return out ? `${out}; compared: ${verdict}` : verdict;

@@ -24,7 +24,12 @@ describe("comparisonCell", () => {
       ({
         included: true,
         leftOut: null,
-        disagreement: { range: { Tmin: 250, Tmax: 400 }, off: false, spread, points: [{ T: 300, z: 1.1, log10Ratio: 0.93, agrees: true }] },
+        disagreement: {
+          range: { Tmin: 250, Tmax: 400 },
+          off: false,
+          agreesOnlyWithinSpread: spread !== null,
+          points: [{ T: 300, z: 1.1, log10Ratio: 0.93, agrees: true }],
+        },
       }) as unknown as ConsensusMember;
     expect(comparisonCell(within({ tau2: 2, offOthers: [] }))).toBe("only within a wide spread: ×8.51 above at 300 K");
     expect(comparisonCell(within(null))).toBe("agrees");

@@ -171,7 +171,11 @@ describe("Cantera YAML of a fit", () => {
     expect(comments.find((l) => l.includes("AAAAAAAAAAAAAA-UHFFFAOYSA-N"))).toMatch(/^# OH\s+AAAAAAAAAAAAAA-UHFFFAOYSA-N\s+hydroxyl$/);
     expect(comments.find((l) => l.includes("BBBBBBBBBBBBBB"))).toMatch(/^# CH3\s+BBBBBBBBBBBBBB-UHFFFAOYSA-N\s+methyl radical$/);
     // The same map as data, for scripts (a YAML reader drops comments).
-    expect(parse(text)["species-identities"]).toContainEqual({ name: "OH", InChIKey: "AAAAAAAAAAAAAA-UHFFFAOYSA-N", "deposited-name": "hydroxyl" });
+    expect(parse(text)["species-identities"]).toContainEqual({
+      name: "OH",
+      InChIKey: "AAAAAAAAAAAAAA-UHFFFAOYSA-N",
+      "deposited-name": "hydroxyl",
+    });
     const words = buildCanteraYaml(subject(2), { kUnit: "cm3 molecule-1 s-1", energyUnit: "kJ mol-1" }, "preferred", "deposited");
     expect(parse(words).reactions[0].equation).toBe("hydroxyl + methyl_radical => methanol");
     expect(parse(words)["species-identities"].map((s: { name: string }) => s.name)).toEqual(["hydroxyl", "methyl_radical", "methanol"]);
