@@ -77,7 +77,8 @@ export function temperatureTicks(domain: [number, number], count = 5): { x: numb
   for (let k = Math.floor(Math.log10(tLow)); k <= Math.ceil(Math.log10(tHigh)); k++) {
     for (const m of [1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8]) candidates.add(Number((m * 10 ** k).toPrecision(6)));
   }
-  const minGap = (x1 - x0) / (count * 1.6);
+  // About 49 px between neighbouring labels at the plot's tick spacing (64 px): four-digit temperatures stay apart.
+  const minGap = (x1 - x0) / (count * 1.3);
   const out: { x: number; T: number }[] = [];
   // From the lowest temperature (largest 1000/T) up, a tick is kept only if it is far enough from the last kept one.
   for (const t of [...candidates].sort((a, b) => a - b)) {
