@@ -21,9 +21,6 @@ import { recordSearchChange } from "@/lib/search/outbox";
  * fill): the same builder over batches of versions, so there is one definition of a document.
  */
 
-/** The canonical unit of k (and A) for a reaction order, as files write it (lib/unit-labels.ts unitText; pages show unitLabel). */
-const rateUnitOf = (order: ReactionOrder) => getCanonicalRateConstantUnit(order);
-
 /** Analysis flag codes (lib/kinetics) and stored check codes behind each search flag. */
 const FLAG_CODES: Record<Exclude<SearchFlag, "none">, string[]> = {
   outliers: ["outlier"],
@@ -360,7 +357,8 @@ function documentRow(v: {
     flags: searchFlagsOf(codes),
     ea: fit && Number.isFinite(fit.Ea) ? fit.Ea : null,
     a: fit?.A ?? null,
-    aUnit: order ? rateUnitOf(order) : null,
+    // A's unit as files write it (lib/unit-labels.ts unitText); pages show it through unitLabel.
+    aUnit: order ? getCanonicalRateConstantUnit(order) : null,
     publishedAt: v.publishedAt,
   };
 }
@@ -448,7 +446,7 @@ async function consensusOf(tx: Transaction, reactionId: number): Promise<Reactio
     a: preferred.params.A,
     n: "n" in preferred.params ? (preferred.params.n as number) : 0,
     ea: preferred.params.Ea,
-    aUnit: rateUnitOf(result.order),
+    aUnit: getCanonicalRateConstantUnit(result.order),
     tMin: result.range.Tmin,
     tMax: result.range.Tmax,
   };

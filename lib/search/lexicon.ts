@@ -1,5 +1,6 @@
 import "server-only";
-import { getSearchGeneration, listDisplayEquations, readSpeciesLexicon } from "./queries";
+import { perSearchGeneration } from "./per-generation";
+import { listDisplayEquations, readSpeciesLexicon } from "./queries";
 
 /**
  * What resolving search text and naming its rows read of the species and reactions, kept in memory
@@ -19,9 +20,6 @@ export interface SpeciesLexicon {
   /** Display equations of reactions read so far under this generation, by reaction key. */
   equations: Map<string, string>;
 }
-
-let current: SpeciesLexicon | null = null;
-let loading: Promise<SpeciesLexicon> | null = null;
 
 function push(map: Map<string, string[]>, key: string, value: string) {
   const list = map.get(key);
@@ -47,19 +45,7 @@ async function load(): Promise<SpeciesLexicon> {
 }
 
 /** The lexicon of the current generation (read again when the mark moved; one read at a time). */
-export async function speciesLexicon(): Promise<SpeciesLexicon> {
-  const generation = await getSearchGeneration();
-  if (current && current.generation === generation) return current;
-  // As memoryIndex: a read begun after the mark was seen is never older than it.
-  const start = () =>
-    (loading = load()
-      .then((loaded) => (current = loaded))
-      .finally(() => (loading = null)));
-  if (!loading) return start();
-  const lexicon = await loading;
-  if (lexicon.generation === generation) return lexicon;
-  return loading ?? start();
-}
+export const speciesLexicon: () => Promise<SpeciesLexicon> = perSearchGeneration(load);
 
 /** InChIKeys of species known by one of these names (case-insensitive) or formulas, keyed `name:…` / `formula:…`. */
 export function findSpeciesKeysIn(lexicon: SpeciesLexicon, { names = [], formulas = [] }: { names?: string[]; formulas?: string[] }) {

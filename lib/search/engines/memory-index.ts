@@ -1,5 +1,6 @@
 import "server-only";
-import { getSearchGeneration, readListedDocuments, type ListedDocumentRow } from "../queries";
+import { perSearchGeneration } from "../per-generation";
+import { readListedDocuments, type ListedDocumentRow } from "../queries";
 import type { SearchFacet, SearchFilters } from "../types";
 
 /**
@@ -195,26 +196,8 @@ function load(): Promise<MemoryIndex> {
   return readListedDocuments({ slice: LOAD_SLICE, start: builder });
 }
 
-let current: MemoryIndex | null = null;
-let loading: Promise<MemoryIndex> | null = null;
-
 /** The index as of the last committed change to search_documents (reloaded when it moved). */
-export async function memoryIndex(): Promise<MemoryIndex> {
-  const generation = await getSearchGeneration();
-  if (current && current.generation === generation) return current;
-  // A load started now reads a snapshot taken after `generation` was read: never older than what
-  // this search saw, even when more changes commit meanwhile (a stream of changes, a reindex,
-  // costs a search one load at most, never a loop of them).
-  const start = () =>
-    (loading = load()
-      .then((loaded) => (current = loaded))
-      .finally(() => (loading = null)));
-  if (!loading) return start();
-  const index = await loading;
-  if (index.generation === generation) return index;
-  // That load may have begun before the change this search saw: then a load begun after it.
-  return loading ?? start();
-}
+export const memoryIndex: () => Promise<MemoryIndex> = perSearchGeneration(load);
 
 // ---------------------------------------------------------------------------------------------
 // Filters and facet counts
