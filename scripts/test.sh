@@ -77,7 +77,7 @@ else
 fi
 fi
 
-# Reports of a green run are not needed; a red run keeps them for reading.
-[ "$failed" -eq 0 ] && rm -rf "$REPORTS"
+# Reports of a green run are not needed; a red run keeps them for reading, and names its failures last.
+if [ "$failed" -eq 0 ]; then rm -rf "$REPORTS"; else node scripts/test-failures.mjs "$REPORTS"; fi
 echo "$passed passed, $failed failed"
 [ "$failed" -eq 0 ]

@@ -452,7 +452,19 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     // smallest excess Q − dof of the others' generalised χ², in the model of corroboratedExcess) leaves the curve, near-ties going to
     // the one furthest off; the rest are fitted and judged again, until none is off or two remain.
     if (included.length <= MIN_CONSISTENT_SUBSET || setAside.filter(Boolean).length >= MAX_SET_ASIDE) break;
-    if (!included.some((j) => readings[j]?.off)) break;
+    if (!included.some((j) => readings[j]?.off)) {
+      // Two datasets off in different ways can hide each other: each widens the spread the other is
+      // judged against. Then the pair whose removal leaves the rest agreeing, and each of the two off
+      // that rest, is set aside together (when exactly one pair does).
+      const pair =
+        setAside.filter(Boolean).length + 2 <= MAX_SET_ASIDE ? maskingPair(rows, supports, included, fits, readings, judgedRows) : null;
+      if (!pair) break;
+      for (const j of pair) {
+        setAside[j] = true;
+        leftOut[j] = SET_ASIDE_REASON;
+      }
+      continue;
+    }
     const far = leastConsistent(
       included,
       others,
@@ -546,7 +558,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     curveFrom: included.map((j) => datasets[j].id),
     range: covered,
     method:
-      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and while one is off, the one whose removal leaves the others most consistent (smallest Q − dof, modified Arrhenius when a curvature rests on no one dataset, else Arrhenius) is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain; bands and f(T) at 95 % including τ².",
+      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and while one is off, the one whose removal leaves the others most consistent (smallest Q − dof, modified Arrhenius when a curvature rests on no one dataset, else Arrhenius) is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain — and when none is off yet the datasets disagree, the one pair grossly off a rest that agrees is set aside together (two sets that hid each other); bands and f(T) at 95 % including τ².",
     arrhenius: { ...buildArrhenius(rows, fits.arr, covered, coverage), supportValues: values },
     modifiedArrhenius: fits.mod ? { ...buildModified(rows, fits.mod, covered, coverage, T0), supportValues: values } : null,
     preferred: fits.preferred.q === 3 ? "modified_arrhenius" : "arrhenius",
@@ -675,6 +687,65 @@ function fitAll(rows: Rows, supports: readonly (DatasetSupport | null)[], includ
   }
   const mod = supportsModified(supports, included) ? fitModel(rows, included, 3) : null;
   return { arr, mod, preferred: prefer(arr, mod) };
+}
+
+/** Up to this many included datasets a pair hiding each other is looked for (one masks less among many). */
+export const MASKING_SEARCH_LIMIT = 20;
+/**
+ * How far each of a hiding pair must be off the rest: its largest |z| beyond this many times the
+ * Bonferroni bound, and by at least {@link MASKING_FACTOR} at some comparison temperature. Setting two
+ * datasets aside at once is for a gross disagreement (as a unit, calibration or model mistake gives),
+ * not for a spread of tens of per cent, which stays a spread.
+ */
+export const MASKING_FAR = 3;
+/** The factor of a gross disagreement: 2, the width often quoted for a rate constant's uncertainty (common practice). */
+export const MASKING_FACTOR = 2;
+/** The pairs tried are those among this many datasets furthest from the others' consensus. */
+const MASKING_CANDIDATES = 6;
+
+/**
+ * Two datasets that hide each other (masking): while both are in, the spread τ² between the datasets
+ * is wide enough that neither is off the consensus of the others. Looked for only when no dataset is
+ * off, yet the datasets disagree (Cochran's Q of the consensus fit, p < {@link OFF_CONSENSUS_ALPHA}),
+ * among 4 to {@link MASKING_SEARCH_LIMIT} datasets. A pair among the {@link MASKING_CANDIDATES}
+ * furthest off qualifies when the rest agree with each other (their Q, p ≥ the same level) and each of
+ * the two is grossly off the rest's consensus ({@link MASKING_FAR}, {@link MASKING_FACTOR}). Exactly one qualifying pair is returned; none or several (two
+ * halves that each agree within themselves: which half is right, the data cannot tell) give null.
+ */
+function maskingPair(
+  rows: Rows,
+  supports: readonly (DatasetSupport | null)[],
+  included: readonly number[],
+  fits: Fits,
+  readings: readonly (QuickReading | null)[],
+  judgedRows: () => Rows,
+): [number, number] | null {
+  const m = included.length;
+  if (m < 4 || m > MASKING_SEARCH_LIMIT) return null;
+  const agree = (f: ModelFit) => !(f.df > 0) || survivalChiSquare(f.Q, f.df) >= OFF_CONSENSUS_ALPHA;
+  if (agree(fits.preferred)) return null;
+  const candidates = [...included].sort((a, b) => (readings[b]?.far ?? 0) - (readings[a]?.far ?? 0)).slice(0, MASKING_CANDIDATES);
+  let found: [number, number] | null = null;
+  for (let x = 0; x < candidates.length; x++) {
+    for (let y = x + 1; y < candidates.length; y++) {
+      const pair: [number, number] = [candidates[x], candidates[y]];
+      const rest = included.filter((j) => j !== pair[0] && j !== pair[1]);
+      const restFits = fitAll(rows, supports, rest);
+      if (!agree(restFits.preferred)) continue;
+      // Each of the two against the rest as the subset loop judges: the consensus of the others
+      // with the one compared in, so a curved dataset meets the others' curve as it always does.
+      const offRest = (j: number) => {
+        const withJ = included.filter((k) => k === j || (k !== pair[0] && k !== pair[1]));
+        const o = leaveOneOut(rows, supports, withJ, fitAll(rows, supports, withJ), judgedRows, { mod: null })[j];
+        const r = quickReading(rows, supports, o, j);
+        return r !== null && r.off && r.far > MASKING_FAR && r.widestLn >= Math.log(MASKING_FACTOR);
+      };
+      if (!offRest(pair[0]) || !offRest(pair[1])) continue;
+      if (found) return null;
+      found = pair;
+    }
+  }
+  return found;
 }
 
 /** Excess Q within which two removals count as equally good and the z rule decides. */
@@ -985,6 +1056,8 @@ interface QuickReading {
   far: number;
   /** As {@link Disagreement.meanOffsetLog10}. */
   meanOffsetLog10: number;
+  /** Largest |ln(k_own / k_others)| over the comparison temperatures. */
+  widestLn: number;
 }
 
 /**
@@ -1003,6 +1076,7 @@ function quickReading(rows: Rows, supports: readonly (DatasetSupport | null)[], 
   let sum = 0;
   let off = false;
   let top = -Infinity;
+  let widest = 0;
   for (const T of temps) {
     const own = evaluateOwnFit(s.judge, T);
     const there = other.at(T);
@@ -1012,8 +1086,9 @@ function quickReading(rows: Rows, supports: readonly (DatasetSupport | null)[], 
     sum += d;
     if (!(z <= bound)) off = true;
     top = Math.max(top, z);
+    widest = Math.max(widest, Math.abs(d));
   }
-  return { off: overlap && off, far: overlap ? top / bound : 0, meanOffsetLog10: sum / temps.length / Math.LN10 };
+  return { off: overlap && off, far: overlap ? top / bound : 0, meanOffsetLog10: sum / temps.length / Math.LN10, widestLn: widest };
 }
 
 function compare(
