@@ -11,7 +11,8 @@ export default defineConfig({
   testDir: "tests/e2e",
   fullyParallel: false,
   workers: 1,
-  retries: 0,
+  // Once more after a failure; npm test names each test that passed only then (scripts/test-failures.mjs).
+  retries: 1,
   // npm run bench:analyse repeats its one test; every other run takes each test once.
   repeatEach: Number(process.env.E2E_REPEAT_EACH ?? 1),
   timeout: 60_000,

@@ -18,6 +18,9 @@ export default defineConfig({
           environment: "node",
           // Room for a shared, loaded machine: a timeout is a hang detector here, not a speed target.
           testTimeout: 20_000,
+          // A failed test runs once more; npm test names every test that passed only then
+          // (scripts/test-failures.mjs), so a flaky test is seen, not hidden.
+          retry: 1,
         },
       },
       {
@@ -30,6 +33,7 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 30_000,
           hookTimeout: 60_000,
+          retry: 1,
         },
       },
     ],

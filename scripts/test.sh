@@ -77,7 +77,9 @@ else
 fi
 fi
 
-# Reports of a green run are not needed; a red run keeps them for reading, and names its failures last.
-if [ "$failed" -eq 0 ]; then rm -rf "$REPORTS"; else node scripts/test-failures.mjs "$REPORTS"; fi
+# Every failed test, and every test that passed only when run again, named last (often all a CI log
+# keeps). Reports of a green run are not needed; a red run keeps them for reading.
+node scripts/test-failures.mjs "$REPORTS"
+[ "$failed" -eq 0 ] && rm -rf "$REPORTS"
 echo "$passed passed, $failed failed"
 [ "$failed" -eq 0 ]
