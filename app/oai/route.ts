@@ -8,7 +8,8 @@ const XML_HEADERS = { "content-type": "text/xml; charset=utf-8", "x-content-type
 
 export const GET = withApi(
   async ({ req }) => new Response(await answerOaiRequest(new URL(req.url).searchParams), { headers: XML_HEADERS }),
-  { scope: null },
+  // lib/oai/protocol.ts answers a NUL or lone surrogate as badArgument, in XML like every other OAI error.
+  { scope: null, checksQuery: true },
 );
 
 // §3.1.1.2: POST carries the same arguments as an application/x-www-form-urlencoded body.

@@ -175,6 +175,8 @@ describe("badVerb and badArgument (§3.6)", () => {
     ["verb=ListRecords&metadataPrefix=oai_dc&from=2024-01-01&until=2024-02-01T00:00:00Z", "two granularities"],
     // Common practice (harvesters' validators): from after until is a bad argument, not an empty list.
     ["verb=ListRecords&metadataPrefix=oai_dc&from=2024-02-01&until=2024-01-01", "from after until"],
+    // Text PostgreSQL cannot store is refused in the protocol's own terms, in XML, not as a JSON problem.
+    ["verb=ListRecords&metadataPrefix=oai_dc&set=a%00b", "a NUL in an argument"],
   ])("%s → badArgument (%s)", async (query) => {
     const { root } = await get(query);
     expect(errorCodes(root)).toEqual(["badArgument"]);
