@@ -15,7 +15,7 @@ import {
   toCanonicalRateConstant,
   toKelvin,
 } from "@/lib/kinetics/units";
-import { buildAnalysisRequest, hashText, type BuiltAnalysisRequest } from "./analysis-request";
+import { buildAnalysisRequest, hashText, unfittableWords, type BuiltAnalysisRequest } from "./analysis-request";
 import type { EditorForm } from "./form-model";
 import { plainWhat } from "./editor-messages";
 import { pointRowOf } from "./pointers";
@@ -170,6 +170,7 @@ export function LiveAnalysis({ form }: { form: EditorForm }) {
         {enough &&
           settled.skipped > 0 &&
           ` ${settled.skipped.toLocaleString("en")} row${settled.skipped === 1 ? "" : "s"} without a readable T and k left out.`}
+        {enough && settled.unfittable.length > 0 && ` ${unfittableWords(settled.unfittable)}`}
       </p>
       {problem && (
         <div role="alert" className="rounded-md border border-error/40 bg-panel px-3 py-2 text-sm text-error">
