@@ -97,6 +97,22 @@ function rowValues(row: unknown, units: DocumentUnits = {}): Map<string, unknown
   return out;
 }
 
+/**
+ * The fields' leaves, the pressure condition written with its unit (as a point's pressure is): a
+ * change of units.pressure then shows on the pressure itself ("100 Torr → 100 bar"), not only as a
+ * separate change of the unit.
+ */
+function fieldValues(rest: Record<string, unknown>, units: DocumentUnits): Map<string, unknown> {
+  const out = leaves(rest);
+  const label = unitLabel("pressure", units.pressure);
+  for (const end of ["value", "min", "max"]) {
+    const path = `conditions › pressure › ${end}`;
+    const v = out.get(path);
+    if (typeof v === "number" && label) out.set(path, `${show(v)} ${label}`);
+  }
+  return out;
+}
+
 type Side = { row: number; value: unknown; units?: DocumentUnits };
 
 function pointChange(kind: ChangeKind, before?: Side, after?: Side): PointChange {
@@ -180,7 +196,7 @@ export function diffSubmissions(before: Record<string, unknown>, after: Record<s
   const pointsBefore = Array.isArray(pb) ? pb : [];
   const pointsAfter = Array.isArray(pa) ? pa : [];
   return {
-    fields: compareLeaves(leaves(restBefore), leaves(restAfter)),
+    fields: compareLeaves(fieldValues(restBefore, unitsOf(before)), fieldValues(restAfter, unitsOf(after))),
     points: diffPoints(pointsBefore, pointsAfter, { before: unitsOf(before), after: unitsOf(after) }),
     pointsBefore: pointsBefore.length,
     pointsAfter: pointsAfter.length,

@@ -114,6 +114,21 @@ describe("diffSubmissions: point values with their units", () => {
     ]);
   });
 
+  it("writes the pressure condition with its unit, so a change of unit shows on the pressure itself", () => {
+    const doc = (value: number, unit: string) => ({
+      units: { T: "K", k: "s-1", pressure: unit },
+      conditions: { pressure: { value } },
+      points: [],
+    });
+    expect(diffSubmissions(doc(100, "Torr"), doc(100, "bar")).fields).toEqual([
+      { kind: "changed", path: "units › pressure", before: "Torr", after: "bar" },
+      { kind: "changed", path: "conditions › pressure › value", before: "100 Torr", after: "100 bar" },
+    ]);
+    expect(diffSubmissions(doc(100, "Torr"), doc(50, "Torr")).fields).toEqual([
+      { kind: "changed", path: "conditions › pressure › value", before: "100 Torr", after: "50 Torr" },
+    ]);
+  });
+
   it("names an uncertainty's coverage as the editor does (1σ, 2σ), never by its stored code", () => {
     const point = (confidence: string) => ({
       units: { T: "K", k: "s-1" },
