@@ -19,7 +19,7 @@ import {
   type RateConstantUnit,
   type ReactionOrder,
 } from "@/lib/kinetics";
-import { formatValue, sentenceAt, sentenceWithPrefix } from "./messages";
+import { aboveAbsoluteZeroWords, formatValue, sentenceAt, sentenceWithPrefix } from "./messages";
 import { sigmaLnKOf } from "./normalise";
 import type { PointUncertainty } from "./types";
 
@@ -85,8 +85,9 @@ function kelvinOf(value: number, unit: LinearUnit): number {
 }
 
 /**
- * Report a temperature that is not above 0 K. In K: "must be greater than 0 K"; in °C: "is below
- * absolute zero", which is the mistake people actually make (a minus sign, or K typed as °C).
+ * Report a temperature that is not above 0 K, in the one wording of lib/deposits/messages.ts
+ * (aboveAbsoluteZeroWords): the value as written, and in °C its kelvin value too — a minus sign, or
+ * K typed as °C, are the mistakes people actually make.
  */
 function checkTemperature(report: Report, pointer: string, value: unknown, unit: LinearUnit | undefined): number | undefined {
   if (!isFiniteNumber(value) || !unit) return undefined;
@@ -115,18 +116,7 @@ function checkTemperature(report: Report, pointer: string, value: unknown, unit:
     return undefined;
   }
   if (kelvin > 0) return kelvin;
-  if (unit.offset) {
-    report({
-      pointer,
-      value,
-      message: sentenceWithPrefix(
-        pointer,
-        `${value} ${unit.label} is ${kelvin < 0 ? "below" : "at"} absolute zero (${kelvin.toFixed(2)} K); a temperature in ${unit.label} must be above -273.15`,
-      ),
-    });
-  } else {
-    report({ pointer, value, message: sentenceAt(pointer, `must be greater than 0 K (got ${value} ${unit.label})`) });
-  }
+  report({ pointer, value, message: sentenceAt(pointer, aboveAbsoluteZeroWords(String(value), unit, kelvin)) });
   return undefined;
 }
 

@@ -11,7 +11,7 @@ import { AppError, type FieldError } from "@/lib/errors";
 import { parsePressureUnit, parseRateConstantUnit, parseTemperatureUnit } from "@/lib/kinetics";
 import { utf8ByteLength } from "./byte-length";
 import { findJsonSyntaxProblem } from "./json-syntax";
-import { formatCount } from "./messages";
+import { aboveAbsoluteZeroWords, formatCount } from "./messages";
 import { readNumberText, parseNumberText } from "@/lib/number-text";
 import { escapePointerSegment } from "./schema";
 import type { ConfidenceLevel, DepositPoint, UncertaintyKind } from "./types";
@@ -390,8 +390,12 @@ export function applyMapping(
     if (typeof T === "number" && tUnit) {
       const kelvin = T * tUnit.factor + (tUnit.offset ?? 0);
       if (!(kelvin > 0)) {
-        const got = `${(row[mapping.T!] ?? "").trim()} ${tUnit.label}${tUnit.offset ? `, which is ${Number(kelvin.toFixed(2))} K` : ""}`;
-        outOfRange(row, i, mapping.T!, "a temperature must be above absolute zero", got);
+        report(
+          i,
+          mapping.T!,
+          `${where(i, mapping.T!)}: a temperature ${aboveAbsoluteZeroWords((row[mapping.T!] ?? "").trim(), tUnit, kelvin)}.`,
+          row[mapping.T!],
+        );
         ok = false;
       }
     }

@@ -95,6 +95,16 @@ export function sentenceWithPrefix(pointer: string, text: string): string {
   return /[.!?]$/.test(body) ? body : `${body}.`;
 }
 
+/**
+ * The one wording for a temperature at or below absolute zero, in the editor, the checks of a
+ * document and a table import alike: "must be above absolute zero (got -5 K)", and with an offset
+ * unit the kelvin value too: "(got -300 °C, which is -26.85 K)". `written` is the value as typed.
+ */
+export function aboveAbsoluteZeroWords(written: string, unit: { label: string; offset?: number }, kelvin: number): string {
+  const inKelvin = unit.offset ? `, which is ${Number(kelvin.toFixed(2))} K` : "";
+  return `must be above absolute zero (got ${written} ${unit.label}${inKelvin})`;
+}
+
 /** ["a"] → "a"; ["a", "b"] → "a or b"; ["a", "b", "c"] → "a, b or c". */
 export function joinAlternatives(options: readonly string[]): string {
   if (options.length <= 1) return options.join("");

@@ -295,9 +295,9 @@ describe("validateDeposit: checks beyond the schema", () => {
     expect(errorAt(doc, "/points/0/T")).toEqual({
       pointer: "/points/0/T",
       value: 0,
-      message: "Point 1: temperature must be greater than 0 K (got 0 K).",
+      message: "Point 1: temperature must be above absolute zero (got 0 K).",
     });
-    expect(errorAt(doc, "/points/1/T").message).toBe("Point 2: temperature must be greater than 0 K (got -5 K).");
+    expect(errorAt(doc, "/points/1/T").message).toBe("Point 2: temperature must be above absolute zero (got -5 K).");
   });
 
   it("°C below absolute zero is refused with its kelvin value", () => {
@@ -310,7 +310,7 @@ describe("validateDeposit: checks beyond the schema", () => {
       {
         pointer: "/points/2/T",
         value: -300,
-        message: "Point 3: -300 °C is below absolute zero (-26.85 K); a temperature in °C must be above -273.15.",
+        message: "Point 3: temperature must be above absolute zero (got -300 °C, which is -26.85 K).",
       },
     ]);
   });
@@ -368,7 +368,7 @@ describe("validateDeposit: checks beyond the schema", () => {
     );
     expect(errorAt(doc, "/reportedFit/Ea").message).toContain("more than any chemical barrier; check the value and its unit");
     expect(errorAt(doc, "/reportedFit/Tmax").message).toBe("Highest valid temperature (250) must be above the lowest (420).");
-    expect(errorAt(doc, "/reportedFit/T0").message).toBe("Reference temperature must be greater than 0 K (got -1 K).");
+    expect(errorAt(doc, "/reportedFit/T0").message).toBe("Reference temperature must be above absolute zero (got -1 K).");
   });
 
   it("phase-specific fields for another phase are flagged", () => {
