@@ -5,18 +5,10 @@
  * Run with `npm run bench:kinetics`. Not a test: prints a table and the targets.
  */
 import { analyseDataset, consensus, GAS_CONSTANT, type ConsensusDataset, type RatePoint } from "@/lib/kinetics";
+import { seededRandom } from "@/lib/seeded-random";
 
-/** Deterministic pseudo-random numbers (mulberry32) so runs are comparable. */
-function makeRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Deterministic pseudo-random numbers so runs are comparable. */
+const makeRandom = seededRandom;
 
 function normal(rand: () => number): number {
   return Math.sqrt(-2 * Math.log(1 - rand())) * Math.cos(2 * Math.PI * rand());

@@ -6,18 +6,12 @@
  * titles, journals and every number are made up. Nothing here is taken from any publication.
  */
 import type { DepositDocument } from "@/lib/deposits";
+import { seededRandom } from "@/lib/seeded-random";
 import { LICENCES, TECHNIQUE_SUGGESTIONS, type ReactionClassId } from "@/lib/deposits/vocabulary";
 
-/** mulberry32: a small, fast, seedable generator (public-domain algorithm by Tommy Ettinger). */
+/** Uniform, integer, pick and normal draws from one seed (lib/seeded-random.ts). */
 export function randomFrom(seed: number) {
-  let a = seed >>> 0;
-  const next = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const next = seededRandom(seed);
   const uniform = (lo: number, hi: number) => lo + (hi - lo) * next();
   const int = (lo: number, hi: number) => Math.floor(uniform(lo, hi + 1));
   const pick = <T>(xs: readonly T[]): T => xs[Math.floor(next() * xs.length)];

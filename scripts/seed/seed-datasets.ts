@@ -5,6 +5,7 @@ import { depositNewDataset } from "@/lib/datasets/deposits";
 import { hasDatasetTitled } from "@/lib/datasets/queries";
 import { GAS_CONSTANT } from "@/lib/kinetics";
 import { getUserByEmail, type UserDto } from "@/lib/users/queries";
+import { seededRandom } from "@/lib/seeded-random";
 import { recordDemoHistory } from "./demo-waiting";
 
 /**
@@ -245,17 +246,8 @@ const reactions: ReactionSpec[] = [
   },
 ];
 
-/** Deterministic pseudo-random numbers (mulberry32) so every demo database is the same. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Deterministic pseudo-random numbers so every demo database is the same. */
+const rng = seededRandom;
 
 interface DatasetSpec {
   reaction: string;

@@ -7,18 +7,10 @@
  */
 import { describe, expect, it } from "vitest";
 import { consensus, MASKING_FACTOR, type ConsensusDataset } from "@/lib/kinetics/consensus";
+import { seededRandom } from "@/lib/seeded-random";
 
-/** The demo's generator (scripts/seed/seed-datasets.ts): mulberry32, sums of three uniforms as noise. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The demo's generator (scripts/seed/seed-datasets.ts), sums of three uniforms as noise. */
+const rng = seededRandom;
 
 const EoverR = 1760;
 /** (T/T0)^2.4 · exp(2.4 (1 − T0/T)): 1 at 298.15 K, about ×1/5 at 220 K and ×4.6 at 420 K. */
