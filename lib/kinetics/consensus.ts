@@ -35,12 +35,13 @@
  * compared is (τ² = 0), so A against B mirrors B against A. A dataset that agrees everywhere is
  * never flagged, however precise.
  *
- * Largest consistent subset (Cox 2007, Metrologia 44:187): while a dataset is off the consensus of
- * the others and more than two remain, the dataset whose removal leaves the smallest excess Q − dof of
- * the others' fixed-effect fit is set aside (near-ties: the one furthest off; at most 3; compared
- * with, not used for, the curve) and everything is refitted. Every removal is scored in one model:
- * modified Arrhenius on the judging fits' values when the datasets show a curvature that rests on
- * none of them alone (see {@link corroboratedExcess}), else the others' Arrhenius fit.
+ * Largest consistent subset (Cox 2007, Metrologia 44:187). The decision to set aside is family-wise:
+ * off at z_{1−α/(2M)}, M the comparison temperatures of all included datasets (the words keep each
+ * dataset's own bound). Up to 20 included datasets, one search ({@link setAsideChoice}) over removal
+ * sets of 1–3 among the 7 furthest off: the smallest size whose rest has none off, each removed
+ * off the rest, never a majority removed (as many only when those removed disagree grossly among
+ * themselves), nothing when two qualifying sets leave disjoint rests, else the rest with the smallest
+ * excess Q − dof. Above 20, one at a time while one is off (family-wise), at most 3.
  *
  * unit_suspect: the mean log10 ratio within 0.15 of a unit-mistake factor for the order m
  * (N_A^(m−1), 10^(3(m−1)), 10^(6(m−1)), (N_A/10³)^(m−1), (N_A/10⁶)^(m−1)); such a dataset is
@@ -427,6 +428,9 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
 
   let fits: Fits;
   let others: (Others | null)[];
+  let searched = false;
+  // Decided on the first pass: many datasets are set aside one at a time, up to 20 by one search.
+  let greedy: boolean | undefined;
   for (;;) {
     const included = range(J).filter((j) => leftOut[j] === null);
     fits = fitAll(rows, supports, included);
@@ -447,33 +451,34 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
       leftOut[worst] = `a likely unit mistake (${unitSuspect[worst]})`;
       continue;
     }
-    // Largest consistent subset (Cox 2007, Metrologia 44:187): while some dataset is off the
-    // consensus of the others, the dataset whose removal leaves the most consistent rest (the
-    // smallest excess Q − dof of the others' generalised χ², in the model of corroboratedExcess) leaves the curve, near-ties going to
-    // the one furthest off; the rest are fitted and judged again, until none is off or two remain.
-    if (included.length <= MIN_CONSISTENT_SUBSET || setAside.filter(Boolean).length >= MAX_SET_ASIDE) break;
-    if (!included.some((j) => readings[j]?.off)) {
-      // Two datasets off in different ways can hide each other: each widens the spread the other is
-      // judged against. Then the pair whose removal leaves the rest agreeing, and each of the two off
-      // that rest, is set aside together (when exactly one pair does).
-      const pair =
-        setAside.filter(Boolean).length + 2 <= MAX_SET_ASIDE ? maskingPair(rows, supports, included, fits, readings, judgedRows) : null;
-      if (!pair) break;
-      for (const j of pair) {
-        setAside[j] = true;
-        leftOut[j] = SET_ASIDE_REASON;
-      }
+    // Largest consistent subset (Cox 2007, Metrologia 44:187), decided once on the included datasets
+    // (see setAsideChoice); after a set-aside everything is fitted and judged again, and a unit
+    // mistake found then still leaves first.
+    if (searched || included.length <= MIN_CONSISTENT_SUBSET) break;
+    const bound = familyBound(included, readings);
+    greedy ??= included.length > EXHAUSTIVE_SET_ASIDE_LIMIT;
+    if (greedy) {
+      // Many datasets: one at a time, while one is off at the family-wise bound.
+      const count = setAside.filter(Boolean).length;
+      if (count >= MAX_SET_ASIDE || count + 1 > included.length - 1 || !included.some((j) => offFamily(readings[j], bound))) break;
+      const far = leastConsistent(
+        included,
+        others,
+        readings,
+        corroboratedExcess(judgedRows, supports, included, judgedRows() === rows && fits.mod ? { full: fits.mod, loo: kept.mod } : null),
+      );
+      if (far < 0) break;
+      setAside[far] = true;
+      leftOut[far] = SET_ASIDE_REASON;
       continue;
     }
-    const far = leastConsistent(
-      included,
-      others,
-      readings,
-      corroboratedExcess(judgedRows, supports, included, judgedRows() === rows && fits.mod ? { full: fits.mod, loo: kept.mod } : null),
-    );
-    if (far < 0) break;
-    setAside[far] = true;
-    leftOut[far] = SET_ASIDE_REASON;
+    searched = true;
+    const chosen = setAsideChoice(rows, supports, included, fits, readings, bound, judgedRows, kept);
+    if (!chosen) break;
+    for (const j of chosen) {
+      setAside[j] = true;
+      leftOut[j] = SET_ASIDE_REASON;
+    }
   }
   const shareCache = new ShareCache(rows);
   const settled = others;
@@ -558,7 +563,7 @@ export function consensus(datasets: readonly ConsensusDataset[], options: Consen
     curveFrom: included.map((j) => datasets[j].id),
     range: covered,
     method:
-      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range, and while one is off, the one whose removal leaves the others most consistent (smallest Q − dof, modified Arrhenius when a curvature rests on no one dataset, else Arrhenius) is set aside and the rest refitted (largest consistent subset, Cox 2007) until none is off or two remain — and when none is off yet the datasets disagree, the one pair grossly off a rest that agrees is set aside together (two sets that hid each other); bands and f(T) at 95 % including τ².",
+      "Two-stage random effects: each dataset's own (preferred) fit gives ln k at support temperatures inside its range with their covariance V_j; the consensus is the GLS fit to all support values with covariance V_j + τ²·I, τ² by DerSimonian–Laird; datasets are compared with the consensus of the others along their range; largest consistent subset (Cox 2007) with a family-wise bound over all comparisons: up to 20 datasets the smallest removal of 1–3 datasets whose rest has none off, each removed off the rest and never a majority (as many only when those removed disagree grossly), nothing when two such removals leave disjoint rests, else the rest with the smallest Q − dof; above 20 one at a time while one is off; bands and f(T) at 95 % including τ².",
     arrhenius: { ...buildArrhenius(rows, fits.arr, covered, coverage), supportValues: values },
     modifiedArrhenius: fits.mod ? { ...buildModified(rows, fits.mod, covered, coverage, T0), supportValues: values } : null,
     preferred: fits.preferred.q === 3 ? "modified_arrhenius" : "arrhenius",
@@ -689,63 +694,162 @@ function fitAll(rows: Rows, supports: readonly (DatasetSupport | null)[], includ
   return { arr, mod, preferred: prefer(arr, mod) };
 }
 
-/** Up to this many included datasets a pair hiding each other is looked for (one masks less among many). */
-export const MASKING_SEARCH_LIMIT = 20;
 /**
- * How far each of a hiding pair must be off the rest: its largest |z| beyond this many times the
- * Bonferroni bound, and by at least {@link MASKING_FACTOR} at some comparison temperature. Setting two
- * datasets aside at once is for a gross disagreement (as a unit, calibration or model mistake gives),
- * not for a spread of tens of per cent, which stays a spread.
+ * Up to this many included datasets the set-aside is one search over removal sets (setAsideChoice);
+ * beyond, one dataset at a time (a search would cost too much, and among many a few stray sets hide
+ * each other less).
+ */
+export const EXHAUSTIVE_SET_ASIDE_LIMIT = 20;
+/** The removal sets tried are those among this many datasets furthest from the others' consensus. */
+export const SET_ASIDE_CANDIDATES = 7;
+/**
+ * How far each dataset of two or more set aside together must be off the rest: its largest |z| beyond
+ * this many times its Bonferroni bound, and by at least {@link MASKING_FACTOR} at some comparison
+ * temperature. Setting several datasets aside at once is for a gross disagreement (as a unit,
+ * calibration or model mistake gives), not for a spread of tens of per cent, which stays a spread.
  */
 export const MASKING_FAR = 3;
 /** The factor of a gross disagreement: 2, the width often quoted for a rate constant's uncertainty (common practice). */
 export const MASKING_FACTOR = 2;
-/** The pairs tried are those among this many datasets furthest from the others' consensus. */
-const MASKING_CANDIDATES = 6;
 
 /**
- * Two datasets that hide each other (masking): while both are in, the spread τ² between the datasets
- * is wide enough that neither is off the consensus of the others. Looked for only when no dataset is
- * off, yet the datasets disagree (Cochran's Q of the consensus fit, p < {@link OFF_CONSENSUS_ALPHA}),
- * among 4 to {@link MASKING_SEARCH_LIMIT} datasets. A pair among the {@link MASKING_CANDIDATES}
- * furthest off qualifies when the rest agree with each other (their Q, p ≥ the same level) and each of
- * the two is grossly off the rest's consensus ({@link MASKING_FAR}, {@link MASKING_FACTOR}). Exactly one qualifying pair is returned; none or several (two
- * halves that each agree within themselves: which half is right, the data cannot tell) give null.
+ * The family-wise bound of the decision to set aside: z_{1−α/(2M)} over all M comparison
+ * temperatures of all included datasets (Bonferroni over every comparison made), so that among
+ * correct datasets any set-aside at all happens at most about α of the time. The words about one
+ * dataset keep its own bound over its own comparison temperatures.
  */
-function maskingPair(
+function familyBound(included: readonly number[], readings: readonly (QuickReading | null)[]): number {
+  let M = 0;
+  for (const j of included) M += readings[j]?.m ?? 0;
+  return bonferroniNormal(Math.max(1, M));
+}
+
+/** Off at the family-wise bound: some |z| over its comparison temperatures beyond it. */
+function offFamily(r: QuickReading | null | undefined, bound: number): boolean {
+  return !!r && r.m > 0 && !(r.top <= bound);
+}
+
+/** Excess Q − dof of a fit (Infinity without one). */
+function excessOf(f: ModelFit | null): number {
+  return f ? f.Q - f.df : Infinity;
+}
+
+/**
+ * Largest consistent subset among up to {@link EXHAUSTIVE_SET_ASIDE_LIMIT} included datasets (Cox 2007,
+ * Metrologia 44:187), one search instead of one dataset at a time. Looked for when some dataset is
+ * off the consensus of the others at the family-wise bound, or the datasets disagree (Cochran's Q of
+ * the consensus, p < {@link OFF_CONSENSUS_ALPHA}: two sets off in different ways can hide each other).
+ * Removal sets of 1, 2, … {@link MAX_SET_ASIDE} datasets among the {@link SET_ASIDE_CANDIDATES}
+ * furthest off are tried, smallest first; a set qualifies when
+ * - none of the rest is off the consensus of the others of the rest (family-wise bound),
+ * - each dataset removed is off the rest, judged as every dataset is: the consensus of the others
+ *   with it in (leaveOneOut over the rest and it), so a curved set meets the others' curve as usual,
+ * - when two or more are removed and none of the included datasets was off (the search came from
+ *   their disagreement alone), each is grossly off the rest ({@link MASKING_FAR}, {@link MASKING_FACTOR}),
+ * - the rest keeps more datasets than are removed, or as many when those removed disagree among
+ *   themselves (one of them grossly off the consensus of the others removed): a majority is never
+ *   set aside, and two halves that each agree within themselves stay in.
+ * The smallest size with a qualifying set decides. When two qualifying sets leave disjoint rests the
+ * data cannot tell which part is right and nothing is set aside; otherwise the set whose rest has the
+ * smallest excess Q − dof (one model for every rest: modified Arrhenius on the judging fits' values
+ * when the curvature is corroborated, {@link corroboratedExcess}, else Arrhenius), near-ties to the one
+ * furthest off. Null when nothing qualifies.
+ */
+function setAsideChoice(
   rows: Rows,
   supports: readonly (DatasetSupport | null)[],
   included: readonly number[],
   fits: Fits,
   readings: readonly (QuickReading | null)[],
+  bound: number,
   judgedRows: () => Rows,
-): [number, number] | null {
+  kept: KeptFits,
+): number[] | null {
   const m = included.length;
-  if (m < 4 || m > MASKING_SEARCH_LIMIT) return null;
   const agree = (f: ModelFit) => !(f.df > 0) || survivalChiSquare(f.Q, f.df) >= OFF_CONSENSUS_ALPHA;
-  if (agree(fits.preferred)) return null;
-  const candidates = [...included].sort((a, b) => (readings[b]?.far ?? 0) - (readings[a]?.far ?? 0)).slice(0, MASKING_CANDIDATES);
-  let found: [number, number] | null = null;
-  for (let x = 0; x < candidates.length; x++) {
-    for (let y = x + 1; y < candidates.length; y++) {
-      const pair: [number, number] = [candidates[x], candidates[y]];
-      const rest = included.filter((j) => j !== pair[0] && j !== pair[1]);
-      const restFits = fitAll(rows, supports, rest);
-      if (!agree(restFits.preferred)) continue;
-      // Each of the two against the rest as the subset loop judges: the consensus of the others
-      // with the one compared in, so a curved dataset meets the others' curve as it always does.
-      const offRest = (j: number) => {
-        const withJ = included.filter((k) => k === j || (k !== pair[0] && k !== pair[1]));
-        const o = leaveOneOut(rows, supports, withJ, fitAll(rows, supports, withJ), judgedRows, { mod: null })[j];
-        const r = quickReading(rows, supports, o, j);
-        return r !== null && r.off && r.far > MASKING_FAR && r.widestLn >= Math.log(MASKING_FACTOR);
-      };
-      if (!offRest(pair[0]) || !offRest(pair[1])) continue;
-      if (found) return null;
-      found = pair;
+  const anyOff = included.some((j) => offFamily(readings[j], bound));
+  if (!anyOff && agree(fits.preferred)) return null;
+  // Found only through the datasets' disagreement (nobody off), a removal of two or more must be gross.
+  const gross = !anyOff;
+  const fitsOf = (blocks: number[]): Fits | null => {
+    try {
+      return fitAll(rows, supports, blocks);
+    } catch (err) {
+      if (err instanceof AnalysisError) return null; // a single temperature left: no curve to judge against
+      throw err;
     }
+  };
+  // The readings of every dataset of the included ones without `removed` against the others of that
+  // subset, once per removed set (sorted indices).
+  const memo = new Map<string, readonly (QuickReading | null)[] | null>();
+  const without = (removed: readonly number[]): readonly (QuickReading | null)[] | null => {
+    if (removed.length === 0) return readings;
+    const key = removed.join(",");
+    if (memo.has(key)) return memo.get(key)!;
+    const rest = included.filter((k) => !removed.includes(k));
+    const f = fitsOf(rest);
+    let out: (QuickReading | null)[] | null = null;
+    if (f) {
+      const o = leaveOneOut(rows, supports, rest, f, judgedRows, { mod: null });
+      out = supports.map((_, k) => (rest.includes(k) ? quickReading(rows, supports, o[k], k) : null));
+    }
+    memo.set(key, out);
+    return out;
+  };
+  let curvedScore: boolean | null = null;
+  const score = (rest: number[]) => {
+    curvedScore ??=
+      corroboratedExcess(judgedRows, supports, included, judgedRows() === rows && fits.mod ? { full: fits.mod, loo: kept.mod } : null) !==
+      null;
+    return curvedScore ? excessOf(fitModel(judgedRows(), rest, 3)) : excessOf(fitModel(rows, rest, 2));
+  };
+  const far = (j: number) => readings[j]?.far ?? 0;
+  const candidates = [...included].sort((a, b) => far(b) - far(a)).slice(0, SET_ASIDE_CANDIDATES);
+  for (let size = 1; size <= MAX_SET_ASIDE && m - size >= Math.max(size, MIN_CONSISTENT_SUBSET); size++) {
+    const qualifying: { removed: number[]; rest: number[]; excess: number; far: number }[] = [];
+    for (const chosen of combinations(candidates, size)) {
+      const removed = [...chosen].sort((a, b) => a - b);
+      const offRest = (j: number) => {
+        const r = without(removed.filter((k) => k !== j))?.[j];
+        return offFamily(r, bound) && (size === 1 || !gross || (r!.far > MASKING_FAR && r!.widestLn >= Math.log(MASKING_FACTOR)));
+      };
+      if (!removed.every(offRest)) continue;
+      const restReadings = without(removed);
+      const rest = included.filter((k) => !removed.includes(k));
+      if (!restReadings || rest.some((k) => offFamily(restReadings[k], bound))) continue;
+      // As many kept as set aside only when those set aside do not agree among themselves: one of them
+      // grossly off the consensus of the others set aside (a chance disagreement within one half of
+      // two does not make that half the wrong one).
+      if (rest.length === size) {
+        const own = without(rest);
+        const grossly = (q: QuickReading | null) => offFamily(q, bound) && q!.far > MASKING_FAR && q!.widestLn >= Math.log(MASKING_FACTOR);
+        if (!own || !removed.some((k) => grossly(own[k]))) continue;
+      }
+      qualifying.push({ removed, rest, excess: score(rest), far: Math.max(...removed.map(far)) });
+    }
+    if (qualifying.length === 0) continue;
+    for (let x = 0; x < qualifying.length; x++) {
+      for (let y = x + 1; y < qualifying.length; y++) {
+        if (!qualifying[x].rest.some((k) => qualifying[y].rest.includes(k))) return null;
+      }
+    }
+    let best = qualifying[0];
+    for (const q of qualifying.slice(1)) {
+      const dq = q.excess - best.excess;
+      if (dq < -SUBSET_Q_TIE || (Math.abs(dq) <= SUBSET_Q_TIE && q.far > best.far)) best = q;
+    }
+    return best.removed;
   }
-  return found;
+  return null;
+}
+
+/** Every choice of `size` items of `items`, in order. */
+function* combinations<T>(items: readonly T[], size: number, from = 0, prefix: T[] = []): Generator<T[]> {
+  if (prefix.length === size) {
+    yield prefix;
+    return;
+  }
+  for (let i = from; i <= items.length - (size - prefix.length); i++) yield* combinations(items, size, i + 1, [...prefix, items[i]]);
 }
 
 /** Excess Q within which two removals count as equally good and the z rule decides. */
@@ -1058,6 +1162,10 @@ interface QuickReading {
   meanOffsetLog10: number;
   /** Largest |ln(k_own / k_others)| over the comparison temperatures. */
   widestLn: number;
+  /** Largest |z| over the comparison temperatures (0 when the others cover none of its range). */
+  top: number;
+  /** Comparison temperatures (0 when the others cover none of its range). */
+  m: number;
 }
 
 /**
@@ -1088,7 +1196,14 @@ function quickReading(rows: Rows, supports: readonly (DatasetSupport | null)[], 
     top = Math.max(top, z);
     widest = Math.max(widest, Math.abs(d));
   }
-  return { off: overlap && off, far: overlap ? top / bound : 0, meanOffsetLog10: sum / temps.length / Math.LN10, widestLn: widest };
+  return {
+    off: overlap && off,
+    far: overlap ? top / bound : 0,
+    meanOffsetLog10: sum / temps.length / Math.LN10,
+    widestLn: widest,
+    top: overlap ? top : 0,
+    m: overlap ? temps.length : 0,
+  };
 }
 
 function compare(
