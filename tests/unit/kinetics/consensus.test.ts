@@ -435,7 +435,9 @@ describe("consensus: constructed cases with a known answer", () => {
       if (delta < 1) {
         expect(mcnemar, `consensus inside ${t.inside}, truth ${truthInside} of ${SEEDS} at δ = ${delta}`).toBeLessThan(1.645);
       } else {
-        expect(t.inside, `consensus inside ${t.inside}, truth ${truthInside} of ${SEEDS} at δ = ${delta}`).toBeGreaterThanOrEqual(0.6 * SEEDS);
+        expect(t.inside, `consensus inside ${t.inside}, truth ${truthInside} of ${SEEDS} at δ = ${delta}`).toBeGreaterThanOrEqual(
+          0.6 * SEEDS,
+        );
       }
       if (delta === 0) expect(t.inside).toBeGreaterThanOrEqual(truthInside);
     }
