@@ -26,14 +26,27 @@ import {
  *   term among the reactants, each product term among the products; a reaction key — in the index.
  * - Filters, in the index: values of one facet are or-ed, facets and-ed; temperature window
  *   overlap (or cover), pressure window overlap, source years.
- * - Sorts, each with version_id (reaction id) as the tiebreak, in the index: relevance (ts_rank
- *   for text, newest otherwise), newest, widest range, most points; keyset pagination on (sort key,
+ * - Sorts, each with version_id (reaction id) as the tiebreak, in the index: relevance (for text,
+ *   see RANKED; newest otherwise), newest, widest range, most points; keyset pagination on (sort key,
  *   id). Only the page's rows are then read from search_documents, by primary key.
  * - Facet counts, exact, in the index: each facet over the matches with every other facet's filter applied.
  */
 
 /** Text search query of the free text; the same expression in the filter and in ts_rank. */
 const tsQuery = (text: string) => sql`websearch_to_tsquery('english', ${text})`;
+
+/**
+ * Relevance of a text search, bounded whatever the word: every match gets the cheap score, ts_rank
+ * over the document's short part (`head`: weights A and B, kept in the row), and only the RANKED
+ * best of the matches after every filter (by that score, then by version id, highest first) are ranked by ts_rank
+ * over the whole document (read by primary key); they come first, in that order, and the other
+ * matches follow by their cheap score. Ranking every match on the whole document read each one's
+ * compressed tsvector: 0.1–2 s for a common word.
+ */
+export const RANKED = 200;
+
+/** The sort key of a match outside the ranked ones: below every ts_rank (0 … 1), in the order of its cheap score. */
+const unrankedKey = (cheap: number) => cheap - 2;
 
 /**
  * The text match (what was typed). Free text matches words (stemmed); `fuzzy` instead matches
@@ -157,7 +170,7 @@ async function datasetRows(versionIds: number[]): Promise<DatasetHit[]> {
 
 /**
  * The candidates of the typed text: positions in the index of the listed documents it matches,
- * with their text rank when the sort is by relevance. Only this part reads search_documents'
+ * with their cheap score (RANKED) when the sort is by relevance. Only this part reads search_documents'
  * text indexes; structured queries (species, reaction patterns, a reaction key, nothing typed)
  * are matched in the index itself.
  */
@@ -170,7 +183,7 @@ async function candidatesOf(
   if (parsed.kind === "text") {
     const ranked = query.sort === "relevance";
     const rows = await getDb().execute<{ version_id: number; rank: number | null }>(sql`
-      select d.version_id, ${ranked ? sql`ts_rank(d.document, ${tsQuery(parsed.text)})::float8` : sql`null::float8`} as rank
+      select d.version_id, ${ranked ? sql`ts_rank(d.head, ${tsQuery(parsed.text)})::float8` : sql`null::float8`} as rank
       from search_documents d where d.latest and ${textMatch(parsed.text, fuzzy)}`);
     const positions: number[] = [];
     const ranks: number[] = [];
@@ -237,6 +250,7 @@ async function runSearch(index: MemoryIndex, query: EngineQuery, fuzzy: boolean)
   const rankOf = new Map<number, number>();
   if (rank && keep) for (let k = 0; k < positions.length; k++) if (keep[k]) rankOf.set(positions[k], rank[k]);
   const { matched, facets } = countFacets(index, inWindow, query.filters, SEARCH_FACETS);
+  if (rank) await rankBest(index, query, matched, rankOf);
   const facetCounts = facets as Record<SearchFacet, FacetCount[]>;
   if (query.view === "reactions") {
     // Each reaction's matching documents, summed up as the reactions view sorts them. A retracted
@@ -248,7 +262,7 @@ async function runSearch(index: MemoryIndex, query: EngineQuery, fuzzy: boolean)
       const r = index.reaction[i];
       let g = groups.get(r);
       if (!g) {
-        g = { count: 0, retracted: 0, tMin: Infinity, tMax: -Infinity, newest: -Infinity, points: 0, best: 0 };
+        g = { count: 0, retracted: 0, tMin: Infinity, tMax: -Infinity, newest: -Infinity, points: 0, best: -Infinity };
         groups.set(r, g);
       }
       g.newest = Math.max(g.newest, index.publishedMicros[i]);
@@ -314,6 +328,28 @@ async function runSearch(index: MemoryIndex, query: EngineQuery, fuzzy: boolean)
     facets: facetCounts,
     nextAfter: page.length > query.limit && last ? JSON.stringify([String(last.key), last.id]) : null,
   };
+}
+
+/**
+ * RANKED: the best matches by their cheap score (then by version id, highest first) get ts_rank over the whole
+ * document as their key, every other match unrankedKey(cheap score); `rankOf` holds the keys after.
+ */
+async function rankBest(index: MemoryIndex, query: EngineQuery, matched: Int32Array, rankOf: Map<number, number>) {
+  if (query.parsed.kind !== "text") return;
+  const best = topByKey(
+    matched.length,
+    (k) => rankOf.get(matched[k]) ?? 0,
+    (k) => index.versionId[matched[k]],
+    null,
+    RANKED - 1,
+  );
+  for (const [at, cheap] of rankOf) rankOf.set(at, unrankedKey(cheap));
+  if (!best.length) return;
+  const rows = await getDb().execute<{ version_id: number; rank: number }>(sql`
+    select d.version_id, ts_rank(d.document, ${tsQuery(query.parsed.text)})::float8 as rank
+    from search_documents d where d.version_id = any(${`{${best.map((b) => b.id).join(",")}}`}::int[])`);
+  const exact = new Map(rows.map((r) => [Number(r.version_id), Number(r.rank)]));
+  for (const b of best) rankOf.set(matched[b.k], exact.get(b.id) ?? 0);
 }
 
 /** The reactions view's consensus and spread of these reactions. */
