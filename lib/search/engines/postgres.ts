@@ -3,6 +3,7 @@ import { sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { AppError } from "@/lib/errors";
 import { countFacets, filterWindows, memoryIndex, overlaps, type MemoryIndex } from "./memory-index";
+import { relevanceKeys, topByKey } from "./relevance";
 import {
   SEARCH_FACETS,
   type DatasetHit,
@@ -36,19 +37,6 @@ import {
 const tsQuery = (text: string) => sql`websearch_to_tsquery('english', ${text})`;
 
 /**
- * Relevance of a text search, bounded whatever the word: every match gets the cheap score, ts_rank
- * over the document's short part (`head`: weights A and B, kept in the row), and only the RANKED
- * best of the matches after every filter (by that score, then by version id, highest first) are ranked by ts_rank
- * over the whole document (read by primary key); they come first, in that order, and the other
- * matches follow by their cheap score. Ranking every match on the whole document read each one's
- * compressed tsvector: 0.1–2 s for a common word.
- */
-export const RANKED = 200;
-
-/** The sort key of a match outside the ranked ones: below every ts_rank (0 … 1), in the order of its cheap score. */
-const unrankedKey = (cheap: number) => cheap - 2;
-
-/**
  * The text match (what was typed). Free text matches words (stemmed); `fuzzy` instead matches
  * names close to what was typed ("metane", "hydroxil"), the fallback when the words match
  * nothing: or-ing both in one query made the planner test the trigram similarity on every row.
@@ -70,34 +58,6 @@ function readAfter(after: string | null): { key: string; id: number } | null {
   }
   const message = "cursor is not one this search gave out";
   throw new AppError("bad_request", message, [{ pointer: "/cursor", parameter: "cursor", message }]);
-}
-
-/**
- * A page of candidates by (key desc, id desc), after a keyset position: the first `limit + 1`
- * only, as positions 0 … count - 1 with their key and id (no object per candidate).
- */
-function topByKey(
-  count: number,
-  keyAt: (k: number) => number,
-  idAt: (k: number) => number,
-  after: { key: number; id: number } | null,
-  limit: number,
-): { key: number; id: number; k: number }[] {
-  const page: { key: number; id: number; k: number }[] = [];
-  for (let k = 0; k < count; k++) {
-    const key = keyAt(k);
-    const id = idAt(k);
-    if (after && !(key < after.key || (key === after.key && id < after.id))) continue;
-    if (page.length > limit) {
-      const last = page[page.length - 1];
-      if (!(key > last.key || (key === last.key && id > last.id))) continue;
-    }
-    let at = page.length;
-    while (at > 0 && (key > page[at - 1].key || (key === page[at - 1].key && id > page[at - 1].id))) at--;
-    page.splice(at, 0, { key, id, k });
-    if (page.length > limit + 1) page.pop();
-  }
-  return page;
 }
 
 /** The sort key of a cursor as a number (cursors of this engine carry the key as written by String(number)). */
@@ -250,7 +210,16 @@ async function runSearch(index: MemoryIndex, query: EngineQuery, fuzzy: boolean)
   const rankOf = new Map<number, number>();
   if (rank && keep) for (let k = 0; k < positions.length; k++) if (keep[k]) rankOf.set(positions[k], rank[k]);
   const { matched, facets } = countFacets(index, inWindow, query.filters, SEARCH_FACETS);
-  if (rank) await rankBest(index, query, matched, rankOf);
+  if (rank && query.parsed.kind === "text") {
+    // RANKED (./relevance.ts): the best matches by the cheap score get ts_rank over the whole document.
+    const text = query.parsed.text;
+    const keys = await relevanceKeys(
+      Array.from(matched, (i) => index.versionId[i]),
+      Array.from(matched, (i) => rankOf.get(i) ?? 0),
+      (ids) => wholeDocumentRanks(ids, text),
+    );
+    matched.forEach((i, k) => rankOf.set(i, keys[k]));
+  }
   const facetCounts = facets as Record<SearchFacet, FacetCount[]>;
   if (query.view === "reactions") {
     // Each reaction's matching documents, summed up as the reactions view sorts them. A retracted
@@ -330,26 +299,12 @@ async function runSearch(index: MemoryIndex, query: EngineQuery, fuzzy: boolean)
   };
 }
 
-/**
- * RANKED: the best matches by their cheap score (then by version id, highest first) get ts_rank over the whole
- * document as their key, every other match unrankedKey(cheap score); `rankOf` holds the keys after.
- */
-async function rankBest(index: MemoryIndex, query: EngineQuery, matched: Int32Array, rankOf: Map<number, number>) {
-  if (query.parsed.kind !== "text") return;
-  const best = topByKey(
-    matched.length,
-    (k) => rankOf.get(matched[k]) ?? 0,
-    (k) => index.versionId[matched[k]],
-    null,
-    RANKED - 1,
-  );
-  for (const [at, cheap] of rankOf) rankOf.set(at, unrankedKey(cheap));
-  if (!best.length) return;
+/** ts_rank of the text over the whole document of these versions, read by primary key. */
+async function wholeDocumentRanks(versionIds: number[], text: string): Promise<Map<number, number>> {
   const rows = await getDb().execute<{ version_id: number; rank: number }>(sql`
-    select d.version_id, ts_rank(d.document, ${tsQuery(query.parsed.text)})::float8 as rank
-    from search_documents d where d.version_id = any(${`{${best.map((b) => b.id).join(",")}}`}::int[])`);
-  const exact = new Map(rows.map((r) => [Number(r.version_id), Number(r.rank)]));
-  for (const b of best) rankOf.set(matched[b.k], exact.get(b.id) ?? 0);
+    select d.version_id, ts_rank(d.document, ${tsQuery(text)})::float8 as rank
+    from search_documents d where d.version_id = any(${`{${versionIds.join(",")}}`}::int[])`);
+  return new Map(rows.map((r) => [Number(r.version_id), Number(r.rank)]));
 }
 
 /** The reactions view's consensus and spread of these reactions. */
