@@ -62,6 +62,14 @@ export const searchDocuments = pgTable(
       .generatedAlwaysAs(
         sql`arrhenia_search_vector(title, equation, species_names, formulas, keywords, creators, technique, description, source)`,
       ),
+    /**
+     * The short part of `document` (weights A and B: title to technique, no description or source), kept
+     * in the row (storage main, drizzle/0029): its ts_rank is the cheap score that picks which matches
+     * of a text search are ranked on the whole document (lib/search/engines/postgres.ts).
+     */
+    head: tsvector()
+      .notNull()
+      .generatedAlwaysAs(sql`arrhenia_search_head(title, equation, species_names, formulas, keywords, creators, technique)`),
     /** Names, formulas and the equation in lower case, for typo-tolerant matching (pg_trgm). */
     namesText: text()
       .notNull()

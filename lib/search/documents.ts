@@ -72,12 +72,12 @@ const idArray = (ids: readonly number[]) => `{${ids.map((id) => Math.trunc(Numbe
 
 /** The columns the builder writes, in snake_case as stored (the client's casing), with their types. */
 const writtenColumns = Object.entries(getTableColumns(searchDocuments))
-  .filter(([key]) => !["tSpan", "document", "namesText"].includes(key))
+  .filter(([key]) => !["tSpan", "document", "head", "namesText"].includes(key))
   .map(([key, column]) => ({ key, name: key.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`), type: column.getSQLType() }));
 /**
  * On conflict, every written column but `latest` (refreshLatest sets it right after) takes the new
  * row's value, and only when one differs: rebuilding an unchanged document writes nothing (no
- * index maintenance). The generated ones (t_span, document, names_text) follow.
+ * index maintenance). The generated ones (t_span, document, head, names_text) follow.
  */
 const replaced = writtenColumns.filter((c) => !["versionId", "latest"].includes(c.key)).map((c) => c.name);
 /**
