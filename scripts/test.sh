@@ -38,14 +38,20 @@ passed=0; failed=0
 tier() { # tier NAME PASSED FAILED
   printf '\033[1m%-12s %s passed, %s failed\033[0m\n' "$1" "$2" "$3" >&2
   passed=$((passed + $2)); failed=$((failed + $3))
+  if [ "$3" -gt 0 ]; then failedTiers+=("$1"); fi
 }
-single() { if "$@" >&2; then echo "1 0"; else echo "0 1"; fi; }
+failedTiers=()
+# single NAME COMMAND…: a one-test tier; its output goes to the log and to $REPORTS/NAME.log, named again at the end if it fails.
+single() {
+  local name="$1"; shift
+  if "$@" > "$REPORTS/$name.log" 2>&1; then cat "$REPORTS/$name.log" >&2; echo "1 0"; else cat "$REPORTS/$name.log" >&2; echo "0 1"; fi
+}
 
 log "migrate + seed + runtime role's privileges"
-if "${TSX[@]}" scripts/migrate.ts && "${TSX[@]}" scripts/seed.ts && "${TSX[@]}" scripts/db-privileges.ts >&2; then tier setup 1 0; else tier setup 0 1; fi
+read -r p f < <(single setup bash -c '"$@" scripts/migrate.ts && "$@" scripts/seed.ts && "$@" scripts/db-privileges.ts' _ "${TSX[@]}"); tier setup "$p" "$f"
 
-want lint && { log "lint"; read -r p f < <(single bash -c "node_modules/.bin/eslint --max-warnings=0 . && node_modules/.bin/prettier --check . >/dev/null"); tier lint "$p" "$f"; }
-want typecheck && { log "typecheck"; read -r p f < <(single node_modules/.bin/tsc --noEmit); tier typecheck "$p" "$f"; }
+want lint && { log "lint"; read -r p f < <(single lint bash -c "node_modules/.bin/eslint --max-warnings=0 . && node_modules/.bin/prettier --check . >/dev/null"); tier lint "$p" "$f"; }
+want typecheck && { log "typecheck"; read -r p f < <(single typecheck node_modules/.bin/tsc --noEmit); tier typecheck "$p" "$f"; }
 
 count_vitest() { node -e 'try{const r=require(process.argv[1]);console.log(r.numPassedTests,r.numFailedTests+(r.numRuntimeErrorTestSuites||0)+(r.success===false&&r.numFailedTests===0?1:0))}catch{console.log("0 1")}' "$1"; }
 
@@ -80,6 +86,13 @@ fi
 # Every failed test, and every test that passed only when run again, named last (often all a CI log
 # keeps). Reports of a green run are not needed; a red run keeps them for reading.
 node scripts/test-failures.mjs "$REPORTS"
+# A failed one-step tier (setup, lint, typecheck, build) shows the end of what it printed.
+for t in "${failedTiers[@]}"; do
+  if [ -s "$REPORTS/$t.log" ]; then
+    printf '\nThe %s tier failed; the last lines it printed:\n' "$t" >&2
+    tail -n 25 "$REPORTS/$t.log" | sed 's/^/  /' >&2
+  fi
+done
 [ "$failed" -eq 0 ] && rm -rf "$REPORTS"
 echo "$passed passed, $failed failed"
 [ "$failed" -eq 0 ]
