@@ -729,6 +729,11 @@ function offFamily(r: QuickReading | null | undefined, bound: number): boolean {
   return !!r && r.m > 0 && !(r.top <= bound);
 }
 
+/** Off at the family-wise bound and grossly so: beyond {@link MASKING_FAR} times the bound and by a factor {@link MASKING_FACTOR}. */
+function grosslyOff(r: QuickReading | null | undefined, bound: number): boolean {
+  return offFamily(r, bound) && r!.far > MASKING_FAR && r!.widestLn >= Math.log(MASKING_FACTOR);
+}
+
 /** Excess Q − dof of a fit (Infinity without one). */
 function excessOf(f: ModelFit | null): number {
   return f ? f.Q - f.df : Infinity;
@@ -811,7 +816,7 @@ function setAsideChoice(
       const removed = [...chosen].sort((a, b) => a - b);
       const offRest = (j: number) => {
         const r = without(removed.filter((k) => k !== j))?.[j];
-        return offFamily(r, bound) && (size === 1 || !gross || (r!.far > MASKING_FAR && r!.widestLn >= Math.log(MASKING_FACTOR)));
+        return size === 1 || !gross ? offFamily(r, bound) : grosslyOff(r, bound);
       };
       if (!removed.every(offRest)) continue;
       const restReadings = without(removed);
@@ -822,8 +827,7 @@ function setAsideChoice(
       // two does not make that half the wrong one).
       if (rest.length === size) {
         const own = without(rest);
-        const grossly = (q: QuickReading | null) => offFamily(q, bound) && q!.far > MASKING_FAR && q!.widestLn >= Math.log(MASKING_FACTOR);
-        if (!own || !removed.some((k) => grossly(own[k]))) continue;
+        if (!own || !removed.some((k) => grosslyOff(own[k], bound))) continue;
       }
       qualifying.push({ removed, rest, excess: score(rest), far: Math.max(...removed.map(far)) });
     }
