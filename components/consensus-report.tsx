@@ -265,7 +265,7 @@ function MemberComparison({
       </h3>
       <p className="text-sm">{readerVerdict(m.verdict)}</p>
       <p className="text-xs text-muted">
-        {m.n} points, {m.Tmin !== null ? formatRange(m.Tmin, m.Tmax, "K") : "no temperatures"}; summarised by its{" "}
+        {pointsUsedWords(m)}, {m.Tmin !== null ? formatRange(m.Tmin, m.Tmax, "K") : "no temperatures"}; summarised by its{" "}
         {m.model === "modified_arrhenius"
           ? "modified Arrhenius"
           : m.model === "single_temperature"
@@ -277,6 +277,7 @@ function MemberComparison({
           : ""}
         .
       </p>
+      {uncheckedWords(m) && <p className="text-xs text-muted">{uncheckedWords(m)}</p>}
       {d && d.points.length > 0 && (
         <p className="text-xs text-muted">
           {d.comparedWith === 1
@@ -315,6 +316,34 @@ function MemberComparison({
       )}
     </article>
   );
+}
+
+/** "12 points", or "12 of 14 points (2 outliers of its own fit left out)" when the summary leaves some out. */
+export function pointsUsedWords(m: Pick<ConsensusMember, "n" | "pointsGiven" | "outliers">): string {
+  if (m.pointsGiven <= m.n) return `${m.n} ${m.n === 1 ? "point" : "points"}`;
+  const outliers = m.outliers.length;
+  const outside = m.pointsGiven - m.n - outliers;
+  const why = [
+    outliers > 0 ? `${outliers} ${outliers === 1 ? "outlier" : "outliers"} of its own fit` : null,
+    outside > 0 ? `${outside} outside the temperatures chosen` : null,
+  ].filter(Boolean);
+  return `${m.n} of ${m.pointsGiven} points used (${why.join(" and ")} left out)`;
+}
+
+/**
+ * When the others cover only part of a dataset's range, the rest of it is checked against nothing:
+ * say which part, so "agrees" or "off" is not read as a verdict on the whole range.
+ */
+export function uncheckedWords(m: Pick<ConsensusMember, "Tmin" | "Tmax" | "disagreement">): string | null {
+  const r = m.disagreement?.range;
+  if (!r || m.Tmin === null || m.Tmax === null) return null;
+  // Half a kelvin: ranges that differ only by rounding are the same range.
+  const parts = [
+    m.Tmin < r.Tmin - 0.5 ? formatRange(m.Tmin, r.Tmin, "K") : null,
+    m.Tmax > r.Tmax + 0.5 ? formatRange(r.Tmax, m.Tmax, "K") : null,
+  ].filter(Boolean);
+  if (parts.length === 0) return null;
+  return `Compared only over ${formatRange(r.Tmin, r.Tmax, "K")}, where the others have data: its part over ${parts.join(" and ")} is checked against nothing.`;
 }
 
 /** One short cell for the datasets table. */

@@ -42,6 +42,19 @@ function WeightedErrorsRow({ weighted, scaleFactor, testId }: { weighted: boolea
   );
 }
 
+/** Why the errors read "—" when the fit has exactly as many temperatures as parameters. */
+function NoFreedomRow({ dof, parameters, testId }: { dof: number; parameters: "two" | "three"; testId: string }) {
+  if (dof !== 0) return null;
+  return (
+    <tr>
+      <td colSpan={3} className="whitespace-normal! text-xs text-muted" data-testid={testId}>
+        No standard errors or intervals (—): the {parameters} parameters are fitted to {parameters} points, so the curve passes through
+        every point and nothing is left to measure their scatter. Add a point to get them.
+      </td>
+    </tr>
+  );
+}
+
 const severityStyle: Record<Flag["severity"], string> = {
   error: "border-error/50 text-error",
   warn: "border-warn/50 text-warn",
@@ -158,6 +171,7 @@ export function ResultTables({
                 </tr>
               )}
               <WeightedErrorsRow weighted={analysis.weighted} scaleFactor={a.scaleFactor} testId="weighted-errors" />
+              <NoFreedomRow dof={a.dof} parameters="two" testId="no-freedom" />
               {m && (
                 <>
                   <tr>
@@ -181,6 +195,7 @@ export function ResultTables({
                     <td>{m.se.Ea === null ? "—" : sig(convertE(m.se.Ea), 2)}</td>
                   </tr>
                   <WeightedErrorsRow weighted={analysis.weighted} scaleFactor={m.scaleFactor} testId="weighted-errors-modified" />
+                  <NoFreedomRow dof={m.dof} parameters="three" testId="no-freedom-modified" />
                 </>
               )}
               {e && (

@@ -2,6 +2,7 @@
 
 import { useQuery } from "@tanstack/react-query";
 import { useEffect, useState } from "react";
+import { ChemicalFormula } from "@/components/chemical-formula";
 
 interface Preview {
   formula: string;
@@ -51,7 +52,10 @@ export function SpeciesPreview({ smiles, inchi }: { smiles: string; inchi: strin
         />
       )}
       <p>
-        <span className="font-medium text-ink">{p.formula}</span>, {p.molarMass.toFixed(3)} g mol⁻¹
+        <span className="font-medium text-ink">
+          <ChemicalFormula formula={p.formula} />
+        </span>
+        , {p.molarMass.toFixed(3)} g mol⁻¹
         {p.radicalElectrons ? `, radical (${p.radicalElectrons} unpaired)` : ""}
         {p.charge ? `, charge ${p.charge > 0 ? "+" : ""}${p.charge}` : ""}
         <br />

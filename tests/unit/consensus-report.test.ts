@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { comparisonCell, otherSideOf } from "@/components/consensus-report";
+import { comparisonCell, otherSideOf, pointsUsedWords, uncheckedWords } from "@/components/consensus-report";
 import type { ConsensusMember, ConsensusResult } from "@/lib/kinetics";
 
 /** A constructed member that is off at one comparison temperature by the given log10 ratio. */
@@ -58,5 +58,26 @@ describe("otherSideOf: what a dataset's k is divided by in its table", () => {
   it("speaks of the others' consensus with two or more others", () => {
     const result = { members: [m("1", 2), m("2", 2), m("3", 2)] } as unknown as ConsensusResult;
     expect(otherSideOf(result, result.members[0], labels)).toEqual({ single: null });
+  });
+});
+
+describe("pointsUsedWords and uncheckedWords: what a dataset's comparison rests on", () => {
+  it("counts only the points its summary uses, and says why the rest are left out", () => {
+    expect(pointsUsedWords({ n: 12, pointsGiven: 12, outliers: [] })).toBe("12 points");
+    expect(pointsUsedWords({ n: 16, pointsGiven: 17, outliers: [4] })).toBe("16 of 17 points used (1 outlier of its own fit left out)");
+    expect(pointsUsedWords({ n: 10, pointsGiven: 14, outliers: [1, 2] })).toBe(
+      "10 of 14 points used (2 outliers of its own fit and 2 outside the temperatures chosen left out)",
+    );
+  });
+
+  it("names the part of a dataset's range that the others do not cover", () => {
+    const m = (Tmin: number, Tmax: number, range: { Tmin: number; Tmax: number } | null) =>
+      ({ Tmin, Tmax, disagreement: range === null ? null : { range } }) as unknown as ConsensusMember;
+    expect(uncheckedWords(m(200, 2000, { Tmin: 220, Tmax: 420 }))).toBe(
+      "Compared only over 220–420 K, where the others have data: its part over 200–220 K and 420–2000 K is checked against nothing.",
+    );
+    expect(uncheckedWords(m(250, 400, { Tmin: 250, Tmax: 400 }))).toBeNull();
+    expect(uncheckedWords(m(250, 400, { Tmin: 250.2, Tmax: 400 }))).toBeNull();
+    expect(uncheckedWords(m(250, 400, null))).toBeNull();
   });
 });

@@ -125,3 +125,12 @@ describe("ResultTables residual spread", () => {
     expect(render(analyseDataset({ points, order: 2 }), "kJ mol-1")).not.toContain("than their stated uncertainties allow");
   });
 });
+
+describe("ResultTables with no degrees of freedom", () => {
+  it("says why the errors are missing when the line passes through both points", () => {
+    const two = analyseDataset({ points: points.slice(0, 2), order: 2 });
+    expect(two.arrhenius.dof).toBe(0);
+    expect(render(two, "kJ mol-1")).toContain("the two parameters are fitted to two points");
+    expect(render(analyseDataset({ points, order: 2 }), "kJ mol-1")).not.toContain("fitted to two points");
+  });
+});

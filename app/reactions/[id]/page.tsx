@@ -26,6 +26,7 @@ import { formatRange, formatSignificant } from "@/lib/format";
 import { ConsensusChoiceForm, WhatWentIn, type ExclusionRow } from "./consensus-selection";
 import { ScrollRegion } from "@/components/scroll-region";
 import { energyQuantityLabel } from "@/lib/unit-labels";
+import { ChemicalFormula } from "@/components/chemical-formula";
 
 /** A path segment as written, "%3E%3E" read as ">>" (the front server already refused malformed escapes). */
 function decoded(segment: string): string {
@@ -194,7 +195,7 @@ export default async function ReactionPage({
                   <p>Also named here: {p.names.filter((n) => n.toLowerCase() !== p.name.toLowerCase()).join(", ")}</p>
                 )}
                 <p>
-                  {p.formula}, {p.molarMass.toFixed(3)} g mol⁻¹
+                  <ChemicalFormula formula={p.formula} />, {p.molarMass.toFixed(3)} g mol⁻¹
                 </p>
                 <p className="font-mono">{p.inchiKey}</p>
               </div>

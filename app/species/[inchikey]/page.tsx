@@ -7,6 +7,7 @@ import { speciesPath } from "@/lib/identifiers/paths";
 import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
 import { getPublicSpeciesCached, listReactionsOfSpeciesCached } from "@/lib/reactions/cached";
 import { reactionPath } from "@/lib/reactions/paths";
+import { ChemicalFormula } from "@/components/chemical-formula";
 
 const INCHI_KEY = /^[A-Z]{14}-[A-Z]{10}-[A-Z]$/;
 
@@ -49,7 +50,7 @@ export default async function SpeciesPage({ params }: { params: Promise<{ inchik
         <p className="text-sm text-muted">Species</p>
         <h1 className="text-3xl font-semibold">{name}</h1>
         <p className="text-sm">
-          {found.formula}
+          <ChemicalFormula formula={found.formula} />
           {found.charge !== 0 ? `, charge ${found.charge > 0 ? "+" : "−"}${Math.abs(found.charge)}` : ""}, {found.molarMass.toFixed(3)} g
           mol⁻¹
         </p>
@@ -71,7 +72,9 @@ export default async function SpeciesPage({ params }: { params: Promise<{ inchik
           </h2>
           <dl className="grid grid-cols-1 gap-x-4 gap-y-2 text-sm sm:grid-cols-[max-content_1fr]">
             <dt className="text-muted">Formula</dt>
-            <dd>{found.formula}</dd>
+            <dd>
+              <ChemicalFormula formula={found.formula} />
+            </dd>
             <dt className="text-muted">Molar mass</dt>
             <dd>{found.molarMass.toFixed(3)} g mol⁻¹</dd>
             <dt className="text-muted">InChIKey</dt>
