@@ -13,18 +13,21 @@ export function publicPageMetadata({
   description,
   path,
   type = "website",
+  feedPath,
 }: {
   title: string;
   description: string;
   /** The page's path, starting with "/" (query strings never belong to a canonical URL here). */
   path: string;
   type?: "website" | "article";
+  /** The page's Atom feed, announced to feed readers as an alternate. */
+  feedPath?: string;
 }): Metadata {
   const url = `${appUrl()}${path}`;
   return {
     title,
     description,
-    alternates: { canonical: url },
+    alternates: { canonical: url, ...(feedPath ? { types: { "application/atom+xml": `${appUrl()}${feedPath}` } } : {}) },
     openGraph: { title: `${title} · ${SITE_NAME}`, description, url, siteName: SITE_NAME, type, locale: "en" },
   };
 }

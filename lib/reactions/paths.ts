@@ -27,3 +27,15 @@ export function readReactionSegment(segment: string): { id: number } | { key: st
   const side = `${part}(?:\\+${part})*`;
   return key.length <= 2000 && new RegExp(`^${side}>>(?:${side}|\\*)$`).test(key) ? { key } : null;
 }
+
+/** A path segment as it arrives, "%3E%3E" read as ">>" (the front server already refused malformed escapes). */
+export function decodePathSegment(raw: string): string {
+  try {
+    return decodeURIComponent(raw);
+  } catch {
+    return raw;
+  }
+}
+
+/** readReactionSegment of a path segment as it arrives. */
+export const readReactionPathSegment = (raw: string) => readReactionSegment(decodePathSegment(raw));

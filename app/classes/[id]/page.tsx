@@ -14,6 +14,7 @@ export async function generateMetadata({ params }: { params: Promise<{ id: strin
     title: `${found.label} reactions`,
     description: `${found.hint} Every reaction of this class with published rate constants.`,
     path: classPath(found.id),
+    feedPath: `${classPath(found.id)}/feed.xml`,
   });
 }
 export const dynamic = "force-dynamic";
@@ -51,6 +52,10 @@ export default async function ClassPage({ params }: { params: Promise<{ id: stri
       <p className="flex flex-wrap gap-4 text-sm">
         <Link href="/classes">All reaction classes</Link>
         <Link href="/reactions">All reactions</Link>
+        {/* A plain link, not Next's: the feed is XML for a feed reader, not a page. */}
+        <a href={`${classPath(found.id)}/feed.xml`} type="application/atom+xml">
+          Atom feed of new and retracted versions
+        </a>
       </p>
     </div>
   );

@@ -492,6 +492,12 @@ export default function ApiDocsPage() {
               with <code>{`${appUrl()}/oai?verb=Identify`}</code>.
             </li>
             <li>
+              <code>GET /reactions/&lt;reaction key&gt;/feed.xml</code> and <code>GET /classes/&lt;class&gt;/feed.xml</code> — Atom feeds
+              (RFC 4287) of the reaction’s or the class’s versions: one entry when a version is published (a new version of a dataset says
+              which it replaces) and one when it is retracted (with the reason), newest first, the last 100; entry ids never change, so a
+              reader sees each event once. The numeric reaction id redirects to the key.
+            </li>
+            <li>
               <code>GET /api/v1/users</code> — everyone with an account (admins).
             </li>
             <li>

@@ -19,7 +19,7 @@ import { MechanismDownload } from "@/components/exports/mechanism-download";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { listDatasetRolesOf } from "@/lib/reactions/queries";
 import { cachedConsensusReaders, getPublicReactionCached, getReactionCached } from "@/lib/reactions/cached";
-import { reactionPath, reactionSegment, readReactionSegment } from "@/lib/reactions/paths";
+import { decodePathSegment, reactionPath, reactionSegment, readReactionPathSegment } from "@/lib/reactions/paths";
 import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { formatRange, formatSignificant } from "@/lib/format";
@@ -28,18 +28,9 @@ import { ScrollRegion } from "@/components/scroll-region";
 import { energyQuantityLabel } from "@/lib/unit-labels";
 import { ChemicalFormula } from "@/components/chemical-formula";
 
-/** A path segment as written, "%3E%3E" read as ">>" (the front server already refused malformed escapes). */
-function decoded(segment: string): string {
-  try {
-    return decodeURIComponent(segment);
-  } catch {
-    return segment;
-  }
-}
-
 /** Where a `/reactions/<id or key>` path leads: the public reaction, or null. */
 async function reactionOf(segment: string) {
-  const named = readReactionSegment(decoded(segment));
+  const named = readReactionPathSegment(segment);
   return named ? getPublicReactionCached(named) : null;
 }
 
@@ -51,6 +42,7 @@ export async function generateMetadata({ params }: { params: Promise<{ id: strin
     title: reaction.equation,
     description: `Every published dataset of ${reaction.equation} on one Arrhenius plot, with the consensus of the datasets and how each compares with it.`,
     path: reactionPath(reaction.key),
+    feedPath: `${reactionPath(reaction.key)}/feed.xml`,
   });
 }
 export const dynamic = "force-dynamic";
@@ -108,7 +100,7 @@ export default async function ReactionPage({
   // The reader's choice of data lives in the URL; a choice that cannot be read falls back to the default, saying so.
   const query = (await searchParams) ?? {};
   const pagePath = reactionPath(found.key);
-  if (decoded(segment) !== reactionSegment(found.key)) {
+  if (decodePathSegment(segment) !== reactionSegment(found.key)) {
     const search = new URLSearchParams(Object.entries(query).flatMap(([k, v]) => [v ?? []].flat().map((x) => [k, x]))).toString();
     permanentRedirect(search ? `${pagePath}?${search}` : pagePath);
   }
@@ -330,6 +322,10 @@ export default async function ReactionPage({
       <p className="flex flex-wrap gap-4 text-sm">
         <Link href="/reactions">All reactions</Link>
         <Link href="/classes">Reaction classes</Link>
+        {/* A plain link, not Next's: the feed is XML for a feed reader, not a page. */}
+        <a href={`${pagePath}/feed.xml`} type="application/atom+xml">
+          Atom feed of new and retracted versions
+        </a>
       </p>
     </div>
   );
