@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { redirect } from "next/navigation";
 import { DateTime } from "@/components/date-time";
 import { can } from "@/lib/auth/permissions";
@@ -18,6 +19,9 @@ export default async function SettingsPage() {
         <h1 className="text-3xl font-semibold">Settings</h1>
         <p className="text-sm text-muted">
           Signed in as {user.email} ({user.role}).
+        </p>
+        <p className="text-sm">
+          <Link href="/watches">What you watch</Link>: the reactions, species and datasets you hear about by mail.
         </p>
       </header>
       <div className="grid gap-6 md:grid-cols-2">

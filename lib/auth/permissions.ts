@@ -7,6 +7,7 @@ import type { Role } from "@/db/users";
 export const permissions = {
   "account.update": ["researcher", "curator", "admin"],
   "token.manage": ["researcher", "curator", "admin"],
+  "watch.manage": ["researcher", "curator", "admin"],
   "dataset.deposit": ["researcher", "curator", "admin"],
   "dataset.review": ["curator", "admin"],
   "user.list": ["admin"],

@@ -13,6 +13,7 @@ import { mintSeriesIdentifier } from "@/lib/identifiers/mint";
 import { invalidatePublicCache } from "@/lib/public-cache";
 import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 import { buildSearchDocument } from "@/lib/search/documents";
+import { queueWatchNotice } from "@/lib/watches/notify";
 import { planTransition } from "./capabilities";
 import type { CoEditorRole, Transition, VersionState } from "./lifecycle";
 
@@ -126,7 +127,11 @@ export async function applyTransition({
         .where(eq(datasetVersions.id, versionId));
     }
     // The search document commits or rolls back with the publication or retraction it describes.
-    if (transition === "accept" || transition === "retract") await buildSearchDocument(tx, versionId);
+    if (transition === "accept" || transition === "retract") {
+      await buildSearchDocument(tx, versionId);
+      // Watchers hear of it once it commits (a job in this transaction; the mail never holds the request).
+      await queueWatchNotice({ versionId, event: transition === "accept" ? "published" : "retracted", at: now.toISOString() }, { tx });
+    }
     // Every submission is kept as it was sent (append-only, drizzle/0020–0021): curators compare with it.
     if (transition === "submit") await takeSubmissionSnapshot(tx, { versionId, actorId, reply: reply?.trim() });
     await recordAuditEvent(tx, {

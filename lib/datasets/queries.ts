@@ -320,6 +320,15 @@ export async function getLatestAnalysisEngine({ versionId }: { versionId: number
   return row ?? null;
 }
 
+/** The flag codes of a version's newest fit and whether the version is public (a re-fit compares them with its own). */
+export async function getLatestFitFlags({ versionId }: { versionId: number }): Promise<{ codes: string[]; isPublic: boolean }> {
+  const [row] = await getDb().execute<{ codes: string[] | null; public: boolean | null }>(sql`
+    select (select array_agg(distinct f ->> 'code' order by f ->> 'code') from jsonb_array_elements(coalesce(a.result -> 'flags', '[]'::jsonb)) f) as codes,
+      (select v.state in ('published', 'retracted') from dataset_versions v where v.id = ${versionId}) as public
+    from (select result from version_analyses where version_id = ${versionId} order by id desc limit 1) a`);
+  return { codes: row?.codes ?? [], isPublic: row?.public ?? false };
+}
+
 /**
  * A version's stored deposit document as JSON text, null when there is no such version. As text:
  * the re-fit sends it to an analysis worker as text, and parsing 100 000 points here first would

@@ -5,12 +5,14 @@ import { ENGINE_VERSION } from "./prepare";
 import {
   appendRefitAnalysis,
   getLatestAnalysisEngine,
+  getLatestFitFlags,
   getRecordedEngineVersion,
   getVersionPayloadText,
   listVersionIdsNotAnalysedBy,
 } from "./queries";
 import { invalidatePublicCache } from "@/lib/public-cache";
 import { listVersionCacheTags } from "@/lib/reactions/public-queries";
+import { queueWatchNotice } from "@/lib/watches/notify";
 
 /**
  * Re-analyses one version with the current engine and stores the result as a new analysis row
@@ -35,7 +37,14 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
   }
   if (!checked.analysis.ok) return (await append(null, checked.analysis.message)) ? "invalid" : "current";
   const result = checked.analysis.result;
+  const before = await getLatestFitFlags({ versionId });
   if (!(await append(result))) return "current";
+  // A re-fit that changes a public version's flags is news to those who watch it.
+  const flags = Array.isArray(result.flags) ? (result.flags as { code?: unknown }[]) : [];
+  const after = [...new Set(flags.map((f) => String(f.code)))].sort();
+  if (before.isPublic && after.join(",") !== [...before.codes].sort().join(",")) {
+    await queueWatchNotice({ versionId, event: "flags_changed", at: new Date().toISOString() });
+  }
   // A public version's pages show the newest fit.
   await invalidatePublicCache(await listVersionCacheTags({ versionId }));
   return "refitted";

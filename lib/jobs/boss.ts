@@ -4,7 +4,7 @@ import type { Transaction } from "@/db/client";
 import { databaseUrl, jobRetryDelaySeconds } from "@/lib/config";
 
 /** Queue names used across the app. */
-export const queues = ["mail", "register-identifier", "refit", "search-sync"] as const;
+export const queues = ["mail", "register-identifier", "refit", "search-sync", "watch-notify", "watch-digest"] as const;
 export type QueueName = (typeof queues)[number];
 
 /**
@@ -13,6 +13,8 @@ export type QueueName = (typeof queues)[number];
  */
 const queueOptions: Partial<Record<QueueName, Partial<PgBoss.Queue>>> = {
   "search-sync": { policy: "short", retryLimit: 0 },
+  // The daily digest: one run waiting at most; a failed run is simply the next day's.
+  "watch-digest": { policy: "short", retryLimit: 2 },
 };
 
 /** Default retry policy: a relay or DOI agency that is down delays the work, never loses it. */

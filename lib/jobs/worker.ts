@@ -6,6 +6,14 @@ import { registerIdentifier } from "@/lib/identifiers/register";
 import { SEARCH_SYNC_QUEUE, drainSearchOutbox } from "@/lib/search/outbox";
 import { deliverMail, isPermanentDeliveryFailure } from "@/lib/mail/transport";
 import type { MailMessage } from "@/lib/mail/templates";
+import {
+  notifyWatchers,
+  sendWatchDigests,
+  WATCH_DIGEST_CRON,
+  WATCH_DIGEST_QUEUE,
+  WATCH_NOTIFY_QUEUE,
+  type WatchJob,
+} from "@/lib/watches/notify";
 import { newBoss } from "./boss";
 import { endJobRetries } from "./queries";
 
@@ -52,6 +60,14 @@ export async function startWorkers(): Promise<{ stop: () => Promise<void> }> {
     const outcome = await drainSearchOutbox();
     if (outcome.error) console.error(`[jobs] search index not reached (${outcome.postponed} change(s) wait their retry): ${outcome.error}`);
   });
+  // Watches: each event told to its watchers as it happens; the day's notices of digest readers once a day.
+  await boss.work<WatchJob>(WATCH_NOTIFY_QUEUE, { pollingIntervalSeconds: 1 }, async ([job]) => {
+    await notifyWatchers(job.data);
+  });
+  await boss.work(WATCH_DIGEST_QUEUE, { pollingIntervalSeconds: 5 }, async () => {
+    await sendWatchDigests();
+  });
+  await boss.schedule(WATCH_DIGEST_QUEUE, WATCH_DIGEST_CRON, {}, { tz: "UTC" });
   if (meilisearchConfig()) await boss.schedule(SEARCH_SYNC_QUEUE, "* * * * *");
   else await boss.unschedule(SEARCH_SYNC_QUEUE);
   return { stop: () => boss.stop({ graceful: true, wait: true, timeout: 5000 }) };

@@ -5,14 +5,22 @@ export interface MailMessage {
   subject: string;
   text: string;
   html: string;
+  /** Extra header lines (List-Unsubscribe of a notification). */
+  headers?: Record<string, string>;
 }
 
-function escapeHtml(s: string): string {
+export function escapeHtml(s: string): string {
   return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
 }
 
 /** Plain layout shared by every message: a greeting, paragraphs, one action link. */
-function compose(to: string, subject: string, name: string, paragraphs: string[], action?: { label: string; url: string }): MailMessage {
+export function compose(
+  to: string,
+  subject: string,
+  name: string,
+  paragraphs: string[],
+  action?: { label: string; url: string },
+): MailMessage {
   const text = [
     `Hello ${name},`,
     "",

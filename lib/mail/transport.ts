@@ -17,6 +17,7 @@ export async function deliverMail(message: MailMessage): Promise<string> {
     subject: message.subject,
     text: message.text,
     html: message.html,
+    ...(message.headers ? { headers: message.headers } : {}),
   });
   return info.messageId;
 }

@@ -27,6 +27,7 @@ import { ConsensusChoiceForm, WhatWentIn, type ExclusionRow } from "./consensus-
 import { ScrollRegion } from "@/components/scroll-region";
 import { energyQuantityLabel } from "@/lib/unit-labels";
 import { ChemicalFormula } from "@/components/chemical-formula";
+import { WatchControl } from "@/app/watches/watch-control";
 
 /** Where a `/reactions/<id or key>` path leads: the public reaction, or null. */
 async function reactionOf(segment: string) {
@@ -194,6 +195,7 @@ export default async function ReactionPage({
             </li>
           ))}
         </ul>
+        <WatchControl subject={{ kind: "reaction", id: found.id }} what="this reaction" backPath={pagePath} />
       </header>
 
       {versions.length === 0 ? (

@@ -8,6 +8,7 @@ import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
 import { getPublicSpeciesCached, listReactionsOfSpeciesCached } from "@/lib/reactions/cached";
 import { reactionPath } from "@/lib/reactions/paths";
 import { ChemicalFormula } from "@/components/chemical-formula";
+import { WatchControl } from "@/app/watches/watch-control";
 
 const INCHI_KEY = /^[A-Z]{14}-[A-Z]{10}-[A-Z]$/;
 
@@ -54,6 +55,7 @@ export default async function SpeciesPage({ params }: { params: Promise<{ inchik
           {found.charge !== 0 ? `, charge ${found.charge > 0 ? "+" : "−"}${Math.abs(found.charge)}` : ""}, {found.molarMass.toFixed(3)} g
           mol⁻¹
         </p>
+        <WatchControl subject={{ kind: "species", inchiKey: found.inchiKey }} what="this species" backPath={speciesPath(found.inchiKey)} />
       </header>
 
       <section className="card flex flex-col gap-6 sm:flex-row" aria-labelledby="identity-heading">

@@ -7,6 +7,7 @@ import { AppError } from "@/lib/errors";
 const expected: Record<Permission, { researcher: boolean; curator: boolean; admin: boolean }> = {
   "account.update": { researcher: true, curator: true, admin: true },
   "token.manage": { researcher: true, curator: true, admin: true },
+  "watch.manage": { researcher: true, curator: true, admin: true },
   "dataset.deposit": { researcher: true, curator: true, admin: true },
   "dataset.review": { researcher: false, curator: true, admin: true },
   "user.list": { researcher: false, curator: false, admin: true },

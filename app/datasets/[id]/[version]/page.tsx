@@ -28,6 +28,7 @@ import { CiteSection } from "@/components/cite/cite-section";
 import { MechanismDownload } from "@/components/exports/mechanism-download";
 import { DatasetJsonLd } from "@/components/cite/dataset-json-ld";
 import { getPublicCitation } from "@/lib/citation/public-citation";
+import { WatchControl } from "@/app/watches/watch-control";
 
 /** The version's own title in the browser tab, "Not found" when there is no such public version. */
 export async function generateMetadata({ params }: { params: Promise<{ id: string; version: string }> }): Promise<Metadata> {
@@ -147,6 +148,7 @@ export default async function DatasetVersionPage({
           <dt className="text-muted">Content hash (SHA-256)</dt>
           <dd className="break-all font-mono text-xs">{version.payloadSha256}</dd>
         </dl>
+        <WatchControl subject={{ kind: "dataset", id: datasetId }} what="this dataset" backPath={versionPath(datasetId, number)} />
       </header>
 
       {doc.description && (
