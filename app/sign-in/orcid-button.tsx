@@ -4,7 +4,7 @@ import { signIn } from "next-auth/react";
 import { useState } from "react";
 
 /** Starts the ORCID sign-in (or, from settings, the linking of an iD to the signed-in account). */
-export function OrcidButton({ callbackUrl, label = "Sign in with ORCID" }: { callbackUrl: string; label?: string }) {
+export function OrcidButton({ callbackUrl, label = "Continue with ORCID" }: { callbackUrl: string; label?: string }) {
   const [pending, setPending] = useState(false);
   return (
     <button
