@@ -1,6 +1,7 @@
 import "server-only";
 import { sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
+import type { CitableVersion } from "@/lib/citation/subjects";
 
 /** What a public profile shows: never the e-mail address. */
 export interface PublicProfileDto {
@@ -15,13 +16,7 @@ export interface PublicProfileDto {
 }
 
 /** One published dataset on a profile: its newest published version, and how the person took part. */
-export interface ProfileDatasetDto {
-  datasetId: number;
-  number: number;
-  title: string;
-  versionIdentifier: string | null;
-  publishedAt: Date | null;
-  payload: Record<string, unknown>;
+export interface ProfileDatasetDto extends Omit<CitableVersion, "state" | "retractedAt"> {
   state: "published";
   retractedAt: Date | null;
   created: boolean;

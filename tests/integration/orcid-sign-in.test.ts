@@ -278,6 +278,25 @@ describe("sign in with ORCID through the stand-in", () => {
   });
 });
 
+describe("the stand-in's own pages", () => {
+  it("an expired or unknown sign-in page says so and links back to the app", async () => {
+    const res = await fetch(`${standIn.url}/interaction/no-such-sign-in`);
+    expect(res.status).toBe(400);
+    const html = await res.text();
+    expect(html).toContain("Your sign-in here has expired");
+    expect(html).toContain(`href="${APP}/sign-in"`);
+  });
+
+  it("refuses an iD with a wrong check digit on its login form", async () => {
+    const csrf = (await (await auth("GET", "/api/auth/csrf")).json()) as { csrfToken: string };
+    const started = await auth("POST", "/api/auth/signin/orcid", { csrfToken: csrf.csrfToken, callbackUrl: `${APP}/`, json: "true" });
+    const jar = new Map<string, string>();
+    const login = await atStandIn(((await started.json()) as { url: string }).url, jar);
+    const wrong = await atStandIn(`${login.url}/login`, jar, { orcid: "0009-0003-4172-5181", action: "sign-in" });
+    expect(wrong.html).toContain("This is not an ORCID iD");
+  });
+});
+
 describe("creators that are people", () => {
   it("linking a verified iD attaches the person to published versions naming it, without changing them", async () => {
     const password = "a long enough password";
