@@ -50,6 +50,8 @@ export default defineConfig({
       MAIL_CAPTURE_PORT: String(Number(process.env.E2E_MAIL_PORT ?? 2625)),
       // The fake DOI service on its own port and folder, so a running `npm start` is untouched.
       DOI_FAKE_PORT: String(Number(process.env.E2E_DOI_PORT ?? 5190)),
+      // The ORCID stand-in on its own port too.
+      ORCID_STAND_IN_PORT: String(Number(process.env.E2E_ORCID_PORT ?? 5390)),
       DOI_FAKE_DATA_DIR: `${process.env.TEST_REPORTS_DIR ?? ".data/test-reports"}/fake-doi`,
       NEXTAUTH_URL: baseURL,
       APP_URL: baseURL,

@@ -19,6 +19,8 @@ const WITHHELD: Record<string, string> = {
   arrhenia_engine: "INSERT, UPDATE, DELETE",
   // OAI-PMH datestamps (drizzle/0028): written only by the trigger on a version's change of state.
   oai_record_datestamps: "INSERT, UPDATE, DELETE",
+  // Which account a creator entry is (drizzle/0030): written only by the triggers on versions and accounts.
+  creator_people: "INSERT, UPDATE, DELETE",
 };
 
 /** Functions that run as the schema owner and that the runtime role may call (each checks its own rule). */

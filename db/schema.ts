@@ -12,3 +12,4 @@ export * from "./search";
 export * from "./search-outbox";
 export * from "./oai";
 export * from "./watches";
+export * from "./people";

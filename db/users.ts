@@ -1,5 +1,5 @@
 import { sql } from "drizzle-orm";
-import { index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { boolean, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
 
 export const roleEnum = pgEnum("role", ["researcher", "curator", "admin"]);
 
@@ -11,7 +11,15 @@ export const users = pgTable(
     email: text().notNull(),
     name: text().notNull(),
     affiliation: text(),
+    /** The ORCID iD the person typed in: shown as "not verified". */
     orcid: text(),
+    /** The ORCID iD proven by signing in at the ORCID provider: at most one account per iD. */
+    verifiedOrcid: text(),
+    orcidLinkedAt: timestamp({ withTimezone: true }),
+    /** False for an account made through ORCID until its holder chooses a password (the hash is then unusable). */
+    passwordSet: boolean().notNull().default(true),
+    /** Whether the public profile appears in the /people list (the page itself is public either way). */
+    profileListed: boolean().notNull().default(true),
     passwordHash: text().notNull(),
     role: roleEnum().notNull().default("researcher"),
     emailVerifiedAt: timestamp({ withTimezone: true }),
@@ -24,7 +32,11 @@ export const users = pgTable(
       .defaultNow()
       .$onUpdate(() => new Date()),
   },
-  (t) => [uniqueIndex("users_email_key").on(sql`lower(${t.email})`), index("users_role_idx").on(t.role)],
+  (t) => [
+    uniqueIndex("users_email_key").on(sql`lower(${t.email})`),
+    index("users_role_idx").on(t.role),
+    uniqueIndex("users_verified_orcid_key").on(t.verifiedOrcid),
+  ],
 );
 
 export type Role = (typeof roleEnum.enumValues)[number];

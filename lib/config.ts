@@ -81,6 +81,10 @@ const variables = {
   MEILISEARCH_INDEX: { schema: z.string().regex(/^[A-Za-z0-9_-]{1,400}$/, "must be letters, digits, - or _") },
   OAI_PAGE_SIZE: { schema: wholeNumber(1, 10_000) },
   OAI_ADMIN_EMAIL: { schema: z.email("must be an e-mail address") },
+  ORCID_ISSUER: { schema: httpUrl },
+  ORCID_CLIENT_ID: { schema: z.string().min(1) },
+  ORCID_CLIENT_SECRET: { schema: z.string().min(1), secret: true },
+  ORCID_STAND_IN_PORT: { schema: port },
   ARRHENIA_EDGE_KEY: { schema: z.string().min(16, "is set by scripts/serve.ts; do not set it by hand"), secret: true },
 } satisfies Record<string, { schema: z.ZodType; secret?: boolean; keepEmpty?: boolean }>;
 
@@ -121,6 +125,11 @@ function read<N extends Name>(name: N): Value<N> | undefined {
 /** Every problem with the configuration in `env`, one line each; empty when it is valid. */
 export function configProblems(env: Env = process.env): string[] {
   const problems = (Object.keys(variables) as Name[]).map((name) => problemOf(name, env)).filter((p): p is string => p !== null);
+  if (
+    rawValue("ORCID_ISSUER", env) !== undefined &&
+    (rawValue("ORCID_CLIENT_ID", env) === undefined || rawValue("ORCID_CLIENT_SECRET", env) === undefined)
+  )
+    problems.push("ORCID_ISSUER is set but ORCID_CLIENT_ID or ORCID_CLIENT_SECRET is not");
   if (rawValue("SEARCH_ENGINE", env) === "meilisearch" && rawValue("MEILISEARCH_URL", env) === undefined)
     problems.push("SEARCH_ENGINE is meilisearch but MEILISEARCH_URL is not set");
   return problems;
@@ -342,4 +351,27 @@ export function oaiAdminEmail(): string {
   if (configured) return configured;
   const from = mailFrom();
   return /<([^>]+)>/.exec(from)?.[1] ?? from.trim();
+}
+
+/** Port of the local stand-in ORCID sign-in service, started on 127.0.0.1 when ORCID_ISSUER is unset. */
+export function orcidStandInPort(): number {
+  return read("ORCID_STAND_IN_PORT") ?? 5300;
+}
+
+/** The stand-in's client: fixed, since it only ever answers on the loopback interface. */
+export const ORCID_STAND_IN_CLIENT = { clientId: "arrhenia-local", clientSecret: "arrhenia-local-stand-in-secret" } as const;
+
+/**
+ * The OpenID provider behind "Sign in with ORCID": ORCID's own issuer (or its sandbox) when
+ * ORCID_ISSUER is set, else the local stand-in that scripts/serve.ts starts.
+ */
+export function orcidSettings(): { issuer: string; clientId: string; clientSecret: string; standIn: boolean } {
+  const issuer = read("ORCID_ISSUER");
+  if (issuer === undefined) return { issuer: `http://127.0.0.1:${orcidStandInPort()}`, ...ORCID_STAND_IN_CLIENT, standIn: true };
+  return {
+    issuer: issuer.replace(/\/$/, ""),
+    clientId: required("ORCID_CLIENT_ID"),
+    clientSecret: required("ORCID_CLIENT_SECRET"),
+    standIn: false,
+  };
 }

@@ -18,6 +18,8 @@ import {
   fakeDoiDataDir,
   innerPort as configuredInnerPort,
   nextDistDir,
+  orcidSettings,
+  orcidStandInPort,
   serveQuiet,
   serverHost,
   serverPort,
@@ -29,6 +31,7 @@ import { compileTrustProxy, freeLoopbackPort, startEdgeProxy } from "@/lib/auth/
 import { EDGE_KEY_HEADER } from "@/lib/auth/client-address";
 import { CACHE_KEY_ENV, cacheInvalidationSender, forwardCacheInvalidations } from "@/lib/public-cache";
 import { startFakeDoiService } from "@/lib/identifiers/fake-service";
+import { startOrcidStandIn } from "@/lib/auth/orcid-stand-in";
 import { doiPrefix } from "@/lib/identifiers/mint";
 import { startWorkers } from "@/lib/jobs/worker";
 import { enqueuePendingIdentifierRegistrations } from "@/lib/identifiers/queue";
@@ -64,6 +67,17 @@ const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captur
 const fakeDoi = usesFakeDoiService()
   ? await startFakeDoiService({ port: doiFakePort(), dataDir: fakeDoiDataDir(), auth: doiApiAuth() })
   : null;
+const orcid = orcidSettings();
+// The callback address next-auth builds (NEXTAUTH_URL + /api/auth/callback/orcid): the stand-in accepts only it.
+const orcidStandIn = orcid.standIn
+  ? await startOrcidStandIn({
+      port: orcidStandInPort(),
+      clientId: orcid.clientId,
+      clientSecret: orcid.clientSecret,
+      redirectUri: `${(process.env.NEXTAUTH_URL ?? appUrl()).replace(/\/$/, "")}/api/auth/callback/orcid`,
+      appUrl: appUrl(),
+    })
+  : null;
 const workers = await startWorkers();
 const pendingIdentifiers = await enqueuePendingIdentifierRegistrations();
 const staleRefits = await enqueueStaleRefits();
@@ -85,7 +99,14 @@ async function stop(code: number) {
   if (stopping) return;
   stopping = true;
   next.kill("SIGTERM");
-  await Promise.allSettled([running.edge?.close(), workers.stop(), capture?.close(), fakeDoi?.close(), sql.end({ timeout: 2 })]);
+  await Promise.allSettled([
+    running.edge?.close(),
+    workers.stop(),
+    capture?.close(),
+    fakeDoi?.close(),
+    orcidStandIn?.close(),
+    sql.end({ timeout: 2 }),
+  ]);
   process.exit(code);
 }
 process.on("SIGINT", () => void stop(0));
@@ -101,6 +122,7 @@ if (!quiet) {
   console.log(`
   Arrhenia is running at http://${host}:${port}
   Mail: ${capture ? `captured locally (SMTP 127.0.0.1:${captureSmtpPort()}); admins read it at /admin/mail` : "sent through SMTP_URL"}
+  ORCID sign-in: ${orcidStandIn ? `the local stand-in at ${orcidStandIn.url} (any iD with a right check digit)` : `through ${orcid.issuer}`}
   Identifiers (prefix ${doiPrefix()}): ${fakeDoi ? `registered with the local fake DOI service at ${fakeDoi.url}${fakeDoiDataDir() ? ` (records in ${fakeDoiDataDir()})` : ""}` : `registered through ${doiApiUrl()}`}${pendingIdentifiers ? ` — ${pendingIdentifiers} waiting, queued now` : ""}
 
   Fits: ${

@@ -74,7 +74,7 @@ if node_modules/.bin/next build > "$REPORTS/build.log" 2>&1; then
   tier build 1 0
   log "end-to-end tests (Chromium)"
   # Ports of its own, so two test runs (or a running npm start) on one machine never collide.
-  export E2E_PORT="${E2E_PORT:-$((22000 + RANDOM % 2000))}" E2E_MAIL_PORT="${E2E_MAIL_PORT:-$((24000 + RANDOM % 2000))}" E2E_DOI_PORT="${E2E_DOI_PORT:-$((26000 + RANDOM % 2000))}" E2E_INNER_PORT="${E2E_INNER_PORT:-$((28000 + RANDOM % 2000))}"
+  export E2E_PORT="${E2E_PORT:-$((22000 + RANDOM % 2000))}" E2E_MAIL_PORT="${E2E_MAIL_PORT:-$((24000 + RANDOM % 2000))}" E2E_DOI_PORT="${E2E_DOI_PORT:-$((26000 + RANDOM % 2000))}" E2E_INNER_PORT="${E2E_INNER_PORT:-$((28000 + RANDOM % 2000))}" E2E_ORCID_PORT="${E2E_ORCID_PORT:-$((30000 + RANDOM % 2000))}"
   PLAYWRIGHT_JSON_OUTPUT_NAME="$REPORTS/e2e.json" node_modules/.bin/playwright test --reporter=list,json "${FILTERS[@]}" >&2
   read -r p f < <(node -e 'try{const s=require(process.argv[1]).stats;console.log(s.expected+s.flaky,s.unexpected+(s.expected+s.unexpected+s.flaky===0?1:0))}catch{console.log("0 1")}' "$REPORTS/e2e.json")
   tier e2e "$p" "$f"

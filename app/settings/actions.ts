@@ -8,8 +8,9 @@ import { can } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { idFor } from "@/lib/ids";
 import { changePassword } from "@/lib/users/accounts";
-import { createApiToken, revokeApiToken, updateProfile } from "@/lib/users/queries";
-import { changePasswordSchema, createTokenSchema, profileSchema } from "@/lib/users/schemas";
+import { requestPasswordChoice, unlinkOrcid } from "@/lib/users/orcid-accounts";
+import { createApiToken, revokeApiToken, setProfileListed, updateProfile } from "@/lib/users/queries";
+import { changePasswordSchema, createTokenSchema, profileListingSchema, profileSchema } from "@/lib/users/schemas";
 
 export const updateProfileAction = protectedAction(profileSchema, { permission: "account.update" }, async (input, user) => {
   await updateProfile({ userId: user.id, ...input });
@@ -50,3 +51,21 @@ export const revokeTokenAction = protectedAction(
     return { status: "ok", message: "Token revoked." };
   },
 );
+
+export const unlinkOrcidAction = protectedAction(z.object({}), { permission: "account.update" }, async (_input, user) => {
+  await unlinkOrcid({ userId: user.id });
+  revalidatePath("/settings");
+  return { status: "ok", message: "ORCID unlinked. Your datasets no longer show your iD as verified." };
+});
+
+export const requestPasswordChoiceAction = protectedAction(z.object({}), { permission: "account.update" }, async (_input, user) => {
+  await requestPasswordChoice({ userId: user.id });
+  return { status: "ok", message: `We have e-mailed ${user.email} a link to choose a password.` };
+});
+
+export const setProfileListedAction = protectedAction(profileListingSchema, { permission: "account.update" }, async ({ listed }, user) => {
+  await setProfileListed({ userId: user.id, listed });
+  revalidatePath("/settings");
+  revalidatePath("/people");
+  return { status: "ok", message: listed ? "Your profile is listed on the people page." : "Your profile is no longer listed." };
+});

@@ -1,15 +1,28 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { redirect } from "next/navigation";
+import Link from "next/link";
 import { DateTime } from "@/components/date-time";
+import { OrcidId } from "@/components/orcid-id";
+import { OrcidButton } from "@/app/sign-in/orcid-button";
+import { orcidMessage } from "@/app/sign-in/orcid-messages";
 import { can } from "@/lib/auth/permissions";
 import { getCurrentUser } from "@/lib/auth/session";
 import { listApiTokens } from "@/lib/users/queries";
-import { CreateTokenForm, PasswordForm, ProfileForm, RevokeTokenButton } from "./settings-forms";
+import {
+  ChoosePasswordButton,
+  CreateTokenForm,
+  PasswordForm,
+  ProfileForm,
+  ProfileListingForm,
+  RevokeTokenButton,
+  UnlinkOrcidButton,
+} from "./settings-forms";
 
 export const metadata: Metadata = { title: "Settings" };
 
-export default async function SettingsPage() {
+export default async function SettingsPage({ searchParams }: { searchParams: Promise<{ orcid?: string | string[] }> }) {
+  const { orcid: orcidOutcome } = await searchParams;
   const user = await getCurrentUser();
   if (!user) redirect("/sign-in?callbackUrl=/settings");
   const tokens = await listApiTokens({ userId: user.id });
@@ -38,6 +51,60 @@ export default async function SettingsPage() {
           <PasswordForm />
         </section>
       </div>
+      <section aria-labelledby="orcid-heading" className="card space-y-4">
+        <h2 id="orcid-heading" className="text-xl font-semibold">
+          ORCID and public profile
+        </h2>
+        {orcidOutcome === "linked" && (
+          <p role="status" className="rounded-md border border-ok/40 px-3 py-2 text-sm text-ok">
+            Your ORCID iD is linked. Datasets naming it as a creator now list you.
+          </p>
+        )}
+        {orcidMessage(orcidOutcome) && (
+          <p role="alert" className="rounded-md border border-error/40 px-3 py-2 text-sm text-error">
+            {orcidMessage(orcidOutcome)}
+          </p>
+        )}
+        {user.verifiedOrcid ? (
+          <>
+            <p className="text-sm">
+              Linked iD: <OrcidId orcid={user.verifiedOrcid} verified />. You can sign in with it, and every dataset naming it as a creator
+              is on your profile.
+            </p>
+            {user.passwordSet ? (
+              <UnlinkOrcidButton />
+            ) : (
+              <>
+                <p className="text-sm text-muted">
+                  Your account has no password yet: choose one before unlinking ORCID, or you could no longer sign in.
+                </p>
+                <ChoosePasswordButton />
+              </>
+            )}
+          </>
+        ) : (
+          <>
+            <p className="text-sm">
+              No ORCID iD is linked.
+              {user.orcid && (
+                <>
+                  {" "}
+                  The iD you typed, <OrcidId orcid={user.orcid} verified={false} />, is shown as not verified until you link it.
+                </>
+              )}
+            </p>
+            <div className="max-w-xs">
+              <OrcidButton callbackUrl="/settings" label="Link my ORCID iD" />
+            </div>
+          </>
+        )}
+        {user.emailVerifiedAt && (
+          <p className="text-sm">
+            Your public profile: <Link href={`/people/${user.id}`}>/people/{user.id}</Link> (your e-mail address is never shown).
+          </p>
+        )}
+        <ProfileListingForm listed={user.profileListed} />
+      </section>
       <section aria-labelledby="tokens-heading" className="card space-y-4">
         <h2 id="tokens-heading" className="text-xl font-semibold">
           Personal API tokens

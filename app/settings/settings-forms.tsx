@@ -4,7 +4,15 @@ import { useActionState } from "react";
 import { FormField } from "@/components/form-field";
 import { FormMessage, SubmitButton } from "@/components/form-status";
 import { idleState } from "@/lib/auth/action-state";
-import { changePasswordAction, createTokenAction, revokeTokenAction, updateProfileAction } from "./actions";
+import {
+  changePasswordAction,
+  createTokenAction,
+  requestPasswordChoiceAction,
+  revokeTokenAction,
+  setProfileListedAction,
+  unlinkOrcidAction,
+  updateProfileAction,
+} from "./actions";
 
 export function ProfileForm({ name, orcid, affiliation }: { name: string; orcid: string | null; affiliation: string | null }) {
   const [state, action] = useActionState(updateProfileAction, idleState);
@@ -24,7 +32,7 @@ export function ProfileForm({ name, orcid, affiliation }: { name: string; orcid:
         name="orcid"
         defaultValue={state.values?.orcid ?? orcid ?? ""}
         placeholder="0000-0000-0000-0000"
-        hint="Optional. The check digit is verified."
+        hint="Optional. Shown as “not verified”: link your iD through ORCID below to prove it is yours."
         error={e.orcid}
       />
       <SubmitButton>Save profile</SubmitButton>
@@ -117,6 +125,39 @@ export function RevokeTokenButton({ tokenId, name }: { tokenId: number; name: st
         Revoke<span className="sr-only"> {name}</span>
       </SubmitButton>
       {state.status === "error" && <p className="text-sm text-error">{state.message}</p>}
+    </form>
+  );
+}
+
+export function UnlinkOrcidButton() {
+  const [state, action] = useActionState(unlinkOrcidAction, idleState);
+  return (
+    <form action={action} className="space-y-2">
+      <FormMessage state={state} />
+      <SubmitButton className="btn-danger">Unlink ORCID</SubmitButton>
+    </form>
+  );
+}
+
+export function ChoosePasswordButton() {
+  const [state, action] = useActionState(requestPasswordChoiceAction, idleState);
+  return (
+    <form action={action} className="space-y-2">
+      <FormMessage state={state} />
+      <SubmitButton className="btn-secondary">E-mail me a link to choose a password</SubmitButton>
+    </form>
+  );
+}
+
+export function ProfileListingForm({ listed }: { listed: boolean }) {
+  const [state, action] = useActionState(setProfileListedAction, idleState);
+  return (
+    <form action={action} className="space-y-2">
+      <FormMessage state={state} />
+      <label className="flex items-center gap-2 text-sm">
+        <input type="checkbox" name="listed" defaultChecked={listed} /> List my public profile on the people page
+      </label>
+      <SubmitButton className="btn-secondary">Save listing choice</SubmitButton>
     </form>
   );
 }

@@ -11,10 +11,13 @@ export function DatasetJsonLd({
   version,
   doc,
   seriesIdentifier,
+  verifiedCreatorIds,
 }: {
   version: VersionDto;
   doc: DepositDocument;
   seriesIdentifier: string | null;
+  /** Position in `doc.creators` → the iD verified on the linked account: the only iDs named (a typed one proves nothing). */
+  verifiedCreatorIds: ReadonlyMap<number, string>;
 }) {
   const site = appUrl();
   const points = `${site}/api/v1/versions/${version.id}/points`;
@@ -28,7 +31,11 @@ export function DatasetJsonLd({
     seriesIdentifier,
     publishedAt: version.publishedAt,
     retracted: version.state === "retracted",
-    creators: doc.creators ?? [],
+    creators: (doc.creators ?? []).map((c, position) => ({
+      name: c.name,
+      ...(c.affiliation ? { affiliation: c.affiliation } : {}),
+      ...(verifiedCreatorIds.has(position) ? { orcid: verifiedCreatorIds.get(position) } : {}),
+    })),
     keywords: doc.keywords ?? [],
     licence: doc.license ?? DEFAULT_LICENCE,
     tRange: version.tMin !== null && version.tMax !== null ? { min: version.tMin, max: version.tMax } : null,

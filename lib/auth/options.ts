@@ -1,12 +1,14 @@
 import "server-only";
-import type { NextAuthOptions, User } from "next-auth";
+import { getServerSession, type NextAuthOptions, type User } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
+import type { OAuthConfig } from "next-auth/providers/oauth";
 import { z } from "zod";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { getDb } from "@/db/client";
 import { nextAuthSecret } from "@/lib/config";
 import { AppError } from "@/lib/errors";
-import { appUrl } from "@/lib/config";
+import { appUrl, orcidSettings } from "@/lib/config";
+import { resolveOrcidSignIn } from "@/lib/users/orcid-accounts";
 import { enqueueMail } from "@/lib/mail/queue";
 import { signInLinkMail } from "@/lib/mail/templates";
 import { consumeOneTimeTokenOrThrow, createOneTimeToken, endAllSessions, getPasswordHash, getUserForSession } from "@/lib/users/queries";
@@ -115,6 +117,62 @@ export async function isSessionCurrent(uid: number | undefined, gen: number | un
   return !!user && !user.deactivatedAt && user.sessionGeneration === gen;
 }
 
+/** The claims of an ORCID ID token that we read: `sub` is the iD. */
+interface OrcidClaims {
+  sub: string;
+  name?: string;
+  given_name?: string;
+  family_name?: string;
+}
+
+/**
+ * ORCID's OpenID Connect sign-in (or the local stand-in, lib/auth/orcid-stand-in.ts): discovery
+ * from the issuer, PKCE, state and nonce checked, the callback address next-auth builds from
+ * NEXTAUTH_URL. Only the ID token's claims are read; no provider token is kept.
+ */
+function orcidProvider(): OAuthConfig<OrcidClaims> {
+  const { issuer, clientId, clientSecret } = orcidSettings();
+  return {
+    id: "orcid",
+    name: "ORCID",
+    type: "oauth",
+    wellKnown: `${issuer}/.well-known/openid-configuration`,
+    authorization: { params: { scope: "openid" } },
+    clientId,
+    clientSecret,
+    idToken: true,
+    checks: ["pkce", "state", "nonce"],
+    // Replaced by the account's own id, role and generation in the signIn callback.
+    profile: (claims) => ({ id: claims.sub, name: reportedName(claims), email: null, role: "researcher", sessionGeneration: -1 }),
+  };
+}
+
+function reportedName(claims: OrcidClaims): string {
+  return (claims.name ?? [claims.given_name, claims.family_name].filter(Boolean).join(" ")).trim();
+}
+
+/** Where an ORCID sign-in that is not a plain sign-in ends: the confirmation page, settings, or a worded refusal. */
+async function orcidSignIn(user: User, claims: OrcidClaims | undefined): Promise<true | string> {
+  const base = appUrl();
+  if (!claims?.sub) return `${base}/sign-in?error=OrcidNotAnId`;
+  // Someone already signed in is linking the iD to their account (settings page).
+  const session = await getServerSession(authOptions);
+  const currentUserId =
+    session?.user?.id && (await isSessionCurrent(session.user.id, session.user.sessionGeneration)) ? session.user.id : null;
+  const outcome = await resolveOrcidSignIn({ subject: claims.sub, reportedName: reportedName(claims), currentUserId });
+  switch (outcome.kind) {
+    case "sign_in":
+      Object.assign(user, toSessionUser(outcome.user));
+      return true;
+    case "confirm":
+      return `${base}/sign-in/orcid?ticket=${encodeURIComponent(outcome.ticket)}`;
+    case "linked":
+      return `${base}/settings?orcid=linked`;
+    case "refused":
+      return currentUserId !== null ? `${base}/settings?orcid=${outcome.code}` : `${base}/sign-in?error=${outcome.code}`;
+  }
+}
+
 export const authOptions: NextAuthOptions = {
   session: { strategy: "jwt", maxAge: 7 * 24 * 3600 },
   pages: { signIn: "/sign-in", error: "/sign-in" },
@@ -131,8 +189,14 @@ export const authOptions: NextAuthOptions = {
       credentials: { token: { label: "Code", type: "text" } },
       authorize: (credentials, req) => authorizeSignInLink(credentials, clientAddress(req?.headers)),
     }),
+    orcidProvider(),
   ],
   callbacks: {
+    // Credentials were checked in authorize; an ORCID iD is resolved to an account (or a confirmation) here.
+    signIn({ user, account, profile }) {
+      if (account?.provider !== "orcid") return true;
+      return orcidSignIn(user, profile as OrcidClaims | undefined);
+    },
     // `user` is present only at sign-in: copy id, role and session generation onto the token then;
     // on every later read the generation must still match the database.
     async jwt({ token, user }) {

@@ -13,9 +13,13 @@ export function normaliseOrcid(input: string): string | null {
 export function orcidChecksumValid(id: string): boolean {
   const digits = id.replace(/-/g, "");
   if (!/^\d{15}[\dX]$/.test(digits)) return false;
+  return orcidCheckDigit(digits.slice(0, 15)) === digits[15];
+}
+
+/** The ISO 7064 MOD 11-2 check character of the first 15 digits of an iD ("X" stands for 10). */
+export function orcidCheckDigit(first15: string): string {
   let total = 0;
-  for (let i = 0; i < 15; i++) total = (total + Number(digits[i])) * 2;
+  for (let i = 0; i < 15; i++) total = (total + Number(first15[i])) * 2;
   const result = (12 - (total % 11)) % 11;
-  const check = result === 10 ? "X" : String(result);
-  return check === digits[15];
+  return result === 10 ? "X" : String(result);
 }

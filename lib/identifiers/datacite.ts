@@ -90,6 +90,12 @@ interface CommonInput {
    * pure), named in a description; without it the description names the reference's title.
    */
   sourceReference?: string | null;
+  /**
+   * Position in the document's `creators` → the ORCID iD verified on the account linked to that
+   * entry (creator_people). Only these become name identifiers: an iD typed into a deposit proves
+   * nothing, so it is not sent.
+   */
+  verifiedCreatorIds?: ReadonlyMap<number, string>;
 }
 
 export type DoiMetadataInput =
@@ -261,7 +267,7 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
       versionNumber: input.kind === "version" ? input.versionNumber : undefined,
     }),
     titles: [{ title: asString(doc.title) ?? (input.fallbackTitle.trim() || UNAVAILABLE) }],
-    creators: buildCreators(doc.creators),
+    creators: buildCreators(doc.creators, input.verifiedCreatorIds ?? new Map()),
     publisher: "Arrhenia",
     publicationYear: (input.publishedAt ?? input.now ?? new Date()).getUTCFullYear(),
     types: { resourceTypeGeneral: "Dataset", resourceType: "Rate constants k(T)" },
@@ -312,8 +318,8 @@ function isbnOf(value: unknown): string | null {
   return /^(97[89]\d{10}|\d{9}[\dX])$/i.test(digits) ? text : null;
 }
 
-function buildCreators(value: unknown): DataciteCreator[] {
-  const creators = asArray(value).flatMap((item): DataciteCreator[] => {
+function buildCreators(value: unknown, verifiedIds: ReadonlyMap<number, string>): DataciteCreator[] {
+  const creators = asArray(value).flatMap((item, position): DataciteCreator[] => {
     const c = asRecord(item);
     const deposited = asString(c.name);
     if (!deposited) return [];
@@ -328,7 +334,7 @@ function buildCreators(value: unknown): DataciteCreator[] {
             ...(parts.given ? { givenName: parts.given } : {}),
             familyName: familyWithParticle(parts),
           };
-    const orcid = orcidUri(c.orcid);
+    const orcid = orcidUri(verifiedIds.get(position));
     if (orcid) creator.nameIdentifiers = [{ nameIdentifier: orcid, nameIdentifierScheme: "ORCID", schemeUri: "https://orcid.org" }];
     const affiliation = asString(c.affiliation);
     if (affiliation) creator.affiliation = [{ name: affiliation }];

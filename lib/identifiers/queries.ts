@@ -1,4 +1,5 @@
 import "server-only";
+import { getVerifiedCreatorIds } from "@/lib/people/queries";
 import { and, asc, desc, eq, isNotNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, datasetVersions, identifierRegistrations } from "@/db/datasets";
@@ -23,6 +24,8 @@ export interface RegistrationSubject {
     state?: VersionState;
     retractedAt?: Date | null;
     retractionNotice?: string | null;
+    /** Position in the document's `creators` → the iD verified on the account linked to that entry (creator_people). */
+    verifiedCreatorIds?: ReadonlyMap<number, string>;
   } | null;
   /** Every version of the dataset that has an identifier (published or retracted), oldest first. */
   versions: { id: number; number: number; versionIdentifier: string; state: VersionState; publishedAt: Date | null }[];
@@ -116,7 +119,9 @@ export async function getRegistrationSubject({ identifier }: { identifier: strin
     registered: reg.registered,
     attempts: reg.attempts,
     seriesIdentifier: reg.seriesIdentifier,
-    described: described ?? null,
+    described: described
+      ? { ...described, verifiedCreatorIds: (await getVerifiedCreatorIds({ versionIds: [described.id] })).get(described.id) }
+      : null,
     versions,
   };
 }

@@ -79,6 +79,7 @@ export function buildRegistrationBody(subject: RegistrationSubject): DataciteBod
     versionNumber: described.number,
     retraction: described.state === "retracted" ? { at: described.retractedAt ?? null, notice: described.retractionNotice ?? null } : null,
     sourceReference: sourceReferenceText(described.payload),
+    verifiedCreatorIds: described.verifiedCreatorIds,
   };
   if (subject.kind === "version") {
     const previous = subject.versions.filter((v) => v.number < described.number).at(-1);

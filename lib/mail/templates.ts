@@ -62,6 +62,20 @@ export function passwordResetMail(to: string, name: string, secret: string): Mai
   );
 }
 
+/** For an account made through ORCID, which has no password yet (it needs one before ORCID can be unlinked). */
+export function choosePasswordMail(to: string, name: string, secret: string): MailMessage {
+  return compose(
+    to,
+    "Choose a password for Arrhenia",
+    name,
+    [
+      "You asked for a password for your Arrhenia account, which you made by signing in with ORCID. With a password you can also sign in with your e-mail address, and unlink ORCID.",
+      "The link works once and expires in one hour.",
+    ],
+    { label: "Choose a password", url: `${appUrl()}/reset-password?token=${encodeURIComponent(secret)}` },
+  );
+}
+
 export function signInLinkMail(to: string, name: string, secret: string): MailMessage {
   return compose(
     to,

@@ -1,4 +1,5 @@
 import "server-only";
+import { getVerifiedCreatorIds } from "@/lib/people/queries";
 import { and, asc, eq, inArray, isNotNull, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, datasetVersions } from "@/db/datasets";
@@ -141,6 +142,7 @@ export async function listOaiRecordSubjects({ versionIds }: { versionIds: number
         .where(and(inArray(datasetVersions.datasetId, datasetIds), isNotNull(datasetVersions.versionIdentifier)))
         .orderBy(asc(datasetVersions.datasetId), asc(datasetVersions.number))
     : [];
+  const verified = await getVerifiedCreatorIds({ versionIds: described.map((d) => d.id) });
   for (const d of described) {
     subjects.set(d.id, {
       identifier: d.versionIdentifier!,
@@ -158,6 +160,7 @@ export async function listOaiRecordSubjects({ versionIds }: { versionIds: number
         state: d.state as VersionState,
         retractedAt: d.retractedAt,
         retractionNotice: d.retractionNotice,
+        verifiedCreatorIds: verified.get(d.id),
       },
       versions: siblings
         .filter((s) => s.datasetId === d.datasetId)

@@ -2,6 +2,8 @@ import "server-only";
 import type { ApiTokenScope } from "./schemas";
 import { and, asc, count, desc, eq, gt, isNull, sql } from "drizzle-orm";
 import { getDb, type Database, type Transaction } from "@/db/client";
+import { datasetVersions } from "@/db/datasets";
+import { creatorPeople } from "@/db/people";
 import { apiTokens, oneTimeTokens } from "@/db/tokens";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
@@ -15,6 +17,10 @@ export interface UserDto {
   name: string;
   affiliation: string | null;
   orcid: string | null;
+  /** The iD proven at the ORCID provider (shown as verified); `orcid` is the typed-in one. */
+  verifiedOrcid: string | null;
+  passwordSet: boolean;
+  profileListed: boolean;
   role: Role;
   emailVerifiedAt: Date | null;
   deactivatedAt: Date | null;
@@ -27,6 +33,9 @@ const userColumns = {
   name: users.name,
   affiliation: users.affiliation,
   orcid: users.orcid,
+  verifiedOrcid: users.verifiedOrcid,
+  passwordSet: users.passwordSet,
+  profileListed: users.profileListed,
   role: users.role,
   emailVerifiedAt: users.emailVerifiedAt,
   deactivatedAt: users.deactivatedAt,
@@ -205,7 +214,7 @@ export async function updateProfile({
 
 export async function setPasswordHash({ userId, passwordHash, actorId }: { userId: number; passwordHash: string; actorId: number | null }) {
   await getDb().transaction(async (tx) => {
-    await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
+    await tx.update(users).set({ passwordHash, passwordSet: true }).where(eq(users.id, userId));
     // A new password ends every session, and no reset or sign-in link issued before it still works.
     await endAllSessions({ userId, tx });
     await voidOneTimeTokens({ userId, purpose: "reset_password", tx });
@@ -357,4 +366,153 @@ export async function getUserByApiToken({ secret }: { secret: string }) {
   if (!row) return null;
   await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.tokenId));
   return { user: row.user, scopes: row.scopes as ApiTokenScope[] };
+}
+
+// ---- ORCID iDs proven at the provider ----
+
+/** The account holding a verified iD, with what sign-in needs. */
+export async function getUserByVerifiedOrcid({ orcid }: { orcid: string }) {
+  const [row] = await getDb()
+    .select({ ...userColumns, sessionGeneration: users.sessionGeneration })
+    .from(users)
+    .where(eq(users.verifiedOrcid, orcid));
+  return row ?? null;
+}
+
+/** An account made by a first ORCID sign-in whose address was never confirmed: a later sign-in with the iD may take its place. */
+export function isPendingOrcidSignUp(user: { passwordSet: boolean; emailVerifiedAt: Date | null; verifiedOrcid: string | null }) {
+  return !user.passwordSet && user.emailVerifiedAt === null && user.verifiedOrcid !== null;
+}
+
+/** The datasets whose versions name the account as a creator (their pages show the verified iD). */
+async function linkedDatasetIds(tx: Database | Transaction, userId: number): Promise<number[]> {
+  const rows = await tx
+    .selectDistinct({ datasetId: datasetVersions.datasetId })
+    .from(creatorPeople)
+    .innerJoin(datasetVersions, eq(datasetVersions.id, creatorPeople.versionId))
+    .where(eq(creatorPeople.userId, userId));
+  return rows.map((r) => r.datasetId);
+}
+
+/**
+ * Links a verified iD to the account `userId`. An iD held by another account is refused (409),
+ * unless that account is a pending ORCID sign-up, which gives it up. The triggers of drizzle/0030
+ * attach the account to every creator entry naming the iD. Returns the datasets concerned.
+ */
+export async function linkVerifiedOrcid({ userId, orcid }: { userId: number; orcid: string }): Promise<number[]> {
+  return getDb().transaction(async (tx) => {
+    const [holder] = await tx.select(userColumns).from(users).where(eq(users.verifiedOrcid, orcid)).for("update");
+    if (holder?.id === userId) return [];
+    if (holder) {
+      if (!isPendingOrcidSignUp(holder)) throw new AppError("conflict", "This ORCID iD is already linked to another account");
+      await tx.update(users).set({ verifiedOrcid: null, orcidLinkedAt: null }).where(eq(users.id, holder.id));
+      await recordAuditEvent(tx, {
+        actorId: userId,
+        action: "user.orcid_released",
+        subjectType: "user",
+        subjectId: holder.id,
+        details: { orcid, reason: "a pending, unconfirmed sign-up gave way to a signed-in account" },
+      });
+    }
+    const before = await linkedDatasetIds(tx, userId);
+    await tx.update(users).set({ verifiedOrcid: orcid, orcidLinkedAt: new Date() }).where(eq(users.id, userId));
+    await recordAuditEvent(tx, {
+      actorId: userId,
+      action: "user.orcid_linked",
+      subjectType: "user",
+      subjectId: userId,
+      details: { orcid },
+    });
+    return [...new Set([...before, ...(await linkedDatasetIds(tx, userId))])];
+  });
+}
+
+/** Unlinks the account's verified iD; needs a password set, so nobody locks themselves out. Returns the datasets concerned. */
+export async function unlinkVerifiedOrcid({ userId }: { userId: number }): Promise<number[]> {
+  return getDb().transaction(async (tx) => {
+    const [row] = await tx.select(userColumns).from(users).where(eq(users.id, userId)).for("update");
+    if (!row?.verifiedOrcid) throw new AppError("conflict", "No ORCID iD is linked to this account");
+    if (!row.passwordSet) {
+      throw new AppError("conflict", "Choose a password first (we can e-mail you a link): without ORCID it is how you sign in");
+    }
+    const before = await linkedDatasetIds(tx, userId);
+    await tx.update(users).set({ verifiedOrcid: null, orcidLinkedAt: null }).where(eq(users.id, userId));
+    await recordAuditEvent(tx, {
+      actorId: userId,
+      action: "user.orcid_unlinked",
+      subjectType: "user",
+      subjectId: userId,
+      details: { orcid: row.verifiedOrcid },
+    });
+    return before;
+  });
+}
+
+/**
+ * The account of a first ORCID sign-in: a new unconfirmed researcher holding the iD, with a
+ * password nobody knows (`passwordSet` false), or, when a pending sign-up already holds the iD,
+ * that one with the newly confirmed name and address. Returns the account, or null when the
+ * address belongs to another account (or the iD to a confirmed one): nothing is changed then.
+ */
+export async function saveOrcidSignUp({
+  orcid,
+  name,
+  email,
+  passwordHash,
+}: {
+  orcid: string;
+  name: string;
+  email: string;
+  passwordHash: string;
+}): Promise<{ user: UserDto; replaced: boolean } | null> {
+  const address = normaliseEmail(email);
+  return getDb().transaction(async (tx) => {
+    const [holder] = await tx.select(userColumns).from(users).where(eq(users.verifiedOrcid, orcid)).for("update");
+    if (holder && !isPendingOrcidSignUp(holder)) return null;
+    const [owner] = await tx
+      .select({ id: users.id })
+      .from(users)
+      .where(eq(sql`lower(${users.email})`, address));
+    if (owner && owner.id !== holder?.id) return null;
+    if (holder) {
+      const [row] = await tx.update(users).set({ name: name.trim(), email: address }).where(eq(users.id, holder.id)).returning(userColumns);
+      // A link sent to the address typed before no longer confirms anything.
+      await voidOneTimeTokens({ userId: holder.id, purpose: "verify_email", tx });
+      await recordAuditEvent(tx, {
+        actorId: holder.id,
+        action: "user.orcid_sign_up_replaced",
+        subjectType: "user",
+        subjectId: holder.id,
+        details: { orcid },
+      });
+      return { user: row, replaced: true };
+    }
+    const [row] = await tx
+      .insert(users)
+      .values({ email: address, name: name.trim(), passwordHash, passwordSet: false, verifiedOrcid: orcid, orcidLinkedAt: new Date() })
+      .onConflictDoNothing()
+      .returning(userColumns);
+    if (!row) return null;
+    await recordAuditEvent(tx, {
+      actorId: row.id,
+      action: "user.sign_up",
+      subjectType: "user",
+      subjectId: row.id,
+      details: { through: "orcid", orcid },
+    });
+    return { user: row, replaced: false };
+  });
+}
+
+export async function setProfileListed({ userId, listed }: { userId: number; listed: boolean }) {
+  await getDb().transaction(async (tx) => {
+    await tx.update(users).set({ profileListed: listed }).where(eq(users.id, userId));
+    await recordAuditEvent(tx, {
+      actorId: userId,
+      action: "user.profile_listing_changed",
+      subjectType: "user",
+      subjectId: userId,
+      details: { listed },
+    });
+  });
 }

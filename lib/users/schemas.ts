@@ -83,3 +83,17 @@ export const userPatchSchema = z
   .object({ role: z.enum(["researcher", "curator", "admin"]).optional(), active: z.boolean().optional() })
   .strict()
   .refine((v) => v.role !== undefined || v.active !== undefined, { message: "Give `role`, `active`, or both" });
+
+/** The confirmation page of a first ORCID sign-in: the name and address the new account gets, and the signed ticket. */
+export const orcidSignUpSchema = z.object({
+  ticket: z.string().min(20).max(2000),
+  name: z.string().trim().min(1, "Enter your name").max(200),
+  email: emailField,
+});
+
+export const profileListingSchema = z.object({
+  listed: z
+    .enum(["on"])
+    .optional()
+    .transform((v) => v === "on"),
+});

@@ -1,7 +1,7 @@
 import AxeBuilder from "@axe-core/playwright";
-import { expect, request as newRequest, test, type APIRequestContext, type Page } from "@playwright/test";
+import { expect, request as newRequest, test, type Page } from "@playwright/test";
 import { labelledAlkaneDeposit } from "../fixtures/labelled-alkane-deposit";
-import { DEMO_CURATORS, DEMO_PASSWORD, DEMO_RESEARCHER } from "./pages/deposit-pages";
+import { DEMO_CURATORS, DEMO_RESEARCHER, signedIn, transition } from "./pages/deposit-pages";
 
 // The public reaction, species and class pages, their metadata, the sitemap and robots.txt, and
 // that publication and retraction show on them at once (their data are cached by the server).
@@ -144,21 +144,6 @@ test("reaction, species and class pages pass axe at 1366 and 390 px and fit a ph
   }
   expect(problems).toEqual([]);
 });
-
-async function signedIn(baseURL: string, who: { email: string }): Promise<APIRequestContext> {
-  const ctx = await newRequest.newContext({ baseURL });
-  const { csrfToken } = await (await ctx.get("/api/auth/csrf")).json();
-  const res = await ctx.post("/api/auth/callback/credentials", {
-    form: { csrfToken, email: who.email, password: DEMO_PASSWORD, json: "true" },
-  });
-  expect(res.ok()).toBe(true);
-  return ctx;
-}
-
-async function transition(ctx: APIRequestContext, versionId: number, body: Record<string, string>) {
-  const res = await ctx.post(`/api/v1/versions/${versionId}/transitions`, { data: body });
-  expect(res.ok(), await res.text()).toBe(true);
-}
 
 test("a newly published version shows on its reaction and species pages without a restart, and a retraction at once", async ({
   page,

@@ -26,6 +26,7 @@ import ReactionPage from "@/app/reactions/[id]/page";
 import ClassPage from "@/app/classes/[id]/page";
 import SpeciesPage from "@/app/species/[inchikey]/page";
 import ReviewPage from "@/app/review/[id]/page";
+import PersonPage from "@/app/people/[id]/page";
 import { revokeTokenAction } from "@/app/settings/actions";
 import { idleState } from "@/lib/auth/action-state";
 import { getCurrentUser } from "@/lib/auth/session";
@@ -131,6 +132,7 @@ const pageCases: [string, Page, (id: string) => Record<string, string>][] = [
   ["/review/[id]", ReviewPage as Page, (id) => ({ id })],
   ["/deposits/[id]", DepositPage as Page, (id) => ({ id })],
   ["/admin/mail/[id]", MailMessagePage as Page, (id) => ({ id })],
+  ["/people/[id]", PersonPage as Page, (id) => ({ id })],
 ];
 
 /** Every dynamic segment under app/, so a new one without a case above fails this test. */

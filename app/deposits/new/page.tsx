@@ -20,7 +20,7 @@ export default async function NewDepositPage() {
           The <Link href="/docs/deposit-format">deposit format</Link> page explains every field.
         </p>
       </header>
-      <DepositEditor mode="new" person={{ name: user.name, orcid: user.orcid, affiliation: user.affiliation }} />
+      <DepositEditor mode="new" person={{ name: user.name, orcid: user.verifiedOrcid ?? user.orcid, affiliation: user.affiliation }} />
     </div>
   );
 }

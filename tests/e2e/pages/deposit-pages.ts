@@ -1,4 +1,4 @@
-import { expect, type Locator, type Page } from "@playwright/test";
+import { expect, request as newRequest, type APIRequestContext, type Locator, type Page } from "@playwright/test";
 import { Header, SignInPage } from "./auth-pages";
 
 /** Demo people of the seed (password for all: arrhenia-demo). */
@@ -17,6 +17,23 @@ export async function signInAs(page: Page, who: { email: string; name: string })
   await signIn.open();
   await signIn.signIn(who.email, DEMO_PASSWORD);
   await header.expectSignedInAs(who.name);
+}
+
+/** An API request context signed in as a demo person (for the REST API and the transitions). */
+export async function signedIn(baseURL: string, who: { email: string }): Promise<APIRequestContext> {
+  const ctx = await newRequest.newContext({ baseURL });
+  const { csrfToken } = await (await ctx.get("/api/auth/csrf")).json();
+  const res = await ctx.post("/api/auth/callback/credentials", {
+    form: { csrfToken, email: who.email, password: DEMO_PASSWORD, json: "true" },
+  });
+  expect(res.ok()).toBe(true);
+  return ctx;
+}
+
+/** One lifecycle transition of a version through the REST API (submit, accept with a reason, …). */
+export async function transition(ctx: APIRequestContext, versionId: number, body: Record<string, string>) {
+  const res = await ctx.post(`/api/v1/versions/${versionId}/transitions`, { data: body });
+  expect(res.ok(), await res.text()).toBe(true);
 }
 
 export interface Species {

@@ -30,7 +30,8 @@ const input: DoiMetadataInput = {
   previousVersionIdentifier: "10.5072/ARH-4F7K-9QXM/1",
   nextVersionIdentifier: "10.5072/ARH-4F7K-9QXM/3",
 };
-const attributes = buildDoiMetadata(input).data.attributes;
+// Only an iD verified on the linked account is named (creator_people): the first creator's here.
+const attributes = buildDoiMetadata({ ...input, verifiedCreatorIds: new Map([[0, "0000-0002-1825-0097"]]) }).data.attributes;
 const xml = buildDataciteXml(attributes);
 const parser = new XMLParser({
   ignoreAttributes: false,

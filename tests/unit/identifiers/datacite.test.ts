@@ -27,9 +27,11 @@ const version: DoiMetadataInput = {
   seriesIdentifier: "10.5072/arrhenia.7",
   previousVersionIdentifier: "10.5072/arrhenia.7.v1",
 };
+// The first creator's entry is linked to an account that proved the iD at ORCID (creator_people).
+const verifiedCreatorIds = new Map([[0, "0000-0002-1825-0097"]]);
 
 describe("buildDoiMetadata for a version", () => {
-  const { data } = buildDoiMetadata(version);
+  const { data } = buildDoiMetadata({ ...version, verifiedCreatorIds });
   const a = data.attributes;
 
   it("is a JSON:API dois resource that publishes the identifier at the version's landing page", () => {
@@ -60,6 +62,16 @@ describe("buildDoiMetadata for a version", () => {
         affiliation: [{ name: "Example Institute" }],
       },
       { name: "Tao, Lin", nameType: "Personal", givenName: "Lin", familyName: "Tao" },
+    ]);
+  });
+
+  it("names only verified iDs: an iD typed into the deposit alone is no name identifier", () => {
+    const typedOnly = buildDoiMetadata(version).data.attributes;
+    expect(typedOnly.creators[0].nameIdentifiers).toBeUndefined();
+    const elsewhere = buildDoiMetadata({ ...version, verifiedCreatorIds: new Map([[1, "0000-0002-1694-233X"]]) }).data.attributes;
+    expect(elsewhere.creators.map((c) => c.nameIdentifiers?.[0].nameIdentifier)).toEqual([
+      undefined,
+      "https://orcid.org/0000-0002-1694-233X",
     ]);
   });
 

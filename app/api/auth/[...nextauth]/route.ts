@@ -1,14 +1,30 @@
 // GET/POST /api/auth/* — next-auth's sign-in, session and sign-out endpoints
 import NextAuth from "next-auth";
-import { NextRequest } from "next/server";
+import { NextRequest, NextResponse } from "next/server";
 import { clientAbortResponse, problemResponse } from "@/lib/auth/api";
 import { authOptions } from "@/lib/auth/options";
+import { appUrl } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, readBodyOrThrow } from "@/lib/http/read-body";
 
 type Context = { params: Promise<{ nextauth: string[] }> };
 
 const handler = NextAuth(authOptions);
+
+/**
+ * An ORCID callback that carries the provider's `error` (the person cancelled, or the provider
+ * failed) goes to the sign-in page with a worded code; next-auth would say only "Callback".
+ * Nothing is changed: the state and PKCE cookies expire on their own.
+ */
+async function GET(req: NextRequest, context: Context) {
+  const url = new URL(req.url);
+  const error = url.searchParams.get("error");
+  if (error && url.pathname.endsWith("/callback/orcid")) {
+    const code = error === "access_denied" ? "OrcidCancelled" : "OrcidProviderError";
+    return NextResponse.redirect(`${appUrl()}/sign-in?error=${code}`, 302);
+  }
+  return handler(req, context);
+}
 
 // next-auth reads the whole body itself; hand it a copy read with the cap instead.
 async function POST(req: NextRequest, context: Context) {
@@ -25,4 +41,4 @@ async function POST(req: NextRequest, context: Context) {
   return handler(new NextRequest(req.url, { method: "POST", headers: req.headers, body: body as BodyInit }), context);
 }
 
-export { handler as GET, POST };
+export { GET, POST };

@@ -27,6 +27,8 @@ import { formatNumber } from "@/lib/format";
 import { CiteSection } from "@/components/cite/cite-section";
 import { MechanismDownload } from "@/components/exports/mechanism-download";
 import { DatasetJsonLd } from "@/components/cite/dataset-json-ld";
+import { CreatorList } from "@/components/creator-list";
+import { getVerifiedCreatorIds, listVersionCreatorPeople } from "@/lib/people/queries";
 import { getPublicCitation } from "@/lib/citation/public-citation";
 import { WatchControl } from "@/app/watches/watch-control";
 
@@ -70,7 +72,7 @@ export default async function DatasetVersionPage({
   const versions = await listPublicVersions({ datasetId });
   const entry = versions.find((x) => x.number === number);
   if (!entry) notFound();
-  const [loaded, dataset, files, query, mayReadAudit, citation] = await Promise.all([
+  const [loaded, dataset, files, query, mayReadAudit, citation, verifiedIds, creatorPeople] = await Promise.all([
     getPublicVersionPoints({ versionId: entry.id }),
     getDatasetSummary({ datasetId }),
     listVersionFiles({ versionId: entry.id }),
@@ -78,6 +80,8 @@ export default async function DatasetVersionPage({
     // Its members, curators and admins find the dataset's audit trail from here too.
     getCurrentUser().then((viewer) => canReadAuditTrail({ datasetId, viewer })),
     getPublicCitation({ datasetId, versionNumber: number }),
+    getVerifiedCreatorIds({ versionIds: [entry.id] }).then((m) => m.get(entry.id) ?? new Map<number, string>()),
+    listVersionCreatorPeople({ versionId: entry.id }),
   ]);
   if (!loaded || !citation) notFound();
   const { version, doc, analysis: result, rows } = loaded;
@@ -97,7 +101,7 @@ export default async function DatasetVersionPage({
 
   return (
     <article className="space-y-6">
-      <DatasetJsonLd version={version} doc={doc} seriesIdentifier={dataset?.seriesIdentifier ?? null} />
+      <DatasetJsonLd version={version} doc={doc} seriesIdentifier={dataset?.seriesIdentifier ?? null} verifiedCreatorIds={verifiedIds} />
       {version.state === "retracted" && (
         <section
           aria-labelledby="retraction-heading"
@@ -131,7 +135,7 @@ export default async function DatasetVersionPage({
           {mayReadAudit && <Link href={auditTrailPath(datasetId)}>Audit trail</Link>}
         </p>
         <h1 className="text-3xl font-semibold">{version.title}</h1>
-        <p className="text-sm">{doc.creators?.map((c) => c.name).join("; ")}</p>
+        <CreatorList creators={doc.creators ?? []} people={creatorPeople} />
         <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
           <dt className="text-muted">This version</dt>
           <dd className="font-mono">doi:{version.versionIdentifier}</dd>

@@ -1,0 +1,31 @@
+"use client";
+
+import { useActionState } from "react";
+import { FormField } from "@/components/form-field";
+import { FormMessage, SubmitButton } from "@/components/form-status";
+import { idleState } from "@/lib/auth/action-state";
+import { confirmOrcidSignUpAction } from "./actions";
+
+export function ConfirmOrcidForm({ ticket, name }: { ticket: string; name: string }) {
+  const [state, action] = useActionState(confirmOrcidSignUpAction, idleState);
+  if (state.status === "ok") return <FormMessage state={state} />;
+  const e = state.fieldErrors ?? {};
+  return (
+    <form action={action} className="space-y-4">
+      <FormMessage state={state} />
+      <input type="hidden" name="ticket" value={ticket} />
+      <FormField label="Full name" name="name" autoComplete="name" required error={e.name} defaultValue={state.values?.name ?? name} />
+      <FormField
+        label="E-mail"
+        name="email"
+        type="email"
+        autoComplete="email"
+        required
+        hint="We send a confirmation link here; it is never shown on your public profile."
+        error={e.email}
+        defaultValue={state.values?.email}
+      />
+      <SubmitButton className="btn-primary w-full">Create my account</SubmitButton>
+    </form>
+  );
+}
