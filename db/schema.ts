@@ -11,3 +11,4 @@ export * from "./consensus";
 export * from "./search";
 export * from "./search-outbox";
 export * from "./oai";
+export * from "./mechanisms";

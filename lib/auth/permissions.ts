@@ -9,6 +9,7 @@ export const permissions = {
   "token.manage": ["researcher", "curator", "admin"],
   "dataset.deposit": ["researcher", "curator", "admin"],
   "dataset.review": ["curator", "admin"],
+  "mechanism.check": ["researcher", "curator", "admin"],
   "user.list": ["admin"],
   "user.manage": ["admin"],
   "mail.read": ["admin"],
