@@ -1,5 +1,6 @@
 import "server-only";
 import { CAUTION } from "@/lib/analyses/analyse-request";
+import { analysisThreads } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { reactionPath } from "@/lib/reactions/paths";
 import { listConsensusExclusions, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
@@ -118,11 +119,21 @@ export async function buildReport({
       }
     }),
   );
+  // Batches go to the analysis threads side by side, as many at once as there are threads (the rest of the
+  // queue stays free for other requests).
   const judged = new Map<number, JudgeOutput>();
-  for (let i = 0; i < inputs.length; i += JUDGE_BATCH) {
-    for (const out of await runAnalysisTask("judgeMechanism", { window, reactions: inputs.slice(i, i + JUDGE_BATCH) }))
-      judged.set(out.index, out);
-  }
+  const batches = Array.from({ length: Math.ceil(inputs.length / JUDGE_BATCH) }, (_, b) =>
+    inputs.slice(b * JUDGE_BATCH, (b + 1) * JUDGE_BATCH),
+  );
+  let nextBatch = 0;
+  await Promise.all(
+    Array.from({ length: Math.min(analysisThreads(), batches.length) }, async () => {
+      while (nextBatch < batches.length) {
+        const batch = batches[nextBatch++];
+        for (const out of await runAnalysisTask("judgeMechanism", { window, reactions: batch })) judged.set(out.index, out);
+      }
+    }),
+  );
 
   const reactions: ReportReaction[] = matches.map(({ r, k, match }) => {
     const forward = match?.forward ? { key: match.forward.key, path: reactionPath(match.forward.key) } : null;
