@@ -14,6 +14,7 @@ import {
 import Link from "next/link";
 import { useState } from "react";
 import { ScrollRegion } from "@/components/scroll-region";
+import { SortableHeaderCell } from "@/components/sortable-header-cell";
 
 export interface ReportRow {
   index: number;
@@ -131,22 +132,7 @@ export function ReportTable({ rows }: { rows: ReportRow[] }) {
             {table.getHeaderGroups().map((g) => (
               <tr key={g.id}>
                 {g.headers.map((h) => (
-                  <th
-                    key={h.id}
-                    className="px-2 py-1 text-left"
-                    aria-sort={
-                      h.column.getIsSorted() === "asc" ? "ascending" : h.column.getIsSorted() === "desc" ? "descending" : undefined
-                    }
-                  >
-                    {h.column.getCanSort() ? (
-                      <button type="button" className="underline-offset-2 hover:underline" onClick={h.column.getToggleSortingHandler()}>
-                        {flexRender(h.column.columnDef.header, h.getContext())}
-                        {h.column.getIsSorted() === "asc" ? " ▲" : h.column.getIsSorted() === "desc" ? " ▼" : ""}
-                      </button>
-                    ) : (
-                      flexRender(h.column.columnDef.header, h.getContext())
-                    )}
-                  </th>
+                  <SortableHeaderCell key={h.id} header={h} className="px-2 py-1 text-left" />
                 ))}
               </tr>
             ))}
