@@ -10,7 +10,7 @@ export default function robots(): MetadataRoute.Robots {
     rules: {
       userAgent: "*",
       allow: "/",
-      disallow: ["/api/", "/deposits", "/review", "/admin", "/settings", "/invitations", "/sign-in", "/sign-up"],
+      disallow: ["/api/", "/deposits", "/mechanisms", "/review", "/admin", "/settings", "/invitations", "/sign-in", "/sign-up"],
     },
     sitemap: `${base}/sitemap.xml`,
   };

@@ -13,3 +13,4 @@ export * from "./search-outbox";
 export * from "./oai";
 export * from "./watches";
 export * from "./people";
+export * from "./mechanisms";

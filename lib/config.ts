@@ -68,6 +68,7 @@ const variables = {
   ANALYSIS_THREADS: { schema: wholeNumber(1, 64) },
   ANALYSIS_QUEUE_LIMIT: { schema: wholeNumber(1, 10_000) },
   ANALYSIS_TIMEOUT_MS: { schema: wholeNumber(1, 3_600_000) },
+  ANALYSIS_MEMORY_MB: { schema: wholeNumber(64, 65_536) },
   API_RATE_LIMIT: { schema: wholeNumber(1, 10_000_000) },
   TRUST_PROXY: {
     schema: z
@@ -296,6 +297,14 @@ export function analysisQueueLimit(): number {
 /** Longest one validation or analysis may take, waiting included, before it is stopped (ms). */
 export function analysisTimeoutMs(): number {
   return read("ANALYSIS_TIMEOUT_MS") ?? 60_000;
+}
+
+/**
+ * Heap (old generation) one analysis thread may use, MB: a file that would take more (a mechanism
+ * or document built to exhaust memory) stops that thread with an error, never the server.
+ */
+export function analysisMemoryMb(): number {
+  return read("ANALYSIS_MEMORY_MB") ?? 1024;
 }
 
 /** Requests a minute one API client (a token's holder, else an address) may make before 429s. */

@@ -8,6 +8,7 @@ import { StateLabel } from "@/components/state-label";
 import type { CheckSummary } from "@/lib/curation/check-summary";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { ScrollRegion } from "@/components/scroll-region";
+import { SortableHeaderCell } from "@/components/sortable-header-cell";
 import { formatRange } from "@/lib/format";
 
 export interface QueueRow {
@@ -148,21 +149,9 @@ export function QueueTable({
           <thead>
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const sorted = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}>
-                      {h.column.getCanSort() ? (
-                        <button type="button" className="font-semibold hover:underline" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true">{sorted === "asc" ? " ▲" : sorted === "desc" ? " ▼" : ""}</span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
-                })}
+                {hg.headers.map((h) => (
+                  <SortableHeaderCell key={h.id} header={h} />
+                ))}
               </tr>
             ))}
           </thead>

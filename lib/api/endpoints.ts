@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { analysisRequestSchema } from "@/lib/analyses/analyse-request";
+import { mechanismCheckBodySchema, shareBodySchema } from "@/lib/mechanisms/request";
 import { citationQuerySchema } from "@/lib/citation/request";
 import { transitionRequestSchema } from "@/lib/curation/transition-request";
 import {
@@ -39,7 +40,17 @@ export interface Endpoint {
   /** Who may call it, in words (the published table's third column). */
   who: string;
   tag:
-    "Datasets" | "Reactions and species" | "Search" | "Deposits" | "Analysis" | "Citation" | "Harvesting" | "Files" | "People" | "Document";
+    | "Datasets"
+    | "Reactions and species"
+    | "Search"
+    | "Deposits"
+    | "Analysis"
+    | "Citation"
+    | "Harvesting"
+    | "Files"
+    | "People"
+    | "Document"
+    | "Mechanisms";
   summary: string;
   description?: string;
   /** Example values of the path's parameters, for the examples. */
@@ -621,6 +632,61 @@ export const API_ENDPOINTS: Endpoint[] = [
     body: { contentType: "application/x-www-form-urlencoded", description: "The arguments of the GET form, e.g. verb=Identify." },
     ok: { status: 200, contentType: "text/xml", description: "An OAI-PMH response; protocol errors are error elements in it." },
     errors: [413],
+  },
+  // ---- mechanism checks ----
+  {
+    method: "POST",
+    path: "/api/v1/mechanism-checks",
+    scope: "deposit:read",
+    who: "signed-in people; the check is theirs",
+    tag: "Mechanisms",
+    summary: "Check a mechanism (Cantera YAML or the plain-text layout) against the published data",
+    description:
+      "The body is the mechanism itself (text; window and name in the query) or JSON {text, name?, window?: {Tmin, Tmax}, format?}. At most 20 MB and 50 000 reactions; malformed lines are listed with line and column and the rest is checked. Elementary modified-Arrhenius reactions get a verdict against their reaction's consensus (agrees, disagrees, extrapolated, no data); other rate types are listed as not checked yet.",
+    query: [
+      { name: "Tmin", schema: z.coerce.number(), description: "Lower end of the use window, K (default 300).", example: "300" },
+      { name: "Tmax", schema: z.coerce.number(), description: "Upper end of the use window, K (default 2500).", example: "2500" },
+      { name: "name", schema: z.string(), description: "A name for the check." },
+      { name: "format", schema: z.enum(["auto", "cantera-yaml", "plain-text"]) },
+    ],
+    body: {
+      contentType: JSON_TYPE,
+      schema: mechanismCheckBodySchema,
+      description: "The mechanism and the use window.",
+      example:
+        '{"text": "SPECIES OH CH4 CH3 H2O END\\nREACTIONS\\nOH+CH4<=>CH3+H2O 1.0E8 1.6 3120\\nEND\\n", "window": {"Tmin": 300, "Tmax": 2000}}',
+    },
+    ok: { status: 201, contentType: JSON_TYPE, description: "{ data: { id, url, summary, problems } }; Location names the check." },
+    errors: [400, 401, 403, 413, 422],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/mechanism-checks/:id",
+    scope: "deposit:read",
+    who: "its owner, or anyone with its share link (?share=…)",
+    tag: "Mechanisms",
+    summary: "One mechanism check: its report as JSON, or as CSV with format=csv",
+    query: [
+      { name: "format", schema: z.enum(["json", "csv"]), example: "csv" },
+      { name: "share", schema: z.string(), description: "The share token of the owner's link." },
+    ],
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ data: { id, state, name, report: { about, summary, problems, species, reactions } } }",
+    },
+    errors: [400, 404],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/mechanism-checks/:id/share",
+    scope: "deposit:read",
+    who: "its owner",
+    tag: "Mechanisms",
+    summary: "Turn a check's share link on (a new token each time) or off",
+    body: { contentType: JSON_TYPE, schema: shareBodySchema, description: "{shared: true|false}", example: '{"shared": true}' },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { shared, url } }" },
+    errors: [401, 403, 404, 422],
   },
   // ---- this document ----
   {

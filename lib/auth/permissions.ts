@@ -10,6 +10,7 @@ export const permissions = {
   "watch.manage": ["researcher", "curator", "admin"],
   "dataset.deposit": ["researcher", "curator", "admin"],
   "dataset.review": ["curator", "admin"],
+  "mechanism.check": ["researcher", "curator", "admin"],
   "user.list": ["admin"],
   "user.manage": ["admin"],
   "mail.read": ["admin"],

@@ -8,7 +8,7 @@
  */
 import path from "node:path";
 import { Piscina } from "piscina";
-import { analysisQueueLimit, analysisThreads, analysisTimeoutMs } from "@/lib/config";
+import { analysisMemoryMb, analysisQueueLimit, analysisThreads, analysisTimeoutMs } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import type { TaskMessage, TaskName, Tasks } from "./tasks";
 
@@ -46,6 +46,7 @@ function getPool(): Piscina {
       maxQueue: analysisQueueLimit(),
       // Threads stay up: starting one (loading the engine) costs far more than a typical task.
       idleTimeout: 10 * 60_000,
+      resourceLimits: { maxOldGenerationSizeMb: analysisMemoryMb() },
     });
   }
   return holder[POOL_KEY];
@@ -64,6 +65,7 @@ function getBackgroundPool(): Piscina {
     maxThreads: 1,
     idleTimeout: 60_000,
     niceIncrement: 10,
+    resourceLimits: { maxOldGenerationSizeMb: analysisMemoryMb() },
   });
   return holder[BACKGROUND_POOL_KEY];
 }
@@ -105,6 +107,9 @@ export async function runAnalysisTask<N extends TaskName>(
         `Checking this submission took longer than ${Math.round(timeoutMs / 1000)} s and was stopped; try again later or split it.`,
       );
     }
+    // The thread ran out of its heap (ANALYSIS_MEMORY_MB): piscina replaces it; the input was too much to take.
+    if ((e as { code?: string })?.code === "ERR_WORKER_OUT_OF_MEMORY" || /out of memory/i.test(e?.message ?? ""))
+      throw new AppError("validation_failed", "This input needs more memory than one check may use; split it into smaller parts.");
     if (/queue is at limit/i.test(e?.message ?? ""))
       throw busy("The server is busy checking other submissions; try again in a few seconds.");
     throw err;

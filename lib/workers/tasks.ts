@@ -6,6 +6,8 @@
 import { runAnalysisOrThrow, type AnalysisRequest, type AnalysisResponse } from "@/lib/analyses/analyse-request";
 import { checkAndAnalyseDocument, type CheckedDocument } from "@/lib/datasets/prepare-document";
 import { AppError, type ErrorCode, type FieldError } from "@/lib/errors";
+import { judgeReactions } from "@/lib/mechanisms/judge";
+import { readMechanismRequest } from "@/lib/mechanisms/request";
 
 export type AnalyseOutcome =
   { ok: true; response: AnalysisResponse } | { ok: false; code: ErrorCode; message: string; errors: FieldError[] };
@@ -31,6 +33,14 @@ export const tasks = {
       throw err;
     }
   },
+  /**
+   * A mechanism check's body (bytes as received): decoded, its fields read, the one-pass pre-check,
+   * then the mechanism read (lib/mechanisms/request.ts). Never on the request thread: a nested or
+   * huge file costs its time and memory here.
+   */
+  readMechanism: readMechanismRequest,
+  /** The verdicts of a mechanism's matched reactions against their consensus (lib/mechanisms/judge.ts). */
+  judgeMechanism: judgeReactions,
 };
 
 export type Tasks = typeof tasks;

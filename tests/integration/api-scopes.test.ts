@@ -37,6 +37,9 @@ import * as pointsJson from "@/app/api/v1/versions/[id]/points.json/route";
 import * as version from "@/app/api/v1/versions/[id]/route";
 import * as transitions from "@/app/api/v1/versions/[id]/transitions/route";
 import * as oai from "@/app/oai/route";
+import * as mechanismChecks from "@/app/api/v1/mechanism-checks/route";
+import * as mechanismCheck from "@/app/api/v1/mechanism-checks/[id]/route";
+import * as mechanismCheckShare from "@/app/api/v1/mechanism-checks/[id]/share/route";
 import { createTokenAction } from "@/app/settings/actions";
 import { idleState } from "@/lib/auth/action-state";
 import type { ApiOptions } from "@/lib/auth/api";
@@ -80,6 +83,9 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/versions/:id": version,
   "/api/v1/versions/:id/transitions": transitions,
   "/oai": oai,
+  "/api/v1/mechanism-checks": mechanismChecks,
+  "/api/v1/mechanism-checks/:id": mechanismCheck,
+  "/api/v1/mechanism-checks/:id/share": mechanismCheckShare,
 };
 
 let admin: UserDto, researcher: UserDto, subject: UserDto;

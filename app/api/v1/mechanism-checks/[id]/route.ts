@@ -1,0 +1,39 @@
+// GET /api/v1/mechanism-checks/:id — one check's report (owner, or anyone with its share token); ?format=json|csv
+import { NextResponse } from "next/server";
+import { withApi } from "@/lib/auth/api";
+import { AppError } from "@/lib/errors";
+import { parseIdOrThrow } from "@/lib/ids";
+import { readableMechanismCheckOrThrow } from "@/lib/mechanisms/access";
+import { mechanismReportCsv } from "@/lib/mechanisms/export";
+import type { MechanismReport } from "@/lib/mechanisms/run-check";
+
+export const GET = withApi<{ id: string }>(
+  async ({ req, user, params }) => {
+    const id = parseIdOrThrow(params.id, "mechanism check");
+    const url = new URL(req.url);
+    const check = await readableMechanismCheckOrThrow({ id, user, share: url.searchParams.get("share") });
+    const format = url.searchParams.get("format") ?? "json";
+    if (format !== "json" && format !== "csv")
+      throw new AppError("bad_request", "format must be json or csv", [
+        { pointer: "", parameter: "format", message: "must be json or csv" },
+      ]);
+    const headers = { "cache-control": "private, no-store" };
+    if (format === "csv") {
+      if (!check.report) throw new AppError("conflict", `The check is ${check.state}; its report is not ready.`);
+      return new NextResponse(mechanismReportCsv(check.report as unknown as MechanismReport, check.name), {
+        headers: {
+          ...headers,
+          "content-type": "text/csv; charset=utf-8",
+          "content-disposition": `attachment; filename="mechanism-check-${check.id}.csv"`,
+        },
+      });
+    }
+    const { shareToken, ownerId, ...rest } = check;
+    const isOwner = user?.id === ownerId;
+    return NextResponse.json(
+      { data: { ...rest, shared: shareToken !== null, ...(isOwner && shareToken ? { shareToken } : {}) } },
+      { headers },
+    );
+  },
+  { identify: true, scope: "deposit:read" },
+);

@@ -1,0 +1,134 @@
+/**
+ * Matching a mechanism to Arrhenia's species and reactions. Species: the person's own choice
+ * first, then the name among a species' names (case-insensitive), then the elemental composition
+ * (YAML states it; a plain-text name that reads as a formula, such as "CH3" or "H2O2", gives one).
+ * Several species with one composition (isomers), or none, is left for the person to choose.
+ * Reactions: by reaction key in both directions; only data of the mechanism's forward direction
+ * are compared with its forward rate, a reverse-direction reaction is marked.
+ */
+import { formatHillFormula } from "@/lib/chem/hill-formula";
+import { reactionKey } from "@/lib/chem/reaction-key";
+import type { MechanismParticipant, MechanismReaction, ParsedMechanism } from "./types";
+
+/** A species of Arrhenia as matching needs it. */
+export interface CatalogueSpecies {
+  inchiKey: string;
+  formula: string;
+  /** Display name first, then the other names it was given. */
+  names: string[];
+}
+
+export type SpeciesMatchBy = "choice" | "name" | "composition" | "ambiguous" | "none";
+
+export interface SpeciesMatch {
+  name: string;
+  by: SpeciesMatchBy;
+  inchiKey: string | null;
+  /** Formula used for the composition match (Hill order), when known. */
+  formula: string | null;
+  /** The species to choose from when ambiguous (or the one chosen). */
+  candidates: { inchiKey: string; formula: string; name: string }[];
+}
+
+/** Element counts from a name that reads as a formula ("CH3", "H2O2", "C2H5OH"); null otherwise. */
+export function compositionFromName(name: string): Record<string, number> | null {
+  if (!/^(?:[A-Z][a-z]?\d*)+$/.test(name)) return null;
+  const out: Record<string, number> = {};
+  for (const m of name.matchAll(/([A-Z][a-z]?)(\d*)/g)) out[m[1]] = (out[m[1]] ?? 0) + (m[2] ? Number(m[2]) : 1);
+  return out;
+}
+
+/** Hill formula of a composition with element symbols written as mechanisms do (AR, Ar). */
+export function hillFormulaOf(composition: Record<string, number>): string {
+  const normalised: Record<string, number> = {};
+  for (const [symbol, count] of Object.entries(composition)) {
+    const s = symbol.length === 2 ? symbol[0].toUpperCase() + symbol[1].toLowerCase() : symbol.toUpperCase();
+    normalised[s] = (normalised[s] ?? 0) + count;
+  }
+  return formatHillFormula(normalised);
+}
+
+/** Every species name the mechanism uses, with its composition or formula when known. */
+export function mechanismSpeciesNames(mechanism: ParsedMechanism): { name: string; formula: string | null }[] {
+  const composition = new Map(mechanism.species.map((s) => [s.name, s.composition]));
+  const names = new Set<string>(mechanism.species.map((s) => s.name));
+  for (const r of mechanism.reactions) for (const p of [...r.reactants, ...r.products]) names.add(p.name);
+  return [...names].map((name) => {
+    const c = composition.get(name) ?? compositionFromName(name);
+    return { name, formula: c ? hillFormulaOf(c) : null };
+  });
+}
+
+/**
+ * Each name → a species: `choices` (name → InChIKey, the person's own), then `byName` (lower-case
+ * name → species having it), then `byFormula` (Hill formula → species).
+ */
+export function matchSpecies({
+  names,
+  choices,
+  byName,
+  byFormula,
+}: {
+  names: readonly { name: string; formula: string | null }[];
+  choices: ReadonlyMap<string, string>;
+  byName: ReadonlyMap<string, readonly CatalogueSpecies[]>;
+  byFormula: ReadonlyMap<string, readonly CatalogueSpecies[]>;
+}): SpeciesMatch[] {
+  const brief = (s: CatalogueSpecies) => ({ inchiKey: s.inchiKey, formula: s.formula, name: s.names[0] ?? s.formula });
+  return names.map(({ name, formula }) => {
+    const chosen = choices.get(name);
+    if (chosen) return { name, by: "choice", inchiKey: chosen, formula, candidates: [] };
+    const named = unique(byName.get(name.toLowerCase()) ?? []);
+    // A name several species share is only settled by the composition, when that picks one of them.
+    const narrowed = named.length > 1 && formula ? named.filter((s) => s.formula === formula) : named;
+    if (narrowed.length === 1) return { name, by: "name", inchiKey: narrowed[0].inchiKey, formula, candidates: [brief(narrowed[0])] };
+    const sameFormula = formula ? unique(byFormula.get(formula) ?? []) : [];
+    if (named.length === 0 && sameFormula.length === 1)
+      return { name, by: "composition", inchiKey: sameFormula[0].inchiKey, formula, candidates: [brief(sameFormula[0])] };
+    const candidates = unique([...named, ...sameFormula]).map(brief);
+    return { name, by: candidates.length ? "ambiguous" : "none", inchiKey: null, formula, candidates };
+  });
+}
+
+function unique(list: readonly CatalogueSpecies[]): CatalogueSpecies[] {
+  const seen = new Set<string>();
+  return list.filter((s) => !seen.has(s.inchiKey) && seen.add(s.inchiKey));
+}
+
+export interface ReactionKeys {
+  forward: string;
+  reverse: string;
+}
+
+/**
+ * The reaction keys of a mechanism reaction in both directions, or why there are none: a species
+ * not matched, or a third body (a "+ M" reaction is not one of Arrhenia's keyed reactions).
+ */
+export function mechanismReactionKeys(
+  reaction: MechanismReaction,
+  inchiKeyOf: ReadonlyMap<string, string | null>,
+): { keys: ReactionKeys } | { unmatched: string[] } {
+  const side = (participants: readonly MechanismParticipant[]) =>
+    participants.map((p) => ({ inchiKey: inchiKeyOf.get(p.name) ?? "", coefficient: p.coefficient }));
+  const unmatched = [...reaction.reactants, ...reaction.products].filter((p) => !inchiKeyOf.get(p.name)).map((p) => p.name);
+  if (unmatched.length) return { unmatched: [...new Set(unmatched)] };
+  const reactants = side(reaction.reactants);
+  const products = side(reaction.products);
+  return { keys: { forward: reactionKey({ reactants, products }), reverse: reactionKey({ reactants: products, products: reactants }) } };
+}
+
+export interface ReactionMatch {
+  /** The stored reaction in the mechanism's forward direction: its data are compared. */
+  forward: { reactionId: number; key: string } | null;
+  /** The stored reaction of the reverse direction, marked in the report; its data are never compared with the forward rate. */
+  reverse: { reactionId: number; key: string } | null;
+}
+
+/** A mechanism reaction's stored reactions in either direction. */
+export function matchReaction(keys: ReactionKeys, reactionIdOf: ReadonlyMap<string, number>): ReactionMatch {
+  const find = (key: string) => {
+    const reactionId = reactionIdOf.get(key);
+    return reactionId === undefined ? null : { reactionId, key };
+  };
+  return { forward: find(keys.forward), reverse: keys.reverse === keys.forward ? null : find(keys.reverse) };
+}

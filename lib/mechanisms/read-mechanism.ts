@@ -1,0 +1,54 @@
+/**
+ * A mechanism file → its reactions: the one-pass pre-check, the format (Cantera YAML or the classic
+ * plain-text layout), the reader, and the reaction limit. Runs on an analysis worker thread.
+ */
+import { MAX_MECHANISM_REACTIONS, precheckMechanismText, type PrecheckFailure } from "./limits";
+import { readCanteraYamlMechanism } from "./read-cantera-yaml";
+import { readPlainTextMechanism } from "./read-plain-text";
+import type { MechanismFormat, ParsedMechanism } from "./types";
+
+export type ReadMechanismResult =
+  | { ok: true; mechanism: ParsedMechanism }
+  | {
+      ok: false;
+      failure: PrecheckFailure | { code: "too_many_reactions" | "not_a_mechanism"; line: number; column: number; message: string };
+    };
+
+/** Which format the text is in: YAML keys at the start of a line, else the block keywords. */
+export function detectMechanismFormat(text: string): MechanismFormat | null {
+  if (/^(?:---|units\s*:|phases\s*:|species\s*:|reactions\s*:|description\s*:|generator\s*:)/m.test(text)) return "cantera-yaml";
+  if (/^\s*(?:ELEM(?:ENTS)?|SPEC(?:IES)?|REAC(?:TIONS)?)\b/im.test(text)) return "plain-text";
+  return null;
+}
+
+export function readMechanism(text: string, format: MechanismFormat | "auto" = "auto"): ReadMechanismResult {
+  const failure = precheckMechanismText(text);
+  if (failure) return { ok: false, failure };
+  const chosen = format === "auto" ? detectMechanismFormat(text) : format;
+  if (!chosen) {
+    return {
+      ok: false,
+      failure: {
+        code: "not_a_mechanism",
+        line: 1,
+        column: 1,
+        message:
+          "This does not look like a mechanism: neither Cantera YAML (`units:`, `species:`, `reactions:` keys) nor the plain-text layout (ELEMENTS / SPECIES / REACTIONS blocks).",
+      },
+    };
+  }
+  const mechanism = chosen === "cantera-yaml" ? readCanteraYamlMechanism(text) : readPlainTextMechanism(text);
+  if (mechanism.reactions.length > MAX_MECHANISM_REACTIONS) {
+    const over = mechanism.reactions[MAX_MECHANISM_REACTIONS];
+    return {
+      ok: false,
+      failure: {
+        code: "too_many_reactions",
+        line: over.line,
+        column: 1,
+        message: `The mechanism has ${mechanism.reactions.length} reactions; at most ${MAX_MECHANISM_REACTIONS} can be checked at once (the ${MAX_MECHANISM_REACTIONS + 1}th is on line ${over.line}).`,
+      },
+    };
+  }
+  return { ok: true, mechanism };
+}

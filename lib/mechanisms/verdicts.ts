@@ -1,0 +1,177 @@
+/**
+ * A mechanism's k(T) against the consensus of a reaction (lib/kinetics consensus, over the reaction
+ * page's choice of datasets; with one dataset, the same engine's summary of that dataset): over the
+ * overlap of the person's use window and the measured range, the ratio k_mechanism / k_consensus at
+ * both ends and at the worst point, each inside or outside the consensus uncertainty factor f(T)
+ * (its 95 % band, between-dataset variance included); the parts of the window outside every
+ * measured range are named as extrapolation.
+ */
+import { GAS_CONSTANT } from "@/lib/kinetics/constants";
+import type { ConsensusResult } from "@/lib/kinetics/consensus";
+import type { MechanismRate } from "./types";
+
+export type MechanismVerdict = "agrees" | "disagrees" | "extrapolated" | "no_data" | "not_checked";
+
+export const VERDICT_WORDS: Record<MechanismVerdict, string> = {
+  agrees: "agrees",
+  disagrees: "disagrees",
+  extrapolated: "extrapolated",
+  no_data: "no data",
+  not_checked: "not checked yet",
+};
+
+/** The default use window, K. */
+export const DEFAULT_USE_WINDOW = { Tmin: 300, Tmax: 2500 } as const;
+
+/** Temperatures compared across the overlap, evenly spaced in 1/T. */
+export const COMPARISON_TEMPERATURES = 21;
+
+export interface RatioAt {
+  /** K */
+  T: number;
+  /** k_mechanism / k_consensus */
+  ratio: number;
+  /** Consensus uncertainty factor at T (95 %). */
+  f: number;
+  inside: boolean;
+}
+
+export interface Comparison {
+  basis: "consensus" | "single_dataset";
+  /** Datasets the consensus rests on. */
+  datasets: number;
+  /** Overlap of the use window and the measured range, K. */
+  overlap: { Tmin: number; Tmax: number };
+  low: RatioAt;
+  high: RatioAt;
+  worst: RatioAt;
+}
+
+export interface ReactionVerdict {
+  verdict: MechanismVerdict;
+  /** Parts of the use window outside every measured range, K. */
+  extrapolated: { Tmin: number; Tmax: number }[];
+  comparison: Comparison | null;
+  /** One sentence. */
+  note: string;
+}
+
+/** ln k of the consensus's preferred fit at T (canonical units). */
+export function consensusLnK(result: ConsensusResult, T: number): number {
+  if (result.preferred === "modified_arrhenius" && result.modifiedArrhenius) {
+    const p = result.modifiedArrhenius.params;
+    return p.lnA + p.n * Math.log(T / p.T0) - p.Ea / (GAS_CONSTANT * T);
+  }
+  const p = result.arrhenius.params;
+  return p.lnA - p.Ea / (GAS_CONSTANT * T);
+}
+
+/** f(T) = exp(upper − ln k̂) of the preferred fit's 95 % band, linear in 1/T between its temperatures, held at its ends. */
+export function consensusFactor(result: ConsensusResult, T: number): number {
+  const band = (result.preferred === "modified_arrhenius" && result.modifiedArrhenius ? result.modifiedArrhenius : result.arrhenius).band;
+  const n = band.T.length;
+  const half = (i: number) => band.upper[i] - band.lnk[i];
+  if (n === 0) return Infinity;
+  const x = 1 / T;
+  // Band temperatures run either way in 1/T; find the bracketing pair.
+  let best = 0;
+  for (let i = 0; i < n; i++) if (Math.abs(1 / band.T[i] - x) < Math.abs(1 / band.T[best] - x)) best = i;
+  const other =
+    best + 1 < n && (1 / band.T[best] - x) * (1 / band.T[best + 1] - x) <= 0
+      ? best + 1
+      : best - 1 >= 0 && (1 / band.T[best] - x) * (1 / band.T[best - 1] - x) <= 0
+        ? best - 1
+        : best;
+  if (other === best) return Math.exp(half(best));
+  const x0 = 1 / band.T[best];
+  const x1 = 1 / band.T[other];
+  const w = x1 === x0 ? 0 : (x - x0) / (x1 - x0);
+  return Math.exp(half(best) * (1 - w) + half(other) * w);
+}
+
+/** Parts of [Tmin, Tmax] that no range covers. */
+export function uncovered(window: { Tmin: number; Tmax: number }, ranges: readonly { Tmin: number; Tmax: number }[]) {
+  const sorted = [...ranges].filter((r) => r.Tmax >= r.Tmin).sort((a, b) => a.Tmin - b.Tmin);
+  const gaps: { Tmin: number; Tmax: number }[] = [];
+  let from = window.Tmin;
+  for (const r of sorted) {
+    if (r.Tmin > from) gaps.push({ Tmin: from, Tmax: Math.min(r.Tmin, window.Tmax) });
+    from = Math.max(from, r.Tmax);
+    if (from >= window.Tmax) break;
+  }
+  if (from < window.Tmax) gaps.push({ Tmin: from, Tmax: window.Tmax });
+  return gaps.filter((g) => g.Tmax > g.Tmin);
+}
+
+const round = (T: number) => Math.round(T);
+const describeRanges = (ranges: readonly { Tmin: number; Tmax: number }[]) =>
+  ranges.map((r) => `${round(r.Tmin)}–${round(r.Tmax)} K`).join(", ");
+const factorWords = (ratio: number) => (ratio >= 1 ? `${formatFactor(ratio)} × above` : `${formatFactor(1 / ratio)} × below`);
+function formatFactor(x: number): string {
+  return x >= 100 ? x.toExponential(1) : x.toPrecision(2);
+}
+
+/**
+ * The verdict of one mechanism rate against one reaction's consensus.
+ *
+ * @param ranges every dataset's measured range (K), whether or not it entered the consensus
+ */
+export function judgeMechanismRate({
+  rate,
+  window,
+  result,
+  basis,
+  ranges,
+}: {
+  rate: MechanismRate;
+  window: { Tmin: number; Tmax: number };
+  result: ConsensusResult | null;
+  basis: "consensus" | "single_dataset";
+  ranges: readonly { Tmin: number; Tmax: number }[];
+}): ReactionVerdict {
+  const extrapolated = uncovered(window, ranges);
+  if (!result) {
+    return { verdict: "no_data", extrapolated: [], comparison: null, note: "No published data can be compared for this reaction." };
+  }
+  const Tmin = Math.max(window.Tmin, result.range.Tmin);
+  const Tmax = Math.min(window.Tmax, result.range.Tmax);
+  if (!(Tmax >= Tmin)) {
+    return {
+      verdict: "extrapolated",
+      extrapolated,
+      comparison: null,
+      note: `The data cover ${round(result.range.Tmin)}–${round(result.range.Tmax)} K, outside the use window ${round(window.Tmin)}–${round(window.Tmax)} K: the mechanism is used at ${describeRanges(extrapolated)} without measurements.`,
+    };
+  }
+  const at = (T: number): RatioAt => {
+    const lnMech = Math.log(rate.A) + rate.b * Math.log(T) - rate.Ea / (GAS_CONSTANT * T);
+    const ratio = Math.exp(lnMech - consensusLnK(result, T));
+    const f = consensusFactor(result, T);
+    return { T, ratio, f, inside: Math.abs(Math.log(ratio)) <= Math.log(f) };
+  };
+  const count = Tmax > Tmin ? COMPARISON_TEMPERATURES : 1;
+  const points: RatioAt[] = [];
+  for (let i = 0; i < count; i++) {
+    const x = 1 / Tmax + ((1 / Tmin - 1 / Tmax) * i) / Math.max(1, count - 1);
+    points.push(at(i === 0 ? Tmax : i === count - 1 ? Tmin : 1 / x));
+  }
+  // Worst: the most uncertainty factors away (|ln ratio| / ln f).
+  const score = (p: RatioAt) => Math.abs(Math.log(p.ratio)) / Math.max(Math.log(p.f), 1e-12);
+  const worst = points.reduce((a, b) => (score(b) > score(a) ? b : a));
+  const comparison: Comparison = {
+    basis,
+    datasets: result.included,
+    overlap: { Tmin, Tmax },
+    low: points[points.length - 1],
+    high: points[0],
+    worst,
+  };
+  const disagrees = points.some((p) => !p.inside);
+  const over = `over ${round(Tmin)}–${round(Tmax)} K`;
+  const against = basis === "consensus" ? `the consensus of ${result.included} datasets` : "the one dataset";
+  let note = disagrees
+    ? `Outside the uncertainty factor of ${against} ${over}: ${factorWords(worst.ratio)} at ${round(worst.T)} K (f = ${worst.f.toPrecision(2)}).`
+    : `Inside the uncertainty factor of ${against} ${over} (at most ${factorWords(worst.ratio)}, at ${round(worst.T)} K).`;
+  if (extrapolated.length) note += ` Used without measurements at ${describeRanges(extrapolated)}.`;
+  return { verdict: disagrees ? "disagrees" : "agrees", extrapolated, comparison, note };
+}

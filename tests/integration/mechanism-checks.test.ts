@@ -1,0 +1,192 @@
+import { beforeAll, describe, expect, it, vi } from "vitest";
+
+vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
+
+import { GET as getCheck } from "@/app/api/v1/mechanism-checks/[id]/route";
+import { POST as shareCheck } from "@/app/api/v1/mechanism-checks/[id]/share/route";
+import { POST as postCheck } from "@/app/api/v1/mechanism-checks/route";
+import { GET as health } from "@/app/api/health/route";
+import { getCurrentUser } from "@/lib/auth/session";
+import { saveSpeciesChoices } from "@/lib/mechanisms/queries";
+import { createUser, type UserDto } from "@/lib/users/queries";
+import { consensusDocument, publish } from "./consensus-fixtures";
+import { sql, uniqueEmail } from "./helpers";
+
+// Br + undecane → HBr + undecyl: no other test uses this chain length (consensus-fixtures.ts). Invented numbers:
+// k = 2.2e-12 exp(−1750 K/T) cm³ molecule⁻¹ s⁻¹ (times 1.05 for the second set), 250–400 K.
+const CARBONS = 11;
+
+let owner: UserDto, other: UserDto, curator: UserDto, admin: UserDto;
+
+const as = (u: UserDto | null) => vi.mocked(getCurrentUser).mockResolvedValue(u);
+const ctx = (id: number | string = 0) => ({ params: Promise.resolve({ id: String(id) }) });
+const req = (url: string, init: RequestInit = {}) => new Request(`http://127.0.0.1${url}`, init);
+const post = (body: BodyInit, { json = true, query = "" } = {}) =>
+  postCheck(
+    req(`/api/v1/mechanism-checks${query}`, {
+      method: "POST",
+      body,
+      headers: { "content-type": json ? "application/json" : "text/plain" },
+    }),
+    ctx(),
+  );
+
+const MECHANISM = `! invented demo mechanism for the test
+ELEMENTS C H BR END
+SPECIES BR C11H24 HBR C11H23 XQ END
+REACTIONS MOLECULES KELVINS
+BR+C11H24=>HBR+C11H23     2.2E-12  0.0  1750.0   ! as the data say: agrees
+BR+C11H24=>HBR+C11H23     2.2E-11  0.0  1750.0   ! ten times faster: disagrees
+DUPLICATE
+HBR+C11H23=>BR+C11H24     1.0E-12  0.0  0.0      ! reverse direction only: no data
+BR+BR+M=>XQ+M             1.0E-32  0.0  0.0      ! three-body: not checked yet
+XQ+BR=>HBR+C11H23         1.0E-12  0.0  0.0      ! unknown species: no data
+BR+C11H24=>HBR+C11H23     2.2E-12  0.0  zero     ! malformed: listed, line 11
+END
+`;
+
+beforeAll(async () => {
+  const mk = (tag: string, role: UserDto["role"] = "researcher") =>
+    createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", role, verified: true });
+  [owner, other, curator, admin] = await Promise.all([mk("modeller"), mk("other"), mk("curator", "curator"), mk("admin", "admin")]);
+  const first = await publish(consensusDocument({ carbons: CARBONS, title: "Br + undecane one", category: "experiment" }), {
+    owner,
+    curator,
+  });
+  await publish(consensusDocument({ carbons: CARBONS, title: "Br + undecane two", category: "experiment", factor: 1.05 }), {
+    owner,
+    curator,
+  });
+  // The mechanism's names are the person's own: remembered choices map them (the species table is shared with other tests).
+  const keys = await sql<{ inchi_key: string; smiles: string }[]>`
+    select s.inchi_key, s.canonical_smiles as smiles from reaction_participants p join species s on s.id = p.species_id where p.reaction_id = ${first.reactionId}`;
+  const bySmiles = (test: (s: string) => boolean) => keys.find((k) => test(k.smiles))!.inchi_key;
+  await saveSpeciesChoices({
+    userId: owner.id,
+    choices: [
+      { name: "BR", inchiKey: bySmiles((s) => s === "[Br]") },
+      { name: "HBR", inchiKey: bySmiles((s) => s === "Br") },
+      { name: "C11H24", inchiKey: bySmiles((s) => s === "C".repeat(CARBONS)) },
+      { name: "C11H23", inchiKey: bySmiles((s) => s.startsWith("[CH2]")) },
+    ],
+  });
+});
+
+describe("POST /api/v1/mechanism-checks", () => {
+  it("refuses anonymous callers", async () => {
+    as(null);
+    expect((await post(JSON.stringify({ text: MECHANISM }))).status).toBe(401);
+  });
+
+  it.each([
+    ["researcher", () => owner],
+    ["curator", () => curator],
+    ["admin", () => admin],
+  ])("lets a %s check a mechanism", async (_role, who) => {
+    as(who());
+    const res = await post(JSON.stringify({ text: MECHANISM, window: { Tmin: 250, Tmax: 400 } }));
+    expect(res.status).toBe(201);
+  });
+
+  it("gives every verdict, lists the malformed line, and remembers the owner's choices", async () => {
+    as(owner);
+    const res = await post(MECHANISM, { json: false, query: "?Tmin=300&Tmax=2500&name=Test%20mechanism" });
+    expect(res.status).toBe(201);
+    const { data } = await res.json();
+    expect(res.headers.get("location")).toBe(`/api/v1/mechanism-checks/${data.id}`);
+    expect(data.summary).toMatchObject({ reactions: 6, agrees: 1, disagrees: 1, no_data: 2, not_checked: 2, extrapolatedAny: 2 });
+    expect(data.problems[0]).toMatchObject({ line: 11 });
+    expect(data.problems[0].message).toMatch(/"zero" is not a number \(Ea\)/);
+
+    const got = await getCheck(req(`/api/v1/mechanism-checks/${data.id}`), ctx(data.id));
+    const { data: check } = await got.json();
+    expect(check.name).toBe("Test mechanism");
+    expect(check.source).toBeUndefined();
+    const byLine = Object.fromEntries(check.report.reactions.map((r: { line: number }) => [r.line, r]));
+    expect(byLine[5].verdict).toBe("agrees");
+    expect(byLine[5].extrapolated).toEqual([{ Tmin: 400, Tmax: 2500 }]);
+    expect(byLine[5].comparison.basis).toBe("consensus");
+    expect(byLine[5].comparison.overlap).toEqual({ Tmin: 300, Tmax: 400 });
+    expect(byLine[6].verdict).toBe("disagrees");
+    expect(byLine[6].comparison.worst.ratio).toBeGreaterThan(8);
+    expect(byLine[8].verdict).toBe("no_data");
+    expect(byLine[8].note).toMatch(/reverse direction only/);
+    expect(byLine[5].reverse).toBeNull();
+    expect(byLine[9].verdict).toBe("not_checked");
+    expect(byLine[10].note).toMatch(/Species not matched: XQ/);
+    expect(check.report.about.caution).toMatch(/extrapolation/i);
+
+    const csv = await (await getCheck(req(`/api/v1/mechanism-checks/${data.id}?format=csv`), ctx(data.id))).text();
+    expect(csv.split("\r\n")[1]).toMatch(/^"# caution: .*extrapolation/i);
+    expect(csv).toMatch(/\n1,5,BR\+C11H24=>HBR\+C11H23,elementary,agrees,400-2500,/);
+  });
+
+  it("keeps a check to its owner until the owner shares it", async () => {
+    as(owner);
+    const { data } = await (await post(JSON.stringify({ text: MECHANISM }))).json();
+    as(other);
+    expect((await getCheck(req(`/api/v1/mechanism-checks/${data.id}`), ctx(data.id))).status).toBe(404);
+    expect(
+      (await shareCheck(req(`/api/v1/mechanism-checks/${data.id}/share`, { method: "POST", body: '{"shared": true}' }), ctx(data.id)))
+        .status,
+    ).toBe(404);
+    as(owner);
+    const shared = await (
+      await shareCheck(req(`/api/v1/mechanism-checks/${data.id}/share`, { method: "POST", body: '{"shared": true}' }), ctx(data.id))
+    ).json();
+    const token = new URL(shared.data.url, "http://x").searchParams.get("share")!;
+    as(null);
+    expect((await getCheck(req(`/api/v1/mechanism-checks/${data.id}?share=${token}`), ctx(data.id))).status).toBe(200);
+    expect((await getCheck(req(`/api/v1/mechanism-checks/${data.id}?share=${token}x`), ctx(data.id))).status).toBe(404);
+    as(owner);
+    await shareCheck(req(`/api/v1/mechanism-checks/${data.id}/share`, { method: "POST", body: '{"shared": false}' }), ctx(data.id));
+    as(null);
+    expect((await getCheck(req(`/api/v1/mechanism-checks/${data.id}?share=${token}`), ctx(data.id))).status).toBe(404);
+    expect((await getCheck(req(`/api/v1/mechanism-checks/abc`), ctx("abc"))).status).toBe(404);
+  });
+});
+
+describe("bad input", () => {
+  it.each([
+    ["a YAML line error", "units: {length: cm}\nreactions:\n- equation: A => B\n  rate-constant: {A: 1, b: 0, Ea: 0\n", 201],
+    ["no mechanism at all", "hello", 422],
+    ["a NUL byte", "REACTIONS\nA=>B 1 0 0\u0000\nEND\n", 422],
+  ])("answers %s", async (_what, text, status) => {
+    as(owner);
+    const res = await post(JSON.stringify({ text }));
+    expect(res.status).toBe(status);
+    if (status === 422) expect((await res.json()).errors[0].pointer).toBe("/text");
+  });
+
+  it("names the window's problem and unknown unit keywords with the allowed ones", async () => {
+    as(owner);
+    const res = await post(
+      JSON.stringify({ text: "SPECIES A B END\nREACTIONS KCAL\nA=>B 1 0 0\nEND\n", window: { Tmin: 900, Tmax: 300 } }),
+    );
+    expect(res.status).toBe(422);
+    expect((await res.json()).errors[0].pointer).toBe("/window/Tmax");
+    const units = await (await post(JSON.stringify({ text: "SPECIES A B END\nREACTIONS KCAL\nA=>B 1 0 0\nEND\n" }))).json();
+    expect(units.data.problems[0].message).toMatch(/unknown unit keyword "KCAL"; allowed: CAL\/MOLE/);
+    expect(units.data.summary.not_checked).toBe(1);
+  });
+
+  it("refuses over 20 MB with a 413 before reading it", async () => {
+    as(owner);
+    const res = await post("x".repeat(20 * 1024 * 1024 + 70 * 1024), { json: false });
+    expect(res.status).toBe(413);
+  });
+
+  it("refuses the nested-bracket bomb quickly, naming line and column, and the server still answers", async () => {
+    as(owner);
+    const bomb = JSON.stringify({ text: "reactions: " + "[".repeat(1_000_000) + "]".repeat(1_000_000) });
+    const started = performance.now();
+    const [res, alive] = await Promise.all([post(bomb), health()]);
+    expect(performance.now() - started).toBeLessThan(3000);
+    expect(res.status).toBe(422);
+    const problem = await res.json();
+    expect(problem.detail ?? problem.title).toBeDefined();
+    expect(problem.errors[0].value).toMatchObject({ line: 1, column: 75, code: "too_deep" });
+    expect(alive.status).toBe(200);
+    expect((await health()).status).toBe(200);
+  });
+});
