@@ -221,7 +221,9 @@ export default async function ReactionPage({
               kUnitLabel={kLabel}
               band={preferred ? preferred.band : null}
               series={published.map((v) => ({
-                label: `v${v.number} · ${v.title.split(":").pop()?.trim() ?? v.title}`,
+                // Named as the consensus's words and the list name it.
+                label: labels.get(String(v.versionId)) ?? consensusLabel(v),
+                shortLabel: `dataset ${v.datasetId}`,
                 ...thinned(
                   plotPoints(
                     v,
