@@ -74,9 +74,14 @@ function thinForPlot(counts: number[]) {
   return { thinned: true, perDataset, total, drawn: counts.reduce((a, n) => a + Math.min(n, perDataset), 0) };
 }
 
-/** At most `most` points of a series (used and unused together), in temperature order, ends kept; ln k to 6 decimals. */
+/** At most `most` points of a series (used and unused together), in temperature order, ends kept; ln k to 6 decimals, σ(ln k) to 4. */
 function thinned<S extends { points: SeriesPoint[]; unused?: SeriesPoint[] }>(series: S, most: number): S {
-  const round = (p: SeriesPoint): SeriesPoint => ({ ...p, lnk: Math.round(p.lnk * 1e6) / 1e6 });
+  const round = (p: SeriesPoint): SeriesPoint => ({
+    ...p,
+    lnk: Math.round(p.lnk * 1e6) / 1e6,
+    // An error bar's half-length, drawn, not computed with: four decimals of ln k (0.01 %).
+    ...(p.sigmaLnK ? { sigmaLnK: Math.round(p.sigmaLnK * 1e4) / 1e4 } : {}),
+  });
   const all = [...series.points.map((p) => ({ p, used: true })), ...(series.unused ?? []).map((p) => ({ p, used: false }))];
   if (all.length <= most) return { ...series, points: series.points.map(round), unused: series.unused?.map(round) };
   all.sort((a, b) => a.p.T - b.p.T);
