@@ -2,7 +2,7 @@ import { classPath, speciesPath, versionPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound, permanentRedirect } from "next/navigation";
-import { ConsensusPlot, type SeriesPoint } from "@/components/consensus-plot";
+import { ConsensusPlot, type SeriesPoint, type SeriesPoints } from "@/components/consensus-plot";
 import { StatisticGlossary } from "@/components/statistic-term";
 import { ConsensusComparisons, ConsensusSummary, comparisonCell } from "@/components/consensus-report";
 import { StateLabel } from "@/components/state-label";
@@ -91,6 +91,18 @@ function thinned<S extends { points: SeriesPoint[]; unused?: SeriesPoint[] }>(se
     ...series,
     points: kept.filter((x) => x.used).map((x) => round(x.p)),
     unused: kept.filter((x) => !x.used).map((x) => round(x.p)),
+  };
+}
+
+/** A series without the fields at their defaults (no flag, no unused points, no note): the page sends every series to the browser. */
+function withoutDefaults(s: SeriesPoints): SeriesPoints {
+  const { unused, unusedWhy, excluded, off, note, ...rest } = s;
+  return {
+    ...rest,
+    ...(unused?.length ? { unused, unusedWhy } : {}),
+    ...(excluded ? { excluded } : {}),
+    ...(off ? { off } : {}),
+    ...(note ? { note } : {}),
   };
 }
 
@@ -225,22 +237,24 @@ export default async function ReactionPage({
               tableHref="#list-heading"
               kUnitLabel={kLabel}
               band={preferred ? preferred.band : null}
-              series={published.map((v) => ({
-                // Named as the consensus's words and the list name it.
-                label: labels.get(String(v.versionId)) ?? consensusLabel(v),
-                shortLabel: `dataset ${v.datasetId}`,
-                ...thinned(
-                  plotPoints(
-                    v,
-                    selection.inputs.find((d) => d.id === String(v.versionId)),
-                    member(v.versionId),
+              series={published.map((v) =>
+                withoutDefaults({
+                  // Named as the consensus's words and the list name it.
+                  label: labels.get(String(v.versionId)) ?? consensusLabel(v),
+                  shortLabel: `dataset ${v.datasetId}`,
+                  ...thinned(
+                    plotPoints(
+                      v,
+                      selection.inputs.find((d) => d.id === String(v.versionId)),
+                      member(v.versionId),
+                    ),
+                    plotted.perDataset,
                   ),
-                  plotted.perDataset,
-                ),
-                excluded: !used.has(v.versionId) || member(v.versionId)?.included === false,
-                off: member(v.versionId)?.disagreement?.off === true,
-                note: againstOthers(v.versionId) === "—" ? undefined : `Against the others: ${againstOthers(v.versionId)}`,
-              }))}
+                  excluded: !used.has(v.versionId) || member(v.versionId)?.included === false,
+                  off: member(v.versionId)?.disagreement?.off === true,
+                  note: againstOthers(v.versionId) === "—" ? undefined : `Against the others: ${againstOthers(v.versionId)}`,
+                }),
+              )}
             />
             {published.length < 2 && (
               <p className="text-sm">
