@@ -9,7 +9,7 @@
  * (checkAndAnalyseDocument: schema, semantics, normalisation, the kinetics fits), so the stored
  * points, analyses and summary columns are what a real deposit of that document would store.
  */
-import { createWriteStream, mkdirSync, rmSync, createReadStream } from "node:fs";
+import { createWriteStream, mkdirSync, readFileSync, rmSync, createReadStream } from "node:fs";
 import { once } from "node:events";
 import path from "node:path";
 import { pipeline } from "node:stream/promises";
@@ -216,6 +216,17 @@ export interface FillReport {
   versions: number;
   points: number;
   seconds: Record<string, number>;
+}
+
+/** drizzle/0028's own statement that gives the versions already public their OAI datestamps (the one rule, read from the migration). */
+function oaiDatestampBackfill(): string {
+  const migration = readFileSync(path.join(process.cwd(), "drizzle", "0028_oai_record_datestamps.sql"), "utf8");
+  const statement = migration
+    .split("--> statement-breakpoint")
+    .map((part) => part.trim())
+    .find((part) => /^(--[^\n]*\n)*INSERT INTO oai_record_datestamps/.test(part));
+  if (!statement) throw new Error("drizzle/0028_oai_record_datestamps.sql has no backfill of oai_record_datestamps");
+  return statement;
 }
 
 /**
@@ -488,18 +499,7 @@ export async function fillBenchDatabase(
     await tx`update dataset_versions v set state = 'retracted', retracted_at = p.published_at + interval '90 days',
       retraction_notice = 'Retracted by the authors: a calibration error affects every value.' from bench_publish p where p.id = v.id and p.retract`;
     await tx`alter table dataset_versions enable trigger dataset_versions_oai_datestamp`;
-    await tx`insert into oai_record_datestamps (version_id, changed_at)
-      select id, greatest(published_at, retracted_at,
-          case when previous_published < coalesce(retracted_at, 'infinity') then previous_published end,
-          case when next_published < coalesce(retracted_at, 'infinity') then next_published end)
-        from (
-          select id, published_at, retracted_at,
-              lag(published_at) over w as previous_published, lead(published_at) over w as next_published
-            from dataset_versions
-            where version_identifier is not null and state in ('published', 'retracted')
-            window w as (partition by dataset_id order by number)
-        ) public_versions
-        where published_at is not null`;
+    await tx.unsafe(oaiDatestampBackfill());
   });
   lap("publish");
   await owner`analyze`;
