@@ -15,7 +15,10 @@ export interface SeriesPoint {
 }
 
 export interface SeriesPoints {
+  /** How the page names the dataset (the tooltip and a legend of few datasets). */
   label: string;
+  /** A short name of the same dataset ("dataset 12"), which a legend of many datasets lists by marker. */
+  shortLabel?: string;
   points: SeriesPoint[];
   /** Drawn grey when left out of the consensus (e.g. a suspected unit mistake). */
   excluded?: boolean;
@@ -311,20 +314,52 @@ const seriesName = (s: SeriesPoints) => (s.excluded ? `${s.label} (left out)` : 
 const unusedName = (s: SeriesPoints) =>
   `${s.label}: ${s.unused?.length ?? 0} point${s.unused?.length === 1 ? "" : "s"} not used (${s.unusedWhy ?? "outside the window"}), drawn faded`;
 
+/**
+ * Above this many datasets the legend lists datasets by marker (one icon for each shape, colour and
+ * state, followed by the datasets drawn so) instead of one icon per dataset: a reaction with hundreds
+ * of datasets kept hundreds of icons, a third of its page.
+ */
+export const LEGEND_BY_MARKER_ABOVE = 2 * shapes.length;
+
 /** The legend's entries in the order the plot draws them, each mark with the style it is drawn in. */
 export function legendEntries(series: SeriesPoints[], withBand: boolean): LegendEntry[] {
+  const bands: LegendEntry[] = withBand
+    ? [
+        { kind: "band" as const, label: BAND_NAME },
+        { kind: "line" as const, label: LINE_NAME },
+      ]
+    : [];
+  if (series.length > LEGEND_BY_MARKER_ABOVE) return [...bands, ...legendByMarker(series)];
   return [
-    ...(withBand
-      ? [
-          { kind: "band" as const, label: BAND_NAME },
-          { kind: "line" as const, label: LINE_NAME },
-        ]
-      : []),
+    ...bands,
     ...series.map((s, i) => ({ kind: "mark" as const, label: seriesName(s), style: markStyles(i, Boolean(s.excluded)).points })),
     ...series.flatMap((s, i) =>
       !s.excluded && s.unused?.length ? [{ kind: "mark" as const, label: unusedName(s), style: markStyles(i, false).unused }] : [],
     ),
   ];
+}
+
+/** One entry per way of drawing (marker style and state), naming the datasets drawn that way, in the plot's order. */
+function legendByMarker(series: SeriesPoints[]): LegendEntry[] {
+  const groups = new Map<string, { style: MarkStyle; what: string; names: string[]; order: number }>();
+  const add = (style: MarkStyle, what: string, name: string, order: number) => {
+    const key = `${what}|${JSON.stringify(style)}`;
+    const g = groups.get(key);
+    if (g) g.names.push(name);
+    else groups.set(key, { style, what, names: [name], order });
+  };
+  series.forEach((s, i) => {
+    const name = s.shortLabel ?? s.label;
+    const what = s.excluded ? "left out" : s.off ? "off the others" : "";
+    add(markStyles(i, Boolean(s.excluded)).points, what, name, s.excluded ? 2 : s.off ? 1 : 0);
+  });
+  series.forEach((s, i) => {
+    if (s.excluded || !s.unused?.length) return;
+    add(markStyles(i, false).unused, `points not used (${s.unusedWhy ?? "outside the window"}), drawn faded`, s.shortLabel ?? s.label, 3);
+  });
+  return [...groups.values()]
+    .sort((a, b) => a.order - b.order)
+    .map((g) => ({ kind: "mark" as const, label: `${g.names.join(", ")}${g.what ? `: ${g.what}` : ""}`, style: g.style }));
 }
 
 /** The hovered (or keyboard-focused) point: its dataset, T and k; the consensus line's value elsewhere. */

@@ -7,7 +7,8 @@ import { postgresEngine } from "./engines/postgres";
 import { displayEquations } from "./lexicon";
 import { resolveQuery } from "./resolve-query";
 import { CAUTION } from "@/lib/analyses/analyse-request";
-import { cachedPublic, SEARCH_TAG } from "@/lib/public-cache";
+import { answerCache } from "./answer-cache";
+import { getSearchGeneration } from "./queries";
 import type { FacetCount, ParsedQuery, SearchAnswer, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
 
 /**
@@ -84,22 +85,23 @@ async function answerOf(request: SearchRequest, engine?: SearchEngine): Promise<
 }
 
 /**
- * The PostgreSQL engine's answers, cached per request (lib/public-cache.ts) under the `search` tag
- * that publication, retraction, a re-fit and a consensus exclusion invalidate when they commit:
- * that engine reads the same database, so a cached answer is never older than the last such
- * change made through the app. Meilisearch's answers are not cached: its index catches up through
- * the outbox after the change, later than the invalidation.
+ * The PostgreSQL engine's answers, kept per request as JSON text while the search documents'
+ * generation mark stays (./answer-cache.ts): that engine reads the same database, so a kept answer
+ * is never older than the last committed change to the documents, whoever made it. Meilisearch's
+ * answers are not kept: its index catches up through the outbox after the change.
  */
-const cachedPostgresAnswer = cachedPublic(
-  (request: SearchRequest) => answerOf(request, postgresEngine),
-  "search-answer",
-  () => [SEARCH_TAG],
-);
+const answers = answerCache(getSearchGeneration, { maxBytes: 32 * 2 ** 20, maxEntryBytes: 2 * 2 ** 20 });
 
-/** The search in the shape GET /api/v1/search answers, with the caution sentence: the route and the page's first answer. */
-export async function searchAnswer(request: SearchRequest, engine?: SearchEngine): Promise<SearchAnswer> {
+/** The search as the JSON text GET /api/v1/search answers (with the caution sentence). */
+export async function searchAnswerJson(request: SearchRequest, engine?: SearchEngine): Promise<string> {
   const chosen = engine ?? currentSearchEngine();
-  return chosen === postgresEngine ? cachedPostgresAnswer(request) : answerOf(request, chosen);
+  if (chosen !== postgresEngine) return JSON.stringify(await answerOf(request, chosen));
+  return answers.get(JSON.stringify(request), async () => JSON.stringify(await answerOf(request, postgresEngine)));
+}
+
+/** The search in the shape GET /api/v1/search answers, with the caution sentence: the page's first answer. */
+export async function searchAnswer(request: SearchRequest, engine?: SearchEngine): Promise<SearchAnswer> {
+  return JSON.parse(await searchAnswerJson(request, engine)) as SearchAnswer;
 }
 
 export { parseSearchParams, parseSearchParamsOrThrow, toSearchParams } from "./params";

@@ -159,6 +159,34 @@ describe("GET /api/v1/search", () => {
     expect(problem.errors.map((e: { parameter: string }) => e.parameter)).toContain(parameter);
   });
 
+  it("answers a repeated search from memory, yet shows a publication and a retraction at the very next search", async () => {
+    const owner = await createUser({ email: uniqueEmail("ac-owner"), name: "Kept Owner", passwordHash: "x", verified: true });
+    const curator = await createUser({
+      email: uniqueEmail("ac-cur"),
+      name: "Kept Curator",
+      passwordHash: "x",
+      role: "curator",
+      verified: true,
+    });
+    const word = `keptanswer${Date.now().toString(36)}`;
+    const path = `/api/v1/search?q=${word}`;
+    const hits = async () => {
+      const res = await call(searchGET, path);
+      expect(res.status).toBe(200);
+      return ((await res.json()) as { total: number; hits: { retracted: boolean }[] }).hits.map((h) => h.retracted);
+    };
+    expect(await hits()).toEqual([]);
+    const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: `Answer cache ${word}` } });
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    // A submission is not public: the kept answer (nothing) is still right.
+    expect(await hits()).toEqual([]);
+    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
+    expect(await hits()).toEqual([false]);
+    expect(await hits()).toEqual([false]);
+    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "retract", reason: "Withdrawn by its authors." });
+    expect(await hits()).toEqual([true]);
+  });
+
   it("refuses a cursor carried over to another search", async () => {
     const first = await (await call(searchGET, "/api/v1/search?limit=1")).json();
     expect(first.nextCursor).toBeTruthy();

@@ -2,7 +2,7 @@ import { classPath, speciesPath, versionPath } from "@/lib/identifiers/paths";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound, permanentRedirect } from "next/navigation";
-import { ConsensusPlot, type SeriesPoint } from "@/components/consensus-plot";
+import { ConsensusPlot, type SeriesPoint, type SeriesPoints } from "@/components/consensus-plot";
 import { StatisticGlossary } from "@/components/statistic-term";
 import { ConsensusComparisons, ConsensusSummary, comparisonCell } from "@/components/consensus-report";
 import { StateLabel } from "@/components/state-label";
@@ -68,9 +68,14 @@ function thinForPlot(counts: number[]) {
   return { thinned: true, perDataset, total, drawn: counts.reduce((a, n) => a + Math.min(n, perDataset), 0) };
 }
 
-/** At most `most` points of a series (used and unused together), in temperature order, ends kept; ln k to 6 decimals. */
+/** At most `most` points of a series (used and unused together), in temperature order, ends kept; ln k to 6 decimals, σ(ln k) to 4. */
 function thinned<S extends { points: SeriesPoint[]; unused?: SeriesPoint[] }>(series: S, most: number): S {
-  const round = (p: SeriesPoint): SeriesPoint => ({ ...p, lnk: Math.round(p.lnk * 1e6) / 1e6 });
+  const round = (p: SeriesPoint): SeriesPoint => ({
+    ...p,
+    lnk: Math.round(p.lnk * 1e6) / 1e6,
+    // An error bar's half-length, drawn, not computed with: four decimals of ln k (0.01 %).
+    ...(p.sigmaLnK ? { sigmaLnK: Math.round(p.sigmaLnK * 1e4) / 1e4 } : {}),
+  });
   const all = [...series.points.map((p) => ({ p, used: true })), ...(series.unused ?? []).map((p) => ({ p, used: false }))];
   if (all.length <= most) return { ...series, points: series.points.map(round), unused: series.unused?.map(round) };
   all.sort((a, b) => a.p.T - b.p.T);
@@ -80,6 +85,18 @@ function thinned<S extends { points: SeriesPoint[]; unused?: SeriesPoint[] }>(se
     ...series,
     points: kept.filter((x) => x.used).map((x) => round(x.p)),
     unused: kept.filter((x) => !x.used).map((x) => round(x.p)),
+  };
+}
+
+/** A series without the fields at their defaults (no flag, no unused points, no note): the page sends every series to the browser. */
+function withoutDefaults(s: SeriesPoints): SeriesPoints {
+  const { unused, unusedWhy, excluded, off, note, ...rest } = s;
+  return {
+    ...rest,
+    ...(unused?.length ? { unused, unusedWhy } : {}),
+    ...(excluded ? { excluded } : {}),
+    ...(off ? { off } : {}),
+    ...(note ? { note } : {}),
   };
 }
 
@@ -215,20 +232,24 @@ export default async function ReactionPage({
               tableHref="#list-heading"
               kUnitLabel={kLabel}
               band={preferred ? preferred.band : null}
-              series={published.map((v) => ({
-                label: `v${v.number} · ${v.title.split(":").pop()?.trim() ?? v.title}`,
-                ...thinned(
-                  plotPoints(
-                    v,
-                    selection.inputs.find((d) => d.id === String(v.versionId)),
-                    member(v.versionId),
+              series={published.map((v) =>
+                withoutDefaults({
+                  // Named as the consensus's words and the list name it.
+                  label: labels.get(String(v.versionId)) ?? consensusLabel(v),
+                  shortLabel: `dataset ${v.datasetId}`,
+                  ...thinned(
+                    plotPoints(
+                      v,
+                      selection.inputs.find((d) => d.id === String(v.versionId)),
+                      member(v.versionId),
+                    ),
+                    plotted.perDataset,
                   ),
-                  plotted.perDataset,
-                ),
-                excluded: !used.has(v.versionId) || member(v.versionId)?.included === false,
-                off: member(v.versionId)?.disagreement?.off === true,
-                note: againstOthers(v.versionId) === "—" ? undefined : `Against the others: ${againstOthers(v.versionId)}`,
-              }))}
+                  excluded: !used.has(v.versionId) || member(v.versionId)?.included === false,
+                  off: member(v.versionId)?.disagreement?.off === true,
+                  note: againstOthers(v.versionId) === "—" ? undefined : `Against the others: ${againstOthers(v.versionId)}`,
+                }),
+              )}
             />
             {published.length < 2 && (
               <p className="text-sm">

@@ -1,7 +1,7 @@
 import { createElement as h } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { describe, expect, it } from "vitest";
-import { ConsensusPlot, legendEntries, markStyles, type SeriesPoints } from "@/components/consensus-plot";
+import { ConsensusPlot, LEGEND_BY_MARKER_ABOVE, legendEntries, markStyles, type SeriesPoints } from "@/components/consensus-plot";
 import {
   betweenDatasetWords,
   readerVerdict,
@@ -66,6 +66,38 @@ describe("the reaction page's plot legend", () => {
     // The same objects paint the plot's markers (markStyles), so the two cannot drift apart.
     expect(markStyles(7, false).points.fill).toBe("#ffffff");
     expect(markStyles(2, true).points.stroke).toBe("#8a939e");
+  });
+});
+
+describe("the legend of a reaction with many datasets", () => {
+  it("lists the datasets drawn with each marker beside one icon, not one icon per dataset", () => {
+    const n = 200;
+    const s = series(n).map((x, i) => ({
+      ...x,
+      label: `“title ${i + 1}” (dataset ${i + 1})`,
+      shortLabel: `dataset ${i + 1}`,
+      ...(i === 5 ? { off: true } : {}),
+    }));
+    expect(n).toBeGreaterThan(LEGEND_BY_MARKER_ABOVE);
+    const entries = legendEntries(s, true);
+    // The band and the line, 14 markers (7 shapes filled then hollow), one of them also for the dataset off the others,
+    // the left-out dataset in grey, the unused points of dataset 2.
+    expect(entries.length).toBeLessThanOrEqual(2 + 14 + 3);
+    const labels = entries.map((e) => e.label);
+    expect(labels[2].startsWith("dataset 1, dataset 15, dataset 29, ")).toBe(true);
+    expect(labels).toContain("dataset 3: left out");
+    expect(labels).toContain("dataset 6: off the others");
+    expect(labels).toContain("dataset 2: points not used (outside the window), drawn faded");
+    // Every dataset is named exactly once among the markers of its own points.
+    const named = entries
+      .filter((e) => e.kind === "mark" && !e.label.includes("points not used"))
+      .flatMap((e) => e.label.replace(/: .*$/, "").split(", "));
+    expect(named.sort()).toEqual(s.map((x) => x.shortLabel).sort());
+    // Each group is drawn in the style of the datasets it names (dataset 8 is the first hollow one).
+    const hollow = entries.find((e) => e.label.startsWith("dataset 8, "));
+    expect(hollow?.kind === "mark" && hollow.style).toEqual(markStyles(7, false).points);
+    const html = renderToStaticMarkup(h(ConsensusPlot, { series: s, band: null, kUnitLabel: "cm³ molecule⁻¹ s⁻¹" }));
+    expect(legendMarks(html)).toHaveLength(legendEntries(s, false).length);
   });
 });
 

@@ -4,7 +4,7 @@ import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { AppError } from "@/lib/errors";
 import { PUBLIC_READ_CACHE } from "@/lib/http/conditional";
-import { parseSearchParamsOrThrow, searchAnswer } from "@/lib/search";
+import { parseSearchParamsOrThrow, searchAnswerJson } from "@/lib/search";
 import { depositNewDataset } from "@/lib/datasets/deposits";
 import type { VersionDto } from "@/lib/datasets/queries";
 import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
@@ -19,7 +19,7 @@ export const GET = withApi(
       throw new AppError("bad_request", "This endpoint lists datasets; for reactions use /api/v1/search?view=reactions", [
         { pointer: "/view", parameter: "view", message: "view must be datasets here", value: request.view },
       ]);
-    return NextResponse.json(await searchAnswer(request));
+    return new NextResponse(await searchAnswerJson(request), { headers: { "content-type": "application/json" } });
   },
   { scope: null, cache: PUBLIC_READ_CACHE },
 );

@@ -2,12 +2,12 @@
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { PUBLIC_READ_CACHE } from "@/lib/http/conditional";
-import { parseSearchParamsOrThrow, searchAnswer } from "@/lib/search";
+import { parseSearchParamsOrThrow, searchAnswerJson } from "@/lib/search";
 
 export const GET = withApi(
   async ({ req }) => {
     const request = parseSearchParamsOrThrow(new URL(req.url).searchParams, { strict: true });
-    return NextResponse.json(await searchAnswer(request));
+    return new NextResponse(await searchAnswerJson(request), { headers: { "content-type": "application/json" } });
   },
   { scope: null, cache: PUBLIC_READ_CACHE },
 );

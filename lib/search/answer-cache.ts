@@ -1,0 +1,85 @@
+/**
+ * Search answers kept in this process's memory, as the JSON text GET /api/v1/search sends, keyed
+ * by the request and stamped with the generation mark of the search documents (drizzle/0025 moves
+ * it inside every transaction that changes them: publication, retraction, a re-fit, an exclusion,
+ * whichever process or script made it). An answer is served only while the mark it was computed
+ * under is still the current one, so a retraction shows at the next search, and drafts never
+ * reach it (search documents hold public versions only). Results do not depend on who asks.
+ *
+ * The mark is read before the answer is computed: the stored answer is never older than its mark
+ * (a change committed meanwhile moves the mark, and the entry is never served again). Identical
+ * requests that miss at the same time compute the answer once. Least recently used entries go
+ * first beyond `maxBytes`; an answer over `maxEntryBytes` is not kept.
+ */
+export interface AnswerCacheOptions {
+  maxBytes: number;
+  maxEntryBytes: number;
+}
+
+interface Entry {
+  generation: string;
+  json: string;
+  bytes: number;
+}
+
+export interface AnswerCache {
+  /** The answer's JSON text: from memory when computed under the current generation `generation()`, else computed by `compute` and kept. */
+  get(key: string, compute: () => Promise<string>): Promise<string>;
+  clear(): void;
+  readonly stats: { hits: number; misses: number; bytes: number; entries: number };
+}
+
+export function answerCache(generation: () => Promise<string>, { maxBytes, maxEntryBytes }: AnswerCacheOptions): AnswerCache {
+  const entries = new Map<string, Entry>();
+  const pending = new Map<string, Promise<string>>();
+  const stats = { hits: 0, misses: 0, bytes: 0, entries: 0 };
+  const drop = (key: string) => {
+    const e = entries.get(key);
+    if (!e) return;
+    entries.delete(key);
+    stats.bytes -= e.bytes;
+    stats.entries = entries.size;
+  };
+  return {
+    stats,
+    clear() {
+      entries.clear();
+      stats.bytes = 0;
+      stats.entries = 0;
+    },
+    async get(key, compute) {
+      const mark = await generation();
+      const found = entries.get(key);
+      if (found && found.generation === mark) {
+        // Most recently used last: Map keeps insertion order.
+        entries.delete(key);
+        entries.set(key, found);
+        stats.hits++;
+        return found.json;
+      }
+      if (found) drop(key);
+      const slot = `${mark}\u0000${key}`;
+      const running = pending.get(slot);
+      if (running) return running;
+      stats.misses++;
+      const computing = compute()
+        .then((json) => {
+          const bytes = json.length * 2;
+          if (bytes <= maxEntryBytes) {
+            drop(key);
+            entries.set(key, { generation: mark, json, bytes });
+            stats.bytes += bytes;
+            for (const [k] of entries) {
+              if (stats.bytes <= maxBytes) break;
+              drop(k);
+            }
+            stats.entries = entries.size;
+          }
+          return json;
+        })
+        .finally(() => pending.delete(slot));
+      pending.set(slot, computing);
+      return computing;
+    },
+  };
+}
