@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { redirect } from "next/navigation";
-import Link from "next/link";
 import { DateTime } from "@/components/date-time";
 import { OrcidId } from "@/components/orcid-id";
 import { OrcidButton } from "@/app/sign-in/orcid-button";
