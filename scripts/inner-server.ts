@@ -70,3 +70,15 @@ function close() {
 }
 process.on("SIGTERM", close);
 process.on("SIGINT", close);
+// The front server (scripts/serve.ts) may end without signalling (a crash): this process must not
+// live on as an orphan holding its port. Checked every two seconds.
+const front = process.ppid;
+setInterval(() => {
+  let alive = process.ppid === front;
+  try {
+    process.kill(front, 0);
+  } catch {
+    alive = false;
+  }
+  if (!alive) close();
+}, 2_000).unref();

@@ -34,6 +34,7 @@ import { startFakeDoiService } from "@/lib/identifiers/fake-service";
 import { startOrcidStandIn } from "@/lib/auth/orcid-stand-in";
 import { doiPrefix } from "@/lib/identifiers/mint";
 import { startWorkers } from "@/lib/jobs/worker";
+import { isDatabaseOutage } from "@/lib/jobs/outage";
 import { enqueuePendingIdentifierRegistrations } from "@/lib/identifiers/queue";
 import { enqueueStaleRefits } from "@/lib/datasets/refit";
 import { ENGINE_VERSION } from "@/lib/datasets/prepare";
@@ -109,6 +110,15 @@ async function stop(code: number) {
   ]);
   process.exit(code);
 }
+// A database restart under a running job must not end the site (lib/jobs/outage.ts); anything else unhandled still does.
+process.on("unhandledRejection", (reason) => {
+  if (isDatabaseOutage(reason)) {
+    console.error(`[jobs] the database went out of reach while a job was being settled; pg-boss will hand it out again: ${String(reason)}`);
+    return;
+  }
+  console.error("[arrhenia] unhandled rejection; stopping", reason);
+  void stop(1);
+});
 process.on("SIGINT", () => void stop(0));
 process.on("SIGTERM", () => void stop(0));
 next.on("exit", (code) => void stop(code ?? 0));

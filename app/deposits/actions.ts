@@ -2,6 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
+import { decisionText } from "@/lib/curation/transition-request";
 import { protectedCall } from "@/lib/auth/action";
 import { REPLY_MAX } from "@/lib/curation/capabilities";
 import type { Transition } from "@/lib/curation/lifecycle";
@@ -51,12 +52,9 @@ async function documentText(doc: string | Blob): Promise<string> {
 const lockVersion = z.number().int().min(0).max(MAX_ID);
 const transitionSchema = z.enum(["submit", "withdraw", "start_review", "return", "accept", "decline", "retract"]);
 // The same bound as the transitions endpoint; the minimum is the lifecycle's (a reason is needed only for decisions).
-const reasonSchema = z.string().max(5000, "Keep the reason under 5000 characters").optional();
+const reasonSchema = decisionText(z.string().max(5000, "Keep the reason under 5000 characters")).optional();
 // A hard cap on what is read; the rule and its wording are checkReplyOrThrow's (lib/curation/capabilities.ts).
-const replySchema = z
-  .string()
-  .max(2 * REPLY_MAX, `Keep the reply under ${REPLY_MAX} characters`)
-  .optional();
+const replySchema = decisionText(z.string().max(2 * REPLY_MAX, `Keep the reply under ${REPLY_MAX} characters`)).optional();
 
 const createDraft = protectedCall(z.object({ documentJson }).strict(), { permission: "dataset.deposit" }, async (input, user) => {
   // The text goes to an analysis worker, which parses and validates it off the request thread.

@@ -22,9 +22,9 @@ export const toggleWatchAction = protectedAction(toggleWatchSchema, { permission
 
 /** Ends one watch from the list of what one watches. */
 export const removeWatchAction = protectedAction(removeWatchSchema, { permission: "watch.manage" }, async ({ watchId }, user) => {
-  await removeWatchById({ userId: user.id, watchId });
+  const stopped = await removeWatchById({ userId: user.id, watchId });
   revalidatePath("/watches");
-  return { status: "ok", message: "Stopped." };
+  return stopped ? { status: "ok", message: "Stopped." } : { status: "error", message: "Nothing to stop: this is not on your list." };
 });
 
 export const dailyDigestAction = protectedAction(dailyDigestSchema, { permission: "watch.manage" }, async ({ dailyDigest }, user) => {

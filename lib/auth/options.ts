@@ -1,4 +1,5 @@
 import "server-only";
+import { databaseUnavailable } from "@/lib/errors";
 import { getServerSession, type NextAuthOptions, type User } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import type { OAuthConfig } from "next-auth/providers/oauth";
@@ -81,6 +82,20 @@ async function mailSignInLink(user: { id: number; email: string; name: string })
   await recordFailure("unlockMail", user.email);
   const secret = await createOneTimeToken({ userId: user.id, purpose: "unlock_sign_in" });
   await enqueueMail(signInLinkMail(user.email, user.name, secret));
+}
+
+/**
+ * next-auth shows an authorize error's message to the person word for word: a database that is out
+ * of reach must read as a moment's wait, never as the driver's "connect ECONNREFUSED 127.0.0.1:…".
+ */
+export async function unlessOutOfReach<T>(authorize: () => Promise<T>): Promise<T> {
+  try {
+    return await authorize();
+  } catch (err) {
+    const unavailable = databaseUnavailable(err);
+    if (unavailable) throw new Error("Sign-in is out of reach for a moment; try again in a few seconds.");
+    throw err;
+  }
 }
 
 /** Signs in with a mailed one-time link (sent when the right password met a lock); the lock is lifted. */
@@ -181,13 +196,13 @@ export const authOptions: NextAuthOptions = {
     CredentialsProvider({
       name: "E-mail and password",
       credentials: { email: { label: "E-mail", type: "email" }, password: { label: "Password", type: "password" } },
-      authorize: (credentials, req) => authorizeCredentials(credentials, clientAddress(req?.headers)),
+      authorize: (credentials, req) => unlessOutOfReach(() => authorizeCredentials(credentials, clientAddress(req?.headers))),
     }),
     CredentialsProvider({
       id: "sign-in-link",
       name: "Mailed sign-in link",
       credentials: { token: { label: "Code", type: "text" } },
-      authorize: (credentials, req) => authorizeSignInLink(credentials, clientAddress(req?.headers)),
+      authorize: (credentials, req) => unlessOutOfReach(() => authorizeSignInLink(credentials, clientAddress(req?.headers))),
     }),
     orcidProvider(),
   ],
