@@ -27,7 +27,8 @@ import { ConsensusChoiceForm, WhatWentIn, type ExclusionRow } from "./consensus-
 import { ScrollRegion } from "@/components/scroll-region";
 import { energyQuantityLabel } from "@/lib/unit-labels";
 import { ChemicalFormula } from "@/components/chemical-formula";
-import { WatchControl } from "@/app/watches/watch-control";
+import { readWatchState } from "@/app/watches/watch-control";
+import { WatchToggle } from "@/app/watches/watch-forms";
 
 /** Where a `/reactions/<id or key>` path leads: the public reaction, or null. */
 async function reactionOf(segment: string) {
@@ -118,6 +119,7 @@ export default async function ReactionPage({
   // The reader's choice of data lives in the URL; a choice that cannot be read falls back to the default, saying so.
   const query = (await searchParams) ?? {};
   const pagePath = reactionPath(found.key);
+  const watch = await readWatchState({ kind: "reaction", id: found.id });
   if (decodePathSegment(segment) !== reactionSegment(found.key)) {
     const search = new URLSearchParams(Object.entries(query).flatMap(([k, v]) => [v ?? []].flat().map((x) => [k, x]))).toString();
     permanentRedirect(search ? `${pagePath}?${search}` : pagePath);
@@ -212,7 +214,7 @@ export default async function ReactionPage({
             </li>
           ))}
         </ul>
-        <WatchControl subject={{ kind: "reaction", id: found.id }} what="this reaction" backPath={pagePath} />
+        <WatchToggle subject={{ kind: "reaction", id: found.id }} what="this reaction" backPath={pagePath} {...watch} />
       </header>
 
       {versions.length === 0 ? (

@@ -8,7 +8,8 @@ import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
 import { getPublicSpeciesCached, listReactionsOfSpeciesCached } from "@/lib/reactions/cached";
 import { reactionPath } from "@/lib/reactions/paths";
 import { ChemicalFormula } from "@/components/chemical-formula";
-import { WatchControl } from "@/app/watches/watch-control";
+import { readWatchState } from "@/app/watches/watch-control";
+import { WatchToggle } from "@/app/watches/watch-forms";
 
 const INCHI_KEY = /^[A-Z]{14}-[A-Z]{10}-[A-Z]$/;
 
@@ -37,6 +38,7 @@ export default async function SpeciesPage({ params }: { params: Promise<{ inchik
   const { inchikey } = await params;
   const found = await speciesOf(inchikey);
   if (!found) notFound();
+  const watch = await readWatchState({ kind: "species", inchiKey: found.inchiKey });
   // One address per species: a key typed in lower case goes to the upper-case one.
   if (inchikey !== found.inchiKey) permanentRedirect(speciesPath(found.inchiKey));
   const [reactions, picture] = await Promise.all([
@@ -55,7 +57,12 @@ export default async function SpeciesPage({ params }: { params: Promise<{ inchik
           {found.charge !== 0 ? `, charge ${found.charge > 0 ? "+" : "−"}${Math.abs(found.charge)}` : ""}, {found.molarMass.toFixed(3)} g
           mol⁻¹
         </p>
-        <WatchControl subject={{ kind: "species", inchiKey: found.inchiKey }} what="this species" backPath={speciesPath(found.inchiKey)} />
+        <WatchToggle
+          subject={{ kind: "species", inchiKey: found.inchiKey }}
+          what="this species"
+          backPath={speciesPath(found.inchiKey)}
+          {...watch}
+        />
       </header>
 
       <section className="card flex flex-col gap-6 sm:flex-row" aria-labelledby="identity-heading">

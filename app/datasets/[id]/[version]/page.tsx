@@ -30,7 +30,8 @@ import { DatasetJsonLd } from "@/components/cite/dataset-json-ld";
 import { CreatorList } from "@/components/creator-list";
 import { getVerifiedCreatorIds, listVersionCreatorPeople } from "@/lib/people/queries";
 import { getPublicCitation } from "@/lib/citation/public-citation";
-import { WatchControl } from "@/app/watches/watch-control";
+import { readWatchState } from "@/app/watches/watch-control";
+import { WatchToggle } from "@/app/watches/watch-forms";
 
 /** The version's own title in the browser tab, "Not found" when there is no such public version. */
 export async function generateMetadata({ params }: { params: Promise<{ id: string; version: string }> }): Promise<Metadata> {
@@ -84,6 +85,7 @@ export default async function DatasetVersionPage({
     listVersionCreatorPeople({ versionId: entry.id }),
   ]);
   if (!loaded || !citation) notFound();
+  const watch = await readWatchState({ kind: "dataset", id: datasetId });
   const { version, doc, analysis: result, rows } = loaded;
   // Linked by its key (the numeric id is only an alias that redirects there).
   const reaction = version.reactionId ? await getReactionCached({ id: version.reactionId }) : null;
@@ -152,7 +154,12 @@ export default async function DatasetVersionPage({
           <dt className="text-muted">Content hash (SHA-256)</dt>
           <dd className="break-all font-mono text-xs">{version.payloadSha256}</dd>
         </dl>
-        <WatchControl subject={{ kind: "dataset", id: datasetId }} what="this dataset" backPath={versionPath(datasetId, number)} />
+        <WatchToggle
+          subject={{ kind: "dataset", id: datasetId }}
+          what="this dataset"
+          backPath={versionPath(datasetId, number)}
+          {...watch}
+        />
       </header>
 
       {doc.description && (
