@@ -116,8 +116,23 @@ export async function createUser(input: {
   });
 }
 
+/** What the admin list (and GET /api/v1/users) shows of each person: whether a password is set stays private too. */
+const listedUserColumns = {
+  id: users.id,
+  email: users.email,
+  name: users.name,
+  affiliation: users.affiliation,
+  orcid: users.orcid,
+  verifiedOrcid: users.verifiedOrcid,
+  profileListed: users.profileListed,
+  role: users.role,
+  emailVerifiedAt: users.emailVerifiedAt,
+  deactivatedAt: users.deactivatedAt,
+  createdAt: users.createdAt,
+};
+
 export async function listUsers({ limit = 200, offset = 0 }: { limit?: number; offset?: number } = {}) {
-  return getDb().select(userColumns).from(users).orderBy(asc(users.name)).limit(limit).offset(offset);
+  return getDb().select(listedUserColumns).from(users).orderBy(asc(users.name)).limit(limit).offset(offset);
 }
 
 /** Curators who should hear of new submissions. */
