@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { analysisRequestSchema } from "@/lib/analyses/analyse-request";
-import { mechanismCheckBodySchema, shareBodySchema } from "@/lib/mechanisms/request";
+import { mechanismCheckBodySchema, shareBodySchema, speciesChoicesBodySchema } from "@/lib/mechanisms/request";
 import { citationQuerySchema } from "@/lib/citation/request";
 import { transitionRequestSchema } from "@/lib/curation/transition-request";
 import {
@@ -665,9 +665,9 @@ export const API_ENDPOINTS: Endpoint[] = [
     scope: "deposit:read",
     who: "its owner, or anyone with its share link (?share=…)",
     tag: "Mechanisms",
-    summary: "One mechanism check: its report as JSON, or as CSV with format=csv",
+    summary: "One mechanism check: its report as JSON, as CSV with format=csv, its species mapping with format=mapping",
     query: [
-      { name: "format", schema: z.enum(["json", "csv"]), example: "csv" },
+      { name: "format", schema: z.enum(["json", "csv", "mapping"]), example: "csv" },
       { name: "share", schema: z.string(), description: "The share token of the owner's link." },
     ],
     ok: {
@@ -687,6 +687,22 @@ export const API_ENDPOINTS: Endpoint[] = [
     body: { contentType: JSON_TYPE, schema: shareBodySchema, description: "{shared: true|false}", example: '{"shared": true}' },
     ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { shared, url } }" },
     errors: [401, 403, 404, 422],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/mechanism-checks/species-choices",
+    scope: "deposit:read",
+    who: "signed-in people: their own choices",
+    tag: "Mechanisms",
+    summary: "Remember which species a mechanism name stands for (JSON, or the mapping CSV with columns name and inchikey)",
+    body: {
+      contentType: JSON_TYPE,
+      schema: speciesChoicesBodySchema,
+      description: "The choices; text/csv takes the mapping a report downloads (rows without an InChIKey are skipped).",
+      example: '{"choices": [{"name": "C2H5OH", "inchiKey": "LFQSCWFLJHTTHZ-UHFFFAOYSA-N"}]}',
+    },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { saved } }" },
+    errors: [401, 403, 413, 422],
   },
   // ---- this document ----
   {

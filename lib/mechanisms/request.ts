@@ -31,6 +31,23 @@ export const mechanismCheckBodySchema = z
   })
   .strict();
 
+/** POST /api/v1/mechanism-checks/species-choices (JSON form) */
+export const speciesChoicesBodySchema = z
+  .object({
+    choices: z
+      .array(
+        z
+          .object({
+            name: z.string().trim().min(1).max(200),
+            inchiKey: z.string().regex(/^[A-Z]{14}-[A-Z]{10}-[A-Z]$/, "must be an InChIKey"),
+          })
+          .strict(),
+      )
+      .min(1)
+      .max(10_000),
+  })
+  .strict();
+
 /** POST /api/v1/mechanism-checks/:id/share */
 export const shareBodySchema = z.object({ shared: z.boolean() }).strict();
 

@@ -40,6 +40,7 @@ import * as oai from "@/app/oai/route";
 import * as mechanismChecks from "@/app/api/v1/mechanism-checks/route";
 import * as mechanismCheck from "@/app/api/v1/mechanism-checks/[id]/route";
 import * as mechanismCheckShare from "@/app/api/v1/mechanism-checks/[id]/share/route";
+import * as speciesChoices from "@/app/api/v1/mechanism-checks/species-choices/route";
 import { createTokenAction } from "@/app/settings/actions";
 import { idleState } from "@/lib/auth/action-state";
 import type { ApiOptions } from "@/lib/auth/api";
@@ -86,6 +87,7 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/mechanism-checks": mechanismChecks,
   "/api/v1/mechanism-checks/:id": mechanismCheck,
   "/api/v1/mechanism-checks/:id/share": mechanismCheckShare,
+  "/api/v1/mechanism-checks/species-choices": speciesChoices,
 };
 
 let admin: UserDto, researcher: UserDto, subject: UserDto;

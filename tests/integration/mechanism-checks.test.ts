@@ -5,6 +5,7 @@ vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
 import { GET as getCheck } from "@/app/api/v1/mechanism-checks/[id]/route";
 import { POST as shareCheck } from "@/app/api/v1/mechanism-checks/[id]/share/route";
 import { POST as postCheck } from "@/app/api/v1/mechanism-checks/route";
+import { POST as postChoices } from "@/app/api/v1/mechanism-checks/species-choices/route";
 import { GET as health } from "@/app/api/health/route";
 import { getCurrentUser } from "@/lib/auth/session";
 import { saveSpeciesChoices } from "@/lib/mechanisms/queries";
@@ -188,5 +189,40 @@ describe("bad input", () => {
     expect(problem.errors[0].value).toMatchObject({ line: 1, column: 75, code: "too_deep" });
     expect(alive.status).toBe(200);
     expect((await health()).status).toBe(200);
+  });
+});
+
+describe("species choices", () => {
+  const choose = (body: string, type: string) =>
+    postChoices(req("/api/v1/mechanism-checks/species-choices", { method: "POST", body, headers: { "content-type": type } }), ctx());
+
+  it("downloads a check's mapping and takes it back as CSV, naming bad rows", async () => {
+    as(other);
+    const { data } = await (await post(JSON.stringify({ text: MECHANISM }))).json();
+    const mapping = await (await getCheck(req(`/api/v1/mechanism-checks/${data.id}?format=mapping`), ctx(data.id))).text();
+    expect(mapping).toMatch(/\r\nname,inchikey,matched_by,candidates\r\n/);
+    expect(mapping).toMatch(/\r\nXQ,,none,/);
+    const [bromine] = await sql<{ inchi_key: string }[]>`select inchi_key from species where canonical_smiles = '[Br]'`;
+    const refused = await choose(`name,inchikey\r\nBR,${bromine.inchi_key}\r\nXQ,not-a-key\r\n`, "text/csv");
+    expect(refused.status).toBe(422);
+    expect((await refused.json()).errors[0].message).toBe('Row 3, column "inchikey": "NOT-A-KEY" is not an InChIKey.');
+    const unknown = await choose(`name,inchikey\r\nXQ,AAAAAAAAAAAAAA-AAAAAAAAAA-A\r\n`, "text/csv");
+    expect((await unknown.json()).errors[0].message).toMatch(/^row 2: no species has the InChIKey/);
+    const saved = await choose(`name,inchikey\r\nBR,${bromine.inchi_key}\r\nXQ,\r\n`, "text/csv");
+    expect(await saved.json()).toEqual({ data: { saved: 1 } });
+    const again = await (await post(JSON.stringify({ text: MECHANISM }))).json();
+    const check = await (await getCheck(req(`/api/v1/mechanism-checks/${again.data.id}`), ctx(again.data.id))).json();
+    expect(check.data.report.species.find((s: { name: string }) => s.name === "BR")).toMatchObject({
+      by: "choice",
+      inchiKey: bromine.inchi_key,
+    });
+  });
+
+  it("takes JSON with pointers for bad entries, and refuses anonymous callers", async () => {
+    as(owner);
+    const bad = await choose('{"choices": [{"name": "A", "inchiKey": "x"}]}', "application/json");
+    expect((await bad.json()).errors[0].pointer).toBe("/choices/0/inchiKey");
+    as(null);
+    expect((await choose('{"choices": []}', "application/json")).status).toBe(401);
   });
 });

@@ -16,6 +16,7 @@ import { DEFAULT_CONSENSUS_CHOICE, plotPoints } from "@/lib/reactions/consensus-
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { findPublicReaction } from "@/lib/reactions/public-queries";
 import { ReportTable, type ReportRow } from "./report-table";
+import { MappingUpload } from "./mapping-upload";
 import { ShareToggle } from "./share-toggle";
 
 export const metadata: Metadata = { title: "Mechanism check", robots: { index: false } };
@@ -116,6 +117,12 @@ export default async function MechanismCheckPage({ params, searchParams }: { par
             <h2 id="species-heading" className="text-lg font-semibold">
               Species
             </h2>
+            <p className="text-sm">
+              Names with several candidates or none are not compared. Download the mapping, fill in the InChIKey of each species you mean,
+              and upload it: your choices are remembered for your next checks.{" "}
+              <a href={api("mapping")}>Download the species mapping (CSV)</a>
+            </p>
+            {user?.id === check.ownerId && <MappingUpload />}
             <table className="text-sm">
               <thead>
                 <tr>

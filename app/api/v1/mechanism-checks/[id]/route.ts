@@ -5,6 +5,7 @@ import { AppError } from "@/lib/errors";
 import { parseIdOrThrow } from "@/lib/ids";
 import { readableMechanismCheckOrThrow } from "@/lib/mechanisms/access";
 import { mechanismReportCsv } from "@/lib/mechanisms/export";
+import { speciesMappingCsv } from "@/lib/mechanisms/mapping";
 import type { MechanismReport } from "@/lib/mechanisms/run-check";
 
 export const GET = withApi<{ id: string }>(
@@ -13,18 +14,20 @@ export const GET = withApi<{ id: string }>(
     const url = new URL(req.url);
     const check = await readableMechanismCheckOrThrow({ id, user, share: url.searchParams.get("share") });
     const format = url.searchParams.get("format") ?? "json";
-    if (format !== "json" && format !== "csv")
-      throw new AppError("bad_request", "format must be json or csv", [
-        { pointer: "", parameter: "format", message: "must be json or csv" },
+    if (format !== "json" && format !== "csv" && format !== "mapping")
+      throw new AppError("bad_request", "format must be json, csv or mapping", [
+        { pointer: "", parameter: "format", message: "must be json, csv or mapping" },
       ]);
     const headers = { "cache-control": "private, no-store" };
-    if (format === "csv") {
+    if (format !== "json") {
       if (!check.report) throw new AppError("conflict", `The check is ${check.state}; its report is not ready.`);
-      return new NextResponse(mechanismReportCsv(check.report as unknown as MechanismReport, check.name), {
+      const report = check.report as unknown as MechanismReport;
+      const body = format === "csv" ? mechanismReportCsv(report, check.name) : speciesMappingCsv(report.species, check.name);
+      return new NextResponse(body, {
         headers: {
           ...headers,
           "content-type": "text/csv; charset=utf-8",
-          "content-disposition": `attachment; filename="mechanism-check-${check.id}.csv"`,
+          "content-disposition": `attachment; filename="mechanism-check-${check.id}${format === "mapping" ? "-species" : ""}.csv"`,
         },
       });
     }

@@ -1,0 +1,48 @@
+// POST /api/v1/mechanism-checks/species-choices — remember which species a mechanism name stands for (JSON or the mapping CSV)
+import { NextResponse } from "next/server";
+import { withApi, zodToFieldErrors } from "@/lib/auth/api";
+import { AppError } from "@/lib/errors";
+import { BODY_LIMITS, parseJsonBytesOrThrow, readBodyOrThrow } from "@/lib/http/read-body";
+import { readSpeciesMappingCsv } from "@/lib/mechanisms/mapping";
+import { saveSpeciesChoices } from "@/lib/mechanisms/queries";
+import { speciesChoicesBodySchema } from "@/lib/mechanisms/request";
+
+export const POST = withApi(
+  async ({ req, user }) => {
+    const bytes = await readBodyOrThrow(req, { limit: BODY_LIMITS.json, what: "species choices" });
+    let choices: { name: string; inchiKey: string }[];
+    let rowOf = (i: number) => `/choices/${i}`;
+    if ((req.headers.get("content-type") ?? "").toLowerCase().startsWith("text/csv")) {
+      const read = readSpeciesMappingCsv(new TextDecoder().decode(bytes));
+      if (!read.ok)
+        throw new AppError(
+          "validation_failed",
+          read.errors[0].message,
+          read.errors.slice(0, 100).map((e) => ({ pointer: "", message: e.message, value: { row: e.row, column: e.column } })),
+        );
+      choices = read.choices;
+      rowOf = (i: number) => `row ${i + 2}`;
+    } else {
+      const parsed = speciesChoicesBodySchema.safeParse(parseJsonBytesOrThrow(bytes));
+      if (!parsed.success)
+        throw new AppError("validation_failed", "The choices do not match the expected shape", zodToFieldErrors(parsed.error));
+      choices = parsed.data.choices;
+    }
+    const { unknown } = await saveSpeciesChoices({ userId: user!.id, choices });
+    if (unknown.length) {
+      const errors = choices.flatMap((c, i) =>
+        unknown.includes(c.inchiKey)
+          ? [
+              {
+                pointer: rowOf(i).startsWith("/") ? `${rowOf(i)}/inchiKey` : "",
+                message: `${rowOf(i)}: no species has the InChIKey ${c.inchiKey}.`,
+              },
+            ]
+          : [],
+      );
+      throw new AppError("validation_failed", errors[0].message, errors.slice(0, 100));
+    }
+    return NextResponse.json({ data: { saved: choices.length } });
+  },
+  { permission: "mechanism.check", scope: "deposit:read" },
+);
