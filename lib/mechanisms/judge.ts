@@ -19,6 +19,8 @@ export interface JudgeInput {
   /** The mechanism reaction's index. */
   index: number;
   rate: MechanismRate;
+  /** Its DUPLICATE entries (same reaction): judged as the sum of all the terms. */
+  duplicates?: { line: number; rate: MechanismRate }[];
   order: number;
   versions: (CandidateVersion & { tMin: number | null; tMax: number | null })[];
   exclusions: CuratorExclusion[];
@@ -63,7 +65,19 @@ function judgeOne(r: JudgeInput, window: { Tmin: number; Tmax: number }): Reacti
       if (!(err instanceof AnalysisError)) throw err;
     }
   }
-  const verdict = judgeMechanismRate({ rate: r.rate, window, result, basis, ranges });
+  // Measured where the comparison has data: the datasets that entered it. A dataset left out (evaluated, excluded by
+  // a curator, set aside as off the consensus, of another order) measures nothing the verdict could rest on.
+  const compared = result
+    ? result.members
+        .filter((m) => m.included && m.Tmin !== null && m.Tmax !== null)
+        .map((m) => ({ Tmin: m.Tmin as number, Tmax: m.Tmax as number }))
+    : ranges;
+  const duplicates = r.duplicates ?? [];
+  const verdict = judgeMechanismRate({ rate: r.rate, alsoRates: duplicates.map((d) => d.rate), window, result, basis, ranges: compared });
+  if (duplicates.length > 0) {
+    const lines = duplicates.map((d) => d.line);
+    verdict.note = `Judged with its duplicate ${lines.length === 1 ? "entry" : "entries"} (line ${lines.join(", ")}) as their sum, as the mechanism uses them. ${verdict.note}`;
+  }
   if (!result && r.versions.length > 0 && verdict.verdict === "no_data") {
     verdict.note =
       "Data are published for this reaction, but none can enter a comparison (evaluated, retracted, excluded or too few temperatures).";

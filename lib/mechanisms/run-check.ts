@@ -115,7 +115,13 @@ export async function buildReport({
           listPublicVersionsOfReaction({ reactionId }),
           listConsensusExclusions({ reactionId }),
         ]);
-        inputs[i] = { index: r.index, rate: r.rate!, order: r.order, versions, exclusions };
+        // DUPLICATE entries of one reaction act together: each is judged as the sum of them all.
+        const duplicates = r.duplicate
+          ? toJudge
+              .filter((o) => o.r !== r && o.r.duplicate && o.match!.forward!.reactionId === reactionId && o.r.order === r.order)
+              .map((o) => ({ line: o.r.line, rate: o.r.rate! }))
+          : [];
+        inputs[i] = { index: r.index, rate: r.rate!, ...(duplicates.length ? { duplicates } : {}), order: r.order, versions, exclusions };
       }
     }),
   );

@@ -114,16 +114,19 @@ function formatFactor(x: number): string {
 /**
  * The verdict of one mechanism rate against one reaction's consensus.
  *
- * @param ranges every dataset's measured range (K), whether or not it entered the consensus
+ * @param ranges the measured ranges (K) of the datasets that entered the comparison: the use window outside them is reported as used without measurements
  */
 export function judgeMechanismRate({
   rate,
+  alsoRates = [],
   window,
   result,
   basis,
   ranges,
 }: {
   rate: MechanismRate;
+  /** The rates of its DUPLICATE entries: the mechanism's k is the sum of all of them (common practice of mechanism formats). */
+  alsoRates?: readonly MechanismRate[];
   window: { Tmin: number; Tmax: number };
   result: ConsensusResult | null;
   basis: "consensus" | "single_dataset";
@@ -143,8 +146,13 @@ export function judgeMechanismRate({
       note: `The data cover ${round(result.range.Tmin)}–${round(result.range.Tmax)} K, outside the use window ${round(window.Tmin)}–${round(window.Tmax)} K: the mechanism is used at ${describeRanges(extrapolated)} without measurements.`,
     };
   }
+  const terms = [rate, ...alsoRates];
   const at = (T: number): RatioAt => {
-    const lnMech = Math.log(rate.A) + rate.b * Math.log(T) - rate.Ea / (GAS_CONSTANT * T);
+    // One term in logarithms (no overflow for any A); a duplicate sum term by term.
+    const lnMech =
+      terms.length === 1
+        ? Math.log(rate.A) + rate.b * Math.log(T) - rate.Ea / (GAS_CONSTANT * T)
+        : Math.log(terms.reduce((sum, t) => sum + t.A * T ** t.b * Math.exp(-t.Ea / (GAS_CONSTANT * T)), 0));
     const ratio = Math.exp(lnMech - consensusLnK(result, T));
     const f = consensusFactor(result, T);
     return { T, ratio, f, inside: Math.abs(Math.log(ratio)) <= Math.log(f) };
@@ -166,6 +174,16 @@ export function judgeMechanismRate({
     high: points[0],
     worst,
   };
+  // A sum of duplicate terms that is not a positive rate somewhere is no rate there at all.
+  const notRate = points.find((p) => !(p.ratio > 0) || !Number.isFinite(p.ratio));
+  if (notRate) {
+    return {
+      verdict: "disagrees",
+      extrapolated,
+      comparison: null,
+      note: `The mechanism's rate (with its duplicate entries) is not a positive number at ${round(notRate.T)} K, so it cannot be compared.`,
+    };
+  }
   const disagrees = points.some((p) => !p.inside);
   const over = `over ${round(Tmin)}–${round(Tmax)} K`;
   const against = basis === "consensus" ? `the consensus of ${result.included} datasets` : "the one dataset";

@@ -147,6 +147,28 @@ describe("verdicts", () => {
     ).toBe("no_data");
   });
 
+  it("judges DUPLICATE entries as the sum of their terms, and a sum that is no positive rate as no rate", () => {
+    // Two halves of the truth, and 1.5 × minus 0.5 × the truth: each pair sums to the expression the data came from.
+    const half = { ...truth, A: truth.A / 2 };
+    const window = { Tmin: 300, Tmax: 1000 };
+    expect(judgeMechanismRate({ rate: half, alsoRates: [half], window, result, basis: "consensus", ranges }).verdict).toBe("agrees");
+    expect(
+      judgeMechanismRate({
+        rate: { ...truth, A: 1.5 * truth.A },
+        alsoRates: [{ ...truth, A: -0.5 * truth.A }],
+        window,
+        result,
+        basis: "consensus",
+        ranges,
+      }).verdict,
+    ).toBe("agrees");
+    // Alone, one half is a factor 2 below.
+    expect(judgeMechanismRate({ rate: half, window, result, basis: "consensus", ranges }).verdict).toBe("disagrees");
+    const negative = judgeMechanismRate({ rate: half, alsoRates: [{ ...truth, A: -truth.A }], window, result, basis: "consensus", ranges });
+    expect(negative.verdict).toBe("disagrees");
+    expect(negative.note).toMatch(/not a positive number at \d+ K/);
+  });
+
   it("finds the gaps of a window", () => {
     expect(
       uncovered({ Tmin: 300, Tmax: 2500 }, [
