@@ -175,9 +175,11 @@ function baseUnits(): MechanismUnits {
   return unitsFrom({ ...YAML_DEFAULT_UNITS, energy: "" });
 }
 
-function unitsFrom(u: Record<UnitKey, string>): MechanismUnits {
+function unitsFrom(u: Record<UnitKey, string>, activationExplicit = false): MechanismUnits {
   const energy = yamlActivationEnergyUnit(u["activation-energy"]) as number;
   return {
+    yamlEnergy: u.energy,
+    activationExplicit,
     lengthCm: YAML_LENGTH[u.length],
     quantityMolecules: YAML_QUANTITY[u.quantity],
     timeS: YAML_TIME[u.time],
@@ -207,10 +209,11 @@ function readUnits(node: Node | null | undefined, outer: MechanismUnits, report:
     quantity: Object.keys(YAML_QUANTITY).find((k) => YAML_QUANTITY[k] === outer.quantityMolecules) ?? "kmol",
     time: Object.keys(YAML_TIME).find((k) => YAML_TIME[k] === outer.timeS) ?? "s",
     "activation-energy": outer.words.energy,
-    energy: "",
+    energy: outer.yamlEnergy ?? "",
   };
   let energyGiven: string | null = null;
   let activationGiven = false;
+  const explicitBefore = outer.activationExplicit ?? false;
   for (const pair of map.items) {
     const key = isScalar(pair.key) ? String(pair.key.value) : "";
     const valueNode = pair.value as Node | null;
@@ -239,10 +242,14 @@ function readUnits(node: Node | null | undefined, outer: MechanismUnits, report:
         `unknown key "${key}" in \`units\`; allowed: length, quantity, time, energy, activation-energy, pressure, mass.`,
       );
   }
-  // Cantera: without activation-energy, Ea is in energy per quantity.
-  if (!activationGiven && energyGiven) current["activation-energy"] = energyGiven === "eV" ? "eV" : `${energyGiven}/${current.quantity}`;
-  else if (!activationGiven && map.has("quantity")) current["activation-energy"] = `J/${current.quantity}`;
-  return unitsFrom(current);
+  if (energyGiven) current.energy = energyGiven;
+  // Cantera: without an explicit activation-energy (here or in an enclosing block), Ea is in energy per quantity.
+  const explicit = activationGiven || explicitBefore;
+  if (!explicit && (energyGiven || map.has("quantity"))) {
+    const energy = current.energy || "J";
+    current["activation-energy"] = energy === "eV" ? "eV" : `${energy}/${current.quantity}`;
+  }
+  return unitsFrom(current, explicit);
 }
 
 function readComposition(entry: YAMLMap, doc: Document, report: Report): Record<string, number> | null {

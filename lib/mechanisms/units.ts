@@ -17,6 +17,13 @@ export interface MechanismUnits {
   energyJPerMol: number;
   /** The same, in words for the report. */
   words: { rateConstant: string; energy: string };
+  /**
+   * Cantera YAML only: the `energy` unit in force ("" = J) and whether an `activation-energy` unit was set
+   * explicitly. A nested `units` block inherits both: an explicit one stays, a derived one follows the new
+   * energy and quantity (Cantera's UnitSystem rule).
+   */
+  yamlEnergy?: string;
+  activationExplicit?: boolean;
 }
 
 /** A modified Arrhenius A of a reaction of the given order, from the mechanism's units to cm, molecule, s. */

@@ -108,7 +108,8 @@ const describeRanges = (ranges: readonly { Tmin: number; Tmax: number }[]) =>
   ranges.map((r) => `${round(r.Tmin)}–${round(r.Tmax)} K`).join(", ");
 const factorWords = (ratio: number) => (ratio >= 1 ? `${formatFactor(ratio)} × above` : `${formatFactor(1 / ratio)} × below`);
 function formatFactor(x: number): string {
-  return x >= 100 ? x.toExponential(1) : x.toPrecision(2);
+  // Three digits: with two, a ratio just outside f (1.14 against 1.10) printed as the same number.
+  return x >= 100 ? x.toExponential(2) : x.toPrecision(3);
 }
 
 /**
@@ -185,10 +186,10 @@ export function judgeMechanismRate({
     };
   }
   const disagrees = points.some((p) => !p.inside);
-  const over = `over ${round(Tmin)}–${round(Tmax)} K`;
+  const over = round(Tmin) === round(Tmax) ? `at ${round(Tmin)} K` : `over ${round(Tmin)}–${round(Tmax)} K`;
   const against = basis === "consensus" ? `the consensus of ${result.included} datasets` : "the one dataset";
   let note = disagrees
-    ? `Outside the uncertainty factor of ${against} ${over}: ${factorWords(worst.ratio)} at ${round(worst.T)} K (f = ${worst.f.toPrecision(2)}).`
+    ? `Outside the uncertainty factor of ${against} ${over}: ${factorWords(worst.ratio)} at ${round(worst.T)} K (f = ${worst.f.toPrecision(3)}).`
     : `Inside the uncertainty factor of ${against} ${over} (at most ${factorWords(worst.ratio)}, at ${round(worst.T)} K).`;
   if (extrapolated.length) note += ` Used without measurements at ${describeRanges(extrapolated)}.`;
   return { verdict: disagrees ? "disagrees" : "agrees", extrapolated, comparison, note };

@@ -325,6 +325,21 @@ describe("equations", () => {
   });
 });
 
+describe("Cantera YAML: a reaction's own units block inherits the file's (Cantera's UnitSystem rule, from its documentation of nested units)", () => {
+  // Thermochemical calorie 4.184 J (NIST SP 811); per mol of reaction.
+  const ea = (units: string, reactionUnits: string) =>
+    readCanteraYamlMechanism(
+      `units: ${units}\nreactions:\n- equation: A + B => C\n  units: ${reactionUnits}\n  rate-constant: {A: 1.0, b: 0, Ea: 2.5}\n`,
+    ).reactions[0].rate!.Ea;
+  it("keeps an explicit activation-energy unit when the reaction changes only the quantity", () => {
+    expect(ea("{length: cm, quantity: mol, activation-energy: kcal/mol}", "{quantity: molec}")).toBeCloseTo(2.5 * 4184, 6);
+  });
+  it("derives Ea's unit from the energy in force and the reaction's quantity when none was explicit", () => {
+    // 2.5 kcal per molecule = 2.5 × 4184 J × N_A per mol (CODATA 2018: N_A = 6.02214076e23 /mol, exact).
+    expect(ea("{length: cm, quantity: mol, energy: kcal}", "{quantity: molec}") / (2.5 * 4184 * 6.02214076e23)).toBeCloseTo(1, 10);
+  });
+});
+
 describe("readMechanism", () => {
   it("detects the format", () => {
     expect(detectMechanismFormat(YAML_TEXT)).toBe("cantera-yaml");
