@@ -73,6 +73,8 @@ export function MechanismForm({ demo }: { demo: string }) {
         <input
           id="mechanism-file"
           type="file"
+          // The browser's own file button and label are wider than a 390 px screen allows: keep it inside.
+          className="block w-full max-w-full min-w-0 text-sm"
           accept=".yaml,.yml,.inp,.dat,.txt,.mech"
           onChange={(e) => setFile(e.target.files?.[0] ?? null)}
         />

@@ -1,5 +1,5 @@
 import "server-only";
-import { createHmac, timingSafeEqual } from "node:crypto";
+import { createHmac, randomBytes, timingSafeEqual } from "node:crypto";
 import { searchCursorSecret } from "@/lib/config";
 
 /**
@@ -11,6 +11,8 @@ import { searchCursorSecret } from "@/lib/config";
 export const ORCID_TICKET_SECONDS = 15 * 60;
 
 export interface OrcidTicket {
+  /** Random: a ticket confirms one sign-up only (a copy of the page's address cannot be used again). */
+  id: string;
   orcid: string;
   name: string;
   /** Seconds since 1970 after which the ticket is refused. */
@@ -20,7 +22,12 @@ export interface OrcidTicket {
 const mac = (body: string) => createHmac("sha256", searchCursorSecret()).update(`orcid-sign-up-ticket\n${body}`).digest();
 
 export function signOrcidTicket({ orcid, name }: { orcid: string; name: string }, now = new Date()): string {
-  const ticket: OrcidTicket = { orcid, name, expires: Math.floor(now.getTime() / 1000) + ORCID_TICKET_SECONDS };
+  const ticket: OrcidTicket = {
+    id: randomBytes(12).toString("base64url"),
+    orcid,
+    name,
+    expires: Math.floor(now.getTime() / 1000) + ORCID_TICKET_SECONDS,
+  };
   const body = Buffer.from(JSON.stringify(ticket)).toString("base64url");
   return `${body}.${mac(body).toString("base64url")}`;
 }
@@ -36,7 +43,13 @@ export function readOrcidTicket(text: string, now = new Date()): OrcidTicket | n
   if (given.length !== expected.length || !timingSafeEqual(given, expected)) return null;
   try {
     const ticket = JSON.parse(Buffer.from(body, "base64url").toString("utf8")) as OrcidTicket;
-    if (typeof ticket.orcid !== "string" || typeof ticket.name !== "string" || typeof ticket.expires !== "number") return null;
+    if (
+      typeof ticket.id !== "string" ||
+      typeof ticket.orcid !== "string" ||
+      typeof ticket.name !== "string" ||
+      typeof ticket.expires !== "number"
+    )
+      return null;
     return now.getTime() / 1000 > ticket.expires ? null : ticket;
   } catch {
     return null;

@@ -11,9 +11,11 @@ import {
   getPasswordHash,
   getUserByEmail,
   getUserById,
+  isPendingOrcidSignUp,
   markEmailVerified,
   setPasswordHash,
 } from "./queries";
+import { unlinkOrcid } from "./orcid-accounts";
 
 /**
  * Sign-up: creates an unverified researcher and mails a verification link. An e-mail that already
@@ -71,7 +73,12 @@ export async function requestPasswordReset({ email, ip }: { email: string; ip: s
 
 export async function resetPassword({ secret, password }: { secret: string; password: string }) {
   const userId = await consumeOneTimeTokenOrThrow({ secret, purpose: "reset_password" });
+  // A pending ORCID sign-up's address proven by a reset: whoever typed that address at the ORCID
+  // sign-up need not own it, so the iD does not stay with the account (its holder signs in with
+  // ORCID again and confirms an address of their own).
+  const before = await getUserById({ id: userId });
   await setPasswordHash({ userId, passwordHash: await hashPassword(password), actorId: userId });
+  if (before && isPendingOrcidSignUp(before)) await unlinkOrcid({ userId });
   // Following a link from the inbox also proves the address.
   await markEmailVerified({ userId });
 }

@@ -21,6 +21,8 @@ import {
   unlinkVerifiedOrcid,
 } from "./queries";
 
+const TICKET_USED = "This confirmation page was used already. To change the address, sign in with ORCID again for a new one.";
+
 /** Why an ORCID sign-in went no further; the sign-in page words each code (app/sign-in/orcid-errors.ts). */
 export type OrcidRefusal = "OrcidNotAnId" | "OrcidAccountDeactivated" | "OrcidLinkedElsewhere";
 
@@ -89,7 +91,11 @@ export async function confirmOrcidSignUp({ ticket, name, email, ip }: { ticket: 
     name,
     email,
     passwordHash: await hashPassword(randomBytes(32).toString("hex")),
+    ticketId: read.id,
   });
+  if (saved === "ticket_used") {
+    throw new AppError("validation_failed", TICKET_USED, [{ pointer: "/ticket", message: TICKET_USED }]);
+  }
   if (!saved) {
     const holder = await getUserByVerifiedOrcid({ orcid: read.orcid });
     if (holder && !isPendingOrcidSignUp(holder)) {

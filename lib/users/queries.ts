@@ -474,14 +474,23 @@ export async function saveOrcidSignUp({
   name,
   email,
   passwordHash,
+  ticketId,
 }: {
   orcid: string;
   name: string;
   email: string;
   passwordHash: string;
-}): Promise<{ user: UserDto; replaced: boolean } | null> {
+  /** The confirmation ticket's id: each ticket confirms one sign-up (recorded in the audit event). */
+  ticketId: string;
+}): Promise<{ user: UserDto; replaced: boolean } | null | "ticket_used"> {
   const address = normaliseEmail(email);
   return getDb().transaction(async (tx) => {
+    // Serialised per iD (the holder row lock below, or this advisory lock when there is none yet).
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`orcid-sign-up:${orcid}`}))`);
+    const [used] = await tx.execute(
+      sql`select 1 from audit_events where action in ('user.sign_up', 'user.orcid_sign_up_replaced') and details ->> 'ticket' = ${ticketId} limit 1`,
+    );
+    if (used) return "ticket_used";
     const [holder] = await tx.select(userColumns).from(users).where(eq(users.verifiedOrcid, orcid)).for("update");
     if (holder && !isPendingOrcidSignUp(holder)) return null;
     const [owner] = await tx
@@ -498,7 +507,7 @@ export async function saveOrcidSignUp({
         action: "user.orcid_sign_up_replaced",
         subjectType: "user",
         subjectId: holder.id,
-        details: { orcid },
+        details: { orcid, ticket: ticketId },
       });
       return { user: row, replaced: true };
     }
@@ -513,7 +522,7 @@ export async function saveOrcidSignUp({
       action: "user.sign_up",
       subjectType: "user",
       subjectId: row.id,
-      details: { through: "orcid", orcid },
+      details: { through: "orcid", orcid, ticket: ticketId },
     });
     return { user: row, replaced: false };
   });

@@ -7,6 +7,8 @@ vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn(), 
 
 import { changeRoleAction, setActiveAction } from "@/app/admin/people/actions";
 import * as datasetRoute from "@/app/api/v1/datasets/[id]/route";
+import * as mechanismCheckRoute from "@/app/api/v1/mechanism-checks/[id]/route";
+import * as mechanismShareRoute from "@/app/api/v1/mechanism-checks/[id]/share/route";
 import * as datasetVersionRoute from "@/app/api/v1/datasets/[id]/versions/[n]/route";
 import * as filesRoute from "@/app/api/v1/files/[fileId]/route";
 import * as reactionRoute from "@/app/api/v1/reactions/[id]/route";
@@ -27,6 +29,7 @@ import ClassPage from "@/app/classes/[id]/page";
 import SpeciesPage from "@/app/species/[inchikey]/page";
 import ReviewPage from "@/app/review/[id]/page";
 import PersonPage from "@/app/people/[id]/page";
+import MechanismCheckPage from "@/app/mechanisms/[id]/page";
 import { revokeTokenAction } from "@/app/settings/actions";
 import { idleState } from "@/lib/auth/action-state";
 import { getCurrentUser } from "@/lib/auth/session";
@@ -111,6 +114,14 @@ const apiCases: [string, string, Handler, string, () => RequestInit][] = [
   ["GET", "/api/v1/reactions/[id]", reactionRoute.GET as Handler, "id", () => ({})],
   ["GET", "/api/v1/species/[inchikey]", speciesRoute.GET as Handler, "inchikey", () => ({})],
   ["DELETE", "/api/v1/files/[fileId]", filesRoute.DELETE as Handler, "fileId", () => ({ method: "DELETE" })],
+  ["GET", "/api/v1/mechanism-checks/[id]", mechanismCheckRoute.GET as Handler, "id", () => ({})],
+  [
+    "POST",
+    "/api/v1/mechanism-checks/[id]/share",
+    mechanismShareRoute.POST as Handler,
+    "id",
+    () => ({ method: "POST", body: JSON.stringify({ shared: true }) }),
+  ],
   [
     "PATCH",
     "/api/v1/users/[id]",
@@ -133,6 +144,7 @@ const pageCases: [string, Page, (id: string) => Record<string, string>][] = [
   ["/deposits/[id]", DepositPage as Page, (id) => ({ id })],
   ["/admin/mail/[id]", MailMessagePage as Page, (id) => ({ id })],
   ["/people/[id]", PersonPage as Page, (id) => ({ id })],
+  ["/mechanisms/[id]", MechanismCheckPage as Page, (id) => ({ id })],
 ];
 
 /** Every dynamic segment under app/, so a new one without a case above fails this test. */

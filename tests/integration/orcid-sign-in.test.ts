@@ -37,7 +37,8 @@ import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { getPublicVersionDatacite } from "@/lib/identifiers/public-datacite";
 import { getPublicProfile, listProfileDatasets } from "@/lib/people/queries";
 import { unlinkOrcid } from "@/lib/users/orcid-accounts";
-import { createUser, markEmailVerified } from "@/lib/users/queries";
+import { createOneTimeToken, createUser, markEmailVerified } from "@/lib/users/queries";
+import { resetPassword } from "@/lib/users/accounts";
 import { freshOrcid } from "../support/orcid";
 import { depositInState, sql, uniqueEmail } from "./helpers";
 
@@ -225,6 +226,33 @@ describe("sign in with ORCID through the stand-in", () => {
     expect(open.n).toBe(1);
   });
 
+  it("a confirmation page confirms one sign-up: a copy of its address used again is refused and changes nothing", async () => {
+    browser.cookies.clear();
+    const orcid = freshOrcid();
+    const location = await signInWithOrcid({ orcid });
+    const owner = uniqueEmail("orcid-owner");
+    expect((await confirm(location, "Ticket Owner", owner)).status).toBe("ok");
+    const replay = await confirm(location, "Ticket Thief", uniqueEmail("orcid-thief"));
+    expect(replay).toMatchObject({ status: "error", message: expect.stringMatching(/used already/) });
+    expect(await accountOf(orcid)).toMatchObject({ email: owner, name: "Ticket Owner" });
+  });
+
+  it("a pending ORCID sign-up whose address is proven by a password reset loses the iD (whoever typed the address need not own it)", async () => {
+    browser.cookies.clear();
+    const orcid = freshOrcid();
+    const victim = uniqueEmail("orcid-victim");
+    await confirm(await signInWithOrcid({ orcid }), "Planted Name", victim);
+    const planted = await accountOf(orcid);
+    const secret = await createOneTimeToken({ userId: planted.id, purpose: "reset_password" });
+    await resetPassword({ secret, password: "the victim's own password" });
+    expect(await accountOf(orcid)).toBeUndefined();
+    const [row] = await sql`select verified_orcid, email_verified_at from users where id = ${planted.id}`;
+    expect(row.verified_orcid).toBeNull();
+    expect(row.email_verified_at).not.toBeNull();
+    // The iD's holder signing in with ORCID again is asked for an address of their own; they never reach the victim's account.
+    expect(await signInWithOrcid({ orcid })).toMatch(/\/sign-in\/orcid\?ticket=/);
+  });
+
   it("a signed-in person links and unlinks an iD; a second account cannot link the same iD", async () => {
     const password = "a long enough password";
     const mk = async (tag: string) =>
@@ -248,7 +276,7 @@ describe("sign in with ORCID through the stand-in", () => {
   it("an account made through ORCID cannot unlink before it has a password", async () => {
     browser.cookies.clear();
     const orcid = freshOrcid();
-    await confirm(await signInWithOrcid({ orcid }), "No Password", uniqueEmail("orcid-nopass"));
+    await confirm(await signInWithOrcid({ orcid }), "Keyless Person", uniqueEmail("orcid-nokey"));
     const account = await accountOf(orcid);
     await expect(unlinkOrcid({ userId: account.id })).rejects.toMatchObject({ status: 409 });
     expect((await accountOf(orcid)).id).toBe(account.id);

@@ -36,8 +36,8 @@ async function readCheck(idText: string, share: string | undefined) {
   }
 }
 
-export default async function MechanismCheckPage({ params, searchParams }: { params: Promise<Params>; searchParams: Promise<Search> }) {
-  const [{ id }, search] = await Promise.all([params, searchParams]);
+export default async function MechanismCheckPage({ params, searchParams }: { params: Promise<Params>; searchParams?: Promise<Search> }) {
+  const [{ id }, search] = await Promise.all([params, searchParams ?? Promise.resolve({} as Search)]);
   const { user, check } = await readCheck(id, search.share);
   const report = check.report as unknown as MechanismReport | null;
   const shareQuery = search.share ? `share=${encodeURIComponent(search.share)}` : "";
