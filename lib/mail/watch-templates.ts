@@ -5,21 +5,26 @@ import { compose, type MailMessage } from "./templates";
 export type WatchEvent = "published" | "retracted" | "flags_changed";
 
 /** One event of one version, as a notification tells it. */
+/** One version as a notification tells it (lib/watches/queries.ts reads it). */
+export interface NewsVersion {
+  datasetId: number;
+  number: number;
+  title: string;
+  equation: string;
+  pointCount: number;
+  tMin: number | null;
+  tMax: number | null;
+  identifier: string | null;
+  retractionNotice: string | null;
+  /** The dataset's newest published version when it is newer than this one (what replaces a retracted version). */
+  newer: { number: number; title: string } | null;
+  flags: string[];
+}
+
+/** One event of one version, as a notification tells it. */
 export interface WatchNews {
   event: WatchEvent;
-  version: {
-    datasetId: number;
-    number: number;
-    title: string;
-    equation: string;
-    pointCount: number;
-    tMin: number | null;
-    tMax: number | null;
-    identifier: string | null;
-    retractionNotice: string | null;
-    newer: { number: number; title: string } | null;
-    flags: string[];
-  };
+  version: NewsVersion;
 }
 
 /** A watch's stop link: what it ends, and its signed token. */

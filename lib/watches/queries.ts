@@ -5,6 +5,7 @@ import { watches, watchNotices, watchSettings } from "@/db/watches";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { AppError } from "@/lib/errors";
 import { reactionDisplayEquation, speciesDisplayName } from "@/lib/reactions/display-names";
+import type { NewsVersion } from "@/lib/mail/watch-templates";
 
 /** What can be watched, as pages and forms name it. */
 export type WatchSubject = { kind: "reaction"; id: number } | { kind: "species"; inchiKey: string } | { kind: "dataset"; id: number };
@@ -217,21 +218,10 @@ export async function listWatchersOfVersion({ versionId }: { versionId: number }
 }
 
 /** What a notice tells of one version. */
-export interface NoticeVersion {
+/** What a notice tells of one version: the mail's view of it, with its id and state. */
+export interface NoticeVersion extends NewsVersion {
   versionId: number;
-  datasetId: number;
-  number: number;
-  title: string;
-  equation: string;
   state: string;
-  pointCount: number;
-  tMin: number | null;
-  tMax: number | null;
-  identifier: string | null;
-  retractionNotice: string | null;
-  /** The dataset's newest published version when it is newer than this one (what replaces a retracted version). */
-  newer: { number: number; title: string } | null;
-  flags: string[];
 }
 
 export async function getNoticeVersion({ versionId }: { versionId: number }): Promise<NoticeVersion | null> {
