@@ -39,3 +39,22 @@ export const apiTokens = pgTable(
   },
   (t) => [uniqueIndex("api_tokens_hash_key").on(t.tokenHash), index("api_tokens_user_idx").on(t.userId)],
 );
+
+/**
+ * One confirmation of a first ORCID sign-up: the ticket it used (so each confirmation page confirms
+ * one sign-up) and a hash of the random key left in that browser's cookie. The address of such a
+ * sign-up is confirmed only in the browser holding the newest key: someone who typed another
+ * person's address cannot have that person's click give them an account under that address.
+ */
+export const orcidSignUps = pgTable(
+  "orcid_sign_ups",
+  {
+    ticketId: text().primaryKey(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    browserKeyHash: text().notNull(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("orcid_sign_ups_user_idx").on(t.userId, t.createdAt)],
+);

@@ -7,10 +7,10 @@ import { protectedAction } from "@/lib/auth/action";
 import { can } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { idFor } from "@/lib/ids";
-import { changePassword } from "@/lib/users/accounts";
-import { requestPasswordChoice, unlinkOrcid } from "@/lib/users/orcid-accounts";
+import { changePassword, unlinkOrcidWithPassword } from "@/lib/users/accounts";
+import { requestPasswordChoice } from "@/lib/users/orcid-accounts";
 import { createApiToken, revokeApiToken, setProfileListed, updateProfile } from "@/lib/users/queries";
-import { changePasswordSchema, createTokenSchema, profileListingSchema, profileSchema } from "@/lib/users/schemas";
+import { changePasswordSchema, createTokenSchema, profileListingSchema, profileSchema, unlinkOrcidSchema } from "@/lib/users/schemas";
 
 export const updateProfileAction = protectedAction(profileSchema, { permission: "account.update" }, async (input, user) => {
   await updateProfile({ userId: user.id, ...input });
@@ -52,8 +52,8 @@ export const revokeTokenAction = protectedAction(
   },
 );
 
-export const unlinkOrcidAction = protectedAction(z.object({}), { permission: "account.update" }, async (_input, user) => {
-  await unlinkOrcid({ userId: user.id });
+export const unlinkOrcidAction = protectedAction(unlinkOrcidSchema, { permission: "account.update" }, async ({ current }, user) => {
+  await unlinkOrcidWithPassword({ userId: user.id, current });
   revalidatePath("/settings");
   return { status: "ok", message: "ORCID unlinked. Your datasets no longer show your iD as verified." };
 });

@@ -131,9 +131,19 @@ export function RevokeTokenButton({ tokenId, name }: { tokenId: number; name: st
 
 export function UnlinkOrcidButton() {
   const [state, action] = useActionState(unlinkOrcidAction, idleState);
+  const e = state.fieldErrors ?? {};
   return (
     <form action={action} className="space-y-2">
       <FormMessage state={state} />
+      <FormField
+        id="unlink-current"
+        label="Your password (to unlink)"
+        name="current"
+        type="password"
+        autoComplete="current-password"
+        required
+        error={e.current}
+      />
       <SubmitButton className="btn-danger">Unlink ORCID</SubmitButton>
     </form>
   );

@@ -3,12 +3,27 @@
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { publicAction } from "@/lib/auth/action";
-import { verifyEmail } from "@/lib/users/accounts";
+import { orcidBrowserKeyHash } from "@/lib/auth/orcid-browser";
+import { refuseOrcidSignUp, verifyEmail } from "@/lib/users/accounts";
 
-export const verifyAction = publicAction(
-  z.object({ token: z.string().min(10, "This link is incomplete").max(512, "This link is not one of ours") }),
-  async ({ token }) => {
-    await verifyEmail({ secret: token });
-    redirect("/sign-in?verified=1");
-  },
-);
+const linkSchema = z.object({ token: z.string().min(10, "This link is incomplete").max(512, "This link is not one of ours") });
+
+export const verifyAction = publicAction(linkSchema, async ({ token }) => {
+  const outcome = await verifyEmail({ secret: token, browserKeyHash: orcidBrowserKeyHash });
+  if (outcome.kind === "other_browser") {
+    return {
+      status: "error",
+      message: `This address was given at a sign-in with the ORCID iD ${outcome.orcid} in another browser, so it cannot be confirmed here. If that was you, open the link in the browser you signed in with (or sign in with ORCID again in this one). If it was not you, choose "This was not me".`,
+      data: { orcid: outcome.orcid },
+    };
+  }
+  redirect("/sign-in?verified=1");
+});
+
+export const refuseOrcidAction = publicAction(linkSchema, async ({ token }) => {
+  const { orcid } = await refuseOrcidSignUp({ secret: token });
+  return {
+    status: "ok",
+    message: `Done: the ORCID iD ${orcid} is no longer tied to this address, and no link sent for it confirms anything. Nothing else is needed.`,
+  };
+});

@@ -21,6 +21,8 @@ export function compose(
   paragraphs: string[],
   action?: { label: string; url: string },
 ): MailMessage {
+  // A name is one line: whatever breaks it cannot add lines of its own to the message.
+  name = name.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]+/g, " ").trim();
   const text = [
     `Hello ${name},`,
     "",
@@ -46,6 +48,25 @@ export function verificationMail(to: string, name: string, secret: string): Mail
       "The link works once and expires in 48 hours.",
     ],
     { label: "Confirm my address", url: `${appUrl()}/verify?token=${encodeURIComponent(secret)}` },
+  );
+}
+
+/**
+ * The confirmation link of a first ORCID sign-up. It names the iD, since whoever typed this address
+ * at the sign-up need not own it: the link confirms only in the browser that signed in with ORCID,
+ * and anywhere else offers to take the iD off the address.
+ */
+export function orcidVerificationMail(to: string, name: string, orcid: string, secret: string): MailMessage {
+  return compose(
+    to,
+    "Confirm your e-mail address for Arrhenia (ORCID sign-in)",
+    name,
+    [
+      `This address was given when someone signed in to Arrhenia with the ORCID iD ${orcid} (https://orcid.org/${orcid}) and asked for an account.`,
+      "If that was you, open the link below in the same browser you signed in with, and confirm. The link works once and expires in 48 hours.",
+      'If it was not you, do not confirm: open the link and choose "This was not me", and the iD will no longer be tied to your address.',
+    ],
+    { label: "Confirm or refuse", url: `${appUrl()}/verify?token=${encodeURIComponent(secret)}` },
   );
 }
 

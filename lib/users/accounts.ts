@@ -3,8 +3,9 @@ import { hashPassword, verifyPassword } from "@/lib/auth/password";
 import { consumeOrThrow } from "@/lib/auth/rate-limit";
 import { AppError } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/queue";
-import { existingAccountMail, passwordResetMail, verificationMail } from "@/lib/mail/templates";
+import { existingAccountMail, orcidVerificationMail, passwordResetMail, verificationMail } from "@/lib/mail/templates";
 import {
+  accountOfOneTimeToken,
   consumeOneTimeTokenOrThrow,
   createOneTimeToken,
   createUser,
@@ -13,6 +14,8 @@ import {
   getUserById,
   isPendingOrcidSignUp,
   markEmailVerified,
+  newestOrcidSignUpKey,
+  refusePendingOrcidSignUp,
   setPasswordHash,
 } from "./queries";
 import { unlinkOrcid } from "./orcid-accounts";
@@ -41,10 +44,40 @@ export async function signUp({ name, email, password, ip }: { name: string; emai
   await enqueueMail(verificationMail(user.email, user.name, secret));
 }
 
-export async function verifyEmail({ secret }: { secret: string }) {
+const LINK_NOT_LIVE = "This link is invalid, has expired, or was already used. Ask for a new one.";
+
+/**
+ * Confirms an address from the mailed link. The address of a pending ORCID sign-up is confirmed
+ * only in the browser that made it (`browserKeyHash`: the hash of its cookie's key): anywhere else
+ * the answer names the iD, and the owner of the address can refuse it (refuseOrcidSignUp).
+ */
+export async function verifyEmail({
+  secret,
+  browserKeyHash,
+}: {
+  secret: string;
+  /** Read only for a pending ORCID sign-up. */
+  browserKeyHash: () => Promise<string | null>;
+}): Promise<{ kind: "verified" } | { kind: "other_browser"; orcid: string }> {
+  const owner = await accountOfOneTimeToken({ secret, purpose: "verify_email" });
+  if (owner === null) throw new AppError("not_found", LINK_NOT_LIVE);
+  const user = await getUserById({ id: owner });
+  if (user && isPendingOrcidSignUp(user) && user.verifiedOrcid) {
+    const kept = await newestOrcidSignUpKey({ userId: owner });
+    const here = await browserKeyHash();
+    if (!kept || !here || kept !== here) return { kind: "other_browser", orcid: user.verifiedOrcid };
+  }
   const userId = await consumeOneTimeTokenOrThrow({ secret, purpose: "verify_email" });
   await markEmailVerified({ userId });
-  return getUserById({ id: userId });
+  return { kind: "verified" };
+}
+
+/** "This was not me": the ORCID iD of a pending sign-up leaves the address the link was mailed to. */
+export async function refuseOrcidSignUp({ secret }: { secret: string }): Promise<{ orcid: string }> {
+  const owner = await accountOfOneTimeToken({ secret, purpose: "verify_email" });
+  const orcid = owner === null ? null : await refusePendingOrcidSignUp({ userId: owner });
+  if (!orcid) throw new AppError("not_found", LINK_NOT_LIVE);
+  return { orcid };
 }
 
 /**
@@ -58,7 +91,11 @@ export async function requestConfirmationLink({ email, ip }: { email: string; ip
   const user = await getUserByEmail({ email });
   if (!user || user.deactivatedAt || user.emailVerifiedAt) return;
   const secret = await createOneTimeToken({ userId: user.id, purpose: "verify_email" });
-  await enqueueMail(verificationMail(user.email, user.name, secret));
+  await enqueueMail(
+    isPendingOrcidSignUp(user) && user.verifiedOrcid
+      ? orcidVerificationMail(user.email, user.name, user.verifiedOrcid, secret)
+      : verificationMail(user.email, user.name, secret),
+  );
 }
 
 /** Sends a reset link when the account exists; answers the same either way. */
@@ -83,12 +120,22 @@ export async function resetPassword({ secret, password }: { secret: string; pass
   await markEmailVerified({ userId });
 }
 
-export async function changePassword({ userId, current, password }: { userId: number; current: string; password: string }) {
+async function checkCurrentPassword(userId: number, current: string) {
   const row = await getPasswordHash({ id: userId });
   if (!row || !(await verifyPassword(current, row.passwordHash))) {
     throw new AppError("validation_failed", "Your current password is not right", [
       { pointer: "/current", message: "Your current password is not right" },
     ]);
   }
+}
+
+export async function changePassword({ userId, current, password }: { userId: number; current: string; password: string }) {
+  await checkCurrentPassword(userId, current);
   await setPasswordHash({ userId, passwordHash: await hashPassword(password), actorId: userId });
+}
+
+/** Unlinking ORCID from the settings page: the password is typed again (a session left open is not enough). */
+export async function unlinkOrcidWithPassword({ userId, current }: { userId: number; current: string }) {
+  await checkCurrentPassword(userId, current);
+  await unlinkOrcid({ userId });
 }

@@ -8,7 +8,7 @@ import { hashPassword } from "@/lib/auth/password";
 import { consumeOrThrow } from "@/lib/auth/rate-limit";
 import { AppError } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/queue";
-import { choosePasswordMail, existingAccountMail, verificationMail } from "@/lib/mail/templates";
+import { choosePasswordMail, existingAccountMail, orcidVerificationMail } from "@/lib/mail/templates";
 import { datasetTag, invalidatePublicCache, PUBLIC_TAG } from "@/lib/public-cache";
 import {
   createOneTimeToken,
@@ -78,9 +78,23 @@ export async function resolveOrcidSignIn({
  * The confirmation page's answer: creates the account of a first ORCID sign-in (or takes the place
  * of a pending one holding the same iD) and mails the usual confirmation link. When the address
  * already has an account, that address gets the "you already have an account" mail instead, and
- * the caller sees the same answer either way.
+ * the caller sees the same answer either way. The mail names the iD, and its link confirms only in
+ * the browser holding `browserKeyHash`'s key.
  */
-export async function confirmOrcidSignUp({ ticket, name, email, ip }: { ticket: string; name: string; email: string; ip: string }) {
+export async function confirmOrcidSignUp({
+  ticket,
+  name,
+  email,
+  ip,
+  browserKeyHash,
+}: {
+  ticket: string;
+  name: string;
+  email: string;
+  ip: string;
+  /** Hash of the key the confirming browser keeps (lib/auth/orcid-browser.ts): only it confirms the address. */
+  browserKeyHash: string;
+}) {
   const read = readOrcidTicket(ticket);
   if (!read) throw new AppError("validation_failed", TICKET_REFUSED, [{ pointer: "/ticket", message: TICKET_REFUSED }]);
   await consumeOrThrow("signUpIp", ip, "Too many sign-ups from this network");
@@ -92,6 +106,7 @@ export async function confirmOrcidSignUp({ ticket, name, email, ip }: { ticket: 
     email,
     passwordHash: await hashPassword(randomBytes(32).toString("hex")),
     ticketId: read.id,
+    browserKeyHash,
   });
   if (saved === "ticket_used") {
     throw new AppError("validation_failed", TICKET_USED, [{ pointer: "/ticket", message: TICKET_USED }]);
@@ -106,7 +121,7 @@ export async function confirmOrcidSignUp({ ticket, name, email, ip }: { ticket: 
     return;
   }
   const secret = await createOneTimeToken({ userId: saved.user.id, purpose: "verify_email" });
-  await enqueueMail(verificationMail(saved.user.email, saved.user.name, secret));
+  await enqueueMail(orcidVerificationMail(saved.user.email, saved.user.name, read.orcid, secret));
 }
 
 export async function unlinkOrcid({ userId }: { userId: number }) {

@@ -4,7 +4,7 @@ import { and, asc, count, desc, eq, gt, isNull, sql } from "drizzle-orm";
 import { getDb, type Database, type Transaction } from "@/db/client";
 import { datasetVersions } from "@/db/datasets";
 import { creatorPeople } from "@/db/people";
-import { apiTokens, oneTimeTokens } from "@/db/tokens";
+import { apiTokens, oneTimeTokens, orcidSignUps } from "@/db/tokens";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { generateSecret, hashSecret } from "@/lib/auth/secrets";
@@ -309,6 +309,22 @@ export async function consumeOneTimeTokenOrThrow({ secret, purpose }: { secret: 
   return row.userId;
 }
 
+/** The account a live (unused, unexpired) link belongs to, without using the link up. */
+export async function accountOfOneTimeToken({ secret, purpose }: { secret: string; purpose: OneTimePurpose }): Promise<number | null> {
+  const [row] = await getDb()
+    .select({ userId: oneTimeTokens.userId })
+    .from(oneTimeTokens)
+    .where(
+      and(
+        eq(oneTimeTokens.tokenHash, hashSecret(secret)),
+        eq(oneTimeTokens.purpose, purpose),
+        isNull(oneTimeTokens.usedAt),
+        gt(oneTimeTokens.expiresAt, new Date()),
+      ),
+    );
+  return row?.userId ?? null;
+}
+
 // ---- personal API tokens ----
 
 export { apiTokenScopes, type ApiTokenScope } from "./schemas";
@@ -475,21 +491,22 @@ export async function saveOrcidSignUp({
   email,
   passwordHash,
   ticketId,
+  browserKeyHash,
 }: {
   orcid: string;
   name: string;
   email: string;
   passwordHash: string;
-  /** The confirmation ticket's id: each ticket confirms one sign-up (recorded in the audit event). */
+  /** The confirmation ticket's id: each ticket confirms one sign-up. */
   ticketId: string;
+  /** SHA-256 of the key left in the confirming browser's cookie: only that browser confirms the address. */
+  browserKeyHash: string;
 }): Promise<{ user: UserDto; replaced: boolean } | null | "ticket_used"> {
   const address = normaliseEmail(email);
   return getDb().transaction(async (tx) => {
     // Serialised per iD (the holder row lock below, or this advisory lock when there is none yet).
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`orcid-sign-up:${orcid}`}))`);
-    const [used] = await tx.execute(
-      sql`select 1 from audit_events where action in ('user.sign_up', 'user.orcid_sign_up_replaced') and details ->> 'ticket' = ${ticketId} limit 1`,
-    );
+    const [used] = await tx.select({ userId: orcidSignUps.userId }).from(orcidSignUps).where(eq(orcidSignUps.ticketId, ticketId));
     if (used) return "ticket_used";
     const [holder] = await tx.select(userColumns).from(users).where(eq(users.verifiedOrcid, orcid)).for("update");
     if (holder && !isPendingOrcidSignUp(holder)) return null;
@@ -502,6 +519,7 @@ export async function saveOrcidSignUp({
       const [row] = await tx.update(users).set({ name: name.trim(), email: address }).where(eq(users.id, holder.id)).returning(userColumns);
       // A link sent to the address typed before no longer confirms anything.
       await voidOneTimeTokens({ userId: holder.id, purpose: "verify_email", tx });
+      await tx.insert(orcidSignUps).values({ ticketId, userId: holder.id, browserKeyHash });
       await recordAuditEvent(tx, {
         actorId: holder.id,
         action: "user.orcid_sign_up_replaced",
@@ -517,6 +535,7 @@ export async function saveOrcidSignUp({
       .onConflictDoNothing()
       .returning(userColumns);
     if (!row) return null;
+    await tx.insert(orcidSignUps).values({ ticketId, userId: row.id, browserKeyHash });
     await recordAuditEvent(tx, {
       actorId: row.id,
       action: "user.sign_up",
@@ -525,6 +544,39 @@ export async function saveOrcidSignUp({
       details: { through: "orcid", orcid, ticket: ticketId },
     });
     return { user: row, replaced: false };
+  });
+}
+
+/** The key hash left by the newest ORCID sign-up confirmation of an account (null when none). */
+export async function newestOrcidSignUpKey({ userId }: { userId: number }): Promise<string | null> {
+  const [row] = await getDb()
+    .select({ browserKeyHash: orcidSignUps.browserKeyHash })
+    .from(orcidSignUps)
+    .where(eq(orcidSignUps.userId, userId))
+    .orderBy(desc(orcidSignUps.createdAt))
+    .limit(1);
+  return row?.browserKeyHash ?? null;
+}
+
+/**
+ * The owner of an address says a pending ORCID sign-up under it was not theirs: the iD leaves the
+ * account and no link sent for it confirms anything any more. The account stays unconfirmed and
+ * without a usable password (a password reset from the address opens it, without the iD).
+ */
+export async function refusePendingOrcidSignUp({ userId }: { userId: number }): Promise<string | null> {
+  return getDb().transaction(async (tx) => {
+    const [row] = await tx.select(userColumns).from(users).where(eq(users.id, userId)).for("update");
+    if (!row || !isPendingOrcidSignUp(row)) return null;
+    await tx.update(users).set({ verifiedOrcid: null, orcidLinkedAt: null }).where(eq(users.id, userId));
+    await voidOneTimeTokens({ userId, purpose: "verify_email", tx });
+    await recordAuditEvent(tx, {
+      actorId: null,
+      action: "user.orcid_sign_up_refused",
+      subjectType: "user",
+      subjectId: userId,
+      details: { orcid: row.verifiedOrcid },
+    });
+    return row.verifiedOrcid;
   });
 }
 

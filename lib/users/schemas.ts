@@ -5,7 +5,23 @@ import { idFor } from "@/lib/ids";
 
 // Shared by forms, server actions and (later) the REST API. FormData values are strings.
 
-export const emailField = z.string().trim().toLowerCase().email("Enter an e-mail address like name@example.org").max(320);
+export const emailField = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .max(320, "An e-mail address has at most 320 characters")
+  .email("Enter an e-mail address like name@example.org");
+
+/** A person's name: one line of at most 200 characters (it is printed in mail and on pages). */
+export const personNameField = z
+  .string()
+  .trim()
+  .min(1, "Enter your name")
+  .max(200, "Use at most 200 characters")
+  .refine(
+    (v) => !/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/.test(v),
+    "A name is one line: remove line breaks, tabs and control characters",
+  );
 
 export const passwordField = z
   .string()
@@ -28,7 +44,7 @@ export const orcidField = z
 
 export const signUpSchema = z
   .object({
-    name: z.string().trim().min(1, "Enter your name").max(200),
+    name: personNameField,
     email: emailField,
     password: passwordField,
     confirm: z.string().max(200),
@@ -36,7 +52,7 @@ export const signUpSchema = z
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 
 export const profileSchema = z.object({
-  name: z.string().trim().min(1, "Enter your name").max(200),
+  name: personNameField,
   affiliation: z
     .string()
     .trim()
@@ -48,6 +64,8 @@ export const profileSchema = z.object({
 export const changePasswordSchema = z
   .object({ current: z.string().min(1, "Enter your current password").max(200), password: passwordField, confirm: z.string().max(200) })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
+
+export const unlinkOrcidSchema = z.object({ current: z.string().min(1, "Enter your password").max(200, "Use at most 200 characters") });
 
 export const forgotPasswordSchema = z.object({ email: emailField });
 
@@ -86,8 +104,11 @@ export const userPatchSchema = z
 
 /** The confirmation page of a first ORCID sign-in: the name and address the new account gets, and the signed ticket. */
 export const orcidSignUpSchema = z.object({
-  ticket: z.string().min(20).max(2000),
-  name: z.string().trim().min(1, "Enter your name").max(200),
+  ticket: z
+    .string()
+    .min(20, "This confirmation page is incomplete: sign in with ORCID again")
+    .max(2000, "This confirmation page was not made by this site: sign in with ORCID again"),
+  name: personNameField,
   email: emailField,
 });
 

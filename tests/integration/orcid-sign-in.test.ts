@@ -17,8 +17,8 @@ const fakeHeaders = vi.hoisted(() => ({
     getAll: () => [...browser.cookies].map(([name, value]) => ({ name, value })),
     get: (name: string) => (browser.cookies.has(name) ? { name, value: browser.cookies.get(name)! } : undefined),
     has: (name: string) => browser.cookies.has(name),
-    set: () => {},
-    delete: () => {},
+    set: (name: string, value: string) => void browser.cookies.set(name, value),
+    delete: (name: string) => void browser.cookies.delete(name),
   }),
 }));
 vi.mock("next/headers", () => fakeHeaders);
@@ -28,6 +28,7 @@ import { createRequire } from "node:module";
 import { NextRequest } from "next/server";
 import { GET, POST } from "@/app/api/auth/[...nextauth]/route";
 import { confirmOrcidSignUpAction } from "@/app/sign-in/orcid/actions";
+import { refuseOrcidAction, verifyAction } from "@/app/verify/actions";
 import { idleState } from "@/lib/auth/action-state";
 import { startOrcidStandIn, type OrcidStandIn } from "@/lib/auth/orcid-stand-in";
 import { hashPassword } from "@/lib/auth/password";
@@ -38,9 +39,9 @@ import { getPublicVersionDatacite } from "@/lib/identifiers/public-datacite";
 import { getPublicProfile, listProfileDatasets } from "@/lib/people/queries";
 import { unlinkOrcid } from "@/lib/users/orcid-accounts";
 import { createOneTimeToken, createUser, markEmailVerified } from "@/lib/users/queries";
-import { resetPassword } from "@/lib/users/accounts";
+import { resetPassword, unlinkOrcidWithPassword } from "@/lib/users/accounts";
 import { freshOrcid } from "../support/orcid";
-import { depositInState, sql, uniqueEmail } from "./helpers";
+import { depositInState, linkToken, sql, startMailPipeline, uniqueEmail, waitForMail } from "./helpers";
 
 // next-auth loads next/headers with require(), which vi.mock does not reach: the same fake goes into require's cache.
 const nodeRequire = createRequire(import.meta.url);
@@ -49,8 +50,10 @@ nodeRequire.cache[headersPath] = { id: headersPath, filename: headersPath, loade
 
 const APP = "http://127.0.0.1:3999";
 let standIn: OrcidStandIn;
+let mail: Awaited<ReturnType<typeof startMailPipeline>>;
 
 beforeAll(async () => {
+  mail = await startMailPipeline();
   standIn = await startOrcidStandIn({
     port: Number(process.env.ORCID_STAND_IN_PORT),
     ...ORCID_STAND_IN_CLIENT,
@@ -59,6 +62,7 @@ beforeAll(async () => {
   });
 });
 afterAll(async () => {
+  await mail?.stop();
   await standIn?.close();
 });
 
@@ -253,6 +257,51 @@ describe("sign in with ORCID through the stand-in", () => {
     expect(await signInWithOrcid({ orcid })).toMatch(/\/sign-in\/orcid\?ticket=/);
   });
 
+  it("the mailed link of an ORCID sign-up names the iD and confirms only in the browser that signed in", async () => {
+    browser.cookies.clear();
+    const orcid = freshOrcid();
+    const email = uniqueEmail("orcid-same-browser");
+    expect((await confirm(await signInWithOrcid({ orcid }), "Same Browser", email)).status).toBe("ok");
+    const message = await waitForMail(email, { subject: /ORCID sign-in/ });
+    expect(message.text).toContain(orcid);
+    expect(message.text).toContain("This was not me");
+    const form = new FormData();
+    form.set("token", linkToken(message.text, "/verify"));
+    // The same browser (its cookie kept): confirmed, and sent on to sign in.
+    await expect(verifyAction(idleState, form)).rejects.toThrow(/NEXT_REDIRECT/);
+    expect((await accountOf(orcid)).email_verified_at).not.toBeNull();
+  });
+
+  it("an unrequested ORCID sign-up's link opened elsewhere confirms nothing, names the iD, and the address's owner can refuse it", async () => {
+    browser.cookies.clear();
+    const orcid = freshOrcid();
+    const victim = uniqueEmail("orcid-planted");
+    expect((await confirm(await signInWithOrcid({ orcid }), "Planted Name", victim)).status).toBe("ok");
+    const planted = await accountOf(orcid);
+    const token = linkToken((await waitForMail(victim, { subject: /ORCID sign-in/ })).text, "/verify");
+    // The address's owner opens the link in their own browser: no key of that sign-up there.
+    browser.cookies.clear();
+    const form = new FormData();
+    form.set("token", token);
+    const answer = await verifyAction(idleState, form);
+    expect(answer).toMatchObject({ status: "error", data: { orcid } });
+    expect(answer.message).toContain(orcid);
+    expect((await accountOf(orcid)).email_verified_at).toBeNull();
+    // A key of another sign-up does not do either.
+    browser.cookies.set("arrhenia-orcid-sign-up", "osb_not-the-key-of-this-sign-up");
+    expect(await verifyAction(idleState, form)).toMatchObject({ status: "error", data: { orcid } });
+    // "This was not me": the iD leaves the address, and the link confirms nothing any more.
+    expect(await refuseOrcidAction(idleState, form)).toMatchObject({ status: "ok", message: expect.stringContaining(orcid) });
+    expect(await accountOf(orcid)).toBeUndefined();
+    const [row] = await sql`select verified_orcid, email_verified_at from users where id = ${planted.id}`;
+    expect(row).toMatchObject({ verified_orcid: null, email_verified_at: null });
+    expect(await verifyAction(idleState, form)).toMatchObject({ status: "error", message: expect.stringMatching(/already used/) });
+    expect(await refuseOrcidAction(idleState, form)).toMatchObject({ status: "error" });
+    // The iD's holder signing in again is asked for an address of their own.
+    browser.cookies.clear();
+    expect(await signInWithOrcid({ orcid })).toMatch(/\/sign-in\/orcid\?ticket=/);
+  });
+
   it("a signed-in person links and unlinks an iD; a second account cannot link the same iD", async () => {
     const password = "a long enough password";
     const mk = async (tag: string) =>
@@ -269,7 +318,10 @@ describe("sign in with ORCID through the stand-in", () => {
     const [secondRow] = await sql`select verified_orcid from users where id = ${second.id}`;
     expect(secondRow.verified_orcid).toBeNull();
 
-    await unlinkOrcid({ userId: first.id });
+    // Unlinking from the settings page asks for the password again: a wrong one changes nothing.
+    await expect(unlinkOrcidWithPassword({ userId: first.id, current: "not the password" })).rejects.toThrow(/not right/);
+    expect((await accountOf(orcid)).id).toBe(first.id);
+    await unlinkOrcidWithPassword({ userId: first.id, current: password });
     expect(await accountOf(orcid)).toBeUndefined();
   });
 

@@ -12,11 +12,13 @@ export async function generateMetadata({ params }: { params: Promise<{ id: strin
   const id = parseIdOrNull((await params).id);
   const profile = id === null ? null : await getPublicProfile({ id });
   if (!profile) return NOT_FOUND_METADATA;
-  return publicPageMetadata({
+  const metadata = publicPageMetadata({
     title: profile.name,
     description: `Published rate-constant datasets of ${profile.name}.`,
     path: `/people/${id}`,
   });
+  // An unlisted profile still answers at its address (a dataset page links it) but asks search engines to leave it out.
+  return profile.listed ? metadata : { ...metadata, robots: { index: false, follow: true } };
 }
 
 // /people/:id — a person's public profile: name, iD, affiliation and every published dataset they created or deposited.

@@ -1,0 +1,32 @@
+import "server-only";
+import { cookies } from "next/headers";
+import { generateSecret, hashSecret } from "@/lib/auth/secrets";
+import { appUrl } from "@/lib/config";
+
+/**
+ * The browser that confirmed a first ORCID sign-up keeps a random key in a cookie; the address of
+ * that sign-up is confirmed only where the key is (lib/users/accounts.ts verifyEmail). It is read
+ * only by the confirmation page's action, so its path is /verify.
+ */
+const COOKIE = "arrhenia-orcid-sign-up";
+const LIFETIME_SECONDS = 48 * 3600; // as long as the confirmation link lives
+
+export function newOrcidBrowserKey(): { key: string; hash: string } {
+  const key = generateSecret("osb_");
+  return { key, hash: hashSecret(key) };
+}
+
+export async function keepOrcidBrowserKey(key: string) {
+  (await cookies()).set(COOKIE, key, {
+    httpOnly: true,
+    sameSite: "lax",
+    secure: appUrl().startsWith("https:"),
+    path: "/verify",
+    maxAge: LIFETIME_SECONDS,
+  });
+}
+
+export async function orcidBrowserKeyHash(): Promise<string | null> {
+  const key = (await cookies()).get(COOKIE)?.value;
+  return key && key.length <= 200 ? hashSecret(key) : null;
+}
