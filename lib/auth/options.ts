@@ -1,5 +1,6 @@
 import "server-only";
 import { databaseUnavailable } from "@/lib/errors";
+import { isDatabaseOutage } from "@/lib/jobs/outage";
 import { getServerSession, type NextAuthOptions, type User } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import type { OAuthConfig } from "next-auth/providers/oauth";
@@ -221,7 +222,16 @@ export const authOptions: NextAuthOptions = {
         token.gen = user.sessionGeneration;
         return token;
       }
-      if (!(await isSessionCurrent(token.uid, token.gen))) throw new SessionEndedError();
+      let current: boolean;
+      try {
+        current = await isSessionCurrent(token.uid, token.gen);
+      } catch (err) {
+        // The database out of reach for a moment ends nobody's session: the cookie stays, and every
+        // page or action that needs the person reads the database again (and says it is out of reach).
+        if (isDatabaseOutage(err)) return token;
+        throw err;
+      }
+      if (!current) throw new SessionEndedError();
       return token;
     },
     session({ session, token }) {
