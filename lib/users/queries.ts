@@ -289,19 +289,21 @@ export async function createOneTimeToken({ userId, purpose }: { userId: number; 
   return secret;
 }
 
+/** The row of a live link: this secret, this purpose, unused and unexpired. */
+const liveToken = (secret: string, purpose: OneTimePurpose) =>
+  and(
+    eq(oneTimeTokens.tokenHash, hashSecret(secret)),
+    eq(oneTimeTokens.purpose, purpose),
+    isNull(oneTimeTokens.usedAt),
+    gt(oneTimeTokens.expiresAt, new Date()),
+  );
+
 /** Marks the token used and returns its user, or throws when it is unknown, used or expired. */
 export async function consumeOneTimeTokenOrThrow({ secret, purpose }: { secret: string; purpose: OneTimePurpose }): Promise<number> {
   const [row] = await getDb()
     .update(oneTimeTokens)
     .set({ usedAt: new Date() })
-    .where(
-      and(
-        eq(oneTimeTokens.tokenHash, hashSecret(secret)),
-        eq(oneTimeTokens.purpose, purpose),
-        isNull(oneTimeTokens.usedAt),
-        gt(oneTimeTokens.expiresAt, new Date()),
-      ),
-    )
+    .where(liveToken(secret, purpose))
     .returning({ userId: oneTimeTokens.userId });
   if (!row) {
     throw new AppError("not_found", "This link is invalid, has expired, or was already used. Ask for a new one.");
@@ -311,17 +313,7 @@ export async function consumeOneTimeTokenOrThrow({ secret, purpose }: { secret: 
 
 /** The account a live (unused, unexpired) link belongs to, without using the link up. */
 export async function accountOfOneTimeToken({ secret, purpose }: { secret: string; purpose: OneTimePurpose }): Promise<number | null> {
-  const [row] = await getDb()
-    .select({ userId: oneTimeTokens.userId })
-    .from(oneTimeTokens)
-    .where(
-      and(
-        eq(oneTimeTokens.tokenHash, hashSecret(secret)),
-        eq(oneTimeTokens.purpose, purpose),
-        isNull(oneTimeTokens.usedAt),
-        gt(oneTimeTokens.expiresAt, new Date()),
-      ),
-    );
+  const [row] = await getDb().select({ userId: oneTimeTokens.userId }).from(oneTimeTokens).where(liveToken(secret, purpose));
   return row?.userId ?? null;
 }
 
@@ -467,16 +459,18 @@ export async function unlinkVerifiedOrcid({ userId }: { userId: number }): Promi
       throw new AppError("conflict", "Choose a password first (we can e-mail you a link): without ORCID it is how you sign in");
     }
     const before = await linkedDatasetIds(tx, userId);
-    await tx.update(users).set({ verifiedOrcid: null, orcidLinkedAt: null }).where(eq(users.id, userId));
-    await recordAuditEvent(tx, {
-      actorId: userId,
-      action: "user.orcid_unlinked",
-      subjectType: "user",
-      subjectId: userId,
-      details: { orcid: row.verifiedOrcid },
-    });
+    await takeOrcidOff(tx, { userId, orcid: row.verifiedOrcid, actorId: userId, action: "user.orcid_unlinked" });
     return before;
   });
+}
+
+/** The verified iD leaves the account, with the audit event saying who took it off and why. */
+async function takeOrcidOff(
+  tx: Transaction,
+  { userId, orcid, actorId, action }: { userId: number; orcid: string; actorId: number | null; action: string },
+) {
+  await tx.update(users).set({ verifiedOrcid: null, orcidLinkedAt: null }).where(eq(users.id, userId));
+  await recordAuditEvent(tx, { actorId, action, subjectType: "user", subjectId: userId, details: { orcid } });
 }
 
 /**
@@ -567,15 +561,8 @@ export async function refusePendingOrcidSignUp({ userId }: { userId: number }): 
   return getDb().transaction(async (tx) => {
     const [row] = await tx.select(userColumns).from(users).where(eq(users.id, userId)).for("update");
     if (!row || !isPendingOrcidSignUp(row)) return null;
-    await tx.update(users).set({ verifiedOrcid: null, orcidLinkedAt: null }).where(eq(users.id, userId));
+    await takeOrcidOff(tx, { userId, orcid: row.verifiedOrcid!, actorId: null, action: "user.orcid_sign_up_refused" });
     await voidOneTimeTokens({ userId, purpose: "verify_email", tx });
-    await recordAuditEvent(tx, {
-      actorId: null,
-      action: "user.orcid_sign_up_refused",
-      subjectType: "user",
-      subjectId: userId,
-      details: { orcid: row.verifiedOrcid },
-    });
     return row.verifiedOrcid;
   });
 }
