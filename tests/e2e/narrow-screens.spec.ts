@@ -215,6 +215,8 @@ test("the API reference is folded on a phone: every endpoint listed, each opens 
 });
 
 test("the API reference with every section and endpoint open: no wider than a phone, no serious axe finding", async ({ page }) => {
+  // axe reads every open endpoint of the reference (thousands of elements): minutes on a busy 2-core machine.
+  test.setTimeout(240_000);
   await page.setViewportSize(PHONE);
   await page.goto("/docs/api");
   await page.evaluate(() => document.querySelectorAll("details").forEach((d) => d.setAttribute("open", "")));
