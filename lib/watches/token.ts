@@ -17,7 +17,8 @@ export function signStopToken(watchId: number, userId: number): string {
 
 /** The watch and person a stop link names, or null when it was altered or made with another key. */
 export function readStopToken(token: string): { watchId: number; userId: number } | null {
-  const m = /^(\d{1,10})\.(\d{1,10})\.([A-Za-z0-9_-]{43})$/.exec(token);
+  // Ids as signStopToken writes them (no leading zeros): one link, one spelling.
+  const m = /^([1-9]\d{0,9})\.([1-9]\d{0,9})\.([A-Za-z0-9_-]{43})$/.exec(token);
   if (!m) return null;
   const watchId = Number(m[1]);
   const userId = Number(m[2]);

@@ -104,6 +104,7 @@ describe("watches and the mail they cause", () => {
     const token = signStopToken(speciesWatch.id, both.id);
     expect(readStopToken(token)).toEqual({ watchId: speciesWatch.id, userId: both.id });
     expect(readStopToken(signStopToken(speciesWatch.id, digest.id).replace(/^\d+/, String(speciesWatch.id + 1)))).toBeNull();
+    expect(readStopToken(`0${token}`)).toBeNull(); // one link, one spelling
     const bad = await stopRoute(
       new Request(`http://127.0.0.1/api/watches/stop?token=${encodeURIComponent(token.slice(0, -2))}`, { method: "POST" }),
       {
