@@ -49,12 +49,14 @@ export const apiTokens = pgTable(
 export const orcidSignUps = pgTable(
   "orcid_sign_ups",
   {
-    ticketId: text().primaryKey(),
+    /** Insertion order under the account's lock: the highest id is the newest confirmation. */
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    ticketId: text().notNull(),
     userId: integer()
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
     browserKeyHash: text().notNull(),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("orcid_sign_ups_user_idx").on(t.userId, t.createdAt)],
+  (t) => [uniqueIndex("orcid_sign_ups_ticket_key").on(t.ticketId), index("orcid_sign_ups_user_idx").on(t.userId, t.id)],
 );

@@ -30,3 +30,29 @@ export async function orcidBrowserKeyHash(): Promise<string | null> {
   const key = (await cookies()).get(COOKIE)?.value;
   return key && key.length <= 200 ? hashSecret(key) : null;
 }
+
+/**
+ * The signed ticket of a first ORCID sign-in travels in a cookie set on the ORCID callback's own
+ * answer (app/api/auth), never in an address: the confirmation page opens only in the browser that
+ * came back from ORCID, so its link cannot be handed to someone else to fill in.
+ */
+export const ORCID_TICKET_COOKIE = "arrhenia-orcid-ticket";
+export const ORCID_TICKET_COOKIE_OPTIONS = {
+  httpOnly: true,
+  sameSite: "lax" as const,
+  path: "/sign-in/orcid",
+  maxAge: 15 * 60, // the ticket's own lifetime (lib/auth/orcid-ticket.ts)
+};
+
+export function ticketCookieSecure(): boolean {
+  return appUrl().startsWith("https:");
+}
+
+export async function orcidTicketFromCookie(): Promise<string | null> {
+  const value = (await cookies()).get(ORCID_TICKET_COOKIE)?.value;
+  return value && value.length <= 2000 ? value : null;
+}
+
+export async function forgetOrcidTicket() {
+  (await cookies()).delete({ name: ORCID_TICKET_COOKIE, path: ORCID_TICKET_COOKIE_OPTIONS.path });
+}

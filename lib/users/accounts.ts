@@ -3,19 +3,18 @@ import { hashPassword, verifyPassword } from "@/lib/auth/password";
 import { consumeOrThrow } from "@/lib/auth/rate-limit";
 import { AppError } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/queue";
+import { datasetTag, invalidatePublicCache, PUBLIC_TAG } from "@/lib/public-cache";
 import { existingAccountMail, orcidVerificationMail, passwordResetMail, verificationMail } from "@/lib/mail/templates";
 import {
-  accountOfOneTimeToken,
-  consumeOneTimeTokenOrThrow,
+  confirmAddressWithToken,
   createOneTimeToken,
   createUser,
   getPasswordHash,
   getUserByEmail,
   getUserById,
   isPendingOrcidSignUp,
-  markEmailVerified,
-  newestOrcidSignUpKey,
-  refusePendingOrcidSignUp,
+  refuseOrcidSignUpWithToken,
+  resetPasswordWithToken,
   setPasswordHash,
 } from "./queries";
 import { unlinkOrcid } from "./orcid-accounts";
@@ -44,8 +43,6 @@ export async function signUp({ name, email, password, ip }: { name: string; emai
   await enqueueMail(verificationMail(user.email, user.name, secret));
 }
 
-const LINK_NOT_LIVE = "This link is invalid, has expired, or was already used. Ask for a new one.";
-
 /**
  * Confirms an address from the mailed link. The address of a pending ORCID sign-up is confirmed
  * only in the browser that made it (`browserKeyHash`: the hash of its cookie's key): anywhere else
@@ -59,25 +56,12 @@ export async function verifyEmail({
   /** Read only for a pending ORCID sign-up. */
   browserKeyHash: () => Promise<string | null>;
 }): Promise<{ kind: "verified" } | { kind: "other_browser"; orcid: string }> {
-  const owner = await accountOfOneTimeToken({ secret, purpose: "verify_email" });
-  if (owner === null) throw new AppError("not_found", LINK_NOT_LIVE);
-  const user = await getUserById({ id: owner });
-  if (user && isPendingOrcidSignUp(user) && user.verifiedOrcid) {
-    const kept = await newestOrcidSignUpKey({ userId: owner });
-    const here = await browserKeyHash();
-    if (!kept || !here || kept !== here) return { kind: "other_browser", orcid: user.verifiedOrcid };
-  }
-  const userId = await consumeOneTimeTokenOrThrow({ secret, purpose: "verify_email" });
-  await markEmailVerified({ userId });
-  return { kind: "verified" };
+  return confirmAddressWithToken({ secret, browserKeyHash });
 }
 
 /** "This was not me": the ORCID iD of a pending sign-up leaves the address the link was mailed to. */
 export async function refuseOrcidSignUp({ secret }: { secret: string }): Promise<{ orcid: string }> {
-  const owner = await accountOfOneTimeToken({ secret, purpose: "verify_email" });
-  const orcid = owner === null ? null : await refusePendingOrcidSignUp({ userId: owner });
-  if (!orcid) throw new AppError("not_found", LINK_NOT_LIVE);
-  return { orcid };
+  return { orcid: await refuseOrcidSignUpWithToken({ secret }) };
 }
 
 /**
@@ -90,7 +74,8 @@ export async function requestConfirmationLink({ email, ip }: { email: string; ip
   await consumeOrThrow("confirmEmail", email, "Too many requests for a confirmation link for this address");
   const user = await getUserByEmail({ email });
   if (!user || user.deactivatedAt || user.emailVerifiedAt) return;
-  const secret = await createOneTimeToken({ userId: user.id, purpose: "verify_email" });
+  const secret = await createOneTimeToken({ userId: user.id, purpose: "verify_email", sentTo: user.email });
+  if (!secret) return; // the address changed meanwhile
   await enqueueMail(
     isPendingOrcidSignUp(user) && user.verifiedOrcid
       ? orcidVerificationMail(user.email, user.name, user.verifiedOrcid, secret)
@@ -104,20 +89,16 @@ export async function requestPasswordReset({ email, ip }: { email: string; ip: s
   await consumeOrThrow("resetEmail", email, "Too many reset requests for this address");
   const user = await getUserByEmail({ email });
   if (!user || user.deactivatedAt) return;
-  const secret = await createOneTimeToken({ userId: user.id, purpose: "reset_password" });
+  const secret = await createOneTimeToken({ userId: user.id, purpose: "reset_password", sentTo: user.email });
+  if (!secret) return; // the address changed meanwhile
   await enqueueMail(passwordResetMail(user.email, user.name, secret));
 }
 
 export async function resetPassword({ secret, password }: { secret: string; password: string }) {
-  const userId = await consumeOneTimeTokenOrThrow({ secret, purpose: "reset_password" });
-  // A pending ORCID sign-up's address proven by a reset: whoever typed that address at the ORCID
-  // sign-up need not own it, so the iD does not stay with the account (its holder signs in with
-  // ORCID again and confirms an address of their own).
-  const before = await getUserById({ id: userId });
-  await setPasswordHash({ userId, passwordHash: await hashPassword(password), actorId: userId });
-  if (before && isPendingOrcidSignUp(before)) await unlinkOrcid({ userId });
-  // Following a link from the inbox also proves the address.
-  await markEmailVerified({ userId });
+  // One transaction under the account's lock: the password, the proven address and (for a pending
+  // ORCID sign-up, whose address need not be its iD holder's) the iD taken off.
+  const { datasetIds } = await resetPasswordWithToken({ secret, passwordHash: await hashPassword(password) });
+  if (datasetIds.length > 0) await invalidatePublicCache([PUBLIC_TAG, ...datasetIds.map(datasetTag)]);
 }
 
 async function checkCurrentPassword(userId: number, current: string) {

@@ -120,8 +120,7 @@ export async function confirmOrcidSignUp({
     if (existing) await enqueueMail(existingAccountMail(existing.email, existing.name));
     return;
   }
-  const secret = await createOneTimeToken({ userId: saved.user.id, purpose: "verify_email" });
-  await enqueueMail(orcidVerificationMail(saved.user.email, saved.user.name, read.orcid, secret));
+  await enqueueMail(orcidVerificationMail(saved.user.email, saved.user.name, read.orcid, saved.secret));
 }
 
 export async function unlinkOrcid({ userId }: { userId: number }) {

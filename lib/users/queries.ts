@@ -4,10 +4,10 @@ import { and, asc, count, desc, eq, gt, isNull, sql } from "drizzle-orm";
 import { getDb, type Database, type Transaction } from "@/db/client";
 import { datasetVersions } from "@/db/datasets";
 import { creatorPeople } from "@/db/people";
-import { apiTokens, oneTimeTokens, orcidSignUps } from "@/db/tokens";
+import { apiTokens, oneTimePurposeEnum, oneTimeTokens, orcidSignUps } from "@/db/tokens";
 import { users, type Role } from "@/db/users";
 import { recordAuditEvent } from "@/lib/audit/record";
-import { generateSecret, hashSecret } from "@/lib/auth/secrets";
+import { generateSecret, hashSecret, secretsEqual } from "@/lib/auth/secrets";
 import { AppError } from "@/lib/errors";
 
 /** What pages and APIs may see of a person: never the password hash. */
@@ -228,24 +228,28 @@ export async function updateProfile({
 }
 
 export async function setPasswordHash({ userId, passwordHash, actorId }: { userId: number; passwordHash: string; actorId: number | null }) {
-  await getDb().transaction(async (tx) => {
-    await tx.update(users).set({ passwordHash, passwordSet: true }).where(eq(users.id, userId));
-    // A new password ends every session, and no reset or sign-in link issued before it still works.
-    await endAllSessions({ userId, tx });
-    await voidOneTimeTokens({ userId, purpose: "reset_password", tx });
-    await voidOneTimeTokens({ userId, purpose: "unlock_sign_in", tx });
-    await recordAuditEvent(tx, { actorId, action: "user.password_changed", subjectType: "user", subjectId: userId });
-  });
+  await getDb().transaction((tx) => writePassword(tx, { userId, passwordHash, actorId }));
+}
+
+async function writePassword(tx: Transaction, { userId, passwordHash, actorId }: { userId: number; passwordHash: string; actorId: number | null }) {
+  await tx.update(users).set({ passwordHash, passwordSet: true }).where(eq(users.id, userId));
+  // A new password ends every session, and no reset or sign-in link issued before it still works.
+  await endAllSessions({ userId, tx });
+  await voidOneTimeTokens({ userId, purpose: "reset_password", tx });
+  await voidOneTimeTokens({ userId, purpose: "unlock_sign_in", tx });
+  await recordAuditEvent(tx, { actorId, action: "user.password_changed", subjectType: "user", subjectId: userId });
 }
 
 export async function markEmailVerified({ userId }: { userId: number }) {
-  await getDb().transaction(async (tx) => {
-    await tx
-      .update(users)
-      .set({ emailVerifiedAt: new Date() })
-      .where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
-    await recordAuditEvent(tx, { actorId: userId, action: "user.email_verified", subjectType: "user", subjectId: userId });
-  });
+  await getDb().transaction((tx) => writeEmailVerified(tx, userId));
+}
+
+async function writeEmailVerified(tx: Transaction, userId: number) {
+  await tx
+    .update(users)
+    .set({ emailVerifiedAt: new Date() })
+    .where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
+  await recordAuditEvent(tx, { actorId: userId, action: "user.email_verified", subjectType: "user", subjectId: userId });
 }
 
 // ---- one-time tokens (e-mail verification, password reset) ----
@@ -277,15 +281,36 @@ export async function voidOneTimeTokens({
     .where(and(eq(oneTimeTokens.userId, userId), eq(oneTimeTokens.purpose, purpose), isNull(oneTimeTokens.usedAt)));
 }
 
-/** Creates a single-use link secret; only its hash is stored. */
-export async function createOneTimeToken({ userId, purpose }: { userId: number; purpose: OneTimePurpose }): Promise<string> {
-  const secret = generateSecret("", 32);
-  await getDb().transaction(async (tx) => {
-    if (newestOnly.has(purpose)) await voidOneTimeTokens({ userId, purpose, tx });
-    await tx
-      .insert(oneTimeTokens)
-      .values({ userId, purpose, tokenHash: hashSecret(secret), expiresAt: new Date(Date.now() + ttlMs[purpose]) });
+/**
+ * Creates a single-use link secret; only its hash is stored. With `sentTo`, the link is made only
+ * while the account still has that address (checked under the account's row lock, which every
+ * change of address takes): a link is never mailed to an address the account no longer has.
+ * Returns null when the address changed.
+ */
+export async function createOneTimeToken(input: { userId: number; purpose: OneTimePurpose }): Promise<string>;
+export async function createOneTimeToken(input: { userId: number; purpose: OneTimePurpose; sentTo: string }): Promise<string | null>;
+export async function createOneTimeToken({
+  userId,
+  purpose,
+  sentTo,
+}: {
+  userId: number;
+  purpose: OneTimePurpose;
+  sentTo?: string;
+}): Promise<string | null> {
+  return getDb().transaction(async (tx) => {
+    if (sentTo !== undefined) {
+      const [row] = await tx.select({ email: users.email }).from(users).where(eq(users.id, userId)).for("update");
+      if (!row || normaliseEmail(row.email) !== normaliseEmail(sentTo)) return null;
+    }
+    return insertOneTimeToken(tx, { userId, purpose });
   });
+}
+
+async function insertOneTimeToken(tx: Transaction, { userId, purpose }: { userId: number; purpose: OneTimePurpose }): Promise<string> {
+  const secret = generateSecret("", 32);
+  if (newestOnly.has(purpose)) await voidOneTimeTokens({ userId, purpose, tx });
+  await tx.insert(oneTimeTokens).values({ userId, purpose, tokenHash: hashSecret(secret), expiresAt: new Date(Date.now() + ttlMs[purpose]) });
   return secret;
 }
 
@@ -315,6 +340,94 @@ export async function consumeOneTimeTokenOrThrow({ secret, purpose }: { secret: 
 export async function accountOfOneTimeToken({ secret, purpose }: { secret: string; purpose: OneTimePurpose }): Promise<number | null> {
   const [row] = await getDb().select({ userId: oneTimeTokens.userId }).from(oneTimeTokens).where(liveToken(secret, purpose));
   return row?.userId ?? null;
+}
+
+export const LINK_NOT_LIVE = "This link is invalid, has expired, or was already used. Ask for a new one.";
+
+/**
+ * Uses a live link inside one transaction that holds its account's row lock (taken before the
+ * link's, as every change of address takes it): nothing about the account can change between the
+ * checks `body` makes and what it writes. `body` says whether the link is used up.
+ */
+async function withLiveToken<T>(
+  { secret, purpose }: { secret: string; purpose: OneTimePurpose },
+  body: (tx: Transaction, user: UserDto) => Promise<{ use: boolean; value: T }>,
+): Promise<T> {
+  const owner = await accountOfOneTimeToken({ secret, purpose });
+  if (owner === null) throw new AppError("not_found", LINK_NOT_LIVE);
+  return getDb().transaction(async (tx) => {
+    const [user] = await tx.select(userColumns).from(users).where(eq(users.id, owner)).for("update");
+    const [token] = await tx
+      .select({ id: oneTimeTokens.id })
+      .from(oneTimeTokens)
+      .where(and(liveToken(secret, purpose), eq(oneTimeTokens.userId, owner)))
+      .for("update");
+    if (!user || !token) throw new AppError("not_found", LINK_NOT_LIVE);
+    const { use, value } = await body(tx, user);
+    if (use) await tx.update(oneTimeTokens).set({ usedAt: new Date() }).where(eq(oneTimeTokens.id, token.id));
+    return value;
+  });
+}
+
+export type AddressConfirmation = { kind: "verified" } | { kind: "other_browser"; orcid: string };
+
+/**
+ * The confirmation link: confirms the account's address. A pending ORCID sign-up's address is
+ * confirmed only in the browser of its newest confirmation (`browserKeyHash` gives the hash of this
+ * browser's key); anywhere else nothing changes and the answer names the iD.
+ */
+export async function confirmAddressWithToken({
+  secret,
+  browserKeyHash,
+}: {
+  secret: string;
+  browserKeyHash: () => Promise<string | null>;
+}): Promise<AddressConfirmation> {
+  return withLiveToken<AddressConfirmation>({ secret, purpose: "verify_email" }, async (tx, user) => {
+    if (isPendingOrcidSignUp(user) && user.verifiedOrcid) {
+      const [newest] = await tx
+        .select({ browserKeyHash: orcidSignUps.browserKeyHash })
+        .from(orcidSignUps)
+        .where(eq(orcidSignUps.userId, user.id))
+        .orderBy(desc(orcidSignUps.id))
+        .limit(1);
+      const here = await browserKeyHash();
+      if (!newest || !here || !secretsEqual(newest.browserKeyHash, here)) {
+        return { use: false, value: { kind: "other_browser", orcid: user.verifiedOrcid } };
+      }
+    }
+    await writeEmailVerified(tx, user.id);
+    return { use: true, value: { kind: "verified" } };
+  });
+}
+
+/**
+ * The reset link: a new password, which also proves the address. A pending ORCID sign-up loses its
+ * iD (whoever typed the address at the sign-up need not own it). Returns the account and whether
+ * the iD was taken off.
+ */
+export async function resetPasswordWithToken({ secret, passwordHash }: { secret: string; passwordHash: string }) {
+  return withLiveToken({ secret, purpose: "reset_password" }, async (tx, user) => {
+    const pendingOrcid = isPendingOrcidSignUp(user) && user.verifiedOrcid ? user.verifiedOrcid : null;
+    const datasetIds = pendingOrcid ? await linkedDatasetIds(tx, user.id) : [];
+    await writePassword(tx, { userId: user.id, passwordHash, actorId: user.id });
+    if (pendingOrcid) await takeOrcidOff(tx, { userId: user.id, orcid: pendingOrcid, actorId: user.id, action: "user.orcid_unlinked" });
+    await writeEmailVerified(tx, user.id);
+    return { use: true, value: { userId: user.id, datasetIds } };
+  });
+}
+
+/**
+ * "This was not me" on a pending ORCID sign-up's confirmation link: the iD leaves the address and
+ * no link sent for it works any more. Returns the iD.
+ */
+export async function refuseOrcidSignUpWithToken({ secret }: { secret: string }): Promise<string> {
+  return withLiveToken({ secret, purpose: "verify_email" }, async (tx, user) => {
+    if (!isPendingOrcidSignUp(user) || !user.verifiedOrcid) throw new AppError("not_found", LINK_NOT_LIVE);
+    await takeOrcidOff(tx, { userId: user.id, orcid: user.verifiedOrcid, actorId: null, action: "user.orcid_sign_up_refused" });
+    await voidOneTimeTokens({ userId: user.id, purpose: "verify_email", tx });
+    return { use: true, value: user.verifiedOrcid };
+  });
 }
 
 // ---- personal API tokens ----
@@ -495,7 +608,7 @@ export async function saveOrcidSignUp({
   ticketId: string;
   /** SHA-256 of the key left in the confirming browser's cookie: only that browser confirms the address. */
   browserKeyHash: string;
-}): Promise<{ user: UserDto; replaced: boolean } | null | "ticket_used"> {
+}): Promise<{ user: UserDto; replaced: boolean; secret: string } | null | "ticket_used"> {
   const address = normaliseEmail(email);
   return getDb().transaction(async (tx) => {
     // Serialised per iD (the holder row lock below, or this advisory lock when there is none yet).
@@ -511,8 +624,8 @@ export async function saveOrcidSignUp({
     if (owner && owner.id !== holder?.id) return null;
     if (holder) {
       const [row] = await tx.update(users).set({ name: name.trim(), email: address }).where(eq(users.id, holder.id)).returning(userColumns);
-      // A link sent to the address typed before no longer confirms anything.
-      await voidOneTimeTokens({ userId: holder.id, purpose: "verify_email", tx });
+      // No link sent to the address typed before works any more: confirmation, reset or sign-in.
+      for (const purpose of oneTimePurposeEnum.enumValues) await voidOneTimeTokens({ userId: holder.id, purpose, tx });
       await tx.insert(orcidSignUps).values({ ticketId, userId: holder.id, browserKeyHash });
       await recordAuditEvent(tx, {
         actorId: holder.id,
@@ -521,7 +634,7 @@ export async function saveOrcidSignUp({
         subjectId: holder.id,
         details: { orcid, ticket: ticketId },
       });
-      return { user: row, replaced: true };
+      return { user: row, replaced: true, secret: await insertOneTimeToken(tx, { userId: holder.id, purpose: "verify_email" }) };
     }
     const [row] = await tx
       .insert(users)
@@ -537,33 +650,7 @@ export async function saveOrcidSignUp({
       subjectId: row.id,
       details: { through: "orcid", orcid, ticket: ticketId },
     });
-    return { user: row, replaced: false };
-  });
-}
-
-/** The key hash left by the newest ORCID sign-up confirmation of an account (null when none). */
-export async function newestOrcidSignUpKey({ userId }: { userId: number }): Promise<string | null> {
-  const [row] = await getDb()
-    .select({ browserKeyHash: orcidSignUps.browserKeyHash })
-    .from(orcidSignUps)
-    .where(eq(orcidSignUps.userId, userId))
-    .orderBy(desc(orcidSignUps.createdAt))
-    .limit(1);
-  return row?.browserKeyHash ?? null;
-}
-
-/**
- * The owner of an address says a pending ORCID sign-up under it was not theirs: the iD leaves the
- * account and no link sent for it confirms anything any more. The account stays unconfirmed and
- * without a usable password (a password reset from the address opens it, without the iD).
- */
-export async function refusePendingOrcidSignUp({ userId }: { userId: number }): Promise<string | null> {
-  return getDb().transaction(async (tx) => {
-    const [row] = await tx.select(userColumns).from(users).where(eq(users.id, userId)).for("update");
-    if (!row || !isPendingOrcidSignUp(row)) return null;
-    await takeOrcidOff(tx, { userId, orcid: row.verifiedOrcid!, actorId: null, action: "user.orcid_sign_up_refused" });
-    await voidOneTimeTokens({ userId, purpose: "verify_email", tx });
-    return row.verifiedOrcid;
+    return { user: row, replaced: false, secret: await insertOneTimeToken(tx, { userId: row.id, purpose: "verify_email" }) };
   });
 }
 

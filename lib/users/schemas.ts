@@ -104,10 +104,6 @@ export const userPatchSchema = z
 
 /** The confirmation page of a first ORCID sign-in: the name and address the new account gets, and the signed ticket. */
 export const orcidSignUpSchema = z.object({
-  ticket: z
-    .string()
-    .min(20, "This confirmation page is incomplete: sign in with ORCID again")
-    .max(2000, "This confirmation page was not made by this site: sign in with ORCID again"),
   name: personNameField,
   email: emailField,
 });

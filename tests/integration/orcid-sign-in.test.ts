@@ -12,13 +12,19 @@ const browser = vi.hoisted(() => {
 });
 
 const fakeHeaders = vi.hoisted(() => ({
-  headers: async () => new Headers({ host: "127.0.0.1:3999" }),
+  // Each request from its own address, vouched for as the front server does (sign-ups are limited per address).
+  headers: async () =>
+    new Headers({
+      host: "127.0.0.1:3999",
+      "x-arrhenia-client-address": `10.${Math.floor(Math.random() * 250)}.${Math.floor(Math.random() * 250)}.${1 + Math.floor(Math.random() * 250)}`,
+      "x-arrhenia-edge-key": process.env.ARRHENIA_EDGE_KEY ?? "",
+    }),
   cookies: async () => ({
     getAll: () => [...browser.cookies].map(([name, value]) => ({ name, value })),
     get: (name: string) => (browser.cookies.has(name) ? { name, value: browser.cookies.get(name)! } : undefined),
     has: (name: string) => browser.cookies.has(name),
     set: (name: string, value: string) => void browser.cookies.set(name, value),
-    delete: (name: string) => void browser.cookies.delete(name),
+    delete: (name: string | { name: string }) => void browser.cookies.delete(typeof name === "string" ? name : name.name),
   }),
 }));
 vi.mock("next/headers", () => fakeHeaders);
@@ -39,9 +45,9 @@ import { getPublicVersionDatacite } from "@/lib/identifiers/public-datacite";
 import { getPublicProfile, listProfileDatasets } from "@/lib/people/queries";
 import { unlinkOrcid } from "@/lib/users/orcid-accounts";
 import { createOneTimeToken, createUser, markEmailVerified } from "@/lib/users/queries";
-import { resetPassword, unlinkOrcidWithPassword } from "@/lib/users/accounts";
+import { requestPasswordReset, resetPassword, unlinkOrcidWithPassword } from "@/lib/users/accounts";
 import { freshOrcid } from "../support/orcid";
-import { depositInState, linkToken, sql, startMailPipeline, uniqueEmail, waitForMail } from "./helpers";
+import { depositInState, linkToken, sql, startMailPipeline, uniqueEmail, uniqueIp, waitForMail } from "./helpers";
 
 // next-auth loads next/headers with require(), which vi.mock does not reach: the same fake goes into require's cache.
 const nodeRequire = createRequire(import.meta.url);
@@ -153,10 +159,12 @@ async function signInWithOrcid({
   return done.headers.get("location") ?? "";
 }
 
+/** The confirmation page's address: the ticket is in this browser's cookie, never in the address. */
+const CONFIRM_PAGE = `${APP}/sign-in/orcid`;
+
 async function confirm(location: string, name: string, email: string) {
-  const ticket = new URL(location).searchParams.get("ticket")!;
+  expect(location).toBe(CONFIRM_PAGE);
   const form = new FormData();
-  form.set("ticket", ticket);
   form.set("name", name);
   form.set("email", email);
   return confirmOrcidSignUpAction(idleState, form);
@@ -178,7 +186,7 @@ describe("sign in with ORCID through the stand-in", () => {
     browser.cookies.clear();
     const orcid = freshOrcid();
     const location = await signInWithOrcid({ orcid, name: "Nadia Ferreira" });
-    expect(location).toMatch(/\/sign-in\/orcid\?ticket=/);
+    expect(location).toBe(CONFIRM_PAGE);
     // Nothing is stored before the confirmation, and no session was opened.
     expect(await accountOf(orcid)).toBeUndefined();
     expect([...browser.cookies.keys()].some((k) => k.endsWith("session-token"))).toBe(false);
@@ -219,7 +227,7 @@ describe("sign in with ORCID through the stand-in", () => {
     const pending = await accountOf(orcid);
     // The mistyped address is never confirmed; the iD's owner signs in again.
     const location = await signInWithOrcid({ orcid });
-    expect(location).toMatch(/\/sign-in\/orcid\?ticket=/);
+    expect(location).toBe(CONFIRM_PAGE);
     const right = uniqueEmail("orcid-right");
     expect((await confirm(location, "Pending Person", right)).status).toBe("ok");
     const now = await accountOf(orcid);
@@ -235,10 +243,49 @@ describe("sign in with ORCID through the stand-in", () => {
     const orcid = freshOrcid();
     const location = await signInWithOrcid({ orcid });
     const owner = uniqueEmail("orcid-owner");
+    const ticket = browser.cookies.get("arrhenia-orcid-ticket")!;
+    expect(ticket).toBeTruthy();
     expect((await confirm(location, "Ticket Owner", owner)).status).toBe("ok");
+    // The page's cookie is gone after use; a copy of its value put back is refused all the same.
+    expect(browser.cookies.has("arrhenia-orcid-ticket")).toBe(false);
+    browser.cookies.set("arrhenia-orcid-ticket", ticket);
     const replay = await confirm(location, "Ticket Thief", uniqueEmail("orcid-thief"));
     expect(replay).toMatchObject({ status: "error", message: expect.stringMatching(/used already/) });
     expect(await accountOf(orcid)).toMatchObject({ email: owner, name: "Ticket Owner" });
+  });
+
+  it("the confirmation page opens only in the browser that came back from ORCID: its address handed to someone else confirms nothing", async () => {
+    browser.cookies.clear();
+    const orcid = freshOrcid();
+    const location = await signInWithOrcid({ orcid, name: "Victor Victim" });
+    expect(location).not.toContain("ticket");
+    // Someone else opens the same address in their own browser: no ticket there.
+    browser.cookies.clear();
+    const answer = await confirm(location, "Victor Victim", uniqueEmail("orcid-forwarded"));
+    expect(answer).toMatchObject({ status: "error", message: expect.stringMatching(/expired or was not made by this site/) });
+    expect(await accountOf(orcid)).toBeUndefined();
+  });
+
+  it("changing a pending sign-up's address voids every link sent to the old one: a reset link for it opens nothing", async () => {
+    browser.cookies.clear();
+    const orcid = freshOrcid();
+    const own = uniqueEmail("orcid-own");
+    await confirm(await signInWithOrcid({ orcid }), "Switching Person", own);
+    const pending = await accountOf(orcid);
+    await requestPasswordReset({ email: own, ip: uniqueIp() });
+    const [reset] = await sql`select count(*)::int as n from one_time_tokens where user_id = ${pending.id} and purpose = 'reset_password' and used_at is null`;
+    expect(reset.n).toBe(1);
+    const resetSecret = await createOneTimeToken({ userId: pending.id, purpose: "reset_password" });
+    // The same iD signs in again and types someone else's address.
+    const victim = uniqueEmail("orcid-switched-to");
+    await confirm(await signInWithOrcid({ orcid }), "Switching Person", victim);
+    await expect(resetPassword({ secret: resetSecret, password: "the attacker's password" })).rejects.toThrow(/already used/);
+    const [row] = await sql`select email, email_verified_at, password_set from users where id = ${pending.id}`;
+    expect(row).toMatchObject({ email: victim, email_verified_at: null, password_set: false });
+    const [open] = await sql`select purpose from one_time_tokens where user_id = ${pending.id} and used_at is null`;
+    expect(open.purpose).toBe("verify_email"); // only the new address's confirmation link is live
+    // A link asked for the old address after the change is not made at all.
+    expect(await createOneTimeToken({ userId: pending.id, purpose: "reset_password", sentTo: own })).toBeNull();
   });
 
   it("a pending ORCID sign-up whose address is proven by a password reset loses the iD (whoever typed the address need not own it)", async () => {
@@ -254,7 +301,7 @@ describe("sign in with ORCID through the stand-in", () => {
     expect(row.verified_orcid).toBeNull();
     expect(row.email_verified_at).not.toBeNull();
     // The iD's holder signing in with ORCID again is asked for an address of their own; they never reach the victim's account.
-    expect(await signInWithOrcid({ orcid })).toMatch(/\/sign-in\/orcid\?ticket=/);
+    expect(await signInWithOrcid({ orcid })).toBe(CONFIRM_PAGE);
   });
 
   it("the mailed link of an ORCID sign-up names the iD and confirms only in the browser that signed in", async () => {
@@ -299,7 +346,7 @@ describe("sign in with ORCID through the stand-in", () => {
     expect(await refuseOrcidAction(idleState, form)).toMatchObject({ status: "error" });
     // The iD's holder signing in again is asked for an address of their own.
     browser.cookies.clear();
-    expect(await signInWithOrcid({ orcid })).toMatch(/\/sign-in\/orcid\?ticket=/);
+    expect(await signInWithOrcid({ orcid })).toBe(CONFIRM_PAGE);
   });
 
   it("a signed-in person links and unlinks an iD; a second account cannot link the same iD", async () => {

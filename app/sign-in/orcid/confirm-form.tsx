@@ -6,14 +6,13 @@ import { FormMessage, SubmitButton } from "@/components/form-status";
 import { idleState } from "@/lib/auth/action-state";
 import { confirmOrcidSignUpAction } from "./actions";
 
-export function ConfirmOrcidForm({ ticket, name }: { ticket: string; name: string }) {
+export function ConfirmOrcidForm({ name }: { name: string }) {
   const [state, action] = useActionState(confirmOrcidSignUpAction, idleState);
   if (state.status === "ok") return <FormMessage state={state} />;
   const e = state.fieldErrors ?? {};
   return (
     <form action={action} className="space-y-4">
       <FormMessage state={state} />
-      <input type="hidden" name="ticket" value={ticket} />
       <FormField label="Full name" name="name" autoComplete="name" required error={e.name} defaultValue={state.values?.name ?? name} />
       <FormField
         label="E-mail"

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { orcidTicketFromCookie } from "@/lib/auth/orcid-browser";
 import { readOrcidTicket, TICKET_REFUSED } from "@/lib/auth/orcid-ticket";
 import { OrcidId } from "@/components/orcid-id";
 import { ConfirmOrcidForm } from "./confirm-form";
@@ -7,9 +8,9 @@ import { ConfirmOrcidForm } from "./confirm-form";
 export const metadata: Metadata = { title: "Create an account with ORCID" };
 
 /** The first ORCID sign-in of an unknown iD: a name and an address before any account exists. */
-export default async function ConfirmOrcidPage({ searchParams }: { searchParams: Promise<{ ticket?: string | string[] }> }) {
-  const { ticket } = await searchParams;
-  const text = Array.isArray(ticket) ? ticket[0] : ticket;
+// The ticket is in this browser's cookie (set by the ORCID callback), never in the address.
+export default async function ConfirmOrcidPage() {
+  const text = await orcidTicketFromCookie();
   const read = text ? readOrcidTicket(text) : null;
   return (
     <div className="mx-auto max-w-md space-y-6">
@@ -21,7 +22,7 @@ export default async function ConfirmOrcidPage({ searchParams }: { searchParams:
               ORCID confirmed the iD <OrcidId orcid={read.orcid} verified />. No account has it yet: give your name and e-mail address to
               create one (role: researcher).
             </p>
-            <ConfirmOrcidForm ticket={text} name={read.name} />
+            <ConfirmOrcidForm name={read.name} />
           </>
         ) : (
           <p role="alert" className="text-sm text-error">

@@ -3,6 +3,7 @@ import NextAuth from "next-auth";
 import { NextRequest, NextResponse } from "next/server";
 import { clientAbortResponse, problemResponse } from "@/lib/auth/api";
 import { authOptions } from "@/lib/auth/options";
+import { ORCID_TICKET_COOKIE, ORCID_TICKET_COOKIE_OPTIONS, ticketCookieSecure } from "@/lib/auth/orcid-browser";
 import { appUrl } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, readBodyOrThrow } from "@/lib/http/read-body";
@@ -23,7 +24,27 @@ async function GET(req: NextRequest, context: Context) {
     const code = error === "access_denied" ? "OrcidCancelled" : "OrcidProviderError";
     return NextResponse.redirect(`${appUrl()}/sign-in?error=${code}`, 302);
   }
-  return handler(req, context);
+  const res: Response = await handler(req, context);
+  return url.pathname.endsWith("/callback/orcid") ? ticketIntoCookie(res) : res;
+}
+
+/**
+ * A first ORCID sign-in ends at the confirmation page: its ticket leaves the address for a cookie
+ * of this browser (the one whose state and PKCE cookies next-auth just checked), so the page's
+ * address, if copied, opens nothing for anyone else.
+ */
+function ticketIntoCookie(res: Response): Response {
+  const location = res.headers.get("location");
+  if (!location) return res;
+  const target = new URL(location, appUrl());
+  const ticket = target.searchParams.get("ticket");
+  if (target.pathname !== "/sign-in/orcid" || !ticket) return res;
+  target.searchParams.delete("ticket");
+  const headers = new Headers(res.headers);
+  headers.set("location", target.toString());
+  const out = new NextResponse(null, { status: res.status, headers });
+  out.cookies.set(ORCID_TICKET_COOKIE, ticket, { ...ORCID_TICKET_COOKIE_OPTIONS, secure: ticketCookieSecure() });
+  return out;
 }
 
 // next-auth reads the whole body itself; hand it a copy read with the cap instead.
