@@ -11,7 +11,6 @@ import {
   createUser,
   getPasswordHash,
   getUserByEmail,
-  getUserById,
   isPendingOrcidSignUp,
   refuseOrcidSignUpWithToken,
   resetPasswordWithToken,
