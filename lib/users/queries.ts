@@ -231,7 +231,10 @@ export async function setPasswordHash({ userId, passwordHash, actorId }: { userI
   await getDb().transaction((tx) => writePassword(tx, { userId, passwordHash, actorId }));
 }
 
-async function writePassword(tx: Transaction, { userId, passwordHash, actorId }: { userId: number; passwordHash: string; actorId: number | null }) {
+async function writePassword(
+  tx: Transaction,
+  { userId, passwordHash, actorId }: { userId: number; passwordHash: string; actorId: number | null },
+) {
   await tx.update(users).set({ passwordHash, passwordSet: true }).where(eq(users.id, userId));
   // A new password ends every session, and no reset or sign-in link issued before it still works.
   await endAllSessions({ userId, tx });
@@ -310,7 +313,9 @@ export async function createOneTimeToken({
 async function insertOneTimeToken(tx: Transaction, { userId, purpose }: { userId: number; purpose: OneTimePurpose }): Promise<string> {
   const secret = generateSecret("", 32);
   if (newestOnly.has(purpose)) await voidOneTimeTokens({ userId, purpose, tx });
-  await tx.insert(oneTimeTokens).values({ userId, purpose, tokenHash: hashSecret(secret), expiresAt: new Date(Date.now() + ttlMs[purpose]) });
+  await tx
+    .insert(oneTimeTokens)
+    .values({ userId, purpose, tokenHash: hashSecret(secret), expiresAt: new Date(Date.now() + ttlMs[purpose]) });
   return secret;
 }
 

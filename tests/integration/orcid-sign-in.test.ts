@@ -273,7 +273,8 @@ describe("sign in with ORCID through the stand-in", () => {
     await confirm(await signInWithOrcid({ orcid }), "Switching Person", own);
     const pending = await accountOf(orcid);
     await requestPasswordReset({ email: own, ip: uniqueIp() });
-    const [reset] = await sql`select count(*)::int as n from one_time_tokens where user_id = ${pending.id} and purpose = 'reset_password' and used_at is null`;
+    const [reset] =
+      await sql`select count(*)::int as n from one_time_tokens where user_id = ${pending.id} and purpose = 'reset_password' and used_at is null`;
     expect(reset.n).toBe(1);
     const resetSecret = await createOneTimeToken({ userId: pending.id, purpose: "reset_password" });
     // The same iD signs in again and types someone else's address.
