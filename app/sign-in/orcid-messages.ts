@@ -8,7 +8,7 @@ export const ORCID_MESSAGES: Record<string, string> = {
   OrcidProviderError: "ORCID reported an error and did not confirm your iD. Nothing was changed; try again in a moment.",
   OAuthSignin: "The ORCID sign-in could not start: the ORCID service did not answer. Nothing was changed; try again later.",
   OAuthCallback:
-    "The answer from ORCID did not match the sign-in this browser started (its state or nonce differed, or it came too late). Nothing was changed; start again.",
+    "The answer from ORCID did not match the sign-in this browser started (it came from another browser or tab, or too late). Nothing was changed; start again.",
   Callback: "The ORCID sign-in could not be completed. Nothing was changed; start again.",
   OrcidNotAnId: "ORCID did not give a valid iD. Nothing was changed.",
   OrcidAccountDeactivated: "The account linked to this ORCID iD has been deactivated. Write to an administrator.",

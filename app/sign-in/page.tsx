@@ -20,6 +20,11 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
           {orcidError}
         </p>
       )}
+      {sp.verified === "orcid" && (
+        <p role="status" className="rounded-md border border-ok/40 px-3 py-2 text-sm text-ok">
+          Your address is confirmed. Your account has no password yet: sign in with ORCID below.
+        </p>
+      )}
       <div className="card">
         <SignInForm callbackUrl={callbackUrl} verified={sp.verified === "1"} reset={sp.reset === "1"} />
       </div>

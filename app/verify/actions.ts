@@ -13,17 +13,17 @@ export const verifyAction = publicAction(linkSchema, async ({ token }) => {
   if (outcome.kind === "other_browser") {
     return {
       status: "error",
-      message: `This address was given at a sign-in with the ORCID iD ${outcome.orcid} in another browser, so it cannot be confirmed here. If that was you, open the link in the browser you signed in with (or sign in with ORCID again in this one). If it was not you, choose "This was not me".`,
+      message: `This address cannot be confirmed in this browser: it was given when someone signed in with the ORCID iD ${outcome.orcid} in another one. If that was you, open the link in the browser you signed in with (or sign in with ORCID again in this one). If it was not you, choose "This was not me".`,
       data: { orcid: outcome.orcid },
     };
   }
-  redirect("/sign-in?verified=1");
+  redirect(outcome.orcidOnly ? "/sign-in?verified=orcid" : "/sign-in?verified=1");
 });
 
 export const refuseOrcidAction = publicAction(linkSchema, async ({ token }) => {
   const { orcid } = await refuseOrcidSignUp({ secret: token });
   return {
     status: "ok",
-    message: `Done: the ORCID iD ${orcid} is no longer tied to this address, and no link sent for it confirms anything. Nothing else is needed.`,
+    message: `Done: that sign-up is cancelled. The ORCID iD ${orcid} is not tied to your address, no link sent for it works any more, and the address is free — you can make an account with it whenever you like.`,
   };
 });

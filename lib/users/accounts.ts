@@ -6,6 +6,7 @@ import { enqueueMail } from "@/lib/mail/queue";
 import { datasetTag, invalidatePublicCache, PUBLIC_TAG } from "@/lib/public-cache";
 import { existingAccountMail, orcidVerificationMail, passwordResetMail, verificationMail } from "@/lib/mail/templates";
 import {
+  type AddressConfirmation,
   confirmAddressWithToken,
   createOneTimeToken,
   createUser,
@@ -54,7 +55,7 @@ export async function verifyEmail({
   secret: string;
   /** Read only for a pending ORCID sign-up. */
   browserKeyHash: () => Promise<string | null>;
-}): Promise<{ kind: "verified" } | { kind: "other_browser"; orcid: string }> {
+}): Promise<AddressConfirmation> {
   return confirmAddressWithToken({ secret, browserKeyHash });
 }
 

@@ -374,7 +374,15 @@ async function withLiveToken<T>(
   });
 }
 
-export type AddressConfirmation = { kind: "verified" } | { kind: "other_browser"; orcid: string };
+/** For the confirmation page: the iD of the pending ORCID sign-up a live link belongs to, or null. */
+export async function pendingOrcidOfLink({ secret }: { secret: string }): Promise<string | null> {
+  const owner = await accountOfOneTimeToken({ secret, purpose: "verify_email" });
+  const user = owner === null ? null : await getUserById({ id: owner });
+  return user && isPendingOrcidSignUp(user) ? user.verifiedOrcid : null;
+}
+
+/** `orcidOnly`: the account has no password yet, so its holder signs in with ORCID. */
+export type AddressConfirmation = { kind: "verified"; orcidOnly: boolean } | { kind: "other_browser"; orcid: string };
 
 /**
  * The confirmation link: confirms the account's address. A pending ORCID sign-up's address is
@@ -402,7 +410,7 @@ export async function confirmAddressWithToken({
       }
     }
     await writeEmailVerified(tx, user.id);
-    return { use: true, value: { kind: "verified" } };
+    return { use: true, value: { kind: "verified", orcidOnly: !user.passwordSet } };
   });
 }
 
@@ -423,14 +431,20 @@ export async function resetPasswordWithToken({ secret, passwordHash }: { secret:
 }
 
 /**
- * "This was not me" on a pending ORCID sign-up's confirmation link: the iD leaves the address and
- * no link sent for it works any more. Returns the iD.
+ * "This was not me" on a pending ORCID sign-up's confirmation link: the sign-up is cancelled — the
+ * iD leaves it, its address is freed (the account keeps a placeholder address and is deactivated)
+ * and no link sent for it works any more. Returns the iD.
  */
 export async function refuseOrcidSignUpWithToken({ secret }: { secret: string }): Promise<string> {
   return withLiveToken({ secret, purpose: "verify_email" }, async (tx, user) => {
     if (!isPendingOrcidSignUp(user) || !user.verifiedOrcid) throw new AppError("not_found", LINK_NOT_LIVE);
     await takeOrcidOff(tx, { userId: user.id, orcid: user.verifiedOrcid, actorId: null, action: "user.orcid_sign_up_refused" });
-    await voidOneTimeTokens({ userId: user.id, purpose: "verify_email", tx });
+    // The sign-up is cancelled and the address freed: its owner may make an account with it later.
+    await tx
+      .update(users)
+      .set({ email: `cancelled-sign-up-${user.id}@accounts.arrhenia.invalid`, deactivatedAt: new Date() })
+      .where(eq(users.id, user.id));
+    for (const purpose of oneTimePurposeEnum.enumValues) await voidOneTimeTokens({ userId: user.id, purpose, tx });
     return { use: true, value: user.verifiedOrcid };
   });
 }

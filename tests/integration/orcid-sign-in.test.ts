@@ -44,7 +44,7 @@ import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { getPublicVersionDatacite } from "@/lib/identifiers/public-datacite";
 import { getPublicProfile, listProfileDatasets } from "@/lib/people/queries";
 import { unlinkOrcid } from "@/lib/users/orcid-accounts";
-import { createOneTimeToken, createUser, markEmailVerified } from "@/lib/users/queries";
+import { createOneTimeToken, createUser, getUserByEmail, markEmailVerified } from "@/lib/users/queries";
 import { requestPasswordReset, resetPassword, unlinkOrcidWithPassword } from "@/lib/users/accounts";
 import { freshOrcid } from "../support/orcid";
 import { depositInState, linkToken, sql, startMailPipeline, uniqueEmail, uniqueIp, waitForMail } from "./helpers";
@@ -316,7 +316,7 @@ describe("sign in with ORCID through the stand-in", () => {
     const form = new FormData();
     form.set("token", linkToken(message.text, "/verify"));
     // The same browser (its cookie kept): confirmed, and sent on to sign in.
-    await expect(verifyAction(idleState, form)).rejects.toThrow(/NEXT_REDIRECT/);
+    await expect(verifyAction(idleState, form)).rejects.toMatchObject({ digest: expect.stringContaining("/sign-in?verified=orcid") });
     expect((await accountOf(orcid)).email_verified_at).not.toBeNull();
   });
 
@@ -341,8 +341,12 @@ describe("sign in with ORCID through the stand-in", () => {
     // "This was not me": the iD leaves the address, and the link confirms nothing any more.
     expect(await refuseOrcidAction(idleState, form)).toMatchObject({ status: "ok", message: expect.stringContaining(orcid) });
     expect(await accountOf(orcid)).toBeUndefined();
-    const [row] = await sql`select verified_orcid, email_verified_at from users where id = ${planted.id}`;
+    const [row] = await sql`select verified_orcid, email_verified_at, email, deactivated_at from users where id = ${planted.id}`;
     expect(row).toMatchObject({ verified_orcid: null, email_verified_at: null });
+    // The sign-up is cancelled and the address free: its owner can make an account with it.
+    expect(row.email).not.toBe(victim);
+    expect(row.deactivated_at).not.toBeNull();
+    expect(await getUserByEmail({ email: victim })).toBeNull();
     expect(await verifyAction(idleState, form)).toMatchObject({ status: "error", message: expect.stringMatching(/already used/) });
     expect(await refuseOrcidAction(idleState, form)).toMatchObject({ status: "error" });
     // The iD's holder signing in again is asked for an address of their own.

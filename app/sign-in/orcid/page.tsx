@@ -17,13 +17,12 @@ export default async function ConfirmOrcidPage() {
       <h1 className="text-3xl font-semibold">Create an account with ORCID</h1>
       <div className="card space-y-4">
         {read && text ? (
-          <>
+          <ConfirmOrcidForm name={read.name}>
             <p className="text-sm">
               ORCID confirmed the iD <OrcidId orcid={read.orcid} verified />. No account has it yet: give your name and e-mail address to
               create one (role: researcher).
             </p>
-            <ConfirmOrcidForm name={read.name} />
-          </>
+          </ConfirmOrcidForm>
         ) : (
           <p role="alert" className="text-sm text-error">
             {TICKET_REFUSED} <Link href="/sign-in">Sign in</Link>
