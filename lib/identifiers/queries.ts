@@ -1,6 +1,6 @@
 import "server-only";
 import { getVerifiedCreatorIds } from "@/lib/people/queries";
-import { and, asc, desc, eq, isNotNull, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, datasetVersions, identifierRegistrations } from "@/db/datasets";
 import type { VersionState } from "@/lib/curation/lifecycle";
@@ -138,6 +138,17 @@ export async function listPendingIdentifiers({ datasetId }: { datasetId?: number
       ),
     )
     .orderBy(desc(identifierRegistrations.kind), asc(identifierRegistrations.createdAt), asc(identifierRegistrations.identifier));
+  return rows.map((r) => r.identifier);
+}
+
+/** Identifiers already registered of these datasets (versions and series): their metadata can be sent again. */
+export async function listRegisteredIdentifiers({ datasetIds }: { datasetIds: number[] }): Promise<string[]> {
+  if (datasetIds.length === 0) return [];
+  const rows = await getDb()
+    .select({ identifier: identifierRegistrations.identifier })
+    .from(identifierRegistrations)
+    .where(and(eq(identifierRegistrations.registered, true), inArray(identifierRegistrations.datasetId, datasetIds)))
+    .orderBy(desc(identifierRegistrations.kind), asc(identifierRegistrations.identifier));
   return rows.map((r) => r.identifier);
 }
 

@@ -3,7 +3,6 @@ import { hashPassword, verifyPassword } from "@/lib/auth/password";
 import { consumeOrThrow } from "@/lib/auth/rate-limit";
 import { AppError } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/queue";
-import { datasetTag, invalidatePublicCache, PUBLIC_TAG } from "@/lib/public-cache";
 import { existingAccountMail, orcidVerificationMail, passwordResetMail, verificationMail } from "@/lib/mail/templates";
 import {
   type AddressConfirmation,
@@ -17,7 +16,7 @@ import {
   resetPasswordWithToken,
   setPasswordHash,
 } from "./queries";
-import { unlinkOrcid } from "./orcid-accounts";
+import { afterLinkChange, unlinkOrcid } from "./orcid-accounts";
 
 /**
  * Sign-up: creates an unverified researcher and mails a verification link. An e-mail that already
@@ -98,7 +97,7 @@ export async function resetPassword({ secret, password }: { secret: string; pass
   // One transaction under the account's lock: the password, the proven address and (for a pending
   // ORCID sign-up, whose address need not be its iD holder's) the iD taken off.
   const { datasetIds } = await resetPasswordWithToken({ secret, passwordHash: await hashPassword(password) });
-  if (datasetIds.length > 0) await invalidatePublicCache([PUBLIC_TAG, ...datasetIds.map(datasetTag)]);
+  if (datasetIds.length > 0) await afterLinkChange(datasetIds);
 }
 
 async function checkCurrentPassword(userId: number, current: string) {

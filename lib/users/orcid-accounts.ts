@@ -8,6 +8,8 @@ import { hashPassword } from "@/lib/auth/password";
 import { consumeOrThrow } from "@/lib/auth/rate-limit";
 import { AppError } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/queue";
+import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
+import { listRegisteredIdentifiers } from "@/lib/identifiers/queries";
 import { choosePasswordMail, existingAccountMail, orcidVerificationMail } from "@/lib/mail/templates";
 import { datasetTag, invalidatePublicCache, PUBLIC_TAG } from "@/lib/public-cache";
 import {
@@ -136,7 +138,12 @@ export async function requestPasswordChoice({ userId }: { userId: number }) {
   await enqueueMail(choosePasswordMail(user.email, user.name, secret));
 }
 
-/** A changed link changes the creators' iDs on those datasets' pages (JSON-LD) and the people lists. */
-async function afterLinkChange(datasetIds: number[]) {
+/**
+ * A changed link changes the creators' iDs on those datasets' pages (JSON-LD), the people lists
+ * and the metadata registered with the DOI agency (sent again through the registration queue).
+ */
+export async function afterLinkChange(datasetIds: number[]) {
   await invalidatePublicCache([PUBLIC_TAG, ...datasetIds.map(datasetTag)]);
+  for (const identifier of await listRegisteredIdentifiers({ datasetIds }))
+    await enqueueIdentifierRegistration(identifier, { refresh: true });
 }

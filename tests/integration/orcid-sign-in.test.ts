@@ -448,8 +448,17 @@ describe("creators that are people", () => {
     const typed = await getPublicVersionDatacite({ datasetId: v.datasetId, versionNumber: 1 });
     expect(typed?.data.attributes.creators[1].nameIdentifiers).toBeUndefined();
 
+    // As if the agency had the version's record already: the link must send it again.
+    await sql`update identifier_registrations set registered = true where dataset_id = ${v.datasetId}`;
+    const registered = await sql`select identifier from identifier_registrations where dataset_id = ${v.datasetId}`;
+    expect(registered.length).toBeGreaterThan(0);
+
     await signInWithPassword(creator.email, password);
     expect(await signInWithOrcid({ orcid })).toBe(`${APP}/settings?orcid=linked`);
+    // The agency's records are sent again (the registration queue, with refresh).
+    const queued = await sql`select data->>'identifier' as identifier from pgboss.job
+      where name = 'register-identifier' and data->>'refresh' = 'true' and data->>'identifier' in ${sql(registered.map((r) => r.identifier))}`;
+    expect(new Set(queued.map((q) => q.identifier))).toEqual(new Set(registered.map((r) => r.identifier)));
 
     const links = await sql`select position, user_id from creator_people where version_id = ${v.id}`;
     expect(links.map((l) => ({ position: l.position, user: l.user_id }))).toEqual([{ position: 1, user: creator.id }]);
