@@ -18,6 +18,7 @@ type LimiterName =
   | "confirmEmail"
   | "confirmIp"
   | "analysisIp"
+  | "passwordRetyped"
   | "api";
 
 const limits: Record<LimiterName, { points: number; duration: number; blockDuration?: number }> = {
@@ -35,6 +36,8 @@ const limits: Record<LimiterName, { points: number; duration: number; blockDurat
   confirmEmail: { points: 3, duration: 60 * 60 },
   confirmIp: { points: 10, duration: 60 * 60 },
   analysisIp: { points: 120, duration: 60 },
+  // Wrong passwords typed again by a signed-in person (changing it, unlinking ORCID): a session is no licence to guess.
+  passwordRetyped: { points: 6, duration: 15 * 60, blockDuration: 15 * 60 },
   // Every REST API request of one client (points: API_RATE_LIMIT, read when the limiter is made).
   api: { points: 600, duration: 60 },
 };

@@ -1,6 +1,6 @@
 import "server-only";
 import { hashPassword, verifyPassword } from "@/lib/auth/password";
-import { consumeOrThrow } from "@/lib/auth/rate-limit";
+import { consumeOrThrow, recordFailure, throwIfSpent } from "@/lib/auth/rate-limit";
 import { AppError } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/queue";
 import { existingAccountMail, orcidVerificationMail, passwordResetMail, verificationMail } from "@/lib/mail/templates";
@@ -11,6 +11,7 @@ import {
   createUser,
   getPasswordHash,
   getUserByEmail,
+  getUserById,
   isPendingOrcidSignUp,
   refuseOrcidSignUpWithToken,
   resetPasswordWithToken,
@@ -101,8 +102,11 @@ export async function resetPassword({ secret, password }: { secret: string; pass
 }
 
 async function checkCurrentPassword(userId: number, current: string) {
+  const key = `user:${userId}`;
+  await throwIfSpent("passwordRetyped", key, "Too many wrong passwords");
   const row = await getPasswordHash({ id: userId });
   if (!row || !(await verifyPassword(current, row.passwordHash))) {
+    await recordFailure("passwordRetyped", key);
     throw new AppError("validation_failed", "Your current password is not right", [
       { pointer: "/current", message: "Your current password is not right" },
     ]);
@@ -116,6 +120,10 @@ export async function changePassword({ userId, current, password }: { userId: nu
 
 /** Unlinking ORCID from the settings page: the password is typed again (a session left open is not enough). */
 export async function unlinkOrcidWithPassword({ userId, current }: { userId: number; current: string }) {
+  const user = await getUserById({ id: userId });
+  if (user && !user.passwordSet) {
+    throw new AppError("conflict", "Choose a password first (we can e-mail you a link): without ORCID it is how you sign in");
+  }
   await checkCurrentPassword(userId, current);
   await unlinkOrcid({ userId });
 }

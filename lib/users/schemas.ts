@@ -18,10 +18,10 @@ export const personNameField = z
   .trim()
   .min(1, "Enter your name")
   .max(200, "Use at most 200 characters")
-  .refine(
-    (v) => !/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/.test(v),
-    "A name is one line: remove line breaks, tabs and control characters",
-  );
+  .refine((v) => !/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/.test(v), "A name is one line: remove line breaks, tabs and control characters")
+  // Direction overrides and isolates turn how a name reads around ("Eve\u202Egnp.exe").
+  .refine((v) => !/[\u202a-\u202e\u2066-\u2069]/.test(v), "Remove the invisible direction-changing characters from the name")
+  .refine((v) => /[\p{L}\p{N}]/u.test(v), "A name needs at least one letter");
 
 export const passwordField = z
   .string()

@@ -377,6 +377,19 @@ describe("sign in with ORCID through the stand-in", () => {
     expect(await accountOf(orcid)).toBeUndefined();
   });
 
+  it("the password typed again to unlink is limited: a session is no licence to guess it", async () => {
+    const user = await createUser({
+      email: uniqueEmail("orcid-guess"),
+      name: "Guessed",
+      passwordHash: await hashPassword("the right password"),
+      verified: true,
+    });
+    for (let i = 0; i < 6; i++) {
+      await expect(unlinkOrcidWithPassword({ userId: user.id, current: `guess ${i}` })).rejects.toThrow(/not right/);
+    }
+    await expect(unlinkOrcidWithPassword({ userId: user.id, current: "the right password" })).rejects.toThrow(/Too many wrong passwords/);
+  });
+
   it("an account made through ORCID cannot unlink before it has a password", async () => {
     browser.cookies.clear();
     const orcid = freshOrcid();
