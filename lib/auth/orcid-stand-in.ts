@@ -31,8 +31,8 @@ function page(title: string, body: string): string {
 .note{background:#fff4d6;border:1px solid #b58900;padding:.5rem .75rem}.error{color:#a4161a;font-weight:600}
 label{display:block;margin-top:.75rem;font-weight:600}input{font:inherit;padding:.3rem;width:100%;box-sizing:border-box}
 button{font:inherit;margin-top:1rem;margin-right:.5rem;padding:.4rem 1rem}</style></head>
-<body><p class="note">Local stand-in for ORCID sign-in: nothing here is checked with ORCID.</p>
-<h1>${escapeHtml(title)}</h1>${body}</body></html>`;
+<body><main><p class="note">Local stand-in for ORCID sign-in: nothing here is checked with ORCID.</p>
+<h1>${escapeHtml(title)}</h1>${body}</main></body></html>`;
 }
 
 function send(res: ServerResponse, status: number, html: string) {

@@ -31,7 +31,7 @@ export default async function PersonPage({ params }: { params: Promise<{ id: str
   return (
     <div className="space-y-6">
       <header className="space-y-1">
-        <h1 className="text-3xl font-semibold">{profile.name}</h1>
+        <h1 className="text-3xl font-semibold break-words">{profile.name}</h1>
         {profile.affiliation && <p className="text-muted">{profile.affiliation}</p>}
         {profile.verifiedOrcid && (
           <p className="text-sm">

@@ -10,7 +10,7 @@ export const metadata: Metadata = { title: "Message" };
 
 /** Splits plain text into text and clickable http(s) links. */
 function linkify(text: string) {
-  return text.split(/(https?:\/\/[^\s<>"]+)/g).map((part, i) =>
+  return text.split(/(https?:\/\/[^\s<>"]*[^\s<>".,;:!?)\]])/g).map((part, i) =>
     /^https?:\/\//.test(part) ? (
       <a key={i} href={part} className="break-all">
         {part}
