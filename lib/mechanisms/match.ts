@@ -71,14 +71,16 @@ export function matchSpecies({
   byFormula,
 }: {
   names: readonly { name: string; formula: string | null }[];
-  choices: ReadonlyMap<string, string>;
+  /** name → the InChIKey chosen, or the species chosen as the report shows it. */
+  choices: ReadonlyMap<string, string | SpeciesMatch["candidates"][number]>;
   byName: ReadonlyMap<string, readonly CatalogueSpecies[]>;
   byFormula: ReadonlyMap<string, readonly CatalogueSpecies[]>;
 }): SpeciesMatch[] {
   const brief = (s: CatalogueSpecies) => ({ inchiKey: s.inchiKey, formula: s.formula, name: s.names[0] ?? s.formula });
   return names.map(({ name, formula }) => {
     const chosen = choices.get(name);
-    if (chosen) return { name, by: "choice", inchiKey: chosen, formula, candidates: [] };
+    if (typeof chosen === "string") return { name, by: "choice", inchiKey: chosen, formula, candidates: [] };
+    if (chosen) return { name, by: "choice", inchiKey: chosen.inchiKey, formula, candidates: [chosen] };
     const named = unique(byName.get(name.toLowerCase()) ?? []);
     // A name several species share is only settled by the composition, when that picks one of them.
     const narrowed = named.length > 1 && formula ? named.filter((s) => s.formula === formula) : named;

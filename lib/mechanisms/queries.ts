@@ -64,14 +64,23 @@ export async function findReactionIdsByKeys({ keys }: { keys: string[] }): Promi
   return out;
 }
 
-/** A person's remembered choices: mechanism name → InChIKey. */
-export async function listSpeciesChoices({ userId }: { userId: number }): Promise<Map<string, string>> {
+/** A species' first name in alphabetical order, for one without a display name (no public version names it). */
+const firstName = sql`(select min(n.name) from species_names n where n.species_id = ${species.id})`;
+
+/** A person's remembered choices: mechanism name → the species chosen (its InChIKey, formula and display name). */
+export async function listSpeciesChoices({ userId }: { userId: number }) {
   const rows = await getDb()
-    .select({ name: speciesMappingChoices.name, inchiKey: species.inchiKey })
+    .select({
+      name: speciesMappingChoices.name,
+      inchiKey: species.inchiKey,
+      formula: species.formula,
+      display: sql<string>`coalesce(${speciesDisplayNames.name}, ${firstName}, ${species.formula})`,
+    })
     .from(speciesMappingChoices)
     .innerJoin(species, eq(species.id, speciesMappingChoices.speciesId))
+    .leftJoin(speciesDisplayNames, eq(speciesDisplayNames.speciesId, species.id))
     .where(eq(speciesMappingChoices.userId, userId));
-  return new Map(rows.map((r) => [r.name, r.inchiKey]));
+  return new Map(rows.map((r) => [r.name, { inchiKey: r.inchiKey, formula: r.formula, name: r.display }]));
 }
 
 /** Remembers (or replaces) a person's choices; returns the InChIKeys that name no species. */
@@ -112,7 +121,7 @@ export async function searchSpeciesForMapping({ text, inchiKeys = [] }: { text: 
       inchiKey: species.inchiKey,
       formula: species.formula,
       smiles: species.canonicalSmiles,
-      name: sql<string>`coalesce(${speciesDisplayNames.name}, ${species.formula})`,
+      name: sql<string>`coalesce(${speciesDisplayNames.name}, ${firstName}, ${species.formula})`,
       names: sql<
         string[]
       >`coalesce((select array_agg(n.name order by n.name) from species_names n where n.species_id = ${species.id}), '{}')`,

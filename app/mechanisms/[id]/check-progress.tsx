@@ -28,6 +28,9 @@ export function CheckProgress({ id, share, initial }: { id: number; share: strin
       return { state: data.state, progress: data.progress, total: data.total, progressText: data.progressText };
     },
     initialData: initial,
+    // Nothing kept once the bar is gone: a check run again starts from the state the server rendered, not from the
+    // "done" of its previous run.
+    gcTime: 0,
     refetchInterval: (q) => (q.state.data && (q.state.data.state === "done" || q.state.data.state === "failed") ? false : 1000),
   });
   const settled = query.data.state === "done" || query.data.state === "failed";
