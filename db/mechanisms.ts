@@ -20,9 +20,13 @@ export const mechanismChecks = pgTable(
     /** A name for the owner's list (the file name, or the first words of the file). */
     name: text().notNull(),
     source: text().notNull(),
+    /** The format the file was read as when it was sent ("cantera-yaml" or "plain-text"); the job reads it the same way. */
+    format: text(),
     windowTmin: doublePrecision().notNull(),
     windowTmax: doublePrecision().notNull(),
-    /** Reactions read so far and in all, for the progress bar of a queued check. */
+    /** What a running check is doing (lib/mechanisms/progress.ts), for the progress bar. */
+    stage: text(),
+    /** Work done so far and in all in that stage, for the progress bar of a running check. */
     progress: integer().notNull().default(0),
     total: integer().notNull().default(0),
     /** Runs started; a check whose run stopped beating is queued again, and failed after three. */

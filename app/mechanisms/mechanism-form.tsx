@@ -33,7 +33,7 @@ export function MechanismForm({ demo }: { demo: string }) {
     try {
       const res = await fetch(`/api/v1/mechanism-checks?${query}`, { method: "POST", body, headers: { "content-type": "text/plain" } });
       const json = await res.json().catch(() => ({}));
-      if (res.status === 201) {
+      if (res.status === 202) {
         router.push(json.data.url);
         return;
       }

@@ -642,7 +642,7 @@ export const API_ENDPOINTS: Endpoint[] = [
     tag: "Mechanisms",
     summary: "Check a mechanism (Cantera YAML or the plain-text layout) against the published data",
     description:
-      "The body is the mechanism itself (text; window and name in the query) or JSON {text, name?, window?: {Tmin, Tmax}, format?}. At most 20 MB and 50 000 reactions; malformed lines are listed with line and column and the rest is checked. Elementary modified-Arrhenius reactions get a verdict against their reaction's consensus (agrees, disagrees, extrapolated, no data); other rate types are listed as not checked yet.",
+      "The body is the mechanism itself (text; window and name in the query) or JSON {text, name?, window?: {Tmin, Tmax}, format?}. At most 20 MB and 50 000 reactions; a file that cannot be read is refused at once (422 naming line and column), malformed lines are listed with line and column and the rest is checked. Every check, small or large, then runs as a background job: the answer is 202 with the check queued; poll the Location (GET /api/v1/mechanism-checks/:id) until its state is done (the report) or failed (the error in words). Elementary modified-Arrhenius reactions get a verdict against their reaction's consensus (agrees, disagrees, extrapolated, no data); other rate types are listed as not checked yet.",
     query: [
       { name: "Tmin", schema: z.coerce.number(), description: "Lower end of the use window, K (default 300).", example: "300" },
       { name: "Tmax", schema: z.coerce.number(), description: "Upper end of the use window, K (default 2500).", example: "2500" },
@@ -656,7 +656,11 @@ export const API_ENDPOINTS: Endpoint[] = [
       example:
         '{"text": "SPECIES OH CH4 CH3 H2O END\\nREACTIONS\\nOH+CH4<=>CH3+H2O 1.0E8 1.6 3120\\nEND\\n", "window": {"Tmin": 300, "Tmax": 2000}}',
     },
-    ok: { status: 201, contentType: JSON_TYPE, description: "{ data: { id, url, summary, problems } }; Location names the check." },
+    ok: {
+      status: 202,
+      contentType: JSON_TYPE,
+      description: "{ data: { id, state: 'queued', url, reactions, problems } }; Location names the check to poll.",
+    },
     errors: [400, 401, 403, 413, 422],
   },
   {
@@ -665,7 +669,8 @@ export const API_ENDPOINTS: Endpoint[] = [
     scope: "deposit:read",
     who: "its owner, or anyone with its share link (?share=…)",
     tag: "Mechanisms",
-    summary: "One mechanism check: its report as JSON, as CSV with format=csv, its species mapping with format=mapping",
+    summary:
+      "One mechanism check: its state and progress while queued or running, then its report; format=json downloads the report as a file, format=csv as CSV, format=mapping its species mapping",
     query: [
       { name: "format", schema: z.enum(["json", "csv", "mapping"]), example: "csv" },
       { name: "share", schema: z.string(), description: "The share token of the owner's link." },
@@ -673,7 +678,8 @@ export const API_ENDPOINTS: Endpoint[] = [
     ok: {
       status: 200,
       contentType: JSON_TYPE,
-      description: "{ data: { id, state, name, report: { about, summary, problems, species, reactions } } }",
+      description:
+        "{ data: { id, state (queued, running, done, failed), stage, progress, total, progressText, attempts, error, name, report: { about, summary, problems, species, reactions } | null } }",
     },
     errors: [400, 404],
   },
@@ -703,6 +709,27 @@ export const API_ENDPOINTS: Endpoint[] = [
     },
     ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { saved } }" },
     errors: [401, 403, 413, 422],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/mechanism-checks/:id/rerun",
+    scope: "deposit:read",
+    who: "its owner",
+    tag: "Mechanisms",
+    summary: "Run a finished or failed check again, with the owner's species choices as they are now",
+    ok: { status: 202, contentType: JSON_TYPE, description: "{ data: { id, state: 'queued', url } }; Location names the check to poll." },
+    errors: [401, 403, 404, 409],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/mechanism-checks/species-search",
+    scope: "deposit:read",
+    who: "signed-in people",
+    tag: "Mechanisms",
+    summary: "Species a mechanism name may stand for, by name (any part), formula, SMILES, InChI or InChIKey (at most 20)",
+    query: [{ name: "q", schema: z.string(), description: "The text searched.", example: "[O]" }],
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: [{ inchiKey, formula, smiles, name, names }] }" },
+    errors: [400, 401, 403],
   },
   // ---- this document ----
   {

@@ -4,17 +4,31 @@ import type { Transaction } from "@/db/client";
 import { databaseUrl, jobRetryDelaySeconds } from "@/lib/config";
 
 /** Queue names used across the app. */
-export const queues = ["mail", "register-identifier", "refit", "search-sync", "watch-notify", "watch-digest"] as const;
+export const queues = [
+  "mail",
+  "register-identifier",
+  "refit",
+  "search-sync",
+  "watch-notify",
+  "watch-digest",
+  "mechanism-check",
+  "mechanism-check-sweep",
+] as const;
 export type QueueName = (typeof queues)[number];
 
 /**
  * Queues that differ from the default policy. search-sync drains the search outbox, whose rows keep
  * their own back-off: at most one job waits ("short"), and a failed drain is not retried by pg-boss.
  */
-const queueOptions: Partial<Record<QueueName, Partial<PgBoss.Queue>>> = {
+export const queueOptions: Partial<Record<QueueName, Partial<PgBoss.Queue>>> = {
   "search-sync": { policy: "short", retryLimit: 0 },
   // The daily digest: one run waiting at most; a failed run is simply the next day's.
   "watch-digest": { policy: "short", retryLimit: 2 },
+  // A check's own row counts its runs (lib/mechanisms/check-job.ts); pg-boss only retries a run that never started
+  // (the database out of reach before the check was claimed), a few seconds apart. A large check may run for minutes.
+  "mechanism-check": { retryLimit: 3, retryDelay: 5, retryBackoff: false, expireInSeconds: 30 * 60 } satisfies PgBoss.SendOptions,
+  // Every minute: checks whose run stopped beating are queued again (or failed after three runs).
+  "mechanism-check-sweep": { policy: "short", retryLimit: 0 },
 };
 
 /** Default retry policy: a relay or DOI agency that is down delays the work, never loses it. */

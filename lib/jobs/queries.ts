@@ -53,7 +53,7 @@ export async function listTroubledJobs({ limit = 50 }: { limit?: number } = {}):
     error: string | null;
   }>(sql`
     select id::text, name, state::text as state, retry_count, retry_limit, created_on, start_after,
-           coalesce(data->>'subject', data->>'identifier', data->>'versionId') as summary,
+           coalesce(data->>'subject', data->>'identifier', data->>'versionId', 'mechanism check ' || (data->>'checkId')) as summary,
            coalesce(output->>'message', output::text) as error
     from pgboss.job where state in ('failed', 'retry') order by created_on desc limit ${limit}`);
   return rows.map((r) => ({

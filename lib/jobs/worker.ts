@@ -14,7 +14,11 @@ import {
   WATCH_NOTIFY_QUEUE,
   type WatchJob,
 } from "@/lib/watches/notify";
+import { runMechanismCheckJob } from "@/lib/mechanisms/check-job";
+import { MECHANISM_CHECK_QUEUE, sweepStalledMechanismChecks, type MechanismCheckJob } from "@/lib/mechanisms/queries";
 import { newBoss } from "./boss";
+
+const MECHANISM_CHECK_SWEEP_QUEUE = "mechanism-check-sweep";
 import { endJobRetries } from "./queries";
 
 /**
@@ -67,6 +71,19 @@ export async function startWorkers(): Promise<{ stop: () => Promise<void> }> {
   await boss.work(WATCH_DIGEST_QUEUE, { pollingIntervalSeconds: 5 }, async () => {
     await sendWatchDigests();
   });
+  // Mechanism checks: each run on the analysis threads of this process; every minute, runs whose server stopped are
+  // queued again (lib/mechanisms/check-job.ts, sweepStalledMechanismChecks).
+  await boss.work<MechanismCheckJob>(MECHANISM_CHECK_QUEUE, { pollingIntervalSeconds: 1 }, async ([job]) => {
+    await runMechanismCheckJob(job.data);
+  });
+  await boss.work(MECHANISM_CHECK_SWEEP_QUEUE, { pollingIntervalSeconds: 5 }, async () => {
+    const { queued, failed } = await sweepStalledMechanismChecks();
+    if (queued.length || failed.length)
+      console.error(
+        `[jobs] mechanism checks that stopped: queued again ${queued.join(", ") || "none"}; given up ${failed.join(", ") || "none"}`,
+      );
+  });
+  await boss.schedule(MECHANISM_CHECK_SWEEP_QUEUE, "* * * * *", {}, { tz: "UTC" });
   await boss.schedule(WATCH_DIGEST_QUEUE, WATCH_DIGEST_CRON, {}, { tz: "UTC" });
   if (meilisearchConfig()) await boss.schedule(SEARCH_SYNC_QUEUE, "* * * * *");
   else await boss.unschedule(SEARCH_SYNC_QUEUE);

@@ -2,7 +2,8 @@
  * Matching a mechanism to Arrhenia's species and reactions. Species: the person's own choice
  * first, then the name among a species' names (case-insensitive), then the elemental composition
  * (YAML states it; a plain-text name that reads as a formula, such as "CH3" or "H2O2", gives one).
- * Several species with one composition (isomers), or none, is left for the person to choose.
+ * Several species with one composition (isomers), or none, is left for the person to choose; so is a composition whose
+ * only species is in an excited state (O(1D) for a mechanism's "O"), which no composition can tell from the ground state.
  * Reactions: by reaction key in both directions; only data of the mechanism's forward direction
  * are compared with its forward rate, a reverse-direction reaction is marked.
  */
@@ -70,24 +71,43 @@ export function matchSpecies({
   byFormula,
 }: {
   names: readonly { name: string; formula: string | null }[];
-  choices: ReadonlyMap<string, string>;
+  /** name → the InChIKey chosen, or the species chosen as the report shows it. */
+  choices: ReadonlyMap<string, string | SpeciesMatch["candidates"][number]>;
   byName: ReadonlyMap<string, readonly CatalogueSpecies[]>;
   byFormula: ReadonlyMap<string, readonly CatalogueSpecies[]>;
 }): SpeciesMatch[] {
   const brief = (s: CatalogueSpecies) => ({ inchiKey: s.inchiKey, formula: s.formula, name: s.names[0] ?? s.formula });
   return names.map(({ name, formula }) => {
     const chosen = choices.get(name);
-    if (chosen) return { name, by: "choice", inchiKey: chosen, formula, candidates: [] };
+    if (typeof chosen === "string") return { name, by: "choice", inchiKey: chosen, formula, candidates: [] };
+    if (chosen) return { name, by: "choice", inchiKey: chosen.inchiKey, formula, candidates: [chosen] };
     const named = unique(byName.get(name.toLowerCase()) ?? []);
     // A name several species share is only settled by the composition, when that picks one of them.
     const narrowed = named.length > 1 && formula ? named.filter((s) => s.formula === formula) : named;
     if (narrowed.length === 1) return { name, by: "name", inchiKey: narrowed[0].inchiKey, formula, candidates: [brief(narrowed[0])] };
     const sameFormula = formula ? unique(byFormula.get(formula) ?? []) : [];
-    if (named.length === 0 && sameFormula.length === 1)
-      return { name, by: "composition", inchiKey: sameFormula[0].inchiKey, formula, candidates: [brief(sameFormula[0])] };
+    // The composition alone never tells an electronic state: only a species of the name's own kind (ground state for
+    // a plain name) is taken, and only when it is the one such species; otherwise the person chooses.
+    const sameKind = sameFormula.filter((s) => isExcitedSpecies(s) === marksExcitedState(name));
+    if (named.length === 0 && sameKind.length === 1 && !marksExcitedState(name))
+      return { name, by: "composition", inchiKey: sameKind[0].inchiKey, formula, candidates: [brief(sameKind[0])] };
     const candidates = unique([...named, ...sameFormula]).map(brief);
     return { name, by: candidates.length ? "ambiguous" : "none", inchiKey: null, formula, candidates };
   });
+}
+
+/**
+ * Whether a name marks an electronically excited state: "excited", "singlet", a "*", or a term symbol of the usual
+ * excited states of small species — O(1D), O(1S), N(2D), N(2P), O2(a1Δg), O2(b1Σg+) (common practice of mechanism
+ * and data naming; the list is from memory, not exhaustive). Ground-state symbols such as O(3P) are not marks.
+ */
+export function marksExcitedState(name: string): boolean {
+  return /excited|singlet|\*|\(\s*(?:1D|1S|2D|2P|a\s*1|b\s*1)/i.test(name);
+}
+
+/** A species every name of which marks an excited state (its names, not its structure, say so: an InChI cannot). */
+function isExcitedSpecies(s: CatalogueSpecies): boolean {
+  return s.names.length > 0 && s.names.every(marksExcitedState);
 }
 
 function unique(list: readonly CatalogueSpecies[]): CatalogueSpecies[] {

@@ -1,10 +1,14 @@
 import "server-only";
 import { and, desc, eq, inArray, or, sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
-import { reactions, species, speciesNames } from "@/db/chemistry";
+import { getDb, type Transaction } from "@/db/client";
+import { reactions, species } from "@/db/chemistry";
 import { mechanismChecks, speciesMappingChoices } from "@/db/mechanisms";
 import { speciesDisplayNames } from "@/db/search";
+import type PgBoss from "pg-boss";
+import { AppError } from "@/lib/errors";
+import { getSender, jobsInTransaction, queueOptions } from "@/lib/jobs/boss";
 import type { CatalogueSpecies } from "./match";
+import { HEARTBEAT_STALE_SECONDS, MAX_CHECK_RUNS, STOPPED_TOO_OFTEN, type CheckProgress } from "./progress";
 
 /** Species whose names (any case) or formulas are among those given, indexed both ways for matchSpecies. */
 export async function findSpeciesCatalogue({ names, formulas }: { names: string[]; formulas: string[] }) {
@@ -60,14 +64,23 @@ export async function findReactionIdsByKeys({ keys }: { keys: string[] }): Promi
   return out;
 }
 
-/** A person's remembered choices: mechanism name → InChIKey. */
-export async function listSpeciesChoices({ userId }: { userId: number }): Promise<Map<string, string>> {
+/** A species' first name in alphabetical order, for one without a display name (no public version names it). */
+const firstName = sql`(select min(n.name) from species_names n where n.species_id = ${species.id})`;
+
+/** A person's remembered choices: mechanism name → the species chosen (its InChIKey, formula and display name). */
+export async function listSpeciesChoices({ userId }: { userId: number }) {
   const rows = await getDb()
-    .select({ name: speciesMappingChoices.name, inchiKey: species.inchiKey })
+    .select({
+      name: speciesMappingChoices.name,
+      inchiKey: species.inchiKey,
+      formula: species.formula,
+      display: sql<string>`coalesce(${speciesDisplayNames.name}, ${firstName}, ${species.formula})`,
+    })
     .from(speciesMappingChoices)
     .innerJoin(species, eq(species.id, speciesMappingChoices.speciesId))
+    .leftJoin(speciesDisplayNames, eq(speciesDisplayNames.speciesId, species.id))
     .where(eq(speciesMappingChoices.userId, userId));
-  return new Map(rows.map((r) => [r.name, r.inchiKey]));
+  return new Map(rows.map((r) => [r.name, { inchiKey: r.inchiKey, formula: r.formula, name: r.display }]));
 }
 
 /** Remembers (or replaces) a person's choices; returns the InChIKeys that name no species. */
@@ -95,68 +108,178 @@ export async function saveSpeciesChoices({ userId, choices }: { userId: number; 
   return { unknown };
 }
 
-/** Species whose name, SMILES or InChI/InChIKey matches the text, for the mapping table's search (at most 20). */
-export async function searchSpeciesForMapping({ text }: { text: string }) {
+/**
+ * Species for the mapping table's search (at most 20): a name containing the text (any case), the formula, the
+ * canonical SMILES, InChI or InChIKey as given, or one of `inchiKeys` (a structure the caller read from the text).
+ */
+export async function searchSpeciesForMapping({ text, inchiKeys = [] }: { text: string; inchiKeys?: string[] }) {
   const t = text.trim();
   if (!t) return [];
+  const like = `%${t.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
   return getDb()
-    .selectDistinct({
+    .select({
       inchiKey: species.inchiKey,
       formula: species.formula,
       smiles: species.canonicalSmiles,
-      name: speciesDisplayNames.name,
+      name: sql<string>`coalesce(${speciesDisplayNames.name}, ${firstName}, ${species.formula})`,
+      names: sql<
+        string[]
+      >`coalesce((select array_agg(n.name order by n.name) from species_names n where n.species_id = ${species.id}), '{}')`,
     })
     .from(species)
     .leftJoin(speciesDisplayNames, eq(speciesDisplayNames.speciesId, species.id))
-    .leftJoin(speciesNames, eq(speciesNames.speciesId, species.id))
     .where(
       or(
-        sql`lower(${speciesNames.name}) = lower(${t})`,
+        sql`exists (select 1 from species_names n where n.species_id = ${species.id} and lower(n.name) like ${like})`,
         eq(species.canonicalSmiles, t),
         eq(species.inchi, t),
-        eq(species.inchiKey, t.toUpperCase()),
         eq(species.formula, t),
+        inArray(species.inchiKey, [t.toUpperCase(), ...inchiKeys]),
       ),
+    )
+    .orderBy(
+      sql`${species.formula} = ${t} or ${species.inchiKey} in (${sql.join(
+        [t.toUpperCase(), ...inchiKeys].map((k) => sql`${k}`),
+        sql`, `,
+      )}) desc`,
+      species.formula,
     )
     .limit(20);
 }
 
-export async function createMechanismCheck(values: {
+/** The job a check's run is (lib/mechanisms/check-job.ts), queued through the transaction that stores or resets the check. */
+export const MECHANISM_CHECK_QUEUE = "mechanism-check";
+export type MechanismCheckJob = { checkId: number };
+
+async function sendCheckJob(tx: Transaction, checkId: number) {
+  const boss = await getSender();
+  await boss.send(MECHANISM_CHECK_QUEUE, { checkId } satisfies MechanismCheckJob, {
+    ...(queueOptions[MECHANISM_CHECK_QUEUE] as PgBoss.SendOptions),
+    db: jobsInTransaction(tx),
+  });
+}
+
+/** Stores a check as queued and queues its run, both or neither. */
+export async function createQueuedMechanismCheck(values: {
   ownerId: number;
   name: string;
   source: string;
+  format: string;
   window: { Tmin: number; Tmax: number };
   total: number;
 }): Promise<number> {
+  return getDb().transaction(async (tx) => {
+    const [row] = await tx
+      .insert(mechanismChecks)
+      .values({
+        ownerId: values.ownerId,
+        name: values.name,
+        source: values.source,
+        format: values.format,
+        windowTmin: values.window.Tmin,
+        windowTmax: values.window.Tmax,
+        total: values.total,
+        state: "queued",
+      })
+      .returning({ id: mechanismChecks.id });
+    await sendCheckJob(tx, row.id);
+    return row.id;
+  });
+}
+
+/**
+ * Queues a finished or failed check of its owner again (the person's choices may have changed); its report is
+ * kept until the new run replaces it. False when the check is not the owner's; a conflict while it is queued or running.
+ */
+export async function requeueMechanismCheck({ id, ownerId }: { id: number; ownerId: number }): Promise<boolean> {
+  return getDb().transaction(async (tx) => {
+    const [row] = await tx
+      .select({ state: mechanismChecks.state })
+      .from(mechanismChecks)
+      .where(and(eq(mechanismChecks.id, id), eq(mechanismChecks.ownerId, ownerId)))
+      .for("update");
+    if (!row) return false;
+    if (row.state === "queued" || row.state === "running") throw new AppError("conflict", `The check is already ${row.state}.`);
+    await tx
+      .update(mechanismChecks)
+      .set({ state: "queued", attempts: 0, stage: null, progress: 0, error: null, heartbeatAt: null, finishedAt: null })
+      .where(eq(mechanismChecks.id, id));
+    await sendCheckJob(tx, id);
+    return true;
+  });
+}
+
+/**
+ * Takes a queued check for one run: running, one more attempt, a fresh heartbeat. Null when it is not queued (another
+ * run has it, or it is settled), so a job handed out twice runs it once.
+ */
+export async function claimMechanismCheck({ id }: { id: number }) {
   const [row] = await getDb()
-    .insert(mechanismChecks)
-    .values({
-      ownerId: values.ownerId,
-      name: values.name,
-      source: values.source,
-      windowTmin: values.window.Tmin,
-      windowTmax: values.window.Tmax,
-      total: values.total,
-      state: "running",
-      attempts: 1,
-      heartbeatAt: sql`now()`,
-    })
-    .returning({ id: mechanismChecks.id });
-  return row.id;
+    .update(mechanismChecks)
+    .set({ state: "running", attempts: sql`${mechanismChecks.attempts} + 1`, heartbeatAt: sql`now()`, stage: null, progress: 0 })
+    .where(and(eq(mechanismChecks.id, id), eq(mechanismChecks.state, "queued")))
+    .returning({
+      ownerId: mechanismChecks.ownerId,
+      source: mechanismChecks.source,
+      format: mechanismChecks.format,
+      windowTmin: mechanismChecks.windowTmin,
+      windowTmax: mechanismChecks.windowTmax,
+      attempts: mechanismChecks.attempts,
+    });
+  return row ?? null;
+}
+
+/** A running check's heartbeat, with its progress when given. */
+export async function beatMechanismCheck({ id, progress }: { id: number; progress?: CheckProgress }) {
+  await getDb()
+    .update(mechanismChecks)
+    .set({ heartbeatAt: sql`now()`, ...(progress ? { stage: progress.stage, progress: progress.done, total: progress.total } : {}) })
+    .where(and(eq(mechanismChecks.id, id), eq(mechanismChecks.state, "running")));
+}
+
+/**
+ * Running checks whose heartbeat is older than HEARTBEAT_STALE_SECONDS (their server stopped): queued again with a new
+ * job, or failed with a worded message after MAX_CHECK_RUNS runs. Queued checks whose job is gone (failed for good
+ * while the database was out of reach) get a new one. Returns the ids queued and failed.
+ */
+export async function sweepStalledMechanismChecks({ staleSeconds = HEARTBEAT_STALE_SECONDS } = {}) {
+  return getDb().transaction(async (tx) => {
+    const stale = and(
+      eq(mechanismChecks.state, "running"),
+      sql`${mechanismChecks.heartbeatAt} < now() - make_interval(secs => ${staleSeconds})`,
+    );
+    const failed = await tx
+      .update(mechanismChecks)
+      .set({ state: "failed", error: STOPPED_TOO_OFTEN, finishedAt: sql`now()`, heartbeatAt: null })
+      .where(and(stale, sql`${mechanismChecks.attempts} >= ${MAX_CHECK_RUNS}`))
+      .returning({ id: mechanismChecks.id });
+    const requeued = await tx
+      .update(mechanismChecks)
+      .set({ state: "queued", heartbeatAt: null, stage: null, progress: 0 })
+      .where(and(stale, sql`${mechanismChecks.attempts} < ${MAX_CHECK_RUNS}`))
+      .returning({ id: mechanismChecks.id });
+    const orphans = await tx.execute<{ id: number }>(sql`
+      select c.id from mechanism_checks c where c.state = 'queued' and c.created_at < now() - interval '1 minute'
+      and not exists (select 1 from pgboss.job j where j.name = ${MECHANISM_CHECK_QUEUE} and j.state in ('created', 'retry', 'active')
+        and (j.data ->> 'checkId')::int = c.id)`);
+    const queued = [...requeued.map((r) => r.id), ...[...orphans].map((r) => Number(r.id))];
+    for (const id of new Set(queued)) await sendCheckJob(tx, id);
+    return { queued: [...new Set(queued)], failed: failed.map((r) => r.id) };
+  });
 }
 
 export async function finishMechanismCheck({ id, report }: { id: number; report: Record<string, unknown> }) {
   await getDb()
     .update(mechanismChecks)
-    .set({ state: "done", report, progress: mechanismChecks.total, finishedAt: sql`now()`, heartbeatAt: null })
-    .where(eq(mechanismChecks.id, id));
+    .set({ state: "done", report, stage: null, progress: mechanismChecks.total, finishedAt: sql`now()`, heartbeatAt: null })
+    .where(and(eq(mechanismChecks.id, id), eq(mechanismChecks.state, "running")));
 }
 
 export async function failMechanismCheck({ id, error }: { id: number; error: string }) {
   await getDb()
     .update(mechanismChecks)
-    .set({ state: "failed", error, finishedAt: sql`now()`, heartbeatAt: null })
-    .where(eq(mechanismChecks.id, id));
+    .set({ state: "failed", error, stage: null, finishedAt: sql`now()`, heartbeatAt: null })
+    .where(and(eq(mechanismChecks.id, id), eq(mechanismChecks.state, "running")));
 }
 
 /** One check as its reader sees it (never the source text). */
@@ -167,6 +290,8 @@ export async function getMechanismCheck({ id }: { id: number }) {
       ownerId: mechanismChecks.ownerId,
       state: mechanismChecks.state,
       name: mechanismChecks.name,
+      stage: mechanismChecks.stage,
+      attempts: mechanismChecks.attempts,
       windowTmin: mechanismChecks.windowTmin,
       windowTmax: mechanismChecks.windowTmax,
       progress: mechanismChecks.progress,

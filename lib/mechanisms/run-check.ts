@@ -3,18 +3,12 @@ import { CAUTION } from "@/lib/analyses/analyse-request";
 import { analysisThreads } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { reactionPath } from "@/lib/reactions/paths";
-import { listConsensusExclusions, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
+import { listConsensusExclusionsOfReactions, listPublicVersionsOfReactions } from "@/lib/reactions/queries";
 import { runAnalysisTask } from "@/lib/workers/pool";
 import type { JudgeInput, JudgeOutput } from "./judge";
 import { matchReaction, matchSpecies, mechanismReactionKeys, mechanismSpeciesNames, type SpeciesMatch } from "./match";
-import {
-  createMechanismCheck,
-  failMechanismCheck,
-  findReactionIdsByKeys,
-  findSpeciesCatalogue,
-  finishMechanismCheck,
-  listSpeciesChoices,
-} from "./queries";
+import type { CheckProgress } from "./progress";
+import { createQueuedMechanismCheck, findReactionIdsByKeys, findSpeciesCatalogue, listSpeciesChoices } from "./queries";
 import type { MechanismRequestInput } from "./request";
 import type { MechanismProblem, ParsedMechanism } from "./types";
 import type { MechanismVerdict, ReactionVerdict } from "./verdicts";
@@ -23,8 +17,8 @@ import type { MechanismVerdict, ReactionVerdict } from "./verdicts";
 export const MAX_REPORTED_PROBLEMS = 1000;
 /** Matched reactions judged per worker task. */
 const JUDGE_BATCH = 200;
-/** Reactions whose data are read from the database at once. */
-const READ_CONCURRENCY = 8;
+/** Reactions whose data are read from the database in one statement. */
+const READ_BATCH = 250;
 
 export interface ReportReaction extends ReactionVerdict {
   index: number;
@@ -56,38 +50,38 @@ export interface MechanismReport {
 }
 
 /**
- * Reads, matches and judges a mechanism for its owner, stores the check and returns its id and
- * report. Reading and judging run on the analysis worker threads; this function only queries.
+ * Reads a mechanism sent by its owner (on a worker thread: a file that cannot be read is refused here, nothing stored)
+ * and stores the check as queued with its run's job (./check-job.ts reads, matches and judges it in the background).
  */
-export async function runMechanismCheck({ ownerId, input }: { ownerId: number; input: MechanismRequestInput }) {
+export async function submitMechanismCheck({ ownerId, input }: { ownerId: number; input: MechanismRequestInput }) {
   const read = await runAnalysisTask("readMechanism", input, { transfer: [input.bytes.buffer as ArrayBuffer] });
   if (!read.ok) throw new AppError(read.code, read.message, read.errors);
-  const id = await createMechanismCheck({
+  const id = await createQueuedMechanismCheck({
     ownerId,
     name: read.name,
     source: read.text,
+    format: read.mechanism.format,
     window: read.window,
     total: read.mechanism.reactions.length,
   });
-  try {
-    const report = await buildReport({ ownerId, mechanism: read.mechanism, window: read.window });
-    await finishMechanismCheck({ id, report: report as unknown as Record<string, unknown> });
-    return { id, report };
-  } catch (err) {
-    await failMechanismCheck({ id, error: err instanceof AppError ? err.message : "The check failed on our side; it has been logged." });
-    throw err;
-  }
+  return { id, reactions: read.mechanism.reactions.length, problems: read.mechanism.problems };
 }
+
+/** Called as the report is built; it may write the progress (it is awaited, so it should not take long). */
+export type ProgressListener = (progress: CheckProgress) => void | Promise<void>;
 
 export async function buildReport({
   ownerId,
   mechanism,
   window,
+  onProgress = () => {},
 }: {
   ownerId: number;
   mechanism: ParsedMechanism;
   window: { Tmin: number; Tmax: number };
+  onProgress?: ProgressListener;
 }): Promise<MechanismReport> {
+  await onProgress({ stage: "matching", done: 0, total: mechanism.reactions.length });
   const names = mechanismSpeciesNames(mechanism);
   const [catalogue, choices] = await Promise.all([
     findSpeciesCatalogue({ names: names.map((n) => n.name), formulas: names.flatMap((n) => (n.formula ? [n.formula] : [])) }),
@@ -101,42 +95,55 @@ export async function buildReport({
   const reactionIdOf = await findReactionIdsByKeys({ keys });
   const matches = keyed.map(({ r, keyed: k }) => ({ r, k, match: k && "keys" in k ? matchReaction(k.keys, reactionIdOf) : null }));
 
-  // Every forward-matched reaction's versions and exclusions, a few reactions at a time.
+  // Every forward-matched reaction's versions and exclusions, READ_BATCH reactions a statement.
   const toJudge = matches.filter((m) => m.match?.forward && m.r.rate);
-  const inputs: JudgeInput[] = new Array(toJudge.length);
-  let next = 0;
-  await Promise.all(
-    Array.from({ length: Math.min(READ_CONCURRENCY, toJudge.length) }, async () => {
-      while (next < toJudge.length) {
-        const i = next++;
-        const { r, match } = toJudge[i];
-        const reactionId = match!.forward!.reactionId;
-        const [versions, exclusions] = await Promise.all([
-          listPublicVersionsOfReaction({ reactionId }),
-          listConsensusExclusions({ reactionId }),
-        ]);
-        // DUPLICATE entries of one reaction act together: each is judged as the sum of them all.
-        const duplicates = r.duplicate
-          ? toJudge
-              .filter((o) => o.r !== r && o.r.duplicate && o.match!.forward!.reactionId === reactionId && o.r.order === r.order)
-              .map((o) => ({ line: o.r.line, rate: o.r.rate! }))
-          : [];
-        inputs[i] = { index: r.index, rate: r.rate!, ...(duplicates.length ? { duplicates } : {}), order: r.order, versions, exclusions };
-      }
-    }),
-  );
+  const reactionIds = [...new Set(toJudge.map((m) => m.match!.forward!.reactionId))];
+  await onProgress({ stage: "data", done: 0, total: reactionIds.length });
+  const versionsOf = new Map<number, JudgeInput["versions"]>();
+  const exclusionsOf = new Map<number, JudgeInput["exclusions"]>();
+  for (let i = 0; i < reactionIds.length; i += READ_BATCH) {
+    const ids = reactionIds.slice(i, i + READ_BATCH);
+    const [versions, exclusions] = await Promise.all([
+      listPublicVersionsOfReactions({ reactionIds: ids }),
+      listConsensusExclusionsOfReactions({ reactionIds: ids }),
+    ]);
+    for (const [id, list] of versions) versionsOf.set(id, list);
+    for (const [id, list] of exclusions) exclusionsOf.set(id, list);
+    await onProgress({ stage: "data", done: Math.min(reactionIds.length, i + READ_BATCH), total: reactionIds.length });
+  }
+  // DUPLICATE entries of one reaction act together: each is judged as the sum of them all.
+  const duplicatesOf = new Map<string, { line: number; rate: NonNullable<ParsedMechanism["reactions"][number]["rate"]> }[]>();
+  for (const { r, match } of toJudge)
+    if (r.duplicate) {
+      const key = `${match!.forward!.reactionId}:${r.order}`;
+      duplicatesOf.set(key, [...(duplicatesOf.get(key) ?? []), { line: r.line, rate: r.rate! }]);
+    }
+  const inputs: JudgeInput[] = toJudge.map(({ r, match }) => {
+    const reactionId = match!.forward!.reactionId;
+    const duplicates = r.duplicate ? duplicatesOf.get(`${reactionId}:${r.order}`)!.filter((d) => d.line !== r.line) : [];
+    return {
+      index: r.index,
+      rate: r.rate!,
+      ...(duplicates.length ? { duplicates } : {}),
+      order: r.order,
+      versions: versionsOf.get(reactionId) ?? [],
+      exclusions: exclusionsOf.get(reactionId) ?? [],
+    };
+  });
   // Batches go to the analysis threads side by side, as many at once as there are threads (the rest of the
   // queue stays free for other requests).
   const judged = new Map<number, JudgeOutput>();
   const batches = Array.from({ length: Math.ceil(inputs.length / JUDGE_BATCH) }, (_, b) =>
     inputs.slice(b * JUDGE_BATCH, (b + 1) * JUDGE_BATCH),
   );
+  await onProgress({ stage: "judging", done: 0, total: inputs.length });
   let nextBatch = 0;
   await Promise.all(
     Array.from({ length: Math.min(analysisThreads(), batches.length) }, async () => {
       while (nextBatch < batches.length) {
         const batch = batches[nextBatch++];
         for (const out of await runAnalysisTask("judgeMechanism", { window, reactions: batch })) judged.set(out.index, out);
+        await onProgress({ stage: "judging", done: judged.size, total: inputs.length });
       }
     }),
   );

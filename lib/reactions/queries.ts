@@ -71,53 +71,73 @@ export async function getReaction({ id, versionId }: { id: number; versionId?: n
  * the page's data cache.
  */
 export async function listPublicVersionsOfReaction({ reactionId, db = getDb() }: { reactionId: number; db?: Transaction | Database }) {
-  const versions = await db
-    .select({
-      versionId: datasetVersions.id,
-      datasetId: datasetVersions.datasetId,
-      number: datasetVersions.number,
-      title: datasetVersions.title,
-      state: datasetVersions.state,
-      versionIdentifier: datasetVersions.versionIdentifier,
-      tMin: datasetVersions.tMin,
-      tMax: datasetVersions.tMax,
-      pointCount: datasetVersions.pointCount,
-      payload: sql<ConsensusPayload>`jsonb_build_object(
+  return (await listPublicVersionsOfReactions({ reactionIds: [reactionId], db })).get(reactionId) ?? [];
+}
+
+/**
+ * The same for many reactions in three statements (a mechanism check reads thousands of reactions: one round trip
+ * each was most of its time). Every reaction asked for is in the map, with no versions when it has none.
+ */
+export async function listPublicVersionsOfReactions({
+  reactionIds,
+  db = getDb(),
+}: {
+  reactionIds: readonly number[];
+  db?: Transaction | Database;
+}) {
+  const versions = reactionIds.length
+    ? await db
+        .select({
+          reactionId: datasetVersions.reactionId,
+          versionId: datasetVersions.id,
+          datasetId: datasetVersions.datasetId,
+          number: datasetVersions.number,
+          title: datasetVersions.title,
+          state: datasetVersions.state,
+          versionIdentifier: datasetVersions.versionIdentifier,
+          tMin: datasetVersions.tMin,
+          tMax: datasetVersions.tMax,
+          pointCount: datasetVersions.pointCount,
+          payload: sql<ConsensusPayload>`jsonb_build_object(
         'method', jsonb_build_object('category', ${datasetVersions.payload} -> 'method' -> 'category'),
         'reaction', jsonb_build_object('order', ${datasetVersions.payload} -> 'reaction' -> 'order'))`,
-    })
-    .from(datasetVersions)
-    .where(and(eq(datasetVersions.reactionId, reactionId), isNewestPublic))
-    .orderBy(datasetVersions.datasetId);
-  if (!versions.length) return [];
+        })
+        .from(datasetVersions)
+        .where(and(inArray(datasetVersions.reactionId, [...reactionIds]), isNewestPublic))
+        .orderBy(datasetVersions.datasetId)
+    : [];
   const ids = versions.map((v) => v.versionId);
-  const points = await db
-    .select({
-      versionId: versionPoints.versionId,
-      T: versionPoints.temperatureK,
-      k: versionPoints.rateConstant,
-      sigmaLnK: versionPoints.sigmaLnK,
-    })
-    .from(versionPoints)
-    .where(inArray(versionPoints.versionId, ids))
-    .orderBy(versionPoints.versionId, versionPoints.idx);
+  const points = ids.length
+    ? await db
+        .select({
+          versionId: versionPoints.versionId,
+          T: versionPoints.temperatureK,
+          k: versionPoints.rateConstant,
+          sigmaLnK: versionPoints.sigmaLnK,
+        })
+        .from(versionPoints)
+        .where(inArray(versionPoints.versionId, ids))
+        .orderBy(versionPoints.versionId, versionPoints.idx)
+    : [];
   const result = sql.raw(`"version_analyses"."result"`);
-  const analyses = await db
-    .selectDistinctOn([versionAnalyses.versionId], {
-      versionId: versionAnalyses.versionId,
-      // Only the outlier flag (storedOutliers in ./consensus-selection.ts); no flag list at all stays absent.
-      summary: sql<{ flags?: unknown[] } | null>`case when ${result} is null then null
+  const analyses = ids.length
+    ? await db
+        .selectDistinctOn([versionAnalyses.versionId], {
+          versionId: versionAnalyses.versionId,
+          // Only the outlier flag (storedOutliers in ./consensus-selection.ts); no flag list at all stays absent.
+          summary: sql<{ flags?: unknown[] } | null>`case when ${result} is null then null
         when jsonb_typeof(${result} -> 'flags') = 'array' then jsonb_build_object('flags', coalesce(
           (select jsonb_agg(f) from jsonb_array_elements(${result} -> 'flags') f where f ->> 'code' = 'outlier'), '[]'::jsonb))
         else '{}'::jsonb end`,
-      // As drawableFit (lib/datasets/version-json.ts) decides: a fit with parameters and a band of two or more temperatures.
-      ea: sql<number | null>`case when jsonb_typeof(${result} -> 'arrhenius' -> 'params') = 'object'
+          // As drawableFit (lib/datasets/version-json.ts) decides: a fit with parameters and a band of two or more temperatures.
+          ea: sql<number | null>`case when jsonb_typeof(${result} -> 'arrhenius' -> 'params') = 'object'
         and jsonb_typeof(${result} -> 'band' -> 'T') = 'array' and jsonb_array_length(${result} -> 'band' -> 'T') > 1
         then (${result} -> 'arrhenius' -> 'params' ->> 'Ea')::float8 end`,
-    })
-    .from(versionAnalyses)
-    .where(inArray(versionAnalyses.versionId, ids))
-    .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id));
+        })
+        .from(versionAnalyses)
+        .where(inArray(versionAnalyses.versionId, ids))
+        .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id))
+    : [];
   const pointsOf = new Map<number, { T: number; k: number; sigmaLnK?: number }[]>();
   for (const p of points) {
     const list = pointsOf.get(p.versionId) ?? [];
@@ -125,13 +145,20 @@ export async function listPublicVersionsOfReaction({ reactionId, db = getDb() }:
     pointsOf.set(p.versionId, list);
   }
   const analysisOf = new Map(analyses.map((a) => [a.versionId, a]));
-  return versions.map((v) => ({
-    ...v,
-    points: pointsOf.get(v.versionId) ?? [],
-    analysis: analysisOf.get(v.versionId)?.summary ?? null,
-    /** Activation energy (J/mol) of the dataset's own Arrhenius fit, when it can be drawn. */
-    ea: analysisOf.get(v.versionId)?.ea ?? null,
-  }));
+  const withData = (row: (typeof versions)[number]) => {
+    const { reactionId, ...v } = row;
+    void reactionId; // the map's key, not part of a version
+    return {
+      ...v,
+      points: pointsOf.get(v.versionId) ?? [],
+      analysis: analysisOf.get(v.versionId)?.summary ?? null,
+      /** Activation energy (J/mol) of the dataset's own Arrhenius fit, when it can be drawn. */
+      ea: analysisOf.get(v.versionId)?.ea ?? null,
+    };
+  };
+  const out = new Map(reactionIds.map((id) => [id, [] as ReturnType<typeof withData>[]]));
+  for (const v of versions) if (v.reactionId !== null) out.get(v.reactionId)?.push(withData(v));
+  return out;
 }
 
 /** Reactions that have at least one public dataset, with their counts (for listings). */
@@ -165,12 +192,32 @@ export async function listConsensusExclusions({
   reactionId: number;
   db?: Transaction | Database;
 }): Promise<CuratorExclusion[]> {
-  return db
-    .select({ versionId: consensusExclusions.versionId, reason: consensusExclusions.reason, excludedAt: consensusExclusions.excludedAt })
+  return (await listConsensusExclusionsOfReactions({ reactionIds: [reactionId], db })).get(reactionId) ?? [];
+}
+
+/** The same for many reactions in one statement; every reaction asked for is in the map. */
+export async function listConsensusExclusionsOfReactions({
+  reactionIds,
+  db = getDb(),
+}: {
+  reactionIds: readonly number[];
+  db?: Transaction | Database;
+}): Promise<Map<number, CuratorExclusion[]>> {
+  const out = new Map(reactionIds.map((id) => [id, [] as CuratorExclusion[]]));
+  if (!reactionIds.length) return out;
+  const rows = await db
+    .select({
+      reactionId: datasetVersions.reactionId,
+      versionId: consensusExclusions.versionId,
+      reason: consensusExclusions.reason,
+      excludedAt: consensusExclusions.excludedAt,
+    })
     .from(consensusExclusions)
     .innerJoin(datasetVersions, eq(datasetVersions.id, consensusExclusions.versionId))
-    .where(eq(datasetVersions.reactionId, reactionId))
+    .where(inArray(datasetVersions.reactionId, [...reactionIds]))
     .orderBy(consensusExclusions.versionId);
+  for (const { reactionId, ...e } of rows) if (reactionId !== null) out.get(reactionId)?.push(e);
+  return out;
 }
 
 /** The version, locked against a concurrent retraction until the transaction ends; 409 unless published. */

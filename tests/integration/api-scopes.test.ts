@@ -41,6 +41,8 @@ import * as mechanismChecks from "@/app/api/v1/mechanism-checks/route";
 import * as mechanismCheck from "@/app/api/v1/mechanism-checks/[id]/route";
 import * as mechanismCheckShare from "@/app/api/v1/mechanism-checks/[id]/share/route";
 import * as speciesChoices from "@/app/api/v1/mechanism-checks/species-choices/route";
+import * as mechanismCheckRerun from "@/app/api/v1/mechanism-checks/[id]/rerun/route";
+import * as mappingSpeciesSearch from "@/app/api/v1/mechanism-checks/species-search/route";
 import { createTokenAction } from "@/app/settings/actions";
 import { idleState } from "@/lib/auth/action-state";
 import type { ApiOptions } from "@/lib/auth/api";
@@ -88,6 +90,8 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/mechanism-checks/:id": mechanismCheck,
   "/api/v1/mechanism-checks/:id/share": mechanismCheckShare,
   "/api/v1/mechanism-checks/species-choices": speciesChoices,
+  "/api/v1/mechanism-checks/:id/rerun": mechanismCheckRerun,
+  "/api/v1/mechanism-checks/species-search": mappingSpeciesSearch,
 };
 
 let admin: UserDto, researcher: UserDto, subject: UserDto;

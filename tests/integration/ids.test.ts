@@ -9,6 +9,7 @@ import { changeRoleAction, setActiveAction } from "@/app/admin/people/actions";
 import * as datasetRoute from "@/app/api/v1/datasets/[id]/route";
 import * as mechanismCheckRoute from "@/app/api/v1/mechanism-checks/[id]/route";
 import * as mechanismShareRoute from "@/app/api/v1/mechanism-checks/[id]/share/route";
+import * as mechanismRerunRoute from "@/app/api/v1/mechanism-checks/[id]/rerun/route";
 import * as datasetVersionRoute from "@/app/api/v1/datasets/[id]/versions/[n]/route";
 import * as filesRoute from "@/app/api/v1/files/[fileId]/route";
 import * as reactionRoute from "@/app/api/v1/reactions/[id]/route";
@@ -122,6 +123,7 @@ const apiCases: [string, string, Handler, string, () => RequestInit][] = [
     "id",
     () => ({ method: "POST", body: JSON.stringify({ shared: true }) }),
   ],
+  ["POST", "/api/v1/mechanism-checks/[id]/rerun", mechanismRerunRoute.POST as Handler, "id", () => ({ method: "POST" })],
   [
     "PATCH",
     "/api/v1/users/[id]",

@@ -1,4 +1,4 @@
-import { beforeAll, describe, expect, it, vi } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 
 vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
 
@@ -6,9 +6,14 @@ import { GET as getCheck } from "@/app/api/v1/mechanism-checks/[id]/route";
 import { POST as shareCheck } from "@/app/api/v1/mechanism-checks/[id]/share/route";
 import { POST as postCheck } from "@/app/api/v1/mechanism-checks/route";
 import { POST as postChoices } from "@/app/api/v1/mechanism-checks/species-choices/route";
+import { POST as rerunCheck } from "@/app/api/v1/mechanism-checks/[id]/rerun/route";
+import { GET as searchSpecies } from "@/app/api/v1/mechanism-checks/species-search/route";
 import { GET as health } from "@/app/api/health/route";
 import { getCurrentUser } from "@/lib/auth/session";
-import { saveSpeciesChoices } from "@/lib/mechanisms/queries";
+import { getSender } from "@/lib/jobs/boss";
+import { runMechanismCheckJob } from "@/lib/mechanisms/check-job";
+import { MAX_CHECK_RUNS } from "@/lib/mechanisms/progress";
+import { MECHANISM_CHECK_QUEUE, saveSpeciesChoices, sweepStalledMechanismChecks } from "@/lib/mechanisms/queries";
 import { createUser, type UserDto } from "@/lib/users/queries";
 import { consensusDocument, publish } from "./consensus-fixtures";
 import { sql, uniqueEmail } from "./helpers";
@@ -31,6 +36,15 @@ const post = (body: BodyInit, { json = true, query = "" } = {}) =>
     }),
     ctx(),
   );
+/** POST, then the check's job run here (no job worker runs in these tests), as the worker would run it. */
+const postAndRun = async (body: BodyInit, options: { json?: boolean; query?: string } = {}) => {
+  const res = await post(body, options);
+  expect(res.status).toBe(202);
+  const { data } = await res.json();
+  expect(await runMechanismCheckJob({ checkId: data.id })).toBe("done");
+  return { res, data };
+};
+const read = async (id: number) => (await (await getCheck(req(`/api/v1/mechanism-checks/${id}`), ctx(id))).json()).data;
 
 const MECHANISM = `! invented demo mechanism for the test
 ELEMENTS C H BR END
@@ -86,21 +100,22 @@ describe("POST /api/v1/mechanism-checks", () => {
   ])("lets a %s check a mechanism", async (_role, who) => {
     as(who());
     const res = await post(JSON.stringify({ text: MECHANISM, window: { Tmin: 250, Tmax: 400 } }));
-    expect(res.status).toBe(201);
+    expect(res.status).toBe(202);
   });
 
   it("gives every verdict, lists the malformed line, and remembers the owner's choices", async () => {
     as(owner);
-    const res = await post(MECHANISM, { json: false, query: "?Tmin=300&Tmax=2500&name=Test%20mechanism" });
-    expect(res.status).toBe(201);
-    const { data } = await res.json();
+    const { res, data } = await postAndRun(MECHANISM, { json: false, query: "?Tmin=300&Tmax=2500&name=Test%20mechanism" });
     expect(res.headers.get("location")).toBe(`/api/v1/mechanism-checks/${data.id}`);
-    expect(data.summary).toMatchObject({ reactions: 6, agrees: 1, disagrees: 1, no_data: 2, not_checked: 2, extrapolatedAny: 2 });
+    expect(data).toMatchObject({ state: "queued", reactions: 6 });
     expect(data.problems[0]).toMatchObject({ line: 11 });
     expect(data.problems[0].message).toMatch(/"zero" is not a number \(Ea\)/);
 
     const got = await getCheck(req(`/api/v1/mechanism-checks/${data.id}`), ctx(data.id));
+    expect(got.headers.get("content-disposition")).toBeNull();
     const { data: check } = await got.json();
+    expect(check.state).toBe("done");
+    expect(check.report.summary).toMatchObject({ reactions: 6, agrees: 1, disagrees: 1, no_data: 2, not_checked: 2, extrapolatedAny: 2 });
     expect(check.name).toBe("Test mechanism");
     expect(check.source).toBeUndefined();
     const byLine = Object.fromEntries(check.report.reactions.map((r: { line: number }) => [r.line, r]));
@@ -117,6 +132,9 @@ describe("POST /api/v1/mechanism-checks", () => {
     expect(byLine[10].note).toMatch(/Species not matched: XQ/);
     expect(check.report.about.caution).toMatch(/extrapolation/i);
 
+    const download = await getCheck(req(`/api/v1/mechanism-checks/${data.id}?format=json`), ctx(data.id));
+    expect(download.headers.get("content-disposition")).toBe(`attachment; filename="mechanism-check-${data.id}.json"`);
+    expect((await download.json()).data.report.summary.reactions).toBe(6);
     const csv = await (await getCheck(req(`/api/v1/mechanism-checks/${data.id}?format=csv`), ctx(data.id))).text();
     expect(csv.split("\r\n")[1]).toMatch(/^"# caution: .*extrapolation/i);
     expect(csv).toMatch(/\n1,5,BR\+C11H24=>HBR\+C11H23,elementary,agrees,400-2500,/);
@@ -149,7 +167,7 @@ describe("POST /api/v1/mechanism-checks", () => {
 
 describe("bad input", () => {
   it.each([
-    ["a YAML line error", "units: {length: cm}\nreactions:\n- equation: A => B\n  rate-constant: {A: 1, b: 0, Ea: 0\n", 201],
+    ["a YAML line error", "units: {length: cm}\nreactions:\n- equation: A => B\n  rate-constant: {A: 1, b: 0, Ea: 0\n", 202],
     ["no mechanism at all", "hello", 422],
     ["a NUL byte", "REACTIONS\nA=>B 1 0 0\u0000\nEND\n", 422],
   ])("answers %s", async (_what, text, status) => {
@@ -168,7 +186,8 @@ describe("bad input", () => {
     expect((await res.json()).errors[0].pointer).toBe("/window/Tmax");
     const units = await (await post(JSON.stringify({ text: "SPECIES A B END\nREACTIONS KCAL\nA=>B 1 0 0\nEND\n" }))).json();
     expect(units.data.problems[0].message).toMatch(/unknown unit keyword "KCAL"; allowed: CAL\/MOLE/);
-    expect(units.data.summary.not_checked).toBe(1);
+    expect(await runMechanismCheckJob({ checkId: units.data.id })).toBe("done");
+    expect((await read(units.data.id)).report.summary.not_checked).toBe(1);
   });
 
   it("refuses over 20 MB with a 413 before reading it", async () => {
@@ -198,7 +217,7 @@ describe("species choices", () => {
 
   it("downloads a check's mapping and takes it back as CSV, naming bad rows", async () => {
     as(other);
-    const { data } = await (await post(JSON.stringify({ text: MECHANISM }))).json();
+    const { data } = await postAndRun(JSON.stringify({ text: MECHANISM }));
     const mapping = await (await getCheck(req(`/api/v1/mechanism-checks/${data.id}?format=mapping`), ctx(data.id))).text();
     expect(mapping).toMatch(/\r\nname,inchikey,matched_by,candidates\r\n/);
     expect(mapping).toMatch(/\r\nXQ,,none,/);
@@ -210,7 +229,7 @@ describe("species choices", () => {
     expect((await unknown.json()).errors[0].message).toMatch(/^row 2: no species has the InChIKey/);
     const saved = await choose(`name,inchikey\r\nBR,${bromine.inchi_key}\r\nXQ,\r\n`, "text/csv");
     expect(await saved.json()).toEqual({ data: { saved: 1 } });
-    const again = await (await post(JSON.stringify({ text: MECHANISM }))).json();
+    const again = await postAndRun(JSON.stringify({ text: MECHANISM }));
     const check = await (await getCheck(req(`/api/v1/mechanism-checks/${again.data.id}`), ctx(again.data.id))).json();
     expect(check.data.report.species.find((s: { name: string }) => s.name === "BR")).toMatchObject({
       by: "choice",
@@ -225,4 +244,161 @@ describe("species choices", () => {
     as(null);
     expect((await choose('{"choices": []}', "application/json")).status).toBe(401);
   });
+});
+
+describe("the check as a background job", () => {
+  const rowOf = async (id: number) =>
+    (
+      await sql<{ state: string; attempts: number; stage: string | null; progress: number; total: number; error: string | null }[]>`
+      select state::text as state, attempts, stage, progress, total, error from mechanism_checks where id = ${id}`
+    )[0];
+  const jobsOf = async (id: number) =>
+    Number(
+      (
+        await sql<{ n: number }[]>`select count(*)::int as n from pgboss.job where name = ${MECHANISM_CHECK_QUEUE}
+          and state in ('created', 'retry') and (data ->> 'checkId')::int = ${id}`
+      )[0].n,
+    );
+
+  it("is queued with its job, runs (stage and progress on its row, read by GET), and is done with its report", async () => {
+    as(owner);
+    const res = await post(JSON.stringify({ text: MECHANISM, name: "Job test" }));
+    expect(res.status).toBe(202);
+    const { data } = await res.json();
+    expect(await jobsOf(data.id)).toBe(1);
+    expect(await read(data.id)).toMatchObject({ state: "queued", report: null, progressText: "Waiting for its turn" });
+
+    // Watch the row while the job runs: it is seen running with a stage and a count before it is done.
+    const seen: { state: string; stage: string | null; progress: number; total: number }[] = [];
+    let running = true;
+    const watcher = (async () => {
+      while (running) {
+        seen.push(await rowOf(data.id));
+        await new Promise((r) => setTimeout(r, 5));
+      }
+    })();
+    expect(await runMechanismCheckJob({ checkId: data.id })).toBe("done");
+    running = false;
+    await watcher;
+    const during = seen.filter((s) => s.state === "running");
+    expect(during.length).toBeGreaterThan(0);
+    expect(during.some((s) => s.stage !== null && s.total > 0)).toBe(true);
+    const after = await read(data.id);
+    expect(after).toMatchObject({ state: "done", stage: null, attempts: 1 });
+    expect(after.progress).toBe(after.total);
+    expect(after.report.summary.reactions).toBe(6);
+    // A job handed out twice runs the check once.
+    expect(await runMechanismCheckJob({ checkId: data.id })).toBe("skipped");
+  });
+
+  it("shows a running check's stage and count in words", async () => {
+    as(owner);
+    const { data } = await (await post(JSON.stringify({ text: MECHANISM }))).json();
+    await sql`update mechanism_checks set state = 'running', stage = 'data', progress = 1, total = 4, heartbeat_at = now() where id = ${data.id}`;
+    expect(await read(data.id)).toMatchObject({
+      state: "running",
+      progressText: "Reading the published data of the matched reactions: 1 of 4",
+    });
+  });
+
+  it("queues again a running check whose heartbeat is stale, and fails it with a worded message after three runs", async () => {
+    as(owner);
+    const { data } = await (await post(JSON.stringify({ text: MECHANISM }))).json();
+    await sql`delete from pgboss.job where name = ${MECHANISM_CHECK_QUEUE} and (data ->> 'checkId')::int = ${data.id}`;
+    // The server stopped under its first run: running, one attempt, no heartbeat for five minutes.
+    await sql`update mechanism_checks set state = 'running', attempts = 1, stage = 'judging', heartbeat_at = now() - interval '5 minutes' where id = ${data.id}`;
+    const fresh = await (await post(JSON.stringify({ text: MECHANISM }))).json();
+    await sql`update mechanism_checks set state = 'running', attempts = 1, heartbeat_at = now() where id = ${fresh.data.id}`;
+    const first = await sweepStalledMechanismChecks();
+    expect(first.queued).toContain(data.id);
+    expect(first.queued).not.toContain(fresh.data.id);
+    expect(await rowOf(data.id)).toMatchObject({ state: "queued", attempts: 1, stage: null });
+    expect(await jobsOf(data.id)).toBe(1);
+    expect((await rowOf(fresh.data.id)).state).toBe("running");
+
+    // Its next run claims it (a second attempt) and finishes it.
+    expect(await runMechanismCheckJob({ checkId: data.id })).toBe("done");
+    expect(await rowOf(data.id)).toMatchObject({ state: "done", attempts: 2 });
+
+    // A check whose third run stopped too is given up, with the reason on its page and in the API.
+    await sql`update mechanism_checks set state = 'running', attempts = ${MAX_CHECK_RUNS}, heartbeat_at = now() - interval '3 minutes' where id = ${fresh.data.id}`;
+    const second = await sweepStalledMechanismChecks();
+    expect(second.failed).toContain(fresh.data.id);
+    const failed = await read(fresh.data.id);
+    expect(failed.state).toBe("failed");
+    expect(failed.error).toMatch(/started 3 times and each run stopped before it finished/);
+  });
+
+  it("fails a check its run cannot read, with the reason, and lets the owner run it again", async () => {
+    as(owner);
+    const { data } = await (await post(JSON.stringify({ text: MECHANISM }))).json();
+    await sql`update mechanism_checks set source = 'hello', format = null where id = ${data.id}`;
+    expect(await runMechanismCheckJob({ checkId: data.id })).toBe("failed");
+    const failed = await read(data.id);
+    expect(failed.state).toBe("failed");
+    expect(failed.error).toMatch(/does not look like a mechanism/);
+    // Another person cannot start it again; the owner can (and a queued check cannot be queued twice).
+    as(other);
+    expect((await rerunCheck(req(`/api/v1/mechanism-checks/${data.id}/rerun`, { method: "POST" }), ctx(data.id))).status).toBe(404);
+    as(owner);
+    await sql`update mechanism_checks set source = ${MECHANISM}, format = 'plain-text' where id = ${data.id}`;
+    const again = await rerunCheck(req(`/api/v1/mechanism-checks/${data.id}/rerun`, { method: "POST" }), ctx(data.id));
+    expect(again.status).toBe(202);
+    expect((await rerunCheck(req(`/api/v1/mechanism-checks/${data.id}/rerun`, { method: "POST" }), ctx(data.id))).status).toBe(409);
+    expect(await runMechanismCheckJob({ checkId: data.id })).toBe("done");
+    expect(await read(data.id)).toMatchObject({ state: "done", error: null, attempts: 1 });
+  });
+});
+
+describe("choosing species row by row", () => {
+  it("finds a species by name, formula, SMILES or InChI, saves the choice, and the check run again uses it", async () => {
+    const [bromine] = await sql<
+      { inchi_key: string; inchi: string }[]
+    >`select inchi_key, inchi from species where canonical_smiles = '[Br]'`;
+    const find = async (q: string) =>
+      (await (await searchSpecies(req(`/api/v1/mechanism-checks/species-search?q=${encodeURIComponent(q)}`), ctx())).json()).data as {
+        inchiKey: string;
+      }[];
+    as(null);
+    expect((await searchSpecies(req(`/api/v1/mechanism-checks/species-search?q=Br`), ctx())).status).toBe(401);
+    const person = await createUser({
+      email: uniqueEmail("rowchoice"),
+      name: "rowchoice",
+      passwordHash: "x",
+      role: "researcher",
+      verified: true,
+    });
+    as(person);
+    expect((await searchSpecies(req(`/api/v1/mechanism-checks/species-search?q=`), ctx())).status).toBe(400);
+    for (const q of ["[Br]", bromine.inchi, bromine.inchi_key, "Br"])
+      expect(
+        (await find(q)).map((f) => f.inchiKey),
+        q,
+      ).toContain(bromine.inchi_key);
+
+    // Without choices this person's BR is not the bromine atom of the data (or nothing at all).
+    const { data } = await postAndRun(JSON.stringify({ text: MECHANISM }));
+    const before = (await read(data.id)).report.species.find((s: { name: string }) => s.name === "BR");
+    expect(before.by === "choice").toBe(false);
+    const saved = await postChoices(
+      req("/api/v1/mechanism-checks/species-choices", {
+        method: "POST",
+        body: JSON.stringify({ choices: [{ name: "BR", inchiKey: bromine.inchi_key }] }),
+        headers: { "content-type": "application/json" },
+      }),
+      ctx(),
+    );
+    expect(saved.status).toBe(200);
+    expect((await rerunCheck(req(`/api/v1/mechanism-checks/${data.id}/rerun`, { method: "POST" }), ctx(data.id))).status).toBe(202);
+    expect(await runMechanismCheckJob({ checkId: data.id })).toBe("done");
+    const after = (await read(data.id)).report.species.find((s: { name: string }) => s.name === "BR");
+    expect(after).toMatchObject({ by: "choice", inchiKey: bromine.inchi_key });
+  });
+});
+
+afterAll(async () => {
+  // Nothing of this file is left for a job worker of a later file to run.
+  await sql`update mechanism_checks set state = 'failed', error = 'left by a test' where state in ('queued', 'running')
+    and owner_id in (select id from users where email like '%@test.arrhenia.invalid')`;
+  await (await getSender()).purgeQueue(MECHANISM_CHECK_QUEUE);
 });

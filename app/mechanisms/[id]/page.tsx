@@ -15,7 +15,11 @@ import { VERDICT_WORDS } from "@/lib/mechanisms/verdicts";
 import { DEFAULT_CONSENSUS_CHOICE, plotPoints } from "@/lib/reactions/consensus-selection";
 import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
 import { findPublicReaction } from "@/lib/reactions/public-queries";
+import { describeProgress } from "@/lib/mechanisms/progress";
+import { CheckProgress } from "./check-progress";
+import { RerunButton } from "./rerun-button";
 import { ReportTable, type ReportRow } from "./report-table";
+import { SpeciesChooser } from "./species-chooser";
 import { MappingUpload } from "./mapping-upload";
 import { ShareToggle } from "./share-toggle";
 
@@ -58,6 +62,11 @@ export default async function MechanismCheckPage({ params, searchParams }: { par
       reactionPath: r.reaction?.path ?? r.reverse?.path ?? null,
       plotHref: r.reaction && r.rate ? here(`reaction=${r.index}#plot`) : null,
     })) ?? [];
+  const isOwner = user?.id === check.ownerId;
+  const running = check.state === "queued" || check.state === "running";
+  const unsettled = (report?.species ?? []).filter(
+    (s): s is typeof s & { by: "ambiguous" | "none" } => s.by === "ambiguous" || s.by === "none",
+  );
   const chosen = report?.reactions.find((r) => String(r.index) === search.reaction && r.reaction && r.rate);
   return (
     <main className="mx-auto max-w-6xl space-y-6 p-4">
@@ -67,17 +76,21 @@ export default async function MechanismCheckPage({ params, searchParams }: { par
         {report ? ` · ${report.about.format === "cantera-yaml" ? "Cantera YAML" : "plain-text layout"}` : ""}
       </p>
       <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>
-      {user?.id === check.ownerId && (
-        <ShareToggle id={check.id} initialUrl={check.shareToken ? `/mechanisms/${check.id}?share=${check.shareToken}` : null} />
+      {isOwner && <ShareToggle id={check.id} initialUrl={check.shareToken ? `/mechanisms/${check.id}?share=${check.shareToken}` : null} />}
+      {check.state === "failed" && (
+        <div role="alert" className="card space-y-2">
+          <p>The check failed: {check.error}</p>
+          {isOwner && <RerunButton id={check.id} />}
+        </div>
       )}
-      {check.state === "failed" && <p role="alert">{check.error}</p>}
-      {!report && check.state !== "failed" && (
-        <p role="status">
-          Reading reactions: {check.progress} of {check.total}
-          <progress className="ml-2" value={check.progress} max={Math.max(1, check.total)} />
-        </p>
+      {running && (
+        <CheckProgress
+          id={check.id}
+          share={search.share ?? null}
+          initial={{ state: check.state as "queued", progress: check.progress, total: check.total, progressText: describeProgress(check) }}
+        />
       )}
-      {report && (
+      {report && !running && (
         <>
           <section aria-labelledby="summary-heading" className="card">
             <h2 id="summary-heading" className="text-lg font-semibold">
@@ -118,11 +131,12 @@ export default async function MechanismCheckPage({ params, searchParams }: { par
               Species
             </h2>
             <p className="text-sm">
-              Names with several candidates or none are not compared. Download the mapping, fill in the InChIKey of each species you mean,
-              and upload it: your choices are remembered for your next checks.{" "}
+              Names with several candidates or none are not compared: choose them below, or download the mapping, fill in the InChIKey of
+              each species you mean, and upload it. Your choices are remembered for your next checks.{" "}
               <a href={api("mapping")}>Download the species mapping (CSV)</a>
             </p>
-            {user?.id === check.ownerId && <MappingUpload />}
+            {isOwner && unsettled.length > 0 && <SpeciesChooser checkId={check.id} rows={unsettled} />}
+            {isOwner && <MappingUpload />}
             <table className="text-sm">
               <thead>
                 <tr>
@@ -194,7 +208,7 @@ async function ReactionPlot({ reaction, window }: { reaction: ReportReaction; wi
     ...versions
       .filter((v) => v.state === "published")
       .map((v) => ({
-        label: `v${v.number} · ${v.title}`,
+        label: `${v.title}, version ${v.number}`,
         ...plotPoints(
           v,
           selection.inputs.find((d) => d.id === String(v.versionId)),

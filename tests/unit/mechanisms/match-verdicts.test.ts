@@ -6,6 +6,7 @@ import {
   compositionFromName,
   hillFormulaOf,
   matchReaction,
+  marksExcitedState,
   matchSpecies,
   mechanismReactionKeys,
   mechanismSpeciesNames,
@@ -51,6 +52,27 @@ describe("species matching", () => {
       H2O: ["name", H2O.inchiKey],
     });
     expect(matches.find((x) => x.name === "C2H5OH")!.candidates.map((c) => c.name)).toEqual(["ethanol", "dimethyl ether"]);
+  });
+
+  it("never takes an excited-state species by composition alone: a ground-state one of the composition, else the person chooses", () => {
+    const excited: CatalogueSpecies = { inchiKey: KEY("G"), formula: "O", names: ["oxygen atom (excited)", "O(1D)"] };
+    const ground: CatalogueSpecies = { inchiKey: KEY("H"), formula: "O", names: ["atomic oxygen"] };
+    const O = { name: "O", formula: "O" };
+    const [onlyExcited] = matchSpecies({ names: [O], choices: new Map(), ...index([excited]) });
+    expect(onlyExcited).toMatchObject({ by: "ambiguous", inchiKey: null });
+    expect(onlyExcited.candidates.map((c) => c.name)).toEqual(["oxygen atom (excited)"]);
+    const [both] = matchSpecies({ names: [O], choices: new Map(), ...index([excited, ground]) });
+    expect(both).toMatchObject({ by: "composition", inchiKey: ground.inchiKey });
+    // A name is still a name: "O(1D)" is one of the excited species' names.
+    const [byName] = matchSpecies({ names: [{ name: "O(1D)", formula: null }], choices: new Map(), ...index([excited, ground]) });
+    expect(byName).toMatchObject({ by: "name", inchiKey: excited.inchiKey });
+    // Two ground-state species of one composition: the person chooses.
+    const other: CatalogueSpecies = { inchiKey: KEY("I"), formula: "O", names: ["oxygen (other)"] };
+    expect(matchSpecies({ names: [O], choices: new Map(), ...index([ground, other, excited]) })[0].by).toBe("ambiguous");
+    // Marks of the usual excited states (common practice in mechanism naming); a ground-state term symbol is none.
+    for (const n of ["O(1D)", "N(2D)", "O2(a1Δg)", "CH2*", "singlet methylene", "oxygen atom (excited)"])
+      expect(marksExcitedState(n)).toBe(true);
+    for (const n of ["O", "O(3P)", "oxygen atom", "CH2"]) expect(marksExcitedState(n)).toBe(false);
   });
 
   it("takes the person's choice first", () => {

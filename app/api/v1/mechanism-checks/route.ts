@@ -1,11 +1,11 @@
-// POST /api/v1/mechanism-checks — check a mechanism (Cantera YAML or plain text) against the published data
+// POST /api/v1/mechanism-checks — queue a check of a mechanism (Cantera YAML or plain text) against the published data
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { AppError } from "@/lib/errors";
 import { readBodyOrThrow } from "@/lib/http/read-body";
 import { MAX_MECHANISM_BYTES } from "@/lib/mechanisms/limits";
 import { mechanismWindowSchema } from "@/lib/mechanisms/request";
-import { runMechanismCheck } from "@/lib/mechanisms/run-check";
+import { submitMechanismCheck } from "@/lib/mechanisms/run-check";
 
 /** Room for the JSON wrapping around a 20 MB mechanism. */
 const BODY_LIMIT = MAX_MECHANISM_BYTES + 64 * 1024;
@@ -30,14 +30,16 @@ export const POST = withApi(
         { pointer: "", parameter: "format", message: "must be auto, cantera-yaml or plain-text" },
       ]);
     const bytes = await readBodyOrThrow(req, { limit: BODY_LIMIT, what: "mechanism", shownLimit: MAX_MECHANISM_BYTES });
-    // Decoding, the pre-check and reading run on a worker thread (lib/mechanisms/request.ts).
-    const { id, report } = await runMechanismCheck({
+    // Decoding, the pre-check and reading run on a worker thread (lib/mechanisms/request.ts): a file that cannot be
+    // read is refused here. Every check then runs as a job, small or large, so callers have one way: 202, then poll
+    // the Location until its state is done (the report) or failed (the error).
+    const { id, reactions, problems } = await submitMechanismCheck({
       ownerId: user!.id,
       input: { bytes, json, name: q.get("name"), window, format: (format ?? "auto") as "auto" },
     });
     return NextResponse.json(
-      { data: { id, url: `/mechanisms/${id}`, summary: report.summary, problems: report.problems.slice(0, 50) } },
-      { status: 201, headers: { location: `/api/v1/mechanism-checks/${id}` } },
+      { data: { id, state: "queued", url: `/mechanisms/${id}`, reactions, problems: problems.slice(0, 50) } },
+      { status: 202, headers: { location: `/api/v1/mechanism-checks/${id}` } },
     );
   },
   { permission: "mechanism.check", scope: "deposit:read" },

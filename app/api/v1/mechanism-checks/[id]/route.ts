@@ -1,4 +1,4 @@
-// GET /api/v1/mechanism-checks/:id — one check's report (owner, or anyone with its share token); ?format=json|csv
+// GET /api/v1/mechanism-checks/:id — one check: its state and progress, then its report (owner, or anyone with its share token); ?format=json|csv|mapping downloads
 import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { AppError } from "@/lib/errors";
@@ -6,6 +6,7 @@ import { parseIdOrThrow } from "@/lib/ids";
 import { readableMechanismCheckOrThrow } from "@/lib/mechanisms/access";
 import { mechanismReportCsv } from "@/lib/mechanisms/export";
 import { speciesMappingCsv } from "@/lib/mechanisms/mapping";
+import { describeProgress } from "@/lib/mechanisms/progress";
 import type { MechanismReport } from "@/lib/mechanisms/run-check";
 
 export const GET = withApi<{ id: string }>(
@@ -13,7 +14,8 @@ export const GET = withApi<{ id: string }>(
     const id = parseIdOrThrow(params.id, "mechanism check");
     const url = new URL(req.url);
     const check = await readableMechanismCheckOrThrow({ id, user, share: url.searchParams.get("share") });
-    const format = url.searchParams.get("format") ?? "json";
+    const asked = url.searchParams.get("format");
+    const format = asked ?? "json";
     if (format !== "json" && format !== "csv" && format !== "mapping")
       throw new AppError("bad_request", "format must be json, csv or mapping", [
         { pointer: "", parameter: "format", message: "must be json, csv or mapping" },
@@ -33,9 +35,19 @@ export const GET = withApi<{ id: string }>(
     }
     const { shareToken, ownerId, ...rest } = check;
     const isOwner = user?.id === ownerId;
+    // Without a format this is the API's read (and the page's polling); ?format=json is the report's download.
+    const download: Record<string, string> =
+      asked === "json" ? { "content-disposition": `attachment; filename="mechanism-check-${check.id}.json"` } : {};
     return NextResponse.json(
-      { data: { ...rest, shared: shareToken !== null, ...(isOwner && shareToken ? { shareToken } : {}) } },
-      { headers },
+      {
+        data: {
+          ...rest,
+          progressText: describeProgress(check),
+          shared: shareToken !== null,
+          ...(isOwner && shareToken ? { shareToken } : {}),
+        },
+      },
+      { headers: { ...headers, ...download } },
     );
   },
   { identify: true, scope: "deposit:read" },
