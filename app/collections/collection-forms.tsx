@@ -22,6 +22,42 @@ function FieldError({ state, name }: { state: ActionState; name: string }) {
   ) : null;
 }
 
+/** A collection's title and description fields, showing what was typed when the action answers with an error. */
+function TitleDescriptionFields({ state, title, description }: { state: ActionState; title: string; description: string }) {
+  return (
+    <>
+      <div className="space-y-1">
+        <label htmlFor="collection-title" className="font-medium">
+          Title
+        </label>
+        <input
+          id="collection-title"
+          name="title"
+          required
+          maxLength={300}
+          defaultValue={state.values?.title ?? title}
+          className="field-input w-full"
+          aria-describedby={state.fieldErrors?.title ? "title-error" : undefined}
+        />
+        <FieldError state={state} name="title" />
+      </div>
+      <div className="space-y-1">
+        <label htmlFor="collection-description" className="font-medium">
+          Description <span className="text-muted">(optional)</span>
+        </label>
+        <textarea
+          id="collection-description"
+          name="description"
+          rows={3}
+          maxLength={5000}
+          defaultValue={state.values?.description ?? description}
+          className="field-input w-full"
+        />
+      </div>
+    </>
+  );
+}
+
 /** One version a new collection may start with, as the review list shows it. */
 export interface OfferedVersion {
   versionId: number;
@@ -45,34 +81,7 @@ export function NewCollectionForm({ offered = [], defaultTitle = "" }: { offered
     });
   return (
     <form action={action} className="space-y-4">
-      <div className="space-y-1">
-        <label htmlFor="collection-title" className="font-medium">
-          Title
-        </label>
-        <input
-          id="collection-title"
-          name="title"
-          required
-          maxLength={300}
-          defaultValue={state.values?.title ?? defaultTitle}
-          className="field-input w-full"
-          aria-describedby={state.fieldErrors?.title ? "title-error" : undefined}
-        />
-        <FieldError state={state} name="title" />
-      </div>
-      <div className="space-y-1">
-        <label htmlFor="collection-description" className="font-medium">
-          Description <span className="text-muted">(optional)</span>
-        </label>
-        <textarea
-          id="collection-description"
-          name="description"
-          rows={3}
-          maxLength={5000}
-          defaultValue={state.values?.description ?? ""}
-          className="field-input w-full"
-        />
-      </div>
+      <TitleDescriptionFields state={state} title={defaultTitle} description="" />
       {offered.length > 0 && (
         <fieldset className="space-y-2">
           <legend className="font-medium">
@@ -114,33 +123,7 @@ export function EditCollectionForm({ collectionId, title, description }: { colle
   return (
     <form action={action} className="space-y-3">
       <input type="hidden" name="collectionId" value={collectionId} />
-      <div className="space-y-1">
-        <label htmlFor="edit-title" className="font-medium">
-          Title
-        </label>
-        <input
-          id="edit-title"
-          name="title"
-          required
-          maxLength={300}
-          defaultValue={state.values?.title ?? title}
-          className="field-input w-full"
-        />
-        <FieldError state={state} name="title" />
-      </div>
-      <div className="space-y-1">
-        <label htmlFor="edit-description" className="font-medium">
-          Description
-        </label>
-        <textarea
-          id="edit-description"
-          name="description"
-          rows={3}
-          maxLength={5000}
-          defaultValue={state.values?.description ?? description}
-          className="field-input w-full"
-        />
-      </div>
+      <TitleDescriptionFields state={state} title={title} description={description} />
       <SubmitButton className="btn-secondary">Save</SubmitButton>
       <FormMessage state={state} />
     </form>

@@ -10,6 +10,7 @@ import { identifierRegistrations } from "@/db/datasets";
 import { watches } from "@/db/watches";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { AppError, type FieldError } from "@/lib/errors";
+import type { CollectionDoiInput } from "@/lib/identifiers/datacite";
 import { doiPrefix } from "@/lib/identifiers/mint";
 import { enqueueIdentifierRegistration } from "@/lib/identifiers/queue";
 import { newSeriesIdentifier, versionIdentifierOf } from "@/lib/identifiers/series-code";
@@ -605,21 +606,11 @@ export async function listMyCollections({ ownerId }: { ownerId: number }): Promi
   return rows.map(listItem);
 }
 
-/** What registering a collection version's identifier needs, or null when the identifier is not a collection's. */
-export interface CollectionRegistrationSubject {
+/** What registering a collection version's identifier needs (the DataCite builder's input), or null when the identifier is not a collection's. */
+export type CollectionRegistrationSubject = Omit<CollectionDoiInput, "doi" | "baseUrl" | "now"> & {
   identifier: string;
   registered: boolean;
-  collectionId: number;
-  number: number;
-  title: string;
-  description: string;
-  publishedAt: Date | null;
-  ownerName: string;
-  ownerOrcid: string | null;
-  memberIdentifiers: string[];
-  previousIdentifier: string | null;
-  nextIdentifier: string | null;
-}
+};
 
 export async function getCollectionRegistrationSubject({
   identifier,
@@ -656,15 +647,15 @@ export async function getCollectionRegistrationSubject({
     identifier,
     registered: r.registered,
     collectionId: Number(r.collection_id),
-    number,
+    versionNumber: number,
     title: r.title,
     description: r.description,
     publishedAt: r.published_at ? new Date(r.published_at) : null,
     ownerName: r.name,
     ownerOrcid: r.verified_orcid,
     memberIdentifiers: members.map((m) => m.version_identifier),
-    previousIdentifier: siblings.filter((s) => s.number < number).at(-1)?.versionIdentifier ?? null,
-    nextIdentifier: siblings.find((s) => s.number > number)?.versionIdentifier ?? null,
+    previousVersionIdentifier: siblings.filter((s) => s.number < number).at(-1)?.versionIdentifier ?? null,
+    nextVersionIdentifier: siblings.find((s) => s.number > number)?.versionIdentifier ?? null,
   };
 }
 

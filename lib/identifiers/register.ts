@@ -108,20 +108,7 @@ export function buildRegistrationBody(subject: RegistrationSubject): DataciteBod
 
 /** The agency body for one collection version. */
 export function buildCollectionRegistrationBody(subject: CollectionRegistrationSubject): DataciteBody {
-  return buildCollectionDoiMetadata({
-    doi: subject.identifier,
-    baseUrl: appUrl(),
-    collectionId: subject.collectionId,
-    versionNumber: subject.number,
-    title: subject.title,
-    description: subject.description,
-    publishedAt: subject.publishedAt,
-    ownerName: subject.ownerName,
-    ownerOrcid: subject.ownerOrcid,
-    memberIdentifiers: subject.memberIdentifiers,
-    previousVersionIdentifier: subject.previousIdentifier,
-    nextVersionIdentifier: subject.nextIdentifier,
-  });
+  return buildCollectionDoiMetadata({ ...subject, doi: subject.identifier, baseUrl: appUrl() });
 }
 
 /** The source publication a deposit names, as its formatted reference (the Cite panel's default style), or null. */

@@ -32,7 +32,10 @@ test("a modeller makes a collection from a mechanism check's matches, publishes 
   await expect(page.getByText("draft, visible to you only")).toBeVisible();
   await expect(page.getByTestId("collection-member")).toHaveCount(count - 1);
   await page.getByRole("button", { name: "Publish this version" }).click();
-  await expect(page.getByText(/^Published as 10\.\d+\/ARH-/)).toBeVisible();
+  // The page becomes the published version: its identifier, the Cite section, and the next step (a new revision).
+  await expect(page.getByRole("heading", { level: 2, name: "Cite this collection" })).toBeVisible();
+  await expect(page.getByText("draft, visible to you only")).toHaveCount(0);
+  await expect(page.getByRole("button", { name: "Start a new revision" })).toBeVisible();
 
   // The public page: members with their citations, the caution, the collection's citation.
   const url = page.url();
