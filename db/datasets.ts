@@ -1,5 +1,7 @@
+import { sql } from "drizzle-orm";
 import {
   bigint,
+  check,
   boolean,
   doublePrecision,
   index,
@@ -12,6 +14,7 @@ import {
   timestamp,
   uniqueIndex,
 } from "drizzle-orm/pg-core";
+import { collectionVersions } from "./collections";
 import { recordedAt } from "./recorded-at";
 import { reactions } from "./chemistry";
 import { users } from "./users";
@@ -255,16 +258,20 @@ export const identifierRegistrations = pgTable(
   "identifier_registrations",
   {
     identifier: text().primaryKey(),
-    kind: text().notNull(), // "version" | "series"
+    kind: text().notNull(), // "version" | "series" | "collection"
     versionId: integer().references(() => datasetVersions.id),
-    datasetId: integer()
-      .notNull()
-      .references(() => datasets.id),
+    /** The dataset of a version or series identifier; null for a collection version's. */
+    datasetId: integer().references(() => datasets.id),
+    /** The collection version a `collection` identifier names. */
+    collectionVersionId: integer().references(() => collectionVersions.id),
     registered: boolean().notNull().default(false),
     attempts: integer().notNull().default(0),
     lastError: text(),
     registeredAt: timestamp({ withTimezone: true }),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("identifier_registrations_pending_idx").on(t.registered)],
+  (t) => [
+    index("identifier_registrations_pending_idx").on(t.registered),
+    check("identifier_registrations_one_subject", sql`num_nonnulls(${t.datasetId}, ${t.collectionVersionId}) = 1`),
+  ],
 );

@@ -122,6 +122,10 @@ export const FREEZE_TRIGGERS = [
   "reaction_participants_frozen_when_published",
   "species_frozen_when_published",
   "species_names_frozen_when_published",
+  // drizzle/0035: published collections.
+  "collection_versions_frozen_when_published",
+  "collection_members_frozen_when_published",
+  "collections_frozen_when_published",
 ];
 
 const quoteIdent = (name: string) => `"${name.replace(/"/g, '""')}"`;

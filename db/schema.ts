@@ -14,3 +14,4 @@ export * from "./oai";
 export * from "./watches";
 export * from "./people";
 export * from "./mechanisms";
+export * from "./collections";

@@ -1,11 +1,12 @@
 import { sql } from "drizzle-orm";
 import { boolean, check, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { collections } from "./collections";
 import { reactions, species } from "./chemistry";
 import { datasets, datasetVersions } from "./datasets";
 import { users } from "./users";
 
 /**
- * What a person watches: one reaction, one species or one dataset (exactly one of the three). A
+ * What a person watches: one reaction, one species, one dataset or one collection (exactly one of them). A
  * watch says "tell me when a version of this is published or retracted, or its re-fit changes
  * its flags"; lib/watches/notify.ts turns those events into mail.
  */
@@ -19,16 +20,20 @@ export const watches = pgTable(
     reactionId: integer().references(() => reactions.id, { onDelete: "cascade" }),
     speciesId: integer().references(() => species.id, { onDelete: "cascade" }),
     datasetId: integer().references(() => datasets.id, { onDelete: "cascade" }),
+    /** A collection: told when one of its member versions is retracted or superseded by a newer version. */
+    collectionId: integer().references(() => collections.id, { onDelete: "cascade" }),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
-    check("watches_one_subject", sql`num_nonnulls(${t.reactionId}, ${t.speciesId}, ${t.datasetId}) = 1`),
+    check("watches_one_subject", sql`num_nonnulls(${t.reactionId}, ${t.speciesId}, ${t.datasetId}, ${t.collectionId}) = 1`),
     uniqueIndex("watches_user_reaction_key").on(t.userId, t.reactionId),
     uniqueIndex("watches_user_species_key").on(t.userId, t.speciesId),
     uniqueIndex("watches_user_dataset_key").on(t.userId, t.datasetId),
+    uniqueIndex("watches_user_collection_key").on(t.userId, t.collectionId),
     index("watches_reaction_idx").on(t.reactionId),
     index("watches_species_idx").on(t.speciesId),
     index("watches_dataset_idx").on(t.datasetId),
+    index("watches_collection_idx").on(t.collectionId),
   ],
 );
 
@@ -55,7 +60,7 @@ export const watchNotices = pgTable(
     versionId: integer()
       .notNull()
       .references(() => datasetVersions.id, { onDelete: "cascade" }),
-    /** published | retracted | flags_changed, with the time of the event (a re-fit can change flags more than once). */
+    /** published | retracted | flags_changed | superseded (a collection's member), with the time of the event (a re-fit can change flags more than once). */
     event: text().notNull(),
     eventAt: timestamp({ withTimezone: true }).notNull(),
     /** The watches that made it this person's news: [{ watchId, label }]. */

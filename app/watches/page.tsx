@@ -3,7 +3,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { DateTime } from "@/components/date-time";
 import { getCurrentUser } from "@/lib/auth/session";
-import { seriesPath, speciesPath } from "@/lib/identifiers/paths";
+import { collectionPath, seriesPath, speciesPath } from "@/lib/identifiers/paths";
 import { reactionPath } from "@/lib/reactions/paths";
 import { getDailyDigest, listWatches, type WatchDto } from "@/lib/watches/queries";
 import { DailyDigestForm, RemoveWatchButton } from "./watch-forms";
@@ -11,7 +11,15 @@ import { DailyDigestForm, RemoveWatchButton } from "./watch-forms";
 export const metadata: Metadata = { title: "What you watch" };
 
 const pageOf = (w: WatchDto) =>
-  w.reactionKey ? reactionPath(w.reactionKey) : w.inchiKey ? speciesPath(w.inchiKey) : w.datasetId ? seriesPath(w.datasetId) : null;
+  w.reactionKey
+    ? reactionPath(w.reactionKey)
+    : w.inchiKey
+      ? speciesPath(w.inchiKey)
+      : w.datasetId
+        ? seriesPath(w.datasetId)
+        : w.collectionId
+          ? collectionPath(w.collectionId)
+          : null;
 
 /** A person's watches: what they are told about, how, and a way to stop each. */
 export default async function WatchesPage() {

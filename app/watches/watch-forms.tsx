@@ -6,10 +6,10 @@ import { FormMessage, SubmitButton } from "@/components/form-status";
 import { idleState } from "@/lib/auth/action-state";
 import { dailyDigestAction, removeWatchAction, stopWatchAction, toggleWatchAction } from "./actions";
 
-type Subject = { kind: "reaction" | "dataset"; id: number } | { kind: "species"; inchiKey: string };
+type Subject = { kind: "reaction" | "dataset" | "collection"; id: number } | { kind: "species"; inchiKey: string };
 
 /**
- * "Watch" on a reaction, species or dataset page. Signed out: a link to sign in and come back.
+ * "Watch" on a reaction, species, dataset or collection page. Signed out: a link to sign in and come back.
  * The button's words follow the result, so watching and stopping need no reload.
  */
 export function WatchToggle({
@@ -18,9 +18,12 @@ export function WatchToggle({
   watching,
   signedIn,
   backPath,
+  news = "a version is published or retracted",
 }: {
   subject: Subject;
-  /** "this reaction", "this species", "this dataset". */
+  /** What the mail is about: "a version is published or retracted" by default. */
+  news?: string;
+  /** "this reaction", "this species", "this dataset", "this collection". */
   what: string;
   watching: boolean;
   signedIn: boolean;
@@ -30,8 +33,7 @@ export function WatchToggle({
   if (!signedIn) {
     return (
       <p className="text-sm">
-        <Link href={`/sign-in?callbackUrl=${encodeURIComponent(backPath)}`}>Sign in to watch {what}</Link>: a mail when a version is
-        published or retracted.
+        <Link href={`/sign-in?callbackUrl=${encodeURIComponent(backPath)}`}>Sign in to watch {what}</Link>: a mail when {news}.
       </p>
     );
   }
@@ -48,7 +50,7 @@ export function WatchToggle({
       <SubmitButton className={now ? "btn-secondary py-1" : "btn-primary py-1"}>
         {now ? `Stop watching ${what}` : `Watch ${what}`}
       </SubmitButton>
-      {now && state.status === "idle" && <span className="text-muted">You get a mail when a version is published or retracted.</span>}
+      {now && state.status === "idle" && <span className="text-muted">You get a mail when {news}.</span>}
       <FormMessage state={state} />
     </form>
   );

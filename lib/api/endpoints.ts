@@ -1,5 +1,13 @@
 import { z } from "zod";
 import { analysisRequestSchema } from "@/lib/analyses/analyse-request";
+import {
+  addMembersSchema,
+  collectionCitationQuerySchema,
+  collectionListQuerySchema,
+  collectionParametersQuerySchema,
+  createCollectionSchema,
+  patchCollectionSchema,
+} from "@/lib/collections/schemas";
 import { mechanismCheckBodySchema, shareBodySchema, speciesChoicesBodySchema } from "@/lib/mechanisms/request";
 import { citationQuerySchema } from "@/lib/citation/request";
 import { transitionRequestSchema } from "@/lib/curation/transition-request";
@@ -50,7 +58,8 @@ export interface Endpoint {
     | "Files"
     | "People"
     | "Document"
-    | "Mechanisms";
+    | "Mechanisms"
+    | "Collections";
   summary: string;
   description?: string;
   /** Example values of the path's parameters, for the examples. */
@@ -730,6 +739,202 @@ export const API_ENDPOINTS: Endpoint[] = [
     query: [{ name: "q", schema: z.string(), description: "The text searched.", example: "[O]" }],
     ok: { status: 200, contentType: JSON_TYPE, description: "{ data: [{ inchiKey, formula, smiles, name, names }] }" },
     errors: [400, 401, 403],
+  },
+  // ---- collections ----
+  {
+    method: "POST",
+    path: "/api/v1/collections",
+    scope: "deposit:write",
+    who: "signed-in people; the collection is theirs",
+    tag: "Collections",
+    summary: "Make a collection: a title, a description and published dataset versions (by version id, each with an optional note)",
+    description:
+      "The collection starts as a private draft (version 1). Only published dataset versions can join: a draft, someone else's unpublished version or a retracted version is refused (422 naming the member by its JSON pointer), and nothing is stored.",
+    body: {
+      contentType: JSON_TYPE,
+      schema: createCollectionSchema,
+      description: "{title, description?, members?: [{versionId, note?}]}",
+      example: '{"title": "Rate data behind our mechanism, release 2", "members": [{"versionId": 1, "note": "used for R12"}]}',
+    },
+    ok: { status: 201, contentType: JSON_TYPE, description: "{ data: { id, number, state, url } }; Location names the collection." },
+    errors: [401, 403, 413, 422],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/collections",
+    scope: null,
+    who: "anyone; published collections only",
+    tag: "Collections",
+    summary: "The published collections, most recently published first",
+    query: queryOf(collectionListQuerySchema.shape, { limit: "20" }),
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ data: [ { id, number, title, versionIdentifier, publishedAt, owner, memberCount, url } ], meta }",
+    },
+    errors: [],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/collections/:id",
+    scope: "deposit:read",
+    who: "anyone for published collections; its owner sees the draft too",
+    tag: "Collections",
+    summary: "A collection's newest version with its members (its owner: the draft, if any)",
+    pathExample: { id: "1" },
+    pathParameters: { id: pathId("Collection") },
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "{ data: { id, owner, seriesIdentifier, version, versions, members, caution } }",
+    },
+    errors: [404],
+  },
+  {
+    method: "PATCH",
+    path: "/api/v1/collections/:id",
+    scope: "deposit:write",
+    who: "its owner, while the newest version is a draft",
+    tag: "Collections",
+    summary: "Change the draft's title or description (a published version never changes: 409)",
+    pathExample: { id: "1" },
+    pathParameters: { id: pathId("Collection") },
+    body: {
+      contentType: JSON_TYPE,
+      schema: patchCollectionSchema,
+      description: "{title?, description?}",
+      example: '{"title": "Release 3"}',
+    },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { … the collection } }" },
+    errors: [401, 403, 404, 409, 422],
+  },
+  {
+    method: "DELETE",
+    path: "/api/v1/collections/:id",
+    scope: "deposit:write",
+    who: "its owner, while it was never published",
+    tag: "Collections",
+    summary: "Delete a collection that was never published (a published one stays: 409)",
+    pathExample: { id: "1" },
+    pathParameters: { id: pathId("Collection") },
+    ok: { status: 204, contentType: JSON_TYPE, description: "Deleted." },
+    errors: [401, 403, 404, 409],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/collections/:id/members",
+    scope: "deposit:write",
+    who: "its owner, while the newest version is a draft",
+    tag: "Collections",
+    summary:
+      "Add published dataset versions to the draft (all or none; a member already there keeps its place, a note given replaces its note)",
+    pathExample: { id: "1" },
+    pathParameters: { id: pathId("Collection") },
+    body: {
+      contentType: JSON_TYPE,
+      schema: addMembersSchema,
+      description: "{members: [{versionId, note?}]}",
+      example: '{"members": [{"versionId": 2}]}',
+    },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { number, memberCount } }" },
+    errors: [401, 403, 404, 409, 413, 422],
+  },
+  {
+    method: "DELETE",
+    path: "/api/v1/collections/:id/members/:versionId",
+    scope: "deposit:write",
+    who: "its owner, while the newest version is a draft",
+    tag: "Collections",
+    summary: "Take one member out of the draft",
+    pathExample: { id: "1", versionId: "2" },
+    pathParameters: { id: pathId("Collection"), versionId: pathId("Version") },
+    ok: { status: 204, contentType: JSON_TYPE, description: "Removed." },
+    errors: [401, 403, 404, 409],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/collections/:id/publish",
+    scope: "deposit:write",
+    who: "its owner",
+    tag: "Collections",
+    summary: "Publish the draft: frozen from then on, with its own identifier registered with DataCite metadata (HasPart for every member)",
+    description:
+      "Every member must still be published (a member retracted since it was added is named, 422). The identifier is `<series>/<n>`; the series is minted with the first publication.",
+    pathExample: { id: "1" },
+    pathParameters: { id: pathId("Collection") },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { id, number, state, versionIdentifier, url } }" },
+    errors: [401, 403, 404, 409, 422],
+  },
+  {
+    method: "POST",
+    path: "/api/v1/collections/:id/revisions",
+    scope: "deposit:write",
+    who: "its owner, when the newest version is published",
+    tag: "Collections",
+    summary: "Start a new version: a draft copied from the latest published one (members retracted since are left out and listed)",
+    pathExample: { id: "1" },
+    pathParameters: { id: pathId("Collection") },
+    ok: { status: 201, contentType: JSON_TYPE, description: "{ data: { id, number, state, leftOut, url } }" },
+    errors: [401, 403, 404, 409],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/collections/:id/versions/:n",
+    scope: "deposit:read",
+    who: "anyone for published versions; its owner sees the draft too",
+    tag: "Collections",
+    summary: "One version of a collection with its members",
+    pathExample: { id: "1", n: "1" },
+    pathParameters: { id: pathId("Collection") },
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { … the collection at that version } }" },
+    errors: [404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/collections/:id/versions/:n/citation",
+    scope: null,
+    who: "anyone, for published versions",
+    tag: "Collections",
+    summary: "The collection version's citation; members=1 adds every member's citation after it",
+    pathExample: { id: "1", n: "1" },
+    pathParameters: { id: pathId("Collection") },
+    query: queryOf(collectionCitationQuerySchema.shape, { format: "bibtex", members: "1" }),
+    ok: {
+      status: 200,
+      contentType: "application/x-bibtex",
+      description: "The citation as a file (BibTeX, RIS, CSL-JSON or a formatted reference).",
+    },
+    errors: [400, 404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/collections/:id/versions/:n/parameters",
+    scope: null,
+    who: "anyone, for published versions",
+    tag: "Collections",
+    summary:
+      "Every member's preferred fit in one mechanism file (plain text or Cantera YAML), each reaction commented with its version identifier",
+    pathExample: { id: "1", n: "1" },
+    pathParameters: { id: pathId("Collection") },
+    query: queryOf(collectionParametersQuerySchema.shape, { format: "cantera-yaml" }),
+    ok: {
+      status: 200,
+      contentType: "application/yaml",
+      description: "The file, with the caution and the collection's citation in its header.",
+    },
+    errors: [400, 404],
+  },
+  {
+    method: "GET",
+    path: "/api/v1/collections/:id/versions/:n/datacite.json",
+    scope: null,
+    who: "anyone, for published versions",
+    tag: "Collections",
+    summary: "The DataCite metadata the collection version is registered with (resourceTypeGeneral Collection, HasPart each member)",
+    pathExample: { id: "1", n: "1" },
+    pathParameters: { id: pathId("Collection") },
+    ok: { status: 200, contentType: JSON_TYPE, description: "The JSON:API body sent to the agency." },
+    errors: [404],
   },
   // ---- this document ----
   {

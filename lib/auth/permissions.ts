@@ -11,6 +11,7 @@ export const permissions = {
   "dataset.deposit": ["researcher", "curator", "admin"],
   "dataset.review": ["curator", "admin"],
   "mechanism.check": ["researcher", "curator", "admin"],
+  "collection.manage": ["researcher", "curator", "admin"],
   "user.list": ["admin"],
   "user.manage": ["admin"],
   "mail.read": ["admin"],

@@ -18,7 +18,8 @@ export type RelationType =
   | "IsDescribedBy"
   | "IsDerivedFrom"
   | "References"
-  | "Cites";
+  | "Cites"
+  | "HasPart";
 
 export interface DataciteRelatedIdentifier {
   relatedIdentifier: string;
@@ -51,7 +52,7 @@ export interface DataciteAttributes {
   creators: DataciteCreator[];
   publisher: string;
   publicationYear: number;
-  types: { resourceTypeGeneral: "Dataset"; resourceType: string };
+  types: { resourceTypeGeneral: "Dataset" | "Collection"; resourceType: string };
   version?: string;
   dates?: { date: string; dateType: "Issued" | "Withdrawn"; dateInformation?: string }[];
   subjects?: { subject: string; subjectScheme?: string }[];
@@ -290,6 +291,65 @@ export function buildDoiMetadata(input: DoiMetadataInput): DataciteBody {
     schemaVersion: "http://datacite.org/schema/kernel-4",
   };
   // What registration sends and what the XML carries: no character XML 1.0 cannot hold.
+  return { data: { type: "dois", attributes: mapStrings(attributes, xmlSafeText) } };
+}
+
+/** What a collection version's registration says: its own text, its owner, its members and its neighbours. */
+export interface CollectionDoiInput {
+  doi: string;
+  baseUrl: string;
+  collectionId: number;
+  versionNumber: number;
+  title: string;
+  description: string;
+  publishedAt: Date | null;
+  ownerName: string;
+  /** The owner's verified ORCID iD, if any (an iD typed by hand proves nothing and is not sent). */
+  ownerOrcid: string | null;
+  /** The version identifiers of its members, in their order: one HasPart each. */
+  memberIdentifiers: string[];
+  previousVersionIdentifier: string | null;
+  nextVersionIdentifier: string | null;
+  now?: Date;
+}
+
+/** Landing page of a collection version: `…/collections/4/versions/2`. */
+export const collectionLandingUrl = (baseUrl: string, collectionId: number, versionNumber: number) =>
+  `${baseUrl.replace(/\/$/, "")}/collections/${collectionId}/versions/${versionNumber}`;
+
+/**
+ * The registration body of one collection version: resourceTypeGeneral "Collection", HasPart for
+ * every member, IsNewVersionOf / IsPreviousVersionOf between the collection's versions. The
+ * collection is a list of references made by its owner, offered under CC0 (each member keeps its own licence).
+ */
+export function buildCollectionDoiMetadata(input: CollectionDoiInput): DataciteBody {
+  const related: DataciteRelatedIdentifier[] = input.memberIdentifiers.map((id) => doiRelation(id, "HasPart"));
+  if (input.previousVersionIdentifier) related.push(doiRelation(input.previousVersionIdentifier, "IsNewVersionOf"));
+  if (input.nextVersionIdentifier) related.push(doiRelation(input.nextVersionIdentifier, "IsPreviousVersionOf"));
+  const issued = input.publishedAt ? input.publishedAt.toISOString().slice(0, 10) : null;
+  const description = input.description.trim();
+  const attributes: DataciteAttributes = {
+    doi: input.doi,
+    event: "publish",
+    url: collectionLandingUrl(input.baseUrl, input.collectionId, input.versionNumber),
+    titles: [{ title: input.title.trim() || UNAVAILABLE }],
+    creators: buildCreators([{ name: input.ownerName }], input.ownerOrcid ? new Map([[0, input.ownerOrcid]]) : new Map<number, string>()),
+    publisher: "Arrhenia",
+    publicationYear: (input.publishedAt ?? input.now ?? new Date()).getUTCFullYear(),
+    types: { resourceTypeGeneral: "Collection", resourceType: "Collection of rate-constant dataset versions" },
+    version: String(input.versionNumber),
+    ...(issued ? { dates: [{ date: issued, dateType: "Issued" as const }] } : {}),
+    relatedIdentifiers: dedupeRelations(related),
+    rightsList: [buildRights("CC0-1.0")],
+    descriptions: [
+      ...(description ? [{ description, descriptionType: "Abstract" as const }] : []),
+      {
+        description: `A collection of ${input.memberIdentifiers.length} published dataset ${input.memberIdentifiers.length === 1 ? "version" : "versions"} on Arrhenia; each member keeps its own identifier, licence and citation.`,
+        descriptionType: "Other",
+      },
+    ],
+    schemaVersion: "http://datacite.org/schema/kernel-4",
+  };
   return { data: { type: "dois", attributes: mapStrings(attributes, xmlSafeText) } };
 }
 

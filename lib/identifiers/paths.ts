@@ -19,3 +19,8 @@ export const speciesPath = (inchiKey: string) => `/species/${inchiKey}`;
 
 /** The page of a reaction class, by its id in the deposit schema. */
 export const classPath = (classId: string) => `/classes/${classId}`;
+
+/** A collection's page (its newest published version) and one version of it. */
+export const collectionPath = (collectionId: number) => `/collections/${collectionId}`;
+export const collectionVersionPath = (collectionId: number, versionNumber: number) =>
+  `/collections/${collectionId}/versions/${versionNumber}`;

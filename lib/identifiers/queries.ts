@@ -35,8 +35,10 @@ export interface RegistrationSubject {
 export interface IdentifierRegistrationDto {
   identifier: string;
   kind: string;
-  datasetId: number;
+  /** Null for a collection version's identifier. */
+  datasetId: number | null;
   versionId: number | null;
+  collectionVersionId: number | null;
   registered: boolean;
   attempts: number;
   lastError: string | null;
@@ -50,6 +52,7 @@ export async function getIdentifierRegistration({ identifier }: { identifier: st
       kind: identifierRegistrations.kind,
       datasetId: identifierRegistrations.datasetId,
       versionId: identifierRegistrations.versionId,
+      collectionVersionId: identifierRegistrations.collectionVersionId,
       registered: identifierRegistrations.registered,
       attempts: identifierRegistrations.attempts,
       lastError: identifierRegistrations.lastError,
@@ -60,6 +63,7 @@ export async function getIdentifierRegistration({ identifier }: { identifier: st
   return row ?? null;
 }
 
+/** A dataset version's or series' registration subject; null for an unknown identifier or a collection's (lib/collections). */
 export async function getRegistrationSubject({ identifier }: { identifier: string }): Promise<RegistrationSubject | null> {
   const db = getDb();
   const [reg] = await db
@@ -75,7 +79,8 @@ export async function getRegistrationSubject({ identifier }: { identifier: strin
     .from(identifierRegistrations)
     .innerJoin(datasets, eq(datasets.id, identifierRegistrations.datasetId))
     .where(eq(identifierRegistrations.identifier, identifier));
-  if (!reg) return null;
+  if (!reg || reg.datasetId === null) return null;
+  const datasetId = reg.datasetId;
 
   const versions = (
     await db
@@ -87,7 +92,7 @@ export async function getRegistrationSubject({ identifier }: { identifier: strin
         publishedAt: datasetVersions.publishedAt,
       })
       .from(datasetVersions)
-      .where(and(eq(datasetVersions.datasetId, reg.datasetId), isNotNull(datasetVersions.versionIdentifier)))
+      .where(and(eq(datasetVersions.datasetId, datasetId), isNotNull(datasetVersions.versionIdentifier)))
       .orderBy(asc(datasetVersions.number))
   ).map((v) => ({ ...v, versionIdentifier: v.versionIdentifier! }));
 
@@ -115,7 +120,7 @@ export async function getRegistrationSubject({ identifier }: { identifier: strin
   return {
     identifier: reg.identifier,
     kind: reg.kind === "version" ? "version" : "series",
-    datasetId: reg.datasetId,
+    datasetId,
     registered: reg.registered,
     attempts: reg.attempts,
     seriesIdentifier: reg.seriesIdentifier,

@@ -7,7 +7,8 @@ import { DEFAULT_STYLE, formatReference } from "@/lib/citation/formats";
 import { appUrl } from "@/lib/config";
 import { AppError } from "@/lib/errors";
 import { registerDoi, type AgencyOptions } from "./client";
-import { buildDoiMetadata, type DataciteBody } from "./datacite";
+import { getCollectionRegistrationSubject, type CollectionRegistrationSubject } from "@/lib/collections/queries";
+import { buildCollectionDoiMetadata, buildDoiMetadata, type DataciteBody } from "./datacite";
 import {
   getRegistrationSubject,
   listPendingIdentifiers,
@@ -32,11 +33,13 @@ export async function registerIdentifier(
   identifier: string,
   { refresh = false, agency }: { refresh?: boolean; agency?: AgencyOptions } = {},
 ): Promise<RegistrationOutcome> {
+  // A dataset version or series, else a collection version (the same queue registers both).
   const subject = await getRegistrationSubject({ identifier });
-  if (!subject) throw new AppError("not_found", `No identifier ${identifier} awaits registration`);
-  if (subject.registered && !refresh) return { identifier, status: "already_registered" };
+  const collection = subject ? null : await getCollectionRegistrationSubject({ identifier });
+  if (!subject && !collection) throw new AppError("not_found", `No identifier ${identifier} awaits registration`);
+  if ((subject ?? collection)!.registered && !refresh) return { identifier, status: "already_registered" };
   try {
-    await registerDoi({ ...agency, body: buildRegistrationBody(subject) });
+    await registerDoi({ ...agency, body: subject ? buildRegistrationBody(subject) : buildCollectionRegistrationBody(collection!) });
   } catch (err) {
     const message = err instanceof Error ? err.message : String(err);
     await recordRegistrationFailure({ identifier, error: message });
@@ -101,6 +104,11 @@ export function buildRegistrationBody(subject: RegistrationSubject): DataciteBod
     publishedAt: first,
     versionIdentifiers: subject.versions.map((v) => v.versionIdentifier),
   });
+}
+
+/** The agency body for one collection version. */
+export function buildCollectionRegistrationBody(subject: CollectionRegistrationSubject): DataciteBody {
+  return buildCollectionDoiMetadata({ ...subject, doi: subject.identifier, baseUrl: appUrl() });
 }
 
 /** The source publication a deposit names, as its formatted reference (the Cite panel's default style), or null. */

@@ -2,7 +2,8 @@ import { appUrl } from "@/lib/config";
 import { formatRange } from "@/lib/format";
 import { compose, type MailMessage } from "./templates";
 
-export type WatchEvent = "published" | "retracted" | "flags_changed";
+/** `superseded`: a newer version of a collection member's dataset was published (told to the collection's owner and watchers). */
+export type WatchEvent = "published" | "retracted" | "flags_changed" | "superseded";
 
 /** One event of one version, as a notification tells it. */
 /** One version as a notification tells it (lib/watches/queries.ts reads it). */
@@ -40,6 +41,7 @@ const versionUrl = (v: WatchNews["version"]) => `${appUrl()}/datasets/${v.datase
 export function watchNewsSubject({ event, version: v }: WatchNews): string {
   if (event === "published") return `New on Arrhenia: ${v.title} (version ${v.number})`;
   if (event === "retracted") return `Retracted: ${v.title} (version ${v.number})`;
+  if (event === "superseded") return `Superseded: ${v.title} (version ${v.number})`;
   return `Checks changed: ${v.title} (version ${v.number})`;
 }
 
@@ -57,6 +59,12 @@ export function watchNewsText({ event, version: v }: WatchNews): string {
       ? ` Version ${v.newer.number} of the dataset (“${v.newer.title}”) replaces it.`
       : " No newer version of the dataset replaces it.";
     return `Version ${v.number} of “${v.title}” (${v.equation}) was retracted.${reason}${/[.!?]$/.test(reason) || !reason ? "" : "."}${replaced} Its page stays, marked as retracted.${id}`;
+  }
+  if (event === "superseded") {
+    const replaced = v.newer
+      ? `version ${v.newer.number} (“${v.newer.title}”) was published and replaces it`
+      : "a newer version was published";
+    return `Version ${v.number} of “${v.title}” (${v.equation}) is superseded: ${replaced}. A published collection keeps version ${v.number}; a new revision of the collection can take the newer one.${id}`;
   }
   const flags = v.flags.length > 0 ? v.flags.join(", ") : "none";
   return `A re-fit of “${v.title}”, version ${v.number} (${v.equation}), changed its flags; they are now: ${flags}. The dataset's page says what each means.${id}`;

@@ -6,6 +6,7 @@ import { watchDigestMail, watchEventMail, type WatchEvent, type WatchNews } from
 import {
   getNoticeVersion,
   listDigestRecipients,
+  listSupersededMembers,
   listWatchersOfVersion,
   markNoticesMailed,
   recordNotice,
@@ -51,9 +52,16 @@ async function newsOf(versionId: number, event: WatchEvent): Promise<WatchNews |
 export async function notifyWatchers(job: WatchJob): Promise<{ mailed: number; kept: number }> {
   const news = await newsOf(job.versionId, job.event);
   if (!news) return { mailed: 0, kept: 0 };
-  const watchers = await listWatchersOfVersion({ versionId: job.versionId });
+  const watchers = await listWatchersOfVersion({ versionId: job.versionId, event: job.event });
   let mailed = 0;
   let kept = 0;
+  // A new version supersedes the older ones that collections hold: their owners and watchers hear of each.
+  if (job.event === "published")
+    for (const older of await listSupersededMembers({ versionId: job.versionId })) {
+      const told = await notifyWatchers({ versionId: older, event: "superseded", at: job.at });
+      mailed += told.mailed;
+      kept += told.kept;
+    }
   for (const w of watchers) {
     await getDb().transaction(async (tx) => {
       const fresh = await recordNotice(tx, {

@@ -8,17 +8,22 @@ import { reactionDisplayEquation, speciesDisplayName } from "@/lib/reactions/dis
 import type { NewsVersion } from "@/lib/mail/watch-templates";
 
 /** What can be watched, as pages and forms name it. */
-export type WatchSubject = { kind: "reaction"; id: number } | { kind: "species"; inchiKey: string } | { kind: "dataset"; id: number };
+export type WatchSubject =
+  | { kind: "reaction"; id: number }
+  | { kind: "species"; inchiKey: string }
+  | { kind: "dataset"; id: number }
+  | { kind: "collection"; id: number };
 
 export interface WatchDto {
   id: number;
-  kind: "reaction" | "species" | "dataset";
+  kind: "reaction" | "species" | "dataset" | "collection";
   /** "the reaction hydroxyl + methane → water + methyl", "the species methane", "the dataset “…”". */
   label: string;
   /** The page of what is watched (relative path pieces: a reaction key, an InChIKey, a dataset id). */
   reactionKey: string | null;
   inchiKey: string | null;
   datasetId: number | null;
+  collectionId: number | null;
   createdAt: string;
 }
 
@@ -26,6 +31,8 @@ export interface WatchDto {
 const labelOf = sql`(case
   when w.reaction_id is not null then 'the reaction ' || ${reactionDisplayEquation(sql`w.reaction_id`)}
   when w.species_id is not null then 'the species ' || ${speciesDisplayName(sql`w.species_id`, sql`(select s.formula from species s where s.id = w.species_id)`)}
+  when w.collection_id is not null then 'the collection “' || coalesce((select cv.title from collection_versions cv where cv.collection_id = w.collection_id
+    order by (cv.state = 'published') desc, cv.number desc limit 1), 'collection ' || w.collection_id) || '”'
   else 'the dataset “' || coalesce((select v.title from dataset_versions v where v.dataset_id = w.dataset_id
     and v.state in ('published', 'retracted') order by v.number desc limit 1), 'dataset ' || w.dataset_id) || '”' end)`;
 
@@ -33,7 +40,9 @@ const labelOf = sql`(case
  * The row id of a subject a person may watch: only what has public data (a draft's reaction or an
  * unpublished dataset is "not found", so watching cannot reveal that it exists).
  */
-async function subjectColumns(subject: WatchSubject): Promise<{ reactionId?: number; speciesId?: number; datasetId?: number }> {
+async function subjectColumns(
+  subject: WatchSubject,
+): Promise<{ reactionId?: number; speciesId?: number; datasetId?: number; collectionId?: number }> {
   const db = getDb();
   const publicVersion = sql`v.state in ('published', 'retracted')`;
   if (subject.kind === "reaction") {
@@ -45,6 +54,11 @@ async function subjectColumns(subject: WatchSubject): Promise<{ reactionId?: num
         select 1 from reaction_participants rp join dataset_versions v on v.reaction_id = rp.reaction_id
         where rp.species_id = s.id and ${publicVersion})`);
     if (row) return { speciesId: Number(row.id) };
+  } else if (subject.kind === "collection") {
+    const [row] = await db.execute(
+      sql`select 1 from collection_versions cv where cv.collection_id = ${subject.id} and cv.state = 'published' limit 1`,
+    );
+    if (row) return { collectionId: subject.id };
   } else {
     const [row] = await db.execute(sql`select 1 from dataset_versions v where v.dataset_id = ${subject.id} and ${publicVersion} limit 1`);
     if (row) return { datasetId: subject.id };
@@ -52,12 +66,14 @@ async function subjectColumns(subject: WatchSubject): Promise<{ reactionId?: num
   throw new AppError("not_found", `No public ${subject.kind} to watch there`);
 }
 
-const subjectMatch = (columns: { reactionId?: number; speciesId?: number; datasetId?: number }) =>
+const subjectMatch = (columns: { reactionId?: number; speciesId?: number; datasetId?: number; collectionId?: number }) =>
   columns.reactionId !== undefined
     ? eq(watches.reactionId, columns.reactionId)
     : columns.speciesId !== undefined
       ? eq(watches.speciesId, columns.speciesId)
-      : eq(watches.datasetId, columns.datasetId!);
+      : columns.collectionId !== undefined
+        ? eq(watches.collectionId, columns.collectionId)
+        : eq(watches.datasetId, columns.datasetId!);
 
 /** Starts watching (nothing changes when already watching). */
 export async function addWatch({ userId, subject }: { userId: number; subject: WatchSubject }): Promise<void> {
@@ -135,23 +151,25 @@ export async function listWatches({ userId }: { userId: number }): Promise<Watch
     reaction_id: number | null;
     species_id: number | null;
     dataset_id: number | null;
+    collection_id: number | null;
     label: string;
     reaction_key: string | null;
     inchi_key: string | null;
     created_at: string;
   }>(sql`
-    select w.id, w.reaction_id, w.species_id, w.dataset_id, ${labelOf} as label,
+    select w.id, w.reaction_id, w.species_id, w.dataset_id, w.collection_id, ${labelOf} as label,
       (select r.key from reactions r where r.id = w.reaction_id) as reaction_key,
       (select s.inchi_key from species s where s.id = w.species_id) as inchi_key,
       to_char(w.created_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as created_at
     from watches w where w.user_id = ${userId} order by w.created_at desc, w.id desc`);
   return rows.map((r) => ({
     id: Number(r.id),
-    kind: r.reaction_id !== null ? "reaction" : r.species_id !== null ? "species" : "dataset",
+    kind: r.reaction_id !== null ? "reaction" : r.species_id !== null ? "species" : r.collection_id !== null ? "collection" : "dataset",
     label: r.label,
     reactionKey: r.reaction_key,
     inchiKey: r.inchi_key,
     datasetId: r.dataset_id === null ? null : Number(r.dataset_id),
+    collectionId: r.collection_id === null ? null : Number(r.collection_id),
     createdAt: r.created_at,
   }));
 }
@@ -187,10 +205,23 @@ export interface Watcher {
 }
 
 /**
- * Everyone whose watches cover a version: its reaction, a species of its reaction, or its dataset.
- * Only active accounts with a confirmed address.
+ * Everyone whose watches cover a version: its reaction, a species of its reaction, or its dataset;
+ * and, when it is retracted or superseded, a collection that holds it (a published version of the
+ * collection, or any version for the collection's owner). A `superseded` event reaches collection
+ * watches only. Only active accounts with a confirmed address.
  */
-export async function listWatchersOfVersion({ versionId }: { versionId: number }): Promise<Watcher[]> {
+export async function listWatchersOfVersion({ versionId, event }: { versionId: number; event?: string }): Promise<Watcher[]> {
+  const collectionWatch =
+    event === "retracted" || event === "superseded"
+      ? sql`w.collection_id in (select cv.collection_id from collection_members m
+          join collection_versions cv on cv.id = m.collection_version_id join collections c on c.id = cv.collection_id
+          where m.version_id = v.id and (cv.state = 'published' or c.owner_id = w.user_id))`
+      : sql`false`;
+  const otherWatch =
+    event === "superseded"
+      ? sql`false`
+      : sql`w.reaction_id = v.reaction_id or w.dataset_id = v.dataset_id
+      or w.species_id in (select rp.species_id from reaction_participants rp where rp.reaction_id = v.reaction_id)`;
   const rows = await getDb().execute<{
     user_id: number;
     email: string;
@@ -201,8 +232,7 @@ export async function listWatchersOfVersion({ versionId }: { versionId: number }
   }>(sql`
     with v as (select id, dataset_id, reaction_id from dataset_versions where id = ${versionId})
     select w.user_id, u.email, u.name, coalesce(ws.daily_digest, false) as digest, w.id as watch_id, ${labelOf} as label
-    from v join watches w on w.reaction_id = v.reaction_id or w.dataset_id = v.dataset_id
-      or w.species_id in (select rp.species_id from reaction_participants rp where rp.reaction_id = v.reaction_id)
+    from v join watches w on ${otherWatch} or ${collectionWatch}
     join users u on u.id = w.user_id
     left join watch_settings ws on ws.user_id = w.user_id
     where u.deactivated_at is null and u.email_verified_at is not null
@@ -325,4 +355,15 @@ export async function takeWaitingNotices(tx: Transaction, { userId }: { userId: 
 export async function markNoticesMailed(tx: Transaction, ids: number[]): Promise<void> {
   if (ids.length === 0) return;
   await tx.execute(sql`update watch_notices set mailed_at = now() where id = any(${`{${ids.join(",")}}`}::int[])`);
+}
+
+/**
+ * The older published versions of a version's dataset that some collection holds: a newer version
+ * was just published, so each is superseded for those collections.
+ */
+export async function listSupersededMembers({ versionId }: { versionId: number }): Promise<number[]> {
+  const rows = await getDb().execute<{ id: number }>(sql`
+    select distinct o.id from dataset_versions v join dataset_versions o on o.dataset_id = v.dataset_id and o.number < v.number
+    where v.id = ${versionId} and o.state = 'published' and exists (select 1 from collection_members m where m.version_id = o.id)`);
+  return rows.map((r) => Number(r.id));
 }

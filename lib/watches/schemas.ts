@@ -2,11 +2,12 @@ import { z } from "zod";
 import { idFor } from "@/lib/ids";
 import type { WatchSubject } from "./queries";
 
-/** A watch form's subject: a reaction or dataset by id, a species by InChIKey. */
+/** A watch form's subject: a reaction, dataset or collection by id, a species by InChIKey. */
 export const watchSubjectSchema = z
   .discriminatedUnion("kind", [
     z.object({ kind: z.literal("reaction"), id: idFor("reaction") }),
     z.object({ kind: z.literal("dataset"), id: idFor("dataset") }),
+    z.object({ kind: z.literal("collection"), id: idFor("collection") }),
     z.object({ kind: z.literal("species"), inchiKey: z.string().regex(/^[A-Z]{14}-[A-Z]{10}-[A-Z]$/, "not an InChIKey") }),
   ])
   .transform((s): WatchSubject => s);

@@ -43,6 +43,16 @@ import * as mechanismCheckShare from "@/app/api/v1/mechanism-checks/[id]/share/r
 import * as speciesChoices from "@/app/api/v1/mechanism-checks/species-choices/route";
 import * as mechanismCheckRerun from "@/app/api/v1/mechanism-checks/[id]/rerun/route";
 import * as mappingSpeciesSearch from "@/app/api/v1/mechanism-checks/species-search/route";
+import * as collectionsRoute from "@/app/api/v1/collections/route";
+import * as collectionRoute from "@/app/api/v1/collections/[id]/route";
+import * as collectionMembersRoute from "@/app/api/v1/collections/[id]/members/route";
+import * as collectionMemberRoute from "@/app/api/v1/collections/[id]/members/[versionId]/route";
+import * as collectionPublishRoute from "@/app/api/v1/collections/[id]/publish/route";
+import * as collectionRevisionsRoute from "@/app/api/v1/collections/[id]/revisions/route";
+import * as collectionVersionRoute from "@/app/api/v1/collections/[id]/versions/[n]/route";
+import * as collectionCitationRoute from "@/app/api/v1/collections/[id]/versions/[n]/citation/route";
+import * as collectionParametersRoute from "@/app/api/v1/collections/[id]/versions/[n]/parameters/route";
+import * as collectionDataciteRoute from "@/app/api/v1/collections/[id]/versions/[n]/datacite.json/route";
 import { createTokenAction } from "@/app/settings/actions";
 import { idleState } from "@/lib/auth/action-state";
 import type { ApiOptions } from "@/lib/auth/api";
@@ -92,6 +102,16 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/mechanism-checks/species-choices": speciesChoices,
   "/api/v1/mechanism-checks/:id/rerun": mechanismCheckRerun,
   "/api/v1/mechanism-checks/species-search": mappingSpeciesSearch,
+  "/api/v1/collections": collectionsRoute,
+  "/api/v1/collections/:id": collectionRoute,
+  "/api/v1/collections/:id/members": collectionMembersRoute,
+  "/api/v1/collections/:id/members/:versionId": collectionMemberRoute,
+  "/api/v1/collections/:id/publish": collectionPublishRoute,
+  "/api/v1/collections/:id/revisions": collectionRevisionsRoute,
+  "/api/v1/collections/:id/versions/:n": collectionVersionRoute,
+  "/api/v1/collections/:id/versions/:n/citation": collectionCitationRoute,
+  "/api/v1/collections/:id/versions/:n/parameters": collectionParametersRoute,
+  "/api/v1/collections/:id/versions/:n/datacite.json": collectionDataciteRoute,
 };
 
 let admin: UserDto, researcher: UserDto, subject: UserDto;

@@ -6,6 +6,12 @@ vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn(), unstable_cache: (fn: () => unknown) => fn }));
 
 import { changeRoleAction, setActiveAction } from "@/app/admin/people/actions";
+import * as collectionRoute from "@/app/api/v1/collections/[id]/route";
+import * as collectionMembersRoute from "@/app/api/v1/collections/[id]/members/route";
+import * as collectionMemberRoute from "@/app/api/v1/collections/[id]/members/[versionId]/route";
+import * as collectionPublishRoute from "@/app/api/v1/collections/[id]/publish/route";
+import * as collectionRevisionsRoute from "@/app/api/v1/collections/[id]/revisions/route";
+import * as collectionVersionRoute from "@/app/api/v1/collections/[id]/versions/[n]/route";
 import * as datasetRoute from "@/app/api/v1/datasets/[id]/route";
 import * as mechanismCheckRoute from "@/app/api/v1/mechanism-checks/[id]/route";
 import * as mechanismShareRoute from "@/app/api/v1/mechanism-checks/[id]/share/route";
@@ -31,6 +37,8 @@ import SpeciesPage from "@/app/species/[inchikey]/page";
 import ReviewPage from "@/app/review/[id]/page";
 import PersonPage from "@/app/people/[id]/page";
 import MechanismCheckPage from "@/app/mechanisms/[id]/page";
+import CollectionPage from "@/app/collections/[id]/page";
+import CollectionVersionPage from "@/app/collections/[id]/versions/[n]/page";
 import { revokeTokenAction } from "@/app/settings/actions";
 import { idleState } from "@/lib/auth/action-state";
 import { getCurrentUser } from "@/lib/auth/session";
@@ -124,6 +132,33 @@ const apiCases: [string, string, Handler, string, () => RequestInit][] = [
     () => ({ method: "POST", body: JSON.stringify({ shared: true }) }),
   ],
   ["POST", "/api/v1/mechanism-checks/[id]/rerun", mechanismRerunRoute.POST as Handler, "id", () => ({ method: "POST" })],
+  ["GET", "/api/v1/collections/[id]", collectionRoute.GET as Handler, "id", () => ({})],
+  [
+    "PATCH",
+    "/api/v1/collections/[id]",
+    collectionRoute.PATCH as Handler,
+    "id",
+    () => ({ method: "PATCH", body: JSON.stringify({ title: "Renamed" }) }),
+  ],
+  ["DELETE", "/api/v1/collections/[id]", collectionRoute.DELETE as Handler, "id", () => ({ method: "DELETE" })],
+  [
+    "POST",
+    "/api/v1/collections/[id]/members",
+    collectionMembersRoute.POST as Handler,
+    "id",
+    () => ({ method: "POST", body: JSON.stringify({ members: [{ versionId: 1 }] }) }),
+  ],
+  [
+    "DELETE",
+    "/api/v1/collections/[id]/members/[versionId]",
+    collectionMemberRoute.DELETE as Handler,
+    "versionId",
+    () => ({ method: "DELETE" }),
+  ],
+  ["POST", "/api/v1/collections/[id]/publish", collectionPublishRoute.POST as Handler, "id", () => ({ method: "POST" })],
+  ["POST", "/api/v1/collections/[id]/revisions", collectionRevisionsRoute.POST as Handler, "id", () => ({ method: "POST" })],
+  // The version number: with the collection id missing too, still a 404.
+  ["GET", "/api/v1/collections/[id]/versions/[n]", collectionVersionRoute.GET as Handler, "n", () => ({})],
   [
     "PATCH",
     "/api/v1/users/[id]",
@@ -147,6 +182,9 @@ const pageCases: [string, Page, (id: string) => Record<string, string>][] = [
   ["/admin/mail/[id]", MailMessagePage as Page, (id) => ({ id })],
   ["/people/[id]", PersonPage as Page, (id) => ({ id })],
   ["/mechanisms/[id]", MechanismCheckPage as Page, (id) => ({ id })],
+  ["/collections/[id]", CollectionPage as Page, (id) => ({ id })],
+  ["/collections/[id]/versions/[n]", CollectionVersionPage as Page, (id) => ({ id, n: "1" })],
+  ["/collections/[id]/versions/[n] (version part)", CollectionVersionPage as Page, (id) => ({ id: "1", n: id })],
 ];
 
 /** Every dynamic segment under app/, so a new one without a case above fails this test. */

@@ -118,6 +118,14 @@ export default async function MechanismCheckPage({ params, searchParams }: { par
             <p className="mt-2 text-sm">
               Download the report: <a href={api("csv")}>CSV</a> · <a href={api("json")}>JSON</a>
             </p>
+            {user?.id === check.ownerId && report.reactions.some((r) => r.reaction) && (
+              <p className="mt-2 text-sm">
+                <Link href={`/collections/new?check=${check.id}`}>
+                  Use these: make a collection of the data behind the matched reactions
+                </Link>
+                <span className="text-muted"> (you review the list first)</span>
+              </p>
+            )}
           </section>
           {chosen && <ReactionPlot reaction={chosen} window={{ Tmin: check.windowTmin, Tmax: check.windowTmax }} />}
           <section aria-labelledby="reactions-heading" className="space-y-2">

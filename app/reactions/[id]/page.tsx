@@ -29,6 +29,8 @@ import { energyQuantityLabel } from "@/lib/unit-labels";
 import { ChemicalFormula } from "@/components/chemical-formula";
 import { readWatchState } from "@/app/watches/watch-control";
 import { WatchToggle } from "@/app/watches/watch-forms";
+import { AddToCollectionForm } from "@/app/collections/collection-forms";
+import { readDraftCollections } from "@/app/collections/collection-page";
 
 /** Where a `/reactions/<id or key>` path leads: the public reaction, or null. */
 async function reactionOf(segment: string) {
@@ -119,7 +121,7 @@ export default async function ReactionPage({
   // The reader's choice of data lives in the URL; a choice that cannot be read falls back to the default, saying so.
   const query = (await searchParams) ?? {};
   const pagePath = reactionPath(found.key);
-  const watch = await readWatchState({ kind: "reaction", id: found.id });
+  const [watch, collecting] = await Promise.all([readWatchState({ kind: "reaction", id: found.id }), readDraftCollections()]);
   if (decodePathSegment(segment) !== reactionSegment(found.key)) {
     const search = new URLSearchParams(Object.entries(query).flatMap(([k, v]) => [v ?? []].flat().map((x) => [k, x]))).toString();
     permanentRedirect(search ? `${pagePath}?${search}` : pagePath);
@@ -215,6 +217,15 @@ export default async function ReactionPage({
           ))}
         </ul>
         <WatchToggle subject={{ kind: "reaction", id: found.id }} what="this reaction" backPath={pagePath} {...watch} />
+        {collecting.signedIn && selection.used.length > 0 && (
+          <AddToCollectionForm
+            versionIds={selection.used.map((d) => d.versionId)}
+            drafts={collecting.drafts}
+            what={
+              selection.used.length === 1 ? "the version the consensus uses" : `the ${selection.used.length} versions the consensus uses`
+            }
+          />
+        )}
       </header>
 
       {versions.length === 0 ? (

@@ -11,6 +11,7 @@ const expected: Record<Permission, { researcher: boolean; curator: boolean; admi
   "dataset.deposit": { researcher: true, curator: true, admin: true },
   "dataset.review": { researcher: false, curator: true, admin: true },
   "mechanism.check": { researcher: true, curator: true, admin: true },
+  "collection.manage": { researcher: true, curator: true, admin: true },
   "user.list": { researcher: false, curator: false, admin: true },
   "user.manage": { researcher: false, curator: false, admin: true },
   "mail.read": { researcher: false, curator: false, admin: true },

@@ -32,6 +32,8 @@ import { getVerifiedCreatorIds, listVersionCreatorPeople } from "@/lib/people/qu
 import { getPublicCitation } from "@/lib/citation/public-citation";
 import { readWatchState } from "@/app/watches/watch-control";
 import { WatchToggle } from "@/app/watches/watch-forms";
+import { AddToCollectionForm } from "@/app/collections/collection-forms";
+import { readDraftCollections } from "@/app/collections/collection-page";
 
 /** The version's own title in the browser tab, "Not found" when there is no such public version. */
 export async function generateMetadata({ params }: { params: Promise<{ id: string; version: string }> }): Promise<Metadata> {
@@ -85,7 +87,7 @@ export default async function DatasetVersionPage({
     listVersionCreatorPeople({ versionId: entry.id }),
   ]);
   if (!loaded || !citation) notFound();
-  const watch = await readWatchState({ kind: "dataset", id: datasetId });
+  const [watch, collecting] = await Promise.all([readWatchState({ kind: "dataset", id: datasetId }), readDraftCollections()]);
   const { version, doc, analysis: result, rows } = loaded;
   // Linked by its key (the numeric id is only an alias that redirects there).
   const reaction = version.reactionId ? await getReactionCached({ id: version.reactionId }) : null;
@@ -160,6 +162,9 @@ export default async function DatasetVersionPage({
           backPath={versionPath(datasetId, number)}
           {...watch}
         />
+        {collecting.signedIn && version.state === "published" && (
+          <AddToCollectionForm versionIds={[version.id]} drafts={collecting.drafts} what="this version" />
+        )}
       </header>
 
       {doc.description && (
