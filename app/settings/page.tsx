@@ -7,6 +7,7 @@ import { OrcidButton } from "@/app/sign-in/orcid-button";
 import { orcidMessage } from "@/app/sign-in/orcid-messages";
 import { can } from "@/lib/auth/permissions";
 import { getCurrentUser } from "@/lib/auth/session";
+import { getPublicProfile } from "@/lib/people/queries";
 import { listApiTokens } from "@/lib/users/queries";
 import {
   ChoosePasswordButton,
@@ -24,7 +25,7 @@ export default async function SettingsPage({ searchParams }: { searchParams: Pro
   const { orcid: orcidOutcome } = await searchParams;
   const user = await getCurrentUser();
   if (!user) redirect("/sign-in?callbackUrl=/settings");
-  const tokens = await listApiTokens({ userId: user.id });
+  const [tokens, profile] = await Promise.all([listApiTokens({ userId: user.id }), getPublicProfile({ id: user.id })]);
   return (
     <div className="space-y-8">
       <header>
@@ -47,7 +48,17 @@ export default async function SettingsPage({ searchParams }: { searchParams: Pro
           <h2 id="password-heading" className="text-xl font-semibold">
             Password
           </h2>
-          <PasswordForm />
+          {user.passwordSet ? (
+            <PasswordForm />
+          ) : (
+            <>
+              <p className="text-sm">
+                Your account has no password yet: you sign in with ORCID. To sign in with your e-mail address too, choose one through a link
+                we mail you.
+              </p>
+              <ChoosePasswordButton />
+            </>
+          )}
         </section>
       </div>
       <section aria-labelledby="orcid-heading" className="card space-y-4">
@@ -73,12 +84,10 @@ export default async function SettingsPage({ searchParams }: { searchParams: Pro
             {user.passwordSet ? (
               <UnlinkOrcidButton />
             ) : (
-              <>
-                <p className="text-sm text-muted">
-                  Your account has no password yet: choose one before unlinking ORCID, or you could no longer sign in.
-                </p>
-                <ChoosePasswordButton />
-              </>
+              <p className="text-sm text-muted">
+                Your account has no password yet: choose one (in the Password box above) before unlinking ORCID, or you could no longer sign
+                in.
+              </p>
             )}
           </>
         ) : (
@@ -97,7 +106,7 @@ export default async function SettingsPage({ searchParams }: { searchParams: Pro
             </div>
           </>
         )}
-        {user.emailVerifiedAt && (
+        {profile && (
           <p className="text-sm">
             Your public profile: <Link href={`/people/${user.id}`}>/people/{user.id}</Link> (your e-mail address is never shown).
           </p>

@@ -44,7 +44,14 @@ import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { getPublicVersionDatacite } from "@/lib/identifiers/public-datacite";
 import { getPublicProfile, listProfileDatasets } from "@/lib/people/queries";
 import { unlinkOrcid } from "@/lib/users/orcid-accounts";
-import { createOneTimeToken, createUser, getUserByEmail, markEmailVerified } from "@/lib/users/queries";
+import {
+  confirmAddressWithToken,
+  createOneTimeToken,
+  createUser,
+  getUserByEmail,
+  markEmailVerified,
+  saveOrcidSignUp,
+} from "@/lib/users/queries";
 import { requestPasswordReset, resetPassword, unlinkOrcidWithPassword } from "@/lib/users/accounts";
 import { freshOrcid } from "../support/orcid";
 import { depositInState, linkToken, sql, startMailPipeline, uniqueEmail, uniqueIp, waitForMail } from "./helpers";
@@ -264,6 +271,34 @@ describe("sign in with ORCID through the stand-in", () => {
     const answer = await confirm(location, "Victor Victim", uniqueEmail("orcid-forwarded"));
     expect(answer).toMatchObject({ status: "error", message: expect.stringMatching(/expired or was not made by this site/) });
     expect(await accountOf(orcid)).toBeUndefined();
+  });
+
+  it("a confirmation racing an address change never confirms the new address under the iD (twenty rounds, both orders)", async () => {
+    const keyA = "a".repeat(64);
+    const keyB = "b".repeat(64);
+    for (let round = 0; round < 20; round++) {
+      const orcid = freshOrcid();
+      const own = uniqueEmail("race-own");
+      const other = uniqueEmail("race-other");
+      const first = await saveOrcidSignUp({
+        orcid,
+        name: "Racer",
+        email: own,
+        passwordHash: "x",
+        ticketId: `race-${orcid}-1`,
+        browserKeyHash: keyA,
+      });
+      if (!first || first === "ticket_used") throw new Error("the first sign-up was not stored");
+      const confirmOwn = () =>
+        confirmAddressWithToken({ secret: first.secret, browserKeyHash: async () => keyA }).catch((err: Error) => err);
+      const switchAddress = () =>
+        saveOrcidSignUp({ orcid, name: "Racer", email: other, passwordHash: "x", ticketId: `race-${orcid}-2`, browserKeyHash: keyB });
+      await Promise.all(round % 2 ? [confirmOwn(), switchAddress()] : [switchAddress(), confirmOwn()]);
+      const [row] = await sql`select email, email_verified_at, verified_orcid from users where id = ${first.user.id}`;
+      // Either the own address was confirmed first (and the change refused), or the change won (and nothing is confirmed).
+      if (row.email_verified_at) expect(row.email).toBe(own);
+      else expect(row.email).toBe(other);
+    }
   });
 
   it("changing a pending sign-up's address voids every link sent to the old one: a reset link for it opens nothing", async () => {
