@@ -52,7 +52,3 @@ export async function orcidTicketFromCookie(): Promise<string | null> {
   const value = (await cookies()).get(ORCID_TICKET_COOKIE)?.value;
   return value && value.length <= 2000 ? value : null;
 }
-
-export async function forgetOrcidTicket() {
-  (await cookies()).delete({ name: ORCID_TICKET_COOKIE, path: ORCID_TICKET_COOKIE_OPTIONS.path });
-}
