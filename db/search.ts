@@ -109,6 +109,11 @@ export const searchReactionSummaries = pgTable("search_reaction_summaries", {
     .references(() => reactions.id, { onDelete: "cascade" }),
   /** The consensus expression as lib/search/types.ts ReactionHit["consensus"] states it (db/ imports no domain types). */
   consensus: jsonb().$type<Record<string, unknown> | null>(),
+  /**
+   * What a mechanism check's verdicts need of the reaction's data (lib/mechanisms/stored-basis.ts): null in rows written
+   * before it was kept (drizzle/0036; `npm run db:migrate` fills them in).
+   */
+  comparison: jsonb().$type<Record<string, unknown> | null>(),
   spread: doublePrecision(),
   updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 });

@@ -294,7 +294,8 @@ async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
     const versions = await sql<{ dataset_id: number; number: number }[]>`
       select dataset_id, number from dataset_versions where state in ('published', 'retracted') order by random() limit 3000`;
     const reactions = await sql<{ id: number; key: string }[]>`
-      select distinct r.id, r.key from reactions r join dataset_versions v on v.reaction_id = r.id and v.state = 'published' order by r.id`;
+      select r.id, r.key from reactions r where exists (select 1 from dataset_versions v where v.reaction_id = r.id and v.state = 'published')
+      order by random() limit 3000`;
     const species = await sql<{ inchi_key: string; name: string; formula: string }[]>`
       select s.inchi_key, min(n.name) as name, s.formula from species s join species_names n on n.species_id = s.id
       where exists (select 1 from reaction_participants p where p.species_id = s.id) group by s.id order by random() limit 2000`;

@@ -3,7 +3,10 @@ import { and, desc, eq, inArray, or, sql } from "drizzle-orm";
 import { getDb, type Transaction } from "@/db/client";
 import { reactions, species } from "@/db/chemistry";
 import { mechanismChecks, speciesMappingChoices } from "@/db/mechanisms";
-import { speciesDisplayNames } from "@/db/search";
+import { searchReactionSummaries, speciesDisplayNames } from "@/db/search";
+import { ENGINE_VERSION } from "@/lib/datasets/prepare";
+import type { ComparisonBasis } from "./judge";
+import { readStoredBasis } from "./stored-basis";
 import type PgBoss from "pg-boss";
 import { AppError } from "@/lib/errors";
 import { getSender, jobsInTransaction, queueOptions } from "@/lib/jobs/boss";
@@ -66,6 +69,24 @@ export async function findReactionIdsByKeys({ keys }: { keys: string[] }): Promi
 
 /** A species' first name in alphabetical order, for one without a display name (no public version names it). */
 const firstName = sql`(select min(n.name) from species_names n where n.species_id = ${species.id})`;
+
+/**
+ * The kept comparison bases of these reactions (lib/mechanisms/stored-basis.ts), by reaction id; a
+ * reaction without a usable one is not in the map.
+ */
+export async function listComparisonBases({ reactionIds }: { reactionIds: number[] }): Promise<Map<number, ComparisonBasis>> {
+  const found = new Map<number, ComparisonBasis>();
+  if (!reactionIds.length) return found;
+  const rows = await getDb()
+    .select({ reactionId: searchReactionSummaries.reactionId, comparison: searchReactionSummaries.comparison })
+    .from(searchReactionSummaries)
+    .where(inArray(searchReactionSummaries.reactionId, reactionIds));
+  for (const row of rows) {
+    const basis = readStoredBasis(row.comparison, ENGINE_VERSION);
+    if (basis) found.set(row.reactionId, basis);
+  }
+  return found;
+}
 
 /** A person's remembered choices: mechanism name → the species chosen (its InChIKey, formula and display name). */
 export async function listSpeciesChoices({ userId }: { userId: number }) {

@@ -5,10 +5,16 @@ import { AppError } from "@/lib/errors";
 import { reactionPath } from "@/lib/reactions/paths";
 import { listConsensusExclusionsOfReactions, listPublicVersionsOfReactions } from "@/lib/reactions/queries";
 import { runAnalysisTask } from "@/lib/workers/pool";
-import type { JudgeInput, JudgeOutput } from "./judge";
+import { judgeWithBasis, type JudgeInput, type JudgeOutput } from "./judge";
 import { matchReaction, matchSpecies, mechanismReactionKeys, mechanismSpeciesNames, type SpeciesMatch } from "./match";
 import type { CheckProgress } from "./progress";
-import { createQueuedMechanismCheck, findReactionIdsByKeys, findSpeciesCatalogue, listSpeciesChoices } from "./queries";
+import {
+  createQueuedMechanismCheck,
+  findReactionIdsByKeys,
+  findSpeciesCatalogue,
+  listComparisonBases,
+  listSpeciesChoices,
+} from "./queries";
 import type { MechanismRequestInput } from "./request";
 import type { MechanismProblem, ParsedMechanism } from "./types";
 import type { MechanismVerdict, ReactionVerdict } from "./verdicts";
@@ -95,21 +101,30 @@ export async function buildReport({
   const reactionIdOf = await findReactionIdsByKeys({ keys });
   const matches = keyed.map(({ r, keyed: k }) => ({ r, k, match: k && "keys" in k ? matchReaction(k.keys, reactionIdOf) : null }));
 
-  // Every forward-matched reaction's versions and exclusions, READ_BATCH reactions a statement.
+  // Every forward-matched reaction's comparison basis as kept with its search summary; the reactions without a usable
+  // one (written before bases were kept, or by another engine version) have their versions and exclusions read,
+  // READ_BATCH reactions a statement, and are judged on the analysis threads as the summary's writer would.
   const toJudge = matches.filter((m) => m.match?.forward && m.r.rate);
   const reactionIds = [...new Set(toJudge.map((m) => m.match!.forward!.reactionId))];
   await onProgress({ stage: "data", done: 0, total: reactionIds.length });
+  const bases = await listComparisonBases({ reactionIds });
+  const unkept = reactionIds.filter((id) => !bases.has(id));
+  await onProgress({ stage: "data", done: reactionIds.length - unkept.length, total: reactionIds.length });
   const versionsOf = new Map<number, JudgeInput["versions"]>();
   const exclusionsOf = new Map<number, JudgeInput["exclusions"]>();
-  for (let i = 0; i < reactionIds.length; i += READ_BATCH) {
-    const ids = reactionIds.slice(i, i + READ_BATCH);
+  for (let i = 0; i < unkept.length; i += READ_BATCH) {
+    const ids = unkept.slice(i, i + READ_BATCH);
     const [versions, exclusions] = await Promise.all([
       listPublicVersionsOfReactions({ reactionIds: ids }),
       listConsensusExclusionsOfReactions({ reactionIds: ids }),
     ]);
     for (const [id, list] of versions) versionsOf.set(id, list);
     for (const [id, list] of exclusions) exclusionsOf.set(id, list);
-    await onProgress({ stage: "data", done: Math.min(reactionIds.length, i + READ_BATCH), total: reactionIds.length });
+    await onProgress({
+      stage: "data",
+      done: reactionIds.length - unkept.length + Math.min(unkept.length, i + READ_BATCH),
+      total: reactionIds.length,
+    });
   }
   // DUPLICATE entries of one reaction act together: each is judged as the sum of them all.
   const duplicatesOf = new Map<string, { line: number; rate: NonNullable<ParsedMechanism["reactions"][number]["rate"]> }[]>();
@@ -118,32 +133,31 @@ export async function buildReport({
       const key = `${match!.forward!.reactionId}:${r.order}`;
       duplicatesOf.set(key, [...(duplicatesOf.get(key) ?? []), { line: r.line, rate: r.rate! }]);
     }
-  const inputs: JudgeInput[] = toJudge.map(({ r, match }) => {
+  const judged = new Map<number, JudgeOutput>();
+  const inputs: JudgeInput[] = [];
+  await onProgress({ stage: "judging", done: 0, total: toJudge.length });
+  for (const { r, match } of toJudge) {
     const reactionId = match!.forward!.reactionId;
     const duplicates = r.duplicate ? duplicatesOf.get(`${reactionId}:${r.order}`)!.filter((d) => d.line !== r.line) : [];
-    return {
-      index: r.index,
-      rate: r.rate!,
-      ...(duplicates.length ? { duplicates } : {}),
-      order: r.order,
-      versions: versionsOf.get(reactionId) ?? [],
-      exclusions: exclusionsOf.get(reactionId) ?? [],
-    };
-  });
+    const rate = { index: r.index, rate: r.rate!, ...(duplicates.length ? { duplicates } : {}), order: r.order };
+    const basis = bases.get(reactionId);
+    // A kept basis is judged here (a few dozen evaluations of two expressions); the others on the threads.
+    if (basis) judged.set(r.index, judgeWithBasis(rate, basis, window));
+    else inputs.push({ ...rate, versions: versionsOf.get(reactionId) ?? [], exclusions: exclusionsOf.get(reactionId) ?? [] });
+  }
   // Batches go to the analysis threads side by side, as many at once as there are threads (the rest of the
   // queue stays free for other requests).
-  const judged = new Map<number, JudgeOutput>();
   const batches = Array.from({ length: Math.ceil(inputs.length / JUDGE_BATCH) }, (_, b) =>
     inputs.slice(b * JUDGE_BATCH, (b + 1) * JUDGE_BATCH),
   );
-  await onProgress({ stage: "judging", done: 0, total: inputs.length });
+  await onProgress({ stage: "judging", done: judged.size, total: toJudge.length });
   let nextBatch = 0;
   await Promise.all(
     Array.from({ length: Math.min(analysisThreads(), batches.length) }, async () => {
       while (nextBatch < batches.length) {
         const batch = batches[nextBatch++];
         for (const out of await runAnalysisTask("judgeMechanism", { window, reactions: batch })) judged.set(out.index, out);
-        await onProgress({ stage: "judging", done: judged.size, total: inputs.length });
+        await onProgress({ stage: "judging", done: judged.size, total: toJudge.length });
       }
     }),
   );

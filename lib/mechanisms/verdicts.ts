@@ -56,8 +56,39 @@ export interface ReactionVerdict {
   note: string;
 }
 
+type Band = { T: number[]; lnk: number[]; upper: number[] };
+
+/**
+ * What a verdict reads of a consensus (a ConsensusResult is one): the preferred fit's parameters and
+ * its 95 % band, the temperatures covered and how many datasets entered.
+ */
+export interface ComparableConsensus {
+  preferred: ConsensusResult["preferred"];
+  arrhenius: { params: { lnA: number; Ea: number }; band: Band };
+  modifiedArrhenius: { params: { lnA: number; n: number; T0: number; Ea: number }; band: Band } | null;
+  range: { Tmin: number; Tmax: number };
+  included: number;
+}
+
+/** Only what a verdict reads (kept per reaction): the model not preferred keeps its parameters but no band. */
+export function comparableConsensus(result: ConsensusResult): ComparableConsensus {
+  const band = (b: Band, used: boolean): Band => (used ? { T: b.T, lnk: b.lnk, upper: b.upper } : { T: [], lnk: [], upper: [] });
+  const modified = result.preferred === "modified_arrhenius" && result.modifiedArrhenius !== null;
+  const a = result.arrhenius;
+  const m = result.modifiedArrhenius;
+  return {
+    preferred: result.preferred,
+    arrhenius: { params: { lnA: a.params.lnA, Ea: a.params.Ea }, band: band(a.band, !modified) },
+    modifiedArrhenius: m
+      ? { params: { lnA: m.params.lnA, n: m.params.n, T0: m.params.T0, Ea: m.params.Ea }, band: band(m.band, modified) }
+      : null,
+    range: { Tmin: result.range.Tmin, Tmax: result.range.Tmax },
+    included: result.included,
+  };
+}
+
 /** ln k of the consensus's preferred fit at T (canonical units). */
-export function consensusLnK(result: ConsensusResult, T: number): number {
+export function consensusLnK(result: ComparableConsensus, T: number): number {
   if (result.preferred === "modified_arrhenius" && result.modifiedArrhenius) {
     const p = result.modifiedArrhenius.params;
     return p.lnA + p.n * Math.log(T / p.T0) - p.Ea / (GAS_CONSTANT * T);
@@ -67,7 +98,7 @@ export function consensusLnK(result: ConsensusResult, T: number): number {
 }
 
 /** f(T) = exp(upper − ln k̂) of the preferred fit's 95 % band, linear in 1/T between its temperatures, held at its ends. */
-export function consensusFactor(result: ConsensusResult, T: number): number {
+export function consensusFactor(result: ComparableConsensus, T: number): number {
   const band = (result.preferred === "modified_arrhenius" && result.modifiedArrhenius ? result.modifiedArrhenius : result.arrhenius).band;
   const n = band.T.length;
   const half = (i: number) => band.upper[i] - band.lnk[i];
@@ -129,7 +160,7 @@ export function judgeMechanismRate({
   /** The rates of its DUPLICATE entries: the mechanism's k is the sum of all of them (common practice of mechanism formats). */
   alsoRates?: readonly MechanismRate[];
   window: { Tmin: number; Tmax: number };
-  result: ConsensusResult | null;
+  result: ComparableConsensus | null;
   basis: "consensus" | "single_dataset";
   ranges: readonly { Tmin: number; Tmax: number }[];
 }): ReactionVerdict {

@@ -6,8 +6,11 @@ import { datasetVersions, versionAnalyses } from "@/db/datasets";
 import { searchDocuments, searchReactionSummaries } from "@/db/search";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { getCanonicalRateConstantUnit, type ReactionOrder } from "@/lib/kinetics";
-import { loadReactionConsensus } from "@/lib/reactions/consensus-view";
-import { DEFAULT_CONSENSUS_CHOICE } from "@/lib/reactions/consensus-selection";
+import { DEFAULT_CONSENSUS_CHOICE, runSelectedConsensus, selectConsensusDatasets } from "@/lib/reactions/consensus-selection";
+import { listConsensusExclusions, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
+import { ENGINE_VERSION } from "@/lib/datasets/prepare";
+import { comparisonBasisOf } from "@/lib/mechanisms/judge";
+import type { StoredComparisonBasis } from "@/lib/mechanisms/stored-basis";
 import type { ReactionHit, SearchFlag } from "./types";
 import { datasetSpread, preferredFitOf } from "./spread";
 import { recordSearchChange } from "@/lib/search/outbox";
@@ -414,9 +417,11 @@ export async function writeReactionSummaries(tx: Transaction, reactionIds: reado
     await tx.delete(searchReactionSummaries).where(sql`${searchReactionSummaries.reactionId} = any(${idArray(empty)}::int[])`);
   const rows: (typeof searchReactionSummaries.$inferInsert)[] = [];
   for (const [reactionId, fits] of listedOf) {
+    const { expression, comparison } = await consensusOf(tx, reactionId);
     rows.push({
       reactionId,
-      consensus: fits.length >= 2 ? await consensusOf(tx, reactionId) : null,
+      consensus: fits.length >= 2 ? expression : null,
+      comparison: comparison as unknown as Record<string, unknown>,
       spread: datasetSpread(
         fits.map((f) => {
           const own = preferredOf.get(f.versionId);
@@ -432,24 +437,61 @@ export async function writeReactionSummaries(tx: Transaction, reactionIds: reado
     .values(rows)
     .onConflictDoUpdate({
       target: searchReactionSummaries.reactionId,
-      set: { consensus: sql`excluded.consensus`, spread: sql`excluded.spread`, updatedAt: sql`excluded.updated_at` },
+      set: {
+        consensus: sql`excluded.consensus`,
+        comparison: sql`excluded.comparison`,
+        spread: sql`excluded.spread`,
+        updatedAt: sql`excluded.updated_at`,
+      },
     });
 }
 
-/** The consensus over the reader's default choice, as the reactions view shows it; null when none can be drawn. */
-async function consensusOf(tx: Transaction, reactionId: number): Promise<ReactionHit["consensus"]> {
-  const { result } = await loadReactionConsensus({ reactionId, choice: DEFAULT_CONSENSUS_CHOICE, db: tx });
+/**
+ * The consensus over the reader's default choice, as the reactions view shows it (null when none can
+ * be drawn), and what a mechanism check's verdicts need of the same data (lib/mechanisms/judge.ts).
+ */
+async function consensusOf(
+  tx: Transaction,
+  reactionId: number,
+): Promise<{ expression: ReactionHit["consensus"]; comparison: StoredComparisonBasis }> {
+  const versions = await listPublicVersionsOfReaction({ reactionId, db: tx });
+  const exclusions = await listConsensusExclusions({ reactionId, db: tx });
+  const selection = selectConsensusDatasets({ versions, exclusions, choice: DEFAULT_CONSENSUS_CHOICE });
+  const { result } = runSelectedConsensus(selection);
+  const comparison = { engine: ENGINE_VERSION, ...comparisonBasisOf({ versions, exclusions, selection, result }) };
   const preferred = result && (result.preferred === "modified_arrhenius" ? result.modifiedArrhenius : result.arrhenius);
-  if (!result || !preferred || preferred.params.A === null) return null;
+  if (!result || !preferred || preferred.params.A === null) return { expression: null, comparison };
   return {
-    model: result.preferred,
-    a: preferred.params.A,
-    n: "n" in preferred.params ? (preferred.params.n as number) : 0,
-    ea: preferred.params.Ea,
-    aUnit: getCanonicalRateConstantUnit(result.order),
-    tMin: result.range.Tmin,
-    tMax: result.range.Tmax,
+    expression: {
+      model: result.preferred,
+      a: preferred.params.A,
+      n: "n" in preferred.params ? (preferred.params.n as number) : 0,
+      ea: preferred.params.Ea,
+      aUnit: getCanonicalRateConstantUnit(result.order),
+      tMin: result.range.Tmin,
+      tMax: result.range.Tmax,
+    },
+    comparison,
   };
+}
+
+/**
+ * Rewrites the summaries whose comparison basis is missing (rows from before bases were kept) or of
+ * another engine version, SUMMARY_BATCH reactions a transaction; returns how many. Run by the
+ * migration, so a mechanism check reads bases rather than points from the first start on.
+ */
+export async function rebuildStaleComparisonBases({ onProgress }: { onProgress?: (done: number, total: number) => void } = {}) {
+  const db = getDb();
+  const ids = (
+    await db.execute<{ id: number }>(sql`
+      select reaction_id as id from search_reaction_summaries
+      where comparison is null or comparison ->> 'engine' is distinct from ${ENGINE_VERSION} order by 1`)
+  ).map((r) => Number(r.id));
+  for (let i = 0; i < ids.length; i += SUMMARY_BATCH) {
+    await db.transaction((tx) => writeReactionSummaries(tx, ids.slice(i, i + SUMMARY_BATCH)));
+    onProgress?.(Math.min(i + SUMMARY_BATCH, ids.length), ids.length);
+  }
+  return ids.length;
 }
 
 /**

@@ -402,3 +402,46 @@ afterAll(async () => {
     and owner_id in (select id from users where email like '%@test.arrhenia.invalid')`;
   await (await getSender()).purgeQueue(MECHANISM_CHECK_QUEUE);
 });
+
+describe("the comparison basis kept with each reaction's search summary", () => {
+  const reportOf = async () => {
+    as(owner);
+    const { data } = await postAndRun(JSON.stringify({ text: MECHANISM, name: "Basis test" }));
+    return (await read(data.id)).report;
+  };
+  const reactionIdOf = async () =>
+    (
+      await sql<
+        { id: number }[]
+      >`select v.reaction_id as id from dataset_versions v where v.title = 'Br + undecane one' and v.state = 'published'`
+    )[0].id;
+
+  it("is written when the data are published, and gives the same report as reading the points", async () => {
+    const reactionId = await reactionIdOf();
+    const [kept] = await sql<{ comparison: { engine: string; published: number; basis: string } | null }[]>`
+      select comparison from search_reaction_summaries where reaction_id = ${reactionId}`;
+    expect(kept.comparison).toMatchObject({ published: 2, basis: "consensus" });
+    const fromBasis = await reportOf();
+    // Without it (a row written before bases were kept), the check reads the points and judges on the threads.
+    await sql`update search_reaction_summaries set comparison = null where reaction_id = ${reactionId}`;
+    const fromPoints = await reportOf();
+    expect(fromPoints.reactions).toEqual(fromBasis.reactions);
+    expect(fromPoints.summary).toEqual(fromBasis.summary);
+    expect(fromBasis.summary).toMatchObject({ agrees: 1, disagrees: 1 });
+  });
+
+  it("is not used when another engine version wrote it, and the migration's rewrite brings it back", async () => {
+    const reactionId = await reactionIdOf();
+    const { rebuildStaleComparisonBases } = await import("@/lib/search/documents");
+    await rebuildStaleComparisonBases();
+    await sql`update search_reaction_summaries set comparison = jsonb_set(comparison, '{curve}', 'null') || '{"engine": "kinetics-0"}'
+      where reaction_id = ${reactionId} and comparison is not null`;
+    // A stale basis with no curve would say "no data"; it is ignored, and the verdicts come from the points.
+    expect((await reportOf()).summary).toMatchObject({ agrees: 1, disagrees: 1 });
+    expect(await rebuildStaleComparisonBases()).toBeGreaterThanOrEqual(1);
+    const [kept] = await sql<
+      { engine: string }[]
+    >`select comparison ->> 'engine' as engine from search_reaction_summaries where reaction_id = ${reactionId}`;
+    expect(kept.engine).not.toBe("kinetics-0");
+  });
+});
