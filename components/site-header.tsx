@@ -10,12 +10,12 @@ export async function SiteHeader() {
   const links: NavLink[] = [
     { href: "/reactions", label: "Reactions" },
     { href: "/classes", label: "Classes" },
+    { href: "/collections", label: "Collections" },
     { href: "/analyse", label: "Fit data" },
   ];
   if (user) {
     if (can(user.role, "dataset.deposit")) links.push({ href: "/deposits", label: "My deposits" });
     if (can(user.role, "mechanism.check")) links.push({ href: "/mechanisms", label: "Mechanisms" });
-    if (can(user.role, "collection.manage")) links.push({ href: "/collections", label: "Collections" });
     if (can(user.role, "dataset.review")) links.push({ href: "/review", label: "Review" });
     if (can(user.role, "user.manage")) links.push({ href: "/admin/people", label: "People" });
     if (can(user.role, "mail.read")) links.push({ href: "/admin/mail", label: "Mail" });

@@ -2,7 +2,8 @@ import "server-only";
 import type { MetadataRoute } from "next";
 import { appUrl } from "@/lib/config";
 import { REACTION_CLASSES } from "@/lib/deposits/vocabulary";
-import { classPath, speciesPath, versionPath } from "@/lib/identifiers/paths";
+import { classPath, collectionVersionPath, speciesPath, versionPath } from "@/lib/identifiers/paths";
+import { listPublishedCollectionVersionPages } from "@/lib/collections/queries";
 import { listPublicReactionKeysCached, listPublicSpeciesKeysCached, listPublicVersionPagesCached } from "@/lib/reactions/cached";
 import { reactionPath } from "@/lib/reactions/paths";
 
@@ -18,15 +19,16 @@ export const SITEMAP_PAGE_SIZE = 50_000;
 export const sitemapFilePath = (id: number) => `/sitemaps/sitemap/${id}.xml`;
 
 /** The pages anyone may read that never change their address. */
-const STATIC_PUBLIC_PATHS = ["/", "/reactions", "/classes", "/search", "/analyse", "/docs/api", "/docs/deposit-format"];
+const STATIC_PUBLIC_PATHS = ["/", "/reactions", "/classes", "/search", "/collections", "/analyse", "/docs/api", "/docs/deposit-format"];
 
-/** Every public page: the fixed pages, every class, every public reaction by key, its species, every published or retracted version. */
+/** Every public page: the fixed pages, every class, every public reaction by key, its species, every published or retracted version, every published collection version. */
 export async function listSitemapEntries(): Promise<MetadataRoute.Sitemap> {
   const base = appUrl();
-  const [versions, reactions, species] = await Promise.all([
+  const [versions, reactions, species, collections] = await Promise.all([
     listPublicVersionPagesCached(),
     listPublicReactionKeysCached(),
     listPublicSpeciesKeysCached(),
+    listPublishedCollectionVersionPages(),
   ]);
   return [
     ...STATIC_PUBLIC_PATHS.map((path) => ({ url: `${base}${path}` })),
@@ -34,6 +36,10 @@ export async function listSitemapEntries(): Promise<MetadataRoute.Sitemap> {
     ...reactions.map((key) => ({ url: `${base}${reactionPath(key)}` })),
     ...species.map((key) => ({ url: `${base}${speciesPath(key)}` })),
     ...versions.map((v) => ({ url: `${base}${versionPath(v.datasetId, v.number)}`, ...(v.changed ? { lastModified: v.changed } : {}) })),
+    ...collections.map((c) => ({
+      url: `${base}${collectionVersionPath(c.collectionId, c.number)}`,
+      ...(c.publishedAt ? { lastModified: c.publishedAt } : {}),
+    })),
   ];
 }
 

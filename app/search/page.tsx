@@ -5,6 +5,7 @@ import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { parseSearchParams, searchAnswer, toSearchParams } from "@/lib/search";
 import type { SearchAnswer } from "@/lib/search/types";
 import { SearchClient } from "./search-client";
+import { readDraftCollections } from "@/app/collections/collection-page";
 
 export async function generateMetadata(): Promise<Metadata> {
   return publicPageMetadata({
@@ -33,7 +34,7 @@ async function firstAnswer(params: Record<string, string | string[] | undefined>
 
 /** /search: the URL holds the whole search; the results are fetched (and refetched) in the browser. */
 export default async function SearchPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const initial = await firstAnswer(await searchParams);
+  const [initial, collecting] = await Promise.all([firstAnswer(await searchParams), readDraftCollections()]);
   return (
     <div className="space-y-6">
       <header className="space-y-2">
@@ -45,7 +46,7 @@ export default async function SearchPage({ searchParams }: { searchParams: Promi
         <p className="rounded-md border border-warn/40 bg-panel px-3 py-2 text-sm text-warn">{FIT_CAUTION}</p>
       </header>
       <Suspense fallback={<p className="text-sm text-muted">Loading the search…</p>}>
-        <SearchClient initial={initial} />
+        <SearchClient initial={initial} collecting={collecting.signedIn ? { drafts: collecting.drafts } : null} />
       </Suspense>
     </div>
   );

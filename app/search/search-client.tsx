@@ -4,7 +4,7 @@ import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useRouter, useSearchParams } from "next/navigation";
 import { useId, useMemo, useOptimistic, useState, useTransition, type FormEvent } from "react";
-import { DatasetRows, ReactionRows } from "@/components/search/search-results";
+import { DatasetRows, ReactionRows, type Collecting } from "@/components/search/search-results";
 import { errorsByParameter, fetchSearch, searchKey, SearchProblem, type SearchAnswer } from "@/components/search/search-answer";
 import { WINDOW_FIELDS, type WindowParameter } from "@/components/search/search-windows";
 import { activeFilters, SORT_LABELS, VIEW_LABELS, withFilters } from "@/components/search/search-words";
@@ -19,7 +19,14 @@ import { FacetGroups, searchHref, WindowsForm, YearCounts } from "./search-filte
  * normalised request in that URL (react-query, keyed by it). `initial` is the server's answer for
  * the first URL, so the first paint already has the results.
  */
-export function SearchClient({ initial }: { initial: { key: string; answer: SearchAnswer } | null }) {
+export function SearchClient({
+  initial,
+  collecting,
+}: {
+  initial: { key: string; answer: SearchAnswer } | null;
+  /** The reader's draft collections, when signed in: the dataset rows can then be chosen and added to one. */
+  collecting: Collecting | null;
+}) {
   const params = useSearchParams();
   const router = useRouter();
   const parsedUrl = useMemo(() => parseSearchParams(params), [params]);
@@ -160,7 +167,14 @@ export function SearchClient({ initial }: { initial: { key: string; answer: Sear
           <p role="status" className="text-sm text-muted">
             {statusWords(query.isFetching, answer, request, refused)}
           </p>
-          <Results request={request} answer={answer} settled={settled} error={query.error} onRetry={() => void query.refetch()} />
+          <Results
+            request={request}
+            answer={answer}
+            settled={settled}
+            error={query.error}
+            onRetry={() => void query.refetch()}
+            collecting={collecting}
+          />
           {!refused && <SearchExport request={request} total={answer?.total ?? null} />}
         </section>
       </div>
@@ -226,12 +240,14 @@ function Results({
   settled,
   error,
   onRetry,
+  collecting,
 }: {
   request: SearchRequest;
   answer: SearchAnswer | undefined;
   settled: boolean;
   error: SearchProblem | null;
   onRetry: () => void;
+  collecting: Collecting | null;
 }) {
   if (error) {
     if (error.status === 400) {
@@ -274,7 +290,7 @@ function Results({
       {request.view === "reactions" ? (
         <ReactionRows hits={answer.hits as ReactionHit[]} />
       ) : (
-        <DatasetRows hits={answer.hits as DatasetHit[]} />
+        <DatasetRows hits={answer.hits as DatasetHit[]} collecting={collecting} />
       )}
       <nav aria-label="More results" className="flex flex-wrap items-center justify-between gap-3 text-sm">
         {request.cursor ? <Link href={searchHref({ ...request, cursor: null })}>First results</Link> : <span />}

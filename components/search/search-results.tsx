@@ -6,13 +6,22 @@ import { GAS_CONSTANT, REFERENCE_TEMPERATURE } from "@/lib/kinetics/constants";
 import type { DatasetHit, ReactionHit } from "@/lib/search/types";
 import { unitLabel } from "@/lib/unit-labels";
 import { FLAG_LABELS } from "./search-words";
-import type { ReactNode } from "react";
+import { useState, type ReactNode } from "react";
+import { AddToCollectionForm } from "@/app/collections/collection-forms";
 import { StatisticGlossary, StatisticTerm } from "@/components/statistic-term";
 
 const sig = (v: number | null | undefined, digits = 3) => formatSignificant(v, digits);
 
-/** One row per dataset: what a modeller checks before opening it. */
-export function DatasetRows({ hits }: { hits: DatasetHit[] }) {
+/** A signed-in reader's draft collections, which chosen results can be added to. */
+export interface Collecting {
+  drafts: { id: number; title: string }[];
+}
+
+/** One row per dataset: what a modeller checks before opening it. Signed in, rows can be chosen for a collection. */
+export function DatasetRows({ hits, collecting = null }: { hits: DatasetHit[]; collecting?: Collecting | null }) {
+  // Chosen versions stay chosen from one page of results to the next.
+  const [chosen, setChosen] = useState<number[]>([]);
+  const toggle = (id: number, on: boolean) => setChosen((c) => (on ? [...c.filter((x) => x !== id), id] : c.filter((x) => x !== id)));
   return (
     <>
       <ul className="card divide-y divide-line p-0" aria-label="Datasets found">
@@ -20,6 +29,15 @@ export function DatasetRows({ hits }: { hits: DatasetHit[] }) {
           <li key={h.versionId} className="space-y-2 px-4 py-3 sm:px-6">
             <div className="space-y-0.5">
               <p className="flex flex-wrap items-baseline gap-x-3 gap-y-1 font-medium">
+                {collecting && !h.retracted && (
+                  <input
+                    type="checkbox"
+                    className="h-4 w-4 self-center"
+                    checked={chosen.includes(h.versionId)}
+                    onChange={(e) => toggle(h.versionId, e.target.checked)}
+                    aria-label={`Choose version ${h.versionNumber} of “${h.title}” for a collection`}
+                  />
+                )}
                 <span className="min-w-0 break-words">{h.equation}</span>
                 {h.retracted && (
                   <span className="rounded-sm border border-error/40 bg-panel px-1.5 py-0.5 text-xs font-medium text-error">Retracted</span>
@@ -56,6 +74,27 @@ export function DatasetRows({ hits }: { hits: DatasetHit[] }) {
           </li>
         ))}
       </ul>
+      {collecting && (
+        <section aria-label="Chosen for a collection" className="card space-y-2 text-sm">
+          {chosen.length === 0 ? (
+            <p className="text-muted">Tick results to add them to a collection of your own.</p>
+          ) : (
+            <>
+              <p>
+                {chosen.length} {chosen.length === 1 ? "version" : "versions"} chosen{" "}
+                <button type="button" className="underline" onClick={() => setChosen([])}>
+                  clear
+                </button>
+              </p>
+              <AddToCollectionForm
+                versionIds={chosen}
+                drafts={collecting.drafts}
+                what={chosen.length === 1 ? "the chosen version" : `the ${chosen.length} chosen versions`}
+              />
+            </>
+          )}
+        </section>
+      )}
       <StatisticGlossary ids={["refit"]} className="px-1" />
     </>
   );

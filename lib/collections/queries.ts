@@ -597,6 +597,20 @@ export async function listPublishedCollections({ limit = 50, offset = 0 }: { lim
   return rows.map(listItem);
 }
 
+/** Every published collection version's address parts (the sitemap's). */
+export async function listPublishedCollectionVersionPages(): Promise<{ collectionId: number; number: number; publishedAt: Date | null }[]> {
+  const rows = await getDb()
+    .select({
+      collectionId: collectionVersions.collectionId,
+      number: collectionVersions.number,
+      publishedAt: collectionVersions.publishedAt,
+    })
+    .from(collectionVersions)
+    .where(eq(collectionVersions.state, "published"))
+    .orderBy(collectionVersions.collectionId, collectionVersions.number);
+  return rows;
+}
+
 /** A person's own collections by their newest version (a draft included), newest first. */
 export async function listMyCollections({ ownerId }: { ownerId: number }): Promise<CollectionListItem[]> {
   const rows = await getDb().execute(sql`

@@ -8,7 +8,14 @@ export const seriesPath = (datasetId: number) => `/datasets/${datasetId}`;
 export const versionPath = (datasetId: number, versionNumber: number) => `/datasets/${datasetId}/v${versionNumber}`;
 
 /** Where a resolved identifier (lib/identifiers/queries.ts resolveIdentifier) leads. */
-export function resolvedIdentifierPath(found: { kind: "version" | "series"; datasetId: number; versionNumber?: number | null }): string {
+export function resolvedIdentifierPath(
+  found:
+    | { kind: "version" | "series"; datasetId: number; versionNumber?: number | null }
+    | { kind: "collection_version"; collectionId: number; versionNumber: number }
+    | { kind: "collection"; collectionId: number },
+): string {
+  if (found.kind === "collection_version") return collectionVersionPath(found.collectionId, found.versionNumber);
+  if (found.kind === "collection") return collectionPath(found.collectionId);
   return found.kind === "version" && found.versionNumber != null
     ? versionPath(found.datasetId, found.versionNumber)
     : seriesPath(found.datasetId);

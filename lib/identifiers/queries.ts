@@ -3,6 +3,7 @@ import { getVerifiedCreatorIds } from "@/lib/people/queries";
 import { and, asc, desc, eq, inArray, isNotNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, datasetVersions, identifierRegistrations } from "@/db/datasets";
+import { collections, collectionVersions } from "@/db/collections";
 import type { VersionState } from "@/lib/curation/lifecycle";
 
 /** What registering one identifier needs to know, read in one go. */
@@ -181,7 +182,9 @@ export async function recordRegistrationFailure({ identifier, error }: { identif
 /** Where a minted identifier leads: a public version, or a series (its newest public version). */
 export type ResolvedIdentifier =
   | { kind: "version"; identifier: string; datasetId: number; versionNumber: number; state: VersionState }
-  | { kind: "series"; identifier: string; datasetId: number };
+  | { kind: "series"; identifier: string; datasetId: number }
+  | { kind: "collection_version"; identifier: string; collectionId: number; versionNumber: number }
+  | { kind: "collection"; identifier: string; collectionId: number };
 
 /** Looks up an identifier exactly as minted (either scheme); drafts and declined versions never have one. */
 export async function resolveIdentifier({ identifier }: { identifier: string }): Promise<ResolvedIdentifier | null> {
@@ -192,5 +195,19 @@ export async function resolveIdentifier({ identifier }: { identifier: string }):
     .where(eq(datasetVersions.versionIdentifier, identifier));
   if (version) return { kind: "version", identifier, datasetId: version.datasetId, versionNumber: version.number, state: version.state };
   const [series] = await db.select({ id: datasets.id }).from(datasets).where(eq(datasets.seriesIdentifier, identifier));
-  return series ? { kind: "series", identifier, datasetId: series.id } : null;
+  if (series) return { kind: "series", identifier, datasetId: series.id };
+  // A collection's identifiers come from the same minting (lib/collections/queries.ts publishCollection).
+  const [collectionVersion] = await db
+    .select({ collectionId: collectionVersions.collectionId, number: collectionVersions.number })
+    .from(collectionVersions)
+    .where(and(eq(collectionVersions.versionIdentifier, identifier), eq(collectionVersions.state, "published")));
+  if (collectionVersion)
+    return {
+      kind: "collection_version",
+      identifier,
+      collectionId: collectionVersion.collectionId,
+      versionNumber: collectionVersion.number,
+    };
+  const [collection] = await db.select({ id: collections.id }).from(collections).where(eq(collections.seriesIdentifier, identifier));
+  return collection ? { kind: "collection", identifier, collectionId: collection.id } : null;
 }

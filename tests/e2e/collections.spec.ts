@@ -58,3 +58,21 @@ test("a modeller makes a collection from a mechanism check's matches, publishes 
   await expect(page.getByRole("heading", { level: 1, name: title })).toBeVisible();
   await expect(page.getByText("Publish this version")).toHaveCount(0);
 });
+
+// From search results: tick two datasets, start a collection with them (this test's own, unpublished).
+test("a modeller chooses search results and starts a collection with them", async ({ page }) => {
+  await signInAs(page, DEMO_RESEARCHER);
+  await page.goto("/search?q=methane");
+  const boxes = page.getByRole("list", { name: "Datasets found" }).getByRole("checkbox");
+  await expect(boxes.first()).toBeVisible();
+  expect(await boxes.count()).toBeGreaterThan(1);
+  await expect(page.getByText("Tick results to add them to a collection of your own.")).toBeVisible();
+  await boxes.nth(0).check();
+  await boxes.nth(1).check();
+  const chosen = page.getByRole("region", { name: "Chosen for a collection" });
+  await expect(chosen).toContainText("2 versions chosen");
+  // With no draft collection yet the offer is a new one; with drafts, a choice of them and the same link.
+  await chosen.getByRole("link", { name: /start (a collection with|a new one)/i }).click();
+  await expect(page).toHaveURL(/\/collections\/new\?versions=\d+,\d+$/);
+  await expect(page.getByRole("group", { name: /Versions to add \(2 of 2 chosen\)/ })).toBeVisible();
+});

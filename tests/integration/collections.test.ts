@@ -12,6 +12,8 @@ import * as revisionsRoute from "@/app/api/v1/collections/[id]/revisions/route";
 import * as citationRoute from "@/app/api/v1/collections/[id]/versions/[n]/citation/route";
 import * as parametersRoute from "@/app/api/v1/collections/[id]/versions/[n]/parameters/route";
 import * as dataciteRoute from "@/app/api/v1/collections/[id]/versions/[n]/datacite.json/route";
+import * as identifiersRoute from "@/app/api/v1/identifiers/route";
+import { listSitemapEntries } from "@/lib/sitemap";
 import { getCurrentUser } from "@/lib/auth/session";
 import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset } from "@/lib/datasets/deposits";
@@ -258,5 +260,22 @@ describe("collections: a citable set of published versions", () => {
     ]);
     const listed = (await (await call(null, collectionsRoute.GET, {}, {}, "?limit=100")).json()).data as { id: number; number: number }[];
     expect(listed.find((c) => c.id === id)).toMatchObject({ number: 2 });
+
+    // Its identifiers resolve as a dataset's do: the version's to that version, the series' to the newest.
+    const resolve = async (identifier: string) =>
+      identifiersRoute.GET(new Request(`http://127.0.0.1/api/v1/identifiers?identifier=${encodeURIComponent(identifier)}`), {
+        params: Promise.resolve({}),
+      });
+    const one = await resolve(versionIdentifier);
+    expect(one.status).toBe(200);
+    expect((await one.json()).data).toMatchObject({ kind: "collection_version", versionNumber: 1 });
+    expect((await (await resolve(versionIdentifier)).json()).data.url).toMatch(new RegExp(`/collections/${id}/versions/1$`));
+    const series = versionIdentifier.replace(/\/1$/, "");
+    expect((await (await resolve(series)).json()).data).toMatchObject({ kind: "collection" });
+    expect((await (await resolve(series)).json()).data.url).toMatch(new RegExp(`/collections/${id}$`));
+    // And the sitemap lists both published versions.
+    const urls = (await listSitemapEntries()).map((e) => e.url);
+    expect(urls.filter((u) => u.includes(`/collections/${id}/versions/`)).map((u) => u.replace(/.*\/versions\//, ""))).toEqual(["1", "2"]);
+    expect(urls.some((u) => u.endsWith("/collections"))).toBe(true);
   });
 });

@@ -8,7 +8,7 @@ export default function IdentifierNotFound() {
   const typed = safeDecode((usePathname() ?? "").replace(/^\/id\//, ""));
   return (
     <article className="space-y-3">
-      <h1 className="text-2xl font-semibold">No dataset has this identifier</h1>
+      <h1 className="text-2xl font-semibold">Nothing published has this identifier</h1>
       <p role="alert">
         The identifier is mistyped, is not one of this repository&apos;s, or names nothing published. Our identifiers look like
         10.5072/ARH-4F7K-9QXM (a dataset) or 10.5072/ARH-4F7K-9QXM/2 (one of its versions); the last symbol of the code checks the others,

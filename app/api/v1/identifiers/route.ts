@@ -30,13 +30,14 @@ export const GET = withApi(
       );
     }
     const found = await resolveIdentifier({ identifier: parsed.identifier });
-    if (!found) throw new AppError("not_found", `No published dataset has the identifier ${parsed.identifier}`);
+    if (!found) throw new AppError("not_found", `No published dataset or collection has the identifier ${parsed.identifier}`);
     const path = resolvedIdentifierPath(found);
     return NextResponse.json({
       data: {
         identifier: found.identifier,
         kind: found.kind,
         ...(found.kind === "version" ? { versionNumber: found.versionNumber, state: found.state } : {}),
+        ...(found.kind === "collection_version" ? { versionNumber: found.versionNumber } : {}),
         url: `${appUrl()}${path}`,
       },
     });
