@@ -260,7 +260,72 @@ export const createdDraftResponse = z.strictObject({
 });
 
 /** The named answers, as components/schemas of the OpenAPI document. */
+const collectionState = z.enum(["draft", "published"]);
+
+/** GET /api/v1/collections/:id (and …/versions/:n) */
+export const collectionResponse = z.strictObject({
+  data: z.strictObject({
+    id: z.int(),
+    owner: z.strictObject({ name: z.string() }),
+    seriesIdentifier: z.string().nullable().describe("Minted with the first publication; every version's identifier is <series>/<n>"),
+    version: z.strictObject({
+      number: z.int(),
+      state: collectionState,
+      title: z.string(),
+      description: z.string(),
+      versionIdentifier: versionIdentifier.nullable(),
+      publishedAt: isoDate.nullable(),
+      url,
+      citation: z.string().nullable().describe("The collection's one-line citation; null for a draft"),
+    }),
+    versions: z.array(
+      z.strictObject({
+        number: z.int(),
+        state: collectionState,
+        versionIdentifier: versionIdentifier.nullable(),
+        publishedAt: isoDate.nullable(),
+        memberCount: z.int(),
+      }),
+    ),
+    members: z.array(
+      z.strictObject({
+        versionId: z.int(),
+        datasetId: z.int(),
+        number: z.int(),
+        title: z.string(),
+        equation: z.string(),
+        state: publicState.describe("A member retracted after the collection was published stays, marked"),
+        versionIdentifier: versionIdentifier.nullable(),
+        retractionNotice: z.string().nullable(),
+        newerVersion: z.int().nullable().describe("The dataset's newest published version when it is newer than the member"),
+        note: z.string().nullable(),
+        url,
+      }),
+    ),
+    caution,
+  }),
+});
+
+/** GET /api/v1/collections */
+export const collectionListResponse = z.strictObject({
+  data: z.array(
+    z.strictObject({
+      id: z.int(),
+      number: z.int(),
+      title: z.string(),
+      versionIdentifier: versionIdentifier.nullable(),
+      publishedAt: isoDate.nullable(),
+      owner: z.strictObject({ name: z.string() }),
+      memberCount: z.int(),
+      url: z.string().describe("The collection's page (its newest published version), a path"),
+    }),
+  ),
+  meta: z.strictObject({ limit: z.int(), offset: z.int() }),
+});
+
 export const RESPONSE_SCHEMAS = {
+  Collection: collectionResponse,
+  CollectionList: collectionListResponse,
   DatasetSeries: datasetSeriesResponse,
   PublicVersion: publicVersionResponse,
   VersionAnalysis: versionAnalysisResponse,

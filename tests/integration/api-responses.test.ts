@@ -14,6 +14,9 @@ import * as deposits from "@/app/api/v1/deposits/route";
 import * as search from "@/app/api/v1/search/route";
 import * as speciesByKey from "@/app/api/v1/species/[inchikey]/route";
 import * as validate from "@/app/api/v1/validate/route";
+import * as collections from "@/app/api/v1/collections/route";
+import * as collectionById from "@/app/api/v1/collections/[id]/route";
+import { createCollection, publishCollection } from "@/lib/collections/queries";
 import { API_ENDPOINTS } from "@/lib/api/endpoints";
 import { RESPONSE_SCHEMAS, type ResponseSchemaName } from "@/lib/api/responses";
 import { applyTransition } from "@/lib/curation/transitions";
@@ -36,6 +39,7 @@ let owner: UserDto;
 let token: string;
 let writeToken: string;
 let published: { datasetId: number; inchiKey: string };
+let collectionId: number;
 
 beforeAll(async () => {
   owner = await createUser({ email: uniqueEmail("answers"), name: "answers", passwordHash: "x", role: "researcher", verified: true });
@@ -48,6 +52,16 @@ beforeAll(async () => {
   const [row] = await sql`select s.inchi_key from dataset_versions v join reaction_participants rp on rp.reaction_id = v.reaction_id
     join species s on s.id = rp.species_id where v.id = ${v.id} limit 1`;
   published = { datasetId: v.datasetId, inchiKey: row.inchi_key };
+  // A published collection holding it, with a note.
+  collectionId = (
+    await createCollection({
+      ownerId: owner.id,
+      title: "Answer schemas collection",
+      description: "",
+      members: [{ versionId: v.id, note: "used for R1" }],
+    })
+  ).id;
+  await publishCollection({ collectionId, actorId: owner.id });
   token = (await createApiToken({ userId: owner.id, name: "answers", scopes: ["deposit:read"] })).secret;
   writeToken = (await createApiToken({ userId: owner.id, name: "answers-write", scopes: ["deposit:write"] })).secret;
 }, 120_000);
@@ -71,6 +85,8 @@ const answers: [ResponseSchemaName, string, () => Promise<Response>][] = [
     () => call(versionAnalysis.GET, "/x", { id: String(published.datasetId), n: "1" }),
   ],
   ["Classes", "GET /api/v1/classes", () => call(classes.GET, "/api/v1/classes")],
+  ["Collection", "GET /api/v1/collections/:id", () => call(collectionById.GET, "/x", { id: String(collectionId) })],
+  ["CollectionList", "GET /api/v1/collections", () => call(collections.GET, "/api/v1/collections?limit=100")],
   ["Species", "GET /api/v1/species/:inchikey", () => call(speciesByKey.GET, "/x", { inchikey: published.inchiKey })],
   ["SearchAnswer", "GET /api/v1/datasets", () => call(datasets.GET, "/api/v1/datasets?q=Answer+schemas&limit=5")],
   ["SearchAnswer", "GET /api/v1/search", () => call(search.GET, "/api/v1/search?view=reactions&limit=5")],
