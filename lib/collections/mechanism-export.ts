@@ -69,7 +69,10 @@ export function buildCollectionTable(header: CollectionExportHeader, subjects: M
   ].join("\n");
 }
 
-/** The Cantera YAML file: one units block, every species once, one elementary reaction a member (its preferred fit). */
+/**
+ * The Cantera YAML file: one units block, every species once, one elementary reaction a member (its preferred fit) —
+ * except a second member of a reaction already written, which is a comment under it (one rate per reaction).
+ */
 export function buildCollectionCanteraYaml(
   header: CollectionExportHeader,
   subjects: MechanismSubject[],
@@ -81,9 +84,30 @@ export function buildCollectionCanteraYaml(
   const participants = subjects.flatMap((s) => s.participants);
   // One naming over every member, so a species has one name in the whole file.
   const names = mechanismSpeciesNames(participants, naming);
-  const reactions = subjects.map((s) => {
+  // A mechanism takes one rate per reaction: a second member of the same reaction (same species on each side) is not
+  // a second term (that would be a DUPLICATE, summed), so it is written as a comment under the first one's entry.
+  const sideKey = (s: MechanismSubject, side: "reactant" | "product") =>
+    s.participants
+      .filter((p) => p.side === side)
+      .map((p) => `${p.coefficient}*${names.get(p.inchiKey)}`)
+      .sort()
+      .join("+");
+  const keyOf = (s: MechanismSubject) => `${sideKey(s, "reactant")}=>${sideKey(s, "product")}|${s.order}`;
+  const firstOf = new Map<string, number>();
+  const alsoOf = new Map<number, number[]>();
+  subjects.forEach((s, i) => {
+    const first = firstOf.get(keyOf(s));
+    if (first === undefined) firstOf.set(keyOf(s), i);
+    else alsoOf.set(first, [...(alsoOf.get(first) ?? []), i]);
+  });
+  const kept = subjects.map((_, i) => i).filter((i) => firstOf.get(keyOf(subjects[i])) === i);
+  const fitOf = (s: MechanismSubject) => {
     const kUnit = cmMolUnit(s.order);
-    const fit = convertMechanismFits(s, { kUnit, energyUnit }).find((f) => f.preferred)!;
+    return { kUnit, fit: convertMechanismFits(s, { kUnit, energyUnit }).find((f) => f.preferred)! };
+  };
+  const reactions = kept.map((i) => {
+    const s = subjects[i];
+    const { kUnit, fit } = fitOf(s);
     return {
       equation: canteraEquation(s.participants, names),
       "rate-constant": { A: fit.canteraA, b: fit.n, Ea: fit.Ea },
@@ -101,9 +125,16 @@ export function buildCollectionCanteraYaml(
     reactions,
   });
   const seq = doc.get("reactions") as YAMLSeq<YAMLMap>;
-  seq.items.forEach((item, i) => {
+  const identifierText = (s: MechanismSubject) => (s.identifier ? `doi:${oneLineText(s.identifier)}` : "no identifier");
+  seq.items.forEach((item, k) => {
+    const i = kept[k];
     const s = subjects[i];
-    item.commentBefore = ` ${s.identifier ? `doi:${oneLineText(s.identifier)}` : "no identifier"} — ${oneLineText(s.equation)}${s.retraction ? " — RETRACTED" : ""}`;
+    const also = (alsoOf.get(i) ?? []).map((j) => {
+      const other = subjects[j];
+      const { fit } = fitOf(other);
+      return ` also in this collection for the same reaction, not included (a mechanism takes one rate per reaction): ${identifierText(other)}${other.retraction ? " (RETRACTED)" : ""}, A: ${fit.canteraA}, b: ${fit.n}, Ea: ${fit.Ea}, valid ${other.range.Tmin}–${other.range.Tmax} K`;
+    });
+    item.commentBefore = [` ${identifierText(s)} — ${oneLineText(s.equation)}${s.retraction ? " — RETRACTED" : ""}`, ...also].join("\n");
   });
   doc.commentBefore = [
     ` Arrhenia collection: ${oneLineText(header.title)} (version ${header.versionNumber})`,

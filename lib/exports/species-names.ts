@@ -5,12 +5,15 @@
  * then the other elements alphabetically; without carbon, alphabetical), except the few small
  * inorganic species whose usual formula differs from Hill order (HO → OH, H3N → NH3, ClH → HCl…;
  * common practice), with the charge written after it (OH-, H3O+). `deposited` names them by the
- * version's own words instead (spaces made "_", as an equation cannot hold them).
+ * version's own words instead (spaces made "_", as an equation cannot hold them). A species whose
+ * name marks an excited state (O(1D)) keeps that name under either naming: its formula would name
+ * the ground state, which mechanisms write as "O" (lib/chem/excited-state.ts).
  *
  * Two different species (InChIKeys) never share a name in one file: isomers with one formula (or
  * two species a depositor gave one word) each get "-" and the first letters of their InChIKey's
  * skeleton block, as many as it takes to tell them apart (C3H7-KDYF, C3H7-XXXX). Pure.
  */
+import { marksExcitedState } from "@/lib/chem/excited-state";
 import { oneLineText } from "@/lib/text/clean";
 
 export type SpeciesNaming = "formula" | "deposited";
@@ -64,7 +67,10 @@ const depositedToken = (name: string) => oneLineText(name).trim().replace(/\s+/g
 export function mechanismSpeciesNames(species: readonly NamedSpecies[], naming: SpeciesNaming = "formula"): Map<string, string> {
   const unique = [...new Map(species.map((s) => [s.inchiKey, s])).values()];
   const base = new Map(
-    unique.map((s) => [s.inchiKey, naming === "formula" ? formulaName(s.formula, s.charge) : depositedToken(s.depositedName)]),
+    unique.map((s) => [
+      s.inchiKey,
+      naming === "formula" && !marksExcitedState(s.depositedName) ? formulaName(s.formula, s.charge) : depositedToken(s.depositedName),
+    ]),
   );
   const byName = new Map<string, NamedSpecies[]>();
   for (const s of unique) byName.set(base.get(s.inchiKey)!, [...(byName.get(base.get(s.inchiKey)!) ?? []), s]);

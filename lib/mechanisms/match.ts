@@ -7,6 +7,8 @@
  * Reactions: by reaction key in both directions; only data of the mechanism's forward direction
  * are compared with its forward rate, a reverse-direction reaction is marked.
  */
+import { marksExcitedState } from "@/lib/chem/excited-state";
+export { marksExcitedState };
 import { formatHillFormula } from "@/lib/chem/hill-formula";
 import { reactionKey } from "@/lib/chem/reaction-key";
 import type { MechanismParticipant, MechanismReaction, ParsedMechanism } from "./types";
@@ -31,13 +33,45 @@ export interface SpeciesMatch {
   candidates: { inchiKey: string; formula: string; name: string }[];
 }
 
-/** Element counts from a name that reads as a formula ("CH3", "H2O2", "C2H5OH"); null otherwise. */
-export function compositionFromName(name: string): Record<string, number> | null {
-  if (!/^(?:[A-Z][a-z]?\d*)+$/.test(name)) return null;
+/**
+ * Elements a mechanism written in capitals may spell when it declares none: those of combustion and atmospheric
+ * mechanisms (common practice; from memory). Declared elements (an ELEMENTS block) replace them.
+ */
+const USUAL_MECHANISM_ELEMENTS = ["H", "C", "O", "N", "S", "F", "Cl", "Br", "I", "P", "Si", "B", "Ar", "He", "Ne", "Kr", "Xe"];
+
+/**
+ * Element counts from a name that reads as a formula ("CH3", "H2O2", "C2H5OH"); null otherwise. A name in capitals
+ * (the classic layout's habit: "HCL", "C2H5CL", "CH2O") is read with the elements the mechanism declares, two-letter
+ * symbols first ("CL" is chlorine when Cl is declared; "CO" is carbon and oxygen unless cobalt is).
+ */
+export function compositionFromName(name: string, elements: readonly string[] | null = null): Record<string, number> | null {
+  if (/^(?:[A-Z][a-z]?\d*)+$/.test(name) && !(/^[A-Z\d]+$/.test(name) && /[A-Z]{2}/.test(name))) {
+    const out: Record<string, number> = {};
+    for (const m of name.matchAll(/([A-Z][a-z]?)(\d*)/g)) out[m[1]] = (out[m[1]] ?? 0) + (m[2] ? Number(m[2]) : 1);
+    return out;
+  }
+  if (!/^[A-Z][A-Z\d]*$/.test(name)) return null;
+  const allowed = new Set((elements?.length ? elements : USUAL_MECHANISM_ELEMENTS).map(elementSymbol));
+  const read = (at: number): [string, number][] | null => {
+    if (at === name.length) return [];
+    for (const width of [2, 1]) {
+      const symbol = elementSymbol(name.slice(at, at + width));
+      if (symbol.length !== width || !allowed.has(symbol)) continue;
+      const digits = /^\d*/.exec(name.slice(at + width))![0];
+      const rest = read(at + width + digits.length);
+      if (rest) return [[symbol, digits ? Number(digits) : 1], ...rest];
+    }
+    return null;
+  };
+  const parts = read(0);
+  if (!parts || parts.some(([, n]) => n === 0)) return null;
   const out: Record<string, number> = {};
-  for (const m of name.matchAll(/([A-Z][a-z]?)(\d*)/g)) out[m[1]] = (out[m[1]] ?? 0) + (m[2] ? Number(m[2]) : 1);
+  for (const [symbol, n] of parts) out[symbol] = (out[symbol] ?? 0) + n;
   return out;
 }
+
+/** An element symbol as written in formulas: "CL" → "Cl", "c" → "C". */
+const elementSymbol = (s: string) => (s.length === 2 ? s[0].toUpperCase() + s[1].toLowerCase() : s.toUpperCase());
 
 /** Hill formula of a composition with element symbols written as mechanisms do (AR, Ar). */
 export function hillFormulaOf(composition: Record<string, number>): string {
@@ -55,7 +89,7 @@ export function mechanismSpeciesNames(mechanism: ParsedMechanism): { name: strin
   const names = new Set<string>(mechanism.species.map((s) => s.name));
   for (const r of mechanism.reactions) for (const p of [...r.reactants, ...r.products]) names.add(p.name);
   return [...names].map((name) => {
-    const c = composition.get(name) ?? compositionFromName(name);
+    const c = composition.get(name) ?? compositionFromName(name, mechanism.elements ?? null);
     return { name, formula: c ? hillFormulaOf(c) : null };
   });
 }
@@ -94,15 +128,6 @@ export function matchSpecies({
     const candidates = unique([...named, ...sameFormula]).map(brief);
     return { name, by: candidates.length ? "ambiguous" : "none", inchiKey: null, formula, candidates };
   });
-}
-
-/**
- * Whether a name marks an electronically excited state: "excited", "singlet", a "*", or a term symbol of the usual
- * excited states of small species — O(1D), O(1S), N(2D), N(2P), O2(a1Δg), O2(b1Σg+) (common practice of mechanism
- * and data naming; the list is from memory, not exhaustive). Ground-state symbols such as O(3P) are not marks.
- */
-export function marksExcitedState(name: string): boolean {
-  return /excited|singlet|\*|\(\s*(?:1D|1S|2D|2P|a\s*1|b\s*1)/i.test(name);
 }
 
 /** A species every name of which marks an excited state (its names, not its structure, say so: an InChI cannot). */

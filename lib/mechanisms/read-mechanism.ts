@@ -50,5 +50,37 @@ export function readMechanism(text: string, format: MechanismFormat | "auto" = "
       },
     };
   }
-  return { ok: true, mechanism };
+  return { ok: true, mechanism: withUndeclaredDuplicates(mechanism) };
+}
+
+/**
+ * The same reaction written twice (same species on each side, any order, same direction and rate type) with neither
+ * marked as a duplicate, both checked: mechanism tools refuse such a file, and a modeller likely meant one of them. Each is still
+ * judged on its own; the later line is listed as a problem naming the earlier one.
+ */
+function withUndeclaredDuplicates(mechanism: ParsedMechanism): ParsedMechanism {
+  const side = (ps: { name: string; coefficient: number }[]) =>
+    ps
+      .map((p) => `${p.coefficient}*${p.name.toLowerCase()}`)
+      .sort()
+      .join("+");
+  const first = new Map<string, { line: number; duplicate: boolean }>();
+  const problems = [...mechanism.problems];
+  for (const r of mechanism.reactions) {
+    if (r.notChecked !== null) continue; // an unreadable line already has its problem
+    const key = `${side(r.reactants)}|${r.reversible ? "<=>" : "=>"}|${side(r.products)}|${r.rateType}`;
+    const earlier = first.get(key);
+    if (!earlier) {
+      first.set(key, { line: r.line, duplicate: r.duplicate });
+      continue;
+    }
+    if (earlier.duplicate || r.duplicate) continue;
+    problems.push({
+      line: r.line,
+      column: 1,
+      message: `Line ${r.line}: the same reaction as line ${earlier.line}, and neither is marked as a duplicate (DUPLICATE, or \`duplicate: true\` in YAML); mechanism tools refuse this. Each is judged on its own here.`,
+    });
+  }
+  if (problems.length === mechanism.problems.length) return mechanism;
+  return { ...mechanism, problems: problems.sort((a, b) => a.line - b.line || a.column - b.column) };
 }

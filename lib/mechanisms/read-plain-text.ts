@@ -101,6 +101,7 @@ export function readPlainTextMechanism(text: string): ParsedMechanism {
   const problems: MechanismProblem[] = [];
   const species: MechanismSpecies[] = [];
   const speciesNames = new Set<string>();
+  const elements: string[] = [];
   const reactions: Draft[] = [];
   let units = plainTextUnits();
   let section: "none" | "elements" | "species" | "thermo" | "reactions" | "transport" = "none";
@@ -123,6 +124,7 @@ export function readPlainTextMechanism(text: string): ParsedMechanism {
         const closes = endAt >= 0;
         if (closes) rest = rest.slice(0, endAt);
         if (keyword === "species") rest.forEach((name) => addSpecies(name, line));
+        if (keyword === "elements") rest.forEach(addElement);
         if (keyword === "reactions") {
           sawReactions = true;
           const read = readUnitKeywords(rest, line, body, problems);
@@ -139,6 +141,14 @@ export function readPlainTextMechanism(text: string): ParsedMechanism {
     }
     switch (section) {
       case "elements":
+        for (const word of words) {
+          if (word.toUpperCase() === "END") {
+            section = "none";
+            break;
+          }
+          addElement(word);
+        }
+        continue;
       case "thermo":
       case "transport":
         continue;
@@ -164,6 +174,14 @@ export function readPlainTextMechanism(text: string): ParsedMechanism {
     }
   }
   if (!sawReactions) problems.push({ line: 1, column: 1, message: "The file has no REACTIONS block." });
+
+  // "CL", "Cl" → "Cl"; an isotope's mass ("D/2.014/") is not part of its symbol.
+  function addElement(word: string) {
+    const symbol = word.replace(/\/.*$/, "");
+    if (!/^[A-Za-z]{1,2}$/.test(symbol)) return;
+    const written = symbol.length === 2 ? symbol[0].toUpperCase() + symbol[1].toLowerCase() : symbol.toUpperCase();
+    if (!elements.includes(written)) elements.push(written);
+  }
 
   function addSpecies(name: string, line: number) {
     if (speciesNames.has(name)) return;
@@ -292,6 +310,7 @@ export function readPlainTextMechanism(text: string): ParsedMechanism {
     species,
     reactions: reactions.map((d) => finishReaction(d, unitsUnknown)),
     problems: problems.sort((a, b) => a.line - b.line || a.column - b.column),
+    ...(elements.length ? { elements } : {}),
     units: units.words,
   };
 }

@@ -66,6 +66,8 @@ export interface ParsedMechanism {
   species: MechanismSpecies[];
   reactions: MechanismReaction[];
   problems: MechanismProblem[];
+  /** The elements an ELEMENTS block declares (symbols as formulas write them: "Cl"); absent when none is declared. */
+  elements?: string[];
   /** The units the file declared, in words, for the report. */
   units: { rateConstant: string; energy: string };
 }

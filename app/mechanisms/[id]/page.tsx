@@ -56,6 +56,7 @@ export default async function MechanismCheckPage({ params, searchParams }: { par
       verdictWords: VERDICT_WORDS[r.verdict],
       extrapolated: r.extrapolated.map((g) => `${Math.round(g.Tmin)}–${Math.round(g.Tmax)}`).join(", "),
       worstRatio: r.comparison?.worst.ratio ?? null,
+      worstF: r.comparison?.worst.f ?? null,
       worstT: r.comparison?.worst.T ?? null,
       datasets: r.datasets,
       note: r.note,

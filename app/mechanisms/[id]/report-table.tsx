@@ -25,6 +25,8 @@ export interface ReportRow {
   extrapolated: string;
   worstRatio: number | null;
   worstT: number | null;
+  /** The consensus uncertainty factor f at the worst point: how wide "agrees" is there. */
+  worstF: number | null;
   datasets: number;
   note: string;
   reactionPath: string | null;
@@ -56,6 +58,11 @@ const columns = [
   }),
   col.accessor("worstRatio", { header: "k mechanism / k consensus (worst)", cell: (c) => ratioText(c.getValue()), sortUndefined: "last" }),
   col.accessor("worstT", { header: "at T (K)", cell: (c) => (c.getValue() === null ? "" : Math.round(c.getValue() as number)) }),
+  col.accessor("worstF", {
+    header: "Uncertainty factor f there",
+    cell: (c) => (c.getValue() === null ? "" : (c.getValue() as number).toPrecision(2)),
+    sortUndefined: "last",
+  }),
   col.accessor("extrapolated", { header: "Extrapolated (K)" }),
   col.accessor("datasets", { header: "Datasets" }),
   col.accessor("note", { header: "Note", enableSorting: false }),

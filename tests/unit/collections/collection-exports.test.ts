@@ -134,3 +134,51 @@ describe("a collection version's DataCite metadata", () => {
     expect(a.dates).toEqual([{ date: "2026-05-01", dateType: "Issued" }]);
   });
 });
+
+describe("one rate per reaction in the collection's YAML", () => {
+  const header: CollectionExportHeader = {
+    title: "Two of the same",
+    versionNumber: 1,
+    identifier: "10.5072/ARH-CCCC-CCCC/1",
+    landingPage: "https://arrhenia.invalid/c",
+    citation: "Someone (2026).",
+    caution: "Caution.",
+    skipped: [],
+  };
+  // The same reaction from another dataset, its reactants written the other way round.
+  const again: MechanismSubject = {
+    ...bimolecular,
+    title: "Invented OH + CH4, second set",
+    participants: [bimolecular.participants[1], bimolecular.participants[0], ...bimolecular.participants.slice(2)],
+    identifier: "10.5072/ARH-DDDD-DDDD/1",
+    fits: [{ model: "arrhenius", lnA: Math.log(2.6e-12), n: 0, Ea: 15200, T0: 298.15 }],
+  };
+
+  it("writes the first member of a reaction and the others as a comment under it, never as a second (summed) term", () => {
+    const text = buildCollectionCanteraYaml(header, [bimolecular, unimolecular, again], "J/mol");
+    const doc = parse(text);
+    expect(doc.reactions).toHaveLength(2);
+    expect(doc.reactions.some((r: { duplicate?: boolean }) => r.duplicate)).toBe(false);
+    expect(text).toMatch(
+      /# also in this collection for the same reaction, not included \(a mechanism takes one rate per reaction\): doi:10\.5072\/ARH-DDDD-DDDD\/1/,
+    );
+    // The first member's rate is the one written.
+    expect(doc.reactions[0]["rate-constant"].A).toBeCloseTo(2.45e-12 * N_A, -2);
+  });
+
+  it("names an excited-state species by its own name, not by the ground state's formula", () => {
+    const excited = { ...species("FFFFFFFFFFFFFF-UHFFFAOYSA-N", "O", "O(1D)") };
+    const subject: MechanismSubject = {
+      ...bimolecular,
+      title: "Invented O(1D) + CH4",
+      participants: [
+        { ...excited, side: "reactant", coefficient: 1 },
+        { ...ch4, side: "reactant", coefficient: 1 },
+        { ...oh, side: "product", coefficient: 1 },
+        { ...ch3, side: "product", coefficient: 1 },
+      ],
+    };
+    const doc = parse(buildCollectionCanteraYaml(header, [subject], "J/mol"));
+    expect(doc.reactions[0].equation).toMatch(/^O\(1D\) \+ CH4 => /);
+  });
+});

@@ -353,3 +353,39 @@ describe("readMechanism", () => {
     expect(r).toMatchObject({ ok: false, failure: { code: "too_many_reactions", line: 50_003 } });
   });
 });
+
+describe("names in capitals and undeclared duplicates", () => {
+  it("reads HCL, CL and C2H5CL with the declared elements (chlorine, not carbon and an unknown L)", async () => {
+    const { compositionFromName, mechanismSpeciesNames } = await import("@/lib/mechanisms/match");
+    expect(compositionFromName("HCL", ["C", "H", "Cl"])).toEqual({ H: 1, Cl: 1 });
+    expect(compositionFromName("C2H5CL", ["C", "H", "Cl"])).toEqual({ C: 2, H: 5, Cl: 1 });
+    expect(compositionFromName("CL")).toEqual({ Cl: 1 });
+    // CO is carbon monoxide unless cobalt is declared; OH, CH2O and HO2 as before.
+    expect(compositionFromName("CO", ["C", "O", "H"])).toEqual({ C: 1, O: 1 });
+    expect(compositionFromName("CO", ["Co"])).toEqual({ Co: 1 });
+    expect(compositionFromName("OH")).toEqual({ O: 1, H: 1 });
+    expect(compositionFromName("CH2O")).toEqual({ C: 1, H: 2, O: 1 });
+    expect(compositionFromName("C2H5Cl")).toEqual({ C: 2, H: 5, Cl: 1 });
+    expect(compositionFromName("XQ")).toBeNull();
+    const read = readPlainTextMechanism(
+      "ELEMENTS C H CL END\nSPECIES CL CH4 HCL CH3 END\nREACTIONS MOLECULES KELVINS\nCL+CH4=>HCL+CH3  7.1E-12 0.0 1270.0\nEND\n",
+    );
+    expect(read.elements).toEqual(["C", "H", "Cl"]);
+    expect(mechanismSpeciesNames(read).find((n) => n.name === "HCL")?.formula).toBe("ClH");
+  });
+
+  it("lists a reaction written twice without DUPLICATE, naming the earlier line, and still reads both", async () => {
+    const { readMechanism } = await import("@/lib/mechanisms/read-mechanism");
+    const text =
+      "ELEMENTS C H O END\nSPECIES OH CH4 H2O CH3 END\nREACTIONS\nOH+CH4=>H2O+CH3  1.0E13 0.0 3000.0\nCH4+OH=>CH3+H2O  2.0E13 0.0 3000.0\nEND\n";
+    const read = readMechanism(text);
+    expect(read.ok).toBe(true);
+    if (!read.ok) return;
+    expect(read.mechanism.reactions).toHaveLength(2);
+    expect(read.mechanism.problems.map((p) => p.message)).toEqual([
+      expect.stringMatching(/^Line 5: the same reaction as line 4, and neither is marked as a duplicate/),
+    ]);
+    const marked = readMechanism(text.replace("3000.0\nCH4", "3000.0\nDUPLICATE\nCH4").replace("3000.0\nEND", "3000.0\nDUPLICATE\nEND"));
+    expect(marked.ok && marked.mechanism.problems).toEqual([]);
+  });
+});
