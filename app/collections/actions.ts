@@ -8,6 +8,7 @@ import {
   createCollection,
   publishCollection,
   removeCollectionMember,
+  setCollectionMemberNote,
   startCollectionRevision,
   updateCollectionDraft,
 } from "@/lib/collections/queries";
@@ -15,6 +16,7 @@ import {
   addToCollectionFormSchema,
   collectionFormSchema,
   collectionMemberFormSchema,
+  collectionMemberNoteFormSchema,
   editCollectionFormSchema,
   newCollectionFormSchema,
 } from "@/lib/collections/schemas";
@@ -37,13 +39,23 @@ export const addToCollectionAction = protectedAction(
   addToCollectionFormSchema,
   { permission: "collection.manage" },
   async (input, user) => {
-    const { memberCount } = await addCollectionMembers({
+    // A blank note box means no note was typed: a version already in the collection keeps the note it has.
+    const { memberCount, added } = await addCollectionMembers({
       collectionId: input.collectionId,
       actorId: user.id,
-      members: input.versionIds.map((versionId) => ({ versionId, ...(input.note !== undefined ? { note: input.note } : {}) })),
+      members: input.versionIds.map((versionId) => ({ versionId, ...(input.note ? { note: input.note } : {}) })),
     });
     revalidatePath(collectionPath(input.collectionId));
-    return { status: "ok", message: `Added: the collection now holds ${memberCount} ${memberCount === 1 ? "version" : "versions"}.` };
+    const already = input.versionIds.length - added;
+    const versions = (n: number) => `${n} ${n === 1 ? "version" : "versions"}`;
+    const alreadyWords =
+      already === 0
+        ? ""
+        : ` ${already === input.versionIds.length ? (already === 1 ? "It was" : "They were") : `${versions(already)} ${already === 1 ? "was" : "were"}`} already in it${input.note ? " (note replaced)" : " (note kept)"}.`;
+    return {
+      status: "ok",
+      message: `${added ? `Added ${versions(added)}.` : "Nothing new added."}${alreadyWords} The collection now holds ${versions(memberCount)}.`,
+    };
   },
 );
 
@@ -52,6 +64,16 @@ export const editCollectionAction = protectedAction(editCollectionFormSchema, { 
   revalidatePath(collectionPath(input.collectionId));
   return { status: "ok", message: "Saved." };
 });
+
+export const memberNoteAction = protectedAction(
+  collectionMemberNoteFormSchema,
+  { permission: "collection.manage" },
+  async (input, user) => {
+    await setCollectionMemberNote({ collectionId: input.collectionId, actorId: user.id, versionId: input.versionId, note: input.note });
+    revalidatePath(collectionPath(input.collectionId));
+    return { status: "ok", message: input.note ? "Note saved." : "Note removed." };
+  },
+);
 
 export const removeMemberAction = protectedAction(collectionMemberFormSchema, { permission: "collection.manage" }, async (input, user) => {
   await removeCollectionMember({ collectionId: input.collectionId, actorId: user.id, versionId: input.versionId });

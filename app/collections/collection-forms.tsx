@@ -9,6 +9,7 @@ import {
   createCollectionAction,
   editCollectionAction,
   publishCollectionAction,
+  memberNoteAction,
   removeMemberAction,
   reviseCollectionAction,
 } from "./actions";
@@ -140,6 +141,38 @@ export function RemoveMemberButton({ collectionId, versionId, label }: { collect
         Remove<span className="sr-only"> {label}</span>
       </SubmitButton>
       {state.status === "error" && <p className="text-sm text-error">{state.message}</p>}
+    </form>
+  );
+}
+
+/** A draft member's note: change it or, emptied, remove it. */
+export function MemberNoteForm({
+  collectionId,
+  versionId,
+  note,
+  label,
+}: {
+  collectionId: number;
+  versionId: number;
+  note: string | null;
+  label: string;
+}) {
+  const [state, action] = useActionState(memberNoteAction, idleState);
+  const id = `note-${versionId}`;
+  return (
+    <form action={action} className="flex flex-wrap items-end gap-2 text-sm">
+      <input type="hidden" name="collectionId" value={collectionId} />
+      <input type="hidden" name="versionId" value={versionId} />
+      <label className="min-w-0 flex-1 space-y-1" htmlFor={id}>
+        <span className="block">
+          Note<span className="sr-only"> on {label}</span>
+        </span>
+        <input id={id} name="note" maxLength={500} defaultValue={note ?? ""} placeholder="used for R12" className="field-input w-full" />
+      </label>
+      <SubmitButton className="btn-secondary py-1">
+        Save note<span className="sr-only"> on {label}</span>
+      </SubmitButton>
+      <FormMessage state={state} />
     </form>
   );
 }

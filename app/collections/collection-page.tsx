@@ -15,7 +15,7 @@ import { collectionPath, collectionVersionPath, versionPath } from "@/lib/identi
 import { reactionPath } from "@/lib/reactions/paths";
 import { WatchToggle } from "@/app/watches/watch-forms";
 import { readWatchState } from "@/app/watches/watch-control";
-import { CollectionStepButton, EditCollectionForm, RemoveMemberButton } from "./collection-forms";
+import { CollectionStepButton, EditCollectionForm, MemberNoteForm, RemoveMemberButton } from "./collection-forms";
 import { notFound } from "next/navigation";
 
 const CITATION_DOWNLOADS = [
@@ -161,7 +161,11 @@ export async function CollectionVersionPage({ view }: { view: CollectionVersionV
                     </p>
                   )}
                   {p?.citation && <p className="text-xs text-muted">{p.citation}</p>}
-                  {m.note && <p className="text-sm">Note: {m.note}</p>}
+                  {isOwner && version.state === "draft" ? (
+                    <MemberNoteForm collectionId={collectionId} versionId={m.versionId} note={m.note} label={label} />
+                  ) : (
+                    m.note && <p className="text-sm">Note: {m.note}</p>
+                  )}
                 </li>
               );
             })}

@@ -720,6 +720,17 @@ export const API_ENDPOINTS: Endpoint[] = [
     errors: [401, 403, 413, 422],
   },
   {
+    method: "DELETE",
+    path: "/api/v1/mechanism-checks/species-choices",
+    scope: "deposit:read",
+    who: "signed-in people: their own choices",
+    tag: "Mechanisms",
+    summary: "Forget one remembered choice (the next check matches that name by name and composition again)",
+    query: queryOf({ name: z.string().min(1).max(200).describe("The species name as the mechanism writes it") }, { name: "C2H5OH" }),
+    ok: { status: 200, contentType: JSON_TYPE, description: "{ data: { forgotten } }" },
+    errors: [400, 401, 403, 404],
+  },
+  {
     method: "POST",
     path: "/api/v1/mechanism-checks/:id/rerun",
     scope: "deposit:read",

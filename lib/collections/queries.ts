@@ -145,8 +145,9 @@ async function checkMembersOrThrow(tx: Transaction, members: MemberInput[], acto
 }
 
 /** Adds checked members to a draft (a member already there keeps its place; a new note replaces its note). */
-async function writeMembers(tx: Transaction, collectionVersionId: number, members: MemberInput[]): Promise<void> {
-  if (members.length === 0) return;
+/** Writes members into a draft; a version already in it keeps its place, and its note unless a note is given. How many were new. */
+async function writeMembers(tx: Transaction, collectionVersionId: number, members: MemberInput[]): Promise<{ added: number }> {
+  if (members.length === 0) return { added: 0 };
   const [{ count, top }] = await tx.execute<{ count: number; top: number }>(
     sql`select count(*)::int as count, coalesce(max(position), 0)::int as top from collection_members where collection_version_id = ${collectionVersionId}`,
   );
@@ -182,6 +183,7 @@ async function writeMembers(tx: Transaction, collectionVersionId: number, member
     .update(collectionVersions)
     .set({ updatedAt: sql`now()` })
     .where(eq(collectionVersions.id, collectionVersionId));
+  return { added: added.length };
 }
 
 /**
@@ -261,12 +263,12 @@ export async function addCollectionMembers({
   collectionId: number;
   actorId: number;
   members: MemberInput[];
-}): Promise<{ number: number; memberCount: number }> {
+}): Promise<{ number: number; memberCount: number; added: number }> {
   return getDb().transaction(async (tx) => {
     await ownedCollectionOrThrow(tx, collectionId, actorId);
     const draft = await draftOrThrow(tx, collectionId);
     await checkMembersOrThrow(tx, members, actorId);
-    await writeMembers(tx, draft.id, members);
+    const { added } = await writeMembers(tx, draft.id, members);
     await recordAuditEvent(tx, {
       actorId,
       action: "collection.add",
@@ -277,7 +279,38 @@ export async function addCollectionMembers({
     const [{ n }] = await tx.execute<{ n: number }>(
       sql`select count(*)::int as n from collection_members where collection_version_id = ${draft.id}`,
     );
-    return { number: draft.number, memberCount: Number(n) };
+    return { number: draft.number, memberCount: Number(n), added };
+  });
+}
+
+/** Sets (or, with null, clears) the note of one member of the draft; a 404 naming it when it is not there. */
+export async function setCollectionMemberNote({
+  collectionId,
+  actorId,
+  versionId,
+  note,
+}: {
+  collectionId: number;
+  actorId: number;
+  versionId: number;
+  note: string | null;
+}): Promise<void> {
+  await getDb().transaction(async (tx) => {
+    await ownedCollectionOrThrow(tx, collectionId, actorId);
+    const draft = await draftOrThrow(tx, collectionId);
+    const changed = await tx
+      .update(collectionMembers)
+      .set({ note })
+      .where(and(eq(collectionMembers.collectionVersionId, draft.id), eq(collectionMembers.versionId, versionId)))
+      .returning({ versionId: collectionMembers.versionId });
+    if (!changed.length) throw new AppError("not_found", `Version ${versionId} is not in this collection's draft`);
+    await recordAuditEvent(tx, {
+      actorId,
+      action: "collection.note",
+      subjectType: "collection",
+      subjectId: collectionId,
+      details: { number: draft.number, versionId },
+    });
   });
 }
 

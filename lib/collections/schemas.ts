@@ -66,6 +66,7 @@ export const addToCollectionFormSchema = z.object({
 });
 export const editCollectionFormSchema = z.object({ collectionId: idFor("collection"), title, description: description.default("") });
 export const collectionMemberFormSchema = z.object({ collectionId: idFor("collection"), versionId: idFor("version") });
+export const collectionMemberNoteFormSchema = collectionMemberFormSchema.extend({ note: note.default("") });
 export const collectionFormSchema = z.object({ collectionId: idFor("collection") });
 
 /** GET /api/v1/collections/:id/versions/:n/citation: the format, the style of `text`, and `members=1` for every member's citation after the collection's. */

@@ -105,6 +105,15 @@ export async function listSpeciesChoices({ userId }: { userId: number }) {
 }
 
 /** Remembers (or replaces) a person's choices; returns the InChIKeys that name no species. */
+/** Forgets one of a person's remembered choices; false when there was none under that name. */
+export async function forgetSpeciesChoice({ userId, name }: { userId: number; name: string }): Promise<boolean> {
+  const gone = await getDb()
+    .delete(speciesMappingChoices)
+    .where(and(eq(speciesMappingChoices.userId, userId), eq(speciesMappingChoices.name, name)))
+    .returning({ name: speciesMappingChoices.name });
+  return gone.length > 0;
+}
+
 export async function saveSpeciesChoices({ userId, choices }: { userId: number; choices: { name: string; inchiKey: string }[] }) {
   if (!choices.length) return { unknown: [] as string[] };
   const found = await getDb()

@@ -445,3 +445,22 @@ describe("the comparison basis kept with each reaction's search summary", () => 
     expect(kept.engine).not.toBe("kinetics-0");
   });
 });
+
+describe("forgetting a remembered choice", () => {
+  it("forgets one of the person's own choices, 404 for one they do not have, 400 without a name", async () => {
+    const { DELETE: forget } = await import("@/app/api/v1/mechanism-checks/species-choices/route");
+    const call = (query: string) => forget(req(`/api/v1/mechanism-checks/species-choices${query}`, { method: "DELETE" }), ctx());
+    as(other);
+    await saveSpeciesChoices({
+      userId: other.id,
+      choices: [{ name: "HBR", inchiKey: (await sql`select inchi_key from species limit 1`)[0].inchi_key }],
+    });
+    expect((await call("?name=HBR")).status).toBe(200);
+    expect((await call("?name=HBR")).status).toBe(404);
+    expect((await call("")).status).toBe(400);
+    // The owner's own choice of the same name is untouched.
+    expect((await sql`select count(*)::int as n from species_mapping_choices where user_id = ${owner.id} and name = 'HBR'`)[0].n).toBe(1);
+    as(null);
+    expect((await call("?name=HBR")).status).toBe(401);
+  });
+});

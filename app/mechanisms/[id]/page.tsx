@@ -1,5 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { ScrollRegion } from "@/components/scroll-region";
+import { ForgetChoiceButton } from "./forget-choice";
 import { notFound } from "next/navigation";
 import { ConsensusPlot, type SeriesPoints } from "@/components/consensus-plot";
 import { getCurrentUser } from "@/lib/auth/session";
@@ -146,32 +148,42 @@ export default async function MechanismCheckPage({ params, searchParams }: { par
             </p>
             {isOwner && unsettled.length > 0 && <SpeciesChooser checkId={check.id} rows={unsettled} />}
             {isOwner && <MappingUpload />}
-            <table className="text-sm">
-              <thead>
-                <tr>
-                  <th className="px-2 text-left">Name in the mechanism</th>
-                  <th className="px-2 text-left">Matched by</th>
-                  <th className="px-2 text-left">Species</th>
-                </tr>
-              </thead>
-              <tbody>
-                {report.species.map((s) => (
-                  <tr key={s.name} className="border-t">
-                    <td className="px-2">{s.name}</td>
-                    <td className="px-2">{SPECIES_MATCH_WORDS[s.by]}</td>
-                    <td className="px-2">
-                      {s.inchiKey ? (
-                        <Link className="underline" href={`/species/${s.inchiKey}`}>
-                          {s.candidates[0]?.name ?? s.inchiKey}
-                        </Link>
-                      ) : (
-                        s.candidates.map((c) => `${c.name} (${c.formula})`).join(", ")
-                      )}
-                    </td>
+            <ScrollRegion label="Species of the mechanism and their matches">
+              <table className="text-sm">
+                <thead>
+                  <tr>
+                    <th className="px-2 text-left">Name in the mechanism</th>
+                    <th className="px-2 text-left">Matched by</th>
+                    <th className="px-2 text-left">Species</th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody>
+                  {report.species.map((s) => (
+                    <tr key={s.name} className="border-t">
+                      <td className="px-2">{s.name}</td>
+                      <td className="px-2">
+                        {SPECIES_MATCH_WORDS[s.by]}
+                        {isOwner && s.by === "choice" && (
+                          <>
+                            {" "}
+                            <ForgetChoiceButton checkId={check.id} name={s.name} />
+                          </>
+                        )}
+                      </td>
+                      <td className="px-2">
+                        {s.inchiKey ? (
+                          <Link className="underline" href={`/species/${s.inchiKey}`}>
+                            {s.candidates[0]?.name ?? s.inchiKey}
+                          </Link>
+                        ) : (
+                          s.candidates.map((c) => `${c.name} (${c.formula})`).join(", ")
+                        )}
+                      </td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </ScrollRegion>
           </section>
           {report.problems.length > 0 && (
             <section aria-labelledby="problems-heading">

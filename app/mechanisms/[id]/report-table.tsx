@@ -148,7 +148,11 @@ export function ReportTable({ rows }: { rows: ReportRow[] }) {
             {table.getRowModel().rows.map((r) => (
               <tr key={r.id} className="border-t" data-verdict={r.original.verdict}>
                 {r.getVisibleCells().map((c) => (
-                  <td key={c.id} className="px-2 py-1 align-top">
+                  // The note and the reaction get room to read (the table scrolls sideways on a phone instead of growing tall).
+                  <td
+                    key={c.id}
+                    className={`px-2 py-1 align-top ${c.column.id === "note" ? "min-w-64" : c.column.id === "equation" ? "min-w-40" : ""}`}
+                  >
                     {flexRender(c.column.columnDef.cell, c.getContext())}
                   </td>
                 ))}

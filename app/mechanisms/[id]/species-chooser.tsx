@@ -1,5 +1,6 @@
 "use client";
 
+import { marksExcitedState } from "@/lib/chem/excited-state";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 
@@ -61,15 +62,16 @@ export function SpeciesChooser({ checkId, rows }: { checkId: number; rows: Choos
   return (
     <div className="card space-y-3" data-testid="species-chooser">
       <h3 className="font-semibold">Choose the species the check could not settle</h3>
-      <table className="w-full text-sm">
-        <thead>
+      {/* On a phone each name is a block of its own (three columns of inputs do not fit 390 px). */}
+      <table className="w-full text-sm max-sm:block">
+        <thead className="max-sm:sr-only">
           <tr>
             <th className="px-2 text-left">Name in the mechanism</th>
             <th className="px-2 text-left">Why</th>
             <th className="px-2 text-left">Your choice</th>
           </tr>
         </thead>
-        <tbody>
+        <tbody className="max-sm:block">
           {rows.map((row) => (
             <ChooserRowView
               key={row.name}
@@ -97,6 +99,15 @@ export function SpeciesChooser({ checkId, rows }: { checkId: number; rows: Choos
       )}
     </div>
   );
+}
+
+/** Why a name is left to the person, in words: one excited-state candidate is not "several". */
+function whyWords(row: ChooserRow): string {
+  if (row.by !== "ambiguous") return "nothing found by name or composition";
+  const of = row.formula ? ` of ${row.formula}` : "";
+  if (row.candidates.length === 1 && marksExcitedState(row.candidates[0].name))
+    return `only one species${of}, and it is an excited state: a mechanism's plain name usually means the ground state. Choose it only if that is what the mechanism means; otherwise leave it unmatched.`;
+  return `several candidates${of}`;
 }
 
 function ChooserRowView({
@@ -128,12 +139,10 @@ function ChooserRowView({
 
   const label = (c: { name: string; formula: string }) => `${c.name} (${c.formula})`;
   return (
-    <tr className="border-t align-top" data-species={row.name}>
-      <td className="px-2 py-1 font-mono">{row.name}</td>
-      <td className="px-2 py-1">
-        {row.by === "ambiguous" ? `several candidates${row.formula ? ` of ${row.formula}` : ""}` : "nothing found by name or composition"}
-      </td>
-      <td className="space-y-1 px-2 py-1">
+    <tr className="border-t align-top max-sm:block max-sm:py-2" data-species={row.name}>
+      <td className="px-2 py-1 font-mono max-sm:block">{row.name}</td>
+      <td className="px-2 py-1 max-sm:block">{whyWords(row)}</td>
+      <td className="space-y-1 px-2 py-1 max-sm:block">
         {row.candidates.length > 0 && (
           <div>
             <label htmlFor={`${id}-candidate`} className="sr-only">
@@ -163,7 +172,7 @@ function ChooserRowView({
           </label>
           <input
             id={`${id}-search`}
-            className="field-input w-56"
+            className="field-input w-56 max-w-full"
             placeholder="Name, formula, SMILES or InChI"
             value={text}
             onChange={(e) => setText(e.target.value)}

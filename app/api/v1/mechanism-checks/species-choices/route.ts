@@ -1,10 +1,11 @@
-// POST /api/v1/mechanism-checks/species-choices — remember which species a mechanism name stands for (JSON or the mapping CSV)
+// POST /api/v1/mechanism-checks/species-choices — remember which species a mechanism name stands for (JSON or the mapping CSV);
+// DELETE ?name=<name> — forget one remembered choice
 import { NextResponse } from "next/server";
 import { withApi, zodToFieldErrors } from "@/lib/auth/api";
 import { AppError } from "@/lib/errors";
 import { BODY_LIMITS, parseJsonBytesOrThrow, readBodyOrThrow } from "@/lib/http/read-body";
 import { readSpeciesMappingCsv } from "@/lib/mechanisms/mapping";
-import { saveSpeciesChoices } from "@/lib/mechanisms/queries";
+import { forgetSpeciesChoice, saveSpeciesChoices } from "@/lib/mechanisms/queries";
 import { speciesChoicesBodySchema } from "@/lib/mechanisms/request";
 
 export const POST = withApi(
@@ -43,6 +44,24 @@ export const POST = withApi(
       throw new AppError("validation_failed", errors[0].message, errors.slice(0, 100));
     }
     return NextResponse.json({ data: { saved: choices.length } });
+  },
+  { permission: "mechanism.check", scope: "deposit:read" },
+);
+
+export const DELETE = withApi(
+  async ({ req, user }) => {
+    const names = new URL(req.url).searchParams.getAll("name");
+    if (names.length !== 1 || !names[0].trim() || names[0].length > 200)
+      throw new AppError("bad_request", "Name the one mechanism name whose choice to forget", [
+        {
+          pointer: "/name",
+          parameter: "name",
+          message: "Required once: the species name as the mechanism writes it (at most 200 characters)",
+        },
+      ]);
+    const forgotten = await forgetSpeciesChoice({ userId: user!.id, name: names[0] });
+    if (!forgotten) throw new AppError("not_found", `You have no remembered choice for “${names[0]}”`);
+    return NextResponse.json({ data: { forgotten: names[0] } });
   },
   { permission: "mechanism.check", scope: "deposit:read" },
 );

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { getCurrentUser } from "@/lib/auth/session";
 import { notFound } from "next/navigation";
 import { getCollection } from "@/lib/collections/queries";
 import { collectionVersionPath } from "@/lib/identifiers/paths";
@@ -12,9 +13,12 @@ export async function generateMetadata({ params }: Params): Promise<Metadata> {
   const { id: rawId, n } = await params;
   const id = parseIdOrNull(rawId);
   const number = parseIdOrNull(n);
-  const found = id === null || number === null ? null : await getCollection({ collectionId: id, viewerId: null });
+  const viewer = await getCurrentUser();
+  const found = id === null || number === null ? null : await getCollection({ collectionId: id, viewerId: viewer?.id ?? null });
   const version = found?.versions.find((v) => v.number === number);
   if (!found || !version) return NOT_FOUND_METADATA;
+  if (version.state === "draft")
+    return { title: `${version.title} (draft of version ${version.number})`, robots: { index: false, follow: false } };
   return publicPageMetadata({
     title: `${version.title} (version ${version.number})`,
     description: `A collection of ${version.memberCount} rate-constant dataset versions, made by ${found.ownerName}.`,
