@@ -100,6 +100,10 @@ export default async function HomePage() {
             Find every dataset for a reaction over your temperature window, compare them on one plot, and take parameters with units and a
             citation of the exact version.
           </p>
+          <p className="text-sm text-muted">
+            Signed in, <Link href="/mechanisms">check a whole mechanism</Link> (Cantera YAML or the classic plain-text layout) against the
+            published data, and keep the versions you use as a citable <Link href="/collections">collection</Link>.
+          </p>
         </div>
       </section>
     </div>

@@ -62,8 +62,8 @@ export default async function NewCollectionPage({ searchParams }: { searchParams
         <h1 className="text-3xl font-semibold">New collection</h1>
         {from ? (
           <p>
-            The published versions the consensus of each matched reaction of {from} uses. Untick any you do not want; you can add and remove
-            versions later, until you publish the collection.
+            These are the published versions behind the consensus of each reaction that {from} matched. Untick any you do not want; you can
+            add and remove versions later, until you publish the collection.
           </p>
         ) : (
           <p>A title now; versions from here or later, from a dataset, a reaction, a search or a mechanism check.</p>

@@ -34,6 +34,7 @@ export interface ReportRow {
 }
 
 const col = createColumnHelper<ReportRow>();
+const VERDICT_RANK: Record<string, number> = { disagrees: 0, extrapolated: 1, no_data: 2, not_checked: 3, agrees: 4 };
 const ratioText = (r: number | null) => (r === null ? "" : r >= 100 || r < 0.01 ? r.toExponential(1) : r.toPrecision(2));
 
 const columns = [
@@ -52,6 +53,8 @@ const columns = [
   col.accessor("verdictWords", {
     id: "verdict",
     header: "Verdict",
+    // Problems first when sorted: disagrees, extrapolated, no data, not checked, agrees.
+    sortingFn: (a, b) => VERDICT_RANK[a.original.verdict] - VERDICT_RANK[b.original.verdict],
     // "extrapolated" also finds the reactions that agree or disagree but are used beyond the data.
     filterFn: (row, _id, value: string) =>
       !value || row.original.verdict === value || (value === "extrapolated" && row.original.extrapolated !== ""),
@@ -64,7 +67,7 @@ const columns = [
     sortUndefined: "last",
   }),
   col.accessor("extrapolated", { header: "Extrapolated (K)" }),
-  col.accessor("datasets", { header: "Datasets" }),
+  col.accessor("datasets", { header: "Datasets published" }),
   col.accessor("note", { header: "Note", enableSorting: false }),
   col.display({
     id: "plot",
@@ -145,6 +148,13 @@ export function ReportTable({ rows }: { rows: ReportRow[] }) {
             ))}
           </thead>
           <tbody>
+            {table.getRowModel().rows.length === 0 && (
+              <tr>
+                <td colSpan={columns.length} className="px-2 py-3 text-muted">
+                  No reaction matches these filters; clear them to see every reaction.
+                </td>
+              </tr>
+            )}
             {table.getRowModel().rows.map((r) => (
               <tr key={r.id} className="border-t" data-verdict={r.original.verdict}>
                 {r.getVisibleCells().map((c) => (
