@@ -6,7 +6,7 @@ import type { Mol } from "@rdkit/rdkit";
 import { NUCLIDE_MASSES, STANDARD_ATOMIC_WEIGHTS, getElementSymbol } from "./atomic-weights";
 import { ChemError } from "./chem-error";
 import { formatHillFormula, orderHill } from "./hill-formula";
-import { computeInchiKey, parseSmilesOrThrow, quoteInput } from "./load-rdkit";
+import { computeInchiKey, discardToolkitAfterTrap, parseSmilesOrThrow, quoteInput } from "./load-rdkit";
 import { readInchiComposition, STANDARD_INCHI_PREFIX } from "./read-inchi";
 
 /** What the repository stores about one species. */
@@ -181,6 +181,19 @@ async function inchiKeyOrThrow(inchi: string): Promise<string> {
  * @example await describeSpecies({ smiles: "[OH]" }) // formula "HO", molarMass 17.007, radicalElectrons 1
  */
 export async function describeSpecies(input: SpeciesInput): Promise<SpeciesIdentity> {
+  try {
+    return await describeSpeciesOnce(input);
+  } catch (err) {
+    const smiles = input.smiles?.trim();
+    throw discardToolkitAfterTrap(
+      err,
+      smiles ? `the SMILES ${quoteInput(smiles)}` : `the InChI ${quoteInput(input.inchi?.trim() ?? "")}`,
+      smiles ? "smiles" : "inchi",
+    );
+  }
+}
+
+async function describeSpeciesOnce(input: SpeciesInput): Promise<SpeciesIdentity> {
   const smiles = input.smiles?.trim() || undefined;
   const inchi = input.inchi?.trim() || undefined;
   if (!smiles && !inchi) {

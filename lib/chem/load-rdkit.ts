@@ -67,6 +67,22 @@ async function getToolkit(): Promise<Toolkit> {
 }
 
 /**
+ * After a WebAssembly trap (a structure that overruns RDKit's memory or stack: "memory access out of bounds") the
+ * instance's state cannot be trusted — every later call may fail — so it is dropped and the next call loads a fresh
+ * one. Returns the error to throw instead: a ChemError naming the input.
+ */
+export function discardToolkitAfterTrap(err: unknown, what: string, field: "smiles" | "inchi"): unknown {
+  if (!(err instanceof WebAssembly.RuntimeError)) return err;
+  delete (globalThis as ToolkitCache)[CACHE_KEY];
+  console.error(`[chem] RDKit trapped on ${what}; a fresh instance will be loaded`, err.message);
+  return new ChemError(
+    field === "smiles" ? "invalid_smiles" : "invalid_inchi",
+    `Could not read ${what} (the structure is beyond what the chemistry toolkit can read)`,
+    field,
+  );
+}
+
+/**
  * RDKit MinimalLib, loaded on first use (≈0.3–0.6 s) and shared by every later call in the
  * process. Example: `const rdkit = await getRdkit(); rdkit.version()`.
  */
@@ -129,7 +145,12 @@ export async function parseSmilesOrThrow(smiles: string): Promise<Mol> {
   const { rdkit, errorLog } = await getToolkit();
   // get_mol runs synchronously, so nothing else can write to the log between these calls.
   errorLog?.clear_buffer();
-  const mol = rdkit.get_mol(text);
+  let mol: Mol | null;
+  try {
+    mol = rdkit.get_mol(text);
+  } catch (err) {
+    throw discardToolkitAfterTrap(err, `the SMILES ${quoteInput(text)}`, "smiles");
+  }
   const logged = errorLog?.get_buffer() ?? "";
   errorLog?.clear_buffer();
   if (!mol)

@@ -2,7 +2,7 @@
  * 2D depiction of a species as an SVG string that can be placed directly in a page.
  */
 import { ChemError } from "./chem-error";
-import { parseSmilesOrThrow } from "./load-rdkit";
+import { discardToolkitAfterTrap, parseSmilesOrThrow } from "./load-rdkit";
 
 /** Size of a depiction, in CSS pixels. */
 export interface DrawingSize {
@@ -49,7 +49,13 @@ export async function renderSpeciesSvg(smiles: string, size: DrawingSize = {}): 
       throw new ChemError("unsupported_species", `RDKit could not draw the SMILES "${smiles.trim().slice(0, 80)}".`, "smiles");
     }
     return svg;
+  } catch (err) {
+    throw discardToolkitAfterTrap(err, `the SMILES "${smiles.trim().slice(0, 80)}"`, "smiles");
   } finally {
-    mol.delete();
+    try {
+      mol.delete();
+    } catch {
+      // a trapped instance is already dropped
+    }
   }
 }

@@ -82,8 +82,15 @@ export async function installQueues(connectionString = databaseUrl()): Promise<v
   for (const name of queues) {
     if (!(await boss.getQueue(name))) await boss.createQueue(name, { name, ...retryPolicy, ...queueOptions[name] });
   }
+  // pg-boss's own queue for scheduled (cron) jobs: its timekeeper creates it when a worker starts, as the runtime role,
+  // which may not create tables, and ignores the failure — then no scheduled job (the mechanism-check sweep, the
+  // daily digest) ever runs. Made here by the schema owner.
+  if (!(await boss.getQueue(CRON_QUEUE))) await boss.createQueue(CRON_QUEUE);
   await boss.stop({ graceful: false, wait: true });
 }
+
+/** pg-boss's internal queue of due scheduled jobs (node_modules/pg-boss/src/timekeeper.js, QUEUES.SEND_IT). */
+export const CRON_QUEUE = "__pgboss__send-it";
 
 /** pg-boss's numbered-parameter SQL ($1, $2 …) as a Drizzle query with the same parameters. */
 function toDrizzleSql(text: string, values: unknown[]): SQL {

@@ -6,7 +6,11 @@
  * (three-body, falloff, chemically-activated, pressure-dependent-Arrhenius, Chebyshev, …) is listed
  * as not checked yet. Values may carry their own units ("1.0e13 cm^3/mol/s", "10 kcal/mol").
  */
-import { Alias, isAlias, isMap, isScalar, isSeq, LineCounter, parseDocument, type Document, type Node, type YAMLMap } from "yaml";
+import { Alias, isAlias, isMap, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type Node, type YAMLMap } from "yaml";
+import { MAX_MECHANISM_REACTIONS } from "./limits";
+
+/** The most YAML aliases a mechanism file may use. */
+export const MAX_YAML_ALIASES = 100;
 import { readEquation, sideOrder } from "./equation";
 import {
   canonicalActivationEnergy,
@@ -52,6 +56,25 @@ export function readCanteraYamlMechanism(text: string): ParsedMechanism {
   const species: MechanismSpecies[] = [];
   const reactions: MechanismReaction[] = [];
   const root = doc.contents;
+  // Aliases (*name) repeat a node without its text: thousands of them stall the reader (each resolves by walking the
+  // document) or multiply a list into millions of reactions. Mechanism files have no use for many; beyond
+  // MAX_YAML_ALIASES nothing is read.
+  let aliases = 0;
+  let firstAlias: Node | null = null;
+  visit(doc, {
+    Alias(_key, node) {
+      aliases += 1;
+      firstAlias ??= node as unknown as Node;
+      return aliases > MAX_YAML_ALIASES ? visit.BREAK : undefined;
+    },
+  });
+  if (aliases > MAX_YAML_ALIASES) {
+    report(
+      firstAlias,
+      `more than ${MAX_YAML_ALIASES} YAML aliases (*name) in the file; a mechanism is read only with at most ${MAX_YAML_ALIASES} (write the entries out in full).`,
+    );
+    return finish();
+  }
   if (!isMap(root)) {
     if (problems.length === 0) report(root, "the file is not a YAML mapping with `units`, `species` and `reactions`.");
     return finish();
@@ -79,6 +102,8 @@ export function readCanteraYamlMechanism(text: string): ParsedMechanism {
     const entries = list.items.map((i) => resolve(i as Node, doc));
     if (!entries.some((e) => isMap(e) && e.has("equation"))) continue;
     for (const entry of entries) {
+      // Beyond the limit the check is refused anyway (read-mechanism.ts): no need to read the rest.
+      if (reactions.length > MAX_MECHANISM_REACTIONS) break;
       if (!isMap(entry)) {
         report(entry, `an entry of \`${key}\` that is not a reaction mapping.`);
         continue;

@@ -11,7 +11,9 @@ export type ReadMechanismResult =
   | { ok: true; mechanism: ParsedMechanism }
   | {
       ok: false;
-      failure: PrecheckFailure | { code: "too_many_reactions" | "not_a_mechanism"; line: number; column: number; message: string };
+      failure:
+        | PrecheckFailure
+        | { code: "too_many_reactions" | "not_a_mechanism" | "no_reactions"; line: number; column: number; message: string };
     };
 
 /** Which format the text is in: YAML keys at the start of a line, else the block keywords. */
@@ -46,7 +48,22 @@ export function readMechanism(text: string, format: MechanismFormat | "auto" = "
         code: "too_many_reactions",
         line: over.line,
         column: 1,
-        message: `The mechanism has ${mechanism.reactions.length} reactions; at most ${MAX_MECHANISM_REACTIONS} can be checked at once (the ${MAX_MECHANISM_REACTIONS + 1}th is on line ${over.line}).`,
+        message: `The mechanism has more than ${MAX_MECHANISM_REACTIONS} reactions; at most ${MAX_MECHANISM_REACTIONS} can be checked at once (the ${MAX_MECHANISM_REACTIONS + 1}th is on line ${over.line}).`,
+      },
+    };
+  }
+  // Nothing to check: refused at once with the first problem (or the plain fact), not queued.
+  if (mechanism.reactions.length === 0) {
+    const first = mechanism.problems[0];
+    return {
+      ok: false,
+      failure: {
+        code: "no_reactions",
+        line: first?.line ?? 1,
+        column: first?.column ?? 1,
+        message: first
+          ? `No reaction could be read. ${first.message}${mechanism.problems.length > 1 ? ` (and ${mechanism.problems.length - 1} more problems)` : ""}`
+          : "The mechanism has no reactions to check.",
       },
     };
   }

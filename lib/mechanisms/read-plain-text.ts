@@ -358,13 +358,28 @@ function readUnitKeywords(words: string[], line: number, body: string, problems:
   let energy = "CAL/MOLE";
   let quantity = "MOLES";
   let ok = true;
+  let energyGiven: string | null = null;
+  let quantityGiven: string | null = null;
   for (const word of words) {
     const upper = word.toUpperCase();
-    if (upper in PLAIN_ENERGY_KEYWORDS) energy = upper;
-    else if (upper in PLAIN_QUANTITY_KEYWORDS) quantity = upper;
-    else {
+    const col = body.indexOf(word) + 1;
+    // Two energy units (or two quantities) contradict each other: which one the file means cannot be known.
+    const contradicts = (kind: string, earlier: string | null) => {
+      if (earlier === null || earlier === upper) return false;
       ok = false;
-      const col = body.indexOf(word) + 1;
+      problems.push({
+        line,
+        column: col,
+        message: `Line ${line}, column ${col}: the ${kind} unit is given twice, as ${earlier} and as ${upper}; give one. No reaction is checked until it is corrected.`,
+      });
+      return true;
+    };
+    if (upper in PLAIN_ENERGY_KEYWORDS) {
+      if (!contradicts("energy", energyGiven)) energy = energyGiven = upper;
+    } else if (upper in PLAIN_QUANTITY_KEYWORDS) {
+      if (!contradicts("quantity", quantityGiven)) quantity = quantityGiven = upper;
+    } else {
+      ok = false;
       problems.push({
         line,
         column: col,

@@ -21,6 +21,8 @@ import type { MechanismVerdict, ReactionVerdict } from "./verdicts";
 
 /** Problems kept in a report (the count says how many there were). */
 export const MAX_REPORTED_PROBLEMS = 1000;
+/** The most DUPLICATE entries of one reaction judged together as their sum. */
+export const MAX_DUPLICATE_TERMS = 20;
 /** Matched reactions judged per worker task. */
 const JUDGE_BATCH = 200;
 /** Reactions whose data are read from the database in one statement. */
@@ -126,19 +128,28 @@ export async function buildReport({
       total: reactionIds.length,
     });
   }
-  // DUPLICATE entries of one reaction act together: each is judged as the sum of them all.
+  // DUPLICATE entries of one reaction act together: each is judged as the sum of them all — up to MAX_DUPLICATE_TERMS
+  // of them (a real mechanism has two to four); a larger group is not summed (its entries are listed as not checked).
   const duplicatesOf = new Map<string, { line: number; rate: NonNullable<ParsedMechanism["reactions"][number]["rate"]> }[]>();
   for (const { r, match } of toJudge)
     if (r.duplicate) {
       const key = `${match!.forward!.reactionId}:${r.order}`;
-      duplicatesOf.set(key, [...(duplicatesOf.get(key) ?? []), { line: r.line, rate: r.rate! }]);
+      let group = duplicatesOf.get(key);
+      if (!group) duplicatesOf.set(key, (group = []));
+      group.push({ line: r.line, rate: r.rate! });
     }
   const judged = new Map<number, JudgeOutput>();
+  const tooMany = new Map<number, number>();
   const inputs: JudgeInput[] = [];
   await onProgress({ stage: "judging", done: 0, total: toJudge.length });
   for (const { r, match } of toJudge) {
     const reactionId = match!.forward!.reactionId;
-    const duplicates = r.duplicate ? duplicatesOf.get(`${reactionId}:${r.order}`)!.filter((d) => d.line !== r.line) : [];
+    const group = r.duplicate ? duplicatesOf.get(`${reactionId}:${r.order}`)! : [];
+    if (group.length > MAX_DUPLICATE_TERMS) {
+      tooMany.set(r.index, group.length);
+      continue;
+    }
+    const duplicates = group.filter((d) => d.line !== r.line);
     const rate = { index: r.index, rate: r.rate!, ...(duplicates.length ? { duplicates } : {}), order: r.order };
     const basis = bases.get(reactionId);
     // A kept basis is judged here (a few dozen evaluations of two expressions); the others on the threads.
@@ -168,6 +179,13 @@ export async function buildReport({
     let verdict: ReactionVerdict;
     const j = judged.get(r.index);
     if (r.notChecked) verdict = { verdict: "not_checked", extrapolated: [], comparison: null, note: capitalise(r.notChecked) + "." };
+    else if (tooMany.has(r.index))
+      verdict = {
+        verdict: "not_checked",
+        extrapolated: [],
+        comparison: null,
+        note: `One of ${tooMany.get(r.index)} DUPLICATE entries of this reaction; more than ${MAX_DUPLICATE_TERMS} terms are not summed, so none is checked.`,
+      };
     else if (k && "unmatched" in k)
       verdict = {
         verdict: "no_data",

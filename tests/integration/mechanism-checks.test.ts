@@ -464,3 +464,76 @@ describe("forgetting a remembered choice", () => {
     expect((await call("?name=HBR")).status).toBe(401);
   });
 });
+
+describe("scheduled jobs", () => {
+  it("have pg-boss's queue of due scheduled jobs made by the migration (the runtime role may not make it)", async () => {
+    const { CRON_QUEUE } = await import("@/lib/jobs/boss");
+    expect((await sql`select count(*)::int as n from pgboss.queue where name = ${CRON_QUEUE}`)[0].n).toBe(1);
+  });
+});
+
+describe("a reaction written as very many DUPLICATE entries", () => {
+  it("is not summed beyond the limit: each entry is listed as not checked, and the check still finishes", async () => {
+    const { MAX_DUPLICATE_TERMS } = await import("@/lib/mechanisms/run-check");
+    const copies = MAX_DUPLICATE_TERMS + 5;
+    const text = [
+      "ELEMENTS C H BR END",
+      "SPECIES BR C11H24 HBR C11H23 END",
+      "REACTIONS MOLECULES KELVINS",
+      ...Array.from({ length: copies }, (_, i) => `BR+C11H24=>HBR+C11H23     ${(1 + i / 100).toFixed(2)}E-13  0.0  1750.0\nDUPLICATE`),
+      "END",
+    ].join("\n");
+    as(owner);
+    const { data } = await postAndRun(JSON.stringify({ text, name: "Many duplicates" }));
+    const report = (await read(data.id)).report;
+    expect(report.summary.not_checked).toBe(copies);
+    expect(report.reactions[0].note).toContain(`One of ${copies} DUPLICATE entries`);
+  });
+});
+
+describe("outside attack round: refusals", () => {
+  it("refuses a name given twice in species choices with 422 naming the row, saving nothing", async () => {
+    as(owner);
+    const key = (await sql`select inchi_key from species limit 1`)[0].inchi_key;
+    const res = await postChoices(
+      req("/api/v1/mechanism-checks/species-choices", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({
+          choices: [
+            { name: "ZZ1", inchiKey: key },
+            { name: "ZZ1", inchiKey: key },
+          ],
+        }),
+      }),
+      ctx(),
+    );
+    expect(res.status).toBe(422);
+    expect((await res.json()).errors[0]).toMatchObject({ pointer: "/choices/1/name" });
+    expect((await sql`select count(*)::int as n from species_mapping_choices where name = 'ZZ1'`)[0].n).toBe(0);
+  });
+
+  it("refuses at once a YAML file of many aliases, a file with no reaction, and contradicting unit keywords name the line", async () => {
+    as(owner);
+    const aliases = [
+      "units: {length: cm, quantity: mol, activation-energy: cal/mol}",
+      "species: [{name: H}, {name: O2}, {name: O}, {name: OH}]",
+      "reactions:",
+      "- &r {equation: H + O2 <=> O + OH, rate-constant: {A: 1.0e14, b: 0, Ea: 16000}}",
+      ...Array.from({ length: 5000 }, () => "- *r"),
+    ].join("\n");
+    const started = Date.now();
+    const refused = await post(aliases, { json: false });
+    expect(refused.status).toBe(422);
+    expect(JSON.stringify(await refused.json())).toMatch(/more than 100 YAML aliases/);
+    expect(Date.now() - started).toBeLessThan(10_000);
+    const empty = await post("ELEMENTS H END\nSPECIES H END\nREACTIONS\nEND\n", { json: false });
+    expect(empty.status).toBe(422);
+    const both = await post(MECHANISM.replace("REACTIONS MOLECULES KELVINS", "REACTIONS MOLES MOLECULES KELVINS"), { json: false });
+    expect(both.status).toBe(202);
+    const { data } = await both.json();
+    expect(data.problems.map((p: { message: string }) => p.message)).toContainEqual(
+      expect.stringMatching(/^Line 4, column \d+: the quantity unit is given twice, as MOLES and as MOLECULES/),
+    );
+  });
+});

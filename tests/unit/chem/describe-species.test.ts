@@ -275,3 +275,13 @@ describe("describeSpecies: messages for what cannot be read", () => {
     await expectChemError(() => describeSpecies(input), "unsupported_species", field, message);
   });
 });
+
+describe("a structure that traps the toolkit", () => {
+  // 1000 wildcard atoms overran RDKit's WebAssembly memory; every later reading then failed until a restart.
+  it("is refused with a ChemError naming the SMILES, and the next structure is read by a fresh instance", async () => {
+    await expect(describeSpecies({ smiles: "*".repeat(1000) })).rejects.toBeInstanceOf(ChemError);
+    const ethanol = await describeSpecies({ smiles: "CCO" });
+    expect(ethanol.inchiKey).toBe("LFQSCWFLJHTTHZ-UHFFFAOYSA-N");
+    expect((await describeSpecies({ smiles: "O=O" })).formula).toBe("O2");
+  }, 60_000);
+});

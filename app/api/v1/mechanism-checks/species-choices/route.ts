@@ -29,6 +29,21 @@ export const POST = withApi(
         throw new AppError("validation_failed", "The choices do not match the expected shape", zodToFieldErrors(parsed.error));
       choices = parsed.data.choices;
     }
+    // One name, one species: a name given twice is named rather than half-saved.
+    const seen = new Map<string, number>();
+    const twice = choices.flatMap((c, i) => {
+      const first = seen.get(c.name);
+      seen.set(c.name, first ?? i);
+      return first === undefined
+        ? []
+        : [
+            {
+              pointer: rowOf(i).startsWith("/") ? `${rowOf(i)}/name` : "",
+              message: `${rowOf(i)}: the name “${c.name}” is given again (first at ${rowOf(first)}); give each name once.`,
+            },
+          ];
+    });
+    if (twice.length) throw new AppError("validation_failed", twice[0].message, twice.slice(0, 100));
     const { unknown } = await saveSpeciesChoices({ userId: user!.id, choices });
     if (unknown.length) {
       const errors = choices.flatMap((c, i) =>
