@@ -2,23 +2,34 @@ import { z } from "zod";
 import { citationQuerySchema } from "@/lib/citation/request";
 import { versionParametersQuerySchema } from "@/lib/exports/requests";
 import { idFor, parseIdOrNull } from "@/lib/ids";
+import { describeCharacter, forbiddenCharacter } from "@/lib/text/clean";
 
 /** Limits of a collection's text and size. */
 export const COLLECTION_LIMITS = { title: 300, description: 5000, note: 500, members: 2000, membersPerRequest: 500 } as const;
 
+/** No character every export could not carry as written (lib/text/clean.ts), named with its place. */
+const cleanText = (what: string, lines: boolean) => (v: string, ctx: z.RefinementCtx) => {
+  const bad = forbiddenCharacter(v, { lines });
+  if (bad)
+    ctx.addIssue({ code: "custom", message: `${what} holds ${describeCharacter(bad.character)} at character ${bad.index + 1}; remove it` });
+};
 const title = z
   .string("the title must be text")
   .trim()
   .min(3, "the title needs at least 3 characters")
-  .max(COLLECTION_LIMITS.title, `the title is at most ${COLLECTION_LIMITS.title} characters`);
+  .max(COLLECTION_LIMITS.title, `the title is at most ${COLLECTION_LIMITS.title} characters`)
+  .superRefine(cleanText("the title", false))
+  .refine((v) => v.length < 3 || /[\p{L}\p{N}]/u.test(v), "the title needs at least one letter or digit");
 const description = z
   .string("the description must be text")
   .trim()
-  .max(COLLECTION_LIMITS.description, `the description is at most ${COLLECTION_LIMITS.description} characters`);
+  .max(COLLECTION_LIMITS.description, `the description is at most ${COLLECTION_LIMITS.description} characters`)
+  .superRefine(cleanText("the description", true));
 const note = z
   .string("the note must be text")
   .trim()
   .max(COLLECTION_LIMITS.note, `a note is at most ${COLLECTION_LIMITS.note} characters`)
+  .superRefine(cleanText("the note", false))
   .transform((v) => v || null);
 
 /** One member to add: a dataset version by its id (GET /api/v1/versions/:id), with an optional note ("used for R12"). */

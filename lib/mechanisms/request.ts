@@ -4,6 +4,7 @@
  * {text, name?, window?: {Tmin, Tmax}, format?}. Failures come back as values (structured clone
  * does not carry AppError) with the status they deserve: 413 past 20 MB, 422 naming line and column.
  */
+import { describeCharacter, forbiddenCharacter, SUSPECT_CHARACTER } from "@/lib/text/clean";
 import { z } from "zod";
 import type { ErrorCode, FieldError } from "@/lib/errors";
 import { checkMechanismSize, MAX_MECHANISM_BYTES } from "./limits";
@@ -111,6 +112,20 @@ export function readMechanismRequest(input: MechanismRequestInput): MechanismReq
     window = parsed.data.window ?? window;
     format = parsed.data.format ?? format;
   }
+  // The name as given (query or JSON): one line of at most 200 characters that every export can carry.
+  if (name !== null) {
+    name = name.trim();
+    const bad = forbiddenCharacter(name, { lines: false });
+    const namePointer = input.json ? "/name" : "name";
+    if (name.length > 200 || !name || bad) {
+      const message = bad
+        ? `The name holds ${describeCharacter(bad.character)} at character ${bad.index + 1}; remove it`
+        : name
+          ? `The name is ${name.length} characters; at most 200`
+          : "The name is empty";
+      return fail("validation_failed", message, [{ pointer: namePointer, message }]);
+    }
+  }
   const read = readMechanism(text, format);
   if (!read.ok) {
     const { line, column, message, code } = read.failure;
@@ -132,5 +147,6 @@ function firstWords(text: string): string {
     .split("\n")
     .map((l) => l.replace(/^[\s!#]+/, "").trim())
     .find((l) => l.length > 0);
-  return (line ?? "Mechanism").slice(0, 80);
+  // From the file's own text: characters no export could carry are dropped, not refused.
+  return ((line ?? "").replace(new RegExp(SUSPECT_CHARACTER.source, "gu"), "").trim() || "Mechanism").slice(0, 80);
 }

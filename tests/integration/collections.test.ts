@@ -279,3 +279,19 @@ describe("collections: a citable set of published versions", () => {
     expect(urls.some((u) => u.endsWith("/collections"))).toBe(true);
   });
 });
+
+describe("text every export can carry", () => {
+  it("refuses a title with a direction override or only invisible characters, and a note with a control character, naming the field", async () => {
+    const refuse = async (json: unknown) => {
+      const res = await call(owner, collectionsRoute.POST, {}, { method: "POST", json });
+      expect(res.status).toBe(422);
+      return (await res.json()).errors as { pointer: string; message: string }[];
+    };
+    expect((await refuse({ title: "Release \u202Egnp.exe" }))[0]).toMatchObject({ pointer: "/title" });
+    expect((await refuse({ title: "\u200B\u200B\u200B\u200B" }))[0].pointer).toBe("/title");
+    expect((await refuse({ title: "Fine title", members: [{ versionId: v.a1, note: "bell\u0007" }] }))[0]).toMatchObject({
+      pointer: "/members/0/note",
+      message: expect.stringContaining("U+0007"),
+    });
+  });
+});

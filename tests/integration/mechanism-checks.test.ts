@@ -537,3 +537,13 @@ describe("outside attack round: refusals", () => {
     );
   });
 });
+
+describe("a check's name", () => {
+  it("is one line of at most 200 characters, from the query as from JSON", async () => {
+    as(owner);
+    expect((await post(MECHANISM, { json: false, query: `?name=${"x".repeat(201)}` })).status).toBe(422);
+    expect((await post(MECHANISM, { json: false, query: `?name=${encodeURIComponent("bell\u0007")}` })).status).toBe(422);
+    expect((await post(JSON.stringify({ text: MECHANISM, name: "a\u202Eb" }))).status).toBe(422);
+    expect((await post(MECHANISM, { json: false, query: "?name=Fine" })).status).toBe(202);
+  });
+});
