@@ -12,7 +12,7 @@ export default async function MechanismsPage() {
   const user = await requirePagePermission("mechanism.check", "/mechanisms");
   const checks = await listMechanismChecks({ ownerId: user.id });
   return (
-    <main className="mx-auto max-w-5xl space-y-6 p-4">
+    <div className="mx-auto max-w-5xl space-y-6 p-4">
       <h1 className="text-2xl font-semibold">Check a mechanism against the published data</h1>
       <p className="text-sm">
         Each elementary reaction&apos;s k(T) is compared with the consensus its reaction page shows, over the part of your use window the
@@ -42,6 +42,6 @@ export default async function MechanismsPage() {
           </ul>
         )}
       </section>
-    </main>
+    </div>
   );
 }

@@ -72,7 +72,7 @@ export default async function MechanismCheckPage({ params, searchParams }: { par
   );
   const chosen = report?.reactions.find((r) => String(r.index) === search.reaction && r.reaction && r.rate);
   return (
-    <main className="mx-auto max-w-6xl space-y-6 p-4">
+    <div className="mx-auto max-w-6xl space-y-6 p-4">
       <h1 className="text-2xl font-semibold">Mechanism check: {check.name}</h1>
       <p className="text-sm text-muted">
         Use window {check.windowTmin}–{check.windowTmax} K · {check.state}
@@ -199,7 +199,7 @@ export default async function MechanismCheckPage({ params, searchParams }: { par
           )}
         </>
       )}
-    </main>
+    </div>
   );
 }
 
