@@ -314,14 +314,10 @@ describe("GET /api/v1/search/suggest", () => {
       expect(body.reactions.length, q).toBeGreaterThan(0);
       // What is offered first is what the search finds, the most datasets first.
       expect(found, q).toContain(body.reactions[0].reactionKey);
+      // Every suggestion is a reaction the search finds. (Other test files publish reactions of OH meanwhile: the search,
+      // asked after the suggestions, may find one more than they offered, never one fewer.)
       if (found.length <= 8)
-        expect(
-          body.reactions
-            .slice(0, found.length)
-            .map((r) => r.reactionKey)
-            .sort(),
-          q,
-        ).toEqual([...found].sort());
+        expect(found, q).toEqual(expect.arrayContaining(body.reactions.slice(0, found.length).map((r) => r.reactionKey)));
       expect(body.species, q).toEqual([]);
     }
     const ohMethane = await suggest("OH + CH4");
