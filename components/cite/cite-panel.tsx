@@ -1,23 +1,51 @@
 "use client";
 
+import { useQuery } from "@tanstack/react-query";
 import { useId, useState } from "react";
 import { ScrollRegion } from "@/components/scroll-region";
 
-/** One citable thing, every format already rendered on the server (lib/citation/formats.ts). */
+/** One citable thing: its machine formats, rendered on the server (lib/citation/formats.ts). */
 export interface CiteChoice {
   /** "version" (this version) or "series" (every version). */
   kind: "version" | "series";
   identifier: string | null;
-  references: { style: string; label: string; text: string }[];
   formats: { id: "bibtex" | "ris" | "csl-json"; label: string; text: string; href: string; fileName: string }[];
 }
 
 export interface CitePanelProps {
+  datasetId: number;
+  /** Every reference style offered, the default first or not. */
+  styles: { id: string; label: string }[];
+  defaultStyle: string;
   versionNumber: number;
   version: CiteChoice;
   series: CiteChoice | null;
-  /** The source publication the deposit names: its formatted references (same styles), or only its DOI. */
-  source: { references: { style: string; label: string; text: string }[]; doi: string | null } | null;
+  /** The source publication the deposit names: with a reference to format, or only its DOI. */
+  source: { hasReference: boolean; doi: string | null } | null;
+}
+
+/** What GET /api/v1/datasets/:id/citation/references answers. */
+interface StyleReferences {
+  style: string;
+  version: string;
+  series: string | null;
+  source: string | null;
+}
+
+/** The formatted references in one style, fetched once per style (citeproc's cost stays off the page's first answer). */
+function useStyleReferences(datasetId: number, versionNumber: number, style: string) {
+  return useQuery({
+    queryKey: ["citation-references", datasetId, versionNumber, style],
+    staleTime: Infinity,
+    queryFn: async ({ signal }): Promise<StyleReferences> => {
+      const res = await fetch(`/api/v1/datasets/${datasetId}/citation/references?style=${encodeURIComponent(style)}&version=${versionNumber}`, {
+        signal,
+        headers: { accept: "application/json" },
+      });
+      if (!res.ok) throw new Error(`the server answered ${res.status}`);
+      return (await res.json()) as StyleReferences;
+    },
+  });
 }
 
 /** Copies a text; says so (or why not) in the panel's polite status line. */
@@ -39,15 +67,18 @@ function useCopy() {
  * formatted reference in the chosen style, BibTeX, RIS and CSL-JSON to copy or download, and the
  * source publication when the deposit names one.
  */
-export function CitePanel({ versionNumber, version, series, source }: CitePanelProps) {
+export function CitePanel({ datasetId, styles, defaultStyle, versionNumber, version, series, source }: CitePanelProps) {
   const [kind, setKind] = useState<"version" | "series">("version");
-  const [style, setStyle] = useState(version.references[0]?.style ?? "apa");
+  const [style, setStyle] = useState(defaultStyle);
   const { status, copy } = useCopy();
   const ids = useId();
   const chosen = kind === "series" && series ? series : version;
-  const reference = chosen.references.find((r) => r.style === style) ?? chosen.references[0];
-  const sourceReference = source?.references.find((r) => r.style === style) ?? source?.references[0];
-  const styleLabel = reference?.label ?? "";
+  const fetched = useStyleReferences(datasetId, versionNumber, style);
+  const styleLabel = styles.find((s) => s.id === style)?.label ?? style;
+  const referenceText = (kind === "series" ? fetched.data?.series : fetched.data?.version) ?? null;
+  const sourceText = fetched.data?.source ?? null;
+  const waiting = fetched.isPending;
+  const failed = fetched.isError;
 
   return (
     <section className="card space-y-4" aria-labelledby={`${ids}-heading`} data-testid="cite-panel">
@@ -79,19 +110,29 @@ export function CitePanel({ versionNumber, version, series, source }: CitePanelP
           <label className="space-y-1 text-sm">
             <span className="block font-semibold">Reference style</span>
             <select className="field-input" value={style} onChange={(e) => setStyle(e.target.value)}>
-              {version.references.map((r) => (
-                <option key={r.style} value={r.style}>
-                  {r.label}
+              {styles.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.label}
                 </option>
               ))}
             </select>
           </label>
-          <button type="button" className="btn-secondary" onClick={() => reference && copy(reference.text, `The ${styleLabel} reference`)}>
+          <button
+            type="button"
+            className="btn-secondary"
+            disabled={referenceText === null}
+            onClick={() => referenceText !== null && copy(referenceText, `The ${styleLabel} reference`)}
+          >
             Copy reference
           </button>
         </div>
         <p className="break-words rounded-md border border-line bg-panel px-3 py-2 text-sm" data-testid="cite-reference" aria-live="polite">
-          {reference?.text}
+          {referenceText ??
+            (waiting
+              ? `Formatting the ${styleLabel} reference…`
+              : failed
+                ? `The ${styleLabel} reference could not be loaded (${(fetched.error as Error).message})); BibTeX below holds the same details.`
+                : null)}
         </p>
       </div>
 
@@ -123,15 +164,19 @@ export function CitePanel({ versionNumber, version, series, source }: CitePanelP
         <div className="space-y-1">
           <h3 className="font-semibold">Also cite the source publication</h3>
           <p className="text-sm text-muted">The numbers were first published there; cite it beside the dataset.</p>
-          {sourceReference ? (
+          {source.hasReference ? (
             <div className="flex flex-wrap items-start gap-3">
               <p className="min-w-0 flex-1 break-words text-sm" data-testid="cite-source">
-                {sourceReference.text}
+                {sourceText ??
+                  (waiting
+                    ? `Formatting the ${styleLabel} reference…`
+                    : `The ${styleLabel} reference could not be loaded${source.doi ? ` (doi:${source.doi})` : ""}.`)}
               </p>
               <button
                 type="button"
                 className="btn-secondary"
-                onClick={() => copy(sourceReference.text, "The source publication's reference")}
+                disabled={sourceText === null}
+                onClick={() => sourceText !== null && copy(sourceText, "The source publication's reference")}
               >
                 Copy source reference
               </button>

@@ -1,4 +1,4 @@
-import { CITATION_FORMATS, renderCitation } from "@/lib/citation/formats";
+import { CITATION_FORMATS, CITATION_STYLES, DEFAULT_STYLE, renderCitation } from "@/lib/citation/formats";
 import type { CslItem } from "@/lib/citation/csl";
 import type { PublicCitation } from "@/lib/citation/public-citation";
 import { CitePanel, type CiteChoice } from "./cite-panel";
@@ -13,7 +13,6 @@ function choice(kind: "version" | "series", item: CslItem, datasetId: number, ve
   return {
     kind,
     identifier: rendered.identifier,
-    references: rendered.references,
     formats: MACHINE_FORMATS.map((id) => ({
       id,
       label: CITATION_FORMATS[id].label,
@@ -24,16 +23,15 @@ function choice(kind: "version" | "series", item: CslItem, datasetId: number, ve
   };
 }
 
-/** The Cite panel of a public version page, rendered from the dataset's citations (lib/citation). */
+/** The Cite panel of a public version page, rendered from the dataset's citations (lib/citation): machine formats; the panel fetches the formatted references. */
 export function CiteSection({ citation }: { citation: PublicCitation }) {
   const { version } = citation;
-  const source = citation.sourceItem
-    ? { references: renderCitation(citation.sourceItem).references, doi: citation.sourceDoi }
-    : citation.sourceDoi
-      ? { references: [], doi: citation.sourceDoi }
-      : null;
+  const source = citation.sourceItem || citation.sourceDoi ? { hasReference: citation.sourceItem !== null, doi: citation.sourceDoi } : null;
   return (
     <CitePanel
+      datasetId={version.datasetId}
+      styles={CITATION_STYLES.map((s) => ({ id: s.id, label: s.label }))}
+      defaultStyle={DEFAULT_STYLE}
       versionNumber={version.number}
       version={choice("version", citation.versionItem, version.datasetId, version.number)}
       series={citation.seriesIdentifier ? choice("series", citation.seriesItem, version.datasetId, null) : null}

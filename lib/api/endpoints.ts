@@ -233,6 +233,27 @@ export const API_ENDPOINTS: Endpoint[] = [
     ok: { status: 200, contentType: "application/x-bibtex", description: "BibTeX, RIS, CSL-JSON or a formatted reference, by `format`." },
     errors: [404],
   },
+  {
+    method: "GET",
+    path: "/api/v1/datasets/:id/citation/references",
+    pathParameters: datasetId,
+    scope: null,
+    who: "anyone, for published and retracted versions",
+    tag: "Citation",
+    summary: "The formatted references of a version, its series and its source publication in one style (what a version page's Cite panel shows)",
+    pathExample: { id: "1" },
+    query: [
+      { name: "style", schema: citationShape.style, example: "acs" },
+      { name: "version", schema: citationShape.version, example: "1", description: "Without it, the newest public version." },
+    ],
+    ok: {
+      status: 200,
+      contentType: JSON_TYPE,
+      description: "`{ style, version, series, source }`: `series` is null without a series identifier, `source` when the deposit names no source reference.",
+    },
+    errors: [404],
+    cached: true,
+  },
   publicVersionRead({
     under: "/datacite.json",
     tag: "Citation",

@@ -220,33 +220,26 @@ export function formatCitation(item: CslItem, format: CitationFormat, style: Cit
   }
 }
 
-/** Everything the Cite panel shows for one item. */
+/**
+ * What the Cite panel of a version page gets from the server for one item: the identifier and the
+ * machine formats (our own writers, fractions of a ms). Formatted references are not rendered with
+ * the page: citeproc takes about 4 ms a reference, a third of a first-time page; the panel fetches
+ * them (GET /api/v1/datasets/:id/citation/references) in the style the reader picks.
+ */
 export interface RenderedCitation {
   identifier: string | null;
-  references: { style: CitationStyleId; label: string; text: string }[];
   bibtex: string;
   ris: string;
   cslJson: string;
 }
 
-/** Rendered citations of recent items: a published version's citation never changes, and rendering all of it costs tens of ms. */
-const rendered = new Map<string, RenderedCitation>();
-const RENDERED_KEPT = 500;
-
 export function renderCitation(item: CslItem): RenderedCitation {
-  const key = JSON.stringify(item);
-  const kept = rendered.get(key);
-  if (kept) return kept;
-  const value: RenderedCitation = {
+  return {
     identifier: typeof item.DOI === "string" ? item.DOI : null,
-    references: CITATION_STYLES.map((s) => ({ style: s.id, label: s.label, text: formatReference(item, s.id) })),
     bibtex: formatBibtex(item),
     ris: formatRis(item),
     cslJson: formatCslJson(item),
   };
-  if (rendered.size >= RENDERED_KEPT) rendered.delete(rendered.keys().next().value!);
-  rendered.set(key, value);
-  return value;
 }
 
 /**

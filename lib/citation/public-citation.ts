@@ -1,6 +1,7 @@
 import "server-only";
 import { appUrl } from "@/lib/config";
-import { getDatasetSummary, getVersionWithRole, listPublicVersions, type VersionDto } from "@/lib/datasets/queries";
+import type { listPublicVersions, VersionDto } from "@/lib/datasets/queries";
+import { datasetSummaryOf, publicVersionsOf, versionForAnyoneOf } from "@/lib/datasets/request-cache";
 import { seriesPath, versionPath } from "@/lib/identifiers/paths";
 import { buildCslItem, sourceCslItem, type CitationSubject, type CslItem } from "./csl";
 import { seriesCitationSubject, versionCitationSubject } from "./subjects";
@@ -34,7 +35,7 @@ export async function getPublicCitation({
   datasetId: number;
   versionNumber?: number;
 }): Promise<PublicCitation | null> {
-  const versions = await listPublicVersions({ datasetId });
+  const versions = await publicVersionsOf(datasetId);
   if (!versions.length) return null;
   const entry =
     versionNumber === undefined
@@ -43,9 +44,9 @@ export async function getPublicCitation({
   if (!entry) return null;
   const newestEntry = versions.find((v) => v.state === "published") ?? versions[0];
   const [found, newestFound, dataset] = await Promise.all([
-    getVersionWithRole({ versionId: entry.id, userId: null }),
-    newestEntry.id === entry.id ? null : getVersionWithRole({ versionId: newestEntry.id, userId: null }),
-    getDatasetSummary({ datasetId }),
+    versionForAnyoneOf(entry.id),
+    newestEntry.id === entry.id ? null : versionForAnyoneOf(newestEntry.id),
+    datasetSummaryOf(datasetId),
   ]);
   if (!found) return null;
   const version = found.version;

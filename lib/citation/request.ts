@@ -30,15 +30,27 @@ export interface CitationQuery {
   version?: number;
 }
 
+/** The query of GET /api/v1/datasets/:id/citation/references: one style, and a version (without it, the newest public one). */
+export const referencesQuerySchema = citationQuerySchema.pick({ style: true, version: true }).strict();
+
 /** The parsed query, or a 400 problem naming each parameter at fault. */
-export function parseCitationQueryOrThrow(params: URLSearchParams): CitationQuery {
+export function parseCitationQueryOrThrow(params: URLSearchParams): CitationQuery;
+export function parseCitationQueryOrThrow(
+  params: URLSearchParams,
+  schema: typeof referencesQuerySchema,
+): z.infer<typeof referencesQuerySchema>;
+export function parseCitationQueryOrThrow(
+  params: URLSearchParams,
+  schema: typeof citationQuerySchema | typeof referencesQuerySchema = citationQuerySchema,
+): CitationQuery | z.infer<typeof referencesQuerySchema> {
+  const known = Object.keys(schema.shape).join(", ");
   const raw: Record<string, string> = {};
   const errors: { pointer: string; parameter: string; message: string }[] = [];
   for (const [name, value] of params) {
     if (name in raw) errors.push({ pointer: `/${name}`, parameter: name, message: `${name} may be given once` });
     raw[name] = value;
   }
-  const parsed = citationQuerySchema.safeParse(raw);
+  const parsed = schema.safeParse(raw);
   if (!parsed.success)
     for (const issue of parsed.error.issues) {
       const names = issue.code === "unrecognized_keys" ? issue.keys : [String(issue.path[0] ?? "")];
@@ -46,7 +58,7 @@ export function parseCitationQueryOrThrow(params: URLSearchParams): CitationQuer
         errors.push({
           pointer: `/${parameter}`,
           parameter,
-          message: issue.code === "unrecognized_keys" ? `unknown parameter “${parameter}” (format, style, version)` : issue.message,
+          message: issue.code === "unrecognized_keys" ? `unknown parameter “${parameter}” (${known})` : issue.message,
         });
     }
   if (errors.length || !parsed.success) {

@@ -8,7 +8,8 @@ import { versionPath } from "@/lib/identifiers/paths";
 import { getCanonicalRateConstantUnit } from "@/lib/kinetics/units";
 import type { PointsAbout } from "./point-export";
 import { buildPointRows, residualModel } from "./point-table";
-import { getLatestAnalysis, getVersionPointRows, getVersionWithRole, type VersionDto } from "./queries";
+import { getLatestAnalysis, getVersionPointRows, type VersionDto } from "./queries";
+import { versionForAnyoneOf } from "./request-cache";
 import { drawableFit, FIT_CAUTION } from "./version-json";
 
 /** The states whose versions anyone may read; every other version is not found (never forbidden). */
@@ -29,7 +30,7 @@ export function citeVersion(
  * null for any other version (draft, submitted, in review, returned, declined) or none at all.
  */
 export async function getPublicVersionPoints({ versionId }: { versionId: number }) {
-  const found = await getVersionWithRole({ versionId, userId: null });
+  const found = await versionForAnyoneOf(versionId);
   if (!found || !isPublicVersion(found.version)) return null;
   const version = found.version;
   const doc = version.payload as unknown as DepositDocument;

@@ -15,6 +15,7 @@ import * as reactionByKey from "@/app/api/v1/reactions/[id]/route";
 import * as speciesByKey from "@/app/api/v1/species/[inchikey]/route";
 import * as validate from "@/app/api/v1/validate/route";
 import * as datasetCitation from "@/app/api/v1/datasets/[id]/citation/route";
+import * as datasetCitationReferences from "@/app/api/v1/datasets/[id]/citation/references/route";
 import * as dataciteJson from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.json/route";
 import * as dataciteXml from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.xml/route";
 import * as versionExport from "@/app/api/v1/datasets/[id]/versions/[n]/export.json/route";
@@ -75,6 +76,7 @@ const modules: Record<string, Record<string, unknown>> = {
   "/api/v1/validate": validate,
   "/api/v1/datasets": datasets,
   "/api/v1/datasets/:id/citation": datasetCitation,
+  "/api/v1/datasets/:id/citation/references": datasetCitationReferences,
   "/api/v1/datasets/:id/versions/:n/datacite.json": dataciteJson,
   "/api/v1/datasets/:id/versions/:n/datacite.xml": dataciteXml,
   "/api/v1/datasets/:id/versions/:n/export.json": versionExport,

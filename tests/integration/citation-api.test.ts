@@ -5,6 +5,7 @@ vi.mock("@/lib/auth/session", () => ({ getCurrentUser: vi.fn() }));
 import { toJSON as parseBibtexIndependently } from "@orcid/bibtex-parse-js";
 import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { GET as getCitation } from "@/app/api/v1/datasets/[id]/citation/route";
+import { GET as getReferences } from "@/app/api/v1/datasets/[id]/citation/references/route";
 import { GET as getDataciteJson } from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.json/route";
 import { GET as getDataciteXml } from "@/app/api/v1/datasets/[id]/versions/[n]/datacite.xml/route";
 import { getCurrentUser } from "@/lib/auth/session";
@@ -30,6 +31,10 @@ async function datasetIn(state: WalkState, change?: (doc: Record<string, unknown
 const as = (u: UserDto | null) => vi.mocked(getCurrentUser).mockResolvedValue(u);
 const citation = (datasetId: number | string, query = "") =>
   getCitation(new Request(`http://127.0.0.1/api/v1/datasets/${datasetId}/citation${query}`), {
+    params: Promise.resolve({ id: String(datasetId) }),
+  });
+const references = (datasetId: number | string, query = "") =>
+  getReferences(new Request(`http://127.0.0.1/api/v1/datasets/${datasetId}/citation/references${query}`), {
     params: Promise.resolve({ id: String(datasetId) }),
   });
 const datacite = (kind: "json" | "xml", datasetId: number | string, n: number | string, query = "") =>
@@ -131,6 +136,66 @@ describe("GET /api/v1/datasets/:id/citation", () => {
     expect((await citation(sets.published.datasetId, "?version=2")).status).toBe(404);
     expect((await citation("abc")).status).toBe(404);
     expect((await citation(sets.draft.datasetId)).status).toBe(404);
+  });
+});
+
+describe("GET /api/v1/datasets/:id/citation/references (the Cite panel's other styles)", () => {
+  const sets: Partial<Record<WalkState, Awaited<ReturnType<typeof datasetIn>>>> = {};
+  beforeAll(async () => {
+    for (const state of ["retracted", "draft", "submitted"] as WalkState[]) sets[state] = await datasetIn(state);
+    sets.published = await datasetIn("published", (doc) => {
+      doc.source = {
+        reference: {
+          type: "article-journal",
+          title: "Rate constants of an invented reaction between 250 and 420 K",
+          author: [{ family: "Okafor", given: "Maren" }],
+          "container-title": "Journal of Invented Chemistry",
+          issued: { "date-parts": [[2004]] },
+        },
+      };
+    });
+  }, 120_000);
+
+  it("the version's, the series' and the source's reference in the style asked for, the same text as the citation endpoint's", async () => {
+    as(null);
+    const { datasetId } = sets.published!;
+    for (const style of ["apa", "vancouver", "harvard", "acs"]) {
+      const res = await references(datasetId, `?style=${style}&version=1`);
+      expect(res.status, style).toBe(200);
+      const body = await res.json();
+      expect(body.style).toBe(style);
+      expect(body.version + "\n").toBe(await (await citation(datasetId, `?format=text&style=${style}&version=1`)).text());
+      expect(body.series + "\n").toBe(await (await citation(datasetId, `?format=text&style=${style}`)).text());
+      expect(body.source.toLowerCase(), style).toContain("rate constants of an invented reaction");
+    }
+    const acs = await (await references(datasetId, "?style=acs&version=1")).json();
+    expect(acs.version).toMatch(/^Okafor, M\.; Lindqvist, T\. /);
+  });
+
+  it("a retracted version's reference says so; drafts and submissions are not found, even to their owner", async () => {
+    as(owner);
+    const retracted = await (await references(sets.retracted!.datasetId, "?style=harvard&version=1")).json();
+    expect(retracted.version).toMatch(/retracted/i);
+    for (const state of ["draft", "submitted"] as const) expect((await references(sets[state]!.datasetId, "?version=1")).status, state).toBe(404);
+  });
+
+  it("400 problem naming the parameter for an unknown style, a bad version, format (not taken here) or a repeated parameter", async () => {
+    as(null);
+    const { datasetId } = sets.published!;
+    const cases: [string, string][] = [
+      ["?style=chicago", "style"],
+      ["?version=0", "version"],
+      ["?format=bibtex", "format"],
+      ["?style=apa&style=acs", "style"],
+    ];
+    for (const [query, parameter] of cases) {
+      const res = await references(datasetId, query);
+      expect(res.status, query).toBe(400);
+      const problem = await res.json();
+      expect(problem.errors.map((e: { parameter: string }) => e.parameter), query).toContain(parameter);
+    }
+    const unknown = await (await references(datasetId, "?lang=de")).json();
+    expect(unknown.errors[0].message).toBe("unknown parameter “lang” (style, version)");
   });
 });
 

@@ -10,7 +10,7 @@ import { MarkdownText } from "@/components/markdown-text";
 import { ScrollRegion } from "@/components/scroll-region";
 import { StateLabel } from "@/components/state-label";
 import { VersionFit } from "@/components/version-fit";
-import { getDatasetSummary, getVersionWithRole, listPublicVersions } from "@/lib/datasets/queries";
+import { datasetSummaryOf, publicVersionsOf, versionForAnyoneOf } from "@/lib/datasets/request-cache";
 import { POINT_TABLE_ROWS } from "@/lib/datasets/point-table";
 import { citeVersion, getPublicVersionPoints } from "@/lib/datasets/public-version";
 import { unitsFromQuery } from "@/lib/unit-choice";
@@ -41,8 +41,8 @@ export async function generateMetadata({ params }: { params: Promise<{ id: strin
   const datasetId = parseIdOrNull(id);
   const number = parseIdOrNull(/^v(\d+)$/.exec(v)?.[1]);
   if (datasetId === null || number === null) return NOT_FOUND_METADATA;
-  const entry = (await listPublicVersions({ datasetId })).find((x) => x.number === number);
-  const found = entry ? await getVersionWithRole({ versionId: entry.id, userId: null }) : null;
+  const entry = (await publicVersionsOf(datasetId)).find((x) => x.number === number);
+  const found = entry ? await versionForAnyoneOf(entry.id) : null;
   if (!found) return NOT_FOUND_METADATA;
   const shown = found.version;
   return publicPageMetadata({
@@ -72,12 +72,12 @@ export default async function DatasetVersionPage({
   const number = parseIdOrNull(/^v(\d+)$/.exec(v)?.[1]);
   if (datasetId === null || number === null) notFound();
   // Only published and retracted versions are listed: any other is not found, whoever asks.
-  const versions = await listPublicVersions({ datasetId });
+  const versions = await publicVersionsOf(datasetId);
   const entry = versions.find((x) => x.number === number);
   if (!entry) notFound();
   const [loaded, dataset, files, query, mayReadAudit, citation, verifiedIds, creatorPeople] = await Promise.all([
     getPublicVersionPoints({ versionId: entry.id }),
-    getDatasetSummary({ datasetId }),
+    datasetSummaryOf(datasetId),
     listVersionFiles({ versionId: entry.id }),
     searchParams,
     // Its members, curators and admins find the dataset's audit trail from here too.
@@ -92,7 +92,7 @@ export default async function DatasetVersionPage({
   // Linked by its key (the numeric id is only an alias that redirects there).
   const reaction = version.reactionId ? await getReactionCached({ id: version.reactionId }) : null;
   const units = unitsFromQuery(doc.reaction.order, query);
-  // listPublicVersions is newest first.
+  // publicVersionsOf is newest first.
   const newest = versions[0];
   const newer = newest.number > version.number ? newest : null;
   const downloads = {

@@ -6,7 +6,7 @@ import { citationQueryOrThrow } from "@/lib/citation/request";
 import { AppError } from "@/lib/errors";
 import { parseIdOrThrow } from "@/lib/ids";
 
-// The version pages render citations too, through the same module: its engines are built here, at warm-up.
+// citeproc's engine for each style is built here, at warm-up (scripts/warm-up.ts), not in a reader's request.
 warmCitationStyles();
 
 export const GET = withApi<{ id: string }>(
