@@ -22,6 +22,10 @@ if (key.length < 16) {
 (process.env as Record<string, string>).NODE_ENV = "production";
 (globalThis as Record<symbol, unknown>)[INNER_GATE_MARK] = true;
 
+// tsx (the loader this file is started with) turns on Node's source maps for every module: each of
+// Next's server chunks would then keep its source map's mappings in memory (tens of MB) and read
+// its .map file while loading. `next start` runs without them; so does this server from here on.
+process.setSourceMapsEnabled(false);
 // Loaded after NODE_ENV is set: Next reads it while loading.
 const { default: next } = await import("next");
 // Next's own name for its origin: it writes every loopback address as "localhost" in a proxy.ts
