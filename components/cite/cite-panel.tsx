@@ -38,10 +38,13 @@ function useStyleReferences(datasetId: number, versionNumber: number, style: str
     queryKey: ["citation-references", datasetId, versionNumber, style],
     staleTime: Infinity,
     queryFn: async ({ signal }): Promise<StyleReferences> => {
-      const res = await fetch(`/api/v1/datasets/${datasetId}/citation/references?style=${encodeURIComponent(style)}&version=${versionNumber}`, {
-        signal,
-        headers: { accept: "application/json" },
-      });
+      const res = await fetch(
+        `/api/v1/datasets/${datasetId}/citation/references?style=${encodeURIComponent(style)}&version=${versionNumber}`,
+        {
+          signal,
+          headers: { accept: "application/json" },
+        },
+      );
       if (!res.ok) throw new Error(`the server answered ${res.status}`);
       return (await res.json()) as StyleReferences;
     },

@@ -240,7 +240,8 @@ export const API_ENDPOINTS: Endpoint[] = [
     scope: null,
     who: "anyone, for published and retracted versions",
     tag: "Citation",
-    summary: "The formatted references of a version, its series and its source publication in one style (what a version page's Cite panel shows)",
+    summary:
+      "The formatted references of a version, its series and its source publication in one style (what a version page's Cite panel shows)",
     pathExample: { id: "1" },
     query: [
       { name: "style", schema: citationShape.style, example: "acs" },
@@ -249,7 +250,8 @@ export const API_ENDPOINTS: Endpoint[] = [
     ok: {
       status: 200,
       contentType: JSON_TYPE,
-      description: "`{ style, version, series, source }`: `series` is null without a series identifier, `source` when the deposit names no source reference.",
+      description:
+        "`{ style, version, series, source }`: `series` is null without a series identifier, `source` when the deposit names no source reference.",
     },
     errors: [404],
     cached: true,

@@ -176,7 +176,8 @@ describe("GET /api/v1/datasets/:id/citation/references (the Cite panel's other s
     as(owner);
     const retracted = await (await references(sets.retracted!.datasetId, "?style=harvard&version=1")).json();
     expect(retracted.version).toMatch(/retracted/i);
-    for (const state of ["draft", "submitted"] as const) expect((await references(sets[state]!.datasetId, "?version=1")).status, state).toBe(404);
+    for (const state of ["draft", "submitted"] as const)
+      expect((await references(sets[state]!.datasetId, "?version=1")).status, state).toBe(404);
   });
 
   it("400 problem naming the parameter for an unknown style, a bad version, format (not taken here) or a repeated parameter", async () => {
@@ -192,7 +193,10 @@ describe("GET /api/v1/datasets/:id/citation/references (the Cite panel's other s
       const res = await references(datasetId, query);
       expect(res.status, query).toBe(400);
       const problem = await res.json();
-      expect(problem.errors.map((e: { parameter: string }) => e.parameter), query).toContain(parameter);
+      expect(
+        problem.errors.map((e: { parameter: string }) => e.parameter),
+        query,
+      ).toContain(parameter);
     }
     const unknown = await (await references(datasetId, "?lang=de")).json();
     expect(unknown.errors[0].message).toBe("unknown parameter “lang” (style, version)");
