@@ -30,6 +30,22 @@ function checkSide(value: number, name: "width" | "height"): number {
 }
 
 /**
+ * Drawings already made, by size and SMILES (a drawing depends on nothing else, so an entry is never
+ * stale): a species is drawn on every page of each reaction it takes part in, and RDKit takes a few
+ * ms a drawing. At most DRAWINGS_KEPT (a few KB each); the least recently used go first. Refusals
+ * are not kept.
+ */
+const drawings = new Map<string, string>();
+const DRAWINGS_KEPT = 1000;
+export const drawingCacheStats = {
+  hits: 0,
+  misses: 0,
+  get entries() {
+    return drawings.size;
+  },
+};
+
+/**
  * RDKit's depiction of the species in `smiles` as an inline-safe `<svg>` element (the XML
  * declaration is dropped; the drawing holds paths only, no text or script). Size in px.
  *
@@ -38,6 +54,23 @@ function checkSide(value: number, name: "width" | "height"): number {
 export async function renderSpeciesSvg(smiles: string, size: DrawingSize = {}): Promise<string> {
   const width = checkSide(size.width ?? DEFAULT_DRAWING_SIZE.width, "width");
   const height = checkSide(size.height ?? DEFAULT_DRAWING_SIZE.height, "height");
+  const key = `${width}x${height}\n${smiles}`;
+  const kept = drawings.get(key);
+  if (kept !== undefined) {
+    // Most recently used last: a Map keeps insertion order.
+    drawings.delete(key);
+    drawings.set(key, kept);
+    drawingCacheStats.hits++;
+    return kept;
+  }
+  drawingCacheStats.misses++;
+  const svg = await drawSvg(smiles, width, height);
+  if (drawings.size >= DRAWINGS_KEPT) drawings.delete(drawings.keys().next().value!);
+  drawings.set(key, svg);
+  return svg;
+}
+
+async function drawSvg(smiles: string, width: number, height: number): Promise<string> {
   const mol = await parseSmilesOrThrow(smiles);
   try {
     const svg = mol
