@@ -114,6 +114,12 @@ export const searchReactionSummaries = pgTable("search_reaction_summaries", {
    * before it was kept (drizzle/0036; `npm run db:migrate` fills them in).
    */
   comparison: jsonb().$type<Record<string, unknown> | null>(),
+  /**
+   * The engine's answer for the default choice of data, with the engine version and a fingerprint of its input
+   * (lib/reactions/stored-consensus.ts): the reaction page reads it instead of running the engine when its own input
+   * is the same. Null in rows written before it was kept (drizzle/0037; `npm run db:migrate` fills them in).
+   */
+  consensusResult: jsonb().$type<Record<string, unknown> | null>(),
   spread: doublePrecision(),
   updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 });

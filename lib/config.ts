@@ -35,6 +35,7 @@ const variables = {
   PORT: { schema: port },
   HOST: { schema: z.string().regex(/^[\w.:-]+$/, "must be a host name or an IP address") },
   INNER_PORT: { schema: port },
+  RENDER_CONCURRENCY: { schema: wholeNumber(1, 256) },
   NEXT_DIST_DIR: { schema: z.string().regex(/^[\w.\/-]+$/, "must be a folder name such as .next") },
   SMTP_URL: { schema: z.string().regex(/^smtps?:\/\/\S+$/, "must be an smtp:// or smtps:// URL"), secret: true },
   MAIL_CAPTURE_PORT: { schema: port },
@@ -165,6 +166,11 @@ export function serverHost(): string {
 /** Loopback port of the Next.js server behind the front server; a free one when unset. */
 export function innerPort(): number | undefined {
   return read("INNER_PORT");
+}
+
+/** Page renders the Next.js server runs at once (lib/http/render-gate.ts); the rest wait their turn. */
+export function renderConcurrency(): number {
+  return read("RENDER_CONCURRENCY") ?? 4;
 }
 
 /** Folder of the production build (next.config.mjs reads the same variable). */

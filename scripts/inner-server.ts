@@ -7,6 +7,8 @@ import http from "node:http";
 import { INNER_GATE_MARK } from "@/lib/auth/client-address";
 import { innerGate, innerGateUpgrade } from "@/lib/auth/inner-gate";
 import { PUBLIC_CACHE_SECONDS, withHtmlCache } from "@/lib/html-cache";
+import { createRenderGate } from "@/lib/http/render-gate";
+import { renderConcurrency } from "@/lib/config";
 
 const port = Number(process.argv[2]);
 const key = process.env.ARRHENIA_EDGE_KEY ?? "";
@@ -34,7 +36,9 @@ const { default: next } = await import("next");
 const app = next({ dev: false, dir: process.cwd(), hostname: "localhost", port });
 // Public pages rendered for anonymous readers are replayed from memory (lib/html-cache.ts): at most
 // 64 MiB of bodies, none over 4 MiB, each for PUBLIC_CACHE_SECONDS unless a change empties the cache first.
-const handle = withHtmlCache(app.getRequestHandler(), {
+// Renders that miss that cache take turns, a few at a time (lib/http/render-gate.ts).
+const renderGate = createRenderGate({ max: renderConcurrency(), holdMs: 2_000 });
+const handle = withHtmlCache(renderGate(app.getRequestHandler()), {
   maxBytes: 64 * 1024 * 1024,
   maxEntryBytes: 4 * 1024 * 1024,
   ttlMs: PUBLIC_CACHE_SECONDS * 1000,

@@ -29,11 +29,11 @@ await client.end();
 // Public versions without a search document (a database from before search documents): built as the runtime role, as the app would.
 const built = await rebuildSearchDocuments({ onlyMissing: true });
 if (built) console.log(`[arrhenia] search documents built for ${built} version(s)`);
-// Reactions whose kept comparison basis (for mechanism checks) is missing or of another engine version.
+// Reactions whose kept comparison basis (for mechanism checks) or kept consensus (for their page) is missing or of another engine version.
 const rebased = await rebuildStaleComparisonBases({
   onProgress: (done, total) => done % 2000 === 0 && console.log(`[arrhenia]   ${done}/${total} reaction summaries`),
 });
-if (rebased) console.log(`[arrhenia] comparison bases written for ${rebased} reaction(s)`);
+if (rebased) console.log(`[arrhenia] comparison bases and kept consensus written for ${rebased} reaction(s)`);
 console.log("[arrhenia] database migrated");
 // The app's pool (getDb) would keep the process alive until its idle timeout.
 process.exit(0);

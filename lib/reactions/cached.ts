@@ -17,6 +17,7 @@ import {
   listConsensusExclusions,
   listPublicVersionsOfReaction,
   listReactionsWithPublicData,
+  readKeptConsensus,
 } from "./queries";
 
 /**
@@ -53,4 +54,6 @@ export const cachedConsensusReaders: ConsensusReaders = {
   // The cache keeps JSON: the time of an exclusion comes back as text.
   exclusions: async (args) =>
     (await cachedExclusions(args)).map((e) => ({ ...e, excludedAt: new Date(e.excludedAt as unknown as string) })),
+  // Not through the data cache: one row by its key, used only when it matches the input read above.
+  kept: readKeptConsensus,
 };

@@ -1,12 +1,19 @@
 import "server-only";
 import type { Transaction } from "@/db/client";
-import { listConsensusExclusions, listPublicVersionsOfReaction } from "./queries";
+import { ENGINE_VERSION } from "@/lib/datasets/prepare";
+import { listConsensusExclusions, listPublicVersionsOfReaction, readKeptConsensus } from "./queries";
 import { runSelectedConsensus, selectConsensusDatasets, withEngineLeftOut, type ConsensusChoice } from "./consensus-selection";
+import { readStoredConsensus } from "./stored-consensus";
 
-/** Where the consensus reads its data: the queries, or their cached form (lib/reactions/cached.ts) on pages. */
+/**
+ * Where the consensus reads its data: the queries, or their cached form (lib/reactions/cached.ts) on
+ * pages; `kept`, when given, reads the consensus kept with the reaction's summary, used when it was
+ * computed from exactly this input (lib/reactions/stored-consensus.ts).
+ */
 export interface ConsensusReaders {
   versions: typeof listPublicVersionsOfReaction;
   exclusions: typeof listConsensusExclusions;
+  kept?: typeof readKeptConsensus;
 }
 
 /**
@@ -25,11 +32,11 @@ export async function loadReactionConsensus({
   db?: Transaction;
   read?: ConsensusReaders;
 }) {
-  // In a transaction one statement at a time; otherwise both at once.
-  const [versions, exclusions] = db
-    ? [await listPublicVersionsOfReaction({ reactionId, db }), await listConsensusExclusions({ reactionId, db })]
-    : await Promise.all([read.versions({ reactionId }), read.exclusions({ reactionId })]);
+  // In a transaction one statement at a time; otherwise all at once.
+  const [versions, exclusions, kept] = db
+    ? [await listPublicVersionsOfReaction({ reactionId, db }), await listConsensusExclusions({ reactionId, db }), null]
+    : await Promise.all([read.versions({ reactionId }), read.exclusions({ reactionId }), read.kept?.({ reactionId }) ?? null]);
   const selected = selectConsensusDatasets({ versions, exclusions, choice });
-  const run = runSelectedConsensus(selected);
+  const run = readStoredConsensus(kept, selected, ENGINE_VERSION) ?? runSelectedConsensus(selected);
   return { versions, selection: withEngineLeftOut(selected, run.result), ...run };
 }

@@ -4,6 +4,7 @@ import { getDb, type Database, type Transaction } from "@/db/client";
 import { reactionParticipants, reactions, species } from "@/db/chemistry";
 import { consensusExclusions } from "@/db/consensus";
 import { datasetMembers, datasetVersions, versionAnalyses, versionPoints } from "@/db/datasets";
+import { searchReactionSummaries } from "@/db/search";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { AppError } from "@/lib/errors";
 import { writeReactionSummary } from "@/lib/search/documents";
@@ -182,6 +183,15 @@ export async function countPublicData() {
     select count(distinct v.dataset_id)::int as datasets, count(distinct v.reaction_id)::int as reactions, coalesce(sum(v.point_count), 0)::int as points
     from dataset_versions v where v.state = 'published'`);
   return { datasets: Number(row?.datasets ?? 0), reactions: Number(row?.reactions ?? 0), points: Number(row?.points ?? 0) };
+}
+
+/** The consensus kept with the reaction's search summary (lib/reactions/stored-consensus.ts), as stored; null when none. */
+export async function readKeptConsensus({ reactionId, db = getDb() }: { reactionId: number; db?: Database | Transaction }) {
+  const [row] = await db
+    .select({ kept: searchReactionSummaries.consensusResult })
+    .from(searchReactionSummaries)
+    .where(eq(searchReactionSummaries.reactionId, reactionId));
+  return (row?.kept ?? null) as unknown;
 }
 
 /** Curators' exclusions from the consensus of one reaction (the versions that describe it). */

@@ -11,6 +11,7 @@ import { listConsensusExclusions, listPublicVersionsOfReaction } from "@/lib/rea
 import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { comparisonBasisOf } from "@/lib/mechanisms/judge";
 import type { StoredComparisonBasis } from "@/lib/mechanisms/stored-basis";
+import { storedConsensusOf, type StoredConsensus } from "@/lib/reactions/stored-consensus";
 import type { ReactionHit, SearchFlag } from "./types";
 import { datasetSpread, preferredFitOf } from "./spread";
 import { recordSearchChange } from "@/lib/search/outbox";
@@ -417,11 +418,12 @@ export async function writeReactionSummaries(tx: Transaction, reactionIds: reado
     await tx.delete(searchReactionSummaries).where(sql`${searchReactionSummaries.reactionId} = any(${idArray(empty)}::int[])`);
   const rows: (typeof searchReactionSummaries.$inferInsert)[] = [];
   for (const [reactionId, fits] of listedOf) {
-    const { expression, comparison } = await consensusOf(tx, reactionId);
+    const { expression, comparison, kept } = await consensusOf(tx, reactionId);
     rows.push({
       reactionId,
       consensus: fits.length >= 2 ? expression : null,
       comparison: comparison as unknown as Record<string, unknown>,
+      consensusResult: kept as unknown as Record<string, unknown>,
       spread: datasetSpread(
         fits.map((f) => {
           const own = preferredOf.get(f.versionId);
@@ -440,6 +442,7 @@ export async function writeReactionSummaries(tx: Transaction, reactionIds: reado
       set: {
         consensus: sql`excluded.consensus`,
         comparison: sql`excluded.comparison`,
+        consensusResult: sql`excluded.consensus_result`,
         spread: sql`excluded.spread`,
         updatedAt: sql`excluded.updated_at`,
       },
@@ -453,15 +456,18 @@ export async function writeReactionSummaries(tx: Transaction, reactionIds: reado
 async function consensusOf(
   tx: Transaction,
   reactionId: number,
-): Promise<{ expression: ReactionHit["consensus"]; comparison: StoredComparisonBasis }> {
+): Promise<{ expression: ReactionHit["consensus"]; comparison: StoredComparisonBasis; kept: StoredConsensus }> {
   const versions = await listPublicVersionsOfReaction({ reactionId, db: tx });
   const exclusions = await listConsensusExclusions({ reactionId, db: tx });
   const selection = selectConsensusDatasets({ versions, exclusions, choice: DEFAULT_CONSENSUS_CHOICE });
-  const { result } = runSelectedConsensus(selection);
+  const run = runSelectedConsensus(selection);
+  const { result } = run;
   const comparison = { engine: ENGINE_VERSION, ...comparisonBasisOf({ versions, exclusions, selection, result }) };
+  const kept = storedConsensusOf(selection, run, ENGINE_VERSION);
   const preferred = result && (result.preferred === "modified_arrhenius" ? result.modifiedArrhenius : result.arrhenius);
-  if (!result || !preferred || preferred.params.A === null) return { expression: null, comparison };
+  if (!result || !preferred || preferred.params.A === null) return { expression: null, comparison, kept };
   return {
+    kept,
     expression: {
       model: result.preferred,
       a: preferred.params.A,
@@ -476,16 +482,18 @@ async function consensusOf(
 }
 
 /**
- * Rewrites the summaries whose comparison basis is missing (rows from before bases were kept) or of
- * another engine version, SUMMARY_BATCH reactions a transaction; returns how many. Run by the
- * migration, so a mechanism check reads bases rather than points from the first start on.
+ * Rewrites the summaries whose comparison basis or kept consensus is missing (rows from before they
+ * were kept) or of another engine version, SUMMARY_BATCH reactions a transaction; returns how many.
+ * Run by the migration, so a mechanism check reads bases rather than points, and reaction pages the
+ * kept consensus, from the first start on.
  */
 export async function rebuildStaleComparisonBases({ onProgress }: { onProgress?: (done: number, total: number) => void } = {}) {
   const db = getDb();
   const ids = (
     await db.execute<{ id: number }>(sql`
       select reaction_id as id from search_reaction_summaries
-      where comparison is null or comparison ->> 'engine' is distinct from ${ENGINE_VERSION} order by 1`)
+      where comparison is null or comparison ->> 'engine' is distinct from ${ENGINE_VERSION}
+        or consensus_result is null or consensus_result ->> 'engine' is distinct from ${ENGINE_VERSION} order by 1`)
   ).map((r) => Number(r.id));
   for (let i = 0; i < ids.length; i += SUMMARY_BATCH) {
     await db.transaction((tx) => writeReactionSummaries(tx, ids.slice(i, i + SUMMARY_BATCH)));

@@ -1,0 +1,1 @@
+ALTER TABLE "search_reaction_summaries" ADD COLUMN "consensus_result" jsonb;
