@@ -24,7 +24,7 @@ export async function loadReactionConsensus({
   reactionId,
   choice,
   db,
-  read = { versions: listPublicVersionsOfReaction, exclusions: listConsensusExclusions },
+  read = { versions: listPublicVersionsOfReaction, exclusions: listConsensusExclusions, kept: readKeptConsensus },
 }: {
   reactionId: number;
   choice: ConsensusChoice;
