@@ -8,30 +8,11 @@ import {
   selectConsensusDatasets,
   selectionToJson,
   withEngineLeftOut,
-  type CandidateVersion,
   type ConsensusChoice,
   type CuratorExclusion,
 } from "@/lib/reactions/consensus-selection";
 
-// Constructed data: k = 2e-12 exp(−1500 K / T) cm³ molecule⁻¹ s⁻¹ at the given temperatures (invented).
-const pointsAt = (Ts: number[], factor = 1) => Ts.map((T) => ({ T, k: factor * 2e-12 * Math.exp(-1500 / T) }));
-
-let nextId = 100;
-function version(over: Partial<CandidateVersion> & { category?: string; order?: number; Ts?: number[] } = {}): CandidateVersion {
-  const { category = "experiment", order = 2, Ts = [250, 300, 350, 400], ...rest } = over;
-  const id = nextId++;
-  return {
-    versionId: id,
-    datasetId: id + 1000,
-    number: 1,
-    title: `Dataset ${id}`,
-    state: "published",
-    versionIdentifier: null,
-    payload: { method: { category, technique: "x" }, reaction: { order } },
-    points: pointsAt(Ts),
-    ...rest,
-  };
-}
+import { candidateVersion as version, pointsAt } from "./candidate-versions";
 
 const choice = (c: Partial<ConsensusChoice> = {}): ConsensusChoice => ({ ...DEFAULT_CONSENSUS_CHOICE, ...c });
 const reasonCodes = (sel: ReturnType<typeof selectConsensusDatasets>, versionId: number) =>

@@ -7,23 +7,12 @@ import {
   type CuratorExclusion,
 } from "@/lib/reactions/consensus-selection";
 import { consensusInputKey, readStoredConsensus, storedConsensusOf } from "@/lib/reactions/stored-consensus";
+import { candidateVersion, pointsAt } from "./candidate-versions";
 
-// Constructed data (a caching test, not a check of the numbers): k = A exp(−1500 K / T) with a per-dataset
-// factor and a small alternating scatter, so the engine has something to weigh (invented values).
-let nextId = 500;
-function version(factor: number, Ts = [250, 300, 350, 400, 450]): CandidateVersion {
-  const id = nextId++;
-  return {
-    versionId: id,
-    datasetId: id + 1000,
-    number: 1,
-    title: `Dataset ${id}`,
-    state: "published",
-    versionIdentifier: null,
-    payload: { method: { category: "experiment", technique: "x" }, reaction: { order: 2 } },
-    points: Ts.map((T, i) => ({ T, k: factor * (1 + (i % 2 ? 0.03 : -0.03)) * 2e-12 * Math.exp(-1500 / T) })),
-  };
-}
+// Constructed data (a caching test, not a check of the numbers; invented): the shared k(T) with a per-dataset
+// factor and a small alternating scatter, so the engine has something to weigh.
+const version = (factor: number, Ts = [250, 300, 350, 400, 450]) =>
+  candidateVersion({ Ts, points: pointsAt(Ts, factor).map((p, i) => ({ ...p, k: p.k * (1 + (i % 2 ? 0.03 : -0.03)) })) });
 
 const ENGINE = "engine-test-1";
 const versions = [version(1), version(1.1), version(0.92), version(30)];
