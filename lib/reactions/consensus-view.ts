@@ -24,7 +24,7 @@ export async function loadReactionConsensus({
   reactionId,
   choice,
   db,
-  read = { versions: listPublicVersionsOfReaction, exclusions: listConsensusExclusions, kept: readKeptConsensus },
+  read = { versions: listPublicVersionsOfReaction, exclusions: listConsensusExclusions },
 }: {
   reactionId: number;
   choice: ConsensusChoice;
