@@ -30,8 +30,8 @@ const NOT_A_PAGE = /^\/(?:api\/|_next\/)/;
 
 /** Whether a request is a page render that waits for a place. */
 export function isGatedRender(req: Pick<http.IncomingMessage, "method" | "url" | "headers">): boolean {
+  // A server action is a POST; a Next-Action header on a GET is ignored by Next (the page renders), so not by the gate.
   if (req.method !== "GET" && req.method !== "HEAD") return false;
-  if (req.headers["next-action"]) return false;
   const path = (req.url ?? "/").split("?")[0];
   if (NOT_A_PAGE.test(path)) return false;
   // A path ending in a file extension (favicon, robots.txt, sitemaps, feeds) is a file or a route handler.

@@ -51,7 +51,9 @@ describe("isGatedRender", () => {
     expect(r("HEAD", "/reactions/ABC~*?include=measured")).toBe(true);
     expect(r("GET", "/")).toBe(true);
     expect(r("POST", "/datasets/1/v2")).toBe(false);
-    expect(r("GET", "/datasets/1/v2", { "next-action": "abc" })).toBe(false);
+    // Next renders the page for a GET whatever its Next-Action header says: the header cannot skip the queue.
+    expect(r("GET", "/datasets/1/v2", { "next-action": "abc" })).toBe(true);
+    expect(r("POST", "/datasets/1/v2", { "next-action": "abc" })).toBe(false);
     expect(r("GET", "/api/v1/search?q=x")).toBe(false);
     expect(r("GET", "/_next/static/chunks/a.js")).toBe(false);
     expect(r("GET", "/sitemap.xml")).toBe(false);
