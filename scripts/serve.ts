@@ -125,7 +125,16 @@ next.on("exit", (code) => void stop(code ?? 0));
 
 // The front server opens once Next is up and every route's modules are loaded (scripts/warm-up.ts).
 await warmUpApp({ port: innerPort, key: edgeKey, distDir: nextDistDir() });
-running.edge = await startEdgeProxy({ host, port, upstreamPort: innerPort, trust, key: edgeKey, appOrigin: new URL(appUrl()).origin });
+running.edge = await startEdgeProxy({
+  host,
+  port,
+  upstreamPort: innerPort,
+  trust,
+  key: edgeKey,
+  appOrigin: new URL(appUrl()).origin,
+  // Search is answered in this process (lib/http/front-routes.ts): Next's thread is left to the pages.
+  answersHere: true,
+});
 
 if (!quiet) {
   const width = Math.max(...demoAccounts.map((a) => a.email.length));

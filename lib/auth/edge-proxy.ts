@@ -8,6 +8,7 @@ import { isIP, type AddressInfo } from "node:net";
 import proxyaddr from "proxy-addr";
 import { ActionBodyGuard, isActionRequest, isApiPath, pagePath } from "./action-body-guard";
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "./client-address";
+import { answerHere, frontRoute } from "@/lib/http/front-routes";
 
 export type TrustProxy = (address: string, hop: number) => boolean;
 
@@ -193,6 +194,7 @@ export async function startEdgeProxy({
   key,
   appOrigin,
   bodyIdleTimeoutMs = BODY_IDLE_TIMEOUT_MS,
+  answersHere = false,
 }: {
   host: string;
   port: number;
@@ -202,6 +204,8 @@ export async function startEdgeProxy({
   /** The origin of APP_URL: the one origin server actions are accepted from. */
   appOrigin: string;
   bodyIdleTimeoutMs?: number;
+  /** Answer the public reads of lib/http/front-routes.ts (search) in this process instead of passing them on to the app. */
+  answersHere?: boolean;
 }) {
   const agent = new http.Agent({ keepAlive: true });
   // One connection per request: the second try of a GET whose kept-alive socket the app had closed.
@@ -237,6 +241,16 @@ export async function startEdgeProxy({
     if (BODYLESS_METHODS.has(req.method ?? "") && declaresBody(req.headers)) {
       refuse(res, 400, "bad_request", "Bad request", `A ${req.method} request has no body; this one declares one.`);
       closeAfterAnswer(req, res);
+      return;
+    }
+    const here = answersHere ? frontRoute(req.method, req.url) : null;
+    if (here) {
+      answerHere(here, req, res, { origin: ownOrigin, headers }).catch((err) => {
+        console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}:`, err);
+        if (!res.headersSent) refuse(res, 500, "internal", "Internal server error", "The request could not be answered.");
+        else res.destroy();
+      });
+      req.resume();
       return;
     }
     // Server actions: Next reads the whole body before any code of ours runs, so it is capped here.

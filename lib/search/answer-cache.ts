@@ -23,8 +23,11 @@ interface Entry {
 }
 
 export interface AnswerCache {
-  /** The answer's JSON text: from memory when computed under the current generation `generation()`, else computed by `compute` and kept. */
-  get(key: string, compute: () => Promise<string>): Promise<string>;
+  /**
+   * The answer's JSON text: from memory when computed under the current generation `generation()`,
+   * else computed by `compute` (given the mark just read) and kept.
+   */
+  get(key: string, compute: (generation: string) => Promise<string>): Promise<string>;
   clear(): void;
   readonly stats: { hits: number; misses: number; bytes: number; entries: number };
 }
@@ -62,7 +65,7 @@ export function answerCache(generation: () => Promise<string>, { maxBytes, maxEn
       const running = pending.get(slot);
       if (running) return running;
       stats.misses++;
-      const computing = compute()
+      const computing = compute(mark)
         .then((json) => {
           const bytes = json.length * 2;
           if (bytes <= maxEntryBytes) {

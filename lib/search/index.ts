@@ -8,7 +8,7 @@ import { displayEquations } from "./lexicon";
 import { resolveQuery } from "./resolve-query";
 import { CAUTION } from "@/lib/analyses/analyse-request";
 import { answerCache } from "./answer-cache";
-import { getSearchGeneration } from "./queries";
+import { getSearchGeneration, withSearchGeneration } from "./queries";
 import type { FacetCount, ParsedQuery, SearchAnswer, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
 
 /**
@@ -96,7 +96,10 @@ const answers = answerCache(getSearchGeneration, { maxBytes: 32 * 2 ** 20, maxEn
 export async function searchAnswerJson(request: SearchRequest, engine?: SearchEngine): Promise<string> {
   const chosen = engine ?? currentSearchEngine();
   if (chosen !== postgresEngine) return JSON.stringify(await answerOf(request, chosen));
-  return answers.get(JSON.stringify(request), async () => JSON.stringify(await answerOf(request, postgresEngine)));
+  // The mark the cache just read is the one every read of this search uses (one query, not four).
+  return answers.get(JSON.stringify(request), (mark) =>
+    withSearchGeneration(mark, async () => JSON.stringify(await answerOf(request, postgresEngine))),
+  );
 }
 
 /** The search in the shape GET /api/v1/search answers, with the caution sentence: the page's first answer. */

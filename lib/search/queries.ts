@@ -1,4 +1,5 @@
 import "server-only";
+import { AsyncLocalStorage } from "node:async_hooks";
 import { and, asc, eq, gt, inArray, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { reactions, species, speciesNames } from "@/db/chemistry";
@@ -253,8 +254,23 @@ export async function listSearchDocumentIdsAfter({ after, limit }: { after: numb
   return rows.map((r) => r.id);
 }
 
+/** The mark one search has already read, for the reads it makes after (see withSearchGeneration). */
+const readMark = new AsyncLocalStorage<string>();
+
+/**
+ * Runs `work` with `generation`, a mark read after the request arrived, as what getSearchGeneration
+ * answers inside it: one search asks for the mark in several places (its kept answer, the species
+ * lexicon, the in-memory index, the display names), and one read serves them all. Each loader still
+ * takes a snapshot never older than that mark.
+ */
+export function withSearchGeneration<T>(generation: string, work: () => Promise<T>): Promise<T> {
+  return readMark.run(generation, work);
+}
+
 /** The mark of the search documents' state (drizzle/0025 sets it in every transaction that changes them); "none" before any. */
 export async function getSearchGeneration(): Promise<string> {
+  const known = readMark.getStore();
+  if (known !== undefined) return known;
   const [row] = await getDb().execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
   return row?.g ?? "none";
 }

@@ -408,8 +408,79 @@ function topValues(dictionary: Dictionary, counts: Int32Array): { value: string;
   return listed;
 }
 
-/** True when any of `keys` is in the key set. */
-export function overlaps(set: readonly string[], keys: readonly string[]): boolean {
-  for (const k of keys) if (set.includes(k)) return true;
-  return false;
+// ---------------------------------------------------------------------------------------------
+// Species and reactions: which documents name them
+
+/** Per index, the key sets holding each InChIKey and the reaction positions of each reaction key (built at first use). */
+const lookups = new WeakMap<MemoryIndex, { setsByKey: Map<string, number[]>; reactionsByKey: Map<string, number[]> }>();
+
+function lookupsOf(index: MemoryIndex) {
+  let found = lookups.get(index);
+  if (!found) {
+    const setsByKey = new Map<string, number[]>();
+    index.keySets.forEach((set, at) => {
+      for (const key of new Set(set)) {
+        const list = setsByKey.get(key);
+        if (list) list.push(at);
+        else setsByKey.set(key, [at]);
+      }
+    });
+    const reactionsByKey = new Map<string, number[]>();
+    index.reactions.forEach((r, at) => {
+      const list = reactionsByKey.get(r.key);
+      if (list) list.push(at);
+      else reactionsByKey.set(r.key, [at]);
+    });
+    found = { setsByKey, reactionsByKey };
+    lookups.set(index, found);
+  }
+  return found;
+}
+
+/**
+ * The key sets (by position in `keySets`) that hold, for every group of `groups`, at least one of
+ * its keys: 1 in the answer. No group: every set. A reactant or product term of a reaction pattern
+ * is one group (the InChIKeys its text may mean); a species query is one group.
+ */
+export function setsHoldingEvery(index: MemoryIndex, groups: readonly (readonly string[])[]): Uint8Array {
+  const sets = index.keySets.length;
+  const ok = new Uint8Array(sets);
+  if (groups.length === 0) return ok.fill(1);
+  const { setsByKey } = lookupsOf(index);
+  // How many groups each set satisfies; a group counts once per set, whichever of its keys it holds.
+  const satisfied = new Uint16Array(sets);
+  const seen = new Int32Array(sets).fill(-1);
+  groups.forEach((keys, g) => {
+    for (const key of keys)
+      for (const at of setsByKey.get(key) ?? []) {
+        if (seen[at] === g) continue;
+        seen[at] = g;
+        satisfied[at]++;
+      }
+  });
+  for (let at = 0; at < sets; at++) if (satisfied[at] === groups.length) ok[at] = 1;
+  return ok;
+}
+
+/** Positions, in order, of the documents whose reactant set passes `reactants` and product set `products` (both, or either). */
+export function positionsBySets(index: MemoryIndex, reactants: Uint8Array, products: Uint8Array, need: "both" | "either"): Int32Array {
+  const { reactantSet, productSet, size } = index;
+  const out = new Int32Array(size);
+  let n = 0;
+  if (need === "both") {
+    for (let i = 0; i < size; i++) if (reactants[reactantSet[i]] && products[productSet[i]]) out[n++] = i;
+  } else {
+    for (let i = 0; i < size; i++) if (reactants[reactantSet[i]] || products[productSet[i]]) out[n++] = i;
+  }
+  return out.subarray(0, n);
+}
+
+/** Positions, in order, of the documents of the reaction with this key. */
+export function positionsOfReactionKey(index: MemoryIndex, key: string): Int32Array {
+  const wanted = new Uint8Array(index.reactions.length);
+  for (const at of lookupsOf(index).reactionsByKey.get(key) ?? []) wanted[at] = 1;
+  const out = new Int32Array(index.size);
+  let n = 0;
+  for (let i = 0; i < index.size; i++) if (wanted[index.reaction[i]]) out[n++] = i;
+  return out.subarray(0, n);
 }

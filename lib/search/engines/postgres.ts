@@ -2,7 +2,15 @@ import "server-only";
 import { sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { AppError } from "@/lib/errors";
-import { countFacets, filterWindows, memoryIndex, overlaps, type MemoryIndex } from "./memory-index";
+import {
+  countFacets,
+  filterWindows,
+  memoryIndex,
+  positionsBySets,
+  positionsOfReactionKey,
+  setsHoldingEvery,
+  type MemoryIndex,
+} from "./memory-index";
 import { relevanceKeys, topByKey } from "./relevance";
 import {
   SEARCH_FACETS,
@@ -168,7 +176,6 @@ async function candidatesOf(
     }
     return { positions: Int32Array.from(positions), rank: ranked ? Float64Array.from(ranks) : null };
   }
-  let test: (i: number) => boolean;
   switch (parsed.kind) {
     case "all": {
       const all = new Int32Array(index.size);
@@ -177,26 +184,17 @@ async function candidatesOf(
     }
     case "species": {
       // Decided once per distinct key set (documents of a reaction share theirs).
-      const hit = index.keySets.map((set) => overlaps(set, parsed.inchiKeys));
-      test = (i) => hit[index.reactantSet[i]] || hit[index.productSet[i]];
-      break;
+      const hit = setsHoldingEvery(index, [parsed.inchiKeys]);
+      return { positions: positionsBySets(index, hit, hit, "either"), rank: null };
     }
     case "reaction": {
-      const reactantsOk = index.keySets.map((set) => parsed.reactants.every((keys) => overlaps(set, keys)));
-      const productsOk = index.keySets.map((set) => parsed.products.every((keys) => overlaps(set, keys)));
-      test = (i) => reactantsOk[index.reactantSet[i]] && productsOk[index.productSet[i]];
-      break;
+      const reactantsOk = setsHoldingEvery(index, parsed.reactants);
+      const productsOk = setsHoldingEvery(index, parsed.products);
+      return { positions: positionsBySets(index, reactantsOk, productsOk, "both"), rank: null };
     }
-    case "reactionKey": {
-      const wanted = new Set(index.reactions.flatMap((r, at) => (r.key === parsed.key ? [at] : [])));
-      test = (i) => wanted.has(index.reaction[i]);
-      break;
-    }
+    case "reactionKey":
+      return { positions: positionsOfReactionKey(index, parsed.key), rank: null };
   }
-  const positions = new Int32Array(index.size);
-  let found = 0;
-  for (let i = 0; i < index.size; i++) if (test(i)) positions[found++] = i;
-  return { positions: positions.subarray(0, found), rank: null };
 }
 
 /** The datasets view's sort key of one document. */

@@ -56,3 +56,17 @@ describe("the search answers kept in memory", () => {
     expect(await ask("q=x")).toBe("answer of q=x under g1");
   });
 });
+
+describe("the mark one search reads", () => {
+  it("is handed to the computation, which reads no other (lib/search/queries.ts withSearchGeneration)", async () => {
+    let reads = 0;
+    const cache = answerCache(async () => `g${++reads}`, { maxBytes: 1000, maxEntryBytes: 400 });
+    const given: string[] = [];
+    await cache.get("q=OH", async (mark) => {
+      given.push(mark);
+      return "answer";
+    });
+    expect(given).toEqual(["g1"]);
+    expect(reads).toBe(1);
+  });
+});

@@ -1,0 +1,92 @@
+/**
+ * Public reads the front server (lib/auth/edge-proxy.ts) answers itself, with the same route
+ * handler Next would run, instead of passing them on to Next: search (GET /api/v1/search and its
+ * suggestions). Next's router, its web-stream plumbing and the second hop cost about 3 ms of Next's
+ * one thread per request, more than a kept search answer costs to send; answered here, search runs
+ * in the front server's own process (the machine's second core) and never queues behind a page render.
+ *
+ * Only handlers that ignore the caller (withApi with scope null, no session look-up) and answer the
+ * same for everyone are listed; a bearer token is still checked by withApi as in Next. The request
+ * carries the headers the proxy would forward (the client's address and the per-start key, which
+ * lib/auth/client-address.ts believes), so budgets and limits count as they would behind Next.
+ */
+import type http from "node:http";
+import { promisify } from "node:util";
+import { gzip } from "node:zlib";
+import Negotiator from "negotiator";
+
+/** A route handler as Next calls one: a web Request in, a web Response out. */
+export type WebHandler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
+
+/** Paths answered in the front server, each with the module that exports its GET handler. */
+const ROUTES: Record<string, () => Promise<{ GET: WebHandler }>> = {
+  "/api/v1/search": once(() => import("@/app/api/v1/search/route") as Promise<{ GET: WebHandler }>),
+  "/api/v1/search/suggest": once(() => import("@/app/api/v1/search/suggest/route") as Promise<{ GET: WebHandler }>),
+};
+
+/** The module loaded at its first request, then kept (each import() would go through the module loader again). */
+function once<T>(load: () => Promise<T>): () => Promise<T> {
+  let loaded: Promise<T> | null = null;
+  return () =>
+    (loaded ??= load().catch((err) => {
+      loaded = null;
+      throw err;
+    }));
+}
+
+/** The paths answered here (for tests and DEVELOPERS.md). */
+export const FRONT_ROUTE_PATHS = Object.keys(ROUTES);
+
+/** The handler of a GET or HEAD of one of these paths (query string aside), or null: Next answers it. */
+export function frontRoute(method: string | undefined, url: string): (() => Promise<{ GET: WebHandler }>) | null {
+  if (method !== "GET" && method !== "HEAD") return null;
+  const q = url.indexOf("?");
+  const path = q === -1 ? url : url.slice(0, q);
+  return Object.hasOwn(ROUTES, path) ? ROUTES[path] : null;
+}
+
+/** Bodies at least this long are compressed for a client that accepts gzip (as Next's own server does). */
+const COMPRESS_FROM_BYTES = 1024;
+const gzipAsync = promisify(gzip);
+
+/**
+ * Runs `load`'s GET for the request and writes its answer to `res`: status, headers, body (none
+ * for HEAD), gzip when the client accepts it. `headers` are the ones the proxy would have forwarded.
+ */
+export async function answerHere(
+  load: () => Promise<{ GET: WebHandler }>,
+  req: http.IncomingMessage,
+  res: http.ServerResponse,
+  { origin, headers }: { origin: string; headers: http.OutgoingHttpHeaders },
+): Promise<void> {
+  const aborted = new AbortController();
+  res.on("close", () => {
+    if (!res.writableFinished) aborted.abort();
+  });
+  const requestHeaders = new Headers();
+  for (const [name, value] of Object.entries(headers)) {
+    if (value === undefined) continue;
+    if (Array.isArray(value)) for (const v of value) requestHeaders.append(name, v);
+    else requestHeaders.set(name, String(value));
+  }
+  const request = new Request(new URL(req.url ?? "/", origin), { method: "GET", headers: requestHeaders, signal: aborted.signal });
+  const { GET } = await load();
+  const answer = await GET(request, { params: Promise.resolve({}) });
+  if (res.destroyed) return;
+  let body: Buffer = Buffer.from(await answer.arrayBuffer());
+  const out: http.OutgoingHttpHeaders = {};
+  answer.headers.forEach((value, name) => {
+    out[name] = value;
+  });
+  if (answer.status === 200 && body.length >= COMPRESS_FROM_BYTES && !out["content-encoding"]) {
+    out.vary = out.vary ? `${out.vary}, Accept-Encoding` : "Accept-Encoding";
+    if (new Negotiator(req).encoding(["gzip", "identity"]) === "gzip") {
+      body = await gzipAsync(body);
+      out["content-encoding"] = "gzip";
+    }
+  }
+  out["content-length"] = body.length;
+  if (res.destroyed) return;
+  res.writeHead(answer.status, out);
+  res.end(req.method === "HEAD" ? undefined : body);
+}

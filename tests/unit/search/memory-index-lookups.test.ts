@@ -1,0 +1,89 @@
+import { describe, expect, it } from "vitest";
+import { positionsBySets, positionsOfReactionKey, setsHoldingEvery, type MemoryIndex } from "@/lib/search/engines/memory-index";
+
+// Species and reaction look-ups of the in-memory index, against the plain reading of what they
+// mean: a document matches a species when either side names it, a reaction pattern when every
+// reactant term is among its reactants and every product term among its products.
+
+/** A small deterministic generator (mulberry32), so a failure can be replayed. */
+function random(seed: number) {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+const KEYS = Array.from({ length: 12 }, (_, i) => `KEY${String(i).padStart(2, "0")}-UHFFFAOYSA-N`);
+
+/** Only what the look-ups read of an index. */
+function indexOf(keySets: string[][], sides: [number, number][], reactionOfDoc: number[], reactionKeys: string[]): MemoryIndex {
+  return {
+    size: sides.length,
+    keySets,
+    reactantSet: Int32Array.from(sides.map((s) => s[0])),
+    productSet: Int32Array.from(sides.map((s) => s[1])),
+    reaction: Int32Array.from(reactionOfDoc),
+    reactions: reactionKeys.map((key, id) => ({ id, key, equation: key })),
+  } as unknown as MemoryIndex;
+}
+
+const has = (set: string[], group: string[]) => group.some((k) => set.includes(k));
+
+describe("species and reaction look-ups of the in-memory index", () => {
+  const next = random(20261204);
+  const pick = <T>(list: T[]) => list[Math.floor(next() * list.length)];
+  const keySets = Array.from({ length: 40 }, () => Array.from({ length: 1 + Math.floor(next() * 3) }, () => pick(KEYS)));
+  keySets.push([]); // a side with no species (products not given)
+  const sides = Array.from(
+    { length: 500 },
+    () => [Math.floor(next() * keySets.length), Math.floor(next() * keySets.length)] as [number, number],
+  );
+  const reactionKeys = ["R-A", "R-B", "R-C", "R-A"]; // two reactions may share a key
+  const reactionOfDoc = sides.map(() => Math.floor(next() * reactionKeys.length));
+  const index = indexOf(keySets, sides, reactionOfDoc, reactionKeys);
+  const positions = (test: (i: number) => boolean) => sides.flatMap((_, i) => (test(i) ? [i] : []));
+
+  it("a species (any of the keys its text may mean) matches documents naming it on either side, in order", () => {
+    for (let round = 0; round < 50; round++) {
+      const group = Array.from({ length: 1 + Math.floor(next() * 2) }, () => pick(KEYS));
+      const hit = setsHoldingEvery(index, [group]);
+      const expected = positions((i) => has(keySets[sides[i][0]], group) || has(keySets[sides[i][1]], group));
+      expect(Array.from(positionsBySets(index, hit, hit, "either"))).toEqual(expected);
+    }
+  });
+
+  it("a reaction pattern needs every reactant term among the reactants and every product term among the products", () => {
+    for (let round = 0; round < 80; round++) {
+      const terms = () =>
+        Array.from({ length: Math.floor(next() * 3) }, () => Array.from({ length: 1 + Math.floor(next() * 2) }, () => pick(KEYS)));
+      const reactants = terms();
+      const products = terms();
+      const expected = positions(
+        (i) => reactants.every((g) => has(keySets[sides[i][0]], g)) && products.every((g) => has(keySets[sides[i][1]], g)),
+      );
+      const got = positionsBySets(index, setsHoldingEvery(index, reactants), setsHoldingEvery(index, products), "both");
+      expect(Array.from(got)).toEqual(expected);
+    }
+  });
+
+  it("a term written twice (A + A) is satisfied by one A; a term that means nothing matches nothing", () => {
+    const a = KEYS[0];
+    const twice = setsHoldingEvery(index, [[a], [a]]);
+    const once = setsHoldingEvery(index, [[a]]);
+    expect(Array.from(twice)).toEqual(Array.from(once));
+    expect(Array.from(setsHoldingEvery(index, [[]])).every((x) => x === 0)).toBe(true);
+    expect(Array.from(setsHoldingEvery(index, [["NOT-A-KEY"]])).every((x) => x === 0)).toBe(true);
+    // No term at all: every side passes.
+    expect(Array.from(setsHoldingEvery(index, [])).every((x) => x === 1)).toBe(true);
+  });
+
+  it("a reaction key finds the documents of every reaction with that key, in order", () => {
+    expect(Array.from(positionsOfReactionKey(index, "R-A"))).toEqual(positions((i) => reactionKeys[reactionOfDoc[i]] === "R-A"));
+    expect(Array.from(positionsOfReactionKey(index, "R-C"))).toEqual(positions((i) => reactionOfDoc[i] === 2));
+    expect(positionsOfReactionKey(index, "R-NONE").length).toBe(0);
+  });
+});
