@@ -1,3 +1,4 @@
+import { mayCarrySession } from "@/lib/auth/session-cookie";
 import type http from "node:http";
 
 /**
@@ -48,13 +49,6 @@ const BYPASS_HEADERS = [
   "next-router-segment-prefetch",
 ];
 
-/**
- * Any cookie next-auth may read as (part of) a session: it takes every cookie whose name *starts*
- * with its session cookie's name (`next-auth.session-token`, `__Secure-…`, chunks `.0`, `.1` — and
- * any other suffix), so a name that merely contains it bypasses the cache (case ignored, to be safe).
- */
-const SESSION_COOKIE = /(?:^|;)[^=;]*next-auth\.session-token[^=;]*=/i;
-
 /** Response header saying whether the answer came from the cache (`hit`) or was rendered and stored (`miss`). */
 export const HTML_CACHE_HEADER = "x-arrhenia-html-cache";
 
@@ -103,8 +97,8 @@ export function htmlCacheKey(req: Pick<http.IncomingMessage, "method" | "url" | 
   if (req.method !== "GET" || !req.url) return null;
   const headers = req.headers;
   if (BYPASS_HEADERS.some((name) => headers[name] !== undefined)) return null;
-  const cookie = headers.cookie;
-  if (cookie && SESSION_COOKIE.test(cookie)) return null;
+  // A cookie next-auth may read as a session (lib/auth/session-cookie.ts) bypasses the cache.
+  if (mayCarrySession(headers.cookie)) return null;
   const q = req.url.indexOf("?");
   const path = q === -1 ? req.url : req.url.slice(0, q);
   if (!CACHED_PATHS.some((re) => re.test(path))) return null;

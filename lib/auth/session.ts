@@ -1,5 +1,7 @@
 import "server-only";
 import { getServerSession } from "next-auth";
+import { headers } from "next/headers";
+import { mayCarrySession } from "./session-cookie";
 import { getUserForSession, type UserDto } from "@/lib/users/queries";
 import { authOptions } from "./options";
 
@@ -9,6 +11,8 @@ import { authOptions } from "./options";
  * once rather than when the JWT expires.
  */
 export async function getCurrentUser(): Promise<UserDto | null> {
+  // No session cookie, nobody signed in: next-auth is not asked (most public page views).
+  if (!mayCarrySession((await headers()).get("cookie"))) return null;
   const session = await getServerSession(authOptions);
   const id = session?.user?.id;
   if (!id) return null;

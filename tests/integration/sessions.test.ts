@@ -14,6 +14,16 @@ vi.mock("next-auth", async (importOriginal) => ({
   },
 }));
 
+// getCurrentUser asks next-auth only when the request carries a session cookie: the same jar's.
+vi.mock("next/headers", () => ({
+  headers: async () =>
+    new Headers({
+      cookie: Object.entries(cookieJar)
+        .map(([name, value]) => `${name}=${value}`)
+        .join("; "),
+    }),
+}));
+
 import { hashPassword } from "@/lib/auth/password";
 import { authOptions } from "@/lib/auth/options";
 import { getCurrentUser } from "@/lib/auth/session";
