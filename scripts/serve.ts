@@ -41,6 +41,7 @@ import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { startCaptureServer } from "@/lib/mail/capture-server";
 import { DEMO_PASSWORD, demoAccounts } from "./seed/seed-data";
 import { warmUpApp } from "./warm-up";
+import { loadFrontRoutes } from "@/lib/http/front-routes";
 
 // A bad setting stops here, before anything listens, with every problem listed.
 try {
@@ -124,7 +125,7 @@ process.on("SIGTERM", () => void stop(0));
 next.on("exit", (code) => void stop(code ?? 0));
 
 // The front server opens once Next is up and every route's modules are loaded (scripts/warm-up.ts).
-await warmUpApp({ port: innerPort, key: edgeKey, distDir: nextDistDir() });
+await Promise.all([warmUpApp({ port: innerPort, key: edgeKey, distDir: nextDistDir() }), loadFrontRoutes()]);
 running.edge = await startEdgeProxy({
   host,
   port,

@@ -34,6 +34,11 @@ function once<T>(load: () => Promise<T>): () => Promise<T> {
     }));
 }
 
+/** Loads every handler answered here (the front server does it before it opens, as Next's routes are warmed). */
+export async function loadFrontRoutes(): Promise<void> {
+  await Promise.all(Object.values(ROUTES).map((load) => load()));
+}
+
 /** The paths answered here (for tests and DEVELOPERS.md). */
 export const FRONT_ROUTE_PATHS = Object.keys(ROUTES);
 
