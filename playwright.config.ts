@@ -37,7 +37,7 @@ export default defineConfig({
   },
   projects: [{ name: "chromium", use: { ...devices["Desktop Chrome"], channel: undefined } }],
   webServer: {
-    command: "node_modules/.bin/tsx --conditions=react-server scripts/serve.ts",
+    command: "node_modules/.bin/tsx --conditions=react-server --max-old-space-size=384 scripts/serve.ts",
     url: `${baseURL}/api/health`,
     reuseExistingServer: false,
     // Start-up includes one warm-up request per route before the front server opens (scripts/warm-up.ts).

@@ -23,6 +23,7 @@ import { loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import postgres from "postgres";
 import { ENGINE_VERSION } from "@/lib/datasets/prepare";
+import { frontHeapMb } from "@/lib/config";
 import { reactionPath } from "@/lib/reactions/paths";
 import { FILTER_PARAMETERS } from "@/lib/search/params";
 import { fillBenchDatabase, fillSize, FILL_VERSION, type FillReport } from "./bench/fill";
@@ -237,26 +238,30 @@ function buildApp() {
 
 function startServer(): ChildProcess {
   // Node with tsx's loader, as scripts/serve.ts starts Next: no tsx command process in the measured tree.
-  return spawn(process.execPath, ["--import", "tsx", "--conditions=react-server", "scripts/serve.ts"], {
-    stdio: ["ignore", "inherit", "inherit"],
-    detached: false,
-    env: {
-      ...process.env,
-      PORT: String(port),
-      HOST: "127.0.0.1",
-      APP_URL: base,
-      NEXTAUTH_URL: base,
-      NEXTAUTH_SECRET: `bench-${Math.random().toString(36).slice(2)}`,
-      NEXT_DIST_DIR: distDir,
-      SERVE_QUIET: "1",
-      // One load generator is one client: its budget would end the run in a second.
-      API_RATE_LIMIT: "10000000",
-      NODE_ENV: "production",
-      MAIL_CAPTURE_PORT: String(env("MAIL_CAPTURE_PORT", port + 5)),
-      DOI_FAKE_PORT: String(env("DOI_FAKE_PORT", port + 7)),
-      DOI_FAKE_DATA_DIR: mkdtempSync(path.join(tmpdir(), "arrhenia-bench-doi-")),
+  return spawn(
+    process.execPath,
+    [`--max-old-space-size=${frontHeapMb()}`, "--import", "tsx", "--conditions=react-server", "scripts/serve.ts"],
+    {
+      stdio: ["ignore", "inherit", "inherit"],
+      detached: false,
+      env: {
+        ...process.env,
+        PORT: String(port),
+        HOST: "127.0.0.1",
+        APP_URL: base,
+        NEXTAUTH_URL: base,
+        NEXTAUTH_SECRET: `bench-${Math.random().toString(36).slice(2)}`,
+        NEXT_DIST_DIR: distDir,
+        SERVE_QUIET: "1",
+        // One load generator is one client: its budget would end the run in a second.
+        API_RATE_LIMIT: "10000000",
+        NODE_ENV: "production",
+        MAIL_CAPTURE_PORT: String(env("MAIL_CAPTURE_PORT", port + 5)),
+        DOI_FAKE_PORT: String(env("DOI_FAKE_PORT", port + 7)),
+        DOI_FAKE_DATA_DIR: mkdtempSync(path.join(tmpdir(), "arrhenia-bench-doi-")),
+      },
     },
-  });
+  );
 }
 
 async function waitForServer(server: ChildProcess, deadline = Date.now() + 180_000) {

@@ -18,6 +18,7 @@ import {
   fakeDoiDataDir,
   innerPort as configuredInnerPort,
   nextDistDir,
+  nextHeapMb,
   orcidSettings,
   orcidStandInPort,
   serveQuiet,
@@ -90,10 +91,14 @@ const innerPort = configuredInnerPort() ?? (await freeLoopbackPort());
 // Without the react-server condition: Next's own server loads its vendored React as `next start` does.
 forwardCacheInvalidations(cacheInvalidationSender({ port: innerPort, edgeKeyHeader: EDGE_KEY_HEADER, edgeKey, cacheKey }));
 // Node itself with tsx's loader (`--import tsx`), not tsx's command, which would keep one more Node process (about 50 MB) only to relay signals.
-const next = spawn(process.execPath, ["--import", "tsx", "scripts/inner-server.ts", String(innerPort)], {
-  stdio: ["ignore", "inherit", "inherit"],
-  env: process.env,
-});
+const next = spawn(
+  process.execPath,
+  [`--max-old-space-size=${nextHeapMb()}`, "--import", "tsx", "scripts/inner-server.ts", String(innerPort)],
+  {
+    stdio: ["ignore", "inherit", "inherit"],
+    env: process.env,
+  },
+);
 // Set once the front server listens; stop() may run before that (Next exiting during warm-up).
 const running: { edge?: Awaited<ReturnType<typeof startEdgeProxy>> } = {};
 let stopping = false;

@@ -31,4 +31,7 @@ if [ "${SKIP_BUILD:-0}" != "1" ]; then
   log "building (next build)"
   node_modules/.bin/next build >"$ROOT/.data/build.log" 2>&1 || { tail -n 40 "$ROOT/.data/build.log"; die "build failed (full log: .data/build.log)"; }
 fi
-exec "${TSX[@]}" scripts/serve.ts
+# The front server's heap budget (FRONT_HEAP_MB, lib/config.ts frontHeapMb; serve.ts checks its range).
+FRONT_HEAP_MB="${FRONT_HEAP_MB:-384}"
+[[ "$FRONT_HEAP_MB" =~ ^[0-9]{1,5}$ ]] || die "FRONT_HEAP_MB must be a whole number of MB, 128–65536 (got “$FRONT_HEAP_MB”)"
+exec "${TSX[@]}" --max-old-space-size="$FRONT_HEAP_MB" scripts/serve.ts

@@ -6,7 +6,9 @@ import {
   configProblems,
   dbPoolSize,
   fakeDoiDataDir,
+  frontHeapMb,
   jobRetryDelaySeconds,
+  nextHeapMb,
   seedsDemoDatasets,
   serverPort,
   storageDir,
@@ -59,6 +61,16 @@ describe("configuration", () => {
       "10.5555",
       null,
     ]);
+  });
+
+  it("gives the two processes their heap budgets, 384 and 512 MB unless set, and refuses a budget too small to serve", () => {
+    delete process.env.FRONT_HEAP_MB;
+    delete process.env.NEXT_HEAP_MB;
+    expect([frontHeapMb(), nextHeapMb()]).toEqual([384, 512]);
+    Object.assign(process.env, { FRONT_HEAP_MB: "1024", NEXT_HEAP_MB: "2048" });
+    expect([frontHeapMb(), nextHeapMb()]).toEqual([1024, 2048]);
+    process.env.NEXT_HEAP_MB = "64";
+    expect(configProblems().map((p) => p.split(" ")[0])).toContain("NEXT_HEAP_MB");
   });
 
   it("lists every bad value in one error, naming the variable and never echoing a secret", () => {
