@@ -62,3 +62,23 @@ export const reactionParticipants = pgTable(
   },
   (t) => [primaryKey({ columns: [t.reactionId, t.speciesId, t.side] })],
 );
+
+/**
+ * Depictions of species as RDKit draws them (lib/species/drawings.ts): a drawing depends only on
+ * the SMILES, the size and the drawing toolkit's version, so one made is kept for every later page
+ * (drawing takes RDKit 2–5 ms; reading it back, a fraction of one). Filled when first needed and,
+ * for every species at the sizes the public pages use, by `npm run db:migrate`.
+ */
+export const speciesDrawings = pgTable(
+  "species_drawings",
+  {
+    smiles: text().notNull(),
+    width: integer().notNull(),
+    height: integer().notNull(),
+    /** The RDKit version that drew it: another version draws anew. */
+    drawer: text().notNull(),
+    svg: text().notNull(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.smiles, t.width, t.height, t.drawer] })],
+);

@@ -8,6 +8,7 @@ import { ENGINE_VERSION } from "@/lib/datasets/prepare";
 import { installQueues } from "@/lib/jobs/boss";
 import { grantRuntimeRole } from "@/db/privileges";
 import { rebuildSearchDocuments, rebuildStaleComparisonBases } from "@/lib/search/documents";
+import { drawMissingSpeciesDrawings } from "@/lib/species/drawings";
 
 const ownerUrl = migrationDatabaseUrl();
 const client = postgres(ownerUrl, { max: 1, onnotice: () => {} });
@@ -34,6 +35,11 @@ const rebased = await rebuildStaleComparisonBases({
   onProgress: (done, total) => done % 2000 === 0 && console.log(`[arrhenia]   ${done}/${total} reaction summaries`),
 });
 if (rebased) console.log(`[arrhenia] comparison bases and kept consensus written for ${rebased} reaction(s)`);
+// Species not yet drawn at the public pages' sizes by this RDKit (lib/species/drawings.ts): drawn now, not on a reader's page.
+const drawn = await drawMissingSpeciesDrawings({
+  onProgress: (done, total) => done % 1000 === 0 && console.log(`[arrhenia]   ${done}/${total} species drawings`),
+});
+if (drawn) console.log(`[arrhenia] ${drawn} species drawing(s) made`);
 console.log("[arrhenia] database migrated");
 // The app's pool (getDb) would keep the process alive until its idle timeout.
 process.exit(0);

@@ -11,7 +11,7 @@ export { getRdkit, MAX_SMILES_LENGTH, type Rdkit } from "./load-rdkit";
 export { describeSpecies, type SpeciesIdentity, type SpeciesInput } from "./describe-species";
 export { reactionKey, type KeyedParticipant, type KeyedReaction } from "./reaction-key";
 export { checkBalance, type BalanceParticipant, type BalanceResult } from "./check-balance";
-export { renderSpeciesSvg, DEFAULT_DRAWING_SIZE, type DrawingSize } from "./render-species-svg";
+export { renderSpeciesSvg, drawingInMemory, keepDrawingInMemory, DEFAULT_DRAWING_SIZE, type DrawingSize } from "./render-species-svg";
 export { formatHillFormula } from "./hill-formula";
 export { readInchiComposition, type InchiComposition } from "./read-inchi";
 export { STANDARD_ATOMIC_WEIGHTS, NUCLIDE_MASSES } from "./atomic-weights";

@@ -52,22 +52,43 @@ export const drawingCacheStats = {
  * @example await renderSpeciesSvg("[O][N]=O", { width: 200, height: 150 }) // "<svg version='1.1' …</svg>"
  */
 export async function renderSpeciesSvg(smiles: string, size: DrawingSize = {}): Promise<string> {
+  const kept = drawingInMemory(smiles, size);
+  if (kept !== undefined) return kept;
   const width = checkSide(size.width ?? DEFAULT_DRAWING_SIZE.width, "width");
   const height = checkSide(size.height ?? DEFAULT_DRAWING_SIZE.height, "height");
-  const key = `${width}x${height}\n${smiles}`;
-  const kept = drawings.get(key);
-  if (kept !== undefined) {
-    // Most recently used last: a Map keeps insertion order.
-    drawings.delete(key);
-    drawings.set(key, kept);
-    drawingCacheStats.hits++;
-    return kept;
-  }
-  drawingCacheStats.misses++;
   const svg = await drawSvg(smiles, width, height);
-  if (drawings.size >= DRAWINGS_KEPT) drawings.delete(drawings.keys().next().value!);
-  drawings.set(key, svg);
+  keepDrawingInMemory(smiles, { width, height }, svg);
   return svg;
+}
+
+const drawingKey = (smiles: string, size: DrawingSize) =>
+  `${size.width ?? DEFAULT_DRAWING_SIZE.width}x${size.height ?? DEFAULT_DRAWING_SIZE.height}\n${smiles}`;
+
+/** The drawing of `smiles` at `size` if this process has made or read it lately (counted as a hit or a miss). */
+export function drawingInMemory(smiles: string, size: DrawingSize = {}): string | undefined {
+  const key = drawingKey(smiles, size);
+  const kept = drawings.get(key);
+  if (kept === undefined) {
+    drawingCacheStats.misses++;
+    return undefined;
+  }
+  // Most recently used last: a Map keeps insertion order.
+  drawings.delete(key);
+  drawings.set(key, kept);
+  drawingCacheStats.hits++;
+  return kept;
+}
+
+/** Forgets every drawing this process keeps (tests: to read them back from where they are stored). */
+export function forgetDrawingsInMemory(): void {
+  drawings.clear();
+}
+
+/** Keeps a drawing (made here, or read from where drawings are stored) among the DRAWINGS_KEPT of this process. */
+export function keepDrawingInMemory(smiles: string, size: DrawingSize, svg: string): void {
+  const key = drawingKey(smiles, size);
+  if (!drawings.has(key) && drawings.size >= DRAWINGS_KEPT) drawings.delete(drawings.keys().next().value!);
+  drawings.set(key, svg);
 }
 
 async function drawSvg(smiles: string, width: number, height: number): Promise<string> {

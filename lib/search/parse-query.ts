@@ -55,6 +55,16 @@ const ARROW = /\s*(?:->|→|=>)\s*/;
 const PLUS = /\s+\+\s+/;
 // Characters a SMILES may hold; anything else (a space, a comma, a letter like "j") is not one.
 const SMILES_CHARS = /^[A-Za-z0-9@+\-[\]()=#$%/\\.:*]+$/;
+// Outside bracket atoms a SMILES writes only the organic subset (B C N O P S F Cl Br I, aromatic b c n o p s)
+// and punctuation: a plain word like "hydroxyl" or "CH4" is no SMILES, and RDKit is not asked.
+const ORGANIC_SUBSET_ONLY = /^(?:Cl|Br|[BCNOPSFI]|[bcnops]|[^A-Za-z])*$/;
+
+/** True when `text` (SMILES characters only) could be a SMILES by its atoms outside brackets. */
+export function mayBeSmiles(text: string): boolean {
+  const outside = text.replace(/\[[^\]]*\]/g, "");
+  return !/[[\]]/.test(outside) && ORGANIC_SUBSET_ONLY.test(outside);
+}
+
 // Punctuation only a structure has: a term with these is not a name or a formula.
 const STRUCTURE_PUNCTUATION = /[[\]()=#@/\\$%]/;
 // Element symbols a formula may use (two-letter ones first so "Cl" is not C + l).
@@ -94,7 +104,8 @@ export function readSpeciesTerm(raw: string): SpeciesTerm {
     text,
     name: !structureOnly,
     formula: structureOnly ? null : readFormula(text),
-    smiles: !/\s/.test(text) && SMILES_CHARS.test(text),
+    // A structure-only term goes to RDKit whatever its letters, so that a malformed one gets RDKit's reason.
+    smiles: !/\s/.test(text) && SMILES_CHARS.test(text) && (structureOnly || mayBeSmiles(text)),
     structureOnly,
     inchi: false,
     inchiKey: false,

@@ -6,7 +6,7 @@ import { ConsensusPlot, type SeriesPoint, type SeriesPoints } from "@/components
 import { StatisticGlossary } from "@/components/statistic-term";
 import { ConsensusComparisons, ConsensusSummary, comparisonCell } from "@/components/consensus-report";
 import { StateLabel } from "@/components/state-label";
-import { renderSpeciesSvg } from "@/lib/chem";
+import { REACTION_PAGE_DRAWING, speciesDrawing } from "@/lib/species/drawings";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { getCurrentUser } from "@/lib/auth/session";
 import { can } from "@/lib/auth/permissions";
@@ -167,7 +167,7 @@ export default async function ReactionPage({
     return why.join(" ");
   };
   const pictures = await Promise.all(
-    reaction.participants.map((p) => (p.smiles ? renderSpeciesSvg(p.smiles, { width: 140, height: 100 }).catch(() => null) : null)),
+    reaction.participants.map((p) => (p.smiles ? speciesDrawing(p.smiles, REACTION_PAGE_DRAWING).catch(() => null) : null)),
   );
   const kLabel = SUPPORTED_UNITS.rateConstant[order].find((u) => u.id === getCanonicalRateConstantUnit(order))?.label ?? "";
   const preferred = result ? ((result.preferred === "modified_arrhenius" ? result.modifiedArrhenius : null) ?? result.arrhenius) : null;

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound, permanentRedirect } from "next/navigation";
 import { ScrollRegion } from "@/components/scroll-region";
-import { renderSpeciesSvg } from "@/lib/chem";
+import { SPECIES_PAGE_DRAWING, speciesDrawing } from "@/lib/species/drawings";
 import { speciesPath } from "@/lib/identifiers/paths";
 import { NOT_FOUND_METADATA, publicPageMetadata } from "@/lib/page-metadata";
 import { getPublicSpeciesCached, listReactionsOfSpeciesCached } from "@/lib/reactions/cached";
@@ -43,7 +43,7 @@ export default async function SpeciesPage({ params }: { params: Promise<{ inchik
   if (inchikey !== found.inchiKey) permanentRedirect(speciesPath(found.inchiKey));
   const [reactions, picture] = await Promise.all([
     listReactionsOfSpeciesCached({ inchiKey: found.inchiKey }),
-    found.smiles ? renderSpeciesSvg(found.smiles, { width: 240, height: 180 }).catch(() => null) : null,
+    found.smiles ? speciesDrawing(found.smiles, SPECIES_PAGE_DRAWING).catch(() => null) : null,
   ]);
   const name = nameOf(found);
   const synonyms = found.names.filter((n) => n.toLowerCase() !== name.toLowerCase());

@@ -411,8 +411,27 @@ function topValues(dictionary: Dictionary, counts: Int32Array): { value: string;
 // ---------------------------------------------------------------------------------------------
 // Species and reactions: which documents name them
 
-/** Per index, the key sets holding each InChIKey and the reaction positions of each reaction key (built at first use). */
-const lookups = new WeakMap<MemoryIndex, { setsByKey: Map<string, number[]>; reactionsByKey: Map<string, number[]> }>();
+/** The documents of each key set on one side, in order: docs[start[set] .. start[set + 1]). */
+interface DocsBySet {
+  start: Int32Array;
+  docs: Int32Array;
+}
+
+/** Per index, the key sets holding each InChIKey, the documents of each set on each side, and the reaction positions of each reaction key (built at first use). */
+const lookups = new WeakMap<
+  MemoryIndex,
+  { setsByKey: Map<string, number[]>; reactionsByKey: Map<string, number[]>; reactantDocs: DocsBySet; productDocs: DocsBySet }
+>();
+
+function docsBySet(sides: Int32Array, size: number, sets: number): DocsBySet {
+  const start = new Int32Array(sets + 1);
+  for (let i = 0; i < size; i++) start[sides[i] + 1]++;
+  for (let k = 0; k < sets; k++) start[k + 1] += start[k];
+  const docs = new Int32Array(size);
+  const next = start.slice(0, sets);
+  for (let i = 0; i < size; i++) docs[next[sides[i]]++] = i;
+  return { start, docs };
+}
 
 function lookupsOf(index: MemoryIndex) {
   let found = lookups.get(index);
@@ -431,7 +450,13 @@ function lookupsOf(index: MemoryIndex) {
       if (list) list.push(at);
       else reactionsByKey.set(r.key, [at]);
     });
-    found = { setsByKey, reactionsByKey };
+    const sets = index.keySets.length;
+    found = {
+      setsByKey,
+      reactionsByKey,
+      reactantDocs: docsBySet(index.reactantSet, index.size, sets),
+      productDocs: docsBySet(index.productSet, index.size, sets),
+    };
     lookups.set(index, found);
   }
   return found;
@@ -462,9 +487,41 @@ export function setsHoldingEvery(index: MemoryIndex, groups: readonly (readonly 
   return ok;
 }
 
-/** Positions, in order, of the documents whose reactant set passes `reactants` and product set `products` (both, or either). */
+/**
+ * Positions, in order, of the documents whose reactant set passes `reactants` and product set
+ * `products` (both, or either). Read from the documents of the passing sets when those are few (a
+ * species or a reaction pattern names a few sets of thousands), else by one pass over every document.
+ */
 export function positionsBySets(index: MemoryIndex, reactants: Uint8Array, products: Uint8Array, need: "both" | "either"): Int32Array {
   const { reactantSet, productSet, size } = index;
+  const { reactantDocs, productDocs } = lookupsOf(index);
+  const count = (ok: Uint8Array, by: DocsBySet) => {
+    let n = 0;
+    for (let k = 0; k < ok.length; k++) if (ok[k]) n += by.start[k + 1] - by.start[k];
+    return n;
+  };
+  const fromReactants = count(reactants, reactantDocs);
+  const fromProducts = count(products, productDocs);
+  // Each side's candidates, gathered from its passing sets; "both" needs one side only (the smaller), "either" both sides.
+  const gather = need === "both" ? Math.min(fromReactants, fromProducts) : fromReactants + fromProducts;
+  if (gather * 8 < size) {
+    const out: number[] = [];
+    const take = (ok: Uint8Array, by: DocsBySet, test: (i: number) => boolean) => {
+      for (let k = 0; k < ok.length; k++) {
+        if (!ok[k]) continue;
+        for (let j = by.start[k]; j < by.start[k + 1]; j++) if (test(by.docs[j])) out.push(by.docs[j]);
+      }
+    };
+    if (need === "both") {
+      if (fromReactants <= fromProducts) take(reactants, reactantDocs, (i) => products[productSet[i]] === 1);
+      else take(products, productDocs, (i) => reactants[reactantSet[i]] === 1);
+    } else {
+      take(reactants, reactantDocs, () => true);
+      // A document already taken for its reactants is not taken again for its products.
+      take(products, productDocs, (i) => reactants[reactantSet[i]] !== 1);
+    }
+    return Int32Array.from(out).sort();
+  }
   const out = new Int32Array(size);
   let n = 0;
   if (need === "both") {

@@ -33,13 +33,23 @@ function indexOf(keySets: string[][], sides: [number, number][], reactionOfDoc: 
 
 const has = (set: string[], group: string[]) => group.some((k) => set.includes(k));
 
-describe("species and reaction look-ups of the in-memory index", () => {
-  const next = random(20261204);
+// Two shapes: few key sets shared by many documents (a pass over every document), and many sets with
+// a few documents each (the documents of the passing sets are gathered instead).
+describe.each([
+  { shape: "few sets, many documents each", keys: KEYS, sets: 40, documents: 500 },
+  {
+    shape: "many sets, few documents each",
+    keys: Array.from({ length: 400 }, (_, i) => `WIDE${String(i).padStart(3, "0")}-UHFFFAOYSA-N`),
+    sets: 1500,
+    documents: 3000,
+  },
+])("species and reaction look-ups of the in-memory index ($shape)", ({ keys, sets, documents }) => {
+  const next = random(20261204 + sets);
   const pick = <T>(list: T[]) => list[Math.floor(next() * list.length)];
-  const keySets = Array.from({ length: 40 }, () => Array.from({ length: 1 + Math.floor(next() * 3) }, () => pick(KEYS)));
+  const keySets = Array.from({ length: sets }, () => Array.from({ length: 1 + Math.floor(next() * 3) }, () => pick(keys)));
   keySets.push([]); // a side with no species (products not given)
   const sides = Array.from(
-    { length: 500 },
+    { length: documents },
     () => [Math.floor(next() * keySets.length), Math.floor(next() * keySets.length)] as [number, number],
   );
   const reactionKeys = ["R-A", "R-B", "R-C", "R-A"]; // two reactions may share a key
@@ -49,7 +59,7 @@ describe("species and reaction look-ups of the in-memory index", () => {
 
   it("a species (any of the keys its text may mean) matches documents naming it on either side, in order", () => {
     for (let round = 0; round < 50; round++) {
-      const group = Array.from({ length: 1 + Math.floor(next() * 2) }, () => pick(KEYS));
+      const group = Array.from({ length: 1 + Math.floor(next() * 2) }, () => pick(keys));
       const hit = setsHoldingEvery(index, [group]);
       const expected = positions((i) => has(keySets[sides[i][0]], group) || has(keySets[sides[i][1]], group));
       expect(Array.from(positionsBySets(index, hit, hit, "either"))).toEqual(expected);
@@ -59,7 +69,7 @@ describe("species and reaction look-ups of the in-memory index", () => {
   it("a reaction pattern needs every reactant term among the reactants and every product term among the products", () => {
     for (let round = 0; round < 80; round++) {
       const terms = () =>
-        Array.from({ length: Math.floor(next() * 3) }, () => Array.from({ length: 1 + Math.floor(next() * 2) }, () => pick(KEYS)));
+        Array.from({ length: Math.floor(next() * 3) }, () => Array.from({ length: 1 + Math.floor(next() * 2) }, () => pick(keys)));
       const reactants = terms();
       const products = terms();
       const expected = positions(
@@ -71,7 +81,7 @@ describe("species and reaction look-ups of the in-memory index", () => {
   });
 
   it("a term written twice (A + A) is satisfied by one A; a term that means nothing matches nothing", () => {
-    const a = KEYS[0];
+    const a = keys[0];
     const twice = setsHoldingEvery(index, [[a], [a]]);
     const once = setsHoldingEvery(index, [[a]]);
     expect(Array.from(twice)).toEqual(Array.from(once));

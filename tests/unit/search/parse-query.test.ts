@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { parseQueryText, readFormula, readSpeciesTerm } from "@/lib/search/parse-query";
+import { getRdkit } from "@/lib/chem";
+import { mayBeSmiles, parseQueryText, readFormula, readSpeciesTerm } from "@/lib/search/parse-query";
 
 describe("readFormula", () => {
   // Hill order (E. A. Hill, J. Am. Chem. Soc. 22, 478 (1900)): C, H, then alphabetical; without C all alphabetical.
@@ -28,8 +29,14 @@ describe("readSpeciesTerm", () => {
     expect(readSpeciesTerm("InChI=1S/CH4/h1H4")).toMatchObject({ inchi: true, structureOnly: true, name: false });
     expect(readSpeciesTerm("VNWKTOKETHGBQD-UHFFFAOYSA-N")).toMatchObject({ inchiKey: true, name: false, smiles: false });
   });
-  it("reads a word as a name and maybe a SMILES", () => {
-    expect(readSpeciesTerm("hydroxyl")).toMatchObject({ name: true, formula: null, smiles: true, structureOnly: false });
+  it("reads a word as a name, and as a SMILES only when its letters are atoms a SMILES may write without brackets", () => {
+    expect(readSpeciesTerm("hydroxyl")).toMatchObject({ name: true, formula: null, smiles: false, structureOnly: false });
+    expect(readSpeciesTerm("CH4")).toMatchObject({ name: true, formula: "CH4", smiles: false });
+    expect(readSpeciesTerm("CCO")).toMatchObject({ name: true, smiles: true });
+    expect(readSpeciesTerm("ClCCl")).toMatchObject({ smiles: true });
+  });
+  it("still hands a structure-only term to RDKit whatever its letters, so that a malformed one is told why", () => {
+    expect(readSpeciesTerm("C(x)")).toMatchObject({ structureOnly: true, smiles: true });
   });
 });
 
@@ -85,5 +92,39 @@ describe("parseQueryText", () => {
   it("keeps SQL and markup as text", () => {
     expect(parseQueryText("'; drop table datasets; --")).toMatchObject({ kind: "text" });
     expect(parseQueryText("<script>alert(1)</script>")).toMatchObject({ kind: "species" });
+  });
+});
+
+describe("mayBeSmiles", () => {
+  // The check only spares RDKit a parse: it must never turn away a text RDKit reads as a structure.
+  // The strings are SMILES of real molecules written by hand (common practice, OpenSMILES organic subset)
+  // and names and formulas of the demo's species.
+  const smiles = ["C", "CC", "CCO", "c1ccccc1", "c1ccncc1", "O=O", "N#N", "[OH]", "[O][N]=O", "Cl", "ClCCl", "BrC", "I", "ICl"];
+  const others = ["FC(F)(F)F", "[2H]C", "[Na+].[Cl-]", "C1CC1", "CO", "NO", "S", "P", "B", "OC(=O)C", "C/C=C/C", "[C@@H](O)(F)Cl"];
+  const notSmiles = ["hydroxyl", "methane", "OH", "CH4", "HO2", "H2O", "ethanol", "Tanaka", "1-fluoro-4-hydroxypentane", "Ar", "He", "Xe"];
+
+  it("is true for every text RDKit reads and false for plain names and formulas with hydrogen", async () => {
+    const rdkit = await getRdkit();
+    const reads = (t: string) => {
+      const mol = rdkit.get_mol(t);
+      const ok = mol !== null && mol.is_valid();
+      mol?.delete();
+      return ok;
+    };
+    for (const t of [...smiles, ...others]) {
+      expect(reads(t), t).toBe(true);
+      expect(mayBeSmiles(t), t).toBe(true);
+    }
+    for (const t of notSmiles) {
+      expect(mayBeSmiles(t), t).toBe(false);
+      expect(reads(t), t).toBe(false);
+    }
+  });
+
+  it("looks only outside brackets, and refuses an unbalanced bracket", () => {
+    expect(mayBeSmiles("[Fe+2]")).toBe(true);
+    expect(mayBeSmiles("[nH]1cccc1")).toBe(true);
+    expect(mayBeSmiles("C[")).toBe(false);
+    expect(mayBeSmiles("C]")).toBe(false);
   });
 });
