@@ -2,7 +2,6 @@ import "server-only";
 import { AsyncLocalStorage } from "node:async_hooks";
 import { drizzle } from "drizzle-orm/postgres-js";
 import postgres from "postgres";
-import { preparedStatements } from "./prepared";
 import { withConnectionRetry } from "./retry";
 import * as schema from "./schema";
 import { databaseUrl, dbPoolSize } from "@/lib/config";
@@ -30,10 +29,8 @@ function createDb() {
     idle_timeout: 60,
     max_lifetime: 15 * 60,
     keep_alive: 5,
-    // Statements are prepared (db/prepared.ts) for one round trip and no parse; plans stay per execution.
-    connection: { plan_cache_mode: "force_custom_plan" },
   });
-  return drizzle(withConnectionRetry(preparedStatements(client)), { schema, casing: "snake_case" });
+  return drizzle(withConnectionRetry(client), { schema, casing: "snake_case" });
 }
 
 // One pool per process; survives hot reloads in development.

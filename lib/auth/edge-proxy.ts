@@ -7,7 +7,7 @@ import http from "node:http";
 import { isIP, type AddressInfo } from "node:net";
 import proxyaddr from "proxy-addr";
 import { ActionBodyGuard, isActionRequest, isApiPath, pagePath } from "./action-body-guard";
-import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "./client-address";
+import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER, UNKNOWN_ADDRESS } from "./client-address";
 import { answerHere, frontRoute } from "@/lib/http/front-routes";
 
 export type TrustProxy = (address: string, hop: number) => boolean;
@@ -179,7 +179,10 @@ export function forwardedHeaders(req: http.IncomingMessage, trust: TrustProxy, k
   // the app stays kept alive whatever the client asked of its own.
   for (const name of hopByHop(req.headers.connection)) delete headers[name];
   if (!trust(req.socket.remoteAddress ?? "", 0)) for (const name of STRIPPED_UNTRUSTED) delete headers[name];
-  const address = plainAddress(proxyaddr(req, trust));
+  // No socket address at all (a socket reset under the request): the one unknown client, never a crash, and
+  // never a trusted hop whose X-Forwarded-For would then be believed.
+  const peer: string | undefined = req.socket.remoteAddress ? proxyaddr(req, trust) : undefined;
+  const address = peer ? plainAddress(peer) : UNKNOWN_ADDRESS;
   headers["x-forwarded-for"] = address;
   headers[CLIENT_ADDRESS_HEADER] = address;
   headers[EDGE_KEY_HEADER] = key;
@@ -213,6 +216,21 @@ export async function startEdgeProxy({
   const ownOrigin = new URL(appOrigin).origin;
   const ownHost = new URL(appOrigin).host;
   const server = http.createServer((req, res) => {
+    // Nothing thrown while a request is handled may end the server (an exception in a request listener would).
+    try {
+      handleRequest(req, res);
+    } catch (err) {
+      console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}:`, err);
+      if (!res.headersSent && !res.destroyed) refuse(res, 500, "internal", "Internal server error", "The request could not be answered.");
+      else res.destroy();
+    }
+  });
+  const handleRequest = (req: http.IncomingMessage, res: http.ServerResponse) => {
+    // A client whose connection is already gone (reset before its request was read) has no address and wants no answer.
+    if (req.socket.remoteAddress === undefined) {
+      req.socket.destroy();
+      return;
+    }
     const target = originFormTarget(req.url);
     if (target === null) {
       refuse(res, 400, "bad_request", "Bad request", "The request target must be a path (or an http URL).");
@@ -364,7 +382,7 @@ export async function startEdgeProxy({
     });
     upstream.on("drain", () => req.resume());
     req.on("end", () => upstream.end());
-  });
+  };
   await new Promise<void>((resolve, reject) => {
     server.once("error", reject);
     server.listen(port, host, () => resolve());

@@ -8,7 +8,9 @@
  * Only handlers that ignore the caller (withApi with scope null, no session look-up) and answer the
  * same for everyone are listed; a bearer token is still checked by withApi as in Next. The request
  * carries the headers the proxy would forward (the client's address and the per-start key, which
- * lib/auth/client-address.ts believes), so budgets and limits count as they would behind Next.
+ * lib/auth/client-address.ts believes). A token holder's budget is counted in PostgreSQL, shared
+ * with Next; an anonymous client's is counted in each process's memory (lib/auth/rate-limit.ts),
+ * so search has its own API_RATE_LIMIT a minute here, beside the one Next grants the other reads.
  */
 import type http from "node:http";
 import { promisify } from "node:util";
@@ -34,9 +36,17 @@ function once<T>(load: () => Promise<T>): () => Promise<T> {
     }));
 }
 
-/** Loads every handler answered here (the front server does it before it opens, as Next's routes are warmed). */
+/**
+ * Loads every handler answered here and RDKit, which reads SMILES and InChI in search text (the front
+ * server does it before it opens, as Next's routes are warmed: loading RDKit at a reader's first SMILES
+ * held this thread, and every request it passes on, for a third of a second). A failure is logged, not
+ * thrown: the site opens, search answers 500 and loads again at its next request.
+ */
 export async function loadFrontRoutes(): Promise<void> {
-  await Promise.all(Object.values(ROUTES).map((load) => load()));
+  const loads = [...Object.values(ROUTES).map((load) => load()), import("@/lib/chem").then(({ getRdkit }) => getRdkit())];
+  for (const result of await Promise.allSettled(loads))
+    if (result.status === "rejected")
+      console.error("[front] search could not be loaded; it is tried again at its next request:", result.reason);
 }
 
 /** The paths answered here (for tests and DEVELOPERS.md). */
@@ -46,7 +56,9 @@ export const FRONT_ROUTE_PATHS = Object.keys(ROUTES);
 export function frontRoute(method: string | undefined, url: string): (() => Promise<{ GET: WebHandler }>) | null {
   if (method !== "GET" && method !== "HEAD") return null;
   const q = url.indexOf("?");
-  const path = q === -1 ? url : url.slice(0, q);
+  // Dot segments resolved as Next resolves them ("/api/v1/./search" is the search too, and is answered
+  // here, under this process's budget); a double slash is not (Next redirects it).
+  const path = new URL(`http://front.invalid${q === -1 ? url : url.slice(0, q)}`).pathname;
   return Object.hasOwn(ROUTES, path) ? ROUTES[path] : null;
 }
 
@@ -83,14 +95,16 @@ export async function answerHere(
   answer.headers.forEach((value, name) => {
     out[name] = value;
   });
+  // Every answer of these addresses may come compressed, a 304 included (RFC 9110 §15.4.5 asks it to say what its 200 would).
+  out.vary = out.vary ? `${out.vary}, Accept-Encoding` : "Accept-Encoding";
   if (answer.status === 200 && body.length >= COMPRESS_FROM_BYTES && !out["content-encoding"]) {
-    out.vary = out.vary ? `${out.vary}, Accept-Encoding` : "Accept-Encoding";
     if (new Negotiator(req).encoding(["gzip", "identity"]) === "gzip") {
       body = await gzipAsync(body);
       out["content-encoding"] = "gzip";
     }
   }
-  out["content-length"] = body.length;
+  // A 304 has no content and states no length (its 200's is not known here; RFC 9110 §8.6).
+  if (answer.status !== 304 && answer.status !== 204) out["content-length"] = body.length;
   if (res.destroyed) return;
   res.writeHead(answer.status, out);
   res.end(req.method === "HEAD" ? undefined : body);

@@ -328,14 +328,30 @@ async function reactionSummaries(reactionIds: number[]) {
   );
 }
 
+/**
+ * PostgreSQL's refusal of a text whose operators nest too deep for its query parser (websearch_to_tsquery:
+ * "tsquery stack too small", e.g. a run of 33 hyphens, each a NOT) as the reader's error, naming q.
+ */
+function tooNestedText(err: unknown): AppError | null {
+  if (!(err instanceof Error)) return null;
+  const message = `${err.message} ${(err as { cause?: { message?: unknown } }).cause?.message ?? ""}`;
+  if (!/tsquery stack too small/i.test(message)) return null;
+  const text = "q nests too many search operators (a run of “-”, quotes or OR); write the words without them";
+  return new AppError("bad_request", text, [{ pointer: "/q", parameter: "q", message: text }]);
+}
+
 export const postgresEngine: SearchEngine = {
   name: "postgres",
   async search(query: EngineQuery): Promise<SearchResult> {
     const index = await memoryIndex();
-    const exact = await runSearch(index, query, false);
-    // Words that match nothing may be a misspelt name: try the names by similarity. Only without
-    // any match at all (facets included), so a page of a cursor walk never switches modes.
-    if (query.parsed.kind !== "text" || exact.total > 0 || Object.values(exact.facets).some((f) => f.length)) return exact;
-    return runSearch(index, query, true);
+    try {
+      const exact = await runSearch(index, query, false);
+      // Words that match nothing may be a misspelt name: try the names by similarity. Only without
+      // any match at all (facets included), so a page of a cursor walk never switches modes.
+      if (query.parsed.kind !== "text" || exact.total > 0 || Object.values(exact.facets).some((f) => f.length)) return exact;
+      return await runSearch(index, query, true);
+    } catch (err) {
+      throw tooNestedText(err) ?? err;
+    }
   },
 };

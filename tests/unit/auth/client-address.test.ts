@@ -62,6 +62,14 @@ describe("TRUST_PROXY", () => {
     expect(h[EDGE_KEY_HEADER]).toBe("key");
   });
 
+  it("a socket already reset (no address at all) is the one unknown client, never a crash", () => {
+    const gone = { headers: { ...spoofed }, socket: {}, connection: {} } as unknown as http.IncomingMessage;
+    for (const trust of ["", "1", "10.0.0.0/8"]) {
+      const h = forwardedHeaders(gone, compileTrustProxy(trust), "key");
+      expect(h[CLIENT_ADDRESS_HEADER]).toBe("unknown");
+    }
+  });
+
   it("a hop count believes that many proxies, counted from the socket", () => {
     expect(forwardedHeaders(fakeRequest("10.0.0.2", { ...spoofed }), compileTrustProxy("1"), "k")[CLIENT_ADDRESS_HEADER]).toBe(
       "192.0.2.10",

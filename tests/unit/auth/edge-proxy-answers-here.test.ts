@@ -10,6 +10,7 @@ const echo = async (req: Request) => {
   seen.push(req);
   const q = new URL(req.url).searchParams.get("q") ?? "";
   if (q === "throw") throw new Error("a fault in the handler");
+  if (q === "unchanged") return new Response(null, { status: 304, headers: { etag: '"e1"', "cache-control": "public, max-age=60" } });
   if (q === "bad")
     return new Response(JSON.stringify({ title: "q is bad" }), { status: 400, headers: { "content-type": "application/problem+json" } });
   return new Response(JSON.stringify({ q, padding: "x".repeat(q === "long" ? 5000 : 10) }), {
@@ -78,6 +79,11 @@ describe("which requests the front server answers itself", () => {
     expect(frontRoute("GET", "/api/v1/searchx")).toBeNull();
     expect(frontRoute("GET", "/search?q=OH")).toBeNull();
     expect(frontRoute("GET", "/api/v1/search/")).toBeNull();
+    // Dot segments are resolved as Next resolves them: the same search, answered (and counted) here.
+    expect(frontRoute("GET", "/api/v1/./search?q=OH")).not.toBeNull();
+    expect(frontRoute("GET", "/api/v1/x/../search")).not.toBeNull();
+    expect(frontRoute("GET", "/api/v1/%2e/search")).not.toBeNull();
+    expect(frontRoute("GET", "//api/v1/search")).toBeNull();
     // An inherited property name is not a route.
     expect(frontRoute("GET", "constructor")).toBeNull();
   });
@@ -120,6 +126,15 @@ describe("a search answered by the front server", () => {
     const bad = await ask("GET", "/api/v1/search?q=bad");
     expect(bad.status).toBe(400);
     expect(bad.headers["content-type"]).toBe("application/problem+json");
+  });
+
+  it("a 304 states no length and says, as its 200 does, that the answer varies with Accept-Encoding", async () => {
+    const res = await ask("GET", "/api/v1/search?q=unchanged", { "if-none-match": '"e1"' });
+    expect(res.status).toBe(304);
+    expect(res.headers["content-length"]).toBeUndefined();
+    expect(res.headers.vary).toContain("Accept-Encoding");
+    expect(res.headers.etag).toBe('"e1"');
+    expect((await ask("GET", "/api/v1/search?q=s")).headers.vary).toContain("Accept-Encoding");
   });
 
   it("a fault in the handler is a 500 problem, and the front server goes on serving", async () => {
