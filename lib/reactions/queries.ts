@@ -1,5 +1,5 @@
 import "server-only";
-import { and, desc, eq, inArray, sql } from "drizzle-orm";
+import { and, eq, inArray, sql } from "drizzle-orm";
 import { getDb, type Database, type Transaction } from "@/db/client";
 import { reactionParticipants, reactions, species } from "@/db/chemistry";
 import { consensusExclusions } from "@/db/consensus";
@@ -120,24 +120,30 @@ export async function listPublicVersionsOfReactions({
         .where(inArray(versionPoints.versionId, ids))
         .orderBy(versionPoints.versionId, versionPoints.idx)
     : [];
-  const result = sql.raw(`"version_analyses"."result"`);
+  // The stored result is read out of line once per row (the `||` makes one in-memory copy that every
+  // expression below reads): each `->` on the stored value read it again, seven times a row (a reaction
+  // of 692 datasets: 125 → 36 ms in PostgreSQL). `r` is the stored value for any JSON (null stays null).
   const analyses = ids.length
-    ? await db
-        .selectDistinctOn([versionAnalyses.versionId], {
-          versionId: versionAnalyses.versionId,
-          // Only the outlier flag (storedOutliers in ./consensus-selection.ts); no flag list at all stays absent.
-          summary: sql<{ flags?: unknown[] } | null>`case when ${result} is null then null
-        when jsonb_typeof(${result} -> 'flags') = 'array' then jsonb_build_object('flags', coalesce(
-          (select jsonb_agg(f) from jsonb_array_elements(${result} -> 'flags') f where f ->> 'code' = 'outlier'), '[]'::jsonb))
-        else '{}'::jsonb end`,
-          // As drawableFit (lib/datasets/version-json.ts) decides: a fit with parameters and a band of two or more temperatures.
-          ea: sql<number | null>`case when jsonb_typeof(${result} -> 'arrhenius' -> 'params') = 'object'
-        and jsonb_typeof(${result} -> 'band' -> 'T') = 'array' and jsonb_array_length(${result} -> 'band' -> 'T') > 1
-        then (${result} -> 'arrhenius' -> 'params' ->> 'Ea')::float8 end`,
-        })
-        .from(versionAnalyses)
-        .where(inArray(versionAnalyses.versionId, ids))
-        .orderBy(versionAnalyses.versionId, desc(versionAnalyses.id))
+    ? (
+        await db.execute<{ version_id: number; summary: { flags?: unknown[] } | null; ea: number | null }>(sql`
+          select distinct on (a.version_id) a.version_id,
+            -- Only the outlier flag (storedOutliers in ./consensus-selection.ts); no flag list at all stays absent.
+            case when d.r is null then null
+              when jsonb_typeof(d.r -> 'flags') = 'array' then jsonb_build_object('flags', coalesce(
+                (select jsonb_agg(f) from jsonb_array_elements(d.r -> 'flags') f where f ->> 'code' = 'outlier'), '[]'::jsonb))
+              else '{}'::jsonb end as summary,
+            -- As drawableFit (lib/datasets/version-json.ts) decides: a fit with parameters and a band of two or more temperatures.
+            case when jsonb_typeof(d.r -> 'arrhenius' -> 'params') = 'object'
+              and jsonb_typeof(d.r -> 'band' -> 'T') = 'array' and jsonb_array_length(d.r -> 'band' -> 'T') > 1
+              then (d.r -> 'arrhenius' -> 'params' ->> 'Ea')::float8 end as ea
+          from ${versionAnalyses} a
+          cross join lateral (select a.result || '{}'::jsonb as r offset 0) d
+          where a.version_id in ${sql`(${sql.join(
+            ids.map((id) => sql`${id}`),
+            sql`, `,
+          )})`}
+          order by a.version_id, a.id desc`)
+      ).map((row) => ({ versionId: Number(row.version_id), summary: row.summary, ea: row.ea === null ? null : Number(row.ea) }))
     : [];
   const pointsOf = new Map<number, { T: number; k: number; sigmaLnK?: number }[]>();
   for (const p of points) {
