@@ -10,6 +10,7 @@ import { clientAddress } from "./client-address";
 import { assertAllowed } from "./guard";
 import type { Permission } from "./permissions";
 import { apiBudgetHeaders, consumeApiBudget, type ApiBudget } from "./rate-limit";
+import { getCurrentUser } from "./session";
 
 export interface ApiContext<P> {
   req: Request;
@@ -128,12 +129,6 @@ export function assertStorableQuery(url: URL): void {
   }
 }
 
-/**
- * The session's user, its module loaded only by an endpoint that asks who calls: the public reads
- * the front server answers itself (lib/http/front-routes.ts) never load next-auth there.
- */
-const currentUser = async () => (await import("./session")).getCurrentUser();
-
 /** A read of a public, cacheable endpoint: counted, for anonymous callers, in this process's memory. */
 const isPublicRead = (req: Request, options: ApiOptions) => options.cache !== undefined && (req.method === "GET" || req.method === "HEAD");
 
@@ -175,7 +170,7 @@ export function withApi<P = Record<string, string>>(
       try {
         const secret = bearerSecretOrThrow(req);
         // Public endpoints skip the session look-up unless they ask for it.
-        user = secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await currentUser() : null;
+        user = secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
       } catch (err) {
         // A refused credential counts against the address, in the budget an anonymous call of this endpoint
         // uses: guessing tokens, or sending a bogus one to step around a spent budget, is limited like any call.

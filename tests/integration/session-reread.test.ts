@@ -4,6 +4,8 @@ import { beforeAll, describe, expect, it, vi } from "vitest";
 
 vi.mock("next-auth", async (importOriginal) => ({ ...(await importOriginal<object>()), getServerSession: vi.fn() }));
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
+// The request carries a session cookie (its content is what getServerSession, mocked, decodes).
+vi.mock("next/headers", () => ({ headers: async () => new Headers({ cookie: "next-auth.session-token=mocked" }) }));
 
 import { getServerSession } from "next-auth";
 import { PATCH } from "@/app/api/v1/users/[id]/route";
