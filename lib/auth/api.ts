@@ -170,7 +170,8 @@ export function withApi<P = Record<string, string>>(
       try {
         const secret = bearerSecretOrThrow(req);
         // Public endpoints skip the session look-up unless they ask for it.
-        user = secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
+        user =
+          secret !== null ? await resolveToken(secret, wantsCaller ? options.scope : null) : wantsCaller ? await getCurrentUser() : null;
       } catch (err) {
         // A refused credential counts against the address, in the budget an anonymous call of this endpoint
         // uses: guessing tokens, or sending a bogus one to step around a spent budget, is limited like any call.
