@@ -1,8 +1,6 @@
 import "server-only";
-import { and, eq, sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
-import { species, speciesDrawings } from "@/db/chemistry";
 import { drawingInMemory, getRdkit, keepDrawingInMemory, renderSpeciesSvg } from "@/lib/chem";
+import { keepDrawing, listUndrawnSmiles, readKeptDrawing } from "./queries";
 
 /** The sizes the public pages draw species at (px): a reaction's participants, a species page. */
 export const REACTION_PAGE_DRAWING = { width: 140, height: 100 } as const;
@@ -24,28 +22,14 @@ function drawer(): Promise<string> {
 export async function speciesDrawing(smiles: string, size: { width: number; height: number }): Promise<string> {
   const inMemory = drawingInMemory(smiles, size);
   if (inMemory !== undefined) return inMemory;
-  const version = await drawer();
-  const [kept] = await getDb()
-    .select({ svg: speciesDrawings.svg })
-    .from(speciesDrawings)
-    .where(
-      and(
-        eq(speciesDrawings.smiles, smiles),
-        eq(speciesDrawings.width, size.width),
-        eq(speciesDrawings.height, size.height),
-        eq(speciesDrawings.drawer, version),
-      ),
-    )
-    .limit(1);
-  if (kept) {
-    keepDrawingInMemory(smiles, size, kept.svg);
-    return kept.svg;
+  const key = { smiles, width: size.width, height: size.height, drawer: await drawer() };
+  const kept = await readKeptDrawing(key);
+  if (kept !== null) {
+    keepDrawingInMemory(smiles, size, kept);
+    return kept;
   }
   const svg = await renderSpeciesSvg(smiles, size);
-  await getDb()
-    .insert(speciesDrawings)
-    .values({ smiles, width: size.width, height: size.height, drawer: version, svg })
-    .onConflictDoNothing();
+  await keepDrawing(key, svg);
   return svg;
 }
 
@@ -60,21 +44,11 @@ export async function drawMissingSpeciesDrawings({
   const version = await drawer();
   let made = 0;
   for (const size of PAGE_SIZES) {
-    const missing = await getDb()
-      .select({ smiles: species.canonicalSmiles })
-      .from(species)
-      .where(
-        sql`not exists (select 1 from ${speciesDrawings} d where d.smiles = ${species.canonicalSmiles}
-          and d.width = ${size.width} and d.height = ${size.height} and d.drawer = ${version})`,
-      )
-      .groupBy(species.canonicalSmiles);
-    for (const [i, { smiles }] of missing.entries()) {
+    const missing = await listUndrawnSmiles({ ...size, drawer: version });
+    for (const [i, smiles] of missing.entries()) {
       const svg = await renderSpeciesSvg(smiles, size).catch(() => null);
       if (svg !== null) {
-        await getDb()
-          .insert(speciesDrawings)
-          .values({ smiles, width: size.width, height: size.height, drawer: version, svg })
-          .onConflictDoNothing();
+        await keepDrawing({ smiles, ...size, drawer: version }, svg);
         made++;
       }
       onProgress?.(i + 1, missing.length);

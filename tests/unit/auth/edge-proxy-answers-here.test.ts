@@ -1,5 +1,4 @@
 import http from "node:http";
-import type { AddressInfo } from "node:net";
 import { gunzipSync } from "node:zlib";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 
@@ -20,11 +19,10 @@ const echo = async (req: Request) => {
 vi.mock("@/app/api/v1/search/route", () => ({ GET: echo }));
 vi.mock("@/app/api/v1/search/suggest/route", () => ({ GET: echo }));
 
-import { compileTrustProxy, startEdgeProxy } from "@/lib/auth/edge-proxy";
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "@/lib/auth/client-address";
 import { FRONT_ROUTE_PATHS, frontRoute } from "@/lib/http/front-routes";
+import { startFrontBefore, TEST_EDGE_KEY } from "./front-server";
 
-const KEY = "k".repeat(32);
 let app: http.Server;
 let front: { port: number; close: () => Promise<void> };
 const reachedApp: string[] = [];
@@ -35,16 +33,7 @@ beforeAll(async () => {
     req.resume();
     req.on("end", () => res.end("from the app"));
   });
-  await new Promise<void>((resolve) => app.listen(0, "127.0.0.1", () => resolve()));
-  front = await startEdgeProxy({
-    host: "127.0.0.1",
-    port: 0,
-    upstreamPort: (app.address() as AddressInfo).port,
-    trust: compileTrustProxy(""),
-    key: KEY,
-    appOrigin: "http://127.0.0.1",
-    answersHere: true,
-  });
+  front = await startFrontBefore(app, { answersHere: true });
 });
 
 afterAll(async () => {
@@ -104,7 +93,7 @@ describe("a search answered by the front server", () => {
     expect(req.url).toBe("http://127.0.0.1/api/v1/search?q=OH");
     // The client's address comes from the socket (no proxy is trusted), never from its own headers.
     expect(req.headers.get(CLIENT_ADDRESS_HEADER)).toBe("127.0.0.1");
-    expect(req.headers.get(EDGE_KEY_HEADER)).toBe(KEY);
+    expect(req.headers.get(EDGE_KEY_HEADER)).toBe(TEST_EDGE_KEY);
   });
 
   it("sends a long answer gzipped to a client that accepts it, and plain to one that does not", async () => {

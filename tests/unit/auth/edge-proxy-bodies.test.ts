@@ -1,7 +1,8 @@
 import http from "node:http";
-import net, { type AddressInfo } from "node:net";
+import net from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { compileTrustProxy, declaresBody, startEdgeProxy } from "@/lib/auth/edge-proxy";
+import { declaresBody } from "@/lib/auth/edge-proxy";
+import { startFrontBefore } from "./front-server";
 
 // The front server before a stand-in for Next that reads every body to its end, as a route
 // handler does, and counts the requests that reached it.
@@ -17,16 +18,7 @@ beforeAll(async () => {
     req.on("data", (c: Buffer) => (bytes += c.length));
     req.on("end", () => res.end(JSON.stringify({ bytes })));
   });
-  await new Promise<void>((resolve) => app.listen(0, "127.0.0.1", () => resolve()));
-  front = await startEdgeProxy({
-    host: "127.0.0.1",
-    port: 0,
-    upstreamPort: (app.address() as AddressInfo).port,
-    trust: compileTrustProxy(""),
-    key: "k".repeat(32),
-    appOrigin: "http://127.0.0.1",
-    bodyIdleTimeoutMs: IDLE_MS,
-  });
+  front = await startFrontBefore(app, { bodyIdleTimeoutMs: IDLE_MS });
 });
 
 afterAll(async () => {

@@ -1,7 +1,6 @@
 import http from "node:http";
-import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { compileTrustProxy, startEdgeProxy } from "@/lib/auth/edge-proxy";
+import { startFrontBefore } from "./front-server";
 
 // The front server before a stand-in for Next that, once told to, drops every kept-alive socket
 // the moment a second request arrives on it, unanswered: what the front server meets when the
@@ -24,15 +23,7 @@ beforeAll(async () => {
     req.resume();
     req.on("end", () => res.end(`${req.method} ${req.url}`));
   });
-  await new Promise<void>((resolve) => app.listen(0, "127.0.0.1", () => resolve()));
-  front = await startEdgeProxy({
-    host: "127.0.0.1",
-    port: 0,
-    upstreamPort: (app.address() as AddressInfo).port,
-    trust: compileTrustProxy(""),
-    key: "k".repeat(32),
-    appOrigin: "http://127.0.0.1",
-  });
+  front = await startFrontBefore(app);
 });
 
 afterAll(async () => {

@@ -1,21 +1,10 @@
 import { describe, expect, it } from "vitest";
+import { seededRandom } from "@/lib/seeded-random";
 import { positionsBySets, positionsOfReactionKey, setsHoldingEvery, type MemoryIndex } from "@/lib/search/engines/memory-index";
 
 // Species and reaction look-ups of the in-memory index, against the plain reading of what they
 // mean: a document matches a species when either side names it, a reaction pattern when every
 // reactant term is among its reactants and every product term among its products.
-
-/** A small deterministic generator (mulberry32), so a failure can be replayed. */
-function random(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const KEYS = Array.from({ length: 12 }, (_, i) => `KEY${String(i).padStart(2, "0")}-UHFFFAOYSA-N`);
 
@@ -44,7 +33,7 @@ describe.each([
     documents: 3000,
   },
 ])("species and reaction look-ups of the in-memory index ($shape)", ({ keys, sets, documents }) => {
-  const next = random(20261204 + sets);
+  const next = seededRandom(20261204 + sets);
   const pick = <T>(list: T[]) => list[Math.floor(next() * list.length)];
   const keySets = Array.from({ length: sets }, () => Array.from({ length: 1 + Math.floor(next() * 3) }, () => pick(keys)));
   keySets.push([]); // a side with no species (products not given)
