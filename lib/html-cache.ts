@@ -3,7 +3,8 @@ import type http from "node:http";
 
 /**
  * The rendered HTML of public pages for anonymous readers (and crawlers), kept in the memory of the
- * process that runs Next (scripts/inner-server.ts wraps Next's handler with `withHtmlCache`).
+ * front server (lib/auth/edge-proxy.ts wraps its passing on to Next with `withHtmlCache`), so that a
+ * kept page is answered without reaching Next's thread at all.
  *
  * Every page renders per request because the site header (and a few pages) read the session; for a
  * request that carries no session cookie and no credentials that render is the same for everyone,
@@ -14,10 +15,12 @@ import type http from "node:http";
  * - only a 200 without Set-Cookie is stored (a draft fetched anonymously is a 404: never stored);
  * - only the public page paths below (never an API route, an action or a client navigation's RSC
  *   payload, which Next asks for with the `rsc` header).
- * Freshness: `invalidatePublicCache` (lib/public-cache.ts, after publication, retraction, re-fit,
- * consensus exclusion; in this process or forwarded to it) empties the whole cache, and an entry
- * lives at most `PUBLIC_CACHE_SECONDS`, as the data cache's entries do. A render that was running
- * when the cache was emptied is not stored (it may have read the old data).
+ * Freshness: every invalidation of public data (lib/public-cache.ts, after publication, retraction,
+ * re-fit, consensus exclusion, in whichever process or script) moves the public pages' mark in the
+ * database (lib/public-pages-mark.ts), read when a request arrives: an entry is served only under the
+ * mark it was kept under. An invalidation in this process also empties the cache at once, and an
+ * entry lives at most `PUBLIC_CACHE_SECONDS`, as the data cache's entries do. A render that was
+ * running when the cache was emptied is not stored (it may have read the old data).
  */
 
 /**
@@ -59,10 +62,17 @@ export interface HtmlCacheOptions {
   maxEntryBytes: number;
   /** How long an entry is served, in milliseconds. */
   ttlMs: number;
+  /**
+   * The current mark of the public pages' state (lib/public-pages-mark.ts), read when a request
+   * arrives: an entry is served only under the mark it was kept under. A failed read passes the
+   * request on uncached. Without it, only this process's invalidations and the lifetime apply.
+   */
+  mark?: () => Promise<string>;
   now?: () => number;
 }
 
 interface Entry {
+  mark: string;
   status: number;
   headers: http.OutgoingHttpHeaders;
   body: Buffer;
@@ -123,12 +133,21 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
   return async (req, res) => {
     const key = htmlCacheKey(req);
     if (key === null) return handle(req, res);
+    let mark = "";
+    if (options.mark) {
+      try {
+        mark = await options.mark();
+      } catch {
+        return handle(req, res);
+      }
+    }
     const s = store();
     const hit = s.entries.get(key);
-    if (hit && now() - hit.storedAt < options.ttlMs) {
+    if (hit && hit.mark === mark && now() - hit.storedAt < options.ttlMs) {
       // Least recently used first: a hit moves to the end.
       s.entries.delete(key);
       s.entries.set(key, hit);
+      req.resume();
       res.writeHead(hit.status, { ...hit.headers, [HTML_CACHE_HEADER]: "hit", "content-length": hit.body.length });
       res.end(hit.body);
       return;
@@ -188,9 +207,11 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
         delete headers["content-length"];
         delete headers.connection;
         delete headers["keep-alive"];
+        // A replay is dated when it is sent (Node adds the Date of each answer); one passed on from Next carries its render's.
+        delete headers.date;
         const old = s.entries.get(key);
         if (old) s.bytes -= old.body.length;
-        s.entries.set(key, { status, headers, body, storedAt: now() });
+        s.entries.set(key, { mark, status, headers, body, storedAt: now() });
         s.bytes += body.length;
         evict(s, options.maxBytes);
       }

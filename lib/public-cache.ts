@@ -1,6 +1,7 @@
 import "server-only";
 import { revalidateTag, unstable_cache } from "next/cache";
 import { clearHtmlCache, PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
+import { movePublicPagesMark } from "@/lib/public-pages-mark";
 
 /**
  * The data cache of the public pages (and search). Every page reads the session in the site
@@ -70,9 +71,21 @@ export const CACHE_KEY_ENV = "ARRHENIA_CACHE_KEY";
  */
 export async function invalidatePublicCache(tags: Iterable<string>, { forward = true }: { forward?: boolean } = {}): Promise<void> {
   const unique = [...new Set(tags)];
-  // The anonymous page cache lives in the process of Next (scripts/inner-server.ts): emptied
-  // there, whether the change was made in a request or forwarded by the job workers. Elsewhere it is empty.
-  if (unique.length > 0) clearHtmlCache();
+  if (unique.length === 0) return;
+  // The page cache of this process (the front server's, when its job workers made the change) is emptied at once.
+  clearHtmlCache();
+  await dropTagged(unique, forward);
+  // Then the mark every page cache checks moves (lib/public-pages-mark.ts): after Next's data cache
+  // dropped the tags, so that no page rendered under the new mark read the old data. The receiving
+  // end of a forwarded invalidation leaves it to the sender, which moves it once Next has answered.
+  if (forward)
+    await movePublicPagesMark().catch((e: unknown) =>
+      console.error(`[cache] could not move the public pages' mark: ${e instanceof Error ? e.message : String(e)}`),
+    );
+}
+
+/** Next's data cache drops the tagged entries: here, inside the app's server, else through the forwarder. */
+async function dropTagged(unique: string[], forward: boolean): Promise<void> {
   for (const tag of unique) {
     try {
       revalidateTag(tag, { expire: 0 });

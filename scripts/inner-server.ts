@@ -6,7 +6,6 @@
 import http from "node:http";
 import { INNER_GATE_MARK } from "@/lib/auth/client-address";
 import { innerGate, innerGateUpgrade } from "@/lib/auth/inner-gate";
-import { PUBLIC_CACHE_SECONDS, withHtmlCache } from "@/lib/html-cache";
 import { createRenderGate } from "@/lib/http/render-gate";
 import { renderConcurrency } from "@/lib/config";
 
@@ -34,15 +33,10 @@ const { default: next } = await import("next");
 // rewrite, and a rewrite to another origin than this one is fetched over HTTP (external), which
 // this port's gate refuses. The socket still listens on 127.0.0.1 only (below).
 const app = next({ dev: false, dir: process.cwd(), hostname: "localhost", port });
-// Public pages rendered for anonymous readers are replayed from memory (lib/html-cache.ts): at most
-// 64 MiB of bodies, none over 4 MiB, each for PUBLIC_CACHE_SECONDS unless a change empties the cache first.
-// Renders that miss that cache take turns, a few at a time (lib/http/render-gate.ts).
+// Renders take turns, a few at a time (lib/http/render-gate.ts). Public pages already rendered for
+// anonymous readers are answered by the front server's page cache (lib/html-cache.ts) and never come here.
 const renderGate = createRenderGate({ max: renderConcurrency(), holdMs: 2_000 });
-const handle = withHtmlCache(renderGate(app.getRequestHandler()), {
-  maxBytes: 64 * 1024 * 1024,
-  maxEntryBytes: 4 * 1024 * 1024,
-  ttlMs: PUBLIC_CACHE_SECONDS * 1000,
-});
+const handle = renderGate(app.getRequestHandler());
 await app.prepare();
 const upgrade = app.getUpgradeHandler();
 

@@ -43,6 +43,8 @@ import { startCaptureServer } from "@/lib/mail/capture-server";
 import { DEMO_PASSWORD, demoAccounts } from "./seed/seed-data";
 import { warmUpApp } from "./warm-up";
 import { loadFrontRoutes } from "@/lib/http/front-routes";
+import { PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
+import { readPublicPagesMark } from "@/lib/public-pages-mark";
 
 // A bad setting stops here, before anything listens, with every problem listed.
 try {
@@ -140,6 +142,15 @@ running.edge = await startEdgeProxy({
   appOrigin: new URL(appUrl()).origin,
   // Search is answered in this process (lib/http/front-routes.ts): Next's thread is left to the pages.
   answersHere: true,
+  // Public pages rendered for anonymous readers are replayed from this process's memory
+  // (lib/html-cache.ts): at most 64 MiB of bodies, none over 4 MiB, each while the public pages'
+  // mark stays and for PUBLIC_CACHE_SECONDS at most. A kept page never reaches Next's thread.
+  pageCache: {
+    maxBytes: 64 * 1024 * 1024,
+    maxEntryBytes: 4 * 1024 * 1024,
+    ttlMs: PUBLIC_CACHE_SECONDS * 1000,
+    mark: readPublicPagesMark,
+  },
 });
 
 if (!quiet) {

@@ -9,6 +9,7 @@ import proxyaddr from "proxy-addr";
 import { ActionBodyGuard, isActionRequest, isApiPath, pagePath } from "./action-body-guard";
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER, UNKNOWN_ADDRESS } from "./client-address";
 import { answerHere, frontRoute } from "@/lib/http/front-routes";
+import { withHtmlCache, type HtmlCacheOptions } from "@/lib/html-cache";
 
 export type TrustProxy = (address: string, hop: number) => boolean;
 
@@ -198,6 +199,7 @@ export async function startEdgeProxy({
   appOrigin,
   bodyIdleTimeoutMs = BODY_IDLE_TIMEOUT_MS,
   answersHere = false,
+  pageCache,
 }: {
   host: string;
   port: number;
@@ -209,20 +211,29 @@ export async function startEdgeProxy({
   bodyIdleTimeoutMs?: number;
   /** Answer the public reads of lib/http/front-routes.ts (search) in this process instead of passing them on to the app. */
   answersHere?: boolean;
+  /** Keep public pages rendered for anonymous readers in this process (lib/html-cache.ts) and answer them from here. */
+  pageCache?: HtmlCacheOptions;
 }) {
   const agent = new http.Agent({ keepAlive: true });
   // One connection per request: the second try of a GET whose kept-alive socket the app had closed.
   const freshAgent = new http.Agent({ keepAlive: false });
   const ownOrigin = new URL(appOrigin).origin;
   const ownHost = new URL(appOrigin).host;
+  // What passOn needs of a request that goes through the page cache first.
+  const passing = new WeakMap<http.IncomingMessage, { headers: http.OutgoingHttpHeaders; action: boolean }>();
+  const cachedPassOn = pageCache ? withHtmlCache((req, res) => passOn(req, res, passing.get(req)!), pageCache) : null;
+  /** A request whose handling threw (or rejected): a 500 if nothing was sent yet, else the connection is cut. */
+  const failed = (req: http.IncomingMessage, res: http.ServerResponse, err: unknown) => {
+    console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}:`, err);
+    if (!res.headersSent && !res.destroyed) refuse(res, 500, "internal", "Internal server error", "The request could not be answered.");
+    else res.destroy();
+  };
   const server = http.createServer((req, res) => {
     // Nothing thrown while a request is handled may end the server (an exception in a request listener would).
     try {
       handleRequest(req, res);
     } catch (err) {
-      console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}:`, err);
-      if (!res.headersSent && !res.destroyed) refuse(res, 500, "internal", "Internal server error", "The request could not be answered.");
-      else res.destroy();
+      failed(req, res, err);
     }
   });
   const handleRequest = (req: http.IncomingMessage, res: http.ServerResponse) => {
@@ -263,14 +274,23 @@ export async function startEdgeProxy({
     }
     const here = answersHere ? frontRoute(req.method, req.url) : null;
     if (here) {
-      answerHere(here, req, res, { origin: ownOrigin, headers }).catch((err) => {
-        console.error(`[front] ${req.method} ${req.url?.slice(0, 200)}:`, err);
-        if (!res.headersSent) refuse(res, 500, "internal", "Internal server error", "The request could not be answered.");
-        else res.destroy();
-      });
+      answerHere(here, req, res, { origin: ownOrigin, headers }).catch((err: unknown) => failed(req, res, err));
       req.resume();
       return;
     }
+    if (cachedPassOn) {
+      passing.set(req, { headers, action });
+      Promise.resolve(cachedPassOn(req, res)).catch((err: unknown) => failed(req, res, err));
+      return;
+    }
+    passOn(req, res, { headers, action });
+  };
+  /** Passes the request on to Next and its answer back to the client. */
+  const passOn = (
+    req: http.IncomingMessage,
+    res: http.ServerResponse,
+    { headers, action }: { headers: http.OutgoingHttpHeaders; action: boolean },
+  ) => {
     // Server actions: Next reads the whole body before any code of ours runs, so it is capped here.
     const limit = action ? actionBodyLimit(req.url) : Infinity;
     const tooLarge = () => refuse(res, 413, "payload_too_large", "Payload too large", `A form may send at most ${limit / 1024 / 1024} MB.`);

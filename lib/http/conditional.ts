@@ -1,4 +1,5 @@
 import { createHash } from "node:crypto";
+import { bodyBytes, builtFromBytes, bytesResponse } from "./byte-body";
 
 /**
  * Validators and caching of the API's public reads: a strong ETag over the exact bytes sent (or
@@ -26,9 +27,11 @@ export function noneMatch(ifNoneMatch: string | null, etag: string): boolean {
 /** The answer with its ETag and Cache-Control, or a 304 when the client already holds it. */
 export async function withValidators(req: Request, res: Response, policy: CachePolicy): Promise<Response> {
   if ((req.method !== "GET" && req.method !== "HEAD") || res.status !== 200) return res;
-  const bytes = new Uint8Array(await res.arrayBuffer());
+  const built = builtFromBytes(res);
+  const bytes = built ?? (await bodyBytes(res));
   const etag = res.headers.get("etag") ?? entityTag(bytes);
-  const headers = new Headers(res.headers);
+  // A response built from bytes here keeps its body and takes the headers (no second copy of it).
+  const headers = built ? res.headers : new Headers(res.headers);
   headers.set("etag", etag);
   headers.set("cache-control", `public, max-age=${policy.maxAge}`);
   if (!noneMatch(req.headers.get("if-none-match"), etag)) {
@@ -40,7 +43,7 @@ export async function withValidators(req: Request, res: Response, policy: CacheP
     }
     return new Response(null, { status: 304, headers: kept });
   }
-  return new Response(bytes, { status: res.status, headers });
+  return built ? res : bytesResponse(bytes, { status: res.status, headers });
 }
 
 /** The API's public reads: a minute of reuse (publication and retraction show within it). */

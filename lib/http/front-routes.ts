@@ -16,6 +16,7 @@ import type http from "node:http";
 import { promisify } from "node:util";
 import { gzip } from "node:zlib";
 import Negotiator from "negotiator";
+import { bodyBytes } from "./byte-body";
 
 /** A route handler as Next calls one: a web Request in, a web Response out. */
 export type WebHandler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
@@ -67,6 +68,21 @@ const COMPRESS_FROM_BYTES = 1024;
 const gzipAsync = promisify(gzip);
 
 /**
+ * Compressed bodies by the bytes they compress: a kept search answer is the same bytes at every
+ * hit (lib/http/byte-body.ts), so it is compressed once while it is kept, not at every request.
+ */
+const compressed = new WeakMap<Uint8Array, Promise<Buffer>>();
+function gzipped(bytes: Uint8Array, body: Buffer): Promise<Buffer> {
+  let done = compressed.get(bytes);
+  if (!done) {
+    done = gzipAsync(body);
+    compressed.set(bytes, done);
+    done.catch(() => compressed.delete(bytes));
+  }
+  return done;
+}
+
+/**
  * Runs `load`'s GET for the request and writes its answer to `res`: status, headers, body (none
  * for HEAD), gzip when the client accepts it. `headers` are the ones the proxy would have forwarded.
  */
@@ -90,7 +106,8 @@ export async function answerHere(
   const { GET } = await load();
   const answer = await GET(request, { params: Promise.resolve({}) });
   if (res.destroyed) return;
-  let body: Buffer = Buffer.from(await answer.arrayBuffer());
+  const bytes = await bodyBytes(answer);
+  let body = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   const out: http.OutgoingHttpHeaders = {};
   answer.headers.forEach((value, name) => {
     out[name] = value;
@@ -99,7 +116,7 @@ export async function answerHere(
   out.vary = out.vary ? `${out.vary}, Accept-Encoding` : "Accept-Encoding";
   if (answer.status === 200 && body.length >= COMPRESS_FROM_BYTES && !out["content-encoding"]) {
     if (new Negotiator(req).encoding(["gzip", "identity"]) === "gzip") {
-      body = await gzipAsync(body);
+      body = await gzipped(bytes, body);
       out["content-encoding"] = "gzip";
     }
   }

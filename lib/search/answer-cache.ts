@@ -1,5 +1,5 @@
 /**
- * Search answers kept in this process's memory, as the JSON text GET /api/v1/search sends, keyed
+ * Search answers kept in this process's memory, as the bytes GET /api/v1/search sends (with their entity tag), keyed
  * by the request and stamped with the generation mark of the search documents (drizzle/0025 moves
  * it inside every transaction that changes them: publication, retraction, a re-fit, an exclusion,
  * whichever process or script made it). An answer is served only while the mark it was computed
@@ -11,30 +11,35 @@
  * requests that miss at the same time compute the answer once. Least recently used entries go
  * first beyond `maxBytes`; an answer over `maxEntryBytes` is not kept.
  */
-export interface AnswerCacheOptions {
+export interface AnswerCacheOptions<V = string> {
   maxBytes: number;
   maxEntryBytes: number;
+  /** The memory an answer holds, in bytes (a string's: two bytes a character). */
+  sizeOf?: (answer: V) => number;
 }
 
-interface Entry {
+interface Entry<V> {
   generation: string;
-  json: string;
+  answer: V;
   bytes: number;
 }
 
-export interface AnswerCache {
+export interface AnswerCache<V = string> {
   /**
    * The answer's JSON text: from memory when computed under the current generation `generation()`,
    * else computed by `compute` (given the mark just read) and kept.
    */
-  get(key: string, compute: (generation: string) => Promise<string>): Promise<string>;
+  get(key: string, compute: (generation: string) => Promise<V>): Promise<V>;
   clear(): void;
   readonly stats: { hits: number; misses: number; bytes: number; entries: number };
 }
 
-export function answerCache(generation: () => Promise<string>, { maxBytes, maxEntryBytes }: AnswerCacheOptions): AnswerCache {
-  const entries = new Map<string, Entry>();
-  const pending = new Map<string, Promise<string>>();
+export function answerCache<V = string>(
+  generation: () => Promise<string>,
+  { maxBytes, maxEntryBytes, sizeOf = (answer) => String(answer).length * 2 }: AnswerCacheOptions<V>,
+): AnswerCache<V> {
+  const entries = new Map<string, Entry<V>>();
+  const pending = new Map<string, Promise<V>>();
   const stats = { hits: 0, misses: 0, bytes: 0, entries: 0 };
   const drop = (key: string) => {
     const e = entries.get(key);
@@ -58,7 +63,7 @@ export function answerCache(generation: () => Promise<string>, { maxBytes, maxEn
         entries.delete(key);
         entries.set(key, found);
         stats.hits++;
-        return found.json;
+        return found.answer;
       }
       if (found) drop(key);
       const slot = `${mark}\u0000${key}`;
@@ -66,11 +71,11 @@ export function answerCache(generation: () => Promise<string>, { maxBytes, maxEn
       if (running) return running;
       stats.misses++;
       const computing = compute(mark)
-        .then((json) => {
-          const bytes = json.length * 2;
+        .then((answer) => {
+          const bytes = sizeOf(answer);
           if (bytes <= maxEntryBytes) {
             drop(key);
-            entries.set(key, { generation: mark, json, bytes });
+            entries.set(key, { generation: mark, answer, bytes });
             stats.bytes += bytes;
             for (const [k] of entries) {
               if (stats.bytes <= maxBytes) break;
@@ -78,7 +83,7 @@ export function answerCache(generation: () => Promise<string>, { maxBytes, maxEn
             }
             stats.entries = entries.size;
           }
-          return json;
+          return answer;
         })
         .finally(() => pending.delete(slot));
       pending.set(slot, computing);

@@ -8,6 +8,8 @@ import { displayEquations } from "./lexicon";
 import { resolveQuery } from "./resolve-query";
 import { CAUTION } from "@/lib/analyses/analyse-request";
 import { answerCache } from "./answer-cache";
+import { entityTag } from "@/lib/http/conditional";
+import { bytesResponse } from "@/lib/http/byte-body";
 import { getSearchGeneration, withSearchGeneration } from "./queries";
 import type { FacetCount, ParsedQuery, SearchAnswer, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
 
@@ -84,27 +86,52 @@ async function answerOf(request: SearchRequest, engine?: SearchEngine): Promise<
   };
 }
 
+/** A search answer as GET /api/v1/search sends it: the JSON's UTF-8 bytes and their entity tag. */
+export interface AnswerBody {
+  bytes: Buffer;
+  etag: string;
+}
+
+function answerBody(answer: SearchAnswer): AnswerBody {
+  const bytes = Buffer.from(JSON.stringify(answer));
+  return { bytes, etag: entityTag(bytes) };
+}
+
 /**
- * The PostgreSQL engine's answers, kept per request as JSON text while the search documents'
+ * The PostgreSQL engine's answers, kept per request as the bytes sent while the search documents'
  * generation mark stays (./answer-cache.ts): that engine reads the same database, so a kept answer
  * is never older than the last committed change to the documents, whoever made it. Meilisearch's
  * answers are not kept: its index catches up through the outbox after the change.
  */
-const answers = answerCache(getSearchGeneration, { maxBytes: 32 * 2 ** 20, maxEntryBytes: 2 * 2 ** 20 });
+const answers = answerCache<AnswerBody>(getSearchGeneration, {
+  maxBytes: 32 * 2 ** 20,
+  maxEntryBytes: 2 * 2 ** 20,
+  sizeOf: (a) => a.bytes.length + a.etag.length * 2,
+});
+
+/** The search as the bytes GET /api/v1/search answers (with the caution sentence); the same object while it is kept. */
+export async function searchAnswerBody(request: SearchRequest, engine?: SearchEngine): Promise<AnswerBody> {
+  const chosen = engine ?? currentSearchEngine();
+  if (chosen !== postgresEngine) return answerBody(await answerOf(request, chosen));
+  // The mark the cache just read is the one every read of this search uses (one query, not four).
+  return answers.get(JSON.stringify(request), (mark) =>
+    withSearchGeneration(mark, async () => answerBody(await answerOf(request, postgresEngine))),
+  );
+}
 
 /** The search as the JSON text GET /api/v1/search answers (with the caution sentence). */
 export async function searchAnswerJson(request: SearchRequest, engine?: SearchEngine): Promise<string> {
-  const chosen = engine ?? currentSearchEngine();
-  if (chosen !== postgresEngine) return JSON.stringify(await answerOf(request, chosen));
-  // The mark the cache just read is the one every read of this search uses (one query, not four).
-  return answers.get(JSON.stringify(request), (mark) =>
-    withSearchGeneration(mark, async () => JSON.stringify(await answerOf(request, postgresEngine))),
-  );
+  return (await searchAnswerBody(request, engine)).bytes.toString("utf8");
 }
 
 /** The search in the shape GET /api/v1/search answers, with the caution sentence: the page's first answer. */
 export async function searchAnswer(request: SearchRequest, engine?: SearchEngine): Promise<SearchAnswer> {
   return JSON.parse(await searchAnswerJson(request, engine)) as SearchAnswer;
+}
+
+/** The answer of GET /api/v1/search (and the datasets list): its bytes, JSON, and the entity tag of those bytes. */
+export function searchAnswerResponse({ bytes, etag }: AnswerBody): Response {
+  return bytesResponse(bytes, { headers: { "content-type": "application/json", etag } });
 }
 
 export { parseSearchParams, parseSearchParamsOrThrow, toSearchParams } from "./params";

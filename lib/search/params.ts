@@ -89,7 +89,15 @@ const ALLOWED: Record<ListFilter, readonly string[] | null> = {
   creator: null,
 };
 
+/** Each list filter's schema, built once (building a zod schema costs more than a search answer kept in memory). */
+const listSchemas = new Map<ListFilter, ReturnType<typeof buildListSchema>>();
 function listSchema(filter: ListFilter) {
+  let schema = listSchemas.get(filter);
+  if (!schema) listSchemas.set(filter, (schema = buildListSchema(filter)));
+  return schema;
+}
+
+function buildListSchema(filter: ListFilter) {
   const parameter = FILTER_PARAMETERS[filter];
   const allowed = ALLOWED[filter];
   return (

@@ -2,6 +2,7 @@ import "server-only";
 import { AsyncLocalStorage } from "node:async_hooks";
 import { and, asc, eq, gt, inArray, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
+import { readPerTurn } from "@/db/read-per-turn";
 import { reactions, species, speciesNames } from "@/db/chemistry";
 import { searchDocuments, searchReactionSummaries } from "@/db/search";
 import { reactionDisplayEquation, speciesDisplayName } from "@/lib/reactions/display-names";
@@ -267,12 +268,18 @@ export function withSearchGeneration<T>(generation: string, work: () => Promise<
   return readMark.run(generation, work);
 }
 
-/** The mark of the search documents' state (drizzle/0025 sets it in every transaction that changes them); "none" before any. */
-export async function getSearchGeneration(): Promise<string> {
+/**
+ * The mark of the search documents' state (drizzle/0025 sets it in every transaction that changes
+ * them); "none" before any. Requests that ask in the same turn of the event loop share one read
+ * (db/read-per-turn.ts), which still starts after each of them arrived.
+ */
+export function getSearchGeneration(): Promise<string> {
   const known = readMark.getStore();
-  if (known !== undefined) return known;
-  const [row] = await getDb().execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
-  return row?.g ?? "none";
+  if (known !== undefined) return Promise.resolve(known);
+  return readPerTurn("search generation", async (db) => {
+    const [row] = await db.execute<{ g: string | null }>(sql`select (select generation::text from search_generation) as g`);
+    return row?.g ?? "none";
+  });
 }
 
 /** A listed (`latest`) search document as the in-memory index reads it (arrays in their text form). */

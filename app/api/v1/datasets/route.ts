@@ -1,10 +1,9 @@
 // GET /api/v1/datasets — published and retracted datasets matching the search parameters, a page at a time (cursor)
 // POST /api/v1/datasets — deposit a new dataset (a draft) from a deposit document (Idempotency-Key honoured)
-import { NextResponse } from "next/server";
 import { withApi } from "@/lib/auth/api";
 import { AppError } from "@/lib/errors";
 import { PUBLIC_READ_CACHE } from "@/lib/http/conditional";
-import { parseSearchParamsOrThrow, searchAnswerJson } from "@/lib/search";
+import { parseSearchParamsOrThrow, searchAnswerBody, searchAnswerResponse } from "@/lib/search";
 import { depositNewDataset } from "@/lib/datasets/deposits";
 import type { VersionDto } from "@/lib/datasets/queries";
 import { MAX_DOCUMENT_BYTES } from "@/lib/deposits";
@@ -19,7 +18,7 @@ export const GET = withApi(
       throw new AppError("bad_request", "This endpoint lists datasets; for reactions use /api/v1/search?view=reactions", [
         { pointer: "/view", parameter: "view", message: "view must be datasets here", value: request.view },
       ]);
-    return new NextResponse(await searchAnswerJson(request), { headers: { "content-type": "application/json" } });
+    return searchAnswerResponse(await searchAnswerBody(request));
   },
   { scope: null, cache: PUBLIC_READ_CACHE },
 );

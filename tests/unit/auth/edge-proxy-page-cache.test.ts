@@ -1,0 +1,120 @@
+import http from "node:http";
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { clearHtmlCache, HTML_CACHE_HEADER } from "@/lib/html-cache";
+import { startFrontBefore } from "./front-server";
+
+// The front server's page cache (lib/html-cache.ts through lib/auth/edge-proxy.ts `pageCache`) before a
+// stand-in for Next that counts its renders: what is answered without reaching it, and when it is reached again.
+let renders = 0;
+let mark = "m1";
+let markFails = false;
+const reached: string[] = [];
+
+let app: http.Server;
+let front: { port: number; close: () => Promise<void> };
+
+beforeAll(async () => {
+  app = http.createServer((req, res) => {
+    reached.push(`${req.method} ${req.url}`);
+    renders += 1;
+    req.resume();
+    req.on("end", () => {
+      if (req.url === "/datasets/9/v1") {
+        res.writeHead(404, { "content-type": "text/html" });
+        res.end("<h1>Not found</h1>");
+        return;
+      }
+      // An old date, as a render passed on from the app carries its own.
+      res.writeHead(200, { "content-type": "text/html; charset=utf-8", date: "Mon, 01 Jan 2024 00:00:00 GMT" });
+      res.write(`<p>${req.url} render ${renders}</p>`);
+      res.end(req.headers.cookie ? " for a member" : " for anyone");
+    });
+  });
+  front = await startFrontBefore(app, {
+    pageCache: {
+      maxBytes: 1 << 20,
+      maxEntryBytes: 1 << 16,
+      ttlMs: 60_000,
+      mark: async () => {
+        if (markFails) throw new Error("the database is out of reach");
+        return mark;
+      },
+    },
+  });
+});
+
+afterAll(async () => {
+  await front.close();
+  await new Promise((resolve) => app.close(resolve));
+});
+
+beforeEach(() => {
+  clearHtmlCache();
+  mark = "m1";
+  markFails = false;
+  reached.length = 0;
+});
+
+async function get(path: string, headers: Record<string, string> = {}) {
+  const res = await fetch(`http://127.0.0.1:${front.port}${path}`, { headers });
+  return { status: res.status, body: await res.text(), cache: res.headers.get(HTML_CACHE_HEADER), date: res.headers.get("date") };
+}
+
+describe("public pages kept by the front server", () => {
+  it("answers a page read before without reaching the app, with the same body and a date of its own", async () => {
+    const first = await get("/reactions/r-1");
+    expect(first.cache).toBe("miss");
+    const again = await get("/reactions/r-1");
+    expect(again).toMatchObject({ status: 200, body: first.body, cache: "hit" });
+    expect(reached).toEqual(["GET /reactions/r-1"]);
+    // Replayed with the time it is sent, not the render's.
+    expect(again.date).not.toContain("2024");
+  });
+
+  it("renders again once the public pages' mark moved (a change in any process), and keeps the new render", async () => {
+    await get("/species/ABC");
+    mark = "m2";
+    const after = await get("/species/ABC");
+    expect(after.cache).toBe("miss");
+    expect((await get("/species/ABC")).cache).toBe("hit");
+    expect(reached).toEqual(["GET /species/ABC", "GET /species/ABC"]);
+  });
+
+  it("passes a request on uncached when the mark cannot be read", async () => {
+    await get("/classes");
+    markFails = true;
+    const res = await get("/classes");
+    expect(res.status).toBe(200);
+    // Not through the cache at all: neither read nor stored.
+    expect(res.cache).toBeNull();
+    markFails = false;
+    expect((await get("/classes")).cache).toBe("hit");
+    expect(reached).toEqual(["GET /classes", "GET /classes"]);
+  });
+
+  it("never answers a member's request from memory, nor keeps a 404, an API answer or a form post", async () => {
+    await get("/classes");
+    const member = await get("/classes", { cookie: "next-auth.session-token=abc" });
+    expect(member.body).toContain("for a member");
+    expect(member.cache).toBeNull();
+    expect((await get("/datasets/9/v1")).status).toBe(404);
+    expect((await get("/datasets/9/v1")).status).toBe(404);
+    await get("/api/v1/reactions");
+    await get("/api/v1/reactions");
+    const posted = await fetch(`http://127.0.0.1:${front.port}/classes`, {
+      method: "POST",
+      headers: { origin: "http://127.0.0.1", "content-type": "text/plain" },
+      body: "x",
+    });
+    expect(posted.status).toBe(200);
+    expect(reached).toEqual([
+      "GET /classes",
+      "GET /classes",
+      "GET /datasets/9/v1",
+      "GET /datasets/9/v1",
+      "GET /api/v1/reactions",
+      "GET /api/v1/reactions",
+      "POST /classes",
+    ]);
+  });
+});
