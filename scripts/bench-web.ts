@@ -10,7 +10,8 @@
  * 2. `next build` into .next-bench (skipped when the checkout has not changed since), served by
  *    scripts/serve.ts, the real front server, on 127.0.0.1:3400 (BENCH_PORT).
  * 3. autocannon, 32 connections (BENCH_CONNECTIONS), a short warm-up then BENCH_SECONDS (10) per
- *    scenario, each request on the next of a few thousand URLs spread over the data; the server's
+ *    scenario, each request on the next of a few thousand URLs spread over the data, accepting
+ *    compressed answers as browsers do (ACCEPT_ENCODING in ./bench/load.ts); the server's
  *    process tree's peak RSS is sampled from /proc throughout.
  *
  * BENCH_DATASETS (default 100 000) sizes the data (2 000 for a quick run); BENCH_KEEP=1 leaves the
@@ -27,7 +28,7 @@ import { frontHeapMb } from "@/lib/config";
 import { reactionPath } from "@/lib/reactions/paths";
 import { FILTER_PARAMETERS } from "@/lib/search/params";
 import { fillBenchDatabase, fillSize, FILL_VERSION, type FillReport } from "./bench/fill";
-import { drive, formatTable, sampleTreeMemory, type ScenarioResult } from "./bench/load";
+import { ACCEPT_ENCODING, drive, formatTable, sampleTreeMemory, type ScenarioResult } from "./bench/load";
 
 const root = process.cwd();
 const env = (name: string, fallback: number) => (process.env[name] ? Number(process.env[name]) : fallback);
@@ -383,7 +384,8 @@ async function primeAll(paths: string[]): Promise<number> {
   const worker = async () => {
     while (next < paths.length) {
       const p = paths[next++];
-      await fetch(base + p, { redirect: "manual", signal: AbortSignal.timeout(60_000) })
+      // The same Accept-Encoding as the timed requests: the page cache keeps one answer per encoding.
+      await fetch(base + p, { redirect: "manual", headers: { "accept-encoding": ACCEPT_ENCODING }, signal: AbortSignal.timeout(60_000) })
         .then((res) => res.arrayBuffer())
         .catch(() => undefined);
     }
@@ -459,7 +461,7 @@ try {
     `\nArrhenia web benchmark: ${rep.datasets} datasets (${rep.versions} published versions, ${rep.points} points, ${rep.reactions} reactions, ${rep.species} species)`,
   );
   console.log(
-    `autocannon ${connections} connections, ${seconds} s per scenario after ${warmSeconds} s warm-up; server ${base} (scripts/serve.ts, ${distDir})\n`,
+    `autocannon ${connections} connections, ${seconds} s per scenario after ${warmSeconds} s warm-up; Accept-Encoding: ${ACCEPT_ENCODING}; server ${base} (scripts/serve.ts, ${distDir})\n`,
   );
   const rows = [["scenario", "p50 ms", "p95 ms", "p99 ms", "req/s", "requests", "non-2xx", "errors"]];
   for (const r of results)
