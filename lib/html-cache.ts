@@ -68,7 +68,18 @@ export interface HtmlCacheOptions {
    * request on uncached. Without it, only this process's invalidations and the lifetime apply.
    */
   mark?: () => Promise<string>;
+  /** How long a request waits for the render of the same page already under way (WAIT_FOR_RENDER_MS). */
+  waitForRenderMs?: number;
   now?: () => number;
+}
+
+/** How long a request waits for another's render of the same page before it asks for its own. */
+export const WAIT_FOR_RENDER_MS = 10_000;
+
+/** Resolves when `work` settles or after `ms`, whichever comes first. */
+function waitAtMost(work: Promise<void>, ms: number): Promise<void> {
+  let timer: NodeJS.Timeout | undefined;
+  return Promise.race([work, new Promise<void>((resolve) => (timer = setTimeout(resolve, ms)))]).finally(() => clearTimeout(timer));
 }
 
 interface Entry {
@@ -84,6 +95,8 @@ interface Store {
   bytes: number;
   /** Moves on every invalidation; a render that began under an older generation is not stored. */
   generation: number;
+  /** Renders under way, by mark and key: a second request for the same page waits for the first. */
+  rendering: Map<string, Promise<void>>;
 }
 
 // On globalThis: the server script and Next's own bundle of lib/public-cache.ts load this module
@@ -91,7 +104,7 @@ interface Store {
 const STORE = Symbol.for("arrhenia.htmlCache");
 function store(): Store {
   const g = globalThis as Record<symbol, Store | undefined>;
-  return (g[STORE] ??= { entries: new Map(), bytes: 0, generation: 0 });
+  return (g[STORE] ??= { entries: new Map(), bytes: 0, generation: 0, rendering: new Map() });
 }
 
 /** Empties the cache (every invalidation of public data). */
@@ -142,19 +155,39 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       }
     }
     const s = store();
-    const hit = s.entries.get(key);
-    if (hit && hit.mark === mark && now() - hit.storedAt < options.ttlMs) {
+    /** Answers from memory when a page is kept for this request's mark. */
+    const served = (): boolean => {
+      const hit = s.entries.get(key);
+      if (!hit) return false;
+      if (hit.mark !== mark || now() - hit.storedAt >= options.ttlMs) {
+        s.entries.delete(key);
+        s.bytes -= hit.body.length;
+        return false;
+      }
       // Least recently used first: a hit moves to the end.
       s.entries.delete(key);
       s.entries.set(key, hit);
       req.resume();
       res.writeHead(hit.status, { ...hit.headers, [HTML_CACHE_HEADER]: "hit", "content-length": hit.body.length });
       res.end(hit.body);
-      return;
-    }
-    if (hit) {
-      s.entries.delete(key);
-      s.bytes -= hit.body.length;
+      return true;
+    };
+    if (served()) return;
+    // The same page being rendered for another anonymous reader (a popular page just after a change
+    // emptied the cache): wait for that render rather than start another, then take what it kept.
+    const slot = `${mark}\u0000${key}`;
+    const underWay = s.rendering.get(slot);
+    if (underWay) {
+      await waitAtMost(underWay, options.waitForRenderMs ?? WAIT_FOR_RENDER_MS);
+      if (res.destroyed || served()) return;
+    } else {
+      let finished!: () => void;
+      s.rendering.set(slot, new Promise<void>((resolve) => (finished = resolve)));
+      // After the answer was stored (at its end) or given up (its client left).
+      res.once("close", () => {
+        s.rendering.delete(slot);
+        finished();
+      });
     }
     const generation = s.generation;
     const chunks: Buffer[] = [];

@@ -15,7 +15,11 @@ function page(req: http.IncomingMessage, res: http.ServerResponse): void {
   renders += 1;
   const url = new URL(req.url!, "http://x");
   const member = (req.headers.cookie ?? "").includes("session-token");
-  if (url.pathname === "/datasets/7/v1" && !member) {
+  if ((url.pathname === "/datasets/7/v1" || url.pathname === "/reactions/slow-missing") && !member) {
+    if (url.pathname === "/reactions/slow-missing") {
+      setTimeout(() => res.writeHead(404, { "content-type": "text/html" }).end("<h1>Not found</h1>"), 150);
+      return;
+    }
     res.writeHead(404, { "content-type": "text/html" });
     res.end("<h1>Not found</h1>");
     return;
@@ -24,7 +28,10 @@ function page(req: http.IncomingMessage, res: http.ServerResponse): void {
   res.setHeader("content-type", "text/html; charset=utf-8");
   res.write(`<p>${url.pathname}${url.search} ${member ? "member" : "anyone"} render ${renders}</p>`);
   duringRender?.();
-  res.end(url.pathname === "/reactions/big" ? "x".repeat(5000) : "<footer></footer>");
+  const end = () => res.end(url.pathname === "/reactions/big" ? "x".repeat(5000) : "<footer></footer>");
+  // A slow render: the requests that arrive meanwhile for the same page wait for it.
+  if (url.pathname.startsWith("/reactions/slow")) setTimeout(end, 150);
+  else end();
 }
 
 let server: http.Server;
@@ -127,6 +134,22 @@ describe("html cache", () => {
     // Over the single-entry limit: passed on, never stored.
     await get("/reactions/big");
     expect((await get("/reactions/big")).cache).toBe("miss");
+  });
+
+  it("renders a page asked for by several readers at once only once: the others wait and get what it kept", async () => {
+    const before = renders;
+    const answers = await Promise.all([get("/reactions/slow"), get("/reactions/slow"), get("/reactions/slow")]);
+    expect(renders - before).toBe(1);
+    expect(answers.map((a) => a.cache).sort()).toEqual(["hit", "hit", "miss"]);
+    expect(new Set(answers.map((a) => a.body)).size).toBe(1);
+    // A render that keeps nothing (a 404) sends each waiter to render its own.
+    const missing = await Promise.all([get("/reactions/slow-missing"), get("/reactions/slow-missing")]);
+    expect(missing.map((a) => a.status)).toEqual([404, 404]);
+    expect(renders - before).toBe(3);
+    // A member never waits for an anonymous render, nor gets it.
+    const [anyone, member] = await Promise.all([get("/reactions/slow-2"), get("/reactions/slow-2", { cookie: SESSION })]);
+    expect(anyone.body).toContain("anyone");
+    expect(member.body).toContain("member");
   });
 
   it("keys only what may be shared", () => {
