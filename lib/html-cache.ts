@@ -52,6 +52,9 @@ const BYPASS_HEADERS = [
   "next-router-segment-prefetch",
 ];
 
+/** The longest Accept or Accept-Encoding a request may carry and still be answered from the cache. */
+const MAX_KEYED_HEADER = 256;
+
 /** Response header saying whether the answer came from the cache (`hit`) or was rendered and stored (`miss`). */
 export const HTML_CACHE_HEADER = "x-arrhenia-html-cache";
 
@@ -88,6 +91,8 @@ interface Entry {
   headers: http.OutgoingHttpHeaders;
   body: Buffer;
   storedAt: number;
+  /** What the entry holds in memory, counted against the budget: body, key and headers. */
+  size: number;
 }
 
 interface Store {
@@ -122,6 +127,11 @@ export function htmlCacheKey(req: Pick<http.IncomingMessage, "method" | "url" | 
   if (BYPASS_HEADERS.some((name) => headers[name] !== undefined)) return null;
   // A cookie next-auth may read as a session (lib/auth/session-cookie.ts) bypasses the cache.
   if (mayCarrySession(headers.cookie)) return null;
+  // A GET that declares a body, even an empty one, is not a plain page view (proxy.ts's content
+  // negotiation passes over it: stored, its HTML would answer a later request for a citation).
+  if (headers["content-length"] !== undefined || headers["transfer-encoding"] !== undefined) return null;
+  // Headers in the key stay short: a long one would hold memory the byte budget does not see.
+  if ((headers.accept?.length ?? 0) > MAX_KEYED_HEADER || (headers["accept-encoding"]?.length ?? 0) > MAX_KEYED_HEADER) return null;
   const q = req.url.indexOf("?");
   const path = q === -1 ? req.url : req.url.slice(0, q);
   if (!CACHED_PATHS.some((re) => re.test(path))) return null;
@@ -134,7 +144,7 @@ function evict(s: Store, maxBytes: number) {
   for (const [key, entry] of s.entries) {
     if (s.bytes <= maxBytes) break;
     s.entries.delete(key);
-    s.bytes -= entry.body.length;
+    s.bytes -= entry.size;
   }
 }
 
@@ -161,7 +171,7 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       if (!hit) return false;
       if (hit.mark !== mark || now() - hit.storedAt >= options.ttlMs) {
         s.entries.delete(key);
-        s.bytes -= hit.body.length;
+        s.bytes -= hit.size;
         return false;
       }
       // Least recently used first: a hit moves to the end.
@@ -232,7 +242,9 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       const result = end(...args);
       // A reader who left mid-answer may have cut the body short: never stored.
       if (res.destroyed || req.socket?.destroyed) keep = false;
-      if (keep && status === 200 && headers["set-cookie"] === undefined && s.generation === generation) {
+      // Rendered HTML only: a citation format answered at a page's address (by Accept) is an API answer of its own.
+      const html = /^text\/html\b/i.test(String(headers["content-type"] ?? ""));
+      if (keep && status === 200 && html && headers["set-cookie"] === undefined && s.generation === generation) {
         const body = Buffer.concat(chunks);
         delete headers[HTML_CACHE_HEADER];
         // Replayed whole with its own length; hop-by-hop framing is the replay's own.
@@ -243,9 +255,10 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
         // A replay is dated when it is sent (Node adds the Date of each answer); one passed on from Next carries its render's.
         delete headers.date;
         const old = s.entries.get(key);
-        if (old) s.bytes -= old.body.length;
-        s.entries.set(key, { mark, status, headers, body, storedAt: now() });
-        s.bytes += body.length;
+        if (old) s.bytes -= old.size;
+        const size = body.length + 2 * key.length + JSON.stringify(headers).length * 2;
+        s.entries.set(key, { mark, status, headers, body, storedAt: now(), size });
+        s.bytes += size;
         evict(s, options.maxBytes);
       }
       return result;

@@ -1,7 +1,7 @@
 import "server-only";
 import { revalidateTag, unstable_cache } from "next/cache";
 import { clearHtmlCache, PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
-import { movePublicPagesMark } from "@/lib/public-pages-mark";
+import { movePublicPagesMark, readPublicPagesMark } from "@/lib/public-pages-mark";
 
 /**
  * The data cache of the public pages (and search). Every page reads the session in the site
@@ -31,8 +31,11 @@ export { PUBLIC_CACHE_SECONDS };
  * (never anything read from the session). The result goes through JSON: return no Date objects.
  */
 export function cachedPublic<A extends unknown[], R>(fn: (...args: A) => Promise<R>, key: string, tags: (...args: A) => string[]) {
-  return (...args: A): Promise<R> => {
-    const cached = unstable_cache(() => fn(...args), [key, JSON.stringify(args)], {
+  return async (...args: A): Promise<R> => {
+    // Under the public pages' mark as well: an invalidation made where Next's cache cannot be reached
+    // (a script: `npm run refit`, the seed) still moves the mark, and no page is then rendered from the old data.
+    const mark = await currentMark();
+    const cached = unstable_cache(() => fn(...args), [key, JSON.stringify(args), mark], {
       tags: tags(...args),
       revalidate: PUBLIC_CACHE_SECONDS,
     });
@@ -42,6 +45,17 @@ export function cachedPublic<A extends unknown[], R>(fn: (...args: A) => Promise
       throw error;
     });
   };
+}
+
+let lastMark = "none";
+/** The public pages' mark; while it cannot be read (the database out of reach), the last one read, so that kept data still serve. */
+async function currentMark(): Promise<string> {
+  try {
+    lastMark = await readPublicPagesMark();
+  } catch {
+    // The data read below fails the same way unless it is kept.
+  }
+  return lastMark;
 }
 
 /** Sends tags to the app's server, which invalidates them in its own cache (POST /api/cache-invalidations). */

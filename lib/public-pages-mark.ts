@@ -8,10 +8,16 @@ import { readPerTurn } from "@/db/read-per-turn";
  * server's page cache (lib/html-cache.ts) serves a kept page only under the mark it was kept under.
  */
 
-/** The current mark; requests in the same turn of the event loop share one read (db/read-per-turn.ts). */
+/**
+ * The current mark ("0" before the first move: a new sequence's last_value is already its first
+ * value, and only is_called tells whether nextval gave it); requests in the same turn of the event loop
+ * share one read (db/read-per-turn.ts).
+ */
 export function readPublicPagesMark(): Promise<string> {
   return readPerTurn("public pages mark", async (db) => {
-    const [row] = await db.execute<{ mark: string }>(sql`select last_value::text as mark from public_pages_mark`);
+    const [row] = await db.execute<{ mark: string }>(
+      sql`select (case when is_called then last_value else 0 end)::text as mark from public_pages_mark`,
+    );
     return row?.mark ?? "none";
   });
 }

@@ -124,7 +124,7 @@ export function assertStorableQuery(url: URL): void {
     const why = describeUnstorableText(name) ?? describeUnstorableText(value);
     if (why)
       throw new AppError("validation_failed", `The query parameter “${name}” ${why}`, [
-        { pointer: `/${escapePointer(name)}`, message: `The query parameter “${name}” ${why}.`, value },
+        { pointer: `/${escapePointer(name)}`, parameter: name, message: `The query parameter “${name}” ${why}.`, value },
       ]);
   }
 }

@@ -114,8 +114,12 @@ export async function answerHere(
   });
   // Every answer of these addresses may come compressed, a 304 included (RFC 9110 §15.4.5 asks it to say what its 200 would).
   out.vary = out.vary ? `${out.vary}, Accept-Encoding` : "Accept-Encoding";
-  if (answer.status === 200 && body.length >= COMPRESS_FROM_BYTES && !out["content-encoding"]) {
-    if (new Negotiator(req).encoding(["gzip", "identity"]) === "gzip") {
+  const gzipWanted = !out["content-encoding"] && new Negotiator(req).encoding(["gzip", "identity"]) === "gzip";
+  if (gzipWanted) {
+    // The compressed bytes are not the ones a strong tag names (RFC 9110 §8.8.1): to a client that
+    // takes gzip the tag is weak, on its 200s and 304s alike (If-None-Match compares weakly).
+    if (typeof out.etag === "string" && !out.etag.startsWith("W/")) out.etag = `W/${out.etag}`;
+    if (answer.status === 200 && body.length >= COMPRESS_FROM_BYTES) {
       body = await gzipped(bytes, body);
       out["content-encoding"] = "gzip";
     }

@@ -25,6 +25,11 @@ function page(req: http.IncomingMessage, res: http.ServerResponse): void {
     return;
   }
   if (url.pathname === "/datasets/8/v1") res.setHeader("set-cookie", "a=b");
+  if (url.pathname === "/datasets/6/v1" && req.headers.accept === "application/x-bibtex") {
+    res.writeHead(200, { "content-type": "application/x-bibtex" });
+    res.end("@misc{x}");
+    return;
+  }
   res.setHeader("content-type", "text/html; charset=utf-8");
   res.write(`<p>${url.pathname}${url.search} ${member ? "member" : "anyone"} render ${renders}</p>`);
   duringRender?.();
@@ -150,6 +155,38 @@ describe("html cache", () => {
     const [anyone, member] = await Promise.all([get("/reactions/slow-2"), get("/reactions/slow-2", { cookie: SESSION })]);
     expect(anyone.body).toContain("anyone");
     expect(member.body).toContain("member");
+  });
+
+  it("never keeps a GET that declares a body (even an empty one), one with a long Accept, or an answer that is not HTML", async () => {
+    // fetch never sends Content-Length on a GET: a raw request does.
+    const emptyBody = () =>
+      new Promise<string | undefined>((resolve, reject) => {
+        const req = http.request(`${base}/species/B`, { headers: { "content-length": "0" } }, (res) => {
+          res.resume();
+          res.on("end", () => resolve(res.headers[HTML_CACHE_HEADER] as string | undefined));
+        });
+        req.on("error", reject);
+        req.end();
+      });
+    await emptyBody();
+    expect(await emptyBody()).toBeUndefined();
+    const longAccept = { accept: `text/html, application/x-${"a".repeat(300)};q=0.1` };
+    await get("/species/B", longAccept);
+    expect((await get("/species/B", longAccept)).cache).toBeNull();
+    expect(htmlCacheSize().entries).toBe(0);
+    await get("/datasets/6/v1", { accept: "application/x-bibtex" });
+    expect((await get("/datasets/6/v1", { accept: "application/x-bibtex" })).cache).toBe("miss");
+    expect(htmlCacheSize().entries).toBe(0);
+  });
+
+  it("counts an entry's key and headers against the budget, not only its body", async () => {
+    // A body of ~200 bytes fits the 400-byte budget; with its 150-character key and its headers it does not.
+    const path = `/species/${"L".repeat(150)}`;
+    expect((await get(path)).body.length).toBeLessThan(400);
+    expect(htmlCacheSize()).toEqual({ entries: 0, bytes: 0 });
+    await get("/species/short");
+    expect(htmlCacheSize().entries).toBe(1);
+    expect(htmlCacheSize().bytes).toBeGreaterThan(Buffer.byteLength((await get("/species/short")).body));
   });
 
   it("keys only what may be shared", () => {

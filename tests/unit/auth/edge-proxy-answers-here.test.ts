@@ -108,6 +108,14 @@ describe("a search answered by the front server", () => {
     expect((await ask("GET", "/api/v1/search?q=s", { "accept-encoding": "gzip" })).headers["content-encoding"]).toBeUndefined();
   });
 
+  it("names the answer with a weak tag to a client that takes gzip (other bytes than the strong tag names), a strong one otherwise", async () => {
+    expect((await ask("GET", "/api/v1/search?q=long", { "accept-encoding": "gzip" })).headers.etag).toBe('W/"e1"');
+    expect((await ask("GET", "/api/v1/search?q=long")).headers.etag).toBe('"e1"');
+    expect((await ask("GET", "/api/v1/search?q=unchanged", { "accept-encoding": "gzip", "if-none-match": 'W/"e1"' })).headers.etag).toBe(
+      'W/"e1"',
+    );
+  });
+
   it("answers HEAD with the headers and no body, and passes a problem's status through", async () => {
     const head = await ask("HEAD", "/api/v1/search/suggest?q=me");
     expect(head.status).toBe(200);
