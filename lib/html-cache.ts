@@ -17,7 +17,7 @@ import type http from "node:http";
  *   payload, which Next asks for with the `rsc` header).
  * Freshness: every invalidation of public data (lib/public-cache.ts, after publication, retraction,
  * re-fit, consensus exclusion, in whichever process or script) moves the public pages' mark in the
- * database (lib/public-pages-mark.ts), read when a request arrives: an entry is served only under the
+ * database (db/public-pages-mark.ts), read when a request arrives: an entry is served only under the
  * mark it was kept under. An invalidation in this process also empties the cache at once, and an
  * entry lives at most `PUBLIC_CACHE_SECONDS`, as the data cache's entries do. A render that was
  * running when the cache was emptied is not stored (it may have read the old data).
@@ -66,7 +66,7 @@ export interface HtmlCacheOptions {
   /** How long an entry is served, in milliseconds. */
   ttlMs: number;
   /**
-   * The current mark of the public pages' state (lib/public-pages-mark.ts), read when a request
+   * The current mark of the public pages' state (db/public-pages-mark.ts), read when a request
    * arrives: an entry is served only under the mark it was kept under. A failed read passes the
    * request on uncached. Without it, only this process's invalidations and the lifetime apply.
    */

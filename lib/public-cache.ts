@@ -1,7 +1,7 @@
 import "server-only";
 import { revalidateTag, unstable_cache } from "next/cache";
 import { clearHtmlCache, PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
-import { movePublicPagesMark, readPublicPagesMark } from "@/lib/public-pages-mark";
+import { movePublicPagesMark, readPublicPagesMark } from "@/db/public-pages-mark";
 
 /**
  * The data cache of the public pages (and search). Every page reads the session in the site
@@ -89,7 +89,7 @@ export async function invalidatePublicCache(tags: Iterable<string>, { forward = 
   // The page cache of this process (the front server's, when its job workers made the change) is emptied at once.
   clearHtmlCache();
   await dropTagged(unique, forward);
-  // Then the mark every page cache checks moves (lib/public-pages-mark.ts): after Next's data cache
+  // Then the mark every page cache checks moves (db/public-pages-mark.ts): after Next's data cache
   // dropped the tags, so that no page rendered under the new mark read the old data. The receiving
   // end of a forwarded invalidation leaves it to the sender, which moves it once Next has answered.
   if (forward)

@@ -44,7 +44,7 @@ import { DEMO_PASSWORD, demoAccounts } from "./seed/seed-data";
 import { warmUpApp } from "./warm-up";
 import { loadFrontRoutes } from "@/lib/http/front-routes";
 import { PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
-import { readPublicPagesMark } from "@/lib/public-pages-mark";
+import { readPublicPagesMark } from "@/db/public-pages-mark";
 
 // A bad setting stops here, before anything listens, with every problem listed.
 try {

@@ -72,10 +72,10 @@ const gzipAsync = promisify(gzip);
  * hit (lib/http/byte-body.ts), so it is compressed once while it is kept, not at every request.
  */
 const compressed = new WeakMap<Uint8Array, Promise<Buffer>>();
-function gzipped(bytes: Uint8Array, body: Buffer): Promise<Buffer> {
+function gzipped(bytes: Uint8Array): Promise<Buffer> {
   let done = compressed.get(bytes);
   if (!done) {
-    done = gzipAsync(body);
+    done = gzipAsync(bytes);
     compressed.set(bytes, done);
     done.catch(() => compressed.delete(bytes));
   }
@@ -120,7 +120,7 @@ export async function answerHere(
     // takes gzip the tag is weak, on its 200s and 304s alike (If-None-Match compares weakly).
     if (typeof out.etag === "string" && !out.etag.startsWith("W/")) out.etag = `W/${out.etag}`;
     if (answer.status === 200 && body.length >= COMPRESS_FROM_BYTES) {
-      body = await gzipped(bytes, body);
+      body = await gzipped(bytes);
       out["content-encoding"] = "gzip";
     }
   }

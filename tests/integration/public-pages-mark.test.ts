@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { readPerTurn } from "@/db/read-per-turn";
 import { invalidatePublicCache, PUBLIC_TAG } from "@/lib/public-cache";
-import { movePublicPagesMark, readPublicPagesMark } from "@/lib/public-pages-mark";
+import { movePublicPagesMark, readPublicPagesMark } from "@/db/public-pages-mark";
 import { getSearchGeneration } from "@/lib/search/queries";
 
 // The public pages' mark (drizzle/0039) that the front server's page cache checks, and the shared

@@ -18,7 +18,7 @@ vi.mock("next/cache", () => ({
 }));
 let mark = "7";
 let markFails = false;
-vi.mock("@/lib/public-pages-mark", () => ({
+vi.mock("@/db/public-pages-mark", () => ({
   readPublicPagesMark: async () => {
     if (markFails) throw new Error("the database is out of reach");
     return mark;

@@ -1,6 +1,6 @@
 import { sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
-import { readPerTurn } from "@/db/read-per-turn";
+import { getDb } from "./client";
+import { readPerTurn } from "./read-per-turn";
 
 /**
  * The mark of the public pages' state (drizzle/0039, a sequence): every invalidation of public data
