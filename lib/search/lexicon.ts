@@ -41,7 +41,24 @@ async function load(): Promise<SpeciesLexicon> {
     push(lexicon.byFormula, r.formula, r.inchiKey);
     lexicon.displayName.set(r.inchiKey, r.name);
   }
+  preloadEquations(lexicon);
   return lexicon;
+}
+
+/**
+ * Every reaction's display equation read into the lexicon in the background, once it is built
+ * (5 000 reactions: ~0.3 s of the database, too long to hold the first search after a change
+ * for): until then, and for what it missed, each search reads the few its rows name. An equation
+ * a search read first is kept, never overwritten; a failed read is left to those per-search reads.
+ */
+function preloadEquations(lexicon: SpeciesLexicon): void {
+  listDisplayEquations({ reactionKeys: "all" }).then(
+    (all) => {
+      for (const [key, equation] of all) if (!lexicon.equations.has(key)) lexicon.equations.set(key, equation);
+    },
+    (error: unknown) =>
+      console.error(`[search] could not read the display equations ahead: ${error instanceof Error ? error.message : String(error)}`),
+  );
 }
 
 /** The lexicon of the current generation (read again when the mark moved; one read at a time). */

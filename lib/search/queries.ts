@@ -34,13 +34,16 @@ export async function nameSpecies({ inchiKeys }: { inchiKeys: string[] }): Promi
   return new Map(rows.map((r) => [r.inchiKey, r.name]));
 }
 
-/** The equation of each of these reactions in display names (search rows show these, not a depositor's words). */
-export async function listDisplayEquations({ reactionKeys }: { reactionKeys: string[] }): Promise<Map<string, string>> {
+/**
+ * The equation of each of these reactions in display names (search rows show these, not a
+ * depositor's words); every reaction's when `reactionKeys` is "all".
+ */
+export async function listDisplayEquations({ reactionKeys }: { reactionKeys: string[] | "all" }): Promise<Map<string, string>> {
   if (!reactionKeys.length) return new Map();
-  const rows = await getDb()
+  const query = getDb()
     .select({ key: reactions.key, equation: sql<string>`${reactionDisplayEquation(sql`${reactions.id}`)}` })
-    .from(reactions)
-    .where(inArray(reactions.key, reactionKeys));
+    .from(reactions);
+  const rows = await (reactionKeys === "all" ? query : query.where(inArray(reactions.key, reactionKeys)));
   return new Map(rows.map((r) => [r.key, r.equation]));
 }
 
@@ -305,6 +308,13 @@ export type ListedDocumentRow = {
   point_count: number;
   retracted: boolean;
   published_us: string;
+  dataset_id: number;
+  version_number: number;
+  version_identifier: string | null;
+  title: string;
+  ea: number | null;
+  a: number | null;
+  a_unit: string | null;
 };
 
 /**
@@ -328,7 +338,8 @@ export async function readListedDocuments<T>({
         const rows = (await tx.execute<ListedDocumentRow>(sql`
           select version_id, reaction_id, reaction_key, equation, reactant_keys::text as reactant_keys, product_keys::text as product_keys,
             reaction_class, phase, method_category, licence, source_year, bath_gases, flags, creators, t_min, t_max, p_min, p_max,
-            point_count, retracted, (extract(epoch from published_at) * 1000000)::bigint::text as published_us
+            point_count, retracted, (extract(epoch from published_at) * 1000000)::bigint::text as published_us,
+            dataset_id, version_number, version_identifier, title, ea, a, a_unit
           from search_documents where latest and version_id > ${after} order by version_id limit ${slice}`)) as unknown as ListedDocumentRow[];
         for (const r of rows) sink.add(r);
         if (rows.length < slice) break;

@@ -4,6 +4,7 @@ import { getDb } from "@/db/client";
 import { AppError } from "@/lib/errors";
 import {
   countFacets,
+  datasetHitAt,
   filterWindows,
   memoryIndex,
   positionsBySets,
@@ -14,7 +15,6 @@ import {
 import { relevanceKeys, topByKey } from "./relevance";
 import {
   SEARCH_FACETS,
-  type DatasetHit,
   type EngineQuery,
   type FacetCount,
   type ReactionHit,
@@ -37,7 +37,7 @@ import {
  *   overlap (or cover), pressure window overlap, source years.
  * - Sorts, each with version_id (reaction id) as the tiebreak, in the index: relevance (for text,
  *   see RANKED; newest otherwise), newest, widest range, most points; keyset pagination on (sort key,
- *   id). Only the page's rows are then read from search_documents, by primary key.
+ *   id). The page's rows are read from the index too (`datasetHitAt`).
  * - Facet counts, exact, in the index: each facet over the matches with every other facet's filter applied.
  */
 
@@ -80,63 +80,6 @@ function numericAfter(after: { key: string; id: number } | null): { key: number;
     throw new AppError("bad_request", message, [{ pointer: "/cursor", parameter: "cursor", message }]);
   }
   return { key, id: after.id };
-}
-
-type DatasetRow = {
-  version_id: number;
-  dataset_id: number;
-  version_number: number;
-  version_identifier: string | null;
-  retracted: boolean;
-  title: string;
-  equation: string;
-  reaction_key: string;
-  reaction_class: string;
-  method_category: string;
-  t_min: number;
-  t_max: number;
-  point_count: number;
-  ea: number | null;
-  a: number | null;
-  a_unit: string | null;
-  flags: string[];
-  creators: string[];
-  published_at: string;
-};
-
-/** What a hit shows, read by primary key for the page's versions only, in the page's order. */
-async function datasetRows(versionIds: number[]): Promise<DatasetHit[]> {
-  if (!versionIds.length) return [];
-  const rows = await getDb().execute<DatasetRow>(sql`
-    select d.version_id, d.dataset_id, d.version_number, d.version_identifier, d.retracted, d.title, d.equation, d.reaction_key,
-      d.reaction_class, d.method_category, d.t_min, d.t_max, d.point_count, d.ea, d.a, d.a_unit, d.flags, d.creators,
-      to_json(d.published_at)#>>'{}' as published_at
-    from search_documents d where d.version_id = any(${`{${versionIds.join(",")}}`}::int[])`);
-  const byId = new Map(rows.map((r) => [Number(r.version_id), r]));
-  return versionIds
-    .map((id) => byId.get(id))
-    .filter((r): r is DatasetRow => r !== undefined)
-    .map((r) => ({
-      versionId: Number(r.version_id),
-      datasetId: Number(r.dataset_id),
-      versionNumber: Number(r.version_number),
-      versionIdentifier: r.version_identifier,
-      retracted: r.retracted,
-      title: r.title,
-      equation: r.equation,
-      reactionKey: r.reaction_key,
-      reactionClass: r.reaction_class,
-      methodCategory: r.method_category,
-      tMin: Number(r.t_min),
-      tMax: Number(r.t_max),
-      pointCount: Number(r.point_count),
-      ea: r.ea === null ? null : Number(r.ea),
-      a: r.a === null ? null : Number(r.a),
-      aUnit: r.a_unit,
-      flags: r.flags as DatasetHit["flags"],
-      creators: r.creators,
-      publishedAt: new Date(r.published_at).toISOString(),
-    }));
 }
 
 /**
@@ -304,7 +247,7 @@ async function runSearch(index: MemoryIndex, query: EngineQuery, fuzzy: boolean)
   return {
     view: "datasets",
     total: matched.length,
-    hits: await datasetRows(shown.map((p) => p.id)),
+    hits: shown.map((p) => datasetHitAt(index, matched[p.k])),
     facets: facetCounts,
     nextAfter: page.length > query.limit && last ? JSON.stringify([String(last.key), last.id]) : null,
   };
