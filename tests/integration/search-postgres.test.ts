@@ -332,3 +332,53 @@ describe("GET /api/v1/search/suggest", () => {
     expect((await suggest("zzqx + CH4")).reactions).toEqual([]);
   });
 });
+
+describe("the rows of the datasets view, read from the in-memory index", () => {
+  it("are what search_documents holds for every listed document, field for field", async () => {
+    const { datasetHitAt, memoryIndex } = await import("@/lib/search/engines/memory-index");
+    const owner = await createUser({ email: uniqueEmail("sd-rows"), name: "Row Owner", passwordHash: "x", verified: true });
+    const curator = await createUser({
+      email: uniqueEmail("sd-rows-c"),
+      name: "Row Curator",
+      passwordHash: "x",
+      role: "curator",
+      verified: true,
+    });
+    const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Index rows test" } });
+    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
+    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
+    const index = await memoryIndex();
+    const rows = await sql<Record<string, unknown>[]>`
+      select version_id, dataset_id, version_number, version_identifier, retracted, title, equation, reaction_key, reaction_class,
+        method_category, t_min, t_max, point_count, ea, a, a_unit, flags, creators, to_json(published_at)#>>'{}' as published_at
+      from search_documents where latest order by version_id`;
+    expect(index.size).toBe(rows.length);
+    expect(rows.some((r) => Number(r.version_id) === v.id)).toBe(true);
+    for (const r of rows) {
+      const at = index.byVersion.get(Number(r.version_id));
+      expect(at).toBeDefined();
+      expect(datasetHitAt(index, at!)).toEqual({
+        versionId: Number(r.version_id),
+        datasetId: Number(r.dataset_id),
+        versionNumber: Number(r.version_number),
+        versionIdentifier: r.version_identifier,
+        retracted: r.retracted,
+        title: r.title,
+        equation: r.equation,
+        reactionKey: r.reaction_key,
+        reactionClass: r.reaction_class,
+        methodCategory: r.method_category,
+        tMin: Number(r.t_min),
+        tMax: Number(r.t_max),
+        pointCount: Number(r.point_count),
+        ea: r.ea === null ? null : Number(r.ea),
+        a: r.a === null ? null : Number(r.a),
+        aUnit: r.a_unit,
+        flags: r.flags,
+        creators: r.creators,
+        // A Date keeps milliseconds: the database's microseconds are cut, as new Date(text) cuts them.
+        publishedAt: new Date(String(r.published_at)).toISOString(),
+      });
+    }
+  });
+});
