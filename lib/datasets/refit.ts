@@ -31,11 +31,15 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
   const checks = latest?.checks ?? [];
   const append = (result: Record<string, unknown> | null, error?: string) =>
     appendRefitAnalysis({ versionId, engineVersion: ENGINE_VERSION, result, checks, error });
+  /** A failed re-fit stored as the newest analysis: the version's pages no longer show a fit, and are told so. */
+  const failed = async (error: string) => {
+    if (!(await append(null, error))) return "current" as const;
+    await invalidatePublicCache(await listVersionCacheTags({ versionId }));
+    return "invalid" as const;
+  };
   const checked = await runAnalysisTask("checkDocument", payload, { background: true });
-  if (!checked.ok) {
-    return (await append(null, `stored document no longer validates: ${checked.errors[0].message}`)) ? "invalid" : "current";
-  }
-  if (!checked.analysis.ok) return (await append(null, checked.analysis.message)) ? "invalid" : "current";
+  if (!checked.ok) return failed(`stored document no longer validates: ${checked.errors[0].message}`);
+  if (!checked.analysis.ok) return failed(checked.analysis.message);
   const result = checked.analysis.result;
   const before = await getLatestFitFlags({ versionId });
   if (!(await append(result))) return "current";
