@@ -16,7 +16,10 @@ import type http from "node:http";
 import { promisify } from "node:util";
 import { gzip } from "node:zlib";
 import Negotiator from "negotiator";
-import { bodyBytes } from "./byte-body";
+import { assertStorableQuery } from "@/lib/auth/api";
+import { clientAddress } from "@/lib/auth/client-address";
+import { apiBudgetHeaders, consumeApiBudget } from "@/lib/auth/rate-limit";
+import { bodyBytes, builtFromBytes } from "./byte-body";
 
 /** A route handler as Next calls one: a web Request in, a web Response out. */
 export type WebHandler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
@@ -25,6 +28,14 @@ export type WebHandler = (request: Request, context: { params: Promise<Record<st
 const ROUTES: Record<string, () => Promise<{ GET: WebHandler }>> = {
   "/api/v1/search": once(() => import("@/app/api/v1/search/route") as Promise<{ GET: WebHandler }>),
   "/api/v1/search/suggest": once(() => import("@/app/api/v1/search/suggest/route") as Promise<{ GET: WebHandler }>),
+};
+
+/**
+ * Kept answers of these paths, by query parameters (null: none kept): sent by the front server
+ * without running the route (see `answerKept`).
+ */
+const KEPT: Record<string, () => Promise<(params: URLSearchParams) => Promise<Uint8Array | null>>> = {
+  "/api/v1/search": once(async () => (await import("@/lib/search")).keptSearchAnswerBytes),
 };
 
 /** The module loaded at its first request, then kept (each import() would go through the module loader again). */
@@ -53,14 +64,20 @@ export async function loadFrontRoutes(): Promise<void> {
 /** The paths answered here (for tests and DEVELOPERS.md). */
 export const FRONT_ROUTE_PATHS = Object.keys(ROUTES);
 
-/** The handler of a GET or HEAD of one of these paths (query string aside), or null: Next answers it. */
-export function frontRoute(method: string | undefined, url: string): (() => Promise<{ GET: WebHandler }>) | null {
+/** A path answered here: its route handler's module, and its kept answers when it has them. */
+export interface FrontRoute {
+  path: string;
+  load: () => Promise<{ GET: WebHandler }>;
+}
+
+/** The route of a GET or HEAD of one of these paths (query string aside), or null: Next answers it. */
+export function frontRoute(method: string | undefined, url: string): FrontRoute | null {
   if (method !== "GET" && method !== "HEAD") return null;
   const q = url.indexOf("?");
   // Dot segments resolved as Next resolves them ("/api/v1/./search" is the search too, and is answered
   // here, under this process's budget); a double slash is not (Next redirects it).
   const path = new URL(`http://front.invalid${q === -1 ? url : url.slice(0, q)}`).pathname;
-  return Object.hasOwn(ROUTES, path) ? ROUTES[path] : null;
+  return Object.hasOwn(ROUTES, path) ? { path, load: ROUTES[path] } : null;
 }
 
 /** Bodies at least this long are compressed for a client that accepts gzip (as Next's own server does). */
@@ -83,15 +100,67 @@ function gzipped(bytes: Uint8Array): Promise<Buffer> {
 }
 
 /**
- * Runs `load`'s GET for the request and writes its answer to `res`: status, headers, body (none
- * for HEAD), gzip when the client accepts it. `headers` are the ones the proxy would have forwarded.
+ * The headers a route sent with bytes it keeps (a kept search answer), its budget headers aside,
+ * by those bytes: what `answerKept` sends with them again. Only while the bytes are kept.
+ */
+const replayHeaders = new WeakMap<Uint8Array, http.OutgoingHttpHeaders>();
+
+/** The budget headers (lib/auth/rate-limit.ts): counted for each request, never replayed. */
+const BUDGET_HEADERS = Object.keys(apiBudgetHeaders({ limit: 0, remaining: 0, resetSeconds: 0, spent: false }));
+
+/**
+ * A kept answer sent without running the route: its web Request and Response, withApi's checks and
+ * the validators cost more of this thread than the answer itself (~60 % of a kept search). Only a
+ * plain anonymous read (no Authorization, no If-None-Match), of a query the route would accept,
+ * whose answer the route has sent before (its headers are replayed, so the answer is the route's
+ * own, byte for byte), within the client's budget, counted here as the route counts it. Anything
+ * else returns false and takes the route: a spent budget among them (the route counts it once
+ * more and answers 429).
+ */
+async function answerKept(
+  route: FrontRoute,
+  req: http.IncomingMessage,
+  res: http.ServerResponse,
+  headers: http.OutgoingHttpHeaders,
+): Promise<boolean> {
+  const kept = KEPT[route.path];
+  if (!kept || req.headers.authorization !== undefined || req.headers["if-none-match"] !== undefined) return false;
+  const url = new URL(req.url ?? "/", "http://front.invalid");
+  try {
+    assertStorableQuery(url);
+  } catch {
+    return false;
+  }
+  let bytes: Uint8Array | null;
+  try {
+    bytes = await (await kept())(url.searchParams);
+  } catch {
+    // The mark unread (the database out of reach): the route answers, with its own problem.
+    return false;
+  }
+  const replay = bytes && replayHeaders.get(bytes);
+  if (!bytes || !replay) return false;
+  const budget = await consumeApiBudget(`address:${clientAddress(headers as Record<string, string | string[] | undefined>)}`, {
+    inProcess: true,
+  });
+  if (budget.spent) return false;
+  await writeAnswer(req, res, 200, { ...replay, ...apiBudgetHeaders(budget) }, bytes);
+  return true;
+}
+
+/**
+ * Runs the route's GET for the request (or sends its kept answer, `answerKept`) and writes its
+ * answer to `res`: status, headers, body (none for HEAD), gzip when the client accepts it.
+ * `headers` are the ones the proxy would have forwarded.
  */
 export async function answerHere(
-  load: () => Promise<{ GET: WebHandler }>,
+  route: FrontRoute,
   req: http.IncomingMessage,
   res: http.ServerResponse,
   { origin, headers }: { origin: string; headers: http.OutgoingHttpHeaders },
 ): Promise<void> {
+  if (await answerKept(route, req, res, headers)) return;
+  if (res.destroyed) return;
   const aborted = new AbortController();
   res.on("close", () => {
     if (!res.writableFinished) aborted.abort();
@@ -103,15 +172,31 @@ export async function answerHere(
     else requestHeaders.set(name, String(value));
   }
   const request = new Request(new URL(req.url ?? "/", origin), { method: "GET", headers: requestHeaders, signal: aborted.signal });
-  const { GET } = await load();
+  const { GET } = await route.load();
   const answer = await GET(request, { params: Promise.resolve({}) });
   if (res.destroyed) return;
   const bytes = await bodyBytes(answer);
-  let body = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   const out: http.OutgoingHttpHeaders = {};
   answer.headers.forEach((value, name) => {
     out[name] = value;
   });
+  if (KEPT[route.path] && answer.status === 200 && req.headers.authorization === undefined && builtFromBytes(answer) === bytes) {
+    const replay = { ...out };
+    for (const name of BUDGET_HEADERS) delete replay[name];
+    replayHeaders.set(bytes, replay);
+  }
+  await writeAnswer(req, res, answer.status, out, bytes);
+}
+
+/** Writes an answer of the route: Vary, gzip when the client takes it (a weak tag then), its length; no body for HEAD. */
+async function writeAnswer(
+  req: http.IncomingMessage,
+  res: http.ServerResponse,
+  status: number,
+  out: http.OutgoingHttpHeaders,
+  bytes: Uint8Array,
+): Promise<void> {
+  let body = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   // Every answer of these addresses may come compressed, a 304 included (RFC 9110 §15.4.5 asks it to say what its 200 would).
   out.vary = out.vary ? `${out.vary}, Accept-Encoding` : "Accept-Encoding";
   const gzipWanted = !out["content-encoding"] && new Negotiator(req).encoding(["gzip", "identity"]) === "gzip";
@@ -119,14 +204,14 @@ export async function answerHere(
     // The compressed bytes are not the ones a strong tag names (RFC 9110 §8.8.1): to a client that
     // takes gzip the tag is weak, on its 200s and 304s alike (If-None-Match compares weakly).
     if (typeof out.etag === "string" && !out.etag.startsWith("W/")) out.etag = `W/${out.etag}`;
-    if (answer.status === 200 && body.length >= COMPRESS_FROM_BYTES) {
+    if (status === 200 && body.length >= COMPRESS_FROM_BYTES) {
       body = await gzipped(bytes);
       out["content-encoding"] = "gzip";
     }
   }
   // A 304 has no content and states no length (its 200's is not known here; RFC 9110 §8.6).
-  if (answer.status !== 304 && answer.status !== 204) out["content-length"] = body.length;
+  if (status !== 304 && status !== 204) out["content-length"] = body.length;
   if (res.destroyed) return;
-  res.writeHead(answer.status, out);
+  res.writeHead(status, out);
   res.end(req.method === "HEAD" ? undefined : body);
 }

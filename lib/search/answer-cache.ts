@@ -30,6 +30,8 @@ export interface AnswerCache<V = string> {
    * else computed by `compute` (given the mark just read) and kept.
    */
   get(key: string, compute: (generation: string) => Promise<V>): Promise<V>;
+  /** The answer kept for `key` under the current generation, or null (nothing is computed). */
+  peek(key: string): Promise<V | null>;
   clear(): void;
   readonly stats: { hits: number; misses: number; bytes: number; entries: number };
 }
@@ -54,6 +56,15 @@ export function answerCache<V = string>(
       entries.clear();
       stats.bytes = 0;
       stats.entries = 0;
+    },
+    async peek(key) {
+      const mark = await generation();
+      const found = entries.get(key);
+      if (!found || found.generation !== mark) return null;
+      entries.delete(key);
+      entries.set(key, found);
+      stats.hits++;
+      return found.answer;
     },
     async get(key, compute) {
       const mark = await generation();

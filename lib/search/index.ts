@@ -11,6 +11,7 @@ import { answerCache } from "./answer-cache";
 import { entityTag } from "@/lib/http/conditional";
 import { bytesResponse } from "@/lib/http/byte-body";
 import { getSearchGeneration, withSearchGeneration } from "./queries";
+import { parseSearchParamsOrThrow } from "./params";
 import type { FacetCount, ParsedQuery, SearchAnswer, SearchEngine, SearchFacet, SearchRequest, SearchResult } from "./types";
 
 /**
@@ -104,7 +105,7 @@ function answerBody(answer: SearchAnswer): AnswerBody {
  * answers are not kept: its index catches up through the outbox after the change.
  */
 const answers = answerCache<AnswerBody>(getSearchGeneration, {
-  maxBytes: 32 * 2 ** 20,
+  maxBytes: 64 * 2 ** 20,
   maxEntryBytes: 2 * 2 ** 20,
   sizeOf: (a) => a.bytes.length + a.etag.length * 2,
 });
@@ -117,6 +118,22 @@ export async function searchAnswerBody(request: SearchRequest, engine?: SearchEn
   return answers.get(JSON.stringify(request), (mark) =>
     withSearchGeneration(mark, async () => answerBody(await answerOf(request, postgresEngine))),
   );
+}
+
+/**
+ * The bytes of the answer kept for these query parameters under the current generation, or null
+ * (nothing is computed, and parameters the route would refuse are never found): the front server
+ * sends a kept answer without running the route (lib/http/front-routes.ts).
+ */
+export async function keptSearchAnswerBytes(params: URLSearchParams): Promise<Uint8Array | null> {
+  if (currentSearchEngine() !== postgresEngine) return null;
+  let request: SearchRequest;
+  try {
+    request = parseSearchParamsOrThrow(params, { strict: true });
+  } catch {
+    return null;
+  }
+  return (await answers.peek(JSON.stringify(request)))?.bytes ?? null;
 }
 
 /** The search as the JSON text GET /api/v1/search answers (with the caution sentence). */

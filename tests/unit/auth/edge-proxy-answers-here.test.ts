@@ -18,6 +18,8 @@ const echo = async (req: Request) => {
 };
 vi.mock("@/app/api/v1/search/route", () => ({ GET: echo }));
 vi.mock("@/app/api/v1/search/suggest/route", () => ({ GET: echo }));
+// No answer is kept here (tests/unit/auth/edge-proxy-kept-answers.test.ts sends kept ones): every request runs the route.
+vi.mock("@/lib/search", () => ({ keptSearchAnswerBytes: async () => null }));
 
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "@/lib/auth/client-address";
 import { FRONT_ROUTE_PATHS, frontRoute } from "@/lib/http/front-routes";
