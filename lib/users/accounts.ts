@@ -16,8 +16,10 @@ import {
   refuseOrcidSignUpWithToken,
   resetPasswordWithToken,
   setPasswordHash,
+  setUserActive,
 } from "./queries";
 import { afterLinkChange, unlinkOrcid } from "./orcid-accounts";
+import { datasetTag, invalidatePublicCache, PUBLIC_TAG } from "@/lib/public-cache";
 
 /**
  * Sign-up: creates an unverified researcher and mails a verification link. An e-mail that already
@@ -56,12 +58,26 @@ export async function verifyEmail({
   /** Read only for a pending ORCID sign-up. */
   browserKeyHash: () => Promise<string | null>;
 }): Promise<AddressConfirmation> {
-  return confirmAddressWithToken({ secret, browserKeyHash });
+  const confirmed = await confirmAddressWithToken({ secret, browserKeyHash });
+  // A confirmed address makes the account's creator links show on the datasets naming it.
+  if (confirmed.kind === "verified" && confirmed.datasetIds.length > 0) await invalidatePublicCache(confirmed.datasetIds.map(datasetTag));
+  return confirmed;
 }
 
 /** "This was not me": the ORCID iD of a pending sign-up leaves the address the link was mailed to. */
 export async function refuseOrcidSignUp({ secret }: { secret: string }): Promise<{ orcid: string }> {
-  return { orcid: await refuseOrcidSignUpWithToken({ secret }) };
+  const { orcid, datasetIds } = await refuseOrcidSignUpWithToken({ secret });
+  if (datasetIds.length > 0) await afterLinkChange(datasetIds);
+  return { orcid };
+}
+
+/**
+ * Deactivates or reactivates an account (an admin's act): the home page's counts of people and the
+ * creator links on the datasets naming it change.
+ */
+export async function setAccountActive(args: { actorId: number; userId: number; active: boolean }): Promise<void> {
+  const datasetIds = await setUserActive(args);
+  await invalidatePublicCache([PUBLIC_TAG, ...datasetIds.map(datasetTag)]);
 }
 
 /**

@@ -19,6 +19,7 @@ import {
   getUserByVerifiedOrcid,
   isPendingOrcidSignUp,
   linkVerifiedOrcid,
+  listLinkedDatasetIds,
   saveOrcidSignUp,
   unlinkVerifiedOrcid,
 } from "./queries";
@@ -122,6 +123,8 @@ export async function confirmOrcidSignUp({
     if (existing) await enqueueMail(existingAccountMail(existing.email, existing.name));
     return;
   }
+  // The new account holds the iD: the creator entries naming it are linked to it (drizzle/0030), and those datasets' pages and metadata name it.
+  await afterLinkChange(await listLinkedDatasetIds({ userId: saved.user.id }));
   await enqueueMail(orcidVerificationMail(saved.user.email, saved.user.name, read.orcid, saved.secret));
 }
 

@@ -178,7 +178,8 @@ export async function changeUserRole({ actorId, userId, role }: { actorId: numbe
   });
 }
 
-export async function setUserActive({ actorId, userId, active }: { actorId: number; userId: number; active: boolean }) {
+/** Deactivates or reactivates an account; returns the datasets naming it (their pages show its creator link only while it is active). */
+export async function setUserActive({ actorId, userId, active }: { actorId: number; userId: number; active: boolean }): Promise<number[]> {
   if (actorId === userId) throw new AppError("conflict", "You cannot deactivate your own account");
   return getDb().transaction(async (tx) => {
     const [row] = await tx
@@ -201,6 +202,7 @@ export async function setUserActive({ actorId, userId, active }: { actorId: numb
         .set({ revokedAt: new Date() })
         .where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)));
     }
+    return linkedDatasetIds(tx, userId);
   });
 }
 
@@ -382,7 +384,9 @@ export async function pendingOrcidOfLink({ secret }: { secret: string }): Promis
 }
 
 /** `orcidOnly`: the account has no password yet, so its holder signs in with ORCID. */
-export type AddressConfirmation = { kind: "verified"; orcidOnly: boolean } | { kind: "other_browser"; orcid: string };
+export type AddressConfirmation =
+  | { kind: "verified"; orcidOnly: boolean; /** The datasets naming the account: their pages now show its iD. */ datasetIds: number[] }
+  | { kind: "other_browser"; orcid: string };
 
 /**
  * The confirmation link: confirms the account's address. A pending ORCID sign-up's address is
@@ -410,7 +414,7 @@ export async function confirmAddressWithToken({
       }
     }
     await writeEmailVerified(tx, user.id);
-    return { use: true, value: { kind: "verified", orcidOnly: !user.passwordSet } };
+    return { use: true, value: { kind: "verified", orcidOnly: !user.passwordSet, datasetIds: await linkedDatasetIds(tx, user.id) } };
   });
 }
 
@@ -435,9 +439,11 @@ export async function resetPasswordWithToken({ secret, passwordHash }: { secret:
  * iD leaves it, its address is freed (the account keeps a placeholder address and is deactivated)
  * and no link sent for it works any more. Returns the iD.
  */
-export async function refuseOrcidSignUpWithToken({ secret }: { secret: string }): Promise<string> {
+export async function refuseOrcidSignUpWithToken({ secret }: { secret: string }): Promise<{ orcid: string; datasetIds: number[] }> {
   return withLiveToken({ secret, purpose: "verify_email" }, async (tx, user) => {
     if (!isPendingOrcidSignUp(user) || !user.verifiedOrcid) throw new AppError("not_found", LINK_NOT_LIVE);
+    // Read before the iD leaves: then the creator entries no longer name the account.
+    const datasetIds = await linkedDatasetIds(tx, user.id);
     await takeOrcidOff(tx, { userId: user.id, orcid: user.verifiedOrcid, actorId: null, action: "user.orcid_sign_up_refused" });
     // The sign-up is cancelled and the address freed: its owner may make an account with it later.
     await tx
@@ -445,7 +451,7 @@ export async function refuseOrcidSignUpWithToken({ secret }: { secret: string })
       .set({ email: `cancelled-sign-up-${user.id}@accounts.arrhenia.invalid`, deactivatedAt: new Date() })
       .where(eq(users.id, user.id));
     for (const purpose of oneTimePurposeEnum.enumValues) await voidOneTimeTokens({ userId: user.id, purpose, tx });
-    return { use: true, value: user.verifiedOrcid };
+    return { use: true, value: { orcid: user.verifiedOrcid, datasetIds } };
   });
 }
 
@@ -537,6 +543,11 @@ export async function getUserByVerifiedOrcid({ orcid }: { orcid: string }) {
 /** An account made by a first ORCID sign-in whose address was never confirmed: a later sign-in with the iD may take its place. */
 export function isPendingOrcidSignUp(user: { passwordSet: boolean; emailVerifiedAt: Date | null; verifiedOrcid: string | null }) {
   return !user.passwordSet && user.emailVerifiedAt === null && user.verifiedOrcid !== null;
+}
+
+/** The datasets whose versions name the account as a creator, read after a change committed. */
+export async function listLinkedDatasetIds({ userId }: { userId: number }): Promise<number[]> {
+  return linkedDatasetIds(getDb(), userId);
 }
 
 /** The datasets whose versions name the account as a creator (their pages show the verified iD). */

@@ -28,7 +28,13 @@ const fakeHeaders = vi.hoisted(() => ({
   }),
 }));
 vi.mock("next/headers", () => fakeHeaders);
-vi.mock("next/cache", () => ({ revalidatePath: () => {}, revalidateTag: () => {}, unstable_cache: (fn: () => unknown) => fn }));
+// The tags invalidated (lib/public-cache.ts), in order.
+const revalidated = vi.hoisted(() => [] as string[]);
+vi.mock("next/cache", () => ({
+  revalidatePath: () => {},
+  revalidateTag: (tag: string) => void revalidated.push(tag),
+  unstable_cache: (fn: () => unknown) => fn,
+}));
 
 import { createRequire } from "node:module";
 import { NextRequest } from "next/server";
@@ -52,7 +58,7 @@ import {
   markEmailVerified,
   saveOrcidSignUp,
 } from "@/lib/users/queries";
-import { requestPasswordReset, resetPassword, unlinkOrcidWithPassword } from "@/lib/users/accounts";
+import { requestPasswordReset, resetPassword, setAccountActive, unlinkOrcidWithPassword } from "@/lib/users/accounts";
 import { freshOrcid } from "../support/orcid";
 import { depositInState, linkToken, sql, startMailPipeline, uniqueEmail, uniqueIp, waitForMail } from "./helpers";
 
@@ -537,6 +543,27 @@ describe("creators that are people", () => {
     expect(await sql`select 1 from creator_people where version_id = ${v.id}`).toHaveLength(0);
     const [unchanged] = await sql`select payload_sha256 from dataset_versions where id = ${v.id}`;
     expect(unchanged.payload_sha256).toBe(before.payload_sha256);
+  });
+
+  it("deactivating or reactivating an account named by published versions tells their pages (and the counts of people)", async () => {
+    const mk = async (tag: string, role: "researcher" | "curator" | "admin" = "researcher") =>
+      createUser({ email: uniqueEmail(tag), name: tag, passwordHash: "x", verified: true, role });
+    const [depositor, creator, curator, admin] = await Promise.all([
+      mk("active-dep"),
+      mk("active-creator"),
+      mk("active-cur", "curator"),
+      mk("active-admin", "admin"),
+    ]);
+    const orcid = freshOrcid();
+    const document = { ...EXAMPLE_DEPOSIT, title: `Creator deactivated ${orcid}`, creators: [{ name: "Creator, Named", orcid }] };
+    const v = await depositInState({ owner: depositor, curator, document, state: "published" });
+    await sql`update users set verified_orcid = ${orcid} where id = ${creator.id}`;
+    expect(await sql`select 1 from creator_people where version_id = ${v.id}`).toHaveLength(1);
+    for (const active of [false, true]) {
+      revalidated.length = 0;
+      await setAccountActive({ actorId: admin.id, userId: creator.id, active });
+      expect(revalidated).toEqual(expect.arrayContaining(["public", `dataset:${v.datasetId}`]));
+    }
   });
 
   it("a version deposited after the link names the person at once", async () => {

@@ -33,7 +33,11 @@ describe("sign-up → captured verification mail → verify → sign in", () => 
     const token = linkToken(mail.text, "/verify");
     const [stored] = await sql`select token_hash from one_time_tokens where token_hash = encode(sha256(${token}::bytea), 'hex')`;
     expect(stored).toBeDefined(); // only the SHA-256 of the secret is stored
-    expect(await verifyEmail({ secret: token, browserKeyHash: async () => null })).toEqual({ kind: "verified", orcidOnly: false });
+    expect(await verifyEmail({ secret: token, browserKeyHash: async () => null })).toEqual({
+      kind: "verified",
+      orcidOnly: false,
+      datasetIds: [],
+    });
     expect((await getUserByEmail({ email }))?.emailVerifiedAt).toBeInstanceOf(Date);
     await expect(verifyEmail({ secret: token, browserKeyHash: async () => null })).rejects.toThrow(/already used/);
   });

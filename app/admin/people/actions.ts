@@ -2,7 +2,8 @@
 
 import { revalidatePath } from "next/cache";
 import { protectedAction } from "@/lib/auth/action";
-import { changeUserRole, setUserActive } from "@/lib/users/queries";
+import { setAccountActive } from "@/lib/users/accounts";
+import { changeUserRole } from "@/lib/users/queries";
 import { activeChangeSchema, roleChangeSchema } from "@/lib/users/schemas";
 
 export const changeRoleAction = protectedAction(roleChangeSchema, { permission: "user.manage" }, async ({ userId, role }, admin) => {
@@ -13,7 +14,7 @@ export const changeRoleAction = protectedAction(roleChangeSchema, { permission: 
 });
 
 export const setActiveAction = protectedAction(activeChangeSchema, { permission: "user.manage" }, async ({ userId, active }, admin) => {
-  await setUserActive({ actorId: admin.id, userId, active });
+  await setAccountActive({ actorId: admin.id, userId, active });
   revalidatePath("/admin/people");
   return { status: "ok", message: active ? "Account reactivated." : "Account deactivated." };
 });
