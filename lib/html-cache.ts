@@ -150,6 +150,25 @@ function evict(s: Store, maxBytes: number) {
 
 type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => Promise<void> | void;
 
+/** Seconds a reader (or a crawler) is asked to wait before asking again while the database is out of reach, as the API asks (lib/errors.ts). */
+const RETRY_AFTER_SECONDS = 5;
+
+/**
+ * While the mark cannot be read (the database out of reach), a page is rendered from what Next's
+ * data cache kept, or fails: a failure is then sent as 503 with Retry-After — unavailable for a
+ * moment, as the API says it — not as a fault of the page (500), which a crawler may take for a
+ * broken address. The page shown is the app's own error page either way.
+ */
+function answerUnavailableForFailure(res: http.ServerResponse): void {
+  const writeHead = res.writeHead.bind(res) as (...args: unknown[]) => http.ServerResponse;
+  res.writeHead = ((status: number, ...rest: unknown[]) => {
+    if (status !== 500) return writeHead(status, ...rest);
+    res.setHeader("retry-after", String(RETRY_AFTER_SECONDS));
+    // A reason phrase given with the 500 would name the wrong status.
+    return writeHead(503, ...(typeof rest[0] === "string" ? rest.slice(1) : rest));
+  }) as typeof res.writeHead;
+}
+
 /** `handle` with the anonymous page cache in front (see the module comment). */
 export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handler {
   const now = options.now ?? Date.now;
@@ -161,6 +180,7 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       try {
         mark = await options.mark();
       } catch {
+        answerUnavailableForFailure(res);
         return handle(req, res);
       }
     }

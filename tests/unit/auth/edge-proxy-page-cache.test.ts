@@ -19,6 +19,13 @@ beforeAll(async () => {
     renders += 1;
     req.resume();
     req.on("end", () => {
+      if (req.url === "/classes/failing") {
+        // As Next answers a page whose data it could not read and had not kept.
+        res.statusCode = 500;
+        res.setHeader("content-type", "text/html; charset=utf-8");
+        res.end("<h1>Something went wrong</h1>");
+        return;
+      }
       if (req.url === "/datasets/9/v1") {
         res.writeHead(404, { "content-type": "text/html" });
         res.end("<h1>Not found</h1>");
@@ -90,6 +97,19 @@ describe("public pages kept by the front server", () => {
     markFails = false;
     expect((await get("/classes")).cache).toBe("hit");
     expect(reached).toEqual(["GET /classes", "GET /classes"]);
+  });
+
+  it("sends a page that fails while the database is out of reach as unavailable for a moment (503, Retry-After), not as a fault", async () => {
+    markFails = true;
+    const down = await fetch(`http://127.0.0.1:${front.port}/classes/failing`);
+    expect(down.status).toBe(503);
+    expect(down.headers.get("retry-after")).toBe("5");
+    expect(await down.text()).toContain("Something went wrong");
+    // A page Next could render from what it kept is sent as rendered.
+    expect((await get("/classes")).status).toBe(200);
+    markFails = false;
+    // With the database back, a failing page is the fault it is.
+    expect((await fetch(`http://127.0.0.1:${front.port}/classes/failing`)).status).toBe(500);
   });
 
   it("never answers a member's request from memory, nor keeps a 404, an API answer or a form post", async () => {
