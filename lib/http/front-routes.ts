@@ -16,7 +16,8 @@ import type http from "node:http";
 import { promisify } from "node:util";
 import { gzip } from "node:zlib";
 import Negotiator from "negotiator";
-import { assertStorableQuery } from "@/lib/auth/api";
+import { assertStorableQuery, problemResponse } from "@/lib/auth/api";
+import { databaseUnavailable } from "@/lib/errors";
 import { clientAddress } from "@/lib/auth/client-address";
 import { apiBudgetHeaders, consumeApiBudget } from "@/lib/auth/rate-limit";
 import { bodyBytes, builtFromBytes } from "./byte-body";
@@ -134,9 +135,23 @@ async function answerKept(
   let bytes: Uint8Array | null;
   try {
     bytes = await (await kept())(url.searchParams);
-  } catch {
-    // The mark unread (the database out of reach): the route answers, with its own problem.
-    return false;
+  } catch (err) {
+    // The mark unread, the database out of reach: said here as the route says it (counted, then the
+    // 503 problem), rather than by the route after waiting as long again for the same read.
+    const unavailable = databaseUnavailable(err);
+    if (!unavailable) return false;
+    const budget = await consumeApiBudget(`address:${clientAddress(headers as Record<string, string | string[] | undefined>)}`, {
+      inProcess: true,
+    });
+    if (budget.spent) return false;
+    console.warn(`[api] ${req.method} ${route.path}: database out of reach`, (err as Error).message);
+    const problem = problemResponse(unavailable, route.path);
+    const out: http.OutgoingHttpHeaders = {};
+    problem.headers.forEach((value, name) => {
+      out[name] = value;
+    });
+    await writeAnswer(req, res, problem.status, out, new Uint8Array(await problem.arrayBuffer()));
+    return true;
   }
   const replay = bytes && replayHeaders.get(bytes);
   if (!bytes || !replay) return false;

@@ -83,7 +83,8 @@ export function answerCache<V = string>(
       stats.misses++;
       const computing = compute(mark)
         .then((answer) => {
-          const bytes = sizeOf(answer);
+          // The key is held as long as the answer (two bytes a character).
+          const bytes = sizeOf(answer) + key.length * 2;
           if (bytes <= maxEntryBytes) {
             drop(key);
             entries.set(key, { generation: mark, answer, bytes });

@@ -7,7 +7,8 @@ import { postgresEngine } from "./engines/postgres";
 import { displayEquations } from "./lexicon";
 import { resolveQuery } from "./resolve-query";
 import { CAUTION } from "@/lib/analyses/analyse-request";
-import { answerCache } from "./answer-cache";
+import { answerCache, type AnswerCache } from "./answer-cache";
+import { INNER_GATE_MARK } from "@/lib/auth/client-address";
 import { entityTag } from "@/lib/http/conditional";
 import { bytesResponse } from "@/lib/http/byte-body";
 import { getSearchGeneration, withSearchGeneration } from "./queries";
@@ -94,8 +95,22 @@ export interface AnswerBody {
 }
 
 function answerBody(answer: SearchAnswer): AnswerBody {
-  const bytes = Buffer.from(JSON.stringify(answer));
+  const text = JSON.stringify(answer);
+  // A buffer of its own: a short one from Buffer.from shares an 8 KiB block, which a kept answer would hold whole.
+  const bytes = Buffer.allocUnsafeSlow(Buffer.byteLength(text));
+  bytes.write(text);
   return { bytes, etag: entityTag(bytes) };
+}
+
+/** What a kept answer holds besides its bytes: its entry, key object, tag, replayed headers (lib/http/front-routes.ts), gzip memo's entry. */
+const ANSWER_OVERHEAD_BYTES = 1024;
+
+/**
+ * The answers' memory: 64 MiB in the front server, which answers search (~3 000 answers of 20 rows);
+ * 32 MiB in Next's process (scripts/inner-server.ts marks it), which answers the datasets list.
+ */
+function answerBudgetBytes(): number {
+  return (globalThis as Record<symbol, unknown>)[INNER_GATE_MARK] === true ? 32 * 2 ** 20 : 64 * 2 ** 20;
 }
 
 /**
@@ -104,18 +119,21 @@ function answerBody(answer: SearchAnswer): AnswerBody {
  * is never older than the last committed change to the documents, whoever made it. Meilisearch's
  * answers are not kept: its index catches up through the outbox after the change.
  */
-const answers = answerCache<AnswerBody>(getSearchGeneration, {
-  maxBytes: 64 * 2 ** 20,
-  maxEntryBytes: 2 * 2 ** 20,
-  sizeOf: (a) => a.bytes.length + a.etag.length * 2,
-});
+let kept: AnswerCache<AnswerBody> | null = null;
+/** Made at the first search, when the process knows which it is. */
+const answers = (): AnswerCache<AnswerBody> =>
+  (kept ??= answerCache<AnswerBody>(getSearchGeneration, {
+    maxBytes: answerBudgetBytes(),
+    maxEntryBytes: 2 * 2 ** 20,
+    sizeOf: (a) => a.bytes.length + a.etag.length * 2 + ANSWER_OVERHEAD_BYTES,
+  }));
 
 /** The search as the bytes GET /api/v1/search answers (with the caution sentence); the same object while it is kept. */
 export async function searchAnswerBody(request: SearchRequest, engine?: SearchEngine): Promise<AnswerBody> {
   const chosen = engine ?? currentSearchEngine();
   if (chosen !== postgresEngine) return answerBody(await answerOf(request, chosen));
   // The mark the cache just read is the one every read of this search uses (one query, not four).
-  return answers.get(JSON.stringify(request), (mark) =>
+  return answers().get(JSON.stringify(request), (mark) =>
     withSearchGeneration(mark, async () => answerBody(await answerOf(request, postgresEngine))),
   );
 }
@@ -133,7 +151,7 @@ export async function keptSearchAnswerBytes(params: URLSearchParams): Promise<Ui
   } catch {
     return null;
   }
-  return (await answers.peek(JSON.stringify(request)))?.bytes ?? null;
+  return (await answers().peek(JSON.stringify(request)))?.bytes ?? null;
 }
 
 /** The search as the JSON text GET /api/v1/search answers (with the caution sentence). */

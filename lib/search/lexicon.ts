@@ -46,19 +46,33 @@ async function load(): Promise<SpeciesLexicon> {
 }
 
 /**
- * Every reaction's display equation read into the lexicon in the background, once it is built
- * (5 000 reactions: ~0.3 s of the database, too long to hold the first search after a change
- * for): until then, and for what it missed, each search reads the few its rows name. An equation
- * a search read first is kept, never overwritten; a failed read is left to those per-search reads.
+ * The display equation of every reaction with public data read into the lexicon in the background,
+ * once it is built (5 000 reactions: ~0.2 s of the database, too long to hold the first search after a
+ * change for): until then, and for what it missed, each search reads the few its rows name. One read
+ * at a time in the process: a lexicon built while one runs waits for it, and only the newest waiting
+ * is read for (a stream of changes, each a new lexicon, must not stack reads of every reaction). An
+ * equation a search read first is kept, never overwritten; a failed read is left to those per-search reads.
  */
+let preloading = false;
+let waiting: SpeciesLexicon | null = null;
 function preloadEquations(lexicon: SpeciesLexicon): void {
-  listDisplayEquations({ reactionKeys: "all" }).then(
-    (all) => {
-      for (const [key, equation] of all) if (!lexicon.equations.has(key)) lexicon.equations.set(key, equation);
-    },
-    (error: unknown) =>
-      console.error(`[search] could not read the display equations ahead: ${error instanceof Error ? error.message : String(error)}`),
-  );
+  waiting = lexicon;
+  if (preloading) return;
+  const target = waiting;
+  waiting = null;
+  preloading = true;
+  listDisplayEquations({ reactionKeys: "public" })
+    .then(
+      (all) => {
+        for (const [key, equation] of all) if (!target.equations.has(key)) target.equations.set(key, equation);
+      },
+      (error: unknown) =>
+        console.error(`[search] could not read the display equations ahead: ${error instanceof Error ? error.message : String(error)}`),
+    )
+    .finally(() => {
+      preloading = false;
+      if (waiting) preloadEquations(waiting);
+    });
 }
 
 /** The lexicon of the current generation (read again when the mark moved; one read at a time). */

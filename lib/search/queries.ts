@@ -36,14 +36,16 @@ export async function nameSpecies({ inchiKeys }: { inchiKeys: string[] }): Promi
 
 /**
  * The equation of each of these reactions in display names (search rows show these, not a
- * depositor's words); every reaction's when `reactionKeys` is "all".
+ * depositor's words); of every reaction with a search document (public data) when `reactionKeys` is "public".
  */
-export async function listDisplayEquations({ reactionKeys }: { reactionKeys: string[] | "all" }): Promise<Map<string, string>> {
+export async function listDisplayEquations({ reactionKeys }: { reactionKeys: string[] | "public" }): Promise<Map<string, string>> {
   if (!reactionKeys.length) return new Map();
   const query = getDb()
     .select({ key: reactions.key, equation: sql<string>`${reactionDisplayEquation(sql`${reactions.id}`)}` })
     .from(reactions);
-  const rows = await (reactionKeys === "all" ? query : query.where(inArray(reactions.key, reactionKeys)));
+  const rows = await (reactionKeys === "public"
+    ? query.where(sql`exists (select 1 from search_documents d where d.reaction_id = ${reactions.id})`)
+    : query.where(inArray(reactions.key, reactionKeys)));
   return new Map(rows.map((r) => [r.key, r.equation]));
 }
 

@@ -31,6 +31,7 @@ vi.mock("@/app/api/v1/search/suggest/route", () => ({ GET: route }));
 vi.mock("@/lib/search", () => ({
   keptSearchAnswerBytes: async (params: URLSearchParams) => {
     if (params.get("q") === "fails") throw new Error("the mark could not be read");
+    if (params.get("q") === "down") throw Object.assign(new Error("connect ECONNREFUSED 127.0.0.1:5432"), { code: "ECONNREFUSED" });
     return kept.get(params.get("q") ?? "") ?? null;
   },
 }));
@@ -106,6 +107,15 @@ describe("kept answers sent by the front server without running the route", () =
     const after = await ask("GET", "/api/v1/search?q=fails");
     expect(after.status).toBe(200);
     expect(ran.filter((q) => q === "fails")).toHaveLength(2);
+  });
+
+  it("says at once that the database is out of reach when the mark cannot be read for that reason (503, Retry-After), as the route says it", async () => {
+    const res = await ask("GET", "/api/v1/search?q=down");
+    expect(ran.filter((q) => q === "down")).toHaveLength(0);
+    expect(res.status).toBe(503);
+    expect(res.headers["retry-after"]).toBe("5");
+    expect(res.headers["content-type"]).toMatch(/^application\/problem\+json/);
+    expect(JSON.parse(res.body.toString())).toMatchObject({ status: 503, instance: "/api/v1/search" });
   });
 
   it("never sends bytes the route has not sent itself, and only for the search (not its suggestions)", async () => {

@@ -34,14 +34,14 @@ describe("the search answers kept in memory", () => {
     expect(computed()).toBe(1);
   });
 
-  it("keeps at most maxBytes (UTF-16 text: 2 bytes a character), the least recently used going first, and no answer over maxEntryBytes", async () => {
-    const { cache, ask, computed } = setUp({ maxBytes: 400, maxEntryBytes: 300 });
-    await ask("a", "x".repeat(100)); // 200 bytes
-    await ask("b", "y".repeat(100)); // 400 in all
+  it("keeps at most maxBytes (UTF-16 text and keys: 2 bytes a character), the least recently used going first, and no answer over maxEntryBytes", async () => {
+    const { cache, ask, computed } = setUp({ maxBytes: 410, maxEntryBytes: 300 });
+    await ask("a", "x".repeat(100)); // 200 bytes and its key's 2
+    await ask("b", "y".repeat(100)); // 404 in all
     await ask("a", "never computed"); // a is now the most recently used
-    await ask("c", "z".repeat(50)); // 500 > 400: b goes
+    await ask("c", "z".repeat(50)); // 506 > 410: b goes
     expect(cache.stats.entries).toBe(2);
-    expect(cache.stats.bytes).toBe(300);
+    expect(cache.stats.bytes).toBe(304);
     const before = computed();
     expect(await ask("a", "again")).toBe("x".repeat(100));
     expect(await ask("b", "b again")).toBe("b again");
