@@ -109,6 +109,20 @@ const replayHeaders = new WeakMap<Uint8Array, http.OutgoingHttpHeaders>();
 /** The budget headers (lib/auth/rate-limit.ts): counted for each request, never replayed. */
 const BUDGET_HEADERS = Object.keys(apiBudgetHeaders({ limit: 0, remaining: 0, resetSeconds: 0, spent: false }));
 
+/** A web Response's headers as Node writes them. */
+function headersOf(response: Response): http.OutgoingHttpHeaders {
+  const out: http.OutgoingHttpHeaders = {};
+  response.headers.forEach((value, name) => {
+    out[name] = value;
+  });
+  return out;
+}
+
+/** Counts an anonymous public read against its client's budget, as withApi counts it (in this process's memory). */
+function countAnonymousRead(headers: http.OutgoingHttpHeaders) {
+  return consumeApiBudget(`address:${clientAddress(headers as Record<string, string | string[] | undefined>)}`, { inProcess: true });
+}
+
 /**
  * A kept answer sent without running the route: its web Request and Response, withApi's checks and
  * the validators cost more of this thread than the answer itself (~60 % of a kept search). Only a
@@ -140,24 +154,16 @@ async function answerKept(
     // 503 problem), rather than by the route after waiting as long again for the same read.
     const unavailable = databaseUnavailable(err);
     if (!unavailable) return false;
-    const budget = await consumeApiBudget(`address:${clientAddress(headers as Record<string, string | string[] | undefined>)}`, {
-      inProcess: true,
-    });
+    const budget = await countAnonymousRead(headers);
     if (budget.spent) return false;
     console.warn(`[api] ${req.method} ${route.path}: database out of reach`, (err as Error).message);
     const problem = problemResponse(unavailable, route.path);
-    const out: http.OutgoingHttpHeaders = {};
-    problem.headers.forEach((value, name) => {
-      out[name] = value;
-    });
-    await writeAnswer(req, res, problem.status, out, new Uint8Array(await problem.arrayBuffer()));
+    await writeAnswer(req, res, problem.status, headersOf(problem), new Uint8Array(await problem.arrayBuffer()));
     return true;
   }
   const replay = bytes && replayHeaders.get(bytes);
   if (!bytes || !replay) return false;
-  const budget = await consumeApiBudget(`address:${clientAddress(headers as Record<string, string | string[] | undefined>)}`, {
-    inProcess: true,
-  });
+  const budget = await countAnonymousRead(headers);
   if (budget.spent) return false;
   await writeAnswer(req, res, 200, { ...replay, ...apiBudgetHeaders(budget) }, bytes);
   return true;
@@ -191,10 +197,7 @@ export async function answerHere(
   const answer = await GET(request, { params: Promise.resolve({}) });
   if (res.destroyed) return;
   const bytes = await bodyBytes(answer);
-  const out: http.OutgoingHttpHeaders = {};
-  answer.headers.forEach((value, name) => {
-    out[name] = value;
-  });
+  const out = headersOf(answer);
   if (KEPT[route.path] && answer.status === 200 && req.headers.authorization === undefined && builtFromBytes(answer) === bytes) {
     const replay = { ...out };
     for (const name of BUDGET_HEADERS) delete replay[name];

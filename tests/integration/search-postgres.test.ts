@@ -7,7 +7,7 @@ import { refitVersion } from "@/lib/datasets/refit";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { postgresEngine } from "@/lib/search/engines/postgres";
 import { createApiToken, createUser } from "@/lib/users/queries";
-import { sql, uniqueEmail } from "./helpers";
+import { depositInState, sql, uniqueEmail } from "./helpers";
 import { runSearchConformance } from "./search-conformance";
 
 runSearchConformance("PostgreSQL", { engine: () => postgresEngine });
@@ -344,9 +344,7 @@ describe("the rows of the datasets view, read from the in-memory index", () => {
       role: "curator",
       verified: true,
     });
-    const v = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Index rows test" } });
-    await applyTransition({ versionId: v.id, actorId: owner.id, transition: "submit" });
-    await applyTransition({ versionId: v.id, actorId: curator.id, transition: "accept", reason: "Consistent." });
+    const v = await depositInState({ owner, curator, document: { ...EXAMPLE_DEPOSIT, title: "Index rows test" }, state: "published" });
     const index = await memoryIndex();
     const rows = await sql<Record<string, unknown>[]>`
       select version_id, dataset_id, version_number, version_identifier, retracted, title, equation, reaction_key, reaction_class,

@@ -23,7 +23,7 @@ vi.mock("@/lib/search", () => ({ keptSearchAnswerBytes: async () => null }));
 
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER } from "@/lib/auth/client-address";
 import { FRONT_ROUTE_PATHS, frontRoute } from "@/lib/http/front-routes";
-import { startFrontBefore, TEST_EDGE_KEY } from "./front-server";
+import { askFront, startFrontBefore, TEST_EDGE_KEY } from "./front-server";
 
 let app: http.Server;
 let front: { port: number; close: () => Promise<void> };
@@ -43,21 +43,7 @@ afterAll(async () => {
   await new Promise((resolve) => app.close(resolve));
 });
 
-function ask(
-  method: string,
-  path: string,
-  headers: http.OutgoingHttpHeaders = {},
-): Promise<{ status: number; headers: http.IncomingHttpHeaders; body: Buffer }> {
-  return new Promise((resolve, reject) => {
-    const req = http.request({ host: "127.0.0.1", port: front.port, method, path, headers, agent: false }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on("data", (c: Buffer) => chunks.push(c));
-      res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks) }));
-    });
-    req.on("error", reject);
-    req.end();
-  });
-}
+const ask = (method: string, path: string, headers: http.OutgoingHttpHeaders = {}) => askFront(front.port, method, path, headers);
 
 describe("which requests the front server answers itself", () => {
   it("GET and HEAD of the search and its suggestions, whatever the query; nothing else", () => {

@@ -36,7 +36,7 @@ vi.mock("@/lib/search", () => ({
   },
 }));
 
-import { startFrontBefore } from "./front-server";
+import { askFront, startFrontBefore } from "./front-server";
 
 let app: http.Server;
 let front: { port: number; close: () => Promise<void> };
@@ -51,17 +51,7 @@ afterAll(async () => {
   await new Promise((resolve) => app.close(resolve));
 });
 
-function ask(method: string, path: string, headers: http.OutgoingHttpHeaders = {}) {
-  return new Promise<{ status: number; headers: http.IncomingHttpHeaders; body: Buffer }>((resolve, reject) => {
-    const req = http.request({ host: "127.0.0.1", port: front.port, method, path, headers, agent: false }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on("data", (c: Buffer) => chunks.push(c));
-      res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks) }));
-    });
-    req.on("error", reject);
-    req.end();
-  });
-}
+const ask = (method: string, path: string, headers: http.OutgoingHttpHeaders = {}) => askFront(front.port, method, path, headers);
 
 /** The headers that say the same of every answer (not the date, not the budget, which each path counts: checked apart). */
 const LASTING = ["content-type", "etag", "cache-control", "vary", "content-length", "content-encoding"];

@@ -1,4 +1,4 @@
-import type http from "node:http";
+import http from "node:http";
 import type { AddressInfo } from "node:net";
 import { compileTrustProxy, startEdgeProxy } from "@/lib/auth/edge-proxy";
 
@@ -22,5 +22,23 @@ export async function startFrontBefore(
     key: TEST_EDGE_KEY,
     appOrigin: "http://127.0.0.1",
     ...options,
+  });
+}
+
+/** One request to the front server on `port`, on its own connection: status, headers and the whole body. */
+export function askFront(
+  port: number,
+  method: string,
+  path: string,
+  headers: http.OutgoingHttpHeaders = {},
+): Promise<{ status: number; headers: http.IncomingHttpHeaders; body: Buffer }> {
+  return new Promise((resolve, reject) => {
+    const req = http.request({ host: "127.0.0.1", port, method, path, headers, agent: false }, (res) => {
+      const chunks: Buffer[] = [];
+      res.on("data", (c: Buffer) => chunks.push(c));
+      res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks) }));
+    });
+    req.on("error", reject);
+    req.end();
   });
 }
