@@ -1,5 +1,5 @@
-import AxeBuilder from "@axe-core/playwright";
 import { expect, request as newRequest, test, type Page } from "@playwright/test";
+import { axeFindings } from "./pages/layout-checks";
 import { labelledAlkaneDeposit } from "../fixtures/labelled-alkane-deposit";
 import { DEMO_CURATORS, DEMO_RESEARCHER, signedIn, transition } from "./pages/deposit-pages";
 
@@ -19,7 +19,7 @@ async function firstReactionPath(page: Page): Promise<string> {
 }
 
 async function axeProblems(page: Page): Promise<string[]> {
-  const axe = await new AxeBuilder({ page }).analyze();
+  const axe = await axeFindings(page);
   return axe.violations
     .filter((v) => v.impact === "serious" || v.impact === "critical")
     .map((v) => `${page.url()}: axe ${v.id} on ${v.nodes.length} element(s), e.g. ${v.nodes[0]?.target.join(" ")}`);

@@ -1,5 +1,5 @@
-import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
+import { axeFindings } from "./pages/layout-checks";
 
 // The search page against the demo data: species by name and by SMILES, narrowing by class and
 // temperature window, the reactions view, opening a dataset and coming back with the back button,
@@ -196,13 +196,13 @@ for (const [name, size] of [
       clientWidth: document.documentElement.clientWidth,
     }));
     expect(scrollWidth).toBeLessThanOrEqual(clientWidth);
-    const axe = await new AxeBuilder({ page }).analyze();
+    const axe = await axeFindings(page);
     const serious = axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
     expect(serious.map((v) => `${v.id}: ${v.nodes[0]?.target.join(" ")}`)).toEqual([]);
     await page.screenshot({ path: info.outputPath(`search-${name}.png`), fullPage: true });
     await page.goto("/search?q=OH&view=reactions");
     await foundCount(page);
-    const axeReactions = await new AxeBuilder({ page }).analyze();
+    const axeReactions = await axeFindings(page);
     expect(axeReactions.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => v.id)).toEqual([]);
     await page.screenshot({ path: info.outputPath(`search-reactions-${name}.png`), fullPage: true });
   });

@@ -1,5 +1,5 @@
-import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
+import { axeFindings } from "./pages/layout-checks";
 import { DEMO_RESEARCHER, signInAs } from "./pages/deposit-pages";
 
 // A 1366 px laptop screen: every value and footnote of a published version's tables is visible,
@@ -60,7 +60,7 @@ async function pageProblems(page: Page, path: string): Promise<string[]> {
     clientWidth: document.documentElement.clientWidth,
   }));
   if (scrollWidth > clientWidth) out.push(`${path}: ${scrollWidth} px wide on a ${clientWidth} px screen`);
-  const axe = await new AxeBuilder({ page }).analyze();
+  const axe = await axeFindings(page);
   for (const v of axe.violations.filter((x) => x.impact === "serious" || x.impact === "critical"))
     out.push(`${path}: axe ${v.id} (${v.impact}) on ${v.nodes.length} element(s), e.g. ${v.nodes[0]?.target.join(" ")}`);
   return out;
