@@ -183,11 +183,19 @@ export async function listReactionsWithPublicData() {
     .orderBy(sql`3`);
 }
 
-/** Live figures for the home page: published datasets, the reactions they cover, their points. */
+/**
+ * Live figures for the home page: published datasets, the reactions they cover, their points. Each
+ * dataset counts once, by its newest public version, as the reactions list shows it: a revised
+ * dataset's earlier versions (still published, still citable) add no points of their own, and a
+ * dataset whose newest version was retracted is not counted.
+ */
 export async function countPublicData() {
-  const [row] = await getDb().execute<{ datasets: number; reactions: number; points: number }>(sql`
-    select count(distinct v.dataset_id)::int as datasets, count(distinct v.reaction_id)::int as reactions, coalesce(sum(v.point_count), 0)::int as points
-    from dataset_versions v where v.state = 'published'`);
+  const [row] = await getDb().execute<{ datasets: number; reactions: number; points: string }>(sql`
+    with newest as (
+      select distinct on (v.dataset_id) v.dataset_id, v.reaction_id, v.point_count, v.state
+      from dataset_versions v where v.state in ('published', 'retracted') order by v.dataset_id, v.number desc)
+    select count(*)::int as datasets, count(distinct reaction_id)::int as reactions, coalesce(sum(point_count), 0)::bigint::text as points
+    from newest where state = 'published'`);
   return { datasets: Number(row?.datasets ?? 0), reactions: Number(row?.reactions ?? 0), points: Number(row?.points ?? 0) };
 }
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { applyTransition } from "@/lib/curation/transitions";
-import { depositNewDataset } from "@/lib/datasets/deposits";
+import { depositNewDataset, startNextVersion, updateDraft } from "@/lib/datasets/deposits";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { countPublicData, getReaction, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
 import { createUser } from "@/lib/users/queries";
@@ -46,6 +46,44 @@ describe("datasets of the same reaction meet on one reaction", () => {
     expect(versions.find((v) => v.versionId === a.id)!.points).toHaveLength(EXAMPLE_DEPOSIT.points.length);
     const after = await countPublicData();
     expect(after.datasets - before.datasets).toBe(2);
+  });
+});
+
+describe("the home page's figures", () => {
+  it("count each dataset once, by its newest public version: a revision adds no points of its earlier version, a retraction takes the dataset out", async () => {
+    const owner = await createUser({ email: uniqueEmail("cnt"), name: "Count Owner", passwordHash: "x", verified: true });
+    const curator = await createUser({
+      email: uniqueEmail("cntc"),
+      name: "Count Curator",
+      passwordHash: "x",
+      role: "curator",
+      verified: true,
+    });
+    const publish = async (versionId: number) => {
+      await applyTransition({ versionId, actorId: owner.id, transition: "submit" });
+      await applyTransition({ versionId, actorId: curator.id, transition: "accept", reason: "Consistent." });
+    };
+    const before = await countPublicData();
+    const first = await depositNewDataset({ actor: owner, document: { ...EXAMPLE_DEPOSIT, title: "Counted once" } });
+    await publish(first.id);
+    const n = EXAMPLE_DEPOSIT.points.length;
+    expect(await countPublicData()).toEqual({ datasets: before.datasets + 1, reactions: expect.any(Number), points: before.points + n });
+    // Version 2 keeps one point fewer; version 1 stays published (and citable) beside it.
+    const next = await startNextVersion({ actor: owner, versionId: first.id });
+    const [{ lock_version: lock }] = await sql`select lock_version from dataset_versions where id = ${next.id}`;
+    await updateDraft({
+      actor: owner,
+      versionId: next.id,
+      expectedLockVersion: Number(lock),
+      document: { ...EXAMPLE_DEPOSIT, title: "Counted once", points: EXAMPLE_DEPOSIT.points.slice(1) },
+    });
+    await publish(next.id);
+    const [{ state }] = await sql`select state from dataset_versions where id = ${first.id}`;
+    expect(state).toBe("published");
+    expect(await countPublicData()).toMatchObject({ datasets: before.datasets + 1, points: before.points + n - 1 });
+    // Retracting the newest version takes the dataset out of the figures (the reactions list shows it no more either).
+    await applyTransition({ versionId: next.id, actorId: curator.id, transition: "retract", reason: "A calibration error." });
+    expect(await countPublicData()).toMatchObject({ datasets: before.datasets, points: before.points });
   });
 });
 
