@@ -15,6 +15,7 @@ import { storedConsensusOf, type StoredConsensus } from "@/lib/reactions/stored-
 import type { ReactionHit, SearchFlag } from "./types";
 import { datasetSpread, preferredFitOf } from "./spread";
 import { recordSearchChange } from "@/lib/search/outbox";
+import { movePublicPagesMark } from "@/db/public-pages-mark";
 
 /**
  * The PostgreSQL engine's documents: `buildSearchDocument` (re)writes the one of a version inside
@@ -499,6 +500,8 @@ export async function rebuildStaleComparisonBases({ onProgress }: { onProgress?:
     await db.transaction((tx) => writeReactionSummaries(tx, ids.slice(i, i + SUMMARY_BATCH)));
     onProgress?.(Math.min(i + SUMMARY_BATCH, ids.length), ids.length);
   }
+  // Reaction pages show the kept consensus: a server already running renders them again (below).
+  if (ids.length) await movePublicPagesMark();
   return ids.length;
 }
 
@@ -547,5 +550,9 @@ export async function rebuildSearchDocuments({
     await db.transaction((tx) => writeReactionSummaries(tx, reactionIds.slice(i, i + SUMMARY_BATCH)));
     onSummaryProgress?.(Math.min(i + SUMMARY_BATCH, reactionIds.length), reactionIds.length);
   }
+  // The species' display names and the kept consensus may have changed on any public page: a server
+  // already running (this is also `npm run search:reindex` and the migration, beside it) renders its
+  // pages again from the new rows, not from what it kept (lib/public-cache.ts, lib/html-cache.ts).
+  await movePublicPagesMark();
   return ids.length;
 }

@@ -438,7 +438,11 @@ describe("the comparison basis kept with each reaction's search summary", () => 
       where reaction_id = ${reactionId} and comparison is not null`;
     // A stale basis with no curve would say "no data"; it is ignored, and the verdicts come from the points.
     expect((await reportOf()).summary).toMatchObject({ agrees: 1, disagrees: 1 });
+    const { readPublicPagesMark } = await import("@/db/public-pages-mark");
+    const mark = await readPublicPagesMark();
     expect(await rebuildStaleComparisonBases()).toBeGreaterThanOrEqual(1);
+    // Reaction pages show the kept consensus: a running server renders them again.
+    expect(await readPublicPagesMark()).not.toBe(mark);
     const [kept] = await sql<
       { engine: string }[]
     >`select comparison ->> 'engine' as engine from search_reaction_summaries where reaction_id = ${reactionId}`;

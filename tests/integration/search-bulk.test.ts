@@ -4,6 +4,7 @@ import { buildSearchDocument, rebuildSearchDocuments } from "@/lib/search/docume
 import { seedDemo } from "../../scripts/seed/seed-data";
 import { seedDemoDatasets } from "../../scripts/seed/seed-datasets";
 import { seedDemoRevision } from "../../scripts/seed/seed-revisions";
+import { readPublicPagesMark } from "@/db/public-pages-mark";
 import { sql } from "./helpers";
 
 /** Every column of every search document (the generated ones too) and every summary but its write time. */
@@ -45,7 +46,10 @@ describe("the bulk rebuild of the search documents", () => {
     // Over existing rows (on conflict), with a stale row and a missing one: the same again.
     await sql`update search_documents set title = 'stale', latest = not latest where version_id = ${ids[0]}`;
     await sql`delete from search_documents where version_id = ${ids[ids.length - 1]}`;
+    const mark = await readPublicPagesMark();
     await rebuildSearchDocuments();
     expect(await snapshot()).toEqual(oneByOne);
+    // A running server's kept pages and data are read again (display names, kept consensus).
+    expect(await readPublicPagesMark()).not.toBe(mark);
   });
 });
