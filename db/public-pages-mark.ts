@@ -22,7 +22,26 @@ export function readPublicPagesMark(): Promise<string> {
   });
 }
 
-/** Moves the mark: every page kept under an older one is rendered again at its next request. */
-export async function movePublicPagesMark(): Promise<void> {
-  await getDb().execute(sql`select nextval('public_pages_mark')`);
+/** The tag every kept page carries (lib/kept-pages.ts): moving it renders every page again. */
+export const ALL_PAGES_TAG = "all";
+
+/**
+ * Moves the mark: every page kept in memory under an older one is rendered again at its next
+ * request. Each tag moves with it (page_tag_moves, drizzle/0040: the tag's row takes a value of the
+ * mark's sequence), and a page kept in the database (lib/kept-pages.ts) whose tags include one that
+ * moved after its render began is rendered again too; pages none of whose tags moved stay kept.
+ */
+export async function movePublicPagesMark(tags: readonly string[] = [ALL_PAGES_TAG]): Promise<void> {
+  const unique = [...new Set(tags)];
+  if (unique.length === 0) {
+    await getDb().execute(sql`select nextval('public_pages_mark')`);
+    return;
+  }
+  await getDb().execute(sql`
+    insert into page_tag_moves (tag, moved)
+    select t, nextval('public_pages_mark') from unnest(array[${sql.join(
+      unique.map((t) => sql`${t}`),
+      sql`, `,
+    )}]::text[]) as t
+    on conflict (tag) do update set moved = excluded.moved`);
 }

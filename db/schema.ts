@@ -15,3 +15,4 @@ export * from "./watches";
 export * from "./people";
 export * from "./mechanisms";
 export * from "./collections";
+export * from "./kept-pages-schema";

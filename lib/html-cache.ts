@@ -1,5 +1,6 @@
 import { mayCarrySession } from "@/lib/auth/session-cookie";
 import type http from "node:http";
+import type { KeptPage, KeptPages } from "@/lib/kept-pages";
 
 /**
  * The rendered HTML of public pages for anonymous readers (and crawlers), kept in the memory of the
@@ -21,6 +22,11 @@ import type http from "node:http";
  * mark it was kept under. An invalidation in this process also empties the cache at once, and an
  * entry lives at most `PUBLIC_CACHE_SECONDS`, as the data cache's entries do. A render that was
  * running when the cache was emptied is not stored (it may have read the old data).
+ *
+ * Behind the memory, the pages most readers arrive at (dataset versions, reactions, species) are kept
+ * in the database too (`kept`, lib/kept-pages.ts), by what they show rather than under the one mark:
+ * a page missing from memory is read from there before it is rendered, and every page rendered here
+ * for such an address is kept there as well.
  */
 
 /**
@@ -55,7 +61,7 @@ const BYPASS_HEADERS = [
 /** The longest Accept or Accept-Encoding a request may carry and still be answered from the cache. */
 const MAX_KEYED_HEADER = 256;
 
-/** Response header saying whether the answer came from the cache (`hit`) or was rendered and stored (`miss`). */
+/** Response header saying whether the answer came from memory (`hit`), from the kept pages (`kept`), or was rendered and stored (`miss`). */
 export const HTML_CACHE_HEADER = "x-arrhenia-html-cache";
 
 export interface HtmlCacheOptions {
@@ -73,6 +79,8 @@ export interface HtmlCacheOptions {
   mark?: () => Promise<string>;
   /** How long a request waits for the render of the same page already under way (WAIT_FOR_RENDER_MS). */
   waitForRenderMs?: number;
+  /** Pages kept in the database by what they show (lib/kept-pages.ts); used only with `mark`. */
+  kept?: KeptPages;
   now?: () => number;
 }
 
@@ -148,6 +156,16 @@ function evict(s: Store, maxBytes: number) {
   }
 }
 
+/** Stores a page in memory under `mark`, within the byte budget. */
+function remember(s: Store, key: string, mark: string, page: KeptPage, storedAt: number, maxBytes: number) {
+  const old = s.entries.get(key);
+  if (old) s.bytes -= old.size;
+  const size = page.body.length + 2 * key.length + JSON.stringify(page.headers).length * 2;
+  s.entries.set(key, { mark, ...page, storedAt, size });
+  s.bytes += size;
+  evict(s, maxBytes);
+}
+
 type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => Promise<void> | void;
 
 /** Seconds a reader (or a crawler) is asked to wait before asking again while the database is out of reach, as the API asks (lib/errors.ts). */
@@ -169,12 +187,29 @@ function answerUnavailableForFailure(res: http.ServerResponse): void {
   }) as typeof res.writeHead;
 }
 
+/** A page request (GET or HEAD, not the API's nor Next's files) whose failure says the database is out of reach when it is. */
+function mayAnswerUnavailable(req: http.IncomingMessage): boolean {
+  if (req.method !== "GET" && req.method !== "HEAD") return false;
+  const path = (req.url ?? "/").split("?")[0];
+  return !path.startsWith("/api/") && !path.startsWith("/_next/") && path !== "/oai";
+}
+
 /** `handle` with the anonymous page cache in front (see the module comment). */
 export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handler {
   const now = options.now ?? Date.now;
   return async (req, res) => {
     const key = htmlCacheKey(req);
-    if (key === null) return handle(req, res);
+    if (key === null) {
+      // Any other page (a member's, /people…) that fails while the database is out of reach is a 503 too.
+      if (options.mark && mayAnswerUnavailable(req)) {
+        try {
+          await options.mark();
+        } catch {
+          answerUnavailableForFailure(res);
+        }
+      }
+      return handle(req, res);
+    }
     let mark = "";
     if (options.mark) {
       try {
@@ -203,6 +238,19 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       return true;
     };
     if (served()) return;
+    const generation = s.generation;
+    const keptKey = options.kept && options.mark ? options.kept.keyOf(req) : null;
+    if (keptKey !== null) {
+      const page = await options.kept!.read(keptKey).catch(() => null);
+      if (res.destroyed || served()) return;
+      if (page) {
+        if (s.generation === generation) remember(s, key, mark, page, now(), options.maxBytes);
+        req.resume();
+        res.writeHead(page.status, { ...page.headers, [HTML_CACHE_HEADER]: "kept", "content-length": page.body.length });
+        res.end(page.body);
+        return;
+      }
+    }
     // The same page being rendered for another anonymous reader (a popular page just after a change
     // emptied the cache): wait for that render rather than start another, then take what it kept.
     const slot = `${mark}\u0000${key}`;
@@ -219,7 +267,6 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
         finished();
       });
     }
-    const generation = s.generation;
     const chunks: Buffer[] = [];
     let size = 0;
     let keep = true;
@@ -274,12 +321,8 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
         delete headers["keep-alive"];
         // A replay is dated when it is sent (Node adds the Date of each answer); one passed on from Next carries its render's.
         delete headers.date;
-        const old = s.entries.get(key);
-        if (old) s.bytes -= old.size;
-        const size = body.length + 2 * key.length + JSON.stringify(headers).length * 2;
-        s.entries.set(key, { mark, status, headers, body, storedAt: now(), size });
-        s.bytes += size;
-        evict(s, options.maxBytes);
+        remember(s, key, mark, { status, headers, body }, now(), options.maxBytes);
+        if (keptKey !== null) void options.kept!.keep(keptKey, { status, headers, body }, mark);
       }
       return result;
     }) as typeof res.end;

@@ -13,7 +13,9 @@ import { movePublicPagesMark, readPublicPagesMark } from "@/db/public-pages-mark
  * Tags:
  * - `public`: every listing and count (home, reactions, classes, sitemap, species lists);
  * - `search`: search results and suggestions;
- * - `dataset:<id>`, `reaction:<id>`, `species:<InChIKey>`, `class:<id>`: one page's data.
+ * - `dataset:<id>`, `reaction:<id>`, `species:<InChIKey>`, `class:<id>`: one page's data;
+ * - `name:<species id>`: a species' display name changed (publication, retraction), which every page
+ *   writing an equation with it shows (the pages kept in the database carry it, lib/kept-pages.ts).
  */
 export const PUBLIC_TAG = "public";
 export const SEARCH_TAG = "search";
@@ -21,6 +23,7 @@ export const datasetTag = (datasetId: number) => `dataset:${datasetId}`;
 export const reactionTag = (reactionId: number) => `reaction:${reactionId}`;
 export const speciesTag = (inchiKey: string) => `species:${inchiKey}`;
 export const classTag = (classId: string) => `class:${classId}`;
+export const nameTag = (speciesId: number) => `name:${speciesId}`;
 
 // A cached entry is kept at most PUBLIC_CACHE_SECONDS even when no change invalidates it. The
 // background workers of scripts/serve.ts do tell the server: see `forwardCacheInvalidations`.
@@ -93,7 +96,7 @@ export async function invalidatePublicCache(tags: Iterable<string>, { forward = 
   // dropped the tags, so that no page rendered under the new mark read the old data. The receiving
   // end of a forwarded invalidation leaves it to the sender, which moves it once Next has answered.
   if (forward)
-    await movePublicPagesMark().catch((e: unknown) =>
+    await movePublicPagesMark(unique).catch((e: unknown) =>
       console.error(`[cache] could not move the public pages' mark: ${e instanceof Error ? e.message : String(e)}`),
     );
 }

@@ -288,7 +288,16 @@ interface Scenario {
   paths: string[];
   /** Each path is read once before the warm-up: the figures are of views after the first (from the page cache for anonymous readers). */
   repeat?: boolean;
+  /**
+   * While it runs, changes elsewhere move the public pages' mark (a tag no page shows, CHURN_MS
+   * apart, as publications of other datasets would): the memory of the front server forgets its
+   * pages at each, and they come back from the pages kept in the database (lib/kept-pages.ts).
+   */
+  churn?: boolean;
 }
+
+/** How often the "changes elsewhere" scenarios move the mark, in milliseconds. */
+const CHURN_MS = 200;
 
 const routeExists = (...segments: string[]) => existsSync(path.join(root, "app", ...segments));
 
@@ -360,10 +369,42 @@ async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
     });
     if (routeExists("species", "[inchikey]"))
       list.push({ name: "page: species, again", kind: "page", paths: speciesPaths.slice(0, repeatCount), repeat: true });
+    // The same pages while other datasets are published (the mark moves 5 times a second).
+    list.push({
+      name: "page: dataset version, again, changes elsewhere",
+      kind: "page",
+      paths: versionPaths.slice(0, repeatCount),
+      repeat: true,
+      churn: true,
+    });
+    if (routeExists("species", "[inchikey]"))
+      list.push({
+        name: "page: species, again, changes elsewhere",
+        kind: "page",
+        paths: speciesPaths.slice(0, repeatCount),
+        repeat: true,
+        churn: true,
+      });
     return { list, missing };
   } finally {
     await sql.end();
   }
+}
+
+/** Moves the public pages' mark with a tag no page carries every CHURN_MS until the returned function is called. */
+function churn(): () => Promise<void> {
+  const sql = postgres(databaseUrl, { max: 1, onnotice: () => {} });
+  let moves = 0;
+  const timer = setInterval(() => {
+    moves += 1;
+    void sql`insert into page_tag_moves (tag, moved) values ('bench:elsewhere', nextval('public_pages_mark'))
+      on conflict (tag) do update set moved = excluded.moved`.catch(() => undefined);
+  }, CHURN_MS);
+  return async () => {
+    clearInterval(timer);
+    log(`  the mark moved ${moves} times meanwhile`);
+    await sql.end();
+  };
 }
 
 /** One request per scenario first: a scenario whose URLs fail is reported, not silently timed. */
@@ -477,8 +518,10 @@ try {
   for (const s of list) {
     log(`${s.name}: ${await probe(s)}`);
     if (s.repeat) log(`${s.name}: read each of ${s.paths.length} once first (${(await primeAll(s.paths)).toFixed(1)} s)`);
+    const stopChurn = s.churn ? churn() : null;
     await drive(base, s.paths, warmSeconds, connections);
     const r = await drive(base, s.paths, seconds, connections);
+    await stopChurn?.();
     results.push({ name: s.name, kind: s.kind, ...r });
     log(`${s.name}: p95 ${ms(r.p95)} ms, ${r.requestsPerSecond.toFixed(0)} req/s, non-2xx ${r.non2xx}`);
   }

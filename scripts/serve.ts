@@ -45,6 +45,9 @@ import { warmUpApp } from "./warm-up";
 import { loadFrontRoutes } from "@/lib/http/front-routes";
 import { PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
 import { readPublicPagesMark } from "@/db/public-pages-mark";
+import { keptPagesInPostgres, sweepKeptPages } from "@/lib/kept-pages";
+import { readFileSync } from "node:fs";
+import path from "node:path";
 
 // A bad setting stops here, before anything listens, with every problem listed.
 try {
@@ -133,6 +136,15 @@ next.on("exit", (code) => void stop(code ?? 0));
 
 // The front server opens once Next is up and every route's modules are loaded (scripts/warm-up.ts).
 await Promise.all([warmUpApp({ port: innerPort, key: edgeKey, distDir: nextDistDir() }), loadFrontRoutes()]);
+// The build id Next wrote, with the public address: pages kept by another build or address are not served.
+const keptBuild = `${readFileSync(path.join(nextDistDir(), "BUILD_ID"), "utf8").trim()} ${new URL(appUrl()).origin}`;
+const sweep = () =>
+  sweepKeptPages({ build: keptBuild }).catch((e: unknown) =>
+    console.error(`[pages] could not sweep the kept pages: ${e instanceof Error ? e.message : String(e)}`),
+  );
+void sweep();
+setInterval(() => void sweep(), 60 * 60 * 1000).unref();
+
 running.edge = await startEdgeProxy({
   host,
   port,
@@ -150,6 +162,9 @@ running.edge = await startEdgeProxy({
     maxEntryBytes: 4 * 1024 * 1024,
     ttlMs: PUBLIC_CACHE_SECONDS * 1000,
     mark: readPublicPagesMark,
+    // Dataset version, reaction and species pages are kept in the database as well (lib/kept-pages.ts),
+    // by this build and public address.
+    kept: keptPagesInPostgres({ build: keptBuild }),
   },
 });
 

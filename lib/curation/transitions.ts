@@ -10,7 +10,7 @@ import { recordAuditEvent } from "@/lib/audit/record";
 import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
 import { AppError } from "@/lib/errors";
 import { mintSeriesIdentifier } from "@/lib/identifiers/mint";
-import { invalidatePublicCache } from "@/lib/public-cache";
+import { invalidatePublicCache, nameTag } from "@/lib/public-cache";
 import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 import { buildSearchDocument } from "@/lib/search/documents";
 import { queueWatchNotice } from "@/lib/watches/notify";
@@ -57,6 +57,8 @@ export async function applyTransition({
   /** Work that must commit or roll back with the transition (queuing the mail and jobs it causes). */
   beforeCommit?: (tx: Transaction, outcome: TransitionOutcome) => Promise<void>;
 }): Promise<TransitionOutcome> {
+  /** Species whose display name the publication or retraction changed. */
+  let renamed: number[] = [];
   const outcome = await getDb().transaction(async (tx) => {
     const [version] = await tx
       .select({
@@ -128,7 +130,7 @@ export async function applyTransition({
     }
     // The search document commits or rolls back with the publication or retraction it describes.
     if (transition === "accept" || transition === "retract") {
-      await buildSearchDocument(tx, versionId);
+      renamed = await buildSearchDocument(tx, versionId);
       // Watchers hear of it once it commits (a job in this transaction; the mail never holds the request).
       await queueWatchNotice({ versionId, event: transition === "accept" ? "published" : "retracted", at: now.toISOString() }, { tx });
     }
@@ -151,7 +153,9 @@ export async function applyTransition({
     return outcome;
   });
   // What the public sees changed only on publication and retraction: its pages' cached data go stale now.
-  if (transition === "accept" || transition === "retract") await invalidatePublicCache(await listVersionCacheTags({ versionId }));
+  // Species whose display name changed show it on every page with an equation naming them.
+  if (transition === "accept" || transition === "retract")
+    await invalidatePublicCache([...(await listVersionCacheTags({ versionId })), ...renamed.map(nameTag)]);
   return outcome;
 }
 

@@ -216,12 +216,13 @@ async function writeDocuments(tx: Transaction, versionIds: readonly number[]): P
  * Writes the search document of one version as it now stands: inserted or replaced while the
  * version is published or retracted, removed otherwise; then `latest` of its dataset's documents
  * and the summaries of the reactions concerned. Call it inside the transaction of the change.
+ * Returns the ids of the species whose display name it changed (their `name:<id>` tag, lib/public-cache.ts).
  */
 export async function buildSearchDocument(
   tx: Transaction,
   versionId: number,
   { summaries = true }: { summaries?: boolean } = {},
-): Promise<void> {
+): Promise<number[]> {
   const [v] = await tx
     .select({ datasetId: datasetVersions.datasetId, reactionId: datasetVersions.reactionId })
     .from(datasetVersions)
@@ -233,25 +234,24 @@ export async function buildSearchDocument(
   await writeDocuments(tx, [versionId]);
   // The Meilisearch outbox (when a service is configured) commits with the same change.
   await recordSearchChange(tx, versionId);
-  if (!v) return;
+  if (!v) return [];
   await refreshLatest(tx, [v.datasetId]);
-  if (!summaries) {
-    if (v.reactionId !== null) await writeSpeciesDisplayNames(tx, { reactionIds: [v.reactionId] });
-    return;
-  }
+  if (!summaries) return v.reactionId !== null ? writeSpeciesDisplayNames(tx, { reactionIds: [v.reactionId] }) : [];
   const affected = new Set([...reactionsBefore.map((r) => r.reactionId), ...(v.reactionId !== null ? [v.reactionId] : [])]);
-  await writeSpeciesDisplayNames(tx, { reactionIds: [...affected] });
+  const renamed = await writeSpeciesDisplayNames(tx, { reactionIds: [...affected] });
   await writeReactionSummaries(tx, [...affected]);
+  return renamed;
 }
 
 /**
  * Rewrites the display name (db/search.ts speciesDisplayNames) of the species of these reactions,
  * or of every species: the name their public versions give them most often, ties broken by the
  * lower-case then the exact spelling (drizzle/0024 backfills by the same rule); a species no
- * public version names loses its row and is shown by its formula.
+ * public version names loses its row and is shown by its formula. Returns the ids of the species
+ * whose name it wrote, changed or took away.
  */
-export async function writeSpeciesDisplayNames(tx: Transaction, of: { reactionIds: readonly number[] } | "all"): Promise<void> {
-  if (of !== "all" && !of.reactionIds.length) return;
+export async function writeSpeciesDisplayNames(tx: Transaction, of: { reactionIds: readonly number[] } | "all"): Promise<number[]> {
+  if (of !== "all" && !of.reactionIds.length) return [];
   const ids =
     of === "all"
       ? sql`select id as sid from species`
@@ -269,16 +269,21 @@ export async function writeSpeciesDisplayNames(tx: Transaction, of: { reactionId
           cross join lateral jsonb_array_elements(v.participant_names) e
           where v.state in ('published', 'retracted') and (e->>'speciesId')::int = ids.sid and coalesce(e->>'name', '') <> ''
           group by 1, 2`;
-  await tx.execute(sql`
+  const changed = await tx.execute<{ sid: number }>(sql`
     with ids as (${ids}), named as (
       select distinct on (sid) sid, name from (${uses}) x
       order by sid, uses desc, lower(name), name
     ), gone as (
       delete from species_display_names d where d.species_id in (select sid from ids)
         and not exists (select 1 from named where named.sid = d.species_id)
+      returning d.species_id as sid
+    ), written as (
+      insert into species_display_names (species_id, name) select sid, name from named
+      on conflict (species_id) do update set name = excluded.name where species_display_names.name is distinct from excluded.name
+      returning species_id as sid
     )
-    insert into species_display_names (species_id, name) select sid, name from named
-    on conflict (species_id) do update set name = excluded.name where species_display_names.name is distinct from excluded.name`);
+    select sid from gone union select sid from written`);
+  return changed.map((r) => Number(r.sid));
 }
 
 /** Marks the newest public version of each dataset as its listed document, every older one not. */

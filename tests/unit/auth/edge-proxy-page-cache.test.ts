@@ -19,7 +19,7 @@ beforeAll(async () => {
     renders += 1;
     req.resume();
     req.on("end", () => {
-      if (req.url === "/classes/failing") {
+      if (req.url?.split("?")[0] === "/classes/failing") {
         // As Next answers a page whose data it could not read and had not kept.
         res.statusCode = 500;
         res.setHeader("content-type", "text/html; charset=utf-8");
@@ -107,9 +107,16 @@ describe("public pages kept by the front server", () => {
     expect(await down.text()).toContain("Something went wrong");
     // A page Next could render from what it kept is sent as rendered.
     expect((await get("/classes")).status).toBe(200);
+    // So is a member's page, and a page the cache never keeps; an API answer says it in its own words.
+    const member = await fetch(`http://127.0.0.1:${front.port}/classes/failing`, { headers: { cookie: "next-auth.session-token=abc" } });
+    expect([member.status, member.headers.get("retry-after")]).toEqual([503, "5"]);
+    expect((await fetch(`http://127.0.0.1:${front.port}/classes/failing?x=1`)).status).toBe(503);
     markFails = false;
     // With the database back, a failing page is the fault it is.
     expect((await fetch(`http://127.0.0.1:${front.port}/classes/failing`)).status).toBe(500);
+    expect(
+      (await fetch(`http://127.0.0.1:${front.port}/classes/failing`, { headers: { cookie: "next-auth.session-token=abc" } })).status,
+    ).toBe(500);
   });
 
   it("never answers a member's request from memory, nor keeps a 404, an API answer or a form post", async () => {

@@ -1,0 +1,113 @@
+import http from "node:http";
+import type { AddressInfo } from "node:net";
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { clearHtmlCache, HTML_CACHE_HEADER, withHtmlCache } from "@/lib/html-cache";
+import { keptPageKey, type KeptPage, type KeptPages } from "@/lib/kept-pages";
+
+// The front server's page cache with pages kept in the database behind its memory (a stand-in for
+// lib/kept-pages.ts's store, with its real keys): what is read from there, what is written there.
+
+const SESSION = "next-auth.session-token=abc";
+let renders = 0;
+let mark = "10";
+let failReads = false;
+const kept = new Map<string, { page: KeptPage; mark: string }>();
+const reads: string[] = [];
+
+const store: KeptPages = {
+  keyOf: keptPageKey,
+  async read(key) {
+    reads.push(key);
+    if (failReads) throw new Error("database out of reach");
+    return kept.get(key)?.page ?? null;
+  },
+  async keep(key, page, at) {
+    kept.set(key, { page, mark: at });
+  },
+};
+
+function page(req: http.IncomingMessage, res: http.ServerResponse): void {
+  renders += 1;
+  const url = new URL(req.url!, "http://x");
+  if (url.pathname === "/datasets/7/v1") {
+    res.writeHead(404, { "content-type": "text/html" }).end("<h1>Not found</h1>");
+    return;
+  }
+  res.setHeader("content-type", "text/html; charset=utf-8");
+  res.end(`<p>${url.pathname}${url.search} render ${renders}</p>`);
+}
+
+let server: http.Server;
+let base = "";
+beforeAll(async () => {
+  server = http.createServer(
+    withHtmlCache(page, { maxBytes: 1 << 20, maxEntryBytes: 1 << 16, ttlMs: 60_000, mark: async () => mark, kept: store }),
+  );
+  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+});
+afterAll(() => new Promise<void>((resolve) => server.close(() => resolve())));
+beforeEach(() => {
+  clearHtmlCache();
+  kept.clear();
+  reads.length = 0;
+  failReads = false;
+  mark = "10";
+});
+
+async function get(path: string, headers: Record<string, string> = {}) {
+  const res = await fetch(base + path, { headers: { "accept-encoding": "identity", ...headers } });
+  return { status: res.status, body: await res.text(), cache: res.headers.get(HTML_CACHE_HEADER), type: res.headers.get("content-type") };
+}
+
+describe("pages kept in the database behind the memory cache", () => {
+  it("a page rendered for an anonymous reader is kept under the mark read when its request arrived", async () => {
+    const first = await get("/datasets/5/v2");
+    expect(first.cache).toBe("miss");
+    await new Promise((r) => setTimeout(r, 10));
+    const entry = kept.get("/datasets/5/v2\nidentity");
+    expect(entry?.mark).toBe("10");
+    expect(entry?.page.body.toString()).toBe(first.body);
+    expect(entry?.page.headers["content-type"]).toBe("text/html; charset=utf-8");
+    expect(entry?.page.headers[HTML_CACHE_HEADER]).toBeUndefined();
+  });
+
+  it("a page missing from memory is answered from the kept pages, then from memory, without a render", async () => {
+    kept.set("/species/VNWKTOKETHGBQD-UHFFFAOYSA-N\nidentity", {
+      page: { status: 200, headers: { "content-type": "text/html; charset=utf-8" }, body: Buffer.from("<p>kept methane</p>") },
+      mark: "3",
+    });
+    const before = renders;
+    expect(await get("/species/VNWKTOKETHGBQD-UHFFFAOYSA-N")).toEqual({
+      status: 200,
+      body: "<p>kept methane</p>",
+      cache: "kept",
+      type: "text/html; charset=utf-8",
+    });
+    expect((await get("/species/VNWKTOKETHGBQD-UHFFFAOYSA-N")).cache).toBe("hit");
+    expect(renders).toBe(before);
+    // A change elsewhere moves the mark: memory forgets, the kept page (its tags unmoved) still answers.
+    mark = "11";
+    expect((await get("/species/VNWKTOKETHGBQD-UHFFFAOYSA-N")).cache).toBe("kept");
+    expect(renders).toBe(before);
+  });
+
+  it("nothing else is read from or written to the kept pages", async () => {
+    await get("/datasets/5/v2?k=cm3");
+    await get("/reactions");
+    await get("/datasets/7/v1");
+    await get("/datasets/9/v1", { cookie: SESSION });
+    await get("/datasets/6/v1", { accept: "application/x-bibtex" });
+    await new Promise((r) => setTimeout(r, 10));
+    // Only the page's own address is looked up (a 404 is found nowhere and kept nowhere).
+    expect(reads).toEqual(["/datasets/7/v1\nidentity"]);
+    expect([...kept.keys()]).toEqual([]);
+  });
+
+  it("a kept page that cannot be read is rendered as before", async () => {
+    failReads = true;
+    const res = await get("/datasets/5/v3");
+    expect(res).toMatchObject({ status: 200, cache: "miss" });
+    expect(reads).toEqual(["/datasets/5/v3\nidentity"]);
+  });
+});
