@@ -79,11 +79,13 @@ export function temperatureTicks(domain: [number, number], count = 5): { x: numb
   }
   // About 49 px between neighbouring labels at the plot's tick spacing (64 px): four-digit temperatures stay apart.
   const minGap = (x1 - x0) / (count * 1.3);
+  // Half a label's width from the left end: a label on the corner stands over the ln k axis's top label.
+  const corner = x0 + minGap * 0.4;
   const out: { x: number; T: number }[] = [];
   // From the lowest temperature (largest 1000/T) up, a tick is kept only if it is far enough from the last kept one.
   for (const t of [...candidates].sort((a, b) => a - b)) {
     const x = 1000 / t;
-    if (x < x0 || x > x1) continue;
+    if (x < corner || x > x1) continue;
     if (out.length === 0 || Math.abs(out[out.length - 1].x - x) >= minGap) out.push({ x, T: t });
   }
   return out;

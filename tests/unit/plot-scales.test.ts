@@ -59,6 +59,16 @@ describe("temperatureTicks", () => {
     for (let i = 1; i < ticks.length; i++) expect(Math.abs(ticks[i].x - ticks[i - 1].x)).toBeGreaterThanOrEqual(3.5 / 8);
   });
 
+  it("leaves the top left corner free, where the label would stand over the ln k axis's top label", () => {
+    // 1000/T from 2 to 5 K⁻¹: 500 K would sit on the corner.
+    for (const count of [3, 5]) {
+      const ticks = temperatureTicks([2, 5], count);
+      expect(ticks.map((t) => t.T)).not.toContain(500);
+      expect(ticks.every((t) => t.x >= 2 + (3 / (count * 1.3)) * 0.4)).toBe(true);
+      expect(ticks.length).toBeGreaterThanOrEqual(3);
+    }
+  });
+
   it("labels a domain that starts at 1000/T = 0 (a wide computed range) instead of giving up", () => {
     const ticks = temperatureTicks([0, 5]);
     expect(ticks.length).toBeGreaterThanOrEqual(3);
