@@ -31,3 +31,19 @@ export const pageTagMoves = pgTable("page_tag_moves", {
   tag: text().primaryKey(),
   moved: bigint({ mode: "number" }).notNull(),
 });
+
+/**
+ * Invalidations owed (lib/public-cache.ts): the tags of a change to public pages, written in the
+ * change's own transaction and deleted once invalidatePublicCache has moved them after the commit;
+ * a row left behind (the process ended between the two, or the move failed) is moved by the front
+ * server's sweep a few seconds later (settleOwedInvalidations), so no change stays unseen.
+ */
+export const owedInvalidations = pgTable(
+  "owed_invalidations",
+  {
+    id: bigint({ mode: "number" }).primaryKey().generatedAlwaysAsIdentity(),
+    tags: text().array().notNull(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("owed_invalidations_created_at_idx").on(t.createdAt)],
+);

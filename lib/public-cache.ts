@@ -2,6 +2,7 @@ import "server-only";
 import { revalidateTag, unstable_cache } from "next/cache";
 import { clearHtmlCache, PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
 import { movePublicPagesMark, readPublicPagesMark } from "@/db/public-pages-mark";
+import { listOverdueInvalidations, settleOwedInvalidation } from "@/db/owed-invalidations";
 
 /**
  * The data cache of the public pages (and search). Every page reads the session in the site
@@ -86,19 +87,41 @@ export const CACHE_KEY_ENV = "ARRHENIA_CACHE_KEY";
  * the app's server (the job worker) the tags go to the forwarder, if one is set, else nowhere.
  * `forward: false` is for the receiving end, which must never send them back.
  */
-export async function invalidatePublicCache(tags: Iterable<string>, { forward = true }: { forward?: boolean } = {}): Promise<void> {
+export async function invalidatePublicCache(
+  tags: Iterable<string>,
+  { forward = true, owed = null }: { forward?: boolean; owed?: number | null } = {},
+): Promise<void> {
   const unique = [...new Set(tags)];
-  if (unique.length === 0) return;
+  if (unique.length === 0) {
+    if (owed !== null) await settleOwedInvalidation(owed);
+    return;
+  }
   // The page cache of this process (the front server's, when its job workers made the change) is emptied at once.
   clearHtmlCache();
   await dropTagged(unique, forward);
   // Then the mark every page cache checks moves (db/public-pages-mark.ts): after Next's data cache
   // dropped the tags, so that no page rendered under the new mark read the old data. The receiving
   // end of a forwarded invalidation leaves it to the sender, which moves it once Next has answered.
+  // The invalidation the change owed (db/owed-invalidations.ts) is settled once its tags moved; if
+  // they could not, its row stays for the front server's sweep (settleOverdueInvalidations).
   if (forward)
-    await movePublicPagesMark(unique).catch((e: unknown) =>
-      console.error(`[cache] could not move the public pages' mark: ${e instanceof Error ? e.message : String(e)}`),
-    );
+    await movePublicPagesMark(unique)
+      .then(() => (owed === null ? undefined : settleOwedInvalidation(owed)))
+      .catch((e: unknown) => console.error(`[cache] could not move the public pages' mark: ${e instanceof Error ? e.message : String(e)}`));
+}
+
+/** Seconds after its change before an owed invalidation is taken for lost and made by the sweep. */
+export const OVERDUE_INVALIDATION_SECONDS = 10;
+
+/**
+ * Makes the invalidations still owed OVERDUE_INVALIDATION_SECONDS after their change (the process
+ * that committed it ended before invalidating, or the move failed): run every few seconds by the
+ * front server (scripts/serve.ts). Returns how many were made.
+ */
+export async function settleOverdueInvalidations(): Promise<number> {
+  const overdue = await listOverdueInvalidations({ olderThanSeconds: OVERDUE_INVALIDATION_SECONDS });
+  for (const { id, tags } of overdue) await invalidatePublicCache(tags, { owed: id });
+  return overdue.length;
 }
 
 /** Next's data cache drops the tagged entries: here, inside the app's server, else through the forwarder. */

@@ -30,7 +30,7 @@ import {
 } from "@/lib/config";
 import { compileTrustProxy, freeLoopbackPort, startEdgeProxy } from "@/lib/auth/edge-proxy";
 import { EDGE_KEY_HEADER } from "@/lib/auth/client-address";
-import { CACHE_KEY_ENV, cacheInvalidationSender, forwardCacheInvalidations } from "@/lib/public-cache";
+import { CACHE_KEY_ENV, cacheInvalidationSender, forwardCacheInvalidations, settleOverdueInvalidations } from "@/lib/public-cache";
 import { startFakeDoiService } from "@/lib/identifiers/fake-service";
 import { startOrcidStandIn } from "@/lib/auth/orcid-stand-in";
 import { doiPrefix } from "@/lib/identifiers/mint";
@@ -144,6 +144,14 @@ const sweep = () =>
   );
 void sweep();
 setInterval(() => void sweep(), 60 * 60 * 1000).unref();
+// Invalidations a change owed and never made (its process ended after the commit): made here.
+setInterval(
+  () =>
+    void settleOverdueInvalidations().catch((e: unknown) =>
+      console.error(`[cache] could not make the overdue invalidations: ${e instanceof Error ? e.message : String(e)}`),
+    ),
+  5_000,
+).unref();
 
 running.edge = await startEdgeProxy({
   host,

@@ -11,6 +11,7 @@ import { addPublishedSpeciesNames } from "@/lib/datasets/species-queries";
 import { AppError } from "@/lib/errors";
 import { mintSeriesIdentifier } from "@/lib/identifiers/mint";
 import { invalidatePublicCache, nameTag } from "@/lib/public-cache";
+import { oweInvalidation } from "@/db/owed-invalidations";
 import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 import { buildSearchDocument } from "@/lib/search/documents";
 import { queueWatchNotice } from "@/lib/watches/notify";
@@ -57,8 +58,8 @@ export async function applyTransition({
   /** Work that must commit or roll back with the transition (queuing the mail and jobs it causes). */
   beforeCommit?: (tx: Transaction, outcome: TransitionOutcome) => Promise<void>;
 }): Promise<TransitionOutcome> {
-  /** Species whose display name the publication or retraction changed. */
-  let renamed: number[] = [];
+  /** What a publication or retraction invalidates once committed, and its row owed until then (db/owed-invalidations.ts). */
+  const invalidations: { tags: string[]; owed: number }[] = [];
   const outcome = await getDb().transaction(async (tx) => {
     const [version] = await tx
       .select({
@@ -130,7 +131,10 @@ export async function applyTransition({
     }
     // The search document commits or rolls back with the publication or retraction it describes.
     if (transition === "accept" || transition === "retract") {
-      renamed = await buildSearchDocument(tx, versionId);
+      const renamed = await buildSearchDocument(tx, versionId);
+      // Species whose display name changed show it on every page with an equation naming them.
+      const tags = [...(await listVersionCacheTags({ versionId, db: tx })), ...renamed.map(nameTag)];
+      invalidations.push({ tags, owed: await oweInvalidation(tx, tags) });
       // Watchers hear of it once it commits (a job in this transaction; the mail never holds the request).
       await queueWatchNotice({ versionId, event: transition === "accept" ? "published" : "retracted", at: now.toISOString() }, { tx });
     }
@@ -153,9 +157,9 @@ export async function applyTransition({
     return outcome;
   });
   // What the public sees changed only on publication and retraction: its pages' cached data go stale now.
-  // Species whose display name changed show it on every page with an equation naming them.
-  if (transition === "accept" || transition === "retract")
-    await invalidatePublicCache([...(await listVersionCacheTags({ versionId })), ...renamed.map(nameTag)]);
+  // (A transaction run again after a lost connection pushes again: the last is the one that committed.)
+  const invalidation = invalidations.at(-1);
+  if (invalidation) await invalidatePublicCache(invalidation.tags, { owed: invalidation.owed });
   return outcome;
 }
 

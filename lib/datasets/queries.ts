@@ -9,6 +9,8 @@ import type { CoEditorRole, VersionState } from "@/lib/curation/lifecycle";
 import { reactionClassFor } from "@/lib/deposits/vocabulary";
 import { AppError } from "@/lib/errors";
 import { buildSearchDocument } from "@/lib/search/documents";
+import { listVersionCacheTags } from "@/lib/reactions/public-queries";
+import { oweInvalidation } from "@/db/owed-invalidations";
 import { upsertReaction, type ResolvedParticipant } from "./species-queries";
 
 export interface ReactionInput {
@@ -581,7 +583,8 @@ export async function getDatasetSummary({ datasetId }: { datasetId: number }) {
 /**
  * Adds a re-fit's analysis to a version (published ones included) through the database function
  * that alone may (drizzle/0011): append-only, and only when the newest analysis came from another
- * engine version. Returns false when the version is already fitted by `engineVersion`.
+ * engine version. Not appended when the version is already fitted by `engineVersion`; a public
+ * version's appended fit comes with the invalidation it owes its pages (db/owed-invalidations.ts).
  */
 export async function appendRefitAnalysis({
   versionId,
@@ -595,20 +598,25 @@ export async function appendRefitAnalysis({
   result: Record<string, unknown> | null;
   checks: AnalysisSummary["checks"];
   error?: string;
-}): Promise<boolean> {
+}): Promise<{ appended: false } | { appended: true; invalidation: { tags: string[]; owed: number } | null }> {
   try {
-    await getDb().transaction(async (tx) => {
+    const invalidation = await getDb().transaction(async (tx) => {
       await tx.execute(
         sql`select arrhenia_append_refit_analysis(${versionId}, ${engineVersion}, ${result === null ? null : JSON.stringify(result)}::jsonb, ${JSON.stringify(checks)}::jsonb, ${error ?? null})`,
       );
       // A public version's search document carries the re-fit's Ea, A and flags: rewritten in the same transaction.
       const [v] = await tx.select({ state: datasetVersions.state }).from(datasetVersions).where(eq(datasetVersions.id, versionId));
-      if (v?.state === "published" || v?.state === "retracted") await buildSearchDocument(tx, versionId);
+      if (v?.state !== "published" && v?.state !== "retracted") return null;
+      await buildSearchDocument(tx, versionId);
+      // Its pages show the newest fit (or none, when it failed): invalidated once committed, owed until then.
+      const tags = await listVersionCacheTags({ versionId, db: tx });
+      return { tags, owed: await oweInvalidation(tx, tags) };
     });
-    return true;
+    return { appended: true, invalidation };
   } catch (err) {
     // Another run of the job fitted it meanwhile.
-    if ((err as { code?: string }).code === "23505" || (err as { cause?: { code?: string } }).cause?.code === "23505") return false;
+    if ((err as { code?: string }).code === "23505" || (err as { cause?: { code?: string } }).cause?.code === "23505")
+      return { appended: false };
     throw err;
   }
 }

@@ -11,7 +11,6 @@ import {
   listVersionIdsNotAnalysedBy,
 } from "./queries";
 import { invalidatePublicCache } from "@/lib/public-cache";
-import { listVersionCacheTags } from "@/lib/reactions/public-queries";
 import { queueWatchNotice } from "@/lib/watches/notify";
 
 /**
@@ -29,14 +28,14 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
   const latest = await getLatestAnalysisEngine({ versionId });
   if (latest?.engineVersion === ENGINE_VERSION) return "current";
   const checks = latest?.checks ?? [];
-  const append = (result: Record<string, unknown> | null, error?: string) =>
-    appendRefitAnalysis({ versionId, engineVersion: ENGINE_VERSION, result, checks, error });
-  /** A failed re-fit stored as the newest analysis: the version's pages no longer show a fit, and are told so. */
-  const failed = async (error: string) => {
-    if (!(await append(null, error))) return "current" as const;
-    await invalidatePublicCache(await listVersionCacheTags({ versionId }));
-    return "invalid" as const;
+  /** Appends the analysis; a public version's pages then show the newest fit (or none, when it failed), and are told so. */
+  const append = async (result: Record<string, unknown> | null, error?: string) => {
+    const done = await appendRefitAnalysis({ versionId, engineVersion: ENGINE_VERSION, result, checks, error });
+    if (done.appended && done.invalidation) await invalidatePublicCache(done.invalidation.tags, { owed: done.invalidation.owed });
+    return done.appended;
   };
+  /** A failed re-fit stored as the newest analysis: the version's pages no longer show a fit. */
+  const failed = async (error: string) => ((await append(null, error)) ? ("invalid" as const) : ("current" as const));
   const checked = await runAnalysisTask("checkDocument", payload, { background: true });
   if (!checked.ok) return failed(`stored document no longer validates: ${checked.errors[0].message}`);
   if (!checked.analysis.ok) return failed(checked.analysis.message);
@@ -49,8 +48,6 @@ export async function refitVersion({ versionId }: { versionId: number }): Promis
   if (before.isPublic && after.join(",") !== [...before.codes].sort().join(",")) {
     await queueWatchNotice({ versionId, event: "flags_changed", at: new Date().toISOString() });
   }
-  // A public version's pages show the newest fit.
-  await invalidatePublicCache(await listVersionCacheTags({ versionId }));
   return "refitted";
 }
 

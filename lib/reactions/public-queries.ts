@@ -1,6 +1,6 @@
 import "server-only";
 import { sql, type SQL } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Database, type Transaction } from "@/db/client";
 import { REACTION_CLASSES, RETIRED_REACTION_CLASS_IDS, type ReactionClassId } from "@/lib/deposits/vocabulary";
 import { reactionDisplayEquation, speciesDisplayName } from "./display-names";
 import { classTag, datasetTag, PUBLIC_TAG, reactionTag, SEARCH_TAG, speciesTag } from "@/lib/public-cache";
@@ -169,8 +169,14 @@ export async function listPublicVersionPages() {
  * public versions and this one (a new version may move the dataset to another reaction), their
  * species and classes, every listing and search. Read after the change committed.
  */
-export async function listVersionCacheTags({ versionId }: { versionId: number }): Promise<string[]> {
-  const rows = await getDb().execute<{ dataset_id: number; reaction_id: number | null; class: string | null; keys: string[] | null }>(sql`
+export async function listVersionCacheTags({
+  versionId,
+  db = getDb(),
+}: {
+  versionId: number;
+  db?: Database | Transaction;
+}): Promise<string[]> {
+  const rows = await db.execute<{ dataset_id: number; reaction_id: number | null; class: string | null; keys: string[] | null }>(sql`
     select w.dataset_id, w.reaction_id, ${classOf(sql`w.payload`)} as class,
       (select array_agg(s.inchi_key) from reaction_participants rp join species s on s.id = rp.species_id
         where rp.reaction_id = w.reaction_id) as keys

@@ -1,5 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { movePublicPagesMark, readPublicPagesMark } from "@/db/public-pages-mark";
+import { getDb } from "@/db/client";
+import { oweInvalidation } from "@/db/owed-invalidations";
+import { settleOverdueInvalidations } from "@/lib/public-cache";
 import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset } from "@/lib/datasets/deposits";
 import { keptPageKey, keptPagesInPostgres, keptPageTags, sweepKeptPages, type KeptPage } from "@/lib/kept-pages";
@@ -148,4 +151,36 @@ describe("pages kept in the database", () => {
     await movePublicPagesMark([`dataset:${b.dataset.split("/")[2]}`]);
     expect(await read(b.dataset)).toBeNull();
   });
+
+  it(
+    "a change's invalidation is owed from its transaction: made after the commit, or by the sweep when it was lost",
+    { timeout: 60_000 },
+    async () => {
+      const people = await createRolePeople("owed");
+      const a = await publishedAlkane("owed", people);
+      // The publication made its invalidation: nothing is owed for it.
+      expect(await sql`select 1 from owed_invalidations where ${`reaction:${a.reactionId}`} = any(tags)`).toHaveLength(0);
+
+      const store = keptPagesInPostgres({ build: `owed-build-${Date.now()}` });
+      await store.keep(keyOf(a.reaction)!, page("kept"), await readPublicPagesMark());
+      expect((await store.read(keyOf(a.reaction)!))?.body.toString()).toBe("kept");
+      // A change committed, and its process ended before invalidating: the row stays.
+      const owed = await getDb().transaction((tx) => oweInvalidation(tx, [`reaction:${a.reactionId}`, "search"]));
+      expect(await settleOverdueInvalidations()).toBe(0);
+      expect(await store.read(keyOf(a.reaction)!)).not.toBeNull();
+      // Once overdue, the sweep makes it: the page is rendered again and the row goes.
+      await sql`update owed_invalidations set created_at = now() - interval '1 minute' where id = ${owed}`;
+      expect(await settleOverdueInvalidations()).toBeGreaterThanOrEqual(1);
+      expect(await store.read(keyOf(a.reaction)!)).toBeNull();
+      expect(await sql`select 1 from owed_invalidations where id = ${owed}`).toHaveLength(0);
+      // A change rolled back owes nothing.
+      await getDb()
+        .transaction(async (tx) => {
+          await oweInvalidation(tx, ["rolled-back"]);
+          throw new Error("rolled back");
+        })
+        .catch(() => undefined);
+      expect(await sql`select 1 from owed_invalidations where 'rolled-back' = any(tags)`).toHaveLength(0);
+    },
+  );
 });
