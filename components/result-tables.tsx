@@ -92,7 +92,8 @@ export function ResultTables({
           Fitted parameters
         </h3>
         <ScrollRegion label="Fitted parameters (scrollable table)">
-          <table className="table [&_td]:whitespace-nowrap">
+          {/* Numbers stay on one line; the quantities' names wrap, so that on a phone the values are in view, not off to the side. */}
+          <table className="table [&_td]:whitespace-nowrap [&_td:first-child]:min-w-[8.5rem] [&_td:first-child]:whitespace-normal">
             <caption className="sr-only">Parameters of each model with standard errors</caption>
             <thead>
               <tr>

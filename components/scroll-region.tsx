@@ -34,8 +34,14 @@ export function ScrollRegion({
   }, []);
   // The scrolling box is positioned, so absolutely placed content (screen-reader-only labels in
   // cells) is clipped there too instead of widening the page.
+  // The note comes first: below a long table a reader would meet it only after the part cut off.
   return (
     <div className={`min-w-0 space-y-1 ${className}`}>
+      {overflows && (
+        <p className="text-xs text-muted" aria-hidden="true">
+          ↔ Wider than the screen: scroll sideways (or focus it and use the arrow keys) to see all of it.
+        </p>
+      )}
       <div
         ref={ref}
         role="region"
@@ -45,11 +51,6 @@ export function ScrollRegion({
       >
         {children}
       </div>
-      {overflows && (
-        <p className="text-xs text-muted" aria-hidden="true">
-          ↔ Wider than the screen: scroll sideways (or focus it and use the arrow keys) to see all of it.
-        </p>
-      )}
     </div>
   );
 }
