@@ -13,7 +13,7 @@ const PUBLIC_PAGES = ["/", "/reactions", "/analyse", "/docs/api", "/docs/deposit
  * role is checked on its other pages): opened as anonymous only; a dataset's series address (the
  * newest version's page again) as anonymous and as researcher.
  */
-const SAME_FOR_EVERY_SIGNED_IN_ROLE = new Set(["/analyse", "/docs/api", "/docs/deposit-format"]);
+const SAME_FOR_EVERYONE = new Set(["/analyse", "/docs/api", "/docs/deposit-format"]);
 const SIGNED_OUT_PAGES = ["/sign-in", "/sign-up", "/forgot-password", "/verify/resend"];
 
 const roles = {
@@ -34,7 +34,7 @@ async function firstLink(page: Page, path: string, pattern: RegExp): Promise<str
 async function pagesFor(page: Page, role: keyof typeof roles): Promise<string[]> {
   const staff = role === "curator" || role === "admin";
   const paths = [
-    ...PUBLIC_PAGES.filter((p) => role === "anonymous" || !SAME_FOR_EVERY_SIGNED_IN_ROLE.has(p)),
+    ...PUBLIC_PAGES.filter((p) => role === "anonymous" || !SAME_FOR_EVERYONE.has(p)),
     ...(role === "anonymous" ? SIGNED_OUT_PAGES : ["/settings"]),
   ];
   const reaction = await firstLink(page, "/reactions", /^\/reactions\/[A-Z0-9.*+~-]+$/);
