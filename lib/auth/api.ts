@@ -199,15 +199,15 @@ export function withApi<P = Record<string, string>>(
       const unavailable = databaseUnavailable(err);
       if (unavailable) {
         console.warn(`[api] ${req.method} ${instance}: database out of reach`, (err as Error).message);
-        return problemResponse(unavailable, instance);
+        return counted(problemResponse(unavailable, instance));
       }
       const refused = storageRefusal(err);
       if (refused) {
         console.warn(`[api] ${req.method} ${instance}: input refused by the database`, err);
-        return problemResponse(refused, instance);
+        return counted(problemResponse(refused, instance));
       }
       console.error(`[api] ${req.method} ${instance} failed`, err);
-      return problemResponse(new AppError("internal", "Something went wrong on our side; it has been logged"), instance);
+      return counted(problemResponse(new AppError("internal", "Something went wrong on our side; it has been logged"), instance));
     }
   };
   // Exposed so a test can compare every endpoint with the published scope table.

@@ -158,7 +158,13 @@ async function answerKept(
     if (budget.spent) return false;
     console.warn(`[api] ${req.method} ${route.path}: database out of reach`, (err as Error).message);
     const problem = problemResponse(unavailable, route.path);
-    await writeAnswer(req, res, problem.status, headersOf(problem), new Uint8Array(await problem.arrayBuffer()));
+    await writeAnswer(
+      req,
+      res,
+      problem.status,
+      { ...headersOf(problem), ...apiBudgetHeaders(budget) },
+      new Uint8Array(await problem.arrayBuffer()),
+    );
     return true;
   }
   const replay = bytes && replayHeaders.get(bytes);

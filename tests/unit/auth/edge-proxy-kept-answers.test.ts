@@ -106,6 +106,9 @@ describe("kept answers sent by the front server without running the route", () =
     expect(res.headers["retry-after"]).toBe("5");
     expect(res.headers["content-type"]).toMatch(/^application\/problem\+json/);
     expect(JSON.parse(res.body.toString())).toMatchObject({ status: 503, instance: "/api/v1/search" });
+    // Counted, and it says so, as every answer after the count does.
+    expect(res.headers.ratelimit).toMatch(/^"api";r=\d+;t=\d+$/);
+    expect(res.headers["ratelimit-policy"]).toMatch(/^"api";q=\d+;w=\d+$/);
   });
 
   it("never sends bytes the route has not sent itself, and only for the search (not its suggestions)", async () => {
