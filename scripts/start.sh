@@ -27,9 +27,28 @@ TSX=(node_modules/.bin/tsx --conditions=react-server)
 "${TSX[@]}" scripts/seed.ts
 unset MIGRATION_DATABASE_URL # the server runs as the runtime role only
 
-if [ "${SKIP_BUILD:-0}" != "1" ]; then
+# What the production build is made of: every file but scripts/, tests/ and Markdown, as committed,
+# as changed since and as newly added (contents, not names only), and the NEXT_PUBLIC_ variables.
+# Empty when git cannot say (no checkout): the build is then always made.
+build_stamp() {
+  local paths=(-- . ':!scripts' ':!tests' ':!*.md') listing
+  listing="$({ git ls-files --stage "${paths[@]}" && git diff HEAD "${paths[@]}" &&
+    git ls-files -z --others --exclude-standard "${paths[@]}" | xargs -0 -r sha256sum; } 2>/dev/null)" || return 0
+  printf '%s\n%s\n' "$listing" "$(env | grep '^NEXT_PUBLIC_' | sort || true)" | sha256sum | cut -d' ' -f1
+}
+DIST="$ROOT/${NEXT_DIST_DIR:-.next}"
+STAMP=""
+if git -C "$ROOT" rev-parse --git-dir >/dev/null 2>&1; then STAMP="$(build_stamp)"; fi
+if [ "${SKIP_BUILD:-0}" = "1" ]; then
+  :
+elif [ -n "$STAMP" ] && [ -f "$DIST/BUILD_ID" ] && [ "$(cat "$DIST/arrhenia-build-stamp" 2>/dev/null)" = "$STAMP" ]; then
+  # The same build id then serves the pages it kept in the database (lib/kept-pages.ts) again.
+  log "reusing the production build in $DIST (nothing it is made from changed since it was made)"
+else
   log "building (next build)"
+  rm -f "$DIST/arrhenia-build-stamp"
   node_modules/.bin/next build >"$ROOT/.data/build.log" 2>&1 || { tail -n 40 "$ROOT/.data/build.log"; die "build failed (full log: .data/build.log)"; }
+  [ -z "$STAMP" ] || echo "$STAMP" >"$DIST/arrhenia-build-stamp"
 fi
 # The front server's heap budget (FRONT_HEAP_MB, lib/config.ts frontHeapMb; serve.ts checks its range).
 FRONT_HEAP_MB="${FRONT_HEAP_MB:-384}"
