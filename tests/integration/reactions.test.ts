@@ -4,7 +4,7 @@ import { depositNewDataset, startNextVersion, updateDraft } from "@/lib/datasets
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
 import { countPublicData, getReaction, listPublicVersionsOfReaction } from "@/lib/reactions/queries";
 import { createUser } from "@/lib/users/queries";
-import { sql, uniqueEmail } from "./helpers";
+import { createRolePeople, sql, uniqueEmail } from "./helpers";
 
 describe("datasets of the same reaction meet on one reaction", () => {
   it("lists only public versions, newest per dataset, with points and analysis", async () => {
@@ -51,14 +51,7 @@ describe("datasets of the same reaction meet on one reaction", () => {
 
 describe("the home page's figures", () => {
   it("count each dataset once, by its newest public version: a revision adds no points of its earlier version, a retraction takes the dataset out", async () => {
-    const owner = await createUser({ email: uniqueEmail("cnt"), name: "Count Owner", passwordHash: "x", verified: true });
-    const curator = await createUser({
-      email: uniqueEmail("cntc"),
-      name: "Count Curator",
-      passwordHash: "x",
-      role: "curator",
-      verified: true,
-    });
+    const { owner, curator } = await createRolePeople("count");
     const publish = async (versionId: number) => {
       await applyTransition({ versionId, actorId: owner.id, transition: "submit" });
       await applyTransition({ versionId, actorId: curator.id, transition: "accept", reason: "Consistent." });
