@@ -36,6 +36,7 @@ const variables = {
   HOST: { schema: z.string().regex(/^[\w.:-]+$/, "must be a host name or an IP address") },
   INNER_PORT: { schema: port },
   RENDER_CONCURRENCY: { schema: wholeNumber(1, 256) },
+  RENDER_AHEAD: { schema: flag },
   NEXT_DIST_DIR: { schema: z.string().regex(/^[\w.\/-]+$/, "must be a folder name such as .next") },
   SMTP_URL: { schema: z.string().regex(/^smtps?:\/\/\S+$/, "must be an smtp:// or smtps:// URL"), secret: true },
   MAIL_CAPTURE_PORT: { schema: port },
@@ -265,6 +266,11 @@ export function storageDir(): string | undefined {
 /** Whether the demo seed adds its invented datasets (SEED_DATASETS=0 seeds the people only). */
 export function seedsDemoDatasets(): boolean {
   return read("SEED_DATASETS") !== "0";
+}
+
+/** Whether the front server renders the public pages ahead of their readers (lib/render-ahead.ts); on unless RENDER_AHEAD=0. */
+export function renderAhead(): boolean {
+  return read("RENDER_AHEAD") !== "0";
 }
 
 /** Whether scripts/serve.ts keeps its start-up banner to itself. */

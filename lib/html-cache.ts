@@ -61,6 +61,9 @@ const BYPASS_HEADERS = [
 /** The longest Accept or Accept-Encoding a request may carry and still be answered from the cache. */
 const MAX_KEYED_HEADER = 256;
 
+/** The request header (with the per-start key) that marks a render ahead of readers (lib/render-ahead.ts). */
+export const RENDER_AHEAD_HEADER = "x-arrhenia-render-ahead";
+
 /** Response header saying whether the answer came from memory (`hit`), from the kept pages (`kept`), or was rendered and stored (`miss`). */
 export const HTML_CACHE_HEADER = "x-arrhenia-html-cache";
 
@@ -81,6 +84,12 @@ export interface HtmlCacheOptions {
   waitForRenderMs?: number;
   /** Pages kept in the database by what they show (lib/kept-pages.ts); used only with `mark`. */
   kept?: KeptPages;
+  /**
+   * The per-start key of the renders ahead of readers (lib/render-ahead.ts): a request carrying it in
+   * RENDER_AHEAD_HEADER is rendered (never answered from memory or the kept pages) and its page kept
+   * in the database only, not in memory, whose room is for the pages readers read.
+   */
+  aheadKey?: string;
   now?: () => number;
 }
 
@@ -220,6 +229,7 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       }
     }
     const s = store();
+    const ahead = options.aheadKey !== undefined && req.headers[RENDER_AHEAD_HEADER] === options.aheadKey;
     /** Answers from memory when a page is kept for this request's mark. */
     const served = (): boolean => {
       const hit = s.entries.get(key);
@@ -237,34 +247,42 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       res.end(hit.body);
       return true;
     };
-    if (served()) return;
+    if (!ahead && served()) return;
     const generation = s.generation;
     const keptKey = options.kept && options.mark ? options.kept.keyOf(req) : null;
-    if (keptKey !== null) {
+    /** Answers from the kept pages when they hold this page. */
+    const servedKept = async (): Promise<boolean> => {
+      if (keptKey === null) return false;
       const page = await options.kept!.read(keptKey).catch(() => null);
-      if (res.destroyed || served()) return;
-      if (page) {
-        if (s.generation === generation) remember(s, key, mark, page, now(), options.maxBytes);
-        req.resume();
-        res.writeHead(page.status, { ...page.headers, [HTML_CACHE_HEADER]: "kept", "content-length": page.body.length });
-        res.end(page.body);
-        return;
-      }
-    }
+      if (res.destroyed || served()) return true;
+      if (!page) return false;
+      if (s.generation === generation) remember(s, key, mark, page, now(), options.maxBytes);
+      req.resume();
+      res.writeHead(page.status, { ...page.headers, [HTML_CACHE_HEADER]: "kept", "content-length": page.body.length });
+      res.end(page.body);
+      return true;
+    };
+    if (!ahead && (await servedKept())) return;
     // The same page being rendered for another anonymous reader (a popular page just after a change
     // emptied the cache): wait for that render rather than start another, then take what it kept.
     const slot = `${mark}\u0000${key}`;
     const underWay = s.rendering.get(slot);
+    /** The kept copy being written (the waiting requests read it once written). */
+    let keeping: Promise<void> | undefined;
     if (underWay) {
       await waitAtMost(underWay, options.waitForRenderMs ?? WAIT_FOR_RENDER_MS);
       if (res.destroyed || served()) return;
+      // A render ahead of readers is kept in the database only.
+      if (!ahead && (await servedKept())) return;
     } else {
       let finished!: () => void;
       s.rendering.set(slot, new Promise<void>((resolve) => (finished = resolve)));
       // After the answer was stored (at its end) or given up (its client left).
       res.once("close", () => {
-        s.rendering.delete(slot);
-        finished();
+        void Promise.resolve(keeping).finally(() => {
+          s.rendering.delete(slot);
+          finished();
+        });
       });
     }
     const chunks: Buffer[] = [];
@@ -321,8 +339,8 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
         delete headers["keep-alive"];
         // A replay is dated when it is sent (Node adds the Date of each answer); one passed on from Next carries its render's.
         delete headers.date;
-        remember(s, key, mark, { status, headers, body }, now(), options.maxBytes);
-        if (keptKey !== null) void options.kept!.keep(keptKey, { status, headers, body }, mark);
+        if (!ahead) remember(s, key, mark, { status, headers, body }, now(), options.maxBytes);
+        if (keptKey !== null) keeping = options.kept!.keep(keptKey, { status, headers, body }, mark);
       }
       return result;
     }) as typeof res.end;

@@ -26,8 +26,9 @@ import { nameTag } from "@/lib/public-cache";
  *   its tags moved after the mark read when its request arrived (`rendered_at`), so a render that
  *   may have read the data before a change is never taken for one after it;
  * - the build and the public address (`build`): another build renders anew;
- * - a lifetime, `KEPT_PAGE_HOURS`: an invalidation runs after its change committed, and one lost (a
- *   crash between the two) is outlived;
+ * - a lifetime, `KEPT_PAGE_HOURS`: the changes to what pages show owe their invalidation from their own
+ *   transaction (db/owed-invalidations.ts), but a few account changes (a creator's link or iD on a
+ *   dataset page) invalidate after their commit only, and one lost in a crash between the two is outlived;
  * - the same rules as the memory cache for what is kept at all (lib/html-cache.ts: anonymous GETs
  *   of a 200 HTML answer without Set-Cookie), and here only the page's own canonical address, with no
  *   query (the default units and data choice), so the rows are bounded by the public pages: one per
@@ -35,7 +36,7 @@ import { nameTag } from "@/lib/public-cache";
  */
 
 /** How long a kept page is served at most, in hours. */
-export const KEPT_PAGE_HOURS = 6;
+export const KEPT_PAGE_HOURS = 24;
 
 const DATASET_VERSION = /^\/datasets\/([1-9]\d{0,9})\/v([1-9]\d{0,9})$/;
 const REACTION = /^\/reactions\/([^/]+)$/;
@@ -119,6 +120,11 @@ export async function keptPageTags(path: string): Promise<string[] | null> {
   return [`species:${kind.inchiKey}`, ...rows.map((r) => nameTag(Number(r.species_id))), ALL_PAGES_TAG];
 }
 
+/** The condition on a kept_pages row `p` that it may be served: of this build, within its lifetime, none of its tags moved since its render. */
+export const servable = ({ build, hours = KEPT_PAGE_HOURS }: { build: string; hours?: number }) => sql`(p.build = ${build}
+  and p.kept_at > now() - make_interval(hours => ${hours})
+  and not exists (select 1 from page_tag_moves m where m.tag = any(p.tags) and m.moved > p.rendered_at))`;
+
 /** Headers a kept page is not sent with again: framing and the answer's own date are the replay's. */
 const NOT_KEPT_HEADERS = ["transfer-encoding", "content-length", "connection", "keep-alive", "date", "set-cookie"];
 
@@ -128,9 +134,7 @@ export function keptPagesInPostgres({ build, hours = KEPT_PAGE_HOURS }: { build:
     keyOf: keptPageKey,
     async read(key) {
       const [row] = await getDb().execute<{ status: number; headers: http.OutgoingHttpHeaders; body: Buffer }>(sql`
-        select p.status, p.headers, p.body from kept_pages p
-        where p.key = ${key} and p.build = ${build} and p.kept_at > now() - make_interval(hours => ${hours})
-          and not exists (select 1 from page_tag_moves m where m.tag = any(p.tags) and m.moved > p.rendered_at)`);
+        select p.status, p.headers, p.body from kept_pages p where p.key = ${key} and ${servable({ build, hours })}`);
       return row ? { status: Number(row.status), headers: row.headers, body: Buffer.from(row.body) } : null;
     },
     async keep(key, page, mark) {

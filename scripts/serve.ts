@@ -19,6 +19,7 @@ import {
   innerPort as configuredInnerPort,
   nextDistDir,
   nextHeapMb,
+  renderAhead,
   orcidSettings,
   orcidStandInPort,
   serveQuiet,
@@ -46,6 +47,7 @@ import { loadFrontRoutes } from "@/lib/http/front-routes";
 import { PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
 import { readPublicPagesMark } from "@/db/public-pages-mark";
 import { keptPagesInPostgres, sweepKeptPages } from "@/lib/kept-pages";
+import { askFrontServer, READER_LULL_MS, startRenderAhead } from "@/lib/render-ahead";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 
@@ -69,6 +71,8 @@ process.env.ARRHENIA_EDGE_KEY = edgeKey;
 // Another per-start secret: the workers below tell Next which public data a re-fit changed (lib/public-cache.ts).
 const cacheKey = randomBytes(24).toString("hex");
 process.env[CACHE_KEY_ENV] = cacheKey;
+// And one for the renders ahead of readers (lib/render-ahead.ts), which the front server keeps out of its memory.
+const aheadKey = randomBytes(24).toString("hex");
 
 const sql = postgres(databaseUrl(), { max: 2, onnotice: () => {} });
 const capture = usesMailCapture() ? await startCaptureServer({ sql, port: captureSmtpPort() }) : null;
@@ -105,13 +109,15 @@ const next = spawn(
   },
 );
 // Set once the front server listens; stop() may run before that (Next exiting during warm-up).
-const running: { edge?: Awaited<ReturnType<typeof startEdgeProxy>> } = {};
+const running: { edge?: Awaited<ReturnType<typeof startEdgeProxy>>; ahead?: ReturnType<typeof startRenderAhead> } = {};
 let stopping = false;
 async function stop(code: number) {
   if (stopping) return;
   stopping = true;
+  const ahead = running.ahead?.stop();
   next.kill("SIGTERM");
   await Promise.allSettled([
+    ahead,
     running.edge?.close(),
     workers.stop(),
     capture?.close(),
@@ -173,8 +179,23 @@ running.edge = await startEdgeProxy({
     // Dataset version, reaction and species pages are kept in the database as well (lib/kept-pages.ts),
     // by this build and public address.
     kept: keptPagesInPostgres({ build: keptBuild }),
+    aheadKey,
   },
 });
+// Every public page without a kept copy is rendered ahead of its first reader, one at a time while
+// no reader's page is rendering (lib/render-ahead.ts). RENDER_AHEAD=0 leaves it to the readers.
+if (renderAhead()) {
+  const edge = running.edge;
+  running.ahead = startRenderAhead({
+    build: keptBuild,
+    ask: askFrontServer({ host, port: edge.port, key: aheadKey, publicHost: new URL(appUrl()).host }),
+    // Readers first: nothing is rendered ahead while a reader's page renders, nor until readers' requests pause (READER_LULL_MS).
+    busy: () => {
+      const readers = edge.readers();
+      return readers.rendering > 0 || readers.quietMs < READER_LULL_MS;
+    },
+  });
+}
 
 if (!quiet) {
   const width = Math.max(...demoAccounts.map((a) => a.email.length));

@@ -9,7 +9,8 @@ import proxyaddr from "proxy-addr";
 import { ActionBodyGuard, isActionRequest, isApiPath, pagePath } from "./action-body-guard";
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER, UNKNOWN_ADDRESS } from "./client-address";
 import { answerHere, frontRoute } from "@/lib/http/front-routes";
-import { withHtmlCache, type HtmlCacheOptions } from "@/lib/html-cache";
+import { RENDER_AHEAD_HEADER, withHtmlCache, type HtmlCacheOptions } from "@/lib/html-cache";
+import { isGatedRender } from "@/lib/http/render-gate";
 
 export type TrustProxy = (address: string, hop: number) => boolean;
 
@@ -221,6 +222,11 @@ export async function startEdgeProxy({
   const ownHost = new URL(appOrigin).host;
   // What passOn needs of a request that goes through the page cache first.
   const passing = new WeakMap<http.IncomingMessage, { headers: http.OutgoingHttpHeaders; action: boolean }>();
+  /** Readers' page requests passed on to Next and not yet answered, and when a reader's request last arrived (lib/render-ahead.ts waits for a lull). */
+  let readersRendering = 0;
+  let readerArrivedAt = 0;
+  const isAhead = (req: http.IncomingMessage) =>
+    pageCache?.aheadKey !== undefined && req.headers[RENDER_AHEAD_HEADER] === pageCache.aheadKey;
   const cachedPassOn = pageCache ? withHtmlCache((req, res) => passOn(req, res, passing.get(req)!), pageCache) : null;
   /** A request whose handling threw (or rejected): a 500 if nothing was sent yet, else the connection is cut. */
   const failed = (req: http.IncomingMessage, res: http.ServerResponse, err: unknown) => {
@@ -237,6 +243,7 @@ export async function startEdgeProxy({
     }
   });
   const handleRequest = (req: http.IncomingMessage, res: http.ServerResponse) => {
+    if (!isAhead(req)) readerArrivedAt = performance.now();
     // A client whose connection is already gone (reset before its request was read) has no address and wants no answer.
     if (req.socket.remoteAddress === undefined) {
       req.socket.destroy();
@@ -291,6 +298,11 @@ export async function startEdgeProxy({
     res: http.ServerResponse,
     { headers, action }: { headers: http.OutgoingHttpHeaders; action: boolean },
   ) => {
+    // A reader's page on its way to Next (not one rendered ahead of readers): the renders ahead wait for it.
+    if (isGatedRender(req) && !isAhead(req)) {
+      readersRendering += 1;
+      res.once("close", () => (readersRendering -= 1));
+    }
     // Server actions: Next reads the whole body before any code of ours runs, so it is capped here.
     const limit = action ? actionBodyLimit(req.url) : Infinity;
     const tooLarge = () => refuse(res, 413, "payload_too_large", "Payload too large", `A form may send at most ${limit / 1024 / 1024} MB.`);
@@ -410,6 +422,8 @@ export async function startEdgeProxy({
   const bound = server.address() as AddressInfo;
   return {
     port: bound.port,
+    /** Readers' pages being rendered by Next now, and how long ago (ms) a reader's request last arrived. */
+    readers: () => ({ rendering: readersRendering, quietMs: performance.now() - readerArrivedAt }),
     close: () =>
       new Promise<void>((resolve) => {
         agent.destroy();

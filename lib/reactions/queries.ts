@@ -8,6 +8,8 @@ import { searchReactionSummaries } from "@/db/search";
 import { recordAuditEvent } from "@/lib/audit/record";
 import { AppError } from "@/lib/errors";
 import { writeReactionSummary } from "@/lib/search/documents";
+import { oweInvalidation } from "@/db/owed-invalidations";
+import { reactionTag, SEARCH_TAG } from "@/lib/public-cache";
 import type { CuratorExclusion } from "./consensus-selection";
 import { reactionDisplayEquation, speciesDisplayName } from "./display-names";
 
@@ -281,7 +283,7 @@ export async function saveConsensusExclusion({ versionId, actorId, reason }: { v
     });
     // The reactions view of search shows this consensus: rewritten with the exclusion.
     if (reactionId !== null) await writeReactionSummary(tx, reactionId);
-    return { reactionId, changed: !!before };
+    return { reactionId, changed: !!before, invalidation: await oweConsensusInvalidation(tx, reactionId) };
   });
 }
 
@@ -302,8 +304,19 @@ export async function deleteConsensusExclusion({ versionId, actorId }: { version
       details: { reactionId, previousReason: removed.reason },
     });
     if (reactionId !== null) await writeReactionSummary(tx, reactionId);
-    return { reactionId };
+    return { reactionId, invalidation: await oweConsensusInvalidation(tx, reactionId) };
   });
+}
+
+/**
+ * The pages a consensus change shows on (the reaction's, its datasets', its species', search),
+ * owed from the change's transaction (db/owed-invalidations.ts): made by the caller once committed,
+ * or by the front server's sweep if the caller never gets to it.
+ */
+async function oweConsensusInvalidation(tx: Transaction, reactionId: number | null) {
+  if (reactionId === null) return null;
+  const tags = [reactionTag(reactionId), SEARCH_TAG];
+  return { tags, owed: await oweInvalidation(tx, tags) };
 }
 
 /** The person's role on each of these datasets (absent when they hold none), for per-version capabilities. */

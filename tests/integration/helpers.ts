@@ -8,6 +8,8 @@ import { startCaptureServer } from "@/lib/mail/capture-server";
 import type { Transition } from "@/lib/curation/lifecycle";
 import { applyTransition } from "@/lib/curation/transitions";
 import { depositNewDataset } from "@/lib/datasets/deposits";
+import { reactionPath } from "@/lib/reactions/paths";
+import { labelledAlkaneDeposit } from "../fixtures/labelled-alkane-deposit";
 import { createUser, type UserDto } from "@/lib/users/queries";
 
 export const sql = postgres(databaseUrl(), { max: 3, onnotice: () => {} });
@@ -131,4 +133,23 @@ export async function depositInState({
     await applyTransition({ versionId: v.id, actorId: byOwner ? owner.id : curator.id, transition: t, reason });
   }
   return v;
+}
+
+/** A published dataset of a reaction of its own (an invented labelled alkane) and its pages. */
+export async function publishedAlkanePages(tag: string, people: RolePeople) {
+  const document = labelledAlkaneDeposit({ title: `Kept pages ${tag}`, name: `kept-${tag}-alkane` });
+  const v = await depositInState({ ...people, document, state: "published" });
+  const [row] = await sql<{ dataset_id: number; reaction_id: number; key: string; alkane: string }[]>`
+    select v.dataset_id, v.reaction_id, r.key,
+      (select s.inchi_key from reaction_participants p join species s on s.id = p.species_id
+        where p.reaction_id = r.id and p.side = 'reactant' and s.formula <> 'HO' order by s.id limit 1) as alkane
+    from dataset_versions v join reactions r on r.id = v.reaction_id where v.id = ${v.id}`;
+  return {
+    document,
+    versionId: v.id,
+    reactionId: row.reaction_id,
+    dataset: `/datasets/${row.dataset_id}/v1`,
+    reaction: reactionPath(row.key),
+    species: `/species/${row.alkane}`,
+  };
 }

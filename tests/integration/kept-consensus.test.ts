@@ -75,10 +75,15 @@ describe("the consensus kept with a reaction's summary", () => {
     expect((await keptRow())?.result?.T0).not.toBe(123.5);
     await expectSameAsEngine();
     const before = (await keptRow())?.input;
-    await saveConsensusExclusion({ versionId: third.versionId, actorId: curator.id, reason: "Calibration in doubt." });
+    const excluded = await saveConsensusExclusion({ versionId: third.versionId, actorId: curator.id, reason: "Calibration in doubt." });
     expect((await keptRow())?.input).not.toBe(before);
     await expectSameAsEngine();
-    await deleteConsensusExclusion({ versionId: third.versionId, actorId: curator.id });
+    // The pages it shows on are owed their invalidation from the exclusion's own transaction (made by the caller, else by the sweep).
+    expect(excluded.invalidation?.tags).toContain(`reaction:${reactionId}`);
+    const [owed] = await sql<{ tags: string[] }[]>`select tags from owed_invalidations where id = ${excluded.invalidation!.owed}`;
+    expect(owed.tags).toEqual(excluded.invalidation!.tags);
+    const included = await deleteConsensusExclusion({ versionId: third.versionId, actorId: curator.id });
+    expect(included.invalidation?.tags).toContain(`reaction:${reactionId}`);
     expect((await keptRow())?.input).toBe(before);
     await expectSameAsEngine();
   });

@@ -8,8 +8,7 @@ import { depositNewDataset } from "@/lib/datasets/deposits";
 import { keptPageKey, keptPagesInPostgres, keptPageTags, sweepKeptPages, type KeptPage } from "@/lib/kept-pages";
 import { reactionPath } from "@/lib/reactions/paths";
 import { rebuildStaleComparisonBases } from "@/lib/search/documents";
-import { labelledAlkaneDeposit } from "../fixtures/labelled-alkane-deposit";
-import { createRolePeople, depositInState, sql } from "./helpers";
+import { createRolePeople, publishedAlkanePages, sql } from "./helpers";
 
 const GZIP = "gzip, deflate, br, zstd";
 const BROWSER_ACCEPT = "text/html,application/xhtml+xml,application/xml;q=0.9,*/*;q=0.8";
@@ -20,25 +19,6 @@ const page = (text: string): KeptPage => ({
   headers: { "content-type": "text/html; charset=utf-8", "content-encoding": "gzip", vary: "rsc" },
   body: Buffer.from(text),
 });
-
-/** A published dataset of a reaction of its own (an invented labelled alkane) and its pages. */
-async function publishedAlkane(tag: string, people: Awaited<ReturnType<typeof createRolePeople>>) {
-  const document = labelledAlkaneDeposit({ title: `Kept pages ${tag}`, name: `kept-${tag}-alkane` });
-  const v = await depositInState({ ...people, document, state: "published" });
-  const [row] = await sql<{ dataset_id: number; reaction_id: number; key: string; alkane: string }[]>`
-    select v.dataset_id, v.reaction_id, r.key,
-      (select s.inchi_key from reaction_participants p join species s on s.id = p.species_id
-        where p.reaction_id = r.id and p.side = 'reactant' and s.formula <> 'HO' order by s.id limit 1) as alkane
-    from dataset_versions v join reactions r on r.id = v.reaction_id where v.id = ${v.id}`;
-  return {
-    document,
-    versionId: v.id,
-    reactionId: row.reaction_id,
-    dataset: `/datasets/${row.dataset_id}/v1`,
-    reaction: reactionPath(row.key),
-    species: `/species/${row.alkane}`,
-  };
-}
 
 describe("pages kept in the database", () => {
   it("are keyed by their canonical address and body encoding only", () => {
@@ -61,8 +41,8 @@ describe("pages kept in the database", () => {
 
   it("are served while nothing they show changed, and rendered again when it did", { timeout: 120_000 }, async () => {
     const people = await createRolePeople("kept");
-    const a = await publishedAlkane("a", people);
-    const b = await publishedAlkane("b", people);
+    const a = await publishedAlkanePages("a", people);
+    const b = await publishedAlkanePages("b", people);
     const build = `test-build-${Date.now()}`;
     const store = keptPagesInPostgres({ build });
 
@@ -157,7 +137,7 @@ describe("pages kept in the database", () => {
     { timeout: 60_000 },
     async () => {
       const people = await createRolePeople("owed");
-      const a = await publishedAlkane("owed", people);
+      const a = await publishedAlkanePages("owed", people);
       // The publication made its invalidation: nothing is owed for it.
       expect(await sql`select 1 from owed_invalidations where ${`reaction:${a.reactionId}`} = any(tags)`).toHaveLength(0);
 

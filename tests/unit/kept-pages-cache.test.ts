@@ -1,13 +1,14 @@
 import http from "node:http";
 import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
-import { clearHtmlCache, HTML_CACHE_HEADER, withHtmlCache } from "@/lib/html-cache";
+import { clearHtmlCache, HTML_CACHE_HEADER, htmlCacheSize, RENDER_AHEAD_HEADER, withHtmlCache } from "@/lib/html-cache";
 import { keptPageKey, type KeptPage, type KeptPages } from "@/lib/kept-pages";
 
 // The front server's page cache with pages kept in the database behind its memory (a stand-in for
 // lib/kept-pages.ts's store, with its real keys): what is read from there, what is written there.
 
 const SESSION = "next-auth.session-token=abc";
+const AHEAD_KEY = "ahead-key-of-this-start";
 let renders = 0;
 let mark = "10";
 let failReads = false;
@@ -41,7 +42,14 @@ let server: http.Server;
 let base = "";
 beforeAll(async () => {
   server = http.createServer(
-    withHtmlCache(page, { maxBytes: 1 << 20, maxEntryBytes: 1 << 16, ttlMs: 60_000, mark: async () => mark, kept: store }),
+    withHtmlCache(page, {
+      maxBytes: 1 << 20,
+      maxEntryBytes: 1 << 16,
+      ttlMs: 60_000,
+      mark: async () => mark,
+      kept: store,
+      aheadKey: AHEAD_KEY,
+    }),
   );
   await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
   base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
@@ -109,5 +117,26 @@ describe("pages kept in the database behind the memory cache", () => {
     const res = await get("/datasets/5/v3");
     expect(res).toMatchObject({ status: 200, cache: "miss" });
     expect(reads).toEqual(["/datasets/5/v3\nidentity"]);
+  });
+
+  it("a render ahead of readers is kept in the database, not in memory, and never answered from either", async () => {
+    const path = "/reactions/IUAWJZWBUGYCRS-UHFFFAOYSA-N+VNWKTOKETHGBQD-UHFFFAOYSA-N~XLYOFNOQVPJJNP-UHFFFAOYSA-N";
+    const key = `${path}\nidentity`;
+    const ahead = { [RENDER_AHEAD_HEADER]: AHEAD_KEY };
+    const before = renders;
+    const first = await get(path, ahead);
+    expect(first).toMatchObject({ status: 200, cache: "miss" });
+    await new Promise((r) => setTimeout(r, 10));
+    expect(kept.get(key)?.page.body.toString()).toBe(first.body);
+    expect(htmlCacheSize().entries).toBe(0);
+    // Asked again, it renders again (the loop asks only for pages without a kept copy).
+    expect((await get(path, ahead)).cache).toBe("miss");
+    expect(renders).toBe(before + 2);
+    // The first reader finds it kept, the next one in memory: no render.
+    expect(await get(path)).toMatchObject({ cache: "kept", body: kept.get(key)!.page.body.toString() });
+    expect((await get(path)).cache).toBe("hit");
+    expect(renders).toBe(before + 2);
+    // Another key in the header is an ordinary reader.
+    expect((await get(path, { [RENDER_AHEAD_HEADER]: "guess" })).cache).toBe("hit");
   });
 });

@@ -2,7 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { protectedAction } from "@/lib/auth/action";
-import { invalidatePublicCache, reactionTag, SEARCH_TAG } from "@/lib/public-cache";
+import { invalidatePublicCache } from "@/lib/public-cache";
 import { excludeFromConsensus, includeInConsensus } from "@/lib/reactions/exclusions";
 import { excludeFromConsensusSchema, includeInConsensusSchema } from "@/lib/reactions/schemas";
 
@@ -13,8 +13,8 @@ export const excludeFromConsensusAction = protectedAction(
   excludeFromConsensusSchema,
   { permission: "dataset.review" },
   async ({ versionId, reason }, user) => {
-    const { reactionId, changed } = await excludeFromConsensus({ actor: user, versionId, reason });
-    if (reactionId !== null) await invalidatePublicCache([reactionTag(reactionId), SEARCH_TAG]);
+    const { invalidation, changed } = await excludeFromConsensus({ actor: user, versionId, reason });
+    if (invalidation) await invalidatePublicCache(invalidation.tags, { owed: invalidation.owed });
     revalidatePath("/reactions/[id]", "page");
     return { status: "ok", message: changed ? "Reason changed." : "Left out of the consensus." };
   },
@@ -24,8 +24,8 @@ export const includeInConsensusAction = protectedAction(
   includeInConsensusSchema,
   { permission: "dataset.review" },
   async ({ versionId }, user) => {
-    const { reactionId } = await includeInConsensus({ actor: user, versionId });
-    if (reactionId !== null) await invalidatePublicCache([reactionTag(reactionId), SEARCH_TAG]);
+    const { invalidation } = await includeInConsensus({ actor: user, versionId });
+    if (invalidation) await invalidatePublicCache(invalidation.tags, { owed: invalidation.owed });
     revalidatePath("/reactions/[id]", "page");
     return { status: "ok", message: "Included in the consensus again." };
   },

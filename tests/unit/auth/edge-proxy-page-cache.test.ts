@@ -1,6 +1,6 @@
 import http from "node:http";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
-import { clearHtmlCache, HTML_CACHE_HEADER } from "@/lib/html-cache";
+import { clearHtmlCache, HTML_CACHE_HEADER, RENDER_AHEAD_HEADER } from "@/lib/html-cache";
 import { startFrontBefore } from "./front-server";
 
 // The front server's page cache (lib/html-cache.ts through lib/auth/edge-proxy.ts `pageCache`) before a
@@ -11,7 +11,9 @@ let markFails = false;
 const reached: string[] = [];
 
 let app: http.Server;
-let front: { port: number; close: () => Promise<void> };
+let front: Awaited<ReturnType<typeof startFrontBefore>>;
+/** Pages that answer only when released (to see what is counted while they render). */
+const held = new Map<string, () => void>();
 
 beforeAll(async () => {
   app = http.createServer((req, res) => {
@@ -19,6 +21,10 @@ beforeAll(async () => {
     renders += 1;
     req.resume();
     req.on("end", () => {
+      if (req.url?.startsWith("/classes/held")) {
+        held.set(req.url, () => res.writeHead(200, { "content-type": "text/html; charset=utf-8" }).end("<p>held</p>"));
+        return;
+      }
       if (req.url?.split("?")[0] === "/classes/failing") {
         // As Next answers a page whose data it could not read and had not kept.
         res.statusCode = 500;
@@ -46,6 +52,7 @@ beforeAll(async () => {
         if (markFails) throw new Error("the database is out of reach");
         return mark;
       },
+      aheadKey: "ahead-key",
     },
   });
 });
@@ -68,6 +75,33 @@ async function get(path: string, headers: Record<string, string> = {}) {
 }
 
 describe("public pages kept by the front server", () => {
+  it("counts the readers' pages being rendered, not the renders ahead of readers nor the API", async () => {
+    expect(front.readers().rendering).toBe(0);
+    const waitFor = async (url: string) => {
+      while (!held.has(url)) await new Promise((r) => setTimeout(r, 5));
+    };
+    const reader = get("/classes/held-1");
+    await waitFor("/classes/held-1");
+    expect(front.readers().rendering).toBe(1);
+    const ahead = get("/classes/held-2", { [RENDER_AHEAD_HEADER]: "ahead-key" });
+    await waitFor("/classes/held-2");
+    expect(front.readers().rendering).toBe(1);
+    held.get("/classes/held-1")!();
+    expect((await reader).status).toBe(200);
+    // Counted until the answer's end was handed on (its "close"), a moment before or after the client read it.
+    for (let i = 0; i < 100 && front.readers().rendering > 0; i++) await new Promise((r) => setTimeout(r, 5));
+    expect(front.readers().rendering).toBe(0);
+    held.get("/classes/held-2")!();
+    expect((await ahead).status).toBe(200);
+    // Every reader's request counts as activity, a render ahead does not.
+    const quiet = front.readers().quietMs;
+    await get("/classes/r-ahead", { [RENDER_AHEAD_HEADER]: "ahead-key" });
+    expect(front.readers().quietMs).toBeGreaterThanOrEqual(quiet);
+    await get("/api/v1/anything");
+    expect(front.readers().rendering).toBe(0);
+    expect(front.readers().quietMs).toBeLessThan(quiet);
+  });
+
   it("answers a page read before without reaching the app, with the same body and a date of its own", async () => {
     const first = await get("/reactions/r-1");
     expect(first.cache).toBe("miss");
