@@ -617,7 +617,9 @@ try {
       log(`${s.name}: ${s.paths.length - unrendered.length} of ${s.paths.length} pages rendered ahead already, left out`);
       s.paths = unrendered;
     }
+    memory.phase = s.name;
     if (s.aheadKind) {
+      memory.phase = "waiting for the render ahead";
       ahead ??= await waitForRenderedAhead(env("BENCH_REPEAT_PAGES", 200));
       const sql = postgres(databaseUrl, { max: 1, onnotice: () => {} });
       s.paths = await aheadPaths(sql, AHEAD_PREFIX[s.aheadKind], env("BENCH_REPEAT_PAGES", 200)).finally(() => sql.end());
@@ -626,6 +628,7 @@ try {
         continue;
       }
     }
+    memory.phase = s.name;
     log(`${s.name}: ${await probe(s)}`);
     if (s.repeat) log(`${s.name}: read each of ${s.paths.length} once first (${(await primeAll(s.paths)).toFixed(1)} s)`);
     const stopChurn = s.churn ? churn() : null;
@@ -659,7 +662,7 @@ try {
     ]);
   console.log(formatTable(rows));
   console.log(
-    `\nserver peak RSS (process tree, ${memory.processes} processes): ${mib(memory.peak)}; start to first answer ${startSeconds.toFixed(1)} s`,
+    `\nserver peak RSS (process tree, ${memory.processes} processes): ${mib(memory.peak)} (${memory.atPeak.bytes.map(mib).join(" + ")}, during "${memory.atPeak.phase}"); start to first answer ${startSeconds.toFixed(1)} s`,
   );
   if (ahead) {
     const rate = ahead.keptWhileWaiting / ahead.waitedSeconds;

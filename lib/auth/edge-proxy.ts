@@ -191,6 +191,9 @@ export function forwardedHeaders(req: http.IncomingMessage, trust: TrustProxy, k
   return headers;
 }
 
+/** How long a reader's page request counts as a render under way at most (Next's render gate gives a place back after 2 s). */
+const RENDER_COUNTED_MS = 10_000;
+
 export async function startEdgeProxy({
   host,
   port,
@@ -201,6 +204,7 @@ export async function startEdgeProxy({
   bodyIdleTimeoutMs = BODY_IDLE_TIMEOUT_MS,
   answersHere = false,
   pageCache,
+  renderCountedMs = RENDER_COUNTED_MS,
 }: {
   host: string;
   port: number;
@@ -214,6 +218,8 @@ export async function startEdgeProxy({
   answersHere?: boolean;
   /** Keep public pages rendered for anonymous readers in this process (lib/html-cache.ts) and answer them from here. */
   pageCache?: HtmlCacheOptions;
+  /** How long a reader's page request counts in `readers().rendering` at most (RENDER_COUNTED_MS). */
+  renderCountedMs?: number;
 }) {
   const agent = new http.Agent({ keepAlive: true });
   // One connection per request: the second try of a GET whose kept-alive socket the app had closed.
@@ -299,9 +305,19 @@ export async function startEdgeProxy({
     { headers, action }: { headers: http.OutgoingHttpHeaders; action: boolean },
   ) => {
     // A reader's page on its way to Next (not one rendered ahead of readers): the renders ahead wait for it.
+    // Counted until its answer ends, or RENDER_COUNTED_MS at most: a reader who never reads the answer holds nothing back.
     if (isGatedRender(req) && !isAhead(req)) {
       readersRendering += 1;
-      res.once("close", () => (readersRendering -= 1));
+      let counted = true;
+      const done = () => {
+        if (!counted) return;
+        counted = false;
+        readersRendering -= 1;
+        clearTimeout(timer);
+      };
+      const timer = setTimeout(done, renderCountedMs);
+      timer.unref();
+      res.once("close", done);
     }
     // Server actions: Next reads the whole body before any code of ours runs, so it is capped here.
     const limit = action ? actionBodyLimit(req.url) : Infinity;

@@ -96,11 +96,16 @@ function rssBytes(pid: number): number {
 
 /** Samples the summed resident memory of `root`'s process tree every `everyMs` until stopped; `peak` is the largest sum seen. */
 export function sampleTreeMemory(root: number, everyMs = 250) {
-  const state = { peak: 0, processes: 0 };
+  const state = { peak: 0, processes: 0, atPeak: [] as number[], phase: "start-up", peakPhase: "" };
   const sample = () => {
     const tree = processTree(root);
-    const total = tree.reduce((sum, pid) => sum + rssBytes(pid), 0);
-    if (total > state.peak) state.peak = total;
+    const each = tree.map(rssBytes);
+    const total = each.reduce((sum, b) => sum + b, 0);
+    if (total > state.peak) {
+      state.peak = total;
+      state.atPeak = each;
+      state.peakPhase = state.phase;
+    }
     state.processes = tree.length;
   };
   sample();
@@ -111,6 +116,14 @@ export function sampleTreeMemory(root: number, everyMs = 250) {
     },
     get processes() {
       return state.processes;
+    },
+    /** Each process's RSS at the peak, largest first, and what the run was doing then. */
+    get atPeak() {
+      return { bytes: [...state.atPeak].sort((a, b) => b - a), phase: state.peakPhase };
+    },
+    /** Names what the run does from now on (reported with the peak). */
+    set phase(name: string) {
+      state.phase = name;
     },
     stop: () => clearInterval(timer),
   };

@@ -54,6 +54,7 @@ beforeAll(async () => {
       },
       aheadKey: "ahead-key",
     },
+    renderCountedMs: 1_000,
   });
 });
 
@@ -93,6 +94,15 @@ describe("public pages kept by the front server", () => {
     expect(front.readers().rendering).toBe(0);
     held.get("/classes/held-2")!();
     expect((await ahead).status).toBe(200);
+    // A reader whose page never ends is counted for a while only.
+    const stuck = get("/classes/held-3");
+    await waitFor("/classes/held-3");
+    expect(front.readers().rendering).toBe(1);
+    await new Promise((r) => setTimeout(r, 1_100));
+    expect(front.readers().rendering).toBe(0);
+    held.get("/classes/held-3")!();
+    await stuck;
+    expect(front.readers().rendering).toBe(0);
     // Every reader's request counts as activity, a render ahead does not.
     const quiet = front.readers().quietMs;
     await get("/classes/r-ahead", { [RENDER_AHEAD_HEADER]: "ahead-key" });
