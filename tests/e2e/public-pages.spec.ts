@@ -1,3 +1,5 @@
+import { existsSync, readdirSync, statSync } from "node:fs";
+import path from "node:path";
 import { expect, request as newRequest, test, type Page } from "@playwright/test";
 import { axeFindings } from "./pages/layout-checks";
 import { labelledAlkaneDeposit } from "../fixtures/labelled-alkane-deposit";
@@ -231,4 +233,15 @@ test("public pages are replayed to anonymous readers, never a draft: 404 before 
   }
   await anonymous.dispose();
   await researcher.dispose();
+});
+
+test("the pages' data cache stays in memory: rendering public pages writes nothing under the build's cache folder", async ({ request }) => {
+  // next.config.mjs isrFlushToDisk: its entries are keyed by the public pages' mark, so files written there would pile up for good.
+  const folder = path.join(process.env.NEXT_DIST_DIR ?? ".next", "cache", "fetch-cache");
+  const since = Date.now() - 1000;
+  // A query is never kept, so each of these is rendered now.
+  for (const address of ["/datasets/1/v1?fresh=1", "/reactions?fresh=1", "/classes?fresh=1"])
+    expect((await request.get(address)).status(), address).toBe(200);
+  const written = existsSync(folder) ? readdirSync(folder).filter((name) => statSync(path.join(folder, name)).mtimeMs >= since) : [];
+  expect(written).toEqual([]);
 });
