@@ -12,12 +12,16 @@ import { PointTable } from "./point-table";
 import { ReportedExpression, type ReportedExpressionSource } from "./reported-expression";
 import { ResultTables } from "./result-tables";
 
-/** Writes one unit choice into the address without a navigation, so a shared or reloaded link keeps it. */
+/**
+ * Writes one unit choice into the address without a navigation, so a shared or reloaded link keeps
+ * it. With no state of its own (null): Next then takes the new address into useSearchParams, which
+ * the other pickers of the page follow (components/exports/mechanism-download.tsx).
+ */
 function keepInAddress(name: string, value: string, fallback: string) {
   const url = new URL(window.location.href);
   if (value === fallback) url.searchParams.delete(name);
   else url.searchParams.set(name, value);
-  window.history.replaceState(window.history.state, "", url);
+  window.history.replaceState(null, "", url);
 }
 
 /**

@@ -175,10 +175,17 @@ export function startRenderAhead({
   const running = (async () => {
     while (!stopped) {
       try {
+        const t0 = performance.now();
+        const before = { ...stats };
         const asked = await pass();
         outageLogged = false;
         if (asked > 0) {
           stats.lastPassEndedAt = Date.now();
+          const failed = stats.failed - before.failed;
+          log(
+            `rendered ahead ${stats.rendered - before.rendered} page(s) in ${((performance.now() - t0) / 1000).toFixed(0)} s` +
+              (failed ? `; ${failed} did not answer 200` : ""),
+          );
           continue;
         }
         stats.idlePasses += 1;

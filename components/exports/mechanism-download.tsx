@@ -1,14 +1,17 @@
 "use client";
 
 import { useId, useState } from "react";
+import { useSearchParams } from "next/navigation";
 import { DEFAULT_MECHANISM_ENERGY, MECHANISM_ENERGY_UNITS, mechanismRateUnits } from "@/lib/exports/mechanism-units";
 import type { ReactionOrder } from "@/lib/kinetics/types";
 import { parseEnergyUnit, parseRateConstantUnit } from "@/lib/kinetics/units";
+import { unitsFromQuery } from "@/lib/unit-choice";
 
 /**
  * "Parameters for a mechanism": the units (k, Ea), the layout (plain table or Cantera YAML) and, for
  * the YAML, the fit it carries; the download link is the parameters endpoint with that choice.
- * Starts from the units the page shows (an energy unit the endpoint does not offer falls back to kJ mol⁻¹).
+ * Starts from the units the page shows (an energy unit the endpoint does not offer falls back to kJ mol⁻¹),
+ * and follows them when the reader switches them (the pickers write them into the address).
  */
 export function MechanismDownload({
   endpoint,
@@ -31,8 +34,19 @@ export function MechanismDownload({
   const id = useId();
   const kUnits = mechanismRateUnits(order);
   const energyIds = MECHANISM_ENERGY_UNITS.map((u) => u.id) as readonly string[];
-  const [kUnit, setKUnit] = useState(kUnits.includes(initialKUnit) ? initialKUnit : kUnits[0]);
-  const [energy, setEnergy] = useState(energyIds.includes(initialEnergyUnit) ? initialEnergyUnit : DEFAULT_MECHANISM_ENERGY);
+  const offeredK = (u: string) => (kUnits.includes(u) ? u : kUnits[0]);
+  const offeredEnergy = (u: string) => (energyIds.includes(u) ? u : DEFAULT_MECHANISM_ENERGY);
+  const [kUnit, setKUnit] = useState(offeredK(initialKUnit));
+  const [energy, setEnergy] = useState(offeredEnergy(initialEnergyUnit));
+  // The page's unit pickers keep their choice in the address (components/version-fit.tsx): a change
+  // there is followed here (set while rendering, as React advises for state that follows a value).
+  const shown = unitsFromQuery(order, Object.fromEntries(useSearchParams()));
+  const [followed, setFollowed] = useState(shown);
+  if (followed.kUnit !== shown.kUnit || followed.energyUnit !== shown.energyUnit) {
+    setFollowed(shown);
+    if (followed.kUnit !== shown.kUnit) setKUnit(offeredK(shown.kUnit));
+    if (followed.energyUnit !== shown.energyUnit) setEnergy(offeredEnergy(shown.energyUnit));
+  }
   const [fit, setFit] = useState<"preferred" | "arrhenius" | "modified_arrhenius">("preferred");
   const href = (format: "table" | "cantera-yaml") => {
     const q = new URLSearchParams(extraQuery);

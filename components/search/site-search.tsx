@@ -2,7 +2,7 @@
 
 import { useQuery } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
-import { useId, useRef, useState, type FormEvent, type KeyboardEvent } from "react";
+import { useEffect, useId, useRef, useState, type FormEvent, type KeyboardEvent } from "react";
 import { useDebouncedValue } from "@/components/use-debounced-value";
 import { fetchSuggestions, suggestionCountWords, suggestionHref, type Suggestion } from "./suggestions";
 
@@ -35,6 +35,11 @@ export function SiteSearch() {
   });
   const suggestions: Suggestion[] = term.length > 0 && text.trim() === term ? (query.data ?? []) : [];
   const expanded = open && suggestions.length > 0;
+
+  // The chosen suggestion is scrolled into the list's view (the list shows about eight at a time).
+  useEffect(() => {
+    if (expanded && active >= 0) document.getElementById(`${id}-option-${active}`)?.scrollIntoView({ block: "nearest" });
+  }, [expanded, active, id]);
 
   function choose(s: Suggestion) {
     setOpen(false);

@@ -68,6 +68,14 @@ test("mechanism parameters downloaded in kcal carry the numbers the page shows; 
   const doc = parseYaml(readFileSync((await yamlDownload.path())!, "utf8"));
   expect(doc.units).toMatchObject({ length: "cm", quantity: "molec", "activation-energy": "kcal/mol" });
   expect(doc.reactions[0].equation).toContain("=>");
+
+  // Units switched on the page: the pickers follow them (the page is not loaded again).
+  await page.getByLabel("Show energies in").selectOption("kJ mol-1");
+  await page.getByLabel("Show k in").selectOption("L mol-1 s-1");
+  await expect(page).toHaveURL(/[?&]k=L\+mol-1\+s-1/);
+  await expect(section.getByLabel("Ea in")).toHaveValue("kJ mol-1");
+  // (The select sits inside its label, so "A in" would also name the "Ea in" one.)
+  await expect(section.getByRole("combobox").first()).toHaveValue("L mol-1 s-1");
 });
 
 test("a whole search result exports as CSV with progress, and the file opens with every row", async ({ page }) => {

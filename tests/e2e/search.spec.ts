@@ -168,6 +168,27 @@ test("the header box offers the reactions of a reaction pattern (both reactants,
   await expect(page).toHaveURL(/\/reactions\/[^/?]*[A-Z]{14}-[A-Z]{10}-[A-Z][^/?]*~/);
 });
 
+test("the suggestion chosen by keyboard is scrolled into the list's view", async ({ page }) => {
+  await page.setViewportSize(WIDE);
+  await page.goto("/");
+  const box = page.getByRole("combobox", { name: "Search datasets, species and reactions" });
+  const list = page.getByRole("listbox", { name: "Suggestions" });
+  await box.fill("OH");
+  await expect(list.getByRole("option").first()).toBeVisible();
+  const count = await list.getByRole("option").count();
+  // Down to the last suggestion, one by one as a keyboard user goes.
+  for (let i = 0; i < count; i++) await box.press("ArrowDown");
+  const last = list.getByRole("option").last();
+  await expect(last).toHaveAttribute("aria-selected", "true");
+  // Inside the list's visible part (the list scrolls once it holds more than it shows).
+  const inView = await last.evaluate((option) => {
+    const box = option.parentElement!.getBoundingClientRect();
+    const own = option.getBoundingClientRect();
+    return own.top >= box.top - 1 && own.bottom <= box.bottom + 1;
+  });
+  expect(inView).toBe(true);
+});
+
 test("the header box works from the folded menu of a phone", async ({ page }) => {
   await page.setViewportSize(PHONE);
   await page.goto("/reactions");
