@@ -265,6 +265,9 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
     if (!ahead && (await servedKept())) return;
     // The same page being rendered for another anonymous reader (a popular page just after a change
     // emptied the cache): wait for that render rather than start another, then take what it kept.
+    // The client left while the mark or the kept page was read: nothing to render for, and no slot
+    // to register (its "close" has fired already, so the slot would never be given back).
+    if (res.destroyed) return;
     const slot = `${mark}\u0000${key}`;
     const underWay = s.rendering.get(slot);
     /** The kept copy being written (the waiting requests read it once written). */
@@ -349,7 +352,7 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
 }
 
 /** What the cache holds (for the benchmark and tests). */
-export function htmlCacheSize(): { entries: number; bytes: number } {
+export function htmlCacheSize(): { entries: number; bytes: number; rendering: number } {
   const s = store();
-  return { entries: s.entries.size, bytes: s.bytes };
+  return { entries: s.entries.size, bytes: s.bytes, rendering: s.rendering.size };
 }

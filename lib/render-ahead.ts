@@ -14,19 +14,21 @@ import { KEPT_PAGE_HOURS, servable } from "@/lib/kept-pages";
  * others). The front server keeps the answer in the database but not in its memory
  * (lib/html-cache.ts, `RENDER_AHEAD_HEADER`): pages nobody asked for do not push out those readers read.
  *
- * One page at a time, and only while the readers leave the server a lull (`busy`: no reader's page
- * rendering, no reader's request for READER_LULL_MS): a reader waits for at most one page rendered ahead. Reaction and species pages first (few, and each names many
+ * One page at a time, and only while the readers leave the server room (`busy`: no reader's page
+ * rendering, fewer than READERS_BUSY_PER_SECOND readers' requests a second): a reader waits for at
+ * most one page rendered ahead. Reaction and species pages first (few, and each names many
  * datasets), then dataset versions, newest first. A pass walks each kind once by its id; a page
  * that changes behind the pass is taken by the next pass; with nothing left to render the loop
  * looks again every `idleMs`. A database out of reach pauses it (logged once), it does not stop.
  */
 
 /**
- * How long readers' requests must have paused before a page is rendered ahead: the renders ahead
- * take a processor that searches and kept pages need under load (measured with `npm run bench:web`:
- * a search's p95 went from 17 to 87 ms while a pass ran beside 32 connections of searches).
+ * Readers' requests a second (of any kind) from which nothing is rendered ahead: under load the renders
+ * ahead take a processor that searches and kept pages need (measured with `npm run bench:web`: a
+ * search's p95 went from 17 to 87 ms while a pass ran beside 32 connections of searches), while a
+ * trickle of requests (a few readers, a crawler, an icon) costs little and must not stop a pass.
  */
-export const READER_LULL_MS = 100;
+export const READERS_BUSY_PER_SECOND = 50;
 
 /** How long before the end of its lifetime (KEPT_PAGE_HOURS) a kept page is rendered again. */
 export const RENEW_BEFORE_HOURS = 2;
@@ -126,6 +128,7 @@ export interface RenderAheadOptions {
 /** Resolves after `ms`, or at once when `stopping` is aborted. */
 const sleep = (ms: number, stopping: AbortSignal) =>
   new Promise<void>((resolve) => {
+    if (stopping.aborted) return resolve();
     const done = () => {
       clearTimeout(timer);
       stopping.removeEventListener("abort", done);
@@ -154,7 +157,7 @@ export function startRenderAhead({
     let asked = 0;
     for (let kind = 0; kind < KINDS.length && !stopped; kind++) {
       let after: number | null = null;
-      for (;;) {
+      while (!stopped) {
         const pages = await listPagesToRenderAhead({ build, kind, after, limit: batch, hours });
         if (pages.length === 0 || stopped) break;
         for (const page of pages) {
@@ -190,6 +193,7 @@ export function startRenderAhead({
         }
         stats.idlePasses += 1;
       } catch (e) {
+        if (stopped) break;
         if (!outageLogged) log(`rendering ahead paused: ${e instanceof Error ? e.message : String(e)}`);
         outageLogged = true;
       }

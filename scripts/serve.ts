@@ -47,7 +47,7 @@ import { loadFrontRoutes } from "@/lib/http/front-routes";
 import { PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
 import { readPublicPagesMark } from "@/db/public-pages-mark";
 import { keptPagesInPostgres, sweepKeptPages } from "@/lib/kept-pages";
-import { askFrontServer, READER_LULL_MS, startRenderAhead } from "@/lib/render-ahead";
+import { askFrontServer, READERS_BUSY_PER_SECOND, startRenderAhead } from "@/lib/render-ahead";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 
@@ -189,10 +189,10 @@ if (renderAhead()) {
   running.ahead = startRenderAhead({
     build: keptBuild,
     ask: askFrontServer({ host, port: edge.port, key: aheadKey, publicHost: new URL(appUrl()).host }),
-    // Readers first: nothing is rendered ahead while a reader's page renders, nor until readers' requests pause (READER_LULL_MS).
+    // Readers first: nothing is rendered ahead while a reader's page renders, nor while readers' requests come fast (READERS_BUSY_PER_SECOND).
     busy: () => {
       const readers = edge.readers();
-      return readers.rendering > 0 || readers.quietMs < READER_LULL_MS;
+      return readers.rendering > 0 || readers.perSecond >= READERS_BUSY_PER_SECOND;
     },
   });
 }

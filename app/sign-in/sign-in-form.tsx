@@ -40,7 +40,8 @@ export function SignInForm({ callbackUrl, verified, reset }: { callbackUrl: stri
   }
 
   return (
-    <form onSubmit={onSubmit} className="space-y-4" noValidate>
+    // POST: sent before the scripts load (or without them), the password never goes into the address.
+    <form onSubmit={onSubmit} method="post" className="space-y-4" noValidate>
       {verified && (
         <p role="status" className="rounded-md border border-ok/40 px-3 py-2 text-sm text-ok">
           Your address is confirmed. Sign in to continue.

@@ -191,6 +191,26 @@ export function forwardedHeaders(req: http.IncomingMessage, trust: TrustProxy, k
   return headers;
 }
 
+/** Events counted over about the last second, in four buckets of 250 ms. */
+class RecentCount {
+  private buckets = [0, 0, 0, 0];
+  private at = 0;
+  private roll() {
+    const now = Math.floor(performance.now() / 250);
+    if (now - this.at >= 4) this.buckets.fill(0);
+    else for (let b = this.at + 1; b <= now; b++) this.buckets[b % 4] = 0;
+    this.at = Math.max(this.at, now);
+    return now;
+  }
+  add() {
+    this.buckets[this.roll() % 4] += 1;
+  }
+  count() {
+    this.roll();
+    return this.buckets.reduce((a, b) => a + b, 0);
+  }
+}
+
 /** How long a reader's page request counts as a render under way at most (Next's render gate gives a place back after 2 s). */
 const RENDER_COUNTED_MS = 10_000;
 
@@ -228,9 +248,9 @@ export async function startEdgeProxy({
   const ownHost = new URL(appOrigin).host;
   // What passOn needs of a request that goes through the page cache first.
   const passing = new WeakMap<http.IncomingMessage, { headers: http.OutgoingHttpHeaders; action: boolean }>();
-  /** Readers' page requests passed on to Next and not yet answered, and when a reader's request last arrived (lib/render-ahead.ts waits for a lull). */
+  /** Readers' page requests passed on to Next and not yet answered, and readers' requests of the last second (lib/render-ahead.ts waits while either is high). */
   let readersRendering = 0;
-  let readerArrivedAt = 0;
+  const readerRate = new RecentCount();
   const isAhead = (req: http.IncomingMessage) =>
     pageCache?.aheadKey !== undefined && req.headers[RENDER_AHEAD_HEADER] === pageCache.aheadKey;
   const cachedPassOn = pageCache ? withHtmlCache((req, res) => passOn(req, res, passing.get(req)!), pageCache) : null;
@@ -249,7 +269,7 @@ export async function startEdgeProxy({
     }
   });
   const handleRequest = (req: http.IncomingMessage, res: http.ServerResponse) => {
-    if (!isAhead(req)) readerArrivedAt = performance.now();
+    if (!isAhead(req)) readerRate.add();
     // A client whose connection is already gone (reset before its request was read) has no address and wants no answer.
     if (req.socket.remoteAddress === undefined) {
       req.socket.destroy();
@@ -305,6 +325,11 @@ export async function startEdgeProxy({
     { headers, action }: { headers: http.OutgoingHttpHeaders; action: boolean },
   ) => {
     // A reader's page on its way to Next (not one rendered ahead of readers): the renders ahead wait for it.
+    // A client that left while the front server read the database (the page cache's mark) wants nothing rendered.
+    if (res.destroyed) {
+      req.resume();
+      return;
+    }
     // Counted until its answer ends, or RENDER_COUNTED_MS at most: a reader who never reads the answer holds nothing back.
     if (isGatedRender(req) && !isAhead(req)) {
       readersRendering += 1;
@@ -438,8 +463,8 @@ export async function startEdgeProxy({
   const bound = server.address() as AddressInfo;
   return {
     port: bound.port,
-    /** Readers' pages being rendered by Next now, and how long ago (ms) a reader's request last arrived. */
-    readers: () => ({ rendering: readersRendering, quietMs: performance.now() - readerArrivedAt }),
+    /** Readers' pages being rendered by Next now, and readers' requests (of any kind) in about the last second. */
+    readers: () => ({ rendering: readersRendering, perSecond: readerRate.count() }),
     close: () =>
       new Promise<void>((resolve) => {
         agent.destroy();

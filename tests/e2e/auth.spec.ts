@@ -60,6 +60,19 @@ test("sign up, read the confirmation in the admin inbox, verify, sign in, sign o
   await expect(page).toHaveURL(/\/sign-in\?callbackUrl=(%2F|\/)settings/);
 });
 
+test("the sign-in form sent before its scripts run (or without them) never puts the password in the address", async ({ browser }) => {
+  const context = await browser.newContext({ javaScriptEnabled: false });
+  const page = await context.newPage();
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill(DEMO_ADMIN.email);
+  await page.getByLabel("Password").fill(DEMO_ADMIN.password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForLoadState();
+  expect(page.url()).not.toContain(encodeURIComponent(DEMO_ADMIN.password));
+  expect(page.url()).not.toContain("password");
+  await context.close();
+});
+
 test("keyboard-only sign-in", async ({ page }) => {
   await page.goto("/sign-in");
   // The e-mail field has focus on arrival; everything else is reached with Tab.

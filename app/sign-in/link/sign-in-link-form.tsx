@@ -31,7 +31,7 @@ export function SignInLinkForm({ token }: { token: string }) {
   }
 
   return (
-    <form onSubmit={onSubmit} className="space-y-4">
+    <form onSubmit={onSubmit} method="post" className="space-y-4">
       <p className="text-sm">
         The link works once. Sign-in for your account was paused after many failed attempts; this signs you in and lifts the pause.
       </p>

@@ -1,6 +1,7 @@
 import http from "node:http";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
-import { clearHtmlCache, HTML_CACHE_HEADER, RENDER_AHEAD_HEADER } from "@/lib/html-cache";
+import net from "node:net";
+import { clearHtmlCache, HTML_CACHE_HEADER, htmlCacheSize, RENDER_AHEAD_HEADER } from "@/lib/html-cache";
 import { startFrontBefore } from "./front-server";
 
 // The front server's page cache (lib/html-cache.ts through lib/auth/edge-proxy.ts `pageCache`) before a
@@ -8,6 +9,8 @@ import { startFrontBefore } from "./front-server";
 let renders = 0;
 let mark = "m1";
 let markFails = false;
+/** How long reading the mark takes (a client may leave meanwhile). */
+let markDelayMs = 0;
 const reached: string[] = [];
 
 let app: http.Server;
@@ -49,6 +52,7 @@ beforeAll(async () => {
       maxEntryBytes: 1 << 16,
       ttlMs: 60_000,
       mark: async () => {
+        if (markDelayMs) await new Promise((r) => setTimeout(r, markDelayMs));
         if (markFails) throw new Error("the database is out of reach");
         return mark;
       },
@@ -103,13 +107,36 @@ describe("public pages kept by the front server", () => {
     held.get("/classes/held-3")!();
     await stuck;
     expect(front.readers().rendering).toBe(0);
-    // Every reader's request counts as activity, a render ahead does not.
-    const quiet = front.readers().quietMs;
+    // Every reader's request counts in the rate, a render ahead does not.
+    await new Promise((r) => setTimeout(r, 1_100));
+    expect(front.readers().perSecond).toBe(0);
     await get("/classes/r-ahead", { [RENDER_AHEAD_HEADER]: "ahead-key" });
-    expect(front.readers().quietMs).toBeGreaterThanOrEqual(quiet);
+    expect(front.readers().perSecond).toBe(0);
     await get("/api/v1/anything");
+    await get("/favicon.ico");
     expect(front.readers().rendering).toBe(0);
-    expect(front.readers().quietMs).toBeLessThan(quiet);
+    expect(front.readers().perSecond).toBe(2);
+    await new Promise((r) => setTimeout(r, 1_100));
+    expect(front.readers().perSecond).toBe(0);
+  });
+
+  it("a client gone while the mark was read leaves nothing counted, waiting or rendered", async () => {
+    markDelayMs = 100;
+    try {
+      for (let i = 0; i < 5; i++) {
+        const socket = net.connect(front.port, "127.0.0.1");
+        await new Promise<void>((resolve) => socket.once("connect", () => resolve()));
+        socket.write(`GET /classes/gone-${i} HTTP/1.1\r\nHost: 127.0.0.1\r\nAccept: text/html\r\n\r\n`);
+        await new Promise((r) => setTimeout(r, 10));
+        socket.resetAndDestroy();
+      }
+      await new Promise((r) => setTimeout(r, 300));
+    } finally {
+      markDelayMs = 0;
+    }
+    expect(reached.filter((r) => r.includes("/classes/gone-"))).toEqual([]);
+    expect(front.readers().rendering).toBe(0);
+    expect(htmlCacheSize().rendering).toBe(0);
   });
 
   it("answers a page read before without reaching the app, with the same body and a date of its own", async () => {
