@@ -326,13 +326,14 @@ export function analysisMemoryMb(): number {
  * with the job workers and search; its launchers pass it as --max-old-space-size) and Next
  * (scripts/inner-server.ts). Under load V8 lets a heap grow to several times what it holds alive
  * before collecting (front: ~80 MB alive, 340 MB used; Next: ~150 alive, ~400 used); a budget makes it
- * collect sooner, so the two stay under 1 GiB together.
+ * collect sooner, so the two stay under 1 GiB together (Next's was 512 until the pages rendered ahead
+ * of readers kept it rendering for hours: the benchmark's peak was 1 042 MiB, 571 + 460 MiB).
  */
 export function frontHeapMb(): number {
   return read("FRONT_HEAP_MB") ?? 384;
 }
 export function nextHeapMb(): number {
-  return read("NEXT_HEAP_MB") ?? 512;
+  return read("NEXT_HEAP_MB") ?? 448;
 }
 
 /** Requests a minute one API client (a token's holder, else an address) may make before 429s. */
