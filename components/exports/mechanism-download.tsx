@@ -40,7 +40,9 @@ export function MechanismDownload({
   const [energy, setEnergy] = useState(offeredEnergy(initialEnergyUnit));
   // The page's unit pickers keep their choice in the address (components/version-fit.tsx): a change
   // there is followed here (set while rendering, as React advises for state that follows a value).
-  const shown = unitsFromQuery(order, Object.fromEntries(useSearchParams()));
+  // (No address outside Next's router, e.g. a page rendered by a test: the page's own units then.)
+  const address = useSearchParams() as URLSearchParams | null;
+  const shown = address ? unitsFromQuery(order, Object.fromEntries(address)) : { kUnit: initialKUnit, energyUnit: initialEnergyUnit };
   const [followed, setFollowed] = useState(shown);
   if (followed.kUnit !== shown.kUnit || followed.energyUnit !== shown.energyUnit) {
     setFollowed(shown);
