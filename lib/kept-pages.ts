@@ -1,7 +1,13 @@
 import type http from "node:http";
 import Negotiator from "negotiator";
-import { sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import {
+  deleteStaleKeptPages,
+  publicVersionReaction,
+  reactionParticipants,
+  readKeptPageRow,
+  speciesMetInReactions,
+  writeKeptPageRow,
+} from "@/db/kept-pages";
 import { ALL_PAGES_TAG } from "@/db/public-pages-mark";
 import { citationRewriteTarget } from "@/lib/http/content-negotiation";
 import { reactionSegment, readReactionSegment } from "@/lib/reactions/paths";
@@ -97,33 +103,20 @@ export interface KeptPages {
 export async function keptPageTags(path: string): Promise<string[] | null> {
   const kind = keptKind(path);
   if (!kind) return null;
-  const db = getDb();
   if (kind.kind === "dataset") {
-    const [row] = await db.execute<{ reaction_id: number | null }>(sql`
-      select reaction_id from dataset_versions
-      where dataset_id = ${kind.datasetId} and number = ${kind.number} and state in ('published', 'retracted')`);
-    if (!row) return null;
-    return [`dataset:${kind.datasetId}`, ...(row.reaction_id === null ? [] : [`reaction:${row.reaction_id}`]), ALL_PAGES_TAG];
+    const version = await publicVersionReaction(kind);
+    if (!version) return null;
+    return [`dataset:${kind.datasetId}`, ...(version.reactionId === null ? [] : [`reaction:${version.reactionId}`]), ALL_PAGES_TAG];
   }
   if (kind.kind === "reaction") {
-    const rows = await db.execute<{ id: number; species_id: number }>(sql`
-      select r.id, p.species_id from reactions r join reaction_participants p on p.reaction_id = r.id where r.key = ${kind.key}`);
-    if (rows.length === 0) return null;
-    return [`reaction:${rows[0].id}`, ...new Set(rows.map((r) => nameTag(Number(r.species_id)))), ALL_PAGES_TAG];
+    const reaction = await reactionParticipants(kind);
+    if (!reaction) return null;
+    return [`reaction:${reaction.reactionId}`, ...reaction.speciesIds.map(nameTag), ALL_PAGES_TAG];
   }
-  const rows = await db.execute<{ species_id: number }>(sql`
-    select distinct p.species_id from species s
-    join reaction_participants mine on mine.species_id = s.id
-    join reaction_participants p on p.reaction_id = mine.reaction_id
-    where s.inchi_key = ${kind.inchiKey}`);
-  if (rows.length === 0) return null;
-  return [`species:${kind.inchiKey}`, ...rows.map((r) => nameTag(Number(r.species_id))), ALL_PAGES_TAG];
+  const met = await speciesMetInReactions(kind);
+  if (met.length === 0) return null;
+  return [`species:${kind.inchiKey}`, ...met.map(nameTag), ALL_PAGES_TAG];
 }
-
-/** The condition on a kept_pages row `p` that it may be served: of this build, within its lifetime, none of its tags moved since its render. */
-export const servable = ({ build, hours = KEPT_PAGE_HOURS }: { build: string; hours?: number }) => sql`(p.build = ${build}
-  and p.kept_at > now() - make_interval(hours => ${hours})
-  and not exists (select 1 from page_tag_moves m where m.tag = any(p.tags) and m.moved > p.rendered_at))`;
 
 /** Headers a kept page is not sent with again: framing and the answer's own date are the replay's. */
 const NOT_KEPT_HEADERS = ["transfer-encoding", "content-length", "connection", "keep-alive", "date", "set-cookie"];
@@ -133,9 +126,7 @@ export function keptPagesInPostgres({ build, hours = KEPT_PAGE_HOURS }: { build:
   return {
     keyOf: keptPageKey,
     async read(key) {
-      const [row] = await getDb().execute<{ status: number; headers: http.OutgoingHttpHeaders; body: Buffer }>(sql`
-        select p.status, p.headers, p.body from kept_pages p where p.key = ${key} and ${servable({ build, hours })}`);
-      return row ? { status: Number(row.status), headers: row.headers, body: Buffer.from(row.body) } : null;
+      return readKeptPageRow({ key, build, hours });
     },
     async keep(key, page, mark) {
       const encoding = String(page.headers["content-encoding"] ?? "identity").toLowerCase();
@@ -145,16 +136,7 @@ export function keptPagesInPostgres({ build, hours = KEPT_PAGE_HOURS }: { build:
       await (async () => {
         const tags = await keptPageTags(path);
         if (!tags) return;
-        // A later render is never replaced by an earlier one.
-        await getDb().execute(sql`
-          insert into kept_pages (key, build, tags, rendered_at, status, headers, body)
-          values (${key}, ${build}, array[${sql.join(
-            tags.map((t) => sql`${t}`),
-            sql`, `,
-          )}]::text[], ${mark}, ${page.status}, ${JSON.stringify(headers)}::jsonb, ${page.body})
-          on conflict (key) do update set build = excluded.build, tags = excluded.tags, rendered_at = excluded.rendered_at,
-            status = excluded.status, headers = excluded.headers, body = excluded.body, kept_at = now()
-          where kept_pages.build <> excluded.build or kept_pages.rendered_at <= excluded.rendered_at`);
+        await writeKeptPageRow({ key, build, tags, renderedAt: mark, status: page.status, headers, body: page.body });
       })().catch((e: unknown) => console.error(`[pages] could not keep ${path}: ${e instanceof Error ? e.message : String(e)}`));
     },
   };
@@ -162,8 +144,5 @@ export function keptPagesInPostgres({ build, hours = KEPT_PAGE_HOURS }: { build:
 
 /** Deletes the kept pages of other builds and those past their lifetime (at start, then hourly); returns how many. */
 export async function sweepKeptPages({ build, hours = KEPT_PAGE_HOURS }: { build: string; hours?: number }): Promise<number> {
-  const rows = await getDb().execute<{ n: number }>(sql`
-    with gone as (delete from kept_pages where build <> ${build} or kept_at <= now() - make_interval(hours => ${hours}) returning 1)
-    select count(*)::int as n from gone`);
-  return Number(rows[0]?.n ?? 0);
+  return deleteStaleKeptPages({ build, hours });
 }

@@ -1,8 +1,7 @@
 import http from "node:http";
-import { sql, type SQL } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { listUnkeptPages, UNKEPT_PAGE_KINDS } from "@/db/kept-pages";
 import { RENDER_AHEAD_HEADER } from "@/lib/html-cache";
-import { KEPT_PAGE_HOURS, servable } from "@/lib/kept-pages";
+import { KEPT_PAGE_HOURS } from "@/lib/kept-pages";
 
 /**
  * Renders the public pages ahead of their readers: every dataset version, reaction and species page
@@ -39,44 +38,7 @@ interface Candidate {
   path: string;
 }
 
-/** Each kind of page the kept pages hold: every public one, by id, with the path it is kept under. */
-const KINDS: { name: string; list: (after: number | null, limit: number, valid: SQL) => SQL }[] = [
-  {
-    name: "reaction",
-    // The sitemap's reactions: those the newest public version of some dataset is on.
-    list: (after, limit, valid) => sql`
-      select r.id, '/reactions/' || replace(r.key, '>>', '~') as path from reactions r
-      where ${after === null ? sql`true` : sql`r.id > ${after}`}
-        and exists (select 1 from dataset_versions v where v.reaction_id = r.id and v.state in ('published', 'retracted')
-          and not exists (select 1 from dataset_versions newer where newer.dataset_id = v.dataset_id
-            and newer.state in ('published', 'retracted') and newer.number > v.number))
-        and not exists (select 1 from kept_pages p where p.key = '/reactions/' || replace(r.key, '>>', '~') || E'\\ngzip' and ${valid})
-      order by r.id limit ${limit}`,
-  },
-  {
-    name: "species",
-    list: (after, limit, valid) => sql`
-      select s.id, '/species/' || s.inchi_key as path from species s
-      where ${after === null ? sql`true` : sql`s.id > ${after}`}
-        and exists (select 1 from reaction_participants rp join dataset_versions v on v.reaction_id = rp.reaction_id
-          where rp.species_id = s.id and v.state in ('published', 'retracted')
-            and not exists (select 1 from dataset_versions newer where newer.dataset_id = v.dataset_id
-              and newer.state in ('published', 'retracted') and newer.number > v.number))
-        and not exists (select 1 from kept_pages p where p.key = '/species/' || s.inchi_key || E'\\ngzip' and ${valid})
-      order by s.id limit ${limit}`,
-  },
-  {
-    name: "dataset version",
-    // Newest first: a dataset just published is the likeliest to be read.
-    list: (after, limit, valid) => sql`
-      select v.id, '/datasets/' || v.dataset_id || '/v' || v.number as path from dataset_versions v
-      where v.state in ('published', 'retracted') and ${after === null ? sql`true` : sql`v.id < ${after}`}
-        and not exists (select 1 from kept_pages p where p.key = '/datasets/' || v.dataset_id || '/v' || v.number || E'\\ngzip' and ${valid})
-      order by v.id desc limit ${limit}`,
-  },
-];
-
-/** The next pages of a kind that have no servable kept copy, after `after` in the pass's order. */
+/** The next pages of a kind (an index into UNKEPT_PAGE_KINDS) that have no servable kept copy, after `after` in the pass's order. */
 export async function listPagesToRenderAhead({
   build,
   kind,
@@ -90,8 +52,7 @@ export async function listPagesToRenderAhead({
   limit?: number;
   hours?: number;
 }): Promise<Candidate[]> {
-  const rows = await getDb().execute<{ id: number; path: string }>(KINDS[kind].list(after, limit, servable({ build, hours })));
-  return rows.map((r) => ({ id: Number(r.id), path: r.path }));
+  return listUnkeptPages({ build, kind: UNKEPT_PAGE_KINDS[kind], after, limit, hours });
 }
 
 /** What the loop has done since it started (the benchmark and the start-up banner read it). */
@@ -155,7 +116,7 @@ export function startRenderAhead({
   let outageLogged = false;
   const pass = async (): Promise<number> => {
     let asked = 0;
-    for (let kind = 0; kind < KINDS.length && !stopped; kind++) {
+    for (let kind = 0; kind < UNKEPT_PAGE_KINDS.length && !stopped; kind++) {
       let after: number | null = null;
       while (!stopped) {
         const pages = await listPagesToRenderAhead({ build, kind, after, limit: batch, hours });

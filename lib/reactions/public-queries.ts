@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type SQL } from "drizzle-orm";
 import { getDb, type Database, type Transaction } from "@/db/client";
+import { isNewestPublic } from "@/db/public-versions";
 import { REACTION_CLASSES, RETIRED_REACTION_CLASS_IDS, type ReactionClassId } from "@/lib/deposits/vocabulary";
 import { reactionDisplayEquation, speciesDisplayName } from "./display-names";
 import { classTag, datasetTag, PUBLIC_TAG, reactionTag, SEARCH_TAG, speciesTag } from "@/lib/public-cache";
@@ -23,9 +24,7 @@ export const classOf = (payload: SQL) => {
 const newestPublic = sql`(
   select v.id, v.dataset_id, v.reaction_id, v.state::text as state, ${classOf(sql`v.payload`)} as class
   from dataset_versions v
-  where v.state in ('published', 'retracted') and v.reaction_id is not null
-    and not exists (select 1 from dataset_versions newer where newer.dataset_id = v.dataset_id
-      and newer.state in ('published', 'retracted') and newer.number > v.number))`;
+  where v.reaction_id is not null and ${isNewestPublic(sql`v`)})`;
 
 /** A reaction with its dataset counts (published; retracted shown apart). */
 export interface ReactionCount {
