@@ -9,6 +9,7 @@ import proxyaddr from "proxy-addr";
 import { ActionBodyGuard, isActionRequest, isApiPath, pagePath } from "./action-body-guard";
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER, UNKNOWN_ADDRESS } from "./client-address";
 import { answerHere, frontRoute } from "@/lib/http/front-routes";
+import { varyOfAnswer } from "@/lib/http/content-negotiation";
 import { RENDER_AHEAD_HEADER, withHtmlCache, type HtmlCacheOptions } from "@/lib/html-cache";
 import { isGatedRender } from "@/lib/http/render-gate";
 
@@ -363,6 +364,8 @@ export async function startEdgeProxy({
           // The app's Connection and Keep-Alive describe the inner hop; the client's own is Node's to answer.
           const answerHeaders = { ...answer.headers };
           for (const name of hopByHop(answer.headers.connection)) delete answerHeaders[name];
+          const vary = varyOfAnswer(req.method, req.url, answerHeaders.vary);
+          if (vary !== undefined) answerHeaders.vary = vary;
           res.writeHead(answer.statusCode ?? 502, answerHeaders);
           answer.pipe(res);
         },

@@ -67,6 +67,22 @@ export function datasetPagePath(pathname: string): { datasetId: string; version:
 }
 
 /**
+ * The Vary of an answer at `url`: a dataset page's address answers HTML or a citation format by
+ * Accept, so its every answer names Accept (Next writes its own Vary over next.config's on a page).
+ */
+export function varyOfAnswer(method: string | undefined, url: string | undefined, vary: string | undefined): string | undefined {
+  if ((method !== "GET" && method !== "HEAD") || !url) return vary;
+  const q = url.indexOf("?");
+  if (!datasetPagePath(q === -1 ? url : url.slice(0, q))) return vary;
+  const names = (vary ?? "")
+    .split(",")
+    .map((n) => n.trim())
+    .filter(Boolean);
+  if (names.some((n) => n === "*" || n.toLowerCase() === "accept")) return vary;
+  return ["Accept", ...names].join(", ");
+}
+
+/**
  * Where a request to a dataset page goes: null for the page itself, else the citation endpoint's
  * path and query (`/api/v1/datasets/3/citation?format=ris&version=2`). Only GET and HEAD negotiate.
  */

@@ -83,6 +83,10 @@ test("the version page's URL answers citation formats by Accept, and HTML otherw
   const html = await request.get(v.path, { headers: { Accept: "text/html,application/x-bibtex;q=0.5" } });
   expect(html.headers()["content-type"]).toMatch(/^text\/html/);
   expect(html.headers()["vary"]).toMatch(/Accept/i);
+  // A browser's own Accept (no citation type, so no proxy) gets the page with the same Vary (lib/auth/edge-proxy.ts).
+  const plain = await request.get(v.path, { headers: { Accept: "text/html,application/xhtml+xml,*/*;q=0.8" } });
+  expect(plain.headers()["content-type"]).toMatch(/^text\/html/);
+  expect(plain.headers()["vary"]).toMatch(/(^|,\s*)Accept(\s*,|$)/i);
   const draft = await request.get("/datasets/999999999/v1", { headers: { Accept: "application/x-bibtex" } });
   expect(draft.status()).toBe(404);
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { citationQueryOrThrow, negotiateCitationFormat, parseCitationQueryOrThrow } from "@/lib/citation/request";
 import { AppError } from "@/lib/errors";
-import { citationRewriteTarget, negotiateDatasetPage } from "@/lib/http/content-negotiation";
+import { citationRewriteTarget, negotiateDatasetPage, varyOfAnswer } from "@/lib/http/content-negotiation";
 
 const acceptRewritesToCitation = (accept: string) => negotiateDatasetPage(accept) !== "html";
 
@@ -101,5 +101,21 @@ describe("citationRewriteTarget (proxy.ts)", () => {
     expect(citationRewriteTarget("POST", "/datasets/3/v2", "application/x-bibtex")).toBeNull();
     expect(citationRewriteTarget("GET", "/datasets/3/v2/edit", "application/x-bibtex")).toBeNull();
     expect(citationRewriteTarget("GET", "/datasets/03", "application/x-bibtex")).toBeNull();
+  });
+});
+
+describe("varyOfAnswer (the front server, lib/auth/edge-proxy.ts)", () => {
+  it("adds Accept to the Vary of every answer at a dataset page's address, once", () => {
+    expect(varyOfAnswer("GET", "/datasets/3/v2", "rsc, next-router-state-tree, Accept-Encoding")).toBe(
+      "Accept, rsc, next-router-state-tree, Accept-Encoding",
+    );
+    expect(varyOfAnswer("HEAD", "/datasets/3?k=L+mol-1+s-1", undefined)).toBe("Accept");
+    expect(varyOfAnswer("GET", "/datasets/3", "accept, rsc")).toBe("accept, rsc");
+    expect(varyOfAnswer("GET", "/datasets/3", "*")).toBe("*");
+  });
+  it("leaves other addresses and methods as they were", () => {
+    expect(varyOfAnswer("GET", "/reactions/abc", "rsc")).toBe("rsc");
+    expect(varyOfAnswer("POST", "/datasets/3/v2", "rsc")).toBe("rsc");
+    expect(varyOfAnswer("GET", "/datasets/3/v2/edit", undefined)).toBeUndefined();
   });
 });
