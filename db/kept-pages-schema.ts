@@ -27,10 +27,15 @@ export const keptPages = pgTable(
 );
 
 /** When each tag last moved: the public pages' mark (a sequence value) at its latest invalidation. */
-export const pageTagMoves = pgTable("page_tag_moves", {
-  tag: text().primaryKey(),
-  moved: bigint({ mode: "number" }).notNull(),
-});
+export const pageTagMoves = pgTable(
+  "page_tag_moves",
+  {
+    tag: text().primaryKey(),
+    moved: bigint({ mode: "number" }).notNull(),
+  },
+  // The front server's memory asks which tags moved after a mark (db/public-pages-mark.ts readTagMovesSince).
+  (t) => [index("page_tag_moves_moved_idx").on(t.moved)],
+);
 
 /**
  * Invalidations owed (lib/public-cache.ts): the tags of a change to public pages, written in the

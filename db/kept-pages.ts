@@ -18,13 +18,25 @@ export interface KeptPageRow {
   status: number;
   headers: Record<string, string | string[] | number | undefined>;
   body: Buffer;
+  tags: string[];
+  /** The public pages' mark its render began under. */
+  renderedAt: string;
 }
 
 /** The servable row kept under `key`, or null. */
 export async function readKeptPageRow({ key, build, hours }: { key: string; build: string; hours: number }): Promise<KeptPageRow | null> {
-  const [row] = await getDb().execute<{ status: number; headers: KeptPageRow["headers"]; body: Buffer }>(sql`
-    select p.status, p.headers, p.body from kept_pages p where p.key = ${key} and ${servable({ build, hours })}`);
-  return row ? { status: Number(row.status), headers: row.headers, body: Buffer.from(row.body) } : null;
+  const [row] = await getDb().execute<{
+    status: number;
+    headers: KeptPageRow["headers"];
+    body: Buffer;
+    tags: string[];
+    rendered_at: string;
+  }>(sql`
+    select p.status, p.headers, p.body, p.tags, p.rendered_at::text as rendered_at
+    from kept_pages p where p.key = ${key} and ${servable({ build, hours })}`);
+  return row
+    ? { status: Number(row.status), headers: row.headers, body: Buffer.from(row.body), tags: row.tags, renderedAt: row.rendered_at }
+    : null;
 }
 
 /** Keeps a page rendered under the mark `renderedAt`; a later render is never replaced by an earlier one. */

@@ -18,8 +18,10 @@ import type { KeptPage, KeptPages } from "@/lib/kept-pages";
  *   payload, which Next asks for with the `rsc` header).
  * Freshness: every invalidation of public data (lib/public-cache.ts, after publication, retraction,
  * re-fit, consensus exclusion, in whichever process or script) moves the public pages' mark in the
- * database (db/public-pages-mark.ts), read when a request arrives: an entry is served only under the
- * mark it was kept under. An invalidation in this process also empties the cache at once, and an
+ * database (db/public-pages-mark.ts), read when a request arrives: an entry is served under the mark
+ * it was kept under, or — when what it shows (its tags) is known — while none of its tags moved after
+ * that mark, so that a publication elsewhere leaves the other pages in memory (`movedSince`). An
+ * invalidation in this process also empties the cache at once, and an
  * entry lives at most `PUBLIC_CACHE_SECONDS`, as the data cache's entries do. A render that was
  * running when the cache was emptied is not stored (it may have read the old data).
  *
@@ -80,6 +82,13 @@ export interface HtmlCacheOptions {
    * request on uncached. Without it, only this process's invalidations and the lifetime apply.
    */
   mark?: () => Promise<string>;
+  /**
+   * The tags moved after a mark, each with its latest move, or null when too many moved to say
+   * (db/public-pages-mark.ts readTagMovesSince). With it, a page whose tags are known stays in memory
+   * across a move of the mark that touches none of them (a publication elsewhere): it is served while
+   * none of its tags moved after the mark it was rendered under. Without it, every move empties it.
+   */
+  movedSince?: (mark: string) => Promise<Map<string, bigint> | null>;
   /** How long a request waits for the render of the same page already under way (WAIT_FOR_RENDER_MS). */
   waitForRenderMs?: number;
   /** Pages kept in the database by what they show (lib/kept-pages.ts); used only with `mark`. */
@@ -103,7 +112,10 @@ function waitAtMost(work: Promise<void>, ms: number): Promise<void> {
 }
 
 interface Entry {
+  /** The mark the page's render began under (for a page read from the kept pages, its row's). */
   mark: string;
+  /** What the page shows (lib/kept-pages.ts keptPageTags), once known; null: served under its own mark only. */
+  tags: readonly string[] | null;
   status: number;
   headers: http.OutgoingHttpHeaders;
   body: Buffer;
@@ -165,14 +177,30 @@ function evict(s: Store, maxBytes: number) {
   }
 }
 
-/** Stores a page in memory under `mark`, within the byte budget. */
-function remember(s: Store, key: string, mark: string, page: KeptPage, storedAt: number, maxBytes: number) {
+/** Stores a page in memory under `mark`, within the byte budget; answers the entry. */
+function remember(s: Store, key: string, mark: string, page: KeptPage, storedAt: number, maxBytes: number): Entry {
   const old = s.entries.get(key);
   if (old) s.bytes -= old.size;
-  const size = page.body.length + 2 * key.length + JSON.stringify(page.headers).length * 2;
-  s.entries.set(key, { mark, ...page, storedAt, size });
+  const tags = page.tags ?? null;
+  const size = page.body.length + 2 * key.length + JSON.stringify(page.headers).length * 2 + JSON.stringify(tags).length * 2;
+  const entry: Entry = { mark, tags, status: page.status, headers: page.headers, body: page.body, storedAt, size };
+  s.entries.set(key, entry);
   s.bytes += size;
   evict(s, maxBytes);
+  return entry;
+}
+
+const isMark = (m: string) => /^\d+$/.test(m);
+
+/** Whether `entry` may be served under the current `mark`: kept under it, or none of its tags moved since its own. */
+async function stillCurrent(entry: Entry, mark: string, movedSince: HtmlCacheOptions["movedSince"]): Promise<boolean> {
+  if (entry.mark === mark) return true;
+  const tags = entry.tags;
+  if (!tags || !movedSince || !isMark(entry.mark) || !isMark(mark)) return false;
+  const moves = await movedSince(entry.mark).catch(() => null);
+  if (!moves) return false;
+  const since = BigInt(entry.mark);
+  return tags.every((tag) => (moves.get(tag) ?? 0n) <= since);
 }
 
 type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => Promise<void> | void;
@@ -230,13 +258,17 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
     }
     const s = store();
     const ahead = options.aheadKey !== undefined && req.headers[RENDER_AHEAD_HEADER] === options.aheadKey;
-    /** Answers from memory when a page is kept for this request's mark. */
-    const served = (): boolean => {
+    /** Answers from memory when a page is kept that is current under this request's mark. */
+    const served = async (): Promise<boolean> => {
       const hit = s.entries.get(key);
       if (!hit) return false;
-      if (hit.mark !== mark || now() - hit.storedAt >= options.ttlMs) {
-        s.entries.delete(key);
-        s.bytes -= hit.size;
+      const current = now() - hit.storedAt < options.ttlMs && (await stillCurrent(hit, mark, options.movedSince));
+      if (res.destroyed) return true;
+      if (!current) {
+        if (s.entries.get(key) === hit) {
+          s.entries.delete(key);
+          s.bytes -= hit.size;
+        }
         return false;
       }
       // Least recently used first: a hit moves to the end.
@@ -247,16 +279,18 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       res.end(hit.body);
       return true;
     };
-    if (!ahead && served()) return;
+    if (!ahead && (await served())) return;
     const generation = s.generation;
     const keptKey = options.kept && options.mark ? options.kept.keyOf(req) : null;
     /** Answers from the kept pages when they hold this page. */
     const servedKept = async (): Promise<boolean> => {
       if (keptKey === null) return false;
       const page = await options.kept!.read(keptKey).catch(() => null);
-      if (res.destroyed || served()) return true;
+      if (res.destroyed || (await served())) return true;
       if (!page) return false;
-      if (s.generation === generation) remember(s, key, mark, page, now(), options.maxBytes);
+      // Under the mark its render began under, not this request's: a move that took its value before
+      // this request read the mark, and committed after the row was read, is still seen later.
+      if (s.generation === generation) remember(s, key, page.renderedAt ?? mark, page, now(), options.maxBytes);
       req.resume();
       res.writeHead(page.status, { ...page.headers, [HTML_CACHE_HEADER]: "kept", "content-length": page.body.length });
       res.end(page.body);
@@ -274,7 +308,7 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
     let keeping: Promise<void> | undefined;
     if (underWay) {
       await waitAtMost(underWay, options.waitForRenderMs ?? WAIT_FOR_RENDER_MS);
-      if (res.destroyed || served()) return;
+      if (res.destroyed || (await served())) return;
       // A render ahead of readers is kept in the database only.
       if (!ahead && (await servedKept())) return;
     } else {
@@ -342,8 +376,18 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
         delete headers["keep-alive"];
         // A replay is dated when it is sent (Node adds the Date of each answer); one passed on from Next carries its render's.
         delete headers.date;
-        if (!ahead) remember(s, key, mark, { status, headers, body }, now(), options.maxBytes);
-        if (keptKey !== null) keeping = options.kept!.keep(keptKey, { status, headers, body }, mark);
+        const entry = ahead ? null : remember(s, key, mark, { status, headers, body }, now(), options.maxBytes);
+        if (keptKey !== null)
+          keeping = options.kept!.keep(keptKey, { status, headers, body }, mark).then((tags) => {
+            // Its tags once known: from then on a move of the mark that touches none of them leaves it served.
+            if (entry && tags && s.entries.get(key) === entry) {
+              entry.tags = tags;
+              const grown = JSON.stringify(tags).length * 2 - JSON.stringify(null).length * 2;
+              entry.size += grown;
+              s.bytes += grown;
+              evict(s, options.maxBytes);
+            }
+          });
       }
       return result;
     }) as typeof res.end;

@@ -89,14 +89,20 @@ export interface KeptPage {
   status: number;
   headers: http.OutgoingHttpHeaders;
   body: Buffer;
+  /** As read from the database: what the page shows (its tags) and the mark its render began under. */
+  tags?: readonly string[];
+  renderedAt?: string;
 }
 
 /** The kept pages of one build (lib/html-cache.ts reads them on a miss in memory and writes each page it keeps). */
 export interface KeptPages {
   keyOf(req: Pick<http.IncomingMessage, "method" | "url" | "headers">): string | null;
   read(key: string): Promise<KeptPage | null>;
-  /** Keeps a page rendered under `mark` (its caller does not wait); a failure is logged, never thrown. */
-  keep(key: string, page: KeptPage, mark: string): Promise<void>;
+  /**
+   * Keeps a page rendered under `mark` (its caller does not wait) and answers its tags (null when the
+   * page shows nothing public or was not rendered under a mark); a failure is logged, never thrown.
+   */
+  keep(key: string, page: KeptPage, mark: string): Promise<readonly string[] | null>;
 }
 
 /** The tags of what the page at `path` shows (see the module comment), or null when it shows nothing public. */
@@ -129,15 +135,19 @@ export function keptPagesInPostgres({ build, hours = KEPT_PAGE_HOURS }: { build:
       return readKeptPageRow({ key, build, hours });
     },
     async keep(key, page, mark) {
+      if (page.status !== 200 || !/^\d+$/.test(mark)) return null;
       const encoding = String(page.headers["content-encoding"] ?? "identity").toLowerCase();
-      if (page.status !== 200 || encoding !== encodingOf(key) || !/^\d+$/.test(mark)) return;
       const headers = Object.fromEntries(Object.entries(page.headers).filter(([name]) => !NOT_KEPT_HEADERS.includes(name.toLowerCase())));
       const path = key.slice(0, key.lastIndexOf("\n"));
-      await (async () => {
+      return (async () => {
         const tags = await keptPageTags(path);
-        if (!tags) return;
-        await writeKeptPageRow({ key, build, tags, renderedAt: mark, status: page.status, headers, body: page.body });
-      })().catch((e: unknown) => console.error(`[pages] could not keep ${path}: ${e instanceof Error ? e.message : String(e)}`));
+        if (tags && encoding === encodingOf(key))
+          await writeKeptPageRow({ key, build, tags, renderedAt: mark, status: page.status, headers, body: page.body });
+        return tags;
+      })().catch((e: unknown) => {
+        console.error(`[pages] could not keep ${path}: ${e instanceof Error ? e.message : String(e)}`);
+        return null;
+      });
     },
   };
 }

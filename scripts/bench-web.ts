@@ -661,6 +661,16 @@ try {
       String(r.errors),
     ]);
   console.log(formatTable(rows));
+  // How each page scenario's answers were served (from memory, from the kept pages, or rendered), each with its own p95:
+  // what sets a row's p95 when a few renders hide among many fast answers.
+  console.log("\nhow the pages were served (x-arrhenia-html-cache: hit = memory, kept = the kept pages, miss = rendered):");
+  for (const r of results.filter((x) => x.kind === "page")) {
+    const total = Object.values(r.served).reduce((n, x) => n + x.count, 0) || 1;
+    const parts = Object.entries(r.served)
+      .sort((a, b) => b[1].count - a[1].count)
+      .map(([how, x]) => `${how} ${((100 * x.count) / total).toFixed(1)} % (p95 ${ms(x.p95)} ms)`);
+    console.log(`  ${r.name}: ${parts.join(", ")}`);
+  }
   console.log(
     `\nserver peak RSS (process tree, ${memory.processes} processes): ${mib(memory.peak)} (${memory.atPeak.bytes.map(mib).join(" + ")}, during "${memory.atPeak.phase}"); start to first answer ${startSeconds.toFixed(1)} s`,
   );

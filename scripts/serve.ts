@@ -45,7 +45,7 @@ import { DEMO_PASSWORD, demoAccounts } from "./seed/seed-data";
 import { warmUpApp } from "./warm-up";
 import { loadFrontRoutes } from "@/lib/http/front-routes";
 import { PUBLIC_CACHE_SECONDS } from "@/lib/html-cache";
-import { readPublicPagesMark } from "@/db/public-pages-mark";
+import { readPublicPagesMark, readTagMovesSince } from "@/db/public-pages-mark";
 import { keptPagesInPostgres, sweepKeptPages } from "@/lib/kept-pages";
 import { askFrontServer, READERS_BUSY_PER_SECOND, startRenderAhead } from "@/lib/render-ahead";
 import { readFileSync } from "node:fs";
@@ -176,6 +176,8 @@ running.edge = await startEdgeProxy({
     maxEntryBytes: 4 * 1024 * 1024,
     ttlMs: PUBLIC_CACHE_SECONDS * 1000,
     mark: readPublicPagesMark,
+    // A page whose tags are known stays in memory across a move that touches none of them.
+    movedSince: readTagMovesSince,
     // Dataset version, reaction and species pages are kept in the database as well (lib/kept-pages.ts),
     // by this build and public address.
     kept: keptPagesInPostgres({ build: keptBuild }),

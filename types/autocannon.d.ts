@@ -14,7 +14,12 @@ declare module "autocannon" {
     pipelining?: number;
     timeout?: number;
     headers?: Record<string, string>;
-    requests?: { method?: string; setupRequest?: (req: RequestParams, context: Record<string, unknown>) => RequestParams }[];
+    requests?: {
+      method?: string;
+      setupRequest?: (req: RequestParams, context: Record<string, unknown>) => RequestParams;
+      /** Called with each answer's headers (lower-cased names) just before the client's "response" event for it. */
+      onResponse?: (status: number, body: string, context: Record<string, unknown>, headers: Record<string, string>) => void;
+    }[];
   }
   interface Histogram {
     average: number;

@@ -65,10 +65,15 @@ export function DatasetRows({ hits, collecting = null }: { hits: DatasetHit[]; c
                 mono
               />
             </dl>
-            <p className="text-xs text-muted">
-              {h.creators.slice(0, 3).join("; ")}
-              {h.creators.length > 3 ? ` and ${h.creators.length - 3} more` : ""}
-              {h.creators.length > 0 ? " · " : ""}published {h.publishedAt.slice(0, 10)} ·{" "}
+            {/* Spaced items, no separator characters: a wrapped line never ends or starts with one. */}
+            <p className="flex flex-wrap gap-x-4 text-xs text-muted">
+              {h.creators.length > 0 && (
+                <span>
+                  {h.creators.slice(0, 3).join("; ")}
+                  {h.creators.length > 3 ? ` and ${h.creators.length - 3} more` : ""}
+                </span>
+              )}
+              <span>published {h.publishedAt.slice(0, 10)}</span>
               <Link href={reactionPath(h.reactionKey)}>every dataset of this reaction</Link>
             </p>
           </li>

@@ -16,7 +16,12 @@ export interface ScenarioResult {
   requests: number;
   non2xx: number;
   errors: number;
+  /** How the page answers were served (the server's `x-arrhenia-html-cache`: hit, kept, miss; "none" without it), with their own p95. */
+  served: Record<string, { count: number; p95: number }>;
 }
+
+/** The response header that says how a page was served (lib/html-cache.ts HTML_CACHE_HEADER). */
+const SERVED_HEADER = "x-arrhenia-html-cache";
 
 function percentile(sorted: number[], p: number): number {
   if (!sorted.length) return NaN;
@@ -30,6 +35,10 @@ export const ACCEPT_ENCODING = "gzip, deflate, br, zstd";
 export function drive(base: string, paths: string[], seconds: number, connections: number): Promise<Omit<ScenarioResult, "name" | "kind">> {
   let i = 0;
   const latencies: number[] = [];
+  const byServed = new Map<string, number[]>();
+  // autocannon calls a request's onResponse, with the headers, just before the client's
+  // "response" event, with the time, for the same answer on the same connection.
+  let served = "none";
   return new Promise((resolve, reject) => {
     const instance = autocannon(
       {
@@ -41,11 +50,28 @@ export function drive(base: string, paths: string[], seconds: number, connection
         // answers are then the sizes readers receive; uncompressed, the load generator's own thread,
         // parsing ~100 MB/s of kept HTML, was what the "again" rows measured.
         headers: { "accept-encoding": ACCEPT_ENCODING },
-        requests: [{ method: "GET", setupRequest: (req) => ({ ...req, path: paths[i++ % paths.length] }) }],
+        requests: [
+          {
+            method: "GET",
+            setupRequest: (req) => ({ ...req, path: paths[i++ % paths.length] }),
+            onResponse: (_status, _body, _context, headers) => {
+              served = String(headers?.[SERVED_HEADER] ?? "none");
+            },
+          },
+        ],
       },
       (err, result) => {
         if (err) return reject(err);
         latencies.sort((a, b) => a - b);
+        const servedSummary: Record<string, { count: number; p95: number }> = {};
+        for (const [how, times] of byServed)
+          servedSummary[how] = {
+            count: times.length,
+            p95: percentile(
+              times.sort((a, b) => a - b),
+              95,
+            ),
+          };
         resolve({
           p50: percentile(latencies, 50),
           p95: percentile(latencies, 95),
@@ -54,10 +80,17 @@ export function drive(base: string, paths: string[], seconds: number, connection
           requests: result.requests.total,
           non2xx: result.non2xx,
           errors: result.errors + result.timeouts,
+          served: servedSummary,
         });
       },
     );
-    instance.on("response", (_client, _status, _bytes, responseTime) => latencies.push(responseTime));
+    instance.on("response", (_client, _status, _bytes, responseTime) => {
+      latencies.push(responseTime);
+      const times = byServed.get(served) ?? [];
+      if (!times.length) byServed.set(served, times);
+      times.push(responseTime);
+      served = "none";
+    });
   });
 }
 

@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { readPerTurn } from "@/db/read-per-turn";
 import { invalidatePublicCache, PUBLIC_TAG } from "@/lib/public-cache";
-import { movePublicPagesMark, readPublicPagesMark } from "@/db/public-pages-mark";
+import { movePublicPagesMark, readPublicPagesMark, readTagMovesSince } from "@/db/public-pages-mark";
 import { getSearchGeneration } from "@/lib/search/queries";
 
 // The public pages' mark (drizzle/0039) that the front server's page cache checks, and the shared
@@ -26,6 +26,23 @@ describe("the public pages' mark", () => {
     const [{ role }] = await getDb().execute<{ role: string }>(sql`select current_user as role`);
     expect(role).not.toBe("postgres");
     expect(await readPublicPagesMark()).toMatch(/^\d+$/);
+  });
+});
+
+describe("the tags moved after a mark (what the front server's memory asks)", () => {
+  it("names each tag moved after the mark with its latest move, and one read serves a turn's callers from the lowest mark", async () => {
+    const start = await readPublicPagesMark();
+    await movePublicPagesMark(["test-moves:a"]);
+    const middle = await readPublicPagesMark();
+    await movePublicPagesMark(["test-moves:b", "test-moves:a"]);
+    const end = await readPublicPagesMark();
+    const [fromStart, fromMiddle] = await Promise.all([readTagMovesSince(start), readTagMovesSince(middle)]);
+    // One batch, read from the lower mark: each caller looks only at moves after its own.
+    expect(fromStart).toBe(fromMiddle);
+    expect(fromStart?.get("test-moves:a")).toBeGreaterThan(BigInt(middle));
+    expect(fromStart?.get("test-moves:b")).toBeGreaterThan(BigInt(middle));
+    expect(fromStart?.get("test-moves:a")).toBeLessThanOrEqual(BigInt(end));
+    expect((await readTagMovesSince(end))?.has("test-moves:a")).toBe(false);
   });
 });
 

@@ -14,16 +14,28 @@ let mark = "10";
 let failReads = false;
 const kept = new Map<string, { page: KeptPage; mark: string }>();
 const reads: string[] = [];
+/** When each tag last moved (db/public-pages-mark.ts page_tag_moves), and whether too many moved to say. */
+const moves = new Map<string, bigint>();
+let tooManyMoves = false;
+
+/** A stand-in for keptPageTags: what the page at the key's path shows. */
+const tagsOf = (key: string) => [`page:${key.slice(0, key.indexOf("\n"))}`, "all"];
+const movedAfter = (tags: readonly string[], mark: string) => tags.some((t) => (moves.get(t) ?? 0n) > BigInt(mark));
 
 const store: KeptPages = {
   keyOf: keptPageKey,
   async read(key) {
     reads.push(key);
     if (failReads) throw new Error("database out of reach");
-    return kept.get(key)?.page ?? null;
+    const row = kept.get(key);
+    // As the database reads them (db/kept-pages.ts servable): none of its tags moved after its render began.
+    if (!row || (row.page.tags && movedAfter(row.page.tags, row.mark))) return null;
+    return row.page;
   },
   async keep(key, page, at) {
-    kept.set(key, { page, mark: at });
+    const tags = tagsOf(key);
+    kept.set(key, { page: { ...page, tags, renderedAt: at }, mark: at });
+    return tags;
   },
 };
 
@@ -47,6 +59,7 @@ beforeAll(async () => {
       maxEntryBytes: 1 << 16,
       ttlMs: 60_000,
       mark: async () => mark,
+      movedSince: async (since) => (tooManyMoves ? null : new Map([...moves].filter(([, moved]) => moved > BigInt(since)))),
       kept: store,
       aheadKey: AHEAD_KEY,
     }),
@@ -61,6 +74,8 @@ beforeEach(() => {
   reads.length = 0;
   failReads = false;
   mark = "10";
+  moves.clear();
+  tooManyMoves = false;
 });
 
 async function get(path: string, headers: Record<string, string> = {}) {
@@ -138,5 +153,66 @@ describe("pages kept in the database behind the memory cache", () => {
     expect(renders).toBe(before + 2);
     // Another key in the header is an ordinary reader.
     expect((await get(path, { [RENDER_AHEAD_HEADER]: "guess" })).cache).toBe("hit");
+  });
+
+  it("a page whose tags are known stays in memory across moves that touch none of them, and goes when one does", async () => {
+    const path = "/datasets/5/v2";
+    const first = await get(path);
+    expect(first.cache).toBe("miss");
+    await new Promise((r) => setTimeout(r, 10));
+    expect((await get(path)).cache).toBe("hit");
+    // Another dataset published: the mark moves, this page's tags do not.
+    moves.set("page:/datasets/99/v1", 11n);
+    mark = "11";
+    expect(await get(path)).toMatchObject({ cache: "hit", body: first.body });
+    // Its own tag moves (a re-fit of this dataset): memory and the kept copy are both passed over, it renders.
+    moves.set(`page:${path}`, 12n);
+    mark = "12";
+    const again = await get(path);
+    expect(again.cache).toBe("miss");
+    expect(again.body).not.toBe(first.body);
+  });
+
+  it("a page read from the kept pages is judged by the mark its render began under, not the reader's", async () => {
+    const key = "/species/VNWKTOKETHGBQD-UHFFFAOYSA-N\nidentity";
+    kept.set(key, {
+      page: {
+        status: 200,
+        headers: { "content-type": "text/html; charset=utf-8" },
+        body: Buffer.from("<p>kept methane</p>"),
+        tags: tagsOf(key),
+        renderedAt: "3",
+      },
+      mark: "3",
+    });
+    expect((await get("/species/VNWKTOKETHGBQD-UHFFFAOYSA-N")).cache).toBe("kept");
+    expect((await get("/species/VNWKTOKETHGBQD-UHFFFAOYSA-N")).cache).toBe("hit");
+    // A move that took its value (5) before the reader read the mark (10) but committed after the row
+    // was read: seen now, so the page is no longer served from memory.
+    moves.set(tagsOf(key)[0], 5n);
+    const after = await get("/species/VNWKTOKETHGBQD-UHFFFAOYSA-N");
+    expect(after.cache).toBe("miss");
+    expect(after.body).not.toBe("<p>kept methane</p>");
+  });
+
+  it("a move of every page, too many moves to read, or a page with no known tags empties memory as before", async () => {
+    await get("/datasets/5/v2");
+    await get("/");
+    await new Promise((r) => setTimeout(r, 10));
+    expect((await get("/datasets/5/v2")).cache).toBe("hit");
+    expect((await get("/")).cache).toBe("hit");
+    mark = "11";
+    // The home page shows no kept page's tags: a move of the mark renders it again.
+    expect((await get("/")).cache).toBe("miss");
+    expect((await get("/datasets/5/v2")).cache).toBe("hit");
+    tooManyMoves = true;
+    mark = "12";
+    expect((await get("/datasets/5/v2")).cache).not.toBe("hit");
+    tooManyMoves = false;
+    await new Promise((r) => setTimeout(r, 10));
+    expect((await get("/datasets/5/v2")).cache).toBe("hit");
+    moves.set("all", 13n);
+    mark = "13";
+    expect((await get("/datasets/5/v2")).cache).toBe("miss");
   });
 });

@@ -1,0 +1,1 @@
+CREATE INDEX "page_tag_moves_moved_idx" ON "page_tag_moves" USING btree ("moved");
