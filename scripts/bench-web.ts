@@ -16,7 +16,8 @@
  *    process tree's peak RSS is sampled from /proc throughout. Pages: first views of pages the server
  *    has not rendered ahead yet (the kept pages of earlier runs are dropped first, as a new build
  *    starts with none), views after the first, and first views of pages it rendered ahead of readers
- *    (lib/render-ahead.ts; the run waits for them, BENCH_AHEAD_WAIT_SECONDS at most).
+ *    (lib/render-ahead.ts; the run waits for them, BENCH_AHEAD_WAIT_SECONDS at most). Under the table,
+ *    how each page row's answers were served (memory, kept pages, rendered), each with its own p95.
  *
  * BENCH_DATASETS (default 100 000) sizes the data (2 000 for a quick run); BENCH_KEEP=1 leaves the
  * server running on port 3400 until Ctrl-C.
@@ -397,7 +398,8 @@ async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
         churn: true,
       });
     // First views of pages the server rendered ahead of readers meanwhile (never read by this run
-    // before), while the mark moves as above: the memory forgets them and each comes from kept_pages.
+    // before), while the mark moves as above: each page's first view comes from kept_pages, the
+    // next ones from memory (the moves touch none of its tags).
     const ahead = (name: string, aheadKind: Scenario["aheadKind"]): Scenario => ({ name, kind: "page", paths: [], aheadKind, churn: true });
     list.push(ahead("page: dataset version, rendered ahead", "datasets"), ahead("page: reaction, rendered ahead", "reactions"));
     if (routeExists("species", "[inchikey]")) list.push(ahead("page: species, rendered ahead", "species"));
@@ -408,13 +410,18 @@ async function scenarios(): Promise<{ list: Scenario[]; missing: string[] }> {
   }
 }
 
-/** Moves the public pages' mark with a tag no page carries every CHURN_MS until the returned function is called. */
+/**
+ * Moves the public pages' mark every CHURN_MS until the returned function is called, each time with
+ * another tag no page of the run carries (as publications of other datasets would: the front server's
+ * memory then reads which tags moved, a few hundred rows after a minute of them).
+ */
 function churn(): () => Promise<void> {
   const sql = postgres(databaseUrl, { max: 1, onnotice: () => {} });
   let moves = 0;
   const timer = setInterval(() => {
     moves += 1;
-    void sql`insert into page_tag_moves (tag, moved) values ('bench:elsewhere', nextval('public_pages_mark'))
+    const tag = `bench:elsewhere:${moves % 500}`;
+    void sql`insert into page_tag_moves (tag, moved) values (${tag}, nextval('public_pages_mark'))
       on conflict (tag) do update set moved = excluded.moved`.catch(() => undefined);
   }, CHURN_MS);
   return async () => {
