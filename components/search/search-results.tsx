@@ -51,11 +51,11 @@ export function DatasetRows({ hits, collecting = null }: { hits: DatasetHit[]; c
               <Pair term="Temperatures" value={formatRange(h.tMin, h.tMax, "K")} />
               <Pair term="Points" value={String(h.pointCount)} />
               <Pair
-                term={<StatisticTerm id="refit" plain="Activation energy Ea" />}
+                term={<StatisticTerm id="refit" plain="Ea, straight-line Arrhenius fit" />}
                 value={h.ea === null ? "not fitted" : `${sig(h.ea / 1000)} kJ mol⁻¹`}
               />
               <Pair
-                term={<StatisticTerm id="refit" plain="Pre-exponential factor A" />}
+                term={<StatisticTerm id="refit" plain="A, straight-line Arrhenius fit" />}
                 value={h.a === null ? "not fitted" : `${sig(h.a)} ${unitLabel("rateConstant", h.aUnit)}`.trim()}
               />
               <Pair term="Checks raised" value={h.flags.length === 0 ? "none" : h.flags.map((f) => FLAG_LABELS[f] ?? f).join("; ")} />
@@ -129,7 +129,7 @@ export function ReactionRows({ hits }: { hits: ReactionHit[] }) {
                 value={
                   h.spread === null
                     ? "needs two datasets"
-                    : `within a factor of ${sig(h.spread, 2)} of each other in the middle of their range`
+                    : `within a factor of ${sig(h.spread, 3)} of each other in the middle of their range`
                 }
               />
             </dl>

@@ -47,9 +47,11 @@ function datasetRow(h: DatasetHit, origin: string): Row {
     T_min_K: h.tMin,
     T_max_K: h.tMax,
     points: h.pointCount,
-    "Ea_J_mol-1": h.ea,
-    A: h.a,
-    A_unit: h.aUnit,
+    // The straight-line (two-parameter) Arrhenius re-fit, whatever the dataset's preferred model:
+    // a dataset flagged curved says so in `flags`.
+    "arrhenius_Ea_J_mol-1": h.ea,
+    arrhenius_A: h.a,
+    arrhenius_A_unit: h.aUnit,
     flags: h.flags,
     creators: h.creators,
     published_at: h.publishedAt,

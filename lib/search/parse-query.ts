@@ -67,6 +67,8 @@ export function mayBeSmiles(text: string): boolean {
 
 // Punctuation only a structure has: a term with these is not a name or a formula.
 const STRUCTURE_PUNCTUATION = /[[\]()=#@/\\$%]/;
+// Two or more words of letters joined by "/" (a technique's "RRKM/master"): text, when no SMILES reads so.
+const SLASHED_WORDS = /^[A-Za-z]{2,}(?:\/[A-Za-z]{2,})+$/;
 // Element symbols a formula may use (two-letter ones first so "Cl" is not C + l).
 const FORMULA = /^(?:[A-Z][a-z]?\d*)+$/;
 const ELEMENT = /([A-Z][a-z]?)(\d*)/g;
@@ -99,7 +101,9 @@ export function readSpeciesTerm(raw: string): SpeciesTerm {
   if (text.startsWith("InChI="))
     return { text, name: false, formula: null, smiles: false, structureOnly: true, inchi: true, inchiKey: false };
   if (INCHI_KEY.test(text)) return { text, name: false, formula: null, smiles: false, structureOnly: false, inchi: false, inchiKey: true };
-  const structureOnly = STRUCTURE_PUNCTUATION.test(text) && SMILES_CHARS.test(text);
+  // Words joined by slashes ("RRKM/master", "LIF/PLP") are words, unless they could be a SMILES's atoms.
+  const slashedWords = SLASHED_WORDS.test(text) && !mayBeSmiles(text);
+  const structureOnly = !slashedWords && STRUCTURE_PUNCTUATION.test(text) && SMILES_CHARS.test(text);
   return {
     text,
     name: !structureOnly,

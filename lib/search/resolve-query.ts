@@ -93,7 +93,8 @@ export async function resolveQuery(q: string): Promise<{ parsed: ParsedQuery; wo
       const r = shape.reactants.map((t) => quote(t.text));
       const p = shape.products.map((t) => quote(t.text));
       let words = r.length
-        ? `Reactions with ${listWords(r)} among the reactants${shape.otherReactants ? " (and any others)" : ""}`
+        ? // "Among": other reactants are allowed whether or not "*" was written ("CH4 -> *" finds OH + CH4 too).
+          `Reactions with ${listWords(r)} among the reactants, others allowed`
         : "Reactions";
       words += p.length ? `${r.length ? " and" : " with"} ${listWords(p)} among the products` : ", any products";
       return { parsed: { kind: "reaction", reactants, products, otherReactants: shape.otherReactants }, words };

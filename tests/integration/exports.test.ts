@@ -271,7 +271,7 @@ describe("export of a whole search result", () => {
       expect(row.version_identifier).toMatch(/^10\.5072\/ARH-/);
       expect(row.page).toMatch(/\/datasets\/\d+\/v\d+$/);
       // One spelling of a unit in every file meant for scripts (lib/unit-labels.ts unitText), whatever the stored document holds.
-      if (row.A_unit) expect(row.A_unit).toMatch(/^(s-1|cm3 molecule-1 s-1|cm6 molecule-2 s-1)$/);
+      if (row.arrhenius_A_unit) expect(row.arrhenius_A_unit).toMatch(/^(s-1|cm3 molecule-1 s-1|cm6 molecule-2 s-1)$/);
     }
   });
 

@@ -70,7 +70,8 @@ const FIXTURES: Fixture[] = [
     products: [H2O, CH3],
     cls: "hydrogen-abstraction",
     category: "theory",
-    technique: "transition-state theory",
+    // Words joined by a slash, which PostgreSQL's parser would read as one path (drizzle/0043).
+    technique: "transition-state theory/RRKM",
     Ts: spread(250, 1500, 14),
     A: 2.0e-12,
     EoverR: 1700,
@@ -273,6 +274,8 @@ export function runSearchConformance(
       ["CH4 → CH3", ["oh-ch4", "ch4-oh-theory", "cl-ch4", "oh-ch4-retracted"]],
       ["C=C => OC[CH2]", ["oh-c2h4"]],
       ["flash photolysis", ["oh-ch4", "cl-ch4"]],
+      ["RRKM", ["ch4-oh-theory"]],
+      ["theory/RRKM", ["ch4-oh-theory"]],
       // A "+" between words that name no species: the whole text is searched as words, not a reaction.
       ["flash photolysis + OH", ["oh-ch4"]],
       ["ethene", ["oh-c2h4"]],

@@ -45,7 +45,8 @@ import {
 const FUZZY_SIMILARITY = 0.7;
 
 /** Text search query of the free text; the same expression in the filter and in ts_rank. */
-const tsQuery = (text: string) => sql`websearch_to_tsquery('english', ${text})`;
+// Slashes separate words, as in the documents (drizzle/0043): "RRKM/master" is two words.
+const tsQuery = (text: string) => sql`websearch_to_tsquery('english', ${text.replace(/[/\\]/g, " ")})`;
 
 /**
  * The text match (what was typed). Free text matches words (stemmed); `fuzzy` instead matches

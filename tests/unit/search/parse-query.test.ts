@@ -38,6 +38,13 @@ describe("readSpeciesTerm", () => {
   it("still hands a structure-only term to RDKit whatever its letters, so that a malformed one is told why", () => {
     expect(readSpeciesTerm("C(x)")).toMatchObject({ structureOnly: true, smiles: true });
   });
+  it("reads words joined by slashes as words (a technique's RRKM/master), unless a SMILES could be written so", () => {
+    expect(readSpeciesTerm("RRKM/master")).toMatchObject({ name: true, smiles: false, structureOnly: false });
+    expect(readSpeciesTerm("LIF/PLP")).toMatchObject({ name: true, smiles: false, structureOnly: false });
+    // F/C=C/F and CC/CC (slashes as bond directions) stay structures.
+    expect(readSpeciesTerm("F/C=C/F")).toMatchObject({ structureOnly: true, smiles: true });
+    expect(readSpeciesTerm("CC/CC")).toMatchObject({ structureOnly: true, smiles: true });
+  });
 });
 
 describe("parseQueryText", () => {
