@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { publicPageMetadata } from "@/lib/page-metadata";
 import { Suspense } from "react";
+import { redirect } from "next/navigation";
+import { repositoryIdentifierIn } from "@/lib/search/parse-query";
 import { FIT_CAUTION } from "@/lib/datasets/version-json";
 import { parseSearchParams, searchAnswer, toSearchParams } from "@/lib/search";
 import type { SearchAnswer } from "@/lib/search/types";
@@ -34,7 +36,11 @@ async function firstAnswer(params: Record<string, string | string[] | undefined>
 
 /** /search: the URL holds the whole search; the results are fetched (and refetched) in the browser. */
 export default async function SearchPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const [initial, collecting] = await Promise.all([firstAnswer(await searchParams), readDraftCollections()]);
+  const params = await searchParams;
+  // A dataset's identifier pasted into the search box opens what it names (GET /api/v1/search says where, 400).
+  const identifier = typeof params.q === "string" ? repositoryIdentifierIn(params.q) : null;
+  if (identifier) redirect(`/id/${identifier}`);
+  const [initial, collecting] = await Promise.all([firstAnswer(params), readDraftCollections()]);
   return (
     <div className="space-y-6">
       <header className="space-y-2">

@@ -1,7 +1,7 @@
 import "server-only";
 import { ChemError, describeSpecies } from "@/lib/chem";
 import { AppError } from "@/lib/errors";
-import { parseQueryText, type SpeciesTerm } from "./parse-query";
+import { parseQueryText, repositoryIdentifierIn, type SpeciesTerm } from "./parse-query";
 import { findSpeciesKeysIn, speciesLexicon, type SpeciesLexicon } from "./lexicon";
 import type { ParsedQuery } from "./types";
 
@@ -56,6 +56,10 @@ function listWords(items: string[]): string {
  * (shown above the results and returned by the API). A malformed SMILES or InChI is a 400 naming `q`.
  */
 export async function resolveQuery(q: string): Promise<{ parsed: ParsedQuery; words: string }> {
+  // An identifier of this repository pasted as it is printed: /search opens it (app/search/page.tsx); the API says where.
+  const identifier = repositoryIdentifierIn(q);
+  if (identifier)
+    throw badQuery(`q: “${q.trim()}” is an identifier of this repository, not a search: /id/${identifier} opens what it names`);
   const shape = parseQueryText(q);
   switch (shape.kind) {
     case "all":

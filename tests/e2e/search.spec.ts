@@ -103,6 +103,24 @@ test("a value the search refuses is named beside its field; nothing found offers
   expect(await foundCount(page)).toBeGreaterThan(0);
 });
 
+test("a reaction written as a mechanism writes it finds what the spaced form finds; a dataset's identifier opens its page", async ({
+  page,
+  request,
+}) => {
+  await page.setViewportSize(WIDE);
+  await page.goto("/search?q=OH%20%2B%20CH4");
+  const spaced = await foundCount(page);
+  expect(spaced).toBeGreaterThan(0);
+  for (const q of ["OH+CH4", "oh + ch4", "OH + CH₄"]) {
+    await page.goto(`/search?q=${encodeURIComponent(q)}`);
+    expect(await foundCount(page), q).toBe(spaced);
+  }
+  const api = await (await request.get("/api/v1/search?q=methane")).json();
+  const hit = api.hits.find((h: { versionIdentifier: string | null }) => h.versionIdentifier);
+  await page.goto(`/search?q=${encodeURIComponent(`doi:${hit.versionIdentifier}`)}`);
+  await expect(page).toHaveURL(new RegExp(`/datasets/${hit.datasetId}/v${hit.versionNumber}$`));
+});
+
 test("the header box offers species and reactions, chosen by keyboard alone", async ({ page }) => {
   await page.setViewportSize(WIDE);
   await page.goto("/");

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { GET as searchGET } from "@/app/api/v1/search/route";
 import { GET as suggestGET } from "@/app/api/v1/search/suggest/route";
 import { applyTransition } from "@/lib/curation/transitions";
+import { newSeriesIdentifier, versionIdentifierOf } from "@/lib/identifiers/series-code";
 import { depositNewDataset, startNextVersion } from "@/lib/datasets/deposits";
 import { refitVersion } from "@/lib/datasets/refit";
 import { EXAMPLE_DEPOSIT } from "@/lib/deposits";
@@ -150,6 +151,8 @@ describe("GET /api/v1/search", () => {
     [`q=${"x".repeat(501)}`, "q"],
     ["q=C(C", "q"],
     ["q=InChI%3D1S%2Fxx", "q"],
+    // A dataset's own identifier pasted into the search: the answer says where it resolves (/search opens it).
+    [`q=${encodeURIComponent(`doi:${versionIdentifierOf(newSeriesIdentifier("10.5072", 4242), 1)}`)}`, "q"],
     ["cursor=eyJhIjoiWzEsMl0ifQ.AAAA", "cursor"],
     // Each hyphen a NOT: PostgreSQL's query parser gives up past 32 levels (found by an outside review: was a 500).
     [`q=${"-".repeat(33)}`, "q"],

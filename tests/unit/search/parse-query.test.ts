@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { getRdkit } from "@/lib/chem";
-import { mayBeSmiles, parseQueryText, readFormula, readSpeciesTerm } from "@/lib/search/parse-query";
+import { mayBeSmiles, parseQueryText, readFormula, readSpeciesTerm, repositoryIdentifierIn } from "@/lib/search/parse-query";
+import { newSeriesIdentifier, versionIdentifierOf } from "@/lib/identifiers/series-code";
 
 describe("readFormula", () => {
   // Hill order (E. A. Hill, J. Am. Chem. Soc. 22, 478 (1900)): C, H, then alphabetical; without C all alphabetical.
@@ -35,8 +36,17 @@ describe("readSpeciesTerm", () => {
     expect(readSpeciesTerm("CCO")).toMatchObject({ name: true, smiles: true });
     expect(readSpeciesTerm("ClCCl")).toMatchObject({ smiles: true });
   });
-  it("still hands a structure-only term to RDKit whatever its letters, so that a malformed one is told why", () => {
-    expect(readSpeciesTerm("C(x)")).toMatchObject({ structureOnly: true, smiles: true });
+  it("hands a structure-only term to RDKit, so that a malformed one is told why, unless its letters are no SMILES's", () => {
+    expect(readSpeciesTerm("C(C")).toMatchObject({ structureOnly: true, smiles: true });
+    expect(readSpeciesTerm("C1CC")).toMatchObject({ smiles: true });
+    // Excited oxygen as kineticists write it, and a rate constant's notation: words, not broken structures.
+    expect(readSpeciesTerm("O(1D)")).toMatchObject({ structureOnly: false, smiles: false, name: true });
+    expect(readSpeciesTerm("k(T)")).toMatchObject({ structureOnly: false, smiles: false });
+  });
+  it("reads a formula typed in lower case in capitals too", () => {
+    expect(readSpeciesTerm("ch4")).toMatchObject({ name: true, formula: "CH4" });
+    expect(readSpeciesTerm("oh")).toMatchObject({ formula: "HO" });
+    expect(readSpeciesTerm("hcl")).toMatchObject({ formula: null });
   });
   it("reads words joined by slashes as words (a technique's RRKM/master), unless a SMILES could be written so", () => {
     expect(readSpeciesTerm("RRKM/master")).toMatchObject({ name: true, smiles: false, structureOnly: false });
@@ -78,6 +88,29 @@ describe("parseQueryText", () => {
     if (shape.kind !== "reaction") return;
     expect(shape.reactants.map((t) => t.text)).toEqual(["CH4"]);
     expect(shape.products.map((t) => t.text)).toEqual(["CH3"]);
+  });
+
+  it.each([
+    ["OH+CH4", ["OH", "CH4"], []],
+    ["OH+CH4->H2O+CH3", ["OH", "CH4"], ["H2O", "CH3"]],
+    ["OH + CH4 <=> H2O + CH3", ["OH", "CH4"], ["H2O", "CH3"]],
+    ["OH + CH4 ⇌ H2O + CH3", ["OH", "CH4"], ["H2O", "CH3"]],
+    ["OH + CH4 = H2O + CH3", ["OH", "CH4"], ["H2O", "CH3"]],
+    ["2CH3 -> C2H6", ["CH3"], ["C2H6"]],
+    ["2 CH3 -> C2H6", ["CH3"], ["C2H6"]],
+    ["O(¹D) + CH₄", ["O(1D)", "CH4"], []],
+  ])("reads %s as a reaction as a mechanism or a page writes it", (q, reactants, products) => {
+    const shape = parseQueryText(q);
+    expect(shape.kind).toBe("reaction");
+    if (shape.kind !== "reaction") return;
+    expect(shape.reactants.map((t) => t.text)).toEqual(reactants);
+    expect(shape.products.map((t) => t.text)).toEqual(products);
+  });
+
+  it("reads subscripts as digits, and keeps a SMILES's double bond and charges whole", () => {
+    expect(parseQueryText("CH₄")).toMatchObject({ kind: "species", term: { text: "CH4", formula: "CH4" } });
+    expect(parseQueryText("C=C")).toMatchObject({ kind: "species", term: { text: "C=C", structureOnly: true } });
+    expect(parseQueryText("C[N+](C)(C)C")).toMatchObject({ kind: "species" });
   });
 
   it("reads a side with only * or nothing as anything", () => {
@@ -133,5 +166,19 @@ describe("mayBeSmiles", () => {
     expect(mayBeSmiles("[nH]1cccc1")).toBe(true);
     expect(mayBeSmiles("C[")).toBe(false);
     expect(mayBeSmiles("C]")).toBe(false);
+  });
+});
+
+describe("repositoryIdentifierIn", () => {
+  it("recognises this repository's identifiers as printed (bare, doi:, the resolver's address), and nothing else", () => {
+    const series = newSeriesIdentifier("10.5072", 12345);
+    const version = versionIdentifierOf(series, 2);
+    expect(repositoryIdentifierIn(version)).toBe(version);
+    expect(repositoryIdentifierIn(`doi:${version}`)).toBe(version);
+    expect(repositoryIdentifierIn(`https://doi.org/${series}`)).toBe(series);
+    expect(repositoryIdentifierIn(` ${version.toLowerCase()} `)).toBe(version);
+    // A paper's DOI is searched as words; so is anything else.
+    expect(repositoryIdentifierIn("10.1021/jp123456x")).toBeNull();
+    expect(repositoryIdentifierIn("OH + CH4")).toBeNull();
   });
 });
