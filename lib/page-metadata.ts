@@ -28,7 +28,7 @@ export function publicPageMetadata({
     title,
     description,
     alternates: { canonical: url, ...(feedPath ? { types: { "application/atom+xml": `${appUrl()}${feedPath}` } } : {}) },
-    openGraph: { title: `${title} · ${SITE_NAME}`, description, url, siteName: SITE_NAME, type, locale: "en" },
+    openGraph: { title: `${title} · ${SITE_NAME}`, description, url, siteName: SITE_NAME, type, locale: "en_GB" },
   };
 }
 

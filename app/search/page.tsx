@@ -9,9 +9,16 @@ import type { SearchAnswer } from "@/lib/search/types";
 import { SearchClient } from "./search-client";
 import { readDraftCollections } from "@/app/collections/collection-page";
 
-export async function generateMetadata(): Promise<Metadata> {
+export async function generateMetadata({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}): Promise<Metadata> {
+  const q = (await searchParams).q;
+  // The tab and the history say what was searched ("methane · Search"); the canonical address stays /search.
+  const typed = typeof q === "string" ? q.trim().slice(0, 80) : "";
   return publicPageMetadata({
-    title: "Search",
+    title: typed ? `${typed} · Search` : "Search",
     description:
       "Search every published rate-constant dataset by species, reaction, author or words, and narrow by class, conditions and findings.",
     path: "/search",

@@ -119,7 +119,15 @@ export function activeFilters(request: SearchRequest): ActiveFilter[] {
   if (f.tMin !== null || f.tMax !== null) {
     out.push({
       key: "temperature",
-      words: `Temperature: ${f.tCovers ? "measured over all of" : "measured somewhere in"} ${windowWords(f.tMin, f.tMax, "K")}`,
+      words: `Temperature: ${
+        f.tCovers
+          ? `measured over all of ${windowWords(f.tMin, f.tMax, "K")}`
+          : f.tMin !== null && f.tMax !== null
+            ? `measured somewhere in ${windowWords(f.tMin, f.tMax, "K")}`
+            : f.tMin !== null
+              ? `measured somewhere at or above ${windowWords(f.tMin, null, "K").replace(/^from /, "")}`
+              : `measured somewhere at or below ${windowWords(null, f.tMax, "K").replace(/^up to /, "")}`
+      }`,
       without: withFilters(request, { tMin: null, tMax: null, tCovers: false }),
     });
   }
