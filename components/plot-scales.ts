@@ -58,8 +58,12 @@ export function plotScale(min: number, max: number, count = 5): { domain: [numbe
 
 /**
  * Round temperatures for the top axis of an Arrhenius plot whose bottom axis is 1000/T in
- * `domain` (K⁻¹), returned as positions on that axis. Temperatures are round in kelvin, thinned
- * so that neighbouring labels stay apart on the 1/T scale.
+ * `domain` (K⁻¹), returned as positions on that axis. The labels follow one regular rule, never a
+ * sequence with a value skipped here and there: either every multiple of one round step (narrow
+ * ranges: 700, 725, 750…) or round values of every decade (wide ranges, where high temperatures
+ * crowd together on the 1/T scale: 200, 300, 500, 1000, 2000), whichever gives the most labels
+ * that stay apart — from the coldest up, stopping where they would crowd at the hot end; the greedy
+ * thinning of the candidates is the last resort.
  */
 export function temperatureTicks(domain: [number, number], count = 5): { x: number; T: number }[] {
   const x1 = domain[1];
@@ -68,25 +72,65 @@ export function temperatureTicks(domain: [number, number], count = 5): { x: numb
   if (!(x1 > x0)) return [];
   const tLow = 1000 / x1;
   const tHigh = 1000 / x0;
-  // Candidates: multiples of a round linear step (narrow ranges) and round values of every decade
-  // (wide ranges, where high temperatures crowd together on the 1/T scale).
-  const step = niceStep(tHigh - tLow, count * 2);
-  const decimals = decimalsOf(step);
-  const candidates = new Set<number>();
-  for (let T = Math.ceil(tLow / step - 1e-9) * step; T <= tHigh + step * 1e-9; T += step) candidates.add(Number(T.toFixed(decimals)));
-  for (let k = Math.floor(Math.log10(tLow)); k <= Math.ceil(Math.log10(tHigh)); k++) {
-    for (const m of [1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8]) candidates.add(Number((m * 10 ** k).toPrecision(6)));
-  }
   // About 49 px between neighbouring labels at the plot's tick spacing (64 px): four-digit temperatures stay apart.
   const minGap = (x1 - x0) / (count * 1.3);
   // Half a label's width from the left end: a label on the corner stands over the ln k axis's top label.
   const corner = x0 + minGap * 0.4;
-  const out: { x: number; T: number }[] = [];
-  // From the lowest temperature (largest 1000/T) up, a tick is kept only if it is far enough from the last kept one.
-  for (const t of [...candidates].sort((a, b) => a - b)) {
-    const x = 1000 / t;
-    if (x < corner || x > x1) continue;
-    if (out.length === 0 || Math.abs(out[out.length - 1].x - x) >= minGap) out.push({ x, T: t });
+  const placed = (Ts: Iterable<number>) =>
+    [...new Set(Ts)]
+      .sort((a, b) => a - b)
+      .map((T) => ({ x: 1000 / T, T }))
+      .filter((t) => t.x >= corner && t.x <= x1);
+  /** The set from the coldest label up to the last one still apart from its neighbour (crowding begins at the hot end). */
+  const apartFromCold = <T extends { x: number }>(ticks: T[]): T[] => {
+    let n = 1;
+    while (n < ticks.length && Math.abs(ticks[n - 1].x - ticks[n].x) >= minGap) n += 1;
+    return ticks.slice(0, n);
+  };
+
+  // Regular sets: the multiples of each round step, and round mantissas of every decade.
+  const sets: { x: number; T: number }[][] = [];
+  const finest = niceStep(tHigh - tLow, count * 4);
+  for (let e = Math.floor(Math.log10(finest)); e <= Math.ceil(Math.log10(tHigh)); e++) {
+    // 1, 2 or 5 × 10ⁿ: labels of two significant figures wherever the step allows (no 725 or 1250).
+    for (const m of [1, 2, 5]) {
+      const step = m * 10 ** e;
+      if (step < finest) continue;
+      const decimals = decimalsOf(step);
+      const Ts: number[] = [];
+      for (let T = Math.ceil(tLow / step - 1e-9) * step; T <= tHigh + step * 1e-9 && Ts.length < 200; T += step)
+        Ts.push(Number(T.toFixed(decimals)));
+      sets.push(placed(Ts));
+    }
   }
+  const decades = (mantissas: number[]) => {
+    const Ts: number[] = [];
+    for (let k = Math.floor(Math.log10(tLow)); k <= Math.ceil(Math.log10(tHigh)); k++)
+      for (const m of mantissas) Ts.push(Number((m * 10 ** k).toPrecision(6)));
+    return placed(Ts.filter((T) => T >= tLow * (1 - 1e-9) && T <= tHigh * (1 + 1e-9)));
+  };
+  for (const mantissas of [
+    [1, 2, 5],
+    [1, 2, 3, 5],
+    [1, 1.5, 2, 3, 4, 5, 6, 8],
+    [1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 6, 8],
+  ])
+    sets.push(decades(mantissas));
+  // The most labels apart (at least two); on a tie, the set found first (a step before decades).
+  let best: { x: number; T: number }[] | null = null;
+  for (const whole of sets) {
+    const set = apartFromCold(whole);
+    if (set.length >= 2 && (!best || set.length > best.length)) best = set;
+  }
+  if (best) return best;
+
+  // Last resort (a range too narrow for two round labels apart): from the lowest temperature up, a
+  // candidate is kept only if it is far enough from the last kept one.
+  const candidates = new Set<number>();
+  const step = niceStep(tHigh - tLow, count * 2);
+  const decimals = decimalsOf(step);
+  for (let T = Math.ceil(tLow / step - 1e-9) * step; T <= tHigh + step * 1e-9; T += step) candidates.add(Number(T.toFixed(decimals)));
+  const out: { x: number; T: number }[] = [];
+  for (const t of placed(candidates)) if (out.length === 0 || Math.abs(out[out.length - 1].x - t.x) >= minGap) out.push(t);
   return out;
 }

@@ -69,6 +69,24 @@ describe("temperatureTicks", () => {
     }
   });
 
+  it.each([
+    [1000 / 450, 1000 / 190], // a dataset of 200–450 K
+    [1000 / 810, 1000 / 690], // 700–800 K
+    [1000 / 790, 1000 / 610], // 625–775 K
+    [1000 / 1550, 1000 / 950], // 1000–1500 K
+    [0.4, 5.2], // 200–2500 K
+  ])("labels 1000/T from %f to %f by one regular rule: no round value skipped between two shown", (lo, hi) => {
+    for (const count of [3, 5]) {
+      const Ts = temperatureTicks([lo, hi], count).map((t) => t.T);
+      expect(Ts.length).toBeGreaterThanOrEqual(2);
+      const steps = Ts.slice(1).map((T, i) => T - Ts[i]);
+      const uniform = steps.every((d) => Math.abs(d - steps[0]) < 1e-6);
+      // Otherwise round values of every decade (1, 2, 5 or finer mantissas), each decade's own.
+      const decadeRound = Ts.every((T) => Number((T / 10 ** Math.floor(Math.log10(T))).toFixed(6)) % 0.5 === 0);
+      expect(uniform || decadeRound, `${Ts.join(", ")} at ${count} ticks`).toBe(true);
+    }
+  });
+
   it("labels a domain that starts at 1000/T = 0 (a wide computed range) instead of giving up", () => {
     const ticks = temperatureTicks([0, 5]);
     expect(ticks.length).toBeGreaterThanOrEqual(3);
