@@ -134,8 +134,10 @@ const UNAVAILABLE_CODES = new Set([
 /** The 503 for an error that means the database is briefly out of reach, or null. */
 export function databaseUnavailable(err: unknown): AppError | null {
   for (let e: unknown = err, depth = 0; e && typeof e === "object" && depth < 4; e = (e as { cause?: unknown }).cause, depth++) {
-    const { code } = e as { code?: unknown };
-    if (typeof code === "string" && UNAVAILABLE_CODES.has(code)) {
+    const { code, message } = e as { code?: unknown; message?: unknown };
+    // node-postgres's pool (the rate limits' store) gives up waiting for a connection with no code, only these words.
+    const poolTimedOut = typeof message === "string" && message === "timeout exceeded when trying to connect";
+    if ((typeof code === "string" && UNAVAILABLE_CODES.has(code)) || poolTimedOut) {
       return new AppError("unavailable", "The database is out of reach for a moment; try again in a few seconds", [], 5);
     }
   }

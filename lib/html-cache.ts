@@ -1,4 +1,5 @@
 import { mayCarrySession } from "@/lib/auth/session-cookie";
+import { clientGone, whenAnswerEnds } from "@/lib/http/answer-ends";
 import type http from "node:http";
 import type { KeptPage, KeptPages } from "@/lib/kept-pages";
 
@@ -263,7 +264,7 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       const hit = s.entries.get(key);
       if (!hit) return false;
       const current = now() - hit.storedAt < options.ttlMs && (await stillCurrent(hit, mark, options.movedSince));
-      if (res.destroyed) return true;
+      if (clientGone(req, res)) return true;
       if (!current) {
         if (s.entries.get(key) === hit) {
           s.entries.delete(key);
@@ -286,7 +287,7 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
     const servedKept = async (): Promise<boolean> => {
       if (keptKey === null) return false;
       const page = await options.kept!.read(keptKey).catch(() => null);
-      if (res.destroyed || (await served())) return true;
+      if (clientGone(req, res) || (await served())) return true;
       if (!page) return false;
       // Under the mark its render began under, not this request's: a move that took its value before
       // this request read the mark, and committed after the row was read, is still seen later.
@@ -301,21 +302,21 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
     // emptied the cache): wait for that render rather than start another, then take what it kept.
     // The client left while the mark or the kept page was read: nothing to render for, and no slot
     // to register (its "close" has fired already, so the slot would never be given back).
-    if (res.destroyed) return;
+    if (clientGone(req, res)) return;
     const slot = `${mark}\u0000${key}`;
     const underWay = s.rendering.get(slot);
     /** The kept copy being written (the waiting requests read it once written). */
     let keeping: Promise<void> | undefined;
     if (underWay) {
       await waitAtMost(underWay, options.waitForRenderMs ?? WAIT_FOR_RENDER_MS);
-      if (res.destroyed || (await served())) return;
+      if (clientGone(req, res) || (await served())) return;
       // A render ahead of readers is kept in the database only.
       if (!ahead && (await servedKept())) return;
     } else {
       let finished!: () => void;
       s.rendering.set(slot, new Promise<void>((resolve) => (finished = resolve)));
       // After the answer was stored (at its end) or given up (its client left).
-      res.once("close", () => {
+      whenAnswerEnds(req, res, () => {
         void Promise.resolve(keeping).finally(() => {
           s.rendering.delete(slot);
           finished();
@@ -363,7 +364,7 @@ export function withHtmlCache(handle: Handler, options: HtmlCacheOptions): Handl
       const headers = res.getHeaders();
       const result = end(...args);
       // A reader who left mid-answer may have cut the body short: never stored.
-      if (res.destroyed || req.socket?.destroyed) keep = false;
+      if (clientGone(req, res)) keep = false;
       // Rendered HTML only: a citation format answered at a page's address (by Accept) is an API answer of its own.
       const html = /^text\/html\b/i.test(String(headers["content-type"] ?? ""));
       if (keep && status === 200 && html && headers["set-cookie"] === undefined && s.generation === generation) {

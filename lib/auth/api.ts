@@ -123,7 +123,8 @@ export function assertStorableQuery(url: URL): void {
   for (const [name, value] of url.searchParams) {
     const why = describeUnstorableText(name) ?? describeUnstorableText(value);
     if (why)
-      throw new AppError("validation_failed", `The query parameter “${name}” ${why}`, [
+      // 400: a query string is the request's own address, not a document to validate (search answers every bad parameter so).
+      throw new AppError("bad_request", `The query parameter “${name}” ${why}`, [
         { pointer: `/${escapePointer(name)}`, parameter: name, message: `The query parameter “${name}” ${why}.`, value },
       ]);
   }

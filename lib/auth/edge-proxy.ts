@@ -4,7 +4,7 @@
 // posts (server actions) from another origin than APP_URL's (403), action bodies over their size
 // (413) or nested past what Next's decoder survives (400), and undecodable paths (404).
 import http from "node:http";
-import { isIP, type AddressInfo } from "node:net";
+import { isIP, type AddressInfo, type Socket } from "node:net";
 import proxyaddr from "proxy-addr";
 import { ActionBodyGuard, isActionRequest, isApiPath, pagePath } from "./action-body-guard";
 import { CLIENT_ADDRESS_HEADER, EDGE_KEY_HEADER, UNKNOWN_ADDRESS } from "./client-address";
@@ -12,6 +12,7 @@ import { answerHere, frontRoute } from "@/lib/http/front-routes";
 import { varyOfAnswer } from "@/lib/http/content-negotiation";
 import { RENDER_AHEAD_HEADER, withHtmlCache, type HtmlCacheOptions } from "@/lib/html-cache";
 import { isGatedRender } from "@/lib/http/render-gate";
+import { clientGone, whenAnswerEnds } from "@/lib/http/answer-ends";
 
 export type TrustProxy = (address: string, hop: number) => boolean;
 
@@ -215,6 +216,16 @@ class RecentCount {
 /** How long a reader's page request counts as a render under way at most (Next's render gate gives a place back after 2 s). */
 const RENDER_COUNTED_MS = 10_000;
 
+/**
+ * Requests one connection may have under way at once. Browsers send one at a time; a client that
+ * pipelines more (each is passed on to Next at once, and its answer waits in memory for its turn) has
+ * its connection closed, so that no connection holds more than a few renders and answers.
+ */
+export const MAX_PIPELINED = 8;
+
+/** Connections to Next at once: more requests wait for one (Next renders one page at a time anyway). */
+export const MAX_APP_SOCKETS = 128;
+
 export async function startEdgeProxy({
   host,
   port,
@@ -242,9 +253,11 @@ export async function startEdgeProxy({
   /** How long a reader's page request counts in `readers().rendering` at most (RENDER_COUNTED_MS). */
   renderCountedMs?: number;
 }) {
-  const agent = new http.Agent({ keepAlive: true });
+  const agent = new http.Agent({ keepAlive: true, maxSockets: MAX_APP_SOCKETS });
   // One connection per request: the second try of a GET whose kept-alive socket the app had closed.
-  const freshAgent = new http.Agent({ keepAlive: false });
+  const freshAgent = new http.Agent({ keepAlive: false, maxSockets: MAX_APP_SOCKETS });
+  /** Requests under way per client connection (MAX_PIPELINED). */
+  const underWay = new WeakMap<Socket, number>();
   const ownOrigin = new URL(appOrigin).origin;
   const ownHost = new URL(appOrigin).host;
   // What passOn needs of a request that goes through the page cache first.
@@ -276,6 +289,14 @@ export async function startEdgeProxy({
       req.socket.destroy();
       return;
     }
+    const socket = req.socket;
+    const count = (underWay.get(socket) ?? 0) + 1;
+    if (count > MAX_PIPELINED) {
+      socket.destroy();
+      return;
+    }
+    underWay.set(socket, count);
+    whenAnswerEnds(req, res, () => underWay.set(socket, (underWay.get(socket) ?? 1) - 1));
     const target = originFormTarget(req.url);
     if (target === null) {
       refuse(res, 400, "bad_request", "Bad request", "The request target must be a path (or an http URL).");
@@ -327,7 +348,7 @@ export async function startEdgeProxy({
   ) => {
     // A reader's page on its way to Next (not one rendered ahead of readers): the renders ahead wait for it.
     // A client that left while the front server read the database (the page cache's mark) wants nothing rendered.
-    if (res.destroyed) {
+    if (clientGone(req, res)) {
       req.resume();
       return;
     }
@@ -343,7 +364,7 @@ export async function startEdgeProxy({
       };
       const timer = setTimeout(done, renderCountedMs);
       timer.unref();
-      res.once("close", done);
+      whenAnswerEnds(req, res, done);
     }
     // Server actions: Next reads the whole body before any code of ours runs, so it is capped here.
     const limit = action ? actionBodyLimit(req.url) : Infinity;
@@ -372,7 +393,7 @@ export async function startEdgeProxy({
       );
       sent.on("error", (err: NodeJS.ErrnoException) => {
         if (res.writableEnded) return; // already answered (e.g. 413)
-        if (res.destroyed) return; // the client went away first (and we stopped the request behind it)
+        if (clientGone(req, res)) return; // the client went away first (and we stopped the request behind it)
         if (!fresh && retryable && sent.reusedSocket && !res.headersSent && isStaleSocketError(err)) {
           upstream = send(true);
           upstream.end();
@@ -386,8 +407,8 @@ export async function startEdgeProxy({
       return sent;
     };
     let upstream = send(false);
-    // A client that goes away stops the work behind it too.
-    res.on("close", () => {
+    // A client that goes away stops the work behind it too (one whose pipelined request waited its turn as well).
+    whenAnswerEnds(req, res, () => {
       clearTimeout(idle);
       if (!res.writableFinished) upstream.destroy();
     });

@@ -62,8 +62,25 @@ export function acceptedCitationStyle(accept: string | null | undefined): string
 
 /** A dataset page's path: `/datasets/3` (every version) or `/datasets/3/v2`; else null. */
 export function datasetPagePath(pathname: string): { datasetId: string; version: string | null } | null {
-  const m = /^\/datasets\/([1-9]\d{0,9})(?:\/v([1-9]\d{0,9}))?\/?$/.exec(pathname);
+  const m = /^\/datasets\/([1-9]\d{0,9})(?:\/v([1-9]\d{0,9}))?\/?$/.exec(routedPath(pathname));
   return m ? { datasetId: m[1], version: m[2] ?? null } : null;
+}
+
+/**
+ * The path as the app routes it: %-escapes of unreserved characters decoded ("/datasets/%31/v1") and
+ * dot segments resolved ("/datasets/1/./v1", "/datasets/1/x/../v1"), so that every spelling of a
+ * dataset page's address negotiates and says Vary: Accept as the plain one does.
+ */
+export function routedPath(pathname: string): string {
+  const decoded = pathname.replace(/%([0-9A-Fa-f]{2})/g, (escape, hex: string) => {
+    const c = String.fromCharCode(parseInt(hex, 16));
+    return /[A-Za-z0-9\-._~]/.test(c) ? c : escape;
+  });
+  try {
+    return new URL(decoded, "http://path.invalid").pathname;
+  } catch {
+    return decoded;
+  }
 }
 
 /**

@@ -13,6 +13,7 @@
  * so search has its own API_RATE_LIMIT a minute here, beside the one Next grants the other reads.
  */
 import type http from "node:http";
+import { clientGone, whenAnswerEnds } from "./answer-ends";
 import { promisify } from "node:util";
 import { gzip } from "node:zlib";
 import Negotiator from "negotiator";
@@ -187,9 +188,9 @@ export async function answerHere(
   { origin, headers }: { origin: string; headers: http.OutgoingHttpHeaders },
 ): Promise<void> {
   if (await answerKept(route, req, res, headers)) return;
-  if (res.destroyed) return;
+  if (clientGone(req, res)) return;
   const aborted = new AbortController();
-  res.on("close", () => {
+  whenAnswerEnds(req, res, () => {
     if (!res.writableFinished) aborted.abort();
   });
   const requestHeaders = new Headers();

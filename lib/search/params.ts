@@ -212,7 +212,8 @@ export function parseSearchParams(params: RawSearchParams, { strict = false }: {
       lists.set(listFilter, values);
       continue;
     }
-    if (!(name in single)) {
+    // Own keys only: "constructor" or "__proto__" is an unknown parameter, not Object's.
+    if (!Object.hasOwn(single, name)) {
       if (strict)
         errors.push(problem(name, `Unknown query parameter “${name}”: use ${SEARCH_PARAMETERS.join(", ")} (names are case-sensitive)`));
       continue;

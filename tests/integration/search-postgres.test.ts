@@ -150,6 +150,7 @@ describe("GET /api/v1/search", () => {
     ["tmin=300", "tmin"],
     [`q=${"x".repeat(501)}`, "q"],
     ["q=C(C", "q"],
+    ["q=%00", "q"],
     ["q=InChI%3D1S%2Fxx", "q"],
     // A dataset's own identifier pasted into the search: the answer says where it resolves (/search opens it).
     [`q=${encodeURIComponent(`doi:${versionIdentifierOf(newSeriesIdentifier("10.5072", 4242), 1)}`)}`, "q"],

@@ -94,10 +94,10 @@ describe("POST /api/v1/datasets refuses text and numbers PostgreSQL cannot store
 });
 
 describe("query parameters and analysis bodies", () => {
-  it("answers 422 naming the parameter for U+0000 in a query parameter", async () => {
+  it("answers 400 naming the parameter for U+0000 in a query parameter", async () => {
     as(owner);
     const res = await previewSpecies(req("/api/v1/species/preview?smiles=C%00C"), ctx);
-    expect(res.status).toBe(422);
+    expect(res.status).toBe(400);
     const problem = await res.json();
     expect(problem.errors[0].pointer).toBe("/smiles");
     expect(problem.title).toMatch(/query parameter “smiles” contains U\+0000/);

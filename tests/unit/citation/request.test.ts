@@ -113,6 +113,22 @@ describe("varyOfAnswer (the front server, lib/auth/edge-proxy.ts)", () => {
     expect(varyOfAnswer("GET", "/datasets/3", "accept, rsc")).toBe("accept, rsc");
     expect(varyOfAnswer("GET", "/datasets/3", "*")).toBe("*");
   });
+  it("knows a dataset page's address however it is spelt, as the app routes it (dot segments, escaped digits)", () => {
+    for (const url of [
+      "/datasets/1/./v1",
+      "/datasets/1/x/../v1",
+      "/datasets/%31/v1",
+      "/datasets/1/%761",
+      "/datasets/1/v%31",
+      "/datasets/1/%2e/v1",
+    ])
+      expect(varyOfAnswer("GET", url, undefined), url).toBe("Accept");
+    expect(citationRewriteTarget("GET", "/datasets/%31/v%31", "application/x-bibtex")).toBe(
+      "/api/v1/datasets/1/citation?format=bibtex&version=1",
+    );
+    // An escaped slash is not a path's separator: no dataset page.
+    expect(varyOfAnswer("GET", "/datasets/1%2Fv1", undefined)).toBeUndefined();
+  });
   it("leaves other addresses and methods as they were", () => {
     expect(varyOfAnswer("GET", "/reactions/abc", "rsc")).toBe("rsc");
     expect(varyOfAnswer("POST", "/datasets/3/v2", "rsc")).toBe("rsc");
