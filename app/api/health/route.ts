@@ -8,6 +8,7 @@ export async function GET() {
   const db = await checkDatabase();
   return NextResponse.json(
     { status: db.ok ? "ok" : "degraded", database: db.ok ? "ok" : "unreachable", databaseLatencyMs: db.latencyMs },
-    { status: db.ok ? 200 : 503, headers: { "cache-control": "no-store" } },
+    // A 503 says when to look again, as every other answer while the database is out of reach does.
+    { status: db.ok ? 200 : 503, headers: { "cache-control": "no-store", ...(db.ok ? {} : { "retry-after": "5" }) } },
   );
 }
