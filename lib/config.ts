@@ -330,13 +330,14 @@ export function analysisMemoryMb(): number {
  * of readers kept it rendering for hours: the benchmark's peak was 1 042 MiB, 571 + 460 MiB; the front
  * server's was 384 until the benchmark's peak was 1 066 MiB, 591 + 463 MiB: ~135 MB of it is alive,
  * mostly the modules' code, a heap snapshot under 1 800 searches a second shows, and 320 served
- * 2 600 searches a second at 418 MiB).
+ * 2 600 searches a second at 418 MiB; then 288 and 416, and the page cache's 64 MiB halved, once the
+ * page cache kept its pages across publications elsewhere and the peak was 1 089 MiB, 561 + 477).
  */
 export function frontHeapMb(): number {
-  return read("FRONT_HEAP_MB") ?? 320;
+  return read("FRONT_HEAP_MB") ?? 288;
 }
 export function nextHeapMb(): number {
-  return read("NEXT_HEAP_MB") ?? 448;
+  return read("NEXT_HEAP_MB") ?? 416;
 }
 
 /** Requests a minute one API client (a token's holder, else an address) may make before 429s. */

@@ -169,10 +169,10 @@ running.edge = await startEdgeProxy({
   // Search is answered in this process (lib/http/front-routes.ts): Next's thread is left to the pages.
   answersHere: true,
   // Public pages rendered for anonymous readers are replayed from this process's memory
-  // (lib/html-cache.ts): at most 64 MiB of bodies, none over 4 MiB, each while the public pages'
+  // (lib/html-cache.ts): at most 32 MiB of bodies, none over 4 MiB, each while the public pages'
   // mark stays and for PUBLIC_CACHE_SECONDS at most. A kept page never reaches Next's thread.
   pageCache: {
-    maxBytes: 64 * 1024 * 1024,
+    maxBytes: 32 * 1024 * 1024,
     maxEntryBytes: 4 * 1024 * 1024,
     ttlMs: PUBLIC_CACHE_SECONDS * 1000,
     mark: readPublicPagesMark,

@@ -51,6 +51,6 @@ else
   [ -z "$STAMP" ] || echo "$STAMP" >"$DIST/arrhenia-build-stamp"
 fi
 # The front server's heap budget (FRONT_HEAP_MB, lib/config.ts frontHeapMb; serve.ts checks its range).
-FRONT_HEAP_MB="${FRONT_HEAP_MB:-320}"
+FRONT_HEAP_MB="${FRONT_HEAP_MB:-288}"
 [[ "$FRONT_HEAP_MB" =~ ^[0-9]{1,5}$ ]] || die "FRONT_HEAP_MB must be a whole number of MB, 128–65536 (got “$FRONT_HEAP_MB”)"
 exec "${TSX[@]}" --max-old-space-size="$FRONT_HEAP_MB" scripts/serve.ts

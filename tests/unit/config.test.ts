@@ -63,10 +63,10 @@ describe("configuration", () => {
     ]);
   });
 
-  it("gives the two processes their heap budgets, 320 and 448 MB unless set, and refuses a budget too small to serve", () => {
+  it("gives the two processes their heap budgets, 288 and 416 MB unless set, and refuses a budget too small to serve", () => {
     delete process.env.FRONT_HEAP_MB;
     delete process.env.NEXT_HEAP_MB;
-    expect([frontHeapMb(), nextHeapMb()]).toEqual([320, 448]);
+    expect([frontHeapMb(), nextHeapMb()]).toEqual([288, 416]);
     Object.assign(process.env, { FRONT_HEAP_MB: "1024", NEXT_HEAP_MB: "2048" });
     expect([frontHeapMb(), nextHeapMb()]).toEqual([1024, 2048]);
     process.env.NEXT_HEAP_MB = "64";
