@@ -262,6 +262,8 @@ function startServer(): ChildProcess {
         // One load generator is one client: its budget would end the run in a second.
         API_RATE_LIMIT: "10000000",
         NODE_ENV: "production",
+        // As scripts/start.sh starts the server.
+        MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? "2",
         MAIL_CAPTURE_PORT: String(env("MAIL_CAPTURE_PORT", port + 5)),
         DOI_FAKE_PORT: String(env("DOI_FAKE_PORT", port + 7)),
         DOI_FAKE_DATA_DIR: mkdtempSync(path.join(tmpdir(), "arrhenia-bench-doi-")),

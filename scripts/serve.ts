@@ -105,7 +105,8 @@ const next = spawn(
   [`--max-old-space-size=${nextHeapMb()}`, "--import", "tsx", "scripts/inner-server.ts", String(innerPort)],
   {
     stdio: ["ignore", "inherit", "inherit"],
-    env: process.env,
+    // Two malloc arenas (glibc), as the front server's launchers set for it: see MALLOC_ARENA_MAX in scripts/start.sh.
+    env: { MALLOC_ARENA_MAX: "2", ...process.env },
   },
 );
 // Set once the front server listens; stop() may run before that (Next exiting during warm-up).
