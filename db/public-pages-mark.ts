@@ -49,36 +49,28 @@ export async function movePublicPagesMark(tags: readonly string[] = [ALL_PAGES_T
 /** The most moves readTagMovesSince reports; past it, every page kept before is taken for moved. */
 export const MOST_TAG_MOVES_READ = 2000;
 
-/** Reads not yet sent, per database handle: the lowest mark asked for in this turn, and its answer. */
-const movesUnsent = new WeakMap<object, { since: bigint; answer: Promise<Map<string, bigint> | null> }>();
+/** The lowest mark asked for by the callers of this turn, taken by the read when it is sent. */
+let lowestAsked: bigint | null = null;
 
 /**
  * The tags that moved after the mark `since`, each with its latest move, or null when more than
- * MOST_TAG_MOVES_READ did. Callers in the same turn of the event loop share one read, from the lowest
- * mark any of them asked for (each then looks only at moves after its own); as with the mark, the read
- * starts after each of them asked (db/read-per-turn.ts), so it sees every move committed before.
+ * MOST_TAG_MOVES_READ did. Callers in the same turn of the event loop share one read
+ * (db/read-per-turn.ts: sent after all of them asked, so it sees every move committed before), from
+ * the lowest mark any of them asked for; each then looks only at moves after its own.
  *
  * A move takes its value from the mark's sequence before its row commits: a reader may see the mark
  * moved and not yet the row. So a page is judged by the mark its render began under (or a kept row's
  * rendered_at), never re-dated to a later mark: the row is seen by a later read, and the page dropped.
  */
 export function readTagMovesSince(since: string): Promise<Map<string, bigint> | null> {
-  const db = getDb();
   const from = BigInt(since);
-  const waiting = movesUnsent.get(db);
-  if (waiting) {
-    if (from < waiting.since) waiting.since = from;
-    return waiting.answer;
-  }
-  const batch = { since: from, answer: Promise.resolve<Map<string, bigint> | null>(null) };
-  batch.answer = new Promise((resolve, reject) =>
-    setImmediate(() => {
-      movesUnsent.delete(db);
-      db.execute<{ tag: string; moved: string }>(
-        sql`select tag, moved::text as moved from page_tag_moves where moved > ${batch.since.toString()}::bigint limit ${MOST_TAG_MOVES_READ + 1}`,
-      ).then((rows) => resolve(rows.length > MOST_TAG_MOVES_READ ? null : new Map(rows.map((r) => [r.tag, BigInt(r.moved)]))), reject);
-    }),
-  );
-  movesUnsent.set(db, batch);
-  return batch.answer;
+  if (lowestAsked === null || from < lowestAsked) lowestAsked = from;
+  return readPerTurn("page tag moves", async (db) => {
+    const floor = lowestAsked ?? from;
+    lowestAsked = null;
+    const rows = await db.execute<{ tag: string; moved: string }>(
+      sql`select tag, moved::text as moved from page_tag_moves where moved > ${floor.toString()}::bigint limit ${MOST_TAG_MOVES_READ + 1}`,
+    );
+    return rows.length > MOST_TAG_MOVES_READ ? null : new Map(rows.map((r) => [r.tag, BigInt(r.moved)]));
+  });
 }
